@@ -1,0 +1,11 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    include: ['test/**/*.test.ts'],
+    exclude: ['test/e2e/**', 'node_modules/**'],
+    testTimeout: 120_000,
+    hookTimeout: 120_000,
+    pool: 'forks',
+  },
+});
