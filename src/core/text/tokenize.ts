@@ -1,0 +1,96 @@
+/**
+ * Tokenizer for code and prose.
+ *
+ * Pipeline (each step drops or splits tokens, never reorders them):
+ * 1. Unicode NFKD normalisation and removal of combining marks ("café" → "cafe").
+ * 2. Words are maximal runs of letters, digits, '_' and '$'; everything else separates.
+ * 3. Identifier splitting: '_' and '$' separate; camelCase / PascalCase / acronym boundaries
+ *    ("HTTPServer" → "HTTP", "Server") and letter/digit boundaries split. When a word splits,
+ *    the joined lowercase compound is kept as well (so an exact identifier still matches).
+ * 4. Lowercase; drop stop words (English + programming keywords), 1-character tokens, digit
+ *    runs longer than 4, hex-looking runs of 8+ characters, and tokens over 40 characters.
+ * 5. Porter stemming (Porter 1980, via natural's PorterStemmer), memoised.
+ *
+ * Defaults: stemming on, compounds on (both options of TokenizeOptions).
+ */
+import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer.js';
+import { STOP_WORDS } from './stopWords.js';
+
+export interface TokenizeOptions {
+  /** Porter-stem each token. @default true */
+  stem: boolean;
+  /** Keep the joined form of split identifiers ("getUserName" also yields "getusername"). @default true */
+  keepCompounds: boolean;
+}
+
+export const DEFAULT_TOKENIZE_OPTIONS: Readonly<TokenizeOptions> = Object.freeze({ stem: true, keepCompounds: true });
+
+const WORD = /[\p{L}\p{N}_$]+/gu;
+const MARKS = /\p{M}+/gu;
+// Splits inside an identifier: lower→Upper, Upper→Upper+lower, letter↔digit.
+const CAMEL = /(?<=\p{Ll})(?=\p{Lu})|(?<=\p{Lu})(?=\p{Lu}\p{Ll})|(?<=\p{L})(?=\p{N})|(?<=\p{N})(?=\p{L})/u;
+const LONG_DIGITS = /^\p{N}{5,}$/u;
+const HEXISH = /^(?=.*\d)[0-9a-f]{8,}$/;
+const HEX_LITERAL = /^0[xX][0-9a-fA-F]+$/;
+const MAX_TOKEN_LENGTH = 40;
+const STEM_CACHE_LIMIT = 500_000;
+
+const stemCache = new Map<string, string>();
+
+/** Porter stem of a lowercase word, memoised (the cache is cleared when it grows past 500k words). */
+export function stemWord(word: string): string {
+  let s = stemCache.get(word);
+  if (s === undefined) {
+    s = PorterStemmer.stem(word);
+    if (stemCache.size >= STEM_CACHE_LIMIT) stemCache.clear();
+    stemCache.set(word, s);
+  }
+  return s;
+}
+
+function keep(token: string): boolean {
+  return (
+    token.length > 1 &&
+    token.length <= MAX_TOKEN_LENGTH &&
+    !STOP_WORDS.has(token) &&
+    !LONG_DIGITS.test(token) &&
+    !HEXISH.test(token)
+  );
+}
+
+/** Splits an identifier into its parts (not lowercased). */
+export function splitIdentifier(word: string): string[] {
+  const parts: string[] = [];
+  for (const piece of word.split(/[_$]+/)) {
+    if (piece.length === 0) continue;
+    for (const p of piece.split(CAMEL)) if (p.length > 0) parts.push(p);
+  }
+  return parts;
+}
+
+/** Text → index terms, in reading order. */
+export function tokenize(text: string, options: Partial<TokenizeOptions> = {}): string[] {
+  const opts = { ...DEFAULT_TOKENIZE_OPTIONS, ...options };
+  const out: string[] = [];
+  const normalised = text.normalize('NFKD').replace(MARKS, '');
+  const emit = (raw: string): void => {
+    const t = raw.toLowerCase();
+    if (!keep(t)) return;
+    out.push(opts.stem ? stemWord(t) : t);
+  };
+  for (const m of normalised.matchAll(WORD)) {
+    const word = m[0];
+    if (HEX_LITERAL.test(word) || HEXISH.test(word.toLowerCase())) continue;
+    const parts = splitIdentifier(word);
+    if (parts.length === 1 && parts[0] === word) {
+      emit(word);
+      continue;
+    }
+    for (const p of parts) emit(p);
+    if (opts.keepCompounds && parts.length > 1) {
+      const compound = parts.join('');
+      if (compound.length <= MAX_TOKEN_LENGTH && !/^\p{N}+$/u.test(compound)) emit(compound);
+    }
+  }
+  return out;
+}

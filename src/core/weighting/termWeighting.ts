@@ -1,0 +1,87 @@
+/**
+ * Term weighting of the term-document matrix; each document vector is then L2-normalised.
+ *
+ * - 'log-entropy' (default; Dumais 1991, as implemented in gensim's LogEntropyModel):
+ *   local log(1 + tf); global g = 1 + Σ_j p_j log p_j / log(n + 1), p_j = tf_j / gf.
+ * - 'tfidf': sublinear tf (1 + ln tf) times smoothed idf ln((1 + n)/(1 + df)) + 1, as
+ *   scikit-learn's TfidfVectorizer(sublinear_tf=True, smooth_idf=True).
+ * Global weights are computed once per build and frozen: folded-in documents and queries reuse them.
+ */
+import type { DocTerms } from '../index/termCounts.js';
+
+export type WeightingScheme = 'log-entropy' | 'tfidf';
+export const WEIGHTING_SCHEMES: readonly WeightingScheme[] = ['log-entropy', 'tfidf'];
+
+/** Global weight per model column. */
+export function globalWeights(
+  docs: readonly DocTerms[],
+  columnOf: Int32Array,
+  columns: number,
+  scheme: WeightingScheme,
+): Float64Array {
+  const n = docs.length;
+  const g = new Float64Array(columns);
+  if (scheme === 'tfidf') {
+    const df = new Float64Array(columns);
+    for (const d of docs) for (let i = 0; i < d.termIds.length; i++) {
+      const c = columnOf[d.termIds[i]];
+      if (c >= 0) df[c]++;
+    }
+    for (let c = 0; c < columns; c++) g[c] = Math.log((1 + n) / (1 + df[c])) + 1;
+    return g;
+  }
+  const gf = new Float64Array(columns);
+  for (const d of docs) for (let i = 0; i < d.termIds.length; i++) {
+    const c = columnOf[d.termIds[i]];
+    if (c >= 0) gf[c] += d.counts[i];
+  }
+  const plogp = new Float64Array(columns);
+  for (const d of docs) for (let i = 0; i < d.termIds.length; i++) {
+    const c = columnOf[d.termIds[i]];
+    if (c >= 0) {
+      const p = d.counts[i] / gf[c];
+      plogp[c] += p * Math.log(p);
+    }
+  }
+  const denom = Math.log(n + 1);
+  for (let c = 0; c < columns; c++) g[c] = 1 + plogp[c] / denom;
+  return g;
+}
+
+export function localWeight(tf: number, scheme: WeightingScheme): number {
+  return scheme === 'tfidf' ? 1 + Math.log(tf) : Math.log1p(tf);
+}
+
+/** A weighted, L2-normalised sparse vector over model columns (ascending). */
+export interface WeightedVector {
+  readonly columns: Int32Array;
+  readonly values: Float64Array;
+  /** Norm before normalisation (0 when no known term). */
+  readonly norm: number;
+}
+
+export function weightDocument(
+  doc: DocTerms,
+  columnOf: Int32Array,
+  weights: Float64Array,
+  scheme: WeightingScheme,
+): WeightedVector {
+  const cols: number[] = [];
+  const vals: number[] = [];
+  let ss = 0;
+  for (let i = 0; i < doc.termIds.length; i++) {
+    const id = doc.termIds[i];
+    const c = id < columnOf.length ? columnOf[id] : -1;
+    if (c < 0) continue;
+    const w = localWeight(doc.counts[i], scheme) * weights[c];
+    if (w === 0) continue;
+    cols.push(c);
+    vals.push(w);
+    ss += w * w;
+  }
+  const norm = Math.sqrt(ss);
+  const values = Float64Array.from(vals);
+  if (norm > 0) for (let i = 0; i < values.length; i++) values[i] /= norm;
+  // columnOf is monotone in vocabulary id, so columns come out ascending.
+  return { columns: Int32Array.from(cols), values, norm };
+}

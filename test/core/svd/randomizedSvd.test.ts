@@ -1,0 +1,111 @@
+import { readFileSync } from 'node:fs';
+import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { describe, expect, it } from 'vitest';
+import { csrFromDense } from '../../../src/core/matrix/sparse.js';
+import { createRandom } from '../../../src/core/random.js';
+import { randomizedSvd, type SvdResult } from '../../../src/core/svd/randomizedSvd.js';
+import { missingMessage, sharedPath } from '../../helpers/shared.js';
+
+function maxOrthoError(a: Float64Array, rows: number, k: number): number {
+  let worst = 0;
+  for (let p = 0; p < k; p++) for (let q = p; q < k; q++) {
+    let dot = 0;
+    for (let i = 0; i < rows; i++) dot += a[i * k + p] * a[i * k + q];
+    worst = Math.max(worst, Math.abs(dot - (p === q ? 1 : 0)));
+  }
+  return worst;
+}
+
+function lowRank(rows: number, cols: number, rank: number, seed: number): Float64Array {
+  const r = createRandom(seed);
+  const a = Array.from({ length: rows * rank }, () => r.normal());
+  const b = Array.from({ length: rank * cols }, () => r.normal());
+  const m = new Float64Array(rows * cols);
+  for (let i = 0; i < rows; i++) for (let t = 0; t < rank; t++) for (let j = 0; j < cols; j++) m[i * cols + j] += a[i * rank + t] * b[t * cols + j];
+  return m;
+}
+
+function reconstruct(res: SvdResult): Float64Array {
+  const out = new Float64Array(res.rows * res.cols);
+  for (let i = 0; i < res.rows; i++) for (let j = 0; j < res.cols; j++) {
+    let s = 0;
+    for (let c = 0; c < res.k; c++) s += res.u[i * res.k + c] * res.s[c] * res.v[j * res.k + c];
+    out[i * res.cols + j] = s;
+  }
+  return out;
+}
+
+describe('randomizedSvd', () => {
+  // Published check: Deerwester, Dumais, Furnas, Landauer & Harshman (1990), JASIS 41(6), the
+  // 12-term × 9-document example, with singular values printed to 2 decimals in the paper.
+  const deerwesterFile = sharedPath('checks/deerwester1990.json');
+  it.skipIf(!deerwesterFile)(`matches the published singular values of Deerwester et al. 1990 ${deerwesterFile ? '' : missingMessage('checks/deerwester1990.json')}`, () => {
+    const check = JSON.parse(readFileSync(deerwesterFile!, 'utf8'));
+    const a: number[][] = check.matrix_terms_x_docs;
+    const rows = a.length;
+    const cols = a[0].length;
+    const res = randomizedSvd(csrFromDense(rows, cols, a.flat()), { k: 9 });
+    const published: number[] = check.singular_values_published;
+    published.forEach((v, i) => expect(res.s[i]).toBeCloseTo(v, 2));
+    // The two leading term (row) and document (column) vectors, up to sign.
+    for (const [key, names, mat, n] of [
+      ['published_T0_first2', check.terms as string[], res.u, rows],
+      ['published_D0_first2', check.docs as string[], res.v, cols],
+    ] as const) {
+      const published2: number[][] = names.map((name) => check[key][name]);
+      for (let c = 0; c < 2; c++) {
+        const ours = Array.from({ length: n }, (_, i) => mat[i * 9 + c]);
+        const theirs = published2.map((row) => row[c]);
+        const sign = Math.sign(ours.reduce((s, v, i) => s + v * theirs[i], 0));
+        ours.forEach((v, i) => expect(Math.abs(sign * v - theirs[i])).toBeLessThanOrEqual(0.0051));
+      }
+    }
+  });
+
+  it('recovers a random low-rank matrix (rank ≤ k + oversampling) to 1e-6 (reference: exact reconstruction)', () => {
+    const rows = 120, cols = 80, rank = 12;
+    const dense = lowRank(rows, cols, rank, 7);
+    const res = randomizedSvd(csrFromDense(rows, cols, dense), { k: 12 });
+    const rec = reconstruct(res);
+    let num = 0, den = 0;
+    for (let i = 0; i < dense.length; i++) {
+      num += (rec[i] - dense[i]) ** 2;
+      den += dense[i] ** 2;
+    }
+    expect(Math.sqrt(num / den)).toBeLessThan(1e-6);
+    expect(maxOrthoError(res.u, rows, res.k)).toBeLessThan(1e-8);
+    expect(maxOrthoError(res.v, cols, res.k)).toBeLessThan(1e-8);
+  });
+
+  it('agrees with ml-matrix dense SVD on the leading singular values (reference library)', () => {
+    const rows = 90, cols = 60, rank = 8;
+    const dense = lowRank(rows, cols, rank, 3);
+    const res = randomizedSvd(csrFromDense(rows, cols, dense), { k: 8 });
+    const ref = new SingularValueDecomposition(new Matrix(Array.from({ length: rows }, (_, i) => Array.from(dense.subarray(i * cols, (i + 1) * cols)))));
+    for (let i = 0; i < 8; i++) expect(Math.abs(res.s[i] - ref.diagonal[i]) / ref.diagonal[i]).toBeLessThan(1e-6);
+  });
+
+  it('handles a matrix whose rank is below the sketch width (rank-deficient range)', () => {
+    const rows = 40, cols = 30;
+    const dense = lowRank(rows, cols, 3, 11);
+    const res = randomizedSvd(csrFromDense(rows, cols, dense), { k: 10 });
+    expect(res.k).toBe(10);
+    expect(maxOrthoError(res.u, rows, res.k)).toBeLessThan(1e-8);
+    expect(maxOrthoError(res.v, cols, res.k)).toBeLessThan(1e-8);
+    for (let i = 3; i < 10; i++) expect(res.s[i]).toBeLessThan(1e-8 * res.s[0]);
+  });
+
+  it('is bit-for-bit deterministic for a seed, and seed-independent in its singular values', () => {
+    const rows = 70, cols = 50;
+    const r = createRandom(5);
+    const dense = Float64Array.from({ length: rows * cols }, () => (r.next() < 0.1 ? r.next() : 0));
+    const m = csrFromDense(rows, cols, dense);
+    const a = randomizedSvd(m, { k: 6, seed: 1 });
+    const b = randomizedSvd(m, { k: 6, seed: 1 });
+    const c = randomizedSvd(m, { k: 6, seed: 2 });
+    expect(Buffer.from(a.u.buffer).equals(Buffer.from(b.u.buffer))).toBe(true);
+    expect(Buffer.from(a.v.buffer).equals(Buffer.from(b.v.buffer))).toBe(true);
+    expect(Array.from(a.s)).toEqual(Array.from(b.s));
+    for (let i = 0; i < 6; i++) expect(Math.abs(a.s[i] - c.s[i]) / a.s[i]).toBeLessThan(0.01);
+  });
+});
