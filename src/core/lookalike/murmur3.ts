@@ -40,18 +40,8 @@ export function murmur3x86_32(bytes: Uint8Array, seed = 0, length = bytes.length
   for (let i = 0; i < blocks; i += 4) {
     h = mixBlock32(h, bytes[i] | (bytes[i + 1] << 8) | (bytes[i + 2] << 16) | (bytes[i + 3] << 24));
   }
-  let k = 0;
-  switch (length & 3) {
-    case 3:
-      k ^= bytes[blocks + 2] << 16;
-    // falls through
-    case 2:
-      k ^= bytes[blocks + 1] << 8;
-    // falls through
-    case 1:
-      k ^= bytes[blocks];
-      h ^= Math.imul(rotl(Math.imul(k, C1), 15), C2);
-  }
+  const rest = length & 3;
+  if (rest > 0) h ^= Math.imul(rotl(Math.imul(word(bytes, blocks, rest), C1), 15), C2);
   return fmix32(h ^ length);
 }
 

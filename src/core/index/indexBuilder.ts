@@ -1,0 +1,78 @@
+/**
+ * Collects documents (text or already-counted terms) and builds an LsiIndex. Documents are
+ * sorted by path and the vocabulary is renumbered in term order before the build, so the same
+ * files give the same index whether they were read now or reused from a saved index.
+ */
+import { InvalidInputError } from '../errors.js';
+import { tokenize } from '../text/tokenize.js';
+import { buildConceptModel, type BuildProgress } from './conceptModel.js';
+import { LsiIndex, type DocMeta, type DocSlot } from './lsiIndex.js';
+import { resolveSettings, type IndexSettings } from './settings.js';
+import { countTerms, Vocabulary, type DocTerms } from './termCounts.js';
+
+export class IndexBuilder {
+  readonly settings: IndexSettings;
+  private readonly _vocab: Vocabulary;
+  private readonly _docs = new Map<string, { meta: DocMeta; terms: DocTerms }>();
+
+  /** Pass the vocabulary the given DocTerms refer to when reusing counts from an index. */
+  constructor(settings: Partial<IndexSettings> = {}, vocab: Vocabulary = new Vocabulary()) {
+    this.settings = resolveSettings(settings);
+    this._vocab = vocab;
+  }
+
+  get size(): number {
+    return this._docs.size;
+  }
+
+  /** Tokenizes and counts one document (replacing an earlier one with the same path). */
+  addText(meta: DocMeta, text: string): DocTerms {
+    const terms = countTerms(tokenize(text, this.settings.tokenize), this._vocab, true);
+    this._docs.set(meta.path, { meta, terms });
+    return terms;
+  }
+
+  /** Adds a document whose terms were counted against this builder's vocabulary. */
+  addCounted(meta: DocMeta, terms: DocTerms): void {
+    this._docs.set(meta.path, { meta, terms });
+  }
+
+  remove(path: string): boolean {
+    return this._docs.delete(path);
+  }
+
+  build(progress: BuildProgress = {}): LsiIndex {
+    const paths = [...this._docs.keys()].sort(comparePaths);
+    // Renumber the vocabulary: only terms still used, in code-unit order of the term strings.
+    const used = new Uint8Array(this._vocab.size);
+    for (const p of paths) for (const id of this._docs.get(p)!.terms.termIds) used[id] = 1;
+    const oldIds: number[] = [];
+    for (let id = 0; id < used.length; id++) if (used[id]) oldIds.push(id);
+    const terms = this._vocab.terms;
+    oldIds.sort((a, b) => (terms[a] < terms[b] ? -1 : terms[a] > terms[b] ? 1 : 0));
+    const newId = new Int32Array(this._vocab.size).fill(-1);
+    oldIds.forEach((old, i) => (newId[old] = i));
+    const vocab = new Vocabulary(oldIds.map((id) => terms[id]));
+    const slots: DocSlot[] = paths.map((path) => {
+      const { meta, terms: t } = this._docs.get(path)!;
+      return { meta, terms: remap(t, newId), folded: false, residual: 0 };
+    });
+    if (slots.length === 0) throw new InvalidInputError('There are no files to index.');
+    const model = buildConceptModel(slots.map((s) => s.terms), vocab.size, this.settings, progress);
+    return LsiIndex.assemble(this.settings, vocab, model, slots);
+  }
+}
+
+function remap(t: DocTerms, newId: Int32Array): DocTerms {
+  const pairs = Array.from(t.termIds, (id, i) => [newId[id], t.counts[i]] as const).sort((a, b) => a[0] - b[0]);
+  return {
+    termIds: Int32Array.from(pairs, (p) => p[0]),
+    counts: Float32Array.from(pairs, (p) => p[1]),
+    length: t.length,
+  };
+}
+
+/** Path order used everywhere: plain code-unit comparison (locale-independent). */
+export function comparePaths(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}

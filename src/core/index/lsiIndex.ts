@@ -1,0 +1,284 @@
+/**
+ * The workspace index: documents, their raw term counts, the frozen concept model, one unit
+ * concept vector per document, and the lexical (BM25) scorer. Answers searches by meaning
+ * (query folded into the concept space, cosine ranking, optionally blended with BM25) and
+ * nearest-file questions; accepts edits by folding changed documents in with the frozen weights
+ * (Berry, Dumais & O'Brien 1995) and reports how stale the model has become.
+ */
+import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
+import { tokenize } from '../text/tokenize.js';
+import { Bm25Scorer } from './bm25.js';
+import { projectTerms, type ConceptModel } from './conceptModel.js';
+import type { IndexSettings } from './settings.js';
+import { countTerms, type DocTerms, type Vocabulary } from './termCounts.js';
+import { topN } from './topN.js';
+
+export interface DocMeta {
+  /** Workspace-relative path with '/' separators (multi-root: prefixed by the folder name). */
+  readonly path: string;
+  readonly size: number;
+  readonly mtimeMs: number;
+}
+
+export interface DocSlot {
+  meta: DocMeta;
+  terms: DocTerms;
+  /** True when the document was folded in after the last build. */
+  folded: boolean;
+  /** Fold-in residual (0 for documents present at build time). */
+  residual: number;
+}
+
+export interface SearchHit {
+  readonly path: string;
+  /** The ranking score: (1 − λ)·cosine + λ·BM25/max BM25. */
+  readonly score: number;
+  /** Cosine similarity in concept space. */
+  readonly conceptScore: number;
+  /** BM25 score divided by the best BM25 score of this query (0…1). */
+  readonly lexicalScore: number;
+}
+
+export interface NearbyHit {
+  readonly path: string;
+  /** Cosine similarity of the two files' concept vectors. */
+  readonly score: number;
+}
+
+export interface SearchOptions {
+  /** @default 10 */
+  top: number;
+  /** Only paths for which this returns true are ranked. */
+  filter?: (path: string) => boolean;
+}
+
+export interface Staleness {
+  /** Documents added, changed or removed since the last build. */
+  readonly changedFiles: number;
+  readonly changedShare: number;
+  /** Share of folded documents' tokens whose terms the model does not know. */
+  readonly newTermMass: number;
+  /** Mean fold-in residual of folded documents divided by the build-time mean (1 = as good). */
+  readonly residualRatio: number;
+}
+
+export class LsiIndex {
+  private _slots: (DocSlot | null)[];
+  private _vectors: Float32Array;
+  private readonly _slotOf = new Map<string, number>();
+  private _bm25: Bm25Scorer | null = null;
+  private _removedSinceBuild = 0;
+  private _foldedTokens = 0;
+  private _foldedUnknownTokens = 0;
+
+  private constructor(
+    readonly settings: IndexSettings,
+    readonly vocab: Vocabulary,
+    readonly model: ConceptModel,
+    slots: (DocSlot | null)[],
+    vectors: Float32Array,
+  ) {
+    this._slots = slots;
+    this._vectors = vectors;
+    slots.forEach((s, i) => s && this._slotOf.set(s.meta.path, i));
+  }
+
+  /** Builds the document vectors of a fresh model (used by IndexBuilder and by loading). */
+  static assemble(settings: IndexSettings, vocab: Vocabulary, model: ConceptModel, slots: (DocSlot | null)[], vectors?: Float32Array): LsiIndex {
+    const k = model.k;
+    let vec = vectors;
+    if (!vec) {
+      vec = new Float32Array(slots.length * k);
+      slots.forEach((s, i) => s && vec!.set(projectTerms(model, s.terms).vector, i * k));
+    }
+    if (vec.length < slots.length * k) throw new InvalidInputError('concept vectors do not cover every document');
+    return new LsiIndex(settings, vocab, model, slots, vec);
+  }
+
+  get k(): number {
+    return this.model.k;
+  }
+
+  /** Number of documents. */
+  get size(): number {
+    return this._slotOf.size;
+  }
+
+  /** Document paths in slot order. */
+  paths(): string[] {
+    return this._slots.filter((s): s is DocSlot => s !== null).map((s) => s.meta.path);
+  }
+
+  has(path: string): boolean {
+    return this._slotOf.has(path);
+  }
+
+  meta(path: string): DocMeta | undefined {
+    const s = this._slotOf.get(path);
+    return s === undefined ? undefined : this._slots[s]!.meta;
+  }
+
+  /** Raw term counts of a document (ids of this.vocab). */
+  termsOf(path: string): DocTerms {
+    return this._slots[this.slot(path)]!.terms;
+  }
+
+  /** The unit concept vector of a document (a view; do not modify). */
+  vectorOf(path: string): Float32Array {
+    const s = this.slot(path);
+    return this._vectors.subarray(s * this.k, (s + 1) * this.k);
+  }
+
+  /** Internal slots, including null holes left by removals (for persistence and bulk views). */
+  slots(): readonly (DocSlot | null)[] {
+    return this._slots;
+  }
+
+  /** All slots' concept vectors, slots.length × k (holes are zero rows). */
+  vectors(): Float32Array {
+    return this._vectors.subarray(0, this._slots.length * this.k);
+  }
+
+  /** Counts a query's terms against the vocabulary without growing it. */
+  queryTerms(text: string): DocTerms {
+    return countTerms(tokenize(text, this.settings.tokenize), this.vocab, false);
+  }
+
+  /** Concept vector of free text (zeros if no model term occurs). */
+  projectText(text: string): Float32Array {
+    return projectTerms(this.model, this.queryTerms(text)).vector;
+  }
+
+  /** Ranks documents by meaning for plain-language text. Throws NoKnownTermsError for unknown words. */
+  search(text: string, options: Partial<SearchOptions> = {}): SearchHit[] {
+    const top = options.top ?? 10;
+    const q = this.queryTerms(text);
+    if (q.termIds.length === 0) throw new NoKnownTermsError(text);
+    const proj = projectTerms(this.model, q);
+    const n = this._slots.length;
+    const concept = this.cosines(proj.vector);
+    const lexical = new Float64Array(n);
+    const lambda = this.settings.lexicalBlend;
+    if (lambda > 0) {
+      this.bm25().scoreInto(q, lexical);
+      let max = 0;
+      for (let j = 0; j < n; j++) max = Math.max(max, lexical[j]);
+      if (max > 0) for (let j = 0; j < n; j++) lexical[j] /= max;
+    }
+    const blended = new Float64Array(n);
+    const conceptWeight = proj.knownTerms > 0 ? 1 - lambda : 0;
+    for (let j = 0; j < n; j++) blended[j] = conceptWeight * concept[j] + lambda * lexical[j];
+    const filter = options.filter;
+    return topN(blended, top, (j) => this._slots[j] !== null && (!filter || filter(this._slots[j]!.meta.path))).map(({ slot, score }) => ({
+      path: this._slots[slot]!.meta.path,
+      score,
+      conceptScore: concept[slot],
+      lexicalScore: lexical[slot],
+    }));
+  }
+
+  /** The files nearest in meaning to a file (cosine of concept vectors), itself excluded. */
+  nearby(path: string, options: Partial<SearchOptions> = {}): NearbyHit[] {
+    const self = this.slot(path);
+    const scores = this.cosines(this._vectors.subarray(self * this.k, (self + 1) * this.k));
+    const filter = options.filter;
+    return topN(scores, options.top ?? 10, (j) => j !== self && this._slots[j] !== null && (!filter || filter(this._slots[j]!.meta.path))).map(
+      ({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score }),
+    );
+  }
+
+  /** Cosine of a unit concept vector with every slot (holes score −Infinity). */
+  cosines(vector: Float32Array): Float64Array {
+    const k = this.k;
+    const out = new Float64Array(this._slots.length);
+    const v = this._vectors;
+    for (let j = 0; j < this._slots.length; j++) {
+      if (!this._slots[j]) {
+        out[j] = Number.NEGATIVE_INFINITY;
+        continue;
+      }
+      let dot = 0;
+      const o = j * k;
+      for (let c = 0; c < k; c++) dot += vector[c] * v[o + c];
+      out[j] = dot;
+    }
+    return out;
+  }
+
+  /**
+   * Adds or replaces a document by folding it into the concept space with the frozen model.
+   * New words join the vocabulary (and lexical search) but not the concept space until a rebuild.
+   */
+  foldIn(meta: DocMeta, text: string): DocTerms {
+    const tokens = tokenize(text, this.settings.tokenize);
+    const before = this.vocab.size;
+    const terms = countTerms(tokens, this.vocab, true);
+    // Counted only for terms new to the vocabulary, so pruned-but-known words do not look "new".
+    let brandNew = 0;
+    for (let i = 0; i < terms.termIds.length; i++) if (terms.termIds[i] >= before) brandNew += terms.counts[i];
+    this._foldedTokens += terms.length;
+    this._foldedUnknownTokens += brandNew;
+    const proj = projectTerms(this.model, terms);
+    let s = this._slotOf.get(meta.path);
+    if (s === undefined) {
+      s = this._slots.length;
+      this._slots.push(null);
+      this.ensureCapacity(this._slots.length);
+      this._slotOf.set(meta.path, s);
+    }
+    this._slots[s] = { meta, terms, folded: true, residual: proj.residual };
+    this._vectors.set(proj.vector, s * this.k);
+    this._bm25 = null;
+    return terms;
+  }
+
+  /** Removes a document; returns false when it was not indexed. */
+  remove(path: string): boolean {
+    const s = this._slotOf.get(path);
+    if (s === undefined) return false;
+    const wasFolded = this._slots[s]!.folded;
+    this._slots[s] = null;
+    this._vectors.fill(0, s * this.k, (s + 1) * this.k);
+    this._slotOf.delete(path);
+    if (!wasFolded) this._removedSinceBuild++;
+    this._bm25 = null;
+    return true;
+  }
+
+  staleness(): Staleness {
+    let folded = 0;
+    let residual = 0;
+    for (const s of this._slots) if (s?.folded) {
+      folded++;
+      residual += s.residual;
+    }
+    const changed = folded + this._removedSinceBuild;
+    const base = this.size + this._removedSinceBuild;
+    return {
+      changedFiles: changed,
+      changedShare: base > 0 ? changed / base : 0,
+      newTermMass: this._foldedTokens > 0 ? this._foldedUnknownTokens / this._foldedTokens : 0,
+      residualRatio: folded > 0 && this.model.residualMean > 0 ? residual / folded / this.model.residualMean : folded > 0 ? Infinity : 1,
+    };
+  }
+
+  /** The lexical scorer over all current documents (rebuilt lazily after changes). */
+  bm25(): Bm25Scorer {
+    if (!this._bm25) this._bm25 = new Bm25Scorer(this._slots.map((s) => s?.terms ?? null), this.vocab.size);
+    return this._bm25;
+  }
+
+  private slot(path: string): number {
+    const s = this._slotOf.get(path);
+    if (s === undefined) throw new NotIndexedError(path);
+    return s;
+  }
+
+  private ensureCapacity(slots: number): void {
+    const need = slots * this.k;
+    if (need <= this._vectors.length) return;
+    const grown = new Float32Array(Math.max(need, Math.ceil(this._vectors.length * 1.5)));
+    grown.set(this._vectors);
+    this._vectors = grown;
+  }
+}

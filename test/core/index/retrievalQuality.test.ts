@@ -1,0 +1,32 @@
+/**
+ * Retrieval quality on public test collections (../shared/corpora; provenance in their READMEs:
+ * the classic SMART collections as distributed by the University of Glasgow IR group).
+ * Floors: what a general-purpose reference pipeline (scikit-learn log-entropy + TruncatedSVD at
+ * k=100, no stemming) scores on the same files, as quoted in the issue that asked for this check.
+ * One default configuration for all four collections; every document ranked; judged queries only.
+ */
+import { describe, expect, it } from 'vitest';
+import { evaluateRuns } from '../../../src/core/eval/retrievalMetrics.js';
+import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { loadCollection, missingMessage } from '../../helpers/shared.js';
+
+const FLOORS: Record<string, number> = { cisi: 0.218, cran: 0.308, cacm: 0.193, adi: 0.4 };
+
+describe('retrieval quality with the default settings', () => {
+  for (const [name, floor] of Object.entries(FLOORS)) {
+    const col = loadCollection(name);
+    it.skipIf(!col)(`${name.toUpperCase()} mean average precision ≥ ${floor} ${col ? '' : missingMessage(`corpora/${name}`)}`, () => {
+      const builder = new IndexBuilder();
+      for (const d of col!.docs) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+      const index = builder.build();
+      const runs = new Map<string, string[]>();
+      for (const q of col!.queries) {
+        if (!col!.qrels.has(q.id)) continue;
+        runs.set(q.id, index.search(q.text, { top: index.size }).map((h) => h.path));
+      }
+      const summary = evaluateRuns(runs, col!.qrels);
+      console.log(`${name.toUpperCase()}: MAP ${summary.map.toFixed(4)} P@10 ${summary.precisionAt10.toFixed(4)} nDCG@10 ${summary.ndcgAt10.toFixed(4)} over ${summary.queries} queries (k=${index.k})`);
+      expect(summary.map).toBeGreaterThanOrEqual(floor);
+    });
+  }
+});
