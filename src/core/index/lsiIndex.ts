@@ -62,6 +62,12 @@ export interface Staleness {
   readonly residualRatio: number;
 }
 
+export interface StalenessCounters {
+  readonly removedSinceBuild: number;
+  readonly foldedTokens: number;
+  readonly foldedUnknownTokens: number;
+}
+
 export class LsiIndex {
   private _slots: (DocSlot | null)[];
   private _vectors: Float32Array;
@@ -260,6 +266,17 @@ export class LsiIndex {
       newTermMass: this._foldedTokens > 0 ? this._foldedUnknownTokens / this._foldedTokens : 0,
       residualRatio: folded > 0 && this.model.residualMean > 0 ? residual / folded / this.model.residualMean : folded > 0 ? Infinity : 1,
     };
+  }
+
+  /** Change counters since the last build (persisted with the index). */
+  counters(): StalenessCounters {
+    return { removedSinceBuild: this._removedSinceBuild, foldedTokens: this._foldedTokens, foldedUnknownTokens: this._foldedUnknownTokens };
+  }
+
+  restoreCounters(c: StalenessCounters): void {
+    this._removedSinceBuild = c.removedSinceBuild;
+    this._foldedTokens = c.foldedTokens;
+    this._foldedUnknownTokens = c.foldedUnknownTokens;
   }
 
   /** The lexical scorer over all current documents (rebuilt lazily after changes). */

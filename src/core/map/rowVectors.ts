@@ -26,11 +26,13 @@ export function rowVectors(data: Float32Array, n: number, dim: number): RowVecto
 }
 
 /**
- * A copy with every row scaled to unit length. All-zero rows (files without indexed terms) stay
- * zero, so they sit at distance 1 from every unit row.
+ * Every row scaled to unit length. All-zero rows (files without indexed terms) stay zero, so they
+ * sit at distance 1 from every unit row. Returns the input itself when every row is already unit
+ * length (within 1e-4) or zero, as the index's concept vectors are, to avoid a second copy.
  */
 export function normaliseRows(v: RowVectors): RowVectors {
   const { n, dim, data } = v;
+  if (alreadyUnit(v)) return v;
   const out = new Float32Array(n * dim);
   for (let i = 0; i < n; i++) {
     const o = i * dim;
@@ -41,6 +43,12 @@ export function normaliseRows(v: RowVectors): RowVectors {
     for (let c = 0; c < dim; c++) out[o + c] = data[o + c] * inv;
   }
   return { n, dim, data: out };
+}
+
+function alreadyUnit(v: RowVectors): boolean {
+  const norms = rowSquaredNorms(v);
+  for (let i = 0; i < v.n; i++) if (norms[i] !== 0 && Math.abs(norms[i] - 1) > 1e-4) return false;
+  return true;
 }
 
 /** Squared Euclidean norm of every row. */

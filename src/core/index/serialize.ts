@@ -1,0 +1,187 @@
+/**
+ * Binary form of an LsiIndex (our own format, version INDEX_FORMAT_VERSION):
+ *   8 bytes magic "UNDTNIDX" · u32 LE header length · UTF-8 JSON header · zero padding to 8 ·
+ *   payload of typed-array sections, each starting on an 8-byte boundary.
+ * The header holds the format version, the settings, scalar model facts, the section table
+ * (name, element type, byte offset, element count) and a checksum of the payload. Decoding checks
+ * magic, version, bounds, section sizes and the checksum, and throws CorruptIndexError on any
+ * mismatch, so a damaged, truncated or older file is rebuilt, never trusted. Holes left by removed
+ * documents are compacted on encoding.
+ */
+import { CorruptIndexError } from '../errors.js';
+import { checksum32 } from './checksum.js';
+import type { ConceptModel } from './conceptModel.js';
+import { LsiIndex, type DocSlot, type StalenessCounters } from './lsiIndex.js';
+import type { IndexSettings } from './settings.js';
+import { Vocabulary } from './termCounts.js';
+
+export const INDEX_FORMAT_VERSION = 1;
+const MAGIC = 'UNDTNIDX';
+
+type ArrayKind = 'u8' | 'i32' | 'f32' | 'f64';
+type Typed = Uint8Array | Int32Array | Float32Array | Float64Array;
+interface SectionEntry {
+  name: string;
+  kind: ArrayKind;
+  offset: number;
+  length: number;
+}
+
+interface Header {
+  formatVersion: number;
+  createdAt: string;
+  settings: IndexSettings;
+  docs: number;
+  model: Omit<ConceptModel, 'keptIds' | 'columnOf' | 'weights' | 'termVectors' | 'singularValues' | 'axisScale'> & { columnOfLength: number };
+  counters: StalenessCounters;
+  sections: SectionEntry[];
+  payloadBytes: number;
+  checksum: number;
+}
+
+const CTORS = { u8: Uint8Array, i32: Int32Array, f32: Float32Array, f64: Float64Array } as const;
+const kindOf = (a: Typed): ArrayKind => (a instanceof Uint8Array ? 'u8' : a instanceof Int32Array ? 'i32' : a instanceof Float32Array ? 'f32' : 'f64');
+const align8 = (n: number): number => (n + 7) & ~7;
+const encoder = new TextEncoder();
+const decoder = new TextDecoder('utf-8', { fatal: true });
+
+export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint8Array {
+  const live = index.slots().map((s, i) => [s, i] as const).filter((p): p is readonly [DocSlot, number] => p[0] !== null);
+  const k = index.k;
+  const n = live.length;
+  const vectors = new Float32Array(n * k);
+  const all = index.vectors();
+  live.forEach(([, i], j) => vectors.set(all.subarray(i * k, (i + 1) * k), j * k));
+  let nnz = 0;
+  for (const [s] of live) nnz += s.terms.termIds.length;
+  const termIndptr = new Int32Array(n + 1);
+  const termIds = new Int32Array(nnz);
+  const termCounts = new Float32Array(nnz);
+  live.forEach(([s], j) => {
+    termIds.set(s.terms.termIds, termIndptr[j]);
+    termCounts.set(s.terms.counts, termIndptr[j]);
+    termIndptr[j + 1] = termIndptr[j] + s.terms.termIds.length;
+  });
+  const m = index.model;
+  const sections: [string, Typed][] = [
+    ['vocab', encoder.encode(index.vocab.terms.join('\0'))],
+    ['paths', encoder.encode(live.map(([s]) => s.meta.path).join('\0'))],
+    ['docSize', Float64Array.from(live, ([s]) => s.meta.size)],
+    ['docMtime', Float64Array.from(live, ([s]) => s.meta.mtimeMs)],
+    ['docLength', Float64Array.from(live, ([s]) => s.terms.length)],
+    ['docFolded', Uint8Array.from(live, ([s]) => (s.folded ? 1 : 0))],
+    ['docResidual', Float64Array.from(live, ([s]) => s.residual)],
+    ['termIndptr', termIndptr],
+    ['termIds', termIds],
+    ['termCounts', termCounts],
+    ['keptIds', m.keptIds],
+    ['weights', m.weights],
+    ['termVectors', m.termVectors],
+    ['singularValues', m.singularValues],
+    ['axisScale', m.axisScale],
+    ['vectors', vectors],
+  ];
+  const table: SectionEntry[] = [];
+  let offset = 0;
+  for (const [name, arr] of sections) {
+    table.push({ name, kind: kindOf(arr), offset, length: arr.length });
+    offset = align8(offset + arr.byteLength);
+  }
+  const payload = new Uint8Array(offset);
+  sections.forEach(([, arr], i) => payload.set(new Uint8Array(arr.buffer, arr.byteOffset, arr.byteLength), table[i].offset));
+  const { keptIds: _a, columnOf, weights: _b, termVectors: _c, singularValues: _d, axisScale: _e, ...scalars } = m;
+  const header: Header = {
+    formatVersion: INDEX_FORMAT_VERSION,
+    createdAt: createdAt.toISOString(),
+    settings: index.settings,
+    docs: n,
+    model: { ...scalars, columnOfLength: columnOf.length },
+    counters: index.counters(),
+    sections: table,
+    payloadBytes: payload.length,
+    checksum: checksum32(payload),
+  };
+  const headerBytes = encoder.encode(JSON.stringify(header));
+  const start = align8(12 + headerBytes.length);
+  const out = new Uint8Array(start + payload.length);
+  out.set(encoder.encode(MAGIC), 0);
+  new DataView(out.buffer).setUint32(8, headerBytes.length, true);
+  out.set(headerBytes, 12);
+  out.set(payload, start);
+  return out;
+}
+
+/** Reads only the header (cheap): format version, settings, document count, creation time. */
+export function readIndexHeader(bytes: Uint8Array): Header {
+  if (bytes.length < 12 || decoder.decode(bytes.subarray(0, 8)) !== MAGIC) throw new CorruptIndexError('not an Undertone index file (bad magic bytes)');
+  const len = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(8, true);
+  if (12 + len > bytes.length) throw new CorruptIndexError('index file is truncated inside its header');
+  let header: Header;
+  try {
+    header = JSON.parse(decoder.decode(bytes.subarray(12, 12 + len))) as Header;
+  } catch {
+    throw new CorruptIndexError('index header is not valid JSON');
+  }
+  if (header.formatVersion !== INDEX_FORMAT_VERSION) {
+    throw new CorruptIndexError(`index format ${header.formatVersion} is not the current format ${INDEX_FORMAT_VERSION}`);
+  }
+  return header;
+}
+
+export function decodeIndex(bytes: Uint8Array): LsiIndex {
+  const header = readIndexHeader(bytes);
+  const len = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(8, true);
+  const start = align8(12 + len);
+  if (bytes.length !== start + header.payloadBytes) throw new CorruptIndexError(`index file is ${bytes.length} bytes, expected ${start + header.payloadBytes} (truncated or padded)`);
+  const payload = bytes.subarray(start);
+  if (checksum32(payload) !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+  const get = <K extends ArrayKind>(name: string, kind: K): InstanceType<(typeof CTORS)[K]> => {
+    const e = header.sections.find((s) => s.name === name);
+    if (!e || e.kind !== kind) throw new CorruptIndexError(`index section "${name}" is missing`);
+    const Ctor = CTORS[kind];
+    const bytesLen = e.length * Ctor.BYTES_PER_ELEMENT;
+    if (e.offset % 8 !== 0 || e.offset + bytesLen > payload.length) throw new CorruptIndexError(`index section "${name}" lies outside the file`);
+    // Copy so the arrays are aligned and independent of the file buffer.
+    return new Ctor(payload.slice(e.offset, e.offset + bytesLen).buffer) as InstanceType<(typeof CTORS)[K]>;
+  };
+  const n = header.docs;
+  const k = header.model.k;
+  const splitText = (u8: Uint8Array): string[] => (u8.length === 0 ? [] : decoder.decode(u8).split('\0'));
+  const vocab = new Vocabulary(splitText(get('vocab', 'u8')));
+  const paths = n === 0 ? [] : splitText(get('paths', 'u8'));
+  const size = get('docSize', 'f64');
+  const mtime = get('docMtime', 'f64');
+  const length = get('docLength', 'f64');
+  const folded = get('docFolded', 'u8');
+  const residual = get('docResidual', 'f64');
+  const indptr = get('termIndptr', 'i32');
+  const ids = get('termIds', 'i32');
+  const counts = get('termCounts', 'f32');
+  const keptIds = get('keptIds', 'i32');
+  const weights = get('weights', 'f64');
+  const termVectors = get('termVectors', 'f32');
+  const singularValues = get('singularValues', 'f64');
+  const axisScale = get('axisScale', 'f64');
+  const vectors = get('vectors', 'f32');
+  const consistent =
+    paths.length === n && size.length === n && indptr.length === n + 1 && indptr[n] === ids.length && ids.length === counts.length &&
+    weights.length === keptIds.length && termVectors.length === keptIds.length * k && singularValues.length === k &&
+    axisScale.length === k && vectors.length === n * k && header.model.columnOfLength <= vocab.size;
+  if (!consistent) throw new CorruptIndexError('index sections disagree in size');
+  const columnOf = new Int32Array(header.model.columnOfLength).fill(-1);
+  keptIds.forEach((id, c) => {
+    if (id < 0 || id >= columnOf.length) throw new CorruptIndexError('index term table refers to an unknown term');
+    columnOf[id] = c;
+  });
+  const { columnOfLength: _len, ...scalars } = header.model;
+  const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
+  const slots: DocSlot[] = paths.map((path, j) => ({
+    meta: { path, size: size[j], mtimeMs: mtime[j] },
+    terms: { termIds: ids.slice(indptr[j], indptr[j + 1]), counts: counts.slice(indptr[j], indptr[j + 1]), length: length[j] },
+    folded: folded[j] === 1,
+    residual: residual[j],
+  }));
+  const index = LsiIndex.assemble(header.settings, vocab, model, slots, vectors);
+  index.restoreCounters(header.counters);
+  return index;
+}
