@@ -32,6 +32,8 @@ export interface ConceptModel {
   readonly frobeniusSquared: number;
   /** Mean share of a build document's weighted vector lying outside span(U_k). */
   readonly residualMean: number;
+  /** Stored entries of the weighted term-document matrix at build time. */
+  readonly nonZeros: number;
   /** True when pruning thresholds were relaxed (tiny collections). */
   readonly pruneRelaxed: boolean;
 }
@@ -117,6 +119,7 @@ export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, 
     frobeniusSquared: frob,
     residualMean: counted > 0 ? residualSum / counted : 0,
     pruneRelaxed: pruned.relaxed,
+    nonZeros: nnz,
   };
 }
 

@@ -1,0 +1,22 @@
+// Bundles the command line (and, when present, the extension, the worker and the webview pages)
+// with esbuild. natural is imported module by module, so none of its database clients is bundled.
+import { build } from 'esbuild';
+import { existsSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const common = { bundle: true, platform: 'node', target: 'node20', format: 'cjs', sourcemap: true, logLevel: 'warning', absWorkingDir: root };
+const entries = [
+  { entryPoints: ['src/cli/bin.ts'], outfile: 'dist/cli.js', banner: { js: '#!/usr/bin/env node' } },
+  { entryPoints: ['src/extension/extension.ts'], outfile: 'dist/extension.js', external: ['vscode'] },
+  { entryPoints: ['src/node/worker/indexWorker.ts'], outfile: 'dist/indexWorker.js' },
+  { entryPoints: ['bench/bench.ts'], outfile: 'dist/bench.js' },
+];
+const minify = process.argv.includes('--production');
+await Promise.all(
+  entries
+    .filter((e) => existsSync(join(root, e.entryPoints[0])))
+    .map((e) => build({ ...common, ...e, minify })),
+);
+if (existsSync(join(root, 'scripts/build-map-page.mjs'))) await import('./build-map-page.mjs');

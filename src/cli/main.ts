@@ -1,0 +1,85 @@
+/**
+ * The `undertone` command line: a thin adapter over the core and the node layer.
+ * Exit codes: 0 success, 1 a problem with the input (message on stderr), 2 a usage error.
+ */
+import { parseArgs } from 'node:util';
+import { UndertoneError } from '../core/errors.js';
+import { askCommand } from './commands/askCommand.js';
+import { evalCommand } from './commands/evalCommand.js';
+import { indexCommand } from './commands/indexCommand.js';
+import { nearbyCommand } from './commands/nearbyCommand.js';
+import { COMMON_OPTIONS, type Flags } from './context.js';
+import { processIo, type Io } from './output.js';
+
+export const USAGE = `undertone — find files by meaning (latent semantic indexing of a folder)
+
+usage:
+  undertone index  <folder>                 build or refresh the saved index
+  undertone ask    <folder> "<text>"        files ranked by meaning for plain-language text
+  undertone ask    <folder> --queries q.jsonl   batch: one JSON line out per {"id","text"} line in
+  undertone nearby <folder> <file>          the files nearest in meaning to one file
+  undertone eval   <folder> --queries q.jsonl --qrels qrels.tsv   MAP, P@10, nDCG@10
+
+options:
+  --top N                    how many results (default 10)
+  --k N|auto                 concept dimensions (default auto: grows with the collection)
+  --weighting log-entropy|tfidf   term weighting (default log-entropy)
+  --json                     machine-readable output
+  --cache-dir DIR            where saved indexes live (default: the user cache folder,
+                             or $UNDERTONE_CACHE_DIR)
+  --max-file-size BYTES      skip larger files (default 1048576)
+  --include GLOB, --exclude GLOB   extra file filters (repeatable)
+  --no-gitignore             index files that .gitignore excludes
+  --rebuild                  (index) rebuild from scratch
+  -q, --quiet                no notes or summary on stderr
+`;
+
+const EXTRA_OPTIONS = {
+  queries: { type: 'string' },
+  qrels: { type: 'string' },
+  rebuild: { type: 'boolean' },
+  help: { type: 'boolean', short: 'h' },
+} as const;
+
+export async function main(argv: string[], io: Io = processIo): Promise<number> {
+  let parsed;
+  try {
+    parsed = parseArgs({ args: argv, options: { ...COMMON_OPTIONS, ...EXTRA_OPTIONS }, allowPositionals: true, strict: true });
+  } catch (err) {
+    io.err(`undertone: ${(err as Error).message}\n\n${USAGE}`);
+    return 2;
+  }
+  const flags = parsed.values as Flags;
+  const [command, folder, arg] = parsed.positionals;
+  if (flags.help || !command) {
+    (flags.help ? io.out : io.err)(USAGE);
+    return flags.help ? 0 : 2;
+  }
+  const needsFolder = ['index', 'ask', 'nearby', 'eval'];
+  if (!needsFolder.includes(command)) {
+    io.err(`undertone: unknown command "${command}"\n\n${USAGE}`);
+    return 2;
+  }
+  if (!folder) {
+    io.err(`undertone ${command}: missing <folder>\n\n${USAGE}`);
+    return 2;
+  }
+  try {
+    switch (command) {
+      case 'index':
+        return await indexCommand(folder, flags, io);
+      case 'ask':
+        return await askCommand(folder, arg, flags, io);
+      case 'nearby':
+        return await nearbyCommand(folder, arg, flags, io);
+      default:
+        return await evalCommand(folder, flags, io);
+    }
+  } catch (err) {
+    if (err instanceof UndertoneError) {
+      io.err(`undertone ${command}: ${err.message}`);
+      return 1;
+    }
+    throw err;
+  }
+}
