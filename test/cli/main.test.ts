@@ -1,0 +1,124 @@
+/**
+ * The command line end to end, on temporary folders built from real text: abstracts of the
+ * CRAN collection (../shared/corpora/cran) written out as files, plus odd files.
+ */
+import { mkdtempSync, readdirSync, rmSync, writeFileSync, mkdirSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { main } from '../../src/cli/main.js';
+import type { Io } from '../../src/cli/output.js';
+import { loadCollection, missingMessage } from '../helpers/shared.js';
+
+function capture(): Io & { stdout: string[]; stderr: string[] } {
+  const stdout: string[] = [];
+  const stderr: string[] = [];
+  return { stdout, stderr, out: (l) => stdout.push(l), err: (l) => stderr.push(l), errRaw: () => undefined, interactive: false };
+}
+
+const cran = loadCollection('cran');
+
+describe.skipIf(!cran)(`undertone command line ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+  let dir: string;
+  let folder: string;
+  let cache: string;
+  const run = async (...args: string[]) => {
+    const io = capture();
+    const code = await main([...args, '--cache-dir', cache], io);
+    return { code, out: io.stdout.join('\n'), err: io.stderr.join('\n') };
+  };
+
+  beforeAll(() => {
+    dir = mkdtempSync(join(tmpdir(), 'undertone-cli-'));
+    folder = join(dir, 'ws');
+    cache = join(dir, 'cache');
+    mkdirSync(join(folder, 'notes'), { recursive: true });
+    for (const d of cran!.docs.slice(0, 150)) writeFileSync(join(folder, 'notes', `${d.id}.md`), d.text);
+    writeFileSync(join(folder, 'blob.bin'), Buffer.from([1, 2, 0, 3, 4]));
+    writeFileSync(join(folder, 'empty.txt'), '');
+    mkdirSync(join(folder, 'node_modules', 'x'), { recursive: true });
+    writeFileSync(join(folder, 'node_modules', 'x', 'index.js'), 'boundary layer flow');
+  });
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  it('builds, then finds the index up to date, then re-reads only a changed file', async () => {
+    const first = await run('index', folder);
+    expect(first.code).toBe(0);
+    expect(first.err).toMatch(/built index \(read 151 files/);
+    expect(first.err).toMatch(/k=\d+/);
+    const second = await run('index', folder);
+    expect(second.err).toMatch(/index up to date: 151 files/);
+    writeFileSync(join(folder, 'notes', '7.md'), `${cran!.docs[6].text} shock waves in hypersonic flow`);
+    const third = await run('index', folder);
+    expect(third.err).toMatch(/0 added, 1 changed, 0 removed, 150 reused/);
+  });
+
+  it('ranks files for plain text as a table and as JSON', async () => {
+    const target = cran!.docs[20];
+    const table = await run('ask', folder, target.text.slice(0, 120), '--top', '3');
+    expect(table.code).toBe(0);
+    const lines = table.out.split('\n');
+    expect(lines[0]).toMatch(/^rank\s+score\s+path$/);
+    expect(lines.length).toBe(5);
+    expect(table.out).toContain(`notes/${target.id}.md`);
+    const json = await run('ask', folder, target.text.slice(0, 120), '--top', '2', '--json');
+    const parsed = JSON.parse(json.out);
+    expect(parsed.results).toHaveLength(2);
+    expect(parsed.results[0].score).toBeGreaterThanOrEqual(parsed.results[1].score);
+  });
+
+  it('answers a batch of queries, one JSON line per query id', async () => {
+    const qfile = join(dir, 'q.jsonl');
+    writeFileSync(qfile, [JSON.stringify({ id: 'a', text: 'boundary layer' }), JSON.stringify({ id: 7, text: 'zzqq' })].join('\n'));
+    const res = await run('ask', folder, '--queries', qfile, '--top', '4');
+    const lines = res.out.split('\n').map((l) => JSON.parse(l));
+    expect(lines[0].id).toBe('a');
+    expect(lines[0].results).toHaveLength(4);
+    expect(lines[1]).toEqual({ id: 7, results: [], note: 'no known words' });
+  });
+
+  it('lists the nearest files of a file, never the file itself', async () => {
+    const res = await run('nearby', folder, 'notes/12.md', '--top', '5', '--json');
+    const parsed = JSON.parse(res.out);
+    expect(parsed.results).toHaveLength(5);
+    expect(parsed.results.map((r: { path: string }) => r.path)).not.toContain('notes/12.md');
+  });
+
+  it('gives clear messages and non-zero exits for bad input', async () => {
+    const missing = await run('index', join(dir, 'nope'));
+    expect(missing.code).toBe(1);
+    expect(missing.err).toMatch(/does not exist/);
+    const unknown = await run('ask', folder, 'qqqzz xxyyzz');
+    expect(unknown.code).toBe(1);
+    expect(unknown.err).toMatch(/None of the words/);
+    const notIndexed = await run('nearby', folder, 'blob.bin');
+    expect(notIndexed.code).toBe(1);
+    expect(notIndexed.err).toMatch(/not in the index/);
+    const usage = await run('frobnicate', folder);
+    expect(usage.code).toBe(2);
+    const empty = join(dir, 'empty-folder');
+    mkdirSync(empty);
+    const nothing = await run('index', empty);
+    expect(nothing.code).toBe(1);
+    expect(nothing.err).toMatch(/Nothing indexable/);
+  });
+
+  it('clamps a k larger than the collection allows, with a note', async () => {
+    const res = await run('ask', folder, 'boundary layer', '--k', '5000', '--top', '1');
+    expect(res.code).toBe(0);
+    expect(res.err).toMatch(/k=5000 is more than this collection allows; using k=151/);
+  });
+
+  it('rebuilds a damaged saved index instead of trusting it', async () => {
+    await run('index', folder);
+    const sub = readdirSync(cache)[0];
+    const file = join(cache, sub, 'index.undertone');
+    const bytes = readFileSync(file);
+    bytes[bytes.length - 50] ^= 0xff;
+    writeFileSync(file, bytes);
+    const res = await run('index', folder);
+    expect(res.code).toBe(0);
+    expect(res.err).toMatch(/could not be used \(index payload fails its checksum/);
+    expect(res.err).toMatch(/built index/);
+  });
+});
