@@ -1,5 +1,5 @@
 /**
- * Test fixtures for the look-alike tests: real abstracts from ../shared/corpora and seeded
+ * Test fixtures for the look-alike tests: random key sets with an exact Jaccard, real abstracts from ../shared/corpora and seeded
  * mutations of them (word swaps, deleted and inserted sentences, reordered paragraphs), plus an
  * independent brute-force shingle Jaccard written from the definition (string shingles, JS Sets
  * turned into sorted id lists), sharing no code with src/core/lookalike.
@@ -127,4 +127,15 @@ export function bruteForcePairs(texts: readonly string[], w: number, threshold: 
     }
   }
   return found;
+}
+
+/** Two sets of distinct random 32-bit keys with |A ∪ B| = union and |A ∩ B| = common (exact Jaccard common/union). */
+export function setPairWithJaccard(union: number, common: number, rng: RandomSource): [Uint32Array, Uint32Array] {
+  const keys = new Set<number>();
+  while (keys.size < union) keys.add(rng.nextUint32());
+  const all = [...keys];
+  const only = (union - common) / 2;
+  const a = all.slice(0, common + only);
+  const b = [...all.slice(0, common), ...all.slice(common + only)];
+  return [Uint32Array.from(a).sort(), Uint32Array.from(b).sort()];
 }

@@ -1,0 +1,56 @@
+import { describe, expect, it } from 'vitest';
+import { createMinHasher, estimateJaccard, multiplyAddShift } from '../../../src/core/lookalike/minhash.js';
+import { createRandom } from '../../../src/core/random.js';
+import { setPairWithJaccard } from './corpusFixtures.js';
+
+describe('multiplyAddShift', () => {
+  it('equals ⌊((a·x + b) mod 2⁶⁴) / 2³²⌋ computed with BigInt', () => {
+    // Reference: exact integer arithmetic (JavaScript BigInt) on the family's definition.
+    const rng = createRandom(5);
+    const edge = [0, 1, 0xffff, 0x10000, 0x7fffffff, 0x80000000, 0xffffffff];
+    for (let t = 0; t < 3000; t++) {
+      const pickWord = (): number => (t < 343 ? edge[Math.floor(rng.next() * edge.length)] : rng.nextUint32());
+      const [aHi, aLo, bHi, bLo, x] = [pickWord(), pickWord(), pickWord(), pickWord(), pickWord()];
+      const a = (BigInt(aHi) << 32n) | BigInt(aLo);
+      const b = (BigInt(bHi) << 32n) | BigInt(bLo);
+      const expected = Number((((a * BigInt(x) + b) & ((1n << 64n) - 1n)) >> 32n));
+      expect(multiplyAddShift(aHi, aLo, bHi, bLo, x)).toBe(expected);
+    }
+  });
+});
+
+describe('createMinHasher', () => {
+  it('gives the same signature for the same seed and set, and another for another seed', () => {
+    const [a] = setPairWithJaccard(200, 100, createRandom(1));
+    expect(createMinHasher(64, 9).signature(a)).toEqual(createMinHasher(64, 9).signature(a));
+    expect(createMinHasher(64, 10).signature(a)).not.toEqual(createMinHasher(64, 9).signature(a));
+  });
+
+  it('refuses an empty set and a non-positive size', () => {
+    expect(() => createMinHasher(8, 1).signature(new Uint32Array(0))).toThrow(/empty set/);
+    expect(() => createMinHasher(0, 1)).toThrow(/positive/);
+  });
+
+  // Broder 1997: each MinHash entry matches with probability J, so the estimate from K entries is
+  // unbiased with standard error √(J(1−J)/K) (binomial; methods.md §5: 0.035 at K = 128, J = 0.8).
+  // Tolerances: mean within 4 standard errors of the mean over T trials; the sample standard
+  // deviation within ±20 % of √(J(1−J)/K) (its own relative error is ≈ 1/√(2T) = 5 % at T = 200).
+  it.each([0.2, 0.5, 0.8, 0.95])('estimates J = %s without bias and with standard error √(J(1−J)/K)', (j) => {
+    const K = 128;
+    const T = 200;
+    const union = 400;
+    const rng = createRandom(Math.round(j * 1000));
+    const estimates: number[] = [];
+    for (let t = 0; t < T; t++) {
+      const [a, b] = setPairWithJaccard(union, Math.round(j * union), rng);
+      const hasher = createMinHasher(K, 1000 + t);
+      estimates.push(estimateJaccard(hasher.signature(a), hasher.signature(b)));
+    }
+    const mean = estimates.reduce((s, e) => s + e, 0) / T;
+    const sd = Math.sqrt(estimates.reduce((s, e) => s + (e - mean) ** 2, 0) / (T - 1));
+    const se = Math.sqrt((j * (1 - j)) / K);
+    expect(Math.abs(mean - j)).toBeLessThan((4 * se) / Math.sqrt(T));
+    expect(sd / se).toBeGreaterThan(0.8);
+    expect(sd / se).toBeLessThan(1.2);
+  });
+});

@@ -1,0 +1,42 @@
+import { describe, expect, it } from 'vitest';
+import { candidateProbability } from '../../../src/core/lookalike/banding.js';
+import { DEFAULT_LOOKALIKE_OPTIONS, resolveLookalikeOptions } from '../../../src/core/lookalike/options.js';
+import { hyperplaneAgreement } from '../../../src/core/lookalike/simhash.js';
+import { InvalidInputError } from '../../../src/core/errors.js';
+
+describe('DEFAULT_LOOKALIKE_OPTIONS', () => {
+  it('uses the methods.md §8.11 settings: 5-gram shingles, K = 128, b = 16 × r = 8, J ≥ 0.8', () => {
+    const o = DEFAULT_LOOKALIKE_OPTIONS;
+    expect([o.shingleSize, o.numHashes, o.bands, o.threshold]).toEqual([5, 128, 16, 0.8]);
+    // With these, a pair at the threshold is a candidate with probability ≈ 0.95 (methods.md §5 table).
+    expect(candidateProbability(o.threshold, o.bands, o.numHashes / o.bands)).toBeGreaterThan(0.94);
+  });
+
+  it('makes a paraphrase at the threshold a SimHash candidate with probability ≥ 0.99', () => {
+    // Charikar 2002: per-bit agreement 1 − θ/π; banding formula from MMDS ch. 3.
+    const o = DEFAULT_LOOKALIKE_OPTIONS;
+    const p = candidateProbability(hyperplaneAgreement(o.paraphraseThreshold), o.simhashBands, o.simhashBitsPerBand);
+    expect(p).toBeGreaterThanOrEqual(0.99);
+    // …while unrelated vectors (cosine 0.3) rarely are.
+    expect(candidateProbability(hyperplaneAgreement(0.3), o.simhashBands, o.simhashBitsPerBand)).toBeLessThan(0.01);
+  });
+});
+
+describe('resolveLookalikeOptions', () => {
+  it('merges partial options over the defaults', () => {
+    expect(resolveLookalikeOptions({ threshold: 0.9 })).toEqual({ ...DEFAULT_LOOKALIKE_OPTIONS, threshold: 0.9 });
+  });
+
+  it.each([
+    [{ bands: 15 }, /divide/],
+    [{ threshold: 0 }, /threshold/],
+    [{ threshold: 1.5 }, /threshold/],
+    [{ shingleSize: 2.5 }, /shingleSize/],
+    [{ maxBucketSize: 1 }, /maxBucketSize/],
+    [{ simhashBitsPerBand: 40 }, /simhashBitsPerBand/],
+    [{ paraphraseAllPairsLimit: -1 }, /paraphraseAllPairsLimit/],
+  ])('rejects %j with a clear message', (bad, message) => {
+    expect(() => resolveLookalikeOptions(bad)).toThrow(InvalidInputError);
+    expect(() => resolveLookalikeOptions(bad)).toThrow(message);
+  });
+});
