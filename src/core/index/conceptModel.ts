@@ -59,29 +59,10 @@ export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, 
   if (m === 0) throw new EmptyCorpusError('The files contain no indexable words.');
   progress.onProgress?.('weighting', 0, 1);
   const weights = globalWeights(docs, pruned.columnOf, m, settings.weighting);
-  // Document-major weighted matrix (the transpose of the term-document matrix A).
-  const rowsIdx: Int32Array[] = [];
-  const rowsVal: Float64Array[] = [];
-  let nnz = 0;
-  for (const d of docs) {
-    const w = weightDocument(d, pruned.columnOf, weights, settings.weighting);
-    rowsIdx.push(w.columns);
-    rowsVal.push(w.values);
-    nnz += w.columns.length;
-  }
+  const { matrix, frobeniusSquared: frob } = weightedMatrix(docs, pruned.columnOf, weights, settings.weighting);
+  const { indptr } = matrix;
+  const nnz = matrix.indices.length;
   if (nnz === 0) throw new EmptyCorpusError('After weighting, no file has an indexable word.');
-  const indptr = new Int32Array(docs.length + 1);
-  const indices = new Int32Array(nnz);
-  const values = new Float64Array(nnz);
-  let frob = 0;
-  for (let i = 0, p = 0; i < docs.length; i++) {
-    indices.set(rowsIdx[i], p);
-    values.set(rowsVal[i], p);
-    p += rowsIdx[i].length;
-    indptr[i + 1] = p;
-    for (const v of rowsVal[i]) frob += v * v;
-  }
-  const matrix: CsrMatrix = { rows: docs.length, cols: m, indptr, indices, values };
   progress.onProgress?.('weighting', 1, 1);
   if (progress.signal?.aborted) throw new CancelledError();
 
@@ -121,6 +102,44 @@ export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, 
     pruneRelaxed: pruned.relaxed,
     nonZeros: nnz,
   };
+}
+
+/**
+ * The weighted, document-normalised matrix in document-major CSR form (row i = document i,
+ * column c = model column c): the transpose of the term-document matrix A.
+ */
+export function weightedMatrix(
+  docs: readonly DocTerms[],
+  columnOf: Int32Array,
+  weights: Float64Array,
+  scheme: WeightingScheme,
+): { matrix: CsrMatrix; frobeniusSquared: number } {
+  const rowsIdx: Int32Array[] = [];
+  const rowsVal: Float64Array[] = [];
+  let nnz = 0;
+  for (const d of docs) {
+    const w = weightDocument(d, columnOf, weights, scheme);
+    rowsIdx.push(w.columns);
+    rowsVal.push(w.values);
+    nnz += w.columns.length;
+  }
+  const indptr = new Int32Array(docs.length + 1);
+  const indices = new Int32Array(nnz);
+  const values = new Float64Array(nnz);
+  let frob = 0;
+  for (let i = 0, p = 0; i < docs.length; i++) {
+    indices.set(rowsIdx[i], p);
+    values.set(rowsVal[i], p);
+    p += rowsIdx[i].length;
+    indptr[i + 1] = p;
+    for (const v of rowsVal[i]) frob += v * v;
+  }
+  return { matrix: { rows: docs.length, cols: weights.length, indptr, indices, values }, frobeniusSquared: frob };
+}
+
+/** The weighted matrix of an index's current documents under its frozen model (holes skipped). */
+export function modelMatrix(model: ConceptModel, docs: readonly DocTerms[]): CsrMatrix {
+  return weightedMatrix(docs, model.columnOf, model.weights, model.scheme).matrix;
 }
 
 /** Folds a document or query into the concept space with the model's frozen weights. */
