@@ -1,0 +1,262 @@
+/**
+ * What the index worker does: holds the workspace index and answers the protocol's requests
+ * (see protocol.ts). Builds run one at a time and swap in only once saved; edits that arrive
+ * during a build are applied to the index in use and replayed on the new one after the swap.
+ * Folded-in edits are saved a short while after the last one (and on request).
+ */
+import { rm, stat } from 'node:fs/promises';
+import { basename } from 'node:path';
+import { UndertoneError } from '../../core/errors.js';
+import type { LsiIndex } from '../../core/index/lsiIndex.js';
+import { modelSettingsKey, resolveSettings } from '../../core/index/settings.js';
+import { loadIndex, saveIndex } from '../persist.js';
+import { readIndexableText } from '../scan.js';
+import { bestMatchingLine } from './bestLine.js';
+import { FileAdmission } from './fileAdmission.js';
+import type { FileChange, IndexSummary, RefreshReport, UpdateReport, WorkerConfig } from './protocol.js';
+import { RootMap } from './rootMap.js';
+import type { HandlerContext, Handlers } from './server.js';
+import { buildWorkspaceIndex, scanWorkspace, type WorkspaceScan } from './workspaceIndexer.js';
+
+/** A request needs an index (or a configuration) that does not exist yet. */
+export class NoIndexError extends UndertoneError {}
+
+export interface IndexServiceOptions {
+  /** Milliseconds after the last folded edit before the index is saved (common practice). @default 2000 */
+  readonly saveDelayMs: number;
+}
+
+export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = { saveDelayMs: 2000 };
+
+export class IndexService {
+  private _config: WorkerConfig | undefined;
+  private _roots = new RootMap([]);
+  private _admission = new Map<string, FileAdmission>();
+  private _index: LsiIndex | undefined;
+  private _dirty = false;
+  private _saveTimer: ReturnType<typeof setTimeout> | undefined;
+  private _build: Promise<unknown> = Promise.resolve();
+  private _duringBuild: FileChange[] | undefined;
+  private readonly _options: IndexServiceOptions;
+
+  constructor(options: Partial<IndexServiceOptions> = {}) {
+    this._options = { ...DEFAULT_INDEX_SERVICE_OPTIONS, ...options };
+  }
+
+  get index(): LsiIndex | undefined {
+    return this._index;
+  }
+
+  handlers(): Handlers {
+    return {
+      configure: async ({ config }) => this.configure(config),
+      load: async () => this.load(),
+      refresh: async ({ maxFoldShare }) => this.refresh(maxFoldShare),
+      build: async (_p, ctx) => this.build(ctx),
+      update: async ({ changes }) => this.update(changes),
+      search: async ({ query, top }) => this.search(query, top),
+      nearby: async ({ fsPath, top }) => this.nearby(fsPath, top),
+      save: async () => ({ saved: await this.save() }),
+      deleteIndex: async () => this.deleteIndex(),
+    };
+  }
+
+  configure(config: WorkerConfig): { modelChanged: boolean } {
+    this._config = config;
+    this._roots = new RootMap(config.roots);
+    this._admission = new Map(config.roots.map((r) => [r.name, new FileAdmission(r.path, { include: config.include, exclude: [...config.exclude, ...r.exclude], honourGitignore: config.honourGitignore })]));
+    const modelChanged = this._index !== undefined && modelSettingsKey(this._index.settings) !== modelSettingsKey(resolveSettings(config.settings));
+    return { modelChanged };
+  }
+
+  async load() {
+    const config = this.config();
+    const t0 = performance.now();
+    const loaded = await loadIndex(config.indexFile);
+    const ms = performance.now() - t0;
+    if (loaded.status === 'missing') return { outcome: 'missing' as const, summary: this.summary(), ms };
+    if (loaded.status === 'damaged') return { outcome: 'damaged' as const, reason: loaded.reason, summary: this.summary(), ms };
+    if (modelSettingsKey(loaded.index.settings) !== modelSettingsKey(resolveSettings(config.settings))) {
+      return { outcome: 'settings-changed' as const, summary: this.summary(), ms };
+    }
+    this._index = loaded.index;
+    this._dirty = false;
+    return { outcome: 'loaded' as const, summary: this.summary(), ms };
+  }
+
+  async refresh(maxFoldShare: number): Promise<RefreshReport> {
+    const config = this.config();
+    if (!this._index) return { summary: null, added: 0, changed: 0, removed: 0, tooManyChanges: false };
+    const scan = await scanWorkspace(this._roots, config);
+    return this.foldDifferences(scan, maxFoldShare, [], []);
+  }
+
+  async build(ctx: HandlerContext) {
+    const run = this._build.catch(() => undefined).then(() => this.buildNow(ctx));
+    this._build = run;
+    return run;
+  }
+
+  async update(changes: readonly FileChange[]): Promise<UpdateReport> {
+    const t0 = performance.now();
+    this._duringBuild?.push(...changes);
+    const folded: string[] = [];
+    const removed: string[] = [];
+    let rescan = false;
+    if (this._index) {
+      for (const change of changes) rescan = (await this.apply(this._index, change, folded, removed)) || rescan;
+      if (rescan) await this.foldDifferences(await scanWorkspace(this._roots, this.config()), Infinity, folded, removed);
+      if (folded.length + removed.length > 0) this.markDirty();
+    }
+    return { summary: this.summary(), folded, removed, ms: performance.now() - t0 };
+  }
+
+  async search(query: string, top: number) {
+    const index = this.requireIndex();
+    const hits = index.search(query, { top });
+    return Promise.all(
+      hits.map(async (h) => {
+        const ref = this._roots.refOf(h.path);
+        const got = await readIndexableText(ref.fsPath, this.config().maxFileBytes);
+        const line = got.kind === 'text' ? bestMatchingLine(got.text, index, query) : { line: 0, text: '' };
+        return { ...ref, score: h.score, line: line.line, lineText: line.text };
+      }),
+    );
+  }
+
+  nearby(fsPath: string, top: number) {
+    const key = this._roots.keyOf(fsPath);
+    if (!this._index || key === undefined || !this._index.has(key)) return null;
+    return this._index.nearby(key, { top }).map((h) => ({ ...this._roots.refOf(h.path), score: h.score }));
+  }
+
+  async save(): Promise<boolean> {
+    clearTimeout(this._saveTimer);
+    this._saveTimer = undefined;
+    if (!this._index || !this._dirty || !this._config || this._duringBuild) return false;
+    this._dirty = false;
+    await saveIndex(this._config.indexFile, this._index);
+    return true;
+  }
+
+  async deleteIndex(): Promise<{ deleted: boolean }> {
+    clearTimeout(this._saveTimer);
+    this._saveTimer = undefined;
+    this._index = undefined;
+    this._dirty = false;
+    const file = this.config().indexFile;
+    const existed = await stat(file).then(() => true, () => false);
+    await rm(file, { force: true });
+    return { deleted: existed };
+  }
+
+  summary(): IndexSummary | null {
+    const i = this._index;
+    return i ? { files: i.size, k: i.k, terms: i.model.keptIds.length, staleness: i.staleness() } : null;
+  }
+
+  private async buildNow(ctx: HandlerContext) {
+    const config = this.config();
+    this._duringBuild = [];
+    try {
+      const built = await buildWorkspaceIndex(this._roots, config, {
+        previous: this._index,
+        signal: ctx.signal,
+        isCancelled: ctx.isCancelled,
+        onProgress: ctx.progress,
+      });
+      ctx.progress({ stage: 'save', done: 0, total: 1 });
+      await saveIndex(config.indexFile, built.index);
+      this._index = built.index;
+      this._dirty = false;
+      const replay = this._duringBuild;
+      this._duringBuild = undefined;
+      if (replay.length > 0) await this.update(replay);
+      ctx.progress({ stage: 'save', done: 1, total: 1 });
+      return { summary: this.summary()!, read: built.read, reused: built.reused, skipped: built.skipped, seconds: built.seconds };
+    } finally {
+      this._duringBuild = undefined;
+    }
+  }
+
+  /** Applies one change to the index; true when the folders must be rescanned (a folder or .gitignore changed). */
+  private async apply(index: LsiIndex, change: FileChange, folded: string[], removed: string[]): Promise<boolean> {
+    const at = this._roots.locate(change.fsPath);
+    if (!at || at.rel === '') return false;
+    const key = this._roots.prefixOf(at.root) + at.rel;
+    const drop = (): void => {
+      for (const k of index.has(key) ? [key] : []) if (index.remove(k)) removed.push(k);
+      for (const k of index.paths()) if (k.startsWith(`${key}/`) && index.remove(k)) removed.push(k);
+    };
+    if (change.kind === 'deleted') {
+      drop();
+      return false;
+    }
+    const st = await stat(change.fsPath).catch(() => undefined);
+    if (!st) {
+      drop();
+      return false;
+    }
+    if (st.isDirectory()) return true;
+    const rescan = basename(change.fsPath) === '.gitignore';
+    if (rescan) this._admission.get(at.root.name)?.forget();
+    const config = this.config();
+    const admitted = st.isFile() && st.size <= config.maxFileBytes && (await this._admission.get(at.root.name)!.admits(at.rel));
+    const old = index.meta(key);
+    if (!admitted) {
+      if (old && index.remove(key)) removed.push(key);
+      return rescan;
+    }
+    if (old && old.size === st.size && old.mtimeMs === st.mtimeMs) return rescan;
+    const got = await readIndexableText(change.fsPath, config.maxFileBytes);
+    if (got.kind === 'text') {
+      index.foldIn({ path: key, size: st.size, mtimeMs: st.mtimeMs }, got.text);
+      folded.push(key);
+    } else if (old && index.remove(key)) removed.push(key);
+    return rescan;
+  }
+
+  /** Folds in what a scan shows changed since the index saw it (unless it is more than maxFoldShare of the files). */
+  private async foldDifferences(scan: WorkspaceScan, maxFoldShare: number, folded: string[], removed: string[]): Promise<RefreshReport> {
+    const index = this._index!;
+    const present = new Set<string>();
+    const stale = scan.files.filter((f) => {
+      present.add(f.key);
+      const m = index.meta(f.key);
+      return !m || m.size !== f.size || m.mtimeMs !== f.mtimeMs;
+    });
+    const gone = index.paths().filter((k) => !present.has(k));
+    const added = stale.filter((f) => !index.has(f.key)).length;
+    const report = { added, changed: stale.length - added, removed: gone.length };
+    if (stale.length + gone.length > maxFoldShare * Math.max(1, index.size)) {
+      return { summary: this.summary(), ...report, tooManyChanges: true };
+    }
+    for (const k of gone) if (index.remove(k)) removed.push(k);
+    for (const f of stale) {
+      const got = await readIndexableText(f.absPath, this.config().maxFileBytes);
+      if (got.kind === 'text') {
+        index.foldIn({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.text);
+        folded.push(f.key);
+      } else if (index.remove(f.key)) removed.push(f.key);
+    }
+    if (stale.length + gone.length > 0) this.markDirty();
+    return { summary: this.summary(), ...report, tooManyChanges: false };
+  }
+
+  private markDirty(): void {
+    this._dirty = true;
+    clearTimeout(this._saveTimer);
+    this._saveTimer = setTimeout(() => void this.save().catch(() => undefined), this._options.saveDelayMs);
+    this._saveTimer.unref?.();
+  }
+
+  private config(): WorkerConfig {
+    if (!this._config) throw new NoIndexError('The index worker has not been told which folders to index yet.');
+    return this._config;
+  }
+
+  private requireIndex(): LsiIndex {
+    if (!this._index) throw new NoIndexError('There is no index yet: build it first.');
+    return this._index;
+  }
+}

@@ -1,0 +1,49 @@
+import { describe, expect, it } from 'vitest';
+import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { bestMatchingLine, MAX_LINE_CHARS } from '../../../src/node/worker/bestLine.js';
+import { loadCollection, missingMessage } from '../../helpers/shared.js';
+
+// Real text: CISI (../shared/corpora/cisi, 1460 library-science abstracts) gives the vocabulary,
+// idf and concept space the line scores are measured in.
+const cisi = loadCollection('cisi');
+
+describe.skipIf(!cisi)(`bestMatchingLine ${cisi ? '' : missingMessage('corpora/cisi')}`, () => {
+  const b = new IndexBuilder();
+  for (const d of cisi!.docs.slice(0, 600)) b.addText({ path: d.id, size: 0, mtimeMs: 0 }, d.text);
+  const index = b.build();
+
+  it('picks the line that holds the query words, not the first or the longest line', () => {
+    const file = [
+      '# Notes',
+      '',
+      'The library opened a new reading room for students and staff this year.',
+      'Citation indexing lets a reader follow references forward in time.',
+      'Opening hours are posted at the front desk.',
+    ].join('\n');
+    expect(bestMatchingLine(file, index, 'citation indexing of references')).toEqual({
+      line: 3,
+      text: 'Citation indexing lets a reader follow references forward in time.',
+    });
+  });
+
+  it('prefers a rare shared word over a common one (idf weighting)', () => {
+    // "thesaurus" is far rarer than "information" in CISI, so its line should win.
+    const bm25 = index.bm25();
+    const id = (w: string) => index.queryTerms(w).termIds[0];
+    expect(bm25.idf(id('thesaurus'))).toBeGreaterThan(bm25.idf(id('information')));
+    const file = 'Information is everywhere in this building.\nA thesaurus was compiled last spring.';
+    expect(bestMatchingLine(file, index, 'information thesaurus').line).toBe(1);
+  });
+
+  it('falls back to the first non-blank line when no line relates to the query', () => {
+    const file = '\n\n   \n12 34\n--';
+    expect(bestMatchingLine(file, index, 'citation analysis').line).toBe(3);
+  });
+
+  it('shortens very long lines', () => {
+    const long = `citation ${'analysis '.repeat(60)}`;
+    const got = bestMatchingLine(long, index, 'citation analysis');
+    expect(got.text.length).toBe(MAX_LINE_CHARS);
+    expect(got.text.endsWith('…')).toBe(true);
+  });
+});
