@@ -8,15 +8,19 @@
  *
  * Work: one hash-map pass per band (O(n·b)), plus the pairs inside shared buckets.
  * Giant buckets: a bucket holding more than maxBucketSize items (default 100; common practice,
- * our choice) does not emit all of its m(m−1)/2 pairs. Its members are sorted by their whole
- * signature (lexicographic) and each is paired only with the next maxBucketSize − 1 members in that
- * order (the "sorted neighbourhood" idea of Hernández & Stolfo 1995, from memory). Work stays
- * O(m · maxBucketSize); similar members sit close in that order, so union-find still joins them
- * through chains, but such a bucket's pair list is partial. Exact copies never get here: they
- * are grouped by content hash first and only one copy is banded.
+ * our choice) does not emit all of its m(m−1)/2 pairs. Its members are ordered by their whole
+ * signature (lexicographic, one global order shared by all bands) and each is paired only with the
+ * next CAPPED_NEIGHBOURS (10, our choice) members in that order: the "sorted neighbourhood" idea of
+ * Hernández & Stolfo 1995 (from memory). Work stays O(m · 10) per band; members with similar
+ * signatures sit close in that order, so union-find still joins them through chains, but such a
+ * bucket's pair list is partial. Exact copies never get here: they are grouped by content hash
+ * first and only one copy is banded.
  */
 import { InvalidInputError } from '../errors.js';
 import { murmur3Words32 } from './murmur3.js';
+
+/** Neighbours each member of an over-full bucket is paired with (sorted-neighbourhood window). */
+export const CAPPED_NEIGHBOURS = 10;
 
 export interface BandingParams {
   readonly bands: number;
@@ -62,12 +66,20 @@ export function bandCandidates(signatures: Uint32Array, items: number, width: nu
     left.push(lo);
     right.push(hi);
   };
-  const compareSignatures = (i: number, j: number): number => {
-    for (let c = 0; c < width; c++) {
-      const d = signatures[i * width + c] - signatures[j * width + c];
-      if (d !== 0) return d;
-    }
-    return i - j;
+  // Global lexicographic rank of every signature, computed the first time a bucket is capped.
+  let rank: Int32Array | null = null;
+  const rankOf = (): Int32Array => {
+    if (rank) return rank;
+    const order = Array.from({ length: items }, (_, i) => i).sort((i, j) => {
+      for (let c = 0; c < width; c++) {
+        const d = signatures[i * width + c] - signatures[j * width + c];
+        if (d !== 0) return d;
+      }
+      return i - j;
+    });
+    rank = new Int32Array(items);
+    order.forEach((item, r) => ((rank as Int32Array)[item] = r));
+    return rank;
   };
 
   const bucketOf = new Int32Array(items);
@@ -103,9 +115,10 @@ export function bandCandidates(signatures: Uint32Array, items: number, width: nu
         continue;
       }
       cappedBuckets++;
-      const order = Array.from(members.subarray(from, from + size)).sort(compareSignatures);
+      const r = rankOf();
+      const order = Array.from(members.subarray(from, from + size)).sort((i, j) => r[i] - r[j]);
       for (let p = 0; p < size; p++) {
-        for (let q = p + 1; q < Math.min(size, p + maxBucketSize); q++) add(order[p], order[q]);
+        for (let q = p + 1; q <= Math.min(size - 1, p + CAPPED_NEIGHBOURS); q++) add(order[p], order[q]);
       }
     }
   }

@@ -101,13 +101,20 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     const sharedLines = sharedLineCount(linesOf(fa), linesOf(fb));
     return { a: files[fa].id, b: files[fb].id, similarity: e.similarity, jaccard: e.jaccard, sharedLines };
   };
-  const groupsOf = (uf: UnionFind, list: Edge[]): LookalikeGroup[] =>
-    uf.components().map((component) => {
-      const root = uf.find(component[0]);
+  const groupsOf = (uf: UnionFind, list: Edge[]): LookalikeGroup[] => {
+    const edgesByRoot = new Map<number, Edge[]>();
+    for (const e of list) {
+      const root = uf.find(e.a);
+      const bucket = edgesByRoot.get(root);
+      if (bucket) bucket.push(e);
+      else edgesByRoot.set(root, [e]);
+    }
+    return uf.components().map((component) => {
       const members = component.flatMap((t) => copiesOf.get(shingled[t]) ?? [shingled[t]]).sort((x, y) => x - y);
-      const pairs = list.filter((e) => uf.find(e.a) === root).sort((x, y) => x.a - y.a || x.b - y.b);
+      const pairs = (edgesByRoot.get(uf.find(component[0])) ?? []).sort((x, y) => x.a - y.a || x.b - y.b);
       return { files: members.map((i) => files[i].id), pairs: pairs.map(pairOf) };
     });
+  };
   const nearGroups = bySize(groupsOf(near, edges));
 
   // 4. Paraphrases among the shingled representatives.

@@ -50,26 +50,26 @@ export function createMinHasher(numHashes: number, seed: number): MinHasher {
     bHi[i] = rng.nextUint32();
     bLo[i] = rng.nextUint32();
   }
-  const mins = new Float64Array(numHashes);
-
   const signature = (keys: Uint32Array, out?: Uint32Array, offset = 0): Uint32Array => {
     if (keys.length === 0) throw new InvalidInputError('MinHash of an empty set is undefined');
     const dest = out ?? new Uint32Array(numHashes);
-    mins.fill(4294967296);
-    for (let s = 0; s < keys.length; s++) {
-      const x = keys[s];
-      const xh = x >>> 16;
-      const xl = x & 0xffff;
-      for (let i = 0; i < numHashes; i++) {
-        const lo = aLo[i];
-        const p1 = lo * xh;
+    // Permutation-major loop: the four constants and the running minimum stay in registers.
+    for (let i = 0; i < numHashes; i++) {
+      const lo = aLo[i];
+      const hi = aHi[i];
+      const bl = bLo[i];
+      const bh = bHi[i];
+      let best = 4294967296;
+      for (let s = 0; s < keys.length; s++) {
+        const x = keys[s];
+        const p1 = lo * (x >>> 16);
         const p1h = Math.floor(p1 * INV16);
-        const low = lo * xl + (p1 - p1h * TWO16) * TWO16 + bLo[i];
-        const h = (Math.floor(low * INV32) + p1h + Math.imul(aHi[i], x) + bHi[i]) >>> 0;
-        if (h < mins[i]) mins[i] = h;
+        const low = lo * (x & 0xffff) + (p1 - p1h * TWO16) * TWO16 + bl;
+        const h = (Math.floor(low * INV32) + p1h + Math.imul(hi, x) + bh) >>> 0;
+        if (h < best) best = h;
       }
+      dest[offset + i] = best;
     }
-    for (let i = 0; i < numHashes; i++) dest[offset + i] = mins[i];
     return dest;
   };
   return { numHashes, signature };

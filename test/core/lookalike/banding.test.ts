@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { bandCandidates, candidateProbability } from '../../../src/core/lookalike/banding.js';
+import { CAPPED_NEIGHBOURS, bandCandidates, candidateProbability } from '../../../src/core/lookalike/banding.js';
 import { createMinHasher } from '../../../src/core/lookalike/minhash.js';
 import { UnionFind } from '../../../src/core/lookalike/unionFind.js';
 import { createRandom } from '../../../src/core/random.js';
@@ -93,8 +93,9 @@ describe('bandCandidates', () => {
     const width = 16;
     const sig = new Uint32Array(items * width).fill(42); // one bucket of 300 in every band
     const cand = bandCandidates(sig, items, width, { bands: 4, rows: 4, maxBucketSize: 10 });
-    // Each member pairs with its next 9 in order: Σ min(9, 299 − p) = 9·291 + (8 + … + 0) = 2655.
-    expect(cand.count).toBe(2655);
+    // Each member pairs with its next CAPPED_NEIGHBOURS = 10 in order: Σ min(10, 299 − p) = 10·290 + (9 + … + 0) = 2945.
+    expect(CAPPED_NEIGHBOURS).toBe(10);
+    expect(cand.count).toBe(2945);
     expect(cand.cappedBuckets).toBe(4);
     const uf = new UnionFind(items);
     for (let c = 0; c < cand.count; c++) uf.union(cand.left[c], cand.right[c]);

@@ -74,6 +74,21 @@ describe('findLookalikes: awkward input', () => {
     expect(r.nearGroups).toEqual([]);
   });
 
+  it('caps the giant LSH bucket of 1500 templated files and still returns them as one group', () => {
+    // Every file is the same 96-token note plus one line naming its own number: all pairs are
+    // near-copies (J ≈ 0.9), so all 1500 land in one bucket per band (banding.ts cap strategy).
+    const body = note(21);
+    const files = Array.from({ length: 1500 }, (_, i) => ({ id: `stations/${i}.md`, text: `${body}\nstation ${i}` }));
+    const r = findLookalikes({ files });
+    expect(r.stats.cappedBuckets).toBeGreaterThan(0);
+    // At most bands · m · CAPPED_NEIGHBOURS = 16 · 1500 · 10 = 240 000; all pairs would be m²/2 ≈ 1.1·10⁶.
+    expect(r.stats.candidates).toBeLessThanOrEqual(16 * 1500 * 10);
+    expect(r.nearGroups).toHaveLength(1);
+    expect(r.nearGroups[0].files).toHaveLength(1500);
+    const [i, j] = [r.nearGroups[0].pairs[0].a, r.nearGroups[0].pairs[0].b].map((id) => Number(id.replace(/\D/g, '')));
+    expect(r.nearGroups[0].pairs[0].similarity).toBeCloseTo(referenceJaccard(files[i].text, files[j].text), 12);
+  });
+
   it('rejects duplicate ids, malformed files and misaligned concept vectors', () => {
     expect(() => findLookalikes({ files: [{ id: 'x', text: 'a' }, { id: 'x', text: 'b' }] })).toThrow(/more than once/);
     expect(() => findLookalikes({ files: [{ id: 'x', text: 3 as unknown as string }] })).toThrow(InvalidInputError);
