@@ -87,3 +87,9 @@ const full = time('findLookalikes (with concept vectors)', () => findLookalikes(
 console.log('stats (no vectors):', JSON.stringify(plain.stats));
 console.log('stats (vectors):   ', JSON.stringify(full.stats));
 console.log(`exact groups ${plain.exactGroups.length}, near groups ${plain.nearGroups.length}`);
+const same = Array.from({ length: 3000 }, (_, i) => ({ id: `same/${i}.md`, text: files[20].text || freshText() }));
+time('findLookalikes (3000 identical files)', () => findLookalikes({ files: same }));
+const body = freshText();
+const templated = Array.from({ length: 3000 }, (_, i) => ({ id: `tpl/${i}.md`, text: `${body}\nitem ${i}` }));
+const tpl = time('findLookalikes (3000 templated near-copies)', () => findLookalikes({ files: templated }));
+console.log('stats (templated):', JSON.stringify(tpl.stats));

@@ -74,17 +74,17 @@ describe('findLookalikes: awkward input', () => {
     expect(r.nearGroups).toEqual([]);
   });
 
-  it('caps the giant LSH bucket of 1500 templated files and still returns them as one group', () => {
+  it('caps the giant LSH bucket of 1000 templated files and still returns them as one group', () => {
     // Every file is the same 96-token note plus one line naming its own number: all pairs are
-    // near-copies (J ≈ 0.9), so all 1500 land in one bucket per band (banding.ts cap strategy).
+    // near-copies (J ≈ 0.9), so all 1000 land in one bucket per band (banding.ts cap strategy).
     const body = note(21);
-    const files = Array.from({ length: 1500 }, (_, i) => ({ id: `stations/${i}.md`, text: `${body}\nstation ${i}` }));
+    const files = Array.from({ length: 1000 }, (_, i) => ({ id: `stations/${i}.md`, text: `${body}\nstation ${i}` }));
     const r = findLookalikes({ files });
     expect(r.stats.cappedBuckets).toBeGreaterThan(0);
-    // At most bands · m · CAPPED_NEIGHBOURS = 16 · 1500 · 10 = 240 000; all pairs would be m²/2 ≈ 1.1·10⁶.
-    expect(r.stats.candidates).toBeLessThanOrEqual(16 * 1500 * 10);
+    // At most bands · m · CAPPED_NEIGHBOURS = 16 · 1000 · 10 = 160 000; all pairs would be m²/2 ≈ 5·10⁵.
+    expect(r.stats.candidates).toBeLessThanOrEqual(16 * 1000 * 10);
     expect(r.nearGroups).toHaveLength(1);
-    expect(r.nearGroups[0].files).toHaveLength(1500);
+    expect(r.nearGroups[0].files).toHaveLength(1000);
     const [i, j] = [r.nearGroups[0].pairs[0].a, r.nearGroups[0].pairs[0].b].map((id) => Number(id.replace(/\D/g, '')));
     expect(r.nearGroups[0].pairs[0].similarity).toBeCloseTo(referenceJaccard(files[i].text, files[j].text), 12);
   });
