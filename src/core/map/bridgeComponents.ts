@@ -2,29 +2,33 @@
  * Joining the parts of a disconnected neighbour graph, so every file has a finite geodesic
  * distance to every landmark. Choice (documented for the map): instead of laying out each part on
  * its own and packing the pieces, we add "bridge" edges between parts, Borůvka style: each round,
- * every part links to its closest point outside itself, until one part remains. A bridge's
- * length is its true distance times lengthScale, so well-separated groups stay visibly apart.
+ * every part links to (approximately) its closest point outside itself, until one part remains.
+ * A bridge is as long as the gap it spans (times lengthScale), so separate groups stay apart on
+ * the map by their true distance.
  *
- * Closest pair search per part: every member is scanned when the part has at most sampleSize
- * points (then the pair is exactly the closest one); larger parts scan a seeded sample of members
- * and then alternate "closest member to the outside point / closest outside point to the member"
- * a few times, a local search that cannot lengthen the pair. Cost per round is
- * O(Σ min(|C|, sampleSize) · n · dim), near-linear in n for a modest number of parts.
+ * Per round: each part contributes up to `sampleSize` seeded sample members as representatives;
+ * each part's samples are compared with all other parts' representatives to pick the partner part
+ * and a starting pair, which is then refined by alternating "closest member of this part to the
+ * partner point / closest partner member to this point" (a local search that never lengthens the
+ * pair). When every part has at most sampleSize members the pair found is exactly the closest
+ * pair. Cost per round O((Σ samples)²·dim + n·refineSteps·dim); parts at least halve per round.
  */
 import { type RandomSource } from '../random.js';
 import type { Components, ExtraEdge } from './neighbourGraph.js';
 import { rowDistance, type RowVectors } from './rowVectors.js';
 
 export interface BridgeOptions {
-  /** Members scanned per part before refinement. @default 32 (common practice) */
+  /** Sample members per part. @default 32 (common practice) */
   readonly sampleSize: number;
+  /** Budget on all representatives together; per-part samples shrink when parts are many. @default 4096 */
+  readonly maxRepresentatives: number;
   /** Alternating refinement steps. @default 4 (common practice) */
   readonly refineSteps: number;
-  /** Multiplier on a bridge's true distance. @default 1 (a bridge is as long as the gap it spans) */
+  /** Multiplier on a bridge's true distance. @default 1 */
   readonly lengthScale: number;
 }
 
-export const DEFAULT_BRIDGE_OPTIONS: BridgeOptions = { sampleSize: 32, refineSteps: 4, lengthScale: 1 };
+export const DEFAULT_BRIDGE_OPTIONS: BridgeOptions = { sampleSize: 32, maxRepresentatives: 4096, refineSteps: 4, lengthScale: 1 };
 
 export function bridgeComponents(
   v: RowVectors,
@@ -34,7 +38,6 @@ export function bridgeComponents(
   options: Partial<BridgeOptions> = {},
 ): ExtraEdge[] {
   const opts = { ...DEFAULT_BRIDGE_OPTIONS, ...options };
-  const n = v.n;
   const parent = Int32Array.from({ length: components.count }, (_, i) => i);
   const find = (x: number): number => {
     while (parent[x] !== x) {
@@ -45,24 +48,38 @@ export function bridgeComponents(
   };
   const edges: ExtraEdge[] = [];
   const seen = new Set<string>();
-  const part = new Int32Array(n);
   let parts = components.count;
   while (parts > 1) {
-    for (let i = 0; i < n; i++) part[i] = find(components.labels[i]);
-    const members = groupByPart(part, components.count);
+    const part = new Int32Array(v.n);
+    for (let i = 0; i < v.n; i++) part[i] = find(components.labels[i]);
+    const groups = [...groupByPart(part, components.count).values()];
+    const perPart = Math.max(1, Math.min(opts.sampleSize, Math.floor(opts.maxRepresentatives / groups.length)));
+    const samples = groups.map((members) => sampleOf(members, perPart, rng));
     const round: ExtraEdge[] = [];
-    for (const [root, list] of members) {
-      const pair = closestOutside(v, norms, part, root, list, rng, opts);
-      round.push(pair);
+    for (let g = 0; g < groups.length; g++) {
+      let a = -1;
+      let b = -1;
+      let partner = -1;
+      let d = Number.POSITIVE_INFINITY;
+      for (const x of samples[g]) {
+        for (let h = 0; h < groups.length; h++) {
+          if (h === g) continue;
+          for (const y of samples[h]) {
+            const dd = rowDistance(v, norms, x, y);
+            if (dd < d) [a, b, partner, d] = [x, y, h, dd];
+          }
+        }
+      }
+      round.push(refine(v, norms, groups[g], groups[partner], a, b, d, opts.refineSteps));
     }
     for (const e of round) {
       const key = e.a < e.b ? `${e.a}:${e.b}` : `${e.b}:${e.a}`;
-      const ra = find(part[e.a]);
-      const rb = find(part[e.b]);
       if (!seen.has(key)) {
         seen.add(key);
         edges.push({ a: e.a, b: e.b, length: e.length * opts.lengthScale });
       }
+      const ra = find(part[e.a]);
+      const rb = find(part[e.b]);
       if (ra !== rb) {
         parent[Math.max(ra, rb)] = Math.min(ra, rb);
         parts--;
@@ -70,6 +87,40 @@ export function bridgeComponents(
     }
   }
   return edges;
+}
+
+/** Alternate nearest-member searches between two parts, starting from pair (a, b). */
+function refine(v: RowVectors, norms: Float64Array, own: Int32Array, other: Int32Array, a: number, b: number, d: number, steps: number): ExtraEdge {
+  for (let s = 0; s < steps; s++) {
+    const [a2] = nearestIn(v, norms, own, b);
+    const [b2, d2] = nearestIn(v, norms, other, a2);
+    if (a2 === a && b2 === b) break;
+    if (!(d2 < d)) break;
+    [a, b, d] = [a2, b2, d2];
+  }
+  return { a, b, length: d };
+}
+
+function nearestIn(v: RowVectors, norms: Float64Array, members: Int32Array, q: number): [number, number] {
+  let best = -1;
+  let bestD = Number.POSITIVE_INFINITY;
+  for (let t = 0; t < members.length; t++) {
+    const d = rowDistance(v, norms, members[t], q);
+    if (d < bestD) [best, bestD] = [members[t], d];
+  }
+  return [best, bestD];
+}
+
+function sampleOf(members: Int32Array, count: number, rng: RandomSource): Int32Array {
+  if (members.length <= count) return members;
+  const copy = members.slice();
+  for (let t = 0; t < count; t++) {
+    const r = t + Math.floor(rng.next() * (copy.length - t));
+    const s = copy[r];
+    copy[r] = copy[t];
+    copy[t] = s;
+  }
+  return copy.slice(0, count);
 }
 
 function groupByPart(part: Int32Array, maxParts: number): Map<number, Int32Array> {
@@ -83,68 +134,4 @@ function groupByPart(part: Int32Array, maxParts: number): Map<number, Int32Array
     (out.get(p) as Int32Array)[fill[p]++] = i;
   }
   return out;
-}
-
-function closestOutside(
-  v: RowVectors,
-  norms: Float64Array,
-  part: Int32Array,
-  root: number,
-  list: Int32Array,
-  rng: RandomSource,
-  opts: BridgeOptions,
-): ExtraEdge {
-  const n = v.n;
-  const nearestOutside = (a: number): [number, number] => {
-    let best = -1;
-    let bestD = Number.POSITIVE_INFINITY;
-    for (let x = 0; x < n; x++) {
-      if (part[x] === root) continue;
-      const d = rowDistance(v, norms, a, x);
-      if (d < bestD) {
-        bestD = d;
-        best = x;
-      }
-    }
-    return [best, bestD];
-  };
-  const sample = list.slice();
-  const take = Math.min(opts.sampleSize, sample.length);
-  for (let t = 0; t < take; t++) {
-    const r = t + Math.floor(rng.next() * (sample.length - t));
-    const s = sample[r];
-    sample[r] = sample[t];
-    sample[t] = s;
-  }
-  let a = -1;
-  let b = -1;
-  let d = Number.POSITIVE_INFINITY;
-  for (let t = 0; t < take; t++) {
-    const [x, dx] = nearestOutside(sample[t]);
-    if (dx < d) {
-      a = sample[t];
-      b = x;
-      d = dx;
-    }
-  }
-  if (take < list.length) {
-    for (let step = 0; step < opts.refineSteps; step++) {
-      let a2 = a;
-      let d2 = d;
-      for (let t = 0; t < list.length; t++) {
-        const dd = rowDistance(v, norms, list[t], b);
-        if (dd < d2) {
-          d2 = dd;
-          a2 = list[t];
-        }
-      }
-      const [b2, d3] = nearestOutside(a2);
-      if (a2 === a && b2 === b) break;
-      // d3 <= d2, since b itself is outside at distance d2.
-      a = a2;
-      b = b2;
-      d = d3;
-    }
-  }
-  return { a, b, length: d };
 }
