@@ -1,3 +1,9 @@
+/**
+ * findLookalikes end to end on small invented texts. Expected values are worked out by
+ * construction (how many lines were kept, which files are copies), Jaccard values are checked
+ * against the brute-force string-shingle reference in corpusFixtures.ts, and the awkward-input
+ * expectations follow the documented contract in findLookalikes.ts / types.ts.
+ */
 import { describe, expect, it } from 'vitest';
 import { InvalidInputError } from '../../../src/core/errors.js';
 import { findLookalikes } from '../../../src/core/lookalike/findLookalikes.js';
