@@ -2,7 +2,8 @@
  * Classical (Torgerson–Gower) multidimensional scaling (Torgerson 1952; Gower 1966): double-centre
  * the squared distances, B = −½·J·Δ·J with J = I − 11ᵀ/n, and take coordinates √λ_i·v_i from B's
  * largest eigenpairs. For Euclidean distances this recovers the configuration up to rotation,
- * reflection and translation. Dimensions whose eigenvalue is not positive get zero coordinates.
+ * reflection and translation. Dimensions whose eigenvalue is not positive (below 1e-9 of the
+ * largest) get zero coordinates.
  *
  * Also the distance-based triangulation of landmark MDS (de Silva & Tenenbaum, "Sparse
  * multidimensional scaling using landmark points", 2004): a point with squared distances δ to the
@@ -11,6 +12,9 @@
  */
 import { InvalidInputError } from '../errors.js';
 import { DEFAULT_TOP_EIGEN_OPTIONS, topEigenpairs, type TopEigenOptions } from './topEigen.js';
+
+/** Relative size below which an eigenvalue is treated as zero: 10× the eigen-solver's default tolerance. */
+const FLAT_AXIS_TOLERANCE = 1e-9;
 
 export interface ClassicalMdsOptions {
   /** @default 2 */
@@ -62,10 +66,12 @@ export function classicalMds(squared: Float64Array, n: number, options: Partial<
   const coords = new Float64Array(n * d);
   const eigenvalues = new Float64Array(d);
   const pseudoInverse = new Float64Array(d * n);
+  // Eigenvalues within rounding of zero (relative to the largest) count as zero: a flat axis.
+  const floor = FLAT_AXIS_TOLERANCE * Math.abs(eig.values[0] ?? 0);
   for (let r = 0; r < Math.min(d, eig.values.length); r++) {
     const lambda = eig.values[r];
     eigenvalues[r] = lambda;
-    if (!(lambda > 0)) continue;
+    if (!(lambda > floor)) continue;
     const root = Math.sqrt(lambda);
     for (let i = 0; i < n; i++) {
       const v = eig.vectors[r * n + i];
