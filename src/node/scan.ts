@@ -1,0 +1,135 @@
+/**
+ * Workspace scanner: lists the files of one folder that are worth indexing.
+ *
+ * Walks the folder with readdir's file types (no stat for folders' children until a file is
+ * kept), skipping what the default exclude list, the caller's patterns and the .gitignore files
+ * rule out (see scanRules.ts), and stats each kept file exactly once for size and mtime.
+ * Symbolic links are followed by default; each folder is entered at most once, identified by
+ * device and inode, so a link to a parent folder ends as a reported `symlink-loop`. File content
+ * is not read here: `readIndexableText` (scanRead.ts) reads and sniffs one file when indexing.
+ *
+ * fast-glob is not used for the walk: it cannot apply nested .gitignore files with git's
+ * precedence while walking, nor recognise a folder reached twice through links.
+ */
+
+import { stat } from 'node:fs/promises';
+import { resolve } from 'node:path';
+import { UndertoneError } from '../core/errors.js';
+import { checkByteCap } from './scanRead.js';
+import { walkFolder } from './scanWalk.js';
+
+export { readIndexableText, type IndexableText } from './scanRead.js';
+export { DEFAULT_EXCLUDE_NAMES, DEFAULT_EXCLUDE_PATTERNS, type ExcludeNames } from './scanRules.js';
+
+/** Options for `scanFolder`. Patterns use gitignore syntax (gitignore(5)). */
+export interface ScanOptions {
+  /**
+   * Only files matching one of these (root-relative) are kept; empty keeps every file. Matched
+   * without regard to case. `*.md` matches at any depth, `docs/` keeps everything under docs.
+   * @default []
+   */
+  readonly include: readonly string[];
+  /**
+   * Extra paths to skip, matched without regard to case after the defaults, so a negation such
+   * as `!build/` keeps folders the defaults would skip. @default []
+   */
+  readonly exclude: readonly string[];
+  /**
+   * Skip DEFAULT_EXCLUDE_PATTERNS: VCS folders, dependencies, build output, lock files, minified
+   * bundles and source maps, binary formats. @default true
+   */
+  readonly useDefaultExcludes: boolean;
+  /** Files larger than this many bytes are skipped as `too-large`. @default 1048576 (1 MiB) */
+  readonly maxFileBytes: number;
+  /** Honour .gitignore files in the folder and its subfolders, and .git/info/exclude. @default true */
+  readonly honourGitignore: boolean;
+  /** Follow symbolic links to files and folders (each folder is still visited once). @default true */
+  readonly followSymlinks: boolean;
+}
+
+/** Defaults (the 1 MiB cap is common practice: larger text files are mostly generated or data). */
+export const DEFAULT_SCAN_OPTIONS: ScanOptions = Object.freeze({
+  include: [],
+  exclude: [],
+  useDefaultExcludes: true,
+  maxFileBytes: 1_048_576,
+  honourGitignore: true,
+  followSymlinks: true,
+});
+
+/** One file kept by the scan. */
+export interface ScannedFile {
+  /** Relative to the scanned root, '/'-separated. */
+  readonly path: string;
+  readonly absPath: string;
+  /** Size in bytes (of the link's target for a followed link). */
+  readonly size: number;
+  readonly mtimeMs: number;
+}
+
+/** Why a path worth mentioning was left out. Excluded and ignored paths are not listed. */
+export type SkipReason =
+  | 'too-large'
+  | 'unreadable'
+  | 'symlink-loop'
+  | 'symlink-duplicate'
+  | 'broken-symlink';
+
+export interface SkippedPath {
+  /** Relative to the scanned root, '/'-separated ('.' for the root itself). */
+  readonly path: string;
+  readonly reason: SkipReason;
+  /** A sentence for people, e.g. the size and the cap, or the error code. */
+  readonly detail: string;
+}
+
+export interface ScanResult {
+  /** The root as an absolute path. */
+  readonly root: string;
+  /** Sorted by `path` (UTF-16 code-unit order), so the same tree always gives the same list. */
+  readonly files: readonly ScannedFile[];
+  /** Sorted by `path`. */
+  readonly skipped: readonly SkippedPath[];
+}
+
+/** The folder to scan does not exist or is not a folder. */
+export class FolderNotFoundError extends UndertoneError {
+  constructor(
+    public readonly folder: string,
+    why = 'does not exist',
+  ) {
+    super(`Cannot scan "${folder}": it ${why}.`);
+  }
+}
+
+/**
+ * Lists the indexable files under `root`.
+ * @throws FolderNotFoundError when root is missing or not a folder.
+ * @throws CancelledError when `signal` is aborted (checked before each folder and file batch).
+ * @throws InvalidInputError for a bad maxFileBytes.
+ */
+export async function scanFolder(
+  root: string,
+  options: Partial<ScanOptions> = {},
+  signal?: AbortSignal,
+): Promise<ScanResult> {
+  const opts: ScanOptions = { ...DEFAULT_SCAN_OPTIONS, ...options };
+  checkByteCap(opts.maxFileBytes);
+  const abs = resolve(root);
+  let rootStat;
+  try {
+    rootStat = await stat(abs, { bigint: true });
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    throw new FolderNotFoundError(abs, code === 'ENOENT' || code === 'ENOTDIR' ? 'does not exist' : `cannot be read (${code})`);
+  }
+  if (!rootStat.isDirectory()) throw new FolderNotFoundError(abs, 'is a file, not a folder');
+  const { files, skipped } = await walkFolder(abs, `${rootStat.dev}:${rootStat.ino}`, opts, signal);
+  files.sort((a, b) => compareCodeUnits(a.path, b.path));
+  skipped.sort((a, b) => compareCodeUnits(a.path, b.path));
+  return { root: abs, files, skipped };
+}
+
+function compareCodeUnits(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}

@@ -1,0 +1,252 @@
+/**
+ * The folder walk behind `scanFolder` (scan.ts).
+ *
+ * Folders are read by a small pool of concurrent workers (readdir with file types, so children
+ * need no stat to be classified), and each kept file is stat'ed once. Folders reached through a
+ * symbolic link are set aside and walked only after every real folder, one link at a time in
+ * path order: each folder is entered once, keyed by device and inode, and because real folders
+ * claim their identity first the outcome (which path a folder is listed under) does not depend
+ * on timing. A link whose target is one of its own ancestors is a `symlink-loop`; a link to a
+ * folder already walked elsewhere is a `symlink-duplicate`.
+ */
+
+import type { BigIntStats, Dirent } from 'node:fs';
+import { lstat, readdir, readFile, stat } from 'node:fs/promises';
+import { join } from 'node:path';
+import { CancelledError } from '../core/errors.js';
+import type { ScannedFile, ScanOptions, SkippedPath, SkipReason } from './scan.js';
+import { describeFsError } from './scanRead.js';
+import {
+  createExcludeTest, createIgnoreLayer, createPatternMatcher, enterFolder, isGitIgnored,
+  type IgnoreLayer,
+} from './scanRules.js';
+
+/** Folders read at once (common practice: enough to keep libuv's 4 I/O threads busy). */
+const FOLDER_CONCURRENCY = 8;
+
+/** Device:inode keys of the folders from the root down to a folder. */
+interface Chain {
+  readonly key: string;
+  readonly parent: Chain | undefined;
+}
+
+interface FolderJob {
+  readonly abs: string;
+  /** Root-relative, '' for the root. */
+  readonly rel: string;
+  readonly layers: readonly IgnoreLayer[];
+  readonly parent: Chain | undefined;
+  /** Identity, when known and already claimed (the root, and folders reached through links). */
+  readonly key?: string;
+}
+
+interface LinkedFolder extends FolderJob {
+  readonly key: string;
+}
+
+type EntryKind = 'file' | 'dir' | 'link' | 'other';
+
+export async function walkFolder(
+  rootAbs: string,
+  rootKey: string,
+  opts: ScanOptions,
+  signal: AbortSignal | undefined,
+): Promise<{ files: ScannedFile[]; skipped: SkippedPath[] }> {
+  const files: ScannedFile[] = [];
+  const skipped: SkippedPath[] = [];
+  const visited = new Map<string, string>([[rootKey, '.']]);
+  const linked: LinkedFolder[] = [];
+  const exclude = createExcludeTest(opts.useDefaultExcludes, opts.exclude);
+  const include = createPatternMatcher(opts.include);
+  const skip = (path: string, reason: SkipReason, detail: string): void => {
+    skipped.push({ path: path || '.', reason, detail });
+  };
+  const checkCancel = (): void => {
+    if (signal?.aborted) throw new CancelledError();
+  };
+  /** Whether a file (or a link to one) is left out by names, patterns or .gitignore files. */
+  const fileExcluded = (rel: string, name: string, layers: readonly IgnoreLayer[]): boolean =>
+    exclude.file(rel, name) || (opts.honourGitignore && isGitIgnored(layers, rel, false));
+  /** The layers for a folder's contents, or undefined when the folder is left out. */
+  const folderLayers = (rel: string, name: string, layers: readonly IgnoreLayer[]): readonly IgnoreLayer[] | undefined => {
+    if (exclude.folder(rel, name)) return undefined;
+    return opts.honourGitignore ? enterFolder(layers, rel) : layers;
+  };
+
+  /** Stats a kept file (or a followed link to one) and records it. */
+  const addFile = (rel: string, abs: string, size: number, mtimeMs: number): void => {
+    if (include && !include.ignores(rel)) return;
+    if (size > opts.maxFileBytes) {
+      skip(rel, 'too-large', `${size} bytes, over the limit of ${opts.maxFileBytes} bytes.`);
+    } else {
+      files.push({ path: rel, absPath: abs, size, mtimeMs });
+    }
+  };
+
+  const visitFile = async (rel: string, abs: string): Promise<void> => {
+    try {
+      const st = await stat(abs);
+      if (st.isFile()) addFile(rel, abs, st.size, st.mtimeMs);
+    } catch (err) {
+      // A file deleted since the folder was read is simply gone, not worth a report.
+      if ((err as NodeJS.ErrnoException).code !== 'ENOENT') skip(rel, 'unreadable', describeFsError(err));
+    }
+  };
+
+  const visitLink = async (
+    rel: string, abs: string, name: string, parent: Chain, layers: readonly IgnoreLayer[],
+  ): Promise<void> => {
+    let st: BigIntStats;
+    try {
+      st = await stat(abs, { bigint: true });
+    } catch (err) {
+      if (fileExcluded(rel, name, layers)) return;
+      const code = (err as NodeJS.ErrnoException).code;
+      if (code === 'ELOOP') skip(rel, 'symlink-loop', 'The link resolves to itself.');
+      else if (code === 'ENOENT' || code === 'ENOTDIR') skip(rel, 'broken-symlink', 'The link points to nothing.');
+      else skip(rel, 'unreadable', describeFsError(err));
+      return;
+    }
+    if (st.isDirectory()) {
+      const inner = folderLayers(rel, name, layers);
+      if (inner) linked.push({ abs, rel, layers: inner, parent, key: `${st.dev}:${st.ino}` });
+    } else if (st.isFile() && !fileExcluded(rel, name, layers)) {
+      addFile(rel, abs, Number(st.size), Number(st.mtimeNs) / 1e6);
+    }
+  };
+
+  const visitFolder = async (job: FolderJob, push: (next: FolderJob) => void): Promise<void> => {
+    checkCancel();
+    let entries: Dirent[];
+    let key: string;
+    try {
+      if (job.key === undefined) {
+        const [st, list] = await Promise.all([stat(job.abs, { bigint: true }), readdir(job.abs, { withFileTypes: true })]);
+        key = `${st.dev}:${st.ino}`;
+        if (!claim(job, key)) return;
+        entries = list;
+      } else {
+        key = job.key;
+        entries = await readdir(job.abs, { withFileTypes: true });
+      }
+    } catch (err) {
+      skip(job.rel, 'unreadable', describeFsError(err));
+      return;
+    }
+    const here: Chain = { key, parent: job.parent };
+    const prefix = job.rel === '' ? '' : `${job.rel}/`;
+    let layers = job.layers;
+    if (opts.honourGitignore && entries.some((e) => e.name === '.gitignore' && e.isFile())) {
+      try {
+        layers = [...layers, createIgnoreLayer(prefix, await readFile(join(job.abs, '.gitignore'), 'utf8'))];
+      } catch (err) {
+        skip(`${prefix}.gitignore`, 'unreadable', describeFsError(err));
+      }
+    }
+    const pending: Promise<void>[] = [];
+    for (const entry of entries) {
+      const rel = prefix + entry.name;
+      const abs = join(job.abs, entry.name);
+      const kind = direntKind(entry) ?? (await kindByLstat(abs));
+      if (kind === 'dir') {
+        const inner = folderLayers(rel, entry.name, layers);
+        if (inner) push({ abs, rel, layers: inner, parent: here });
+      } else if (kind === 'file') {
+        if (!fileExcluded(rel, entry.name, layers)) pending.push(visitFile(rel, abs));
+      } else if (kind === 'link' && opts.followSymlinks) {
+        pending.push(visitLink(rel, abs, entry.name, here, layers));
+      }
+    }
+    checkCancel();
+    await Promise.all(pending);
+  };
+
+  /** Claims a folder's identity; false (and a skip entry) if it was met before. */
+  const claim = (job: FolderJob, key: string): boolean => {
+    if (chainHas(job.parent, key)) {
+      skip(job.rel, 'symlink-loop', 'The folder contains itself through a symbolic link.');
+      return false;
+    }
+    const earlier = visited.get(key);
+    if (earlier !== undefined) {
+      skip(job.rel, 'symlink-duplicate', `Same folder as "${earlier}", which is scanned instead.`);
+      return false;
+    }
+    visited.set(key, job.rel || '.');
+    return true;
+  };
+
+  const rootLayers = opts.honourGitignore ? await infoExcludeLayer(rootAbs) : [];
+  await runQueue([{ abs: rootAbs, rel: '', layers: rootLayers, parent: undefined, key: rootKey }], visitFolder);
+  // Links to folders, in path order, after every real folder has claimed its identity.
+  while (linked.length > 0) {
+    checkCancel();
+    linked.sort((a, b) => (a.rel < b.rel ? 1 : a.rel > b.rel ? -1 : 0));
+    const next = linked.pop()!;
+    if (claim(next, next.key)) await runQueue([next], visitFolder);
+  }
+  return { files, skipped };
+}
+
+/** `.git/info/exclude` at the root, as the shallowest layer (gitignore(5)). */
+async function infoExcludeLayer(rootAbs: string): Promise<IgnoreLayer[]> {
+  try {
+    return [createIgnoreLayer('', await readFile(join(rootAbs, '.git', 'info', 'exclude'), 'utf8'))];
+  } catch {
+    return [];
+  }
+}
+
+function direntKind(e: Dirent): EntryKind | undefined {
+  if (e.isFile()) return 'file';
+  if (e.isDirectory()) return 'dir';
+  if (e.isSymbolicLink()) return 'link';
+  if (e.isFIFO() || e.isSocket() || e.isBlockDevice() || e.isCharacterDevice()) return 'other';
+  return undefined; // the file system did not say (DT_UNKNOWN)
+}
+
+async function kindByLstat(abs: string): Promise<EntryKind> {
+  try {
+    const st = await lstat(abs);
+    return st.isFile() ? 'file' : st.isDirectory() ? 'dir' : st.isSymbolicLink() ? 'link' : 'other';
+  } catch {
+    return 'other'; // vanished since readdir
+  }
+}
+
+function chainHas(chain: Chain | undefined, key: string): boolean {
+  for (let c = chain; c; c = c.parent) if (c.key === key) return true;
+  return false;
+}
+
+/** Runs `work` over a growing queue with at most FOLDER_CONCURRENCY jobs in flight; rejects on the first error. */
+function runQueue<T>(initial: T[], work: (item: T, push: (next: T) => void) => Promise<void>): Promise<void> {
+  return new Promise((resolvePromise, reject) => {
+    const queue = [...initial];
+    let active = 0;
+    let failed = false;
+    const push = (next: T): void => {
+      queue.push(next);
+      pump();
+    };
+    const pump = (): void => {
+      while (!failed && active < FOLDER_CONCURRENCY && queue.length > 0) {
+        const item = queue.pop()!;
+        active++;
+        work(item, push).then(
+          () => {
+            active--;
+            if (active === 0 && queue.length === 0) resolvePromise();
+            else pump();
+          },
+          (err: unknown) => {
+            failed = true;
+            reject(err);
+          },
+        );
+      }
+    };
+    pump();
+    if (queue.length === 0 && active === 0) resolvePromise();
+  });
+}
