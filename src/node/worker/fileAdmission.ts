@@ -1,13 +1,15 @@
 /**
  * Decides for one changed file whether the folder scan would keep it, without walking the folder:
- * the same default excludes, user patterns and .gitignore layering as scanFolder (scanRules.ts),
+ * the same default exclude names, user patterns and .gitignore layering as scanFolder (scanRules.ts),
  * applied along the file's own chain of parent folders. The .gitignore files met on the way are
  * read once and remembered until `forget()` (call it when a .gitignore changes).
  */
 import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { Ignore } from 'ignore';
-import { createExcludeMatcher, createIgnoreLayer, createIncludeMatcher, enterFolder, isGitIgnored, type IgnoreLayer } from '../scanRules.js';
+import {
+  createIgnoreLayer, createNameFilter, createPatternMatcher, DEFAULT_EXCLUDE_NAMES, enterFolder, isGitIgnored, type IgnoreLayer, type NameFilter,
+} from '../scanRules.js';
 
 export interface AdmissionOptions {
   readonly include: readonly string[];
@@ -16,7 +18,8 @@ export interface AdmissionOptions {
 }
 
 export class FileAdmission {
-  private readonly _exclude: Ignore;
+  private readonly _names: NameFilter;
+  private readonly _exclude: Ignore | undefined;
   private readonly _include: Ignore | undefined;
   private readonly _gitignores = new Map<string, string | null>();
 
@@ -24,8 +27,9 @@ export class FileAdmission {
     private readonly _rootPath: string,
     private readonly _options: AdmissionOptions,
   ) {
-    this._exclude = createExcludeMatcher(true, _options.exclude);
-    this._include = createIncludeMatcher(_options.include);
+    this._names = createNameFilter(DEFAULT_EXCLUDE_NAMES);
+    this._exclude = createPatternMatcher(_options.exclude);
+    this._include = createPatternMatcher(_options.include);
   }
 
   /** Whether a root-relative, '/'-separated file path would be kept by a scan of the root. */
@@ -36,7 +40,7 @@ export class FileAdmission {
     for (let depth = 0; depth < parts.length; depth++) {
       const dir = parts.slice(0, depth).join('/');
       if (dir !== '') {
-        if (this._exclude.ignores(`${dir}/`)) return false;
+        if (this._names.folder(parts[depth - 1]) || this._exclude?.ignores(`${dir}/`)) return false;
         if (honour) {
           const inner = enterFolder(layers, dir);
           if (!inner) return false;
@@ -48,7 +52,7 @@ export class FileAdmission {
         layers = [...layers, ...(await this.layerAt(prefix, `${prefix}.gitignore`))];
       }
     }
-    if (this._exclude.ignores(rel) || (honour && isGitIgnored(layers, rel, false))) return false;
+    if (this._names.file(parts[parts.length - 1]) || this._exclude?.ignores(rel) || (honour && isGitIgnored(layers, rel, false))) return false;
     return !this._include || this._include.ignores(rel);
   }
 

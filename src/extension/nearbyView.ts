@@ -1,0 +1,90 @@
+/**
+ * The "Nearby" view: the files nearest in meaning to the active editor's file (or to a file
+ * chosen with "Show Nearby Files"), with their scores. Follows the active editor and the index;
+ * the tree stays empty (so the welcome text shows) while there is no index or the file is not in it.
+ */
+import * as vscode from 'vscode';
+import type { IndexController } from './indexController.js';
+import { nearbyEntries, type ResultEntry } from './viewModels.js';
+import { resultTreeItem } from './resultItem.js';
+
+export class NearbyProvider implements vscode.TreeDataProvider<ResultEntry>, vscode.Disposable {
+  static readonly viewType = 'undertone.nearby';
+
+  private _entries: ResultEntry[] = [];
+  private _subject: vscode.Uri | undefined;
+  private _seq = 0;
+  private _pending: Promise<void> = Promise.resolve();
+  private _view: vscode.TreeView<ResultEntry> | undefined;
+  private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
+  private readonly _disposables: vscode.Disposable[] = [this._onDidChangeTreeData];
+  readonly onDidChangeTreeData = this._onDidChangeTreeData.event;
+
+  constructor(private readonly _controller: IndexController) {
+    this._disposables.push(
+      vscode.window.onDidChangeActiveTextEditor((editor) => {
+        if (editor && editor.document.uri.scheme === 'file') void this.show(editor.document.uri);
+      }),
+      _controller.onDidChangeIndex(() => void this.refresh()),
+      _controller.onDidChangeState(() => void this.refresh()),
+    );
+    const active = vscode.window.activeTextEditor?.document.uri;
+    if (active?.scheme === 'file') this._subject = active;
+  }
+
+  attach(view: vscode.TreeView<ResultEntry>): void {
+    this._view = view;
+    this.describe();
+  }
+
+  /** The file whose neighbours are shown. */
+  get subject(): vscode.Uri | undefined {
+    return this._subject;
+  }
+
+  show(uri: vscode.Uri): Promise<void> {
+    this._subject = uri;
+    this.describe();
+    return this.refresh();
+  }
+
+  /** Asks the worker again; resolves when the view has the new entries. */
+  refresh(): Promise<void> {
+    const seq = ++this._seq;
+    const subject = this._subject;
+    this._pending = (async () => {
+      let hits = null;
+      try {
+        if (subject && subject.scheme === 'file') hits = await this._controller.nearby(subject.fsPath, this._controller.settings.nearbyCount);
+      } catch {
+        hits = null; // the worker is restarting or has no index: the welcome text explains
+      }
+      if (seq !== this._seq) return;
+      this._entries = hits ? nearbyEntries(hits, this._controller.multiRoot) : [];
+      void vscode.commands.executeCommand('setContext', 'undertone.activeIndexed', hits !== null);
+      this._onDidChangeTreeData.fire();
+    })();
+    return this._pending;
+  }
+
+  /** Resolves once the latest refresh has reached the view. */
+  settled(): Promise<void> {
+    return this._pending;
+  }
+
+  getTreeItem(entry: ResultEntry): vscode.TreeItem {
+    return resultTreeItem(entry);
+  }
+
+  getChildren(entry?: ResultEntry): ResultEntry[] {
+    return entry ? [] : this._entries;
+  }
+
+  dispose(): void {
+    for (const d of this._disposables.splice(0)) d.dispose();
+  }
+
+  private describe(): void {
+    if (this._view) this._view.description = this._subject ? vscode.workspace.asRelativePath(this._subject, false).split('/').pop() : undefined;
+  }
+}

@@ -1,0 +1,88 @@
+/**
+ * The "Search Results" view: the results of the last search by meaning, each with its score and
+ * best-matching line. When the index changes, deleted files leave at once and the search is run
+ * again so scores and lines follow the edits.
+ */
+import * as vscode from 'vscode';
+import type { IndexController } from './indexController.js';
+import { resultTreeItem } from './resultItem.js';
+import { searchEntries, searchViewDescription, withoutKeys, type ResultEntry } from './viewModels.js';
+
+/** Delay before re-running the last search after index changes (common practice debounce). */
+const RERUN_DELAY_MS = 150;
+
+export class SearchResultsProvider implements vscode.TreeDataProvider<ResultEntry>, vscode.Disposable {
+  static readonly viewType = 'undertone.searchResults';
+
+  private _entries: ResultEntry[] = [];
+  private _query: string | undefined;
+  private _view: vscode.TreeView<ResultEntry> | undefined;
+  private _rerun: ReturnType<typeof setTimeout> | undefined;
+  private _seq = 0;
+  private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
+  private readonly _disposables: vscode.Disposable[] = [this._onDidChangeTreeData];
+  readonly onDidChangeTreeData = this._onDidChangeTreeData.event;
+
+  constructor(private readonly _controller: IndexController) {
+    this._disposables.push(
+      _controller.onDidChangeIndex((change) => {
+        if (this._query === undefined) return;
+        if (change.removed.length > 0) this.setEntries(withoutKeys(this._entries, new Set(change.removed)));
+        clearTimeout(this._rerun);
+        this._rerun = setTimeout(() => void this.rerun(), RERUN_DELAY_MS);
+      }),
+    );
+  }
+
+  attach(view: vscode.TreeView<ResultEntry>): void {
+    this._view = view;
+  }
+
+  get query(): string | undefined {
+    return this._query;
+  }
+
+  /** Shows the results of a search just made. */
+  show(query: string, entries: ResultEntry[]): void {
+    this._seq++;
+    this._query = query;
+    this.setEntries(entries);
+  }
+
+  clear(): void {
+    this._seq++;
+    this._query = undefined;
+    this.setEntries([]);
+  }
+
+  getTreeItem(entry: ResultEntry): vscode.TreeItem {
+    return resultTreeItem(entry);
+  }
+
+  getChildren(entry?: ResultEntry): ResultEntry[] {
+    return entry ? [] : this._entries;
+  }
+
+  dispose(): void {
+    clearTimeout(this._rerun);
+    for (const d of this._disposables.splice(0)) d.dispose();
+  }
+
+  private async rerun(): Promise<void> {
+    const query = this._query;
+    if (query === undefined) return;
+    const seq = ++this._seq;
+    try {
+      const matches = await this._controller.search(query, this._controller.settings.nearbyCount * 2);
+      if (seq === this._seq) this.setEntries(searchEntries(matches, this._controller.multiRoot));
+    } catch {
+      if (seq === this._seq) this.setEntries([]);
+    }
+  }
+
+  private setEntries(entries: ResultEntry[]): void {
+    this._entries = entries;
+    if (this._view) this._view.description = searchViewDescription(this._query, entries.length);
+    this._onDidChangeTreeData.fire();
+  }
+}

@@ -1,0 +1,40 @@
+import { describe, expect, it } from 'vitest';
+import { statusActions, statusBarModel, summaryOf, type IndexState } from '../../src/extension/indexState.js';
+
+const summary = { files: 1234, k: 96, terms: 5000, staleness: { changedFiles: 0, changedShare: 0, newTermMass: 0, residualRatio: 1 } };
+
+describe('status bar', () => {
+  it('shows files and k when ready, a percentage while building, a warning when out of date', () => {
+    expect(statusBarModel({ kind: 'ready', summary }).text).toBe('$(pulse) Undertone: 1,234 files, k=96');
+    expect(statusBarModel({ kind: 'building', percent: 42, background: false, previous: null }).text).toBe('$(sync~spin) Undertone: indexing 42%');
+    const stale = statusBarModel({ kind: 'stale', summary, reason: '20% of files changed' });
+    expect(stale.text).toBe('$(warning) Undertone: out of date');
+    expect(stale.tooltip).toContain('20% of files changed');
+    expect(stale.background).toBe('statusBarItem.warningBackground');
+  });
+
+  it('says in the tooltip that the previous index stays in use during a rebuild', () => {
+    expect(statusBarModel({ kind: 'building', percent: 5, background: true, previous: summary }).tooltip).toContain('previous index (1,234 files) stays in use');
+  });
+});
+
+describe('status actions', () => {
+  const commands = (s: IndexState) => statusActions(s).map((a) => a.command);
+
+  it('offers search and nearby only when an index exists', () => {
+    expect(commands({ kind: 'ready', summary })).toEqual(['undertone.search', 'undertone.showNearby', 'undertone.rebuildIndex', 'undertone.deleteIndex', 'undertone.showLog']);
+    expect(commands({ kind: 'none' })).toEqual(['undertone.rebuildIndex', 'undertone.deleteIndex', 'undertone.showLog']);
+    expect(statusActions({ kind: 'none' })[0].label).toBe('$(database) Build Index');
+  });
+
+  it('offers cancel instead of rebuild while building, and nothing where files cannot be read', () => {
+    expect(commands({ kind: 'building', percent: 1, background: true, previous: summary })).toContain('undertone.cancelIndexing');
+    expect(commands({ kind: 'building', percent: 1, background: true, previous: summary })).not.toContain('undertone.rebuildIndex');
+    expect(statusActions({ kind: 'unavailable', reason: 'virtual' })).toEqual([]);
+  });
+
+  it('keeps the previous summary while building or after a failure', () => {
+    expect(summaryOf({ kind: 'building', percent: 1, background: true, previous: summary })).toBe(summary);
+    expect(summaryOf({ kind: 'failed', message: 'x', previous: null })).toBeNull();
+  });
+});
