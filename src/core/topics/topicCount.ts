@@ -1,0 +1,94 @@
+/**
+ * Automatic number of topics: the mean silhouette (Rousseeuw 1987, J. Comput. Appl. Math. 20)
+ * of spherical k-means clusterings for each candidate count, on a seeded sample of the points,
+ * with cosine distance 1 − cos. The count with the highest mean silhouette wins (ties: fewer).
+ * A point alone in its cluster scores 0, as Rousseeuw defines it.
+ * Defaults: candidates 2…min(20, ⌊√n⌋ + 1) — about √n clusters is the usual ceiling for a
+ * readable overview (common practice, our choice); sample 500 points (the distance table is then
+ * 250 000 numbers); 3 k-means restarts per candidate. Fewer than 3 points, or points with a
+ * single direction, give 1 topic.
+ */
+import { createRandom, DEFAULT_SEED } from '../random.js';
+import { sphericalKMeans } from './sphericalKMeans.js';
+
+export interface TopicCountOptions {
+  /** @default 2 */
+  minTopics: number;
+  /** Largest count tried; undefined means min(20, ⌊√n⌋ + 1). */
+  maxTopics?: number;
+  /** @default 500 */
+  sampleSize: number;
+  /** k-means restarts per candidate. @default 3 */
+  restarts: number;
+  /** @default DEFAULT_SEED */
+  seed: number;
+}
+
+export const DEFAULT_TOPIC_COUNT_OPTIONS: Readonly<TopicCountOptions> = Object.freeze({ minTopics: 2, sampleSize: 500, restarts: 3, seed: DEFAULT_SEED });
+
+export interface TopicCountChoice {
+  readonly topics: number;
+  /** Mean silhouette of each candidate tried (empty when the answer was forced). */
+  readonly scores: readonly { readonly topics: number; readonly silhouette: number }[];
+  /** Points in the sample the silhouettes were computed on. */
+  readonly sampled: number;
+}
+
+export function chooseTopicCount(points: Float64Array, n: number, dims: number, options: Partial<TopicCountOptions> = {}): TopicCountChoice {
+  const o = { ...DEFAULT_TOPIC_COUNT_OPTIONS, ...options };
+  if (n < 3) return { topics: Math.max(0, Math.min(n, 1)), scores: [], sampled: n };
+  const random = createRandom(o.seed);
+  // Partial Fisher–Yates: the first s entries of order are a uniform sample, kept in index order.
+  const order = Int32Array.from({ length: n }, (_, i) => i);
+  const s = Math.min(n, o.sampleSize);
+  for (let i = 0; i < s; i++) {
+    const j = i + Math.floor(random.next() * (n - i));
+    [order[i], order[j]] = [order[j], order[i]];
+  }
+  const chosen = order.slice(0, s).sort();
+  const sample = new Float64Array(s * dims);
+  chosen.forEach((p, i) => sample.set(points.subarray(p * dims, (p + 1) * dims), i * dims));
+  const dist = new Float64Array(s * s);
+  let spread = 0;
+  for (let i = 0; i < s; i++) {
+    for (let j = i + 1; j < s; j++) {
+      let d = 0;
+      for (let t = 0; t < dims; t++) d += sample[i * dims + t] * sample[j * dims + t];
+      const v = Math.max(0, 1 - d);
+      dist[i * s + j] = dist[j * s + i] = v;
+      spread = Math.max(spread, v);
+    }
+  }
+  if (!(spread > 1e-9)) return { topics: 1, scores: [], sampled: s };
+  const upper = Math.min(o.maxTopics ?? Math.min(20, Math.ceil(Math.sqrt(n / 2))), s - 1);
+  const scores: { topics: number; silhouette: number }[] = [];
+  let best = { topics: 1, silhouette: -Infinity };
+  for (let k = Math.max(2, o.minTopics); k <= upper; k++) {
+    const c = sphericalKMeans(sample, s, dims, k, { restarts: o.restarts, seed: o.seed + k });
+    if (c.clusters < k) break; // fewer distinct directions than k: larger k cannot do better
+    const sil = meanSilhouette(dist, s, c.assignment, c.clusters);
+    scores.push({ topics: k, silhouette: sil });
+    if (sil > best.silhouette + 1e-12) best = { topics: k, silhouette: sil };
+  }
+  return { topics: scores.length > 0 ? best.topics : 1, scores, sampled: s };
+}
+
+/** Mean silhouette of a labelling from a full s × s distance table. */
+export function meanSilhouette(dist: Float64Array, s: number, labels: Int32Array, k: number): number {
+  const size = new Int32Array(k);
+  for (let i = 0; i < s; i++) size[labels[i]]++;
+  const sums = new Float64Array(k);
+  let total = 0;
+  for (let i = 0; i < s; i++) {
+    sums.fill(0);
+    for (let j = 0; j < s; j++) sums[labels[j]] += dist[i * s + j];
+    const own = labels[i];
+    if (size[own] <= 1) continue; // singleton: silhouette 0
+    const a = sums[own] / (size[own] - 1);
+    let b = Infinity;
+    for (let c = 0; c < k; c++) if (c !== own && size[c] > 0) b = Math.min(b, sums[c] / size[c]);
+    const m = Math.max(a, b);
+    total += m > 0 && Number.isFinite(b) ? (b - a) / m : 0;
+  }
+  return total / s;
+}
