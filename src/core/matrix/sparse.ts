@@ -77,24 +77,52 @@ export function csrTransposeTimesDense(m: CsrMatrix, x: DenseBlock, out?: DenseB
   return y;
 }
 
-/** The transpose of a CSR matrix, again in CSR form (a counting sort; column order kept). */
-export function transposeCsr(m: CsrMatrix): CsrMatrix {
-  const counts = new Int32Array(m.cols + 1);
-  for (let p = 0; p < m.indices.length; p++) counts[m.indices[p] + 1]++;
-  for (let j = 0; j < m.cols; j++) counts[j + 1] += counts[j];
-  const indptr = counts.slice();
-  const indices = new Int32Array(m.indices.length);
-  const values = new Float64Array(m.indices.length);
-  const next = counts.slice(0, m.cols);
+/** Allocators for the arrays of a CSR copy (shared memory when an executor provides it). */
+export interface CsrAllocator {
+  int32(length: number): Int32Array;
+  float64(length: number): Float64Array;
+  float32(length: number): Float32Array;
+}
+
+const PLAIN_ALLOCATOR: CsrAllocator = {
+  int32: (n) => new Int32Array(n),
+  float64: (n) => new Float64Array(n),
+  float32: (n) => new Float32Array(n),
+};
+
+/**
+ * The transpose of a CSR matrix, again in CSR form (a counting sort; column order kept). Values
+ * keep their element type unless valueType says otherwise.
+ */
+export function transposeCsr(m: CsrMatrix, alloc: CsrAllocator = PLAIN_ALLOCATOR, valueType?: 'f32' | 'f64'): CsrMatrix {
+  const nnz = m.indptr[m.rows];
+  const indptr = alloc.int32(m.cols + 1);
+  for (let p = 0; p < nnz; p++) indptr[m.indices[p] + 1]++;
+  for (let j = 0; j < m.cols; j++) indptr[j + 1] += indptr[j];
+  const indices = alloc.int32(nnz);
+  const f32 = valueType ? valueType === 'f32' : m.values instanceof Float32Array;
+  const values = f32 ? alloc.float32(nnz) : alloc.float64(nnz);
+  const next = indptr.slice(0, m.cols);
   for (let i = 0; i < m.rows; i++) {
     for (let p = m.indptr[i]; p < m.indptr[i + 1]; p++) {
-      const j = m.indices[p];
-      const q = next[j]++;
+      const q = next[m.indices[p]]++;
       indices[q] = i;
       values[q] = m.values[p];
     }
   }
   return { rows: m.cols, cols: m.rows, indptr, indices, values };
+}
+
+/** A copy of a CSR matrix in arrays from alloc (values converted to valueType). */
+export function copyCsr(m: CsrMatrix, alloc: CsrAllocator, valueType: 'f32' | 'f64'): CsrMatrix {
+  const nnz = m.indptr[m.rows];
+  const indptr = alloc.int32(m.rows + 1);
+  indptr.set(m.indptr);
+  const indices = alloc.int32(nnz);
+  indices.set(m.indices.subarray(0, nnz));
+  const values = valueType === 'f32' ? alloc.float32(nnz) : alloc.float64(nnz);
+  values.set(m.values.subarray(0, nnz));
+  return { rows: m.rows, cols: m.cols, indptr, indices, values };
 }
 
 /** Builds a CSR matrix from a dense row-major array (tests and small examples). */

@@ -1,26 +1,32 @@
 /**
  * Truncated SVD of a sparse matrix by randomized subspace iteration (Halko, Martinsson & Tropp
- * 2011, SIAM Review 53(2), Algorithms 4.3/4.4 and 5.1), in visible steps:
- *   1. range finder: Y = MΩ with a seeded Gaussian Ω (cols × l), l = k + oversampling;
- *      q power iterations Z = MᵀQ, Y = MZ, orthonormalising after every product (Halko §4.5;
- *      without it the tail below ε^{1/(2q+1)}·σ₁ is lost);
- *   2. projection: Bᵀ = MᵀQ, orthonormalised as Bᵀ = Q₂R (a final orthonormalisation);
- *   3. small dense SVD of R (l×l) with ml-matrix: R = Ũ Σ Ṽᵀ, so M ≈ (QṼ) Σ (Q₂Ũ)ᵀ;
- *   4. sign fix: the largest-magnitude entry of each column-side vector is made positive
+ * 2011, SIAM Review 53(2), Algorithms 4.4 and 5.1), in visible steps. The basis Q lives on the
+ * smaller side of M (S rows of A, where A is M or Mᵀ, so the dense work is S × l, never B × l):
+ *   1. range finder: Y = AΩ with a seeded Gaussian Ω (B × l), l = k + oversampling, Q = orth(Y);
+ *      q power iterations Z = AᵀQ, Y = AZ, Q = orth(Y). Q is renormalised once per AAᵀ pair, as
+ *      gensim's LSI does (methods §1.4, §1.7): with Q orthonormal, Z has condition number about
+ *      σ₁/σ_l, so nothing below ε^{1/2}·σ₁ is lost; middle steps use one CholeskyQR pass, the last
+ *      one two (CholeskyQR2), so the final Q is orthonormal to working precision;
+ *   2. Rayleigh–Ritz: Z = AᵀQ, G = ZᵀZ (or QᵀAZ, whichever is cheaper), G = WΛWᵀ, σ = √λ,
+ *      small-side vectors QW, big-side vectors AᵀQWΣ⁻¹ (rayleighRitz.ts);
+ *   3. sign fix: the largest-magnitude entry of each column-side vector is made positive
  *      (svd_flip with the decision on the column factor, as scikit-learn's TruncatedSVD does).
+ * The large products run on an injected MatrixExecutor (serial by default; threads from
+ * src/node), which splits work so that results are the same bits either way.
  *
  * Defaults: oversampling max(10, ⌈k/10⌉) (Halko §4.2 suggests 5–10; scikit-learn uses 10), power
  * iterations 4 (text spectra decay slowly; scikit-learn's TruncatedSVD uses 5, see
  * ../shared/notes/methods.md §1.2 and §8.4), seed DEFAULT_SEED. Same input and seed give
- * bit-identical factors (all loops run in a fixed order).
+ * bit-identical factors (all loops and reductions run in a fixed order).
  */
-import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { CancelledError, InvalidInputError } from '../errors.js';
-import { leadingColumns, timesSmall } from '../matrix/dense.js';
-import { orthonormalize } from '../matrix/orthonormalize.js';
+import { choleskyQr } from '../matrix/choleskyQr.js';
+import { leadingColumns } from '../matrix/dense.js';
+import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import type { CsrMatrix, DenseBlock } from '../matrix/sparse.js';
-import { csrTimesDense, csrTransposeTimesDense, denseBlock } from '../matrix/sparse.js';
+import { copyCsr, transposeCsr } from '../matrix/sparse.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
+import { bigSideVectors, repairWeakColumns, topEigenpairs, transposeScaled } from './rayleighRitz.js';
 
 export interface RandomizedSvdOptions {
   /** Number of singular triplets wanted. */
@@ -35,6 +41,8 @@ export interface RandomizedSvdOptions {
   onProgress?: (done: number, total: number) => void;
   /** Checked between passes; throws CancelledError when aborted. */
   signal?: { readonly aborted: boolean };
+  /** Runs the large products (default: serialExecutor, on this thread). */
+  executor?: MatrixExecutor;
 }
 
 export const DEFAULT_SVD_OPTIONS: Readonly<Omit<RandomizedSvdOptions, 'k'>> = Object.freeze({
@@ -61,54 +69,68 @@ export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOption
   const maxRank = Math.min(m.rows, m.cols);
   if (maxRank === 0) throw new InvalidInputError('cannot decompose an empty matrix');
   if (!Number.isInteger(o.k) || o.k < 1) throw new InvalidInputError(`k must be a positive integer, got ${o.k}`);
+  if (!Number.isInteger(o.powerIterations) || o.powerIterations < 0) throw new InvalidInputError(`powerIterations must be a whole number ≥ 0, got ${o.powerIterations}`);
+  const ex = o.executor ?? serialExecutor;
   const k = Math.min(o.k, maxRank);
   const l = Math.min(k + (o.oversampling ?? defaultOversampling(k)), maxRank);
   const random = createRandom(o.seed);
-  const totalPasses = 2 * o.powerIterations + 2;
+  const nnz = m.indptr[m.rows];
+  // A has the smaller dimension as rows: Q (S × l) is the only block that is orthonormalised.
+  const rowsSmall = m.rows <= m.cols;
+  const valueType = m.values instanceof Float32Array ? 'f32' : 'f64';
+  const mCopy = ex.threads > 1 ? copyCsr(m, ex, valueType) : m;
+  const mt = transposeCsr(m, ex);
+  const a = rowsSmall ? mCopy : mt;
+  const at = rowsSmall ? mt : mCopy;
+  const S = a.rows;
+  const B = a.cols;
+  // G = ZᵀZ costs B·l²/2; G = Qᵀ(AZ) costs one more pass and S·l².
+  const gramOnBigSide = B * l * l <= 2 * (nnz * l + S * l * l);
+  const totalPasses = 2 * o.powerIterations + 2 + (gramOnBigSide ? 0 : 1);
   let passes = 0;
   const step = (): void => {
     if (o.signal?.aborted) throw new CancelledError();
     o.onProgress?.(++passes, totalPasses);
   };
 
-  // 1. Range finder.
-  const omega = denseBlock(m.cols, l);
-  for (let i = 0; i < omega.data.length; i++) omega.data[i] = random.normal();
-  let q = orthonormalize(csrTimesDense(m, omega), random).q;
+  // 1. Range finder and power iterations.
+  let z = ex.float64(B * l);
+  for (let i = 0; i < z.length; i++) z[i] = random.normal();
+  let y = ex.float64(S * l);
+  let spare = ex.float64(S * l);
+  ex.spmm(a, z, l, y);
   step();
-  let z: DenseBlock = omega;
+  let q = choleskyQr(ex, y, spare, S, l, o.powerIterations === 0 ? 2 : 1, random);
   for (let it = 0; it < o.powerIterations; it++) {
-    z = orthonormalize(csrTransposeTimesDense(m, q, z), random).q;
+    ex.spmm(at, q, l, z);
     step();
-    q = orthonormalize(csrTimesDense(m, z), random).q;
+    [y, spare] = q === y ? [spare, y] : [y, spare];
+    ex.spmm(a, z, l, y);
     step();
+    q = choleskyQr(ex, y, spare, S, l, it === o.powerIterations - 1 ? 2 : 1, random);
   }
-  // 2. Projection and final orthonormalisation.
-  const bt = orthonormalize(csrTransposeTimesDense(m, q), random);
+  // 2. Rayleigh–Ritz.
+  ex.spmm(at, q, l, z);
   step();
-  // 3. Small dense SVD of R (l×l).
-  const rRows: number[][] = [];
-  for (let i = 0; i < l; i++) rRows.push(Array.from(bt.r.subarray(i * l, (i + 1) * l)));
-  const svd = new SingularValueDecomposition(new Matrix(rRows), { autoTranspose: true });
-  const ut = svd.leftSingularVectors;
-  const vt = svd.rightSingularVectors;
-  const sAll = svd.diagonal;
-  const order = Array.from({ length: l }, (_, i) => i).sort((a, b) => sAll[b] - sAll[a] || a - b).slice(0, k);
-  const uSmall = new Float64Array(l * k); // Ṽ columns → row factor
-  const vSmall = new Float64Array(l * k); // Ũ columns → column factor
-  for (let c = 0; c < k; c++) {
-    const src = order[c];
-    for (let i = 0; i < l; i++) {
-      uSmall[i * k + c] = vt.get(i, src);
-      vSmall[i * k + c] = ut.get(i, src);
-    }
+  let g: Float64Array;
+  if (gramOnBigSide) {
+    g = ex.cross(z, z, B, l);
+  } else {
+    const az = q === y ? spare : y;
+    ex.spmm(a, z, l, az);
+    step();
+    g = ex.cross(q, az, S, l);
   }
-  const uBlock = timesSmall(q, uSmall, k);
-  const vBlock = timesSmall(bt.q, vSmall, k);
-  const s = Float64Array.from(order, (i) => Math.max(0, sAll[i]));
-  // 4. Sign fix on the column factor.
-  flipSigns(uBlock, vBlock);
-  return { rows: m.rows, cols: m.cols, k, u: uBlock.data, s, v: vBlock.data };
+  const pairs = topEigenpairs(g, l, k);
+  const small = ex.float64(S * k);
+  ex.timesSmall(q, S, l, transposeScaled(pairs.w, l, k), k, false, small);
+  const big = bigSideVectors(ex, z, small, at, l, pairs, k);
+  repairWeakColumns(big, B, k, pairs.s, random);
+  const u = Float64Array.from(rowsSmall ? small : big);
+  const v = Float64Array.from(rowsSmall ? big : small);
+  // 3. Sign fix on the column factor.
+  flipSigns({ rows: m.rows, cols: k, data: u }, { rows: m.cols, cols: k, data: v });
+  return { rows: m.rows, cols: m.cols, k, u, s: pairs.s, v };
 }
 
 /** Makes the largest-magnitude entry of each column of v positive, flipping u to match. */
@@ -118,9 +140,9 @@ export function flipSigns(u: DenseBlock, v: DenseBlock): void {
     let best = 0;
     let bestAbs = -1;
     for (let i = 0; i < v.rows; i++) {
-      const a = Math.abs(v.data[i * k + c]);
-      if (a > bestAbs) {
-        bestAbs = a;
+      const x = Math.abs(v.data[i * k + c]);
+      if (x > bestAbs) {
+        bestAbs = x;
         best = i;
       }
     }

@@ -1,0 +1,69 @@
+/**
+ * Where the SVD's large products run. The core calls a MatrixExecutor; the default one runs the
+ * row-range kernels (kernels.ts) here, in order. The node layer injects one that splits the same
+ * work over worker threads on shared memory (src/node/parallel). Both split the work the same
+ * way where it matters: products write disjoint output rows, and the Gram sums are formed per
+ * fixed block of REDUCTION_BLOCK_ROWS rows and added in block order, so serial and threaded runs
+ * give the same bits.
+ */
+import type { CsrMatrix } from './sparse.js';
+import { crossRows, spmmRows, timesSmallRows, type FloatArray } from './kernels.js';
+
+export type { FloatArray } from './kernels.js';
+
+/** Rows per partial sum in Gram products (fixed, so the summation order never depends on threads). */
+export const REDUCTION_BLOCK_ROWS = 1024;
+
+export interface MatrixExecutor {
+  /** Threads doing the work (1 for the serial executor). */
+  readonly threads: number;
+  /** Arrays the executor's threads can all see (plain arrays for the serial executor). */
+  float64(length: number): Float64Array;
+  float32(length: number): Float32Array;
+  int32(length: number): Int32Array;
+  /** Y = M X: M is rows × cols sparse, X is cols × l, Y is rows × l (row-major). */
+  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray): void;
+  /** AᵀB for two rows × l blocks (l × l, row-major); symmetric and mirrored when a === b. */
+  cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array;
+  /** out = Y W for Y rows × l and W l × c given transposed (wt: c × l); W upper triangular if upper. */
+  timesSmall(y: FloatArray, rows: number, l: number, wt: Float64Array, c: number, upper: boolean, out: FloatArray): void;
+}
+
+/** g += part (block partials are added in block order by every executor). */
+export function addInto(g: Float64Array, part: Float64Array): void {
+  for (let t = 0; t < g.length; t++) g[t] += part[t];
+}
+
+/** Copies the upper triangle of a square row-major matrix onto its lower triangle. */
+export function mirrorUpper(g: Float64Array, l: number): Float64Array {
+  for (let p = 0; p < l; p++) for (let q = 0; q < p; q++) g[p * l + q] = g[q * l + p];
+  return g;
+}
+
+/** Number of fixed reduction blocks for a block of rows. */
+export function reductionBlocks(rows: number): number {
+  return Math.max(1, Math.ceil(rows / REDUCTION_BLOCK_ROWS));
+}
+
+/** Runs every kernel on the calling thread. */
+export const serialExecutor: MatrixExecutor = Object.freeze({
+  threads: 1,
+  float64: (n: number) => new Float64Array(n),
+  float32: (n: number) => new Float32Array(n),
+  int32: (n: number) => new Int32Array(n),
+  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray): void {
+    spmmRows(m.indptr, m.indices, m.values, x, l, y, 0, m.rows);
+  },
+  cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array {
+    const g = new Float64Array(l * l);
+    const part = new Float64Array(l * l);
+    for (let t = 0; t < reductionBlocks(rows); t++) {
+      crossRows(a, b, l, t * REDUCTION_BLOCK_ROWS, Math.min(rows, (t + 1) * REDUCTION_BLOCK_ROWS), part);
+      addInto(g, part);
+    }
+    return a === b ? mirrorUpper(g, l) : g;
+  },
+  timesSmall(y: FloatArray, rows: number, l: number, wt: Float64Array, c: number, upper: boolean, out: FloatArray): void {
+    timesSmallRows(y, l, wt, c, upper, out, 0, rows);
+  },
+});
