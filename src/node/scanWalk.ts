@@ -11,7 +11,8 @@
  */
 
 import type { BigIntStats, Dirent } from 'node:fs';
-import { lstat, readdir, readFile, stat } from 'node:fs/promises';
+import { lstatSync, statSync } from 'node:fs';
+import { readdir, readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { CancelledError } from '../core/errors.js';
 import type { ScannedFile, ScanOptions, SkippedPath, SkipReason } from './scan.js';
@@ -64,43 +65,38 @@ export async function walkFolder(
   const checkCancel = (): void => {
     if (signal?.aborted) throw new CancelledError();
   };
-  /** Whether a file (or a link to one) is left out by names, patterns or .gitignore files. */
-  const fileExcluded = (rel: string, name: string, layers: readonly IgnoreLayer[]): boolean =>
-    exclude.file(rel, name) || (opts.honourGitignore && isGitIgnored(layers, rel, false));
+  /** Whether a file (or a link to one) is kept by names, patterns, .gitignore files and includes. */
+  const fileWanted = (rel: string, name: string, layers: readonly IgnoreLayer[]): boolean =>
+    !exclude.file(rel, name) &&
+    !(opts.honourGitignore && isGitIgnored(layers, rel, false)) &&
+    (include === undefined || include.ignores(rel));
   /** The layers for a folder's contents, or undefined when the folder is left out. */
   const folderLayers = (rel: string, name: string, layers: readonly IgnoreLayer[]): readonly IgnoreLayer[] | undefined => {
     if (exclude.folder(rel, name)) return undefined;
     return opts.honourGitignore ? enterFolder(layers, rel) : layers;
   };
 
-  /** Stats a kept file (or a followed link to one) and records it. */
   const addFile = (rel: string, abs: string, size: number, mtimeMs: number): void => {
-    if (include && !include.ignores(rel)) return;
-    if (size > opts.maxFileBytes) {
-      skip(rel, 'too-large', `${size} bytes, over the limit of ${opts.maxFileBytes} bytes.`);
-    } else {
-      files.push({ path: rel, absPath: abs, size, mtimeMs });
-    }
+    if (size > opts.maxFileBytes) skip(rel, 'too-large', `${size} bytes, over the limit of ${opts.maxFileBytes} bytes.`);
+    else files.push({ path: rel, absPath: abs, size, mtimeMs });
   };
 
-  const visitFile = async (rel: string, abs: string): Promise<void> => {
+  const visitFile = (rel: string, abs: string): void => {
     try {
-      const st = await stat(abs);
-      if (st.isFile()) addFile(rel, abs, st.size, st.mtimeMs);
+      // undefined: deleted since the folder was read, which is not worth a report.
+      const st = statSync(abs, { throwIfNoEntry: false });
+      if (st?.isFile()) addFile(rel, abs, st.size, st.mtimeMs);
     } catch (err) {
-      // A file deleted since the folder was read is simply gone, not worth a report.
-      if ((err as NodeJS.ErrnoException).code !== 'ENOENT') skip(rel, 'unreadable', describeFsError(err));
+      skip(rel, 'unreadable', describeFsError(err));
     }
   };
 
-  const visitLink = async (
-    rel: string, abs: string, name: string, parent: Chain, layers: readonly IgnoreLayer[],
-  ): Promise<void> => {
+  const visitLink = (rel: string, abs: string, name: string, parent: Chain, layers: readonly IgnoreLayer[]): void => {
     let st: BigIntStats;
     try {
-      st = await stat(abs, { bigint: true });
+      st = statSync(abs, { bigint: true });
     } catch (err) {
-      if (fileExcluded(rel, name, layers)) return;
+      if (!fileWanted(rel, name, layers)) return;
       const code = (err as NodeJS.ErrnoException).code;
       if (code === 'ELOOP') skip(rel, 'symlink-loop', 'The link resolves to itself.');
       else if (code === 'ENOENT' || code === 'ENOTDIR') skip(rel, 'broken-symlink', 'The link points to nothing.');
@@ -110,7 +106,7 @@ export async function walkFolder(
     if (st.isDirectory()) {
       const inner = folderLayers(rel, name, layers);
       if (inner) linked.push({ abs, rel, layers: inner, parent, key: `${st.dev}:${st.ino}` });
-    } else if (st.isFile() && !fileExcluded(rel, name, layers)) {
+    } else if (st.isFile() && fileWanted(rel, name, layers)) {
       addFile(rel, abs, Number(st.size), Number(st.mtimeNs) / 1e6);
     }
   };
@@ -120,19 +116,19 @@ export async function walkFolder(
     let entries: Dirent[];
     let key: string;
     try {
+      entries = await readdir(job.abs, { withFileTypes: true });
       if (job.key === undefined) {
-        const [st, list] = await Promise.all([stat(job.abs, { bigint: true }), readdir(job.abs, { withFileTypes: true })]);
+        const st = statSync(job.abs, { bigint: true });
         key = `${st.dev}:${st.ino}`;
         if (!claim(job, key)) return;
-        entries = list;
       } else {
         key = job.key;
-        entries = await readdir(job.abs, { withFileTypes: true });
       }
     } catch (err) {
       skip(job.rel, 'unreadable', describeFsError(err));
       return;
     }
+    checkCancel();
     const here: Chain = { key, parent: job.parent };
     const prefix = job.rel === '' ? '' : `${job.rel}/`;
     let layers = job.layers;
@@ -143,22 +139,22 @@ export async function walkFolder(
         skip(`${prefix}.gitignore`, 'unreadable', describeFsError(err));
       }
     }
-    const pending: Promise<void>[] = [];
+    // Children are stat'ed synchronously: measured on a 78k-file tree, a promise-based stat
+    // costs about ten times the CPU of statSync; folders are still read concurrently.
     for (const entry of entries) {
-      const rel = prefix + entry.name;
-      const abs = join(job.abs, entry.name);
-      const kind = direntKind(entry) ?? (await kindByLstat(abs));
+      const name = entry.name;
+      const rel = prefix + name;
+      const abs = join(job.abs, name);
+      const kind = direntKind(entry) ?? kindByLstat(abs);
       if (kind === 'dir') {
-        const inner = folderLayers(rel, entry.name, layers);
+        const inner = folderLayers(rel, name, layers);
         if (inner) push({ abs, rel, layers: inner, parent: here });
       } else if (kind === 'file') {
-        if (!fileExcluded(rel, entry.name, layers)) pending.push(visitFile(rel, abs));
+        if (fileWanted(rel, name, layers)) visitFile(rel, abs);
       } else if (kind === 'link' && opts.followSymlinks) {
-        pending.push(visitLink(rel, abs, entry.name, here, layers));
+        visitLink(rel, abs, name, here, layers);
       }
     }
-    checkCancel();
-    await Promise.all(pending);
   };
 
   /** Claims a folder's identity; false (and a skip entry) if it was met before. */
@@ -205,9 +201,9 @@ function direntKind(e: Dirent): EntryKind | undefined {
   return undefined; // the file system did not say (DT_UNKNOWN)
 }
 
-async function kindByLstat(abs: string): Promise<EntryKind> {
+function kindByLstat(abs: string): EntryKind {
   try {
-    const st = await lstat(abs);
+    const st = lstatSync(abs);
     return st.isFile() ? 'file' : st.isDirectory() ? 'dir' : st.isSymbolicLink() ? 'link' : 'other';
   } catch {
     return 'other'; // vanished since readdir
