@@ -7,7 +7,7 @@ import * as vscode from 'vscode';
 import { registerCommands } from './commands.js';
 import { FileEvents } from './fileEvents.js';
 import { IndexController, type ControllerHost } from './indexController.js';
-import { summaryOf } from './indexState.js';
+import { summaryOf, type IndexState } from './indexState.js';
 import { NearbyProvider } from './nearbyView.js';
 import { SearchResultsProvider } from './searchView.js';
 import { IndexStatusBar } from './statusBar.js';
@@ -16,7 +16,14 @@ import { startIndexWorker } from './workerHost.js';
 /** Name of the index file inside the extension's workspace storage folder. */
 export const INDEX_FILE_NAME = 'index.undertone';
 
-export function activate(context: vscode.ExtensionContext): void {
+/** What activate() returns: read-only access to the index state (used by the in-editor tests). */
+export interface UndertoneApi {
+  readonly state: () => IndexState;
+  readonly onDidChangeState: (listener: (state: IndexState) => void) => vscode.Disposable;
+  readonly indexFile: string | undefined;
+}
+
+export function activate(context: vscode.ExtensionContext): UndertoneApi {
   const log = vscode.window.createOutputChannel('Undertone', { log: true });
   const storage = context.storageUri?.scheme === 'file' ? context.storageUri.fsPath : undefined;
   const indexFile = storage ? join(storage, INDEX_FILE_NAME) : undefined;
@@ -90,6 +97,11 @@ export function activate(context: vscode.ExtensionContext): void {
   status.render(controller.state);
   setContext('undertone.state', controller.state.kind);
   void controller.start().catch((err: unknown) => log.error(`Start-up failed: ${err instanceof Error ? err.message : String(err)}`));
+  return {
+    state: () => controller.state,
+    onDidChangeState: (listener) => new vscode.Disposable(controller.onDidChangeState(listener).dispose),
+    indexFile,
+  };
 }
 
 export function deactivate(): void {

@@ -1,0 +1,187 @@
+// The packaged extension in a real editor (code-server) and browser (Chromium), driven through
+// the UI as a person would: palette commands, quick picks, the Undertone views, the editor and
+// the Explorer. Expectations come from demo/expectations.json (written with the demo workspace:
+// queries whose best answer uses other words, and files' expected neighbours).
+// Run by `npm run test:e2e` (which installs the editor, builds and packages first).
+import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import type { Locator } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { OUTPUT_DIR, startEditor, type RunningEditor } from '../../scripts/e2e/editor.js';
+import { waitFor } from '../../scripts/e2e/process.js';
+import type { ListRow } from '../../scripts/e2e/workbench.js';
+
+const REPO = path.resolve(import.meta.dirname, '../..');
+const VSIX = path.join(REPO, 'undertone.vsix');
+const DEMO = path.join(REPO, 'demo', 'workspace');
+const EXPECT = path.join(REPO, 'demo', 'expectations.json');
+
+interface Expectations {
+  queries: { text: string; expectTop3: string[] }[];
+  neighbours: { file: string; expectAmongTop5: string[] }[];
+  editScenario: { file: string; append: string; query: string; expectNotTop3Before: string[]; expectTop3After: string[] };
+}
+
+const base = (p: string) => p.slice(p.lastIndexOf('/') + 1);
+const labels = (rows: ListRow[]) => rows.map((r) => r.label);
+
+describe('Undertone in a real editor', () => {
+  let root: string;
+  let workspace: string;
+  let editor: RunningEditor | undefined;
+  let expectations: Expectations;
+  const t0 = Date.now();
+
+  /** Status bar text of the Undertone item. */
+  const status = (): Locator => editor!.page.locator('.statusbar-item').filter({ hasText: /Undertone/ }).first();
+
+  /** Reads a view's rows until `accept` holds (views update asynchronously). */
+  const waitForRows = async (view: string, accept: (rows: ListRow[]) => boolean, what: string): Promise<ListRow[]> => {
+    let last: ListRow[] = [];
+    try {
+      return await waitFor(async () => {
+        last = await editor!.readTreeView(view, { minRows: 0 });
+        return accept(last) ? last : false;
+      }, 30_000, what);
+    } catch (err) {
+      throw new Error(`${(err as Error).message}; last rows of ${view}: ${JSON.stringify(labels(last))}`);
+    }
+  };
+
+  /** Runs the search command and returns the quick pick's rows once results show. */
+  const search = async (query: string): Promise<ListRow[]> => {
+    await editor!.runCommand('Undertone: Search Workspace by Meaning…');
+    await editor!.quickInput.type(query);
+    await editor!.quickInput.submit();
+    await editor!.page.locator('.quick-input-widget .quick-input-title').filter({ hasText: /files by meaning/ }).waitFor({ state: 'visible', timeout: 30_000 });
+    await editor!.page.locator('.quick-input-widget .quick-input-list .monaco-list-row').first().waitFor({ state: 'visible' });
+    return editor!.quickInput.rows();
+  };
+
+  const showUndertone = async (): Promise<void> => {
+    await editor!.runCommand('Undertone: Focus on Nearby View');
+  };
+
+  beforeAll(async () => {
+    if (!existsSync(VSIX)) throw new Error(`${VSIX} is missing: run "npm run package" first (npm run test:e2e does).`);
+    if (!existsSync(EXPECT)) throw new Error('demo/expectations.json is missing');
+    expectations = JSON.parse(readFileSync(EXPECT, 'utf8')) as Expectations;
+    root = mkdtempSync(path.join(tmpdir(), 'undertone-ext-e2e-'));
+    workspace = path.join(root, 'ferry-cooperative');
+    cpSync(DEMO, workspace, { recursive: true });
+    editor = await startEditor({
+      workspaceFolder: workspace,
+      extensionsDir: path.join(root, 'extensions'),
+      userDataDir: path.join(root, 'user-data'),
+      vsixPath: VSIX,
+      settings: { 'files.autoSave': 'off', 'explorer.confirmDelete': true },
+      name: 'extension',
+    });
+  });
+
+  afterAll(async () => {
+    await editor?.stop();
+    // The extension's log (from the editor logs copied by stop()) holds the measured save → Nearby times.
+    const logs = path.join(OUTPUT_DIR, 'extension.editor-logs');
+    const found = existsSync(logs) ? findFiles(logs, 'Undertone.log') : [];
+    for (const f of found) for (const line of readFileSync(f, 'utf8').split('\n')) if (/Loaded|Built|Saved .*Nearby/.test(line)) console.log(line.trim());
+    console.log(`e2e: ${((Date.now() - t0) / 1000).toFixed(1)} s in all`);
+    if (root) rmSync(root, { recursive: true, force: true });
+  });
+
+  it('builds the index after start-up and reports it in the status bar', async () => {
+    await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
+    const text = (await status().textContent()) ?? '';
+    const files = Number(/([\d,]+) files/.exec(text)![1].replace(/,/g, ''));
+    expect(files).toBeGreaterThan(50);
+    await showUndertone();
+    await editor!.screenshot('extension-1-index-ready');
+  });
+
+  it('finds a file that answers a query in other words, in the quick pick and in Search Results', async () => {
+    const q = expectations.queries[0];
+    const rows = await search(q.text);
+    await editor!.screenshot('extension-2-search-quick-pick');
+    const top3 = labels(rows).slice(0, 3);
+    for (const want of q.expectTop3) expect(top3).toContain(base(want));
+    // Each row shows its path and score as description.
+    const row = rows.find((r) => r.label === base(q.expectTop3[0]))!;
+    expect(row.description).toMatch(new RegExp(`^\\d\\.\\d\\d\\s+${q.expectTop3[0].replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}$`));
+    await editor!.quickInput.close();
+    await showUndertone();
+    const results = await waitForRows('Search Results', (r) => r.length > 0, 'search results in the view');
+    expect(labels(results).slice(0, 3)).toContain(base(q.expectTop3[0]));
+    await editor!.screenshot('extension-3-search-results-view');
+  });
+
+  it('lists the expected neighbours of the file in the editor in the Nearby view', async () => {
+    const n = expectations.neighbours[0];
+    await editor!.openFile(n.file);
+    await showUndertone();
+    const rows = await waitForRows('Nearby', (r) => n.expectAmongTop5.every((f) => labels(r).slice(0, 5).includes(base(f))), `neighbours of ${n.file}`);
+    expect(rows.length).toBeGreaterThanOrEqual(5);
+    expect(rows[0].description).toMatch(/^\d\.\d\d/);
+    await editor!.screenshot('extension-4-nearby');
+  });
+
+  it('follows an edit as soon as it is saved', async () => {
+    const s = expectations.editScenario;
+    let rows = await search(s.query);
+    for (const f of s.expectNotTop3Before) expect(labels(rows).slice(0, 3)).not.toContain(base(f));
+    await editor!.quickInput.close();
+    await editor!.openFile(s.file);
+    const text = editor!.page.locator('.editor-instance .monaco-editor .view-lines').first();
+    await text.click();
+    await editor!.page.keyboard.press('Control+End');
+    await editor!.page.keyboard.insertText(s.append);
+    await editor!.page.keyboard.press('Control+S');
+    await editor!.page.locator('.tabs-container .tab.active.dirty').waitFor({ state: 'detached', timeout: 30_000 });
+    // The Search Results view re-runs the last query when the index changes.
+    await showUndertone();
+    rows = await waitForRows('Search Results', (r) => s.expectTop3After.every((f) => labels(r).slice(0, 3).includes(base(f))), 'the edited file in the search results');
+    await editor!.screenshot('extension-5-after-edit');
+    rows = await search(s.query);
+    for (const f of s.expectTop3After) expect(labels(rows).slice(0, 3)).toContain(base(f));
+    await editor!.quickInput.close();
+  });
+
+  it('drops a deleted file from the Nearby and Search Results views', async () => {
+    const n = expectations.neighbours[0];
+    const victim = n.expectAmongTop5[0];
+    await editor!.openFile(n.file);
+    await showUndertone();
+    await waitForRows('Nearby', (r) => labels(r).includes(base(victim)), `${victim} among the neighbours before deleting it`);
+    // Delete it from the Explorer, as a person would.
+    await editor!.openFile(victim);
+    await editor!.runCommand('File: Reveal Active File in Explorer View');
+    const row = editor!.page.locator('.explorer-folders-view .monaco-list-row.selected').filter({ hasText: base(victim) }).first();
+    await row.waitFor({ state: 'visible', timeout: 30_000 });
+    await row.click();
+    await editor!.page.keyboard.press('Delete');
+    const dialog = editor!.page.locator('.monaco-dialog-box');
+    await dialog.waitFor({ state: 'visible', timeout: 30_000 });
+    await editor!.screenshot('extension-6-delete-dialog');
+    await dialog.locator('.monaco-button').filter({ hasText: /Delete|Move to Trash/ }).first().click();
+    await waitFor(() => !existsSync(path.join(workspace, victim)), 30_000, `${victim} to be deleted`);
+    await editor!.openFile(n.file);
+    await showUndertone();
+    const nearby = await waitForRows('Nearby', (r) => r.length > 0 && !labels(r).includes(base(victim)), `${victim} to leave the Nearby view`);
+    expect(labels(nearby)).not.toContain(base(victim));
+    await editor!.screenshot('extension-7-after-delete');
+    const rows = await search(`${n.file.replace(/[/.]/g, ' ')} fare calculator`);
+    expect(labels(rows)).not.toContain(base(victim));
+    await editor!.quickInput.close();
+    expect(statSync(path.join(workspace, n.file)).isFile()).toBe(true);
+  });
+});
+
+function findFiles(dir: string, name: string): string[] {
+  const out: string[] = [];
+  for (const e of readdirSync(dir, { withFileTypes: true })) {
+    const p = path.join(dir, e.name);
+    if (e.isDirectory()) out.push(...findFiles(p, name));
+    else if (e.name === name) out.push(p);
+  }
+  return out;
+}
