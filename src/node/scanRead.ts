@@ -72,7 +72,7 @@ export function checkByteCap(n: number): void {
 /** A short human message for a Node file-system error. */
 export function describeFsError(err: unknown): string {
   const e = err as NodeJS.ErrnoException;
-  if (e && typeof e.code === 'string') return `${e.code}: ${e.message}`;
+  if (e && typeof e.code === 'string' && !e.message.startsWith(e.code)) return `${e.code}: ${e.message}`;
   return err instanceof Error ? err.message : String(err);
 }
 

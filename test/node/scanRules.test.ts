@@ -1,5 +1,5 @@
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -85,6 +85,15 @@ describe.skipIf(!hasGit)('.gitignore layering agrees with git (skipped when git 
     const keeps = gitKeeps(root);
     expect(keeps).toEqual(['.gitignore', 'c.md', 'keep.bak']);
     expect(await scanKeeps(root)).toEqual(keeps);
+  });
+
+  it.skipIf(process.platform === 'win32')('does not read a .gitignore that is a symbolic link, as git does not', async () => {
+    const root = tree({ rules: '*.log\n', 'a.log': '', 'b.md': '' });
+    symlinkSync('rules', join(root, '.gitignore'));
+    const keeps = gitKeeps(root);
+    expect(keeps).toContain('a.log');
+    // git lists the link itself as an entry; a scan that does not follow links leaves it out.
+    expect(await scanKeeps(root)).toEqual(keeps.filter((p) => p !== '.gitignore'));
   });
 
   it('matches git on 60 random trees with random nested .gitignore files (seeded)', async () => {
