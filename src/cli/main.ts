@@ -7,7 +7,9 @@ import { UndertoneError } from '../core/errors.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
 import { indexCommand } from './commands/indexCommand.js';
+import { lookalikesCommand } from './commands/lookalikesCommand.js';
 import { nearbyCommand } from './commands/nearbyCommand.js';
+import { topicsCommand } from './commands/topicsCommand.js';
 import { COMMON_OPTIONS, type Flags } from './context.js';
 import { processIo, type Io } from './output.js';
 
@@ -19,6 +21,8 @@ usage:
   undertone ask    <folder> --queries q.jsonl   batch: one JSON line out per {"id","text"} line in
   undertone nearby <folder> <file>          the files nearest in meaning to one file
   undertone eval   <folder> --queries q.jsonl --qrels qrels.tsv   MAP, P@10, nDCG@10
+  undertone topics <folder>                 topics, each named by its words and example files
+  undertone lookalikes <folder>             exact copies, near-copies and same-content pairs
 
 options:
   --top N                    how many results (default 10)
@@ -31,6 +35,9 @@ options:
   --include GLOB, --exclude GLOB   extra file filters (repeatable)
   --no-gitignore             index files that .gitignore excludes
   --rebuild                  (index) rebuild from scratch
+  --explain                  (ask, nearby) the words behind each score, with their shares
+  --topics N                 (topics) how many topics (default: chosen automatically)
+  --threshold J              (lookalikes) shingle Jaccard for near-copies (default 0.8)
   -q, --quiet                no notes or summary on stderr
 `;
 
@@ -38,6 +45,9 @@ const EXTRA_OPTIONS = {
   queries: { type: 'string' },
   qrels: { type: 'string' },
   rebuild: { type: 'boolean' },
+  explain: { type: 'boolean' },
+  topics: { type: 'string' },
+  threshold: { type: 'string' },
   help: { type: 'boolean', short: 'h' },
 } as const;
 
@@ -55,7 +65,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? 0 : 2;
   }
-  const needsFolder = ['index', 'ask', 'nearby', 'eval'];
+  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes'];
   if (!needsFolder.includes(command)) {
     io.err(`undertone: unknown command "${command}"\n\n${USAGE}`);
     return 2;
@@ -72,6 +82,10 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
         return await askCommand(folder, arg, flags, io);
       case 'nearby':
         return await nearbyCommand(folder, arg, flags, io);
+      case 'topics':
+        return await topicsCommand(folder, flags, io);
+      case 'lookalikes':
+        return await lookalikesCommand(folder, flags, io);
       default:
         return await evalCommand(folder, flags, io);
     }

@@ -1,7 +1,9 @@
 /** `undertone ask <folder> "<text>"` and batch mode `--queries file.jsonl`. */
 import { readFile } from 'node:fs/promises';
 import { InvalidInputError, NoKnownTermsError } from '../../core/errors.js';
+import { QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
+import { SurfaceForms } from '../../core/text/surfaceForms.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
 
@@ -42,12 +44,44 @@ export async function askCommand(folder: string, text: string | undefined, flags
 
 function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io: Io): void {
   const hits = index.search(text, { top });
+  const explainer = flags.explain ? new QueryExplainer(index, text) : null;
+  const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
+  forms.add(text);
+  const why = (path: string): Explanation | null => explainer?.explain(path) ?? null;
   if (flags.json) {
-    io.out(JSON.stringify({ query: text, results: hits.map((h) => ({ path: h.path, score: round(h.score), concept: round(h.conceptScore), lexical: round(h.lexicalScore) })) }));
+    const results = hits.map((h) => {
+      const e = why(h.path);
+      return { path: h.path, score: round(h.score), concept: round(h.conceptScore), lexical: round(h.lexicalScore), ...(e ? { explain: explanationJson(e, forms) } : {}) };
+    });
+    io.out(JSON.stringify({ query: text, results }));
     return;
   }
   const rows = hits.map((h, i) => [String(i + 1), h.score.toFixed(3), h.path]);
-  for (const line of formatTable(['rank', 'score', 'path'], rows, [true, true, false])) io.out(line);
+  const lines = formatTable(['rank', 'score', 'path'], rows, [true, true, false]);
+  lines.slice(0, 2).forEach((l) => io.out(l));
+  hits.forEach((h, i) => {
+    io.out(lines[i + 2]);
+    const e = why(h.path);
+    if (e) io.out(explanationLine(e, forms));
+  });
+  if (explainer && hits.length > 0) io.out('why: each word\'s share of the score (meaning and word-match parts together); ~ marks a word not in the file, counted through related words.');
+}
+
+/** One indented line: the largest shares, and the rest summed, adding up to the score. */
+export function explanationLine(e: Explanation, forms: SurfaceForms, count = 5): string {
+  const { top, rest, restTerms } = topShares(e, count);
+  const parts = top.map((t) => `${forms.wordFor(t.term)}${t.inBoth ? '' : '~'} ${t.share.toFixed(3)}`);
+  if (restTerms > 0) parts.push(`${restTerms} more ${rest.toFixed(3)}`);
+  return `        why: ${parts.join(', ') || 'no shared meaning'}  (= ${e.score.toFixed(3)})`;
+}
+
+export function explanationJson(e: Explanation, forms: SurfaceForms, count = 10): unknown {
+  const { top, rest, restTerms } = topShares(e, count);
+  return {
+    score: round(e.score),
+    terms: top.map((t) => ({ word: forms.wordFor(t.term), term: t.term, share: round(t.share), concept: round(t.concept), lexical: round(t.lexical), inBoth: t.inBoth })),
+    rest: { terms: restTerms, share: round(rest) },
+  };
 }
 
 export function round(x: number): number {

@@ -1,9 +1,12 @@
 /** `undertone nearby <folder> <file>`: the files nearest in meaning to one file. */
-import { relative, resolve } from 'node:path';
+import { join, relative, resolve } from 'node:path';
 import { InvalidInputError, NotIndexedError } from '../../core/errors.js';
+import { explainPair } from '../../core/explain/explain.js';
+import { SurfaceForms } from '../../core/text/surfaceForms.js';
+import { readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
-import { round } from './askCommand.js';
+import { explanationJson, explanationLine, round } from './askCommand.js';
 
 export async function nearbyCommand(folder: string, file: string | undefined, flags: Flags, io: Io): Promise<number> {
   if (!file) throw new InvalidInputError('nearby needs a file: undertone nearby <folder> <file>');
@@ -14,11 +17,31 @@ export async function nearbyCommand(folder: string, file: string | undefined, fl
   const key = index.has(file) ? file : index.has(fromCwd) ? fromCwd : undefined;
   if (key === undefined) throw new NotIndexedError(file);
   const hits = index.nearby(key, { top });
+  const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
+  if (flags.explain) {
+    // Readable words for the stems: read the file and its neighbours (unreadable ones keep stems).
+    for (const p of [key, ...hits.map((h) => h.path)]) {
+      const got = await readIndexableText(join(resolve(folder), p), 1_048_576).catch(() => null);
+      if (got?.kind === 'text') forms.add(got.text);
+    }
+  }
+  const why = (path: string) => (flags.explain ? explainPair(index, key, path) : null);
   if (flags.json) {
-    io.out(JSON.stringify({ file: key, results: hits.map((h) => ({ path: h.path, score: round(h.score) })) }));
+    const results = hits.map((h) => {
+      const e = why(h.path);
+      return { path: h.path, score: round(h.score), ...(e ? { explain: explanationJson(e, forms) } : {}) };
+    });
+    io.out(JSON.stringify({ file: key, results }));
     return 0;
   }
   const rows = hits.map((h, i) => [String(i + 1), h.score.toFixed(3), h.path]);
-  for (const line of formatTable(['rank', 'score', 'path'], rows, [true, true, false])) io.out(line);
+  const lines = formatTable(['rank', 'score', 'path'], rows, [true, true, false]);
+  lines.slice(0, 2).forEach((l) => io.out(l));
+  hits.forEach((h, i) => {
+    io.out(lines[i + 2]);
+    const e = why(h.path);
+    if (e) io.out(explanationLine(e, forms));
+  });
+  if (flags.explain && hits.length > 0) io.out('why: each word\'s share of the similarity (the shares add up to the score); ~ marks a word found in only one of the two files.');
   return 0;
 }
