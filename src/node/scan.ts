@@ -113,7 +113,7 @@ export async function scanFolder(
   options: Partial<ScanOptions> = {},
   signal?: AbortSignal,
 ): Promise<ScanResult> {
-  const opts: ScanOptions = { ...DEFAULT_SCAN_OPTIONS, ...options };
+  const opts = withDefaults(options);
   checkByteCap(opts.maxFileBytes);
   const abs = resolve(root);
   let rootStat;
@@ -128,6 +128,19 @@ export async function scanFolder(
   files.sort((a, b) => compareCodeUnits(a.path, b.path));
   skipped.sort((a, b) => compareCodeUnits(a.path, b.path));
   return { root: abs, files, skipped };
+}
+
+/** Options over the defaults; a field given as undefined keeps its default. */
+function withDefaults(options: Partial<ScanOptions>): ScanOptions {
+  const d = DEFAULT_SCAN_OPTIONS;
+  return {
+    include: options.include ?? d.include,
+    exclude: options.exclude ?? d.exclude,
+    useDefaultExcludes: options.useDefaultExcludes ?? d.useDefaultExcludes,
+    maxFileBytes: options.maxFileBytes ?? d.maxFileBytes,
+    honourGitignore: options.honourGitignore ?? d.honourGitignore,
+    followSymlinks: options.followSymlinks ?? d.followSymlinks,
+  };
 }
 
 function compareCodeUnits(a: string, b: string): number {

@@ -37,7 +37,7 @@ export interface ExcludeNames {
  * list in gitignore syntax.
  */
 export const DEFAULT_EXCLUDE_NAMES: ExcludeNames = Object.freeze({
-  folders: [
+  folders: Object.freeze([
     // version control
     '.git', '.hg', '.svn', '.bzr', '_darcs', 'cvs', '.jj',
     // dependencies and environments
@@ -47,16 +47,16 @@ export const DEFAULT_EXCLUDE_NAMES: ExcludeNames = Object.freeze({
     'dist', 'out', 'build', 'target', 'coverage', '.nyc_output', '.next', '.nuxt',
     '.svelte-kit', '.angular', '.turbo', '.parcel-cache', '.cache', '.gradle', '.mypy_cache',
     '.pytest_cache', '.ruff_cache', '.terraform', '.vscode-test',
-  ],
-  files: [
+  ]),
+  files: Object.freeze([
     // lock files
     'package-lock.json', 'npm-shrinkwrap.json', 'yarn.lock', 'pnpm-lock.yaml', 'bun.lockb',
     'cargo.lock', 'poetry.lock', 'pipfile.lock', 'uv.lock', 'composer.lock', 'gemfile.lock',
     'go.sum', 'flake.lock', 'packages.lock.json',
     // desktop metadata
     '.ds_store', 'thumbs.db',
-  ],
-  suffixes: [
+  ]),
+  suffixes: Object.freeze([
     // minified bundles and source maps
     '.min.js', '.min.css', '.map',
     // images, audio, video
@@ -68,7 +68,7 @@ export const DEFAULT_EXCLUDE_NAMES: ExcludeNames = Object.freeze({
     '.exe', '.dll', '.so', '.dylib', '.o', '.obj', '.a', '.lib', '.class', '.pyc', '.pyo', '.pyd',
     '.wasm', '.node', '.woff', '.woff2', '.ttf', '.otf', '.eot', '.pdf', '.doc', '.docx', '.xls',
     '.xlsx', '.ppt', '.pptx', '.odt', '.sqlite', '.sqlite3', '.db',
-  ],
+  ]),
 });
 
 /** DEFAULT_EXCLUDE_NAMES written as gitignore patterns (none of the names holds a glob character). */

@@ -136,6 +136,12 @@ describe('scanFolder', () => {
     await expect(scanFolder(join(root, 'f.txt'))).rejects.toThrow(/is a file, not a folder/);
   });
 
+  it('treats an option given as undefined as its default', async () => {
+    const root = tree({ 'a.md': 'aaaa', 'node_modules/x.js': '' });
+    const r = await scanFolder(root, { include: undefined, exclude: undefined, maxFileBytes: undefined, useDefaultExcludes: undefined });
+    expect(r.files.map((f) => f.path)).toEqual(['a.md']);
+  });
+
   it('rejects a size cap that is not a positive whole number', async () => {
     const root = tree({ 'f.txt': '' });
     await expect(scanFolder(root, { maxFileBytes: -1 })).rejects.toBeInstanceOf(InvalidInputError);
