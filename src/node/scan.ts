@@ -8,8 +8,9 @@
  * device and inode, so a link to a parent folder ends as a reported `symlink-loop`. File content
  * is not read here: `readIndexableText` (scanRead.ts) reads and sniffs one file when indexing.
  *
- * fast-glob is not used for the walk: it cannot apply nested .gitignore files with git's
- * precedence while walking, nor recognise a folder reached twice through links.
+ * fast-glob is not used for the walk: it takes one fixed ignore list, so the .gitignore files
+ * found on the way cannot be layered with git's precedence, and deciding which path a folder
+ * reached twice through links is listed under needs the identity check done here.
  */
 
 import { stat } from 'node:fs/promises';
