@@ -1,0 +1,109 @@
+/**
+ * Spherical k-means. References: exhaustive search over every 2-way partition of small point sets
+ * (the objective Σ_c ‖Σ_{i∈c} x_i‖ is what Dhillon & Modha 2001 maximise, since the best centre of
+ * a cluster is its normalised sum; the k-means cost on the sphere is Σ‖x − μ‖² = 2(n − objective));
+ * the fixed-point conditions of Lloyd's iteration; planted, well-separated clusters (adjusted Rand
+ * index 1 expected). k-means++ only promises cost ≤ 8(ln k + 2)·optimum in expectation (Arthur &
+ * Vassilvitskii 2007); on structureless random points we ask for ≤ 1.05·optimum (our choice).
+ */
+import { describe, expect, it } from 'vitest';
+import { createRandom } from '../../../src/core/random.js';
+import { sphericalKMeans } from '../../../src/core/topics/sphericalKMeans.js';
+import { adjustedRandIndex, plantedClusters } from './fixtures.js';
+
+function objectiveOf(points: Float64Array, dims: number, labels: ArrayLike<number>, k: number): number {
+  const sums = new Float64Array(k * dims);
+  for (let i = 0; i < labels.length; i++) for (let d = 0; d < dims; d++) sums[labels[i] * dims + d] += points[i * dims + d];
+  let total = 0;
+  for (let c = 0; c < k; c++) {
+    let ss = 0;
+    for (let d = 0; d < dims; d++) ss += sums[c * dims + d] ** 2;
+    total += Math.sqrt(ss);
+  }
+  return total;
+}
+
+function unitPoints(n: number, dims: number, seed: number): Float64Array {
+  const r = createRandom(seed);
+  const p = new Float64Array(n * dims);
+  for (let i = 0; i < n; i++) {
+    let ss = 0;
+    for (let d = 0; d < dims; d++) ss += (p[i * dims + d] = r.normal()) ** 2;
+    for (let d = 0; d < dims; d++) p[i * dims + d] /= Math.sqrt(ss);
+  }
+  return p;
+}
+
+describe('spherical k-means', () => {
+  for (const seed of [1, 2, 3, 4, 5]) {
+    it(`comes within 5% of the exhaustive-search optimum cost for 2 clusters of 10 random unit vectors (instance ${seed})`, () => {
+      const n = 10;
+      const dims = 3;
+      const p = unitPoints(n, dims, seed);
+      let best = 0;
+      for (let mask = 0; mask < 1 << (n - 1); mask++) {
+        const labels = Array.from({ length: n }, (_, i) => (i === 0 ? 0 : (mask >> (i - 1)) & 1));
+        best = Math.max(best, objectiveOf(p, dims, labels, 2));
+      }
+      const got = sphericalKMeans(p, n, dims, 2, { seed });
+      expect(got.objective).toBeCloseTo(objectiveOf(p, dims, got.assignment, got.clusters), 9);
+      expect(got.objective).toBeLessThanOrEqual(best + 1e-9);
+      expect(2 * (n - got.objective)).toBeLessThanOrEqual(1.05 * 2 * (n - best));
+    });
+  }
+
+  it('ends at a fixed point: each point at its nearest centre, each centre its normalised member sum', () => {
+    const dims = 8;
+    const p = unitPoints(200, dims, 9);
+    const got = sphericalKMeans(p, 200, dims, 5, { seed: 3 });
+    const k = got.clusters;
+    for (let i = 0; i < 200; i++) {
+      const cos = (c: number) => {
+        let s = 0;
+        for (let d = 0; d < dims; d++) s += p[i * dims + d] * got.centres[c * dims + d];
+        return s;
+      };
+      for (let c = 0; c < k; c++) expect(cos(got.assignment[i])).toBeGreaterThanOrEqual(cos(c) - 1e-12);
+    }
+    for (let c = 0; c < k; c++) {
+      const sum = new Float64Array(dims);
+      for (let i = 0; i < 200; i++) if (got.assignment[i] === c) for (let d = 0; d < dims; d++) sum[d] += p[i * dims + d];
+      const norm = Math.hypot(...sum);
+      for (let d = 0; d < dims; d++) expect(got.centres[c * dims + d]).toBeCloseTo(sum[d] / norm, 9);
+    }
+  });
+
+  it('reaches the exhaustive-search optimum when the points have two real groups', () => {
+    const { points, labels, dims } = plantedClusters(2, 6, 3, 0.3, 5);
+    let best = 0;
+    for (let mask = 0; mask < 1 << 11; mask++) best = Math.max(best, objectiveOf(points, dims, Array.from({ length: 12 }, (_, i) => (i === 0 ? 0 : (mask >> (i - 1)) & 1)), 2));
+    const got = sphericalKMeans(points, labels.length, dims, 2, { seed: 1 });
+    expect(got.objective).toBeCloseTo(best, 9);
+  });
+
+  it('recovers planted, well-separated clusters exactly', () => {
+    const { points, labels, dims } = plantedClusters(4, 30, 20, 0.15, 11);
+    const got = sphericalKMeans(points, labels.length, dims, 4, { seed: 2 });
+    expect(adjustedRandIndex(labels, Array.from(got.assignment))).toBeCloseTo(1, 12);
+  });
+
+  it('gives the same answer for the same seed', () => {
+    const p = unitPoints(120, 6, 4);
+    const a = sphericalKMeans(p, 120, 6, 4, { seed: 8 });
+    const b = sphericalKMeans(p, 120, 6, 4, { seed: 8 });
+    expect(Array.from(b.assignment)).toEqual(Array.from(a.assignment));
+    expect(b.centres).toEqual(a.centres);
+  });
+
+  it('returns one cluster when every point is the same (a thousand identical files)', () => {
+    const p = new Float64Array(1000 * 4);
+    for (let i = 0; i < 1000; i++) p.set([0.5, 0.5, 0.5, 0.5], i * 4);
+    const got = sphericalKMeans(p, 1000, 4, 6);
+    expect(got.clusters).toBe(1);
+    expect(new Set(got.assignment)).toEqual(new Set([0]));
+  });
+
+  it('refuses a non-positive cluster count', () => {
+    expect(() => sphericalKMeans(unitPoints(3, 2, 1), 3, 2, 0)).toThrow(/positive whole number/);
+  });
+});
