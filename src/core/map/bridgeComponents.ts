@@ -2,22 +2,27 @@
  * Joining the parts of a disconnected neighbour graph, so every file has a finite geodesic
  * distance to every landmark. Choice (documented for the map): instead of laying out each part on
  * its own and packing the pieces, we add "bridge" edges between parts, Borůvka style: each round,
- * every part links to (approximately) its closest point outside itself, until one part remains.
- * A bridge is as long as the gap it spans (times lengthScale), so separate groups stay apart on
- * the map by their true distance.
+ * every part links to its closest point in each of its `partners` nearest other parts, until one
+ * part remains. Linking to more than the single nearest part (a spanning tree of parts would lay
+ * groups out along a chain) keeps cycles among groups, so the geodesic distance between two
+ * groups stays close to their direct distance and the groups spread over both map axes. A bridge
+ * is as long as the gap it spans (times lengthScale).
  *
  * Per round: each part contributes up to `sampleSize` seeded sample members as representatives;
- * each part's samples are compared with all other parts' representatives to pick the partner part
- * and a starting pair, which is then refined by alternating "closest member of this part to the
+ * each part's samples are compared with all other parts' representatives to rank partner parts
+ * and give starting pairs, which are refined by alternating "closest member of this part to the
  * partner point / closest partner member to this point" (a local search that never lengthens the
- * pair). When every part has at most sampleSize members the pair found is exactly the closest
- * pair. Cost per round O((Σ samples)²·dim + n·refineSteps·dim); parts at least halve per round.
+ * pair). When every part has at most sampleSize members the pairs found are exactly the closest
+ * pairs. Cost per round O((Σ samples)²·dim + partners·n·refineSteps·dim); parts at least halve
+ * per round.
  */
 import { type RandomSource } from '../random.js';
 import type { Components, ExtraEdge } from './neighbourGraph.js';
 import { rowDistance, type RowVectors } from './rowVectors.js';
 
 export interface BridgeOptions {
+  /** Nearest other parts each part links to per round. @default 3 (common practice) */
+  readonly partners: number;
   /** Sample members per part. @default 32 (common practice) */
   readonly sampleSize: number;
   /** Budget on all representatives together; per-part samples shrink when parts are many. @default 4096 */
@@ -28,7 +33,7 @@ export interface BridgeOptions {
   readonly lengthScale: number;
 }
 
-export const DEFAULT_BRIDGE_OPTIONS: BridgeOptions = { sampleSize: 32, maxRepresentatives: 4096, refineSteps: 4, lengthScale: 1 };
+export const DEFAULT_BRIDGE_OPTIONS: BridgeOptions = { partners: 3, sampleSize: 32, maxRepresentatives: 4096, refineSteps: 4, lengthScale: 1 };
 
 export function bridgeComponents(
   v: RowVectors,
@@ -57,20 +62,24 @@ export function bridgeComponents(
     const samples = groups.map((members) => sampleOf(members, perPart, rng));
     const round: ExtraEdge[] = [];
     for (let g = 0; g < groups.length; g++) {
-      let a = -1;
-      let b = -1;
-      let partner = -1;
-      let d = Number.POSITIVE_INFINITY;
+      // Closest sampled pair to every other part, then the `partners` nearest parts.
+      const best = groups.map(() => ({ a: -1, b: -1, d: Number.POSITIVE_INFINITY }));
       for (const x of samples[g]) {
         for (let h = 0; h < groups.length; h++) {
           if (h === g) continue;
+          const cur = best[h];
           for (const y of samples[h]) {
             const dd = rowDistance(v, norms, x, y);
-            if (dd < d) [a, b, partner, d] = [x, y, h, dd];
+            if (dd < cur.d) [cur.a, cur.b, cur.d] = [x, y, dd];
           }
         }
       }
-      round.push(refine(v, norms, groups[g], groups[partner], a, b, d, opts.refineSteps));
+      const order = best
+        .map((p, h) => ({ ...p, h }))
+        .filter((p) => p.h !== g)
+        .sort((p, q) => p.d - q.d || p.h - q.h)
+        .slice(0, Math.max(1, opts.partners));
+      for (const p of order) round.push(refine(v, norms, groups[g], groups[p.h], p.a, p.b, p.d, opts.refineSteps));
     }
     for (const e of round) {
       const key = e.a < e.b ? `${e.a}:${e.b}` : `${e.b}:${e.a}`;

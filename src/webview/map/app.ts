@@ -1,0 +1,333 @@
+/// <reference lib="dom" />
+/**
+ * The map page: toolbar (Map / Spectrum tabs, search box, Quick / Faithful layout switch, Fit),
+ * the map canvas with tooltip, topic legend and status line, and the spectrum chart. State that
+ * matters to tests and assistive tech is mirrored on the root element as data-* attributes.
+ */
+import type { LayoutName, MapPageData } from '../../core/map/mapData.js';
+import type { HostToPageMessage, MapPoint } from '../../core/map/mapMessages.js';
+import type { MapBridge } from './bridge.js';
+import { el, formatCount } from './dom.js';
+import { Legend } from './legend.js';
+import { MapCanvas } from './mapCanvas.js';
+import { baseRadius, type MapScene } from './mapRenderer.js';
+import { SpectrumChart } from './spectrumChart.js';
+import { readTheme, watchTheme, type MapTheme } from './theme.js';
+import { Tooltip } from './tooltip.js';
+
+type Tab = 'map' | 'spectrum';
+interface SavedState {
+  readonly layout?: LayoutName;
+  readonly tab?: Tab;
+}
+interface QueryState {
+  readonly text: string;
+  readonly positions: { readonly quick: MapPoint | null; readonly faithful: MapPoint | null };
+  readonly neighbours: number[];
+  readonly similarities: number[];
+}
+
+export class MapApp {
+  private readonly n: number;
+  private layout: LayoutName;
+  private tab: Tab;
+  private theme: MapTheme;
+  private readonly scene: MapScene;
+  private readonly canvas: MapCanvas;
+  private readonly spectrum: SpectrumChart;
+  private readonly legend: Legend;
+  private readonly tooltip: Tooltip;
+  private readonly status = el('span', { className: 'um-status-text' });
+  private readonly statusPath = el('span', { className: 'um-status-path' });
+  private readonly layoutButtons: Record<LayoutName, HTMLButtonElement>;
+  private readonly tabButtons: Record<Tab, HTMLButtonElement>;
+  private readonly panels: Record<Tab, HTMLElement>;
+  private query: QueryState | null = null;
+  private nextRequest = 1;
+  private pendingRequest = 0;
+  private disposed = false;
+
+  constructor(
+    private readonly root: HTMLElement,
+    private readonly data: MapPageData,
+    private readonly bridge: MapBridge,
+  ) {
+    this.n = data.files.paths.length;
+    const saved = (bridge.loadState() ?? {}) as SavedState;
+    this.layout = saved.layout === 'quick' || data.layouts.faithful === null ? 'quick' : 'faithful';
+    this.tab = saved.tab === 'spectrum' ? 'spectrum' : 'map';
+    this.theme = readTheme(root, data.topicLabels.length);
+
+    const start = this.positions(this.layout);
+    const topicIds = Int32Array.from(data.files.topicIds);
+    this.scene = {
+      x: Float32Array.from(start.x),
+      y: Float32Array.from(start.y),
+      radius: Float32Array.from(data.files.tokenCounts, (t) => baseRadius(t, this.n)),
+      topicIds,
+      groups: groupByTopic(topicIds, data.topicLabels.length),
+      selected: null,
+      hovered: null,
+      focusTopic: null,
+      query: null,
+    };
+
+    const search = el('input', { attrs: { type: 'search', placeholder: 'Place a query on the map…', 'aria-label': 'Query', spellcheck: 'false' } });
+    const form = el('form', { className: 'um-search', attrs: { role: 'search' } }, [search, el('button', { text: 'Place', attrs: { type: 'submit' } })]);
+    form.addEventListener('submit', (e) => {
+      e.preventDefault();
+      this.submitQuery(search.value);
+    });
+    search.addEventListener('keydown', (e) => {
+      if (e.key === 'Escape') {
+        search.value = '';
+        this.submitQuery('');
+      }
+    });
+    this.tabButtons = { map: this.tabButton('map', 'Map'), spectrum: this.tabButton('spectrum', 'Spectrum') };
+    this.layoutButtons = { quick: this.layoutButton('quick', 'Quick'), faithful: this.layoutButton('faithful', 'Faithful') };
+    const fit = el('button', { className: 'um-icon-button', text: 'Fit', attrs: { type: 'button', title: 'Fit the whole map in view (0)' } });
+    fit.addEventListener('click', () => this.canvas.fit());
+    const toolbar = el('header', { className: 'um-toolbar' }, [
+      el('span', { className: 'um-title', text: data.title }),
+      el('div', { className: 'um-tabs', attrs: { role: 'tablist' } }, [this.tabButtons.map, this.tabButtons.spectrum]),
+      form,
+      el('span', { className: 'um-spacer' }),
+      el('div', { className: 'um-segment', attrs: { role: 'group', 'aria-label': 'Layout' } }, [this.layoutButtons.quick, this.layoutButtons.faithful]),
+      fit,
+    ]);
+
+    const mapCanvas = el('canvas', {
+      className: 'um-map-canvas',
+      attrs: { tabindex: '0', role: 'img', 'aria-label': `Concept map of ${this.n} files. Scroll to zoom, drag to pan, click a dot to open its file.` },
+    });
+    const mapPanel = el('section', { className: 'um-panel um-map-panel', attrs: { role: 'tabpanel', 'aria-label': 'Map' } }, [
+      mapCanvas,
+      el('div', { className: 'um-status', attrs: { 'aria-live': 'polite' } }, [this.status, this.statusPath]),
+      el('div', { className: 'um-hint', text: 'Scroll to zoom · drag to pan · click a dot to open' }),
+    ]);
+    this.tooltip = new Tooltip(mapPanel);
+    this.legend = new Legend(this.legendEntries(), (topic) => {
+      this.scene.focusTopic = topic;
+      this.canvas.requestDraw();
+    });
+    mapPanel.append(this.legend.element);
+    const spectrumCanvas = el('canvas', { attrs: { role: 'img', 'aria-label': 'Singular value spectrum' } });
+    const caption = el('div', { className: 'um-spectrum-caption' });
+    const spectrumPanel = el('section', { className: 'um-panel um-spectrum-panel', attrs: { role: 'tabpanel', 'aria-label': 'Spectrum' } }, [spectrumCanvas, caption]);
+    this.panels = { map: mapPanel, spectrum: spectrumPanel };
+    mapPanel.hidden = this.tab !== 'map';
+    spectrumPanel.hidden = this.tab !== 'spectrum';
+    root.append(toolbar, mapPanel, spectrumPanel);
+
+    this.canvas = new MapCanvas(mapCanvas, this.scene, this.theme, {
+      hover: (i, cx, cy) => this.hover(i, cx, cy),
+      click: (i) => this.click(i),
+    });
+    const { singularValues, totalEnergy, k } = data.spectrum;
+    this.spectrum = new SpectrumChart(spectrumCanvas, singularValues, totalEnergy, k, this.theme);
+    caption.textContent =
+      `Bars: the ${singularValues.length} singular values computed for the weighted term–document matrix. ` +
+      `Line: cumulative share of its energy, Σσ²/‖A‖²F. The index keeps k = ${k} factors (${(100 * this.spectrum.keptShare).toFixed(1)}%).`;
+    this.legend.setColours((t) => this.colourOf(t));
+    watchTheme(() => this.refreshTheme());
+    this.showTab(this.tab);
+    this.updateLayoutButtons();
+    this.setStatus(this.summary());
+    root.dataset.files = String(this.n);
+  }
+
+  receive(m: HostToPageMessage): void {
+    if (this.disposed) return;
+    switch (m.type) {
+      case 'init':
+        break;
+      case 'layout':
+        (this.data.layouts as { quick: unknown; faithful: unknown })[m.name] = m.layout;
+        this.updateLayoutButtons();
+        if (m.name === this.layout) this.canvas.showLayout(m.layout.x, m.layout.y, true);
+        break;
+      case 'queryResult':
+        if (m.requestId !== this.pendingRequest) return;
+        this.query = m;
+        this.applyQuery(true);
+        break;
+      case 'queryError':
+        if (m.requestId !== this.pendingRequest) return;
+        this.query = null;
+        this.applyQuery(false);
+        this.setStatus(m.message);
+        break;
+      case 'select':
+        this.select(m.index, false);
+        break;
+      case 'theme':
+        this.refreshTheme();
+        break;
+    }
+  }
+
+  dispose(): void {
+    this.disposed = true;
+  }
+
+  private positions(name: LayoutName): { x: number[]; y: number[] } {
+    return this.data.layouts[name] ?? this.data.layouts.quick;
+  }
+
+  private tabButton(tab: Tab, label: string): HTMLButtonElement {
+    const b = el('button', { text: label, attrs: { type: 'button', role: 'tab', 'aria-selected': 'false' } });
+    b.addEventListener('click', () => this.showTab(tab));
+    return b;
+  }
+
+  private layoutButton(name: LayoutName, label: string): HTMLButtonElement {
+    const titles = { quick: 'Linear projection on the two main concept axes: instant, may overlap groups', faithful: 'Landmark Isomap: keeps neighbourhoods along the data’s shape' };
+    const b = el('button', { text: label, attrs: { type: 'button', 'aria-pressed': 'false', title: titles[name] } });
+    b.addEventListener('click', () => this.switchLayout(name));
+    return b;
+  }
+
+  private showTab(tab: Tab): void {
+    this.tab = tab;
+    for (const t of ['map', 'spectrum'] as const) {
+      this.panels[t].hidden = t !== tab;
+      this.tabButtons[t].setAttribute('aria-selected', String(t === tab));
+    }
+    this.root.dataset.tab = tab;
+    if (tab === 'spectrum') this.spectrum.draw();
+    else this.canvas.requestDraw();
+    this.save();
+  }
+
+  private switchLayout(name: LayoutName): void {
+    if (name === this.layout || this.data.layouts[name] === null) return;
+    this.layout = name;
+    const p = this.positions(name);
+    this.canvas.showLayout(p.x, p.y, true);
+    this.applyQuery(false);
+    this.updateLayoutButtons();
+    this.bridge.post({ type: 'layoutChanged', layout: name });
+    this.setStatus(this.summary());
+    this.save();
+  }
+
+  private updateLayoutButtons(): void {
+    for (const name of ['quick', 'faithful'] as const) {
+      const b = this.layoutButtons[name];
+      b.setAttribute('aria-pressed', String(name === this.layout));
+      b.disabled = this.data.layouts[name] === null;
+    }
+    this.root.dataset.layout = this.layout;
+  }
+
+  private submitQuery(raw: string): void {
+    const text = raw.trim();
+    this.pendingRequest = text ? this.nextRequest++ : 0;
+    if (!text) {
+      this.query = null;
+      this.applyQuery(false);
+      this.setStatus(this.summary());
+      return;
+    }
+    this.setStatus(`Placing “${text}”…`);
+    this.bridge.post({ type: 'query', requestId: this.pendingRequest, text });
+  }
+
+  private applyQuery(reveal: boolean): void {
+    const q = this.query;
+    const at = q ? q.positions[this.layout] : null;
+    this.scene.query = q && at ? { x: at.x, y: at.y, neighbours: q.neighbours } : null;
+    this.root.dataset.queryPlaced = String(this.scene.query !== null);
+    if (q && at) {
+      const best = q.neighbours[0];
+      const near = best === undefined ? 'no similar files' : `nearest: ${this.data.files.paths[best]} (cosine ${q.similarities[0].toFixed(2)})`;
+      this.setStatus(`“${q.text}” placed · ${q.neighbours.length} nearest files ringed · ${near}`);
+      const sx = this.canvas.vp.sx(at.x);
+      const sy = this.canvas.vp.sy(at.y);
+      if (reveal && (sx < 0 || sy < 0 || sx > this.canvas.vp.width || sy > this.canvas.vp.height)) this.canvas.vp.pan(this.canvas.vp.width / 2 - sx, this.canvas.vp.height / 2 - sy);
+    }
+    this.canvas.requestDraw();
+  }
+
+  private hover(i: number | null, clientX: number, clientY: number): void {
+    if (this.scene.hovered !== i) {
+      this.scene.hovered = i;
+      this.canvas.requestDraw();
+    }
+    if (i === null) return this.tooltip.hide();
+    const t = this.data.files.topicIds[i];
+    this.tooltip.show(
+      {
+        path: this.data.files.paths[i],
+        topic: t >= 0 ? this.data.topicLabels[t] : 'No topic',
+        colour: this.colourOf(t),
+        tokens: this.data.files.tokenCounts[i],
+        terms: this.data.files.topTerms[i],
+      },
+      clientX,
+      clientY,
+    );
+  }
+
+  private click(i: number | null): void {
+    this.select(i, true);
+    if (i !== null) this.bridge.post({ type: 'open', index: i, path: this.data.files.paths[i] });
+  }
+
+  private select(i: number | null, fromClick: boolean): void {
+    this.scene.selected = i !== null && i >= 0 && i < this.n ? i : null;
+    this.root.dataset.selected = this.scene.selected === null ? '' : String(this.scene.selected);
+    this.statusPath.textContent = this.scene.selected === null ? '' : this.data.files.paths[this.scene.selected];
+    if (this.scene.selected !== null && !fromClick) {
+      const vp = this.canvas.vp;
+      const sx = vp.sx(this.scene.x[this.scene.selected]);
+      const sy = vp.sy(this.scene.y[this.scene.selected]);
+      if (sx < 0 || sy < 0 || sx > vp.width || sy > vp.height) this.canvas.reveal(this.scene.selected);
+    }
+    this.canvas.requestDraw();
+  }
+
+  private refreshTheme(): void {
+    this.theme = readTheme(this.root, this.data.topicLabels.length);
+    this.canvas.setTheme(this.theme);
+    this.spectrum.setTheme(this.theme);
+    this.legend.setColours((t) => this.colourOf(t));
+  }
+
+  private colourOf(topic: number): string {
+    return topic >= 0 ? this.theme.topics[topic] : this.theme.unassigned;
+  }
+
+  private legendEntries() {
+    const counts = new Map<number, number>();
+    for (const t of this.data.files.topicIds) counts.set(t, (counts.get(t) ?? 0) + 1);
+    return [...counts].map(([topic, count]) => ({ topic, count, label: topic >= 0 ? this.data.topicLabels[topic] : 'No topic' }));
+  }
+
+  private summary(): string {
+    const topics = this.data.topicLabels.length;
+    const method = this.layout === 'faithful' ? 'faithful layout (landmark Isomap)' : 'quick layout (principal axes)';
+    return `${formatCount(this.n)} files · ${topics} topics · ${method}`;
+  }
+
+  private setStatus(text: string): void {
+    this.status.textContent = text;
+  }
+
+  private save(): void {
+    this.bridge.saveState({ layout: this.layout, tab: this.tab } satisfies SavedState);
+  }
+}
+
+function groupByTopic(topicIds: Int32Array, topicCount: number): Int32Array[] {
+  const counts = new Int32Array(topicCount + 1);
+  for (const t of topicIds) counts[t >= 0 && t < topicCount ? t : topicCount]++;
+  const groups = Array.from(counts, (c) => new Int32Array(c));
+  const fill = new Int32Array(topicCount + 1);
+  for (let i = 0; i < topicIds.length; i++) {
+    const g = topicIds[i] >= 0 && topicIds[i] < topicCount ? topicIds[i] : topicCount;
+    groups[g][fill[g]++] = i;
+  }
+  return groups;
+}

@@ -1,0 +1,49 @@
+/// <reference lib="dom" />
+/**
+ * Topic legend: one row per topic (largest first) with its colour and file count. Hovering a row
+ * previews that topic (others fade), clicking pins it, clicking again releases it.
+ */
+import { el, formatCount } from './dom.js';
+
+export interface LegendEntry {
+  readonly topic: number;
+  readonly label: string;
+  readonly count: number;
+}
+
+export class Legend {
+  readonly element = el('div', { className: 'um-legend', attrs: { role: 'group', 'aria-label': 'Topics' } });
+  private pinned: number | null = null;
+  private readonly swatches = new Map<number, HTMLElement>();
+
+  constructor(
+    entries: readonly LegendEntry[],
+    private readonly onFocus: (topic: number | null) => void,
+  ) {
+    const rows = [...entries].sort((a, b) => b.count - a.count || a.topic - b.topic);
+    this.element.append(el('div', { className: 'um-legend-head' }, [el('span', { text: 'Topics' }), el('span', { text: 'Files' })]));
+    for (const e of rows) {
+      const swatch = el('span', { className: 'um-swatch' });
+      this.swatches.set(e.topic, swatch);
+      const row = el('button', { className: 'um-legend-row', attrs: { type: 'button', 'aria-pressed': 'false', 'data-topic': String(e.topic) } }, [
+        swatch,
+        el('span', { className: 'um-legend-label', text: e.label, attrs: { title: e.label } }),
+        el('span', { className: 'um-legend-count', text: formatCount(e.count) }),
+      ]);
+      row.addEventListener('mouseenter', () => this.onFocus(e.topic));
+      row.addEventListener('mouseleave', () => this.onFocus(this.pinned));
+      row.addEventListener('click', () => {
+        this.pinned = this.pinned === e.topic ? null : e.topic;
+        this.element.querySelectorAll('.um-legend-row').forEach((r) => {
+          r.setAttribute('aria-pressed', String(r.getAttribute('data-topic') === String(this.pinned)));
+        });
+        this.onFocus(this.pinned);
+      });
+      this.element.append(row);
+    }
+  }
+
+  setColours(colourOf: (topic: number) => string): void {
+    for (const [topic, swatch] of this.swatches) swatch.style.background = colourOf(topic);
+  }
+}

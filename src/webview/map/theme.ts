@@ -1,0 +1,54 @@
+/// <reference lib="dom" />
+/**
+ * Reads the page colours from the stylesheet's variables (which follow the editor theme, or the
+ * standalone fallbacks) by letting the browser resolve them on a probe element, then builds the
+ * topic palette for that background (core palette.ts: WCAG 3:1 non-text contrast).
+ */
+import { parseCssColour, toHex, topicPalette, unassignedColour, type Rgb } from '../../core/map/palette.js';
+
+export interface MapTheme {
+  readonly bg: string;
+  readonly fg: string;
+  readonly muted: string;
+  readonly accent: string;
+  readonly border: string;
+  readonly dark: boolean;
+  readonly highContrast: boolean;
+  readonly topics: string[];
+  readonly unassigned: string;
+}
+
+export function readTheme(root: HTMLElement, topicCount: number): MapTheme {
+  const probe = document.createElement('span');
+  root.append(probe);
+  const resolve = (name: string, fallback: Rgb): Rgb => {
+    probe.style.color = '';
+    probe.style.color = `var(${name})`;
+    return parseCssColour(getComputedStyle(probe).color) ?? fallback;
+  };
+  const bg = resolve('--um-bg', [255, 255, 255]);
+  const fg = resolve('--um-fg', [31, 35, 40]);
+  const muted = resolve('--um-muted', [89, 99, 110]);
+  const accent = resolve('--um-accent', [11, 102, 214]);
+  const border = resolve('--um-border', [209, 217, 224]);
+  probe.remove();
+  const cls = document.body.classList;
+  const luminance = (0.2126 * bg[0] + 0.7152 * bg[1] + 0.0722 * bg[2]) / 255;
+  return {
+    bg: toHex(bg),
+    fg: toHex(fg),
+    muted: toHex(muted),
+    accent: toHex(accent),
+    border: toHex(border),
+    dark: luminance < 0.5,
+    highContrast: cls.contains('vscode-high-contrast') || cls.contains('vscode-high-contrast-light'),
+    topics: topicPalette(topicCount, bg).map(toHex),
+    unassigned: toHex(unassignedColour(bg)),
+  };
+}
+
+/** Calls back when the editor theme (body class) or the system colour scheme changes. */
+export function watchTheme(onChange: () => void): void {
+  new MutationObserver(onChange).observe(document.body, { attributes: true, attributeFilter: ['class'] });
+  window.matchMedia('(prefers-color-scheme: dark)').addEventListener('change', onChange);
+}
