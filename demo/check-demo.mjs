@@ -126,8 +126,9 @@ function jaccard(a, b) {
   const union = a.size + b.size - inter;
   return union === 0 ? 1 : inter / union;
 }
+// Shingles use plain lower-cased word runs (no camelCase splitting), as near-copy detectors do.
 function shingles(p, n = 5) {
-  const t = tokens(read(p));
+  const t = read(p).toLowerCase().match(/[\p{L}\p{N}_]+/gu) ?? [];
   const s = new Set();
   for (let i = 0; i + n <= t.length; i++) s.add(t.slice(i, i + n).join(" "));
   return s;

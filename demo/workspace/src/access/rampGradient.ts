@@ -1,6 +1,6 @@
-// Step-free windows for passengers using a wheelchair or other mobility aid. Copied from the
-// timetable's tidal window module; the ramp incline itself is computed in accessibilityModel.ts and
-// banded here. Keep the window logic in step with src/timetable/tidalWindow.ts.
+// Tidal windows: periods when a vessel can safely lie alongside a berth. A berth is usable while
+//   predicted tide height + charted depth >= vessel draught + minimum under-keel clearance.
+// On the ebb the window closes; shallow berths such as Orrinsay slip dry out at low water.
 
 import type { Berth, Vessel } from "../timetable/sailingModel.js";
 import type { TideTable } from "../timetable/tideTable.js";

@@ -1,5 +1,6 @@
-// Fare calculation (v1, 2023). Kept for re-pricing old bookings during refunds; do not use for new
-// sales. Prices come from config/fares-<year>.json. Money is in pence throughout.
+// Fare calculation for one leg of a booking. Prices come from config/fares-<year>.json so that the
+// published fare table and the amounts charged never disagree. Money is in pence throughout.
+// v1 (2023 tariff): kept only for re-pricing old bookings during refunds.
 
 import { add, discount, pence, type Pence } from "../../shared/money.js";
 import type { PassengerType, VehicleType } from "../bookingModel.js";

@@ -1,5 +1,6 @@
-// Kiosk copy of the service fare calculator. The kiosk runs offline overnight, so it keeps its own
-// copy and reads a cached fares file. Keep in step with src/ticketing/fareCalculator.ts.
+// Fare calculation for one leg of a booking. Prices come from config/fares-<year>.json so that the
+// published fare table and the amounts charged never disagree. Money is in pence throughout.
+// Kiosk copy (the kiosk runs offline overnight); keep in step with src/ticketing.
 
 import { add, discount, pence, type Pence } from "./vendor/money.js";
 import type { PassengerType, VehicleType } from "./kioskTypes.js";
