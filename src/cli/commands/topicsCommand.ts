@@ -67,7 +67,7 @@ function describe(r: TopicsReport, files: number, forms: SurfaceForms): string[]
         : files - r.unplaced.length < 3
           ? 'too few files to split'
           : 'every file points the same way: one topic';
-  lines.push(`${files} files in ${r.topics.length} topic${r.topics.length === 1 ? '' : 's'} (${how})`);
+  lines.push(`${files} file${files === 1 ? '' : 's'} in ${r.topics.length} topic${r.topics.length === 1 ? '' : 's'} (${how})`);
   const err = r.cur.errorRatio === null ? 'exact at this rank' : `error ${r.cur.errorRatio.toFixed(2)}× the best rank-${r.cur.rank} error`;
   lines.push(`CUR (${r.cur.method}, rank ${r.cur.rank}) picked ${r.cur.files} files and ${r.cur.terms} terms; ${err}. * marks CUR picks.`);
   for (const t of r.topics) {

@@ -1,0 +1,128 @@
+/**
+ * `undertone lookalikes` end to end through main(). References: the demo workspace's answer key
+ * (demo/expectations.json: its exact copies); a brute-force exact Jaccard of 5-word shingles
+ * written here for a planted near-copy made from real text (CRAN abstracts, ../shared/corpora).
+ */
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { main } from '../../src/cli/main.js';
+import type { Io } from '../../src/cli/output.js';
+import { loadCollection, missingMessage, REPO_ROOT } from '../helpers/shared.js';
+
+function capture(): Io & { stdout: string[]; stderr: string[] } {
+  const stdout: string[] = [];
+  const stderr: string[] = [];
+  return { stdout, stderr, out: (l) => stdout.push(l), err: (l) => stderr.push(l), errRaw: () => undefined, interactive: false };
+}
+
+let dir: string;
+const run = async (...args: string[]) => {
+  const io = capture();
+  const code = await main([...args, '--cache-dir', join(dir, 'cache'), '--quiet'], io);
+  return { code, out: io.stdout.join('\n'), err: io.stderr.join('\n') };
+};
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'undertone-lookalikes-cli-'));
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+type Report = {
+  threshold: number;
+  exactCopies: { files: string[] }[];
+  nearCopies: { files: string[]; pairs: { a: string; b: string; jaccard: number; sharedLines: number }[] }[];
+  sameContentDifferentWords: { files: string[] }[];
+  stats: { files: number; emptyFiles: number; skippedShort: number; unreadable: number };
+};
+
+const demoRoot = join(REPO_ROOT, 'demo', 'workspace');
+const demoKey = join(REPO_ROOT, 'demo', 'expectations.json');
+const hasDemo = existsSync(demoRoot) && existsSync(demoKey);
+
+describe.skipIf(!hasDemo)(`lookalikes on the demo ${hasDemo ? '' : '(skipped: demo/workspace missing)'}`, () => {
+  it('--json reports the planted exact copies', async () => {
+    const r = await run('lookalikes', demoRoot, '--json');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.out) as Report;
+    const key = JSON.parse(readFileSync(demoKey, 'utf8')) as { exactCopies: string[][] };
+    const found = report.exactCopies.map((g) => [...g.files].sort().join(' | ')).sort();
+    expect(found).toEqual(key.exactCopies.map((g) => [...g].sort().join(' | ')).sort());
+    expect(report.stats.unreadable).toBe(0);
+  });
+});
+
+/**
+ * Exact Jaccard of the sets of 5 consecutive words, as Broder 1997 defines resemblance (words:
+ * lowercased runs of letters, marks, digits and '_', nothing dropped — the look-alike finder's
+ * documented tokens), on strings rather than hashes: a brute-force reference for one pair.
+ */
+function jaccard5(a: string, b: string): number {
+  const sh = (t: string) => {
+    const tok = t.toLowerCase().match(/[\p{L}\p{M}\p{N}_]+/gu) ?? [];
+    return new Set(tok.slice(0, Math.max(0, tok.length - 4)).map((_, i) => tok.slice(i, i + 5).join(' ')));
+  };
+  const x = sh(a);
+  const y = sh(b);
+  let both = 0;
+  for (const s of x) if (y.has(s)) both++;
+  return both / (x.size + y.size - both);
+}
+
+const cran = loadCollection('cran');
+describe.skipIf(!cran)(`lookalikes on a folder of real abstracts ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+  let root: string;
+  let original: string;
+  let edited: string;
+  beforeAll(() => {
+    root = join(dir, 'ws');
+    mkdirSync(root, { recursive: true });
+    const docs = cran!.docs.filter((d) => d.text.split(/\s+/).length > 150).slice(0, 30);
+    docs.forEach((d, i) => writeFileSync(join(root, `abstract-${i}.md`), d.text));
+    original = docs[0].text;
+    // A near-copy: one word changed near the end.
+    const words = original.split(' ');
+    words[words.length - 3] = 'propellant';
+    edited = words.join(' ');
+    writeFileSync(join(root, 'abstract-0-copy.md'), original);
+    writeFileSync(join(root, 'abstract-0-edited.md'), edited);
+    writeFileSync(join(root, 'empty.md'), '');
+    writeFileSync(join(root, 'short.md'), 'boundary layer flow');
+  });
+
+  it('lists exact copies, near-copies with their Jaccard, and notes empty and short files', async () => {
+    const r = await run('lookalikes', root, '--json');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.out) as Report;
+    expect(report.exactCopies.map((g) => [...g.files].sort())).toContainEqual(['abstract-0-copy.md', 'abstract-0.md']);
+    const near = report.nearCopies.find((g) => g.files.includes('abstract-0-edited.md'))!;
+    expect(near).toBeDefined();
+    expect(near.files).toEqual(expect.arrayContaining(['abstract-0.md', 'abstract-0-copy.md', 'abstract-0-edited.md']));
+    const pair = near.pairs[0];
+    expect(pair.jaccard).toBeCloseTo(jaccard5(original, edited), 3);
+    expect(report.stats.emptyFiles).toBe(1);
+    expect(report.stats.skippedShort).toBe(1);
+    const table = await run('lookalikes', root);
+    expect(table.out).toMatch(/Exact copies: 1 group/);
+    expect(table.out).toMatch(/Near-copies \(shingle Jaccard ≥ 0\.8\): 1 group/);
+    expect(table.out).toMatch(/1 empty file ignored; 1 file too short for near-copy search/);
+  });
+
+  it('--threshold changes what counts as a near-copy, and a bad one is refused', async () => {
+    const strict = JSON.parse((await run('lookalikes', root, '--json', '--threshold', '0.999')).out) as Report;
+    expect(strict.threshold).toBe(0.999);
+    expect(strict.nearCopies.some((g) => g.files.includes('abstract-0-edited.md'))).toBe(false);
+    const bad = await run('lookalikes', root, '--threshold', '1.5');
+    expect(bad.code).toBe(1);
+    expect(bad.err).toMatch(/--threshold needs a number above 0 and at most 1/);
+  });
+
+  it('a folder without look-alikes says so', async () => {
+    const plain = join(dir, 'plain');
+    mkdirSync(plain, { recursive: true });
+    cran!.docs.slice(40, 46).forEach((d, i) => writeFileSync(join(plain, `n${i}.md`), d.text));
+    const r = await run('lookalikes', plain);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/^No look-alikes among 6 files\./);
+  });
+});

@@ -1,0 +1,141 @@
+/**
+ * `undertone topics`, and `--explain` on `ask` and `nearby`, end to end through main().
+ * References: the demo workspace's answer key (demo/expectations.json: planted topics); the
+ * scores the same commands print without --explain (shares must add up to them); real text
+ * (CRAN abstracts, ../shared/corpora/cran) for odd folders.
+ */
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { main } from '../../src/cli/main.js';
+import type { Io } from '../../src/cli/output.js';
+import { loadCollection, missingMessage, REPO_ROOT } from '../helpers/shared.js';
+
+function capture(): Io & { stdout: string[]; stderr: string[] } {
+  const stdout: string[] = [];
+  const stderr: string[] = [];
+  return { stdout, stderr, out: (l) => stdout.push(l), err: (l) => stderr.push(l), errRaw: () => undefined, interactive: false };
+}
+
+let dir: string;
+const run = async (...args: string[]) => {
+  const io = capture();
+  const code = await main([...args, '--cache-dir', join(dir, 'cache'), '--quiet'], io);
+  return { code, out: io.stdout.join('\n'), err: io.stderr.join('\n') };
+};
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'undertone-topics-cli-'));
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const demoRoot = join(REPO_ROOT, 'demo', 'workspace');
+const demoKey = join(REPO_ROOT, 'demo', 'expectations.json');
+const hasDemo = existsSync(demoRoot) && existsSync(demoKey);
+
+describe.skipIf(!hasDemo)(`topics and --explain on the demo ${hasDemo ? '' : '(skipped: demo/workspace missing)'}`, () => {
+  it('prints topics with readable words, exemplar files and the CUR summary', async () => {
+    const r = await run('topics', demoRoot);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/^\d+ files in \d+ topics \(count chosen by silhouette, 0\.\d\d\)/);
+    expect(r.out).toMatch(/CUR \(deim, rank \d+\) picked \d+ files and \d+ terms; error \d\.\d\d× the best rank-\d+ error/);
+    expect(r.out).toMatch(/Topic 1: /);
+    expect(r.out).toMatch(/similarity {2}exemplar file/);
+  });
+
+  it('--json lists every file once and names planted topics with planted keywords', async () => {
+    const r = await run('topics', demoRoot, '--json', '--topics', '6');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.out) as { topics: { members: string[]; terms: { word: string; term: string }[] }[]; unplaced: string[]; count: { chosen: string } };
+    expect(report.topics).toHaveLength(6);
+    expect(report.count.chosen).toBe('given');
+    const key = JSON.parse(readFileSync(demoKey, 'utf8')) as { fileCount: { min: number; max: number }; topics: { keywords: string[] }[] };
+    const members = report.topics.flatMap((t) => t.members).concat(report.unplaced);
+    expect(new Set(members).size).toBe(members.length);
+    expect(members.length).toBeGreaterThanOrEqual(key.fileCount.min);
+    const words = new Set(report.topics.flatMap((t) => t.terms.map((x) => x.word)));
+    // Words are spellings from the files, not stems: at least one differs from its stem.
+    expect(report.topics.some((t) => t.terms.some((x) => x.word !== x.term))).toBe(true);
+    const plantedHits = key.topics.filter((t) => t.keywords.some((k) => words.has(k))).length;
+    expect(plantedHits).toBeGreaterThanOrEqual(5);
+  });
+
+  it('ask --explain prints shares under each result that add up to its score', async () => {
+    const r = await run('ask', demoRoot, 'refund a cancelled trip', '--explain', '--top', '5');
+    expect(r.code).toBe(0);
+    const lines = r.out.split('\n');
+    const results = lines.filter((l) => /^\s+\d+\s+\d\.\d{3}\s+\S/.test(l));
+    const whys = lines.filter((l) => l.includes('why:') && l.includes('(= '));
+    expect(results).toHaveLength(5);
+    expect(whys).toHaveLength(5);
+    results.forEach((line, i) => {
+      const score = Number(line.trim().split(/\s+/)[1]);
+      const total = Number(/\(= (-?\d\.\d{3})\)/.exec(whys[i])![1]);
+      expect(total).toBeCloseTo(score, 2);
+      const parts = [...whys[i].matchAll(/ (-?\d\.\d{3})(?=,|\s\s)/g)].map((m) => Number(m[1]));
+      expect(parts.reduce((s, x) => s + x, 0)).toBeCloseTo(score, 1);
+    });
+    expect(r.out).toMatch(/~ marks a word not in the file/);
+  });
+
+  it('ask --explain --json gives term shares, concept and word-match parts, summing to the score', async () => {
+    const r = await run('ask', demoRoot, 'engine overheating alarm', '--explain', '--json', '--top', '3');
+    const out = JSON.parse(r.out) as { results: { score: number; explain: { score: number; terms: { share: number; word: string }[]; rest: { share: number } } }[] };
+    expect(out.results).toHaveLength(3);
+    for (const res of out.results) {
+      expect(res.explain.score).toBeCloseTo(res.score, 3);
+      expect(res.explain.terms.reduce((s, t) => s + t.share, 0) + res.explain.rest.share).toBeCloseTo(res.score, 3);
+      expect(res.explain.terms.map((t) => t.word)).toContain('engine');
+    }
+  });
+
+  it('nearby --explain gives the words two files share in meaning, with readable spellings', async () => {
+    const file = 'notes/maintenance/coolant-temperature-alarms.md';
+    const plain = await run('nearby', demoRoot, file, '--top', '3', '--json');
+    const explained = await run('nearby', demoRoot, file, '--top', '3', '--json', '--explain');
+    const a = JSON.parse(plain.out) as { results: { path: string; score: number }[] };
+    const b = JSON.parse(explained.out) as { results: { path: string; score: number; explain: { score: number; terms: { word: string; term: string }[] } }[] };
+    expect(b.results.map((x) => x.path)).toEqual(a.results.map((x) => x.path));
+    b.results.forEach((res, i) => expect(res.explain.score).toBeCloseTo(a.results[i].score, 3));
+    expect(b.results[0].explain.terms.some((t) => t.word === 'temperature' && t.term !== 'temperature')).toBe(true);
+    const table = await run('nearby', demoRoot, file, '--top', '2', '--explain');
+    expect(table.out.split('\n').filter((l) => l.includes('why:'))).toHaveLength(3); // 2 results + legend
+  });
+});
+
+const cran = loadCollection('cran');
+describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+  const folder = (name: string, files: Record<string, string>) => {
+    const root = join(dir, name);
+    mkdirSync(root, { recursive: true });
+    for (const [p, text] of Object.entries(files)) writeFileSync(join(root, p), text);
+    return root;
+  };
+
+  it('a one-file folder gives one topic', async () => {
+    const r = await run('topics', folder('one', { 'only.md': cran!.docs[0].text }));
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/^1 file in 1 topic \(too few files to split\)/);
+    expect(r.out).toMatch(/only\.md/);
+  });
+
+  it('fifteen hundred identical files give one topic and say why', async () => {
+    const files: Record<string, string> = {};
+    for (let i = 0; i < 1500; i++) files[`copy-${i}.md`] = cran!.docs[1].text;
+    const r = await run('topics', folder('same', files));
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/^1,?500 files in 1 topic \(every file points the same way: one topic\)/);
+  });
+
+  it('a folder of empty files is refused with a clear message', async () => {
+    const r = await run('topics', folder('empty', { 'a.md': '', 'b.txt': '   \n' }));
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/undertone topics: .*(no indexable words|Nothing indexable)/);
+  });
+
+  it('a bad --topics value is refused before any work', async () => {
+    const r = await run('topics', folder('bad', { 'x.md': cran!.docs[2].text }), '--topics', 'zero');
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/--topics needs a positive whole number/);
+  });
+});
