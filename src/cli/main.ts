@@ -6,6 +6,8 @@ import { parseArgs } from 'node:util';
 import { UndertoneError } from '../core/errors.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
+import { exportCommand } from './commands/exportCommand.js';
+import { importFactorsCommand } from './commands/importFactorsCommand.js';
 import { indexCommand } from './commands/indexCommand.js';
 import { lookalikesCommand } from './commands/lookalikesCommand.js';
 import { nearbyCommand } from './commands/nearbyCommand.js';
@@ -23,6 +25,9 @@ usage:
   undertone eval   <folder> --queries q.jsonl --qrels qrels.tsv   MAP, P@10, nDCG@10
   undertone topics <folder>                 topics, each named by its words and example files
   undertone lookalikes <folder>             exact copies, near-copies and same-content pairs
+  undertone export <folder> --format mtx --out DIR   weighted term-document matrix (Matrix Market),
+                                            terms.txt and files.txt, for an SVD elsewhere
+  undertone import-factors <folder> --u U.mtx --s S.txt --v V.mtx   load factors computed elsewhere
 
 options:
   --top N                    how many results (default 10)
@@ -48,6 +53,13 @@ const EXTRA_OPTIONS = {
   explain: { type: 'boolean' },
   topics: { type: 'string' },
   threshold: { type: 'string' },
+  format: { type: 'string' },
+  out: { type: 'string' },
+  u: { type: 'string' },
+  s: { type: 'string' },
+  v: { type: 'string' },
+  terms: { type: 'string' },
+  files: { type: 'string' },
   help: { type: 'boolean', short: 'h' },
 } as const;
 
@@ -65,7 +77,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? 0 : 2;
   }
-  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes'];
+  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes', 'export', 'import-factors'];
   if (!needsFolder.includes(command)) {
     io.err(`undertone: unknown command "${command}"\n\n${USAGE}`);
     return 2;
@@ -86,6 +98,10 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
         return await topicsCommand(folder, flags, io);
       case 'lookalikes':
         return await lookalikesCommand(folder, flags, io);
+      case 'export':
+        return await exportCommand(folder, flags, io);
+      case 'import-factors':
+        return await importFactorsCommand(folder, flags, io);
       default:
         return await evalCommand(folder, flags, io);
     }

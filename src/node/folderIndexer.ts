@@ -7,12 +7,19 @@
 import { performance } from 'node:perf_hooks';
 import { CancelledError, EmptyCorpusError } from '../core/errors.js';
 import { IndexBuilder } from '../core/index/indexBuilder.js';
-import type { LsiIndex } from '../core/index/lsiIndex.js';
+import type { DocMeta, LsiIndex } from '../core/index/lsiIndex.js';
 import { modelSettingsKey, resolveSettings, type IndexSettings } from '../core/index/settings.js';
+import { countTerms, Vocabulary } from '../core/index/termCounts.js';
+import { tokenize } from '../core/text/tokenize.js';
+import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
+import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
 import { loadIndex, saveIndex } from './persist.js';
 import { readIndexableText, scanFolder, type ScanOptions } from './scan.js';
 
 export type IndexStage = 'load' | 'scan' | 'read' | 'matrix' | 'svd' | 'save';
+
+/** Below this many files, starting worker threads costs more than it saves (our measurement). */
+const PARALLEL_MIN_FILES = 200;
 
 export interface IndexProgress {
   readonly stage: IndexStage;
@@ -29,6 +36,11 @@ export interface FolderIndexOptions {
   force?: boolean;
   onProgress?: (p: IndexProgress) => void;
   signal?: AbortSignal;
+  /**
+   * Worker threads for tokenizing and the SVD (false: work on this thread only). Without a
+   * bundled worker script the work stays on this thread. @default {} (all available cores)
+   */
+  parallel?: PoolOptions | false;
 }
 
 export interface FolderIndexReport {
@@ -55,6 +67,15 @@ export interface FolderIndexReport {
 }
 
 export async function indexFolder(root: string, options: FolderIndexOptions): Promise<FolderIndexReport> {
+  let pool: WorkerPool | undefined;
+  try {
+    return await indexWithPool(root, options, () => (pool ??= options.parallel === false ? undefined : WorkerPool.start(options.parallel ?? {})));
+  } finally {
+    await pool?.close();
+  }
+}
+
+async function indexWithPool(root: string, options: FolderIndexOptions, getPool: () => WorkerPool | undefined): Promise<FolderIndexReport> {
   const t0 = performance.now();
   const seconds: Record<IndexStage, number> = { load: 0, scan: 0, read: 0, matrix: 0, svd: 0, save: 0 };
   let mark = performance.now();
@@ -81,7 +102,8 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
   lap('scan');
   const sameTokens = previous && JSON.stringify(previous.settings.tokenize) === JSON.stringify(settings.tokenize);
   const sameModel = previous && modelSettingsKey(previous.settings) === modelSettingsKey(settings);
-  const builder = new IndexBuilder(settings, sameTokens ? previous!.vocab : undefined);
+  const vocab = sameTokens ? previous!.vocab : new Vocabulary();
+  const builder = new IndexBuilder(settings, vocab);
   const skipped = { binary: 0, tooLarge: 0, unreadable: 0, other: 0 };
   for (const s of scan.skipped) {
     if (s.reason === 'too-large') skipped.tooLarge++;
@@ -90,30 +112,49 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
   }
   let reused = 0, read = 0, added = 0, changed = 0, bytesRead = 0;
   const maxBytes = options.scan?.maxFileBytes ?? 1_048_576;
-  for (let i = 0; i < scan.files.length; i++) {
-    const f = scan.files[i];
-    const meta = { path: f.path, size: f.size, mtimeMs: f.mtimeMs };
+  const toRead: typeof scan.files[number][] = [];
+  for (const f of scan.files) {
     const old = sameTokens ? previous!.meta(f.path) : undefined;
     if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
-      builder.addCounted(meta, previous!.termsOf(f.path));
+      builder.addCounted({ path: f.path, size: f.size, mtimeMs: f.mtimeMs }, previous!.termsOf(f.path));
       reused++;
-    } else {
+    } else toRead.push(f);
+  }
+  const record = (f: (typeof toRead)[number], got: CountOutcome): void => {
+    if (got.kind === 'text') {
+      const meta: DocMeta = { path: f.path, size: f.size, mtimeMs: f.mtimeMs };
+      builder.addCounted(meta, got.terms);
+      bytesRead += f.size;
+      read++;
+      if (previous?.has(f.path)) changed++;
+      else added++;
+    } else if (got.kind === 'binary') skipped.binary++;
+    else if (got.kind === 'too-large') skipped.tooLarge++;
+    else skipped.unreadable++;
+  };
+  const total = scan.files.length;
+  // Threads pay off only for more than a handful of files.
+  const pool = toRead.length >= PARALLEL_MIN_FILES ? getPool() : undefined;
+  if (pool) {
+    await countFilesInParallel(
+      pool,
+      toRead.map((f) => ({ absPath: f.absPath, size: f.size })),
+      vocab,
+      { tokenize: settings.tokenize, maxFileBytes: maxBytes, signal: options.signal, onProgress: (done) => progress({ stage: 'read', done: reused + done, total }) },
+      (i, got) => record(toRead[i], got),
+    );
+  } else {
+    for (let i = 0; i < toRead.length; i++) {
+      const f = toRead[i];
       const got = await readIndexableText(f.absPath, maxBytes);
-      if (got.kind === 'text') {
-        builder.addText(meta, got.text);
-        bytesRead += f.size;
-        read++;
-        if (previous?.has(f.path)) changed++;
-        else added++;
-      } else if (got.kind === 'binary') skipped.binary++;
-      else if (got.kind === 'too-large') skipped.tooLarge++;
-      else skipped.unreadable++;
-    }
-    if (i % 256 === 0) {
-      check();
-      progress({ stage: 'read', done: i, total: scan.files.length });
+      record(f, got.kind === 'text' ? { kind: 'text', terms: countTerms(tokenize(got.text, settings.tokenize), vocab, true) } : got);
+      if (i % 256 === 0) {
+        check();
+        progress({ stage: 'read', done: reused + i, total });
+      }
     }
   }
+  check();
   progress({ stage: 'read', done: scan.files.length, total: scan.files.length });
   lap('read');
   const present = new Set(scan.files.map((f) => f.path));
@@ -125,8 +166,10 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
   if (unchanged) {
     return report(previous!, 'unchanged', common, seconds, t0);
   }
+  const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool() : undefined;
   const index = builder.build({
     signal: options.signal,
+    executor: buildPool?.executor(),
     onProgress: (stage, done, total) => {
       if (stage === 'weighting' && done === 1) lap('matrix');
       progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total });

@@ -5,6 +5,7 @@
  * document or query into the k-dimensional concept space with those frozen weights.
  */
 import { CancelledError, EmptyCorpusError } from '../errors.js';
+import type { MatrixExecutor } from '../matrix/executor.js';
 import type { CsrMatrix } from '../matrix/sparse.js';
 import { chooseK, type ChosenK } from '../svd/chooseK.js';
 import { randomizedSvd } from '../svd/randomizedSvd.js';
@@ -50,6 +51,8 @@ export interface Projection {
 export interface BuildProgress {
   onProgress?: (stage: 'weighting' | 'svd', done: number, total: number) => void;
   signal?: { readonly aborted: boolean };
+  /** Runs the SVD's large products (threads from src/node; default: this thread). */
+  executor?: MatrixExecutor;
 }
 
 export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, settings: IndexSettings, progress: BuildProgress = {}): ConceptModel {
@@ -72,6 +75,7 @@ export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, 
     seed: settings.seed,
     powerIterations: settings.powerIterations,
     signal: progress.signal,
+    executor: progress.executor,
     onProgress: (done, total) => progress.onProgress?.('svd', done, total),
   });
   const k = svd.k;

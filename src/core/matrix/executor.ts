@@ -58,7 +58,7 @@ export const serialExecutor: MatrixExecutor = Object.freeze({
     const g = new Float64Array(l * l);
     const part = new Float64Array(l * l);
     for (let t = 0; t < reductionBlocks(rows); t++) {
-      crossRows(a, b, l, t * REDUCTION_BLOCK_ROWS, Math.min(rows, (t + 1) * REDUCTION_BLOCK_ROWS), part);
+      crossRows(a, b, l, t * REDUCTION_BLOCK_ROWS, Math.min(rows, (t + 1) * REDUCTION_BLOCK_ROWS), part, a === b);
       addInto(g, part);
     }
     return a === b ? mirrorUpper(g, l) : g;
@@ -67,3 +67,31 @@ export const serialExecutor: MatrixExecutor = Object.freeze({
     timesSmallRows(y, l, wt, c, upper, out, 0, rows);
   },
 });
+
+/**
+ * Splits [0, rows) into at most `parts` ranges (boundaries, length ≤ parts + 1) whose starts are
+ * multiples of 4: kernels treat rows in fours, so a row's arithmetic never depends on the split.
+ */
+export function splitRows(rows: number, parts: number): Int32Array {
+  const per = Math.max(4, Math.ceil(rows / Math.max(1, parts) / 4) * 4);
+  const bounds: number[] = [0];
+  for (let r = per; r < rows; r += per) bounds.push(r);
+  bounds.push(rows);
+  return Int32Array.from(bounds);
+}
+
+/** Splits the rows of a CSR matrix into about `parts` ranges of similar stored-entry counts (starts multiples of 4). */
+export function splitCsrRows(indptr: Int32Array, rows: number, parts: number): Int32Array {
+  const nnz = indptr[rows];
+  const target = Math.max(1, nnz / Math.max(1, parts));
+  const bounds: number[] = [0];
+  let next = target;
+  for (let r = 4; r < rows; r += 4) {
+    if (indptr[r] >= next) {
+      bounds.push(r);
+      next = indptr[r] + target;
+    }
+  }
+  bounds.push(rows);
+  return Int32Array.from(bounds);
+}

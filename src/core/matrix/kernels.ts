@@ -42,11 +42,10 @@ export function spmmRows(
 }
 
 /**
- * g = A[r0:r1]ᵀ B[r0:r1] (l × l, row-major, overwritten). With a === b only the upper triangle
- * (and diagonal) is computed; the caller mirrors it.
+ * g = A[r0:r1]ᵀ B[r0:r1] (l × l, row-major, overwritten). When symmetric (a and b the same
+ * block) only the upper triangle and diagonal are computed; the caller mirrors them.
  */
-export function crossRows(a: FloatArray, b: FloatArray, l: number, r0: number, r1: number, g: Float64Array): void {
-  const symmetric = a === b;
+export function crossRows(a: FloatArray, b: FloatArray, l: number, r0: number, r1: number, g: Float64Array, symmetric: boolean): void {
   g.fill(0);
   const o0 = r0 * l;
   const o1 = r1 * l;

@@ -1,0 +1,145 @@
+/**
+ * Reads and counts the terms of many files on the pool's worker threads. Files go out in batches
+ * (a few in flight per worker, so no thread waits for the next); each worker counts against its
+ * own vocabulary and sends its new terms in id order with each reply, so ids are translated to
+ * the caller's Vocabulary here. The terms of a file do not depend on which worker read it, and
+ * IndexBuilder renumbers the vocabulary by term before building, so the index is the same
+ * whatever the timing.
+ */
+import { CancelledError } from '../../core/errors.js';
+import type { DocTerms, Vocabulary } from '../../core/index/termCounts.js';
+import type { TokenizeOptions } from '../../core/text/tokenize.js';
+import type { FromWorker, ToWorker } from './protocol.js';
+import type { WorkerPool } from './workerPool.js';
+
+export interface CountJob {
+  readonly absPath: string;
+  /** Size from the scan, to make batches of similar weight. */
+  readonly size: number;
+}
+
+export type CountOutcome = { readonly kind: 'text'; readonly terms: DocTerms } | { readonly kind: 'binary' | 'too-large' | 'unreadable' };
+
+export interface CountOptions {
+  readonly tokenize: Partial<TokenizeOptions>;
+  readonly maxFileBytes: number;
+  readonly signal?: AbortSignal;
+  /** Called with the number of files done so far. */
+  readonly onProgress?: (done: number) => void;
+}
+
+const BATCH_FILES = 48;
+const BATCH_BYTES = 512 * 1024;
+const IN_FLIGHT_PER_WORKER = 3;
+
+/** Calls onFile(index, outcome) once per job, in completion order. */
+export function countFilesInParallel(
+  pool: WorkerPool,
+  jobs: readonly CountJob[],
+  vocab: Vocabulary,
+  options: CountOptions,
+  onFile: (index: number, outcome: CountOutcome) => void,
+): Promise<void> {
+  const batches: number[][] = [];
+  let current: number[] = [];
+  let bytes = 0;
+  jobs.forEach((j, i) => {
+    current.push(i);
+    bytes += j.size;
+    if (current.length >= BATCH_FILES || bytes >= BATCH_BYTES) {
+      batches.push(current);
+      current = [];
+      bytes = 0;
+    }
+  });
+  if (current.length > 0) batches.push(current);
+  const workers = pool.workers;
+  const translate = workers.map(() => new Int32Array(0));
+  const known = workers.map(() => 0);
+  let nextBatch = 0;
+  let pending = 0;
+  let done = 0;
+
+  return new Promise<void>((resolve, reject) => {
+    let failed = false;
+    const cleanup = (): void => {
+      workers.forEach((w) => {
+        w.off('message', handlers.get(w)!);
+        w.off('error', onError);
+      });
+    };
+    const fail = (err: Error): void => {
+      if (failed) return;
+      failed = true;
+      cleanup();
+      reject(err);
+    };
+    const onError = (err: Error): void => fail(err);
+    const send = (w: number): void => {
+      if (nextBatch >= batches.length) return;
+      const b = nextBatch++;
+      const msg: ToWorker = { type: 'tokenize', batch: b, files: batches[b].map((index) => ({ index, absPath: jobs[index].absPath })) };
+      workers[w].postMessage(msg);
+      pending++;
+    };
+    const handlers = new Map(
+      workers.map((worker, w) => [
+        worker,
+        (msg: FromWorker): void => {
+          if (failed) return;
+          if (msg.type === 'error') return fail(new Error(`a tokenizing thread failed: ${msg.message}`));
+          pending--;
+          // Translate the worker's new local ids to the caller's vocabulary.
+          if (msg.newTerms.length > 0) {
+            const grown = new Int32Array(known[w] + msg.newTerms.length);
+            grown.set(translate[w].subarray(0, known[w]));
+            msg.newTerms.forEach((t, i) => (grown[known[w] + i] = vocab.add(t)));
+            translate[w] = grown;
+            known[w] = grown.length;
+          }
+          const tr = translate[w];
+          for (const f of msg.files) {
+            onFile(f.index, f.kind === 'text' ? { kind: 'text', terms: toDocTerms(f.ids, f.counts, f.length, tr) } : { kind: f.kind });
+          }
+          done += msg.files.length;
+          options.onProgress?.(done);
+          if (options.signal?.aborted) return fail(new CancelledError());
+          send(w);
+          if (pending === 0 && nextBatch >= batches.length) {
+            cleanup();
+            resolve();
+          }
+        },
+      ]),
+    );
+    workers.forEach((worker) => {
+      worker.on('message', handlers.get(worker)!);
+      worker.on('error', onError);
+      const setup: ToWorker = { type: 'setup', tokenize: options.tokenize, maxFileBytes: options.maxFileBytes };
+      worker.postMessage(setup);
+    });
+    for (let r = 0; r < IN_FLIGHT_PER_WORKER; r++) workers.forEach((_, w) => send(w));
+    if (pending === 0) {
+      cleanup();
+      resolve();
+    }
+  });
+}
+
+const SHIFT = 2 ** 21;
+
+/** Local (ids, counts) to DocTerms over the caller's ids, sorted ascending. */
+function toDocTerms(ids: Int32Array, counts: Int32Array, length: number, tr: Int32Array): DocTerms {
+  const n = ids.length;
+  const keys = new Float64Array(n);
+  for (let i = 0; i < n; i++) keys[i] = tr[ids[i]] * SHIFT + i;
+  keys.sort();
+  const termIds = new Int32Array(n);
+  const out = new Float32Array(n);
+  for (let j = 0; j < n; j++) {
+    const id = Math.floor(keys[j] / SHIFT);
+    termIds[j] = id;
+    out[j] = counts[keys[j] - id * SHIFT];
+  }
+  return { termIds, counts: out, length };
+}

@@ -1,0 +1,61 @@
+/**
+ * A small pool of parallel worker threads (Node's worker_threads docs advise a pool over one
+ * thread per task) for one indexing run: tokenizing files, then the SVD's matrix products.
+ * Thread count defaults to the machine's available parallelism. The worker script is the bundled
+ * dist/parallelWorker.js next to the running bundle, or UNDERTONE_PARALLEL_WORKER; without one
+ * (for example when running from TypeScript sources) callers fall back to working serially.
+ */
+import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
+import { Worker } from 'node:worker_threads';
+import type { MatrixExecutor } from '../../core/matrix/executor.js';
+import { ThreadExecutor } from './threadExecutor.js';
+
+export interface PoolOptions {
+  /** Threads to use in all, the calling thread included. @default os.availableParallelism() */
+  threads?: number;
+  /** Path of the bundled worker script. @default defaultWorkerScript() */
+  workerScript?: string;
+}
+
+/** The bundled worker script, when it can be found. */
+export function defaultWorkerScript(): string | undefined {
+  const fromEnv = process.env.UNDERTONE_PARALLEL_WORKER;
+  if (fromEnv) return existsSync(fromEnv) ? fromEnv : undefined;
+  // In a CommonJS bundle (dist/*.js) __dirname is the bundle's folder.
+  const here = typeof __dirname === 'string' ? __dirname : undefined;
+  if (!here) return undefined;
+  const candidate = join(here, 'parallelWorker.js');
+  return existsSync(candidate) ? candidate : undefined;
+}
+
+export class WorkerPool {
+  private constructor(
+    readonly workers: readonly Worker[],
+    readonly threads: number,
+  ) {}
+
+  /** Starts a pool, or returns undefined when one thread is all there is or no worker script exists. */
+  static start(options: PoolOptions = {}): WorkerPool | undefined {
+    const threads = Math.max(1, Math.floor(options.threads ?? availableParallelism()));
+    const script = options.workerScript ?? defaultWorkerScript();
+    if (threads < 2 || !script) return undefined;
+    const workers: Worker[] = [];
+    for (let i = 0; i < threads; i++) {
+      const w = new Worker(script, { name: `undertone-parallel-${i}` });
+      w.unref();
+      workers.push(w);
+    }
+    return new WorkerPool(workers, threads);
+  }
+
+  /** An executor using threads − 1 workers plus the calling thread. */
+  executor(): MatrixExecutor {
+    return new ThreadExecutor(this.workers.slice(0, this.threads - 1));
+  }
+
+  async close(): Promise<void> {
+    await Promise.all(this.workers.map((w) => w.terminate()));
+  }
+}
