@@ -130,8 +130,16 @@ function assign(points: Float64Array, n: number, dims: number, centres: Float64A
   for (let i = 0; i < n; i++) {
     let bestC = 0;
     let bestCos = -Infinity;
+    const o = i * dims;
     for (let c = 0; c < k; c++) {
-      const v = dot(points, i, centres, c, dims);
+      // Inlined dot product: this loop is where k-means spends its time.
+      let v = 0;
+      const oc = c * dims;
+      let d = 0;
+      for (; d + 3 < dims; d += 4) {
+        v += points[o + d] * centres[oc + d] + points[o + d + 1] * centres[oc + d + 1] + points[o + d + 2] * centres[oc + d + 2] + points[o + d + 3] * centres[oc + d + 3];
+      }
+      for (; d < dims; d++) v += points[o + d] * centres[oc + d];
       if (v > bestCos) {
         bestCos = v;
         bestC = c;

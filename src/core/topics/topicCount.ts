@@ -3,9 +3,12 @@
  * of spherical k-means clusterings for each candidate count, on a seeded sample of the points,
  * with cosine distance 1 − cos. The count with the highest mean silhouette wins (ties: fewer).
  * A point alone in its cluster scores 0, as Rousseeuw defines it.
- * Defaults: candidates 2…min(20, ⌊√n⌋ + 1) — about √n clusters is the usual ceiling for a
- * readable overview (common practice, our choice); sample 500 points (the distance table is then
- * 250 000 numbers); 3 k-means restarts per candidate. Fewer than 3 points, or points with a
+ * Defaults: candidates 2…min(20, ⌈√(n/2)⌉) — k ≈ √(n/2) is a textbook rule of thumb for the
+ * number of clusters (Mardia, Kent & Bibby 1979 [M]), used here as the ceiling, and 20 topics is
+ * about what one screen can show (our choice); every count up to 10, then every second one (the
+ * choice costs a k-means run per candidate); sample 500 points (a 250 000-number distance table);
+ * 3 k-means restarts per candidate. On large text collections the silhouette tends to keep
+ * rising with the count, so the ceiling often decides there (see the benchmark notes). Fewer than 3 points, or points with a
  * single direction, give 1 topic.
  */
 import { createRandom, DEFAULT_SEED } from '../random.js';
@@ -14,7 +17,7 @@ import { sphericalKMeans } from './sphericalKMeans.js';
 export interface TopicCountOptions {
   /** @default 2 */
   minTopics: number;
-  /** Largest count tried; undefined means min(20, ⌊√n⌋ + 1). */
+  /** Largest count tried; undefined means min(20, ⌈√(n/2)⌉). */
   maxTopics?: number;
   /** @default 500 */
   sampleSize: number;
@@ -63,7 +66,7 @@ export function chooseTopicCount(points: Float64Array, n: number, dims: number, 
   const upper = Math.min(o.maxTopics ?? Math.min(20, Math.ceil(Math.sqrt(n / 2))), s - 1);
   const scores: { topics: number; silhouette: number }[] = [];
   let best = { topics: 1, silhouette: -Infinity };
-  for (let k = Math.max(2, o.minTopics); k <= upper; k++) {
+  for (let k = Math.max(2, o.minTopics); k <= upper; k += k < 10 ? 1 : 2) {
     const c = sphericalKMeans(sample, s, dims, k, { restarts: o.restarts, seed: o.seed + k });
     if (c.clusters < k) break; // fewer distinct directions than k: larger k cannot do better
     const sil = meanSilhouette(dist, s, c.assignment, c.clusters);

@@ -170,12 +170,12 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
 
 /**
  * Restarts that fit a budget of about 4·10⁸ multiply-adds (20 Lloyd passes of n·K·dims each),
- * kept between 5 and 100: small folders get many restarts, which on the demo lifts the agreement
+ * kept between 3 and 100: small folders get many restarts, which on the demo lifts the agreement
  * with its planted topics and makes it far less seed-dependent (our measurement, see the topics
  * tests); big folders get few.
  */
 export function restartsFor(n: number, k: number, dims: number): number {
-  return Math.max(5, Math.min(100, Math.floor(4e8 / (20 * n * k * dims))));
+  return Math.max(3, Math.min(100, Math.floor(4e8 / (20 * n * k * dims))));
 }
 
 /**
