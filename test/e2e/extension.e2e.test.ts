@@ -173,6 +173,38 @@ describe('Undertone in a real editor', () => {
     await editor!.quickInput.close();
   });
 
+  it('searches by meaning for the text selected in the editor, from its context menu', async () => {
+    await editor!.openFile(expectations.neighbours[0].file);
+    const text = editor!.page.locator('.editor-instance .monaco-editor .view-lines').first();
+    await text.click();
+    await editor!.page.keyboard.press('Control+Home');
+    await editor!.page.keyboard.press('Shift+End');
+    await text.click({ button: 'right', position: { x: 40, y: 8 } });
+    const item = editor!.page.locator('.context-view .action-item').filter({ hasText: 'Search by Meaning for Selection' }).first();
+    await item.waitFor({ state: 'visible', timeout: 30_000 });
+    await editor!.screenshot('extension-6a-editor-context-menu');
+    await item.click();
+    await inputTitled(/files by meaning/);
+    const rows = await editor!.quickInput.rows();
+    expect(rows.length).toBeGreaterThan(0);
+    await editor!.quickInput.close();
+  });
+
+  it('offers index actions from the status bar item, and rebuilds from there', async () => {
+    await status().click();
+    await inputTitled(/^Undertone$/);
+    const actions = labels(await editor!.quickInput.rows());
+    expect(actions).toEqual(expect.arrayContaining(['Search Workspace by Meaning…', 'Rebuild Index', 'Delete Saved Index']));
+    await editor!.screenshot('extension-6b-status-actions');
+    await editor!.quickInput.pick('Rebuild Index');
+    // The rebuild is quick here; its line in the extension's log (Output panel) shows it ran and reused every file
+    // (\s, not ' ': the editor renders spaces as no-break spaces).
+    await editor!.runCommand('Undertone: Show Log');
+    await editor!.waitForText(/Built\sthe\sindex:\s[\d,]+\sfiles\s\(0\sread,\s[\d,]+\sreused/, { within: editor!.page.locator('.part.panel'), timeoutMs: 120_000 });
+    await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
+    await editor!.screenshot('extension-6c-log');
+  });
+
   it('drops a deleted file from the Nearby and Search Results views', async () => {
     const n = expectations.neighbours[0];
     const victim = n.expectAmongTop5[0];
