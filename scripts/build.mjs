@@ -11,6 +11,8 @@ const entries = [
   { entryPoints: ['src/cli/bin.ts'], outfile: 'dist/cli.js', banner: { js: '#!/usr/bin/env node' } },
   { entryPoints: ['src/extension/extension.ts'], outfile: 'dist/extension.js', external: ['vscode'] },
   { entryPoints: ['src/node/worker/indexWorker.ts'], outfile: 'dist/indexWorker.js' },
+  // Threads the CLI and the index worker start for tokenizing and the SVD (src/node/parallel/workerPool.ts).
+  { entryPoints: ['src/node/parallel/parallelWorker.ts'], outfile: 'dist/parallelWorker.js' },
   { entryPoints: ['bench/bench.ts'], outfile: 'dist/bench.js' },
 ];
 const minify = process.argv.includes('--production');

@@ -3,13 +3,17 @@
  * folderIndexer.ts for one folder: files whose size and modification time match the current
  * index reuse its term counts, the rest are read and tokenized, then the concept model is built.
  * Nothing is saved or swapped here; the caller does that once the build has finished, so a
- * cancelled or failed build leaves the current index as it was.
+ * cancelled or failed build leaves the current index as it was. Larger folders are tokenized and
+ * decomposed on a pool of further threads (src/node/parallel) when its bundled script is present.
  */
 import { performance } from 'node:perf_hooks';
 import { CancelledError, EmptyCorpusError } from '../../core/errors.js';
 import { IndexBuilder } from '../../core/index/indexBuilder.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { resolveSettings, type IndexSettings } from '../../core/index/settings.js';
+import { Vocabulary } from '../../core/index/termCounts.js';
+import { countFilesInParallel } from '../parallel/parallelCount.js';
+import { WorkerPool } from '../parallel/workerPool.js';
 import { readIndexableText, scanFolder } from '../scan.js';
 import type { Progress, WorkerConfig } from './protocol.js';
 import type { RootMap } from './rootMap.js';
@@ -64,7 +68,12 @@ export interface WorkspaceBuildOptions {
   /** Also polled during the synchronous SVD (see protocol.ts, cancelFlag). */
   readonly isCancelled?: () => boolean;
   readonly onProgress?: (p: Progress) => void;
+  /** Threads for tokenizing and the SVD, the worker's own included (false: none). @default all cores */
+  readonly threads?: number | false;
 }
+
+/** Below this many files, starting threads costs more than it saves (the measurement behind folderIndexer.ts). */
+const PARALLEL_MIN_FILES = 200;
 
 export async function buildWorkspaceIndex(roots: RootMap, config: WorkerConfig, options: WorkspaceBuildOptions = {}): Promise<WorkspaceBuild> {
   const t0 = performance.now();
@@ -79,36 +88,64 @@ export async function buildWorkspaceIndex(roots: RootMap, config: WorkerConfig, 
   const scan = await scanWorkspace(roots, config, signal);
   check();
   const sameTokens = previous !== undefined && JSON.stringify(previous.settings.tokenize) === JSON.stringify(settings.tokenize);
-  const builder = new IndexBuilder(settings, sameTokens ? previous.vocab : undefined);
+  const vocab = sameTokens ? previous.vocab : new Vocabulary();
+  const builder = new IndexBuilder(settings, vocab);
   let read = 0;
   let reused = 0;
   let skipped = scan.skipped;
   const total = scan.files.length;
-  for (let i = 0; i < total; i++) {
-    const f = scan.files[i];
-    const meta = { path: f.key, size: f.size, mtimeMs: f.mtimeMs };
+  const toRead: WorkspaceFile[] = [];
+  for (const f of scan.files) {
     const old = sameTokens ? previous.meta(f.key) : undefined;
     if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
-      builder.addCounted(meta, previous!.termsOf(f.key));
+      builder.addCounted({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, previous!.termsOf(f.key));
       reused++;
-    } else {
-      const got = await readIndexableText(f.absPath, config.maxFileBytes);
-      if (got.kind === 'text') {
-        builder.addText(meta, got.text);
-        read++;
-      } else skipped++;
-    }
-    if (i % 64 === 0) {
-      check();
-      progress({ stage: 'read', done: i, total });
-    }
+    } else toRead.push(f);
   }
-  progress({ stage: 'read', done: total, total });
-  if (builder.size === 0) throw new EmptyCorpusError('Nothing to index: no text files remain after the exclude settings.');
-  const index = builder.build({
-    signal: { get aborted() { return cancelled(); } },
-    onProgress: (stage, done, all) => progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all }),
-  });
-  check();
-  return { index, read, reused, skipped, seconds: (performance.now() - t0) / 1000 };
+  let pool: WorkerPool | undefined;
+  const getPool = (): WorkerPool | undefined =>
+    (pool ??= options.threads === false ? undefined : WorkerPool.start(options.threads === undefined ? {} : { threads: options.threads }));
+  try {
+    const parallel = toRead.length >= PARALLEL_MIN_FILES ? getPool() : undefined;
+    if (parallel) {
+      await countFilesInParallel(
+        parallel,
+        toRead.map((f) => ({ absPath: f.absPath, size: f.size })),
+        vocab,
+        { tokenize: settings.tokenize, maxFileBytes: config.maxFileBytes, signal, onProgress: (done) => progress({ stage: 'read', done: reused + done, total }) },
+        (i, got) => {
+          const f = toRead[i];
+          if (got.kind === 'text') {
+            builder.addCounted({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.terms);
+            read++;
+          } else skipped++;
+        },
+      );
+    } else {
+      for (let i = 0; i < toRead.length; i++) {
+        const f = toRead[i];
+        const got = await readIndexableText(f.absPath, config.maxFileBytes);
+        if (got.kind === 'text') {
+          builder.addText({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.text);
+          read++;
+        } else skipped++;
+        if (i % 64 === 0) {
+          check();
+          progress({ stage: 'read', done: reused + i, total });
+        }
+      }
+    }
+    check();
+    progress({ stage: 'read', done: total, total });
+    if (builder.size === 0) throw new EmptyCorpusError('Nothing to index: no text files remain after the exclude settings.');
+    const index = builder.build({
+      signal: { get aborted() { return cancelled(); } },
+      executor: builder.size >= PARALLEL_MIN_FILES ? getPool()?.executor() : undefined,
+      onProgress: (stage, done, all) => progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all }),
+    });
+    check();
+    return { index, read, reused, skipped, seconds: (performance.now() - t0) / 1000 };
+  } finally {
+    await pool?.close();
+  }
 }

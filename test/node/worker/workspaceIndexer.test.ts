@@ -1,0 +1,71 @@
+import { build } from 'esbuild';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import type { WorkerConfig } from '../../../src/node/worker/protocol.js';
+import { WorkerPool } from '../../../src/node/parallel/workerPool.js';
+import { RootMap } from '../../../src/node/worker/rootMap.js';
+import { buildWorkspaceIndex } from '../../../src/node/worker/workspaceIndexer.js';
+import { loadCollection, missingMessage, REPO_ROOT } from '../../helpers/shared.js';
+
+// Real text: 300 CRAN abstracts (../shared/corpora/cran) split over two workspace folders.
+const cran = loadCollection('cran');
+const tmp = mkdtempSync(join(tmpdir(), 'undertone-wsindex-'));
+const docs = cran ? cran.docs.slice(0, 300) : [];
+const folders = [join(tmp, 'alpha'), join(tmp, 'beta')];
+let saved: string | undefined;
+
+beforeAll(async () => {
+  const script = join(tmp, 'parallelWorker.js');
+  await build({ entryPoints: ['src/node/parallel/parallelWorker.ts'], outfile: script, bundle: true, platform: 'node', format: 'cjs', absWorkingDir: REPO_ROOT, logLevel: 'error' });
+  saved = process.env.UNDERTONE_PARALLEL_WORKER;
+  process.env.UNDERTONE_PARALLEL_WORKER = script;
+  for (const f of folders) mkdirSync(f, { recursive: true });
+  docs.forEach((d, i) => writeFileSync(join(folders[i % 2], `${d.id}.txt`), d.text));
+});
+
+afterAll(() => {
+  if (saved === undefined) delete process.env.UNDERTONE_PARALLEL_WORKER;
+  else process.env.UNDERTONE_PARALLEL_WORKER = saved;
+  rmSync(tmp, { recursive: true, force: true });
+});
+
+describe.skipIf(!cran)(`buildWorkspaceIndex ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+  const roots = new RootMap(folders.map((p, i) => ({ name: ['alpha', 'beta'][i], path: p, exclude: [] })));
+  const config: WorkerConfig = {
+    roots: roots.roots, indexFile: join(tmp, 'unused'), settings: {}, include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
+  };
+
+  it('indexes two folders as the same documents built in one process, with folder-prefixed keys', async () => {
+    const built = await buildWorkspaceIndex(roots, config, { threads: false });
+    const direct = new IndexBuilder();
+    docs.forEach((d, i) => direct.addText({ path: `${['alpha', 'beta'][i % 2]}/${d.id}.txt`, size: 0, mtimeMs: 0 }, d.text));
+    const reference = direct.build();
+    expect(built.index.paths()).toEqual(reference.paths());
+    expect(Buffer.from(built.index.vectors().buffer).equals(Buffer.from(reference.vectors().buffer))).toBe(true);
+    expect(built).toMatchObject({ read: 300, reused: 0, skipped: 0 });
+  });
+
+  it('gives the same index on a thread pool as on one thread', async () => {
+    const probe = WorkerPool.start({ threads: 2 });
+    expect(probe).toBeDefined(); // the bundled pool script was found, so the pooled build below really uses threads
+    await probe!.close();
+    const serial = await buildWorkspaceIndex(roots, config, { threads: false });
+    const pooled = await buildWorkspaceIndex(roots, config, { threads: 2 });
+    expect(pooled.index.paths()).toEqual(serial.index.paths());
+    const a = pooled.index.vectors();
+    const b = serial.index.vectors();
+    let worst = 0;
+    for (let i = 0; i < a.length; i++) worst = Math.max(worst, Math.abs(a[i] - b[i]));
+    expect(worst).toBeLessThan(1e-5);
+  });
+
+  it('reuses the counts of unchanged files from the index in use', async () => {
+    const first = await buildWorkspaceIndex(roots, config, { threads: false });
+    writeFileSync(join(folders[0], `${docs[0].id}.txt`), `${docs[0].text} changed`);
+    const second = await buildWorkspaceIndex(roots, config, { previous: first.index, threads: false });
+    expect(second).toMatchObject({ read: 1, reused: 299 });
+  });
+});
