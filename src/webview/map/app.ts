@@ -13,9 +13,9 @@ import { MapCanvas } from './mapCanvas.js';
 import { baseRadius, type MapScene } from './mapRenderer.js';
 import { SpectrumChart } from './spectrumChart.js';
 import { readTheme, watchTheme, type MapTheme } from './theme.js';
+import { buildToolbar, type Tab } from './toolbar.js';
 import { Tooltip } from './tooltip.js';
 
-type Tab = 'map' | 'spectrum';
 interface SavedState {
   readonly layout?: LayoutName;
   readonly tab?: Tab;
@@ -72,30 +72,14 @@ export class MapApp {
       query: null,
     };
 
-    const search = el('input', { attrs: { type: 'search', placeholder: 'Place a query on the map…', 'aria-label': 'Query', spellcheck: 'false' } });
-    const form = el('form', { className: 'um-search', attrs: { role: 'search' } }, [search, el('button', { text: 'Place', attrs: { type: 'submit' } })]);
-    form.addEventListener('submit', (e) => {
-      e.preventDefault();
-      this.submitQuery(search.value);
+    const toolbar = buildToolbar(data.title, {
+      tab: (t) => this.showTab(t),
+      layout: (name) => this.switchLayout(name),
+      query: (text) => this.submitQuery(text),
+      fit: () => this.canvas.fit(),
     });
-    search.addEventListener('keydown', (e) => {
-      if (e.key === 'Escape') {
-        search.value = '';
-        this.submitQuery('');
-      }
-    });
-    this.tabButtons = { map: this.tabButton('map', 'Map'), spectrum: this.tabButton('spectrum', 'Spectrum') };
-    this.layoutButtons = { quick: this.layoutButton('quick', 'Quick'), faithful: this.layoutButton('faithful', 'Faithful') };
-    const fit = el('button', { className: 'um-icon-button', text: 'Fit', attrs: { type: 'button', title: 'Fit the whole map in view (0)' } });
-    fit.addEventListener('click', () => this.canvas.fit());
-    const toolbar = el('header', { className: 'um-toolbar' }, [
-      el('span', { className: 'um-title', text: data.title }),
-      el('div', { className: 'um-tabs', attrs: { role: 'tablist' } }, [this.tabButtons.map, this.tabButtons.spectrum]),
-      form,
-      el('span', { className: 'um-spacer' }),
-      el('div', { className: 'um-segment', attrs: { role: 'group', 'aria-label': 'Layout' } }, [this.layoutButtons.quick, this.layoutButtons.faithful]),
-      fit,
-    ]);
+    this.tabButtons = toolbar.tabs;
+    this.layoutButtons = toolbar.layouts;
 
     const mapCanvas = el('canvas', {
       className: 'um-map-canvas',
@@ -118,7 +102,7 @@ export class MapApp {
     this.panels = { map: mapPanel, spectrum: spectrumPanel };
     mapPanel.hidden = this.tab !== 'map';
     spectrumPanel.hidden = this.tab !== 'spectrum';
-    root.append(toolbar, mapPanel, spectrumPanel);
+    root.append(toolbar.element, mapPanel, spectrumPanel);
 
     this.canvas = new MapCanvas(mapCanvas, this.scene, this.theme, {
       hover: (i, cx, cy) => this.hover(i, cx, cy),
@@ -175,19 +159,6 @@ export class MapApp {
     return this.data.layouts[name] ?? this.data.layouts.quick;
   }
 
-  private tabButton(tab: Tab, label: string): HTMLButtonElement {
-    const b = el('button', { text: label, attrs: { type: 'button', role: 'tab', 'aria-selected': 'false' } });
-    b.addEventListener('click', () => this.showTab(tab));
-    return b;
-  }
-
-  private layoutButton(name: LayoutName, label: string): HTMLButtonElement {
-    const titles = { quick: 'Linear projection on the two main concept axes: instant, may overlap groups', faithful: 'Landmark Isomap: keeps neighbourhoods along the data’s shape' };
-    const b = el('button', { text: label, attrs: { type: 'button', 'aria-pressed': 'false', title: titles[name] } });
-    b.addEventListener('click', () => this.switchLayout(name));
-    return b;
-  }
-
   private showTab(tab: Tab): void {
     this.tab = tab;
     for (const t of ['map', 'spectrum'] as const) {
@@ -221,8 +192,7 @@ export class MapApp {
     this.root.dataset.layout = this.layout;
   }
 
-  private submitQuery(raw: string): void {
-    const text = raw.trim();
+  private submitQuery(text: string): void {
     this.pendingRequest = text ? this.nextRequest++ : 0;
     if (!text) {
       this.query = null;

@@ -11,6 +11,7 @@ import { el } from './dom.js';
 
 function start(): void {
   const root = document.getElementById('undertone-map') ?? document.body.appendChild(el('div', { attrs: { id: 'undertone-map' } }));
+  root.replaceChildren(el('div', { className: 'um-loading', text: 'Loading the concept map…' }));
   try {
     const bridge = createBridge((text) => tokenize(text));
     let app: MapApp | null = null;
