@@ -22,7 +22,10 @@ const tmp = mkdtempSync(join(tmpdir(), 'undertone-foldin-'));
 const workspace = join(tmp, 'ws');
 cpSync(join(repo, 'demo', 'workspace'), workspace, { recursive: true });
 const workerJs = join(tmp, 'indexWorker.js');
-await build({ entryPoints: [join(repo, 'src/node/worker/indexWorker.ts')], outfile: workerJs, bundle: true, platform: 'node', format: 'cjs', minify: true, logLevel: 'error' });
+// The index worker and, beside it, the thread-pool script it starts for larger builds (as in dist/).
+for (const [entry, out] of [['src/node/worker/indexWorker.ts', workerJs], ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')]]) {
+  await build({ entryPoints: [join(repo, entry)], outfile: out, bundle: true, platform: 'node', format: 'cjs', minify: true, logLevel: 'error' });
+}
 
 const worker = new Worker(workerJs);
 const client = new WorkerClient(worker);

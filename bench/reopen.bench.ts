@@ -24,7 +24,10 @@ const repo = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-reopen-'));
 const workspace = join(tmp, 'ws');
 const workerJs = join(tmp, 'indexWorker.js');
-await build({ entryPoints: [join(repo, 'src/node/worker/indexWorker.ts')], outfile: workerJs, bundle: true, platform: 'node', format: 'cjs', minify: true, logLevel: 'error' });
+// The index worker and, beside it, the thread-pool script it starts for larger builds (as in dist/).
+for (const [entry, out] of [['src/node/worker/indexWorker.ts', workerJs], ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')]]) {
+  await build({ entryPoints: [join(repo, entry)], outfile: out, bundle: true, platform: 'node', format: 'cjs', minify: true, logLevel: 'error' });
+}
 
 const rng = createRandom(11);
 const syllables = ['ka', 'lo', 'mi', 'ren', 'tas', 'vo', 'dur', 'pel', 'sin', 'gra', 'ho', 'bex', 'nu', 'fal', 'quo', 'zet'];

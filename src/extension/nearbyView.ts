@@ -4,7 +4,9 @@
  * the tree stays empty (so the welcome text shows) while there is no index or the file is not in it.
  */
 import * as vscode from 'vscode';
+import type { IndexSummary } from '../node/worker/protocol.js';
 import type { IndexController } from './indexController.js';
+import { summaryOf } from './indexState.js';
 import { nearbyEntries, type ResultEntry } from './viewModels.js';
 import { resultTreeItem } from './resultItem.js';
 
@@ -16,6 +18,7 @@ export class NearbyProvider implements vscode.TreeDataProvider<ResultEntry>, vsc
   private _seq = 0;
   private _pending: Promise<void> = Promise.resolve();
   private _view: vscode.TreeView<ResultEntry> | undefined;
+  private _summary: IndexSummary | null = null;
   private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
   private readonly _disposables: vscode.Disposable[] = [this._onDidChangeTreeData];
   readonly onDidChangeTreeData = this._onDidChangeTreeData.event;
@@ -26,7 +29,13 @@ export class NearbyProvider implements vscode.TreeDataProvider<ResultEntry>, vsc
         if (editor && editor.document.uri.scheme === 'file') void this.show(editor.document.uri);
       }),
       _controller.onDidChangeIndex(() => void this.refresh()),
-      _controller.onDidChangeState(() => void this.refresh()),
+      // Only when the index appears, goes or is replaced: progress updates need no new query.
+      _controller.onDidChangeState((state) => {
+        const summary = summaryOf(state);
+        if (summary === this._summary) return;
+        this._summary = summary;
+        void this.refresh();
+      }),
     );
     const active = vscode.window.activeTextEditor?.document.uri;
     if (active?.scheme === 'file') this._subject = active;
