@@ -150,6 +150,11 @@ export class IndexController {
         if (isCancelled(err)) {
           this._host.log('Indexing cancelled; the previous index stays in use.');
           this.setState(previous ? { kind: 'ready', summary: previous } : { kind: 'none', reason: 'indexing was cancelled.' });
+        } else if (err instanceof Error && err.name === 'EmptyCorpusError') {
+          // An empty folder is not an error worth a pop-up, unless the person asked for the build.
+          this._host.log(err.message);
+          this.setState(previous ? { kind: 'ready', summary: previous } : { kind: 'none', reason: err.message });
+          if (kind === 'user') this._host.showError(err.message);
         } else {
           const message = err instanceof Error ? err.message : String(err);
           this._host.log(`Indexing failed: ${message}`);

@@ -89,6 +89,20 @@ describe('IndexController without local folders', () => {
   });
 });
 
+describe('IndexController on a folder with nothing to index', () => {
+  it('shows no error on start-up and says why there is no index', async () => {
+    const empty = join(tmp, 'empty');
+    mkdirSync(join(empty, 'pictures'), { recursive: true });
+    writeFileSync(join(empty, 'pictures', 'harbour.png'), 'not really a picture');
+    const host = fakeHost({ folders: () => ({ local: [{ name: 'empty', fsPath: empty, filesExclude: {} }], elsewhere: [] }), indexFile: join(tmp, 'empty-storage', 'index.undertone') });
+    const c = make(host);
+    await c.start();
+    expect(c.state.kind).toBe('none');
+    expect(c.state.kind === 'none' && c.state.reason).toMatch(/^Nothing to index/);
+    expect(host.lines.filter((l) => l.startsWith('error:'))).toEqual([]);
+  });
+});
+
 describe.skipIf(!adi || !cran)(`IndexController ${adi && cran ? '' : missingMessage('corpora/adi, corpora/cran')}`, () => {
   it('builds on first start with a progress notification, then loads the saved index on the next', async () => {
     const first = fakeHost();
