@@ -6,6 +6,7 @@
  * layout changes.
  */
 import { SpatialGrid } from '../../core/map/spatialGrid.js';
+import { DotRaster } from './dotRaster.js';
 import { drawMap, zoomGrowth, type MapScene } from './mapRenderer.js';
 import type { MapTheme } from './theme.js';
 import { Viewport } from './viewport.js';
@@ -24,6 +25,7 @@ const TRANSITION_MS = 450;
 export class MapCanvas {
   readonly vp = new Viewport();
   private readonly ctx: CanvasRenderingContext2D;
+  private readonly raster = new DotRaster();
   private grid: SpatialGrid;
   private frame = 0;
   private drag: { id: number; x: number; y: number; moved: boolean } | null = null;
@@ -125,7 +127,7 @@ export class MapCanvas {
   private draw(): void {
     const dpr = window.devicePixelRatio || 1;
     this.ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
-    drawMap(this.ctx, this.vp, this.scene, this.theme);
+    drawMap(this.ctx, this.vp, this.scene, this.theme, this.raster, dpr);
   }
 
   private resize(): void {

@@ -1,9 +1,11 @@
 /// <reference lib="dom" />
 /**
  * Draws the map in one pass per topic colour: each colour's dots go into one path and are filled
- * once, dots outside the view are skipped, so tens of thousands of files redraw within a frame.
- * Overlays (query links and rings, selection, hover) are drawn on top.
+ * once, dots outside the view are skipped. Crowded maps (over RASTER_MIN files) go through the
+ * software rasteriser instead (dotRaster.ts), which blends all dots into one image. Overlays
+ * (query links and rings, selection, hover) are drawn on top with the canvas API.
  */
+import type { DotRaster } from './dotRaster.js';
 import type { MapTheme } from './theme.js';
 import type { Viewport } from './viewport.js';
 
@@ -31,12 +33,36 @@ export function zoomGrowth(zoom: number): number {
   return Math.min(2.6, Math.max(1, zoom ** 0.35));
 }
 
-export function drawMap(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, theme: MapTheme): void {
+/** File count above which dots are rasterised in software (common practice: a few thousand). */
+export const RASTER_MIN = 4000;
+
+export function drawMap(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, theme: MapTheme, raster: DotRaster, dpr: number): void {
+  const { x, y, radius, groups } = scene;
+  const grow = zoomGrowth(vp.zoom);
+  if (x.length > RASTER_MIN) {
+    const last = groups.length - 1;
+    const rasterGroups = groups.map((members, g) => {
+      const dimmed = scene.focusTopic !== null && (g === last || g !== scene.focusTopic);
+      const colour = g === last ? theme.rgb.unassigned : theme.rgb.topics[g % Math.max(1, theme.rgb.topics.length)];
+      return { members, colour, alpha: dimmed ? 0.14 : 0.8 };
+    });
+    ctx.setTransform(1, 0, 0, 1, 0, 0);
+    raster.draw(ctx, vp, dpr, x, y, radius, grow, rasterGroups, theme.rgb.bg);
+    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+  } else {
+    drawDotPaths(ctx, vp, scene, theme, grow);
+  }
+  ctx.globalAlpha = 1;
+  drawQuery(ctx, vp, scene, theme, grow);
+  if (scene.selected !== null) ring(ctx, vp, scene, scene.selected, theme.fg, 2, 4 * grow, grow);
+  if (scene.hovered !== null && scene.hovered !== scene.selected) ring(ctx, vp, scene, scene.hovered, theme.fg, 1.5, 3, grow);
+}
+
+function drawDotPaths(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, theme: MapTheme, grow: number): void {
   const { x, y, radius, groups } = scene;
   ctx.fillStyle = theme.bg;
   ctx.fillRect(0, 0, vp.width, vp.height);
-  const grow = zoomGrowth(vp.zoom);
-  const crowded = x.length > 5000;
+  const crowded = x.length > 2000;
   for (let g = 0; g < groups.length; g++) {
     const isUnassigned = g === groups.length - 1;
     const dimmed = scene.focusTopic !== null && (isUnassigned || g !== scene.focusTopic);
@@ -68,10 +94,6 @@ export function drawMap(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapS
     ctx.fillStyle = isUnassigned ? theme.unassigned : theme.topics[g % Math.max(1, theme.topics.length)];
     ctx.fill();
   }
-  ctx.globalAlpha = 1;
-  drawQuery(ctx, vp, scene, theme, grow);
-  if (scene.selected !== null) ring(ctx, vp, scene, scene.selected, theme.fg, 2, 4 * grow, grow);
-  if (scene.hovered !== null && scene.hovered !== scene.selected) ring(ctx, vp, scene, scene.hovered, theme.fg, 1.5, 3, grow);
 }
 
 function ring(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, i: number, colour: string, width: number, gap: number, grow: number): void {

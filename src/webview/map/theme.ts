@@ -16,6 +16,8 @@ export interface MapTheme {
   readonly highContrast: boolean;
   readonly topics: string[];
   readonly unassigned: string;
+  /** The same colours as RGB triples, for the software rasteriser. */
+  readonly rgb: { readonly bg: Rgb; readonly topics: Rgb[]; readonly unassigned: Rgb };
 }
 
 export function readTheme(root: HTMLElement, topicCount: number): MapTheme {
@@ -34,6 +36,8 @@ export function readTheme(root: HTMLElement, topicCount: number): MapTheme {
   probe.remove();
   const cls = document.body.classList;
   const luminance = (0.2126 * bg[0] + 0.7152 * bg[1] + 0.0722 * bg[2]) / 255;
+  const topics = topicPalette(topicCount, bg);
+  const unassigned = unassignedColour(bg);
   return {
     bg: toHex(bg),
     fg: toHex(fg),
@@ -42,8 +46,9 @@ export function readTheme(root: HTMLElement, topicCount: number): MapTheme {
     border: toHex(border),
     dark: luminance < 0.5,
     highContrast: cls.contains('vscode-high-contrast') || cls.contains('vscode-high-contrast-light'),
-    topics: topicPalette(topicCount, bg).map(toHex),
-    unassigned: toHex(unassignedColour(bg)),
+    topics: topics.map(toHex),
+    unassigned: toHex(unassigned),
+    rgb: { bg, topics, unassigned },
   };
 }
 
