@@ -27,6 +27,8 @@ export interface MatrixExecutor {
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array;
   /** out = Y W for Y rows × l and W l × c given transposed (wt: c × l); W upper triangular if upper. */
   timesSmall(y: FloatArray, rows: number, l: number, wt: Float64Array, c: number, upper: boolean, out: FloatArray): void;
+  /** Runs fn and then frees the executor memory it allocated (results must be copied out). */
+  scoped?<T>(fn: () => T): T;
 }
 
 /** g += part (block partials are added in block order by every executor). */

@@ -11,8 +11,9 @@
  *      small-side vectors QW, big-side vectors AᵀQWΣ⁻¹ (rayleighRitz.ts);
  *   3. sign fix: the largest-magnitude entry of each column-side vector is made positive
  *      (svd_flip with the decision on the column factor, as scikit-learn's TruncatedSVD does).
- * The large products run on an injected MatrixExecutor (serial by default; threads from
- * src/node), which splits work so that results are the same bits either way.
+ * The large products run on a MatrixExecutor: WebAssembly SIMD kernels on this thread by default
+ * (plain typed-array loops where WebAssembly SIMD is missing), or threads injected from src/node.
+ * Every executor gives the same bits (same operation order, fixed reduction blocks).
  *
  * Defaults: oversampling max(10, ⌈k/10⌉) (Halko §4.2 suggests 5–10; scikit-learn uses 10), power
  * iterations 4 (text spectra decay slowly; scikit-learn's TruncatedSVD uses 5, see
@@ -23,6 +24,7 @@ import { CancelledError, InvalidInputError } from '../errors.js';
 import { choleskyQr } from '../matrix/choleskyQr.js';
 import { leadingColumns } from '../matrix/dense.js';
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
+import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import type { CsrMatrix, DenseBlock } from '../matrix/sparse.js';
 import { copyCsr, transposeCsr } from '../matrix/sparse.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
@@ -70,16 +72,22 @@ export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOption
   if (maxRank === 0) throw new InvalidInputError('cannot decompose an empty matrix');
   if (!Number.isInteger(o.k) || o.k < 1) throw new InvalidInputError(`k must be a positive integer, got ${o.k}`);
   if (!Number.isInteger(o.powerIterations) || o.powerIterations < 0) throw new InvalidInputError(`powerIterations must be a whole number ≥ 0, got ${o.powerIterations}`);
-  const ex = o.executor ?? serialExecutor;
+  const ex = o.executor ?? createWasmExecutor() ?? serialExecutor;
+  return ex.scoped ? ex.scoped(() => decompose(m, o, ex)) : decompose(m, o, ex);
+}
+
+function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): SvdResult {
+  const maxRank = Math.min(m.rows, m.cols);
   const k = Math.min(o.k, maxRank);
   const l = Math.min(k + (o.oversampling ?? defaultOversampling(k)), maxRank);
   const random = createRandom(o.seed);
   const nnz = m.indptr[m.rows];
   // A has the smaller dimension as rows: Q (S × l) is the only block that is orthonormalised.
   const rowsSmall = m.rows <= m.cols;
-  const valueType = m.values instanceof Float32Array ? 'f32' : 'f64';
-  const mCopy = ex.threads > 1 ? copyCsr(m, ex, valueType) : m;
-  const mt = transposeCsr(m, ex);
+  // Executors other than the plain one need the matrix in their own memory (f64 for the kernels).
+  const own = ex !== serialExecutor;
+  const mCopy = own ? copyCsr(m, ex, 'f64') : m;
+  const mt = transposeCsr(m, ex, own ? 'f64' : undefined);
   const a = rowsSmall ? mCopy : mt;
   const at = rowsSmall ? mt : mCopy;
   const S = a.rows;

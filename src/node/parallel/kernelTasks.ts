@@ -1,10 +1,11 @@
 /**
  * One description of a parallel matrix job, shared by the main thread and the worker threads:
- * the job names a row-range kernel of src/core/matrix/kernels.ts, its arrays (all on shared
- * memory) and its task split. Whoever claims task t (via an atomic counter) runs exactly the same
- * arithmetic on exactly the same rows, so the result does not depend on who ran what.
+ * the job names a WebAssembly kernel (src/core/matrix/wasm/simdKernels.ts), its arguments (byte
+ * offsets into the shared memory, and sizes) and its task split. Whoever claims task t (via an
+ * atomic counter) runs exactly the same arithmetic on exactly the same rows, so the result does
+ * not depend on who ran what.
  */
-import { crossRows, spmmRows, timesSmallRows, type FloatArray } from '../../core/matrix/kernels.js';
+import type { KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 
 /** Control words of a job (Int32Array on a SharedArrayBuffer). */
 export const CTRL_NEXT = 0; // next unclaimed task
@@ -16,67 +17,57 @@ export const CTRL_WORDS = 4;
 export type KernelJob =
   | {
       readonly op: 'spmm';
-      readonly indptr: Int32Array;
-      readonly indices: Int32Array;
-      readonly values: FloatArray;
-      readonly x: FloatArray;
-      readonly y: FloatArray;
-      readonly l: number;
+      /** indptr, indices, values, x, l, y (offsets and the width). */
+      readonly args: readonly [number, number, number, number, number, number];
       /** Row boundaries of the tasks. */
-      readonly bounds: Int32Array;
+      readonly bounds: readonly number[];
     }
   | {
       readonly op: 'cross';
-      readonly a: FloatArray;
-      readonly b: FloatArray;
-      readonly l: number;
-      readonly rows: number;
+      /** a, b, l, rows, partials (one l × l block per task), symmetric (0/1). */
+      readonly args: readonly [number, number, number, number, number, number];
       readonly blockRows: number;
-      readonly symmetric: boolean;
-      /** One l × l partial per block, block after block. */
-      readonly partials: Float64Array;
     }
   | {
-      readonly op: 'timesSmall';
-      readonly y: FloatArray;
-      readonly wt: Float64Array;
-      readonly out: FloatArray;
-      readonly l: number;
-      readonly c: number;
-      readonly upper: boolean;
-      readonly bounds: Int32Array;
+      readonly op: 'times';
+      /** y, l, w, c, upper (0/1), out. */
+      readonly args: readonly [number, number, number, number, number, number];
+      readonly bounds: readonly number[];
     };
 
 export function taskCount(job: KernelJob): number {
-  if (job.op === 'cross') return Math.max(1, Math.ceil(job.rows / job.blockRows));
+  if (job.op === 'cross') return Math.max(1, Math.ceil(job.args[3] / job.blockRows));
   return job.bounds.length - 1;
 }
 
-export function runTask(job: KernelJob, t: number): void {
+export function runTask(k: KernelExports, job: KernelJob, t: number): void {
   switch (job.op) {
-    case 'spmm':
-      spmmRows(job.indptr, job.indices, job.values, job.x, job.l, job.y, job.bounds[t], job.bounds[t + 1]);
-      return;
-    case 'cross': {
-      const size = job.l * job.l;
-      const part = job.partials.subarray(t * size, (t + 1) * size);
-      crossRows(job.a, job.b, job.l, t * job.blockRows, Math.min(job.rows, (t + 1) * job.blockRows), part, job.symmetric);
+    case 'spmm': {
+      const [indptr, indices, values, x, l, y] = job.args;
+      k.spmm(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1]);
       return;
     }
-    case 'timesSmall':
-      timesSmallRows(job.y, job.l, job.wt, job.c, job.upper, job.out, job.bounds[t], job.bounds[t + 1]);
+    case 'cross': {
+      const [a, b, l, rows, partials, symmetric] = job.args;
+      k.cross(a, b, l, t * job.blockRows, Math.min(rows, (t + 1) * job.blockRows), partials + t * l * l * 8, symmetric);
       return;
+    }
+    case 'times': {
+      const [y, l, w, c, upper, out] = job.args;
+      k.times(y, l, w, c, upper, out, job.bounds[t], job.bounds[t + 1]);
+      return;
+    }
   }
 }
 
 /** Claims and runs tasks until none is left; returns how many this thread ran. */
-export function drainTasks(job: KernelJob, ctrl: Int32Array): number {
+export function drainTasks(k: KernelExports, job: KernelJob, ctrl: Int32Array): number {
   const total = taskCount(job);
   let ran = 0;
   for (;;) {
     const t = Atomics.add(ctrl, CTRL_NEXT, 1);
     if (t >= total) return ran;
-    runTask(job, t);
+    runTask(k, job, t);
     Atomics.add(ctrl, CTRL_COMPLETED, 1);
     ran++;
   }

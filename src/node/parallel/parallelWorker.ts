@@ -4,6 +4,7 @@
  * products on shared memory (kernelTasks.ts).
  */
 import { parentPort } from 'node:worker_threads';
+import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
 import type { FileOutcome, FromWorker, ToWorker } from './protocol.js';
 import { readIndexableTextSync } from './readTextSync.js';
@@ -13,11 +14,17 @@ if (!parentPort) throw new Error('parallelWorker.js must be started as a worker 
 const port = parentPort;
 let counter: WordCounter | undefined;
 let maxFileBytes = 1_048_576;
+let kernels: KernelExports | undefined;
 
 port.on('message', (msg: ToWorker) => {
+  if (msg.type === 'wasm-init') {
+    kernels = instantiateKernels(msg.module, msg.memory);
+    return;
+  }
   if (msg.type === 'kernel') {
     try {
-      drainTasks(msg.job, msg.ctrl);
+      if (!kernels) throw new Error('kernel job before wasm-init');
+      drainTasks(kernels, msg.job, msg.ctrl);
     } catch {
       Atomics.store(msg.ctrl, CTRL_FAILED, 1);
     } finally {

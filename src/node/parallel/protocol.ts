@@ -20,7 +20,14 @@ export interface TokenizeBatch {
   readonly files: readonly { readonly index: number; readonly absPath: string }[];
 }
 
-export type ToWorker = KernelMessage | TokenizeSetup | TokenizeBatch;
+/** Instantiates the kernel module on the shared memory (sent before any kernel message). */
+export interface WasmInit {
+  readonly type: 'wasm-init';
+  readonly module: WebAssembly.Module;
+  readonly memory: WebAssembly.Memory;
+}
+
+export type ToWorker = KernelMessage | WasmInit | TokenizeSetup | TokenizeBatch;
 
 /** The outcome of one file; ids are the worker's local term ids (see WordCounter). */
 export type FileOutcome =

@@ -9,7 +9,9 @@ import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
-import type { MatrixExecutor } from '../../core/matrix/executor.js';
+import { serialExecutor, type MatrixExecutor } from '../../core/matrix/executor.js';
+import { kernelModule, WasmArena } from '../../core/matrix/wasm/wasmArena.js';
+import type { ToWorker } from './protocol.js';
 import { ThreadExecutor } from './threadExecutor.js';
 
 export interface PoolOptions {
@@ -50,9 +52,18 @@ export class WorkerPool {
     return new WorkerPool(workers, threads);
   }
 
-  /** An executor using threads − 1 workers plus the calling thread. */
+  /**
+   * An executor using threads − 1 workers plus the calling thread, on a fresh shared memory
+   * (serialExecutor where WebAssembly SIMD is unavailable).
+   */
   executor(): MatrixExecutor {
-    return new ThreadExecutor(this.workers.slice(0, this.threads - 1));
+    const module = kernelModule();
+    if (!module) return serialExecutor;
+    const arena = new WasmArena();
+    const helpers = this.workers.slice(0, this.threads - 1);
+    const init: ToWorker = { type: 'wasm-init', module, memory: arena.memory };
+    for (const w of helpers) w.postMessage(init);
+    return new ThreadExecutor(module, arena, helpers);
   }
 
   async close(): Promise<void> {

@@ -1,0 +1,91 @@
+/**
+ * Typed arrays carved out of one shared WebAssembly memory, so the SIMD kernels (and worker
+ * threads that instantiate the same module on the same memory) can reach them by byte offset.
+ * A bump allocator: mark() and release(mark) free everything allocated in between, which is how
+ * one SVD hands its scratch back. The memory is shared even on one thread because growing a
+ * shared memory never detaches the buffers of earlier arrays.
+ */
+import { kernelModuleBytes, MAX_PAGES } from './simdKernels.js';
+
+const PAGE = 65536;
+const ALIGN = 16;
+
+export interface KernelExports {
+  spmm(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number): void;
+  cross(a: number, b: number, l: number, r0: number, r1: number, g: number, symmetric: number): void;
+  times(y: number, l: number, w: number, c: number, upper: number, out: number, r0: number, r1: number): void;
+}
+
+let compiled: WebAssembly.Module | null | undefined;
+
+/** The kernel module, or null where WebAssembly SIMD or shared memory is unavailable. */
+export function kernelModule(): WebAssembly.Module | null {
+  if (compiled !== undefined) return compiled;
+  try {
+    const bytes = kernelModuleBytes();
+    compiled = typeof SharedArrayBuffer === 'function' && WebAssembly.validate(bytes) ? new WebAssembly.Module(bytes) : null;
+  } catch {
+    compiled = null;
+  }
+  return compiled;
+}
+
+export function instantiateKernels(module: WebAssembly.Module, memory: WebAssembly.Memory): KernelExports {
+  return new WebAssembly.Instance(module, { env: { memory } }).exports as unknown as KernelExports;
+}
+
+export class WasmArena {
+  readonly memory: WebAssembly.Memory;
+  private top = ALIGN;
+  private readonly buffers = new WeakSet<ArrayBufferLike>();
+
+  constructor(memory?: WebAssembly.Memory) {
+    this.memory = memory ?? new WebAssembly.Memory({ initial: 16, maximum: MAX_PAGES, shared: true });
+    this.buffers.add(this.memory.buffer);
+  }
+
+  mark(): number {
+    return this.top;
+  }
+
+  release(mark: number): void {
+    this.top = Math.min(this.top, Math.max(ALIGN, mark));
+  }
+
+  float64(n: number): Float64Array {
+    const p = this.alloc(n * 8);
+    return new Float64Array(this.memory.buffer, p, n).fill(0);
+  }
+
+  float32(n: number): Float32Array {
+    const p = this.alloc(n * 4);
+    return new Float32Array(this.memory.buffer, p, n).fill(0);
+  }
+
+  int32(n: number): Int32Array {
+    const p = this.alloc(n * 4);
+    return new Int32Array(this.memory.buffer, p, n).fill(0);
+  }
+
+  /** The byte offset of an array that lives in this memory, or -1. */
+  offsetOf(a: ArrayBufferView): number {
+    return this.buffers.has(a.buffer) ? a.byteOffset : -1;
+  }
+
+  private alloc(bytes: number): number {
+    const p = this.top;
+    const end = p + Math.ceil(Math.max(bytes, 1) / ALIGN) * ALIGN;
+    const have = this.memory.buffer.byteLength;
+    if (end > have) {
+      const pages = Math.ceil((end - have) / PAGE);
+      try {
+        this.memory.grow(Math.max(pages, Math.ceil(have / PAGE / 4)));
+      } catch {
+        this.memory.grow(pages);
+      }
+      this.buffers.add(this.memory.buffer);
+    }
+    this.top = end;
+    return p;
+  }
+}

@@ -1,0 +1,99 @@
+/**
+ * A single-threaded MatrixExecutor running the WebAssembly SIMD kernels (simdKernels.ts) on a
+ * WasmArena. Inputs that do not live in the arena are copied in first. Reductions use the same
+ * fixed blocks, in the same order, as every other executor, so the results are the same bits as
+ * serialExecutor's.
+ */
+import { addInto, mirrorUpper, reductionBlocks, REDUCTION_BLOCK_ROWS, type FloatArray, type MatrixExecutor } from '../executor.js';
+import type { CsrMatrix } from '../sparse.js';
+import { instantiateKernels, kernelModule, WasmArena, type KernelExports } from './wasmArena.js';
+
+export class WasmExecutor implements MatrixExecutor {
+  readonly threads: number = 1;
+  readonly arena: WasmArena;
+  protected readonly kernels: KernelExports;
+
+  /** Use createWasmExecutor(), which checks that WebAssembly SIMD is available. */
+  constructor(module: WebAssembly.Module, arena = new WasmArena()) {
+    this.arena = arena;
+    this.kernels = instantiateKernels(module, arena.memory);
+  }
+
+  float64(n: number): Float64Array {
+    return this.arena.float64(n);
+  }
+
+  float32(n: number): Float32Array {
+    return this.arena.float32(n);
+  }
+
+  int32(n: number): Int32Array {
+    return this.arena.int32(n);
+  }
+
+  /** Frees the arena memory allocated while fn ran (results must be copied out before). */
+  scoped<T>(fn: () => T): T {
+    const mark = this.arena.mark();
+    try {
+      return fn();
+    } finally {
+      this.arena.release(mark);
+    }
+  }
+
+  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray): void {
+    const out = this.out(y);
+    this.kernels.spmm(this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), this.ptr(x), l, out.ptr, 0, m.rows);
+    out.done();
+  }
+
+  cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array {
+    const symmetric = a === b;
+    const pa = this.ptr(a);
+    const pb = symmetric ? pa : this.ptr(b);
+    const g = new Float64Array(l * l);
+    const part = this.arena.float64(l * l);
+    for (let t = 0; t < reductionBlocks(rows); t++) {
+      this.kernels.cross(pa, pb, l, t * REDUCTION_BLOCK_ROWS, Math.min(rows, (t + 1) * REDUCTION_BLOCK_ROWS), part.byteOffset, symmetric ? 1 : 0);
+      addInto(g, part);
+    }
+    return symmetric ? mirrorUpper(g, l) : g;
+  }
+
+  timesSmall(y: FloatArray, rows: number, l: number, wt: Float64Array, c: number, upper: boolean, out: FloatArray): void {
+    const w = this.untransposed(wt, l, c);
+    const o = this.out(out);
+    this.kernels.times(this.ptr(y), l, w, c, upper ? 1 : 0, o.ptr, 0, rows);
+    o.done();
+  }
+
+  /** W (l × c) in the arena from its transpose wt (c × l); returns the byte offset. */
+  protected untransposed(wt: Float64Array, l: number, c: number): number {
+    const w = this.arena.float64(l * c);
+    for (let b = 0; b < c; b++) for (let a = 0; a < l; a++) w[a * c + b] = wt[b * l + a];
+    return w.byteOffset;
+  }
+
+  /** Byte offset of an input array, copying it into the arena (as f64 for floats) if needed. */
+  protected ptr(a: Int32Array | FloatArray): number {
+    const p = a instanceof Float32Array ? -1 : this.arena.offsetOf(a);
+    if (p >= 0) return p;
+    const copy = a instanceof Int32Array ? this.arena.int32(a.length) : this.arena.float64(a.length);
+    copy.set(a);
+    return copy.byteOffset;
+  }
+
+  /** An output target in the arena, copied back to the caller's array when it lives elsewhere. */
+  protected out(y: FloatArray): { ptr: number; done: () => void } {
+    const p = y instanceof Float32Array ? -1 : this.arena.offsetOf(y);
+    if (p >= 0) return { ptr: p, done: () => undefined };
+    const tmp = this.arena.float64(y.length);
+    return { ptr: tmp.byteOffset, done: () => y.set(tmp) };
+  }
+}
+
+/** A WebAssembly SIMD executor, or undefined where the platform lacks SIMD or shared memory. */
+export function createWasmExecutor(): WasmExecutor | undefined {
+  const module = kernelModule();
+  return module ? new WasmExecutor(module) : undefined;
+}

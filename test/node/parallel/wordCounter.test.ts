@@ -1,0 +1,59 @@
+import { describe, expect, it } from 'vitest';
+import { countTerms, Vocabulary } from '../../../src/core/index/termCounts.js';
+import { tokenize } from '../../../src/core/text/tokenize.js';
+import { WordCounter } from '../../../src/node/parallel/wordCounter.js';
+import { loadCollection, missingMessage } from '../../helpers/shared.js';
+
+// The reference is the plain pipeline itself: countTerms(tokenize(text)) (brute force, no cache).
+function reference(text: string): Map<string, number> {
+  const vocab = new Vocabulary();
+  const t = countTerms(tokenize(text), vocab, true);
+  return new Map(Array.from(t.termIds, (id, i) => [vocab.termOf(id), t.counts[i]]));
+}
+
+function viaCounter(counter: WordCounter, terms: string[], text: string): { bag: Map<string, number>; length: number } {
+  const c = counter.count(text);
+  terms.push(...counter.takeNewTerms());
+  for (let i = 1; i < c.ids.length; i++) expect(c.ids[i]).toBeGreaterThan(c.ids[i - 1]);
+  return { bag: new Map(Array.from(c.ids, (id, i) => [terms[id], c.counts[i]])), length: c.length };
+}
+
+const ODD_TEXTS = [
+  'getUserName HTTPServer parse_json_value kebab-case x86_64 $scope __init__ 0xDEADBEEF deadbeef12',
+  'Café naïve résumé — “quoted” ﬁle ①②③ Ｆｕｌｌｗｉｄｔｈ ΑΒΓ δέλτα 東京 ゲーム',
+  'e\u0301tude combining marks: a\u0300 o\u0308 and emoji 😀 in text_with_snake',
+  'numbers 12345 1234 3.14159 v2 2fa a1b2c3d4e5 Version42Beta',
+  '', '   ', 'a b c', 'The the THE of and',
+];
+
+describe('WordCounter', () => {
+  it('counts exactly what tokenize + countTerms count, on odd text (reference: the uncached pipeline)', () => {
+    const counter = new WordCounter({});
+    const terms: string[] = [];
+    for (const text of [...ODD_TEXTS, ...ODD_TEXTS]) {
+      const got = viaCounter(counter, terms, text);
+      const want = reference(text);
+      expect(got.bag).toEqual(want);
+      expect(got.length).toBe(tokenize(text).length);
+    }
+  });
+
+  const cran = loadCollection('cran');
+  it.skipIf(!cran)(`agrees with tokenize + countTerms on 400 CRAN abstracts ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+    const counter = new WordCounter({});
+    const terms: string[] = [];
+    for (const d of cran!.docs.slice(0, 400)) expect(viaCounter(counter, terms, d.text).bag).toEqual(reference(d.text));
+  });
+
+  it('honours tokenize options (no stemming, no compounds)', () => {
+    const opts = { stem: false, keepCompounds: false };
+    const counter = new WordCounter(opts);
+    const terms: string[] = [];
+    const text = 'Running runners ran quickly; getUserName and parse_json_value';
+    const vocab = new Vocabulary();
+    const t = countTerms(tokenize(text, opts), vocab, true);
+    const want = new Map(Array.from(t.termIds, (id, i) => [vocab.termOf(id), t.counts[i]]));
+    expect(viaCounter(counter, terms, text).bag).toEqual(want);
+    expect(want.has('running')).toBe(true);
+  });
+});
