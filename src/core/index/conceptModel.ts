@@ -5,8 +5,9 @@
  * document or query into the k-dimensional concept space with those frozen weights.
  */
 import { CancelledError, EmptyCorpusError } from '../errors.js';
-import type { MatrixExecutor } from '../matrix/executor.js';
-import type { CsrMatrix } from '../matrix/sparse.js';
+import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
+import { copyCsr, type CsrMatrix } from '../matrix/sparse.js';
+import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import { chooseK, type ChosenK } from '../svd/chooseK.js';
 import { randomizedSvd } from '../svd/randomizedSvd.js';
 import { pruneVocabulary } from '../weighting/prune.js';
@@ -56,6 +57,24 @@ export interface BuildProgress {
 }
 
 export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, settings: IndexSettings, progress: BuildProgress = {}): ConceptModel {
+  return buildModelAndMatrix(docs, vocabSize, settings, progress).model;
+}
+
+/**
+ * The model and the unit concept vector of every document, exactly as projectTerms would give
+ * them one by one (rows of a k-wide block, in document order), computed as one sparse product.
+ */
+export function buildConceptModelAndVectors(
+  docs: readonly DocTerms[],
+  vocabSize: number,
+  settings: IndexSettings,
+  progress: BuildProgress = {},
+): { model: ConceptModel; vectors: Float32Array } {
+  const { model, matrix } = buildModelAndMatrix(docs, vocabSize, settings, progress);
+  return { model, vectors: projectMatrixRows(model, matrix, progress.executor) };
+}
+
+function buildModelAndMatrix(docs: readonly DocTerms[], vocabSize: number, settings: IndexSettings, progress: BuildProgress): { model: ConceptModel; matrix: CsrMatrix } {
   if (docs.length === 0) throw new EmptyCorpusError('There are no files to index.');
   const pruned = pruneVocabulary(docs, vocabSize, settings.prune);
   const m = pruned.keptIds.length;
@@ -91,7 +110,7 @@ export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, 
     residualSum += Math.max(0, 1 - inside);
     counted++;
   }
-  return {
+  const model: ConceptModel = {
     scheme: settings.weighting,
     k,
     kChoice,
@@ -106,6 +125,39 @@ export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, 
     pruneRelaxed: pruned.relaxed,
     nonZeros: nnz,
   };
+  return { model, matrix };
+}
+
+/**
+ * projectTerms(model, row).vector for every row of a weighted matrix built with the model's
+ * weights: U_kᵀd̂ by the executor's sequential sparse product (each row adds its terms one at a
+ * time, in order, as projectTerms does, so the bits agree), then the same axis scaling and
+ * normalisation.
+ */
+export function projectMatrixRows(model: ConceptModel, matrix: CsrMatrix, executor?: MatrixExecutor): Float32Array {
+  const ex = executor ?? createWasmExecutor() ?? serialExecutor;
+  const run = (): Float32Array => {
+    const k = model.k;
+    const n = matrix.rows;
+    const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
+    const tv = ex.float64(model.termVectors.length);
+    tv.set(model.termVectors);
+    const acc = ex.float64(n * k);
+    ex.spmm(m, tv, k, acc, true);
+    const out = new Float32Array(n * k);
+    const row = new Float64Array(k);
+    for (let i = 0; i < n; i++) {
+      let ss = 0;
+      for (let c = 0; c < k; c++) {
+        row[c] = acc[i * k + c] * model.axisScale[c];
+        ss += row[c] * row[c];
+      }
+      const norm = Math.sqrt(ss);
+      if (norm > 0) for (let c = 0; c < k; c++) out[i * k + c] = row[c] / norm;
+    }
+    return out;
+  };
+  return ex.scoped ? ex.scoped(run) : run();
 }
 
 /**

@@ -5,7 +5,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
-import { buildConceptModel, type BuildProgress } from './conceptModel.js';
+import { buildConceptModelAndVectors, type BuildProgress } from './conceptModel.js';
 import { LsiIndex, type DocMeta, type DocSlot } from './lsiIndex.js';
 import { resolveSettings, type IndexSettings } from './settings.js';
 import { countTerms, Vocabulary, type DocTerms } from './termCounts.js';
@@ -58,16 +58,40 @@ export class IndexBuilder {
       return { meta, terms: remap(t, newId), folded: false, residual: 0 };
     });
     if (slots.length === 0) throw new InvalidInputError('There are no files to index.');
-    const model = buildConceptModel(slots.map((s) => s.terms), vocab.size, this.settings, progress);
-    return LsiIndex.assemble(this.settings, vocab, model, slots);
+    const { model, vectors } = buildConceptModelAndVectors(slots.map((s) => s.terms), vocab.size, this.settings, progress);
+    return LsiIndex.assemble(this.settings, vocab, model, slots, vectors);
   }
 }
 
+/** Position bits of a remap sort key (ids below 2^31, positions below 2^21: a key fits 2^52). */
+const REMAP_SHIFT = 2 ** 21;
+
 function remap(t: DocTerms, newId: Int32Array): DocTerms {
-  const pairs = Array.from(t.termIds, (id, i) => [newId[id], t.counts[i]] as const).sort((a, b) => a[0] - b[0]);
+  // Typed arrays only (no per-entry objects): new ids, then a sort of (id, position) keys.
+  const n = t.termIds.length;
+  const termIds = new Int32Array(n);
+  let sorted = true;
+  for (let i = 0; i < n; i++) {
+    termIds[i] = newId[t.termIds[i]];
+    if (i > 0 && termIds[i] < termIds[i - 1]) sorted = false;
+  }
+  if (sorted) return { termIds, counts: Float32Array.from(t.counts), length: t.length };
+  if (n >= REMAP_SHIFT) {
+    const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => termIds[a] - termIds[b]);
+    return { termIds: Int32Array.from(order, (i) => termIds[i]), counts: Float32Array.from(order, (i) => t.counts[i]), length: t.length };
+  }
+  const keys = new Float64Array(n);
+  for (let i = 0; i < n; i++) keys[i] = termIds[i] * REMAP_SHIFT + i;
+  keys.sort();
+  const counts = new Float32Array(n);
+  for (let j = 0; j < n; j++) {
+    const id = Math.floor(keys[j] / REMAP_SHIFT);
+    termIds[j] = id;
+    counts[j] = t.counts[keys[j] - id * REMAP_SHIFT];
+  }
   return {
-    termIds: Int32Array.from(pairs, (p) => p[0]),
-    counts: Float32Array.from(pairs, (p) => p[1]),
+    termIds,
+    counts,
     length: t.length,
   };
 }

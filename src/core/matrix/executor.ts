@@ -21,8 +21,11 @@ export interface MatrixExecutor {
   float64(length: number): Float64Array;
   float32(length: number): Float32Array;
   int32(length: number): Int32Array;
-  /** Y = M X: M is rows × cols sparse, X is cols × l, Y is rows × l (row-major). */
-  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray): void;
+  /**
+   * Y = M X: M is rows × cols sparse, X is cols × l, Y is rows × l (row-major). With sequential,
+   * each row adds its entries one at a time, in order (the arithmetic of a plain loop).
+   */
+  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential?: boolean): void;
   /** AᵀB for two rows × l blocks (l × l, row-major); symmetric and mirrored when a === b. */
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array;
   /** out = Y W for Y rows × l and W l × c given transposed (wt: c × l); W upper triangular if upper. */
@@ -53,8 +56,8 @@ export const serialExecutor: MatrixExecutor = Object.freeze({
   float64: (n: number) => new Float64Array(n),
   float32: (n: number) => new Float32Array(n),
   int32: (n: number) => new Int32Array(n),
-  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray): void {
-    spmmRows(m.indptr, m.indices, m.values, x, l, y, 0, m.rows);
+  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
+    spmmRows(m.indptr, m.indices, m.values, x, l, y, 0, m.rows, !sequential);
   },
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array {
     const g = new Float64Array(l * l);

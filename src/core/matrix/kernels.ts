@@ -11,7 +11,10 @@
 
 export type FloatArray = Float64Array | Float32Array;
 
-/** y[r0:r1] = M[r0:r1] · X, where M is CSR (rows × cols) and X is cols × l, Y is rows × l. */
+/**
+ * y[r0:r1] = M[r0:r1] · X, where M is CSR (rows × cols) and X is cols × l, Y is rows × l.
+ * grouped = false adds one stored entry at a time (y += v·x), the order of a plain loop.
+ */
 export function spmmRows(
   indptr: Int32Array,
   indices: Int32Array,
@@ -21,6 +24,7 @@ export function spmmRows(
   y: FloatArray,
   r0: number,
   r1: number,
+  grouped = true,
 ): void {
   for (let i = r0; i < r1; i++) {
     const yo = i * l;
@@ -28,7 +32,7 @@ export function spmmRows(
     for (let c = yo; c < yEnd; c++) y[c] = 0;
     const p1 = indptr[i + 1];
     let p = indptr[i];
-    for (; p + 4 <= p1; p += 4) {
+    for (; grouped && p + 4 <= p1; p += 4) {
       const v0 = values[p], v1 = values[p + 1], v2 = values[p + 2], v3 = values[p + 3];
       const x0 = indices[p] * l - yo, x1 = indices[p + 1] * l - yo, x2 = indices[p + 2] * l - yo, x3 = indices[p + 3] * l - yo;
       for (let c = yo; c < yEnd; c++) y[c] += v0 * x[x0 + c] + v1 * x[x1 + c] + v2 * x[x2 + c] + v3 * x[x3 + c];

@@ -17,8 +17,8 @@ export const CTRL_WORDS = 4;
 export type KernelJob =
   | {
       readonly op: 'spmm';
-      /** indptr, indices, values, x, l, y (offsets and the width). */
-      readonly args: readonly [number, number, number, number, number, number];
+      /** indptr, indices, values, x, l, y (offsets and the width), grouped (0/1). */
+      readonly args: readonly [number, number, number, number, number, number, number];
       /** Row boundaries of the tasks. */
       readonly bounds: readonly number[];
     }
@@ -43,8 +43,8 @@ export function taskCount(job: KernelJob): number {
 export function runTask(k: KernelExports, job: KernelJob, t: number): void {
   switch (job.op) {
     case 'spmm': {
-      const [indptr, indices, values, x, l, y] = job.args;
-      k.spmm(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1]);
+      const [indptr, indices, values, x, l, y, grouped] = job.args;
+      k.spmm(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1], grouped);
       return;
     }
     case 'cross': {

@@ -31,10 +31,10 @@ export class ThreadExecutor extends WasmExecutor {
     this.threads = workers.length + 1;
   }
 
-  override spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray): void {
+  override spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
     const out = this.out(y);
     const bounds = Array.from(splitCsrRows(m.indptr, m.rows, this.threads * TASKS_PER_THREAD));
-    this.run({ op: 'spmm', args: [this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), this.ptr(x), l, out.ptr], bounds });
+    this.run({ op: 'spmm', args: [this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), this.ptr(x), l, out.ptr, sequential ? 0 : 1], bounds });
     out.done();
   }
 

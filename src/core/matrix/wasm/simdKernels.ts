@@ -4,7 +4,7 @@
  * formed by the same sequence of IEEE operations as in kernels.ts (no fused multiply-add; the
  * same association order), so both give the same bits. timesSmall reads W untransposed (l × c).
  *
- * Exports: spmm(indptr, indices, values, x, l, y, r0, r1),
+ * Exports: spmm(indptr, indices, values, x, l, y, r0, r1, grouped),
  *          cross(a, b, l, r0, r1, g, symmetric),
  *          times(y, l, w, c, upper, out, r0, r1).
  */
@@ -20,8 +20,8 @@ const V128_LOAD = 0x00, V128_STORE = 0x0b, F64X2_SPLAT = 0x14, F64X2_ADD = 0xf0,
 export const MAX_PAGES = 65536;
 
 function spmm(): FunctionBuilder {
-  const f = new FunctionBuilder('spmm', [I32, I32, I32, I32, I32, I32, I32, I32], []);
-  const [indptr, indices, values, x, l, y, r0, r1] = [0, 1, 2, 3, 4, 5, 6, 7];
+  const f = new FunctionBuilder('spmm', [I32, I32, I32, I32, I32, I32, I32, I32, I32], []);
+  const [indptr, indices, values, x, l, y, r0, r1, grouped] = [0, 1, 2, 3, 4, 5, 6, 7, 8];
   const l8 = f.local(I32), i = f.local(I32), yo = f.local(I32), p = f.local(I32), p1 = f.local(I32), c = f.local(I32), pairs = f.local(I32);
   const xs = [f.local(I32), f.local(I32), f.local(I32), f.local(I32)];
   const vs = [f.local(V128), f.local(V128), f.local(V128), f.local(V128)];
@@ -66,7 +66,7 @@ function spmm(): FunctionBuilder {
     });
     f.get(indptr).get(i).i32(2).op(I32_SHL).op(I32_ADD).mem(I32_LOAD, 2, 0).set(p);
     f.get(indptr).get(i).i32(2).op(I32_SHL).op(I32_ADD).mem(I32_LOAD, 2, 4).set(p1);
-    f.whileLoop(() => f.get(p).i32(4).op(I32_ADD).get(p1).op(I32_LE_S), () => {
+    f.whileLoop(() => f.get(p).i32(4).op(I32_ADD).get(p1).op(I32_LE_S).get(grouped).op(0x71), () => {
       for (let k = 0; k < 4; k++) loadEntry(k);
       rowUpdate(4);
       f.get(p).i32(4).op(I32_ADD).set(p);

@@ -11,7 +11,7 @@ const PAGE = 65536;
 const ALIGN = 16;
 
 export interface KernelExports {
-  spmm(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number): void;
+  spmm(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
   cross(a: number, b: number, l: number, r0: number, r1: number, g: number, symmetric: number): void;
   times(y: number, l: number, w: number, c: number, upper: number, out: number, r0: number, r1: number): void;
 }

@@ -41,9 +41,9 @@ export class WasmExecutor implements MatrixExecutor {
     }
   }
 
-  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray): void {
+  spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
     const out = this.out(y);
-    this.kernels.spmm(this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), this.ptr(x), l, out.ptr, 0, m.rows);
+    this.kernels.spmm(this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), this.ptr(x), l, out.ptr, 0, m.rows, sequential ? 0 : 1);
     out.done();
   }
 
