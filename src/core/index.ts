@@ -13,3 +13,4 @@ export * from './svd/randomizedSvd.js';
 export * from './svd/chooseK.js';
 export * from './eval/retrievalMetrics.js';
 export * from './lookalike/index.js';
+export * from './map/index.js';
