@@ -1,0 +1,128 @@
+/**
+ * One measured build, run in its own process (so peak RSS belongs to that build alone):
+ * index a folder from scratch with the CLI's defaults (threads, WebAssembly kernels), then reopen
+ * the saved index, time searches and nearest-file lookups, and fold in one changed file.
+ * Prints one JSON line (ChildResult) on stdout.
+ */
+import { readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtemp } from 'node:fs/promises';
+import { availableParallelism, tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { NoKnownTermsError } from '../src/core/errors.js';
+import type { LsiIndex } from '../src/core/index/lsiIndex.js';
+import { indexFolder } from '../src/node/folderIndexer.js';
+import { loadIndex } from '../src/node/persist.js';
+import { writeExport } from '../src/cli/commands/exportCommand.js';
+
+export interface ChildResult {
+  readonly folder: string;
+  readonly files: number;
+  readonly bytes: number;
+  readonly terms: number;
+  readonly nonZeros: number;
+  readonly k: number;
+  readonly threads: number;
+  /** Seconds: scan, tokenize (read + tokenize + count), matrix, svd (SVD + document vectors), save. */
+  readonly stages: { scan: number; tokenize: number; matrix: number; svd: number; save: number };
+  /** scan + tokenize + matrix + svd (the build, without saving). */
+  readonly buildSeconds: number;
+  readonly totalSeconds: number;
+  readonly peakRssBytes: number;
+  readonly reopenSeconds: number;
+  readonly indexBytes: number;
+  /** Milliseconds, median and worst over the queries / files tried. */
+  readonly searchMs: { median: number; max: number; count: number };
+  readonly nearbyMs: { median: number; max: number; count: number };
+  readonly foldInMs: number;
+  readonly searchAfterFoldInMs: number;
+}
+
+/** Plain-language queries: general software topics (invented wording; unknown words are skipped). */
+export const QUERIES = [
+  'how to allocate and free memory',
+  'power management suspend and resume',
+  'network driver interrupt handling',
+  'file system journaling and recovery',
+  'scheduler priority and processor affinity',
+  'debugging with trace points and logs',
+  'timetable changes for the summer ferry season',
+  'refund when a trip is cancelled',
+  'configuration file format and defaults',
+  'security checks for user permissions',
+];
+
+function stats(ms: number[]): { median: number; max: number; count: number } {
+  if (ms.length === 0) return { median: NaN, max: NaN, count: 0 };
+  const s = [...ms].sort((a, b) => a - b);
+  return { median: s[Math.floor(s.length / 2)], max: s[s.length - 1], count: s.length };
+}
+
+function timeIt(f: () => void): number {
+  const t = performance.now();
+  f();
+  return performance.now() - t;
+}
+
+/**
+ * @param exportDir when given, afterwards (outside the measured part) writes the indexed files'
+ * absolute paths to <exportDir>/paths.txt and the Matrix Market export (writeExport) there.
+ */
+export async function runChild(folder: string, k: number | 'auto', exportDir?: string): Promise<ChildResult> {
+  const dir = await mkdtemp(join(tmpdir(), 'undertone-bench-'));
+  const indexFile = join(dir, 'index.undertone');
+  const report = await indexFolder(folder, { indexFile, force: true, settings: { k } });
+  const s = report.seconds;
+  const stages = { scan: s.scan, tokenize: s.read, matrix: s.matrix, svd: s.svd, save: s.save };
+  // Reopen from disk (a fresh load, as a new editor session or CLI call does).
+  const t0 = performance.now();
+  const loaded = await loadIndex(indexFile);
+  const reopenSeconds = (performance.now() - t0) / 1000;
+  if (loaded.status !== 'ok') throw new Error(`could not reopen the saved index: ${loaded.status}`);
+  const index: LsiIndex = loaded.index;
+  const searchMs: number[] = [];
+  for (const q of QUERIES) {
+    try {
+      index.search(q, { top: 10 }); // the first search also builds the lexical scorer
+      searchMs.push(timeIt(() => index.search(q, { top: 10 })));
+    } catch (err) {
+      if (!(err instanceof NoKnownTermsError)) throw err;
+    }
+  }
+  const paths = index.paths();
+  const picks = Array.from({ length: Math.min(10, paths.length) }, (_, i) => paths[Math.floor((i * paths.length) / 10)]);
+  const nearbyMs = picks.map((p) => timeIt(() => index.nearby(p, { top: 10 })));
+  // Fold in one changed file: its text plus one new line.
+  const victim = picks[0];
+  const text = `${readFileSync(join(folder, victim), 'utf8')}\nA new closing line about memory.\n`;
+  const meta = { path: victim, size: text.length, mtimeMs: Date.now() };
+  const foldInMs = timeIt(() => index.foldIn(meta, text));
+  const afterMs = searchMs.length > 0 ? timeIt(() => index.search(QUERIES[0], { top: 10 })) : NaN;
+  const bytes = readFileSync(indexFile).length;
+  const peakRssBytes = process.resourceUsage().maxRSS * 1024;
+  if (exportDir) {
+    const built = report.index;
+    await writeExport(built, exportDir);
+    writeFileSync(join(exportDir, 'paths.txt'), `${built.paths().map((p) => join(resolve(folder), p)).join('\n')}\n`);
+  }
+  rmSync(dir, { recursive: true, force: true });
+  return {
+    folder,
+    files: report.files,
+    bytes: report.bytesRead,
+    terms: report.terms,
+    nonZeros: report.nonZeros,
+    k: report.k,
+    threads: availableParallelism(),
+    stages,
+    buildSeconds: stages.scan + stages.tokenize + stages.matrix + stages.svd,
+    totalSeconds: report.totalSeconds,
+    peakRssBytes,
+    reopenSeconds,
+    indexBytes: bytes,
+    searchMs: stats(searchMs),
+    nearbyMs: stats(nearbyMs),
+    foldInMs,
+    searchAfterFoldInMs: afterMs,
+  };
+}

@@ -1,0 +1,113 @@
+/**
+ * `npm run bench:compare`: Undertone and the reference pipeline (bench/compare/reference.py:
+ * Debian's scikit-learn, TfidfVectorizer(sublinear_tf, min_df 2, max_df 0.5) + TruncatedSVD
+ * (randomized, n_iter 5, n_oversamples 10), same k) on the same files, in one run. Corpora: the
+ * demo, the linux-source-6.1 Documentation folder and the full tree (scripts/bench-setup.sh
+ * installs the packages and unpacks the tree). For each: stage times, totals, peak RSS, ratios
+ * Undertone / reference, and the accuracy of our leading k singular values against scipy's
+ * ARPACK (svds) on our own weighted matrix, exported in Matrix Market format.
+ *
+ * Options: --k N (default 200), --only demo|docs|tree, --no-arpack.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { ChildResult } from '../benchChild.js';
+import { CORPORA, flag, loadLine, measureInChild, REPO, type CorpusName } from '../benchShared.js';
+
+const PYTHON = '/usr/bin/python3';
+const REFERENCE = join(REPO, 'bench', 'compare', 'reference.py');
+
+interface ReferenceResult {
+  files: number;
+  docs: number;
+  terms: number;
+  nnz: number;
+  k: number;
+  seconds: { read: number; vectorize: number; svd: number };
+  total: number;
+  peakRss: number;
+}
+
+interface ArpackResult {
+  k: number;
+  seconds: { read: number; svds: number };
+  exact: number[];
+  maxRelError: number;
+  meanRelError: number;
+  worstIndex: number;
+}
+
+function python(args: string[]): unknown {
+  const r = spawnSync(PYTHON, [REFERENCE, ...args], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
+  if (r.status !== 0) throw new Error(`reference.py ${args[0]} failed:\n${r.stderr}`);
+  return JSON.parse(r.stdout.trim().split('\n').pop()!);
+}
+
+function ensureReference(): void {
+  const probe = spawnSync(PYTHON, ['-c', 'import sklearn, scipy.sparse.linalg'], { encoding: 'utf8' });
+  if (probe.status === 0) return;
+  console.log('python3-sklearn / python3-scipy missing: running scripts/bench-setup.sh (apt)');
+  const r = spawnSync('bash', [join(REPO, 'scripts', 'bench-setup.sh')], { stdio: 'inherit' });
+  if (r.status !== 0) throw new Error('scripts/bench-setup.sh failed');
+}
+
+const pad = (s: string, n: number): string => s.padStart(n);
+const sec = (x: number): string => (Number.isFinite(x) ? x.toFixed(2) : '–');
+const ratio = (a: number, b: number): string => (b > 0 ? `${(a / b).toFixed(2)}×` : '–');
+const mb = (bytes: number): string => `${(bytes / 1048576).toFixed(0)} MB`;
+
+function printComparison(name: string, ours: ChildResult, ref: ReferenceResult, arpack?: ArpackResult, ourS?: number[]): void {
+  const oursBuild = ours.buildSeconds;
+  console.log(`\n=== ${name}: ${ours.files} files (${(ours.bytes / 1048576).toFixed(1)} MB), k=${ours.k} ===`);
+  console.log(`  matrix: Undertone ${ours.terms} terms × ${ours.files} files, ${ours.nonZeros} non-zeros; reference ${ref.terms} terms × ${ref.docs} files, ${ref.nnz} non-zeros`);
+  console.log(`  ${'stage'.padEnd(34)}${pad('Undertone s', 12)}${pad('reference s', 13)}`);
+  const row = (label: string, a: number, b: number): void => console.log(`  ${label.padEnd(34)}${pad(sec(a), 12)}${pad(sec(b), 13)}`);
+  row('scan (list files)', ours.stages.scan, NaN);
+  row('read + tokenize (ref: read)', ours.stages.tokenize, ref.seconds.read);
+  row('matrix (ref: TfidfVectorizer)', ours.stages.matrix, ref.seconds.vectorize);
+  row('SVD (+ document vectors)', ours.stages.svd, ref.seconds.svd);
+  row('build total', oursBuild, ref.total);
+  row('save index (Undertone only)', ours.stages.save, NaN);
+  console.log(`  build time ratio Undertone / reference: ${ratio(oursBuild, ref.total)} (target ≤ 0.5×)`);
+  console.log(`  peak RSS: Undertone ${mb(ours.peakRssBytes)}, reference ${mb(ref.peakRss)}, ratio ${ratio(ours.peakRssBytes, ref.peakRss)} (target ≤ 1×)`);
+  if (arpack && ourS) {
+    const rel = arpack.exact.map((e, i) => Math.abs(ourS[i] - e) / e);
+    const top = (n: number): string => (Math.max(...rel.slice(0, n)) * 100).toFixed(3);
+    console.log(
+      `  singular values vs ARPACK (svds, ${sec(arpack.seconds.svds)} s): worst ${(arpack.maxRelError * 100).toFixed(3)}% (index ${arpack.worstIndex + 1}), ` +
+        `mean ${(arpack.meanRelError * 100).toFixed(3)}%; worst of the first 10 / 50 / 100: ${top(10)}% / ${top(50)}% / ${top(100)}%`,
+    );
+  }
+  console.log(`  reopen saved index ${sec(ours.reopenSeconds)} s; search ${sec(ours.searchMs.median)} ms median / ${sec(ours.searchMs.max)} ms worst; nearby ${sec(ours.nearbyMs.median)} / ${sec(ours.nearbyMs.max)} ms`);
+  console.log(`  fold in one changed file ${sec(ours.foldInMs)} ms; next search ${sec(ours.searchAfterFoldInMs)} ms`);
+}
+
+export async function runCompare(): Promise<void> {
+  const k = Number(flag('k') ?? 200);
+  const only = flag('only') as CorpusName | undefined;
+  const arpackWanted = !process.argv.includes('--no-arpack');
+  ensureReference();
+  console.log(`Undertone vs reference pipeline (scikit-learn TfidfVectorizer + TruncatedSVD), k=${k}; ${loadLine()}`);
+  for (const name of ['demo', 'docs', 'tree'] as const) {
+    if (only && only !== name) continue;
+    const folder = CORPORA[name];
+    if (!existsSync(folder)) {
+      console.log(`\n${name}: ${folder} is missing${name === 'demo' ? '' : ' (run scripts/bench-setup.sh)'}; skipped`);
+      continue;
+    }
+    const dir = mkdtempSync(join(tmpdir(), `undertone-compare-${name}-`));
+    try {
+      const ours = measureInChild(folder, k, dir);
+      const ref = python(['pipeline', '--files', join(dir, 'paths.txt'), '--k', String(ours.k)]) as ReferenceResult;
+      let arpack: ArpackResult | undefined;
+      if (arpackWanted) arpack = python(['arpack', '--mtx', join(dir, 'matrix.mtx'), '--k', String(ours.k), '--ours', join(dir, 'singular-values.txt')]) as ArpackResult;
+      const ourS = readFileSync(join(dir, 'singular-values.txt'), 'utf8').split('\n').filter((x) => x.trim()).map(Number);
+      printComparison(name, ours, ref, arpack, ourS);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }
+  console.log(`\n${loadLine()} (after the runs)`);
+}
