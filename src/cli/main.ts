@@ -10,6 +10,7 @@ import { exportCommand } from './commands/exportCommand.js';
 import { importFactorsCommand } from './commands/importFactorsCommand.js';
 import { indexCommand } from './commands/indexCommand.js';
 import { lookalikesCommand } from './commands/lookalikesCommand.js';
+import { mapCommand } from './commands/mapCommand.js';
 import { nearbyCommand } from './commands/nearbyCommand.js';
 import { topicsCommand } from './commands/topicsCommand.js';
 import { COMMON_OPTIONS, type Flags } from './context.js';
@@ -28,6 +29,7 @@ usage:
   undertone export <folder> --format mtx --out DIR   weighted term-document matrix (Matrix Market),
                                             terms.txt and files.txt, for an SVD elsewhere
   undertone import-factors <folder> --u U.mtx --s S.txt --v V.mtx   load factors computed elsewhere
+  undertone map    <folder> --out FILE.html  the concept map and spectrum as one offline HTML file
 
 options:
   --top N                    how many results (default 10)
@@ -41,8 +43,13 @@ options:
   --no-gitignore             index files that .gitignore excludes
   --rebuild                  (index) rebuild from scratch
   --explain                  (ask, nearby) the words behind each score, with their shares
-  --topics N                 (topics) how many topics (default: chosen automatically)
+  --topics N                 (topics, map) how many topics (default: chosen automatically)
   --threshold J              (lookalikes) shingle Jaccard for near-copies (default 0.8)
+  --layout both|quick|faithful   (map) layouts in the page (default both, opening on faithful;
+                             quick skips the slower faithful layout; faithful is the same as both,
+                             since the page places queries with the quick projection)
+  --max-terms N              (map) words the page's search box knows: the N most frequent index
+                             terms (default 20000; each costs about k bytes of file size)
   -q, --quiet                no notes or summary on stderr
 `;
 
@@ -53,6 +60,8 @@ const EXTRA_OPTIONS = {
   explain: { type: 'boolean' },
   topics: { type: 'string' },
   threshold: { type: 'string' },
+  layout: { type: 'string' },
+  'max-terms': { type: 'string' },
   format: { type: 'string' },
   out: { type: 'string' },
   u: { type: 'string' },
@@ -77,7 +86,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? 0 : 2;
   }
-  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes', 'export', 'import-factors'];
+  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes', 'export', 'import-factors', 'map'];
   if (!needsFolder.includes(command)) {
     io.err(`undertone: unknown command "${command}"\n\n${USAGE}`);
     return 2;
@@ -102,6 +111,8 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
         return await exportCommand(folder, flags, io);
       case 'import-factors':
         return await importFactorsCommand(folder, flags, io);
+      case 'map':
+        return await mapCommand(folder, flags, io);
       default:
         return await evalCommand(folder, flags, io);
     }
