@@ -10,7 +10,7 @@
  */
 import { existsSync } from 'node:fs';
 import { runChild, type ChildResult } from './benchChild.js';
-import { CORPORA, flag, loadLine, measureInChild, type CorpusName } from './benchShared.js';
+import { CORPORA, flag, honoursGitignore, loadLine, measureInChild, type CorpusName } from './benchShared.js';
 import { runCompare } from './compare/compare.js';
 
 const f1 = (x: number): string => (Number.isFinite(x) ? x.toFixed(1) : '–');
@@ -32,7 +32,7 @@ async function main(): Promise<void> {
   const argv = process.argv.slice(2);
   if (argv[0] === '--child') {
     const k = argv[2] === 'auto' ? 'auto' : Number(argv[2]);
-    process.stdout.write(`${JSON.stringify(await runChild(argv[1], k, argv[3] === '-' ? undefined : argv[3]))}\n`);
+    process.stdout.write(`${JSON.stringify(await runChild(argv[1], k, argv[3] === '-' ? undefined : argv[3], argv[4] !== 'no-gitignore'))}\n`);
     return;
   }
   if (argv.includes('--compare')) return runCompare();
@@ -48,7 +48,7 @@ async function main(): Promise<void> {
     }
     printResult(name, measureInChild(folder, k));
   }
-  if (only === 'tree') printResult('tree', measureInChild(CORPORA.tree, k));
+  if (only === 'tree') printResult('tree', measureInChild(CORPORA.tree, k, undefined, honoursGitignore('tree')));
   console.log(`\n${loadLine()} (after the runs)`);
 }
 

@@ -68,10 +68,10 @@ function timeIt(f: () => void): number {
  * @param exportDir when given, afterwards (outside the measured part) writes the indexed files'
  * absolute paths to <exportDir>/paths.txt and the Matrix Market export (writeExport) there.
  */
-export async function runChild(folder: string, k: number | 'auto', exportDir?: string): Promise<ChildResult> {
+export async function runChild(folder: string, k: number | 'auto', exportDir?: string, honourGitignore = true): Promise<ChildResult> {
   const dir = await mkdtemp(join(tmpdir(), 'undertone-bench-'));
   const indexFile = join(dir, 'index.undertone');
-  const report = await indexFolder(folder, { indexFile, force: true, settings: { k } });
+  const report = await indexFolder(folder, { indexFile, force: true, settings: { k }, scan: { honourGitignore } });
   const s = report.seconds;
   const stages = { scan: s.scan, tokenize: s.read, matrix: s.matrix, svd: s.svd, save: s.save };
   // Reopen from disk (a fresh load, as a new editor session or CLI call does).

@@ -13,8 +13,16 @@ export const CORPORA = {
 export type CorpusName = keyof typeof CORPORA;
 
 /** Runs one measured build in a child process (this same bundle with --child). */
-export function measureInChild(folder: string, k: number | 'auto', exportDir?: string): ChildResult {
-  const args = ['--expose-gc', __filename, '--child', folder, String(k), exportDir ?? '-'];
+/**
+ * The full kernel tree is read without .gitignore rules: Debian's linux-source tarball carries a
+ * top-level .gitignore that ignores everything but debian/ (its packaging repository's view).
+ */
+export function honoursGitignore(name: CorpusName): boolean {
+  return name !== 'tree';
+}
+
+export function measureInChild(folder: string, k: number | 'auto', exportDir?: string, honourGitignore = true): ChildResult {
+  const args = ['--expose-gc', __filename, '--child', folder, String(k), exportDir ?? '-', honourGitignore ? 'gitignore' : 'no-gitignore'];
   const r = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
   if (r.status !== 0) throw new Error(`measuring ${folder} failed:\n${r.stderr}`);
   return JSON.parse(r.stdout.trim().split('\n').pop()!) as ChildResult;

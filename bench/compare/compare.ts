@@ -14,7 +14,7 @@ import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { ChildResult } from '../benchChild.js';
-import { CORPORA, flag, loadLine, measureInChild, REPO, type CorpusName } from '../benchShared.js';
+import { CORPORA, flag, honoursGitignore, loadLine, measureInChild, REPO, type CorpusName } from '../benchShared.js';
 
 const PYTHON = '/usr/bin/python3';
 const REFERENCE = join(REPO, 'bench', 'compare', 'reference.py');
@@ -99,7 +99,7 @@ export async function runCompare(): Promise<void> {
     }
     const dir = mkdtempSync(join(tmpdir(), `undertone-compare-${name}-`));
     try {
-      const ours = measureInChild(folder, k, dir);
+      const ours = measureInChild(folder, k, dir, honoursGitignore(name));
       const ref = python(['pipeline', '--files', join(dir, 'paths.txt'), '--k', String(ours.k)]) as ReferenceResult;
       let arpack: ArpackResult | undefined;
       if (arpackWanted) arpack = python(['arpack', '--mtx', join(dir, 'matrix.mtx'), '--k', String(ours.k), '--ours', join(dir, 'singular-values.txt')]) as ArpackResult;

@@ -68,14 +68,27 @@ export interface FolderIndexReport {
 
 export async function indexFolder(root: string, options: FolderIndexOptions): Promise<FolderIndexReport> {
   let pool: WorkerPool | undefined;
+  const pools = {
+    get: (): WorkerPool | undefined => (pool ??= options.parallel === false ? undefined : WorkerPool.start(options.parallel ?? {})),
+    // Ending the tokenizing threads hands their word caches back before the SVD needs memory.
+    release: async (): Promise<void> => {
+      const p = pool;
+      pool = undefined;
+      await p?.close();
+    },
+  };
   try {
-    return await indexWithPool(root, options, () => (pool ??= options.parallel === false ? undefined : WorkerPool.start(options.parallel ?? {})));
+    return await indexWithPool(root, options, pools);
   } finally {
-    await pool?.close();
+    await pools.release();
   }
 }
 
-async function indexWithPool(root: string, options: FolderIndexOptions, getPool: () => WorkerPool | undefined): Promise<FolderIndexReport> {
+async function indexWithPool(
+  root: string,
+  options: FolderIndexOptions,
+  pools: { get: () => WorkerPool | undefined; release: () => Promise<void> },
+): Promise<FolderIndexReport> {
   const t0 = performance.now();
   const seconds: Record<IndexStage, number> = { load: 0, scan: 0, read: 0, matrix: 0, svd: 0, save: 0 };
   let mark = performance.now();
@@ -134,7 +147,7 @@ async function indexWithPool(root: string, options: FolderIndexOptions, getPool:
   };
   const total = scan.files.length;
   // Threads pay off only for more than a handful of files.
-  const pool = toRead.length >= PARALLEL_MIN_FILES ? getPool() : undefined;
+  const pool = toRead.length >= PARALLEL_MIN_FILES ? pools.get() : undefined;
   if (pool) {
     await countFilesInParallel(
       pool,
@@ -166,7 +179,8 @@ async function indexWithPool(root: string, options: FolderIndexOptions, getPool:
   if (unchanged) {
     return report(previous!, 'unchanged', common, seconds, t0);
   }
-  const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool() : undefined;
+  await pools.release();
+  const buildPool = builder.size >= PARALLEL_MIN_FILES ? pools.get() : undefined;
   const index = builder.build({
     signal: options.signal,
     executor: buildPool?.executor(),
@@ -176,6 +190,8 @@ async function indexWithPool(root: string, options: FolderIndexOptions, getPool:
     },
   });
   lap('svd');
+  // The threads (and the shared memory of the SVD) are not needed to save.
+  await pools.release();
   check();
   progress({ stage: 'save', done: 0, total: 1 });
   await saveIndex(options.indexFile, index);

@@ -53,8 +53,8 @@ export function transposeScaled(w: Float64Array, l: number, k: number, scale?: F
 }
 
 /**
- * Big-side vectors (B × k) from Z W Σ⁻¹ (dense) or Aᵀ(QW)Σ⁻¹ (one sparse pass), whichever is
- * cheaper; equal in exact arithmetic.
+ * Big-side vectors (B × k) from Z W Σ⁻¹ (dense) or Aᵀ(QW)Σ⁻¹ (one sparse pass, written over Z),
+ * whichever is cheaper; equal in exact arithmetic.
  */
 export function bigSideVectors(
   ex: MatrixExecutor,
@@ -67,14 +67,16 @@ export function bigSideVectors(
 ): Float64Array {
   const b = at.rows;
   const inv = Float64Array.from(pairs.s, (v) => (v > 0 ? 1 / v : 0));
-  const out = ex.float64(b * k);
   const nnz = at.indptr[at.rows];
   if (b * l <= 2 * nnz) {
+    const out = ex.float64(b * k);
     ex.timesSmall(z, b, l, transposeScaled(pairs.w, l, k, inv), k, false, out);
-  } else {
-    ex.spmm(at, smallVectors, k, out);
-    for (let i = 0; i < b; i++) for (let c = 0; c < k; c++) out[i * k + c] *= inv[c];
+    return out;
   }
+  // Z is not needed any more: its memory takes the result.
+  const out = z.subarray(0, b * k);
+  ex.spmm(at, smallVectors, k, out);
+  for (let i = 0; i < b; i++) for (let c = 0; c < k; c++) out[i * k + c] *= inv[c];
   return out;
 }
 

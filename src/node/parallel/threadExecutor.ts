@@ -43,7 +43,7 @@ export class ThreadExecutor extends WasmExecutor {
     const pa = this.ptr(a);
     const pb = symmetric ? pa : this.ptr(b);
     const blocks = Math.max(1, Math.ceil(rows / REDUCTION_BLOCK_ROWS));
-    const partials = this.arena.float64(blocks * l * l);
+    const partials = this.scratch(blocks * l * l);
     this.run({ op: 'cross', args: [pa, pb, l, rows, partials.byteOffset, symmetric ? 1 : 0], blockRows: REDUCTION_BLOCK_ROWS });
     const g = new Float64Array(l * l);
     for (let t = 0; t < blocks; t++) addInto(g, partials.subarray(t * l * l, (t + 1) * l * l));

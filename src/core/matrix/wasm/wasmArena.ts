@@ -9,6 +9,7 @@ import { kernelModuleBytes, MAX_PAGES } from './simdKernels.js';
 
 const PAGE = 65536;
 const ALIGN = 16;
+const GROW_SLACK_PAGES = 64;
 
 export interface KernelExports {
   spmm(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
@@ -77,12 +78,8 @@ export class WasmArena {
     const end = p + Math.ceil(Math.max(bytes, 1) / ALIGN) * ALIGN;
     const have = this.memory.buffer.byteLength;
     if (end > have) {
-      const pages = Math.ceil((end - have) / PAGE);
-      try {
-        this.memory.grow(Math.max(pages, Math.ceil(have / PAGE / 4)));
-      } catch {
-        this.memory.grow(pages);
-      }
+      // Grow by what is needed plus a little (reserved address space makes growing cheap).
+      this.memory.grow(Math.ceil((end - have) / PAGE) + GROW_SLACK_PAGES);
       this.buffers.add(this.memory.buffer);
     }
     this.top = end;

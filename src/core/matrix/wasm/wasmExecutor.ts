@@ -31,14 +31,24 @@ export class WasmExecutor implements MatrixExecutor {
     return this.arena.int32(n);
   }
 
+  private scratchArray: Float64Array | undefined;
+
   /** Frees the arena memory allocated while fn ran (results must be copied out before). */
   scoped<T>(fn: () => T): T {
     const mark = this.arena.mark();
+    const scratch = this.scratchArray;
     try {
       return fn();
     } finally {
       this.arena.release(mark);
+      this.scratchArray = scratch;
     }
+  }
+
+  /** A reusable arena array of at least n numbers (valid until the next call or scope end). */
+  protected scratch(n: number): Float64Array {
+    if (!this.scratchArray || this.scratchArray.length < n) this.scratchArray = this.arena.float64(n);
+    return this.scratchArray.subarray(0, n);
   }
 
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
@@ -52,7 +62,7 @@ export class WasmExecutor implements MatrixExecutor {
     const pa = this.ptr(a);
     const pb = symmetric ? pa : this.ptr(b);
     const g = new Float64Array(l * l);
-    const part = this.arena.float64(l * l);
+    const part = this.scratch(l * l);
     for (let t = 0; t < reductionBlocks(rows); t++) {
       this.kernels.cross(pa, pb, l, t * REDUCTION_BLOCK_ROWS, Math.min(rows, (t + 1) * REDUCTION_BLOCK_ROWS), part.byteOffset, symmetric ? 1 : 0);
       addInto(g, part);

@@ -1,0 +1,89 @@
+import { describe, expect, it } from 'vitest';
+import { crossRows, spmmRows, timesSmallRows } from '../../../src/core/matrix/kernels.js';
+import { createRandom } from '../../../src/core/random.js';
+
+// Reference: brute-force dense arithmetic (plain triple loops), independent of the kernels' tiling.
+const rnd = createRandom(11);
+const randomArray = (n: number): Float64Array => Float64Array.from({ length: n }, () => rnd.normal());
+
+function randomCsr(rows: number, cols: number, density: number) {
+  const indptr = [0];
+  const indices: number[] = [];
+  const values: number[] = [];
+  const dense = new Float64Array(rows * cols);
+  for (let i = 0; i < rows; i++) {
+    for (let j = 0; j < cols; j++) {
+      if (rnd.next() < density) {
+        const v = rnd.normal();
+        indices.push(j);
+        values.push(v);
+        dense[i * cols + j] = v;
+      }
+    }
+    indptr.push(indices.length);
+  }
+  return { indptr: Int32Array.from(indptr), indices: Int32Array.from(indices), values: Float64Array.from(values), dense };
+}
+
+const close = (a: ArrayLike<number>, b: ArrayLike<number>, tol = 1e-12): void => {
+  expect(a.length).toBe(b.length);
+  for (let i = 0; i < a.length; i++) expect(Math.abs(a[i] - b[i])).toBeLessThanOrEqual(tol * (1 + Math.abs(b[i])));
+};
+
+describe('row-range kernels', () => {
+  for (const [rows, cols, l] of [[23, 17, 5], [40, 31, 8], [9, 50, 1]] as const) {
+    it(`spmmRows computes M·X for ${rows}×${cols} by ${l} columns, in any row split, grouped or sequential`, () => {
+      const m = randomCsr(rows, cols, 0.3);
+      const x = randomArray(cols * l);
+      const want = new Float64Array(rows * l);
+      for (let i = 0; i < rows; i++) for (let j = 0; j < cols; j++) for (let c = 0; c < l; c++) want[i * l + c] += m.dense[i * cols + j] * x[j * l + c];
+      for (const grouped of [true, false]) {
+        const whole = new Float64Array(rows * l);
+        spmmRows(m.indptr, m.indices, m.values, x, l, whole, 0, rows, grouped);
+        close(whole, want);
+        const split = new Float64Array(rows * l).fill(NaN);
+        spmmRows(m.indptr, m.indices, m.values, x, l, split, 0, 7, grouped);
+        spmmRows(m.indptr, m.indices, m.values, x, l, split, 7, rows, grouped);
+        expect(Array.from(split)).toEqual(Array.from(whole));
+      }
+    });
+  }
+
+  for (const l of [4, 7, 9]) {
+    it(`crossRows gives AᵀB and the upper triangle of AᵀA (l = ${l})`, () => {
+      const rows = 13;
+      const a = randomArray(rows * l);
+      const b = randomArray(rows * l);
+      const want = (x: Float64Array, y: Float64Array): Float64Array => {
+        const g = new Float64Array(l * l);
+        for (let p = 0; p < l; p++) for (let q = 0; q < l; q++) for (let i = 2; i < 11; i++) g[p * l + q] += x[i * l + p] * y[i * l + q];
+        return g;
+      };
+      const g = new Float64Array(l * l);
+      crossRows(a, b, l, 2, 11, g, false);
+      close(g, want(a, b));
+      const h = new Float64Array(l * l);
+      crossRows(a, a, l, 2, 11, h, true);
+      const ref = want(a, a);
+      for (let p = 0; p < l; p++) for (let q = p; q < l; q++) expect(Math.abs(h[p * l + q] - ref[p * l + q])).toBeLessThan(1e-12);
+    });
+  }
+
+  it('timesSmallRows multiplies by a small right factor, full or upper triangular', () => {
+    const rows = 11, l = 7;
+    const y = randomArray(rows * l);
+    for (const c of [7, 3]) {
+      for (const upper of c === l ? [false, true] : [false]) {
+        const w = randomArray(l * c);
+        if (upper) for (let a = 0; a < l; a++) for (let b = 0; b < a; b++) w[a * c + b] = 0;
+        const wt = new Float64Array(c * l);
+        for (let a = 0; a < l; a++) for (let b = 0; b < c; b++) wt[b * l + a] = w[a * c + b];
+        const want = new Float64Array(rows * c);
+        for (let i = 0; i < rows; i++) for (let a = 0; a < l; a++) for (let b = 0; b < c; b++) want[i * c + b] += y[i * l + a] * w[a * c + b];
+        const out = new Float64Array(rows * c);
+        timesSmallRows(y, l, wt, c, upper, out, 0, rows);
+        close(out, want);
+      }
+    }
+  });
+});

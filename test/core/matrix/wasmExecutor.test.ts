@@ -1,0 +1,51 @@
+import { describe, expect, it } from 'vitest';
+import { serialExecutor } from '../../../src/core/matrix/executor.js';
+import { createWasmExecutor } from '../../../src/core/matrix/wasm/wasmExecutor.js';
+import { createRandom } from '../../../src/core/random.js';
+
+// Reference: the plain typed-array executor (its kernels are checked against brute force in
+// kernels.test.ts). The SIMD kernels promise the very same IEEE operations, so the same bits.
+const wasm = createWasmExecutor();
+const rnd = createRandom(5);
+const same = (a: ArrayLike<number>, b: ArrayLike<number>): boolean => a.length === b.length && Array.from(a).every((v, i) => Object.is(v, b[i]));
+
+describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this runtime lacks WebAssembly SIMD or shared memory)'}`, () => {
+  for (const [rows, cols, l] of [[37, 29, 7], [100, 80, 22], [64, 50, 13], [5, 3, 1]] as const) {
+    it(`gives the serial executor's bits for ${rows}×${cols}, l = ${l}`, () => {
+      const ex = wasm!;
+      const indptr = [0], indices: number[] = [], values: number[] = [];
+      for (let i = 0; i < rows; i++) {
+        for (let j = 0; j < cols; j++) if (rnd.next() < 0.25) (indices.push(j), values.push(rnd.normal()));
+        indptr.push(indices.length);
+      }
+      const m = { rows, cols, indptr: Int32Array.from(indptr), indices: Int32Array.from(indices), values: Float64Array.from(values) };
+      const x = Float64Array.from({ length: cols * l }, () => rnd.normal());
+      for (const sequential of [false, true]) {
+        const y1 = new Float64Array(rows * l);
+        const y2 = ex.float64(rows * l);
+        serialExecutor.spmm(m, x, l, y1, sequential);
+        ex.spmm(m, x, l, y2, sequential);
+        expect(same(y1, y2)).toBe(true);
+      }
+      const a = Float64Array.from({ length: rows * l }, () => rnd.normal());
+      const b = Float64Array.from({ length: rows * l }, () => rnd.normal());
+      expect(same(serialExecutor.cross(a, b, rows, l), ex.cross(a, b, rows, l))).toBe(true);
+      expect(same(serialExecutor.cross(a, a, rows, l), ex.cross(a, a, rows, l))).toBe(true);
+      for (const [c, upper] of [[l, false], [l, true], [3, false], [5, false]] as const) {
+        const wt = Float64Array.from({ length: c * l }, (_, t) => (upper && Math.floor(t / l) < t % l ? 0 : rnd.normal()));
+        const o1 = new Float64Array(rows * c);
+        const o2 = new Float64Array(rows * c);
+        serialExecutor.timesSmall(a, rows, l, wt, c, upper, o1);
+        ex.timesSmall(a, rows, l, wt, c, upper, o2);
+        expect(same(o1, o2)).toBe(true);
+      }
+    });
+  }
+
+  it('frees scoped arena memory for reuse', () => {
+    const ex = wasm!;
+    const first = ex.scoped(() => ex.float64(1000).byteOffset);
+    const second = ex.scoped(() => ex.float64(1000).byteOffset);
+    expect(second).toBe(first);
+  });
+});
