@@ -7,7 +7,7 @@ import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } fr
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { Locator } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { OUTPUT_DIR, startEditor, type RunningEditor } from '../../scripts/e2e/editor.js';
 import { waitFor } from '../../scripts/e2e/process.js';
 import type { ListRow } from '../../scripts/e2e/workbench.js';
@@ -77,6 +77,27 @@ describe('Undertone in a real editor', () => {
     return row.isVisible();
   };
 
+  /**
+   * Quick open (Ctrl+P) by path, clicking the row with the file's name and folder, then checking
+   * that its tab is the active one. The list re-sorts while file results arrive, so a click can
+   * land on a neighbouring row; then the person simply tries again.
+   */
+  const openFile = async (relPath: string): Promise<void> => {
+    const dir = path.posix.dirname(relPath);
+    const name = base(relPath).replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+    const tab = editor!.page.locator('.tabs-container .tab.active').filter({ hasText: new RegExp(`^\\s*${name}(\\s|$)`) });
+    await waitFor(async () => {
+      await editor!.page.keyboard.press('Control+P');
+      await editor!.quickInput.type(relPath);
+      const row = editor!.quickInput.row(base(relPath), dir === '.' ? undefined : dir);
+      await row.waitFor({ state: 'visible', timeout: 30_000 });
+      await row.click();
+      const opened = await tab.waitFor({ state: 'visible', timeout: 5_000 }).then(() => true, () => false);
+      if (!opened && (await editor!.quickInput.widget.isVisible())) await editor!.page.keyboard.press('Escape');
+      return opened;
+    }, 60_000, `${relPath} to open`);
+  };
+
   const showUndertone = async (): Promise<void> => {
     await editor!.runCommand('Undertone: Focus on Nearby View');
   };
@@ -96,6 +117,10 @@ describe('Undertone in a real editor', () => {
       settings: { 'files.autoSave': 'off', 'explorer.confirmDelete': true },
       name: 'extension',
     });
+  });
+
+  afterEach(async (ctx) => {
+    if (ctx.task.result?.state === 'fail') await editor?.screenshot(`extension-failed-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`).catch(() => undefined);
   });
 
   afterAll(async () => {
@@ -144,7 +169,7 @@ describe('Undertone in a real editor', () => {
 
   it('lists the expected neighbours of the file in the editor in the Nearby view', async () => {
     const n = expectations.neighbours[0];
-    await editor!.openFile(n.file);
+    await openFile(n.file);
     await showUndertone();
     const rows = await waitForRows('Nearby', (r) => n.expectAmongTop5.every((f) => labels(r).slice(0, 5).includes(base(f))), `neighbours of ${n.file}`);
     expect(rows.length).toBeGreaterThanOrEqual(5);
@@ -157,7 +182,7 @@ describe('Undertone in a real editor', () => {
     let rows = await search(s.query);
     for (const f of s.expectNotTop3Before) expect(labels(rows).slice(0, 3)).not.toContain(base(f));
     await editor!.quickInput.close();
-    await editor!.openFile(s.file);
+    await openFile(s.file);
     const text = editor!.page.locator('.editor-instance .monaco-editor .view-lines').first();
     await text.click();
     await editor!.page.keyboard.press('Control+End');
@@ -174,7 +199,7 @@ describe('Undertone in a real editor', () => {
   });
 
   it('searches by meaning for the text selected in the editor, from its context menu', async () => {
-    await editor!.openFile(expectations.neighbours[0].file);
+    await openFile(expectations.neighbours[0].file);
     const text = editor!.page.locator('.editor-instance .monaco-editor .view-lines').first();
     await text.click();
     await editor!.page.keyboard.press('Control+Home');
@@ -209,14 +234,14 @@ describe('Undertone in a real editor', () => {
     const n = expectations.neighbours[0];
     const victim = n.expectAmongTop5[0];
     const query = 'how the fare for a booking is calculated';
-    await editor!.openFile(n.file);
+    await openFile(n.file);
     await showUndertone();
     await waitForRows('Nearby', (r) => labels(r).includes(base(victim)), `${victim} among the neighbours before deleting it`);
     await search(query);
     expect(await listed(victim)).toBe(true);
     await editor!.quickInput.close();
     // Delete it from the Explorer, as a person would.
-    await editor!.openFile(victim);
+    await openFile(victim);
     await editor!.runCommand('File: Reveal Active File in Explorer View');
     const row = editor!.page.locator('.explorer-folders-view .monaco-list-row.selected').filter({ hasText: base(victim) }).first();
     await row.waitFor({ state: 'visible', timeout: 30_000 });
@@ -227,7 +252,7 @@ describe('Undertone in a real editor', () => {
     await editor!.screenshot('extension-6-delete-dialog');
     await dialog.locator('.monaco-button').filter({ hasText: /Delete|Move to Trash/ }).first().click();
     await waitFor(() => !existsSync(path.join(workspace, victim)), 30_000, `${victim} to be deleted`);
-    await editor!.openFile(n.file);
+    await openFile(n.file);
     await showUndertone();
     await waitForRows('Nearby', (r) => r.length > 0 && !labels(r).includes(base(victim)), `${victim} to leave the Nearby view`);
     await waitForRows('Search Results', (r) => r.length > 0 && !labels(r).includes(base(victim)), `${victim} to leave the Search Results view`);
@@ -247,3 +272,33 @@ function findFiles(dir: string, name: string): string[] {
   }
   return out;
 }
+
+describe('Undertone in an untrusted folder (Restricted Mode)', () => {
+  let root: string;
+  let editor: RunningEditor | undefined;
+
+  beforeAll(async () => {
+    root = mkdtempSync(path.join(tmpdir(), 'undertone-ext-restricted-'));
+    const workspace = path.join(root, 'ferry-cooperative');
+    cpSync(DEMO, workspace, { recursive: true });
+    editor = await startEditor({
+      workspaceFolder: workspace,
+      extensionsDir: path.join(root, 'extensions'),
+      userDataDir: path.join(root, 'user-data'),
+      vsixPath: VSIX,
+      settings: { 'security.workspace.trust.enabled': true },
+      name: 'extension-restricted',
+    });
+  });
+
+  afterAll(async () => {
+    await editor?.stop();
+    if (root) rmSync(root, { recursive: true, force: true });
+  });
+
+  it('still indexes: the manifest declares that reading files for a local index is safe there', async () => {
+    await editor!.page.locator('.statusbar-item').filter({ hasText: /Restricted Mode/ }).first().waitFor({ state: 'visible', timeout: 60_000 });
+    await editor!.page.locator('.statusbar-item').filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).first().waitFor({ state: 'visible', timeout: 120_000 });
+    await editor!.screenshot('extension-8-restricted-mode');
+  });
+});
