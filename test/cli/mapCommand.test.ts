@@ -6,9 +6,10 @@
  * finding it on the page's search, with the number of abstracts written as the expected count.
  */
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { build } from 'esbuild';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.js';
 import type { Io } from '../../src/cli/output.js';
@@ -164,6 +165,31 @@ describe.skipIf(!hasDemo)(`map of the demo ${hasDemo ? '' : '(skipped: demo/work
     const s = JSON.parse(r.out) as { bytes: number; files: number; layouts: string[]; searchTerms: number };
     expect(s).toMatchObject({ bytes: statSync(out).size, files: data.files.paths.length, layouts: ['quick'], searchTerms: 50 });
     expect(s.bytes).toBeLessThan(Buffer.byteLength(html));
+  });
+});
+
+describe.skipIf(!hasDemo)('the bundled command line', () => {
+  it('finds the page beside its dist folder, as an installed package lays it out', async () => {
+    // An installed layout in a temporary folder: dist/cli.js bundled as scripts/build.mjs does, media/map beside it.
+    const pkg = join(dir, 'installed');
+    mkdirSync(join(pkg, 'media', 'map'), { recursive: true });
+    for (const f of ['map.js', 'map.css']) copyFileSync(join(REPO_ROOT, 'media', 'map', f), join(pkg, 'media', 'map', f));
+    await build({
+      entryPoints: [join(REPO_ROOT, 'src/cli/bin.ts')],
+      outfile: join(pkg, 'dist', 'cli.js'),
+      bundle: true,
+      platform: 'node',
+      target: 'node20',
+      format: 'cjs',
+      logLevel: 'error',
+    });
+    const out = join(dir, 'installed-map.html');
+    const env = { ...process.env, UNDERTONE_MAP_PAGE_DIR: '' };
+    const stdout = execFileSync(process.execPath, [join(pkg, 'dist', 'cli.js'), 'map', demoRoot, '--out', out, '--cache-dir', join(dir, 'cache'), '--quiet'], { env, encoding: 'utf8' });
+    expect(stdout).toMatch(/^wrote .*installed-map\.html: [\d.]+ KiB, \d+ files, /);
+    const html = readFileSync(out, 'utf8');
+    expect(html).toContain(readFileSync(join(pkg, 'media', 'map', 'map.css'), 'utf8').trim().slice(0, 200));
+    expect(pageDataProblems(readMapData(html))).toEqual([]);
   });
 });
 
