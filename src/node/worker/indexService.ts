@@ -12,10 +12,13 @@ import { modelSettingsKey, resolveSettings } from '../../core/index/settings.js'
 import { loadIndex, saveIndex } from '../persist.js';
 import { readIndexableText } from '../scan.js';
 import { bestMatchingLine } from './bestLine.js';
+import { nearbyWhy, searchWhy } from './explainHits.js';
 import { FileAdmission } from './fileAdmission.js';
+import { InsightService } from './insightService.js';
 import type { FileChange, IndexSummary, RefreshReport, UpdateReport, WorkerConfig } from './protocol.js';
 import { RootMap } from './rootMap.js';
 import type { HandlerContext, Handlers } from './server.js';
+import { formsFromTexts } from './wordForms.js';
 import { buildWorkspaceIndex, scanWorkspace, type WorkspaceScan } from './workspaceIndexer.js';
 
 /** A request needs an index (or a configuration) that does not exist yet. */
@@ -38,6 +41,11 @@ export class IndexService {
   private _build: Promise<unknown> = Promise.resolve();
   private _duringBuild: FileChange[] | undefined;
   private readonly _options: IndexServiceOptions;
+  private readonly _insights = new InsightService({
+    requireIndex: () => this.requireIndex(),
+    roots: () => this._roots,
+    maxFileBytes: () => this.config().maxFileBytes,
+  });
 
   constructor(options: Partial<IndexServiceOptions> = {}) {
     this._options = { ...DEFAULT_INDEX_SERVICE_OPTIONS, ...options };
@@ -58,6 +66,7 @@ export class IndexService {
       nearby: async ({ fsPath, top }) => this.nearby(fsPath, top),
       save: async () => ({ saved: await this.save() }),
       deleteIndex: async () => this.deleteIndex(),
+      ...this._insights.handlers(),
     };
   }
 
@@ -114,20 +123,27 @@ export class IndexService {
   async search(query: string, top: number) {
     const index = this.requireIndex();
     const hits = index.search(query, { top });
+    const why = searchWhy(index, query, hits.map((h) => h.path), formsFromTexts([query], index.settings.tokenize.stem));
     return Promise.all(
-      hits.map(async (h) => {
+      hits.map(async (h, i) => {
         const ref = this._roots.refOf(h.path);
         const got = await readIndexableText(ref.fsPath, this.config().maxFileBytes);
         const line = got.kind === 'text' ? bestMatchingLine(got.text, index, query) : { line: 0, text: '' };
-        return { ...ref, score: h.score, line: line.line, lineText: line.text };
+        return { ...ref, score: h.score, why: why[i], line: line.line, lineText: line.text };
       }),
     );
   }
 
-  nearby(fsPath: string, top: number) {
+  /** The nearest files, each with why it is near (readable words learned from the subject file). */
+  async nearby(fsPath: string, top: number) {
     const key = this._roots.keyOf(fsPath);
     if (!this._index || key === undefined || !this._index.has(key)) return null;
-    return this._index.nearby(key, { top }).map((h) => ({ ...this._roots.refOf(h.path), score: h.score }));
+    const got = await readIndexableText(fsPath, this.config().maxFileBytes).catch(() => null);
+    const index = this._index; // read again: an edit may have landed during the read
+    if (!index || !index.has(key)) return null;
+    const hits = index.nearby(key, { top });
+    const why = nearbyWhy(index, key, hits.map((h) => h.path), formsFromTexts(got?.kind === 'text' ? [got.text] : [], index.settings.tokenize.stem));
+    return hits.map((h, i) => ({ ...this._roots.refOf(h.path), score: h.score, why: why[i] }));
   }
 
   async save(): Promise<boolean> {

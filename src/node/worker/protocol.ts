@@ -7,6 +7,7 @@
  */
 import type { Staleness } from '../../core/index/lsiIndex.js';
 import type { IndexSettings } from '../../core/index/settings.js';
+import { INSIGHT_REQUEST_TYPES, type InsightRequestMap, type Why } from './insightProtocol.js';
 
 /** One workspace folder. Names are unique and become the path prefix when there are several. */
 export interface WorkspaceRoot {
@@ -42,6 +43,8 @@ export interface FileRef {
 
 export interface ScoredFile extends FileRef {
   readonly score: number;
+  /** The terms contributing most to the score (insightProtocol.ts), when they could be worked out. */
+  readonly why?: Why;
 }
 
 export interface SearchMatch extends ScoredFile {
@@ -100,8 +103,8 @@ export interface UpdateReport {
   readonly ms: number;
 }
 
-/** Each request type with its parameters and its result. */
-export interface RequestMap {
+/** Each request type with its parameters and its result (the insight requests: insightProtocol.ts). */
+export interface RequestMap extends InsightRequestMap {
   /** Sets what to index; `modelChanged` says the current index was built with other model settings. */
   configure: { params: { config: WorkerConfig }; result: { modelChanged: boolean } };
   /** Loads the saved index, if it exists, is intact and matches the settings. */
@@ -152,7 +155,7 @@ export type WorkerMessage =
   | { readonly kind: 'error'; readonly id: number; readonly error: WireError }
   | { readonly kind: 'progress'; readonly id: number; readonly progress: Progress };
 
-export const REQUEST_TYPES: readonly RequestType[] = ['configure', 'load', 'refresh', 'build', 'update', 'search', 'nearby', 'save', 'deleteIndex'];
+export const REQUEST_TYPES: readonly RequestType[] = ['configure', 'load', 'refresh', 'build', 'update', 'search', 'nearby', 'save', 'deleteIndex', ...INSIGHT_REQUEST_TYPES];
 
 const isObject = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null;
 const isId = (x: unknown): x is number => Number.isSafeInteger(x) && (x as number) >= 0;

@@ -9,6 +9,7 @@ describe('protocol message checks', () => {
     // The list and the type map must agree: a request type missing from REQUEST_TYPES would be dropped by the worker.
     const declared: Record<keyof RequestMap, true> = {
       configure: true, load: true, refresh: true, build: true, update: true, search: true, nearby: true, save: true, deleteIndex: true,
+      lookalikes: true, topics: true, mapData: true, mapQuery: true,
     };
     expect([...REQUEST_TYPES].sort()).toEqual(Object.keys(declared).sort());
     for (const type of REQUEST_TYPES) expect(isHostMessage({ kind: 'request', id: 1, type, params: {} })).toBe(true);

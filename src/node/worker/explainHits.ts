@@ -1,0 +1,43 @@
+/**
+ * The "why" of search and nearby results, computed in the worker beside the results: the terms
+ * that contribute most to each score (core/explain/explain.ts, exact shares of the score), under
+ * readable words. Kept cheap: one explainer per query, the top WHY_TERMS terms per result, the
+ * rest summed. An explanation that fails leaves its result without one rather than failing it.
+ */
+import { explainPair, QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
+import type { LsiIndex } from '../../core/index/lsiIndex.js';
+import type { Why } from './insightProtocol.js';
+import type { WordFor } from './wordForms.js';
+
+/** Terms shown per result (a tooltip's worth; the brief's "top 5"). */
+export const WHY_TERMS = 5;
+
+export function toWhy(e: Explanation, wordFor: WordFor, count = WHY_TERMS): Why {
+  const { top, rest, restTerms } = topShares(e, count);
+  return { score: e.score, terms: top.map((t) => ({ word: wordFor(t.term), share: t.share, inBoth: t.inBoth })), rest, restTerms };
+}
+
+/** Why each file matches a query (blended score: concept cosine and BM25, as search ranks). */
+export function searchWhy(index: LsiIndex, query: string, paths: readonly string[], wordFor: WordFor): (Why | undefined)[] {
+  if (paths.length === 0) return [];
+  let explainer: QueryExplainer;
+  try {
+    explainer = new QueryExplainer(index, query);
+  } catch {
+    return paths.map(() => undefined);
+  }
+  return paths.map((p) => attempt(() => toWhy(explainer.explain(p), wordFor)));
+}
+
+/** Why each file is near the subject file (cosine of their concept vectors). */
+export function nearbyWhy(index: LsiIndex, subject: string, paths: readonly string[], wordFor: WordFor): (Why | undefined)[] {
+  return paths.map((p) => attempt(() => toWhy(explainPair(index, subject, p), wordFor)));
+}
+
+function attempt<T>(f: () => T): T | undefined {
+  try {
+    return f();
+  } catch {
+    return undefined;
+  }
+}

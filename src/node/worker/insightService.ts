@@ -1,0 +1,119 @@
+/**
+ * The worker's insight requests (insightProtocol.ts): look-alikes, topics and the concept map of
+ * the index in use. Each result is cached until the index changes (a build, a fold-in, a removal)
+ * or the folders do, so opening a view again or the map a second time costs nothing; the map's
+ * layouts are computed once per index state. Concurrent requests for the same thing share one run.
+ */
+import type { LsiIndex } from '../../core/index/lsiIndex.js';
+import type { InsightRequestType, LookalikesResult, MapDataResult } from './insightProtocol.js';
+import { computeLookalikes } from './lookalikeTask.js';
+import { computeMap, MapOutdatedError, placeMapQuery, type MapModel } from './mapTask.js';
+import type { RootMap } from './rootMap.js';
+import type { Handlers } from './server.js';
+import { computeTopics, type TopicsTaskResult } from './topicsTask.js';
+
+/** What the insight service needs from the index service. */
+export interface InsightSource {
+  /** The index in use (throws NoIndexError when there is none). */
+  requireIndex(): LsiIndex;
+  roots(): RootMap;
+  maxFileBytes(): number;
+}
+
+/** One remembered run, by key; a run that fails is forgotten so the next request tries again. */
+class Memo<T> {
+  private _entry: { readonly key: string; readonly run: Promise<T> } | undefined;
+
+  holds(key: string): boolean {
+    return this._entry?.key === key;
+  }
+
+  get(key: string, start: () => Promise<T>): Promise<T> {
+    if (this._entry?.key === key) return this._entry.run;
+    const entry = { key, run: start() };
+    this._entry = entry;
+    entry.run.catch(() => {
+      if (this._entry === entry) this._entry = undefined;
+    });
+    return entry.run;
+  }
+}
+
+const indexIds = new WeakMap<LsiIndex, number>();
+let nextIndexId = 1;
+
+/**
+ * Names an index state: which index object, and counters that move with every fold-in and
+ * removal (slots, live files, folded tokens, removed built files), plus the folders.
+ */
+export function indexStateKey(index: LsiIndex, roots: RootMap): string {
+  let id = indexIds.get(index);
+  if (id === undefined) indexIds.set(index, (id = nextIndexId++));
+  const c = index.counters();
+  const folders = roots.roots.map((r) => `${r.name}=${r.path}`).join('|');
+  return `${id}:${index.slots().length}:${index.size}:${c.foldedTokens}:${c.removedSinceBuild}:${folders}`;
+}
+
+export class InsightService {
+  private readonly _topics = new Memo<TopicsTaskResult>();
+  private readonly _lookalikes = new Memo<LookalikesResult>();
+  private readonly _map = new Memo<MapModel>();
+  private _latestMap: MapModel | undefined;
+  private _nextToken = 1;
+
+  constructor(private readonly _source: InsightSource) {}
+
+  handlers(): Pick<Handlers, InsightRequestType> {
+    return {
+      lookalikes: async (p) => this.lookalikes(p.threshold, p.paraphraseThreshold),
+      topics: async () => (await this.topicsRun()).result,
+      mapData: async () => this.mapData(),
+      mapQuery: async ({ token, text }) => this.mapQuery(token, text),
+    };
+  }
+
+  lookalikes(threshold: number, paraphraseThreshold: number): Promise<LookalikesResult> {
+    const index = this._source.requireIndex();
+    const roots = this._source.roots();
+    const key = `${indexStateKey(index, roots)}:${threshold}:${paraphraseThreshold}`;
+    return this._lookalikes.get(key, () => computeLookalikes(index, roots, { threshold, paraphraseThreshold, maxFileBytes: this._source.maxFileBytes() }));
+  }
+
+  topicsRun(): Promise<TopicsTaskResult> {
+    const index = this._source.requireIndex();
+    const roots = this._source.roots();
+    return this._topics.get(indexStateKey(index, roots), () => computeTopics(index, roots, this._source.maxFileBytes()));
+  }
+
+  async mapData(): Promise<MapDataResult> {
+    const t0 = performance.now();
+    const index = this._source.requireIndex();
+    const roots = this._source.roots();
+    const key = indexStateKey(index, roots);
+    const cached = this._map.holds(key);
+    const model = await this._map.get(key, async () => {
+      // Topics of this very state: an edit folded in while they were computed would leave them naming other files.
+      let topics: TopicsTaskResult | undefined;
+      for (let attempt = 0; attempt < 3 && (topics === undefined || !this._topics.holds(indexStateKey(index, roots))); attempt++) {
+        topics = await this.topicsRun().catch(() => undefined);
+        if (topics === undefined) break;
+      }
+      if (topics && !this._topics.holds(indexStateKey(index, roots))) topics = undefined;
+      const title = roots.roots.length === 1 ? `Concept map · ${roots.roots[0].name}` : 'Concept map';
+      return computeMap(index, roots, topics?.report ?? null, {
+        token: this._nextToken++,
+        maxFileBytes: this._source.maxFileBytes(),
+        topicWords: topics?.wordFor,
+        title,
+      });
+    });
+    this._latestMap = model;
+    return { token: model.token, data: model.data, fsPaths: model.fsPaths, ms: performance.now() - t0, cached };
+  }
+
+  mapQuery(token: number, text: string) {
+    const model = this._latestMap;
+    if (!model || model.token !== token) throw new MapOutdatedError('The index changed since this map was drawn; it is being redrawn.');
+    return placeMapQuery(model, text);
+  }
+}
