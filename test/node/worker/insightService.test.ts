@@ -1,0 +1,177 @@
+/**
+ * The worker's insight requests on the demo workspace (invented data; its answer key is
+ * demo/expectations.json, written with the workspace): look-alikes against the planted copies,
+ * topics as a partition of the files with readable words, the concept map's data and query
+ * placement against a brute-force cosine ranking, and the "why" of search and nearby results
+ * against the scores the ranking itself reports (the shares must add up to them).
+ */
+import { cpSync, existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { appendFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { pageDataProblems } from '../../../src/core/map/mapData.js';
+import { stemWord } from '../../../src/core/text/tokenize.js';
+import { IndexService } from '../../../src/node/worker/indexService.js';
+import type { FileRef, WorkerConfig } from '../../../src/node/worker/protocol.js';
+import type { HandlerContext } from '../../../src/node/worker/server.js';
+import { REPO_ROOT } from '../../helpers/shared.js';
+
+interface Expectations {
+  topics: { name: string; files: string[] }[];
+  exactCopies: string[][];
+  nearCopies: string[][];
+}
+const expectations = JSON.parse(readFileSync(join(REPO_ROOT, 'demo', 'expectations.json'), 'utf8')) as Expectations;
+
+const tmp = mkdtempSync(join(tmpdir(), 'undertone-insights-'));
+const folder = join(tmp, 'ferry');
+const service = new IndexService({ saveDelayMs: 60_000 });
+const h = service.handlers();
+const ctx: HandlerContext = { signal: new AbortController().signal, isCancelled: () => false, progress: () => undefined };
+const config: WorkerConfig = {
+  roots: [{ name: 'ferry', path: folder, exclude: [] }],
+  indexFile: join(tmp, 'storage', 'index.undertone'),
+  settings: {},
+  include: [],
+  exclude: [],
+  maxFileBytes: 1 << 20,
+  honourGitignore: true,
+};
+
+beforeAll(async () => {
+  cpSync(join(REPO_ROOT, 'demo', 'workspace'), folder, { recursive: true });
+  await h.configure({ config }, ctx);
+  await h.build({}, ctx);
+});
+
+afterAll(() => rmSync(tmp, { recursive: true, force: true }));
+
+const keys = (refs: readonly FileRef[]) => refs.map((r) => r.key);
+
+describe('look-alikes request', () => {
+  it('finds every planted exact copy as an exact pair, and every planted near-copy group (demo answer key)', async () => {
+    const r = await h.lookalikes({ threshold: 0.8, paraphraseThreshold: 0.95 }, ctx);
+    const pairsOf = (kind: string) => r.groups.filter((g) => g.kind === kind).flatMap((g) => g.pairs.map((p) => [p.a.key, p.b.key].sort().join(' + ')));
+    for (const [a, b] of expectations.exactCopies) expect(pairsOf('exact')).toContain([a, b].sort().join(' + '));
+    const nearFiles = r.groups.filter((g) => g.kind === 'near').map((g) => new Set(keys(g.files)));
+    for (const planted of expectations.nearCopies) expect(nearFiles.some((g) => planted.every((f) => g.has(f)))).toBe(true);
+    for (const g of r.groups) {
+      for (const p of g.pairs) {
+        expect(existsSync(p.a.fsPath) && existsSync(p.b.fsPath)).toBe(true);
+        if (g.kind === 'near') expect(p.jaccard).toBeGreaterThanOrEqual(0.8);
+        if (g.kind === 'paraphrase') expect(p.similarity).toBeGreaterThanOrEqual(0.95);
+      }
+    }
+    expect(r.unreadable).toBe(0);
+  });
+
+  it('answers from its cache until the index changes, then computes again', async () => {
+    const params = { threshold: 0.8, paraphraseThreshold: 0.95 };
+    const first = await h.lookalikes(params, ctx);
+    expect(await h.lookalikes(params, ctx)).toBe(first);
+    expect(await h.lookalikes({ ...params, threshold: 0.9 }, ctx)).not.toBe(first);
+    const [a, b] = expectations.exactCopies[0];
+    await appendFile(join(folder, b), '\n// a local change that makes the copy differ\n');
+    await h.update({ changes: [{ kind: 'changed', fsPath: join(folder, b) }] }, ctx);
+    const after = await h.lookalikes(params, ctx);
+    expect(after).not.toBe(first);
+    const exact = after.groups.filter((g) => g.kind === 'exact').flatMap((g) => g.pairs.map((p) => [p.a.key, p.b.key].sort().join(' + ')));
+    expect(exact).not.toContain([a, b].sort().join(' + '));
+  });
+});
+
+describe('topics request', () => {
+  it('puts every indexed file in exactly one topic or among the unplaced', async () => {
+    const r = await h.topics({}, ctx);
+    expect(r.topics.length).toBeGreaterThan(1);
+    const listed = [...r.topics.flatMap((t) => keys(t.files)), ...keys(r.unplaced)];
+    expect(r.topics.every((t) => t.moreFiles === 0)).toBe(true);
+    expect(new Set(listed).size).toBe(listed.length);
+    expect([...listed].sort()).toEqual(service.index!.paths().sort());
+    for (const t of r.topics) expect(t.files.length).toBe(t.size);
+  });
+
+  it('names terms by words that occur in the files and stem back to the term', async () => {
+    const r = await h.topics({}, ctx);
+    const terms = r.topics.flatMap((t) => t.terms);
+    // A readable word is a surface form of the term: Porter-stemming it gives the term back.
+    const readable = terms.filter((x) => x.word !== x.term && stemWord(x.word) === x.term).length;
+    const unchanged = terms.filter((x) => x.word === x.term).length;
+    expect(readable + unchanged).toBe(terms.length);
+    expect(readable).toBeGreaterThan(0);
+  });
+
+  it('gathers most files of each planted topic in one topic (demo answer key)', async () => {
+    const r = await h.topics({}, ctx);
+    const topicOf = new Map(r.topics.flatMap((t) => t.files.map((f) => [f.key, t.id] as const)));
+    let gathered = 0;
+    for (const planted of expectations.topics) {
+      const counts = new Map<number, number>();
+      for (const f of planted.files) if (topicOf.has(f)) counts.set(topicOf.get(f)!, (counts.get(topicOf.get(f)!) ?? 0) + 1);
+      if (Math.max(0, ...counts.values()) >= planted.files.length / 2) gathered++;
+    }
+    expect(gathered).toBeGreaterThanOrEqual(expectations.topics.length - 1);
+  });
+});
+
+describe('concept map requests', () => {
+  it('sends page data for every indexed file, with absolute paths, and reuses its layouts', async () => {
+    const first = await h.mapData({}, ctx);
+    expect(pageDataProblems(first.data)).toEqual([]);
+    expect([...first.data.files.paths].sort()).toEqual(service.index!.paths().sort());
+    first.data.files.paths.forEach((p, i) => expect(first.fsPaths[i]).toBe(join(folder, ...p.split('/'))));
+    expect(first.data.layouts.faithful).not.toBeNull();
+    const again = await h.mapData({}, ctx);
+    expect(again.cached).toBe(true);
+    expect(again.token).toBe(first.token);
+  });
+
+  it('rings the files a brute-force cosine ranking puts nearest to the query', async () => {
+    const { token, data } = await h.mapData({}, ctx);
+    const text = 'refund for a cancelled sailing';
+    const r = await h.mapQuery({ token, text }, ctx);
+    const index = service.index!;
+    const q = index.projectText(text);
+    const norm = Math.hypot(...q);
+    const ranked = data.files.paths
+      .map((p) => ({ p, s: index.vectorOf(p).reduce((acc, v, c) => acc + v * q[c], 0) / norm }))
+      .sort((x, y) => y.s - x.s);
+    expect(r.neighbours.map((i) => data.files.paths[i])).toEqual(ranked.slice(0, r.neighbours.length).map((x) => x.p));
+    r.similarities.forEach((s, i) => expect(s).toBeCloseTo(ranked[i].s, 5));
+    for (const p of [r.positions.quick, r.positions.faithful]) expect(Number.isFinite(p!.x) && Number.isFinite(p!.y)).toBe(true);
+  });
+
+  it('refuses words the index has never seen, and a map that was replaced', async () => {
+    const { token } = await h.mapData({}, ctx);
+    await expect(h.mapQuery({ token, text: 'zzqx vvqk' }, ctx)).rejects.toMatchObject({ name: 'NoKnownTermsError' });
+    await expect(h.mapQuery({ token: token + 1000, text: 'refund' }, ctx)).rejects.toMatchObject({ name: 'MapOutdatedError' });
+  });
+});
+
+describe('why search and nearby results match', () => {
+  it('gives each search result terms whose shares add up to its score', async () => {
+    const query = 'what happens to tickets when a crossing is called off';
+    const hits = await h.search({ query, top: 5 }, ctx);
+    expect(hits.length).toBe(5);
+    for (const hit of hits) {
+      const why = hit.why!;
+      expect(why.terms.length).toBeGreaterThan(0);
+      expect(why.terms.length).toBeLessThanOrEqual(5);
+      const sum = why.terms.reduce((s, t) => s + t.share, 0) + why.rest;
+      expect(sum).toBeCloseTo(hit.score, 4);
+      // Search explanations are over the query's own terms, shown as the query wrote them.
+      for (const t of why.terms) expect(query).toContain(t.word);
+    }
+  });
+
+  it('gives each nearby file terms whose shares add up to its cosine', async () => {
+    const file = join(folder, 'notes', 'ticketing', 'refund-policy.md');
+    const hits = await h.nearby({ fsPath: file, top: 5 }, ctx);
+    expect(hits!.length).toBe(5);
+    for (const hit of hits!) {
+      const sum = hit.why!.terms.reduce((s, t) => s + t.share, 0) + hit.why!.rest;
+      expect(sum).toBeCloseTo(hit.score, 4);
+    }
+  });
+});
