@@ -6,7 +6,8 @@
  */
 import { decideUpdate, DEFAULT_UPDATE_POLICY, describeReasons, rebuildDelay, type UpdatePolicy } from '../core/index/updatePolicy.js';
 import { isCancelled, type WorkerClient } from '../node/worker/client.js';
-import { overallPercent, type FileChange, type IndexSummary, type ScoredFile, type SearchMatch } from '../node/worker/protocol.js';
+import type { InsightRequestType } from '../node/worker/insightProtocol.js';
+import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch } from '../node/worker/protocol.js';
 import { uniqueRootNames } from '../node/worker/rootMap.js';
 import { summaryOf, type IndexState } from './indexState.js';
 import { readSettings, toWorkerConfig, type ExtensionSettings, type HostFolder, type SettingGetter } from './settings.js';
@@ -199,6 +200,12 @@ export class IndexController {
   async nearby(fsPath: string, top: number): Promise<readonly ScoredFile[] | null> {
     if (!this._worker || summaryOf(this._state) === null) return null;
     return this._worker.client.request('nearby', { fsPath, top });
+  }
+
+  /** Look-alikes, topics or the concept map, worked out in the worker; null while there is no index. */
+  async insight<T extends InsightRequestType>(type: T, params: ParamsOf<T>): Promise<ResultOf<T> | null> {
+    if (!this._worker || summaryOf(this._state) === null) return null;
+    return this._worker.client.request(type, params);
   }
 
   /** Cancels any build, forgets the index and removes the saved file. */

@@ -1,5 +1,6 @@
 /** A result entry (viewModels.ts) as a tree item that opens its file, at its line when it has one. */
 import * as vscode from 'vscode';
+import { whyMarkdown } from './explainTooltip.js';
 import type { ResultEntry } from './viewModels.js';
 
 export function resultTreeItem(entry: ResultEntry): vscode.TreeItem {
@@ -9,7 +10,7 @@ export function resultTreeItem(entry: ResultEntry): vscode.TreeItem {
   item.resourceUri = uri;
   item.iconPath = vscode.ThemeIcon.File;
   item.description = entry.description;
-  item.tooltip = entry.tooltip;
+  item.tooltip = entry.why ? new vscode.MarkdownString(whyMarkdown(entry.tooltip, entry.why, entry.line === undefined ? 'nearby' : 'search')) : entry.tooltip;
   item.contextValue = 'undertone.file';
   item.command = { command: 'vscode.open', title: 'Open File', arguments: [uri, openOptions(entry)] };
   return item;

@@ -3,6 +3,7 @@
  * plain data (the tree providers turn these into TreeItems). Paths are shown relative to their
  * workspace folder; with several folders the folder's name is shown too.
  */
+import type { Why } from '../node/worker/insightProtocol.js';
 import type { ScoredFile, SearchMatch } from '../node/worker/protocol.js';
 
 export interface ResultEntry {
@@ -14,6 +15,8 @@ export interface ResultEntry {
   readonly tooltip: string;
   /** Zero-based line to reveal when opened (search results). */
   readonly line?: number;
+  /** The terms contributing most to the score, for the tooltip (explainTooltip.ts). */
+  readonly why?: Why;
 }
 
 /** A similarity score as shown: two decimals. */
@@ -46,6 +49,7 @@ export function nearbyEntries(hits: readonly ScoredFile[], multiRoot: boolean): 
       label: fileName(h.relPath),
       description: where ? `${formatScore(h.score)} · ${where}` : formatScore(h.score),
       tooltip: `${shownPath(h, multiRoot)}\nSimilarity in meaning: ${formatScore(h.score)} (cosine, 1 = same concepts)`,
+      why: h.why,
     };
   });
 }
@@ -58,6 +62,7 @@ export function searchEntries(matches: readonly SearchMatch[], multiRoot: boolea
     description: m.lineText ? `${formatScore(m.score)} · ${m.line + 1}: ${m.lineText}` : formatScore(m.score),
     tooltip: `${shownPath(m, multiRoot)}, line ${m.line + 1}\nScore: ${formatScore(m.score)}${m.lineText ? `\n${m.lineText}` : ''}`,
     line: m.line,
+    why: m.why,
   }));
 }
 
