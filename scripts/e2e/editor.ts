@@ -32,6 +32,11 @@ export interface EditorInstall {
 
 export interface StartEditorOptions {
   workspaceFolder: string;
+  /**
+   * Port to serve on (default: a free one). The web workbench keys workspace storage by the
+   * folder's URI, which includes host and port: reuse a port to reopen a folder with its storage.
+   */
+  port?: number;
   extensionsDir: string;
   userDataDir: string;
   /** A packaged extension to install before start. */
@@ -114,7 +119,7 @@ export async function startEditor(options: StartEditorOptions): Promise<RunningE
   const settings = { ...DEFAULT_SETTINGS, ...options.settings };
   writeFileSync(path.join(userDataDir, 'User', 'settings.json'), JSON.stringify(settings, null, 2));
 
-  const port = await freePort();
+  const port = options.port ?? await freePort();
   const url = `http://127.0.0.1:${port}`;
   const logPath = path.join(OUTPUT_DIR, `${name}.code-server.log`);
   const browserLogPath = path.join(OUTPUT_DIR, `${name}.browser.log`);

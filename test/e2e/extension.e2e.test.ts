@@ -3,7 +3,7 @@
 // the Explorer. Expectations come from demo/expectations.json (written with the demo workspace:
 // queries whose best answer uses other words, and files' expected neighbours).
 // Run by `npm run test:e2e` (which installs the editor, builds and packages first).
-import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { appendFileSync, cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { Locator } from 'playwright-core';
@@ -126,9 +126,12 @@ describe('Undertone in a real editor', () => {
   afterAll(async () => {
     await editor?.stop();
     // The extension's log (from the editor logs copied by stop()) holds the measured save → Nearby times.
-    const logs = path.join(OUTPUT_DIR, 'extension.editor-logs');
-    const found = existsSync(logs) ? findFiles(logs, 'Undertone.log') : [];
-    for (const f of found) for (const line of readFileSync(f, 'utf8').split('\n')) if (/Loaded|Built|Saved .*Nearby/.test(line)) console.log(line.trim());
+    const found = ['extension', 'extension-reopen'].flatMap((name) => {
+      const logs = path.join(OUTPUT_DIR, `${name}.editor-logs`);
+      return existsSync(logs) ? findFiles(logs, 'Undertone.log') : [];
+    });
+    const lines = new Set(found.flatMap((f) => readFileSync(f, 'utf8').split('\n')).filter((l) => /Loaded|Built|Since|Saved .*Nearby/.test(l)));
+    for (const line of [...lines].sort()) console.log(line.trim());
     console.log(`e2e: ${((Date.now() - t0) / 1000).toFixed(1)} s in all`);
     if (root) rmSync(root, { recursive: true, force: true });
   });
@@ -260,6 +263,27 @@ describe('Undertone in a real editor', () => {
     await search(query);
     expect(await listed(victim)).toBe(false);
     await editor!.quickInput.close();
+  });
+
+  it('loads the saved index when the folder is opened again, and folds in a file changed meanwhile', async () => {
+    const port = editor!.port;
+    await editor!.stop();
+    const changed = expectations.neighbours[1].file;
+    appendFileSync(path.join(workspace, changed), '\nA note added while the editor was closed: claims are answered within five working days.\n');
+    editor = await startEditor({
+      workspaceFolder: workspace,
+      extensionsDir: path.join(root, 'extensions'),
+      userDataDir: path.join(root, 'user-data'),
+      settings: { 'files.autoSave': 'off' },
+      name: 'extension-reopen',
+      port, // the same address, so the editor finds this folder's workspace storage again
+    });
+    await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
+    await editor!.runCommand('Undertone: Show Log');
+    const panel = editor!.page.locator('.part.panel');
+    await editor!.waitForText(/Loaded\sthe\ssaved\sindex/, { within: panel });
+    await editor!.waitForText(/Since\sthe\sindex\swas\ssaved:\s\d+\sadded,\s[1-9]\d*\schanged/, { within: panel });
+    await editor!.screenshot('extension-9-reopened');
   });
 });
 
