@@ -8,6 +8,7 @@ import { registerCommands } from './commands.js';
 import { FileEvents } from './fileEvents.js';
 import { IndexController, type ControllerHost } from './indexController.js';
 import { summaryOf, type IndexState } from './indexState.js';
+import { registerInsights } from './insights.js';
 import { NearbyProvider } from './nearbyView.js';
 import { SearchResultsProvider } from './searchView.js';
 import { IndexStatusBar } from './statusBar.js';
@@ -92,6 +93,7 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
       reconfigureSoon();
     }),
     ...registerCommands({ controller, nearby, search, log, indexFile }),
+    ...registerInsights({ controller, extensionUri: context.extensionUri, workspaceState: context.workspaceState, log: (line) => log.info(line) }),
     { dispose: () => { clearTimeout(reconfigureTimer); void controller.dispose(); } },
   );
   status.render(controller.state);

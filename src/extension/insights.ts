@@ -1,0 +1,66 @@
+/**
+ * Wiring of the insight features (wiring only): the Look-alikes and Topics views, the concept map
+ * panel, their commands (ids `undertone.<verb>`, identical in the manifest) and the look-alike
+ * settings. Returns every registration for context.subscriptions.
+ */
+import * as vscode from 'vscode';
+import { DismissedPairs } from './dismissedPairs.js';
+import type { IndexController } from './indexController.js';
+import { summaryOf } from './indexState.js';
+import { readLookalikeSettings, type LookalikeNode, type PairNode } from './lookalikeModel.js';
+import { LookalikesProvider } from './lookalikeView.js';
+import { ConceptMapPanel } from './mapPanel.js';
+import { TopicsProvider } from './topicsView.js';
+import type { TopicsTreeNode } from './topicsModel.js';
+
+export interface InsightDeps {
+  readonly controller: IndexController;
+  readonly extensionUri: vscode.Uri;
+  readonly workspaceState: vscode.Memento;
+  readonly log: (line: string) => void;
+}
+
+export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
+  const { controller, log } = deps;
+  const settings = () => readLookalikeSettings((key) => vscode.workspace.getConfiguration('undertone').get(key));
+  const lookalikes = new LookalikesProvider(controller, new DismissedPairs(deps.workspaceState), settings, log);
+  const topics = new TopicsProvider(controller, log);
+  const lookalikeView = vscode.window.createTreeView<LookalikeNode>(LookalikesProvider.viewType, { treeDataProvider: lookalikes, showCollapseAll: true });
+  const topicsView = vscode.window.createTreeView<TopicsTreeNode>(TopicsProvider.viewType, { treeDataProvider: topics, showCollapseAll: true });
+  lookalikes.attach(lookalikeView);
+  topics.attach(topicsView);
+  let map: ConceptMapPanel | undefined;
+  const reg = vscode.commands.registerCommand;
+  const isPair = (x: unknown): x is PairNode => typeof x === 'object' && x !== null && (x as PairNode).type === 'pair';
+
+  return [
+    lookalikes, topics, lookalikeView, topicsView,
+    { dispose: () => map?.dispose() },
+    vscode.workspace.onDidChangeConfiguration((e) => {
+      if (e.affectsConfiguration('undertone.lookalikeThreshold') || e.affectsConfiguration('undertone.paraphraseThreshold')) void lookalikes.refresh();
+    }),
+    reg('undertone.openMap', async () => {
+      if (summaryOf(controller.state) === null) {
+        const choice = await vscode.window.showInformationMessage('The concept map needs the Undertone index of this workspace, and there is none yet.', 'Build Index');
+        if (choice) await controller.build('user');
+        return;
+      }
+      if (map) map.reveal();
+      else map = new ConceptMapPanel(deps.extensionUri, controller, log, () => (map = undefined));
+    }),
+    reg('undertone.refreshLookalikes', () => lookalikes.refresh()),
+    reg('undertone.refreshTopics', () => topics.refresh()),
+    reg('undertone.compareLookalike', async (node?: unknown) => {
+      if (!isPair(node)) return;
+      const title = `${node.label} (${node.description})`;
+      await vscode.commands.executeCommand('vscode.diff', vscode.Uri.file(node.a.fsPath), vscode.Uri.file(node.b.fsPath), title, { preview: true });
+    }),
+    reg('undertone.dismissLookalike', async (node?: unknown) => {
+      if (isPair(node)) await lookalikes.hide(node);
+    }),
+    reg('undertone.restoreLookalikes', async () => {
+      const n = await lookalikes.restoreHidden();
+      void vscode.window.showInformationMessage(n > 0 ? `${n} ${n === 1 ? 'pair' : 'pairs'} marked "Not a look-alike" ${n === 1 ? 'is' : 'are'} shown again.` : 'No look-alike pairs were hidden.');
+    }),
+  ];
+}

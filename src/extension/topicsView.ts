@@ -1,0 +1,110 @@
+/**
+ * The "Topics" view: the workspace's topics (found in the worker, node/worker/topicsTask.ts),
+ * each with its signature words, then its files; clicking a file opens it. Computed when the view
+ * is shown and again after each rebuild (while visible; otherwise on its next showing).
+ */
+import * as vscode from 'vscode';
+import type { TopicsResult } from '../node/worker/insightProtocol.js';
+import type { IndexController } from './indexController.js';
+import { topicsSummary, topicsTree, type TopicNode, type TopicsTreeNode } from './topicsModel.js';
+
+export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, vscode.Disposable {
+  static readonly viewType = 'undertone.topics';
+
+  private _nodes: TopicNode[] = [];
+  private _view: vscode.TreeView<TopicsTreeNode> | undefined;
+  private _stale = true;
+  private _seq = 0;
+  private _pending: Promise<void> = Promise.resolve();
+  private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
+  private readonly _disposables: vscode.Disposable[] = [this._onDidChangeTreeData];
+  readonly onDidChangeTreeData = this._onDidChangeTreeData.event;
+
+  constructor(
+    private readonly _controller: IndexController,
+    private readonly _log: (line: string) => void,
+  ) {
+    this._disposables.push(
+      _controller.onDidChangeIndex((change) => {
+        if (!change.all) return;
+        this._stale = true;
+        if (this._view?.visible) void this.refresh();
+      }),
+    );
+  }
+
+  attach(view: vscode.TreeView<TopicsTreeNode>): void {
+    this._view = view;
+    this._disposables.push(view.onDidChangeVisibility((e) => e.visible && this._stale && void this.refresh()));
+    if (view.visible) void this.refresh();
+  }
+
+  refresh(): Promise<void> {
+    const seq = ++this._seq;
+    this._stale = false;
+    this._pending = (async () => {
+      this.setMessage('Finding topics…');
+      try {
+        const result: TopicsResult | null = await this._controller.insight('topics', {});
+        if (seq !== this._seq) return;
+        if (!result) this._stale = true;
+        else this._log(`Topics: ${result.topics.length} found in ${Math.round(result.ms)} ms.`);
+        this._nodes = result ? topicsTree(result, this._controller.multiRoot) : [];
+        this.setMessage(undefined);
+        if (this._view) this._view.description = result ? topicsSummary(result) : undefined;
+        this._onDidChangeTreeData.fire();
+      } catch (err) {
+        if (seq !== this._seq) return;
+        this._stale = true;
+        this._nodes = [];
+        this._onDidChangeTreeData.fire();
+        this.setMessage(err instanceof Error && err.name === 'EmptyCorpusError' ? err.message : `Topics could not be found: ${err instanceof Error ? err.message : String(err)}`);
+      }
+    })();
+    return this._pending;
+  }
+
+  settled(): Promise<void> {
+    return this._pending;
+  }
+
+  getTreeItem(node: TopicsTreeNode): vscode.TreeItem {
+    if (node.type === 'topic') {
+      const item = new vscode.TreeItem(node.label, vscode.TreeItemCollapsibleState.Collapsed);
+      item.id = node.id;
+      item.description = node.description;
+      item.tooltip = new vscode.MarkdownString(node.tooltip);
+      item.iconPath = new vscode.ThemeIcon('symbol-namespace');
+      item.contextValue = 'undertone.topic';
+      return item;
+    }
+    if (node.type === 'note') {
+      const item = new vscode.TreeItem(node.label, vscode.TreeItemCollapsibleState.None);
+      item.id = node.id;
+      return item;
+    }
+    const uri = vscode.Uri.file(node.file.fsPath);
+    const item = new vscode.TreeItem(node.label, vscode.TreeItemCollapsibleState.None);
+    item.id = node.id;
+    item.resourceUri = uri;
+    item.iconPath = vscode.ThemeIcon.File;
+    item.description = node.description;
+    item.tooltip = node.tooltip;
+    item.contextValue = 'undertone.file';
+    item.command = { command: 'vscode.open', title: 'Open File', arguments: [uri, { preview: true }] };
+    return item;
+  }
+
+  getChildren(node?: TopicsTreeNode): TopicsTreeNode[] {
+    if (!node) return this._nodes;
+    return node.type === 'topic' ? [...node.children] : [];
+  }
+
+  dispose(): void {
+    for (const d of this._disposables.splice(0)) d.dispose();
+  }
+
+  private setMessage(message: string | undefined): void {
+    if (this._view) this._view.message = message;
+  }
+}
