@@ -168,6 +168,22 @@ describe.skipIf(!hasDemo)(`map of the demo ${hasDemo ? '' : '(skipped: demo/work
   });
 });
 
+describe('map of a folder with a single file', () => {
+  it('still writes a map with one point on both layouts', async () => {
+    const folder = join(dir, 'one');
+    mkdirSync(folder);
+    writeFileSync(join(folder, 'note.md'), 'The harbour timetable moves with the tide; the harbour master posts the timetable.');
+    const out = join(dir, 'one.html');
+    const r = await run('map', folder, '--out', out);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/, 1 file, 1 topic, quick \+ faithful layouts, /);
+    const data = readMapData(readFileSync(out, 'utf8'));
+    expect(data.files.paths).toEqual(['note.md']);
+    expect(data.layouts.faithful!.x).toHaveLength(1);
+    expect(data.files.topTerms[0]).toContain('timetable'); // spelled as in the file, not as its stem
+  });
+});
+
 describe.skipIf(!hasDemo)('the bundled command line', () => {
   it('finds the page beside its dist folder, as an installed package lays it out', async () => {
     // An installed layout in a temporary folder: dist/cli.js bundled as scripts/build.mjs does, media/map beside it.

@@ -80,9 +80,14 @@ export async function mapCommand(folder: string, flags: Flags, io: Io): Promise<
   if (flags.json) io.out(JSON.stringify(summary));
   else {
     const terms = summary.searchTerms < summary.modelTerms ? `${formatCount(summary.searchTerms)} of ${formatCount(summary.modelTerms)} terms` : `all ${formatCount(summary.modelTerms)} terms`;
-    io.out(`wrote ${out}: ${formatBytes(summary.bytes)}, ${formatCount(summary.files)} files, ${summary.topics} topics, ${summary.layouts.join(' + ')} layout${summary.layouts.length > 1 ? 's' : ''}, search knows ${terms} (${seconds.toFixed(2)} s)`);
+    const layoutNames = `${summary.layouts.join(' + ')} layout${summary.layouts.length > 1 ? 's' : ''}`;
+    io.out(`wrote ${out}: ${formatBytes(summary.bytes)}, ${plural(summary.files, 'file')}, ${plural(summary.topics, 'topic')}, ${layoutNames}, search knows ${terms} (${seconds.toFixed(2)} s)`);
   }
   return 0;
+}
+
+function plural(n: number, noun: string): string {
+  return `${formatCount(n)} ${noun}${n === 1 ? '' : 's'}`;
 }
 
 function parseLayout(value: unknown): MapLayoutChoice {
