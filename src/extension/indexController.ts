@@ -9,33 +9,14 @@ import { isCancelled, type WorkerClient } from '../node/worker/client.js';
 import type { InsightRequestType } from '../node/worker/insightProtocol.js';
 import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch } from '../node/worker/protocol.js';
 import { uniqueRootNames } from '../node/worker/rootMap.js';
-import { summaryOf, type IndexState } from './indexState.js';
-import { readSettings, toWorkerConfig, type ExtensionSettings, type HostFolder, type SettingGetter } from './settings.js';
+import { noIndexReason, summaryOf, unavailableReason, type IndexState } from './indexState.js';
+import { readSettings, toWorkerConfig, type ExtensionSettings } from './settings.js';
+import type { BuildKind, ControllerHost, IndexChange } from './controllerHost.js';
 import type { StartedWorker } from './workerHost.js';
 
-export interface ControllerHost {
-  startWorker(onExit: (code: number) => void): StartedWorker;
-  /** `undertone.*` settings. */
-  readonly setting: SettingGetter;
-  /** Workspace folders on the local disk, and the names of those that are not. */
-  folders(): { readonly local: readonly HostFolder[]; readonly elsewhere: readonly string[] };
-  /** The index file in the extension's workspace storage (undefined without a workspace). */
-  readonly indexFile: string | undefined;
-  /** Runs a task with a cancellable progress notification. */
-  withProgress<T>(title: string, task: (report: (percent: number) => void, signal: AbortSignal) => Promise<T>): Promise<T>;
-  showError(message: string): void;
-  log(line: string): void;
-}
-
-/** What changed in the index: keys folded in and removed, or `all` after a build or a reload. */
-export interface IndexChange {
-  readonly folded: readonly string[];
-  readonly removed: readonly string[];
-  readonly all: boolean;
-}
+export type { BuildKind, ControllerHost, IndexChange } from './controllerHost.js';
 
 type Listener<T> = (value: T) => void;
-export type BuildKind = 'initial' | 'user' | 'background';
 
 /** Batches larger than this many changes (and larger than the policy's share) are rescanned instead (common practice). */
 const RESCAN_BATCH = 50;
@@ -95,10 +76,7 @@ export class IndexController {
       await this.refresh();
       return;
     }
-    const reason =
-      loaded.outcome === 'damaged' ? `the saved index could not be used (${loaded.reason ?? 'damaged'})`
-      : loaded.outcome === 'settings-changed' ? 'the index settings changed since the saved index was built'
-      : 'there is no index for this workspace yet';
+    const reason = noIndexReason(loaded.outcome, loaded.reason);
     this._host.log(`No usable saved index: ${reason}.`);
     if (this.settings.buildOnStartup) await this.build('initial');
     else this.setState({ kind: 'none', reason: `${reason}.` });
@@ -239,9 +217,7 @@ export class IndexController {
     const { local, elsewhere } = this._host.folders();
     const indexFile = this._host.indexFile;
     if (local.length === 0 || indexFile === undefined) {
-      const reason = elsewhere.length > 0
-        ? `the folder${elsewhere.length > 1 ? 's' : ''} ${elsewhere.join(', ')} ${elsewhere.length > 1 ? 'are' : 'is'} not on this machine's disk (a virtual or remote file system), and Undertone only indexes local files.`
-        : 'open a folder to index it.';
+      const reason = unavailableReason(elsewhere);
       this.setState({ kind: 'unavailable', reason });
       return undefined;
     }

@@ -2,7 +2,7 @@
  * The index's state as the editor shows it (status bar, welcome text, context keys), as plain
  * data with pure functions, so it can be tested without the editor.
  */
-import type { IndexSummary } from '../node/worker/protocol.js';
+import type { IndexSummary, LoadOutcome } from '../node/worker/protocol.js';
 
 export type IndexState =
   | { readonly kind: 'starting' }
@@ -28,6 +28,20 @@ export function summaryOf(state: IndexState): IndexSummary | null {
     default:
       return null;
   }
+}
+
+/** Why a workspace has no usable saved index (after a load that did not return one). */
+export function noIndexReason(outcome: LoadOutcome, detail?: string): string {
+  if (outcome === 'damaged') return `the saved index could not be used (${detail ?? 'damaged'})`;
+  if (outcome === 'settings-changed') return 'the index settings changed since the saved index was built';
+  return 'there is no index for this workspace yet';
+}
+
+/** Why nothing can be indexed: no folder open, or only folders that are not on the local disk. */
+export function unavailableReason(elsewhere: readonly string[]): string {
+  if (elsewhere.length === 0) return 'open a folder to index it.';
+  const many = elsewhere.length > 1;
+  return `the folder${many ? 's' : ''} ${elsewhere.join(', ')} ${many ? 'are' : 'is'} not on this machine's disk (a virtual or remote file system), and Undertone only indexes local files.`;
 }
 
 /** Value of the `undertone.state` context key used by the manifest's `when` clauses. */

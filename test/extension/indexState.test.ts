@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { statusActions, statusBarModel, summaryOf, type IndexState } from '../../src/extension/indexState.js';
+import { noIndexReason, statusActions, statusBarModel, summaryOf, unavailableReason, type IndexState } from '../../src/extension/indexState.js';
 
 const summary = { files: 1234, k: 96, terms: 5000, staleness: { changedFiles: 0, changedShare: 0, newTermMass: 0, residualRatio: 1 } };
 
@@ -36,5 +36,19 @@ describe('status actions', () => {
   it('keeps the previous summary while building or after a failure', () => {
     expect(summaryOf({ kind: 'building', percent: 1, background: true, previous: summary })).toBe(summary);
     expect(summaryOf({ kind: 'failed', message: 'x', previous: null })).toBeNull();
+  });
+});
+
+describe('reasons', () => {
+  it('names the folders that are not on the local disk', () => {
+    expect(unavailableReason([])).toBe('open a folder to index it.');
+    expect(unavailableReason(['notes (vscode-vfs)'])).toMatch(/^the folder notes \(vscode-vfs\) is not on this machine's disk/);
+    expect(unavailableReason(['a (x)', 'b (y)'])).toMatch(/^the folders a \(x\), b \(y\) are not/);
+  });
+
+  it('says why a saved index was not used', () => {
+    expect(noIndexReason('damaged', 'index payload fails its checksum')).toBe('the saved index could not be used (index payload fails its checksum)');
+    expect(noIndexReason('settings-changed')).toBe('the index settings changed since the saved index was built');
+    expect(noIndexReason('missing')).toBe('there is no index for this workspace yet');
   });
 });
