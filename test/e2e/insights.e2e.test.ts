@@ -1,0 +1,243 @@
+// The Look-alikes and Topics views, the "why" tooltips and the concept map of the packaged
+// extension, in a real editor (code-server) and browser (Chromium), driven through the UI as a
+// person would. Expectations come from demo/expectations.json, the answer key written with the
+// demo workspace (its planted exact copies and topics), not from the code under test.
+// Run by `npm run test:e2e` (which installs the editor, builds and packages first).
+import { cpSync, existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import type { FrameLocator, Locator } from 'playwright-core';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { startEditor, type RunningEditor } from '../../scripts/e2e/editor.js';
+import { waitFor } from '../../scripts/e2e/process.js';
+import type { ListRow } from '../../scripts/e2e/workbench.js';
+
+const REPO = path.resolve(import.meta.dirname, '../..');
+const VSIX = path.join(REPO, 'undertone.vsix');
+const DEMO = path.join(REPO, 'demo', 'workspace');
+const EXPECT = path.join(REPO, 'demo', 'expectations.json');
+
+interface Expectations {
+  topics: { name: string; keywords: string[]; files: string[] }[];
+  exactCopies: string[][];
+  neighbours: { file: string; expectAmongTop5: string[] }[];
+}
+
+const base = (p: string) => p.slice(p.lastIndexOf('/') + 1);
+const labels = (rows: ListRow[]) => rows.map((r) => r.label);
+const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+
+/** The part of a page canvas read in the browser (this project's types have no DOM). */
+interface PageCanvas {
+  readonly width: number;
+  readonly height: number;
+  getContext(kind: '2d'): { getImageData(x: number, y: number, w: number, h: number): { data: ArrayLike<number> } } | null;
+  getBoundingClientRect(): { width: number };
+}
+
+describe('Undertone insights in a real editor', () => {
+  let root: string;
+  let editor: RunningEditor | undefined;
+  let expectations: Expectations;
+  let files = 0;
+  const t0 = Date.now();
+
+  const status = (): Locator => editor!.page.locator('.statusbar-item').filter({ hasText: /Undertone/ }).first();
+
+  /** Reads a view's rows until `accept` holds (views update asynchronously). */
+  const waitForRows = async (view: string, accept: (rows: ListRow[]) => boolean, what: string, timeoutMs = 60_000): Promise<ListRow[]> => {
+    let last: ListRow[] = [];
+    try {
+      return await waitFor(async () => {
+        // A row may vanish while it is read (the view re-renders): then read again.
+        const rows = await editor!.readTreeView(view, { minRows: 0, timeoutMs: 5_000 }).catch(() => null);
+        if (rows === null) return false;
+        last = rows;
+        return accept(last) ? last : false;
+      }, timeoutMs, what);
+    } catch (err) {
+      throw new Error(`${(err as Error).message}; last rows of ${view}: ${JSON.stringify(last)}`);
+    }
+  };
+
+  /** The row of a view whose label is exactly `label`. */
+  const row = (view: string, label: string): Locator =>
+    editor!.pane(view).locator('.pane-body .monaco-list-row').filter({ has: editor!.page.locator('.label-name').getByText(label, { exact: true }) }).first();
+
+  /** Clicks an inline action (by its title) of a tree row; the actions show on hover. */
+  const inlineAction = async (rowLocator: Locator, title: string): Promise<void> => {
+    await rowLocator.hover();
+    const action = rowLocator.locator(`.actions .action-label[aria-label="${title}"]`).first();
+    await action.waitFor({ state: 'visible', timeout: 10_000 });
+    await action.click();
+  };
+
+  /** Collapses a view of the side bar (so the others get the room in screenshots). */
+  const collapse = async (view: string): Promise<void> => {
+    const header = editor!.pane(view).locator('.pane-header').first();
+    if ((await header.getAttribute('aria-expanded')) === 'true') await header.click();
+    await waitFor(async () => (await header.getAttribute('aria-expanded')) === 'false', 10_000, `${view} to collapse`);
+  };
+
+  /** Waits until an element and everything around it is fully opaque (hovers fade in). */
+  const opaque = (target: Locator) =>
+    waitFor(async () => (await target.evaluate((e) => {
+      type Styled = { parentElement: Styled | null };
+      const style = globalThis as unknown as { getComputedStyle(x: Styled): { opacity: string } };
+      let alpha = 1;
+      for (let n: Styled | null = e as unknown as Styled; n; n = n.parentElement) alpha *= Number(style.getComputedStyle(n).opacity);
+      return alpha;
+    })) === 1, 10_000, 'the hover to fade in');
+
+  /** The active editor tab whose title starts with `title`. */
+  const activeTab = (title: string | RegExp): Locator =>
+    editor!.page.locator('.tabs-container .tab.active').filter({ hasText: typeof title === 'string' ? new RegExp(`^\\s*${escape(title)}`) : title });
+
+  beforeAll(async () => {
+    if (!existsSync(VSIX)) throw new Error(`${VSIX} is missing: run "npm run package" first (npm run test:e2e does).`);
+    expectations = JSON.parse(readFileSync(EXPECT, 'utf8')) as Expectations;
+    root = mkdtempSync(path.join(tmpdir(), 'undertone-insights-e2e-'));
+    const workspace = path.join(root, 'ferry-cooperative');
+    cpSync(DEMO, workspace, { recursive: true });
+    editor = await startEditor({
+      workspaceFolder: workspace,
+      extensionsDir: path.join(root, 'extensions'),
+      userDataDir: path.join(root, 'user-data'),
+      vsixPath: VSIX,
+      settings: { 'files.autoSave': 'off', 'workbench.hover.delay': 300 },
+      name: 'insights',
+    });
+    await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
+    files = Number(/([\d,]+) files/.exec((await status().textContent()) ?? '')![1].replace(/,/g, ''));
+  });
+
+  afterEach(async (ctx) => {
+    if (ctx.task.result?.state === 'fail') await editor?.screenshot(`insights-failed-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`).catch(() => undefined);
+  });
+
+  afterAll(async () => {
+    await editor?.stop();
+    console.log(`insights e2e: ${((Date.now() - t0) / 1000).toFixed(1)} s in all`);
+    if (root) rmSync(root, { recursive: true, force: true });
+  });
+
+  it('lists each planted exact copy in the Look-alikes view', async () => {
+    await editor!.runCommand('Undertone: Focus on Look-alikes View');
+    await collapse('Nearby');
+    await collapse('Search Results');
+    // A pair is labelled by the path endings that tell its files apart, each an ending of one planted path.
+    const isPair = (r: ListRow, [a, b]: string[]) => {
+      const [x, y] = r.label.split(' ↔ ');
+      return y !== undefined && ((a.endsWith(x) && b.endsWith(y)) || (a.endsWith(y) && b.endsWith(x)));
+    };
+    const rows = await waitForRows('Look-alikes', (r) => expectations.exactCopies.every((pair) => r.some((x) => isPair(x, pair))), 'the planted exact copies');
+    expect(labels(rows)).toEqual(expect.arrayContaining(['Exact copies', 'Near-copies']));
+    for (const pair of expectations.exactCopies) {
+      const found = rows.find((r) => isPair(r, pair))!;
+      expect(found.description).toMatch(/^1\.00 · \d+ shared lines?$/);
+    }
+    await editor!.screenshot('insights-1-lookalikes');
+  });
+
+  it('opens the diff editor for a pair with its "Compare" action', async () => {
+    const rows = await editor!.readTreeView('Look-alikes');
+    const [a] = expectations.exactCopies[0];
+    const label = rows.find((r) => r.label.includes(' ↔ ') && a.endsWith(r.label.split(' ↔ ')[0]))!.label;
+    await inlineAction(row('Look-alikes', label), 'Compare');
+    const diff = editor!.page.locator('.editor-instance .monaco-diff-editor').first();
+    await diff.waitFor({ state: 'visible', timeout: 30_000 });
+    await activeTab(label).waitFor({ state: 'visible', timeout: 30_000 });
+    // Both sides show the file's text (its first line, from the file on disk).
+    const firstLine = readFileSync(path.join(DEMO, a), 'utf8').split('\n')[0].trim().slice(0, 30);
+    for (const side of ['.editor.original', '.editor.modified']) await diff.locator(`${side} .view-line`).filter({ hasText: firstLine }).first().waitFor({ state: 'visible', timeout: 30_000 });
+    await editor!.screenshot('insights-2-compare');
+  });
+
+  it('hides a pair marked "Not a look-alike", and shows it again on request', async () => {
+    const rows = await editor!.readTreeView('Look-alikes');
+    const label = rows.filter((r) => r.label.includes(' ↔ '))[0].label;
+    await inlineAction(row('Look-alikes', label), 'Not a Look-alike');
+    await waitForRows('Look-alikes', (r) => !labels(r).includes(label), `${label} to be hidden`);
+    await editor!.runCommand('Undertone: Show Hidden Look-alikes Again');
+    await waitForRows('Look-alikes', (r) => labels(r).includes(label), `${label} to be shown again`);
+  });
+
+  it('shows the topics with their words, and opens a topic’s file', async () => {
+    await editor!.runCommand('Undertone: Focus on Topics View');
+    const rows = await waitForRows('Topics', (r) => r.filter((x) => /^Topic \d+ · \d+ files?$/.test(x.label)).length >= 3, 'at least three topics');
+    const topics = rows.filter((x) => /^Topic \d+/.test(x.label));
+    // Each planted topic's keywords (answer key) should name some topic: count those whose words show.
+    const named = expectations.topics.filter((t) => topics.some((x) => t.keywords.some((k) => x.description.toLowerCase().includes(k.toLowerCase().slice(0, 5)))));
+    expect(named.length).toBeGreaterThanOrEqual(Math.ceil(expectations.topics.length / 2));
+    await editor!.screenshot('insights-3-topics');
+    await row('Topics', topics[0].label).click();
+    const expanded = await waitForRows('Topics', (r) => r.some((x) => x.level === 2), 'the first topic’s files');
+    const file = expanded.find((x) => x.level === 2)!;
+    await row('Topics', file.label).click();
+    await activeTab(file.label).waitFor({ state: 'visible', timeout: 30_000 });
+    await editor!.screenshot('insights-4-topic-file');
+  });
+
+  it('explains a Nearby result in its tooltip', async () => {
+    const n = expectations.neighbours[0];
+    await editor!.runCommand('Undertone: Focus on Nearby View');
+    await editor!.page.keyboard.press('Control+P');
+    await editor!.quickInput.type(n.file);
+    await editor!.quickInput.pick(base(n.file), { description: path.posix.dirname(n.file) });
+    await activeTab(base(n.file)).waitFor({ state: 'visible', timeout: 30_000 });
+    const rows = await waitForRows('Nearby', (r) => r.length > 0 && /^\d\.\d\d/.test(r[0].description), 'neighbours of the active file');
+    await row('Nearby', rows[0].label).hover();
+    const hover = editor!.page.locator('.monaco-hover, .workbench-hover').filter({ hasText: 'Why it is near' }).first();
+    await hover.waitFor({ state: 'visible', timeout: 30_000 });
+    expect(await hover.textContent()).toMatch(/Score/);
+    await opaque(hover);
+    await editor!.screenshot('insights-5-nearby-tooltip');
+  });
+
+  it('opens the concept map, opens the file of a clicked dot, and places a query', async () => {
+    await editor!.runCommand('Undertone: Open Concept Map');
+    const frame: FrameLocator = editor!.webview(0);
+    const mapRoot = frame.locator('#undertone-map[data-files]');
+    await mapRoot.waitFor({ state: 'attached', timeout: 120_000 });
+    expect(Number(await mapRoot.getAttribute('data-files'))).toBe(files);
+    const canvas = frame.locator('.um-map-canvas');
+    const findDot = () => canvas.evaluate((c: PageCanvas) => {
+      // The drawn dot with the most drawn pixels around it (CSS pixels inside the canvas).
+      const ctx = c.getContext('2d')!;
+      const img = ctx.getImageData(0, 0, c.width, c.height).data;
+      const bg = [img[0], img[1], img[2]];
+      const off = (x: number, y: number) => {
+        const o = 4 * (y * c.width + x);
+        return Math.abs(img[o] - bg[0]) + Math.abs(img[o + 1] - bg[1]) + Math.abs(img[o + 2] - bg[2]) > 60;
+      };
+      let best = { x: -1, y: -1, score: -1 };
+      for (let y = 4; y < c.height * 0.85; y += 2) {
+        for (let x = 4; x < c.width * 0.6; x += 2) {
+          if (!off(x, y)) continue;
+          let score = 0;
+          for (let dy = -3; dy <= 3; dy++) for (let dx = -3; dx <= 3; dx++) if (off(x + dx, y + dy)) score++;
+          if (score > best.score) best = { x, y, score };
+        }
+      }
+      const scale = c.width / c.getBoundingClientRect().width;
+      return { x: best.x / scale, y: best.y / scale };
+    });
+    // The page draws on the next animation frame after the data arrives.
+    const dot = await waitFor(async () => {
+      const d = await findDot();
+      return d.x > 0 ? d : false;
+    }, 30_000, 'a dot drawn on the map');
+    await canvas.hover({ position: dot });
+    const tip = frame.locator('.um-tooltip-path');
+    await tip.waitFor({ state: 'visible', timeout: 10_000 });
+    const hovered = (await tip.textContent()) ?? '';
+    await canvas.click({ position: dot });
+    await activeTab(base(hovered)).waitFor({ state: 'visible', timeout: 30_000 });
+    await editor!.screenshot('insights-6-map-opened-file');
+    await frame.locator('.um-search input').fill('money back when a sailing is cancelled');
+    await frame.locator('.um-search input').press('Enter');
+    await frame.locator('#undertone-map[data-query-placed="true"]').waitFor({ state: 'attached', timeout: 30_000 });
+    await editor!.screenshot('insights-7-map-query');
+    expect(await frame.locator('.um-status-text').textContent()).toMatch(/nearest: \S+/);
+  });
+});
