@@ -15,9 +15,10 @@ export function escapeMarkdown(text: string): string {
   return text.replace(/[\\`*_{}[\]()#+\-.!|<>~]/g, (c) => `\\${c}`);
 }
 
-/** A share as shown: three decimals, a minus sign for terms that pull the other way. */
+/** A share as shown: three decimals, a minus sign for terms that pull the other way (none on a rounded zero). */
 export function formatShare(share: number): string {
-  return share.toFixed(3).replace(/^-/, '−');
+  const s = share.toFixed(3);
+  return /^-0\.0+$/.test(s) ? s.slice(1) : s.replace(/^-/, '−');
 }
 
 export function whyMarkdown(plainTooltip: string, why: Why | undefined, kind: WhyKind): string {

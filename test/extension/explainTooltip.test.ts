@@ -1,0 +1,51 @@
+import { describe, expect, it } from 'vitest';
+import { escapeMarkdown, formatShare, whyMarkdown } from '../../src/extension/explainTooltip.js';
+import type { Why } from '../../src/node/worker/insightProtocol.js';
+
+const why: Why = {
+  score: 0.62,
+  terms: [
+    { word: 'refund', share: 0.31, inBoth: true },
+    { word: 'voucher', share: 0.12, inBoth: false },
+    { word: 'weather', share: -0.02, inBoth: true },
+  ],
+  rest: 0.21,
+  restTerms: 40,
+};
+
+describe('why tooltips', () => {
+  it('lists the top terms with their shares, the rest summed, and the score they add up to', () => {
+    const text = whyMarkdown('notes/refund-policy.md\nSimilarity in meaning: 0.62', why, 'nearby');
+    const rows = text.split('\n').filter((l) => l.startsWith('| ') && !l.startsWith('| Term') && !l.startsWith('| :--'));
+    expect(rows).toEqual([
+      '| refund | 0.310 |',
+      '| _voucher_ | 0.120 |',
+      '| weather | −0.020 |',
+      '| 40 other terms | 0.210 |',
+      '| **Score** | **0.620** |',
+    ]);
+    // The shown column adds up to the score (0.31 + 0.12 − 0.02 + 0.21).
+    expect(why.terms.reduce((s, t) => s + t.share, why.rest)).toBeCloseTo(why.score, 12);
+    expect(text).toContain('Why it is near');
+    expect(text).toContain('_Italic_: not in both files');
+  });
+
+  it('starts with the plain tooltip, its path in bold and escaped', () => {
+    const text = whyMarkdown('notes/[draft]_refunds.md\nScore: 0.70', why, 'search');
+    expect(text.split('\n')[0]).toBe('**notes/\\[draft\\]\\_refunds\\.md**  ');
+    expect(text).toContain('Why it matches');
+    expect(text).toContain('not in the query and the file');
+  });
+
+  it('is just the plain tooltip when there is no explanation', () => {
+    expect(whyMarkdown('a.md\nScore: 0.50', undefined, 'search')).toBe('**a\\.md**  \nScore: 0\\.50');
+    expect(whyMarkdown('a.md', { score: 0, terms: [], rest: 0, restTerms: 0 }, 'nearby')).toBe('**a\\.md**');
+  });
+
+  it('escapes every Markdown special character', () => {
+    const specials = '\\`*_{}[]()#+-.!|<>~';
+    expect(escapeMarkdown(specials)).toBe([...specials].map((c) => `\\${c}`).join(''));
+    expect(formatShare(-0.0004)).toBe('0.000');
+    expect(formatShare(-0.0006)).toBe('−0.001');
+  });
+});
