@@ -76,7 +76,7 @@ function topicNode(t: TopicWire, multiRoot: boolean): TopicNode {
   return {
     type: 'topic',
     id,
-    label: `Topic ${t.id} · ${plural(t.size, 'file', 'files')}`,
+    label: `Topic ${t.id} (${t.size})`,
     description: words.length > 0 ? words.slice(0, DESCRIPTION_WORDS).join(', ') + (words.length > DESCRIPTION_WORDS ? ', …' : '') : '(no distinctive words)',
     tooltip,
     children,
@@ -93,7 +93,7 @@ export function topicsTree(result: TopicsResult, multiRoot: boolean): TopicNode[
     nodes.push({
       type: 'topic',
       id,
-      label: `No topic · ${plural(result.unplacedCount, 'file', 'files')}`,
+      label: `No topic (${result.unplacedCount})`,
       description: 'no word the index knows',
       tooltip: 'Files without any word the concept model knows (empty, very short, or only rare words) have no place in the concept space.',
       children,

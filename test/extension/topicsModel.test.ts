@@ -17,10 +17,10 @@ const result = (topics: TopicWire[], unplaced: string[] = [], unplacedCount = un
 });
 
 describe('topics tree', () => {
-  it('shows each topic with its size in the label and its signature words in the description', () => {
+  it('shows each topic with its file count in the label and its signature words in the description', () => {
     const words = ['tide', 'window', 'berth', 'ebb', 'draught', 'slip', 'timetable', 'sailing'];
     const [node] = topicsTree(result([topic(1, words, ['src/timetable/tidalWindow.ts', 'notes/tides.md'])]), false);
-    expect(node.label).toBe('Topic 1 · 2 files');
+    expect(node.label).toBe('Topic 1 (2)');
     expect(node.description).toBe(`${words.slice(0, DESCRIPTION_WORDS).join(', ')}, …`);
     expect(node.tooltip).toContain('**tide**, window');
   });
@@ -37,7 +37,7 @@ describe('topics tree', () => {
   it('says how many files are not listed, and gathers files without a topic', () => {
     const nodes = topicsTree(result([topic(1, ['fare'], ['a.ts'], 250)], ['empty.md', 'blank.txt'], 3), false);
     expect(nodes[0].children.at(-1)).toMatchObject({ type: 'note', label: '… and 250 more files' });
-    expect(nodes[1]).toMatchObject({ label: 'No topic · 3 files' });
+    expect(nodes[1]).toMatchObject({ label: 'No topic (3)' });
     expect(nodes[1].children.map((c) => c.label)).toEqual(['empty.md', 'blank.txt', '… and 1 more file']);
   });
 
