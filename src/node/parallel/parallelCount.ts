@@ -91,11 +91,16 @@ export function countFilesInParallel(
           pending--;
           // Translate the worker's new local ids to the caller's vocabulary.
           if (msg.newTerms.length > 0) {
-            const grown = new Int32Array(known[w] + msg.newTerms.length);
-            grown.set(translate[w].subarray(0, known[w]));
-            msg.newTerms.forEach((t, i) => (grown[known[w] + i] = vocab.add(t)));
-            translate[w] = grown;
-            known[w] = grown.length;
+            const need = known[w] + msg.newTerms.length;
+            if (need > translate[w].length) {
+              // Geometric growth: copying on every batch would be quadratic in the vocabulary.
+              const grown = new Int32Array(Math.max(need, translate[w].length * 2, 1024));
+              grown.set(translate[w].subarray(0, known[w]));
+              translate[w] = grown;
+            }
+            const tr = translate[w];
+            msg.newTerms.forEach((t, i) => (tr[known[w] + i] = vocab.add(t)));
+            known[w] = need;
           }
           const tr = translate[w];
           for (const f of msg.files) {

@@ -12,13 +12,14 @@
  * The thread reports new terms in id order, so the receiver can translate local ids to its own.
  * test/node/parallel/wordCounter.test.ts checks the equality with tokenize + countTerms.
  */
-import { tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
+import { DEFAULT_TOKENIZE_OPTIONS, tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
+import { asciiWordTokens, isAsciiWord } from './asciiWord.js';
 
 // The normalisation and word pattern of src/core/text/tokenize.ts (kept in step by the test).
 const WORD = /[\p{L}\p{N}_$]+/gu;
 const MARKS = /\p{M}+/gu;
 /** Distinct words cached before the cache is cleared (bounds memory on huge trees). */
-const WORD_CACHE_LIMIT = 1_000_000;
+const WORD_CACHE_LIMIT = 2_000_000;
 
 export interface LocalCounts {
   /** Local term ids, ascending. */
@@ -36,7 +37,11 @@ export class WordCounter {
   private tally = new Int32Array(1024);
   private readonly touched: number[] = [];
 
-  constructor(private readonly options: Partial<TokenizeOptions>) {}
+  private readonly resolved: Readonly<TokenizeOptions>;
+
+  constructor(private readonly options: Partial<TokenizeOptions>) {
+    this.resolved = { ...DEFAULT_TOKENIZE_OPTIONS, ...options };
+  }
 
   /** Terms added since the last call, in id order (ids reported, reported + 1, …). */
   takeNewTerms(): string[] {
@@ -97,10 +102,10 @@ export class WordCounter {
   /** Counts the terms of text[start, end) (a word with hash h); returns how many. */
   private emit(text: string, start: number, end: number, h: number): number {
     let entry = this.cache.find(text, start, end, h);
-    if (entry < 0) entry = this.cache.insert(text.slice(start, end), h, this.wordTerms(text.slice(start, end)));
+    if (entry < 0) entry = this.cache.insert(text, start, end, h, this.wordTerms(text.slice(start, end)));
     const ids = this.cache.ids;
     const from = this.cache.start[entry];
-    const stop = entry + 1 < this.cache.size ? this.cache.start[entry + 1] : this.cache.used;
+    const stop = this.cache.start[entry + 1];
     for (let p = from; p < stop; p++) {
       const id = ids[p];
       if (this.tally[id]++ === 0) this.touched.push(id);
@@ -108,9 +113,10 @@ export class WordCounter {
     return stop - from;
   }
 
-  /** The local ids of a word's terms. */
+  /** The local ids of a word's terms (ASCII words by the char-code path of asciiWord.ts). */
   private wordTerms(word: string): number[] {
-    return tokenize(word, this.options).map((t) => this.add(t));
+    const tokens = isAsciiWord(word) ? asciiWordTokens(word, this.resolved) : tokenize(word, this.options);
+    return tokens.map((t) => this.add(t));
   }
 
   private add(term: string): number {
@@ -139,55 +145,57 @@ const FNV_OFFSET = 0x811c9dc5 | 0;
 const FNV_PRIME = 0x01000193;
 
 /**
- * Open-addressing table from a word to its term ids (pooled in one Int32Array): lookups compare
- * char codes in place. Cleared when it holds WORD_CACHE_LIMIT words.
+ * Open-addressing table from a word to its term ids: the words' UTF-16 code units live in one
+ * pooled array (no string per word, so no cached word keeps a file's text alive), their term ids
+ * in another. Lookups hash and compare code units in place. Cleared when it holds
+ * WORD_CACHE_LIMIT words.
  */
 class WordTable {
-  words: string[] = [];
-  hashes: number[] = [];
-  /** start[e] is where entry e's ids begin in ids; entry e ends where e + 1 begins (or at used). */
-  start: number[] = [];
+  size = 0;
+  /** Term ids of entry e: ids[start[e], start[e + 1]) (start[size] = used). */
   ids = new Int32Array(1 << 16);
-  used = 0;
-  private slots = new Int32Array(1 << 16).fill(-1);
+  start = new Int32Array(1 << 12);
+  private chars = new Uint16Array(1 << 18);
+  private charStart = new Int32Array(1 << 12);
+  private hashes = new Int32Array(1 << 12);
+  private slots = new Int32Array(1 << 13).fill(-1);
 
-  get size(): number {
-    return this.words.length;
+  get used(): number {
+    return this.start[this.size];
   }
 
   find(text: string, start: number, end: number, h: number): number {
     const mask = this.slots.length - 1;
     const len = end - start;
+    const chars = this.chars;
     for (let s = h & mask; ; s = (s + 1) & mask) {
       const e = this.slots[s];
       if (e < 0) return -1;
       if (this.hashes[e] !== h) continue;
-      const w = this.words[e];
-      if (w.length !== len) continue;
-      let same = true;
-      for (let i = 0; i < len; i++) {
-        if (w.charCodeAt(i) !== text.charCodeAt(start + i)) {
-          same = false;
-          break;
-        }
-      }
-      if (same) return e;
+      const c0 = this.charStart[e];
+      if (this.charStart[e + 1] - c0 !== len) continue;
+      let i = 0;
+      while (i < len && chars[c0 + i] === text.charCodeAt(start + i)) i++;
+      if (i === len) return e;
     }
   }
 
-  insert(word: string, h: number, termIds: readonly number[]): number {
-    if (this.words.length >= WORD_CACHE_LIMIT) this.clear();
-    if ((this.words.length + 1) * 2 > this.slots.length) this.rehash(this.slots.length * 2);
-    const e = this.words.length;
-    this.words.push(word);
-    this.hashes.push(h);
-    this.start.push(this.used);
-    if (this.used + termIds.length > this.ids.length) {
-      const grown = new Int32Array(Math.max(this.ids.length * 2, this.used + termIds.length));
-      grown.set(this.ids.subarray(0, this.used));
-      this.ids = grown;
-    }
-    for (const id of termIds) this.ids[this.used++] = id;
+  insert(text: string, start: number, end: number, h: number, termIds: readonly number[]): number {
+    if (this.size >= WORD_CACHE_LIMIT) this.clear();
+    if ((this.size + 1) * 2 > this.slots.length) this.rehash(this.slots.length * 2);
+    const e = this.size;
+    if (e + 2 > this.hashes.length) this.growEntries();
+    const len = end - start;
+    const c0 = this.charStart[e];
+    if (c0 + len > this.chars.length) this.chars = grow16(this.chars, c0 + len);
+    for (let i = 0; i < len; i++) this.chars[c0 + i] = text.charCodeAt(start + i);
+    this.charStart[e + 1] = c0 + len;
+    const p0 = this.start[e];
+    if (p0 + termIds.length > this.ids.length) this.ids = grow32(this.ids, p0 + termIds.length);
+    for (let i = 0; i < termIds.length; i++) this.ids[p0 + i] = termIds[i];
+    this.start[e + 1] = p0 + termIds.length;
+    this.hashes[e] = h;
+    this.size = e + 1;
     const mask = this.slots.length - 1;
     let s = h & mask;
     while (this.slots[s] >= 0) s = (s + 1) & mask;
@@ -195,10 +203,17 @@ class WordTable {
     return e;
   }
 
+  private growEntries(): void {
+    const n = this.hashes.length * 2;
+    this.hashes = grow32(this.hashes, n);
+    this.start = grow32(this.start, n);
+    this.charStart = grow32(this.charStart, n);
+  }
+
   private rehash(size: number): void {
     this.slots = new Int32Array(size).fill(-1);
     const mask = size - 1;
-    for (let e = 0; e < this.words.length; e++) {
+    for (let e = 0; e < this.size; e++) {
       let s = this.hashes[e] & mask;
       while (this.slots[s] >= 0) s = (s + 1) & mask;
       this.slots[s] = e;
@@ -206,10 +221,19 @@ class WordTable {
   }
 
   private clear(): void {
-    this.words = [];
-    this.hashes = [];
-    this.start = [];
-    this.used = 0;
-    this.slots = new Int32Array(1 << 16).fill(-1);
+    this.size = 0;
+    this.slots.fill(-1);
   }
+}
+
+function grow32(a: Int32Array<ArrayBuffer>, atLeast: number): Int32Array<ArrayBuffer> {
+  const b = new Int32Array(Math.max(atLeast, a.length * 2));
+  b.set(a);
+  return b;
+}
+
+function grow16(a: Uint16Array<ArrayBuffer>, atLeast: number): Uint16Array<ArrayBuffer> {
+  const b = new Uint16Array(Math.max(atLeast, a.length * 2));
+  b.set(a);
+  return b;
 }
