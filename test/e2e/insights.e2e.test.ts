@@ -186,9 +186,13 @@ describe('Undertone insights in a real editor', () => {
     await editor!.quickInput.pick(base(n.file), { description: path.posix.dirname(n.file) });
     await activeTab(base(n.file)).waitFor({ state: 'visible', timeout: 30_000 });
     const rows = await waitForRows('Nearby', (r) => r.length > 0 && /^\d\.\d\d/.test(r[0].description), 'neighbours of the active file');
-    await row('Nearby', rows[0].label).hover();
     const hover = editor!.page.locator('.monaco-hover, .workbench-hover').filter({ hasText: 'Why it is near' }).first();
-    await hover.waitFor({ state: 'visible', timeout: 30_000 });
+    // The view may re-render under a resting pointer, which then shows no hover: move away and back, as a person would.
+    await waitFor(async () => {
+      await editor!.page.mouse.move(700, 450);
+      await row('Nearby', rows[0].label).hover();
+      return hover.waitFor({ state: 'visible', timeout: 5_000 }).then(() => true, () => false);
+    }, 30_000, 'the tooltip of the first Nearby result');
     expect(await hover.textContent()).toMatch(/Score/);
     await opaque(hover);
     await editor!.screenshot('insights-5-nearby-tooltip');
