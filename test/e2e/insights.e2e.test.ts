@@ -27,6 +27,12 @@ const base = (p: string) => p.slice(p.lastIndexOf('/') + 1);
 const labels = (rows: ListRow[]) => rows.map((r) => r.label);
 const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 
+/** The part of a list row read in the browser (this project's types have no DOM). */
+interface PageRow {
+  getAttribute(name: string): string | null;
+  querySelector(selector: string): { textContent: string | null } | null;
+}
+
 /** The part of a page canvas read in the browser (this project's types have no DOM). */
 interface PageCanvas {
   readonly width: number;
@@ -49,15 +55,35 @@ describe('Undertone insights in a real editor', () => {
     let last: ListRow[] = [];
     try {
       return await waitFor(async () => {
-        // A row may vanish while it is read (the view re-renders): then read again.
-        const rows = await editor!.readTreeView(view, { minRows: 0, timeoutMs: 5_000 }).catch(() => null);
-        if (rows === null) return false;
-        last = rows;
+        last = await snapshot(view);
         return accept(last) ? last : false;
       }, timeoutMs, what);
     } catch (err) {
       throw new Error(`${(err as Error).message}; last rows of ${view}: ${JSON.stringify(last)}`);
     }
+  };
+
+  /**
+   * The rendered rows of a view read in one step inside the page (the view re-renders as results
+   * arrive, and a row read piece by piece could vanish half-way). Expands the pane first.
+   */
+  const snapshot = async (view: string): Promise<ListRow[]> => {
+    const pane = editor!.pane(view);
+    await pane.waitFor({ state: 'visible', timeout: 30_000 });
+    const header = pane.locator('.pane-header').first();
+    if ((await header.getAttribute('aria-expanded')) === 'false') await header.click();
+    return pane.locator('.pane-body .monaco-list-row').evaluateAll((rows: PageRow[]) =>
+      rows.map((r) => {
+        const level = r.getAttribute('aria-level');
+        const expanded = r.getAttribute('aria-expanded');
+        return {
+          label: (r.querySelector('.monaco-icon-label .label-name')?.textContent ?? '').trim(),
+          description: (r.querySelector('.monaco-icon-label .label-description')?.textContent ?? '').trim(),
+          level: level ? Number(level) : undefined,
+          expanded: expanded === null ? undefined : expanded === 'true',
+        };
+      }),
+    );
   };
 
   /** The row of a view whose label is exactly `label`. */
@@ -140,7 +166,7 @@ describe('Undertone insights in a real editor', () => {
   });
 
   it('opens the diff editor for a pair with its "Compare" action', async () => {
-    const rows = await editor!.readTreeView('Look-alikes');
+    const rows = await snapshot('Look-alikes');
     const [a] = expectations.exactCopies[0];
     const label = rows.find((r) => r.label.includes(' ↔ ') && a.endsWith(r.label.split(' ↔ ')[0]))!.label;
     await inlineAction(row('Look-alikes', label), 'Compare');
@@ -154,7 +180,7 @@ describe('Undertone insights in a real editor', () => {
   });
 
   it('hides a pair marked "Not a look-alike", and shows it again on request', async () => {
-    const rows = await editor!.readTreeView('Look-alikes');
+    const rows = await snapshot('Look-alikes');
     const label = rows.filter((r) => r.label.includes(' ↔ '))[0].label;
     await inlineAction(row('Look-alikes', label), 'Not a Look-alike');
     await waitForRows('Look-alikes', (r) => !labels(r).includes(label), `${label} to be hidden`);
@@ -185,12 +211,15 @@ describe('Undertone insights in a real editor', () => {
     await editor!.quickInput.type(n.file);
     await editor!.quickInput.pick(base(n.file), { description: path.posix.dirname(n.file) });
     await activeTab(base(n.file)).waitFor({ state: 'visible', timeout: 30_000 });
-    const rows = await waitForRows('Nearby', (r) => r.length > 0 && /^\d\.\d\d/.test(r[0].description), 'neighbours of the active file');
+    // The view's title names the file whose neighbours it lists: wait for the file just opened.
+    await editor!.pane('Nearby').locator('.pane-header').filter({ hasText: base(n.file) }).waitFor({ state: 'visible', timeout: 30_000 });
+    await waitForRows('Nearby', (r) => r.length > 0 && /^\d\.\d\d/.test(r[0].description), 'neighbours of the active file');
     const hover = editor!.page.locator('.monaco-hover, .workbench-hover').filter({ hasText: 'Why it is near' }).first();
     // The view may re-render under a resting pointer, which then shows no hover: move away and back, as a person would.
     await waitFor(async () => {
       await editor!.page.mouse.move(700, 450);
-      await row('Nearby', rows[0].label).hover();
+      const [first] = await snapshot('Nearby');
+      if (!first || !(await row('Nearby', first.label).hover({ timeout: 5_000 }).then(() => true, () => false))) return false;
       return hover.waitFor({ state: 'visible', timeout: 5_000 }).then(() => true, () => false);
     }, 30_000, 'the tooltip of the first Nearby result');
     expect(await hover.textContent()).toMatch(/Score/);
