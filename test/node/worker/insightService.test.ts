@@ -5,7 +5,7 @@
  * placement against a brute-force cosine ranking, and the "why" of search and nearby results
  * against the scores the ranking itself reports (the shares must add up to them).
  */
-import { cpSync, existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { appendFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -173,5 +173,25 @@ describe('why search and nearby results match', () => {
       const sum = hit.why!.terms.reduce((s, t) => s + t.share, 0) + hit.why!.rest;
       expect(sum).toBeCloseTo(hit.score, 4);
     }
+  });
+});
+
+describe('a workspace of one file', () => {
+  it('has no look-alikes, one topic holding the file, and a map with one dot that queries land on', async () => {
+    const one = join(tmp, 'one');
+    mkdirSync(one);
+    writeFileSync(join(one, 'crossing.md'), 'Tide tables and ferry timetables for the island crossing.\n');
+    const single = new IndexService({ saveDelayMs: 60_000 });
+    const s = single.handlers();
+    await s.configure({ config: { ...config, roots: [{ name: 'one', path: one, exclude: [] }], indexFile: join(tmp, 'one.undertone') } }, ctx);
+    await s.build({}, ctx);
+    expect((await s.lookalikes({ threshold: 0.8, paraphraseThreshold: 0.95 }, ctx)).groups).toEqual([]);
+    const topics = await s.topics({}, ctx);
+    expect(topics.topics.map((t) => keys(t.files))).toEqual([['crossing.md']]);
+    const map = await s.mapData({}, ctx);
+    expect(map.data.files.paths).toEqual(['crossing.md']);
+    const placed = await s.mapQuery({ token: map.token, text: 'ferry timetable' }, ctx);
+    expect(placed.neighbours).toEqual([0]);
+    expect(placed.similarities[0]).toBeCloseTo(1, 5);
   });
 });
