@@ -139,10 +139,11 @@ export class ConceptMapPanel implements vscode.Disposable {
     this.selectActive();
   }
 
+  /** Rings the dot of the file in the active editor (none for a file the map does not show). */
   private selectActive(): void {
     const uri = vscode.window.activeTextEditor?.document.uri;
-    const row = this._session?.rowOf(uri?.scheme === 'file' ? uri.fsPath : undefined) ?? null;
-    if (row !== null) this.post({ type: 'select', index: row });
+    if (!uri || !this._session) return; // the map itself has the focus: keep the selection
+    this.post({ type: 'select', index: this._session.rowOf(uri.scheme === 'file' ? uri.fsPath : undefined) });
   }
 
   private post(message: HostToPageMessage): void {
