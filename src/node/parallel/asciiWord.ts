@@ -3,15 +3,31 @@
  * the same rules as src/core/text/tokenize.ts step by step — skip hex literals and hex-looking
  * runs; split on '_' and '$', then at lower→Upper, Upper→Upper+lower and letter↔digit
  * boundaries; emit each part (and, for a split word, the joined compound) lowercased, unless it is
- * a stop word, 1 or over 40 characters, a digit run over 4, or hex-looking; stem with the same
- * memoised stemWord. Tokenizing threads meet millions of distinct identifiers in a large source
- * tree; this path makes a first sighting several times cheaper. Non-ASCII words go to tokenize().
+ * a stop word, 1 or over 40 characters, a digit run over 4, or hex-looking; stem with
+ * porterFast.ts, which equals natural's stemmer that tokenize uses. Tokenizing threads meet
+ * millions of distinct identifiers in a large source tree; this path makes a first sighting
+ * several times cheaper. Non-ASCII words go to tokenize().
  * test/node/parallel/asciiWord.test.ts holds it to tokenize() on real and generated words.
  */
 import { STOP_WORDS } from '../../core/text/stopWords.js';
-import { stemWord, type TokenizeOptions } from '../../core/text/tokenize.js';
+import type { TokenizeOptions } from '../../core/text/tokenize.js';
+import { porterStem } from './porterFast.js';
 
 const MAX_TOKEN_LENGTH = 40;
+/** Stems remembered before the memo is cleared (as tokenize's stemWord does, with its own limit). */
+const STEM_MEMO_LIMIT = 1_000_000;
+let stems = new Map<string, string>();
+
+/** porterStem (equal to natural's stemmer, which stemWord uses), memoised. */
+function stemOf(t: string): string {
+  let s = stems.get(t);
+  if (s === undefined) {
+    s = porterStem(t);
+    if (stems.size >= STEM_MEMO_LIMIT) stems = new Map();
+    stems.set(t, s);
+  }
+  return s;
+}
 const enum K {
   Lower = 1,
   Upper = 2,
@@ -98,7 +114,7 @@ function emit(raw: string, stem: boolean, out: string[]): void {
   if (t.length <= 1 || t.length > MAX_TOKEN_LENGTH || STOP_WORDS.has(t)) return;
   if (t.length >= 5 && allDigits(t)) return;
   if (hexish(t)) return;
-  out.push(stem ? stemWord(t) : t);
+  out.push(stem ? stemOf(t) : t);
 }
 
 /** tokenize(word, options) for an ASCII word (see isAsciiWord). */
