@@ -190,6 +190,7 @@ describe('Undertone insights in a real editor', () => {
 
   it('shows the topics with their words, and opens a topic’s file', async () => {
     await editor!.runCommand('Undertone: Focus on Topics View');
+    await collapse('Look-alikes');
     const rows = await waitForRows('Topics', (r) => r.filter((x) => /^Topic \d+ \(\d+\)$/.test(x.label)).length >= 3, 'at least three topics');
     const topics = rows.filter((x) => /^Topic \d+/.test(x.label));
     // Each planted topic's keywords (answer key) should name some topic: count those whose words show.
