@@ -12,6 +12,7 @@ import { modelSettingsKey, resolveSettings, type IndexSettings } from '../core/i
 import { countTerms, Vocabulary } from '../core/index/termCounts.js';
 import { tokenize } from '../core/text/tokenize.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
+import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
 import { loadIndex, saveIndex } from './persist.js';
 import { readIndexableText, scanFolder, type ScanOptions } from './scan.js';
@@ -115,8 +116,8 @@ async function indexWithPool(
   lap('scan');
   const sameTokens = previous && JSON.stringify(previous.settings.tokenize) === JSON.stringify(settings.tokenize);
   const sameModel = previous && modelSettingsKey(previous.settings) === modelSettingsKey(settings);
-  const vocab = sameTokens ? previous!.vocab : new Vocabulary();
-  const builder = new IndexBuilder(settings, vocab);
+  let vocab = sameTokens ? previous!.vocab : new Vocabulary();
+  let builder = new IndexBuilder(settings, vocab);
   const skipped = { binary: 0, tooLarge: 0, unreadable: 0, other: 0 };
   for (const s of scan.skipped) {
     if (s.reason === 'too-large') skipped.tooLarge++;
@@ -148,12 +149,19 @@ async function indexWithPool(
   const total = scan.files.length;
   // Threads pay off only for more than a handful of files.
   const pool = toRead.length >= PARALLEL_MIN_FILES ? pools.get() : undefined;
-  if (pool) {
+  const countOptions = { tokenize: settings.tokenize, maxFileBytes: maxBytes, signal: options.signal, onProgress: (done: number) => progress({ stage: 'read', done: reused + done, total }) };
+  if (pool && reused === 0 && vocab.size === 0) {
+    // From scratch: counts come back over a vocabulary already in the builder's order.
+    const counted = await countFilesSorted(pool, toRead.map((f) => ({ absPath: f.absPath, size: f.size })), countOptions);
+    vocab = counted.vocab;
+    builder = new IndexBuilder(settings, vocab);
+    counted.outcomes.forEach((got, i) => record(toRead[i], got));
+  } else if (pool) {
     await countFilesInParallel(
       pool,
       toRead.map((f) => ({ absPath: f.absPath, size: f.size })),
       vocab,
-      { tokenize: settings.tokenize, maxFileBytes: maxBytes, signal: options.signal, onProgress: (done) => progress({ stage: 'read', done: reused + done, total }) },
+      countOptions,
       (i, got) => record(toRead[i], got),
     );
   } else {

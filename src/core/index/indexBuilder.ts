@@ -49,13 +49,16 @@ export class IndexBuilder {
     const oldIds: number[] = [];
     for (let id = 0; id < used.length; id++) if (used[id]) oldIds.push(id);
     const terms = this._vocab.terms;
-    oldIds.sort((a, b) => (terms[a] < terms[b] ? -1 : terms[a] > terms[b] ? 1 : 0));
-    const newId = new Int32Array(this._vocab.size).fill(-1);
-    oldIds.forEach((old, i) => (newId[old] = i));
-    const vocab = new Vocabulary(oldIds.map((id) => terms[id]));
+    // A vocabulary already in that order (every term used, terms ascending; the parallel reader
+    // of src/node builds one) is kept as it is: renumbering would change nothing.
+    const canonical = oldIds.length === terms.length && terms.every((t, i) => i === 0 || terms[i - 1] < t);
+    if (!canonical) oldIds.sort((a, b) => (terms[a] < terms[b] ? -1 : terms[a] > terms[b] ? 1 : 0));
+    const newId = new Int32Array(canonical ? 0 : this._vocab.size).fill(-1);
+    if (!canonical) oldIds.forEach((old, i) => (newId[old] = i));
+    const vocab = canonical ? this._vocab : new Vocabulary(oldIds.map((id) => terms[id]));
     const slots: DocSlot[] = paths.map((path) => {
       const { meta, terms: t } = this._docs.get(path)!;
-      return { meta, terms: remap(t, newId), folded: false, residual: 0 };
+      return { meta, terms: canonical ? t : remap(t, newId), folded: false, residual: 0 };
     });
     if (slots.length === 0) throw new InvalidInputError('There are no files to index.');
     const { model, vectors } = buildConceptModelAndVectors(slots.map((s) => s.terms), vocab.size, this.settings, progress);

@@ -9,7 +9,7 @@
 import { CancelledError } from '../../core/errors.js';
 import type { DocTerms, Vocabulary } from '../../core/index/termCounts.js';
 import type { TokenizeOptions } from '../../core/text/tokenize.js';
-import type { FromWorker, ToWorker } from './protocol.js';
+import type { BatchDone, FromWorker, ToWorker } from './protocol.js';
 import type { WorkerPool } from './workerPool.js';
 
 export interface CountJob {
@@ -33,13 +33,41 @@ const BATCH_BYTES = 512 * 1024;
 const IN_FLIGHT_PER_WORKER = 3;
 
 /** Calls onFile(index, outcome) once per job, in completion order. */
-export function countFilesInParallel(
+export async function countFilesInParallel(
   pool: WorkerPool,
   jobs: readonly CountJob[],
   vocab: Vocabulary,
   options: CountOptions,
   onFile: (index: number, outcome: CountOutcome) => void,
 ): Promise<void> {
+  const translate = pool.workers.map(() => new Int32Array(0));
+  const known = pool.workers.map(() => 0);
+  await runCountBatches(pool, jobs, options, (w, msg) => {
+    // Translate the worker's new local ids to the caller's vocabulary.
+    if (msg.newTerms.length > 0) {
+      const need = known[w] + msg.newTerms.length;
+      if (need > translate[w].length) {
+        // Geometric growth: copying on every batch would be quadratic in the vocabulary.
+        const grown = new Int32Array(Math.max(need, translate[w].length * 2, 1024));
+        grown.set(translate[w].subarray(0, known[w]));
+        translate[w] = grown;
+      }
+      const tr = translate[w];
+      msg.newTerms.forEach((t, i) => (tr[known[w] + i] = vocab.add(t)));
+      known[w] = need;
+    }
+    const tr = translate[w];
+    for (const f of msg.files) {
+      onFile(f.index, f.kind === 'text' ? { kind: 'text', terms: toDocTerms(f.ids, f.counts, f.length, tr) } : { kind: f.kind });
+    }
+  });
+}
+
+/**
+ * Sends the jobs out in batches and calls onBatch(worker, reply) for each reply, in the order
+ * each worker sent them. Resolves when every batch has come back.
+ */
+export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], options: CountOptions, onBatch: (w: number, msg: BatchDone) => void): Promise<void> {
   const batches: number[][] = [];
   let current: number[] = [];
   let bytes = 0;
@@ -54,8 +82,6 @@ export function countFilesInParallel(
   });
   if (current.length > 0) batches.push(current);
   const workers = pool.workers;
-  const translate = workers.map(() => new Int32Array(0));
-  const known = workers.map(() => 0);
   let nextBatch = 0;
   let pending = 0;
   let done = 0;
@@ -88,23 +114,12 @@ export function countFilesInParallel(
         (msg: FromWorker): void => {
           if (failed) return;
           if (msg.type === 'error') return fail(new Error(`a tokenizing thread failed: ${msg.message}`));
+          if (msg.type !== 'batch') return;
           pending--;
-          // Translate the worker's new local ids to the caller's vocabulary.
-          if (msg.newTerms.length > 0) {
-            const need = known[w] + msg.newTerms.length;
-            if (need > translate[w].length) {
-              // Geometric growth: copying on every batch would be quadratic in the vocabulary.
-              const grown = new Int32Array(Math.max(need, translate[w].length * 2, 1024));
-              grown.set(translate[w].subarray(0, known[w]));
-              translate[w] = grown;
-            }
-            const tr = translate[w];
-            msg.newTerms.forEach((t, i) => (tr[known[w] + i] = vocab.add(t)));
-            known[w] = need;
-          }
-          const tr = translate[w];
-          for (const f of msg.files) {
-            onFile(f.index, f.kind === 'text' ? { kind: 'text', terms: toDocTerms(f.ids, f.counts, f.length, tr) } : { kind: f.kind });
+          try {
+            onBatch(w, msg);
+          } catch (err) {
+            return fail(err as Error);
           }
           done += msg.files.length;
           options.onProgress?.(done);
@@ -134,7 +149,7 @@ export function countFilesInParallel(
 const SHIFT = 2 ** 21;
 
 /** Local (ids, counts) to DocTerms over the caller's ids, sorted ascending. */
-function toDocTerms(ids: Int32Array, counts: Int32Array, length: number, tr: Int32Array): DocTerms {
+export function toDocTerms(ids: Int32Array, counts: Int32Array, length: number, tr: Int32Array): DocTerms {
   const n = ids.length;
   const keys = new Float64Array(n);
   for (let i = 0; i < n; i++) keys[i] = tr[ids[i]] * SHIFT + i;

@@ -33,6 +33,12 @@ port.on('message', (msg: ToWorker) => {
     }
     return;
   }
+  if (msg.type === 'sort-terms') {
+    const order = (counter ?? new WordCounter({})).sortedTermOrder();
+    const reply: FromWorker = { type: 'term-order', order };
+    port.postMessage(reply, [order.buffer as ArrayBuffer]);
+    return;
+  }
   if (msg.type === 'setup') {
     counter = new WordCounter(msg.tokenize);
     maxFileBytes = msg.maxFileBytes;

@@ -27,7 +27,12 @@ export interface WasmInit {
   readonly memory: WebAssembly.Memory;
 }
 
-export type ToWorker = KernelMessage | WasmInit | TokenizeSetup | TokenizeBatch;
+/** Asks for the worker's terms in sorted order (after its last batch). */
+export interface SortTerms {
+  readonly type: 'sort-terms';
+}
+
+export type ToWorker = KernelMessage | WasmInit | TokenizeSetup | TokenizeBatch | SortTerms;
 
 /** The outcome of one file; ids are the worker's local term ids (see WordCounter). */
 export type FileOutcome =
@@ -47,4 +52,10 @@ export interface WorkerFailure {
   readonly message: string;
 }
 
-export type FromWorker = BatchDone | WorkerFailure;
+/** The worker's local term ids ordered by term (UTF-16 code unit order). */
+export interface TermOrder {
+  readonly type: 'term-order';
+  readonly order: Int32Array;
+}
+
+export type FromWorker = BatchDone | WorkerFailure | TermOrder;

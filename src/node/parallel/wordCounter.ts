@@ -50,6 +50,12 @@ export class WordCounter {
     return out;
   }
 
+  /** All local term ids, ordered by term (UTF-16 code unit order, as Array.prototype.sort gives). */
+  sortedTermOrder(): Int32Array {
+    const sorted = [...this.terms].sort();
+    return Int32Array.from(sorted, (t) => this.idOf.get(t)!);
+  }
+
   count(text: string): LocalCounts {
     const length = NON_ASCII.test(text) ? this.countWords(text) : this.countAscii(text);
     const touched = this.touched;
