@@ -1,0 +1,97 @@
+/**
+ * The parallel thread pool with real worker threads (the bundled parallelWorker entry): threaded
+ * products and tokenizing must give exactly what the single-threaded code gives. References: the
+ * serial executor and the plain tokenize + countTerms pipeline.
+ */
+import { build } from 'esbuild';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { modelMatrix } from '../../../src/core/index/conceptModel.js';
+import { countTerms, Vocabulary } from '../../../src/core/index/termCounts.js';
+import { serialExecutor } from '../../../src/core/matrix/executor.js';
+import { randomizedSvd } from '../../../src/core/svd/randomizedSvd.js';
+import { tokenize } from '../../../src/core/text/tokenize.js';
+import { countFilesInParallel } from '../../../src/node/parallel/parallelCount.js';
+import { countFilesSorted } from '../../../src/node/parallel/sortedCount.js';
+import { WorkerPool } from '../../../src/node/parallel/workerPool.js';
+import { loadCollection, missingMessage, REPO_ROOT } from '../../helpers/shared.js';
+
+const cisi = loadCollection('cisi');
+const tmp = mkdtempSync(join(tmpdir(), 'undertone-pool-'));
+const workerScript = join(tmp, 'parallelWorker.js');
+let pool: WorkerPool | undefined;
+
+beforeAll(async () => {
+  await build({ bundle: true, platform: 'node', format: 'cjs', absWorkingDir: REPO_ROOT, logLevel: 'error', entryPoints: ['src/node/parallel/parallelWorker.ts'], outfile: workerScript });
+  pool = WorkerPool.start({ threads: 2, workerScript });
+});
+
+afterAll(async () => {
+  await pool?.close();
+  rmSync(tmp, { recursive: true, force: true });
+});
+
+const bagOf = (vocab: Vocabulary, ids: Int32Array, counts: Float32Array): Map<string, number> => new Map(Array.from(ids, (id, i) => [vocab.termOf(id), counts[i]]));
+
+describe.skipIf(!cisi)(`worker pool ${cisi ? '' : missingMessage('corpora/cisi')}`, () => {
+  it('starts no threads when one thread is asked for', () => {
+    expect(WorkerPool.start({ threads: 1, workerScript })).toBeUndefined();
+  });
+
+  it('computes the SVD on two threads with the same bits as on one', () => {
+    const builder = new IndexBuilder({ k: 60 });
+    for (const d of cisi!.docs.slice(0, 800)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    const index = builder.build({ executor: serialExecutor });
+    const m = modelMatrix(index.model, index.slots().map((s) => s!.terms));
+    const one = randomizedSvd(m, { k: 60, executor: serialExecutor });
+    const ex = pool!.executor();
+    expect(ex.threads).toBe(2);
+    const two = randomizedSvd(m, { k: 60, executor: ex });
+    expect(Buffer.from(two.u.buffer).equals(Buffer.from(one.u.buffer))).toBe(true);
+    expect(Buffer.from(two.v.buffer).equals(Buffer.from(one.v.buffer))).toBe(true);
+    expect(Array.from(two.s)).toEqual(Array.from(one.s));
+    // A whole build through the threads gives the same document vectors as the serial build.
+    const threaded = builder.build({ executor: ex });
+    expect(Buffer.from(threaded.vectors().buffer, threaded.vectors().byteOffset, threaded.vectors().byteLength).equals(Buffer.from(index.vectors().buffer, index.vectors().byteOffset, index.vectors().byteLength))).toBe(true);
+  });
+
+  it('reads and counts files on threads exactly as tokenize + countTerms do, and reports odd files', async () => {
+    const dir = join(tmp, 'files');
+    mkdirSync(dir, { recursive: true });
+    const docs = cisi!.docs.slice(0, 300);
+    const jobs = docs.map((d, i) => {
+      const p = join(dir, `${i}.txt`);
+      writeFileSync(p, i % 7 === 0 ? `Ünïcödé ${d.text} naïve café` : d.text);
+      return { absPath: p, size: d.text.length };
+    });
+    writeFileSync(join(dir, 'bin.dat'), Buffer.from([1, 0, 2, 3]));
+    writeFileSync(join(dir, 'big.txt'), 'x'.repeat(5000));
+    const odd = [{ absPath: join(dir, 'bin.dat'), size: 4 }, { absPath: join(dir, 'big.txt'), size: 5000 }, { absPath: join(dir, 'missing.txt'), size: 1 }];
+    const all = [...jobs, ...odd];
+    const options = { tokenize: {}, maxFileBytes: 4096 };
+    const want = (i: number) => {
+      const vocab = new Vocabulary();
+      const text = i % 7 === 0 ? `Ünïcödé ${docs[i].text} naïve café` : docs[i].text;
+      const t = countTerms(tokenize(text), vocab, true);
+      return bagOf(vocab, t.termIds, t.counts);
+    };
+    const vocab = new Vocabulary();
+    const seen = new Map<number, string>();
+    await countFilesInParallel(pool!, all, vocab, options, (i, o) => {
+      seen.set(i, o.kind);
+      if (o.kind === 'text') expect(bagOf(vocab, o.terms.termIds, o.terms.counts)).toEqual(want(i));
+    });
+    expect(seen.size).toBe(all.length);
+    expect([seen.get(300), seen.get(301), seen.get(302)]).toEqual(['binary', 'too-large', 'unreadable']);
+    const sorted = await countFilesSorted(pool!, all, options);
+    const terms = sorted.vocab.terms;
+    for (let i = 1; i < terms.length; i++) expect(terms[i - 1] < terms[i]).toBe(true);
+    sorted.outcomes.forEach((o, i) => {
+      if (o.kind === 'text') expect(bagOf(sorted.vocab, o.terms.termIds, o.terms.counts)).toEqual(want(i));
+    });
+    expect(sorted.outcomes.slice(300).map((o) => o.kind)).toEqual(['binary', 'too-large', 'unreadable']);
+  });
+});
