@@ -13,32 +13,21 @@ import type { MatrixExecutor } from './executor.js';
 import { orthonormalize } from './orthonormalize.js';
 
 /**
- * Orthonormalises the rows × l block y (from executor memory) into out (same shape; may be
- * reused afterwards as scratch). Returns the array holding Q: out, or y after a fallback.
+ * Orthonormalises the rows × l block y (from executor memory) in place: each pass multiplies by
+ * R⁻¹ (upper triangular) column by column from the top down, which needs no second buffer.
  */
-export function choleskyQr(
-  ex: MatrixExecutor,
-  y: Float64Array,
-  out: Float64Array,
-  rows: number,
-  l: number,
-  passes: 1 | 2,
-  random: RandomSource,
-): Float64Array {
-  let src = y;
-  let dst = out;
+export function choleskyQr(ex: MatrixExecutor, y: Float64Array, rows: number, l: number, passes: 1 | 2, random: RandomSource): Float64Array {
   for (let pass = 0; pass < passes; pass++) {
-    const r = cholesky(ex.cross(src, src, rows, l), l);
+    const r = cholesky(ex.cross(y, y, rows, l), l);
     if (!r) {
-      // Rank-deficient block: the robust path (serial, rare) works in place on src.
-      const q = orthonormalize({ rows, cols: l, data: src }, random).q.data;
-      if (q !== src) src.set(q);
-      return src;
+      // Rank-deficient block: the robust path (serial, rare) works in place on y.
+      const q = orthonormalize({ rows, cols: l, data: y }, random).q.data;
+      if (q !== y) y.set(q);
+      return y;
     }
-    ex.timesSmall(src, rows, l, invertUpperTransposed(r, l), l, true, dst);
-    [src, dst] = [dst, src];
+    ex.timesSmall(y, rows, l, invertUpperTransposed(r, l), l, true, y);
   }
-  return src;
+  return y;
 }
 
 /** (R⁻¹)ᵀ for upper-triangular R (l × l row-major): the transposed factor timesSmall expects. */

@@ -89,7 +89,8 @@ export function crossRows(a: FloatArray, b: FloatArray, l: number, r0: number, r
 /**
  * out[r0:r1] = Y[r0:r1] · W, where Y is rows × l and W is l × c, given transposed (wt is c × l,
  * row-major). With upper = true, W is upper triangular (w[a][b] = 0 for a > b) and only a ≤ b is
- * read. out may not be y.
+ * read. Columns are produced from the last to the first, so with an upper-triangular W and
+ * c = l, out may be y itself (column b needs only columns ≤ b, not yet overwritten).
  */
 export function timesSmallRows(
   y: FloatArray,
@@ -105,8 +106,19 @@ export function timesSmallRows(
   for (; i + 4 <= r1; i += 4) {
     const y0 = i * l, y1 = y0 + l, y2 = y1 + l, y3 = y2 + l;
     const z0 = i * c, z1 = z0 + c, z2 = z1 + c, z3 = z2 + c;
-    let b = 0;
-    for (; b + 2 <= c; b += 2) {
+    // An odd last column first, then pairs from the top down.
+    if (c % 2 === 1) {
+      const b = c - 1;
+      const w0 = b * l;
+      const end = upper ? Math.min(b + 1, l) : l;
+      let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+      for (let a = 0; a < end; a++) {
+        const u = wt[w0 + a];
+        s0 += y[y0 + a] * u; s1 += y[y1 + a] * u; s2 += y[y2 + a] * u; s3 += y[y3 + a] * u;
+      }
+      out[z0 + b] = s0; out[z1 + b] = s1; out[z2 + b] = s2; out[z3 + b] = s3;
+    }
+    for (let b = c - (c % 2) - 2; b >= 0; b -= 2) {
       const w0 = b * l, w1 = w0 + l;
       const end = upper ? Math.min(b + 2, l) : l;
       let s0 = 0, s1 = 0, s2 = 0, s3 = 0, t0 = 0, t1 = 0, t2 = 0, t3 = 0;
@@ -119,21 +131,11 @@ export function timesSmallRows(
       out[z0 + b] = s0; out[z1 + b] = s1; out[z2 + b] = s2; out[z3 + b] = s3;
       out[z0 + b + 1] = t0; out[z1 + b + 1] = t1; out[z2 + b + 1] = t2; out[z3 + b + 1] = t3;
     }
-    for (; b < c; b++) {
-      const w0 = b * l;
-      const end = upper ? Math.min(b + 1, l) : l;
-      let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
-      for (let a = 0; a < end; a++) {
-        const u = wt[w0 + a];
-        s0 += y[y0 + a] * u; s1 += y[y1 + a] * u; s2 += y[y2 + a] * u; s3 += y[y3 + a] * u;
-      }
-      out[z0 + b] = s0; out[z1 + b] = s1; out[z2 + b] = s2; out[z3 + b] = s3;
-    }
   }
   for (; i < r1; i++) {
     const yo = i * l;
     const zo = i * c;
-    for (let b = 0; b < c; b++) {
+    for (let b = c - 1; b >= 0; b--) {
       const w0 = b * l;
       const end = upper ? Math.min(b + 1, l) : l;
       let s = 0;

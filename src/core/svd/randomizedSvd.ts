@@ -84,10 +84,10 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   const nnz = m.indptr[m.rows];
   // A has the smaller dimension as rows: Q (S × l) is the only block that is orthonormalised.
   const rowsSmall = m.rows <= m.cols;
-  // Executors other than the plain one need the matrix in their own memory (f64 for the kernels).
-  const own = ex !== serialExecutor;
-  const mCopy = own ? copyCsr(m, ex, 'f64') : m;
-  const mt = transposeCsr(m, ex, own ? 'f64' : undefined);
+  // The matrix in the executor's memory, stored entries as f32 (a relative change below 1e-7,
+  // far inside the SVD's own accuracy) on every executor, so all of them give the same bits.
+  const mCopy = copyCsr(m, ex, 'f32');
+  const mt = transposeCsr(m, ex, 'f32');
   const a = rowsSmall ? mCopy : mt;
   const at = rowsSmall ? mt : mCopy;
   const S = a.rows;
@@ -102,20 +102,19 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   };
 
   // 1. Range finder and power iterations.
-  let z = ex.float64(B * l);
+  // One S × l block holds Y and, orthonormalised in place, Q; one B × l block holds Ω and Z.
+  const z = ex.float64(B * l);
   for (let i = 0; i < z.length; i++) z[i] = random.normal();
-  let y = ex.float64(S * l);
-  let spare = ex.float64(S * l);
-  ex.spmm(a, z, l, y);
+  const q = ex.float64(S * l);
+  ex.spmm(a, z, l, q);
   step();
-  let q = choleskyQr(ex, y, spare, S, l, o.powerIterations === 0 ? 2 : 1, random);
+  choleskyQr(ex, q, S, l, o.powerIterations === 0 ? 2 : 1, random);
   for (let it = 0; it < o.powerIterations; it++) {
     ex.spmm(at, q, l, z);
     step();
-    [y, spare] = q === y ? [spare, y] : [y, spare];
-    ex.spmm(a, z, l, y);
+    ex.spmm(a, z, l, q);
     step();
-    q = choleskyQr(ex, y, spare, S, l, it === o.powerIterations - 1 ? 2 : 1, random);
+    choleskyQr(ex, q, S, l, it === o.powerIterations - 1 ? 2 : 1, random);
   }
   // 2. Rayleigh–Ritz.
   ex.spmm(at, q, l, z);
@@ -124,7 +123,7 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   if (gramOnBigSide) {
     g = ex.cross(z, z, B, l);
   } else {
-    const az = q === y ? spare : y;
+    const az = ex.float64(S * l);
     ex.spmm(a, z, l, az);
     step();
     g = ex.cross(q, az, S, l);

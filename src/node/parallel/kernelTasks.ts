@@ -16,7 +16,8 @@ export const CTRL_WORDS = 4;
 
 export type KernelJob =
   | {
-      readonly op: 'spmm';
+      /** spmm_f32: the stored values are f32. */
+      readonly op: 'spmm' | 'spmm_f32';
       /** indptr, indices, values, x, l, y (offsets and the width), grouped (0/1). */
       readonly args: readonly [number, number, number, number, number, number, number];
       /** Row boundaries of the tasks. */
@@ -42,9 +43,10 @@ export function taskCount(job: KernelJob): number {
 
 export function runTask(k: KernelExports, job: KernelJob, t: number): void {
   switch (job.op) {
-    case 'spmm': {
+    case 'spmm':
+    case 'spmm_f32': {
       const [indptr, indices, values, x, l, y, grouped] = job.args;
-      k.spmm(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1], grouped);
+      (job.op === 'spmm' ? k.spmm : k.spmm_f32)(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1], grouped);
       return;
     }
     case 'cross': {

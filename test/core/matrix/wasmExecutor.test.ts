@@ -42,6 +42,21 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
     });
   }
 
+  it('multiplies in place by an upper-triangular factor with the same bits as out of place', () => {
+    const ex = wasm!;
+    const rows = 23, l = 11;
+    const wt = Float64Array.from({ length: l * l }, (_, t) => (Math.floor(t / l) < t % l ? 0 : rnd.normal()));
+    const y = ex.float64(rows * l);
+    for (let i = 0; i < y.length; i++) y[i] = rnd.normal();
+    const want = new Float64Array(rows * l);
+    serialExecutor.timesSmall(Float64Array.from(y), rows, l, wt, l, true, want);
+    const plain = Float64Array.from(y);
+    serialExecutor.timesSmall(plain, rows, l, wt, l, true, plain);
+    ex.timesSmall(y, rows, l, wt, l, true, y);
+    expect(same(y, want)).toBe(true);
+    expect(same(plain, want)).toBe(true);
+  });
+
   it('frees scoped arena memory for reuse', () => {
     const ex = wasm!;
     const first = ex.scoped(() => ex.float64(1000).byteOffset);

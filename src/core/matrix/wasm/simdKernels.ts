@@ -2,16 +2,17 @@
  * The row-range kernels of kernels.ts as WebAssembly SIMD (f64x2) functions over one shared
  * memory. Pointers are byte offsets into that memory; all floats are f64. Each output entry is
  * formed by the same sequence of IEEE operations as in kernels.ts (no fused multiply-add; the
- * same association order), so both give the same bits. timesSmall reads W untransposed (l × c).
+ * same association order), so both give the same bits. times reads W untransposed (l × c) and
+ * fills columns from the top down, so out may be y for an upper-triangular W with c = l.
  *
- * Exports: spmm(indptr, indices, values, x, l, y, r0, r1, grouped),
+ * Exports: spmm(indptr, indices, values, x, l, y, r0, r1, grouped) and spmm_f32 (f32 values),
  *          cross(a, b, l, r0, r1, g, symmetric),
  *          times(y, l, w, c, upper, out, r0, r1).
  */
 import { F64, FunctionBuilder, I32, V128, encodeModule } from './encoder.js';
 
 // Opcodes (WebAssembly Core Specification 2.0 §5.4; SIMD §5.4.8).
-const I32_LOAD = 0x28, F64_LOAD = 0x2b, F64_STORE = 0x39;
+const I32_LOAD = 0x28, F32_LOAD = 0x2a, F64_LOAD = 0x2b, F64_STORE = 0x39, F64_PROMOTE_F32 = 0xbb;
 const I32_ADD = 0x6a, I32_SUB = 0x6b, I32_MUL = 0x6c, I32_SHL = 0x74, I32_LT_S = 0x48, I32_LE_S = 0x4c;
 const F64_ADD = 0xa0, F64_MUL = 0xa2, SELECT = 0x1b;
 const V128_LOAD = 0x00, V128_STORE = 0x0b, F64X2_SPLAT = 0x14, F64X2_ADD = 0xf0, F64X2_MUL = 0xf2;
@@ -19,8 +20,9 @@ const V128_LOAD = 0x00, V128_STORE = 0x0b, F64X2_SPLAT = 0x14, F64X2_ADD = 0xf0,
 /** Largest memory the module may use: 65536 pages of 64 KiB (4 GiB, the wasm32 limit). */
 export const MAX_PAGES = 65536;
 
-function spmm(): FunctionBuilder {
-  const f = new FunctionBuilder('spmm', [I32, I32, I32, I32, I32, I32, I32, I32, I32], []);
+/** The sparse product; valuesF32 reads the stored entries as f32 (promoted exactly to f64). */
+function spmm(name: string, valuesF32: boolean): FunctionBuilder {
+  const f = new FunctionBuilder(name, [I32, I32, I32, I32, I32, I32, I32, I32, I32], []);
   const [indptr, indices, values, x, l, y, r0, r1, grouped] = [0, 1, 2, 3, 4, 5, 6, 7, 8];
   const l8 = f.local(I32), i = f.local(I32), yo = f.local(I32), p = f.local(I32), p1 = f.local(I32), c = f.local(I32), pairs = f.local(I32);
   const xs = [f.local(I32), f.local(I32), f.local(I32), f.local(I32)];
@@ -31,7 +33,9 @@ function spmm(): FunctionBuilder {
   f.get(r0).set(i);
   const loadEntry = (k: number): void => {
     // v_k = values[p + k]; x_k = x + indices[p + k] * l8
-    f.get(values).get(p).i32(3).op(I32_SHL).op(I32_ADD).mem(F64_LOAD, 3, k * 8).tee(ss[k]).simd(F64X2_SPLAT).set(vs[k]);
+    if (valuesF32) f.get(values).get(p).i32(2).op(I32_SHL).op(I32_ADD).mem(F32_LOAD, 2, k * 4).op(F64_PROMOTE_F32);
+    else f.get(values).get(p).i32(3).op(I32_SHL).op(I32_ADD).mem(F64_LOAD, 3, k * 8);
+    f.tee(ss[k]).simd(F64X2_SPLAT).set(vs[k]);
     f.get(x).get(indices).get(p).i32(2).op(I32_SHL).op(I32_ADD).mem(I32_LOAD, 2, k * 4).get(l8).op(I32_MUL).op(I32_ADD).set(xs[k]);
   };
   const rowUpdate = (n: number): void => {
@@ -82,7 +86,7 @@ function spmm(): FunctionBuilder {
 }
 
 export function kernelModuleBytes(): Uint8Array<ArrayBuffer> {
-  return encodeModule([spmm(), cross(), times()], { minPages: 1, maxPages: MAX_PAGES });
+  return encodeModule([spmm('spmm', false), spmm('spmm_f32', true), cross(), times()], { minPages: 1, maxPages: MAX_PAGES });
 }
 
 function cross(): FunctionBuilder {
@@ -173,9 +177,9 @@ function times(): FunctionBuilder {
     f.set(i);
     f.whileLoop(() => { f.get(i); rowTo(); f.op(I32_LT_S); }, () => {
       f.get(y).get(i).get(l8).op(I32_MUL).op(I32_ADD).set(yrow);
-      colFrom();
-      f.set(b);
-      f.whileLoop(() => f.get(b).get(c).op(I32_LT_S), () => {
+      // Columns from c − 1 down to colFrom (top down, so out may be y for an upper W).
+      f.get(c).i32(1).op(I32_SUB).set(b);
+      f.whileLoop(() => { colFrom(); f.get(b).op(I32_LE_S); }, () => {
         setEnd(() => f.get(b).i32(1).op(I32_ADD));
         f.f64(0).set(s).i32(0).set(a);
         f.whileLoop(() => f.get(a).get(end).op(I32_LT_S), () => {
@@ -186,7 +190,7 @@ function times(): FunctionBuilder {
           f.get(a).i32(1).op(I32_ADD).set(a);
         });
         f.get(out).get(i).get(c8).op(I32_MUL).op(I32_ADD).get(b).i32(3).op(I32_SHL).op(I32_ADD).get(s).mem(F64_STORE, 3);
-        f.get(b).i32(1).op(I32_ADD).set(b);
+        f.get(b).i32(1).op(I32_SUB).set(b);
       });
       f.get(i).i32(1).op(I32_ADD).set(i);
     });
@@ -194,8 +198,10 @@ function times(): FunctionBuilder {
   const tile = f.local(I32);
   f.get(r0).set(tile);
   f.whileLoop(() => f.get(tile).i32(4).op(I32_ADD).get(r1).op(I32_LE_S), () => {
-    f.i32(0).set(b);
-    f.whileLoop(() => f.get(b).i32(4).op(I32_ADD).get(c).op(I32_LE_S), () => {
+    // Leftover top columns of this 4-row tile first, then 4-column tiles from the top down.
+    scalarEntries(() => f.get(tile), () => f.get(tile).i32(4).op(I32_ADD), () => f.get(c).get(c).i32(3).op(0x71).op(I32_SUB));
+    f.get(c).get(c).i32(3).op(0x71).op(I32_SUB).i32(4).op(I32_SUB).set(b);
+    f.whileLoop(() => f.i32(0).get(b).op(I32_LE_S), () => {
       for (const v of acc) f.f64(0).simd(F64X2_SPLAT).set(v);
       setEnd(() => f.get(b).i32(4).op(I32_ADD));
       f.i32(0).set(a);
@@ -214,10 +220,8 @@ function times(): FunctionBuilder {
         f.get(acc[2 * k]).simdMem(V128_STORE);
         f.get(t).get(acc[2 * k + 1]).simdMem(V128_STORE, 16);
       }
-      f.get(b).i32(4).op(I32_ADD).set(b);
+      f.get(b).i32(4).op(I32_SUB).set(b);
     });
-    // Leftover columns of this 4-row tile.
-    scalarEntries(() => f.get(tile), () => f.get(tile).i32(4).op(I32_ADD), () => f.get(c).get(c).i32(3).op(0x71).op(I32_SUB));
     f.get(tile).i32(4).op(I32_ADD).set(tile);
   });
   // Leftover rows.

@@ -13,6 +13,8 @@ const GROW_SLACK_PAGES = 64;
 
 export interface KernelExports {
   spmm(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
+  /** The same with f32 stored values. */
+  spmm_f32(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
   cross(a: number, b: number, l: number, r0: number, r1: number, g: number, symmetric: number): void;
   times(y: number, l: number, w: number, c: number, upper: number, out: number, r0: number, r1: number): void;
 }

@@ -53,7 +53,9 @@ export class WasmExecutor implements MatrixExecutor {
 
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
     const out = this.out(y);
-    this.kernels.spmm(this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), this.ptr(x), l, out.ptr, 0, m.rows, sequential ? 0 : 1);
+    const f32 = m.values instanceof Float32Array && this.arena.offsetOf(m.values) >= 0;
+    const values = f32 ? m.values.byteOffset : this.ptr(m.values);
+    (f32 ? this.kernels.spmm_f32 : this.kernels.spmm)(this.ptr(m.indptr), this.ptr(m.indices), values, this.ptr(x), l, out.ptr, 0, m.rows, sequential ? 0 : 1);
     out.done();
   }
 
