@@ -29,6 +29,8 @@ export interface ChildResult {
   readonly buildSeconds: number;
   readonly totalSeconds: number;
   readonly peakRssBytes: number;
+  /** CPU seconds (user + system, all threads) of the build, save included. */
+  readonly cpuSeconds: number;
   readonly reopenSeconds: number;
   readonly indexBytes: number;
   /** Milliseconds, median and worst over the queries / files tried. */
@@ -71,7 +73,9 @@ function timeIt(f: () => void): number {
 export async function runChild(folder: string, k: number | 'auto', exportDir?: string, honourGitignore = true): Promise<ChildResult> {
   const dir = await mkdtemp(join(tmpdir(), 'undertone-bench-'));
   const indexFile = join(dir, 'index.undertone');
+  const cpu0 = process.cpuUsage();
   const report = await indexFolder(folder, { indexFile, force: true, settings: { k }, scan: { honourGitignore } });
+  const cpu = process.cpuUsage(cpu0);
   const s = report.seconds;
   const stages = { scan: s.scan, tokenize: s.read, matrix: s.matrix, svd: s.svd, save: s.save };
   // Reopen from disk (a fresh load, as a new editor session or CLI call does).
@@ -118,6 +122,7 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
     buildSeconds: stages.scan + stages.tokenize + stages.matrix + stages.svd,
     totalSeconds: report.totalSeconds,
     peakRssBytes,
+    cpuSeconds: (cpu.user + cpu.system) / 1e6,
     reopenSeconds,
     indexBytes: bytes,
     searchMs: stats(searchMs),

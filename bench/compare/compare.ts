@@ -27,6 +27,7 @@ interface ReferenceResult {
   k: number;
   seconds: { read: number; vectorize: number; svd: number };
   total: number;
+  cpuSeconds: number;
   peakRss: number;
 }
 
@@ -69,6 +70,7 @@ function printComparison(name: string, ours: ChildResult, ref: ReferenceResult, 
   row('matrix (ref: TfidfVectorizer)', ours.stages.matrix, ref.seconds.vectorize);
   row('SVD (+ document vectors)', ours.stages.svd, ref.seconds.svd);
   row('build total', oursBuild, ref.total);
+  row('CPU seconds, all threads (ours incl. save)', ours.cpuSeconds, ref.cpuSeconds);
   row('save index (Undertone only)', ours.stages.save, NaN);
   console.log(`  build time ratio Undertone / reference: ${ratio(oursBuild, ref.total)} (target ≤ 0.5×)`);
   console.log(`  peak RSS: Undertone ${mb(ours.peakRssBytes)}, reference ${mb(ref.peakRss)}, ratio ${ratio(ours.peakRssBytes, ref.peakRss)} (target ≤ 1×)`);

@@ -57,6 +57,7 @@ def pipeline(args):
             "k": k,
             "seconds": {"read": t1 - t0, "vectorize": t2 - t1, "svd": t3 - t2},
             "total": t3 - t0,
+            "cpuSeconds": sum(resource.getrusage(resource.RUSAGE_SELF)[:2]),
             "peakRss": peak_rss_bytes(),
             "singularValues": [float(v) for v in svd.singular_values_],
         },

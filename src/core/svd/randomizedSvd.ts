@@ -143,19 +143,25 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
 /** Makes the largest-magnitude entry of each column of v positive, flipping u to match. */
 export function flipSigns(u: DenseBlock, v: DenseBlock): void {
   const k = v.cols;
-  for (let c = 0; c < k; c++) {
-    let best = 0;
-    let bestAbs = -1;
-    for (let i = 0; i < v.rows; i++) {
-      const x = Math.abs(v.data[i * k + c]);
-      if (x > bestAbs) {
-        bestAbs = x;
-        best = i;
+  // Row by row (memory order): the first row holding each column's largest |entry| wins ties.
+  const bestAbs = new Float64Array(k).fill(-1);
+  const bestVal = new Float64Array(k);
+  for (let i = 0; i < v.rows; i++) {
+    const o = i * k;
+    for (let c = 0; c < k; c++) {
+      const x = Math.abs(v.data[o + c]);
+      if (x > bestAbs[c]) {
+        bestAbs[c] = x;
+        bestVal[c] = v.data[o + c];
       }
     }
-    if (v.data[best * k + c] < 0) {
-      for (let i = 0; i < v.rows; i++) v.data[i * k + c] = -v.data[i * k + c];
-      for (let i = 0; i < u.rows; i++) u.data[i * k + c] = -u.data[i * k + c];
+  }
+  const sign = Float64Array.from(bestVal, (x) => (x < 0 ? -1 : 1));
+  if (sign.every((x) => x === 1)) return;
+  for (const m of [v, u]) {
+    for (let i = 0; i < m.rows; i++) {
+      const o = i * k;
+      for (let c = 0; c < k; c++) if (sign[c] < 0) m.data[o + c] = -m.data[o + c];
     }
   }
 }

@@ -109,27 +109,34 @@ export function asciiParts(word: string): string[] {
   return parts;
 }
 
-function emit(raw: string, stem: boolean, out: string[]): void {
+/** Lowercases a part and keeps it unless tokenize's keep() would drop it. */
+function emit(raw: string, out: string[]): void {
   const t = raw.toLowerCase();
   if (t.length <= 1 || t.length > MAX_TOKEN_LENGTH || STOP_WORDS.has(t)) return;
   if (t.length >= 5 && allDigits(t)) return;
   if (hexish(t)) return;
-  out.push(stem ? stemOf(t) : t);
+  out.push(t);
 }
 
-/** tokenize(word, options) for an ASCII word (see isAsciiWord). */
-export function asciiWordTokens(word: string, options: Readonly<TokenizeOptions>): string[] {
+/** The kept lowercase tokens of an ASCII word before stemming (tokenize's steps 1–4). */
+export function asciiWordLowerTokens(word: string, keepCompounds: boolean): string[] {
   const out: string[] = [];
   if (hexLiteral(word) || hexish(word)) return out;
   const parts = asciiParts(word);
   if (parts.length === 1 && parts[0] === word) {
-    emit(word, options.stem, out);
+    emit(word, out);
     return out;
   }
-  for (const p of parts) emit(p, options.stem, out);
-  if (options.keepCompounds && parts.length > 1) {
+  for (const p of parts) emit(p, out);
+  if (keepCompounds && parts.length > 1) {
     const compound = parts.join('');
-    if (compound.length <= MAX_TOKEN_LENGTH && !allDigits(compound)) emit(compound, options.stem, out);
+    if (compound.length <= MAX_TOKEN_LENGTH && !allDigits(compound)) emit(compound, out);
   }
   return out;
+}
+
+/** tokenize(word, options) for an ASCII word (see isAsciiWord). */
+export function asciiWordTokens(word: string, options: Readonly<TokenizeOptions>): string[] {
+  const tokens = asciiWordLowerTokens(word, options.keepCompounds);
+  return options.stem ? tokens.map(stemOf) : tokens;
 }

@@ -13,7 +13,8 @@
  * test/node/parallel/wordCounter.test.ts checks the equality with tokenize + countTerms.
  */
 import { DEFAULT_TOKENIZE_OPTIONS, tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
-import { asciiWordTokens, isAsciiWord } from './asciiWord.js';
+import { asciiWordLowerTokens, isAsciiWord } from './asciiWord.js';
+import { porterStem } from './porterFast.js';
 
 // The normalisation and word pattern of src/core/text/tokenize.ts (kept in step by the test).
 const WORD = /[\p{L}\p{N}_$]+/gu;
@@ -34,6 +35,7 @@ export class WordCounter {
   private readonly terms: string[] = [];
   private reported = 0;
   private readonly cache = new WordTable();
+  private tokenIds = new Map<string, number>();
   private tally = new Int32Array(1024);
   private readonly touched: number[] = [];
 
@@ -121,8 +123,20 @@ export class WordCounter {
 
   /** The local ids of a word's terms (ASCII words by the char-code path of asciiWord.ts). */
   private wordTerms(word: string): number[] {
-    const tokens = isAsciiWord(word) ? asciiWordTokens(word, this.resolved) : tokenize(word, this.options);
-    return tokens.map((t) => this.add(t));
+    if (!isAsciiWord(word)) return tokenize(word, this.options).map((t) => this.add(t));
+    const lower = asciiWordLowerTokens(word, this.resolved.keepCompounds);
+    const ids = new Array<number>(lower.length);
+    for (let i = 0; i < lower.length; i++) {
+      // One map from a lowercase token to its term's id (stemming and lookup at once).
+      let id = this.tokenIds.get(lower[i]);
+      if (id === undefined) {
+        id = this.add(this.resolved.stem ? porterStem(lower[i]) : lower[i]);
+        if (this.tokenIds.size >= WORD_CACHE_LIMIT) this.tokenIds = new Map();
+        this.tokenIds.set(lower[i], id);
+      }
+      ids[i] = id;
+    }
+    return ids;
   }
 
   private add(term: string): number {

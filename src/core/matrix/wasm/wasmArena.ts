@@ -40,6 +40,8 @@ export function instantiateKernels(module: WebAssembly.Module, memory: WebAssemb
 export class WasmArena {
   readonly memory: WebAssembly.Memory;
   private top = ALIGN;
+  /** Bytes below this offset may hold old data; above it the memory is as grown (zero). */
+  private clean = 0;
   private readonly buffers = new WeakSet<ArrayBufferLike>();
 
   constructor(memory?: WebAssembly.Memory) {
@@ -57,17 +59,24 @@ export class WasmArena {
 
   float64(n: number): Float64Array {
     const p = this.alloc(n * 8);
-    return new Float64Array(this.memory.buffer, p, n).fill(0);
+    return this.zeroed(new Float64Array(this.memory.buffer, p, n), p);
   }
 
   float32(n: number): Float32Array {
     const p = this.alloc(n * 4);
-    return new Float32Array(this.memory.buffer, p, n).fill(0);
+    return this.zeroed(new Float32Array(this.memory.buffer, p, n), p);
   }
 
   int32(n: number): Int32Array {
     const p = this.alloc(n * 4);
-    return new Int32Array(this.memory.buffer, p, n).fill(0);
+    return this.zeroed(new Int32Array(this.memory.buffer, p, n), p);
+  }
+
+  /** Memory above the highest point ever handed out is still zero from growing; below it, clear. */
+  private zeroed<T extends Float64Array | Float32Array | Int32Array>(a: T, p: number): T {
+    if (p < this.clean) a.subarray(0, Math.ceil((Math.min(this.clean, p + a.byteLength) - p) / a.BYTES_PER_ELEMENT)).fill(0);
+    this.clean = Math.max(this.clean, p + a.byteLength);
+    return a;
   }
 
   /** The byte offset of an array that lives in this memory, or -1. */
