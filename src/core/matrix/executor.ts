@@ -7,7 +7,8 @@
  * give the same bits.
  */
 import type { CsrMatrix } from './sparse.js';
-import { crossRows, spmmRows, timesSmallRows, type FloatArray } from './kernels.js';
+import { createRandom } from '../random.js';
+import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, timesSmallRows, type FloatArray } from './kernels.js';
 
 export type { FloatArray } from './kernels.js';
 
@@ -30,6 +31,8 @@ export interface MatrixExecutor {
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array;
   /** out = Y W for Y rows × l and W l × c given transposed (wt: c × l); W upper triangular if upper. */
   timesSmall(y: FloatArray, rows: number, l: number, wt: Float64Array, c: number, upper: boolean, out: FloatArray): void;
+  /** Fills a rows × l block with seeded N(0, 1) numbers, block by block (gaussianBlock). */
+  gaussian(out: Float64Array, rows: number, l: number, seed: number): void;
   /** Runs fn and then frees the executor memory it allocated (results must be copied out). */
   scoped?<T>(fn: () => T): T;
 }
@@ -70,6 +73,9 @@ export const serialExecutor: MatrixExecutor = Object.freeze({
   },
   timesSmall(y: FloatArray, rows: number, l: number, wt: Float64Array, c: number, upper: boolean, out: FloatArray): void {
     timesSmallRows(y, l, wt, c, upper, out, 0, rows);
+  },
+  gaussian(out: Float64Array, rows: number, l: number, seed: number): void {
+    for (let b = 0; b * GAUSSIAN_BLOCK_ROWS < rows; b++) gaussianBlock(out, rows, l, seed, b, createRandom);
   },
 });
 

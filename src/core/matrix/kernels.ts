@@ -11,6 +11,21 @@
 
 export type FloatArray = Float64Array | Float32Array;
 
+/** Rows per block of a seeded Gaussian block: block b draws from its own stream (see gaussianBlock). */
+export const GAUSSIAN_BLOCK_ROWS = 2048;
+
+/**
+ * Fills rows [b·GAUSSIAN_BLOCK_ROWS, …) of a rows × l block with N(0, 1) numbers from the
+ * stream seeded by (seed, b), so blocks can be drawn on any thread, in any order, with the same
+ * result. random is a seeded generator factory (createRandom), passed in to keep this file free
+ * of imports.
+ */
+export function gaussianBlock(out: Float64Array, rows: number, l: number, seed: number, b: number, random: (seed: number) => { normal(): number }): void {
+  const r = random((Math.imul(seed ^ 0x5bd1e995, 0x9e3779b1) + Math.imul(b + 1, 0x85ebca6b)) >>> 0);
+  const end = Math.min(rows, (b + 1) * GAUSSIAN_BLOCK_ROWS) * l;
+  for (let i = b * GAUSSIAN_BLOCK_ROWS * l; i < end; i++) out[i] = r.normal();
+}
+
 /**
  * y[r0:r1] = M[r0:r1] · X, where M is CSR (rows × cols) and X is cols × l, Y is rows × l.
  * grouped = false adds one stored entry at a time (y += v·x), the order of a plain loop.

@@ -2,7 +2,8 @@
  * Truncated SVD of a sparse matrix by randomized subspace iteration (Halko, Martinsson & Tropp
  * 2011, SIAM Review 53(2), Algorithms 4.4 and 5.1), in visible steps. The basis Q lives on the
  * smaller side of M (S rows of A, where A is M or Mᵀ, so the dense work is S × l, never B × l):
- *   1. range finder: Y = AΩ with a seeded Gaussian Ω (B × l), l = k + oversampling, Q = orth(Y);
+ *   1. range finder: Y = AΩ with a seeded Gaussian Ω (B × l, drawn in fixed blocks of rows, each
+ *      from its own seeded stream), l = k + oversampling, Q = orth(Y);
  *      q power iterations Z = AᵀQ, Y = AZ, Q = orth(Y). Q is renormalised once per AAᵀ pair, as
  *      gensim's LSI does (methods §1.4, §1.7): with Q orthonormal, Z has condition number about
  *      σ₁/σ_l, so nothing below ε^{1/2}·σ₁ is lost; middle steps use one CholeskyQR pass, the last
@@ -104,7 +105,7 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   // 1. Range finder and power iterations.
   // One S × l block holds Y and, orthonormalised in place, Q; one B × l block holds Ω and Z.
   const z = ex.float64(B * l);
-  for (let i = 0; i < z.length; i++) z[i] = random.normal();
+  ex.gaussian(z, B, l, o.seed);
   const q = ex.float64(S * l);
   ex.spmm(a, z, l, q);
   step();

@@ -5,7 +5,9 @@
  * atomic counter) runs exactly the same arithmetic on exactly the same rows, so the result does
  * not depend on who ran what.
  */
+import { GAUSSIAN_BLOCK_ROWS, gaussianBlock } from '../../core/matrix/kernels.js';
 import type { KernelExports } from '../../core/matrix/wasm/wasmArena.js';
+import { createRandom } from '../../core/random.js';
 
 /** Control words of a job (Int32Array on a SharedArrayBuffer). */
 export const CTRL_NEXT = 0; // next unclaimed task
@@ -30,6 +32,11 @@ export type KernelJob =
       readonly blockRows: number;
     }
   | {
+      readonly op: 'gaussian';
+      /** out (byte offset), rows, l, seed. */
+      readonly args: readonly [number, number, number, number];
+    }
+  | {
       readonly op: 'times';
       /** y, l, w, c, upper (0/1), out. */
       readonly args: readonly [number, number, number, number, number, number];
@@ -38,11 +45,17 @@ export type KernelJob =
 
 export function taskCount(job: KernelJob): number {
   if (job.op === 'cross') return Math.max(1, Math.ceil(job.args[3] / job.blockRows));
+  if (job.op === 'gaussian') return Math.max(1, Math.ceil(job.args[1] / GAUSSIAN_BLOCK_ROWS));
   return job.bounds.length - 1;
 }
 
-export function runTask(k: KernelExports, job: KernelJob, t: number): void {
+export function runTask(k: KernelExports, job: KernelJob, t: number, memory: WebAssembly.Memory): void {
   switch (job.op) {
+    case 'gaussian': {
+      const [out, rows, l, seed] = job.args;
+      gaussianBlock(new Float64Array(memory.buffer, out, rows * l), rows, l, seed, t, createRandom);
+      return;
+    }
     case 'spmm':
     case 'spmm_f32': {
       const [indptr, indices, values, x, l, y, grouped] = job.args;
@@ -63,13 +76,13 @@ export function runTask(k: KernelExports, job: KernelJob, t: number): void {
 }
 
 /** Claims and runs tasks until none is left; returns how many this thread ran. */
-export function drainTasks(k: KernelExports, job: KernelJob, ctrl: Int32Array): number {
+export function drainTasks(k: KernelExports, job: KernelJob, ctrl: Int32Array, memory: WebAssembly.Memory): number {
   const total = taskCount(job);
   let ran = 0;
   for (;;) {
     const t = Atomics.add(ctrl, CTRL_NEXT, 1);
     if (t >= total) return ran;
-    runTask(k, job, t);
+    runTask(k, job, t, memory);
     Atomics.add(ctrl, CTRL_COMPLETED, 1);
     ran++;
   }

@@ -15,16 +15,18 @@ const port = parentPort;
 let counter: WordCounter | undefined;
 let maxFileBytes = 1_048_576;
 let kernels: KernelExports | undefined;
+let memory: WebAssembly.Memory | undefined;
 
 port.on('message', (msg: ToWorker) => {
   if (msg.type === 'wasm-init') {
     kernels = instantiateKernels(msg.module, msg.memory);
+    memory = msg.memory;
     return;
   }
   if (msg.type === 'kernel') {
     try {
-      if (!kernels) throw new Error('kernel job before wasm-init');
-      drainTasks(kernels, msg.job, msg.ctrl);
+      if (!kernels || !memory) throw new Error('kernel job before wasm-init');
+      drainTasks(kernels, msg.job, msg.ctrl, memory);
     } catch {
       Atomics.store(msg.ctrl, CTRL_FAILED, 1);
     } finally {

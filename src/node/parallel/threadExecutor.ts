@@ -60,11 +60,17 @@ export class ThreadExecutor extends WasmExecutor {
     o.done();
   }
 
+  override gaussian(out: Float64Array, rows: number, l: number, seed: number): void {
+    const o = this.out(out);
+    this.run({ op: 'gaussian', args: [o.ptr, rows, l, seed] });
+    o.done();
+  }
+
   private run(job: KernelJob): void {
     const ctrl = new Int32Array(new SharedArrayBuffer(CTRL_WORDS * 4));
     const helpers = Math.min(this.workers.length, taskCount(job) - 1);
     for (let w = 0; w < helpers; w++) this.workers[w].postMessage({ type: 'kernel', job, ctrl });
-    drainTasks(this.kernels, job, ctrl);
+    drainTasks(this.kernels, job, ctrl, this.arena.memory);
     let seen = Atomics.load(ctrl, CTRL_COMPLETED);
     let since = Date.now();
     for (;;) {

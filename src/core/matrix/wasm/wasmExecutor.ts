@@ -4,7 +4,7 @@
  * fixed blocks, in the same order, as every other executor, so the results are the same bits as
  * serialExecutor's.
  */
-import { addInto, mirrorUpper, reductionBlocks, REDUCTION_BLOCK_ROWS, type FloatArray, type MatrixExecutor } from '../executor.js';
+import { addInto, mirrorUpper, reductionBlocks, REDUCTION_BLOCK_ROWS, serialExecutor, type FloatArray, type MatrixExecutor } from '../executor.js';
 import type { CsrMatrix } from '../sparse.js';
 import { instantiateKernels, kernelModule, WasmArena, type KernelExports } from './wasmArena.js';
 
@@ -77,6 +77,10 @@ export class WasmExecutor implements MatrixExecutor {
     const o = this.out(out);
     this.kernels.times(this.ptr(y), l, w, c, upper ? 1 : 0, o.ptr, 0, rows);
     o.done();
+  }
+
+  gaussian(out: Float64Array, rows: number, l: number, seed: number): void {
+    serialExecutor.gaussian(out, rows, l, seed);
   }
 
   /** W (l × c) in the arena from its transpose wt (c × l); returns the byte offset. */
