@@ -6,9 +6,9 @@
  *     word costs one map lookup instead of splitting, lowercasing, stop-word tests and stemming;
  *   - the cache maps a word straight to term ids of a thread-local vocabulary, and counts go to a
  *     reusable typed array instead of a Map per document;
- *   - ASCII text (most source files) is scanned by char code, and the cache is an open-addressing
- *     table probed by an FNV-1a hash of the word's char codes, so a repeated word costs no
- *     substring and no string hashing at all.
+ *   - text is scanned by char code (word characters classified once per code unit), and the cache
+ *     is an open-addressing table probed by an FNV-1a hash of the word's char codes, so a
+ *     repeated word costs no substring and no string hashing at all.
  * The thread reports new terms in id order, so the receiver can translate local ids to its own.
  * test/node/parallel/wordCounter.test.ts checks the equality with tokenize + countTerms.
  */
@@ -37,7 +37,8 @@ export class WordCounter {
   private readonly cache = new WordTable();
   private tokenIds = new Map<string, number>();
   private tally = new Int32Array(1024);
-  private readonly touched: number[] = [];
+  private touched = new Int32Array(1024);
+  private nTouched = 0;
 
   private readonly resolved: Readonly<TokenizeOptions>;
 
@@ -59,21 +60,26 @@ export class WordCounter {
   }
 
   count(text: string): LocalCounts {
-    const length = NON_ASCII.test(text) ? this.countWords(text) : this.countAscii(text);
-    const touched = this.touched;
-    const idArr = Int32Array.from(touched).sort();
-    const counts = new Int32Array(idArr.length);
-    for (let i = 0; i < idArr.length; i++) {
+    let length: number;
+    if (!NON_ASCII.test(text)) length = this.scan(text);
+    else {
+      // tokenize's normalisation; then the same scan, unless astral characters need the regex.
+      const normalised = text.normalize('NFKD').replace(MARKS, '');
+      length = SURROGATE.test(normalised) ? this.countWords(normalised) : this.scan(normalised);
+    }
+    const n = this.nTouched;
+    const idArr = this.touched.slice(0, n).sort();
+    const counts = new Int32Array(n);
+    for (let i = 0; i < n; i++) {
       counts[i] = this.tally[idArr[i]];
       this.tally[idArr[i]] = 0;
     }
-    touched.length = 0;
+    this.nTouched = 0;
     return { ids: idArr, counts, length };
   }
 
-  /** Any text: tokenize's normalisation and word pattern. */
-  private countWords(text: string): number {
-    const normalised = text.normalize('NFKD').replace(MARKS, '');
+  /** Normalised text with astral characters: tokenize's own word pattern. */
+  private countWords(normalised: string): number {
     let length = 0;
     for (const m of normalised.matchAll(WORD)) {
       const word = m[0];
@@ -85,21 +91,21 @@ export class WordCounter {
   }
 
   /**
-   * ASCII text (NFKD leaves it unchanged and it has no marks): words are runs of [A-Za-z0-9_$],
-   * found and hashed by char code, so a repeated word needs no substring at all.
+   * Normalised text without astral characters: words (runs of letters, digits, '_' and '$', as
+   * tokenize's pattern) found and hashed by char code, so a repeated word needs no substring.
    */
-  private countAscii(text: string): number {
+  private scan(text: string): number {
     let length = 0;
     const n = text.length;
     let i = 0;
     while (i < n) {
-      while (i < n && !ASCII_WORD[text.charCodeAt(i)]) i++;
+      while (i < n && !isWordChar(text.charCodeAt(i))) i++;
       if (i >= n) break;
       const start = i;
       let h = FNV_OFFSET;
       for (; i < n; i++) {
         const c = text.charCodeAt(i);
-        if (!ASCII_WORD[c]) break;
+        if (!isWordChar(c)) break;
         h = Math.imul(h ^ c, FNV_PRIME);
       }
       length += this.emit(text, start, i, h);
@@ -116,7 +122,10 @@ export class WordCounter {
     const stop = this.cache.start[entry + 1];
     for (let p = from; p < stop; p++) {
       const id = ids[p];
-      if (this.tally[id]++ === 0) this.touched.push(id);
+      if (this.tally[id]++ === 0) {
+        if (this.nTouched === this.touched.length) this.touched = grow32(this.touched, this.nTouched + 1);
+        this.touched[this.nTouched++] = id;
+      }
     }
     return stop - from;
   }
@@ -156,10 +165,19 @@ export class WordCounter {
 }
 
 const NON_ASCII = /[^\x00-\x7f]/;
-const ASCII_WORD = new Uint8Array(65536);
-for (let c = 0; c < 128; c++) {
-  const ch = String.fromCharCode(c);
-  if (/[A-Za-z0-9_$]/.test(ch)) ASCII_WORD[c] = 1;
+const SURROGATE = /[\ud800-\udfff]/;
+const WORD_CHAR = /^[\p{L}\p{N}_$]$/u;
+/** Per UTF-16 unit of the basic plane: 0 not yet known, 1 word character, 2 not. */
+const WORD_CLASS = new Uint8Array(65536);
+
+/** A letter, digit, '_' or '$' (tokenize's word characters), for a unit outside the surrogates. */
+function isWordChar(c: number): boolean {
+  let k = WORD_CLASS[c];
+  if (k === 0) {
+    k = WORD_CHAR.test(String.fromCharCode(c)) ? 1 : 2;
+    WORD_CLASS[c] = k;
+  }
+  return k === 1;
 }
 const FNV_OFFSET = 0x811c9dc5 | 0;
 const FNV_PRIME = 0x01000193;
