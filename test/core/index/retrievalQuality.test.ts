@@ -1,8 +1,10 @@
 /**
  * Retrieval quality on public test collections (../shared/corpora; provenance in their READMEs:
  * the classic SMART collections as distributed by the University of Glasgow IR group).
- * Floors: what a general-purpose reference pipeline (scikit-learn log-entropy + TruncatedSVD at
- * k=100, no stemming) scores on the same files, as quoted in the issue that asked for this check.
+ * Floors: the best of the general-purpose reference pipelines measured on the same files
+ * (scikit-learn LSI with log-entropy at k=100 or 300, and a checked BM25; no stemming), as quoted in
+ * the issues that asked for this check: CISI 0.227 and CRAN 0.324 (LSI log-entropy k=300), CACM
+ * 0.302 (BM25), ADI 0.409 (LSI log-entropy).
  * One default configuration for all four collections; every document ranked; judged queries only.
  */
 import { describe, expect, it } from 'vitest';
@@ -10,7 +12,7 @@ import { evaluateRuns } from '../../../src/core/eval/retrievalMetrics.js';
 import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 
-const FLOORS: Record<string, number> = { cisi: 0.218, cran: 0.308, cacm: 0.193, adi: 0.4 };
+const FLOORS: Record<string, number> = { cisi: 0.227, cran: 0.324, cacm: 0.302, adi: 0.409 };
 
 describe('retrieval quality with the default settings', () => {
   for (const [name, floor] of Object.entries(FLOORS)) {
