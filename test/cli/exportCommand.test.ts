@@ -9,28 +9,18 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'nod
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-import type { Io } from '../../src/cli/output.js';
 import { parseMatrixMarket } from '../../src/core/matrix/matrixMarket.js';
+import { runCli } from '../helpers/cliRunner.js';
 import { loadCollection, missingMessage } from '../helpers/shared.js';
 
 const PYTHON = '/usr/bin/python3';
 const scipyMissing = spawnSync(PYTHON, ['-c', 'import scipy.io, scipy.sparse.linalg'], { encoding: 'utf8' }).status !== 0;
 const adi = loadCollection('adi');
 
-function capture(): Io & { stdout: string[]; stderr: string[] } {
-  const stdout: string[] = [];
-  const stderr: string[] = [];
-  return { stdout, stderr, out: (l) => stdout.push(l), err: (l) => stderr.push(l), errRaw: () => undefined, interactive: false };
-}
 
 describe.skipIf(!adi)(`undertone export / import-factors ${adi ? '' : missingMessage('corpora/adi')}`, () => {
   let dir: string, folder: string, cache: string, out: string;
-  const run = async (...args: string[]) => {
-    const io = capture();
-    const code = await main([...args, '--cache-dir', cache], io);
-    return { code, out: io.stdout.join('\n'), err: io.stderr.join('\n') };
-  };
+  const run = (...args: string[]) => runCli(args, ['--cache-dir', cache]);
   const rankings = async (): Promise<Map<string, string[]>> => {
     const r = await run('ask', folder, '--queries', join(dir, 'q.jsonl'), '--json', '--top', '10');
     expect(r.code).toBe(0);

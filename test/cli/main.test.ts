@@ -6,15 +6,8 @@ import { mkdtempSync, readdirSync, rmSync, writeFileSync, mkdirSync, readFileSyn
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-import type { Io } from '../../src/cli/output.js';
+import { runCli } from '../helpers/cliRunner.js';
 import { loadCollection, missingMessage } from '../helpers/shared.js';
-
-function capture(): Io & { stdout: string[]; stderr: string[] } {
-  const stdout: string[] = [];
-  const stderr: string[] = [];
-  return { stdout, stderr, out: (l) => stdout.push(l), err: (l) => stderr.push(l), errRaw: () => undefined, interactive: false };
-}
 
 const cran = loadCollection('cran');
 
@@ -22,11 +15,7 @@ describe.skipIf(!cran)(`undertone command line ${cran ? '' : missingMessage('cor
   let dir: string;
   let folder: string;
   let cache: string;
-  const run = async (...args: string[]) => {
-    const io = capture();
-    const code = await main([...args, '--cache-dir', cache], io);
-    return { code, out: io.stdout.join('\n'), err: io.stderr.join('\n') };
-  };
+  const run = (...args: string[]) => runCli(args, ['--cache-dir', cache]);
 
   beforeAll(() => {
     dir = mkdtempSync(join(tmpdir(), 'undertone-cli-'));

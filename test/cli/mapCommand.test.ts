@@ -11,26 +11,16 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { build } from 'esbuild';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-import type { Io } from '../../src/cli/output.js';
 import { EmbeddedQueryEngine } from '../../src/core/map/embeddedQuery.js';
 import { pageDataProblems, type MapPageData } from '../../src/core/map/mapData.js';
 import { MAP_DATA_ELEMENT_ID } from '../../src/core/map/standaloneHtml.js';
 import { tokenize } from '../../src/core/text/tokenize.js';
+import { runCli } from '../helpers/cliRunner.js';
 import { loadCollection, missingMessage, REPO_ROOT } from '../helpers/shared.js';
 
-function capture(): Io & { stdout: string[]; stderr: string[] } {
-  const stdout: string[] = [];
-  const stderr: string[] = [];
-  return { stdout, stderr, out: (l) => stdout.push(l), err: (l) => stderr.push(l), errRaw: () => undefined, interactive: false };
-}
 
 let dir: string;
-const run = async (...args: string[]) => {
-  const io = capture();
-  const code = await main([...args, '--cache-dir', join(dir, 'cache'), '--quiet'], io);
-  return { code, out: io.stdout.join('\n'), err: io.stderr.join('\n') };
-};
+const run = (...args: string[]) => runCli(args, ['--cache-dir', join(dir, 'cache'), '--quiet']);
 
 /** The page data embedded in a written map file. */
 function readMapData(html: string): MapPageData {

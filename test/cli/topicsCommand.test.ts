@@ -8,22 +8,12 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-import type { Io } from '../../src/cli/output.js';
+import { runCli } from '../helpers/cliRunner.js';
 import { loadCollection, missingMessage, REPO_ROOT } from '../helpers/shared.js';
 
-function capture(): Io & { stdout: string[]; stderr: string[] } {
-  const stdout: string[] = [];
-  const stderr: string[] = [];
-  return { stdout, stderr, out: (l) => stdout.push(l), err: (l) => stderr.push(l), errRaw: () => undefined, interactive: false };
-}
 
 let dir: string;
-const run = async (...args: string[]) => {
-  const io = capture();
-  const code = await main([...args, '--cache-dir', join(dir, 'cache'), '--quiet'], io);
-  return { code, out: io.stdout.join('\n'), err: io.stderr.join('\n') };
-};
+const run = (...args: string[]) => runCli(args, ['--cache-dir', join(dir, 'cache'), '--quiet']);
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'undertone-topics-cli-'));
 });
