@@ -8,10 +8,25 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:f
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { describe, it } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 
 export const CHROMIUM = '/usr/bin/chromium';
 export const HAVE_CHROMIUM = existsSync(CHROMIUM);
+
+/**
+ * `describe` when Chromium is installed; otherwise a skipped suite whose title names what is
+ * missing, so the run says why these checks did not happen.
+ */
+export function browserSuite(what: string): typeof describe | typeof describe.skip {
+  if (!HAVE_CHROMIUM) {
+    describe(`${what} (skipped: ${CHROMIUM} is missing; install Debian's chromium package)`, () => {
+      it.skip(`needs ${CHROMIUM}`, () => undefined);
+    });
+    return describe.skip;
+  }
+  return describe;
+}
 export const REPO = fileURLToPath(new URL('../..', import.meta.url));
 export const OUTPUT = path.join(REPO, 'test-output/browser');
 

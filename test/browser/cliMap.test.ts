@@ -10,10 +10,10 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.js';
 import type { Io } from '../../src/cli/output.js';
-import { builtPage, CHROMIUM, HAVE_CHROMIUM, inkShare, launch, outputDir, record, REPO, type Session } from './browserHarness.js';
+import { builtPage, inkShare, launch, outputDir, record, REPO, type Session, browserSuite } from './browserHarness.js';
 
 const demoRoot = path.join(REPO, 'demo', 'workspace');
 const key = JSON.parse(readFileSync(path.join(REPO, 'demo', 'expectations.json'), 'utf8')) as {
@@ -21,12 +21,7 @@ const key = JSON.parse(readFileSync(path.join(REPO, 'demo', 'expectations.json')
   queries: { text: string; expectTop3: string[] }[];
 };
 
-const suite = HAVE_CHROMIUM ? describe : describe.skip;
-if (!HAVE_CHROMIUM) {
-  describe(`command-line map in a browser (skipped: ${CHROMIUM} is missing; install Debian's chromium package)`, () => {
-    it.skip(`needs ${CHROMIUM}`, () => undefined);
-  });
-}
+const suite = browserSuite('command-line map in a browser');
 
 suite('the demo map written by the command line, in Chromium', () => {
   let work: string;

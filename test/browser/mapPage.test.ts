@@ -9,21 +9,16 @@
 import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { buildStandaloneHtml } from '../../src/core/map/standaloneHtml.js';
 import { buildMapWebviewHtml } from '../../src/core/map/mapHtml.js';
 import { placeQueryFaithful } from '../../src/core/map/placeQuery.js';
 import { projectQuick } from '../../src/core/map/quickProjection.js';
-import { builtPage, CHROMIUM, findDot, HAVE_CHROMIUM, inkShare, launch, outputDir, record, type Session } from './browserHarness.js';
+import { builtPage, findDot, inkShare, launch, outputDir, record, type Session, browserSuite } from './browserHarness.js';
 import { buildMapFixture, type MapFixture } from './mapFixture.js';
 
-const suite = HAVE_CHROMIUM ? describe : describe.skip;
-if (!HAVE_CHROMIUM) {
-  describe(`map page browser tests (skipped: ${CHROMIUM} is missing; install Debian's chromium package)`, () => {
-    it.skip(`needs ${CHROMIUM}`, () => undefined);
-  });
-}
+const suite = browserSuite('map page browser tests');
 
 suite('standalone map file in Chromium', () => {
   let session: Session;
