@@ -214,6 +214,27 @@ export class Workbench {
       .contentFrame().frameLocator(SELECTORS.webviewContent);
   }
 
+  /**
+   * A few lines on what the window shows (open tabs, the quick input, notifications, a dialog), for
+   * failure messages: a CI log has no screenshots.
+   */
+  async describe(): Promise<string> {
+    const page = this.page;
+    const tabs = await page.locator('.tabs-container .tab').evaluateAll((els) =>
+      els.map((e) => `${e.getAttribute('data-resource-name') ?? e.textContent}${e.classList.contains('active') ? ' (active)' : ''}`));
+    const lines = [`tabs: ${tabs.join(', ') || 'none'}`];
+    if (await page.locator(SELECTORS.quickInput).isVisible()) {
+      const value = await page.locator(SELECTORS.quickInputBox).inputValue().catch(() => '?');
+      const rows = (await this.quickInput.rows()).slice(0, 6).map((r) => `${r.label} [${r.description}]`);
+      lines.push(`quick input "${value}": ${rows.join(' | ') || 'no rows'}`);
+    }
+    const toasts = await page.locator(SELECTORS.notification).filter({ visible: true }).allTextContents();
+    if (toasts.length) lines.push(`notifications: ${toasts.join(' | ')}`);
+    const dialog = page.locator('.monaco-dialog-box').filter({ visible: true });
+    if (await dialog.count()) lines.push(`dialog: ${await dialog.first().textContent()}`);
+    return lines.join('\n');
+  }
+
   /** Saves a full-window PNG as <outputDir>/<name>.png and returns its path. */
   async screenshot(name: string): Promise<string> {
     mkdirSync(this.outputDir, { recursive: true });

@@ -78,24 +78,32 @@ describe('Undertone in a real editor', () => {
   };
 
   /**
-   * Quick open (Ctrl+P) by path, clicking the row with the file's name and folder, then checking
-   * that its tab is the active one. The list re-sorts while file results arrive, so a click can
-   * land on a neighbouring row; then the person simply tries again.
+   * Quick open (Ctrl+P) by path: once the focused (first) row is the file, with its folder as
+   * description, Enter opens it; then its tab must be the active one (matched by the tab's resource
+   * name, which a badge or a description beside the label cannot change). The list re-sorts while
+   * file results arrive, so a person who sees the wrong file first simply tries again.
    */
   const openFile = async (relPath: string): Promise<void> => {
     const dir = path.posix.dirname(relPath);
-    const name = base(relPath).replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
-    const tab = editor!.page.locator('.tabs-container .tab.active').filter({ hasText: new RegExp(`^\\s*${name}(\\s|$)`) });
-    await waitFor(async () => {
-      await editor!.page.keyboard.press('Control+P');
-      await editor!.quickInput.type(relPath);
-      const row = editor!.quickInput.row(base(relPath), dir === '.' ? undefined : dir);
-      await row.waitFor({ state: 'visible', timeout: 30_000 });
-      await row.click();
-      const opened = await tab.waitFor({ state: 'visible', timeout: 5_000 }).then(() => true, () => false);
-      if (!opened && (await editor!.quickInput.widget.isVisible())) await editor!.page.keyboard.press('Escape');
-      return opened;
-    }, 60_000, `${relPath} to open`);
+    const tab = editor!.page.locator(`.tabs-container .tab.active[data-resource-name="${base(relPath)}"]`);
+    const focused = editor!.quickInput.row(base(relPath), dir === '.' ? undefined : dir).and(editor!.page.locator('.monaco-list-row.focused'));
+    try {
+      await waitFor(async () => {
+        if (await tab.isVisible()) return true;
+        if (!(await editor!.quickInput.widget.isVisible())) {
+          await editor!.page.keyboard.press('Control+P');
+          await editor!.quickInput.type(relPath);
+        }
+        if (!(await focused.waitFor({ state: 'visible', timeout: 10_000 }).then(() => true, () => false))) {
+          await editor!.page.keyboard.press('Escape');
+          return false;
+        }
+        await editor!.page.keyboard.press('Enter');
+        return tab.waitFor({ state: 'visible', timeout: 5_000 }).then(() => true, () => false);
+      }, 60_000, `${relPath} to open`);
+    } catch (error) {
+      throw new Error(`${(error as Error).message}\n${await editor!.describe()}`);
+    }
   };
 
   const showUndertone = async (): Promise<void> => {
@@ -120,6 +128,7 @@ describe('Undertone in a real editor', () => {
   });
 
   afterEach(async (ctx) => {
+    if (ctx.task.result?.state === 'fail') console.log(`after "${ctx.task.name}":\n${await editor?.describe().catch((e: Error) => e.message)}`);
     if (ctx.task.result?.state === 'fail') await editor?.screenshot(`extension-failed-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`).catch(() => undefined);
   });
 
