@@ -8,6 +8,7 @@
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
 import { Bm25Scorer } from './bm25.js';
+import { ConceptRows } from './conceptRows.js';
 import { projectTerms, type ConceptModel } from './conceptModel.js';
 import type { IndexSettings } from './settings.js';
 import { countTerms, type DocTerms, type Vocabulary } from './termCounts.js';
@@ -70,7 +71,7 @@ export interface StalenessCounters {
 
 export class LsiIndex {
   private _slots: (DocSlot | null)[];
-  private _vectors: Float32Array;
+  private readonly _rows: ConceptRows;
   private readonly _slotOf = new Map<string, number>();
   private _bm25: Bm25Scorer | null = null;
   private _removedSinceBuild = 0;
@@ -82,23 +83,20 @@ export class LsiIndex {
     readonly vocab: Vocabulary,
     readonly model: ConceptModel,
     slots: (DocSlot | null)[],
-    vectors: Float32Array,
+    rows: ConceptRows,
   ) {
     this._slots = slots;
-    this._vectors = vectors;
+    this._rows = rows;
     slots.forEach((s, i) => s && this._slotOf.set(s.meta.path, i));
   }
 
   /** Builds the document vectors of a fresh model (used by IndexBuilder and by loading). */
   static assemble(settings: IndexSettings, vocab: Vocabulary, model: ConceptModel, slots: (DocSlot | null)[], vectors?: Float32Array): LsiIndex {
     const k = model.k;
-    let vec = vectors;
-    if (!vec) {
-      vec = new Float32Array(slots.length * k);
-      slots.forEach((s, i) => s && vec!.set(projectTerms(model, s.terms).vector, i * k));
-    }
-    if (vec.length < slots.length * k) throw new InvalidInputError('concept vectors do not cover every document');
-    return new LsiIndex(settings, vocab, model, slots, vec);
+    if (vectors && vectors.length < slots.length * k) throw new InvalidInputError('concept vectors do not cover every document');
+    const rows = new ConceptRows(k, slots.length, vectors?.subarray(0, slots.length * k));
+    if (!vectors) slots.forEach((s, i) => s && rows.setRow(i, projectTerms(model, s.terms).vector));
+    return new LsiIndex(settings, vocab, model, slots, rows);
   }
 
   get k(): number {
@@ -132,7 +130,7 @@ export class LsiIndex {
   /** The unit concept vector of a document (a view; do not modify). */
   vectorOf(path: string): Float32Array {
     const s = this.slot(path);
-    return this._vectors.subarray(s * this.k, (s + 1) * this.k);
+    return this._rows.rows.subarray(s * this.k, (s + 1) * this.k);
   }
 
   /** Internal slots, including null holes left by removals (for persistence and bulk views). */
@@ -142,7 +140,7 @@ export class LsiIndex {
 
   /** All slots' concept vectors, slots.length × k (holes are zero rows). */
   vectors(): Float32Array {
-    return this._vectors.subarray(0, this._slots.length * this.k);
+    return this._rows.rows.subarray(0, this._slots.length * this.k);
   }
 
   /** Counts a query's terms against the vocabulary without growing it. */
@@ -162,7 +160,7 @@ export class LsiIndex {
     if (q.termIds.length === 0) throw new NoKnownTermsError(text);
     const proj = projectTerms(this.model, q);
     const n = this._slots.length;
-    const concept = this.cosines(proj.vector);
+    const concept = this.liveDots(proj.vector);
     const lexical = new Float64Array(n);
     const lambda = this.settings.lexicalBlend;
     if (lambda > 0) {
@@ -175,7 +173,7 @@ export class LsiIndex {
     const conceptWeight = proj.knownTerms > 0 ? 1 - lambda : 0;
     for (let j = 0; j < n; j++) blended[j] = conceptWeight * concept[j] + lambda * lexical[j];
     const filter = options.filter;
-    return topN(blended, top, (j) => this._slots[j] !== null && (!filter || filter(this._slots[j]!.meta.path))).map(({ slot, score }) => ({
+    return topN(blended, top, this.acceptor(filter)).map(({ slot, score }) => ({
       path: this._slots[slot]!.meta.path,
       score,
       conceptScore: concept[slot],
@@ -186,29 +184,28 @@ export class LsiIndex {
   /** The files nearest in meaning to a file (cosine of concept vectors), itself excluded. */
   nearby(path: string, options: Partial<SearchOptions> = {}): NearbyHit[] {
     const self = this.slot(path);
-    const scores = this.cosines(this._vectors.subarray(self * this.k, (self + 1) * this.k));
-    const filter = options.filter;
-    return topN(scores, options.top ?? 10, (j) => j !== self && this._slots[j] !== null && (!filter || filter(this._slots[j]!.meta.path))).map(
-      ({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score }),
-    );
+    const scores = this.liveDots(this.vectorOf(path));
+    const accept = this.acceptor(options.filter);
+    return topN(scores, options.top ?? 10, (j) => j !== self && accept(j)).map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score }));
   }
 
   /** Cosine of a unit concept vector with every slot (holes score −Infinity). */
   cosines(vector: Float32Array): Float64Array {
-    const k = this.k;
-    const out = new Float64Array(this._slots.length);
-    const v = this._vectors;
-    for (let j = 0; j < this._slots.length; j++) {
-      if (!this._slots[j]) {
-        out[j] = Number.NEGATIVE_INFINITY;
-        continue;
-      }
-      let dot = 0;
-      const o = j * k;
-      for (let c = 0; c < k; c++) dot += vector[c] * v[o + c];
-      out[j] = dot;
-    }
+    return this.liveDots(vector).slice();
+  }
+
+  /** Dot products with every slot, holes −Infinity: a view overwritten by the next call. */
+  private liveDots(vector: Float32Array): Float64Array {
+    const out = this._rows.dots(vector, this._slots.length);
+    const slots = this._slots;
+    for (let j = 0; j < slots.length; j++) if (slots[j] === null) out[j] = Number.NEGATIVE_INFINITY;
     return out;
+  }
+
+  /** Whether a slot may be ranked: occupied, and its path passes the filter. */
+  private acceptor(filter: ((path: string) => boolean) | undefined): (slot: number) => boolean {
+    const slots = this._slots;
+    return filter ? (j) => slots[j] !== null && filter(slots[j]!.meta.path) : (j) => slots[j] !== null;
   }
 
   /**
@@ -229,12 +226,12 @@ export class LsiIndex {
     if (s === undefined) {
       s = this._slots.length;
       this._slots.push(null);
-      this.ensureCapacity(this._slots.length);
+      this._rows.ensureCapacity(this._slots.length);
       this._slotOf.set(meta.path, s);
     }
     this._slots[s] = { meta, terms, folded: true, residual: proj.residual };
-    this._vectors.set(proj.vector, s * this.k);
-    this._bm25 = null;
+    this._rows.setRow(s, proj.vector);
+    this._bm25?.setDocument(s, terms);
     return terms;
   }
 
@@ -244,10 +241,10 @@ export class LsiIndex {
     if (s === undefined) return false;
     const wasFolded = this._slots[s]!.folded;
     this._slots[s] = null;
-    this._vectors.fill(0, s * this.k, (s + 1) * this.k);
+    this._rows.clearRow(s);
     this._slotOf.delete(path);
     if (!wasFolded) this._removedSinceBuild++;
-    this._bm25 = null;
+    this._bm25?.setDocument(s, null);
     return true;
   }
 
@@ -279,7 +276,7 @@ export class LsiIndex {
     this._foldedUnknownTokens = c.foldedUnknownTokens;
   }
 
-  /** The lexical scorer over all current documents (rebuilt lazily after changes). */
+  /** The lexical scorer over all current documents (built on first use, then kept up to date). */
   bm25(): Bm25Scorer {
     if (!this._bm25) this._bm25 = new Bm25Scorer(this._slots.map((s) => s?.terms ?? null), this.vocab.size);
     return this._bm25;
@@ -289,13 +286,5 @@ export class LsiIndex {
     const s = this._slotOf.get(path);
     if (s === undefined) throw new NotIndexedError(path);
     return s;
-  }
-
-  private ensureCapacity(slots: number): void {
-    const need = slots * this.k;
-    if (need <= this._vectors.length) return;
-    const grown = new Float32Array(Math.max(need, Math.ceil(this._vectors.length * 1.5)));
-    grown.set(this._vectors);
-    this._vectors = grown;
   }
 }

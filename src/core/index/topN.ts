@@ -30,15 +30,21 @@ export function topN(scores: Float64Array | Float32Array, n: number, accept: (sl
       i = p;
     }
   };
+  // Once the heap is full, a slot is offered to accept only if it would enter: slots are visited
+  // in ascending order, so a later slot enters only with a strictly higher score than the root.
+  let bar = Number.NEGATIVE_INFINITY;
   for (let s = 0; s < scores.length; s++) {
-    if (!accept(s) || Number.isNaN(scores[s])) continue;
+    const v = scores[s];
+    if (v <= bar && heapSlots.length === n) continue;
+    if (Number.isNaN(v) || !accept(s)) continue;
     if (heapSlots.length < n) {
       heapSlots.push(s);
       siftUp(heapSlots.length - 1);
-    } else if (worse(heapSlots[0], s)) {
+    } else {
       heapSlots[0] = s;
       siftDown(0);
     }
+    if (heapSlots.length === n) bar = scores[heapSlots[0]];
   }
   return heapSlots
     .sort((a, b) => (worse(a, b) ? 1 : worse(b, a) ? -1 : 0))
