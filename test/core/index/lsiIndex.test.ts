@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { NoKnownTermsError, NotIndexedError } from '../../../src/core/errors.js';
+import { projectTerms } from '../../../src/core/index/conceptModel.js';
 import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
+import type { DocTerms } from '../../../src/core/index/termCounts.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 
 // Real text: CRAN (../shared/corpora/cran, 1400 aerodynamics abstracts).
@@ -18,7 +21,8 @@ describe.skipIf(!cran)(`LsiIndex ${cran ? '' : missingMessage('corpora/cran')}`,
     const a = build();
     const b = build([...docs].reverse());
     expect(b.paths()).toEqual(a.paths());
-    expect(Buffer.from(b.vectors().buffer).equals(Buffer.from(a.vectors().buffer))).toBe(true);
+    const bytes = (v: Float32Array): Buffer => Buffer.from(v.buffer, v.byteOffset, v.byteLength);
+    expect(bytes(b.vectors()).equals(bytes(a.vectors()))).toBe(true);
   });
 
   it('folds an unchanged document back to the vector it had at build time', () => {
@@ -59,6 +63,91 @@ describe.skipIf(!cran)(`LsiIndex ${cran ? '' : missingMessage('corpora/cran')}`,
     expect(s.changedFiles).toBe(1);
     expect(s.changedShare).toBeCloseTo(1 / 401, 6);
     expect(s.newTermMass).toBeGreaterThan(0.3);
+  });
+});
+
+/**
+ * Reference ranking, computed the plain way: cosine as a left-to-right sum over the stored unit
+ * vectors; BM25 term by term from the raw counts (Robertson & Zaragoza 2009, eq. 3.15, idf
+ * ln(1 + (N − df + 0.5)/(df + 0.5)), k1 = 1.2, b = 0.75); blended (1 − λ)·cosine + λ·BM25/max;
+ * every occupied slot sorted by score, ties by slot.
+ */
+function plainSearch(index: LsiIndex, text: string, top: number): { path: string; score: number }[] {
+  const slots = index.slots();
+  const q = index.queryTerms(text);
+  const proj = projectTerms(index.model, q);
+  const present = slots.filter((s) => s !== null).map((s) => s.terms);
+  const avg = present.reduce((a, d) => a + d.length, 0) / present.length;
+  const tfOf = (d: DocTerms, t: number): number => {
+    const i = d.termIds.indexOf(t);
+    return i < 0 ? 0 : d.counts[i];
+  };
+  const df = Array.from(q.termIds, (t) => present.filter((d) => tfOf(d, t) > 0).length);
+  const bm25 = slots.map((s) => {
+    if (!s) return 0;
+    let score = 0;
+    q.termIds.forEach((t, i) => {
+      const tf = tfOf(s.terms, t);
+      if (tf === 0) return;
+      const idf = Math.log(1 + (present.length - df[i] + 0.5) / (df[i] + 0.5));
+      score += (q.counts[i] * idf * tf * 2.2) / (tf + 1.2 * (0.25 + (0.75 * s.terms.length) / avg));
+    });
+    return score;
+  });
+  const max = Math.max(...bm25);
+  const lambda = index.settings.lexicalBlend;
+  const ranked: { path: string; score: number; slot: number }[] = [];
+  slots.forEach((s, j) => {
+    if (!s) return;
+    const v = index.vectorOf(s.meta.path);
+    let cos = 0;
+    for (let c = 0; c < index.k; c++) cos += proj.vector[c] * v[c];
+    ranked.push({ path: s.meta.path, slot: j, score: (proj.knownTerms > 0 ? 1 - lambda : 0) * cos + lambda * (max > 0 ? bm25[j] / max : 0) });
+  });
+  return ranked.sort((a, b) => b.score - a.score || a.slot - b.slot).slice(0, top);
+}
+
+function plainNearby(index: LsiIndex, path: string, top: number): { path: string; score: number }[] {
+  const self = index.vectorOf(path);
+  const ranked: { path: string; score: number; slot: number }[] = [];
+  index.slots().forEach((s, j) => {
+    if (!s || s.meta.path === path) return;
+    const v = index.vectorOf(s.meta.path);
+    let cos = 0;
+    for (let c = 0; c < index.k; c++) cos += self[c] * v[c];
+    ranked.push({ path: s.meta.path, slot: j, score: cos });
+  });
+  return ranked.sort((a, b) => b.score - a.score || a.slot - b.slot).slice(0, top);
+}
+
+describe.skipIf(!cran)(`LsiIndex ranking against the plain formula ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+  it('ranks search and nearby hits exactly as the plain computation, before and after fold-ins and removals', () => {
+    const b = new IndexBuilder();
+    for (const d of cran!.docs.slice(0, 500)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    const index = b.build();
+    const compare = (): void => {
+      for (const q of cran!.queries.slice(0, 15)) {
+        const got = index.search(q.text, { top: 15 });
+        const ref = plainSearch(index, q.text, 15);
+        expect(got.map((h) => h.path)).toEqual(ref.map((h) => h.path));
+        got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
+      }
+      for (const p of index.paths().filter((_, i) => i % 50 === 7)) {
+        const got = index.nearby(p, { top: 15 });
+        const ref = plainNearby(index, p, 15);
+        expect(got.map((h) => h.path)).toEqual(ref.map((h) => h.path));
+        got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
+      }
+    };
+    compare();
+    // Replace two documents, add three (one with words the model has never seen), remove two.
+    index.foldIn({ path: cran!.docs[3].id, size: 1, mtimeMs: 1 }, cran!.docs[900].text);
+    index.foldIn({ path: cran!.docs[4].id, size: 1, mtimeMs: 1 }, `${cran!.docs[4].text} shock wave boundary layer`);
+    for (let i = 0; i < 3; i++) index.foldIn({ path: `new${i}`, size: 1, mtimeMs: 1 }, `${cran!.docs[950 + i].text} quuxified frobnicator`);
+    index.remove(cran!.docs[10].id);
+    index.remove('new1');
+    compare();
+    expect(index.search('quuxified frobnicator', { top: 2 }).map((h) => h.path).sort()).toEqual(['new0', 'new2']);
   });
 });
 
