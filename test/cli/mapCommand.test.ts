@@ -131,7 +131,7 @@ describe.skipIf(!hasDemo)(`map of the demo ${hasDemo ? '' : '(skipped: demo/work
     expect(data.topicLabels.length).toBeGreaterThanOrEqual(2);
     const inFiles = new Set(data.topicLabels.flatMap((l) => l.split(', ')));
     // Readable words, not stems: demo stems such as "timet" would not be words of the files.
-    const demoText = key!.topics.flatMap((t) => t.files).map((f) => readFileSync(join(demoRoot, f), 'utf8').toLowerCase()).join(' ');
+    const demoText = data.files.paths.map((f) => readFileSync(join(demoRoot, f), 'utf8').toLowerCase()).join(' ');
     for (const w of inFiles) expect(demoText).toContain(w);
   });
 

@@ -14,7 +14,7 @@ export interface IndexSettings {
   k: number | 'auto';
   /** @default DEFAULT_SEED */
   seed: number;
-  /** Power iterations of the randomized SVD. @default 4 */
+  /** Power iterations of the randomized SVD. @default 5 */
   powerIterations: number;
   prune: PruneOptions;
   tokenize: TokenizeOptions;
@@ -34,7 +34,7 @@ export const DEFAULT_INDEX_SETTINGS: Readonly<IndexSettings> = Object.freeze({
   weighting: 'log-entropy',
   k: 'auto',
   seed: DEFAULT_SEED,
-  powerIterations: 4,
+  powerIterations: 5,
   prune: DEFAULT_PRUNE_OPTIONS,
   tokenize: DEFAULT_TOKENIZE_OPTIONS,
   conceptScaling: 1,

@@ -108,9 +108,10 @@ describe.skipIf(!adi)(`map source from an index ${adi ? '' : missingMessage('cor
     expect(Array.from(s.singularValues)).toEqual(Array.from(ref.index.model.singularValues));
     expect(s.singularValues.length).toBeGreaterThanOrEqual(s.k);
     for (let c = 0; c < s.k; c++) {
-      // The index's randomized SVD (4 power iterations) is a little low: measured on ADI within
-      // 0.05% for the leading three values and at most 1.3% for the trailing ones (k = 27).
-      expect(s.singularValues[c]).toBeLessThanOrEqual(exact[c] * (1 + 1e-9));
+      // The index's randomized SVD is never above the exact value (Rayleigh–Ritz values are lower
+      // bounds; 1e-6 allows for the matrix entries stored as f32) and a little low: measured on
+      // ADI within 0.05% for the leading three values and at most 1.3% for the trailing ones (k = 27).
+      expect(s.singularValues[c]).toBeLessThanOrEqual(exact[c] * (1 + 1e-6));
       expect(s.singularValues[c]).toBeGreaterThan(exact[c] * (c < 3 ? 1 - 1e-3 : 1 - 2e-2));
     }
     const nonEmpty = ref.tf.filter((m) => m.size > 0).length;

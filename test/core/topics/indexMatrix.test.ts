@@ -42,7 +42,7 @@ describe.skipIf(!adi)(`index matrix and leading factors ${adi ? '' : missingMess
     for (let i = 0; i < im.matrix.rows; i++) for (let p = im.matrix.indptr[i]; p < im.matrix.indptr[i + 1]; p++) dense.set(i, im.matrix.indices[p], im.matrix.values[p]);
     const exact = new SingularValueDecomposition(dense.transpose()); // Mᵀ = V Σ Uᵀ: its left vectors are M's term side
     for (let c = 0; c < k; c++) {
-      // The model's randomized SVD (4 power iterations) is a little low (about 0.1% here); the
+      // The model's randomized SVD (5 power iterations) is a little low (about 0.1% here); the
       // project holds its leading singular values to 1% of exact (the accuracy target of the SVD).
       expect(f.s[c]).toBeLessThanOrEqual(exact.diagonal[c] * (1 + 1e-9));
       expect(f.s[c]).toBeGreaterThan(exact.diagonal[c] * (1 - 1e-2));
