@@ -8,7 +8,9 @@
  * memory and the products run in the SIMD kernel of ../matrix/wasm/dotKernel.ts; elsewhere
  * dotRows below runs the same operations in the same order, so both give the same bits.
  * Memory layout: [16 bytes unused][query, k f64][rows, capacity × k f32][scores, capacity f64].
- * A shared memory never detaches earlier views when it grows, so views handed out stay valid.
+ * A shared memory never detaches earlier views when it grows, so views handed out stay valid. Its
+ * maximum is reserved as twice the first size; growing past it moves the rows to a new memory
+ * (earlier views then keep the old numbers, as a copied plain array would).
  */
 import { dotModule, instantiateDots, type DotKernelExports } from '../matrix/wasm/dotKernel.js';
 
@@ -49,6 +51,18 @@ export function dotRows(rows: Float32Array, k: number, n: number, q: ArrayLike<n
 interface WasmStore {
   readonly memory: WebAssembly.Memory;
   readonly kernel: DotKernelExports;
+  readonly maxBytes: number;
+}
+
+/** A shared memory for at least bytes, with room reserved to double; null if refused. */
+function wasmStore(module: WebAssembly.Module, bytes: number): WasmStore | null {
+  const maxBytes = Math.min(WASM_LIMIT, Math.max(2 * bytes, 16 * PAGE));
+  try {
+    const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / PAGE), maximum: maxBytes / PAGE, shared: true });
+    return { memory, kernel: instantiateDots(module, memory), maxBytes };
+  } catch {
+    return null;
+  }
 }
 
 export class ConceptRows {
@@ -56,7 +70,8 @@ export class ConceptRows {
   private _rows: Float32Array;
   private _scores: Float64Array;
   private _query: Float64Array;
-  private readonly _wasm: WasmStore | null;
+  private _wasm: WasmStore | null;
+  private readonly _module: WebAssembly.Module | null;
 
   /** capacity slots, filled from initial (row-major, capacity × k or fewer numbers) when given. */
   constructor(
@@ -66,17 +81,9 @@ export class ConceptRows {
     options: Partial<ConceptRowsOptions> = {},
   ) {
     const { wasm } = { ...DEFAULT_CONCEPT_ROWS_OPTIONS, ...options };
-    const module = wasm && k > 0 ? dotModule() : null;
-    let store: WasmStore | null = null;
-    if (module && ConceptRows.bytesFor(k, capacity) <= WASM_LIMIT) {
-      try {
-        const memory = new WebAssembly.Memory({ initial: 1, maximum: WASM_LIMIT / PAGE, shared: true });
-        store = { memory, kernel: instantiateDots(module, memory) };
-      } catch {
-        store = null;
-      }
-    }
-    this._wasm = store;
+    const bytes = ConceptRows.bytesFor(k, capacity);
+    this._module = wasm && k > 0 && bytes <= WASM_LIMIT ? dotModule() : null;
+    this._wasm = this._module ? wasmStore(this._module, bytes) : null;
     this._rows = new Float32Array(0);
     this._scores = new Float64Array(0);
     this._query = new Float64Array(k);
@@ -141,9 +148,16 @@ export class ConceptRows {
       this._capacity = capacity;
       return;
     }
-    const memory = this._wasm.memory;
     const need = ConceptRows.bytesFor(k, capacity);
     if (need > WASM_LIMIT) throw new RangeError(`concept vectors of ${capacity} documents do not fit one WebAssembly memory`);
+    const old = this._capacity;
+    if (need > this._wasm.maxBytes) {
+      const moved = wasmStore(this._module!, need);
+      if (!moved) throw new RangeError(`no memory for the concept vectors of ${capacity} documents`);
+      new Float32Array(moved.memory.buffer, align16(16 + k * 8), old * k).set(this._rows.subarray(0, old * k));
+      this._wasm = moved;
+    }
+    const memory = this._wasm.memory;
     const have = memory.buffer.byteLength;
     if (need > have) memory.grow(Math.ceil((need - have) / PAGE));
     const buffer = memory.buffer;
@@ -152,7 +166,6 @@ export class ConceptRows {
     const scoresAt = align16(rowsAt + capacity * k * 4);
     this._query = new Float64Array(buffer, queryAt, k);
     // Rows keep their place; the score scratch moves up past them (and is cleared where it was).
-    const old = this._capacity;
     this._rows = new Float32Array(buffer, rowsAt, capacity * k);
     if (old > 0) this._rows.fill(0, old * k);
     this._scores = new Float64Array(buffer, scoresAt, capacity);

@@ -61,6 +61,21 @@ describe('ConceptRows', () => {
     expect(store.dots(q, 400)[399]).toBe(0);
   });
 
+  it('moves to a larger memory past the reserved maximum, keeping rows and scores', () => {
+    const k = 200;
+    const { rows, q } = randomRows(10, k, 9);
+    const store = new ConceptRows(k, 10, rows);
+    const view = store.rows.subarray(0, 10 * k);
+    store.ensureCapacity(5000); // 4 MB of rows, past the 1 MB reserved for a small block
+    expect(Array.from(store.rows.subarray(0, 10 * k))).toEqual(Array.from(rows));
+    expect(Array.from(view)).toEqual(Array.from(rows));
+    store.setRow(4999, q);
+    const d = store.dots(q, 5000);
+    const ref = plainDots(store.rows, k, 5000, q);
+    for (const j of [0, 9, 10, 4998, 4999]) expect(d[j]).toBeCloseTo(ref[j], 12);
+    expect(store.usesWasm).toBe(true);
+  });
+
   it('exports the same loop as a function over any block', () => {
     const { rows, q } = randomRows(20, 16, 5);
     const out = new Float64Array(20);
