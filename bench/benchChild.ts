@@ -28,6 +28,9 @@ export interface ChildResult {
   /** scan + tokenize + matrix + svd (the build, without saving). */
   readonly buildSeconds: number;
   readonly totalSeconds: number;
+  /** Peak RSS when the build (scan, read, tokenize, matrix, SVD, save) ends: what the reference measures. */
+  readonly buildPeakRssBytes: number;
+  /** Peak RSS at the end, after the reopen (a second copy of the index) and the queries. */
   readonly peakRssBytes: number;
   /** CPU seconds (user + system, all threads) of the build, save included. */
   readonly cpuSeconds: number;
@@ -76,6 +79,7 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
   const cpu0 = process.cpuUsage();
   const report = await indexFolder(folder, { indexFile, force: true, settings: { k }, scan: { honourGitignore } });
   const cpu = process.cpuUsage(cpu0);
+  const buildPeakRssBytes = process.resourceUsage().maxRSS * 1024;
   const s = report.seconds;
   const stages = { scan: s.scan, tokenize: s.read, matrix: s.matrix, svd: s.svd, save: s.save };
   // Reopen from disk (a fresh load, as a new editor session or CLI call does).
@@ -121,6 +125,7 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
     stages,
     buildSeconds: stages.scan + stages.tokenize + stages.matrix + stages.svd,
     totalSeconds: report.totalSeconds,
+    buildPeakRssBytes,
     peakRssBytes,
     cpuSeconds: (cpu.user + cpu.system) / 1e6,
     reopenSeconds,

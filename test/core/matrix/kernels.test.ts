@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { crossRows, spmmRows, timesSmallRows } from '../../../src/core/matrix/kernels.js';
+import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, timesSmallRows } from '../../../src/core/matrix/kernels.js';
 import { createRandom } from '../../../src/core/random.js';
 
 // Reference: brute-force dense arithmetic (plain triple loops), independent of the kernels' tiling.
@@ -85,5 +85,40 @@ describe('row-range kernels', () => {
         close(out, want);
       }
     }
+  });
+});
+
+describe('gaussianBlock', () => {
+  // Φ by Abramowitz & Stegun 7.1.26 (|error| ≤ 1.5e-7), the reference distribution.
+  const phi = (x: number): number => {
+    const z = Math.abs(x) / Math.SQRT2;
+    const t = 1 / (1 + 0.3275911 * z);
+    const erf = 1 - (((((1.061405429 * t - 1.453152027) * t) + 1.421413741) * t - 0.284496736) * t + 0.254829592) * t * Math.exp(-z * z);
+    return x >= 0 ? 0.5 * (1 + erf) : 0.5 * (1 - erf);
+  };
+
+  it('draws standard normal numbers: Kolmogorov–Smirnov distance below the 1% critical value 1.63/√n', () => {
+    const rows = 3 * GAUSSIAN_BLOCK_ROWS + 17;
+    const l = 7;
+    const out = new Float64Array(rows * l);
+    for (let b = 0; b * GAUSSIAN_BLOCK_ROWS < rows; b++) gaussianBlock(out, rows, l, 42, b, createRandom);
+    const n = out.length;
+    const sorted = Float64Array.from(out).sort();
+    let d = 0;
+    for (let i = 0; i < n; i++) d = Math.max(d, Math.abs(phi(sorted[i]) - i / n), Math.abs(phi(sorted[i]) - (i + 1) / n));
+    expect(d).toBeLessThan(1.63 / Math.sqrt(n));
+    let mean = 0;
+    for (const x of out) mean += x / n;
+    expect(Math.abs(mean)).toBeLessThan(4 / Math.sqrt(n));
+  });
+
+  it('gives each block the same numbers whatever order the blocks are drawn in', () => {
+    const rows = 2 * GAUSSIAN_BLOCK_ROWS + 5;
+    const a = new Float64Array(rows * 3);
+    const b = new Float64Array(rows * 3);
+    for (let i = 0; i < 3; i++) gaussianBlock(a, rows, 3, 9, i, createRandom);
+    for (let i = 2; i >= 0; i--) gaussianBlock(b, rows, 3, 9, i, createRandom);
+    expect(Buffer.from(a.buffer).equals(Buffer.from(b.buffer))).toBe(true);
+    expect(a.every((x) => Number.isFinite(x) && x !== 0)).toBe(true);
   });
 });
