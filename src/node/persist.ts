@@ -4,7 +4,7 @@
  * trusting it.
  */
 import { randomBytes } from 'node:crypto';
-import { mkdir, open, readFile, rename, rm } from 'node:fs/promises';
+import { mkdir, open, rename, rm } from 'node:fs/promises';
 import { dirname } from 'node:path';
 import { CorruptIndexError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
@@ -43,18 +43,41 @@ export type LoadOutcome =
   | { readonly status: 'missing' }
   | { readonly status: 'damaged'; readonly reason: string };
 
+/** Bytes per read call: few calls for a big file, without holding the thread pool for long. */
+const READ_CHUNK = 32 * 1024 * 1024;
+
+/**
+ * Reads a whole file into a buffer of its own (byte offset 0, so decodeIndex can view its
+ * sections in place), in large chunks: fs.readFile reads big files 512 KiB at a time.
+ */
+async function readWhole(path: string): Promise<Uint8Array> {
+  const handle = await open(path, 'r');
+  try {
+    const size = (await handle.stat()).size;
+    const buf = new Uint8Array(new ArrayBuffer(size));
+    let done = 0;
+    while (done < size) {
+      const { bytesRead } = await handle.read(buf, done, Math.min(READ_CHUNK, size - done), done);
+      if (bytesRead === 0) break;
+      done += bytesRead;
+    }
+    return done === size ? buf : buf.subarray(0, done);
+  } finally {
+    await handle.close();
+  }
+}
+
 /** Loads a saved index; a missing, damaged, truncated or older file is reported, never trusted. */
 export async function loadIndex(path: string): Promise<LoadOutcome> {
-  let bytes: Buffer;
+  let bytes: Uint8Array;
   try {
-    bytes = await readFile(path);
+    bytes = await readWhole(path);
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code === 'ENOENT') return { status: 'missing' };
     return { status: 'damaged', reason: `cannot read ${path}: ${(err as Error).message}` };
   }
   try {
-    const u8 = new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-    return { status: 'ok', index: decodeIndex(u8), bytes: bytes.length };
+    return { status: 'ok', index: decodeIndex(bytes), bytes: bytes.length };
   } catch (err) {
     if (err instanceof CorruptIndexError) return { status: 'damaged', reason: err.message };
     throw err;

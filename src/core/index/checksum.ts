@@ -2,21 +2,66 @@
  * A fast 32-bit checksum over bytes, word at a time (multiply–rotate mixing in the style of
  * MurmurHash3's block step, Appleby 2011, with its fmix32 finaliser). It detects damaged or
  * truncated index files; it is not a cryptographic hash.
+ * Words are little-endian and go round-robin to four independent running states (so the
+ * processor can work on four at once: a saved index is hundreds of megabytes and is checked on
+ * every reopen); leftover words, the states in order, and the tail bytes then feed one final state.
+ * The value does not depend on the platform's byte order or on the bytes' alignment.
  */
-export function checksum32(bytes: Uint8Array): number {
+
+const LITTLE_ENDIAN = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
+
+/** One block step: mixes word k into state h. */
+function step(h: number, k: number): number {
+  k = Math.imul(k, 0xcc9e2d51);
+  k = (k << 15) | (k >>> 17);
+  h ^= Math.imul(k, 0x1b873593);
+  h = (h << 13) | (h >>> 19);
+  return (Math.imul(h, 5) + 0xe6546b64) | 0;
+}
+
+/** The bytes' whole little-endian words (a view when possible, else a copy). */
+function wordsOf(bytes: Uint8Array): Uint32Array {
   const words = bytes.length >>> 2;
+  if (LITTLE_ENDIAN && bytes.byteOffset % 4 === 0) return new Uint32Array(bytes.buffer, bytes.byteOffset, words);
+  const out = new Uint32Array(words);
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  let h = 0x12345678 ^ bytes.length;
-  for (let i = 0; i < words; i++) {
-    let k = view.getUint32(i * 4, true);
-    k = Math.imul(k, 0xcc9e2d51);
+  for (let i = 0; i < words; i++) out[i] = view.getUint32(i * 4, true);
+  return out;
+}
+
+export function checksum32(bytes: Uint8Array): number {
+  const w = wordsOf(bytes);
+  const blocks = w.length & ~3;
+  let h0 = 0x12345678;
+  let h1 = 0x9e3779b9;
+  let h2 = 0x85ebca6b;
+  let h3 = 0xc2b2ae35;
+  for (let i = 0; i < blocks; i += 4) {
+    let k = Math.imul(w[i], 0xcc9e2d51);
     k = (k << 15) | (k >>> 17);
-    k = Math.imul(k, 0x1b873593);
-    h ^= k;
-    h = (h << 13) | (h >>> 19);
-    h = (Math.imul(h, 5) + 0xe6546b64) | 0;
+    h0 ^= Math.imul(k, 0x1b873593);
+    h0 = (h0 << 13) | (h0 >>> 19);
+    h0 = (Math.imul(h0, 5) + 0xe6546b64) | 0;
+    k = Math.imul(w[i + 1], 0xcc9e2d51);
+    k = (k << 15) | (k >>> 17);
+    h1 ^= Math.imul(k, 0x1b873593);
+    h1 = (h1 << 13) | (h1 >>> 19);
+    h1 = (Math.imul(h1, 5) + 0xe6546b64) | 0;
+    k = Math.imul(w[i + 2], 0xcc9e2d51);
+    k = (k << 15) | (k >>> 17);
+    h2 ^= Math.imul(k, 0x1b873593);
+    h2 = (h2 << 13) | (h2 >>> 19);
+    h2 = (Math.imul(h2, 5) + 0xe6546b64) | 0;
+    k = Math.imul(w[i + 3], 0xcc9e2d51);
+    k = (k << 15) | (k >>> 17);
+    h3 ^= Math.imul(k, 0x1b873593);
+    h3 = (h3 << 13) | (h3 >>> 19);
+    h3 = (Math.imul(h3, 5) + 0xe6546b64) | 0;
   }
-  for (let i = words * 4; i < bytes.length; i++) h = Math.imul(h ^ bytes[i], 0x01000193);
+  let h = 0x12345678 ^ bytes.length;
+  for (let i = blocks; i < w.length; i++) h = step(h, w[i]);
+  h = step(step(step(step(h, h0), h1), h2), h3);
+  for (let i = w.length * 4; i < bytes.length; i++) h = Math.imul(h ^ bytes[i], 0x01000193);
   h ^= h >>> 16;
   h = Math.imul(h, 0x85ebca6b);
   h ^= h >>> 13;

@@ -7,6 +7,10 @@
  * magic, version, bounds, section sizes and the checksum, and throws CorruptIndexError on any
  * mismatch, so a damaged, truncated or older file is rebuilt, never trusted. Holes left by removed
  * documents are compacted on encoding.
+ * Reopening does O(sections) work beyond the checksum: the vocabulary is saved as UTF-8 bytes
+ * with term offsets (ids in byte order, looked up by binary search; see termCounts.ts) and every
+ * aligned section becomes a view of the given bytes, so the decoded index shares their memory:
+ * hand decodeIndex a buffer nobody else writes to.
  */
 import { CorruptIndexError } from '../errors.js';
 import { checksum32 } from './checksum.js';
@@ -15,7 +19,7 @@ import { LsiIndex, type DocSlot, type StalenessCounters } from './lsiIndex.js';
 import type { IndexSettings } from './settings.js';
 import { Vocabulary } from './termCounts.js';
 
-export const INDEX_FORMAT_VERSION = 1;
+export const INDEX_FORMAT_VERSION = 2;
 const MAGIC = 'UNDTNIDX';
 
 type ArrayKind = 'u8' | 'i32' | 'f32' | 'f64';
@@ -32,6 +36,8 @@ interface Header {
   createdAt: string;
   settings: IndexSettings;
   docs: number;
+  /** How many leading vocabulary ids are in ascending byte order (see termCounts.ts). */
+  vocabSorted: number;
   model: Omit<ConceptModel, 'keptIds' | 'columnOf' | 'weights' | 'termVectors' | 'singularValues' | 'axisScale'> & { columnOfLength: number };
   counters: StalenessCounters;
   sections: SectionEntry[];
@@ -63,8 +69,10 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     termIndptr[j + 1] = termIndptr[j] + s.terms.termIds.length;
   });
   const m = index.model;
+  const vocab = index.vocab.toBytes();
   const sections: [string, Typed][] = [
-    ['vocab', encoder.encode(index.vocab.terms.join('\0'))],
+    ['vocab', vocab.bytes],
+    ['vocabStarts', vocab.starts],
     ['paths', encoder.encode(live.map(([s]) => s.meta.path).join('\0'))],
     ['docSize', Float64Array.from(live, ([s]) => s.meta.size)],
     ['docMtime', Float64Array.from(live, ([s]) => s.meta.mtimeMs)],
@@ -95,6 +103,7 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     createdAt: createdAt.toISOString(),
     settings: index.settings,
     docs: n,
+    vocabSorted: vocab.sorted,
     model: { ...scalars, columnOfLength: columnOf.length },
     counters: index.counters(),
     sections: table,
@@ -141,13 +150,16 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     const Ctor = CTORS[kind];
     const bytesLen = e.length * Ctor.BYTES_PER_ELEMENT;
     if (e.offset % 8 !== 0 || e.offset + bytesLen > payload.length) throw new CorruptIndexError(`index section "${name}" lies outside the file`);
-    // Copy so the arrays are aligned and independent of the file buffer.
+    const at = payload.byteOffset + e.offset;
+    // A view when aligned (the usual case: the file buffer starts on 8 bytes), else a copy.
+    if (at % Ctor.BYTES_PER_ELEMENT === 0) return new Ctor(payload.buffer as ArrayBuffer, at, e.length) as InstanceType<(typeof CTORS)[K]>;
     return new Ctor(payload.slice(e.offset, e.offset + bytesLen).buffer) as InstanceType<(typeof CTORS)[K]>;
   };
   const n = header.docs;
   const k = header.model.k;
   const splitText = (u8: Uint8Array): string[] => (u8.length === 0 ? [] : decoder.decode(u8).split('\0'));
-  const vocab = new Vocabulary(splitText(get('vocab', 'u8')));
+  const vocab = Vocabulary.fromBytes({ bytes: get('vocab', 'u8'), starts: get('vocabStarts', 'i32'), sorted: header.vocabSorted });
+  if (!vocab) throw new CorruptIndexError('index vocabulary does not match its term offsets');
   const paths = n === 0 ? [] : splitText(get('paths', 'u8'));
   const size = get('docSize', 'f64');
   const mtime = get('docMtime', 'f64');
@@ -177,7 +189,7 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
   const slots: DocSlot[] = paths.map((path, j) => ({
     meta: { path, size: size[j], mtimeMs: mtime[j] },
-    terms: { termIds: ids.slice(indptr[j], indptr[j + 1]), counts: counts.slice(indptr[j], indptr[j + 1]), length: length[j] },
+    terms: { termIds: ids.subarray(indptr[j], indptr[j + 1]), counts: counts.subarray(indptr[j], indptr[j + 1]), length: length[j] },
     folded: folded[j] === 1,
     residual: residual[j],
   }));
