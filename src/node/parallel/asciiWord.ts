@@ -1,10 +1,11 @@
 /**
- * tokenize() of one ASCII word ([A-Za-z0-9_$]+), by char codes instead of regular expressions:
- * the same rules as src/core/text/tokenize.ts step by step — skip hex literals and hex-looking
- * runs; split on '_' and '$', then at lower→Upper, Upper→Upper+lower and letter↔digit
- * boundaries; emit each part (and, for a split word, the joined compound) lowercased, unless it is
- * a stop word, 1 or over 40 characters, a digit run over 4, or hex-looking; stem with
- * porterFast.ts, which equals natural's stemmer that tokenize uses. Tokenizing threads meet
+ * tokenize() of one ASCII word ([A-Za-z0-9_$]+), by char codes instead of regular expressions,
+ * on a run of UTF-16 code units (no string per word): the same rules as
+ * src/core/text/tokenize.ts step by step — skip hex literals and hex-looking runs (skipsWord);
+ * split on '_' and '$', then at lower→Upper, Upper→Upper+lower and letter↔digit boundaries
+ * (partBounds); emit each part (and, for a split word, the joined compound) lowercased, unless it
+ * is a stop word, 1 or over 40 characters, a digit run over 4, or hex-looking (keepToken); stem
+ * with porterFast.ts, which equals natural's stemmer that tokenize uses. Tokenizing threads meet
  * millions of distinct identifiers in a large source tree; this path makes a first sighting
  * several times cheaper. Non-ASCII words go to tokenize().
  * test/node/parallel/asciiWord.test.ts holds it to tokenize() on real and generated words.
@@ -13,33 +14,15 @@ import { STOP_WORDS } from '../../core/text/stopWords.js';
 import type { TokenizeOptions } from '../../core/text/tokenize.js';
 import { porterStem } from './porterFast.js';
 
-const MAX_TOKEN_LENGTH = 40;
-/** Stems remembered before the memo is cleared (as tokenize's stemWord does, with its own limit). */
-const STEM_MEMO_LIMIT = 1_000_000;
-let stems = new Map<string, string>();
+export const MAX_TOKEN_LENGTH = 40;
 
-/** porterStem (equal to natural's stemmer, which stemWord uses), memoised. */
-function stemOf(t: string): string {
-  let s = stems.get(t);
-  if (s === undefined) {
-    s = porterStem(t);
-    if (stems.size >= STEM_MEMO_LIMIT) stems = new Map();
-    stems.set(t, s);
-  }
-  return s;
-}
-const enum K {
-  Lower = 1,
-  Upper = 2,
-  Digit = 3,
-  Sep = 4,
-}
+const LOWER = 1, UPPER = 2, DIGIT = 3, SEP = 4;
 const KIND = new Uint8Array(128);
-for (let c = 97; c <= 122; c++) KIND[c] = K.Lower;
-for (let c = 65; c <= 90; c++) KIND[c] = K.Upper;
-for (let c = 48; c <= 57; c++) KIND[c] = K.Digit;
-KIND[95] = K.Sep; // _
-KIND[36] = K.Sep; // $
+for (let c = 97; c <= 122; c++) KIND[c] = LOWER;
+for (let c = 65; c <= 90; c++) KIND[c] = UPPER;
+for (let c = 48; c <= 57; c++) KIND[c] = DIGIT;
+KIND[95] = SEP; // _
+KIND[36] = SEP; // $
 
 /** True when every char is in [A-Za-z0-9_$] (the words this module handles). */
 export function isAsciiWord(word: string): boolean {
@@ -50,93 +33,118 @@ export function isAsciiWord(word: string): boolean {
   return word.length > 0;
 }
 
-/** ^(?=.*\d)[0-9a-f]{8,}$ on the lowercase form of s (s is ASCII word characters). */
-function hexish(s: string): boolean {
-  if (s.length < 8) return false;
+/** ^(?=.*\d)[0-9a-f]{8,}$ on the lowercase form of u[start, end) (ASCII word characters). */
+function hexish(u: Uint16Array, start: number, end: number): boolean {
+  if (end - start < 8) return false;
   let digit = false;
-  for (let i = 0; i < s.length; i++) {
-    const c = s.charCodeAt(i) | 0x20; // ASCII lowercase (digits are unchanged by the bit)
+  for (let i = start; i < end; i++) {
+    const c = u[i] | 0x20; // ASCII lowercase (digits are unchanged by the bit)
     if (c >= 48 && c <= 57) digit = true;
     else if (!(c >= 97 && c <= 102)) return false;
   }
   return digit;
 }
 
-/** ^0[xX][0-9a-fA-F]+$ */
-function hexLiteral(s: string): boolean {
-  if (s.length < 3 || s.charCodeAt(0) !== 48 || (s.charCodeAt(1) | 0x20) !== 120) return false;
-  for (let i = 2; i < s.length; i++) {
-    const c = s.charCodeAt(i) | 0x20;
+/** True when tokenize skips the whole word: ^0[xX][0-9a-fA-F]+$, or hex-looking. */
+export function skipsWord(u: Uint16Array, start: number, end: number): boolean {
+  if (hexish(u, start, end)) return true;
+  if (end - start < 3 || u[start] !== 48 || (u[start + 1] | 0x20) !== 120) return false;
+  for (let i = start + 2; i < end; i++) {
+    const c = u[i] | 0x20;
     if (!((c >= 48 && c <= 57) || (c >= 97 && c <= 102))) return false;
   }
   return true;
 }
 
-function allDigits(s: string): boolean {
-  for (let i = 0; i < s.length; i++) if (KIND[s.charCodeAt(i)] !== K.Digit) return false;
-  return s.length > 0;
+/** True when u[start, end) is all ASCII digits. */
+export function allDigits(u: Uint16Array, start: number, end: number): boolean {
+  for (let i = start; i < end; i++) if (KIND[u[i]] !== DIGIT) return false;
+  return end > start;
 }
 
-/** The parts of an ASCII identifier, as splitIdentifier() gives them. */
-export function asciiParts(word: string): string[] {
-  const parts: string[] = [];
-  const n = word.length;
-  let start = -1;
-  for (let i = 0; i < n; i++) {
-    const k = KIND[word.charCodeAt(i)];
-    if (k === K.Sep) {
-      if (start >= 0) parts.push(word.slice(start, i));
-      start = -1;
+/**
+ * The parts of an ASCII identifier, as splitIdentifier() gives them: part p is
+ * u[out[2p], out[2p + 1]). Returns the number of parts; out needs room for end − start parts.
+ */
+export function partBounds(u: Uint16Array, start: number, end: number, out: Int32Array): number {
+  let parts = 0;
+  let from = -1;
+  for (let i = start; i < end; i++) {
+    const k = KIND[u[i]];
+    if (k === SEP) {
+      if (from >= 0) {
+        out[2 * parts] = from;
+        out[2 * parts++ + 1] = i;
+      }
+      from = -1;
       continue;
     }
-    if (start < 0) {
-      start = i;
+    if (from < 0) {
+      from = i;
       continue;
     }
-    const prev = KIND[word.charCodeAt(i - 1)];
-    const next = i + 1 < n ? KIND[word.charCodeAt(i + 1)] : 0;
-    const boundary =
-      (prev === K.Lower && k === K.Upper) ||
-      (prev === K.Upper && k === K.Upper && next === K.Lower) ||
-      (prev !== K.Digit && k === K.Digit) ||
-      (prev === K.Digit && k !== K.Digit);
-    if (boundary) {
-      parts.push(word.slice(start, i));
-      start = i;
+    const prev = KIND[u[i - 1]];
+    if (
+      (prev === LOWER && k === UPPER) ||
+      (prev === UPPER && k === UPPER && i + 1 < end && KIND[u[i + 1]] === LOWER) ||
+      (prev !== DIGIT && k === DIGIT) ||
+      (prev === DIGIT && k !== DIGIT)
+    ) {
+      out[2 * parts] = from;
+      out[2 * parts++ + 1] = i;
+      from = i;
     }
   }
-  if (start >= 0) parts.push(word.slice(start));
+  if (from >= 0) {
+    out[2 * parts] = from;
+    out[2 * parts++ + 1] = end;
+  }
   return parts;
 }
 
-/** Lowercases a part and keeps it unless tokenize's keep() would drop it. */
-function emit(raw: string, out: string[]): void {
-  const t = raw.toLowerCase();
-  if (t.length <= 1 || t.length > MAX_TOKEN_LENGTH || STOP_WORDS.has(t)) return;
-  if (t.length >= 5 && allDigits(t)) return;
-  if (hexish(t)) return;
-  out.push(t);
+/** tokenize's keep() for a lowercase ASCII token. */
+export function keepToken(t: string, u: Uint16Array, start: number, end: number): boolean {
+  const n = end - start;
+  if (n <= 1 || n > MAX_TOKEN_LENGTH || STOP_WORDS.has(t)) return false;
+  if (n >= 5 && allDigits(u, start, end)) return false;
+  return !hexish(u, start, end);
 }
 
-/** The kept lowercase tokens of an ASCII word before stemming (tokenize's steps 1–4). */
-export function asciiWordLowerTokens(word: string, keepCompounds: boolean): string[] {
+/** Writes the lowercase of u[start, end) into out from position at; returns the new end. */
+export function lowerInto(u: Uint16Array, start: number, end: number, out: Uint16Array, at: number): number {
+  for (let i = start; i < end; i++) {
+    const c = u[i];
+    out[at++] = KIND[c] === UPPER ? c | 0x20 : c;
+  }
+  return at;
+}
+
+/** tokenize(word, options) for an ASCII word (see isAsciiWord), through the functions above. */
+export function asciiWordTokens(word: string, options: Readonly<TokenizeOptions>): string[] {
+  const u = Uint16Array.from(word, (ch) => ch.charCodeAt(0));
   const out: string[] = [];
-  if (hexLiteral(word) || hexish(word)) return out;
-  const parts = asciiParts(word);
-  if (parts.length === 1 && parts[0] === word) {
-    emit(word, out);
-    return out;
+  if (skipsWord(u, 0, u.length)) return out;
+  const bounds = new Int32Array(2 * u.length);
+  const parts = partBounds(u, 0, u.length, bounds);
+  const low = new Uint16Array(u.length);
+  const emit = (from: number, to: number): void => {
+    const t = String.fromCharCode(...low.subarray(from, to));
+    if (keepToken(t, low, from, to)) out.push(options.stem ? porterStem(t) : t);
+  };
+  let joined = 0;
+  for (let p = 0; p < parts; p++) {
+    const at = joined;
+    joined = lowerInto(u, bounds[2 * p], bounds[2 * p + 1], low, joined);
+    emit(at, joined);
   }
-  for (const p of parts) emit(p, out);
-  if (keepCompounds && parts.length > 1) {
-    const compound = parts.join('');
-    if (compound.length <= MAX_TOKEN_LENGTH && !allDigits(compound)) emit(compound, out);
-  }
+  if (options.keepCompounds && parts > 1 && joined <= MAX_TOKEN_LENGTH && !allDigits(low, 0, joined)) emit(0, joined);
   return out;
 }
 
-/** tokenize(word, options) for an ASCII word (see isAsciiWord). */
-export function asciiWordTokens(word: string, options: Readonly<TokenizeOptions>): string[] {
-  const tokens = asciiWordLowerTokens(word, options.keepCompounds);
-  return options.stem ? tokens.map(stemOf) : tokens;
+/** The parts of an ASCII identifier as strings (splitIdentifier's result). */
+export function asciiParts(word: string): string[] {
+  const u = Uint16Array.from(word, (ch) => ch.charCodeAt(0));
+  const bounds = new Int32Array(2 * u.length);
+  const n = partBounds(u, 0, u.length, bounds);
+  return Array.from({ length: n }, (_, p) => word.slice(bounds[2 * p], bounds[2 * p + 1]));
 }

@@ -7,12 +7,14 @@ import { parentPort } from 'node:worker_threads';
 import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
 import type { FileOutcome, FromWorker, ToWorker } from './protocol.js';
-import { readIndexableTextSync } from './readTextSync.js';
+import { decodeUtf8 } from '../scanRead.js';
+import { FileReader } from './readTextSync.js';
 import { WordCounter } from './wordCounter.js';
 
 if (!parentPort) throw new Error('parallelWorker.js must be started as a worker thread.');
 const port = parentPort;
 let counter: WordCounter | undefined;
+const reader = new FileReader();
 let maxFileBytes = 1_048_576;
 let kernels: KernelExports | undefined;
 let memory: WebAssembly.Memory | undefined;
@@ -51,12 +53,12 @@ port.on('message', (msg: ToWorker) => {
     const files: FileOutcome[] = [];
     const transfer: ArrayBuffer[] = [];
     for (const f of msg.files) {
-      const got = readIndexableTextSync(f.absPath, maxFileBytes);
-      if (got.kind !== 'text') {
+      const got = reader.read(f.absPath, maxFileBytes);
+      if (got.kind !== 'bytes') {
         files.push({ index: f.index, kind: got.kind });
         continue;
       }
-      const c = wc.count(got.text);
+      const c = got.ascii ? wc.countAscii(got.bytes) : wc.count(decodeUtf8(got.bytes));
       files.push({ index: f.index, kind: 'text', ids: c.ids, counts: c.counts, length: c.length });
       transfer.push(c.ids.buffer as ArrayBuffer, c.counts.buffer as ArrayBuffer);
     }

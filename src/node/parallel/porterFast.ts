@@ -49,10 +49,29 @@ export function groups(s: string): string {
 
 export function measure(s: string | null): number {
   if (!s) return -1;
-  let g = groups(s);
-  if (g.charCodeAt(0) === 67) g = g.slice(1);
-  if (g.length > 0 && g.charCodeAt(g.length - 1) === 86) g = g.slice(0, -1);
-  return g.length / 2;
+  // The groups of categorizeGroups counted on the fly (no string): 0 = C, 1 = V.
+  let count = 0;
+  let first = -1;
+  let last = -1;
+  let prevVowelRun = false;
+  for (let i = 0; i < s.length; i++) {
+    let g: number;
+    if (isVowel(s.charCodeAt(i))) {
+      g = prevVowelRun ? -1 : 1;
+      prevVowelRun = true;
+    } else {
+      g = charIsV(s, i) ? 1 : last === 0 ? -1 : 0;
+      prevVowelRun = false;
+    }
+    if (g >= 0) {
+      if (count++ === 0) first = g;
+      last = g;
+    }
+  }
+  // Without a leading C group and then a trailing V group.
+  if (first === 0) count--;
+  if (count > 0 && last === 1) count--;
+  return count / 2;
 }
 
 /** natural's categorizeChars(s): one 'C' or 'V' per char. */

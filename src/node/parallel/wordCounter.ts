@@ -1,26 +1,28 @@
 /**
  * Term counting for a tokenizing thread, with the same result as
  * countTerms(tokenize(text, options), vocabulary, true) but far less work per token:
- *   - tokenize() treats every word (a maximal run of letters, digits, '_' and '$' of the
- *     NFKD-normalised, mark-free text) on its own, so the terms of a word are cached: a repeated
- *     word costs one map lookup instead of splitting, lowercasing, stop-word tests and stemming;
- *   - the cache maps a word straight to term ids of a thread-local vocabulary, and counts go to a
- *     reusable typed array instead of a Map per document;
- *   - text is scanned by char code (word characters classified once per code unit), and the cache
- *     is an open-addressing table probed by an FNV-1a hash of the word's char codes, so a
- *     repeated word costs no substring and no string hashing at all.
+ *   - the text becomes code units in one reusable buffer (textUnits.ts; ASCII files straight from
+ *     their bytes, with no string at all), scanned by code unit into words;
+ *   - tokenize() treats every word on its own, so a word's terms are cached in a table keyed by
+ *     its code units (wordTable.ts): a repeated word costs a hash and a compare, no substring;
+ *   - a new ASCII word is split by char code (asciiWord.ts) and each lowercase part looked up in
+ *     a second table from token to term id, so a string is made and stemmed only for a token this
+ *     thread has never seen; non-ASCII words go through tokenize() itself;
+ *   - ids are of a thread-local vocabulary; counts go to a reusable typed array.
  * The thread reports new terms in id order, so the receiver can translate local ids to its own.
  * test/node/parallel/wordCounter.test.ts checks the equality with tokenize + countTerms.
  */
+import { STOP_WORDS } from '../../core/text/stopWords.js';
 import { DEFAULT_TOKENIZE_OPTIONS, tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
-import { asciiWordLowerTokens, isAsciiWord } from './asciiWord.js';
+import { allDigits, keepToken, lowerInto, MAX_TOKEN_LENGTH, partBounds, skipsWord } from './asciiWord.js';
 import { porterStem } from './porterFast.js';
+import { astralWordAt, caselessLetters, classify, CLASS, HIGH_SURROGATE, UnitBuffer, unitsToString, WORD } from './textUnits.js';
+import { FNV_OFFSET, FNV_PRIME, grow32, WordTable } from './wordTable.js';
 
-// The normalisation and word pattern of src/core/text/tokenize.ts (kept in step by the test).
-const WORD = /[\p{L}\p{N}_$]+/gu;
-const MARKS = /\p{M}+/gu;
-/** Distinct words cached before the cache is cleared (bounds memory on huge trees). */
+/** Distinct words (and tokens) cached before a table is cleared (bounds memory on huge trees). */
 const WORD_CACHE_LIMIT = 2_000_000;
+/** Value of a cached word without terms; a word with several has -2 − (its offset in `multi`). */
+const NO_TERMS = -1;
 
 export interface LocalCounts {
   /** Local term ids, ascending. */
@@ -34,12 +36,20 @@ export class WordCounter {
   private readonly idOf = new Map<string, number>();
   private readonly terms: string[] = [];
   private reported = 0;
-  private readonly cache = new WordTable();
-  private tokenIds = new Map<string, number>();
+  private readonly words = new WordTable(WORD_CACHE_LIMIT);
+  private readonly tokens = new WordTable(WORD_CACHE_LIMIT);
+  /** Term lists of words with several terms: count, then the ids. */
+  private multi = new Int32Array(1 << 12);
+  private multiUsed = 0;
+  private readonly text = new UnitBuffer();
   private tally = new Int32Array(1024);
   private touched = new Int32Array(1024);
   private nTouched = 0;
-
+  // Scratch for a new word: its terms, its parts, its lowercase form.
+  private found = new Int32Array(64);
+  private nFound = 0;
+  private bounds = new Int32Array(64);
+  private lower = new Uint16Array(64);
   private readonly resolved: Readonly<TokenizeOptions>;
 
   constructor(private readonly options: Partial<TokenizeOptions>) {
@@ -60,13 +70,17 @@ export class WordCounter {
   }
 
   count(text: string): LocalCounts {
-    let length: number;
-    if (!NON_ASCII.test(text)) length = this.scan(text);
-    else {
-      // tokenize's normalisation; then the same scan, unless astral characters need the regex.
-      const normalised = text.normalize('NFKD').replace(MARKS, '');
-      length = SURROGATE.test(normalised) ? this.countWords(normalised) : this.scan(normalised);
-    }
+    this.text.loadText(text);
+    return this.finish(this.scan(this.text.units, this.text.length));
+  }
+
+  /** count() of text whose UTF-8 bytes are all ASCII (below 0x80), without decoding it. */
+  countAscii(bytes: Uint8Array): LocalCounts {
+    this.text.loadAscii(bytes);
+    return this.finish(this.scan(this.text.units, this.text.length));
+  }
+
+  private finish(length: number): LocalCounts {
     const n = this.nTouched;
     const idArr = this.touched.slice(0, n).sort();
     const counts = new Int32Array(n);
@@ -78,74 +92,133 @@ export class WordCounter {
     return { ids: idArr, counts, length };
   }
 
-  /** Normalised text with astral characters: tokenize's own word pattern. */
-  private countWords(normalised: string): number {
+  /** Counts the words of u[0, n); returns the number of tokens. */
+  private scan(u: Uint16Array, n: number): number {
     let length = 0;
-    for (const m of normalised.matchAll(WORD)) {
-      const word = m[0];
-      let h = FNV_OFFSET;
-      for (let i = 0; i < word.length; i++) h = Math.imul(h ^ word.charCodeAt(i), FNV_PRIME);
-      length += this.emit(word, 0, word.length, h);
-    }
-    return length;
-  }
-
-  /**
-   * Normalised text without astral characters: words (runs of letters, digits, '_' and '$', as
-   * tokenize's pattern) found and hashed by char code, so a repeated word needs no substring.
-   */
-  private scan(text: string): number {
-    let length = 0;
-    const n = text.length;
     let i = 0;
     while (i < n) {
-      while (i < n && !isWordChar(text.charCodeAt(i))) i++;
-      if (i >= n) break;
+      let c = u[i];
+      let k = CLASS[c];
+      if (k !== WORD) {
+        if (k === 0) k = classify(c);
+        if (k !== WORD && !(k === HIGH_SURROGATE && astralWordAt(u, i, n))) {
+          i++;
+          continue;
+        }
+      }
       const start = i;
       let h = FNV_OFFSET;
+      let all = 0;
       for (; i < n; i++) {
-        const c = text.charCodeAt(i);
-        if (!isWordChar(c)) break;
+        c = u[i];
+        k = CLASS[c];
+        if (k !== WORD) {
+          if (k === 0) k = classify(c);
+          if (k !== WORD) {
+            if (!(k === HIGH_SURROGATE && astralWordAt(u, i, n))) break;
+            h = Math.imul(h ^ c, FNV_PRIME);
+            c = u[++i];
+          }
+        }
         h = Math.imul(h ^ c, FNV_PRIME);
+        all |= c;
       }
-      length += this.emit(text, start, i, h);
+      const e = this.words.find(u, start, i, h);
+      const v = e >= 0 ? this.words.value(e) : this.learn(u, start, i, h, all < 128);
+      if (v >= 0) {
+        this.bump(v);
+        length++;
+      } else if (v !== NO_TERMS) {
+        const m = this.multi;
+        const at = -2 - v;
+        const terms = m[at];
+        for (let j = 1; j <= terms; j++) this.bump(m[at + j]);
+        length += terms;
+      }
     }
     return length;
   }
 
-  /** Counts the terms of text[start, end) (a word with hash h); returns how many. */
-  private emit(text: string, start: number, end: number, h: number): number {
-    let entry = this.cache.find(text, start, end, h);
-    if (entry < 0) entry = this.cache.insert(text, start, end, h, this.wordTerms(text.slice(start, end)));
-    const ids = this.cache.ids;
-    const from = this.cache.start[entry];
-    const stop = this.cache.start[entry + 1];
-    for (let p = from; p < stop; p++) {
-      const id = ids[p];
-      if (this.tally[id]++ === 0) {
-        if (this.nTouched === this.touched.length) this.touched = grow32(this.touched, this.nTouched + 1);
-        this.touched[this.nTouched++] = id;
-      }
+  private bump(id: number): void {
+    if (this.tally[id]++ === 0) {
+      if (this.nTouched === this.touched.length) this.touched = grow32(this.touched, this.nTouched + 1);
+      this.touched[this.nTouched++] = id;
     }
-    return stop - from;
   }
 
-  /** The local ids of a word's terms (ASCII words by the char-code path of asciiWord.ts). */
-  private wordTerms(word: string): number[] {
-    if (!isAsciiWord(word)) return tokenize(word, this.options).map((t) => this.add(t));
-    const lower = asciiWordLowerTokens(word, this.resolved.keepCompounds);
-    const ids = new Array<number>(lower.length);
-    for (let i = 0; i < lower.length; i++) {
-      // One map from a lowercase token to its term's id (stemming and lookup at once).
-      let id = this.tokenIds.get(lower[i]);
-      if (id === undefined) {
-        id = this.add(this.resolved.stem ? porterStem(lower[i]) : lower[i]);
-        if (this.tokenIds.size >= WORD_CACHE_LIMIT) this.tokenIds = new Map();
-        this.tokenIds.set(lower[i], id);
-      }
-      ids[i] = id;
+  /** Works out the terms of a new word u[start, end) and caches them; returns its table value. */
+  private learn(u: Uint16Array, start: number, end: number, h: number, ascii: boolean): number {
+    if (this.words.size >= WORD_CACHE_LIMIT) {
+      this.words.clear();
+      this.multiUsed = 0;
     }
-    return ids;
+    this.nFound = 0;
+    if (!ascii) this.otherTerms(u, start, end);
+    else if (!skipsWord(u, start, end)) this.asciiTerms(u, start, end);
+    let value: number;
+    if (this.nFound === 0) value = NO_TERMS;
+    else if (this.nFound === 1) value = this.found[0];
+    else {
+      const at = this.multiUsed;
+      if (at + 1 + this.nFound > this.multi.length) this.multi = grow32(this.multi, at + 1 + this.nFound);
+      this.multi[at] = this.nFound;
+      this.multi.set(this.found.subarray(0, this.nFound), at + 1);
+      this.multiUsed = at + 1 + this.nFound;
+      value = -2 - at;
+    }
+    this.words.insert(u, start, end, h, value);
+    return value;
+  }
+
+  /** The terms of a non-ASCII word: the word itself for caseless letters, else tokenize()'s. */
+  private otherTerms(u: Uint16Array, start: number, end: number): void {
+    if (caselessLetters(u, start, end)) {
+      const n = end - start;
+      if (n <= 1 || n > MAX_TOKEN_LENGTH) return;
+      const t = unitsToString(u, start, end);
+      if (!STOP_WORDS.has(t)) this.found1(this.add(t));
+      return;
+    }
+    for (const t of tokenize(unitsToString(u, start, end), this.options)) this.found1(this.add(t));
+  }
+
+  /** The terms of an ASCII word (tokenize's steps 3–5, as asciiWordTokens) into `found`. */
+  private asciiTerms(u: Uint16Array, start: number, end: number): void {
+    const len = end - start;
+    if (this.bounds.length < 2 * len) this.bounds = new Int32Array(2 * len);
+    if (this.lower.length < len) this.lower = new Uint16Array(len);
+    const bounds = this.bounds;
+    const parts = partBounds(u, start, end, bounds);
+    let joined = 0;
+    for (let p = 0; p < parts; p++) {
+      const at = joined;
+      joined = lowerInto(u, bounds[2 * p], bounds[2 * p + 1], this.lower, joined);
+      this.token(at, joined);
+    }
+    if (this.resolved.keepCompounds && parts > 1 && joined <= MAX_TOKEN_LENGTH && !allDigits(this.lower, 0, joined)) this.token(0, joined);
+  }
+
+  /** The lowercase token lower[from, to): its term id (if kept) into `found`. */
+  private token(from: number, to: number): void {
+    const n = to - from;
+    if (n <= 1 || n > MAX_TOKEN_LENGTH) return;
+    const low = this.lower;
+    let h = FNV_OFFSET;
+    for (let i = from; i < to; i++) h = Math.imul(h ^ low[i], FNV_PRIME);
+    const e = this.tokens.find(low, from, to, h);
+    let id: number;
+    if (e >= 0) id = this.tokens.value(e);
+    else {
+      const t = unitsToString(low, from, to);
+      id = keepToken(t, low, from, to) ? this.add(this.resolved.stem ? porterStem(t) : t) : NO_TERMS;
+      this.tokens.insert(low, from, to, h, id);
+    }
+    if (id >= 0) this.found1(id);
+  }
+
+  private found1(id: number): void {
+    if (this.nFound === this.found.length) this.found = grow32(this.found, this.nFound + 1);
+    this.found[this.nFound++] = id;
   }
 
   private add(term: string): number {
@@ -154,124 +227,8 @@ export class WordCounter {
       id = this.terms.length;
       this.terms.push(term);
       this.idOf.set(term, id);
-      if (id >= this.tally.length) {
-        const grown = new Int32Array(this.tally.length * 2);
-        grown.set(this.tally);
-        this.tally = grown;
-      }
+      if (id >= this.tally.length) this.tally = grow32(this.tally, id + 1);
     }
     return id;
   }
-}
-
-const NON_ASCII = /[^\x00-\x7f]/;
-const SURROGATE = /[\ud800-\udfff]/;
-const WORD_CHAR = /^[\p{L}\p{N}_$]$/u;
-/** Per UTF-16 unit of the basic plane: 0 not yet known, 1 word character, 2 not. */
-const WORD_CLASS = new Uint8Array(65536);
-
-/** A letter, digit, '_' or '$' (tokenize's word characters), for a unit outside the surrogates. */
-function isWordChar(c: number): boolean {
-  let k = WORD_CLASS[c];
-  if (k === 0) {
-    k = WORD_CHAR.test(String.fromCharCode(c)) ? 1 : 2;
-    WORD_CLASS[c] = k;
-  }
-  return k === 1;
-}
-const FNV_OFFSET = 0x811c9dc5 | 0;
-const FNV_PRIME = 0x01000193;
-
-/**
- * Open-addressing table from a word to its term ids: the words' UTF-16 code units live in one
- * pooled array (no string per word, so no cached word keeps a file's text alive), their term ids
- * in another. Lookups hash and compare code units in place. Cleared when it holds
- * WORD_CACHE_LIMIT words.
- */
-class WordTable {
-  size = 0;
-  /** Term ids of entry e: ids[start[e], start[e + 1]) (start[size] = used). */
-  ids = new Int32Array(1 << 16);
-  start = new Int32Array(1 << 12);
-  private chars = new Uint16Array(1 << 18);
-  private charStart = new Int32Array(1 << 12);
-  private hashes = new Int32Array(1 << 12);
-  private slots = new Int32Array(1 << 13).fill(-1);
-
-  get used(): number {
-    return this.start[this.size];
-  }
-
-  find(text: string, start: number, end: number, h: number): number {
-    const mask = this.slots.length - 1;
-    const len = end - start;
-    const chars = this.chars;
-    for (let s = h & mask; ; s = (s + 1) & mask) {
-      const e = this.slots[s];
-      if (e < 0) return -1;
-      if (this.hashes[e] !== h) continue;
-      const c0 = this.charStart[e];
-      if (this.charStart[e + 1] - c0 !== len) continue;
-      let i = 0;
-      while (i < len && chars[c0 + i] === text.charCodeAt(start + i)) i++;
-      if (i === len) return e;
-    }
-  }
-
-  insert(text: string, start: number, end: number, h: number, termIds: readonly number[]): number {
-    if (this.size >= WORD_CACHE_LIMIT) this.clear();
-    if ((this.size + 1) * 2 > this.slots.length) this.rehash(this.slots.length * 2);
-    const e = this.size;
-    if (e + 2 > this.hashes.length) this.growEntries();
-    const len = end - start;
-    const c0 = this.charStart[e];
-    if (c0 + len > this.chars.length) this.chars = grow16(this.chars, c0 + len);
-    for (let i = 0; i < len; i++) this.chars[c0 + i] = text.charCodeAt(start + i);
-    this.charStart[e + 1] = c0 + len;
-    const p0 = this.start[e];
-    if (p0 + termIds.length > this.ids.length) this.ids = grow32(this.ids, p0 + termIds.length);
-    for (let i = 0; i < termIds.length; i++) this.ids[p0 + i] = termIds[i];
-    this.start[e + 1] = p0 + termIds.length;
-    this.hashes[e] = h;
-    this.size = e + 1;
-    const mask = this.slots.length - 1;
-    let s = h & mask;
-    while (this.slots[s] >= 0) s = (s + 1) & mask;
-    this.slots[s] = e;
-    return e;
-  }
-
-  private growEntries(): void {
-    const n = this.hashes.length * 2;
-    this.hashes = grow32(this.hashes, n);
-    this.start = grow32(this.start, n);
-    this.charStart = grow32(this.charStart, n);
-  }
-
-  private rehash(size: number): void {
-    this.slots = new Int32Array(size).fill(-1);
-    const mask = size - 1;
-    for (let e = 0; e < this.size; e++) {
-      let s = this.hashes[e] & mask;
-      while (this.slots[s] >= 0) s = (s + 1) & mask;
-      this.slots[s] = e;
-    }
-  }
-
-  private clear(): void {
-    this.size = 0;
-    this.slots.fill(-1);
-  }
-}
-
-function grow32(a: Int32Array<ArrayBuffer>, atLeast: number): Int32Array<ArrayBuffer> {
-  const b = new Int32Array(Math.max(atLeast, a.length * 2));
-  b.set(a);
-  return b;
-}
-
-function grow16(a: Uint16Array<ArrayBuffer>, atLeast: number): Uint16Array<ArrayBuffer> {
-  const b = new Uint16Array(Math.max(atLeast, a.length * 2));
-  b.set(a);
-  return b;
 }

@@ -1,8 +1,10 @@
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { countTerms, Vocabulary } from '../../../src/core/index/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { WordCounter } from '../../../src/node/parallel/wordCounter.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection, missingMessage, REPO_ROOT } from '../../helpers/shared.js';
 
 // The reference is the plain pipeline itself: countTerms(tokenize(text)) (brute force, no cache).
 function reference(text: string): Map<string, number> {
@@ -22,6 +24,8 @@ const ODD_TEXTS = [
   'getUserName HTTPServer parse_json_value kebab-case x86_64 $scope __init__ 0xDEADBEEF deadbeef12',
   'Café naïve résumé — “quoted” ﬁle ①②③ Ｆｕｌｌｗｉｄｔｈ ΑΒΓ δέλτα 東京 ゲーム',
   'e\u0301tude combining marks: a\u0300 o\u0308 and emoji 😀 in text_with_snake',
+  'astral letters 𝐀𝐁𝐂 𠀀𠀁 and 𝟙𝟚 digits, lone \ud800 surrogate, 東京タワー 한국어 Ⅻ ǅungla İstanbul ΣΊΣΥΦΟΣ',
+  '東京'.repeat(25), // a caseless run over 40 units: no term
   'numbers 12345 1234 3.14159 v2 2fa a1b2c3d4e5 Version42Beta',
   '', '   ', 'a b c', 'The the THE of and',
 ];
@@ -35,6 +39,17 @@ describe('WordCounter', () => {
       const want = reference(text);
       expect(got.bag).toEqual(want);
       expect(got.length).toBe(tokenize(text).length);
+    }
+  });
+
+  it('counts ASCII bytes exactly as the same text (reference: the uncached pipeline)', () => {
+    const counter = new WordCounter({});
+    const terms: string[] = [];
+    for (const text of ['getUserName HTTPServer x86_64 0xDEADBEEF running runs', 'the parse_json_value getUserName', '']) {
+      const c = counter.countAscii(Buffer.from(text, 'ascii'));
+      terms.push(...counter.takeNewTerms());
+      expect(new Map(Array.from(c.ids, (id, i) => [terms[id], c.counts[i]]))).toEqual(reference(text));
+      expect(c.length).toBe(tokenize(text).length);
     }
   });
 
@@ -55,5 +70,28 @@ describe('WordCounter', () => {
     const want = new Map(Array.from(t.termIds, (id, i) => [vocab.termOf(id), t.counts[i]]));
     expect(viaCounter(counter, terms, text).bag).toEqual(want);
     expect(want.has('running')).toBe(true);
+  });
+
+  // The kernel's translated documentation (Chinese, Japanese, Korean, Italian, Spanish, …), when
+  // scripts/bench-setup.sh has unpacked it: real non-ASCII text through one counter.
+  const translations = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation', 'translations');
+  let present = false;
+  try {
+    present = statSync(translations).isDirectory();
+  } catch {
+    present = false;
+  }
+  it.skipIf(!present)(`agrees with tokenize + countTerms on the kernel's translated documentation ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`, () => {
+    const counter = new WordCounter({});
+    const terms: string[] = [];
+    const files = (readdirSync(translations, { recursive: true }) as string[]).filter((f) => f.endsWith('.rst')).sort();
+    // Every 4th file, to keep the run light.
+    let checked = 0;
+    for (let i = 0; i < files.length; i += 4) {
+      const text = readFileSync(join(translations, files[i]), 'utf8');
+      expect(viaCounter(counter, terms, text).bag, files[i]).toEqual(reference(text));
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(50);
   });
 });

@@ -1,0 +1,98 @@
+/**
+ * Open-addressing hash table (linear probing) from a run of UTF-16 code units to one int32
+ * value, for the tokenizing threads' caches (wordCounter.ts): words → their terms, lowercase
+ * tokens → their term id. Keys live in one pooled Uint16Array (no string per key, so no cached
+ * key keeps a file's text alive); lookups hash (FNV-1a over the code units, computed by the
+ * caller while scanning) and compare code units in place, so a repeated word costs no substring.
+ * A slot holds its entry's hash beside the entry number, and an entry's key position, length and
+ * value sit side by side, so a lookup touches few cache lines. Cleared when it holds `limit`
+ * keys, which bounds memory on huge trees.
+ */
+
+export const FNV_OFFSET = 0x811c9dc5 | 0;
+export const FNV_PRIME = 0x01000193;
+
+export class WordTable {
+  size = 0;
+  private units = new Uint16Array(1 << 16);
+  private used = 0;
+  /** Entry e: key units[rec[3e], rec[3e] + rec[3e + 1]), value rec[3e + 2]. */
+  private rec = new Int32Array(3 << 12);
+  /** Slot s: entry + 1 (0: empty) at 2s, the entry's hash at 2s + 1. */
+  private slots = new Int32Array(2 << 13);
+
+  constructor(private readonly limit: number) {}
+
+  value(e: number): number {
+    return this.rec[3 * e + 2];
+  }
+
+  /** The entry of src[start, end) (hash h), or -1. */
+  find(src: Uint16Array, start: number, end: number, h: number): number {
+    const slots = this.slots;
+    const mask = (slots.length >> 1) - 1;
+    const len = end - start;
+    for (let s = h & mask; ; s = (s + 1) & mask) {
+      const e1 = slots[2 * s];
+      if (e1 === 0) return -1;
+      if (slots[2 * s + 1] !== h) continue;
+      const r = 3 * (e1 - 1);
+      if (this.rec[r + 1] !== len) continue;
+      const u0 = this.rec[r];
+      const units = this.units;
+      let i = 0;
+      while (i < len && units[u0 + i] === src[start + i]) i++;
+      if (i === len) return e1 - 1;
+    }
+  }
+
+  /** Adds src[start, end) (hash h, not present) with its value; returns the entry. */
+  insert(src: Uint16Array, start: number, end: number, h: number, value: number): number {
+    if (this.size >= this.limit) this.clear();
+    if ((this.size + 1) * 2 > this.slots.length >> 1) this.rehash();
+    const e = this.size;
+    if (3 * e + 3 > this.rec.length) this.rec = grow32(this.rec, 3 * e + 3);
+    const len = end - start;
+    if (this.used + len > this.units.length) {
+      const grown = new Uint16Array(Math.max(this.used + len, this.units.length * 2));
+      grown.set(this.units.subarray(0, this.used));
+      this.units = grown;
+    }
+    this.units.set(src.subarray(start, end), this.used);
+    this.rec[3 * e] = this.used;
+    this.rec[3 * e + 1] = len;
+    this.rec[3 * e + 2] = value;
+    this.used += len;
+    this.size = e + 1;
+    this.place(this.slots, e, h);
+    return e;
+  }
+
+  clear(): void {
+    this.size = 0;
+    this.used = 0;
+    this.slots.fill(0);
+  }
+
+  private place(slots: Int32Array, e: number, h: number): void {
+    const mask = (slots.length >> 1) - 1;
+    let s = h & mask;
+    while (slots[2 * s] !== 0) s = (s + 1) & mask;
+    slots[2 * s] = e + 1;
+    slots[2 * s + 1] = h;
+  }
+
+  /** Twice the slots (each entry's hash is kept in its old slot). */
+  private rehash(): void {
+    const old = this.slots;
+    const slots = new Int32Array(2 * old.length);
+    for (let s = 0; s < old.length; s += 2) if (old[s] !== 0) this.place(slots, old[s] - 1, old[s + 1]);
+    this.slots = slots;
+  }
+}
+
+export function grow32(a: Int32Array<ArrayBuffer>, atLeast: number): Int32Array<ArrayBuffer> {
+  const b = new Int32Array(Math.max(atLeast, a.length * 2));
+  b.set(a);
+  return b;
+}
