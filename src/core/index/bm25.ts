@@ -25,6 +25,32 @@ export const DEFAULT_BM25_OPTIONS: Readonly<Bm25Options> = Object.freeze({ k1: 1
 /** Side lists are folded into the main lists past this share of their size (common practice). */
 const COMPACT_SHARE = 0.25;
 const COMPACT_MIN = 1 << 16;
+const NO_POSTINGS: readonly number[] = [];
+
+// The loops live in small functions of their own, which the engine optimises whole.
+
+/** One term's contributions from the main lists, postings [p0, p1), void slots skipped. */
+function addMain(p0: number, p1: number, docs: Int32Array, tfs: Float32Array, dead: Uint8Array, norm: Float64Array, idf: number, k1: number, out: Float64Array): void {
+  for (let p = p0; p < p1; p++) {
+    const j = docs[p];
+    if (dead[j]) continue;
+    const tf = tfs[p];
+    out[j] += (idf * tf * (k1 + 1)) / (tf + norm[j]);
+  }
+}
+
+/** One term's contributions from a side list [slot, tf, slot, tf, …]. */
+function addSide(list: readonly number[], norm: Float64Array, idf: number, k1: number, out: Float64Array): void {
+  for (let p = 0; p < list.length; p += 2) {
+    const j = list[p];
+    const tf = list[p + 1];
+    out[j] += (idf * tf * (k1 + 1)) / (tf + norm[j]);
+  }
+}
+
+function lengthNorms(docs: readonly (DocTerms | null)[], lengths: Float64Array, avg: number, k1: number, b: number, out: Float64Array): void {
+  for (let j = 0; j < docs.length; j++) out[j] = docs[j] !== null ? k1 * (1 - b + (b * lengths[j]) / Math.max(avg, 1e-9)) : 0;
+}
 
 export class Bm25Scorer {
   private readonly _opts: Bm25Options;
@@ -40,6 +66,8 @@ export class Bm25Scorer {
   private _df!: Int32Array;
   private _n = 0;
   private _totalLength = 0;
+  /** Tokens per slot (0 for empty slots), kept beside the documents for the length norm. */
+  private _lengths = new Float64Array(0);
   private _lengthNorm = new Float64Array(0);
   private _normFresh = false;
 
@@ -87,6 +115,12 @@ export class Bm25Scorer {
       this._sidePostings += ids.length;
     }
     this._docsOf[slot] = terms;
+    if (slot >= this._lengths.length) {
+      const grown = new Float64Array(Math.max(slot + 1, Math.ceil(this._lengths.length * 1.25)));
+      grown.set(this._lengths);
+      this._lengths = grown;
+    }
+    this._lengths[slot] = terms ? terms.length : 0;
     this._normFresh = false;
     if (this._sidePostings > Math.max(COMPACT_MIN, COMPACT_SHARE * this._docs.length)) this.rebuild(this._df.length);
   }
@@ -95,26 +129,13 @@ export class Bm25Scorer {
   scoreInto(query: DocTerms, out: Float64Array): void {
     const k1 = this._opts.k1;
     const norm = this.lengthNorm();
-    const start = this._start, docs = this._docs, tfs = this._tf, dead = this._void;
-    const mainTerms = start.length - 1;
+    const mainTerms = this._start.length - 1;
     for (let i = 0; i < query.termIds.length; i++) {
       const t = query.termIds[i];
       if (this.docFrequency(t) === 0) continue;
       const idf = this.idf(t) * query.counts[i];
-      if (t < mainTerms) {
-        for (let p = start[t]; p < start[t + 1]; p++) {
-          const j = docs[p];
-          if (dead[j]) continue;
-          const tf = tfs[p];
-          out[j] += (idf * tf * (k1 + 1)) / (tf + norm[j]);
-        }
-      }
-      const side = this._side.get(t);
-      if (side) for (let p = 0; p < side.length; p += 2) {
-        const j = side[p];
-        const tf = side[p + 1];
-        out[j] += (idf * tf * (k1 + 1)) / (tf + norm[j]);
-      }
+      if (t < mainTerms) addMain(this._start[t], this._start[t + 1], this._docs, this._tf, this._void, norm, idf, k1, out);
+      addSide(this._side.get(t) ?? NO_POSTINGS, norm, idf, k1, out);
     }
   }
 
@@ -132,10 +153,7 @@ export class Bm25Scorer {
     if (this._lengthNorm.length !== docs.length) this._lengthNorm = new Float64Array(docs.length);
     const avg = this._n > 0 ? this._totalLength / this._n : 1;
     const { k1, b } = this._opts;
-    for (let j = 0; j < docs.length; j++) {
-      const d = docs[j];
-      this._lengthNorm[j] = d ? k1 * (1 - b + (b * d.length) / Math.max(avg, 1e-9)) : 0;
-    }
+    lengthNorms(docs, this._lengths, avg, k1, b, this._lengthNorm);
     this._normFresh = true;
     return this._lengthNorm;
   }
@@ -190,6 +208,7 @@ export class Bm25Scorer {
     }
     this._start = start;
     this._void = new Uint8Array(docs.length);
+    this._lengths = Float64Array.from(docs, (d) => (d ? d.length : 0));
     this._side = new Map();
     this._sidePostings = 0;
     this._n = n;

@@ -74,6 +74,7 @@ export class LsiIndex {
   private readonly _rows: ConceptRows;
   private readonly _slotOf = new Map<string, number>();
   private _bm25: Bm25Scorer | null = null;
+  private _scratch = new Float64Array(0);
   private _removedSinceBuild = 0;
   private _foldedTokens = 0;
   private _foldedUnknownTokens = 0;
@@ -161,17 +162,16 @@ export class LsiIndex {
     const proj = projectTerms(this.model, q);
     const n = this._slots.length;
     const concept = this.liveDots(proj.vector);
-    const lexical = new Float64Array(n);
+    // Two reused n-long arrays (allocating 2 × 8n bytes per query made the collector run often).
+    if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
+    const lexical = this._scratch.subarray(0, n).fill(0);
+    const blended = this._scratch.subarray(n, 2 * n);
     const lambda = this.settings.lexicalBlend;
     if (lambda > 0) {
       this.bm25().scoreInto(q, lexical);
-      let max = 0;
-      for (let j = 0; j < n; j++) max = Math.max(max, lexical[j]);
-      if (max > 0) for (let j = 0; j < n; j++) lexical[j] /= max;
+      divideByMax(lexical);
     }
-    const blended = new Float64Array(n);
-    const conceptWeight = proj.knownTerms > 0 ? 1 - lambda : 0;
-    for (let j = 0; j < n; j++) blended[j] = conceptWeight * concept[j] + lambda * lexical[j];
+    blend(proj.knownTerms > 0 ? 1 - lambda : 0, concept, lambda, lexical, blended);
     const filter = options.filter;
     return topN(blended, top, this.acceptor(filter)).map(({ slot, score }) => ({
       path: this._slots[slot]!.meta.path,
@@ -197,8 +197,7 @@ export class LsiIndex {
   /** Dot products with every slot, holes −Infinity: a view overwritten by the next call. */
   private liveDots(vector: Float32Array): Float64Array {
     const out = this._rows.dots(vector, this._slots.length);
-    const slots = this._slots;
-    for (let j = 0; j < slots.length; j++) if (slots[j] === null) out[j] = Number.NEGATIVE_INFINITY;
+    markHoles(this._slots, out);
     return out;
   }
 
@@ -287,4 +286,23 @@ export class LsiIndex {
     if (s === undefined) throw new NotIndexedError(path);
     return s;
   }
+}
+
+// The loops over every slot live in small functions of their own, which the engine optimises
+// whole (loops inside a long method are optimised on their own and leave it at each exit).
+
+/** a[j] /= max(a) when the maximum is positive. */
+function divideByMax(a: Float64Array): void {
+  let max = 0;
+  for (let j = 0; j < a.length; j++) max = Math.max(max, a[j]);
+  if (max > 0) for (let j = 0; j < a.length; j++) a[j] /= max;
+}
+
+/** out[j] = wa·a[j] + wb·b[j]. */
+function blend(wa: number, a: Float64Array, wb: number, b: Float64Array, out: Float64Array): void {
+  for (let j = 0; j < out.length; j++) out[j] = wa * a[j] + wb * b[j];
+}
+
+function markHoles(slots: readonly (DocSlot | null)[], out: Float64Array): void {
+  for (let j = 0; j < slots.length; j++) if (slots[j] === null) out[j] = Number.NEGATIVE_INFINITY;
 }
