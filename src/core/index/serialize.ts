@@ -51,52 +51,66 @@ const align8 = (n: number): number => (n + 7) & ~7;
 const encoder = new TextEncoder();
 const decoder = new TextDecoder('utf-8', { fatal: true });
 
+/** A payload section: its table entry's name, kind and length, and how to write it in place. */
+interface SectionSource {
+  readonly name: string;
+  readonly kind: ArrayKind;
+  readonly length: number;
+  /** Writes the section into out at byte offset at (8-aligned). */
+  readonly write: (out: Uint8Array, at: number) => void;
+}
+
+const copied = (name: string, arr: Typed): SectionSource => ({
+  name,
+  kind: kindOf(arr),
+  length: arr.length,
+  write: (out, at) => out.set(new Uint8Array(arr.buffer, arr.byteOffset, arr.byteLength), at),
+});
+
+/** A section filled straight into the output buffer. */
+const inPlace = <K extends ArrayKind>(name: string, kind: K, length: number, fill: (dst: InstanceType<(typeof CTORS)[K]>) => void): SectionSource => ({
+  name,
+  kind,
+  length,
+  write: (out, at) => fill(new CTORS[kind](out.buffer as ArrayBuffer, out.byteOffset + at, length) as InstanceType<(typeof CTORS)[K]>),
+});
+
+/** Encodes an index into one buffer, writing the large sections in place (no second copy of the payload). */
 export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint8Array {
   const live = index.slots().map((s, i) => [s, i] as const).filter((p): p is readonly [DocSlot, number] => p[0] !== null);
   const k = index.k;
   const n = live.length;
-  const vectors = new Float32Array(n * k);
   const all = index.vectors();
-  live.forEach(([, i], j) => vectors.set(all.subarray(i * k, (i + 1) * k), j * k));
-  let nnz = 0;
-  for (const [s] of live) nnz += s.terms.termIds.length;
   const termIndptr = new Int32Array(n + 1);
-  const termIds = new Int32Array(nnz);
-  const termCounts = new Float32Array(nnz);
-  live.forEach(([s], j) => {
-    termIds.set(s.terms.termIds, termIndptr[j]);
-    termCounts.set(s.terms.counts, termIndptr[j]);
-    termIndptr[j + 1] = termIndptr[j] + s.terms.termIds.length;
-  });
+  live.forEach(([s], j) => (termIndptr[j + 1] = termIndptr[j] + s.terms.termIds.length));
+  const nnz = termIndptr[n];
   const m = index.model;
   const vocab = index.vocab.toBytes();
-  const sections: [string, Typed][] = [
-    ['vocab', vocab.bytes],
-    ['vocabStarts', vocab.starts],
-    ['paths', encoder.encode(live.map(([s]) => s.meta.path).join('\0'))],
-    ['docSize', Float64Array.from(live, ([s]) => s.meta.size)],
-    ['docMtime', Float64Array.from(live, ([s]) => s.meta.mtimeMs)],
-    ['docLength', Float64Array.from(live, ([s]) => s.terms.length)],
-    ['docFolded', Uint8Array.from(live, ([s]) => (s.folded ? 1 : 0))],
-    ['docResidual', Float64Array.from(live, ([s]) => s.residual)],
-    ['termIndptr', termIndptr],
-    ['termIds', termIds],
-    ['termCounts', termCounts],
-    ['keptIds', m.keptIds],
-    ['weights', m.weights],
-    ['termVectors', m.termVectors],
-    ['singularValues', m.singularValues],
-    ['axisScale', m.axisScale],
-    ['vectors', vectors],
+  const sections: SectionSource[] = [
+    copied('vocab', vocab.bytes),
+    copied('vocabStarts', vocab.starts),
+    copied('paths', encoder.encode(live.map(([s]) => s.meta.path).join('\0'))),
+    copied('docSize', Float64Array.from(live, ([s]) => s.meta.size)),
+    copied('docMtime', Float64Array.from(live, ([s]) => s.meta.mtimeMs)),
+    copied('docLength', Float64Array.from(live, ([s]) => s.terms.length)),
+    copied('docFolded', Uint8Array.from(live, ([s]) => (s.folded ? 1 : 0))),
+    copied('docResidual', Float64Array.from(live, ([s]) => s.residual)),
+    copied('termIndptr', termIndptr),
+    inPlace('termIds', 'i32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.termIds, termIndptr[j]))),
+    inPlace('termCounts', 'f32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.counts, termIndptr[j]))),
+    copied('keptIds', m.keptIds),
+    copied('weights', m.weights),
+    copied('termVectors', m.termVectors),
+    copied('singularValues', m.singularValues),
+    copied('axisScale', m.axisScale),
+    inPlace('vectors', 'f32', n * k, (dst) => live.forEach(([, i], j) => dst.set(all.subarray(i * k, (i + 1) * k), j * k))),
   ];
   const table: SectionEntry[] = [];
   let offset = 0;
-  for (const [name, arr] of sections) {
-    table.push({ name, kind: kindOf(arr), offset, length: arr.length });
-    offset = align8(offset + arr.byteLength);
+  for (const { name, kind, length } of sections) {
+    table.push({ name, kind, offset, length });
+    offset = align8(offset + length * CTORS[kind].BYTES_PER_ELEMENT);
   }
-  const payload = new Uint8Array(offset);
-  sections.forEach(([, arr], i) => payload.set(new Uint8Array(arr.buffer, arr.byteOffset, arr.byteLength), table[i].offset));
   const { keptIds: _a, columnOf, weights: _b, termVectors: _c, singularValues: _d, axisScale: _e, ...scalars } = m;
   const header: Header = {
     formatVersion: INDEX_FORMAT_VERSION,
@@ -107,16 +121,19 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     model: { ...scalars, columnOfLength: columnOf.length },
     counters: index.counters(),
     sections: table,
-    payloadBytes: payload.length,
-    checksum: checksum32(payload),
+    payloadBytes: offset,
+    checksum: 0xffffffff, // the widest value: room for the real one, padded with spaces
   };
+  const reserved = encoder.encode(JSON.stringify(header)).length;
+  const start = align8(12 + reserved);
+  const out = new Uint8Array(start + offset);
+  sections.forEach((sec, i) => sec.write(out, start + table[i].offset));
+  header.checksum = checksum32(out.subarray(start));
   const headerBytes = encoder.encode(JSON.stringify(header));
-  const start = align8(12 + headerBytes.length);
-  const out = new Uint8Array(start + payload.length);
   out.set(encoder.encode(MAGIC), 0);
-  new DataView(out.buffer).setUint32(8, headerBytes.length, true);
+  new DataView(out.buffer).setUint32(8, reserved, true);
   out.set(headerBytes, 12);
-  out.set(payload, start);
+  out.fill(0x20, 12 + headerBytes.length, 12 + reserved);
   return out;
 }
 

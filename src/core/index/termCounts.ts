@@ -53,23 +53,20 @@ function validStarts(bytes: Uint8Array, starts: Int32Array): boolean {
   return starts[count] > starts[count - 1];
 }
 
-/** Byte-order comparison of term a (bytes[a0, a1)) with q[0, qn). */
-function compareBytes(bytes: Uint8Array, a0: number, a1: number, q: Uint8Array, qn: number): number {
-  const n = Math.min(a1 - a0, qn);
+/** Byte-order comparison of term a (bytes[a0, a1)) with q[q0, q1). */
+function compareBytes(bytes: Uint8Array, a0: number, a1: number, q: Uint8Array, q0: number, q1: number): number {
+  const n = Math.min(a1 - a0, q1 - q0);
   for (let i = 0; i < n; i++) {
-    const d = bytes[a0 + i] - q[i];
+    const d = bytes[a0 + i] - q[q0 + i];
     if (d !== 0) return d;
   }
-  return a1 - a0 - qn;
+  return a1 - a0 - (q1 - q0);
 }
 
 /** Length of the leading run of terms in strictly ascending byte order, from a known run `from`. */
 function sortedRun(bytes: Uint8Array, starts: Int32Array, count: number, from: number): number {
   let i = Math.max(from, 1);
-  for (; i < count; i++) {
-    const c = compareBytes(bytes, starts[i - 1], starts[i] - 1, bytes.subarray(starts[i], starts[i + 1] - 1), starts[i + 1] - 1 - starts[i]);
-    if (c >= 0) break;
-  }
+  while (i < count && compareBytes(bytes, starts[i - 1], starts[i] - 1, bytes, starts[i], starts[i + 1] - 1) < 0) i++;
   return Math.min(i, count);
 }
 
@@ -121,7 +118,8 @@ export class Vocabulary {
     const starts = new Int32Array(count + 1);
     starts.set(this._starts.subarray(0, this._base));
     const offset = bytes.length - tail.length;
-    starts.set(termStarts(tail, this._added.length).map((x) => x + offset), this._base);
+    const tailStarts = termStarts(tail, this._added.length);
+    for (let i = 0; i < tailStarts.length; i++) starts[this._base + i] = tailStarts[i] + offset;
     const from = this._sorted === this._base ? this._sorted : count;
     return { bytes, starts, sorted: this._sorted < this._base ? this._sorted : sortedRun(bytes, starts, count, from) };
   }
@@ -191,7 +189,7 @@ export class Vocabulary {
     let hi = this._sorted - 1;
     while (lo <= hi) {
       const mid = (lo + hi) >>> 1;
-      const c = compareBytes(this._bytes, starts[mid], starts[mid + 1] - 1, q, qn);
+      const c = compareBytes(this._bytes, starts[mid], starts[mid + 1] - 1, q, 0, qn);
       if (c < 0) lo = mid + 1;
       else if (c > 0) hi = mid - 1;
       else return mid;
