@@ -3,7 +3,9 @@
  * concept vector per document, and the lexical (BM25) scorer. Answers searches by meaning
  * (query folded into the concept space, cosine ranking, optionally blended with BM25) and
  * nearest-file questions; accepts edits by folding changed documents in with the frozen weights
- * (Berry, Dumais & O'Brien 1995) and reports how stale the model has become.
+ * (Berry, Dumais & O'Brien 1995) and reports how stale the model has become. The unit vectors
+ * sit in one block (conceptRows.ts), so ranking by cosine is one pass of dot products; the BM25
+ * scorer is built on first use and then updated with each fold-in and removal.
  */
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
