@@ -26,6 +26,8 @@ export interface CountOptions {
   readonly signal?: AbortSignal;
   /** Called with the number of files done so far. */
   readonly onProgress?: (done: number) => void;
+  /** Threads keep the counts until asked for them (countFilesSorted). */
+  readonly keepCounts?: boolean;
 }
 
 const BATCH_FILES = 48;
@@ -58,6 +60,7 @@ export async function countFilesInParallel(
     }
     const tr = translate[w];
     for (const f of msg.files) {
+      if (f.kind === 'kept') throw new Error('a tokenizing thread kept counts it was asked to send');
       onFile(f.index, f.kind === 'text' ? { kind: 'text', terms: toDocTerms(f.ids, f.counts, f.length, tr) } : { kind: f.kind });
     }
   });
@@ -135,7 +138,7 @@ export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], opt
     workers.forEach((worker) => {
       worker.on('message', handlers.get(worker)!);
       worker.on('error', onError);
-      const setup: ToWorker = { type: 'setup', tokenize: options.tokenize, maxFileBytes: options.maxFileBytes };
+      const setup: ToWorker = { type: 'setup', tokenize: options.tokenize, maxFileBytes: options.maxFileBytes, keepCounts: options.keepCounts };
       worker.postMessage(setup);
     });
     for (let r = 0; r < IN_FLIGHT_PER_WORKER; r++) workers.forEach((_, w) => send(w));
@@ -146,20 +149,31 @@ export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], opt
   });
 }
 
-const SHIFT = 2 ** 21;
-
 /** Local (ids, counts) to DocTerms over the caller's ids, sorted ascending. */
 export function toDocTerms(ids: Int32Array, counts: Int32Array, length: number, tr: Int32Array): DocTerms {
-  const n = ids.length;
-  const keys = new Float64Array(n);
-  for (let i = 0; i < n; i++) keys[i] = tr[ids[i]] * SHIFT + i;
-  keys.sort();
-  const termIds = new Int32Array(n);
-  const out = new Float32Array(n);
-  for (let j = 0; j < n; j++) {
-    const id = Math.floor(keys[j] / SHIFT);
-    termIds[j] = id;
-    out[j] = counts[keys[j] - id * SHIFT];
-  }
+  const termIds = new Int32Array(ids.length);
+  const out = new Float32Array(ids.length);
+  translateRun(ids, counts, 0, ids.length, tr, termIds, out);
   return { termIds, counts: out, length };
+}
+
+const SHIFT = 2 ** 21;
+let keys = new Float64Array(1024);
+
+/**
+ * Translates ids[from, to) (local ids) by tr and writes them, sorted ascending, with their counts
+ * to termIds / out at the same positions.
+ */
+export function translateRun(ids: Int32Array, counts: Int32Array, from: number, to: number, tr: Int32Array, termIds: Int32Array, out: Float32Array): void {
+  const n = to - from;
+  if (n > keys.length) keys = new Float64Array(Math.max(n, keys.length * 2));
+  // Keys pack (new id, position): a file has fewer than 2^21 distinct terms (it is at most a few MB).
+  const k = keys.subarray(0, n);
+  for (let i = 0; i < n; i++) k[i] = tr[ids[from + i]] * SHIFT + i;
+  k.sort();
+  for (let j = 0; j < n; j++) {
+    const id = Math.floor(k[j] / SHIFT);
+    termIds[from + j] = id;
+    out[from + j] = counts[from + k[j] - id * SHIFT];
+  }
 }

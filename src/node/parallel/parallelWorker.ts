@@ -6,14 +6,18 @@
 import { parentPort } from 'node:worker_threads';
 import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
-import type { FileOutcome, FromWorker, ToWorker } from './protocol.js';
+import { translateRun } from './parallelCount.js';
+import type { FileOutcome, FinalCounts, FromWorker, ToWorker } from './protocol.js';
 import { decodeUtf8 } from '../scanRead.js';
 import { FileReader } from './readTextSync.js';
-import { WordCounter } from './wordCounter.js';
+import { WordCounter, type PackedFile } from './wordCounter.js';
 
 if (!parentPort) throw new Error('parallelWorker.js must be started as a worker thread.');
 const port = parentPort;
 let counter: WordCounter | undefined;
+let keepCounts = false;
+/** Pack ranges [start, end) of the kept files, in pack order. */
+let kept: number[] = [];
 const reader = new FileReader();
 let maxFileBytes = 1_048_576;
 let kernels: KernelExports | undefined;
@@ -46,26 +50,50 @@ port.on('message', (msg: ToWorker) => {
   if (msg.type === 'setup') {
     counter = new WordCounter(msg.tokenize);
     maxFileBytes = msg.maxFileBytes;
+    keepCounts = msg.keepCounts === true;
+    kept = [];
+    return;
+  }
+  if (msg.type === 'finish-counts') {
+    const reply = finishCounts(msg.translate);
+    port.postMessage(reply, [reply.termIds.buffer as ArrayBuffer, reply.counts.buffer as ArrayBuffer]);
     return;
   }
   try {
     const wc = counter ?? (counter = new WordCounter({}));
-    const files: FileOutcome[] = [];
-    const transfer: ArrayBuffer[] = [];
+    const read: ({ readonly index: number } & (PackedFile | { readonly kind: 'binary' | 'too-large' | 'unreadable' }))[] = [];
     for (const f of msg.files) {
       const got = reader.read(f.absPath, maxFileBytes);
-      if (got.kind !== 'bytes') {
-        files.push({ index: f.index, kind: got.kind });
-        continue;
-      }
-      const c = got.ascii ? wc.countAscii(got.bytes) : wc.count(decodeUtf8(got.bytes));
-      files.push({ index: f.index, kind: 'text', ids: c.ids, counts: c.counts, length: c.length });
-      transfer.push(c.ids.buffer as ArrayBuffer, c.counts.buffer as ArrayBuffer);
+      if (got.kind !== 'bytes') read.push({ index: f.index, kind: got.kind });
+      else read.push({ index: f.index, ...(got.ascii ? wc.packAscii(got.bytes) : wc.packText(decodeUtf8(got.bytes))) });
     }
+    if (keepCounts) {
+      // The counts stay in the pack until finish-counts; the reply says where.
+      const files: FileOutcome[] = read.map((r) => ('kind' in r ? r : { index: r.index, kind: 'kept', at: r.at, terms: r.terms, length: r.length }));
+      for (const r of read) if (!('kind' in r)) kept.push(r.at, r.at + r.terms);
+      const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: wc.takeNewTerms(), files };
+      port.postMessage(reply);
+      return;
+    }
+    // One pair of buffers for the whole batch; each file's arrays are views into them.
+    const { ids, counts } = wc.takePack();
+    const files: FileOutcome[] = read.map((r) =>
+      'kind' in r ? r : { index: r.index, kind: 'text', ids: ids.subarray(r.at, r.at + r.terms), counts: counts.subarray(r.at, r.at + r.terms), length: r.length },
+    );
     const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: wc.takeNewTerms(), files };
-    port.postMessage(reply, transfer);
+    port.postMessage(reply, [ids.buffer as ArrayBuffer, counts.buffer as ArrayBuffer]);
   } catch (err) {
     const reply: FromWorker = { type: 'error', message: err instanceof Error ? err.message : String(err) };
     port.postMessage(reply);
   }
 });
+
+/** Every kept file's counts over final ids (each file's run sorted), and a fresh start. */
+function finishCounts(translate: Int32Array): FinalCounts {
+  const { ids, counts } = (counter ?? new WordCounter({})).drainPack();
+  const termIds = new Int32Array(ids.length);
+  const out = new Float32Array(ids.length);
+  for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, termIds, out);
+  kept = [];
+  return { type: 'final-counts', termIds, counts: out };
+}

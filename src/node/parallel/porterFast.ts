@@ -27,24 +27,10 @@ function charIsV(s: string, i: number): boolean {
   return !isVowel(p) && p !== Y;
 }
 
-/** natural's categorizeGroups(s) as a string of 'C' and 'V'. */
-export function groups(s: string): string {
-  let out = '';
-  let prevVowelRun = false;
-  for (let i = 0; i < s.length; i++) {
-    const c = s.charCodeAt(i);
-    if (isVowel(c)) {
-      if (!prevVowelRun) out += 'V';
-      prevVowelRun = true;
-    } else if (charIsV(s, i)) {
-      out += 'V';
-      prevVowelRun = false;
-    } else {
-      if (out.length === 0 || out.charCodeAt(out.length - 1) !== 67) out += 'C';
-      prevVowelRun = false;
-    }
-  }
-  return out;
+/** True when some char of s[0, end) is in a vowel group (natural's categorizeGroups has a 'V'). */
+function hasVowelGroup(s: string, end: number): boolean {
+  for (let i = 0; i < end; i++) if (charIsV(s, i)) return true;
+  return false;
 }
 
 export function measure(s: string | null): number {
@@ -74,11 +60,13 @@ export function measure(s: string | null): number {
   return count / 2;
 }
 
-/** natural's categorizeChars(s): one 'C' or 'V' per char. */
-function chars(s: string): string {
-  let out = '';
-  for (let i = 0; i < s.length; i++) out += charIsV(s, i) ? 'V' : 'C';
-  return out;
+/**
+ * substr(categorizeChars(s), from, 3) === 'CVC', natural's test on one 'C' or 'V' per char, with
+ * a negative from counted from the end (clamped at 0) as substr does.
+ */
+function cvcAt(s: string, from: number): boolean {
+  const i = from < 0 ? Math.max(s.length + from, 0) : from;
+  return i + 3 <= s.length && !charIsV(s, i) && charIsV(s, i + 1) && !charIsV(s, i + 2);
 }
 
 /** JavaScript's String.prototype.substr(start, length), which strict TypeScript discourages. */
@@ -130,12 +118,12 @@ function step1a(t: string): string {
 }
 
 function step1bTail(t: string): string | null {
-  if (groups(t).indexOf('V') < 0) return null;
+  if (!hasVowelGroup(t, t.length)) return null;
   const result = replacePatterns(t, STEP1B, null);
   if (result !== t) return result;
   const last = t.charCodeAt(t.length - 1);
   if (doubleConsonant(t) && last !== 108 && last !== 115 && last !== 122) return t.slice(0, -1);
-  if (measure(t) === 1 && substr(chars(t), -3) === 'CVC' && last !== 119 && last !== 120 && last !== Y) return `${t}e`;
+  if (measure(t) === 1 && cvcAt(t, -3) && last !== 119 && last !== 120 && last !== Y) return `${t}e`;
   return t;
 }
 
@@ -150,8 +138,9 @@ function step1b(t: string): string {
 }
 
 function step1c(t: string): string {
-  const g = groups(t);
-  if (substr(t, -1) === 'y' && substr(g, 0, g.length - 1).indexOf('V') > -1) return `${t.slice(0, -1)}i`;
+  // natural: the token ends in 'y' and a group before the last is a vowel group; the last group
+  // is the final 'y' alone (as a vowel) or a consonant run, so that is a vowel char before it.
+  if (t.endsWith('y') && hasVowelGroup(t, t.length - 1)) return `${t.slice(0, -1)}i`;
   return t;
 }
 
@@ -175,7 +164,8 @@ function step4(t: string): string {
 function step5a(t: string): string {
   const m = measure(t.endsWith('e') ? t.slice(0, -1) : t);
   const n = t.length;
-  const cvc = substr(chars(t), -4, 3) === 'CVC' && n >= 2 && ![119, 120, Y].includes(t.charCodeAt(n - 2));
+  const w = t.charCodeAt(n - 2);
+  const cvc = cvcAt(t, -4) && n >= 2 && w !== 119 && w !== 120 && w !== Y;
   if (m > 1 || (m === 1 && !cvc)) return t.endsWith('e') ? t.slice(0, -1) : t;
   return t;
 }

@@ -12,6 +12,8 @@ export interface TokenizeSetup {
   readonly type: 'setup';
   readonly tokenize: Partial<TokenizeOptions>;
   readonly maxFileBytes: number;
+  /** Keep each file's counts in the thread until 'finish-counts' (countFilesSorted). */
+  readonly keepCounts?: boolean;
 }
 
 export interface TokenizeBatch {
@@ -32,11 +34,19 @@ export interface SortTerms {
   readonly type: 'sort-terms';
 }
 
-export type ToWorker = KernelMessage | WasmInit | TokenizeSetup | TokenizeBatch | SortTerms;
+/** Local → final term ids: the thread replies with every kept file's counts over final ids. */
+export interface FinishCounts {
+  readonly type: 'finish-counts';
+  readonly translate: Int32Array;
+}
+
+export type ToWorker = KernelMessage | WasmInit | TokenizeSetup | TokenizeBatch | SortTerms | FinishCounts;
 
 /** The outcome of one file; ids are the worker's local term ids (see WordCounter). */
 export type FileOutcome =
   | { readonly index: number; readonly kind: 'text'; readonly ids: Int32Array; readonly counts: Int32Array; readonly length: number }
+  /** Counts kept in the thread (keepCounts): positions [at, at + terms) of its final-counts reply. */
+  | { readonly index: number; readonly kind: 'kept'; readonly at: number; readonly terms: number; readonly length: number }
   | { readonly index: number; readonly kind: 'binary' | 'too-large' | 'unreadable' };
 
 export interface BatchDone {
@@ -58,4 +68,11 @@ export interface TermOrder {
   readonly order: Int32Array;
 }
 
-export type FromWorker = BatchDone | WorkerFailure | TermOrder;
+/** Every kept file's counts, each file's run sorted by final term id. */
+export interface FinalCounts {
+  readonly type: 'final-counts';
+  readonly termIds: Int32Array;
+  readonly counts: Float32Array;
+}
+
+export type FromWorker = BatchDone | WorkerFailure | TermOrder | FinalCounts;

@@ -2,19 +2,22 @@
  * Reads and counts files on the pool's threads for a build from scratch, and returns the counts
  * over a vocabulary that is already in IndexBuilder's canonical order (terms sorted by UTF-16
  * code units, every term used), so the builder does not have to renumber millions of terms.
- * No shared term map is grown while reading: each thread keeps its own terms; at the end each
- * sorts its own (in parallel), the sorted lists are merged here, and each file's local ids are
- * translated once. The result does not depend on which thread read which file.
+ * No shared term map is grown while reading: each thread keeps its own terms, and its files'
+ * counts (packed in one array, not sent per batch); at the end each sorts its own terms (in
+ * parallel), the sorted lists are merged here, and each thread translates its files' counts to
+ * the merged ids and sends them back in one pair of arrays, which the files' DocTerms view. The
+ * result does not depend on which thread read which file.
  */
 import { Vocabulary, type DocTerms } from '../../core/index/termCounts.js';
-import { runCountBatches, toDocTerms, type CountJob, type CountOptions, type CountOutcome } from './parallelCount.js';
-import type { FromWorker, ToWorker } from './protocol.js';
+import { runCountBatches, type CountJob, type CountOptions, type CountOutcome } from './parallelCount.js';
+import type { FinalCounts, FromWorker, TermOrder, ToWorker } from './protocol.js';
 import type { WorkerPool } from './workerPool.js';
 
 interface Pending {
   readonly worker: number;
-  readonly ids: Int32Array;
-  readonly counts: Int32Array;
+  /** Positions [at, at + terms) of the worker's final counts. */
+  readonly at: number;
+  readonly terms: number;
   readonly length: number;
 }
 
@@ -28,46 +31,53 @@ export interface SortedCounts {
 export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob[], options: CountOptions): Promise<SortedCounts> {
   const terms: string[][] = pool.workers.map(() => []);
   const raw: (Pending | Exclude<CountOutcome, { kind: 'text' }>)[] = new Array(jobs.length);
-  await runCountBatches(pool, jobs, options, (w, msg) => {
+  await runCountBatches(pool, jobs, { ...options, keepCounts: true }, (w, msg) => {
     for (const t of msg.newTerms) terms[w].push(t);
-    for (const f of msg.files) raw[f.index] = f.kind === 'text' ? { worker: w, ids: f.ids, counts: f.counts, length: f.length } : { kind: f.kind };
+    for (const f of msg.files) {
+      if (f.kind === 'text') throw new Error('a tokenizing thread sent counts it was asked to keep');
+      raw[f.index] = f.kind === 'kept' ? { worker: w, at: f.at, terms: f.terms, length: f.length } : { kind: f.kind };
+    }
   });
-  const orders = await Promise.all(pool.workers.map((_, w) => termOrder(pool, w)));
-  const { sorted, translate } = mergeSorted(terms, orders);
+  const orders = await Promise.all(pool.workers.map((_, w) => ask<TermOrder>(pool, w, { type: 'sort-terms' }, 'term-order')));
+  const { sorted, translate } = mergeSorted(terms, orders.map((o) => o.order));
+  // Each thread translates and sorts its own files' counts (in parallel), into one pair of arrays.
+  const finals = await Promise.all(pool.workers.map((_, w) => ask<FinalCounts>(pool, w, { type: 'finish-counts', translate: translate[w] }, 'final-counts')));
   const outcomes: CountOutcome[] = new Array(jobs.length);
   for (let i = 0; i < jobs.length; i++) {
     const r = raw[i];
     if ('worker' in r) {
-      const terms: DocTerms = toDocTerms(r.ids, r.counts, r.length, translate[r.worker]);
+      const f = finals[r.worker];
+      const terms: DocTerms = { termIds: f.termIds.subarray(r.at, r.at + r.terms), counts: f.counts.subarray(r.at, r.at + r.terms), length: r.length };
       outcomes[i] = { kind: 'text', terms };
     } else outcomes[i] = r;
-    raw[i] = undefined as never; // hand the local arrays back as we go
   }
   return { vocab: new Vocabulary(sorted), outcomes };
 }
 
-function termOrder(pool: WorkerPool, w: number): Promise<Int32Array> {
+/** Sends msg to worker w and resolves with its reply of the given type. */
+function ask<T extends FromWorker>(pool: WorkerPool, w: number, msg: ToWorker, replyType: T['type']): Promise<T> {
   const worker = pool.workers[w];
   return new Promise((resolve, reject) => {
-    const onMessage = (msg: FromWorker): void => {
-      if (msg.type === 'term-order') {
-        worker.off('message', onMessage);
-        worker.off('error', onError);
-        resolve(msg.order);
-      } else if (msg.type === 'error') {
-        worker.off('message', onMessage);
-        worker.off('error', onError);
-        reject(new Error(`a tokenizing thread failed: ${msg.message}`));
+    const done = (): void => {
+      worker.off('message', onMessage);
+      worker.off('error', onError);
+    };
+    const onMessage = (reply: FromWorker): void => {
+      if (reply.type === replyType) {
+        done();
+        resolve(reply as T);
+      } else if (reply.type === 'error') {
+        done();
+        reject(new Error(`a tokenizing thread failed: ${reply.message}`));
       }
     };
     const onError = (err: Error): void => {
-      worker.off('message', onMessage);
+      done();
       reject(err);
     };
     worker.on('message', onMessage);
     worker.on('error', onError);
-    const msg: ToWorker = { type: 'sort-terms' };
-    worker.postMessage(msg);
+    worker.postMessage(msg, msg.type === 'finish-counts' ? [msg.translate.buffer as ArrayBuffer] : []);
   });
 }
 

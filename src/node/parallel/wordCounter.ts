@@ -32,6 +32,14 @@ export interface LocalCounts {
   readonly length: number;
 }
 
+/** Where packText put a file's counts: pack positions [at, at + terms). */
+export interface PackedFile {
+  readonly at: number;
+  readonly terms: number;
+  /** Number of tokens (sum of counts). */
+  readonly length: number;
+}
+
 export class WordCounter {
   private readonly idOf = new Map<string, number>();
   private readonly terms: string[] = [];
@@ -45,6 +53,9 @@ export class WordCounter {
   private tally = new Int32Array(1024);
   private touched = new Int32Array(1024);
   private nTouched = 0;
+  private packIds = new Int32Array(1 << 14);
+  private packCounts = new Int32Array(1 << 14);
+  private packUsed = 0;
   // Scratch for a new word: its terms, its parts, its lowercase form.
   private found = new Int32Array(64);
   private nFound = 0;
@@ -69,27 +80,70 @@ export class WordCounter {
     return Int32Array.from(sorted, (t) => this.idOf.get(t)!);
   }
 
+  /** The counts of a text (fresh arrays; the worker packs a batch with packText instead). */
   count(text: string): LocalCounts {
-    this.text.loadText(text);
-    return this.finish(this.scan(this.text.units, this.text.length));
+    return this.copyOut(this.packText(text));
   }
 
   /** count() of text whose UTF-8 bytes are all ASCII (below 0x80), without decoding it. */
   countAscii(bytes: Uint8Array): LocalCounts {
+    return this.copyOut(this.packAscii(bytes));
+  }
+
+  /** Counts a text into the current pack (see takePack). */
+  packText(text: string): PackedFile {
+    this.text.loadText(text);
+    return this.finish(this.scan(this.text.units, this.text.length));
+  }
+
+  /** packText() of text whose UTF-8 bytes are all ASCII, without decoding it. */
+  packAscii(bytes: Uint8Array): PackedFile {
     this.text.loadAscii(bytes);
     return this.finish(this.scan(this.text.units, this.text.length));
   }
 
-  private finish(length: number): LocalCounts {
+  /**
+   * The ids and counts of every file packed since the last call, in two arrays of exactly that
+   * size (a batch's reply transfers just these two buffers); the next pack starts afresh.
+   */
+  takePack(): { ids: Int32Array; counts: Int32Array } {
+    const out = { ids: this.packIds.slice(0, this.packUsed), counts: this.packCounts.slice(0, this.packUsed) };
+    this.packUsed = 0;
+    return out;
+  }
+
+  /** Views of everything packed since the last take (valid until the next pack), and a fresh start. */
+  drainPack(): { ids: Int32Array; counts: Int32Array } {
+    const out = { ids: this.packIds.subarray(0, this.packUsed), counts: this.packCounts.subarray(0, this.packUsed) };
+    this.packUsed = 0;
+    return out;
+  }
+
+  private copyOut(p: PackedFile): LocalCounts {
+    const out = { ids: this.packIds.slice(p.at, p.at + p.terms), counts: this.packCounts.slice(p.at, p.at + p.terms), length: p.length };
+    this.packUsed = p.at;
+    return out;
+  }
+
+  /** Moves the tallied counts into the pack, ids ascending, and clears the tally. */
+  private finish(length: number): PackedFile {
     const n = this.nTouched;
-    const idArr = this.touched.slice(0, n).sort();
-    const counts = new Int32Array(n);
+    const at = this.packUsed;
+    if (at + n > this.packIds.length) {
+      this.packIds = grow32(this.packIds, at + n);
+      this.packCounts = grow32(this.packCounts, at + n);
+    }
+    const ids = this.packIds.subarray(at, at + n);
+    ids.set(this.touched.subarray(0, n));
+    ids.sort();
+    const counts = this.packCounts;
     for (let i = 0; i < n; i++) {
-      counts[i] = this.tally[idArr[i]];
-      this.tally[idArr[i]] = 0;
+      counts[at + i] = this.tally[ids[i]];
+      this.tally[ids[i]] = 0;
     }
     this.nTouched = 0;
-    return { ids: idArr, counts, length };
+    this.packUsed = at + n;
+    return { at, terms: n, length };
   }
 
   /** Counts the words of u[0, n); returns the number of tokens. */

@@ -93,5 +93,15 @@ describe.skipIf(!cisi)(`worker pool ${cisi ? '' : missingMessage('corpora/cisi')
       if (o.kind === 'text') expect(bagOf(sorted.vocab, o.terms.termIds, o.terms.counts)).toEqual(want(i));
     });
     expect(sorted.outcomes.slice(300).map((o) => o.kind)).toEqual(['binary', 'too-large', 'unreadable']);
+    // Each file's ids ascend (IndexBuilder's order), and a second run on the same threads (whose
+    // kept counts were handed over) gives the same ids and counts.
+    const again = await countFilesSorted(pool!, all, options);
+    sorted.outcomes.forEach((o, i) => {
+      const b = again.outcomes[i];
+      if (o.kind !== 'text' || b.kind !== 'text') return expect(b.kind).toBe(o.kind);
+      for (let j = 1; j < o.terms.termIds.length; j++) expect(o.terms.termIds[j]).toBeGreaterThan(o.terms.termIds[j - 1]);
+      expect(Array.from(b.terms.termIds)).toEqual(Array.from(o.terms.termIds));
+      expect(Array.from(b.terms.counts)).toEqual(Array.from(o.terms.counts));
+    });
   });
 });
