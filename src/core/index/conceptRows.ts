@@ -134,6 +134,22 @@ export class ConceptRows {
     return out;
   }
 
+  /**
+   * Dot products of q with the listed rows only (the first count of slots), each the same bits as
+   * dots() gives; read them at those slots of the returned view (other entries are stale).
+   */
+  dotsAt(q: ArrayLike<number>, slots: Int32Array, count: number): Float64Array {
+    const out = this._scores;
+    if (this._wasm) {
+      for (let c = 0; c < this.k; c++) this._query[c] = q[c];
+      const kernel = this._wasm.kernel;
+      for (let i = 0; i < count; i++) kernel.dots(this._rows.byteOffset, this._query.byteOffset, this.k, slots[i], slots[i] + 1, out.byteOffset);
+    } else {
+      for (let i = 0; i < count; i++) dotRows(this._rows.subarray(slots[i] * this.k), this.k, 1, q, out.subarray(slots[i]));
+    }
+    return out;
+  }
+
   private static bytesFor(k: number, capacity: number): number {
     return align16(align16(16 + k * 8) + capacity * k * 4) + capacity * 8;
   }

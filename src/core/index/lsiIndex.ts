@@ -10,7 +10,9 @@
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
 import { Bm25Scorer } from './bm25.js';
+import { ConceptCodes } from './conceptCodes.js';
 import { ConceptRows } from './conceptRows.js';
+import { ScreenScratch, screenedTop } from './screenedTop.js';
 import { projectTerms, type ConceptModel } from './conceptModel.js';
 import type { IndexSettings } from './settings.js';
 import { countTerms, type DocTerms, type Vocabulary } from './termCounts.js';
@@ -77,6 +79,8 @@ export class LsiIndex {
   private readonly _slotOf = new Map<string, number>();
   private _bm25: Bm25Scorer | null = null;
   private _scratch = new Float64Array(0);
+  private _codes: ConceptCodes | null | undefined;
+  private readonly _screen = new ScreenScratch();
   private _removedSinceBuild = 0;
   private _foldedTokens = 0;
   private _foldedUnknownTokens = 0;
@@ -163,7 +167,6 @@ export class LsiIndex {
     if (q.termIds.length === 0) throw new NoKnownTermsError(text);
     const proj = projectTerms(this.model, q);
     const n = this._slots.length;
-    const concept = this.liveDots(proj.vector);
     // Two reused n-long arrays (allocating 2 × 8n bytes per query made the collector run often).
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
@@ -173,9 +176,16 @@ export class LsiIndex {
       this.bm25().scoreInto(q, lexical);
       divideByMax(lexical);
     }
-    blend(proj.knownTerms > 0 ? 1 - lambda : 0, concept, lambda, lexical, blended);
-    const filter = options.filter;
-    return topN(blended, top, this.acceptor(filter)).map(({ slot, score }) => ({
+    const weight = proj.knownTerms > 0 ? 1 - lambda : 0;
+    const accept = this.acceptor(options.filter);
+    const codes = this.codes();
+    const screened = codes && screenedTop({ codes, rows: this._rows, q: proj.vector, n, top, accept, a: weight, extra: { b: lambda, values: lexical } }, this._screen);
+    if (screened) {
+      return screened.ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: screened.product(slot), lexicalScore: lexical[slot] }));
+    }
+    const concept = this.liveDots(proj.vector);
+    blend(weight, concept, lambda, lexical, blended);
+    return topN(blended, top, accept).map(({ slot, score }) => ({
       path: this._slots[slot]!.meta.path,
       score,
       conceptScore: concept[slot],
@@ -186,9 +196,11 @@ export class LsiIndex {
   /** The files nearest in meaning to a file (cosine of concept vectors), itself excluded. */
   nearby(path: string, options: Partial<SearchOptions> = {}): NearbyHit[] {
     const self = this.slot(path);
-    const scores = this.liveDots(this.vectorOf(path));
-    const accept = this.acceptor(options.filter);
-    return topN(scores, options.top ?? 10, (j) => j !== self && accept(j)).map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score }));
+    const live = this.acceptor(options.filter);
+    const accept = (j: number): boolean => j !== self && live(j);
+    const [top, q, n, codes] = [options.top ?? 10, this.vectorOf(path), this._slots.length, this.codes()];
+    const screened = codes && screenedTop({ codes, rows: this._rows, q, n, top, accept, a: 1 }, this._screen);
+    return (screened ? screened.ranked : topN(this.liveDots(q), top, accept)).map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score }));
   }
 
   /** Cosine of a unit concept vector with every slot (holes score −Infinity). */
@@ -201,6 +213,12 @@ export class LsiIndex {
     const out = this._rows.dots(vector, this._slots.length);
     markHoles(this._slots, out);
     return out;
+  }
+
+  /** The 8-bit screening copy of the vectors, made on first use (null without WebAssembly). */
+  private codes(): ConceptCodes | null {
+    if (this._codes === undefined) this._codes = ConceptCodes.create(this.k, this._rows.capacity, this._rows.rows, this._slots.length);
+    return this._codes;
   }
 
   /** Whether a slot may be ranked: occupied, and its path passes the filter. */
@@ -232,6 +250,8 @@ export class LsiIndex {
     }
     this._slots[s] = { meta, terms, folded: true, residual: proj.residual };
     this._rows.setRow(s, proj.vector);
+    this._codes?.ensureCapacity(this._slots.length);
+    this._codes?.setRow(s, proj.vector);
     this._bm25?.setDocument(s, terms);
     return terms;
   }
@@ -243,6 +263,7 @@ export class LsiIndex {
     const wasFolded = this._slots[s]!.folded;
     this._slots[s] = null;
     this._rows.clearRow(s);
+    this._codes?.clearRow(s);
     this._slotOf.delete(path);
     if (!wasFolded) this._removedSinceBuild++;
     this._bm25?.setDocument(s, null);

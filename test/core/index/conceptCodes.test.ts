@@ -1,0 +1,54 @@
+import { describe, expect, it } from 'vitest';
+import { ConceptCodes } from '../../../src/core/index/conceptCodes.js';
+import { createRandom } from '../../../src/core/random.js';
+
+function unitRows(n: number, k: number, seed: number): Float32Array {
+  const rnd = createRandom(seed);
+  const rows = new Float32Array(n * k);
+  for (let j = 0; j < n; j++) {
+    let ss = 0;
+    for (let c = 0; c < k; c++) ss += (rows[j * k + c] = rnd.normal() * (c < 5 ? 4 : 1)) ** 2;
+    for (let c = 0; c < k; c++) rows[j * k + c] /= Math.sqrt(ss);
+  }
+  return rows;
+}
+
+describe('ConceptCodes', () => {
+  it('bounds every exact dot product (computed left to right in f64) and keeps the bound small', () => {
+    for (const k of [200, 21]) {
+      const n = 500;
+      const rows = unitRows(n, k, k);
+      const codes = ConceptCodes.create(k, n, rows, n)!;
+      expect(codes).not.toBeNull();
+      for (let t = 0; t < 5; t++) {
+        const q = rows.subarray(t * 37 * k, (t * 37 + 1) * k);
+        const { center, radius } = codes.bounds(q, n);
+        for (let j = 0; j < n; j++) {
+          let exact = 0;
+          for (let c = 0; c < k; c++) exact += rows[j * k + c] * q[c];
+          expect(Math.abs(exact - center[j])).toBeLessThanOrEqual(radius[j]);
+          // 8-bit codes: an error of about max|v|/127/√12·√k (common practice estimate) at most.
+          expect(radius[j]).toBeLessThan(0.05);
+        }
+      }
+    }
+  });
+
+  it('follows row changes and growth: new, cleared and moved rows are bounded as the rows are', () => {
+    const k = 200;
+    const rows = unitRows(40, k, 3);
+    const codes = ConceptCodes.create(k, 4, rows, 4)!;
+    codes.ensureCapacity(40); // past the reserved size of a 4-row block: the codes move
+    for (let j = 4; j < 40; j++) codes.setRow(j, rows.subarray(j * k, (j + 1) * k));
+    codes.clearRow(7);
+    const q = rows.subarray(0, k);
+    const { center, radius } = codes.bounds(q, 40);
+    for (let j = 0; j < 40; j++) {
+      let exact = 0;
+      if (j !== 7) for (let c = 0; c < k; c++) exact += rows[j * k + c] * q[c];
+      expect(Math.abs(exact - center[j])).toBeLessThanOrEqual(radius[j]);
+    }
+    expect(center[7]).toBe(0);
+    expect(center[0]).toBeCloseTo(1, 1);
+  });
+});
