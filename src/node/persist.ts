@@ -43,21 +43,25 @@ export type LoadOutcome =
   | { readonly status: 'missing' }
   | { readonly status: 'damaged'; readonly reason: string };
 
-/** Bytes per read call: few calls for a big file, without holding the thread pool for long. */
-const READ_CHUNK = 32 * 1024 * 1024;
+export interface LoadOptions {
+  /** Bytes per read call: few calls for a big file, without holding the thread pool for long. */
+  readChunkBytes: number;
+}
+
+export const DEFAULT_LOAD_OPTIONS: LoadOptions = { readChunkBytes: 32 * 1024 * 1024 };
 
 /**
  * Reads a whole file into a buffer of its own (byte offset 0, so decodeIndex can view its
  * sections in place), in large chunks: fs.readFile reads big files 512 KiB at a time.
  */
-async function readWhole(path: string): Promise<Uint8Array> {
+async function readWhole(path: string, chunk: number): Promise<Uint8Array> {
   const handle = await open(path, 'r');
   try {
     const size = (await handle.stat()).size;
     const buf = new Uint8Array(new ArrayBuffer(size));
     let done = 0;
     while (done < size) {
-      const { bytesRead } = await handle.read(buf, done, Math.min(READ_CHUNK, size - done), done);
+      const { bytesRead } = await handle.read(buf, done, Math.min(chunk, size - done), done);
       if (bytesRead === 0) break;
       done += bytesRead;
     }
@@ -68,10 +72,11 @@ async function readWhole(path: string): Promise<Uint8Array> {
 }
 
 /** Loads a saved index; a missing, damaged, truncated or older file is reported, never trusted. */
-export async function loadIndex(path: string): Promise<LoadOutcome> {
+export async function loadIndex(path: string, options: Partial<LoadOptions> = {}): Promise<LoadOutcome> {
+  const chunk = Math.max(1, Math.floor(options.readChunkBytes ?? DEFAULT_LOAD_OPTIONS.readChunkBytes));
   let bytes: Uint8Array;
   try {
-    bytes = await readWhole(path);
+    bytes = await readWhole(path, chunk);
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code === 'ENOENT') return { status: 'missing' };
     return { status: 'damaged', reason: `cannot read ${path}: ${(err as Error).message}` };

@@ -27,8 +27,8 @@ function answers(index: LsiIndex) {
   };
 }
 
-async function reopen(path: string): Promise<LsiIndex> {
-  const got = await loadIndex(path);
+async function reopen(path: string, readChunkBytes?: number): Promise<LsiIndex> {
+  const got = await loadIndex(path, { readChunkBytes });
   if (got.status !== 'ok') throw new Error(`expected a loadable index, got ${got.status}`);
   return got.index;
 }
@@ -47,6 +47,18 @@ describe.skipIf(!adi)(`persist ${adi ? '' : missingMessage('corpora/adi')}`, () 
     expect(answers(copy)).toEqual(answers(index));
     await saveIndex(file, copy);
     expect(answers(await reopen(file))).toEqual(answers(index));
+  });
+
+  it('reads the same index whatever the read size, and still finds damage near the end', async () => {
+    const index = buildAdi();
+    const file = join(dir, 'c.undertone');
+    await saveIndex(file, index);
+    const whole = answers(index);
+    for (const chunk of [7, 4096, 65_536]) expect(answers(await reopen(file, chunk))).toEqual(whole);
+    const flipped = readFileSync(file);
+    flipped[flipped.length - 3] ^= 0x02;
+    writeFileSync(file, flipped);
+    expect(await loadIndex(file, { readChunkBytes: 4096 })).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/checksum/) });
   });
 
   it('reports a missing file as missing and a damaged, truncated or older file as damaged', async () => {
