@@ -85,7 +85,7 @@ export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], opt
   });
   if (current.length > 0) batches.push(current);
   const workers = pool.workers;
-  let nextBatch = 0;
+  const queue = new BatchQueue(batches.length, workers.length);
   let pending = 0;
   let done = 0;
 
@@ -105,8 +105,8 @@ export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], opt
     };
     const onError = (err: Error): void => fail(err);
     const send = (w: number): void => {
-      if (nextBatch >= batches.length) return;
-      const b = nextBatch++;
+      const b = queue.next(w);
+      if (b < 0) return;
       const msg: ToWorker = { type: 'tokenize', batch: b, files: batches[b].map((index) => ({ index, absPath: jobs[index].absPath })) };
       workers[w].postMessage(msg);
       pending++;
@@ -128,7 +128,7 @@ export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], opt
           options.onProgress?.(done);
           if (options.signal?.aborted) return fail(new CancelledError());
           send(w);
-          if (pending === 0 && nextBatch >= batches.length) {
+          if (pending === 0 && queue.empty) {
             cleanup();
             resolve();
           }
@@ -147,6 +147,38 @@ export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], opt
       resolve();
     }
   });
+}
+
+/**
+ * Hands out batches 0..count-1: each worker takes its own contiguous share front to back (files
+ * that sit together in the tree share words, so each thread meets fewer new words than with
+ * interleaved batches); a worker whose share is done takes from the back of the largest share
+ * left, so all finish together.
+ */
+export class BatchQueue {
+  private readonly front: Int32Array;
+  private readonly back: Int32Array;
+  private left: number;
+
+  constructor(count: number, workers: number) {
+    this.front = Int32Array.from({ length: workers }, (_, w) => Math.floor((w * count) / workers));
+    this.back = Int32Array.from({ length: workers }, (_, w) => Math.floor(((w + 1) * count) / workers));
+    this.left = count;
+  }
+
+  get empty(): boolean {
+    return this.left === 0;
+  }
+
+  /** The next batch for worker w, or -1 when none is left. */
+  next(w: number): number {
+    if (this.left === 0) return -1;
+    this.left--;
+    if (this.front[w] < this.back[w]) return this.front[w]++;
+    let most = 0;
+    for (let v = 1; v < this.front.length; v++) if (this.back[v] - this.front[v] > this.back[most] - this.front[most]) most = v;
+    return --this.back[most];
+  }
 }
 
 /** Local (ids, counts) to DocTerms over the caller's ids, sorted ascending. */
