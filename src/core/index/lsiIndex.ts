@@ -4,8 +4,9 @@
  * (query folded into the concept space, cosine ranking, optionally blended with BM25) and
  * nearest-file questions; accepts edits by folding changed documents in with the frozen weights
  * (Berry, Dumais & O'Brien 1995) and reports how stale the model has become. The unit vectors
- * sit in one block (conceptRows.ts), so ranking by cosine is one pass of dot products; the BM25
- * scorer is built on first use and then updated with each fold-in and removal.
+ * sit in one block (conceptRows.ts); search and nearby screen them with 8-bit codes and exact
+ * bounds (conceptCodes.ts, screenedTop.ts) and take exact products only for rows that can place,
+ * so the ranking is that of a full pass. The BM25 scorer is built on first use, then updated.
  */
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
