@@ -96,9 +96,12 @@ function buildModelAndMatrix(docs: readonly DocTerms[], vocabSize: number, setti
     signal: progress.signal,
     executor: progress.executor,
     onProgress: (done, total) => progress.onProgress?.('svd', done, total),
+    // The model stores f32 term vectors: rounding on the way out of the executor's memory saves
+    // the f64 copy at the build's memory peak.
+    factors: 'f32',
   });
   const k = svd.k;
-  const termVectors = Float32Array.from(svd.v);
+  const termVectors = svd.v;
   const axisScale = Float64Array.from(svd.s, (s) => (s > 0 ? Math.pow(s, settings.conceptScaling - 1) : 0));
   // Residual of build documents: ‖U_kᵀd̂‖² = Σ_c (σ_c v_ic)² for a unit row d̂ of the matrix.
   let residualSum = 0;

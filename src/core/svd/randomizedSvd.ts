@@ -51,6 +51,12 @@ export interface RandomizedSvdOptions {
   signal?: { readonly aborted: boolean };
   /** Runs the large products (default: serialExecutor, on this thread). */
   executor?: MatrixExecutor;
+  /**
+   * Element type of the returned u and v (default 'f64'). 'f32' rounds them once on the way out
+   * of the executor's memory, halving the largest copy (a caller that stores f32 vectors anyway
+   * saves that memory at the build's peak).
+   */
+  factors?: 'f64' | 'f32';
 }
 
 export const DEFAULT_SVD_OPTIONS: Readonly<Omit<RandomizedSvdOptions, 'k'>> = Object.freeze({
@@ -59,20 +65,22 @@ export const DEFAULT_SVD_OPTIONS: Readonly<Omit<RandomizedSvdOptions, 'k'>> = Ob
 });
 
 /** M ≈ U diag(s) Vᵀ with U rows×k and V cols×k, both row-major with orthonormal columns. */
-export interface SvdResult {
+export interface SvdResult<F extends Float64Array | Float32Array = Float64Array> {
   readonly rows: number;
   readonly cols: number;
   readonly k: number;
-  readonly u: Float64Array;
+  readonly u: F;
   readonly s: Float64Array;
-  readonly v: Float64Array;
+  readonly v: F;
 }
 
 export function defaultOversampling(k: number): number {
   return Math.max(10, Math.ceil(k / 2), Math.min(k, 100));
 }
 
-export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number }): SvdResult {
+export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number; factors?: 'f64' }): SvdResult;
+export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number; factors: 'f32' }): SvdResult<Float32Array>;
+export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number }): SvdResult<Float64Array | Float32Array> {
   const o = { ...DEFAULT_SVD_OPTIONS, ...options };
   const maxRank = Math.min(m.rows, m.cols);
   if (maxRank === 0) throw new InvalidInputError('cannot decompose an empty matrix');
@@ -82,7 +90,7 @@ export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOption
   return ex.scoped ? ex.scoped(() => decompose(m, o, ex)) : decompose(m, o, ex);
 }
 
-function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): SvdResult {
+function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): SvdResult<Float64Array | Float32Array> {
   const maxRank = Math.min(m.rows, m.cols);
   const k = Math.min(o.k, maxRank);
   const l = Math.min(k + (o.oversampling ?? defaultOversampling(k)), maxRank);
@@ -139,10 +147,13 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   ex.timesSmall(q, S, l, transposeScaled(pairs.w, l, k), k, false, small);
   const big = bigSideVectors(ex, z, small, at, l, pairs, k);
   repairWeakColumns(big, B, k, pairs.s, random);
-  const u = Float64Array.from(rowsSmall ? small : big);
-  const v = Float64Array.from(rowsSmall ? big : small);
-  // 3. Sign fix on the column factor.
-  flipSigns({ rows: m.rows, cols: k, data: u }, { rows: m.cols, cols: k, data: v });
+  // 3. Sign fix on the column factor, decided in f64 (in the executor's memory) before any rounding.
+  const uIn = rowsSmall ? small : big;
+  const vIn = rowsSmall ? big : small;
+  flipSigns({ rows: m.rows, cols: k, data: uIn }, { rows: m.cols, cols: k, data: vIn });
+  const out = o.factors === 'f32' ? Float32Array : Float64Array;
+  const u = out.from(uIn);
+  const v = out.from(vIn);
   return { rows: m.rows, cols: m.cols, k, u, s: pairs.s, v };
 }
 

@@ -104,6 +104,20 @@ describe('randomizedSvd', () => {
     for (let i = 3; i < 10; i++) expect(res.s[i]).toBeLessThan(1e-8 * res.s[0]);
   });
 
+  it("with factors: 'f32' returns the f64 factors rounded once to f32, and the same singular values", () => {
+    const rows = 60, cols = 90;
+    const r = createRandom(8);
+    const dense = Float64Array.from({ length: rows * cols }, () => (r.next() < 0.15 ? r.next() : 0));
+    const m = csrFromDense(rows, cols, dense);
+    const wide = randomizedSvd(m, { k: 12 });
+    const narrow = randomizedSvd(m, { k: 12, factors: 'f32' });
+    expect(narrow.u).toBeInstanceOf(Float32Array);
+    expect(narrow.v).toBeInstanceOf(Float32Array);
+    expect(Array.from(narrow.s)).toEqual(Array.from(wide.s));
+    expect(Array.from(narrow.u)).toEqual(Array.from(wide.u, Math.fround));
+    expect(Array.from(narrow.v)).toEqual(Array.from(wide.v, Math.fround));
+  });
+
   it('is bit-for-bit deterministic for a seed, and seed-independent in its singular values', () => {
     const rows = 70, cols = 50;
     const r = createRandom(5);
