@@ -4,13 +4,20 @@
  * idf = ln(1 + (N − df + 0.5)/(df + 0.5)) (the non-negative form Lucene uses).
  * Defaults k1 = 1.2 and b = 0.75 (the values Robertson & Zaragoza report as common practice).
  *
- * Kept up to date incrementally: the inverted lists built from the documents at construction stay
- * as they are; a document set later (setDocument) marks its slot's original postings as void and
- * adds its own to small per-term side lists, and N, df and the total length are adjusted. Every
- * score is formed by the same operations as in a scorer built afresh from the current documents,
- * so both give the same bits. When the side lists outgrow a quarter of the main lists, everything
- * is rebuilt into main lists (amortised cost).
+ * Postings are built lazily, per term, when a query first asks for the term: one pass over the
+ * documents' sorted term arrays finds every missing term of the query (termPostings.ts), and the
+ * lists are then kept. Building them for a whole vocabulary of millions of terms took seconds on
+ * the first search after reopening an index; a query needs a handful. Only N, the lengths and
+ * their total are kept for every document.
+ *
+ * Kept up to date incrementally: every setDocument stamps its slot with a new edit number. A
+ * cached term's list holds the documents as they were when it was built; a slot stamped later
+ * no longer counts there, and its new document (if it has the term) goes to the term's side list.
+ * Terms not cached yet are built later from the documents current then. Every score is formed by
+ * the same operations as in a scorer built afresh from the current documents (each document once
+ * per term, terms in query order), so both give the same bits.
  */
+import { TermPostings, collectPostings } from './termPostings.js';
 import type { DocTerms } from './termCounts.js';
 
 export interface Bm25Options {
@@ -22,24 +29,20 @@ export interface Bm25Options {
 
 export const DEFAULT_BM25_OPTIONS: Readonly<Bm25Options> = Object.freeze({ k1: 1.2, b: 0.75 });
 
-/** Side lists are folded into the main lists past this share of their size (common practice). */
-const COMPACT_SHARE = 0.25;
-const COMPACT_MIN = 1 << 16;
-const NO_POSTINGS: readonly number[] = [];
-
 // The loops live in small functions of their own, which the engine optimises whole.
 
-/** One term's contributions from the main lists, postings [p0, p1), void slots skipped. */
-function addMain(p0: number, p1: number, docs: Int32Array, tfs: Float32Array, dead: Uint8Array, norm: Float64Array, idf: number, k1: number, out: Float64Array): void {
-  for (let p = p0; p < p1; p++) {
-    const j = docs[p];
-    if (dead[j]) continue;
-    const tf = tfs[p];
+/** One term's contributions from its main list, slots stamped after builtAt skipped. */
+function addMain(p: TermPostings, stamp: Float64Array, norm: Float64Array, idf: number, k1: number, out: Float64Array): void {
+  const { docs, tfs, builtAt } = p;
+  for (let i = 0; i < docs.length; i++) {
+    const j = docs[i];
+    if (stamp[j] > builtAt) continue;
+    const tf = tfs[i];
     out[j] += (idf * tf * (k1 + 1)) / (tf + norm[j]);
   }
 }
 
-/** One term's contributions from a side list [slot, tf, slot, tf, …]. */
+/** One term's contributions from its side list [slot, tf, slot, tf, …]. */
 function addSide(list: readonly number[], norm: Float64Array, idf: number, k1: number, out: Float64Array): void {
   for (let p = 0; p < list.length; p += 2) {
     const j = list[p];
@@ -52,35 +55,46 @@ function lengthNorms(docs: readonly (DocTerms | null)[], lengths: Float64Array, 
   for (let j = 0; j < docs.length; j++) out[j] = docs[j] !== null ? k1 * (1 - b + (b * lengths[j]) / Math.max(avg, 1e-9)) : 0;
 }
 
+function grown(a: Float64Array, size: number): Float64Array {
+  if (size <= a.length) return a;
+  const g = new Float64Array(Math.max(size, Math.ceil(a.length * 1.25)));
+  g.set(a);
+  return g;
+}
+
 export class Bm25Scorer {
   private readonly _opts: Bm25Options;
-  private _docsOf: (DocTerms | null)[];
-  private _start!: Int32Array;
-  private _docs!: Int32Array;
-  private _tf!: Float32Array;
-  /** Slots whose postings in the main lists no longer count (replaced or removed since). */
-  private _void!: Uint8Array;
-  /** Term id → [slot, tf, slot, tf, …] of documents set after the main lists were built. */
-  private _side = new Map<number, number[]>();
-  private _sidePostings = 0;
-  private _df!: Int32Array;
+  private readonly _docsOf: (DocTerms | null)[];
+  /** Term id → its postings, for every term asked about so far. */
+  private readonly _terms = new Map<number, TermPostings>();
+  /** Edit number of each slot's last setDocument (0: as at construction). */
+  private _stamp: Float64Array;
+  private _edits = 0;
   private _n = 0;
   private _totalLength = 0;
   /** Tokens per slot (0 for empty slots), kept beside the documents for the length norm. */
-  private _lengths = new Float64Array(0);
+  private _lengths: Float64Array;
   private _lengthNorm = new Float64Array(0);
   private _normFresh = false;
 
   /** docs[i] may be null for a deleted slot (it then scores 0 and does not count in N). */
-  constructor(docs: readonly (DocTerms | null)[], vocabSize: number, options: Partial<Bm25Options> = {}) {
+  constructor(docs: readonly (DocTerms | null)[], options: Partial<Bm25Options> = {}) {
     this._opts = { ...DEFAULT_BM25_OPTIONS, ...options };
     this._docsOf = docs.slice();
-    this.rebuild(vocabSize);
+    this._stamp = new Float64Array(docs.length);
+    this._lengths = new Float64Array(docs.length);
+    for (let j = 0; j < docs.length; j++) {
+      const d = docs[j];
+      if (!d) continue;
+      this._n++;
+      this._totalLength += d.length;
+      this._lengths[j] = d.length;
+    }
   }
 
   /** Number of documents containing vocabulary term id. */
   docFrequency(termId: number): number {
-    return termId < this._df.length ? this._df[termId] : 0;
+    return this.postings([termId])[0].df;
   }
 
   idf(termId: number): number {
@@ -88,54 +102,45 @@ export class Bm25Scorer {
     return Math.log(1 + (this._n - df + 0.5) / (df + 0.5));
   }
 
+  /** Terms whose postings are held (for tests and memory accounting). */
+  get cachedTerms(): number {
+    return this._terms.size;
+  }
+
   /** Replaces (or with null removes) the document of a slot; slots past the end are added. */
   setDocument(slot: number, terms: DocTerms | null): void {
     const old = slot < this._docsOf.length ? this._docsOf[slot] : null;
     while (this._docsOf.length <= slot) this._docsOf.push(null);
+    this._stamp = grown(this._stamp, slot + 1);
+    this._lengths = grown(this._lengths, slot + 1);
+    const was = this._stamp[slot];
+    this._stamp[slot] = ++this._edits;
     if (old) {
       this._n--;
       this._totalLength -= old.length;
-      for (let i = 0; i < old.termIds.length; i++) this._df[old.termIds[i]]--;
-      if (slot < this._void.length && !this._void[slot]) this._void[slot] = 1;
-      else this.dropSide(slot, old);
-    } else if (slot < this._void.length) {
-      this._void[slot] = 1;
+      for (let i = 0; i < old.termIds.length; i++) this._terms.get(old.termIds[i])?.remove(slot, was);
     }
     if (terms) {
       this._n++;
       this._totalLength += terms.length;
-      const ids = terms.termIds;
-      if (ids.length > 0 && ids[ids.length - 1] >= this._df.length) this.growTerms(ids[ids.length - 1] + 1);
-      for (let i = 0; i < ids.length; i++) {
-        this._df[ids[i]]++;
-        let list = this._side.get(ids[i]);
-        if (!list) this._side.set(ids[i], (list = []));
-        list.push(slot, terms.counts[i]);
-      }
-      this._sidePostings += ids.length;
+      for (let i = 0; i < terms.termIds.length; i++) this._terms.get(terms.termIds[i])?.add(slot, terms.counts[i], this._stamp, this._edits);
     }
     this._docsOf[slot] = terms;
-    if (slot >= this._lengths.length) {
-      const grown = new Float64Array(Math.max(slot + 1, Math.ceil(this._lengths.length * 1.25)));
-      grown.set(this._lengths);
-      this._lengths = grown;
-    }
     this._lengths[slot] = terms ? terms.length : 0;
     this._normFresh = false;
-    if (this._sidePostings > Math.max(COMPACT_MIN, COMPACT_SHARE * this._docs.length)) this.rebuild(this._df.length);
   }
 
   /** Adds each document's BM25 score for the query terms (ids with their query counts) into out. */
   scoreInto(query: DocTerms, out: Float64Array): void {
     const k1 = this._opts.k1;
     const norm = this.lengthNorm();
-    const mainTerms = this._start.length - 1;
+    const lists = this.postings(query.termIds);
     for (let i = 0; i < query.termIds.length; i++) {
-      const t = query.termIds[i];
-      if (this.docFrequency(t) === 0) continue;
-      const idf = this.idf(t) * query.counts[i];
-      if (t < mainTerms) addMain(this._start[t], this._start[t + 1], this._docs, this._tf, this._void, norm, idf, k1, out);
-      addSide(this._side.get(t) ?? NO_POSTINGS, norm, idf, k1, out);
+      const p = lists[i];
+      if (p.df === 0) continue;
+      const idf = this.idfOf(p.df) * query.counts[i];
+      addMain(p, this._stamp, norm, idf, k1, out);
+      addSide(p.side, norm, idf, k1, out);
     }
   }
 
@@ -144,6 +149,21 @@ export class Bm25Scorer {
     if (tf <= 0) return 0;
     const k1 = this._opts.k1;
     return (this.idf(termId) * queryCount * tf * (k1 + 1)) / (tf + this.lengthNorm()[slot]);
+  }
+
+  private idfOf(df: number): number {
+    return Math.log(1 + (this._n - df + 0.5) / (df + 0.5));
+  }
+
+  /** The postings of each term id (aligned), building all missing ones in one pass. */
+  private postings(termIds: ArrayLike<number>): TermPostings[] {
+    let missing: number[] | null = null;
+    for (let i = 0; i < termIds.length; i++) if (!this._terms.has(termIds[i])) (missing ??= []).push(termIds[i]);
+    if (missing) {
+      const want = Int32Array.from(new Set(missing)).sort();
+      collectPostings(this._docsOf, want, this._edits).forEach((p, i) => this._terms.set(want[i], p));
+    }
+    return Array.from(termIds, (t) => this._terms.get(t)!);
   }
 
   /** k1·(1 − b + b·|d|/avgdl) per slot (0 for empty slots), recomputed after changes. */
@@ -156,63 +176,5 @@ export class Bm25Scorer {
     lengthNorms(docs, this._lengths, avg, k1, b, this._lengthNorm);
     this._normFresh = true;
     return this._lengthNorm;
-  }
-
-  private dropSide(slot: number, old: DocTerms): void {
-    for (let i = 0; i < old.termIds.length; i++) {
-      const list = this._side.get(old.termIds[i])!;
-      for (let p = 0; p < list.length; p += 2) if (list[p] === slot) {
-        list.splice(p, 2);
-        break;
-      }
-      if (list.length === 0) this._side.delete(old.termIds[i]);
-    }
-    this._sidePostings -= old.termIds.length;
-  }
-
-  private growTerms(size: number): void {
-    const df = new Int32Array(Math.max(size, Math.ceil(this._df.length * 1.25)));
-    df.set(this._df);
-    this._df = df;
-  }
-
-  /** Main lists from the current documents; side lists emptied. */
-  private rebuild(vocabSize: number): void {
-    const docs = this._docsOf;
-    const start = new Int32Array(vocabSize + 1);
-    let n = 0;
-    let totalLength = 0;
-    for (const d of docs) {
-      if (!d) continue;
-      n++;
-      totalLength += d.length;
-      for (let i = 0; i < d.termIds.length; i++) start[d.termIds[i] + 1]++;
-    }
-    this._df = new Int32Array(vocabSize);
-    for (let t = 0; t < vocabSize; t++) {
-      this._df[t] = start[t + 1];
-      start[t + 1] += start[t];
-    }
-    const next = start.slice(0, vocabSize);
-    const postings = start[vocabSize];
-    this._docs = new Int32Array(postings);
-    this._tf = new Float32Array(postings);
-    for (let j = 0; j < docs.length; j++) {
-      const d = docs[j];
-      if (!d) continue;
-      for (let i = 0; i < d.termIds.length; i++) {
-        const p = next[d.termIds[i]]++;
-        this._docs[p] = j;
-        this._tf[p] = d.counts[i];
-      }
-    }
-    this._start = start;
-    this._void = new Uint8Array(docs.length);
-    this._lengths = Float64Array.from(docs, (d) => (d ? d.length : 0));
-    this._side = new Map();
-    this._sidePostings = 0;
-    this._n = n;
-    this._totalLength = totalLength;
-    this._normFresh = false;
   }
 }

@@ -48,10 +48,11 @@ export class IndexBuilder {
     for (const p of paths) for (const id of this._docs.get(p)!.terms.termIds) used[id] = 1;
     const oldIds: number[] = [];
     for (let id = 0; id < used.length; id++) if (used[id]) oldIds.push(id);
-    const terms = this._vocab.terms;
     // A vocabulary already in that order (every term used, terms ascending; the parallel reader
-    // of src/node builds one) is kept as it is: renumbering would change nothing.
-    const canonical = oldIds.length === terms.length && terms.every((t, i) => i === 0 || terms[i - 1] < t);
+    // of src/node builds one, a reopened index has one) is kept as it is: renumbering would change
+    // nothing. Its strings are then never needed (decoding millions of saved terms takes seconds).
+    const canonical = oldIds.length === this._vocab.size && inCodeUnitOrder(this._vocab);
+    const terms = canonical ? [] : this._vocab.terms;
     if (!canonical) oldIds.sort((a, b) => (terms[a] < terms[b] ? -1 : terms[a] > terms[b] ? 1 : 0));
     const newId = new Int32Array(canonical ? 0 : this._vocab.size).fill(-1);
     if (!canonical) oldIds.forEach((old, i) => (newId[old] = i));
@@ -64,6 +65,35 @@ export class IndexBuilder {
     const { model, vectors } = buildConceptModelAndVectors(slots.map((s) => s.terms), vocab.size, this.settings, progress);
     return LsiIndex.assemble(this.settings, vocab, model, slots, vectors);
   }
+}
+
+/**
+ * Whether the terms ascend strictly in code-unit order. For a reopened vocabulary, from its bytes
+ * when every id is in ascending byte order and no term has a character above U+FFFF (4-byte UTF-8,
+ * lead byte ≥ 0xF0): UTF-8 byte order is code-point order, which is code-unit order for such
+ * strings. Otherwise from the strings.
+ */
+function inCodeUnitOrder(vocab: Vocabulary): boolean {
+  if (vocab.byteOrdered > 0) {
+    const { bytes, sorted } = vocab.toBytes();
+    if (sorted === vocab.size && !hasFourByteSequence(bytes)) return true;
+  }
+  const terms = vocab.terms;
+  for (let i = 1; i < terms.length; i++) if (!(terms[i - 1] < terms[i])) return false;
+  return true;
+}
+
+/** Whether any byte is ≥ 0xF0, four bytes at a time (words without a high bit are skipped). */
+function hasFourByteSequence(bytes: Uint8Array): boolean {
+  const head = Math.min(bytes.length, (4 - (bytes.byteOffset % 4)) % 4);
+  const words = new Uint32Array(bytes.buffer, bytes.byteOffset + head, (bytes.length - head) >>> 2);
+  for (let i = 0; i < head; i++) if (bytes[i] >= 0xf0) return true;
+  for (let w = 0; w < words.length; w++) {
+    if ((words[w] & 0x80808080) === 0) continue;
+    for (let i = head + 4 * w; i < head + 4 * w + 4; i++) if (bytes[i] >= 0xf0) return true;
+  }
+  for (let i = head + 4 * words.length; i < bytes.length; i++) if (bytes[i] >= 0xf0) return true;
+  return false;
 }
 
 /** Position bits of a remap sort key (ids below 2^31, positions below 2^21: a key fits 2^52). */

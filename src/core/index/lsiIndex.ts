@@ -3,10 +3,11 @@
  * concept vector per document, and the lexical (BM25) scorer. Answers searches by meaning
  * (query folded into the concept space, cosine ranking, optionally blended with BM25) and
  * nearest-file questions; accepts edits by folding changed documents in with the frozen weights
- * (Berry, Dumais & O'Brien 1995) and reports how stale the model has become. The unit vectors
- * sit in one block (conceptRows.ts); search and nearby screen them with 8-bit codes and exact
+ * (Berry, Dumais & O'Brien 1995) and reports how stale the model has become (staleness.ts).
+ * The unit vectors sit in one block (conceptRows.ts); search and nearby screen them with 8-bit codes and exact
  * bounds (conceptCodes.ts, screenedTop.ts) and take exact products only for rows that can place,
- * so the ranking is that of a full pass. The BM25 scorer is built on first use, then updated.
+ * so the ranking is that of a full pass. The BM25 scorer is made on first use (it builds the
+ * postings of a term when a query first needs it) and then kept up to date; nearby never needs it.
  */
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
@@ -16,8 +17,11 @@ import { ConceptRows } from './conceptRows.js';
 import { ScreenScratch, screenedTop } from './screenedTop.js';
 import { projectTerms, type ConceptModel } from './conceptModel.js';
 import type { IndexSettings } from './settings.js';
+import { ChangeCounters, type Staleness, type StalenessCounters } from './staleness.js';
 import { countTerms, type DocTerms, type Vocabulary } from './termCounts.js';
 import { topN } from './topN.js';
+
+export type { Staleness, StalenessCounters } from './staleness.js';
 
 export interface DocMeta {
   /** Workspace-relative path with '/' separators (multi-root: prefixed by the folder name). */
@@ -58,22 +62,6 @@ export interface SearchOptions {
   filter?: (path: string) => boolean;
 }
 
-export interface Staleness {
-  /** Documents added, changed or removed since the last build. */
-  readonly changedFiles: number;
-  readonly changedShare: number;
-  /** Share of folded documents' tokens whose terms the model does not know. */
-  readonly newTermMass: number;
-  /** Mean fold-in residual of folded documents divided by the build-time mean (1 = as good). */
-  readonly residualRatio: number;
-}
-
-export interface StalenessCounters {
-  readonly removedSinceBuild: number;
-  readonly foldedTokens: number;
-  readonly foldedUnknownTokens: number;
-}
-
 export class LsiIndex {
   private _slots: (DocSlot | null)[];
   private readonly _rows: ConceptRows;
@@ -82,9 +70,7 @@ export class LsiIndex {
   private _scratch = new Float64Array(0);
   private _codes: ConceptCodes | null | undefined;
   private readonly _screen = new ScreenScratch();
-  private _removedSinceBuild = 0;
-  private _foldedTokens = 0;
-  private _foldedUnknownTokens = 0;
+  private readonly _changes = new ChangeCounters();
 
   private constructor(
     readonly settings: IndexSettings,
@@ -236,11 +222,7 @@ export class LsiIndex {
     const tokens = tokenize(text, this.settings.tokenize);
     const before = this.vocab.size;
     const terms = countTerms(tokens, this.vocab, true);
-    // Counted only for terms new to the vocabulary, so pruned-but-known words do not look "new".
-    let brandNew = 0;
-    for (let i = 0; i < terms.termIds.length; i++) if (terms.termIds[i] >= before) brandNew += terms.counts[i];
-    this._foldedTokens += terms.length;
-    this._foldedUnknownTokens += brandNew;
+    this._changes.folded(terms, before);
     const proj = projectTerms(this.model, terms);
     let s = this._slotOf.get(meta.path);
     if (s === undefined) {
@@ -266,42 +248,27 @@ export class LsiIndex {
     this._rows.clearRow(s);
     this._codes?.clearRow(s);
     this._slotOf.delete(path);
-    if (!wasFolded) this._removedSinceBuild++;
+    this._changes.removed(wasFolded);
     this._bm25?.setDocument(s, null);
     return true;
   }
 
   staleness(): Staleness {
-    let folded = 0;
-    let residual = 0;
-    for (const s of this._slots) if (s?.folded) {
-      folded++;
-      residual += s.residual;
-    }
-    const changed = folded + this._removedSinceBuild;
-    const base = this.size + this._removedSinceBuild;
-    return {
-      changedFiles: changed,
-      changedShare: base > 0 ? changed / base : 0,
-      newTermMass: this._foldedTokens > 0 ? this._foldedUnknownTokens / this._foldedTokens : 0,
-      residualRatio: folded > 0 && this.model.residualMean > 0 ? residual / folded / this.model.residualMean : folded > 0 ? Infinity : 1,
-    };
+    return this._changes.measure(this._slots, this.size, this.model.residualMean);
   }
 
   /** Change counters since the last build (persisted with the index). */
   counters(): StalenessCounters {
-    return { removedSinceBuild: this._removedSinceBuild, foldedTokens: this._foldedTokens, foldedUnknownTokens: this._foldedUnknownTokens };
+    return this._changes.counters;
   }
 
   restoreCounters(c: StalenessCounters): void {
-    this._removedSinceBuild = c.removedSinceBuild;
-    this._foldedTokens = c.foldedTokens;
-    this._foldedUnknownTokens = c.foldedUnknownTokens;
+    this._changes.restore(c);
   }
 
-  /** The lexical scorer over all current documents (built on first use, then kept up to date). */
+  /** The lexical scorer over all current documents (made on first use, then kept up to date). */
   bm25(): Bm25Scorer {
-    if (!this._bm25) this._bm25 = new Bm25Scorer(this._slots.map((s) => s?.terms ?? null), this.vocab.size);
+    if (!this._bm25) this._bm25 = new Bm25Scorer(this._slots.map((s) => s?.terms ?? null));
     return this._bm25;
   }
 

@@ -128,6 +128,11 @@ export class Vocabulary {
     return this._base + this._added.length;
   }
 
+  /** How many leading saved ids are known to be in ascending byte order (0 if none were saved). */
+  get byteOrdered(): number {
+    return this._sorted;
+  }
+
   /** Every term by id (built on first use for a reopened vocabulary; grows with add). */
   get terms(): readonly string[] {
     if (this._base === 0) return this._added;

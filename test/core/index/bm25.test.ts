@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Bm25Scorer, DEFAULT_BM25_OPTIONS } from '../../../src/core/index/bm25.js';
+import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { decodeIndex, encodeIndex } from '../../../src/core/index/serialize.js';
 import { countTerms, Vocabulary, type DocTerms } from '../../../src/core/index/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
@@ -35,11 +37,39 @@ function referenceScores(docs: readonly (DocTerms | null)[], query: DocTerms): n
   });
 }
 
+/**
+ * The same published formula (Robertson & Zaragoza 2009, eq. 3.15, non-negative idf), brute force
+ * from the current documents, written in the scorer's order of operations so that the two agree
+ * bit for bit: norm_j = k1·(1 − b + b·|d_j|/avgdl), per query term in query order
+ * out_j += (idf·qtf)·tf·(k1 + 1) / (tf + norm_j).
+ */
+function exactScores(docs: readonly (DocTerms | null)[], query: DocTerms): Float64Array {
+  const { k1, b } = DEFAULT_BM25_OPTIONS;
+  const present = docs.filter((d): d is DocTerms => d !== null);
+  const n = present.length;
+  const avg = n > 0 ? present.reduce((s, d) => s + d.length, 0) / n : 1;
+  const out = new Float64Array(docs.length);
+  query.termIds.forEach((t, i) => {
+    const df = present.filter((d) => d.termIds.includes(t)).length;
+    if (df === 0) return;
+    const w = Math.log(1 + (n - df + 0.5) / (df + 0.5)) * query.counts[i];
+    docs.forEach((d, j) => {
+      const at = d ? d.termIds.indexOf(t) : -1;
+      if (!d || at < 0) return;
+      const tf = d.counts[at];
+      out[j] += (w * tf * (k1 + 1)) / (tf + k1 * (1 - b + (b * d.length) / Math.max(avg, 1e-9)));
+    });
+  });
+  return out;
+}
+
 const scoresOf = (scorer: Bm25Scorer, query: DocTerms, n: number): Float64Array => {
   const out = new Float64Array(n);
   scorer.scoreInto(query, out);
   return out;
 };
+
+const sameBits = (a: Float64Array, b: Float64Array): boolean => a.length === b.length && Buffer.from(a.buffer).equals(Buffer.from(b.buffer));
 
 describe.skipIf(!cran)(`Bm25Scorer ${cran ? '' : missingMessage('corpora/cran')}`, () => {
   const vocab = new Vocabulary();
@@ -49,17 +79,22 @@ describe.skipIf(!cran)(`Bm25Scorer ${cran ? '' : missingMessage('corpora/cran')}
 
   it('scores every document as the published formula computed term by term', () => {
     const docs: (DocTerms | null)[] = all.slice(0, 200).map((d, i) => (i % 17 === 3 ? null : d));
-    const scorer = new Bm25Scorer(docs, vocab.size);
+    const scorer = new Bm25Scorer(docs);
     for (const q of queries.slice(0, 5)) {
       const got = scoresOf(scorer, q, docs.length);
       const ref = referenceScores(docs, q);
       ref.forEach((r, j) => expect(got[j]).toBeCloseTo(r, 10));
+      expect(sameBits(got, exactScores(docs, q))).toBe(true);
     }
   });
 
-  it('after replacing, removing and adding documents scores the same bits as a scorer built afresh', () => {
+  it('after replacing, removing and adding documents scores the same bits as a scorer built afresh, for terms first asked before and after the changes', () => {
     const docs: (DocTerms | null)[] = all.slice(0, 600);
-    const scorer = new Bm25Scorer(docs, vocab.size);
+    const scorer = new Bm25Scorer(docs);
+    // Queries 0–9 build their terms' postings now; 10–24 only after the changes below.
+    for (const q of queries.slice(0, 10)) scoresOf(scorer, q, docs.length);
+    const cachedBefore = scorer.cachedTerms;
+    expect(cachedBefore).toBeGreaterThan(0);
     const set = (slot: number, d: DocTerms | null): void => {
       scorer.setDocument(slot, d);
       while (docs.length <= slot) docs.push(null);
@@ -71,28 +106,55 @@ describe.skipIf(!cran)(`Bm25Scorer ${cran ? '' : missingMessage('corpora/cran')}
     set(7, all[1200]); // replace a replaced document
     set(601, null); // remove an added one
     set(16, all[1201]); // refill a removed slot
-    // New words, beyond the vocabulary the scorer was built with.
+    // New words, beyond the vocabulary the documents were counted with.
     const novel = countTerms(tokenize('quuxification frobnicator shock quuxification'), vocab, true);
     set(700, novel);
     const expectSame = (): void => {
-      const fresh = new Bm25Scorer(docs, vocab.size);
-      for (const q of [...queries, novel]) {
+      const fresh = new Bm25Scorer(docs);
+      [...queries, novel].forEach((q, i) => {
         const a = scoresOf(scorer, q, docs.length);
-        const b = scoresOf(fresh, q, docs.length);
-        expect(Buffer.from(a.buffer).equals(Buffer.from(b.buffer))).toBe(true);
+        expect(sameBits(a, scoresOf(fresh, q, docs.length))).toBe(true);
+        if (i % 4 === 0 || q === novel) expect(sameBits(a, exactScores(docs, q))).toBe(true); // brute force is slow: a sample
         for (const t of q.termIds) expect(scorer.docFrequency(t)).toBe(fresh.docFrequency(t));
-      }
+      });
       expect(scorer.termScore(novel.termIds[0], 1, 2, 700)).toBe(fresh.termScore(novel.termIds[0], 1, 2, 700));
     };
     expectSame();
-    // Enough changes to fold the side lists into the main lists, then more changes on top.
-    // (1400 added documents of about 60 distinct terms each exceed the 65536-posting threshold.)
+    expect(scorer.cachedTerms).toBeGreaterThan(cachedBefore);
+    // Enough changes for common terms' side lists to be merged into their main lists (past 256
+    // postings and a quarter of the list), then more changes on top.
     for (let i = 0; i < 1400; i++) set(800 + i, all[(i * 3) % all.length]);
+    for (let i = 0; i < 300; i++) set(i * 2, all[(i * 5 + 1) % all.length]);
     set(3, null);
     set(750, all[4]);
     expectSame();
     const ref = referenceScores(docs, queries[0]);
     const got = scoresOf(scorer, queries[0], docs.length);
     ref.forEach((r, j) => expect(got[j]).toBeCloseTo(r, 10));
+  });
+
+  it('gives a reopened index the same scores, bit for bit, as the index it was saved from, before and after edits', () => {
+    const builder = new IndexBuilder({ k: 20 });
+    texts.slice(0, 400).forEach((t, i) => builder.addText({ path: `cran/${i}.txt`, size: t.length, mtimeMs: 0 }, t));
+    const index = builder.build();
+    const copy = decodeIndex(encodeIndex(index));
+    const qs = cran!.queries.slice(0, 12).map((q) => q.text);
+    const docsOf = (x: typeof index): (DocTerms | null)[] => x.slots().map((s) => s?.terms ?? null);
+    const expectSame = (): void => {
+      for (const text of qs) {
+        const q = index.queryTerms(text);
+        const a = scoresOf(index.bm25(), q, index.slots().length);
+        expect(sameBits(a, scoresOf(copy.bm25(), copy.queryTerms(text), copy.slots().length))).toBe(true);
+        expect(sameBits(a, exactScores(docsOf(index), q))).toBe(true);
+      }
+    };
+    for (const text of qs.slice(0, 6)) copy.search(text); // some terms cached before the edits
+    expectSame();
+    for (const x of [index, copy]) {
+      x.foldIn({ path: 'cran/3.txt', size: 1, mtimeMs: 1 }, texts[900]);
+      x.foldIn({ path: 'cran/new.txt', size: 1, mtimeMs: 1 }, `${texts[901]} quuxification`);
+      x.remove('cran/10.txt');
+    }
+    expectSame();
   });
 });
