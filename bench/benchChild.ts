@@ -37,6 +37,8 @@ export interface ChildResult {
   readonly reopenSeconds: number;
   readonly indexBytes: number;
   /** Milliseconds, median and worst over the queries / files tried. */
+  /** The first search after reopening the saved index. */
+  readonly firstSearchMs: number;
   readonly searchMs: { median: number; max: number; count: number };
   readonly nearbyMs: { median: number; max: number; count: number };
   readonly foldInMs: number;
@@ -88,10 +90,12 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
   const reopenSeconds = (performance.now() - t0) / 1000;
   if (loaded.status !== 'ok') throw new Error(`could not reopen the saved index: ${loaded.status}`);
   const index: LsiIndex = loaded.index;
+  // The first search after reopening builds what searching needs on first use.
+  const firstSearchMs = timeIt(() => index.search(QUERIES[0], { top: 10 }));
+  // Then each question once: words not asked before, as a person's next questions would be.
   const searchMs: number[] = [];
-  for (const q of QUERIES) {
+  for (const q of QUERIES.slice(1)) {
     try {
-      index.search(q, { top: 10 }); // the first search also builds the lexical scorer
       searchMs.push(timeIt(() => index.search(q, { top: 10 })));
     } catch (err) {
       if (!(err instanceof NoKnownTermsError)) throw err;
@@ -130,6 +134,7 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
     cpuSeconds: (cpu.user + cpu.system) / 1e6,
     reopenSeconds,
     indexBytes: bytes,
+    firstSearchMs,
     searchMs: stats(searchMs),
     nearbyMs: stats(nearbyMs),
     foldInMs,
