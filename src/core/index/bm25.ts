@@ -16,8 +16,14 @@
  * Terms not cached yet are built later from the documents current then. Every score is formed by
  * the same operations as in a scorer built afresh from the current documents (each document once
  * per term, terms in query order), so both give the same bits.
+ *
+ * prepare() builds every term's main list ahead of time in steps (termPostings.ts'
+ * PostingsBuild, over a snapshot of the documents); a term is then taken from that block the
+ * first time it is needed, with the lists collectPostings would have made from the snapshot.
+ * Edits that land while the block is being built are replayed onto the terms they touch when it
+ * is installed (old document out, new one into the side list, as setDocument does).
  */
-import { TermPostings, collectPostings } from './termPostings.js';
+import { PostingsBuild, TermPostings, collectPostings, type PostingsBlock } from './termPostings.js';
 import type { DocTerms } from './termCounts.js';
 
 export interface Bm25Options {
@@ -76,6 +82,9 @@ export class Bm25Scorer {
   private _lengths: Float64Array;
   private _lengthNorm = new Float64Array(0);
   private _normFresh = false;
+  /** Every term's main list, once prepare() has finished. */
+  private _block: PostingsBlock | null = null;
+  private _building: PostingsBuild | null = null;
 
   /** docs[i] may be null for a deleted slot (it then scores 0 and does not count in N). */
   constructor(docs: readonly (DocTerms | null)[], options: Partial<Bm25Options> = {}) {
@@ -107,6 +116,26 @@ export class Bm25Scorer {
     return this._terms.size;
   }
 
+  /** True once every term's postings are built (prepare() has finished). */
+  get prepared(): boolean {
+    return this._block !== null;
+  }
+
+  /**
+   * Builds the postings of every term ahead of time, working while more() says so (at least one
+   * chunk of documents); true when done. Cheap once done.
+   */
+  prepare(more: () => boolean = () => true): boolean {
+    if (this._block) return true;
+    this._building ??= new PostingsBuild(this._docsOf.slice(), this._edits);
+    const block = this._building.run(more);
+    if (!block) return false;
+    const snapshot = this._building.docs;
+    this._building = null;
+    this.install(block, snapshot);
+    return true;
+  }
+
   /** Replaces (or with null removes) the document of a slot; slots past the end are added. */
   setDocument(slot: number, terms: DocTerms | null): void {
     const old = slot < this._docsOf.length ? this._docsOf[slot] : null;
@@ -118,12 +147,12 @@ export class Bm25Scorer {
     if (old) {
       this._n--;
       this._totalLength -= old.length;
-      for (let i = 0; i < old.termIds.length; i++) this._terms.get(old.termIds[i])?.remove(slot, was);
+      for (let i = 0; i < old.termIds.length; i++) this.held(old.termIds[i])?.remove(slot, was);
     }
     if (terms) {
       this._n++;
       this._totalLength += terms.length;
-      for (let i = 0; i < terms.termIds.length; i++) this._terms.get(terms.termIds[i])?.add(slot, terms.counts[i], this._stamp, this._edits);
+      for (let i = 0; i < terms.termIds.length; i++) this.held(terms.termIds[i])?.add(slot, terms.counts[i], this._stamp, this._edits);
     }
     this._docsOf[slot] = terms;
     this._lengths[slot] = terms ? terms.length : 0;
@@ -158,12 +187,44 @@ export class Bm25Scorer {
   /** The postings of each term id (aligned), building all missing ones in one pass. */
   private postings(termIds: ArrayLike<number>): TermPostings[] {
     let missing: number[] | null = null;
-    for (let i = 0; i < termIds.length; i++) if (!this._terms.has(termIds[i])) (missing ??= []).push(termIds[i]);
+    for (let i = 0; i < termIds.length; i++) if (!this.held(termIds[i])) (missing ??= []).push(termIds[i]);
     if (missing) {
       const want = Int32Array.from(new Set(missing)).sort();
       collectPostings(this._docsOf, want, this._edits).forEach((p, i) => this._terms.set(want[i], p));
     }
     return Array.from(termIds, (t) => this._terms.get(t)!);
+  }
+
+  /** A term's postings if kept or in the prepared block (then taken from it and kept), else undefined. */
+  private held(t: number): TermPostings | undefined {
+    const p = this._terms.get(t);
+    if (p || !this._block || t >= this._block.terms) return p;
+    const made = this._block.postings(t);
+    this._terms.set(t, made);
+    return made;
+  }
+
+  /**
+   * Takes a block built from `snapshot` at edit number block.builtAt. Terms kept already are
+   * current and stay; for slots edited since the snapshot, the block's lists of the terms of the
+   * old and new documents are brought up to date as setDocument would have done.
+   */
+  private install(block: PostingsBlock, snapshot: readonly (DocTerms | null)[]): void {
+    const fresh = new Map<number, TermPostings>();
+    const take = (t: number): TermPostings | undefined => {
+      if (this._terms.has(t) || t >= block.terms) return undefined;
+      let p = fresh.get(t);
+      if (!p) fresh.set(t, (p = block.postings(t)));
+      return p;
+    };
+    for (let j = 0; j < this._docsOf.length; j++) {
+      if (this._stamp[j] <= block.builtAt) continue;
+      const [old, now] = [j < snapshot.length ? snapshot[j] : null, this._docsOf[j]];
+      if (old) for (let i = 0; i < old.termIds.length; i++) take(old.termIds[i])?.remove(j, block.builtAt);
+      if (now) for (let i = 0; i < now.termIds.length; i++) take(now.termIds[i])?.add(j, now.counts[i], this._stamp, this._edits);
+    }
+    for (const [t, p] of fresh) this._terms.set(t, p);
+    this._block = block;
   }
 
   /** k1·(1 − b + b·|d|/avgdl) per slot (0 for empty slots), recomputed after changes. */

@@ -19,11 +19,14 @@ const align16 = (bytes: number): number => Math.ceil(bytes / 16) * 16;
 const U32 = 2 ** -24;
 /** Relative slack that covers the f64 rounding of the bound arithmetic itself (generous). */
 const SLACK = 1e-9;
+/** Rows coded by one step of fill (a look at the caller's budget after each). */
+const FILL_ROWS = 512;
 
 export class ConceptCodes {
   private _memory: WebAssembly.Memory;
   private _kernel: CodeDotKernelExports;
   private _capacity = 0;
+  private _filled = 0;
   private _codes: Int8Array = new Int8Array(0);
   private _query!: Float32Array;
   private _sums: Float64Array = new Float64Array(0);
@@ -34,13 +37,19 @@ export class ConceptCodes {
 
   /** The codes of a block, or null where WebAssembly SIMD or memory is not available. */
   static create(k: number, capacity: number, rows: Float32Array, n: number): ConceptCodes | null {
+    const codes = ConceptCodes.empty(k, capacity);
+    codes?.fill(rows, n, () => true);
+    return codes;
+  }
+
+  /** Zero codes for capacity rows (fill them with setRows), or null as for create. */
+  static empty(k: number, capacity: number): ConceptCodes | null {
     const module = k > 0 ? codeDotModule() : null;
     if (!module || ConceptCodes.bytesFor(k, capacity) > WASM_LIMIT) return null;
     try {
       const memory = ConceptCodes.memoryFor(ConceptCodes.bytesFor(k, capacity));
       const codes = new ConceptCodes(k, memory, instantiateCodeDots(module, memory), module);
       codes.ensureCapacity(capacity);
-      for (let j = 0; j < n; j++) codes.setRow(j, rows.subarray(j * k, (j + 1) * k));
       return codes;
     } catch {
       return null;
@@ -57,7 +66,24 @@ export class ConceptCodes {
     this._kernel = kernel;
   }
 
+  /** Rows [0, filled) have been coded by fill (or setRow at the end of them). */
+  get filled(): number {
+    return this._filled;
+  }
+
+  /** Codes rows [filled, n) of the block, FILL_ROWS at a time while more() says so (at least once); true when done. */
+  fill(rows: Float32Array, n: number, more: () => boolean): boolean {
+    for (;;) {
+      const to = Math.min(n, this._filled + FILL_ROWS);
+      this.setRows(rows, this._filled, to);
+      this._filled = Math.max(this._filled, to);
+      if (to >= n) return true;
+      if (!more()) return false;
+    }
+  }
+
   setRow(slot: number, v: ArrayLike<number>): void {
+    if (slot === this._filled) this._filled++;
     const k = this.k;
     let max = 0;
     for (let c = 0; c < k; c++) max = Math.max(max, Math.abs(v[c]));
@@ -71,6 +97,11 @@ export class ConceptCodes {
     }
     this._scales[slot] = s;
     this._errors[slot] = Math.sqrt(err) * (1 + SLACK) + Number.MIN_VALUE;
+  }
+
+  /** setRow for rows [from, to) of a row-major block (k numbers a row): the same codes, one tight loop. */
+  setRows(rows: Float32Array, from: number, to: number): void {
+    codeRows(rows, this.k, from, to, this._codes, this._scales, this._errors);
   }
 
   clearRow(slot: number): void {
@@ -148,6 +179,39 @@ export class ConceptCodes {
 
   private static bytesFor(k: number, capacity: number): number {
     return align16(align16(16 + 4 * k) + capacity * k) + capacity * 8;
+  }
+}
+
+/** The arithmetic of setRow, in the same order, over a Float32Array block with no per-row views. */
+function codeRows(rows: Float32Array, k: number, from: number, to: number, codes: Int8Array, scales: Float64Array, errors: Float64Array): void {
+  for (let j = from; j < to; j++) {
+    const base = j * k;
+    let max = 0;
+    for (let c = base; c < base + k; c++) {
+      const a = Math.abs(rows[c]);
+      if (a > max) max = a;
+    }
+    const s = max / 127;
+    let err = 0;
+    if (s > 0) {
+      for (let c = base; c < base + k; c++) {
+        const v = rows[c];
+        let code = Math.round(v / s);
+        if (code > 127) code = 127;
+        else if (code < -127) code = -127;
+        codes[c] = code;
+        const d = v - s * code;
+        err += d * d;
+      }
+    } else {
+      for (let c = base; c < base + k; c++) {
+        const v = rows[c];
+        codes[c] = 0;
+        err += v * v;
+      }
+    }
+    scales[j] = s;
+    errors[j] = Math.sqrt(err) * (1 + SLACK) + Number.MIN_VALUE;
   }
 }
 

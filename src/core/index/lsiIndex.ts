@@ -8,6 +8,9 @@
  * bounds (conceptCodes.ts, screenedTop.ts) and take exact products only for rows that can place,
  * so the ranking is that of a full pass. The BM25 scorer is made on first use (it builds the
  * postings of a term when a query first needs it) and then kept up to date; nearby never needs it.
+ * A caller that keeps the index open (the editor's worker) can call prepare() to build both the
+ * codes and every term's postings ahead of time, in slices, so no search pays for them; a search
+ * that arrives while the codes are half made takes a full pass instead of finishing them.
  */
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
@@ -61,6 +64,20 @@ export interface SearchOptions {
   /** Only paths for which this returns true are ranked. */
   filter?: (path: string) => boolean;
 }
+
+export interface PrepareOptions {
+  /** Milliseconds of work between two pauses (common practice for staying responsive). @default 15 */
+  sliceMs: number;
+  /** Stops preparing (between slices) once aborted. */
+  signal?: AbortSignal;
+  /** Awaited between slices, so other work can run. @default a zero-delay timer */
+  pause: () => Promise<void>;
+}
+
+export const DEFAULT_PREPARE_OPTIONS: Readonly<PrepareOptions> = Object.freeze({
+  sliceMs: 15,
+  pause: () => new Promise<void>((resolve) => setTimeout(resolve, 0)),
+});
 
 export class LsiIndex {
   private _slots: (DocSlot | null)[];
@@ -202,10 +219,38 @@ export class LsiIndex {
     return out;
   }
 
-  /** The 8-bit screening copy of the vectors, made on first use (null without WebAssembly). */
+  /**
+   * Builds what searches need ahead of time (the 8-bit codes, then every term's BM25 postings),
+   * pausing between slices of about sliceMs; resolves true when all is ready, false when aborted.
+   * Cheap once done; later edits keep both up to date.
+   */
+  async prepare(options: Partial<PrepareOptions> = {}): Promise<boolean> {
+    const { sliceMs, signal, pause } = { ...DEFAULT_PREPARE_OPTIONS, ...options };
+    for (;;) {
+      if (signal?.aborted) return false;
+      if (this.prepareSlice(sliceMs)) return true;
+      await pause();
+    }
+  }
+
+  /** One slice of prepare(): works about budgetMs (at least one chunk); true when all is ready. */
+  prepareSlice(budgetMs: number): boolean {
+    const t0 = performance.now();
+    const more = (): boolean => performance.now() - t0 < budgetMs;
+    if (!this.fillCodes(more)) return false;
+    return this.settings.lexicalBlend > 0 ? this.bm25().prepare(more) : true;
+  }
+
+  /** Codes the rows not coded yet while more() says so (at least one chunk); true when complete. */
+  private fillCodes(more: () => boolean): boolean {
+    if (this._codes === undefined) this._codes = ConceptCodes.empty(this.k, this._rows.capacity);
+    return !this._codes || this._codes.fill(this._rows.rows, this._slots.length, more);
+  }
+
+  /** The 8-bit screening copy of the vectors, made on first use (null without WebAssembly or while prepare is filling it). */
   private codes(): ConceptCodes | null {
-    if (this._codes === undefined) this._codes = ConceptCodes.create(this.k, this._rows.capacity, this._rows.rows, this._slots.length);
-    return this._codes;
+    if (this._codes === undefined) this.fillCodes(() => true);
+    return this._codes && this._codes.filled >= this._slots.length ? this._codes : null;
   }
 
   /** Whether a slot may be ranked: occupied, and its path passes the filter. */

@@ -3,6 +3,9 @@
  * (see protocol.ts). Builds run one at a time and swap in only once saved; edits that arrive
  * during a build are applied to the index in use and replayed on the new one after the swap.
  * Folded-in edits are saved a short while after the last one (and on request).
+ * Once an index is loaded or built, what its searches need is prepared in the background
+ * (LsiIndex.prepare) in slices of ~15 ms, each run only after the messages already waiting
+ * (setImmediate), so a search that arrives meanwhile waits at most one slice.
  */
 import { rm, stat } from 'node:fs/promises';
 import { basename } from 'node:path';
@@ -27,9 +30,17 @@ export class NoIndexError extends UndertoneError {}
 export interface IndexServiceOptions {
   /** Milliseconds after the last folded edit before the index is saved (common practice). @default 2000 */
   readonly saveDelayMs: number;
+  /** Milliseconds of background preparation between two looks at waiting messages. @default 15 */
+  readonly prepareSliceMs: number;
+  /** Awaited before and between preparation slices. @default setImmediate (after waiting I/O and messages) */
+  readonly preparePause: () => Promise<void>;
 }
 
-export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = { saveDelayMs: 2000 };
+export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = {
+  saveDelayMs: 2000,
+  prepareSliceMs: 15,
+  preparePause: () => new Promise<void>((resolve) => setImmediate(resolve)),
+};
 
 export class IndexService {
   private _config: WorkerConfig | undefined;
@@ -40,6 +51,7 @@ export class IndexService {
   private _saveTimer: ReturnType<typeof setTimeout> | undefined;
   private _build: Promise<unknown> = Promise.resolve();
   private _duringBuild: FileChange[] | undefined;
+  private _preparing: { readonly controller: AbortController; readonly done: Promise<boolean> } | undefined;
   private readonly _options: IndexServiceOptions;
   private readonly _insights = new InsightService({
     requireIndex: () => this.requireIndex(),
@@ -53,6 +65,11 @@ export class IndexService {
 
   get index(): LsiIndex | undefined {
     return this._index;
+  }
+
+  /** The background preparation in progress (true when it completed, false when stopped), if any. */
+  get preparing(): Promise<boolean> | undefined {
+    return this._preparing?.done;
   }
 
   handlers(): Handlers {
@@ -88,7 +105,7 @@ export class IndexService {
     if (modelSettingsKey(loaded.index.settings) !== modelSettingsKey(resolveSettings(config.settings))) {
       return { outcome: 'settings-changed' as const, summary: this.summary(), ms };
     }
-    this._index = loaded.index;
+    this.use(loaded.index);
     this._dirty = false;
     return { outcome: 'loaded' as const, summary: this.summary(), ms };
   }
@@ -158,7 +175,7 @@ export class IndexService {
   async deleteIndex(): Promise<{ deleted: boolean }> {
     clearTimeout(this._saveTimer);
     this._saveTimer = undefined;
-    this._index = undefined;
+    this.use(undefined);
     this._dirty = false;
     const file = this.config().indexFile;
     const existed = await stat(file).then(() => true, () => false);
@@ -183,7 +200,7 @@ export class IndexService {
       });
       ctx.progress({ stage: 'save', done: 0, total: 1 });
       await saveIndex(config.indexFile, built.index);
-      this._index = built.index;
+      this.use(built.index);
       this._dirty = false;
       const replay = this._duringBuild;
       this._duringBuild = undefined;
@@ -257,6 +274,23 @@ export class IndexService {
     }
     if (stale.length + gone.length > 0) this.markDirty();
     return { summary: this.summary(), ...report, tooManyChanges: false };
+  }
+
+  /** Puts an index in use (or none) and prepares it in the background, stopping any earlier preparation. */
+  private use(index: LsiIndex | undefined): void {
+    this._preparing?.controller.abort();
+    this._preparing = undefined;
+    this._index = index;
+    if (!index) return;
+    const controller = new AbortController();
+    const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
+    const done = pause()
+      .then(() => index.prepare({ signal: controller.signal, sliceMs, pause }))
+      .catch(() => false)
+      .finally(() => {
+        if (this._preparing?.controller === controller) this._preparing = undefined;
+      });
+    this._preparing = { controller, done };
   }
 
   private markDirty(): void {

@@ -157,4 +157,43 @@ describe.skipIf(!cran)(`Bm25Scorer ${cran ? '' : missingMessage('corpora/cran')}
     }
     expectSame();
   });
+
+  it('scores the same bits after prepare() as a lazy scorer and the brute-force formula, with edits before, during and after the build', () => {
+    const docs: (DocTerms | null)[] = all.slice(0, 500);
+    const lazy = new Bm25Scorer(docs);
+    const prepared = new Bm25Scorer(docs);
+    const set = (slot: number, d: DocTerms | null): void => {
+      for (const x of [lazy, prepared]) x.setDocument(slot, d);
+      while (docs.length <= slot) docs.push(null);
+      docs[slot] = d;
+    };
+    const expectSame = (qs: readonly DocTerms[]): void => {
+      qs.forEach((q, i) => {
+        const a = scoresOf(prepared, q, docs.length);
+        expect(sameBits(a, scoresOf(lazy, q, docs.length))).toBe(true);
+        if (i % 5 === 0) expect(sameBits(a, exactScores(docs, q))).toBe(true); // brute force is slow: a sample
+        for (const t of q.termIds) expect(prepared.docFrequency(t)).toBe(lazy.docFrequency(t));
+      });
+    };
+    scoresOf(prepared, queries[0], docs.length); // a term list made lazily before preparing
+    set(4, all[800]); // an edit before the build starts
+    // A few steps of the build, then edits it did not see (replace, remove, add, refill), then the rest.
+    for (let i = 0; i < 5; i++) expect(prepared.prepare(() => false)).toBe(false);
+    set(9, all[801]);
+    set(12, null);
+    set(500, all[802]);
+    set(501, all[803]);
+    set(501, all[804]);
+    scoresOf(prepared, queries[1], docs.length); // a lazy list made during the build
+    while (!prepared.prepare(() => false));
+    expect(prepared.prepared).toBe(true);
+    expect(prepared.prepare()).toBe(true); // cheap once done
+    expectSame(queries.slice(0, 12));
+    // Edits after the build: terms taken from the block for the first time only now.
+    set(20, all[805]);
+    set(21, null);
+    set(502, countTerms(tokenize('quuxification shock layer'), vocab, true));
+    for (let i = 0; i < 400; i++) set(600 + i, all[(i * 3) % all.length]); // enough to merge side lists
+    expectSame([...queries.slice(10), countTerms(tokenize('quuxification shock'), vocab, false)]);
+  });
 });

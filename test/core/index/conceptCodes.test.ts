@@ -51,4 +51,29 @@ describe('ConceptCodes', () => {
     expect(center[7]).toBe(0);
     expect(center[0]).toBeCloseTo(1, 1);
   });
+
+  it('codes a block with setRows to the same bits as row by row with setRow, zero rows included', () => {
+    const k = 37;
+    const n = 300;
+    const rows = unitRows(n, k, 9);
+    rows.fill(0, 11 * k, 12 * k); // a hole
+    rows[20 * k + 3] = -0;
+    const one = ConceptCodes.empty(k, n)!;
+    for (let j = 0; j < n; j++) one.setRow(j, rows.subarray(j * k, (j + 1) * k));
+    const block = ConceptCodes.empty(k, n)!;
+    block.setRows(rows, 0, 100);
+    block.setRows(rows, 100, n);
+    const viaCreate = ConceptCodes.create(k, n, rows, n)!;
+    // The codes themselves are private: equal bounds for several queries mean equal codes, scales and errors.
+    for (let t = 0; t < 4; t++) {
+      const q = rows.subarray(t * 50 * k, (t * 50 + 1) * k);
+      const ref = one.bounds(q, n);
+      const [c0, r0] = [ref.center.slice(), ref.radius.slice()];
+      for (const other of [block, viaCreate]) {
+        const got = other.bounds(q, n);
+        expect(Buffer.from(got.center.buffer, got.center.byteOffset, 8 * n).equals(Buffer.from(c0.buffer))).toBe(true);
+        expect(Buffer.from(got.radius.buffer, got.radius.byteOffset, 8 * n).equals(Buffer.from(r0.buffer))).toBe(true);
+      }
+    }
+  });
 });

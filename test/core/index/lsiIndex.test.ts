@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { NoKnownTermsError, NotIndexedError } from '../../../src/core/errors.js';
 import { projectTerms } from '../../../src/core/index/conceptModel.js';
 import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { decodeIndex, encodeIndex } from '../../../src/core/index/serialize.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import type { DocTerms } from '../../../src/core/index/termCounts.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
@@ -148,6 +149,58 @@ describe.skipIf(!cran)(`LsiIndex ranking against the plain formula ${cran ? '' :
     index.remove('new1');
     compare();
     expect(index.search('quuxified frobnicator', { top: 2 }).map((h) => h.path).sort()).toEqual(['new0', 'new2']);
+  });
+});
+
+describe.skipIf(!cran)(`LsiIndex.prepare ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+  it('gives the same bits as an index never prepared, with searches and edits between its slices and after it', async () => {
+    const b = new IndexBuilder({ k: 30 });
+    for (const d of cran!.docs.slice(0, 600)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    const saved = encodeIndex(b.build());
+    const [prepared, lazy] = [decodeIndex(saved), decodeIndex(saved)];
+    const both = (f: (x: LsiIndex) => void): void => [prepared, lazy].forEach(f);
+    let q = 0;
+    const compare = (count: number): void => {
+      for (let i = 0; i < count; i++, q++) {
+        const text = cran!.queries[q % cran!.queries.length].text;
+        // Same hits, same scores to the last bit (toEqual compares numbers with Object.is).
+        expect(prepared.search(text, { top: 12 })).toEqual(lazy.search(text, { top: 12 }));
+      }
+      const p = prepared.paths()[q % prepared.size];
+      expect(prepared.nearby(p, { top: 8 })).toEqual(lazy.nearby(p, { top: 8 }));
+    };
+    // Slices of one chunk each (budget 0): a search and an edit after some of them.
+    let slices = 0;
+    while (!prepared.prepareSlice(0)) {
+      if (++slices % 7 === 0) compare(1);
+      if (slices === 9) both((x) => x.foldIn({ path: cran!.docs[3].id, size: 1, mtimeMs: 1 }, cran!.docs[900].text));
+      if (slices === 20) both((x) => x.remove(cran!.docs[10].id));
+      if (slices === 30) both((x) => x.foldIn({ path: 'new/a', size: 1, mtimeMs: 1 }, `${cran!.docs[901].text} quuxified frobnicator`));
+    }
+    expect(slices).toBeGreaterThan(30); // 600 documents in 32-document chunks: the edits landed mid-way
+    expect(await prepared.prepare()).toBe(true);
+    compare(15);
+    both((x) => x.foldIn({ path: cran!.docs[5].id, size: 1, mtimeMs: 1 }, cran!.docs[902].text));
+    both((x) => x.foldIn({ path: 'new/b', size: 1, mtimeMs: 1 }, `${cran!.docs[903].text} quuxified`));
+    both((x) => x.remove('new/a'));
+    compare(15);
+    expect(prepared.search('quuxified frobnicator', { top: 1 })[0].path).toBe('new/b');
+  });
+
+  it('stops between slices once its signal is aborted, and finishes when asked again', async () => {
+    const b = new IndexBuilder({ k: 10 });
+    for (const d of cran!.docs.slice(0, 300)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    const index = b.build();
+    const controller = new AbortController();
+    let pauses = 0;
+    const pause = async (): Promise<void> => {
+      if (++pauses === 3) controller.abort();
+    };
+    expect(await index.prepare({ sliceMs: 0, signal: controller.signal, pause })).toBe(false);
+    expect(pauses).toBe(3);
+    expect(index.bm25().prepared).toBe(false);
+    expect(await index.prepare({ sliceMs: 0, pause })).toBe(true);
+    expect(index.bm25().prepared).toBe(true);
   });
 });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { collectPostings, TermPostings } from '../../../src/core/index/termPostings.js';
+import { collectPostings, PostingsBuild, TermPostings } from '../../../src/core/index/termPostings.js';
 import type { DocTerms } from '../../../src/core/index/termCounts.js';
 import { createRandom } from '../../../src/core/random.js';
 
@@ -85,5 +85,36 @@ describe('TermPostings', () => {
     expect(p.builtAt).toBeGreaterThan(0);
     expect(live()).toEqual(bruteForce(docs, t));
     expect(p.df).toBe(bruteForce(docs, t).length);
+  });
+});
+
+describe('PostingsBuild', () => {
+  it('gives every term the list collectPostings makes (brute force checked), whether run at once or one step at a time', () => {
+    const docs = randomDocs(700, 150, 21);
+    const want = Int32Array.from({ length: 150 }, (_, t) => t);
+    const lazy = collectPostings(docs, want, 4);
+    const atOnce = new PostingsBuild(docs, 4).run(() => true)!;
+    const build = new PostingsBuild(docs, 4);
+    let steps = 1;
+    let stepped = build.run(() => false);
+    for (; stepped === null; steps++) stepped = build.run(() => false);
+    expect(steps).toBeGreaterThan(10); // 700 documents take many single steps
+    for (const block of [atOnce, stepped]) {
+      expect(block.builtAt).toBe(4);
+      expect(block.terms).toBeLessThanOrEqual(150);
+      want.forEach((t, w) => {
+        const p = t < block.terms ? block.postings(t) : null;
+        expect(p ? pairsOf(p) : []).toEqual(bruteForce(docs, t));
+        expect(p ? pairsOf(p) : []).toEqual(pairsOf(lazy[w]));
+        expect(p?.df ?? 0).toBe(lazy[w].df);
+      });
+    }
+  });
+
+  it('copes with no documents, empty documents and holes only', () => {
+    expect(new PostingsBuild([], 0).run(() => true)!.terms).toBe(0);
+    const empty = { termIds: new Int32Array(0), counts: new Float32Array(0), length: 0 };
+    const block = new PostingsBuild([null, empty, null], 2).run(() => true)!;
+    expect(block.terms).toBe(0);
   });
 });
