@@ -182,6 +182,17 @@ export class ConceptCodes {
   }
 }
 
+/**
+ * Math.round(x) (the nearest integer, halves up) for |x| ≤ 128, without its cost in the engine:
+ * truncating fl(x + 128.5) (positive) floors it; fl only rounds up and by less than 1, so the result
+ * is the right integer or one more, and c − 0.5 > x (exact for such c) tells which. The sign of a
+ * zero may differ (−0 for x ∈ [−0.5, 0)), which the codes and error sums do not see.
+ */
+export function roundHalfUp(x: number): number {
+  const c = ((x + 128.5) | 0) - 128;
+  return c - 0.5 > x ? c - 1 : c;
+}
+
 /** The arithmetic of setRow, in the same order, over a Float32Array block with no per-row views. */
 function codeRows(rows: Float32Array, k: number, from: number, to: number, codes: Int8Array, scales: Float64Array, errors: Float64Array): void {
   for (let j = from; j < to; j++) {
@@ -196,7 +207,7 @@ function codeRows(rows: Float32Array, k: number, from: number, to: number, codes
     if (s > 0) {
       for (let c = base; c < base + k; c++) {
         const v = rows[c];
-        let code = Math.round(v / s);
+        let code = roundHalfUp(v / s);
         if (code > 127) code = 127;
         else if (code < -127) code = -127;
         codes[c] = code;

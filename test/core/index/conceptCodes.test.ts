@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ConceptCodes } from '../../../src/core/index/conceptCodes.js';
+import { ConceptCodes, roundHalfUp } from '../../../src/core/index/conceptCodes.js';
 import { createRandom } from '../../../src/core/random.js';
 
 function unitRows(n: number, k: number, seed: number): Float32Array {
@@ -75,5 +75,25 @@ describe('ConceptCodes', () => {
         expect(Buffer.from(got.radius.buffer, got.radius.byteOffset, 8 * n).equals(Buffer.from(r0.buffer))).toBe(true);
       }
     }
+  });
+
+  it('rounds every value a code can take as Math.round does: halves, their neighbours, and random values', () => {
+    // Reference: the engine's Math.round (ECMAScript: the integer nearest x, halves toward +∞).
+    const bits = new Float64Array(1);
+    const word = new BigInt64Array(bits.buffer);
+    const step = (x: number, ulps: number): number => {
+      bits[0] = x;
+      word[0] += BigInt(x >= 0 ? ulps : -ulps);
+      return bits[0];
+    };
+    const values = [0.49999999999999994, -0.49999999999999994, 5e-324, -5e-324, 0, 127.5, -127.5];
+    for (let m = -128; m < 128; m++) for (const h of [m + 0.5, m]) for (let u = -3; u <= 3; u++) values.push(step(h, u));
+    const rnd = createRandom(5);
+    for (let i = 0; i < 100_000; i++) values.push((rnd.next() - 0.5) * 255);
+    let wrong = 0;
+    for (const x of values) if (Math.abs(x) <= 127.5 && roundHalfUp(x) !== Math.round(x)) wrong++;
+    expect(wrong).toBe(0);
+    expect(roundHalfUp(0.49999999999999994)).toBe(0); // fl(x + 0.5) = 1 here: naive floor(x + 0.5) is wrong
+    expect(roundHalfUp(-2.5)).toBe(-2);
   });
 });
