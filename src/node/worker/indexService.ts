@@ -4,10 +4,8 @@
  * during a build are applied to the index in use and replayed on the new one after the swap.
  * Folded-in edits are saved a short while after the last one (and on request).
  * Once an index is loaded or built, what its searches need is prepared in the background
- * (LsiIndex.prepare) in slices of ~15 ms, each run only after the messages already waiting
- * (setImmediate), so a search that arrives meanwhile waits at most one slice. A few searches
- * of the index's own words follow, one per pause: the engine optimises the search loops during
- * the first searches (~50–90 ms each on a large tree), which then no request pays for.
+ * (backgroundPrepare.ts) in slices of ~15 ms, each run only after the messages already waiting
+ * (setImmediate), so a search that arrives meanwhile waits about one slice.
  */
 import { rm, stat } from 'node:fs/promises';
 import { basename } from 'node:path';
@@ -16,6 +14,7 @@ import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { modelSettingsKey, resolveSettings } from '../../core/index/settings.js';
 import { loadIndex, saveIndex } from '../persist.js';
 import { readIndexableText } from '../scan.js';
+import { prepareInBackground } from './backgroundPrepare.js';
 import { bestMatchingLine } from './bestLine.js';
 import { nearbyWhy, searchWhy } from './explainHits.js';
 import { FileAdmission } from './fileAdmission.js';
@@ -43,20 +42,6 @@ export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = {
   prepareSliceMs: 15,
   preparePause: () => new Promise<void>((resolve) => setImmediate(resolve)),
 };
-
-/** Searches run after preparing, to have the engine optimise the search loops (common practice). */
-const WARM_UP_SEARCHES = 3;
-
-/** One search for a word of the concept space, spread over the kept terms; its answer is not used. */
-function warmUp(index: LsiIndex, i: number): void {
-  const kept = index.model.keptIds;
-  if (kept.length === 0) return;
-  try {
-    index.search(index.vocab.termOf(kept[Math.floor(((i + 0.5) * kept.length) / WARM_UP_SEARCHES)]), { top: 10 });
-  } catch {
-    // A word that no longer tokenizes to a known term: nothing to warm with it.
-  }
-}
 
 export class IndexService {
   private _config: WorkerConfig | undefined;
@@ -298,22 +283,14 @@ export class IndexService {
     this._preparing = undefined;
     this._index = index;
     if (!index) return;
-    const controller = new AbortController();
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
-    const done = pause()
-      .then(() => index.prepare({ signal: controller.signal, sliceMs, pause }))
-      .then(async (ready) => {
-        for (let i = 0; ready && i < WARM_UP_SEARCHES && !controller.signal.aborted; i++) {
-          await pause();
-          warmUp(index, i);
-        }
-        return ready;
-      })
-      .catch(() => false)
-      .finally(() => {
+    const { controller, done } = prepareInBackground(index, { sliceMs, pause });
+    this._preparing = {
+      controller,
+      done: done.finally(() => {
         if (this._preparing?.controller === controller) this._preparing = undefined;
-      });
-    this._preparing = { controller, done };
+      }),
+    };
   }
 
   private markDirty(): void {
