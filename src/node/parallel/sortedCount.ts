@@ -86,26 +86,25 @@ export function mergeSorted(terms: readonly (readonly string[])[], orders: reado
   const k = terms.length;
   const pos = new Int32Array(k);
   const translate = terms.map((t) => new Int32Array(t.length));
+  // The head term of each list (undefined when it is done).
+  const head: (string | undefined)[] = terms.map((t, w) => (orders[w].length > 0 ? t[orders[w][0]] : undefined));
   const sorted: string[] = [];
   for (;;) {
-    let best = -1;
-    let bestTerm = '';
+    let best: string | undefined;
     for (let w = 0; w < k; w++) {
-      if (pos[w] >= orders[w].length) continue;
-      const t = terms[w][orders[w][pos[w]]];
-      if (best < 0 || t < bestTerm) {
-        best = w;
-        bestTerm = t;
-      }
+      const t = head[w];
+      if (t !== undefined && (best === undefined || t < best)) best = t;
     }
-    if (best < 0) break;
+    if (best === undefined) break;
     const id = sorted.length;
-    sorted.push(bestTerm);
+    sorted.push(best);
     for (let w = 0; w < k; w++) {
-      if (pos[w] < orders[w].length && terms[w][orders[w][pos[w]]] === bestTerm) {
-        translate[w][orders[w][pos[w]]] = id;
-        pos[w]++;
-      }
+      if (head[w] !== best) continue;
+      const order = orders[w];
+      const p = pos[w];
+      translate[w][order[p]] = id;
+      pos[w] = p + 1;
+      head[w] = p + 1 < order.length ? terms[w][order[p + 1]] : undefined;
     }
   }
   return { sorted, translate };

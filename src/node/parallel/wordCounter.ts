@@ -16,6 +16,7 @@ import { STOP_WORDS } from '../../core/text/stopWords.js';
 import { DEFAULT_TOKENIZE_OPTIONS, tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
 import { allDigits, keepToken, lowerInto, MAX_TOKEN_LENGTH, partBounds, skipsWord } from './asciiWord.js';
 import { porterStem } from './porterFast.js';
+import { sortedTermIds } from './termOrder.js';
 import { astralWordAt, caselessLetters, classify, CLASS, HIGH_SURROGATE, UnitBuffer, unitsToString, WORD } from './textUnits.js';
 import { FNV_OFFSET, FNV_PRIME, grow32, WordTable } from './wordTable.js';
 
@@ -44,8 +45,9 @@ export class WordCounter {
   private readonly idOf = new Map<string, number>();
   private readonly terms: string[] = [];
   private reported = 0;
-  private readonly words = new WordTable(WORD_CACHE_LIMIT);
-  private readonly tokens = new WordTable(WORD_CACHE_LIMIT);
+  // Sized for a few ten thousand keys up front (a thread meets that many in its first files).
+  private readonly words = new WordTable(WORD_CACHE_LIMIT, 1 << 16);
+  private readonly tokens = new WordTable(WORD_CACHE_LIMIT, 1 << 15);
   /** Term lists of words with several terms: count, then the ids. */
   private multi = new Int32Array(1 << 12);
   private multiUsed = 0;
@@ -76,8 +78,7 @@ export class WordCounter {
 
   /** All local term ids, ordered by term (UTF-16 code unit order, as Array.prototype.sort gives). */
   sortedTermOrder(): Int32Array {
-    const sorted = [...this.terms].sort();
-    return Int32Array.from(sorted, (t) => this.idOf.get(t)!);
+    return sortedTermIds(this.terms);
   }
 
   /** The counts of a text (fresh arrays; the worker packs a batch with packText instead). */

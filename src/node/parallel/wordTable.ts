@@ -14,14 +14,22 @@ export const FNV_PRIME = 0x01000193;
 
 export class WordTable {
   size = 0;
-  private units = new Uint16Array(1 << 16);
+  private units: Uint16Array<ArrayBuffer>;
   private used = 0;
   /** Entry e: key units[rec[3e], rec[3e] + rec[3e + 1]), value rec[3e + 2]. */
-  private rec = new Int32Array(3 << 12);
+  private rec: Int32Array<ArrayBuffer>;
   /** Slot s: entry + 1 (0: empty) at 2s, the entry's hash at 2s + 1. */
-  private slots = new Int32Array(2 << 13);
+  private slots: Int32Array<ArrayBuffer>;
 
-  constructor(private readonly limit: number) {}
+  /** `expected`: keys to make room for up front (a power of two; the table grows past it as needed). */
+  constructor(
+    private readonly limit: number,
+    expected = 1 << 12,
+  ) {
+    this.units = new Uint16Array(16 * expected);
+    this.rec = new Int32Array(3 * expected);
+    this.slots = new Int32Array(4 * expected);
+  }
 
   value(e: number): number {
     return this.rec[3 * e + 2];

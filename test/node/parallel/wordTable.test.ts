@@ -14,9 +14,13 @@ function hashOf(u: Uint16Array, start: number, end: number): number {
 }
 
 describe('WordTable', () => {
-  it('finds every key it holds, with its value, and no other (50 000 random keys, growth included)', () => {
+  it.each([
+    ['the default room', undefined],
+    ['room for one key', 1],
+    ['room for more keys than it gets', 1 << 16],
+  ])('finds every key it holds, with its value, and no other (50 000 random keys, %s)', (_, expected) => {
     const rnd = createRandom(9);
-    const table = new WordTable(1_000_000);
+    const table = new WordTable(1_000_000, expected);
     const ref = new Map<string, number>();
     for (let r = 0; r < 50_000; r++) {
       let w = '';
