@@ -134,6 +134,7 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   ex.spmm(at, q, l, z);
   step();
   let g: Float64Array;
+  let spare: Float64Array | undefined;
   if (gramOnBigSide) {
     g = ex.cross(z, z, B, l);
   } else {
@@ -141,9 +142,10 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
     ex.spmm(a, z, l, az);
     step();
     g = ex.cross(q, az, S, l);
+    spare = az; // done with: its memory takes the small-side vectors (k ≤ l)
   }
   const pairs = topEigenpairs(g, l, k);
-  const small = ex.float64(S * k);
+  const small = spare ? spare.subarray(0, S * k) : ex.float64(S * k);
   ex.timesSmall(q, S, l, transposeScaled(pairs.w, l, k), k, false, small);
   const big = bigSideVectors(ex, z, small, at, l, pairs, k);
   repairWeakColumns(big, B, k, pairs.s, random);

@@ -95,5 +95,8 @@ function finishCounts(translate: Int32Array): FinalCounts {
   const out = new Float32Array(ids.length);
   for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, termIds, out);
   kept = [];
+  // The build's word tables are done with (the next build sends setup): let them go before the
+  // SVD runs on this thread's share of the products.
+  counter = undefined;
   return { type: 'final-counts', termIds, counts: out };
 }
