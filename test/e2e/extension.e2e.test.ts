@@ -3,18 +3,16 @@
 // the Explorer. Expectations come from demo/expectations.json (written with the demo workspace:
 // queries whose best answer uses other words, and files' expected neighbours).
 // Run by `npm run test:e2e` (which installs the editor, builds and packages first).
-import { appendFileSync, cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { appendFileSync, existsSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import type { Locator } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { OUTPUT_DIR, startEditor, type RunningEditor } from '../../scripts/e2e/editor.js';
 import { waitFor } from '../../scripts/e2e/process.js';
 import type { ListRow } from '../../scripts/e2e/workbench.js';
+import { editorDirs, startOnDemoCopy } from '../helpers/demoEditor.js';
 
 const REPO = path.resolve(import.meta.dirname, '../..');
-const VSIX = path.join(REPO, 'undertone.vsix');
-const DEMO = path.join(REPO, 'demo', 'workspace');
 const EXPECT = path.join(REPO, 'demo', 'expectations.json');
 
 interface Expectations {
@@ -111,20 +109,9 @@ describe('Undertone in a real editor', () => {
   };
 
   beforeAll(async () => {
-    if (!existsSync(VSIX)) throw new Error(`${VSIX} is missing: run "npm run package" first (npm run test:e2e does).`);
     if (!existsSync(EXPECT)) throw new Error('demo/expectations.json is missing');
     expectations = JSON.parse(readFileSync(EXPECT, 'utf8')) as Expectations;
-    root = mkdtempSync(path.join(tmpdir(), 'undertone-ext-e2e-'));
-    workspace = path.join(root, 'ferry-cooperative');
-    cpSync(DEMO, workspace, { recursive: true });
-    editor = await startEditor({
-      workspaceFolder: workspace,
-      extensionsDir: path.join(root, 'extensions'),
-      userDataDir: path.join(root, 'user-data'),
-      vsixPath: VSIX,
-      settings: { 'files.autoSave': 'off', 'explorer.confirmDelete': true },
-      name: 'extension',
-    });
+    ({ root, workspace, editor } = await startOnDemoCopy('extension', { 'files.autoSave': 'off', 'explorer.confirmDelete': true }));
   });
 
   afterEach(async (ctx) => {
@@ -281,8 +268,7 @@ describe('Undertone in a real editor', () => {
     appendFileSync(path.join(workspace, changed), '\nA note added while the editor was closed: claims are answered within five working days.\n');
     editor = await startEditor({
       workspaceFolder: workspace,
-      extensionsDir: path.join(root, 'extensions'),
-      userDataDir: path.join(root, 'user-data'),
+      ...editorDirs(root),
       settings: { 'files.autoSave': 'off' },
       name: 'extension-reopen',
       port, // the same address, so the editor finds this folder's workspace storage again
@@ -311,17 +297,7 @@ describe('Undertone in an untrusted folder (Restricted Mode)', () => {
   let editor: RunningEditor | undefined;
 
   beforeAll(async () => {
-    root = mkdtempSync(path.join(tmpdir(), 'undertone-ext-restricted-'));
-    const workspace = path.join(root, 'ferry-cooperative');
-    cpSync(DEMO, workspace, { recursive: true });
-    editor = await startEditor({
-      workspaceFolder: workspace,
-      extensionsDir: path.join(root, 'extensions'),
-      userDataDir: path.join(root, 'user-data'),
-      vsixPath: VSIX,
-      settings: { 'security.workspace.trust.enabled': true },
-      name: 'extension-restricted',
-    });
+    ({ root, editor } = await startOnDemoCopy('extension-restricted', { 'security.workspace.trust.enabled': true }));
   });
 
   afterAll(async () => {

@@ -3,18 +3,16 @@
 // person would. Expectations come from demo/expectations.json, the answer key written with the
 // demo workspace (its planted exact copies and topics), not from the code under test.
 // Run by `npm run test:e2e` (which installs the editor, builds and packages first).
-import { cpSync, existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import type { FrameLocator, Locator } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { startEditor, type RunningEditor } from '../../scripts/e2e/editor.js';
+import type { RunningEditor } from '../../scripts/e2e/editor.js';
 import { waitFor } from '../../scripts/e2e/process.js';
 import type { ListRow } from '../../scripts/e2e/workbench.js';
+import { startOnDemoCopy } from '../helpers/demoEditor.js';
 
 const REPO = path.resolve(import.meta.dirname, '../..');
-const VSIX = path.join(REPO, 'undertone.vsix');
-const DEMO = path.join(REPO, 'demo', 'workspace');
 const EXPECT = path.join(REPO, 'demo', 'expectations.json');
 
 interface Expectations {
@@ -43,6 +41,7 @@ interface PageCanvas {
 
 describe('Undertone insights in a real editor', () => {
   let root: string;
+  let workspace: string;
   let editor: RunningEditor | undefined;
   let expectations: Expectations;
   let files = 0;
@@ -120,19 +119,8 @@ describe('Undertone insights in a real editor', () => {
     editor!.page.locator('.tabs-container .tab.active').filter({ hasText: typeof title === 'string' ? new RegExp(`^\\s*${escape(title)}`) : title });
 
   beforeAll(async () => {
-    if (!existsSync(VSIX)) throw new Error(`${VSIX} is missing: run "npm run package" first (npm run test:e2e does).`);
     expectations = JSON.parse(readFileSync(EXPECT, 'utf8')) as Expectations;
-    root = mkdtempSync(path.join(tmpdir(), 'undertone-insights-e2e-'));
-    const workspace = path.join(root, 'ferry-cooperative');
-    cpSync(DEMO, workspace, { recursive: true });
-    editor = await startEditor({
-      workspaceFolder: workspace,
-      extensionsDir: path.join(root, 'extensions'),
-      userDataDir: path.join(root, 'user-data'),
-      vsixPath: VSIX,
-      settings: { 'files.autoSave': 'off', 'workbench.hover.delay': 300 },
-      name: 'insights',
-    });
+    ({ root, workspace, editor } = await startOnDemoCopy('insights', { 'files.autoSave': 'off', 'workbench.hover.delay': 300 }));
     await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
     files = Number(/([\d,]+) files/.exec((await status().textContent()) ?? '')![1].replace(/,/g, ''));
   });
@@ -174,7 +162,7 @@ describe('Undertone insights in a real editor', () => {
     await diff.waitFor({ state: 'visible', timeout: 30_000 });
     await activeTab(label).waitFor({ state: 'visible', timeout: 30_000 });
     // Both sides show the file's text (its first line, from the file on disk).
-    const firstLine = readFileSync(path.join(DEMO, a), 'utf8').split('\n')[0].trim().slice(0, 30);
+    const firstLine = readFileSync(path.join(workspace, a), 'utf8').split('\n')[0].trim().slice(0, 30);
     for (const side of ['.editor.original', '.editor.modified']) await diff.locator(`${side} .view-line`).filter({ hasText: firstLine }).first().waitFor({ state: 'visible', timeout: 30_000 });
     await editor!.screenshot('insights-2-compare');
   });
