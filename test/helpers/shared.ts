@@ -1,19 +1,19 @@
-/** Locates ../shared (beside the checkout) for tests that read published checks or corpora. */
+/** Locates the test fixtures (test/fixtures: published checks and public test collections, with their provenance). */
 import { existsSync, readFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 export const REPO_ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
-export const SHARED_DIR = resolve(REPO_ROOT, '..', 'shared');
+export const SHARED_DIR = resolve(REPO_ROOT, 'test', 'fixtures');
 
-/** Absolute path of a file under ../shared, or null when it is absent (the caller skips). */
+/** Absolute path of a file under test/fixtures, or null when it is absent (the caller skips). */
 export function sharedPath(rel: string): string | null {
   const p = join(SHARED_DIR, rel);
   return existsSync(p) ? p : null;
 }
 
 export function missingMessage(rel: string): string {
-  return `skipped: ../shared/${rel} is not present beside the checkout`;
+  return `skipped: test/fixtures/${rel} is missing from the checkout`;
 }
 
 export interface JudgedCollection {
@@ -22,7 +22,7 @@ export interface JudgedCollection {
   qrels: Map<string, Set<string>>;
 }
 
-/** Reads one of ../shared/corpora/<name> (docs.jsonl, queries.jsonl, qrels.tsv). */
+/** Reads one of test/fixtures/corpora/<name> (docs.jsonl, queries.jsonl, qrels.tsv). */
 export function loadCollection(name: string): JudgedCollection | null {
   const dir = sharedPath(`corpora/${name}`);
   if (!dir) return null;
