@@ -17,7 +17,7 @@ import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, wr
 import { tmpdir } from 'node:os';
 import { join, relative, sep } from 'node:path';
 import { QueryExplainer } from '../src/core/explain/explain.js';
-import { IndexBuilder } from '../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../src/core/index/model/indexBuilder.js';
 import { findLookalikes } from '../src/core/lookalike/index.js';
 import { curDecomposition } from '../src/core/topics/cur.js';
 import { leadingFactors, weightedMatrix } from '../src/core/topics/indexMatrix.js';

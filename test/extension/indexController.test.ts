@@ -3,7 +3,7 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEFAULT_UPDATE_POLICY } from '../../src/core/index/updatePolicy.js';
+import { DEFAULT_UPDATE_POLICY } from '../../src/core/index/update/updatePolicy.js';
 import { IndexController, type ControllerHost } from '../../src/extension/indexController.js';
 import type { IndexState } from '../../src/extension/indexState.js';
 import { startIndexWorker } from '../../src/extension/workerHost.js';

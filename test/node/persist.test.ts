@@ -2,9 +2,9 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
-import { INDEX_FORMAT_VERSION } from '../../src/core/index/serialize.js';
+import { INDEX_FORMAT_VERSION } from '../../src/core/index/persistence/serialize.js';
 import { loadIndex, saveIndex } from '../../src/node/persist.js';
 import { loadCollection, missingMessage } from '../helpers/shared.js';
 

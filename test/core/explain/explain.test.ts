@@ -9,7 +9,7 @@ import { Matrix } from 'ml-matrix';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { NoKnownTermsError } from '../../../src/core/errors.js';
 import { explainPair, QueryExplainer, topShares } from '../../../src/core/explain/explain.js';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { weightDocument } from '../../../src/core/weighting/termWeighting.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';

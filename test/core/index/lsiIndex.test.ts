@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { NoKnownTermsError, NotIndexedError } from '../../../src/core/errors.js';
-import { projectTerms } from '../../../src/core/index/conceptModel.js';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
-import { decodeIndex, encodeIndex } from '../../../src/core/index/serialize.js';
+import { projectTerms } from '../../../src/core/index/model/conceptModel.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
+import { decodeIndex, encodeIndex } from '../../../src/core/index/persistence/serialize.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import type { DocTerms } from '../../../src/core/index/termCounts.js';
+import type { DocTerms } from '../../../src/core/counting/termCounts.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 
 // Real text: CRAN (../shared/corpora/cran, 1400 aerodynamics abstracts).

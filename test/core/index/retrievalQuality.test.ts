@@ -9,7 +9,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { evaluateRuns } from '../../../src/core/eval/retrievalMetrics.js';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 
 const FLOORS: Record<string, number> = { cisi: 0.227, cran: 0.324, cacm: 0.302, adi: 0.409 };

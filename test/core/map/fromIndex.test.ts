@@ -8,7 +8,7 @@
  */
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { EmbeddedQueryEngine } from '../../../src/core/map/embeddedQuery.js';
 import { buildEmbeddedQueryData } from '../../../src/core/map/embeddedQueryData.js';

@@ -14,7 +14,7 @@
  */
 import { EigenvalueDecomposition, inverse, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { CsrMatrix } from '../../../src/core/matrix/sparse.js';
 import { randomizedSvd, type SvdResult } from '../../../src/core/svd/randomizedSvd.js';
 import { curDecomposition, type CurMethod } from '../../../src/core/topics/cur.js';

@@ -2,9 +2,9 @@
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 import { Matrix, QrDecomposition } from 'ml-matrix';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import type { IndexSettings } from '../../../src/core/index/settings.js';
+import type { IndexSettings } from '../../../src/core/index/model/settings.js';
 import { createRandom } from '../../../src/core/random.js';
 import { REPO_ROOT } from '../../helpers/shared.js';
 

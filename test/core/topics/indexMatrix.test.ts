@@ -6,7 +6,7 @@
  */
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { leadingFactors, weightedMatrix } from '../../../src/core/topics/indexMatrix.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 

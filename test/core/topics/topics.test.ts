@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { EmptyCorpusError, InvalidInputError } from '../../../src/core/errors.js';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { stemWord } from '../../../src/core/text/tokenize.js';
 import { findTopics, type TopicsReport } from '../../../src/core/topics/topics.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';

@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { countTerms, Vocabulary } from '../../../src/core/index/termCounts.js';
+import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { WordCounter } from '../../../src/node/parallel/wordCounter.js';
 import { loadCollection, missingMessage, REPO_ROOT } from '../../helpers/shared.js';

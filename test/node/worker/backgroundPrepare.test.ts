@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { prepareInBackground, WARM_UP_SEARCHES } from '../../../src/node/worker/backgroundPrepare.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { bestMatchingLine, MAX_LINE_CHARS } from '../../../src/node/worker/bestLine.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { loadIndex } from '../../../src/node/persist.js';
 import { IndexService } from '../../../src/node/worker/indexService.js';
-import type { WorkerConfig } from '../../../src/node/worker/protocol.js';
+import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import type { HandlerContext } from '../../../src/node/worker/server.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 

@@ -4,9 +4,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { isCancelled, WorkerClient } from '../../../src/node/worker/client.js';
-import type { WorkerConfig } from '../../../src/node/worker/protocol.js';
+import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import { loadCollection, missingMessage, REPO_ROOT } from '../../helpers/shared.js';
 
 // A real worker thread running the bundled worker entry, over a folder made of the ADI
