@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
 
-// Real text: the CISI collection (../shared/corpora/cisi). Every expected value below comes from a
+// Real text: the CISI collection (test/fixtures/corpora/cisi). Every expected value below comes from a
 // brute-force reference (a plain array and Map over the same terms), not from the code under test.
 const cisi = loadCollection('cisi');
 
@@ -12,7 +12,7 @@ let cached: string[] | null = null;
 function sortedTerms(): string[] {
   if (cached) return cached;
   const set = new Set<string>();
-  for (const d of cisi!.docs) for (const t of tokenize(d.text)) set.add(t);
+  for (const d of cisi.docs) for (const t of tokenize(d.text)) set.add(t);
   // U+FF5E (3 UTF-8 bytes) sorts after U+1F600 (a surrogate pair) by code units but before it by bytes.
   for (const t of ['zz\u{1F600}', 'zz\uFF5E', 'café', 'naïve', 'δ']) set.add(t);
   cached = [...set].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
@@ -26,7 +26,7 @@ function reopen(v: Vocabulary): Vocabulary {
   return copy;
 }
 
-describe.skipIf(!cisi)(`Vocabulary ${cisi ? '' : missingMessage('corpora/cisi')}`, () => {
+describe('Vocabulary', () => {
   it('answers idOf and termOf for every term after a reopen as the brute-force table does', () => {
     const terms = sortedTerms();
     const copy = reopen(new Vocabulary(terms));
@@ -62,7 +62,7 @@ describe.skipIf(!cisi)(`Vocabulary ${cisi ? '' : missingMessage('corpora/cisi')}
   it('finds every term of a vocabulary in first-seen (unsorted) order after a reopen', () => {
     const v = new Vocabulary();
     const firstSeen: string[] = [];
-    for (const d of cisi!.docs.slice(0, 200)) for (const t of tokenize(d.text)) if (v.idOf(t) === undefined) firstSeen.push(t) && v.add(t);
+    for (const d of cisi.docs.slice(0, 200)) for (const t of tokenize(d.text)) if (v.idOf(t) === undefined) firstSeen.push(t) && v.add(t);
     const copy = reopen(v);
     expect(copy.toBytes().sorted).toBeLessThan(firstSeen.length);
     expect(firstSeen.map((t) => copy.idOf(t))).toEqual(firstSeen.map((_, id) => id));
@@ -73,7 +73,7 @@ describe.skipIf(!cisi)(`Vocabulary ${cisi ? '' : missingMessage('corpora/cisi')}
     const terms = sortedTerms();
     const original = new Vocabulary(terms);
     const copy = reopen(original);
-    for (const d of cisi!.docs.slice(0, 50)) {
+    for (const d of cisi.docs.slice(0, 50)) {
       const tokens = tokenize(`${d.text} unheardofword`);
       // Brute force: tally known tokens by id, ids ascending.
       const tally = new Map<number, number>();

@@ -4,12 +4,13 @@
  * Folding-in (Deerwester et al. 1990; Berry, Dumais & O'Brien 1995, SIAM Review 37(4)) projects a
  * changed document with the frozen global weights and U_k, Σ_k. It is cheap, but new topics and
  * new words stay invisible and the folded vectors drift from what a fresh SVD would give. No
- * published rebuild threshold exists, so the triggers below are our own estimates, recorded in
- * ../shared/notes/methods.md §2 (last point) and §8.8 [E]:
+ * published rebuild threshold is known to us, so the triggers below are our own estimates [E]
+ * (the same kind of trade-off as folding-up, Tougas & Spiteri 2007, CSDA 52(1), which folds in
+ * at once and replaces folded vectors by a proper update from time to time):
  *   - share of files folded in, changed or removed since the last build > 15 %   [E]
  *   - share of folded tokens whose words the model has never seen (new-vocabulary mass) > 10 %  [E]
  *   - mean fold-in residual of folded files > 1.25 × the build-time mean        [E]
- * (The fourth trigger of §8.8, drift of VₖᵀVₖ from I, needs the full V and is not tracked here.)
+ * (A fourth signal, drift of VₖᵀVₖ from I, needs the full V and is not tracked here.)
  *
  * Two guards are common practice, not from a source: the two ratio triggers wait for a few folded
  * files (one file is too small a sample to judge a mean by), and a rebuild waits for the folder to
@@ -18,11 +19,11 @@
 import type { Staleness } from './staleness.js';
 
 export interface UpdatePolicy {
-  /** Rebuild when more than this share of files changed since the last build. [E] §8.8 @default 0.15 */
+  /** Rebuild when more than this share of files changed since the last build. [E] @default 0.15 */
   readonly maxChangedShare: number;
-  /** Rebuild when more than this share of folded tokens are words new to the model. [E] §8.8 @default 0.10 */
+  /** Rebuild when more than this share of folded tokens are words new to the model. [E] @default 0.10 */
   readonly maxNewTermMass: number;
-  /** Rebuild when folded files' mean residual exceeds this multiple of the build-time mean. [E] §8.8 @default 1.25 */
+  /** Rebuild when folded files' mean residual exceeds this multiple of the build-time mean. [E] @default 1.25 */
   readonly maxResidualRatio: number;
   /** The two ratio triggers count only once this many files were changed. Common practice. @default 5 */
   readonly minChangedForRatios: number;

@@ -3,13 +3,13 @@ import { describe, expect, it } from 'vitest';
 import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
 import { modelMatrix } from '../../../../src/core/index/model/conceptModel.js';
 import { modelFromFactors } from '../../../../src/core/index/model/importedFactors.js';
-import { loadCollection, missingMessage } from '../../../helpers/shared.js';
+import { loadCollection } from '../../../helpers/shared.js';
 
 // Reference: factors of the exported matrix A = Mᵀ (terms × files) from ml-matrix's dense SVD,
 // a general-purpose library, standing in for a solver run elsewhere.
 const adi = loadCollection('adi');
 
-describe.skipIf(!adi)(`modelFromFactors ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('modelFromFactors', () => {
   const builder = new IndexBuilder({ k: 12 });
   for (const d of adi?.docs ?? []) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
   const index = adi ? builder.build() : undefined;

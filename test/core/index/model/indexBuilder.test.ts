@@ -2,9 +2,9 @@ import { describe, expect, it, vi } from 'vitest';
 import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
 import { decodeIndex, encodeIndex } from '../../../../src/core/index/persistence/serialize.js';
 import { Vocabulary, type DocTerms } from '../../../../src/core/counting/termCounts.js';
-import { loadCollection, missingMessage } from '../../../helpers/shared.js';
+import { loadCollection } from '../../../helpers/shared.js';
 
-// Real text: ADI (../shared/corpora/adi, 82 abstracts on documentation and retrieval).
+// Real text: ADI (test/fixtures/corpora/adi, 82 abstracts on documentation and retrieval).
 const adi = loadCollection('adi');
 
 const doc = (ids: number[]): DocTerms => ({ termIds: Int32Array.from(ids), counts: Float32Array.from(ids, () => 1), length: ids.length });
@@ -22,10 +22,10 @@ function savedVocabulary(terms: string[]): Vocabulary {
   return Vocabulary.fromBytes({ bytes, starts, sorted: terms.length })!;
 }
 
-describe.skipIf(!adi)(`IndexBuilder ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('IndexBuilder', () => {
   it('rebuilds from a reopened index without decoding its terms, to the same vectors and ids as from strings', () => {
     const b = new IndexBuilder({ k: 10 });
-    adi!.docs.forEach((d) => b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text));
+    adi.docs.forEach((d) => b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text));
     const reopened = decodeIndex(encodeIndex(b.build()));
     const fromBytes = new IndexBuilder({ k: 10 }, reopened.vocab);
     const fromStrings = new IndexBuilder({ k: 10 }, new Vocabulary(reopened.vocab.terms));

@@ -5,14 +5,14 @@ import { checksum32 } from '../../../../src/core/index/persistence/checksum.js';
 import type { LsiIndex } from '../../../../src/core/index/lsiIndex.js';
 import { decodeIndex, encodeIndex, INDEX_FORMAT_VERSION, readIndexHeader } from '../../../../src/core/index/persistence/serialize.js';
 import { tokenize } from '../../../../src/core/text/tokenize.js';
-import { loadCollection, missingMessage } from '../../../helpers/shared.js';
+import { loadCollection } from '../../../helpers/shared.js';
 
-// Real text: the ADI collection (../shared/corpora/adi, 82 abstracts).
+// Real text: the ADI collection (test/fixtures/corpora/adi, 82 abstracts).
 const adi = loadCollection('adi');
 
 /** Every answer a caller can get, for comparing a reopened index with the saved one (bit for bit). */
 function answers(index: LsiIndex) {
-  const search = adi!.queries.map((q) => {
+  const search = adi.queries.map((q) => {
     try {
       return index.search(q.text, { top: 15 });
     } catch (err) {
@@ -43,11 +43,11 @@ function rewrite(bytes: Uint8Array, edit: (header: ReturnType<typeof readIndexHe
 
 function buildAdi() {
   const b = new IndexBuilder();
-  for (const d of adi!.docs) b.addText({ path: `adi/${d.id}.txt`, size: d.text.length, mtimeMs: 1000 + Number(d.id) }, d.text);
+  for (const d of adi.docs) b.addText({ path: `adi/${d.id}.txt`, size: d.text.length, mtimeMs: 1000 + Number(d.id) }, d.text);
   return b.build();
 }
 
-describe.skipIf(!adi)(`serialize ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('serialize', () => {
   it('round-trips an index: same paths, vectors, and search results', () => {
     const index = buildAdi();
     index.foldIn({ path: 'extra/new.md', size: 10, mtimeMs: 5 }, 'automatic indexing of library catalogues and documents');

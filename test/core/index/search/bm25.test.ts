@@ -4,9 +4,9 @@ import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
 import { decodeIndex, encodeIndex } from '../../../../src/core/index/persistence/serialize.js';
 import { countTerms, Vocabulary, type DocTerms } from '../../../../src/core/counting/termCounts.js';
 import { tokenize } from '../../../../src/core/text/tokenize.js';
-import { loadCollection, missingMessage } from '../../../helpers/shared.js';
+import { loadCollection } from '../../../helpers/shared.js';
 
-// Real text: CRAN (../shared/corpora/cran, 1400 aerodynamics abstracts and 225 queries).
+// Real text: CRAN (test/fixtures/corpora/cran, 1400 aerodynamics abstracts and 225 queries).
 const cran = loadCollection('cran');
 
 /**
@@ -71,7 +71,7 @@ const scoresOf = (scorer: Bm25Scorer, query: DocTerms, n: number): Float64Array 
 
 const sameBits = (a: Float64Array, b: Float64Array): boolean => a.length === b.length && Buffer.from(a.buffer).equals(Buffer.from(b.buffer));
 
-describe.skipIf(!cran)(`Bm25Scorer ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('Bm25Scorer', () => {
   const vocab = new Vocabulary();
   const texts = cran ? cran.docs.map((d) => d.text) : [];
   const all = texts.map((t) => countTerms(tokenize(t), vocab, true));
@@ -138,7 +138,7 @@ describe.skipIf(!cran)(`Bm25Scorer ${cran ? '' : missingMessage('corpora/cran')}
     texts.slice(0, 400).forEach((t, i) => builder.addText({ path: `cran/${i}.txt`, size: t.length, mtimeMs: 0 }, t));
     const index = builder.build();
     const copy = decodeIndex(encodeIndex(index));
-    const qs = cran!.queries.slice(0, 12).map((q) => q.text);
+    const qs = cran.queries.slice(0, 12).map((q) => q.text);
     const docsOf = (x: typeof index): (DocTerms | null)[] => x.slots().map((s) => s?.terms ?? null);
     const expectSame = (): void => {
       for (const text of qs) {

@@ -2,14 +2,14 @@ import { describe, expect, it } from 'vitest';
 import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
 import type { Staleness } from '../../../../src/core/index/lsiIndex.js';
 import { DEFAULT_UPDATE_POLICY, decideUpdate, describeReasons, rebuildDelay } from '../../../../src/core/index/update/updatePolicy.js';
-import { loadCollection, missingMessage } from '../../../helpers/shared.js';
+import { loadCollection } from '../../../helpers/shared.js';
 
 const fresh: Staleness = { changedFiles: 0, changedShare: 0, newTermMass: 0, residualRatio: 1 };
 
 describe('decideUpdate thresholds', () => {
-  // The three limits are the estimates written down in ../shared/notes/methods.md §8.8 [E]:
+  // The three limits are our own estimates [E], documented in src/core/index/update/updatePolicy.ts:
   // > 15 % of files changed, new-term mass > 10 %, residual > 1.25 × the build-time mean.
-  it('uses the limits recorded in the methods notes', () => {
+  it('uses the limits documented in its header', () => {
     expect(DEFAULT_UPDATE_POLICY.maxChangedShare).toBe(0.15);
     expect(DEFAULT_UPDATE_POLICY.maxNewTermMass).toBe(0.1);
     expect(DEFAULT_UPDATE_POLICY.maxResidualRatio).toBe(1.25);
@@ -45,22 +45,22 @@ describe('decideUpdate thresholds', () => {
   });
 });
 
-// Real text: ADI (../shared/corpora/adi, 82 abstracts on documentation and retrieval) as the
-// indexed folder, and CRAN (../shared/corpora/cran, aerodynamics abstracts) as new files on a
+// Real text: ADI (test/fixtures/corpora/adi, 82 abstracts on documentation and retrieval) as the
+// indexed folder, and CRAN (test/fixtures/corpora/cran, aerodynamics abstracts) as new files on a
 // topic the model has never seen.
 const adi = loadCollection('adi');
 const cran = loadCollection('cran');
 
-describe.skipIf(!adi || !cran)(`decideUpdate on a real index ${adi && cran ? '' : missingMessage('corpora/adi, corpora/cran')}`, () => {
+describe('decideUpdate on a real index', () => {
   const build = () => {
     const b = new IndexBuilder();
-    for (const d of adi!.docs) b.addText({ path: `adi/${d.id}`, size: d.text.length, mtimeMs: 0 }, d.text);
+    for (const d of adi.docs) b.addText({ path: `adi/${d.id}`, size: d.text.length, mtimeMs: 0 }, d.text);
     return b.build();
   };
 
   it('does not ask for a rebuild when files are saved unchanged', () => {
     const index = build();
-    for (const d of adi!.docs.slice(0, 10)) index.foldIn({ path: `adi/${d.id}`, size: d.text.length, mtimeMs: 1 }, d.text);
+    for (const d of adi.docs.slice(0, 10)) index.foldIn({ path: `adi/${d.id}`, size: d.text.length, mtimeMs: 1 }, d.text);
     const s = index.staleness();
     // 10 of 82 files folded: 12 % changed, no word is new.
     expect(s.changedShare).toBeCloseTo(10 / 82, 10);
@@ -70,7 +70,7 @@ describe.skipIf(!adi || !cran)(`decideUpdate on a real index ${adi && cran ? '' 
 
   it('asks for a rebuild when files on an unseen topic arrive', () => {
     const index = build();
-    for (const d of cran!.docs.slice(0, 8)) index.foldIn({ path: `cran/${d.id}`, size: d.text.length, mtimeMs: 1 }, d.text);
+    for (const d of cran.docs.slice(0, 8)) index.foldIn({ path: `cran/${d.id}`, size: d.text.length, mtimeMs: 1 }, d.text);
     const s = index.staleness();
     const d = decideUpdate(s);
     expect(d.action).toBe('rebuild');
