@@ -125,7 +125,7 @@ export interface HostFolder {
 }
 
 export function toWorkerConfig(s: ExtensionSettings, folders: readonly (HostFolder & { readonly key: string })[], indexFile: string): WorkerConfig {
-  const roots: WorkspaceRoot[] = folders.map((f) => ({ name: f.key, path: f.fsPath, exclude: enabledPatterns(f.filesExclude).flatMap(globToGitignore) }));
+  const roots: WorkspaceRoot[] = folders.map((f) => ({ name: f.key, fsPath: f.fsPath, exclude: enabledPatterns(f.filesExclude).flatMap(globToGitignore) }));
   const settings: Partial<IndexSettings> = { k: s.dimensions, weighting: s.weighting };
   return {
     roots,

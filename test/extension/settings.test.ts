@@ -70,7 +70,7 @@ describe('toWorkerConfig', () => {
       '/storage/index.undertone',
     );
     expect(config).toEqual({
-      roots: [{ name: 'app', path: '/w/app', exclude: ['**/.git'] }],
+      roots: [{ name: 'app', fsPath: '/w/app', exclude: ['**/.git'] }],
       indexFile: '/storage/index.undertone',
       settings: { k: 40, weighting: 'log-entropy' },
       include: [],

@@ -90,7 +90,7 @@ export class IndexService {
   configure(config: WorkerConfig): { modelChanged: boolean } {
     this._config = config;
     this._roots = new RootMap(config.roots);
-    this._admission = new Map(config.roots.map((r) => [r.name, new FileAdmission(r.path, { include: config.include, exclude: [...config.exclude, ...r.exclude], honourGitignore: config.honourGitignore })]));
+    this._admission = new Map(config.roots.map((r) => [r.name, new FileAdmission(r.fsPath, { include: config.include, exclude: [...config.exclude, ...r.exclude], honourGitignore: config.honourGitignore })]));
     const modelChanged = this._index !== undefined && modelSettingsKey(this._index.settings) !== modelSettingsKey(resolveSettings(config.settings));
     return { modelChanged };
   }

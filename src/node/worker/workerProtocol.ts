@@ -13,8 +13,8 @@ import { INSIGHT_REQUEST_TYPES, type InsightRequestMap, type Why } from './insig
 /** One workspace folder. Names are unique and become the path prefix when there are several. */
 export interface WorkspaceRoot {
   readonly name: string;
-  /** Absolute file-system path. */
-  readonly path: string;
+  /** Absolute file-system path of the folder. */
+  readonly fsPath: string;
   /** Extra exclude patterns for this folder only (gitignore syntax, e.g. from files.exclude). */
   readonly exclude: readonly string[];
 }
