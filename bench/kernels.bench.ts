@@ -3,18 +3,20 @@
  * revision (default: the last one with the hand-encoded bytecode kernels), side by side.
  *
  * scripts/bench-kernels.mjs takes the other revision's kernel files out of git, bundles them and
- * runs this file. Every measurement runs in its own child process (a fresh engine, as a user's
- * command meets it), the two sides alternating (old, new, then new, old, …) so that the load of
- * this shared machine falls on both alike. Each child times, on the same inputs:
+ * runs this file. Each round is a child process (a fresh engine) that instantiates both sides on
+ * the same memory and inputs and calls them alternately (old, new, new, old, …: the order flips
+ * every call and every round) so that the load of this shared machine falls on both alike. It
+ * times:
  *  - the randomized SVD (k = 100, src/core/svd/randomizedSvd.ts on a WasmExecutor) of the
  *    document-term matrix of the four public test collections in test/fixtures/corpora (CISI,
  *    CRAN, CACM, ADI: 6146 documents, stemmed words, log(1 + count) weights);
  *  - each kernel alone: spmm and spmm_f32 (that matrix times a 110-column block), cross (AᵀA of
  *    a 20000 × 110 block), times (that block times an upper-triangular 110 × 110 factor),
  *    dots (100000 f32 rows of 100) and code_dots (400000 rows of 100 8-bit codes),
- * reporting the median of `--reps` calls, and a hash of every output so that the two sides are
- * checked to give the same bits. The parent prints, per measurement, the median over `--rounds`
- * children of each side and the spread (min–max).
+ * after one warm-up call of each side (the engine's optimising tier), `--reps` calls of each side,
+ * with a hash of every output so that the two sides are checked to give the same bits. The parent
+ * prints, per measurement and side, the median of all calls of all `--rounds` rounds and their
+ * spread (min–max).
  */
 import { spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
@@ -37,8 +39,10 @@ interface Modules {
   codeDots: WebAssembly.Module;
 }
 interface ChildResult {
-  ms: Record<string, number>;
-  hash: Record<string, string>;
+  /** Milliseconds of every timed call, per measurement and side. */
+  ms: Record<string, Record<Side, number[]>>;
+  /** Hash of the last output, per measurement and side. */
+  hash: Record<string, Record<Side, string>>;
 }
 
 const REPO = resolve(process.argv[1], '..', '..', '..');
@@ -105,36 +109,38 @@ function median(xs: number[]): number {
   return s.length % 2 ? s[s.length >> 1] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
 }
 
-async function child(side: Side, reps: number): Promise<ChildResult> {
-  const mods = await modules(side);
+async function child(firstSide: Side, reps: number): Promise<ChildResult> {
+  const sides: Record<Side, Modules> = { old: await modules('old'), new: await modules('new') };
   const m = fixtureMatrix();
-  const ms: Record<string, number> = {};
-  const hash: Record<string, string> = {};
-  const time = (name: string, run: () => ArrayBufferView): void => {
-    const t: number[] = [];
-    let out: ArrayBufferView | undefined;
+  const ms: ChildResult['ms'] = {};
+  const hash: ChildResult['hash'] = {};
+  /** Times run(side) for both sides, alternately; the first call of each side warms up. */
+  const time = (name: string, run: (side: Side) => ArrayBufferView): void => {
+    ms[name] = { old: [], new: [] };
+    hash[name] = { old: '', new: '' };
     for (let r = 0; r <= reps; r++) {
-      const t0 = performance.now();
-      out = run();
-      if (r > 0) t.push(performance.now() - t0); // the first call warms up
+      const order: Side[] = (r % 2 === 0) === (firstSide === 'old') ? ['old', 'new'] : ['new', 'old'];
+      for (const side of order) {
+        const t0 = performance.now();
+        const out = run(side);
+        if (r > 0) ms[name][side].push(performance.now() - t0);
+        hash[name][side] = hashOf(out);
+      }
     }
-    ms[name] = median(t);
-    hash[name] = hashOf(out!);
   };
 
-  // The whole SVD as the index build runs it (one thread).
-  time('svd k=100', () => {
-    const ex = new WasmExecutor(mods.kernels, new WasmArena());
-    const r = randomizedSvd(m, { k: K, executor: ex });
+  // The whole SVD as the index build runs it (one thread), a fresh arena each time.
+  time('svd k=100', (side) => {
+    const r = randomizedSvd(m, { k: K, executor: new WasmExecutor(sides[side].kernels, new WasmArena()) });
     const all = new Float64Array(r.s.length + r.u.length);
     all.set(r.s);
     all.set(r.u, r.s.length);
     return all;
   });
 
-  // The kernels alone, on one arena (inputs in place, so no copies are timed).
+  // The kernels alone, both sides on one arena (inputs in place, so no copies are timed).
   const arena = new WasmArena();
-  const kernels = instantiateKernels(mods.kernels, arena.memory);
+  const kernels = { old: instantiateKernels(sides.old.kernels, arena.memory), new: instantiateKernels(sides.new.kernels, arena.memory) };
   const rnd = createRandom(11);
   const fill = <T extends Float64Array | Float32Array>(a: T): T => {
     for (let i = 0; i < a.length; i++) a[i] = rnd.normal();
@@ -150,22 +156,24 @@ async function child(side: Side, reps: number): Promise<ChildResult> {
   values32.set(m.values);
   const x = fill(arena.float64(m.cols * L));
   const y = arena.float64(m.rows * L);
-  time('spmm', () => (kernels.spmm(indptr.byteOffset, indices.byteOffset, values.byteOffset, x.byteOffset, L, y.byteOffset, 0, m.rows, 1), y));
-  time('spmm_f32', () => (kernels.spmm_f32(indptr.byteOffset, indices.byteOffset, values32.byteOffset, x.byteOffset, L, y.byteOffset, 0, m.rows, 1), y));
+  time('spmm', (s) => (kernels[s].spmm(indptr.byteOffset, indices.byteOffset, values.byteOffset, x.byteOffset, L, y.byteOffset, 0, m.rows, 1), y));
+  time('spmm_f32', (s) => (kernels[s].spmm_f32(indptr.byteOffset, indices.byteOffset, values32.byteOffset, x.byteOffset, L, y.byteOffset, 0, m.rows, 1), y));
   const rows = 20000;
   const a = fill(arena.float64(rows * L));
   const g = arena.float64(L * L);
-  time('cross', () => (kernels.cross(a.byteOffset, a.byteOffset, L, 0, rows, g.byteOffset, 1), g));
+  time('cross', (s) => (kernels[s].cross(a.byteOffset, a.byteOffset, L, 0, rows, g.byteOffset, 1), g));
   const w = fill(arena.float64(L * L));
   for (let i = 0; i < L; i++) for (let j = 0; j < i; j++) w[i * L + j] = 0;
   const out = arena.float64(rows * L);
-  time('times', () => (kernels.times(a.byteOffset, L, w.byteOffset, L, 1, out.byteOffset, 0, rows), out));
+  time('times', (s) => (kernels[s].times(a.byteOffset, L, w.byteOffset, L, 1, out.byteOffset, 0, rows), out));
 
-  // Search-time kernels, each on its own memory as conceptRows.ts / conceptCodes.ts use them.
+  // Search-time kernels, on a memory of their own as conceptRows.ts / conceptCodes.ts use them.
   const n = 100000, codesN = 400000;
   const memory = new WebAssembly.Memory({ initial: Math.ceil((n * K * 4 + codesN * K + codesN * 8 + 4096) / 65536), maximum: 4096, shared: true });
-  const dots = new WebAssembly.Instance(mods.dots, { env: { memory } }).exports as unknown as { dots(...a: number[]): void };
-  const codeDots = new WebAssembly.Instance(mods.codeDots, { env: { memory } }).exports as unknown as { code_dots(...a: number[]): void };
+  type Search = { dots(...a: number[]): void; code_dots(...a: number[]): void };
+  const inst = (mod: WebAssembly.Module): Search => new WebAssembly.Instance(mod, { env: { memory } }).exports as unknown as Search;
+  const dots = { old: inst(sides.old.dots), new: inst(sides.new.dots) };
+  const codeDots = { old: inst(sides.old.codeDots), new: inst(sides.new.codeDots) };
   const q = fill(new Float64Array(memory.buffer, 0, K));
   const q32 = new Float32Array(memory.buffer, 1024, K);
   q32.set(q);
@@ -173,39 +181,36 @@ async function child(side: Side, reps: number): Promise<ChildResult> {
   const rowsF32 = fill(new Float32Array(memory.buffer, 2048 + codesN * 8, n * K));
   const codes = new Int8Array(memory.buffer, 2048 + codesN * 8 + n * K * 4, codesN * K);
   for (let i = 0; i < codes.length; i++) codes[i] = (rnd.nextUint32() % 255) - 127;
-  time('dots', () => (dots.dots(rowsF32.byteOffset, q.byteOffset, K, 0, n, scores.byteOffset), scores.subarray(0, n)));
-  time('code_dots', () => (codeDots.code_dots(codes.byteOffset, q32.byteOffset, K, 0, codesN, scores.byteOffset), scores));
+  time('dots', (s) => (dots[s].dots(rowsF32.byteOffset, q.byteOffset, K, 0, n, scores.byteOffset), scores.subarray(0, n)));
+  time('code_dots', (s) => (codeDots[s].code_dots(codes.byteOffset, q32.byteOffset, K, 0, codesN, scores.byteOffset), scores));
   return { ms, hash };
 }
 
 function parent(): void {
-  const rounds = Number(flag('rounds', '7'));
-  const reps = flag('reps', '5');
-  console.log(`WebAssembly kernels, old (${flag('legacy-rev', '?')}) vs new (this tree): ${rounds} rounds, each side in its own process per round, alternating`);
+  const rounds = Number(flag('rounds', '5'));
+  const reps = flag('reps', '6');
+  console.log(`WebAssembly kernels, old (${flag('legacy-rev', '?')}) vs new (this tree): ${rounds} rounds (processes) × ${reps} calls of each side, alternating`);
   console.log(`${loadavg()[0].toFixed(2)} load average (1 min) at the start; node ${process.version}`);
-  const results: Record<Side, ChildResult[]> = { old: [], new: [] };
+  const results: ChildResult[] = [];
   for (let r = 0; r < rounds; r++) {
-    const order: Side[] = r % 2 === 0 ? ['old', 'new'] : ['new', 'old'];
-    for (const side of order) {
-      const run = spawnSync(process.execPath, [process.argv[1], '--child', side, '--reps', reps, '--legacy', flag('legacy', '')], { encoding: 'utf8', maxBuffer: 1 << 26 });
-      if (run.status !== 0) throw new Error(`the ${side} child failed:\n${run.stderr}`);
-      results[side].push(JSON.parse(run.stdout.trim().split('\n').pop()!) as ChildResult);
-    }
+    const first: Side = r % 2 === 0 ? 'old' : 'new';
+    const run = spawnSync(process.execPath, [process.argv[1], '--child', first, '--reps', reps, '--legacy', flag('legacy', '')], { encoding: 'utf8', maxBuffer: 1 << 26 });
+    if (run.status !== 0) throw new Error(`round ${r + 1} failed:\n${run.stderr}`);
+    results.push(JSON.parse(run.stdout.trim().split('\n').pop()!) as ChildResult);
     process.stderr.write(`round ${r + 1}/${rounds} done\n`);
   }
-  const names = Object.keys(results.old[0].ms);
   const fmt = (v: number): string => (v >= 100 ? v.toFixed(0) : v.toFixed(1));
-  const spread = (xs: number[]): string => `${fmt(Math.min(...xs))}–${fmt(Math.max(...xs))}`;
+  const cell = (xs: number[]): string => `${fmt(median(xs))} (${fmt(Math.min(...xs))}–${fmt(Math.max(...xs))})`;
   console.log('');
-  console.log('| measurement | old median ms (min–max) | new median ms (min–max) | new / old | same bits |');
+  console.log('| measurement | old: median ms (min–max) | new: median ms (min–max) | new / old (medians) | same bits |');
   console.log('|---|---|---|---|---|');
   let allSame = true;
-  for (const name of names) {
-    const o = results.old.map((c) => c.ms[name]);
-    const nw = results.new.map((c) => c.ms[name]);
-    const hashes = new Set([...results.old, ...results.new].map((c) => c.hash[name]));
+  for (const name of Object.keys(results[0].ms)) {
+    const o = results.flatMap((c) => c.ms[name].old);
+    const nw = results.flatMap((c) => c.ms[name].new);
+    const hashes = new Set(results.flatMap((c) => [c.hash[name].old, c.hash[name].new]));
     allSame &&= hashes.size === 1;
-    console.log(`| ${name} | ${fmt(median(o))} (${spread(o)}) | ${fmt(median(nw))} (${spread(nw)}) | ${(median(nw) / median(o)).toFixed(2)} | ${hashes.size === 1 ? 'yes' : 'NO'} |`);
+    console.log(`| ${name} | ${cell(o)} | ${cell(nw)} | ${(median(nw) / median(o)).toFixed(2)} | ${hashes.size === 1 ? 'yes' : 'NO'} |`);
   }
   console.log(`\n${loadavg()[0].toFixed(2)} load average (1 min) at the end`);
   if (!allSame) {
@@ -215,8 +220,7 @@ function parent(): void {
 }
 
 if (process.argv.includes('--child')) {
-  const side = flag('child', 'new') as Side;
-  void child(side, Number(flag('reps', '5'))).then((r) => console.log(JSON.stringify(r)));
+  void child(flag('child', 'old') as Side, Number(flag('reps', '6'))).then((r) => console.log(JSON.stringify(r)));
 } else {
   parent();
 }

@@ -1,6 +1,6 @@
 // `npm run bench:kernels`: bundles bench/kernels.bench.ts and the kernels of another revision
 // (taken out of git; default: the last revision with the hand-encoded bytecode kernels), then runs
-// the two side by side. Options: --legacy-rev REV, --rounds N (default 7), --reps N (default 5).
+// the two side by side. Options: --legacy-rev REV, --rounds N (default 5), --reps N (default 6).
 import { build } from 'esbuild';
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
