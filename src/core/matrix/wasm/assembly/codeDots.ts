@@ -1,7 +1,7 @@
 /**
  * Dot products of signed 8-bit code rows with one f32 vector, summed in f32: out[j] = codes[j] · q
  * for j in [r0, r1), stored promoted to f64. Used to screen rows cheaply (a quarter of the bytes
- * of f32 rows) before exact products (../../../index/conceptCodes.ts); the caller bounds the f32
+ * of f32 rows) before exact products (../../../index/search/conceptCodes.ts); the caller bounds the f32
  * rounding (Higham 2002, "Accuracy and Stability of Numerical Algorithms", §3.1:
  * |error| ≤ γ_n Σ|x_i y_i| with n = k additions in the longest chain).
  *

@@ -1,6 +1,6 @@
 /**
  * Dot products of f32 rows with one f64 vector: out[j] = rows[j] · q for j in [r0, r1), the scores
- * of the concept-space search (../../../index/conceptRows.ts holds the plain-loop twin).
+ * of the concept-space search (../../../index/search/conceptRows.ts holds the plain-loop twin).
  *
  * Arguments (byte offsets into the one shared memory):
  *   rows  f32[n × k]  row-major, k numbers a row

@@ -1,7 +1,7 @@
 /**
  * Entry of the kernel module: one WebAssembly module with SIMD, importing one shared memory
  * ("env" "memory", 1 to 65536 pages), with no runtime and no data segments, so every byte of that
- * memory belongs to the caller (../wasmArena.ts, ../../../index/conceptRows.ts, conceptCodes.ts).
+ * memory belongs to the caller (../wasmArena.ts, ../../../index/search/conceptRows.ts, conceptCodes.ts).
  * All arguments are i32: byte offsets into the memory, counts, and 0/1 flags.
  * Built by scripts/build-kernels.mjs (npm run build:kernels) into ../kernelsWasm.ts.
  */
