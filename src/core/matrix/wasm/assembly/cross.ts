@@ -10,6 +10,8 @@
  * Full 4 × 4 tiles of G are held in eight f64x2 registers (row p + k of the tile in acc[2k] and
  * acc[2k + 1]); tiles cut by the edge of G (when l is not a multiple of 4) are summed one entry
  * at a time.
+ * Use: the Gram matrix YᵀY of CholeskyQR (Fukaya, Nakatsukasa, Yanagisawa & Yamamoto 2014;
+ * ../../choleskyQr.ts) and ZᵀZ of the Rayleigh–Ritz step (Halko et al. 2011, Algorithm 5.1).
  */
 
 /** One 4 × 4 tile of G at (p, q): rows o = r0·l … r1·l of A and B, step l (byte offsets). */

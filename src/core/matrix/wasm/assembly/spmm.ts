@@ -11,6 +11,8 @@
  *   grouped  1: four stored entries per step, y += ((v0·x0 + v1·x1) + v2·x2) + v3·x3, then the
  *            rest one by one; 0: one entry at a time, y += v·x (the order of a plain loop)
  * Each row of Y is updated two columns at a time (f64x2), then an odd last column alone.
+ * Use: the products Y = AΩ, Z = AᵀQ, Y = AZ of the randomized SVD (Halko, Martinsson & Tropp
+ * 2011, SIAM Review 53(2), Algorithm 4.4; ../../../svd/randomizedSvd.ts).
  */
 
 /** Stored entry p of the values array, as f64 (f32 values are promoted, which is exact). */

@@ -15,6 +15,8 @@
  * Rows go four at a time; per four rows the columns past the last multiple of 4 are done one by
  * one, then 4-column tiles from the top down, each held in eight f64x2 registers (row k of the
  * tile in acc[2k], acc[2k + 1]). Rows past the last multiple of 4 are done one entry at a time.
+ * Use: Q = Y R⁻¹ of CholeskyQR (Fukaya et al. 2014; ../../choleskyQr.ts, in place with the upper
+ * triangular R⁻¹) and the small-side vectors QW of the Rayleigh–Ritz step.
  */
 
 /** The number of rows of W column b (or of a tile ending before column bEnd) that can be nonzero. */
