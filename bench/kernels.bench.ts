@@ -89,11 +89,20 @@ function fixtureMatrix(): CsrMatrix {
         if (id === undefined) vocab.set(t, (id = vocab.size));
         counts.set(id, (counts.get(id) ?? 0) + 1);
       }
-      for (const [id, n] of [...counts].sort((a, b) => a[0] - b[0])) (indices.push(id), values.push(Math.log1p(n)));
+      for (const [id, n] of [...counts].sort((a, b) => a[0] - b[0])) {
+        indices.push(id);
+        values.push(Math.log1p(n));
+      }
       indptr.push(indices.length);
     }
   }
-  return { rows: indptr.length - 1, cols: vocab.size, indptr: Int32Array.from(indptr), indices: Int32Array.from(indices), values: Float64Array.from(values) };
+  return {
+    rows: indptr.length - 1,
+    cols: vocab.size,
+    indptr: Int32Array.from(indptr),
+    indices: Int32Array.from(indices),
+    values: Float64Array.from(values),
+  };
 }
 
 /** FNV-1a over the bytes of an array: equal hashes for equal bits (as a check, not a proof). */
@@ -156,8 +165,17 @@ async function child(firstSide: Side, reps: number): Promise<ChildResult> {
   values32.set(m.values);
   const x = fill(arena.float64(m.cols * L));
   const y = arena.float64(m.rows * L);
-  time('spmm', (s) => (kernels[s].spmm(indptr.byteOffset, indices.byteOffset, values.byteOffset, x.byteOffset, L, y.byteOffset, 0, m.rows, 1), y));
-  time('spmm_f32', (s) => (kernels[s].spmm_f32(indptr.byteOffset, indices.byteOffset, values32.byteOffset, x.byteOffset, L, y.byteOffset, 0, m.rows, 1), y));
+  time(
+    'spmm',
+    (s) => (kernels[s].spmm(indptr.byteOffset, indices.byteOffset, values.byteOffset, x.byteOffset, L, y.byteOffset, 0, m.rows, 1), y),
+  );
+  time(
+    'spmm_f32',
+    (s) => (
+      kernels[s].spmm_f32(indptr.byteOffset, indices.byteOffset, values32.byteOffset, x.byteOffset, L, y.byteOffset, 0, m.rows, 1),
+      y
+    ),
+  );
   const rows = 20000;
   const a = fill(arena.float64(rows * L));
   const g = arena.float64(L * L);
@@ -168,8 +186,13 @@ async function child(firstSide: Side, reps: number): Promise<ChildResult> {
   time('times', (s) => (kernels[s].times(a.byteOffset, L, w.byteOffset, L, 1, out.byteOffset, 0, rows), out));
 
   // Search-time kernels, on a memory of their own as conceptRows.ts / conceptCodes.ts use them.
-  const n = 100000, codesN = 400000;
-  const memory = new WebAssembly.Memory({ initial: Math.ceil((n * K * 4 + codesN * K + codesN * 8 + 4096) / 65536), maximum: 4096, shared: true });
+  const n = 100000,
+    codesN = 400000;
+  const memory = new WebAssembly.Memory({
+    initial: Math.ceil((n * K * 4 + codesN * K + codesN * 8 + 4096) / 65536),
+    maximum: 4096,
+    shared: true,
+  });
   type Search = { dots(...a: number[]): void; code_dots(...a: number[]): void };
   const inst = (mod: WebAssembly.Module): Search => new WebAssembly.Instance(mod, { env: { memory } }).exports as unknown as Search;
   const dots = { old: inst(sides.old.dots), new: inst(sides.new.dots) };
@@ -189,12 +212,17 @@ async function child(firstSide: Side, reps: number): Promise<ChildResult> {
 function parent(): void {
   const rounds = Number(flag('rounds', '5'));
   const reps = flag('reps', '6');
-  console.log(`WebAssembly kernels, old (${flag('legacy-rev', '?')}) vs new (this tree): ${rounds} rounds (processes) × ${reps} calls of each side, alternating`);
+  console.log(
+    `WebAssembly kernels, old (${flag('legacy-rev', '?')}) vs new (this tree): ${rounds} rounds (processes) × ${reps} calls of each side, alternating`,
+  );
   console.log(`${loadavg()[0].toFixed(2)} load average (1 min) at the start; node ${process.version}`);
   const results: ChildResult[] = [];
   for (let r = 0; r < rounds; r++) {
     const first: Side = r % 2 === 0 ? 'old' : 'new';
-    const run = spawnSync(process.execPath, [process.argv[1], '--child', first, '--reps', reps, '--legacy', flag('legacy', '')], { encoding: 'utf8', maxBuffer: 1 << 26 });
+    const run = spawnSync(process.execPath, [process.argv[1], '--child', first, '--reps', reps, '--legacy', flag('legacy', '')], {
+      encoding: 'utf8',
+      maxBuffer: 1 << 26,
+    });
     if (run.status !== 0) throw new Error(`round ${r + 1} failed:\n${run.stderr}`);
     results.push(JSON.parse(run.stdout.trim().split('\n').pop()!) as ChildResult);
     process.stderr.write(`round ${r + 1}/${rounds} done\n`);

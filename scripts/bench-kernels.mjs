@@ -32,5 +32,16 @@ const common = { bundle: true, platform: 'node', target: 'node20', format: 'esm'
 await build({ ...common, entryPoints: [join(legacyDir, 'entry.ts')], outfile: join(root, 'out', 'bench', 'legacy-kernels.mjs') });
 await build({ ...common, entryPoints: ['bench/kernels.bench.ts'], outfile: join(root, 'out', 'bench', 'kernels.mjs') });
 const passOn = ['rounds', 'reps'].flatMap((n) => (arg(n) ? [`--${n}`, arg(n)] : []));
-const r = spawnSync(process.execPath, [join(root, 'out', 'bench', 'kernels.mjs'), '--legacy', join(root, 'out', 'bench', 'legacy-kernels.mjs'), '--legacy-rev', rev.slice(0, 7), ...passOn], { stdio: 'inherit' });
+const r = spawnSync(
+  process.execPath,
+  [
+    join(root, 'out', 'bench', 'kernels.mjs'),
+    '--legacy',
+    join(root, 'out', 'bench', 'legacy-kernels.mjs'),
+    '--legacy-rev',
+    rev.slice(0, 7),
+    ...passOn,
+  ],
+  { stdio: 'inherit' },
+);
 process.exit(r.status ?? 1);

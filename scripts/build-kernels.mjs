@@ -13,17 +13,18 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 export const KERNEL_ENTRY = 'src/core/matrix/wasm/assembly/index.ts';
 export const KERNEL_MODULE = 'src/core/matrix/wasm/kernelsWasm.ts';
 
-/** Compiler flags: each says what the loaders (kernelModule.ts) rely on. */
-export const ASC_FLAGS = [
-  '-O3', // speed: binaryen's full optimisation (it never reassociates floating-point arithmetic)
-  '--noAssert', // no assertion traps
-  '--runtime', 'stub', // no garbage collector; the kernels allocate nothing
-  '--use', 'abort=', // no "env"."abort" import
-  '--importMemory', '--noExportMemory', // the caller's memory, imported as "env"."memory"
-  '--sharedMemory', '--initialMemory', '1', '--maximumMemory', '65536', // shared, up to 4 GiB
-  '--enable', 'simd', // 128-bit SIMD (v128, f64x2, f32x4)
-  '--enable', 'threads', // needed for a shared memory
+/** Compiler flags, each with what the loaders (kernelModule.ts) rely on it for. */
+const FLAGS = [
+  [['-O3'], "speed: binaryen's full optimisation (it never reassociates floating-point arithmetic)"],
+  [['--noAssert'], 'no assertion traps'],
+  [['--runtime', 'stub'], 'no garbage collector: the kernels allocate nothing'],
+  [['--use', 'abort='], 'no "env"."abort" import'],
+  [['--importMemory', '--noExportMemory'], 'the caller\'s memory, imported as "env"."memory"'],
+  [['--sharedMemory', '--initialMemory', '1', '--maximumMemory', '65536'], 'shared, 1 to 65536 pages (4 GiB)'],
+  [['--enable', 'simd'], '128-bit SIMD (v128, f64x2, f32x4)'],
+  [['--enable', 'threads'], 'needed for a shared memory'],
 ];
+export const ASC_FLAGS = FLAGS.flatMap(([flags]) => flags);
 
 /** The version of the compiler that is installed (the devDependency is pinned exactly). */
 export function compilerVersion() {

@@ -9,9 +9,11 @@ describe('kernelModule', () => {
     const module = kernelModule();
     expect(module).not.toBeNull();
     expect(WebAssembly.Module.imports(module!)).toEqual([{ module: 'env', name: 'memory', kind: 'memory' }]);
-    expect(WebAssembly.Module.exports(module!).map((e) => `${e.kind} ${e.name}`).sort()).toEqual(
-      ['code_dots', 'cross', 'dots', 'spmm', 'spmm_f32', 'times'].map((n) => `function ${n}`),
-    );
+    expect(
+      WebAssembly.Module.exports(module!)
+        .map((e) => `${e.kind} ${e.name}`)
+        .sort(),
+    ).toEqual(['code_dots', 'cross', 'dots', 'spmm', 'spmm_f32', 'times'].map((n) => `function ${n}`));
   });
 
   it('instantiates on a shared memory of any size up to MAX_PAGES and leaves the memory untouched', () => {
