@@ -18,3 +18,4 @@ export { shingleSet, shingleTokens, jaccardSorted, intersectionSize, type Shingl
 export { createMinHasher, estimateJaccard, type MinHasher } from './minhash.js';
 export { bandCandidates, candidateProbability, type BandingParams, type CandidatePairs } from './banding.js';
 export { lineCounts, sharedLineCount } from './sharedLines.js';
+export { describeShared, sharedAmount, MIN_LINES, type SharedAmount, type SharedCounts } from './sharedUnits.js';
