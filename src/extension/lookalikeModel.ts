@@ -10,7 +10,7 @@
 import { BAND_TITLES } from '../core/lookalike/types.js';
 import { describeShared } from '../core/lookalike/sharedUnits.js';
 import type { LookalikeGroupWire, LookalikeKind, LookalikePairWire, LookalikesResult } from '../node/worker/insightProtocol.js';
-import type { FileRef } from '../node/worker/protocol.js';
+import type { FileRef } from '../node/worker/workerProtocol.js';
 import type { SettingGetter } from './settings.js';
 
 export interface LookalikeSettings {

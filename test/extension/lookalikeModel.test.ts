@@ -4,7 +4,7 @@ import {
   DEFAULT_LOOKALIKE_SETTINGS, lookalikeSummary, lookalikeTree, pairKey, readLookalikeSettings, SECTION_PAGE, shortNames, type PairNode,
 } from '../../src/extension/lookalikeModel.js';
 import type { LookalikeGroupWire, LookalikesResult } from '../../src/node/worker/insightProtocol.js';
-import type { FileRef } from '../../src/node/worker/protocol.js';
+import type { FileRef } from '../../src/node/worker/workerProtocol.js';
 
 const ref = (key: string): FileRef => ({ key, fsPath: `/w/ferry/${key}`, folder: 'ferry', relPath: key });
 const pair = (a: string, b: string, similarity: number, sharedLines = 10, lines: [number, number] = [12, 12], sharedWords = 80, words: [number, number] = [96, 96]) => ({

@@ -1,6 +1,7 @@
 /**
  * Overlaps between files in four bands: exact copies, near-copies, partial copies and "same
- * content, other words" (Broder 1997 shingles and MinHash; Salton & Buckley 1988 TF-IDF).
+ * content, other words" (shingles and MinHash after Broder 1997; LSH banding after Leskovec,
+ * Rajaraman & Ullman, Mining of Massive Datasets, ch. 3; TF-IDF after Salton & Buckley 1988).
  *
  * 1. Exact copies: files grouped by content hash of the normalised text (contentHash.ts). Blank
  *    files are only counted. One representative per distinct text goes on, so a thousand
