@@ -26,7 +26,8 @@ usage:
   undertone nearby <folder> <file>          the files nearest in meaning to one file
   undertone eval   <folder> --queries q.jsonl --qrels qrels.tsv   MAP, P@10, nDCG@10
   undertone topics <folder>                 topics, each named by its words and example files
-  undertone lookalikes <folder>             exact copies, near-copies and same-content pairs
+  undertone lookalikes <folder>             overlaps: exact copies, near-copies, partial copies,
+                                            same content in other words (--top N per band, default 20)
   undertone export <folder> --format mtx --out DIR   weighted term-document matrix (Matrix Market),
                                             terms.txt and files.txt, for an SVD elsewhere
   undertone import-factors <folder> --u U.mtx --s S.txt --v V.mtx   load factors computed elsewhere

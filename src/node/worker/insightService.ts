@@ -65,18 +65,18 @@ export class InsightService {
 
   handlers(): Pick<Handlers, InsightRequestType> {
     return {
-      lookalikes: async (p) => this.lookalikes(p.threshold, p.paraphraseThreshold),
+      lookalikes: async (p) => this.lookalikes(p.threshold),
       topics: async () => (await this.topicsRun()).result,
       mapData: async () => this.mapData(),
       mapQuery: async ({ token, text }) => this.mapQuery(token, text),
     };
   }
 
-  lookalikes(threshold: number, paraphraseThreshold: number): Promise<LookalikesResult> {
+  lookalikes(threshold: number): Promise<LookalikesResult> {
     const index = this._source.requireIndex();
     const roots = this._source.roots();
-    const key = `${indexStateKey(index, roots)}:${threshold}:${paraphraseThreshold}`;
-    return this._lookalikes.get(key, () => computeLookalikes(index, roots, { threshold, paraphraseThreshold, maxFileBytes: this._source.maxFileBytes() }));
+    const key = `${indexStateKey(index, roots)}:${threshold}`;
+    return this._lookalikes.get(key, () => computeLookalikes(index, roots, { threshold, maxFileBytes: this._source.maxFileBytes() }));
   }
 
   topicsRun(): Promise<TopicsTaskResult> {
