@@ -14,6 +14,9 @@ import { tokenize } from '../core/text/tokenize.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
 import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
+import { resolve } from 'node:path';
+import { sharedModelKey } from '../core/model/adoptModel.js';
+import { readConceptFile } from './conceptModelFile.js';
 import { loadIndex, saveIndex } from './persist.js';
 import { readIndexableText, scanFolder, type ScanOptions } from './scan.js';
 
@@ -42,6 +45,11 @@ export interface FolderIndexOptions {
    * bundled worker script the work stays on this thread. @default {} (all available cores)
    */
   parallel?: PoolOptions | false;
+  /**
+   * A shared concept model file to fold the files into instead of a local SVD (a path), null for
+   * a local SVD, undefined to keep what the saved index used.
+   */
+  sharedModel?: string | null;
 }
 
 export interface FolderIndexReport {
@@ -99,7 +107,7 @@ async function indexWithPool(
     mark = now;
   };
   const progress = options.onProgress ?? (() => undefined);
-  const settings = resolveSettings(options.settings);
+  let settings = resolveSettings(options.settings);
   const check = (): void => {
     if (options.signal?.aborted) throw new CancelledError();
   };
@@ -108,6 +116,9 @@ async function indexWithPool(
   const loaded = options.force ? { status: 'missing' as const } : await loadIndex(options.indexFile);
   const previous = loaded.status === 'ok' ? loaded.index : undefined;
   const savedIndexProblem = loaded.status === 'damaged' ? loaded.reason : undefined;
+  const sharedPath = options.sharedModel === undefined ? previous?.settings.sharedModel?.path : (options.sharedModel ?? undefined);
+  const sharedModel = sharedPath ? await readConceptFile(sharedPath) : undefined;
+  if (sharedModel && sharedPath) settings = { ...settings, sharedModel: { path: resolve(sharedPath), key: sharedModelKey(sharedModel) } };
   lap('load');
   check();
 
@@ -192,6 +203,7 @@ async function indexWithPool(
   const index = builder.build({
     signal: options.signal,
     executor: buildPool?.executor(),
+    sharedModel,
     onProgress: (stage, done, total) => {
       if (stage === 'weighting' && done === 1) lap('matrix');
       progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total });
