@@ -184,6 +184,10 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
     u, s, vt = dask.compute(u, s, vt)
     timings["svd"] = time.perf_counter() - t3
     term_vectors, file_vectors = _flip_signs(vt.T, u)
+    # Covered files as the index holds them: rows of V·Sigma scaled to unit length.
+    file_vectors = file_vectors * s
+    norms = np.linalg.norm(file_vectors, axis=1, keepdims=True)
+    file_vectors = file_vectors / np.where(norms > 0, norms, 1.0)
     note(f"rank-{kk} SVD ({power_iterations} power iterations, oversampling {p}) in {timings['svd']:.1f} s; "
          f"sigma_1 = {s[0]:.4f}, sigma_k = {s[-1]:.4f}")
     return {

@@ -30,6 +30,7 @@ usage:
   undertone lookalikes <folder>             exact copies, near-copies and same-content pairs
   undertone export <folder> --format mtx --out DIR   weighted term-document matrix (Matrix Market),
                                             terms.txt and files.txt, for an SVD elsewhere
+                                            (--format model --out FILE: the concept model, to share)
   undertone import-factors <folder> --u U.mtx --s S.txt --v V.mtx   load factors computed elsewhere
   undertone count  <folder> --files LIST --out SHARD   term counts of some files (one shard of a
                                             cluster job; --list prints the files the index reads)

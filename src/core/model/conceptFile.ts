@@ -20,7 +20,8 @@
  * Sections: terms (u8: the m terms in UTF-8, '\0' after each, strictly ascending in code-unit
  * order), weights (f64 × m: the weighting's global factor of each term), singularValues (f64 × k,
  * descending), termVectors (f32 × m·k: U, row-major), and optionally files (u8: paths, '\0' after
- * each) and fileVectors (f32 × files·k: V, row-major).
+ * each) and fileVectors (f32 × files·k, row-major: each covered file's unit concept vector, the
+ * row of VΣ scaled to length 1, as the index holds its files' vectors with conceptScaling 1).
  * Decoding refuses, with CorruptModelError, any file whose CRC, magic, version, header, section
  * bounds or contents (finite numbers, term order, lengths) do not check out: a file damaged in any
  * byte is never used.
@@ -60,7 +61,7 @@ export interface PortableModel {
   readonly termVectors: Float32Array;
   /** Files with a row in fileVectors (empty when the model carries none). */
   readonly files: readonly string[];
-  /** V: files × k, row-major. */
+  /** Unit rows of VΣ: files × k, row-major. */
   readonly fileVectors: Float32Array;
   /** CRC-32 of the file: its identity (a different file means a different model). */
   readonly checksum: number;
