@@ -99,7 +99,7 @@ def main(argv=None):
         with open(a.report, "w", encoding="utf-8") as f:
             json.dump({"files": len(r["files"]), "skipped": len(r["skipped"]), "terms": len(r["terms"]), "k": r["k"],
                        "nonZeros": r["nonZeros"], "workers": workers, "seconds": {**r["timings"], "total": total},
-                       "singularValues": [float(x) for x in r["singular_values"]], "killedWorker": r["killed_worker"], "countAttempts": r["count_attempts"], "shares": r["shares"],
+                       "singularValues": [float(x) for x in r["singular_values"]], "killedWorker": r["killed_worker"], "svdBytesSent": r["svd_bytes_sent"], "workerPeakRss": r["worker_peak_rss"], "oversampling": r["oversampling"], "nonZerosWeighted": r["nonZeros"], "countAttempts": r["count_attempts"], "shares": r["shares"],
                        "modelBytes": size}, f)
     return 0
 

@@ -177,12 +177,15 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
 
     # 5. Randomized SVD.
     t3 = time.perf_counter()
+    sent_before = sum(client.run(_bytes_sent).values())
     kk = weighting.choose_k(k, n, m)
     p = weighting.default_oversampling(kk)
     u, s, vt = svd_compressed(x, kk, iterator="QR", n_power_iter=power_iterations, n_oversamples=p,
                               seed=seed, compute=False, coerce_signs=False)
     u, s, vt = dask.compute(u, s, vt)
     timings["svd"] = time.perf_counter() - t3
+    svd_bytes = sum(client.run(_bytes_sent).values()) - sent_before
+    peak_rss = client.run(_peak_rss)
     term_vectors, file_vectors = _flip_signs(vt.T, u)
     # Covered files as the index holds them: rows of V·Sigma scaled to unit length.
     file_vectors = file_vectors * s
@@ -196,8 +199,20 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
         "file_vectors": file_vectors if with_file_vectors else None, "nonZeros": int(nnz),
         "relaxed": relaxed, "blocks": blocks, "rows": rows, "timings": timings,
         "frobeniusSquared": float(sum(client.gather([client.submit(lambda b: float(b.multiply(b).sum()), b, pure=False) for b in blocks]))),
-        "killed_worker": killed, "count_attempts": attempts, "shares": len(shares),
+        "killed_worker": killed, "svd_bytes_sent": int(svd_bytes), "worker_peak_rss": [int(v) for v in peak_rss.values()], "count_attempts": attempts, "shares": len(shares),
     }
+
+
+def _bytes_sent(dask_worker):
+    """Bytes this worker has sent to other workers and the client so far."""
+    return dask_worker.transfer_outgoing_bytes_total
+
+
+def _peak_rss():
+    """Peak resident memory of this worker process, bytes (Linux reports KiB)."""
+    import resource
+
+    return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss * 1024
 
 
 def _kill_one_worker(client, futures):
