@@ -7,7 +7,7 @@ import { randomBytes } from 'node:crypto';
 import { readFile, rename, rm, writeFile } from 'node:fs/promises';
 import { resolve } from 'node:path';
 import { InvalidInputError } from '../core/errors.js';
-import { CorruptModelError, decodeConceptFile, encodeConceptFile, type PortableModel } from '../core/model/conceptFile.js';
+import { CorruptModelError, decodeConceptFile, encodeConceptFile, type PortableModel } from '../core/index/persistence/conceptFile.js';
 
 export async function readConceptFile(path: string): Promise<PortableModel> {
   let bytes: Uint8Array;

@@ -6,16 +6,16 @@
  */
 import { performance } from 'node:perf_hooks';
 import { CancelledError, EmptyCorpusError } from '../core/errors.js';
-import { IndexBuilder } from '../core/index/indexBuilder.js';
+import { IndexBuilder } from '../core/index/model/indexBuilder.js';
 import type { DocMeta, LsiIndex } from '../core/index/lsiIndex.js';
-import { modelSettingsKey, resolveSettings, type IndexSettings } from '../core/index/settings.js';
-import { countTerms, Vocabulary } from '../core/index/termCounts.js';
+import { modelSettingsKey, resolveSettings, type IndexSettings } from '../core/index/model/settings.js';
+import { countTerms, Vocabulary } from '../core/counting/termCounts.js';
 import { tokenize } from '../core/text/tokenize.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
 import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
 import { resolve } from 'node:path';
-import { sharedModelKey } from '../core/model/adoptModel.js';
+import { sharedModelKey } from '../core/index/model/adoptModel.js';
 import { readConceptFile } from './conceptModelFile.js';
 import { loadIndex, saveIndex } from './persist.js';
 import { readIndexableText, scanFolder, type ScanOptions } from './scan.js';

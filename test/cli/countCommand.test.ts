@@ -13,18 +13,18 @@ import { parseMatrixMarket } from '../../src/core/matrix/matrixMarket.js';
 import { loadIndex } from '../../src/node/persist.js';
 import { indexFileFor } from '../../src/node/cacheDir.js';
 import { runCli } from '../helpers/cliRunner.js';
-import { loadCollection, missingMessage } from '../helpers/shared.js';
+import { loadCollection } from '../helpers/shared.js';
 
 const adi = loadCollection('adi');
 
-describe.skipIf(!adi)(`undertone count ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('undertone count', () => {
   let dir: string, folder: string, cache: string;
   beforeAll(() => {
     dir = mkdtempSync(join(tmpdir(), 'undertone-count-'));
     folder = join(dir, 'ws');
     cache = join(dir, 'cache');
     mkdirSync(join(folder, 'sub'), { recursive: true });
-    adi!.docs.forEach((d, i) => writeFileSync(join(folder, i % 2 ? 'sub' : '.', `${d.id}.txt`), d.text));
+    adi.docs.forEach((d, i) => writeFileSync(join(folder, i % 2 ? 'sub' : '.', `${d.id}.txt`), d.text));
     writeFileSync(join(folder, 'blob.bin'), Uint8Array.from([1, 0, 2, 0, 3]));
   });
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
