@@ -17,6 +17,7 @@ import { WorkerPool } from '../parallel/workerPool.js';
 import { readIndexableText, scanFolder } from '../scan.js';
 import type { Progress, WorkerConfig } from './workerProtocol.js';
 import type { RootMap } from './rootMap.js';
+import { readSharedModel } from '../conceptModelFile.js';
 
 export interface WorkspaceFile {
   readonly key: string;
@@ -138,7 +139,10 @@ export async function buildWorkspaceIndex(roots: RootMap, config: WorkerConfig, 
     check();
     progress({ stage: 'read', done: total, total });
     if (builder.size === 0) throw new EmptyCorpusError('Nothing to index: no text files remain after the exclude settings.');
+    // A shared concept model (setting undertone.conceptModel): fold into it instead of a local SVD.
+    const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
     const index = builder.build({
+      sharedModel,
       signal: { get aborted() { return cancelled(); } },
       executor: builder.size >= PARALLEL_MIN_FILES ? getPool()?.executor() : undefined,
       onProgress: (stage, done, all) => progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all }),

@@ -22,9 +22,12 @@ export interface AdoptedModel {
   readonly vectors: Float32Array;
 }
 
-/** The key a shared model adds to the index's settings: a different model means a rebuild. */
+/**
+ * The key a shared model adds to the index's settings: its file's CRC-32 (the file's last four
+ * bytes), so a different model means a rebuild, and the key can be read without decoding the file.
+ */
 export function sharedModelKey(model: PortableModel): string {
-  return `${model.checksum.toString(16).padStart(8, '0')}:${model.terms.length}x${model.k}`;
+  return model.checksum.toString(16).padStart(8, '0');
 }
 
 /**
