@@ -80,7 +80,6 @@ def main(argv=None):
         print(f"undertone-cluster: {e}", file=sys.stderr)
         return 1
     finally:
-        workers = len(client.scheduler_info()["workers"])
         client.close()
         if cluster is not None:
             cluster.close()
@@ -98,7 +97,7 @@ def main(argv=None):
     if a.report:
         with open(a.report, "w", encoding="utf-8") as f:
             json.dump({"files": len(r["files"]), "skipped": len(r["skipped"]), "terms": len(r["terms"]), "k": r["k"],
-                       "nonZeros": r["nonZeros"], "workers": workers, "seconds": {**r["timings"], "total": total},
+                       "nonZeros": r["nonZeros"], "workers": r["workers"], "seconds": {**r["timings"], "total": total},
                        "singularValues": [float(x) for x in r["singular_values"]], "killedWorker": r["killed_worker"], "svdBytesSent": r["svd_bytes_sent"], "workerPeakRss": r["worker_peak_rss"], "oversampling": r["oversampling"], "nonZerosWeighted": r["nonZeros"], "countAttempts": r["count_attempts"], "shares": r["shares"],
                        "modelBytes": size}, f)
     return 0

@@ -92,7 +92,8 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
     if len(set(paths)) != len(paths):
         raise JobError("the file list names a file twice")
     shares = [paths[i : i + shard_files] for i in range(0, len(paths), shard_files)]
-    note(f"{len(paths)} files in {len(shares)} shares of up to {shard_files}; workers: {len(client.scheduler_info()['workers'])}")
+    workers_at_start = len(client.scheduler_info()["workers"])
+    note(f"{len(paths)} files in {len(shares)} shares of up to {shard_files}; workers: {workers_at_start}")
     folder = os.path.abspath(folder)
 
     # 1. Counting.
@@ -199,7 +200,7 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
         "file_vectors": file_vectors if with_file_vectors else None, "nonZeros": int(nnz),
         "relaxed": relaxed, "blocks": blocks, "rows": rows, "timings": timings,
         "frobeniusSquared": float(sum(client.gather([client.submit(lambda b: float(b.multiply(b).sum()), b, pure=False) for b in blocks]))),
-        "killed_worker": killed, "svd_bytes_sent": int(svd_bytes), "worker_peak_rss": [int(v) for v in peak_rss.values()], "count_attempts": attempts, "shares": len(shares),
+        "killed_worker": killed, "workers": workers_at_start, "svd_bytes_sent": int(svd_bytes), "worker_peak_rss": [int(v) for v in peak_rss.values()], "count_attempts": attempts, "shares": len(shares),
     }
 
 
