@@ -1,9 +1,5 @@
-<<<<<<< HEAD
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-=======
-import { readFileSync } from 'node:fs';
->>>>>>> main
 import { join } from 'node:path';
 import ignore from 'ignore';
 import { describe, expect, it } from 'vitest';
