@@ -70,6 +70,7 @@ export async function ensureIndex(folder: string, flags: Flags, io: Io, opts: { 
       scan: scanFrom(flags),
       indexFile: indexFileFrom(folder, flags),
       force: opts.force,
+      sharedModel: typeof flags.model === 'string' ? (flags.model === 'none' ? null : flags.model) : undefined,
       onProgress: bar.update,
     });
   } finally {

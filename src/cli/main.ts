@@ -7,8 +7,10 @@ import { UndertoneError } from '../core/errors.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
+import { countCommand } from './commands/countCommand.js';
 import { exportCommand } from './commands/exportCommand.js';
 import { importFactorsCommand } from './commands/importFactorsCommand.js';
+import { importModelCommand } from './commands/importModelCommand.js';
 import { indexCommand } from './commands/indexCommand.js';
 import { lookalikesCommand } from './commands/lookalikesCommand.js';
 import { mapCommand } from './commands/mapCommand.js';
@@ -30,7 +32,12 @@ usage:
                                             same content in other words (--top N per band, default 20)
   undertone export <folder> --format mtx --out DIR   weighted term-document matrix (Matrix Market),
                                             terms.txt and files.txt, for an SVD elsewhere
+                                            (--format model --out FILE: the concept model, to share)
   undertone import-factors <folder> --u U.mtx --s S.txt --v V.mtx   load factors computed elsewhere
+  undertone count  <folder> --files LIST --out SHARD   term counts of some files (one shard of a
+                                            cluster job; --list prints the files the index reads)
+  undertone import-model <folder> --model FILE   use a shared concept model (cluster/) instead of
+                                            a local SVD (--model none: back to the local SVD)
   undertone map    <folder> --out FILE.html  the concept map and spectrum as one offline HTML file
 
 options:
@@ -71,6 +78,8 @@ const EXTRA_OPTIONS = {
   v: { type: 'string' },
   terms: { type: 'string' },
   files: { type: 'string' },
+  list: { type: 'boolean' },
+  model: { type: 'string' },
   help: { type: 'boolean', short: 'h' },
 } as const;
 
@@ -88,7 +97,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? 0 : 2;
   }
-  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes', 'export', 'import-factors', 'map'];
+  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes', 'export', 'import-factors', 'map', 'count', 'import-model'];
   if (!needsFolder.includes(command)) {
     io.err(`undertone: unknown command "${command}"\n\n${USAGE}`);
     return 2;
@@ -113,6 +122,10 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
         return await exportCommand(folder, flags, io);
       case 'import-factors':
         return await importFactorsCommand(folder, flags, io);
+      case 'count':
+        return await countCommand(folder, flags, io);
+      case 'import-model':
+        return await importModelCommand(folder, flags, io);
       case 'map':
         return await mapCommand(folder, flags, io);
       default:

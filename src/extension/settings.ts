@@ -5,7 +5,9 @@
  * `**\/*.md` at any depth, `{a,b}` alternatives) and are translated to the gitignore syntax the
  * scanner speaks.
  */
+import { isAbsolute, join } from 'node:path';
 import type { IndexSettings } from '../core/index/model/settings.js';
+import { sharedModelSetting } from '../node/conceptModelFile.js';
 import { WEIGHTING_SCHEMES, type WeightingScheme } from '../core/weighting/termWeighting.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
 import type { WorkerConfig, WorkspaceRoot } from '../node/worker/workerProtocol.js';
@@ -21,6 +23,8 @@ export interface ExtensionSettings {
   readonly buildOnStartup: boolean;
   readonly nearbyCount: number;
   readonly autoRebuild: boolean;
+  /** A shared concept model file to fold the workspace into instead of a local SVD ('' = none). */
+  readonly conceptModel: string;
 }
 
 /** Defaults, identical to the manifest's (the file-size cap is the scanner's). */
@@ -34,6 +38,7 @@ export const DEFAULT_EXTENSION_SETTINGS: ExtensionSettings = Object.freeze({
   buildOnStartup: true,
   nearbyCount: 10,
   autoRebuild: true,
+  conceptModel: '',
 });
 
 /** Reads one setting under `undertone.` (as WorkspaceConfiguration.get does). */
@@ -57,6 +62,7 @@ export function readSettings(get: SettingGetter): ExtensionSettings {
     buildOnStartup: bool(get('buildOnStartup'), d.buildOnStartup),
     nearbyCount: int(get('nearbyCount'), d.nearbyCount, 1, 100),
     autoRebuild: bool(get('autoRebuild'), d.autoRebuild),
+    conceptModel: typeof get('conceptModel') === 'string' ? (get('conceptModel') as string).trim() : d.conceptModel,
   };
 }
 
@@ -127,6 +133,11 @@ export interface HostFolder {
 export function toWorkerConfig(s: ExtensionSettings, folders: readonly (HostFolder & { readonly key: string })[], indexFile: string): WorkerConfig {
   const roots: WorkspaceRoot[] = folders.map((f) => ({ name: f.key, fsPath: f.fsPath, exclude: enabledPatterns(f.filesExclude).flatMap(globToGitignore) }));
   const settings: Partial<IndexSettings> = { k: s.dimensions, weighting: s.weighting };
+  if (s.conceptModel) {
+    // Relative paths are taken from the first workspace folder; the key is the file's CRC-32.
+    const path = isAbsolute(s.conceptModel) || folders.length === 0 ? s.conceptModel : join(folders[0].fsPath, s.conceptModel);
+    settings.sharedModel = sharedModelSetting(path);
+  }
   return {
     roots,
     indexFile,

@@ -11,6 +11,7 @@ import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { resolveSettings, type IndexSettings } from '../core/index/model/settings.js';
 import { runIndexPipeline, tallySkipped, type PipelineResult, type PipelineStage } from './indexPipeline.js';
 import type { PoolOptions } from './parallel/workerPool.js';
+import { sharedModelSetting } from './conceptModelFile.js';
 import { loadIndex, saveIndex } from './persist.js';
 import { DEFAULT_SCAN_OPTIONS, scanFolder, type ScanOptions } from './scan.js';
 
@@ -36,6 +37,11 @@ export interface FolderIndexOptions {
    * bundled worker script the work stays on this thread. @default {} (all available cores)
    */
   parallel?: PoolOptions | false;
+  /**
+   * A shared concept model file to fold the files into instead of a local SVD (a path), null for
+   * a local SVD, undefined to keep what the saved index used.
+   */
+  sharedModel?: string | null;
 }
 
 export interface FolderIndexReport {
@@ -72,8 +78,11 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
   const loadSeconds = (performance.now() - t0) / 1000;
   if (options.signal?.aborted) throw new CancelledError();
 
+  const sharedPath = options.sharedModel === undefined ? previous?.settings.sharedModel?.path : (options.sharedModel ?? undefined);
+  const settings = resolveSettings(options.settings);
+  if (sharedPath) settings.sharedModel = sharedModelSetting(sharedPath);
   const result = await runIndexPipeline({
-    settings: resolveSettings(options.settings),
+    settings,
     scan: async () => {
       const scan = await scanFolder(root, options.scan, options.signal);
       return {

@@ -30,6 +30,7 @@ import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
 import { readIndexableText } from './scanRead.js';
 import type { SkippedPath } from './scanTypes.js';
+import { readSharedModel } from './conceptModelFile.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
@@ -228,7 +229,10 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     // ---- build
     await releasePool();
     const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool() : undefined;
+    // A shared concept model (import-model, undertone.conceptModel): fold into it, no local SVD.
+    const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
     const index = builder.build({
+      sharedModel,
       signal: { get aborted() { return cancelled(); } },
       executor: buildPool?.executor(),
       onProgress: (stage, done, all) => {

@@ -1,4 +1,5 @@
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import ignore from 'ignore';
 import { describe, expect, it } from 'vitest';
@@ -20,7 +21,7 @@ describe('readSettings', () => {
     };
     expect(readSettings((k) => values[k])).toEqual({
       include: ['**/*.md'], exclude: [], maxFileSizeKB: 1, dimensions: 150, weighting: 'tfidf',
-      useGitignore: false, buildOnStartup: true, nearbyCount: 100, autoRebuild: false,
+      useGitignore: false, buildOnStartup: true, nearbyCount: 100, autoRebuild: false, conceptModel: '',
     });
   });
 
@@ -31,6 +32,26 @@ describe('readSettings', () => {
     expect(parseDimensions('1')).toBe('auto');
     expect(parseDimensions(12.5)).toBe('auto');
     expect(parseDimensions('lots')).toBe('auto');
+  });
+});
+
+describe('undertone.conceptModel', () => {
+  it('names the shared model in the worker settings by path and CRC-32 (the file\'s last four bytes)', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'undertone-settings-'));
+    try {
+      const file = join(dir, 'org.model');
+      const bytes = Buffer.alloc(32, 7);
+      bytes.writeUInt32LE(0x1234abcd, 28);
+      writeFileSync(file, bytes);
+      const s = { ...DEFAULT_EXTENSION_SETTINGS, conceptModel: 'org.model' };
+      const config = toWorkerConfig(s, [{ name: 'ws', fsPath: dir, filesExclude: {}, key: 'ws' }], join(dir, 'index'));
+      expect(config.settings.sharedModel).toEqual({ path: file, key: '1234abcd' });
+      const missing = toWorkerConfig({ ...s, conceptModel: join(dir, 'none.model') }, [], join(dir, 'index'));
+      expect(missing.settings.sharedModel?.key).toBe('unreadable');
+      expect(toWorkerConfig(DEFAULT_EXTENSION_SETTINGS, [], 'x').settings.sharedModel).toBeUndefined();
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
 

@@ -1,4 +1,6 @@
 /**
+ * `undertone export <folder> --format model --out FILE` writes the index's concept model as one
+ * portable file (src/core/model/conceptFile.ts) that other machines can import-model.
  * `undertone export <folder> --format mtx --out <dir>`: the folder's weighted term-document
  * matrix in Matrix Market coordinate format (NIST IR 5935), for decomposing a very large corpus
  * elsewhere (a cluster engine, scipy, …) and loading the factors back with `import-factors`.
@@ -17,6 +19,8 @@ import { modelMatrix } from '../../core/index/model/conceptModel.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import type { DocSlot } from '../../core/index/lsiIndex.js';
 import { coordinateChunks } from '../../core/matrix/matrixMarket.js';
+import { portableFromIndex } from '../../core/index/model/portableFromIndex.js';
+import { writeConceptFile } from '../../node/conceptModelFile.js';
 import type { CsrMatrix } from '../../core/matrix/sparse.js';
 import { ensureIndex, type Flags } from '../context.js';
 import { formatCount, type Io } from '../output.js';
@@ -25,10 +29,16 @@ export const EXPORT_FILES = { matrix: 'matrix.mtx', terms: 'terms.txt', files: '
 
 export async function exportCommand(folder: string, flags: Flags, io: Io): Promise<number> {
   const format = typeof flags.format === 'string' ? flags.format : 'mtx';
-  if (format !== 'mtx') throw new InvalidInputError(`--format must be mtx (Matrix Market), got "${format}"`);
-  if (typeof flags.out !== 'string' || flags.out.length === 0) throw new InvalidInputError('export needs --out <dir>, the folder to write into');
+  if (format !== 'mtx' && format !== 'model') throw new InvalidInputError(`--format must be mtx (Matrix Market) or model (a concept model file), got "${format}"`);
+  if (typeof flags.out !== 'string' || flags.out.length === 0) throw new InvalidInputError(`export needs --out ${format === 'model' ? '<file>, the concept model file' : '<dir>, the folder'} to write`);
   const out = resolve(flags.out);
   const { index } = await ensureIndex(folder, flags, io);
+  if (format === 'model') {
+    const bytes = await writeConceptFile(out, portableFromIndex(index, { withFiles: true }));
+    if (flags.json) io.out(JSON.stringify({ out, bytes, k: index.k, terms: index.model.keptIds.length, files: index.size }));
+    else if (!flags.quiet) io.err(`wrote the concept model (k=${index.k}, ${formatCount(index.model.keptIds.length)} terms, ${formatCount(index.size)} files) to ${out}`);
+    return 0;
+  }
   const written = await writeExport(index, out);
   if (flags.json) io.out(JSON.stringify({ out, ...written }));
   else if (!flags.quiet) {

@@ -12,6 +12,7 @@ import { chooseK, type ChosenK } from '../../svd/chooseK.js';
 import { randomizedSvd } from '../../svd/randomizedSvd.js';
 import { pruneVocabulary } from '../../weighting/prune.js';
 import { globalWeights, weightDocument, type WeightingScheme } from '../../weighting/termWeighting.js';
+import type { PortableModel } from '../persistence/conceptFile.js';
 import type { IndexSettings } from './settings.js';
 import type { DocTerms } from '../../counting/termCounts.js';
 
@@ -54,6 +55,8 @@ export interface BuildProgress {
   signal?: { readonly aborted: boolean };
   /** Runs the SVD's large products (threads from src/node; default: this thread). */
   executor?: MatrixExecutor;
+  /** A shared concept model to fold the files into instead of a local SVD (model/adoptModel.ts). */
+  sharedModel?: PortableModel;
 }
 
 export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, settings: IndexSettings, progress: BuildProgress = {}): ConceptModel {

@@ -5,6 +5,7 @@
  */
 import { InvalidInputError } from '../../errors.js';
 import { tokenize } from '../../text/tokenize.js';
+import { adoptSharedModel } from './adoptModel.js';
 import { buildConceptModelAndVectors, type BuildProgress } from './conceptModel.js';
 import { LsiIndex, type DocMeta, type DocSlot } from '../lsiIndex.js';
 import { resolveSettings, type IndexSettings } from './settings.js';
@@ -62,6 +63,10 @@ export class IndexBuilder {
       return { meta, terms: canonical ? t : remap(t, newId), folded: false, residual: 0 };
     });
     if (slots.length === 0) throw new InvalidInputError('There are no files to index.');
+    if (progress.sharedModel) {
+      const a = adoptSharedModel(progress.sharedModel, vocab, slots, this.settings, progress);
+      return LsiIndex.assemble(this.settings, a.vocab, a.model, a.slots, a.vectors);
+    }
     const { model, vectors } = buildConceptModelAndVectors(slots.map((s) => s.terms), vocab.size, this.settings, progress);
     return LsiIndex.assemble(this.settings, vocab, model, slots, vectors);
   }

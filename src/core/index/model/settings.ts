@@ -28,6 +28,12 @@ export interface IndexSettings {
    * lexical score follows Kontostathis (2007, essential-dimensions LSI). @default 0.5
    */
   lexicalBlend: number;
+  /**
+   * A shared concept model (src/core/model/conceptFile.ts) the index folds its files into instead
+   * of decomposing its own matrix: where the file is and which model it was (sharedModelKey).
+   * Absent: a local SVD. @default undefined
+   */
+  sharedModel?: { readonly path: string; readonly key: string };
 }
 
 export const DEFAULT_INDEX_SETTINGS: Readonly<IndexSettings> = Object.freeze({
@@ -52,5 +58,7 @@ export function resolveSettings(partial: Partial<IndexSettings> = {}): IndexSett
 
 /** Settings that change the concept model (a difference means a rebuild, not a fold-in). */
 export function modelSettingsKey(s: IndexSettings): string {
-  return JSON.stringify([s.weighting, s.k, s.seed, s.powerIterations, s.prune, s.tokenize, s.conceptScaling]);
+  const key: unknown[] = [s.weighting, s.k, s.seed, s.powerIterations, s.prune, s.tokenize, s.conceptScaling];
+  if (s.sharedModel) key.push(s.sharedModel.key);
+  return JSON.stringify(key);
 }
