@@ -9,10 +9,10 @@ import { join } from 'node:path';
 import { gunzipSync } from 'node:zlib';
 import { NoKnownTermsError } from '../../src/core/errors.js';
 import { averagePrecision, ndcgAt } from '../../src/core/eval/retrievalMetrics.js';
-import { IndexBuilder } from '../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
-import type { IndexSettings } from '../../src/core/index/settings.js';
-import { sharedPath } from './shared.js';
+import type { IndexSettings } from '../../src/core/index/model/settings.js';
+import { fixturePath } from './shared.js';
 
 export interface RankingFixture {
   docs: { id: string; text: string }[];
@@ -42,10 +42,9 @@ function lines(dir: string, name: string): string[] {
   return text.split('\n').filter((l) => l.trim().length > 0);
 }
 
-/** Reads test/fixtures/<name>, or null when it is absent. */
-export function loadRankingFixture(name: string): RankingFixture | null {
-  const dir = sharedPath(name);
-  if (!dir) return null;
+/** Reads test/fixtures/<name>. @throws FixtureMissingError when it is absent. */
+export function loadRankingFixture(name: string): RankingFixture {
+  const dir = fixturePath(name);
   const qrels = new Map<string, Set<string>>();
   for (const line of lines(dir, 'qrels.tsv')) {
     const [q, d, rel] = line.split('\t');
