@@ -72,6 +72,7 @@ export function explanationLine(e: Explanation, forms: SurfaceForms, count = 5):
   const { top, rest, restTerms } = topShares(e, count);
   const parts = top.map((t) => `${forms.wordFor(t.term)}${t.inBoth ? '' : '~'} ${t.share.toFixed(3)}`);
   if (restTerms > 0) parts.push(`${restTerms} more ${rest.toFixed(3)}`);
+  if (e.feedback !== 0) parts.push(`feedback ${e.feedback.toFixed(3)}`);
   return `        why: ${parts.join(', ') || 'no shared meaning'}  (= ${e.score.toFixed(3)})`;
 }
 
@@ -81,6 +82,7 @@ export function explanationJson(e: Explanation, forms: SurfaceForms, count = 10)
     score: round(e.score),
     terms: top.map((t) => ({ word: forms.wordFor(t.term), term: t.term, share: round(t.share), concept: round(t.concept), lexical: round(t.lexical), inBoth: t.inBoth })),
     rest: { terms: restTerms, share: round(rest) },
+    feedback: round(e.feedback),
   };
 }
 

@@ -7,7 +7,8 @@
  * The unit vectors sit in one block (conceptRows.ts); search and nearby screen them with 8-bit codes and exact
  * bounds (conceptCodes.ts, screenedTop.ts) and take exact products only for rows that can place,
  * so the ranking is that of a full pass. The BM25 scorer is made on first use (it builds the
- * postings of a term when a query first needs it) and then kept up to date; nearby never needs it.
+ * postings of a term when a query first needs it) and then kept up to date. How the concept and
+ * lexical evidence combine, with feedback, is in search/fusion.ts.
  * A caller that keeps the index open (the editor's worker) can call prepare() to build both the
  * codes and every term's postings ahead of time, in slices, so no search pays for them; a search
  * that arrives while the codes are half made takes a full pass instead of finishing them.
@@ -29,6 +30,17 @@ export type { Staleness, StalenessCounters } from './update/staleness.js';
 
 export { DEFAULT_PREPARE_OPTIONS, type DocMeta, type DocSlot, type NearbyHit, type PrepareOptions, type SearchHit, type SearchOptions } from './searchTypes.js';
 import { DEFAULT_PREPARE_OPTIONS, type DocMeta, type DocSlot, type NearbyHit, type PrepareOptions, type SearchHit, type SearchOptions } from './searchTypes.js';
+
+/** What a search ranks with (LsiIndex.searchPlan). */
+export interface SearchPlan {
+  readonly terms: DocTerms;
+  readonly lexicalQuery: DocTerms;
+  readonly vector: Float32Array;
+  readonly scale: number;
+  readonly known: boolean;
+  readonly lexical: Float64Array;
+  readonly accept: (slot: number) => boolean;
+}
 
 export class LsiIndex {
   private _slots: (DocSlot | null)[];
@@ -135,7 +147,20 @@ export class LsiIndex {
    * ranked. Throws NoKnownTermsError when neither the text nor a liked file gives known words.
    */
   search(text: string, options: Partial<SearchOptions> = {}): SearchHit[] {
-    const top = options.top ?? 10;
+    const plan = this.searchPlan(text, options);
+    const { lexical, accept } = plan;
+    const lambda = this.settings.lexicalBlend;
+    const { ranked, product } = this.rank(plan.vector, plan.known ? 1 - lambda : 0, lambda, lexical, options.top ?? 10, accept, this._scratch.subarray(this._slots.length, 2 * this._slots.length));
+    return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
+  }
+
+  /**
+   * What a search ranks with: the text's terms, the lexical query (the text's terms and the liked
+   * files' distinctive terms), the final concept query vector (after pseudo-relevance and user
+   * feedback; `scale` is the factor the text's own unit vector carries in it), the BM25 scores
+   * divided by their maximum (a view overwritten by the next search) and the slots that may rank.
+   */
+  searchPlan(text: string, options: Partial<SearchOptions> = {}): SearchPlan {
     const r = this.ranking;
     const q = this.queryTerms(text);
     const liked = (options.like ?? []).map((p) => this.slot(p));
@@ -148,7 +173,6 @@ export class LsiIndex {
     // Two reused n-long arrays (allocating 2 × 8n bytes per query made the collector run often).
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
-    const blended = this._scratch.subarray(n, 2 * n);
     const lambda = this.settings.lexicalBlend;
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical);
@@ -158,20 +182,21 @@ export class LsiIndex {
     const live = this.acceptor(options.filter);
     const accept = marked.size ? (j: number): boolean => !marked.has(j) && live(j) : live;
     let vector = proj.vector;
+    let scale = proj.knownTerms > 0 ? 1 : 0;
     let known = proj.knownTerms > 0;
     if (known && r.feedbackDocs > 0 && r.feedbackWeight > 0) {
-      const first = this.rank(vector, 1 - lambda, lambda, lexical, r.feedbackDocs, accept, blended);
-      vector = rocchio(vector, [{ weight: r.feedbackWeight, vectors: first.ranked.map(({ slot }) => this.slotVector(slot)) }]) ?? vector;
+      const first = this.rank(vector, 1 - lambda, lambda, lexical, r.feedbackDocs, accept, this._scratch.subarray(n, 2 * n));
+      const moved = rocchio(vector, [{ weight: r.feedbackWeight, vectors: first.ranked.map(({ slot }) => this.slotVector(slot)) }]);
+      if (moved) [vector, scale] = [moved.vector, scale * moved.scale];
     }
     if (liked.length > 0 || unliked.length > 0) {
       const moved = rocchio(vector, [
         { weight: r.likeWeight, vectors: liked.map((s) => this.slotVector(s)) },
         { weight: -r.unlikeWeight, vectors: unliked.map((s) => this.slotVector(s)) },
       ]);
-      if (moved) [vector, known] = [moved, true];
+      if (moved) [vector, scale, known] = [moved.vector, scale * moved.scale, true];
     }
-    const { ranked, product } = this.rank(vector, known ? 1 - lambda : 0, lambda, lexical, top, accept, blended);
-    return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
+    return { terms: q, lexicalQuery: lexQuery, vector, scale, known, lexical, accept };
   }
 
   /**
@@ -183,18 +208,31 @@ export class LsiIndex {
     const self = this.slot(path);
     const live = this.acceptor(options.filter);
     const accept = (j: number): boolean => j !== self && live(j);
-    const top = options.top ?? 10;
     const n = this._slots.length;
     const mu = this.ranking.nearbyLexical;
+    const { lexical } = this.nearbyPlan(path);
+    const { ranked, product } = this.rank(this.vectorOf(path), 1 - mu, mu, lexical, options.top ?? 10, accept, this._scratch.subarray(n, 2 * n));
+    return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
+  }
+
+  /**
+   * Nearby's lexical evidence for a file: its lexical query (most distinctive terms), the best
+   * BM25 score among the other files, and every file's score divided by it (itself 0; a view
+   * overwritten by the next search). Without a lexical share (nearbyLexical = 0) all zeros.
+   */
+  nearbyPlan(path: string): { lexicalQuery: DocTerms; max: number; lexical: Float64Array } {
+    const self = this.slot(path);
+    const n = this._slots.length;
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
-    if (mu > 0) {
-      this.bm25().scoreInto(this.fileQuery(self, 1), lexical);
+    const lexicalQuery = this.fileQuery(self, 1);
+    let max = 0;
+    if (this.ranking.nearbyLexical > 0) {
+      this.bm25().scoreInto(lexicalQuery, lexical);
       lexical[self] = 0;
-      divideByMax(lexical);
+      max = divideByMax(lexical);
     }
-    const { ranked, product } = this.rank(this.vectorOf(path), 1 - mu, mu, lexical, top, accept, this._scratch.subarray(n, 2 * n));
-    return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
+    return { lexicalQuery, max, lexical };
   }
 
   /** A file's lexical query: its most distinctive terms with their counts, times `weight`. */
@@ -343,11 +381,12 @@ export class LsiIndex {
 // The loops over every slot live in small functions of their own, which the engine optimises
 // whole (loops inside a long method are optimised on their own and leave it at each exit).
 
-/** a[j] /= max(a) when the maximum is positive. */
-function divideByMax(a: Float64Array): void {
+/** a[j] /= max(a) when the maximum is positive; returns the maximum (0 when none is positive). */
+function divideByMax(a: Float64Array): number {
   let max = 0;
   for (let j = 0; j < a.length; j++) max = Math.max(max, a[j]);
   if (max > 0) for (let j = 0; j < a.length; j++) a[j] /= max;
+  return max;
 }
 
 /** out[j] = wa·a[j] + wb·b[j]. */

@@ -27,9 +27,9 @@ export interface RankingOptions {
   nearbyLexical: number;
   /** Most distinctive terms of a file that form its lexical query. @default 40 */
   nearbyTerms: number;
-  /** First-pass files whose mean concept vector is added to a query (0 = no feedback). @default 0 */
+  /** First-pass files whose mean concept vector is added to a query (0 = no feedback). @default 5 */
   feedbackDocs: number;
-  /** Weight of that mean (the query vector has weight 1). @default 0 */
+  /** Weight of that mean (the query vector has weight 1). @default 0.5 */
   feedbackWeight: number;
   /** Rocchio weight of files marked "more like this". @default 0.75 */
   likeWeight: number;
@@ -44,8 +44,8 @@ export interface RankingOptions {
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyLexical: 0.5,
   nearbyTerms: 40,
-  feedbackDocs: 0,
-  feedbackWeight: 0,
+  feedbackDocs: 5,
+  feedbackWeight: 0.5,
   likeWeight: 0.75,
   unlikeWeight: 0.25,
   dropFiller: true,
@@ -108,8 +108,12 @@ export function mergeTerms(a: DocTerms, b: DocTerms): DocTerms {
   return { termIds: Int32Array.from(ids), counts: Float32Array.from(counts), length: a.length + b.length };
 }
 
-/** out = unit(q + Σ_i w_i·mean(vectors_i)); vectors_i are unit rows; null when the sum vanishes. */
-export function rocchio(q: Float32Array, parts: readonly { weight: number; vectors: readonly Float32Array[] }[]): Float32Array | null {
+/**
+ * unit(q + Σ_i w_i·mean(vectors_i)) for unit rows, with the factor `scale` = 1/‖q + Σ…‖ that the
+ * original q carries in it (explanations split a cosine into the query's part and the rest);
+ * null when the sum vanishes.
+ */
+export function rocchio(q: Float32Array, parts: readonly { weight: number; vectors: readonly Float32Array[] }[]): { vector: Float32Array; scale: number } | null {
   const acc = Float64Array.from(q);
   for (const { weight, vectors } of parts) {
     if (vectors.length === 0 || weight === 0) continue;
@@ -120,5 +124,5 @@ export function rocchio(q: Float32Array, parts: readonly { weight: number; vecto
   for (let c = 0; c < acc.length; c++) ss += acc[c] * acc[c];
   if (!(ss > 1e-24)) return null;
   const norm = Math.sqrt(ss);
-  return Float32Array.from(acc, (x) => x / norm);
+  return { vector: Float32Array.from(acc, (x) => x / norm), scale: 1 / norm };
 }
