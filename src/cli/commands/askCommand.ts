@@ -1,6 +1,10 @@
-/** `undertone ask <folder> "<text>"` and batch mode `--queries file.jsonl`. */
+/**
+ * `undertone ask <folder> "<text>"` (with `--like FILE` / `--unlike FILE` to steer it by files,
+ * repeatable) and batch mode `--queries file.jsonl`.
+ */
 import { readFile } from 'node:fs/promises';
-import { InvalidInputError, NoKnownTermsError } from '../../core/errors.js';
+import { relative, resolve } from 'node:path';
+import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../../core/errors.js';
 import { QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
@@ -36,15 +40,30 @@ export async function askCommand(folder: string, text: string | undefined, flags
     }
     return 0;
   }
-  if (!text || text.trim().length === 0) throw new InvalidInputError('ask needs a question in plain language, or --queries <file.jsonl>');
+  const likes = fileList(flags.like);
+  const unlikes = fileList(flags.unlike);
+  if ((!text || text.trim().length === 0) && likes.length === 0) throw new InvalidInputError('ask needs a question in plain language, a file to find more like (--like FILE), or --queries <file.jsonl>');
   const { index } = await ensureIndex(folder, flags, io);
-  printHits(index, text, top, flags, io);
+  const feedback = { like: likes.map((f) => indexedKey(index, folder, f)), unlike: unlikes.map((f) => indexedKey(index, folder, f)) };
+  printHits(index, text ?? '', top, flags, io, feedback);
   return 0;
 }
 
-function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io: Io): void {
-  const hits = index.search(text, { top });
-  const explainer = flags.explain ? new QueryExplainer(index, text) : null;
+function fileList(v: Flags[string]): string[] {
+  return Array.isArray(v) ? v : typeof v === 'string' ? [v] : [];
+}
+
+/** An indexed path for a file named relative to the folder or to the current directory. */
+function indexedKey(index: LsiIndex, folder: string, file: string): string {
+  const fromCwd = relative(resolve(folder), resolve(file)).split('\\').join('/');
+  const key = index.has(file) ? file : index.has(fromCwd) ? fromCwd : undefined;
+  if (key === undefined) throw new NotIndexedError(file);
+  return key;
+}
+
+function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io: Io, feedback: { like: string[]; unlike: string[] }): void {
+  const hits = index.search(text, { top, ...feedback });
+  const explainer = flags.explain ? new QueryExplainer(index, text, true, feedback) : null;
   const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
   forms.add(text);
   const why = (path: string): Explanation | null => explainer?.explain(path) ?? null;
