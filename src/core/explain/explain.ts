@@ -70,7 +70,7 @@ export class QueryExplainer {
     const lexQuery = plan ? plan.lexicalQuery : q;
     this._query = lexQuery;
     const side = conceptRows(_index, q);
-    this._lambda = blend ? _index.settings.lexicalBlend : 0;
+    this._lambda = plan ? plan.lambda : 0;
     this._conceptWeight = (plan ? plan.known : side.known > 0) ? 1 - this._lambda : 0;
     if (plan) {
       this._scale = plan.scale;

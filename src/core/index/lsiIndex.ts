@@ -40,6 +40,8 @@ export interface SearchPlan {
   readonly known: boolean;
   readonly lexical: Float64Array;
   readonly accept: (slot: number) => boolean;
+  /** The lexical share λ of this query (settings.lexicalBlend, raised by coverageBlend). */
+  readonly lambda: number;
 }
 
 export class LsiIndex {
@@ -149,7 +151,7 @@ export class LsiIndex {
   search(text: string, options: Partial<SearchOptions> = {}): SearchHit[] {
     const plan = this.searchPlan(text, options);
     const { lexical, accept } = plan;
-    const lambda = this.settings.lexicalBlend;
+    const lambda = plan.lambda;
     const { ranked, product } = this.rank(plan.vector, plan.known ? 1 - lambda : 0, lambda, lexical, options.top ?? 10, accept, this._scratch.subarray(this._slots.length, 2 * this._slots.length));
     return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
   }
@@ -173,10 +175,11 @@ export class LsiIndex {
     // Two reused n-long arrays (allocating 2 × 8n bytes per query made the collector run often).
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
-    const lambda = this.settings.lexicalBlend;
+    let lambda = this.settings.lexicalBlend;
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical);
       divideByMax(lexical);
+      if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
     }
     const marked = new Set([...liked, ...unliked]);
     const live = this.acceptor(options.filter);
@@ -196,7 +199,7 @@ export class LsiIndex {
       ]);
       if (moved) [vector, scale, known] = [moved.vector, scale * moved.scale, true];
     }
-    return { terms: q, lexicalQuery: lexQuery, vector, scale, known, lexical, accept };
+    return { terms: q, lexicalQuery: lexQuery, vector, scale, known, lexical, accept, lambda };
   }
 
   /**
@@ -233,6 +236,20 @@ export class LsiIndex {
       max = divideByMax(lexical);
     }
     return { lexicalQuery, max, lexical };
+  }
+
+  /** The idf-weighted share of a query's terms that the concept model does not know (0…1). */
+  private unknownShare(q: DocTerms): number {
+    const { columnOf } = this.model;
+    let all = 0;
+    let unknown = 0;
+    for (let i = 0; i < q.termIds.length; i++) {
+      const t = q.termIds[i];
+      const w = q.counts[i] * this.bm25().idf(t);
+      all += w;
+      if (t >= columnOf.length || columnOf[t] < 0) unknown += w;
+    }
+    return all > 0 ? unknown / all : 0;
   }
 
   /** A file's lexical query: its most distinctive terms with their counts, times `weight`. */

@@ -37,6 +37,11 @@ export interface RankingOptions {
   unlikeWeight: number;
   /** Drop question filler words from queries when other words remain. @default true */
   dropFiller: boolean;
+  /**
+   * Raise a query's lexical share by the idf-weighted share u of its words that the concept space
+   * does not know (pruned as too rare or too common): λ_q = λ + (1 − λ)·u. @default false
+   */
+  coverageBlend: boolean;
   /** BM25 length normalisation b (Robertson & Zaragoza 2009; 0.75 is their common value). @default 0.75 */
   lengthNorm: number;
 }
@@ -49,6 +54,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   likeWeight: 0.75,
   unlikeWeight: 0.25,
   dropFiller: true,
+  coverageBlend: false,
   lengthNorm: 0.75,
 });
 
