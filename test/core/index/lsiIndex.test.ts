@@ -111,7 +111,7 @@ function plainBlend(index: LsiIndex, q: Float32Array, wc: number, a: number, lex
   return ranked.sort((x, y) => y.score - x.score || x.slot - y.slot).slice(0, top);
 }
 
-/** Search as documented: BM25 blend, then Rocchio with the first pass's 5 best files (weight 0.5). */
+/** Search as documented: BM25 blend, then Rocchio with the first pass's 5 best files (weight 0.25). */
 function plainSearch(index: LsiIndex, text: string, top: number): { path: string; score: number }[] {
   const q = index.queryTerms(text);
   const proj = projectTerms(index.model, q);
@@ -124,7 +124,7 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
     const acc = Float64Array.from(vector);
     for (const f of first) {
       const v = index.vectorOf(f.path);
-      for (let c = 0; c < acc.length; c++) acc[c] += (0.5 / first.length) * v[c];
+      for (let c = 0; c < acc.length; c++) acc[c] += (0.25 / first.length) * v[c];
     }
     const norm = Math.hypot(...acc);
     vector = Float32Array.from(acc, (x) => x / norm);

@@ -29,7 +29,7 @@ export interface RankingOptions {
   nearbyTerms: number;
   /** First-pass files whose mean concept vector is added to a query (0 = no feedback). @default 5 */
   feedbackDocs: number;
-  /** Weight of that mean (the query vector has weight 1). @default 0.5 */
+  /** Weight of that mean (the query vector has weight 1). @default 0.25 */
   feedbackWeight: number;
   /** Rocchio weight of files marked "more like this". @default 0.75 */
   likeWeight: number;
@@ -50,7 +50,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyLexical: 0.5,
   nearbyTerms: 40,
   feedbackDocs: 5,
-  feedbackWeight: 0.5,
+  feedbackWeight: 0.25,
   likeWeight: 0.75,
   unlikeWeight: 0.25,
   dropFiller: true,
