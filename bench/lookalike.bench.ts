@@ -1,11 +1,14 @@
 /**
- * Timing of the look-alike finder on synthetic files (no assertions; speed figures only).
- * Run: npx esbuild bench/lookalike.bench.ts --bundle --platform=node --outfile=/tmp/lookalike-bench.js
- *      && node /tmp/lookalike-bench.js [files=10000] [tokensPerFile=300] [dims=200]
- * Corpus: Zipf-distributed words from a 20 000-word invented vocabulary, 10 words per line; 10 %
- * near-copies (a few words and lines changed), 5 % exact copies, 1 % blank files. Concept vectors:
- * random unit vectors (paraphrase search then runs its SimHash path above 2000 files).
+ * Timing of the overlap finder (no assertions; speed and count figures only).
+ * Run: npm run bench:lookalike -- [files=10000] [tokensPerFile=300]
+ *      npm run bench:lookalike -- --folder DIR   (a real folder: time and pairs per band)
+ * Synthetic corpus: Zipf-distributed words from a 20 000-word invented vocabulary, 10 words per
+ * line; 10 % near-copies (a few words and lines changed), 5 % exact copies, 1 % blank files.
+ * Real folder: every file under DIR (hidden folders skipped) read as UTF-8 text; without
+ * --folder, .cache/bench/linux-source-6.1/Documentation is used when bench-setup.sh unpacked it.
  */
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
 import { createRandom } from '../src/core/random.js';
 import { contentHash } from '../src/core/lookalike/contentHash.js';
 import { createMinHasher } from '../src/core/lookalike/minhash.js';
@@ -13,9 +16,12 @@ import { findLookalikes } from '../src/core/lookalike/findLookalikes.js';
 import { shingleSet } from '../src/core/lookalike/shingles.js';
 import type { LookalikeFile } from '../src/core/lookalike/types.js';
 
-const n = Number(process.argv[2] ?? 10000);
-const tokensPerFile = Number(process.argv[3] ?? 300);
-const dims = Number(process.argv[4] ?? 200);
+const folderArg = process.argv.indexOf('--folder');
+const kernelDocs = join('.cache', 'bench', 'linux-source-6.1', 'Documentation');
+const folder = folderArg > 0 ? process.argv[folderArg + 1] : existsSync(kernelDocs) ? kernelDocs : undefined;
+const numeric = process.argv.slice(2).filter((a, i, all) => a !== '--folder' && all[i - 1] !== '--folder');
+const n = Number(numeric[0] ?? 10000);
+const tokensPerFile = Number(numeric[1] ?? 300);
 const rng = createRandom(7);
 
 const vocabulary = Array.from({ length: 20000 }, (_, i) => `w${i.toString(36)}x${(i * 7919) % 97}`);
@@ -60,12 +66,6 @@ for (let i = 0; i < n; i++) {
   else text = freshText();
   files.push({ id: `src/file${i}.ts`, text });
 }
-const vectors = new Float32Array(n * dims);
-for (let i = 0; i < n; i++) {
-  let s = 0;
-  for (let d = 0; d < dims; d++) s += (vectors[i * dims + d] = rng.normal()) ** 2;
-  for (let d = 0; d < dims; d++) vectors[i * dims + d] /= Math.sqrt(s);
-}
 
 // Wall time and this process's CPU time (the second is steadier on a shared machine).
 const time = <T>(label: string, f: () => T): T => {
@@ -77,19 +77,50 @@ const time = <T>(label: string, f: () => T): T => {
   console.log(`${label.padEnd(40)} ${wall} ms wall ${((cpu.user + cpu.system) / 1000).toFixed(0).padStart(7)} ms cpu`);
   return r;
 };
-console.log(`lookalike bench: ${n} files × ~${tokensPerFile} tokens, concept dims ${dims}`);
+if (folder) {
+  realFolder(folder);
+  if (folderArg > 0) process.exit(0); // a folder was asked for: the synthetic runs are not
+}
+console.log(`lookalike bench: ${n} files × ~${tokensPerFile} tokens`);
 const sets = time('shingling (all files)', () => files.map((f) => shingleSet(f.text, 5)));
 const hasher = createMinHasher(128, 1);
 time('MinHash K=128 (all non-empty files)', () => sets.forEach((s) => s.hashes.length > 0 && hasher.signature(s.hashes)));
 time('content hashes (all files)', () => files.forEach((f) => contentHash(f.text)));
-const plain = time('findLookalikes (no concept vectors)', () => findLookalikes({ files }));
-const full = time('findLookalikes (with concept vectors)', () => findLookalikes({ files, concepts: { vectors, dims } }));
-console.log('stats (no vectors):', JSON.stringify(plain.stats));
-console.log('stats (vectors):   ', JSON.stringify(full.stats));
-console.log(`exact groups ${plain.exactGroups.length}, near groups ${plain.nearGroups.length}`);
+const plain = time('findLookalikes', () => findLookalikes({ files }));
+console.log('stats:', JSON.stringify(plain.stats));
+console.log(`exact groups ${plain.exactGroups.length}, near ${plain.nearPairs.length}, partial ${plain.partialPairs.length}, retold ${plain.retoldPairs.length}`);
 const same = Array.from({ length: 3000 }, (_, i) => ({ id: `same/${i}.md`, text: files[20].text || freshText() }));
 time('findLookalikes (3000 identical files)', () => findLookalikes({ files: same }));
 const body = freshText();
 const templated = Array.from({ length: 3000 }, (_, i) => ({ id: `tpl/${i}.md`, text: `${body}\nitem ${i}` }));
 const tpl = time('findLookalikes (3000 templated near-copies)', () => findLookalikes({ files: templated }));
 console.log('stats (templated):', JSON.stringify(tpl.stats));
+
+/** Time and pairs per band on a real folder, and the strongest "same content, other words" pairs. */
+function realFolder(dir: string): void {
+  const walk = (d: string): string[] =>
+    readdirSync(d).flatMap((name) => {
+      if (name.startsWith('.')) return [];
+      const p = join(d, name);
+      return statSync(p).isDirectory() ? walk(p) : [p];
+    });
+  const texts = walk(dir)
+    .map((p) => ({ id: relative(dir, p), text: readFileSync(p, 'utf8') }))
+    .filter((f) => !f.text.includes('\u0000'));
+  const runs: number[] = [];
+  let report = findLookalikes({ files: texts });
+  for (let r = 0; r < 3; r++) {
+    const t0 = performance.now();
+    report = findLookalikes({ files: texts });
+    runs.push(performance.now() - t0);
+  }
+  runs.sort((a, b) => a - b);
+  const rss = (process.memoryUsage().rss / 2 ** 20).toFixed(0);
+  console.log(
+    `overlaps of ${dir}: ${texts.length} files, ${(runs[1] / 1000).toFixed(1)} s median of 3 (${(runs[0] / 1000).toFixed(1)}–${(runs[2] / 1000).toFixed(1)} s), RSS ${rss} MB; ` +
+      `exact groups ${report.exactGroups.length}, near ${report.nearPairs.length}, partial ${report.partialPairs.length}, same content in other words ${report.retoldPairs.length}`,
+  );
+  for (const p of report.retoldPairs.slice(0, 15)) {
+    console.log(`  ${p.cosine!.toFixed(2)} margin ${p.gap!.toFixed(2)} J ${p.jaccard.toFixed(2)}  ${p.a}  ~  ${p.b}`);
+  }
+}

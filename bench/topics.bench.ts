@@ -81,10 +81,10 @@ function bench(name: string, files: { path: string; text: string }[], queries: s
   const byPath = new Map(files.map((f) => [f.path, f.text]));
   const vectors = new Float32Array(paths.length * k);
   paths.forEach((p, i) => vectors.set(index.vectorOf(p), i * k));
-  const look = time('look-alikes (exact, near-copies, paraphrases)', () =>
-    findLookalikes({ files: paths.map((p) => ({ id: p, text: byPath.get(p)! })), concepts: { vectors, dims: k } }),
+  const look = time('overlaps (exact, near, partial, same content in other words)', () =>
+    findLookalikes({ files: paths.map((p) => ({ id: p, text: byPath.get(p)! })) }),
   );
-  console.log(`  (${look.exactGroups.length} exact groups, ${look.nearGroups.length} near-copy groups, ${look.paraphraseGroups.length} paraphrase groups, ${look.stats.candidates} LSH candidates)`);
+  console.log(`  (${look.exactGroups.length} exact groups, ${look.nearPairs.length} near, ${look.partialPairs.length} partial, ${look.retoldPairs.length} retold pairs, ${look.stats.candidates} LSH candidates)`);
   const topics = time('topics, count chosen automatically', () => findTopics(index));
   console.log(`  (${topics.topics.length} topics, CUR error ratio ${topics.cur.errorRatio?.toFixed(3) ?? '–'}, largest "${topics.topics[0]?.terms.slice(0, 4).map((t) => t.term).join(', ')}")`);
   time('topics, 12 given', () => findTopics(index, { topics: Math.min(12, paths.length) }));

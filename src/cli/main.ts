@@ -4,6 +4,7 @@
  */
 import { parseArgs } from 'node:util';
 import { UndertoneError } from '../core/errors.js';
+import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
 import { exportCommand } from './commands/exportCommand.js';
@@ -25,7 +26,8 @@ usage:
   undertone nearby <folder> <file>          the files nearest in meaning to one file
   undertone eval   <folder> --queries q.jsonl --qrels qrels.tsv   MAP, P@10, nDCG@10
   undertone topics <folder>                 topics, each named by its words and example files
-  undertone lookalikes <folder>             exact copies, near-copies and same-content pairs
+  undertone lookalikes <folder>             overlaps: exact copies, near-copies, partial copies,
+                                            same content in other words (--top N per band, default 20)
   undertone export <folder> --format mtx --out DIR   weighted term-document matrix (Matrix Market),
                                             terms.txt and files.txt, for an SVD elsewhere
   undertone import-factors <folder> --u U.mtx --s S.txt --v V.mtx   load factors computed elsewhere
@@ -38,7 +40,7 @@ options:
   --json                     machine-readable output
   --cache-dir DIR            where saved indexes live (default: the user cache folder,
                              or $UNDERTONE_CACHE_DIR)
-  --max-file-size BYTES      skip larger files (default 1048576)
+  --max-file-size BYTES      skip larger files (default ${DEFAULT_MAX_FILE_BYTES})
   --include GLOB, --exclude GLOB   extra file filters (repeatable)
   --no-gitignore             index files that .gitignore excludes
   --rebuild                  (index) rebuild from scratch

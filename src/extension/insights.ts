@@ -7,7 +7,7 @@ import * as vscode from 'vscode';
 import { DismissedPairs } from './dismissedPairs.js';
 import type { IndexController } from './indexController.js';
 import { summaryOf } from './indexState.js';
-import { readLookalikeSettings, type LookalikeNode, type PairNode } from './lookalikeModel.js';
+import { readLookalikeSettings, type LookalikeNode, type MoreNode, type PairNode } from './lookalikeModel.js';
 import { LookalikesProvider } from './lookalikeView.js';
 import { ConceptMapPanel } from './mapPanel.js';
 import { TopicsProvider } from './topicsView.js';
@@ -37,7 +37,7 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
     lookalikes, topics, lookalikeView, topicsView,
     { dispose: () => map?.dispose() },
     vscode.workspace.onDidChangeConfiguration((e) => {
-      if (e.affectsConfiguration('undertone.lookalikeThreshold') || e.affectsConfiguration('undertone.paraphraseThreshold')) void lookalikes.refresh();
+      if (e.affectsConfiguration('undertone.lookalikeThreshold')) void lookalikes.refresh();
     }),
     reg('undertone.openMap', async () => {
       if (summaryOf(controller.state) === null) {
@@ -49,6 +49,9 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
       else map = new ConceptMapPanel(deps.extensionUri, controller, log, () => (map = undefined));
     }),
     reg('undertone.refreshLookalikes', () => lookalikes.refresh()),
+    reg('undertone.showMoreOverlaps', (node?: unknown) => {
+      if (node && typeof node === 'object' && (node as { type?: unknown }).type === 'more') lookalikes.showMore(node as MoreNode);
+    }),
     reg('undertone.refreshTopics', () => topics.refresh()),
     reg('undertone.compareLookalike', async (node?: unknown) => {
       if (!isPair(node)) return;
@@ -60,7 +63,7 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
     }),
     reg('undertone.restoreLookalikes', async () => {
       const n = await lookalikes.restoreHidden();
-      void vscode.window.showInformationMessage(n > 0 ? `${n} ${n === 1 ? 'pair' : 'pairs'} marked "Not a look-alike" ${n === 1 ? 'is' : 'are'} shown again.` : 'No look-alike pairs were hidden.');
+      void vscode.window.showInformationMessage(n > 0 ? `${n} dismissed ${n === 1 ? 'pair is' : 'pairs are'} shown again.` : 'No pairs were dismissed.');
     }),
   ];
 }

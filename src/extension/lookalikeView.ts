@@ -1,14 +1,17 @@
 /**
- * The "Look-alikes" view: exact copies, near-copies and "same content, different words" pairs,
- * found in the worker (node/worker/lookalikeTask.ts). Computed when the view is shown and again
- * after each rebuild (only while the view is visible; otherwise on its next showing); a deleted
- * file leaves at once. Pairs marked "Not a look-alike" stay hidden across sessions.
+ * The "Overlaps" view: exact copies, near-copies, partial copies and "same content, other words"
+ * pairs, found in the worker (node/worker/lookalikeTask.ts). Computed when the view is shown and
+ * again after each rebuild (only while the view is visible; otherwise on its next showing); a
+ * deleted file leaves at once, and when the index goes away (Delete Saved Index, a failed first
+ * build) the view empties at once and asks again when an index is back. Each section shows a page
+ * of its strongest entries and a "Show more" node. Dismissed pairs stay hidden across sessions.
  */
 import * as vscode from 'vscode';
 import type { LookalikesResult } from '../node/worker/insightProtocol.js';
 import type { DismissedPairs } from './dismissedPairs.js';
 import type { IndexController } from './indexController.js';
-import { lookalikeSummary, lookalikeTree, type LookalikeNode, type LookalikeSettings, type LookalikeTree, type PairNode } from './lookalikeModel.js';
+import type { LookalikeKind } from '../node/worker/insightProtocol.js';
+import { lookalikeSummary, lookalikeTree, SECTION_PAGE, type LookalikeNode, type LookalikeSettings, type LookalikeTree, type MoreNode, type PairNode } from './lookalikeModel.js';
 
 export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode>, vscode.Disposable {
   static readonly viewType = 'undertone.lookalikes';
@@ -19,6 +22,7 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
   private _stale = true;
   private _seq = 0;
   private _pending: Promise<void> = Promise.resolve();
+  private readonly _limits: Partial<Record<LookalikeKind, number>> = {};
   private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
   private readonly _disposables: vscode.Disposable[] = [this._onDidChangeTreeData];
   readonly onDidChangeTreeData = this._onDidChangeTreeData.event;
@@ -30,6 +34,9 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
     private readonly _log: (line: string) => void,
   ) {
     this._disposables.push(
+      _controller.onDidChangeState((state) => {
+        if (state.kind === 'none') this.clear(`No index: ${state.reason}`);
+      }),
       _controller.onDidChangeIndex((change) => {
         if (change.all) this.invalidate();
         else if (change.removed.length > 0 && this._result) {
@@ -51,7 +58,7 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
     const seq = ++this._seq;
     this._stale = false;
     this._pending = (async () => {
-      this.setMessage('Looking for look-alikes…');
+      this.setMessage('Looking for overlaps…');
       try {
         const settings = this._settings();
         const result = await this._controller.insight('lookalikes', settings);
@@ -63,12 +70,12 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
           this._stale = true;
           return;
         }
-        this._log(`Look-alikes: ${result.groups.length} groups among ${result.files} files in ${Math.round(result.ms)} ms.`);
+        this._log(`Overlaps: ${result.groups.length} groups and pairs among ${result.files} files in ${Math.round(result.ms)} ms.`);
         this.show(result);
       } catch (err) {
         if (seq !== this._seq) return;
         this._stale = true;
-        this.setMessage(`Look-alikes could not be found: ${err instanceof Error ? err.message : String(err)}`);
+        this.setMessage(`Overlaps could not be found: ${err instanceof Error ? err.message : String(err)}`);
       }
     })();
     return this._pending;
@@ -77,6 +84,12 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
   /** Resolves once the latest refresh has reached the view. */
   settled(): Promise<void> {
     return this._pending;
+  }
+
+  /** "Show more" of a section: one more page. */
+  showMore(node: MoreNode): void {
+    this._limits[node.kind] = (this._limits[node.kind] ?? SECTION_PAGE) + SECTION_PAGE;
+    if (this._result) this.show(this._result);
   }
 
   async hide(pair: PairNode): Promise<void> {
@@ -96,8 +109,18 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
       const item = new vscode.TreeItem(node.label, vscode.TreeItemCollapsibleState.Expanded);
       item.id = node.id;
       item.description = node.description;
-      item.iconPath = new vscode.ThemeIcon(node.kind === 'exact' ? 'copy' : node.kind === 'near' ? 'files' : 'symbol-text');
+      item.tooltip = node.tooltip;
+      item.iconPath = new vscode.ThemeIcon(node.kind === 'exact' ? 'copy' : node.kind === 'near' ? 'files' : node.kind === 'partial' ? 'split-horizontal' : 'comment-discussion');
       item.contextValue = 'undertone.lookalikeSection';
+      return item;
+    }
+    if (node.type === 'more') {
+      const item = new vscode.TreeItem(node.label, vscode.TreeItemCollapsibleState.None);
+      item.id = node.id;
+      item.description = `${node.hidden} not shown yet`;
+      item.iconPath = new vscode.ThemeIcon('ellipsis');
+      item.contextValue = 'undertone.lookalikeMore';
+      item.command = { command: 'undertone.showMoreOverlaps', title: 'Show More', arguments: [node] };
       return item;
     }
     if (node.type === 'group') {
@@ -130,6 +153,16 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
     for (const d of this._disposables.splice(0)) d.dispose();
   }
 
+  /** Empties the view (the index is gone); the next index brings a fresh search. */
+  private clear(message: string): void {
+    this._seq++;
+    this._result = undefined;
+    this._tree = { sections: [], hidden: 0, shown: 0 };
+    this._stale = true;
+    this.setMessage(message);
+    this.render();
+  }
+
   private invalidate(): void {
     this._stale = true;
     if (this._view?.visible) void this.refresh();
@@ -137,7 +170,7 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
 
   private show(result: LookalikesResult): void {
     this._result = result;
-    this._tree = lookalikeTree(result, this._dismissed.keys);
+    this._tree = lookalikeTree(result, this._dismissed.keys, this._limits);
     this.setMessage(lookalikeSummary(result, this._tree) || undefined);
     this.render();
   }

@@ -3,7 +3,7 @@
  * (demo/expectations.json: its exact copies); a brute-force exact Jaccard of 5-word shingles
  * written here for a planted near-copy made from real text (CRAN abstracts, test/fixtures/corpora).
  */
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -18,12 +18,15 @@ beforeAll(() => {
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
+type Pair = { a: string; b: string; jaccard: number; sharedLines: number; sharedWords: number; cosine?: number; margin?: number };
 type Report = {
   threshold: number;
-  exactCopies: { files: string[] }[];
-  nearCopies: { files: string[]; pairs: { a: string; b: string; jaccard: number; sharedLines: number }[] }[];
-  sameContentDifferentWords: { files: string[] }[];
-  stats: { files: number; emptyFiles: number; skippedShort: number; unreadable: number };
+  labels: Record<string, string>;
+  exact: { files: string[]; words: number }[];
+  near: Pair[];
+  partial: Pair[];
+  retold: Pair[];
+  stats: { files: number; emptyFiles: number; skippedShort: number; unreadable: number; sameFile: number };
 };
 
 const demoRoot = join(REPO_ROOT, 'demo', 'workspace');
@@ -35,7 +38,7 @@ describe('lookalikes on the demo', () => {
     expect(r.code).toBe(0);
     const report = JSON.parse(r.out) as Report;
     const key = JSON.parse(readFileSync(demoKey, 'utf8')) as { exactCopies: string[][] };
-    const found = report.exactCopies.map((g) => [...g.files].sort().join(' | ')).sort();
+    const found = report.exact.map((g) => [...g.files].sort().join(' | ')).sort();
     expect(found).toEqual(key.exactCopies.map((g) => [...g].sort().join(' | ')).sort());
     expect(report.stats.unreadable).toBe(0);
   });
@@ -77,41 +80,49 @@ describe('lookalikes on a folder of real abstracts', () => {
     writeFileSync(join(root, 'abstract-0-edited.md'), edited);
     writeFileSync(join(root, 'empty.md'), '');
     writeFileSync(join(root, 'short.md'), 'boundary layer flow');
+    // Half of the abstract kept, the rest from another one: a partial copy.
+    const half = original.split(' ');
+    writeFileSync(join(root, 'abstract-0-half.md'), [...half.slice(0, Math.floor(half.length / 2)), ...docs[1].text.split(' ').slice(0, 60)].join(' '));
+    symlinkSync(join(root, 'abstract-2.md'), join(root, 'abstract-2-link.md'));
   });
 
-  it('lists exact copies, near-copies with their Jaccard, and notes empty and short files', async () => {
+  it('lists exact copies, near-copies and partial copies with their Jaccard, never a link as a copy, and notes empty and short files', async () => {
     const r = await run('lookalikes', root, '--json');
     expect(r.code).toBe(0);
     const report = JSON.parse(r.out) as Report;
-    expect(report.exactCopies.map((g) => [...g.files].sort())).toContainEqual(['abstract-0-copy.md', 'abstract-0.md']);
-    const near = report.nearCopies.find((g) => g.files.includes('abstract-0-edited.md'))!;
+    expect(report.labels).toEqual({ exact: 'Exact copies', near: 'Near-copies', partial: 'Partial copies', retold: 'Same content, other words' });
+    expect(report.exact.map((g) => [...g.files].sort())).toEqual([['abstract-0-copy.md', 'abstract-0.md']]);
+    const near = report.near.find((p) => p.a === 'abstract-0-edited.md' || p.b === 'abstract-0-edited.md')!;
     expect(near).toBeDefined();
-    expect(near.files).toEqual(expect.arrayContaining(['abstract-0.md', 'abstract-0-copy.md', 'abstract-0-edited.md']));
-    const pair = near.pairs[0];
-    expect(pair.jaccard).toBeCloseTo(jaccard5(original, edited), 3);
+    expect(near.jaccard).toBeCloseTo(jaccard5(original, edited), 3);
+    const partial = report.partial.find((p) => p.a === 'abstract-0-half.md' || p.b === 'abstract-0-half.md')!;
+    expect(partial).toBeDefined();
+    expect(partial.jaccard).toBeGreaterThanOrEqual(0.3);
+    expect(partial.jaccard).toBeLessThan(0.8);
     expect(report.stats.emptyFiles).toBe(1);
     expect(report.stats.skippedShort).toBe(1);
     const table = await run('lookalikes', root);
     expect(table.out).toMatch(/Exact copies: 1 group/);
-    expect(table.out).toMatch(/Near-copies \(shingle Jaccard ≥ 0\.8\): 1 group/);
+    expect(table.out).toMatch(/Near-copies \(shingle Jaccard ≥ 0\.8\): 1 pair/);
+    expect(table.out).toMatch(/Partial copies \(shingle Jaccard 0\.3–0\.8\): \d+ pair/);
     expect(table.out).toMatch(/1 empty file ignored; 1 file too short for near-copy search/);
   });
 
   it('--threshold changes what counts as a near-copy, and a bad one is refused', async () => {
     const strict = JSON.parse((await run('lookalikes', root, '--json', '--threshold', '0.999')).out) as Report;
     expect(strict.threshold).toBe(0.999);
-    expect(strict.nearCopies.some((g) => g.files.includes('abstract-0-edited.md'))).toBe(false);
+    expect(strict.near.some((p) => p.a === 'abstract-0-edited.md' || p.b === 'abstract-0-edited.md')).toBe(false);
     const bad = await run('lookalikes', root, '--threshold', '1.5');
     expect(bad.code).toBe(1);
     expect(bad.err).toMatch(/--threshold needs a number above 0 and at most 1/);
   });
 
-  it('a folder without look-alikes says so', async () => {
+  it('a folder without overlaps says so', async () => {
     const plain = join(dir, 'plain');
     mkdirSync(plain, { recursive: true });
     cran.docs.slice(40, 46).forEach((d, i) => writeFileSync(join(plain, `n${i}.md`), d.text));
     const r = await run('lookalikes', plain);
     expect(r.code).toBe(0);
-    expect(r.out).toMatch(/^No look-alikes among 6 files\./);
+    expect(r.out).toMatch(/^No overlaps among 6 files\./);
   });
 });

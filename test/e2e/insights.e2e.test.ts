@@ -1,4 +1,4 @@
-// The Look-alikes and Topics views, the "why" tooltips and the concept map of the packaged
+// The Overlaps and Topics views, the "why" tooltips and the concept map of the packaged
 // extension, in a real editor (code-server) and browser (Chromium), driven through the UI as a
 // person would. Expectations come from demo/expectations.json, the answer key written with the
 // demo workspace (its planted exact copies and topics), not from the code under test.
@@ -135,8 +135,8 @@ describe('Undertone insights in a real editor', () => {
     if (root) rmSync(root, { recursive: true, force: true });
   });
 
-  it('lists each planted exact copy in the Look-alikes view', async () => {
-    await editor!.runCommand('Undertone: Focus on Look-alikes View');
+  it('lists each planted exact copy in the Overlaps view', async () => {
+    await editor!.runCommand('Undertone: Focus on Overlaps View');
     await collapse('Nearby');
     await collapse('Search Results');
     // A pair is labelled by the path endings that tell its files apart, each an ending of one planted path.
@@ -144,20 +144,20 @@ describe('Undertone insights in a real editor', () => {
       const [x, y] = r.label.split(' ↔ ');
       return y !== undefined && ((a.endsWith(x) && b.endsWith(y)) || (a.endsWith(y) && b.endsWith(x)));
     };
-    const rows = await waitForRows('Look-alikes', (r) => expectations.exactCopies.every((pair) => r.some((x) => isPair(x, pair))), 'the planted exact copies');
+    const rows = await waitForRows('Overlaps', (r) => expectations.exactCopies.every((pair) => r.some((x) => isPair(x, pair))), 'the planted exact copies');
     expect(labels(rows)).toEqual(expect.arrayContaining(['Exact copies', 'Near-copies']));
     for (const pair of expectations.exactCopies) {
       const found = rows.find((r) => isPair(r, pair))!;
-      expect(found.description).toMatch(/^1\.00 · \d+ shared lines?$/);
+      expect(found.description).toMatch(/^identical · \d+ of \d+ (lines?|words?) shared$/);
     }
     await editor!.screenshot('insights-1-lookalikes');
   });
 
   it('opens the diff editor for a pair with its "Compare" action', async () => {
-    const rows = await snapshot('Look-alikes');
+    const rows = await snapshot('Overlaps');
     const [a] = expectations.exactCopies[0];
     const label = rows.find((r) => r.label.includes(' ↔ ') && a.endsWith(r.label.split(' ↔ ')[0]))!.label;
-    await inlineAction(row('Look-alikes', label), 'Compare');
+    await inlineAction(row('Overlaps', label), 'Compare');
     const diff = editor!.page.locator('.editor-instance .monaco-diff-editor').first();
     await diff.waitFor({ state: 'visible', timeout: 30_000 });
     await activeTab(label).waitFor({ state: 'visible', timeout: 30_000 });
@@ -167,18 +167,18 @@ describe('Undertone insights in a real editor', () => {
     await editor!.screenshot('insights-2-compare');
   });
 
-  it('hides a pair marked "Not a look-alike", and shows it again on request', async () => {
-    const rows = await snapshot('Look-alikes');
+  it('hides a dismissed pair, and shows it again on request', async () => {
+    const rows = await snapshot('Overlaps');
     const label = rows.filter((r) => r.label.includes(' ↔ '))[0].label;
-    await inlineAction(row('Look-alikes', label), 'Not a Look-alike');
-    await waitForRows('Look-alikes', (r) => !labels(r).includes(label), `${label} to be hidden`);
-    await editor!.runCommand('Undertone: Show Hidden Look-alikes Again');
-    await waitForRows('Look-alikes', (r) => labels(r).includes(label), `${label} to be shown again`);
+    await inlineAction(row('Overlaps', label), 'Dismiss This Pair');
+    await waitForRows('Overlaps', (r) => !labels(r).includes(label), `${label} to be hidden`);
+    await editor!.runCommand('Undertone: Show Dismissed Pairs Again');
+    await waitForRows('Overlaps', (r) => labels(r).includes(label), `${label} to be shown again`);
   });
 
   it('shows the topics with their words, and opens a topic’s file', async () => {
     await editor!.runCommand('Undertone: Focus on Topics View');
-    await collapse('Look-alikes');
+    await collapse('Overlaps');
     const rows = await waitForRows('Topics', (r) => r.filter((x) => /^Topic \d+ \(\d+\)$/.test(x.label)).length >= 3, 'at least three topics');
     const topics = rows.filter((x) => /^Topic \d+/.test(x.label));
     // Each planted topic's keywords (answer key) should name some topic: count those whose words show.

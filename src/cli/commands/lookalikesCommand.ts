@@ -1,41 +1,61 @@
 /**
- * `undertone lookalikes <folder>`: exact copies, near-copies (shingle Jaccard ≥ --threshold) and
- * "same content, different words" pairs (concept cosine) among the indexed files
- * (core/lookalike). Shingles need the text, so every indexed file is read again here.
+ * `undertone lookalikes <folder>`: overlaps among the indexed files in four bands (core/lookalike):
+ * "Exact copies", "Near-copies" (shingle Jaccard ≥ --threshold), "Partial copies" (Jaccard ≥ 0.3)
+ * and "Same content, other words". Shingles and terms need the text, so every indexed file is read
+ * again here. Paths that resolve to one real file (symbolic links) are one file, listed once.
+ * The table shows --top pairs per band (default 20), strongest first; --json gives them all.
  */
+import { realpath } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { InvalidInputError } from '../../core/errors.js';
-import { DEFAULT_LOOKALIKE_OPTIONS, findLookalikes, type LookalikeGroup, type LookalikeReport } from '../../core/lookalike/index.js';
-import { readIndexableText } from '../../node/scan.js';
+import {
+  BAND_TITLES,
+  DEFAULT_LOOKALIKE_OPTIONS,
+  describeShared,
+  findLookalikes,
+  type LookalikePair,
+  type LookalikeReport,
+} from '../../core/lookalike/index.js';
+import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
 import { round } from './askCommand.js';
 
+/** Pairs per band in the table unless --top says otherwise. */
+export const DEFAULT_TOP_PER_BAND = 20;
+
 export async function lookalikesCommand(folder: string, flags: Flags, io: Io): Promise<number> {
   const threshold = parseThreshold(flags.threshold);
+  const top = positiveInt(flags.top, 'top') ?? DEFAULT_TOP_PER_BAND;
   const { index } = await ensureIndex(folder, flags, io);
   const root = resolve(folder);
-  const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? 1_048_576;
+  const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? DEFAULT_MAX_FILE_BYTES;
   const files: { id: string; text: string }[] = [];
-  const vectors: Float32Array[] = [];
+  const real = new Set<string>();
   let unreadable = 0;
+  let sameFile = 0;
   for (const path of index.paths()) {
-    const got = await readIndexableText(join(root, path), maxBytes).catch(() => null);
+    const full = join(root, path);
+    const target = await realpath(full).catch(() => full);
+    if (real.has(target)) {
+      sameFile++;
+      continue;
+    }
+    real.add(target);
+    const got = await readIndexableText(full, maxBytes).catch(() => null);
     if (got?.kind !== 'text') {
       unreadable++;
       continue;
     }
     files.push({ id: path, text: got.text });
-    vectors.push(index.vectorOf(path));
   }
-  const concepts = new Float32Array(files.length * index.k);
-  vectors.forEach((v, i) => concepts.set(v, i * index.k));
-  const report = findLookalikes({ files, concepts: { vectors: concepts, dims: index.k } }, { threshold });
+  const report = findLookalikes({ files }, { threshold });
+  const extra = { unreadable, sameFile };
   if (flags.json) {
-    io.out(JSON.stringify(toJson(report, threshold, unreadable)));
+    io.out(JSON.stringify(toJson(report, threshold, extra)));
     return 0;
   }
-  for (const line of describe(report, threshold, unreadable)) io.out(line);
+  for (const line of describe(report, threshold, top, extra)) io.out(line);
   return 0;
 }
 
@@ -43,51 +63,78 @@ function parseThreshold(value: unknown): number {
   if (value === undefined) return DEFAULT_LOOKALIKE_OPTIONS.threshold;
   const t = Number(value);
   if (!(t > 0 && t <= 1)) throw new InvalidInputError(`--threshold needs a number above 0 and at most 1 (a Jaccard similarity), got "${String(value)}"`);
+  if (t < DEFAULT_LOOKALIKE_OPTIONS.partialThreshold) {
+    throw new InvalidInputError(`--threshold must be at least ${DEFAULT_LOOKALIKE_OPTIONS.partialThreshold} (where partial copies start), got "${String(value)}"`);
+  }
   return t;
 }
 
-function toJson(r: LookalikeReport, threshold: number, unreadable: number): unknown {
-  const group = (g: LookalikeGroup) => ({
-    files: g.files,
-    pairs: g.pairs.map((p) => ({ a: p.a, b: p.b, similarity: round(p.similarity), jaccard: round(p.jaccard), sharedLines: p.sharedLines })),
+interface Extra {
+  readonly unreadable: number;
+  readonly sameFile: number;
+}
+
+function toJson(r: LookalikeReport, threshold: number, extra: Extra): unknown {
+  const pair = (p: LookalikePair) => ({
+    a: p.a,
+    b: p.b,
+    jaccard: round(p.jaccard),
+    sharedLines: p.sharedLines,
+    lines: p.lines,
+    sharedWords: p.sharedWords,
+    words: p.words,
+    ...(p.cosine === undefined ? {} : { cosine: round(p.cosine), margin: round(p.gap ?? 0) }),
   });
   return {
     threshold,
-    exactCopies: r.exactGroups.map((g) => ({ files: g.files, sharedLines: g.sharedLines })),
-    nearCopies: r.nearGroups.map(group),
-    sameContentDifferentWords: r.paraphraseGroups.map(group),
-    stats: { ...r.stats, unreadable },
+    partialThreshold: DEFAULT_LOOKALIKE_OPTIONS.partialThreshold,
+    labels: BAND_TITLES,
+    exact: r.exactGroups.map((g) => ({ files: g.files, sharedLines: g.sharedLines, words: g.words })),
+    near: r.nearPairs.map(pair),
+    partial: r.partialPairs.map(pair),
+    retold: r.retoldPairs.map(pair),
+    stats: { ...r.stats, ...extra },
   };
 }
 
-function describe(r: LookalikeReport, threshold: number, unreadable: number): string[] {
+function describe(r: LookalikeReport, threshold: number, top: number, extra: Extra): string[] {
   const s = r.stats;
   const lines: string[] = [];
-  const none = r.exactGroups.length + r.nearGroups.length + r.paraphraseGroups.length === 0;
-  lines.push(none ? `No look-alikes among ${s.files} files.` : `Look-alikes among ${s.files} files:`);
+  const none = r.exactGroups.length + r.nearPairs.length + r.partialPairs.length + r.retoldPairs.length === 0;
+  lines.push(none ? `No overlaps among ${s.files} files.` : `Overlaps among ${s.files} files:`);
+  const more = (n: number, shown: number): void => {
+    if (n > shown) lines.push(`     … and ${n - shown} more (--top ${n} or --json lists them all)`);
+  };
   if (r.exactGroups.length > 0) {
-    lines.push('', `Exact copies: ${r.exactGroups.length} group${r.exactGroups.length === 1 ? '' : 's'}`);
-    r.exactGroups.forEach((g, i) => {
-      lines.push(`  ${i + 1}. ${g.files.length} identical files, ${g.sharedLines} lines each`);
+    lines.push('', `${BAND_TITLES.exact}: ${r.exactGroups.length} group${r.exactGroups.length === 1 ? '' : 's'}, longest text first`);
+    r.exactGroups.slice(0, top).forEach((g, i) => {
+      lines.push(`  ${i + 1}. ${g.files.length} identical files, ${g.words} word${g.words === 1 ? '' : 's'} in ${g.sharedLines} line${g.sharedLines === 1 ? '' : 's'} each`);
       for (const f of g.files) lines.push(`     ${f}`);
     });
+    more(r.exactGroups.length, top);
   }
-  const section = (title: string, groups: readonly LookalikeGroup[], withCosine: boolean): void => {
-    if (groups.length === 0) return;
-    lines.push('', `${title}: ${groups.length} group${groups.length === 1 ? '' : 's'}`);
-    groups.forEach((g, i) => {
-      lines.push(`  ${i + 1}. ${g.files.length} files: ${g.files.join(', ')}`);
-      const rows = g.pairs.map((p) => [...(withCosine ? [p.similarity.toFixed(3)] : []), p.jaccard.toFixed(3), String(p.sharedLines), p.a, p.b]);
-      const header = [...(withCosine ? ['cosine'] : []), 'jaccard', 'shared lines', 'file', 'file'];
-      for (const line of formatTable(header, rows, header.map((h) => h !== 'file'))) lines.push(`     ${line}`);
-    });
+  const section = (title: string, pairs: readonly LookalikePair[], retold: boolean): void => {
+    if (pairs.length === 0) return;
+    lines.push('', `${title}: ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`);
+    const header = [...(retold ? ['cosine', 'margin'] : []), 'jaccard', 'shared', 'file', 'file'];
+    const rows = pairs.slice(0, top).map((p) => [
+      ...(retold ? [(p.cosine ?? 0).toFixed(2), (p.gap ?? 0).toFixed(2)] : []),
+      p.jaccard.toFixed(2),
+      describeShared(p),
+      p.a,
+      p.b,
+    ]);
+    for (const line of formatTable(header, rows, header.map((h) => h !== 'file' && h !== 'shared'))) lines.push(`  ${line}`);
+    more(pairs.length, top);
   };
-  section(`Near-copies (shingle Jaccard ≥ ${threshold})`, r.nearGroups, false);
-  section('Same content, different words (concept cosine high, shingles differ)', r.paraphraseGroups, true);
+  section(`${BAND_TITLES.near} (shingle Jaccard ≥ ${threshold})`, r.nearPairs, false);
+  section(`${BAND_TITLES.partial} (shingle Jaccard ${DEFAULT_LOOKALIKE_OPTIONS.partialThreshold}–${threshold})`, r.partialPairs, false);
+  section(`${BAND_TITLES.retold} (each file's clear nearest neighbour by its words; little text shared)`, r.retoldPairs, true);
   const notes: string[] = [];
+  if (extra.sameFile > 0) notes.push(`${extra.sameFile} path${extra.sameFile === 1 ? ' is a link' : 's are links'} to a file already listed (the same file, not a copy)`);
   if (s.emptyFiles > 0) notes.push(`${s.emptyFiles} empty file${s.emptyFiles === 1 ? '' : 's'} ignored`);
   if (s.skippedShort > 0) notes.push(`${s.skippedShort} file${s.skippedShort === 1 ? '' : 's'} too short for near-copy search (fewer words than one shingle)`);
-  if (unreadable > 0) notes.push(`${unreadable} indexed file${unreadable === 1 ? '' : 's'} could not be read again`);
+  if (extra.unreadable > 0) notes.push(`${extra.unreadable} indexed file${extra.unreadable === 1 ? '' : 's'} could not be read again`);
   if (s.cappedBuckets > 0) notes.push(`${s.cappedBuckets} very large candidate bucket${s.cappedBuckets === 1 ? ' was' : 's were'} paired by neighbourhood only`);
   if (notes.length > 0) lines.push('', `Note: ${notes.join('; ')}.`);
   return lines;

@@ -1,29 +1,32 @@
 /**
- * Look-alike files: exact copies, near-copies and paraphrases (shingles and MinHash after Broder 1997;
- * LSH banding after Leskovec, Rajaraman & Ullman, Mining of Massive Datasets, ch. 3).
+ * Overlaps between files in four bands: exact copies, near-copies, partial copies and "same
+ * content, other words" (shingles and MinHash after Broder 1997; LSH banding after Leskovec,
+ * Rajaraman & Ullman, Mining of Massive Datasets, ch. 3; TF-IDF after Salton & Buckley 1988).
  *
  * 1. Exact copies: files grouped by content hash of the normalised text (contentHash.ts). Blank
  *    files are only counted. One representative per distinct text goes on, so a thousand
  *    identical files cost one file's work below and never crowd an LSH bucket.
  * 2. Near-copies: token w-shingles (shingles.ts) → K MinHash values (minhash.ts, Broder 1997) →
- *    LSH banding, b bands × r rows (banding.ts) → every candidate verified by exact Jaccard on the
- *    shingle sets → union-find groups of pairs with J ≥ threshold. Texts with fewer than w tokens
- *    are counted in stats.skippedShort and skipped. No all-pairs step: work is O(n·K) plus the
- *    candidates, which banding keeps near-linear (giant buckets are capped, see banding.ts).
- * 3. Paraphrases (only with concept vectors): pairs with cosine ≥ paraphraseThreshold whose exact
- *    Jaccard is below threshold and that are not already in one near-copy group (paraphrase.ts).
- * Shared line counts come from the texts (sharedLines.ts). Same input and seed → same report.
+ *    LSH banding, b bands × r rows (banding.ts); plus each file's nearest neighbours in the full
+ *    term space (termSpace.ts), which catch partial copies LSH at r = 8 would miss. Every
+ *    candidate is verified by exact Jaccard on the shingle sets: J ≥ threshold → near-copy,
+ *    partialThreshold ≤ J < threshold → partial copy. Texts with fewer than w tokens are counted
+ *    in stats.skippedShort and skipped.
+ * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
+ *    file's other neighbours, little shared text).
+ * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
+ * (sharedLines.ts). Same input and seed → same report.
  */
 import { InvalidInputError } from '../errors.js';
 import { bandCandidates } from './banding.js';
 import { contentHash, isBlankText } from './contentHash.js';
-import { createMinHasher } from './minhash.js';
+import { createMinHasher, estimateJaccard } from './minhash.js';
 import { resolveLookalikeOptions, type LookalikeOptions } from './options.js';
-import { findHighCosinePairs } from './paraphrase.js';
+import { boilerplateLines, findRetoldPairs, withoutBoilerplate } from './retold.js';
+import { buildTermSpace, termNeighbours } from './termSpace.js';
 import { lineCounts, nonBlankLineCount, sharedLineCount } from './sharedLines.js';
-import { jaccardSorted, shingleSet } from './shingles.js';
-import type { ExactGroup, LookalikeFile, LookalikeGroup, LookalikeInput, LookalikePair, LookalikeReport } from './types.js';
-import { UnionFind } from './unionFind.js';
+import { jaccardSorted, shingleSet, shingleTokens } from './shingles.js';
+import type { ExactGroup, LookalikeFile, LookalikeInput, LookalikePair, LookalikeReport } from './types.js';
 
 export function findLookalikes(input: LookalikeInput, options: Partial<LookalikeOptions> = {}): LookalikeReport {
   const o = resolveLookalikeOptions(options);
@@ -43,6 +46,16 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     if (list) list.push(i);
     else byHash.set(h, [i]);
   }
+  const words = new Map<number, Map<string, number>>();
+  const wordsOf = (i: number): Map<string, number> => {
+    let c = words.get(i);
+    if (!c) {
+      c = new Map();
+      for (const w of shingleTokens(files[i].text)) c.set(w, (c.get(w) ?? 0) + 1);
+      words.set(i, c);
+    }
+    return c;
+  };
   const lines = new Map<number, Map<string, number>>();
   const linesOf = (i: number): Map<string, number> => {
     let c = lines.get(i);
@@ -60,9 +73,11 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     if (members.length < 2) continue;
     copiesOf.set(members[0], members);
     const sharedLines = nonBlankLineCount(lineCounts(files[members[0]].text));
-    exactGroups.push({ files: members.map((i) => files[i].id), similarity: 1, sharedLines, contentHash: hash });
+    const words = shingleTokens(files[members[0]].text).length;
+    exactGroups.push({ files: members.map((i) => files[i].id), similarity: 1, sharedLines, words, contentHash: hash });
   }
-  exactGroups.sort((x, y) => y.files.length - x.files.length);
+  // Longest text first: one-line stubs ("This file has moved") come last.
+  exactGroups.sort((x, y) => y.words - x.words || y.files.length - x.files.length);
 
   // 2. Shingles and MinHash signatures of the representatives.
   const shingled: number[] = [];
@@ -83,76 +98,97 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   const signatures = new Uint32Array(m * k);
   for (let t = 0; t < m; t++) hasher.signature(sets[t], signatures, t * k);
 
-  // 3. LSH candidates, exact Jaccard check, union-find.
-  const cand = bandCandidates(signatures, m, k, { bands: o.bands, rows: k / o.bands, maxBucketSize: o.maxBucketSize });
-  const near = new UnionFind(m);
-  const edges: Edge[] = [];
-  for (let c = 0; c < cand.count; c++) {
-    const a = cand.left[c];
-    const b = cand.right[c];
-    const j = jaccardSorted(sets[a], sets[b]);
-    if (j >= o.threshold) {
-      edges.push({ a, b, similarity: j, jaccard: j });
-      near.union(a, b);
-    }
-  }
-  const pairOf = (e: Edge): LookalikePair => {
-    const fa = shingled[e.a];
-    const fb = shingled[e.b];
-    const sharedLines = sharedLineCount(linesOf(fa), linesOf(fb));
-    return { a: files[fa].id, b: files[fb].id, similarity: e.similarity, jaccard: e.jaccard, sharedLines };
-  };
-  const groupsOf = (uf: UnionFind, list: Edge[]): LookalikeGroup[] => {
-    const edgesByRoot = new Map<number, Edge[]>();
-    for (const e of list) {
-      const root = uf.find(e.a);
-      const bucket = edgesByRoot.get(root);
-      if (bucket) bucket.push(e);
-      else edgesByRoot.set(root, [e]);
-    }
-    return uf.components().map((component) => {
-      const members = component.flatMap((t) => copiesOf.get(shingled[t]) ?? [shingled[t]]).sort((x, y) => x - y);
-      const pairs = (edgesByRoot.get(uf.find(component[0])) ?? []).sort((x, y) => x.a - y.a || x.b - y.b);
-      return { files: members.map((i) => files[i].id), pairs: pairs.map(pairOf) };
-    });
-  };
-  const nearGroups = bySize(groupsOf(near, edges));
+  // 3. Full term space of the representatives (boilerplate lines left out) and neighbours there.
+  const boilerplate = boilerplateLines(
+    shingled.map((f) => files[f].text),
+    o.boilerplateFiles,
+  );
+  const space = buildTermSpace(shingled.map((f) => withoutBoilerplate(files[f].text, boilerplate)));
+  const nb = termNeighbours(space, {
+    k: o.neighbours,
+    candidates: Math.max(50, 5 * o.neighbours),
+    maxDf: Math.max(100, Math.floor(0.05 * m)),
+  });
 
-  // 4. Paraphrases among the shingled representatives.
-  let paraphraseGroups: LookalikeGroup[] = [];
-  let paraphraseMode: 'none' | 'all-pairs' | 'simhash' = 'none';
-  let paraphraseCandidates = 0;
-  if (input.concepts) {
-    const { vectors, dims } = input.concepts;
-    const found = findHighCosinePairs(vectors, dims, shingled, {
-      threshold: o.paraphraseThreshold,
-      allPairsLimit: o.paraphraseAllPairsLimit,
-      simhashBands: o.simhashBands,
-      simhashBitsPerBand: o.simhashBitsPerBand,
-      maxBucketSize: o.maxBucketSize,
-      seed: o.seed ^ 0x5bd1e995,
-    });
-    paraphraseMode = found.mode;
-    paraphraseCandidates = found.candidates;
-    const localOf = new Map<number, number>(shingled.map((f, t) => [f, t]));
-    const para = new UnionFind(m);
-    const paraEdges: Edge[] = [];
-    for (let p = 0; p < found.left.length; p++) {
-      const a = localOf.get(found.left[p]) as number;
-      const b = localOf.get(found.right[p]) as number;
-      if (near.find(a) === near.find(b)) continue;
-      const j = jaccardSorted(sets[a], sets[b]);
-      if (j >= o.threshold) continue;
-      paraEdges.push({ a, b, similarity: found.cosine[p], jaccard: j });
-      para.union(a, b);
+  // 4. Candidates (LSH ∪ term-space neighbours), each verified by exact Jaccard.
+  const cand = bandCandidates(signatures, m, k, { bands: o.bands, rows: k / o.bands, maxBucketSize: o.maxBucketSize });
+  const seen = new Set<number>();
+  const pairIds: [number, number][] = [];
+  const addCandidate = (x: number, y: number): void => {
+    const [a, b] = x < y ? [x, y] : [y, x];
+    const key = a * m + b;
+    if (a === b || seen.has(key)) return;
+    seen.add(key);
+    pairIds.push([a, b]);
+  };
+  for (let c = 0; c < cand.count; c++) addCandidate(cand.left[c], cand.right[c]);
+  let neighbourCandidates = 0;
+  for (let t = 0; t < m; t++) {
+    for (let r = 0; r < o.neighbours; r++) {
+      const d = nb.index[t * o.neighbours + r];
+      if (d < 0) break;
+      const before = pairIds.length;
+      addCandidate(t, d);
+      neighbourCandidates += pairIds.length - before;
     }
-    paraphraseGroups = bySize(groupsOf(para, paraEdges));
   }
+  const jaccardCache = new Map<number, number>();
+  const jac = (x: number, y: number): number => {
+    const [a, b] = x < y ? [x, y] : [y, x];
+    const key = a * m + b;
+    let j = jaccardCache.get(key);
+    if (j === undefined) {
+      j = jaccardSorted(sets[a], sets[b]);
+      jaccardCache.set(key, j);
+    }
+    return j;
+  };
+  const nearPairs: LookalikePair[] = [];
+  const partialPairs: LookalikePair[] = [];
+  let verified = 0;
+  for (const [a, b] of pairIds) {
+    const j = jac(a, b);
+    if (j >= o.threshold) {
+      verified++;
+      nearPairs.push(pairOf('near', a, b, j));
+    } else if (j >= o.partialThreshold) partialPairs.push(pairOf('partial', a, b, j));
+  }
+  nearPairs.sort(bySimilarity);
+  partialPairs.sort(bySimilarity);
+
+  // 5. Same content, other words (retold.ts): term-space neighbour lists with copies collapsed.
+  const estimate = (x: number, y: number): number => estimateJaccard(signatures, signatures, k, x * k, y * k);
+  const collapse = (list: (t: number) => { index: ArrayLike<number>; cosine: ArrayLike<number> }) => {
+    const neighbours: number[][] = [];
+    const cosines: number[][] = [];
+    for (let t = 0; t < m; t++) {
+      const { index, cosine } = list(t);
+      const kept: number[] = [];
+      const cos: number[] = [];
+      for (let r = 0; r < index.length && kept.length < 3; r++) {
+        const d = index[r];
+        if (d < 0) break;
+        if (estimate(t, d) >= o.partialThreshold) continue;
+        if (kept.some((e) => estimate(e, d) >= o.partialThreshold)) continue;
+        kept.push(d);
+        cos.push(cosine[r]);
+      }
+      neighbours.push(kept);
+      cosines.push(cos);
+    }
+    return { neighbours, cosines };
+  };
+  const K = o.neighbours;
+  const termLists = collapse((t) => ({ index: nb.index.subarray(t * K, t * K + K), cosine: nb.cosine.subarray(t * K, t * K + K) }));
+  const rule = { minCosine: o.retoldMinCosine, minGap: o.retoldMinGap };
+  const retold = findRetoldPairs({ ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard }, rule);
+  const retoldPairs = retold.map((p) => ({ ...pairOf('retold', p.a, p.b, jac(p.a, p.b)), similarity: p.cosine, cosine: p.cosine, gap: p.gap }));
 
   return {
     exactGroups,
-    nearGroups,
-    paraphraseGroups,
+    nearPairs,
+    partialPairs,
+    retoldPairs,
     stats: {
       files: n,
       emptyFiles,
@@ -160,24 +196,37 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       shingled: m,
       skippedShort,
       candidates: cand.count,
-      verified: edges.length,
+      verified,
       cappedBuckets: cand.cappedBuckets,
-      paraphraseMode,
-      paraphraseCandidates,
+      boilerplateLines: boilerplate.size,
+      neighbourCandidates,
     },
   };
+
+  function pairOf(band: LookalikePair['band'], x: number, y: number, j: number): LookalikePair {
+    const fa = shingled[x];
+    const fb = shingled[y];
+    const la = linesOf(fa);
+    const lb = linesOf(fb);
+    const wa = wordsOf(fa);
+    const wb = wordsOf(fb);
+    return {
+      band,
+      a: files[fa].id,
+      b: files[fb].id,
+      similarity: j,
+      jaccard: j,
+      sharedLines: sharedLineCount(la, lb),
+      lines: [nonBlankLineCount(la), nonBlankLineCount(lb)],
+      sharedWords: sharedLineCount(wa, wb),
+      words: [nonBlankLineCount(wa), nonBlankLineCount(wb)],
+    };
+  }
 }
 
-interface Edge {
-  readonly a: number;
-  readonly b: number;
-  readonly similarity: number;
-  readonly jaccard: number;
-}
-
-/** Largest group first; stable, so ties keep first-file order. */
-function bySize(groups: LookalikeGroup[]): LookalikeGroup[] {
-  return groups.sort((x, y) => y.files.length - x.files.length);
+/** Highest similarity first; ties by file ids. */
+function bySimilarity(x: LookalikePair, y: LookalikePair): number {
+  return y.similarity - x.similarity || (x.a < y.a ? -1 : x.a > y.a ? 1 : x.b < y.b ? -1 : x.b > y.b ? 1 : 0);
 }
 
 function checkInput(input: LookalikeInput): readonly LookalikeFile[] {
@@ -190,14 +239,5 @@ function checkInput(input: LookalikeInput): readonly LookalikeFile[] {
     if (ids.has(f.id)) throw new InvalidInputError(`file id "${f.id}" appears more than once`);
     ids.add(f.id);
   });
-  if (input.concepts) {
-    const { vectors, dims } = input.concepts;
-    if (!Number.isInteger(dims) || dims < 1) throw new InvalidInputError(`concept vectors need dims ≥ 1, got ${dims}`);
-    if (!(vectors instanceof Float32Array) || vectors.length !== input.files.length * dims) {
-      throw new InvalidInputError(
-        `concept vectors must be a Float32Array of ${input.files.length}×${dims} numbers (one row per file), got ${vectors?.length}`,
-      );
-    }
-  }
   return input.files;
 }

@@ -15,19 +15,19 @@ export interface LookalikeOptions {
   readonly threshold: number;
   /** Largest LSH bucket paired all-against-all; bigger ones use sorted neighbourhood (banding.ts). @default 100 (common practice, our choice) */
   readonly maxBucketSize: number;
-  /** Cosine of concept vectors at or above which two files with low shingle overlap are paraphrases. @default 0.95 (our choice) */
-  readonly paraphraseThreshold: number;
-  /**
-   * Up to this many eligible files, paraphrase candidates are all pairs (exact, no misses); above
-   * it, SimHash banding. @default 2000 — all pairs then costs 2·10⁶ dot products (≈0.4 GFLOP at
-   * k = 200, well under a second in JS), about what SimHash signing costs at that size [E].
-   */
-  readonly paraphraseAllPairsLimit: number;
-  /** SimHash bands. @default 24 (with 16 bits: P(candidate) ≈ 0.99 at cosine 0.95, ≈ 0.006 at cosine 0.3) [E arithmetic] */
-  readonly simhashBands: number;
-  /** Hyperplane bits per SimHash band (1–32). @default 16 */
-  readonly simhashBitsPerBand: number;
-  /** Seed for the MinHash family and the hyperplanes. @default DEFAULT_SEED (random.ts) */
+  /** Exact Jaccard from which two files are partial copies (below `threshold`). @default 0.3 (issue 10's "substantial shared text"; our choice) */
+  readonly partialThreshold: number;
+  /** Neighbours kept per file in the full term space (termSpace.ts). @default 10 (common practice) */
+  readonly neighbours: number;
+  /** Lines found in this many files or more are boilerplate, left out of the term space (retold.ts). @default 3 (our choice: a line in two files may be a copy, in three a template) */
+  readonly boilerplateFiles: number;
+  /** Least full-space cosine of a "same content, other words" pair. @default 0.5 (our choice, checked on held-out data: test/fixtures/lookalike-retellings) */
+  readonly retoldMinCosine: number;
+  /** Least margin of that cosine over each file's next neighbour. @default 0.3 (our choice, as above) */
+  readonly retoldMinGap: number;
+  /** "Other words": the pair's Jaccard must be below this. @default 0.15 (half the partial threshold; our choice) */
+  readonly retoldMaxJaccard: number;
+  /** Seed for the MinHash family. @default DEFAULT_SEED (random.ts) */
   readonly seed: number;
 }
 
@@ -37,10 +37,12 @@ export const DEFAULT_LOOKALIKE_OPTIONS: LookalikeOptions = Object.freeze({
   bands: 16,
   threshold: 0.8,
   maxBucketSize: 100,
-  paraphraseThreshold: 0.95,
-  paraphraseAllPairsLimit: 2000,
-  simhashBands: 24,
-  simhashBitsPerBand: 16,
+  partialThreshold: 0.3,
+  neighbours: 10,
+  boilerplateFiles: 3,
+  retoldMinCosine: 0.5,
+  retoldMinGap: 0.3,
+  retoldMaxJaccard: 0.15,
   seed: DEFAULT_SEED,
 });
 
@@ -54,15 +56,17 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
     throw new InvalidInputError(`bands (${o.bands}) must divide numHashes (${o.numHashes}) so every band has the same rows`);
   }
   unitInterval('threshold', o.threshold);
-  unitInterval('paraphraseThreshold', o.paraphraseThreshold);
+  unitInterval('partialThreshold', o.partialThreshold);
+  if (o.partialThreshold > o.threshold) throw new InvalidInputError(`partialThreshold (${o.partialThreshold}) must not exceed threshold (${o.threshold})`);
+  unitInterval('retoldMinCosine', o.retoldMinCosine);
+  if (!(o.retoldMinGap >= 0 && o.retoldMinGap <= 1)) throw new InvalidInputError(`retoldMinGap must be in [0, 1], got ${o.retoldMinGap}`);
+  positiveInteger('neighbours', o.neighbours);
+  unitInterval('retoldMaxJaccard', o.retoldMaxJaccard);
+  if (o.retoldMaxJaccard > o.partialThreshold) throw new InvalidInputError(`retoldMaxJaccard (${o.retoldMaxJaccard}) must not exceed partialThreshold (${o.partialThreshold})`);
+  positiveInteger('boilerplateFiles', o.boilerplateFiles);
+  if (o.boilerplateFiles < 2) throw new InvalidInputError(`boilerplateFiles must be at least 2, got ${o.boilerplateFiles}`);
   positiveInteger('maxBucketSize', o.maxBucketSize);
   if (o.maxBucketSize < 2) throw new InvalidInputError(`maxBucketSize must be at least 2, got ${o.maxBucketSize}`);
-  if (!Number.isInteger(o.paraphraseAllPairsLimit) || o.paraphraseAllPairsLimit < 0) {
-    throw new InvalidInputError(`paraphraseAllPairsLimit must be a whole number ≥ 0, got ${o.paraphraseAllPairsLimit}`);
-  }
-  positiveInteger('simhashBands', o.simhashBands);
-  positiveInteger('simhashBitsPerBand', o.simhashBitsPerBand);
-  if (o.simhashBitsPerBand > 32) throw new InvalidInputError(`simhashBitsPerBand must be at most 32, got ${o.simhashBitsPerBand}`);
   if (!Number.isInteger(o.seed)) throw new InvalidInputError(`seed must be a whole number, got ${o.seed}`);
   return o;
 }

@@ -8,28 +8,41 @@ export interface LookalikeFile {
   readonly text: string;
 }
 
-/** Optional concept vectors (e.g. LSI document vectors), row i for files[i], unit length. */
-export interface ConceptVectors {
-  /** files.length × dims numbers, row-major. */
-  readonly vectors: Float32Array;
-  readonly dims: number;
-}
-
 export interface LookalikeInput {
   readonly files: readonly LookalikeFile[];
-  readonly concepts?: ConceptVectors;
 }
+
+/** The four bands of the report, as stable machine keys. */
+export type OverlapBand = 'exact' | 'near' | 'partial' | 'retold';
+
+/** What people read for each band (CLI, view, README use these). */
+export const BAND_TITLES: Readonly<Record<OverlapBand, string>> = Object.freeze({
+  exact: 'Exact copies',
+  near: 'Near-copies',
+  partial: 'Partial copies',
+  retold: 'Same content, other words',
+});
 
 /** Two files and how alike they are. */
 export interface LookalikePair {
+  readonly band: Exclude<OverlapBand, 'exact'>;
   readonly a: string;
   readonly b: string;
-  /** Exact shingle Jaccard for near-copies; concept cosine for paraphrases. */
+  /** What the pair is ranked by: Jaccard for near and partial copies, the cosine for retold pairs. */
   readonly similarity: number;
-  /** Exact shingle Jaccard (equals similarity for near-copies). */
+  /** Exact shingle Jaccard. */
   readonly jaccard: number;
   /** Identical non-blank trimmed lines the two files share (sharedLines.ts). */
   readonly sharedLines: number;
+  /** Non-blank lines of a and of b. */
+  readonly lines: readonly [number, number];
+  /** Words the two files share, counting repeats (multiset intersection of shingle tokens). */
+  readonly sharedWords: number;
+  /** Words of a and of b. */
+  readonly words: readonly [number, number];
+  /** Retold pairs: full term-space cosine and its margin over each file's next neighbour (retold.ts). */
+  readonly cosine?: number;
+  readonly gap?: number;
 }
 
 /** Files whose normalised texts are identical (contentHash.ts). Every pair has similarity 1. */
@@ -38,16 +51,9 @@ export interface ExactGroup {
   readonly similarity: 1;
   /** Non-blank lines of the text: what any two members share. */
   readonly sharedLines: number;
+  /** Words of the text (shingle tokens): groups are ranked by it, tiny files last. */
+  readonly words: number;
   readonly contentHash: string;
-}
-
-/**
- * Files joined by verified pairs (union-find). Pairs link one representative of each distinct
- * text; `files` also lists the exact copies of those representatives (see exactGroups).
- */
-export interface LookalikeGroup {
-  readonly files: readonly string[];
-  readonly pairs: readonly LookalikePair[];
 }
 
 export interface LookalikeStats {
@@ -67,18 +73,20 @@ export interface LookalikeStats {
   readonly verified: number;
   /** LSH buckets over maxBucketSize, paired by sorted neighbourhood (pair lists partial). */
   readonly cappedBuckets: number;
-  /** How paraphrase candidates were found; 'none' without concept vectors. */
-  readonly paraphraseMode: 'none' | 'all-pairs' | 'simhash';
-  /** Paraphrase candidate pairs whose cosine was computed. */
-  readonly paraphraseCandidates: number;
+  /** Lines left out of the term space as boilerplate (found in boilerplateFiles or more files). */
+  readonly boilerplateLines: number;
+  /** Candidate pairs from the term-space neighbour lists (each verified by exact Jaccard). */
+  readonly neighbourCandidates: number;
 }
 
 export interface LookalikeReport {
-  /** Exact copies, largest group first. */
+  /** Exact copies, the group with the longest text first (tiny files last). */
   readonly exactGroups: readonly ExactGroup[];
-  /** Near-copies: verified exact Jaccard ≥ threshold. */
-  readonly nearGroups: readonly LookalikeGroup[];
-  /** "Same content, different words": cosine ≥ paraphraseThreshold, Jaccard < threshold. */
-  readonly paraphraseGroups: readonly LookalikeGroup[];
+  /** Near-copies: verified exact Jaccard ≥ threshold, highest first. */
+  readonly nearPairs: readonly LookalikePair[];
+  /** Partial copies: partialThreshold ≤ Jaccard < threshold, highest first. */
+  readonly partialPairs: readonly LookalikePair[];
+  /** Same content, other words (retold.ts): strongest margin first. */
+  readonly retoldPairs: readonly LookalikePair[];
   readonly stats: LookalikeStats;
 }

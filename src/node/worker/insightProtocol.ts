@@ -23,15 +23,22 @@ export interface Why {
   readonly restTerms: number;
 }
 
-export type LookalikeKind = 'exact' | 'near' | 'paraphrase';
+/** The four overlap bands (core/lookalike/types.ts OverlapBand). */
+export type LookalikeKind = 'exact' | 'near' | 'partial' | 'retold';
 
 export interface LookalikePairWire {
   readonly a: FileRef;
   readonly b: FileRef;
-  /** 1 for exact copies, exact shingle Jaccard for near-copies, concept cosine for paraphrases. */
+  /** 1 for exact copies, exact shingle Jaccard for near and partial copies, term-space cosine for retold pairs. */
   readonly similarity: number;
   readonly jaccard: number;
   readonly sharedLines: number;
+  /** Non-blank lines of a and b. */
+  readonly lines: readonly [number, number];
+  readonly sharedWords: number;
+  readonly words: readonly [number, number];
+  /** Retold pairs: margin of the cosine over each file's next neighbour. */
+  readonly gap?: number;
 }
 
 export interface LookalikeGroupWire {
@@ -44,8 +51,12 @@ export interface LookalikeGroupWire {
 }
 
 export interface LookalikesResult {
-  /** Exact groups first, then near-copies, then paraphrases; largest first within each. */
+  /** Exact groups (longest text first), then near, partial and retold pairs (one group each, strongest first). */
   readonly groups: readonly LookalikeGroupWire[];
+  /** Pairs of each band left out past MAX_PAIRS_PER_BAND (lookalikeTask.ts). */
+  readonly morePairs: Readonly<Record<LookalikeKind, number>>;
+  /** Indexed paths that are links to a file already listed (the same file): left out. */
+  readonly sameFile: number;
   readonly files: number;
   readonly emptyFiles: number;
   /** Files with fewer words than one shingle (left out of near-copy search). */
@@ -53,7 +64,7 @@ export interface LookalikesResult {
   /** Indexed files that could not be read again. */
   readonly unreadable: number;
   readonly threshold: number;
-  readonly paraphraseThreshold: number;
+  readonly partialThreshold: number;
   readonly ms: number;
 }
 
@@ -113,7 +124,7 @@ export interface MapQueryResult {
 
 /** Each insight request with its parameters and result (merged into workerProtocol.ts's RequestMap). */
 export interface InsightRequestMap {
-  lookalikes: { params: { threshold: number; paraphraseThreshold: number }; result: LookalikesResult };
+  lookalikes: { params: { threshold: number }; result: LookalikesResult };
   topics: { params: Record<string, never>; result: TopicsResult };
   mapData: { params: Record<string, never>; result: MapDataResult };
   /** Places a query on the map named by token; fails with MapOutdatedError when it was replaced. */

@@ -50,7 +50,7 @@ export function indexStateKey(index: LsiIndex, roots: RootMap): string {
   let id = indexIds.get(index);
   if (id === undefined) indexIds.set(index, (id = nextIndexId++));
   const c = index.counters();
-  const folders = roots.roots.map((r) => `${r.name}=${r.path}`).join('|');
+  const folders = roots.roots.map((r) => `${r.name}=${r.fsPath}`).join('|');
   return `${id}:${index.slots().length}:${index.size}:${c.foldedTokens}:${c.removedSinceBuild}:${folders}`;
 }
 
@@ -65,18 +65,18 @@ export class InsightService {
 
   handlers(): Pick<Handlers, InsightRequestType> {
     return {
-      lookalikes: async (p) => this.lookalikes(p.threshold, p.paraphraseThreshold),
+      lookalikes: async (p) => this.lookalikes(p.threshold),
       topics: async () => (await this.topicsRun()).result,
       mapData: async () => this.mapData(),
       mapQuery: async ({ token, text }) => this.mapQuery(token, text),
     };
   }
 
-  lookalikes(threshold: number, paraphraseThreshold: number): Promise<LookalikesResult> {
+  lookalikes(threshold: number): Promise<LookalikesResult> {
     const index = this._source.requireIndex();
     const roots = this._source.roots();
-    const key = `${indexStateKey(index, roots)}:${threshold}:${paraphraseThreshold}`;
-    return this._lookalikes.get(key, () => computeLookalikes(index, roots, { threshold, paraphraseThreshold, maxFileBytes: this._source.maxFileBytes() }));
+    const key = `${indexStateKey(index, roots)}:${threshold}`;
+    return this._lookalikes.get(key, () => computeLookalikes(index, roots, { threshold, maxFileBytes: this._source.maxFileBytes() }));
   }
 
   topicsRun(): Promise<TopicsTaskResult> {

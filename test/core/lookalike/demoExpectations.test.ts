@@ -43,7 +43,7 @@ describe('findLookalikes on the demo workspace', () => {
     for (const g of [...key.nearCopies, ...key.exactCopies]) {
       for (let i = 0; i < g.length; i++) for (let j = i + 1; j < g.length; j++) listed.add(pairKey(g[i], g[j]));
     }
-    const reported = report.nearGroups.flatMap((g) => g.pairs.map((p) => pairKey(p.a, p.b)));
+    const reported = report.nearPairs.map((p) => pairKey(p.a, p.b));
     expect(reported.filter((k) => !listed.has(k))).toEqual([]);
 
     const plantedPairs = key.nearCopies.flatMap((g) => g.flatMap((a, i) => g.slice(i + 1).map((b) => pairKey(a, b))));

@@ -28,10 +28,8 @@ function reportedPairs(report: LookalikeReport, docs: readonly TextDoc[]): Set<s
     for (const f of g.files) copies.set(f, g.files);
     for (let p = 0; p < g.files.length; p++) for (let q = p + 1; q < g.files.length; q++) add(g.files[p], g.files[q]);
   }
-  for (const g of report.nearGroups) {
-    for (const pair of g.pairs) {
-      for (const a of copies.get(pair.a) ?? [pair.a]) for (const b of copies.get(pair.b) ?? [pair.b]) add(a, b);
-    }
+  for (const pair of report.nearPairs) {
+    for (const a of copies.get(pair.a) ?? [pair.a]) for (const b of copies.get(pair.b) ?? [pair.b]) add(a, b);
   }
   return out;
 }

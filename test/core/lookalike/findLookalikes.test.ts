@@ -10,7 +10,6 @@ import { findLookalikes } from '../../../src/core/lookalike/findLookalikes.js';
 import type { LookalikeFile } from '../../../src/core/lookalike/types.js';
 import { createRandom } from '../../../src/core/random.js';
 import { referenceShingles } from './corpusFixtures.js';
-import { atCosine, randomUnit } from './vectorFixtures.js';
 
 // An invented scenario: notes of a small bakery co-operative. Texts are generated from a word list.
 const WORDS = (
@@ -36,15 +35,16 @@ describe('findLookalikes: awkward input', () => {
   it('returns an empty report for no files', () => {
     const r = findLookalikes({ files: [] });
     expect(r.exactGroups).toEqual([]);
-    expect(r.nearGroups).toEqual([]);
-    expect(r.paraphraseGroups).toEqual([]);
-    expect(r.stats).toMatchObject({ files: 0, shingled: 0, candidates: 0, verified: 0, paraphraseMode: 'none' });
+    expect(r.nearPairs).toEqual([]);
+    expect(r.partialPairs).toEqual([]);
+    expect(r.retoldPairs).toEqual([]);
+    expect(r.stats).toMatchObject({ files: 0, shingled: 0, candidates: 0, verified: 0 });
   });
 
   it('handles a single file', () => {
     const r = findLookalikes({ files: [{ id: 'a.md', text: note(1) }] });
     expect(r.stats).toMatchObject({ files: 1, distinctTexts: 1, shingled: 1, candidates: 0 });
-    expect(r.exactGroups.length + r.nearGroups.length).toBe(0);
+    expect(r.exactGroups.length + r.nearPairs.length + r.partialPairs.length + r.retoldPairs.length).toBe(0);
   });
 
   it('counts blank files instead of grouping them', () => {
@@ -66,7 +66,7 @@ describe('findLookalikes: awkward input', () => {
     expect(r.exactGroups.map((g) => g.files)).toEqual([['a.ts', 'b.ts']]);
     expect(r.stats.skippedShort).toBe(3); // three distinct texts, all under 5 tokens
     expect(r.stats.shingled).toBe(0);
-    expect(r.nearGroups).toEqual([]);
+    expect(r.nearPairs).toEqual([]);
   });
 
   it('puts 3000 identical files in one exact group without any LSH candidate', () => {
@@ -77,10 +77,10 @@ describe('findLookalikes: awkward input', () => {
     expect(r.exactGroups[0].files).toHaveLength(3000);
     expect(r.exactGroups[0].sharedLines).toBe(12);
     expect(r.stats).toMatchObject({ distinctTexts: 1, shingled: 1, candidates: 0, verified: 0 });
-    expect(r.nearGroups).toEqual([]);
+    expect(r.nearPairs).toEqual([]);
   });
 
-  it('caps the giant LSH bucket of 1000 templated files and still returns them as one group', () => {
+  it('caps the giant LSH bucket of 1000 templated files and still returns verified pairs, never a chained group', () => {
     // Every file is the same 96-token note plus one line naming its own number: all pairs are
     // near-copies (J ≈ 0.9), so all 1000 land in one bucket per band (banding.ts cap strategy).
     const body = note(21);
@@ -89,20 +89,20 @@ describe('findLookalikes: awkward input', () => {
     expect(r.stats.cappedBuckets).toBeGreaterThan(0);
     // At most bands · m · CAPPED_NEIGHBOURS = 16 · 1000 · 10 = 160 000; all pairs would be m²/2 ≈ 5·10⁵.
     expect(r.stats.candidates).toBeLessThanOrEqual(16 * 1000 * 10);
-    expect(r.nearGroups).toHaveLength(1);
-    expect(r.nearGroups[0].files).toHaveLength(1000);
-    const [i, j] = [r.nearGroups[0].pairs[0].a, r.nearGroups[0].pairs[0].b].map((id) => Number(id.replace(/\D/g, '')));
-    expect(r.nearGroups[0].pairs[0].similarity).toBeCloseTo(referenceJaccard(files[i].text, files[j].text), 12);
+    expect(r.nearPairs.length).toBeGreaterThan(1000);
+    const inPairs = new Set(r.nearPairs.flatMap((p) => [p.a, p.b]));
+    expect(inPairs.size).toBeGreaterThan(990);
+    const [i, j] = [r.nearPairs[0].a, r.nearPairs[0].b].map((id) => Number(id.replace(/\D/g, '')));
+    expect(r.nearPairs[0].similarity).toBeCloseTo(referenceJaccard(files[i].text, files[j].text), 12);
   });
 
-  it('rejects duplicate ids, malformed files and misaligned concept vectors', () => {
+  it('rejects duplicate ids and malformed files', () => {
     expect(() => findLookalikes({ files: [{ id: 'x', text: 'a' }, { id: 'x', text: 'b' }] })).toThrow(/more than once/);
     expect(() => findLookalikes({ files: [{ id: 'x', text: 3 as unknown as string }] })).toThrow(InvalidInputError);
-    expect(() => findLookalikes({ files: [{ id: 'x', text: 'a' }], concepts: { vectors: new Float32Array(3), dims: 2 } })).toThrow(/1×2/);
   });
 });
 
-describe('findLookalikes: groups', () => {
+describe('findLookalikes: bands', () => {
   const base = note(11);
   const lines = base.split('\n');
   const near = [...lines.slice(0, 11), 'a new closing line about the oven timer'].join('\n'); // one line replaced
@@ -113,51 +113,54 @@ describe('findLookalikes: groups', () => {
     { id: 'notes/other.md', text: note(12) },
   ];
 
-  it('reports exact copies once and links the near-copy to them, with the exact Jaccard and shared lines', () => {
+  it('reports exact copies once and pairs the near-copy with one representative, with the exact Jaccard, shared lines and words', () => {
     const r = findLookalikes({ files });
     expect(r.exactGroups.map((g) => g.files)).toEqual([['notes/plan.md', 'notes/plan-copy.md']]);
-    expect(r.nearGroups).toHaveLength(1);
-    const g = r.nearGroups[0];
-    expect(g.files).toEqual(['notes/plan.md', 'notes/plan-copy.md', 'notes/plan-v2.md']);
-    expect(g.pairs).toHaveLength(1);
-    const pair = g.pairs[0];
+    expect(r.exactGroups[0].words).toBe(96); // 12 lines × 8 words (by construction)
+    expect(r.nearPairs).toHaveLength(1);
+    const pair = r.nearPairs[0];
+    expect(pair.band).toBe('near');
     expect([pair.a, pair.b]).toEqual(['notes/plan.md', 'notes/plan-v2.md']);
     expect(pair.similarity).toBeCloseTo(referenceJaccard(base, near), 12); // brute-force string shingles
     expect(pair.jaccard).toBe(pair.similarity);
     expect(pair.sharedLines).toBe(11); // 11 of 12 lines kept verbatim (by construction)
+    expect(pair.lines).toEqual([12, 12]);
+    expect(pair.words[0]).toBe(96);
+    expect(pair.sharedWords).toBeGreaterThanOrEqual(88); // the 88 words of the 11 kept lines, plus any the new line repeats
+  });
+
+  it('puts a copy with about half its text kept in "Partial copies", not in near-copies', () => {
+    const half = [...lines.slice(0, 7), ...note(14, 5).split('\n')].join('\n');
+    const r = findLookalikes({ files: [{ id: 'a.md', text: base }, { id: 'b.md', text: half }, { id: 'c.md', text: note(15) }] });
+    const j = referenceJaccard(base, half);
+    expect(j).toBeGreaterThanOrEqual(0.3);
+    expect(j).toBeLessThan(0.8);
+    expect(r.nearPairs).toEqual([]);
+    expect(r.partialPairs.map((p) => [p.a, p.b, p.band])).toEqual([['a.md', 'b.md', 'partial']]);
+    expect(r.partialPairs[0].jaccard).toBeCloseTo(j, 12);
+    expect(r.partialPairs[0].sharedLines).toBe(7);
+  });
+
+  it('ranks exact-copy groups by text length, so one-line stubs come last', () => {
+    const stub = 'This file has moved.';
+    const r = findLookalikes({
+      files: [
+        { id: 'old/a.md', text: stub },
+        { id: 'old/b.md', text: stub },
+        { id: 'old/c.md', text: stub },
+        { id: 'x.md', text: base },
+        { id: 'y.md', text: base },
+      ],
+    });
+    expect(r.exactGroups.map((g) => g.files[0])).toEqual(['x.md', 'old/a.md']);
   });
 
   it('gives the same report for the same input and seed', () => {
     expect(findLookalikes({ files })).toEqual(findLookalikes({ files }));
   });
 
-  it('lists "same content, different words" from concept vectors, apart from near-copies', () => {
-    const rng = createRandom(3);
-    const dims = 16;
-    const u = randomUnit(dims, rng);
-    const rows = [u, u, atCosine(u, 0.99, rng), atCosine(u, 0.97, rng)];
-    const extra = { id: 'notes/plan-reworded.md', text: note(13) };
-    const all = [...files.slice(0, 3), extra, files[3]];
-    const vectors = new Float32Array(all.length * dims);
-    [...rows, randomUnit(dims, rng)].forEach((v, i) => vectors.set(v, i * dims));
-    const r = findLookalikes({ files: all, concepts: { vectors, dims } });
-    expect(r.stats.paraphraseMode).toBe('all-pairs');
-    // plan ↔ plan-v2 is a near-copy, so only the reworded file joins as a paraphrase.
-    expect(r.paraphraseGroups).toHaveLength(1);
-    const g = r.paraphraseGroups[0];
-    expect(g.files).toEqual(['notes/plan.md', 'notes/plan-copy.md', 'notes/plan-v2.md', 'notes/plan-reworded.md']);
-    for (const p of g.pairs) {
-      expect(p.b).toBe('notes/plan-reworded.md');
-      expect(p.similarity).toBeGreaterThanOrEqual(0.95);
-      expect(p.jaccard).toBeLessThan(0.8);
-    }
-    const simhash = findLookalikes({ files: all, concepts: { vectors, dims } }, { paraphraseAllPairsLimit: 0 });
-    expect(simhash.stats.paraphraseMode).toBe('simhash');
-    expect(simhash.paraphraseGroups.map((x) => x.files)).toEqual(r.paraphraseGroups.map((x) => x.files));
-  });
-
   it('honours a stricter threshold', () => {
     const j = referenceJaccard(base, near);
-    expect(findLookalikes({ files }, { threshold: Math.min(1, j + 0.01) }).nearGroups).toEqual([]);
+    expect(findLookalikes({ files }, { threshold: Math.min(1, j + 0.01) }).nearPairs).toEqual([]);
   });
 });

@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { candidateProbability } from '../../../src/core/lookalike/banding.js';
 import { DEFAULT_LOOKALIKE_OPTIONS, resolveLookalikeOptions } from '../../../src/core/lookalike/options.js';
-import { hyperplaneAgreement } from '../../../src/core/lookalike/simhash.js';
 import { InvalidInputError } from '../../../src/core/errors.js';
 
 describe('DEFAULT_LOOKALIKE_OPTIONS', () => {
@@ -12,14 +11,6 @@ describe('DEFAULT_LOOKALIKE_OPTIONS', () => {
     expect(candidateProbability(o.threshold, o.bands, o.numHashes / o.bands)).toBeGreaterThan(0.94);
   });
 
-  it('makes a paraphrase at the threshold a SimHash candidate with probability ≥ 0.99', () => {
-    // Charikar 2002: per-bit agreement 1 − θ/π; banding formula from MMDS ch. 3.
-    const o = DEFAULT_LOOKALIKE_OPTIONS;
-    const p = candidateProbability(hyperplaneAgreement(o.paraphraseThreshold), o.simhashBands, o.simhashBitsPerBand);
-    expect(p).toBeGreaterThanOrEqual(0.99);
-    // …while unrelated vectors (cosine 0.3) rarely are.
-    expect(candidateProbability(hyperplaneAgreement(0.3), o.simhashBands, o.simhashBitsPerBand)).toBeLessThan(0.01);
-  });
 });
 
 describe('resolveLookalikeOptions', () => {
@@ -33,8 +24,9 @@ describe('resolveLookalikeOptions', () => {
     [{ threshold: 1.5 }, /threshold/],
     [{ shingleSize: 2.5 }, /shingleSize/],
     [{ maxBucketSize: 1 }, /maxBucketSize/],
-    [{ simhashBitsPerBand: 40 }, /simhashBitsPerBand/],
-    [{ paraphraseAllPairsLimit: -1 }, /paraphraseAllPairsLimit/],
+    [{ partialThreshold: 0.9 }, /partialThreshold/],
+    [{ boilerplateFiles: 1 }, /boilerplateFiles/],
+    [{ retoldMinGap: -0.1 }, /retoldMinGap/],
   ])('rejects %j with a clear message', (bad, message) => {
     expect(() => resolveLookalikeOptions(bad)).toThrow(InvalidInputError);
     expect(() => resolveLookalikeOptions(bad)).toThrow(message);

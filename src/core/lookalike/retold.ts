@@ -1,0 +1,91 @@
+/**
+ * "Same content, other words": pairs of files that tell the same thing with little shared text.
+ *
+ * Rule (each file's own neighbourhood decides, not a global cosine level):
+ * 1. Full weighted term space (termSpace.ts, sublinear TF-IDF), built from each file's text minus
+ *    its boilerplate: lines that occur in `boilerplateFiles` or more files (headers, licence and
+ *    "report bugs to" lines a template stamps on every page) are left out, so template siblings
+ *    are not drawn together by the template.
+ * 2. Each file's nearest neighbours there, with copies collapsed: a neighbour sharing text with
+ *    the file (shingle Jaccard ≥ partialThreshold) or with a nearer neighbour is skipped.
+ * 3. A pair passes when the two files are each other's nearest neighbour (mutual nearest
+ *    neighbours; Jarvis & Patrick 1973), share little text (Jaccard < maxJaccard), have a
+ *    cosine ≥ minCosine, and that cosine stands at least minGap above each file's next neighbour
+ *    (a margin against the file's own neighbourhood, as the margin scoring of Artetxe & Schwenk
+ *    2019 for mining translation pairs). Pairs only: a file has at most one such partner, so
+ *    nothing chains.
+ * Score for ranking: the gap (strongest evidence first).
+ */
+
+export interface RetoldParams {
+  readonly minCosine: number;
+  readonly minGap: number;
+}
+
+export interface RetoldInput {
+  /** Each file's cleaned neighbour list (row indices, nearest first) and its cosines. */
+  readonly neighbours: readonly (readonly number[])[];
+  readonly cosines: readonly (readonly number[])[];
+  /** Shingle Jaccard of a pair (exact or estimated). */
+  readonly jaccard: (a: number, b: number) => number;
+  /** Pairs sharing this much text or more (Jaccard) are not "other words". */
+  readonly maxJaccard: number;
+}
+
+export interface RetoldPair {
+  readonly a: number;
+  readonly b: number;
+  readonly cosine: number;
+  /** cosine − the better of the two files' next-neighbour cosines. */
+  readonly gap: number;
+}
+
+export function findRetoldPairs(input: RetoldInput, params: RetoldParams): RetoldPair[] {
+  const { neighbours, cosines } = input;
+  const out: RetoldPair[] = [];
+  for (let i = 0; i < neighbours.length; i++) {
+    const d = neighbours[i][0];
+    if (d === undefined || d <= i || neighbours[d][0] !== i) continue;
+    const c = cosines[i][0];
+    if (c < params.minCosine) continue;
+    const next = Math.max(cosines[i][1] ?? 0, cosines[d][1] ?? 0);
+    const gap = c - next;
+    if (gap < params.minGap) continue;
+    if (input.jaccard(i, d) >= input.maxJaccard) continue;
+    out.push({ a: i, b: d, cosine: c, gap });
+  }
+  return out.sort((x, y) => y.gap - x.gap || x.a - y.a);
+}
+
+/** Lines (trimmed, lowercased, spaces collapsed) present in at least `minFiles` of the texts. */
+export function boilerplateLines(texts: readonly string[], minFiles: number): Set<string> {
+  const df = new Map<string, number>();
+  for (const t of texts) {
+    for (const l of new Set(lineKeys(t))) df.set(l, (df.get(l) ?? 0) + 1);
+  }
+  const out = new Set<string>();
+  for (const [l, n] of df) if (n >= minFiles) out.add(l);
+  return out;
+}
+
+/** The text without its boilerplate lines. */
+export function withoutBoilerplate(text: string, boilerplate: ReadonlySet<string>): string {
+  if (boilerplate.size === 0) return text;
+  return text
+    .split(/\r\n|\r|\n/)
+    .filter((l) => !boilerplate.has(lineKey(l)))
+    .join('\n');
+}
+
+function lineKey(l: string): string {
+  return l.trim().toLowerCase().replace(/\s+/g, ' ');
+}
+
+function lineKeys(text: string): string[] {
+  const out: string[] = [];
+  for (const l of text.split(/\r\n|\r|\n/)) {
+    const k = lineKey(l);
+    if (k.length > 0) out.push(k);
+  }
+  return out;
+}

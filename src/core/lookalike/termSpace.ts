@@ -1,0 +1,149 @@
+/**
+ * The full weighted term space of the look-alike finder and each file's nearest neighbours in it.
+ *
+ * Weights: sublinear tf (1 + ln tf) times smoothed idf ln((1 + n)/(1 + df)) + 1, each row L2-
+ * normalised (Salton & Buckley 1988; as scikit-learn's TfidfVectorizer(sublinear_tf=True)).
+ * Terms: the index tokenizer (text/tokenize.ts: stop words dropped, Porter stems).
+ *
+ * Neighbours: for each file, candidates are gathered through an inverted index over the terms that
+ * occur in at most maxDf files (frequent terms would make this step quadratic; they still count in
+ * every cosine), then the best `candidates` of them are scored by their exact cosine over all terms
+ * and the top `k` kept. A pair that shares only frequent terms can be missed; it has a low cosine.
+ */
+import { tokenize } from '../text/tokenize.js';
+
+export interface TermSpace {
+  readonly n: number;
+  /** CSR rows: row i holds terms[rowStart[i] .. rowStart[i+1]) ascending, with weights. */
+  readonly rowStart: Int32Array;
+  readonly terms: Int32Array;
+  readonly weights: Float32Array;
+  /** Files holding each term. */
+  readonly df: Int32Array;
+}
+
+/** Texts → L2-normalised sublinear TF-IDF rows. */
+export function buildTermSpace(texts: readonly string[], idfPower = 1): TermSpace {
+  const ids = new Map<string, number>();
+  const rows: { t: Int32Array; c: Float64Array }[] = [];
+  const dfList: number[] = [];
+  for (const text of texts) {
+    const counts = new Map<number, number>();
+    for (const tok of tokenize(text)) {
+      let id = ids.get(tok);
+      if (id === undefined) {
+        id = ids.size;
+        ids.set(tok, id);
+        dfList.push(0);
+      }
+      counts.set(id, (counts.get(id) ?? 0) + 1);
+    }
+    const t = Int32Array.from(counts.keys()).sort();
+    const c = new Float64Array(t.length);
+    for (let p = 0; p < t.length; p++) {
+      c[p] = counts.get(t[p]) as number;
+      dfList[t[p]]++;
+    }
+    rows.push({ t, c });
+  }
+  const n = texts.length;
+  const df = Int32Array.from(dfList);
+  const rowStart = new Int32Array(n + 1);
+  for (let i = 0; i < n; i++) rowStart[i + 1] = rowStart[i] + rows[i].t.length;
+  const terms = new Int32Array(rowStart[n]);
+  const weights = new Float32Array(rowStart[n]);
+  for (let i = 0; i < n; i++) {
+    const { t, c } = rows[i];
+    let norm = 0;
+    const w = new Float64Array(t.length);
+    for (let p = 0; p < t.length; p++) {
+      w[p] = (1 + Math.log(c[p])) * (Math.log((1 + n) / (1 + df[t[p]])) + 1) ** idfPower;
+      norm += w[p] * w[p];
+    }
+    norm = Math.sqrt(norm) || 1;
+    terms.set(t, rowStart[i]);
+    for (let p = 0; p < t.length; p++) weights[rowStart[i] + p] = w[p] / norm;
+  }
+  return { n, rowStart, terms, weights, df };
+}
+
+/** Exact cosine of two rows (merge of the sorted term lists). */
+export function rowCosine(s: TermSpace, a: number, b: number): number {
+  let p = s.rowStart[a];
+  const pe = s.rowStart[a + 1];
+  let q = s.rowStart[b];
+  const qe = s.rowStart[b + 1];
+  let dot = 0;
+  while (p < pe && q < qe) {
+    const x = s.terms[p];
+    const y = s.terms[q];
+    if (x === y) {
+      dot += s.weights[p++] * s.weights[q++];
+    } else if (x < y) p++;
+    else q++;
+  }
+  return dot;
+}
+
+export interface NeighbourParams {
+  /** Neighbours kept per file. */
+  readonly k: number;
+  /** Candidates per file rescored by exact cosine. */
+  readonly candidates: number;
+  /** Terms in more than this many files are left out of candidate gathering. */
+  readonly maxDf: number;
+}
+
+/** Each listed row's top-k neighbours among the listed rows: n×k row indices (-1 = none) and cosines. */
+export interface Neighbours {
+  readonly k: number;
+  readonly index: Int32Array;
+  readonly cosine: Float32Array;
+}
+
+export function termNeighbours(s: TermSpace, params: NeighbourParams): Neighbours {
+  const { n } = s;
+  const { k, candidates, maxDf } = params;
+  // Inverted index over the gathering terms.
+  const postStart = new Int32Array(s.df.length + 1);
+  for (let t = 0; t < s.df.length; t++) postStart[t + 1] = postStart[t] + (s.df[t] <= maxDf ? s.df[t] : 0);
+  const postDoc = new Int32Array(postStart[s.df.length]);
+  const postW = new Float32Array(postStart[s.df.length]);
+  const fill = postStart.slice(0, s.df.length);
+  for (let i = 0; i < n; i++) {
+    for (let p = s.rowStart[i]; p < s.rowStart[i + 1]; p++) {
+      const t = s.terms[p];
+      if (s.df[t] > maxDf) continue;
+      postDoc[fill[t]] = i;
+      postW[fill[t]++] = s.weights[p];
+    }
+  }
+  const index = new Int32Array(n * k).fill(-1);
+  const cosine = new Float32Array(n * k);
+  const acc = new Float64Array(n);
+  const touched = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    let nt = 0;
+    for (let p = s.rowStart[i]; p < s.rowStart[i + 1]; p++) {
+      const t = s.terms[p];
+      if (s.df[t] > maxDf) continue;
+      const w = s.weights[p];
+      for (let q = postStart[t]; q < postStart[t + 1]; q++) {
+        const d = postDoc[q];
+        if (d === i) continue;
+        if (acc[d] === 0) touched[nt++] = d;
+        acc[d] += w * postW[q];
+      }
+    }
+    const cand = Array.from(touched.subarray(0, nt));
+    cand.sort((x, y) => acc[y] - acc[x] || x - y);
+    for (let c = 0; c < nt; c++) acc[touched[c]] = 0;
+    const scored = cand.slice(0, candidates).map((d) => ({ d, c: rowCosine(s, i, d) }));
+    scored.sort((x, y) => y.c - x.c || x.d - y.d);
+    for (let r = 0; r < Math.min(k, scored.length); r++) {
+      index[i * k + r] = scored[r].d;
+      cosine[i * k + r] = scored[r].c;
+    }
+  }
+  return { k, index, cosine };
+}

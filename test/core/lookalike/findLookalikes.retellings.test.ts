@@ -1,0 +1,180 @@
+/**
+ * Overlap bands on real documentation nobody here wrote: test/fixtures/lookalike-retellings
+ * (built by scripts/fixtures/lookalike-retellings/build.py from Debian 12 packages; sources and
+ * versions in its README).
+ *
+ * - Natural retellings, 125 pairs: a command's manual page (generated from its --help text) and
+ *   the "invocation" chapter of the project's Texinfo manual, written separately.
+ *   Source "coreutils" (98 pairs, coreutils 9.1-1) and source "gnu-other" (27 pairs: gettext
+ *   0.21-12, diffutils 3.8-4, findutils 4.9.0-4, grep 3.8-5, sed 4.9-1).
+ * - 1,421 same-area distractors: man pages of util-linux, procps, gawk, manpages, manpages-dev and
+ *   the other chapters of those info manuals.
+ * - 90 planted copies of distractors (20 exact, 70 edited); their band is decided here by the
+ *   Jaccard of string 5-gram shingles (corpusFixtures.ts, no code shared with the finder).
+ *
+ * What is asserted are the levels measured when the rule was made (2026-12-02), as floors, and
+ * the comparison with the baseline the issue names: plain TF-IDF cosine in the full term space,
+ * restricted to pairs sharing little text (Jaccard < 0.3), ranked by cosine. The rule's constants
+ * (options.ts) are our choices, not fitted per source; figures are printed per source. The
+ * issue's targets (≥ 55 % of retellings with ≤ 3 false pairs; ≤ 1 false pair per 1,000 files
+ * without retellings) are NOT reached on this set: see the fixture README.
+ */
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { gunzipSync } from 'node:zlib';
+import { describe, expect, it } from 'vitest';
+import { findLookalikes } from '../../../src/core/lookalike/findLookalikes.js';
+import { buildTermSpace, termNeighbours } from '../../../src/core/lookalike/termSpace.js';
+import type { LookalikeReport } from '../../../src/core/lookalike/types.js';
+import { REPO_ROOT } from '../../helpers/shared.js';
+import { referenceShingles } from './corpusFixtures.js';
+
+interface Corpus {
+  files: { id: string; source: string; text: string }[];
+  retellings: [string, string, 'coreutils' | 'gnu-other'][];
+  planted: Record<'exact' | 'near' | 'partial', [string, string][]>;
+}
+
+const path = join(REPO_ROOT, 'test', 'fixtures', 'lookalike-retellings', 'corpus.json.gz');
+const corpus: Corpus | null = existsSync(path) ? JSON.parse(gunzipSync(readFileSync(path)).toString('utf8')) : null;
+
+const key = (a: string, b: string): string => (a < b ? `${a}|${b}` : `${b}|${a}`);
+
+const shingleCache = new Map<string, Set<string>>();
+function shinglesOf(text: string): Set<string> {
+  let s = shingleCache.get(text);
+  if (!s) shingleCache.set(text, (s = referenceShingles(text, 5)));
+  return s;
+}
+
+function referenceJaccard(a: string, b: string): number {
+  const sa = shinglesOf(a);
+  const sb = shinglesOf(b);
+  let common = 0;
+  for (const x of sa) if (sb.has(x)) common++;
+  return common / (sa.size + sb.size - common);
+}
+
+/** Keys of a pair with each side replaced by each of its exact copies (the report names one representative). */
+function expanded(r: LookalikeReport, a: string, b: string): string[] {
+  const copies = new Map<string, readonly string[]>();
+  for (const g of r.exactGroups) for (const f of g.files) copies.set(f, g.files);
+  return (copies.get(a) ?? [a]).flatMap((x) => (copies.get(b) ?? [b]).map((y) => key(x, y)));
+}
+
+/** Pairs of a report's exact groups (every two members). */
+function exactPairs(r: LookalikeReport): Set<string> {
+  const out = new Set<string>();
+  for (const g of r.exactGroups) for (let i = 0; i < g.files.length; i++) for (let j = i + 1; j < g.files.length; j++) out.add(key(g.files[i], g.files[j]));
+  return out;
+}
+
+describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
+  it.skipIf(!corpus)('finds planted copies in the right band and retellings ahead of plain TF-IDF cosine', () => {
+    const c = corpus!;
+    const text = new Map(c.files.map((f) => [f.id, f.text]));
+    const report = findLookalikes({ files: c.files });
+
+    // Exact copies: every planted one.
+    const exact = exactPairs(report);
+    const exactFound = c.planted.exact.filter(([a, b]) => exact.has(key(a, b))).length;
+
+    // Near and partial copies: truth by the reference Jaccard of each planted pair.
+    const plantedEdited = [...c.planted.near, ...c.planted.partial].map(([a, b]) => ({ k: key(a, b), j: referenceJaccard(text.get(a)!, text.get(b)!) }));
+    const nearTruth = plantedEdited.filter((p) => p.j >= 0.8);
+    const partialTruth = plantedEdited.filter((p) => p.j >= 0.3 && p.j < 0.8);
+    const nearKeys = new Set(report.nearPairs.flatMap((p) => expanded(report, p.a, p.b)));
+    const partialKeys = new Set(report.partialPairs.flatMap((p) => expanded(report, p.a, p.b)));
+    const nearRecall = nearTruth.filter((p) => nearKeys.has(p.k)).length / nearTruth.length;
+    const partialRecall = partialTruth.filter((p) => partialKeys.has(p.k)).length / partialTruth.length;
+    // Precision of the two bands: every reported pair's reference Jaccard is in its band.
+    const falseNear = report.nearPairs.filter((p) => referenceJaccard(text.get(p.a)!, text.get(p.b)!) < 0.8).length;
+    const falsePartial = report.partialPairs.filter((p) => {
+      const j = referenceJaccard(text.get(p.a)!, text.get(p.b)!);
+      return j < 0.3 || j >= 0.8;
+    }).length;
+
+    // Same content, other words.
+    const truth = new Map(c.retellings.map(([a, b, s]) => [key(a, b), s]));
+    const retold = report.retoldPairs.map((p) => ({ k: expanded(report, p.a, p.b).find((x) => truth.has(x)) ?? key(p.a, p.b), p }));
+    const hits = retold.filter((r) => truth.has(r.k));
+    const falseRetold = retold.length - hits.length;
+    const bySource = (s: string) => `${hits.filter((r) => truth.get(r.k) === s).length}/${c.retellings.filter((r) => r[2] === s).length}`;
+    const recall = hits.length / truth.size;
+
+    // Baseline in the same run: plain TF-IDF cosine (no boilerplate removal, no margin), pairs with
+    // Jaccard < 0.3, ranked by cosine; recall when the same number of false pairs has been passed.
+    const ids = c.files.map((f) => f.id);
+    const space = buildTermSpace(c.files.map((f) => f.text));
+    const nb = termNeighbours(space, { k: 10, candidates: 50, maxDf: Math.max(100, Math.floor(0.05 * ids.length)) });
+    const seen = new Map<string, number>();
+    for (let i = 0; i < ids.length; i++) {
+      for (let r = 0; r < 10; r++) {
+        const d = nb.index[i * 10 + r];
+        if (d >= 0) seen.set(key(ids[i], ids[d]), nb.cosine[i * 10 + r]);
+      }
+    }
+    const ranked = [...seen.entries()].sort((x, y) => y[1] - x[1] || (x[0] < y[0] ? -1 : 1));
+    const baselineFalse: string[] = [];
+    const baselineAt = (allowed: number): number => {
+      let tp = 0;
+      let fp = 0;
+      for (const [k, cos] of ranked) {
+        const [a, b] = k.split('|');
+        if (exact.has(k)) continue;
+        if (referenceJaccard(text.get(a)!, text.get(b)!) >= 0.3) continue;
+        if (truth.has(k)) tp++;
+        else {
+          if (allowed === 3 && baselineFalse.length < 5) baselineFalse.push(`${a} ~ ${b} (cosine ${cos.toFixed(2)})`);
+          if (++fp > allowed) break;
+        }
+      }
+      return tp;
+    };
+    const baseSame = baselineAt(falseRetold);
+    const base3 = baselineAt(3);
+    const base5 = baselineAt(5);
+
+    console.log(
+      [
+        `overlaps on ${c.files.length} Debian documentation files:`,
+        `  exact copies: ${exactFound}/${c.planted.exact.length} planted found`,
+        `  near-copies: recall ${nearRecall.toFixed(3)} of ${nearTruth.length} planted with J ≥ 0.8; ${report.nearPairs.length} reported, ${falseNear} below J 0.8`,
+        `  partial copies: recall ${partialRecall.toFixed(3)} of ${partialTruth.length} planted with 0.3 ≤ J < 0.8; ${report.partialPairs.length} reported, ${falsePartial} outside the band`,
+        `  same content, other words: ${retold.length} reported, ${hits.length} retellings (coreutils ${bySource('coreutils')}, gnu-other ${bySource('gnu-other')}), recall ${recall.toFixed(3)}, ${falseRetold} not in the key`,
+        `  baseline TF-IDF cosine, J < 0.3: ${baseSame} retellings before its ${falseRetold + 1}th false pair; ${base3} with ≤ 3 false, ${base5} with ≤ 5 false`,
+        ...baselineFalse.map((x) => `    baseline's first false pairs: ${x}`),
+        ...retold.filter((r) => !truth.has(r.k)).map((r) => `    not in the key: ${r.p.a} ~ ${r.p.b} (cosine ${r.p.cosine!.toFixed(2)}, margin ${r.p.gap!.toFixed(2)}, J ${r.p.jaccard.toFixed(2)})`),
+      ].join('\n'),
+    );
+
+    expect(exactFound).toBe(c.planted.exact.length);
+    expect(nearTruth.length).toBeGreaterThan(20);
+    expect(nearRecall).toBeGreaterThanOrEqual(0.95);
+    expect(falseNear).toBe(0);
+    expect(partialTruth.length).toBeGreaterThan(20);
+    expect(partialRecall).toBeGreaterThanOrEqual(0.9);
+    expect(falsePartial).toBe(0);
+    // Measured 2026-12-02: 23 of 125 retellings (0.18) with 3 pairs not in the key.
+    expect(recall).toBeGreaterThanOrEqual(0.15);
+    expect(falseRetold).toBeLessThanOrEqual(5);
+    // Ahead of the baseline at the same number of false pairs (baseline measured: 4 with ≤ 3 false).
+    expect(hits.length).toBeGreaterThan(baseSame);
+  });
+
+  it.skipIf(!corpus)('reports few "same content" pairs in a real folder without planted retellings', () => {
+    const c = corpus!;
+    // The same folder with the info side of every retelling removed: what is left has no planted
+    // retelling (natural ones among the distractors may remain and count as false here).
+    const infoSide = new Set(c.retellings.map((r) => r[1]));
+    const files = c.files.filter((f) => !infoSide.has(f.id));
+    const r = findLookalikes({ files });
+    const perThousand = (1000 * r.retoldPairs.length) / files.length;
+    console.log(
+      `overlaps without retellings: ${files.length} files, ${r.retoldPairs.length} "same content" pairs (${perThousand.toFixed(2)} per 1,000 files)\n` +
+        r.retoldPairs.map((p) => `    ${p.a} ~ ${p.b} (cosine ${p.cosine!.toFixed(2)}, margin ${p.gap!.toFixed(2)})`).join('\n'),
+    );
+    // Measured 2026-12-02: 3 pairs in 1,660 files (1.8 per 1,000); the issue's target is ≤ 1.
+    expect(perThousand).toBeLessThanOrEqual(2.5);
+  });
+});

@@ -1,0 +1,49 @@
+/**
+ * The "same content, other words" rule (retold.ts) on neighbour lists built by hand, each case
+ * checking one clause of the rule as documented there (no external source: the rule is ours).
+ */
+import { describe, expect, it } from 'vitest';
+import { boilerplateLines, findRetoldPairs, withoutBoilerplate } from '../../../src/core/lookalike/retold.js';
+
+const rule = { minCosine: 0.5, minGap: 0.3 };
+const lowJ = () => 0.02;
+
+describe('findRetoldPairs', () => {
+  it('keeps mutual nearest neighbours that stand clear of both files’ next neighbours', () => {
+    const pairs = findRetoldPairs(
+      { neighbours: [[1, 2], [0, 2], [0, 1]], cosines: [[0.8, 0.3], [0.8, 0.4], [0.3, 0.4]], jaccard: lowJ, maxJaccard: 0.15 },
+      rule,
+    );
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ a: 0, b: 1, cosine: 0.8 });
+    expect(pairs[0].gap).toBeCloseTo(0.4, 12); // 0.8 − max(0.3, 0.4)
+  });
+
+  it('refuses a pair that is not mutual, too close to a third file, too weak, or sharing text', () => {
+    const base = { neighbours: [[1, 2], [2, 0], [1, 0]], cosines: [[0.8, 0.3], [0.9, 0.8], [0.9, 0.3]], jaccard: lowJ, maxJaccard: 0.15 };
+    // 0's nearest is 1 but 1's nearest is 2: not mutual; 1 ↔ 2 are mutual but 1's next (0.8) is too close.
+    expect(findRetoldPairs(base, rule)).toEqual([]);
+    const clear = { neighbours: [[1], [0]], cosines: [[0.45], [0.45]], jaccard: lowJ, maxJaccard: 0.15 };
+    expect(findRetoldPairs(clear, rule)).toEqual([]); // below minCosine
+    expect(findRetoldPairs({ ...clear, cosines: [[0.7], [0.7]] }, rule)).toHaveLength(1);
+    expect(findRetoldPairs({ ...clear, cosines: [[0.7], [0.7]], jaccard: () => 0.2 }, rule)).toEqual([]); // shares text
+  });
+
+  it('never chains: a file has at most one partner', () => {
+    const pairs = findRetoldPairs(
+      { neighbours: [[1], [0], [3], [2]], cosines: [[0.9], [0.9], [0.7], [0.7]], jaccard: lowJ, maxJaccard: 0.15 },
+      rule,
+    );
+    expect(pairs.map((p) => [p.a, p.b])).toEqual([[0, 1], [2, 3]]); // strongest margin first
+  });
+});
+
+describe('boilerplate lines', () => {
+  it('finds lines present in at least n files (trimmed, case and spacing ignored) and removes them', () => {
+    const texts = ['Report bugs to the list.\nalpha', '  report   bugs to the list.\nbeta', 'REPORT BUGS TO THE LIST.\ngamma\nalpha'];
+    const bp = boilerplateLines(texts, 3);
+    expect([...bp]).toEqual(['report bugs to the list.']);
+    expect(withoutBoilerplate(texts[2], bp)).toBe('gamma\nalpha');
+    expect(boilerplateLines(texts, 2).has('alpha')).toBe(true);
+  });
+});
