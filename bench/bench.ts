@@ -6,7 +6,8 @@
  * RSS is its own. `node dist/bench.js --compare` runs the side-by-side comparison instead
  * (bench/compare/compare.ts, `npm run bench:compare`).
  *
- * Options: --k N (default 200, as the comparison uses), --only demo|docs|tree.
+ * Options: --k N (default 200, as the comparison uses), --only demo|docs|tree, --folder DIR (only
+ * that folder; e.g. a test collection written out as files by scripts/fixtures/writeFolder.mjs).
  */
 import { existsSync } from 'node:fs';
 import { runChild, type ChildResult } from './benchChild.js';
@@ -39,6 +40,12 @@ async function main(): Promise<void> {
   const k = Number(flag('k') ?? 200);
   const only = flag('only') as CorpusName | undefined;
   console.log(`Undertone indexing benchmark (k=${k}); ${loadLine()}`);
+  const folder = flag('folder');
+  if (folder) {
+    printResult('folder', measureInChild(folder, k));
+    console.log(`\n${loadLine()} (after the runs)`);
+    return;
+  }
   for (const name of ['demo', 'docs'] as const) {
     if (only && only !== name) continue;
     const folder = CORPORA[name];

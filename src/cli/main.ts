@@ -52,6 +52,8 @@ options:
   --no-gitignore             index files that .gitignore excludes
   --rebuild                  (index) rebuild from scratch
   --explain                  (ask, nearby) the words behind each score, with their shares
+  --like FILE, --unlike FILE (ask) more / fewer files like this indexed file (repeatable; the text
+                             may then be empty: ask <folder> "" --like FILE)
   --topics N                 (topics, map) how many topics (default: chosen automatically)
   --threshold J              (lookalikes) shingle Jaccard for near-copies (default 0.8)
   --layout both|quick|faithful   (map) layouts in the page (default both, opening on faithful;
@@ -67,6 +69,8 @@ const EXTRA_OPTIONS = {
   qrels: { type: 'string' },
   rebuild: { type: 'boolean' },
   explain: { type: 'boolean' },
+  like: { type: 'string', multiple: true },
+  unlike: { type: 'string', multiple: true },
   topics: { type: 'string' },
   threshold: { type: 'string' },
   layout: { type: 'string' },

@@ -5,7 +5,7 @@ import type { IndexController } from './indexController.js';
 import type { NearbyProvider } from './nearbyView.js';
 import { openOptions } from './resultItem.js';
 import type { SearchResultsProvider } from './searchView.js';
-import { searchEntries, searchPickItems, type ResultEntry } from './viewModels.js';
+import { NO_FEEDBACK, refineFeedback, searchEntries, searchPickItems, type ResultEntry, type SearchFeedback } from './viewModels.js';
 import { errorKind } from '../node/worker/workerErrors.js';
 
 export interface CommandDeps {
@@ -62,6 +62,8 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
       );
     }),
     reg('undertone.clearSearchResults', () => search.clear()),
+    reg('undertone.moreLikeThis', (entry?: ResultEntry) => steer(deps, entry, 'like')),
+    reg('undertone.fewerLikeThis', (entry?: ResultEntry) => steer(deps, entry, 'unlike')),
     reg('undertone.showLog', () => log.show(true)),
     reg('undertone.showActions', async () => {
       const items = statusActions(controller.state);
@@ -71,12 +73,43 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
   ];
 }
 
-async function runSearch(deps: CommandDeps, query: string): Promise<void> {
+/**
+ * "More Like This" / "Fewer Like This" on a result row. On a row of the shown search, the search is
+ * run again with the file added to its feedback (Rocchio refinement, core/index/search/fusion.ts).
+ * On a Nearby row: more like it is a search for files like that file; fewer like it is a search for
+ * files like the file Nearby is about, and unlike that row.
+ */
+async function steer(deps: CommandDeps, entry: ResultEntry | undefined, kind: 'like' | 'unlike'): Promise<void> {
+  if (!entry?.fsPath) {
+    void vscode.window.showInformationMessage('Use this on a file in Search Results or Nearby.');
+    return;
+  }
+  const { search, nearby } = deps;
+  let query = '';
+  let feedback: SearchFeedback;
+  if (search.query !== undefined && search.lists(entry.key)) {
+    query = search.query;
+    feedback = refineFeedback(search.feedback, entry.fsPath, kind);
+  } else if (kind === 'like') {
+    feedback = { like: [entry.fsPath], unlike: [] };
+  } else {
+    const subject = nearby.subject?.fsPath;
+    if (!subject) {
+      void vscode.window.showInformationMessage('Open a file first: fewer like this searches for files like it and unlike this one.');
+      return;
+    }
+    feedback = { like: [subject], unlike: [entry.fsPath] };
+  }
+  await vscode.commands.executeCommand('undertone.searchResults.focus');
+  await runSearch(deps, query, feedback, false);
+}
+
+async function runSearch(deps: CommandDeps, query: string, feedback: SearchFeedback = NO_FEEDBACK, pickOne = true): Promise<void> {
   const { controller, search } = deps;
   let matches;
   try {
     matches = await vscode.window.withProgress({ location: vscode.ProgressLocation.Window, title: 'Undertone: searching' }, () =>
-      controller.search(query, SEARCH_TOP),
+      controller.search(query, SEARCH_TOP, feedback),
     );
   } catch (err) {
     const e = err as Error;
@@ -88,11 +121,12 @@ async function runSearch(deps: CommandDeps, query: string): Promise<void> {
     else void vscode.window.showErrorMessage(`Undertone search failed: ${e.message}`);
     return;
   }
-  search.show(query, searchEntries(matches, controller.multiRoot));
+  search.show(query, searchEntries(matches, controller.multiRoot), feedback);
   if (matches.length === 0) {
     void vscode.window.showInformationMessage('No indexed file matches that search.');
     return;
   }
+  if (!pickOne) return;
   const items = searchPickItems(matches, controller.multiRoot);
   const pick = await vscode.window.showQuickPick(items, {
     title: `Undertone: ${matches.length} files by meaning`,

@@ -8,6 +8,7 @@ import { decideUpdate, DEFAULT_UPDATE_POLICY, describeReasons, rebuildDelay, typ
 import { isCancelled, type WorkerClient } from '../node/worker/client.js';
 import type { InsightRequestType } from '../node/worker/insightProtocol.js';
 import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch } from '../node/worker/workerProtocol.js';
+import { NO_FEEDBACK, type SearchFeedback } from './viewModels.js';
 import { uniqueRootNames } from '../node/worker/rootMap.js';
 import { noIndexReason, summaryOf, unavailableReason, type IndexState } from './indexState.js';
 import { readSettings, toWorkerConfig, type ExtensionSettings } from './settings.js';
@@ -170,10 +171,11 @@ export class IndexController {
     return change;
   }
 
-  async search(query: string, top: number): Promise<readonly SearchMatch[]> {
+  /** feedback: files (fsPaths) to find more / fewer like. */
+  async search(query: string, top: number, feedback: SearchFeedback = NO_FEEDBACK): Promise<readonly SearchMatch[]> {
     const client = await this.connect();
     if (!client) return [];
-    return client.request('search', { query, top });
+    return client.request('search', { query, top, like: feedback.like, unlike: feedback.unlike });
   }
 
   async nearby(fsPath: string, top: number): Promise<readonly ScoredFile[] | null> {

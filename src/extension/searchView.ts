@@ -6,7 +6,7 @@
 import * as vscode from 'vscode';
 import type { IndexController } from './indexController.js';
 import { resultTreeItem } from './resultItem.js';
-import { searchEntries, searchViewDescription, withoutKeys, type ResultEntry } from './viewModels.js';
+import { feedbackDescription, NO_FEEDBACK, searchEntries, searchViewDescription, withoutKeys, type ResultEntry, type SearchFeedback } from './viewModels.js';
 
 /** Delay before re-running the last search after index changes (common practice debounce). */
 const RERUN_DELAY_MS = 150;
@@ -16,6 +16,7 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultEntr
 
   private _entries: ResultEntry[] = [];
   private _query: string | undefined;
+  private _feedback: SearchFeedback = NO_FEEDBACK;
   private _view: vscode.TreeView<ResultEntry> | undefined;
   private _rerun: ReturnType<typeof setTimeout> | undefined;
   private _seq = 0;
@@ -42,16 +43,28 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultEntr
     return this._query;
   }
 
+  /** The files the shown search was asked to find more / fewer like. */
+  get feedback(): SearchFeedback {
+    return this._feedback;
+  }
+
+  /** Whether a file is among the shown results. */
+  lists(key: string): boolean {
+    return this._entries.some((e) => e.key === key);
+  }
+
   /** Shows the results of a search just made. */
-  show(query: string, entries: ResultEntry[]): void {
+  show(query: string, entries: ResultEntry[], feedback: SearchFeedback = NO_FEEDBACK): void {
     this._seq++;
     this._query = query;
+    this._feedback = feedback;
     this.setEntries(entries);
   }
 
   clear(): void {
     this._seq++;
     this._query = undefined;
+    this._feedback = NO_FEEDBACK;
     this.setEntries([]);
   }
 
@@ -73,7 +86,7 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultEntr
     if (query === undefined) return;
     const seq = ++this._seq;
     try {
-      const matches = await this._controller.search(query, this._controller.settings.nearbyCount * 2);
+      const matches = await this._controller.search(query, this._controller.settings.nearbyCount * 2, this._feedback);
       if (seq === this._seq) this.setEntries(searchEntries(matches, this._controller.multiRoot));
     } catch {
       if (seq === this._seq) this.setEntries([]);
@@ -82,7 +95,8 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultEntr
 
   private setEntries(entries: ResultEntry[]): void {
     this._entries = entries;
-    if (this._view) this._view.description = searchViewDescription(this._query, entries.length);
+    const steer = feedbackDescription(this._feedback);
+    if (this._view) this._view.description = searchViewDescription(this._query, entries.length) + (steer ? ` · ${steer}` : '');
     this._onDidChangeTreeData.fire();
   }
 }

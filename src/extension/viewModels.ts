@@ -6,6 +6,35 @@
 import type { Why } from '../node/worker/insightProtocol.js';
 import type { ScoredFile, SearchMatch } from '../node/worker/workerProtocol.js';
 
+/** Files (fsPaths) a search should find more / fewer like ("More Like This" / "Fewer Like This"). */
+export interface SearchFeedback {
+  readonly like: readonly string[];
+  readonly unlike: readonly string[];
+}
+
+export const NO_FEEDBACK: SearchFeedback = Object.freeze({ like: [], unlike: [] });
+
+/**
+ * The feedback of a refined search: the file joins one list (and leaves the other); the query
+ * stays. The lists are kept short (the latest MAX_FEEDBACK_FILES of each, common practice).
+ */
+export function refineFeedback(current: SearchFeedback, fsPath: string, kind: 'like' | 'unlike'): SearchFeedback {
+  const other = kind === 'like' ? 'unlike' : 'like';
+  const add = [...current[kind].filter((p) => p !== fsPath), fsPath].slice(-MAX_FEEDBACK_FILES);
+  const keep = current[other].filter((p) => p !== fsPath);
+  return kind === 'like' ? { like: add, unlike: keep } : { like: keep, unlike: add };
+}
+
+export const MAX_FEEDBACK_FILES = 5;
+
+/** The Search Results view's description of the feedback in force ("+2 like, −1 unlike"), or ''. */
+export function feedbackDescription(feedback: SearchFeedback): string {
+  const parts: string[] = [];
+  if (feedback.like.length) parts.push(`more like ${feedback.like.length}`);
+  if (feedback.unlike.length) parts.push(`fewer like ${feedback.unlike.length}`);
+  return parts.join(', ');
+}
+
 export interface ResultEntry {
   readonly key: string;
   readonly fsPath: string;

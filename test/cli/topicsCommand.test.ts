@@ -69,11 +69,11 @@ describe('topics and --explain on the demo', () => {
 
   it('ask --explain --json gives term shares, concept and word-match parts, summing to the score', async () => {
     const r = await run('ask', demoRoot, 'engine overheating alarm', '--explain', '--json', '--top', '3');
-    const out = JSON.parse(r.out) as { results: { score: number; explain: { score: number; terms: { share: number; word: string }[]; rest: { share: number } } }[] };
+    const out = JSON.parse(r.out) as { results: { score: number; explain: { score: number; terms: { share: number; word: string }[]; rest: { share: number }; feedback: number } }[] };
     expect(out.results).toHaveLength(3);
     for (const res of out.results) {
       expect(res.explain.score).toBeCloseTo(res.score, 3);
-      expect(res.explain.terms.reduce((s, t) => s + t.share, 0) + res.explain.rest.share).toBeCloseTo(res.score, 3);
+      expect(res.explain.terms.reduce((s, t) => s + t.share, 0) + res.explain.rest.share + res.explain.feedback).toBeCloseTo(res.score, 3);
       expect(res.explain.terms.map((t) => t.word)).toContain('engine');
     }
   });

@@ -43,3 +43,19 @@ describe('result entries', () => {
     expect(searchViewDescription('x'.repeat(50), 3)).toBe(`“${'x'.repeat(39)}…” · 3 results`);
   });
 });
+
+describe('search feedback (More Like This / Fewer Like This)', () => {
+  it('moves a file between the lists, keeps the latest few, and describes them', async () => {
+    const { NO_FEEDBACK, refineFeedback, feedbackDescription, MAX_FEEDBACK_FILES } = await import('../../src/extension/viewModels.js');
+    let f = refineFeedback(NO_FEEDBACK, '/w/a.md', 'like');
+    expect(f).toEqual({ like: ['/w/a.md'], unlike: [] });
+    f = refineFeedback(f, '/w/b.md', 'unlike');
+    f = refineFeedback(f, '/w/a.md', 'unlike');
+    expect(f).toEqual({ like: [], unlike: ['/w/b.md', '/w/a.md'] });
+    for (let i = 0; i < 9; i++) f = refineFeedback(f, `/w/${i}.md`, 'like');
+    expect(f.like).toHaveLength(MAX_FEEDBACK_FILES);
+    expect(f.like.at(-1)).toBe('/w/8.md');
+    expect(feedbackDescription(f)).toBe(`more like ${MAX_FEEDBACK_FILES}, fewer like 2`);
+    expect(feedbackDescription(NO_FEEDBACK)).toBe('');
+  });
+});

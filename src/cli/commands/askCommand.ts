@@ -1,6 +1,10 @@
-/** `undertone ask <folder> "<text>"` and batch mode `--queries file.jsonl`. */
+/**
+ * `undertone ask <folder> "<text>"` (with `--like FILE` / `--unlike FILE` to steer it by files,
+ * repeatable) and batch mode `--queries file.jsonl`.
+ */
 import { readFile } from 'node:fs/promises';
-import { InvalidInputError, NoKnownTermsError } from '../../core/errors.js';
+import { relative, resolve } from 'node:path';
+import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../../core/errors.js';
 import { QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
@@ -36,15 +40,30 @@ export async function askCommand(folder: string, text: string | undefined, flags
     }
     return 0;
   }
-  if (!text || text.trim().length === 0) throw new InvalidInputError('ask needs a question in plain language, or --queries <file.jsonl>');
+  const likes = fileList(flags.like);
+  const unlikes = fileList(flags.unlike);
+  if ((!text || text.trim().length === 0) && likes.length === 0) throw new InvalidInputError('ask needs a question in plain language, a file to find more like (--like FILE), or --queries <file.jsonl>');
   const { index } = await ensureIndex(folder, flags, io);
-  printHits(index, text, top, flags, io);
+  const feedback = { like: likes.map((f) => indexedKey(index, folder, f)), unlike: unlikes.map((f) => indexedKey(index, folder, f)) };
+  printHits(index, text ?? '', top, flags, io, feedback);
   return 0;
 }
 
-function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io: Io): void {
-  const hits = index.search(text, { top });
-  const explainer = flags.explain ? new QueryExplainer(index, text) : null;
+function fileList(v: Flags[string]): string[] {
+  return Array.isArray(v) ? v : typeof v === 'string' ? [v] : [];
+}
+
+/** An indexed path for a file named relative to the folder or to the current directory. */
+function indexedKey(index: LsiIndex, folder: string, file: string): string {
+  const fromCwd = relative(resolve(folder), resolve(file)).split('\\').join('/');
+  const key = index.has(file) ? file : index.has(fromCwd) ? fromCwd : undefined;
+  if (key === undefined) throw new NotIndexedError(file);
+  return key;
+}
+
+function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io: Io, feedback: { like: string[]; unlike: string[] }): void {
+  const hits = index.search(text, { top, ...feedback });
+  const explainer = flags.explain ? new QueryExplainer(index, text, true, feedback) : null;
   const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
   forms.add(text);
   const why = (path: string): Explanation | null => explainer?.explain(path) ?? null;
@@ -72,6 +91,7 @@ export function explanationLine(e: Explanation, forms: SurfaceForms, count = 5):
   const { top, rest, restTerms } = topShares(e, count);
   const parts = top.map((t) => `${forms.wordFor(t.term)}${t.inBoth ? '' : '~'} ${t.share.toFixed(3)}`);
   if (restTerms > 0) parts.push(`${restTerms} more ${rest.toFixed(3)}`);
+  if (e.feedback !== 0) parts.push(`feedback ${e.feedback.toFixed(3)}`);
   return `        why: ${parts.join(', ') || 'no shared meaning'}  (= ${e.score.toFixed(3)})`;
 }
 
@@ -81,6 +101,7 @@ export function explanationJson(e: Explanation, forms: SurfaceForms, count = 10)
     score: round(e.score),
     terms: top.map((t) => ({ word: forms.wordFor(t.term), term: t.term, share: round(t.share), concept: round(t.concept), lexical: round(t.lexical), inBoth: t.inBoth })),
     rest: { terms: restTerms, share: round(rest) },
+    feedback: round(e.feedback),
   };
 }
 

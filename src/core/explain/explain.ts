@@ -11,11 +11,14 @@
  * contribute (through the terms it co-occurs with): that is what the concept space adds.
  * Two files: cos(â, b̂) decomposes over a's terms and, equally, over b's; the symmetric share is
  * the mean of the two, so each term of either file gets a share and they still sum to the cosine.
- * Search score: (1 − λ)·cos + λ·BM25/max BM25 (lsiIndex.ts); BM25 is a sum over query terms
- * (Bm25Scorer.termScore), so a term's share is (1 − λ)·(concept share) + λ·(its BM25)/max.
+ * Search score: (1 − λ)·cos(q′, d̂) + λ·BM25/max BM25 (lsiIndex.ts); BM25 is a sum over query terms
+ * (Bm25Scorer.termScore), so a term's share is (1 − λ)·(concept share) + λ·(its BM25)/max. With
+ * feedback (index/search/fusion.ts) the query vector is q′ = s·x/‖x‖ + f: the words keep their
+ * shares scaled by s, and (1 − λ)·f·d̂ is reported apart as the feedback part.
+ * Nearby score: (1 − μ)·cos + μ·BM25 of the first file's distinctive terms / max, split the same way.
  */
 import { NoKnownTermsError } from '../errors.js';
-import type { LsiIndex } from '../index/lsiIndex.js';
+import type { LsiIndex, SearchOptions } from '../index/lsiIndex.js';
 import type { DocTerms } from '../counting/termCounts.js';
 import { weightDocument } from '../weighting/termWeighting.js';
 
@@ -33,8 +36,13 @@ export interface TermShare {
 }
 
 export interface Explanation {
-  /** Σ of the shares: the score explained. */
+  /** Σ of the shares plus feedback: the score explained. */
   readonly score: number;
+  /**
+   * The part of the score that comes from feedback rather than from the words (the query moved
+   * towards the first pass's best files and the files marked like/unlike; fusion.ts); 0 for pairs.
+   */
+  readonly feedback: number;
   /** Every contributing term, largest |share| first (ties: term order). */
   readonly terms: readonly TermShare[];
 }
@@ -47,20 +55,36 @@ export class QueryExplainer {
   private readonly _lambda: number;
   private readonly _maxBm25: number;
   private readonly _slotOf = new Map<string, number>();
+  /** The final query vector minus `scale`·(the text's own unit vector): what feedback added. */
+  private readonly _moved: Float64Array | null = null;
+  private readonly _scale: number = 1;
 
-  /** blend = false explains the concept cosine alone (as nearby-style scores). */
-  constructor(private readonly _index: LsiIndex, text: string, blend = true) {
-    const q = _index.queryTerms(text);
-    if (q.termIds.length === 0) throw new NoKnownTermsError(text);
-    this._query = q;
+  /**
+   * blend = false explains the concept cosine of the text alone (no lexical part, no feedback).
+   * `feedback` passes the like/unlike files of the search being explained.
+   */
+  constructor(private readonly _index: LsiIndex, text: string, blend = true, feedback: Pick<SearchOptions, 'like' | 'unlike'> = {}) {
+    const plan = blend ? _index.searchPlan(text, feedback) : null;
+    const q = plan ? plan.terms : _index.queryTerms(text);
+    if (q.termIds.length === 0 && !plan) throw new NoKnownTermsError(text);
+    const lexQuery = plan ? plan.lexicalQuery : q;
+    this._query = lexQuery;
     const side = conceptRows(_index, q);
-    this._rows = side.rows;
-    this._lambda = blend ? _index.settings.lexicalBlend : 0;
-    this._conceptWeight = side.known > 0 ? 1 - this._lambda : 0;
+    this._lambda = plan ? plan.lambda : 0;
+    this._conceptWeight = (plan ? plan.known : side.known > 0) ? 1 - this._lambda : 0;
+    if (plan) {
+      this._scale = plan.scale;
+      const moved = Float64Array.from(plan.vector);
+      for (const { r } of side.rows) if (r) for (let c = 0; c < moved.length; c++) moved[c] -= plan.scale * r[c];
+      this._moved = moved;
+    }
+    // One row per lexical-query term (the text's terms have their concept rows, others none).
+    const rowOf = new Map(side.rows.map(({ id, r }) => [id, r]));
+    this._rows = Array.from(lexQuery.termIds, (id) => ({ id, r: rowOf.get(id) ?? null }));
     let max = 0;
     if (this._lambda > 0) {
       const all = new Float64Array(_index.slots().length);
-      _index.bm25().scoreInto(q, all);
+      _index.bm25().scoreInto(lexQuery, all);
       for (const v of all) max = Math.max(max, v);
     }
     this._maxBm25 = max;
@@ -75,28 +99,48 @@ export class QueryExplainer {
     const vocab = this._index.vocab;
     const out: TermShare[] = [];
     this._rows.forEach(({ id, r }, i) => {
-      const concept = r ? this._conceptWeight * dotF(r, d) : 0;
+      const concept = r ? this._conceptWeight * this._scale * dotF(r, d) : 0;
       const tf = countOf(doc, id);
       const lexical = this._lambda > 0 && this._maxBm25 > 0 ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot)) / this._maxBm25 : 0;
       if (concept !== 0 || lexical !== 0) out.push({ term: vocab.termOf(id), share: concept + lexical, concept, lexical, inBoth: tf > 0 });
     });
-    return finish(out);
+    return finish(out, this._moved ? this._conceptWeight * dotF(this._moved, d) : 0);
   }
 }
 
-/** Why two indexed files are near in concept space: shares summing to the cosine of their vectors. */
-export function explainPair(index: LsiIndex, pathA: string, pathB: string): Explanation {
+/**
+ * Why two indexed files are near: shares summing to the nearby score, (1 − μ)·cosine of their
+ * concept vectors (each term of either file's symmetric share) + μ·BM25 of A's distinctive terms
+ * in B / the best other file's (LsiIndex.nearbyPlan). fused = false: the cosine alone (symmetric).
+ */
+export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused = true): Explanation {
   const a = index.termsOf(pathA);
   const b = index.termsOf(pathB);
   const va = index.vectorOf(pathA);
   const vb = index.vectorOf(pathB);
-  const merged = new Map<number, number>();
+  const mu = fused ? index.ranking.nearbyLexical : 0;
+  const merged = new Map<number, { concept: number; lexical: number }>();
+  const entry = (id: number): { concept: number; lexical: number } => {
+    let e = merged.get(id);
+    if (!e) merged.set(id, (e = { concept: 0, lexical: 0 }));
+    return e;
+  };
   for (const [terms, other] of [[a, vb], [b, va]] as const) {
-    for (const { id, r } of conceptRows(index, terms).rows) if (r) merged.set(id, (merged.get(id) ?? 0) + 0.5 * dotF(r, other));
+    for (const { id, r } of conceptRows(index, terms).rows) if (r) entry(id).concept += (1 - mu) * 0.5 * dotF(r, other);
+  }
+  if (mu > 0) {
+    const { lexicalQuery, max } = index.nearbyPlan(pathA);
+    const slotB = index.slots().findIndex((s) => s?.meta.path === pathB);
+    const bm25 = index.bm25();
+    if (max > 0) lexicalQuery.termIds.forEach((id, i) => {
+      const tf = countOf(b, id);
+      if (tf > 0) entry(id).lexical += (mu * bm25.termScore(id, lexicalQuery.counts[i], tf, slotB)) / max;
+    });
   }
   const out: TermShare[] = [];
-  for (const [id, share] of merged) {
-    if (share !== 0) out.push({ term: index.vocab.termOf(id), share, concept: share, lexical: 0, inBoth: countOf(a, id) > 0 && countOf(b, id) > 0 });
+  for (const [id, { concept, lexical }] of merged) {
+    const share = concept + lexical;
+    if (share !== 0) out.push({ term: index.vocab.termOf(id), share, concept, lexical, inBoth: countOf(a, id) > 0 && countOf(b, id) > 0 });
   }
   return finish(out);
 }
@@ -166,9 +210,9 @@ function countOf(doc: DocTerms, id: number): number {
   return 0;
 }
 
-function finish(terms: TermShare[]): Explanation {
+function finish(terms: TermShare[], feedback = 0): Explanation {
   terms.sort((x, y) => Math.abs(y.share) - Math.abs(x.share) || (x.term < y.term ? -1 : x.term > y.term ? 1 : 0));
-  let score = 0;
+  let score = feedback;
   for (const t of terms) score += t.share;
-  return { score, terms };
+  return { score, terms, feedback };
 }

@@ -7,7 +7,8 @@
  * The unit vectors sit in one block (conceptRows.ts); search and nearby screen them with 8-bit codes and exact
  * bounds (conceptCodes.ts, screenedTop.ts) and take exact products only for rows that can place,
  * so the ranking is that of a full pass. The BM25 scorer is made on first use (it builds the
- * postings of a term when a query first needs it) and then kept up to date; nearby never needs it.
+ * postings of a term when a query first needs it) and then kept up to date. How the concept and
+ * lexical evidence combine, with feedback, is in search/fusion.ts.
  * A caller that keeps the index open (the editor's worker) can call prepare() to build both the
  * codes and every term's postings ahead of time, in slices, so no search pays for them; a search
  * that arrives while the codes are half made takes a full pass instead of finishing them.
@@ -15,6 +16,7 @@
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
 import { Bm25Scorer } from './search/bm25.js';
+import { DEFAULT_RANKING_OPTIONS, QUESTION_FILLER, distinctiveTerms, mergeTerms, rocchio, stripPointing, type RankingOptions } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
@@ -29,6 +31,19 @@ export type { Staleness, StalenessCounters } from './update/staleness.js';
 export { DEFAULT_PREPARE_OPTIONS, type DocMeta, type DocSlot, type NearbyHit, type PrepareOptions, type SearchHit, type SearchOptions } from './searchTypes.js';
 import { DEFAULT_PREPARE_OPTIONS, type DocMeta, type DocSlot, type NearbyHit, type PrepareOptions, type SearchHit, type SearchOptions } from './searchTypes.js';
 
+/** What a search ranks with (LsiIndex.searchPlan). */
+export interface SearchPlan {
+  readonly terms: DocTerms;
+  readonly lexicalQuery: DocTerms;
+  readonly vector: Float32Array;
+  readonly scale: number;
+  readonly known: boolean;
+  readonly lexical: Float64Array;
+  readonly accept: (slot: number) => boolean;
+  /** The lexical share λ of this query (settings.lexicalBlend, raised by coverageBlend). */
+  readonly lambda: number;
+}
+
 export class LsiIndex {
   private _slots: (DocSlot | null)[];
   private readonly _rows: ConceptRows;
@@ -38,6 +53,9 @@ export class LsiIndex {
   private _codes: ConceptCodes | null | undefined;
   private readonly _screen = new ScreenScratch();
   private readonly _changes = new ChangeCounters();
+  private _filler: ReadonlySet<string> | null = null;
+  /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
+  ranking: RankingOptions = DEFAULT_RANKING_OPTIONS;
 
   private constructor(
     readonly settings: IndexSettings,
@@ -104,9 +122,19 @@ export class LsiIndex {
     return this._rows.rows.subarray(0, this._slots.length * this.k);
   }
 
-  /** Counts a query's terms against the vocabulary without growing it. */
+  /**
+   * Counts a query's terms against the vocabulary without growing it. Question filler words
+   * (fusion.ts) are left out when known words remain without them.
+   */
   queryTerms(text: string): DocTerms {
-    return countTerms(tokenize(text, this.settings.tokenize), this.vocab, false);
+    const tokens = tokenize(text, this.settings.tokenize);
+    if (this.ranking.dropFiller) {
+      this._filler ??= new Set(tokenize(QUESTION_FILLER.join(' '), this.settings.tokenize));
+      const filler = this._filler;
+      const kept = countTerms(tokenize(stripPointing(text), this.settings.tokenize).filter((t) => !filler.has(t)), this.vocab, false);
+      if (kept.termIds.length > 0) return kept;
+    }
+    return countTerms(tokens, this.vocab, false);
   }
 
   /** Concept vector of free text (zeros if no model term occurs). */
@@ -114,47 +142,140 @@ export class LsiIndex {
     return projectTerms(this.model, this.queryTerms(text)).vector;
   }
 
-  /** Ranks documents by meaning for plain-language text. Throws NoKnownTermsError for unknown words. */
+  /**
+   * Ranks documents by meaning for plain-language text: the query's concept cosine (after
+   * pseudo-relevance feedback, and moved towards files marked like / away from files marked
+   * unlike) blended with max-normalised BM25 (fusion.ts). Files marked like or unlike are not
+   * ranked. Throws NoKnownTermsError when neither the text nor a liked file gives known words.
+   */
   search(text: string, options: Partial<SearchOptions> = {}): SearchHit[] {
-    const top = options.top ?? 10;
+    const plan = this.searchPlan(text, options);
+    const { lexical, accept } = plan;
+    const lambda = plan.lambda;
+    const { ranked, product } = this.rank(plan.vector, plan.known ? 1 - lambda : 0, lambda, lexical, options.top ?? 10, accept, this._scratch.subarray(this._slots.length, 2 * this._slots.length));
+    return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
+  }
+
+  /**
+   * What a search ranks with: the text's terms, the lexical query (the text's terms and the liked
+   * files' distinctive terms), the final concept query vector (after pseudo-relevance and user
+   * feedback; `scale` is the factor the text's own unit vector carries in it), the BM25 scores
+   * divided by their maximum (a view overwritten by the next search) and the slots that may rank.
+   */
+  searchPlan(text: string, options: Partial<SearchOptions> = {}): SearchPlan {
+    const r = this.ranking;
     const q = this.queryTerms(text);
-    if (q.termIds.length === 0) throw new NoKnownTermsError(text);
+    const liked = (options.like ?? []).map((p) => this.slot(p));
+    const unliked = (options.unlike ?? []).map((p) => this.slot(p));
+    if (q.termIds.length === 0 && liked.length === 0) throw new NoKnownTermsError(text);
+    let lexQuery = q;
+    for (const s of liked) lexQuery = mergeTerms(lexQuery, this.fileQuery(s, r.likeWeight / liked.length));
     const proj = projectTerms(this.model, q);
     const n = this._slots.length;
     // Two reused n-long arrays (allocating 2 × 8n bytes per query made the collector run often).
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
-    const blended = this._scratch.subarray(n, 2 * n);
-    const lambda = this.settings.lexicalBlend;
+    let lambda = this.settings.lexicalBlend;
     if (lambda > 0) {
-      this.bm25().scoreInto(q, lexical);
+      this.bm25().scoreInto(lexQuery, lexical);
       divideByMax(lexical);
+      if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
     }
-    const weight = proj.knownTerms > 0 ? 1 - lambda : 0;
-    const accept = this.acceptor(options.filter);
-    const codes = this.codes();
-    const screened = codes && screenedTop({ codes, rows: this._rows, q: proj.vector, n, top, accept, a: weight, extra: { b: lambda, values: lexical } }, this._screen);
-    if (screened) {
-      return screened.ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: screened.product(slot), lexicalScore: lexical[slot] }));
+    const marked = new Set([...liked, ...unliked]);
+    const live = this.acceptor(options.filter);
+    const accept = marked.size ? (j: number): boolean => !marked.has(j) && live(j) : live;
+    let vector = proj.vector;
+    let scale = proj.knownTerms > 0 ? 1 : 0;
+    let known = proj.knownTerms > 0;
+    if (known && r.feedbackDocs > 0 && r.feedbackWeight > 0) {
+      const first = this.rank(vector, 1 - lambda, lambda, lexical, r.feedbackDocs, accept, this._scratch.subarray(n, 2 * n));
+      const moved = rocchio(vector, [{ weight: r.feedbackWeight, vectors: first.ranked.map(({ slot }) => this.slotVector(slot)) }]);
+      if (moved) [vector, scale] = [moved.vector, scale * moved.scale];
     }
-    const concept = this.liveDots(proj.vector);
-    blend(weight, concept, lambda, lexical, blended);
-    return topN(blended, top, accept).map(({ slot, score }) => ({
-      path: this._slots[slot]!.meta.path,
-      score,
-      conceptScore: concept[slot],
-      lexicalScore: lexical[slot],
-    }));
+    if (liked.length > 0 || unliked.length > 0) {
+      const moved = rocchio(vector, [
+        { weight: r.likeWeight, vectors: liked.map((s) => this.slotVector(s)) },
+        { weight: -r.unlikeWeight, vectors: unliked.map((s) => this.slotVector(s)) },
+      ]);
+      if (moved) [vector, scale, known] = [moved.vector, scale * moved.scale, true];
+    }
+    return { terms: q, lexicalQuery: lexQuery, vector, scale, known, lexical, accept, lambda };
   }
 
-  /** The files nearest in meaning to a file (cosine of concept vectors), itself excluded. */
+  /**
+   * The files nearest in meaning to a file, itself excluded: the concept cosine blended with the
+   * BM25 score of the file's most distinctive terms against the others, divided by the best
+   * other file's (fusion.ts).
+   */
   nearby(path: string, options: Partial<SearchOptions> = {}): NearbyHit[] {
     const self = this.slot(path);
     const live = this.acceptor(options.filter);
     const accept = (j: number): boolean => j !== self && live(j);
-    const [top, q, n, codes] = [options.top ?? 10, this.vectorOf(path), this._slots.length, this.codes()];
-    const screened = codes && screenedTop({ codes, rows: this._rows, q, n, top, accept, a: 1 }, this._screen);
-    return (screened ? screened.ranked : topN(this.liveDots(q), top, accept)).map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score }));
+    const n = this._slots.length;
+    const mu = this.ranking.nearbyLexical;
+    const { lexical } = this.nearbyPlan(path);
+    const { ranked, product } = this.rank(this.vectorOf(path), 1 - mu, mu, lexical, options.top ?? 10, accept, this._scratch.subarray(n, 2 * n));
+    return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
+  }
+
+  /**
+   * Nearby's lexical evidence for a file: its lexical query (most distinctive terms), the best
+   * BM25 score among the other files, and every file's score divided by it (itself 0; a view
+   * overwritten by the next search). Without a lexical share (nearbyLexical = 0) all zeros.
+   */
+  nearbyPlan(path: string): { lexicalQuery: DocTerms; max: number; lexical: Float64Array } {
+    const self = this.slot(path);
+    const n = this._slots.length;
+    if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
+    const lexical = this._scratch.subarray(0, n).fill(0);
+    const lexicalQuery = this.fileQuery(self, 1);
+    let max = 0;
+    if (this.ranking.nearbyLexical > 0) {
+      this.bm25().scoreInto(lexicalQuery, lexical);
+      lexical[self] = 0;
+      max = divideByMax(lexical);
+    }
+    return { lexicalQuery, max, lexical };
+  }
+
+  /** The idf-weighted share of a query's terms that the concept model does not know (0…1). */
+  private unknownShare(q: DocTerms): number {
+    const { columnOf } = this.model;
+    let all = 0;
+    let unknown = 0;
+    for (let i = 0; i < q.termIds.length; i++) {
+      const t = q.termIds[i];
+      const w = q.counts[i] * this.bm25().idf(t);
+      all += w;
+      if (t >= columnOf.length || columnOf[t] < 0) unknown += w;
+    }
+    return all > 0 ? unknown / all : 0;
+  }
+
+  /** A file's lexical query: its most distinctive terms with their counts, times `weight`. */
+  private fileQuery(slot: number, weight: number): DocTerms {
+    const terms = distinctiveTerms(this._slots[slot]!.terms, this.ranking.nearbyTerms, (t) => this.bm25().idf(t));
+    if (weight !== 1) for (let i = 0; i < terms.counts.length; i++) terms.counts[i] *= weight;
+    return terms;
+  }
+
+  private slotVector(slot: number): Float32Array {
+    return this._rows.rows.subarray(slot * this.k, (slot + 1) * this.k);
+  }
+
+  /**
+   * Top N of a·(v_j·q) + b·lexical_j over accepted slots: screened with the 8-bit codes when they
+   * are ready (the same ranking and scores as a full pass), else a full pass into `scratch`.
+   */
+  private rank(q: Float32Array, a: number, b: number, lexical: Float64Array, top: number, accept: (slot: number) => boolean, scratch: Float64Array): { ranked: { slot: number; score: number }[]; product: (slot: number) => number } {
+    const codes = this.codes();
+    const n = this._slots.length;
+    const screened = codes && a > 0 && screenedTop({ codes, rows: this._rows, q, n, top, accept, a, ...(b > 0 ? { extra: { b, values: lexical } } : {}) }, this._screen);
+    if (screened) return { ranked: screened.ranked, product: (slot) => screened.product(slot) };
+    const concept = this.liveDots(q);
+    blend(a, concept, b, lexical, scratch);
+    const ranked = topN(scratch, top, accept);
+    return { ranked, product: (slot) => concept[slot] };
   }
 
   /** Cosine of a unit concept vector with every slot (holes score −Infinity). */
@@ -263,7 +384,7 @@ export class LsiIndex {
 
   /** The lexical scorer over all current documents (made on first use, then kept up to date). */
   bm25(): Bm25Scorer {
-    if (!this._bm25) this._bm25 = new Bm25Scorer(this._slots.map((s) => s?.terms ?? null));
+    if (!this._bm25) this._bm25 = new Bm25Scorer(this._slots.map((s) => s?.terms ?? null), { b: this.ranking.lengthNorm });
     return this._bm25;
   }
 
@@ -277,11 +398,12 @@ export class LsiIndex {
 // The loops over every slot live in small functions of their own, which the engine optimises
 // whole (loops inside a long method are optimised on their own and leave it at each exit).
 
-/** a[j] /= max(a) when the maximum is positive. */
-function divideByMax(a: Float64Array): void {
+/** a[j] /= max(a) when the maximum is positive; returns the maximum (0 when none is positive). */
+function divideByMax(a: Float64Array): number {
   let max = 0;
   for (let j = 0; j < a.length; j++) max = Math.max(max, a[j]);
   if (max > 0) for (let j = 0; j < a.length; j++) a[j] /= max;
+  return max;
 }
 
 /** out[j] = wa·a[j] + wb·b[j]. */

@@ -22,7 +22,7 @@ export interface DocSlot {
 
 export interface SearchHit {
   readonly path: string;
-  /** The ranking score: (1 − λ)·cosine + λ·BM25/max BM25. */
+  /** The ranking score: (1 − λ)·cosine + λ·BM25/max BM25 (cosine of the query after feedback, fusion.ts). */
   readonly score: number;
   /** Cosine similarity in concept space. */
   readonly conceptScore: number;
@@ -32,8 +32,12 @@ export interface SearchHit {
 
 export interface NearbyHit {
   readonly path: string;
-  /** Cosine similarity of the two files' concept vectors. */
+  /** The ranking score: (1 − μ)·cosine + μ·lexical (fusion.ts, RankingOptions.nearbyLexical). */
   readonly score: number;
+  /** Cosine similarity of the two files' concept vectors. */
+  readonly conceptScore: number;
+  /** BM25 of the file's most distinctive terms, divided by the best other file's (0…1). */
+  readonly lexicalScore: number;
 }
 
 export interface SearchOptions {
@@ -41,6 +45,10 @@ export interface SearchOptions {
   top: number;
   /** Only paths for which this returns true are ranked. */
   filter?: (path: string) => boolean;
+  /** Search only: indexed files to find more like (Rocchio feedback; they are not ranked). */
+  like?: readonly string[];
+  /** Search only: indexed files to find fewer like (Rocchio feedback; they are not ranked). */
+  unlike?: readonly string[];
 }
 
 export interface PrepareOptions {

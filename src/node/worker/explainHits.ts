@@ -5,7 +5,7 @@
  * rest summed. An explanation that fails leaves its result without one rather than failing it.
  */
 import { explainPair, QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
-import type { LsiIndex } from '../../core/index/lsiIndex.js';
+import type { LsiIndex, SearchOptions } from '../../core/index/lsiIndex.js';
 import type { Why } from './insightProtocol.js';
 import type { WordFor } from './wordForms.js';
 
@@ -14,15 +14,16 @@ export const WHY_TERMS = 5;
 
 export function toWhy(e: Explanation, wordFor: WordFor, count = WHY_TERMS): Why {
   const { top, rest, restTerms } = topShares(e, count);
-  return { score: e.score, terms: top.map((t) => ({ word: wordFor(t.term), share: t.share, inBoth: t.inBoth })), rest, restTerms };
+  // The feedback part (fusion.ts) counts with the rest, so the parts still add up to the score.
+  return { score: e.score, terms: top.map((t) => ({ word: wordFor(t.term), share: t.share, inBoth: t.inBoth })), rest: rest + e.feedback, restTerms };
 }
 
 /** Why each file matches a query (blended score: concept cosine and BM25, as search ranks). */
-export function searchWhy(index: LsiIndex, query: string, paths: readonly string[], wordFor: WordFor): (Why | undefined)[] {
+export function searchWhy(index: LsiIndex, query: string, paths: readonly string[], wordFor: WordFor, feedback: Pick<SearchOptions, 'like' | 'unlike'> = {}): (Why | undefined)[] {
   if (paths.length === 0) return [];
   let explainer: QueryExplainer;
   try {
-    explainer = new QueryExplainer(index, query);
+    explainer = new QueryExplainer(index, query, true, feedback);
   } catch {
     return paths.map(() => undefined);
   }

@@ -9,6 +9,7 @@
  */
 import { rm, stat } from 'node:fs/promises';
 import { basename } from 'node:path';
+import { NotIndexedError } from '../../core/errors.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { modelSettingsKey, resolveSettings } from '../../core/index/model/settings.js';
 import { loadIndex, saveIndex } from '../persist.js';
@@ -79,7 +80,7 @@ export class IndexService {
       refresh: async ({ maxFoldShare }) => this.refresh(maxFoldShare),
       build: async (_p, ctx) => this.build(ctx),
       update: async ({ changes }) => this.update(changes),
-      search: async ({ query, top }) => this.search(query, top),
+      search: async ({ query, top, like, unlike }) => this.search(query, top, like, unlike),
       nearby: async ({ fsPath, top }) => this.nearby(fsPath, top),
       save: async () => ({ saved: await this.save() }),
       deleteIndex: async () => this.deleteIndex(),
@@ -137,10 +138,16 @@ export class IndexService {
     return { summary: this.summary(), folded, removed, ms: performance.now() - t0 };
   }
 
-  async search(query: string, top: number) {
+  async search(query: string, top: number, like: readonly string[] = [], unlike: readonly string[] = []) {
     const index = this.requireIndex();
-    const hits = index.search(query, { top });
-    const why = searchWhy(index, query, hits.map((h) => h.path), formsFromTexts([query], index.settings.tokenize.stem));
+    const keyOf = (fsPath: string): string => {
+      const key = this._roots.keyOf(fsPath);
+      if (key === undefined || !index.has(key)) throw new NotIndexedError(fsPath);
+      return key;
+    };
+    const feedback = { like: like.map(keyOf), unlike: unlike.map(keyOf) };
+    const hits = index.search(query, { top, ...feedback });
+    const why = searchWhy(index, query, hits.map((h) => h.path), formsFromTexts([query], index.settings.tokenize.stem), feedback);
     return Promise.all(
       hits.map(async (h, i) => {
         const ref = this._roots.refOf(h.path);

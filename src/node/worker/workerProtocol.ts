@@ -107,7 +107,8 @@ export interface RequestMap extends InsightRequestMap {
   build: { params: Record<string, never>; result: BuildReport };
   /** Folds in or removes changed files. */
   update: { params: { changes: readonly FileChange[] }; result: UpdateReport };
-  search: { params: { query: string; top: number }; result: readonly SearchMatch[] };
+  /** `like` / `unlike`: files (fsPaths) to find more / fewer like (Rocchio feedback; they are not listed). */
+  search: { params: { query: string; top: number; like?: readonly string[]; unlike?: readonly string[] }; result: readonly SearchMatch[] };
   /** Files nearest in meaning; null when the file is not in the index. */
   nearby: { params: { fsPath: string; top: number }; result: readonly ScoredFile[] | null };
   /** Writes the index if it changed since it was last saved. */

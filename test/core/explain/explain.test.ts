@@ -34,8 +34,8 @@ describe('explanations on CISI', () => {
       for (const hit of index.search(q, { top: 10 })) {
         const e = explainer.explain(hit.path);
         expect(e.score).toBeCloseTo(hit.score, 5);
-        expect(e.terms.reduce((s, t) => s + t.share, 0)).toBeCloseTo(hit.score, 5);
-        expect(e.terms.reduce((s, t) => s + t.concept, 0)).toBeCloseTo((1 - lambda) * hit.conceptScore, 5);
+        expect(e.terms.reduce((s, t) => s + t.share, 0) + e.feedback).toBeCloseTo(hit.score, 5);
+        expect(e.terms.reduce((s, t) => s + t.concept, 0) + e.feedback).toBeCloseTo((1 - lambda) * hit.conceptScore, 5);
         expect(e.terms.reduce((s, t) => s + t.lexical, 0)).toBeCloseTo(lambda * hit.lexicalScore, 5);
         checked++;
       }
@@ -73,12 +73,17 @@ describe('explanations on CISI', () => {
     }
   });
 
-  it('file-to-file shares add up to the nearby cosine and do not depend on the order of the two files', () => {
+  it('file-to-file shares add up to the nearby score and its two parts; the cosine part does not depend on the order of the two files', () => {
+    const mu = index.ranking.nearbyLexical;
     for (const path of index.paths().slice(0, 10)) {
       for (const hit of index.nearby(path, { top: 5 })) {
-        const ab = explainPair(index, path, hit.path);
-        const ba = explainPair(index, hit.path, path);
-        expect(ab.score).toBeCloseTo(hit.score, 5);
+        const fused = explainPair(index, path, hit.path);
+        expect(fused.score).toBeCloseTo(hit.score, 5);
+        expect(fused.terms.reduce((s, t) => s + t.concept, 0)).toBeCloseTo((1 - mu) * hit.conceptScore, 5);
+        expect(fused.terms.reduce((s, t) => s + t.lexical, 0)).toBeCloseTo(mu * hit.lexicalScore, 5);
+        const ab = explainPair(index, path, hit.path, false);
+        const ba = explainPair(index, hit.path, path, false);
+        expect(ab.score).toBeCloseTo(hit.conceptScore, 5);
         expect(ba.score).toBeCloseTo(ab.score, 9);
         expect(ba.terms.map((t) => t.term)).toEqual(ab.terms.map((t) => t.term));
       }
@@ -91,7 +96,7 @@ describe('explanations on CISI', () => {
     const e = new QueryExplainer(index, q).explain(hit.path);
     for (let i = 1; i < e.terms.length; i++) expect(Math.abs(e.terms[i].share)).toBeLessThanOrEqual(Math.abs(e.terms[i - 1].share));
     const t = topShares(e, 3);
-    expect(t.top.reduce((s, x) => s + x.share, 0) + t.rest).toBeCloseTo(e.score, 12);
+    expect(t.top.reduce((s, x) => s + x.share, 0) + t.rest + e.feedback).toBeCloseTo(e.score, 12);
   });
 });
 

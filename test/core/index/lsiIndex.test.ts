@@ -73,18 +73,13 @@ describe('LsiIndex', () => {
  * ln(1 + (N − df + 0.5)/(df + 0.5)), k1 = 1.2, b = 0.75); blended (1 − λ)·cosine + λ·BM25/max;
  * every occupied slot sorted by score, ties by slot.
  */
-function plainSearch(index: LsiIndex, text: string, top: number): { path: string; score: number }[] {
+/** BM25 (k1 = 1.2, b = 0.75) of a query's terms in every slot, written out from the formula. */
+function plainBm25(index: LsiIndex, q: DocTerms): number[] {
   const slots = index.slots();
-  const q = index.queryTerms(text);
-  const proj = projectTerms(index.model, q);
   const present = slots.filter((s) => s !== null).map((s) => s.terms);
   const avg = present.reduce((a, d) => a + d.length, 0) / present.length;
-  const tfOf = (d: DocTerms, t: number): number => {
-    const i = d.termIds.indexOf(t);
-    return i < 0 ? 0 : d.counts[i];
-  };
   const df = Array.from(q.termIds, (t) => present.filter((d) => tfOf(d, t) > 0).length);
-  const bm25 = slots.map((s) => {
+  return slots.map((s) => {
     if (!s) return 0;
     let score = 0;
     q.termIds.forEach((t, i) => {
@@ -95,30 +90,58 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
     });
     return score;
   });
-  const max = Math.max(...bm25);
-  const lambda = index.settings.lexicalBlend;
-  const ranked: { path: string; score: number; slot: number }[] = [];
-  slots.forEach((s, j) => {
-    if (!s) return;
-    const v = index.vectorOf(s.meta.path);
-    let cos = 0;
-    for (let c = 0; c < index.k; c++) cos += proj.vector[c] * v[c];
-    ranked.push({ path: s.meta.path, slot: j, score: (proj.knownTerms > 0 ? 1 - lambda : 0) * cos + lambda * (max > 0 ? bm25[j] / max : 0) });
-  });
-  return ranked.sort((a, b) => b.score - a.score || a.slot - b.slot).slice(0, top);
 }
 
-function plainNearby(index: LsiIndex, path: string, top: number): { path: string; score: number }[] {
-  const self = index.vectorOf(path);
+function tfOf(d: DocTerms, t: number): number {
+  const i = d.termIds.indexOf(t);
+  return i < 0 ? 0 : d.counts[i];
+}
+
+/** Top of (1 − a)·cos(q, v_j) + a·lexical_j/max over slots (skip excluded). */
+function plainBlend(index: LsiIndex, q: Float32Array, wc: number, a: number, lexical: number[], top: number, skip = ''): { path: string; score: number; slot: number }[] {
+  const max = Math.max(...lexical);
   const ranked: { path: string; score: number; slot: number }[] = [];
   index.slots().forEach((s, j) => {
-    if (!s || s.meta.path === path) return;
+    if (!s || s.meta.path === skip) return;
     const v = index.vectorOf(s.meta.path);
     let cos = 0;
-    for (let c = 0; c < index.k; c++) cos += self[c] * v[c];
-    ranked.push({ path: s.meta.path, slot: j, score: cos });
+    for (let c = 0; c < index.k; c++) cos += q[c] * v[c];
+    ranked.push({ path: s.meta.path, slot: j, score: wc * cos + a * (max > 0 ? lexical[j] / max : 0) });
   });
-  return ranked.sort((a, b) => b.score - a.score || a.slot - b.slot).slice(0, top);
+  return ranked.sort((x, y) => y.score - x.score || x.slot - y.slot).slice(0, top);
+}
+
+/** Search as documented: BM25 blend, then Rocchio with the first pass's 5 best files (weight 0.25). */
+function plainSearch(index: LsiIndex, text: string, top: number): { path: string; score: number }[] {
+  const q = index.queryTerms(text);
+  const proj = projectTerms(index.model, q);
+  const bm25 = plainBm25(index, q);
+  const lambda = index.settings.lexicalBlend;
+  const wc = proj.knownTerms > 0 ? 1 - lambda : 0;
+  let vector = proj.vector;
+  if (proj.knownTerms > 0) {
+    const first = plainBlend(index, vector, wc, lambda, bm25, 5);
+    const acc = Float64Array.from(vector);
+    for (const f of first) {
+      const v = index.vectorOf(f.path);
+      for (let c = 0; c < acc.length; c++) acc[c] += (0.25 / first.length) * v[c];
+    }
+    const norm = Math.hypot(...acc);
+    vector = Float32Array.from(acc, (x) => x / norm);
+  }
+  return plainBlend(index, vector, wc, lambda, bm25, top);
+}
+
+/** Nearby as documented: ½ cosine + ½ BM25 of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other file's. */
+function plainNearby(index: LsiIndex, path: string, top: number): { path: string; score: number }[] {
+  const d = index.termsOf(path);
+  const idf = (t: number): number => index.bm25().idf(t);
+  const order = Array.from(d.termIds.keys()).sort((a, b) => Math.log1p(d.counts[b]) * idf(d.termIds[b]) - Math.log1p(d.counts[a]) * idf(d.termIds[a]) || a - b);
+  const kept = order.slice(0, 40).sort((a, b) => a - b);
+  const query: DocTerms = { termIds: Int32Array.from(kept, (i) => d.termIds[i]), counts: Float32Array.from(kept, (i) => d.counts[i]), length: 0 };
+  const lexical = plainBm25(index, query);
+  lexical[index.slots().findIndex((s) => s?.meta.path === path)] = 0;
+  return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path);
 }
 
 describe('LsiIndex ranking against the plain formula', () => {
