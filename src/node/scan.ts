@@ -13,10 +13,10 @@
  * reached twice through links is listed under needs the identity check done here.
  */
 
-import { stat } from 'node:fs/promises';
+import { opendir, stat } from 'node:fs/promises';
 import { resolve } from 'node:path';
 import { UndertoneError } from '../core/errors.js';
-import { checkByteCap } from './scanRead.js';
+import { checkByteCap, describeFsError } from './scanRead.js';
 import { walkFolder } from './scanWalk.js';
 
 export { readIndexableText, type IndexableText } from './scanRead.js';
@@ -46,6 +46,14 @@ export interface ScanOptions {
   readonly honourGitignore: boolean;
   /** Follow symbolic links to files and folders (each folder is still visited once). @default true */
   readonly followSymlinks: boolean;
+  /**
+   * Also follow links whose real path lies outside the scanned folder (and outside linkRoots).
+   * Off by default: a link must not carry files from elsewhere (/etc, a secret) into the index.
+   * @default false
+   */
+  readonly followLinksOutside: boolean;
+  /** Further folders whose files links may reach without followLinksOutside (the other folders of a workspace). @default [] */
+  readonly linkRoots?: readonly string[];
 }
 
 /** Defaults (the 1 MiB cap is common practice: larger text files are mostly generated or data). */
@@ -56,6 +64,8 @@ export const DEFAULT_SCAN_OPTIONS: ScanOptions = Object.freeze({
   maxFileBytes: 1_048_576,
   honourGitignore: true,
   followSymlinks: true,
+  followLinksOutside: false,
+  linkRoots: [],
 });
 
 /** One file kept by the scan. */
@@ -74,7 +84,13 @@ export type SkipReason =
   | 'unreadable'
   | 'symlink-loop'
   | 'symlink-duplicate'
-  | 'broken-symlink';
+  | 'broken-symlink'
+  /** A link whose real path is outside the folder (followLinksOutside is off). */
+  | 'outside-folder'
+  /** A device, FIFO, socket or pseudo-file (never read). */
+  | 'not-a-file'
+  /** A name that is not valid UTF-8 (its bytes are escaped in `path`). */
+  | 'bad-name';
 
 export interface SkippedPath {
   /** Relative to the scanned root, '/'-separated ('.' for the root itself). */
@@ -125,6 +141,11 @@ export async function scanFolder(
     throw new FolderNotFoundError(abs, code === 'ENOENT' || code === 'ENOTDIR' ? 'does not exist' : `cannot be read (${code})`);
   }
   if (!rootStat.isDirectory()) throw new FolderNotFoundError(abs, 'is a file, not a folder');
+  try {
+    await (await opendir(abs)).close();
+  } catch (err) {
+    throw new FolderNotFoundError(abs, `cannot be read (${(err as NodeJS.ErrnoException).code ?? describeFsError(err)})`);
+  }
   const { files, skipped } = await walkFolder(abs, `${rootStat.dev}:${rootStat.ino}`, opts, signal);
   files.sort((a, b) => compareCodeUnits(a.path, b.path));
   skipped.sort((a, b) => compareCodeUnits(a.path, b.path));
@@ -141,6 +162,8 @@ function withDefaults(options: Partial<ScanOptions>): ScanOptions {
     maxFileBytes: options.maxFileBytes ?? d.maxFileBytes,
     honourGitignore: options.honourGitignore ?? d.honourGitignore,
     followSymlinks: options.followSymlinks ?? d.followSymlinks,
+    followLinksOutside: options.followLinksOutside ?? d.followLinksOutside,
+    linkRoots: options.linkRoots ?? d.linkRoots,
   };
 }
 

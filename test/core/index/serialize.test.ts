@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CorruptIndexError } from '../../../src/core/errors.js';
 import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import { decodeIndex, encodeIndex, INDEX_FORMAT_VERSION, payloadOf, readIndexHeader, sealIndexFile } from '../../../src/core/index/serialize.js';
+import { decodeIndex, encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../../src/core/index/serialize.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { loadCollection, missingMessage } from '../../helpers/shared.js';
 
