@@ -14,8 +14,8 @@ import { tokenize } from '../core/text/tokenize.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
 import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
-import { loadIndex, saveIndex } from './persist.js';
-import { readIndexableText, scanFolder, type ScanOptions } from './scan.js';
+import { loadIndex, trySaveIndex } from './persist.js';
+import { readIndexableText, scanFolder, type ScanOptions, type SkippedPath } from './scan.js';
 
 export type IndexStage = 'load' | 'scan' | 'read' | 'matrix' | 'svd' | 'save';
 
@@ -50,6 +50,10 @@ export interface FolderIndexReport {
   readonly outcome: 'fresh' | 'refreshed' | 'unchanged';
   /** Why a saved index could not be used, when it could not. */
   readonly savedIndexProblem?: string;
+  /** Why the new index could not be saved (it is still returned, in memory), when it could not. */
+  readonly saveProblem?: string;
+  /** What the scan left out and why (links outside the folder, special files, bad names, …). */
+  readonly scanSkipped: readonly SkippedPath[];
   readonly files: number;
   readonly reused: number;
   readonly read: number;
@@ -182,7 +186,7 @@ async function indexWithPool(
   const removed = previous ? previous.paths().filter((p) => !present.has(p)).length : 0;
   if (builder.size === 0) throw new EmptyCorpusError(`Nothing indexable in ${scan.root}: no text files remain after excludes.`);
 
-  const common = { files: builder.size, reused, read, added, changed, removed, bytesRead, skipped, savedIndexProblem };
+  const common = { files: builder.size, reused, read, added, changed, removed, bytesRead, skipped, savedIndexProblem, scanSkipped: scan.skipped };
   const unchanged = previous && sameModel && read === 0 && removed === 0 && previous.size === builder.size && !options.force && previous.staleness().changedFiles === 0;
   if (unchanged) {
     return report(previous!, 'unchanged', common, seconds, t0);
@@ -202,9 +206,9 @@ async function indexWithPool(
   await pools.release();
   check();
   progress({ stage: 'save', done: 0, total: 1 });
-  await saveIndex(options.indexFile, index);
+  const saveProblem = await trySaveIndex(options.indexFile, index);
   lap('save');
-  return report(index, previous ? 'refreshed' : 'fresh', common, seconds, t0);
+  return report(index, previous ? 'refreshed' : 'fresh', { ...common, saveProblem }, seconds, t0);
 }
 
 function report(

@@ -10,7 +10,7 @@
 import { randomBytes } from 'node:crypto';
 import { constants } from 'node:fs';
 import { mkdir, open, readdir, rename, rm, stat, type FileHandle } from 'node:fs/promises';
-import { basename, dirname, join } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { CorruptIndexError, UndertoneError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { decodeIndex, encodeIndex, headerExtent, INDEX_PREAMBLE_BYTES, readIndexHeader } from '../core/index/serialize.js';
@@ -88,10 +88,61 @@ function saveReason(err: unknown): string {
     case 'EEXIST':
       return `a file is in the way of its folder (${code})`;
     case 'ENOENT':
-      return 'its folder cannot be created (ENOENT)';
+      return 'it cannot be created there (ENOENT)';
     default:
       return describeFsError(err);
   }
+}
+
+/**
+ * Makes a folder and its missing parents, one level at a time (Node 20's recursive mkdir never
+ * returns for a path under /proc).
+ * @throws SaveError naming the folder and the reason (a file in the way, no permission, …).
+ */
+export async function ensureFolder(path: string): Promise<void> {
+  const missing: string[] = [];
+  for (let p = resolve(path); ; ) {
+    let st;
+    try {
+      st = await stat(p);
+    } catch (err) {
+      const code = (err as NodeJS.ErrnoException).code;
+      if (code !== 'ENOENT' && code !== 'ENOTDIR') throw new SaveError(p, saveReason(err));
+    }
+    if (st) {
+      if (!st.isDirectory()) throw new SaveError(path, `${p} is a file, not a folder`);
+      break;
+    }
+    missing.push(p);
+    const parent = dirname(p);
+    if (parent === p) break;
+    p = parent;
+  }
+  for (const dir of missing.reverse()) {
+    try {
+      await mkdir(dir);
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw new SaveError(dir, saveReason(err));
+    }
+  }
+}
+
+/**
+ * Checks, before long work, that path can be written as a file: its folder exists or can be
+ * made, nothing but a file is at path, and a file can be created beside it (a probe, removed).
+ * @throws SaveError naming the path and the reason.
+ */
+export async function checkWritableFile(path: string): Promise<void> {
+  const st = await stat(path).catch(() => undefined);
+  if (st && !st.isFile()) throw new SaveError(path, st.isDirectory() ? 'it is a folder; name a file' : 'it is not a regular file');
+  await ensureFolder(dirname(path));
+  const probe = `${path}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`;
+  try {
+    await (await open(probe, 'wx')).close();
+  } catch (err) {
+    throw new SaveError(path, saveReason(err));
+  }
+  await rm(probe, { force: true });
 }
 
 /**
@@ -99,11 +150,7 @@ function saveReason(err: unknown): string {
  * @throws SaveError naming the path and the reason when it cannot be written.
  */
 export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<void> {
-  try {
-    await mkdir(dirname(path), { recursive: true });
-  } catch (err) {
-    throw new SaveError(path, saveReason(err));
-  }
+  await ensureFolder(dirname(path));
   const existing = await stat(path).catch(() => undefined);
   if (existing && !existing.isFile()) throw new SaveError(path, existing.isDirectory() ? 'a folder of that name is in the way (EISDIR)' : 'something other than a file is in the way');
   await removeStaleTemporaries(path);

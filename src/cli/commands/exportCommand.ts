@@ -9,7 +9,6 @@
  *   singular-values.txt  the index's own leading singular values, one per line (for comparison).
  */
 import { createWriteStream } from 'node:fs';
-import { mkdir } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { once } from 'node:events';
 import { InvalidInputError } from '../../core/errors.js';
@@ -18,6 +17,7 @@ import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import type { DocSlot } from '../../core/index/lsiIndex.js';
 import { coordinateChunks } from '../../core/matrix/matrixMarket.js';
 import type { CsrMatrix } from '../../core/matrix/sparse.js';
+import { checkWritableFile, ensureFolder } from '../../node/persist.js';
 import { ensureIndex, type Flags } from '../context.js';
 import { formatCount, type Io } from '../output.js';
 
@@ -28,6 +28,8 @@ export async function exportCommand(folder: string, flags: Flags, io: Io): Promi
   if (format !== 'mtx') throw new InvalidInputError(`--format must be mtx (Matrix Market), got "${format}"`);
   if (typeof flags.out !== 'string' || flags.out.length === 0) throw new InvalidInputError('export needs --out <dir>, the folder to write into');
   const out = resolve(flags.out);
+  await ensureFolder(out); // before the build, not after it
+  await checkWritableFile(join(out, EXPORT_FILES.matrix));
   const { index } = await ensureIndex(folder, flags, io);
   const written = await writeExport(index, out);
   if (flags.json) io.out(JSON.stringify({ out, ...written }));
@@ -46,7 +48,7 @@ export function exportedMatrix(index: LsiIndex): { slots: DocSlot[]; terms: stri
 }
 
 export async function writeExport(index: LsiIndex, out: string): Promise<{ terms: number; files: number; nonZeros: number }> {
-  await mkdir(out, { recursive: true });
+  await ensureFolder(out);
   const { slots, terms, matrix } = exportedMatrix(index);
   for (const t of terms) if (/[\r\n]/.test(t)) throw new InvalidInputError('a term contains a line break and cannot be exported one per line');
   for (const s of slots) if (/[\r\n]/.test(s.meta.path)) throw new InvalidInputError(`the path "${s.meta.path}" contains a line break and cannot be exported one per line`);
