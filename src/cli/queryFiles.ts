@@ -17,7 +17,14 @@ export interface QueryLine {
 }
 
 async function readText(path: string): Promise<string> {
-  const text = await readFile(path, 'utf8');
+  let text: string;
+  try {
+    text = await readFile(path, 'utf8');
+  } catch (err) {
+    // readFile on a folder fails with EISDIR but without the path: add it for the message.
+    if (err instanceof Error && !(err as NodeJS.ErrnoException).path) Object.assign(err, { path });
+    throw err;
+  }
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 }
 
