@@ -13,8 +13,8 @@ import { mkdir, open, readdir, rename, rm, stat, type FileHandle } from 'node:fs
 import { basename, dirname, join, resolve } from 'node:path';
 import { CorruptIndexError, UndertoneError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
-import { decodeIndex, encodeIndex, headerExtent, INDEX_PREAMBLE_BYTES, readIndexHeader } from '../core/index/serialize.js';
-import type { IndexSettings } from '../core/index/settings.js';
+import { decodeIndex, encodeIndex, headerExtent, INDEX_PREAMBLE_BYTES, readIndexHeader } from '../core/index/persistence/serialize.js';
+import type { IndexSettings } from '../core/index/model/settings.js';
 import { describeFsError } from './scanRead.js';
 
 /** A file could not be written (the message names the path and the reason). */
@@ -99,7 +99,7 @@ function saveReason(err: unknown): string {
  * returns for a path under /proc).
  * @throws SaveError naming the folder and the reason (a file in the way, no permission, …).
  */
-export async function ensureFolder(path: string): Promise<void> {
+export async function ensureFolder(path: string, target = path): Promise<void> {
   const missing: string[] = [];
   for (let p = resolve(path); ; ) {
     let st;
@@ -107,10 +107,10 @@ export async function ensureFolder(path: string): Promise<void> {
       st = await stat(p);
     } catch (err) {
       const code = (err as NodeJS.ErrnoException).code;
-      if (code !== 'ENOENT' && code !== 'ENOTDIR') throw new SaveError(p, saveReason(err));
+      if (code !== 'ENOENT' && code !== 'ENOTDIR') throw new SaveError(target, `${p}: ${saveReason(err)}`);
     }
     if (st) {
-      if (!st.isDirectory()) throw new SaveError(path, `${p} is a file, not a folder`);
+      if (!st.isDirectory()) throw new SaveError(target, `${p} is a file, not a folder`);
       break;
     }
     missing.push(p);
@@ -122,7 +122,7 @@ export async function ensureFolder(path: string): Promise<void> {
     try {
       await mkdir(dir);
     } catch (err) {
-      if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw new SaveError(dir, saveReason(err));
+      if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw new SaveError(target, dir === target ? saveReason(err) : `${dir}: ${saveReason(err)}`);
     }
   }
 }
@@ -135,7 +135,7 @@ export async function ensureFolder(path: string): Promise<void> {
 export async function checkWritableFile(path: string): Promise<void> {
   const st = await stat(path).catch(() => undefined);
   if (st && !st.isFile()) throw new SaveError(path, st.isDirectory() ? 'it is a folder; name a file' : 'it is not a regular file');
-  await ensureFolder(dirname(path));
+  await ensureFolder(dirname(path), path);
   const probe = `${path}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`;
   try {
     await (await open(probe, 'wx')).close();
@@ -150,7 +150,7 @@ export async function checkWritableFile(path: string): Promise<void> {
  * @throws SaveError naming the path and the reason when it cannot be written.
  */
 export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<void> {
-  await ensureFolder(dirname(path));
+  await ensureFolder(dirname(path), path);
   const existing = await stat(path).catch(() => undefined);
   if (existing && !existing.isFile()) throw new SaveError(path, existing.isDirectory() ? 'a folder of that name is in the way (EISDIR)' : 'something other than a file is in the way');
   await removeStaleTemporaries(path);
