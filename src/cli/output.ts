@@ -54,6 +54,7 @@ export function progressBar(io: Io): { update: (p: IndexProgress) => void; done:
  * split a table row.
  */
 export function printable(text: string): string {
+  // eslint-disable-next-line no-control-regex -- finding control characters is the point
   return text.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/g, (c) => {
     if (c === '\n') return '\\n';
     if (c === '\r') return '\\r';

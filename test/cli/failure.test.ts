@@ -18,7 +18,7 @@ describe('describeFailure', () => {
   it('gives 70 for a fault of ours: one line naming the file that holds the full trace', () => {
     let fault: unknown;
     try {
-      (undefined as unknown as { x: number }).x;
+      void (undefined as unknown as { x: number }).x;
     } catch (e) {
       fault = e;
     }

@@ -31,6 +31,9 @@ function rewrite(bytes: Uint8Array, edit: (header: ReturnType<typeof readIndexHe
   return sealIndexFile(header, payload);
 }
 
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- edits of parsed JSON in any shape
+type Json = any;
+
 function buildAdi() {
   const b = new IndexBuilder();
   for (const d of adi.docs) b.addText({ path: `adi/${d.id}.txt`, size: d.text.length, mtimeMs: 1000 + Number(d.id) }, d.text);
@@ -143,16 +146,16 @@ describe('serialize', () => {
   // with both checksums recomputed, so only the structural checks can catch it.
   it('rejects a header whose settings, section lengths or offsets were changed, even with valid checksums', () => {
     const bytes = encodeIndex(buildAdi());
-    const cases: [string, (h: Record<string, any>) => void, RegExp][] = [
+    const cases: [string, (h: Json) => void, RegExp][] = [
       ['lexicalBlend renamed', (h) => ((h.settings.lexicalBlenc = h.settings.lexicalBlend), delete h.settings.lexicalBlend), /lexicalBl/],
       ['lexicalBlend out of range', (h) => (h.settings.lexicalBlend = 1.5), /lexicalBlend/],
       ['k as text', (h) => (h.settings.k = '50'), /settings\.k/],
       ['unknown weighting', (h) => (h.settings.weighting = 'bm25'), /weighting/],
       ['stem as a number', (h) => (h.settings.tokenize.stem = 1), /stem/],
       ['extra header key', (h) => (h.extra = 1), /unknown "extra"/],
-      ['a section length 300 → 3', (h) => (h.sections.find((x: any) => x.name === 'singularValues').length = 3), /does not start|disagree|payloadBytes/],
-      ['vectors offset + 1', (h) => (h.sections.find((x: any) => x.name === 'vectors').offset += 1), /does not start/],
-      ['vectors offset − 8', (h) => (h.sections.find((x: any) => x.name === 'vectors').offset -= 8), /does not start/],
+      ['a section length 300 → 3', (h) => (h.sections.find((x: Json) => x.name === 'singularValues').length = 3), /does not start|disagree|payloadBytes/],
+      ['vectors offset + 1', (h) => (h.sections.find((x: Json) => x.name === 'vectors').offset += 1), /does not start/],
+      ['vectors offset − 8', (h) => (h.sections.find((x: Json) => x.name === 'vectors').offset -= 8), /does not start/],
       ['sections swapped', (h) => h.sections.reverse(), /section 1/],
       ['docs off by one', (h) => (h.docs += 1), /disagree/],
       ['model.k changed', (h) => (h.model.k += 1), /kChoice|disagree/],
@@ -161,7 +164,7 @@ describe('serialize', () => {
       ['payloadBytes larger', (h) => (h.payloadBytes += 8), /payloadBytes/],
     ];
     for (const [what, edit, reason] of cases) {
-      const forged = rewrite(bytes, (h) => edit(h as unknown as Record<string, any>));
+      const forged = rewrite(bytes, (h) => edit(h as unknown as Json));
       expect(() => decodeIndex(forged), what).toThrow(reason);
     }
   });
