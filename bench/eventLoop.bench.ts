@@ -55,7 +55,7 @@ interface RunFigures {
 
 async function oneRun(run: number): Promise<RunFigures> {
   const config: WorkerConfig = {
-    roots: [{ name: 'ws', path: workspace, exclude: [] }], indexFile: join(tmp, `storage-${run}`, 'index.undertone'), settings: {},
+    roots: [{ name: 'ws', fsPath: workspace, exclude: [] }], indexFile: join(tmp, `storage-${run}`, 'index.undertone'), settings: {},
     include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
   };
   const histogram = monitorEventLoopDelay({ resolution: 1 });

@@ -7,7 +7,7 @@ import { join, resolve } from 'node:path';
 import { InvalidInputError } from '../../core/errors.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
 import { findTopics, type TopicsReport } from '../../core/topics/topics.js';
-import { readIndexableText } from '../../node/scan.js';
+import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
 import { round } from './askCommand.js';
@@ -31,7 +31,7 @@ export async function topicsCommand(folder: string, flags: Flags, io: Io): Promi
 async function readForms(folder: string, report: TopicsReport, stem: boolean, flags: Flags): Promise<SurfaceForms> {
   const wanted = new Set(report.topics.flatMap((t) => t.terms.map((x) => x.term)));
   const forms = new SurfaceForms({ stem }, wanted);
-  const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? 1_048_576;
+  const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? DEFAULT_MAX_FILE_BYTES;
   for (const t of report.topics) {
     for (const path of t.members.slice(0, FILES_READ_PER_TOPIC)) {
       const got = await readIndexableText(join(resolve(folder), path), maxBytes).catch(() => null);

@@ -26,7 +26,7 @@ export async function scanWorkspace(roots: RootMap, config: WorkerConfig, signal
   const skipped: SkipCounts = { binary: 0, tooLarge: 0, unreadable: 0, other: 0 };
   for (const root of roots.roots) {
     const scan = await scanFolder(
-      root.path,
+      root.fsPath,
       {
         include: config.include,
         exclude: [...config.exclude, ...root.exclude],
@@ -34,7 +34,7 @@ export async function scanWorkspace(roots: RootMap, config: WorkerConfig, signal
         honourGitignore: config.honourGitignore,
         // Links may reach the other workspace folders; beyond them only when the setting allows.
         followLinksOutside: config.followLinksOutside ?? false,
-        linkRoots: roots.roots.map((r) => r.path),
+        linkRoots: roots.roots.map((r) => r.fsPath),
       },
       signal,
     );

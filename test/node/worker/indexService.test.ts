@@ -31,7 +31,7 @@ function gate() {
 describe('IndexService background preparation', () => {
   const folder = join(tmp, 'ws');
   const config: WorkerConfig = {
-    roots: [{ name: 'ws', path: folder, exclude: [] }],
+    roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
     indexFile: join(tmp, 'index.undertone'),
     settings: { k: 40 },
     include: [],
@@ -106,7 +106,7 @@ describe('IndexService on a hostile storage folder and workspace', () => {
   mkdirSync(folder, { recursive: true });
   for (const d of cisi.docs.slice(0, 40)) writeFileSync(join(folder, `${d.id}.txt`), d.text);
   const config = (indexFile: string, extra: Partial<WorkerConfig> = {}): WorkerConfig => ({
-    roots: [{ name: 'ws', path: folder, exclude: [] }],
+    roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
     indexFile,
     settings: { k: 10 },
     include: [],
