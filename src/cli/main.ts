@@ -1,9 +1,10 @@
 /**
  * The `undertone` command line: a thin adapter over the core and the node layer.
- * Exit codes: 0 success, 1 a problem with the input (message on stderr), 2 a usage error.
+ * Exit codes (failure.ts): 0 success, 1 bad input or nothing found (message on stderr), 2 a usage
+ * error, 70 an internal fault (one line, the trace written to a file).
  */
 import { parseArgs } from 'node:util';
-import { UndertoneError } from '../core/errors.js';
+import { EXIT, EXIT_CODE_HELP, describeFailure } from './failure.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
@@ -61,8 +62,51 @@ options:
                              since the page places queries with the quick projection)
   --max-terms N              (map) words the page's search box knows: the N most frequent index
                              terms (default 20000; each costs about k bytes of file size)
+  --follow-links             also read files that symbolic links reach outside the folder
+                             (off by default; devices, FIFOs and sockets are never read)
   -q, --quiet                no notes or summary on stderr
+
+${EXIT_CODE_HELP}
 `;
+
+/** Options that only some commands use (the rest apply to every command): others are warned about. */
+const APPLIES_TO: Record<string, readonly string[]> = {
+  top: ['ask', 'nearby'],
+  queries: ['ask', 'eval'],
+  qrels: ['eval'],
+  rebuild: ['index'],
+  explain: ['ask', 'nearby'],
+  topics: ['topics', 'map'],
+  threshold: ['lookalikes'],
+  layout: ['map'],
+  'max-terms': ['map'],
+  format: ['export'],
+  out: ['export', 'map'],
+  u: ['import-factors'],
+  s: ['import-factors'],
+  v: ['import-factors'],
+  terms: ['import-factors'],
+  files: ['import-factors'],
+};
+
+const HINT = 'Run `undertone --help` for the commands and options.';
+
+/**
+ * Lets an option's value start with '-' when it is a number (`--top -1`), so the command says
+ * what is wrong with the number instead of parseArgs calling the option ambiguous.
+ */
+function joinNegativeNumbers(argv: readonly string[], valued: ReadonlySet<string>): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    const next = argv[i + 1];
+    if (a.startsWith('--') && !a.includes('=') && valued.has(a.slice(2)) && next !== undefined && /^-\d|^-\.\d|^-Infinity$|^-NaN$/.test(next)) {
+      out.push(`${a}=${next}`);
+      i++;
+    } else out.push(a);
+  }
+  return out;
+}
 
 const EXTRA_OPTIONS = {
   queries: { type: 'string' },
@@ -88,27 +132,45 @@ const EXTRA_OPTIONS = {
 } as const;
 
 export async function main(argv: string[], io: Io = processIo): Promise<number> {
+  const options = { ...COMMON_OPTIONS, ...EXTRA_OPTIONS };
+  const valued = new Set(Object.entries(options).filter(([, o]) => o.type === 'string').map(([name]) => name));
   let parsed;
   try {
-    parsed = parseArgs({ args: argv, options: { ...COMMON_OPTIONS, ...EXTRA_OPTIONS }, allowPositionals: true, strict: true });
+    parsed = parseArgs({ args: joinNegativeNumbers(argv, valued), options, allowPositionals: true, strict: true });
   } catch (err) {
-    io.err(`undertone: ${(err as Error).message}\n\n${USAGE}`);
-    return 2;
+    io.err(`undertone: ${(err as Error).message}\n${HINT}`);
+    return EXIT.usage;
   }
   const flags = parsed.values as Flags;
-  const [command, folder, arg] = parsed.positionals;
+  const [command, folder, ...rest] = parsed.positionals;
   if (flags.help || !command) {
     (flags.help ? io.out : io.err)(USAGE);
-    return flags.help ? 0 : 2;
+    return flags.help ? EXIT.ok : EXIT.usage;
   }
   const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes', 'export', 'import-factors', 'map', 'count', 'import-model'];
   if (!needsFolder.includes(command)) {
-    io.err(`undertone: unknown command "${command}"\n\n${USAGE}`);
-    return 2;
+    io.err(`undertone: unknown command "${command}"\n${HINT}`);
+    return EXIT.usage;
   }
   if (!folder) {
-    io.err(`undertone ${command}: missing <folder>\n\n${USAGE}`);
-    return 2;
+    io.err(`undertone ${command}: missing <folder>\n${HINT}`);
+    return EXIT.usage;
+  }
+  // An unquoted question arrives as several words: join them (ask); other commands take at most one more.
+  const arg = command === 'ask' ? (rest.length > 0 ? rest.join(' ') : undefined) : rest[0];
+  if (command !== 'ask' && rest.length > (command === 'nearby' ? 1 : 0)) {
+    io.err(`undertone ${command}: unexpected argument${rest.length > 1 ? 's' : ''} ${rest.map((r) => `"${r}"`).join(' ')}${command === 'nearby' ? ' (nearby takes one file; quote a name with spaces)' : ''}\n${HINT}`);
+    return EXIT.usage;
+  }
+  if (typeof flags['cache-dir'] === 'string' && flags['cache-dir'].trim() === '') {
+    io.err(`undertone ${command}: --cache-dir needs a folder name, got an empty string\n${HINT}`);
+    return EXIT.usage;
+  }
+  if (!flags.quiet) {
+    for (const name of Object.keys(flags)) {
+      const applies = APPLIES_TO[name];
+      if (applies && !applies.includes(command)) io.err(`note: --${name} does not apply to ${command} (only to ${applies.join(', ')}); ignored.`);
+    }
   }
   try {
     switch (command) {
@@ -136,10 +198,8 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
         return await evalCommand(folder, flags, io);
     }
   } catch (err) {
-    if (err instanceof UndertoneError) {
-      io.err(`undertone ${command}: ${err.message}`);
-      return 1;
-    }
-    throw err;
+    const failure = describeFailure(command, err);
+    io.err(failure.message);
+    return failure.code;
   }
 }

@@ -48,8 +48,25 @@ export function progressBar(io: Io): { update: (p: IndexProgress) => void; done:
   return { update, done };
 }
 
-/** A plain-text table with a header row and right-aligned numeric columns. */
-export function formatTable(header: string[], rows: string[][], numeric: boolean[]): string[] {
+/**
+ * Text safe to print on a terminal: control characters (C0, DEL, C1, and the line and paragraph
+ * separators) written as escapes, so a file name cannot move the cursor, colour the screen or
+ * split a table row.
+ */
+export function printable(text: string): string {
+  // eslint-disable-next-line no-control-regex -- finding control characters is the point
+  return text.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/g, (c) => {
+    if (c === '\n') return '\\n';
+    if (c === '\r') return '\\r';
+    if (c === '\t') return '\\t';
+    const code = c.charCodeAt(0);
+    return code < 0x100 ? `\\x${code.toString(16).padStart(2, '0')}` : `\\u${code.toString(16)}`;
+  });
+}
+
+/** A plain-text table with a header row and right-aligned numeric columns (cells made printable). */
+export function formatTable(header: string[], rawRows: string[][], numeric: boolean[]): string[] {
+  const rows = rawRows.map((r) => r.map(printable));
   const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
   const cell = (s: string, i: number): string => (numeric[i] ? s.padStart(widths[i]) : s.padEnd(widths[i]));
   const lines = [header.map(cell).join('  ').trimEnd(), widths.map((w) => '-'.repeat(w)).join('  ')];

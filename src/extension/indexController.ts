@@ -115,6 +115,11 @@ export class IndexController {
         },
       });
       this._host.log(`Built the index: ${result.summary.files} files (${result.read} read, ${result.reused} reused, ${result.skipped} skipped), k=${result.summary.k}, ${result.seconds.toFixed(2)} s.`);
+      if (result.saveProblem) {
+        // The index is in use; only keeping it for the next session failed.
+        this._host.log(`The index could not be saved: ${result.saveProblem}. It is used from memory and will be built again next time.`);
+        if (!background) this._host.showError(`Undertone built the index but could not save it (${result.saveProblem}); it is used for this session only.`);
+      }
       this.setState({ kind: 'ready', summary: result.summary });
       this.emitChange({ folded: [], removed: [], all: true });
     };

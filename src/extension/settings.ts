@@ -20,6 +20,8 @@ export interface ExtensionSettings {
   readonly dimensions: number | 'auto';
   readonly weighting: WeightingScheme;
   readonly useGitignore: boolean;
+  /** Read files that symbolic links reach outside the workspace folders. */
+  readonly followLinksOutside: boolean;
   readonly buildOnStartup: boolean;
   readonly nearbyCount: number;
   readonly autoRebuild: boolean;
@@ -35,6 +37,7 @@ export const DEFAULT_EXTENSION_SETTINGS: ExtensionSettings = Object.freeze({
   dimensions: 'auto',
   weighting: 'log-entropy',
   useGitignore: true,
+  followLinksOutside: false,
   buildOnStartup: true,
   nearbyCount: 10,
   autoRebuild: true,
@@ -59,6 +62,7 @@ export function readSettings(get: SettingGetter): ExtensionSettings {
     dimensions: parseDimensions(get('dimensions')),
     weighting: WEIGHTING_SCHEMES.includes(weighting as WeightingScheme) ? (weighting as WeightingScheme) : d.weighting,
     useGitignore: bool(get('useGitignore'), d.useGitignore),
+    followLinksOutside: bool(get('followLinksOutside'), d.followLinksOutside),
     buildOnStartup: bool(get('buildOnStartup'), d.buildOnStartup),
     nearbyCount: int(get('nearbyCount'), d.nearbyCount, 1, 100),
     autoRebuild: bool(get('autoRebuild'), d.autoRebuild),
@@ -146,5 +150,6 @@ export function toWorkerConfig(s: ExtensionSettings, folders: readonly (HostFold
     exclude: s.exclude.flatMap(globToGitignore),
     maxFileBytes: s.maxFileSizeKB * 1024,
     honourGitignore: s.useGitignore,
+    followLinksOutside: s.followLinksOutside,
   };
 }

@@ -12,8 +12,8 @@ import { resolveSettings, type IndexSettings } from '../core/index/model/setting
 import { runIndexPipeline, tallySkipped, type PipelineResult, type PipelineStage } from './indexPipeline.js';
 import type { PoolOptions } from './parallel/workerPool.js';
 import { sharedModelSetting } from './conceptModelFile.js';
-import { loadIndex, saveIndex } from './persist.js';
-import { DEFAULT_SCAN_OPTIONS, scanFolder, type ScanOptions } from './scan.js';
+import { loadIndex, trySaveIndex } from './persist.js';
+import { DEFAULT_SCAN_OPTIONS, scanFolder, type ScanOptions, type SkippedPath } from './scan.js';
 
 export type IndexStage = 'load' | PipelineStage;
 
@@ -50,6 +50,10 @@ export interface FolderIndexReport {
   readonly outcome: 'fresh' | 'refreshed' | 'unchanged';
   /** Why a saved index could not be used, when it could not. */
   readonly savedIndexProblem?: string;
+  /** Why the new index could not be saved (it is still returned, in memory), when it could not. */
+  readonly saveProblem?: string;
+  /** What the scan left out and why (links outside the folder, special files, bad names, …). */
+  readonly scanSkipped: readonly SkippedPath[];
   readonly files: number;
   readonly reused: number;
   readonly read: number;
@@ -81,10 +85,13 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
   const sharedPath = options.sharedModel === undefined ? previous?.settings.sharedModel?.path : (options.sharedModel ?? undefined);
   const settings = resolveSettings(options.settings);
   if (sharedPath) settings.sharedModel = sharedModelSetting(sharedPath);
+  let scanSkipped: readonly SkippedPath[] = [];
+  let saveProblem: string | undefined;
   const result = await runIndexPipeline({
     settings,
     scan: async () => {
       const scan = await scanFolder(root, options.scan, options.signal);
+      scanSkipped = scan.skipped;
       return {
         files: scan.files.map((f) => ({ key: f.path, absPath: f.absPath, size: f.size, mtimeMs: f.mtimeMs })),
         skipped: tallySkipped(scan.skipped),
@@ -94,7 +101,7 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     previous,
     keepUnchanged: !options.force,
     save: async (index) => {
-      await saveIndex(options.indexFile, index);
+      saveProblem = await trySaveIndex(options.indexFile, index);
     },
     emptyMessage: `Nothing indexable in ${resolve(root)}: no text files remain after excludes.`,
     signal: options.signal,
@@ -102,7 +109,7 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     threads: options.parallel ?? {},
   });
   const outcome = result.unchanged ? 'unchanged' : previous ? 'refreshed' : 'fresh';
-  return report(result, outcome, savedIndexProblem, { load: loadSeconds, ...result.seconds }, t0);
+  return { ...report(result, outcome, savedIndexProblem, { load: loadSeconds, ...result.seconds }, t0), saveProblem, scanSkipped };
 }
 
 function report(
@@ -111,7 +118,7 @@ function report(
   savedIndexProblem: string | undefined,
   seconds: Record<IndexStage, number>,
   t0: number,
-): FolderIndexReport {
+): Omit<FolderIndexReport, 'saveProblem' | 'scanSkipped'> {
   const { index } = r;
   return {
     index,

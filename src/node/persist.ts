@@ -1,34 +1,172 @@
 /**
  * Saving and loading the index file: atomic writes (a temporary file in the same folder, flushed,
  * then renamed over the old one), and loads that report a missing or damaged file instead of
- * trusting it.
+ * trusting it. Loading opens only a regular file, without blocking (a FIFO or a device at the
+ * index path is reported, never waited on), reads and checks the header first and compares the
+ * file's size with the size the header implies before reading the rest, so junk of any size at
+ * the index path costs one small read. Temporary files left by a process that died before its
+ * rename are removed on the next save or load.
  */
 import { randomBytes } from 'node:crypto';
-import { mkdir, open, rename, rm } from 'node:fs/promises';
-import { dirname } from 'node:path';
-import { CorruptIndexError } from '../core/errors.js';
+import { constants } from 'node:fs';
+import { mkdir, open, readdir, rename, rm, stat, type FileHandle } from 'node:fs/promises';
+import { basename, dirname, join, resolve } from 'node:path';
+import { CorruptIndexError, UndertoneError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
-import { decodeIndex, encodeIndex } from '../core/index/persistence/serialize.js';
+import { decodeIndex, encodeIndex, headerExtent, INDEX_PREAMBLE_BYTES, readIndexHeader } from '../core/index/persistence/serialize.js';
+import type { IndexSettings } from '../core/index/model/settings.js';
+import { describeFsError } from './scanRead.js';
 
-/** Writes bytes to path so that readers see either the old file or the new one, never a mix. */
-export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<void> {
-  await mkdir(dirname(path), { recursive: true });
-  const tmp = `${path}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`;
-  const handle = await open(tmp, 'w');
+/** A file could not be written (the message names the path and the reason). */
+export class SaveError extends UndertoneError {
+  constructor(
+    public readonly path: string,
+    reason: string,
+  ) {
+    super(`cannot save ${path}: ${reason}`);
+  }
+}
+
+/** A temporary file of writeFileAtomic: `<name>.<pid>.<8 hex>.tmp`. */
+const TEMP_NAME = /^(.*)\.(\d+)\.[0-9a-f]{8}\.tmp$/;
+
+/** Age after which a temporary file is stale even if its process id is alive again (pid reuse). */
+const STALE_TEMP_MS = 24 * 3600 * 1000;
+
+function processAlive(pid: number): boolean {
+  if (pid === process.pid) return true;
   try {
+    process.kill(pid, 0);
+    return true;
+  } catch (err) {
+    return (err as NodeJS.ErrnoException).code === 'EPERM';
+  }
+}
+
+/**
+ * Removes temporary files of `path` left in its folder by processes that no longer run (killed
+ * between creating the temporary file and renaming it). Returns the names removed.
+ */
+export async function removeStaleTemporaries(path: string, now = Date.now()): Promise<string[]> {
+  const dir = dirname(path);
+  const name = basename(path);
+  let entries: string[];
+  try {
+    entries = await readdir(dir);
+  } catch {
+    return [];
+  }
+  const removed: string[] = [];
+  for (const entry of entries) {
+    const m = TEMP_NAME.exec(entry);
+    if (!m || m[1] !== name) continue;
+    const full = join(dir, entry);
+    const st = await stat(full).catch(() => undefined);
+    if (!st?.isFile()) continue;
+    if (processAlive(Number(m[2])) && now - st.mtimeMs < STALE_TEMP_MS) continue;
+    if (await rm(full, { force: true }).then(() => true, () => false)) removed.push(entry);
+  }
+  return removed;
+}
+
+/** Why path cannot be written, in words (the error's code kept in brackets). */
+function saveReason(err: unknown): string {
+  const code = (err as NodeJS.ErrnoException).code;
+  switch (code) {
+    case 'EACCES':
+    case 'EPERM':
+      return `permission denied (${code})`;
+    case 'EROFS':
+      return 'the file system is read-only (EROFS)';
+    case 'ENOSPC':
+      return 'no space left on the device (ENOSPC)';
+    case 'EDQUOT':
+      return 'disk quota exceeded (EDQUOT)';
+    case 'EISDIR':
+      return 'a folder of that name is in the way (EISDIR)';
+    case 'ENOTDIR':
+    case 'EEXIST':
+      return `a file is in the way of its folder (${code})`;
+    case 'ENOENT':
+      return 'it cannot be created there (ENOENT)';
+    default:
+      return describeFsError(err);
+  }
+}
+
+/**
+ * Makes a folder and its missing parents, one level at a time (Node 20's recursive mkdir never
+ * returns for a path under /proc).
+ * @throws SaveError naming the folder and the reason (a file in the way, no permission, …).
+ */
+export async function ensureFolder(path: string, target = path): Promise<void> {
+  const missing: string[] = [];
+  for (let p = resolve(path); ; ) {
+    let st;
+    try {
+      st = await stat(p);
+    } catch (err) {
+      const code = (err as NodeJS.ErrnoException).code;
+      if (code !== 'ENOENT' && code !== 'ENOTDIR') throw new SaveError(target, `${p}: ${saveReason(err)}`);
+    }
+    if (st) {
+      if (!st.isDirectory()) throw new SaveError(target, `${p} is a file, not a folder`);
+      break;
+    }
+    missing.push(p);
+    const parent = dirname(p);
+    if (parent === p) break;
+    p = parent;
+  }
+  for (const dir of missing.reverse()) {
+    try {
+      await mkdir(dir);
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw new SaveError(target, dir === target ? saveReason(err) : `${dir}: ${saveReason(err)}`);
+    }
+  }
+}
+
+/**
+ * Checks, before long work, that path can be written as a file: its folder exists or can be
+ * made, nothing but a file is at path, and a file can be created beside it (a probe, removed).
+ * @throws SaveError naming the path and the reason.
+ */
+export async function checkWritableFile(path: string): Promise<void> {
+  const st = await stat(path).catch(() => undefined);
+  if (st && !st.isFile()) throw new SaveError(path, st.isDirectory() ? 'it is a folder; name a file' : 'it is not a regular file');
+  await ensureFolder(dirname(path), path);
+  const probe = `${path}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`;
+  try {
+    await (await open(probe, 'wx')).close();
+  } catch (err) {
+    throw new SaveError(path, saveReason(err));
+  }
+  await rm(probe, { force: true });
+}
+
+/**
+ * Writes bytes to path so that readers see either the old file or the new one, never a mix.
+ * @throws SaveError naming the path and the reason when it cannot be written.
+ */
+export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<void> {
+  await ensureFolder(dirname(path), path);
+  const existing = await stat(path).catch(() => undefined);
+  if (existing && !existing.isFile()) throw new SaveError(path, existing.isDirectory() ? 'a folder of that name is in the way (EISDIR)' : 'something other than a file is in the way');
+  await removeStaleTemporaries(path);
+  const tmp = `${path}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`;
+  let handle: FileHandle | undefined;
+  try {
+    handle = await open(tmp, 'wx');
     await handle.writeFile(bytes);
     await handle.sync();
-  } catch (err) {
     await handle.close();
-    await rm(tmp, { force: true });
-    throw err;
-  }
-  await handle.close();
-  try {
+    handle = undefined;
     await rename(tmp, path);
   } catch (err) {
-    await rm(tmp, { force: true });
-    throw err;
+    await handle?.close().catch(() => undefined);
+    await rm(tmp, { force: true }).catch(() => undefined);
+    throw new SaveError(path, saveReason(err));
   }
 }
 
@@ -36,6 +174,17 @@ export async function saveIndex(path: string, index: LsiIndex): Promise<number> 
   const bytes = encodeIndex(index);
   await writeFileAtomic(path, bytes);
   return bytes.length;
+}
+
+/** Saves, and returns why it could not instead of throwing (undefined when saved). */
+export async function trySaveIndex(path: string, index: LsiIndex): Promise<string | undefined> {
+  try {
+    await saveIndex(path, index);
+    return undefined;
+  } catch (err) {
+    if (err instanceof SaveError) return err.message;
+    throw err;
+  }
 }
 
 export type LoadOutcome =
@@ -50,41 +199,93 @@ export interface LoadOptions {
 
 export const DEFAULT_LOAD_OPTIONS: LoadOptions = { readChunkBytes: 32 * 1024 * 1024 };
 
+/** Opened without blocking (O_NONBLOCK: a FIFO does not wait for a writer); O_NOFOLLOW is not used, links to a file are fine. */
+const OPEN_FLAGS = constants.O_RDONLY | (constants.O_NONBLOCK ?? 0);
+
+/** Reads exactly length bytes at position into buf (or fewer at end of file); returns how many. */
+async function readAt(handle: FileHandle, buf: Uint8Array, position: number, length: number, chunk: number): Promise<number> {
+  let done = 0;
+  while (done < length) {
+    const { bytesRead } = await handle.read(buf, done, Math.min(chunk, length - done), position + done);
+    if (bytesRead === 0) break;
+    done += bytesRead;
+  }
+  return done;
+}
+
+/** A file that cannot be an index (the reason is the whole story). */
+class NotAnIndexFile extends Error {}
+
 /**
- * Reads a whole file into a buffer of its own (byte offset 0, so decodeIndex can view its
- * sections in place), in large chunks: fs.readFile reads big files 512 KiB at a time.
+ * Reads a checked index file into a buffer of its own (byte offset 0, so decodeIndex can view
+ * its sections in place), in large chunks: fs.readFile reads big files 512 KiB at a time. Only
+ * the header is read until it has been checked and the file's size matches it.
  */
-async function readWhole(path: string, chunk: number): Promise<Uint8Array> {
-  const handle = await open(path, 'r');
+async function readChecked(path: string, chunk: number): Promise<Uint8Array> {
+  const handle = await open(path, OPEN_FLAGS);
   try {
-    const size = (await handle.stat()).size;
+    const st = await handle.stat();
+    if (st.isDirectory()) throw new NotAnIndexFile(`${path} is a folder, not an index file`);
+    if (!st.isFile()) throw new NotAnIndexFile(`${path} is not a regular file (a FIFO, socket or device)`);
+    const size = st.size;
+    const preamble = new Uint8Array(INDEX_PREAMBLE_BYTES);
+    if ((await readAt(handle, preamble, 0, INDEX_PREAMBLE_BYTES, chunk)) < INDEX_PREAMBLE_BYTES) throw new CorruptIndexError('index file is shorter than its preamble');
+    const start = headerExtent(preamble);
+    if (start > size) throw new CorruptIndexError('index file is truncated inside its header');
+    const head = new Uint8Array(start);
+    if ((await readAt(handle, head, 0, start, chunk)) < start) throw new CorruptIndexError('index file is truncated inside its header');
+    const header = readIndexHeader(head);
+    const expected = start + header.payloadBytes;
+    if (size !== expected) throw new CorruptIndexError(`index file is ${size} bytes, expected ${expected} (truncated or padded)`);
     const buf = new Uint8Array(new ArrayBuffer(size));
-    let done = 0;
-    while (done < size) {
-      const { bytesRead } = await handle.read(buf, done, Math.min(chunk, size - done), done);
-      if (bytesRead === 0) break;
-      done += bytesRead;
-    }
-    return done === size ? buf : buf.subarray(0, done);
+    const got = await readAt(handle, buf, 0, size, chunk);
+    return got === size ? buf : buf.subarray(0, got);
   } finally {
     await handle.close();
   }
 }
 
-/** Loads a saved index; a missing, damaged, truncated or older file is reported, never trusted. */
+/** Loads a saved index; a missing, damaged, truncated, older or misplaced file is reported, never trusted. */
 export async function loadIndex(path: string, options: Partial<LoadOptions> = {}): Promise<LoadOutcome> {
   const chunk = Math.max(1, Math.floor(options.readChunkBytes ?? DEFAULT_LOAD_OPTIONS.readChunkBytes));
+  await removeStaleTemporaries(path);
   let bytes: Uint8Array;
   try {
-    bytes = await readWhole(path, chunk);
+    bytes = await readChecked(path, chunk);
   } catch (err) {
-    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return { status: 'missing' };
-    return { status: 'damaged', reason: `cannot read ${path}: ${(err as Error).message}` };
+    if (err instanceof CorruptIndexError || err instanceof NotAnIndexFile) return { status: 'damaged', reason: `${path}: ${err.message}` };
+    const code = (err as NodeJS.ErrnoException).code;
+    if (code === 'ENOENT') return { status: 'missing' };
+    return { status: 'damaged', reason: `cannot read ${path}: ${describeFsError(err)}` };
   }
   try {
     return { status: 'ok', index: decodeIndex(bytes), bytes: bytes.length };
   } catch (err) {
-    if (err instanceof CorruptIndexError) return { status: 'damaged', reason: err.message };
+    if (err instanceof CorruptIndexError) return { status: 'damaged', reason: `${path}: ${err.message}` };
     throw err;
+  }
+}
+
+/**
+ * The settings a saved index was built with, from its checked header alone (one small read), or
+ * undefined when there is no readable, undamaged header at path.
+ */
+export async function readSavedSettings(path: string): Promise<IndexSettings | undefined> {
+  let handle: FileHandle | undefined;
+  try {
+    handle = await open(path, OPEN_FLAGS);
+    const st = await handle.stat();
+    if (!st.isFile()) return undefined;
+    const preamble = new Uint8Array(INDEX_PREAMBLE_BYTES);
+    if ((await readAt(handle, preamble, 0, INDEX_PREAMBLE_BYTES, INDEX_PREAMBLE_BYTES)) < INDEX_PREAMBLE_BYTES) return undefined;
+    const start = headerExtent(preamble);
+    if (start > st.size) return undefined;
+    const head = new Uint8Array(start);
+    if ((await readAt(handle, head, 0, start, start)) < start) return undefined;
+    return readIndexHeader(head).settings;
+  } catch {
+    return undefined;
+  } finally {
+    await handle?.close().catch(() => undefined);
   }
 }

@@ -13,10 +13,10 @@
  * reached twice through links is listed under needs the identity check done here.
  */
 
-import { stat } from 'node:fs/promises';
+import { opendir, stat } from 'node:fs/promises';
 import { resolve } from 'node:path';
 import { UndertoneError } from '../core/errors.js';
-import { checkByteCap } from './scanRead.js';
+import { checkByteCap, describeFsError } from './scanRead.js';
 import { walkFolder } from './scanWalk.js';
 import { DEFAULT_MAX_FILE_BYTES, type ScanOptions, type ScanResult } from './scanTypes.js';
 
@@ -33,6 +33,8 @@ export const DEFAULT_SCAN_OPTIONS: ScanOptions = Object.freeze({
   maxFileBytes: DEFAULT_MAX_FILE_BYTES,
   honourGitignore: true,
   followSymlinks: true,
+  followLinksOutside: false,
+  linkRoots: [],
 });
 
 /** The folder to scan does not exist or is not a folder. */
@@ -67,6 +69,11 @@ export async function scanFolder(
     throw new FolderNotFoundError(abs, code === 'ENOENT' || code === 'ENOTDIR' ? 'does not exist' : `cannot be read (${code})`);
   }
   if (!rootStat.isDirectory()) throw new FolderNotFoundError(abs, 'is a file, not a folder');
+  try {
+    await (await opendir(abs)).close();
+  } catch (err) {
+    throw new FolderNotFoundError(abs, `cannot be read (${(err as NodeJS.ErrnoException).code ?? describeFsError(err)})`);
+  }
   const { files, skipped } = await walkFolder(abs, `${rootStat.dev}:${rootStat.ino}`, opts, signal);
   files.sort((a, b) => compareCodeUnits(a.path, b.path));
   skipped.sort((a, b) => compareCodeUnits(a.path, b.path));
@@ -83,6 +90,8 @@ function withDefaults(options: Partial<ScanOptions>): ScanOptions {
     maxFileBytes: options.maxFileBytes ?? d.maxFileBytes,
     honourGitignore: options.honourGitignore ?? d.honourGitignore,
     followSymlinks: options.followSymlinks ?? d.followSymlinks,
+    followLinksOutside: options.followLinksOutside ?? d.followLinksOutside,
+    linkRoots: options.linkRoots ?? d.linkRoots,
   };
 }
 

@@ -34,6 +34,14 @@ export interface ScanOptions {
   readonly honourGitignore: boolean;
   /** Follow symbolic links to files and folders (each folder is still visited once). @default true */
   readonly followSymlinks: boolean;
+  /**
+   * Also follow links whose real path lies outside the scanned folder (and outside linkRoots).
+   * Off by default: a link must not carry files from elsewhere (/etc, a secret) into the index.
+   * @default false
+   */
+  readonly followLinksOutside: boolean;
+  /** Further folders whose files links may reach without followLinksOutside (the other folders of a workspace). @default [] */
+  readonly linkRoots?: readonly string[];
 }
 
 /** One file kept by the scan. */
@@ -52,7 +60,13 @@ export type SkipReason =
   | 'unreadable'
   | 'symlink-loop'
   | 'symlink-duplicate'
-  | 'broken-symlink';
+  | 'broken-symlink'
+  /** A link whose real path is outside the folder (followLinksOutside is off). */
+  | 'outside-folder'
+  /** A device, FIFO, socket or pseudo-file (never read). */
+  | 'not-a-file'
+  /** A name that is not valid UTF-8 (its bytes are escaped in `path`). */
+  | 'bad-name';
 
 export interface SkippedPath {
   /** Relative to the scanned root, '/'-separated ('.' for the root itself). */

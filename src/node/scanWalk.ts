@@ -12,12 +12,19 @@
  * inode, and because real folders claim their identity first, which path a folder is listed
  * under does not depend on timing. A link whose target is one of its own ancestors is a
  * `symlink-loop`; a link to a folder already walked elsewhere is a `symlink-duplicate`.
+ *
+ * A link whose real path lies outside the scanned folder (and outside opts.linkRoots) is not
+ * followed unless opts.followLinksOutside is set (`outside-folder`): a link to /etc must not make
+ * /etc/shadow searchable. Even then nothing under /proc, /sys or /dev is read (pseudo-files whose
+ * times change on every look). Devices, FIFOs and sockets are never read (`not-a-file`). A name
+ * that is not valid UTF-8 cannot be carried as a string path: it is reported (`bad-name`, with
+ * its bytes escaped) instead of silently vanishing.
  */
 
 import type { BigIntStats, Dirent } from 'node:fs';
-import { lstatSync, statSync } from 'node:fs';
+import { lstatSync, realpathSync, statSync } from 'node:fs';
 import { readdir, readFile } from 'node:fs/promises';
-import { join } from 'node:path';
+import { join, sep } from 'node:path';
 import { CancelledError } from '../core/errors.js';
 import type { ScannedFile, ScanOptions, SkippedPath, SkipReason } from './scanTypes.js';
 import { describeFsError } from './scanRead.js';
@@ -60,6 +67,27 @@ export async function walkFolder(
   const files: ScannedFile[] = [];
   const skipped: SkippedPath[] = [];
   const visited = new Map<string, string>([[rootKey, '.']]);
+  const insideRoots = realRoots([rootAbs, ...(opts.linkRoots ?? [])]);
+  /** Whether a link's real target may be read: inside the folder (or a linkRoot), or outside when allowed. */
+  const linkAllowed = (rel: string, abs: string): boolean => {
+    let real: string;
+    try {
+      real = realpathSync(abs);
+    } catch (err) {
+      skip(rel, 'unreadable', describeFsError(err));
+      return false;
+    }
+    if (insideRoots.some((r) => real === r || real.startsWith(r.endsWith(sep) ? r : r + sep))) return true;
+    if (PSEUDO_ROOTS.some((r) => real === r || real.startsWith(r + sep))) {
+      skip(rel, 'not-a-file', `Links to ${real}, a pseudo-file of the system, which is never read.`);
+      return false;
+    }
+    if (!opts.followLinksOutside) {
+      skip(rel, 'outside-folder', `Links to ${real}, outside the indexed folder (--follow-links, or the setting undertone.followLinksOutside, reads it).`);
+      return false;
+    }
+    return true;
+  };
   const linked: LinkedFolder[] = [];
   const exclude = createExcludeTest(opts.useDefaultExcludes, opts.exclude);
   const include = createPatternMatcher(opts.include);
@@ -109,9 +137,11 @@ export async function walkFolder(
     }
     if (st.isDirectory()) {
       const inner = folderLayers(rel, name, layers);
-      if (inner) linked.push({ abs, rel, layers: inner, parent, key: `${st.dev}:${st.ino}` });
-    } else if (st.isFile() && fileWanted(rel, name, layers)) {
-      addFile(rel, abs, Number(st.size), Number(st.mtimeNs) / 1e6);
+      if (inner && linkAllowed(rel, abs)) linked.push({ abs, rel, layers: inner, parent, key: `${st.dev}:${st.ino}` });
+    } else if (st.isFile()) {
+      if (fileWanted(rel, name, layers) && linkAllowed(rel, abs)) addFile(rel, abs, Number(st.size), Number(st.mtimeNs) / 1e6);
+    } else if (fileWanted(rel, name, layers)) {
+      skip(rel, 'not-a-file', 'Links to a device, FIFO or socket, which is never read.');
     }
   };
 
@@ -145,10 +175,17 @@ export async function walkFolder(
     }
     // Children are stat'ed synchronously: measured on a 78k-file tree, a promise-based stat
     // costs about ten times the CPU of statSync; folders are still read concurrently.
+    let badNames: string[] | undefined;
     for (const entry of entries) {
       const name = entry.name;
       const rel = prefix + name;
       const abs = join(job.abs, name);
+      if (name.includes('\uFFFD') && lstatSync(abs, { throwIfNoEntry: false }) === undefined) {
+        // The name was not valid UTF-8 (decoding replaced bytes); report each such name once.
+        badNames ??= await undecodableNames(job.abs);
+        for (const raw of badNames.splice(0)) skip(prefix + raw, 'bad-name', 'The file name is not valid UTF-8, so it cannot be indexed by name.');
+        continue;
+      }
       const kind = direntKind(entry) ?? kindByLstat(abs);
       if (kind === 'dir') {
         const inner = folderLayers(rel, name, layers);
@@ -157,6 +194,8 @@ export async function walkFolder(
         if (fileWanted(rel, name, layers)) visitFile(rel, abs);
       } else if (kind === 'link' && opts.followSymlinks) {
         visitLink(rel, abs, name, here, layers);
+      } else if (kind === 'other' && fileWanted(rel, name, layers)) {
+        skip(rel, 'not-a-file', 'A device, FIFO or socket, which is never read.');
       }
     }
   };
@@ -195,6 +234,47 @@ async function infoExcludeLayer(rootAbs: string): Promise<IgnoreLayer[]> {
   } catch {
     return [];
   }
+}
+
+/** Pseudo file systems whose files are never read, even through links followed on purpose. */
+const PSEUDO_ROOTS = process.platform === 'linux' ? ['/proc', '/sys', '/dev'] : ['/dev'];
+
+/** The real paths of the given folders (as given when one cannot be resolved). */
+function realRoots(paths: readonly string[]): string[] {
+  return paths.map((p) => {
+    try {
+      return realpathSync(p);
+    } catch {
+      return p;
+    }
+  });
+}
+
+/** The names in a folder that are not valid UTF-8, with each invalid byte written as \xHH. */
+async function undecodableNames(abs: string): Promise<string[]> {
+  const strict = new TextDecoder('utf-8', { fatal: true });
+  const out: string[] = [];
+  let raw: Buffer[];
+  try {
+    raw = await readdir(abs, { encoding: 'buffer' });
+  } catch {
+    return out;
+  }
+  for (const name of raw) {
+    try {
+      strict.decode(name);
+    } catch {
+      out.push(escapeBytes(name));
+    }
+  }
+  return out;
+}
+
+/** Printable ASCII kept, every other byte as \xHH. */
+function escapeBytes(bytes: Uint8Array): string {
+  let s = '';
+  for (const b of bytes) s += b >= 0x20 && b < 0x7f && b !== 0x5c ? String.fromCharCode(b) : `\\x${b.toString(16).padStart(2, '0').toUpperCase()}`;
+  return s;
 }
 
 function direntKind(e: Dirent): EntryKind | undefined {

@@ -103,6 +103,21 @@ describe('IndexController on a folder with nothing to index', () => {
   });
 });
 
+describe('IndexController with a hostile storage folder', () => {
+  it('a folder at the index path: builds, uses the index, says it could not be saved, and ends the progress', async () => {
+    const indexFile = join(tmp, 'occupied-storage', 'index.undertone');
+    mkdirSync(indexFile, { recursive: true });
+    const host = fakeHost({ indexFile });
+    const c = make(host);
+    await c.start();
+    expect(c.state).toMatchObject({ kind: 'ready', summary: { files: adi.docs.length } });
+    expect(host.progressRuns).toBe(1);
+    expect(host.lines.find((l) => l.startsWith('No usable saved index'))).toContain(`${indexFile} is a folder`);
+    expect(host.lines.find((l) => l.startsWith('The index could not be saved'))).toMatch(/a folder of that name is in the way \(EISDIR\)/);
+    expect(host.lines.filter((l) => l.startsWith('error:'))).toEqual([expect.stringMatching(/built the index but could not save it/)]);
+  });
+});
+
 describe('IndexController', () => {
   it('builds on first start with a progress notification, then loads the saved index on the next', async () => {
     const first = fakeHost();

@@ -17,11 +17,11 @@ describe('readSettings', () => {
   it('keeps valid values and falls back on wrong types or ranges', () => {
     const values: Record<string, unknown> = {
       include: ['**/*.md', 3, ''], exclude: 'notes', maxFileSizeKB: 0, dimensions: '150', weighting: 'tfidf',
-      useGitignore: false, buildOnStartup: 'yes', nearbyCount: 500, autoRebuild: false,
+      useGitignore: false, buildOnStartup: 'yes', nearbyCount: 500, autoRebuild: false, followLinksOutside: 'yes',
     };
     expect(readSettings((k) => values[k])).toEqual({
       include: ['**/*.md'], exclude: [], maxFileSizeKB: 1, dimensions: 150, weighting: 'tfidf',
-      useGitignore: false, buildOnStartup: true, nearbyCount: 100, autoRebuild: false, conceptModel: '',
+      useGitignore: false, buildOnStartup: true, nearbyCount: 100, autoRebuild: false, conceptModel: '', followLinksOutside: false,
     });
   });
 
@@ -98,6 +98,7 @@ describe('toWorkerConfig', () => {
       exclude: ['**/*.log'],
       maxFileBytes: 10 * 1024,
       honourGitignore: true,
+      followLinksOutside: false,
     });
   });
 

@@ -1,11 +1,11 @@
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { execFileSync, spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
-import { INDEX_FORMAT_VERSION } from '../../src/core/index/persistence/serialize.js';
-import { loadIndex, saveIndex } from '../../src/node/persist.js';
+import { loadIndex, readSavedSettings, removeStaleTemporaries, SaveError, saveIndex, trySaveIndex } from '../../src/node/persist.js';
 import { loadCollection } from '../helpers/shared.js';
 
 // Real text: the ADI collection (test/fixtures/corpora/adi); the reference is the index that was saved.
@@ -73,10 +73,69 @@ describe('persist', () => {
     writeFileSync(file, good.subarray(0, good.length - 4));
     expect(await loadIndex(file)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/truncated/) });
     const older = Buffer.from(good);
-    const at = older.indexOf(`"formatVersion":${INDEX_FORMAT_VERSION}`);
-    older.write(`"formatVersion":${INDEX_FORMAT_VERSION - 1}`, at);
+    older.write('{"formatVersion":2,', 12); // a format-2 file had its JSON at byte 12
     writeFileSync(file, older);
-    expect(await loadIndex(file)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/format/) });
+    expect(await loadIndex(file)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/older format/) });
     expect(await loadIndex(dir)).toMatchObject({ status: 'damaged' });
+  });
+
+  it('reports a folder, a FIFO or a device at the index path without blocking or reading it', async () => {
+    const sub = join(dir, 'occupied');
+    mkdirSync(join(sub, 'index.undertone'), { recursive: true });
+    expect(await loadIndex(join(sub, 'index.undertone'))).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/is a folder/) });
+    const fifo = join(dir, 'fifo.undertone');
+    execFileSync('mkfifo', [fifo]);
+    // Before the fix this never resolved (open waited for a writer).
+    expect(await loadIndex(fifo)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/not a regular file/) });
+    expect(await readSavedSettings(fifo)).toBeUndefined();
+    expect(await loadIndex('/dev/zero')).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/not a regular file/) });
+  });
+
+  it('checks the header and the size before reading: 1.5 GB of junk or padding costs one small read', async () => {
+    const junk = join(dir, 'junk.undertone');
+    writeFileSync(junk, 'not an index at all, just text');
+    truncateSync(junk, 1.5 * 1024 ** 3); // sparse: no disk space used
+    const before = process.memoryUsage().arrayBuffers;
+    expect(await loadIndex(junk)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/magic/) });
+    expect(process.memoryUsage().arrayBuffers - before).toBeLessThan(64 * 1024 ** 2);
+    const padded = join(dir, 'padded.undertone');
+    await saveIndex(padded, buildAdi());
+    const size = readFileSync(padded).length;
+    truncateSync(padded, size + 1024 ** 3);
+    const before2 = process.memoryUsage().arrayBuffers;
+    expect(await loadIndex(padded)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(new RegExp(`expected ${size}`)) });
+    expect(process.memoryUsage().arrayBuffers - before2).toBeLessThan(64 * 1024 ** 2);
+    rmSync(junk);
+    rmSync(padded);
+  });
+
+  it('says why a save failed, naming the path, and keeps going when asked to try', async () => {
+    const sub = join(dir, 'blocked');
+    mkdirSync(join(sub, 'index.undertone'), { recursive: true });
+    await expect(saveIndex(join(sub, 'index.undertone'), buildAdi())).rejects.toThrow(SaveError);
+    await expect(saveIndex(join(sub, 'index.undertone'), buildAdi())).rejects.toThrow(/blocked\/index\.undertone: a folder of that name is in the way/);
+    writeFileSync(join(dir, 'plainfile'), 'x');
+    expect(await trySaveIndex(join(dir, 'plainfile', 'cache', 'index.undertone'), buildAdi())).toMatch(/plainfile\/cache\/index\.undertone: \S+plainfile is a file, not a folder/);
+    expect(readdirSync(sub)).toEqual(['index.undertone']); // no temporary file left behind
+  });
+
+  it('removes temporary files of dead processes (killed before the rename), not those of live ones', async () => {
+    const sub = join(dir, 'temps');
+    mkdirSync(sub);
+    const file = join(sub, 'index.undertone');
+    const gone = spawnSync(process.execPath, ['-e', '0']).pid!; // a process id that has ended
+    const dead = `index.undertone.${gone}.0badc0de.tmp`;
+    const live = `index.undertone.${process.pid}.12345678.tmp`;
+    const other = `other.undertone.${gone}.0badc0de.tmp`;
+    for (const n of [dead, live, other]) writeFileSync(join(sub, n), Buffer.alloc(1000));
+    expect(await removeStaleTemporaries(file)).toEqual([dead]);
+    writeFileSync(join(sub, dead), Buffer.alloc(10));
+    await saveIndex(file, buildAdi());
+    expect(existsSync(join(sub, dead))).toBe(false);
+    expect(readdirSync(sub).sort()).toEqual(['index.undertone', live, other].sort());
+    writeFileSync(join(sub, dead), Buffer.alloc(10));
+    expect((await loadIndex(file)).status).toBe('ok');
+    expect(existsSync(join(sub, dead))).toBe(false);
+    expect(await readSavedSettings(file)).toMatchObject({ weighting: 'log-entropy', k: 'auto' });
   });
 });

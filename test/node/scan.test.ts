@@ -25,6 +25,7 @@ describe('DEFAULT_SCAN_OPTIONS', () => {
   it('has the documented defaults', () => {
     expect(DEFAULT_SCAN_OPTIONS).toEqual({
       include: [], exclude: [], useDefaultExcludes: true, maxFileBytes: 1_048_576, honourGitignore: true, followSymlinks: true,
+      followLinksOutside: false, linkRoots: [],
     });
   });
 });

@@ -40,8 +40,26 @@ describe.skipIf(!canLink)('scanFolder and symbolic links (skipped on Windows)', 
   symlinkSync('missing', join(root, 'broken'));
   symlinkSync('chain', join(root, 'chain'));
 
-  it('finishes on loops, walks each folder once and says why each link was not walked', async () => {
+  it('by default reads nothing whose real path is outside the folder, and says so', async () => {
     const r = await scanFolder(root);
+    expect(r.files.map((f) => f.path)).toEqual(['linkfile.txt', 'real/f.txt']);
+    expect(r.skipped.map((s) => [s.path, s.reason])).toEqual([
+      ['alias', 'symlink-duplicate'],
+      ['broken', 'broken-symlink'],
+      ['chain', 'symlink-loop'],
+      ['outside', 'outside-folder'],
+      ['real/loop', 'symlink-loop'],
+      ['real/self', 'symlink-loop'],
+      ['up', 'outside-folder'],
+    ]);
+    expect(r.skipped.find((s) => s.path === 'outside')!.detail).toMatch(/elsewhere, outside the indexed folder \(--follow-links/);
+    // Another folder given as a link root (the other folders of a workspace) may be reached.
+    const wide = await scanFolder(root, { linkRoots: [join(links, 'elsewhere')] });
+    expect(wide.files.map((f) => f.path)).toEqual(['linkfile.txt', 'outside/e.txt', 'real/f.txt']);
+  });
+
+  it('finishes on loops, walks each folder once and says why each link was not walked (links outside followed on request)', async () => {
+    const r = await scanFolder(root, { followLinksOutside: true });
     expect(r.files.map((f) => f.path)).toEqual(['linkfile.txt', 'outside/e.txt', 'real/f.txt']);
     expect(r.skipped.map((s) => [s.path, s.reason])).toEqual([
       ['alias', 'symlink-duplicate'], // the real folder wins although 'alias' sorts first

@@ -2,7 +2,6 @@
  * `undertone ask <folder> "<text>"` (with `--like FILE` / `--unlike FILE` to steer it by files,
  * repeatable) and batch mode `--queries file.jsonl`.
  */
-import { readFile } from 'node:fs/promises';
 import { relative, resolve } from 'node:path';
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../../core/errors.js';
 import { QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
@@ -10,24 +9,14 @@ import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
+import { readQueries } from '../queryFiles.js';
 
 export async function askCommand(folder: string, text: string | undefined, flags: Flags, io: Io): Promise<number> {
   const top = positiveInt(flags.top, 'top') ?? 10;
   if (typeof flags.queries === 'string') {
-    const lines = (await readFile(flags.queries, 'utf8')).split('\n').filter((l) => l.trim().length > 0);
-    const queries = lines.map((line, i) => {
-      let q: unknown;
-      try {
-        q = JSON.parse(line);
-      } catch {
-        throw new InvalidInputError(`${flags.queries}:${i + 1}: not a JSON line`);
-      }
-      const { id, text: t } = (q ?? {}) as { id?: unknown; text?: unknown };
-      if ((typeof id !== 'string' && typeof id !== 'number') || typeof t !== 'string') {
-        throw new InvalidInputError(`${flags.queries}:${i + 1}: expected {"id": …, "text": "…"}`);
-      }
-      return { id, text: t };
-    });
+    if (text !== undefined) throw new InvalidInputError(`ask takes either a question or --queries, not both (got "${text}" too)`);
+    const { queries, duplicates } = await readQueries(flags.queries);
+    if (!flags.quiet) for (const d of duplicates) io.err(`warning: ${d}`);
     const { index } = await ensureIndex(folder, flags, io);
     for (const q of queries) {
       try {

@@ -11,7 +11,6 @@
  *   singular-values.txt  the index's own leading singular values, one per line (for comparison).
  */
 import { createWriteStream } from 'node:fs';
-import { mkdir } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { once } from 'node:events';
 import { InvalidInputError } from '../../core/errors.js';
@@ -22,6 +21,7 @@ import { coordinateChunks } from '../../core/matrix/matrixMarket.js';
 import { portableFromIndex } from '../../core/index/model/portableFromIndex.js';
 import { writeConceptFile } from '../../node/conceptModelFile.js';
 import type { CsrMatrix } from '../../core/matrix/sparse.js';
+import { checkWritableFile, ensureFolder } from '../../node/persist.js';
 import { ensureIndex, type Flags } from '../context.js';
 import { formatCount, type Io } from '../output.js';
 
@@ -32,6 +32,8 @@ export async function exportCommand(folder: string, flags: Flags, io: Io): Promi
   if (format !== 'mtx' && format !== 'model') throw new InvalidInputError(`--format must be mtx (Matrix Market) or model (a concept model file), got "${format}"`);
   if (typeof flags.out !== 'string' || flags.out.length === 0) throw new InvalidInputError(`export needs --out ${format === 'model' ? '<file>, the concept model file' : '<dir>, the folder'} to write`);
   const out = resolve(flags.out);
+  await ensureFolder(out); // before the build, not after it
+  await checkWritableFile(join(out, EXPORT_FILES.matrix));
   const { index } = await ensureIndex(folder, flags, io);
   if (format === 'model') {
     const bytes = await writeConceptFile(out, portableFromIndex(index, { withFiles: true }));
@@ -56,7 +58,7 @@ export function exportedMatrix(index: LsiIndex): { slots: DocSlot[]; terms: stri
 }
 
 export async function writeExport(index: LsiIndex, out: string): Promise<{ terms: number; files: number; nonZeros: number }> {
-  await mkdir(out, { recursive: true });
+  await ensureFolder(out);
   const { slots, terms, matrix } = exportedMatrix(index);
   for (const t of terms) if (/[\r\n]/.test(t)) throw new InvalidInputError('a term contains a line break and cannot be exported one per line');
   for (const s of slots) if (/[\r\n]/.test(s.meta.path)) throw new InvalidInputError(`the path "${s.meta.path}" contains a line break and cannot be exported one per line`);

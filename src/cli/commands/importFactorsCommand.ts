@@ -19,6 +19,7 @@ import { MatrixMarketParser, parseMatrixMarket, toDense, type MatrixMarketData }
 import { modelFromFactors } from '../../core/index/model/importedFactors.js';
 import { loadIndex, saveIndex } from '../../node/persist.js';
 import { indexFileFrom, type Flags } from '../context.js';
+import { fsErrorMessage, isFsError } from '../failure.js';
 import type { Io } from '../output.js';
 import { EXPORT_FILES, exportedMatrix } from './exportCommand.js';
 
@@ -68,7 +69,13 @@ function listFile(flag: unknown, uPath: string, name: string): string | undefine
 }
 
 async function expectSameLines(file: string, expected: readonly string[], what: string): Promise<void> {
-  const got = (await readFile(file, 'utf8')).split('\n');
+  let text: string;
+  try {
+    text = await readFile(file, 'utf8');
+  } catch (err) {
+    throw new InvalidInputError(`the --${what} file: ${isFsError(err) ? fsErrorMessage(err) : (err as Error).message}`);
+  }
+  const got = text.split('\n');
   if (got.length > 0 && got[got.length - 1] === '') got.pop();
   const n = Math.max(got.length, expected.length);
   for (let i = 0; i < n; i++) {

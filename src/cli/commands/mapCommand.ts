@@ -19,7 +19,7 @@ import { buildStandaloneHtml } from '../../core/map/standaloneHtml.js';
 import { DEFAULT_TOKENIZE_OPTIONS } from '../../core/text/tokenize.js';
 import { findTopics } from '../../core/topics/topics.js';
 import { folderMapSource } from '../../node/mapSource.js';
-import { writeFileAtomic } from '../../node/persist.js';
+import { checkWritableFile, writeFileAtomic } from '../../node/persist.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatBytes, formatCount, type Io } from '../output.js';
 
@@ -36,6 +36,7 @@ export async function mapCommand(folder: string, flags: Flags, io: Io): Promise<
     throw new InvalidInputError('map needs --out <file.html>, the HTML file to write (for example --out map.html)');
   }
   const out = resolve(flags.out);
+  await checkWritableFile(out); // before the build, not after it
   const layout = parseLayout(flags.layout);
   const topicCount = positiveInt(flags.topics, 'topics');
   if (topicCount !== undefined && topicCount > 1000) throw new InvalidInputError(`--topics ${topicCount} is more than a legend can show; pick at most 1000`);

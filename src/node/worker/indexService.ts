@@ -12,7 +12,7 @@ import { basename } from 'node:path';
 import { NotIndexedError } from '../../core/errors.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { modelSettingsKey, resolveSettings } from '../../core/index/model/settings.js';
-import { loadIndex, saveIndex } from '../persist.js';
+import { loadIndex, trySaveIndex } from '../persist.js';
 import { readIndexableText } from '../scan.js';
 import { prepareInBackground } from './backgroundPrepare.js';
 import { bestMatchingLine } from './bestLine.js';
@@ -49,6 +49,7 @@ export class IndexService {
   private _admission = new Map<string, FileAdmission>();
   private _index: LsiIndex | undefined;
   private _dirty = false;
+  private _saveProblem: string | undefined;
   private _saveTimer: ReturnType<typeof setTimeout> | undefined;
   private _build: Promise<unknown> = Promise.resolve();
   private _duringBuild: FileChange[] | undefined;
@@ -82,7 +83,10 @@ export class IndexService {
       update: async ({ changes }) => this.update(changes),
       search: async ({ query, top, like, unlike }) => this.search(query, top, like, unlike),
       nearby: async ({ fsPath, top }) => this.nearby(fsPath, top),
-      save: async () => ({ saved: await this.save() }),
+      save: async () => {
+        const saved = await this.save();
+        return this._saveProblem ? { saved, problem: this._saveProblem } : { saved };
+      },
       deleteIndex: async () => this.deleteIndex(),
       ...this._insights.handlers(),
     };
@@ -170,13 +174,19 @@ export class IndexService {
     return hits.map((h, i) => ({ ...this._roots.refOf(h.path), score: h.score, why: why[i] }));
   }
 
+  /** Saves a changed index; false (and saveProblem set) when it could not be written. */
   async save(): Promise<boolean> {
     clearTimeout(this._saveTimer);
     this._saveTimer = undefined;
     if (!this._index || !this._dirty || !this._config || this._duringBuild) return false;
     this._dirty = false;
-    await saveIndex(this._config.indexFile, this._index);
-    return true;
+    this._saveProblem = await trySaveIndex(this._config.indexFile, this._index);
+    return this._saveProblem === undefined;
+  }
+
+  /** Why the last save failed (the index stays in use, in memory), or undefined. */
+  get saveProblem(): string | undefined {
+    return this._saveProblem;
   }
 
   async deleteIndex(): Promise<{ deleted: boolean }> {
@@ -206,14 +216,16 @@ export class IndexService {
         onProgress: ctx.progress,
       });
       ctx.progress({ stage: 'save', done: 0, total: 1 });
-      await saveIndex(config.indexFile, built.index);
+      // An index that cannot be saved (read-only storage, a folder or FIFO at its path) is still used.
+      this._saveProblem = await trySaveIndex(config.indexFile, built.index);
       this.use(built.index);
       this._dirty = false;
       const replay = this._duringBuild;
       this._duringBuild = undefined;
       if (replay.length > 0) await this.update(replay);
       ctx.progress({ stage: 'save', done: 1, total: 1 });
-      return { summary: this.summary()!, read: built.read, reused: built.reused, skipped: built.skipped, seconds: built.seconds };
+      const saveProblem = this._saveProblem;
+      return { summary: this.summary()!, read: built.read, reused: built.reused, skipped: built.skipped, seconds: built.seconds, ...(saveProblem ? { saveProblem } : {}) };
     } finally {
       this._duringBuild = undefined;
     }

@@ -29,6 +29,8 @@ export interface WorkerConfig {
   readonly exclude: readonly string[];
   readonly maxFileBytes: number;
   readonly honourGitignore: boolean;
+  /** Read files that links reach outside the workspace folders (setting undertone.followLinksOutside). @default false */
+  readonly followLinksOutside?: boolean;
 }
 
 export type { FileRef } from './fileRef.js';
@@ -75,6 +77,8 @@ export interface BuildReport {
   readonly reused: number;
   readonly skipped: number;
   readonly seconds: number;
+  /** Why the built index (now in use) could not be saved, when it could not. */
+  readonly saveProblem?: string;
 }
 
 export interface RefreshReport {
@@ -112,7 +116,7 @@ export interface RequestMap extends InsightRequestMap {
   /** Files nearest in meaning; null when the file is not in the index. */
   nearby: { params: { fsPath: string; top: number }; result: readonly ScoredFile[] | null };
   /** Writes the index if it changed since it was last saved. */
-  save: { params: Record<string, never>; result: { saved: boolean } };
+  save: { params: Record<string, never>; result: { saved: boolean; problem?: string } };
   /** Forgets the index and removes the saved file. */
   deleteIndex: { params: Record<string, never>; result: { deleted: boolean } };
 }

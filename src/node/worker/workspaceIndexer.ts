@@ -32,6 +32,9 @@ export async function scanWorkspace(roots: RootMap, config: WorkerConfig, signal
         exclude: [...config.exclude, ...root.exclude],
         maxFileBytes: config.maxFileBytes,
         honourGitignore: config.honourGitignore,
+        // Links may reach the other workspace folders; beyond them only when the setting allows.
+        followLinksOutside: config.followLinksOutside ?? false,
+        linkRoots: roots.roots.map((r) => r.fsPath),
       },
       signal,
     );

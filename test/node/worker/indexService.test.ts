@@ -1,4 +1,5 @@
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -95,5 +96,70 @@ describe('IndexService background preparation', () => {
     slices.release();
     expect(await first).toBe(false);
     expect(service.preparing).toBeDefined();
+  });
+});
+
+// The editor's worker on the hostile cases of the command line (issue: never silently wrong).
+describe('IndexService on a hostile storage folder and workspace', () => {
+  const base = join(tmp, 'hostile');
+  const folder = join(base, 'ws');
+  mkdirSync(folder, { recursive: true });
+  for (const d of cisi.docs.slice(0, 40)) writeFileSync(join(folder, `${d.id}.txt`), d.text);
+  const config = (indexFile: string, extra: Partial<WorkerConfig> = {}): WorkerConfig => ({
+    roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
+    indexFile,
+    settings: { k: 10 },
+    include: [],
+    exclude: [],
+    maxFileBytes: 1 << 20,
+    honourGitignore: false,
+    ...extra,
+  });
+
+  it('uses a built index it cannot save (a folder at the index path) and says why, instead of failing the build', async () => {
+    const file = join(base, 'occupied', 'index.undertone');
+    mkdirSync(file, { recursive: true });
+    const service = new IndexService();
+    service.configure(config(file));
+    const loaded = await service.load();
+    expect(loaded).toMatchObject({ outcome: 'damaged', reason: expect.stringContaining(`${file} is a folder`) });
+    const built = await service.build(ctx);
+    expect(built.summary.files).toBe(40);
+    expect(built.saveProblem).toMatch(/cannot save \S+index\.undertone: a folder of that name is in the way \(EISDIR\)/);
+    expect((await service.search(cisi.queries[0].text, 3)).length).toBe(3);
+  });
+
+  it('reports a FIFO or damaged bytes at the index path as damaged without blocking, then rebuilds and saves', async () => {
+    const fifo = join(base, 'fifo.undertone');
+    execFileSync('mkfifo', [fifo]);
+    const service = new IndexService();
+    service.configure(config(fifo));
+    expect(await service.load()).toMatchObject({ outcome: 'damaged', reason: expect.stringContaining('not a regular file') });
+    const junk = join(base, 'junk.undertone');
+    writeFileSync(junk, 'UNDTNIDX and then nothing that makes sense');
+    service.configure(config(junk));
+    expect(await service.load()).toMatchObject({ outcome: 'damaged', reason: expect.stringContaining(junk) });
+    const built = await service.build(ctx);
+    expect(built.saveProblem).toBeUndefined();
+    expect((await loadIndex(junk)).status).toBe('ok');
+  });
+
+  it('leaves out files that links reach outside the workspace folders unless the setting allows them', async () => {
+    const secret = join(base, 'secret.txt');
+    writeFileSync(secret, 'zebracrossing quartermaster vault');
+    symlinkSync(secret, join(folder, 'linked.txt'));
+    try {
+      const service = new IndexService();
+      service.configure(config(join(base, 'links.undertone')));
+      await service.build(ctx);
+      expect(service.index!.paths()).toHaveLength(40);
+      expect(service.index!.has('linked.txt')).toBe(false);
+      const allowed = new IndexService();
+      allowed.configure(config(join(base, 'links-allowed.undertone'), { followLinksOutside: true }));
+      await allowed.build(ctx);
+      expect(allowed.index!.has('linked.txt')).toBe(true);
+    } finally {
+      rmSync(join(folder, 'linked.txt'));
+    }
   });
 });

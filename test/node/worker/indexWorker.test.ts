@@ -138,6 +138,9 @@ describe('index worker round trip', () => {
   });
 
   it('keeps the previous index in use and on disk when a build is cancelled', async () => {
+    // Workers of earlier tests may still hold a delayed save of their folded edits: end them first,
+    // so only this test's worker can touch the file.
+    await Promise.all(workers.splice(0).map((w) => w.terminate()));
     const client = start();
     await client.request('configure', { config: config() });
     await client.request('load', {});

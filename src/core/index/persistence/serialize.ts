@@ -1,53 +1,39 @@
 /**
  * Binary form of an LsiIndex (our own format, version INDEX_FORMAT_VERSION):
- *   8 bytes magic "UNDTNIDX" · u32 LE header length · UTF-8 JSON header · zero padding to 8 ·
- *   payload of typed-array sections, each starting on an 8-byte boundary.
+ *   8 bytes magic "UNDTNIDX" · u32 LE header length · u32 LE header checksum · UTF-8 JSON header
+ *   · zero padding to 8 · payload of typed-array sections, each starting on an 8-byte boundary.
  * The header holds the format version, the settings, scalar model facts, the section table
- * (name, element type, byte offset, element count) and a checksum of the payload. Decoding checks
- * magic, version, bounds, section sizes and the checksum, and throws CorruptIndexError on any
- * mismatch, so a damaged, truncated or older file is rebuilt, never trusted. Holes left by removed
- * documents are compacted on encoding.
- * Reopening does O(sections) work beyond the checksum: the vocabulary is saved as UTF-8 bytes
- * with term offsets (ids in byte order, looked up by binary search; see termCounts.ts) and every
- * aligned section becomes a view of the given bytes, so the decoded index shares their memory:
- * hand decodeIndex a buffer nobody else writes to.
+ * (name, element type, byte offset, element count), the payload's length and its checksum. The
+ * header checksum covers every byte before the payload (magic, length, header, padding) except
+ * its own four, and the payload checksum (inside the header) covers the payload, so every byte of
+ * the file is checked. Decoding checks the magic, both checksums, the exact file length, then
+ * every header field and the payload's structure (indexFileCheck.ts), and throws
+ * CorruptIndexError on any mismatch, so a damaged, truncated, padded or older file is rebuilt,
+ * never trusted. Holes left by removed documents are compacted on encoding.
+ * Reopening does one pass over the payload for the checksum and one for the structural checks:
+ * the vocabulary is saved as UTF-8 bytes with term offsets (ids in byte order, looked up by
+ * binary search; see termCounts.ts) and every aligned section becomes a view of the given bytes,
+ * so the decoded index shares their memory: hand decodeIndex a buffer nobody else writes to.
  */
 import { CorruptIndexError } from '../../errors.js';
 import { checksum32 } from './checksum.js';
 import type { ConceptModel } from '../model/conceptModel.js';
-import { LsiIndex, type DocSlot, type StalenessCounters } from '../lsiIndex.js';
-import type { IndexSettings } from '../model/settings.js';
+import { align8, checkHeader, checkPayload, checkSectionSizes, type ArrayKind, type CheckedHeader, type SectionEntry } from './indexFileCheck.js';
+import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import { Vocabulary } from '../../counting/termCounts.js';
 
-export const INDEX_FORMAT_VERSION = 2;
+export const INDEX_FORMAT_VERSION = 3;
 const MAGIC = 'UNDTNIDX';
+/** Bytes before the JSON header: magic, header length, header checksum. */
+export const INDEX_PREAMBLE_BYTES = 16;
+/** A header longer than this is damage (a real one is a few KiB). */
+export const MAX_INDEX_HEADER_BYTES = 1 << 20;
 
-type ArrayKind = 'u8' | 'i32' | 'f32' | 'f64';
 type Typed = Uint8Array | Int32Array | Float32Array | Float64Array;
-interface SectionEntry {
-  name: string;
-  kind: ArrayKind;
-  offset: number;
-  length: number;
-}
-
-interface Header {
-  formatVersion: number;
-  createdAt: string;
-  settings: IndexSettings;
-  docs: number;
-  /** How many leading vocabulary ids are in ascending byte order (see termCounts.ts). */
-  vocabSorted: number;
-  model: Omit<ConceptModel, 'keptIds' | 'columnOf' | 'weights' | 'termVectors' | 'singularValues' | 'axisScale'> & { columnOfLength: number };
-  counters: StalenessCounters;
-  sections: SectionEntry[];
-  payloadBytes: number;
-  checksum: number;
-}
+type Header = CheckedHeader;
 
 const CTORS = { u8: Uint8Array, i32: Int32Array, f32: Float32Array, f64: Float64Array } as const;
 const kindOf = (a: Typed): ArrayKind => (a instanceof Uint8Array ? 'u8' : a instanceof Int32Array ? 'i32' : a instanceof Float32Array ? 'f32' : 'f64');
-const align8 = (n: number): number => (n + 7) & ~7;
 const encoder = new TextEncoder();
 const decoder = new TextDecoder('utf-8', { fatal: true });
 
@@ -74,6 +60,13 @@ const inPlace = <K extends ArrayKind>(name: string, kind: K, length: number, fil
   length,
   write: (out, at) => fill(new CTORS[kind](out.buffer as ArrayBuffer, out.byteOffset + at, length) as InstanceType<(typeof CTORS)[K]>),
 });
+
+/** The checksum of the bytes before the payload, its own four bytes (12…16) left out. */
+function headerChecksum(prefix: Uint8Array): number {
+  const copy = prefix.slice();
+  copy.fill(0, 12, 16);
+  return checksum32(copy);
+}
 
 /** Encodes an index into one buffer, writing the large sections in place (no second copy of the payload). */
 export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint8Array {
@@ -119,54 +112,105 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     docs: n,
     vocabSorted: vocab.sorted,
     model: { ...scalars, columnOfLength: columnOf.length },
-    counters: index.counters(),
+    counters: { ...index.counters() },
     sections: table,
     payloadBytes: offset,
     checksum: 0xffffffff, // the widest value: room for the real one, padded with spaces
   };
   const reserved = encoder.encode(JSON.stringify(header)).length;
-  const start = align8(12 + reserved);
+  const start = align8(INDEX_PREAMBLE_BYTES + reserved);
   const out = new Uint8Array(start + offset);
   sections.forEach((sec, i) => sec.write(out, start + table[i].offset));
   header.checksum = checksum32(out.subarray(start));
-  const headerBytes = encoder.encode(JSON.stringify(header));
-  out.set(encoder.encode(MAGIC), 0);
-  new DataView(out.buffer).setUint32(8, reserved, true);
-  out.set(headerBytes, 12);
-  out.fill(0x20, 12 + headerBytes.length, 12 + reserved);
+  sealHeader(out, header, reserved);
   return out;
 }
 
-/** Reads only the header (cheap): format version, settings, document count, creation time. */
-export function readIndexHeader(bytes: Uint8Array): Header {
-  if (bytes.length < 12 || decoder.decode(bytes.subarray(0, 8)) !== MAGIC) throw new CorruptIndexError('not an Undertone index file (bad magic bytes)');
+/** Writes magic, header (padded with spaces to `reserved` bytes) and the header checksum into out. */
+function sealHeader(out: Uint8Array, header: Header, reserved: number): void {
+  const headerBytes = encoder.encode(JSON.stringify(header));
+  out.set(encoder.encode(MAGIC), 0);
+  const view = new DataView(out.buffer, out.byteOffset, out.byteLength);
+  view.setUint32(8, reserved, true);
+  out.set(headerBytes, INDEX_PREAMBLE_BYTES);
+  out.fill(0x20, INDEX_PREAMBLE_BYTES + headerBytes.length, INDEX_PREAMBLE_BYTES + reserved);
+  out.fill(0, INDEX_PREAMBLE_BYTES + reserved, align8(INDEX_PREAMBLE_BYTES + reserved));
+  view.setUint32(12, headerChecksum(out.subarray(0, align8(INDEX_PREAMBLE_BYTES + reserved))), true);
+}
+
+/**
+ * A file from a header object and a payload, both checksums computed: what a writer that gets
+ * the content wrong but the sealing right would produce (tests use it to check that the
+ * structural checks, not only the checksums, reject bad content).
+ */
+export function sealIndexFile(header: Header, payload: Uint8Array): Uint8Array {
+  const h = { ...header, checksum: checksum32(payload) };
+  const reserved = encoder.encode(JSON.stringify(h)).length;
+  const start = align8(INDEX_PREAMBLE_BYTES + reserved);
+  const out = new Uint8Array(start + payload.length);
+  out.set(payload, start);
+  sealHeader(out, h, reserved);
+  return out;
+}
+
+/** The payload of a file whose header has been read (a view). */
+export function payloadOf(bytes: Uint8Array): Uint8Array {
   const len = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(8, true);
-  if (12 + len > bytes.length) throw new CorruptIndexError('index file is truncated inside its header');
-  let header: Header;
+  return bytes.subarray(align8(INDEX_PREAMBLE_BYTES + len));
+}
+
+/**
+ * How many bytes of a file the header needs (the preamble says), or throws CorruptIndexError when
+ * the first INDEX_PREAMBLE_BYTES bytes are not those of an index file.
+ */
+export function headerExtent(preamble: Uint8Array): number {
+  if (preamble.length < INDEX_PREAMBLE_BYTES || String.fromCharCode(...preamble.subarray(0, 8)) !== MAGIC) {
+    throw new CorruptIndexError('not an Undertone index file (bad magic bytes)');
+  }
+  const len = new DataView(preamble.buffer, preamble.byteOffset, preamble.byteLength).getUint32(8, true);
+  if (len < 2 || len > MAX_INDEX_HEADER_BYTES) throw new CorruptIndexError(`index header length ${len} is out of range (damaged file)`);
+  return align8(INDEX_PREAMBLE_BYTES + len);
+}
+
+/**
+ * Reads and checks only the header (cheap): it needs the first headerExtent() bytes, not the
+ * payload. Throws CorruptIndexError unless the header's checksum matches and every field is of
+ * its known type and range; the total file length it implies is headerExtent + payloadBytes.
+ */
+export function readIndexHeader(bytes: Uint8Array): Header {
+  const start = headerExtent(bytes);
+  if (start > bytes.length) throw new CorruptIndexError('index file is truncated inside its header');
+  const prefix = bytes.subarray(0, start);
+  const stored = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(12, true);
+  if (headerChecksum(prefix) !== stored) {
+    // Format 2 and before had no header checksum: their JSON started at byte 12.
+    if (String.fromCharCode(...bytes.subarray(12, 16)) === '{"fo') throw new CorruptIndexError('index file is of an older format');
+    throw new CorruptIndexError('index header fails its checksum (damaged file)');
+  }
+  const len = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(8, true);
+  let parsed: unknown;
   try {
-    header = JSON.parse(decoder.decode(bytes.subarray(12, 12 + len))) as Header;
+    parsed = JSON.parse(decoder.decode(bytes.subarray(INDEX_PREAMBLE_BYTES, INDEX_PREAMBLE_BYTES + len)));
   } catch {
     throw new CorruptIndexError('index header is not valid JSON');
   }
-  if (header.formatVersion !== INDEX_FORMAT_VERSION) {
-    throw new CorruptIndexError(`index format ${header.formatVersion} is not the current format ${INDEX_FORMAT_VERSION}`);
-  }
+  const header = checkHeader(parsed, INDEX_FORMAT_VERSION);
+  checkSectionSizes(header);
   return header;
 }
 
 export function decodeIndex(bytes: Uint8Array): LsiIndex {
   const header = readIndexHeader(bytes);
-  const len = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(8, true);
-  const start = align8(12 + len);
+  const start = headerExtent(bytes);
   if (bytes.length !== start + header.payloadBytes) throw new CorruptIndexError(`index file is ${bytes.length} bytes, expected ${start + header.payloadBytes} (truncated or padded)`);
   const payload = bytes.subarray(start);
   if (checksum32(payload) !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+  // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
+  // payloadBytes against its end, so every section lies inside the payload.
   const get = <K extends ArrayKind>(name: string, kind: K): InstanceType<(typeof CTORS)[K]> => {
-    const e = header.sections.find((s) => s.name === name);
-    if (!e || e.kind !== kind) throw new CorruptIndexError(`index section "${name}" is missing`);
+    const e = header.sections.find((s) => s.name === name)!;
     const Ctor = CTORS[kind];
     const bytesLen = e.length * Ctor.BYTES_PER_ELEMENT;
-    if (e.offset % 8 !== 0 || e.offset + bytesLen > payload.length) throw new CorruptIndexError(`index section "${name}" lies outside the file`);
     const at = payload.byteOffset + e.offset;
     // A view when aligned (the usual case: the file buffer starts on 8 bytes), else a copy.
     if (at % Ctor.BYTES_PER_ELEMENT === 0) return new Ctor(payload.buffer as ArrayBuffer, at, e.length) as InstanceType<(typeof CTORS)[K]>;
@@ -174,34 +218,41 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   };
   const n = header.docs;
   const k = header.model.k;
-  const splitText = (u8: Uint8Array): string[] => (u8.length === 0 ? [] : decoder.decode(u8).split('\0'));
+  const splitText = (u8: Uint8Array): string[] => {
+    try {
+      return u8.length === 0 ? [] : decoder.decode(u8).split('\0');
+    } catch {
+      throw new CorruptIndexError('index file paths are not valid UTF-8');
+    }
+  };
   const vocab = Vocabulary.fromBytes({ bytes: get('vocab', 'u8'), starts: get('vocabStarts', 'i32'), sorted: header.vocabSorted });
   if (!vocab) throw new CorruptIndexError('index vocabulary does not match its term offsets');
   const paths = n === 0 ? [] : splitText(get('paths', 'u8'));
-  const size = get('docSize', 'f64');
-  const mtime = get('docMtime', 'f64');
-  const length = get('docLength', 'f64');
-  const folded = get('docFolded', 'u8');
-  const residual = get('docResidual', 'f64');
-  const indptr = get('termIndptr', 'i32');
-  const ids = get('termIds', 'i32');
-  const counts = get('termCounts', 'f32');
-  const keptIds = get('keptIds', 'i32');
-  const weights = get('weights', 'f64');
-  const termVectors = get('termVectors', 'f32');
-  const singularValues = get('singularValues', 'f64');
-  const axisScale = get('axisScale', 'f64');
-  const vectors = get('vectors', 'f32');
-  const consistent =
-    paths.length === n && size.length === n && indptr.length === n + 1 && indptr[n] === ids.length && ids.length === counts.length &&
-    weights.length === keptIds.length && termVectors.length === keptIds.length * k && singularValues.length === k &&
-    axisScale.length === k && vectors.length === n * k && header.model.columnOfLength <= vocab.size;
-  if (!consistent) throw new CorruptIndexError('index sections disagree in size');
+  if (paths.length !== n) throw new CorruptIndexError('index sections disagree in size: paths are not docs long');
+  const parts = {
+    vocabSize: vocab.size,
+    paths,
+    size: get('docSize', 'f64'),
+    mtime: get('docMtime', 'f64'),
+    length: get('docLength', 'f64'),
+    folded: get('docFolded', 'u8'),
+    residual: get('docResidual', 'f64'),
+    indptr: get('termIndptr', 'i32'),
+    ids: get('termIds', 'i32'),
+    counts: get('termCounts', 'f32'),
+    keptIds: get('keptIds', 'i32'),
+    columnOfLength: header.model.columnOfLength,
+    weights: get('weights', 'f64'),
+    termVectors: get('termVectors', 'f32'),
+    singularValues: get('singularValues', 'f64'),
+    axisScale: get('axisScale', 'f64'),
+    vectors: get('vectors', 'f32'),
+    k,
+  };
+  checkPayload(parts);
+  const { size, mtime, length, folded, residual, indptr, ids, counts, keptIds, weights, termVectors, singularValues, axisScale, vectors } = parts;
   const columnOf = new Int32Array(header.model.columnOfLength).fill(-1);
-  keptIds.forEach((id, c) => {
-    if (id < 0 || id >= columnOf.length) throw new CorruptIndexError('index term table refers to an unknown term');
-    columnOf[id] = c;
-  });
+  keptIds.forEach((id, c) => (columnOf[id] = c));
   const { columnOfLength: _len, ...scalars } = header.model;
   const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
   const slots: DocSlot[] = paths.map((path, j) => ({

@@ -1,9 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { CorruptIndexError } from '../../../../src/core/errors.js';
 import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
-import { checksum32 } from '../../../../src/core/index/persistence/checksum.js';
 import type { LsiIndex } from '../../../../src/core/index/lsiIndex.js';
-import { decodeIndex, encodeIndex, INDEX_FORMAT_VERSION, readIndexHeader } from '../../../../src/core/index/persistence/serialize.js';
+import { decodeIndex, encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../../../src/core/index/persistence/serialize.js';
 import { tokenize } from '../../../../src/core/text/tokenize.js';
 import { loadCollection } from '../../../helpers/shared.js';
 
@@ -24,22 +23,16 @@ function answers(index: LsiIndex) {
   return { search, nearby, terms, size: index.vocab.size, staleness: index.staleness() };
 }
 
-/** Rewrites a saved file's payload (and header), recomputing the checksum as a buggy writer would. */
+/** Rewrites a saved file's payload (and header), recomputing both checksums as a buggy writer would. */
 function rewrite(bytes: Uint8Array, edit: (header: ReturnType<typeof readIndexHeader>, payload: Uint8Array) => void): Uint8Array {
   const header = readIndexHeader(bytes);
-  const len = new DataView(bytes.buffer, bytes.byteOffset).getUint32(8, true);
-  const payload = bytes.slice((12 + len + 7) & ~7);
+  const payload = payloadOf(bytes).slice();
   edit(header, payload);
-  header.checksum = checksum32(payload);
-  const h = new TextEncoder().encode(JSON.stringify(header));
-  const start = (12 + h.length + 7) & ~7;
-  const out = new Uint8Array(start + payload.length);
-  out.set(bytes.subarray(0, 8));
-  new DataView(out.buffer).setUint32(8, h.length, true);
-  out.set(h, 12);
-  out.set(payload, start);
-  return out;
+  return sealIndexFile(header, payload);
 }
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- edits of parsed JSON in any shape
+type Json = any;
 
 function buildAdi() {
   const b = new IndexBuilder();
@@ -100,14 +93,14 @@ describe('serialize', () => {
     });
     expect(() => decodeIndex(bytes)).toThrow(/term offsets/);
     const unsorted = rewrite(encodeIndex(buildAdi()), (header) => (header.vocabSorted = -1));
-    expect(() => decodeIndex(unsorted)).toThrow(/term offsets/);
+    expect(() => decodeIndex(unsorted)).toThrow(/vocabSorted/);
   });
 
   it('rejects a file with a flipped byte in its vocabulary (checksum)', () => {
     const bytes = encodeIndex(buildAdi());
     const e = readIndexHeader(bytes).sections.find((x) => x.name === 'vocab')!;
     const len = new DataView(bytes.buffer).getUint32(8, true);
-    bytes[((12 + len + 7) & ~7) + e.offset + 3] ^= 0x01;
+    bytes[((16 + len + 7) & ~7) + e.offset + 3] ^= 0x01;
     expect(() => decodeIndex(bytes)).toThrow(/checksum/);
   });
 
@@ -125,11 +118,82 @@ describe('serialize', () => {
 
   it('rejects another format version and foreign bytes', () => {
     const bytes = encodeIndex(buildAdi());
-    const text = new TextDecoder().decode(bytes.subarray(12, 200));
-    const patched = text.replace(`"formatVersion":${INDEX_FORMAT_VERSION}`, `"formatVersion":0`);
-    const older = bytes.slice();
-    older.set(new TextEncoder().encode(patched), 12);
+    const older = rewrite(bytes, (header) => (header.formatVersion = 0));
     expect(() => decodeIndex(older)).toThrow(/format 0/);
+    // A file of format 2 (no header checksum: its JSON starts at byte 12).
+    const v2 = new Uint8Array(64);
+    v2.set(new TextEncoder().encode('UNDTNIDX'));
+    new DataView(v2.buffer).setUint32(8, 40, true);
+    v2.set(new TextEncoder().encode('{"formatVersion":2,"createdAt":"x"}    '), 12);
+    expect(() => decodeIndex(v2)).toThrow(/older format/);
     expect(() => decodeIndex(new TextEncoder().encode('hello, this is not an index'))).toThrow(/magic/);
+  });
+
+  it('covers every byte before the payload with the header checksum: each single-byte change is detected', () => {
+    const bytes = encodeIndex(buildAdi());
+    const start = payloadOf(bytes).byteOffset;
+    expect(start).toBeGreaterThan(500);
+    for (let at = 0; at < start; at++) {
+      for (const mask of [0x01, 0x80]) {
+        const copy = bytes.slice();
+        copy[at] ^= mask;
+        expect(() => decodeIndex(copy), `byte ${at} ^ ${mask}`).toThrow(CorruptIndexError);
+      }
+    }
+  });
+
+  // The damage the issue reports (an edited header giving wrong answers with exit 0), made here
+  // with both checksums recomputed, so only the structural checks can catch it.
+  it('rejects a header whose settings, section lengths or offsets were changed, even with valid checksums', () => {
+    const bytes = encodeIndex(buildAdi());
+    const cases: [string, (h: Json) => void, RegExp][] = [
+      ['lexicalBlend renamed', (h) => ((h.settings.lexicalBlenc = h.settings.lexicalBlend), delete h.settings.lexicalBlend), /lexicalBl/],
+      ['lexicalBlend out of range', (h) => (h.settings.lexicalBlend = 1.5), /lexicalBlend/],
+      ['k as text', (h) => (h.settings.k = '50'), /settings\.k/],
+      ['unknown weighting', (h) => (h.settings.weighting = 'bm25'), /weighting/],
+      ['stem as a number', (h) => (h.settings.tokenize.stem = 1), /stem/],
+      ['extra header key', (h) => (h.extra = 1), /unknown "extra"/],
+      ['a section length 300 → 3', (h) => (h.sections.find((x: Json) => x.name === 'singularValues').length = 3), /does not start|disagree|payloadBytes/],
+      ['vectors offset + 1', (h) => (h.sections.find((x: Json) => x.name === 'vectors').offset += 1), /does not start/],
+      ['vectors offset − 8', (h) => (h.sections.find((x: Json) => x.name === 'vectors').offset -= 8), /does not start/],
+      ['sections swapped', (h) => h.sections.reverse(), /section 1/],
+      ['docs off by one', (h) => (h.docs += 1), /disagree/],
+      ['model.k changed', (h) => (h.model.k += 1), /kChoice|disagree/],
+      ['scheme differs', (h) => (h.model.scheme = 'tfidf'), /scheme/],
+      ['negative counter', (h) => (h.counters.removedSinceBuild = -1), /removedSinceBuild/],
+      ['payloadBytes larger', (h) => (h.payloadBytes += 8), /payloadBytes/],
+    ];
+    for (const [what, edit, reason] of cases) {
+      const forged = rewrite(bytes, (h) => edit(h as unknown as Json));
+      expect(() => decodeIndex(forged), what).toThrow(reason);
+    }
+  });
+
+  it('rejects payload values out of range even with valid checksums', () => {
+    const bytes = encodeIndex(buildAdi());
+    const section = (h: ReturnType<typeof readIndexHeader>, payload: Uint8Array, name: string) => {
+      const e = h.sections.find((x) => x.name === name)!;
+      return { e, at: payload.byteOffset + e.offset };
+    };
+    const cases: [string, (h: ReturnType<typeof readIndexHeader>, p: Uint8Array) => void, RegExp][] = [
+      ['term id past the vocabulary', (h, p) => { const { at } = section(h, p, 'termIds'); new Int32Array(p.buffer, at, 1)[0] = 1e8; }, /term id/],
+      ['term ids out of order', (h, p) => { const { at } = section(h, p, 'termIds'); const v = new Int32Array(p.buffer, at, 2); [v[0], v[1]] = [v[1], v[0]]; }, /term id/],
+      ['a vector scaled', (h, p) => { const { at } = section(h, p, 'vectors'); new Float32Array(p.buffer, at, 1)[0] *= 1.17 * 4; }, /unit length/],
+      ['a NaN weight', (h, p) => { const { at } = section(h, p, 'weights'); new Float64Array(p.buffer, at, 1)[0] = NaN; }, /weights/],
+      ['folded flag 7', (h, p) => { const { at } = section(h, p, 'docFolded'); p[at - p.byteOffset] = 7; }, /docFolded/],
+      ['indptr backwards', (h, p) => { const { at } = section(h, p, 'termIndptr'); new Int32Array(p.buffer, at, 3)[1] = 1e6; }, /termIndptr/],
+      ['duplicate path', (h, p) => {
+        const { at, e } = section(h, p, 'paths');
+        const u = new Uint8Array(p.buffer, at, e.length);
+        const names = new TextDecoder().decode(u).split('\0');
+        const j = names.findIndex((x, i) => i > 0 && x.length === names[0].length);
+        const from = names.slice(0, j).reduce((sum, x) => sum + x.length + 1, 0);
+        u.set(u.subarray(0, names[0].length), from);
+      }, /listed twice/],
+    ];
+    for (const [what, edit, reason] of cases) {
+      const forged = rewrite(bytes, edit);
+      expect(() => decodeIndex(forged), what).toThrow(reason);
+    }
   });
 });

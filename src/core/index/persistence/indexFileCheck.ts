@@ -1,0 +1,273 @@
+/**
+ * Structural checks of a saved index (serialize.ts) made before anything in it is trusted: the
+ * header's every field has its known type and range (settings included: a renamed or retyped key
+ * is damage, not a default), the section table has exactly the expected sections in the expected
+ * order, kinds and offsets (each offset follows from the lengths before it, so none can point
+ * elsewhere), lengths agree with the counts (documents, terms, k), and the payload's values are
+ * in range (term ids inside the vocabulary and ascending per document, finite numbers, unit or
+ * zero concept vectors, distinct paths). Checksums catch accidental damage; these checks make a
+ * file that passes its checksums but was written wrong (or forged) fail with a clear reason
+ * instead of giving wrong answers or a TypeError later.
+ */
+import { CorruptIndexError } from '../../errors.js';
+import { WEIGHTING_SCHEMES } from '../../weighting/termWeighting.js';
+import type { IndexSettings } from '../model/settings.js';
+
+export type ArrayKind = 'u8' | 'i32' | 'f32' | 'f64';
+
+export interface SectionEntry {
+  name: string;
+  kind: ArrayKind;
+  offset: number;
+  length: number;
+}
+
+/** The sections of a saved index, in file order, with their element kinds. */
+export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
+  ['vocab', 'u8'],
+  ['vocabStarts', 'i32'],
+  ['paths', 'u8'],
+  ['docSize', 'f64'],
+  ['docMtime', 'f64'],
+  ['docLength', 'f64'],
+  ['docFolded', 'u8'],
+  ['docResidual', 'f64'],
+  ['termIndptr', 'i32'],
+  ['termIds', 'i32'],
+  ['termCounts', 'f32'],
+  ['keptIds', 'i32'],
+  ['weights', 'f64'],
+  ['termVectors', 'f32'],
+  ['singularValues', 'f64'],
+  ['axisScale', 'f64'],
+  ['vectors', 'f32'],
+];
+
+export const BYTES_PER: Record<ArrayKind, number> = { u8: 1, i32: 4, f32: 4, f64: 8 };
+export const align8 = (n: number): number => Math.ceil(n / 8) * 8;
+
+/** Largest element count a section may claim (keeps offset arithmetic exact in doubles). */
+const MAX_ELEMENTS = 2 ** 40;
+
+const fail = (what: string): never => {
+  throw new CorruptIndexError(`index header: ${what}`);
+};
+
+type Obj = Record<string, unknown>;
+
+function object(v: unknown, what: string, keys: readonly string[]): Obj {
+  if (typeof v !== 'object' || v === null || Array.isArray(v)) return fail(`${what} is not an object`);
+  const o = v as Obj;
+  const have = Object.keys(o).sort();
+  const want = [...keys].sort();
+  if (have.length !== want.length || have.some((k, i) => k !== want[i])) {
+    const missing = want.filter((k) => !(k in o));
+    const extra = have.filter((k) => !want.includes(k));
+    fail(`${what} has ${missing.length ? `no ${missing.map((k) => `"${k}"`).join(', ')}` : ''}${missing.length && extra.length ? ' and ' : ''}${extra.length ? `unknown ${extra.map((k) => `"${k}"`).join(', ')}` : ''}`);
+  }
+  return o;
+}
+
+function int(v: unknown, what: string, min: number, max = Number.MAX_SAFE_INTEGER): number {
+  if (typeof v !== 'number' || !Number.isInteger(v) || v < min || v > max) fail(`${what} is not a whole number in ${min}…${max}`);
+  return v as number;
+}
+
+function num(v: unknown, what: string, min: number, max: number): number {
+  if (typeof v !== 'number' || !Number.isFinite(v) || v < min || v > max) fail(`${what} is not a number in ${min}…${max}`);
+  return v as number;
+}
+
+function bool(v: unknown, what: string): boolean {
+  if (typeof v !== 'boolean') fail(`${what} is not true or false`);
+  return v as boolean;
+}
+
+/** Settings as saved: exactly the known keys, each of its type and range. */
+export function checkSettings(v: unknown): IndexSettings {
+  const keys = ['weighting', 'k', 'seed', 'powerIterations', 'prune', 'tokenize', 'conceptScaling', 'lexicalBlend'];
+  // A shared concept model (import-model) is the one optional key.
+  const hasShared = typeof v === 'object' && v !== null && 'sharedModel' in v;
+  const s = object(v, 'settings', hasShared ? [...keys, 'sharedModel'] : keys);
+  if (hasShared) {
+    const m = object(s.sharedModel, 'settings.sharedModel', ['path', 'key']);
+    if (typeof m.path !== 'string' || m.path.length === 0) fail('settings.sharedModel.path is not a path');
+    if (typeof m.key !== 'string' || m.key.length === 0) fail('settings.sharedModel.key is not a model key');
+  }
+  if (!WEIGHTING_SCHEMES.includes(s.weighting as never)) fail('settings.weighting is not a known weighting');
+  if (s.k !== 'auto') int(s.k, 'settings.k', 1, 1_000_000);
+  int(s.seed, 'settings.seed', -(2 ** 53), 2 ** 53);
+  int(s.powerIterations, 'settings.powerIterations', 0, 1000);
+  const p = object(s.prune, 'settings.prune', ['minDocs', 'maxDocFraction', 'maxTerms']);
+  int(p.minDocs, 'settings.prune.minDocs', 1);
+  num(p.maxDocFraction, 'settings.prune.maxDocFraction', Number.MIN_VALUE, 1);
+  int(p.maxTerms, 'settings.prune.maxTerms', 1);
+  const t = object(s.tokenize, 'settings.tokenize', ['stem', 'keepCompounds']);
+  bool(t.stem, 'settings.tokenize.stem');
+  bool(t.keepCompounds, 'settings.tokenize.keepCompounds');
+  num(s.conceptScaling, 'settings.conceptScaling', -10, 10);
+  num(s.lexicalBlend, 'settings.lexicalBlend', 0, 1);
+  return s as unknown as IndexSettings;
+}
+
+export interface CheckedHeader {
+  formatVersion: number;
+  createdAt: string;
+  settings: IndexSettings;
+  docs: number;
+  vocabSorted: number;
+  model: {
+    scheme: IndexSettings['weighting'];
+    k: number;
+    kChoice: { k: number; requested: number; clamped: boolean };
+    frobeniusSquared: number;
+    residualMean: number;
+    nonZeros: number;
+    pruneRelaxed: boolean;
+    columnOfLength: number;
+  };
+  counters: { removedSinceBuild: number; foldedTokens: number; foldedUnknownTokens: number };
+  sections: SectionEntry[];
+  payloadBytes: number;
+  checksum: number;
+}
+
+/** Checks every field of a parsed header (types, ranges, the section table and its offsets). */
+export function checkHeader(v: unknown, formatVersion: number): CheckedHeader {
+  const h = object(v, 'the header', ['formatVersion', 'createdAt', 'settings', 'docs', 'vocabSorted', 'model', 'counters', 'sections', 'payloadBytes', 'checksum']);
+  if (h.formatVersion !== formatVersion) throw new CorruptIndexError(`index format ${String(h.formatVersion)} is not the current format ${formatVersion}`);
+  if (typeof h.createdAt !== 'string' || Number.isNaN(Date.parse(h.createdAt))) fail('createdAt is not a date');
+  const settings = checkSettings(h.settings);
+  int(h.docs, 'docs', 0, 2 ** 31 - 2);
+  int(h.vocabSorted, 'vocabSorted', 0, 2 ** 31 - 2);
+  const m = object(h.model, 'model', ['scheme', 'k', 'kChoice', 'frobeniusSquared', 'residualMean', 'nonZeros', 'pruneRelaxed', 'columnOfLength']);
+  if (m.scheme !== settings.weighting) fail('model.scheme differs from settings.weighting');
+  const k = int(m.k, 'model.k', 1, 1_000_000);
+  const kc = object(m.kChoice, 'model.kChoice', ['k', 'requested', 'clamped']);
+  if (kc.k !== k) fail('model.kChoice.k differs from model.k');
+  int(kc.requested, 'model.kChoice.requested', 1);
+  bool(kc.clamped, 'model.kChoice.clamped');
+  num(m.frobeniusSquared, 'model.frobeniusSquared', 0, Number.MAX_VALUE);
+  num(m.residualMean, 'model.residualMean', -1e-6, 1 + 1e-6);
+  int(m.nonZeros, 'model.nonZeros', 0);
+  bool(m.pruneRelaxed, 'model.pruneRelaxed');
+  int(m.columnOfLength, 'model.columnOfLength', 0, 2 ** 31 - 2);
+  const c = object(h.counters, 'counters', ['removedSinceBuild', 'foldedTokens', 'foldedUnknownTokens']);
+  int(c.removedSinceBuild, 'counters.removedSinceBuild', 0);
+  num(c.foldedTokens, 'counters.foldedTokens', 0, Number.MAX_VALUE);
+  num(c.foldedUnknownTokens, 'counters.foldedUnknownTokens', 0, Number.MAX_VALUE);
+  if (!Array.isArray(h.sections) || h.sections.length !== SECTION_LAYOUT.length) fail(`the section table does not list the ${SECTION_LAYOUT.length} sections`);
+  let offset = 0;
+  (h.sections as unknown[]).forEach((raw, i) => {
+    const [name, kind] = SECTION_LAYOUT[i];
+    const e = object(raw, `section ${i + 1}`, ['name', 'kind', 'offset', 'length']);
+    if (e.name !== name || e.kind !== kind) fail(`section ${i + 1} is not "${name}" of ${kind}`);
+    if (e.offset !== offset) fail(`section "${name}" does not start where the one before it ends`);
+    const length = int(e.length, `the length of section "${name}"`, 0, MAX_ELEMENTS);
+    offset = align8(offset + length * BYTES_PER[kind]);
+  });
+  if (h.payloadBytes !== offset) fail('payloadBytes differs from the sum of the sections');
+  int(h.checksum, 'checksum', 0, 0xffffffff);
+  return h as unknown as CheckedHeader;
+}
+
+/** The length relations between sections (before any section is read). */
+export function checkSectionSizes(header: CheckedHeader): void {
+  const len = Object.fromEntries(header.sections.map((s) => [s.name, s.length])) as Record<string, number>;
+  const n = header.docs;
+  const k = header.model.k;
+  const m = len.keptIds;
+  const terms = len.vocabStarts - 1;
+  const rules: [boolean, string][] = [
+    [terms >= 0, 'vocabStarts is empty'],
+    [header.vocabSorted <= terms, 'vocabSorted exceeds the vocabulary'],
+    [header.model.columnOfLength <= terms, 'model.columnOfLength exceeds the vocabulary'],
+    [(n === 0) === (len.paths === 0), 'paths disagree with docs'],
+    [['docSize', 'docMtime', 'docLength', 'docFolded', 'docResidual'].every((s) => len[s] === n), 'a per-document section is not docs long'],
+    [len.termIndptr === n + 1, 'termIndptr is not docs + 1 long'],
+    [len.termIds === len.termCounts, 'termIds and termCounts differ in length'],
+    [len.weights === m, 'weights are not one per model term'],
+    [len.termVectors === m * k, 'termVectors are not k per model term'],
+    [len.singularValues === k && len.axisScale === k, 'singularValues or axisScale are not k long'],
+    [len.vectors === n * k, 'vectors are not k per document'],
+    [m <= header.model.columnOfLength, 'more model terms than model.columnOfLength'],
+  ];
+  for (const [ok, what] of rules) if (!ok) throw new CorruptIndexError(`index sections disagree in size: ${what}`);
+}
+
+/** Payload values: ranges, orders and finiteness. */
+export interface PayloadParts {
+  readonly vocabSize: number;
+  readonly paths: readonly string[];
+  readonly size: Float64Array;
+  readonly mtime: Float64Array;
+  readonly length: Float64Array;
+  readonly folded: Uint8Array;
+  readonly residual: Float64Array;
+  readonly indptr: Int32Array;
+  readonly ids: Int32Array;
+  readonly counts: Float32Array;
+  readonly keptIds: Int32Array;
+  readonly columnOfLength: number;
+  readonly weights: Float64Array;
+  readonly termVectors: Float32Array;
+  readonly singularValues: Float64Array;
+  readonly axisScale: Float64Array;
+  readonly vectors: Float32Array;
+  readonly k: number;
+}
+
+const bad = (what: string): never => {
+  throw new CorruptIndexError(`index payload: ${what}`);
+};
+
+function allFinite(a: Float64Array | Float32Array, what: string, min = -Infinity): void {
+  for (let i = 0; i < a.length; i++) if (!(a[i] >= min && a[i] < Infinity)) bad(`${what} holds a value out of range`);
+}
+
+export function checkPayload(p: PayloadParts): void {
+  const n = p.paths.length;
+  const seen = new Set<string>();
+  for (const path of p.paths) {
+    if (path.length === 0 || seen.has(path)) bad('a file path is empty or listed twice');
+    seen.add(path);
+  }
+  allFinite(p.size, 'docSize', 0);
+  allFinite(p.mtime, 'docMtime');
+  allFinite(p.length, 'docLength', 0);
+  for (let j = 0; j < n; j++) if (p.folded[j] > 1) bad('docFolded holds a value other than 0 or 1');
+  allFinite(p.residual, 'docResidual', -1e-3);
+  for (let j = 0; j < n; j++) if (p.residual[j] > 1 + 1e-3) bad('docResidual holds a value above 1');
+  if (p.indptr[0] !== 0 || p.indptr[n] !== p.ids.length) bad('termIndptr does not span the term lists');
+  const vocab = p.vocabSize;
+  for (let j = 0; j < n; j++) {
+    const a = p.indptr[j];
+    const b = p.indptr[j + 1];
+    if (!(b >= a && b <= p.ids.length)) bad('termIndptr goes backwards or past the term lists');
+    let prev = -1;
+    for (let i = a; i < b; i++) {
+      const id = p.ids[i];
+      if (!(id > prev && id < vocab)) bad('a document lists a term id out of order or outside the vocabulary');
+      prev = id;
+    }
+  }
+  allFinite(p.counts, 'termCounts', Number.MIN_VALUE);
+  let prev = -1;
+  for (let c = 0; c < p.keptIds.length; c++) {
+    const id = p.keptIds[c];
+    if (!(id > prev && id < p.columnOfLength)) bad('keptIds are out of order or outside the vocabulary');
+    prev = id;
+  }
+  allFinite(p.weights, 'weights');
+  allFinite(p.termVectors, 'termVectors');
+  allFinite(p.singularValues, 'singularValues', 0);
+  allFinite(p.axisScale, 'axisScale');
+  const k = p.k;
+  const v = p.vectors;
+  for (let j = 0; j < n; j++) {
+    let s = 0;
+    for (let i = j * k; i < (j + 1) * k; i++) s += v[i] * v[i];
+    // Unit vectors, or zero for a file without model terms (float32 rounding allows a little).
+    if (!(s <= 1 + 1e-3) || (s > 1e-6 && s < 1 - 1e-3)) bad(`the concept vector of "${p.paths[j]}" is not of unit length`);
+  }
+}
