@@ -169,6 +169,18 @@ describe('serialize', () => {
     }
   });
 
+  // An index folded into a shared concept model (import-model) saves one more settings key.
+  it('accepts the settings of an index that uses a shared concept model, and rejects a malformed one', () => {
+    const bytes = encodeIndex(buildAdi());
+    const shared = rewrite(bytes, (h) => ((h as unknown as Json).settings.sharedModel = { path: '/models/org.utcm', key: 'crc32:1a2b3c4d' }));
+    expect(readIndexHeader(shared).settings.sharedModel).toEqual({ path: '/models/org.utcm', key: 'crc32:1a2b3c4d' });
+    expect(() => decodeIndex(shared)).not.toThrow();
+    const noKey = rewrite(bytes, (h) => ((h as unknown as Json).settings.sharedModel = { path: '/models/org.utcm' }));
+    expect(() => decodeIndex(noKey)).toThrow(/sharedModel/);
+    const emptyPath = rewrite(bytes, (h) => ((h as unknown as Json).settings.sharedModel = { path: '', key: 'k' }));
+    expect(() => decodeIndex(emptyPath)).toThrow(/sharedModel\.path/);
+  });
+
   it('rejects payload values out of range even with valid checksums', () => {
     const bytes = encodeIndex(buildAdi());
     const section = (h: ReturnType<typeof readIndexHeader>, payload: Uint8Array, name: string) => {
