@@ -1,0 +1,152 @@
+/**
+ * The topic tree against outside references, on two public documentation trees whose folders are
+ * human-made categories (test/fixtures/topic-trees: CMake's and Django's manuals from Debian,
+ * see its README):
+ *  - Names: NPMI coherence (Röder, Both & Hinneburg 2015, C_NPMI over whole files; coherence.ts)
+ *    of each topic's top 10 terms, against scikit-learn's NMF on TF-IDF with as many components as
+ *    there are topics at that level (top 10 terms per component), at every level of the tree.
+ *  - Structure: normalised mutual information between topics and top-level folders, against
+ *    scikit-learn's KMeans (n_init 10) on the same concept vectors with the same number of
+ *    clusters, at every level.
+ * scikit-learn runs in this test (test/helpers/sklearnTopics.py through Debian's /usr/bin/python3;
+ * .ci/run installs python3-sklearn). Loose files are kept in their nearest topic here
+ * (setApartLoose: false) so that both sides cover every file. Three levels at most (the cost of
+ * NMF grows with the number of components).
+ */
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { gunzipSync } from 'node:zlib';
+import { describe, expect, it } from 'vitest';
+import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { npmiCoherence } from '../../../src/core/topics/coherence.js';
+import { weightedMatrix } from '../../../src/core/topics/indexMatrix.js';
+import { isUnnameable } from '../../../src/core/topics/topicNames.js';
+import { findTopics, topicsAtLevel } from '../../../src/core/topics/topics.js';
+import { REPO_ROOT, sharedPath } from '../../helpers/shared.js';
+
+const PYTHON = '/usr/bin/python3';
+const sklearnReady = spawnSync(PYTHON, ['-c', 'import sklearn'], { stdio: 'ignore' }).status === 0;
+const TOP = 10;
+const SEED = 0;
+
+function loadTree(name: string): { path: string; text: string }[] | null {
+  const p = sharedPath(`topic-trees/${name}.jsonl.gz`);
+  if (!p) return null;
+  return gunzipSync(readFileSync(p))
+    .toString('utf8')
+    .split('\n')
+    .filter((l) => l.trim())
+    .map((l) => JSON.parse(l) as { path: string; text: string });
+}
+
+interface LevelFigures {
+  level: number;
+  k: number;
+  oursNpmi: number;
+  nmfNpmi: number;
+  oursNmi: number;
+  kmeansNmi: number;
+}
+
+function evaluate(name: string): LevelFigures[] {
+  const docs = loadTree(name)!;
+  const b = new IndexBuilder();
+  for (const d of docs) b.addText({ path: d.path, size: d.text.length, mtimeMs: 0 }, d.text);
+  const index = b.build();
+  const report = findTopics(index, { termsPerTopic: TOP, setApartLoose: false });
+  const im = weightedMatrix(index);
+  const model = index.model;
+  const colOfTerm = new Map<string, number>();
+  model.keptIds.forEach((id, col) => colOfTerm.set(index.vocab.termOf(id), col));
+  // Raw counts over the model's columns, rows in the matrix's order (for NMF's TF-IDF).
+  const indptr = [0];
+  const indices: number[] = [];
+  const data: number[] = [];
+  const slots = index.slots();
+  for (const s of im.slots) {
+    const t = slots[s]!.terms;
+    const row: [number, number][] = [];
+    t.termIds.forEach((id, j) => {
+      const col = id < model.columnOf.length ? model.columnOf[id] : -1;
+      if (col >= 0) row.push([col, t.counts[j]]);
+    });
+    row.sort((x, y) => x[0] - y[0]);
+    for (const [c, v] of row) {
+      indices.push(c);
+      data.push(v);
+    }
+    indptr.push(indices.length);
+  }
+  const rowOf = new Map(im.paths.map((p, r) => [p, r]));
+  const dims = index.k;
+  const all = index.vectors();
+  const vectors: number[] = [];
+  for (const s of im.slots) for (let c = 0; c < dims; c++) vectors.push(all[s * dims + c]);
+  const folders = im.paths.map((p) => p.split('/')[0]);
+  const levels = Math.min(3, report.levels);
+  const cuts = Array.from({ length: levels }, (_, i) => topicsAtLevel(report.topics, i + 1));
+  const labelsOf = (cut: ReturnType<typeof topicsAtLevel>) => {
+    const labels = new Array<number>(im.paths.length).fill(-1);
+    cut.forEach((t, i) => t.members.forEach((m) => (labels[rowOf.get(m)!] = i)));
+    return labels;
+  };
+  const dir = mkdtempSync(join(tmpdir(), 'undertone-topics-'));
+  try {
+    const input = join(dir, 'in.json');
+    const nameable = model.keptIds.map((id) => !isUnnameable(index.vocab.termOf(id)));
+    writeFileSync(
+      input,
+      JSON.stringify({
+        counts: { rows: im.paths.length, cols: model.keptIds.length, indptr, indices, data },
+        nameable: Array.from(nameable),
+        vectors,
+        dims,
+        folders,
+        levels: cuts.map((cut) => ({ k: cut.length, ours: labelsOf(cut) })),
+        topTerms: TOP,
+        seed: SEED,
+      }),
+    );
+    const ref = JSON.parse(execFileSync(PYTHON, [join(REPO_ROOT, 'test', 'helpers', 'sklearnTopics.py'), input], { maxBuffer: 64 << 20 }).toString()) as {
+      levels: { k: number; nmfTop: number[][]; kmeansNmi: number; oursNmi: number }[];
+      version: string;
+    };
+    const mean = (xs: number[]) => xs.filter((x) => Number.isFinite(x)).reduce((s, x) => s + x, 0) / xs.filter((x) => Number.isFinite(x)).length;
+    const figures = cuts.map((cut, i) => ({
+      level: i + 1,
+      k: cut.length,
+      oursNpmi: mean(npmiCoherence(im.matrix, cut.map((t) => t.terms.map((x) => colOfTerm.get(x.term)!)))),
+      nmfNpmi: mean(npmiCoherence(im.matrix, ref.levels[i].nmfTop)),
+      oursNmi: ref.levels[i].oursNmi,
+      kmeansNmi: ref.levels[i].kmeansNmi,
+    }));
+    console.log(
+      `${name} (${docs.length} files, k=${dims}, scikit-learn ${ref.version}):\n` +
+        figures
+          .map((f) => `  level ${f.level}: ${f.k} topics · NPMI ours ${f.oursNpmi.toFixed(3)} vs NMF ${f.nmfNpmi.toFixed(3)} · NMI ours ${f.oursNmi.toFixed(3)} vs k-means ${f.kmeansNmi.toFixed(3)}`)
+          .join('\n'),
+    );
+    return figures;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+const trees = ['cmake', 'django'].filter((n) => sharedPath(`topic-trees/${n}.jsonl.gz`));
+const why = !sklearnReady ? '(skipped: /usr/bin/python3 has no scikit-learn; apt-get install python3-sklearn)' : '';
+
+describe.skipIf(!sklearnReady && !process.env.CI)(`topic tree against scikit-learn on documentation trees ${why}`, () => {
+  it('the fixtures are there', () => expect(trees).toEqual(['cmake', 'django']));
+  for (const name of trees) {
+    it(`${name}: names at least as coherent as NMF's and topics at least as close to the folders as k-means', at every level`, { timeout: 240_000 }, () => {
+      const figures = evaluate(name);
+      expect(figures.length).toBeGreaterThanOrEqual(2);
+      for (const f of figures) {
+        expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi);
+        expect(f.oursNmi).toBeGreaterThanOrEqual(f.kmeansNmi);
+      }
+    });
+  }
+});
