@@ -10,7 +10,8 @@
  * large for terms that most files of T use and few siblings use;
  *   'contrast': mean weight in T − mean weight in S (the flat view's earlier score).
  * Which one is the default was decided by the NPMI evaluation (test/core/topics/topicQuality.test.ts).
- * Terms that are numbers, hexadecimal-looking codes or a single letter never name a topic; markup
+ * A term must occur in at least two of the topic's files (one file's word does not describe a group;
+ * topics of fewer than 4 files excepted). Terms that are numbers, hexadecimal-looking codes or a single letter never name a topic; markup
  * and file-format words (MARKUP_WORDS, common practice) may appear but only after real words.
  * The top level's parent is the whole workspace.
  */
@@ -110,7 +111,7 @@ export function namesAgainstParent(
     for (const c of mine) {
       const meanT = childSum[c] / nT;
       const meanS = nS > 0 ? (sum[c] - childSum[c]) / nS : 0;
-      if (meanT > meanS && !isUnnameable(termOf(c))) {
+      if (meanT > meanS && (childDf[c] >= 2 || nT < 4) && !isUnnameable(termOf(c))) {
         let s: number;
         if (score === 'contrast') s = meanT - meanS;
         else {

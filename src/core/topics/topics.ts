@@ -227,7 +227,7 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
         picked: pickedRows.has(row),
       }));
       const scoreOf = new Map(names[gi].map((t) => [t.col, t.score]));
-      const ranked = rankWithPicks(names[gi].map((t) => t.col), (col) => pickedTerms.has(col), o.termsPerTopic);
+      const ranked = rankWithPicks(names[gi].slice(0, o.termsPerTopic).map((t) => t.col), (col) => pickedTerms.has(col), o.termsPerTopic);
       const terms = realWordsFirst(ranked, termName).map((col) => ({ term: termName(col), word: word(termName(col)), weight: scoreOf.get(col)!, picked: pickedTerms.has(col) }));
       const memberPaths = members.map((m) => im.paths[m.row]);
       let children: Topic[] = [];

@@ -95,12 +95,12 @@ function evaluate(name: string): LevelFigures[] {
   const dir = mkdtempSync(join(tmpdir(), 'undertone-topics-'));
   try {
     const input = join(dir, 'in.json');
-    const nameable = model.keptIds.map((id) => !isUnnameable(index.vocab.termOf(id)));
+    const nameable = Array.from(model.keptIds, (id) => !isUnnameable(index.vocab.termOf(id)));
     writeFileSync(
       input,
       JSON.stringify({
         counts: { rows: im.paths.length, cols: model.keptIds.length, indptr, indices, data },
-        nameable: Array.from(nameable),
+        nameable: [...nameable],
         vectors,
         dims,
         folders,
