@@ -7,7 +7,7 @@
  * shown, most first, each saying how many of them it holds.
  */
 import type { FolderTopicsWire, TopicsResult, TopicWire } from '../node/worker/insightProtocol.js';
-import type { FileRef } from '../node/worker/protocol.js';
+import type { FileRef } from '../node/worker/workerProtocol.js';
 import { locationOf } from './viewModels.js';
 
 export type TopicIcon = 'topic' | 'loose' | 'unplaced';

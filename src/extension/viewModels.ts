@@ -4,7 +4,7 @@
  * workspace folder; with several folders the folder's name is shown too.
  */
 import type { Why } from '../node/worker/insightProtocol.js';
-import type { ScoredFile, SearchMatch } from '../node/worker/protocol.js';
+import type { ScoredFile, SearchMatch } from '../node/worker/workerProtocol.js';
 
 export interface ResultEntry {
   readonly key: string;

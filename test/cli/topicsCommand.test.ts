@@ -2,15 +2,15 @@
  * `undertone topics`, and `--explain` on `ask` and `nearby`, end to end through main().
  * References: the demo workspace's answer key (demo/expectations.json: planted topics); the
  * scores the same commands print without --explain (shares must add up to them); real text
- * (CRAN abstracts, ../shared/corpora/cran) for odd folders.
+ * (CRAN abstracts, test/fixtures/corpora/cran) for odd folders.
  */
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { gunzipSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/cliRunner.js';
-import { loadCollection, missingMessage, REPO_ROOT, sharedPath } from '../helpers/shared.js';
+import { fixturePath, loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
 
 let dir: string;
@@ -22,9 +22,8 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const demoRoot = join(REPO_ROOT, 'demo', 'workspace');
 const demoKey = join(REPO_ROOT, 'demo', 'expectations.json');
-const hasDemo = existsSync(demoRoot) && existsSync(demoKey);
 
-describe.skipIf(!hasDemo)(`topics and --explain on the demo ${hasDemo ? '' : '(skipped: demo/workspace missing)'}`, () => {
+describe('topics and --explain on the demo', () => {
   it('prints topics with readable words, exemplar files and the CUR summary', async () => {
     const r = await run('topics', demoRoot);
     expect(r.code).toBe(0);
@@ -99,12 +98,11 @@ describe.skipIf(!hasDemo)(`topics and --explain on the demo ${hasDemo ? '' : '(s
 });
 
 // The CMake manual (test/fixtures/topic-trees, cmake-doc from Debian): big enough for sub-topics.
-const cmakeFixture = sharedPath('topic-trees/cmake.jsonl.gz');
 let cmakeRoot = '';
-describe.skipIf(!cmakeFixture)(`topic tree of a real documentation folder ${cmakeFixture ? '' : missingMessage('topic-trees/cmake.jsonl.gz')}`, () => {
+describe('topic tree of a real documentation folder', () => {
   beforeAll(() => {
     cmakeRoot = join(dir, 'cmake');
-    for (const line of gunzipSync(readFileSync(cmakeFixture!)).toString('utf8').split('\n')) {
+    for (const line of gunzipSync(readFileSync(fixturePath('topic-trees/cmake.jsonl.gz'))).toString('utf8').split('\n')) {
       if (!line.trim()) continue;
       const d = JSON.parse(line) as { path: string; text: string };
       mkdirSync(join(cmakeRoot, d.path, '..'), { recursive: true });
@@ -140,7 +138,7 @@ describe.skipIf(!cmakeFixture)(`topic tree of a real documentation folder ${cmak
 });
 
 const cran = loadCollection('cran');
-describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('topics on odd folders', () => {
   const folder = (name: string, files: Record<string, string>) => {
     const root = join(dir, name);
     mkdirSync(root, { recursive: true });
@@ -149,7 +147,7 @@ describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corp
   };
 
   it('a one-file folder gives one topic', async () => {
-    const r = await run('topics', folder('one', { 'only.md': cran!.docs[0].text }));
+    const r = await run('topics', folder('one', { 'only.md': cran.docs[0].text }));
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^1 file in 1 topic \(too few files to split\)/);
     expect(r.out).toMatch(/only\.md/);
@@ -157,7 +155,7 @@ describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corp
 
   it('fifteen hundred identical files give one topic and say why', async () => {
     const files: Record<string, string> = {};
-    for (let i = 0; i < 1500; i++) files[`copy-${i}.md`] = cran!.docs[1].text;
+    for (let i = 0; i < 1500; i++) files[`copy-${i}.md`] = cran.docs[1].text;
     const r = await run('topics', folder('same', files));
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^1,?500 files in 1 topic \(every file points the same way: one topic\)/);
@@ -170,7 +168,7 @@ describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corp
   });
 
   it('a bad --topics value is refused before any work', async () => {
-    const r = await run('topics', folder('bad', { 'x.md': cran!.docs[2].text }), '--topics', 'zero');
+    const r = await run('topics', folder('bad', { 'x.md': cran.docs[2].text }), '--topics', 'zero');
     expect(r.code).toBe(1);
     expect(r.err).toMatch(/--topics needs a positive whole number/);
   });

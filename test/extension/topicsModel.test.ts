@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { LABEL_CHARS, topicLabel, topicsSummary, topicsTree, type TopicFileNode, type TopicNode } from '../../src/extension/topicsModel.js';
 import type { TopicsResult, TopicWire } from '../../src/node/worker/insightProtocol.js';
-import type { FileRef } from '../../src/node/worker/protocol.js';
+import type { FileRef } from '../../src/node/worker/workerProtocol.js';
 
 const ref = (key: string, folder = 'ferry'): FileRef => ({ key, fsPath: `/w/${folder}/${key}`, folder, relPath: key });
 const topic = (path: string, words: string[], files: string[], extra: Partial<TopicWire> = {}): TopicWire => ({

@@ -22,8 +22,9 @@
  * Files without any model term have a zero concept vector and are listed as unplaced.
  * Defaults: 8 terms and 5 files per topic (our choice); leafSize 40 ("a few dozen" files, what a
  * person reads through), depth 4, maxChildren 8 (about what one screen shows), all our choice;
- * CUR rank min(20, max(10, topics)) as methods.md §8.10 suggests 10–20; CUR terms
- * max(2·rank, 8·topics) so every topic has picks to draw on (our choice); files 2·rank.
+ * CUR rank min(20, max(10, topics)) as a rank of 10–20 keeps the picks few enough to read (our
+ * choice); CUR terms max(2·rank, 8·topics) so every topic has picks to draw on (our choice); files
+ * 2·rank (our choice, as in cur.ts).
  */
 import { EmptyCorpusError, InvalidInputError } from '../errors.js';
 import type { LsiIndex } from '../index/lsiIndex.js';
