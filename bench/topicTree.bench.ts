@@ -11,7 +11,8 @@
  * The index is built once by the command line (`undertone index`, all cores, saved under
  * .cache/bench/index) and loaded; then findTopics runs RUNS times in this process, as the editor's
  * worker thread runs it, and the wall time of each run, their median and spread, the tree's shape
- * and the process's peak RSS are printed.
+ * and the process's peak RSS are printed, with the CPU time of each run (on a shared machine the
+ * wall time is mostly waiting for a core).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
@@ -21,7 +22,7 @@ import { indexFileFrom } from '../src/cli/context.js';
 import { findTopics, walkTopics } from '../src/core/topics/topics.js';
 import { indexFolder } from '../src/node/folderIndexer.js';
 
-const RUNS = 3;
+const RUNS = Number(process.env.RUNS ?? 3);
 const CACHE = resolve('.cache/bench');
 const which = process.argv[2] ?? 'all';
 
@@ -64,11 +65,15 @@ async function bench(name: string, folder: string): Promise<void> {
   const built = performance.now() - t0;
   const { index } = await indexFolder(folder, { indexFile: indexFileFrom(folder, flags), parallel: false });
   const times: number[] = [];
+  const cpu: number[] = [];
   let shape = '';
   for (let r = 0; r < RUNS; r++) {
     const s = performance.now();
+    const c0 = process.cpuUsage();
     const report = findTopics(index, { seed: index.settings.seed });
     times.push(performance.now() - s);
+    const c1 = process.cpuUsage(c0);
+    cpu.push((c1.user + c1.system) / 1000);
     const all = [...walkTopics(report.topics)];
     const perLevel = Array.from({ length: report.levels }, (_, l) => all.filter((t) => t.level === l + 1).length);
     shape = `${report.topics.length} topics, ${report.levels} levels (${perLevel.join(' / ')} topics per level), ${report.loose.length} loose, ${report.unplaced.length} unplaced`;
@@ -77,7 +82,7 @@ async function bench(name: string, folder: string): Promise<void> {
   const rss = process.resourceUsage().maxRSS / 1024;
   console.log(
     `${name}: ${index.size} files, k=${index.k}; index (CLI, build or reuse) ${(built / 1000).toFixed(1)} s\n` +
-      `  topic tree: median ${(times[Math.floor(RUNS / 2)] / 1000).toFixed(2)} s, runs ${times.map((t) => (t / 1000).toFixed(2)).join(', ')} s; ${shape}; peak RSS ${rss.toFixed(0)} MiB`,
+      `  topic tree: median ${(times[Math.floor(RUNS / 2)] / 1000).toFixed(2)} s, runs ${times.map((t) => (t / 1000).toFixed(2)).join(', ')} s (CPU ${cpu.map((t) => (t / 1000).toFixed(2)).join(', ')} s, one thread); ${shape}; peak RSS ${rss.toFixed(0)} MiB`,
   );
 }
 

@@ -289,18 +289,30 @@ export function topicsAtLevel(topics: readonly Topic[], level: number): Topic[] 
 }
 
 /**
- * Sub-topics of one group (indices into points): silhouette count on a 200-point sample with one
- * restart per candidate (a split is decided many times over a tree, so it is kept cheap; our
- * choice), then k-means on the whole group with a bounded number of restarts.
+ * Sub-topics of one group (indices into points). A split is decided hundreds of times over a big
+ * tree, so it is kept cheap (our choice, from the bench: bench/topicTree.bench.ts): the count by
+ * silhouette on a SPLIT_SAMPLE-point sample, one restart and SPLIT_PASSES Lloyd passes per
+ * candidate; then k-means on the whole group with SPLIT_RESTARTS restarts of SPLIT_PASSES passes.
  */
+const SPLIT_SAMPLE = 150;
+const SPLIT_PASSES = 15;
+const SPLIT_RESTARTS = 2;
+
 function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: TopicsOptions, seed: number): number[][] {
   const m = idx.length;
   const sub = new Float64Array(m * dims);
   for (let j = 0; j < m; j++) sub.set(points.subarray(idx[j] * dims, (idx[j] + 1) * dims), j * dims);
-  const choice = chooseTopicCount(sub, m, dims, { maxTopics: Math.min(o.maxChildren, Math.ceil(Math.sqrt(m / 2))), sampleSize: 200, restarts: 1, seed });
+  const choice = chooseTopicCount(sub, m, dims, {
+    maxTopics: Math.min(o.maxChildren, Math.ceil(Math.sqrt(m / 2))),
+    sampleSize: SPLIT_SAMPLE,
+    restarts: 1,
+    maxIterations: SPLIT_PASSES,
+    seed,
+  });
   if (choice.topics < 2) return [];
-  const restarts = Math.max(1, Math.min(10, Math.floor(2e7 / (20 * Math.min(m, o.fitSample) * choice.topics * dims))));
-  const c = clusterPoints(sub, m, dims, choice.topics, o.fitSample, seed, restarts);
+  let c: Clustering;
+  if (m <= o.fitSample) c = sphericalKMeans(sub, m, dims, choice.topics, { seed, restarts: SPLIT_RESTARTS, maxIterations: SPLIT_PASSES });
+  else c = clusterPoints(sub, m, dims, choice.topics, o.fitSample, seed, SPLIT_RESTARTS);
   const out: number[][] = Array.from({ length: c.clusters }, () => []);
   for (let j = 0; j < m; j++) out[c.assignment[j]].push(idx[j]);
   return out.filter((g) => g.length > 0).length > 1 ? out : [];
