@@ -10,8 +10,9 @@
  *    clusters, at every level.
  * scikit-learn runs in this test (test/helpers/sklearnTopics.py through Debian's /usr/bin/python3;
  * .ci/run installs python3-sklearn). Loose files are kept in their nearest topic here
- * (setApartLoose: false) so that both sides cover every file. Three levels at most (the cost of
- * NMF grows with the number of components).
+ * (setApartLoose: false) so that both sides cover every file. The first two levels (the cost of
+ * NMF grows with the number of components: the third level of the CMake tree has 270 topics and
+ * takes scikit-learn many minutes on a shared machine).
  */
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -83,7 +84,7 @@ function evaluate(name: string): LevelFigures[] {
   const vectors: number[] = [];
   for (const s of im.slots) for (let c = 0; c < dims; c++) vectors.push(all[s * dims + c]);
   const folders = im.paths.map((p) => p.split('/')[0]);
-  const levels = Math.min(3, report.levels);
+  const levels = Math.min(2, report.levels);
   const cuts = Array.from({ length: levels }, (_, i) => topicsAtLevel(report.topics, i + 1));
   const labelsOf = (cut: ReturnType<typeof topicsAtLevel>) => {
     const labels = new Array<number>(im.paths.length).fill(-1);
@@ -138,7 +139,7 @@ describe('topic tree against scikit-learn on documentation trees', () => {
     expect(sklearnReady, `scikit-learn is missing (${PYTHON}): apt-get install python3-sklearn`).toBe(true);
   });
   for (const name of ['cmake', 'django']) {
-    it.skipIf(!sklearnReady)(`${name}: names at least as coherent as NMF's and topics at least as close to the folders as k-means', at every level`, { timeout: 240_000 }, () => {
+    it.skipIf(!sklearnReady)(`${name}: names at least as coherent as NMF's and topics at least as close to the folders as k-means', at the first two levels`, { timeout: 240_000 }, () => {
       const figures = evaluate(name);
       expect(figures.length).toBeGreaterThanOrEqual(2);
       for (const f of figures) {
