@@ -20,7 +20,8 @@ const layer = (folders, why) => ({ group: folders.flatMap((f) => [`**/${f}/*`, `
 
 export default tseslint.config(
   {
-    ignores: ['dist/**', 'out/**', 'node_modules/**', 'media/**', '.cache/**', 'test-output/**', 'cluster/**', '**/*.d.ts'],
+    // src/core/matrix/wasm/assembly is AssemblyScript (compiled by asc, see its README), not TypeScript.
+    ignores: ['dist/**', 'out/**', 'node_modules/**', 'media/**', '.cache/**', 'test-output/**', 'cluster/**', '**/*.d.ts', 'src/core/matrix/wasm/assembly/**'],
   },
   js.configs.recommended,
   ...tseslint.configs.recommended,

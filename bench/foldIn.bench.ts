@@ -31,7 +31,7 @@ const worker = new Worker(workerJs);
 const client = new WorkerClient(worker);
 await client.request('configure', {
   config: {
-    roots: [{ name: 'ws', path: workspace, exclude: [] }], indexFile: join(tmp, 'index.undertone'), settings: {},
+    roots: [{ name: 'ws', fsPath: workspace, exclude: [] }], indexFile: join(tmp, 'index.undertone'), settings: {},
     include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
   },
 });

@@ -61,7 +61,7 @@ for (let i = 0; i < n; i++) {
 }
 
 const config: WorkerConfig = {
-  roots: [{ name: 'ws', path: workspace, exclude: [] }], indexFile: join(tmp, 'storage', 'index.undertone'), settings: {},
+  roots: [{ name: 'ws', fsPath: workspace, exclude: [] }], indexFile: join(tmp, 'storage', 'index.undertone'), settings: {},
   include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
 };
 const session = async <T>(work: (c: WorkerClient) => Promise<T>): Promise<T> => {

@@ -4,6 +4,7 @@
  */
 import { parseArgs } from 'node:util';
 import { UndertoneError } from '../core/errors.js';
+import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
 import { exportCommand } from './commands/exportCommand.js';
@@ -38,7 +39,7 @@ options:
   --json                     machine-readable output
   --cache-dir DIR            where saved indexes live (default: the user cache folder,
                              or $UNDERTONE_CACHE_DIR)
-  --max-file-size BYTES      skip larger files (default 1048576)
+  --max-file-size BYTES      skip larger files (default ${DEFAULT_MAX_FILE_BYTES})
   --include GLOB, --exclude GLOB   extra file filters (repeatable)
   --no-gitignore             index files that .gitignore excludes
   --rebuild                  (index) rebuild from scratch

@@ -6,6 +6,7 @@ import type { NearbyProvider } from './nearbyView.js';
 import { openOptions } from './resultItem.js';
 import type { SearchResultsProvider } from './searchView.js';
 import { searchEntries, searchPickItems, type ResultEntry } from './viewModels.js';
+import { errorKind } from '../node/worker/workerErrors.js';
 
 export interface CommandDeps {
   readonly controller: IndexController;
@@ -79,10 +80,11 @@ async function runSearch(deps: CommandDeps, query: string): Promise<void> {
     );
   } catch (err) {
     const e = err as Error;
-    if (e.name === 'NoIndexError') {
+    const kind = errorKind(err);
+    if (kind === 'no-index') {
       const choice = await vscode.window.showInformationMessage('There is no Undertone index for this workspace yet.', 'Build Index');
       if (choice) await controller.build('user');
-    } else if (e.name === 'NoKnownTermsError') void vscode.window.showInformationMessage(e.message);
+    } else if (kind === 'no-known-terms') void vscode.window.showInformationMessage(e.message);
     else void vscode.window.showErrorMessage(`Undertone search failed: ${e.message}`);
     return;
   }

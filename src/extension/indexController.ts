@@ -13,6 +13,7 @@ import { noIndexReason, summaryOf, unavailableReason, type IndexState } from './
 import { readSettings, toWorkerConfig, type ExtensionSettings } from './settings.js';
 import type { BuildKind, ControllerHost, IndexChange } from './controllerHost.js';
 import type { StartedWorker } from './workerHost.js';
+import { errorKind } from '../node/worker/workerErrors.js';
 
 export type { BuildKind, ControllerHost, IndexChange } from './controllerHost.js';
 
@@ -129,7 +130,7 @@ export class IndexController {
         if (isCancelled(err)) {
           this._host.log('Indexing cancelled; the previous index stays in use.');
           this.setState(previous ? { kind: 'ready', summary: previous } : { kind: 'none', reason: 'indexing was cancelled.' });
-        } else if (err instanceof Error && err.name === 'EmptyCorpusError') {
+        } else if (err instanceof Error && errorKind(err) === 'empty') {
           // An empty folder is not an error worth a pop-up, unless the person asked for the build.
           this._host.log(err.message);
           this.setState(previous ? { kind: 'ready', summary: previous } : { kind: 'none', reason: err.message });

@@ -13,6 +13,7 @@ import { buildMapWebviewHtml } from '../core/map/mapHtml.js';
 import { isPageToHostMessage, type HostToPageMessage, type PageToHostMessage } from '../core/map/mapMessages.js';
 import type { IndexController } from './indexController.js';
 import { MapSession, themeKindName } from './mapPanelModel.js';
+import { errorKind } from '../node/worker/workerErrors.js';
 
 export class ConceptMapPanel implements vscode.Disposable {
   static readonly viewType = 'undertone.conceptMap';
@@ -127,7 +128,7 @@ export class ConceptMapPanel implements vscode.Disposable {
       this.post({ type: 'queryResult', requestId, text, positions: r.positions, neighbours: [...r.neighbours], similarities: [...r.similarities] });
     } catch (err) {
       const e = err as Error;
-      if (e.name === 'MapOutdatedError') void this.load();
+      if (errorKind(err) === 'map-outdated') void this.load();
       this.post({ type: 'queryError', requestId, message: e.message });
     }
   }

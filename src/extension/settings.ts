@@ -7,6 +7,7 @@
  */
 import type { IndexSettings } from '../core/index/model/settings.js';
 import { WEIGHTING_SCHEMES, type WeightingScheme } from '../core/weighting/termWeighting.js';
+import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
 import type { WorkerConfig, WorkspaceRoot } from '../node/worker/workerProtocol.js';
 
 export interface ExtensionSettings {
@@ -22,11 +23,11 @@ export interface ExtensionSettings {
   readonly autoRebuild: boolean;
 }
 
-/** Defaults, identical to the manifest's (the 1 MiB cap is the scanner's, common practice). */
+/** Defaults, identical to the manifest's (the file-size cap is the scanner's). */
 export const DEFAULT_EXTENSION_SETTINGS: ExtensionSettings = Object.freeze({
   include: [],
   exclude: [],
-  maxFileSizeKB: 1024,
+  maxFileSizeKB: DEFAULT_MAX_FILE_BYTES / 1024,
   dimensions: 'auto',
   weighting: 'log-entropy',
   useGitignore: true,
@@ -124,7 +125,7 @@ export interface HostFolder {
 }
 
 export function toWorkerConfig(s: ExtensionSettings, folders: readonly (HostFolder & { readonly key: string })[], indexFile: string): WorkerConfig {
-  const roots: WorkspaceRoot[] = folders.map((f) => ({ name: f.key, path: f.fsPath, exclude: enabledPatterns(f.filesExclude).flatMap(globToGitignore) }));
+  const roots: WorkspaceRoot[] = folders.map((f) => ({ name: f.key, fsPath: f.fsPath, exclude: enabledPatterns(f.filesExclude).flatMap(globToGitignore) }));
   const settings: Partial<IndexSettings> = { k: s.dimensions, weighting: s.weighting };
   return {
     roots,

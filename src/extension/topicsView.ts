@@ -9,6 +9,7 @@ import * as vscode from 'vscode';
 import type { TopicsResult } from '../node/worker/insightProtocol.js';
 import type { IndexController } from './indexController.js';
 import { topicsSummary, topicsTree, type TopicNode, type TopicsTreeNode } from './topicsModel.js';
+import { errorKind } from '../node/worker/workerErrors.js';
 
 export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, vscode.Disposable {
   static readonly viewType = 'undertone.topics';
@@ -75,7 +76,7 @@ export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, 
         this._stale = true;
         this._nodes = [];
         this._onDidChangeTreeData.fire();
-        this.setMessage(err instanceof Error && err.name === 'EmptyCorpusError' ? err.message : `Topics could not be found: ${err instanceof Error ? err.message : String(err)}`);
+        this.setMessage(err instanceof Error && errorKind(err) === 'empty' ? err.message : `Topics could not be found: ${err instanceof Error ? err.message : String(err)}`);
       }
     })();
     return this._pending;

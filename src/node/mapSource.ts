@@ -8,13 +8,14 @@
  * the ones shown, turn up in any sample of that size).
  */
 import { join, resolve } from 'node:path';
+import { evenSpread } from '../core/evenSpread.js';
 import { mapSourceFromIndex, topicLabel, DEFAULT_MAP_FROM_INDEX_OPTIONS } from '../core/map/fromIndex.js';
 import type { MapSource } from '../core/map/mapData.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { SurfaceForms } from '../core/text/surfaceForms.js';
 import { walkTopics, type TopicsReport } from '../core/topics/topics.js';
 import { mapTopicTree } from '../core/map/topicTreeData.js';
-import { readIndexableText } from './scan.js';
+import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from './scan.js';
 
 export interface FolderMapSourceOptions {
   /** @default 8 */
@@ -23,7 +24,7 @@ export interface FolderMapSourceOptions {
   readonly labelWords: number;
   /** Files read to learn spellings. @default 2000 */
   readonly formsFileBudget: number;
-  /** Larger files are not read for spellings. @default 1048576 */
+  /** Larger files are not read for spellings. @default DEFAULT_MAX_FILE_BYTES (1 MiB) */
   readonly maxFileBytes: number;
 }
 
@@ -31,7 +32,7 @@ export const DEFAULT_FOLDER_MAP_SOURCE_OPTIONS: FolderMapSourceOptions = {
   termsPerFile: DEFAULT_MAP_FROM_INDEX_OPTIONS.termsPerFile,
   labelWords: DEFAULT_MAP_FROM_INDEX_OPTIONS.labelWords,
   formsFileBudget: 2000,
-  maxFileBytes: 1_048_576,
+  maxFileBytes: DEFAULT_MAX_FILE_BYTES,
 };
 
 /** The map input of the folder's index (paths in the index are relative to folder). */
@@ -46,7 +47,7 @@ export async function folderMapSource(folder: string, index: LsiIndex, topics: T
   for (const t of walkTopics(topics?.topics ?? [])) for (const x of t.terms.slice(0, opts.labelWords)) wanted.add(x.term);
   const forms = new SurfaceForms({ stem }, wanted);
   const root = resolve(folder);
-  for (const row of spreadRows(stems.count, opts.formsFileBudget)) {
+  for (const row of evenSpread(stems.count, opts.formsFileBudget)) {
     const got = await readIndexableText(join(root, stems.paths[row]), opts.maxFileBytes).catch(() => null);
     if (got?.kind === 'text') forms.add(got.text);
   }
@@ -57,12 +58,4 @@ export async function folderMapSource(folder: string, index: LsiIndex, topics: T
     topicLabels: (topics?.topics ?? []).map((t) => topicLabel(t, opts.labelWords, word)),
     ...tree(word),
   };
-}
-
-/** All rows 0…n−1 when n ≤ budget, else budget rows spread evenly (first and last included). */
-export function spreadRows(n: number, budget: number): number[] {
-  if (n <= budget) return Array.from({ length: n }, (_, i) => i);
-  if (budget <= 0) return [];
-  if (budget === 1) return [0];
-  return Array.from({ length: budget }, (_, i) => Math.round((i * (n - 1)) / (budget - 1)));
 }

@@ -18,18 +18,19 @@ import { resolve } from 'node:path';
 import { UndertoneError } from '../core/errors.js';
 import { checkByteCap } from './scanRead.js';
 import { walkFolder } from './scanWalk.js';
-import type { ScanOptions, ScanResult } from './scanTypes.js';
+import { DEFAULT_MAX_FILE_BYTES, type ScanOptions, type ScanResult } from './scanTypes.js';
 
 export { readIndexableText, type IndexableText } from './scanRead.js';
 export { DEFAULT_EXCLUDE_NAMES, DEFAULT_EXCLUDE_PATTERNS, type ExcludeNames } from './scanRules.js';
 export type { ScannedFile, ScanOptions, ScanResult, SkippedPath, SkipReason } from './scanTypes.js';
+export { DEFAULT_MAX_FILE_BYTES } from './scanTypes.js';
 
-/** Defaults (the 1 MiB cap is common practice: larger text files are mostly generated or data). */
+/** Defaults. */
 export const DEFAULT_SCAN_OPTIONS: ScanOptions = Object.freeze({
   include: [],
   exclude: [],
   useDefaultExcludes: true,
-  maxFileBytes: 1_048_576,
+  maxFileBytes: DEFAULT_MAX_FILE_BYTES,
   honourGitignore: true,
   followSymlinks: true,
 });

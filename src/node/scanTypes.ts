@@ -3,6 +3,13 @@
  * both so neither file imports the other.
  */
 
+/**
+ * Files larger than this are not indexed (1 MiB; common practice: larger text files are mostly
+ * generated or data). The one source of this default for the scanner, the readers, the command
+ * line and the editor setting (package.json's undertone.maxFileSizeKB, checked by a test).
+ */
+export const DEFAULT_MAX_FILE_BYTES = 1_048_576;
+
 /** Options for `scanFolder`. Patterns use gitignore syntax (gitignore(5)). */
 export interface ScanOptions {
   /**

@@ -1,8 +1,12 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import ignore from 'ignore';
 import { describe, expect, it } from 'vitest';
 import {
   DEFAULT_EXTENSION_SETTINGS, enabledPatterns, globToGitignore, parseDimensions, readSettings, toWorkerConfig,
 } from '../../src/extension/settings.js';
+import { DEFAULT_MAX_FILE_BYTES, DEFAULT_SCAN_OPTIONS } from '../../src/node/scan.js';
+import { REPO_ROOT } from '../helpers/shared.js';
 
 describe('readSettings', () => {
   it('gives the defaults for missing values', () => {
@@ -66,7 +70,7 @@ describe('toWorkerConfig', () => {
       '/storage/index.undertone',
     );
     expect(config).toEqual({
-      roots: [{ name: 'app', path: '/w/app', exclude: ['**/.git'] }],
+      roots: [{ name: 'app', fsPath: '/w/app', exclude: ['**/.git'] }],
       indexFile: '/storage/index.undertone',
       settings: { k: 40, weighting: 'log-entropy' },
       include: [],
@@ -79,5 +83,16 @@ describe('toWorkerConfig', () => {
   it('takes only switched-on files.exclude entries', () => {
     expect(enabledPatterns({ a: true, b: false, c: { when: 'x' } })).toEqual(['a']);
     expect(enabledPatterns(undefined)).toEqual([]);
+  });
+});
+
+describe('the file-size cap', () => {
+  it("is one number: the manifest's default setting equals the scanner's DEFAULT_MAX_FILE_BYTES", () => {
+    const manifest = JSON.parse(readFileSync(join(REPO_ROOT, 'package.json'), 'utf8')) as {
+      contributes: { configuration: { properties: Record<string, { default: unknown }> } };
+    };
+    expect(manifest.contributes.configuration.properties['undertone.maxFileSizeKB'].default).toBe(DEFAULT_MAX_FILE_BYTES / 1024);
+    expect(DEFAULT_EXTENSION_SETTINGS.maxFileSizeKB * 1024).toBe(DEFAULT_MAX_FILE_BYTES);
+    expect(DEFAULT_SCAN_OPTIONS.maxFileBytes).toBe(DEFAULT_MAX_FILE_BYTES);
   });
 });

@@ -6,7 +6,7 @@
 import { join, resolve } from 'node:path';
 import { InvalidInputError } from '../../core/errors.js';
 import { DEFAULT_LOOKALIKE_OPTIONS, findLookalikes, type LookalikeGroup, type LookalikeReport } from '../../core/lookalike/index.js';
-import { readIndexableText } from '../../node/scan.js';
+import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
 import { round } from './askCommand.js';
@@ -15,7 +15,7 @@ export async function lookalikesCommand(folder: string, flags: Flags, io: Io): P
   const threshold = parseThreshold(flags.threshold);
   const { index } = await ensureIndex(folder, flags, io);
   const root = resolve(folder);
-  const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? 1_048_576;
+  const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? DEFAULT_MAX_FILE_BYTES;
   const files: { id: string; text: string }[] = [];
   const vectors: Float32Array[] = [];
   let unreadable = 0;

@@ -3,7 +3,7 @@ import { join, relative, resolve } from 'node:path';
 import { InvalidInputError, NotIndexedError } from '../../core/errors.js';
 import { explainPair } from '../../core/explain/explain.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
-import { readIndexableText } from '../../node/scan.js';
+import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
 import { explanationJson, explanationLine, round } from './askCommand.js';
@@ -21,7 +21,7 @@ export async function nearbyCommand(folder: string, file: string | undefined, fl
   if (flags.explain) {
     // Readable words for the stems: read the file and its neighbours (unreadable ones keep stems).
     for (const p of [key, ...hits.map((h) => h.path)]) {
-      const got = await readIndexableText(join(resolve(folder), p), 1_048_576).catch(() => null);
+      const got = await readIndexableText(join(resolve(folder), p), DEFAULT_MAX_FILE_BYTES).catch(() => null);
       if (got?.kind === 'text') forms.add(got.text);
     }
   }

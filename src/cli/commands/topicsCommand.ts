@@ -11,7 +11,7 @@ import { SurfaceForms } from '../../core/text/surfaceForms.js';
 import { inFolder, topicsOfFolder } from '../../core/topics/folderTopics.js';
 import type { FolderShare } from '../../core/topics/folderShares.js';
 import { DEFAULT_TOPICS_OPTIONS, findTopics, topicsAtLevel, walkTopics, type Topic, type TopicsReport } from '../../core/topics/topics.js';
-import { readIndexableText } from '../../node/scan.js';
+import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
 import { round } from './askCommand.js';
@@ -59,7 +59,7 @@ async function readForms(folder: string, report: TopicsReport, stem: boolean, fl
   const all = [...walkTopics(report.topics)];
   const wanted = new Set(all.flatMap((t) => t.terms.map((x) => x.term)));
   const forms = new SurfaceForms({ stem }, wanted);
-  const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? 1_048_576;
+  const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? DEFAULT_MAX_FILE_BYTES;
   const seen = new Set<string>();
   // First-level members give most spellings; leaves add their own words.
   for (const t of all) {

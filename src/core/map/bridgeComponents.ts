@@ -17,6 +17,7 @@
  * per round.
  */
 import { type RandomSource } from '../random.js';
+import { UnionFind } from '../lookalike/unionFind.js';
 import type { Components, ExtraEdge } from './neighbourGraph.js';
 import { rowDistance, type RowVectors } from './rowVectors.js';
 
@@ -43,20 +44,20 @@ export function bridgeComponents(
   options: Partial<BridgeOptions> = {},
 ): ExtraEdge[] {
   const opts = { ...DEFAULT_BRIDGE_OPTIONS, ...options };
-  const parent = Int32Array.from({ length: components.count }, (_, i) => i);
-  const find = (x: number): number => {
-    while (parent[x] !== x) {
-      parent[x] = parent[parent[x]];
-      x = parent[x];
-    }
-    return x;
-  };
+  // Components joined so far; each part is named by its smallest component label, so the parts
+  // are visited (and sampled) in a fixed order.
+  const joined = new UnionFind(components.count);
   const edges: ExtraEdge[] = [];
   const seen = new Set<string>();
   let parts = components.count;
   while (parts > 1) {
+    const smallest = new Int32Array(components.count).fill(-1);
+    for (let c = 0; c < components.count; c++) {
+      const r = joined.find(c);
+      if (smallest[r] < 0) smallest[r] = c;
+    }
     const part = new Int32Array(v.n);
-    for (let i = 0; i < v.n; i++) part[i] = find(components.labels[i]);
+    for (let i = 0; i < v.n; i++) part[i] = smallest[joined.find(components.labels[i])];
     const groups = [...groupByPart(part, components.count).values()];
     const perPart = Math.max(1, Math.min(opts.sampleSize, Math.floor(opts.maxRepresentatives / groups.length)));
     const samples = groups.map((members) => sampleOf(members, perPart, rng));
@@ -87,12 +88,7 @@ export function bridgeComponents(
         seen.add(key);
         edges.push({ a: e.a, b: e.b, length: e.length * opts.lengthScale });
       }
-      const ra = find(part[e.a]);
-      const rb = find(part[e.b]);
-      if (ra !== rb) {
-        parent[Math.max(ra, rb)] = Math.min(ra, rb);
-        parts--;
-      }
+      if (joined.union(part[e.a], part[e.b])) parts--;
     }
   }
   return edges;

@@ -4,7 +4,8 @@
  * src/core/text/tokenize.ts step by step — skip hex literals and hex-looking runs (skipsWord);
  * split on '_' and '$', then at lower→Upper, Upper→Upper+lower and letter↔digit boundaries
  * (partBounds); emit each part (and, for a split word, the joined compound) lowercased, unless it
- * is a stop word, 1 or over 40 characters, a digit run over 4, or hex-looking (keepToken); stem
+ * is a stop word, 1 or over MAX_TOKEN_LENGTH characters, a digit run over MAX_DIGIT_RUN, or
+ * hex-looking (keepToken; the limits are tokenRules.ts's); stem
  * with porterFast.ts, which equals natural's stemmer that tokenize uses. Tokenizing threads meet
  * millions of distinct identifiers in a large source tree; this path makes a first sighting
  * several times cheaper. Non-ASCII words go to tokenize().
@@ -12,9 +13,10 @@
  */
 import { STOP_WORDS } from './stopWords.js';
 import type { TokenizeOptions } from './tokenize.js';
+import { MAX_DIGIT_RUN, MAX_TOKEN_LENGTH, MIN_HEXISH_LENGTH } from './tokenRules.js';
 import { porterStem } from './porterFast.js';
 
-export const MAX_TOKEN_LENGTH = 40;
+export { MAX_TOKEN_LENGTH } from './tokenRules.js';
 
 const LOWER = 1, UPPER = 2, DIGIT = 3, SEP = 4;
 const KIND = new Uint8Array(128);
@@ -35,7 +37,7 @@ export function isAsciiWord(word: string): boolean {
 
 /** ^(?=.*\d)[0-9a-f]{8,}$ on the lowercase form of u[start, end) (ASCII word characters). */
 function hexish(u: Uint16Array, start: number, end: number): boolean {
-  if (end - start < 8) return false;
+  if (end - start < MIN_HEXISH_LENGTH) return false;
   let digit = false;
   for (let i = start; i < end; i++) {
     const c = u[i] | 0x20; // ASCII lowercase (digits are unchanged by the bit)
@@ -106,7 +108,7 @@ export function partBounds(u: Uint16Array, start: number, end: number, out: Int3
 export function keepToken(t: string, u: Uint16Array, start: number, end: number): boolean {
   const n = end - start;
   if (n <= 1 || n > MAX_TOKEN_LENGTH || STOP_WORDS.has(t)) return false;
-  if (n >= 5 && allDigits(u, start, end)) return false;
+  if (n > MAX_DIGIT_RUN && allDigits(u, start, end)) return false;
   return !hexish(u, start, end);
 }
 

@@ -11,10 +11,14 @@
  *    runs longer than 4, hex-looking runs of 8+ characters, and tokens over 40 characters.
  * 5. Porter stemming (Porter 1980, via natural's PorterStemmer), memoised.
  *
- * Defaults: stemming on, compounds on (both options of TokenizeOptions).
+ * Defaults: stemming on, compounds on (both options of TokenizeOptions). The limits of step 4 are
+ * in tokenRules.ts. Fast twins for the tokenizing threads give the same tokens for ASCII words
+ * without regular expressions: asciiWord.ts (steps 2–4 on char codes) and porterFast.ts (step 5);
+ * their tests hold them equal to this file for every option combination.
  */
 import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer.js';
 import { STOP_WORDS } from './stopWords.js';
+import { MAX_DIGIT_RUN, MAX_TOKEN_LENGTH, MIN_HEXISH_LENGTH } from './tokenRules.js';
 
 export interface TokenizeOptions {
   /** Porter-stem each token. @default true */
@@ -29,10 +33,9 @@ const WORD = /[\p{L}\p{N}_$]+/gu;
 const MARKS = /\p{M}+/gu;
 // Splits inside an identifier: lower→Upper, Upper→Upper+lower, letter↔digit.
 const CAMEL = /(?<=\p{Ll})(?=\p{Lu})|(?<=\p{Lu})(?=\p{Lu}\p{Ll})|(?<=\p{L})(?=\p{N})|(?<=\p{N})(?=\p{L})/u;
-const LONG_DIGITS = /^\p{N}{5,}$/u;
-const HEXISH = /^(?=.*\d)[0-9a-f]{8,}$/;
+const LONG_DIGITS = new RegExp(`^\\p{N}{${MAX_DIGIT_RUN + 1},}$`, 'u');
+const HEXISH = new RegExp(`^(?=.*\\d)[0-9a-f]{${MIN_HEXISH_LENGTH},}$`);
 const HEX_LITERAL = /^0[xX][0-9a-fA-F]+$/;
-const MAX_TOKEN_LENGTH = 40;
 const STEM_CACHE_LIMIT = 500_000;
 
 const stemCache = new Map<string, string>();

@@ -1,6 +1,6 @@
 /**
  * One description of a parallel matrix job, shared by the main thread and the worker threads:
- * the job names a WebAssembly kernel (src/core/matrix/wasm/simdKernels.ts), its arguments (byte
+ * the job names a WebAssembly kernel (src/core/matrix/wasm/assembly), its arguments (byte
  * offsets into the shared memory, and sizes) and its task split. Whoever claims task t (via an
  * atomic counter) runs exactly the same arithmetic on exactly the same rows, so the result does
  * not depend on who ran what.

@@ -9,6 +9,7 @@ import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
 import { translateRun } from './parallelCount.js';
 import type { FileOutcome, FinalCounts, FromWorker, ToWorker } from './threadProtocol.js';
 import { decodeUtf8 } from '../scanRead.js';
+import { DEFAULT_MAX_FILE_BYTES } from '../scanTypes.js';
 import { FileReader } from './readTextSync.js';
 import { WordCounter, type PackedFile } from './wordCounter.js';
 
@@ -19,7 +20,7 @@ let keepCounts = false;
 /** Pack ranges [start, end) of the kept files, in pack order. */
 let kept: number[] = [];
 const reader = new FileReader();
-let maxFileBytes = 1_048_576;
+let maxFileBytes = DEFAULT_MAX_FILE_BYTES;
 let kernels: KernelExports | undefined;
 let memory: WebAssembly.Memory | undefined;
 

@@ -4,8 +4,9 @@
  * so tests can drive it without a thread. When the worker dies every pending request is rejected.
  */
 import {
-  isWorkerMessage, type HostMessage, type ParamsOf, type Progress, type Request, type RequestType, type ResultOf, type WireError,
+  isWorkerMessage, type HostMessage, type ParamsOf, type Progress, type Request, type RequestType, type ResultOf,
 } from './workerProtocol.js';
+import { errorKind, WorkerRequestError } from './workerErrors.js';
 
 /** The part of node:worker_threads' Worker (or a MessagePort) the client uses. */
 export interface PortLike {
@@ -15,13 +16,7 @@ export interface PortLike {
   on(event: 'exit', listener: (code: number) => void): unknown;
 }
 
-/** A request failed in the worker; `name` is the worker-side error class (e.g. 'CancelledError'). */
-export class WorkerRequestError extends Error {
-  constructor(wire: WireError) {
-    super(wire.message);
-    this.name = wire.name;
-  }
-}
+export { WorkerRequestError } from './workerErrors.js';
 
 /** The worker stopped (crashed or was terminated) while requests were pending. */
 export class WorkerGoneError extends Error {
@@ -112,5 +107,5 @@ export class WorkerClient {
 
 /** True when an error from a request means it was cancelled. */
 export function isCancelled(err: unknown): boolean {
-  return err instanceof Error && err.name === 'CancelledError';
+  return errorKind(err) === 'cancelled';
 }

@@ -9,7 +9,6 @@
  */
 import { rm, stat } from 'node:fs/promises';
 import { basename } from 'node:path';
-import { UndertoneError } from '../../core/errors.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { modelSettingsKey, resolveSettings } from '../../core/index/model/settings.js';
 import { loadIndex, saveIndex } from '../persist.js';
@@ -23,10 +22,10 @@ import type { FileChange, IndexSummary, RefreshReport, UpdateReport, WorkerConfi
 import { RootMap } from './rootMap.js';
 import type { HandlerContext, Handlers } from './server.js';
 import { formsFromTexts } from './wordForms.js';
+import { NoIndexError } from './workerErrors.js';
 import { buildWorkspaceIndex, scanWorkspace, type WorkspaceScan } from './workspaceIndexer.js';
 
-/** A request needs an index (or a configuration) that does not exist yet. */
-export class NoIndexError extends UndertoneError {}
+export { NoIndexError } from './workerErrors.js';
 
 export interface IndexServiceOptions {
   /** Milliseconds after the last folded edit before the index is saved (common practice). @default 2000 */
@@ -91,7 +90,7 @@ export class IndexService {
   configure(config: WorkerConfig): { modelChanged: boolean } {
     this._config = config;
     this._roots = new RootMap(config.roots);
-    this._admission = new Map(config.roots.map((r) => [r.name, new FileAdmission(r.path, { include: config.include, exclude: [...config.exclude, ...r.exclude], honourGitignore: config.honourGitignore })]));
+    this._admission = new Map(config.roots.map((r) => [r.name, new FileAdmission(r.fsPath, { include: config.include, exclude: [...config.exclude, ...r.exclude], honourGitignore: config.honourGitignore })]));
     const modelChanged = this._index !== undefined && modelSettingsKey(this._index.settings) !== modelSettingsKey(resolveSettings(config.settings));
     return { modelChanged };
   }

@@ -51,7 +51,7 @@ export function indexStateKey(index: LsiIndex, roots: RootMap): string {
   let id = indexIds.get(index);
   if (id === undefined) indexIds.set(index, (id = nextIndexId++));
   const c = index.counters();
-  const folders = roots.roots.map((r) => `${r.name}=${r.path}`).join('|');
+  const folders = roots.roots.map((r) => `${r.name}=${r.fsPath}`).join('|');
   return `${id}:${index.slots().length}:${index.size}:${c.foldedTokens}:${c.removedSinceBuild}:${folders}`;
 }
 

@@ -7,7 +7,7 @@
  * Queries are folded with that index's frozen model, projected on the quick layout
  * (projectQuick) and placed on the faithful one by its own rule (placeQueryFaithful).
  */
-import { NoKnownTermsError, UndertoneError } from '../../core/errors.js';
+import { NoKnownTermsError } from '../../core/errors.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { mapSourceFromIndex, topicLabel, DEFAULT_MAP_FROM_INDEX_OPTIONS } from '../../core/map/fromIndex.js';
 import { mapTopicTree } from '../../core/map/topicTreeData.js';
@@ -22,8 +22,7 @@ import type { MapQueryResult } from './insightProtocol.js';
 import type { RootMap } from './rootMap.js';
 import { formsFromFiles, type WordFor } from './wordForms.js';
 
-/** The map a page shows was replaced (rebuilt index): the page should ask for the new one. */
-export class MapOutdatedError extends UndertoneError {}
+export { MapOutdatedError } from './workerErrors.js';
 
 export interface MapModel {
   readonly token: number;

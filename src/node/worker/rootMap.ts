@@ -29,7 +29,7 @@ export class RootMap {
   locate(fsPath: string): { root: WorkspaceRoot; rel: string } | undefined {
     let best: { root: WorkspaceRoot; rel: string } | undefined;
     for (const root of this.roots) {
-      const rel = relative(root.path, fsPath);
+      const rel = relative(root.fsPath, fsPath);
       if (rel.startsWith('..') || isAbsolute(rel)) continue;
       const slashed = sep === '/' ? rel : rel.split(sep).join('/');
       if (!best || slashed.length < best.rel.length) best = { root, rel: slashed };
@@ -52,7 +52,7 @@ export class RootMap {
       root = this._byName.get(key.slice(0, slash)) ?? root;
       rel = key.slice(slash + 1);
     }
-    return { key, fsPath: join(root.path, ...rel.split('/')), folder: root.name, relPath: rel };
+    return { key, fsPath: join(root.fsPath, ...rel.split('/')), folder: root.name, relPath: rel };
   }
 }
 

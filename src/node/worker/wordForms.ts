@@ -4,6 +4,7 @@
  * stems only; a stem never seen keeps its stem. Reads at most `budget` files, spread evenly over
  * the list given, so a big workspace costs a bounded read.
  */
+import { evenSpread } from '../../core/evenSpread.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
 import { readIndexableText } from '../scan.js';
 import type { RootMap } from './rootMap.js';
@@ -31,17 +32,9 @@ export async function formsFromFiles(
 ): Promise<WordFor> {
   if (!options.stem) return identityWord;
   const forms = new SurfaceForms({ stem: true }, options.wanted);
-  for (const i of spread(keys.length, options.budget ?? DEFAULT_FORMS_BUDGET)) {
+  for (const i of evenSpread(keys.length, options.budget ?? DEFAULT_FORMS_BUDGET)) {
     const got = await readIndexableText(roots.refOf(keys[i]).fsPath, options.maxFileBytes).catch(() => null);
     if (got?.kind === 'text') forms.add(got.text);
   }
   return (s) => forms.wordFor(s);
-}
-
-/** All of 0…n−1 when n ≤ budget, else budget indices spread evenly (first and last included). */
-export function spread(n: number, budget: number): number[] {
-  if (n <= budget) return Array.from({ length: n }, (_, i) => i);
-  if (budget <= 0) return [];
-  if (budget === 1) return [0];
-  return Array.from({ length: budget }, (_, i) => Math.round((i * (n - 1)) / (budget - 1)));
 }

@@ -13,8 +13,8 @@ import { INSIGHT_REQUEST_TYPES, type InsightRequestMap, type Why } from './insig
 /** One workspace folder. Names are unique and become the path prefix when there are several. */
 export interface WorkspaceRoot {
   readonly name: string;
-  /** Absolute file-system path. */
-  readonly path: string;
+  /** Absolute file-system path of the folder. */
+  readonly fsPath: string;
   /** Extra exclude patterns for this folder only (gitignore syntax, e.g. from files.exclude). */
   readonly exclude: readonly string[];
 }
@@ -136,11 +136,8 @@ export interface CancelMessage {
 
 export type HostMessage = Request | CancelMessage;
 
-/** An error as it crosses the boundary: the class name (e.g. 'CancelledError') and the message. */
-export interface WireError {
-  readonly name: string;
-  readonly message: string;
-}
+import { isWireError, type WireError } from './workerErrors.js';
+export { toWireError, type WireError } from './workerErrors.js';
 
 export type WorkerMessage =
   | { readonly kind: 'result'; readonly id: number; readonly result: unknown }
@@ -161,18 +158,12 @@ export function isHostMessage(x: unknown): x is HostMessage {
 export function isWorkerMessage(x: unknown): x is WorkerMessage {
   if (!isObject(x) || !isId(x.id)) return false;
   if (x.kind === 'result') return 'result' in x;
-  if (x.kind === 'error') return isObject(x.error) && typeof x.error.name === 'string' && typeof x.error.message === 'string';
+  if (x.kind === 'error') return isWireError(x.error);
   if (x.kind === 'progress') {
     const p = x.progress;
     return isObject(p) && typeof p.stage === 'string' && typeof p.done === 'number' && typeof p.total === 'number';
   }
   return false;
-}
-
-/** Turns anything thrown into a WireError. */
-export function toWireError(err: unknown): WireError {
-  if (err instanceof Error) return { name: err.name, message: err.message };
-  return { name: 'Error', message: String(err) };
 }
 
 /** Stage weights for one overall percentage (common practice: rough shares of a typical build's time). */

@@ -26,7 +26,7 @@ export async function scanWorkspace(roots: RootMap, config: WorkerConfig, signal
   const skipped: SkipCounts = { binary: 0, tooLarge: 0, unreadable: 0, other: 0 };
   for (const root of roots.roots) {
     const scan = await scanFolder(
-      root.path,
+      root.fsPath,
       {
         include: config.include,
         exclude: [...config.exclude, ...root.exclude],

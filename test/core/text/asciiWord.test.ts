@@ -3,13 +3,15 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_TOKENIZE_OPTIONS, splitIdentifier, tokenize } from '../../../src/core/text/tokenize.js';
 import { asciiParts, asciiWordTokens, isAsciiWord } from '../../../src/core/text/asciiWord.js';
+import { MAX_DIGIT_RUN, MAX_TOKEN_LENGTH, MIN_HEXISH_LENGTH } from '../../../src/core/text/tokenRules.js';
 import { createRandom } from '../../../src/core/random.js';
 import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 
 // Reference: tokenize() itself (the regular-expression tokenizer this path must equal), on
 // edge cases, generated identifiers, the words of the test collections, and, when present, the
 // words of the kernel Documentation folder that scripts/bench-setup.sh unpacks.
-const OPTION_SETS = [DEFAULT_TOKENIZE_OPTIONS, { stem: false, keepCompounds: true }, { stem: true, keepCompounds: false }];
+// Every combination of the two options.
+const OPTION_SETS = [DEFAULT_TOKENIZE_OPTIONS, { stem: false, keepCompounds: true }, { stem: true, keepCompounds: false }, { stem: false, keepCompounds: false }];
 
 function check(words: Iterable<string>): number {
   let n = 0;
@@ -29,6 +31,43 @@ const EDGE = [
 ];
 
 describe('asciiWordTokens', () => {
+  it('covers every combination of the tokenize options', () => {
+    const combos = new Set(OPTION_SETS.map((o) => `${o.stem}/${o.keepCompounds}`));
+    expect(combos).toEqual(new Set(['true/true', 'false/true', 'true/false', 'false/false']));
+  });
+
+  it('keeps tokens and compounds of exactly the cap and drops those one longer, as tokenize() does', () => {
+    const L = MAX_TOKEN_LENGTH;
+    // Words made to sit on each limit: a part, a compound, a digit run and a hex-looking run.
+    const word = (n: number, from = 'quorv') => Array.from({ length: n }, (_, i) => from[i % from.length]).join('');
+    const cases: [string, string[]][] = [
+      [word(L), [word(L)]],
+      [word(L + 1), []],
+      [`${word(L / 2)}_${word(L / 2, 'zelk')}`, [word(L / 2), word(L / 2, 'zelk'), word(L / 2) + word(L / 2, 'zelk')]],
+      [`${word(L / 2)}_${word(L / 2 + 1, 'zelk')}`, [word(L / 2), word(L / 2 + 1, 'zelk')]],
+      ['7'.repeat(MAX_DIGIT_RUN), ['7'.repeat(MAX_DIGIT_RUN)]],
+      ['7'.repeat(MAX_DIGIT_RUN + 1), []],
+      [`a${'1'.repeat(MIN_HEXISH_LENGTH - 2)}`, [`a${'1'.repeat(MIN_HEXISH_LENGTH - 2)}`]],
+      [`a${'1'.repeat(MIN_HEXISH_LENGTH - 1)}`, []],
+    ];
+    const plain = { stem: false, keepCompounds: true };
+    for (const [w, expected] of cases) {
+      expect(tokenize(w, plain), w).toEqual(expected); // the reference itself, against the limits as written
+      for (const o of OPTION_SETS) expect(asciiWordTokens(w, o), `${w} ${JSON.stringify(o)}`).toEqual(tokenize(w, o));
+    }
+    // Generated words of every length around the cap, split and unsplit.
+    const rnd = createRandom(5);
+    const around: string[] = [];
+    for (let n = L - 3; n <= L + 3; n++) {
+      for (let k = 0; k < 40; k++) {
+        let w = '';
+        for (let i = 0; i < n; i++) w += 'abcdeHIJKlmnop_0123'[Math.floor(rnd.next() * 19)];
+        around.push(w);
+      }
+    }
+    expect(check(around)).toBeGreaterThan(200);
+  });
+
   it('splits identifiers exactly as splitIdentifier does', () => {
     for (const w of EDGE) if (isAsciiWord(w)) expect(asciiParts(w)).toEqual(splitIdentifier(w));
   });

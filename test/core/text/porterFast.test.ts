@@ -4,6 +4,7 @@ import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer.js';
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
 import { porterStem } from '../../../src/core/text/porterFast.js';
+import { MAX_TOKEN_LENGTH } from '../../../src/core/text/tokenRules.js';
 import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 
 // Reference: natural's PorterStemmer (the stemmer tokenize() uses), word by word. Porter's own
@@ -33,6 +34,20 @@ const PORTER_EXAMPLES = [
 describe('porterStem', () => {
   it("equals natural's PorterStemmer on Porter's examples and edge cases", () => {
     expect(check(PORTER_EXAMPLES)).toBe(PORTER_EXAMPLES.length);
+  });
+
+  it('equals it on tokens of every length up to the tokenizer cap, and just past it', () => {
+    const rnd = createRandom(29);
+    const pieces = ['a', 'e', 'y', 'b', 's', 't', 'ed', 'ing', 'ational', 'iveness', 'ful', 'ization', 'ousli', 'ement', 'ss', 'ies', '7'];
+    const words: string[] = [];
+    for (let n = 1; n <= MAX_TOKEN_LENGTH + 2; n++) {
+      for (let k = 0; k < 60; k++) {
+        let w = '';
+        while (w.length < n) w += pieces[Math.floor(rnd.next() * pieces.length)];
+        words.push(w.slice(w.length - n)); // keep the suffix, where the stemmer works
+      }
+    }
+    expect(check(words)).toBe(60 * (MAX_TOKEN_LENGTH + 2));
   });
 
   it('equals it on 30 000 generated lowercase tokens', () => {

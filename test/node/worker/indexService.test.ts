@@ -30,7 +30,7 @@ function gate() {
 describe('IndexService background preparation', () => {
   const folder = join(tmp, 'ws');
   const config: WorkerConfig = {
-    roots: [{ name: 'ws', path: folder, exclude: [] }],
+    roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
     indexFile: join(tmp, 'index.undertone'),
     settings: { k: 40 },
     include: [],

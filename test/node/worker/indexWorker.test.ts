@@ -50,7 +50,7 @@ describe('shared cancel flag in a real thread', () => {
 describe('index worker round trip', () => {
   const docs = adi ? adi.docs : [];
   const config = (over: Partial<WorkerConfig> = {}): WorkerConfig => ({
-    roots: [{ name: 'ws', path: folder, exclude: [] }],
+    roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
     indexFile: join(tmp, 'storage', 'index.undertone'),
     settings: {},
     include: [],
@@ -156,7 +156,7 @@ describe('index worker round trip', () => {
     writeFileSync(join(second, 'twin-of-20.txt'), text('20'));
     const client = start();
     await client.request('configure', {
-      config: config({ roots: [{ name: 'ws', path: folder, exclude: [] }, { name: 'second', path: second, exclude: [] }], indexFile: join(tmp, 'multi.undertone') }),
+      config: config({ roots: [{ name: 'ws', fsPath: folder, exclude: [] }, { name: 'second', fsPath: second, exclude: [] }], indexFile: join(tmp, 'multi.undertone') }),
     });
     const report = await client.request('build', {});
     expect(report.summary.files).toBe(docs.length + 1);

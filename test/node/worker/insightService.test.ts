@@ -31,7 +31,7 @@ const service = new IndexService({ saveDelayMs: 60_000 });
 const h = service.handlers();
 const ctx: HandlerContext = { signal: new AbortController().signal, isCancelled: () => false, progress: () => undefined };
 const config: WorkerConfig = {
-  roots: [{ name: 'ferry', path: folder, exclude: [] }],
+  roots: [{ name: 'ferry', fsPath: folder, exclude: [] }],
   indexFile: join(tmp, 'storage', 'index.undertone'),
   settings: {},
   include: [],
@@ -196,7 +196,7 @@ describe('a workspace of one file', () => {
     writeFileSync(join(one, 'crossing.md'), 'Tide tables and ferry timetables for the island crossing.\n');
     const single = new IndexService({ saveDelayMs: 60_000 });
     const s = single.handlers();
-    await s.configure({ config: { ...config, roots: [{ name: 'one', path: one, exclude: [] }], indexFile: join(tmp, 'one.undertone') } }, ctx);
+    await s.configure({ config: { ...config, roots: [{ name: 'one', fsPath: one, exclude: [] }], indexFile: join(tmp, 'one.undertone') } }, ctx);
     await s.build({}, ctx);
     expect((await s.lookalikes({ threshold: 0.8, paraphraseThreshold: 0.95 }, ctx)).groups).toEqual([]);
     const topics = await s.topics({}, ctx);

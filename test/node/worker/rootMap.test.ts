@@ -2,7 +2,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { RootMap, uniqueRootNames } from '../../../src/node/worker/rootMap.js';
 
-const root = (name: string, path: string) => ({ name, path, exclude: [] });
+const root = (name: string, fsPath: string) => ({ name, fsPath, exclude: [] });
 
 describe('RootMap', () => {
   it('uses folder-relative keys with a single folder', () => {

@@ -28,16 +28,17 @@ describe('protocol message checks', () => {
   it('checks worker messages by kind', () => {
     expect(isWorkerMessage({ kind: 'result', id: 1, result: null })).toBe(true);
     expect(isWorkerMessage({ kind: 'result', id: 1 })).toBe(false);
-    expect(isWorkerMessage({ kind: 'error', id: 1, error: { name: 'E', message: 'm' } })).toBe(true);
+    expect(isWorkerMessage({ kind: 'error', id: 1, error: { kind: 'failed', name: 'E', message: 'm' } })).toBe(true);
+    expect(isWorkerMessage({ kind: 'error', id: 1, error: { name: 'E', message: 'm' } })).toBe(false);
     expect(isWorkerMessage({ kind: 'error', id: 1, error: 'boom' })).toBe(false);
     expect(isWorkerMessage({ kind: 'progress', id: 1, progress: { stage: 'read', done: 1, total: 2 } })).toBe(true);
     expect(isWorkerMessage({ kind: 'progress', id: 1, progress: { stage: 'read', done: '1', total: 2 } })).toBe(false);
     expect(isWorkerMessage({ kind: 'hello', id: 1 })).toBe(false);
   });
 
-  it('keeps the class name of an error, so the host can tell a cancel from a failure', () => {
-    expect(toWireError(new CancelledError())).toEqual({ name: 'CancelledError', message: 'Cancelled.' });
-    expect(toWireError('plain')).toEqual({ name: 'Error', message: 'plain' });
+  it('gives an error its kind and keeps its class name, so the host can tell a cancel from a failure', () => {
+    expect(toWireError(new CancelledError())).toEqual({ kind: 'cancelled', name: 'CancelledError', message: 'Cancelled.' });
+    expect(toWireError('plain')).toEqual({ kind: 'failed', name: 'Error', message: 'plain' });
   });
 });
 

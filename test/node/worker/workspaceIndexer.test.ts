@@ -33,7 +33,7 @@ afterAll(() => {
 });
 
 describe('buildWorkspaceIndex', () => {
-  const roots = new RootMap(folders.map((p, i) => ({ name: ['alpha', 'beta'][i], path: p, exclude: [] })));
+  const roots = new RootMap(folders.map((p, i) => ({ name: ['alpha', 'beta'][i], fsPath: p, exclude: [] })));
   const config: WorkerConfig = {
     roots: roots.roots, indexFile: join(tmp, 'unused'), settings: {}, include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
   };

@@ -5,36 +5,19 @@
  * one SVD hands its scratch back. The memory is shared even on one thread because growing a
  * shared memory never detaches the buffers of earlier arrays.
  */
-import { kernelModuleBytes, MAX_PAGES } from './simdKernels.js';
+import { instantiateKernelModule, kernelModule, MAX_PAGES, type KernelModuleExports } from './kernelModule.js';
+
+export { kernelModule };
 
 const PAGE = 65536;
 const ALIGN = 16;
 const GROW_SLACK_PAGES = 64;
 
-export interface KernelExports {
-  spmm(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
-  /** The same with f32 stored values. */
-  spmm_f32(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
-  cross(a: number, b: number, l: number, r0: number, r1: number, g: number, symmetric: number): void;
-  times(y: number, l: number, w: number, c: number, upper: number, out: number, r0: number, r1: number): void;
-}
-
-let compiled: WebAssembly.Module | null | undefined;
-
-/** The kernel module, or null where WebAssembly SIMD or shared memory is unavailable. */
-export function kernelModule(): WebAssembly.Module | null {
-  if (compiled !== undefined) return compiled;
-  try {
-    const bytes = kernelModuleBytes();
-    compiled = typeof SharedArrayBuffer === 'function' && WebAssembly.validate(bytes) ? new WebAssembly.Module(bytes) : null;
-  } catch {
-    compiled = null;
-  }
-  return compiled;
-}
+/** The exports the SVD's executors use (./assembly/spmm.ts, cross.ts, times.ts). */
+export type KernelExports = Pick<KernelModuleExports, 'spmm' | 'spmm_f32' | 'cross' | 'times'>;
 
 export function instantiateKernels(module: WebAssembly.Module, memory: WebAssembly.Memory): KernelExports {
-  return new WebAssembly.Instance(module, { env: { memory } }).exports as unknown as KernelExports;
+  return instantiateKernelModule(module, memory);
 }
 
 export class WasmArena {

@@ -1,5 +1,5 @@
 /**
- * A single-threaded MatrixExecutor running the WebAssembly SIMD kernels (simdKernels.ts) on a
+ * A single-threaded MatrixExecutor running the WebAssembly SIMD kernels (./assembly) on a
  * WasmArena. Inputs that do not live in the arena are copied in first. Reductions use the same
  * fixed blocks, in the same order, as every other executor, so the results are the same bits as
  * serialExecutor's.

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { serialExecutor } from '../../../src/core/matrix/executor.js';
-import { createWasmExecutor } from '../../../src/core/matrix/wasm/wasmExecutor.js';
-import { createRandom } from '../../../src/core/random.js';
+import { serialExecutor } from '../../../../src/core/matrix/executor.js';
+import { createWasmExecutor } from '../../../../src/core/matrix/wasm/wasmExecutor.js';
+import { createRandom } from '../../../../src/core/random.js';
 
 // Reference: the plain typed-array executor (its kernels are checked against brute force in
 // kernels.test.ts). The SIMD kernels promise the very same IEEE operations, so the same bits.
@@ -29,6 +29,14 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
         serialExecutor.spmm(m, x, l, y1, sequential);
         ex.spmm(m, x, l, y2, sequential);
         expect(same(y1, y2)).toBe(true);
+        // f32 stored values that live in the arena run the spmm_f32 kernel (promoted exactly).
+        const m32 = { ...m, values: ex.float32(values.length) };
+        m32.values.set(values);
+        const y3 = new Float64Array(rows * l);
+        const y4 = ex.float64(rows * l);
+        serialExecutor.spmm(m32, x, l, y3, sequential);
+        ex.spmm(m32, x, l, y4, sequential);
+        expect(same(y3, y4)).toBe(true);
       }
       const a = Float64Array.from({ length: rows * l }, () => rnd.normal());
       const b = Float64Array.from({ length: rows * l }, () => rnd.normal());
