@@ -36,7 +36,7 @@ describe('topics and --explain on the demo', () => {
   });
 
   it('--json lists every file once and names planted topics with planted keywords', async () => {
-    const r = await run('topics', cmakeRoot, '--json', '--topics', '6');
+    const r = await run('topics', demoRoot, '--json', '--topics', '6');
     expect(r.code).toBe(0);
     const report = JSON.parse(r.out) as { topics: { members: string[]; terms: { word: string; term: string }[] }[]; loose: { path: string }[]; unplaced: string[]; count: { chosen: string } };
     expect(report.topics).toHaveLength(6);
