@@ -56,6 +56,9 @@ options:
   --like FILE, --unlike FILE (ask) more / fewer files like this indexed file (repeatable; the text
                              may then be empty: ask <folder> "" --like FILE)
   --topics N                 (topics, map) how many topics (default: chosen automatically)
+  --depth N                  (topics) levels of sub-topics to find and show (default 2; with
+                             --json the whole tree, up to 4)
+  --in FOLDER                (topics) the topics of one sub-folder: how many of its files each holds
   --threshold J              (lookalikes) shingle Jaccard for near-copies (default 0.8)
   --layout both|quick|faithful   (map) layouts in the page (default both, opening on faithful;
                              quick skips the slower faithful layout; faithful is the same as both,
@@ -116,6 +119,8 @@ const EXTRA_OPTIONS = {
   like: { type: 'string', multiple: true },
   unlike: { type: 'string', multiple: true },
   topics: { type: 'string' },
+  depth: { type: 'string' },
+  in: { type: 'string' },
   threshold: { type: 'string' },
   layout: { type: 'string' },
   'max-terms': { type: 'string' },

@@ -53,6 +53,12 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
       if (node && typeof node === 'object' && (node as { type?: unknown }).type === 'more') lookalikes.showMore(node as MoreNode);
     }),
     reg('undertone.refreshTopics', () => topics.refresh()),
+    reg('undertone.showFolderTopics', async (uri?: unknown) => {
+      const target = uri instanceof vscode.Uri ? uri : undefined;
+      if (!target) return;
+      await topics.showFolder(target.fsPath);
+    }),
+    reg('undertone.showAllTopics', () => topics.showAll()),
     reg('undertone.compareLookalike', async (node?: unknown) => {
       if (!isPair(node)) return;
       const title = `${node.label} (${node.description})`;

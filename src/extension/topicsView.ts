@@ -1,7 +1,9 @@
 /**
- * The "Topics" view: the workspace's topics (found in the worker, node/worker/topicsTask.ts),
- * each with its signature words, then its files; clicking a file opens it. Computed when the view
- * is shown and again after each rebuild (while visible; otherwise on its next showing).
+ * The "Topics" view: the workspace's topic tree (found in the worker, node/worker/topicsTask.ts,
+ * and kept there until the index changes), each topic named by its words, opening into sub-topics
+ * and then files; clicking a file opens it. Computed when the view is shown and again after each
+ * rebuild (while visible; otherwise on its next showing). showFolder() narrows it to the topics
+ * holding one folder's files (Explorer: Show Topics of Folder) until showAll().
  */
 import * as vscode from 'vscode';
 import type { TopicsResult } from '../node/worker/insightProtocol.js';
@@ -17,6 +19,7 @@ export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, 
   private _stale = true;
   private _seq = 0;
   private _pending: Promise<void> = Promise.resolve();
+  private _folder: string | undefined;
   private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
   private readonly _disposables: vscode.Disposable[] = [this._onDidChangeTreeData];
   readonly onDidChangeTreeData = this._onDidChangeTreeData.event;
@@ -40,18 +43,32 @@ export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, 
     if (view.visible) void this.refresh();
   }
 
+  /** Shows the topics holding the files of one folder (absolute path). */
+  async showFolder(fsPath: string): Promise<void> {
+    this._folder = fsPath;
+    void vscode.commands.executeCommand('setContext', 'undertone.topicsFolder', true);
+    await vscode.commands.executeCommand(`${TopicsProvider.viewType}.focus`);
+    return this.refresh();
+  }
+
+  showAll(): Promise<void> {
+    this._folder = undefined;
+    void vscode.commands.executeCommand('setContext', 'undertone.topicsFolder', false);
+    return this.refresh();
+  }
+
   refresh(): Promise<void> {
     const seq = ++this._seq;
     this._stale = false;
     this._pending = (async () => {
       this.setMessage('Finding topics…');
       try {
-        const result: TopicsResult | null = await this._controller.insight('topics', {});
+        const result: TopicsResult | null = await this._controller.insight('topics', this._folder ? { folder: this._folder } : {});
         if (seq !== this._seq) return;
         if (!result) this._stale = true;
-        else this._log(`Topics: ${result.topics.length} found in ${Math.round(result.ms)} ms.`);
+        else this._log(`Topics: ${result.topics.length} first-level topics, ${result.levels} level${result.levels === 1 ? '' : 's'}, found in ${Math.round(result.ms)} ms.`);
         this._nodes = result ? topicsTree(result, this._controller.multiRoot) : [];
-        this.setMessage(undefined);
+        this.setMessage(result?.folder && result.folder.files === 0 ? 'No file of this folder is in the index.' : undefined);
         if (this._view) this._view.description = result ? topicsSummary(result) : undefined;
         this._onDidChangeTreeData.fire();
       } catch (err) {
@@ -71,12 +88,12 @@ export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, 
 
   getTreeItem(node: TopicsTreeNode): vscode.TreeItem {
     if (node.type === 'topic') {
-      const item = new vscode.TreeItem(node.label, vscode.TreeItemCollapsibleState.Collapsed);
+      const item = new vscode.TreeItem(node.label, node.children.length > 0 ? vscode.TreeItemCollapsibleState.Collapsed : vscode.TreeItemCollapsibleState.None);
       item.id = node.id;
       item.description = node.description;
       item.tooltip = new vscode.MarkdownString(node.tooltip);
-      item.iconPath = new vscode.ThemeIcon('symbol-namespace');
-      item.contextValue = 'undertone.topic';
+      item.iconPath = new vscode.ThemeIcon(node.icon === 'topic' ? 'tag' : node.icon === 'loose' ? 'question' : 'circle-slash');
+      item.contextValue = node.icon === 'topic' ? 'undertone.topic' : 'undertone.topicGroup';
       return item;
     }
     if (node.type === 'note') {

@@ -13,7 +13,8 @@ import { mapSourceFromIndex, topicLabel, DEFAULT_MAP_FROM_INDEX_OPTIONS } from '
 import type { MapSource } from '../core/map/mapData.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { SurfaceForms } from '../core/text/surfaceForms.js';
-import type { TopicsReport } from '../core/topics/topics.js';
+import { walkTopics, type TopicsReport } from '../core/topics/topics.js';
+import { mapTopicTree } from '../core/map/topicTreeData.js';
 import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from './scan.js';
 
 export interface FolderMapSourceOptions {
@@ -39,9 +40,11 @@ export async function folderMapSource(folder: string, index: LsiIndex, topics: T
   const opts = { ...DEFAULT_FOLDER_MAP_SOURCE_OPTIONS, ...options };
   const stems = mapSourceFromIndex(index, topics, { termsPerFile: opts.termsPerFile, labelWords: opts.labelWords });
   const stem = index.settings.tokenize.stem;
-  if (!stem) return stems;
+  const tree = (word: (t: string) => string) =>
+    topics && topics.levels > 1 ? { topicTree: mapTopicTree(stems.paths, topics, (t) => topicLabel(t, opts.labelWords, word)) } : {};
+  if (!stem) return { ...stems, ...tree((t) => t) };
   const wanted = new Set(stems.topTerms.flat());
-  for (const t of topics?.topics ?? []) for (const x of t.terms.slice(0, opts.labelWords)) wanted.add(x.term);
+  for (const t of walkTopics(topics?.topics ?? [])) for (const x of t.terms.slice(0, opts.labelWords)) wanted.add(x.term);
   const forms = new SurfaceForms({ stem }, wanted);
   const root = resolve(folder);
   for (const row of evenSpread(stems.count, opts.formsFileBudget)) {
@@ -53,5 +56,6 @@ export async function folderMapSource(folder: string, index: LsiIndex, topics: T
     ...stems,
     topTerms: stems.topTerms.map((terms) => terms.map(word)),
     topicLabels: (topics?.topics ?? []).map((t) => topicLabel(t, opts.labelWords, word)),
+    ...tree(word),
   };
 }

@@ -86,10 +86,10 @@ export function fileTopTerms(index: LsiIndex, slot: DocSlot, count: number): str
   return order.slice(0, count).map((i) => vocab.termOf(model.keptIds[w.columns[i]]));
 }
 
-/** A topic's name on the map: its leading signature words, or "Topic N" when it has none. */
+/** A topic's name on the map: its leading distinctive words (never a number). */
 export function topicLabel(topic: Topic, words: number, wordFor: (term: string) => string = (t) => t): string {
   const shown = topic.terms.slice(0, words).map((x) => wordFor(x.term));
-  return shown.length > 0 ? shown.join(', ') : `Topic ${topic.id}`;
+  return shown.length > 0 ? shown.join(', ') : 'no distinctive words';
 }
 
 function topicsOf(paths: readonly string[], report: TopicsReport | null, label: (t: Topic) => string): { topicIds: Int32Array; topicLabels: string[] } {

@@ -7,6 +7,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import type { EmbeddedQueryData } from './embeddedQueryData.js';
+import { mapTopicTreeProblems, type MapTopicTree } from './topicTreeData.js';
 
 export interface MapSource {
   readonly count: number;
@@ -18,6 +19,8 @@ export interface MapSource {
   /** Topic of each file as an index into topicLabels, or -1. */
   readonly topicIds: ArrayLike<number>;
   readonly topicLabels: readonly string[];
+  /** The topic tree (topicTreeData.ts), when the topics have sub-topics. */
+  readonly topicTree?: MapTopicTree;
   readonly topTerms: readonly (readonly string[])[];
   readonly singularValues: Float64Array;
   /** The number of factors kept. */
@@ -69,6 +72,8 @@ export interface MapPageData {
     readonly topTerms: string[][];
   };
   readonly topicLabels: string[];
+  /** Sub-topics for zooming (topicTreeData.ts); absent when there are none. */
+  readonly topicTree?: MapTopicTree;
   readonly layouts: { readonly quick: PageLayout; readonly faithful: PageLayout | null };
   readonly spectrum: { readonly singularValues: number[]; readonly k: number; readonly totalEnergy: number };
   /** Present only in standalone files, where the page answers queries itself. */
@@ -115,6 +120,7 @@ export function buildMapPageData(
       topTerms: source.topTerms.map((t) => t.slice(0, opts.termsPerFile)),
     },
     topicLabels: [...source.topicLabels],
+    ...(source.topicTree ? { topicTree: source.topicTree } : {}),
     layouts: {
       quick: toPageLayout(layouts.quick.x, layouts.quick.y, opts.digits),
       faithful: layouts.faithful ? toPageLayout(layouts.faithful.x, layouts.faithful.y, opts.digits) : null,
@@ -136,6 +142,7 @@ export function pageDataProblems(d: unknown): string[] {
     if (!Array.isArray(m.files?.[key]) || m.files[key].length !== n) out.push(`files.${key} does not have ${n} entries`);
   }
   if (!Array.isArray(m.topicLabels)) out.push('topicLabels is missing');
+  if (m.topicTree !== undefined) out.push(...mapTopicTreeProblems(m.topicTree, n));
   const checkLayout = (l: unknown, name: string) => {
     const p = l as PageLayout;
     if (!Array.isArray(p?.x) || !Array.isArray(p?.y) || p.x.length !== n || p.y.length !== n) out.push(`layout ${name} does not have ${n} points`);

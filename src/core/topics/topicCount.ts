@@ -23,11 +23,13 @@ export interface TopicCountOptions {
   sampleSize: number;
   /** k-means restarts per candidate. @default 3 */
   restarts: number;
+  /** Lloyd passes per candidate run. @default 50 */
+  maxIterations: number;
   /** @default DEFAULT_SEED */
   seed: number;
 }
 
-export const DEFAULT_TOPIC_COUNT_OPTIONS: Readonly<TopicCountOptions> = Object.freeze({ minTopics: 2, sampleSize: 500, restarts: 3, seed: DEFAULT_SEED });
+export const DEFAULT_TOPIC_COUNT_OPTIONS: Readonly<TopicCountOptions> = Object.freeze({ minTopics: 2, sampleSize: 500, restarts: 3, maxIterations: 50, seed: DEFAULT_SEED });
 
 export interface TopicCountChoice {
   readonly topics: number;
@@ -67,7 +69,7 @@ export function chooseTopicCount(points: Float64Array, n: number, dims: number, 
   const scores: { topics: number; silhouette: number }[] = [];
   let best = { topics: 1, silhouette: -Infinity };
   for (let k = Math.max(2, o.minTopics); k <= upper; k += k < 10 ? 1 : 2) {
-    const c = sphericalKMeans(sample, s, dims, k, { restarts: o.restarts, seed: o.seed + k });
+    const c = sphericalKMeans(sample, s, dims, k, { restarts: o.restarts, maxIterations: o.maxIterations, seed: o.seed + k });
     if (c.clusters < k) break; // fewer distinct directions than k: larger k cannot do better
     const sil = meanSilhouette(dist, s, c.assignment, c.clusters);
     scores.push({ topics: k, silhouette: sil });

@@ -1,33 +1,57 @@
 /**
- * Topics of an index, each explained by real terms and real files.
+ * Topics of an index as a tree, each topic explained by real terms and real files.
  *
  * 1. Group the files' unit concept vectors by spherical k-means (sphericalKMeans.ts); the number
- *    of topics is chosen by mean silhouette (topicCount.ts) unless the caller gives it.
- * 2. CUR of the weighted file × term matrix (cur.ts, deterministic DEIM by default) picks actual
+ *    of first-level topics is chosen by mean silhouette (topicCount.ts) unless the caller gives it.
+ * 2. Files that fit no topic well are set apart ("loose"): a file whose cosine with its topic's
+ *    centre is no larger than its cosine with the centre of the whole workspace is explained by
+ *    its topic no better than by the workspace's average direction (our rule; no constant).
+ * 3. Each topic with more than leafSize files opens into sub-topics: spherical k-means on its own
+ *    files, the count again by silhouette (a cheaper sample, up to maxChildren), down to depth
+ *    levels. A split that leaves one group is no split. This is divisive hierarchical clustering
+ *    (Steinbach, Karypis & Kumar 2000, "A comparison of document clustering techniques", KDD
+ *    workshop on text mining: bisecting k-means), generalised to more than two children per
+ *    split by the silhouette.
+ * 4. CUR of the weighted file × term matrix (cur.ts, deterministic DEIM by default) picks actual
  *    files (rows) and actual terms (columns) that span its leading concepts.
- * 3. Each topic's signature terms: among its 3N most distinctive terms (mean weight inside the
- *    topic minus mean weight outside), those CUR picked come first, then the others, N in all.
- *    Its exemplar files: among its 3F members closest to its centre, CUR's picks first, then the
- *    others, F in all. Every term and file says whether CUR picked it.
+ * 5. Each topic's name terms are scored against its parent (topicNames.ts: frequent inside, rare
+ *    in the siblings); among its 3N best, those CUR picked come first, then the others, N in all,
+ *    markup words last. Its exemplar files: among its 3F members closest to its centre, CUR's
+ *    picks first, then the others, F in all. Every term and file says whether CUR picked it.
+ * 6. Where it lives: the folders holding most of its files (folderShares.ts).
  * Files without any model term have a zero concept vector and are listed as unplaced.
- * Defaults: 8 terms and 5 files per topic (our choice); CUR rank min(20, max(10, topics)) as
- * a rank of 10–20 keeps the picks few enough to read (our choice); CUR terms max(2·rank, 8·topics)
- * so every topic has picks to draw on (our choice); files 2·rank (our choice, as in cur.ts).
+ * Defaults: 8 terms and 5 files per topic (our choice); leafSize 40 ("a few dozen" files, what a
+ * person reads through), depth 4, maxChildren 8 (about what one screen shows), all our choice;
+ * CUR rank min(20, max(10, topics)) as a rank of 10–20 keeps the picks few enough to read (our
+ * choice); CUR terms max(2·rank, 8·topics) so every topic has picks to draw on (our choice); files
+ * 2·rank (our choice, as in cur.ts).
  */
 import { EmptyCorpusError, InvalidInputError } from '../errors.js';
 import type { LsiIndex } from '../index/lsiIndex.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
 import { curDecomposition, type CurMethod } from './cur.js';
+import { folderShares, type FolderShare } from './folderShares.js';
 import { leadingFactors, weightedMatrix } from './indexMatrix.js';
 import { sphericalKMeans, type Clustering } from './sphericalKMeans.js';
 import { chooseTopicCount, type TopicCountChoice } from './topicCount.js';
-import { rankWithPicks, termContrast } from './topicSignature.js';
+import { NameScratch, namesAgainstParent, realWordsFirst, type NamingScore } from './topicNames.js';
+import { rankWithPicks } from './topicSignature.js';
 
 export interface TopicsOptions {
-  /** Number of topics; undefined chooses it automatically. */
+  /** Number of first-level topics; undefined chooses it automatically. */
   topics?: number;
   /** Largest count the automatic choice tries (see topicCount.ts). */
   maxTopics?: number;
+  /** Levels of the tree (1 = no sub-topics). @default 4 */
+  depth: number;
+  /** A topic with at most this many files does not open into sub-topics. @default 40 */
+  leafSize: number;
+  /** Most sub-topics of one topic. @default 8 */
+  maxChildren: number;
+  /** Set apart files that fit no topic well (see the header). @default true */
+  setApartLoose: boolean;
+  /** @default 'informative' */
+  naming: NamingScore;
   /** @default 8 */
   termsPerTopic: number;
   /** @default 5 */
@@ -44,14 +68,25 @@ export interface TopicsOptions {
   wordFor?: (stem: string) => string;
 }
 
-export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({ termsPerTopic: 8, filesPerTopic: 5, curMethod: 'deim', fitSample: 2000, seed: DEFAULT_SEED });
+export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
+  depth: 4,
+  leafSize: 40,
+  maxChildren: 8,
+  setApartLoose: true,
+  naming: 'informative',
+  termsPerTopic: 8,
+  filesPerTopic: 5,
+  curMethod: 'deim',
+  fitSample: 2000,
+  seed: DEFAULT_SEED,
+} as const);
 
 export interface TopicTerm {
   /** The index term (a stem when stemming is on). */
   readonly term: string;
   /** A readable form of the term. */
   readonly word: string;
-  /** Mean weight inside the topic minus mean weight outside. */
+  /** Distinctiveness against the parent (topicNames.ts). */
   readonly weight: number;
   /** True when CUR picked this term. */
   readonly picked: boolean;
@@ -65,7 +100,12 @@ export interface TopicFile {
 }
 
 export interface Topic {
+  /** Position among its siblings, from 1 (largest first). */
   readonly id: number;
+  /** Dotted position in the tree: "3" for a first-level topic, "3.2" for its second sub-topic. */
+  readonly path: string;
+  /** 1 for the first level. */
+  readonly level: number;
   readonly size: number;
   /** Mean cosine of the members with the centre (1 = all alike). */
   readonly cohesion: number;
@@ -73,13 +113,31 @@ export interface Topic {
   readonly files: readonly TopicFile[];
   /** Every member, closest to the centre first. */
   readonly members: readonly string[];
+  /** Folders that hold most of its files (folderShares.ts). */
+  readonly folders: readonly FolderShare[];
+  /** Sub-topics, largest first (empty for a leaf). Together they hold every member. */
+  readonly children: readonly Topic[];
+}
+
+export interface LooseFile {
+  readonly path: string;
+  /** The first-level topic it was nearest to (its path). */
+  readonly nearest: string;
+  /** Cosine with that topic's centre. */
+  readonly similarity: number;
+  /** Cosine with the centre of the whole workspace (at least the former). */
+  readonly overall: number;
 }
 
 export interface TopicsReport {
-  /** Largest first. */
+  /** First-level topics, largest first. */
   readonly topics: readonly Topic[];
+  /** Files that fit no topic well, worst fit first; in no topic. */
+  readonly loose: readonly LooseFile[];
   /** Files without any term the model knows (no concept vector). */
   readonly unplaced: readonly string[];
+  /** Levels the tree reaches (1 when no topic opened). */
+  readonly levels: number;
   readonly count: TopicCountChoice & { readonly chosen: 'auto' | 'given' };
   readonly cur: {
     readonly method: CurMethod;
@@ -94,6 +152,8 @@ export interface TopicsReport {
 export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}): TopicsReport {
   const o = { ...DEFAULT_TOPICS_OPTIONS, ...options };
   if (o.topics !== undefined && (!Number.isInteger(o.topics) || o.topics < 1)) throw new InvalidInputError(`the number of topics must be a positive whole number, got ${o.topics}`);
+  if (!Number.isInteger(o.depth) || o.depth < 1) throw new InvalidInputError(`the depth of the topic tree must be a positive whole number, got ${o.depth}`);
+  if (!Number.isInteger(o.leafSize) || o.leafSize < 2) throw new InvalidInputError(`leafSize must be a whole number of at least 2, got ${o.leafSize}`);
   const im = weightedMatrix(index);
   const dims = index.k;
   const all = index.vectors();
@@ -124,48 +184,159 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
   );
   const pickedRows = new Set(cur.rows.indices);
   const pickedTerms = new Set(cur.columns.indices);
-
-  const topicOfRow = new Int32Array(im.matrix.rows).fill(-1);
-  placed.forEach((row, i) => (topicOfRow[row] = clustering.assignment[i]));
-  const contrast = termContrast(im.matrix, topicOfRow, K);
   const vocab = index.vocab;
   const termName = (col: number): string => vocab.termOf(index.model.keptIds[col]);
   const word = o.wordFor ?? ((s: string) => s);
 
-  const topics: Topic[] = [];
-  for (let t = 0; t < K; t++) {
-    const members: { row: number; sim: number }[] = [];
-    placed.forEach((row, i) => {
-      if (clustering.assignment[i] !== t) return;
-      let d = 0;
-      for (let c = 0; c < dims; c++) d += points[i * dims + c] * clustering.centres[t * dims + c];
-      members.push({ row, sim: d });
-    });
-    if (members.length === 0) continue;
-    members.sort((a, b) => b.sim - a.sim || a.row - b.row);
-    const files = rankWithPicks(members.map((m) => m.row), (row) => pickedRows.has(row), o.filesPerTopic).map((row) => ({
-      path: im.paths[row],
-      similarity: members.find((m) => m.row === row)!.sim,
-      picked: pickedRows.has(row),
-    }));
-    const weights = contrast.subarray(t * im.matrix.cols, (t + 1) * im.matrix.cols);
-    const order = distinctive(weights);
-    const terms = rankWithPicks(order, (col) => pickedTerms.has(col), o.termsPerTopic).map((col) => ({
-      term: termName(col),
-      word: word(termName(col)),
-      weight: weights[col],
-      picked: pickedTerms.has(col),
-    }));
-    const cohesion = members.reduce((s, m) => s + m.sim, 0) / members.length;
-    topics.push({ id: 0, size: members.length, cohesion, terms, files, members: members.map((m) => im.paths[m.row]) });
+  // Loose files: no closer to their topic's centre than to the whole workspace's.
+  const overall = centreOf(points, Int32Array.from({ length: n }, (_, i) => i), dims);
+  const groups: number[][] = Array.from({ length: K }, () => []);
+  const loose: LooseFile[] = [];
+  for (let i = 0; i < n; i++) {
+    const t = clustering.assignment[i];
+    const own = dotRow(points, i, clustering.centres, t, dims);
+    const whole = dotRow(points, i, overall, 0, dims);
+    if (o.setApartLoose && K > 1 && own <= whole) loose.push({ path: im.paths[placed[i]], nearest: String(t), similarity: own, overall: whole });
+    else groups[t].push(i);
   }
-  topics.sort((a, b) => b.size - a.size || (a.members[0] < b.members[0] ? -1 : 1));
+
+  const scratch = new NameScratch(im.matrix.cols);
+  const random = createRandom(o.seed ^ 0x5eed);
+  let levels = 1;
+  const build = (memberGroups: number[][], parentRows: ArrayLike<number>, level: number, parentPath: string): Topic[] => {
+    const nonEmpty = memberGroups.filter((g) => g.length > 0).sort(bySize);
+    const names = namesAgainstParent(
+      im.matrix,
+      parentRows,
+      nonEmpty.map((g) => g.map((i) => placed[i])),
+      3 * o.termsPerTopic,
+      o.naming,
+      scratch,
+      termName,
+    );
+    levels = Math.max(levels, level);
+    return nonEmpty.map((group, gi) => {
+      const path = parentPath ? `${parentPath}.${gi + 1}` : String(gi + 1);
+      const idx = Int32Array.from(group);
+      const centre = centreOf(points, idx, dims);
+      const members = group.map((i) => ({ i, row: placed[i], sim: dotRow(points, i, centre, 0, dims) }));
+      members.sort((a, b) => b.sim - a.sim || a.row - b.row);
+      const simOf = new Map(members.map((m) => [m.row, m.sim]));
+      const files = rankWithPicks(members.map((m) => m.row), (row) => pickedRows.has(row), o.filesPerTopic).map((row) => ({
+        path: im.paths[row],
+        similarity: simOf.get(row)!,
+        picked: pickedRows.has(row),
+      }));
+      const scoreOf = new Map(names[gi].map((t) => [t.col, t.score]));
+      const ranked = rankWithPicks(names[gi].slice(0, o.termsPerTopic).map((t) => t.col), (col) => pickedTerms.has(col), o.termsPerTopic);
+      const terms = realWordsFirst(ranked, termName).map((col) => ({ term: termName(col), word: word(termName(col)), weight: scoreOf.get(col)!, picked: pickedTerms.has(col) }));
+      const memberPaths = members.map((m) => im.paths[m.row]);
+      let children: Topic[] = [];
+      if (level < o.depth && group.length > o.leafSize) {
+        const sub = splitGroup(points, idx, dims, o, random.nextUint32());
+        if (sub.length > 1) children = build(sub, group.map((i) => placed[i]), level + 1, path);
+      }
+      return {
+        id: gi + 1,
+        path,
+        level,
+        size: group.length,
+        cohesion: members.reduce((s, m) => s + m.sim, 0) / members.length,
+        terms,
+        files,
+        members: memberPaths,
+        folders: folderShares(memberPaths),
+        children,
+      };
+    });
+  };
+  const allRows = Int32Array.from({ length: im.matrix.rows }, (_, r) => r);
+  const topics = build(groups, allRows, 1, '');
+  const pathOfCluster = new Map<number, string>();
+  groups
+    .map((g, t) => ({ g, t }))
+    .filter((x) => x.g.length > 0)
+    .sort((a, b) => bySize(a.g, b.g))
+    .forEach((x, j) => pathOfCluster.set(x.t, String(j + 1)));
+  loose.sort((a, b) => a.similarity - a.overall - (b.similarity - b.overall) || (a.path < b.path ? -1 : 1));
   return {
-    topics: topics.map((t, i) => ({ ...t, id: i + 1 })),
+    topics,
+    loose: loose.map((l) => ({ ...l, nearest: pathOfCluster.get(Number(l.nearest)) ?? '' })),
     unplaced,
+    levels,
     count: { ...choice, topics: topics.length, chosen: o.topics !== undefined ? 'given' : 'auto' },
     cur: { method: cur.method, rank: cur.rank, files: cur.rows.indices.length, terms: cur.columns.indices.length, errorRatio: cur.error.ratio },
   };
+}
+
+/** Every topic of a tree, parents before their children. */
+export function* walkTopics(topics: readonly Topic[]): Generator<Topic> {
+  for (const t of topics) {
+    yield t;
+    yield* walkTopics(t.children);
+  }
+}
+
+/** The topics shown at a level: each branch cut at that level (a leaf above it stands for itself). */
+export function topicsAtLevel(topics: readonly Topic[], level: number): Topic[] {
+  const out: Topic[] = [];
+  const visit = (t: Topic) => {
+    if (t.level >= level || t.children.length === 0) out.push(t);
+    else t.children.forEach(visit);
+  };
+  topics.forEach(visit);
+  return out;
+}
+
+/**
+ * Sub-topics of one group (indices into points). A split is decided hundreds of times over a big
+ * tree, so it is kept cheap (our choice, from the bench: bench/topicTree.bench.ts): the count by
+ * silhouette on a SPLIT_SAMPLE-point sample, one restart and SPLIT_PASSES Lloyd passes per
+ * candidate; then k-means on the whole group with SPLIT_RESTARTS restarts of SPLIT_PASSES passes.
+ */
+const SPLIT_SAMPLE = 150;
+const SPLIT_PASSES = 15;
+const SPLIT_RESTARTS = 2;
+
+function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: TopicsOptions, seed: number): number[][] {
+  const m = idx.length;
+  const sub = new Float64Array(m * dims);
+  for (let j = 0; j < m; j++) sub.set(points.subarray(idx[j] * dims, (idx[j] + 1) * dims), j * dims);
+  const choice = chooseTopicCount(sub, m, dims, {
+    maxTopics: Math.min(o.maxChildren, Math.ceil(Math.sqrt(m / 2))),
+    sampleSize: SPLIT_SAMPLE,
+    restarts: 1,
+    maxIterations: SPLIT_PASSES,
+    seed,
+  });
+  if (choice.topics < 2) return [];
+  let c: Clustering;
+  if (m <= o.fitSample) c = sphericalKMeans(sub, m, dims, choice.topics, { seed, restarts: SPLIT_RESTARTS, maxIterations: SPLIT_PASSES });
+  else c = clusterPoints(sub, m, dims, choice.topics, o.fitSample, seed, SPLIT_RESTARTS);
+  const out: number[][] = Array.from({ length: c.clusters }, () => []);
+  for (let j = 0; j < m; j++) out[c.assignment[j]].push(idx[j]);
+  return out.filter((g) => g.length > 0).length > 1 ? out : [];
+}
+
+/** Larger groups first; ties by their first point. */
+function bySize(a: readonly number[], b: readonly number[]): number {
+  return b.length - a.length || a[0] - b[0];
+}
+
+function centreOf(points: Float64Array, idx: Int32Array, dims: number): Float64Array {
+  const c = new Float64Array(dims);
+  for (let j = 0; j < idx.length; j++) for (let d = 0; d < dims; d++) c[d] += points[idx[j] * dims + d];
+  let ss = 0;
+  for (let d = 0; d < dims; d++) ss += c[d] * c[d];
+  const inv = ss > 0 ? 1 / Math.sqrt(ss) : 0;
+  for (let d = 0; d < dims; d++) c[d] *= inv;
+  return c;
+}
+
+function dotRow(a: Float64Array, i: number, b: Float64Array, j: number, dims: number): number {
+  let s = 0;
+  for (let d = 0; d < dims; d++) s += a[i * dims + d] * b[j * dims + d];
+  return s;
 }
 
 /**
@@ -182,8 +353,8 @@ export function restartsFor(n: number, k: number, dims: number): number {
  * Spherical k-means on all points, or, past fitSample points, fitted with restarts on a seeded
  * sample and then refined by up to 10 Lloyd passes over every point from the sample's centres.
  */
-function clusterPoints(points: Float64Array, n: number, dims: number, k: number, fitSample: number, seed: number): Clustering {
-  if (n <= fitSample) return sphericalKMeans(points, n, dims, k, { seed, restarts: restartsFor(n, k, dims) });
+function clusterPoints(points: Float64Array, n: number, dims: number, k: number, fitSample: number, seed: number, restarts?: number): Clustering {
+  if (n <= fitSample) return sphericalKMeans(points, n, dims, k, { seed, restarts: restarts ?? restartsFor(n, k, dims) });
   const random = createRandom(seed);
   const order = Int32Array.from({ length: n }, (_, i) => i);
   for (let i = 0; i < fitSample; i++) {
@@ -192,13 +363,6 @@ function clusterPoints(points: Float64Array, n: number, dims: number, k: number,
   }
   const sample = new Float64Array(fitSample * dims);
   for (let i = 0; i < fitSample; i++) sample.set(points.subarray(order[i] * dims, (order[i] + 1) * dims), i * dims);
-  const fitted = sphericalKMeans(sample, fitSample, dims, k, { seed, restarts: restartsFor(fitSample, k, dims) });
+  const fitted = sphericalKMeans(sample, fitSample, dims, k, { seed, restarts: restarts ?? restartsFor(fitSample, k, dims) });
   return sphericalKMeans(points, n, dims, k, { initial: fitted.centres, maxIterations: 10 });
-}
-
-/** Term columns with positive weight, strongest first (ties: lower column). */
-function distinctive(weights: Float64Array): number[] {
-  const cols: number[] = [];
-  for (let c = 0; c < weights.length; c++) if (weights[c] > 0) cols.push(c);
-  return cols.sort((a, b) => weights[b] - weights[a] || a - b);
 }

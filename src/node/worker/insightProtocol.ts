@@ -85,23 +85,67 @@ export interface TopicFileWire extends FileRef {
   readonly picked: boolean;
 }
 
+export interface TopicFolderWire {
+  /** Folder key ('/'-separated, prefixed by the root name when there are several; '' for the top). */
+  readonly folder: string;
+  readonly files: number;
+  readonly share: number;
+}
+
 export interface TopicWire {
+  /** Position among its siblings, from 1. */
   readonly id: number;
+  /** Dotted position in the tree ("3.2"). */
+  readonly path: string;
+  /** 1 for the first level. */
+  readonly level: number;
   readonly size: number;
   readonly cohesion: number;
+  /** Distinctive words, best first (CUR picks first among them). */
   readonly terms: readonly TopicTermWire[];
-  /** Exemplars first, then the other members closest to the centre first (capped). */
+  /** Exemplars first, then (for a topic without sub-topics) the other members closest to the centre (capped). */
   readonly files: readonly TopicFileWire[];
+  /** Members not in files. */
   readonly moreFiles: number;
+  /** Folders that hold most of its files. */
+  readonly folders: readonly TopicFolderWire[];
+  /** Sub-topics, largest first. */
+  readonly children: readonly TopicWire[];
+}
+
+export interface LooseFileWire extends FileRef {
+  /** Path of the first-level topic it was nearest to. */
+  readonly nearest: string;
+}
+
+/** The topics one folder holds (request parameter folder). */
+export interface FolderTopicsWire {
+  /** The folder's key prefix ('' for a whole root of a one-root workspace). */
+  readonly folder: string;
+  readonly fsPath: string;
+  /** Files of the folder the topics know (in a topic, loose or unplaced). */
+  readonly files: number;
+  /** Files of the folder in no topic. */
+  readonly outside: number;
+  /** Topic path → how many of the folder's files it holds (topics holding none are absent). */
+  readonly counts: Readonly<Record<string, number>>;
 }
 
 export interface TopicsResult {
+  /** First-level topics, largest first. */
   readonly topics: readonly TopicWire[];
+  /** Levels the tree reaches. */
+  readonly levels: number;
+  /** Files that fit no topic well (capped). */
+  readonly loose: readonly LooseFileWire[];
+  readonly looseCount: number;
   /** Files without any word the model knows (capped). */
   readonly unplaced: readonly FileRef[];
   readonly unplacedCount: number;
   readonly chosen: 'auto' | 'given';
   readonly cur: { readonly method: string; readonly rank: number; readonly errorRatio: number | null };
+  /** Present when the request named a folder. */
+  readonly folder?: FolderTopicsWire;
   readonly ms: number;
 }
 
@@ -125,7 +169,8 @@ export interface MapQueryResult {
 /** Each insight request with its parameters and result (merged into workerProtocol.ts's RequestMap). */
 export interface InsightRequestMap {
   lookalikes: { params: { threshold: number }; result: LookalikesResult };
-  topics: { params: Record<string, never>; result: TopicsResult };
+  /** folder: an absolute folder path; the result then says which topics hold its files. */
+  topics: { params: { folder?: string }; result: TopicsResult };
   mapData: { params: Record<string, never>; result: MapDataResult };
   /** Places a query on the map named by token; fails with MapOutdatedError when it was replaced. */
   mapQuery: { params: { token: number; text: string }; result: MapQueryResult };

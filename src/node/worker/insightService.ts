@@ -5,12 +5,13 @@
  * layouts are computed once per index state. Concurrent requests for the same thing share one run.
  */
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
-import type { InsightRequestType, LookalikesResult, MapDataResult } from './insightProtocol.js';
+import { InvalidInputError } from '../../core/errors.js';
+import type { InsightRequestType, LookalikesResult, MapDataResult, TopicsResult } from './insightProtocol.js';
 import { computeLookalikes } from './lookalikeTask.js';
 import { computeMap, MapOutdatedError, placeMapQuery, type MapModel } from './mapTask.js';
 import type { RootMap } from './rootMap.js';
 import type { Handlers } from './server.js';
-import { computeTopics, type TopicsTaskResult } from './topicsTask.js';
+import { computeTopics, folderTopics, type TopicsTaskResult } from './topicsTask.js';
 
 /** What the insight service needs from the index service. */
 export interface InsightSource {
@@ -66,7 +67,7 @@ export class InsightService {
   handlers(): Pick<Handlers, InsightRequestType> {
     return {
       lookalikes: async (p) => this.lookalikes(p.threshold),
-      topics: async () => (await this.topicsRun()).result,
+      topics: async (p) => this.topics(p?.folder),
       mapData: async () => this.mapData(),
       mapQuery: async ({ token, text }) => this.mapQuery(token, text),
     };
@@ -77,6 +78,15 @@ export class InsightService {
     const roots = this._source.roots();
     const key = `${indexStateKey(index, roots)}:${threshold}`;
     return this._lookalikes.get(key, () => computeLookalikes(index, roots, { threshold, maxFileBytes: this._source.maxFileBytes() }));
+  }
+
+  /** The topic tree; with a folder, also which topics hold its files. */
+  async topics(folder?: string): Promise<TopicsResult> {
+    const run = await this.topicsRun();
+    if (folder === undefined) return run.result;
+    const got = folderTopics(run.report, this._source.roots(), folder);
+    if (!got) throw new InvalidInputError(`${folder} is not inside a folder of this workspace.`);
+    return { ...run.result, folder: got };
   }
 
   topicsRun(): Promise<TopicsTaskResult> {

@@ -10,6 +10,7 @@
 import { NoKnownTermsError } from '../../core/errors.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { mapSourceFromIndex, topicLabel, DEFAULT_MAP_FROM_INDEX_OPTIONS } from '../../core/map/fromIndex.js';
+import { mapTopicTree } from '../../core/map/topicTreeData.js';
 import type { FaithfulLayout } from '../../core/map/landmarkIsomap.js';
 import { buildMapPageData, type MapPageData } from '../../core/map/mapData.js';
 import { computeMapLayouts } from '../../core/map/mapLayouts.js';
@@ -52,6 +53,7 @@ export async function computeMap(index: LsiIndex, roots: RootMap, topics: Topics
     ...stems,
     topTerms: stems.topTerms.map((terms) => terms.map(wordFor)),
     topicLabels: (topics?.topics ?? []).map((t) => topicLabel(t, DEFAULT_MAP_FROM_INDEX_OPTIONS.labelWords, labelWord)),
+    ...(topics && topics.levels > 1 ? { topicTree: mapTopicTree(stems.paths, topics, (t) => topicLabel(t, DEFAULT_MAP_FROM_INDEX_OPTIONS.labelWords, labelWord)) } : {}),
   };
   const n = source.count;
   let quick: QuickLayout;

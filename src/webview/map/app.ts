@@ -15,6 +15,7 @@ import { SpectrumChart } from './spectrumChart.js';
 import { readTheme, watchTheme, type MapTheme } from './theme.js';
 import { buildToolbar, type Tab } from './toolbar.js';
 import { Tooltip } from './tooltip.js';
+import { firstLevelView, hasSubTopics, pathTo, subTopicView, type TopicLevelView } from './topicZoom.js';
 
 interface SavedState {
   readonly layout?: LayoutName;
@@ -35,7 +36,9 @@ export class MapApp {
   private readonly scene: MapScene;
   private readonly canvas: MapCanvas;
   private readonly spectrum: SpectrumChart;
-  private readonly legend: Legend;
+  private legend: Legend;
+  private view: TopicLevelView;
+  private readonly zoomBar = el('div', { className: 'um-zoom', attrs: { 'aria-live': 'polite' } });
   private readonly tooltip: Tooltip;
   private readonly status = el('span', { className: 'um-status-text' });
   private readonly statusPath = el('span', { className: 'um-status-path' });
@@ -56,6 +59,7 @@ export class MapApp {
     const saved = (bridge.loadState() ?? {}) as SavedState;
     this.layout = saved.layout === 'quick' || data.layouts.faithful === null ? 'quick' : 'faithful';
     this.tab = saved.tab === 'spectrum' ? 'spectrum' : 'map';
+    this.view = firstLevelView(data.files.topicIds, data.topicLabels, data.topicTree);
     this.theme = readTheme(root, data.topicLabels.length);
 
     const start = this.positions(this.layout);
@@ -91,11 +95,9 @@ export class MapApp {
       el('div', { className: 'um-hint', text: 'Scroll to zoom · drag to pan · click a dot to open' }),
     ]);
     this.tooltip = new Tooltip(mapPanel);
-    this.legend = new Legend(this.legendEntries(), (topic) => {
-      this.scene.focusTopic = topic;
-      this.canvas.requestDraw();
-    });
-    mapPanel.append(this.legend.element);
+    this.legend = this.makeLegend();
+    mapPanel.append(this.zoomBar, this.legend.element);
+    this.zoomBar.hidden = true;
     const spectrumCanvas = el('canvas', { attrs: { role: 'img', 'aria-label': 'Singular value spectrum' } });
     const caption = el('div', { className: 'um-spectrum-caption' });
     const spectrumPanel = el('section', { className: 'um-panel um-spectrum-panel', attrs: { role: 'tabpanel', 'aria-label': 'Spectrum' } }, [spectrumCanvas, caption]);
@@ -226,11 +228,11 @@ export class MapApp {
       this.canvas.requestDraw();
     }
     if (i === null) return this.tooltip.hide();
-    const t = this.data.files.topicIds[i];
+    const t = this.view.topicIds[i];
     this.tooltip.show(
       {
         path: this.data.files.paths[i],
-        topic: t >= 0 ? this.data.topicLabels[t] : 'No topic',
+        topic: t >= 0 ? this.view.labels[t] : this.view.focus === null ? 'No topic' : 'Outside this topic',
         colour: this.colourOf(t),
         tokens: this.data.files.tokenCounts[i],
         terms: this.data.files.topTerms[i],
@@ -259,7 +261,7 @@ export class MapApp {
   }
 
   private refreshTheme(): void {
-    this.theme = readTheme(this.root, this.data.topicLabels.length);
+    this.theme = readTheme(this.root, this.view.labels.length);
     this.canvas.setTheme(this.theme);
     this.spectrum.setTheme(this.theme);
     this.legend.setColours((t) => this.colourOf(t));
@@ -271,14 +273,55 @@ export class MapApp {
 
   private legendEntries() {
     const counts = new Map<number, number>();
-    for (const t of this.data.files.topicIds) counts.set(t, (counts.get(t) ?? 0) + 1);
-    return [...counts].map(([topic, count]) => ({ topic, count, label: topic >= 0 ? this.data.topicLabels[topic] : 'No topic' }));
+    for (const t of this.view.topicIds) counts.set(t, (counts.get(t) ?? 0) + 1);
+    const none = this.view.focus === null ? 'No topic' : 'Outside this topic';
+    return [...counts].map(([topic, count]) => ({ topic, count, label: topic >= 0 ? this.view.labels[topic] : none }));
+  }
+
+  private makeLegend(): Legend {
+    const tree = this.data.topicTree;
+    const opens = (topic: number) => topic >= 0 && this.view.nodes !== null && hasSubTopics(tree, this.view.nodes[topic]);
+    return new Legend(
+      this.legendEntries(),
+      (topic) => {
+        this.scene.focusTopic = topic;
+        this.canvas.requestDraw();
+      },
+      { opens, open: (topic) => this.zoomTo(this.view.nodes![topic]) },
+    );
+  }
+
+  /** Colours the map by the sub-topics of a tree node (null: the first level). */
+  private zoomTo(node: number | null): void {
+    const tree = this.data.topicTree;
+    if (!tree) return;
+    this.view = node === null ? firstLevelView(this.data.files.topicIds, this.data.topicLabels, tree) : subTopicView(tree, node);
+    const scene = this.scene as { topicIds: Int32Array; groups: readonly Int32Array[]; focusTopic: number | null };
+    scene.topicIds = this.view.topicIds;
+    scene.groups = groupByTopic(this.view.topicIds, this.view.labels.length);
+    scene.focusTopic = null;
+    const legend = this.makeLegend();
+    this.legend.element.replaceWith(legend.element);
+    this.legend = legend;
+    this.refreshTheme();
+    this.zoomBar.replaceChildren();
+    this.zoomBar.hidden = node === null;
+    if (node !== null) {
+      const back = el('button', { className: 'um-zoom-back', text: '← All topics', attrs: { type: 'button' } });
+      back.addEventListener('click', () => this.zoomTo(null));
+      const trail = pathTo(tree, node).map((n) => tree.labels[n]);
+      this.zoomBar.append(back, el('span', { className: 'um-zoom-path', text: trail.join(' › ') }));
+    }
+    this.root.dataset.zoom = node === null ? '' : String(node);
+    this.setStatus(this.summary());
+    this.canvas.requestDraw();
   }
 
   private summary(): string {
-    const topics = this.data.topicLabels.length;
+    const topics = this.view.labels.length;
     const method = this.layout === 'faithful' ? 'faithful layout (landmark Isomap)' : 'quick layout (principal axes)';
-    return `${formatCount(this.n)} files · ${topics} topics · ${method}`;
+    const level = this.view.focus === null ? `${topics} topics` : `${topics} sub-topics of one topic`;
+    return `${formatCount(this.n)} files · ${level} · ${method}`;
   }
 
   private setStatus(text: string): void {

@@ -1,7 +1,8 @@
 /// <reference lib="dom" />
 /**
  * Topic legend: one row per topic (largest first) with its colour and file count. Hovering a row
- * previews that topic (others fade), clicking pins it, clicking again releases it.
+ * previews that topic (others fade), clicking pins it, clicking again releases it. A topic with
+ * sub-topics (zoom.opens) shows an open button that colours the map by its sub-topics (topicZoom.ts).
  */
 import { el, formatCount } from './dom.js';
 
@@ -19,6 +20,7 @@ export class Legend {
   constructor(
     entries: readonly LegendEntry[],
     private readonly onFocus: (topic: number | null) => void,
+    zoom?: { opens: (topic: number) => boolean; open: (topic: number) => void },
   ) {
     const rows = [...entries].sort((a, b) => b.count - a.count || a.topic - b.topic);
     this.element.append(el('div', { className: 'um-legend-head' }, [el('span', { text: 'Topics' }), el('span', { text: 'Files' })]));
@@ -39,7 +41,15 @@ export class Legend {
         });
         this.onFocus(this.pinned);
       });
-      this.element.append(row);
+      if (zoom?.opens(e.topic)) {
+        const open = el('button', { className: 'um-legend-open', text: '›', attrs: { type: 'button', title: `Show the sub-topics of ${e.label}`, 'aria-label': `Show the sub-topics of ${e.label}`, 'data-open': String(e.topic) } });
+        open.addEventListener('click', (ev) => {
+          ev.stopPropagation();
+          zoom.open(e.topic);
+        });
+        row.addEventListener('dblclick', () => zoom.open(e.topic));
+        this.element.append(el('div', { className: 'um-legend-line' }, [row, open]));
+      } else this.element.append(row);
     }
   }
 

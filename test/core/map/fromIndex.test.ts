@@ -130,7 +130,7 @@ describe('map source from an index', () => {
     expect(Array.from(s.topicIds).filter((t) => t >= 0)).toHaveLength(counted);
     expect(report.unplaced).toEqual([LONER.id]);
     expect(s.topicIds[s.paths.indexOf(LONER.id)]).toBe(-1);
-    expect(topicLabel({ ...report.topics[0], terms: [] }, 3)).toBe(`Topic ${report.topics[0].id}`);
+    expect(topicLabel({ ...report.topics[0], terms: [] }, 3)).toBe('no distinctive words');
   });
 
   it('leaves removed files out', () => {

@@ -14,6 +14,7 @@ import { pageDataProblems } from '../../../src/core/map/mapData.js';
 import { stemWord } from '../../../src/core/text/tokenize.js';
 import { IndexService } from '../../../src/node/worker/indexService.js';
 import type { FileRef, WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
+import type { TopicWire } from '../../../src/node/worker/insightProtocol.js';
 import type { HandlerContext } from '../../../src/node/worker/server.js';
 import { REPO_ROOT } from '../../helpers/shared.js';
 
@@ -86,14 +87,25 @@ describe('look-alikes request', () => {
 });
 
 describe('topics request', () => {
-  it('puts every indexed file in exactly one topic or among the unplaced', async () => {
+  it('puts every indexed file in exactly one topic, among the loose files or among the unplaced', async () => {
     const r = await h.topics({}, ctx);
     expect(r.topics.length).toBeGreaterThan(1);
-    const listed = [...r.topics.flatMap((t) => keys(t.files)), ...keys(r.unplaced)];
-    expect(r.topics.every((t) => t.moreFiles === 0)).toBe(true);
+    const leaves = (ts: readonly TopicWire[]): TopicWire[] => ts.flatMap((t) => (t.children.length > 0 ? leaves(t.children) : [t]));
+    const listed = [...leaves(r.topics).flatMap((t) => keys(t.files)), ...keys(r.loose), ...keys(r.unplaced)];
+    expect(leaves(r.topics).every((t) => t.moreFiles === 0)).toBe(true);
     expect(new Set(listed).size).toBe(listed.length);
     expect([...listed].sort()).toEqual(service.index!.paths().sort());
-    for (const t of r.topics) expect(t.files.length).toBe(t.size);
+    for (const t of leaves(r.topics)) expect(t.files.length).toBe(t.size);
+    expect(r.looseCount).toBe(r.loose.length);
+  });
+
+  it('says which topics hold the files of a folder, and refuses a folder outside the workspace', async () => {
+    const r = await h.topics({ folder: join(folder, 'notes') }, ctx);
+    const inNotes = service.index!.paths().filter((p) => p.startsWith('notes/')).length;
+    expect(r.folder).toMatchObject({ folder: 'notes', files: inNotes });
+    const firstLevel = r.topics.reduce((s, t) => s + (r.folder!.counts[t.path] ?? 0), 0);
+    expect(firstLevel + r.folder!.outside).toBe(inNotes);
+    await expect(h.topics({ folder: '/nowhere/at/all' }, ctx)).rejects.toThrow(/not inside a folder of this workspace/);
   });
 
   it('names terms by words that occur in the files and stem back to the term', async () => {
@@ -108,7 +120,8 @@ describe('topics request', () => {
 
   it('gathers most files of each planted topic in one topic (demo answer key)', async () => {
     const r = await h.topics({}, ctx);
-    const topicOf = new Map(r.topics.flatMap((t) => t.files.map((f) => [f.key, t.id] as const)));
+    const members = (t: TopicWire): string[] => (t.children.length > 0 ? t.children.flatMap(members) : keys(t.files));
+    const topicOf = new Map(r.topics.flatMap((t) => members(t).map((k) => [k, t.id] as const)));
     let gathered = 0;
     for (const planted of expectations.topics) {
       const counts = new Map<number, number>();

@@ -1,0 +1,97 @@
+/**
+ * Speed of the topic tree (core/topics/topics.ts: first level, loose files, sub-topics, names,
+ * folders) on large real folders. Figures only, no assertions. Run from the repository root:
+ *   npm run build && npm run bench:topic-tree -- [mixed|kernel-doc|kernel|all]
+ * Folders:
+ *   mixed       every public collection in test/fixtures written out as one file per document
+ *               (CMake and Django manuals, CISI, CACM, CRAN, ADI abstracts: about 8.6k files of
+ *               real text, the size of the kernel's Documentation folder);
+ *   kernel-doc  .cache/bench/linux-source-6.1/Documentation (scripts/bench-setup.sh unpacks it);
+ *   kernel      .cache/bench/linux-source-6.1, the whole source tree (about 78k files).
+ * The index is built once by the command line (`undertone index`, all cores, saved under
+ * .cache/bench/index) and loaded; then findTopics runs RUNS times in this process, as the editor's
+ * worker thread runs it, and the wall time of each run, their median and spread, the tree's shape
+ * and the process's peak RSS are printed, with the CPU time of each run (on a shared machine the
+ * wall time is mostly waiting for a core).
+ */
+import { execFileSync } from 'node:child_process';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { gunzipSync } from 'node:zlib';
+import { indexFileFrom } from '../src/cli/context.js';
+import { findTopics, walkTopics } from '../src/core/topics/topics.js';
+import { indexFolder } from '../src/node/folderIndexer.js';
+
+const RUNS = Number(process.env.RUNS ?? 3);
+const CACHE = resolve('.cache/bench');
+const which = process.argv[2] ?? 'all';
+
+function mixedFolder(): string {
+  const root = join(CACHE, 'mixed');
+  if (existsSync(join(root, '.written'))) return root;
+  const put = (path: string, text: string) => {
+    const p = join(root, path);
+    mkdirSync(dirname(p), { recursive: true });
+    writeFileSync(p, text);
+  };
+  for (const name of ['cmake', 'django']) {
+    for (const line of gunzipSync(readFileSync(`test/fixtures/topic-trees/${name}.jsonl.gz`)).toString('utf8').split('\n')) {
+      if (!line.trim()) continue;
+      const d = JSON.parse(line) as { path: string; text: string };
+      put(join(name, d.path), d.text);
+    }
+  }
+  for (const name of ['cisi', 'cacm', 'cran', 'adi']) {
+    for (const line of readFileSync(`test/fixtures/corpora/${name}/docs.jsonl`, 'utf8').split('\n')) {
+      if (!line.trim()) continue;
+      const d = JSON.parse(line) as { id: string; text: string };
+      put(join(name, `${d.id}.txt`), d.text);
+    }
+  }
+  writeFileSync(join(root, '.written'), '');
+  return root;
+}
+
+const folders: Record<string, () => string | null> = {
+  mixed: mixedFolder,
+  'kernel-doc': () => (existsSync(join(CACHE, 'linux-source-6.1/Documentation')) ? join(CACHE, 'linux-source-6.1/Documentation') : null),
+  kernel: () => (existsSync(join(CACHE, 'linux-source-6.1')) ? join(CACHE, 'linux-source-6.1') : null),
+};
+
+async function bench(name: string, folder: string): Promise<void> {
+  const flags = { 'cache-dir': join(CACHE, 'index'), quiet: true };
+  const t0 = performance.now();
+  execFileSync(process.execPath, ['dist/cli.js', 'index', folder, '--cache-dir', flags['cache-dir'], '--quiet'], { stdio: 'inherit' });
+  const built = performance.now() - t0;
+  const { index } = await indexFolder(folder, { indexFile: indexFileFrom(folder, flags), parallel: false });
+  const times: number[] = [];
+  const cpu: number[] = [];
+  let shape = '';
+  for (let r = 0; r < RUNS; r++) {
+    const s = performance.now();
+    const c0 = process.cpuUsage();
+    const report = findTopics(index, { seed: index.settings.seed });
+    times.push(performance.now() - s);
+    const c1 = process.cpuUsage(c0);
+    cpu.push((c1.user + c1.system) / 1000);
+    const all = [...walkTopics(report.topics)];
+    const perLevel = Array.from({ length: report.levels }, (_, l) => all.filter((t) => t.level === l + 1).length);
+    shape = `${report.topics.length} topics, ${report.levels} levels (${perLevel.join(' / ')} topics per level), ${report.loose.length} loose, ${report.unplaced.length} unplaced`;
+  }
+  times.sort((a, b) => a - b);
+  const rss = process.resourceUsage().maxRSS / 1024;
+  console.log(
+    `${name}: ${index.size} files, k=${index.k}; index (CLI, build or reuse) ${(built / 1000).toFixed(1)} s\n` +
+      `  topic tree: median ${(times[Math.floor(RUNS / 2)] / 1000).toFixed(2)} s, runs ${times.map((t) => (t / 1000).toFixed(2)).join(', ')} s (CPU ${cpu.map((t) => (t / 1000).toFixed(2)).join(', ')} s, one thread); ${shape}; peak RSS ${rss.toFixed(0)} MiB`,
+  );
+}
+
+for (const [name, locate] of Object.entries(folders)) {
+  if (which !== 'all' && which !== name) continue;
+  const folder = locate();
+  if (!folder) {
+    console.log(`${name}: skipped (run scripts/bench-setup.sh first)`);
+    continue;
+  }
+  await bench(name, folder);
+}
