@@ -18,6 +18,12 @@ export type { BuildKind, ControllerHost, IndexChange } from './controllerHost.js
 
 type Listener<T> = (value: T) => void;
 
+/**
+ * Title of the build's progress notification. The editor already names the extension under it
+ * ("Source: Undertone"), so the title does not repeat the name.
+ */
+export const PROGRESS_TITLE = 'Indexing the workspace';
+
 /** Batches larger than this many changes (and larger than the policy's share) are rescanned instead (common practice). */
 const RESCAN_BATCH = 50;
 
@@ -120,7 +126,7 @@ export class IndexController {
       try {
         if (background) await run();
         else {
-          await this._host.withProgress('Undertone: indexing the workspace', (report, signal) => {
+          await this._host.withProgress(PROGRESS_TITLE, (report, signal) => {
             signal.addEventListener('abort', () => abort.abort(), { once: true });
             return run(report);
           });
@@ -271,7 +277,7 @@ export class IndexController {
   private onWorkerExit(worker: StartedWorker, code: number): void {
     if (this._worker !== worker) return;
     this._worker = undefined;
-    const message = `The index worker stopped unexpectedly (exit code ${code}). Run "Rebuild Index" to start it again.`;
+    const message = `The index worker stopped unexpectedly (exit code ${code}). Run "Build Index" to start it again.`;
     this._host.log(message);
     this.setState({ kind: 'failed', message, previous: null });
     this.emitChange({ folded: [], removed: [], all: true });
