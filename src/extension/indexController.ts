@@ -7,7 +7,7 @@
 import { decideUpdate, DEFAULT_UPDATE_POLICY, describeReasons, rebuildDelay, type UpdatePolicy } from '../core/index/updatePolicy.js';
 import { isCancelled, type WorkerClient } from '../node/worker/client.js';
 import type { InsightRequestType } from '../node/worker/insightProtocol.js';
-import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch } from '../node/worker/protocol.js';
+import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch, type TranslationRef } from '../node/worker/protocol.js';
 import { uniqueRootNames } from '../node/worker/rootMap.js';
 import { noIndexReason, summaryOf, unavailableReason, type IndexState } from './indexState.js';
 import { readSettings, toWorkerConfig, type ExtensionSettings } from './settings.js';
@@ -179,6 +179,12 @@ export class IndexController {
     const client = await this.connect();
     if (!client) return [];
     return client.request('search', { query, top });
+  }
+
+  /** The same page in other languages as the file at fsPath ([] without an index). */
+  async translations(fsPath: string): Promise<readonly TranslationRef[]> {
+    if (!this._worker || summaryOf(this._state) === null) return [];
+    return this._worker.client.request('translations', { fsPath });
   }
 
   async nearby(fsPath: string, top: number): Promise<readonly ScoredFile[] | null> {
