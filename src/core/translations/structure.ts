@@ -61,17 +61,33 @@ export function structureSimilarity(a: StructureSignature, b: StructureSignature
   return sa + sb === 0 ? 0 : (2 * shared) / (sa + sb);
 }
 
-/** Share of the smaller signature's tokens found in the larger (multiset overlap coefficient). */
-export function structureContainment(a: StructureSignature, b: StructureSignature): number {
+/** Token kinds every page of a format shares (tag names, underlines, list markers): generic, not page-specific. */
+const GENERIC = /^(?:tag|underline|heading|list|directive):/;
+/** Page-specific tokens (link targets, ids, code, numbers) both sides need before they alone are compared. @default 5 */
+export const MIN_SPECIFIC = 5;
+
+function overlap(a: StructureSignature, b: StructureSignature, keep: (t: string) => boolean): { shared: number; sa: number; sb: number } {
   let sa = 0;
   let sb = 0;
   let shared = 0;
   for (const [t, n] of a) {
+    if (!keep(t)) continue;
     sa += n;
     const m = b.get(t);
     if (m !== undefined) shared += Math.min(n, m);
   }
-  for (const n of b.values()) sb += n;
-  const small = Math.min(sa, sb);
-  return small === 0 ? 0 : shared / small;
+  for (const [t, n] of b) if (keep(t)) sb += n;
+  return { shared, sa, sb };
+}
+
+/**
+ * Share of the smaller signature's tokens found in the larger (multiset overlap coefficient).
+ * When both have at least MIN_SPECIFIC page-specific tokens, only those are compared: pages of
+ * one format share their generic markup whatever they say.
+ */
+export function structureContainment(a: StructureSignature, b: StructureSignature): number {
+  const specific = overlap(a, b, (t) => !GENERIC.test(t));
+  const use = specific.sa >= MIN_SPECIFIC && specific.sb >= MIN_SPECIFIC ? specific : overlap(a, b, () => true);
+  const small = Math.min(use.sa, use.sb);
+  return small === 0 ? 0 : use.shared / small;
 }
