@@ -16,7 +16,7 @@ import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { createRandom } from '../src/core/random.js';
 import { WorkerClient } from '../src/node/worker/client.js';
-import type { WorkerConfig } from '../src/node/worker/protocol.js';
+import type { WorkerConfig } from '../src/node/worker/workerProtocol.js';
 
 const n = Number(process.argv[2] ?? 10_000);
 const changed = Number(process.argv[3] ?? 50);

@@ -3,7 +3,7 @@
  * no assertions). Run from the repository root:
  *   npx esbuild bench/topics.bench.ts --bundle --platform=node --format=esm --outfile=/tmp/topics-bench.mjs
  *   node /tmp/topics-bench.mjs [demo|cisi|cacm|linux|all]      (default: all that are present)
- * Folders: the demo workspace (demo/workspace); CISI and CACM abstracts (../shared/corpora), each
+ * Folders: the demo workspace (demo/workspace); CISI and CACM abstracts (test/fixtures/corpora), each
  * written out as one file per abstract in a temporary folder and read back; the kernel's
  * Documentation tree when scripts/bench-setup.sh has unpacked it under .cache/bench.
  * The index build is timed too, for scale; look-alike and topic times exclude it.
@@ -17,7 +17,7 @@ import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, wr
 import { tmpdir } from 'node:os';
 import { join, relative, sep } from 'node:path';
 import { QueryExplainer } from '../src/core/explain/explain.js';
-import { IndexBuilder } from '../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../src/core/index/model/indexBuilder.js';
 import { findLookalikes } from '../src/core/lookalike/index.js';
 import { curDecomposition } from '../src/core/topics/cur.js';
 import { leadingFactors, weightedMatrix } from '../src/core/topics/indexMatrix.js';
@@ -42,7 +42,7 @@ function readFolder(root: string, keep: (p: string) => boolean = () => true): { 
 
 /** Abstracts written as files in a temporary folder, then read back like any folder. */
 function corpusFolder(name: string): { path: string; text: string }[] | null {
-  const src = join('..', 'shared', 'corpora', name, 'docs.jsonl');
+  const src = join('test', 'fixtures', 'corpora', name, 'docs.jsonl');
   if (!existsSync(src)) return null;
   const dir = mkdtempSync(join(tmpdir(), `undertone-bench-${name}-`));
   try {
@@ -109,7 +109,7 @@ function bench(name: string, files: { path: string; text: string }[], queries: s
 }
 
 const queriesOf = (name: string): string[] => {
-  const src = join('..', 'shared', 'corpora', name, 'queries.jsonl');
+  const src = join('test', 'fixtures', 'corpora', name, 'queries.jsonl');
   if (!existsSync(src)) return [];
   return readFileSync(src, 'utf8').split('\n').filter((l) => l.trim()).slice(0, 20).map((l) => (JSON.parse(l) as { text: string }).text);
 };
@@ -120,7 +120,7 @@ for (const name of ['cisi', 'cacm']) {
   if (which !== 'all' && which !== name) continue;
   const files = corpusFolder(name);
   if (files) bench(`${name.toUpperCase()} abstracts as files`, files, queriesOf(name));
-  else console.log(`\n${name}: skipped (../shared/corpora/${name} missing)`);
+  else console.log(`\n${name}: skipped (test/fixtures/corpora/${name} missing)`);
 }
 if (which === 'all' || which === 'linux') {
   if (existsSync(LINUX_DOCS)) bench('linux Documentation', readFolder(LINUX_DOCS, (p) => /\.(rst|txt)$/.test(p)), demoQueries);

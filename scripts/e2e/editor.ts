@@ -1,6 +1,6 @@
 // Starts a real editor (code-server, installed by scripts/e2e/setup.sh) and a
 // real browser (Debian's Chromium driven by playwright-core) for end-to-end
-// tests. See ../shared/notes/editor-host.md for the verified recipe.
+// tests.
 // startEditor() returns a Workbench (UI helpers) plus stop(), which closes the
 // browser and kills code-server's process group; a failed start cleans up too.
 import { spawn, type ChildProcess } from 'node:child_process';

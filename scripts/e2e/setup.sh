@@ -7,7 +7,7 @@
 #   - code-server (the open-source editor's server build) from npm, built
 #     with Node 24 first on PATH and npm_config_nodedir pointing at it.
 # Writes .cache/e2e/env.json, which scripts/e2e/editor.ts reads.
-# See ../shared/notes/editor-host.md for why each step is needed.
+# Works the same run directly or through `npm run test:e2e` (see step 3).
 set -euo pipefail
 
 NODE_VERSION="24.11.1"
@@ -94,10 +94,29 @@ else
   mkdir -p "$CS_DIR"
   # The machine's npm config may set nodedir=/usr (Node 20 headers); native
   # modules built against those fail to load under Node 24.
+  # Called through `npm run`, this script inherits what that npm exports for
+  # itself: npm_config_* (nodedir=/usr, node_gyp, user_agent "node/v20"...),
+  # npm_node_execpath, NODE and PATH entries ahead of ours. code-server's
+  # install scripts then see the machine's Node 20 and stop. So the install
+  # runs in an environment without any of them, Node 24 first on PATH; only
+  # the settings that say where to find things (registry, CA file, config
+  # files, cache) are passed on.
   # JOBS=max lets node-gyp run make on every core.
-  PATH="$NODE_DIR/bin:$PATH" npm_config_nodedir="$NODE_DIR" JOBS=max \
-    npm install --prefix "$CS_DIR" --no-audit --no-fund --loglevel=error \
-    "code-server@$CODE_SERVER_VERSION"
+  install_env=(env)
+  for v in $(compgen -e); do
+    case "$v" in
+      npm_config_registry|npm_config_cafile|npm_config_userconfig|npm_config_globalconfig|npm_config_cache) ;;
+      npm_*|NPM_*|NODE|INIT_CWD) install_env+=(-u "$v") ;;
+    esac
+  done
+  clean_path="$NODE_DIR/bin"
+  IFS=: read -r -a path_parts <<<"$PATH"
+  for d in "${path_parts[@]}"; do
+    case "$d" in */node_modules/.bin|*/node-gyp-bin|"") ;; *) clean_path+=":$d" ;; esac
+  done
+  "${install_env[@]}" PATH="$clean_path" npm_config_nodedir="$NODE_DIR" JOBS=max \
+    "$NODE_DIR/bin/node" "$(command -v npm)" install --prefix "$CS_DIR" --no-audit --no-fund \
+    --loglevel=error "code-server@$CODE_SERVER_VERSION"
   # An explicit empty config and XDG folders in the cache keep code-server
   # from writing ~/.config/code-server and ~/.local/share/code-server.
   : >"$CACHE/code-server-config.yaml"

@@ -1,7 +1,7 @@
 /** Shared option parsing for every command: index settings, scan options and the cache folder. */
 import { resolve } from 'node:path';
 import { InvalidInputError } from '../core/errors.js';
-import type { IndexSettings } from '../core/index/settings.js';
+import type { IndexSettings } from '../core/index/model/settings.js';
 import { WEIGHTING_SCHEMES, type WeightingScheme } from '../core/weighting/termWeighting.js';
 import { defaultCacheBase, indexFileFor } from '../node/cacheDir.js';
 import { indexFolder, type FolderIndexReport } from '../node/folderIndexer.js';

@@ -8,7 +8,7 @@ import type { SearchResultsProvider } from './searchView.js';
 import {
   EMPTY_QUESTION_MESSAGE, NO_MATCH_MESSAGE, noKnownWordsMessage, SEARCH_PLACEHOLDER, searchEntries, searchPickItems, type ResultEntry,
 } from './viewModels.js';
-import type { SearchMatch } from '../node/worker/protocol.js';
+import type { SearchMatch } from '../node/worker/workerProtocol.js';
 
 export interface CommandDeps {
   readonly controller: IndexController;

@@ -4,7 +4,7 @@
  * (batched briefly). The worker decides which files belong in the index.
  */
 import * as vscode from 'vscode';
-import type { FileChange, FileChangeKind } from '../node/worker/protocol.js';
+import type { FileChange, FileChangeKind } from '../node/worker/workerProtocol.js';
 import type { IndexChange, IndexController } from './indexController.js';
 
 /** Watcher events arriving within this many milliseconds go to the worker together (common practice). */

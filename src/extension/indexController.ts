@@ -4,10 +4,10 @@
  * background rebuild is due. It holds only light state (the summary, the folder list) and talks to
  * the editor through the small ControllerHost interface, so it runs under unit tests too.
  */
-import { decideUpdate, DEFAULT_UPDATE_POLICY, describeReasons, rebuildDelay, type UpdatePolicy } from '../core/index/updatePolicy.js';
+import { decideUpdate, DEFAULT_UPDATE_POLICY, describeReasons, rebuildDelay, type UpdatePolicy } from '../core/index/update/updatePolicy.js';
 import { isCancelled, type WorkerClient } from '../node/worker/client.js';
 import type { InsightRequestType } from '../node/worker/insightProtocol.js';
-import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch, type TranslationRef } from '../node/worker/protocol.js';
+import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch, type TranslationRef } from '../node/worker/workerProtocol.js';
 import { uniqueRootNames } from '../node/worker/rootMap.js';
 import { noIndexReason, summaryOf, unavailableReason, type IndexState } from './indexState.js';
 import { readSettings, toWorkerConfig, type ExtensionSettings } from './settings.js';

@@ -2,7 +2,7 @@
  * The index's state as the editor shows it (status bar, welcome text, context keys), as plain
  * data with pure functions, so it can be tested without the editor.
  */
-import type { IndexSummary, LoadOutcome } from '../node/worker/protocol.js';
+import type { IndexSummary, LoadOutcome } from '../node/worker/workerProtocol.js';
 
 export type IndexState =
   | { readonly kind: 'starting' }

@@ -6,7 +6,7 @@
  * tell them apart ("shared/dates.ts ↔ vendor/dates.ts").
  */
 import type { LookalikeGroupWire, LookalikeKind, LookalikePairWire, LookalikesResult } from '../node/worker/insightProtocol.js';
-import type { FileRef } from '../node/worker/protocol.js';
+import type { FileRef } from '../node/worker/workerProtocol.js';
 import type { SettingGetter } from './settings.js';
 
 export interface LookalikeSettings {

@@ -5,7 +5,7 @@
  * the tree stays empty (so the welcome text shows) while there is no index or the file is not in it.
  */
 import * as vscode from 'vscode';
-import type { IndexSummary } from '../node/worker/protocol.js';
+import type { IndexSummary } from '../node/worker/workerProtocol.js';
 import type { IndexController } from './indexController.js';
 import { summaryOf } from './indexState.js';
 import { isPassage, nearbyEntries, subjectTranslationsEntry, type ResultNode } from './viewModels.js';

@@ -5,9 +5,9 @@
  * `**\/*.md` at any depth, `{a,b}` alternatives) and are translated to the gitignore syntax the
  * scanner speaks.
  */
-import type { IndexSettings } from '../core/index/settings.js';
+import type { IndexSettings } from '../core/index/model/settings.js';
 import { WEIGHTING_SCHEMES, type WeightingScheme } from '../core/weighting/termWeighting.js';
-import type { WorkerConfig, WorkspaceRoot } from '../node/worker/protocol.js';
+import type { WorkerConfig, WorkspaceRoot } from '../node/worker/workerProtocol.js';
 
 export interface ExtensionSettings {
   readonly include: readonly string[];

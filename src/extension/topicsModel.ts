@@ -5,7 +5,7 @@
  * picked are marked in the tooltips (they are the actual rows and columns that span the concepts).
  */
 import type { TopicsResult, TopicWire } from '../node/worker/insightProtocol.js';
-import type { FileRef } from '../node/worker/protocol.js';
+import type { FileRef } from '../node/worker/workerProtocol.js';
 import { locationOf } from './viewModels.js';
 
 export interface TopicFileNode {

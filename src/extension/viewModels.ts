@@ -4,7 +4,7 @@
  * workspace folder; with several folders the folder's name is shown too.
  */
 import type { Why } from '../node/worker/insightProtocol.js';
-import type { ScoredFile, SearchMatch, TranslationRef } from '../node/worker/protocol.js';
+import type { ScoredFile, SearchMatch, TranslationRef } from '../node/worker/workerProtocol.js';
 
 /** The matching passage of a search result, shown as a row under it with the query's words marked. */
 export interface PassageEntry {

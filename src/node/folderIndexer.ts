@@ -6,10 +6,10 @@
  */
 import { performance } from 'node:perf_hooks';
 import { CancelledError, EmptyCorpusError } from '../core/errors.js';
-import { IndexBuilder } from '../core/index/indexBuilder.js';
+import { IndexBuilder } from '../core/index/model/indexBuilder.js';
 import type { DocMeta, LsiIndex } from '../core/index/lsiIndex.js';
-import { modelSettingsKey, resolveSettings, type IndexSettings } from '../core/index/settings.js';
-import { countTerms, Vocabulary } from '../core/index/termCounts.js';
+import { modelSettingsKey, resolveSettings, type IndexSettings } from '../core/index/model/settings.js';
+import { countTerms, Vocabulary } from '../core/counting/termCounts.js';
 import { tokenize } from '../core/text/tokenize.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
 import { countFilesSorted } from './parallel/sortedCount.js';

@@ -8,7 +8,7 @@ import { mkdir, open, rename, rm } from 'node:fs/promises';
 import { dirname } from 'node:path';
 import { CorruptIndexError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
-import { decodeIndex, encodeIndex } from '../core/index/serialize.js';
+import { decodeIndex, encodeIndex } from '../core/index/persistence/serialize.js';
 
 /** Writes bytes to path so that readers see either the old file or the new one, never a mix. */
 export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<void> {

@@ -18,35 +18,11 @@ import { resolve } from 'node:path';
 import { UndertoneError } from '../core/errors.js';
 import { checkByteCap } from './scanRead.js';
 import { walkFolder } from './scanWalk.js';
+import type { ScanOptions, ScanResult } from './scanTypes.js';
 
 export { readIndexableText, type IndexableText } from './scanRead.js';
 export { DEFAULT_EXCLUDE_NAMES, DEFAULT_EXCLUDE_PATTERNS, type ExcludeNames } from './scanRules.js';
-
-/** Options for `scanFolder`. Patterns use gitignore syntax (gitignore(5)). */
-export interface ScanOptions {
-  /**
-   * Only files matching one of these (root-relative) are kept; empty keeps every file. Matched
-   * without regard to case. `*.md` matches at any depth, `docs/` keeps everything under docs.
-   * @default []
-   */
-  readonly include: readonly string[];
-  /**
-   * Extra paths to skip, matched without regard to case after the defaults, so a negation such
-   * as `!build/` keeps folders the defaults would skip. @default []
-   */
-  readonly exclude: readonly string[];
-  /**
-   * Skip DEFAULT_EXCLUDE_PATTERNS: VCS folders, dependencies, build output, lock files, minified
-   * bundles and source maps, binary formats. @default true
-   */
-  readonly useDefaultExcludes: boolean;
-  /** Files larger than this many bytes are skipped as `too-large`. @default 1048576 (1 MiB) */
-  readonly maxFileBytes: number;
-  /** Honour .gitignore files in the folder and its subfolders, and .git/info/exclude. @default true */
-  readonly honourGitignore: boolean;
-  /** Follow symbolic links to files and folders (each folder is still visited once). @default true */
-  readonly followSymlinks: boolean;
-}
+export type { ScannedFile, ScanOptions, ScanResult, SkippedPath, SkipReason } from './scanTypes.js';
 
 /** Defaults (the 1 MiB cap is common practice: larger text files are mostly generated or data). */
 export const DEFAULT_SCAN_OPTIONS: ScanOptions = Object.freeze({
@@ -57,41 +33,6 @@ export const DEFAULT_SCAN_OPTIONS: ScanOptions = Object.freeze({
   honourGitignore: true,
   followSymlinks: true,
 });
-
-/** One file kept by the scan. */
-export interface ScannedFile {
-  /** Relative to the scanned root, '/'-separated. */
-  readonly path: string;
-  readonly absPath: string;
-  /** Size in bytes (of the link's target for a followed link). */
-  readonly size: number;
-  readonly mtimeMs: number;
-}
-
-/** Why a path worth mentioning was left out. Excluded and ignored paths are not listed. */
-export type SkipReason =
-  | 'too-large'
-  | 'unreadable'
-  | 'symlink-loop'
-  | 'symlink-duplicate'
-  | 'broken-symlink';
-
-export interface SkippedPath {
-  /** Relative to the scanned root, '/'-separated ('.' for the root itself). */
-  readonly path: string;
-  readonly reason: SkipReason;
-  /** A sentence for people, e.g. the size and the cap, or the error code. */
-  readonly detail: string;
-}
-
-export interface ScanResult {
-  /** The root as an absolute path. */
-  readonly root: string;
-  /** Sorted by `path` (UTF-16 code-unit order), so the same tree always gives the same list. */
-  readonly files: readonly ScannedFile[];
-  /** Sorted by `path`. */
-  readonly skipped: readonly SkippedPath[];
-}
 
 /** The folder to scan does not exist or is not a folder. */
 export class FolderNotFoundError extends UndertoneError {

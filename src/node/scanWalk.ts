@@ -19,7 +19,7 @@ import { lstatSync, statSync } from 'node:fs';
 import { readdir, readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { CancelledError } from '../core/errors.js';
-import type { ScannedFile, ScanOptions, SkippedPath, SkipReason } from './scan.js';
+import type { ScannedFile, ScanOptions, SkippedPath, SkipReason } from './scanTypes.js';
 import { describeFsError } from './scanRead.js';
 import {
   createExcludeTest, createIgnoreLayer, createPatternMatcher, enterFolder, isGitIgnored,

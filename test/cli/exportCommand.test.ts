@@ -1,6 +1,6 @@
 /**
  * `undertone export` and `undertone import-factors` end to end on the ADI collection
- * (../shared/corpora/adi, 82 abstracts written out as files). Reference library: scipy
+ * (test/fixtures/corpora/adi, 82 abstracts written out as files). Reference library: scipy
  * (Debian's python3-scipy) reads the export with scipy.io.mmread and decomposes it with ARPACK
  * (scipy.sparse.linalg.svds); its factors, imported back, must reproduce our search results.
  */
@@ -11,14 +11,12 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseMatrixMarket } from '../../src/core/matrix/matrixMarket.js';
 import { runCli } from '../helpers/cliRunner.js';
-import { loadCollection, missingMessage } from '../helpers/shared.js';
+import { loadCollection, referencePython } from '../helpers/shared.js';
 
-const PYTHON = '/usr/bin/python3';
-const scipyMissing = spawnSync(PYTHON, ['-c', 'import scipy.io, scipy.sparse.linalg'], { encoding: 'utf8' }).status !== 0;
 const adi = loadCollection('adi');
 
 
-describe.skipIf(!adi)(`undertone export / import-factors ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('undertone export / import-factors', () => {
   let dir: string, folder: string, cache: string, out: string;
   const run = (...args: string[]) => runCli(args, ['--cache-dir', cache]);
   const rankings = async (): Promise<Map<string, string[]>> => {
@@ -36,8 +34,8 @@ describe.skipIf(!adi)(`undertone export / import-factors ${adi ? '' : missingMes
     cache = join(dir, 'cache');
     out = join(dir, 'export');
     mkdirSync(folder, { recursive: true });
-    for (const d of adi!.docs) writeFileSync(join(folder, `${d.id}.txt`), d.text);
-    writeFileSync(join(dir, 'q.jsonl'), adi!.queries.map((q) => JSON.stringify({ id: q.id, text: q.text })).join('\n'));
+    for (const d of adi.docs) writeFileSync(join(folder, `${d.id}.txt`), d.text);
+    writeFileSync(join(dir, 'q.jsonl'), adi.queries.map((q) => JSON.stringify({ id: q.id, text: q.text })).join('\n'));
   });
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -48,7 +46,7 @@ describe.skipIf(!adi)(`undertone export / import-factors ${adi ? '' : missingMes
     const terms = readFileSync(join(out, 'terms.txt'), 'utf8').trimEnd().split('\n');
     const files = readFileSync(join(out, 'files.txt'), 'utf8').trimEnd().split('\n');
     expect([m.rows, m.cols]).toEqual([terms.length, files.length]);
-    expect(files.length).toBe(adi!.docs.length);
+    expect(files.length).toBe(adi.docs.length);
     expect(new Set(terms).size).toBe(terms.length);
     // Each file's column is unit length (documents are L2-normalised after weighting).
     if (m.format !== 'coordinate') throw new Error('expected coordinate format');
@@ -59,7 +57,8 @@ describe.skipIf(!adi)(`undertone export / import-factors ${adi ? '' : missingMes
     expect((await run('export', folder)).code).toBe(1);
   });
 
-  it.skipIf(scipyMissing)(`round-trips through scipy, whose ARPACK factors reproduce our search results ${scipyMissing ? '(skipped: python3-scipy is not installed; scripts/bench-setup.sh installs it)' : ''}`, async () => {
+  it('round-trips through scipy, whose ARPACK factors reproduce our search results', async () => {
+    const python = referencePython();
     const before = await rankings();
     const k = Number(/k=(\d+)/.exec((await run('index', folder)).err)![1]);
     const script = `
@@ -75,7 +74,7 @@ exact = np.sort(s)[::-1]
 rel = np.abs(exact - ours[:k]) / exact
 print(json.dumps({'shape': list(a.shape), 'nnz': int(a.nnz), 'sumsq': float(a.multiply(a).sum()), 'maxrel': float(rel.max()), 'maxrelHalf': float(rel[:k // 2].max())}))
 `;
-    const py = spawnSync(PYTHON, ['-c', script, out, String(k)], { encoding: 'utf8' });
+    const py = spawnSync(python, ['-c', script, out, String(k)], { encoding: 'utf8' });
     expect(py.status, py.stderr).toBe(0);
     const info = JSON.parse(py.stdout) as { shape: number[]; nnz: number; sumsq: number; maxrel: number; maxrelHalf: number };
     const ours = parseMatrixMarket(readFileSync(join(out, 'matrix.mtx'), 'utf8'));

@@ -1,14 +1,14 @@
 /**
  * `undertone lookalikes` end to end through main(). References: the demo workspace's answer key
  * (demo/expectations.json: its exact copies); a brute-force exact Jaccard of 5-word shingles
- * written here for a planted near-copy made from real text (CRAN abstracts, ../shared/corpora).
+ * written here for a planted near-copy made from real text (CRAN abstracts, test/fixtures/corpora).
  */
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/cliRunner.js';
-import { loadCollection, missingMessage, REPO_ROOT } from '../helpers/shared.js';
+import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
 
 let dir: string;
@@ -28,9 +28,8 @@ type Report = {
 
 const demoRoot = join(REPO_ROOT, 'demo', 'workspace');
 const demoKey = join(REPO_ROOT, 'demo', 'expectations.json');
-const hasDemo = existsSync(demoRoot) && existsSync(demoKey);
 
-describe.skipIf(!hasDemo)(`lookalikes on the demo ${hasDemo ? '' : '(skipped: demo/workspace missing)'}`, () => {
+describe('lookalikes on the demo', () => {
   it('--json reports the planted exact copies', async () => {
     const r = await run('lookalikes', demoRoot, '--json');
     expect(r.code).toBe(0);
@@ -60,14 +59,14 @@ function jaccard5(a: string, b: string): number {
 }
 
 const cran = loadCollection('cran');
-describe.skipIf(!cran)(`lookalikes on a folder of real abstracts ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('lookalikes on a folder of real abstracts', () => {
   let root: string;
   let original: string;
   let edited: string;
   beforeAll(() => {
     root = join(dir, 'ws');
     mkdirSync(root, { recursive: true });
-    const docs = cran!.docs.filter((d) => d.text.split(/\s+/).length > 150).slice(0, 30);
+    const docs = cran.docs.filter((d) => d.text.split(/\s+/).length > 150).slice(0, 30);
     docs.forEach((d, i) => writeFileSync(join(root, `abstract-${i}.md`), d.text));
     original = docs[0].text;
     // A near-copy: one word changed near the end.
@@ -110,7 +109,7 @@ describe.skipIf(!cran)(`lookalikes on a folder of real abstracts ${cran ? '' : m
   it('a folder without look-alikes says so', async () => {
     const plain = join(dir, 'plain');
     mkdirSync(plain, { recursive: true });
-    cran!.docs.slice(40, 46).forEach((d, i) => writeFileSync(join(plain, `n${i}.md`), d.text));
+    cran.docs.slice(40, 46).forEach((d, i) => writeFileSync(join(plain, `n${i}.md`), d.text));
     const r = await run('lookalikes', plain);
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^No look-alikes among 6 files\./);

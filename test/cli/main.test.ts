@@ -1,17 +1,17 @@
 /**
  * The command line end to end, on temporary folders built from real text: abstracts of the
- * CRAN collection (../shared/corpora/cran) written out as files, plus odd files.
+ * CRAN collection (test/fixtures/corpora/cran) written out as files, plus odd files.
  */
 import { mkdtempSync, readdirSync, rmSync, writeFileSync, mkdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/cliRunner.js';
-import { loadCollection, missingMessage } from '../helpers/shared.js';
+import { loadCollection } from '../helpers/shared.js';
 
 const cran = loadCollection('cran');
 
-describe.skipIf(!cran)(`undertone command line ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('undertone command line', () => {
   let dir: string;
   let folder: string;
   let cache: string;
@@ -22,7 +22,7 @@ describe.skipIf(!cran)(`undertone command line ${cran ? '' : missingMessage('cor
     folder = join(dir, 'ws');
     cache = join(dir, 'cache');
     mkdirSync(join(folder, 'notes'), { recursive: true });
-    for (const d of cran!.docs.slice(0, 150)) writeFileSync(join(folder, 'notes', `${d.id}.md`), d.text);
+    for (const d of cran.docs.slice(0, 150)) writeFileSync(join(folder, 'notes', `${d.id}.md`), d.text);
     writeFileSync(join(folder, 'blob.bin'), Buffer.from([1, 2, 0, 3, 4]));
     writeFileSync(join(folder, 'empty.txt'), '');
     mkdirSync(join(folder, 'node_modules', 'x'), { recursive: true });
@@ -37,13 +37,13 @@ describe.skipIf(!cran)(`undertone command line ${cran ? '' : missingMessage('cor
     expect(first.err).toMatch(/k=\d+/);
     const second = await run('index', folder);
     expect(second.err).toMatch(/index up to date: 151 files/);
-    writeFileSync(join(folder, 'notes', '7.md'), `${cran!.docs[6].text} shock waves in hypersonic flow`);
+    writeFileSync(join(folder, 'notes', '7.md'), `${cran.docs[6].text} shock waves in hypersonic flow`);
     const third = await run('index', folder);
     expect(third.err).toMatch(/0 added, 1 changed, 0 removed, 150 reused/);
   });
 
   it('ranks files for plain text as a table and as JSON', async () => {
-    const target = cran!.docs[20];
+    const target = cran.docs[20];
     const table = await run('ask', folder, target.text.slice(0, 120), '--top', '3');
     expect(table.code).toBe(0);
     const lines = table.out.split('\n');

@@ -2,7 +2,7 @@
  * `undertone map <folder> --out <file.html>` end to end through main(). References: the demo
  * workspace's answer key (demo/expectations.json: planted topics and queries whose best file uses
  * other words), the file count `undertone index --json` reports for the same folder, and real text
- * (CRAN abstracts, ../shared/corpora/cran): a known-item search, each abstract's own opening words
+ * (CRAN abstracts, test/fixtures/corpora/cran): a known-item search, each abstract's own opening words
  * finding it on the page's search, with the number of abstracts written as the expected count.
  */
 import { execFileSync } from 'node:child_process';
@@ -16,7 +16,7 @@ import { pageDataProblems, type MapPageData } from '../../src/core/map/mapData.j
 import { MAP_DATA_ELEMENT_ID } from '../../src/core/map/standaloneHtml.js';
 import { tokenize } from '../../src/core/text/tokenize.js';
 import { runCli } from '../helpers/cliRunner.js';
-import { loadCollection, missingMessage, REPO_ROOT } from '../helpers/shared.js';
+import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
 
 let dir: string;
@@ -55,7 +55,6 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const demoRoot = join(REPO_ROOT, 'demo', 'workspace');
 const demoKey = join(REPO_ROOT, 'demo', 'expectations.json');
-const hasDemo = existsSync(demoRoot) && existsSync(demoKey);
 
 describe('map command arguments', () => {
   it('asks for --out with an example when it is missing', async () => {
@@ -86,10 +85,8 @@ describe('map command arguments', () => {
   });
 });
 
-describe.skipIf(!hasDemo)(`map of the demo ${hasDemo ? '' : '(skipped: demo/workspace missing)'}`, () => {
-  const key = hasDemo
-    ? (JSON.parse(readFileSync(demoKey, 'utf8')) as { topics: { files: string[] }[]; queries: { text: string; expectTop3: string[] }[] })
-    : null;
+describe('map of the demo', () => {
+  const key = JSON.parse(readFileSync(demoKey, 'utf8')) as { topics: { files: string[] }[]; queries: { text: string; expectTop3: string[] }[] };
   let html = '';
   let data: MapPageData;
   let summary = '';
@@ -115,7 +112,7 @@ describe.skipIf(!hasDemo)(`map of the demo ${hasDemo ? '' : '(skipped: demo/work
     expect(data.layouts.quick.x).toHaveLength(indexed.files);
     expect(data.layouts.faithful?.x).toHaveLength(indexed.files);
     for (const v of [...data.layouts.quick.x, ...data.layouts.quick.y, ...data.layouts.faithful!.x, ...data.layouts.faithful!.y]) expect(Number.isFinite(v)).toBe(true);
-    for (const t of key!.topics) for (const f of t.files) expect(data.files.paths).toContain(f);
+    for (const t of key.topics) for (const f of t.files) expect(data.files.paths).toContain(f);
   });
 
   it('fetches nothing: no remote reference, and a policy that allows none', () => {
@@ -137,7 +134,7 @@ describe.skipIf(!hasDemo)(`map of the demo ${hasDemo ? '' : '(skipped: demo/work
 
   it('answers the planted questions on its own search: the best file is among the ringed neighbours', () => {
     const engine = new EmbeddedQueryEngine(data.embedded!, (t) => tokenize(t));
-    for (const q of key!.queries) {
+    for (const q of key.queries) {
       const r = engine.search(q.text);
       const ringed = Array.from(r.neighbours, (i) => data.files.paths[i]);
       for (const f of q.expectTop3) expect(ringed).toContain(f);
@@ -174,7 +171,7 @@ describe('map of a folder with a single file', () => {
   });
 });
 
-describe.skipIf(!hasDemo)('the bundled command line', () => {
+describe('the bundled command line', () => {
   it('finds the page beside its dist folder, as an installed package lays it out', async () => {
     // An installed layout in a temporary folder: dist/cli.js bundled as scripts/build.mjs does, media/map beside it.
     const pkg = join(dir, 'installed');
@@ -202,11 +199,11 @@ describe.skipIf(!hasDemo)('the bundled command line', () => {
 const cran = loadCollection('cran');
 const CRAN_FILES = 300;
 
-describe.skipIf(!cran)(`map of a folder of CRAN abstracts ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('map of a folder of CRAN abstracts', () => {
   it('shows every abstract, and an abstract’s opening words find it on the page’s search', async () => {
     const folder = join(dir, 'cran');
     mkdirSync(folder);
-    const docs = cran!.docs.slice(0, CRAN_FILES);
+    const docs = cran.docs.slice(0, CRAN_FILES);
     docs.forEach((d) => writeFileSync(join(folder, `abstract-${d.id.padStart(4, '0')}.txt`), d.text));
     const out = join(dir, 'cran.html');
     const r = await run('map', folder, '--out', out);

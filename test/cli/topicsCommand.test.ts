@@ -2,14 +2,14 @@
  * `undertone topics`, and `--explain` on `ask` and `nearby`, end to end through main().
  * References: the demo workspace's answer key (demo/expectations.json: planted topics); the
  * scores the same commands print without --explain (shares must add up to them); real text
- * (CRAN abstracts, ../shared/corpora/cran) for odd folders.
+ * (CRAN abstracts, test/fixtures/corpora/cran) for odd folders.
  */
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/cliRunner.js';
-import { loadCollection, missingMessage, REPO_ROOT } from '../helpers/shared.js';
+import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
 
 let dir: string;
@@ -21,9 +21,8 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const demoRoot = join(REPO_ROOT, 'demo', 'workspace');
 const demoKey = join(REPO_ROOT, 'demo', 'expectations.json');
-const hasDemo = existsSync(demoRoot) && existsSync(demoKey);
 
-describe.skipIf(!hasDemo)(`topics and --explain on the demo ${hasDemo ? '' : '(skipped: demo/workspace missing)'}`, () => {
+describe('topics and --explain on the demo', () => {
   it('prints topics with readable words, exemplar files and the CUR summary', async () => {
     const r = await run('topics', demoRoot);
     expect(r.code).toBe(0);
@@ -94,7 +93,7 @@ describe.skipIf(!hasDemo)(`topics and --explain on the demo ${hasDemo ? '' : '(s
 });
 
 const cran = loadCollection('cran');
-describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('topics on odd folders', () => {
   const folder = (name: string, files: Record<string, string>) => {
     const root = join(dir, name);
     mkdirSync(root, { recursive: true });
@@ -103,7 +102,7 @@ describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corp
   };
 
   it('a one-file folder gives one topic', async () => {
-    const r = await run('topics', folder('one', { 'only.md': cran!.docs[0].text }));
+    const r = await run('topics', folder('one', { 'only.md': cran.docs[0].text }));
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^1 file in 1 topic \(too few files to split\)/);
     expect(r.out).toMatch(/only\.md/);
@@ -111,7 +110,7 @@ describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corp
 
   it('fifteen hundred identical files give one topic and say why', async () => {
     const files: Record<string, string> = {};
-    for (let i = 0; i < 1500; i++) files[`copy-${i}.md`] = cran!.docs[1].text;
+    for (let i = 0; i < 1500; i++) files[`copy-${i}.md`] = cran.docs[1].text;
     const r = await run('topics', folder('same', files));
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^1,?500 files in 1 topic \(every file points the same way: one topic\)/);
@@ -124,7 +123,7 @@ describe.skipIf(!cran)(`topics on odd folders ${cran ? '' : missingMessage('corp
   });
 
   it('a bad --topics value is refused before any work', async () => {
-    const r = await run('topics', folder('bad', { 'x.md': cran!.docs[2].text }), '--topics', 'zero');
+    const r = await run('topics', folder('bad', { 'x.md': cran.docs[2].text }), '--topics', 'zero');
     expect(r.code).toBe(1);
     expect(r.err).toMatch(/--topics needs a positive whole number/);
   });

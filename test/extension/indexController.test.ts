@@ -3,14 +3,14 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEFAULT_UPDATE_POLICY } from '../../src/core/index/updatePolicy.js';
+import { DEFAULT_UPDATE_POLICY } from '../../src/core/index/update/updatePolicy.js';
 import { IndexController, type ControllerHost } from '../../src/extension/indexController.js';
 import type { IndexState } from '../../src/extension/indexState.js';
 import { startIndexWorker } from '../../src/extension/workerHost.js';
-import { loadCollection, missingMessage, REPO_ROOT } from '../helpers/shared.js';
+import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
 // The controller without the editor: a fake host, the real bundled worker, and a folder made of
-// the ADI collection (../shared/corpora/adi); CRAN abstracts (../shared/corpora/cran) play files
+// the ADI collection (test/fixtures/corpora/adi); CRAN abstracts (test/fixtures/corpora/cran) play files
 // on a topic the index has never seen.
 const adi = loadCollection('adi');
 const cran = loadCollection('cran');
@@ -103,7 +103,7 @@ describe('IndexController on a folder with nothing to index', () => {
   });
 });
 
-describe.skipIf(!adi || !cran)(`IndexController ${adi && cran ? '' : missingMessage('corpora/adi, corpora/cran')}`, () => {
+describe('IndexController', () => {
   it('builds on first start with a progress notification, then loads the saved index on the next', async () => {
     const first = fakeHost();
     const c1 = make(first);
@@ -112,14 +112,14 @@ describe.skipIf(!adi || !cran)(`IndexController ${adi && cran ? '' : missingMess
     await c1.start();
     expect(first.progressRuns).toBe(1);
     expect(kinds[0]).toBe('building');
-    expect(c1.state).toMatchObject({ kind: 'ready', summary: { files: adi!.docs.length } });
+    expect(c1.state).toMatchObject({ kind: 'ready', summary: { files: adi.docs.length } });
     await c1.dispose();
 
     const second = fakeHost();
     const c2 = make(second);
     await c2.start();
     expect(second.progressRuns).toBe(0);
-    expect(c2.state).toMatchObject({ kind: 'ready', summary: { files: adi!.docs.length } });
+    expect(c2.state).toMatchObject({ kind: 'ready', summary: { files: adi.docs.length } });
     expect(second.lines.some((l) => l.startsWith('Loaded the saved index'))).toBe(true);
   });
 
@@ -130,7 +130,7 @@ describe.skipIf(!adi || !cran)(`IndexController ${adi && cran ? '' : missingMess
     const before = readFileSync(host.indexFile!);
     host.cancelAt = 10;
     await c.build('user');
-    expect(c.state).toMatchObject({ kind: 'ready', summary: { files: adi!.docs.length } });
+    expect(c.state).toMatchObject({ kind: 'ready', summary: { files: adi.docs.length } });
     expect(readFileSync(host.indexFile!).equals(before)).toBe(true);
     expect(host.lines).toContain('Indexing cancelled; the previous index stays in use.');
   });
@@ -139,20 +139,20 @@ describe.skipIf(!adi || !cran)(`IndexController ${adi && cran ? '' : missingMess
     const c = make(fakeHost(), { ...DEFAULT_UPDATE_POLICY, settleMs: 0 });
     await c.start();
     const first = join(folder, 'docs', 'cran-1.txt');
-    writeFileSync(first, cran!.docs[0].text);
+    writeFileSync(first, cran.docs[0].text);
     const change = await c.applyChanges([{ kind: 'created', fsPath: first }]);
     expect(change).toEqual({ folded: ['docs/cran-1.txt'], removed: [], all: false });
     expect(c.state.kind).toBe('ready'); // one file: below every trigger
-    const more = cran!.docs.slice(1, 8).map((d, i) => {
+    const more = cran.docs.slice(1, 8).map((d, i) => {
       const p = join(folder, 'docs', `cran-${i + 2}.txt`);
       writeFileSync(p, d.text);
       return { kind: 'created' as const, fsPath: p };
     });
     await c.applyChanges(more);
     const rebuilding = await until(c, (s) => s.kind === 'building');
-    expect(rebuilding).toMatchObject({ background: true, previous: { files: adi!.docs.length + 8 } });
+    expect(rebuilding).toMatchObject({ background: true, previous: { files: adi.docs.length + 8 } });
     const done = await until(c, (s) => s.kind === 'ready');
-    expect(done).toMatchObject({ summary: { files: adi!.docs.length + 8, staleness: { changedFiles: 0 } } });
+    expect(done).toMatchObject({ summary: { files: adi.docs.length + 8, staleness: { changedFiles: 0 } } });
     for (let i = 1; i <= 8; i++) rmSync(join(folder, 'docs', `cran-${i}.txt`));
   });
 

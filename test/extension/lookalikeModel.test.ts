@@ -4,7 +4,7 @@ import {
   DEFAULT_LOOKALIKE_SETTINGS, lookalikeSummary, lookalikeTree, pairKey, readLookalikeSettings, shortNames, type GroupNode, type PairNode,
 } from '../../src/extension/lookalikeModel.js';
 import type { LookalikeGroupWire, LookalikesResult } from '../../src/node/worker/insightProtocol.js';
-import type { FileRef } from '../../src/node/worker/protocol.js';
+import type { FileRef } from '../../src/node/worker/workerProtocol.js';
 
 const ref = (key: string): FileRef => ({ key, fsPath: `/w/ferry/${key}`, folder: 'ferry', relPath: key });
 const pair = (a: string, b: string, similarity: number, sharedLines = 10) => ({ a: ref(a), b: ref(b), similarity, jaccard: similarity, sharedLines });

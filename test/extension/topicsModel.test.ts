@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { DESCRIPTION_WORDS, topicsSummary, topicsTree, type TopicFileNode } from '../../src/extension/topicsModel.js';
 import type { TopicsResult, TopicWire } from '../../src/node/worker/insightProtocol.js';
-import type { FileRef } from '../../src/node/worker/protocol.js';
+import type { FileRef } from '../../src/node/worker/workerProtocol.js';
 
 const ref = (key: string, folder = 'ferry'): FileRef => ({ key, fsPath: `/w/${folder}/${key}`, folder, relPath: key });
 const topic = (id: number, words: string[], files: string[], moreFiles = 0): TopicWire => ({

@@ -2,26 +2,26 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
-import { INDEX_FORMAT_VERSION } from '../../src/core/index/serialize.js';
+import { INDEX_FORMAT_VERSION } from '../../src/core/index/persistence/serialize.js';
 import { loadIndex, saveIndex } from '../../src/node/persist.js';
-import { loadCollection, missingMessage } from '../helpers/shared.js';
+import { loadCollection } from '../helpers/shared.js';
 
-// Real text: the ADI collection (../shared/corpora/adi); the reference is the index that was saved.
+// Real text: the ADI collection (test/fixtures/corpora/adi); the reference is the index that was saved.
 const adi = loadCollection('adi');
 const dir = mkdtempSync(join(tmpdir(), 'undertone-persist-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 function buildAdi(): LsiIndex {
   const b = new IndexBuilder();
-  for (const d of adi!.docs) b.addText({ path: `adi/${d.id}.txt`, size: d.text.length, mtimeMs: 1000 + Number(d.id) }, d.text);
+  for (const d of adi.docs) b.addText({ path: `adi/${d.id}.txt`, size: d.text.length, mtimeMs: 1000 + Number(d.id) }, d.text);
   return b.build();
 }
 
 function answers(index: LsiIndex) {
   return {
-    search: adi!.queries.slice(0, 20).map((q) => index.search(q.text, { top: 10 })),
+    search: adi.queries.slice(0, 20).map((q) => index.search(q.text, { top: 10 })),
     nearby: index.paths().map((p) => index.nearby(p, { top: 5 })),
     ids: index.vocab.terms.map((t) => index.vocab.idOf(t)),
   };
@@ -33,7 +33,7 @@ async function reopen(path: string, readChunkBytes?: number): Promise<LsiIndex> 
   return got.index;
 }
 
-describe.skipIf(!adi)(`persist ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('persist', () => {
   it('reopens a saved index with the same answers, also after a fold-in and a second save', async () => {
     const index = buildAdi();
     const file = join(dir, 'a.undertone');

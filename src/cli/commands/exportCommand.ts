@@ -13,7 +13,7 @@ import { mkdir } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { once } from 'node:events';
 import { InvalidInputError } from '../../core/errors.js';
-import { modelMatrix } from '../../core/index/conceptModel.js';
+import { modelMatrix } from '../../core/index/model/conceptModel.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import type { DocSlot } from '../../core/index/lsiIndex.js';
 import { coordinateChunks } from '../../core/matrix/matrixMarket.js';

@@ -7,7 +7,7 @@
  *   V  files × k, Matrix Market.
  * terms.txt and files.txt (default: beside U, when present) must match the saved index line for
  * line, so factors are never attached to the wrong rows. The factors themselves are checked too
- * (shapes, orthonormal U, fit to the matrix; see core/svd/importedFactors.ts). Documents are
+ * (shapes, orthonormal U, fit to the matrix; see core/index/model/importedFactors.ts). Documents are
  * folded in with the new U, exactly as queries are; the saved index is rewritten atomically.
  */
 import { createReadStream, existsSync } from 'node:fs';
@@ -16,7 +16,7 @@ import { dirname, join } from 'node:path';
 import { InvalidInputError } from '../../core/errors.js';
 import { LsiIndex } from '../../core/index/lsiIndex.js';
 import { MatrixMarketParser, parseMatrixMarket, toDense, type MatrixMarketData } from '../../core/matrix/matrixMarket.js';
-import { modelFromFactors } from '../../core/svd/importedFactors.js';
+import { modelFromFactors } from '../../core/index/model/importedFactors.js';
 import { loadIndex, saveIndex } from '../../node/persist.js';
 import { indexFileFrom, type Flags } from '../context.js';
 import type { Io } from '../output.js';

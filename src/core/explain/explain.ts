@@ -16,7 +16,7 @@
  */
 import { NoKnownTermsError } from '../errors.js';
 import type { LsiIndex } from '../index/lsiIndex.js';
-import type { DocTerms } from '../index/termCounts.js';
+import type { DocTerms } from '../counting/termCounts.js';
 import { weightDocument } from '../weighting/termWeighting.js';
 
 export interface TermShare {

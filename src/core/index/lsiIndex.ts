@@ -14,17 +14,17 @@
  */
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
-import { Bm25Scorer } from './bm25.js';
-import { ConceptCodes } from './conceptCodes.js';
-import { ConceptRows } from './conceptRows.js';
-import { ScreenScratch, screenedTop } from './screenedTop.js';
-import { projectTerms, type ConceptModel } from './conceptModel.js';
-import type { IndexSettings } from './settings.js';
-import { ChangeCounters, type Staleness, type StalenessCounters } from './staleness.js';
-import { countTerms, type DocTerms, type Vocabulary } from './termCounts.js';
-import { topN } from './topN.js';
+import { Bm25Scorer } from './search/bm25.js';
+import { ConceptCodes } from './search/conceptCodes.js';
+import { ConceptRows } from './search/conceptRows.js';
+import { ScreenScratch, screenedTop } from './search/screenedTop.js';
+import { projectTerms, type ConceptModel } from './model/conceptModel.js';
+import type { IndexSettings } from './model/settings.js';
+import { ChangeCounters, type Staleness, type StalenessCounters } from './update/staleness.js';
+import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
+import { topN } from './search/topN.js';
 
-export type { Staleness, StalenessCounters } from './staleness.js';
+export type { Staleness, StalenessCounters } from './update/staleness.js';
 
 export { DEFAULT_PREPARE_OPTIONS, type DocMeta, type DocSlot, type NearbyHit, type PrepareOptions, type SearchHit, type SearchOptions } from './searchTypes.js';
 import { DEFAULT_PREPARE_OPTIONS, type DocMeta, type DocSlot, type NearbyHit, type PrepareOptions, type SearchHit, type SearchOptions } from './searchTypes.js';

@@ -2,7 +2,7 @@
  * The index's public record and option types (documents, hits, search and prepare options), apart
  * from lsiIndex.ts so the class file holds behaviour only.
  */
-import type { DocTerms } from './termCounts.js';
+import type { DocTerms } from '../counting/termCounts.js';
 
 export interface DocMeta {
   /** Workspace-relative path with '/' separators (multi-root: prefixed by the folder name). */

@@ -1,5 +1,6 @@
 /**
- * Look-alike files: exact copies, near-copies and paraphrases (methods.md §5 and §8.11).
+ * Look-alike files: exact copies, near-copies and paraphrases (shingles and MinHash after Broder 1997;
+ * LSH banding after Leskovec, Rajaraman & Ullman, Mining of Massive Datasets, ch. 3).
  *
  * 1. Exact copies: files grouped by content hash of the normalised text (contentHash.ts). Blank
  *    files are only counted. One representative per distinct text goes on, so a thousand

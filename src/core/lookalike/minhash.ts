@@ -2,7 +2,7 @@
  * MinHash signatures (Broder 1997; Broder, Charikar, Frieze & Mitzenmacher 2000, "Min-wise
  * independent permutations"). For a random permutation π, P[min π(A) = min π(B)] = J(A, B), so
  * the share of equal entries in two K-entry signatures estimates Jaccard with standard error
- * √(J(1−J)/K) (0.035 at K = 128, J = 0.8; methods.md §5).
+ * √(J(1−J)/K) (binomial; 0.035 at K = 128, J = 0.8).
  *
  * The K "permutations" are drawn from a seeded universal family over 32-bit keys: Dietzfelbinger's
  * multiply-add-shift, h(x) = ⌊((a·x + b) mod 2⁶⁴) / 2³²⌋ with random 64-bit a, b (Dietzfelbinger
@@ -11,7 +11,7 @@
  * MurmurHash3 outputs, and the tests check the estimator's bias and spread against √(J(1−J)/K).
  * The 64-bit product is formed from exact float pieces (every intermediate < 2⁵³).
  *
- * Default K = 128 (methods.md §8.11, with b = 16 bands of r = 8 rows).
+ * Default K = 128 (with b = 16 bands of r = 8 rows: see options.ts).
  */
 import { InvalidInputError } from '../errors.js';
 import { createRandom } from '../random.js';

@@ -5,13 +5,13 @@ import { InvalidInputError } from '../errors.js';
 import { DEFAULT_SEED } from '../random.js';
 
 export interface LookalikeOptions {
-  /** Tokens per shingle. @default 5 (token 5-grams: the Stack, C4; methods.md §5) */
+  /** Tokens per shingle. @default 5 (token 5-grams, as in the Stack's and C4's deduplication, Kocetkov et al. 2022, Lee et al. 2022) */
   readonly shingleSize: number;
-  /** MinHash functions K. @default 128 (methods.md §8.11) */
+  /** MinHash functions K. @default 128 (common practice: the Stack and CodeParrot use 256, datasketch 128) */
   readonly numHashes: number;
-  /** LSH bands b; rows r = numHashes / bands. @default 16 (r = 8: P(candidate) 0.95 at J = 0.8, 0.99 at 0.85; methods.md §5 table) */
+  /** LSH bands b; rows r = numHashes / bands. @default 16 (r = 8: P(candidate) 0.95 at J = 0.8, 0.99 at 0.85, from 1 − (1 − s^r)^b, Leskovec, Rajaraman & Ullman, Mining of Massive Datasets, ch. 3) */
   readonly bands: number;
-  /** Exact Jaccard at or above which two files are near-copies. @default 0.8 (BigCode / C4 practice, methods.md §5) */
+  /** Exact Jaccard at or above which two files are near-copies. @default 0.8 (the threshold of Lee et al. 2022, "Deduplicating training data makes language models better") */
   readonly threshold: number;
   /** Largest LSH bucket paired all-against-all; bigger ones use sorted neighbourhood (banding.ts). @default 100 (common practice, our choice) */
   readonly maxBucketSize: number;

@@ -11,7 +11,7 @@
  * MurmurHash3_x86_32 of those w words (seed = w). Two different shingles of a 300-token file
  * collide with probability ≈ 300²/2³³ ≈ 10⁻⁵ (birthday bound), so set sizes are exact in practice.
  *
- * Default w = 5 (token 5-grams; the Stack and C4 deduplication, see methods.md §5).
+ * Default w = 5 (token 5-grams, as in the Stack's and C4's deduplication: Kocetkov et al. 2022; Lee et al. 2022).
  */
 import { hashString32, murmur3Words32 } from './murmur3.js';
 

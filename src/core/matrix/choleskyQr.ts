@@ -2,8 +2,9 @@
  * CholeskyQR on an executor (Fukaya, Nakatsukasa, Yanagisawa & Yamamoto 2014): G = YᵀY,
  * R = chol(G), Q = Y R⁻¹, with the Gram sum and the right product run by the executor and only
  * the l × l Cholesky factor and its inverse formed here. One pass leaves ‖QᵀQ − I‖ ≈ ε·cond(Y)²,
- * plenty for a basis between power iterations (the "cheap normalisation" of
- * ../shared/notes/methods.md §1.4); two passes (CholeskyQR2) give orthonormality to working
+ * plenty for a basis between power iterations (a cheap normaliser: the l × l factor costs far less
+ * than a Householder QR of the tall block, Halko et al. 2011 §4.5 allow any orthonormalisation
+ * between products); two passes (CholeskyQR2, Fukaya et al. 2014) give orthonormality to working
  * precision while cond(Y) ≲ 1e8. When Cholesky breaks down (Y numerically rank-deficient), falls
  * back to orthonormalize() (SVQB with seeded random fill), which keeps the full width.
  */

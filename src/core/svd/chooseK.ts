@@ -3,7 +3,8 @@
  *
  * For n ≥ 1000 files: k = 100 + 100·log10(n/1000), clamped to [100, 300] — 100 at 1k files, 200 at
  * 10k, 300 at 100k, following Deerwester et al. 1990 ("ca. 100"), Berry, Dumais & O'Brien 1995
- * (200–300) and Bradford 2008 (≈300 at 10⁵ documents); see ../shared/notes/methods.md §3, §8.3.
+ * (200–300) and Bradford 2008, CIKM, "An empirical study of required dimensionality for
+ * large-scale latent semantic indexing applications" (≈300 at 10⁵ documents; from memory).
  * Below 1000 files a rank near n would reproduce plain term matching, so k shrinks with the
  * collection: k = max(2, round(n / 10 + 2·√n)) (our own rule, common practice of keeping k well
  * below n on small collections), capped at 100.

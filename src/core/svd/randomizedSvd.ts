@@ -18,8 +18,8 @@
  *
  * Defaults: oversampling max(10, ⌈k/2⌉, min(k, 100)) and 5 power iterations (scikit-learn's
  * TruncatedSVD uses 5 iterations with 10 extra columns; Halko §4.2 suggests 5–10 extra columns for
- * fast-decaying spectra). Text spectra decay slowly near σ_k (../shared/notes/methods.md §1.2,
- * §8.4): with 10–20 extra columns the tail of k = 200 on the linux-source-6.1 Documentation matrix
+ * fast-decaying spectra). Text spectra decay slowly near σ_k (Halko et al. 2011 §4.5 recommend
+ * power iterations for such spectra): with 10–20 extra columns the tail of k = 200 on the linux-source-6.1 Documentation matrix
  * was 5% low against ARPACK. Measured there (worst of 200): q=4,p=20 5.0%; q=4,p=100 1.5%;
  * q=6,p=60 0.92%; q=5,p=100 0.83%; q=4,p=150 0.75%: q=5 with p=k/2 meets 1% at the lowest cost in
  * products. Small problems get p=k (cheap there; ADI at k=27 was 1.1% off with p=14).

@@ -6,14 +6,14 @@
  * 2. Leverage scores of columns (from V_k) and rows (from U_k) (leverage.ts).
  * 3. Selection, one of:
  *    - 'deim' (default; Sorensen & Embree 2016, deim.ts) or 'pivoted-qr' (pivotedQr.ts): k
- *      deterministic picks on each side, padded with the top leverage scores to 2k (methods.md §8.10);
+ *      deterministic picks on each side, padded with the top leverage scores to 2k (our choice);
  *    - 'column-select' (PNAS ColumnSelect) or 'with-replacement' (DMM 2008): leverage sampling with
  *      c = ⌈k·max(1, ln k)/ε²⌉ on both sides, the published bound being
  *      ‖A − CUR‖_F ≤ (2 + ε)·‖A − A_k‖_F with high probability (PNAS).
  * 4. U = C⁺AR⁺ and the errors (curMiddle.ts), reported against the rank-k tail
  *    ‖A − A_k‖²_F = ‖A‖²_F − Σ_{i≤k} σ_i². With a randomized SVD each σ_i is a lower bound on the
  *    true one, so this tail is an upper bound and the ratio can only be understated slightly.
- * Defaults: rank 10 (methods.md §8.10 suggests 10–20), ε = 1 (Orange3's default), seed DEFAULT_SEED.
+ * Defaults: rank 10 (our choice), ε = 1 (Orange3's default), seed DEFAULT_SEED.
  * Orientation: for the index's document-major matrix, rows are files and columns are terms.
  */
 import { InvalidInputError } from '../errors.js';

@@ -9,7 +9,7 @@
  *   are kept in expectation; a kept index is scaled by 1/√p_j (E[CCᵀ] = AAᵀ).
  * - 'with-replacement' (Drineas, Kannan & Mahoney 2006; DMM 2008): c independent draws with
  *   probability π_j; an index drawn t times is kept once and scaled by √(t/(c·π_j)), which keeps
- *   CCᵀ equal to the sum over all draws (methods.md §4).
+ *   CCᵀ equal to the sum over all draws (Drineas, Kannan & Mahoney 2006, SICOMP 36(1)).
  * Scaling never changes the span of the picks, hence never the CUR product C·C⁺·A·R⁺·R.
  * Sample size c = ⌈k·max(1, ln k)/ε²⌉ (the constant Orange3 uses for the O(k log k/ε²) of the
  * paper; the max(1, ·) avoids selecting nothing at k = 1, our choice).
@@ -90,7 +90,7 @@ export function sampleWithReplacement(pi: Float64Array, c: number, random: Rando
 
 /**
  * Deterministic picks padded with the highest-leverage indices not yet chosen, up to target
- * (methods.md §8.10); ties go to the lower index. Scales are 1.
+ * (our choice); ties go to the lower index. Scales are 1.
  */
 export function padWithLeverage(chosen: readonly number[], pi: Float64Array, target: number): Picks {
   const set = new Set(chosen);

@@ -2,7 +2,8 @@
  * Column-pivoted QR selection (Businger & Golub 1965) on the k × n matrix V_kᵀ, done as modified
  * Gram–Schmidt on its n columns (the rows of the n × k basis): repeatedly pick the column with
  * the largest remaining norm, then remove its direction from every other column. The first k
- * pivots are the classic rank-revealing choice of k representative indices (methods.md §4).
+ * pivots are the classic rank-revealing choice of k representative indices (Chan 1987, "Rank
+ * revealing QR factorizations", Linear Algebra Appl. 88/89; from memory).
  * ml-matrix's QrDecomposition does not pivot, hence this small routine. Cost O(n·k²).
  * Deterministic: ties go to the lower index. Stops early when every remaining norm is below
  * 1e-10 of the first pivot's (the basis has lower numerical rank than k).

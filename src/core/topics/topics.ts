@@ -11,8 +11,8 @@
  *    others, F in all. Every term and file says whether CUR picked it.
  * Files without any model term have a zero concept vector and are listed as unplaced.
  * Defaults: 8 terms and 5 files per topic (our choice); CUR rank min(20, max(10, topics)) as
- * methods.md §8.10 suggests 10–20; CUR terms max(2·rank, 8·topics) so every topic has picks to
- * draw on (our choice); files 2·rank (methods.md §8.10).
+ * a rank of 10–20 keeps the picks few enough to read (our choice); CUR terms max(2·rank, 8·topics)
+ * so every topic has picks to draw on (our choice); files 2·rank (our choice, as in cur.ts).
  */
 import { EmptyCorpusError, InvalidInputError } from '../errors.js';
 import type { LsiIndex } from '../index/lsiIndex.js';

@@ -9,7 +9,7 @@
  * so a one-file workspace still indexes.
  */
 import { InvalidInputError } from '../errors.js';
-import type { DocTerms } from '../index/termCounts.js';
+import type { DocTerms } from '../counting/termCounts.js';
 
 export interface PruneOptions {
   /** @default 2 */

@@ -7,7 +7,7 @@
  *   scikit-learn's TfidfVectorizer(sublinear_tf=True, smooth_idf=True).
  * Global weights are computed once per build and frozen: folded-in documents and queries reuse them.
  */
-import type { DocTerms } from '../index/termCounts.js';
+import type { DocTerms } from '../counting/termCounts.js';
 
 export type WeightingScheme = 'log-entropy' | 'tfidf';
 export const WEIGHTING_SCHEMES: readonly WeightingScheme[] = ['log-entropy', 'tfidf'];

@@ -7,9 +7,9 @@
  * whatever the timing.
  */
 import { CancelledError } from '../../core/errors.js';
-import type { DocTerms, Vocabulary } from '../../core/index/termCounts.js';
+import type { DocTerms, Vocabulary } from '../../core/counting/termCounts.js';
 import type { TokenizeOptions } from '../../core/text/tokenize.js';
-import type { BatchDone, FromWorker, ToWorker } from './protocol.js';
+import type { BatchDone, FromWorker, ToWorker } from './threadProtocol.js';
 import type { WorkerPool } from './workerPool.js';
 
 export interface CountJob {

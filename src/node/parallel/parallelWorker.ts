@@ -7,7 +7,7 @@ import { parentPort } from 'node:worker_threads';
 import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
 import { translateRun } from './parallelCount.js';
-import type { FileOutcome, FinalCounts, FromWorker, ToWorker } from './protocol.js';
+import type { FileOutcome, FinalCounts, FromWorker, ToWorker } from './threadProtocol.js';
 import { decodeUtf8 } from '../scanRead.js';
 import { FileReader } from './readTextSync.js';
 import { WordCounter, type PackedFile } from './wordCounter.js';

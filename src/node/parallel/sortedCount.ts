@@ -8,9 +8,9 @@
  * the merged ids and sends them back in one pair of arrays, which the files' DocTerms view. The
  * result does not depend on which thread read which file.
  */
-import { Vocabulary, type DocTerms } from '../../core/index/termCounts.js';
+import { Vocabulary, type DocTerms } from '../../core/counting/termCounts.js';
 import { runCountBatches, type CountJob, type CountOptions, type CountOutcome } from './parallelCount.js';
-import type { FinalCounts, FromWorker, TermOrder, ToWorker } from './protocol.js';
+import type { FinalCounts, FromWorker, TermOrder, ToWorker } from './threadProtocol.js';
 import type { WorkerPool } from './workerPool.js';
 
 interface Pending {

@@ -14,8 +14,8 @@
  */
 import { STOP_WORDS } from '../../core/text/stopWords.js';
 import { DEFAULT_TOKENIZE_OPTIONS, tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
-import { allDigits, keepToken, lowerInto, MAX_TOKEN_LENGTH, partBounds, skipsWord } from './asciiWord.js';
-import { porterStem } from './porterFast.js';
+import { allDigits, keepToken, lowerInto, MAX_TOKEN_LENGTH, partBounds, skipsWord } from '../../core/text/asciiWord.js';
+import { porterStem } from '../../core/text/porterFast.js';
 import { sortedTermIds } from './termOrder.js';
 import { astralWordAt, caselessLetters, classify, CLASS, HIGH_SURROGATE, UnitBuffer, unitsToString, WORD } from './textUnits.js';
 import { FNV_OFFSET, FNV_PRIME, grow32, WordTable } from './wordTable.js';

@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { serialExecutor, type MatrixExecutor } from '../../core/matrix/executor.js';
 import { kernelModule, WasmArena } from '../../core/matrix/wasm/wasmArena.js';
-import type { ToWorker } from './protocol.js';
+import type { ToWorker } from './threadProtocol.js';
 import { ThreadExecutor } from './threadExecutor.js';
 
 export interface PoolOptions {

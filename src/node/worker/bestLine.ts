@@ -7,7 +7,7 @@
  * so a window that shares words wins, and among windows without shared words the one closest in
  * meaning wins. Equal weights for the two parts are common practice, not from a source.
  */
-import { projectTerms } from '../../core/index/conceptModel.js';
+import { projectTerms } from '../../core/index/model/conceptModel.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { choosePassage, type PassageScorer } from '../../core/text/passage.js';
 

@@ -5,7 +5,7 @@
  */
 import {
   isWorkerMessage, type HostMessage, type ParamsOf, type Progress, type Request, type RequestType, type ResultOf, type WireError,
-} from './protocol.js';
+} from './workerProtocol.js';
 
 /** The part of node:worker_threads' Worker (or a MessagePort) the client uses. */
 export interface PortLike {

@@ -1,6 +1,6 @@
 /**
  * What the index worker does: holds the workspace index and answers the protocol's requests
- * (see protocol.ts). Builds run one at a time and swap in only once saved; edits that arrive
+ * (see workerProtocol.ts). Builds run one at a time and swap in only once saved; edits that arrive
  * during a build are applied to the index in use and replayed on the new one after the swap.
  * Folded-in edits are saved a short while after the last one (and on request).
  * Once an index is loaded or built, what its searches need is prepared in the background
@@ -11,7 +11,7 @@ import { rm, stat } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { UndertoneError } from '../../core/errors.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
-import { modelSettingsKey, resolveSettings } from '../../core/index/settings.js';
+import { modelSettingsKey, resolveSettings } from '../../core/index/model/settings.js';
 import { loadIndex, saveIndex } from '../persist.js';
 import { readIndexableText } from '../scan.js';
 import { prepareInBackground } from './backgroundPrepare.js';
@@ -23,7 +23,7 @@ import { questionFit, questionUnits } from '../../core/translations/language.js'
 import { translationPath } from '../../core/translations/pathKey.js';
 import { TranslationFinder } from './translationFinder.js';
 import { InsightService } from './insightService.js';
-import type { FileChange, IndexSummary, RefreshReport, ScoredFile, SearchMatch, TranslationRef, UpdateReport, WorkerConfig } from './protocol.js';
+import type { FileChange, IndexSummary, RefreshReport, ScoredFile, SearchMatch, TranslationRef, UpdateReport, WorkerConfig } from './workerProtocol.js';
 import { RootMap } from './rootMap.js';
 import type { HandlerContext, Handlers } from './server.js';
 import { formsFromTexts } from './wordForms.js';

@@ -1,11 +1,11 @@
 /**
  * The worker's insight requests (look-alikes, topics, the concept map) and the "why" that search
- * and nearby results carry, as plain data for the thread boundary. protocol.ts folds these into
+ * and nearby results carry, as plain data for the thread boundary. workerProtocol.ts folds these into
  * its RequestMap; the handlers live in insightService.ts.
  */
 import type { LayoutName, MapPageData } from '../../core/map/mapData.js';
 import type { MapPoint } from '../../core/map/mapMessages.js';
-import type { FileRef } from './protocol.js';
+import type { FileRef } from './fileRef.js';
 
 /** One term's part of a similarity score (core/explain), under a readable word. */
 export interface WhyTerm {
@@ -111,7 +111,7 @@ export interface MapQueryResult {
   readonly similarities: readonly number[];
 }
 
-/** Each insight request with its parameters and result (merged into protocol.ts's RequestMap). */
+/** Each insight request with its parameters and result (merged into workerProtocol.ts's RequestMap). */
 export interface InsightRequestMap {
   lookalikes: { params: { threshold: number; paraphraseThreshold: number }; result: LookalikesResult };
   topics: { params: Record<string, never>; result: TopicsResult };

@@ -5,7 +5,7 @@
  * to the innermost one.
  */
 import { isAbsolute, join, relative, sep } from 'node:path';
-import type { FileRef, WorkspaceRoot } from './protocol.js';
+import type { FileRef, WorkspaceRoot } from './workerProtocol.js';
 
 export class RootMap {
   readonly roots: readonly WorkspaceRoot[];

@@ -6,7 +6,7 @@
  */
 import {
   isHostMessage, toWireError, type ParamsOf, type Progress, type RequestType, type ResultOf, type WorkerMessage,
-} from './protocol.js';
+} from './workerProtocol.js';
 
 export interface HandlerContext {
   /** Fired when the cancel message is read. */

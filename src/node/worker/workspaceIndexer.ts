@@ -8,14 +8,14 @@
  */
 import { performance } from 'node:perf_hooks';
 import { CancelledError, EmptyCorpusError } from '../../core/errors.js';
-import { IndexBuilder } from '../../core/index/indexBuilder.js';
+import { IndexBuilder } from '../../core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
-import { resolveSettings, type IndexSettings } from '../../core/index/settings.js';
-import { Vocabulary } from '../../core/index/termCounts.js';
+import { resolveSettings, type IndexSettings } from '../../core/index/model/settings.js';
+import { Vocabulary } from '../../core/counting/termCounts.js';
 import { countFilesInParallel } from '../parallel/parallelCount.js';
 import { WorkerPool } from '../parallel/workerPool.js';
 import { readIndexableText, scanFolder } from '../scan.js';
-import type { Progress, WorkerConfig } from './protocol.js';
+import type { Progress, WorkerConfig } from './workerProtocol.js';
 import type { RootMap } from './rootMap.js';
 
 export interface WorkspaceFile {
@@ -65,7 +65,7 @@ export interface WorkspaceBuildOptions {
   /** The index in use, whose unchanged files need not be read again. */
   readonly previous?: LsiIndex;
   readonly signal?: AbortSignal;
-  /** Also polled during the synchronous SVD (see protocol.ts, cancelFlag). */
+  /** Also polled during the synchronous SVD (see workerProtocol.ts, cancelFlag). */
   readonly isCancelled?: () => boolean;
   readonly onProgress?: (p: Progress) => void;
   /** Threads for tokenizing and the SVD, the worker's own included (false: none). @default all cores */

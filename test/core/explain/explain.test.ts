@@ -3,26 +3,26 @@
  * (LsiIndex.search: blended score, cosine and BM25 parts; LsiIndex.nearby: cosines); an
  * independent dense computation of the concept shares with ml-matrix from the model's arrays
  * (share_t = w_t·(Σ^{α−1}U_kᵀ)_{:,t}·d̂ / ‖Σ^{α−1}U_kᵀw‖); real text and queries from CISI
- * (../shared/corpora/cisi, first 400 abstracts, first 15 queries).
+ * (test/fixtures/corpora/cisi, first 400 abstracts, first 15 queries).
  */
 import { Matrix } from 'ml-matrix';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { NoKnownTermsError } from '../../../src/core/errors.js';
 import { explainPair, QueryExplainer, topShares } from '../../../src/core/explain/explain.js';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { weightDocument } from '../../../src/core/weighting/termWeighting.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
 
 const cisi = loadCollection('cisi');
 
-describe.skipIf(!cisi)(`explanations on CISI ${cisi ? '' : missingMessage('corpora/cisi')}`, () => {
+describe('explanations on CISI', () => {
   let index: LsiIndex;
-  const queries = () => cisi!.queries.slice(0, 15).map((q) => q.text);
+  const queries = () => cisi.queries.slice(0, 15).map((q) => q.text);
 
   beforeAll(() => {
     const b = new IndexBuilder();
-    for (const d of cisi!.docs.slice(0, 400)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    for (const d of cisi.docs.slice(0, 400)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     index = b.build();
   });
 

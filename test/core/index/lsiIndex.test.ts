@@ -1,16 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { NoKnownTermsError, NotIndexedError } from '../../../src/core/errors.js';
-import { projectTerms } from '../../../src/core/index/conceptModel.js';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
-import { decodeIndex, encodeIndex } from '../../../src/core/index/serialize.js';
+import { projectTerms } from '../../../src/core/index/model/conceptModel.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
+import { decodeIndex, encodeIndex } from '../../../src/core/index/persistence/serialize.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import type { DocTerms } from '../../../src/core/index/termCounts.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import type { DocTerms } from '../../../src/core/counting/termCounts.js';
+import { loadCollection } from '../../helpers/shared.js';
 
-// Real text: CRAN (../shared/corpora/cran, 1400 aerodynamics abstracts).
+// Real text: CRAN (test/fixtures/corpora/cran, 1400 aerodynamics abstracts).
 const cran = loadCollection('cran');
 
-describe.skipIf(!cran)(`LsiIndex ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('LsiIndex', () => {
   const docs = cran ? cran.docs.slice(0, 400) : [];
   const build = (list = docs) => {
     const b = new IndexBuilder();
@@ -121,13 +121,13 @@ function plainNearby(index: LsiIndex, path: string, top: number): { path: string
   return ranked.sort((a, b) => b.score - a.score || a.slot - b.slot).slice(0, top);
 }
 
-describe.skipIf(!cran)(`LsiIndex ranking against the plain formula ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('LsiIndex ranking against the plain formula', () => {
   it('ranks search and nearby hits exactly as the plain computation, before and after fold-ins and removals', () => {
     const b = new IndexBuilder();
-    for (const d of cran!.docs.slice(0, 500)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    for (const d of cran.docs.slice(0, 500)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = b.build();
     const compare = (): void => {
-      for (const q of cran!.queries.slice(0, 15)) {
+      for (const q of cran.queries.slice(0, 15)) {
         const got = index.search(q.text, { top: 15 });
         const ref = plainSearch(index, q.text, 15);
         expect(got.map((h) => h.path)).toEqual(ref.map((h) => h.path));
@@ -142,27 +142,27 @@ describe.skipIf(!cran)(`LsiIndex ranking against the plain formula ${cran ? '' :
     };
     compare();
     // Replace two documents, add three (one with words the model has never seen), remove two.
-    index.foldIn({ path: cran!.docs[3].id, size: 1, mtimeMs: 1 }, cran!.docs[900].text);
-    index.foldIn({ path: cran!.docs[4].id, size: 1, mtimeMs: 1 }, `${cran!.docs[4].text} shock wave boundary layer`);
-    for (let i = 0; i < 3; i++) index.foldIn({ path: `new${i}`, size: 1, mtimeMs: 1 }, `${cran!.docs[950 + i].text} quuxified frobnicator`);
-    index.remove(cran!.docs[10].id);
+    index.foldIn({ path: cran.docs[3].id, size: 1, mtimeMs: 1 }, cran.docs[900].text);
+    index.foldIn({ path: cran.docs[4].id, size: 1, mtimeMs: 1 }, `${cran.docs[4].text} shock wave boundary layer`);
+    for (let i = 0; i < 3; i++) index.foldIn({ path: `new${i}`, size: 1, mtimeMs: 1 }, `${cran.docs[950 + i].text} quuxified frobnicator`);
+    index.remove(cran.docs[10].id);
     index.remove('new1');
     compare();
     expect(index.search('quuxified frobnicator', { top: 2 }).map((h) => h.path).sort()).toEqual(['new0', 'new2']);
   });
 });
 
-describe.skipIf(!cran)(`LsiIndex.prepare ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('LsiIndex.prepare', () => {
   it('gives the same bits as an index never prepared, with searches and edits between its slices and after it', async () => {
     const b = new IndexBuilder({ k: 30 });
-    for (const d of cran!.docs.slice(0, 600)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    for (const d of cran.docs.slice(0, 600)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const saved = encodeIndex(b.build());
     const [prepared, lazy] = [decodeIndex(saved), decodeIndex(saved)];
     const both = (f: (x: LsiIndex) => void): void => [prepared, lazy].forEach(f);
     let q = 0;
     const compare = (count: number): void => {
       for (let i = 0; i < count; i++, q++) {
-        const text = cran!.queries[q % cran!.queries.length].text;
+        const text = cran.queries[q % cran.queries.length].text;
         // Same hits, same scores to the last bit (toEqual compares numbers with Object.is).
         expect(prepared.search(text, { top: 12 })).toEqual(lazy.search(text, { top: 12 }));
       }
@@ -173,15 +173,15 @@ describe.skipIf(!cran)(`LsiIndex.prepare ${cran ? '' : missingMessage('corpora/c
     let slices = 0;
     while (!prepared.prepareSlice(0)) {
       if (++slices % 7 === 0) compare(1);
-      if (slices === 9) both((x) => x.foldIn({ path: cran!.docs[3].id, size: 1, mtimeMs: 1 }, cran!.docs[900].text));
-      if (slices === 20) both((x) => x.remove(cran!.docs[10].id));
-      if (slices === 30) both((x) => x.foldIn({ path: 'new/a', size: 1, mtimeMs: 1 }, `${cran!.docs[901].text} quuxified frobnicator`));
+      if (slices === 9) both((x) => x.foldIn({ path: cran.docs[3].id, size: 1, mtimeMs: 1 }, cran.docs[900].text));
+      if (slices === 20) both((x) => x.remove(cran.docs[10].id));
+      if (slices === 30) both((x) => x.foldIn({ path: 'new/a', size: 1, mtimeMs: 1 }, `${cran.docs[901].text} quuxified frobnicator`));
     }
     expect(slices).toBeGreaterThan(30); // 600 documents in 32-document chunks: the edits landed mid-way
     expect(await prepared.prepare()).toBe(true);
     compare(15);
-    both((x) => x.foldIn({ path: cran!.docs[5].id, size: 1, mtimeMs: 1 }, cran!.docs[902].text));
-    both((x) => x.foldIn({ path: 'new/b', size: 1, mtimeMs: 1 }, `${cran!.docs[903].text} quuxified`));
+    both((x) => x.foldIn({ path: cran.docs[5].id, size: 1, mtimeMs: 1 }, cran.docs[902].text));
+    both((x) => x.foldIn({ path: 'new/b', size: 1, mtimeMs: 1 }, `${cran.docs[903].text} quuxified`));
     both((x) => x.remove('new/a'));
     compare(15);
     expect(prepared.search('quuxified frobnicator', { top: 1 })[0].path).toBe('new/b');
@@ -189,7 +189,7 @@ describe.skipIf(!cran)(`LsiIndex.prepare ${cran ? '' : missingMessage('corpora/c
 
   it('stops between slices once its signal is aborted, and finishes when asked again', async () => {
     const b = new IndexBuilder({ k: 10 });
-    for (const d of cran!.docs.slice(0, 300)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    for (const d of cran.docs.slice(0, 300)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = b.build();
     const controller = new AbortController();
     let pauses = 0;

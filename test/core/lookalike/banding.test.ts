@@ -12,7 +12,7 @@ const B = 16;
 const R = 8;
 
 describe('candidateProbability', () => {
-  it('reproduces the b=16, r=8 row of the methods.md §5 table (P(0.6)=0.24, P(0.7)=0.61, P(0.8)=0.95, P(0.85)=0.99)', () => {
+  it('reproduces 1 − (1 − s^r)^b for b=16, r=8 (Mining of Massive Datasets ch. 3; values from the formula, to 2 places) (P(0.6)=0.24, P(0.7)=0.61, P(0.8)=0.95, P(0.85)=0.99)', () => {
     expect(candidateProbability(0.6, B, R)).toBeCloseTo(0.24, 2);
     expect(candidateProbability(0.7, B, R)).toBeCloseTo(0.61, 2);
     expect(candidateProbability(0.8, B, R)).toBeCloseTo(0.95, 2);

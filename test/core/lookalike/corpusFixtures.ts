@@ -1,5 +1,5 @@
 /**
- * Test fixtures for the look-alike tests: random key sets with an exact Jaccard, real abstracts from ../shared/corpora and seeded
+ * Test fixtures for the look-alike tests: random key sets with an exact Jaccard, real abstracts from test/fixtures/corpora and seeded
  * mutations of them (word swaps, deleted and inserted sentences, reordered paragraphs), plus an
  * independent brute-force shingle Jaccard written from the definition (string shingles, JS Sets
  * turned into sorted id lists), sharing no code with src/core/lookalike.
@@ -12,10 +12,9 @@ export interface TextDoc {
   text: string;
 }
 
-/** Docs of a ../shared/corpora collection with one sentence per line, or null when absent. */
-export function loadCorpusDocs(name: string): TextDoc[] | null {
+/** Docs of a test/fixtures/corpora collection with one sentence per line. */
+export function loadCorpusDocs(name: string): TextDoc[] {
   const c = loadCollection(name);
-  if (!c) return null;
   return c.docs.map((d) => ({ id: `${name}/${d.id}`, text: splitSentences(d.text).join('\n') }));
 }
 

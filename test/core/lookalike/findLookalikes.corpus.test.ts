@@ -1,18 +1,17 @@
 /**
  * Near-copy recall and precision on real text with planted look-alikes.
  *
- * Corpus: CISI abstracts (../shared/corpora/cisi, 1460 docs; provenance in its README) plus seeded
+ * Corpus: CISI abstracts (test/fixtures/corpora/cisi, 1460 docs; provenance in its README) plus seeded
  * mutated copies (word swaps, deleted/inserted sentences, reordered paragraphs) and exact copies.
  * Truth: exact Jaccard of token 5-gram sets over ALL pairs, by brute force written in the test
  * (corpusFixtures.ts, string shingles, no code shared with the finder).
  * Targets: precision 1.0 (every reported pair is verified by exact Jaccard, so none may fall below
  * the threshold) and recall ≥ 0.95 (LSH at b=16, r=8 catches a pair at J=0.8 with probability
- * 0.95 and at J≥0.85 with ≥0.99: MMDS ch. 3 formula 1 − (1 − s^r)^b, methods.md §5 table).
+ * 0.95 and at J≥0.85 with ≥0.99: MMDS ch. 3 formula 1 − (1 − s^r)^b).
  */
 import { describe, expect, it } from 'vitest';
 import { findLookalikes } from '../../../src/core/lookalike/findLookalikes.js';
 import type { LookalikeReport } from '../../../src/core/lookalike/types.js';
-import { missingMessage } from '../../helpers/shared.js';
 import { bruteForcePairs, buildMutatedCorpus, loadCorpusDocs, type TextDoc } from './corpusFixtures.js';
 
 /** Unordered pairs of file indices the report claims are alike (exact groups and near pairs, copies expanded). */
@@ -40,8 +39,8 @@ function reportedPairs(report: LookalikeReport, docs: readonly TextDoc[]): Set<s
 const base = loadCorpusDocs('cisi');
 
 describe('findLookalikes on CISI with planted near-copies', () => {
-  it.skipIf(!base)(`${base ? '' : missingMessage('corpora/cisi') + ': '}matches brute-force all-pairs Jaccard ≥ 0.8 with precision 1 and recall ≥ 0.95`, () => {
-    const docs = buildMutatedCorpus(base!, 1000, 40, 11);
+  it('matches brute-force all-pairs Jaccard ≥ 0.8 with precision 1 and recall ≥ 0.95', () => {
+    const docs = buildMutatedCorpus(base, 1000, 40, 11);
     const truth = bruteForcePairs(
       docs.map((d) => d.text),
       5,

@@ -32,7 +32,7 @@ describe('createMinHasher', () => {
   });
 
   // Broder 1997: each MinHash entry matches with probability J, so the estimate from K entries is
-  // unbiased with standard error √(J(1−J)/K) (binomial; methods.md §5: 0.035 at K = 128, J = 0.8).
+  // unbiased with standard error √(J(1−J)/K) (binomial: 0.035 at K = 128, J = 0.8).
   // Tolerances: mean within 4 standard errors of the mean over T trials; the sample standard
   // deviation within ±20 % of √(J(1−J)/K) (its own relative error is ≈ 1/√(2T) = 5 % at T = 200).
   it.each([0.2, 0.5, 0.8, 0.95])('estimates J = %s without bias and with standard error √(J(1−J)/K)', (j) => {

@@ -5,10 +5,10 @@ import { hyperplaneAgreement } from '../../../src/core/lookalike/simhash.js';
 import { InvalidInputError } from '../../../src/core/errors.js';
 
 describe('DEFAULT_LOOKALIKE_OPTIONS', () => {
-  it('uses the methods.md §8.11 settings: 5-gram shingles, K = 128, b = 16 × r = 8, J ≥ 0.8', () => {
+  it('uses the documented defaults: 5-gram shingles, K = 128, b = 16 × r = 8, J ≥ 0.8', () => {
     const o = DEFAULT_LOOKALIKE_OPTIONS;
     expect([o.shingleSize, o.numHashes, o.bands, o.threshold]).toEqual([5, 128, 16, 0.8]);
-    // With these, a pair at the threshold is a candidate with probability ≈ 0.95 (methods.md §5 table).
+    // With these, a pair at the threshold is a candidate with probability ≈ 0.95 (1 − (1 − s^r)^b, Mining of Massive Datasets ch. 3).
     expect(candidateProbability(o.threshold, o.bands, o.numHashes / o.bands)).toBeGreaterThan(0.94);
   });
 

@@ -1,5 +1,5 @@
 /**
- * The map's input taken from an index. Text: ADI abstracts (../shared/corpora/adi). References:
+ * The map's input taken from an index. Text: ADI abstracts (test/fixtures/corpora/adi). References:
  * log-entropy weights written out from the published formula (Dumais 1991: local log(1 + tf),
  * global 1 + Σ p log p / log(n + 1) as the weighting module states it) and counted from the
  * tokenizer's output, for each file's top terms and the vocabulary cap; an exact dense SVD by
@@ -8,7 +8,7 @@
  */
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { EmbeddedQueryEngine } from '../../../src/core/map/embeddedQuery.js';
 import { buildEmbeddedQueryData } from '../../../src/core/map/embeddedQueryData.js';
@@ -17,7 +17,7 @@ import { checkMapSource } from '../../../src/core/map/mapData.js';
 import { quickLayout } from '../../../src/core/map/quickLayout.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { findTopics } from '../../../src/core/topics/topics.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
 
 const adi = loadCollection('adi');
 /** A file of words found nowhere else: pruning keeps none of them, so it has no concept vector. */
@@ -34,11 +34,11 @@ interface Reference {
 
 function build(): Reference {
   const b = new IndexBuilder();
-  for (const d of [...adi!.docs, LONER]) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+  for (const d of [...adi.docs, LONER]) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
   const index = b.build();
   const terms = Array.from(index.model.keptIds, (id) => index.vocab.termOf(id));
   const model = new Set(terms);
-  const textOf = new Map([...adi!.docs, LONER].map((d) => [d.id, d.text]));
+  const textOf = new Map([...adi.docs, LONER].map((d) => [d.id, d.text]));
   const tf = index.paths().map((p) => {
     const m = new Map<string, number>();
     for (const t of tokenize(textOf.get(p)!)) if (model.has(t)) m.set(t, (m.get(t) ?? 0) + 1);
@@ -74,17 +74,17 @@ function weighted(r: Reference): Matrix {
   return a;
 }
 
-describe.skipIf(!adi)(`map source from an index ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('map source from an index', () => {
   const ref = adi ? build() : (null as unknown as Reference);
 
   it('lists every indexed file once, in path order, with its own concept vector and token count', () => {
     const s = mapSourceFromIndex(ref.index, null);
     checkMapSource(s);
-    expect(s.count).toBe(adi!.docs.length + 1);
+    expect(s.count).toBe(adi.docs.length + 1);
     expect(s.paths).toEqual(ref.index.paths());
     s.paths.forEach((p, i) => {
       expect(Array.from(s.vectors.subarray(i * s.k, (i + 1) * s.k))).toEqual(Array.from(ref.index.vectorOf(p)));
-      expect(s.tokenCounts[i]).toBe(tokenize([...adi!.docs, LONER].find((d) => d.id === p)!.text).length);
+      expect(s.tokenCounts[i]).toBe(tokenize([...adi.docs, LONER].find((d) => d.id === p)!.text).length);
     });
     expect(s.topicLabels).toEqual([]);
     expect(Array.from(s.topicIds).every((t) => t === -1)).toBe(true);
@@ -116,7 +116,7 @@ describe.skipIf(!adi)(`map source from an index ${adi ? '' : missingMessage('cor
     }
     const nonEmpty = ref.tf.filter((m) => m.size > 0).length;
     expect(s.totalEnergy).toBeCloseTo(nonEmpty, 9);
-    expect(nonEmpty).toBe(adi!.docs.length);
+    expect(nonEmpty).toBe(adi.docs.length);
   });
 
   it('gives every topic member its topic and label, and files the topics left out -1', () => {
@@ -160,7 +160,7 @@ describe.skipIf(!adi)(`map source from an index ${adi ? '' : missingMessage('cor
       return Math.sign(dot);
     });
     let checked = 0;
-    for (const q of adi!.queries.slice(0, 12)) {
+    for (const q of adi.queries.slice(0, 12)) {
       const tf = new Map<string, number>();
       for (const t of tokenize(q.text)) if (ref.g.has(t)) tf.set(t, (tf.get(t) ?? 0) + 1);
       if (tf.size === 0) continue;

@@ -8,12 +8,12 @@ import { coordinateChunks } from '../../../src/core/matrix/matrixMarket.js';
 import { csrFromDense } from '../../../src/core/matrix/sparse.js';
 import { createRandom } from '../../../src/core/random.js';
 import { randomizedSvd, type SvdResult } from '../../../src/core/svd/randomizedSvd.js';
-import { weightedMatrix } from '../../../src/core/index/conceptModel.js';
-import { countTerms, Vocabulary } from '../../../src/core/index/termCounts.js';
+import { weightedMatrix } from '../../../src/core/index/model/conceptModel.js';
+import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { pruneVocabulary } from '../../../src/core/weighting/prune.js';
 import { globalWeights } from '../../../src/core/weighting/termWeighting.js';
-import { loadCollection, missingMessage, sharedPath } from '../../helpers/shared.js';
+import { fixturePath, loadCollection, referencePython } from '../../helpers/shared.js';
 
 function maxOrthoError(a: Float64Array, rows: number, k: number): number {
   let worst = 0;
@@ -47,9 +47,8 @@ function reconstruct(res: SvdResult): Float64Array {
 describe('randomizedSvd', () => {
   // Published check: Deerwester, Dumais, Furnas, Landauer & Harshman (1990), JASIS 41(6), the
   // 12-term × 9-document example, with singular values printed to 2 decimals in the paper.
-  const deerwesterFile = sharedPath('checks/deerwester1990.json');
-  it.skipIf(!deerwesterFile)(`matches the published singular values of Deerwester et al. 1990 ${deerwesterFile ? '' : missingMessage('checks/deerwester1990.json')}`, () => {
-    const check = JSON.parse(readFileSync(deerwesterFile!, 'utf8'));
+  it('matches the published singular values of Deerwester et al. 1990', () => {
+    const check = JSON.parse(readFileSync(fixturePath('checks/deerwester1990.json'), 'utf8'));
     const a: number[][] = check.matrix_terms_x_docs;
     const rows = a.length;
     const cols = a[0].length;
@@ -132,11 +131,11 @@ describe('randomizedSvd', () => {
     for (let i = 0; i < 6; i++) expect(Math.abs(a.s[i] - c.s[i]) / a.s[i]).toBeLessThan(0.01);
   });
 
-  // Real text: the first 300 CRAN abstracts (../shared/corpora/cran), log-entropy weighted.
+  // Real text: the first 300 CRAN abstracts (test/fixtures/corpora/cran), log-entropy weighted.
   const cran = loadCollection('cran');
-  it.skipIf(!cran)(`converges to within 1% of ml-matrix's dense SVD on the leading 30 singular values of a real term-document matrix ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+  it('converges to within 1% of ml-matrix\'s dense SVD on the leading 30 singular values of a real term-document matrix', () => {
     const vocab = new Vocabulary();
-    const docs = cran!.docs.slice(0, 300).map((d) => countTerms(tokenize(d.text), vocab, true));
+    const docs = cran.docs.slice(0, 300).map((d) => countTerms(tokenize(d.text), vocab, true));
     const pruned = pruneVocabulary(docs, vocab.size);
     const m = pruned.keptIds.length;
     const weights = globalWeights(docs, pruned.columnOf, m, 'log-entropy');
@@ -157,17 +156,15 @@ describe('randomizedSvd', () => {
 });
 
 // The shipped defaults against an exact solver on a whole real collection: CISI (1,460 abstracts,
-// ../shared/corpora/cisi), log-entropy weighted, k = 200, against scipy's ARPACK (svds) on the
+// test/fixtures/corpora/cisi), log-entropy weighted, k = 200, against scipy's ARPACK (svds) on the
 // same matrix written in Matrix Market form. The 1% bound on every one of the k values is the
 // project's accuracy target for the SVD.
-const PYTHON = '/usr/bin/python3';
-const scipyMissing = spawnSync(PYTHON, ['-c', 'import scipy.io, scipy.sparse.linalg'], { encoding: 'utf8' }).status !== 0;
 const cisi = loadCollection('cisi');
 describe('randomizedSvd with its default options', () => {
-  const why = !cisi ? missingMessage('corpora/cisi') : scipyMissing ? '(skipped: python3-scipy is not installed; scripts/bench-setup.sh installs it)' : '';
-  it.skipIf(!cisi || scipyMissing)(`keeps all 200 leading singular values of CISI within 1% of ARPACK ${why}`, () => {
+  it('keeps all 200 leading singular values of CISI within 1% of ARPACK', () => {
+    const python = referencePython();
     const vocab = new Vocabulary();
-    const docs = cisi!.docs.map((d) => countTerms(tokenize(d.text), vocab, true));
+    const docs = cisi.docs.map((d) => countTerms(tokenize(d.text), vocab, true));
     const pruned = pruneVocabulary(docs, vocab.size);
     const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
     const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
@@ -180,7 +177,7 @@ describe('randomizedSvd with its default options', () => {
         + 'a = scipy.io.mmread(sys.argv[1]).tocsr()\n'
         + 's = np.sort(svds(a, k=int(sys.argv[2]), random_state=0, return_singular_vectors=False))[::-1]\n'
         + 'print(json.dumps([float(x) for x in s]))';
-      const py = spawnSync(PYTHON, ['-c', script, join(dir, 'a.mtx'), String(k)], { encoding: 'utf8', maxBuffer: 1 << 24 });
+      const py = spawnSync(python, ['-c', script, join(dir, 'a.mtx'), String(k)], { encoding: 'utf8', maxBuffer: 1 << 24 });
       expect(py.status, py.stderr).toBe(0);
       const exact = JSON.parse(py.stdout) as number[];
       let worst = 0;

@@ -1,30 +1,27 @@
 /**
  * CUR on real term-document matrices: ADI (82 abstracts) and the first 500 CISI abstracts from
- * ../shared/corpora, weighted as the index weights them.
+ * test/fixtures/corpora, weighted as the index weights them.
  * References:
  * - best rank-k error ‖A − A_k‖_F from an exact eigen-decomposition of AAᵀ by ml-matrix (a
  *   general-purpose library), independent of our randomized SVD;
- * - PNAS bound (Mahoney & Drineas 2009, 106(3):697–702, as summarised in ../shared/notes/methods.md
- *   §4): with c = O(k log k/ε²) leverage-sampled columns and rows, ‖A − CUR‖_F ≤ (2 + ε)‖A − A_k‖_F
+ * - PNAS bound (Mahoney & Drineas 2009, 106(3):697–702): with c = O(k log k/ε²) leverage-sampled columns and rows, ‖A − CUR‖_F ≤ (2 + ε)‖A − A_k‖_F
  *   and, for the columns alone, ‖A − CC⁺A‖_F ≤ (1 + ε/2)‖A − A_k‖_F, each with probability ≈ 99%.
  *   The constant of the O(·) is Orange3's (c = k ln k/ε²); we require ≥ 95% of 40 seeds;
- * - DEIM-CUR bound (Sorensen & Embree 2016, SISC 38(3), Theorem 4.1 [M: as recalled; methods.md §4
- *   states it]): ‖A − CUR‖₂ ≤ (η_p + η_q)·σ_{k+1} with k picks per side, η = ‖V_k(p,:)⁻¹‖₂, checked
+ * - DEIM-CUR bound (Sorensen & Embree 2016, SISC 38(3), Theorem 4.1 [from memory]): ‖A − CUR‖₂ ≤ (η_p + η_q)·σ_{k+1} with k picks per side, η = ‖V_k(p,:)⁻¹‖₂, checked
  *   with exact singular vectors and a dense 2-norm from ml-matrix.
  */
 import { EigenvalueDecomposition, inverse, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { CsrMatrix } from '../../../src/core/matrix/sparse.js';
 import { randomizedSvd, type SvdResult } from '../../../src/core/svd/randomizedSvd.js';
 import { curDecomposition, type CurMethod } from '../../../src/core/topics/cur.js';
 import { curFactors } from '../../../src/core/topics/curMiddle.js';
 import { weightedMatrix } from '../../../src/core/topics/indexMatrix.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
 
-function corpusMatrix(name: string, limit: number): CsrMatrix | null {
+function corpusMatrix(name: string, limit: number): CsrMatrix {
   const col = loadCollection(name);
-  if (!col) return null;
   const b = new IndexBuilder({ k: 20 });
   for (const d of col.docs.slice(0, limit)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
   return weightedMatrix(b.build()).matrix;
@@ -50,15 +47,14 @@ const corpora = [
 ] as const;
 
 for (const { name, limit, settings } of corpora) {
-  const present = loadCollection(name) !== null;
-  describe.skipIf(!present)(`CUR on ${name.toUpperCase()} (${limit} documents) ${present ? '' : missingMessage(`corpora/${name}`)}`, () => {
+  describe(`CUR on ${name.toUpperCase()} (${limit} documents)`, () => {
     let a: CsrMatrix;
     let lambdas: number[];
     const svds = new Map<number, SvdResult>();
     const tail = (k: number) => Math.sqrt(lambdas.slice(k).reduce((s, x) => s + x, 0));
 
     beforeAll(() => {
-      a = corpusMatrix(name, limit)!;
+      a = corpusMatrix(name, limit);
       lambdas = squaredSingularValues(toDense(a));
       for (const k of [5, 10]) svds.set(k, randomizedSvd(a, { k, seed: 1 }));
     });
@@ -119,10 +115,9 @@ for (const { name, limit, settings } of corpora) {
   });
 }
 
-const adi = loadCollection('adi');
-describe.skipIf(!adi)(`DEIM-CUR bound on ADI ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('DEIM-CUR bound on ADI', () => {
   it('‖A − CUR‖₂ ≤ (η_p + η_q)·σ_{k+1} with exact singular vectors', () => {
-    const a = corpusMatrix('adi', 82)!;
+    const a = corpusMatrix('adi', 82);
     const dense = toDense(a);
     const svd = new SingularValueDecomposition(dense.transpose(), { autoTranspose: false }); // A = (Aᵀ)ᵀ: swap sides
     const r = Math.min(a.rows, a.cols);

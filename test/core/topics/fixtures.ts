@@ -1,10 +1,10 @@
 /** Shared test inputs for the topics tests: seeded bases, planted clusters, the demo workspace. */
-import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 import { Matrix, QrDecomposition } from 'ml-matrix';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import type { IndexSettings } from '../../../src/core/index/settings.js';
+import type { IndexSettings } from '../../../src/core/index/model/settings.js';
 import { createRandom } from '../../../src/core/random.js';
 import { REPO_ROOT } from '../../helpers/shared.js';
 
@@ -70,11 +70,10 @@ export interface DemoTopic {
   readonly files: readonly string[];
 }
 
-/** The demo workspace (demo/workspace) as an index, with its answer key; null when absent. */
-export function loadDemo(settings: Partial<IndexSettings> = {}): { index: LsiIndex; texts: Map<string, string>; topics: DemoTopic[]; unassigned: string[] } | null {
+/** The demo workspace (demo/workspace) as an index, with its answer key. */
+export function loadDemo(settings: Partial<IndexSettings> = {}): { index: LsiIndex; texts: Map<string, string>; topics: DemoTopic[]; unassigned: string[] } {
   const root = join(REPO_ROOT, 'demo', 'workspace');
   const key = join(REPO_ROOT, 'demo', 'expectations.json');
-  if (!existsSync(root) || !existsSync(key)) return null;
   const walk = (dir: string): string[] => readdirSync(dir).flatMap((n) => (statSync(join(dir, n)).isDirectory() ? walk(join(dir, n)) : [join(dir, n)]));
   const builder = new IndexBuilder(settings);
   const texts = new Map<string, string>();

@@ -2,20 +2,20 @@
  * The index's weighted matrix and its leading factors. References: an exact dense SVD of the
  * same matrix by ml-matrix (singular values and vectors), and the index's own stored document
  * vectors (for α = 1 each is U_kᵀd̂ normalised, which must equal the normalised row of M·V_k).
- * Text: ADI abstracts from ../shared/corpora.
+ * Text: ADI abstracts from test/fixtures/corpora.
  */
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { leadingFactors, weightedMatrix } from '../../../src/core/topics/indexMatrix.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
 
 const adi = loadCollection('adi');
 
-describe.skipIf(!adi)(`index matrix and leading factors ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('index matrix and leading factors', () => {
   const build = () => {
     const b = new IndexBuilder();
-    for (const d of adi!.docs) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    for (const d of adi.docs) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     return b.build();
   };
 

@@ -46,7 +46,7 @@ describe('leverage scores', () => {
   });
 
   it('use the published sample size c = k·ln k/ε², with ln k floored at 1 so k = 1 still selects', () => {
-    // Orange3 cur.py uses c = k·ln k/ε² (methods.md §4); k = 10, ε = 1 → ⌈23.03⌉ = 24.
+    // Orange3 cur.py uses c = k·ln k/ε² (Orange/projection/cur.py, from its source); k = 10, ε = 1 → ⌈23.03⌉ = 24.
     expect(sampleSize(10, 1)).toBe(24);
     expect(sampleSize(10, 0.5)).toBe(93);
     expect(sampleSize(1, 1)).toBe(1);

@@ -1,17 +1,17 @@
 /**
  * Topics of a whole index. References: the demo workspace's answer key (demo/expectations.json,
  * six planted topics with their files and keywords), scored by the adjusted Rand index (Hubert &
- * Arabie 1985) and purity; real text from ../shared/corpora (CISI) for the partition properties.
+ * Arabie 1985) and purity; real text from test/fixtures/corpora (CISI) for the partition properties.
  * Floors are our choice, set below what the default settings reached on the demo when measured
  * over nine seeds (automatic count: 7–8 topics, ARI 0.76–0.81, purity 0.90–0.96; six topics
  * given: ARI 0.79–0.96), so that a real regression, not seed noise, fails.
  */
 import { describe, expect, it } from 'vitest';
 import { EmptyCorpusError, InvalidInputError } from '../../../src/core/errors.js';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { stemWord } from '../../../src/core/text/tokenize.js';
 import { findTopics, type TopicsReport } from '../../../src/core/topics/topics.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
 import { adjustedRandIndex, loadDemo } from './fixtures.js';
 
 const demo = loadDemo();
@@ -41,63 +41,63 @@ function scores(report: TopicsReport, planted: { files: readonly string[] }[]) {
   };
 }
 
-describe.skipIf(!demo)(`topics of the demo workspace ${demo ? '' : '(skipped: demo/workspace or demo/expectations.json missing)'}`, () => {
+describe('topics of the demo workspace', () => {
   for (const seed of [undefined, 1, 2]) {
     it(`brings out every planted topic when the count is chosen automatically (seed ${seed ?? 'default'})`, () => {
-      const report = findTopics(demo!.index, { seed });
-      const s = scores(report, demo!.topics);
+      const report = findTopics(demo.index, { seed });
+      const s = scores(report, demo.topics);
       console.log(`demo, automatic count: ${report.topics.length} topics, ARI ${s.ari.toFixed(3)}, purity ${s.purity.toFixed(3)}, CUR error ratio ${report.cur.errorRatio?.toFixed(3)}`);
       expect(report.count.chosen).toBe('auto');
-      expect(report.topics.length).toBeGreaterThanOrEqual(demo!.topics.length);
-      expect(report.topics.length).toBeLessThanOrEqual(demo!.topics.length + 3);
-      expect(s.recovered).toBe(demo!.topics.length); // each planted topic is the majority of some topic
+      expect(report.topics.length).toBeGreaterThanOrEqual(demo.topics.length);
+      expect(report.topics.length).toBeLessThanOrEqual(demo.topics.length + 3);
+      expect(s.recovered).toBe(demo.topics.length); // each planted topic is the majority of some topic
       expect(s.purity).toBeGreaterThanOrEqual(0.85);
       expect(s.ari).toBeGreaterThanOrEqual(0.6);
     });
   }
 
   it('matches the planted topics closely when told how many there are', () => {
-    const report = findTopics(demo!.index, { topics: demo!.topics.length });
-    const s = scores(report, demo!.topics);
+    const report = findTopics(demo.index, { topics: demo.topics.length });
+    const s = scores(report, demo.topics);
     console.log(`demo, 6 topics: ARI ${s.ari.toFixed(3)}, purity ${s.purity.toFixed(3)}`);
-    expect(report.topics).toHaveLength(demo!.topics.length);
+    expect(report.topics).toHaveLength(demo.topics.length);
     expect(report.count.chosen).toBe('given');
     expect(s.ari).toBeGreaterThanOrEqual(0.7);
   });
 
   it('names each planted topic with one of its planted keywords and shows its own files', () => {
-    const report = findTopics(demo!.index, { topics: demo!.topics.length });
-    const s = scores(report, demo!.topics);
+    const report = findTopics(demo.index, { topics: demo.topics.length });
+    const s = scores(report, demo.topics);
     let named = 0;
     for (const t of report.topics) {
-      const planted = demo!.topics[s.majorityOf.get(t.id)!];
+      const planted = demo.topics[s.majorityOf.get(t.id)!];
       const keywords = planted.keywords.filter((k) => !k.includes(' ')).map((k) => stemWord(k.toLowerCase()));
       if (t.terms.some((x) => keywords.includes(x.term))) named++;
       for (const f of t.files) expect(t.members).toContain(f.path);
       expect(t.terms.length).toBe(8);
       expect(t.files.length).toBe(5);
     }
-    expect(named).toBeGreaterThanOrEqual(demo!.topics.length - 1);
+    expect(named).toBeGreaterThanOrEqual(demo.topics.length - 1);
     expect(report.topics.some((t) => t.terms.some((x) => x.picked))).toBe(true);
     expect(report.topics.some((t) => t.files.some((x) => x.picked))).toBe(true);
   });
 
   it('gives the same topics for the same seed', () => {
-    expect(findTopics(demo!.index, { seed: 5 })).toEqual(findTopics(demo!.index, { seed: 5 }));
+    expect(findTopics(demo.index, { seed: 5 })).toEqual(findTopics(demo.index, { seed: 5 }));
   });
 
   it('lists every file once: in one topic or among the unplaced', () => {
-    const report = findTopics(demo!.index);
+    const report = findTopics(demo.index);
     const all = [...report.topics.flatMap((t) => t.members), ...report.unplaced].sort();
-    expect(all).toEqual(demo!.index.paths().slice().sort());
+    expect(all).toEqual(demo.index.paths().slice().sort());
   });
 });
 
 const cisi = loadCollection('cisi');
-describe.skipIf(!cisi)(`topics of real abstracts (CISI) ${cisi ? '' : missingMessage('corpora/cisi')}`, () => {
+describe('topics of real abstracts (CISI)', () => {
   it('splits 400 abstracts into the number of topics asked for, largest first, each described', () => {
     const b = new IndexBuilder({ k: 40 });
-    for (const d of cisi!.docs.slice(0, 400)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    for (const d of cisi.docs.slice(0, 400)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const report = findTopics(b.build(), { topics: 8 });
     expect(report.topics).toHaveLength(8);
     expect(report.topics.reduce((s, t) => s + t.size, 0) + report.unplaced.length).toBe(400);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { countTerms, Vocabulary } from '../../../src/core/index/termCounts.js';
+import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { pruneVocabulary } from '../../../src/core/weighting/prune.js';
 import { globalWeights, weightDocument } from '../../../src/core/weighting/termWeighting.js';
 

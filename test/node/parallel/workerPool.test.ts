@@ -8,16 +8,16 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
-import { modelMatrix } from '../../../src/core/index/conceptModel.js';
-import { countTerms, Vocabulary } from '../../../src/core/index/termCounts.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
+import { modelMatrix } from '../../../src/core/index/model/conceptModel.js';
+import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { serialExecutor } from '../../../src/core/matrix/executor.js';
 import { randomizedSvd } from '../../../src/core/svd/randomizedSvd.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { countFilesInParallel } from '../../../src/node/parallel/parallelCount.js';
 import { countFilesSorted } from '../../../src/node/parallel/sortedCount.js';
 import { WorkerPool } from '../../../src/node/parallel/workerPool.js';
-import { loadCollection, missingMessage, REPO_ROOT } from '../../helpers/shared.js';
+import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 
 const cisi = loadCollection('cisi');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-pool-'));
@@ -36,14 +36,14 @@ afterAll(async () => {
 
 const bagOf = (vocab: Vocabulary, ids: Int32Array, counts: Float32Array): Map<string, number> => new Map(Array.from(ids, (id, i) => [vocab.termOf(id), counts[i]]));
 
-describe.skipIf(!cisi)(`worker pool ${cisi ? '' : missingMessage('corpora/cisi')}`, () => {
+describe('worker pool', () => {
   it('starts no threads when one thread is asked for', () => {
     expect(WorkerPool.start({ threads: 1, workerScript })).toBeUndefined();
   });
 
   it('computes the SVD on two threads with the same bits as on one', () => {
     const builder = new IndexBuilder({ k: 60 });
-    for (const d of cisi!.docs.slice(0, 800)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    for (const d of cisi.docs.slice(0, 800)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = builder.build({ executor: serialExecutor });
     const m = modelMatrix(index.model, index.slots().map((s) => s!.terms));
     const one = randomizedSvd(m, { k: 60, executor: serialExecutor });
@@ -61,7 +61,7 @@ describe.skipIf(!cisi)(`worker pool ${cisi ? '' : missingMessage('corpora/cisi')
   it('reads and counts files on threads exactly as tokenize + countTerms do, and reports odd files', async () => {
     const dir = join(tmp, 'files');
     mkdirSync(dir, { recursive: true });
-    const docs = cisi!.docs.slice(0, 300);
+    const docs = cisi.docs.slice(0, 300);
     const jobs = docs.map((d, i) => {
       const p = join(dir, `${i}.txt`);
       writeFileSync(p, i % 7 === 0 ? `Ünïcödé ${d.text} naïve café` : d.text);

@@ -1,18 +1,18 @@
 import { describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { prepareInBackground, WARM_UP_SEARCHES } from '../../../src/node/worker/backgroundPrepare.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
 
-// ADI (../shared/corpora/adi, 82 abstracts): a real small index to prepare.
+// ADI (test/fixtures/corpora/adi, 82 abstracts): a real small index to prepare.
 const adi = loadCollection('adi');
 
 function adiIndex() {
   const b = new IndexBuilder({ k: 20 });
-  for (const d of adi!.docs) b.addText({ path: `${d.id}.txt`, size: d.text.length, mtimeMs: 0 }, d.text);
+  for (const d of adi.docs) b.addText({ path: `${d.id}.txt`, size: d.text.length, mtimeMs: 0 }, d.text);
   return b.build();
 }
 
-describe.skipIf(!adi)(`prepareInBackground ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('prepareInBackground', () => {
   it('prepares the index in slices between pauses, then runs its warm-up searches, and resolves true', async () => {
     const index = adiIndex();
     let pauses = 0;
@@ -31,6 +31,6 @@ describe.skipIf(!adi)(`prepareInBackground ${adi ? '' : missingMessage('corpora/
     controller.abort();
     held.splice(0).forEach((go) => go());
     expect(await done).toBe(false);
-    expect(index.search(adi!.queries[0].text, { top: 5 }).length).toBe(5);
+    expect(index.search(adi.queries[0].text, { top: 5 }).length).toBe(5);
   });
 });

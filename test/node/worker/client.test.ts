@@ -2,7 +2,7 @@ import { MessageChannel } from 'node:worker_threads';
 import { afterEach, describe, expect, it } from 'vitest';
 import { CancelledError } from '../../../src/core/errors.js';
 import { isCancelled, WorkerClient, WorkerGoneError, type PortLike } from '../../../src/node/worker/client.js';
-import type { Progress } from '../../../src/node/worker/protocol.js';
+import type { Progress } from '../../../src/node/worker/workerProtocol.js';
 import { serve, type Handlers } from '../../../src/node/worker/server.js';
 
 // Client and server over an in-process MessageChannel: the same structured-clone path a worker

@@ -4,11 +4,11 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { loadIndex } from '../../../src/node/persist.js';
 import { IndexService } from '../../../src/node/worker/indexService.js';
-import type { WorkerConfig } from '../../../src/node/worker/protocol.js';
+import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import type { HandlerContext } from '../../../src/node/worker/server.js';
-import { loadCollection, missingMessage } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
 
-// A folder made of the CISI collection (../shared/corpora/cisi: 1460 abstracts, 112 queries).
+// A folder made of the CISI collection (test/fixtures/corpora/cisi: 1460 abstracts, 112 queries).
 const cisi = loadCollection('cisi');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-service-'));
 afterAll(() => rmSync(tmp, { recursive: true, force: true }));
@@ -27,7 +27,7 @@ function gate() {
   };
 }
 
-describe.skipIf(!cisi)(`IndexService background preparation ${cisi ? '' : missingMessage('corpora/cisi')}`, () => {
+describe('IndexService background preparation', () => {
   const folder = join(tmp, 'ws');
   const config: WorkerConfig = {
     roots: [{ name: 'ws', path: folder, exclude: [] }],
@@ -41,7 +41,7 @@ describe.skipIf(!cisi)(`IndexService background preparation ${cisi ? '' : missin
 
   it('answers a search at once while preparing, the same as an index never prepared, and prepares between requests', async () => {
     mkdirSync(folder, { recursive: true });
-    for (const d of cisi!.docs) writeFileSync(join(folder, `${d.id}.txt`), d.text);
+    for (const d of cisi.docs) writeFileSync(join(folder, `${d.id}.txt`), d.text);
     const builder = new IndexService({ preparePause: gate().pause }); // its preparation never runs
     builder.configure(config);
     await builder.build(ctx);
@@ -55,7 +55,7 @@ describe.skipIf(!cisi)(`IndexService background preparation ${cisi ? '' : missin
     void preparing.then(() => (prepared = true));
     const reference = await loadIndex(config.indexFile);
     if (reference.status !== 'ok') throw new Error('the saved index did not load');
-    const queries = cisi!.queries.slice(0, 6).map((q) => q.text);
+    const queries = cisi.queries.slice(0, 6).map((q) => q.text);
 
     // Searches while no slice may run: answered, not held back behind the preparation.
     for (const q of queries.slice(0, 3)) {

@@ -4,13 +4,13 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { isCancelled, WorkerClient } from '../../../src/node/worker/client.js';
-import type { WorkerConfig } from '../../../src/node/worker/protocol.js';
-import { loadCollection, missingMessage, REPO_ROOT } from '../../helpers/shared.js';
+import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
+import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 
 // A real worker thread running the bundled worker entry, over a folder made of the ADI
-// collection (../shared/corpora/adi: 82 abstracts, 35 queries with relevance judgements).
+// collection (test/fixtures/corpora/adi: 82 abstracts, 35 queries with relevance judgements).
 const adi = loadCollection('adi');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-worker-'));
 const workerJs = join(tmp, 'indexWorker.js');
@@ -47,7 +47,7 @@ describe('shared cancel flag in a real thread', () => {
   });
 });
 
-describe.skipIf(!adi)(`index worker round trip ${adi ? '' : missingMessage('corpora/adi')}`, () => {
+describe('index worker round trip', () => {
   const docs = adi ? adi.docs : [];
   const config = (over: Partial<WorkerConfig> = {}): WorkerConfig => ({
     roots: [{ name: 'ws', path: folder, exclude: [] }],
@@ -81,7 +81,7 @@ describe.skipIf(!adi)(`index worker round trip ${adi ? '' : missingMessage('corp
     const local = new IndexBuilder();
     for (const d of docs) local.addText({ path: `docs/${d.id}.txt`, size: 0, mtimeMs: 0 }, text(d.id));
     const index = local.build();
-    for (const q of adi!.queries.slice(0, 5)) {
+    for (const q of adi.queries.slice(0, 5)) {
       const viaWorker = await client.request('search', { query: q.text, top: 5 });
       const direct = index.search(q.text, { top: 5 });
       expect(viaWorker.map((h) => h.key)).toEqual(direct.map((h) => h.path));
@@ -142,12 +142,12 @@ describe.skipIf(!adi)(`index worker round trip ${adi ? '' : missingMessage('corp
     await client.request('configure', { config: config() });
     await client.request('load', {});
     const before = readFileSync(config().indexFile);
-    const answerBefore = await client.request('search', { query: adi!.queries[0].text, top: 3 });
+    const answerBefore = await client.request('search', { query: adi.queries[0].text, top: 3 });
     const controller = new AbortController();
     const pending = client.request('build', {}, { signal: controller.signal, onProgress: () => controller.abort() });
     expect(isCancelled(await pending.catch((e: unknown) => e))).toBe(true);
     expect(readFileSync(config().indexFile).equals(before)).toBe(true);
-    expect(await client.request('search', { query: adi!.queries[0].text, top: 3 })).toEqual(answerBefore);
+    expect(await client.request('search', { query: adi.queries[0].text, top: 3 })).toEqual(answerBefore);
   });
 
   it('indexes several folders as one, with keys prefixed by folder name', async () => {

@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pageDataProblems } from '../../../src/core/map/mapData.js';
 import { stemWord } from '../../../src/core/text/tokenize.js';
 import { IndexService } from '../../../src/node/worker/indexService.js';
-import type { FileRef, WorkerConfig } from '../../../src/node/worker/protocol.js';
+import type { FileRef, WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import type { HandlerContext } from '../../../src/node/worker/server.js';
 import { REPO_ROOT } from '../../helpers/shared.js';
 

@@ -3,14 +3,14 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { IndexBuilder } from '../../../src/core/index/indexBuilder.js';
-import type { WorkerConfig } from '../../../src/node/worker/protocol.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
+import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import { WorkerPool } from '../../../src/node/parallel/workerPool.js';
 import { RootMap } from '../../../src/node/worker/rootMap.js';
 import { buildWorkspaceIndex } from '../../../src/node/worker/workspaceIndexer.js';
-import { loadCollection, missingMessage, REPO_ROOT } from '../../helpers/shared.js';
+import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 
-// Real text: 300 CRAN abstracts (../shared/corpora/cran) split over two workspace folders.
+// Real text: 300 CRAN abstracts (test/fixtures/corpora/cran) split over two workspace folders.
 const cran = loadCollection('cran');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-wsindex-'));
 const docs = cran ? cran.docs.slice(0, 300) : [];
@@ -32,7 +32,7 @@ afterAll(() => {
   rmSync(tmp, { recursive: true, force: true });
 });
 
-describe.skipIf(!cran)(`buildWorkspaceIndex ${cran ? '' : missingMessage('corpora/cran')}`, () => {
+describe('buildWorkspaceIndex', () => {
   const roots = new RootMap(folders.map((p, i) => ({ name: ['alpha', 'beta'][i], path: p, exclude: [] })));
   const config: WorkerConfig = {
     roots: roots.roots, indexFile: join(tmp, 'unused'), settings: {}, include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,

@@ -1,0 +1,225 @@
+/**
+ * The frozen concept model of a build: pruned vocabulary, global term weights, the term factor
+ * U_k and singular values Σ_k of the weighted term-document matrix (latent semantic indexing,
+ * Deerwester et al. 1990), and the projection ("folding-in", Berry, Dumais & O'Brien 1995) of any
+ * document or query into the k-dimensional concept space with those frozen weights.
+ */
+import { CancelledError, EmptyCorpusError } from '../../errors.js';
+import { serialExecutor, type MatrixExecutor } from '../../matrix/executor.js';
+import { copyCsr, type CsrMatrix } from '../../matrix/sparse.js';
+import { createWasmExecutor } from '../../matrix/wasm/wasmExecutor.js';
+import { chooseK, type ChosenK } from '../../svd/chooseK.js';
+import { randomizedSvd } from '../../svd/randomizedSvd.js';
+import { pruneVocabulary } from '../../weighting/prune.js';
+import { globalWeights, weightDocument, type WeightingScheme } from '../../weighting/termWeighting.js';
+import type { IndexSettings } from './settings.js';
+import type { DocTerms } from '../../counting/termCounts.js';
+
+export interface ConceptModel {
+  readonly scheme: WeightingScheme;
+  readonly k: number;
+  readonly kChoice: ChosenK;
+  /** Model column → vocabulary id (ascending). */
+  readonly keptIds: Int32Array;
+  /** Vocabulary id → model column or -1; ids beyond its length are unknown to the model. */
+  readonly columnOf: Int32Array;
+  /** Global weight per model column. */
+  readonly weights: Float64Array;
+  /** U_k: one row of k numbers per model column. */
+  readonly termVectors: Float32Array;
+  readonly singularValues: Float64Array;
+  /** Σ_k^{α-1}, the per-axis factor applied to U_kᵀx (α = conceptScaling). */
+  readonly axisScale: Float64Array;
+  /** ‖A‖²_F of the weighted, normalised matrix (the number of non-empty documents). */
+  readonly frobeniusSquared: number;
+  /** Mean share of a build document's weighted vector lying outside span(U_k). */
+  readonly residualMean: number;
+  /** Stored entries of the weighted term-document matrix at build time. */
+  readonly nonZeros: number;
+  /** True when pruning thresholds were relaxed (tiny collections). */
+  readonly pruneRelaxed: boolean;
+}
+
+export interface Projection {
+  /** Unit concept vector (all zeros when the text has no model term). */
+  readonly vector: Float32Array;
+  /** 1 − ‖U_kᵀd̂‖² for the unit weighted vector d̂: the part the concept space cannot see. */
+  readonly residual: number;
+  /** Number of model terms present. */
+  readonly knownTerms: number;
+}
+
+export interface BuildProgress {
+  onProgress?: (stage: 'weighting' | 'svd', done: number, total: number) => void;
+  signal?: { readonly aborted: boolean };
+  /** Runs the SVD's large products (threads from src/node; default: this thread). */
+  executor?: MatrixExecutor;
+}
+
+export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, settings: IndexSettings, progress: BuildProgress = {}): ConceptModel {
+  return buildModelAndMatrix(docs, vocabSize, settings, progress).model;
+}
+
+/**
+ * The model and the unit concept vector of every document, exactly as projectTerms would give
+ * them one by one (rows of a k-wide block, in document order), computed as one sparse product.
+ */
+export function buildConceptModelAndVectors(
+  docs: readonly DocTerms[],
+  vocabSize: number,
+  settings: IndexSettings,
+  progress: BuildProgress = {},
+): { model: ConceptModel; vectors: Float32Array } {
+  const { model, matrix } = buildModelAndMatrix(docs, vocabSize, settings, progress);
+  return { model, vectors: projectMatrixRows(model, matrix, progress.executor) };
+}
+
+function buildModelAndMatrix(docs: readonly DocTerms[], vocabSize: number, settings: IndexSettings, progress: BuildProgress): { model: ConceptModel; matrix: CsrMatrix } {
+  if (docs.length === 0) throw new EmptyCorpusError('There are no files to index.');
+  const pruned = pruneVocabulary(docs, vocabSize, settings.prune);
+  const m = pruned.keptIds.length;
+  if (m === 0) throw new EmptyCorpusError('The files contain no indexable words.');
+  progress.onProgress?.('weighting', 0, 1);
+  const weights = globalWeights(docs, pruned.columnOf, m, settings.weighting);
+  const { matrix, frobeniusSquared: frob } = weightedMatrix(docs, pruned.columnOf, weights, settings.weighting);
+  const { indptr } = matrix;
+  const nnz = matrix.indices.length;
+  if (nnz === 0) throw new EmptyCorpusError('After weighting, no file has an indexable word.');
+  progress.onProgress?.('weighting', 1, 1);
+  if (progress.signal?.aborted) throw new CancelledError();
+
+  const kChoice = chooseK(settings.k, docs.length, m);
+  const svd = randomizedSvd(matrix, {
+    k: kChoice.k,
+    seed: settings.seed,
+    powerIterations: settings.powerIterations,
+    signal: progress.signal,
+    executor: progress.executor,
+    onProgress: (done, total) => progress.onProgress?.('svd', done, total),
+    // The model stores f32 term vectors: rounding on the way out of the executor's memory saves
+    // the f64 copy at the build's memory peak.
+    factors: 'f32',
+  });
+  const k = svd.k;
+  const termVectors = svd.v;
+  const axisScale = Float64Array.from(svd.s, (s) => (s > 0 ? Math.pow(s, settings.conceptScaling - 1) : 0));
+  // Residual of build documents: ‖U_kᵀd̂‖² = Σ_c (σ_c v_ic)² for a unit row d̂ of the matrix.
+  let residualSum = 0;
+  let counted = 0;
+  for (let i = 0; i < docs.length; i++) {
+    if (indptr[i + 1] === indptr[i]) continue;
+    let inside = 0;
+    for (let c = 0; c < k; c++) inside += (svd.s[c] * svd.u[i * k + c]) ** 2;
+    residualSum += Math.max(0, 1 - inside);
+    counted++;
+  }
+  const model: ConceptModel = {
+    scheme: settings.weighting,
+    k,
+    kChoice,
+    keptIds: pruned.keptIds,
+    columnOf: pruned.columnOf,
+    weights,
+    termVectors,
+    singularValues: svd.s,
+    axisScale,
+    frobeniusSquared: frob,
+    residualMean: counted > 0 ? residualSum / counted : 0,
+    pruneRelaxed: pruned.relaxed,
+    nonZeros: nnz,
+  };
+  return { model, matrix };
+}
+
+/**
+ * projectTerms(model, row).vector for every row of a weighted matrix built with the model's
+ * weights: U_kᵀd̂ by the executor's sequential sparse product (each row adds its terms one at a
+ * time, in order, as projectTerms does, so the bits agree), then the same axis scaling and
+ * normalisation.
+ */
+export function projectMatrixRows(model: ConceptModel, matrix: CsrMatrix, executor?: MatrixExecutor): Float32Array {
+  const ex = executor ?? createWasmExecutor() ?? serialExecutor;
+  const run = (): Float32Array => {
+    const k = model.k;
+    const n = matrix.rows;
+    const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
+    const tv = ex.float64(model.termVectors.length);
+    tv.set(model.termVectors);
+    const acc = ex.float64(n * k);
+    ex.spmm(m, tv, k, acc, true);
+    const out = new Float32Array(n * k);
+    const row = new Float64Array(k);
+    for (let i = 0; i < n; i++) {
+      let ss = 0;
+      for (let c = 0; c < k; c++) {
+        row[c] = acc[i * k + c] * model.axisScale[c];
+        ss += row[c] * row[c];
+      }
+      const norm = Math.sqrt(ss);
+      if (norm > 0) for (let c = 0; c < k; c++) out[i * k + c] = row[c] / norm;
+    }
+    return out;
+  };
+  return ex.scoped ? ex.scoped(run) : run();
+}
+
+/**
+ * The weighted, document-normalised matrix in document-major CSR form (row i = document i,
+ * column c = model column c): the transpose of the term-document matrix A.
+ */
+export function weightedMatrix(
+  docs: readonly DocTerms[],
+  columnOf: Int32Array,
+  weights: Float64Array,
+  scheme: WeightingScheme,
+): { matrix: CsrMatrix; frobeniusSquared: number } {
+  const rowsIdx: Int32Array[] = [];
+  const rowsVal: Float64Array[] = [];
+  let nnz = 0;
+  for (const d of docs) {
+    const w = weightDocument(d, columnOf, weights, scheme);
+    rowsIdx.push(w.columns);
+    rowsVal.push(w.values);
+    nnz += w.columns.length;
+  }
+  const indptr = new Int32Array(docs.length + 1);
+  const indices = new Int32Array(nnz);
+  const values = new Float64Array(nnz);
+  let frob = 0;
+  for (let i = 0, p = 0; i < docs.length; i++) {
+    indices.set(rowsIdx[i], p);
+    values.set(rowsVal[i], p);
+    p += rowsIdx[i].length;
+    indptr[i + 1] = p;
+    for (const v of rowsVal[i]) frob += v * v;
+  }
+  return { matrix: { rows: docs.length, cols: weights.length, indptr, indices, values }, frobeniusSquared: frob };
+}
+
+/** The weighted matrix of an index's current documents under its frozen model (holes skipped). */
+export function modelMatrix(model: ConceptModel, docs: readonly DocTerms[]): CsrMatrix {
+  return weightedMatrix(docs, model.columnOf, model.weights, model.scheme).matrix;
+}
+
+/** Folds a document or query into the concept space with the model's frozen weights. */
+export function projectTerms(model: ConceptModel, terms: DocTerms): Projection {
+  const w = weightDocument(terms, model.columnOf, model.weights, model.scheme);
+  const k = model.k;
+  const acc = new Float64Array(k);
+  for (let i = 0; i < w.columns.length; i++) {
+    const v = w.values[i];
+    const o = w.columns[i] * k;
+    for (let c = 0; c < k; c++) acc[c] += v * model.termVectors[o + c];
+  }
+  let inside = 0;
+  for (let c = 0; c < k; c++) inside += acc[c] * acc[c];
+  let ss = 0;
+  for (let c = 0; c < k; c++) {
+    acc[c] *= model.axisScale[c];
+    ss += acc[c] * acc[c];
+  }
+  const norm = Math.sqrt(ss);
+  const vector = new Float32Array(k);
+  if (norm > 0) for (let c = 0; c < k; c++) vector[c] = acc[c] / norm;
+  return { vector, residual: w.columns.length > 0 ? Math.max(0, 1 - inside) : 1, knownTerms: w.columns.length };
+}

@@ -1,0 +1,235 @@
+/**
+ * An 8-bit copy of the concept vectors for screening: row j is stored as codes c_j ∈ [−127, 127]
+ * with one scale s_j = max|v_j|/127 (symmetric per-row quantisation, common practice), together
+ * with e_j = ‖v_j − s_j c_j‖₂ rounded up. For a query q the products v_j·q then lie within
+ * center_j ± radius_j, where center_j = s_j (c_j·q) and radius_j = e_j‖q‖₂ (Cauchy–Schwarz) plus
+ * the f32 rounding of the kernel's sum (Higham 2002, §3.1: γ_k Σ|c_i q_i| ≤ γ_k·127·‖q‖₁), so
+ * rows whose bound cannot reach a top place need no exact product. Reads a quarter of the bytes
+ * of the f32 rows. Only available with WebAssembly SIMD (../matrix/wasm/codeDotKernel.ts).
+ * Memory layout: [16 bytes][query, k f32][codes, capacity × k i8][sums, capacity f64].
+ */
+import { codeDotModule, instantiateCodeDots, type CodeDotKernelExports } from '../../matrix/wasm/codeDotKernel.js';
+
+const PAGE = 65536;
+const WASM_LIMIT = 2 ** 32;
+/** Bytes reserved (the maximum) of each memory made here. */
+const RESERVED = new WeakMap<WebAssembly.Memory, number>();
+const align16 = (bytes: number): number => Math.ceil(bytes / 16) * 16;
+/** Unit roundoff of f32 (2^−24). */
+const U32 = 2 ** -24;
+/** Relative slack that covers the f64 rounding of the bound arithmetic itself (generous). */
+const SLACK = 1e-9;
+/** Rows coded by one step of fill (a look at the caller's budget after each). */
+const FILL_ROWS = 512;
+
+export class ConceptCodes {
+  private _memory: WebAssembly.Memory;
+  private _kernel: CodeDotKernelExports;
+  private _capacity = 0;
+  private _filled = 0;
+  private _codes: Int8Array = new Int8Array(0);
+  private _query!: Float32Array;
+  private _sums: Float64Array = new Float64Array(0);
+  private _scales: Float64Array = new Float64Array(0);
+  private _errors: Float64Array = new Float64Array(0);
+  private _center = new Float64Array(0);
+  private _radius = new Float64Array(0);
+
+  /** The codes of a block, or null where WebAssembly SIMD or memory is not available. */
+  static create(k: number, capacity: number, rows: Float32Array, n: number): ConceptCodes | null {
+    const codes = ConceptCodes.empty(k, capacity);
+    codes?.fill(rows, n, () => true);
+    return codes;
+  }
+
+  /** Zero codes for capacity rows (fill them with setRows), or null as for create. */
+  static empty(k: number, capacity: number): ConceptCodes | null {
+    const module = k > 0 ? codeDotModule() : null;
+    if (!module || ConceptCodes.bytesFor(k, capacity) > WASM_LIMIT) return null;
+    try {
+      const memory = ConceptCodes.memoryFor(ConceptCodes.bytesFor(k, capacity));
+      const codes = new ConceptCodes(k, memory, instantiateCodeDots(module, memory), module);
+      codes.ensureCapacity(capacity);
+      return codes;
+    } catch {
+      return null;
+    }
+  }
+
+  private constructor(
+    readonly k: number,
+    memory: WebAssembly.Memory,
+    kernel: CodeDotKernelExports,
+    private readonly _module: WebAssembly.Module,
+  ) {
+    this._memory = memory;
+    this._kernel = kernel;
+  }
+
+  /** Rows [0, filled) have been coded by fill (or setRow at the end of them). */
+  get filled(): number {
+    return this._filled;
+  }
+
+  /** Codes rows [filled, n) of the block, FILL_ROWS at a time while more() says so (at least once); true when done. */
+  fill(rows: Float32Array, n: number, more: () => boolean): boolean {
+    for (;;) {
+      const to = Math.min(n, this._filled + FILL_ROWS);
+      this.setRows(rows, this._filled, to);
+      this._filled = Math.max(this._filled, to);
+      if (to >= n) return true;
+      if (!more()) return false;
+    }
+  }
+
+  setRow(slot: number, v: ArrayLike<number>): void {
+    if (slot === this._filled) this._filled++;
+    const k = this.k;
+    let max = 0;
+    for (let c = 0; c < k; c++) max = Math.max(max, Math.abs(v[c]));
+    const s = max / 127;
+    let err = 0;
+    for (let c = 0; c < k; c++) {
+      const code = s > 0 ? Math.max(-127, Math.min(127, Math.round(v[c] / s))) : 0;
+      this._codes[slot * k + c] = code;
+      const d = v[c] - s * code;
+      err += d * d;
+    }
+    this._scales[slot] = s;
+    this._errors[slot] = Math.sqrt(err) * (1 + SLACK) + Number.MIN_VALUE;
+  }
+
+  /** setRow for rows [from, to) of a row-major block (k numbers a row): the same codes, one tight loop. */
+  setRows(rows: Float32Array, from: number, to: number): void {
+    codeRows(rows, this.k, from, to, this._codes, this._scales, this._errors);
+  }
+
+  clearRow(slot: number): void {
+    this._codes.fill(0, slot * this.k, (slot + 1) * this.k);
+    this._scales[slot] = 0;
+    this._errors[slot] = 0;
+  }
+
+  ensureCapacity(slots: number): void {
+    if (slots <= this._capacity) return;
+    const capacity = Math.max(slots, Math.ceil(this._capacity * 1.5));
+    const k = this.k;
+    const need = ConceptCodes.bytesFor(k, capacity);
+    if (need > WASM_LIMIT) throw new RangeError(`screening codes of ${capacity} documents do not fit one WebAssembly memory`);
+    const old = this._capacity;
+    if (need > ConceptCodes.maxBytesFor(this._memory)) {
+      // Past the reserved maximum: a new memory, the codes copied over (views of the old stay).
+      const memory = ConceptCodes.memoryFor(need);
+      new Int8Array(memory.buffer, align16(16 + 4 * k), old * k).set(this._codes.subarray(0, old * k));
+      this._memory = memory;
+      this._kernel = instantiateCodeDots(this._module, memory);
+    }
+    const have = this._memory.buffer.byteLength;
+    if (need > have) this._memory.grow(Math.ceil((need - have) / PAGE));
+    const buffer = this._memory.buffer;
+    this._query = new Float32Array(buffer, 16, k);
+    this._codes = new Int8Array(buffer, align16(16 + 4 * k), capacity * k);
+    this._codes.fill(0, old * k); // the old sums scratch lay here
+    this._sums = new Float64Array(buffer, align16(align16(16 + 4 * k) + capacity * k), capacity);
+    const grow = (a: Float64Array): Float64Array => {
+      const b = new Float64Array(capacity);
+      b.set(a);
+      return b;
+    };
+    this._scales = grow(this._scales);
+    this._errors = grow(this._errors);
+    this._center = new Float64Array(capacity);
+    this._radius = new Float64Array(capacity);
+    this._capacity = capacity;
+  }
+
+  /**
+   * For rows [0, n): v_j·q lies in [center_j − radius_j, center_j + radius_j]. Views reused by the
+   * next call.
+   */
+  bounds(q: ArrayLike<number>, n: number): { center: Float64Array; radius: Float64Array } {
+    const k = this.k;
+    let l1 = 0;
+    let l2 = 0;
+    for (let c = 0; c < k; c++) {
+      this._query[c] = q[c];
+      l1 += Math.abs(q[c]);
+      l2 += q[c] * q[c];
+    }
+    this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, k, 0, n, this._sums.byteOffset);
+    const norm2 = Math.sqrt(l2) * (1 + SLACK);
+    const rounding = ((k * U32) / (1 - k * U32)) * 127 * l1 * (1 + SLACK);
+    const center = this._center.subarray(0, n);
+    const radius = this._radius.subarray(0, n);
+    boundRows(this._sums, this._scales, this._errors, norm2, rounding, center, radius);
+    return { center, radius };
+  }
+
+  /** A shared memory of at least bytes, reserving room to double. */
+  private static memoryFor(bytes: number): WebAssembly.Memory {
+    const maxBytes = Math.min(WASM_LIMIT, Math.max(2 * bytes, 16 * PAGE));
+    const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / PAGE), maximum: maxBytes / PAGE, shared: true });
+    RESERVED.set(memory, maxBytes);
+    return memory;
+  }
+
+  private static maxBytesFor(memory: WebAssembly.Memory): number {
+    return RESERVED.get(memory) ?? 0;
+  }
+
+  private static bytesFor(k: number, capacity: number): number {
+    return align16(align16(16 + 4 * k) + capacity * k) + capacity * 8;
+  }
+}
+
+/**
+ * Math.round(x) (the nearest integer, halves up) for |x| ≤ 128, without its cost in the engine:
+ * truncating fl(x + 128.5) (positive) floors it; fl only rounds up and by less than 1, so the result
+ * is the right integer or one more, and c − 0.5 > x (exact for such c) tells which. The sign of a
+ * zero may differ (−0 for x ∈ [−0.5, 0)), which the codes and error sums do not see.
+ */
+export function roundHalfUp(x: number): number {
+  const c = ((x + 128.5) | 0) - 128;
+  return c - 0.5 > x ? c - 1 : c;
+}
+
+/** The arithmetic of setRow, in the same order, over a Float32Array block with no per-row views. */
+function codeRows(rows: Float32Array, k: number, from: number, to: number, codes: Int8Array, scales: Float64Array, errors: Float64Array): void {
+  for (let j = from; j < to; j++) {
+    const base = j * k;
+    let max = 0;
+    for (let c = base; c < base + k; c++) {
+      const a = Math.abs(rows[c]);
+      if (a > max) max = a;
+    }
+    const s = max / 127;
+    let err = 0;
+    if (s > 0) {
+      for (let c = base; c < base + k; c++) {
+        const v = rows[c];
+        let code = roundHalfUp(v / s);
+        if (code > 127) code = 127;
+        else if (code < -127) code = -127;
+        codes[c] = code;
+        const d = v - s * code;
+        err += d * d;
+      }
+    } else {
+      for (let c = base; c < base + k; c++) {
+        const v = rows[c];
+        codes[c] = 0;
+        err += v * v;
+      }
+    }
+    scales[j] = s;
+    errors[j] = Math.sqrt(err) * (1 + SLACK) + Number.MIN_VALUE;
+  }
+}
+
+function boundRows(sums: Float64Array, scales: Float64Array, errors: Float64Array, norm2: number, rounding: number, center: Float64Array, radius: Float64Array): void {
+  for (let j = 0; j < center.length; j++) {
+    const s = scales[j];
+    center[j] = s * sums[j];
+    radius[j] = (errors[j] * norm2 + s * rounding) * (1 + SLACK) + 1e-300;
+  }
+}

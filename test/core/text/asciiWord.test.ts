@@ -1,0 +1,76 @@
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { DEFAULT_TOKENIZE_OPTIONS, splitIdentifier, tokenize } from '../../../src/core/text/tokenize.js';
+import { asciiParts, asciiWordTokens, isAsciiWord } from '../../../src/core/text/asciiWord.js';
+import { createRandom } from '../../../src/core/random.js';
+import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
+
+// Reference: tokenize() itself (the regular-expression tokenizer this path must equal), on
+// edge cases, generated identifiers, the words of the test collections, and, when present, the
+// words of the kernel Documentation folder that scripts/bench-setup.sh unpacks.
+const OPTION_SETS = [DEFAULT_TOKENIZE_OPTIONS, { stem: false, keepCompounds: true }, { stem: true, keepCompounds: false }];
+
+function check(words: Iterable<string>): number {
+  let n = 0;
+  for (const w of words) {
+    if (!isAsciiWord(w)) continue;
+    n++;
+    for (const o of OPTION_SETS) expect(asciiWordTokens(w, o), `${w} ${JSON.stringify(o)}`).toEqual(tokenize(w, o));
+  }
+  return n;
+}
+
+const EDGE = [
+  'a', 'ab', 'A', 'HTTPServer', 'getHTTPResponseCode', 'parse_json_value', '__init__', '$scope', 'a$b_c', 'x86_64', 'v2',
+  '2fa', 'ABc', 'ABC', 'aBC', 'Version42Beta', 'deadbeef', 'deadbeef1', 'DEADBEEF12', '0xFF', '0x', '0xg', '0X1f', '12345',
+  '1234', '00000', 'a1b2c3d4e5', 'iPhone', 'IO', 'iOS', 'the', 'The', 'THE', 'for_each', 'IS_ERR_OR_NULL', '_', '__', '$',
+  'snake_CASE_Mixed', 'x'.repeat(41), 'ab'.repeat(20), `${'a'.repeat(20)}_${'b'.repeat(20)}`, 'A1', '1A', 'a_1', '1_a',
+];
+
+describe('asciiWordTokens', () => {
+  it('splits identifiers exactly as splitIdentifier does', () => {
+    for (const w of EDGE) if (isAsciiWord(w)) expect(asciiParts(w)).toEqual(splitIdentifier(w));
+  });
+
+  it('equals tokenize() on edge cases and on 20 000 generated identifiers', () => {
+    expect(check(EDGE)).toBeGreaterThan(40);
+    const rnd = createRandom(17);
+    const alphabet = 'abcdefxyzABCDEFXYZ0123456789_$';
+    const generated = Array.from({ length: 20000 }, () => {
+      const len = 1 + Math.floor(rnd.next() * 14);
+      let w = '';
+      for (let i = 0; i < len; i++) w += alphabet[Math.floor(rnd.next() * alphabet.length)];
+      return w;
+    });
+    expect(check(generated)).toBe(20000);
+  });
+
+  it('equals tokenize() on every ASCII word of the test collections', () => {
+    let n = 0;
+    for (const name of ['cran', 'cisi', 'cacm', 'adi']) {
+      const col = loadCollection(name);
+      const words = new Set<string>();
+      for (const d of col.docs) for (const m of d.text.matchAll(/[A-Za-z0-9_$]+/g)) words.add(m[0]);
+      n += check(words);
+    }
+    expect(n).toBeGreaterThan(10000);
+  });
+
+  const docs = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation', 'core-api');
+  let present = false;
+  try {
+    present = statSync(docs).isDirectory();
+  } catch {
+    present = false;
+  }
+  it.skipIf(!present)(`equals tokenize() on the words of the kernel's Documentation/core-api ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`, () => {
+    const words = new Set<string>();
+    for (const f of readdirSync(docs, { recursive: true }) as string[]) {
+      const p = join(docs, f);
+      if (!statSync(p).isFile()) continue;
+      for (const m of readFileSync(p, 'utf8').matchAll(/[A-Za-z0-9_$]+/g)) words.add(m[0]);
+    }
+    expect(check(words)).toBeGreaterThan(1000);
+  });
+});

@@ -1,0 +1,72 @@
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer.js';
+import { describe, expect, it } from 'vitest';
+import { createRandom } from '../../../src/core/random.js';
+import { porterStem } from '../../../src/core/text/porterFast.js';
+import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
+
+// Reference: natural's PorterStemmer (the stemmer tokenize() uses), word by word. Porter's own
+// examples (Porter 1980, "An algorithm for suffix stripping") are among the edge cases.
+function check(words: Iterable<string>): number {
+  let n = 0;
+  for (const w of words) {
+    n++;
+    expect(porterStem(w), w).toBe(PorterStemmer.stem(w));
+  }
+  return n;
+}
+
+const PORTER_EXAMPLES = [
+  'caresses', 'ponies', 'ties', 'caress', 'cats', 'feed', 'agreed', 'plastered', 'bled', 'motoring', 'sing', 'conflated',
+  'troubled', 'sized', 'hopping', 'tanned', 'falling', 'hissing', 'fizzed', 'failing', 'filing', 'happy', 'sky',
+  'relational', 'conditional', 'rational', 'valenci', 'hesitanci', 'digitizer', 'conformabli', 'radicalli', 'differentli',
+  'vileli', 'analogousli', 'vietnamization', 'predication', 'operator', 'feudalism', 'decisiveness', 'hopefulness',
+  'callousness', 'formaliti', 'sensitiviti', 'sensibiliti', 'triplicate', 'formative', 'formalize', 'electriciti',
+  'electrical', 'hopeful', 'goodness', 'revival', 'allowance', 'inference', 'airliner', 'gyroscopic', 'adjustable',
+  'defensible', 'irritant', 'replacement', 'adjustment', 'dependent', 'adoption', 'homologou', 'communism', 'activate',
+  'angulariti', 'homologous', 'effective', 'bowdlerize', 'probate', 'rate', 'cease', 'controll', 'roll',
+  'yyy', 'ayy', 'byy', 'eed', 'ed', 'ing', 'ying', 'sses', 'ies', 'ss', 'is', 'ous', 'ion', 'sion', 'tion', 'ation',
+  'x86', 'ipv6', 'utf8', 'abc123', 'y2k', '2ed', 'spinlock', 'irqsave', 'kmalloc', 'devm', 'struct', 'printk',
+];
+
+describe('porterStem', () => {
+  it("equals natural's PorterStemmer on Porter's examples and edge cases", () => {
+    expect(check(PORTER_EXAMPLES)).toBe(PORTER_EXAMPLES.length);
+  });
+
+  it('equals it on 30 000 generated lowercase tokens', () => {
+    const rnd = createRandom(23);
+    const pieces = ['a', 'e', 'i', 'o', 'u', 'y', 'b', 'c', 'l', 's', 't', 'z', 'w', 'x', 'n', 'g', 'd', 'r', '1', '9', 'ed', 'ing', 'ion', 'ies', 'ss', 'll', 'eed', 'at', 'bl', 'iz', 'ate', 'al', 'ent', 'ful', 'ness', 'ic'];
+    const words = Array.from({ length: 30000 }, () => {
+      let w = '';
+      const n = 1 + Math.floor(rnd.next() * 7);
+      for (let i = 0; i < n; i++) w += pieces[Math.floor(rnd.next() * pieces.length)];
+      return w;
+    });
+    check(words);
+  });
+
+  it('equals it on every lowercase word of the test collections and, when present, the kernel Documentation', () => {
+    const words = new Set<string>();
+    for (const name of ['cran', 'cisi', 'cacm', 'adi']) {
+      for (const d of loadCollection(name).docs) for (const m of d.text.toLowerCase().matchAll(/[a-z0-9]+/g)) words.add(m[0]);
+    }
+    const docs = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation');
+    let hasDocs = false;
+    try {
+      hasDocs = statSync(docs).isDirectory();
+    } catch {
+      hasDocs = false;
+    }
+    if (hasDocs) {
+      for (const f of readdirSync(docs, { recursive: true }) as string[]) {
+        const p = join(docs, f);
+        if (statSync(p).isFile() && /\.(rst|txt)$/.test(p)) for (const m of readFileSync(p, 'utf8').toLowerCase().matchAll(/[a-z0-9]+/g)) words.add(m[0]);
+      }
+    }
+    expect(words.size).toBeGreaterThan(10000);
+    // At most 60 000 words, to keep the run light (a one-off check covered the whole kernel tree).
+    check(Array.from(words).slice(0, 60000));
+  });
+});
