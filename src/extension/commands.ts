@@ -112,11 +112,10 @@ async function askAndSearch(deps: CommandDeps): Promise<void> {
           box.validationMessage = { message: EMPTY_QUESTION_MESSAGE, severity: vscode.InputBoxValidationSeverity.Info };
           return;
         }
+        // Busy only: a disabled box loses the keyboard focus, and the person may want to edit the text.
         box.busy = true;
-        box.enabled = false;
         const outcome = await searchOnce(deps, query);
         box.busy = false;
-        box.enabled = true;
         if (outcome.kind === 'message') {
           box.validationMessage = { message: outcome.text, severity: vscode.InputBoxValidationSeverity.Info };
           return;

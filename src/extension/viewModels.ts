@@ -130,7 +130,18 @@ export function searchEntries(matches: readonly SearchMatch[], multiRoot: boolea
     const passage: PassageEntry[] = m.lineText
       ? [{ kind: 'passage', key: `${m.key}#passage`, fsPath: m.fsPath, text: m.lineText, highlights: m.highlights ?? [], line: m.line }]
       : [];
-    const children: ResultNode[] = [...passage, ...translations];
+    // The passage shows at once; the other languages wait, folded, one row below it.
+    const languages: ResultEntry[] = translations.length === 0 ? [] : [{
+      key: `${m.key}#translations`,
+      fsPath: m.fsPath,
+      label: translations.length === 1 ? 'In 1 other language' : `In ${translations.length} other languages`,
+      description: (m.translations ?? []).map((t) => t.language.split(',')[0]).join(', '),
+      tooltip: 'The same page in other languages, grouped under the one in the language of the question.',
+      children: translations,
+      expanded: false,
+      heading: true,
+    }];
+    const children: ResultNode[] = [...passage, ...languages];
     return {
       key: m.key,
       fsPath: m.fsPath,

@@ -37,7 +37,10 @@ describe('result entries', () => {
     const t = (relPath: string, language: string) => ({ key: relPath, fsPath: `/w/docs/${relPath}`, folder: 'docs', relPath, language });
     const [e] = searchEntries([{ ...hit('power/suspend.page', 0.5), line: 2, lineText: 'Suspend sends it to sleep.', language: 'original', translations: [t('de/power/suspend.page', 'de, German'), t('zh_CN/power/suspend.page', 'zh_CN, Chinese')] }], false);
     expect(e.description).toBe('0.50 · power · +2 languages');
-    expect(e.children!.map((c) => ('label' in c ? `${c.label} ${c.description}` : c.kind))).toEqual(['passage', 'suspend.page de, German · de/power', 'suspend.page zh_CN, Chinese · zh_CN/power']);
+    expect(e.children!.map((c) => ('label' in c ? `${c.label}: ${c.description}` : c.kind))).toEqual(['passage', 'In 2 other languages: de, zh_CN']);
+    const folded = e.children![1] as unknown as { children: { label: string; description: string }[]; expanded: boolean };
+    expect(folded.expanded).toBe(false);
+    expect(folded.children.map((c) => `${c.label} ${c.description}`)).toEqual(['suspend.page de, German · de/power', 'suspend.page zh_CN, Chinese · zh_CN/power']);
     const [n] = nearbyEntries([{ ...hit('power/suspend.page', 0.5), language: 'original', translations: [t('de/power/suspend.page', 'de, German')] }], false);
     expect(n).toMatchObject({ description: '0.50 · power · +1 language', expanded: false });
     expect(subjectTranslationsEntry('k', '/w/k', [], false)).toEqual([]);

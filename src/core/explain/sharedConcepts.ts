@@ -3,8 +3,9 @@
  * index's k concept axes, cos = Σ_j a_j·b_j (latent semantic indexing, Deerwester et al. 1990),
  * so each axis's part is exact. The axes with the largest parts are the concepts the two files
  * share; each is named by the words that carry it in these two files: their terms ranked by the
- * term's loading on the axis (U_k), signed towards the side of the axis the files lie on, words of
- * both files first. The parts of the other axes are summed, so the column adds up to the score.
+ * term's loading on the axis (U_k), signed towards the side of the axis the files lie on, times
+ * the term's global weight (so words found in every file, such as a language's function words,
+ * rank low), words of both files first and no word naming two concepts. The parts of the other axes are summed, so the column adds up to the score.
  */
 import type { LsiIndex } from '../index/lsiIndex.js';
 
@@ -54,12 +55,14 @@ export function sharedConcepts(index: LsiIndex, a: string, b: string, options: P
   const cb = columns(b);
   const both = [...ca].filter((c) => cb.has(c));
   const either = [...new Set([...ca, ...cb])];
+  const used = new Set<number>();
   const concepts = chosen.map((p) => {
     const sign = va[p.axis] >= 0 ? 1 : -1;
-    const load = (c: number) => sign * model.termVectors[c * k + p.axis];
-    const rank = (cs: number[]) => cs.filter((c) => load(c) > 0).sort((x, y) => load(y) - load(x) || x - y);
+    const load = (c: number) => sign * model.termVectors[c * k + p.axis] * model.weights[c];
+    const rank = (cs: number[]) => cs.filter((c) => load(c) > 0 && !used.has(c)).sort((x, y) => load(y) - load(x) || x - y);
     const picked = rank(both).slice(0, o.words);
     for (const c of rank(either)) if (picked.length < o.words && !picked.includes(c)) picked.push(c);
+    for (const c of picked) used.add(c);
     return { axis: p.axis, share: p.share, terms: picked.map((c) => index.vocab.termOf(model.keptIds[c])) };
   });
   return { concepts, rest: score - concepts.reduce((s, c) => s + c.share, 0), score };

@@ -229,7 +229,8 @@ export class MapApp {
       const best = q.neighbours[0];
       // The rings are search's own ranking (the worker ranks them as a search does), so the first is search's first answer.
       const near = best === undefined ? 'no matching files' : `best: ${this.data.files.paths[best]} (score ${q.similarities[0].toFixed(2)})`;
-      this.setStatus(`“${q.text}” placed · ringed: its ${q.neighbours.length} best search results · ${near}`);
+      const shown = q.text.length > 32 ? `${q.text.slice(0, 31)}…` : q.text;
+      this.setStatus(`“${shown}” placed · ringed: its ${q.neighbours.length} best search results · ${near}`);
       const sx = this.canvas.vp.sx(at.x);
       const sy = this.canvas.vp.sy(at.y);
       if (reveal && (sx < 0 || sy < 0 || sx > this.canvas.vp.width || sy > this.canvas.vp.height)) this.canvas.vp.pan(this.canvas.vp.width / 2 - sx, this.canvas.vp.height / 2 - sy);

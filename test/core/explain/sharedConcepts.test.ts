@@ -41,6 +41,7 @@ describe('concepts two files share, on CISI', () => {
     const terms = new Set([...index.termsOf(a).termIds, ...index.termsOf(b).termIds].map((id) => index.vocab.termOf(id)));
     const column = new Map(Array.from(index.model.keptIds, (id, c) => [index.vocab.termOf(id), c]));
     const va = index.vectorOf(a);
+    expect(new Set(s.concepts.flatMap((c) => c.terms)).size).toBe(s.concepts.length * 3); // no word names two concepts
     for (const c of s.concepts) {
       expect(c.terms.length).toBe(3);
       for (const t of c.terms) {
