@@ -191,7 +191,7 @@ describe('Undertone in a real editor', () => {
     await editor!.page.locator('.tabs-container .tab.active.dirty').waitFor({ state: 'detached', timeout: 30_000 });
     // The Search Results view re-runs the last query when the index changes.
     await showUndertone();
-    rows = await waitForRows('Search Results', (r) => s.expectTop3After.every((f) => labels(r).slice(0, 3).includes(base(f))), 'the edited file in the search results');
+    await waitForRows('Search Results', (r) => s.expectTop3After.every((f) => labels(r).slice(0, 3).includes(base(f))), 'the edited file in the search results');
     await editor!.screenshot('extension-5-after-edit');
     rows = await search(s.query);
     for (const f of s.expectTop3After) expect(labels(rows).slice(0, 3)).toContain(base(f));

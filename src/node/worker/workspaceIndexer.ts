@@ -1,40 +1,29 @@
 /**
- * Scans and indexes every folder of a workspace into one index (keys from RootMap). Like
- * folderIndexer.ts for one folder: files whose size and modification time match the current
- * index reuse its term counts, the rest are read and tokenized, then the concept model is built.
- * Nothing is saved or swapped here; the caller does that once the build has finished, so a
- * cancelled or failed build leaves the current index as it was. Larger folders are tokenized and
- * decomposed on a pool of further threads (src/node/parallel) when its bundled script is present.
+ * Scans and indexes every folder of a workspace into one index (keys from RootMap): the editor
+ * worker's adapter over indexPipeline.ts, as folderIndexer.ts is the command line's for one
+ * folder. Nothing is saved or swapped here; the caller does that once the build has finished, so
+ * a cancelled or failed build leaves the current index as it was.
  */
-import { performance } from 'node:perf_hooks';
-import { CancelledError, EmptyCorpusError } from '../../core/errors.js';
-import { IndexBuilder } from '../../core/index/model/indexBuilder.js';
+import { resolveSettings } from '../../core/index/model/settings.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
-import { resolveSettings, type IndexSettings } from '../../core/index/model/settings.js';
-import { Vocabulary } from '../../core/counting/termCounts.js';
-import { countFilesInParallel } from '../parallel/parallelCount.js';
-import { WorkerPool } from '../parallel/workerPool.js';
-import { readIndexableText, scanFolder } from '../scan.js';
+import { runIndexPipeline, tallySkipped, type SkipCounts, type SourceFile } from '../indexPipeline.js';
+import { scanFolder } from '../scan.js';
 import type { Progress, WorkerConfig } from './workerProtocol.js';
 import type { RootMap } from './rootMap.js';
 
-export interface WorkspaceFile {
-  readonly key: string;
-  readonly absPath: string;
-  readonly size: number;
-  readonly mtimeMs: number;
-}
+/** A file of the workspace: its index key and where it is. */
+export type WorkspaceFile = SourceFile;
 
 export interface WorkspaceScan {
   readonly files: readonly WorkspaceFile[];
-  /** Files left out as too large or unreadable by the scan. */
-  readonly skipped: number;
+  /** Files left out by the scan, by why. */
+  readonly skipped: SkipCounts;
 }
 
 /** Lists the indexable files of every folder. */
 export async function scanWorkspace(roots: RootMap, config: WorkerConfig, signal?: AbortSignal): Promise<WorkspaceScan> {
   const files: WorkspaceFile[] = [];
-  let skipped = 0;
+  const skipped: SkipCounts = { binary: 0, tooLarge: 0, unreadable: 0, other: 0 };
   for (const root of roots.roots) {
     const scan = await scanFolder(
       root.path,
@@ -48,7 +37,10 @@ export async function scanWorkspace(roots: RootMap, config: WorkerConfig, signal
     );
     const prefix = roots.prefixOf(root);
     for (const f of scan.files) files.push({ key: prefix + f.path, absPath: f.absPath, size: f.size, mtimeMs: f.mtimeMs });
-    skipped += scan.skipped.filter((s) => s.reason === 'too-large' || s.reason === 'unreadable').length;
+    const t = tallySkipped(scan.skipped);
+    skipped.tooLarge += t.tooLarge;
+    skipped.unreadable += t.unreadable;
+    skipped.other += t.other;
   }
   return { files, skipped };
 }
@@ -57,6 +49,7 @@ export interface WorkspaceBuild {
   readonly index: LsiIndex;
   readonly read: number;
   readonly reused: number;
+  /** Files left out as too large, unreadable or binary. */
   readonly skipped: number;
   readonly seconds: number;
 }
@@ -72,80 +65,20 @@ export interface WorkspaceBuildOptions {
   readonly threads?: number | false;
 }
 
-/** Below this many files, starting threads costs more than it saves (the measurement behind folderIndexer.ts). */
-const PARALLEL_MIN_FILES = 200;
-
 export async function buildWorkspaceIndex(roots: RootMap, config: WorkerConfig, options: WorkspaceBuildOptions = {}): Promise<WorkspaceBuild> {
-  const t0 = performance.now();
-  const { signal, previous } = options;
-  const progress = options.onProgress ?? (() => undefined);
-  const cancelled = (): boolean => signal?.aborted === true || options.isCancelled?.() === true;
-  const check = (): void => {
-    if (cancelled()) throw new CancelledError();
-  };
-  const settings: IndexSettings = resolveSettings(config.settings);
-  progress({ stage: 'scan', done: 0, total: 1 });
-  const scan = await scanWorkspace(roots, config, signal);
-  check();
-  const sameTokens = previous !== undefined && JSON.stringify(previous.settings.tokenize) === JSON.stringify(settings.tokenize);
-  const vocab = sameTokens ? previous.vocab : new Vocabulary();
-  const builder = new IndexBuilder(settings, vocab);
-  let read = 0;
-  let reused = 0;
-  let skipped = scan.skipped;
-  const total = scan.files.length;
-  const toRead: WorkspaceFile[] = [];
-  for (const f of scan.files) {
-    const old = sameTokens ? previous.meta(f.key) : undefined;
-    if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
-      builder.addCounted({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, previous!.termsOf(f.key));
-      reused++;
-    } else toRead.push(f);
-  }
-  let pool: WorkerPool | undefined;
-  const getPool = (): WorkerPool | undefined =>
-    (pool ??= options.threads === false ? undefined : WorkerPool.start(options.threads === undefined ? {} : { threads: options.threads }));
-  try {
-    const parallel = toRead.length >= PARALLEL_MIN_FILES ? getPool() : undefined;
-    if (parallel) {
-      await countFilesInParallel(
-        parallel,
-        toRead.map((f) => ({ absPath: f.absPath, size: f.size })),
-        vocab,
-        { tokenize: settings.tokenize, maxFileBytes: config.maxFileBytes, signal, onProgress: (done) => progress({ stage: 'read', done: reused + done, total }) },
-        (i, got) => {
-          const f = toRead[i];
-          if (got.kind === 'text') {
-            builder.addCounted({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.terms);
-            read++;
-          } else skipped++;
-        },
-      );
-    } else {
-      for (let i = 0; i < toRead.length; i++) {
-        const f = toRead[i];
-        const got = await readIndexableText(f.absPath, config.maxFileBytes);
-        if (got.kind === 'text') {
-          builder.addText({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.text);
-          read++;
-        } else skipped++;
-        if (i % 64 === 0) {
-          check();
-          progress({ stage: 'read', done: reused + i, total });
-        }
-      }
-    }
-    check();
-    progress({ stage: 'read', done: total, total });
-    if (builder.size === 0) throw new EmptyCorpusError('Nothing to index: no text files remain after the exclude settings.');
-    const index = builder.build({
-      signal: { get aborted() { return cancelled(); } },
-      executor: builder.size >= PARALLEL_MIN_FILES ? getPool()?.executor() : undefined,
-      onProgress: (stage, done, all) => progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all }),
-    });
-    check();
-    return { index, read, reused, skipped, seconds: (performance.now() - t0) / 1000 };
-  } finally {
-    await pool?.close();
-  }
+  const { threads } = options;
+  const result = await runIndexPipeline({
+    settings: resolveSettings(config.settings),
+    scan: () => scanWorkspace(roots, config, options.signal),
+    maxFileBytes: config.maxFileBytes,
+    previous: options.previous,
+    emptyMessage: 'Nothing to index: no text files remain after the exclude settings.',
+    signal: options.signal,
+    isCancelled: options.isCancelled,
+    onProgress: options.onProgress,
+    threads: threads === false ? false : threads === undefined ? {} : { threads },
+  });
+  const s = result.skipped;
+  const seconds = Object.values(result.seconds).reduce((a, b) => a + b, 0);
+  return { index: result.index, read: result.read, reused: result.reused, skipped: s.binary + s.tooLarge + s.unreadable, seconds };
 }

@@ -15,7 +15,10 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
       const ex = wasm!;
       const indptr = [0], indices: number[] = [], values: number[] = [];
       for (let i = 0; i < rows; i++) {
-        for (let j = 0; j < cols; j++) if (rnd.next() < 0.25) (indices.push(j), values.push(rnd.normal()));
+        for (let j = 0; j < cols; j++) if (rnd.next() < 0.25) {
+          indices.push(j);
+          values.push(rnd.normal());
+        }
         indptr.push(indices.length);
       }
       const m = { rows, cols, indptr: Int32Array.from(indptr), indices: Int32Array.from(indices), values: Float64Array.from(values) };

@@ -58,12 +58,7 @@ describe('asciiWordTokens', () => {
   });
 
   const docs = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation', 'core-api');
-  let present = false;
-  try {
-    present = statSync(docs).isDirectory();
-  } catch {
-    present = false;
-  }
+  const present = isFolder(docs);
   it.skipIf(!present)(`equals tokenize() on the words of the kernel's Documentation/core-api ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`, () => {
     const words = new Set<string>();
     for (const f of readdirSync(docs, { recursive: true }) as string[]) {
@@ -74,3 +69,11 @@ describe('asciiWordTokens', () => {
     expect(check(words)).toBeGreaterThan(1000);
   });
 });
+
+function isFolder(p: string): boolean {
+  try {
+    return statSync(p).isDirectory();
+  } catch {
+    return false;
+  }
+}

@@ -53,7 +53,7 @@ describe('porterStem', () => {
       for (const d of loadCollection(name).docs) for (const m of d.text.toLowerCase().matchAll(/[a-z0-9]+/g)) words.add(m[0]);
     }
     const docs = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation');
-    let hasDocs = false;
+    let hasDocs: boolean;
     try {
       hasDocs = statSync(docs).isDirectory();
     } catch {

@@ -75,12 +75,7 @@ describe('WordCounter', () => {
   // The kernel's translated documentation (Chinese, Japanese, Korean, Italian, Spanish, …), when
   // scripts/bench-setup.sh has unpacked it: real non-ASCII text through one counter.
   const translations = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation', 'translations');
-  let present = false;
-  try {
-    present = statSync(translations).isDirectory();
-  } catch {
-    present = false;
-  }
+  const present = isFolder(translations);
   it.skipIf(!present)(`agrees with tokenize + countTerms on the kernel's translated documentation ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`, () => {
     const counter = new WordCounter({});
     const terms: string[] = [];
@@ -95,3 +90,11 @@ describe('WordCounter', () => {
     expect(checked).toBeGreaterThan(50);
   });
 });
+
+function isFolder(p: string): boolean {
+  try {
+    return statSync(p).isDirectory();
+  } catch {
+    return false;
+  }
+}

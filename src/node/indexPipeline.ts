@@ -1,0 +1,254 @@
+/**
+ * The indexing pipeline, once for every tool: scan → reuse → read and count → build → save.
+ * The command line (folderIndexer.ts: one folder, loads and saves its index file) and the editor's
+ * worker (worker/workspaceIndexer.ts: every workspace folder under one key space, swaps the index
+ * in itself) are thin adapters over runIndexPipeline.
+ *
+ *   scan    the adapter's scan function lists the files with their index keys
+ *   reuse   a file whose size and modification time match the previous index keeps its counts
+ *   read    the others are read and tokenized into term counts (chooseCounting picks how)
+ *   build   IndexBuilder weights, prunes and runs the SVD (src/core/index/model)
+ *   save    the adapter's save function, when it has one (atomic write, src/node/persist.ts)
+ *
+ * Counting is chosen in one place (chooseCounting): below PARALLEL_MIN_FILES files on this thread;
+ * from scratch on threads with sorted vocabularies (parallel/sortedCount.ts: the counts come back
+ * already in the builder's term order); otherwise on threads against the existing vocabulary
+ * (parallel/parallelCount.ts). The tokenizing threads are ended before the SVD, which starts its
+ * own (their word tables are freed before the build needs the memory).
+ * Nothing is swapped or saved before the build has finished, so a cancelled or failed run leaves
+ * the previous index as it was.
+ */
+import { performance } from 'node:perf_hooks';
+import { CancelledError, EmptyCorpusError } from '../core/errors.js';
+import type { DocMeta, LsiIndex } from '../core/index/lsiIndex.js';
+import { IndexBuilder } from '../core/index/model/indexBuilder.js';
+import { modelSettingsKey, type IndexSettings } from '../core/index/model/settings.js';
+import { countTerms, Vocabulary } from '../core/counting/termCounts.js';
+import { tokenize } from '../core/text/tokenize.js';
+import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
+import { countFilesSorted } from './parallel/sortedCount.js';
+import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
+import { readIndexableText } from './scanRead.js';
+import type { SkippedPath } from './scanTypes.js';
+
+/** Below this many files, starting worker threads costs more than it saves (our measurement). */
+export const PARALLEL_MIN_FILES = 200;
+
+/** The pipeline's stages, in order; the adapters report these (the command line adds 'load'). */
+export type PipelineStage = 'scan' | 'read' | 'matrix' | 'svd' | 'save';
+
+export interface PipelineProgress {
+  readonly stage: PipelineStage;
+  readonly done: number;
+  readonly total: number;
+}
+
+/** A file to index: its key in the index and where it is on disk. */
+export interface SourceFile {
+  /** Index key (see ARCHITECTURE.md, glossary): '/'-separated, relative to its folder. */
+  readonly key: string;
+  readonly absPath: string;
+  readonly size: number;
+  readonly mtimeMs: number;
+}
+
+/** Files left out, by why. The scan's reasons and the reader's share these counters. */
+export interface SkipCounts {
+  binary: number;
+  tooLarge: number;
+  unreadable: number;
+  /** Link loops, duplicate links and broken links (reported by the scan). */
+  other: number;
+}
+
+export interface SourceScan {
+  readonly files: readonly SourceFile[];
+  readonly skipped: SkipCounts;
+}
+
+/** Tallies a scan's skipped paths into SkipCounts. */
+export function tallySkipped(skipped: readonly Pick<SkippedPath, 'reason'>[]): SkipCounts {
+  const counts: SkipCounts = { binary: 0, tooLarge: 0, unreadable: 0, other: 0 };
+  for (const s of skipped) {
+    if (s.reason === 'too-large') counts.tooLarge++;
+    else if (s.reason === 'unreadable') counts.unreadable++;
+    else counts.other++;
+  }
+  return counts;
+}
+
+export interface PipelineOptions {
+  readonly settings: IndexSettings;
+  /** Lists the files to index (after excludes), with their keys. */
+  readonly scan: () => Promise<SourceScan>;
+  /** Files above this many bytes are skipped when read (they may have grown since the scan). */
+  readonly maxFileBytes: number;
+  /** The index whose unchanged files need not be read again. */
+  readonly previous?: LsiIndex;
+  /**
+   * Return the previous index as it is when nothing changed (no file read, none removed, same
+   * model settings, no edits folded in since its build). @default false: always build.
+   */
+  readonly keepUnchanged?: boolean;
+  /** Saves the built index (not called for an unchanged one). */
+  readonly save?: (index: LsiIndex) => Promise<void>;
+  /** Message of the EmptyCorpusError when no file has text. */
+  readonly emptyMessage: string;
+  readonly signal?: AbortSignal;
+  /** Polled as well as signal, including during the synchronous SVD. */
+  readonly isCancelled?: () => boolean;
+  readonly onProgress?: (p: PipelineProgress) => void;
+  /** Threads for tokenizing and the SVD (false: this thread only). @default {} (all cores) */
+  readonly threads?: PoolOptions | false;
+}
+
+export interface PipelineResult {
+  readonly index: LsiIndex;
+  /** True when the previous index was kept as it was (keepUnchanged). */
+  readonly unchanged: boolean;
+  readonly files: number;
+  readonly reused: number;
+  readonly read: number;
+  readonly added: number;
+  readonly changed: number;
+  readonly removed: number;
+  readonly bytesRead: number;
+  readonly skipped: SkipCounts;
+  /** Seconds per stage. */
+  readonly seconds: Record<PipelineStage, number>;
+}
+
+/** How the files to read are counted. */
+export type Counting = 'serial' | 'parallel' | 'sorted';
+
+/** The counting path for `toRead` files, given whether threads are allowed and the vocabulary starts empty. */
+export function chooseCounting(toRead: number, threadsAllowed: boolean, fromScratch: boolean): Counting {
+  if (!threadsAllowed || toRead < PARALLEL_MIN_FILES) return 'serial';
+  return fromScratch ? 'sorted' : 'parallel';
+}
+
+export async function runIndexPipeline(options: PipelineOptions): Promise<PipelineResult> {
+  const { settings, previous, signal } = options;
+  const progress = options.onProgress ?? (() => undefined);
+  const cancelled = (): boolean => signal?.aborted === true || options.isCancelled?.() === true;
+  const check = (): void => {
+    if (cancelled()) throw new CancelledError();
+  };
+  const seconds: Record<PipelineStage, number> = { scan: 0, read: 0, matrix: 0, svd: 0, save: 0 };
+  let mark = performance.now();
+  const lap = (stage: PipelineStage): void => {
+    const now = performance.now();
+    seconds[stage] += (now - mark) / 1000;
+    mark = now;
+  };
+
+  let pool: WorkerPool | undefined;
+  const threads = options.threads ?? {};
+  const getPool = (): WorkerPool | undefined => (pool ??= threads === false ? undefined : WorkerPool.start(threads));
+  // Ending the threads hands their word tables (and the SVD's shared memory) back.
+  const releasePool = async (): Promise<void> => {
+    const p = pool;
+    pool = undefined;
+    await p?.close();
+  };
+
+  try {
+    // ---- scan
+    progress({ stage: 'scan', done: 0, total: 1 });
+    const scan = await options.scan();
+    lap('scan');
+    check();
+
+    // ---- reuse
+    const sameTokens = previous !== undefined && JSON.stringify(previous.settings.tokenize) === JSON.stringify(settings.tokenize);
+    let vocab = sameTokens ? previous.vocab : new Vocabulary();
+    let builder = new IndexBuilder(settings, vocab);
+    const skipped: SkipCounts = { ...scan.skipped };
+    let reused = 0, read = 0, added = 0, changed = 0, bytesRead = 0;
+    const toRead: SourceFile[] = [];
+    for (const f of scan.files) {
+      const old = sameTokens ? previous.meta(f.key) : undefined;
+      if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
+        builder.addCounted({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, previous!.termsOf(f.key));
+        reused++;
+      } else toRead.push(f);
+    }
+
+    // ---- read and count
+    const record = (f: SourceFile, got: CountOutcome): void => {
+      if (got.kind === 'text') {
+        const meta: DocMeta = { path: f.key, size: f.size, mtimeMs: f.mtimeMs };
+        builder.addCounted(meta, got.terms);
+        bytesRead += f.size;
+        read++;
+        if (previous?.has(f.key)) changed++;
+        else added++;
+      } else if (got.kind === 'binary') skipped.binary++;
+      else if (got.kind === 'too-large') skipped.tooLarge++;
+      else skipped.unreadable++;
+    };
+    const total = scan.files.length;
+    const counting = chooseCounting(toRead.length, threads !== false, reused === 0 && vocab.size === 0);
+    const countPool = counting === 'serial' ? undefined : getPool();
+    const jobs = () => toRead.map((f) => ({ absPath: f.absPath, size: f.size }));
+    const countOptions = { tokenize: settings.tokenize, maxFileBytes: options.maxFileBytes, signal, onProgress: (done: number) => progress({ stage: 'read', done: reused + done, total }) };
+    if (countPool && counting === 'sorted') {
+      // From scratch: counts come back over a vocabulary already in the builder's order.
+      const counted = await countFilesSorted(countPool, jobs(), countOptions);
+      vocab = counted.vocab;
+      builder = new IndexBuilder(settings, vocab);
+      counted.outcomes.forEach((got, i) => record(toRead[i], got));
+    } else if (countPool) {
+      await countFilesInParallel(countPool, jobs(), vocab, countOptions, (i, got) => record(toRead[i], got));
+    } else {
+      // No threads (none allowed, too few files, or no bundled thread script).
+      for (let i = 0; i < toRead.length; i++) {
+        const f = toRead[i];
+        const got = await readIndexableText(f.absPath, options.maxFileBytes);
+        record(f, got.kind === 'text' ? { kind: 'text', terms: countTerms(tokenize(got.text, settings.tokenize), vocab, true) } : got);
+        if (i % 64 === 0) {
+          check();
+          progress({ stage: 'read', done: reused + i, total });
+        }
+      }
+    }
+    check();
+    progress({ stage: 'read', done: total, total });
+    lap('read');
+    const present = new Set(scan.files.map((f) => f.key));
+    const removed = previous ? previous.paths().filter((p) => !present.has(p)).length : 0;
+    if (builder.size === 0) throw new EmptyCorpusError(options.emptyMessage);
+    const counts = { files: builder.size, reused, read, added, changed, removed, bytesRead, skipped };
+
+    const unchanged =
+      options.keepUnchanged === true && previous !== undefined && modelSettingsKey(previous.settings) === modelSettingsKey(settings) &&
+      read === 0 && removed === 0 && previous.size === builder.size && previous.staleness().changedFiles === 0;
+    if (unchanged) return { ...counts, index: previous, unchanged: true, seconds };
+
+    // ---- build
+    await releasePool();
+    const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool() : undefined;
+    const index = builder.build({
+      signal: { get aborted() { return cancelled(); } },
+      executor: buildPool?.executor(),
+      onProgress: (stage, done, all) => {
+        if (stage === 'weighting' && done === 1) lap('matrix');
+        progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
+      },
+    });
+    lap('svd');
+    // The threads (and the shared memory of the SVD) are not needed to save.
+    await releasePool();
+    check();
+
+    // ---- save
+    if (options.save) {
+      progress({ stage: 'save', done: 0, total: 1 });
+      await options.save(index);
+      lap('save');
+    }
+    return { ...counts, index, unchanged: false, seconds };
+  } finally {
+    await releasePool();
+  }
+}
