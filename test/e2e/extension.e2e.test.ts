@@ -70,7 +70,8 @@ describe('Undertone in a real editor', () => {
   /** With search results open: is `file` listed? Types its name into the quick pick's filter, as a person scanning the list would. */
   const listed = async (file: string): Promise<boolean> => {
     await editor!.quickInput.type(base(file));
-    const row = editor!.quickInput.row(base(file)).filter({ hasText: file });
+    // The row shows the file name as label and its folder in the description.
+    const row = editor!.quickInput.row(base(file)).filter({ hasText: path.posix.dirname(file) });
     const none = editor!.page.locator('.quick-input-widget .quick-input-list .monaco-list-row').first();
     await waitFor(async () => (await row.isVisible()) || !(await none.isVisible()), 10_000, `the filtered list for ${file}`);
     return row.isVisible();
