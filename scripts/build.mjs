@@ -6,7 +6,10 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const common = { bundle: true, platform: 'node', target: 'node20', format: 'cjs', sourcemap: true, logLevel: 'warning', absWorkingDir: root };
+// keepNames: errors cross from the worker by class name (NoKnownTermsError, NoIndexError,
+// CancelledError…); minified without it, every one arrived as a one-letter name and was shown
+// as a red "search failed" instead of its calm answer.
+const common = { bundle: true, platform: 'node', target: 'node20', format: 'cjs', sourcemap: true, keepNames: true, logLevel: 'warning', absWorkingDir: root };
 const entries = [
   { entryPoints: ['src/cli/bin.ts'], outfile: 'dist/cli.js', banner: { js: '#!/usr/bin/env node' } },
   { entryPoints: ['src/extension/extension.ts'], outfile: 'dist/extension.js', external: ['vscode'] },

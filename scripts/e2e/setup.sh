@@ -141,5 +141,10 @@ cat >"$CACHE/env.json" <<JSON
 }
 JSON
 
+# ---- 5. A real documentation tree with translations (test/e2e/realTree.e2e.test.ts) -------
+t=$SECONDS
+bash "$SCRIPT_DIR/docTree.sh" >/dev/null
+step_done "documentation tree (gnome-user-docs)" "$t"
+
 for d in "${DONE[@]}"; do log "$d"; done
 log "done in $(( SECONDS - START ))s; paths in ${CACHE#"$REPO_ROOT/"}/env.json"

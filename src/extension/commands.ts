@@ -5,7 +5,11 @@ import type { IndexController } from './indexController.js';
 import type { NearbyProvider } from './nearbyView.js';
 import { openOptions } from './resultItem.js';
 import type { SearchResultsProvider } from './searchView.js';
-import { NO_FEEDBACK, refineFeedback, searchEntries, searchPickItems, type ResultEntry, type SearchFeedback } from './viewModels.js';
+import {
+  EMPTY_QUESTION_MESSAGE, NO_FEEDBACK, NO_MATCH_MESSAGE, noKnownWordsMessage, refineFeedback, SEARCH_PLACEHOLDER, searchEntries, searchPickItems,
+  type ResultEntry, type SearchFeedback,
+} from './viewModels.js';
+import type { SearchMatch } from '../node/worker/workerProtocol.js';
 import { errorKind } from '../node/worker/workerErrors.js';
 
 export interface CommandDeps {
@@ -23,16 +27,7 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
   const { controller, nearby, search, log } = deps;
   const reg = vscode.commands.registerCommand;
   return [
-    reg('undertone.search', async () => {
-      const query = await vscode.window.showInputBox({
-        title: 'Search Workspace by Meaning',
-        prompt: 'Describe what you are looking for in your own words; files that use other words for it are found too.',
-        placeHolder: 'e.g. what happens to tickets when a crossing is called off',
-        value: search.query,
-        ignoreFocusOut: true,
-      });
-      if (query?.trim()) await runSearch(deps, query.trim());
-    }),
+    reg('undertone.search', () => askAndSearch(deps)),
     reg('undertone.searchSelection', async () => {
       const editor = vscode.window.activeTextEditor;
       const text = editor ? editor.selections.map((s) => editor.document.getText(s)).join('\n').trim() : '';
@@ -54,11 +49,17 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
       await nearby.show(target);
     }),
     reg('undertone.deleteIndex', async () => {
+      const choice = await vscode.window.showWarningMessage(
+        'Delete the saved Undertone index of this workspace?',
+        { modal: true, detail: 'Search, Nearby and the other views have nothing to show until the index is built again with "Build Index" (unchanged files are read again too).' },
+        'Delete',
+      );
+      if (choice !== 'Delete') return;
       const deleted = await controller.deleteIndex();
       search.clear();
       const where = deps.indexFile ? ` (${deps.indexFile})` : '';
       void vscode.window.showInformationMessage(
-        deleted ? `Deleted the saved Undertone index${where}. Run "Rebuild Index" to build it again.` : 'There was no saved Undertone index to delete.',
+        deleted ? `Deleted the saved Undertone index${where}. Run "Build Index" to build it again.` : 'There was no saved Undertone index to delete.',
       );
     }),
     reg('undertone.clearSearchResults', () => search.clear()),
@@ -101,31 +102,94 @@ async function steer(deps: CommandDeps, entry: ResultEntry | undefined, kind: 'l
     feedback = { like: [subject], unlike: [entry.fsPath] };
   }
   await vscode.commands.executeCommand('undertone.searchResults.focus');
-  await runSearch(deps, query, feedback, false);
+  await showOutcome(deps, query, await searchOnce(deps, query, feedback), feedback, false);
 }
 
-async function runSearch(deps: CommandDeps, query: string, feedback: SearchFeedback = NO_FEEDBACK, pickOne = true): Promise<void> {
-  const { controller, search } = deps;
-  let matches;
+type SearchOutcome =
+  | { readonly kind: 'matches'; readonly matches: readonly SearchMatch[] }
+  /** Nothing to show, said calmly (in the box when there is one). */
+  | { readonly kind: 'message'; readonly text: string }
+  | { readonly kind: 'no-index' }
+  | { readonly kind: 'failed'; readonly text: string };
+
+async function searchOnce(deps: CommandDeps, query: string, feedback: SearchFeedback = NO_FEEDBACK): Promise<SearchOutcome> {
   try {
-    matches = await vscode.window.withProgress({ location: vscode.ProgressLocation.Window, title: 'Undertone: searching' }, () =>
-      controller.search(query, SEARCH_TOP, feedback),
+    const matches = await vscode.window.withProgress({ location: vscode.ProgressLocation.Window, title: 'Undertone: searching' }, () =>
+      deps.controller.search(query, SEARCH_TOP, feedback),
     );
+    return matches.length ? { kind: 'matches', matches } : { kind: 'message', text: NO_MATCH_MESSAGE };
   } catch (err) {
-    const e = err as Error;
     const kind = errorKind(err);
-    if (kind === 'no-index') {
-      const choice = await vscode.window.showInformationMessage('There is no Undertone index for this workspace yet.', 'Build Index');
-      if (choice) await controller.build('user');
-    } else if (kind === 'no-known-terms') void vscode.window.showInformationMessage(e.message);
-    else void vscode.window.showErrorMessage(`Undertone search failed: ${e.message}`);
+    if (kind === 'no-index') return { kind: 'no-index' };
+    if (kind === 'no-known-terms') return { kind: 'message', text: noKnownWordsMessage(query) };
+    return { kind: 'failed', text: (err as Error).message };
+  }
+}
+
+/**
+ * The search box. An empty question, or one with no word the index knows, is answered in the box
+ * itself (it stays open with the text, for another try); results replace it with a quick pick.
+ */
+async function askAndSearch(deps: CommandDeps): Promise<void> {
+  const box = vscode.window.createInputBox();
+  box.title = 'Search Workspace by Meaning';
+  box.prompt = 'Describe what you are looking for in your own words; files that use other words for it are found too.';
+  box.placeholder = SEARCH_PLACEHOLDER;
+  box.value = deps.search.query ?? '';
+  box.ignoreFocusOut = true;
+  const found = await new Promise<{ query: string; outcome: SearchOutcome } | undefined>((resolve) => {
+    let result: { query: string; outcome: SearchOutcome } | undefined;
+    const subs = [
+      box.onDidChangeValue(() => { box.validationMessage = undefined; }),
+      box.onDidAccept(async () => {
+        const query = box.value.trim();
+        if (!query) {
+          box.validationMessage = { message: EMPTY_QUESTION_MESSAGE, severity: vscode.InputBoxValidationSeverity.Info };
+          return;
+        }
+        // Busy only: a disabled box loses the keyboard focus, and the person may want to edit the text.
+        box.busy = true;
+        const outcome = await searchOnce(deps, query);
+        box.busy = false;
+        if (outcome.kind === 'message') {
+          box.validationMessage = { message: outcome.text, severity: vscode.InputBoxValidationSeverity.Info };
+          return;
+        }
+        result = { query, outcome };
+        box.hide();
+      }),
+      box.onDidHide(() => {
+        for (const d of subs) d.dispose();
+        box.dispose();
+        resolve(result);
+      }),
+    ];
+    box.show();
+  });
+  if (found) await showOutcome(deps, found.query, found.outcome);
+}
+
+async function runSearch(deps: CommandDeps, query: string): Promise<void> {
+  await showOutcome(deps, query, await searchOnce(deps, query));
+}
+
+async function showOutcome(deps: CommandDeps, query: string, outcome: SearchOutcome, feedback: SearchFeedback = NO_FEEDBACK, pickOne = true): Promise<void> {
+  const { controller, search } = deps;
+  if (outcome.kind === 'no-index') {
+    const choice = await vscode.window.showInformationMessage('There is no Undertone index for this workspace yet.', 'Build Index');
+    if (choice) await controller.build('user');
     return;
   }
+  if (outcome.kind === 'message') {
+    void vscode.window.showInformationMessage(outcome.text);
+    return;
+  }
+  if (outcome.kind === 'failed') {
+    void vscode.window.showErrorMessage(`Undertone search failed: ${outcome.text}`);
+    return;
+  }
+  const matches = outcome.matches;
   search.show(query, searchEntries(matches, controller.multiRoot), feedback);
-  if (matches.length === 0) {
-    void vscode.window.showInformationMessage('No indexed file matches that search.');
-    return;
-  }
   if (!pickOne) return;
   const items = searchPickItems(matches, controller.multiRoot);
   const pick = await vscode.window.showQuickPick(items, {

@@ -25,6 +25,10 @@ export interface UndertoneApi {
 }
 
 export function activate(context: vscode.ExtensionContext): UndertoneApi {
+  // First thing, so a person sees at once that Undertone is there and loading (the manifest
+  // activates it at start-up for the same reason; everything heavy runs in the worker).
+  const status = new IndexStatusBar();
+  status.render({ kind: 'starting' });
   const log = vscode.window.createOutputChannel('Undertone', { log: true });
   const storage = context.storageUri?.scheme === 'file' ? context.storageUri.fsPath : undefined;
   const indexFile = storage ? join(storage, INDEX_FILE_NAME) : undefined;
@@ -64,7 +68,6 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
   const searchView = vscode.window.createTreeView(SearchResultsProvider.viewType, { treeDataProvider: search });
   nearby.attach(nearbyView);
   search.attach(searchView);
-  const status = new IndexStatusBar();
   const setContext = (key: string, value: unknown) => void vscode.commands.executeCommand('setContext', key, value);
   const files = new FileEvents(controller, (uri, change, t0) => {
     if (!change || nearby.subject?.fsPath !== uri.fsPath) return;

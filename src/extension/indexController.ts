@@ -7,7 +7,7 @@
 import { decideUpdate, DEFAULT_UPDATE_POLICY, describeReasons, rebuildDelay, type UpdatePolicy } from '../core/index/update/updatePolicy.js';
 import { isCancelled, type WorkerClient } from '../node/worker/client.js';
 import type { InsightRequestType } from '../node/worker/insightProtocol.js';
-import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch } from '../node/worker/workerProtocol.js';
+import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch, type TranslationRef } from '../node/worker/workerProtocol.js';
 import { NO_FEEDBACK, type SearchFeedback } from './viewModels.js';
 import { uniqueRootNames } from '../node/worker/rootMap.js';
 import { noIndexReason, summaryOf, unavailableReason, type IndexState } from './indexState.js';
@@ -19,6 +19,12 @@ import { errorKind } from '../node/worker/workerErrors.js';
 export type { BuildKind, ControllerHost, IndexChange } from './controllerHost.js';
 
 type Listener<T> = (value: T) => void;
+
+/**
+ * Title of the build's progress notification. The editor already names the extension under it
+ * ("Source: Undertone"), so the title does not repeat the name.
+ */
+export const PROGRESS_TITLE = 'Indexing the workspace';
 
 /** Batches larger than this many changes (and larger than the policy's share) are rescanned instead (common practice). */
 const RESCAN_BATCH = 50;
@@ -127,7 +133,7 @@ export class IndexController {
       try {
         if (background) await run();
         else {
-          await this._host.withProgress('Undertone: indexing the workspace', (report, signal) => {
+          await this._host.withProgress(PROGRESS_TITLE, (report, signal) => {
             signal.addEventListener('abort', () => abort.abort(), { once: true });
             return run(report);
           });
@@ -181,6 +187,12 @@ export class IndexController {
     const client = await this.connect();
     if (!client) return [];
     return client.request('search', { query, top, like: feedback.like, unlike: feedback.unlike });
+  }
+
+  /** The same page in other languages as the file at fsPath ([] without an index). */
+  async translations(fsPath: string): Promise<readonly TranslationRef[]> {
+    if (!this._worker || summaryOf(this._state) === null) return [];
+    return this._worker.client.request('translations', { fsPath });
   }
 
   async nearby(fsPath: string, top: number): Promise<readonly ScoredFile[] | null> {
@@ -279,7 +291,7 @@ export class IndexController {
   private onWorkerExit(worker: StartedWorker, code: number): void {
     if (this._worker !== worker) return;
     this._worker = undefined;
-    const message = `The index worker stopped unexpectedly (exit code ${code}). Run "Rebuild Index" to start it again.`;
+    const message = `The index worker stopped unexpectedly (exit code ${code}). Run "Build Index" to start it again.`;
     this._host.log(message);
     this.setState({ kind: 'failed', message, previous: null });
     this.emitChange({ folded: [], removed: [], all: true });

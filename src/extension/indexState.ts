@@ -62,7 +62,7 @@ export function statusBarModel(state: IndexState): StatusBarModel {
   const click = 'Click for Undertone actions.';
   switch (state.kind) {
     case 'starting':
-      return { text: '$(sync~spin) Undertone', tooltip: `Undertone: loading the index… ${click}` };
+      return { text: '$(sync~spin) Undertone: loading…', tooltip: `Undertone: loading the index… ${click}` };
     case 'unavailable':
       return { text: '$(circle-slash) Undertone', tooltip: `Undertone: ${state.reason}` };
     case 'none':
@@ -81,7 +81,7 @@ export function statusBarModel(state: IndexState): StatusBarModel {
     case 'stale':
       return {
         text: `$(warning) Undertone: out of date`,
-        tooltip: `Undertone: the index (${files(state.summary.files)}) is out of date: ${state.reason}. Rebuild it for the best results. ${click}`,
+        tooltip: `Undertone: the index (${files(state.summary.files)}) is out of date: ${state.reason}. Run "Build Index" for the best results. ${click}`,
         background: 'statusBarItem.warningBackground',
       };
     case 'failed':
@@ -103,7 +103,7 @@ export function statusActions(state: IndexState): ActionItem[] {
   if (has) items.push({ label: '$(search) Search Workspace by Meaning…', command: 'undertone.search' });
   if (has) items.push({ label: '$(list-tree) Show Nearby Files', command: 'undertone.showNearby', description: 'for the active file' });
   if (state.kind === 'building') items.push({ label: '$(debug-stop) Cancel Indexing', command: 'undertone.cancelIndexing', description: 'keeps the previous index' });
-  else items.push({ label: has ? '$(refresh) Rebuild Index' : '$(database) Build Index', command: 'undertone.rebuildIndex' });
+  else items.push({ label: has ? '$(refresh) Build Index' : '$(database) Build Index', command: 'undertone.rebuildIndex', description: has ? 'again, from the files' : undefined });
   if (has || state.kind === 'none' || state.kind === 'failed') items.push({ label: '$(trash) Delete Saved Index', command: 'undertone.deleteIndex' });
   items.push({ label: '$(output) Show Log', command: 'undertone.showLog' });
   return items;

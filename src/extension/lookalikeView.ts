@@ -64,7 +64,9 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
         const result = await this._controller.insight('lookalikes', settings);
         if (seq !== this._seq) return;
         if (!result) {
+          // No index (deleted or not built): nothing to list, so the welcome text shows.
           this._result = undefined;
+          this._tree = { sections: [], hidden: 0, shown: 0 };
           this.setMessage(undefined);
           this.render();
           this._stale = true;

@@ -1,23 +1,24 @@
 /**
  * The "Nearby" view: the files nearest in meaning to the active editor's file (or to a file
- * chosen with "Show Nearby Files"), with their scores. Follows the active editor and the index;
+ * chosen with "Show Nearby Files"), with their scores; the file's own translations sit folded in
+ * one row above them, and other pages' translations under those pages. Follows the active editor and the index;
  * the tree stays empty (so the welcome text shows) while there is no index or the file is not in it.
  */
 import * as vscode from 'vscode';
 import type { IndexSummary } from '../node/worker/workerProtocol.js';
 import type { IndexController } from './indexController.js';
 import { summaryOf } from './indexState.js';
-import { nearbyEntries, type ResultEntry } from './viewModels.js';
+import { isPassage, nearbyEntries, subjectTranslationsEntry, type ResultNode } from './viewModels.js';
 import { resultTreeItem } from './resultItem.js';
 
-export class NearbyProvider implements vscode.TreeDataProvider<ResultEntry>, vscode.Disposable {
+export class NearbyProvider implements vscode.TreeDataProvider<ResultNode>, vscode.Disposable {
   static readonly viewType = 'undertone.nearby';
 
-  private _entries: ResultEntry[] = [];
+  private _entries: ResultNode[] = [];
   private _subject: vscode.Uri | undefined;
   private _seq = 0;
   private _pending: Promise<void> = Promise.resolve();
-  private _view: vscode.TreeView<ResultEntry> | undefined;
+  private _view: vscode.TreeView<ResultNode> | undefined;
   private _summary: IndexSummary | null = null;
   private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
   private readonly _disposables: vscode.Disposable[] = [this._onDidChangeTreeData];
@@ -41,7 +42,7 @@ export class NearbyProvider implements vscode.TreeDataProvider<ResultEntry>, vsc
     if (active?.scheme === 'file') this._subject = active;
   }
 
-  attach(view: vscode.TreeView<ResultEntry>): void {
+  attach(view: vscode.TreeView<ResultNode>): void {
     this._view = view;
     this.describe();
   }
@@ -63,13 +64,18 @@ export class NearbyProvider implements vscode.TreeDataProvider<ResultEntry>, vsc
     const subject = this._subject;
     this._pending = (async () => {
       let hits = null;
+      let own: Awaited<ReturnType<IndexController['translations']>> = [];
       try {
-        if (subject && subject.scheme === 'file') hits = await this._controller.nearby(subject.fsPath, this._controller.settings.nearbyCount);
+        if (subject && subject.scheme === 'file') {
+          hits = await this._controller.nearby(subject.fsPath, this._controller.settings.nearbyCount);
+          if (hits) own = await this._controller.translations(subject.fsPath);
+        }
       } catch {
         hits = null; // the worker is restarting or has no index: the welcome text explains
       }
       if (seq !== this._seq) return;
-      this._entries = hits ? nearbyEntries(hits, this._controller.multiRoot) : [];
+      const multiRoot = this._controller.multiRoot;
+      this._entries = hits && subject ? [...subjectTranslationsEntry(subject.fsPath, subject.fsPath, own, multiRoot), ...nearbyEntries(hits, multiRoot)] : [];
       void vscode.commands.executeCommand('setContext', 'undertone.activeIndexed', hits !== null);
       this._onDidChangeTreeData.fire();
     })();
@@ -81,12 +87,13 @@ export class NearbyProvider implements vscode.TreeDataProvider<ResultEntry>, vsc
     return this._pending;
   }
 
-  getTreeItem(entry: ResultEntry): vscode.TreeItem {
-    return resultTreeItem(entry);
+  getTreeItem(node: ResultNode): vscode.TreeItem {
+    return resultTreeItem(node);
   }
 
-  getChildren(entry?: ResultEntry): ResultEntry[] {
-    return entry ? [] : this._entries;
+  getChildren(node?: ResultNode): ResultNode[] {
+    if (!node) return this._entries;
+    return isPassage(node) ? [] : [...(node.children ?? [])];
   }
 
   dispose(): void {

@@ -1,23 +1,26 @@
 /**
  * The "Search Results" view: the results of the last search by meaning, each with its score and
- * best-matching line. When the index changes, deleted files leave at once and the search is run
- * again so scores and lines follow the edits.
+ * best-matching passage (a row under it, the question's words highlighted) and, for a page with
+ * translations, the other languages. When the index changes, deleted files leave at once and the
+ * search is run again so scores and passages follow the edits; when the index goes (deleted,
+ * lost), the results go too and the view's welcome text says why.
  */
 import * as vscode from 'vscode';
 import type { IndexController } from './indexController.js';
+import { summaryOf } from './indexState.js';
 import { resultTreeItem } from './resultItem.js';
-import { feedbackDescription, NO_FEEDBACK, searchEntries, searchViewDescription, withoutKeys, type ResultEntry, type SearchFeedback } from './viewModels.js';
+import { feedbackDescription, isPassage, NO_FEEDBACK, searchEntries, searchViewDescription, withoutKeys, type ResultEntry, type ResultNode, type SearchFeedback } from './viewModels.js';
 
 /** Delay before re-running the last search after index changes (common practice debounce). */
 const RERUN_DELAY_MS = 150;
 
-export class SearchResultsProvider implements vscode.TreeDataProvider<ResultEntry>, vscode.Disposable {
+export class SearchResultsProvider implements vscode.TreeDataProvider<ResultNode>, vscode.Disposable {
   static readonly viewType = 'undertone.searchResults';
 
   private _entries: ResultEntry[] = [];
   private _query: string | undefined;
   private _feedback: SearchFeedback = NO_FEEDBACK;
-  private _view: vscode.TreeView<ResultEntry> | undefined;
+  private _view: vscode.TreeView<ResultNode> | undefined;
   private _rerun: ReturnType<typeof setTimeout> | undefined;
   private _seq = 0;
   private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
@@ -32,10 +35,14 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultEntr
         clearTimeout(this._rerun);
         this._rerun = setTimeout(() => void this.rerun(), RERUN_DELAY_MS);
       }),
+      // No index (deleted, lost, never built): nothing to show, and nothing to re-run.
+      _controller.onDidChangeState((state) => {
+        if (summaryOf(state) === null && (this._query !== undefined || this._entries.length > 0)) this.clear();
+      }),
     );
   }
 
-  attach(view: vscode.TreeView<ResultEntry>): void {
+  attach(view: vscode.TreeView<ResultNode>): void {
     this._view = view;
   }
 
@@ -62,18 +69,20 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultEntr
   }
 
   clear(): void {
+    clearTimeout(this._rerun);
     this._seq++;
     this._query = undefined;
     this._feedback = NO_FEEDBACK;
     this.setEntries([]);
   }
 
-  getTreeItem(entry: ResultEntry): vscode.TreeItem {
-    return resultTreeItem(entry);
+  getTreeItem(node: ResultNode): vscode.TreeItem {
+    return resultTreeItem(node);
   }
 
-  getChildren(entry?: ResultEntry): ResultEntry[] {
-    return entry ? [] : this._entries;
+  getChildren(node?: ResultNode): ResultNode[] {
+    if (!node) return this._entries;
+    return isPassage(node) ? [] : [...(node.children ?? [])];
   }
 
   dispose(): void {

@@ -22,7 +22,8 @@ interface Expectations {
 }
 
 const base = (p: string) => p.slice(p.lastIndexOf('/') + 1);
-const labels = (rows: ListRow[]) => rows.map((r) => r.label);
+/** Labels of the file rows (top level; a search result's passage is a row under it). */
+const labels = (rows: ListRow[]) => rows.filter((r) => (r.level ?? 1) === 1).map((r) => r.label);
 
 describe('Undertone in a real editor', () => {
   let root: string;
@@ -69,7 +70,8 @@ describe('Undertone in a real editor', () => {
   /** With search results open: is `file` listed? Types its name into the quick pick's filter, as a person scanning the list would. */
   const listed = async (file: string): Promise<boolean> => {
     await editor!.quickInput.type(base(file));
-    const row = editor!.quickInput.row(base(file)).filter({ hasText: file });
+    // The row shows the file name as label and its folder in the description.
+    const row = editor!.quickInput.row(base(file)).filter({ hasText: path.posix.dirname(file) });
     const none = editor!.page.locator('.quick-input-widget .quick-input-list .monaco-list-row').first();
     await waitFor(async () => (await row.isVisible()) || !(await none.isVisible()), 10_000, `the filtered list for ${file}`);
     return row.isVisible();
@@ -146,8 +148,8 @@ describe('Undertone in a real editor', () => {
     const rows = await search(q.text);
     await editor!.screenshot('extension-2-search-quick-pick');
     expect(rows.length).toBeGreaterThan(3);
-    // Each row shows its score and path as description (and the matching line as detail).
-    for (const r of rows.slice(0, 3)) expect(r.description).toMatch(/^\d\.\d\d\s+\S+\/?\S*$/);
+    // Each row shows its score and folder as description (and the matching passage as detail).
+    for (const r of rows.slice(0, 3)) expect(r.description).toMatch(/^\d\.\d\d( · \S+)?$/);
     await editor!.quickInput.close();
     await showUndertone();
     const results = await waitForRows('Search Results', (r) => r.length > 0, 'search results in the view');
@@ -218,9 +220,9 @@ describe('Undertone in a real editor', () => {
     await status().click();
     await inputTitled(/^Undertone$/);
     const actions = labels(await editor!.quickInput.rows());
-    expect(actions).toEqual(expect.arrayContaining(['Search Workspace by Meaning…', 'Rebuild Index', 'Delete Saved Index']));
+    expect(actions).toEqual(expect.arrayContaining(['Search Workspace by Meaning…', 'Build Index', 'Delete Saved Index']));
     await editor!.screenshot('extension-6b-status-actions');
-    await editor!.quickInput.pick('Rebuild Index');
+    await editor!.quickInput.pick('Build Index');
     // The rebuild is quick here; its line in the extension's log (Output panel) shows it ran and reused every file
     // (\s, not ' ': the editor renders spaces as no-break spaces).
     await editor!.runCommand('Undertone: Show Log');

@@ -48,4 +48,17 @@ describe('why tooltips', () => {
     expect(formatShare(-0.0004)).toBe('0.000');
     expect(formatShare(-0.0006)).toBe('−0.001');
   });
+
+  it('explains a nearby file first by the concepts both files share, their shares adding up to the score', () => {
+    const why = {
+      score: 0.6, terms: [{ word: 'suspend', share: 0.2, inBoth: true }], rest: 0.4, restTerms: 30,
+      concepts: [{ words: ['suspend', 'resume', 'sleep'], share: 0.35 }, { words: ['power', 'battery'], share: 0.1 }], conceptRest: 0.15,
+    };
+    const text = whyMarkdown('power/a.md', why, 'nearby');
+    const concepts = text.indexOf('the concepts both files share');
+    expect(concepts).toBeGreaterThan(0);
+    expect(text.indexOf('| suspend, resume, sleep | 0.350 |')).toBeGreaterThan(concepts);
+    expect(text).toContain('| other concepts | 0.150 |');
+    expect(text.indexOf('And the terms contributing most')).toBeGreaterThan(concepts);
+  });
 });

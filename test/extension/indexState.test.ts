@@ -13,6 +13,10 @@ describe('status bar', () => {
     expect(stale.background).toBe('statusBarItem.warningBackground');
   });
 
+  it('shows the item from the start, saying it is loading', () => {
+    expect(statusBarModel({ kind: 'starting' }).text).toBe('$(sync~spin) Undertone: loading…');
+  });
+
   it('says in the tooltip that the previous index stays in use during a rebuild', () => {
     expect(statusBarModel({ kind: 'building', percent: 5, background: true, previous: summary }).tooltip).toContain('previous index (1,234 files) stays in use');
   });
@@ -25,6 +29,8 @@ describe('status actions', () => {
     expect(commands({ kind: 'ready', summary })).toEqual(['undertone.search', 'undertone.showNearby', 'undertone.rebuildIndex', 'undertone.deleteIndex', 'undertone.showLog']);
     expect(commands({ kind: 'none' })).toEqual(['undertone.rebuildIndex', 'undertone.deleteIndex', 'undertone.showLog']);
     expect(statusActions({ kind: 'none' })[0].label).toBe('$(database) Build Index');
+    // One name for the command everywhere, whether an index exists or not.
+    expect(statusActions({ kind: 'ready', summary }).find((a) => a.command === 'undertone.rebuildIndex')!.label).toBe('$(refresh) Build Index');
   });
 
   it('offers cancel instead of rebuild while building, and nothing where files cannot be read', () => {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
-  formatScore, locationOf, nearbyEntries, searchEntries, searchPickItems, searchViewDescription, withoutKeys,
+  EMPTY_QUESTION_MESSAGE, formatScore, locationOf, markedPassage, nearbyEntries, noKnownWordsMessage, SEARCH_PLACEHOLDER, searchEntries,
+  searchPickItems, searchViewDescription, subjectTranslationsEntry, withoutKeys,
 } from '../../src/extension/viewModels.js';
 
 const hit = (relPath: string, score: number, folder = 'ferry') => ({ key: relPath, fsPath: `/w/${folder}/${relPath}`, folder, relPath, score });
@@ -19,15 +20,45 @@ describe('result entries', () => {
     expect(nearbyEntries([hit('src/a.ts', 0.3, 'api')], true)[0].tooltip.split('\n')[0]).toBe('api/src/a.ts');
   });
 
-  it('gives search results their one-based line and the matching text', () => {
-    const [e] = searchEntries([{ ...hit('notes/refunds.md', 0.7), line: 11, lineText: 'Money is paid back within five days.' }], false);
-    expect(e).toMatchObject({ label: 'refunds.md', description: '0.70 · 12: Money is paid back within five days.', line: 11 });
+  it('shows the folder beside a search result, and its passage as a row under it with the query words marked', () => {
+    // Two files of one name in different folders (249 index.rst files in a real tree): the folder tells them apart.
+    const [e, f] = searchEntries([
+      { ...hit('notes/refunds.md', 0.7), line: 11, lineText: 'Money is paid back within five days.', highlights: [[0, 5]] },
+      { ...hit('archive/refunds.md', 0.6), line: 0, lineText: '' },
+    ], false);
+    expect(e).toMatchObject({ label: 'refunds.md', description: '0.70 · notes', line: 11, expanded: true });
+    expect(f).toMatchObject({ label: 'refunds.md', description: '0.60 · archive' });
+    expect(f.children).toBeUndefined();
+    expect(e.children).toEqual([{ kind: 'passage', key: 'notes/refunds.md#passage', fsPath: '/w/ferry/notes/refunds.md', text: 'Money is paid back within five days.', highlights: [[0, 5]], line: 11 }]);
+    expect(markedPassage('Money is paid back', [[0, 5], [9, 13]], (x) => x)).toBe('**Money** is **paid** back');
   });
 
-  it('builds quick pick rows with the path and the matching line', () => {
-    const [item] = searchPickItems([{ ...hit('notes/refunds.md', 0.7), line: 0, lineText: 'Refunds' }], false);
-    expect(item).toMatchObject({ label: '$(file) refunds.md', description: '0.70  notes/refunds.md', detail: '1: Refunds' });
+  it('folds a page\'s translations under it and says how many there are', () => {
+    const t = (relPath: string, language: string) => ({ key: relPath, fsPath: `/w/docs/${relPath}`, folder: 'docs', relPath, language });
+    const [e] = searchEntries([{ ...hit('power/suspend.page', 0.5), line: 2, lineText: 'Suspend sends it to sleep.', language: 'original', translations: [t('de/power/suspend.page', 'de, German'), t('zh_CN/power/suspend.page', 'zh_CN, Chinese')] }], false);
+    expect(e.description).toBe('0.50 · power · +2 languages');
+    expect(e.children!.map((c) => ('label' in c ? `${c.label}: ${c.description}` : c.kind))).toEqual(['passage', 'In 2 other languages: de, zh_CN']);
+    const folded = e.children![1] as unknown as { children: { label: string; description: string }[]; expanded: boolean };
+    expect(folded.expanded).toBe(false);
+    expect(folded.children.map((c) => `${c.label} ${c.description}`)).toEqual(['suspend.page de, German · de/power', 'suspend.page zh_CN, Chinese · zh_CN/power']);
+    const [n] = nearbyEntries([{ ...hit('power/suspend.page', 0.5), language: 'original', translations: [t('de/power/suspend.page', 'de, German')] }], false);
+    expect(n).toMatchObject({ description: '0.50 · power · +1 language', expanded: false });
+    expect(subjectTranslationsEntry('k', '/w/k', [], false)).toEqual([]);
+    expect(subjectTranslationsEntry('k', '/w/k', [t('de/power/suspend.page', 'de, German')], false)[0]).toMatchObject({ label: 'This page in 1 other language', heading: true });
+  });
+
+  it('builds quick pick rows with the folder and the matching passage', () => {
+    const [item] = searchPickItems([{ ...hit('notes/refunds.md', 0.7), line: 0, lineText: 'Refunds are paid within five days' }], false);
+    expect(item).toMatchObject({ label: '$(file) refunds.md', description: '0.70 · notes', detail: 'Refunds are paid within five days' });
     expect(item.entry.line).toBe(0);
+  });
+
+  it('answers an empty question and one with no known words calmly, with a neutral placeholder', () => {
+    // The placeholder must not come from any one workspace (it was a question about the demo's ferries).
+    expect(SEARCH_PLACEHOLDER).not.toMatch(/ticket|crossing|ferry|e\.g\./i);
+    expect(EMPTY_QUESTION_MESSAGE).toMatch(/^Type a question/);
+    expect(noKnownWordsMessage('zzqx')).toMatch(/None of the words in “zzqx” occur in the indexed files/);
+    expect(noKnownWordsMessage('x'.repeat(60))).toContain('…');
   });
 
   it('drops removed files at once', () => {

@@ -6,6 +6,7 @@
  */
 import { explainPair, QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
 import type { LsiIndex, SearchOptions } from '../../core/index/lsiIndex.js';
+import { sharedConcepts } from '../../core/explain/sharedConcepts.js';
 import type { Why } from './insightProtocol.js';
 import type { WordFor } from './wordForms.js';
 
@@ -30,9 +31,14 @@ export function searchWhy(index: LsiIndex, query: string, paths: readonly string
   return paths.map((p) => attempt(() => toWhy(explainer.explain(p), wordFor)));
 }
 
-/** Why each file is near the subject file (cosine of their concept vectors). */
+/** Why each file is near the subject file (cosine of their concept vectors): by term, and by the concepts both share. */
 export function nearbyWhy(index: LsiIndex, subject: string, paths: readonly string[], wordFor: WordFor): (Why | undefined)[] {
-  return paths.map((p) => attempt(() => toWhy(explainPair(index, subject, p), wordFor)));
+  return paths.map((p) => attempt(() => {
+    const why = toWhy(explainPair(index, subject, p), wordFor);
+    const shared = attempt(() => sharedConcepts(index, subject, p));
+    if (!shared) return why;
+    return { ...why, concepts: shared.concepts.map((c) => ({ words: c.terms.map(wordFor), share: c.share })), conceptRest: shared.rest };
+  }));
 }
 
 function attempt<T>(f: () => T): T | undefined {

@@ -15,11 +15,15 @@ import { modelSettingsKey, resolveSettings } from '../../core/index/model/settin
 import { loadIndex, trySaveIndex } from '../persist.js';
 import { readIndexableText } from '../scan.js';
 import { prepareInBackground } from './backgroundPrepare.js';
-import { bestMatchingLine } from './bestLine.js';
+import { bestMatchingLine, queryScorer } from './bestLine.js';
 import { nearbyWhy, searchWhy } from './explainHits.js';
 import { FileAdmission } from './fileAdmission.js';
+import { chooseShown, isOriginalPath } from '../../core/translations/groupTranslations.js';
+import { questionFit, questionUnits } from '../../core/translations/language.js';
+import { translationPath } from '../../core/translations/pathKey.js';
+import { TranslationFinder } from './translationFinder.js';
 import { InsightService } from './insightService.js';
-import type { FileChange, IndexSummary, RefreshReport, UpdateReport, WorkerConfig } from './workerProtocol.js';
+import type { FileChange, IndexSummary, RefreshReport, ScoredFile, SearchMatch, TranslationRef, UpdateReport, WorkerConfig } from './workerProtocol.js';
 import { RootMap } from './rootMap.js';
 import type { HandlerContext, Handlers } from './server.js';
 import { formsFromTexts } from './wordForms.js';
@@ -61,6 +65,11 @@ export class IndexService {
     maxFileBytes: () => this.config().maxFileBytes,
   });
 
+  private readonly _translations = new TranslationFinder(async (key) => {
+    const got = await readIndexableText(this._roots.refOf(key).fsPath, this.config().maxFileBytes);
+    return got.kind === 'text' ? got.text : null;
+  });
+
   constructor(options: Partial<IndexServiceOptions> = {}) {
     this._options = { ...DEFAULT_INDEX_SERVICE_OPTIONS, ...options };
   }
@@ -83,6 +92,7 @@ export class IndexService {
       update: async ({ changes }) => this.update(changes),
       search: async ({ query, top, like, unlike }) => this.search(query, top, like, unlike),
       nearby: async ({ fsPath, top }) => this.nearby(fsPath, top),
+      translations: async ({ fsPath }) => this.translationsOf(fsPath),
       save: async () => {
         const saved = await this.save();
         return this._saveProblem ? { saved, problem: this._saveProblem } : { saved };
@@ -142,7 +152,12 @@ export class IndexService {
     return { summary: this.summary(), folded, removed, ms: performance.now() - t0 };
   }
 
-  async search(query: string, top: number, like: readonly string[] = [], unlike: readonly string[] = []) {
+  /**
+   * The best files for a query. A page and its translations (core/translations/) make one result,
+   * shown in the member that fits the question's words best, the others listed under it; a few
+   * extra hits are ranked so that collapsing groups still fills `top`.
+   */
+  async search(query: string, top: number, like: readonly string[] = [], unlike: readonly string[] = []): Promise<SearchMatch[]> {
     const index = this.requireIndex();
     const keyOf = (fsPath: string): string => {
       const key = this._roots.keyOf(fsPath);
@@ -150,28 +165,89 @@ export class IndexService {
       return key;
     };
     const feedback = { like: like.map(keyOf), unlike: unlike.map(keyOf) };
-    const hits = index.search(query, { top, ...feedback });
-    const why = searchWhy(index, query, hits.map((h) => h.path), formsFromTexts([query], index.settings.tokenize.stem), feedback);
+    const hits = index.search(query, { top: top + Math.min(top, 20), ...feedback });
+    const groups = await this._translations.groupsOf(index, hits.map((h) => h.path));
+    const units = questionUnits(query);
+    const rankOf = new Map(hits.map((h, i) => [h.path, i]));
+    const scoreOf = new Map(hits.map((h) => [h.path, h.score]));
+    const picked: { key: string; others: string[] }[] = [];
+    const used = new Set<string>();
+    for (const h of hits) {
+      if (used.has(h.path)) continue;
+      const members = groups.get(h.path) ?? [h.path];
+      for (const m of members) used.add(m);
+      const shown = members.length < 2 ? h.path : members[chooseShown(members.map((m) => ({
+        fit: questionFit(units, this._translations.units(m)),
+        rank: rankOf.get(m) ?? Infinity,
+        original: isOriginalPath(m),
+      })))];
+      picked.push({ key: shown, others: members.filter((m) => m !== shown) });
+      if (picked.length === top) break;
+    }
+    const why = searchWhy(index, query, picked.map((p) => p.key), formsFromTexts([query], index.settings.tokenize.stem), feedback);
+    const scorer = queryScorer(index, query);
     return Promise.all(
-      hits.map(async (h, i) => {
-        const ref = this._roots.refOf(h.path);
+      picked.map(async (p, i) => {
+        const ref = this._roots.refOf(p.key);
         const got = await readIndexableText(ref.fsPath, this.config().maxFileBytes);
-        const line = got.kind === 'text' ? bestMatchingLine(got.text, index, query) : { line: 0, text: '' };
-        return { ...ref, score: h.score, why: why[i], line: line.line, lineText: line.text };
+        const line = got.kind === 'text' ? bestMatchingLine(got.text, index, query, scorer) : { line: 0, text: '', highlights: [] };
+        // A member shown in place of a ranked translation gets its own score where it can be worked out.
+        const score = scoreOf.get(p.key) ?? why[i]?.score ?? scoreOf.get(p.others.find((o) => scoreOf.has(o)) ?? '') ?? 0;
+        return { ...ref, score, why: why[i], line: line.line, lineText: line.text, highlights: line.highlights, ...this.translationFields(p.key, p.others) };
       }),
     );
   }
 
-  /** The nearest files, each with why it is near (readable words learned from the subject file). */
-  async nearby(fsPath: string, top: number) {
+  /**
+   * The nearest files, each with why it is near (readable words learned from the subject file).
+   * The subject's own translations are left out (the view lists them apart, see translationsOf);
+   * other pages with translations make one entry, in the subject's language where they have it.
+   */
+  async nearby(fsPath: string, top: number): Promise<ScoredFile[] | null> {
     const key = this._roots.keyOf(fsPath);
     if (!this._index || key === undefined || !this._index.has(key)) return null;
     const got = await readIndexableText(fsPath, this.config().maxFileBytes).catch(() => null);
     const index = this._index; // read again: an edit may have landed during the read
     if (!index || !index.has(key)) return null;
-    const hits = index.nearby(key, { top });
-    const why = nearbyWhy(index, key, hits.map((h) => h.path), formsFromTexts(got?.kind === 'text' ? [got.text] : [], index.settings.tokenize.stem));
-    return hits.map((h, i) => ({ ...this._roots.refOf(h.path), score: h.score, why: why[i] }));
+    const hits = index.nearby(key, { top: top + Math.min(top, 20) });
+    const groups = await this._translations.groupsOf(index, [key, ...hits.map((h) => h.path)]);
+    const own = new Set(groups.get(key) ?? [key]);
+    const locale = translationPath(key).locale;
+    const rankOf = new Map(hits.map((h, i) => [h.path, i]));
+    const scoreOf = new Map(hits.map((h) => [h.path, h.score]));
+    const picked: { key: string; others: string[]; score: number }[] = [];
+    const used = new Set<string>(own);
+    for (const h of hits) {
+      if (used.has(h.path)) continue;
+      const members = groups.get(h.path) ?? [h.path];
+      for (const m of members) used.add(m);
+      const shown = members.length < 2 ? h.path : members[chooseShown(members.map((m) => ({
+        fit: translationPath(m).locale === locale ? 1 : 0,
+        rank: rankOf.get(m) ?? Infinity,
+        original: isOriginalPath(m),
+      })))];
+      picked.push({ key: shown, others: members.filter((m) => m !== shown), score: scoreOf.get(shown) ?? h.score });
+      if (picked.length === top) break;
+    }
+    const why = nearbyWhy(index, key, picked.map((p) => p.key), formsFromTexts(got?.kind === 'text' ? [got.text] : [], index.settings.tokenize.stem));
+    return picked.map((p, i) => ({ ...this._roots.refOf(p.key), score: scoreOf.has(p.key) ? p.score : (why[i]?.score ?? p.score), why: why[i], ...this.translationFields(p.key, p.others) }));
+  }
+
+  /** The same page in other languages as the file at fsPath. */
+  async translationsOf(fsPath: string): Promise<TranslationRef[]> {
+    const key = this._roots.keyOf(fsPath);
+    const index = this._index;
+    if (!index || key === undefined || !index.has(key)) return [];
+    const group = (await this._translations.groupsOf(index, [key])).get(key) ?? [];
+    return group.filter((k) => k !== key).map((k) => ({ ...this._roots.refOf(k), language: this._translations.label(k) }));
+  }
+
+  private translationFields(key: string, others: readonly string[]): Pick<ScoredFile, 'language' | 'translations'> {
+    if (others.length === 0) return {};
+    return {
+      language: this._translations.label(key),
+      translations: others.map((k) => ({ ...this._roots.refOf(k), language: this._translations.label(k) })),
+    };
   }
 
   /** Saves a changed index; false (and saveProblem set) when it could not be written. */

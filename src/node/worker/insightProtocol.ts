@@ -21,6 +21,10 @@ export interface Why {
   readonly terms: readonly WhyTerm[];
   readonly rest: number;
   readonly restTerms: number;
+  /** Nearby only: the concepts both files share (core/explain/sharedConcepts.ts), named by readable words. */
+  readonly concepts?: readonly { readonly words: readonly string[]; readonly share: number }[];
+  /** Nearby only: the other concepts' part, so concepts + conceptRest = score. */
+  readonly conceptRest?: number;
 }
 
 /** The four overlap bands (core/lookalike/types.ts OverlapBand). */

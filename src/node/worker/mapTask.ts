@@ -79,7 +79,14 @@ export async function computeMap(index: LsiIndex, roots: RootMap, topics: Topics
   };
 }
 
-/** Places free text on both layouts and names its nearest files (rows of the map). */
+const rowsByPath = new WeakMap<MapModel, Map<string, number>>();
+
+/**
+ * Places free text on both layouts (by its concept vector) and names the files to ring: the best
+ * answers of a search for it (the index's own ranking, concept cosine blended with BM25), so the
+ * map's first ringed file is the search's first answer. Files added since the map was drawn are
+ * skipped (they have no dot yet).
+ */
 export function placeMapQuery(model: MapModel, text: string): MapQueryResult {
   const q = model.index.projectText(text);
   let ss = 0;
@@ -89,7 +96,14 @@ export function placeMapQuery(model: MapModel, text: string): MapQueryResult {
   const placed = model.faithful ? placeQueryFaithful(model.faithful, q) : null;
   let neighbours: ArrayLike<number>;
   let similarities: ArrayLike<number>;
-  if (placed) ({ neighbours, similarities } = placed);
+  const ringed = DEFAULT_QUERY_PLACEMENT_OPTIONS.neighbours;
+  let rowOf = rowsByPath.get(model);
+  if (!rowOf) rowsByPath.set(model, (rowOf = new Map(model.data.files.paths.map((p, i) => [p, i]))));
+  const hits = model.index.search(text, { top: ringed * 2 }).filter((h) => rowOf.has(h.path)).slice(0, ringed);
+  if (hits.length > 0) {
+    neighbours = hits.map((h) => rowOf.get(h.path)!);
+    similarities = hits.map((h) => h.score);
+  } else if (placed) ({ neighbours, similarities } = placed);
   else ({ index: neighbours, similarity: similarities } = nearestByCosine(model.vectors, model.count, model.index.k, q, DEFAULT_QUERY_PLACEMENT_OPTIONS.neighbours));
   return {
     positions: { quick: { x: quick.x, y: quick.y }, faithful: placed ? { x: placed.x, y: placed.y } : null },

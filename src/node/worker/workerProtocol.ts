@@ -35,16 +35,28 @@ export interface WorkerConfig {
 
 export type { FileRef } from './fileRef.js';
 
+/** A translation of a result file (core/translations/groupTranslations.ts). */
+export interface TranslationRef extends FileRef {
+  /** How its language is shown: the language code of its path and/or the language of its text. */
+  readonly language: string;
+}
+
 export interface ScoredFile extends FileRef {
   readonly score: number;
   /** The terms contributing most to the score (insightProtocol.ts), when they could be worked out. */
   readonly why?: Why;
+  /** Its language as shown, when it has translations. */
+  readonly language?: string;
+  /** The same page in other languages (listed under it instead of as results of their own). */
+  readonly translations?: readonly TranslationRef[];
 }
 
 export interface SearchMatch extends ScoredFile {
-  /** Zero-based line that best matches the query, and its text (trimmed, shortened). */
+  /** Zero-based line where the best-matching passage starts, and the passage (cleaned, shortened). */
   readonly line: number;
   readonly lineText: string;
+  /** [start, end) ranges of lineText holding the query's words. */
+  readonly highlights?: readonly (readonly [number, number])[];
 }
 
 export interface IndexSummary {
@@ -113,6 +125,8 @@ export interface RequestMap extends InsightRequestMap {
   update: { params: { changes: readonly FileChange[] }; result: UpdateReport };
   /** `like` / `unlike`: files (fsPaths) to find more / fewer like (Rocchio feedback; they are not listed). */
   search: { params: { query: string; top: number; like?: readonly string[]; unlike?: readonly string[] }; result: readonly SearchMatch[] };
+  /** The translations of a file (the same page in other languages); [] when it has none or is not indexed. */
+  translations: { params: { fsPath: string }; result: readonly TranslationRef[] };
   /** Files nearest in meaning; null when the file is not in the index. */
   nearby: { params: { fsPath: string; top: number }; result: readonly ScoredFile[] | null };
   /** Writes the index if it changed since it was last saved. */
@@ -149,7 +163,7 @@ export type WorkerMessage =
   | { readonly kind: 'error'; readonly id: number; readonly error: WireError }
   | { readonly kind: 'progress'; readonly id: number; readonly progress: Progress };
 
-export const REQUEST_TYPES: readonly RequestType[] = ['configure', 'load', 'refresh', 'build', 'update', 'search', 'nearby', 'save', 'deleteIndex', ...INSIGHT_REQUEST_TYPES];
+export const REQUEST_TYPES: readonly RequestType[] = ['configure', 'load', 'refresh', 'build', 'update', 'search', 'nearby', 'translations', 'save', 'deleteIndex', ...INSIGHT_REQUEST_TYPES];
 
 const isObject = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null;
 const isId = (x: unknown): x is number => Number.isSafeInteger(x) && (x as number) >= 0;

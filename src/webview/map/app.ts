@@ -9,6 +9,8 @@ import type { HostToPageMessage, MapPoint } from '../../core/map/mapMessages.js'
 import type { MapBridge } from './bridge.js';
 import { el, formatCount } from './dom.js';
 import { Legend } from './legend.js';
+import { RegionLabelLayer } from './regionLabelLayer.js';
+import { spectrumGuidance } from '../../core/map/spectrumGuidance.js';
 import { MapCanvas } from './mapCanvas.js';
 import { baseRadius, type MapScene } from './mapRenderer.js';
 import { SpectrumChart } from './spectrumChart.js';
@@ -91,10 +93,14 @@ export class MapApp {
     });
     const mapPanel = el('section', { className: 'um-panel um-map-panel', attrs: { role: 'tabpanel', 'aria-label': 'Map' } }, [
       mapCanvas,
-      el('div', { className: 'um-status', attrs: { 'aria-live': 'polite' } }, [this.status, this.statusPath]),
-      el('div', { className: 'um-hint', text: 'Scroll to zoom · drag to pan · click a dot to open' }),
+      // One line at the bottom: the status shrinks (ellipsis, full text on hover) and never runs over the hint.
+      el('div', { className: 'um-footer' }, [
+        el('div', { className: 'um-status', attrs: { 'aria-live': 'polite' } }, [this.status, this.statusPath]),
+        el('div', { className: 'um-hint', text: 'Scroll to zoom · drag to pan · click a dot to open' }),
+      ]),
     ]);
     this.tooltip = new Tooltip(mapPanel);
+    this.scene.labels = this.regionLabels(this.view.labels);
     this.legend = this.makeLegend();
     mapPanel.append(this.zoomBar, this.legend.element);
     this.zoomBar.hidden = true;
@@ -112,10 +118,16 @@ export class MapApp {
     });
     const { singularValues, totalEnergy, k } = data.spectrum;
     this.spectrum = new SpectrumChart(spectrumCanvas, singularValues, totalEnergy, k, this.theme);
-    caption.textContent =
-      `Bars: the ${singularValues.length} singular values computed for the weighted term–document matrix. ` +
-      `Line: cumulative share of its energy, Σσ²/‖A‖²F. The index keeps k = ${k} factors (${(100 * this.spectrum.keptShare).toFixed(1)}%).`;
-    this.legend.setColours((t) => this.colourOf(t));
+    const guidance = spectrumGuidance(singularValues, totalEnergy, k);
+    caption.append(
+      el('p', { className: 'um-spectrum-guidance', text: guidance.summary }),
+      el('p', { text: guidance.advice }),
+      el('p', {
+        className: 'um-spectrum-legend',
+        text: `Bars: the ${singularValues.length} singular values computed for the weighted term–document matrix. Line: the share of its energy (Σσ²/‖A‖²F) kept by the first k concepts.`,
+      }),
+    );
+    this.legend.setColours((t) => this.colourOf(t), (t) => this.shapeOf(t));
     watchTheme(() => this.refreshTheme());
     this.showTab(this.tab);
     this.updateLayoutButtons();
@@ -213,8 +225,10 @@ export class MapApp {
     this.root.dataset.queryPlaced = String(this.scene.query !== null);
     if (q && at) {
       const best = q.neighbours[0];
-      const near = best === undefined ? 'no similar files' : `nearest: ${this.data.files.paths[best]} (cosine ${q.similarities[0].toFixed(2)})`;
-      this.setStatus(`“${q.text}” placed · ${q.neighbours.length} nearest files ringed · ${near}`);
+      // The rings are search's own ranking (the worker ranks them as a search does), so the first is search's first answer.
+      const near = best === undefined ? 'no matching files' : `best: ${this.data.files.paths[best]} (score ${q.similarities[0].toFixed(2)})`;
+      const shown = q.text.length > 32 ? `${q.text.slice(0, 31)}…` : q.text;
+      this.setStatus(`“${shown}” placed · ringed: its ${q.neighbours.length} best search results · ${near}`);
       const sx = this.canvas.vp.sx(at.x);
       const sy = this.canvas.vp.sy(at.y);
       if (reveal && (sx < 0 || sy < 0 || sx > this.canvas.vp.width || sy > this.canvas.vp.height)) this.canvas.vp.pan(this.canvas.vp.width / 2 - sx, this.canvas.vp.height / 2 - sy);
@@ -264,7 +278,11 @@ export class MapApp {
     this.theme = readTheme(this.root, this.view.labels.length);
     this.canvas.setTheme(this.theme);
     this.spectrum.setTheme(this.theme);
-    this.legend.setColours((t) => this.colourOf(t));
+    this.legend.setColours((t) => this.colourOf(t), (t) => this.shapeOf(t));
+  }
+
+  private shapeOf(topic: number): number {
+    return topic >= 0 ? (this.theme.shapes[topic] ?? 0) : 0;
   }
 
   private colourOf(topic: number): string {
@@ -276,6 +294,15 @@ export class MapApp {
     for (const t of this.view.topicIds) counts.set(t, (counts.get(t) ?? 0) + 1);
     const none = this.view.focus === null ? 'No topic' : 'Outside this topic';
     return [...counts].map(([topic, count]) => ({ topic, count, label: topic >= 0 ? this.view.labels[topic] : none }));
+  }
+
+  /** Each topic's words over its region (the labels of the level shown). */
+  private regionLabels(labels: readonly string[]): RegionLabelLayer {
+    const style = getComputedStyle(this.root);
+    return new RegionLabelLayer(labels, `600 12px ${style.getPropertyValue('--um-font').trim() || 'sans-serif'}`, (shown) => {
+      const value = shown.join(' | ');
+      if (this.root.dataset.regionLabels !== value) this.root.dataset.regionLabels = value;
+    });
   }
 
   private makeLegend(): Legend {
@@ -300,6 +327,7 @@ export class MapApp {
     scene.topicIds = this.view.topicIds;
     scene.groups = groupByTopic(this.view.topicIds, this.view.labels.length);
     scene.focusTopic = null;
+    this.scene.labels = this.regionLabels(this.view.labels);
     const legend = this.makeLegend();
     this.legend.element.replaceWith(legend.element);
     this.legend = legend;
@@ -326,6 +354,7 @@ export class MapApp {
 
   private setStatus(text: string): void {
     this.status.textContent = text;
+    this.status.title = text;
   }
 
   private save(): void {

@@ -19,6 +19,8 @@ export interface RasterGroup {
   readonly members: Int32Array;
   readonly colour: Rgb;
   readonly alpha: number;
+  /** 0 circle, 1 square, 2 triangle (distinctPalette.ts: the second cue past the palette's size). */
+  readonly shape?: number;
 }
 
 export class DotRaster {
@@ -50,7 +52,7 @@ export class DotRaster {
         const r = radius[i] * grow * dpr;
         const cx = Math.round(vp.sx(x[i]) * dpr);
         const cy = Math.round(vp.sy(y[i]) * dpr);
-        const s = this.stamp(r);
+        const s = this.stamp(r, g.shape ?? 0);
         const x0 = cx - s.half;
         const y0 = cy - s.half;
         if (x0 >= w || y0 >= h || x0 + s.side <= 0 || y0 + s.side <= 0) continue;
@@ -73,22 +75,27 @@ export class DotRaster {
     ctx.putImageData(this.image, 0, 0);
   }
 
-  private stamp(r: number): Stamp {
+  private stamp(r: number, shape: number): Stamp {
     const q = Math.max(1, Math.round(r * 4));
-    let s = this.stamps.get(q);
+    let s = this.stamps.get(q * 4 + shape);
     if (!s) {
       const radius = q / 4;
-      const half = Math.ceil(radius + 0.5);
+      const half = Math.ceil(radius * (shape === 2 ? 1.4 : 1) + 0.5);
       const side = 2 * half + 1;
       const coverage = new Float32Array(side * side);
       for (let yy = 0; yy < side; yy++) {
         for (let xx = 0; xx < side; xx++) {
-          const d = Math.hypot(xx - half, yy - half);
+          const dx = xx - half;
+          const dy = yy - half;
+          // Signed distance outside the shape: circle, square (same half-width), triangle pointing up.
+          const d = shape === 1 ? Math.max(Math.abs(dx), Math.abs(dy))
+            : shape === 2 ? radius + Math.max(dy - 0.675 * radius, 0.866 * Math.abs(dx) - 0.5 * dy - 0.675 * radius)
+            : Math.hypot(dx, dy);
           coverage[yy * side + xx] = Math.max(0, Math.min(1, radius + 0.5 - d));
         }
       }
       s = { half, side, coverage };
-      this.stamps.set(q, s);
+      this.stamps.set(q * 4 + shape, s);
     }
     return s;
   }

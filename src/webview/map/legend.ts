@@ -53,7 +53,10 @@ export class Legend {
     }
   }
 
-  setColours(colourOf: (topic: number) => string): void {
-    for (const [topic, swatch] of this.swatches) swatch.style.background = colourOf(topic);
+  setColours(colourOf: (topic: number) => string, shapeOf: (topic: number) => number = () => 0): void {
+    for (const [topic, swatch] of this.swatches) {
+      swatch.style.background = colourOf(topic);
+      swatch.dataset.shape = String(shapeOf(topic));
+    }
   }
 }

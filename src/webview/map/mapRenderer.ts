@@ -21,6 +21,8 @@ export interface MapScene {
   hovered: number | null;
   focusTopic: number | null;
   query: { x: number; y: number; neighbours: readonly number[] } | null;
+  /** Writes the topics' words over their regions (regionLabelLayer.ts), when the page has topics. */
+  labels?: { draw(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, theme: MapTheme): void };
 }
 
 /** Dot radius from token count: grows with log length, a little smaller on crowded maps. */
@@ -44,7 +46,7 @@ export function drawMap(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapS
     const rasterGroups = groups.map((members, g) => {
       const dimmed = scene.focusTopic !== null && (g === last || g !== scene.focusTopic);
       const colour = g === last ? theme.rgb.unassigned : theme.rgb.topics[g % Math.max(1, theme.rgb.topics.length)];
-      return { members, colour, alpha: dimmed ? 0.14 : 0.8 };
+      return { members, colour, alpha: dimmed ? 0.14 : 0.8, shape: g === last ? 0 : (theme.shapes[g] ?? 0) };
     });
     ctx.setTransform(1, 0, 0, 1, 0, 0);
     raster.draw(ctx, vp, dpr, x, y, radius, grow, rasterGroups, theme.rgb.bg);
@@ -53,6 +55,7 @@ export function drawMap(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapS
     drawDotPaths(ctx, vp, scene, theme, grow);
   }
   ctx.globalAlpha = 1;
+  scene.labels?.draw(ctx, vp, scene, theme);
   drawQuery(ctx, vp, scene, theme, grow);
   if (scene.selected !== null) ring(ctx, vp, scene, scene.selected, theme.fg, 2, 4 * grow, grow);
   if (scene.hovered !== null && scene.hovered !== scene.selected) ring(ctx, vp, scene, scene.hovered, theme.fg, 1.5, 3, grow);
@@ -69,14 +72,22 @@ function drawDotPaths(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapSce
     const alpha = dimmed ? 0.14 : crowded ? 0.78 : 0.92;
     ctx.beginPath();
     const members = groups[g];
+    const shape = isUnassigned ? 0 : (theme.shapes[g] ?? 0);
     for (let t = 0; t < members.length; t++) {
       const i = members[t];
       const sx = vp.sx(x[i]);
       const sy = vp.sy(y[i]);
       const r = radius[i] * grow;
       if (sx < -r || sy < -r || sx > vp.width + r || sy > vp.height + r) continue;
-      if (r < 1.2) {
+      if (r < 1.2 || shape === 1) {
         ctx.rect(sx - r, sy - r, 2 * r, 2 * r);
+      } else if (shape === 2) {
+        // A triangle of about the circle's area, point up.
+        const s = r * 1.35;
+        ctx.moveTo(sx, sy - s);
+        ctx.lineTo(sx + s * 0.866, sy + s * 0.5);
+        ctx.lineTo(sx - s * 0.866, sy + s * 0.5);
+        ctx.closePath();
       } else {
         ctx.moveTo(sx + r, sy);
         ctx.arc(sx, sy, r, 0, 2 * Math.PI);

@@ -2,9 +2,11 @@
 /**
  * Reads the page colours from the stylesheet's variables (which follow the editor theme, or the
  * standalone fallbacks) by letting the browser resolve them on a probe element, then builds the
- * topic palette for that background (core palette.ts: WCAG 3:1 non-text contrast).
+ * topic palette for that background (core distinctPalette.ts: colours told apart under
+ * simulated colour-vision deficiencies, at WCAG 3:1 non-text contrast; shapes past its size).
  */
-import { parseCssColour, toHex, topicPalette, unassignedColour, type Rgb } from '../../core/map/palette.js';
+import { topicStyles } from '../../core/map/distinctPalette.js';
+import { parseCssColour, toHex, unassignedColour, type Rgb } from '../../core/map/palette.js';
 
 export interface MapTheme {
   readonly bg: string;
@@ -15,6 +17,8 @@ export interface MapTheme {
   readonly dark: boolean;
   readonly highContrast: boolean;
   readonly topics: string[];
+  /** Dot shape of each topic (0 circle, 1 square, 2 triangle): the second cue past the palette's size. */
+  readonly shapes: number[];
   readonly unassigned: string;
   /** The same colours as RGB triples, for the software rasteriser. */
   readonly rgb: { readonly bg: Rgb; readonly topics: Rgb[]; readonly unassigned: Rgb };
@@ -36,7 +40,8 @@ export function readTheme(root: HTMLElement, topicCount: number): MapTheme {
   probe.remove();
   const cls = document.body.classList;
   const luminance = (0.2126 * bg[0] + 0.7152 * bg[1] + 0.0722 * bg[2]) / 255;
-  const topics = topicPalette(topicCount, bg);
+  const styles = topicStyles(topicCount, bg);
+  const topics = styles.colours;
   const unassigned = unassignedColour(bg);
   return {
     bg: toHex(bg),
@@ -47,6 +52,7 @@ export function readTheme(root: HTMLElement, topicCount: number): MapTheme {
     dark: luminance < 0.5,
     highContrast: cls.contains('vscode-high-contrast') || cls.contains('vscode-high-contrast-light'),
     topics: topics.map(toHex),
+    shapes: styles.shapes,
     unassigned: toHex(unassigned),
     rgb: { bg, topics, unassigned },
   };

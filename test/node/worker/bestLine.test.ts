@@ -1,7 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import { bestMatchingLine, MAX_LINE_CHARS } from '../../../src/node/worker/bestLine.js';
+import { DEFAULT_PASSAGE_OPTIONS } from '../../../src/core/text/passage.js';
+import { bestMatchingLine } from '../../../src/node/worker/bestLine.js';
 import { loadCollection } from '../../helpers/shared.js';
 
 // Real text: CISI (test/fixtures/corpora/cisi, 1460 library-science abstracts) gives the vocabulary,
@@ -24,10 +25,11 @@ describe('bestMatchingLine', () => {
       'Citation indexing lets a reader follow references forward in time.',
       'Opening hours are posted at the front desk.',
     ].join('\n');
-    expect(bestMatchingLine(file, index, 'citation indexing of references')).toEqual({
-      line: 3,
-      text: 'Citation indexing lets a reader follow references forward in time.',
-    });
+    const got = bestMatchingLine(file, index, 'citation indexing of references');
+    expect(got.line).toBe(3);
+    // The passage runs on within its paragraph, and the query's words are marked where they stand.
+    expect(got.text.startsWith('Citation indexing lets a reader follow references forward in time.')).toBe(true);
+    expect(got.highlights.map(([a, b]) => got.text.slice(a, b))).toEqual(['Citation', 'indexing', 'references']);
   });
 
   it('prefers a rare shared word over a common one (idf weighting)', () => {
@@ -47,7 +49,7 @@ describe('bestMatchingLine', () => {
   it('shortens very long lines', () => {
     const long = `citation ${'analysis '.repeat(60)}`;
     const got = bestMatchingLine(long, index, 'citation analysis');
-    expect(got.text.length).toBe(MAX_LINE_CHARS);
+    expect(got.text.length).toBeLessThanOrEqual(DEFAULT_PASSAGE_OPTIONS.maxChars);
     expect(got.text.endsWith('…')).toBe(true);
   });
 });

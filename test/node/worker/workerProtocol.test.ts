@@ -8,7 +8,7 @@ describe('protocol message checks', () => {
   it('accepts every request type the map declares, and only those', () => {
     // The list and the type map must agree: a request type missing from REQUEST_TYPES would be dropped by the worker.
     const declared: Record<keyof RequestMap, true> = {
-      configure: true, load: true, refresh: true, build: true, update: true, search: true, nearby: true, save: true, deleteIndex: true,
+      configure: true, load: true, refresh: true, build: true, update: true, search: true, nearby: true, translations: true, save: true, deleteIndex: true,
       lookalikes: true, topics: true, mapData: true, mapQuery: true,
     };
     expect([...REQUEST_TYPES].sort()).toEqual(Object.keys(declared).sort());

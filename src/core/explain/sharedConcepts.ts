@@ -1,0 +1,69 @@
+/**
+ * "Why is it near?" in concepts: the cosine of two files' unit concept vectors is a sum over the
+ * index's k concept axes, cos = Σ_j a_j·b_j (latent semantic indexing, Deerwester et al. 1990),
+ * so each axis's part is exact. The axes with the largest parts are the concepts the two files
+ * share; each is named by the words that carry it in these two files: their terms ranked by the
+ * term's loading on the axis (U_k), signed towards the side of the axis the files lie on, times
+ * the term's global weight (so words found in every file, such as a language's function words,
+ * rank low), words of both files first and no word naming two concepts. The parts of the other axes are summed, so the column adds up to the score.
+ */
+import type { LsiIndex } from '../index/lsiIndex.js';
+
+export interface SharedConcept {
+  /** Concept axis (0-based). */
+  readonly axis: number;
+  /** Its part of the cosine. */
+  readonly share: number;
+  /** Index terms (stems) naming it, strongest first. */
+  readonly terms: readonly string[];
+}
+
+export interface SharedConcepts {
+  readonly concepts: readonly SharedConcept[];
+  /** Sum of the other axes' parts. */
+  readonly rest: number;
+  readonly score: number;
+}
+
+export interface SharedConceptOptions {
+  /** Concepts listed. @default 3 */
+  readonly top: number;
+  /** Words naming each concept. @default 3 */
+  readonly words: number;
+}
+
+export const DEFAULT_SHARED_CONCEPT_OPTIONS: SharedConceptOptions = { top: 3, words: 3 };
+
+export function sharedConcepts(index: LsiIndex, a: string, b: string, options: Partial<SharedConceptOptions> = {}): SharedConcepts {
+  const o = { ...DEFAULT_SHARED_CONCEPT_OPTIONS, ...options };
+  const va = index.vectorOf(a);
+  const vb = index.vectorOf(b);
+  const k = index.k;
+  const parts = Array.from({ length: k }, (_, j) => ({ axis: j, share: va[j] * vb[j] }));
+  const score = parts.reduce((s, p) => s + p.share, 0);
+  const chosen = [...parts].sort((x, y) => y.share - x.share || x.axis - y.axis).slice(0, o.top).filter((p) => p.share > 0);
+  const model = index.model;
+  const columns = (path: string) => {
+    const out = new Set<number>();
+    for (const id of index.termsOf(path).termIds) {
+      const c = id < model.columnOf.length ? model.columnOf[id] : -1;
+      if (c >= 0) out.add(c);
+    }
+    return out;
+  };
+  const ca = columns(a);
+  const cb = columns(b);
+  const both = [...ca].filter((c) => cb.has(c));
+  const either = [...new Set([...ca, ...cb])];
+  const used = new Set<number>();
+  const concepts = chosen.map((p) => {
+    const sign = va[p.axis] >= 0 ? 1 : -1;
+    const load = (c: number) => sign * model.termVectors[c * k + p.axis] * model.weights[c];
+    const rank = (cs: number[]) => cs.filter((c) => load(c) > 0 && !used.has(c)).sort((x, y) => load(y) - load(x) || x - y);
+    const picked = rank(both).slice(0, o.words);
+    for (const c of rank(either)) if (picked.length < o.words && !picked.includes(c)) picked.push(c);
+    for (const c of picked) used.add(c);
+    return { axis: p.axis, share: p.share, terms: picked.map((c) => index.vocab.termOf(model.keptIds[c])) };
+  });
+  return { concepts, rest: score - concepts.reduce((s, c) => s + c.share, 0), score };
+}
