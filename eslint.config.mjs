@@ -21,7 +21,17 @@ const layer = (folders, why) => ({ group: folders.flatMap((f) => [`**/${f}/*`, `
 export default tseslint.config(
   {
     // src/core/matrix/wasm/assembly is AssemblyScript (compiled by asc, see its README), not TypeScript.
-    ignores: ['dist/**', 'out/**', 'node_modules/**', 'media/**', '.cache/**', 'test-output/**', 'cluster/**', '**/*.d.ts', 'src/core/matrix/wasm/assembly/**'],
+    ignores: [
+      'dist/**',
+      'out/**',
+      'node_modules/**',
+      'media/**',
+      '.cache/**',
+      'test-output/**',
+      'cluster/**',
+      '**/*.d.ts',
+      'src/core/matrix/wasm/assembly/**',
+    ],
   },
   js.configs.recommended,
   ...tseslint.configs.recommended,
@@ -30,11 +40,33 @@ export default tseslint.config(
       ecmaVersion: 2022,
       sourceType: 'module',
       globals: {
-        console: 'readonly', process: 'readonly', Buffer: 'readonly', URL: 'readonly', TextEncoder: 'readonly', TextDecoder: 'readonly',
-        setTimeout: 'readonly', clearTimeout: 'readonly', setInterval: 'readonly', clearInterval: 'readonly', setImmediate: 'readonly',
-        queueMicrotask: 'readonly', structuredClone: 'readonly', performance: 'readonly', WebAssembly: 'readonly', AbortController: 'readonly',
-        AbortSignal: 'readonly', SharedArrayBuffer: 'readonly', Atomics: 'readonly', __dirname: 'readonly', require: 'readonly', globalThis: 'readonly',
-        document: 'readonly', window: 'readonly', navigator: 'readonly', HTMLElement: 'readonly', requestAnimationFrame: 'readonly',
+        console: 'readonly',
+        process: 'readonly',
+        Buffer: 'readonly',
+        URL: 'readonly',
+        TextEncoder: 'readonly',
+        TextDecoder: 'readonly',
+        setTimeout: 'readonly',
+        clearTimeout: 'readonly',
+        setInterval: 'readonly',
+        clearInterval: 'readonly',
+        setImmediate: 'readonly',
+        queueMicrotask: 'readonly',
+        structuredClone: 'readonly',
+        performance: 'readonly',
+        WebAssembly: 'readonly',
+        AbortController: 'readonly',
+        AbortSignal: 'readonly',
+        SharedArrayBuffer: 'readonly',
+        Atomics: 'readonly',
+        __dirname: 'readonly',
+        require: 'readonly',
+        globalThis: 'readonly',
+        document: 'readonly',
+        window: 'readonly',
+        navigator: 'readonly',
+        HTMLElement: 'readonly',
+        requestAnimationFrame: 'readonly',
       },
     },
     rules: {
@@ -57,12 +89,19 @@ export default tseslint.config(
   {
     files: ['src/core/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', {
-        paths: [...noNodeBare, noEditor],
-        patterns: [...noNode, layer(['node', 'cli', 'extension', 'webview'], 'src/core depends on nothing outside src/core.')],
-      }],
-      'no-restricted-globals': ['error',
-        ...['process', 'Buffer', '__dirname', '__filename', 'require'].map((name) => ({ name, message: 'src/core runs anywhere: no Node globals.' })),
+      'no-restricted-imports': [
+        'error',
+        {
+          paths: [...noNodeBare, noEditor],
+          patterns: [...noNode, layer(['node', 'cli', 'extension', 'webview'], 'src/core depends on nothing outside src/core.')],
+        },
+      ],
+      'no-restricted-globals': [
+        'error',
+        ...['process', 'Buffer', '__dirname', '__filename', 'require'].map((name) => ({
+          name,
+          message: 'src/core runs anywhere: no Node globals.',
+        })),
       ],
       'no-console': 'error',
     },
@@ -70,28 +109,37 @@ export default tseslint.config(
   {
     files: ['src/node/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', {
-        paths: [noEditor],
-        patterns: [layer(['cli', 'extension', 'webview'], 'src/node serves the command line and the editor; it imports neither.')],
-      }],
+      'no-restricted-imports': [
+        'error',
+        {
+          paths: [noEditor],
+          patterns: [layer(['cli', 'extension', 'webview'], 'src/node serves the command line and the editor; it imports neither.')],
+        },
+      ],
     },
   },
   {
     files: ['src/cli/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', {
-        paths: [noEditor],
-        patterns: [layer(['extension', 'webview'], 'The command line runs without the editor.')],
-      }],
+      'no-restricted-imports': [
+        'error',
+        {
+          paths: [noEditor],
+          patterns: [layer(['extension', 'webview'], 'The command line runs without the editor.')],
+        },
+      ],
     },
   },
   {
     files: ['src/webview/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', {
-        paths: [...noNodeBare, noEditor],
-        patterns: [...noNode, layer(['node', 'cli', 'extension'], 'The map page runs in the browser: it may use src/core only.')],
-      }],
+      'no-restricted-imports': [
+        'error',
+        {
+          paths: [...noNodeBare, noEditor],
+          patterns: [...noNode, layer(['node', 'cli', 'extension'], 'The map page runs in the browser: it may use src/core only.')],
+        },
+      ],
     },
   },
 );

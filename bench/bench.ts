@@ -22,10 +22,18 @@ function printResult(name: string, r: ChildResult): void {
   const st = r.stages;
   console.log(`\n${name}: ${r.folder}`);
   console.log(`  ${r.files} files, ${mb(r.bytes)} MB read, ${r.terms} terms, ${r.nonZeros} non-zeros, k=${r.k}, ${r.threads} threads`);
-  console.log(`  build ${f2(r.buildSeconds)} s (${f1(r.files / r.buildSeconds)} files/s, ${f2(r.bytes / 1048576 / r.buildSeconds)} MB/s); with save ${f2(r.totalSeconds)} s; CPU ${f2(r.cpuSeconds)} s`);
-  console.log(`  stages (s): scan ${f2(st.scan)}  tokenize ${f2(st.tokenize)}  matrix ${f2(st.matrix)}  svd ${f2(st.svd)}  save ${f2(st.save)}`);
-  console.log(`  peak RSS ${mb(r.buildPeakRssBytes)} MB building, ${mb(r.peakRssBytes)} MB after reopening and querying; saved index ${mb(r.indexBytes)} MB, reopened in ${f2(r.reopenSeconds)} s`);
-  console.log(`  first search after reopening ${f2(r.firstSearchMs)} ms; prepare ${f2(r.prepareSeconds)} s; next searches ${f2(r.searchMs.median)} ms median, ${f2(r.searchMs.max)} ms worst (${r.searchMs.count} queries); nearby ${f2(r.nearbyMs.median)} ms median, ${f2(r.nearbyMs.max)} ms worst`);
+  console.log(
+    `  build ${f2(r.buildSeconds)} s (${f1(r.files / r.buildSeconds)} files/s, ${f2(r.bytes / 1048576 / r.buildSeconds)} MB/s); with save ${f2(r.totalSeconds)} s; CPU ${f2(r.cpuSeconds)} s`,
+  );
+  console.log(
+    `  stages (s): scan ${f2(st.scan)}  tokenize ${f2(st.tokenize)}  matrix ${f2(st.matrix)}  svd ${f2(st.svd)}  save ${f2(st.save)}`,
+  );
+  console.log(
+    `  peak RSS ${mb(r.buildPeakRssBytes)} MB building, ${mb(r.peakRssBytes)} MB after reopening and querying; saved index ${mb(r.indexBytes)} MB, reopened in ${f2(r.reopenSeconds)} s`,
+  );
+  console.log(
+    `  first search after reopening ${f2(r.firstSearchMs)} ms; prepare ${f2(r.prepareSeconds)} s; next searches ${f2(r.searchMs.median)} ms median, ${f2(r.searchMs.max)} ms worst (${r.searchMs.count} queries); nearby ${f2(r.nearbyMs.median)} ms median, ${f2(r.nearbyMs.max)} ms worst`,
+  );
   console.log(`  fold in one changed file ${f2(r.foldInMs)} ms; next search ${f2(r.searchAfterFoldInMs)} ms (rebuilds the lexical scorer)`);
 }
 
@@ -33,7 +41,9 @@ async function main(): Promise<void> {
   const argv = process.argv.slice(2);
   if (argv[0] === '--child') {
     const k = argv[2] === 'auto' ? 'auto' : Number(argv[2]);
-    process.stdout.write(`${JSON.stringify(await runChild(argv[1], k, argv[3] === '-' ? undefined : argv[3], argv[4] !== 'no-gitignore'))}\n`);
+    process.stdout.write(
+      `${JSON.stringify(await runChild(argv[1], k, argv[3] === '-' ? undefined : argv[3], argv[4] !== 'no-gitignore'))}\n`,
+    );
     return;
   }
   if (argv.includes('--compare')) return runCompare();

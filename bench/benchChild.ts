@@ -121,7 +121,13 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
   if (exportDir) {
     const built = report.index;
     await writeExport(built, exportDir);
-    writeFileSync(join(exportDir, 'paths.txt'), `${built.paths().map((p) => join(resolve(folder), p)).join('\n')}\n`);
+    writeFileSync(
+      join(exportDir, 'paths.txt'),
+      `${built
+        .paths()
+        .map((p) => join(resolve(folder), p))
+        .join('\n')}\n`,
+    );
   }
   rmSync(dir, { recursive: true, force: true });
   return {

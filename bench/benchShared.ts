@@ -37,4 +37,3 @@ export function loadLine(): string {
   const [a, b, c] = loadavg();
   return `load average ${a.toFixed(2)} ${b.toFixed(2)} ${c.toFixed(2)} on this machine`;
 }
-

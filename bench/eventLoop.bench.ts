@@ -21,15 +21,27 @@ import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../src/node/worker/client.js';
 import type { WorkerConfig } from '../src/node/worker/workerProtocol.js';
 
-const arg = (name: string, fallback: number): number => Number(process.argv.find((a) => a.startsWith(`${name}=`))?.slice(name.length + 1) ?? fallback);
+const arg = (name: string, fallback: number): number =>
+  Number(process.argv.find((a) => a.startsWith(`${name}=`))?.slice(name.length + 1) ?? fallback);
 const files = arg('files', 10_000);
 const runs = arg('runs', 3);
 const repo = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-eventloop-'));
 const workspace = join(tmp, 'ws');
 const workerJs = join(tmp, 'indexWorker.js');
-for (const [entry, out] of [['src/node/worker/indexWorker.ts', workerJs], ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')]]) {
-  await build({ entryPoints: [join(repo, entry)], outfile: out, bundle: true, platform: 'node', format: 'cjs', minify: true, logLevel: 'error' });
+for (const [entry, out] of [
+  ['src/node/worker/indexWorker.ts', workerJs],
+  ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')],
+]) {
+  await build({
+    entryPoints: [join(repo, entry)],
+    outfile: out,
+    bundle: true,
+    platform: 'node',
+    format: 'cjs',
+    minify: true,
+    logLevel: 'error',
+  });
 }
 
 const texts: string[] = [];
@@ -55,8 +67,13 @@ interface RunFigures {
 
 async function oneRun(run: number): Promise<RunFigures> {
   const config: WorkerConfig = {
-    roots: [{ name: 'ws', fsPath: workspace, exclude: [] }], indexFile: join(tmp, `storage-${run}`, 'index.undertone'), settings: {},
-    include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
+    roots: [{ name: 'ws', fsPath: workspace, exclude: [] }],
+    indexFile: join(tmp, `storage-${run}`, 'index.undertone'),
+    settings: {},
+    include: [],
+    exclude: [],
+    maxFileBytes: 1 << 20,
+    honourGitignore: true,
   };
   const histogram = monitorEventLoopDelay({ resolution: 1 });
   let last = performance.now();
@@ -75,15 +92,25 @@ async function oneRun(run: number): Promise<RunFigures> {
     last = performance.now();
     const t0 = performance.now();
     await client.request('configure', { config });
-    await client.request('build', {}, {
-      onProgress: (p) => {
-        messages++;
-        percent = p.total > 0 ? Math.round((100 * p.done) / p.total) : percent;
+    await client.request(
+      'build',
+      {},
+      {
+        onProgress: (p) => {
+          messages++;
+          percent = p.total > 0 ? Math.round((100 * p.done) / p.total) : percent;
+        },
       },
-    });
+    );
     const buildSeconds = (performance.now() - t0) / 1000;
     histogram.disable();
-    return { maxPauseMs: histogram.max / 1e6, p99Ms: histogram.percentile(99) / 1e6, timerGapMs: gap, buildSeconds, progressMessages: messages };
+    return {
+      maxPauseMs: histogram.max / 1e6,
+      p99Ms: histogram.percentile(99) / 1e6,
+      timerGapMs: gap,
+      buildSeconds,
+      progressMessages: messages,
+    };
   } finally {
     clearInterval(timer);
     await worker.terminate();
@@ -117,8 +144,12 @@ for (let r = 0; r < runs; r++) {
   );
 }
 const maxes = results.map((f) => Math.max(f.maxPauseMs, f.timerGapMs)).sort((a, b) => a - b);
-console.log(`longest pause over ${runs} runs: min ${maxes[0].toFixed(1)} ms, median ${maxes[Math.floor(maxes.length / 2)].toFixed(1)} ms, max ${maxes[maxes.length - 1].toFixed(1)} ms (target < 100 ms)`);
+console.log(
+  `longest pause over ${runs} runs: min ${maxes[0].toFixed(1)} ms, median ${maxes[Math.floor(maxes.length / 2)].toFixed(1)} ms, max ${maxes[maxes.length - 1].toFixed(1)} ms (target < 100 ms)`,
+);
 const idleSeconds = Math.min(60, Math.round(results.reduce((a, f) => a + f.buildSeconds, 0) / results.length));
 const idle = await baseline(idleSeconds);
-console.log(`baseline, no worker, ${idleSeconds} s idle: longest pause ${Math.max(idle.maxPauseMs, idle.timerGapMs).toFixed(1)} ms (the machine's own pauses; compare with the runs above); load average ${(await import('node:os')).loadavg()[0].toFixed(1)}`);
+console.log(
+  `baseline, no worker, ${idleSeconds} s idle: longest pause ${Math.max(idle.maxPauseMs, idle.timerGapMs).toFixed(1)} ms (the machine's own pauses; compare with the runs above); load average ${(await import('node:os')).loadavg()[0].toFixed(1)}`,
+);
 rmSync(tmp, { recursive: true, force: true });

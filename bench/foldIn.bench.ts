@@ -23,16 +23,32 @@ const workspace = join(tmp, 'ws');
 cpSync(join(repo, 'demo', 'workspace'), workspace, { recursive: true });
 const workerJs = join(tmp, 'indexWorker.js');
 // The index worker and, beside it, the thread-pool script it starts for larger builds (as in dist/).
-for (const [entry, out] of [['src/node/worker/indexWorker.ts', workerJs], ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')]]) {
-  await build({ entryPoints: [join(repo, entry)], outfile: out, bundle: true, platform: 'node', format: 'cjs', minify: true, logLevel: 'error' });
+for (const [entry, out] of [
+  ['src/node/worker/indexWorker.ts', workerJs],
+  ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')],
+]) {
+  await build({
+    entryPoints: [join(repo, entry)],
+    outfile: out,
+    bundle: true,
+    platform: 'node',
+    format: 'cjs',
+    minify: true,
+    logLevel: 'error',
+  });
 }
 
 const worker = new Worker(workerJs);
 const client = new WorkerClient(worker);
 await client.request('configure', {
   config: {
-    roots: [{ name: 'ws', fsPath: workspace, exclude: [] }], indexFile: join(tmp, 'index.undertone'), settings: {},
-    include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
+    roots: [{ name: 'ws', fsPath: workspace, exclude: [] }],
+    indexFile: join(tmp, 'index.undertone'),
+    settings: {},
+    include: [],
+    exclude: [],
+    maxFileBytes: 1 << 20,
+    honourGitignore: true,
   },
 });
 const built = await client.request('build', {});
@@ -58,7 +74,11 @@ const sorted = [...times].sort((a, b) => a - b);
 const pct = (p: number) => sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))];
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 console.log(`save → Nearby (update + nearby through the worker), ${rounds} rounds:`);
-console.log(`  median ${pct(0.5).toFixed(2)} ms · p95 ${pct(0.95).toFixed(2)} ms · max ${sorted.at(-1)!.toFixed(2)} ms · first ${times[0].toFixed(2)} ms (target < 100 ms)`);
-console.log(`  of which the update (fold-in) median ${median(updateTimes).toFixed(2)} ms, the nearby query median ${median(times.map((t, i) => t - updateTimes[i])).toFixed(2)} ms`);
+console.log(
+  `  median ${pct(0.5).toFixed(2)} ms · p95 ${pct(0.95).toFixed(2)} ms · max ${sorted.at(-1)!.toFixed(2)} ms · first ${times[0].toFixed(2)} ms (target < 100 ms)`,
+);
+console.log(
+  `  of which the update (fold-in) median ${median(updateTimes).toFixed(2)} ms, the nearby query median ${median(times.map((t, i) => t - updateTimes[i])).toFixed(2)} ms`,
+);
 await worker.terminate();
 rmSync(tmp, { recursive: true, force: true });

@@ -88,7 +88,9 @@ time('MinHash K=128 (all non-empty files)', () => sets.forEach((s) => s.hashes.l
 time('content hashes (all files)', () => files.forEach((f) => contentHash(f.text)));
 const plain = time('findLookalikes', () => findLookalikes({ files }));
 console.log('stats:', JSON.stringify(plain.stats));
-console.log(`exact groups ${plain.exactGroups.length}, near ${plain.nearPairs.length}, partial ${plain.partialPairs.length}, retold ${plain.retoldPairs.length}`);
+console.log(
+  `exact groups ${plain.exactGroups.length}, near ${plain.nearPairs.length}, partial ${plain.partialPairs.length}, retold ${plain.retoldPairs.length}`,
+);
 const same = Array.from({ length: 3000 }, (_, i) => ({ id: `same/${i}.md`, text: files[20].text || freshText() }));
 time('findLookalikes (3000 identical files)', () => findLookalikes({ files: same }));
 const body = freshText();

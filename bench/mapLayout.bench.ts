@@ -39,7 +39,9 @@ function time<T>(label: string, f: () => T): T {
   const c0 = process.cpuUsage();
   const r = f();
   const cpu = process.cpuUsage(c0);
-  console.log(`${label.padEnd(48)} wall ${((performance.now() - t0) / 1000).toFixed(2)} s  cpu ${((cpu.user + cpu.system) / 1e6).toFixed(2)} s`);
+  console.log(
+    `${label.padEnd(48)} wall ${((performance.now() - t0) / 1000).toFixed(2)} s  cpu ${((cpu.user + cpu.system) / 1e6).toFixed(2)} s`,
+  );
   return r;
 }
 
@@ -63,12 +65,16 @@ export function runMapLayoutBench(n = 50_000, dim = 128, full = true): void {
   const data = clusteredUnitVectors(n, dim, 40, 0.6, 11);
   time(`quick layout n=${n}`, () => quickLayout(data, n, dim));
   const graph = time(`  phase: neighbour graph + bridges n=${n}`, () => buildGeodesicGraph(rowVectors(data, n, dim), { seed: 3 }));
-  console.log(`    neighbours ${graph.neighbourMethod}, parts ${graph.componentCount}, bridges ${graph.bridges.length}, edges ${graph.graph.targets.length / 2}`);
+  console.log(
+    `    neighbours ${graph.neighbourMethod}, parts ${graph.componentCount}, bridges ${graph.bridges.length}, edges ${graph.graph.targets.length / 2}`,
+  );
   time(`  phase: 300 MaxMin landmarks (Dijkstra) n=${n}`, () => maxMinLandmarks(graph, 300, 3));
   const faithful = time(`faithful layout (landmark Isomap) n=${n}`, () => landmarkIsomap(data, n, dim, { seed: 3 }));
   const q = data.slice(5 * dim, 6 * dim);
   time('place one query (faithful)', () => placeQueryFaithful(faithful, q));
 }
 
-const invokedDirectly = typeof process !== 'undefined' && process.argv[1] !== undefined && /mapLayout(\.bench)?\.m?[jt]s$/.test(process.argv[1]);
-if (invokedDirectly) runMapLayoutBench(Number(process.argv[2] ?? 50_000), Number(process.argv[3] ?? 128), process.argv[4] !== 'layouts-only');
+const invokedDirectly =
+  typeof process !== 'undefined' && process.argv[1] !== undefined && /mapLayout(\.bench)?\.m?[jt]s$/.test(process.argv[1]);
+if (invokedDirectly)
+  runMapLayoutBench(Number(process.argv[2] ?? 50_000), Number(process.argv[3] ?? 128), process.argv[4] !== 'layouts-only');

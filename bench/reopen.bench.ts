@@ -25,8 +25,19 @@ const tmp = mkdtempSync(join(tmpdir(), 'undertone-reopen-'));
 const workspace = join(tmp, 'ws');
 const workerJs = join(tmp, 'indexWorker.js');
 // The index worker and, beside it, the thread-pool script it starts for larger builds (as in dist/).
-for (const [entry, out] of [['src/node/worker/indexWorker.ts', workerJs], ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')]]) {
-  await build({ entryPoints: [join(repo, entry)], outfile: out, bundle: true, platform: 'node', format: 'cjs', minify: true, logLevel: 'error' });
+for (const [entry, out] of [
+  ['src/node/worker/indexWorker.ts', workerJs],
+  ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')],
+]) {
+  await build({
+    entryPoints: [join(repo, entry)],
+    outfile: out,
+    bundle: true,
+    platform: 'node',
+    format: 'cjs',
+    minify: true,
+    logLevel: 'error',
+  });
 }
 
 const rng = createRandom(11);
@@ -61,8 +72,13 @@ for (let i = 0; i < n; i++) {
 }
 
 const config: WorkerConfig = {
-  roots: [{ name: 'ws', fsPath: workspace, exclude: [] }], indexFile: join(tmp, 'storage', 'index.undertone'), settings: {},
-  include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
+  roots: [{ name: 'ws', fsPath: workspace, exclude: [] }],
+  indexFile: join(tmp, 'storage', 'index.undertone'),
+  settings: {},
+  include: [],
+  exclude: [],
+  maxFileBytes: 1 << 20,
+  honourGitignore: true,
 };
 const session = async <T>(work: (c: WorkerClient) => Promise<T>): Promise<T> => {
   const worker = new Worker(workerJs);
@@ -78,7 +94,9 @@ const built = await session(async (c) => {
   return c.request('build', {});
 });
 const bytes = statSync(config.indexFile).size;
-console.log(`${n} files: built in ${built.seconds.toFixed(1)} s, k=${built.summary.k}, ${built.summary.terms} terms, index file ${(bytes / 1048576).toFixed(1)} MB`);
+console.log(
+  `${n} files: built in ${built.seconds.toFixed(1)} s, k=${built.summary.k}, ${built.summary.terms} terms, index file ${(bytes / 1048576).toFixed(1)} MB`,
+);
 
 const reopen = async (label: string) =>
   session(async (c) => {
@@ -90,8 +108,10 @@ const reopen = async (label: string) =>
     const t2 = performance.now();
     const near = await c.request('nearby', { fsPath: paths[0], top: 10 });
     const t3 = performance.now();
-    console.log(`${label}: load ${(t1 - t0).toFixed(0)} ms (${loaded.outcome}, file read + decode ${loaded.ms.toFixed(0)} ms) · ` +
-      `check folder ${(t2 - t1).toFixed(0)} ms (${refreshed.changed} changed, folded in) · first nearby ${(t3 - t2).toFixed(1)} ms (${near?.length ?? 0} hits)`);
+    console.log(
+      `${label}: load ${(t1 - t0).toFixed(0)} ms (${loaded.outcome}, file read + decode ${loaded.ms.toFixed(0)} ms) · ` +
+        `check folder ${(t2 - t1).toFixed(0)} ms (${refreshed.changed} changed, folded in) · first nearby ${(t3 - t2).toFixed(1)} ms (${near?.length ?? 0} hits)`,
+    );
   });
 await reopen('reopen, nothing changed');
 for (let i = 0; i < changed; i++) writeFileSync(paths[i * Math.floor(n / changed)], text());

@@ -35,7 +35,9 @@ function mixedFolder(): string {
     writeFileSync(p, text);
   };
   for (const name of ['cmake', 'django']) {
-    for (const line of gunzipSync(readFileSync(`test/fixtures/topic-trees/${name}.jsonl.gz`)).toString('utf8').split('\n')) {
+    for (const line of gunzipSync(readFileSync(`test/fixtures/topic-trees/${name}.jsonl.gz`))
+      .toString('utf8')
+      .split('\n')) {
       if (!line.trim()) continue;
       const d = JSON.parse(line) as { path: string; text: string };
       put(join(name, d.path), d.text);

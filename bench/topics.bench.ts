@@ -63,7 +63,9 @@ const time = <T>(label: string, f: () => T): T => {
   const c0 = process.cpuUsage();
   const r = f();
   const cpu = process.cpuUsage(c0);
-  console.log(`  ${label.padEnd(44)} ${(performance.now() - t0).toFixed(0).padStart(7)} ms wall ${((cpu.user + cpu.system) / 1000).toFixed(0).padStart(7)} ms cpu`);
+  console.log(
+    `  ${label.padEnd(44)} ${(performance.now() - t0).toFixed(0).padStart(7)} ms wall ${((cpu.user + cpu.system) / 1000).toFixed(0).padStart(7)} ms cpu`,
+  );
   return r;
 };
 
@@ -84,9 +86,16 @@ function bench(name: string, files: { path: string; text: string }[], queries: s
   const look = time('overlaps (exact, near, partial, same content in other words)', () =>
     findLookalikes({ files: paths.map((p) => ({ id: p, text: byPath.get(p)! })) }),
   );
-  console.log(`  (${look.exactGroups.length} exact groups, ${look.nearPairs.length} near, ${look.partialPairs.length} partial, ${look.retoldPairs.length} retold pairs, ${look.stats.candidates} LSH candidates)`);
+  console.log(
+    `  (${look.exactGroups.length} exact groups, ${look.nearPairs.length} near, ${look.partialPairs.length} partial, ${look.retoldPairs.length} retold pairs, ${look.stats.candidates} LSH candidates)`,
+  );
   const topics = time('topics, count chosen automatically', () => findTopics(index));
-  console.log(`  (${topics.topics.length} topics, CUR error ratio ${topics.cur.errorRatio?.toFixed(3) ?? '–'}, largest "${topics.topics[0]?.terms.slice(0, 4).map((t) => t.term).join(', ')}")`);
+  console.log(
+    `  (${topics.topics.length} topics, CUR error ratio ${topics.cur.errorRatio?.toFixed(3) ?? '–'}, largest "${topics.topics[0]?.terms
+      .slice(0, 4)
+      .map((t) => t.term)
+      .join(', ')}")`,
+  );
   time('topics, 12 given', () => findTopics(index, { topics: Math.min(12, paths.length) }));
   const im = time('weighted matrix + leading factors (rank 20)', () => {
     const m = weightedMatrix(index);
@@ -94,7 +103,9 @@ function bench(name: string, files: { path: string; text: string }[], queries: s
   });
   for (const method of ['deim', 'column-select'] as const) {
     const cur = time(`CUR ${method}, rank 20`, () => curDecomposition(im.m.matrix, { rank: 20, method }, im.f));
-    console.log(`  (${cur.rows.indices.length} files, ${cur.columns.indices.length} terms, ‖A−CUR‖/‖A−A_k‖ = ${cur.error.ratio?.toFixed(3) ?? '–'})`);
+    console.log(
+      `  (${cur.rows.indices.length} files, ${cur.columns.indices.length} terms, ‖A−CUR‖/‖A−A_k‖ = ${cur.error.ratio?.toFixed(3) ?? '–'})`,
+    );
   }
   time(`explain top 10 of ${queries.length} queries`, () => {
     for (const q of queries) {
@@ -111,11 +122,16 @@ function bench(name: string, files: { path: string; text: string }[], queries: s
 const queriesOf = (name: string): string[] => {
   const src = join('test', 'fixtures', 'corpora', name, 'queries.jsonl');
   if (!existsSync(src)) return [];
-  return readFileSync(src, 'utf8').split('\n').filter((l) => l.trim()).slice(0, 20).map((l) => (JSON.parse(l) as { text: string }).text);
+  return readFileSync(src, 'utf8')
+    .split('\n')
+    .filter((l) => l.trim())
+    .slice(0, 20)
+    .map((l) => (JSON.parse(l) as { text: string }).text);
 };
 
 const demoQueries = ['refund a cancelled trip', 'engine overheating', 'crew fatigue and rest hours', 'storm warning cancels sailings'];
-if ((which === 'all' || which === 'demo') && existsSync('demo/workspace')) bench('demo workspace', readFolder('demo/workspace'), demoQueries);
+if ((which === 'all' || which === 'demo') && existsSync('demo/workspace'))
+  bench('demo workspace', readFolder('demo/workspace'), demoQueries);
 for (const name of ['cisi', 'cacm']) {
   if (which !== 'all' && which !== name) continue;
   const files = corpusFolder(name);
@@ -123,6 +139,11 @@ for (const name of ['cisi', 'cacm']) {
   else console.log(`\n${name}: skipped (test/fixtures/corpora/${name} missing)`);
 }
 if (which === 'all' || which === 'linux') {
-  if (existsSync(LINUX_DOCS)) bench('linux Documentation', readFolder(LINUX_DOCS, (p) => /\.(rst|txt)$/.test(p)), demoQueries);
+  if (existsSync(LINUX_DOCS))
+    bench(
+      'linux Documentation',
+      readFolder(LINUX_DOCS, (p) => /\.(rst|txt)$/.test(p)),
+      demoQueries,
+    );
   else console.log(`\nlinux Documentation: skipped (${LINUX_DOCS} missing; scripts/bench-setup.sh unpacks it)`);
 }

@@ -9,7 +9,16 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 // keepNames: errors cross from the worker by class name (NoKnownTermsError, NoIndexError,
 // CancelledError…); minified without it, every one arrived as a one-letter name and was shown
 // as a red "search failed" instead of its calm answer.
-const common = { bundle: true, platform: 'node', target: 'node20', format: 'cjs', sourcemap: true, keepNames: true, logLevel: 'warning', absWorkingDir: root };
+const common = {
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  format: 'cjs',
+  sourcemap: true,
+  keepNames: true,
+  logLevel: 'warning',
+  absWorkingDir: root,
+};
 const entries = [
   { entryPoints: ['src/cli/bin.ts'], outfile: 'dist/cli.js', banner: { js: '#!/usr/bin/env node' } },
   { entryPoints: ['src/extension/extension.ts'], outfile: 'dist/extension.js', external: ['vscode'] },
@@ -19,9 +28,5 @@ const entries = [
   { entryPoints: ['bench/bench.ts'], outfile: 'dist/bench.js' },
 ];
 const minify = process.argv.includes('--production');
-await Promise.all(
-  entries
-    .filter((e) => existsSync(join(root, e.entryPoints[0])))
-    .map((e) => build({ ...common, ...e, minify })),
-);
+await Promise.all(entries.filter((e) => existsSync(join(root, e.entryPoints[0]))).map((e) => build({ ...common, ...e, minify })));
 if (existsSync(join(root, 'scripts/build-map-page.mjs'))) await import('./build-map-page.mjs');

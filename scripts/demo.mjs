@@ -23,7 +23,6 @@ function run(title, args) {
 
 run('build (or refresh) the saved index of the demo workspace', ['index', 'demo/workspace']);
 
-
 // Two planted questions whose best answer is worded differently from the question.
 for (const query of expectations.queries.slice(0, 2)) {
   const out = run(`search by meaning: "${query.text}"`, ['ask', 'demo/workspace', query.text, '--top', '5']);
@@ -32,7 +31,9 @@ for (const query of expectations.queries.slice(0, 2)) {
   const text = readFileSync(join(workspace, target), 'utf8').toLowerCase();
   const absent = (query.absentWords ?? []).filter((w) => !text.includes(w.toLowerCase()));
   if (rank >= 1 && absent.length > 0) {
-    process.stdout.write(`# rank ${rank}, ${target}, never contains ${absent.map((w) => `"${w}"`).join(', ')}: a plain text search for those words misses it\n`);
+    process.stdout.write(
+      `# rank ${rank}, ${target}, never contains ${absent.map((w) => `"${w}"`).join(', ')}: a plain text search for those words misses it\n`,
+    );
   }
 }
 

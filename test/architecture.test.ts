@@ -79,7 +79,12 @@ describe('source layout', () => {
   });
 
   it('finds a cycle when there is one (the check itself works)', () => {
-    const g = new Map([['a', ['b']], ['b', ['c']], ['c', ['a']], ['d', ['a']]]);
+    const g = new Map([
+      ['a', ['b']],
+      ['b', ['c']],
+      ['c', ['a']],
+      ['d', ['a']],
+    ]);
     expect(cycles(g)).toEqual([['a', 'b', 'c']]);
   });
 
@@ -88,7 +93,10 @@ describe('source layout', () => {
     const self = join(REPO_ROOT, 'test', 'architecture.test.ts');
     const offenders: string[] = [];
     for (const root of roots) {
-      for (const f of filesUnder(root, (p) => /\.(ts|mts|mjs|js|sh|json)$/.test(p) && p !== self && !p.includes(`${join('test', 'fixtures')}`))) {
+      for (const f of filesUnder(
+        root,
+        (p) => /\.(ts|mts|mjs|js|sh|json)$/.test(p) && p !== self && !p.includes(`${join('test', 'fixtures')}`),
+      )) {
         const text = readFileSync(f, 'utf8');
         if (/\.\.\/shared\b|'\.\.', 'shared'|\/work\/(shared|wt|main)\b/.test(text)) offenders.push(relative(REPO_ROOT, f));
       }

@@ -63,7 +63,9 @@ const mb = (bytes: number): string => `${(bytes / 1048576).toFixed(0)} MB`;
 function printComparison(name: string, ours: ChildResult, ref: ReferenceResult, arpack?: ArpackResult, ourS?: number[]): void {
   const oursBuild = ours.buildSeconds;
   console.log(`\n=== ${name}: ${ours.files} files (${(ours.bytes / 1048576).toFixed(1)} MB), k=${ours.k} ===`);
-  console.log(`  matrix: Undertone ${ours.terms} terms × ${ours.files} files, ${ours.nonZeros} non-zeros; reference ${ref.terms} terms × ${ref.docs} files, ${ref.nnz} non-zeros`);
+  console.log(
+    `  matrix: Undertone ${ours.terms} terms × ${ours.files} files, ${ours.nonZeros} non-zeros; reference ${ref.terms} terms × ${ref.docs} files, ${ref.nnz} non-zeros`,
+  );
   console.log(`  ${'stage'.padEnd(34)}${pad('Undertone s', 12)}${pad('reference s', 13)}`);
   const row = (label: string, a: number, b: number): void => console.log(`  ${label.padEnd(34)}${pad(sec(a), 12)}${pad(sec(b), 13)}`);
   row('scan (list files)', ours.stages.scan, NaN);
@@ -74,7 +76,9 @@ function printComparison(name: string, ours: ChildResult, ref: ReferenceResult, 
   row('CPU seconds, all threads (ours incl. save)', ours.cpuSeconds, ref.cpuSeconds);
   row('save index (Undertone only)', ours.stages.save, NaN);
   console.log(`  build time ratio Undertone / reference: ${ratio(oursBuild, ref.total)} (target ≤ 0.5×)`);
-  console.log(`  peak RSS of the build: Undertone ${mb(ours.buildPeakRssBytes)}, reference ${mb(ref.peakRss)}, ratio ${ratio(ours.buildPeakRssBytes, ref.peakRss)} (target ≤ 1×); Undertone after reopening a second copy and querying: ${mb(ours.peakRssBytes)}`);
+  console.log(
+    `  peak RSS of the build: Undertone ${mb(ours.buildPeakRssBytes)}, reference ${mb(ref.peakRss)}, ratio ${ratio(ours.buildPeakRssBytes, ref.peakRss)} (target ≤ 1×); Undertone after reopening a second copy and querying: ${mb(ours.peakRssBytes)}`,
+  );
   if (arpack && ourS) {
     const rel = arpack.exact.map((e, i) => Math.abs(ourS[i] - e) / Math.max(e, 1e-9 * arpack.exact[0]));
     const top = (n: number): string => (Math.max(...rel.slice(0, n)) * 100).toFixed(3);
@@ -83,7 +87,9 @@ function printComparison(name: string, ours: ChildResult, ref: ReferenceResult, 
         `mean ${(arpack.meanRelError * 100).toFixed(3)}%; worst of the first 10 / 50 / 100: ${top(10)}% / ${top(50)}% / ${top(100)}%`,
     );
   }
-  console.log(`  reopen saved index ${sec(ours.reopenSeconds)} s; first search ${sec(ours.firstSearchMs)} ms; prepare (in the background in the editor) ${sec(ours.prepareSeconds)} s; next searches ${sec(ours.searchMs.median)} ms median / ${sec(ours.searchMs.max)} ms worst; nearby ${sec(ours.nearbyMs.median)} / ${sec(ours.nearbyMs.max)} ms`);
+  console.log(
+    `  reopen saved index ${sec(ours.reopenSeconds)} s; first search ${sec(ours.firstSearchMs)} ms; prepare (in the background in the editor) ${sec(ours.prepareSeconds)} s; next searches ${sec(ours.searchMs.median)} ms median / ${sec(ours.searchMs.max)} ms worst; nearby ${sec(ours.nearbyMs.median)} / ${sec(ours.nearbyMs.max)} ms`,
+  );
   console.log(`  fold in one changed file ${sec(ours.foldInMs)} ms; next search ${sec(ours.searchAfterFoldInMs)} ms`);
 }
 
@@ -105,8 +111,20 @@ export async function runCompare(): Promise<void> {
       const ours = measureInChild(folder, k, dir, honoursGitignore(name));
       const ref = python(['pipeline', '--files', join(dir, 'paths.txt'), '--k', String(ours.k)]) as ReferenceResult;
       let arpack: ArpackResult | undefined;
-      if (arpackWanted) arpack = python(['arpack', '--mtx', join(dir, 'matrix.mtx'), '--k', String(ours.k), '--ours', join(dir, 'singular-values.txt')]) as ArpackResult;
-      const ourS = readFileSync(join(dir, 'singular-values.txt'), 'utf8').split('\n').filter((x) => x.trim()).map(Number);
+      if (arpackWanted)
+        arpack = python([
+          'arpack',
+          '--mtx',
+          join(dir, 'matrix.mtx'),
+          '--k',
+          String(ours.k),
+          '--ours',
+          join(dir, 'singular-values.txt'),
+        ]) as ArpackResult;
+      const ourS = readFileSync(join(dir, 'singular-values.txt'), 'utf8')
+        .split('\n')
+        .filter((x) => x.trim())
+        .map(Number);
       printComparison(name, ours, ref, arpack, ourS);
     } finally {
       rmSync(dir, { recursive: true, force: true });

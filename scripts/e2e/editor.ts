@@ -18,8 +18,13 @@ const ENV_FILE = path.join(REPO_ROOT, '.cache', 'e2e', 'env.json');
 
 /** Chromium flags verified on these machines (no GPU, no sandbox as root, no outside network). */
 export const CHROMIUM_ARGS = [
-  '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
-  '--disable-background-networking', '--disable-component-update', '--disable-sync',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
 ];
 
 /** Paths written by scripts/e2e/setup.sh. */
@@ -119,7 +124,7 @@ export async function startEditor(options: StartEditorOptions): Promise<RunningE
   const settings = { ...DEFAULT_SETTINGS, ...options.settings };
   writeFileSync(path.join(userDataDir, 'User', 'settings.json'), JSON.stringify(settings, null, 2));
 
-  const port = options.port ?? await freePort();
+  const port = options.port ?? (await freePort());
   const url = `http://127.0.0.1:${port}`;
   const logPath = path.join(OUTPUT_DIR, `${name}.code-server.log`);
   const browserLogPath = path.join(OUTPUT_DIR, `${name}.browser.log`);
@@ -131,7 +136,11 @@ export async function startEditor(options: StartEditorOptions): Promise<RunningE
   // The group may outlive its leader (e.g. an extension host), so signal it even after exit.
   const killGroup = (signal: NodeJS.Signals) => {
     if (server?.pid !== undefined) {
-      try { process.kill(-server.pid, signal); } catch { /* already gone */ }
+      try {
+        process.kill(-server.pid, signal);
+      } catch {
+        /* already gone */
+      }
     }
   };
   const onExit = () => killGroup('SIGKILL');
@@ -141,7 +150,11 @@ export async function startEditor(options: StartEditorOptions): Promise<RunningE
   const stop = async () => {
     if (stopped) return;
     stopped = true;
-    try { await browser?.close(); } catch { /* the browser may already be gone */ }
+    try {
+      await browser?.close();
+    } catch {
+      /* the browser may already be gone */
+    }
     if (server && !exited) {
       const gone = new Promise<void>((resolve) => server!.once('exit', () => resolve()));
       killGroup('SIGTERM');
@@ -160,29 +173,45 @@ export async function startEditor(options: StartEditorOptions): Promise<RunningE
 
   const logsBefore = new Set(listDir(path.join(userDataDir, 'logs')));
   try {
-    server = spawn(install.node, [
-      ...baseArgs, '--bind-addr', `127.0.0.1:${port}`, '--auth', 'none',
-      '--disable-telemetry', '--disable-update-check', workspace,
-    ], { env, detached: true, stdio: ['ignore', logFd, logFd] });
-    server.once('exit', () => { exited = true; });
+    server = spawn(
+      install.node,
+      [...baseArgs, '--bind-addr', `127.0.0.1:${port}`, '--auth', 'none', '--disable-telemetry', '--disable-update-check', workspace],
+      { env, detached: true, stdio: ['ignore', logFd, logFd] },
+    );
+    server.once('exit', () => {
+      exited = true;
+    });
     closeSync(logFd);
     const logTail = () => readFileSync(logPath, 'utf8').split('\n').slice(-20).join('\n');
-    await waitFor(async () => {
-      if (exited) throw new Error(`code-server exited during start-up:\n${logTail()}`);
-      return isAnswering(`${url}/healthz`);
-    }, timeout, `code-server to answer on ${url} (log: ${logPath})`);
+    await waitFor(
+      async () => {
+        if (exited) throw new Error(`code-server exited during start-up:\n${logTail()}`);
+        return isAnswering(`${url}/healthz`);
+      },
+      timeout,
+      `code-server to answer on ${url} (log: ${logPath})`,
+    );
 
     // Chromium's own state (crash reports, caches) goes to the private temp folder, not $HOME.
-    const browserEnv = { ...process.env, XDG_CONFIG_HOME: path.join(tempDir, 'browser-config'), XDG_CACHE_HOME: path.join(tempDir, 'browser-cache') };
+    const browserEnv = {
+      ...process.env,
+      XDG_CONFIG_HOME: path.join(tempDir, 'browser-config'),
+      XDG_CACHE_HOME: path.join(tempDir, 'browser-cache'),
+    };
     browser = await chromium.launch({ executablePath: install.chromium, args: CHROMIUM_ARGS, headless: true, env: browserEnv });
     const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
-    page.on('console', (m) => { if (m.type() === 'error' || m.type() === 'warning') appendBrowserLog(browserLogPath, `${m.type()}: ${m.text()}`); });
+    page.on('console', (m) => {
+      if (m.type() === 'error' || m.type() === 'warning') appendBrowserLog(browserLogPath, `${m.type()}: ${m.text()}`);
+    });
     page.on('pageerror', (e) => appendBrowserLog(browserLogPath, `pageerror: ${e.message}`));
     await page.goto(`${url}/?folder=${encodeURIComponent(workspace)}`);
     await page.locator('.monaco-workbench').waitFor({ state: 'visible', timeout });
     if (options.waitForExtensionHost ?? true) {
-      await waitFor(() => extensionHostReady(userDataDir, logsBefore), timeout,
-        `the extension host to activate startup extensions (logs in ${path.join(userDataDir, 'logs')})`);
+      await waitFor(
+        () => extensionHostReady(userDataDir, logsBefore),
+        timeout,
+        `the extension host to activate startup extensions (logs in ${path.join(userDataDir, 'logs')})`,
+      );
     }
     const workbench = new Workbench(page, OUTPUT_DIR);
     return Object.assign(workbench, { url, port, logPath, stop });

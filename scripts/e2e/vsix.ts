@@ -18,10 +18,16 @@ export function packageExtension(extensionDir: string, outFile: string, options:
   const args = [VSCE, 'package', '--out', out, '--allow-missing-repository', '--skip-license'];
   if (options.noDependencies) args.push('--no-dependencies');
   return new Promise((resolve, reject) => {
-    const child = execFile(process.execPath, args, { cwd: extensionDir, timeout: 300_000, maxBuffer: 16 * 1024 * 1024 }, (error, stdout, stderr) => {
-      if (error || !existsSync(out)) reject(new Error(`vsce package failed in ${extensionDir}: ${error?.message ?? 'no output file'}\n${stdout}\n${stderr}`));
-      else resolve(out);
-    });
+    const child = execFile(
+      process.execPath,
+      args,
+      { cwd: extensionDir, timeout: 300_000, maxBuffer: 16 * 1024 * 1024 },
+      (error, stdout, stderr) => {
+        if (error || !existsSync(out))
+          reject(new Error(`vsce package failed in ${extensionDir}: ${error?.message ?? 'no output file'}\n${stdout}\n${stderr}`));
+        else resolve(out);
+      },
+    );
     child.stdin?.end(); // a prompt answers "no" instead of waiting
   });
 }

@@ -31,7 +31,9 @@ export interface ListRow {
   expanded?: boolean;
 }
 
-export interface WaitOptions { timeoutMs?: number }
+export interface WaitOptions {
+  timeoutMs?: number;
+}
 
 const DEFAULT_TIMEOUT = 30_000;
 /** How long a quick input list may lack an expected row before its text is typed again. */
@@ -55,7 +57,9 @@ async function readRow(row: Locator): Promise<ListRow> {
 export class QuickInput {
   constructor(private readonly page: Page) {}
 
-  get widget(): Locator { return this.page.locator(SELECTORS.quickInput); }
+  get widget(): Locator {
+    return this.page.locator(SELECTORS.quickInput);
+  }
 
   async waitOpen(options: WaitOptions = {}): Promise<void> {
     await this.page.locator(SELECTORS.quickInputBox).waitFor({ state: 'visible', timeout: options.timeoutMs ?? DEFAULT_TIMEOUT });
@@ -68,8 +72,11 @@ export class QuickInput {
   /** Waits until the widget is hidden or its input no longer holds `text` (another quick input took over). */
   async waitReplaced(text: string, options: WaitOptions = {}): Promise<void> {
     const input = this.page.locator(SELECTORS.quickInputBox);
-    await waitFor(async () => !(await this.widget.isVisible()) || (await input.inputValue()) !== text,
-      options.timeoutMs ?? DEFAULT_TIMEOUT, `the quick input showing "${text}" to close`);
+    await waitFor(
+      async () => !(await this.widget.isVisible()) || (await input.inputValue()) !== text,
+      options.timeoutMs ?? DEFAULT_TIMEOUT,
+      `the quick input showing "${text}" to close`,
+    );
   }
 
   /** Replaces the input's text (include the leading ">" for commands). */
@@ -80,7 +87,8 @@ export class QuickInput {
 
   /** The first row whose label is exactly `label` (and whose description is exactly `description`, if given). */
   row(label: string, description?: string): Locator {
-    let rows = this.page.locator(SELECTORS.quickInputRow)
+    let rows = this.page
+      .locator(SELECTORS.quickInputRow)
       .filter({ has: this.page.locator(SELECTORS.rowLabel).getByText(label, { exact: true }) });
     if (description !== undefined) {
       rows = rows.filter({ has: this.page.locator(SELECTORS.rowDescription).getByText(description, { exact: true }) });
@@ -111,21 +119,27 @@ export class QuickInput {
     const input = this.page.locator(SELECTORS.quickInputBox);
     const text = await input.inputValue();
     let lastTyped = Date.now();
-    await waitFor(async () => {
-      if (await row.isVisible()) return true;
-      if (Date.now() - lastTyped > RETYPE_MS) {
-        await input.fill('');
-        await input.fill(text);
-        lastTyped = Date.now();
-      }
-      return false;
-    }, options.timeoutMs ?? DEFAULT_TIMEOUT, `quick input row "${label}"`);
+    await waitFor(
+      async () => {
+        if (await row.isVisible()) return true;
+        if (Date.now() - lastTyped > RETYPE_MS) {
+          await input.fill('');
+          await input.fill(text);
+          lastTyped = Date.now();
+        }
+        return false;
+      },
+      options.timeoutMs ?? DEFAULT_TIMEOUT,
+      `quick input row "${label}"`,
+    );
     const classes = (await row.getAttribute('class')) ?? '';
     if (classes.split(/\s+/).includes('focused')) await this.page.keyboard.press('Enter');
     else await row.click();
   }
 
-  async submit(): Promise<void> { await this.page.keyboard.press('Enter'); }
+  async submit(): Promise<void> {
+    await this.page.keyboard.press('Enter');
+  }
 
   async close(): Promise<void> {
     await this.page.keyboard.press('Escape');
@@ -136,7 +150,10 @@ export class QuickInput {
 export class Workbench {
   readonly quickInput: QuickInput;
 
-  constructor(readonly page: Page, readonly outputDir: string) {
+  constructor(
+    readonly page: Page,
+    readonly outputDir: string,
+  ) {
     this.quickInput = new QuickInput(page);
   }
 
@@ -163,7 +180,10 @@ export class Workbench {
     // Quick open shows the file name as label and its folder as description.
     const folder = path.posix.dirname(relPath.split(path.sep).join('/'));
     await this.quickInput.pick(base, { ...options, description: folder === '.' ? undefined : folder });
-    await this.page.locator(SELECTORS.activeTab).filter({ hasText: base }).waitFor({ state: 'visible', timeout: options.timeoutMs ?? DEFAULT_TIMEOUT });
+    await this.page
+      .locator(SELECTORS.activeTab)
+      .filter({ hasText: base })
+      .waitFor({ state: 'visible', timeout: options.timeoutMs ?? DEFAULT_TIMEOUT });
   }
 
   /** Waits until text (or a locator) is visible somewhere in the workbench and returns it. */
@@ -210,8 +230,7 @@ export class Workbench {
    * wait on text inside the result to tell them apart.
    */
   webview(nth = 0): FrameLocator {
-    return this.page.locator(SELECTORS.webview).filter({ visible: true }).nth(nth)
-      .contentFrame().frameLocator(SELECTORS.webviewContent);
+    return this.page.locator(SELECTORS.webview).filter({ visible: true }).nth(nth).contentFrame().frameLocator(SELECTORS.webviewContent);
   }
 
   /**
@@ -220,11 +239,17 @@ export class Workbench {
    */
   async describe(): Promise<string> {
     const page = this.page;
-    const tabs = await page.locator('.tabs-container .tab').evaluateAll((els) =>
-      els.map((e) => `${e.getAttribute('data-resource-name') ?? e.textContent}${e.classList.contains('active') ? ' (active)' : ''}`));
+    const tabs = await page
+      .locator('.tabs-container .tab')
+      .evaluateAll((els) =>
+        els.map((e) => `${e.getAttribute('data-resource-name') ?? e.textContent}${e.classList.contains('active') ? ' (active)' : ''}`),
+      );
     const lines = [`tabs: ${tabs.join(', ') || 'none'}`];
     if (await page.locator(SELECTORS.quickInput).isVisible()) {
-      const value = await page.locator(SELECTORS.quickInputBox).inputValue().catch(() => '?');
+      const value = await page
+        .locator(SELECTORS.quickInputBox)
+        .inputValue()
+        .catch(() => '?');
       const rows = (await this.quickInput.rows()).slice(0, 6).map((r) => `${r.label} [${r.description}]`);
       lines.push(`quick input "${value}": ${rows.join(' | ') || 'no rows'}`);
     }

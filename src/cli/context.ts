@@ -88,14 +88,21 @@ export async function effectiveSettings(indexFile: string, flags: Flags): Promis
     const now = given[key];
     (settings as Record<string, unknown>)[key] = now ?? saved[key];
     if (now !== undefined && now !== saved[key]) {
-      notes.push(`note: --${key} ${String(now)} differs from the saved index's ${key}=${String(saved[key])}: rebuilding with ${key}=${String(now)}, which later commands keep.`);
+      notes.push(
+        `note: --${key} ${String(now)} differs from the saved index's ${key}=${String(saved[key])}: rebuilding with ${key}=${String(now)}, which later commands keep.`,
+      );
     }
   }
   return { settings, notes };
 }
 
 /** Brings the folder's saved index up to date (cheap when nothing changed) and prints notes. */
-export async function ensureIndex(folder: string, flags: Flags, io: Io, opts: { force?: boolean; summary?: boolean } = {}): Promise<FolderIndexReport> {
+export async function ensureIndex(
+  folder: string,
+  flags: Flags,
+  io: Io,
+  opts: { force?: boolean; summary?: boolean } = {},
+): Promise<FolderIndexReport> {
   const indexFile = indexFileFrom(folder, flags);
   const { settings, notes } = await effectiveSettings(indexFile, flags);
   const quiet = Boolean(flags.quiet);
@@ -114,10 +121,13 @@ export async function ensureIndex(folder: string, flags: Flags, io: Io, opts: { 
   } finally {
     bar.done();
   }
-  if (report.savedIndexProblem && !quiet) io.err(`note: the saved index could not be used (${printable(report.savedIndexProblem)}); rebuilt it from the files.`);
+  if (report.savedIndexProblem && !quiet)
+    io.err(`note: the saved index could not be used (${printable(report.savedIndexProblem)}); rebuilt it from the files.`);
   // Only a k the user asked for (now or when the index was built) is worth a note when clamped.
-  if (report.kClamped && typeof settings.k === 'number' && !quiet) io.err(`note: k=${report.requestedK} is more than this collection allows; using k=${report.k}.`);
-  if (report.saveProblem && !quiet && !opts.summary) io.err(`note: the index could not be saved (${printable(report.saveProblem)}); answering from the index built in memory.`);
+  if (report.kClamped && typeof settings.k === 'number' && !quiet)
+    io.err(`note: k=${report.requestedK} is more than this collection allows; using k=${report.k}.`);
+  if (report.saveProblem && !quiet && !opts.summary)
+    io.err(`note: the index could not be saved (${printable(report.saveProblem)}); answering from the index built in memory.`);
   if (!quiet) for (const line of skippedNotes(report)) io.err(line);
   if ((opts.summary || report.outcome !== 'unchanged') && !quiet) io.err(summaryLine(report));
   return report;
@@ -149,6 +159,9 @@ export function summaryLine(r: FolderIndexReport): string {
         : `refreshed index (${formatCount(r.added)} added, ${formatCount(r.changed)} changed, ${formatCount(r.removed)} removed, ${formatCount(r.reused)} reused)`;
   const other = r.scanSkipped.filter((s) => s.reason === 'outside-folder' || s.reason === 'bad-name' || s.reason === 'not-a-file').length;
   const skipped = r.skipped.binary + r.skipped.tooLarge + r.skipped.unreadable + other;
-  const skipNote = skipped > 0 ? `, skipped ${skipped} (${r.skipped.binary} binary, ${r.skipped.tooLarge} too large, ${r.skipped.unreadable} unreadable${other > 0 ? `, ${other} other` : ''})` : '';
+  const skipNote =
+    skipped > 0
+      ? `, skipped ${skipped} (${r.skipped.binary} binary, ${r.skipped.tooLarge} too large, ${r.skipped.unreadable} unreadable${other > 0 ? `, ${other} other` : ''})`
+      : '';
   return `${what}: ${formatCount(r.files)} files, ${formatCount(r.terms)} terms, ${formatCount(r.nonZeros)} non-zeros, k=${r.k}, ${r.totalSeconds.toFixed(2)} s${skipNote}`;
 }

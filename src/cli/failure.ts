@@ -37,10 +37,27 @@ const REASONS: Record<string, string> = {
 
 /** A Node file-system error (it carries a code and usually a path). */
 export function isFsError(err: unknown): err is NodeJS.ErrnoException {
-  return err instanceof Error && typeof (err as NodeJS.ErrnoException).code === 'string' && typeof (err as NodeJS.ErrnoException).syscall === 'string';
+  return (
+    err instanceof Error &&
+    typeof (err as NodeJS.ErrnoException).code === 'string' &&
+    typeof (err as NodeJS.ErrnoException).syscall === 'string'
+  );
 }
 
-const WRITES = new Set(['write', 'mkdir', 'rename', 'unlink', 'rmdir', 'copyfile', 'symlink', 'link', 'fsync', 'ftruncate', 'utime', 'chmod']);
+const WRITES = new Set([
+  'write',
+  'mkdir',
+  'rename',
+  'unlink',
+  'rmdir',
+  'copyfile',
+  'symlink',
+  'link',
+  'fsync',
+  'ftruncate',
+  'utime',
+  'chmod',
+]);
 
 /** "cannot read <path>: permission denied (EACCES)". */
 export function fsErrorMessage(err: NodeJS.ErrnoException): string {
@@ -69,7 +86,10 @@ export function describeFailure(command: string, err: unknown): { code: number; 
 export function writeTrace(err: unknown, dir = tmpdir()): string | undefined {
   const file = join(dir, `undertone-fault-${new Date().toISOString().replace(/[:.]/g, '-')}-${process.pid}.txt`);
   const text = [
-    `undertone ${process.argv.slice(2).map((a) => JSON.stringify(a)).join(' ')}`,
+    `undertone ${process.argv
+      .slice(2)
+      .map((a) => JSON.stringify(a))
+      .join(' ')}`,
     `node ${process.version} on ${process.platform}-${process.arch}`,
     '',
     err instanceof Error ? (err.stack ?? err.message) : String(err),

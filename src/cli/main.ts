@@ -103,7 +103,13 @@ function joinNegativeNumbers(argv: readonly string[], valued: ReadonlySet<string
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     const next = argv[i + 1];
-    if (a.startsWith('--') && !a.includes('=') && valued.has(a.slice(2)) && next !== undefined && /^-\d|^-\.\d|^-Infinity$|^-NaN$/.test(next)) {
+    if (
+      a.startsWith('--') &&
+      !a.includes('=') &&
+      valued.has(a.slice(2)) &&
+      next !== undefined &&
+      /^-\d|^-\.\d|^-Infinity$|^-NaN$/.test(next)
+    ) {
       out.push(`${a}=${next}`);
       i++;
     } else out.push(a);
@@ -138,7 +144,11 @@ const EXTRA_OPTIONS = {
 
 export async function main(argv: string[], io: Io = processIo): Promise<number> {
   const options = { ...COMMON_OPTIONS, ...EXTRA_OPTIONS };
-  const valued = new Set(Object.entries(options).filter(([, o]) => o.type === 'string').map(([name]) => name));
+  const valued = new Set(
+    Object.entries(options)
+      .filter(([, o]) => o.type === 'string')
+      .map(([name]) => name),
+  );
   let parsed;
   try {
     parsed = parseArgs({ args: joinNegativeNumbers(argv, valued), options, allowPositionals: true, strict: true });
@@ -152,7 +162,19 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? EXIT.ok : EXIT.usage;
   }
-  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'lookalikes', 'export', 'import-factors', 'map', 'count', 'import-model'];
+  const needsFolder = [
+    'index',
+    'ask',
+    'nearby',
+    'eval',
+    'topics',
+    'lookalikes',
+    'export',
+    'import-factors',
+    'map',
+    'count',
+    'import-model',
+  ];
   if (!needsFolder.includes(command)) {
     io.err(`undertone: unknown command "${command}"\n${HINT}`);
     return EXIT.usage;
@@ -164,7 +186,9 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
   // An unquoted question arrives as several words: join them (ask); other commands take at most one more.
   const arg = command === 'ask' ? (rest.length > 0 ? rest.join(' ') : undefined) : rest[0];
   if (command !== 'ask' && rest.length > (command === 'nearby' ? 1 : 0)) {
-    io.err(`undertone ${command}: unexpected argument${rest.length > 1 ? 's' : ''} ${rest.map((r) => `"${r}"`).join(' ')}${command === 'nearby' ? ' (nearby takes one file; quote a name with spaces)' : ''}\n${HINT}`);
+    io.err(
+      `undertone ${command}: unexpected argument${rest.length > 1 ? 's' : ''} ${rest.map((r) => `"${r}"`).join(' ')}${command === 'nearby' ? ' (nearby takes one file; quote a name with spaces)' : ''}\n${HINT}`,
+    );
     return EXIT.usage;
   }
   if (typeof flags['cache-dir'] === 'string' && flags['cache-dir'].trim() === '') {
@@ -174,7 +198,8 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
   if (!flags.quiet) {
     for (const name of Object.keys(flags)) {
       const applies = APPLIES_TO[name];
-      if (applies && !applies.includes(command)) io.err(`note: --${name} does not apply to ${command} (only to ${applies.join(', ')}); ignored.`);
+      if (applies && !applies.includes(command))
+        io.err(`note: --${name} does not apply to ${command} (only to ${applies.join(', ')}); ignored.`);
     }
   }
   try {

@@ -6,8 +6,16 @@ import type { NearbyProvider } from './nearbyView.js';
 import { openOptions } from './resultItem.js';
 import type { SearchResultsProvider } from './searchView.js';
 import {
-  EMPTY_QUESTION_MESSAGE, NO_FEEDBACK, NO_MATCH_MESSAGE, noKnownWordsMessage, refineFeedback, SEARCH_PLACEHOLDER, searchEntries, searchPickItems,
-  type ResultEntry, type SearchFeedback,
+  EMPTY_QUESTION_MESSAGE,
+  NO_FEEDBACK,
+  NO_MATCH_MESSAGE,
+  noKnownWordsMessage,
+  refineFeedback,
+  SEARCH_PLACEHOLDER,
+  searchEntries,
+  searchPickItems,
+  type ResultEntry,
+  type SearchFeedback,
 } from './viewModels.js';
 import type { SearchMatch } from '../node/worker/workerProtocol.js';
 import { errorKind } from '../node/worker/workerErrors.js';
@@ -30,7 +38,12 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
     reg('undertone.search', () => askAndSearch(deps)),
     reg('undertone.searchSelection', async () => {
       const editor = vscode.window.activeTextEditor;
-      const text = editor ? editor.selections.map((s) => editor.document.getText(s)).join('\n').trim() : '';
+      const text = editor
+        ? editor.selections
+            .map((s) => editor.document.getText(s))
+            .join('\n')
+            .trim()
+        : '';
       if (!text) {
         void vscode.window.showInformationMessage('Select some text first: it becomes the query of a search by meaning.');
         return;
@@ -42,7 +55,9 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
     reg('undertone.showNearby', async (uri?: vscode.Uri) => {
       const target = uri instanceof vscode.Uri ? uri : vscode.window.activeTextEditor?.document.uri;
       if (!target || target.scheme !== 'file') {
-        void vscode.window.showInformationMessage('Open a file from this workspace (or pick one in the Explorer) to see the files nearest to it in meaning.');
+        void vscode.window.showInformationMessage(
+          'Open a file from this workspace (or pick one in the Explorer) to see the files nearest to it in meaning.',
+        );
         return;
       }
       await vscode.commands.executeCommand('undertone.nearby.focus');
@@ -51,7 +66,11 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
     reg('undertone.deleteIndex', async () => {
       const choice = await vscode.window.showWarningMessage(
         'Delete the saved Undertone index of this workspace?',
-        { modal: true, detail: 'Search, Nearby and the other views have nothing to show until the index is built again with "Build Index" (unchanged files are read again too).' },
+        {
+          modal: true,
+          detail:
+            'Search, Nearby and the other views have nothing to show until the index is built again with "Build Index" (unchanged files are read again too).',
+        },
         'Delete',
       );
       if (choice !== 'Delete') return;
@@ -59,7 +78,9 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
       search.clear();
       const where = deps.indexFile ? ` (${deps.indexFile})` : '';
       void vscode.window.showInformationMessage(
-        deleted ? `Deleted the saved Undertone index${where}. Run "Build Index" to build it again.` : 'There was no saved Undertone index to delete.',
+        deleted
+          ? `Deleted the saved Undertone index${where}. Run "Build Index" to build it again.`
+          : 'There was no saved Undertone index to delete.',
       );
     }),
     reg('undertone.clearSearchResults', () => search.clear()),
@@ -140,7 +161,9 @@ async function askAndSearch(deps: CommandDeps): Promise<void> {
   const found = await new Promise<{ query: string; outcome: SearchOutcome } | undefined>((resolve) => {
     let result: { query: string; outcome: SearchOutcome } | undefined;
     const subs = [
-      box.onDidChangeValue(() => { box.validationMessage = undefined; }),
+      box.onDidChangeValue(() => {
+        box.validationMessage = undefined;
+      }),
       box.onDidAccept(async () => {
         const query = box.value.trim();
         if (!query) {
@@ -173,7 +196,13 @@ async function runSearch(deps: CommandDeps, query: string): Promise<void> {
   await showOutcome(deps, query, await searchOnce(deps, query));
 }
 
-async function showOutcome(deps: CommandDeps, query: string, outcome: SearchOutcome, feedback: SearchFeedback = NO_FEEDBACK, pickOne = true): Promise<void> {
+async function showOutcome(
+  deps: CommandDeps,
+  query: string,
+  outcome: SearchOutcome,
+  feedback: SearchFeedback = NO_FEEDBACK,
+  pickOne = true,
+): Promise<void> {
   const { controller, search } = deps;
   if (outcome.kind === 'no-index') {
     const choice = await vscode.window.showInformationMessage('There is no Undertone index for this workspace yet.', 'Build Index');

@@ -26,19 +26,37 @@ export function whyMarkdown(plainTooltip: string, why: Why | undefined, kind: Wh
   const out = [`**${escapeMarkdown(first)}**`, ...rest.map((l) => escapeMarkdown(l))].join('  \n');
   if (!why || why.terms.length === 0) return out;
   const concepts = why.concepts ?? [];
-  const conceptLines = concepts.length === 0 ? [] : [
-    '',
-    'Why it is near: the concepts both files share',
-    '',
-    '| Concept (its words in these files) | Share |',
-    '| :-- | --: |',
-    ...concepts.map((c) => `| ${escapeMarkdown(c.words.join(', ') || 'unnamed')} | ${formatShare(c.share)} |`),
-    ...(why.conceptRest !== undefined ? [`| other concepts | ${formatShare(why.conceptRest)} |`] : []),
-  ];
-  const heading = kind === 'nearby' ? (concepts.length ? 'And the terms contributing most' : 'Why it is near: the terms contributing most') : 'Why it matches: the terms contributing most';
+  const conceptLines =
+    concepts.length === 0
+      ? []
+      : [
+          '',
+          'Why it is near: the concepts both files share',
+          '',
+          '| Concept (its words in these files) | Share |',
+          '| :-- | --: |',
+          ...concepts.map((c) => `| ${escapeMarkdown(c.words.join(', ') || 'unnamed')} | ${formatShare(c.share)} |`),
+          ...(why.conceptRest !== undefined ? [`| other concepts | ${formatShare(why.conceptRest)} |`] : []),
+        ];
+  const heading =
+    kind === 'nearby'
+      ? concepts.length
+        ? 'And the terms contributing most'
+        : 'Why it is near: the terms contributing most'
+      : 'Why it matches: the terms contributing most';
   const rows = why.terms.map((t) => `| ${t.inBoth ? escapeMarkdown(t.word) : `_${escapeMarkdown(t.word)}_`} | ${formatShare(t.share)} |`);
   if (why.restTerms > 0) rows.push(`| ${why.restTerms} other ${why.restTerms === 1 ? 'term' : 'terms'} | ${formatShare(why.rest)} |`);
-  const lines = [out, ...conceptLines, '', `${heading}:`, '', '| Term | Share |', '| :-- | --: |', ...rows, `| **Score** | **${formatShare(why.score)}** |`];
+  const lines = [
+    out,
+    ...conceptLines,
+    '',
+    `${heading}:`,
+    '',
+    '| Term | Share |',
+    '| :-- | --: |',
+    ...rows,
+    `| **Score** | **${formatShare(why.score)}** |`,
+  ];
   const other = kind === 'nearby' ? 'both files' : 'the query and the file';
   if (why.terms.some((t) => !t.inBoth)) lines.push('', `_Italic_: not in ${other}; it counts through related words.`);
   return lines.join('\n');

@@ -38,11 +38,13 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
     folders: () => {
       const all = vscode.workspace.workspaceFolders ?? [];
       return {
-        local: all.filter((f) => f.uri.scheme === 'file').map((f) => ({
-          name: f.name,
-          fsPath: f.uri.fsPath,
-          filesExclude: vscode.workspace.getConfiguration('files', f.uri).get('exclude'),
-        })),
+        local: all
+          .filter((f) => f.uri.scheme === 'file')
+          .map((f) => ({
+            name: f.name,
+            fsPath: f.uri.fsPath,
+            filesExclude: vscode.workspace.getConfiguration('files', f.uri).get('exclude'),
+          })),
         elsewhere: all.filter((f) => f.uri.scheme !== 'file').map((f) => `${f.name} (${f.uri.scheme})`),
       };
     },
@@ -71,7 +73,13 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
   const setContext = (key: string, value: unknown) => void vscode.commands.executeCommand('setContext', key, value);
   const files = new FileEvents(controller, (uri, change, t0) => {
     if (!change || nearby.subject?.fsPath !== uri.fsPath) return;
-    void nearby.settled().then(() => log.info(`Saved ${vscode.workspace.asRelativePath(uri)}: folded in and Nearby updated in ${Math.round(performance.now() - t0)} ms.`));
+    void nearby
+      .settled()
+      .then(() =>
+        log.info(
+          `Saved ${vscode.workspace.asRelativePath(uri)}: folded in and Nearby updated in ${Math.round(performance.now() - t0)} ms.`,
+        ),
+      );
   });
   let reconfigureTimer: ReturnType<typeof setTimeout> | undefined;
   const reconfigureSoon = () => {
@@ -80,7 +88,13 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
   };
 
   context.subscriptions.push(
-    log, nearby, search, nearbyView, searchView, status, files,
+    log,
+    nearby,
+    search,
+    nearbyView,
+    searchView,
+    status,
+    files,
     controller.onDidChangeState((state) => {
       status.render(state);
       setContext('undertone.state', state.kind);
@@ -88,7 +102,9 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
     }),
     vscode.workspace.onDidChangeConfiguration((e) => {
       if (e.affectsConfiguration('undertone.nearbyCount')) void nearby.refresh();
-      const relevant = ['include', 'exclude', 'maxFileSizeKB', 'dimensions', 'weighting', 'useGitignore', 'followLinksOutside'].some((k) => e.affectsConfiguration(`undertone.${k}`));
+      const relevant = ['include', 'exclude', 'maxFileSizeKB', 'dimensions', 'weighting', 'useGitignore', 'followLinksOutside'].some((k) =>
+        e.affectsConfiguration(`undertone.${k}`),
+      );
       if (relevant || e.affectsConfiguration('files.exclude')) reconfigureSoon();
     }),
     vscode.workspace.onDidChangeWorkspaceFolders(() => {
@@ -96,8 +112,18 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
       reconfigureSoon();
     }),
     ...registerCommands({ controller, nearby, search, log, indexFile }),
-    ...registerInsights({ controller, extensionUri: context.extensionUri, workspaceState: context.workspaceState, log: (line) => log.info(line) }),
-    { dispose: () => { clearTimeout(reconfigureTimer); void controller.dispose(); } },
+    ...registerInsights({
+      controller,
+      extensionUri: context.extensionUri,
+      workspaceState: context.workspaceState,
+      log: (line) => log.info(line),
+    }),
+    {
+      dispose: () => {
+        clearTimeout(reconfigureTimer);
+        void controller.dispose();
+      },
+    },
   );
   status.render(controller.state);
   setContext('undertone.state', controller.state.kind);

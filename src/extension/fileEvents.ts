@@ -29,11 +29,16 @@ export class FileEvents implements vscode.Disposable {
       }),
       vscode.workspace.onDidCreateFiles((e) => void this.send(local(e.files).map((fsPath) => ({ kind: 'created', fsPath })))),
       vscode.workspace.onDidDeleteFiles((e) => void this.send(local(e.files).map((fsPath) => ({ kind: 'deleted', fsPath })))),
-      vscode.workspace.onDidRenameFiles((e) =>
-        void this.send(e.files.filter((f) => f.oldUri.scheme === 'file').flatMap((f) => [
-          { kind: 'deleted' as const, fsPath: f.oldUri.fsPath },
-          { kind: 'created' as const, fsPath: f.newUri.fsPath },
-        ])),
+      vscode.workspace.onDidRenameFiles(
+        (e) =>
+          void this.send(
+            e.files
+              .filter((f) => f.oldUri.scheme === 'file')
+              .flatMap((f) => [
+                { kind: 'deleted' as const, fsPath: f.oldUri.fsPath },
+                { kind: 'created' as const, fsPath: f.newUri.fsPath },
+              ]),
+          ),
       ),
     );
     this.watch();

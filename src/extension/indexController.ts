@@ -4,10 +4,25 @@
  * background rebuild is due. It holds only light state (the summary, the folder list) and talks to
  * the editor through the small ControllerHost interface, so it runs under unit tests too.
  */
-import { decideUpdate, DEFAULT_UPDATE_POLICY, describeReasons, rebuildDelay, type UpdatePolicy } from '../core/index/update/updatePolicy.js';
+import {
+  decideUpdate,
+  DEFAULT_UPDATE_POLICY,
+  describeReasons,
+  rebuildDelay,
+  type UpdatePolicy,
+} from '../core/index/update/updatePolicy.js';
 import { isCancelled, type WorkerClient } from '../node/worker/client.js';
 import type { InsightRequestType } from '../node/worker/insightProtocol.js';
-import { overallPercent, type FileChange, type IndexSummary, type ParamsOf, type ResultOf, type ScoredFile, type SearchMatch, type TranslationRef } from '../node/worker/workerProtocol.js';
+import {
+  overallPercent,
+  type FileChange,
+  type IndexSummary,
+  type ParamsOf,
+  type ResultOf,
+  type ScoredFile,
+  type SearchMatch,
+  type TranslationRef,
+} from '../node/worker/workerProtocol.js';
 import { NO_FEEDBACK, type SearchFeedback } from './viewModels.js';
 import { uniqueRootNames } from '../node/worker/rootMap.js';
 import { noIndexReason, summaryOf, unavailableReason, type IndexState } from './indexState.js';
@@ -112,19 +127,28 @@ export class IndexController {
     const background = kind === 'background';
     const run = async (report?: (percent: number) => void): Promise<void> => {
       this.setState({ kind: 'building', percent: 0, background, previous });
-      const result = await client.request('build', {}, {
-        signal: abort.signal,
-        onProgress: (p) => {
-          const percent = overallPercent(p);
-          if (this._state.kind === 'building' && this._state.percent !== percent) this.setState({ ...this._state, percent });
-          report?.(percent);
+      const result = await client.request(
+        'build',
+        {},
+        {
+          signal: abort.signal,
+          onProgress: (p) => {
+            const percent = overallPercent(p);
+            if (this._state.kind === 'building' && this._state.percent !== percent) this.setState({ ...this._state, percent });
+            report?.(percent);
+          },
         },
-      });
-      this._host.log(`Built the index: ${result.summary.files} files (${result.read} read, ${result.reused} reused, ${result.skipped} skipped), k=${result.summary.k}, ${result.seconds.toFixed(2)} s.`);
+      );
+      this._host.log(
+        `Built the index: ${result.summary.files} files (${result.read} read, ${result.reused} reused, ${result.skipped} skipped), k=${result.summary.k}, ${result.seconds.toFixed(2)} s.`,
+      );
       if (result.saveProblem) {
         // The index is in use; only keeping it for the next session failed.
         this._host.log(`The index could not be saved: ${result.saveProblem}. It is used from memory and will be built again next time.`);
-        if (!background) this._host.showError(`Undertone built the index but could not save it (${result.saveProblem}); it is used for this session only.`);
+        if (!background)
+          this._host.showError(
+            `Undertone built the index but could not save it (${result.saveProblem}); it is used for this session only.`,
+          );
       }
       this.setState({ kind: 'ready', summary: result.summary });
       this.emitChange({ folded: [], removed: [], all: true });
@@ -248,7 +272,11 @@ export class IndexController {
     }
     const names = uniqueRootNames(local.map((f) => f.name));
     this._multiRoot = local.length > 1;
-    const config = toWorkerConfig(this.settings, local.map((f, i) => ({ ...f, key: names[i] })), indexFile);
+    const config = toWorkerConfig(
+      this.settings,
+      local.map((f, i) => ({ ...f, key: names[i] })),
+      indexFile,
+    );
     const { modelChanged } = await this._worker.client.request('configure', { config });
     this._modelChanged = modelChanged;
     return this._worker.client;
@@ -258,7 +286,10 @@ export class IndexController {
     if (!this._worker) return;
     const r = await this._worker.client.request('refresh', { maxFoldShare: this._policy.maxChangedShare });
     const n = r.added + r.changed + r.removed;
-    if (n > 0) this._host.log(`Since the index was saved: ${r.added} added, ${r.changed} changed, ${r.removed} removed${r.tooManyChanges ? ' (too many to fold in)' : ' (folded in)'}.`);
+    if (n > 0)
+      this._host.log(
+        `Since the index was saved: ${r.added} added, ${r.changed} changed, ${r.removed} removed${r.tooManyChanges ? ' (too many to fold in)' : ' (folded in)'}.`,
+      );
     if (r.tooManyChanges && r.summary) {
       if (this.settings.autoRebuild) await this.build('background');
       else this.setState({ kind: 'stale', summary: r.summary, reason: `${n} files changed since it was built` });
@@ -282,10 +313,13 @@ export class IndexController {
     }
     this.setState({ kind: 'ready', summary });
     clearTimeout(this._rebuildTimer);
-    this._rebuildTimer = setTimeout(() => {
-      this._host.log(`Rebuilding in the background: ${reason}.`);
-      void this.build('background');
-    }, rebuildDelay(this._lastChangeAt, Date.now(), this._policy));
+    this._rebuildTimer = setTimeout(
+      () => {
+        this._host.log(`Rebuilding in the background: ${reason}.`);
+        void this.build('background');
+      },
+      rebuildDelay(this._lastChangeAt, Date.now(), this._policy),
+    );
   }
 
   private onWorkerExit(worker: StartedWorker, code: number): void {

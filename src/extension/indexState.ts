@@ -66,12 +66,17 @@ export function statusBarModel(state: IndexState): StatusBarModel {
     case 'unavailable':
       return { text: '$(circle-slash) Undertone', tooltip: `Undertone: ${state.reason}` };
     case 'none':
-      return { text: '$(circle-outline) Undertone: no index', tooltip: `Undertone: ${state.reason ?? 'there is no index for this workspace yet.'} ${click}` };
+      return {
+        text: '$(circle-outline) Undertone: no index',
+        tooltip: `Undertone: ${state.reason ?? 'there is no index for this workspace yet.'} ${click}`,
+      };
     case 'building':
       return {
         text: `$(sync~spin) Undertone: indexing ${state.percent}%`,
-        tooltip: `Undertone: ${state.background ? 'rebuilding the index in the background' : 'building the index'} (${state.percent}%).` +
-          (state.previous ? ` The previous index (${files(state.previous.files)}) stays in use until it is done.` : '') + ` ${click}`,
+        tooltip:
+          `Undertone: ${state.background ? 'rebuilding the index in the background' : 'building the index'} (${state.percent}%).` +
+          (state.previous ? ` The previous index (${files(state.previous.files)}) stays in use until it is done.` : '') +
+          ` ${click}`,
       };
     case 'ready':
       return {
@@ -102,9 +107,16 @@ export function statusActions(state: IndexState): ActionItem[] {
   const has = summaryOf(state) !== null;
   if (has) items.push({ label: '$(search) Search Workspace by Meaning…', command: 'undertone.search' });
   if (has) items.push({ label: '$(list-tree) Show Nearby Files', command: 'undertone.showNearby', description: 'for the active file' });
-  if (state.kind === 'building') items.push({ label: '$(debug-stop) Cancel Indexing', command: 'undertone.cancelIndexing', description: 'keeps the previous index' });
-  else items.push({ label: has ? '$(refresh) Build Index' : '$(database) Build Index', command: 'undertone.rebuildIndex', description: has ? 'again, from the files' : undefined });
-  if (has || state.kind === 'none' || state.kind === 'failed') items.push({ label: '$(trash) Delete Saved Index', command: 'undertone.deleteIndex' });
+  if (state.kind === 'building')
+    items.push({ label: '$(debug-stop) Cancel Indexing', command: 'undertone.cancelIndexing', description: 'keeps the previous index' });
+  else
+    items.push({
+      label: has ? '$(refresh) Build Index' : '$(database) Build Index',
+      command: 'undertone.rebuildIndex',
+      description: has ? 'again, from the files' : undefined,
+    });
+  if (has || state.kind === 'none' || state.kind === 'failed')
+    items.push({ label: '$(trash) Delete Saved Index', command: 'undertone.deleteIndex' });
   items.push({ label: '$(output) Show Log', command: 'undertone.showLog' });
   return items;
 }

@@ -25,8 +25,14 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
   const settings = () => readLookalikeSettings((key) => vscode.workspace.getConfiguration('undertone').get(key));
   const lookalikes = new LookalikesProvider(controller, new DismissedPairs(deps.workspaceState), settings, log);
   const topics = new TopicsProvider(controller, log);
-  const lookalikeView = vscode.window.createTreeView<LookalikeNode>(LookalikesProvider.viewType, { treeDataProvider: lookalikes, showCollapseAll: true });
-  const topicsView = vscode.window.createTreeView<TopicsTreeNode>(TopicsProvider.viewType, { treeDataProvider: topics, showCollapseAll: true });
+  const lookalikeView = vscode.window.createTreeView<LookalikeNode>(LookalikesProvider.viewType, {
+    treeDataProvider: lookalikes,
+    showCollapseAll: true,
+  });
+  const topicsView = vscode.window.createTreeView<TopicsTreeNode>(TopicsProvider.viewType, {
+    treeDataProvider: topics,
+    showCollapseAll: true,
+  });
   lookalikes.attach(lookalikeView);
   topics.attach(topicsView);
   let map: ConceptMapPanel | undefined;
@@ -34,14 +40,20 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
   const isPair = (x: unknown): x is PairNode => typeof x === 'object' && x !== null && (x as PairNode).type === 'pair';
 
   return [
-    lookalikes, topics, lookalikeView, topicsView,
+    lookalikes,
+    topics,
+    lookalikeView,
+    topicsView,
     { dispose: () => map?.dispose() },
     vscode.workspace.onDidChangeConfiguration((e) => {
       if (e.affectsConfiguration('undertone.lookalikeThreshold')) void lookalikes.refresh();
     }),
     reg('undertone.openMap', async () => {
       if (summaryOf(controller.state) === null) {
-        const choice = await vscode.window.showInformationMessage('The concept map needs the Undertone index of this workspace, and there is none yet.', 'Build Index');
+        const choice = await vscode.window.showInformationMessage(
+          'The concept map needs the Undertone index of this workspace, and there is none yet.',
+          'Build Index',
+        );
         if (choice) await controller.build('user');
         return;
       }
@@ -62,14 +74,18 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
     reg('undertone.compareLookalike', async (node?: unknown) => {
       if (!isPair(node)) return;
       const title = `${node.label} (${node.description})`;
-      await vscode.commands.executeCommand('vscode.diff', vscode.Uri.file(node.a.fsPath), vscode.Uri.file(node.b.fsPath), title, { preview: true });
+      await vscode.commands.executeCommand('vscode.diff', vscode.Uri.file(node.a.fsPath), vscode.Uri.file(node.b.fsPath), title, {
+        preview: true,
+      });
     }),
     reg('undertone.dismissLookalike', async (node?: unknown) => {
       if (isPair(node)) await lookalikes.hide(node);
     }),
     reg('undertone.restoreLookalikes', async () => {
       const n = await lookalikes.restoreHidden();
-      void vscode.window.showInformationMessage(n > 0 ? `${n} dismissed ${n === 1 ? 'pair is' : 'pairs are'} shown again.` : 'No pairs were dismissed.');
+      void vscode.window.showInformationMessage(
+        n > 0 ? `${n} dismissed ${n === 1 ? 'pair is' : 'pairs are'} shown again.` : 'No pairs were dismissed.',
+      );
     }),
   ];
 }

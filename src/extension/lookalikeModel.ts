@@ -97,11 +97,15 @@ function pairNode(kind: LookalikeKind, p: LookalikePairWire, t: LookalikesResult
   const [na, nb] = shortNames(p.a.key, p.b.key);
   const shared = describeShared(p);
   const measure =
-    kind === 'exact' ? 'Identical text (after normalising whitespace).'
-    : kind === 'near' ? `Shingle Jaccard ${p.jaccard.toFixed(2)}: the share of 5-word runs the two files have in common (near-copy from ${t.threshold}).`
-    : kind === 'partial' ? `Shingle Jaccard ${p.jaccard.toFixed(2)}: ${Math.round(p.jaccard * 100)}% of their 5-word runs are common (partial copy from ${t.partialThreshold}, near-copy from ${t.threshold}).`
-    : `Each file is the other's clearly nearest neighbour by the words they use (cosine ${p.similarity.toFixed(2)}, ${(p.gap ?? 0).toFixed(2)} above either file's next neighbour), yet they share little text (Jaccard ${p.jaccard.toFixed(2)}).`;
-  const score = kind === 'retold' ? `cosine ${p.similarity.toFixed(2)}` : kind === 'exact' ? 'identical' : `Jaccard ${p.jaccard.toFixed(2)}`;
+    kind === 'exact'
+      ? 'Identical text (after normalising whitespace).'
+      : kind === 'near'
+        ? `Shingle Jaccard ${p.jaccard.toFixed(2)}: the share of 5-word runs the two files have in common (near-copy from ${t.threshold}).`
+        : kind === 'partial'
+          ? `Shingle Jaccard ${p.jaccard.toFixed(2)}: ${Math.round(p.jaccard * 100)}% of their 5-word runs are common (partial copy from ${t.partialThreshold}, near-copy from ${t.threshold}).`
+          : `Each file is the other's clearly nearest neighbour by the words they use (cosine ${p.similarity.toFixed(2)}, ${(p.gap ?? 0).toFixed(2)} above either file's next neighbour), yet they share little text (Jaccard ${p.jaccard.toFixed(2)}).`;
+  const score =
+    kind === 'retold' ? `cosine ${p.similarity.toFixed(2)}` : kind === 'exact' ? 'identical' : `Jaccard ${p.jaccard.toFixed(2)}`;
   return {
     type: 'pair',
     id: `lookalike:${kind}:${pairKey(p.a.key, p.b.key)}`,
@@ -142,7 +146,11 @@ export interface LookalikeTree {
 }
 
 /** The tree; `limits` says how many entries each section shows (SECTION_PAGE by default). */
-export function lookalikeTree(result: LookalikesResult, hidden: ReadonlySet<string>, limits: Partial<Record<LookalikeKind, number>> = {}): LookalikeTree {
+export function lookalikeTree(
+  result: LookalikesResult,
+  hidden: ReadonlySet<string>,
+  limits: Partial<Record<LookalikeKind, number>> = {},
+): LookalikeTree {
   let hiddenCount = 0;
   let shown = 0;
   const sections: SectionNode[] = [];
@@ -160,7 +168,8 @@ export function lookalikeTree(result: LookalikesResult, hidden: ReadonlySet<stri
     const children: (GroupNode | PairNode | MoreNode)[] = all.slice(0, limit);
     for (const c of children) shown += c.type === 'group' ? c.pairs.length : 1;
     const rest = all.length - children.length;
-    if (rest > 0) children.push({ type: 'more', id: `lookalike:more:${kind}`, kind, label: `Show ${Math.min(rest, SECTION_PAGE)} more`, hidden: rest });
+    if (rest > 0)
+      children.push({ type: 'more', id: `lookalike:more:${kind}`, kind, label: `Show ${Math.min(rest, SECTION_PAGE)} more`, hidden: rest });
     const unit = kind === 'exact' ? 'group' : 'pair';
     const total = all.length + beyond;
     sections.push({
@@ -180,14 +189,21 @@ const SECTION_HELP: Readonly<Record<LookalikeKind, string>> = {
   exact: 'Files with identical text. Longest text first; one-line stubs come last. Links to one file are the same file and are not listed.',
   near: 'Files that share most of their text (shingle Jaccard at or above the near-copy threshold). Highest first.',
   partial: 'Files that share a substantial part of their text (shingle Jaccard 0.3 up to the near-copy threshold). Highest first.',
-  retold: 'Files that tell the same thing in other words: each is the other\'s clearly nearest file by the words they use (after lines repeated across many files are set aside), and they share little text. Strongest first.',
+  retold:
+    "Files that tell the same thing in other words: each is the other's clearly nearest file by the words they use (after lines repeated across many files are set aside), and they share little text. Strongest first.",
 };
 
 /** The view's message line: what was searched, and why it may be empty. */
 export function lookalikeSummary(result: LookalikesResult, tree: LookalikeTree): string {
   const parts: string[] = [];
-  if (tree.shown === 0) parts.push(`No overlaps among ${result.files} files (near-copies from Jaccard ${result.threshold}, partial copies from ${result.partialThreshold}).`);
-  if ((result.sameFile ?? 0) > 0) parts.push(`${result.sameFile} ${result.sameFile === 1 ? 'path is a link' : 'paths are links'} to a file already listed (the same file, not a copy): left out.`);
+  if (tree.shown === 0)
+    parts.push(
+      `No overlaps among ${result.files} files (near-copies from Jaccard ${result.threshold}, partial copies from ${result.partialThreshold}).`,
+    );
+  if ((result.sameFile ?? 0) > 0)
+    parts.push(
+      `${result.sameFile} ${result.sameFile === 1 ? 'path is a link' : 'paths are links'} to a file already listed (the same file, not a copy): left out.`,
+    );
   if (tree.hidden > 0) parts.push(`${tree.hidden} dismissed ${tree.hidden === 1 ? 'pair' : 'pairs'} hidden.`);
   if (result.unreadable > 0) parts.push(`${result.unreadable} files could not be read.`);
   return parts.join(' ');

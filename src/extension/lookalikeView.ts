@@ -11,7 +11,16 @@ import type { LookalikesResult } from '../node/worker/insightProtocol.js';
 import type { DismissedPairs } from './dismissedPairs.js';
 import type { IndexController } from './indexController.js';
 import type { LookalikeKind } from '../node/worker/insightProtocol.js';
-import { lookalikeSummary, lookalikeTree, SECTION_PAGE, type LookalikeNode, type LookalikeSettings, type LookalikeTree, type MoreNode, type PairNode } from './lookalikeModel.js';
+import {
+  lookalikeSummary,
+  lookalikeTree,
+  SECTION_PAGE,
+  type LookalikeNode,
+  type LookalikeSettings,
+  type LookalikeTree,
+  type MoreNode,
+  type PairNode,
+} from './lookalikeModel.js';
 
 export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode>, vscode.Disposable {
   static readonly viewType = 'undertone.lookalikes';
@@ -41,7 +50,10 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
         if (change.all) this.invalidate();
         else if (change.removed.length > 0 && this._result) {
           const gone = new Set(change.removed);
-          this.show({ ...this._result, groups: this._result.groups.map((g) => ({ ...g, pairs: g.pairs.filter((p) => !gone.has(p.a.key) && !gone.has(p.b.key)) })) });
+          this.show({
+            ...this._result,
+            groups: this._result.groups.map((g) => ({ ...g, pairs: g.pairs.filter((p) => !gone.has(p.a.key) && !gone.has(p.b.key)) })),
+          });
         }
       }),
     );
@@ -112,7 +124,15 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
       item.id = node.id;
       item.description = node.description;
       item.tooltip = node.tooltip;
-      item.iconPath = new vscode.ThemeIcon(node.kind === 'exact' ? 'copy' : node.kind === 'near' ? 'files' : node.kind === 'partial' ? 'split-horizontal' : 'comment-discussion');
+      item.iconPath = new vscode.ThemeIcon(
+        node.kind === 'exact'
+          ? 'copy'
+          : node.kind === 'near'
+            ? 'files'
+            : node.kind === 'partial'
+              ? 'split-horizontal'
+              : 'comment-discussion',
+      );
       item.contextValue = 'undertone.lookalikeSection';
       return item;
     }

@@ -46,16 +46,18 @@ export class ConceptMapPanel implements vscode.Disposable {
       styleUri: webview.asWebviewUri(vscode.Uri.joinPath(root, 'map.css')).toString(),
       title: 'Concept map',
     });
-    this._panel.onDidDispose(() => {
-      this.dispose();
-      onDispose();
-    }, null, this._disposables);
+    this._panel.onDidDispose(
+      () => {
+        this.dispose();
+        onDispose();
+      },
+      null,
+      this._disposables,
+    );
     webview.onDidReceiveMessage((m: unknown) => this.receive(m), null, this._disposables);
     vscode.window.onDidChangeActiveColorTheme((t) => this.post({ type: 'theme', kind: themeKindName(t.kind) }), null, this._disposables);
     vscode.window.onDidChangeActiveTextEditor(() => this.selectActive(), null, this._disposables);
-    this._disposables.push(
-      new vscode.Disposable(_controller.onDidChangeIndex((change) => change.all && void this.load()).dispose),
-    );
+    this._disposables.push(new vscode.Disposable(_controller.onDidChangeIndex((change) => change.all && void this.load()).dispose));
     void this.load();
   }
 
@@ -75,8 +77,9 @@ export class ConceptMapPanel implements vscode.Disposable {
   private async load(): Promise<void> {
     const seq = ++this._loadSeq;
     try {
-      const result = await vscode.window.withProgress({ location: vscode.ProgressLocation.Window, title: 'Undertone: drawing the concept map' }, () =>
-        this._controller.insight('mapData', {}),
+      const result = await vscode.window.withProgress(
+        { location: vscode.ProgressLocation.Window, title: 'Undertone: drawing the concept map' },
+        () => this._controller.insight('mapData', {}),
       );
       if (seq !== this._loadSeq) return;
       if (!result) {
@@ -85,7 +88,9 @@ export class ConceptMapPanel implements vscode.Disposable {
       }
       this._session = new MapSession(result);
       this._panel.title = 'Concept Map';
-      this._log(`Concept map: ${result.data.files.paths.length} files ${result.cached ? 'from the cache' : 'laid out'} in ${Math.round(result.ms)} ms.`);
+      this._log(
+        `Concept map: ${result.data.files.paths.length} files ${result.cached ? 'from the cache' : 'laid out'} in ${Math.round(result.ms)} ms.`,
+      );
       if (this._pageReady) this.sendInit();
     } catch (err) {
       if (seq !== this._loadSeq) return;
@@ -125,7 +130,14 @@ export class ConceptMapPanel implements vscode.Disposable {
     try {
       const r = await this._controller.insight('mapQuery', { token: session.token, text });
       if (!r) throw new Error('There is no index any more.');
-      this.post({ type: 'queryResult', requestId, text, positions: r.positions, neighbours: [...r.neighbours], similarities: [...r.similarities] });
+      this.post({
+        type: 'queryResult',
+        requestId,
+        text,
+        positions: r.positions,
+        neighbours: [...r.neighbours],
+        similarities: [...r.similarities],
+      });
     } catch (err) {
       const e = err as Error;
       if (errorKind(err) === 'map-outdated') void this.load();

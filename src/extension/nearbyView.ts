@@ -75,7 +75,10 @@ export class NearbyProvider implements vscode.TreeDataProvider<ResultNode>, vsco
       }
       if (seq !== this._seq) return;
       const multiRoot = this._controller.multiRoot;
-      this._entries = hits && subject ? [...subjectTranslationsEntry(subject.fsPath, subject.fsPath, own, multiRoot), ...nearbyEntries(hits, multiRoot)] : [];
+      this._entries =
+        hits && subject
+          ? [...subjectTranslationsEntry(subject.fsPath, subject.fsPath, own, multiRoot), ...nearbyEntries(hits, multiRoot)]
+          : [];
       void vscode.commands.executeCommand('setContext', 'undertone.activeIndexed', hits !== null);
       this._onDidChangeTreeData.fire();
     })();
@@ -101,6 +104,7 @@ export class NearbyProvider implements vscode.TreeDataProvider<ResultNode>, vsco
   }
 
   private describe(): void {
-    if (this._view) this._view.description = this._subject ? vscode.workspace.asRelativePath(this._subject, false).split('/').pop() : undefined;
+    if (this._view)
+      this._view.description = this._subject ? vscode.workspace.asRelativePath(this._subject, false).split('/').pop() : undefined;
   }
 }

@@ -9,7 +9,17 @@ import * as vscode from 'vscode';
 import type { IndexController } from './indexController.js';
 import { summaryOf } from './indexState.js';
 import { resultTreeItem } from './resultItem.js';
-import { feedbackDescription, isPassage, NO_FEEDBACK, searchEntries, searchViewDescription, withoutKeys, type ResultEntry, type ResultNode, type SearchFeedback } from './viewModels.js';
+import {
+  feedbackDescription,
+  isPassage,
+  NO_FEEDBACK,
+  searchEntries,
+  searchViewDescription,
+  withoutKeys,
+  type ResultEntry,
+  type ResultNode,
+  type SearchFeedback,
+} from './viewModels.js';
 
 /** Delay before re-running the last search after index changes (common practice debounce). */
 const RERUN_DELAY_MS = 150;

@@ -79,7 +79,9 @@ export function parseDimensions(v: unknown): number | 'auto' {
 /** The editor's `files.exclude` object → patterns that are switched on (conditional entries are left out). */
 export function enabledPatterns(filesExclude: unknown): string[] {
   if (typeof filesExclude !== 'object' || filesExclude === null) return [];
-  return Object.entries(filesExclude as Record<string, unknown>).filter(([, on]) => on === true).map(([p]) => p);
+  return Object.entries(filesExclude as Record<string, unknown>)
+    .filter(([, on]) => on === true)
+    .map(([p]) => p);
 }
 
 /**
@@ -88,12 +90,14 @@ export function enabledPatterns(filesExclude: unknown): string[] {
  * would match it at any depth); a leading "./" or "/" is dropped first; '!' is escaped.
  */
 export function globToGitignore(glob: string): string[] {
-  return expandBraces(glob.trim()).map((g) => {
-    let p = g.replace(/^\.\//, '').replace(/^\/+/, '');
-    if (p.startsWith('!')) p = `\\${p}`;
-    const body = p.replace(/\/+$/, '');
-    return body.includes('/') ? p : `/${p}`;
-  }).filter((p) => p !== '/' && p !== '');
+  return expandBraces(glob.trim())
+    .map((g) => {
+      let p = g.replace(/^\.\//, '').replace(/^\/+/, '');
+      if (p.startsWith('!')) p = `\\${p}`;
+      const body = p.replace(/\/+$/, '');
+      return body.includes('/') ? p : `/${p}`;
+    })
+    .filter((p) => p !== '/' && p !== '');
 }
 
 function expandBraces(glob: string): string[] {
@@ -134,8 +138,16 @@ export interface HostFolder {
   readonly filesExclude: unknown;
 }
 
-export function toWorkerConfig(s: ExtensionSettings, folders: readonly (HostFolder & { readonly key: string })[], indexFile: string): WorkerConfig {
-  const roots: WorkspaceRoot[] = folders.map((f) => ({ name: f.key, fsPath: f.fsPath, exclude: enabledPatterns(f.filesExclude).flatMap(globToGitignore) }));
+export function toWorkerConfig(
+  s: ExtensionSettings,
+  folders: readonly (HostFolder & { readonly key: string })[],
+  indexFile: string,
+): WorkerConfig {
+  const roots: WorkspaceRoot[] = folders.map((f) => ({
+    name: f.key,
+    fsPath: f.fsPath,
+    exclude: enabledPatterns(f.filesExclude).flatMap(globToGitignore),
+  }));
   const settings: Partial<IndexSettings> = { k: s.dimensions, weighting: s.weighting };
   if (s.conceptModel) {
     // Relative paths are taken from the first workspace folder; the key is the file's CRC-32.

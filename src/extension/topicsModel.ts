@@ -92,7 +92,9 @@ function topicNode(t: TopicWire, multiRoot: boolean, folder: FolderTopicsWire | 
   const here = folder?.counts[t.path] ?? 0;
   let children: TopicsTreeNode[];
   if (t.children.length > 0) {
-    const subs = folder ? t.children.filter((c) => (folder.counts[c.path] ?? 0) > 0).sort((a, b) => folder.counts[b.path] - folder.counts[a.path]) : t.children;
+    const subs = folder
+      ? t.children.filter((c) => (folder.counts[c.path] ?? 0) > 0).sort((a, b) => folder.counts[b.path] - folder.counts[a.path])
+      : t.children;
     children = subs.map((c) => topicNode(c, multiRoot, folder, label));
   } else {
     const files = folder ? t.files.filter((f) => inFolder(f.key, folder.folder)) : t.files;
@@ -104,12 +106,17 @@ function topicNode(t: TopicWire, multiRoot: boolean, folder: FolderTopicsWire | 
   const description = folder
     ? `${here.toLocaleString('en-US')} of ${plural(t.size, 'file', 'files')} here`
     : `${plural(t.size, 'file', 'files')}${main ? ` · ${main.share >= 0.995 ? 'all' : pct(main.share)} in ${folderName(main.folder)}` : ''}`;
-  const where = t.folders.length > 0 ? `Where its files are: ${t.folders.map((f) => `${md(folderName(f.folder))} (${pct(f.share)})`).join(', ')}.` : 'Its files are spread over many folders.';
+  const where =
+    t.folders.length > 0
+      ? `Where its files are: ${t.folders.map((f) => `${md(folderName(f.folder))} (${pct(f.share)})`).join(', ')}.`
+      : 'Its files are spread over many folders.';
   const tooltip = [
     `**${md(words.slice(0, LABEL_WORDS).join(', ') || 'No distinctive words')}** · ${plural(t.size, 'file', 'files')}`,
     '',
     parentLabel ? `Part of the topic “${md(parentLabel)}”.` : '',
-    words.length > 0 ? `Words that set these files apart from ${parentLabel ? 'the rest of that topic' : 'the rest of the workspace'}: ${words.map(md).join(', ')}.` : '',
+    words.length > 0
+      ? `Words that set these files apart from ${parentLabel ? 'the rest of that topic' : 'the rest of the workspace'}: ${words.map(md).join(', ')}.`
+      : '',
     '',
     where,
     '',
@@ -123,14 +130,18 @@ function topicNode(t: TopicWire, multiRoot: boolean, folder: FolderTopicsWire | 
 
 export function topicsTree(result: TopicsResult, multiRoot: boolean): TopicNode[] {
   const folder = result.folder;
-  const top = folder ? result.topics.filter((t) => (folder.counts[t.path] ?? 0) > 0).sort((a, b) => folder.counts[b.path] - folder.counts[a.path]) : result.topics;
+  const top = folder
+    ? result.topics.filter((t) => (folder.counts[t.path] ?? 0) > 0).sort((a, b) => folder.counts[b.path] - folder.counts[a.path])
+    : result.topics;
   const nodes = top.map((t) => topicNode(t, multiRoot, folder, undefined));
   const labelOf = new Map(result.topics.map((t) => [t.path, topicLabel(t)]));
   const keep = (f: FileRef) => !folder || inFolder(f.key, folder.folder);
   const loose = result.loose.filter(keep);
   if (loose.length > 0) {
     const id = 'topic:loose';
-    const children: TopicsTreeNode[] = loose.map((f) => fileNode(id, f, multiRoot, labelOf.has(f.nearest) ? `Nearest topic: ${labelOf.get(f.nearest)}.` : undefined));
+    const children: TopicsTreeNode[] = loose.map((f) =>
+      fileNode(id, f, multiRoot, labelOf.has(f.nearest) ? `Nearest topic: ${labelOf.get(f.nearest)}.` : undefined),
+    );
     const more = folder ? 0 : result.looseCount - result.loose.length;
     if (more > 0) children.push({ type: 'note', id: `${id}:more`, label: `… and ${plural(more, 'more file', 'more files')}` });
     nodes.push({
@@ -139,7 +150,8 @@ export function topicsTree(result: TopicsResult, multiRoot: boolean): TopicNode[
       icon: 'loose',
       label: 'Fits no topic well',
       description: plural(folder ? loose.length : result.looseCount, 'file', 'files'),
-      tooltip: 'These files are no closer to any topic than to the workspace as a whole, so they are listed here rather than forced into the nearest topic.',
+      tooltip:
+        'These files are no closer to any topic than to the workspace as a whole, so they are listed here rather than forced into the nearest topic.',
       children,
     });
   }

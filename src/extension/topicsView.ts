@@ -66,7 +66,10 @@ export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, 
         const result: TopicsResult | null = await this._controller.insight('topics', this._folder ? { folder: this._folder } : {});
         if (seq !== this._seq) return;
         if (!result) this._stale = true;
-        else this._log(`Topics: ${result.topics.length} first-level topics, ${result.levels} level${result.levels === 1 ? '' : 's'}, found in ${Math.round(result.ms)} ms.`);
+        else
+          this._log(
+            `Topics: ${result.topics.length} first-level topics, ${result.levels} level${result.levels === 1 ? '' : 's'}, found in ${Math.round(result.ms)} ms.`,
+          );
         this._nodes = result ? topicsTree(result, this._controller.multiRoot) : [];
         this.setMessage(result?.folder && result.folder.files === 0 ? 'No file of this folder is in the index.' : undefined);
         if (this._view) this._view.description = result ? topicsSummary(result) : undefined;
@@ -76,7 +79,11 @@ export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, 
         this._stale = true;
         this._nodes = [];
         this._onDidChangeTreeData.fire();
-        this.setMessage(err instanceof Error && errorKind(err) === 'empty' ? err.message : `Topics could not be found: ${err instanceof Error ? err.message : String(err)}`);
+        this.setMessage(
+          err instanceof Error && errorKind(err) === 'empty'
+            ? err.message
+            : `Topics could not be found: ${err instanceof Error ? err.message : String(err)}`,
+        );
       }
     })();
     return this._pending;
@@ -88,7 +95,10 @@ export class TopicsProvider implements vscode.TreeDataProvider<TopicsTreeNode>, 
 
   getTreeItem(node: TopicsTreeNode): vscode.TreeItem {
     if (node.type === 'topic') {
-      const item = new vscode.TreeItem(node.label, node.children.length > 0 ? vscode.TreeItemCollapsibleState.Collapsed : vscode.TreeItemCollapsibleState.None);
+      const item = new vscode.TreeItem(
+        node.label,
+        node.children.length > 0 ? vscode.TreeItemCollapsibleState.Collapsed : vscode.TreeItemCollapsibleState.None,
+      );
       item.id = node.id;
       item.description = node.description;
       item.tooltip = new vscode.MarkdownString(node.tooltip);

@@ -114,22 +114,34 @@ function shownPath(ref: { readonly folder: string; readonly relPath: string }, m
 }
 
 /** The row above Nearby's results that holds the active file's own translations (none: no row). */
-export function subjectTranslationsEntry(subjectKey: string, subjectFsPath: string, refs: readonly TranslationRef[], multiRoot: boolean): ResultEntry[] {
+export function subjectTranslationsEntry(
+  subjectKey: string,
+  subjectFsPath: string,
+  refs: readonly TranslationRef[],
+  multiRoot: boolean,
+): ResultEntry[] {
   if (refs.length === 0) return [];
-  return [{
-    key: `${subjectKey}#own-translations`,
-    fsPath: subjectFsPath,
-    label: refs.length === 1 ? 'This page in 1 other language' : `This page in ${refs.length} other languages`,
-    description: refs.map((r) => r.language).join('; '),
-    tooltip: 'The same page in other languages: left out of the list below, which shows other pages.',
-    children: translationEntries(refs, multiRoot),
-    expanded: false,
-    heading: true,
-  }];
+  return [
+    {
+      key: `${subjectKey}#own-translations`,
+      fsPath: subjectFsPath,
+      label: refs.length === 1 ? 'This page in 1 other language' : `This page in ${refs.length} other languages`,
+      description: refs.map((r) => r.language).join('; '),
+      tooltip: 'The same page in other languages: left out of the list below, which shows other pages.',
+      children: translationEntries(refs, multiRoot),
+      expanded: false,
+      heading: true,
+    },
+  ];
 }
 
 /** "0.86 · notes/safety · +2 languages": score, folder (as the editor's own result lists show it) and translations. */
-function describe(score: number, ref: { readonly folder: string; readonly relPath: string }, multiRoot: boolean, translations: number): string {
+function describe(
+  score: number,
+  ref: { readonly folder: string; readonly relPath: string },
+  multiRoot: boolean,
+  translations: number,
+): string {
   return [formatScore(score), locationOf(ref, multiRoot), translationsNote(translations)].filter(Boolean).join(' · ');
 }
 
@@ -160,16 +172,21 @@ export function searchEntries(matches: readonly SearchMatch[], multiRoot: boolea
       ? [{ kind: 'passage', key: `${m.key}#passage`, fsPath: m.fsPath, text: m.lineText, highlights: m.highlights ?? [], line: m.line }]
       : [];
     // The passage shows at once; the other languages wait, folded, one row below it.
-    const languages: ResultEntry[] = translations.length === 0 ? [] : [{
-      key: `${m.key}#translations`,
-      fsPath: m.fsPath,
-      label: translations.length === 1 ? 'In 1 other language' : `In ${translations.length} other languages`,
-      description: (m.translations ?? []).map((t) => t.language.split(',')[0]).join(', '),
-      tooltip: 'The same page in other languages, grouped under the one in the language of the question.',
-      children: translations,
-      expanded: false,
-      heading: true,
-    }];
+    const languages: ResultEntry[] =
+      translations.length === 0
+        ? []
+        : [
+            {
+              key: `${m.key}#translations`,
+              fsPath: m.fsPath,
+              label: translations.length === 1 ? 'In 1 other language' : `In ${translations.length} other languages`,
+              description: (m.translations ?? []).map((t) => t.language.split(',')[0]).join(', '),
+              tooltip: 'The same page in other languages, grouped under the one in the language of the question.',
+              children: translations,
+              expanded: false,
+              heading: true,
+            },
+          ];
     const children: ResultNode[] = [...passage, ...languages];
     return {
       key: m.key,

@@ -19,6 +19,9 @@ export function defaultCacheBase(env: NodeJS.ProcessEnv = process.env): string {
 export function indexFileFor(folder: string, cacheBase: string = defaultCacheBase()): string {
   const abs = resolve(folder);
   const tag = createHash('sha256').update(abs).digest('hex').slice(0, 16);
-  const name = basename(abs).replace(/[^A-Za-z0-9._-]/g, '_').slice(0, 40) || 'root';
+  const name =
+    basename(abs)
+      .replace(/[^A-Za-z0-9._-]/g, '_')
+      .slice(0, 40) || 'root';
   return join(cacheBase, `${name}-${tag}`, 'index.undertone');
 }

@@ -15,7 +15,9 @@ export async function readConceptFile(path: string): Promise<PortableModel> {
   try {
     bytes = await readFile(path);
   } catch (err) {
-    throw new InvalidInputError(`cannot read the concept model ${path}: ${(err as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (err as Error).message}`);
+    throw new InvalidInputError(
+      `cannot read the concept model ${path}: ${(err as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (err as Error).message}`,
+    );
   }
   try {
     return decodeConceptFile(bytes);
@@ -50,7 +52,8 @@ export function sharedModelSetting(path: string): { path: string; key: string } 
 /** Reads a shared model for a build, checking that it is the model the settings name. */
 export async function readSharedModel(setting: { path: string; key: string }): Promise<PortableModel> {
   const model = await readConceptFile(setting.path);
-  if (sharedModelKeyOf(model) !== setting.key) throw new InvalidInputError(`the concept model ${setting.path} changed while it was being read; try again`);
+  if (sharedModelKeyOf(model) !== setting.key)
+    throw new InvalidInputError(`the concept model ${setting.path} changed while it was being read; try again`);
   return model;
 }
 

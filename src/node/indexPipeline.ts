@@ -165,7 +165,11 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     let vocab = sameTokens ? previous.vocab : new Vocabulary();
     let builder = new IndexBuilder(settings, vocab);
     const skipped: SkipCounts = { ...scan.skipped };
-    let reused = 0, read = 0, added = 0, changed = 0, bytesRead = 0;
+    let reused = 0,
+      read = 0,
+      added = 0,
+      changed = 0,
+      bytesRead = 0;
     const toRead: SourceFile[] = [];
     for (const f of scan.files) {
       const old = sameTokens ? previous.meta(f.key) : undefined;
@@ -192,7 +196,12 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     const counting = chooseCounting(toRead.length, threads !== false, reused === 0 && vocab.size === 0);
     const countPool = counting === 'serial' ? undefined : getPool();
     const jobs = () => toRead.map((f) => ({ absPath: f.absPath, size: f.size }));
-    const countOptions = { tokenize: settings.tokenize, maxFileBytes: options.maxFileBytes, signal, onProgress: (done: number) => progress({ stage: 'read', done: reused + done, total }) };
+    const countOptions = {
+      tokenize: settings.tokenize,
+      maxFileBytes: options.maxFileBytes,
+      signal,
+      onProgress: (done: number) => progress({ stage: 'read', done: reused + done, total }),
+    };
     if (countPool && counting === 'sorted') {
       // From scratch: counts come back over a vocabulary already in the builder's order.
       const counted = await countFilesSorted(countPool, jobs(), countOptions);
@@ -222,8 +231,13 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     const counts = { files: builder.size, reused, read, added, changed, removed, bytesRead, skipped };
 
     const unchanged =
-      options.keepUnchanged === true && previous !== undefined && modelSettingsKey(previous.settings) === modelSettingsKey(settings) &&
-      read === 0 && removed === 0 && previous.size === builder.size && previous.staleness().changedFiles === 0;
+      options.keepUnchanged === true &&
+      previous !== undefined &&
+      modelSettingsKey(previous.settings) === modelSettingsKey(settings) &&
+      read === 0 &&
+      removed === 0 &&
+      previous.size === builder.size &&
+      previous.staleness().changedFiles === 0;
     if (unchanged) return { ...counts, index: previous, unchanged: true, seconds };
 
     // ---- build
@@ -233,7 +247,11 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
     const index = builder.build({
       sharedModel,
-      signal: { get aborted() { return cancelled(); } },
+      signal: {
+        get aborted() {
+          return cancelled();
+        },
+      },
       executor: buildPool?.executor(),
       onProgress: (stage, done, all) => {
         if (stage === 'weighting' && done === 1) lap('matrix');

@@ -36,7 +36,12 @@ export const DEFAULT_FOLDER_MAP_SOURCE_OPTIONS: FolderMapSourceOptions = {
 };
 
 /** The map input of the folder's index (paths in the index are relative to folder). */
-export async function folderMapSource(folder: string, index: LsiIndex, topics: TopicsReport | null, options: Partial<FolderMapSourceOptions> = {}): Promise<MapSource> {
+export async function folderMapSource(
+  folder: string,
+  index: LsiIndex,
+  topics: TopicsReport | null,
+  options: Partial<FolderMapSourceOptions> = {},
+): Promise<MapSource> {
   const opts = { ...DEFAULT_FOLDER_MAP_SOURCE_OPTIONS, ...options };
   const stems = mapSourceFromIndex(index, topics, { termsPerFile: opts.termsPerFile, labelWords: opts.labelWords });
   const stem = index.settings.tokenize.stem;

@@ -64,7 +64,13 @@ export async function removeStaleTemporaries(path: string, now = Date.now()): Pr
     const st = await stat(full).catch(() => undefined);
     if (!st?.isFile()) continue;
     if (processAlive(Number(m[2])) && now - st.mtimeMs < STALE_TEMP_MS) continue;
-    if (await rm(full, { force: true }).then(() => true, () => false)) removed.push(entry);
+    if (
+      await rm(full, { force: true }).then(
+        () => true,
+        () => false,
+      )
+    )
+      removed.push(entry);
   }
   return removed;
 }
@@ -101,7 +107,7 @@ function saveReason(err: unknown): string {
  */
 export async function ensureFolder(path: string, target = path): Promise<void> {
   const missing: string[] = [];
-  for (let p = resolve(path); ; ) {
+  for (let p = resolve(path); ;) {
     let st;
     try {
       st = await stat(p);
@@ -122,7 +128,8 @@ export async function ensureFolder(path: string, target = path): Promise<void> {
     try {
       await mkdir(dir);
     } catch (err) {
-      if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw new SaveError(target, dir === target ? saveReason(err) : `${dir}: ${saveReason(err)}`);
+      if ((err as NodeJS.ErrnoException).code !== 'EEXIST')
+        throw new SaveError(target, dir === target ? saveReason(err) : `${dir}: ${saveReason(err)}`);
     }
   }
 }
@@ -152,7 +159,11 @@ export async function checkWritableFile(path: string): Promise<void> {
 export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<void> {
   await ensureFolder(dirname(path), path);
   const existing = await stat(path).catch(() => undefined);
-  if (existing && !existing.isFile()) throw new SaveError(path, existing.isDirectory() ? 'a folder of that name is in the way (EISDIR)' : 'something other than a file is in the way');
+  if (existing && !existing.isFile())
+    throw new SaveError(
+      path,
+      existing.isDirectory() ? 'a folder of that name is in the way (EISDIR)' : 'something other than a file is in the way',
+    );
   await removeStaleTemporaries(path);
   const tmp = `${path}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`;
   let handle: FileHandle | undefined;
@@ -229,7 +240,8 @@ async function readChecked(path: string, chunk: number): Promise<Uint8Array> {
     if (!st.isFile()) throw new NotAnIndexFile(`${path} is not a regular file (a FIFO, socket or device)`);
     const size = st.size;
     const preamble = new Uint8Array(INDEX_PREAMBLE_BYTES);
-    if ((await readAt(handle, preamble, 0, INDEX_PREAMBLE_BYTES, chunk)) < INDEX_PREAMBLE_BYTES) throw new CorruptIndexError('index file is shorter than its preamble');
+    if ((await readAt(handle, preamble, 0, INDEX_PREAMBLE_BYTES, chunk)) < INDEX_PREAMBLE_BYTES)
+      throw new CorruptIndexError('index file is shorter than its preamble');
     const start = headerExtent(preamble);
     if (start > size) throw new CorruptIndexError('index file is truncated inside its header');
     const head = new Uint8Array(start);

@@ -53,11 +53,7 @@ export class FolderNotFoundError extends UndertoneError {
  * @throws CancelledError when `signal` is aborted (checked before each folder and file batch).
  * @throws InvalidInputError for a bad maxFileBytes.
  */
-export async function scanFolder(
-  root: string,
-  options: Partial<ScanOptions> = {},
-  signal?: AbortSignal,
-): Promise<ScanResult> {
+export async function scanFolder(root: string, options: Partial<ScanOptions> = {}, signal?: AbortSignal): Promise<ScanResult> {
   const opts = withDefaults(options);
   checkByteCap(opts.maxFileBytes);
   const abs = resolve(root);

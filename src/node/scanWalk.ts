@@ -28,10 +28,7 @@ import { join, sep } from 'node:path';
 import { CancelledError } from '../core/errors.js';
 import type { ScannedFile, ScanOptions, SkippedPath, SkipReason } from './scanTypes.js';
 import { describeFsError } from './scanRead.js';
-import {
-  createExcludeTest, createIgnoreLayer, createPatternMatcher, enterFolder, isGitIgnored,
-  type IgnoreLayer,
-} from './scanRules.js';
+import { createExcludeTest, createIgnoreLayer, createPatternMatcher, enterFolder, isGitIgnored, type IgnoreLayer } from './scanRules.js';
 
 /** Folders read at once (common practice: enough to keep libuv's 4 I/O threads busy). */
 const FOLDER_CONCURRENCY = 8;
@@ -83,7 +80,11 @@ export async function walkFolder(
       return false;
     }
     if (!opts.followLinksOutside) {
-      skip(rel, 'outside-folder', `Links to ${real}, outside the indexed folder (--follow-links, or the setting undertone.followLinksOutside, reads it).`);
+      skip(
+        rel,
+        'outside-folder',
+        `Links to ${real}, outside the indexed folder (--follow-links, or the setting undertone.followLinksOutside, reads it).`,
+      );
       return false;
     }
     return true;
@@ -183,7 +184,8 @@ export async function walkFolder(
       if (name.includes('\uFFFD') && lstatSync(abs, { throwIfNoEntry: false }) === undefined) {
         // The name was not valid UTF-8 (decoding replaced bytes); report each such name once.
         badNames ??= await undecodableNames(job.abs);
-        for (const raw of badNames.splice(0)) skip(prefix + raw, 'bad-name', 'The file name is not valid UTF-8, so it cannot be indexed by name.');
+        for (const raw of badNames.splice(0))
+          skip(prefix + raw, 'bad-name', 'The file name is not valid UTF-8, so it cannot be indexed by name.');
         continue;
       }
       const kind = direntKind(entry) ?? kindByLstat(abs);
@@ -273,7 +275,8 @@ async function undecodableNames(abs: string): Promise<string[]> {
 /** Printable ASCII kept, every other byte as \xHH. */
 function escapeBytes(bytes: Uint8Array): string {
   let s = '';
-  for (const b of bytes) s += b >= 0x20 && b < 0x7f && b !== 0x5c ? String.fromCharCode(b) : `\\x${b.toString(16).padStart(2, '0').toUpperCase()}`;
+  for (const b of bytes)
+    s += b >= 0x20 && b < 0x7f && b !== 0x5c ? String.fromCharCode(b) : `\\x${b.toString(16).padStart(2, '0').toUpperCase()}`;
   return s;
 }
 

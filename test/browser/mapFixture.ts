@@ -97,8 +97,16 @@ export function buildMapFixture(clusters = 8, perCluster = 60, k = 12, seed = 5)
   let energy = 0;
   for (let i = 0; i < m; i++) for (let j = 0; j < n; j++) energy += a.get(i, j) ** 2;
   const topicIds = Int32Array.from(clusterOf, (c, j) => (j % 37 === 36 ? -1 : c));
-  const topicLabels = clusterWordIds.map((ids) => ids.slice(0, 3).map((t) => terms[t]).join(' · '));
-  const paths = Array.from(clusterOf, (c, j) => `notes/${surface[c * 10]}/${surface[c * 10 + 1 + (j % 5)]}-${String(j).padStart(4, '0')}.md`);
+  const topicLabels = clusterWordIds.map((ids) =>
+    ids
+      .slice(0, 3)
+      .map((t) => terms[t])
+      .join(' · '),
+  );
+  const paths = Array.from(
+    clusterOf,
+    (c, j) => `notes/${surface[c * 10]}/${surface[c * 10 + 1 + (j % 5)]}-${String(j).padStart(4, '0')}.md`,
+  );
   const topTerms = Array.from({ length: n }, (_, j) =>
     Array.from({ length: m }, (_, i) => i)
       .filter((i) => a.get(i, j) > 0)

@@ -74,7 +74,11 @@ suite('standalone map file in Chromium', () => {
     await page.mouse.move(dot.x, dot.y);
     const hovered = await page.locator('.um-tooltip-path').textContent();
     await page.mouse.click(dot.x, dot.y);
-    const seen = (await page.evaluate(() => (window as unknown as { seen: unknown[] }).seen)) as { type: string; index: number; path: string }[];
+    const seen = (await page.evaluate(() => (window as unknown as { seen: unknown[] }).seen)) as {
+      type: string;
+      index: number;
+      path: string;
+    }[];
     const open = seen.find((m) => m.type === 'open');
     expect(open?.path).toBe(hovered);
     expect(fixture.source.paths[open!.index]).toBe(hovered);

@@ -30,7 +30,10 @@ function largeMap(n: number, k: number, clusters: number) {
     const s = Math.hypot(...v);
     v.forEach((x, d) => (vectors[i * k + d] = x / s));
   }
-  const terms = Array.from({ length: 64 }, (_, t) => `term${String.fromCharCode(97 + (t % 26))}${String.fromCharCode(97 + Math.floor(t / 26))}`);
+  const terms = Array.from(
+    { length: 64 },
+    (_, t) => `term${String.fromCharCode(97 + (t % 26))}${String.fromCharCode(97 + Math.floor(t / 26))}`,
+  );
   const termVectors = Float32Array.from({ length: 64 * k }, () => rng.normal());
   const quick = quickLayout(vectors, n, k);
   const source = {
@@ -46,7 +49,16 @@ function largeMap(n: number, k: number, clusters: number) {
     k,
     totalEnergy: 200,
   };
-  const embedded = buildEmbeddedQueryData({ count: n, dimensions: k, fileVectors: vectors, terms, termVectors, globalWeights: new Float32Array(64).fill(1), localWeighting: 'log1p', quick });
+  const embedded = buildEmbeddedQueryData({
+    count: n,
+    dimensions: k,
+    fileVectors: vectors,
+    terms,
+    termVectors,
+    globalWeights: new Float32Array(64).fill(1),
+    localWeighting: 'log1p',
+    quick,
+  });
   return { source, page: buildMapPageData(source, { quick, faithful: null }, embedded, { title: 'Concept map · 50,000 generated files' }) };
 }
 

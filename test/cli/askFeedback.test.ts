@@ -37,8 +37,12 @@ describe('ask with more / fewer like this', () => {
 
   it('--unlike moves files like the chosen one down', async () => {
     const unlike = 'notes/ticketing/refund-policy.md';
-    const base = JSON.parse((await run('ask', demoRoot, 'refund when a sailing is cancelled for weather', '--json', '--top', '60')).out) as Out;
-    const less = JSON.parse((await run('ask', demoRoot, 'refund when a sailing is cancelled for weather', '--json', '--top', '60', '--unlike', unlike)).out) as Out;
+    const base = JSON.parse(
+      (await run('ask', demoRoot, 'refund when a sailing is cancelled for weather', '--json', '--top', '60')).out,
+    ) as Out;
+    const less = JSON.parse(
+      (await run('ask', demoRoot, 'refund when a sailing is cancelled for weather', '--json', '--top', '60', '--unlike', unlike)).out,
+    ) as Out;
     const ticketing = (o: Out) => o.results.slice(0, 10).filter((r) => r.path.includes('ticketing')).length;
     expect(less.results.map((r) => r.path)).not.toContain(unlike);
     expect(ticketing(less)).toBeLessThanOrEqual(ticketing(base));
@@ -51,11 +55,25 @@ describe('ask with more / fewer like this', () => {
   });
 
   it('question filler words ("happens", "the code that") carry no share of a score', async () => {
-    const r = JSON.parse((await run('ask', demoRoot, "what happens to my ticket when the boat can't sail because of bad weather", '--json', '--explain', '--top', '5')).out) as { results: { explain: { terms: { term: string }[] } }[] };
+    const r = JSON.parse(
+      (
+        await run(
+          'ask',
+          demoRoot,
+          "what happens to my ticket when the boat can't sail because of bad weather",
+          '--json',
+          '--explain',
+          '--top',
+          '5',
+        )
+      ).out,
+    ) as { results: { explain: { terms: { term: string }[] } }[] };
     const terms = r.results.flatMap((x) => x.explain.terms.map((t) => t.term));
     expect(terms).toContain('weather');
     expect(terms.some((t) => t.startsWith('happen'))).toBe(false);
-    const code = JSON.parse((await run('ask', demoRoot, 'where is the code that issues refunds', '--json', '--explain', '--top', '5')).out) as { results: { explain: { terms: { term: string }[] } }[] };
+    const code = JSON.parse(
+      (await run('ask', demoRoot, 'where is the code that issues refunds', '--json', '--explain', '--top', '5')).out,
+    ) as { results: { explain: { terms: { term: string }[] } }[] };
     expect(code.results.flatMap((x) => x.explain.terms.map((t) => t.term))).not.toContain('code');
   });
 });

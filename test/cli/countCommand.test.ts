@@ -43,7 +43,10 @@ describe('undertone count', () => {
     expect(r.code, r.err).toBe(0);
     const manifest = JSON.parse(readFileSync(join(dir, 'shard.json'), 'utf8'));
     expect(manifest.listed).toBe(paths.length + 1);
-    expect(manifest.skipped.map((s: { path: string; reason: string }) => `${s.path}:${s.reason}`).sort()).toEqual(['blob.bin:binary', 'gone.txt:unreadable']);
+    expect(manifest.skipped.map((s: { path: string; reason: string }) => `${s.path}:${s.reason}`).sort()).toEqual([
+      'blob.bin:binary',
+      'gone.txt:unreadable',
+    ]);
     const files = readFileSync(join(dir, 'shard.files'), 'utf8').trimEnd().split('\n');
     const terms = readFileSync(join(dir, 'shard.terms'), 'utf8').trimEnd().split('\n');
     expect([...terms].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0))).toEqual(terms);

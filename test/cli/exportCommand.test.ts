@@ -15,17 +15,18 @@ import { loadCollection, referencePython } from '../helpers/shared.js';
 
 const adi = loadCollection('adi');
 
-
 describe('undertone export / import-factors', () => {
   let dir: string, folder: string, cache: string, out: string;
   const run = (...args: string[]) => runCli(args, ['--cache-dir', cache]);
   const rankings = async (): Promise<Map<string, string[]>> => {
     const r = await run('ask', folder, '--queries', join(dir, 'q.jsonl'), '--json', '--top', '10');
     expect(r.code).toBe(0);
-    return new Map(r.out.split('\n').map((line) => {
-      const o = JSON.parse(line) as { id: string; results: { path: string }[] };
-      return [o.id, o.results.map((h) => h.path)];
-    }));
+    return new Map(
+      r.out.split('\n').map((line) => {
+        const o = JSON.parse(line) as { id: string; results: { path: string }[] };
+        return [o.id, o.results.map((h) => h.path)];
+      }),
+    );
   };
 
   beforeAll(() => {
@@ -99,7 +100,9 @@ print(json.dumps({'shape': list(a.shape), 'nnz': int(a.nnz), 'sumsq': float(a.mu
       if (other[0] === list[0]) sameTop++;
       overlap += list.filter((p) => other.includes(p)).length / list.length;
     }
-    console.log(`ARPACK factors vs ours on ADI (k=${k}): same top file for ${sameTop}/${before.size} queries, mean top-10 overlap ${(overlap / before.size).toFixed(3)}, worst σ error ${(info.maxrel * 100).toFixed(2)}%`);
+    console.log(
+      `ARPACK factors vs ours on ADI (k=${k}): same top file for ${sameTop}/${before.size} queries, mean top-10 overlap ${(overlap / before.size).toFixed(3)}, worst σ error ${(info.maxrel * 100).toFixed(2)}%`,
+    );
     expect(sameTop / before.size).toBeGreaterThan(0.9);
     expect(overlap / before.size).toBeGreaterThan(0.9);
   });
@@ -108,7 +111,18 @@ print(json.dumps({'shape': list(a.shape), 'nnz': int(a.nnz), 'sumsq': float(a.mu
     const files = join(out, 'files.txt');
     const lines = readFileSync(files, 'utf8').trimEnd().split('\n');
     writeFileSync(join(out, 'files-changed.txt'), [...lines.slice(1), lines[0]].join('\n'));
-    const r = await run('import-factors', folder, '--u', join(out, 'U.mtx'), '--s', join(out, 'S.txt'), '--v', join(out, 'V.mtx'), '--files', join(out, 'files-changed.txt'));
+    const r = await run(
+      'import-factors',
+      folder,
+      '--u',
+      join(out, 'U.mtx'),
+      '--s',
+      join(out, 'S.txt'),
+      '--v',
+      join(out, 'V.mtx'),
+      '--files',
+      join(out, 'files-changed.txt'),
+    );
     expect(r.code).toBe(1);
     expect(r.err).toMatch(/does not match the saved index's files/);
     expect((await run('import-factors', folder, '--u', join(out, 'U.mtx'))).code).toBe(1);

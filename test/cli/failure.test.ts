@@ -7,12 +7,17 @@ import { USAGE } from '../../src/cli/main.js';
 
 describe('describeFailure', () => {
   it('gives 1 and the message for our own errors and for file-system errors (path and reason, no trace)', async () => {
-    expect(describeFailure('ask', new InvalidInputError('--top needs a positive whole number'))).toEqual({ code: EXIT.input, message: 'undertone ask: --top needs a positive whole number' });
+    expect(describeFailure('ask', new InvalidInputError('--top needs a positive whole number'))).toEqual({
+      code: EXIT.input,
+      message: 'undertone ask: --top needs a positive whole number',
+    });
     const err = await readFile('/nonexistent/undertone/q.jsonl').catch((e: unknown) => e);
     expect(isFsError(err)).toBe(true);
     const d = describeFailure('eval', err);
     expect(d).toEqual({ code: 1, message: 'undertone eval: cannot read /nonexistent/undertone/q.jsonl: no such file or folder (ENOENT)' });
-    expect(fsErrorMessage(Object.assign(new Error('x'), { code: 'EACCES', syscall: 'mkdir', path: '/srv/cache' }))).toBe('cannot write /srv/cache: permission denied (EACCES)');
+    expect(fsErrorMessage(Object.assign(new Error('x'), { code: 'EACCES', syscall: 'mkdir', path: '/srv/cache' }))).toBe(
+      'cannot write /srv/cache: permission denied (EACCES)',
+    );
   });
 
   it('gives 70 for a fault of ours: one line naming the file that holds the full trace', () => {

@@ -10,7 +10,16 @@
  */
 import { execFileSync, spawnSync } from 'node:child_process';
 import {
-  chmodSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, symlinkSync, truncateSync, writeFileSync,
+  chmodSync,
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  symlinkSync,
+  truncateSync,
+  writeFileSync,
 } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -38,8 +47,14 @@ let cache = '';
 
 function run(args: string[], opts: { asOther?: boolean; env?: NodeJS.ProcessEnv; input?: string } = {}): Result {
   const cmd = opts.asOther && isRoot ? 'setpriv' : process.execPath;
-  const full = opts.asOther && isRoot ? ['--reuid=65534', '--regid=65534', '--clear-groups', process.execPath, cli, ...args] : [cli, ...args];
-  const r = spawnSync(cmd, full, { encoding: 'utf8', timeout: 60_000, env: { ...process.env, UNDERTONE_CACHE_DIR: cache, ...opts.env }, input: opts.input ?? '' });
+  const full =
+    opts.asOther && isRoot ? ['--reuid=65534', '--regid=65534', '--clear-groups', process.execPath, cli, ...args] : [cli, ...args];
+  const r = spawnSync(cmd, full, {
+    encoding: 'utf8',
+    timeout: 60_000,
+    env: { ...process.env, UNDERTONE_CACHE_DIR: cache, ...opts.env },
+    input: opts.input ?? '',
+  });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
@@ -66,7 +81,15 @@ describe('the built command line on hostile cases', () => {
   beforeAll(async () => {
     dir = mkdtempSync(join(tmpdir(), 'undertone-hostile-'));
     chmodSync(dir, 0o755);
-    await build({ entryPoints: [join(REPO_ROOT, 'src/cli/bin.ts')], outfile: join(dir, 'dist', 'cli.js'), bundle: true, platform: 'node', target: 'node20', format: 'cjs', logLevel: 'error' });
+    await build({
+      entryPoints: [join(REPO_ROOT, 'src/cli/bin.ts')],
+      outfile: join(dir, 'dist', 'cli.js'),
+      bundle: true,
+      platform: 'node',
+      target: 'node20',
+      format: 'cjs',
+      logLevel: 'error',
+    });
     cli = join(dir, 'dist', 'cli.js');
     ws = join(dir, 'ws');
     mkdirSync(ws);
@@ -144,7 +167,10 @@ describe('the built command line on hostile cases', () => {
       args: () => ['ask', ws, 'boundary layer flow', '--cache-dir', p('caches', 'isdir')],
       code: 0,
       out: /^rank/,
-      err: () => [/is a folder, not an index file/, /the index could not be saved \(cannot save \S+index\.undertone: a folder of that name is in the way \(EISDIR\)\)/],
+      err: () => [
+        /is a folder, not an index file/,
+        /the index could not be saved \(cannot save \S+index\.undertone: a folder of that name is in the way \(EISDIR\)\)/,
+      ],
     },
     {
       name: 'index path is a directory: index fails with exit 1',
@@ -171,7 +197,9 @@ describe('the built command line on hostile cases', () => {
       asOther: true,
       code: 0,
       out: /^rank/,
-      err: () => [/the index could not be saved \(cannot save \S+index\.undertone: permission denied \(EACCES\)\); answering from the index built in memory/],
+      err: () => [
+        /the index could not be saved \(cannot save \S+index\.undertone: permission denied \(EACCES\)\); answering from the index built in memory/,
+      ],
     },
     {
       name: 'cache base unwritable (under /proc)',
@@ -179,7 +207,9 @@ describe('the built command line on hostile cases', () => {
       args: () => ['ask', ws, 'boundary layer flow', '--cache-dir', '/proc/undertone-cache'],
       code: 0,
       out: /^rank/,
-      err: () => [/the index could not be saved \(cannot save \/proc\/undertone-cache\/\S+: \/proc\/undertone-cache: it cannot be created there \(ENOENT\)\)/],
+      err: () => [
+        /the index could not be saved \(cannot save \/proc\/undertone-cache\/\S+: \/proc\/undertone-cache: it cannot be created there \(ENOENT\)\)/,
+      ],
     },
     {
       name: '--cache-dir names a file',
@@ -290,11 +320,23 @@ describe('the built command line on hostile cases', () => {
       },
       args: () => ['ask', p('ws-link'), 'zebracrossing quartermaster', '--cache-dir', freshCache('link')],
       code: 1,
-      err: () => [/note: 2 links to files outside the folder, not read \(--follow-links reads them\): etc, secret\.md/, /None of the words in "zebracrossing quartermaster" occur in the index/],
+      err: () => [
+        /note: 2 links to files outside the folder, not read \(--follow-links reads them\): etc, secret\.md/,
+        /None of the words in "zebracrossing quartermaster" occur in the index/,
+      ],
     },
     {
       name: 'the same link is read with --follow-links',
-      args: () => ['ask', p('ws-link'), 'zebracrossing quartermaster', '--follow-links', '--exclude', 'etc', '--cache-dir', freshCache('link-follow')],
+      args: () => [
+        'ask',
+        p('ws-link'),
+        'zebracrossing quartermaster',
+        '--follow-links',
+        '--exclude',
+        'etc',
+        '--cache-dir',
+        freshCache('link-follow'),
+      ],
       code: 0,
       out: /secret\.md/,
       err: () => [],
@@ -387,12 +429,22 @@ describe('the built command line on hostile cases', () => {
 
   it('a closed pipe ends the output quietly', () => {
     const queries = cran.queries.map((q) => JSON.stringify({ id: q.id, text: q.text })).join('\n');
-    writeFileSync(p('many.jsonl'), `${queries}\n${queries}\n`.replace(/"id":"(\d+)"/g, (_m, id) => `"id":"${id}-${Math.random()}"`));
-    const r = spawnSync('bash', ['-c', `"${process.execPath}" "${cli}" ask "${ws}" --queries "${p('many.jsonl')}" --top 3000 --quiet | head -1 >/dev/null; echo "status \${PIPESTATUS[0]}"`], {
-      encoding: 'utf8',
-      env: { ...process.env, UNDERTONE_CACHE_DIR: cache },
-      timeout: 60_000,
-    });
+    writeFileSync(
+      p('many.jsonl'),
+      `${queries}\n${queries}\n`.replace(/"id":"(\d+)"/g, (_m, id) => `"id":"${id}-${Math.random()}"`),
+    );
+    const r = spawnSync(
+      'bash',
+      [
+        '-c',
+        `"${process.execPath}" "${cli}" ask "${ws}" --queries "${p('many.jsonl')}" --top 3000 --quiet | head -1 >/dev/null; echo "status \${PIPESTATUS[0]}"`,
+      ],
+      {
+        encoding: 'utf8',
+        env: { ...process.env, UNDERTONE_CACHE_DIR: cache },
+        timeout: 60_000,
+      },
+    );
     expect(r.stdout.trim()).toBe('status 0');
     expect(r.stderr).toBe('');
   });
@@ -407,13 +459,22 @@ describe('the built command line on hostile cases', () => {
 
   it('eval reads the four-column relevance form and a queries file with a byte-order mark, and warns about what it cannot use', () => {
     const qs = cran.queries.slice(0, 5);
-    writeFileSync(p('bom.jsonl'), `\uFEFF${qs.map((q) => JSON.stringify({ id: q.id, text: q.text })).join('\n')}\n${JSON.stringify({ id: qs[0].id, text: 'again' })}\n`);
-    const judged = qs.slice(0, 4).flatMap((q) => [...(cran.qrels.get(q.id) ?? [])].filter((d) => Number(d) <= 60).map((d) => `${q.id} 0 ${d} 1`));
+    writeFileSync(
+      p('bom.jsonl'),
+      `\uFEFF${qs.map((q) => JSON.stringify({ id: q.id, text: q.text })).join('\n')}\n${JSON.stringify({ id: qs[0].id, text: 'again' })}\n`,
+    );
+    const judged = qs
+      .slice(0, 4)
+      .flatMap((q) => [...(cran.qrels.get(q.id) ?? [])].filter((d) => Number(d) <= 60).map((d) => `${q.id} 0 ${d} 1`));
     writeFileSync(p('trec.qrels'), `${judged.join('\n')}\n${qs[0].id} 0 9999 1\nthis line is wrong\n`);
     const r = run(['eval', ws, '--queries', p('bom.jsonl'), '--qrels', p('trec.qrels')]);
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^queries [1-9]\d* {2}MAP 0\.\d{4}/);
-    expect(r.err).toMatch(new RegExp(`warning: ${esc(p('trec.qrels'))}:\\d+: 3 columns; expected|warning: ${esc(p('trec.qrels'))}:\\d+: 4 columns|relevance "wrong" is not a number`));
+    expect(r.err).toMatch(
+      new RegExp(
+        `warning: ${esc(p('trec.qrels'))}:\\d+: 3 columns; expected|warning: ${esc(p('trec.qrels'))}:\\d+: 4 columns|relevance "wrong" is not a number`,
+      ),
+    );
     expect(r.err).toMatch(/warning: \S+bom\.jsonl:6: query id "?\d+"? appears again; the first one is used/);
     expect(r.err).toMatch(/judged documents? (is|are) not in the index \(query\/document\): \d+\/9999/);
     expect(r.err).toMatch(/no relevant document in \S+trec\.qrels and (is|are) not scored/);

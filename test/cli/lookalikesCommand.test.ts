@@ -10,7 +10,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/cliRunner.js';
 import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
-
 let dir: string;
 const run = (...args: string[]) => runCli(args, ['--cache-dir', join(dir, 'cache'), '--quiet']);
 beforeAll(() => {
@@ -82,7 +81,10 @@ describe('lookalikes on a folder of real abstracts', () => {
     writeFileSync(join(root, 'short.md'), 'boundary layer flow');
     // Half of the abstract kept, the rest from another one: a partial copy.
     const half = original.split(' ');
-    writeFileSync(join(root, 'abstract-0-half.md'), [...half.slice(0, Math.floor(half.length / 2)), ...docs[1].text.split(' ').slice(0, 60)].join(' '));
+    writeFileSync(
+      join(root, 'abstract-0-half.md'),
+      [...half.slice(0, Math.floor(half.length / 2)), ...docs[1].text.split(' ').slice(0, 60)].join(' '),
+    );
     symlinkSync(join(root, 'abstract-2.md'), join(root, 'abstract-2-link.md'));
   });
 
@@ -90,7 +92,12 @@ describe('lookalikes on a folder of real abstracts', () => {
     const r = await run('lookalikes', root, '--json');
     expect(r.code).toBe(0);
     const report = JSON.parse(r.out) as Report;
-    expect(report.labels).toEqual({ exact: 'Exact copies', near: 'Near-copies', partial: 'Partial copies', retold: 'Same content, other words' });
+    expect(report.labels).toEqual({
+      exact: 'Exact copies',
+      near: 'Near-copies',
+      partial: 'Partial copies',
+      retold: 'Same content, other words',
+    });
     expect(report.exact.map((g) => [...g.files].sort())).toEqual([['abstract-0-copy.md', 'abstract-0.md']]);
     const near = report.near.find((p) => p.a === 'abstract-0-edited.md' || p.b === 'abstract-0-edited.md')!;
     expect(near).toBeDefined();

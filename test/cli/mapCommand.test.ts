@@ -18,7 +18,6 @@ import { tokenize } from '../../src/core/text/tokenize.js';
 import { runCli } from '../helpers/cliRunner.js';
 import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
-
 let dir: string;
 const run = (...args: string[]) => runCli(args, ['--cache-dir', join(dir, 'cache'), '--quiet']);
 
@@ -65,7 +64,9 @@ describe('map command arguments', () => {
 
   it('rejects an unknown layout and a zero vocabulary cap', async () => {
     const out = join(dir, 'never.html');
-    expect((await run('map', demoRoot, '--out', out, '--layout', 'spiral')).err).toMatch(/--layout must be one of both, quick, faithful, got "spiral"/);
+    expect((await run('map', demoRoot, '--out', out, '--layout', 'spiral')).err).toMatch(
+      /--layout must be one of both, quick, faithful, got "spiral"/,
+    );
     expect((await run('map', demoRoot, '--out', out, '--max-terms', '0')).err).toMatch(/--max-terms needs a positive whole number/);
     expect(existsSync(out)).toBe(false);
   });
@@ -86,7 +87,10 @@ describe('map command arguments', () => {
 });
 
 describe('map of the demo', () => {
-  const key = JSON.parse(readFileSync(demoKey, 'utf8')) as { topics: { files: string[] }[]; queries: { text: string; expectTop3: string[] }[] };
+  const key = JSON.parse(readFileSync(demoKey, 'utf8')) as {
+    topics: { files: string[] }[];
+    queries: { text: string; expectTop3: string[] }[];
+  };
   let html = '';
   let data: MapPageData;
   let summary = '';
@@ -111,7 +115,8 @@ describe('map of the demo', () => {
     expect(data.files.paths).toHaveLength(indexed.files);
     expect(data.layouts.quick.x).toHaveLength(indexed.files);
     expect(data.layouts.faithful?.x).toHaveLength(indexed.files);
-    for (const v of [...data.layouts.quick.x, ...data.layouts.quick.y, ...data.layouts.faithful!.x, ...data.layouts.faithful!.y]) expect(Number.isFinite(v)).toBe(true);
+    for (const v of [...data.layouts.quick.x, ...data.layouts.quick.y, ...data.layouts.faithful!.x, ...data.layouts.faithful!.y])
+      expect(Number.isFinite(v)).toBe(true);
     for (const t of key.topics) for (const f of t.files) expect(data.files.paths).toContain(f);
   });
 
@@ -188,10 +193,18 @@ describe('the bundled command line', () => {
     });
     const out = join(dir, 'installed-map.html');
     const env = { ...process.env, UNDERTONE_MAP_PAGE_DIR: '' };
-    const stdout = execFileSync(process.execPath, [join(pkg, 'dist', 'cli.js'), 'map', demoRoot, '--out', out, '--cache-dir', join(dir, 'cache'), '--quiet'], { env, encoding: 'utf8' });
+    const stdout = execFileSync(
+      process.execPath,
+      [join(pkg, 'dist', 'cli.js'), 'map', demoRoot, '--out', out, '--cache-dir', join(dir, 'cache'), '--quiet'],
+      { env, encoding: 'utf8' },
+    );
     expect(stdout).toMatch(/^wrote .*installed-map\.html: [\d.]+ KiB, \d+ files, /);
     const html = readFileSync(out, 'utf8');
-    expect(html).toContain(readFileSync(join(pkg, 'media', 'map', 'map.css'), 'utf8').trim().slice(0, 200));
+    expect(html).toContain(
+      readFileSync(join(pkg, 'media', 'map', 'map.css'), 'utf8')
+        .trim()
+        .slice(0, 200),
+    );
     expect(pageDataProblems(readMapData(html))).toEqual([]);
   });
 });

@@ -12,7 +12,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/cliRunner.js';
 import { fixturePath, loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
-
 let dir: string;
 const run = (...args: string[]) => runCli(args, ['--cache-dir', join(dir, 'cache'), '--quiet']);
 beforeAll(() => {
@@ -38,11 +37,21 @@ describe('topics and --explain on the demo', () => {
   it('--json lists every file once and names planted topics with planted keywords', async () => {
     const r = await run('topics', demoRoot, '--json', '--topics', '6');
     expect(r.code).toBe(0);
-    const report = JSON.parse(r.out) as { topics: { members: string[]; terms: { word: string; term: string }[] }[]; loose: { path: string }[]; unplaced: string[]; count: { chosen: string } };
+    const report = JSON.parse(r.out) as {
+      topics: { members: string[]; terms: { word: string; term: string }[] }[];
+      loose: { path: string }[];
+      unplaced: string[];
+      count: { chosen: string };
+    };
     expect(report.topics).toHaveLength(6);
     expect(report.count.chosen).toBe('given');
     const key = JSON.parse(readFileSync(demoKey, 'utf8')) as { fileCount: { min: number; max: number }; topics: { keywords: string[] }[] };
-    const members = report.topics.flatMap((t) => t.members).concat(report.unplaced, report.loose.map((l) => l.path));
+    const members = report.topics
+      .flatMap((t) => t.members)
+      .concat(
+        report.unplaced,
+        report.loose.map((l) => l.path),
+      );
     expect(new Set(members).size).toBe(members.length);
     expect(members.length).toBeGreaterThanOrEqual(key.fileCount.min);
     const words = new Set(report.topics.flatMap((t) => t.terms.map((x) => x.word)));
@@ -74,7 +83,12 @@ describe('topics and --explain on the demo', () => {
 
   it('ask --explain --json gives term shares, concept and word-match parts, summing to the score', async () => {
     const r = await run('ask', demoRoot, 'engine overheating alarm', '--explain', '--json', '--top', '3');
-    const out = JSON.parse(r.out) as { results: { score: number; explain: { score: number; terms: { share: number; word: string }[]; rest: { share: number }; feedback: number } }[] };
+    const out = JSON.parse(r.out) as {
+      results: {
+        score: number;
+        explain: { score: number; terms: { share: number; word: string }[]; rest: { share: number }; feedback: number };
+      }[];
+    };
     expect(out.results).toHaveLength(3);
     for (const res of out.results) {
       expect(res.explain.score).toBeCloseTo(res.score, 3);
@@ -88,7 +102,9 @@ describe('topics and --explain on the demo', () => {
     const plain = await run('nearby', demoRoot, file, '--top', '3', '--json');
     const explained = await run('nearby', demoRoot, file, '--top', '3', '--json', '--explain');
     const a = JSON.parse(plain.out) as { results: { path: string; score: number }[] };
-    const b = JSON.parse(explained.out) as { results: { path: string; score: number; explain: { score: number; terms: { word: string; term: string }[] } }[] };
+    const b = JSON.parse(explained.out) as {
+      results: { path: string; score: number; explain: { score: number; terms: { word: string; term: string }[] } }[];
+    };
     expect(b.results.map((x) => x.path)).toEqual(a.results.map((x) => x.path));
     b.results.forEach((res, i) => expect(res.explain.score).toBeCloseTo(a.results[i].score, 3));
     expect(b.results[0].explain.terms.some((t) => t.word === 'temperature' && t.term !== 'temperature')).toBe(true);
@@ -102,7 +118,9 @@ let cmakeRoot = '';
 describe('topic tree of a real documentation folder', () => {
   beforeAll(() => {
     cmakeRoot = join(dir, 'cmake');
-    for (const line of gunzipSync(readFileSync(fixturePath('topic-trees/cmake.jsonl.gz'))).toString('utf8').split('\n')) {
+    for (const line of gunzipSync(readFileSync(fixturePath('topic-trees/cmake.jsonl.gz')))
+      .toString('utf8')
+      .split('\n')) {
       if (!line.trim()) continue;
       const d = JSON.parse(line) as { path: string; text: string };
       mkdirSync(join(cmakeRoot, d.path, '..'), { recursive: true });
@@ -114,7 +132,10 @@ describe('topic tree of a real documentation folder', () => {
     const two = await run('topics', cmakeRoot, '--depth', '2');
     expect(two.code).toBe(0);
     expect(two.out).toMatch(/^ {2}1\.1 {2}\S/m);
-    const json = JSON.parse((await run('topics', cmakeRoot, '--json')).out) as { levels: number; topics: { path: string; size: number; members: string[]; children: { path: string; members: string[] }[] }[] };
+    const json = JSON.parse((await run('topics', cmakeRoot, '--json')).out) as {
+      levels: number;
+      topics: { path: string; size: number; members: string[]; children: { path: string; members: string[] }[] }[];
+    };
     expect(json.levels).toBeGreaterThan(1);
     const opened = json.topics.filter((t) => t.children.length > 0);
     expect(opened.length).toBeGreaterThan(0);
@@ -134,7 +155,6 @@ describe('topic tree of a real documentation folder', () => {
     expect(none.code).not.toBe(0);
     expect(none.err).toMatch(/no indexed file lies in "no-such-folder"/);
   });
-
 });
 
 const cran = loadCollection('cran');

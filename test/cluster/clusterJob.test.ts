@@ -59,7 +59,9 @@ function entries(path: string): { rows: number; cols: number; map: Map<number, n
 }
 
 function agreement(a: Map<string, string[]>, b: Map<string, string[]>): { positional: number; overlap: number } {
-  let same = 0, common = 0, total = 0;
+  let same = 0,
+    common = 0,
+    total = 0;
   for (const [id, x] of a) {
     const y = b.get(id) ?? [];
     for (let i = 0; i < x.length; i++) if (x[i] === y[i]) same++;
@@ -74,12 +76,17 @@ describe('cluster job on a local Dask cluster', () => {
   const queries = collections[2].queries.slice(0, 40);
   const probes: string[] = [];
   const ask = async (cacheDir: string, extra: string[] = []): Promise<Map<string, string[]>> => {
-    const r = await runCli(['ask', ws, '--queries', join(dir, 'q.jsonl'), '--json', '--top', '10', '--quiet', '--cache-dir', cacheDir, ...extra], []);
+    const r = await runCli(
+      ['ask', ws, '--queries', join(dir, 'q.jsonl'), '--json', '--top', '10', '--quiet', '--cache-dir', cacheDir, ...extra],
+      [],
+    );
     expect(r.code, r.err).toBe(0);
-    return new Map(r.out.split('\n').map((line) => {
-      const o = JSON.parse(line) as { id: string; results: { path: string }[] };
-      return [o.id, o.results.map((h) => h.path)];
-    }));
+    return new Map(
+      r.out.split('\n').map((line) => {
+        const o = JSON.parse(line) as { id: string; results: { path: string }[] };
+        return [o.id, o.results.map((h) => h.path)];
+      }),
+    );
   };
   // Nearby from the saved index the commands above brought up to date (one load, not one per file).
   const nearby = async (cacheDir: string): Promise<Map<string, string[]>> => {
@@ -100,13 +107,38 @@ describe('cluster job on a local Dask cluster', () => {
     for (let i = 0; i < 20; i++) probes.push(`cisi/${collections[2].docs[i * 70].id}.txt`);
     writeFileSync(join(dir, 'q.jsonl'), queries.map((q) => JSON.stringify({ id: q.id, text: q.text })).join('\n'));
     // The command line the workers run, bundled as scripts/build.mjs bundles it.
-    await build({ entryPoints: [join(REPO_ROOT, 'src/cli/bin.ts')], outfile: join(dir, 'cli.js'), bundle: true, platform: 'node', target: 'node20', format: 'cjs', logLevel: 'warning' });
+    await build({
+      entryPoints: [join(REPO_ROOT, 'src/cli/bin.ts')],
+      outfile: join(dir, 'cli.js'),
+      bundle: true,
+      platform: 'node',
+      target: 'node20',
+      format: 'cjs',
+      logLevel: 'warning',
+    });
     const local = await runCli(['export', ws, '--format', 'mtx', '--out', join(dir, 'export'), '--cache-dir', cache], []);
     expect(local.code, local.err).toBe(0);
     const job = spawn(
       PYTHON,
-      ['-m', 'undertone_cluster', ws, '--out', join(dir, 'org.model'), '--undertone', `${process.execPath} ${join(dir, 'cli.js')}`, '--local-workers', '2',
-        '--shard-files', '900', '--dump-matrix', join(dir, 'dump'), '--report', join(dir, 'report.json'), '--drill-kill-worker-after', '2'],
+      [
+        '-m',
+        'undertone_cluster',
+        ws,
+        '--out',
+        join(dir, 'org.model'),
+        '--undertone',
+        `${process.execPath} ${join(dir, 'cli.js')}`,
+        '--local-workers',
+        '2',
+        '--shard-files',
+        '900',
+        '--dump-matrix',
+        join(dir, 'dump'),
+        '--report',
+        join(dir, 'report.json'),
+        '--drill-kill-worker-after',
+        '2',
+      ],
       { cwd: join(REPO_ROOT, 'cluster'), stdio: ['ignore', 'ignore', 'pipe'] },
     );
     let stderr = '';
@@ -139,7 +171,10 @@ describe('cluster job on a local Dask cluster', () => {
   });
 
   it('finds all k singular values within 1% of the index’s', () => {
-    const local = readFileSync(join(dir, 'export', 'singular-values.txt'), 'utf8').trim().split('\n').map(Number);
+    const local = readFileSync(join(dir, 'export', 'singular-values.txt'), 'utf8')
+      .trim()
+      .split('\n')
+      .map(Number);
     expect(report.singularValues.length).toBe(local.length);
     const worst = Math.max(...local.map((s, i) => Math.abs(report.singularValues[i] - s) / s));
     expect(worst).toBeLessThan(0.01);

@@ -12,7 +12,6 @@ import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../src/core/random.js';
 import { referencePython, REPO_ROOT } from '../helpers/shared.js';
 
-
 describe('fdlibm logarithms in Python', () => {
   it('agree bit for bit with node on 900 000 inputs', () => {
     const rnd = createRandom(314);

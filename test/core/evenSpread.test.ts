@@ -11,7 +11,11 @@ describe('evenSpread', () => {
   });
 
   it('gives budget distinct ascending indices below n', () => {
-    for (const [n, budget] of [[1000, 7], [2001, 2000], [5, 4]]) {
+    for (const [n, budget] of [
+      [1000, 7],
+      [2001, 2000],
+      [5, 4],
+    ]) {
       const got = evenSpread(n, budget);
       expect(got).toHaveLength(budget);
       expect(new Set(got).size).toBe(budget);

@@ -33,16 +33,24 @@ describe('Undertone in a real editor', () => {
   const t0 = Date.now();
 
   /** Status bar text of the Undertone item. */
-  const status = (): Locator => editor!.page.locator('.statusbar-item').filter({ hasText: /Undertone/ }).first();
+  const status = (): Locator =>
+    editor!.page
+      .locator('.statusbar-item')
+      .filter({ hasText: /Undertone/ })
+      .first();
 
   /** Reads a view's rows until `accept` holds (views update asynchronously). */
   const waitForRows = async (view: string, accept: (rows: ListRow[]) => boolean, what: string): Promise<ListRow[]> => {
     let last: ListRow[] = [];
     try {
-      return await waitFor(async () => {
-        last = await editor!.readTreeView(view, { minRows: 0 });
-        return accept(last) ? last : false;
-      }, 30_000, what);
+      return await waitFor(
+        async () => {
+          last = await editor!.readTreeView(view, { minRows: 0 });
+          return accept(last) ? last : false;
+        },
+        30_000,
+        what,
+      );
     } catch (err) {
       throw new Error(`${(err as Error).message}; last rows of ${view}: ${JSON.stringify(labels(last))}`);
     }
@@ -65,7 +73,10 @@ describe('Undertone in a real editor', () => {
 
   /** Waits for the quick input to show a title. */
   const inputTitled = (title: RegExp) =>
-    editor!.page.locator('.quick-input-widget .quick-input-title').filter({ hasText: title }).waitFor({ state: 'visible', timeout: 30_000 });
+    editor!.page
+      .locator('.quick-input-widget .quick-input-title')
+      .filter({ hasText: title })
+      .waitFor({ state: 'visible', timeout: 30_000 });
 
   /** With search results open: is `file` listed? Types its name into the quick pick's filter, as a person scanning the list would. */
   const listed = async (file: string): Promise<boolean> => {
@@ -86,21 +97,35 @@ describe('Undertone in a real editor', () => {
   const openFile = async (relPath: string): Promise<void> => {
     const dir = path.posix.dirname(relPath);
     const tab = editor!.page.locator(`.tabs-container .tab.active[data-resource-name="${base(relPath)}"]`);
-    const focused = editor!.quickInput.row(base(relPath), dir === '.' ? undefined : dir).and(editor!.page.locator('.monaco-list-row.focused'));
+    const focused = editor!.quickInput
+      .row(base(relPath), dir === '.' ? undefined : dir)
+      .and(editor!.page.locator('.monaco-list-row.focused'));
     try {
-      await waitFor(async () => {
-        if (await tab.isVisible()) return true;
-        if (!(await editor!.quickInput.widget.isVisible())) {
-          await editor!.page.keyboard.press('Control+P');
-          await editor!.quickInput.type(relPath);
-        }
-        if (!(await focused.waitFor({ state: 'visible', timeout: 10_000 }).then(() => true, () => false))) {
-          await editor!.page.keyboard.press('Escape');
-          return false;
-        }
-        await editor!.page.keyboard.press('Enter');
-        return tab.waitFor({ state: 'visible', timeout: 5_000 }).then(() => true, () => false);
-      }, 60_000, `${relPath} to open`);
+      await waitFor(
+        async () => {
+          if (await tab.isVisible()) return true;
+          if (!(await editor!.quickInput.widget.isVisible())) {
+            await editor!.page.keyboard.press('Control+P');
+            await editor!.quickInput.type(relPath);
+          }
+          if (
+            !(await focused.waitFor({ state: 'visible', timeout: 10_000 }).then(
+              () => true,
+              () => false,
+            ))
+          ) {
+            await editor!.page.keyboard.press('Escape');
+            return false;
+          }
+          await editor!.page.keyboard.press('Enter');
+          return tab.waitFor({ state: 'visible', timeout: 5_000 }).then(
+            () => true,
+            () => false,
+          );
+        },
+        60_000,
+        `${relPath} to open`,
+      );
     } catch (error) {
       throw new Error(`${(error as Error).message}\n${await editor!.describe()}`);
     }
@@ -117,8 +142,10 @@ describe('Undertone in a real editor', () => {
   });
 
   afterEach(async (ctx) => {
-    if (ctx.task.result?.state === 'fail') console.log(`after "${ctx.task.name}":\n${await editor?.describe().catch((e: Error) => e.message)}`);
-    if (ctx.task.result?.state === 'fail') await editor?.screenshot(`extension-failed-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`).catch(() => undefined);
+    if (ctx.task.result?.state === 'fail')
+      console.log(`after "${ctx.task.name}":\n${await editor?.describe().catch((e: Error) => e.message)}`);
+    if (ctx.task.result?.state === 'fail')
+      await editor?.screenshot(`extension-failed-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`).catch(() => undefined);
   });
 
   afterAll(async () => {
@@ -128,14 +155,18 @@ describe('Undertone in a real editor', () => {
       const logs = path.join(OUTPUT_DIR, `${name}.editor-logs`);
       return existsSync(logs) ? findFiles(logs, 'Undertone.log') : [];
     });
-    const lines = new Set(found.flatMap((f) => readFileSync(f, 'utf8').split('\n')).filter((l) => /Loaded|Built|Since|Saved .*Nearby/.test(l)));
+    const lines = new Set(
+      found.flatMap((f) => readFileSync(f, 'utf8').split('\n')).filter((l) => /Loaded|Built|Since|Saved .*Nearby/.test(l)),
+    );
     for (const line of [...lines].sort()) console.log(line.trim());
     console.log(`e2e: ${((Date.now() - t0) / 1000).toFixed(1)} s in all`);
     if (root) rmSync(root, { recursive: true, force: true });
   });
 
   it('builds the index after start-up and reports it in the status bar', async () => {
-    await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
+    await status()
+      .filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ })
+      .waitFor({ state: 'visible', timeout: 120_000 });
     const text = (await status().textContent()) ?? '';
     const files = Number(/([\d,]+) files/.exec(text)![1].replace(/,/g, ''));
     expect(files).toBeGreaterThan(50);
@@ -172,7 +203,11 @@ describe('Undertone in a real editor', () => {
     const n = expectations.neighbours[0];
     await openFile(n.file);
     await showUndertone();
-    const rows = await waitForRows('Nearby', (r) => n.expectAmongTop5.every((f) => labels(r).slice(0, 5).includes(base(f))), `neighbours of ${n.file}`);
+    const rows = await waitForRows(
+      'Nearby',
+      (r) => n.expectAmongTop5.every((f) => labels(r).slice(0, 5).includes(base(f))),
+      `neighbours of ${n.file}`,
+    );
     expect(rows.length).toBeGreaterThanOrEqual(5);
     expect(rows[0].description).toMatch(/^\d\.\d\d/);
     await editor!.screenshot('extension-4-nearby');
@@ -192,7 +227,11 @@ describe('Undertone in a real editor', () => {
     await editor!.page.locator('.tabs-container .tab.active.dirty').waitFor({ state: 'detached', timeout: 30_000 });
     // The Search Results view re-runs the last query when the index changes.
     await showUndertone();
-    await waitForRows('Search Results', (r) => s.expectTop3After.every((f) => labels(r).slice(0, 3).includes(base(f))), 'the edited file in the search results');
+    await waitForRows(
+      'Search Results',
+      (r) => s.expectTop3After.every((f) => labels(r).slice(0, 3).includes(base(f))),
+      'the edited file in the search results',
+    );
     await editor!.screenshot('extension-5-after-edit');
     rows = await search(s.query);
     for (const f of s.expectTop3After) expect(labels(rows).slice(0, 3)).toContain(base(f));
@@ -226,8 +265,13 @@ describe('Undertone in a real editor', () => {
     // The rebuild is quick here; its line in the extension's log (Output panel) shows it ran and reused every file
     // (\s, not ' ': the editor renders spaces as no-break spaces).
     await editor!.runCommand('Undertone: Show Log');
-    await editor!.waitForText(/Built\sthe\sindex:\s[\d,]+\sfiles\s\(0\sread,\s[\d,]+\sreused/, { within: editor!.page.locator('.part.panel'), timeoutMs: 120_000 });
-    await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
+    await editor!.waitForText(/Built\sthe\sindex:\s[\d,]+\sfiles\s\(0\sread,\s[\d,]+\sreused/, {
+      within: editor!.page.locator('.part.panel'),
+      timeoutMs: 120_000,
+    });
+    await status()
+      .filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ })
+      .waitFor({ state: 'visible', timeout: 120_000 });
     await editor!.screenshot('extension-6c-log');
   });
 
@@ -244,19 +288,30 @@ describe('Undertone in a real editor', () => {
     // Delete it from the Explorer, as a person would.
     await openFile(victim);
     await editor!.runCommand('File: Reveal Active File in Explorer View');
-    const row = editor!.page.locator('.explorer-folders-view .monaco-list-row.selected').filter({ hasText: base(victim) }).first();
+    const row = editor!.page
+      .locator('.explorer-folders-view .monaco-list-row.selected')
+      .filter({ hasText: base(victim) })
+      .first();
     await row.waitFor({ state: 'visible', timeout: 30_000 });
     await row.click();
     await editor!.page.keyboard.press('Delete');
     const dialog = editor!.page.locator('.monaco-dialog-box');
     await dialog.waitFor({ state: 'visible', timeout: 30_000 });
     await editor!.screenshot('extension-6-delete-dialog');
-    await dialog.locator('.monaco-button').filter({ hasText: /Delete|Move to Trash/ }).first().click();
+    await dialog
+      .locator('.monaco-button')
+      .filter({ hasText: /Delete|Move to Trash/ })
+      .first()
+      .click();
     await waitFor(() => !existsSync(path.join(workspace, victim)), 30_000, `${victim} to be deleted`);
     await openFile(n.file);
     await showUndertone();
     await waitForRows('Nearby', (r) => r.length > 0 && !labels(r).includes(base(victim)), `${victim} to leave the Nearby view`);
-    await waitForRows('Search Results', (r) => r.length > 0 && !labels(r).includes(base(victim)), `${victim} to leave the Search Results view`);
+    await waitForRows(
+      'Search Results',
+      (r) => r.length > 0 && !labels(r).includes(base(victim)),
+      `${victim} to leave the Search Results view`,
+    );
     await editor!.screenshot('extension-7-after-delete');
     await search(query);
     expect(await listed(victim)).toBe(false);
@@ -267,7 +322,10 @@ describe('Undertone in a real editor', () => {
     const port = editor!.port;
     await editor!.stop();
     const changed = expectations.neighbours[1].file;
-    appendFileSync(path.join(workspace, changed), '\nA note added while the editor was closed: claims are answered within five working days.\n');
+    appendFileSync(
+      path.join(workspace, changed),
+      '\nA note added while the editor was closed: claims are answered within five working days.\n',
+    );
     editor = await startEditor({
       workspaceFolder: workspace,
       ...editorDirs(root),
@@ -275,7 +333,9 @@ describe('Undertone in a real editor', () => {
       name: 'extension-reopen',
       port, // the same address, so the editor finds this folder's workspace storage again
     });
-    await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
+    await status()
+      .filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ })
+      .waitFor({ state: 'visible', timeout: 120_000 });
     await editor!.runCommand('Undertone: Show Log');
     const panel = editor!.page.locator('.part.panel');
     await editor!.waitForText(/Loaded\sthe\ssaved\sindex/, { within: panel });
@@ -308,8 +368,16 @@ describe('Undertone in an untrusted folder (Restricted Mode)', () => {
   });
 
   it('still indexes: the manifest declares that reading files for a local index is safe there', async () => {
-    await editor!.page.locator('.statusbar-item').filter({ hasText: /Restricted Mode/ }).first().waitFor({ state: 'visible', timeout: 60_000 });
-    await editor!.page.locator('.statusbar-item').filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).first().waitFor({ state: 'visible', timeout: 120_000 });
+    await editor!.page
+      .locator('.statusbar-item')
+      .filter({ hasText: /Restricted Mode/ })
+      .first()
+      .waitFor({ state: 'visible', timeout: 60_000 });
+    await editor!.page
+      .locator('.statusbar-item')
+      .filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ })
+      .first()
+      .waitFor({ state: 'visible', timeout: 120_000 });
     await editor!.screenshot('extension-8-restricted-mode');
   });
 });

@@ -47,16 +47,24 @@ describe('Undertone insights in a real editor', () => {
   let files = 0;
   const t0 = Date.now();
 
-  const status = (): Locator => editor!.page.locator('.statusbar-item').filter({ hasText: /Undertone/ }).first();
+  const status = (): Locator =>
+    editor!.page
+      .locator('.statusbar-item')
+      .filter({ hasText: /Undertone/ })
+      .first();
 
   /** Reads a view's rows until `accept` holds (views update asynchronously). */
   const waitForRows = async (view: string, accept: (rows: ListRow[]) => boolean, what: string, timeoutMs = 60_000): Promise<ListRow[]> => {
     let last: ListRow[] = [];
     try {
-      return await waitFor(async () => {
-        last = await snapshot(view);
-        return accept(last) ? last : false;
-      }, timeoutMs, what);
+      return await waitFor(
+        async () => {
+          last = await snapshot(view);
+          return accept(last) ? last : false;
+        },
+        timeoutMs,
+        what,
+      );
     } catch (err) {
       throw new Error(`${(err as Error).message}; last rows of ${view}: ${JSON.stringify(last)}`);
     }
@@ -87,7 +95,11 @@ describe('Undertone insights in a real editor', () => {
 
   /** The row of a view whose label is exactly `label`. */
   const row = (view: string, label: string): Locator =>
-    editor!.pane(view).locator('.pane-body .monaco-list-row').filter({ has: editor!.page.locator('.label-name').getByText(label, { exact: true }) }).first();
+    editor!
+      .pane(view)
+      .locator('.pane-body .monaco-list-row')
+      .filter({ has: editor!.page.locator('.label-name').getByText(label, { exact: true }) })
+      .first();
 
   /** Clicks an inline action (by its title) of a tree row; the actions show on hover. */
   const inlineAction = async (rowLocator: Locator, title: string): Promise<void> => {
@@ -106,27 +118,37 @@ describe('Undertone insights in a real editor', () => {
 
   /** Waits until an element and everything around it is fully opaque (hovers fade in). */
   const opaque = (target: Locator) =>
-    waitFor(async () => (await target.evaluate((e) => {
-      type Styled = { parentElement: Styled | null };
-      const style = globalThis as unknown as { getComputedStyle(x: Styled): { opacity: string } };
-      let alpha = 1;
-      for (let n: Styled | null = e as unknown as Styled; n; n = n.parentElement) alpha *= Number(style.getComputedStyle(n).opacity);
-      return alpha;
-    })) === 1, 10_000, 'the hover to fade in');
+    waitFor(
+      async () =>
+        (await target.evaluate((e) => {
+          type Styled = { parentElement: Styled | null };
+          const style = globalThis as unknown as { getComputedStyle(x: Styled): { opacity: string } };
+          let alpha = 1;
+          for (let n: Styled | null = e as unknown as Styled; n; n = n.parentElement) alpha *= Number(style.getComputedStyle(n).opacity);
+          return alpha;
+        })) === 1,
+      10_000,
+      'the hover to fade in',
+    );
 
   /** The active editor tab whose title starts with `title`. */
   const activeTab = (title: string | RegExp): Locator =>
-    editor!.page.locator('.tabs-container .tab.active').filter({ hasText: typeof title === 'string' ? new RegExp(`^\\s*${escape(title)}`) : title });
+    editor!.page
+      .locator('.tabs-container .tab.active')
+      .filter({ hasText: typeof title === 'string' ? new RegExp(`^\\s*${escape(title)}`) : title });
 
   beforeAll(async () => {
     expectations = JSON.parse(readFileSync(EXPECT, 'utf8')) as Expectations;
     ({ root, workspace, editor } = await startOnDemoCopy('insights', { 'files.autoSave': 'off', 'workbench.hover.delay': 300 }));
-    await status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 120_000 });
+    await status()
+      .filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ })
+      .waitFor({ state: 'visible', timeout: 120_000 });
     files = Number(/([\d,]+) files/.exec((await status().textContent()) ?? '')![1].replace(/,/g, ''));
   });
 
   afterEach(async (ctx) => {
-    if (ctx.task.result?.state === 'fail') await editor?.screenshot(`insights-failed-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`).catch(() => undefined);
+    if (ctx.task.result?.state === 'fail')
+      await editor?.screenshot(`insights-failed-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`).catch(() => undefined);
   });
 
   afterAll(async () => {
@@ -144,7 +166,11 @@ describe('Undertone insights in a real editor', () => {
       const [x, y] = r.label.split(' ↔ ');
       return y !== undefined && ((a.endsWith(x) && b.endsWith(y)) || (a.endsWith(y) && b.endsWith(x)));
     };
-    const rows = await waitForRows('Overlaps', (r) => expectations.exactCopies.every((pair) => r.some((x) => isPair(x, pair))), 'the planted exact copies');
+    const rows = await waitForRows(
+      'Overlaps',
+      (r) => expectations.exactCopies.every((pair) => r.some((x) => isPair(x, pair))),
+      'the planted exact copies',
+    );
     expect(labels(rows)).toEqual(expect.arrayContaining(['Exact copies', 'Near-copies']));
     for (const pair of expectations.exactCopies) {
       const found = rows.find((r) => isPair(r, pair))!;
@@ -163,7 +189,8 @@ describe('Undertone insights in a real editor', () => {
     await activeTab(label).waitFor({ state: 'visible', timeout: 30_000 });
     // Both sides show the file's text (its first line, from the file on disk).
     const firstLine = readFileSync(path.join(workspace, a), 'utf8').split('\n')[0].trim().slice(0, 30);
-    for (const side of ['.editor.original', '.editor.modified']) await diff.locator(`${side} .view-line`).filter({ hasText: firstLine }).first().waitFor({ state: 'visible', timeout: 30_000 });
+    for (const side of ['.editor.original', '.editor.modified'])
+      await diff.locator(`${side} .view-line`).filter({ hasText: firstLine }).first().waitFor({ state: 'visible', timeout: 30_000 });
     await editor!.screenshot('insights-2-compare');
   });
 
@@ -179,13 +206,16 @@ describe('Undertone insights in a real editor', () => {
   it('shows the topics with their words, and opens a topic’s file', async () => {
     await editor!.runCommand('Undertone: Focus on Topics View');
     await collapse('Overlaps');
-    const isTopic = (x: { label: string; description: string; level?: number }) => x.level === 1 && /^\d+ files?\b/.test(x.description) && x.label !== 'Fits no topic well';
+    const isTopic = (x: { label: string; description: string; level?: number }) =>
+      x.level === 1 && /^\d+ files?\b/.test(x.description) && x.label !== 'Fits no topic well';
     const rows = await waitForRows('Topics', (r) => r.filter(isTopic).length >= 3, 'at least three topics');
     const topics = rows.filter(isTopic);
     // Topics are named by their words (the label), never "Topic N".
     expect(rows.some((x) => /^Topic \d/.test(x.label))).toBe(false);
     // Each planted topic's keywords (answer key) should name some topic: count those whose words show.
-    const named = expectations.topics.filter((t) => topics.some((x) => t.keywords.some((k) => x.label.toLowerCase().includes(k.toLowerCase().slice(0, 5)))));
+    const named = expectations.topics.filter((t) =>
+      topics.some((x) => t.keywords.some((k) => x.label.toLowerCase().includes(k.toLowerCase().slice(0, 5)))),
+    );
     expect(named.length).toBeGreaterThanOrEqual(Math.ceil(expectations.topics.length / 2));
     await editor!.screenshot('insights-3-topics');
     await row('Topics', topics[0].label).click();
@@ -204,16 +234,36 @@ describe('Undertone insights in a real editor', () => {
     await editor!.quickInput.pick(base(n.file), { description: path.posix.dirname(n.file) });
     await activeTab(base(n.file)).waitFor({ state: 'visible', timeout: 30_000 });
     // The view's title names the file whose neighbours it lists: wait for the file just opened.
-    await editor!.pane('Nearby').locator('.pane-header').filter({ hasText: base(n.file) }).waitFor({ state: 'visible', timeout: 30_000 });
+    await editor!
+      .pane('Nearby')
+      .locator('.pane-header')
+      .filter({ hasText: base(n.file) })
+      .waitFor({ state: 'visible', timeout: 30_000 });
     await waitForRows('Nearby', (r) => r.length > 0 && /^\d\.\d\d/.test(r[0].description), 'neighbours of the active file');
     const hover = editor!.page.locator('.monaco-hover, .workbench-hover').filter({ hasText: 'Why it is near' }).first();
     // The view may re-render under a resting pointer, which then shows no hover: move away and back, as a person would.
-    await waitFor(async () => {
-      await editor!.page.mouse.move(700, 450);
-      const [first] = await snapshot('Nearby');
-      if (!first || !(await row('Nearby', first.label).hover({ timeout: 5_000 }).then(() => true, () => false))) return false;
-      return hover.waitFor({ state: 'visible', timeout: 5_000 }).then(() => true, () => false);
-    }, 30_000, 'the tooltip of the first Nearby result');
+    await waitFor(
+      async () => {
+        await editor!.page.mouse.move(700, 450);
+        const [first] = await snapshot('Nearby');
+        if (
+          !first ||
+          !(await row('Nearby', first.label)
+            .hover({ timeout: 5_000 })
+            .then(
+              () => true,
+              () => false,
+            ))
+        )
+          return false;
+        return hover.waitFor({ state: 'visible', timeout: 5_000 }).then(
+          () => true,
+          () => false,
+        );
+      },
+      30_000,
+      'the tooltip of the first Nearby result',
+    );
     expect(await hover.textContent()).toMatch(/Score/);
     await opaque(hover);
     await editor!.screenshot('insights-5-nearby-tooltip');
@@ -226,32 +276,37 @@ describe('Undertone insights in a real editor', () => {
     await mapRoot.waitFor({ state: 'attached', timeout: 120_000 });
     expect(Number(await mapRoot.getAttribute('data-files'))).toBe(files);
     const canvas = frame.locator('.um-map-canvas');
-    const findDot = () => canvas.evaluate((c: PageCanvas) => {
-      // The drawn dot with the most drawn pixels around it (CSS pixels inside the canvas).
-      const ctx = c.getContext('2d')!;
-      const img = ctx.getImageData(0, 0, c.width, c.height).data;
-      const bg = [img[0], img[1], img[2]];
-      const off = (x: number, y: number) => {
-        const o = 4 * (y * c.width + x);
-        return Math.abs(img[o] - bg[0]) + Math.abs(img[o + 1] - bg[1]) + Math.abs(img[o + 2] - bg[2]) > 60;
-      };
-      let best = { x: -1, y: -1, score: -1 };
-      for (let y = 4; y < c.height * 0.85; y += 2) {
-        for (let x = 4; x < c.width * 0.6; x += 2) {
-          if (!off(x, y)) continue;
-          let score = 0;
-          for (let dy = -3; dy <= 3; dy++) for (let dx = -3; dx <= 3; dx++) if (off(x + dx, y + dy)) score++;
-          if (score > best.score) best = { x, y, score };
+    const findDot = () =>
+      canvas.evaluate((c: PageCanvas) => {
+        // The drawn dot with the most drawn pixels around it (CSS pixels inside the canvas).
+        const ctx = c.getContext('2d')!;
+        const img = ctx.getImageData(0, 0, c.width, c.height).data;
+        const bg = [img[0], img[1], img[2]];
+        const off = (x: number, y: number) => {
+          const o = 4 * (y * c.width + x);
+          return Math.abs(img[o] - bg[0]) + Math.abs(img[o + 1] - bg[1]) + Math.abs(img[o + 2] - bg[2]) > 60;
+        };
+        let best = { x: -1, y: -1, score: -1 };
+        for (let y = 4; y < c.height * 0.85; y += 2) {
+          for (let x = 4; x < c.width * 0.6; x += 2) {
+            if (!off(x, y)) continue;
+            let score = 0;
+            for (let dy = -3; dy <= 3; dy++) for (let dx = -3; dx <= 3; dx++) if (off(x + dx, y + dy)) score++;
+            if (score > best.score) best = { x, y, score };
+          }
         }
-      }
-      const scale = c.width / c.getBoundingClientRect().width;
-      return { x: best.x / scale, y: best.y / scale };
-    });
+        const scale = c.width / c.getBoundingClientRect().width;
+        return { x: best.x / scale, y: best.y / scale };
+      });
     // The page draws on the next animation frame after the data arrives.
-    const dot = await waitFor(async () => {
-      const d = await findDot();
-      return d.x > 0 ? d : false;
-    }, 30_000, 'a dot drawn on the map');
+    const dot = await waitFor(
+      async () => {
+        const d = await findDot();
+        return d.x > 0 ? d : false;
+      },
+      30_000,
+      'a dot drawn on the map',
+    );
     await canvas.hover({ position: dot });
     const tip = frame.locator('.um-tooltip-path');
     await tip.waitFor({ state: 'visible', timeout: 10_000 });

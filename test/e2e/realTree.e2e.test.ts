@@ -29,21 +29,34 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
   let tree: string;
   let editor: RunningEditor | undefined;
   const shot = (name: string) => editor!.screenshot(`real-${name}`);
-  const status = () => editor!.page.locator('.statusbar-item').filter({ hasText: /Undertone/ }).first();
-  const ready = () => status().filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ }).waitFor({ state: 'visible', timeout: 240_000 });
+  const status = () =>
+    editor!.page
+      .locator('.statusbar-item')
+      .filter({ hasText: /Undertone/ })
+      .first();
+  const ready = () =>
+    status()
+      .filter({ hasText: /Undertone: [\d,]+ files, k=\d+/ })
+      .waitFor({ state: 'visible', timeout: 240_000 });
   const box = () => editor!.page.locator('.quick-input-widget .quick-input-box input');
   const boxMessage = () => editor!.page.locator('.quick-input-widget .quick-input-message');
 
   const openSearchBox = async (): Promise<void> => {
     await editor!.runCommand('Undertone: Search Workspace by Meaning…');
-    await editor!.page.locator('.quick-input-widget .quick-input-title').filter({ hasText: /^Search Workspace by Meaning/ }).waitFor({ state: 'visible' });
+    await editor!.page
+      .locator('.quick-input-widget .quick-input-title')
+      .filter({ hasText: /^Search Workspace by Meaning/ })
+      .waitFor({ state: 'visible' });
   };
 
   const search = async (query: string): Promise<ListRow[]> => {
     await openSearchBox();
     await editor!.quickInput.type(query);
     await editor!.quickInput.submit();
-    await editor!.page.locator('.quick-input-widget .quick-input-title').filter({ hasText: /files by meaning/ }).waitFor({ state: 'visible', timeout: 60_000 });
+    await editor!.page
+      .locator('.quick-input-widget .quick-input-title')
+      .filter({ hasText: /files by meaning/ })
+      .waitFor({ state: 'visible', timeout: 60_000 });
     await editor!.page.locator('.quick-input-widget .quick-input-list .monaco-list-row').first().waitFor({ state: 'visible' });
     return editor!.quickInput.rows();
   };
@@ -51,10 +64,14 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
   const waitForRows = async (view: string, accept: (rows: ListRow[]) => boolean, what: string): Promise<ListRow[]> => {
     let last: ListRow[] = [];
     try {
-      return await waitFor(async () => {
-        last = await editor!.readTreeView(view, { minRows: 0 });
-        return accept(last) ? last : false;
-      }, 60_000, what);
+      return await waitFor(
+        async () => {
+          last = await editor!.readTreeView(view, { minRows: 0 });
+          return accept(last) ? last : false;
+        },
+        60_000,
+        what,
+      );
     } catch (err) {
       throw new Error(`${(err as Error).message}; last rows of ${view}: ${JSON.stringify(last)}`);
     }
@@ -82,13 +99,22 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
     // The workbench is up (startEditor waited for it): the item must be there already, not seconds later.
     await status().waitFor({ state: 'visible', timeout: 5_000 });
     expect(await status().textContent()).toMatch(/Undertone: (loading…|indexing \d+%|[\d,]+ files)/);
-    const toast = editor!.page.locator('.notifications-toasts .notification-toast').filter({ hasText: /Indexing the workspace/ }).first();
-    let seen = await toast.waitFor({ state: 'visible', timeout: 30_000 }).then(() => true, () => false);
+    const toast = editor!.page
+      .locator('.notifications-toasts .notification-toast')
+      .filter({ hasText: /Indexing the workspace/ })
+      .first();
+    let seen = await toast.waitFor({ state: 'visible', timeout: 30_000 }).then(
+      () => true,
+      () => false,
+    );
     if (!seen) {
       // The first build was over before the toast could be read: a second one shows it again.
       await ready();
       await editor!.runCommand('Undertone: Build Index');
-      seen = await toast.waitFor({ state: 'visible', timeout: 30_000 }).then(() => true, () => false);
+      seen = await toast.waitFor({ state: 'visible', timeout: 30_000 }).then(
+        () => true,
+        () => false,
+      );
     }
     expect(seen).toBe(true);
     await shot('1-progress');
@@ -103,13 +129,22 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
     expect(await box().getAttribute('placeholder')).toBe(SEARCH_PLACEHOLDER);
     await editor!.quickInput.type('');
     await editor!.quickInput.submit();
-    await boxMessage().filter({ hasText: EMPTY_QUESTION_MESSAGE.slice(0, 30) }).waitFor({ state: 'visible' });
+    await boxMessage()
+      .filter({ hasText: EMPTY_QUESTION_MESSAGE.slice(0, 30) })
+      .waitFor({ state: 'visible' });
     expect(await box().isVisible()).toBe(true);
     await shot('2-empty-question');
     await editor!.quickInput.type('zqxvw blorft');
     await editor!.quickInput.submit();
-    await boxMessage().filter({ hasText: /None of the words in “zqxvw blorft” occur/ }).waitFor({ state: 'visible', timeout: 30_000 });
-    expect(await editor!.page.locator('.notifications-toasts .notification-toast').filter({ hasText: /search failed/i }).count()).toBe(0);
+    await boxMessage()
+      .filter({ hasText: /None of the words in “zqxvw blorft” occur/ })
+      .waitFor({ state: 'visible', timeout: 30_000 });
+    expect(
+      await editor!.page
+        .locator('.notifications-toasts .notification-toast')
+        .filter({ hasText: /search failed/i })
+        .count(),
+    ).toBe(0);
     await shot('3-unknown-words');
     await editor!.quickInput.close();
   });
@@ -135,7 +170,9 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
     expect(passage.level).toBe(2);
     expect((passage.label.match(/\p{L}{2,}/gu) ?? []).length).toBeGreaterThanOrEqual(4);
     // The question's words are highlighted in the passage.
-    expect(await editor!.pane('Search Results').locator('.monaco-list-row .monaco-highlighted-label .highlight').count()).toBeGreaterThan(0);
+    expect(await editor!.pane('Search Results').locator('.monaco-list-row .monaco-highlighted-label .highlight').count()).toBeGreaterThan(
+      0,
+    );
     await shot('5-search-results-view');
   });
 
@@ -148,20 +185,27 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
     await editor!.quickInput.close();
   });
 
-  it('lists a page\'s own translations apart in Nearby, and explains a neighbour by shared concepts', async () => {
+  it("lists a page's own translations apart in Nearby, and explains a neighbour by shared concepts", async () => {
     await editor!.openFile('de/gnome-help/power-suspend.page');
     await editor!.runCommand('Undertone: Focus on Nearby View');
     const rows = await waitForRows('Nearby', (r) => top(r).length > 3, 'neighbours of the German suspend page');
     expect(top(rows)[0].label).toMatch(/^This page in \d+ other languages?$/);
     // None of the neighbours is the same page in another language.
-    expect(top(rows).slice(1).map((r) => r.label)).not.toContain('power-suspend.page');
+    expect(
+      top(rows)
+        .slice(1)
+        .map((r) => r.label),
+    ).not.toContain('power-suspend.page');
     // Neighbours are shown in the German folder where they have a German version.
     const neighbours = top(rows).slice(1);
     expect(neighbours.filter((r) => / · de\//.test(r.description)).length).toBeGreaterThan(neighbours.length / 2);
     await shot('7-nearby-translations');
     const row = editor!.pane('Nearby').locator('.monaco-list-row').filter({ hasText: neighbours[0].label }).first();
     await row.hover();
-    const hover = editor!.page.locator('.monaco-hover, .workbench-hover').filter({ hasText: /concepts both files share/ }).first();
+    const hover = editor!.page
+      .locator('.monaco-hover, .workbench-hover')
+      .filter({ hasText: /concepts both files share/ })
+      .first();
     await hover.waitFor({ state: 'visible', timeout: 15_000 });
     await shot('8-why-near');
   });
@@ -170,7 +214,10 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
     // Branch i10 renames the view (a name that survives title case); until it is merged this fails.
     await editor!.runCommand('Undertone: Focus on Nearby View');
     const headers = await editor!.page.locator('.pane-header .title').allTextContents();
-    expect(headers.map((h) => h.trim()), 'view headers').toContainEqual(expect.stringMatching(/^Overlaps$/i));
+    expect(
+      headers.map((h) => h.trim()),
+      'view headers',
+    ).toContainEqual(expect.stringMatching(/^Overlaps$/i));
   });
 
   it('[after merge of i17] names no topic "Topic N"', async () => {
@@ -201,7 +248,11 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
     expect(s!.x + s!.width).toBeLessThanOrEqual(h!.x + 1);
     expect(s!.height).toBeLessThan(2 * 18);
     await shot('11-map-query');
-    await page.locator('[role="tab"]').filter({ hasText: /Spectrum/ }).first().click();
+    await page
+      .locator('[role="tab"]')
+      .filter({ hasText: /Spectrum/ })
+      .first()
+      .click();
     const caption = page.locator('.um-spectrum-caption');
     await caption.waitFor({ state: 'visible' });
     expect(await caption.textContent()).toMatch(/k = \d+ concepts, which keep [\d.]+% .*(k looks large enough|More concepts could still)/s);
@@ -214,14 +265,23 @@ describe('Undertone on a real documentation tree with translations (GNOME help, 
     await dialog.waitFor({ state: 'visible' });
     expect(await dialog.textContent()).toMatch(/Delete the saved Undertone index/);
     await shot('13-delete-confirmation');
-    await dialog.locator('.monaco-button').filter({ hasText: /^Delete$/ }).first().click();
-    await status().filter({ hasText: /no index/ }).waitFor({ state: 'visible', timeout: 30_000 });
+    await dialog
+      .locator('.monaco-button')
+      .filter({ hasText: /^Delete$/ })
+      .first()
+      .click();
+    await status()
+      .filter({ hasText: /no index/ })
+      .waitFor({ state: 'visible', timeout: 30_000 });
     await editor!.runCommand('Undertone: Focus on Nearby View');
     const welcome = editor!.pane('Nearby').locator('.welcome-view-content');
     await welcome.filter({ hasText: /no index for this workspace yet/ }).waitFor({ state: 'visible', timeout: 30_000 });
     expect(await welcome.locator('.monaco-button').allTextContents()).toEqual(['Build Index']);
     const results = editor!.pane('Search Results');
-    await results.locator('.welcome-view-content').filter({ hasText: /once the workspace is indexed/ }).waitFor({ state: 'visible', timeout: 30_000 });
+    await results
+      .locator('.welcome-view-content')
+      .filter({ hasText: /once the workspace is indexed/ })
+      .waitFor({ state: 'visible', timeout: 30_000 });
     expect(await results.locator('.pane-body .monaco-list-row').filter({ visible: true }).count()).toBe(0);
     await shot('14-after-delete');
   });

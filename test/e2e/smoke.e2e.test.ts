@@ -28,8 +28,11 @@ describe('real editor harness', () => {
       mkdirSync(path.dirname(path.join(workspace, rel)), { recursive: true });
       writeFileSync(path.join(workspace, rel), text);
     }
-    const vsixPath = await packageExtension(path.join(import.meta.dirname, 'fixtures', 'probe-extension'),
-      path.join(root, 'harness-probe.vsix'), { noDependencies: true });
+    const vsixPath = await packageExtension(
+      path.join(import.meta.dirname, 'fixtures', 'probe-extension'),
+      path.join(root, 'harness-probe.vsix'),
+      { noDependencies: true },
+    );
     editor = await startEditor({
       workspaceFolder: workspace,
       extensionsDir: path.join(root, 'extensions'),
@@ -85,15 +88,20 @@ describe('real editor harness', () => {
   it('answers a quick pick that an extension command opens', async () => {
     await editor!.runCommand('Harness Probe: Choose a Beacon');
     await editor!.quickInput.waitForRow('north beacon');
-    expect((await editor!.quickInput.rows()).map((r) => [r.label, r.description]))
-      .toEqual([['north beacon', 'lit'], ['south beacon', 'dark']]);
+    expect((await editor!.quickInput.rows()).map((r) => [r.label, r.description])).toEqual([
+      ['north beacon', 'lit'],
+      ['south beacon', 'dark'],
+    ]);
     await editor!.quickInput.pick('south beacon');
     await editor!.waitForNotification('Chosen: south beacon');
   });
 
-  it('reads labels and descriptions from the installed extension\'s tree view', async () => {
+  it("reads labels and descriptions from the installed extension's tree view", async () => {
     const rows = await editor!.readTreeView('Probe Items', { minRows: 2 });
-    expect(rows.map((r) => [r.label, r.description])).toEqual([['north beacon', 'lit'], ['south beacon', 'dark']]);
+    expect(rows.map((r) => [r.label, r.description])).toEqual([
+      ['north beacon', 'lit'],
+      ['south beacon', 'dark'],
+    ]);
   });
 
   it('saves a screenshot of the workbench', async () => {

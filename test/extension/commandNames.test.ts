@@ -9,7 +9,8 @@ const REPO = path.resolve(import.meta.dirname, '../..');
 const manifest = JSON.parse(readFileSync(path.join(REPO, 'package.json'), 'utf8')) as {
   contributes: { commands: { command: string; title: string }[]; viewsWelcome: { contents: string }[] };
 };
-const sources = readdirSync(path.join(REPO, 'src/extension')).filter((f) => f.endsWith('.ts'))
+const sources = readdirSync(path.join(REPO, 'src/extension'))
+  .filter((f) => f.endsWith('.ts'))
   .map((f) => [f, readFileSync(path.join(REPO, 'src/extension', f), 'utf8')] as const);
 
 describe('command names', () => {
@@ -17,7 +18,9 @@ describe('command names', () => {
 
   it('calls the index command by one name in the manifest, the welcome texts and the messages', () => {
     expect(build.title).toBe('Build Index');
-    const links = manifest.contributes.viewsWelcome.flatMap((w) => [...w.contents.matchAll(/\[([^\]]+)\]\(command:undertone\.rebuildIndex\)/g)].map((m) => m[1]));
+    const links = manifest.contributes.viewsWelcome.flatMap((w) =>
+      [...w.contents.matchAll(/\[([^\]]+)\]\(command:undertone\.rebuildIndex\)/g)].map((m) => m[1]),
+    );
     expect(links.length).toBeGreaterThan(0);
     expect(new Set(links)).toEqual(new Set([build.title]));
     expect(JSON.stringify(manifest)).not.toMatch(/Rebuild Index/);
@@ -27,7 +30,8 @@ describe('command names', () => {
   it('quotes only command titles that exist when a message names a command', () => {
     const titles = new Set(manifest.contributes.commands.map((c) => c.title));
     for (const [file, text] of sources) {
-      for (const m of text.matchAll(/Run "([^"]+)"/g)) expect(`${file}: ${m[1]}`).toBe(`${file}: ${[...titles].find((t) => t === m[1]) ?? 'no such command'}`);
+      for (const m of text.matchAll(/Run "([^"]+)"/g))
+        expect(`${file}: ${m[1]}`).toBe(`${file}: ${[...titles].find((t) => t === m[1]) ?? 'no such command'}`);
     }
   });
 });

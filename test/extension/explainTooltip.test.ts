@@ -51,8 +51,15 @@ describe('why tooltips', () => {
 
   it('explains a nearby file first by the concepts both files share, their shares adding up to the score', () => {
     const why = {
-      score: 0.6, terms: [{ word: 'suspend', share: 0.2, inBoth: true }], rest: 0.4, restTerms: 30,
-      concepts: [{ words: ['suspend', 'resume', 'sleep'], share: 0.35 }, { words: ['power', 'battery'], share: 0.1 }], conceptRest: 0.15,
+      score: 0.6,
+      terms: [{ word: 'suspend', share: 0.2, inBoth: true }],
+      rest: 0.4,
+      restTerms: 30,
+      concepts: [
+        { words: ['suspend', 'resume', 'sleep'], share: 0.35 },
+        { words: ['power', 'battery'], share: 0.1 },
+      ],
+      conceptRest: 0.15,
     };
     const text = whyMarkdown('power/a.md', why, 'nearby');
     const concepts = text.indexOf('the concepts both files share');

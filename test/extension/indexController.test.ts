@@ -20,8 +20,13 @@ const controllers: IndexController[] = [];
 
 beforeAll(async () => {
   await build({
-    entryPoints: ['src/node/worker/indexWorker.ts'], outfile: join(tmp, 'ext', 'dist', 'indexWorker.js'),
-    bundle: true, platform: 'node', format: 'cjs', absWorkingDir: REPO_ROOT, logLevel: 'error',
+    entryPoints: ['src/node/worker/indexWorker.ts'],
+    outfile: join(tmp, 'ext', 'dist', 'indexWorker.js'),
+    bundle: true,
+    platform: 'node',
+    format: 'cjs',
+    absWorkingDir: REPO_ROOT,
+    logLevel: 'error',
   });
   mkdirSync(join(folder, 'docs'), { recursive: true });
   for (const d of adi?.docs ?? []) writeFileSync(join(folder, 'docs', `${d.id}.txt`), d.text);
@@ -94,7 +99,10 @@ describe('IndexController on a folder with nothing to index', () => {
     const empty = join(tmp, 'empty');
     mkdirSync(join(empty, 'pictures'), { recursive: true });
     writeFileSync(join(empty, 'pictures', 'harbour.png'), 'not really a picture');
-    const host = fakeHost({ folders: () => ({ local: [{ name: 'empty', fsPath: empty, filesExclude: {} }], elsewhere: [] }), indexFile: join(tmp, 'empty-storage', 'index.undertone') });
+    const host = fakeHost({
+      folders: () => ({ local: [{ name: 'empty', fsPath: empty, filesExclude: {} }], elsewhere: [] }),
+      indexFile: join(tmp, 'empty-storage', 'index.undertone'),
+    });
     const c = make(host);
     await c.start();
     expect(c.state.kind).toBe('none');
@@ -195,7 +203,10 @@ describe('IndexController', () => {
   });
 
   it('does not build on start when told not to', async () => {
-    const host = fakeHost({ setting: (k) => (k === 'buildOnStartup' ? false : undefined), indexFile: join(tmp, 'other', 'index.undertone') });
+    const host = fakeHost({
+      setting: (k) => (k === 'buildOnStartup' ? false : undefined),
+      indexFile: join(tmp, 'other', 'index.undertone'),
+    });
     const c = make(host);
     await c.start();
     expect(c.state).toEqual({ kind: 'none', reason: 'there is no index for this workspace yet.' });

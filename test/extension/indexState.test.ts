@@ -1,12 +1,21 @@
 import { describe, expect, it } from 'vitest';
-import { noIndexReason, statusActions, statusBarModel, summaryOf, unavailableReason, type IndexState } from '../../src/extension/indexState.js';
+import {
+  noIndexReason,
+  statusActions,
+  statusBarModel,
+  summaryOf,
+  unavailableReason,
+  type IndexState,
+} from '../../src/extension/indexState.js';
 
 const summary = { files: 1234, k: 96, terms: 5000, staleness: { changedFiles: 0, changedShare: 0, newTermMass: 0, residualRatio: 1 } };
 
 describe('status bar', () => {
   it('shows files and k when ready, a percentage while building, a warning when out of date', () => {
     expect(statusBarModel({ kind: 'ready', summary }).text).toBe('$(pulse) Undertone: 1,234 files, k=96');
-    expect(statusBarModel({ kind: 'building', percent: 42, background: false, previous: null }).text).toBe('$(sync~spin) Undertone: indexing 42%');
+    expect(statusBarModel({ kind: 'building', percent: 42, background: false, previous: null }).text).toBe(
+      '$(sync~spin) Undertone: indexing 42%',
+    );
     const stale = statusBarModel({ kind: 'stale', summary, reason: '20% of files changed' });
     expect(stale.text).toBe('$(warning) Undertone: out of date');
     expect(stale.tooltip).toContain('20% of files changed');
@@ -18,7 +27,9 @@ describe('status bar', () => {
   });
 
   it('says in the tooltip that the previous index stays in use during a rebuild', () => {
-    expect(statusBarModel({ kind: 'building', percent: 5, background: true, previous: summary }).tooltip).toContain('previous index (1,234 files) stays in use');
+    expect(statusBarModel({ kind: 'building', percent: 5, background: true, previous: summary }).tooltip).toContain(
+      'previous index (1,234 files) stays in use',
+    );
   });
 });
 
@@ -26,11 +37,19 @@ describe('status actions', () => {
   const commands = (s: IndexState) => statusActions(s).map((a) => a.command);
 
   it('offers search and nearby only when an index exists', () => {
-    expect(commands({ kind: 'ready', summary })).toEqual(['undertone.search', 'undertone.showNearby', 'undertone.rebuildIndex', 'undertone.deleteIndex', 'undertone.showLog']);
+    expect(commands({ kind: 'ready', summary })).toEqual([
+      'undertone.search',
+      'undertone.showNearby',
+      'undertone.rebuildIndex',
+      'undertone.deleteIndex',
+      'undertone.showLog',
+    ]);
     expect(commands({ kind: 'none' })).toEqual(['undertone.rebuildIndex', 'undertone.deleteIndex', 'undertone.showLog']);
     expect(statusActions({ kind: 'none' })[0].label).toBe('$(database) Build Index');
     // One name for the command everywhere, whether an index exists or not.
-    expect(statusActions({ kind: 'ready', summary }).find((a) => a.command === 'undertone.rebuildIndex')!.label).toBe('$(refresh) Build Index');
+    expect(statusActions({ kind: 'ready', summary }).find((a) => a.command === 'undertone.rebuildIndex')!.label).toBe(
+      '$(refresh) Build Index',
+    );
   });
 
   it('offers cancel instead of rebuild while building, and nothing where files cannot be read', () => {
@@ -53,7 +72,9 @@ describe('reasons', () => {
   });
 
   it('says why a saved index was not used', () => {
-    expect(noIndexReason('damaged', 'index payload fails its checksum')).toBe('the saved index could not be used (index payload fails its checksum)');
+    expect(noIndexReason('damaged', 'index payload fails its checksum')).toBe(
+      'the saved index could not be used (index payload fails its checksum)',
+    );
     expect(noIndexReason('settings-changed')).toBe('the index settings changed since the saved index was built');
     expect(noIndexReason('missing')).toBe('there is no index for this workspace yet');
   });

@@ -1,14 +1,36 @@
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_LOOKALIKE_OPTIONS } from '../../src/core/lookalike/options.js';
 import {
-  DEFAULT_LOOKALIKE_SETTINGS, lookalikeSummary, lookalikeTree, pairKey, readLookalikeSettings, SECTION_PAGE, shortNames, type PairNode,
+  DEFAULT_LOOKALIKE_SETTINGS,
+  lookalikeSummary,
+  lookalikeTree,
+  pairKey,
+  readLookalikeSettings,
+  SECTION_PAGE,
+  shortNames,
+  type PairNode,
 } from '../../src/extension/lookalikeModel.js';
 import type { LookalikeGroupWire, LookalikesResult } from '../../src/node/worker/insightProtocol.js';
 import type { FileRef } from '../../src/node/worker/workerProtocol.js';
 
 const ref = (key: string): FileRef => ({ key, fsPath: `/w/ferry/${key}`, folder: 'ferry', relPath: key });
-const pair = (a: string, b: string, similarity: number, sharedLines = 10, lines: [number, number] = [12, 12], sharedWords = 80, words: [number, number] = [96, 96]) => ({
-  a: ref(a), b: ref(b), similarity, jaccard: similarity, sharedLines, lines, sharedWords, words,
+const pair = (
+  a: string,
+  b: string,
+  similarity: number,
+  sharedLines = 10,
+  lines: [number, number] = [12, 12],
+  sharedWords = 80,
+  words: [number, number] = [96, 96],
+) => ({
+  a: ref(a),
+  b: ref(b),
+  similarity,
+  jaccard: similarity,
+  sharedLines,
+  lines,
+  sharedWords,
+  words,
 });
 const group = (kind: LookalikeGroupWire['kind'], pairs: ReturnType<typeof pair>[], morePairs = 0): LookalikeGroupWire => ({
   kind,
@@ -17,7 +39,16 @@ const group = (kind: LookalikeGroupWire['kind'], pairs: ReturnType<typeof pair>[
   morePairs,
 });
 const result = (groups: LookalikeGroupWire[]): LookalikesResult => ({
-  groups, morePairs: { exact: 0, near: 0, partial: 0, retold: 0 }, sameFile: 0, files: 116, emptyFiles: 0, skippedShort: 0, unreadable: 0, threshold: 0.8, partialThreshold: 0.3, ms: 1,
+  groups,
+  morePairs: { exact: 0, near: 0, partial: 0, retold: 0 },
+  sameFile: 0,
+  files: 116,
+  emptyFiles: 0,
+  skippedShort: 0,
+  unreadable: 0,
+  threshold: 0.8,
+  partialThreshold: 0.3,
+  ms: 1,
 });
 
 // Paths in the style of the demo workspace (demo/expectations.json exactCopies).
@@ -64,8 +95,15 @@ describe('overlaps tree', () => {
     const tree = lookalikeTree(sample, new Set());
     expect(tree.sections.map((s) => s.label)).toEqual(['Exact copies', 'Near-copies', 'Partial copies', 'Same content, other words']);
     const exact = tree.sections[0].children[0] as PairNode;
-    expect(exact).toMatchObject({ type: 'pair', label: 'shared/dates.ts ↔ vendor/dates.ts', description: 'identical · 61 of 61 lines shared' });
-    expect(tree.sections[1].children.map((c) => (c as PairNode).description)).toEqual(['Jaccard 0.81 · 10 of 12 lines shared', 'Jaccard 0.80 · 10 of 12 lines shared']);
+    expect(exact).toMatchObject({
+      type: 'pair',
+      label: 'shared/dates.ts ↔ vendor/dates.ts',
+      description: 'identical · 61 of 61 lines shared',
+    });
+    expect(tree.sections[1].children.map((c) => (c as PairNode).description)).toEqual([
+      'Jaccard 0.81 · 10 of 12 lines shared',
+      'Jaccard 0.80 · 10 of 12 lines shared',
+    ]);
     expect(tree.sections[2].children[0]).toMatchObject({ type: 'pair', description: 'Jaccard 0.45 · 6 of 12 lines shared' });
     expect(tree.sections[3].children[0]).toMatchObject({ type: 'pair', description: 'cosine 0.62 · 14 of 16 words shared' });
     expect(tree.shown).toBe(5);
@@ -73,12 +111,18 @@ describe('overlaps tree', () => {
 
   it('gives every node an id of its own', () => {
     const tree = lookalikeTree(sample, new Set());
-    const ids = tree.sections.flatMap((s) => [s.id, ...s.children.flatMap((c) => (c.type === 'group' ? [c.id, ...c.pairs.map((p) => p.id)] : [c.id]))]);
+    const ids = tree.sections.flatMap((s) => [
+      s.id,
+      ...s.children.flatMap((c) => (c.type === 'group' ? [c.id, ...c.pairs.map((p) => p.id)] : [c.id])),
+    ]);
     expect(new Set(ids).size).toBe(ids.length);
   });
 
   it('leaves out dismissed pairs and drops empty sections', () => {
-    const hidden = new Set([pairKey('tools/kiosk/src/fareCalc.ts', 'src/ticketing/fareCalculator.ts'), pairKey('notes/y.md', 'notes/x.md')]);
+    const hidden = new Set([
+      pairKey('tools/kiosk/src/fareCalc.ts', 'src/ticketing/fareCalculator.ts'),
+      pairKey('notes/y.md', 'notes/x.md'),
+    ]);
     const tree = lookalikeTree(sample, hidden);
     expect(tree.sections.map((s) => s.kind)).toEqual(['exact', 'near', 'partial']);
     expect(tree.sections[1].children).toHaveLength(1);
@@ -88,7 +132,10 @@ describe('overlaps tree', () => {
 
   it('keeps an exact group whose pairs were cut short, counting every file', () => {
     const tree = lookalikeTree(result([group('exact', [pair('a/x.ts', 'b/x.ts', 1, 3, [3, 3], 20, [20, 20])], 998)]), new Set());
-    expect(tree.sections[0].children[0]).toMatchObject({ type: 'group', description: '1000 identical files · 20 words each (+998 more pairs not listed)' });
+    expect(tree.sections[0].children[0]).toMatchObject({
+      type: 'group',
+      description: '1000 identical files · 20 words each (+998 more pairs not listed)',
+    });
   });
 
   it('shows a page per section and a "Show more" node for the rest, and a larger page on request', () => {

@@ -4,7 +4,12 @@ import { join } from 'node:path';
 import ignore from 'ignore';
 import { describe, expect, it } from 'vitest';
 import {
-  DEFAULT_EXTENSION_SETTINGS, enabledPatterns, globToGitignore, parseDimensions, readSettings, toWorkerConfig,
+  DEFAULT_EXTENSION_SETTINGS,
+  enabledPatterns,
+  globToGitignore,
+  parseDimensions,
+  readSettings,
+  toWorkerConfig,
 } from '../../src/extension/settings.js';
 import { DEFAULT_MAX_FILE_BYTES, DEFAULT_SCAN_OPTIONS } from '../../src/node/scan.js';
 import { REPO_ROOT } from '../helpers/shared.js';
@@ -16,12 +21,29 @@ describe('readSettings', () => {
 
   it('keeps valid values and falls back on wrong types or ranges', () => {
     const values: Record<string, unknown> = {
-      include: ['**/*.md', 3, ''], exclude: 'notes', maxFileSizeKB: 0, dimensions: '150', weighting: 'tfidf',
-      useGitignore: false, buildOnStartup: 'yes', nearbyCount: 500, autoRebuild: false, followLinksOutside: 'yes',
+      include: ['**/*.md', 3, ''],
+      exclude: 'notes',
+      maxFileSizeKB: 0,
+      dimensions: '150',
+      weighting: 'tfidf',
+      useGitignore: false,
+      buildOnStartup: 'yes',
+      nearbyCount: 500,
+      autoRebuild: false,
+      followLinksOutside: 'yes',
     };
     expect(readSettings((k) => values[k])).toEqual({
-      include: ['**/*.md'], exclude: [], maxFileSizeKB: 1, dimensions: 150, weighting: 'tfidf',
-      useGitignore: false, buildOnStartup: true, nearbyCount: 100, autoRebuild: false, conceptModel: '', followLinksOutside: false,
+      include: ['**/*.md'],
+      exclude: [],
+      maxFileSizeKB: 1,
+      dimensions: 150,
+      weighting: 'tfidf',
+      useGitignore: false,
+      buildOnStartup: true,
+      nearbyCount: 100,
+      autoRebuild: false,
+      conceptModel: '',
+      followLinksOutside: false,
     });
   });
 
@@ -36,7 +58,7 @@ describe('readSettings', () => {
 });
 
 describe('undertone.conceptModel', () => {
-  it('names the shared model in the worker settings by path and CRC-32 (the file\'s last four bytes)', () => {
+  it("names the shared model in the worker settings by path and CRC-32 (the file's last four bytes)", () => {
     const dir = mkdtempSync(join(tmpdir(), 'undertone-settings-'));
     try {
       const file = join(dir, 'org.model');
@@ -62,13 +84,60 @@ describe('globToGitignore', () => {
   // `ignore` package, which implements gitignore(5). Each case lists paths and whether the editor
   // glob matches them; the translated patterns must give the same answers.
   const cases: [string, [string, boolean][]][] = [
-    ['**/*.md', [['a.md', true], ['notes/b.md', true], ['notes/b.mdx', false]]],
-    ['*.md', [['a.md', true], ['notes/b.md', false]]],
-    ['docs/**', [['docs/a.ts', true], ['docs/x/y.ts', true], ['src/docs/a.ts', false]]],
-    ['**/node_modules', [['node_modules/p/i.js', true], ['a/node_modules/p/i.js', true], ['a/node_modulesx/i.js', false]]],
-    ['**/*.{ts,js}', [['a.ts', true], ['x/b.js', true], ['x/c.tsx', false]]],
-    ['{src,test}/gen/**', [['src/gen/a.ts', true], ['test/gen/b.ts', true], ['lib/gen/c.ts', false]]],
-    ['./build/', [['build/out.js', true], ['x/build/out.js', false]]],
+    [
+      '**/*.md',
+      [
+        ['a.md', true],
+        ['notes/b.md', true],
+        ['notes/b.mdx', false],
+      ],
+    ],
+    [
+      '*.md',
+      [
+        ['a.md', true],
+        ['notes/b.md', false],
+      ],
+    ],
+    [
+      'docs/**',
+      [
+        ['docs/a.ts', true],
+        ['docs/x/y.ts', true],
+        ['src/docs/a.ts', false],
+      ],
+    ],
+    [
+      '**/node_modules',
+      [
+        ['node_modules/p/i.js', true],
+        ['a/node_modules/p/i.js', true],
+        ['a/node_modulesx/i.js', false],
+      ],
+    ],
+    [
+      '**/*.{ts,js}',
+      [
+        ['a.ts', true],
+        ['x/b.js', true],
+        ['x/c.tsx', false],
+      ],
+    ],
+    [
+      '{src,test}/gen/**',
+      [
+        ['src/gen/a.ts', true],
+        ['test/gen/b.ts', true],
+        ['lib/gen/c.ts', false],
+      ],
+    ],
+    [
+      './build/',
+      [
+        ['build/out.js', true],
+        ['x/build/out.js', false],
+      ],
+    ],
   ];
   for (const [glob, paths] of cases) {
     it(`translates ${glob}`, () => {
@@ -87,7 +156,14 @@ describe('toWorkerConfig', () => {
   it('merges files.exclude per folder and converts sizes and index settings', () => {
     const config = toWorkerConfig(
       { ...DEFAULT_EXTENSION_SETTINGS, exclude: ['**/*.log'], maxFileSizeKB: 10, dimensions: 40 },
-      [{ name: 'app', key: 'app', fsPath: '/w/app', filesExclude: { '**/.git': true, '**/*.tmp': false, '**/*.js': { when: '$(basename).ts' } } }],
+      [
+        {
+          name: 'app',
+          key: 'app',
+          fsPath: '/w/app',
+          filesExclude: { '**/.git': true, '**/*.tmp': false, '**/*.js': { when: '$(basename).ts' } },
+        },
+      ],
       '/storage/index.undertone',
     );
     expect(config).toEqual({

@@ -34,7 +34,10 @@ const result = (topics: TopicWire[], extra: Partial<TopicsResult> = {}): TopicsR
 describe('topics tree', () => {
   it('labels a topic by its words (never "Topic N"), with size and main folder in the description', () => {
     const words = ['tide', 'window', 'berth', 'ebb', 'draught'];
-    const [node] = topicsTree(result([topic('1', words, ['notes/tides.md', 'notes/slip.md'], { folders: [{ folder: 'notes', files: 2, share: 1 }] })]), false);
+    const [node] = topicsTree(
+      result([topic('1', words, ['notes/tides.md', 'notes/slip.md'], { folders: [{ folder: 'notes', files: 2, share: 1 }] })]),
+      false,
+    );
     expect(node.label).toBe('tide, window, berth');
     expect(node.description).toBe('2 files · all in notes');
     expect(node.icon).toBe('topic');
@@ -46,7 +49,9 @@ describe('topics tree', () => {
   });
 
   it('keeps a label short without cutting a word', () => {
-    const label = topicLabel({ terms: ['interoperability', 'internationalisation', 'x'].map((w) => ({ word: w, term: w, picked: false })) });
+    const label = topicLabel({
+      terms: ['interoperability', 'internationalisation', 'x'].map((w) => ({ word: w, term: w, picked: false })),
+    });
     expect(label).toBe('interoperability');
     expect(topicLabel({ terms: ['a', 'b', 'c', 'd'].map((w) => ({ word: w, term: w, picked: false })) })).toBe('a, b, c');
     expect(label.length).toBeLessThanOrEqual(LABEL_CHARS);
@@ -55,7 +60,10 @@ describe('topics tree', () => {
   it('opens a topic into its sub-topics, and a sub-topic into its files, the typical one first', () => {
     const child1 = topic('1.1', ['refund'], ['notes/ticketing/refund-policy.md', 'README.md']);
     const child2 = topic('1.2', ['voucher'], ['notes/v.md']);
-    const [node] = topicsTree(result([topic('1', ['fare'], ['notes/ticketing/refund-policy.md'], { size: 3, children: [child1, child2] })]), false);
+    const [node] = topicsTree(
+      result([topic('1', ['fare'], ['notes/ticketing/refund-policy.md'], { size: 3, children: [child1, child2] })]),
+      false,
+    );
     const subs = node.children as TopicNode[];
     expect(subs.map((c) => c.label)).toEqual(['refund', 'voucher']);
     expect(subs[0].tooltip).toContain('Part of the topic “fare”.');
@@ -87,7 +95,14 @@ describe('topics tree', () => {
     const t1 = topic('1', ['fare'], ['src/a.ts', 'notes/b.md']);
     const t2 = topic('2', ['tide'], ['notes/c.md', 'notes/d.md', 'notes/e.md']);
     const t3 = topic('3', ['crew'], ['src/f.ts']);
-    const r = result([t1, t2, t3], { folder: { folder: 'notes', fsPath: '/w/ferry/notes', files: 5, outside: 1, counts: { '1': 1, '2': 3 } }, loose: [{ ...ref('notes/x.md'), nearest: '2' }, { ...ref('src/y.md'), nearest: '1' }], looseCount: 2 });
+    const r = result([t1, t2, t3], {
+      folder: { folder: 'notes', fsPath: '/w/ferry/notes', files: 5, outside: 1, counts: { '1': 1, '2': 3 } },
+      loose: [
+        { ...ref('notes/x.md'), nearest: '2' },
+        { ...ref('src/y.md'), nearest: '1' },
+      ],
+      looseCount: 2,
+    });
     const nodes = topicsTree(r, false);
     expect(nodes.map((n) => n.label)).toEqual(['tide', 'fare', 'Fits no topic well']);
     expect(nodes[0].description).toBe('3 of 3 files here');
@@ -97,7 +112,11 @@ describe('topics tree', () => {
   });
 
   it('names the workspace folder of each file when there are several', () => {
-    const t: TopicWire = { ...topic('1', ['x'], []), size: 1, files: [{ ...ref('api/a.ts', 'api'), relPath: 'a.ts', similarity: null, exemplar: false, picked: false }] };
+    const t: TopicWire = {
+      ...topic('1', ['x'], []),
+      size: 1,
+      files: [{ ...ref('api/a.ts', 'api'), relPath: 'a.ts', similarity: null, exemplar: false, picked: false }],
+    };
     const nodes = topicsTree(result([t]), true);
     expect((nodes[0].children[0] as TopicFileNode).description).toBe('api');
     expect(topicsSummary(result([t]))).toBe('1 topic');

@@ -1,15 +1,36 @@
 import { describe, expect, it } from 'vitest';
 import {
-  EMPTY_QUESTION_MESSAGE, formatScore, locationOf, markedPassage, nearbyEntries, noKnownWordsMessage, SEARCH_PLACEHOLDER, searchEntries,
-  searchPickItems, searchViewDescription, subjectTranslationsEntry, withoutKeys,
+  EMPTY_QUESTION_MESSAGE,
+  formatScore,
+  locationOf,
+  markedPassage,
+  nearbyEntries,
+  noKnownWordsMessage,
+  SEARCH_PLACEHOLDER,
+  searchEntries,
+  searchPickItems,
+  searchViewDescription,
+  subjectTranslationsEntry,
+  withoutKeys,
 } from '../../src/extension/viewModels.js';
 
-const hit = (relPath: string, score: number, folder = 'ferry') => ({ key: relPath, fsPath: `/w/${folder}/${relPath}`, folder, relPath, score });
+const hit = (relPath: string, score: number, folder = 'ferry') => ({
+  key: relPath,
+  fsPath: `/w/${folder}/${relPath}`,
+  folder,
+  relPath,
+  score,
+});
 
 describe('result entries', () => {
   it('shows the file name, the score and the folder path relative to the workspace folder', () => {
     const [a, b] = nearbyEntries([hit('notes/safety/gale.md', 0.8612), hit('README.md', 0.5)], false);
-    expect(a).toMatchObject({ key: 'notes/safety/gale.md', label: 'gale.md', description: '0.86 · notes/safety', fsPath: '/w/ferry/notes/safety/gale.md' });
+    expect(a).toMatchObject({
+      key: 'notes/safety/gale.md',
+      label: 'gale.md',
+      description: '0.86 · notes/safety',
+      fsPath: '/w/ferry/notes/safety/gale.md',
+    });
     expect(a.tooltip.split('\n')[0]).toBe('notes/safety/gale.md');
     expect(b.description).toBe('0.50');
   });
@@ -22,29 +43,73 @@ describe('result entries', () => {
 
   it('shows the folder beside a search result, and its passage as a row under it with the query words marked', () => {
     // Two files of one name in different folders (249 index.rst files in a real tree): the folder tells them apart.
-    const [e, f] = searchEntries([
-      { ...hit('notes/refunds.md', 0.7), line: 11, lineText: 'Money is paid back within five days.', highlights: [[0, 5]] },
-      { ...hit('archive/refunds.md', 0.6), line: 0, lineText: '' },
-    ], false);
+    const [e, f] = searchEntries(
+      [
+        { ...hit('notes/refunds.md', 0.7), line: 11, lineText: 'Money is paid back within five days.', highlights: [[0, 5]] },
+        { ...hit('archive/refunds.md', 0.6), line: 0, lineText: '' },
+      ],
+      false,
+    );
     expect(e).toMatchObject({ label: 'refunds.md', description: '0.70 · notes', line: 11, expanded: true });
     expect(f).toMatchObject({ label: 'refunds.md', description: '0.60 · archive' });
     expect(f.children).toBeUndefined();
-    expect(e.children).toEqual([{ kind: 'passage', key: 'notes/refunds.md#passage', fsPath: '/w/ferry/notes/refunds.md', text: 'Money is paid back within five days.', highlights: [[0, 5]], line: 11 }]);
-    expect(markedPassage('Money is paid back', [[0, 5], [9, 13]], (x) => x)).toBe('**Money** is **paid** back');
+    expect(e.children).toEqual([
+      {
+        kind: 'passage',
+        key: 'notes/refunds.md#passage',
+        fsPath: '/w/ferry/notes/refunds.md',
+        text: 'Money is paid back within five days.',
+        highlights: [[0, 5]],
+        line: 11,
+      },
+    ]);
+    expect(
+      markedPassage(
+        'Money is paid back',
+        [
+          [0, 5],
+          [9, 13],
+        ],
+        (x) => x,
+      ),
+    ).toBe('**Money** is **paid** back');
   });
 
-  it('folds a page\'s translations under it and says how many there are', () => {
+  it("folds a page's translations under it and says how many there are", () => {
     const t = (relPath: string, language: string) => ({ key: relPath, fsPath: `/w/docs/${relPath}`, folder: 'docs', relPath, language });
-    const [e] = searchEntries([{ ...hit('power/suspend.page', 0.5), line: 2, lineText: 'Suspend sends it to sleep.', language: 'original', translations: [t('de/power/suspend.page', 'de, German'), t('zh_CN/power/suspend.page', 'zh_CN, Chinese')] }], false);
+    const [e] = searchEntries(
+      [
+        {
+          ...hit('power/suspend.page', 0.5),
+          line: 2,
+          lineText: 'Suspend sends it to sleep.',
+          language: 'original',
+          translations: [t('de/power/suspend.page', 'de, German'), t('zh_CN/power/suspend.page', 'zh_CN, Chinese')],
+        },
+      ],
+      false,
+    );
     expect(e.description).toBe('0.50 · power · +2 languages');
-    expect(e.children!.map((c) => ('label' in c ? `${c.label}: ${c.description}` : c.kind))).toEqual(['passage', 'In 2 other languages: de, zh_CN']);
+    expect(e.children!.map((c) => ('label' in c ? `${c.label}: ${c.description}` : c.kind))).toEqual([
+      'passage',
+      'In 2 other languages: de, zh_CN',
+    ]);
     const folded = e.children![1] as unknown as { children: { label: string; description: string }[]; expanded: boolean };
     expect(folded.expanded).toBe(false);
-    expect(folded.children.map((c) => `${c.label} ${c.description}`)).toEqual(['suspend.page de, German · de/power', 'suspend.page zh_CN, Chinese · zh_CN/power']);
-    const [n] = nearbyEntries([{ ...hit('power/suspend.page', 0.5), language: 'original', translations: [t('de/power/suspend.page', 'de, German')] }], false);
+    expect(folded.children.map((c) => `${c.label} ${c.description}`)).toEqual([
+      'suspend.page de, German · de/power',
+      'suspend.page zh_CN, Chinese · zh_CN/power',
+    ]);
+    const [n] = nearbyEntries(
+      [{ ...hit('power/suspend.page', 0.5), language: 'original', translations: [t('de/power/suspend.page', 'de, German')] }],
+      false,
+    );
     expect(n).toMatchObject({ description: '0.50 · power · +1 language', expanded: false });
     expect(subjectTranslationsEntry('k', '/w/k', [], false)).toEqual([]);
-    expect(subjectTranslationsEntry('k', '/w/k', [t('de/power/suspend.page', 'de, German')], false)[0]).toMatchObject({ label: 'This page in 1 other language', heading: true });
+    expect(subjectTranslationsEntry('k', '/w/k', [t('de/power/suspend.page', 'de, German')], false)[0]).toMatchObject({
+      label: 'This page in 1 other language',
+      heading: true,
+    });
   });
 
   it('builds quick pick rows with the folder and the matching passage', () => {

@@ -74,7 +74,11 @@ export function nearbyFigures(index: LsiIndex, fixture: RankingFixture): MethodF
   for (const q of fixture.queries) {
     const rel = fixture.qrels.get(q.id);
     if (!rel || !index.has(q.id)) continue;
-    sum += ndcgAt(index.nearby(q.id, { top: 10 }).map((h) => h.path), rel, 10);
+    sum += ndcgAt(
+      index.nearby(q.id, { top: 10 }).map((h) => h.path),
+      rel,
+      10,
+    );
     n++;
   }
   return { ndcg10: n ? sum / n : 0 };
@@ -90,8 +94,15 @@ export function searchFigures(index: LsiIndex, fixture: RankingFixture): Require
   const judged = fixture.queries.filter((q) => fixture.qrels.has(q.id));
   const ordered = [...judged].sort((a, b) => (a.size ?? 0) - (b.size ?? 0) || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   const quartile = new Map(ordered.map((q, i) => [q.id, Math.floor((4 * i) / ordered.length)]));
-  let ap = 0, nd = 0, rr = 0;
-  const perQ = [[0, 0], [0, 0], [0, 0], [0, 0]];
+  let ap = 0,
+    nd = 0,
+    rr = 0;
+  const perQ = [
+    [0, 0],
+    [0, 0],
+    [0, 0],
+    [0, 0],
+  ];
   for (const q of judged) {
     const rel = fixture.qrels.get(q.id)!;
     let ranked: string[] = [];

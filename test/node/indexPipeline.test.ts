@@ -34,7 +34,15 @@ const bytesOf = (v: Float32Array): Buffer => Buffer.from(v.buffer, v.byteOffset,
 
 beforeAll(async () => {
   const script = join(tmp, 'parallelWorker.js');
-  await build({ entryPoints: ['src/node/parallel/parallelWorker.ts'], outfile: script, bundle: true, platform: 'node', format: 'cjs', absWorkingDir: REPO_ROOT, logLevel: 'error' });
+  await build({
+    entryPoints: ['src/node/parallel/parallelWorker.ts'],
+    outfile: script,
+    bundle: true,
+    platform: 'node',
+    format: 'cjs',
+    absWorkingDir: REPO_ROOT,
+    logLevel: 'error',
+  });
   saved = process.env.UNDERTONE_PARALLEL_WORKER;
   process.env.UNDERTONE_PARALLEL_WORKER = script;
   files = folderOf('a', cran.docs.slice(0, 300));
@@ -88,7 +96,11 @@ describe('runIndexPipeline', () => {
   it('reuses unchanged files, keeps an unchanged index when asked, and saves only what it built', async () => {
     const savedIndexes: LsiIndex[] = [];
     const first = await runIndexPipeline({
-      settings, scan: async () => ({ files, skipped: { ...none } }), maxFileBytes: 1 << 20, emptyMessage: 'empty', threads: false,
+      settings,
+      scan: async () => ({ files, skipped: { ...none } }),
+      maxFileBytes: 1 << 20,
+      emptyMessage: 'empty',
+      threads: false,
       save: async (index) => {
         savedIndexes.push(index);
       },
@@ -104,7 +116,11 @@ describe('runIndexPipeline', () => {
   it('stops with CancelledError before saving when cancelled, and with EmptyCorpusError when no file has text', async () => {
     let saves = 0;
     const cancelled = runIndexPipeline({
-      settings, scan: async () => ({ files, skipped: { ...none } }), maxFileBytes: 1 << 20, emptyMessage: 'empty', threads: false,
+      settings,
+      scan: async () => ({ files, skipped: { ...none } }),
+      maxFileBytes: 1 << 20,
+      emptyMessage: 'empty',
+      threads: false,
       isCancelled: () => true,
       save: async () => {
         saves++;

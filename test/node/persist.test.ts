@@ -82,7 +82,10 @@ describe('persist', () => {
   it('reports a folder, a FIFO or a device at the index path without blocking or reading it', async () => {
     const sub = join(dir, 'occupied');
     mkdirSync(join(sub, 'index.undertone'), { recursive: true });
-    expect(await loadIndex(join(sub, 'index.undertone'))).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/is a folder/) });
+    expect(await loadIndex(join(sub, 'index.undertone'))).toMatchObject({
+      status: 'damaged',
+      reason: expect.stringMatching(/is a folder/),
+    });
     const fifo = join(dir, 'fifo.undertone');
     execFileSync('mkfifo', [fifo]);
     // Before the fix this never resolved (open waited for a writer).
@@ -113,9 +116,13 @@ describe('persist', () => {
     const sub = join(dir, 'blocked');
     mkdirSync(join(sub, 'index.undertone'), { recursive: true });
     await expect(saveIndex(join(sub, 'index.undertone'), buildAdi())).rejects.toThrow(SaveError);
-    await expect(saveIndex(join(sub, 'index.undertone'), buildAdi())).rejects.toThrow(/blocked\/index\.undertone: a folder of that name is in the way/);
+    await expect(saveIndex(join(sub, 'index.undertone'), buildAdi())).rejects.toThrow(
+      /blocked\/index\.undertone: a folder of that name is in the way/,
+    );
     writeFileSync(join(dir, 'plainfile'), 'x');
-    expect(await trySaveIndex(join(dir, 'plainfile', 'cache', 'index.undertone'), buildAdi())).toMatch(/plainfile\/cache\/index\.undertone: \S+plainfile is a file, not a folder/);
+    expect(await trySaveIndex(join(dir, 'plainfile', 'cache', 'index.undertone'), buildAdi())).toMatch(
+      /plainfile\/cache\/index\.undertone: \S+plainfile is a file, not a folder/,
+    );
     expect(readdirSync(sub)).toEqual(['index.undertone']); // no temporary file left behind
   });
 

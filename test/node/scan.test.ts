@@ -24,8 +24,14 @@ const paths = async (root: string, opts = {}): Promise<string[]> => (await scanF
 describe('DEFAULT_SCAN_OPTIONS', () => {
   it('has the documented defaults', () => {
     expect(DEFAULT_SCAN_OPTIONS).toEqual({
-      include: [], exclude: [], useDefaultExcludes: true, maxFileBytes: 1_048_576, honourGitignore: true, followSymlinks: true,
-      followLinksOutside: false, linkRoots: [],
+      include: [],
+      exclude: [],
+      useDefaultExcludes: true,
+      maxFileBytes: 1_048_576,
+      honourGitignore: true,
+      followSymlinks: true,
+      followLinksOutside: false,
+      linkRoots: [],
     });
   });
 });
@@ -47,12 +53,34 @@ describe('scanFolder', () => {
 
   it('skips version-control folders, dependencies, build output, lock files, bundles and binary formats by default', async () => {
     const root = tree({
-      'keep.ts': '', 'dist.md': '', 'docs/build-notes.md': '', 'src/app.js': '',
-      '.git/config': '', '.hg/store': '', '.svn/entries': '', 'node_modules/pkg/index.js': '',
-      'dist/app.js': '', 'out/x.js': '', 'build/y.js': '', 'target/debug/z': '', 'coverage/lcov.info': '',
-      '.next/cache.json': '', 'pkg/__pycache__/m.pyc': '', '.cache/blob': '', 'src/deep/node_modules/q.js': '',
-      'package-lock.json': '', 'yarn.lock': '', 'pnpm-lock.yaml': '', 'Cargo.lock': '', 'poetry.lock': '',
-      'app.min.js': '', 'style.min.css': '', 'app.js.map': '', 'logo.PNG': '', 'font.woff2': '', 'lib.so': '',
+      'keep.ts': '',
+      'dist.md': '',
+      'docs/build-notes.md': '',
+      'src/app.js': '',
+      '.git/config': '',
+      '.hg/store': '',
+      '.svn/entries': '',
+      'node_modules/pkg/index.js': '',
+      'dist/app.js': '',
+      'out/x.js': '',
+      'build/y.js': '',
+      'target/debug/z': '',
+      'coverage/lcov.info': '',
+      '.next/cache.json': '',
+      'pkg/__pycache__/m.pyc': '',
+      '.cache/blob': '',
+      'src/deep/node_modules/q.js': '',
+      'package-lock.json': '',
+      'yarn.lock': '',
+      'pnpm-lock.yaml': '',
+      'Cargo.lock': '',
+      'poetry.lock': '',
+      'app.min.js': '',
+      'style.min.css': '',
+      'app.js.map': '',
+      'logo.PNG': '',
+      'font.woff2': '',
+      'lib.so': '',
     });
     expect(await paths(root)).toEqual(['dist.md', 'docs/build-notes.md', 'keep.ts', 'src/app.js']);
   });
@@ -91,7 +119,18 @@ describe('scanFolder', () => {
   });
 
   it('lists unicode, spaced and odd file names, sorted by UTF-16 code units', async () => {
-    const names = ['zeta.md', 'Äpfel.md', 'ångström.txt', '日本語.md', 'emoji-😀.md', 'with space.md', '#hash.md', '[x].md', 'a\\b.md', 'Zed.md'];
+    const names = [
+      'zeta.md',
+      'Äpfel.md',
+      'ångström.txt',
+      '日本語.md',
+      'emoji-😀.md',
+      'with space.md',
+      '#hash.md',
+      '[x].md',
+      'a\\b.md',
+      'Zed.md',
+    ];
     const root = tree(Object.fromEntries(names.map((n) => [n, n])));
     // Reference: ECMAScript's default Array#sort order, which compares UTF-16 code units.
     expect(await paths(root)).toEqual([...names].sort());
@@ -114,7 +153,12 @@ describe('scanFolder', () => {
     // Reference: Node's own recursive readdir, filtered to files.
     const all = readdirSync(root, { recursive: true, withFileTypes: true })
       .filter((d) => d.isFile())
-      .map((d) => join(d.parentPath, d.name).slice(root.length + 1).split('\\').join('/'))
+      .map((d) =>
+        join(d.parentPath, d.name)
+          .slice(root.length + 1)
+          .split('\\')
+          .join('/'),
+      )
       .sort();
     expect(await paths(root)).toEqual(all);
   });

@@ -6,7 +6,11 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { createRandom } from '../../src/core/random.js';
 import { scanFolder } from '../../src/node/scan.js';
 import {
-  createExcludeMatcher, createExcludeTest, DEFAULT_EXCLUDE_NAMES, DEFAULT_EXCLUDE_PATTERNS, escapePattern,
+  createExcludeMatcher,
+  createExcludeTest,
+  DEFAULT_EXCLUDE_NAMES,
+  DEFAULT_EXCLUDE_PATTERNS,
+  escapePattern,
 } from '../../src/node/scanRules.js';
 
 // Reference for every .gitignore check below: git itself (`git ls-files --others
@@ -53,11 +57,19 @@ describe.skipIf(!hasGit)('.gitignore layering agrees with git (skipped when git 
   it('applies nested files, negations and a deeper file overriding a shallower one', async () => {
     const root = tree({
       '.gitignore': '*.log\n!keep.log\nbuild/\ntmp/*\n!tmp/wanted.md\n/only-root.txt\n',
-      'a.log': '', 'keep.log': '', 'only-root.txt': '', 'tmp/x.md': '', 'tmp/wanted.md': '',
+      'a.log': '',
+      'keep.log': '',
+      'only-root.txt': '',
+      'tmp/x.md': '',
+      'tmp/wanted.md': '',
       'src/.gitignore': '!*.log\nsecret.txt\n',
-      'src/trace.log': '', 'src/secret.txt': '', 'src/only-root.txt': '', 'src/ok.ts': '',
+      'src/trace.log': '',
+      'src/secret.txt': '',
+      'src/only-root.txt': '',
+      'src/ok.ts': '',
       'src/deep/.gitignore': 'secret.txt\n!*.txt\n',
-      'src/deep/secret.txt': '', 'src/deep/more.log': '',
+      'src/deep/secret.txt': '',
+      'src/deep/more.log': '',
       'build/out.js': '',
     });
     const keeps = gitKeeps(root);
@@ -69,8 +81,12 @@ describe.skipIf(!hasGit)('.gitignore layering agrees with git (skipped when git 
     const root = tree({
       '.gitignore': 'build/\n*.tmp\nb*[x]/\n',
       'sub/.gitignore': '!build/\n!b*[x]/\n',
-      'sub/build/page.md': '', 'sub/build/scratch.tmp': '', 'sub/build/inner/more.md': '',
-      'sub/b*[x]/odd.md': '', 'sub/bx/plain.md': '', 'build/gone.md': '',
+      'sub/build/page.md': '',
+      'sub/build/scratch.tmp': '',
+      'sub/build/inner/more.md': '',
+      'sub/b*[x]/odd.md': '',
+      'sub/bx/plain.md': '',
+      'build/gone.md': '',
     });
     const keeps = gitKeeps(root);
     expect(keeps).toContain('sub/build/page.md');
@@ -100,11 +116,53 @@ describe.skipIf(!hasGit)('.gitignore layering agrees with git (skipped when git 
     const rnd = createRandom(7);
     const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rnd.next() * xs.length)];
     const segs = ['a', 'b', 'build', 'src', 'logs', 'x y', 'k[1]', 'déjà', 'k1'];
-    const names = ['a.txt', 'b.log', 'keep.log', 'c.md', 'x.TXT', '.hidden', 'doc1.txt', '#hash', '!bang.txt', 'sp ace.md', 'ü.md', 'ab.txt'];
+    const names = [
+      'a.txt',
+      'b.log',
+      'keep.log',
+      'c.md',
+      'x.TXT',
+      '.hidden',
+      'doc1.txt',
+      '#hash',
+      '!bang.txt',
+      'sp ace.md',
+      'ü.md',
+      'ab.txt',
+    ];
     const patterns = [
-      '*.log', '!keep.log', '*.txt', '!a.txt', 'build/', '!build/', '/a', 'a/', 'b/**', '**/logs', 'logs/*',
-      '!logs/keep.log', 'src/*', '!src/c.md', 'x y/', '*.md', '!*.md', 'k\\[1\\]/', 'k[1]/', '*', '!*/', 'doc?.txt',
-      '[ab].txt', '\\#hash', '\\!bang.txt', 'déjà/', '/build', '**/b/*.txt', 'a/**/c.md', '*.TXT', '.*', '!.gitignore',
+      '*.log',
+      '!keep.log',
+      '*.txt',
+      '!a.txt',
+      'build/',
+      '!build/',
+      '/a',
+      'a/',
+      'b/**',
+      '**/logs',
+      'logs/*',
+      '!logs/keep.log',
+      'src/*',
+      '!src/c.md',
+      'x y/',
+      '*.md',
+      '!*.md',
+      'k\\[1\\]/',
+      'k[1]/',
+      '*',
+      '!*/',
+      'doc?.txt',
+      '[ab].txt',
+      '\\#hash',
+      '\\!bang.txt',
+      'déjà/',
+      '/build',
+      '**/b/*.txt',
+      'a/**/c.md',
+      '*.TXT',
+      '.*',
+      '!.gitignore',
     ];
     let compared = 0;
     for (let c = 0; c < 60; c++) {
@@ -143,8 +201,26 @@ describe('createExcludeTest', () => {
   // gitignore(5) rules; the set-lookup form must give the same answer for every entry.
   const folderNames = [...DEFAULT_EXCLUDE_NAMES.folders, 'Node_Modules', 'src', 'builds', 'x.png', 'yarn.lock', 'lib'];
   const fileNames = [
-    ...DEFAULT_EXCLUDE_NAMES.files, 'app.min.js', 'APP.MIN.JS', 'min.js', 'a.js', 'photo.PNG', '.png', 'png', 'a.map.md',
-    'archive.tar.gz', 'Cargo.lock', 'cargo.lock.md', 'readme.md', 'x.o', 'x.os', '.DS_Store', 'node_modules', 'dist', 'lib', 'secrets.txt',
+    ...DEFAULT_EXCLUDE_NAMES.files,
+    'app.min.js',
+    'APP.MIN.JS',
+    'min.js',
+    'a.js',
+    'photo.PNG',
+    '.png',
+    'png',
+    'a.map.md',
+    'archive.tar.gz',
+    'Cargo.lock',
+    'cargo.lock.md',
+    'readme.md',
+    'x.o',
+    'x.os',
+    '.DS_Store',
+    'node_modules',
+    'dist',
+    'lib',
+    'secrets.txt',
   ];
   const extras: string[][] = [[], ['*.md'], ['docs/', 'lib'], ['!build/'], ['!*.map', 'secret*']];
   for (const useDefaults of [true, false]) {

@@ -31,7 +31,10 @@ export async function askCommand(folder: string, text: string | undefined, flags
   }
   const likes = fileList(flags.like);
   const unlikes = fileList(flags.unlike);
-  if ((!text || text.trim().length === 0) && likes.length === 0) throw new InvalidInputError('ask needs a question in plain language, a file to find more like (--like FILE), or --queries <file.jsonl>');
+  if ((!text || text.trim().length === 0) && likes.length === 0)
+    throw new InvalidInputError(
+      'ask needs a question in plain language, a file to find more like (--like FILE), or --queries <file.jsonl>',
+    );
   const { index } = await ensureIndex(folder, flags, io);
   const feedback = { like: likes.map((f) => indexedKey(index, folder, f)), unlike: unlikes.map((f) => indexedKey(index, folder, f)) };
   printHits(index, text ?? '', top, flags, io, feedback);
@@ -59,7 +62,13 @@ function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io:
   if (flags.json) {
     const results = hits.map((h) => {
       const e = why(h.path);
-      return { path: h.path, score: round(h.score), concept: round(h.conceptScore), lexical: round(h.lexicalScore), ...(e ? { explain: explanationJson(e, forms) } : {}) };
+      return {
+        path: h.path,
+        score: round(h.score),
+        concept: round(h.conceptScore),
+        lexical: round(h.lexicalScore),
+        ...(e ? { explain: explanationJson(e, forms) } : {}),
+      };
     });
     io.out(JSON.stringify({ query: text, results }));
     return;
@@ -72,7 +81,10 @@ function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io:
     const e = why(h.path);
     if (e) io.out(explanationLine(e, forms));
   });
-  if (explainer && hits.length > 0) io.out('why: each word\'s share of the score (meaning and word-match parts together); ~ marks a word not in the file, counted through related words.');
+  if (explainer && hits.length > 0)
+    io.out(
+      "why: each word's share of the score (meaning and word-match parts together); ~ marks a word not in the file, counted through related words.",
+    );
 }
 
 /** One indented line: the largest shares, and the rest summed, adding up to the score. */
@@ -88,7 +100,14 @@ export function explanationJson(e: Explanation, forms: SurfaceForms, count = 10)
   const { top, rest, restTerms } = topShares(e, count);
   return {
     score: round(e.score),
-    terms: top.map((t) => ({ word: forms.wordFor(t.term), term: t.term, share: round(t.share), concept: round(t.concept), lexical: round(t.lexical), inBoth: t.inBoth })),
+    terms: top.map((t) => ({
+      word: forms.wordFor(t.term),
+      term: t.term,
+      share: round(t.share),
+      concept: round(t.concept),
+      lexical: round(t.lexical),
+      inBoth: t.inBoth,
+    })),
     rest: { terms: restTerms, share: round(rest) },
     feedback: round(e.feedback),
   };

@@ -52,12 +52,16 @@ export async function countCommand(folder: string, flags: Flags, io: Io): Promis
     // The files the index would read (same scan rules and filters), one per line, in path order.
     const scan = await scanFolder(folder, scanFrom(flags));
     const paths = scan.files.map((f) => f.path).sort(comparePaths);
-    for (const p of paths) if (/[\r\n]/.test(p)) throw new InvalidInputError(`the path ${JSON.stringify(p)} holds a line break and cannot be listed one per line`);
+    for (const p of paths)
+      if (/[\r\n]/.test(p))
+        throw new InvalidInputError(`the path ${JSON.stringify(p)} holds a line break and cannot be listed one per line`);
     for (let i = 0; i < paths.length; i += 4096) io.out(paths.slice(i, i + 4096).join('\n'));
     return 0;
   }
-  if (typeof flags.files !== 'string' || flags.files.length === 0) throw new InvalidInputError('count needs --files LIST (paths relative to the folder, one per line)');
-  if (typeof flags.out !== 'string' || flags.out.length === 0) throw new InvalidInputError('count needs --out SHARD (the shard files SHARD.mtx, .terms, .files, .json are written)');
+  if (typeof flags.files !== 'string' || flags.files.length === 0)
+    throw new InvalidInputError('count needs --files LIST (paths relative to the folder, one per line)');
+  if (typeof flags.out !== 'string' || flags.out.length === 0)
+    throw new InvalidInputError('count needs --out SHARD (the shard files SHARD.mtx, .terms, .files, .json are written)');
   const maxFileBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? DEFAULT_MAX_FILE_BYTES;
   const root = resolve(folder);
   let listText: string;
@@ -66,10 +70,14 @@ export async function countCommand(folder: string, flags: Flags, io: Io): Promis
   } catch (err) {
     throw new InvalidInputError(`cannot read the file list ${flags.files}: ${(err as Error).message}`);
   }
-  const paths = listText.split('\n').map((l) => l.replace(/\r$/, '')).filter((l) => l.length > 0);
+  const paths = listText
+    .split('\n')
+    .map((l) => l.replace(/\r$/, ''))
+    .filter((l) => l.length > 0);
   const seen = new Set<string>();
   for (const p of paths) {
-    if (p.startsWith('/') || p.split('/').includes('..')) throw new InvalidInputError(`the file list must hold paths inside the folder, relative to it; got "${p}"`);
+    if (p.startsWith('/') || p.split('/').includes('..'))
+      throw new InvalidInputError(`the file list must hold paths inside the folder, relative to it; got "${p}"`);
     if (seen.has(p)) throw new InvalidInputError(`the file list names "${p}" twice`);
     seen.add(p);
   }
@@ -84,7 +92,8 @@ export async function countCommand(folder: string, flags: Flags, io: Io): Promis
   }
   // Shard columns in code-unit order of the terms (the order IndexBuilder numbers terms in).
   const terms = vocab.terms;
-  for (const t of terms) if (/\s/.test(t)) throw new InvalidInputError(`a term holds white space and cannot be written one per line: ${JSON.stringify(t)}`);
+  for (const t of terms)
+    if (/\s/.test(t)) throw new InvalidInputError(`a term holds white space and cannot be written one per line: ${JSON.stringify(t)}`);
   const order = Array.from({ length: terms.length }, (_, i) => i).sort((a, b) => (terms[a] < terms[b] ? -1 : terms[a] > terms[b] ? 1 : 0));
   const column = new Int32Array(terms.length);
   order.forEach((id, c) => (column[id] = c));
@@ -108,8 +117,12 @@ export async function countCommand(folder: string, flags: Flags, io: Io): Promis
   };
   await writeFile(`${out}.json.tmp`, `${JSON.stringify(manifest, null, 1)}\n`);
   await rename(`${out}.json.tmp`, `${out}.json`);
-  if (flags.json) io.out(JSON.stringify({ out, listed: paths.length, counted: counted.length, skipped: skipped.length, terms: terms.length, nonZeros }));
-  else if (!flags.quiet) io.err(`counted ${formatCount(counted.length)} of ${formatCount(paths.length)} files (${skipped.length} skipped), ${formatCount(terms.length)} terms, ${formatCount(nonZeros)} non-zeros → ${out}.mtx`);
+  if (flags.json)
+    io.out(JSON.stringify({ out, listed: paths.length, counted: counted.length, skipped: skipped.length, terms: terms.length, nonZeros }));
+  else if (!flags.quiet)
+    io.err(
+      `counted ${formatCount(counted.length)} of ${formatCount(paths.length)} files (${skipped.length} skipped), ${formatCount(terms.length)} terms, ${formatCount(nonZeros)} non-zeros → ${out}.mtx`,
+    );
   return 0;
 }
 
@@ -138,7 +151,9 @@ function* lineChunks(items: readonly string[]): Generator<string> {
 async function atomically(path: string, chunks: Iterable<string>): Promise<void> {
   const tmp = `${path}.tmp`;
   const stream = createWriteStream(tmp, { encoding: 'utf8' });
-  const failed = once(stream, 'error').then(([err]) => Promise.reject(new InvalidInputError(`cannot write ${tmp}: ${(err as Error).message}`)));
+  const failed = once(stream, 'error').then(([err]) =>
+    Promise.reject(new InvalidInputError(`cannot write ${tmp}: ${(err as Error).message}`)),
+  );
   failed.catch(() => undefined);
   for (const chunk of chunks) if (!stream.write(chunk)) await Promise.race([once(stream, 'drain'), failed]);
   stream.end();

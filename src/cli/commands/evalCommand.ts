@@ -38,13 +38,22 @@ export async function evalCommand(folder: string, flags: Flags, io: Io): Promise
     known.add(idOf(p));
   }
   const unjudged = queries.filter((q) => !qrels.has(String(q.id))).map((q) => String(q.id));
-  if (unjudged.length > 0) warnings.push(`${unjudged.length} ${unjudged.length === 1 ? 'query has' : 'queries have'} no relevant document in ${flags.qrels} and ${unjudged.length === 1 ? 'is' : 'are'} not scored: ${unjudged.slice(0, MAX_LISTED).join(', ')}${unjudged.length > MAX_LISTED ? ', …' : ''}`);
+  if (unjudged.length > 0)
+    warnings.push(
+      `${unjudged.length} ${unjudged.length === 1 ? 'query has' : 'queries have'} no relevant document in ${flags.qrels} and ${unjudged.length === 1 ? 'is' : 'are'} not scored: ${unjudged.slice(0, MAX_LISTED).join(', ')}${unjudged.length > MAX_LISTED ? ', …' : ''}`,
+    );
   const unknown: string[] = [];
   for (const [q, docs] of qrels) for (const d of docs) if (!known.has(d)) unknown.push(`${q}/${d}`);
-  if (unknown.length > 0) warnings.push(`${unknown.length} judged ${unknown.length === 1 ? 'document is' : 'documents are'} not in the index (query/document): ${unknown.slice(0, MAX_LISTED).join(', ')}${unknown.length > MAX_LISTED ? ', …' : ''}`);
+  if (unknown.length > 0)
+    warnings.push(
+      `${unknown.length} judged ${unknown.length === 1 ? 'document is' : 'documents are'} not in the index (query/document): ${unknown.slice(0, MAX_LISTED).join(', ')}${unknown.length > MAX_LISTED ? ', …' : ''}`,
+    );
   const asked = new Set(queries.map((q) => String(q.id)));
   const noQuery = [...qrels.keys()].filter((q) => !asked.has(q));
-  if (noQuery.length > 0) warnings.push(`${noQuery.length} judged ${noQuery.length === 1 ? 'query is' : 'queries are'} not in ${flags.queries}: ${noQuery.slice(0, MAX_LISTED).join(', ')}${noQuery.length > MAX_LISTED ? ', …' : ''}`);
+  if (noQuery.length > 0)
+    warnings.push(
+      `${noQuery.length} judged ${noQuery.length === 1 ? 'query is' : 'queries are'} not in ${flags.queries}: ${noQuery.slice(0, MAX_LISTED).join(', ')}${noQuery.length > MAX_LISTED ? ', …' : ''}`,
+    );
   for (const w of warnings) io.err(`warning: ${printable(w)}`);
 
   const runs = new Map<string, string[]>();
@@ -52,13 +61,17 @@ export async function evalCommand(folder: string, flags: Flags, io: Io): Promise
     const qid = String(q.id);
     if (!qrels.has(qid)) continue;
     try {
-      runs.set(qid, index.search(q.text, { top: index.size }).map((h) => (qrels.get(qid)!.has(h.path) ? h.path : idOf(h.path))));
+      runs.set(
+        qid,
+        index.search(q.text, { top: index.size }).map((h) => (qrels.get(qid)!.has(h.path) ? h.path : idOf(h.path))),
+      );
     } catch (err) {
       if (!(err instanceof NoKnownTermsError)) throw err;
       runs.set(qid, []);
     }
   }
-  if (runs.size === 0) throw new InvalidInputError(`nothing to evaluate: no query of ${flags.queries} has a relevant document in ${flags.qrels}`);
+  if (runs.size === 0)
+    throw new InvalidInputError(`nothing to evaluate: no query of ${flags.queries} has a relevant document in ${flags.qrels}`);
   const s = evaluateRuns(runs, qrels);
   if (flags.json) io.out(JSON.stringify(s));
   else io.out(`queries ${s.queries}  MAP ${s.map.toFixed(4)}  P@10 ${s.precisionAt10.toFixed(4)}  nDCG@10 ${s.ndcgAt10.toFixed(4)}`);

@@ -25,12 +25,21 @@ import { checkWritableFile, ensureFolder } from '../../node/persist.js';
 import { ensureIndex, type Flags } from '../context.js';
 import { formatCount, type Io } from '../output.js';
 
-export const EXPORT_FILES = { matrix: 'matrix.mtx', terms: 'terms.txt', files: 'files.txt', singularValues: 'singular-values.txt' } as const;
+export const EXPORT_FILES = {
+  matrix: 'matrix.mtx',
+  terms: 'terms.txt',
+  files: 'files.txt',
+  singularValues: 'singular-values.txt',
+} as const;
 
 export async function exportCommand(folder: string, flags: Flags, io: Io): Promise<number> {
   const format = typeof flags.format === 'string' ? flags.format : 'mtx';
-  if (format !== 'mtx' && format !== 'model') throw new InvalidInputError(`--format must be mtx (Matrix Market) or model (a concept model file), got "${format}"`);
-  if (typeof flags.out !== 'string' || flags.out.length === 0) throw new InvalidInputError(`export needs --out ${format === 'model' ? '<file>, the concept model file' : '<dir>, the folder'} to write`);
+  if (format !== 'mtx' && format !== 'model')
+    throw new InvalidInputError(`--format must be mtx (Matrix Market) or model (a concept model file), got "${format}"`);
+  if (typeof flags.out !== 'string' || flags.out.length === 0)
+    throw new InvalidInputError(
+      `export needs --out ${format === 'model' ? '<file>, the concept model file' : '<dir>, the folder'} to write`,
+    );
   const out = resolve(flags.out);
   await ensureFolder(out); // before the build, not after it
   await checkWritableFile(join(out, EXPORT_FILES.matrix));
@@ -38,13 +47,18 @@ export async function exportCommand(folder: string, flags: Flags, io: Io): Promi
   if (format === 'model') {
     const bytes = await writeConceptFile(out, portableFromIndex(index, { withFiles: true }));
     if (flags.json) io.out(JSON.stringify({ out, bytes, k: index.k, terms: index.model.keptIds.length, files: index.size }));
-    else if (!flags.quiet) io.err(`wrote the concept model (k=${index.k}, ${formatCount(index.model.keptIds.length)} terms, ${formatCount(index.size)} files) to ${out}`);
+    else if (!flags.quiet)
+      io.err(
+        `wrote the concept model (k=${index.k}, ${formatCount(index.model.keptIds.length)} terms, ${formatCount(index.size)} files) to ${out}`,
+      );
     return 0;
   }
   const written = await writeExport(index, out);
   if (flags.json) io.out(JSON.stringify({ out, ...written }));
   else if (!flags.quiet) {
-    io.err(`exported ${formatCount(written.terms)} terms × ${formatCount(written.files)} files, ${formatCount(written.nonZeros)} non-zeros to ${out}`);
+    io.err(
+      `exported ${formatCount(written.terms)} terms × ${formatCount(written.files)} files, ${formatCount(written.nonZeros)} non-zeros to ${out}`,
+    );
   }
   return 0;
 }
@@ -52,7 +66,10 @@ export async function exportCommand(folder: string, flags: Flags, io: Io): Promi
 /** The index's live documents (slot order) and their weighted matrix under the frozen model. */
 export function exportedMatrix(index: LsiIndex): { slots: DocSlot[]; terms: string[]; matrix: CsrMatrix } {
   const slots = index.slots().filter((s): s is DocSlot => s !== null);
-  const matrix = modelMatrix(index.model, slots.map((s) => s.terms));
+  const matrix = modelMatrix(
+    index.model,
+    slots.map((s) => s.terms),
+  );
   const terms = Array.from(index.model.keptIds, (id) => index.vocab.termOf(id));
   return { slots, terms, matrix };
 }
@@ -60,8 +77,11 @@ export function exportedMatrix(index: LsiIndex): { slots: DocSlot[]; terms: stri
 export async function writeExport(index: LsiIndex, out: string): Promise<{ terms: number; files: number; nonZeros: number }> {
   await ensureFolder(out);
   const { slots, terms, matrix } = exportedMatrix(index);
-  for (const t of terms) if (/[\r\n]/.test(t)) throw new InvalidInputError('a term contains a line break and cannot be exported one per line');
-  for (const s of slots) if (/[\r\n]/.test(s.meta.path)) throw new InvalidInputError(`the path "${s.meta.path}" contains a line break and cannot be exported one per line`);
+  for (const t of terms)
+    if (/[\r\n]/.test(t)) throw new InvalidInputError('a term contains a line break and cannot be exported one per line');
+  for (const s of slots)
+    if (/[\r\n]/.test(s.meta.path))
+      throw new InvalidInputError(`the path "${s.meta.path}" contains a line break and cannot be exported one per line`);
   const comments = [
     'Undertone weighted term-document matrix: rows are terms (terms.txt), columns are files (files.txt)',
     `weighting ${index.model.scheme}, each file's column scaled to unit length`,

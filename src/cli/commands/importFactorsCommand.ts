@@ -26,32 +26,59 @@ import { EXPORT_FILES, exportedMatrix } from './exportCommand.js';
 export async function importFactorsCommand(folder: string, flags: Flags, io: Io): Promise<number> {
   const need = (name: 'u' | 's' | 'v'): string => {
     const v = flags[name];
-    if (typeof v !== 'string' || v.length === 0) throw new InvalidInputError(`import-factors needs --u U.mtx --s S.txt --v V.mtx (missing --${name})`);
+    if (typeof v !== 'string' || v.length === 0)
+      throw new InvalidInputError(`import-factors needs --u U.mtx --s S.txt --v V.mtx (missing --${name})`);
     return v;
   };
   const [uPath, sPath, vPath] = [need('u'), need('s'), need('v')];
   const indexFile = indexFileFrom(folder, flags);
   const loaded = await loadIndex(indexFile);
   if (loaded.status !== 'ok') {
-    throw new InvalidInputError(`there is no usable saved index for ${folder}${loaded.status === 'damaged' ? ` (${loaded.reason})` : ''}; run "undertone export" first`);
+    throw new InvalidInputError(
+      `there is no usable saved index for ${folder}${loaded.status === 'damaged' ? ` (${loaded.reason})` : ''}; run "undertone export" first`,
+    );
   }
   const index = loaded.index;
   const { slots, terms, matrix } = exportedMatrix(index);
   const termsFile = listFile(flags.terms, uPath, EXPORT_FILES.terms);
   const filesFile = listFile(flags.files, uPath, EXPORT_FILES.files);
   if (termsFile) await expectSameLines(termsFile, terms, 'terms');
-  if (filesFile) await expectSameLines(filesFile, slots.map((s) => s.meta.path), 'files');
+  if (filesFile)
+    await expectSameLines(
+      filesFile,
+      slots.map((s) => s.meta.path),
+      'files',
+    );
 
   const u = await readMatrixFile(uPath, 'U');
   const v = await readMatrixFile(vPath, 'V');
   const s = await readVector(sPath);
   if (u.cols !== v.cols) throw new InvalidInputError(`U has ${u.cols} columns but V has ${v.cols}`);
-  if (u.rows !== terms.length) throw new InvalidInputError(`U has ${u.rows} rows but the index has ${terms.length} terms (rows of the exported matrix)`);
-  if (v.rows !== slots.length) throw new InvalidInputError(`V has ${v.rows} rows but the index has ${slots.length} files (columns of the exported matrix)`);
-  const { model, report } = modelFromFactors(index.model, matrix, { k: u.cols, u: toDense(u), s, v: toDense(v) }, index.settings.conceptScaling);
-  const next = LsiIndex.assemble(index.settings, index.vocab, model, slots.map((slot) => ({ ...slot, folded: false, residual: 0 })));
+  if (u.rows !== terms.length)
+    throw new InvalidInputError(`U has ${u.rows} rows but the index has ${terms.length} terms (rows of the exported matrix)`);
+  if (v.rows !== slots.length)
+    throw new InvalidInputError(`V has ${v.rows} rows but the index has ${slots.length} files (columns of the exported matrix)`);
+  const { model, report } = modelFromFactors(
+    index.model,
+    matrix,
+    { k: u.cols, u: toDense(u), s, v: toDense(v) },
+    index.settings.conceptScaling,
+  );
+  const next = LsiIndex.assemble(
+    index.settings,
+    index.vocab,
+    model,
+    slots.map((slot) => ({ ...slot, folded: false, residual: 0 })),
+  );
   await saveIndex(indexFile, next);
-  const summary = { k: report.k, orthogonalityError: report.orthogonalityError, documentResidual: report.documentResidual, termResidual: report.termResidual, files: slots.length, terms: terms.length };
+  const summary = {
+    k: report.k,
+    orthogonalityError: report.orthogonalityError,
+    documentResidual: report.documentResidual,
+    termResidual: report.termResidual,
+    files: slots.length,
+    terms: terms.length,
+  };
   if (flags.json) io.out(JSON.stringify(summary));
   else if (!flags.quiet) {
     io.err(

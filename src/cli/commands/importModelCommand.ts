@@ -10,7 +10,8 @@ import { ensureIndex, type Flags } from '../context.js';
 import { formatCount, type Io } from '../output.js';
 
 export async function importModelCommand(folder: string, flags: Flags, io: Io): Promise<number> {
-  if (typeof flags.model !== 'string' || flags.model.length === 0) throw new InvalidInputError('import-model needs --model FILE (a concept model file), or --model none for a local SVD');
+  if (typeof flags.model !== 'string' || flags.model.length === 0)
+    throw new InvalidInputError('import-model needs --model FILE (a concept model file), or --model none for a local SVD');
   const report = await ensureIndex(folder, { ...flags, quiet: true }, io, { force: true });
   const index = report.index;
   const shared = index.settings.sharedModel;

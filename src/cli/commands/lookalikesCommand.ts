@@ -62,9 +62,12 @@ export async function lookalikesCommand(folder: string, flags: Flags, io: Io): P
 function parseThreshold(value: unknown): number {
   if (value === undefined) return DEFAULT_LOOKALIKE_OPTIONS.threshold;
   const t = Number(value);
-  if (!(t > 0 && t <= 1)) throw new InvalidInputError(`--threshold needs a number above 0 and at most 1 (a Jaccard similarity), got "${String(value)}"`);
+  if (!(t > 0 && t <= 1))
+    throw new InvalidInputError(`--threshold needs a number above 0 and at most 1 (a Jaccard similarity), got "${String(value)}"`);
   if (t < DEFAULT_LOOKALIKE_OPTIONS.partialThreshold) {
-    throw new InvalidInputError(`--threshold must be at least ${DEFAULT_LOOKALIKE_OPTIONS.partialThreshold} (where partial copies start), got "${String(value)}"`);
+    throw new InvalidInputError(
+      `--threshold must be at least ${DEFAULT_LOOKALIKE_OPTIONS.partialThreshold} (where partial copies start), got "${String(value)}"`,
+    );
   }
   return t;
 }
@@ -108,7 +111,9 @@ function describe(r: LookalikeReport, threshold: number, top: number, extra: Ext
   if (r.exactGroups.length > 0) {
     lines.push('', `${BAND_TITLES.exact}: ${r.exactGroups.length} group${r.exactGroups.length === 1 ? '' : 's'}, longest text first`);
     r.exactGroups.slice(0, top).forEach((g, i) => {
-      lines.push(`  ${i + 1}. ${g.files.length} identical files, ${g.words} word${g.words === 1 ? '' : 's'} in ${g.sharedLines} line${g.sharedLines === 1 ? '' : 's'} each`);
+      lines.push(
+        `  ${i + 1}. ${g.files.length} identical files, ${g.words} word${g.words === 1 ? '' : 's'} in ${g.sharedLines} line${g.sharedLines === 1 ? '' : 's'} each`,
+      );
       for (const f of g.files) lines.push(`     ${f}`);
     });
     more(r.exactGroups.length, top);
@@ -117,25 +122,37 @@ function describe(r: LookalikeReport, threshold: number, top: number, extra: Ext
     if (pairs.length === 0) return;
     lines.push('', `${title}: ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`);
     const header = [...(retold ? ['cosine', 'margin'] : []), 'jaccard', 'shared', 'file', 'file'];
-    const rows = pairs.slice(0, top).map((p) => [
-      ...(retold ? [(p.cosine ?? 0).toFixed(2), (p.gap ?? 0).toFixed(2)] : []),
-      p.jaccard.toFixed(2),
-      describeShared(p),
-      p.a,
-      p.b,
-    ]);
-    for (const line of formatTable(header, rows, header.map((h) => h !== 'file' && h !== 'shared'))) lines.push(`  ${line}`);
+    const rows = pairs
+      .slice(0, top)
+      .map((p) => [
+        ...(retold ? [(p.cosine ?? 0).toFixed(2), (p.gap ?? 0).toFixed(2)] : []),
+        p.jaccard.toFixed(2),
+        describeShared(p),
+        p.a,
+        p.b,
+      ]);
+    for (const line of formatTable(
+      header,
+      rows,
+      header.map((h) => h !== 'file' && h !== 'shared'),
+    ))
+      lines.push(`  ${line}`);
     more(pairs.length, top);
   };
   section(`${BAND_TITLES.near} (shingle Jaccard ≥ ${threshold})`, r.nearPairs, false);
   section(`${BAND_TITLES.partial} (shingle Jaccard ${DEFAULT_LOOKALIKE_OPTIONS.partialThreshold}–${threshold})`, r.partialPairs, false);
   section(`${BAND_TITLES.retold} (each file's clear nearest neighbour by its words; little text shared)`, r.retoldPairs, true);
   const notes: string[] = [];
-  if (extra.sameFile > 0) notes.push(`${extra.sameFile} path${extra.sameFile === 1 ? ' is a link' : 's are links'} to a file already listed (the same file, not a copy)`);
+  if (extra.sameFile > 0)
+    notes.push(
+      `${extra.sameFile} path${extra.sameFile === 1 ? ' is a link' : 's are links'} to a file already listed (the same file, not a copy)`,
+    );
   if (s.emptyFiles > 0) notes.push(`${s.emptyFiles} empty file${s.emptyFiles === 1 ? '' : 's'} ignored`);
-  if (s.skippedShort > 0) notes.push(`${s.skippedShort} file${s.skippedShort === 1 ? '' : 's'} too short for near-copy search (fewer words than one shingle)`);
+  if (s.skippedShort > 0)
+    notes.push(`${s.skippedShort} file${s.skippedShort === 1 ? '' : 's'} too short for near-copy search (fewer words than one shingle)`);
   if (extra.unreadable > 0) notes.push(`${extra.unreadable} indexed file${extra.unreadable === 1 ? '' : 's'} could not be read again`);
-  if (s.cappedBuckets > 0) notes.push(`${s.cappedBuckets} very large candidate bucket${s.cappedBuckets === 1 ? ' was' : 's were'} paired by neighbourhood only`);
+  if (s.cappedBuckets > 0)
+    notes.push(`${s.cappedBuckets} very large candidate bucket${s.cappedBuckets === 1 ? ' was' : 's were'} paired by neighbourhood only`);
   if (notes.length > 0) lines.push('', `Note: ${notes.join('; ')}.`);
   return lines;
 }

@@ -39,7 +39,8 @@ export async function mapCommand(folder: string, flags: Flags, io: Io): Promise<
   await checkWritableFile(out); // before the build, not after it
   const layout = parseLayout(flags.layout);
   const topicCount = positiveInt(flags.topics, 'topics');
-  if (topicCount !== undefined && topicCount > 1000) throw new InvalidInputError(`--topics ${topicCount} is more than a legend can show; pick at most 1000`);
+  if (topicCount !== undefined && topicCount > 1000)
+    throw new InvalidInputError(`--topics ${topicCount} is more than a legend can show; pick at most 1000`);
   const maxTerms = positiveInt(flags['max-terms'], 'max-terms') ?? DEFAULT_EMBEDDED_VOCABULARY_OPTIONS.maxTerms;
   const page = await readMapPage();
   const started = performance.now();
@@ -48,7 +49,9 @@ export async function mapCommand(folder: string, flags: Flags, io: Io): Promise<
 
   const { index } = await ensureIndex(folder, flags, io);
   if (!quiet && JSON.stringify(index.settings.tokenize) !== JSON.stringify(DEFAULT_TOKENIZE_OPTIONS)) {
-    io.err('note: this index splits words with non-default settings; the map file’s search box uses the default tokenizer, so some words may not be found.');
+    io.err(
+      'note: this index splits words with non-default settings; the map file’s search box uses the default tokenizer, so some words may not be found.',
+    );
   }
   stage('finding topics');
   const topics = findTopics(index, { topics: topicCount, seed: index.settings.seed });
@@ -62,7 +65,9 @@ export async function mapCommand(folder: string, flags: Flags, io: Io): Promise<
       : computeMapLayouts(source.vectors, source.count, source.dimensions, { faithful: { seed: index.settings.seed } });
   stage('writing the page');
   const vocabulary = embeddedSourceFromIndex(index, source, layouts.quick, { maxTerms });
-  const data = buildMapPageData(source, layouts, buildEmbeddedQueryData(vocabulary), { title: `Concept map · ${basename(resolve(folder))}` });
+  const data = buildMapPageData(source, layouts, buildEmbeddedQueryData(vocabulary), {
+    title: `Concept map · ${basename(resolve(folder))}`,
+  });
   const bytes = Buffer.from(buildStandaloneHtml({ script: page.script, styles: page.styles, data }), 'utf8');
   await writeFileAtomic(out, bytes);
   stage(null);
@@ -80,9 +85,14 @@ export async function mapCommand(folder: string, flags: Flags, io: Io): Promise<
   };
   if (flags.json) io.out(JSON.stringify(summary));
   else {
-    const terms = summary.searchTerms < summary.modelTerms ? `${formatCount(summary.searchTerms)} of ${formatCount(summary.modelTerms)} terms` : `all ${formatCount(summary.modelTerms)} terms`;
+    const terms =
+      summary.searchTerms < summary.modelTerms
+        ? `${formatCount(summary.searchTerms)} of ${formatCount(summary.modelTerms)} terms`
+        : `all ${formatCount(summary.modelTerms)} terms`;
     const layoutNames = `${summary.layouts.join(' + ')} layout${summary.layouts.length > 1 ? 's' : ''}`;
-    io.out(`wrote ${out}: ${formatBytes(summary.bytes)}, ${plural(summary.files, 'file')}, ${plural(summary.topics, 'topic')}, ${layoutNames}, search knows ${terms} (${seconds.toFixed(2)} s)`);
+    io.out(
+      `wrote ${out}: ${formatBytes(summary.bytes)}, ${plural(summary.files, 'file')}, ${plural(summary.topics, 'topic')}, ${layoutNames}, search knows ${terms} (${seconds.toFixed(2)} s)`,
+    );
   }
   return 0;
 }
@@ -93,7 +103,8 @@ function plural(n: number, noun: string): string {
 
 function parseLayout(value: unknown): MapLayoutChoice {
   if (value === undefined) return 'both';
-  if (!MAP_LAYOUT_CHOICES.includes(value as MapLayoutChoice)) throw new InvalidInputError(`--layout must be one of ${MAP_LAYOUT_CHOICES.join(', ')}, got "${String(value)}"`);
+  if (!MAP_LAYOUT_CHOICES.includes(value as MapLayoutChoice))
+    throw new InvalidInputError(`--layout must be one of ${MAP_LAYOUT_CHOICES.join(', ')}, got "${String(value)}"`);
   return value as MapLayoutChoice;
 }
 

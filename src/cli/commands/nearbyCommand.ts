@@ -42,6 +42,7 @@ export async function nearbyCommand(folder: string, file: string | undefined, fl
     const e = why(h.path);
     if (e) io.out(explanationLine(e, forms));
   });
-  if (flags.explain && hits.length > 0) io.out('why: each word\'s share of the similarity (the shares add up to the score); ~ marks a word found in only one of the two files.');
+  if (flags.explain && hits.length > 0)
+    io.out("why: each word's share of the similarity (the shares add up to the score); ~ marks a word found in only one of the two files.");
   return 0;
 }

@@ -26,12 +26,14 @@ const NAME_WORDS = 4;
 export async function topicsCommand(folder: string, flags: Flags, io: Io): Promise<number> {
   const count = parseTopicCount(flags.topics);
   const depthFlag = positiveInt(flags.depth, 'depth');
-  if (depthFlag !== undefined && depthFlag > 10) throw new InvalidInputError(`--depth ${depthFlag} is deeper than anyone reads; pick at most 10`);
+  if (depthFlag !== undefined && depthFlag > 10)
+    throw new InvalidInputError(`--depth ${depthFlag} is deeper than anyone reads; pick at most 10`);
   const depth = depthFlag ?? (flags.json ? DEFAULT_TOPICS_OPTIONS.depth : TEXT_DEPTH);
   const { index } = await ensureIndex(folder, flags, io);
   const sub = typeof flags.in === 'string' ? flags.in : undefined;
   const subFolder = sub?.replace(/^\.\/?/, '').replace(/\/+$/, '');
-  if (subFolder !== undefined && !index.paths().some((p) => inFolder(p, subFolder))) throw new InvalidInputError(`no indexed file lies in "${sub}" (give a folder relative to ${folder})`);
+  if (subFolder !== undefined && !index.paths().some((p) => inFolder(p, subFolder)))
+    throw new InvalidInputError(`no indexed file lies in "${sub}" (give a folder relative to ${folder})`);
   const report = findTopics(index, { topics: count, depth, seed: index.settings.seed });
   const forms = await readForms(folder, report, index.settings.tokenize.stem, flags);
   if (sub !== undefined) {
@@ -39,12 +41,34 @@ export async function topicsCommand(folder: string, flags: Flags, io: Io): Promi
     const got = topicsOfFolder(topicsAtLevel(report.topics, level), [...report.loose.map((l) => l.path), ...report.unplaced], sub);
     if (got.total === 0) throw new InvalidInputError(`no indexed file lies in "${sub}" (give a folder relative to ${folder})`);
     if (flags.json) {
-      io.out(JSON.stringify({ folder: got.folder, files: got.total, outside: got.outside, topics: got.topics.map((t) => ({ path: t.topic.path, name: nameOf(t.topic, forms), files: t.files, shareOfFolder: round(t.shareOfFolder), shareOfTopic: round(t.shareOfTopic) })) }));
+      io.out(
+        JSON.stringify({
+          folder: got.folder,
+          files: got.total,
+          outside: got.outside,
+          topics: got.topics.map((t) => ({
+            path: t.topic.path,
+            name: nameOf(t.topic, forms),
+            files: t.files,
+            shareOfFolder: round(t.shareOfFolder),
+            shareOfTopic: round(t.shareOfTopic),
+          })),
+        }),
+      );
       return 0;
     }
-    io.out(`${got.folder || '(top)'}: ${got.total} file${got.total === 1 ? '' : 's'} in ${got.topics.length} topic${got.topics.length === 1 ? '' : 's'} (level ${level})${got.outside > 0 ? `, ${got.outside} in no topic` : ''}`);
-    const rows = got.topics.map((t) => [String(t.files), pct(t.shareOfFolder), `${pct(t.shareOfTopic)} of ${t.topic.size}`, t.topic.path, nameOf(t.topic, forms)]);
-    for (const line of formatTable(['files', 'of folder', 'of topic', 'topic', 'named'], rows, [true, true, true, false, false])) io.out(`  ${line}`);
+    io.out(
+      `${got.folder || '(top)'}: ${got.total} file${got.total === 1 ? '' : 's'} in ${got.topics.length} topic${got.topics.length === 1 ? '' : 's'} (level ${level})${got.outside > 0 ? `, ${got.outside} in no topic` : ''}`,
+    );
+    const rows = got.topics.map((t) => [
+      String(t.files),
+      pct(t.shareOfFolder),
+      `${pct(t.shareOfTopic)} of ${t.topic.size}`,
+      t.topic.path,
+      nameOf(t.topic, forms),
+    ]);
+    for (const line of formatTable(['files', 'of folder', 'of topic', 'topic', 'named'], rows, [true, true, true, false, false]))
+      io.out(`  ${line}`);
     return 0;
   }
   if (flags.json) {
@@ -74,7 +98,12 @@ async function readForms(folder: string, report: TopicsReport, stem: boolean, fl
 }
 
 function nameOf(t: Topic, forms: SurfaceForms): string {
-  return t.terms.slice(0, NAME_WORDS).map((x) => forms.wordFor(x.term)).join(', ') || '(no distinctive words)';
+  return (
+    t.terms
+      .slice(0, NAME_WORDS)
+      .map((x) => forms.wordFor(x.term))
+      .join(', ') || '(no distinctive words)'
+  );
 }
 
 function foldersJson(f: readonly FolderShare[]) {
@@ -103,13 +132,20 @@ function toJson(r: TopicsReport, forms: SurfaceForms): unknown {
     levels: r.levels,
     loose: r.loose.map((l) => ({ path: l.path, nearest: l.nearest, similarity: round(l.similarity), overall: round(l.overall) })),
     unplaced: r.unplaced,
-    count: { topics: r.count.topics, chosen: r.count.chosen, silhouettes: r.count.scores.map((s) => ({ topics: s.topics, silhouette: round(s.silhouette) })) },
+    count: {
+      topics: r.count.topics,
+      chosen: r.count.chosen,
+      silhouettes: r.count.scores.map((s) => ({ topics: s.topics, silhouette: round(s.silhouette) })),
+    },
     cur: { ...r.cur, errorRatio: r.cur.errorRatio === null ? null : round(r.cur.errorRatio) },
   };
 }
 
 const pct = (x: number) => `${Math.round(x * 100)}%`;
-const where = (f: readonly FolderShare[]) => (f.length > 0 ? `in ${f.map((x) => `${x.folder === '' ? '(top)' : `${x.folder}/`} ${pct(x.share)}`).join(', ')}` : 'spread over many folders');
+const where = (f: readonly FolderShare[]) =>
+  f.length > 0
+    ? `in ${f.map((x) => `${x.folder === '' ? '(top)' : `${x.folder}/`} ${pct(x.share)}`).join(', ')}`
+    : 'spread over many folders';
 
 function describe(r: TopicsReport, files: number, forms: SurfaceForms, depth: number): string[] {
   const lines: string[] = [];
@@ -142,11 +178,18 @@ function describe(r: TopicsReport, files: number, forms: SurfaceForms, depth: nu
   }
   if (r.loose.length > 0) {
     lines.push('');
-    lines.push(`${r.loose.length} file${r.loose.length === 1 ? ' fits' : 's fit'} no topic well (no closer to any topic than to the workspace as a whole): ${r.loose.slice(0, 5).map((l) => l.path).join(', ')}${r.loose.length > 5 ? ', …' : ''}`);
+    lines.push(
+      `${r.loose.length} file${r.loose.length === 1 ? ' fits' : 's fit'} no topic well (no closer to any topic than to the workspace as a whole): ${r.loose
+        .slice(0, 5)
+        .map((l) => l.path)
+        .join(', ')}${r.loose.length > 5 ? ', …' : ''}`,
+    );
   }
   if (r.unplaced.length > 0) {
     lines.push('');
-    lines.push(`${r.unplaced.length} file${r.unplaced.length === 1 ? ' has' : 's have'} no indexed words and no topic: ${r.unplaced.slice(0, 5).join(', ')}${r.unplaced.length > 5 ? ', …' : ''}`);
+    lines.push(
+      `${r.unplaced.length} file${r.unplaced.length === 1 ? ' has' : 's have'} no indexed words and no topic: ${r.unplaced.slice(0, 5).join(', ')}${r.unplaced.length > 5 ? ', …' : ''}`,
+    );
   }
   return lines;
 }

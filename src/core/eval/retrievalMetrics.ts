@@ -40,8 +40,14 @@ export interface EvaluationSummary {
 }
 
 /** Averages the three measures over the queries that have judgments. */
-export function evaluateRuns(runs: ReadonlyMap<string, readonly string[]>, qrels: ReadonlyMap<string, ReadonlySet<string>>): EvaluationSummary {
-  let n = 0, ap = 0, p10 = 0, nd = 0;
+export function evaluateRuns(
+  runs: ReadonlyMap<string, readonly string[]>,
+  qrels: ReadonlyMap<string, ReadonlySet<string>>,
+): EvaluationSummary {
+  let n = 0,
+    ap = 0,
+    p10 = 0,
+    nd = 0;
   for (const [qid, relevant] of qrels) {
     if (relevant.size === 0) continue;
     const ranked = runs.get(qid) ?? [];

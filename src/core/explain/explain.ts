@@ -63,7 +63,12 @@ export class QueryExplainer {
    * blend = false explains the concept cosine of the text alone (no lexical part, no feedback).
    * `feedback` passes the like/unlike files of the search being explained.
    */
-  constructor(private readonly _index: LsiIndex, text: string, blend = true, feedback: Pick<SearchOptions, 'like' | 'unlike'> = {}) {
+  constructor(
+    private readonly _index: LsiIndex,
+    text: string,
+    blend = true,
+    feedback: Pick<SearchOptions, 'like' | 'unlike'> = {},
+  ) {
     const plan = blend ? _index.searchPlan(text, feedback) : null;
     const q = plan ? plan.terms : _index.queryTerms(text);
     if (q.termIds.length === 0 && !plan) throw new NoKnownTermsError(text);
@@ -101,7 +106,8 @@ export class QueryExplainer {
     this._rows.forEach(({ id, r }, i) => {
       const concept = r ? this._conceptWeight * this._scale * dotF(r, d) : 0;
       const tf = countOf(doc, id);
-      const lexical = this._lambda > 0 && this._maxBm25 > 0 ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot)) / this._maxBm25 : 0;
+      const lexical =
+        this._lambda > 0 && this._maxBm25 > 0 ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot)) / this._maxBm25 : 0;
       if (concept !== 0 || lexical !== 0) out.push({ term: vocab.termOf(id), share: concept + lexical, concept, lexical, inBoth: tf > 0 });
     });
     return finish(out, this._moved ? this._conceptWeight * dotF(this._moved, d) : 0);
@@ -125,17 +131,21 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
     if (!e) merged.set(id, (e = { concept: 0, lexical: 0 }));
     return e;
   };
-  for (const [terms, other] of [[a, vb], [b, va]] as const) {
+  for (const [terms, other] of [
+    [a, vb],
+    [b, va],
+  ] as const) {
     for (const { id, r } of conceptRows(index, terms).rows) if (r) entry(id).concept += (1 - mu) * 0.5 * dotF(r, other);
   }
   if (mu > 0) {
     const { lexicalQuery, max } = index.nearbyPlan(pathA);
     const slotB = index.slots().findIndex((s) => s?.meta.path === pathB);
     const bm25 = index.bm25();
-    if (max > 0) lexicalQuery.termIds.forEach((id, i) => {
-      const tf = countOf(b, id);
-      if (tf > 0) entry(id).lexical += (mu * bm25.termScore(id, lexicalQuery.counts[i], tf, slotB)) / max;
-    });
+    if (max > 0)
+      lexicalQuery.termIds.forEach((id, i) => {
+        const tf = countOf(b, id);
+        if (tf > 0) entry(id).lexical += (mu * bm25.termScore(id, lexicalQuery.counts[i], tf, slotB)) / max;
+      });
   }
   const out: TermShare[] = [];
   for (const [id, { concept, lexical }] of merged) {

@@ -41,7 +41,10 @@ export function sharedConcepts(index: LsiIndex, a: string, b: string, options: P
   const k = index.k;
   const parts = Array.from({ length: k }, (_, j) => ({ axis: j, share: va[j] * vb[j] }));
   const score = parts.reduce((s, p) => s + p.share, 0);
-  const chosen = [...parts].sort((x, y) => y.share - x.share || x.axis - y.axis).slice(0, o.top).filter((p) => p.share > 0);
+  const chosen = [...parts]
+    .sort((x, y) => y.share - x.share || x.axis - y.axis)
+    .slice(0, o.top)
+    .filter((p) => p.share > 0);
   const model = index.model;
   const columns = (path: string) => {
     const out = new Set<number>();

@@ -16,7 +16,15 @@
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
 import { Bm25Scorer } from './search/bm25.js';
-import { DEFAULT_RANKING_OPTIONS, QUESTION_FILLER, distinctiveTerms, mergeTerms, rocchio, stripPointing, type RankingOptions } from './search/fusion.js';
+import {
+  DEFAULT_RANKING_OPTIONS,
+  QUESTION_FILLER,
+  distinctiveTerms,
+  mergeTerms,
+  rocchio,
+  stripPointing,
+  type RankingOptions,
+} from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
@@ -28,8 +36,24 @@ import { topN } from './search/topN.js';
 
 export type { Staleness, StalenessCounters } from './update/staleness.js';
 
-export { DEFAULT_PREPARE_OPTIONS, type DocMeta, type DocSlot, type NearbyHit, type PrepareOptions, type SearchHit, type SearchOptions } from './searchTypes.js';
-import { DEFAULT_PREPARE_OPTIONS, type DocMeta, type DocSlot, type NearbyHit, type PrepareOptions, type SearchHit, type SearchOptions } from './searchTypes.js';
+export {
+  DEFAULT_PREPARE_OPTIONS,
+  type DocMeta,
+  type DocSlot,
+  type NearbyHit,
+  type PrepareOptions,
+  type SearchHit,
+  type SearchOptions,
+} from './searchTypes.js';
+import {
+  DEFAULT_PREPARE_OPTIONS,
+  type DocMeta,
+  type DocSlot,
+  type NearbyHit,
+  type PrepareOptions,
+  type SearchHit,
+  type SearchOptions,
+} from './searchTypes.js';
 
 /** What a search ranks with (LsiIndex.searchPlan). */
 export interface SearchPlan {
@@ -70,7 +94,13 @@ export class LsiIndex {
   }
 
   /** Builds the document vectors of a fresh model (used by IndexBuilder and by loading). */
-  static assemble(settings: IndexSettings, vocab: Vocabulary, model: ConceptModel, slots: (DocSlot | null)[], vectors?: Float32Array): LsiIndex {
+  static assemble(
+    settings: IndexSettings,
+    vocab: Vocabulary,
+    model: ConceptModel,
+    slots: (DocSlot | null)[],
+    vectors?: Float32Array,
+  ): LsiIndex {
     const k = model.k;
     if (vectors && vectors.length < slots.length * k) throw new InvalidInputError('concept vectors do not cover every document');
     const rows = new ConceptRows(k, slots.length, vectors?.subarray(0, slots.length * k));
@@ -131,7 +161,11 @@ export class LsiIndex {
     if (this.ranking.dropFiller) {
       this._filler ??= new Set(tokenize(QUESTION_FILLER.join(' '), this.settings.tokenize));
       const filler = this._filler;
-      const kept = countTerms(tokenize(stripPointing(text), this.settings.tokenize).filter((t) => !filler.has(t)), this.vocab, false);
+      const kept = countTerms(
+        tokenize(stripPointing(text), this.settings.tokenize).filter((t) => !filler.has(t)),
+        this.vocab,
+        false,
+      );
       if (kept.termIds.length > 0) return kept;
     }
     return countTerms(tokens, this.vocab, false);
@@ -152,8 +186,21 @@ export class LsiIndex {
     const plan = this.searchPlan(text, options);
     const { lexical, accept } = plan;
     const lambda = plan.lambda;
-    const { ranked, product } = this.rank(plan.vector, plan.known ? 1 - lambda : 0, lambda, lexical, options.top ?? 10, accept, this._scratch.subarray(this._slots.length, 2 * this._slots.length));
-    return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
+    const { ranked, product } = this.rank(
+      plan.vector,
+      plan.known ? 1 - lambda : 0,
+      lambda,
+      lexical,
+      options.top ?? 10,
+      accept,
+      this._scratch.subarray(this._slots.length, 2 * this._slots.length),
+    );
+    return ranked.map(({ slot, score }) => ({
+      path: this._slots[slot]!.meta.path,
+      score,
+      conceptScore: product(slot),
+      lexicalScore: lexical[slot],
+    }));
   }
 
   /**
@@ -214,8 +261,21 @@ export class LsiIndex {
     const n = this._slots.length;
     const mu = this.ranking.nearbyLexical;
     const { lexical } = this.nearbyPlan(path);
-    const { ranked, product } = this.rank(this.vectorOf(path), 1 - mu, mu, lexical, options.top ?? 10, accept, this._scratch.subarray(n, 2 * n));
-    return ranked.map(({ slot, score }) => ({ path: this._slots[slot]!.meta.path, score, conceptScore: product(slot), lexicalScore: lexical[slot] }));
+    const { ranked, product } = this.rank(
+      this.vectorOf(path),
+      1 - mu,
+      mu,
+      lexical,
+      options.top ?? 10,
+      accept,
+      this._scratch.subarray(n, 2 * n),
+    );
+    return ranked.map(({ slot, score }) => ({
+      path: this._slots[slot]!.meta.path,
+      score,
+      conceptScore: product(slot),
+      lexicalScore: lexical[slot],
+    }));
   }
 
   /**
@@ -267,10 +327,21 @@ export class LsiIndex {
    * Top N of a·(v_j·q) + b·lexical_j over accepted slots: screened with the 8-bit codes when they
    * are ready (the same ranking and scores as a full pass), else a full pass into `scratch`.
    */
-  private rank(q: Float32Array, a: number, b: number, lexical: Float64Array, top: number, accept: (slot: number) => boolean, scratch: Float64Array): { ranked: { slot: number; score: number }[]; product: (slot: number) => number } {
+  private rank(
+    q: Float32Array,
+    a: number,
+    b: number,
+    lexical: Float64Array,
+    top: number,
+    accept: (slot: number) => boolean,
+    scratch: Float64Array,
+  ): { ranked: { slot: number; score: number }[]; product: (slot: number) => number } {
     const codes = this.codes();
     const n = this._slots.length;
-    const screened = codes && a > 0 && screenedTop({ codes, rows: this._rows, q, n, top, accept, a, ...(b > 0 ? { extra: { b, values: lexical } } : {}) }, this._screen);
+    const screened =
+      codes &&
+      a > 0 &&
+      screenedTop({ codes, rows: this._rows, q, n, top, accept, a, ...(b > 0 ? { extra: { b, values: lexical } } : {}) }, this._screen);
     if (screened) return { ranked: screened.ranked, product: (slot) => screened.product(slot) };
     const concept = this.liveDots(q);
     blend(a, concept, b, lexical, scratch);
@@ -384,7 +455,11 @@ export class LsiIndex {
 
   /** The lexical scorer over all current documents (made on first use, then kept up to date). */
   bm25(): Bm25Scorer {
-    if (!this._bm25) this._bm25 = new Bm25Scorer(this._slots.map((s) => s?.terms ?? null), { b: this.ranking.lengthNorm });
+    if (!this._bm25)
+      this._bm25 = new Bm25Scorer(
+        this._slots.map((s) => s?.terms ?? null),
+        { b: this.ranking.lengthNorm },
+      );
     return this._bm25;
   }
 

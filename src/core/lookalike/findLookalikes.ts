@@ -182,7 +182,12 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   const termLists = collapse((t) => ({ index: nb.index.subarray(t * K, t * K + K), cosine: nb.cosine.subarray(t * K, t * K + K) }));
   const rule = { minCosine: o.retoldMinCosine, minGap: o.retoldMinGap };
   const retold = findRetoldPairs({ ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard }, rule);
-  const retoldPairs = retold.map((p) => ({ ...pairOf('retold', p.a, p.b, jac(p.a, p.b)), similarity: p.cosine, cosine: p.cosine, gap: p.gap }));
+  const retoldPairs = retold.map((p) => ({
+    ...pairOf('retold', p.a, p.b, jac(p.a, p.b)),
+    similarity: p.cosine,
+    cosine: p.cosine,
+    gap: p.gap,
+  }));
 
   return {
     exactGroups,

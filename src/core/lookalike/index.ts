@@ -1,15 +1,7 @@
 /** Look-alike (near-duplicate) detection: public API. */
 export { findLookalikes } from './findLookalikes.js';
 export { DEFAULT_LOOKALIKE_OPTIONS, resolveLookalikeOptions, type LookalikeOptions } from './options.js';
-export type {
-  ExactGroup,
-  LookalikeFile,
-  OverlapBand,
-  LookalikeInput,
-  LookalikePair,
-  LookalikeReport,
-  LookalikeStats,
-} from './types.js';
+export type { ExactGroup, LookalikeFile, OverlapBand, LookalikeInput, LookalikePair, LookalikeReport, LookalikeStats } from './types.js';
 export { BAND_TITLES } from './types.js';
 export { buildTermSpace, termNeighbours, rowCosine, type TermSpace, type Neighbours } from './termSpace.js';
 export { findRetoldPairs, boilerplateLines, withoutBoilerplate, type RetoldPair } from './retold.js';

@@ -57,12 +57,14 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
   }
   unitInterval('threshold', o.threshold);
   unitInterval('partialThreshold', o.partialThreshold);
-  if (o.partialThreshold > o.threshold) throw new InvalidInputError(`partialThreshold (${o.partialThreshold}) must not exceed threshold (${o.threshold})`);
+  if (o.partialThreshold > o.threshold)
+    throw new InvalidInputError(`partialThreshold (${o.partialThreshold}) must not exceed threshold (${o.threshold})`);
   unitInterval('retoldMinCosine', o.retoldMinCosine);
   if (!(o.retoldMinGap >= 0 && o.retoldMinGap <= 1)) throw new InvalidInputError(`retoldMinGap must be in [0, 1], got ${o.retoldMinGap}`);
   positiveInteger('neighbours', o.neighbours);
   unitInterval('retoldMaxJaccard', o.retoldMaxJaccard);
-  if (o.retoldMaxJaccard > o.partialThreshold) throw new InvalidInputError(`retoldMaxJaccard (${o.retoldMaxJaccard}) must not exceed partialThreshold (${o.partialThreshold})`);
+  if (o.retoldMaxJaccard > o.partialThreshold)
+    throw new InvalidInputError(`retoldMaxJaccard (${o.retoldMaxJaccard}) must not exceed partialThreshold (${o.partialThreshold})`);
   positiveInteger('boilerplateFiles', o.boilerplateFiles);
   if (o.boilerplateFiles < 2) throw new InvalidInputError(`boilerplateFiles must be at least 2, got ${o.boilerplateFiles}`);
   positiveInteger('maxBucketSize', o.maxBucketSize);

@@ -34,7 +34,13 @@ export interface BridgeOptions {
   readonly lengthScale: number;
 }
 
-export const DEFAULT_BRIDGE_OPTIONS: BridgeOptions = { partners: 3, sampleSize: 32, maxRepresentatives: 4096, refineSteps: 4, lengthScale: 1 };
+export const DEFAULT_BRIDGE_OPTIONS: BridgeOptions = {
+  partners: 3,
+  sampleSize: 32,
+  maxRepresentatives: 4096,
+  refineSteps: 4,
+  lengthScale: 1,
+};
 
 export function bridgeComponents(
   v: RowVectors,
@@ -95,7 +101,16 @@ export function bridgeComponents(
 }
 
 /** Alternate nearest-member searches between two parts, starting from pair (a, b). */
-function refine(v: RowVectors, norms: Float64Array, own: Int32Array, other: Int32Array, a: number, b: number, d: number, steps: number): ExtraEdge {
+function refine(
+  v: RowVectors,
+  norms: Float64Array,
+  own: Int32Array,
+  other: Int32Array,
+  a: number,
+  b: number,
+  d: number,
+  steps: number,
+): ExtraEdge {
   for (let s = 0; s < steps; s++) {
     const [a2] = nearestIn(v, norms, own, b);
     const [b2, d2] = nearestIn(v, norms, other, a2);

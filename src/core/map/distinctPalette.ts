@@ -51,7 +51,7 @@ export function srgbToLab(c: readonly [number, number, number]): Lab {
   const x = (0.4124564 * r + 0.3575761 * g + 0.1804375 * b) / 0.95047;
   const y = 0.2126729 * r + 0.7151522 * g + 0.072175 * b;
   const z = (0.0193339 * r + 0.119192 * g + 0.9503041 * b) / 1.08883;
-  const f = (t: number) => (t > 216 / 24389 ? Math.cbrt(t) : (24389 / 27 * t + 16) / 116);
+  const f = (t: number) => (t > 216 / 24389 ? Math.cbrt(t) : ((24389 / 27) * t + 16) / 116);
   const [fx, fy, fz] = [f(x), f(y), f(z)];
   return [116 * fy - 16, 500 * (fx - fy), 200 * (fy - fz)];
 }
@@ -69,7 +69,7 @@ export function ciede2000(p: Lab, q: Lab): number {
   const a2p = (1 + G) * a2;
   const C1p = Math.hypot(a1p, b1);
   const C2p = Math.hypot(a2p, b2);
-  const hue = (b: number, a: number) => (b === 0 && a === 0 ? 0 : ((Math.atan2(b, a) / rad) + 360) % 360);
+  const hue = (b: number, a: number) => (b === 0 && a === 0 ? 0 : (Math.atan2(b, a) / rad + 360) % 360);
   const h1p = hue(b1, a1p);
   const h2p = hue(b2, a2p);
   const dLp = L2 - L1;
@@ -88,7 +88,12 @@ export function ciede2000(p: Lab, q: Lab): number {
     if (Math.abs(h1p - h2p) <= 180) hbp = (h1p + h2p) / 2;
     else hbp = h1p + h2p < 360 ? (h1p + h2p + 360) / 2 : (h1p + h2p - 360) / 2;
   }
-  const T = 1 - 0.17 * Math.cos((hbp - 30) * rad) + 0.24 * Math.cos(2 * hbp * rad) + 0.32 * Math.cos((3 * hbp + 6) * rad) - 0.2 * Math.cos((4 * hbp - 63) * rad);
+  const T =
+    1 -
+    0.17 * Math.cos((hbp - 30) * rad) +
+    0.24 * Math.cos(2 * hbp * rad) +
+    0.32 * Math.cos((3 * hbp + 6) * rad) -
+    0.2 * Math.cos((4 * hbp - 63) * rad);
   const dTheta = 30 * Math.exp(-(((hbp - 275) / 25) ** 2));
   const Cbp7 = Cbp ** 7;
   const Rc = 2 * Math.sqrt(Cbp7 / (Cbp7 + 25 ** 7));
@@ -151,7 +156,11 @@ export function distinctColours(background: Rgb, options: Partial<DistinctPalett
 }
 
 /** Colour and dot shape (0 circle, 1 square, 2 triangle, …) of each of `count` topics. */
-export function topicStyles(count: number, background: Rgb, options: Partial<DistinctPaletteOptions> = {}): { colours: Rgb[]; shapes: number[] } {
+export function topicStyles(
+  count: number,
+  background: Rgb,
+  options: Partial<DistinctPaletteOptions> = {},
+): { colours: Rgb[]; shapes: number[] } {
   const base = distinctColours(background, options);
   const n = Math.max(1, base.length);
   return {

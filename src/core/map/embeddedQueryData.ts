@@ -50,9 +50,11 @@ export function buildEmbeddedQueryData(src: EmbeddedQuerySource, options: Partia
   const opts = { ...DEFAULT_EMBEDDED_QUERY_OPTIONS, ...options };
   const m = src.terms.length;
   const k = src.dimensions;
-  if (src.termVectors.length !== m * k) throw new InvalidInputError(`term vectors hold ${src.termVectors.length} numbers for ${m} terms × ${k}`);
+  if (src.termVectors.length !== m * k)
+    throw new InvalidInputError(`term vectors hold ${src.termVectors.length} numbers for ${m} terms × ${k}`);
   if (src.globalWeights.length !== m) throw new InvalidInputError(`${src.globalWeights.length} global weights for ${m} terms`);
-  if (src.quick.mean.length !== k || src.quick.axes.length !== 2 * k) throw new InvalidInputError('quick projection does not match the dimensions');
+  if (src.quick.mean.length !== k || src.quick.axes.length !== 2 * k)
+    throw new InvalidInputError('quick projection does not match the dimensions');
   return {
     dimensions: k,
     files: encodeQuantizedRows(quantizeRows(src.fileVectors, src.count, k)),

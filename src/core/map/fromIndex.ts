@@ -43,7 +43,8 @@ export function liveSlots(index: LsiIndex): DocSlot[] {
 
 export function mapSourceFromIndex(index: LsiIndex, topics: TopicsReport | null, options: Partial<MapFromIndexOptions> = {}): MapSource {
   const opts = { ...DEFAULT_MAP_FROM_INDEX_OPTIONS, ...options };
-  if (!Number.isInteger(opts.termsPerFile) || opts.termsPerFile < 0) throw new InvalidInputError(`terms per file must be a whole number, got ${opts.termsPerFile}`);
+  if (!Number.isInteger(opts.termsPerFile) || opts.termsPerFile < 0)
+    throw new InvalidInputError(`terms per file must be a whole number, got ${opts.termsPerFile}`);
   const word = opts.wordFor ?? ((t: string) => t);
   const k = index.k;
   const all = index.vectors();
@@ -92,7 +93,11 @@ export function topicLabel(topic: Topic, words: number, wordFor: (term: string) 
   return shown.length > 0 ? shown.join(', ') : 'no distinctive words';
 }
 
-function topicsOf(paths: readonly string[], report: TopicsReport | null, label: (t: Topic) => string): { topicIds: Int32Array; topicLabels: string[] } {
+function topicsOf(
+  paths: readonly string[],
+  report: TopicsReport | null,
+  label: (t: Topic) => string,
+): { topicIds: Int32Array; topicLabels: string[] } {
   const topicIds = new Int32Array(paths.length).fill(-1);
   if (!report) return { topicIds, topicLabels: [] };
   const rowOf = new Map(paths.map((p, i) => [p, i]));
@@ -123,7 +128,8 @@ export function embeddedSourceFromIndex(
   options: Partial<EmbeddedVocabularyOptions> = {},
 ): EmbeddedQuerySource & { readonly modelTerms: number } {
   const { maxTerms } = { ...DEFAULT_EMBEDDED_VOCABULARY_OPTIONS, ...options };
-  if (!Number.isInteger(maxTerms) || maxTerms < 1) throw new InvalidInputError(`the page vocabulary needs at least one term, got ${maxTerms}`);
+  if (!Number.isInteger(maxTerms) || maxTerms < 1)
+    throw new InvalidInputError(`the page vocabulary needs at least one term, got ${maxTerms}`);
   const { model, vocab } = index;
   const k = model.k;
   const columns = frequentColumns(index, maxTerms);

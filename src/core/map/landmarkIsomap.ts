@@ -55,7 +55,12 @@ export interface FaithfulLayout {
   readonly bridgeCount: number;
 }
 
-export function landmarkIsomap(vectors: Float32Array, n: number, dim: number, options: Partial<LandmarkIsomapOptions> = {}): FaithfulLayout {
+export function landmarkIsomap(
+  vectors: Float32Array,
+  n: number,
+  dim: number,
+  options: Partial<LandmarkIsomapOptions> = {},
+): FaithfulLayout {
   const opts = { ...DEFAULT_LANDMARK_ISOMAP_OPTIONS, ...options };
   if (!Number.isInteger(opts.landmarks) || opts.landmarks < 4) {
     throw new InvalidInputError(`landmark Isomap needs at least 4 landmarks for a 2-D map, got ${opts.landmarks}`);

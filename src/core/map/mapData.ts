@@ -50,7 +50,8 @@ export function checkMapSource(s: MapSource): void {
     }
   }
   if (!(s.totalEnergy > 0)) problems.push(`total energy must be positive, got ${s.totalEnergy}`);
-  if (!Number.isInteger(s.k) || s.k < 0 || s.k > s.singularValues.length) problems.push(`k=${s.k} does not fit ${s.singularValues.length} singular values`);
+  if (!Number.isInteger(s.k) || s.k < 0 || s.k > s.singularValues.length)
+    problems.push(`k=${s.k} does not fit ${s.singularValues.length} singular values`);
   if (problems.length > 0) throw new InvalidInputError(`map input is inconsistent: ${problems.join('; ')}`);
 }
 
@@ -145,7 +146,8 @@ export function pageDataProblems(d: unknown): string[] {
   if (m.topicTree !== undefined) out.push(...mapTopicTreeProblems(m.topicTree, n));
   const checkLayout = (l: unknown, name: string) => {
     const p = l as PageLayout;
-    if (!Array.isArray(p?.x) || !Array.isArray(p?.y) || p.x.length !== n || p.y.length !== n) out.push(`layout ${name} does not have ${n} points`);
+    if (!Array.isArray(p?.x) || !Array.isArray(p?.y) || p.x.length !== n || p.y.length !== n)
+      out.push(`layout ${name} does not have ${n} points`);
   };
   checkLayout(m.layouts?.quick, 'quick');
   if (m.layouts?.faithful !== null) checkLayout(m.layouts?.faithful, 'faithful');

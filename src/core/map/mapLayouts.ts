@@ -32,7 +32,9 @@ export function computeMapLayouts(vectors: Float32Array, n: number, dim: number,
   const opts = { ...DEFAULT_MAP_LAYOUT_OPTIONS, ...options };
   const quick = quickLayout(vectors, n, dim);
   const faithful =
-    n <= opts.fullIsomapMaxN ? fullIsomap(vectors, n, dim, { graph: opts.faithful.graph, seed: opts.faithful.seed }) : landmarkIsomap(vectors, n, dim, opts.faithful);
+    n <= opts.fullIsomapMaxN
+      ? fullIsomap(vectors, n, dim, { graph: opts.faithful.graph, seed: opts.faithful.seed })
+      : landmarkIsomap(vectors, n, dim, opts.faithful);
   return { quick, faithful: opts.align ? alignFaithful(faithful, quick) : faithful };
 }
 

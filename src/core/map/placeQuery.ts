@@ -27,7 +27,13 @@ export interface QueryPlacement {
 }
 
 /** The count most cosine-similar rows of a unit-row table to q (any length; zero q → none). */
-export function nearestByCosine(data: Float32Array, n: number, dim: number, q: ArrayLike<number>, count: number): { index: Int32Array; similarity: Float32Array } {
+export function nearestByCosine(
+  data: Float32Array,
+  n: number,
+  dim: number,
+  q: ArrayLike<number>,
+  count: number,
+): { index: Int32Array; similarity: Float32Array } {
   if (q.length !== dim) throw new InvalidInputError(`query vector has ${q.length} numbers, the map has ${dim}`);
   let qq = 0;
   for (let c = 0; c < dim; c++) qq += q[c] * q[c];
@@ -53,7 +59,11 @@ export function nearestByCosine(data: Float32Array, n: number, dim: number, q: A
   return { index, similarity };
 }
 
-export function placeQueryFaithful(layout: FaithfulLayout, query: ArrayLike<number>, options: Partial<QueryPlacementOptions> = {}): QueryPlacement | null {
+export function placeQueryFaithful(
+  layout: FaithfulLayout,
+  query: ArrayLike<number>,
+  options: Partial<QueryPlacementOptions> = {},
+): QueryPlacement | null {
   const opts = { ...DEFAULT_QUERY_PLACEMENT_OPTIONS, ...options };
   const { n, dim, data } = layout.vectors;
   const near = nearestByCosine(data, n, dim, query, opts.neighbours);

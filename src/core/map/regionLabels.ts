@@ -26,7 +26,13 @@ function median(values: number[]): number {
   return values.length % 2 ? values[m] : (values[m - 1] + values[m]) / 2;
 }
 
-export function regionAnchors(x: ArrayLike<number>, y: ArrayLike<number>, topicIds: ArrayLike<number>, topicCount: number, options: Partial<RegionLabelOptions> = {}): RegionAnchor[] {
+export function regionAnchors(
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  topicIds: ArrayLike<number>,
+  topicCount: number,
+  options: Partial<RegionLabelOptions> = {},
+): RegionAnchor[] {
   const o = { ...DEFAULT_REGION_LABEL_OPTIONS, ...options };
   const xs: number[][] = Array.from({ length: topicCount }, () => []);
   const ys: number[][] = Array.from({ length: topicCount }, () => []);
@@ -37,7 +43,8 @@ export function regionAnchors(x: ArrayLike<number>, y: ArrayLike<number>, topicI
     ys[t].push(y[i]);
   }
   const out: RegionAnchor[] = [];
-  for (let t = 0; t < topicCount; t++) if (xs[t].length >= o.minFiles) out.push({ topic: t, count: xs[t].length, x: median(xs[t]), y: median(ys[t]) });
+  for (let t = 0; t < topicCount; t++)
+    if (xs[t].length >= o.minFiles) out.push({ topic: t, count: xs[t].length, x: median(xs[t]), y: median(ys[t]) });
   return out.sort((a, b) => b.count - a.count || a.topic - b.topic);
 }
 
@@ -53,7 +60,13 @@ export interface LabelBox {
 export function labelsToDraw(boxes: readonly LabelBox[], gap = 4): LabelBox[] {
   const kept: LabelBox[] = [];
   for (const b of boxes) {
-    const clash = kept.some((k) => b.left < k.left + k.width + gap && k.left < b.left + b.width + gap && b.top < k.top + k.height + gap && k.top < b.top + b.height + gap);
+    const clash = kept.some(
+      (k) =>
+        b.left < k.left + k.width + gap &&
+        k.left < b.left + b.width + gap &&
+        b.top < k.top + k.height + gap &&
+        k.top < b.top + b.height + gap,
+    );
     if (!clash) kept.push(b);
   }
   return kept;

@@ -15,7 +15,8 @@ export interface SpectrumSeries {
 }
 
 export function spectrumSeries(singularValues: ArrayLike<number>, totalEnergy: number, k: number): SpectrumSeries {
-  if (!(totalEnergy > 0) || !Number.isFinite(totalEnergy)) throw new InvalidInputError(`total energy must be a positive number, got ${totalEnergy}`);
+  if (!(totalEnergy > 0) || !Number.isFinite(totalEnergy))
+    throw new InvalidInputError(`total energy must be a positive number, got ${totalEnergy}`);
   const n = singularValues.length;
   const values = Float64Array.from(singularValues);
   const share = new Float64Array(n);

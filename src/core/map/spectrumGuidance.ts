@@ -38,9 +38,11 @@ export function spectrumGuidance(singularValues: readonly number[], totalEnergy:
     `The index describes each file by k = ${k} concepts, which keep ${pct(kept)} of the weighted word counts' variation (energy). ` +
     'For text a share well under half is normal: the rest is mostly what is particular to single files — names, spellings, one-off wording — which search by meaning is meant to look past.';
   const beyond = singularValues.length > kk ? energy(kk, singularValues.length) : null;
-  const next = beyond === null ? '' : ` The next ${singularValues.length - kk} concepts computed would add ${(100 * beyond).toFixed(1)} points.`;
-  const advice = tailPoints < LITTLE_GAIN_POINTS
-    ? `k looks large enough: the last ${tenth} of the ${k} concepts add only ${tailPoints.toFixed(1)} points.${next} More concepts would mostly separate single files, making results closer to exact word matching; fewer would merge neighbouring topics. To change k, set undertone.dimensions (default "auto").`
-    : `More concepts could still tell finer topics apart: the last ${tenth} of the ${k} concepts add ${tailPoints.toFixed(1)} points.${next} Try a larger undertone.dimensions (for example ${Math.round(k * 1.5)}) if related files seem mixed up; fewer concepts would merge neighbouring topics.`;
+  const next =
+    beyond === null ? '' : ` The next ${singularValues.length - kk} concepts computed would add ${(100 * beyond).toFixed(1)} points.`;
+  const advice =
+    tailPoints < LITTLE_GAIN_POINTS
+      ? `k looks large enough: the last ${tenth} of the ${k} concepts add only ${tailPoints.toFixed(1)} points.${next} More concepts would mostly separate single files, making results closer to exact word matching; fewer would merge neighbouring topics. To change k, set undertone.dimensions (default "auto").`
+      : `More concepts could still tell finer topics apart: the last ${tenth} of the ${k} concepts add ${tailPoints.toFixed(1)} points.${next} Try a larger undertone.dimensions (for example ${Math.round(k * 1.5)}) if related files seem mixed up; fewer concepts would merge neighbouring topics.`;
   return { summary, advice, kept, tailPoints };
 }

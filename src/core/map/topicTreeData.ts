@@ -49,8 +49,10 @@ export function mapTopicTreeProblems(tree: unknown, n: number): string[] {
   const out: string[] = [];
   const m = Array.isArray(t?.labels) ? t.labels.length : -1;
   if (m < 0) return ['topicTree.labels is missing'];
-  if (!Array.isArray(t.parents) || t.parents.length !== m || t.parents.some((p, i) => !Number.isInteger(p) || p < -1 || p >= i)) out.push('topicTree.parents is not a list of earlier nodes');
+  if (!Array.isArray(t.parents) || t.parents.length !== m || t.parents.some((p, i) => !Number.isInteger(p) || p < -1 || p >= i))
+    out.push('topicTree.parents is not a list of earlier nodes');
   if (!Array.isArray(t.levels) || t.levels.length !== m) out.push('topicTree.levels is not one per node');
-  if (!Array.isArray(t.fileNodes) || t.fileNodes.length !== n || t.fileNodes.some((x) => !Number.isInteger(x) || x < -1 || x >= m)) out.push(`topicTree.fileNodes is not one node per file`);
+  if (!Array.isArray(t.fileNodes) || t.fileNodes.length !== n || t.fileNodes.some((x) => !Number.isInteger(x) || x < -1 || x >= m))
+    out.push(`topicTree.fileNodes is not one node per file`);
   return out;
 }

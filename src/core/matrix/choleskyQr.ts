@@ -17,7 +17,14 @@ import { orthonormalize } from './orthonormalize.js';
  * Orthonormalises the rows × l block y (from executor memory) in place: each pass multiplies by
  * R⁻¹ (upper triangular) column by column from the top down, which needs no second buffer.
  */
-export function choleskyQr(ex: MatrixExecutor, y: Float64Array, rows: number, l: number, passes: 1 | 2, random: RandomSource): Float64Array {
+export function choleskyQr(
+  ex: MatrixExecutor,
+  y: Float64Array,
+  rows: number,
+  l: number,
+  passes: 1 | 2,
+  random: RandomSource,
+): Float64Array {
   for (let pass = 0; pass < passes; pass++) {
     const r = cholesky(ex.cross(y, y, rows, l), l);
     if (!r) {

@@ -83,11 +83,12 @@ export function timesSmall(y: DenseBlock, w: Float64Array, c: number): DenseBloc
 /** C = A B for small row-major square-ish factors (a: p×q, b: q×r). */
 export function multiplySmall(a: Float64Array, b: Float64Array, p: number, q: number, r: number): Float64Array {
   const c = new Float64Array(p * r);
-  for (let i = 0; i < p; i++) for (let k = 0; k < q; k++) {
-    const v = a[i * q + k];
-    if (v === 0) continue;
-    for (let j = 0; j < r; j++) c[i * r + j] += v * b[k * r + j];
-  }
+  for (let i = 0; i < p; i++)
+    for (let k = 0; k < q; k++) {
+      const v = a[i * q + k];
+      if (v === 0) continue;
+      for (let j = 0; j < r; j++) c[i * r + j] += v * b[k * r + j];
+    }
   return c;
 }
 

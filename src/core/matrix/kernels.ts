@@ -22,7 +22,14 @@ export const GAUSSIAN_BLOCK_ROWS = 2048;
  * Box–Muller). random is a seeded generator factory (createRandom), passed in to keep this file
  * free of imports.
  */
-export function gaussianBlock(out: Float64Array, rows: number, l: number, seed: number, b: number, random: (seed: number) => { nextUint32(): number }): void {
+export function gaussianBlock(
+  out: Float64Array,
+  rows: number,
+  l: number,
+  seed: number,
+  b: number,
+  random: (seed: number) => { nextUint32(): number },
+): void {
   const r = random((Math.imul(seed ^ 0x5bd1e995, 0x9e3779b1) + Math.imul(b + 1, 0x85ebca6b)) >>> 0);
   const end = Math.min(rows, (b + 1) * GAUSSIAN_BLOCK_ROWS) * l;
   const scale = 2 / 4294967296;
@@ -60,8 +67,14 @@ export function spmmRows(
     const p1 = indptr[i + 1];
     let p = indptr[i];
     for (; grouped && p + 4 <= p1; p += 4) {
-      const v0 = values[p], v1 = values[p + 1], v2 = values[p + 2], v3 = values[p + 3];
-      const x0 = indices[p] * l - yo, x1 = indices[p + 1] * l - yo, x2 = indices[p + 2] * l - yo, x3 = indices[p + 3] * l - yo;
+      const v0 = values[p],
+        v1 = values[p + 1],
+        v2 = values[p + 2],
+        v3 = values[p + 3];
+      const x0 = indices[p] * l - yo,
+        x1 = indices[p + 1] * l - yo,
+        x2 = indices[p + 2] * l - yo,
+        x3 = indices[p + 3] * l - yo;
       for (let c = yo; c < yEnd; c++) y[c] += v0 * x[x0 + c] + v1 * x[x1 + c] + v2 * x[x2 + c] + v3 * x[x3 + c];
     }
     for (; p < p1; p++) {
@@ -85,29 +98,77 @@ export function crossRows(a: FloatArray, b: FloatArray, l: number, r0: number, r
     const pFull = p < l4;
     for (let q = symmetric ? p : 0; q < l; q += 4) {
       if (pFull && q < l4) {
-        let g00 = 0, g01 = 0, g02 = 0, g03 = 0, g10 = 0, g11 = 0, g12 = 0, g13 = 0;
-        let g20 = 0, g21 = 0, g22 = 0, g23 = 0, g30 = 0, g31 = 0, g32 = 0, g33 = 0;
+        let g00 = 0,
+          g01 = 0,
+          g02 = 0,
+          g03 = 0,
+          g10 = 0,
+          g11 = 0,
+          g12 = 0,
+          g13 = 0;
+        let g20 = 0,
+          g21 = 0,
+          g22 = 0,
+          g23 = 0,
+          g30 = 0,
+          g31 = 0,
+          g32 = 0,
+          g33 = 0;
         for (let o = o0; o < o1; o += l) {
-          const a0 = a[o + p], a1 = a[o + p + 1], a2 = a[o + p + 2], a3 = a[o + p + 3];
-          const b0 = b[o + q], b1 = b[o + q + 1], b2 = b[o + q + 2], b3 = b[o + q + 3];
-          g00 += a0 * b0; g01 += a0 * b1; g02 += a0 * b2; g03 += a0 * b3;
-          g10 += a1 * b0; g11 += a1 * b1; g12 += a1 * b2; g13 += a1 * b3;
-          g20 += a2 * b0; g21 += a2 * b1; g22 += a2 * b2; g23 += a2 * b3;
-          g30 += a3 * b0; g31 += a3 * b1; g32 += a3 * b2; g33 += a3 * b3;
+          const a0 = a[o + p],
+            a1 = a[o + p + 1],
+            a2 = a[o + p + 2],
+            a3 = a[o + p + 3];
+          const b0 = b[o + q],
+            b1 = b[o + q + 1],
+            b2 = b[o + q + 2],
+            b3 = b[o + q + 3];
+          g00 += a0 * b0;
+          g01 += a0 * b1;
+          g02 += a0 * b2;
+          g03 += a0 * b3;
+          g10 += a1 * b0;
+          g11 += a1 * b1;
+          g12 += a1 * b2;
+          g13 += a1 * b3;
+          g20 += a2 * b0;
+          g21 += a2 * b1;
+          g22 += a2 * b2;
+          g23 += a2 * b3;
+          g30 += a3 * b0;
+          g31 += a3 * b1;
+          g32 += a3 * b2;
+          g33 += a3 * b3;
         }
         let t = p * l + q;
-        g[t] = g00; g[t + 1] = g01; g[t + 2] = g02; g[t + 3] = g03; t += l;
-        g[t] = g10; g[t + 1] = g11; g[t + 2] = g12; g[t + 3] = g13; t += l;
-        g[t] = g20; g[t + 1] = g21; g[t + 2] = g22; g[t + 3] = g23; t += l;
-        g[t] = g30; g[t + 1] = g31; g[t + 2] = g32; g[t + 3] = g33;
+        g[t] = g00;
+        g[t + 1] = g01;
+        g[t + 2] = g02;
+        g[t + 3] = g03;
+        t += l;
+        g[t] = g10;
+        g[t + 1] = g11;
+        g[t + 2] = g12;
+        g[t + 3] = g13;
+        t += l;
+        g[t] = g20;
+        g[t + 1] = g21;
+        g[t + 2] = g22;
+        g[t + 3] = g23;
+        t += l;
+        g[t] = g30;
+        g[t + 1] = g31;
+        g[t + 2] = g32;
+        g[t + 3] = g33;
       } else {
         const pe = Math.min(p + 4, l);
         const qe = Math.min(q + 4, l);
-        for (let pp = p; pp < pe; pp++) for (let qq = q; qq < qe; qq++) {
-          let s = 0;
-          for (let o = o0; o < o1; o += l) s += a[o + pp] * b[o + qq];
-          g[pp * l + qq] = s;
-        }
+        for (let pp = p; pp < pe; pp++)
+          for (let qq = q; qq < qe; qq++) {
+            let s = 0;
+            for (let o = o0; o < o1; o += l) s += a[o + pp] * b[o + qq];
+            g[pp * l + qq] = s;
+          }
       }
     }
   }
@@ -131,32 +192,71 @@ export function timesSmallRows(
 ): void {
   let i = r0;
   for (; i + 4 <= r1; i += 4) {
-    const y0 = i * l, y1 = y0 + l, y2 = y1 + l, y3 = y2 + l;
-    const z0 = i * c, z1 = z0 + c, z2 = z1 + c, z3 = z2 + c;
+    const y0 = i * l,
+      y1 = y0 + l,
+      y2 = y1 + l,
+      y3 = y2 + l;
+    const z0 = i * c,
+      z1 = z0 + c,
+      z2 = z1 + c,
+      z3 = z2 + c;
     // An odd last column first, then pairs from the top down.
     if (c % 2 === 1) {
       const b = c - 1;
       const w0 = b * l;
       const end = upper ? Math.min(b + 1, l) : l;
-      let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+      let s0 = 0,
+        s1 = 0,
+        s2 = 0,
+        s3 = 0;
       for (let a = 0; a < end; a++) {
         const u = wt[w0 + a];
-        s0 += y[y0 + a] * u; s1 += y[y1 + a] * u; s2 += y[y2 + a] * u; s3 += y[y3 + a] * u;
+        s0 += y[y0 + a] * u;
+        s1 += y[y1 + a] * u;
+        s2 += y[y2 + a] * u;
+        s3 += y[y3 + a] * u;
       }
-      out[z0 + b] = s0; out[z1 + b] = s1; out[z2 + b] = s2; out[z3 + b] = s3;
+      out[z0 + b] = s0;
+      out[z1 + b] = s1;
+      out[z2 + b] = s2;
+      out[z3 + b] = s3;
     }
     for (let b = c - (c % 2) - 2; b >= 0; b -= 2) {
-      const w0 = b * l, w1 = w0 + l;
+      const w0 = b * l,
+        w1 = w0 + l;
       const end = upper ? Math.min(b + 2, l) : l;
-      let s0 = 0, s1 = 0, s2 = 0, s3 = 0, t0 = 0, t1 = 0, t2 = 0, t3 = 0;
+      let s0 = 0,
+        s1 = 0,
+        s2 = 0,
+        s3 = 0,
+        t0 = 0,
+        t1 = 0,
+        t2 = 0,
+        t3 = 0;
       for (let a = 0; a < end; a++) {
-        const u = wt[w0 + a], v = wt[w1 + a];
-        const x0 = y[y0 + a], x1 = y[y1 + a], x2 = y[y2 + a], x3 = y[y3 + a];
-        s0 += x0 * u; s1 += x1 * u; s2 += x2 * u; s3 += x3 * u;
-        t0 += x0 * v; t1 += x1 * v; t2 += x2 * v; t3 += x3 * v;
+        const u = wt[w0 + a],
+          v = wt[w1 + a];
+        const x0 = y[y0 + a],
+          x1 = y[y1 + a],
+          x2 = y[y2 + a],
+          x3 = y[y3 + a];
+        s0 += x0 * u;
+        s1 += x1 * u;
+        s2 += x2 * u;
+        s3 += x3 * u;
+        t0 += x0 * v;
+        t1 += x1 * v;
+        t2 += x2 * v;
+        t3 += x3 * v;
       }
-      out[z0 + b] = s0; out[z1 + b] = s1; out[z2 + b] = s2; out[z3 + b] = s3;
-      out[z0 + b + 1] = t0; out[z1 + b + 1] = t1; out[z2 + b + 1] = t2; out[z3 + b + 1] = t3;
+      out[z0 + b] = s0;
+      out[z1 + b] = s1;
+      out[z2 + b] = s2;
+      out[z3 + b] = s3;
+      out[z0 + b + 1] = t0;
+      out[z1 + b + 1] = t1;
+      out[z2 + b + 1] = t2;
+      out[z3 + b + 1] = t3;
     }
   }
   for (; i < r1; i++) {

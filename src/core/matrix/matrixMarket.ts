@@ -19,7 +19,14 @@ export type MmSymmetry = 'general' | 'symmetric' | 'skew-symmetric';
 
 /** A parsed matrix: coordinate entries (0-based, symmetric halves expanded) or a dense array. */
 export type MatrixMarketData =
-  | { readonly format: 'coordinate'; readonly rows: number; readonly cols: number; readonly rowIndex: Int32Array; readonly colIndex: Int32Array; readonly values: Float64Array }
+  | {
+      readonly format: 'coordinate';
+      readonly rows: number;
+      readonly cols: number;
+      readonly rowIndex: Int32Array;
+      readonly colIndex: Int32Array;
+      readonly values: Float64Array;
+    }
   | { readonly format: 'array'; readonly rows: number; readonly cols: number; /** Row-major. */ readonly data: Float64Array };
 
 const CHUNK_LINES = 4096;
@@ -120,12 +127,26 @@ export class MatrixMarketParser {
   private coordinateResult(rows: number, cols: number): MatrixMarketData {
     const sym = this.header!.symmetry;
     const n = this.count;
-    if (sym === 'general') return { format: 'coordinate', rows, cols, rowIndex: this.rowIdx.slice(0, n), colIndex: this.colIdx.slice(0, n), values: this.vals.slice(0, n) };
-    const r: number[] = [], c: number[] = [], v: number[] = [];
+    if (sym === 'general')
+      return {
+        format: 'coordinate',
+        rows,
+        cols,
+        rowIndex: this.rowIdx.slice(0, n),
+        colIndex: this.colIdx.slice(0, n),
+        values: this.vals.slice(0, n),
+      };
+    const r: number[] = [],
+      c: number[] = [],
+      v: number[] = [];
     for (let t = 0; t < n; t++) {
-      r.push(this.rowIdx[t]); c.push(this.colIdx[t]); v.push(this.vals[t]);
+      r.push(this.rowIdx[t]);
+      c.push(this.colIdx[t]);
+      v.push(this.vals[t]);
       if (this.rowIdx[t] !== this.colIdx[t]) {
-        r.push(this.colIdx[t]); c.push(this.rowIdx[t]); v.push(sym === 'symmetric' ? this.vals[t] : -this.vals[t]);
+        r.push(this.colIdx[t]);
+        c.push(this.rowIdx[t]);
+        v.push(sym === 'symmetric' ? this.vals[t] : -this.vals[t]);
       }
     }
     return { format: 'coordinate', rows, cols, rowIndex: Int32Array.from(r), colIndex: Int32Array.from(c), values: Float64Array.from(v) };
@@ -139,7 +160,8 @@ export class MatrixMarketParser {
     const parts = line.split(/\s+/);
     if (!this.size) return this.parseSize(parts);
     const h = this.header;
-    if (this.count >= this.size.entries) throw this.error(`has more entries than the ${this.size.entries} it declares (line ${this.lineNo})`);
+    if (this.count >= this.size.entries)
+      throw this.error(`has more entries than the ${this.size.entries} it declares (line ${this.lineNo})`);
     const t = this.count++;
     if (h.format === 'array') {
       this.vals[t] = this.number(parts[0]);
@@ -161,14 +183,16 @@ export class MatrixMarketParser {
     const f = field === 'double' ? 'real' : field;
     if (f !== 'real' && f !== 'integer' && f !== 'pattern') throw this.error(`has unknown field "${field}"`);
     if (f === 'pattern' && format === 'array') throw this.error('is a pattern matrix in array format, which the format does not allow');
-    if (symmetry !== 'general' && symmetry !== 'symmetric' && symmetry !== 'skew-symmetric') throw this.error(`has unknown symmetry "${symmetry}"`);
+    if (symmetry !== 'general' && symmetry !== 'symmetric' && symmetry !== 'skew-symmetric')
+      throw this.error(`has unknown symmetry "${symmetry}"`);
     this.header = { format, field: f, symmetry };
   }
 
   private parseSize(parts: string[]): void {
     const nums = parts.map((p) => Number(p));
     const isArray = this.header!.format === 'array';
-    if (nums.length !== (isArray ? 2 : 3) || nums.some((n) => !Number.isInteger(n) || n < 0)) throw this.error(`has a bad size line (line ${this.lineNo})`);
+    if (nums.length !== (isArray ? 2 : 3) || nums.some((n) => !Number.isInteger(n) || n < 0))
+      throw this.error(`has a bad size line (line ${this.lineNo})`);
     const [rows, cols] = nums;
     const sym = this.header!.symmetry !== 'general';
     if (sym && rows !== cols) throw this.error('is declared symmetric but is not square');
@@ -184,7 +208,8 @@ export class MatrixMarketParser {
 
   private number(s: string | undefined): number {
     const v = Number(s);
-    if (s === undefined || s === '' || !Number.isFinite(v)) throw this.error(`has a value that is not a finite number on line ${this.lineNo}`);
+    if (s === undefined || s === '' || !Number.isFinite(v))
+      throw this.error(`has a value that is not a finite number on line ${this.lineNo}`);
     return v;
   }
 

@@ -79,13 +79,20 @@ export function defaultOversampling(k: number): number {
 }
 
 export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number; factors?: 'f64' }): SvdResult;
-export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number; factors: 'f32' }): SvdResult<Float32Array>;
-export function randomizedSvd(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number }): SvdResult<Float64Array | Float32Array> {
+export function randomizedSvd(
+  m: CsrMatrix,
+  options: Partial<RandomizedSvdOptions> & { k: number; factors: 'f32' },
+): SvdResult<Float32Array>;
+export function randomizedSvd(
+  m: CsrMatrix,
+  options: Partial<RandomizedSvdOptions> & { k: number },
+): SvdResult<Float64Array | Float32Array> {
   const o = { ...DEFAULT_SVD_OPTIONS, ...options };
   const maxRank = Math.min(m.rows, m.cols);
   if (maxRank === 0) throw new InvalidInputError('cannot decompose an empty matrix');
   if (!Number.isInteger(o.k) || o.k < 1) throw new InvalidInputError(`k must be a positive integer, got ${o.k}`);
-  if (!Number.isInteger(o.powerIterations) || o.powerIterations < 0) throw new InvalidInputError(`powerIterations must be a whole number ≥ 0, got ${o.powerIterations}`);
+  if (!Number.isInteger(o.powerIterations) || o.powerIterations < 0)
+    throw new InvalidInputError(`powerIterations must be a whole number ≥ 0, got ${o.powerIterations}`);
   const ex = o.executor ?? createWasmExecutor() ?? serialExecutor;
   return ex.scoped ? ex.scoped(() => decompose(m, o, ex)) : decompose(m, o, ex);
 }

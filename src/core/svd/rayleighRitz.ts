@@ -37,7 +37,9 @@ export function topEigenpairs(g: Float64Array, l: number, k: number): RitzPairs 
   const evd = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true });
   const lambda = evd.realEigenvalues;
   const vec = evd.eigenvectorMatrix;
-  const order = Array.from({ length: l }, (_, i) => i).sort((a, b) => lambda[b] - lambda[a] || a - b).slice(0, k);
+  const order = Array.from({ length: l }, (_, i) => i)
+    .sort((a, b) => lambda[b] - lambda[a] || a - b)
+    .slice(0, k);
   const top = Math.max(lambda[order[0]], 0);
   const s = Float64Array.from(order, (i) => (lambda[i] > RANK_TOLERANCE * top ? Math.sqrt(lambda[i]) : 0));
   const w = new Float64Array(l * k);

@@ -18,7 +18,10 @@ import { porterStem } from './porterFast.js';
 
 export { MAX_TOKEN_LENGTH } from './tokenRules.js';
 
-const LOWER = 1, UPPER = 2, DIGIT = 3, SEP = 4;
+const LOWER = 1,
+  UPPER = 2,
+  DIGIT = 3,
+  SEP = 4;
 const KIND = new Uint8Array(128);
 for (let c = 97; c <= 122; c++) KIND[c] = LOWER;
 for (let c = 65; c <= 90; c++) KIND[c] = UPPER;

@@ -52,7 +52,10 @@ const HEADING = /^\s*#{1,6}\s/;
 export function cleanLine(line: string): string {
   return line
     .replace(/<[^>]*>/g, ' ')
-    .replace(/&(?:nbsp|amp|lt|gt|quot|apos|#\d+);/g, (e) => ({ '&nbsp;': ' ', '&amp;': '&', '&lt;': '<', '&gt;': '>', '&quot;': '"', '&apos;': "'" })[e] ?? ' ')
+    .replace(
+      /&(?:nbsp|amp|lt|gt|quot|apos|#\d+);/g,
+      (e) => ({ '&nbsp;': ' ', '&amp;': '&', '&lt;': '<', '&gt;': '>', '&quot;': '"', '&apos;': "'" })[e] ?? ' ',
+    )
     .replace(/^\s*(?:[-*+]|\d+[.)]|#{1,6}|\.\.|>)\s+/, '')
     .replace(/:[a-z]+:`([^`]*)`/g, '$1')
     .replace(/`+|\*\*|__/g, '')

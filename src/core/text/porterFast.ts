@@ -12,7 +12,12 @@
  * test/core/text/porterFast.test.ts holds it to natural's stemmer on real and generated words.
  */
 
-const A = 97, E = 101, I = 105, O = 111, U = 117, Y = 121;
+const A = 97,
+  E = 101,
+  I = 105,
+  O = 111,
+  U = 117,
+  Y = 121;
 
 function isVowel(c: number): boolean {
   return c === A || c === E || c === I || c === O || c === U;
@@ -99,16 +104,65 @@ function replacePatterns(token: string, rules: readonly Rule[], threshold: numbe
   return result || token;
 }
 
-const STEP1B: readonly Rule[] = [['at', 'ate'], ['bl', 'ble'], ['iz', 'ize']];
-const STEP2: readonly Rule[] = [
-  ['ational', 'ate'], ['tional', 'tion'], ['enci', 'ence'], ['anci', 'ance'], ['izer', 'ize'], ['abli', 'able'], ['bli', 'ble'],
-  ['alli', 'al'], ['entli', 'ent'], ['eli', 'e'], ['ousli', 'ous'], ['ization', 'ize'], ['ation', 'ate'], ['ator', 'ate'],
-  ['alism', 'al'], ['iveness', 'ive'], ['fulness', 'ful'], ['ousness', 'ous'], ['aliti', 'al'], ['iviti', 'ive'],
-  ['biliti', 'ble'], ['logi', 'log'],
+const STEP1B: readonly Rule[] = [
+  ['at', 'ate'],
+  ['bl', 'ble'],
+  ['iz', 'ize'],
 ];
-const STEP3: readonly Rule[] = [['icate', 'ic'], ['ative', ''], ['alize', 'al'], ['iciti', 'ic'], ['ical', 'ic'], ['ful', ''], ['ness', '']];
+const STEP2: readonly Rule[] = [
+  ['ational', 'ate'],
+  ['tional', 'tion'],
+  ['enci', 'ence'],
+  ['anci', 'ance'],
+  ['izer', 'ize'],
+  ['abli', 'able'],
+  ['bli', 'ble'],
+  ['alli', 'al'],
+  ['entli', 'ent'],
+  ['eli', 'e'],
+  ['ousli', 'ous'],
+  ['ization', 'ize'],
+  ['ation', 'ate'],
+  ['ator', 'ate'],
+  ['alism', 'al'],
+  ['iveness', 'ive'],
+  ['fulness', 'ful'],
+  ['ousness', 'ous'],
+  ['aliti', 'al'],
+  ['iviti', 'ive'],
+  ['biliti', 'ble'],
+  ['logi', 'log'],
+];
+const STEP3: readonly Rule[] = [
+  ['icate', 'ic'],
+  ['ative', ''],
+  ['alize', 'al'],
+  ['iciti', 'ic'],
+  ['ical', 'ic'],
+  ['ful', ''],
+  ['ness', ''],
+];
 // Step 4 suffixes; the lazy prefix of natural's regular expression picks the longest that fits.
-const STEP4 = ['al', 'ance', 'ence', 'er', 'ic', 'able', 'ible', 'ant', 'ement', 'ment', 'ent', 'ou', 'ism', 'ate', 'iti', 'ous', 'ive', 'ize'];
+const STEP4 = [
+  'al',
+  'ance',
+  'ence',
+  'er',
+  'ic',
+  'able',
+  'ible',
+  'ant',
+  'ement',
+  'ment',
+  'ent',
+  'ou',
+  'ism',
+  'ate',
+  'iti',
+  'ous',
+  'ive',
+  'ize',
+];
 
 function step1a(t: string): string {
   if (t.endsWith('sses')) return t.slice(0, -2);

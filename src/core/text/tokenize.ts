@@ -52,13 +52,7 @@ export function stemWord(word: string): string {
 }
 
 function keep(token: string): boolean {
-  return (
-    token.length > 1 &&
-    token.length <= MAX_TOKEN_LENGTH &&
-    !STOP_WORDS.has(token) &&
-    !LONG_DIGITS.test(token) &&
-    !HEXISH.test(token)
-  );
+  return token.length > 1 && token.length <= MAX_TOKEN_LENGTH && !STOP_WORDS.has(token) && !LONG_DIGITS.test(token) && !HEXISH.test(token);
 }
 
 /** Splits an identifier into its parts (not lowercased). */

@@ -47,7 +47,7 @@ export function npmiCoherence(a: CsrMatrix, termSets: readonly (readonly number[
 export function npmiPair(x: readonly number[], y: readonly number[], n: number): number {
   if (x.length === 0 || y.length === 0 || n === 0) return 0;
   let both = 0;
-  for (let i = 0, j = 0; i < x.length && j < y.length; ) {
+  for (let i = 0, j = 0; i < x.length && j < y.length;) {
     if (x[i] === y[j]) {
       both++;
       i++;

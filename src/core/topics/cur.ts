@@ -74,9 +74,11 @@ export interface CurResult {
 
 export function curDecomposition(a: CsrMatrix, options: Partial<CurOptions> = {}, svd?: SvdResult): CurResult {
   const o = { ...DEFAULT_CUR_OPTIONS, ...options };
-  if (!CUR_METHODS.includes(o.method)) throw new InvalidInputError(`CUR method must be one of ${CUR_METHODS.join(', ')}, got "${String(o.method)}"`);
+  if (!CUR_METHODS.includes(o.method))
+    throw new InvalidInputError(`CUR method must be one of ${CUR_METHODS.join(', ')}, got "${String(o.method)}"`);
   if (!Number.isInteger(o.rank) || o.rank < 1) throw new InvalidInputError(`CUR rank must be a positive whole number, got ${o.rank}`);
-  if (a.rows === 0 || a.cols === 0 || a.values.length === 0) throw new InvalidInputError('CUR needs a matrix with at least one non-zero entry');
+  if (a.rows === 0 || a.cols === 0 || a.values.length === 0)
+    throw new InvalidInputError('CUR needs a matrix with at least one non-zero entry');
   const want = Math.min(o.rank, a.rows, a.cols);
   const f = svd && svd.k >= want && svd.rows === a.rows && svd.cols === a.cols ? svd : randomizedSvd(a, { k: want, seed: o.seed });
   let k = Math.min(want, f.k);

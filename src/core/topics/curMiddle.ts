@@ -16,7 +16,14 @@
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { gram, multiplySmall } from '../matrix/dense.js';
-import { csrFrobeniusSquared, csrTimesDense, csrTransposeTimesDense, denseBlock, type CsrMatrix, type DenseBlock } from '../matrix/sparse.js';
+import {
+  csrFrobeniusSquared,
+  csrTimesDense,
+  csrTransposeTimesDense,
+  denseBlock,
+  type CsrMatrix,
+  type DenseBlock,
+} from '../matrix/sparse.js';
 import type { Picks } from './leverage.js';
 
 /** Relative cut-off passed to ml-matrix pseudoInverse for the c×c and r×r Gram matrices. */
@@ -56,7 +63,15 @@ export function curFactors(a: CsrMatrix, columns: Picks, rows: Picks): CurFactor
   });
   const frob = csrFrobeniusSquared(a);
   if (nc === 0 || nr === 0) {
-    return { c, rt, middle: new Float64Array(nc * nr), frobeniusSquared: frob, errorSquared: frob, columnErrorSquared: nc === 0 ? frob : columnError(a, c, frob), rowErrorSquared: nr === 0 ? frob : rowError(a, rt, frob).error };
+    return {
+      c,
+      rt,
+      middle: new Float64Array(nc * nr),
+      frobeniusSquared: frob,
+      errorSquared: frob,
+      columnErrorSquared: nc === 0 ? frob : columnError(a, c, frob),
+      rowErrorSquared: nr === 0 ? frob : rowError(a, rt, frob).error,
+    };
   }
   const gc = gram(c);
   const gr = gram(rt);

@@ -11,7 +11,8 @@ import { InvalidInputError } from '../errors.js';
 
 /** DEIM indices of the first k columns of a row-major n × stride basis. */
 export function deimIndices(basis: Float64Array | Float32Array, n: number, stride: number, k: number): number[] {
-  if (!(k >= 1 && k <= stride && k <= n) || basis.length < n * stride) throw new InvalidInputError(`DEIM needs 1 ≤ k ≤ min(${n}, ${stride})`);
+  if (!(k >= 1 && k <= stride && k <= n) || basis.length < n * stride)
+    throw new InvalidInputError(`DEIM needs 1 ≤ k ≤ min(${n}, ${stride})`);
   const chosen: number[] = [argmaxAbs(n, (i) => basis[i * stride])];
   const residual = new Float64Array(n);
   for (let j = 1; j < k; j++) {

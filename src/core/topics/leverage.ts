@@ -32,7 +32,8 @@ export interface Picks {
  * Rows of V_k give column leverage; rows of U_k give row leverage.
  */
 export function leverageScores(factor: Float64Array | Float32Array, n: number, stride: number, k: number): Float64Array {
-  if (!(k >= 1 && k <= stride) || factor.length < n * stride) throw new InvalidInputError(`leverage needs 1 ≤ k ≤ ${stride} and an n×${stride} factor`);
+  if (!(k >= 1 && k <= stride) || factor.length < n * stride)
+    throw new InvalidInputError(`leverage needs 1 ≤ k ≤ ${stride} and an n×${stride} factor`);
   const pi = new Float64Array(n);
   for (let j = 0; j < n; j++) {
     let s = 0;

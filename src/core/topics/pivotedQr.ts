@@ -12,7 +12,8 @@ import { InvalidInputError } from '../errors.js';
 
 /** Pivot order (first k) of column-pivoted QR of the transpose of a row-major n × stride basis. */
 export function pivotedQrIndices(basis: Float64Array | Float32Array, n: number, stride: number, k: number): number[] {
-  if (!(k >= 1 && k <= stride && k <= n) || basis.length < n * stride) throw new InvalidInputError(`pivoted QR needs 1 ≤ k ≤ min(${n}, ${stride})`);
+  if (!(k >= 1 && k <= stride && k <= n) || basis.length < n * stride)
+    throw new InvalidInputError(`pivoted QR needs 1 ≤ k ≤ min(${n}, ${stride})`);
   const work = new Float64Array(n * k);
   const norms = new Float64Array(n);
   for (let i = 0; i < n; i++) {

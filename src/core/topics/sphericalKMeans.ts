@@ -22,7 +22,11 @@ export interface SphericalKMeansOptions {
   seed: number;
 }
 
-export const DEFAULT_SPHERICAL_KMEANS_OPTIONS: Readonly<SphericalKMeansOptions> = Object.freeze({ restarts: 10, maxIterations: 50, seed: DEFAULT_SEED });
+export const DEFAULT_SPHERICAL_KMEANS_OPTIONS: Readonly<SphericalKMeansOptions> = Object.freeze({
+  restarts: 10,
+  maxIterations: 50,
+  seed: DEFAULT_SEED,
+});
 
 export interface Clustering {
   /** Cluster of each point (0…clusters−1). */
@@ -36,7 +40,13 @@ export interface Clustering {
 }
 
 /** points: n × dims unit vectors, row-major. */
-export function sphericalKMeans(points: Float64Array, n: number, dims: number, k: number, options: Partial<SphericalKMeansOptions> = {}): Clustering {
+export function sphericalKMeans(
+  points: Float64Array,
+  n: number,
+  dims: number,
+  k: number,
+  options: Partial<SphericalKMeansOptions> = {},
+): Clustering {
   const o = { ...DEFAULT_SPHERICAL_KMEANS_OPTIONS, ...options };
   if (n < 1 || points.length < n * dims) throw new InvalidInputError('k-means needs at least one point');
   if (!Number.isInteger(k) || k < 1) throw new InvalidInputError(`the number of clusters must be a positive whole number, got ${k}`);
@@ -123,7 +133,13 @@ function lloyd(points: Float64Array, n: number, dims: number, initial: Float64Ar
 }
 
 /** Each point to its nearest centre by cosine; returns how many points changed cluster. */
-function assign(points: Float64Array, n: number, dims: number, centres: Float64Array, assignment: Int32Array): { moved: number; objective: number } {
+function assign(
+  points: Float64Array,
+  n: number,
+  dims: number,
+  centres: Float64Array,
+  assignment: Int32Array,
+): { moved: number; objective: number } {
   const k = centres.length / dims;
   let moved = 0;
   let objective = 0;
@@ -137,7 +153,11 @@ function assign(points: Float64Array, n: number, dims: number, centres: Float64A
       const oc = c * dims;
       let d = 0;
       for (; d + 3 < dims; d += 4) {
-        v += points[o + d] * centres[oc + d] + points[o + d + 1] * centres[oc + d + 1] + points[o + d + 2] * centres[oc + d + 2] + points[o + d + 3] * centres[oc + d + 3];
+        v +=
+          points[o + d] * centres[oc + d] +
+          points[o + d + 1] * centres[oc + d + 1] +
+          points[o + d + 2] * centres[oc + d + 2] +
+          points[o + d + 3] * centres[oc + d + 3];
       }
       for (; d < dims; d++) v += points[o + d] * centres[oc + d];
       if (v > bestCos) {

@@ -29,7 +29,13 @@ export interface TopicCountOptions {
   seed: number;
 }
 
-export const DEFAULT_TOPIC_COUNT_OPTIONS: Readonly<TopicCountOptions> = Object.freeze({ minTopics: 2, sampleSize: 500, restarts: 3, maxIterations: 50, seed: DEFAULT_SEED });
+export const DEFAULT_TOPIC_COUNT_OPTIONS: Readonly<TopicCountOptions> = Object.freeze({
+  minTopics: 2,
+  sampleSize: 500,
+  restarts: 3,
+  maxIterations: 50,
+  seed: DEFAULT_SEED,
+});
 
 export interface TopicCountChoice {
   readonly topics: number;
@@ -39,7 +45,12 @@ export interface TopicCountChoice {
   readonly sampled: number;
 }
 
-export function chooseTopicCount(points: Float64Array, n: number, dims: number, options: Partial<TopicCountOptions> = {}): TopicCountChoice {
+export function chooseTopicCount(
+  points: Float64Array,
+  n: number,
+  dims: number,
+  options: Partial<TopicCountOptions> = {},
+): TopicCountChoice {
   const o = { ...DEFAULT_TOPIC_COUNT_OPTIONS, ...options };
   if (n < 3) return { topics: Math.max(0, Math.min(n, 1)), scores: [], sampled: n };
   const random = createRandom(o.seed);

@@ -151,9 +151,12 @@ export interface TopicsReport {
 
 export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}): TopicsReport {
   const o = { ...DEFAULT_TOPICS_OPTIONS, ...options };
-  if (o.topics !== undefined && (!Number.isInteger(o.topics) || o.topics < 1)) throw new InvalidInputError(`the number of topics must be a positive whole number, got ${o.topics}`);
-  if (!Number.isInteger(o.depth) || o.depth < 1) throw new InvalidInputError(`the depth of the topic tree must be a positive whole number, got ${o.depth}`);
-  if (!Number.isInteger(o.leafSize) || o.leafSize < 2) throw new InvalidInputError(`leafSize must be a whole number of at least 2, got ${o.leafSize}`);
+  if (o.topics !== undefined && (!Number.isInteger(o.topics) || o.topics < 1))
+    throw new InvalidInputError(`the number of topics must be a positive whole number, got ${o.topics}`);
+  if (!Number.isInteger(o.depth) || o.depth < 1)
+    throw new InvalidInputError(`the depth of the topic tree must be a positive whole number, got ${o.depth}`);
+  if (!Number.isInteger(o.leafSize) || o.leafSize < 2)
+    throw new InvalidInputError(`leafSize must be a whole number of at least 2, got ${o.leafSize}`);
   const im = weightedMatrix(index);
   const dims = index.k;
   const all = index.vectors();
@@ -172,7 +175,9 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
     for (let c = 0; c < dims; c++) points[i * dims + c] = all[im.slots[row] * dims + c];
   });
   const choice: TopicCountChoice =
-    o.topics !== undefined ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 } : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed });
+    o.topics !== undefined
+      ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
+      : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed });
   const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed);
   const K = clustering.clusters;
 
@@ -189,14 +194,19 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
   const word = o.wordFor ?? ((s: string) => s);
 
   // Loose files: no closer to their topic's centre than to the whole workspace's.
-  const overall = centreOf(points, Int32Array.from({ length: n }, (_, i) => i), dims);
+  const overall = centreOf(
+    points,
+    Int32Array.from({ length: n }, (_, i) => i),
+    dims,
+  );
   const groups: number[][] = Array.from({ length: K }, () => []);
   const loose: LooseFile[] = [];
   for (let i = 0; i < n; i++) {
     const t = clustering.assignment[i];
     const own = dotRow(points, i, clustering.centres, t, dims);
     const whole = dotRow(points, i, overall, 0, dims);
-    if (o.setApartLoose && K > 1 && own <= whole) loose.push({ path: im.paths[placed[i]], nearest: String(t), similarity: own, overall: whole });
+    if (o.setApartLoose && K > 1 && own <= whole)
+      loose.push({ path: im.paths[placed[i]], nearest: String(t), similarity: own, overall: whole });
     else groups[t].push(i);
   }
 
@@ -222,19 +232,38 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
       const members = group.map((i) => ({ i, row: placed[i], sim: dotRow(points, i, centre, 0, dims) }));
       members.sort((a, b) => b.sim - a.sim || a.row - b.row);
       const simOf = new Map(members.map((m) => [m.row, m.sim]));
-      const files = rankWithPicks(members.map((m) => m.row), (row) => pickedRows.has(row), o.filesPerTopic).map((row) => ({
+      const files = rankWithPicks(
+        members.map((m) => m.row),
+        (row) => pickedRows.has(row),
+        o.filesPerTopic,
+      ).map((row) => ({
         path: im.paths[row],
         similarity: simOf.get(row)!,
         picked: pickedRows.has(row),
       }));
       const scoreOf = new Map(names[gi].map((t) => [t.col, t.score]));
-      const ranked = rankWithPicks(names[gi].slice(0, o.termsPerTopic).map((t) => t.col), (col) => pickedTerms.has(col), o.termsPerTopic);
-      const terms = realWordsFirst(ranked, termName).map((col) => ({ term: termName(col), word: word(termName(col)), weight: scoreOf.get(col)!, picked: pickedTerms.has(col) }));
+      const ranked = rankWithPicks(
+        names[gi].slice(0, o.termsPerTopic).map((t) => t.col),
+        (col) => pickedTerms.has(col),
+        o.termsPerTopic,
+      );
+      const terms = realWordsFirst(ranked, termName).map((col) => ({
+        term: termName(col),
+        word: word(termName(col)),
+        weight: scoreOf.get(col)!,
+        picked: pickedTerms.has(col),
+      }));
       const memberPaths = members.map((m) => im.paths[m.row]);
       let children: Topic[] = [];
       if (level < o.depth && group.length > o.leafSize) {
         const sub = splitGroup(points, idx, dims, o, random.nextUint32());
-        if (sub.length > 1) children = build(sub, group.map((i) => placed[i]), level + 1, path);
+        if (sub.length > 1)
+          children = build(
+            sub,
+            group.map((i) => placed[i]),
+            level + 1,
+            path,
+          );
       }
       return {
         id: gi + 1,
@@ -265,7 +294,13 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
     unplaced,
     levels,
     count: { ...choice, topics: topics.length, chosen: o.topics !== undefined ? 'given' : 'auto' },
-    cur: { method: cur.method, rank: cur.rank, files: cur.rows.indices.length, terms: cur.columns.indices.length, errorRatio: cur.error.ratio },
+    cur: {
+      method: cur.method,
+      rank: cur.rank,
+      files: cur.rows.indices.length,
+      terms: cur.columns.indices.length,
+      errorRatio: cur.error.ratio,
+    },
   };
 }
 
@@ -353,7 +388,15 @@ export function restartsFor(n: number, k: number, dims: number): number {
  * Spherical k-means on all points, or, past fitSample points, fitted with restarts on a seeded
  * sample and then refined by up to 10 Lloyd passes over every point from the sample's centres.
  */
-function clusterPoints(points: Float64Array, n: number, dims: number, k: number, fitSample: number, seed: number, restarts?: number): Clustering {
+function clusterPoints(
+  points: Float64Array,
+  n: number,
+  dims: number,
+  k: number,
+  fitSample: number,
+  seed: number,
+  restarts?: number,
+): Clustering {
   if (n <= fitSample) return sphericalKMeans(points, n, dims, k, { seed, restarts: restarts ?? restartsFor(n, k, dims) });
   const random = createRandom(seed);
   const order = Int32Array.from({ length: n }, (_, i) => i);

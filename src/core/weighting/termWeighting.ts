@@ -13,36 +13,34 @@ export type WeightingScheme = 'log-entropy' | 'tfidf';
 export const WEIGHTING_SCHEMES: readonly WeightingScheme[] = ['log-entropy', 'tfidf'];
 
 /** Global weight per model column. */
-export function globalWeights(
-  docs: readonly DocTerms[],
-  columnOf: Int32Array,
-  columns: number,
-  scheme: WeightingScheme,
-): Float64Array {
+export function globalWeights(docs: readonly DocTerms[], columnOf: Int32Array, columns: number, scheme: WeightingScheme): Float64Array {
   const n = docs.length;
   const g = new Float64Array(columns);
   if (scheme === 'tfidf') {
     const df = new Float64Array(columns);
-    for (const d of docs) for (let i = 0; i < d.termIds.length; i++) {
-      const c = columnOf[d.termIds[i]];
-      if (c >= 0) df[c]++;
-    }
+    for (const d of docs)
+      for (let i = 0; i < d.termIds.length; i++) {
+        const c = columnOf[d.termIds[i]];
+        if (c >= 0) df[c]++;
+      }
     for (let c = 0; c < columns; c++) g[c] = Math.log((1 + n) / (1 + df[c])) + 1;
     return g;
   }
   const gf = new Float64Array(columns);
-  for (const d of docs) for (let i = 0; i < d.termIds.length; i++) {
-    const c = columnOf[d.termIds[i]];
-    if (c >= 0) gf[c] += d.counts[i];
-  }
-  const plogp = new Float64Array(columns);
-  for (const d of docs) for (let i = 0; i < d.termIds.length; i++) {
-    const c = columnOf[d.termIds[i]];
-    if (c >= 0) {
-      const p = d.counts[i] / gf[c];
-      plogp[c] += p * Math.log(p);
+  for (const d of docs)
+    for (let i = 0; i < d.termIds.length; i++) {
+      const c = columnOf[d.termIds[i]];
+      if (c >= 0) gf[c] += d.counts[i];
     }
-  }
+  const plogp = new Float64Array(columns);
+  for (const d of docs)
+    for (let i = 0; i < d.termIds.length; i++) {
+      const c = columnOf[d.termIds[i]];
+      if (c >= 0) {
+        const p = d.counts[i] / gf[c];
+        plogp[c] += p * Math.log(p);
+      }
+    }
   const denom = Math.log(n + 1);
   for (let c = 0; c < columns; c++) g[c] = 1 + plogp[c] / denom;
   return g;
@@ -60,12 +58,7 @@ export interface WeightedVector {
   readonly norm: number;
 }
 
-export function weightDocument(
-  doc: DocTerms,
-  columnOf: Int32Array,
-  weights: Float64Array,
-  scheme: WeightingScheme,
-): WeightedVector {
+export function weightDocument(doc: DocTerms, columnOf: Int32Array, weights: Float64Array, scheme: WeightingScheme): WeightedVector {
   const cols: number[] = [];
   const vals: number[] = [];
   let ss = 0;

@@ -70,7 +70,12 @@ export async function countFilesInParallel(
  * Sends the jobs out in batches and calls onBatch(worker, reply) for each reply, in the order
  * each worker sent them. Resolves when every batch has come back.
  */
-export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], options: CountOptions, onBatch: (w: number, msg: BatchDone) => void): Promise<void> {
+export function runCountBatches(
+  pool: WorkerPool,
+  jobs: readonly CountJob[],
+  options: CountOptions,
+  onBatch: (w: number, msg: BatchDone) => void,
+): Promise<void> {
   const batches: number[][] = [];
   let current: number[] = [];
   let bytes = 0;
@@ -138,7 +143,12 @@ export function runCountBatches(pool: WorkerPool, jobs: readonly CountJob[], opt
     workers.forEach((worker) => {
       worker.on('message', handlers.get(worker)!);
       worker.on('error', onError);
-      const setup: ToWorker = { type: 'setup', tokenize: options.tokenize, maxFileBytes: options.maxFileBytes, keepCounts: options.keepCounts };
+      const setup: ToWorker = {
+        type: 'setup',
+        tokenize: options.tokenize,
+        maxFileBytes: options.maxFileBytes,
+        keepCounts: options.keepCounts,
+      };
       worker.postMessage(setup);
     });
     for (let r = 0; r < IN_FLIGHT_PER_WORKER; r++) workers.forEach((_, w) => send(w));
@@ -196,7 +206,15 @@ let keys = new Float64Array(1024);
  * Translates ids[from, to) (local ids) by tr and writes them, sorted ascending, with their counts
  * to termIds / out at the same positions.
  */
-export function translateRun(ids: Int32Array, counts: Int32Array, from: number, to: number, tr: Int32Array, termIds: Int32Array, out: Float32Array): void {
+export function translateRun(
+  ids: Int32Array,
+  counts: Int32Array,
+  from: number,
+  to: number,
+  tr: Int32Array,
+  termIds: Int32Array,
+  out: Float32Array,
+): void {
   const n = to - from;
   if (n > keys.length) keys = new Float64Array(Math.max(n, keys.length * 2));
   // Keys pack (new id, position): a file has fewer than 2^21 distinct terms (it is at most a few MB).

@@ -70,7 +70,9 @@ port.on('message', (msg: ToWorker) => {
     }
     if (keepCounts) {
       // The counts stay in the pack until finish-counts; the reply says where.
-      const files: FileOutcome[] = read.map((r) => ('kind' in r ? r : { index: r.index, kind: 'kept', at: r.at, terms: r.terms, length: r.length }));
+      const files: FileOutcome[] = read.map((r) =>
+        'kind' in r ? r : { index: r.index, kind: 'kept', at: r.at, terms: r.terms, length: r.length },
+      );
       for (const r of read) if (!('kind' in r)) kept.push(r.at, r.at + r.terms);
       const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: wc.takeNewTerms(), files };
       port.postMessage(reply);
@@ -79,7 +81,15 @@ port.on('message', (msg: ToWorker) => {
     // One pair of buffers for the whole batch; each file's arrays are views into them.
     const { ids, counts } = wc.takePack();
     const files: FileOutcome[] = read.map((r) =>
-      'kind' in r ? r : { index: r.index, kind: 'text', ids: ids.subarray(r.at, r.at + r.terms), counts: counts.subarray(r.at, r.at + r.terms), length: r.length },
+      'kind' in r
+        ? r
+        : {
+            index: r.index,
+            kind: 'text',
+            ids: ids.subarray(r.at, r.at + r.terms),
+            counts: counts.subarray(r.at, r.at + r.terms),
+            length: r.length,
+          },
     );
     const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: wc.takeNewTerms(), files };
     port.postMessage(reply, [ids.buffer as ArrayBuffer, counts.buffer as ArrayBuffer]);

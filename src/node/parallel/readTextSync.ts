@@ -13,7 +13,8 @@ import { describeFsError, looksBinary, type IndexableText } from '../scanRead.js
 const OPEN_FLAGS = constants.O_RDONLY | (constants.O_NONBLOCK ?? 0);
 
 /** A file's bytes (valid until the reader's next read), or why it has none. */
-export type IndexableBytes = { readonly kind: 'bytes'; readonly bytes: Buffer; readonly ascii: boolean } | Exclude<IndexableText, { kind: 'text' }>;
+export type IndexableBytes =
+  { readonly kind: 'bytes'; readonly bytes: Buffer; readonly ascii: boolean } | Exclude<IndexableText, { kind: 'text' }>;
 
 export class FileReader {
   private buf = Buffer.allocUnsafe(1 << 16);

@@ -39,15 +39,24 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
     }
   });
   const orders = await Promise.all(pool.workers.map((_, w) => ask<TermOrder>(pool, w, { type: 'sort-terms' }, 'term-order')));
-  const { sorted, translate } = mergeSorted(terms, orders.map((o) => o.order));
+  const { sorted, translate } = mergeSorted(
+    terms,
+    orders.map((o) => o.order),
+  );
   // Each thread translates and sorts its own files' counts (in parallel), into one pair of arrays.
-  const finals = await Promise.all(pool.workers.map((_, w) => ask<FinalCounts>(pool, w, { type: 'finish-counts', translate: translate[w] }, 'final-counts')));
+  const finals = await Promise.all(
+    pool.workers.map((_, w) => ask<FinalCounts>(pool, w, { type: 'finish-counts', translate: translate[w] }, 'final-counts')),
+  );
   const outcomes: CountOutcome[] = new Array(jobs.length);
   for (let i = 0; i < jobs.length; i++) {
     const r = raw[i];
     if ('worker' in r) {
       const f = finals[r.worker];
-      const terms: DocTerms = { termIds: f.termIds.subarray(r.at, r.at + r.terms), counts: f.counts.subarray(r.at, r.at + r.terms), length: r.length };
+      const terms: DocTerms = {
+        termIds: f.termIds.subarray(r.at, r.at + r.terms),
+        counts: f.counts.subarray(r.at, r.at + r.terms),
+        length: r.length,
+      };
       outcomes[i] = { kind: 'text', terms };
     } else outcomes[i] = r;
   }
@@ -82,7 +91,10 @@ function ask<T extends FromWorker>(pool: WorkerPool, w: number, msg: ToWorker, r
 }
 
 /** Merges per-thread sorted term lists into one sorted list of distinct terms, with each thread's local → global ids. */
-export function mergeSorted(terms: readonly (readonly string[])[], orders: readonly Int32Array[]): { sorted: string[]; translate: Int32Array[] } {
+export function mergeSorted(
+  terms: readonly (readonly string[])[],
+  orders: readonly Int32Array[],
+): { sorted: string[]; translate: Int32Array[] } {
   const k = terms.length;
   const pos = new Int32Array(k);
   const translate = terms.map((t) => new Int32Array(t.length));

@@ -15,7 +15,8 @@ const ID_SPAN = 1 << 21;
 
 function compareBy(terms: readonly string[]): (a: number, b: number) => number {
   return (a, b) => {
-    const x = terms[a], y = terms[b];
+    const x = terms[a],
+      y = terms[b];
     return x < y ? -1 : x > y ? 1 : 0;
   };
 }

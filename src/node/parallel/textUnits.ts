@@ -15,7 +15,11 @@ const WORD_CHAR = /^[\p{L}\p{N}_$]$/u;
 const MARK = /^\p{M}$/u;
 
 /** Classes of a code unit (CLASS) or an astral code point. */
-export const UNKNOWN = 0, WORD = 1, OTHER = 2, MARK_CHAR = 3, HIGH_SURROGATE = 4;
+export const UNKNOWN = 0,
+  WORD = 1,
+  OTHER = 2,
+  MARK_CHAR = 3,
+  HIGH_SURROGATE = 4;
 
 /** Class per code unit of the basic plane, filled in on first sight (classify). */
 export const CLASS = new Uint8Array(65536);
@@ -147,6 +151,7 @@ export function caselessLetters(u: Uint16Array, start: number, end: number): boo
 /** The string of u[start, end). */
 export function unitsToString(u: Uint16Array, start: number, end: number): string {
   let s = '';
-  for (let a = start; a < end; a += 4096) s += String.fromCharCode.apply(null, u.subarray(a, Math.min(end, a + 4096)) as unknown as number[]);
+  for (let a = start; a < end; a += 4096)
+    s += String.fromCharCode.apply(null, u.subarray(a, Math.min(end, a + 4096)) as unknown as number[]);
   return s;
 }

@@ -36,7 +36,11 @@ export class ThreadExecutor extends WasmExecutor {
     const bounds = Array.from(splitCsrRows(m.indptr, m.rows, this.threads * TASKS_PER_THREAD));
     const f32 = m.values instanceof Float32Array && this.arena.offsetOf(m.values) >= 0;
     const values = f32 ? m.values.byteOffset : this.ptr(m.values);
-    this.run({ op: f32 ? 'spmm_f32' : 'spmm', args: [this.ptr(m.indptr), this.ptr(m.indices), values, this.ptr(x), l, out.ptr, sequential ? 0 : 1], bounds });
+    this.run({
+      op: f32 ? 'spmm_f32' : 'spmm',
+      args: [this.ptr(m.indptr), this.ptr(m.indices), values, this.ptr(x), l, out.ptr, sequential ? 0 : 1],
+      bounds,
+    });
     out.done();
   }
 

@@ -4,7 +4,13 @@
  * so tests can drive it without a thread. When the worker dies every pending request is rejected.
  */
 import {
-  isWorkerMessage, type HostMessage, type ParamsOf, type Progress, type Request, type RequestType, type ResultOf,
+  isWorkerMessage,
+  type HostMessage,
+  type ParamsOf,
+  type Progress,
+  type Request,
+  type RequestType,
+  type ResultOf,
 } from './workerProtocol.js';
 import { errorKind, WorkerRequestError } from './workerErrors.js';
 

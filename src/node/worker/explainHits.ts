@@ -16,11 +16,22 @@ export const WHY_TERMS = 5;
 export function toWhy(e: Explanation, wordFor: WordFor, count = WHY_TERMS): Why {
   const { top, rest, restTerms } = topShares(e, count);
   // The feedback part (fusion.ts) counts with the rest, so the parts still add up to the score.
-  return { score: e.score, terms: top.map((t) => ({ word: wordFor(t.term), share: t.share, inBoth: t.inBoth })), rest: rest + e.feedback, restTerms };
+  return {
+    score: e.score,
+    terms: top.map((t) => ({ word: wordFor(t.term), share: t.share, inBoth: t.inBoth })),
+    rest: rest + e.feedback,
+    restTerms,
+  };
 }
 
 /** Why each file matches a query (blended score: concept cosine and BM25, as search ranks). */
-export function searchWhy(index: LsiIndex, query: string, paths: readonly string[], wordFor: WordFor, feedback: Pick<SearchOptions, 'like' | 'unlike'> = {}): (Why | undefined)[] {
+export function searchWhy(
+  index: LsiIndex,
+  query: string,
+  paths: readonly string[],
+  wordFor: WordFor,
+  feedback: Pick<SearchOptions, 'like' | 'unlike'> = {},
+): (Why | undefined)[] {
   if (paths.length === 0) return [];
   let explainer: QueryExplainer;
   try {
@@ -33,12 +44,14 @@ export function searchWhy(index: LsiIndex, query: string, paths: readonly string
 
 /** Why each file is near the subject file (cosine of their concept vectors): by term, and by the concepts both share. */
 export function nearbyWhy(index: LsiIndex, subject: string, paths: readonly string[], wordFor: WordFor): (Why | undefined)[] {
-  return paths.map((p) => attempt(() => {
-    const why = toWhy(explainPair(index, subject, p), wordFor);
-    const shared = attempt(() => sharedConcepts(index, subject, p));
-    if (!shared) return why;
-    return { ...why, concepts: shared.concepts.map((c) => ({ words: c.terms.map(wordFor), share: c.share })), conceptRest: shared.rest };
-  }));
+  return paths.map((p) =>
+    attempt(() => {
+      const why = toWhy(explainPair(index, subject, p), wordFor);
+      const shared = attempt(() => sharedConcepts(index, subject, p));
+      if (!shared) return why;
+      return { ...why, concepts: shared.concepts.map((c) => ({ words: c.terms.map(wordFor), share: c.share })), conceptRest: shared.rest };
+    }),
+  );
 }
 
 function attempt<T>(f: () => T): T | undefined {

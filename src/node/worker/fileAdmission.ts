@@ -8,7 +8,14 @@ import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { Ignore } from 'ignore';
 import {
-  createIgnoreLayer, createNameFilter, createPatternMatcher, DEFAULT_EXCLUDE_NAMES, enterFolder, isGitIgnored, type IgnoreLayer, type NameFilter,
+  createIgnoreLayer,
+  createNameFilter,
+  createPatternMatcher,
+  DEFAULT_EXCLUDE_NAMES,
+  enterFolder,
+  isGitIgnored,
+  type IgnoreLayer,
+  type NameFilter,
 } from '../scanRules.js';
 
 export interface AdmissionOptions {
@@ -52,7 +59,8 @@ export class FileAdmission {
         layers = [...layers, ...(await this.layerAt(prefix, `${prefix}.gitignore`))];
       }
     }
-    if (this._names.file(parts[parts.length - 1]) || this._exclude?.ignores(rel) || (honour && isGitIgnored(layers, rel, false))) return false;
+    if (this._names.file(parts[parts.length - 1]) || this._exclude?.ignores(rel) || (honour && isGitIgnored(layers, rel, false)))
+      return false;
     return !this._include || this._include.ignores(rel);
   }
 

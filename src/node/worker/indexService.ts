@@ -23,7 +23,16 @@ import { questionFit, questionUnits } from '../../core/translations/language.js'
 import { translationPath } from '../../core/translations/pathKey.js';
 import { TranslationFinder } from './translationFinder.js';
 import { InsightService } from './insightService.js';
-import type { FileChange, IndexSummary, RefreshReport, ScoredFile, SearchMatch, TranslationRef, UpdateReport, WorkerConfig } from './workerProtocol.js';
+import type {
+  FileChange,
+  IndexSummary,
+  RefreshReport,
+  ScoredFile,
+  SearchMatch,
+  TranslationRef,
+  UpdateReport,
+  WorkerConfig,
+} from './workerProtocol.js';
 import { RootMap } from './rootMap.js';
 import type { HandlerContext, Handlers } from './server.js';
 import { formsFromTexts } from './wordForms.js';
@@ -105,8 +114,18 @@ export class IndexService {
   configure(config: WorkerConfig): { modelChanged: boolean } {
     this._config = config;
     this._roots = new RootMap(config.roots);
-    this._admission = new Map(config.roots.map((r) => [r.name, new FileAdmission(r.fsPath, { include: config.include, exclude: [...config.exclude, ...r.exclude], honourGitignore: config.honourGitignore })]));
-    const modelChanged = this._index !== undefined && modelSettingsKey(this._index.settings) !== modelSettingsKey(resolveSettings(config.settings));
+    this._admission = new Map(
+      config.roots.map((r) => [
+        r.name,
+        new FileAdmission(r.fsPath, {
+          include: config.include,
+          exclude: [...config.exclude, ...r.exclude],
+          honourGitignore: config.honourGitignore,
+        }),
+      ]),
+    );
+    const modelChanged =
+      this._index !== undefined && modelSettingsKey(this._index.settings) !== modelSettingsKey(resolveSettings(config.settings));
     return { modelChanged };
   }
 
@@ -166,7 +185,10 @@ export class IndexService {
     };
     const feedback = { like: like.map(keyOf), unlike: unlike.map(keyOf) };
     const hits = index.search(query, { top: top + Math.min(top, 20), ...feedback });
-    const groups = await this._translations.groupsOf(index, hits.map((h) => h.path));
+    const groups = await this._translations.groupsOf(
+      index,
+      hits.map((h) => h.path),
+    );
     const units = questionUnits(query);
     const rankOf = new Map(hits.map((h, i) => [h.path, i]));
     const scoreOf = new Map(hits.map((h) => [h.path, h.score]));
@@ -176,15 +198,28 @@ export class IndexService {
       if (used.has(h.path)) continue;
       const members = groups.get(h.path) ?? [h.path];
       for (const m of members) used.add(m);
-      const shown = members.length < 2 ? h.path : members[chooseShown(members.map((m) => ({
-        fit: questionFit(units, this._translations.units(m)),
-        rank: rankOf.get(m) ?? Infinity,
-        original: isOriginalPath(m),
-      })))];
+      const shown =
+        members.length < 2
+          ? h.path
+          : members[
+              chooseShown(
+                members.map((m) => ({
+                  fit: questionFit(units, this._translations.units(m)),
+                  rank: rankOf.get(m) ?? Infinity,
+                  original: isOriginalPath(m),
+                })),
+              )
+            ];
       picked.push({ key: shown, others: members.filter((m) => m !== shown) });
       if (picked.length === top) break;
     }
-    const why = searchWhy(index, query, picked.map((p) => p.key), formsFromTexts([query], index.settings.tokenize.stem), feedback);
+    const why = searchWhy(
+      index,
+      query,
+      picked.map((p) => p.key),
+      formsFromTexts([query], index.settings.tokenize.stem),
+      feedback,
+    );
     const scorer = queryScorer(index, query);
     return Promise.all(
       picked.map(async (p, i) => {
@@ -193,7 +228,15 @@ export class IndexService {
         const line = got.kind === 'text' ? bestMatchingLine(got.text, index, query, scorer) : { line: 0, text: '', highlights: [] };
         // A member shown in place of a ranked translation gets its own score where it can be worked out.
         const score = scoreOf.get(p.key) ?? why[i]?.score ?? scoreOf.get(p.others.find((o) => scoreOf.has(o)) ?? '') ?? 0;
-        return { ...ref, score, why: why[i], line: line.line, lineText: line.text, highlights: line.highlights, ...this.translationFields(p.key, p.others) };
+        return {
+          ...ref,
+          score,
+          why: why[i],
+          line: line.line,
+          lineText: line.text,
+          highlights: line.highlights,
+          ...this.translationFields(p.key, p.others),
+        };
       }),
     );
   }
@@ -221,16 +264,33 @@ export class IndexService {
       if (used.has(h.path)) continue;
       const members = groups.get(h.path) ?? [h.path];
       for (const m of members) used.add(m);
-      const shown = members.length < 2 ? h.path : members[chooseShown(members.map((m) => ({
-        fit: translationPath(m).locale === locale ? 1 : 0,
-        rank: rankOf.get(m) ?? Infinity,
-        original: isOriginalPath(m),
-      })))];
+      const shown =
+        members.length < 2
+          ? h.path
+          : members[
+              chooseShown(
+                members.map((m) => ({
+                  fit: translationPath(m).locale === locale ? 1 : 0,
+                  rank: rankOf.get(m) ?? Infinity,
+                  original: isOriginalPath(m),
+                })),
+              )
+            ];
       picked.push({ key: shown, others: members.filter((m) => m !== shown), score: scoreOf.get(shown) ?? h.score });
       if (picked.length === top) break;
     }
-    const why = nearbyWhy(index, key, picked.map((p) => p.key), formsFromTexts(got?.kind === 'text' ? [got.text] : [], index.settings.tokenize.stem));
-    return picked.map((p, i) => ({ ...this._roots.refOf(p.key), score: scoreOf.has(p.key) ? p.score : (why[i]?.score ?? p.score), why: why[i], ...this.translationFields(p.key, p.others) }));
+    const why = nearbyWhy(
+      index,
+      key,
+      picked.map((p) => p.key),
+      formsFromTexts(got?.kind === 'text' ? [got.text] : [], index.settings.tokenize.stem),
+    );
+    return picked.map((p, i) => ({
+      ...this._roots.refOf(p.key),
+      score: scoreOf.has(p.key) ? p.score : (why[i]?.score ?? p.score),
+      why: why[i],
+      ...this.translationFields(p.key, p.others),
+    }));
   }
 
   /** The same page in other languages as the file at fsPath. */
@@ -271,7 +331,10 @@ export class IndexService {
     this.use(undefined);
     this._dirty = false;
     const file = this.config().indexFile;
-    const existed = await stat(file).then(() => true, () => false);
+    const existed = await stat(file).then(
+      () => true,
+      () => false,
+    );
     await rm(file, { force: true });
     return { deleted: existed };
   }
@@ -301,7 +364,14 @@ export class IndexService {
       if (replay.length > 0) await this.update(replay);
       ctx.progress({ stage: 'save', done: 1, total: 1 });
       const saveProblem = this._saveProblem;
-      return { summary: this.summary()!, read: built.read, reused: built.reused, skipped: built.skipped, seconds: built.seconds, ...(saveProblem ? { saveProblem } : {}) };
+      return {
+        summary: this.summary()!,
+        read: built.read,
+        reused: built.reused,
+        skipped: built.skipped,
+        seconds: built.seconds,
+        ...(saveProblem ? { saveProblem } : {}),
+      };
     } finally {
       this._duringBuild = undefined;
     }

@@ -67,12 +67,18 @@ export async function computeLookalikes(index: LsiIndex, roots: RootMap, o: Look
       sharedWords: g.words,
       words: [g.words, g.words] as const,
     }));
-    return { kind: 'exact', files: g.files.map(ref), pairs: pairs.slice(0, MAX_PAIRS_PER_GROUP), morePairs: Math.max(0, pairs.length - MAX_PAIRS_PER_GROUP) };
+    return {
+      kind: 'exact',
+      files: g.files.map(ref),
+      pairs: pairs.slice(0, MAX_PAIRS_PER_GROUP),
+      morePairs: Math.max(0, pairs.length - MAX_PAIRS_PER_GROUP),
+    };
   });
   const morePairs: Record<LookalikeKind, number> = { exact: 0, near: 0, partial: 0, retold: 0 };
   const band = (kind: LookalikeKind, pairs: readonly LookalikePair[]): void => {
     morePairs[kind] = Math.max(0, pairs.length - MAX_PAIRS_PER_BAND);
-    for (const p of pairs.slice(0, MAX_PAIRS_PER_BAND)) groups.push({ kind, files: [ref(p.a), ref(p.b)], pairs: [wirePair(p)], morePairs: 0 });
+    for (const p of pairs.slice(0, MAX_PAIRS_PER_BAND))
+      groups.push({ kind, files: [ref(p.a), ref(p.b)], pairs: [wirePair(p)], morePairs: 0 });
   };
   band('near', report.nearPairs);
   band('partial', report.partialPairs);

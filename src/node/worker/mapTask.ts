@@ -53,7 +53,9 @@ export async function computeMap(index: LsiIndex, roots: RootMap, topics: Topics
     ...stems,
     topTerms: stems.topTerms.map((terms) => terms.map(wordFor)),
     topicLabels: (topics?.topics ?? []).map((t) => topicLabel(t, DEFAULT_MAP_FROM_INDEX_OPTIONS.labelWords, labelWord)),
-    ...(topics && topics.levels > 1 ? { topicTree: mapTopicTree(stems.paths, topics, (t) => topicLabel(t, DEFAULT_MAP_FROM_INDEX_OPTIONS.labelWords, labelWord)) } : {}),
+    ...(topics && topics.levels > 1
+      ? { topicTree: mapTopicTree(stems.paths, topics, (t) => topicLabel(t, DEFAULT_MAP_FROM_INDEX_OPTIONS.labelWords, labelWord)) }
+      : {}),
   };
   const n = source.count;
   let quick: QuickLayout;
@@ -99,12 +101,22 @@ export function placeMapQuery(model: MapModel, text: string): MapQueryResult {
   const ringed = DEFAULT_QUERY_PLACEMENT_OPTIONS.neighbours;
   let rowOf = rowsByPath.get(model);
   if (!rowOf) rowsByPath.set(model, (rowOf = new Map(model.data.files.paths.map((p, i) => [p, i]))));
-  const hits = model.index.search(text, { top: ringed * 2 }).filter((h) => rowOf.has(h.path)).slice(0, ringed);
+  const hits = model.index
+    .search(text, { top: ringed * 2 })
+    .filter((h) => rowOf.has(h.path))
+    .slice(0, ringed);
   if (hits.length > 0) {
     neighbours = hits.map((h) => rowOf.get(h.path)!);
     similarities = hits.map((h) => h.score);
   } else if (placed) ({ neighbours, similarities } = placed);
-  else ({ index: neighbours, similarity: similarities } = nearestByCosine(model.vectors, model.count, model.index.k, q, DEFAULT_QUERY_PLACEMENT_OPTIONS.neighbours));
+  else
+    ({ index: neighbours, similarity: similarities } = nearestByCosine(
+      model.vectors,
+      model.count,
+      model.index.k,
+      q,
+      DEFAULT_QUERY_PLACEMENT_OPTIONS.neighbours,
+    ));
   return {
     positions: { quick: { x: quick.x, y: quick.y }, faithful: placed ? { x: placed.x, y: placed.y } : null },
     neighbours: Array.from(neighbours),

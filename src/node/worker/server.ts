@@ -5,7 +5,13 @@
  * another guards itself.
  */
 import {
-  isHostMessage, toWireError, type ParamsOf, type Progress, type RequestType, type ResultOf, type WorkerMessage,
+  isHostMessage,
+  toWireError,
+  type ParamsOf,
+  type Progress,
+  type RequestType,
+  type ResultOf,
+  type WorkerMessage,
 } from './workerProtocol.js';
 
 export interface HandlerContext {
@@ -49,9 +55,11 @@ export function serve(port: ServerPort, handlers: Handlers): void {
     } catch (err) {
       answer = Promise.reject(err);
     }
-    answer.then(
-      (result) => port.postMessage({ kind: 'result', id, result }),
-      (err: unknown) => port.postMessage({ kind: 'error', id, error: toWireError(err) }),
-    ).finally(() => running.delete(id));
+    answer
+      .then(
+        (result) => port.postMessage({ kind: 'result', id, result }),
+        (err: unknown) => port.postMessage({ kind: 'error', id, error: toWireError(err) }),
+      )
+      .finally(() => running.delete(id));
   });
 }

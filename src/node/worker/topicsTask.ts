@@ -32,7 +32,8 @@ export async function computeTopics(index: LsiIndex, roots: RootMap, maxFileByte
   const wordFor = await formsFromFiles(roots, sample, { stem: index.settings.tokenize.stem, maxFileBytes, wanted, budget: sample.length });
   const wire = (t: Topic): TopicWire => {
     const picked = new Map(t.files.map((f) => [f.path, f]));
-    const order = t.children.length > 0 ? t.files.map((f) => f.path) : [...t.files.map((f) => f.path), ...t.members.filter((p) => !picked.has(p))];
+    const order =
+      t.children.length > 0 ? t.files.map((f) => f.path) : [...t.files.map((f) => f.path), ...t.members.filter((p) => !picked.has(p))];
     const files: TopicFileWire[] = order.slice(0, MAX_FILES_PER_TOPIC).map((p) => {
       const ex = picked.get(p);
       return { ...roots.refOf(p), similarity: ex ? ex.similarity : null, exemplar: ex !== undefined, picked: ex?.picked ?? false };

@@ -93,7 +93,13 @@ export class TranslationFinder {
     if (old && old.size === meta.size && old.mtimeMs === meta.mtimeMs) return old;
     const text = await this._read(key).catch(() => null);
     if (text === null) return undefined;
-    const k: Known = { size: meta.size, mtimeMs: meta.mtimeMs, signature: structureSignature(text), units: documentUnits(text), prose: proseOf(text) };
+    const k: Known = {
+      size: meta.size,
+      mtimeMs: meta.mtimeMs,
+      signature: structureSignature(text),
+      units: documentUnits(text),
+      prose: proseOf(text),
+    };
     if (this._known.size >= MAX_KNOWN) this._known.delete(this._known.keys().next().value!);
     this._known.set(key, k);
     return k;

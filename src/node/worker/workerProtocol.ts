@@ -145,7 +145,13 @@ export type ResultOf<T extends RequestType> = RequestMap[T]['result'];
  * from reading the cancel message.
  */
 export type Request = {
-  [T in RequestType]: { readonly kind: 'request'; readonly id: number; readonly type: T; readonly params: ParamsOf<T>; readonly cancelFlag?: Int32Array };
+  [T in RequestType]: {
+    readonly kind: 'request';
+    readonly id: number;
+    readonly type: T;
+    readonly params: ParamsOf<T>;
+    readonly cancelFlag?: Int32Array;
+  };
 }[RequestType];
 
 export interface CancelMessage {
@@ -163,7 +169,19 @@ export type WorkerMessage =
   | { readonly kind: 'error'; readonly id: number; readonly error: WireError }
   | { readonly kind: 'progress'; readonly id: number; readonly progress: Progress };
 
-export const REQUEST_TYPES: readonly RequestType[] = ['configure', 'load', 'refresh', 'build', 'update', 'search', 'nearby', 'translations', 'save', 'deleteIndex', ...INSIGHT_REQUEST_TYPES];
+export const REQUEST_TYPES: readonly RequestType[] = [
+  'configure',
+  'load',
+  'refresh',
+  'build',
+  'update',
+  'search',
+  'nearby',
+  'translations',
+  'save',
+  'deleteIndex',
+  ...INSIGHT_REQUEST_TYPES,
+];
 
 const isObject = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null;
 const isId = (x: unknown): x is number => Number.isSafeInteger(x) && (x as number) >= 0;

@@ -68,7 +68,11 @@ export interface WorkspaceBuildOptions {
   readonly threads?: number | false;
 }
 
-export async function buildWorkspaceIndex(roots: RootMap, config: WorkerConfig, options: WorkspaceBuildOptions = {}): Promise<WorkspaceBuild> {
+export async function buildWorkspaceIndex(
+  roots: RootMap,
+  config: WorkerConfig,
+  options: WorkspaceBuildOptions = {},
+): Promise<WorkspaceBuild> {
   const { threads } = options;
   const result = await runIndexPipeline({
     settings: resolveSettings(config.settings),

@@ -89,7 +89,11 @@ export class MapApp {
 
     const mapCanvas = el('canvas', {
       className: 'um-map-canvas',
-      attrs: { tabindex: '0', role: 'img', 'aria-label': `Concept map of ${this.n} files. Scroll to zoom, drag to pan, click a dot to open its file.` },
+      attrs: {
+        tabindex: '0',
+        role: 'img',
+        'aria-label': `Concept map of ${this.n} files. Scroll to zoom, drag to pan, click a dot to open its file.`,
+      },
     });
     const mapPanel = el('section', { className: 'um-panel um-map-panel', attrs: { role: 'tabpanel', 'aria-label': 'Map' } }, [
       mapCanvas,
@@ -106,7 +110,11 @@ export class MapApp {
     this.zoomBar.hidden = true;
     const spectrumCanvas = el('canvas', { attrs: { role: 'img', 'aria-label': 'Singular value spectrum' } });
     const caption = el('div', { className: 'um-spectrum-caption' });
-    const spectrumPanel = el('section', { className: 'um-panel um-spectrum-panel', attrs: { role: 'tabpanel', 'aria-label': 'Spectrum' } }, [spectrumCanvas, caption]);
+    const spectrumPanel = el(
+      'section',
+      { className: 'um-panel um-spectrum-panel', attrs: { role: 'tabpanel', 'aria-label': 'Spectrum' } },
+      [spectrumCanvas, caption],
+    );
     this.panels = { map: mapPanel, spectrum: spectrumPanel };
     mapPanel.hidden = this.tab !== 'map';
     spectrumPanel.hidden = this.tab !== 'spectrum';
@@ -127,7 +135,10 @@ export class MapApp {
         text: `Bars: the ${singularValues.length} singular values computed for the weighted term–document matrix. Line: the share of its energy (Σσ²/‖A‖²F) kept by the first k concepts.`,
       }),
     );
-    this.legend.setColours((t) => this.colourOf(t), (t) => this.shapeOf(t));
+    this.legend.setColours(
+      (t) => this.colourOf(t),
+      (t) => this.shapeOf(t),
+    );
     watchTheme(() => this.refreshTheme());
     this.showTab(this.tab);
     this.updateLayoutButtons();
@@ -226,12 +237,14 @@ export class MapApp {
     if (q && at) {
       const best = q.neighbours[0];
       // The rings are search's own ranking (the worker ranks them as a search does), so the first is search's first answer.
-      const near = best === undefined ? 'no matching files' : `best: ${this.data.files.paths[best]} (score ${q.similarities[0].toFixed(2)})`;
+      const near =
+        best === undefined ? 'no matching files' : `best: ${this.data.files.paths[best]} (score ${q.similarities[0].toFixed(2)})`;
       const shown = q.text.length > 32 ? `${q.text.slice(0, 31)}…` : q.text;
       this.setStatus(`“${shown}” placed · ringed: its ${q.neighbours.length} best search results · ${near}`);
       const sx = this.canvas.vp.sx(at.x);
       const sy = this.canvas.vp.sy(at.y);
-      if (reveal && (sx < 0 || sy < 0 || sx > this.canvas.vp.width || sy > this.canvas.vp.height)) this.canvas.vp.pan(this.canvas.vp.width / 2 - sx, this.canvas.vp.height / 2 - sy);
+      if (reveal && (sx < 0 || sy < 0 || sx > this.canvas.vp.width || sy > this.canvas.vp.height))
+        this.canvas.vp.pan(this.canvas.vp.width / 2 - sx, this.canvas.vp.height / 2 - sy);
     }
     this.canvas.requestDraw();
   }
@@ -278,7 +291,10 @@ export class MapApp {
     this.theme = readTheme(this.root, this.view.labels.length);
     this.canvas.setTheme(this.theme);
     this.spectrum.setTheme(this.theme);
-    this.legend.setColours((t) => this.colourOf(t), (t) => this.shapeOf(t));
+    this.legend.setColours(
+      (t) => this.colourOf(t),
+      (t) => this.shapeOf(t),
+    );
   }
 
   private shapeOf(topic: number): number {

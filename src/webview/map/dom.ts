@@ -11,7 +11,11 @@ export interface ElementProps {
   readonly attrs?: Readonly<Record<string, string>>;
 }
 
-export function el<K extends keyof HTMLElementTagNameMap>(tag: K, props: ElementProps = {}, children: readonly (Node | string)[] = []): HTMLElementTagNameMap[K] {
+export function el<K extends keyof HTMLElementTagNameMap>(
+  tag: K,
+  props: ElementProps = {},
+  children: readonly (Node | string)[] = [],
+): HTMLElementTagNameMap[K] {
   const e = document.createElement(tag);
   if (props.className) e.className = props.className;
   if (props.text !== undefined) e.textContent = props.text;

@@ -88,9 +88,12 @@ export class DotRaster {
           const dx = xx - half;
           const dy = yy - half;
           // Signed distance outside the shape: circle, square (same half-width), triangle pointing up.
-          const d = shape === 1 ? Math.max(Math.abs(dx), Math.abs(dy))
-            : shape === 2 ? radius + Math.max(dy - 0.675 * radius, 0.866 * Math.abs(dx) - 0.5 * dy - 0.675 * radius)
-            : Math.hypot(dx, dy);
+          const d =
+            shape === 1
+              ? Math.max(Math.abs(dx), Math.abs(dy))
+              : shape === 2
+                ? radius + Math.max(dy - 0.675 * radius, 0.866 * Math.abs(dx) - 0.5 * dy - 0.675 * radius)
+                : Math.hypot(dx, dy);
           coverage[yy * side + xx] = Math.max(0, Math.min(1, radius + 0.5 - d));
         }
       }

@@ -27,11 +27,15 @@ export class Legend {
     for (const e of rows) {
       const swatch = el('span', { className: 'um-swatch' });
       this.swatches.set(e.topic, swatch);
-      const row = el('button', { className: 'um-legend-row', attrs: { type: 'button', 'aria-pressed': 'false', 'data-topic': String(e.topic) } }, [
-        swatch,
-        el('span', { className: 'um-legend-label', text: e.label, attrs: { title: e.label } }),
-        el('span', { className: 'um-legend-count', text: formatCount(e.count) }),
-      ]);
+      const row = el(
+        'button',
+        { className: 'um-legend-row', attrs: { type: 'button', 'aria-pressed': 'false', 'data-topic': String(e.topic) } },
+        [
+          swatch,
+          el('span', { className: 'um-legend-label', text: e.label, attrs: { title: e.label } }),
+          el('span', { className: 'um-legend-count', text: formatCount(e.count) }),
+        ],
+      );
       row.addEventListener('mouseenter', () => this.onFocus(e.topic));
       row.addEventListener('mouseleave', () => this.onFocus(this.pinned));
       row.addEventListener('click', () => {
@@ -42,7 +46,16 @@ export class Legend {
         this.onFocus(this.pinned);
       });
       if (zoom?.opens(e.topic)) {
-        const open = el('button', { className: 'um-legend-open', text: '›', attrs: { type: 'button', title: `Show the sub-topics of ${e.label}`, 'aria-label': `Show the sub-topics of ${e.label}`, 'data-open': String(e.topic) } });
+        const open = el('button', {
+          className: 'um-legend-open',
+          text: '›',
+          attrs: {
+            type: 'button',
+            title: `Show the sub-topics of ${e.label}`,
+            'aria-label': `Show the sub-topics of ${e.label}`,
+            'data-open': String(e.topic),
+          },
+        });
         open.addEventListener('click', (ev) => {
           ev.stopPropagation();
           zoom.open(e.topic);

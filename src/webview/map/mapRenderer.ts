@@ -38,7 +38,14 @@ export function zoomGrowth(zoom: number): number {
 /** File count above which dots are rasterised in software (common practice: a few thousand). */
 export const RASTER_MIN = 4000;
 
-export function drawMap(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, theme: MapTheme, raster: DotRaster, dpr: number): void {
+export function drawMap(
+  ctx: CanvasRenderingContext2D,
+  vp: Viewport,
+  scene: MapScene,
+  theme: MapTheme,
+  raster: DotRaster,
+  dpr: number,
+): void {
   const { x, y, radius, groups } = scene;
   const grow = zoomGrowth(vp.zoom);
   if (x.length > RASTER_MIN) {
@@ -107,7 +114,16 @@ function drawDotPaths(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapSce
   }
 }
 
-function ring(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, i: number, colour: string, width: number, gap: number, grow: number): void {
+function ring(
+  ctx: CanvasRenderingContext2D,
+  vp: Viewport,
+  scene: MapScene,
+  i: number,
+  colour: string,
+  width: number,
+  gap: number,
+  grow: number,
+): void {
   ctx.beginPath();
   ctx.arc(vp.sx(scene.x[i]), vp.sy(scene.y[i]), scene.radius[i] * grow + gap, 0, 2 * Math.PI);
   ctx.lineWidth = width;

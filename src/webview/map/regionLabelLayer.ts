@@ -23,7 +23,12 @@ export class RegionLabelLayer {
     private readonly onShown: (labels: string[]) => void = () => undefined,
   ) {}
 
-  draw(ctx: CanvasRenderingContext2D, vp: Viewport, scene: { x: Float32Array; y: Float32Array; topicIds: Int32Array; focusTopic: number | null }, theme: MapTheme): void {
+  draw(
+    ctx: CanvasRenderingContext2D,
+    vp: Viewport,
+    scene: { x: Float32Array; y: Float32Array; topicIds: Int32Array; focusTopic: number | null },
+    theme: MapTheme,
+  ): void {
     if (scene.x !== this.forX) {
       this.anchors = regionAnchors(scene.x, scene.y, scene.topicIds, this.texts.length);
       this.forX = scene.x;
@@ -33,11 +38,13 @@ export class RegionLabelLayer {
     ctx.textAlign = 'center';
     ctx.textBaseline = 'middle';
     const height = 16;
-    const boxes = this.anchors.map((a) => {
-      const text = label(this.texts[a.topic] ?? '');
-      const width = ctx.measureText(text).width + 8;
-      return { topic: a.topic, text, left: vp.sx(a.x) - width / 2, top: vp.sy(a.y) - height / 2, width, height };
-    }).filter((b) => b.text && b.left + b.width > 0 && b.top + b.height > 0 && b.left < vp.width && b.top < vp.height);
+    const boxes = this.anchors
+      .map((a) => {
+        const text = label(this.texts[a.topic] ?? '');
+        const width = ctx.measureText(text).width + 8;
+        return { topic: a.topic, text, left: vp.sx(a.x) - width / 2, top: vp.sy(a.y) - height / 2, width, height };
+      })
+      .filter((b) => b.text && b.left + b.width > 0 && b.top + b.height > 0 && b.left < vp.width && b.top < vp.height);
     const kept = new Set(labelsToDraw(boxes).map((b) => b.topic));
     this.shown = [];
     for (const b of boxes) {

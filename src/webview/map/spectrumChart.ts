@@ -126,7 +126,11 @@ export class SpectrumChart {
       c.setLineDash([]);
       c.fillStyle = t.fg;
       c.textAlign = kx > M.left + plotW - 160 ? 'right' : 'left';
-      c.fillText(`k = ${k} keeps ${(100 * cumulative[k - 1]).toFixed(1)}% of the energy`, kx + (c.textAlign === 'right' ? -6 : 6), M.top + 12);
+      c.fillText(
+        `k = ${k} keeps ${(100 * cumulative[k - 1]).toFixed(1)}% of the energy`,
+        kx + (c.textAlign === 'right' ? -6 : 6),
+        M.top + 12,
+      );
     }
     // Axis titles and x ticks.
     c.fillStyle = t.muted;

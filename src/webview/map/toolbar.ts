@@ -25,8 +25,13 @@ const LAYOUT_TITLES: Record<LayoutName, string> = {
 };
 
 export function buildToolbar(title: string, h: ToolbarHandlers): Toolbar {
-  const search = el('input', { attrs: { type: 'search', placeholder: 'Place a query on the map…', 'aria-label': 'Query', spellcheck: 'false' } });
-  const form = el('form', { className: 'um-search', attrs: { role: 'search' } }, [search, el('button', { text: 'Place', attrs: { type: 'submit' } })]);
+  const search = el('input', {
+    attrs: { type: 'search', placeholder: 'Place a query on the map…', 'aria-label': 'Query', spellcheck: 'false' },
+  });
+  const form = el('form', { className: 'um-search', attrs: { role: 'search' } }, [
+    search,
+    el('button', { text: 'Place', attrs: { type: 'submit' } }),
+  ]);
   form.addEventListener('submit', (e) => {
     e.preventDefault();
     h.query(search.value.trim());

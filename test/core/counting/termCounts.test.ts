@@ -62,10 +62,12 @@ describe('Vocabulary', () => {
   it('finds every term of a vocabulary in first-seen (unsorted) order after a reopen', () => {
     const v = new Vocabulary();
     const firstSeen: string[] = [];
-    for (const d of cisi.docs.slice(0, 200)) for (const t of tokenize(d.text)) if (v.idOf(t) === undefined) {
-      firstSeen.push(t);
-      v.add(t);
-    }
+    for (const d of cisi.docs.slice(0, 200))
+      for (const t of tokenize(d.text))
+        if (v.idOf(t) === undefined) {
+          firstSeen.push(t);
+          v.add(t);
+        }
     const copy = reopen(v);
     expect(copy.toBytes().sorted).toBeLessThan(firstSeen.length);
     expect(firstSeen.map((t) => copy.idOf(t))).toEqual(firstSeen.map((_, id) => id));

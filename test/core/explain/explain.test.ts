@@ -103,7 +103,10 @@ describe('explanations on CISI', () => {
 describe('explanations on a small hand-made index', () => {
   const build = () => {
     const b = new IndexBuilder({ prune: { minDocs: 2, maxDocFraction: 1, maxTerms: 100000 } });
-    b.addText({ path: 'tides.md', size: 1, mtimeMs: 0 }, 'Tide tables give the tidal window for the ferry berth. The tide sets the window.');
+    b.addText(
+      { path: 'tides.md', size: 1, mtimeMs: 0 },
+      'Tide tables give the tidal window for the ferry berth. The tide sets the window.',
+    );
     b.addText({ path: 'berth.md', size: 1, mtimeMs: 0 }, 'The ferry berth is dredged; at low tide the berth is shallow.');
     b.addText({ path: 'fares.md', size: 1, mtimeMs: 0 }, 'Ferry fares and refunds: refunds are paid when sailings are cancelled.');
     b.addText({ path: 'refunds.md', size: 1, mtimeMs: 0 }, 'Refunds for cancelled sailings and refunds of fares, with vouchers.');

@@ -98,7 +98,15 @@ function tfOf(d: DocTerms, t: number): number {
 }
 
 /** Top of (1 − a)·cos(q, v_j) + a·lexical_j/max over slots (skip excluded). */
-function plainBlend(index: LsiIndex, q: Float32Array, wc: number, a: number, lexical: number[], top: number, skip = ''): { path: string; score: number; slot: number }[] {
+function plainBlend(
+  index: LsiIndex,
+  q: Float32Array,
+  wc: number,
+  a: number,
+  lexical: number[],
+  top: number,
+  skip = '',
+): { path: string; score: number; slot: number }[] {
   const max = Math.max(...lexical);
   const ranked: { path: string; score: number; slot: number }[] = [];
   index.slots().forEach((s, j) => {
@@ -136,9 +144,15 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
 function plainNearby(index: LsiIndex, path: string, top: number): { path: string; score: number }[] {
   const d = index.termsOf(path);
   const idf = (t: number): number => index.bm25().idf(t);
-  const order = Array.from(d.termIds.keys()).sort((a, b) => Math.log1p(d.counts[b]) * idf(d.termIds[b]) - Math.log1p(d.counts[a]) * idf(d.termIds[a]) || a - b);
+  const order = Array.from(d.termIds.keys()).sort(
+    (a, b) => Math.log1p(d.counts[b]) * idf(d.termIds[b]) - Math.log1p(d.counts[a]) * idf(d.termIds[a]) || a - b,
+  );
   const kept = order.slice(0, 40).sort((a, b) => a - b);
-  const query: DocTerms = { termIds: Int32Array.from(kept, (i) => d.termIds[i]), counts: Float32Array.from(kept, (i) => d.counts[i]), length: 0 };
+  const query: DocTerms = {
+    termIds: Int32Array.from(kept, (i) => d.termIds[i]),
+    counts: Float32Array.from(kept, (i) => d.counts[i]),
+    length: 0,
+  };
   const lexical = plainBm25(index, query);
   lexical[index.slots().findIndex((s) => s?.meta.path === path)] = 0;
   return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path);
@@ -171,7 +185,12 @@ describe('LsiIndex ranking against the plain formula', () => {
     index.remove(cran.docs[10].id);
     index.remove('new1');
     compare();
-    expect(index.search('quuxified frobnicator', { top: 2 }).map((h) => h.path).sort()).toEqual(['new0', 'new2']);
+    expect(
+      index
+        .search('quuxified frobnicator', { top: 2 })
+        .map((h) => h.path)
+        .sort(),
+    ).toEqual(['new0', 'new2']);
   });
 });
 

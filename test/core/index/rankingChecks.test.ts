@@ -13,9 +13,17 @@
  * "Ranking checks"), so a regression fails and an improvement shows.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { buildFixtureIndex, loadRankingFixture, nearbyFigures, searchFigures, type MethodFigures, type RankingFixture } from '../../helpers/rankingChecks.js';
+import {
+  buildFixtureIndex,
+  loadRankingFixture,
+  nearbyFigures,
+  searchFigures,
+  type MethodFigures,
+  type RankingFixture,
+} from '../../helpers/rankingChecks.js';
 
-const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): number => Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
+const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): number =>
+  Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
 
 describe('Nearby on linked documentation (nDCG@10)', () => {
   it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 5% above TF-IDF cosine, above LSI; within 10% of BM25 of the whole page', () => {

@@ -34,10 +34,15 @@ describe('retrieval quality with the default settings', () => {
       const runs = new Map<string, string[]>();
       for (const q of col!.queries) {
         if (!col!.qrels.has(q.id)) continue;
-        runs.set(q.id, index.search(q.text, { top: index.size }).map((h) => h.path));
+        runs.set(
+          q.id,
+          index.search(q.text, { top: index.size }).map((h) => h.path),
+        );
       }
       const summary = evaluateRuns(runs, col!.qrels);
-      console.log(`${name.toUpperCase()}: MAP ${summary.map.toFixed(4)} P@10 ${summary.precisionAt10.toFixed(4)} nDCG@10 ${summary.ndcgAt10.toFixed(4)} over ${summary.queries} queries (k=${index.k})`);
+      console.log(
+        `${name.toUpperCase()}: MAP ${summary.map.toFixed(4)} P@10 ${summary.precisionAt10.toFixed(4)} nDCG@10 ${summary.ndcgAt10.toFixed(4)} over ${summary.queries} queries (k=${index.k})`,
+      );
       expect(summary.map).toBeGreaterThanOrEqual(floor);
       expect(summary.map).toBeGreaterThanOrEqual(BASELINE_SHARE[name] * bestBaseline(name));
     });

@@ -31,7 +31,7 @@ describe('bandCandidates', () => {
       for (let c = 0; c < B * R; c++) {
         const v = rng.nextUint32();
         sig[2 * t * B * R + c] = v;
-        sig[(2 * t + 1) * B * R + c] = rng.next() < s ? v : (v ^ (1 + rng.nextUint32() % 0xfffffffe)) >>> 0;
+        sig[(2 * t + 1) * B * R + c] = rng.next() < s ? v : (v ^ (1 + (rng.nextUint32() % 0xfffffffe))) >>> 0;
       }
     }
     const cand = bandCandidates(sig, 2 * T, B * R, { bands: B, rows: R, maxBucketSize: 100 });

@@ -72,7 +72,10 @@ export function buildMutatedCorpus(base: readonly TextDoc[], variants: number, c
   const docs = base.map((d) => ({ ...d }));
   const donors = base.map((d) => d.text);
   for (let v = 0; v < variants; v++) {
-    const source = rng.next() < 0.2 && docs.length > base.length ? docs[base.length + Math.floor(rng.next() * (docs.length - base.length))] : pick(rng, base);
+    const source =
+      rng.next() < 0.2 && docs.length > base.length
+        ? docs[base.length + Math.floor(rng.next() * (docs.length - base.length))]
+        : pick(rng, base);
     const ops = 1 + Math.floor(rng.next() * 5);
     docs.push({ id: `variant/${v}-of-${source.id}`, text: mutate(source.text, ops, donors, rng) });
   }

@@ -48,6 +48,8 @@ describe('findLookalikes on the demo workspace', () => {
 
     const plantedPairs = key.nearCopies.flatMap((g) => g.flatMap((a, i) => g.slice(i + 1).map((b) => pairKey(a, b))));
     const found = plantedPairs.filter((k) => reported.includes(k)).length;
-    console.log(`lookalike demo: ${files.length} files, exact groups ${report.exactGroups.length}/${key.exactCopies.length}, near pairs found ${found}/${plantedPairs.length} at J ≥ 0.8`);
+    console.log(
+      `lookalike demo: ${files.length} files, exact groups ${report.exactGroups.length}/${key.exactCopies.length}, near pairs found ${found}/${plantedPairs.length} at J ≥ 0.8`,
+    );
   });
 });

@@ -48,7 +48,9 @@ describe('findLookalikes on CISI with planted near-copies', () => {
     // Exact groups only hold texts that have ≥ 5 tokens here or none; drop pairs the truth cannot judge (no shingles).
     const claimed = [...reportedPairs(report, docs)].filter((k) => {
       const [i, j] = k.split(' ').map(Number);
-      return (docs[i].text.match(/[\p{L}\p{M}\p{N}_]+/gu)?.length ?? 0) >= 5 && (docs[j].text.match(/[\p{L}\p{M}\p{N}_]+/gu)?.length ?? 0) >= 5;
+      return (
+        (docs[i].text.match(/[\p{L}\p{M}\p{N}_]+/gu)?.length ?? 0) >= 5 && (docs[j].text.match(/[\p{L}\p{M}\p{N}_]+/gu)?.length ?? 0) >= 5
+      );
     });
     const truePositives = claimed.filter((k) => truth.has(k)).length;
     const precision = truePositives / claimed.length;

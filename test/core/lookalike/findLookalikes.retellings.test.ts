@@ -65,7 +65,8 @@ function expanded(r: LookalikeReport, a: string, b: string): string[] {
 /** Pairs of a report's exact groups (every two members). */
 function exactPairs(r: LookalikeReport): Set<string> {
   const out = new Set<string>();
-  for (const g of r.exactGroups) for (let i = 0; i < g.files.length; i++) for (let j = i + 1; j < g.files.length; j++) out.add(key(g.files[i], g.files[j]));
+  for (const g of r.exactGroups)
+    for (let i = 0; i < g.files.length; i++) for (let j = i + 1; j < g.files.length; j++) out.add(key(g.files[i], g.files[j]));
   return out;
 }
 
@@ -80,7 +81,10 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     const exactFound = c.planted.exact.filter(([a, b]) => exact.has(key(a, b))).length;
 
     // Near and partial copies: truth by the reference Jaccard of each planted pair.
-    const plantedEdited = [...c.planted.near, ...c.planted.partial].map(([a, b]) => ({ k: key(a, b), j: referenceJaccard(text.get(a)!, text.get(b)!) }));
+    const plantedEdited = [...c.planted.near, ...c.planted.partial].map(([a, b]) => ({
+      k: key(a, b),
+      j: referenceJaccard(text.get(a)!, text.get(b)!),
+    }));
     const nearTruth = plantedEdited.filter((p) => p.j >= 0.8);
     const partialTruth = plantedEdited.filter((p) => p.j >= 0.3 && p.j < 0.8);
     const nearKeys = new Set(report.nearPairs.flatMap((p) => expanded(report, p.a, p.b)));
@@ -144,7 +148,12 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
         `  same content, other words: ${retold.length} reported, ${hits.length} retellings (coreutils ${bySource('coreutils')}, gnu-other ${bySource('gnu-other')}), recall ${recall.toFixed(3)}, ${falseRetold} not in the key`,
         `  baseline TF-IDF cosine, J < 0.3: ${baseSame} retellings before its ${falseRetold + 1}th false pair; ${base3} with ≤ 3 false, ${base5} with ≤ 5 false`,
         ...baselineFalse.map((x) => `    baseline's first false pairs: ${x}`),
-        ...retold.filter((r) => !truth.has(r.k)).map((r) => `    not in the key: ${r.p.a} ~ ${r.p.b} (cosine ${r.p.cosine!.toFixed(2)}, margin ${r.p.gap!.toFixed(2)}, J ${r.p.jaccard.toFixed(2)})`),
+        ...retold
+          .filter((r) => !truth.has(r.k))
+          .map(
+            (r) =>
+              `    not in the key: ${r.p.a} ~ ${r.p.b} (cosine ${r.p.cosine!.toFixed(2)}, margin ${r.p.gap!.toFixed(2)}, J ${r.p.jaccard.toFixed(2)})`,
+          ),
       ].join('\n'),
     );
 

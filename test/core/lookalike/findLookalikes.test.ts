@@ -20,7 +20,9 @@ const WORDS = (
 
 function note(seed: number, lines = 12, perLine = 8): string {
   const rng = createRandom(seed);
-  return Array.from({ length: lines }, () => Array.from({ length: perLine }, () => WORDS[Math.floor(rng.next() * WORDS.length)]).join(' ')).join('\n');
+  return Array.from({ length: lines }, () =>
+    Array.from({ length: perLine }, () => WORDS[Math.floor(rng.next() * WORDS.length)]).join(' '),
+  ).join('\n');
 }
 
 /** Reference Jaccard of token 5-gram string sets (independent of the finder's hashing). */
@@ -97,7 +99,14 @@ describe('findLookalikes: awkward input', () => {
   });
 
   it('rejects duplicate ids and malformed files', () => {
-    expect(() => findLookalikes({ files: [{ id: 'x', text: 'a' }, { id: 'x', text: 'b' }] })).toThrow(/more than once/);
+    expect(() =>
+      findLookalikes({
+        files: [
+          { id: 'x', text: 'a' },
+          { id: 'x', text: 'b' },
+        ],
+      }),
+    ).toThrow(/more than once/);
     expect(() => findLookalikes({ files: [{ id: 'x', text: 3 as unknown as string }] })).toThrow(InvalidInputError);
   });
 });
@@ -131,7 +140,13 @@ describe('findLookalikes: bands', () => {
 
   it('puts a copy with about half its text kept in "Partial copies", not in near-copies', () => {
     const half = [...lines.slice(0, 7), ...note(14, 5).split('\n')].join('\n');
-    const r = findLookalikes({ files: [{ id: 'a.md', text: base }, { id: 'b.md', text: half }, { id: 'c.md', text: note(15) }] });
+    const r = findLookalikes({
+      files: [
+        { id: 'a.md', text: base },
+        { id: 'b.md', text: half },
+        { id: 'c.md', text: note(15) },
+      ],
+    });
     const j = referenceJaccard(base, half);
     expect(j).toBeGreaterThanOrEqual(0.3);
     expect(j).toBeLessThan(0.8);

@@ -13,7 +13,7 @@ describe('multiplyAddShift', () => {
       const [aHi, aLo, bHi, bLo, x] = [pickWord(), pickWord(), pickWord(), pickWord(), pickWord()];
       const a = (BigInt(aHi) << 32n) | BigInt(aLo);
       const b = (BigInt(bHi) << 32n) | BigInt(bLo);
-      const expected = Number((((a * BigInt(x) + b) & ((1n << 64n) - 1n)) >> 32n));
+      const expected = Number(((a * BigInt(x) + b) & ((1n << 64n) - 1n)) >> 32n);
       expect(multiplyAddShift(aHi, aLo, bHi, bLo, x)).toBe(expected);
     }
   });

@@ -10,7 +10,6 @@ describe('DEFAULT_LOOKALIKE_OPTIONS', () => {
     // With these, a pair at the threshold is a candidate with probability ≈ 0.95 (1 − (1 − s^r)^b, Mining of Massive Datasets ch. 3).
     expect(candidateProbability(o.threshold, o.bands, o.numHashes / o.bands)).toBeGreaterThan(0.94);
   });
-
 });
 
 describe('resolveLookalikeOptions', () => {

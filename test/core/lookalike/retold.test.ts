@@ -11,7 +11,20 @@ const lowJ = () => 0.02;
 describe('findRetoldPairs', () => {
   it('keeps mutual nearest neighbours that stand clear of both files’ next neighbours', () => {
     const pairs = findRetoldPairs(
-      { neighbours: [[1, 2], [0, 2], [0, 1]], cosines: [[0.8, 0.3], [0.8, 0.4], [0.3, 0.4]], jaccard: lowJ, maxJaccard: 0.15 },
+      {
+        neighbours: [
+          [1, 2],
+          [0, 2],
+          [0, 1],
+        ],
+        cosines: [
+          [0.8, 0.3],
+          [0.8, 0.4],
+          [0.3, 0.4],
+        ],
+        jaccard: lowJ,
+        maxJaccard: 0.15,
+      },
       rule,
     );
     expect(pairs).toHaveLength(1);
@@ -20,7 +33,20 @@ describe('findRetoldPairs', () => {
   });
 
   it('refuses a pair that is not mutual, too close to a third file, too weak, or sharing text', () => {
-    const base = { neighbours: [[1, 2], [2, 0], [1, 0]], cosines: [[0.8, 0.3], [0.9, 0.8], [0.9, 0.3]], jaccard: lowJ, maxJaccard: 0.15 };
+    const base = {
+      neighbours: [
+        [1, 2],
+        [2, 0],
+        [1, 0],
+      ],
+      cosines: [
+        [0.8, 0.3],
+        [0.9, 0.8],
+        [0.9, 0.3],
+      ],
+      jaccard: lowJ,
+      maxJaccard: 0.15,
+    };
     // 0's nearest is 1 but 1's nearest is 2: not mutual; 1 ↔ 2 are mutual but 1's next (0.8) is too close.
     expect(findRetoldPairs(base, rule)).toEqual([]);
     const clear = { neighbours: [[1], [0]], cosines: [[0.45], [0.45]], jaccard: lowJ, maxJaccard: 0.15 };
@@ -34,7 +60,10 @@ describe('findRetoldPairs', () => {
       { neighbours: [[1], [0], [3], [2]], cosines: [[0.9], [0.9], [0.7], [0.7]], jaccard: lowJ, maxJaccard: 0.15 },
       rule,
     );
-    expect(pairs.map((p) => [p.a, p.b])).toEqual([[0, 1], [2, 3]]); // strongest margin first
+    expect(pairs.map((p) => [p.a, p.b])).toEqual([
+      [0, 1],
+      [2, 3],
+    ]); // strongest margin first
   });
 });
 

@@ -4,7 +4,11 @@ import { describeShared, MIN_LINES, sharedAmount } from '../../../src/core/looka
 
 describe('sharedAmount', () => {
   it('counts lines when both files have enough of them', () => {
-    expect(sharedAmount({ sharedLines: 11, lines: [12, 12], sharedWords: 90, words: [96, 96] })).toEqual({ unit: 'lines', shared: 11, of: 12 });
+    expect(sharedAmount({ sharedLines: 11, lines: [12, 12], sharedWords: 90, words: [96, 96] })).toEqual({
+      unit: 'lines',
+      shared: 11,
+      of: 12,
+    });
   });
 
   it('counts words for one-line files, where "0 shared lines" would say nothing', () => {

@@ -6,7 +6,16 @@ import { loadCorpusDocs, referenceShingles } from './corpusFixtures.js';
 describe('shingleTokens', () => {
   it('lowercases words, identifiers and numbers without stemming or dropping stop words', () => {
     expect(shingleTokens('The Running parse_header(Buf2, 3.14) is in the café')).toEqual([
-      'the', 'running', 'parse_header', 'buf2', '3', '14', 'is', 'in', 'the', 'café',
+      'the',
+      'running',
+      'parse_header',
+      'buf2',
+      '3',
+      '14',
+      'is',
+      'in',
+      'the',
+      'café',
     ]);
   });
 });

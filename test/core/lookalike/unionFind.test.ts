@@ -15,10 +15,12 @@ function bfsComponents(n: number, edges: [number, number][]): number[][] {
     if (seen[s]) continue;
     const comp = [s];
     seen[s] = 1;
-    for (let q = 0; q < comp.length; q++) for (const t of adj[comp[q]]) if (!seen[t]) {
-      comp.push(t);
-      seen[t] = 1;
-    }
+    for (let q = 0; q < comp.length; q++)
+      for (const t of adj[comp[q]])
+        if (!seen[t]) {
+          comp.push(t);
+          seen[t] = 1;
+        }
     if (comp.length >= 2) out.push(comp.sort((x, y) => x - y));
   }
   return out.sort((x, y) => x[0] - y[0]);

@@ -96,11 +96,23 @@ describe('classicalMds (Torgerson–Gower)', () => {
     const placed = triangulate(mds, sq, new Float64Array(2));
     const landmarks = Array.from({ length: SMALL.length }, (_, i) => [mds.coords[2 * i], mds.coords[2 * i + 1]]);
     // Same rigid motion must carry both the landmarks and the new point.
-    expect(procrustesDisparity([...landmarks.map((p) => p[0]), placed[0]], [...landmarks.map((p) => p[1]), placed[1]], [...SMALL.map((p) => p[0]), extra[0]], [...SMALL.map((p) => p[1]), extra[1]])).toBeLessThan(1e-12);
+    expect(
+      procrustesDisparity(
+        [...landmarks.map((p) => p[0]), placed[0]],
+        [...landmarks.map((p) => p[1]), placed[1]],
+        [...SMALL.map((p) => p[0]), extra[0]],
+        [...SMALL.map((p) => p[1]), extra[1]],
+      ),
+    ).toBeLessThan(1e-12);
   });
 
   it('gives zero coordinates on an axis whose eigenvalue is not positive (collinear points)', () => {
-    const line = [[0, 0], [1, 0], [2, 0], [4, 0]];
+    const line = [
+      [0, 0],
+      [1, 0],
+      [2, 0],
+      [4, 0],
+    ];
     const mds = classicalMds(squaredDistances(line), 4);
     expect(mds.eigenvalues[1]).toBeLessThan(1e-9);
     for (let i = 0; i < 4; i++) expect(mds.coords[2 * i + 1]).toBe(0);

@@ -4,7 +4,15 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ciede2000, distinctColours, leastDifference, simulate, srgbToLab, topicStyles, VISIONS } from '../../../src/core/map/distinctPalette.js';
+import {
+  ciede2000,
+  distinctColours,
+  leastDifference,
+  simulate,
+  srgbToLab,
+  topicStyles,
+  VISIONS,
+} from '../../../src/core/map/distinctPalette.js';
 import { contrastRatio, topicPalette, type Rgb } from '../../../src/core/map/palette.js';
 
 interface Reference {
@@ -14,7 +22,9 @@ interface Reference {
   pairs: [number, number][];
   ciede2000: number[];
 }
-const ref = JSON.parse(readFileSync(path.resolve(import.meta.dirname, '../../fixtures/checks/palette-reference.json'), 'utf8')) as Reference;
+const ref = JSON.parse(
+  readFileSync(path.resolve(import.meta.dirname, '../../fixtures/checks/palette-reference.json'), 'utf8'),
+) as Reference;
 
 const minPairwise = (cs: readonly Rgb[]) => {
   let least = Infinity;
@@ -36,7 +46,14 @@ describe('colour science against reference libraries', () => {
 
   it('computes CIELab as colorspacious and CIEDE2000 as colormath', () => {
     ref.colours.forEach((c, i) => srgbToLab(c).forEach((v, k) => expect(Math.abs(v - ref.lab[i][k])).toBeLessThan(0.05)));
-    ref.pairs.forEach(([i, j], n) => expect(Math.abs(ciede2000(ref.lab[i] as unknown as [number, number, number], ref.lab[j] as unknown as [number, number, number]) - ref.ciede2000[n])).toBeLessThan(1e-3));
+    ref.pairs.forEach(([i, j], n) =>
+      expect(
+        Math.abs(
+          ciede2000(ref.lab[i] as unknown as [number, number, number], ref.lab[j] as unknown as [number, number, number]) -
+            ref.ciede2000[n],
+        ),
+      ).toBeLessThan(1e-3),
+    );
   });
 });
 
@@ -49,7 +66,9 @@ describe('topic palette', () => {
       const least = minPairwise(cs);
       // The previous palette (golden-angle hues) had pairs such as rgb(194,94,83) and rgb(193,92,102).
       const before = minPairwise(topicPalette(8, bg));
-      console.log(`background ${bg}: least CIEDE2000 over ${VISIONS.join('/')} = ${least.toFixed(1)} (golden-angle palette: ${before.toFixed(1)})`);
+      console.log(
+        `background ${bg}: least CIEDE2000 over ${VISIONS.join('/')} = ${least.toFixed(1)} (golden-angle palette: ${before.toFixed(1)})`,
+      );
       expect(least).toBeGreaterThan(before);
       expect(least).toBeGreaterThanOrEqual(10);
     }

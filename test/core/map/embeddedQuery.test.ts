@@ -20,7 +20,16 @@ for (let i = 0; i < n; i++) {
   for (let c = 0; c < K; c++) files[i * K + c] /= Math.sqrt(s);
 }
 const quick = quickLayout(files, n, K);
-const data = buildEmbeddedQueryData({ count: n, dimensions: K, fileVectors: files, terms, termVectors, globalWeights, localWeighting: 'log1p', quick });
+const data = buildEmbeddedQueryData({
+  count: n,
+  dimensions: K,
+  fileVectors: files,
+  terms,
+  termVectors,
+  globalWeights,
+  localWeighting: 'log1p',
+  quick,
+});
 const split = (t: string) => t.toLowerCase().split(/\s+/).filter(Boolean);
 
 /** Exact float64 fold and ranking, written out independently. */
@@ -66,13 +75,33 @@ describe('EmbeddedQueryEngine', () => {
   });
 
   it('uses the tokenizer it is given: with the engine’s tokenizer, inflected words reach stemmed terms', () => {
-    const stemmed = buildEmbeddedQueryData({ count: n, dimensions: K, fileVectors: files, terms: terms.map((t) => tokenize(t)[0]), termVectors, globalWeights, localWeighting: 'log1p', quick });
+    const stemmed = buildEmbeddedQueryData({
+      count: n,
+      dimensions: K,
+      fileVectors: files,
+      terms: terms.map((t) => tokenize(t)[0]),
+      termVectors,
+      globalWeights,
+      localWeighting: 'log1p',
+      quick,
+    });
     const withTokenizer = new EmbeddedQueryEngine(stemmed, (t) => tokenize(t));
     expect(withTokenizer.fold('Harbors and lanterns').knownTerms).toBe(2);
   });
 
   it('rejects data whose parts disagree', () => {
-    expect(() => buildEmbeddedQueryData({ count: n, dimensions: K, fileVectors: files, terms, termVectors, globalWeights: [1], localWeighting: 'raw', quick })).toThrow(InvalidInputError);
+    expect(() =>
+      buildEmbeddedQueryData({
+        count: n,
+        dimensions: K,
+        fileVectors: files,
+        terms,
+        termVectors,
+        globalWeights: [1],
+        localWeighting: 'raw',
+        quick,
+      }),
+    ).toThrow(InvalidInputError);
   });
 });
 

@@ -25,7 +25,11 @@ describe('exactNeighbours', () => {
 
   it('pads rows with -1 when there are fewer other rows than slots', () => {
     const lists = exactNeighbours(rowVectors(p.data.subarray(0, 3 * p.dim), 3, p.dim), 4);
-    expect(Array.from(lists.indices.subarray(0, 4)).filter((j) => j >= 0).sort()).toEqual([1, 2]);
+    expect(
+      Array.from(lists.indices.subarray(0, 4))
+        .filter((j) => j >= 0)
+        .sort(),
+    ).toEqual([1, 2]);
     expect(lists.indices[3]).toBe(-1);
     expect(lists.distances[3]).toBe(Number.POSITIVE_INFINITY);
   });

@@ -94,7 +94,10 @@ describe('map source from an index', () => {
     const s = mapSourceFromIndex(ref.index, null, { termsPerFile: 6 });
     ref.tf.forEach((m, j) => {
       const weight = (t: string) => Math.log1p(m.get(t) ?? 0) * ref.g.get(t)!;
-      const expected = [...m.keys()].filter((t) => weight(t) > 0).sort((x, y) => weight(y) - weight(x) || (x < y ? -1 : 1)).slice(0, 6);
+      const expected = [...m.keys()]
+        .filter((t) => weight(t) > 0)
+        .sort((x, y) => weight(y) - weight(x) || (x < y ? -1 : 1))
+        .slice(0, 6);
       // Same weights in the same order (a swap of two equal weights would be allowed).
       expect(s.topTerms[j].map((t) => weight(t))).toEqual(expected.map((t) => expect.closeTo(weight(t), 12)));
       expect(new Set(s.topTerms[j]).size).toBe(s.topTerms[j].length);
@@ -122,7 +125,14 @@ describe('map source from an index', () => {
   it('gives every topic member its topic and label, and files the topics left out -1', () => {
     const report = findTopics(ref.index, { topics: 5 });
     const s = mapSourceFromIndex(ref.index, report, { labelWords: 2 });
-    expect(s.topicLabels).toEqual(report.topics.map((t) => t.terms.slice(0, 2).map((x) => x.term).join(', ')));
+    expect(s.topicLabels).toEqual(
+      report.topics.map((t) =>
+        t.terms
+          .slice(0, 2)
+          .map((x) => x.term)
+          .join(', '),
+      ),
+    );
     report.topics.forEach((t, i) => {
       for (const p of t.members) expect(s.topicIds[s.paths.indexOf(p)]).toBe(i);
     });
@@ -165,7 +175,8 @@ describe('map source from an index', () => {
       for (const t of tokenize(q.text)) if (ref.g.has(t)) tf.set(t, (tf.get(t) ?? 0) + 1);
       if (tf.size === 0) continue;
       const exact = new Float64Array(lead);
-      for (const [t, c] of tf) for (let d = 0; d < lead; d++) exact[d] += sign[d] * Math.log1p(c) * ref.g.get(t)! * u.get(ref.terms.indexOf(t), d);
+      for (const [t, c] of tf)
+        for (let d = 0; d < lead; d++) exact[d] += sign[d] * Math.log1p(c) * ref.g.get(t)! * u.get(ref.terms.indexOf(t), d);
       const folded = engine.fold(q.text).vector;
       const own = ref.index.projectText(q.text);
       let cosOwn = 0;

@@ -52,7 +52,14 @@ describe('host → page messages', () => {
     for (const m of [
       { type: 'init', data },
       { type: 'layout', name: 'faithful', layout: { x: [0], y: [1] } },
-      { type: 'queryResult', requestId: 2, text: 'q', positions: { quick: { x: 0, y: 1 }, faithful: null }, neighbours: [0], similarities: [0.5] },
+      {
+        type: 'queryResult',
+        requestId: 2,
+        text: 'q',
+        positions: { quick: { x: 0, y: 1 }, faithful: null },
+        neighbours: [0],
+        similarities: [0.5],
+      },
       { type: 'queryError', requestId: 2, message: 'no known words' },
       { type: 'select', index: null },
       { type: 'theme', kind: 'high-contrast' },
@@ -63,7 +70,25 @@ describe('host → page messages', () => {
 
   it('rejects an init with damaged data and a query answer with mismatched lists', () => {
     expect(isHostToPageMessage({ type: 'init', data: { ...data, version: 2 } })).toBe(false);
-    expect(isHostToPageMessage({ type: 'queryResult', requestId: 2, text: 'q', positions: { quick: null, faithful: null }, neighbours: [0, 1], similarities: [0.5] })).toBe(false);
-    expect(isHostToPageMessage({ type: 'queryResult', requestId: 2, text: 'q', positions: { quick: { x: 'a', y: 0 }, faithful: null }, neighbours: [], similarities: [] })).toBe(false);
+    expect(
+      isHostToPageMessage({
+        type: 'queryResult',
+        requestId: 2,
+        text: 'q',
+        positions: { quick: null, faithful: null },
+        neighbours: [0, 1],
+        similarities: [0.5],
+      }),
+    ).toBe(false);
+    expect(
+      isHostToPageMessage({
+        type: 'queryResult',
+        requestId: 2,
+        text: 'q',
+        positions: { quick: { x: 'a', y: 0 }, faithful: null },
+        neighbours: [],
+        similarities: [],
+      }),
+    ).toBe(false);
   });
 });

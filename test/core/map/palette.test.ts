@@ -1,5 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { contrastRatio, oklchToRgb, parseCssColour, relativeLuminance, toHex, topicPalette, unassignedColour, type Rgb } from '../../../src/core/map/palette.js';
+import {
+  contrastRatio,
+  oklchToRgb,
+  parseCssColour,
+  relativeLuminance,
+  toHex,
+  topicPalette,
+  unassignedColour,
+  type Rgb,
+} from '../../../src/core/map/palette.js';
 
 // Typical editor backgrounds (from memory of the default light, dark and high-contrast themes).
 const BACKGROUNDS: Rgb[] = [

@@ -7,7 +7,10 @@ describe('region labels', () => {
     const x = [0, 1, -1, 0, 100, 10, 11, 12, 50];
     const y = [0, 0, 0, 1, 100, 10, 10, 10, 50];
     const t = [0, 0, 0, 0, 0, 1, 1, 1, 2];
-    expect(regionAnchors(x, y, t, 3)).toEqual([{ topic: 0, count: 5, x: 0, y: 0 }, { topic: 1, count: 3, x: 11, y: 10 }]);
+    expect(regionAnchors(x, y, t, 3)).toEqual([
+      { topic: 0, count: 5, x: 0, y: 0 },
+      { topic: 1, count: 3, x: 11, y: 10 },
+    ]);
   });
 
   it('keeps the first of two overlapping labels', () => {

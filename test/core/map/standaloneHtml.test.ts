@@ -74,8 +74,12 @@ describe('buildStandaloneHtml', () => {
   });
 
   it('is deterministic for the same input, and uses a given nonce', () => {
-    expect(buildStandaloneHtml({ script: SCRIPT, styles: '', data: pageData() })).toBe(buildStandaloneHtml({ script: SCRIPT, styles: '', data: pageData() }));
-    expect(buildStandaloneHtml({ script: SCRIPT, styles: '', data: pageData(), nonce: 'abcdefghijklmnop1234' })).toContain('<script nonce="abcdefghijklmnop1234">');
+    expect(buildStandaloneHtml({ script: SCRIPT, styles: '', data: pageData() })).toBe(
+      buildStandaloneHtml({ script: SCRIPT, styles: '', data: pageData() }),
+    );
+    expect(buildStandaloneHtml({ script: SCRIPT, styles: '', data: pageData(), nonce: 'abcdefghijklmnop1234' })).toContain(
+      '<script nonce="abcdefghijklmnop1234">',
+    );
   });
 
   it('refuses data without the embedded query data, and a short nonce', () => {
@@ -86,8 +90,15 @@ describe('buildStandaloneHtml', () => {
 
 describe('buildMapWebviewHtml', () => {
   it('loads script and style from the webview origin under the same CSP style', () => {
-    const html = buildMapWebviewHtml({ nonce: 'n0nceN0nceN0nce12', cspSource: 'https://file+.vscode-resource.example', scriptUri: 'https://x/map.js', styleUri: 'https://x/map.css' });
+    const html = buildMapWebviewHtml({
+      nonce: 'n0nceN0nceN0nce12',
+      cspSource: 'https://file+.vscode-resource.example',
+      scriptUri: 'https://x/map.js',
+      styleUri: 'https://x/map.css',
+    });
     expect(html).toContain('<script nonce="n0nceN0nceN0nce12" src="https://x/map.js"></script>');
-    expect(mapContentSecurityPolicy({ nonce: 'n', cspSource: 'vs' })).toBe("default-src 'none'; script-src 'nonce-n'; style-src vs 'nonce-n'; img-src vs data:; base-uri 'none'; form-action 'none'");
+    expect(mapContentSecurityPolicy({ nonce: 'n', cspSource: 'vs' })).toBe(
+      "default-src 'none'; script-src 'nonce-n'; style-src vs 'nonce-n'; img-src vs data:; base-uri 'none'; form-action 'none'",
+    );
   });
 });

@@ -43,9 +43,12 @@ describe('topEigenpairs', () => {
     const d = [5, 3, -100, 1, 0.5, -2, 0.1, 0, 0, 0, 0.2, 0.3];
     const n = d.length;
     // An orthogonal basis: the eigenvectors of a random symmetric matrix.
-    const qr = new EigenvalueDecomposition(new Matrix(Array.from({ length: n }, (_, i) => Array.from(randomSymmetric(n, 1).subarray(i * n, (i + 1) * n)))), {
-      assumeSymmetric: true,
-    }).eigenvectorMatrix;
+    const qr = new EigenvalueDecomposition(
+      new Matrix(Array.from({ length: n }, (_, i) => Array.from(randomSymmetric(n, 1).subarray(i * n, (i + 1) * n)))),
+      {
+        assumeSymmetric: true,
+      },
+    ).eigenvectorMatrix;
     const a = qr.mmul(Matrix.diag(d)).mmul(qr.transpose());
     const flat = Float64Array.from(a.to1DArray());
     const got = topEigenpairs(flat, n, 2, { denseMaxN: 4 });

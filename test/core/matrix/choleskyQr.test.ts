@@ -14,29 +14,33 @@ function orthoError(q: Float64Array, rows: number, l: number): number {
 
 function residualOutsideSpan(y: Float64Array, q: Float64Array, rows: number, l: number): number {
   const c = serialExecutor.cross(q, y, rows, l); // QᵀY
-  let num = 0, den = 0;
-  for (let i = 0; i < rows; i++) for (let b = 0; b < l; b++) {
-    let proj = 0;
-    for (let a = 0; a < l; a++) proj += q[i * l + a] * c[a * l + b];
-    num += (y[i * l + b] - proj) ** 2;
-    den += y[i * l + b] ** 2;
-  }
+  let num = 0,
+    den = 0;
+  for (let i = 0; i < rows; i++)
+    for (let b = 0; b < l; b++) {
+      let proj = 0;
+      for (let a = 0; a < l; a++) proj += q[i * l + a] * c[a * l + b];
+      num += (y[i * l + b] - proj) ** 2;
+      den += y[i * l + b] ** 2;
+    }
   return Math.sqrt(num / den);
 }
 
 describe('choleskyQr', () => {
   const rnd = createRandom(3);
-  const rows = 200, l = 12;
+  const rows = 200,
+    l = 12;
 
   it('inverts an upper-triangular factor', () => {
     const r = new Float64Array(l * l);
     for (let i = 0; i < l; i++) for (let j = i; j < l; j++) r[i * l + j] = i === j ? 2 + rnd.next() : rnd.normal();
     const xt = invertUpperTransposed(r, l);
-    for (let i = 0; i < l; i++) for (let j = 0; j < l; j++) {
-      let s = 0;
-      for (let t = 0; t < l; t++) s += r[i * l + t] * xt[j * l + t];
-      expect(Math.abs(s - (i === j ? 1 : 0))).toBeLessThan(1e-12);
-    }
+    for (let i = 0; i < l; i++)
+      for (let j = 0; j < l; j++) {
+        let s = 0;
+        for (let t = 0; t < l; t++) s += r[i * l + t] * xt[j * l + t];
+        expect(Math.abs(s - (i === j ? 1 : 0))).toBeLessThan(1e-12);
+      }
   });
 
   it('gives an orthonormal basis of the same span (two passes to working precision)', () => {

@@ -31,12 +31,17 @@ const close = (a: ArrayLike<number>, b: ArrayLike<number>, tol = 1e-12): void =>
 };
 
 describe('row-range kernels', () => {
-  for (const [rows, cols, l] of [[23, 17, 5], [40, 31, 8], [9, 50, 1]] as const) {
+  for (const [rows, cols, l] of [
+    [23, 17, 5],
+    [40, 31, 8],
+    [9, 50, 1],
+  ] as const) {
     it(`spmmRows computes M·X for ${rows}×${cols} by ${l} columns, in any row split, grouped or sequential`, () => {
       const m = randomCsr(rows, cols, 0.3);
       const x = randomArray(cols * l);
       const want = new Float64Array(rows * l);
-      for (let i = 0; i < rows; i++) for (let j = 0; j < cols; j++) for (let c = 0; c < l; c++) want[i * l + c] += m.dense[i * cols + j] * x[j * l + c];
+      for (let i = 0; i < rows; i++)
+        for (let j = 0; j < cols; j++) for (let c = 0; c < l; c++) want[i * l + c] += m.dense[i * cols + j] * x[j * l + c];
       for (const grouped of [true, false]) {
         const whole = new Float64Array(rows * l);
         spmmRows(m.indptr, m.indices, m.values, x, l, whole, 0, rows, grouped);
@@ -70,7 +75,8 @@ describe('row-range kernels', () => {
   }
 
   it('timesSmallRows multiplies by a small right factor, full or upper triangular', () => {
-    const rows = 11, l = 7;
+    const rows = 11,
+      l = 7;
     const y = randomArray(rows * l);
     for (const c of [7, 3]) {
       for (const upper of c === l ? [false, true] : [false]) {
@@ -79,7 +85,8 @@ describe('row-range kernels', () => {
         const wt = new Float64Array(c * l);
         for (let a = 0; a < l; a++) for (let b = 0; b < c; b++) wt[b * l + a] = w[a * c + b];
         const want = new Float64Array(rows * c);
-        for (let i = 0; i < rows; i++) for (let a = 0; a < l; a++) for (let b = 0; b < c; b++) want[i * c + b] += y[i * l + a] * w[a * c + b];
+        for (let i = 0; i < rows; i++)
+          for (let a = 0; a < l; a++) for (let b = 0; b < c; b++) want[i * c + b] += y[i * l + a] * w[a * c + b];
         const out = new Float64Array(rows * c);
         timesSmallRows(y, l, wt, c, upper, out, 0, rows);
         close(out, want);
@@ -93,7 +100,7 @@ describe('gaussianBlock', () => {
   const phi = (x: number): number => {
     const z = Math.abs(x) / Math.SQRT2;
     const t = 1 / (1 + 0.3275911 * z);
-    const erf = 1 - (((((1.061405429 * t - 1.453152027) * t) + 1.421413741) * t - 0.284496736) * t + 0.254829592) * t * Math.exp(-z * z);
+    const erf = 1 - ((((1.061405429 * t - 1.453152027) * t + 1.421413741) * t - 0.284496736) * t + 0.254829592) * t * Math.exp(-z * z);
     return x >= 0 ? 0.5 * (1 + erf) : 0.5 * (1 - erf);
   };
 

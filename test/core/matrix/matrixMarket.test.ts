@@ -74,7 +74,9 @@ describe('Matrix Market', () => {
   it('refuses broken or unsupported files with a clear message', () => {
     expect(() => parseMatrixMarket('hello\n1 1 1\n')).toThrow(/banner/);
     expect(() => parseMatrixMarket('%%MatrixMarket matrix coordinate complex general\n1 1 1\n1 1 1 0\n')).toThrow(/complex/);
-    expect(() => parseMatrixMarket('%%MatrixMarket matrix coordinate real general\n2 2 2\n1 1 1\n')).toThrow(/declares 2 entries but holds 1/);
+    expect(() => parseMatrixMarket('%%MatrixMarket matrix coordinate real general\n2 2 2\n1 1 1\n')).toThrow(
+      /declares 2 entries but holds 1/,
+    );
     expect(() => parseMatrixMarket('%%MatrixMarket matrix coordinate real general\n2 2 1\n3 1 1\n')).toThrow(/out of range/);
     expect(() => parseMatrixMarket('%%MatrixMarket matrix coordinate real general\n2 2 1\n1 1 nan\n')).toThrow(/finite/);
   });

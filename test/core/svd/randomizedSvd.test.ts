@@ -17,11 +17,12 @@ import { fixturePath, loadCollection, referencePython } from '../../helpers/shar
 
 function maxOrthoError(a: Float64Array, rows: number, k: number): number {
   let worst = 0;
-  for (let p = 0; p < k; p++) for (let q = p; q < k; q++) {
-    let dot = 0;
-    for (let i = 0; i < rows; i++) dot += a[i * k + p] * a[i * k + q];
-    worst = Math.max(worst, Math.abs(dot - (p === q ? 1 : 0)));
-  }
+  for (let p = 0; p < k; p++)
+    for (let q = p; q < k; q++) {
+      let dot = 0;
+      for (let i = 0; i < rows; i++) dot += a[i * k + p] * a[i * k + q];
+      worst = Math.max(worst, Math.abs(dot - (p === q ? 1 : 0)));
+    }
   return worst;
 }
 
@@ -30,17 +31,19 @@ function lowRank(rows: number, cols: number, rank: number, seed: number): Float6
   const a = Array.from({ length: rows * rank }, () => r.normal());
   const b = Array.from({ length: rank * cols }, () => r.normal());
   const m = new Float64Array(rows * cols);
-  for (let i = 0; i < rows; i++) for (let t = 0; t < rank; t++) for (let j = 0; j < cols; j++) m[i * cols + j] += a[i * rank + t] * b[t * cols + j];
+  for (let i = 0; i < rows; i++)
+    for (let t = 0; t < rank; t++) for (let j = 0; j < cols; j++) m[i * cols + j] += a[i * rank + t] * b[t * cols + j];
   return m;
 }
 
 function reconstruct(res: SvdResult): Float64Array {
   const out = new Float64Array(res.rows * res.cols);
-  for (let i = 0; i < res.rows; i++) for (let j = 0; j < res.cols; j++) {
-    let s = 0;
-    for (let c = 0; c < res.k; c++) s += res.u[i * res.k + c] * res.s[c] * res.v[j * res.k + c];
-    out[i * res.cols + j] = s;
-  }
+  for (let i = 0; i < res.rows; i++)
+    for (let j = 0; j < res.cols; j++) {
+      let s = 0;
+      for (let c = 0; c < res.k; c++) s += res.u[i * res.k + c] * res.s[c] * res.v[j * res.k + c];
+      out[i * res.cols + j] = s;
+    }
   return out;
 }
 
@@ -71,11 +74,14 @@ describe('randomizedSvd', () => {
   });
 
   it('recovers a random low-rank matrix (rank ≤ k + oversampling) to 1e-6 (reference: exact reconstruction)', () => {
-    const rows = 120, cols = 80, rank = 12;
+    const rows = 120,
+      cols = 80,
+      rank = 12;
     const dense = lowRank(rows, cols, rank, 7);
     const res = randomizedSvd(csrFromDense(rows, cols, dense), { k: 12 });
     const rec = reconstruct(res);
-    let num = 0, den = 0;
+    let num = 0,
+      den = 0;
     for (let i = 0; i < dense.length; i++) {
       num += (rec[i] - dense[i]) ** 2;
       den += dense[i] ** 2;
@@ -86,15 +92,20 @@ describe('randomizedSvd', () => {
   });
 
   it('agrees with ml-matrix dense SVD on the leading singular values (reference library)', () => {
-    const rows = 90, cols = 60, rank = 8;
+    const rows = 90,
+      cols = 60,
+      rank = 8;
     const dense = lowRank(rows, cols, rank, 3);
     const res = randomizedSvd(csrFromDense(rows, cols, dense), { k: 8 });
-    const ref = new SingularValueDecomposition(new Matrix(Array.from({ length: rows }, (_, i) => Array.from(dense.subarray(i * cols, (i + 1) * cols)))));
+    const ref = new SingularValueDecomposition(
+      new Matrix(Array.from({ length: rows }, (_, i) => Array.from(dense.subarray(i * cols, (i + 1) * cols)))),
+    );
     for (let i = 0; i < 8; i++) expect(Math.abs(res.s[i] - ref.diagonal[i]) / ref.diagonal[i]).toBeLessThan(1e-6);
   });
 
   it('handles a matrix whose rank is below the sketch width (rank-deficient range)', () => {
-    const rows = 40, cols = 30;
+    const rows = 40,
+      cols = 30;
     const dense = lowRank(rows, cols, 3, 11);
     const res = randomizedSvd(csrFromDense(rows, cols, dense), { k: 10 });
     expect(res.k).toBe(10);
@@ -104,7 +115,8 @@ describe('randomizedSvd', () => {
   });
 
   it("with factors: 'f32' returns the f64 factors rounded once to f32, and the same singular values", () => {
-    const rows = 60, cols = 90;
+    const rows = 60,
+      cols = 90;
     const r = createRandom(8);
     const dense = Float64Array.from({ length: rows * cols }, () => (r.next() < 0.15 ? r.next() : 0));
     const m = csrFromDense(rows, cols, dense);
@@ -118,7 +130,8 @@ describe('randomizedSvd', () => {
   });
 
   it('is bit-for-bit deterministic for a seed, and seed-independent in its singular values', () => {
-    const rows = 70, cols = 50;
+    const rows = 70,
+      cols = 50;
     const r = createRandom(5);
     const dense = Float64Array.from({ length: rows * cols }, () => (r.next() < 0.1 ? r.next() : 0));
     const m = csrFromDense(rows, cols, dense);
@@ -133,7 +146,7 @@ describe('randomizedSvd', () => {
 
   // Real text: the first 300 CRAN abstracts (test/fixtures/corpora/cran), log-entropy weighted.
   const cran = loadCollection('cran');
-  it('converges to within 1% of ml-matrix\'s dense SVD on the leading 30 singular values of a real term-document matrix', () => {
+  it("converges to within 1% of ml-matrix's dense SVD on the leading 30 singular values of a real term-document matrix", () => {
     const vocab = new Vocabulary();
     const docs = cran.docs.slice(0, 300).map((d) => countTerms(tokenize(d.text), vocab, true));
     const pruned = pruneVocabulary(docs, vocab.size);
@@ -144,8 +157,13 @@ describe('randomizedSvd', () => {
     // iterations and oversampling of k are needed here for 1%.
     const res = randomizedSvd(matrix, { k: 30, powerIterations: 10, oversampling: 30 });
     const dense = Array.from({ length: matrix.rows }, () => new Array<number>(m).fill(0));
-    for (let i = 0; i < matrix.rows; i++) for (let p = matrix.indptr[i]; p < matrix.indptr[i + 1]; p++) dense[i][matrix.indices[p]] = matrix.values[p];
-    const ref = new SingularValueDecomposition(new Matrix(dense), { computeLeftSingularVectors: false, computeRightSingularVectors: false, autoTranspose: true });
+    for (let i = 0; i < matrix.rows; i++)
+      for (let p = matrix.indptr[i]; p < matrix.indptr[i + 1]; p++) dense[i][matrix.indices[p]] = matrix.values[p];
+    const ref = new SingularValueDecomposition(new Matrix(dense), {
+      computeLeftSingularVectors: false,
+      computeRightSingularVectors: false,
+      autoTranspose: true,
+    });
     let worst = 0;
     for (let i = 0; i < 30; i++) worst = Math.max(worst, Math.abs(res.s[i] - ref.diagonal[i]) / ref.diagonal[i]);
     console.log(`CRAN[0:300] ${matrix.rows}x${m}: worst relative error of the leading 30 singular values ${worst.toExponential(2)}`);
@@ -173,10 +191,11 @@ describe('randomizedSvd with its default options', () => {
     const dir = mkdtempSync(join(tmpdir(), 'undertone-svd-'));
     try {
       writeFileSync(join(dir, 'a.mtx'), Array.from(coordinateChunks(matrix)).join(''));
-      const script = 'import sys, json, numpy as np, scipy.io\nfrom scipy.sparse.linalg import svds\n'
-        + 'a = scipy.io.mmread(sys.argv[1]).tocsr()\n'
-        + 's = np.sort(svds(a, k=int(sys.argv[2]), random_state=0, return_singular_vectors=False))[::-1]\n'
-        + 'print(json.dumps([float(x) for x in s]))';
+      const script =
+        'import sys, json, numpy as np, scipy.io\nfrom scipy.sparse.linalg import svds\n' +
+        'a = scipy.io.mmread(sys.argv[1]).tocsr()\n' +
+        's = np.sort(svds(a, k=int(sys.argv[2]), random_state=0, return_singular_vectors=False))[::-1]\n' +
+        'print(json.dumps([float(x) for x in s]))';
       const py = spawnSync(python, ['-c', script, join(dir, 'a.mtx'), String(k)], { encoding: 'utf8', maxBuffer: 1 << 24 });
       expect(py.status, py.stderr).toBe(0);
       const exact = JSON.parse(py.stdout) as number[];

@@ -11,7 +11,12 @@ import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 // edge cases, generated identifiers, the words of the test collections, and, when present, the
 // words of the kernel Documentation folder that scripts/bench-setup.sh unpacks.
 // Every combination of the two options.
-const OPTION_SETS = [DEFAULT_TOKENIZE_OPTIONS, { stem: false, keepCompounds: true }, { stem: true, keepCompounds: false }, { stem: false, keepCompounds: false }];
+const OPTION_SETS = [
+  DEFAULT_TOKENIZE_OPTIONS,
+  { stem: false, keepCompounds: true },
+  { stem: true, keepCompounds: false },
+  { stem: false, keepCompounds: false },
+];
 
 function check(words: Iterable<string>): number {
   let n = 0;
@@ -24,10 +29,52 @@ function check(words: Iterable<string>): number {
 }
 
 const EDGE = [
-  'a', 'ab', 'A', 'HTTPServer', 'getHTTPResponseCode', 'parse_json_value', '__init__', '$scope', 'a$b_c', 'x86_64', 'v2',
-  '2fa', 'ABc', 'ABC', 'aBC', 'Version42Beta', 'deadbeef', 'deadbeef1', 'DEADBEEF12', '0xFF', '0x', '0xg', '0X1f', '12345',
-  '1234', '00000', 'a1b2c3d4e5', 'iPhone', 'IO', 'iOS', 'the', 'The', 'THE', 'for_each', 'IS_ERR_OR_NULL', '_', '__', '$',
-  'snake_CASE_Mixed', 'x'.repeat(41), 'ab'.repeat(20), `${'a'.repeat(20)}_${'b'.repeat(20)}`, 'A1', '1A', 'a_1', '1_a',
+  'a',
+  'ab',
+  'A',
+  'HTTPServer',
+  'getHTTPResponseCode',
+  'parse_json_value',
+  '__init__',
+  '$scope',
+  'a$b_c',
+  'x86_64',
+  'v2',
+  '2fa',
+  'ABc',
+  'ABC',
+  'aBC',
+  'Version42Beta',
+  'deadbeef',
+  'deadbeef1',
+  'DEADBEEF12',
+  '0xFF',
+  '0x',
+  '0xg',
+  '0X1f',
+  '12345',
+  '1234',
+  '00000',
+  'a1b2c3d4e5',
+  'iPhone',
+  'IO',
+  'iOS',
+  'the',
+  'The',
+  'THE',
+  'for_each',
+  'IS_ERR_OR_NULL',
+  '_',
+  '__',
+  '$',
+  'snake_CASE_Mixed',
+  'x'.repeat(41),
+  'ab'.repeat(20),
+  `${'a'.repeat(20)}_${'b'.repeat(20)}`,
+  'A1',
+  '1A',
+  'a_1',
+  '1_a',
 ];
 
 describe('asciiWordTokens', () => {
@@ -98,15 +145,18 @@ describe('asciiWordTokens', () => {
 
   const docs = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation', 'core-api');
   const present = isFolder(docs);
-  it.skipIf(!present)(`equals tokenize() on the words of the kernel's Documentation/core-api ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`, () => {
-    const words = new Set<string>();
-    for (const f of readdirSync(docs, { recursive: true }) as string[]) {
-      const p = join(docs, f);
-      if (!statSync(p).isFile()) continue;
-      for (const m of readFileSync(p, 'utf8').matchAll(/[A-Za-z0-9_$]+/g)) words.add(m[0]);
-    }
-    expect(check(words)).toBeGreaterThan(1000);
-  });
+  it.skipIf(!present)(
+    `equals tokenize() on the words of the kernel's Documentation/core-api ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`,
+    () => {
+      const words = new Set<string>();
+      for (const f of readdirSync(docs, { recursive: true }) as string[]) {
+        const p = join(docs, f);
+        if (!statSync(p).isFile()) continue;
+        for (const m of readFileSync(p, 'utf8').matchAll(/[A-Za-z0-9_$]+/g)) words.add(m[0]);
+      }
+      expect(check(words)).toBeGreaterThan(1000);
+    },
+  );
 });
 
 function isFolder(p: string): boolean {

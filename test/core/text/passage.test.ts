@@ -30,7 +30,13 @@ describe('passage of a result', () => {
 
   it('prefers a sentence about a word to a line holding the word alone', () => {
     // The shape of reStructuredText reference pages: a literal on its own line, the explanation further down.
-    const text = ['``suspend``', '', 'Other notes.', '', 'To suspend the machine, write mem to the state file; it sleeps until a key is pressed.'].join('\n');
+    const text = [
+      '``suspend``',
+      '',
+      'Other notes.',
+      '',
+      'To suspend the machine, write mem to the state file; it sleeps until a key is pressed.',
+    ].join('\n');
     const p = choosePassage(text, wordScorer('suspend'));
     expect(p.line).toBe(4);
     expect(p.text.slice(p.highlights[0][0], p.highlights[0][1])).toBe('suspend');

@@ -13,7 +13,10 @@ describe('surface forms of stems', () => {
     const f = new SurfaceForms();
     f.add('Retrieval systems. Retrieving documents; retrieval of documents; RETRIEVAL.');
     expect(f.wordFor(stemWord('retrieval'))).toBe('retrieval');
-    expect(f.formsOf(stemWord('retrieval'))).toEqual([['retrieval', 3], ['retrieving', 1]]);
+    expect(f.formsOf(stemWord('retrieval'))).toEqual([
+      ['retrieval', 3],
+      ['retrieving', 1],
+    ]);
     expect(f.wordFor('document')).toBe('documents');
   });
 

@@ -31,10 +31,23 @@ describe('tokenize', () => {
     // Examples from Porter (1980), "An algorithm for suffix stripping", Program 14(3), steps 1a–2
     // (recalled from memory of the paper's step tables; each agrees with the published algorithm).
     const cases: [string, string][] = [
-      ['caresses', 'caress'], ['ponies', 'poni'], ['cats', 'cat'], ['feed', 'feed'], ['agreed', 'agre'],
-      ['plastered', 'plaster'], ['motoring', 'motor'], ['sing', 'sing'], ['conflated', 'conflat'],
-      ['hopping', 'hop'], ['falling', 'fall'], ['filing', 'file'], ['happy', 'happi'], ['relational', 'relat'],
-      ['conditional', 'condit'], ['rational', 'ration'], ['digitizer', 'digit'],
+      ['caresses', 'caress'],
+      ['ponies', 'poni'],
+      ['cats', 'cat'],
+      ['feed', 'feed'],
+      ['agreed', 'agre'],
+      ['plastered', 'plaster'],
+      ['motoring', 'motor'],
+      ['sing', 'sing'],
+      ['conflated', 'conflat'],
+      ['hopping', 'hop'],
+      ['falling', 'fall'],
+      ['filing', 'file'],
+      ['happy', 'happi'],
+      ['relational', 'relat'],
+      ['conditional', 'condit'],
+      ['rational', 'ration'],
+      ['digitizer', 'digit'],
     ];
     for (const [word, stem] of cases) expect(stemWord(word)).toBe(stem);
     expect(tokenize('Indexing indexed indexes')).toEqual(['index', 'index', 'index']);

@@ -23,7 +23,12 @@ describe('npmiCoherence', () => {
     // Terms 1 and 2: P(2) = 2/4, P(1,2) = 1/4.
     const q = 0.25 + NPMI_EPSILON;
     const want12 = Math.log(q / 0.375) / -Math.log(q);
-    const [s01, s12, s02, s012] = npmiCoherence(a, [[0, 1], [1, 2], [0, 2], [0, 1, 2]]);
+    const [s01, s12, s02, s012] = npmiCoherence(a, [
+      [0, 1],
+      [1, 2],
+      [0, 2],
+      [0, 1, 2],
+    ]);
     expect(s01).toBeCloseTo(want01, 12);
     expect(s12).toBeCloseTo(want12, 12);
     expect(s02).toBe(-1); // never together

@@ -42,8 +42,23 @@ function squaredSingularValues(dense: Matrix): number[] {
 // ε = 0.5 doubles c twice over (c = 93 at k = 10): run on the small collection only, to keep the
 // suite light on two cores.
 const corpora = [
-  { name: 'adi', limit: 82, settings: [[5, 1], [10, 1], [10, 0.5]] },
-  { name: 'cisi', limit: 500, settings: [[5, 1], [10, 1]] },
+  {
+    name: 'adi',
+    limit: 82,
+    settings: [
+      [5, 1],
+      [10, 1],
+      [10, 0.5],
+    ],
+  },
+  {
+    name: 'cisi',
+    limit: 500,
+    settings: [
+      [5, 1],
+      [10, 1],
+    ],
+  },
 ] as const;
 
 for (const { name, limit, settings } of corpora) {
@@ -83,7 +98,9 @@ for (const { name, limit, settings } of corpora) {
             if (r.error.columnsOnly <= (1 + epsilon / 2) * exactTail) withinColumns++;
           }
           ratios.sort((x, y) => x - y);
-          console.log(`${name} ${method} k=${k} ε=${epsilon}: ratio min ${ratios[0].toFixed(3)} median ${ratios[seeds >> 1].toFixed(3)} max ${ratios[seeds - 1].toFixed(3)}`);
+          console.log(
+            `${name} ${method} k=${k} ε=${epsilon}: ratio min ${ratios[0].toFixed(3)} median ${ratios[seeds >> 1].toFixed(3)} max ${ratios[seeds - 1].toFixed(3)}`,
+          );
           expect(withinCur / seeds).toBeGreaterThanOrEqual(0.95);
           if (method === 'column-select') expect(withinColumns / seeds).toBeGreaterThanOrEqual(0.95);
         });
@@ -144,7 +161,9 @@ describe('DEIM-CUR bound on ADI', () => {
     const u = new Matrix(Array.from({ length: k }, (_, s) => Array.from(f.middle.subarray(s * k, (s + 1) * k))));
     const residual = Matrix.sub(dense, c.mmul(u).mmul(rt.transpose()));
     const twoNorm = new SingularValueDecomposition(residual.transpose()).norm2;
-    console.log(`ADI DEIM-CUR k=${k}: ‖A−CUR‖₂ ${twoNorm.toFixed(4)}, (η_p+η_q)σ_{k+1} ${((etaP + etaQ) * exact.s[k]).toFixed(4)}, σ_{k+1} ${exact.s[k].toFixed(4)}`);
+    console.log(
+      `ADI DEIM-CUR k=${k}: ‖A−CUR‖₂ ${twoNorm.toFixed(4)}, (η_p+η_q)σ_{k+1} ${((etaP + etaQ) * exact.s[k]).toFixed(4)}, σ_{k+1} ${exact.s[k].toFixed(4)}`,
+    );
     expect(twoNorm).toBeLessThanOrEqual((etaP + etaQ) * exact.s[k]);
     expect(twoNorm).toBeGreaterThanOrEqual(exact.s[k] * (1 - 1e-9)); // no rank-k product beats σ_{k+1} (Eckart–Young)
   });

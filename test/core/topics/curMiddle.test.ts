@@ -18,7 +18,11 @@ function sparseDense(rows: number, cols: number, density: number, seed: number):
 }
 
 function picks(indices: number[], scales?: number[]): Picks {
-  return { indices: Int32Array.from(indices), counts: new Int32Array(indices.length).fill(1), scales: Float64Array.from(scales ?? indices.map(() => 1)) };
+  return {
+    indices: Int32Array.from(indices),
+    counts: new Int32Array(indices.length).fill(1),
+    scales: Float64Array.from(scales ?? indices.map(() => 1)),
+  };
 }
 
 function dense(a: Float64Array, rows: number, cols: number): Matrix {
@@ -27,9 +31,19 @@ function dense(a: Float64Array, rows: number, cols: number): Matrix {
 
 function bruteForce(a: Matrix, col: Picks, row: Picks) {
   const c = new Matrix(a.rows, col.indices.length);
-  col.indices.forEach((j, s) => c.setColumn(s, a.getColumn(j).map((x) => x * col.scales[s])));
+  col.indices.forEach((j, s) =>
+    c.setColumn(
+      s,
+      a.getColumn(j).map((x) => x * col.scales[s]),
+    ),
+  );
   const r = new Matrix(row.indices.length, a.columns);
-  row.indices.forEach((i, s) => r.setRow(s, a.getRow(i).map((x) => x * row.scales[s])));
+  row.indices.forEach((i, s) =>
+    r.setRow(
+      s,
+      a.getRow(i).map((x) => x * row.scales[s]),
+    ),
+  );
   const cp = pseudoInverse(c);
   const rp = pseudoInverse(r);
   const u = cp.mmul(a).mmul(rp);

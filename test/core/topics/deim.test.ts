@@ -37,7 +37,11 @@ function eta(basis: Float64Array, k: number, picks: number[]): number {
 }
 
 describe('DEIM index selection', () => {
-  for (const [n, k, seed] of [[40, 4, 1], [200, 10, 2], [500, 20, 3]] as const) {
+  for (const [n, k, seed] of [
+    [40, 4, 1],
+    [200, 10, 2],
+    [500, 20, 3],
+  ] as const) {
     it(`equals partial-pivoting LU row order and keeps η below √(nk/3)·2^k (n=${n}, k=${k})`, () => {
       const v = orthonormalBasis(n, k, seed);
       const picks = deimIndices(v, n, k, k);
@@ -77,7 +81,14 @@ describe('DEIM index selection', () => {
     const a = Float64Array.from([2, 1, 0, 1, 3, 1, 0, 1, 4]);
     const b = Float64Array.from([1, 2, 3]);
     const x = solveSquare(a, b, 3)!;
-    const ref = solve(new Matrix([[2, 1, 0], [1, 3, 1], [0, 1, 4]]), Matrix.columnVector([1, 2, 3]));
+    const ref = solve(
+      new Matrix([
+        [2, 1, 0],
+        [1, 3, 1],
+        [0, 1, 4],
+      ]),
+      Matrix.columnVector([1, 2, 3]),
+    );
     for (let i = 0; i < 3; i++) expect(x[i]).toBeCloseTo(ref.get(i, 0), 12);
     expect(solveSquare(Float64Array.from([1, 2, 2, 4]), Float64Array.from([1, 1]), 2)).toBeNull();
   });

@@ -23,7 +23,13 @@ export function orthonormalBasis(n: number, k: number, seed: number): Float64Arr
  * Points around `groups` random unit directions (dims each), `per` points per group, Gaussian
  * noise of the given size before normalising. Labels are the group numbers.
  */
-export function plantedClusters(groups: number, per: number, dims: number, noise: number, seed: number): { points: Float64Array; labels: number[]; dims: number } {
+export function plantedClusters(
+  groups: number,
+  per: number,
+  dims: number,
+  noise: number,
+  seed: number,
+): { points: Float64Array; labels: number[]; dims: number } {
   const r = createRandom(seed);
   const centres = orthonormalBasis(dims, groups, seed + 1); // dims × groups: column g is direction g
   const points = new Float64Array(groups * per * dims);
@@ -71,10 +77,16 @@ export interface DemoTopic {
 }
 
 /** The demo workspace (demo/workspace) as an index, with its answer key. */
-export function loadDemo(settings: Partial<IndexSettings> = {}): { index: LsiIndex; texts: Map<string, string>; topics: DemoTopic[]; unassigned: string[] } {
+export function loadDemo(settings: Partial<IndexSettings> = {}): {
+  index: LsiIndex;
+  texts: Map<string, string>;
+  topics: DemoTopic[];
+  unassigned: string[];
+} {
   const root = join(REPO_ROOT, 'demo', 'workspace');
   const key = join(REPO_ROOT, 'demo', 'expectations.json');
-  const walk = (dir: string): string[] => readdirSync(dir).flatMap((n) => (statSync(join(dir, n)).isDirectory() ? walk(join(dir, n)) : [join(dir, n)]));
+  const walk = (dir: string): string[] =>
+    readdirSync(dir).flatMap((n) => (statSync(join(dir, n)).isDirectory() ? walk(join(dir, n)) : [join(dir, n)]));
   const builder = new IndexBuilder(settings);
   const texts = new Map<string, string>();
   for (const file of walk(root).sort()) {

@@ -3,7 +3,18 @@ import { describe, expect, it } from 'vitest';
 import { inFolder, topicsOfFolder } from '../../../src/core/topics/folderTopics.js';
 import type { Topic } from '../../../src/core/topics/topics.js';
 
-const topic = (path: string, members: string[]): Topic => ({ id: 1, path, level: 1, size: members.length, cohesion: 1, terms: [], files: [], members, folders: [], children: [] });
+const topic = (path: string, members: string[]): Topic => ({
+  id: 1,
+  path,
+  level: 1,
+  size: members.length,
+  cohesion: 1,
+  terms: [],
+  files: [],
+  members,
+  folders: [],
+  children: [],
+});
 
 describe('topicsOfFolder', () => {
   it('counts the folder files of each topic, most first, and the ones in no topic apart', () => {

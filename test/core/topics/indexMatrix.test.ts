@@ -39,7 +39,8 @@ describe('index matrix and leading factors', () => {
     const k = 5;
     const f = leadingFactors(index, im, k, 1);
     const dense = new Matrix(im.matrix.rows, im.matrix.cols);
-    for (let i = 0; i < im.matrix.rows; i++) for (let p = im.matrix.indptr[i]; p < im.matrix.indptr[i + 1]; p++) dense.set(i, im.matrix.indices[p], im.matrix.values[p]);
+    for (let i = 0; i < im.matrix.rows; i++)
+      for (let p = im.matrix.indptr[i]; p < im.matrix.indptr[i + 1]; p++) dense.set(i, im.matrix.indices[p], im.matrix.values[p]);
     const exact = new SingularValueDecomposition(dense.transpose()); // Mᵀ = V Σ Uᵀ: its left vectors are M's term side
     for (let c = 0; c < k; c++) {
       // The model's randomized SVD (5 power iterations) is a little low (about 0.1% here); the
@@ -73,10 +74,11 @@ describe('index matrix and leading factors', () => {
     expect(im.matrix.rows).toBe(index.size);
     const f = leadingFactors(index, im, 4, 1);
     expect(f.rows).toBe(index.size);
-    for (let p = 0; p < 4; p++) for (let q = 0; q < 4; q++) {
-      let d = 0;
-      for (let i = 0; i < f.rows; i++) d += f.u[i * 4 + p] * f.u[i * 4 + q];
-      expect(d).toBeCloseTo(p === q ? 1 : 0, 6);
-    }
+    for (let p = 0; p < 4; p++)
+      for (let q = 0; q < 4; q++) {
+        let d = 0;
+        for (let i = 0; i < f.rows; i++) d += f.u[i * 4 + p] * f.u[i * 4 + q];
+        expect(d).toBeCloseTo(p === q ? 1 : 0, 6);
+      }
   });
 });

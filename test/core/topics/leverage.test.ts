@@ -7,7 +7,14 @@
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
-import { columnSelect, leverageScores, padWithLeverage, sampleSize, sampleWithReplacement, type Picks } from '../../../src/core/topics/leverage.js';
+import {
+  columnSelect,
+  leverageScores,
+  padWithLeverage,
+  sampleSize,
+  sampleWithReplacement,
+  type Picks,
+} from '../../../src/core/topics/leverage.js';
 
 function randomMatrix(rows: number, cols: number, seed: number): number[][] {
   const r = createRandom(seed);
@@ -63,7 +70,10 @@ describe('leverage sampling', () => {
   const aat = new Float64Array(16);
   for (let p = 0; p < 4; p++) for (let q = 0; q < 4; q++) for (let j = 0; j < 12; j++) aat[p * 4 + q] += a[p][j] * a[q][j];
 
-  for (const [name, sample] of [['ColumnSelect', columnSelect], ['with replacement', sampleWithReplacement]] as const) {
+  for (const [name, sample] of [
+    ['ColumnSelect', columnSelect],
+    ['with replacement', sampleWithReplacement],
+  ] as const) {
     it(`${name} is unbiased: the mean of CCᵀ over 4000 seeds is AAᵀ within 4%`, () => {
       const mean = new Float64Array(16);
       const runs = 4000;

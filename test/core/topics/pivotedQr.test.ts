@@ -35,7 +35,11 @@ function bruteForcePivots(v: Float64Array, n: number, k: number): number[] {
 }
 
 describe('pivoted QR selection', () => {
-  for (const [n, k, seed] of [[30, 3, 1], [120, 8, 2], [300, 12, 3]] as const) {
+  for (const [n, k, seed] of [
+    [30, 3, 1],
+    [120, 8, 2],
+    [300, 12, 3],
+  ] as const) {
     it(`picks what the brute-force Businger–Golub rule picks (n=${n}, k=${k})`, () => {
       const v = orthonormalBasis(n, k, seed);
       expect(pivotedQrIndices(v, n, k, k)).toEqual(bruteForcePivots(v, n, k));

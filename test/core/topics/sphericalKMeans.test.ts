@@ -76,7 +76,16 @@ describe('spherical k-means', () => {
   it('reaches the exhaustive-search optimum when the points have two real groups', () => {
     const { points, labels, dims } = plantedClusters(2, 6, 3, 0.3, 5);
     let best = 0;
-    for (let mask = 0; mask < 1 << 11; mask++) best = Math.max(best, objectiveOf(points, dims, Array.from({ length: 12 }, (_, i) => (i === 0 ? 0 : (mask >> (i - 1)) & 1)), 2));
+    for (let mask = 0; mask < 1 << 11; mask++)
+      best = Math.max(
+        best,
+        objectiveOf(
+          points,
+          dims,
+          Array.from({ length: 12 }, (_, i) => (i === 0 ? 0 : (mask >> (i - 1)) & 1)),
+          2,
+        ),
+      );
     const got = sphericalKMeans(points, labels.length, dims, 2, { seed: 1 });
     expect(got.objective).toBeCloseTo(best, 9);
   });

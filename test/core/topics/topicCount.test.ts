@@ -38,11 +38,12 @@ describe('automatic topic count', () => {
     labels[1] = 3; // group sizes vary
     const n = 24;
     const dist = new Float64Array(n * n);
-    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-      let s = 0;
-      for (let t = 0; t < dims; t++) s += points[i * dims + t] * points[j * dims + t];
-      dist[i * n + j] = i === j ? 0 : Math.max(0, 1 - s);
-    }
+    for (let i = 0; i < n; i++)
+      for (let j = 0; j < n; j++) {
+        let s = 0;
+        for (let t = 0; t < dims; t++) s += points[i * dims + t] * points[j * dims + t];
+        dist[i * n + j] = i === j ? 0 : Math.max(0, 1 - s);
+      }
     expect(meanSilhouette(dist, n, Int32Array.from(labels), 4)).toBeCloseTo(bruteSilhouette(points, dims, labels), 12);
   });
 

@@ -20,7 +20,18 @@ const terms = ['tide', 'ferry', '2024', 'rst'];
 describe('namesAgainstParent', () => {
   it('scores terms frequent in the topic and rare in its siblings', () => {
     const scratch = new NameScratch(4);
-    const [t, s] = namesAgainstParent(a, [0, 1, 2, 3], [[0, 1], [2, 3]], 10, 'informative', scratch, (c) => terms[c]);
+    const [t, s] = namesAgainstParent(
+      a,
+      [0, 1, 2, 3],
+      [
+        [0, 1],
+        [2, 3],
+      ],
+      10,
+      'informative',
+      scratch,
+      (c) => terms[c],
+    );
     // Topic {f0,f1}: tide in 2 of 2, siblings 0 of 2 → p_S = 0.5/3; score = 1·ln(1/(1/6)) = ln 6.
     // ferry: mean .3 inside vs .8 outside → not a name. 2024 is a number → never a name.
     expect(t).toHaveLength(1);
@@ -31,11 +42,35 @@ describe('namesAgainstParent', () => {
     expect(s[0].score).toBeCloseTo(Math.log(2), 12);
     expect(s[1].score).toBeCloseTo(0.5 * Math.log(3), 12);
     // The scratch is clean afterwards: the same call gives the same answer.
-    expect(namesAgainstParent(a, [0, 1, 2, 3], [[0, 1], [2, 3]], 10, 'informative', scratch, (c) => terms[c])).toEqual([t, s]);
+    expect(
+      namesAgainstParent(
+        a,
+        [0, 1, 2, 3],
+        [
+          [0, 1],
+          [2, 3],
+        ],
+        10,
+        'informative',
+        scratch,
+        (c) => terms[c],
+      ),
+    ).toEqual([t, s]);
   });
 
   it('contrast is the difference of mean weights', () => {
-    const [, s] = namesAgainstParent(a, [0, 1, 2, 3], [[0, 1], [2, 3]], 10, 'contrast', new NameScratch(4), (c) => terms[c]);
+    const [, s] = namesAgainstParent(
+      a,
+      [0, 1, 2, 3],
+      [
+        [0, 1],
+        [2, 3],
+      ],
+      10,
+      'contrast',
+      new NameScratch(4),
+      (c) => terms[c],
+    );
     expect(s[0].col).toBe(1);
     expect(s[0].score).toBeCloseTo(0.8 - 0.3, 12);
   });

@@ -15,12 +15,13 @@ describe('term contrast', () => {
     const data = Float64Array.from({ length: rows * cols }, () => (r.next() < 0.4 ? r.next() : 0));
     const topicOf = Int32Array.from([0, 1, 2, 0, 1, -1, 2, 0, 1]); // row 5 unplaced
     const got = termContrast(csrFromDense(rows, cols, data), topicOf, 3);
-    for (let t = 0; t < 3; t++) for (let c = 0; c < cols; c++) {
-      const inside = [...topicOf.keys()].filter((i) => topicOf[i] === t);
-      const outside = [...topicOf.keys()].filter((i) => topicOf[i] !== t);
-      const mean = (ids: number[]) => ids.reduce((s, i) => s + data[i * cols + c], 0) / ids.length;
-      expect(got[t * cols + c]).toBeCloseTo(mean(inside) - mean(outside), 12);
-    }
+    for (let t = 0; t < 3; t++)
+      for (let c = 0; c < cols; c++) {
+        const inside = [...topicOf.keys()].filter((i) => topicOf[i] === t);
+        const outside = [...topicOf.keys()].filter((i) => topicOf[i] !== t);
+        const mean = (ids: number[]) => ids.reduce((s, i) => s + data[i * cols + c], 0) / ids.length;
+        expect(got[t * cols + c]).toBeCloseTo(mean(inside) - mean(outside), 12);
+      }
   });
 
   it('with a single topic covering everything, is the plain mean', () => {

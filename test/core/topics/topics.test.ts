@@ -34,7 +34,10 @@ function scores(report: TopicsReport, planted: { files: readonly string[] }[]) {
     }
   }
   return {
-    ari: adjustedRandIndex(keys.map((k) => truth.get(k)!), keys.map((k) => found.get(k)!)),
+    ari: adjustedRandIndex(
+      keys.map((k) => truth.get(k)!),
+      keys.map((k) => found.get(k)!),
+    ),
     purity: majority / keys.length,
     recovered: new Set(majorityOf.values()).size,
     majorityOf,
@@ -46,7 +49,9 @@ describe('topics of the demo workspace', () => {
     it(`brings out every planted topic when the count is chosen automatically (seed ${seed ?? 'default'})`, () => {
       const report = findTopics(demo.index, { seed });
       const s = scores(report, demo.topics);
-      console.log(`demo, automatic count: ${report.topics.length} topics, ARI ${s.ari.toFixed(3)}, purity ${s.purity.toFixed(3)}, CUR error ratio ${report.cur.errorRatio?.toFixed(3)}`);
+      console.log(
+        `demo, automatic count: ${report.topics.length} topics, ARI ${s.ari.toFixed(3)}, purity ${s.purity.toFixed(3)}, CUR error ratio ${report.cur.errorRatio?.toFixed(3)}`,
+      );
       expect(report.count.chosen).toBe('auto');
       expect(report.topics.length).toBeGreaterThanOrEqual(demo.topics.length);
       expect(report.topics.length).toBeLessThanOrEqual(demo.topics.length + 3);
@@ -122,7 +127,8 @@ describe('topics of the demo workspace', () => {
   });
 
   it('gives the same tree for the same seed', () => {
-    const shape = (r: TopicsReport) => [...walkTopics(r.topics)].map((t) => `${t.path}:${t.members.join(',')}:${t.terms.map((x) => x.term).join(',')}`);
+    const shape = (r: TopicsReport) =>
+      [...walkTopics(r.topics)].map((t) => `${t.path}:${t.members.join(',')}:${t.terms.map((x) => x.term).join(',')}`);
     expect(shape(findTopics(demo.index, { leafSize: 8, seed: 7 }))).toEqual(shape(findTopics(demo.index, { leafSize: 8, seed: 7 })));
   });
 });
@@ -149,7 +155,8 @@ describe('topics of real abstracts (CISI)', () => {
 });
 
 describe('topics on awkward input', () => {
-  const text = (i: number) => `Harbour pilots guide the vessel ${i % 3 === 0 ? 'through the channel at high water' : i % 3 === 1 ? 'past the breakwater in fog' : 'onto the berth with tugs'}.`;
+  const text = (i: number) =>
+    `Harbour pilots guide the vessel ${i % 3 === 0 ? 'through the channel at high water' : i % 3 === 1 ? 'past the breakwater in fog' : 'onto the berth with tugs'}.`;
 
   it('a one-file workspace gives one topic holding that file', () => {
     const b = new IndexBuilder();
@@ -162,7 +169,11 @@ describe('topics on awkward input', () => {
 
   it('two thousand identical files give one topic, not noise', () => {
     const b = new IndexBuilder();
-    for (let i = 0; i < 2000; i++) b.addText({ path: `copy-${String(i).padStart(4, '0')}.md`, size: 40, mtimeMs: 0 }, 'Crew rest hours, duty rosters and watchkeeping rules.');
+    for (let i = 0; i < 2000; i++)
+      b.addText(
+        { path: `copy-${String(i).padStart(4, '0')}.md`, size: 40, mtimeMs: 0 },
+        'Crew rest hours, duty rosters and watchkeeping rules.',
+      );
     const report = findTopics(b.build());
     expect(report.topics).toHaveLength(1);
     expect(report.topics[0].size).toBe(2000);

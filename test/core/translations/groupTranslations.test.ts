@@ -3,7 +3,13 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { areTranslations, chooseShown, groupTranslations, isOriginalPath, type TranslationDoc } from '../../../src/core/translations/groupTranslations.js';
+import {
+  areTranslations,
+  chooseShown,
+  groupTranslations,
+  isOriginalPath,
+  type TranslationDoc,
+} from '../../../src/core/translations/groupTranslations.js';
 import { languageOf } from '../../../src/core/translations/language.js';
 import { structureSignature } from '../../../src/core/translations/structure.js';
 
@@ -12,7 +18,9 @@ const doc = (rel: string, as = rel): TranslationDoc => {
   const text = readFileSync(path.join(FIX, rel), 'utf8');
   return { key: as, path: as, signature: structureSignature(text), language: () => languageOf(text) };
 };
-const all = readdirSync(FIX).filter((l) => !l.endsWith('.md')).flatMap((l) => readdirSync(path.join(FIX, l, 'gnome-help')).map((p) => `${l}/gnome-help/${p}`));
+const all = readdirSync(FIX)
+  .filter((l) => !l.endsWith('.md'))
+  .flatMap((l) => readdirSync(path.join(FIX, l, 'gnome-help')).map((p) => `${l}/gnome-help/${p}`));
 
 describe('translation groups', () => {
   it('groups each page with its translations, and nothing else', () => {
@@ -24,15 +32,37 @@ describe('translation groups', () => {
   });
 
   it('does not pair two files of one language whose paths name no language, nor different pages', () => {
-    expect(areTranslations(doc('C/gnome-help/power-suspend.page', 'a/power-suspend.page'), doc('C/gnome-help/power-suspend.page', 'b/translations/power-suspend.page'))).toBe(false);
-    expect(areTranslations(doc('C/gnome-help/power-suspend.page'), doc('de/gnome-help/files-delete.page', 'de/gnome-help/power-suspend.page'))).toBe(false);
+    expect(
+      areTranslations(
+        doc('C/gnome-help/power-suspend.page', 'a/power-suspend.page'),
+        doc('C/gnome-help/power-suspend.page', 'b/translations/power-suspend.page'),
+      ),
+    ).toBe(false);
+    expect(
+      areTranslations(doc('C/gnome-help/power-suspend.page'), doc('de/gnome-help/files-delete.page', 'de/gnome-help/power-suspend.page')),
+    ).toBe(false);
     expect(areTranslations(doc('C/gnome-help/power-suspend.page'), doc('de/gnome-help/power-suspend.page'))).toBe(true);
   });
 
   it('shows the member that fits the reader, then the original, then the best ranked', () => {
-    expect(chooseShown([{ fit: 0.2, rank: 0, original: false }, { fit: 0.8, rank: 5, original: true }])).toBe(1);
-    expect(chooseShown([{ fit: 0.5, rank: 0, original: false }, { fit: 0.5, rank: Infinity, original: true }])).toBe(1);
-    expect(chooseShown([{ fit: 0.5, rank: 3, original: false }, { fit: 0.5, rank: 1, original: false }])).toBe(1);
+    expect(
+      chooseShown([
+        { fit: 0.2, rank: 0, original: false },
+        { fit: 0.8, rank: 5, original: true },
+      ]),
+    ).toBe(1);
+    expect(
+      chooseShown([
+        { fit: 0.5, rank: 0, original: false },
+        { fit: 0.5, rank: Infinity, original: true },
+      ]),
+    ).toBe(1);
+    expect(
+      chooseShown([
+        { fit: 0.5, rank: 3, original: false },
+        { fit: 0.5, rank: 1, original: false },
+      ]),
+    ).toBe(1);
     expect(isOriginalPath('C/gnome-help/a.page')).toBe(true);
     expect(isOriginalPath('Documentation/translations/zh_CN/a.rst')).toBe(false);
   });

@@ -3,7 +3,14 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { documentUnits, languageName, languageOf, questionFit, questionUnits, UNDETERMINED } from '../../../src/core/translations/language.js';
+import {
+  documentUnits,
+  languageName,
+  languageOf,
+  questionFit,
+  questionUnits,
+  UNDETERMINED,
+} from '../../../src/core/translations/language.js';
 
 const FIX = path.resolve(import.meta.dirname, '../../fixtures/gnome-help');
 const text = (lang: string, name: string) => readFileSync(path.join(FIX, lang, 'gnome-help', name), 'utf8');
@@ -23,6 +30,8 @@ describe('language of a page', () => {
     expect(fits[0]).toBeGreaterThan(fits[2]);
     const zh = questionUnits('挂起计算机');
     expect(zh).toEqual(['挂', '起', '计', '算', '机']);
-    expect(questionFit(zh, documentUnits(text('zh_CN', 'power-suspend.page')))).toBeGreaterThan(questionFit(zh, documentUnits(text('C', 'power-suspend.page'))));
+    expect(questionFit(zh, documentUnits(text('zh_CN', 'power-suspend.page')))).toBeGreaterThan(
+      questionFit(zh, documentUnits(text('C', 'power-suspend.page'))),
+    );
   });
 });

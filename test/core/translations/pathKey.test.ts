@@ -9,8 +9,14 @@ describe('translation keys of paths', () => {
     expect(translationPath('de/gnome-help/power-suspend.page')).toEqual({ key: 'gnome-help/power-suspend.page', locale: 'de' });
     expect(translationPath('C/gnome-help/power-suspend.page')).toEqual({ key: 'gnome-help/power-suspend.page', locale: 'C' });
     expect(translationPath('sr@latin/gnome-help/a.page').locale).toBe('sr@latin');
-    expect(translationPath('Documentation/translations/zh_CN/admin-guide/index.rst')).toEqual({ key: 'Documentation/admin-guide/index.rst', locale: 'zh_CN' });
-    expect(translationPath('Documentation/admin-guide/index.rst')).toEqual({ key: 'Documentation/admin-guide/index.rst', locale: undefined });
+    expect(translationPath('Documentation/translations/zh_CN/admin-guide/index.rst')).toEqual({
+      key: 'Documentation/admin-guide/index.rst',
+      locale: 'zh_CN',
+    });
+    expect(translationPath('Documentation/admin-guide/index.rst')).toEqual({
+      key: 'Documentation/admin-guide/index.rst',
+      locale: undefined,
+    });
     expect(translationPath('docs/README.pt-BR.md')).toEqual({ key: 'docs/README.md', locale: 'pt-BR' });
     expect(translationPath('guide_ja.md')).toEqual({ key: 'guide.md', locale: 'ja' });
   });

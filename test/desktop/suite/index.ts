@@ -28,7 +28,9 @@ function until(api: UndertoneApi, test: (s: IndexState) => boolean, what: string
 
 check('registers every command of the manifest', async () => {
   const all = new Set(await vscode.commands.getCommands(true));
-  const manifest = vscode.extensions.getExtension('undertone-dev.undertone')!.packageJSON as { contributes: { commands: { command: string }[] } };
+  const manifest = vscode.extensions.getExtension('undertone-dev.undertone')!.packageJSON as {
+    contributes: { commands: { command: string }[] };
+  };
   for (const { command } of manifest.contributes.commands) assert.ok(all.has(command), `${command} is not registered`);
 });
 

@@ -6,7 +6,14 @@ import { BatchQueue } from '../../../src/node/parallel/parallelCount.js';
 describe('BatchQueue', () => {
   it('hands out every batch exactly once, whatever order the workers ask in', () => {
     const rnd = createRandom(3);
-    for (const [count, workers] of [[0, 2], [1, 2], [7, 2], [100, 3], [185, 2], [5, 8]]) {
+    for (const [count, workers] of [
+      [0, 2],
+      [1, 2],
+      [7, 2],
+      [100, 3],
+      [185, 2],
+      [5, 8],
+    ]) {
       const q = new BatchQueue(count, workers);
       const got: number[] = [];
       for (;;) {

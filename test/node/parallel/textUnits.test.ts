@@ -5,7 +5,15 @@
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
-import { astralWordAt, caselessLetters, classify, HIGH_SURROGATE, UnitBuffer, unitsToString, WORD } from '../../../src/node/parallel/textUnits.js';
+import {
+  astralWordAt,
+  caselessLetters,
+  classify,
+  HIGH_SURROGATE,
+  UnitBuffer,
+  unitsToString,
+  WORD,
+} from '../../../src/node/parallel/textUnits.js';
 
 const reference = (text: string): string => text.normalize('NFKD').replace(/\p{M}+/gu, '');
 
@@ -50,7 +58,28 @@ describe('UnitBuffer', () => {
 
   it('equals the reference on 3 000 random strings of ASCII, accents, marks, CJK and surrogates', () => {
     const rnd = createRandom(5);
-    const pool = ['a', 'Z', '9', ' ', '_', 'é', '\u0301', '\u0308', 'ﬁ', '東', 'ー', '①', '😀', '𝐀', '\ud800', '\udc00', 'ǅ', 'Σ', '—', '\u00a0'];
+    const pool = [
+      'a',
+      'Z',
+      '9',
+      ' ',
+      '_',
+      'é',
+      '\u0301',
+      '\u0308',
+      'ﬁ',
+      '東',
+      'ー',
+      '①',
+      '😀',
+      '𝐀',
+      '\ud800',
+      '\udc00',
+      'ǅ',
+      'Σ',
+      '—',
+      '\u00a0',
+    ];
     const buf = new UnitBuffer();
     for (let r = 0; r < 3000; r++) {
       let t = '';

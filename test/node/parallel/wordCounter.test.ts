@@ -27,7 +27,10 @@ const ODD_TEXTS = [
   'astral letters 𝐀𝐁𝐂 𠀀𠀁 and 𝟙𝟚 digits, lone \ud800 surrogate, 東京タワー 한국어 Ⅻ ǅungla İstanbul ΣΊΣΥΦΟΣ',
   '東京'.repeat(25), // a caseless run over 40 units: no term
   'numbers 12345 1234 3.14159 v2 2fa a1b2c3d4e5 Version42Beta',
-  '', '   ', 'a b c', 'The the THE of and',
+  '',
+  '   ',
+  'a b c',
+  'The the THE of and',
 ];
 
 describe('WordCounter', () => {
@@ -76,19 +79,22 @@ describe('WordCounter', () => {
   // scripts/bench-setup.sh has unpacked it: real non-ASCII text through one counter.
   const translations = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation', 'translations');
   const present = isFolder(translations);
-  it.skipIf(!present)(`agrees with tokenize + countTerms on the kernel's translated documentation ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`, () => {
-    const counter = new WordCounter({});
-    const terms: string[] = [];
-    const files = (readdirSync(translations, { recursive: true }) as string[]).filter((f) => f.endsWith('.rst')).sort();
-    // Every 4th file, to keep the run light.
-    let checked = 0;
-    for (let i = 0; i < files.length; i += 4) {
-      const text = readFileSync(join(translations, files[i]), 'utf8');
-      expect(viaCounter(counter, terms, text).bag, files[i]).toEqual(reference(text));
-      checked++;
-    }
-    expect(checked).toBeGreaterThan(50);
-  });
+  it.skipIf(!present)(
+    `agrees with tokenize + countTerms on the kernel's translated documentation ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`,
+    () => {
+      const counter = new WordCounter({});
+      const terms: string[] = [];
+      const files = (readdirSync(translations, { recursive: true }) as string[]).filter((f) => f.endsWith('.rst')).sort();
+      // Every 4th file, to keep the run light.
+      let checked = 0;
+      for (let i = 0; i < files.length; i += 4) {
+        const text = readFileSync(join(translations, files[i]), 'utf8');
+        expect(viaCounter(counter, terms, text).bag, files[i]).toEqual(reference(text));
+        checked++;
+      }
+      expect(checked).toBeGreaterThan(50);
+    },
+  );
 });
 
 function isFolder(p: string): boolean {

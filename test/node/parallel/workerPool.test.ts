@@ -25,7 +25,15 @@ const workerScript = join(tmp, 'parallelWorker.js');
 let pool: WorkerPool | undefined;
 
 beforeAll(async () => {
-  await build({ bundle: true, platform: 'node', format: 'cjs', absWorkingDir: REPO_ROOT, logLevel: 'error', entryPoints: ['src/node/parallel/parallelWorker.ts'], outfile: workerScript });
+  await build({
+    bundle: true,
+    platform: 'node',
+    format: 'cjs',
+    absWorkingDir: REPO_ROOT,
+    logLevel: 'error',
+    entryPoints: ['src/node/parallel/parallelWorker.ts'],
+    outfile: workerScript,
+  });
   pool = WorkerPool.start({ threads: 2, workerScript });
 });
 
@@ -34,7 +42,8 @@ afterAll(async () => {
   rmSync(tmp, { recursive: true, force: true });
 });
 
-const bagOf = (vocab: Vocabulary, ids: Int32Array, counts: Float32Array): Map<string, number> => new Map(Array.from(ids, (id, i) => [vocab.termOf(id), counts[i]]));
+const bagOf = (vocab: Vocabulary, ids: Int32Array, counts: Float32Array): Map<string, number> =>
+  new Map(Array.from(ids, (id, i) => [vocab.termOf(id), counts[i]]));
 
 describe('worker pool', () => {
   it('starts no threads when one thread is asked for', () => {
@@ -45,7 +54,10 @@ describe('worker pool', () => {
     const builder = new IndexBuilder({ k: 60 });
     for (const d of cisi.docs.slice(0, 800)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = builder.build({ executor: serialExecutor });
-    const m = modelMatrix(index.model, index.slots().map((s) => s!.terms));
+    const m = modelMatrix(
+      index.model,
+      index.slots().map((s) => s!.terms),
+    );
     const one = randomizedSvd(m, { k: 60, executor: serialExecutor });
     const ex = pool!.executor();
     expect(ex.threads).toBe(2);
@@ -55,7 +67,11 @@ describe('worker pool', () => {
     expect(Array.from(two.s)).toEqual(Array.from(one.s));
     // A whole build through the threads gives the same document vectors as the serial build.
     const threaded = builder.build({ executor: ex });
-    expect(Buffer.from(threaded.vectors().buffer, threaded.vectors().byteOffset, threaded.vectors().byteLength).equals(Buffer.from(index.vectors().buffer, index.vectors().byteOffset, index.vectors().byteLength))).toBe(true);
+    expect(
+      Buffer.from(threaded.vectors().buffer, threaded.vectors().byteOffset, threaded.vectors().byteLength).equals(
+        Buffer.from(index.vectors().buffer, index.vectors().byteOffset, index.vectors().byteLength),
+      ),
+    ).toBe(true);
   });
 
   it('reads and counts files on threads exactly as tokenize + countTerms do, and reports odd files', async () => {
@@ -69,7 +85,11 @@ describe('worker pool', () => {
     });
     writeFileSync(join(dir, 'bin.dat'), Buffer.from([1, 0, 2, 3]));
     writeFileSync(join(dir, 'big.txt'), 'x'.repeat(5000));
-    const odd = [{ absPath: join(dir, 'bin.dat'), size: 4 }, { absPath: join(dir, 'big.txt'), size: 5000 }, { absPath: join(dir, 'missing.txt'), size: 1 }];
+    const odd = [
+      { absPath: join(dir, 'bin.dat'), size: 4 },
+      { absPath: join(dir, 'big.txt'), size: 5000 },
+      { absPath: join(dir, 'missing.txt'), size: 1 },
+    ];
     const all = [...jobs, ...odd];
     const options = { tokenize: {}, maxFileBytes: 4096 };
     const want = (i: number) => {

@@ -22,7 +22,15 @@ function connect(overrides: Partial<Handlers>): WorkerClient {
     throw new Error('not used in this test');
   };
   const handlers = {
-    configure: fail, load: fail, refresh: fail, build: fail, update: fail, search: fail, nearby: fail, save: fail, deleteIndex: fail,
+    configure: fail,
+    load: fail,
+    refresh: fail,
+    build: fail,
+    update: fail,
+    search: fail,
+    nearby: fail,
+    save: fail,
+    deleteIndex: fail,
     ...overrides,
   } as Handlers;
   serve(channel.port2, handlers);
@@ -51,7 +59,13 @@ describe('WorkerClient with serve()', () => {
       build: async (_p, ctx) => {
         ctx.progress({ stage: 'read', done: 1, total: 2 });
         ctx.progress({ stage: 'svd', done: 2, total: 2 });
-        return { summary: { files: 1, k: 1, terms: 1, staleness: { changedFiles: 0, changedShare: 0, newTermMass: 0, residualRatio: 1 } }, read: 1, reused: 0, skipped: 0, seconds: 0 };
+        return {
+          summary: { files: 1, k: 1, terms: 1, staleness: { changedFiles: 0, changedShare: 0, newTermMass: 0, residualRatio: 1 } },
+          read: 1,
+          reused: 0,
+          skipped: 0,
+          seconds: 0,
+        };
       },
     });
     const seen: Progress[] = [];

@@ -19,8 +19,18 @@ const root = mkdtempSync(join(tmpdir(), 'undertone-admit-'));
 afterAll(() => rmSync(root, { recursive: true, force: true }));
 
 const files = [
-  'README.md', 'notes/a.md', 'notes/draft.tmp', 'notes/keep.tmp', 'logs/run.log', 'logs/important.log',
-  'src/app.ts', 'src/gen/out.ts', 'src/gen/hand.ts', 'docs/build/page.md', 'vendor/lib/x.ts', 'deep/a/b/c.md',
+  'README.md',
+  'notes/a.md',
+  'notes/draft.tmp',
+  'notes/keep.tmp',
+  'logs/run.log',
+  'logs/important.log',
+  'src/app.ts',
+  'src/gen/out.ts',
+  'src/gen/hand.ts',
+  'docs/build/page.md',
+  'vendor/lib/x.ts',
+  'deep/a/b/c.md',
 ];
 const write = (rel: string, text: string) => {
   mkdirSync(dirname(join(root, rel)), { recursive: true });
@@ -39,7 +49,9 @@ describe.skipIf(!hasGit)('FileAdmission (skipped when git is not installed)', ()
     // docs/build/ is left out by our default exclude list (build output), which git knows nothing of.
     const judged = files.filter((f) => !f.startsWith('docs/build/'));
     const ignoredByGit = new Set(
-      execFileSync('git', ['-C', root, 'check-ignore', '--no-index', ...judged], { encoding: 'utf8' }).split('\n').filter(Boolean),
+      execFileSync('git', ['-C', root, 'check-ignore', '--no-index', ...judged], { encoding: 'utf8' })
+        .split('\n')
+        .filter(Boolean),
     );
     expect(ignoredByGit.size).toBeGreaterThan(3);
     for (const f of judged) expect([f, await admission.admits(f)]).toEqual([f, !ignoredByGit.has(f)]);

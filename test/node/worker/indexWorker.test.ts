@@ -87,7 +87,8 @@ describe('index worker round trip', () => {
       expect(viaWorker.map((h) => h.key)).toEqual(direct.map((h) => h.path));
       viaWorker.forEach((h, i) => expect(h.score).toBeCloseTo(direct[i].score, 6));
       // The passage starts on a real line of that file (it may run on over the next lines of its paragraph).
-      for (const h of viaWorker) expect(readFileSync(h.fsPath, 'utf8').split('\n')[h.line]).toContain(h.lineText.replace(/^…/, '').split(' ')[0]);
+      for (const h of viaWorker)
+        expect(readFileSync(h.fsPath, 'utf8').split('\n')[h.line]).toContain(h.lineText.replace(/^…/, '').split(' ')[0]);
     }
   });
 
@@ -159,7 +160,13 @@ describe('index worker round trip', () => {
     writeFileSync(join(second, 'twin-of-20.txt'), text('20'));
     const client = start();
     await client.request('configure', {
-      config: config({ roots: [{ name: 'ws', fsPath: folder, exclude: [] }, { name: 'second', fsPath: second, exclude: [] }], indexFile: join(tmp, 'multi.undertone') }),
+      config: config({
+        roots: [
+          { name: 'ws', fsPath: folder, exclude: [] },
+          { name: 'second', fsPath: second, exclude: [] },
+        ],
+        indexFile: join(tmp, 'multi.undertone'),
+      }),
     });
     const report = await client.request('build', {});
     expect(report.summary.files).toBe(docs.length + 1);

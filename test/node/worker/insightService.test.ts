@@ -53,12 +53,14 @@ const keys = (refs: readonly FileRef[]) => refs.map((r) => r.key);
 describe('look-alikes request', () => {
   it('finds every planted exact copy as an exact pair, and every file of each planted near-copy group paired with another (demo answer key)', async () => {
     const r = await h.lookalikes({ threshold: 0.8 }, ctx);
-    const pairsOf = (kind: string) => r.groups.filter((g) => g.kind === kind).flatMap((g) => g.pairs.map((p) => [p.a.key, p.b.key].sort().join(' + ')));
+    const pairsOf = (kind: string) =>
+      r.groups.filter((g) => g.kind === kind).flatMap((g) => g.pairs.map((p) => [p.a.key, p.b.key].sort().join(' + ')));
     for (const [a, b] of expectations.exactCopies) expect(pairsOf('exact')).toContain([a, b].sort().join(' + '));
     // Pairs, never chained groups: each planted file has a near or partial partner inside its group.
     const copyPairs = r.groups.filter((g) => g.kind === 'near' || g.kind === 'partial').map((g) => keys(g.files));
     for (const planted of expectations.nearCopies) {
-      for (const f of planted) expect(copyPairs.some(([a, b]) => (a === f && planted.includes(b)) || (b === f && planted.includes(a)))).toBe(true);
+      for (const f of planted)
+        expect(copyPairs.some(([a, b]) => (a === f && planted.includes(b)) || (b === f && planted.includes(a)))).toBe(true);
     }
     for (const g of r.groups) {
       for (const p of g.pairs) {
@@ -196,7 +198,10 @@ describe('a workspace of one file', () => {
     writeFileSync(join(one, 'crossing.md'), 'Tide tables and ferry timetables for the island crossing.\n');
     const single = new IndexService({ saveDelayMs: 60_000 });
     const s = single.handlers();
-    await s.configure({ config: { ...config, roots: [{ name: 'one', fsPath: one, exclude: [] }], indexFile: join(tmp, 'one.undertone') } }, ctx);
+    await s.configure(
+      { config: { ...config, roots: [{ name: 'one', fsPath: one, exclude: [] }], indexFile: join(tmp, 'one.undertone') } },
+      ctx,
+    );
     await s.build({}, ctx);
     expect((await s.lookalikes({ threshold: 0.8 }, ctx)).groups).toEqual([]);
     const topics = await s.topics({}, ctx);

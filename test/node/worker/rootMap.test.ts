@@ -8,7 +8,12 @@ describe('RootMap', () => {
   it('uses folder-relative keys with a single folder', () => {
     const map = new RootMap([root('shop', join('/w', 'shop'))]);
     expect(map.keyOf(join('/w', 'shop', 'src', 'a.ts'))).toBe('src/a.ts');
-    expect(map.refOf('src/a.ts')).toEqual({ key: 'src/a.ts', fsPath: join('/w', 'shop', 'src', 'a.ts'), folder: 'shop', relPath: 'src/a.ts' });
+    expect(map.refOf('src/a.ts')).toEqual({
+      key: 'src/a.ts',
+      fsPath: join('/w', 'shop', 'src', 'a.ts'),
+      folder: 'shop',
+      relPath: 'src/a.ts',
+    });
   });
 
   it('prefixes keys with the folder name when there are several, and maps them back', () => {

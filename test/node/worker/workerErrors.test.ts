@@ -1,7 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { CancelledError, CorruptIndexError, EmptyCorpusError, NoKnownTermsError } from '../../../src/core/errors.js';
 import {
-  ERROR_KINDS, errorKind, errorKindOf, isWireError, MapOutdatedError, NoIndexError, toWireError, WorkerRequestError,
+  ERROR_KINDS,
+  errorKind,
+  errorKindOf,
+  isWireError,
+  MapOutdatedError,
+  NoIndexError,
+  toWireError,
+  WorkerRequestError,
 } from '../../../src/node/worker/workerErrors.js';
 
 describe('errors across the worker boundary', () => {

@@ -1,15 +1,33 @@
 import { describe, expect, it } from 'vitest';
 import { CancelledError } from '../../../src/core/errors.js';
 import {
-  isHostMessage, isWorkerMessage, overallPercent, REQUEST_TYPES, toWireError, type BuildStage, type RequestMap,
+  isHostMessage,
+  isWorkerMessage,
+  overallPercent,
+  REQUEST_TYPES,
+  toWireError,
+  type BuildStage,
+  type RequestMap,
 } from '../../../src/node/worker/workerProtocol.js';
 
 describe('protocol message checks', () => {
   it('accepts every request type the map declares, and only those', () => {
     // The list and the type map must agree: a request type missing from REQUEST_TYPES would be dropped by the worker.
     const declared: Record<keyof RequestMap, true> = {
-      configure: true, load: true, refresh: true, build: true, update: true, search: true, nearby: true, translations: true, save: true, deleteIndex: true,
-      lookalikes: true, topics: true, mapData: true, mapQuery: true,
+      configure: true,
+      load: true,
+      refresh: true,
+      build: true,
+      update: true,
+      search: true,
+      nearby: true,
+      translations: true,
+      save: true,
+      deleteIndex: true,
+      lookalikes: true,
+      topics: true,
+      mapData: true,
+      mapQuery: true,
     };
     expect([...REQUEST_TYPES].sort()).toEqual(Object.keys(declared).sort());
     for (const type of REQUEST_TYPES) expect(isHostMessage({ kind: 'request', id: 1, type, params: {} })).toBe(true);

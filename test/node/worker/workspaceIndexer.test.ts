@@ -19,7 +19,15 @@ let saved: string | undefined;
 
 beforeAll(async () => {
   const script = join(tmp, 'parallelWorker.js');
-  await build({ entryPoints: ['src/node/parallel/parallelWorker.ts'], outfile: script, bundle: true, platform: 'node', format: 'cjs', absWorkingDir: REPO_ROOT, logLevel: 'error' });
+  await build({
+    entryPoints: ['src/node/parallel/parallelWorker.ts'],
+    outfile: script,
+    bundle: true,
+    platform: 'node',
+    format: 'cjs',
+    absWorkingDir: REPO_ROOT,
+    logLevel: 'error',
+  });
   saved = process.env.UNDERTONE_PARALLEL_WORKER;
   process.env.UNDERTONE_PARALLEL_WORKER = script;
   for (const f of folders) mkdirSync(f, { recursive: true });
@@ -35,7 +43,13 @@ afterAll(() => {
 describe('buildWorkspaceIndex', () => {
   const roots = new RootMap(folders.map((p, i) => ({ name: ['alpha', 'beta'][i], fsPath: p, exclude: [] })));
   const config: WorkerConfig = {
-    roots: roots.roots, indexFile: join(tmp, 'unused'), settings: {}, include: [], exclude: [], maxFileBytes: 1 << 20, honourGitignore: true,
+    roots: roots.roots,
+    indexFile: join(tmp, 'unused'),
+    settings: {},
+    include: [],
+    exclude: [],
+    maxFileBytes: 1 << 20,
+    honourGitignore: true,
   };
 
   it('indexes two folders as the same documents built in one process, with folder-prefixed keys', async () => {

@@ -4,7 +4,12 @@ import type { MapTopicTree } from '../../../src/core/map/topicTreeData.js';
 import { firstLevelView, hasSubTopics, pathTo, subTopicView } from '../../../src/webview/map/topicZoom.js';
 
 // Nodes: 0 "fare" (children 2 "refund", 3 "voucher"), 1 "tide"; files a..e.
-const tree: MapTopicTree = { labels: ['fare', 'tide', 'refund', 'voucher'], parents: [-1, -1, 0, 0], levels: [1, 1, 2, 2], fileNodes: [2, 3, 2, 1, -1] };
+const tree: MapTopicTree = {
+  labels: ['fare', 'tide', 'refund', 'voucher'],
+  parents: [-1, -1, 0, 0],
+  levels: [1, 1, 2, 2],
+  fileNodes: [2, 3, 2, 1, -1],
+};
 
 describe('topic zoom', () => {
   it('colours by the first level, then by the sub-topics of the topic zoomed into, greying the rest', () => {

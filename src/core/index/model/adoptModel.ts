@@ -34,7 +34,13 @@ export function sharedModelKey(model: PortableModel): string {
  * @param vocab the build's vocabulary, every id used and terms ascending in code-unit order
  *   (as IndexBuilder numbers it); slots' terms refer to it.
  */
-export function adoptSharedModel(shared: PortableModel, vocab: Vocabulary, slots: readonly DocSlot[], settings: IndexSettings, progress: BuildProgress = {}): AdoptedModel {
+export function adoptSharedModel(
+  shared: PortableModel,
+  vocab: Vocabulary,
+  slots: readonly DocSlot[],
+  settings: IndexSettings,
+  progress: BuildProgress = {},
+): AdoptedModel {
   if (shared.tokenize.stem !== settings.tokenize.stem || shared.tokenize.keepCompounds !== settings.tokenize.keepCompounds) {
     throw new InvalidInputError(
       `the shared concept model was counted with tokenizer options ${JSON.stringify(shared.tokenize)}, this index uses ${JSON.stringify(settings.tokenize)}`,

@@ -59,7 +59,12 @@ export interface BuildProgress {
   sharedModel?: PortableModel;
 }
 
-export function buildConceptModel(docs: readonly DocTerms[], vocabSize: number, settings: IndexSettings, progress: BuildProgress = {}): ConceptModel {
+export function buildConceptModel(
+  docs: readonly DocTerms[],
+  vocabSize: number,
+  settings: IndexSettings,
+  progress: BuildProgress = {},
+): ConceptModel {
   return buildModelAndMatrix(docs, vocabSize, settings, progress).model;
 }
 
@@ -77,7 +82,12 @@ export function buildConceptModelAndVectors(
   return { model, vectors: projectMatrixRows(model, matrix, progress.executor) };
 }
 
-function buildModelAndMatrix(docs: readonly DocTerms[], vocabSize: number, settings: IndexSettings, progress: BuildProgress): { model: ConceptModel; matrix: CsrMatrix } {
+function buildModelAndMatrix(
+  docs: readonly DocTerms[],
+  vocabSize: number,
+  settings: IndexSettings,
+  progress: BuildProgress,
+): { model: ConceptModel; matrix: CsrMatrix } {
   if (docs.length === 0) throw new EmptyCorpusError('There are no files to index.');
   const pruned = pruneVocabulary(docs, vocabSize, settings.prune);
   const m = pruned.keptIds.length;

@@ -45,7 +45,12 @@ export interface FactorReport {
  * @param matrix the weighted document-major matrix (documents × terms, Aᵀ) the factors belong to.
  * @param conceptScaling the index's exponent α (axis scale σ^{α−1}).
  */
-export function modelFromFactors(model: ConceptModel, matrix: CsrMatrix, f: ExternalFactors, conceptScaling: number): { model: ConceptModel; report: FactorReport } {
+export function modelFromFactors(
+  model: ConceptModel,
+  matrix: CsrMatrix,
+  f: ExternalFactors,
+  conceptScaling: number,
+): { model: ConceptModel; report: FactorReport } {
   const terms = matrix.cols;
   const docs = matrix.rows;
   const k = f.k;
@@ -53,8 +58,13 @@ export function modelFromFactors(model: ConceptModel, matrix: CsrMatrix, f: Exte
   if (f.u.length !== terms * k) throw new InvalidInputError(`U must have ${terms} rows (one per term of the model) and ${k} columns`);
   if (f.v.length !== docs * k) throw new InvalidInputError(`V must have ${docs} rows (one per indexed file) and ${k} columns`);
   if (k > Math.min(terms, docs)) throw new InvalidInputError(`k = ${k} exceeds what a ${terms}×${docs} matrix allows`);
-  for (const [name, arr] of [['U', f.u], ['S', f.s], ['V', f.v]] as const) {
-    for (let i = 0; i < arr.length; i++) if (!Number.isFinite(arr[i])) throw new InvalidInputError(`${name} holds a value that is not a finite number`);
+  for (const [name, arr] of [
+    ['U', f.u],
+    ['S', f.s],
+    ['V', f.v],
+  ] as const) {
+    for (let i = 0; i < arr.length; i++)
+      if (!Number.isFinite(arr[i])) throw new InvalidInputError(`${name} holds a value that is not a finite number`);
   }
   for (let c = 0; c < k; c++) if (f.s[c] < 0) throw new InvalidInputError('singular values must be ≥ 0');
   const order = Array.from({ length: k }, (_, c) => c).sort((a, b) => f.s[b] - f.s[a] || a - b);
@@ -66,7 +76,8 @@ export function modelFromFactors(model: ConceptModel, matrix: CsrMatrix, f: Exte
   const utu = serialExecutor.cross(u, u, terms, k);
   let ortho = 0;
   for (let a = 0; a < k; a++) for (let b = 0; b < k; b++) ortho = Math.max(ortho, Math.abs(utu[a * k + b] - (a === b ? 1 : 0)));
-  if (ortho > ORTHO_TOLERANCE) throw new InvalidInputError(`the columns of U are not orthonormal (largest |UᵀU − I| entry ${ortho.toExponential(2)})`);
+  if (ortho > ORTHO_TOLERANCE)
+    throw new InvalidInputError(`the columns of U are not orthonormal (largest |UᵀU − I| entry ${ortho.toExponential(2)})`);
 
   // Aᵀ U (documents × k) is M U for the document-major M; A V is Mᵀ V.
   const mu = new Float64Array(docs * k);
@@ -80,10 +91,17 @@ export function modelFromFactors(model: ConceptModel, matrix: CsrMatrix, f: Exte
     for (let i = 0; i < rows; i++) for (let c = 0; c < k; c++) r += (prod[i * k + c] - other[i * k + c] * s[c]) ** 2;
     return norm > 0 ? Math.sqrt(r / norm) : Math.sqrt(r);
   };
-  const report: FactorReport = { k, orthogonalityError: ortho, documentResidual: residual(mu, v, docs), termResidual: residual(mtv, u, terms) };
+  const report: FactorReport = {
+    k,
+    orthogonalityError: ortho,
+    documentResidual: residual(mu, v, docs),
+    termResidual: residual(mtv, u, terms),
+  };
   const fit = Math.min(report.documentResidual, report.termResidual);
   if (!(fit <= FIT_TOLERANCE)) {
-    throw new InvalidInputError(`the factors do not fit this index's matrix (relative residual ${fit.toExponential(2)}); were they computed from this export, with rows in the same order?`);
+    throw new InvalidInputError(
+      `the factors do not fit this index's matrix (relative residual ${fit.toExponential(2)}); were they computed from this export, with rows in the same order?`,
+    );
   }
 
   // Residual of build documents: 1 − ‖Uᵀd̂‖² for each unit row d̂ (empty rows skipped).

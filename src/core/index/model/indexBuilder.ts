@@ -67,7 +67,12 @@ export class IndexBuilder {
       const a = adoptSharedModel(progress.sharedModel, vocab, slots, this.settings, progress);
       return LsiIndex.assemble(this.settings, a.vocab, a.model, a.slots, a.vectors);
     }
-    const { model, vectors } = buildConceptModelAndVectors(slots.map((s) => s.terms), vocab.size, this.settings, progress);
+    const { model, vectors } = buildConceptModelAndVectors(
+      slots.map((s) => s.terms),
+      vocab.size,
+      this.settings,
+      progress,
+    );
     return LsiIndex.assemble(this.settings, vocab, model, slots, vectors);
   }
 }

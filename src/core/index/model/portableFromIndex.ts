@@ -6,7 +6,10 @@
 import type { LsiIndex } from '../lsiIndex.js';
 import type { PortableModel } from '../persistence/conceptFile.js';
 
-export function portableFromIndex(index: LsiIndex, options: { withFiles?: boolean; createdAt?: string } = {}): Omit<PortableModel, 'checksum'> {
+export function portableFromIndex(
+  index: LsiIndex,
+  options: { withFiles?: boolean; createdAt?: string } = {},
+): Omit<PortableModel, 'checksum'> {
   const m = index.model;
   const terms = Array.from(m.keptIds, (id) => index.vocab.termOf(id));
   const slots = index.slots().filter((s) => s !== null);

@@ -166,9 +166,22 @@ export function decodeConceptFile(bytes: Uint8Array): PortableModel {
   if (h.format !== CONCEPT_FILE_FORMAT) bad('header names another format');
   if (!WEIGHTING_SCHEMES.includes(h.weighting as WeightingScheme)) bad('unknown weighting');
   const tokenize = h.tokenize as TokenizeOptions;
-  if (typeof tokenize !== 'object' || tokenize === null || typeof tokenize.stem !== 'boolean' || typeof tokenize.keepCompounds !== 'boolean') bad('tokenizer options missing');
+  if (
+    typeof tokenize !== 'object' ||
+    tokenize === null ||
+    typeof tokenize.stem !== 'boolean' ||
+    typeof tokenize.keepCompounds !== 'boolean'
+  )
+    bad('tokenizer options missing');
   const prune = h.prune as PruneOptions;
-  if (typeof prune !== 'object' || prune === null || typeof prune.minDocs !== 'number' || typeof prune.maxDocFraction !== 'number' || typeof prune.maxTerms !== 'number') bad('pruning options missing');
+  if (
+    typeof prune !== 'object' ||
+    prune === null ||
+    typeof prune.minDocs !== 'number' ||
+    typeof prune.maxDocFraction !== 'number' ||
+    typeof prune.maxTerms !== 'number'
+  )
+    bad('pruning options missing');
   const k = int('k', 1);
   const m = int('terms', k);
   const f = int('files', 0);
@@ -182,7 +195,8 @@ export function decodeConceptFile(bytes: Uint8Array): PortableModel {
     const s = sections.find((x) => x && x.name === name);
     if (!s) return bad(`section ${name} missing`);
     if (s.kind !== kind) bad(`section ${name} has kind ${String(s.kind)}, expected ${kind}`);
-    if (!Number.isInteger(s.offset) || s.offset < 0 || s.offset % 8 !== 0 || !Number.isInteger(s.length) || s.length < 0) bad(`section ${name} has a bad offset or length`);
+    if (!Number.isInteger(s.offset) || s.offset < 0 || s.offset % 8 !== 0 || !Number.isInteger(s.length) || s.length < 0)
+      bad(`section ${name} has a bad offset or length`);
     if (length !== undefined && s.length !== length) bad(`section ${name} holds ${s.length} values, expected ${length}`);
     const start = payloadAt + s.offset;
     const end = start + s.length * SIZE[kind];
@@ -215,7 +229,8 @@ export function decodeConceptFile(bytes: Uint8Array): PortableModel {
   }
   const weights = copyOf(Float64Array, get('weights', 'f64', m));
   const singularValues = copyOf(Float64Array, get('singularValues', 'f64', k));
-  for (let c = 0; c < k; c++) if (singularValues[c] < 0 || (c > 0 && singularValues[c] > singularValues[c - 1])) bad('singular values must be ≥ 0 and descending');
+  for (let c = 0; c < k; c++)
+    if (singularValues[c] < 0 || (c > 0 && singularValues[c] > singularValues[c - 1])) bad('singular values must be ≥ 0 and descending');
   const termVectors = copyOf(Float32Array, get('termVectors', 'f32', m * k));
   const files = f > 0 ? splitNames(get('files', 'u8', undefined), f, 'file names') : [];
   const fileVectors = f > 0 ? copyOf(Float32Array, get('fileVectors', 'f32', f * k)) : new Float32Array(0);

@@ -63,7 +63,9 @@ function object(v: unknown, what: string, keys: readonly string[]): Obj {
   if (have.length !== want.length || have.some((k, i) => k !== want[i])) {
     const missing = want.filter((k) => !(k in o));
     const extra = have.filter((k) => !want.includes(k));
-    fail(`${what} has ${missing.length ? `no ${missing.map((k) => `"${k}"`).join(', ')}` : ''}${missing.length && extra.length ? ' and ' : ''}${extra.length ? `unknown ${extra.map((k) => `"${k}"`).join(', ')}` : ''}`);
+    fail(
+      `${what} has ${missing.length ? `no ${missing.map((k) => `"${k}"`).join(', ')}` : ''}${missing.length && extra.length ? ' and ' : ''}${extra.length ? `unknown ${extra.map((k) => `"${k}"`).join(', ')}` : ''}`,
+    );
   }
   return o;
 }
@@ -134,13 +136,34 @@ export interface CheckedHeader {
 
 /** Checks every field of a parsed header (types, ranges, the section table and its offsets). */
 export function checkHeader(v: unknown, formatVersion: number): CheckedHeader {
-  const h = object(v, 'the header', ['formatVersion', 'createdAt', 'settings', 'docs', 'vocabSorted', 'model', 'counters', 'sections', 'payloadBytes', 'checksum']);
-  if (h.formatVersion !== formatVersion) throw new CorruptIndexError(`index format ${String(h.formatVersion)} is not the current format ${formatVersion}`);
+  const h = object(v, 'the header', [
+    'formatVersion',
+    'createdAt',
+    'settings',
+    'docs',
+    'vocabSorted',
+    'model',
+    'counters',
+    'sections',
+    'payloadBytes',
+    'checksum',
+  ]);
+  if (h.formatVersion !== formatVersion)
+    throw new CorruptIndexError(`index format ${String(h.formatVersion)} is not the current format ${formatVersion}`);
   if (typeof h.createdAt !== 'string' || Number.isNaN(Date.parse(h.createdAt))) fail('createdAt is not a date');
   const settings = checkSettings(h.settings);
   int(h.docs, 'docs', 0, 2 ** 31 - 2);
   int(h.vocabSorted, 'vocabSorted', 0, 2 ** 31 - 2);
-  const m = object(h.model, 'model', ['scheme', 'k', 'kChoice', 'frobeniusSquared', 'residualMean', 'nonZeros', 'pruneRelaxed', 'columnOfLength']);
+  const m = object(h.model, 'model', [
+    'scheme',
+    'k',
+    'kChoice',
+    'frobeniusSquared',
+    'residualMean',
+    'nonZeros',
+    'pruneRelaxed',
+    'columnOfLength',
+  ]);
   if (m.scheme !== settings.weighting) fail('model.scheme differs from settings.weighting');
   const k = int(m.k, 'model.k', 1, 1_000_000);
   const kc = object(m.kChoice, 'model.kChoice', ['k', 'requested', 'clamped']);
@@ -156,7 +179,8 @@ export function checkHeader(v: unknown, formatVersion: number): CheckedHeader {
   int(c.removedSinceBuild, 'counters.removedSinceBuild', 0);
   num(c.foldedTokens, 'counters.foldedTokens', 0, Number.MAX_VALUE);
   num(c.foldedUnknownTokens, 'counters.foldedUnknownTokens', 0, Number.MAX_VALUE);
-  if (!Array.isArray(h.sections) || h.sections.length !== SECTION_LAYOUT.length) fail(`the section table does not list the ${SECTION_LAYOUT.length} sections`);
+  if (!Array.isArray(h.sections) || h.sections.length !== SECTION_LAYOUT.length)
+    fail(`the section table does not list the ${SECTION_LAYOUT.length} sections`);
   let offset = 0;
   (h.sections as unknown[]).forEach((raw, i) => {
     const [name, kind] = SECTION_LAYOUT[i];
@@ -183,7 +207,10 @@ export function checkSectionSizes(header: CheckedHeader): void {
     [header.vocabSorted <= terms, 'vocabSorted exceeds the vocabulary'],
     [header.model.columnOfLength <= terms, 'model.columnOfLength exceeds the vocabulary'],
     [(n === 0) === (len.paths === 0), 'paths disagree with docs'],
-    [['docSize', 'docMtime', 'docLength', 'docFolded', 'docResidual'].every((s) => len[s] === n), 'a per-document section is not docs long'],
+    [
+      ['docSize', 'docMtime', 'docLength', 'docFolded', 'docResidual'].every((s) => len[s] === n),
+      'a per-document section is not docs long',
+    ],
     [len.termIndptr === n + 1, 'termIndptr is not docs + 1 long'],
     [len.termIds === len.termCounts, 'termIds and termCounts differ in length'],
     [len.weights === m, 'weights are not one per model term'],

@@ -18,7 +18,15 @@
 import { CorruptIndexError } from '../../errors.js';
 import { checksum32 } from './checksum.js';
 import type { ConceptModel } from '../model/conceptModel.js';
-import { align8, checkHeader, checkPayload, checkSectionSizes, type ArrayKind, type CheckedHeader, type SectionEntry } from './indexFileCheck.js';
+import {
+  align8,
+  checkHeader,
+  checkPayload,
+  checkSectionSizes,
+  type ArrayKind,
+  type CheckedHeader,
+  type SectionEntry,
+} from './indexFileCheck.js';
 import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import { Vocabulary } from '../../counting/termCounts.js';
 
@@ -33,7 +41,8 @@ type Typed = Uint8Array | Int32Array | Float32Array | Float64Array;
 type Header = CheckedHeader;
 
 const CTORS = { u8: Uint8Array, i32: Int32Array, f32: Float32Array, f64: Float64Array } as const;
-const kindOf = (a: Typed): ArrayKind => (a instanceof Uint8Array ? 'u8' : a instanceof Int32Array ? 'i32' : a instanceof Float32Array ? 'f32' : 'f64');
+const kindOf = (a: Typed): ArrayKind =>
+  a instanceof Uint8Array ? 'u8' : a instanceof Int32Array ? 'i32' : a instanceof Float32Array ? 'f32' : 'f64';
 const encoder = new TextEncoder();
 const decoder = new TextDecoder('utf-8', { fatal: true });
 
@@ -54,7 +63,12 @@ const copied = (name: string, arr: Typed): SectionSource => ({
 });
 
 /** A section filled straight into the output buffer. */
-const inPlace = <K extends ArrayKind>(name: string, kind: K, length: number, fill: (dst: InstanceType<(typeof CTORS)[K]>) => void): SectionSource => ({
+const inPlace = <K extends ArrayKind>(
+  name: string,
+  kind: K,
+  length: number,
+  fill: (dst: InstanceType<(typeof CTORS)[K]>) => void,
+): SectionSource => ({
   name,
   kind,
   length,
@@ -70,7 +84,10 @@ function headerChecksum(prefix: Uint8Array): number {
 
 /** Encodes an index into one buffer, writing the large sections in place (no second copy of the payload). */
 export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint8Array {
-  const live = index.slots().map((s, i) => [s, i] as const).filter((p): p is readonly [DocSlot, number] => p[0] !== null);
+  const live = index
+    .slots()
+    .map((s, i) => [s, i] as const)
+    .filter((p): p is readonly [DocSlot, number] => p[0] !== null);
   const k = index.k;
   const n = live.length;
   const all = index.vectors();
@@ -83,11 +100,26 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     copied('vocab', vocab.bytes),
     copied('vocabStarts', vocab.starts),
     copied('paths', encoder.encode(live.map(([s]) => s.meta.path).join('\0'))),
-    copied('docSize', Float64Array.from(live, ([s]) => s.meta.size)),
-    copied('docMtime', Float64Array.from(live, ([s]) => s.meta.mtimeMs)),
-    copied('docLength', Float64Array.from(live, ([s]) => s.terms.length)),
-    copied('docFolded', Uint8Array.from(live, ([s]) => (s.folded ? 1 : 0))),
-    copied('docResidual', Float64Array.from(live, ([s]) => s.residual)),
+    copied(
+      'docSize',
+      Float64Array.from(live, ([s]) => s.meta.size),
+    ),
+    copied(
+      'docMtime',
+      Float64Array.from(live, ([s]) => s.meta.mtimeMs),
+    ),
+    copied(
+      'docLength',
+      Float64Array.from(live, ([s]) => s.terms.length),
+    ),
+    copied(
+      'docFolded',
+      Uint8Array.from(live, ([s]) => (s.folded ? 1 : 0)),
+    ),
+    copied(
+      'docResidual',
+      Float64Array.from(live, ([s]) => s.residual),
+    ),
     copied('termIndptr', termIndptr),
     inPlace('termIds', 'i32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.termIds, termIndptr[j]))),
     inPlace('termCounts', 'f32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.counts, termIndptr[j]))),
@@ -202,7 +234,8 @@ export function readIndexHeader(bytes: Uint8Array): Header {
 export function decodeIndex(bytes: Uint8Array): LsiIndex {
   const header = readIndexHeader(bytes);
   const start = headerExtent(bytes);
-  if (bytes.length !== start + header.payloadBytes) throw new CorruptIndexError(`index file is ${bytes.length} bytes, expected ${start + header.payloadBytes} (truncated or padded)`);
+  if (bytes.length !== start + header.payloadBytes)
+    throw new CorruptIndexError(`index file is ${bytes.length} bytes, expected ${start + header.payloadBytes} (truncated or padded)`);
   const payload = bytes.subarray(start);
   if (checksum32(payload) !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
@@ -250,7 +283,8 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     k,
   };
   checkPayload(parts);
-  const { size, mtime, length, folded, residual, indptr, ids, counts, keptIds, weights, termVectors, singularValues, axisScale, vectors } = parts;
+  const { size, mtime, length, folded, residual, indptr, ids, counts, keptIds, weights, termVectors, singularValues, axisScale, vectors } =
+    parts;
   const columnOf = new Int32Array(header.model.columnOfLength).fill(-1);
   keptIds.forEach((id, c) => (columnOf[id] = c));
   const { columnOfLength: _len, ...scalars } = header.model;

@@ -57,7 +57,14 @@ function addSide(list: readonly number[], norm: Float64Array, idf: number, k1: n
   }
 }
 
-function lengthNorms(docs: readonly (DocTerms | null)[], lengths: Float64Array, avg: number, k1: number, b: number, out: Float64Array): void {
+function lengthNorms(
+  docs: readonly (DocTerms | null)[],
+  lengths: Float64Array,
+  avg: number,
+  k1: number,
+  b: number,
+  out: Float64Array,
+): void {
   for (let j = 0; j < docs.length; j++) out[j] = docs[j] !== null ? k1 * (1 - b + (b * lengths[j]) / Math.max(avg, 1e-9)) : 0;
 }
 

@@ -194,7 +194,15 @@ export function roundHalfUp(x: number): number {
 }
 
 /** The arithmetic of setRow, in the same order, over a Float32Array block with no per-row views. */
-function codeRows(rows: Float32Array, k: number, from: number, to: number, codes: Int8Array, scales: Float64Array, errors: Float64Array): void {
+function codeRows(
+  rows: Float32Array,
+  k: number,
+  from: number,
+  to: number,
+  codes: Int8Array,
+  scales: Float64Array,
+  errors: Float64Array,
+): void {
   for (let j = from; j < to; j++) {
     const base = j * k;
     let max = 0;
@@ -226,7 +234,15 @@ function codeRows(rows: Float32Array, k: number, from: number, to: number, codes
   }
 }
 
-function boundRows(sums: Float64Array, scales: Float64Array, errors: Float64Array, norm2: number, rounding: number, center: Float64Array, radius: Float64Array): void {
+function boundRows(
+  sums: Float64Array,
+  scales: Float64Array,
+  errors: Float64Array,
+  norm2: number,
+  rounding: number,
+  center: Float64Array,
+  radius: Float64Array,
+): void {
   for (let j = 0; j < center.length; j++) {
     const s = scales[j];
     center[j] = s * sums[j];

@@ -30,7 +30,14 @@ export const DEFAULT_CONCEPT_ROWS_OPTIONS: Readonly<ConceptRowsOptions> = Object
 export function dotRows(rows: Float32Array, k: number, n: number, q: ArrayLike<number>, out: Float64Array): void {
   const k8 = k - (k & 7);
   for (let j = 0, o = 0; j < n; j++, o += k) {
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, s5 = 0, s6 = 0, s7 = 0;
+    let s0 = 0,
+      s1 = 0,
+      s2 = 0,
+      s3 = 0,
+      s4 = 0,
+      s5 = 0,
+      s6 = 0,
+      s7 = 0;
     for (let c = 0; c < k8; c += 8) {
       const p = o + c;
       s0 += rows[p] * q[c];
@@ -143,7 +150,8 @@ export class ConceptRows {
     if (this._wasm) {
       for (let c = 0; c < this.k; c++) this._query[c] = q[c];
       const kernel = this._wasm.kernel;
-      for (let i = 0; i < count; i++) kernel.dots(this._rows.byteOffset, this._query.byteOffset, this.k, slots[i], slots[i] + 1, out.byteOffset);
+      for (let i = 0; i < count; i++)
+        kernel.dots(this._rows.byteOffset, this._query.byteOffset, this.k, slots[i], slots[i] + 1, out.byteOffset);
     } else {
       for (let i = 0; i < count; i++) dotRows(this._rows.subarray(slots[i] * this.k), this.k, 1, q, out.subarray(slots[i]));
     }

@@ -65,7 +65,9 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
 export const QUESTION_FILLER: readonly string[] = `
 happen happens happened happening whether wonder please tell explain someone somebody something
 anything anyone anybody really actually exactly just maybe perhaps basically
-`.split(/\s+/).filter((w) => w.length > 0 && !STOP_WORDS.has(w));
+`
+  .split(/\s+/)
+  .filter((w) => w.length > 0 && !STOP_WORDS.has(w));
 
 /** "the code that …", "the file where …": a pointing noun before a relative word, dropped with it kept. */
 const POINTING = /\b(?:code|file|files|function|functions|place)\s+(?=(?:that|which|where|whose|who)\b)/giu;
@@ -119,7 +121,10 @@ export function mergeTerms(a: DocTerms, b: DocTerms): DocTerms {
  * original q carries in it (explanations split a cosine into the query's part and the rest);
  * null when the sum vanishes.
  */
-export function rocchio(q: Float32Array, parts: readonly { weight: number; vectors: readonly Float32Array[] }[]): { vector: Float32Array; scale: number } | null {
+export function rocchio(
+  q: Float32Array,
+  parts: readonly { weight: number; vectors: readonly Float32Array[] }[],
+): { vector: Float32Array; scale: number } | null {
   const acc = Float64Array.from(q);
   for (const { weight, vectors } of parts) {
     if (vectors.length === 0 || weight === 0) continue;

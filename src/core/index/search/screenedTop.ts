@@ -71,11 +71,27 @@ export function screenedTop(input: ScreenInput, scratch: ScreenScratch): Screene
   return { ranked, product: (slot) => exact[slot], candidates: count };
 }
 
-function lowerBounds(center: Float64Array, radius: Float64Array, a: number, b: number, values: Float64Array | null, out: Float64Array): void {
+function lowerBounds(
+  center: Float64Array,
+  radius: Float64Array,
+  a: number,
+  b: number,
+  values: Float64Array | null,
+  out: Float64Array,
+): void {
   for (let j = 0; j < out.length; j++) out[j] = a * (center[j] - radius[j]) + (values ? b * values[j] : 0) - SLACK;
 }
 
-function candidates(center: Float64Array, radius: Float64Array, a: number, b: number, values: Float64Array | null, bar: number, accept: (slot: number) => boolean, out: Int32Array): number {
+function candidates(
+  center: Float64Array,
+  radius: Float64Array,
+  a: number,
+  b: number,
+  values: Float64Array | null,
+  bar: number,
+  accept: (slot: number) => boolean,
+  out: Int32Array,
+): number {
   let count = 0;
   for (let j = 0; j < center.length; j++) {
     const upper = a * (center[j] + radius[j]) + (values ? b * values[j] : 0) + SLACK;

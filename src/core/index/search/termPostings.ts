@@ -40,10 +40,11 @@ export class TermPostings {
     this.df--;
     if (was <= this.builtAt) return; // in the main list, where its new stamp voids it
     const side = this.side;
-    for (let p = 0; p < side.length; p += 2) if (side[p] === slot) {
-      side.splice(p, 2);
-      return;
-    }
+    for (let p = 0; p < side.length; p += 2)
+      if (side[p] === slot) {
+        side.splice(p, 2);
+        return;
+      }
   }
 
   /** Slot (already stamped `edits`) now holds a document with tf of the term. */
@@ -174,7 +175,10 @@ export class PostingsBuild {
   private _block: PostingsBlock | null = null;
 
   /** docs is kept as given: pass a copy that later edits do not change. */
-  constructor(readonly docs: readonly (DocTerms | null)[], readonly builtAt: number) {}
+  constructor(
+    readonly docs: readonly (DocTerms | null)[],
+    readonly builtAt: number,
+  ) {}
 
   /** Works while more() says so (at least one step); the block once complete, else null. */
   run(more: () => boolean): PostingsBlock | null {

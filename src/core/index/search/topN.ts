@@ -46,7 +46,5 @@ export function topN(scores: Float64Array | Float32Array, n: number, accept: (sl
     }
     if (heapSlots.length === n) bar = scores[heapSlots[0]];
   }
-  return heapSlots
-    .sort((a, b) => (worse(a, b) ? 1 : worse(b, a) ? -1 : 0))
-    .map((slot) => ({ slot, score: scores[slot] }));
+  return heapSlots.sort((a, b) => (worse(a, b) ? 1 : worse(b, a) ? -1 : 0)).map((slot) => ({ slot, score: scores[slot] }));
 }

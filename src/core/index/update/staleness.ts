@@ -65,10 +65,11 @@ export class ChangeCounters {
   measure(slots: readonly (FoldState | null)[], size: number, residualMean: number): Staleness {
     let folded = 0;
     let residual = 0;
-    for (const s of slots) if (s?.folded) {
-      folded++;
-      residual += s.residual;
-    }
+    for (const s of slots)
+      if (s?.folded) {
+        folded++;
+        residual += s.residual;
+      }
     const changed = folded + this._removedSinceBuild;
     const base = size + this._removedSinceBuild;
     return {

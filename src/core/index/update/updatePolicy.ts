@@ -41,9 +41,7 @@ export const DEFAULT_UPDATE_POLICY: Readonly<UpdatePolicy> = Object.freeze({
 
 export type RebuildReason = 'changed-share' | 'new-vocabulary' | 'residual-growth';
 
-export type UpdateDecision =
-  | { readonly action: 'fold-in' }
-  | { readonly action: 'rebuild'; readonly reasons: readonly RebuildReason[] };
+export type UpdateDecision = { readonly action: 'fold-in' } | { readonly action: 'rebuild'; readonly reasons: readonly RebuildReason[] };
 
 /** Whether the index, in the given state, should be rebuilt (pure; same input, same answer). */
 export function decideUpdate(staleness: Staleness, policy: UpdatePolicy = DEFAULT_UPDATE_POLICY): UpdateDecision {

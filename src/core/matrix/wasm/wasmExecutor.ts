@@ -4,7 +4,15 @@
  * fixed blocks, in the same order, as every other executor, so the results are the same bits as
  * serialExecutor's.
  */
-import { addInto, mirrorUpper, reductionBlocks, REDUCTION_BLOCK_ROWS, serialExecutor, type FloatArray, type MatrixExecutor } from '../executor.js';
+import {
+  addInto,
+  mirrorUpper,
+  reductionBlocks,
+  REDUCTION_BLOCK_ROWS,
+  serialExecutor,
+  type FloatArray,
+  type MatrixExecutor,
+} from '../executor.js';
 import type { CsrMatrix } from '../sparse.js';
 import { instantiateKernels, kernelModule, WasmArena, type KernelExports } from './wasmArena.js';
 
@@ -55,7 +63,17 @@ export class WasmExecutor implements MatrixExecutor {
     const out = this.out(y);
     const f32 = m.values instanceof Float32Array && this.arena.offsetOf(m.values) >= 0;
     const values = f32 ? m.values.byteOffset : this.ptr(m.values);
-    (f32 ? this.kernels.spmm_f32 : this.kernels.spmm)(this.ptr(m.indptr), this.ptr(m.indices), values, this.ptr(x), l, out.ptr, 0, m.rows, sequential ? 0 : 1);
+    (f32 ? this.kernels.spmm_f32 : this.kernels.spmm)(
+      this.ptr(m.indptr),
+      this.ptr(m.indices),
+      values,
+      this.ptr(x),
+      l,
+      out.ptr,
+      0,
+      m.rows,
+      sequential ? 0 : 1,
+    );
     out.done();
   }
 
@@ -66,7 +84,15 @@ export class WasmExecutor implements MatrixExecutor {
     const g = new Float64Array(l * l);
     const part = this.scratch(l * l);
     for (let t = 0; t < reductionBlocks(rows); t++) {
-      this.kernels.cross(pa, pb, l, t * REDUCTION_BLOCK_ROWS, Math.min(rows, (t + 1) * REDUCTION_BLOCK_ROWS), part.byteOffset, symmetric ? 1 : 0);
+      this.kernels.cross(
+        pa,
+        pb,
+        l,
+        t * REDUCTION_BLOCK_ROWS,
+        Math.min(rows, (t + 1) * REDUCTION_BLOCK_ROWS),
+        part.byteOffset,
+        symmetric ? 1 : 0,
+      );
       addInto(g, part);
     }
     return symmetric ? mirrorUpper(g, l) : g;

@@ -15,7 +15,7 @@ import { loadCollection } from '../../../helpers/shared.js';
 const cisi = loadCollection('cisi');
 
 describe('adoptSharedModel', () => {
-  const build = (docs: typeof cisi['docs'], shared?: ReturnType<typeof decodeConceptFile>) => {
+  const build = (docs: (typeof cisi)['docs'], shared?: ReturnType<typeof decodeConceptFile>) => {
     const b = new IndexBuilder({ k: 60 });
     for (const d of docs) b.addText({ path: `${d.id}.txt`, size: d.text.length, mtimeMs: 0 }, d.text);
     return b.build(shared ? { sharedModel: shared } : {});
@@ -30,7 +30,9 @@ describe('adoptSharedModel', () => {
     for (const q of cisi.queries.slice(0, 10)) {
       expect(same.search(q.text, { top: 10 }).map((h) => h.path)).toEqual(full.search(q.text, { top: 10 }).map((h) => h.path));
     }
-    expect(same.nearby(full.paths()[5], { top: 10 }).map((h) => h.path)).toEqual(full.nearby(full.paths()[5], { top: 10 }).map((h) => h.path));
+    expect(same.nearby(full.paths()[5], { top: 10 }).map((h) => h.path)).toEqual(
+      full.nearby(full.paths()[5], { top: 10 }).map((h) => h.path),
+    );
 
     const half = build(cisi.docs.slice(0, 700), shared);
     for (const p of half.paths()) expect(Array.from(half.vectorOf(p))).toEqual(Array.from(full.vectorOf(p)));

@@ -15,11 +15,16 @@ describe('modelFromFactors', () => {
   const index = adi ? builder.build() : undefined;
 
   function exactFactors(k: number) {
-    const m = modelMatrix(index!.model, index!.slots().map((s) => s!.terms));
+    const m = modelMatrix(
+      index!.model,
+      index!.slots().map((s) => s!.terms),
+    );
     const dense = Array.from({ length: m.cols }, () => new Array<number>(m.rows).fill(0)); // terms × files
     for (let i = 0; i < m.rows; i++) for (let p = m.indptr[i]; p < m.indptr[i + 1]; p++) dense[m.indices[p]][i] = m.values[p];
     const svd = new SingularValueDecomposition(new Matrix(dense), { autoTranspose: true });
-    const u = new Float64Array(m.cols * k), v = new Float64Array(m.rows * k), s = new Float64Array(k);
+    const u = new Float64Array(m.cols * k),
+      v = new Float64Array(m.rows * k),
+      s = new Float64Array(k);
     // Ascending order, as ARPACK returns them, and one column negated: both must be undone.
     for (let c = 0; c < k; c++) {
       const src = k - 1 - c;
@@ -37,7 +42,8 @@ describe('modelFromFactors', () => {
     expect(report.documentResidual).toBeLessThan(1e-10);
     expect(report.orthogonalityError).toBeLessThan(1e-10);
     for (let c = 1; c < 12; c++) expect(model.singularValues[c]).toBeLessThanOrEqual(model.singularValues[c - 1]);
-    for (let c = 0; c < 6; c++) expect(Math.abs(model.singularValues[c] - index!.model.singularValues[c]) / model.singularValues[c]).toBeLessThan(0.01);
+    for (let c = 0; c < 6; c++)
+      expect(Math.abs(model.singularValues[c] - index!.model.singularValues[c]) / model.singularValues[c]).toBeLessThan(0.01);
   });
 
   it('refuses factors whose rows are in another order, or whose U is not orthonormal', () => {

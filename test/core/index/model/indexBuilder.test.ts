@@ -51,7 +51,12 @@ describe('IndexBuilder term order', () => {
     const terms = ['alpha', 'beta', 'delta', '\uFB01x', '\u{1D6FC}y'];
     const vocab = savedVocabulary(terms);
     const b = new IndexBuilder({ k: 2 }, vocab);
-    [[0, 1, 3], [1, 2, 4], [0, 2, 3, 4], [0, 1, 2]].forEach((ids, i) => b.addCounted({ path: `d${i}`, size: 1, mtimeMs: 0 }, doc(ids)));
+    [
+      [0, 1, 3],
+      [1, 2, 4],
+      [0, 2, 3, 4],
+      [0, 1, 2],
+    ].forEach((ids, i) => b.addCounted({ path: `d${i}`, size: 1, mtimeMs: 0 }, doc(ids)));
     const built = b.build();
     const order = Array.from({ length: built.vocab.size }, (_, i) => built.vocab.termOf(i));
     expect(order).toEqual([...terms].sort());
@@ -62,7 +67,12 @@ describe('IndexBuilder term order', () => {
   it('keeps a byte-ordered vocabulary of plain terms as it is', () => {
     const vocab = savedVocabulary(['ant', 'bee', 'cat', 'dog']);
     const b = new IndexBuilder({ k: 2 }, vocab);
-    [[0, 1], [1, 2, 3], [0, 3], [0, 2]].forEach((ids, i) => b.addCounted({ path: `d${i}`, size: 1, mtimeMs: 0 }, doc(ids)));
+    [
+      [0, 1],
+      [1, 2, 3],
+      [0, 3],
+      [0, 2],
+    ].forEach((ids, i) => b.addCounted({ path: `d${i}`, size: 1, mtimeMs: 0 }, doc(ids)));
     expect(b.build().vocab).toBe(vocab);
   });
 });

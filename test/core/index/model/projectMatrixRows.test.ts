@@ -23,6 +23,8 @@ describe('projectMatrixRows', () => {
       });
     }
     // And the index built them that way.
-    docs.forEach((d, i) => expect(Array.from(index.vectors().subarray(i * k, (i + 1) * k))).toEqual(Array.from(projectTerms(index.model, d).vector)));
+    docs.forEach((d, i) =>
+      expect(Array.from(index.vectors().subarray(i * k, (i + 1) * k))).toEqual(Array.from(projectTerms(index.model, d).vector)),
+    );
   });
 });

@@ -5,7 +5,12 @@
  */
 import { describe, expect, it } from 'vitest';
 import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
-import { CorruptModelError, decodeConceptFile, encodeConceptFile, type PortableModel } from '../../../../src/core/index/persistence/conceptFile.js';
+import {
+  CorruptModelError,
+  decodeConceptFile,
+  encodeConceptFile,
+  type PortableModel,
+} from '../../../../src/core/index/persistence/conceptFile.js';
 import { portableFromIndex } from '../../../../src/core/index/model/portableFromIndex.js';
 import { createRandom } from '../../../../src/core/random.js';
 import { loadCollection } from '../../../helpers/shared.js';

@@ -16,7 +16,14 @@ import { describe, expect, it } from 'vitest';
 import { CorruptIndexError } from '../../../../src/core/errors.js';
 import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../../src/core/index/lsiIndex.js';
-import { decodeIndex, encodeIndex, INDEX_PREAMBLE_BYTES, payloadOf, readIndexHeader, sealIndexFile } from '../../../../src/core/index/persistence/serialize.js';
+import {
+  decodeIndex,
+  encodeIndex,
+  INDEX_PREAMBLE_BYTES,
+  payloadOf,
+  readIndexHeader,
+  sealIndexFile,
+} from '../../../../src/core/index/persistence/serialize.js';
 import { createRandom } from '../../../../src/core/random.js';
 import { loadCollection } from '../../../helpers/shared.js';
 
@@ -28,7 +35,8 @@ const SEED = 90_210;
 
 function buildIndex(): LsiIndex {
   const b = new IndexBuilder();
-  for (const d of cran.docs.slice(0, 300)) b.addText({ path: `cran/${d.id}.txt`, size: d.text.length, mtimeMs: 1_700_000_000_000 + Number(d.id) }, d.text);
+  for (const d of cran.docs.slice(0, 300))
+    b.addText({ path: `cran/${d.id}.txt`, size: d.text.length, mtimeMs: 1_700_000_000_000 + Number(d.id) }, d.text);
   const index = b.build();
   for (const d of cran.docs.slice(300, 305)) index.foldIn({ path: `later/${d.id}.md`, size: d.text.length, mtimeMs: 5 }, d.text);
   index.remove('cran/7.txt');
@@ -46,7 +54,15 @@ function answers(index: LsiIndex): string {
     }
   });
   const near = ['cran/1.txt', 'cran/150.txt', 'later/302.md'].map((p) => (index.has(p) ? index.nearby(p, { top: 5 }) : 'absent'));
-  return JSON.stringify({ queries, near, paths: index.paths(), k: index.k, settings: index.settings, staleness: index.staleness(), vocab: index.vocab.size });
+  return JSON.stringify({
+    queries,
+    near,
+    paths: index.paths(),
+    k: index.k,
+    settings: index.settings,
+    staleness: index.staleness(),
+    vocab: index.vocab.size,
+  });
 }
 
 interface Region {

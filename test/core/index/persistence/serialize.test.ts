@@ -153,7 +153,11 @@ describe('serialize', () => {
       ['unknown weighting', (h) => (h.settings.weighting = 'bm25'), /weighting/],
       ['stem as a number', (h) => (h.settings.tokenize.stem = 1), /stem/],
       ['extra header key', (h) => (h.extra = 1), /unknown "extra"/],
-      ['a section length 300 → 3', (h) => (h.sections.find((x: Json) => x.name === 'singularValues').length = 3), /does not start|disagree|payloadBytes/],
+      [
+        'a section length 300 → 3',
+        (h) => (h.sections.find((x: Json) => x.name === 'singularValues').length = 3),
+        /does not start|disagree|payloadBytes/,
+      ],
       ['vectors offset + 1', (h) => (h.sections.find((x: Json) => x.name === 'vectors').offset += 1), /does not start/],
       ['vectors offset − 8', (h) => (h.sections.find((x: Json) => x.name === 'vectors').offset -= 8), /does not start/],
       ['sections swapped', (h) => h.sections.reverse(), /section 1/],
@@ -172,7 +176,10 @@ describe('serialize', () => {
   // An index folded into a shared concept model (import-model) saves one more settings key.
   it('accepts the settings of an index that uses a shared concept model, and rejects a malformed one', () => {
     const bytes = encodeIndex(buildAdi());
-    const shared = rewrite(bytes, (h) => ((h as unknown as Json).settings.sharedModel = { path: '/models/org.utcm', key: 'crc32:1a2b3c4d' }));
+    const shared = rewrite(
+      bytes,
+      (h) => ((h as unknown as Json).settings.sharedModel = { path: '/models/org.utcm', key: 'crc32:1a2b3c4d' }),
+    );
     expect(readIndexHeader(shared).settings.sharedModel).toEqual({ path: '/models/org.utcm', key: 'crc32:1a2b3c4d' });
     expect(() => decodeIndex(shared)).not.toThrow();
     const noKey = rewrite(bytes, (h) => ((h as unknown as Json).settings.sharedModel = { path: '/models/org.utcm' }));
@@ -188,20 +195,67 @@ describe('serialize', () => {
       return { e, at: payload.byteOffset + e.offset };
     };
     const cases: [string, (h: ReturnType<typeof readIndexHeader>, p: Uint8Array) => void, RegExp][] = [
-      ['term id past the vocabulary', (h, p) => { const { at } = section(h, p, 'termIds'); new Int32Array(p.buffer, at, 1)[0] = 1e8; }, /term id/],
-      ['term ids out of order', (h, p) => { const { at } = section(h, p, 'termIds'); const v = new Int32Array(p.buffer, at, 2); [v[0], v[1]] = [v[1], v[0]]; }, /term id/],
-      ['a vector scaled', (h, p) => { const { at } = section(h, p, 'vectors'); new Float32Array(p.buffer, at, 1)[0] *= 1.17 * 4; }, /unit length/],
-      ['a NaN weight', (h, p) => { const { at } = section(h, p, 'weights'); new Float64Array(p.buffer, at, 1)[0] = NaN; }, /weights/],
-      ['folded flag 7', (h, p) => { const { at } = section(h, p, 'docFolded'); p[at - p.byteOffset] = 7; }, /docFolded/],
-      ['indptr backwards', (h, p) => { const { at } = section(h, p, 'termIndptr'); new Int32Array(p.buffer, at, 3)[1] = 1e6; }, /termIndptr/],
-      ['duplicate path', (h, p) => {
-        const { at, e } = section(h, p, 'paths');
-        const u = new Uint8Array(p.buffer, at, e.length);
-        const names = new TextDecoder().decode(u).split('\0');
-        const j = names.findIndex((x, i) => i > 0 && x.length === names[0].length);
-        const from = names.slice(0, j).reduce((sum, x) => sum + x.length + 1, 0);
-        u.set(u.subarray(0, names[0].length), from);
-      }, /listed twice/],
+      [
+        'term id past the vocabulary',
+        (h, p) => {
+          const { at } = section(h, p, 'termIds');
+          new Int32Array(p.buffer, at, 1)[0] = 1e8;
+        },
+        /term id/,
+      ],
+      [
+        'term ids out of order',
+        (h, p) => {
+          const { at } = section(h, p, 'termIds');
+          const v = new Int32Array(p.buffer, at, 2);
+          [v[0], v[1]] = [v[1], v[0]];
+        },
+        /term id/,
+      ],
+      [
+        'a vector scaled',
+        (h, p) => {
+          const { at } = section(h, p, 'vectors');
+          new Float32Array(p.buffer, at, 1)[0] *= 1.17 * 4;
+        },
+        /unit length/,
+      ],
+      [
+        'a NaN weight',
+        (h, p) => {
+          const { at } = section(h, p, 'weights');
+          new Float64Array(p.buffer, at, 1)[0] = NaN;
+        },
+        /weights/,
+      ],
+      [
+        'folded flag 7',
+        (h, p) => {
+          const { at } = section(h, p, 'docFolded');
+          p[at - p.byteOffset] = 7;
+        },
+        /docFolded/,
+      ],
+      [
+        'indptr backwards',
+        (h, p) => {
+          const { at } = section(h, p, 'termIndptr');
+          new Int32Array(p.buffer, at, 3)[1] = 1e6;
+        },
+        /termIndptr/,
+      ],
+      [
+        'duplicate path',
+        (h, p) => {
+          const { at, e } = section(h, p, 'paths');
+          const u = new Uint8Array(p.buffer, at, e.length);
+          const names = new TextDecoder().decode(u).split('\0');
+          const j = names.findIndex((x, i) => i > 0 && x.length === names[0].length);
+          const from = names.slice(0, j).reduce((sum, x) => sum + x.length + 1, 0);
+          u.set(u.subarray(0, names[0].length), from);
+        },
+        /listed twice/,
+      ],
     ];
     for (const [what, edit, reason] of cases) {
       const forged = rewrite(bytes, edit);

@@ -69,7 +69,8 @@ const scoresOf = (scorer: Bm25Scorer, query: DocTerms, n: number): Float64Array 
   return out;
 };
 
-const sameBits = (a: Float64Array, b: Float64Array): boolean => a.length === b.length && Buffer.from(a.buffer).equals(Buffer.from(b.buffer));
+const sameBits = (a: Float64Array, b: Float64Array): boolean =>
+  a.length === b.length && Buffer.from(a.buffer).equals(Buffer.from(b.buffer));
 
 describe('Bm25Scorer', () => {
   const vocab = new Vocabulary();

@@ -27,7 +27,10 @@ describe('fusion helpers', () => {
 
   it('rocchio moves a unit query towards liked and away from unliked means, and reports the query’s factor', () => {
     const q = Float32Array.from([1, 0]);
-    const r = rocchio(q, [{ weight: 1, vectors: [Float32Array.from([0, 1])] }, { weight: -0.5, vectors: [Float32Array.from([1, 0]), Float32Array.from([1, 0])] }])!;
+    const r = rocchio(q, [
+      { weight: 1, vectors: [Float32Array.from([0, 1])] },
+      { weight: -0.5, vectors: [Float32Array.from([1, 0]), Float32Array.from([1, 0])] },
+    ])!;
     // q + (0, 1) − 0.5·(1, 0) = (0.5, 1), norm √1.25.
     expect(r.vector[0]).toBeCloseTo(0.5 / Math.sqrt(1.25), 6);
     expect(r.vector[1]).toBeCloseTo(1 / Math.sqrt(1.25), 6);

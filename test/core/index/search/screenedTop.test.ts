@@ -23,7 +23,7 @@ describe('screenedTop', () => {
     const scratch = new ScreenScratch();
     const extra = Float64Array.from({ length: n }, () => (rnd.next() < 0.7 ? 0 : rnd.next()));
     for (let t = 0; t < 12; t++) {
-      const q = rows.slice(((t * 131) % n) * k, ((t * 131) % n + 1) * k);
+      const q = rows.slice(((t * 131) % n) * k, (((t * 131) % n) + 1) * k);
       const accept = (j: number): boolean => j % 7 !== t % 7;
       const full = store.dots(q, n).slice();
       const top = [1, 10, 25][t % 3];
@@ -43,6 +43,8 @@ describe('screenedTop', () => {
     const rows = new Float32Array([1, 0, 0, 1]);
     const codes = ConceptCodes.create(2, 2, rows, 2)!;
     const store = new ConceptRows(2, 2, rows);
-    expect(screenedTop({ codes, rows: store, q: rows.subarray(0, 2), n: 2, top: 3, accept: () => true, a: 1 }, new ScreenScratch())).toBeNull();
+    expect(
+      screenedTop({ codes, rows: store, q: rows.subarray(0, 2), n: 2, top: 3, accept: () => true, a: 1 }, new ScreenScratch()),
+    ).toBeNull();
   });
 });

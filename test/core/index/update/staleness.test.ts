@@ -27,7 +27,12 @@ describe('ChangeCounters', () => {
 
   it('reports a fresh index as unchanged and restores saved counters', () => {
     const c = new ChangeCounters();
-    expect(c.measure([{ folded: false, residual: 0 }], 1, 0.2)).toEqual({ changedFiles: 0, changedShare: 0, newTermMass: 0, residualRatio: 1 });
+    expect(c.measure([{ folded: false, residual: 0 }], 1, 0.2)).toEqual({
+      changedFiles: 0,
+      changedShare: 0,
+      newTermMass: 0,
+      residualRatio: 1,
+    });
     c.restore({ removedSinceBuild: 2, foldedTokens: 10, foldedUnknownTokens: 5 });
     expect(c.counters).toEqual({ removedSinceBuild: 2, foldedTokens: 10, foldedUnknownTokens: 5 });
     expect(c.measure([{ folded: false, residual: 0 }], 1, 0.2).changedShare).toBeCloseTo(2 / 3, 15);

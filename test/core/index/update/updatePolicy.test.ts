@@ -36,7 +36,9 @@ describe('decideUpdate thresholds', () => {
     const s = { changedFiles: 30, changedShare: 0.3, newTermMass: 0.2, residualRatio: 1.5 };
     const d = decideUpdate(s);
     expect(d.action === 'rebuild' && d.reasons).toEqual(['changed-share', 'new-vocabulary', 'residual-growth']);
-    expect(describeReasons(['changed-share', 'new-vocabulary'], s)).toBe('30% of files changed; 20% of new text uses words the index has not seen');
+    expect(describeReasons(['changed-share', 'new-vocabulary'], s)).toBe(
+      '30% of files changed; 20% of new text uses words the index has not seen',
+    );
   });
 
   it('waits for the folder to fall quiet before a rebuild', () => {

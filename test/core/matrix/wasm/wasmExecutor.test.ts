@@ -7,18 +7,27 @@ import { createRandom } from '../../../../src/core/random.js';
 // kernels.test.ts). The SIMD kernels promise the very same IEEE operations, so the same bits.
 const wasm = createWasmExecutor();
 const rnd = createRandom(5);
-const same = (a: ArrayLike<number>, b: ArrayLike<number>): boolean => a.length === b.length && Array.from(a).every((v, i) => Object.is(v, b[i]));
+const same = (a: ArrayLike<number>, b: ArrayLike<number>): boolean =>
+  a.length === b.length && Array.from(a).every((v, i) => Object.is(v, b[i]));
 
 describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this runtime lacks WebAssembly SIMD or shared memory)'}`, () => {
-  for (const [rows, cols, l] of [[37, 29, 7], [100, 80, 22], [64, 50, 13], [5, 3, 1]] as const) {
+  for (const [rows, cols, l] of [
+    [37, 29, 7],
+    [100, 80, 22],
+    [64, 50, 13],
+    [5, 3, 1],
+  ] as const) {
     it(`gives the serial executor's bits for ${rows}×${cols}, l = ${l}`, () => {
       const ex = wasm!;
-      const indptr = [0], indices: number[] = [], values: number[] = [];
+      const indptr = [0],
+        indices: number[] = [],
+        values: number[] = [];
       for (let i = 0; i < rows; i++) {
-        for (let j = 0; j < cols; j++) if (rnd.next() < 0.25) {
-          indices.push(j);
-          values.push(rnd.normal());
-        }
+        for (let j = 0; j < cols; j++)
+          if (rnd.next() < 0.25) {
+            indices.push(j);
+            values.push(rnd.normal());
+          }
         indptr.push(indices.length);
       }
       const m = { rows, cols, indptr: Int32Array.from(indptr), indices: Int32Array.from(indices), values: Float64Array.from(values) };
@@ -42,7 +51,12 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
       const b = Float64Array.from({ length: rows * l }, () => rnd.normal());
       expect(same(serialExecutor.cross(a, b, rows, l), ex.cross(a, b, rows, l))).toBe(true);
       expect(same(serialExecutor.cross(a, a, rows, l), ex.cross(a, a, rows, l))).toBe(true);
-      for (const [c, upper] of [[l, false], [l, true], [3, false], [5, false]] as const) {
+      for (const [c, upper] of [
+        [l, false],
+        [l, true],
+        [3, false],
+        [5, false],
+      ] as const) {
         const wt = Float64Array.from({ length: c * l }, (_, t) => (upper && Math.floor(t / l) < t % l ? 0 : rnd.normal()));
         const o1 = new Float64Array(rows * c);
         const o2 = new Float64Array(rows * c);
@@ -55,7 +69,8 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
 
   it('multiplies in place by an upper-triangular factor with the same bits as out of place', () => {
     const ex = wasm!;
-    const rows = 23, l = 11;
+    const rows = 23,
+      l = 11;
     const wt = Float64Array.from({ length: l * l }, (_, t) => (Math.floor(t / l) < t % l ? 0 : rnd.normal()));
     const y = ex.float64(rows * l);
     for (let i = 0; i < y.length; i++) y[i] = rnd.normal();
