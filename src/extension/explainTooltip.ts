@@ -37,6 +37,7 @@ export function whyMarkdown(plainTooltip: string, why: Why | undefined, kind: Wh
           '| :-- | --: |',
           ...concepts.map((c) => `| ${escapeMarkdown(c.words.join(', ') || 'unnamed')} | ${formatShare(c.share)} |`),
           ...(why.conceptRest !== undefined ? [`| other concepts | ${formatShare(why.conceptRest)} |`] : []),
+          ...(why.wordMatch ? [`| distinctive words both files use | ${formatShare(why.wordMatch)} |`] : []),
         ];
   const heading =
     kind === 'nearby'

@@ -67,5 +67,21 @@ describe('why tooltips', () => {
     expect(text.indexOf('| suspend, resume, sleep | 0.350 |')).toBeGreaterThan(concepts);
     expect(text).toContain('| other concepts | 0.150 |');
     expect(text.indexOf('And the terms contributing most')).toBeGreaterThan(concepts);
+    expect(text).not.toContain('distinctive words both files use');
+  });
+
+  it('adds the word-match part of a blended nearby score as its own row, so the concept column adds up', () => {
+    const why = {
+      score: 0.6,
+      terms: [{ word: 'suspend', share: 0.2, inBoth: true }],
+      rest: 0.4,
+      restTerms: 30,
+      concepts: [{ words: ['suspend', 'resume', 'sleep'], share: 0.2 }],
+      conceptRest: 0.1,
+      wordMatch: 0.3,
+    };
+    const text = whyMarkdown('power/a.md', why, 'nearby');
+    expect(text).toContain('| other concepts | 0.100 |');
+    expect(text).toContain('| distinctive words both files use | 0.300 |');
   });
 });

@@ -6,6 +6,9 @@
  * term's loading on the axis (U_k), signed towards the side of the axis the files lie on, times
  * the term's global weight (so words found in every file, such as a language's function words,
  * rank low), words of both files first and no word naming two concepts. The parts of the other axes are summed, so the column adds up to the score.
+ * Nearby's score blends the cosine with a word-match part (LsiIndex.nearby: (1 − μ)·cosine +
+ * μ·BM25 of A's distinctive terms in B over the best other file's); the concept parts are
+ * weighted by 1 − μ and the word-match part is reported apart, so the parts still add up to it.
  */
 import type { LsiIndex } from '../index/lsiIndex.js';
 
@@ -22,6 +25,9 @@ export interface SharedConcepts {
   readonly concepts: readonly SharedConcept[];
   /** Sum of the other axes' parts. */
   readonly rest: number;
+  /** Nearby's word-match part (μ·normalised BM25); 0 when the index ranks Nearby by concepts alone. */
+  readonly wordMatch: number;
+  /** The nearby score: concepts + rest + wordMatch. */
   readonly score: number;
 }
 
@@ -39,8 +45,15 @@ export function sharedConcepts(index: LsiIndex, a: string, b: string, options: P
   const va = index.vectorOf(a);
   const vb = index.vectorOf(b);
   const k = index.k;
-  const parts = Array.from({ length: k }, (_, j) => ({ axis: j, share: va[j] * vb[j] }));
-  const score = parts.reduce((s, p) => s + p.share, 0);
+  const mu = index.ranking.nearbyLexical;
+  const parts = Array.from({ length: k }, (_, j) => ({ axis: j, share: (1 - mu) * va[j] * vb[j] }));
+  const conceptScore = parts.reduce((s, p) => s + p.share, 0);
+  let wordMatch = 0;
+  if (mu > 0) {
+    const { lexical } = index.nearbyPlan(a);
+    const slotB = index.slots().findIndex((slot) => slot?.meta.path === b);
+    if (slotB >= 0) wordMatch = mu * lexical[slotB];
+  }
   const chosen = [...parts]
     .sort((x, y) => y.share - x.share || x.axis - y.axis)
     .slice(0, o.top)
@@ -68,5 +81,5 @@ export function sharedConcepts(index: LsiIndex, a: string, b: string, options: P
     for (const c of picked) used.add(c);
     return { axis: p.axis, share: p.share, terms: picked.map((c) => index.vocab.termOf(model.keptIds[c])) };
   });
-  return { concepts, rest: score - concepts.reduce((s, c) => s + c.share, 0), score };
+  return { concepts, rest: conceptScore - concepts.reduce((s, c) => s + c.share, 0), wordMatch, score: conceptScore + wordMatch };
 }

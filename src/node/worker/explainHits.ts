@@ -49,7 +49,12 @@ export function nearbyWhy(index: LsiIndex, subject: string, paths: readonly stri
       const why = toWhy(explainPair(index, subject, p), wordFor);
       const shared = attempt(() => sharedConcepts(index, subject, p));
       if (!shared) return why;
-      return { ...why, concepts: shared.concepts.map((c) => ({ words: c.terms.map(wordFor), share: c.share })), conceptRest: shared.rest };
+      return {
+        ...why,
+        concepts: shared.concepts.map((c) => ({ words: c.terms.map(wordFor), share: c.share })),
+        conceptRest: shared.rest,
+        wordMatch: shared.wordMatch,
+      };
     }),
   );
 }

@@ -23,8 +23,10 @@ export interface Why {
   readonly restTerms: number;
   /** Nearby only: the concepts both files share (core/explain/sharedConcepts.ts), named by readable words. */
   readonly concepts?: readonly { readonly words: readonly string[]; readonly share: number }[];
-  /** Nearby only: the other concepts' part, so concepts + conceptRest = score. */
+  /** Nearby only: the other concepts' part, so concepts + conceptRest + wordMatch = score. */
   readonly conceptRest?: number;
+  /** Nearby only: the part of the score from the distinctive words the two files share (0 when none). */
+  readonly wordMatch?: number;
 }
 
 /** The four overlap bands (core/lookalike/types.ts OverlapBand). */

@@ -18,13 +18,17 @@ describe('concepts two files share, on CISI', () => {
     index = b.build();
   });
 
-  it('splits each nearby score exactly into the listed concepts and the rest', () => {
+  it('splits each nearby score exactly into the listed concepts, the rest and the word-match part', () => {
     let checked = 0;
     for (const a of index.paths().slice(0, 20)) {
       for (const hit of index.nearby(a, { top: 5 })) {
         const s = sharedConcepts(index, a, hit.path);
         expect(s.score).toBeCloseTo(hit.score, 5);
-        expect(s.concepts.reduce((x, c) => x + c.share, 0) + s.rest).toBeCloseTo(hit.score, 9);
+        expect(s.concepts.reduce((x, c) => x + c.share, 0) + s.rest + s.wordMatch).toBeCloseTo(hit.score, 9);
+        // The blend's parts, from the hit's own concept and word-match scores (LsiIndex.nearby).
+        const mu = index.ranking.nearbyLexical;
+        expect(s.wordMatch).toBeCloseTo(mu * hit.lexicalScore, 9);
+        expect(s.score - s.wordMatch).toBeCloseTo((1 - mu) * hit.conceptScore, 9);
         expect(s.concepts.length).toBeGreaterThan(0);
         for (let i = 1; i < s.concepts.length; i++) expect(s.concepts[i - 1].share).toBeGreaterThanOrEqual(s.concepts[i].share);
         checked++;
