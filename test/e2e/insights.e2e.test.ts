@@ -318,6 +318,7 @@ describe('Undertone insights in a real editor', () => {
     await frame.locator('.um-search input').press('Enter');
     await frame.locator('#undertone-map[data-query-placed="true"]').waitFor({ state: 'attached', timeout: 30_000 });
     await editor!.screenshot('insights-7-map-query');
-    expect(await frame.locator('.um-status-text').textContent()).toMatch(/nearest: \S+/);
+    // The status names the best of the ringed search results, with its score.
+    expect(await frame.locator('.um-status-text').textContent()).toMatch(/best: \S+ \(score \d\.\d+\)/);
   });
 });
