@@ -109,3 +109,40 @@ export function isOriginalPath(path: string): boolean {
   const l = translationPath(path).locale;
   return l === undefined || l === 'C' || /^en(?:[_-]|$)/.test(l);
 }
+
+/** One result row after collapsing translations: the member shown, its hit, and the other members. */
+export interface CollapsedHit<H> {
+  readonly key: string;
+  /** The ranked hit whose group this is (the first member that was ranked). */
+  readonly hit: H;
+  readonly others: string[];
+}
+
+/**
+ * Ranked hits with each page and its translations made one row, shown in the member chooseShown
+ * picks (fitOf: how well a member fits the reader); keys in `skip` (and their groups) are left
+ * out; at most `top` rows.
+ */
+export function collapseTranslations<H extends { readonly path: string }>(
+  hits: readonly H[],
+  groups: ReadonlyMap<string, readonly string[]>,
+  fitOf: (key: string) => number,
+  top: number,
+  skip: Iterable<string> = [],
+): CollapsedHit<H>[] {
+  const rankOf = new Map(hits.map((h, i) => [h.path, i]));
+  const out: CollapsedHit<H>[] = [];
+  const used = new Set<string>(skip);
+  for (const h of hits) {
+    if (out.length === top) break;
+    if (used.has(h.path)) continue;
+    const members = groups.get(h.path) ?? [h.path];
+    for (const m of members) used.add(m);
+    const shown =
+      members.length < 2
+        ? h.path
+        : members[chooseShown(members.map((m) => ({ fit: fitOf(m), rank: rankOf.get(m) ?? Infinity, original: isOriginalPath(m) })))];
+    out.push({ key: shown, hit: h, others: members.filter((m) => m !== shown) });
+  }
+  return out;
+}

@@ -18,7 +18,7 @@ import { prepareInBackground } from './backgroundPrepare.js';
 import { bestMatchingLine, queryScorer } from './bestLine.js';
 import { nearbyWhy, searchWhy } from './explainHits.js';
 import { FileAdmission } from './fileAdmission.js';
-import { chooseShown, isOriginalPath } from '../../core/translations/groupTranslations.js';
+import { collapseTranslations } from '../../core/translations/groupTranslations.js';
 import { questionFit, questionUnits } from '../../core/translations/language.js';
 import { translationPath } from '../../core/translations/pathKey.js';
 import { TranslationFinder } from './translationFinder.js';
@@ -190,29 +190,8 @@ export class IndexService {
       hits.map((h) => h.path),
     );
     const units = questionUnits(query);
-    const rankOf = new Map(hits.map((h, i) => [h.path, i]));
     const scoreOf = new Map(hits.map((h) => [h.path, h.score]));
-    const picked: { key: string; others: string[] }[] = [];
-    const used = new Set<string>();
-    for (const h of hits) {
-      if (used.has(h.path)) continue;
-      const members = groups.get(h.path) ?? [h.path];
-      for (const m of members) used.add(m);
-      const shown =
-        members.length < 2
-          ? h.path
-          : members[
-              chooseShown(
-                members.map((m) => ({
-                  fit: questionFit(units, this._translations.units(m)),
-                  rank: rankOf.get(m) ?? Infinity,
-                  original: isOriginalPath(m),
-                })),
-              )
-            ];
-      picked.push({ key: shown, others: members.filter((m) => m !== shown) });
-      if (picked.length === top) break;
-    }
+    const picked = collapseTranslations(hits, groups, (m) => questionFit(units, this._translations.units(m)), top);
     const why = searchWhy(
       index,
       query,
@@ -256,29 +235,11 @@ export class IndexService {
     const groups = await this._translations.groupsOf(index, [key, ...hits.map((h) => h.path)]);
     const own = new Set(groups.get(key) ?? [key]);
     const locale = translationPath(key).locale;
-    const rankOf = new Map(hits.map((h, i) => [h.path, i]));
     const scoreOf = new Map(hits.map((h) => [h.path, h.score]));
-    const picked: { key: string; others: string[]; score: number }[] = [];
-    const used = new Set<string>(own);
-    for (const h of hits) {
-      if (used.has(h.path)) continue;
-      const members = groups.get(h.path) ?? [h.path];
-      for (const m of members) used.add(m);
-      const shown =
-        members.length < 2
-          ? h.path
-          : members[
-              chooseShown(
-                members.map((m) => ({
-                  fit: translationPath(m).locale === locale ? 1 : 0,
-                  rank: rankOf.get(m) ?? Infinity,
-                  original: isOriginalPath(m),
-                })),
-              )
-            ];
-      picked.push({ key: shown, others: members.filter((m) => m !== shown), score: scoreOf.get(shown) ?? h.score });
-      if (picked.length === top) break;
-    }
+    const picked = collapseTranslations(hits, groups, (m) => (translationPath(m).locale === locale ? 1 : 0), top, own).map((p) => ({
+      ...p,
+      score: scoreOf.get(p.key) ?? p.hit.score,
+    }));
     const why = nearbyWhy(
       index,
       key,

@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import {
   areTranslations,
   chooseShown,
+  collapseTranslations,
   groupTranslations,
   isOriginalPath,
   type TranslationDoc,
@@ -65,5 +66,36 @@ describe('translation groups', () => {
     ).toBe(1);
     expect(isOriginalPath('C/gnome-help/a.page')).toBe(true);
     expect(isOriginalPath('Documentation/translations/zh_CN/a.rst')).toBe(false);
+  });
+});
+
+describe('collapseTranslations', () => {
+  // Paths in the gettext-style layout of the GNOME help tree (test/fixtures/gnome-help): C is the original.
+  const hits = [
+    { path: 'help/de/printing.page', score: 0.9 },
+    { path: 'help/C/printing.page', score: 0.8 },
+    { path: 'help/C/mouse.page', score: 0.7 },
+    { path: 'help/C/wifi.page', score: 0.6 },
+  ];
+  const groups = new Map([
+    ['help/de/printing.page', ['help/C/printing.page', 'help/de/printing.page']],
+    ['help/C/printing.page', ['help/C/printing.page', 'help/de/printing.page']],
+  ]);
+
+  it('makes a page and its translations one row, shown in the member that fits best, others kept', () => {
+    const rows = collapseTranslations(hits, groups, () => 0, 10);
+    expect(rows.map((r) => r.key)).toEqual(['help/C/printing.page', 'help/C/mouse.page', 'help/C/wifi.page']);
+    expect(rows[0].others).toEqual(['help/de/printing.page']);
+    expect(rows[0].hit.path).toBe('help/de/printing.page');
+    const german = collapseTranslations(hits, groups, (k) => (k.includes('/de/') ? 1 : 0), 10);
+    expect(german[0].key).toBe('help/de/printing.page');
+  });
+
+  it('leaves out skipped keys with their groups, and stops at top rows', () => {
+    expect(collapseTranslations(hits, groups, () => 0, 10, ['help/C/printing.page', 'help/de/printing.page']).map((r) => r.key)).toEqual([
+      'help/C/mouse.page',
+      'help/C/wifi.page',
+    ]);
+    expect(collapseTranslations(hits, groups, () => 0, 2)).toHaveLength(2);
   });
 });
