@@ -24,7 +24,8 @@ import type { DocMeta, LsiIndex } from '../core/index/lsiIndex.js';
 import { IndexBuilder } from '../core/index/model/indexBuilder.js';
 import { modelSettingsKey, type IndexSettings } from '../core/index/model/settings.js';
 import { countTerms, Vocabulary } from '../core/counting/termCounts.js';
-import { tokenize } from '../core/text/tokenize.js';
+import { tokenizeIn } from '../core/text/tokenizeLanguage.js';
+import { fileLanguage, withLanguage } from '../core/text/detectLanguage.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
 import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
@@ -174,7 +175,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     for (const f of scan.files) {
       const old = sameTokens ? previous.meta(f.key) : undefined;
       if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
-        builder.addCounted({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, previous!.termsOf(f.key));
+        builder.addCounted(withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, old.language), previous!.termsOf(f.key));
         reused++;
       } else toRead.push(f);
     }
@@ -182,7 +183,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     // ---- read and count
     const record = (f: SourceFile, got: CountOutcome): void => {
       if (got.kind === 'text') {
-        const meta: DocMeta = { path: f.key, size: f.size, mtimeMs: f.mtimeMs };
+        const meta: DocMeta = withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.language);
         builder.addCounted(meta, got.terms);
         bytesRead += f.size;
         read++;
@@ -215,7 +216,12 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       for (let i = 0; i < toRead.length; i++) {
         const f = toRead[i];
         const got = await readIndexableText(f.absPath, options.maxFileBytes);
-        record(f, got.kind === 'text' ? { kind: 'text', terms: countTerms(tokenize(got.text, settings.tokenize), vocab, true) } : got);
+        if (got.kind !== 'text') record(f, got);
+        else {
+          const language = fileLanguage(f.key, got.text, settings.tokenize.languages);
+          const terms = countTerms(tokenizeIn(got.text, settings.tokenize, language), vocab, true);
+          record(f, { kind: 'text', terms, language: language === 'en' ? undefined : language });
+        }
         if (i % 64 === 0) {
           check();
           progress({ stage: 'read', done: reused + i, total });

@@ -9,6 +9,7 @@
  * file that passes its checksums but was written wrong (or forged) fail with a clear reason
  * instead of giving wrong answers or a TypeError later.
  */
+import { LANGUAGES } from '../../text/languages.js';
 import { CorruptIndexError } from '../../errors.js';
 import { WEIGHTING_SCHEMES } from '../../weighting/termWeighting.js';
 import type { IndexSettings } from '../model/settings.js';
@@ -32,6 +33,8 @@ export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
   ['docLength', 'f64'],
   ['docFolded', 'u8'],
   ['docResidual', 'f64'],
+  // Each file's language: a position in LANGUAGES (src/core/text/languages.ts; 0 is English).
+  ['docLanguage', 'u8'],
   ['termIndptr', 'i32'],
   ['termIds', 'i32'],
   ['termCounts', 'f32'],
@@ -104,9 +107,13 @@ export function checkSettings(v: unknown): IndexSettings {
   int(p.minDocs, 'settings.prune.minDocs', 1);
   num(p.maxDocFraction, 'settings.prune.maxDocFraction', Number.MIN_VALUE, 1);
   int(p.maxTerms, 'settings.prune.maxTerms', 1);
-  const t = object(s.tokenize, 'settings.tokenize', ['stem', 'keepCompounds']);
+  const hasLanguages = typeof s.tokenize === 'object' && s.tokenize !== null && 'languages' in s.tokenize;
+  const t = object(s.tokenize, 'settings.tokenize', hasLanguages ? ['stem', 'keepCompounds', 'languages'] : ['stem', 'keepCompounds']);
   bool(t.stem, 'settings.tokenize.stem');
   bool(t.keepCompounds, 'settings.tokenize.keepCompounds');
+  const l = t.languages;
+  if (hasLanguages && l !== 'auto' && !(Array.isArray(l) && l.length > 0 && l.every((x) => LANGUAGES.includes(x as never))))
+    fail('settings.tokenize.languages is neither "auto" nor a list of known languages');
   num(s.conceptScaling, 'settings.conceptScaling', -10, 10);
   num(s.lexicalBlend, 'settings.lexicalBlend', 0, 1);
   return s as unknown as IndexSettings;
@@ -208,7 +215,7 @@ export function checkSectionSizes(header: CheckedHeader): void {
     [header.model.columnOfLength <= terms, 'model.columnOfLength exceeds the vocabulary'],
     [(n === 0) === (len.paths === 0), 'paths disagree with docs'],
     [
-      ['docSize', 'docMtime', 'docLength', 'docFolded', 'docResidual'].every((s) => len[s] === n),
+      ['docSize', 'docMtime', 'docLength', 'docFolded', 'docResidual', 'docLanguage'].every((s) => len[s] === n),
       'a per-document section is not docs long',
     ],
     [len.termIndptr === n + 1, 'termIndptr is not docs + 1 long'],
@@ -231,6 +238,7 @@ export interface PayloadParts {
   readonly length: Float64Array;
   readonly folded: Uint8Array;
   readonly residual: Float64Array;
+  readonly language: Uint8Array;
   readonly indptr: Int32Array;
   readonly ids: Int32Array;
   readonly counts: Float32Array;
@@ -265,6 +273,7 @@ export function checkPayload(p: PayloadParts): void {
   for (let j = 0; j < n; j++) if (p.folded[j] > 1) bad('docFolded holds a value other than 0 or 1');
   allFinite(p.residual, 'docResidual', -1e-3);
   for (let j = 0; j < n; j++) if (p.residual[j] > 1 + 1e-3) bad('docResidual holds a value above 1');
+  for (let j = 0; j < n; j++) if (p.language[j] >= LANGUAGES.length) bad('docLanguage holds an unknown language');
   if (p.indptr[0] !== 0 || p.indptr[n] !== p.ids.length) bad('termIndptr does not span the term lists');
   const vocab = p.vocabSize;
   for (let j = 0; j < n; j++) {

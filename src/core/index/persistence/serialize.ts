@@ -29,6 +29,8 @@ import {
 } from './indexFileCheck.js';
 import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import { Vocabulary } from '../../counting/termCounts.js';
+import { LANGUAGES } from '../../text/languages.js';
+import { withLanguage } from '../../text/detectLanguage.js';
 
 export const INDEX_FORMAT_VERSION = 3;
 const MAGIC = 'UNDTNIDX';
@@ -119,6 +121,10 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     copied(
       'docResidual',
       Float64Array.from(live, ([s]) => s.residual),
+    ),
+    copied(
+      'docLanguage',
+      Uint8Array.from(live, ([s]) => LANGUAGES.indexOf(s.meta.language ?? 'en')),
     ),
     copied('termIndptr', termIndptr),
     inPlace('termIds', 'i32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.termIds, termIndptr[j]))),
@@ -270,6 +276,7 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     length: get('docLength', 'f64'),
     folded: get('docFolded', 'u8'),
     residual: get('docResidual', 'f64'),
+    language: get('docLanguage', 'u8'),
     indptr: get('termIndptr', 'i32'),
     ids: get('termIds', 'i32'),
     counts: get('termCounts', 'f32'),
@@ -290,7 +297,7 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   const { columnOfLength: _len, ...scalars } = header.model;
   const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
   const slots: DocSlot[] = paths.map((path, j) => ({
-    meta: { path, size: size[j], mtimeMs: mtime[j] },
+    meta: withLanguage<DocSlot['meta']>({ path, size: size[j], mtimeMs: mtime[j] }, LANGUAGES[parts.language[j]]),
     terms: { termIds: ids.subarray(indptr[j], indptr[j + 1]), counts: counts.subarray(indptr[j], indptr[j + 1]), length: length[j] },
     folded: folded[j] === 1,
     residual: residual[j],
