@@ -175,7 +175,10 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     for (const f of scan.files) {
       const old = sameTokens ? previous.meta(f.key) : undefined;
       if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
-        builder.addCounted(withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, old.language), previous!.termsOf(f.key));
+        builder.addCounted(
+          withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, old.language),
+          previous!.termsOf(f.key),
+        );
         reused++;
       } else toRead.push(f);
     }

@@ -138,7 +138,12 @@ export function detectLanguage(text: string, candidates: readonly Language[], op
  * profile cannot tell; otherwise the detected one among the setting's candidates. A setting that
  * lists one language gives that language to every prose file.
  */
-export function fileLanguage(path: string, text: string, setting: LanguageSetting | undefined, options: Partial<DetectOptions> = {}): Language {
+export function fileLanguage(
+  path: string,
+  text: string,
+  setting: LanguageSetting | undefined,
+  options: Partial<DetectOptions> = {},
+): Language {
   const candidates = candidateLanguages(setting);
   if (candidates.length === 1 && candidates[0] === 'en') return 'en';
   if (!isProsePath(path)) return 'en';

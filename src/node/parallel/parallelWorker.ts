@@ -66,7 +66,8 @@ port.on('message', (msg: ToWorker) => {
     for (const f of msg.files) {
       const got = reader.read(f.absPath, maxFileBytes);
       if (got.kind !== 'bytes') read.push({ index: f.index, kind: got.kind });
-      else read.push({ index: f.index, ...(got.ascii ? wc.packAscii(got.bytes, f.absPath) : wc.packText(decodeUtf8(got.bytes), f.absPath)) });
+      else
+        read.push({ index: f.index, ...(got.ascii ? wc.packAscii(got.bytes, f.absPath) : wc.packText(decodeUtf8(got.bytes), f.absPath)) });
     }
     if (keepCounts) {
       // The counts stay in the pack until finish-counts; the reply says where.
