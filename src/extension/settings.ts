@@ -10,7 +10,7 @@ import type { IndexSettings } from '../core/index/model/settings.js';
 import { sharedModelSetting } from '../node/conceptModelFile.js';
 import { WEIGHTING_SCHEMES, type WeightingScheme } from '../core/weighting/termWeighting.js';
 import type { LanguageSetting } from '../core/text/detectLanguage.js';
-import { isLanguage, type Language } from '../core/text/languages.js';
+import { isLanguage, type Language } from '../core/text/languageCodes.js';
 import { DEFAULT_TOKENIZE_OPTIONS } from '../core/text/tokenize.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
 import type { WorkerConfig, WorkspaceRoot } from '../node/worker/workerProtocol.js';

@@ -29,27 +29,9 @@ import { words as ruStop } from 'natural/lib/natural/util/stopwords_ru.js';
 import { words as svStop } from 'natural/lib/natural/util/stopwords_sv.js';
 import isoStopWords from 'stopwords-iso';
 import { ENGLISH_STOP_WORDS, STOP_WORDS } from './stopWords.js';
+import type { Language } from './languageCodes.js';
 
-/** ISO 639-1 codes of the languages the tokenizer knows. */
-export const LANGUAGES = ['en', 'de', 'fr', 'es', 'it', 'pt', 'nl', 'sv', 'ru'] as const;
-export type Language = (typeof LANGUAGES)[number];
-
-/** English names, for settings and messages. */
-export const LANGUAGE_NAMES: Readonly<Record<Language, string>> = {
-  en: 'English',
-  de: 'German',
-  fr: 'French',
-  es: 'Spanish',
-  it: 'Italian',
-  pt: 'Portuguese',
-  nl: 'Dutch',
-  sv: 'Swedish',
-  ru: 'Russian',
-};
-
-export function isLanguage(code: string): code is Language {
-  return (LANGUAGES as readonly string[]).includes(code);
-}
+export { isLanguage, LANGUAGE_NAMES, LANGUAGES, type Language } from './languageCodes.js';
 
 interface LanguageKit {
   /** The language's own stop words (lowercase, accents kept), for detection. */

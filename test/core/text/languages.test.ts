@@ -7,8 +7,9 @@ import { REPO_ROOT } from '../../helpers/shared.js';
 // Reference: python3-snowballstemmer 2.2.0 (Debian), the stemmers generated from the Snowball
 // sources, on 1500 words per language from Debian's translated manual pages
 // (test/fixtures/languages/README.md). natural 8.1.1's stemmers follow older Snowball
-// descriptions in places, so the check is the share of equal stems, with a floor of 90%
-// (our requirement for a "well-kept" stemmer, common practice has no figure).
+// descriptions in places, so the check is the share of equal stems, with a floor of 97%
+// (our requirement for a "well-kept" stemmer; common practice has no figure). Measured: 99.3%
+// (Russian) to 100%.
 const FIXTURE = join(REPO_ROOT, 'test/fixtures/languages/stems');
 
 function pairs(lang: string): [string, string][] {
@@ -20,12 +21,12 @@ function pairs(lang: string): [string, string][] {
 
 describe('languageKit', () => {
   for (const lang of LANGUAGES.filter((l): l is Exclude<Language, 'en'> => l !== 'en')) {
-    it(`stems ${lang} words as Snowball's own ${lang} stemmer does, for at least 90% of a manual-page vocabulary`, () => {
+    it(`stems ${lang} words as Snowball's own ${lang} stemmer does, for at least 97% of a manual-page vocabulary`, () => {
       const kit = languageKit(lang);
       const all = pairs(lang);
       expect(all.length).toBeGreaterThan(1000);
       const equal = all.filter(([w, s]) => kit.stem(w) === s).length;
-      expect(equal / all.length).toBeGreaterThanOrEqual(0.9);
+      expect(equal / all.length).toBeGreaterThanOrEqual(0.97);
     });
   }
 

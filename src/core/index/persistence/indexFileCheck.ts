@@ -9,7 +9,7 @@
  * file that passes its checksums but was written wrong (or forged) fail with a clear reason
  * instead of giving wrong answers or a TypeError later.
  */
-import { LANGUAGES } from '../../text/languages.js';
+import { LANGUAGES } from '../../text/languageCodes.js';
 import { CorruptIndexError } from '../../errors.js';
 import { WEIGHTING_SCHEMES } from '../../weighting/termWeighting.js';
 import type { IndexSettings } from '../model/settings.js';
