@@ -102,9 +102,16 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
     }),
     vscode.workspace.onDidChangeConfiguration((e) => {
       if (e.affectsConfiguration('undertone.nearbyCount')) void nearby.refresh();
-      const relevant = ['include', 'exclude', 'maxFileSizeKB', 'dimensions', 'weighting', 'useGitignore', 'followLinksOutside', 'languages'].some((k) =>
-        e.affectsConfiguration(`undertone.${k}`),
-      );
+      const relevant = [
+        'include',
+        'exclude',
+        'maxFileSizeKB',
+        'dimensions',
+        'weighting',
+        'useGitignore',
+        'followLinksOutside',
+        'languages',
+      ].some((k) => e.affectsConfiguration(`undertone.${k}`));
       if (relevant || e.affectsConfiguration('files.exclude')) reconfigureSoon();
     }),
     vscode.workspace.onDidChangeWorkspaceFolders(() => {
