@@ -16,6 +16,7 @@ import {
   type LookalikePair,
   type LookalikeReport,
 } from '../../core/lookalike/index.js';
+import { withIndexCounts } from '../../node/overlapCounts.js';
 import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
@@ -49,7 +50,7 @@ export async function lookalikesCommand(folder: string, flags: Flags, io: Io): P
     }
     files.push({ id: path, text: got.text });
   }
-  const report = findLookalikes({ files }, { threshold });
+  const report = findLookalikes(withIndexCounts(index, files), { threshold });
   const extra = { unreadable, sameFile };
   if (flags.json) {
     io.out(JSON.stringify(toJson(report, threshold, extra)));

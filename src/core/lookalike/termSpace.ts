@@ -22,11 +22,16 @@ export interface TermSpace {
   readonly df: Int32Array;
 }
 
-/** Texts → L2-normalised sublinear TF-IDF rows. */
+/** Raw term counts of one file: term ids ascending (any id space), counts aligned. */
+export interface TermCountRow {
+  readonly termIds: ArrayLike<number>;
+  readonly counts: ArrayLike<number>;
+}
+
+/** Texts → L2-normalised sublinear TF-IDF rows (the texts are tokenized here). */
 export function buildTermSpace(texts: readonly string[], idfPower = 1): TermSpace {
   const ids = new Map<string, number>();
-  const rows: { t: Int32Array; c: Float64Array }[] = [];
-  const dfList: number[] = [];
+  const rows: TermCountRow[] = [];
   for (const text of texts) {
     const counts = new Map<number, number>();
     for (const tok of tokenize(text)) {
@@ -34,35 +39,56 @@ export function buildTermSpace(texts: readonly string[], idfPower = 1): TermSpac
       if (id === undefined) {
         id = ids.size;
         ids.set(tok, id);
-        dfList.push(0);
       }
       counts.set(id, (counts.get(id) ?? 0) + 1);
     }
-    const t = Int32Array.from(counts.keys()).sort();
-    const c = new Float64Array(t.length);
-    for (let p = 0; p < t.length; p++) {
-      c[p] = counts.get(t[p]) as number;
-      dfList[t[p]]++;
-    }
-    rows.push({ t, c });
+    const termIds = Int32Array.from(counts.keys()).sort();
+    rows.push({ termIds, counts: Float64Array.from(termIds, (t) => counts.get(t) as number) });
   }
-  const n = texts.length;
-  const df = Int32Array.from(dfList);
+  return termSpaceFromCounts(rows, idfPower);
+}
+
+/**
+ * Term counts already made (an index's stored raw counts) → L2-normalised sublinear TF-IDF rows.
+ * Ids must ascend within a row; zero or negative counts are left out.
+ */
+export function termSpaceFromCounts(rows: readonly TermCountRow[], idfPower = 1): TermSpace {
+  const n = rows.length;
+  let maxId = -1;
   const rowStart = new Int32Array(n + 1);
-  for (let i = 0; i < n; i++) rowStart[i + 1] = rowStart[i] + rows[i].t.length;
+  for (let i = 0; i < n; i++) {
+    const { termIds, counts } = rows[i];
+    let kept = 0;
+    for (let p = 0; p < termIds.length; p++) {
+      if (counts[p] > 0) {
+        kept++;
+        if (termIds[p] > maxId) maxId = termIds[p];
+      }
+    }
+    rowStart[i + 1] = rowStart[i] + kept;
+  }
+  const df = new Int32Array(maxId + 1);
   const terms = new Int32Array(rowStart[n]);
+  const raw = new Float64Array(rowStart[n]);
+  for (let i = 0; i < n; i++) {
+    const { termIds, counts } = rows[i];
+    let q = rowStart[i];
+    for (let p = 0; p < termIds.length; p++) {
+      if (!(counts[p] > 0)) continue;
+      terms[q] = termIds[p];
+      raw[q++] = counts[p];
+      df[termIds[p]]++;
+    }
+  }
   const weights = new Float32Array(rowStart[n]);
   for (let i = 0; i < n; i++) {
-    const { t, c } = rows[i];
     let norm = 0;
-    const w = new Float64Array(t.length);
-    for (let p = 0; p < t.length; p++) {
-      w[p] = (1 + Math.log(c[p])) * (Math.log((1 + n) / (1 + df[t[p]])) + 1) ** idfPower;
-      norm += w[p] * w[p];
+    for (let p = rowStart[i]; p < rowStart[i + 1]; p++) {
+      raw[p] = (1 + Math.log(raw[p])) * (Math.log((1 + n) / (1 + df[terms[p]])) + 1) ** idfPower;
+      norm += raw[p] * raw[p];
     }
     norm = Math.sqrt(norm) || 1;
-    terms.set(t, rowStart[i]);
-    for (let p = 0; p < t.length; p++) weights[rowStart[i] + p] = w[p] / norm;
+    for (let p = rowStart[i]; p < rowStart[i + 1]; p++) weights[p] = raw[p] / norm;
   }
   return { n, rowStart, terms, weights, df };
 }
