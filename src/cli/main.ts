@@ -165,19 +165,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? EXIT.ok : EXIT.usage;
   }
-  const needsFolder = [
-    'index',
-    'ask',
-    'nearby',
-    'eval',
-    'topics',
-    'overlaps',
-    'export',
-    'import-factors',
-    'map',
-    'count',
-    'import-model',
-  ];
+  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'overlaps', 'export', 'import-factors', 'map', 'count', 'import-model'];
   if (!needsFolder.includes(command)) {
     io.err(`undertone: unknown command "${command}"\n${HINT}`);
     return EXIT.usage;
