@@ -148,6 +148,7 @@ export function termNeighbours(s: TermSpace, params: NeighbourParams): Neighbour
   const cosine = new Float32Array(n * k);
   const acc = new Float64Array(n);
   const touched = new Int32Array(n);
+  const heap = new Int32Array(candidates);
   for (let i = 0; i < n; i++) {
     let nt = 0;
     for (let p = s.rowStart[i]; p < s.rowStart[i + 1]; p++) {
@@ -161,10 +162,9 @@ export function termNeighbours(s: TermSpace, params: NeighbourParams): Neighbour
         acc[d] += w * postW[q];
       }
     }
-    const cand = Array.from(touched.subarray(0, nt));
-    cand.sort((x, y) => acc[y] - acc[x] || x - y);
+    const cand = topCandidates(touched, nt, acc, candidates, heap);
     for (let c = 0; c < nt; c++) acc[touched[c]] = 0;
-    const scored = cand.slice(0, candidates).map((d) => ({ d, c: rowCosine(s, i, d) }));
+    const scored = cand.map((d) => ({ d, c: rowCosine(s, i, d) }));
     scored.sort((x, y) => y.c - x.c || x.d - y.d);
     for (let r = 0; r < Math.min(k, scored.length); r++) {
       index[i * k + r] = scored[r].d;
@@ -172,4 +172,46 @@ export function termNeighbours(s: TermSpace, params: NeighbourParams): Neighbour
     }
   }
   return { k, index, cosine };
+}
+
+/**
+ * The `size` touched rows with the highest acc (ties: lower row first), as a full sort would give
+ * them, kept in a bounded min-heap: O(nt log size) instead of sorting all nt rows.
+ */
+function topCandidates(touched: Int32Array, nt: number, acc: Float64Array, size: number, heap: Int32Array): number[] {
+  // worse(a, b): a ranks below b.
+  const worse = (a: number, b: number): boolean => acc[a] < acc[b] || (acc[a] === acc[b] && a > b);
+  let h = 0;
+  const down = (from: number): void => {
+    let at = from;
+    for (;;) {
+      const l = 2 * at + 1;
+      if (l >= h) return;
+      const c = l + 1 < h && worse(heap[l + 1], heap[l]) ? l + 1 : l;
+      if (!worse(heap[c], heap[at])) return;
+      const t = heap[c];
+      heap[c] = heap[at];
+      heap[at] = t;
+      at = c;
+    }
+  };
+  for (let t = 0; t < nt; t++) {
+    const d = touched[t];
+    if (h < size) {
+      let at = h++;
+      heap[at] = d;
+      while (at > 0) {
+        const up = (at - 1) >> 1;
+        if (!worse(heap[at], heap[up])) break;
+        const x = heap[up];
+        heap[up] = heap[at];
+        heap[at] = x;
+        at = up;
+      }
+    } else if (size > 0 && worse(heap[0], d)) {
+      heap[0] = d;
+      down(0);
+    }
+  }
+  return Array.from(heap.subarray(0, h));
 }
