@@ -6,7 +6,7 @@
 import { parseArgs } from 'node:util';
 import { EXIT, EXIT_CODE_HELP, describeFailure } from './failure.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
-import { DEFAULT_MIN_SCORE } from '../core/links/suggestLinks.js';
+import { DEFAULT_MIN_SIMILARITY } from '../core/links/suggestLinks.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
 import { countCommand } from './commands/countCommand.js';
@@ -63,7 +63,8 @@ options:
   --depth N                  (topics) levels of sub-topics to find and show (default 2; with
                              --json the whole tree, up to 4)
   --in FOLDER                (topics) the topics of one sub-folder: how many of its files each holds
-  --min-score S              (links) the least score worth suggesting (default ${DEFAULT_MIN_SCORE}, calibrated)
+  --min-similarity S         (links) the least similarity worth suggesting (default
+                             ${DEFAULT_MIN_SIMILARITY}, calibrated on linked documentation)
   --threshold J              (lookalikes) shingle Jaccard for near-copies (default 0.8)
   --layout both|quick|faithful   (map) layouts in the page (default both, opening on faithful;
                              quick skips the slower faithful layout; faithful is the same as both,
@@ -86,7 +87,7 @@ const APPLIES_TO: Record<string, readonly string[]> = {
   explain: ['ask', 'nearby'],
   topics: ['topics', 'map'],
   threshold: ['lookalikes'],
-  'min-score': ['links'],
+  'min-similarity': ['links'],
   layout: ['map'],
   'max-terms': ['map'],
   format: ['export'],
@@ -134,7 +135,7 @@ const EXTRA_OPTIONS = {
   depth: { type: 'string' },
   in: { type: 'string' },
   threshold: { type: 'string' },
-  'min-score': { type: 'string' },
+  'min-similarity': { type: 'string' },
   layout: { type: 'string' },
   'max-terms': { type: 'string' },
   format: { type: 'string' },

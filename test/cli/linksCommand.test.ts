@@ -2,7 +2,7 @@
  * `undertone links` end to end through main(), on real pages: 60 pages of the Django manual
  * (Debian python-django-doc, test/fixtures/django-doc) written out as Markdown notes, some of them
  * linked to each other with the links written into their text. Checks the wiring: linked notes
- * are never suggested, suggestions obey --top and --min-score, links come in the collection's
+ * are never suggested, suggestions obey --top and --min-similarity, links come in the collection's
  * style and resolve back to their target.
  */
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -18,8 +18,8 @@ interface Report {
   style: string;
   notes: number;
   linkedPairs: number;
-  minScore: number;
-  suggestions: { file: string; path: string; title: string; score: number; link: string; words: { word: string; share: number }[] }[];
+  minSimilarity: number;
+  suggestions: { file: string; path: string; title: string; score: number; similarity: number; link: string; words: { word: string; share: number }[] }[];
 }
 
 let dir: string;
@@ -64,7 +64,7 @@ describe('undertone links', () => {
     expect(report.suggestions.length).toBeGreaterThan(0);
     const graph = LinkGraph.fromNotes(pages.map((p) => ({ key: md(p.id), text: '' })));
     for (const s of report.suggestions) {
-      expect(s.score).toBeGreaterThanOrEqual(report.minScore);
+      expect(s.similarity).toBeGreaterThanOrEqual(report.minSimilarity);
       expect(s.words.length).toBeGreaterThan(0);
       expect(s.link).toMatch(/^\[.+\]\(.+\.md\)$/);
       // The link written into its note reaches the suggested note.
@@ -79,34 +79,34 @@ describe('undertone links', () => {
     expect(text.out).toContain('link to add');
   });
 
-  it('one note: at most --top suggestions, none it links with; --min-score 1 leaves it quiet', async () => {
+  it('one note: at most --top suggestions, none it links with; --min-similarity 1 leaves it quiet', async () => {
     const note = md(pages[0].id);
-    const r = await run(mdRoot, note, '--json', '--top', '2', '--min-score', '0');
+    const r = await run(mdRoot, note, '--json', '--top', '2', '--min-similarity', '0');
     const report = JSON.parse(r.out) as Report;
     expect(report.file).toBe(note);
     expect(report.suggestions).toHaveLength(2);
     const linked = new Set([...(fx.qrels.get(pages[0].id) ?? [])].map(md));
     for (const s of report.suggestions) expect(linked.has(s.path)).toBe(false);
-    const quiet = await run(mdRoot, note, '--min-score', '1');
+    const quiet = await run(mdRoot, note, '--min-similarity', '1');
     expect(quiet.code).toBe(0);
     expect(quiet.out).toContain('No links worth suggesting');
   });
 
   it('writes double-bracket links in a collection that uses them', async () => {
-    const r = await run(wikiRoot, '--json', '--min-score', '0');
+    const r = await run(wikiRoot, '--json', '--min-similarity', '0');
     const report = JSON.parse(r.out) as Report;
     expect(report.style).toBe('double-bracket');
     expect(report.suggestions.length).toBeGreaterThan(0);
     for (const s of report.suggestions) expect(s.link).toMatch(/^\[\[[^\]]+\]\]$/);
   });
 
-  it('refuses a file that is not a note, and a bad --min-score', async () => {
+  it('refuses a file that is not a note, and a bad --min-similarity', async () => {
     writeFileSync(join(mdRoot, 'tool.py'), 'def models_and_databases():\n    return "query sets"\n');
     const r = await run(mdRoot, 'tool.py');
     expect(r.code).toBe(1);
     expect(r.err).toContain('not one');
-    const bad = await run(mdRoot, '--min-score', '2');
+    const bad = await run(mdRoot, '--min-similarity', '2');
     expect(bad.code).not.toBe(0);
-    expect(bad.err).toContain('--min-score');
+    expect(bad.err).toContain('--min-similarity');
   });
 });

@@ -112,9 +112,12 @@ export function bestThreshold(cands: readonly Candidate[], hiddenCount: number, 
   return best;
 }
 
-/** Undertone's Nearby ranking (concept cosine blended with BM25). */
+/**
+ * Undertone's Nearby ranking (concept cosine blended with BM25), each hit carrying the score the
+ * suggestions' threshold applies to: its concept cosine (suggestLinks.ts says why).
+ */
 export function nearbyRanker(index: LsiIndex): Ranker {
-  return (key, accept, top) => index.nearby(key, { top, filter: accept }).map((h) => ({ path: h.path, score: h.score }));
+  return (key, accept, top) => index.nearby(key, { top, filter: accept }).map((h) => ({ path: h.path, score: h.conceptScore }));
 }
 
 /** Plain TF-IDF cosine over the index's raw terms (TfidfVectorizer defaults, see the header). */

@@ -1,10 +1,10 @@
 /**
  * `undertone links <folder> [<file>]`: suggested links (core/links): for one note, or for every
  * note of the folder, the notes nearest in meaning that are not linked with it either way, each
- * with its score, the words behind it and the link to write, in the collection's own style.
+ * with its similarity (concept cosine), the words behind it and the link to write, in the collection's own style.
  * Notes are the indexed Markdown, HTML and plain-text files; their links are read again here.
- * --top N: suggestions per note (default 5); --min-score S: the least score (default the
- * calibrated one, core/links/suggestLinks.ts).
+ * --top N: suggestions per note (default 5); --min-similarity S: the least similarity (default
+ * the calibrated one, core/links/suggestLinks.ts).
  */
 import { join, relative, resolve } from 'node:path';
 import { InvalidInputError, NotIndexedError } from '../../core/errors.js';
@@ -21,7 +21,7 @@ import { round } from './askCommand.js';
 
 export async function linksCommand(folder: string, file: string | undefined, flags: Flags, io: Io): Promise<number> {
   const top = positiveInt(flags.top, 'top') ?? DEFAULT_SUGGEST_OPTIONS.top;
-  const minScore = parseMinScore(flags['min-score']);
+  const minSimilarity = parseMinSimilarity(flags['min-similarity']);
   const { index } = await ensureIndex(folder, flags, io);
   const root = resolve(folder);
   const maxBytes = positiveInt(flags['max-file-size'], 'max-file-size') ?? DEFAULT_MAX_FILE_BYTES;
@@ -42,7 +42,7 @@ export async function linksCommand(folder: string, file: string | undefined, fla
   const graph = LinkGraph.fromNotes(notes);
   const style = detectLinkStyle(graph);
   const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
-  const options = { top, minScore };
+  const options = { top, minSimilarity };
   const found: CollectionSuggestion[] =
     key === undefined ? suggestAllLinks(index, graph, options) : suggestLinks(index, graph, key, options).map((s) => ({ ...s, from: key! }));
   const wanted = new Set(found.flatMap((s) => [s.from, s.path]));
@@ -56,11 +56,12 @@ export async function linksCommand(folder: string, file: string | undefined, fla
         styleCounts: { markdown: style.markdown, doubleBracket: style.doubleBracket },
         notes: graph.notes.size,
         linkedPairs: graph.pairCount,
-        minScore,
+        minSimilarity,
         suggestions: found.map((s) => ({
           file: s.from,
           path: s.path,
           title: graph.notes.titleOf(s.path),
+          similarity: round(s.similarity),
           score: round(s.score),
           link: formatLink(style.style, s.from, s.path, graph),
           words: words(s.terms).map((w) => ({ ...w, share: round(w.share) })),
@@ -69,12 +70,12 @@ export async function linksCommand(folder: string, file: string | undefined, fla
     );
     return 0;
   }
-  io.out(header(style, graph, minScore));
+  io.out(header(style, graph, minSimilarity));
   if (found.length === 0) {
     io.out(
       key === undefined
-        ? `No links worth suggesting: no unlinked pair of notes scores ${minScore} or more.`
-        : `No links worth suggesting for ${key}: no unlinked note scores ${minScore} or more.`,
+        ? `No links worth suggesting: no unlinked pair of notes has a similarity of ${minSimilarity} or more.`
+        : `No links worth suggesting for ${key}: no unlinked note has a similarity of ${minSimilarity} or more.`,
     );
     return 0;
   }
@@ -84,28 +85,30 @@ export async function linksCommand(folder: string, file: string | undefined, fla
       .join(', ');
   const rows = found.map((s) =>
     key === undefined
-      ? [s.score.toFixed(3), s.from, formatLink(style.style, s.from, s.path, graph), whyOf(s)]
-      : [s.score.toFixed(3), formatLink(style.style, s.from, s.path, graph), whyOf(s)],
+      ? [s.similarity.toFixed(3), s.from, formatLink(style.style, s.from, s.path, graph), whyOf(s)]
+      : [s.similarity.toFixed(3), formatLink(style.style, s.from, s.path, graph), whyOf(s)],
   );
-  const head = key === undefined ? ['score', 'note', 'link to add', 'words behind it'] : ['score', 'link to add', 'words behind it'];
+  const head = key === undefined ? ['similarity', 'note', 'link to add', 'words behind it'] : ['similarity', 'link to add', 'words behind it'];
   for (const line of formatTable(
     head,
     rows,
-    head.map((h) => h === 'score'),
+    head.map((h) => h === 'similarity'),
   ))
     io.out(line);
-  io.out('words: the largest shares of the score; ~ marks a word found in only one of the two notes.');
+  io.out(
+    'similarity: cosine of the two notes in concept space (listed as Nearby ranks them); words: the largest shares of it; ~ marks a word found in only one of the two notes.',
+  );
   return 0;
 }
 
-function header(style: StyleVerdict, graph: LinkGraph, minScore: number): string {
+function header(style: StyleVerdict, graph: LinkGraph, minSimilarity: number): string {
   const how = style.style === 'markdown' ? 'relative Markdown links' : 'double-bracket links';
-  return `${graph.notes.size} notes, ${graph.pairCount} linked pairs; links written as ${how} (${style.markdown} Markdown, ${style.doubleBracket} double-bracket); least score ${minScore}.`;
+  return `${graph.notes.size} notes, ${graph.pairCount} linked pairs; links written as ${how} (${style.markdown} Markdown, ${style.doubleBracket} double-bracket); least similarity ${minSimilarity}.`;
 }
 
-function parseMinScore(value: unknown): number {
-  if (value === undefined) return DEFAULT_SUGGEST_OPTIONS.minScore;
+function parseMinSimilarity(value: unknown): number {
+  if (value === undefined) return DEFAULT_SUGGEST_OPTIONS.minSimilarity;
   const t = Number(value);
-  if (!(t >= 0 && t <= 1)) throw new InvalidInputError(`--min-score needs a number from 0 to 1 (a Nearby score), got "${String(value)}"`);
+  if (!(t >= 0 && t <= 1)) throw new InvalidInputError(`--min-similarity needs a number from 0 to 1 (a cosine), got "${String(value)}"`);
   return t;
 }
