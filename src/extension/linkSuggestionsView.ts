@@ -104,7 +104,8 @@ async function insertLink(row: LinkSuggestionRow | undefined): Promise<void> {
   const editor = shown ?? (await vscode.window.showTextDocument(target, { preview: false }));
   const at = editor.selection.active;
   const done = await editor.edit((b) => b.insert(at, row.suggestion.link));
-  if (!done) void vscode.window.showWarningMessage(`The link to ${row.suggestion.title} could not be inserted (the note changed meanwhile).`);
+  if (!done)
+    void vscode.window.showWarningMessage(`The link to ${row.suggestion.title} could not be inserted (the note changed meanwhile).`);
 }
 
 /** The view, its provider and its commands, for context.subscriptions. */

@@ -19,7 +19,15 @@ interface Report {
   notes: number;
   linkedPairs: number;
   minSimilarity: number;
-  suggestions: { file: string; path: string; title: string; score: number; similarity: number; link: string; words: { word: string; share: number }[] }[];
+  suggestions: {
+    file: string;
+    path: string;
+    title: string;
+    score: number;
+    similarity: number;
+    link: string;
+    words: { word: string; share: number }[];
+  }[];
 }
 
 let dir: string;
@@ -45,7 +53,10 @@ beforeAll(() => {
   mdRoot = join(dir, 'markdown');
   wikiRoot = join(dir, 'wiki');
   const rel = (from: string, to: string) => {
-    const up = from.split('/').slice(0, -1).map(() => '..');
+    const up = from
+      .split('/')
+      .slice(0, -1)
+      .map(() => '..');
     return [...up, md(to)].join('/');
   };
   writeNotes(mdRoot, (from, to) => `[${to}](${rel(from, to)})`);
@@ -69,7 +80,10 @@ describe('undertone links', () => {
       expect(s.link).toMatch(/^\[.+\]\(.+\.md\)$/);
       // The link written into its note reaches the suggested note.
       const g = LinkGraph.fromNotes([
-        ...graph.notes.keys().filter((k) => k !== s.file).map((k) => ({ key: k, text: '' })),
+        ...graph.notes
+          .keys()
+          .filter((k) => k !== s.file)
+          .map((k) => ({ key: k, text: '' })),
         { key: s.file, text: s.link },
       ]);
       expect(g.linksFrom(s.file)).toEqual([s.path]);

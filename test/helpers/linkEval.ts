@@ -11,6 +11,7 @@
 import { createRandom } from '../../src/core/random.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { LinkGraph } from '../../src/core/links/linkGraph.js';
+import { spaceShare } from '../../src/core/links/suggestLinks.js';
 
 export interface Ranked {
   readonly path: string;
@@ -114,10 +115,12 @@ export function bestThreshold(cands: readonly Candidate[], hiddenCount: number, 
 
 /**
  * Undertone's Nearby ranking (concept cosine blended with BM25), each hit carrying the score the
- * suggestions' threshold applies to: its concept cosine (suggestLinks.ts says why).
+ * suggestions' threshold applies to: the discounted concept cosine (suggestLinks.ts says why).
  */
 export function nearbyRanker(index: LsiIndex): Ranker {
-  return (key, accept, top) => index.nearby(key, { top, filter: accept }).map((h) => ({ path: h.path, score: h.conceptScore }));
+  const share = new Map(index.paths().map((p) => [p, spaceShare(index, p)]));
+  return (key, accept, top) =>
+    index.nearby(key, { top, filter: accept }).map((h) => ({ path: h.path, score: h.conceptScore * share.get(key)! * share.get(h.path)! }));
 }
 
 /** Plain TF-IDF cosine over the index's raw terms (TfidfVectorizer defaults, see the header). */

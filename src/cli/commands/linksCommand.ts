@@ -31,7 +31,8 @@ export async function linksCommand(folder: string, file: string | undefined, fla
     const fromCwd = relative(root, resolve(file)).split('\\').join('/');
     key = index.has(file) ? file : index.has(fromCwd) ? fromCwd : undefined;
     if (key === undefined) throw new NotIndexedError(file);
-    if (!catalogue.isNote(key)) throw new InvalidInputError(`links suggests links between notes (Markdown, HTML or text files); "${key}" is not one`);
+    if (!catalogue.isNote(key))
+      throw new InvalidInputError(`links suggests links between notes (Markdown, HTML or text files); "${key}" is not one`);
   }
   const notes: NoteText[] = [];
   for (const path of index.paths()) {
@@ -44,7 +45,9 @@ export async function linksCommand(folder: string, file: string | undefined, fla
   const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
   const options = { top, minSimilarity };
   const found: CollectionSuggestion[] =
-    key === undefined ? suggestAllLinks(index, graph, options) : suggestLinks(index, graph, key, options).map((s) => ({ ...s, from: key! }));
+    key === undefined
+      ? suggestAllLinks(index, graph, options)
+      : suggestLinks(index, graph, key, options).map((s) => ({ ...s, from: key! }));
   const wanted = new Set(found.flatMap((s) => [s.from, s.path]));
   for (const n of notes) if (wanted.has(n.key)) forms.add(n.text);
   const words = (terms: readonly TermShare[]) => terms.map((t) => ({ word: forms.wordFor(t.term), share: t.share, inBoth: t.inBoth }));
@@ -88,7 +91,8 @@ export async function linksCommand(folder: string, file: string | undefined, fla
       ? [s.similarity.toFixed(3), s.from, formatLink(style.style, s.from, s.path, graph), whyOf(s)]
       : [s.similarity.toFixed(3), formatLink(style.style, s.from, s.path, graph), whyOf(s)],
   );
-  const head = key === undefined ? ['similarity', 'note', 'link to add', 'words behind it'] : ['similarity', 'link to add', 'words behind it'];
+  const head =
+    key === undefined ? ['similarity', 'note', 'link to add', 'words behind it'] : ['similarity', 'link to add', 'words behind it'];
   for (const line of formatTable(
     head,
     rows,
@@ -96,7 +100,7 @@ export async function linksCommand(folder: string, file: string | undefined, fla
   ))
     io.out(line);
   io.out(
-    'similarity: cosine of the two notes in concept space (listed as Nearby ranks them); words: the largest shares of it; ~ marks a word found in only one of the two notes.',
+    'similarity: cosine of the two notes in concept space, discounted by how much of each the space holds (listed as Nearby ranks them); words: the largest shares of it; ~ marks a word found in only one of the two notes.',
   );
   return 0;
 }
@@ -109,6 +113,6 @@ function header(style: StyleVerdict, graph: LinkGraph, minSimilarity: number): s
 function parseMinSimilarity(value: unknown): number {
   if (value === undefined) return DEFAULT_SUGGEST_OPTIONS.minSimilarity;
   const t = Number(value);
-  if (!(t >= 0 && t <= 1)) throw new InvalidInputError(`--min-similarity needs a number from 0 to 1 (a cosine), got "${String(value)}"`);
+  if (!(t >= 0 && t <= 1)) throw new InvalidInputError(`--min-similarity needs a number from 0 to 1, got "${String(value)}"`);
   return t;
 }

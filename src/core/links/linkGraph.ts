@@ -46,7 +46,11 @@ export class LinkGraph {
   }
 
   /** A graph over given notes and links (titles: the file names), for evaluations. */
-  static fromPairs(keys: readonly string[], pairs: readonly (readonly [string, string])[], options: Partial<NoteCatalogueOptions> = {}): LinkGraph {
+  static fromPairs(
+    keys: readonly string[],
+    pairs: readonly (readonly [string, string])[],
+    options: Partial<NoteCatalogueOptions> = {},
+  ): LinkGraph {
     const catalogue = new NoteCatalogue({ noteExtensions: options.noteExtensions ?? [...new Set(keys.map(extOf))] });
     for (const k of keys) catalogue.add(k, k);
     const graph = new LinkGraph(catalogue);

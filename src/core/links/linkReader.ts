@@ -82,7 +82,7 @@ function splitFragment(destination: string): { target: string; fragment: string 
 function inlineDestination(text: string, open: number): [string, number] | null {
   let i = open + 1;
   while (i < text.length && (text[i] === ' ' || text[i] === '\t' || text[i] === '\n')) i++;
-  let dest = '';
+  let dest: string;
   if (text[i] === '<') {
     const close = text.indexOf('>', i + 1);
     if (close < 0 || text.slice(i + 1, close).includes('\n')) return null;
@@ -215,7 +215,12 @@ function inCodeAt(code: readonly [number, number][], at: number): boolean {
 }
 
 function decodeEntities(s: string): string {
-  return s.replace(/&amp;/g, '&').replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>');
+  return s
+    .replace(/&amp;/g, '&')
+    .replace(/&quot;/g, '"')
+    .replace(/&#39;/g, "'")
+    .replace(/&lt;/g, '<')
+    .replace(/&gt;/g, '>');
 }
 
 /**

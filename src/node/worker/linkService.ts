@@ -9,9 +9,8 @@ import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { LinkGraph, type NoteText } from '../../core/links/linkGraph.js';
 import { detectLinkStyle, formatLink, type StyleVerdict } from '../../core/links/linkStyle.js';
 import { NoteCatalogue } from '../../core/links/noteCatalogue.js';
-import { DEFAULT_SUGGEST_OPTIONS, suggestLinks } from '../../core/links/suggestLinks.js';
+import { DEFAULT_SUGGEST_OPTIONS, explainSimilarity, suggestLinks } from '../../core/links/suggestLinks.js';
 import { readIndexableText } from '../scan.js';
-import { explainPair } from '../../core/explain/explain.js';
 import { toWhy } from './explainHits.js';
 import { indexStateKey } from './insightService.js';
 import type { LinkSuggestionsResult, LinksRequestType } from './linksProtocol.js';
@@ -65,7 +64,7 @@ export class LinkService {
     const wordFor = formsFromTexts(texts, index.settings.tokenize.stem);
     const why = own.map((s) => {
       try {
-        return toWhy(explainPair(index, key, s.path, false), wordFor);
+        return toWhy(explainSimilarity(index, key, s.path), wordFor);
       } catch {
         return undefined; // the suggestion stays, without its words
       }

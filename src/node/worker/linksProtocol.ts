@@ -10,11 +10,11 @@ export interface LinkSuggestionWire extends FileRef {
   readonly title: string;
   /** Nearby's score for the pair (the order of the suggestions). */
   readonly score: number;
-  /** The cosine of the two notes' concept vectors (what the threshold applies to). */
+  /** The concept cosine discounted by how much of each note the space holds (core/links/suggestLinks.ts; what the threshold applies to). */
   readonly similarity: number;
   /** The link to insert in the subject note, in the collection's style, with the title as its text. */
   readonly link: string;
-  /** The words behind the similarity (each term's exact share of the cosine), when they could be worked out. */
+  /** The words behind the similarity (each term's exact share of it), when they could be worked out. */
   readonly why?: Why;
 }
 

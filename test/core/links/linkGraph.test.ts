@@ -28,7 +28,7 @@ describe('LinkGraph.fromNotes', () => {
     expect(graph.linksFrom('deep/Deep Note.md').slice().sort()).toEqual(['guides/setup.md', 'index.md']);
   });
 
-  it("resolves a folder to its README.md or index.md", () => {
+  it('resolves a folder to its README.md or index.md', () => {
     expect(graph.linksFrom('deep/folder/README.md')).toEqual([]);
     const g = LinkGraph.fromNotes([
       { key: 'a/index.md', text: 'x' },

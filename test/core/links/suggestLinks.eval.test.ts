@@ -92,17 +92,23 @@ describe('hidden links found in the top 5 of either end (a fifth of the links hi
     const djangoFits = django.map((r) => bestThreshold(r.nearby, r.hidden, r.notes).threshold);
     const cmakeFit = bestThreshold(cmake[0].nearby, cmake[0].hidden, cmake[0].notes).threshold;
     const djangoFit = djangoFits.reduce((a, b) => a + b, 0) / djangoFits.length;
-    console.log(`best-F1 similarity: django-doc ${fmt(djangoFits)} (mean ${djangoFit.toFixed(3)}), cmake-doc ${cmakeFit}; default ${DEFAULT_MIN_SIMILARITY}`);
+    console.log(
+      `best-F1 similarity: django-doc ${fmt(djangoFits)} (mean ${djangoFit.toFixed(3)}), cmake-doc ${cmakeFit}; default ${DEFAULT_MIN_SIMILARITY}`,
+    );
     const on = (r: Run, t: number) => atThreshold(r.nearby, r.hidden, r.notes, t);
     for (const r of django) {
       const [none, held, dflt] = [on(r, -Infinity), on(r, cmakeFit), on(r, DEFAULT_MIN_SIMILARITY)];
-      console.log(`django-doc F1: none ${none.f1.toFixed(4)}, at cmake's fit ${held.f1.toFixed(4)}, at the default ${dflt.f1.toFixed(4)} (quiet ${dflt.quietShare.toFixed(3)})`);
+      console.log(
+        `django-doc F1: none ${none.f1.toFixed(4)}, at cmake's fit ${held.f1.toFixed(4)}, at the default ${dflt.f1.toFixed(4)} (recall ${dflt.recall.toFixed(3)} of ${none.recall.toFixed(3)}, precision ${dflt.precision.toFixed(3)} of ${none.precision.toFixed(3)}, quiet ${dflt.quietShare.toFixed(3)})`,
+      );
       expect(held.f1).toBeGreaterThan(none.f1);
       expect(dflt.f1).toBeGreaterThan(none.f1);
       expect(dflt.quietShare).toBeLessThan(0.2);
     }
     const [none, held, dflt] = [on(cmake[0], -Infinity), on(cmake[0], djangoFit), on(cmake[0], DEFAULT_MIN_SIMILARITY)];
-    console.log(`cmake-doc F1: none ${none.f1.toFixed(4)}, at django's fit ${held.f1.toFixed(4)}, at the default ${dflt.f1.toFixed(4)} (quiet ${dflt.quietShare.toFixed(3)})`);
+    console.log(
+      `cmake-doc F1: none ${none.f1.toFixed(4)}, at django's fit ${held.f1.toFixed(4)}, at the default ${dflt.f1.toFixed(4)} (recall ${dflt.recall.toFixed(3)} of ${none.recall.toFixed(3)}, precision ${dflt.precision.toFixed(3)} of ${none.precision.toFixed(3)}, quiet ${dflt.quietShare.toFixed(3)})`,
+    );
     expect(held.f1).toBeGreaterThan(none.f1);
     expect(dflt.f1).toBeGreaterThan(none.f1);
     expect(dflt.quietShare).toBeLessThan(0.2);
@@ -120,7 +126,7 @@ describe('hidden links found in the top 5 of either end (a fifth of the links hi
       const index = builder.build();
       const graph = LinkGraph.fromPairs(index.paths(), [], { noteExtensions: ['.html', '.txt'] });
       const best = index.nearby(id, { top: 1 })[0];
-      console.log(`${id} among the Django pages: Nearby score ${best.score.toFixed(3)}, similarity ${best.conceptScore.toFixed(3)}`);
+      console.log(`${id} among the Django pages: Nearby score ${best.score.toFixed(3)}, concept cosine ${best.conceptScore.toFixed(3)}`);
       expect(suggestLinks(index, graph, id)).toEqual([]);
       // ...while a Django page, in a collection without any link, does get suggestions.
       expect(suggestLinks(index, graph, 'topics/db/models.html').length).toBeGreaterThan(0);
