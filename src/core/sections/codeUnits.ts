@@ -45,7 +45,30 @@ const NAME_PATTERNS: readonly RegExp[] = [
   // A function or method: the identifier before the first "(" (C, C++, Java, C#).
   /^\s*(?:[\w$<>[\],.*&:~]+\s+)*?[*&]*([A-Za-z_$~][\w$]*(?:::~?[A-Za-z_$][\w$]*)*)\s*(?:<[^>(]*>)?\s*\(/,
 ];
-const NOT_NAMES = new Set(['if', 'for', 'while', 'switch', 'return', 'catch', 'do', 'else', 'new', 'typeof', 'sizeof', 'await', 'yield', 'throw', 'case', 'using', 'import', 'export', 'require', 'describe', 'it', 'test']);
+const NOT_NAMES = new Set([
+  'if',
+  'for',
+  'while',
+  'switch',
+  'return',
+  'catch',
+  'do',
+  'else',
+  'new',
+  'typeof',
+  'sizeof',
+  'await',
+  'yield',
+  'throw',
+  'case',
+  'using',
+  'import',
+  'export',
+  'require',
+  'describe',
+  'it',
+  'test',
+]);
 
 /** The name a statement's first line declares, or null. */
 export function declaredName(line: string): string | null {
@@ -134,7 +157,8 @@ function braceUnits(lines: readonly string[], lang: CodeLanguage): Unit[] {
     while (owners.length > 1 && i >= owners.at(-1)!.from && f.depth < owners.at(-1)!.depth) owners.pop();
     const owner = owners.at(-1)!;
     if (f.depth !== owner.depth) {
-      if (!f.quiet) prevEnded = false;
+      // Inside a body, or an opening brace on a line of its own: what counts is how it ends.
+      if (!f.quiet) prevEnded = f.last === ';' || f.last === '}' || f.last === '{';
       continue;
     }
     if (f.blank) {
@@ -147,9 +171,12 @@ function braceUnits(lines: readonly string[], lang: CodeLanguage): Unit[] {
       if (!f.quiet) prevEnded = true;
       continue;
     }
-    const continues = !prevEnded || /^[)\]}.,+\-*/&|?:=]/.test(f.first) || (lang !== 'python' && /^(?:else|catch|finally|where)\b/.test(lines[i].trim()));
+    const continues =
+      !prevEnded || /^[)\]}.,+\-*/&|?:=]/.test(f.first) || (lang !== 'python' && /^(?:else|catch|finally|where)\b/.test(lines[i].trim()));
     if (!continues) {
-      const name = /^\s*(?:import|export\s+\*|export\s+\{|using|package|use|#\s*include|#\s*(?:if|ifdef|ifndef|endif|else|pragma))\b/.test(lines[i])
+      const name = /^\s*(?:import|export\s+\*|export\s+\{|using|package|use|#\s*include|#\s*(?:if|ifdef|ifndef|endif|else|pragma))\b/.test(
+        lines[i],
+      )
         ? null
         : declaredName(lines[i]);
       units.push({ start: lead >= 0 ? lead : i, head: i, name, owner: owner.name });
@@ -207,8 +234,13 @@ function pythonUnits(lines: readonly string[]): Unit[] {
       lead = -1;
       continue;
     }
-    const named = def ? def[2] : /^([A-Za-z_]\w*)\s*(?::[^=]*)?=(?!=)/.exec(trimmed)?.[1] ?? null;
-    units.push({ start: lead >= 0 ? lead : i, head: i, name: /^(import|from)\s/.test(trimmed) ? null : named, owner: member ? className : '' });
+    const named = def ? def[2] : (/^([A-Za-z_]\w*)\s*(?::[^=]*)?=(?!=)/.exec(trimmed)?.[1] ?? null);
+    units.push({
+      start: lead >= 0 ? lead : i,
+      head: i,
+      name: /^(import|from)\s/.test(trimmed) ? null : named,
+      owner: member ? className : '',
+    });
     lead = -1;
     if (def?.[1] === 'class' && indent === 0) {
       classIndent = 0;

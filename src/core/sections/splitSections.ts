@@ -71,8 +71,17 @@ export function splitLines(text: string): string[] {
 /** The sections of a file, from its path (for its kind) and its text. */
 export function splitSections(path: string, text: string, options: Partial<SectionOptions> = {}): SplitResult {
   const o = { ...DEFAULT_SECTION_OPTIONS, ...options };
-  if (!(o.windowLines >= 1 && o.windowOverlap >= 0 && o.windowOverlap < o.windowLines && o.maxLines >= 1 && o.minLines >= 0 && o.maxSections >= 1))
-    throw new InvalidInputError('section options: windowLines ≥ 1, 0 ≤ windowOverlap < windowLines, maxLines ≥ 1, minLines ≥ 0, maxSections ≥ 1');
+  if (!(
+    o.windowLines >= 1 &&
+    o.windowOverlap >= 0 &&
+    o.windowOverlap < o.windowLines &&
+    o.maxLines >= 1 &&
+    o.minLines >= 0 &&
+    o.maxSections >= 1
+  ))
+    throw new InvalidInputError(
+      'section options: windowLines ≥ 1, 0 ≤ windowOverlap < windowLines, maxLines ≥ 1, minLines ≥ 0, maxSections ≥ 1',
+    );
   const lines = splitLines(text);
   while (lines.length > 0 && lines.at(-1)!.trim() === '') lines.pop();
   if (lines.length === 0) return { kind: 'window', sections: [] };
@@ -98,16 +107,15 @@ function even(found: readonly Section[], lines: readonly string[], o: SectionOpt
     for (let i = s.start; i < s.end; i++) if (lines[i].trim()) n++;
     return n;
   };
-  const owner = (title: string): string => title.slice(0, Math.max(0, title.lastIndexOf('.')));
   const joined: Section[] = [];
   found.forEach((s, i) => {
     const prev = joined.at(-1);
     const short = filled(s) < o.minLines;
-    const related = prev !== undefined && (owner(s.title) === owner(prev.title) || owner(s.title) === prev.title);
-    // A short class line stays to gather its fields; a short member joins its class or a sibling.
+    // A short class line stays to gather its fields (or joins its first member, below).
     const header = found[i + 1]?.title.startsWith(`${s.title}.`) === true;
-    if (prev && (joined.length >= o.maxSections || (short && (related || !header)))) joined[joined.length - 1] = { ...prev, end: s.end };
-    else if (prev && filled(prev) < o.minLines && s.title.startsWith(`${prev.title}.`)) joined[joined.length - 1] = { ...s, start: prev.start };
+    if (prev && (joined.length >= o.maxSections || (short && !header))) joined[joined.length - 1] = { ...prev, end: s.end };
+    else if (prev && filled(prev) < o.minLines && s.title.startsWith(`${prev.title}.`))
+      joined[joined.length - 1] = { ...s, start: prev.start };
     else joined.push(s);
   });
   // A short first section (a licence line, a lone import) joins the one after it.

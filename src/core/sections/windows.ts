@@ -7,7 +7,13 @@
 import type { Section } from './types.js';
 
 /** Windows over lines [from, to) of `size` lines, each starting `size − overlap` after the one before. */
-export function lineWindows(from: number, to: number, size: number, overlap: number, title: (start: number, end: number) => string): Section[] {
+export function lineWindows(
+  from: number,
+  to: number,
+  size: number,
+  overlap: number,
+  title: (start: number, end: number) => string,
+): Section[] {
   const out: Section[] = [];
   if (to <= from) return out;
   const step = Math.max(1, size - Math.min(overlap, size - 1));
