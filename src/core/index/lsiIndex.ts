@@ -33,6 +33,8 @@ import type { IndexSettings } from './model/settings.js';
 import { ChangeCounters, type Staleness, type StalenessCounters } from './update/staleness.js';
 import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
 import { topN } from './search/topN.js';
+import { SectionStore } from '../sections/sectionStore.js';
+import { foldContextOf, foldSections } from '../sections/sectionVectors.js';
 
 export type { Staleness, StalenessCounters } from './update/staleness.js';
 
@@ -80,6 +82,8 @@ export class LsiIndex {
   private _filler: ReadonlySet<string> | null = null;
   /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
   ranking: RankingOptions = DEFAULT_RANKING_OPTIONS;
+  /** Each file's sections with their concept vectors (src/core/sections), saved with the index. */
+  readonly sections: SectionStore;
 
   private constructor(
     readonly settings: IndexSettings,
@@ -90,6 +94,7 @@ export class LsiIndex {
   ) {
     this._slots = slots;
     this._rows = rows;
+    this.sections = new SectionStore(model.k);
     slots.forEach((s, i) => s && this._slotOf.set(s.meta.path, i));
   }
 
@@ -423,6 +428,7 @@ export class LsiIndex {
     this._codes?.ensureCapacity(this._slots.length);
     this._codes?.setRow(s, proj.vector);
     this._bm25?.setDocument(s, terms);
+    this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
   }
 
@@ -435,6 +441,7 @@ export class LsiIndex {
     this._rows.clearRow(s);
     this._codes?.clearRow(s);
     this._slotOf.delete(path);
+    this.sections.delete(path);
     this._changes.removed(wasFolded);
     this._bm25?.setDocument(s, null);
     return true;

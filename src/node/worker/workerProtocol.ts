@@ -66,7 +66,7 @@ export interface IndexSummary {
   readonly staleness: Staleness;
 }
 
-export type BuildStage = 'scan' | 'read' | 'matrix' | 'svd' | 'save';
+export type BuildStage = 'scan' | 'read' | 'matrix' | 'svd' | 'sections' | 'save';
 
 export interface Progress {
   readonly stage: BuildStage;
@@ -208,7 +208,8 @@ const STAGE_SPAN: Record<BuildStage, readonly [number, number]> = {
   scan: [0, 10],
   read: [10, 60],
   matrix: [60, 65],
-  svd: [65, 95],
+  svd: [65, 85],
+  sections: [85, 95],
   save: [95, 100],
 };
 
