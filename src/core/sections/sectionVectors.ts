@@ -11,7 +11,7 @@ import { countTerms, type Vocabulary } from '../counting/termCounts.js';
 import { projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
 import { tokenize, type TokenizeOptions } from '../text/tokenize.js';
 import { splitLines, splitSections } from './splitSections.js';
-import type { SectionOptions } from './types.js';
+import type { Section, SectionOptions } from './types.js';
 
 /** The sections of one file: parallel arrays, f32 vectors (k per section). */
 export interface FileSections {
@@ -32,7 +32,11 @@ export interface FoldContext {
 
 /** Splits a file into sections and folds each into the concept space. */
 export function foldSections(ctx: FoldContext, path: string, text: string, options: Partial<SectionOptions> = {}): FileSections {
-  const { sections } = splitSections(path, text, options);
+  return foldSectionList(ctx, splitSections(path, text, options).sections, text);
+}
+
+/** Folds given sections of a text (line ranges of it) into the concept space. */
+export function foldSectionList(ctx: FoldContext, sections: readonly Section[], text: string): FileSections {
   const lines = splitLines(text);
   const k = ctx.model.k;
   const vectors = new Float32Array(sections.length * k);
