@@ -48,6 +48,9 @@ usage:
 
 options:
   --top N                    how many results (default 10)
+  --sections                 (ask) rank sections (headings, declarations) instead of files;
+                             (nearby, with --line N) the sections nearest to the one at line N
+  --skip-sections            (index) build without section vectors (a smaller index file)
   --k N|auto                 concept dimensions (default auto: grows with the collection)
   --weighting log-entropy|tfidf   term weighting (default log-entropy)
   --json                     machine-readable output
@@ -130,6 +133,7 @@ const EXTRA_OPTIONS = {
   qrels: { type: 'string' },
   rebuild: { type: 'boolean' },
   explain: { type: 'boolean' },
+  line: { type: 'string' },
   like: { type: 'string', multiple: true },
   unlike: { type: 'string', multiple: true },
   topics: { type: 'string' },

@@ -32,12 +32,13 @@ import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
 import { readIndexableText } from './scanRead.js';
 import type { SkippedPath } from './scanTypes.js';
 import { readSharedModel } from './conceptModelFile.js';
+import { foldFileSections } from './sectionPass.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
 
 /** The pipeline's stages, in order; the adapters report these (the command line adds 'load'). */
-export type PipelineStage = 'scan' | 'read' | 'matrix' | 'svd' | 'save';
+export type PipelineStage = 'scan' | 'read' | 'matrix' | 'svd' | 'sections' | 'save';
 
 export interface PipelineProgress {
   readonly stage: PipelineStage;
@@ -100,6 +101,8 @@ export interface PipelineOptions {
   /** Polled as well as signal, including during the synchronous SVD. */
   readonly isCancelled?: () => boolean;
   readonly onProgress?: (p: PipelineProgress) => void;
+  /** Fold each file's sections into the built model (src/core/sections). @default true */
+  readonly sections?: boolean;
   /** Threads for tokenizing and the SVD (false: this thread only). @default {} (all cores) */
   readonly threads?: PoolOptions | false;
 }
@@ -136,7 +139,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
   const check = (): void => {
     if (cancelled()) throw new CancelledError();
   };
-  const seconds: Record<PipelineStage, number> = { scan: 0, read: 0, matrix: 0, svd: 0, save: 0 };
+  const seconds: Record<PipelineStage, number> = { scan: 0, read: 0, matrix: 0, svd: 0, sections: 0, save: 0 };
   let mark = performance.now();
   const lap = (stage: PipelineStage): void => {
     const now = performance.now();
@@ -271,6 +274,16 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     // The threads (and the shared memory of the SVD) are not needed to save.
     await releasePool();
     check();
+
+    // ---- sections: every file read again, cut into sections, each folded into the new model
+    if (options.sections !== false) {
+      const keyed = scan.files.filter((f) => index.has(f.key));
+      await foldFileSections(index, keyed, options.maxFileBytes, {
+        check,
+        onProgress: (done) => progress({ stage: 'sections', done, total: keyed.length }),
+      });
+      lap('sections');
+    }
 
     // ---- save
     if (options.save) {

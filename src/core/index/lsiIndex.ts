@@ -36,6 +36,8 @@ import type { IndexSettings } from './model/settings.js';
 import { ChangeCounters, type Staleness, type StalenessCounters } from './update/staleness.js';
 import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
 import { topN } from './search/topN.js';
+import { SectionStore } from '../sections/sectionStore.js';
+import { foldContextOf, foldSections } from '../sections/sectionVectors.js';
 
 export type { Staleness, StalenessCounters } from './update/staleness.js';
 
@@ -84,6 +86,8 @@ export class LsiIndex {
   private _mainLanguage: Language | undefined;
   /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
   ranking: RankingOptions = DEFAULT_RANKING_OPTIONS;
+  /** Each file's sections with their concept vectors (src/core/sections), saved with the index. */
+  readonly sections: SectionStore;
 
   private constructor(
     readonly settings: IndexSettings,
@@ -94,6 +98,7 @@ export class LsiIndex {
   ) {
     this._slots = slots;
     this._rows = rows;
+    this.sections = new SectionStore(model.k);
     slots.forEach((s, i) => s && this._slotOf.set(s.meta.path, i));
   }
 
@@ -446,6 +451,7 @@ export class LsiIndex {
     this._codes?.ensureCapacity(this._slots.length);
     this._codes?.setRow(s, proj.vector);
     this._bm25?.setDocument(s, terms);
+    this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
   }
 
@@ -459,6 +465,7 @@ export class LsiIndex {
     this._rows.clearRow(s);
     this._codes?.clearRow(s);
     this._slotOf.delete(path);
+    this.sections.delete(path);
     this._changes.removed(wasFolded);
     this._bm25?.setDocument(s, null);
     return true;

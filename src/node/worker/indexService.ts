@@ -30,11 +30,15 @@ import type {
   RefreshReport,
   ScoredFile,
   SearchMatch,
+  SectionMatch,
+  SectionPlace,
   TranslationRef,
   UpdateReport,
   WorkerConfig,
 } from './workerProtocol.js';
 import { RootMap } from './rootMap.js';
+import { bestSections, nearbySections, searchSections } from '../../core/sections/sectionSearch.js';
+import type { SectionHit } from '../../core/sections/sectionStore.js';
 import type { HandlerContext, Handlers } from './server.js';
 import { formsFromTexts } from './wordForms.js';
 import { NoIndexError } from './workerErrors.js';
@@ -108,6 +112,8 @@ export class IndexService {
       update: async ({ changes }) => this.update(changes),
       search: async ({ query, top, like, unlike }) => this.search(query, top, like, unlike),
       nearby: async ({ fsPath, top }) => this.nearby(fsPath, top),
+      searchSections: async ({ query, top }) => this.searchSections(query, top),
+      nearbySections: async ({ fsPath, line, top }) => this.nearbySections(fsPath, line, top),
       translations: async ({ fsPath }) => this.translationsOf(fsPath),
       save: async () => {
         const saved = await this.save();
@@ -208,6 +214,11 @@ export class IndexService {
       feedback,
     );
     const scorer = queryScorer(index, query);
+    const places = bestSections(
+      index,
+      query,
+      picked.map((p) => p.key),
+    );
     return Promise.all(
       picked.map(async (p, i) => {
         const ref = this._roots.refOf(p.key);
@@ -222,10 +233,32 @@ export class IndexService {
           line: line.line,
           lineText: line.text,
           highlights: line.highlights,
+          ...sectionField(places.get(p.key)),
           ...this.translationFields(p.key, p.others),
         };
       }),
     );
+  }
+
+  /** Sections ranked by a query (file keys turned into file references). */
+  searchSections(query: string, top: number): SectionMatch[] {
+    const index = this.requireIndex();
+    return searchSections(index, query, { top }).map((h) => ({
+      ...this._roots.refOf(h.path),
+      ...sectionField(h).section!,
+      score: h.score,
+    }));
+  }
+
+  /** Nearby at the cursor: other files' sections nearest to the section holding `line`. */
+  nearbySections(fsPath: string, line: number, top: number): { from: SectionMatch; hits: SectionMatch[] } | null {
+    const key = this._roots.keyOf(fsPath);
+    const index = this._index;
+    if (!index || key === undefined || !index.has(key)) return null;
+    const near = nearbySections(index, key, line, { top });
+    if (!near) return null;
+    const match = (h: SectionHit): SectionMatch => ({ ...this._roots.refOf(h.path), ...sectionField(h).section!, score: h.score });
+    return { from: match(near.from), hits: near.hits.map(match) };
   }
 
   /**
@@ -442,4 +475,9 @@ export class IndexService {
     if (!this._index) throw new NoIndexError('There is no index yet: build it first.');
     return this._index;
   }
+}
+
+/** A section hit as the wire's SectionPlace (nothing when there is none). */
+function sectionField(h: SectionHit | undefined): { section?: SectionPlace } {
+  return h ? { section: { title: h.title, start: h.start, end: h.end } } : {};
 }

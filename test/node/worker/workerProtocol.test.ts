@@ -21,6 +21,8 @@ describe('protocol message checks', () => {
       update: true,
       search: true,
       nearby: true,
+      searchSections: true,
+      nearbySections: true,
       translations: true,
       save: true,
       deleteIndex: true,

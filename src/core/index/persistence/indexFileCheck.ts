@@ -44,6 +44,12 @@ export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
   ['singularValues', 'f64'],
   ['axisScale', 'f64'],
   ['vectors', 'f32'],
+  // Format 4: each file's sections (src/core/sections): per-file offsets, [start, end) lines,
+  // '\0'-separated titles, and k f32 numbers per section.
+  ['sectionIndptr', 'i32'],
+  ['sectionLines', 'i32'],
+  ['sectionTitles', 'u8'],
+  ['sectionVectors', 'f32'],
 ];
 
 export const BYTES_PER: Record<ArrayKind, number> = { u8: 1, i32: 4, f32: 4, f64: 8 };
@@ -225,6 +231,8 @@ export function checkSectionSizes(header: CheckedHeader): void {
     [len.singularValues === k && len.axisScale === k, 'singularValues or axisScale are not k long'],
     [len.vectors === n * k, 'vectors are not k per document'],
     [m <= header.model.columnOfLength, 'more model terms than model.columnOfLength'],
+    [len.sectionIndptr === n + 1, 'sectionIndptr is not docs + 1 long'],
+    [len.sectionLines % 2 === 0 && len.sectionVectors === (len.sectionLines / 2) * k, 'sectionVectors are not k per section'],
   ];
   for (const [ok, what] of rules) if (!ok) throw new CorruptIndexError(`index sections disagree in size: ${what}`);
 }
@@ -250,6 +258,10 @@ export interface PayloadParts {
   readonly axisScale: Float64Array;
   readonly vectors: Float32Array;
   readonly k: number;
+  readonly sectionIndptr: Int32Array;
+  readonly sectionLines: Int32Array;
+  readonly sectionTitles: readonly string[];
+  readonly sectionVectors: Float32Array;
 }
 
 const bad = (what: string): never => {
@@ -305,5 +317,23 @@ export function checkPayload(p: PayloadParts): void {
     for (let i = j * k; i < (j + 1) * k; i++) s += v[i] * v[i];
     // Unit vectors, or zero for a file without model terms (float32 rounding allows a little).
     if (!(s <= 1 + 1e-3) || (s > 1e-6 && s < 1 - 1e-3)) bad(`the concept vector of "${p.paths[j]}" is not of unit length`);
+  }
+  checkSections(p);
+}
+
+function checkSections(p: PayloadParts): void {
+  const n = p.paths.length;
+  const count = p.sectionLines.length / 2;
+  const ip = p.sectionIndptr;
+  if (ip[0] !== 0 || ip[n] !== count) bad('sectionIndptr does not span the sections');
+  for (let j = 0; j < n; j++) if (!(ip[j + 1] >= ip[j])) bad('sectionIndptr goes backwards');
+  if (p.sectionTitles.length !== count) bad('there are not as many section titles as sections');
+  for (let i = 0; i < count; i++) {
+    const start = p.sectionLines[2 * i];
+    const end = p.sectionLines[2 * i + 1];
+    if (!(start >= 0 && end > start)) bad('a section ends before it starts');
+    let ss = 0;
+    for (let c = i * p.k; c < (i + 1) * p.k; c++) ss += p.sectionVectors[c] * p.sectionVectors[c];
+    if (!(ss <= 1 + 1e-3) || (ss > 1e-6 && ss < 1 - 1e-3)) bad('a section vector is not of unit length');
   }
 }
