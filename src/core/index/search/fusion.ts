@@ -42,8 +42,19 @@ export interface RankingOptions {
    * does not know (pruned as too rare or too common): λ_q = λ + (1 − λ)·u. @default false
    */
   coverageBlend: boolean;
-  /** BM25 length normalisation b (Robertson & Zaragoza 2009; 0.75 is their common value). @default 0.75 */
+  /**
+   * BM25 length normalisation b of search (Robertson & Zaragoza 2009 give 0.75 as common
+   * practice; chosen by leaving one collection out, README "Ranking checks"). @default 0.5
+   */
   lengthNorm: number;
+  /** BM25 length normalisation b of nearby's lexical part (a file's top terms as the query). @default 0.3 */
+  nearbyLengthNorm: number;
+  /**
+   * Search: weigh each part by the inverse of its score spread over the files (z-score fusion),
+   * so the blend share λ applies to standardised scores: λ_q = (λ/σ_lex)/((1 − λ)/σ_cos + λ/σ_lex).
+   * @default true
+   */
+  spreadBlend: boolean;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -55,8 +66,42 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   unlikeWeight: 0.25,
   dropFiller: true,
   coverageBlend: false,
-  lengthNorm: 0.75,
+  lengthNorm: 0.5,
+  nearbyLengthNorm: 0.3,
+  spreadBlend: true,
 });
+
+/** Rows sampled for the spread of concept scores (every file below this; common practice). */
+export const SPREAD_SAMPLE = 2048;
+
+/**
+ * The lexical share of a blend of standardised scores, as a share of the raw scores:
+ * (1 − λ)·(c − m_c)/σ_c + λ·(l − m_l)/σ_l ranks as (1 − λ_q)·c + λ_q·l with
+ * λ_q = (λ/σ_l)/((1 − λ)/σ_c + λ/σ_l) (score normalisation by mean and standard deviation,
+ * Montague & Aslam 2001, "Relevance score normalization for metasearch"). λ when a spread vanishes.
+ */
+export function spreadShare(lambda: number, sdConcept: number, sdLexical: number): number {
+  if (!(sdConcept > 1e-12) || !(sdLexical > 1e-12) || lambda <= 0 || lambda >= 1) return lambda;
+  const l = lambda / sdLexical;
+  return l / ((1 - lambda) / sdConcept + l);
+}
+
+/** Standard deviation of a[j] over the slots where live(j). */
+export function spreadOf(a: Float64Array, live: (j: number) => boolean): number {
+  let s = 0;
+  let ss = 0;
+  let n = 0;
+  for (let j = 0; j < a.length; j++) {
+    if (!live(j)) continue;
+    const x = a[j];
+    s += x;
+    ss += x * x;
+    n++;
+  }
+  if (n < 2) return 0;
+  const m = s / n;
+  return Math.sqrt(Math.max(0, ss / n - m * m));
+}
 
 /**
  * Words that ask rather than say what is sought (beyond the stop words, which go anyway). Our own
