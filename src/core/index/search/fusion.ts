@@ -7,8 +7,11 @@
  *   selection of a file's top terms as its query is the classic "more like this" query of
  *   relevance feedback (Salton & Buckley 1990, "Improving retrieval performance by relevance
  *   feedback"); 25–50 terms is common practice.
- * - Search: the concept cosine of the query, blended with max-normalised BM25
- *   (settings.lexicalBlend), after pseudo-relevance feedback: the query's concept vector moves
+ * - Search: the concept cosine of the query, blended with max-normalised BM25 at a share
+ *   settings.lexicalBlend of standardised scores (spreadShare: each part weighed by the inverse of
+ *   its standard deviation over the files, Montague & Aslam 2001), so the raw share adapts to each
+ *   query: a query whose word matches stand out from the rest leans on them, a query whose concept
+ *   scores spread widely leans on those. Then pseudo-relevance feedback: the query's concept vector moves
  *   towards the mean concept vector of the first pass's `feedbackDocs` best files, by
  *   `feedbackWeight` (Rocchio 1971, "Relevance feedback in information retrieval"; in the LSI
  *   space as in Dumais 1991, "Improving the retrieval of information from external sources").
@@ -17,7 +20,10 @@
  *   Salton & Buckley 1990 report as robust), and the liked files' top terms join the lexical query.
  * - Questions: filler words of questions ("happens", "tell me", "the code that") are dropped from a
  *   query when something else remains (our own list, common practice: stop words for queries).
- * Every choice was validated by leaving one collection out (README, "Ranking checks").
+ * - Length normalisation: BM25's b is 0.5 for search and 0.3 for nearby (a whole file's top terms
+ *   as the query), both below the common 0.75, which buried short files under long ones.
+ * Every choice was validated by leaving one collection out (README, "Ranking checks";
+ * scripts/fixtures/rankingFusionExplore.ts).
  */
 import { STOP_WORDS } from '../../text/stopWords.js';
 import type { DocTerms } from '../../counting/termCounts.js';
