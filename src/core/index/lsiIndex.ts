@@ -306,7 +306,8 @@ export class LsiIndex {
 
   /**
    * The lexical share for standardised scores (fusion.ts, spreadShare): the spread of the concept
-   * cosines over at most SPREAD_SAMPLE evenly spaced files, the lexical scores' over all files.
+   * cosines over evenly spaced files (every ⌊n/SPREAD_SAMPLE⌋-th: all files below 2·SPREAD_SAMPLE,
+   * fewer than 2·SPREAD_SAMPLE above), the lexical scores' over all files.
    */
   private spreadLambda(lambda: number, q: Float32Array, lexical: Float64Array): number {
     const slots = this._slots;
@@ -497,7 +498,7 @@ function divideByMax(a: Float64Array): number {
   return max;
 }
 
-/** Standard deviation of v_j·q over at most SPREAD_SAMPLE evenly spaced occupied slots. */
+/** Standard deviation of v_j·q over every ⌊n/SPREAD_SAMPLE⌋-th occupied slot (all below 2·SPREAD_SAMPLE). */
 function conceptSpread(rows: Float32Array, k: number, slots: readonly (DocSlot | null)[], q: Float32Array): number {
   const step = Math.max(1, Math.floor(slots.length / SPREAD_SAMPLE));
   let s = 0;

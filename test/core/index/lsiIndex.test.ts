@@ -144,8 +144,8 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
 
 /**
  * The lexical share for z-scored parts, λ_q = (λ/σ_lex)/((1 − λ)/σ_cos + λ/σ_lex), σ the
- * population standard deviations over every file (the index samples at most 2,048 files for σ_cos;
- * these test indexes are smaller).
+ * population standard deviations over every file (the index samples every ⌊n/2,048⌋-th file for
+ * σ_cos, all of them in these test indexes).
  */
 function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[]): number {
   const lambda = index.settings.lexicalBlend;

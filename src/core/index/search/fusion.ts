@@ -77,7 +77,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   spreadBlend: true,
 });
 
-/** Rows sampled for the spread of concept scores (every file below this; common practice). */
+/** About how many files give the spread of concept scores (every file below twice this; common practice). */
 export const SPREAD_SAMPLE = 2048;
 
 /**
