@@ -67,7 +67,7 @@ export interface SearchPlan {
   readonly known: boolean;
   readonly lexical: Float64Array;
   readonly accept: (slot: number) => boolean;
-  /** The lexical share λ of this query (settings.lexicalBlend, raised by coverageBlend). */
+  /** The lexical share λ of this query (settings.lexicalBlend on standardised scores, fusion.ts spreadShare; raised by coverageBlend). */
   readonly lambda: number;
 }
 

@@ -120,7 +120,7 @@ function plainBlend(
   return ranked.sort((x, y) => y.score - x.score || x.slot - y.slot).slice(0, top);
 }
 
-/** Search as documented: BM25 blend at the z-score share, then Rocchio with the first pass's 5 best files (weight 0.25), share taken again. */
+/** Search as documented: BM25 blend (at the z-score share when spreadBlend is on), then Rocchio with the first pass's 5 best files (weight 0.25), share taken again. */
 function plainSearch(index: LsiIndex, text: string, top: number): { path: string; score: number }[] {
   const q = index.queryTerms(text);
   const proj = projectTerms(index.model, q);
@@ -149,6 +149,7 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
  */
 function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[]): number {
   const lambda = index.settings.lexicalBlend;
+  if (!index.ranking.spreadBlend) return lambda;
   const max = Math.max(...bm25);
   const live = index.slots().flatMap((s, j) => (s ? [j] : []));
   const sd = (xs: number[]): number => {

@@ -25,9 +25,7 @@ export interface IndexSettings {
   conceptScaling: number;
   /**
    * Share of the lexical BM25 score in search ranking, 0…1 (0 = pure LSI). A blend of LSI with a
-   * lexical score follows Kontostathis (2007, essential-dimensions LSI). The share applies to
-   * standardised scores (index/search/fusion.ts, spreadBlend); 0.6 was chosen by leaving one
-   * collection out (README, "Ranking checks"). @default 0.6
+   * lexical score follows Kontostathis (2007, essential-dimensions LSI). @default 0.5
    */
   lexicalBlend: number;
   /**
@@ -46,7 +44,7 @@ export const DEFAULT_INDEX_SETTINGS: Readonly<IndexSettings> = Object.freeze({
   prune: DEFAULT_PRUNE_OPTIONS,
   tokenize: DEFAULT_TOKENIZE_OPTIONS,
   conceptScaling: 1,
-  lexicalBlend: 0.6,
+  lexicalBlend: 0.5,
 });
 
 export function resolveSettings(partial: Partial<IndexSettings> = {}): IndexSettings {
