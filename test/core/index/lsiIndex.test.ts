@@ -187,7 +187,7 @@ function plainNearby(index: LsiIndex, path: string, top: number): { path: string
 }
 
 describe('LsiIndex ranking against the plain formula', () => {
-  it('ranks search and nearby hits exactly as the plain computation, before and after fold-ins and removals', () => {
+  it('ranks search and nearby hits exactly as the plain computation, before and after fold-ins and removals, and with the z-score blend', () => {
     const b = new IndexBuilder();
     for (const d of cran.docs.slice(0, 500)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = b.build();
@@ -212,6 +212,9 @@ describe('LsiIndex ranking against the plain formula', () => {
     for (let i = 0; i < 3; i++) index.foldIn({ path: `new${i}`, size: 1, mtimeMs: 1 }, `${cran.docs[950 + i].text} quuxified frobnicator`);
     index.remove(cran.docs[10].id);
     index.remove('new1');
+    compare();
+    // The opt-in blend of standardised scores, with another length normalisation for search.
+    index.ranking = { ...index.ranking, spreadBlend: true, lengthNorm: 0.5 };
     compare();
     expect(
       index
