@@ -6,6 +6,7 @@
 import { parseArgs } from 'node:util';
 import { EXIT, EXIT_CODE_HELP, describeFailure } from './failure.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
+import { DEFAULT_MIN_SIMILARITY } from '../core/links/suggestLinks.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
 import { countCommand } from './commands/countCommand.js';
@@ -13,6 +14,7 @@ import { exportCommand } from './commands/exportCommand.js';
 import { importFactorsCommand } from './commands/importFactorsCommand.js';
 import { importModelCommand } from './commands/importModelCommand.js';
 import { indexCommand } from './commands/indexCommand.js';
+import { linksCommand } from './commands/linksCommand.js';
 import { overlapsCommand } from './commands/overlapsCommand.js';
 import { mapCommand } from './commands/mapCommand.js';
 import { nearbyCommand } from './commands/nearbyCommand.js';
@@ -27,6 +29,8 @@ usage:
   undertone ask    <folder> "<text>"        files ranked by meaning for plain-language text
   undertone ask    <folder> --queries q.jsonl   batch: one JSON line out per {"id","text"} line in
   undertone nearby <folder> <file>          the files nearest in meaning to one file
+  undertone links  <folder> [<file>]        suggested links: notes near in meaning, not yet linked
+                                            either way (--top N per note, default 5)
   undertone eval   <folder> --queries q.jsonl --qrels qrels.tsv   MAP, P@10, nDCG@10
   undertone topics <folder>                 topics, each named by its words and example files
   undertone overlaps <folder>               exact copies, near-copies, partial copies and same
@@ -60,6 +64,8 @@ options:
   --depth N                  (topics) levels of sub-topics to find and show (default 2; with
                              --json the whole tree, up to 4)
   --in FOLDER                (topics) the topics of one sub-folder: how many of its files each holds
+  --min-similarity S         (links) the least similarity worth suggesting (default
+                             ${DEFAULT_MIN_SIMILARITY}, calibrated on linked documentation)
   --threshold J              (overlaps) shingle Jaccard for near-copies (default 0.8)
   --layout both|quick|faithful   (map) layouts in the page (default both, opening on faithful;
                              quick skips the slower faithful layout; faithful is the same as both,
@@ -75,13 +81,14 @@ ${EXIT_CODE_HELP}
 
 /** Options that only some commands use (the rest apply to every command): others are warned about. */
 const APPLIES_TO: Record<string, readonly string[]> = {
-  top: ['ask', 'nearby'],
+  top: ['ask', 'nearby', 'links'],
   queries: ['ask', 'eval'],
   qrels: ['eval'],
   rebuild: ['index'],
   explain: ['ask', 'nearby'],
   topics: ['topics', 'map'],
   threshold: ['overlaps'],
+  'min-similarity': ['links'],
   layout: ['map'],
   'max-terms': ['map'],
   format: ['export'],
@@ -129,6 +136,7 @@ const EXTRA_OPTIONS = {
   depth: { type: 'string' },
   in: { type: 'string' },
   threshold: { type: 'string' },
+  'min-similarity': { type: 'string' },
   layout: { type: 'string' },
   'max-terms': { type: 'string' },
   format: { type: 'string' },
@@ -165,7 +173,20 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? EXIT.ok : EXIT.usage;
   }
-  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'overlaps', 'export', 'import-factors', 'map', 'count', 'import-model'];
+  const needsFolder = [
+    'index',
+    'ask',
+    'nearby',
+    'links',
+    'eval',
+    'topics',
+    'overlaps',
+    'export',
+    'import-factors',
+    'map',
+    'count',
+    'import-model',
+  ];
   if (!needsFolder.includes(command)) {
     io.err(`undertone: unknown command "${command}"\n${HINT}`);
     return EXIT.usage;
@@ -176,9 +197,9 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
   }
   // An unquoted question arrives as several words: join them (ask); other commands take at most one more.
   const arg = command === 'ask' ? (rest.length > 0 ? rest.join(' ') : undefined) : rest[0];
-  if (command !== 'ask' && rest.length > (command === 'nearby' ? 1 : 0)) {
+  if (command !== 'ask' && rest.length > (command === 'nearby' || command === 'links' ? 1 : 0)) {
     io.err(
-      `undertone ${command}: unexpected argument${rest.length > 1 ? 's' : ''} ${rest.map((r) => `"${r}"`).join(' ')}${command === 'nearby' ? ' (nearby takes one file; quote a name with spaces)' : ''}\n${HINT}`,
+      `undertone ${command}: unexpected argument${rest.length > 1 ? 's' : ''} ${rest.map((r) => `"${r}"`).join(' ')}${command === 'nearby' || command === 'links' ? ` (${command} takes one file; quote a name with spaces)` : ''}\n${HINT}`,
     );
     return EXIT.usage;
   }
@@ -201,6 +222,8 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
         return await askCommand(folder, arg, flags, io);
       case 'nearby':
         return await nearbyCommand(folder, arg, flags, io);
+      case 'links':
+        return await linksCommand(folder, arg, flags, io);
       case 'topics':
         return await topicsCommand(folder, flags, io);
       case 'overlaps':

@@ -9,6 +9,7 @@ import { FileEvents } from './fileEvents.js';
 import { IndexController, type ControllerHost } from './indexController.js';
 import { summaryOf, type IndexState } from './indexState.js';
 import { registerInsights } from './insights.js';
+import { registerLinkSuggestions } from './linkSuggestionsView.js';
 import { NearbyProvider } from './nearbyView.js';
 import { SearchResultsProvider } from './searchView.js';
 import { IndexStatusBar } from './statusBar.js';
@@ -112,6 +113,7 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
       reconfigureSoon();
     }),
     ...registerCommands({ controller, nearby, search, log, indexFile }),
+    ...registerLinkSuggestions(controller),
     ...registerInsights({
       controller,
       extensionUri: context.extensionUri,

@@ -219,6 +219,12 @@ export class IndexController {
     return this._worker.client.request('translations', { fsPath });
   }
 
+  /** Suggested links for a note (node/worker/linkService.ts); null while there is no index or it is not an indexed note. */
+  async suggestLinks(fsPath: string, top: number): Promise<ResultOf<'suggestLinks'> | null> {
+    if (!this._worker || summaryOf(this._state) === null) return null;
+    return this._worker.client.request('suggestLinks', { fsPath, top });
+  }
+
   async nearby(fsPath: string, top: number): Promise<readonly ScoredFile[] | null> {
     if (!this._worker || summaryOf(this._state) === null) return null;
     return this._worker.client.request('nearby', { fsPath, top });

@@ -23,6 +23,7 @@ import { questionFit, questionUnits } from '../../core/translations/language.js'
 import { translationPath } from '../../core/translations/pathKey.js';
 import { TranslationFinder } from './translationFinder.js';
 import { InsightService } from './insightService.js';
+import { LinkService } from './linkService.js';
 import type {
   FileChange,
   IndexSummary,
@@ -74,6 +75,12 @@ export class IndexService {
     maxFileBytes: () => this.config().maxFileBytes,
   });
 
+  private readonly _links = new LinkService({
+    index: () => this._index,
+    roots: () => this._roots,
+    maxFileBytes: () => this.config().maxFileBytes,
+  });
+
   private readonly _translations = new TranslationFinder(async (key) => {
     const got = await readIndexableText(this._roots.refOf(key).fsPath, this.config().maxFileBytes);
     return got.kind === 'text' ? got.text : null;
@@ -108,6 +115,7 @@ export class IndexService {
       },
       deleteIndex: async () => this.deleteIndex(),
       ...this._insights.handlers(),
+      ...this._links.handlers(),
     };
   }
 

@@ -9,6 +9,7 @@ import type { Staleness } from '../../core/index/lsiIndex.js';
 import type { IndexSettings } from '../../core/index/model/settings.js';
 import type { FileRef } from './fileRef.js';
 import { INSIGHT_REQUEST_TYPES, type InsightRequestMap, type Why } from './insightProtocol.js';
+import { LINKS_REQUEST_TYPES, type LinksRequestMap } from './linksProtocol.js';
 
 /** One workspace folder. Names are unique and become the path prefix when there are several. */
 export interface WorkspaceRoot {
@@ -112,7 +113,7 @@ export interface UpdateReport {
 }
 
 /** Each request type with its parameters and its result (the insight requests: insightProtocol.ts). */
-export interface RequestMap extends InsightRequestMap {
+export interface RequestMap extends InsightRequestMap, LinksRequestMap {
   /** Sets what to index; `modelChanged` says the current index was built with other model settings. */
   configure: { params: { config: WorkerConfig }; result: { modelChanged: boolean } };
   /** Loads the saved index, if it exists, is intact and matches the settings. */
@@ -181,6 +182,7 @@ export const REQUEST_TYPES: readonly RequestType[] = [
   'save',
   'deleteIndex',
   ...INSIGHT_REQUEST_TYPES,
+  ...LINKS_REQUEST_TYPES,
 ];
 
 const isObject = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null;

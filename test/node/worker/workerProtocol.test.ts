@@ -28,6 +28,7 @@ describe('protocol message checks', () => {
       topics: true,
       mapData: true,
       mapQuery: true,
+      suggestLinks: true,
     };
     expect([...REQUEST_TYPES].sort()).toEqual(Object.keys(declared).sort());
     for (const type of REQUEST_TYPES) expect(isHostMessage({ kind: 'request', id: 1, type, params: {} })).toBe(true);
