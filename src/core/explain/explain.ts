@@ -89,7 +89,7 @@ export class QueryExplainer {
     let max = 0;
     if (this._lambda > 0) {
       const all = new Float64Array(_index.slots().length);
-      _index.bm25().scoreInto(lexQuery, all);
+      _index.bm25().scoreInto(lexQuery, all, _index.ranking.lengthNorm);
       for (const v of all) max = Math.max(max, v);
     }
     this._maxBm25 = max;
@@ -107,7 +107,9 @@ export class QueryExplainer {
       const concept = r ? this._conceptWeight * this._scale * dotF(r, d) : 0;
       const tf = countOf(doc, id);
       const lexical =
-        this._lambda > 0 && this._maxBm25 > 0 ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot)) / this._maxBm25 : 0;
+        this._lambda > 0 && this._maxBm25 > 0
+          ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot, this._index.ranking.lengthNorm)) / this._maxBm25
+          : 0;
       if (concept !== 0 || lexical !== 0) out.push({ term: vocab.termOf(id), share: concept + lexical, concept, lexical, inBoth: tf > 0 });
     });
     return finish(out, this._moved ? this._conceptWeight * dotF(this._moved, d) : 0);
@@ -144,7 +146,7 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
     if (max > 0)
       lexicalQuery.termIds.forEach((id, i) => {
         const tf = countOf(b, id);
-        if (tf > 0) entry(id).lexical += (mu * bm25.termScore(id, lexicalQuery.counts[i], tf, slotB)) / max;
+        if (tf > 0) entry(id).lexical += (mu * bm25.termScore(id, lexicalQuery.counts[i], tf, slotB, index.ranking.nearbyLengthNorm)) / max;
       });
   }
   const out: TermShare[] = [];

@@ -25,6 +25,9 @@ import {
   distinctiveTerms,
   mergeTerms,
   rocchio,
+  SPREAD_SAMPLE,
+  spreadOf,
+  spreadShare,
   stripPointing,
   type RankingOptions,
 } from './search/fusion.js';
@@ -69,7 +72,7 @@ export interface SearchPlan {
   readonly known: boolean;
   readonly lexical: Float64Array;
   readonly accept: (slot: number) => boolean;
-  /** The lexical share λ of this query (settings.lexicalBlend, raised by coverageBlend). */
+  /** The lexical share λ of this query (settings.lexicalBlend on standardised scores, fusion.ts spreadShare; raised by coverageBlend). */
   readonly lambda: number;
 }
 
@@ -249,7 +252,7 @@ export class LsiIndex {
     const lexical = this._scratch.subarray(0, n).fill(0);
     let lambda = this.settings.lexicalBlend;
     if (lambda > 0) {
-      this.bm25().scoreInto(lexQuery, lexical);
+      this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
       divideByMax(lexical);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
     }
@@ -259,6 +262,8 @@ export class LsiIndex {
     let vector = proj.vector;
     let scale = proj.knownTerms > 0 ? 1 : 0;
     let known = proj.knownTerms > 0;
+    const base = lambda;
+    if (known && r.spreadBlend && lambda > 0) lambda = this.spreadLambda(base, vector, lexical);
     if (known && r.feedbackDocs > 0 && r.feedbackWeight > 0) {
       const first = this.rank(vector, 1 - lambda, lambda, lexical, r.feedbackDocs, accept, this._scratch.subarray(n, 2 * n));
       const moved = rocchio(vector, [{ weight: r.feedbackWeight, vectors: first.ranked.map(({ slot }) => this.slotVector(slot)) }]);
@@ -271,6 +276,7 @@ export class LsiIndex {
       ]);
       if (moved) [vector, scale, known] = [moved.vector, scale * moved.scale, true];
     }
+    if (known && r.spreadBlend && base > 0) lambda = this.spreadLambda(base, vector, lexical);
     return { terms: q, lexicalQuery: lexQuery, vector, scale, known, lexical, accept, lambda };
   }
 
@@ -316,11 +322,22 @@ export class LsiIndex {
     const lexicalQuery = this.fileQuery(self, 1);
     let max = 0;
     if (this.ranking.nearbyLexical > 0) {
-      this.bm25().scoreInto(lexicalQuery, lexical);
+      this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm);
       lexical[self] = 0;
       max = divideByMax(lexical);
     }
     return { lexicalQuery, max, lexical };
+  }
+
+  /**
+   * The lexical share for standardised scores (fusion.ts, spreadShare): the spread of the concept
+   * cosines over evenly spaced files (every ⌊n/SPREAD_SAMPLE⌋-th: all files below 2·SPREAD_SAMPLE,
+   * fewer than 2·SPREAD_SAMPLE above), the lexical scores' over all files.
+   */
+  private spreadLambda(lambda: number, q: Float32Array, lexical: Float64Array): number {
+    const slots = this._slots;
+    const live = (j: number): boolean => slots[j] !== null;
+    return spreadShare(lambda, conceptSpread(this._rows.rows, this.k, slots, q), spreadOf(lexical, live));
   }
 
   /** The idf-weighted share of a query's terms that the concept model does not know (0…1). */
@@ -510,6 +527,26 @@ function divideByMax(a: Float64Array): number {
   for (let j = 0; j < a.length; j++) max = Math.max(max, a[j]);
   if (max > 0) for (let j = 0; j < a.length; j++) a[j] /= max;
   return max;
+}
+
+/** Standard deviation of v_j·q over every ⌊n/SPREAD_SAMPLE⌋-th occupied slot (all below 2·SPREAD_SAMPLE). */
+function conceptSpread(rows: Float32Array, k: number, slots: readonly (DocSlot | null)[], q: Float32Array): number {
+  const step = Math.max(1, Math.floor(slots.length / SPREAD_SAMPLE));
+  let s = 0;
+  let ss = 0;
+  let n = 0;
+  for (let j = 0; j < slots.length; j += step) {
+    if (slots[j] === null) continue;
+    let d = 0;
+    const o = j * k;
+    for (let c = 0; c < k; c++) d += rows[o + c] * q[c];
+    s += d;
+    ss += d * d;
+    n++;
+  }
+  if (n < 2) return 0;
+  const m = s / n;
+  return Math.sqrt(Math.max(0, ss / n - m * m));
 }
 
 /** out[j] = wa·a[j] + wb·b[j]. */

@@ -27,9 +27,12 @@ describe('explanations on CISI', () => {
   });
 
   it('search shares add up to each result’s blended score, and their parts to its concept and word-match parts', () => {
-    const lambda = index.settings.lexicalBlend;
     let checked = 0;
     for (const q of queries()) {
+      // The query's own lexical share (settings.lexicalBlend on standardised scores, fusion.ts).
+      const lambda = index.searchPlan(q).lambda;
+      expect(lambda).toBeGreaterThan(0);
+      expect(lambda).toBeLessThan(1);
       const explainer = new QueryExplainer(index, q);
       for (const hit of index.search(q, { top: 10 })) {
         const e = explainer.explain(hit.path);

@@ -70,11 +70,12 @@ describe('LsiIndex', () => {
 /**
  * Reference ranking, computed the plain way: cosine as a left-to-right sum over the stored unit
  * vectors; BM25 term by term from the raw counts (Robertson & Zaragoza 2009, eq. 3.15, idf
- * ln(1 + (N − df + 0.5)/(df + 0.5)), k1 = 1.2, b = 0.75); blended (1 − λ)·cosine + λ·BM25/max;
+ * ln(1 + (N − df + 0.5)/(df + 0.5)), k1 = 1.2, b = the ranking's lengthNorm for search and
+ * nearbyLengthNorm for nearby); blended (1 − λ)·cosine + λ·BM25/max, λ of search from the spreads;
  * every occupied slot sorted by score, ties by slot.
  */
-/** BM25 (k1 = 1.2, b = 0.75) of a query's terms in every slot, written out from the formula. */
-function plainBm25(index: LsiIndex, q: DocTerms): number[] {
+/** BM25 (k1 = 1.2, length normalisation b) of a query's terms in every slot, written out from the formula. */
+function plainBm25(index: LsiIndex, q: DocTerms, b: number): number[] {
   const slots = index.slots();
   const present = slots.filter((s) => s !== null).map((s) => s.terms);
   const avg = present.reduce((a, d) => a + d.length, 0) / present.length;
@@ -86,7 +87,7 @@ function plainBm25(index: LsiIndex, q: DocTerms): number[] {
       const tf = tfOf(s.terms, t);
       if (tf === 0) return;
       const idf = Math.log(1 + (present.length - df[i] + 0.5) / (df[i] + 0.5));
-      score += (q.counts[i] * idf * tf * 2.2) / (tf + 1.2 * (0.25 + (0.75 * s.terms.length) / avg));
+      score += (q.counts[i] * idf * tf * 2.2) / (tf + 1.2 * (1 - b + (b * s.terms.length) / avg));
     });
     return score;
   });
@@ -119,16 +120,16 @@ function plainBlend(
   return ranked.sort((x, y) => y.score - x.score || x.slot - y.slot).slice(0, top);
 }
 
-/** Search as documented: BM25 blend, then Rocchio with the first pass's 5 best files (weight 0.25). */
+/** Search as documented: BM25 blend (at the z-score share when spreadBlend is on), then Rocchio with the first pass's 5 best files (weight 0.25), share taken again. */
 function plainSearch(index: LsiIndex, text: string, top: number): { path: string; score: number }[] {
   const q = index.queryTerms(text);
   const proj = projectTerms(index.model, q);
-  const bm25 = plainBm25(index, q);
-  const lambda = index.settings.lexicalBlend;
-  const wc = proj.knownTerms > 0 ? 1 - lambda : 0;
+  const bm25 = plainBm25(index, q, index.ranking.lengthNorm);
+  const share = (v: Float32Array): number => spreadLambda(index, v, bm25);
   let vector = proj.vector;
   if (proj.knownTerms > 0) {
-    const first = plainBlend(index, vector, wc, lambda, bm25, 5);
+    const lambda = share(vector);
+    const first = plainBlend(index, vector, 1 - lambda, lambda, bm25, 5);
     const acc = Float64Array.from(vector);
     for (const f of first) {
       const v = index.vectorOf(f.path);
@@ -137,7 +138,34 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
     const norm = Math.hypot(...acc);
     vector = Float32Array.from(acc, (x) => x / norm);
   }
-  return plainBlend(index, vector, wc, lambda, bm25, top);
+  const lambda = proj.knownTerms > 0 ? share(vector) : index.settings.lexicalBlend;
+  return plainBlend(index, vector, proj.knownTerms > 0 ? 1 - lambda : 0, lambda, bm25, top);
+}
+
+/**
+ * The lexical share for z-scored parts, λ_q = (λ/σ_lex)/((1 − λ)/σ_cos + λ/σ_lex), σ the
+ * population standard deviations over every file (the index samples every ⌊n/2,048⌋-th file for
+ * σ_cos, all of them in these test indexes).
+ */
+function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[]): number {
+  const lambda = index.settings.lexicalBlend;
+  if (!index.ranking.spreadBlend) return lambda;
+  const max = Math.max(...bm25);
+  const live = index.slots().flatMap((s, j) => (s ? [j] : []));
+  const sd = (xs: number[]): number => {
+    const m = xs.reduce((a, x) => a + x, 0) / xs.length;
+    return Math.sqrt(xs.reduce((a, x) => a + (x - m) ** 2, 0) / xs.length);
+  };
+  const cos = live.map((j) => {
+    const v = index.vectorOf(index.slots()[j]!.meta.path);
+    let d = 0;
+    for (let c = 0; c < index.k; c++) d += q[c] * v[c];
+    return d;
+  });
+  const sl = sd(live.map((j) => (max > 0 ? bm25[j] / max : 0)));
+  const sc = sd(cos);
+  if (!(sl > 1e-12) || !(sc > 1e-12)) return lambda;
+  return lambda / sl / ((1 - lambda) / sc + lambda / sl);
 }
 
 /** Nearby as documented: ½ cosine + ½ BM25 of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other file's. */
@@ -153,13 +181,13 @@ function plainNearby(index: LsiIndex, path: string, top: number): { path: string
     counts: Float32Array.from(kept, (i) => d.counts[i]),
     length: 0,
   };
-  const lexical = plainBm25(index, query);
+  const lexical = plainBm25(index, query, index.ranking.nearbyLengthNorm);
   lexical[index.slots().findIndex((s) => s?.meta.path === path)] = 0;
   return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path);
 }
 
 describe('LsiIndex ranking against the plain formula', () => {
-  it('ranks search and nearby hits exactly as the plain computation, before and after fold-ins and removals', () => {
+  it('ranks search and nearby hits exactly as the plain computation, before and after fold-ins and removals, and with the z-score blend', () => {
     const b = new IndexBuilder();
     for (const d of cran.docs.slice(0, 500)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = b.build();
@@ -184,6 +212,9 @@ describe('LsiIndex ranking against the plain formula', () => {
     for (let i = 0; i < 3; i++) index.foldIn({ path: `new${i}`, size: 1, mtimeMs: 1 }, `${cran.docs[950 + i].text} quuxified frobnicator`);
     index.remove(cran.docs[10].id);
     index.remove('new1');
+    compare();
+    // The opt-in blend of standardised scores, with another length normalisation for search.
+    index.ranking = { ...index.ranking, spreadBlend: true, lengthNorm: 0.5 };
     compare();
     expect(
       index

@@ -8,9 +8,10 @@
  *   links to the other, links removed from the indexed text; nDCG@10.
  * - Search, known item in code: test/fixtures/rxjs-src (rxjs 7.8.2 from npm; doc comments' first
  *   sentences as queries, comments removed); MRR@10 overall and per quartile of target size.
- * One default configuration for all (index/search/fusion.ts). Where Undertone is still behind a
- * baseline, the check says so in its name and asserts the measured gap as a floor (README,
- * "Ranking checks"), so a regression fails and an improvement shows.
+ * One default configuration for all (index/search/fusion.ts), chosen by leaving one collection out
+ * (scripts/fixtures/rankingFusionExplore.ts). Where Undertone is still behind a baseline, the
+ * check says so in its name and asserts the measured gap as a floor (README, "Ranking checks"), so
+ * a regression fails and an improvement shows.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
@@ -26,14 +27,13 @@ const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): 
   Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
 
 describe('Nearby on linked documentation (nDCG@10)', () => {
-  it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 5% above TF-IDF cosine, above LSI; within 10% of BM25 of the whole page', () => {
+  it('CMake manual (1,906 pages, 1,243 linked pages as queries): above the best plain baseline (BM25 of the whole page), ≥ 15% above TF-IDF cosine', () => {
     const fx = loadRankingFixture('cmake-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`cmake-doc nearby nDCG@10 ${got.toFixed(4)}`);
     const b = fx.baselines!.methods;
-    expect(got).toBeGreaterThanOrEqual(1.05 * b.tfidf.ndcg10);
-    expect(got).toBeGreaterThanOrEqual(b.lsi.ndcg10);
-    expect(got).toBeGreaterThanOrEqual(0.9 * b.bm25.ndcg10);
+    expect(got).toBeGreaterThanOrEqual(1.15 * b.tfidf.ndcg10);
+    expect(got).toBeGreaterThanOrEqual(1.01 * best(fx.baselines, 'ndcg10'));
   });
 
   it('Django manual (258 pages, 248 linked pages as queries): above the best plain baseline', () => {

@@ -87,8 +87,8 @@ export class Bm25Scorer {
   private _totalLength = 0;
   /** Tokens per slot (0 for empty slots), kept beside the documents for the length norm. */
   private _lengths: Float64Array;
-  private _lengthNorm = new Float64Array(0);
-  private _normFresh = false;
+  /** k1·(1 − b + b·|d|/avgdl) per slot for each b asked for (nearby and search may differ); cleared on edits. */
+  private readonly _norms = new Map<number, Float64Array>();
   /** Every term's main list, once prepare() has finished. */
   private _block: PostingsBlock | null = null;
   private _building: PostingsBuild | null = null;
@@ -163,13 +163,16 @@ export class Bm25Scorer {
     }
     this._docsOf[slot] = terms;
     this._lengths[slot] = terms ? terms.length : 0;
-    this._normFresh = false;
+    this._norms.clear();
   }
 
-  /** Adds each document's BM25 score for the query terms (ids with their query counts) into out. */
-  scoreInto(query: DocTerms, out: Float64Array): void {
+  /**
+   * Adds each document's BM25 score for the query terms (ids with their query counts) into out,
+   * with length normalisation b (the scorer's own unless given).
+   */
+  scoreInto(query: DocTerms, out: Float64Array, b: number = this._opts.b): void {
     const k1 = this._opts.k1;
-    const norm = this.lengthNorm();
+    const norm = this.lengthNorm(b);
     const lists = this.postings(query.termIds);
     for (let i = 0; i < query.termIds.length; i++) {
       const p = lists[i];
@@ -180,11 +183,11 @@ export class Bm25Scorer {
     }
   }
 
-  /** BM25 contribution of one query term to one document (for explanations). */
-  termScore(termId: number, queryCount: number, tf: number, slot: number): number {
+  /** BM25 contribution of one query term to one document (for explanations), length normalisation b as in scoreInto. */
+  termScore(termId: number, queryCount: number, tf: number, slot: number, b: number = this._opts.b): number {
     if (tf <= 0) return 0;
     const k1 = this._opts.k1;
-    return (this.idf(termId) * queryCount * tf * (k1 + 1)) / (tf + this.lengthNorm()[slot]);
+    return (this.idf(termId) * queryCount * tf * (k1 + 1)) / (tf + this.lengthNorm(b)[slot]);
   }
 
   private idfOf(df: number): number {
@@ -235,14 +238,14 @@ export class Bm25Scorer {
   }
 
   /** k1·(1 − b + b·|d|/avgdl) per slot (0 for empty slots), recomputed after changes. */
-  private lengthNorm(): Float64Array {
-    if (this._normFresh) return this._lengthNorm;
+  private lengthNorm(b: number): Float64Array {
+    const kept = this._norms.get(b);
+    if (kept) return kept;
     const docs = this._docsOf;
-    if (this._lengthNorm.length !== docs.length) this._lengthNorm = new Float64Array(docs.length);
+    const norm = new Float64Array(docs.length);
     const avg = this._n > 0 ? this._totalLength / this._n : 1;
-    const { k1, b } = this._opts;
-    lengthNorms(docs, this._lengths, avg, k1, b, this._lengthNorm);
-    this._normFresh = true;
-    return this._lengthNorm;
+    lengthNorms(docs, this._lengths, avg, this._opts.k1, b, norm);
+    this._norms.set(b, norm);
+    return norm;
   }
 }

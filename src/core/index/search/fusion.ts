@@ -8,7 +8,10 @@
  *   relevance feedback (Salton & Buckley 1990, "Improving retrieval performance by relevance
  *   feedback"); 25–50 terms is common practice.
  * - Search: the concept cosine of the query, blended with max-normalised BM25
- *   (settings.lexicalBlend), after pseudo-relevance feedback: the query's concept vector moves
+ *   (settings.lexicalBlend); optionally (spreadBlend) that share applies to standardised scores
+ *   (spreadShare: each part weighed by the inverse of its standard deviation over the files,
+ *   Montague & Aslam 2001), so the raw share adapts to each query. Then pseudo-relevance
+ *   feedback: the query's concept vector moves
  *   towards the mean concept vector of the first pass's `feedbackDocs` best files, by
  *   `feedbackWeight` (Rocchio 1971, "Relevance feedback in information retrieval"; in the LSI
  *   space as in Dumais 1991, "Improving the retrieval of information from external sources").
@@ -17,7 +20,10 @@
  *   Salton & Buckley 1990 report as robust), and the liked files' top terms join the lexical query.
  * - Questions: filler words of questions ("happens", "tell me", "the code that") are dropped from a
  *   query when something else remains (our own list, common practice: stop words for queries).
- * Every choice was validated by leaving one collection out (README, "Ranking checks").
+ * - Length normalisation: BM25's b is 0.3 for nearby (a whole file's top terms as the query), below
+ *   the common 0.75 that search keeps; 0.75 let long pages crowd out the linked short ones.
+ * Every choice was validated by leaving one collection out (README, "Ranking checks";
+ * scripts/fixtures/rankingFusionExplore.ts).
  */
 import { STOP_WORDS } from '../../text/stopWords.js';
 import type { DocTerms } from '../../counting/termCounts.js';
@@ -42,8 +48,20 @@ export interface RankingOptions {
    * does not know (pruned as too rare or too common): λ_q = λ + (1 − λ)·u. @default false
    */
   coverageBlend: boolean;
-  /** BM25 length normalisation b (Robertson & Zaragoza 2009; 0.75 is their common value). @default 0.75 */
+  /**
+   * BM25 length normalisation b of search (Robertson & Zaragoza 2009 give 0.75 as common
+   * practice). @default 0.75
+   */
   lengthNorm: number;
+  /** BM25 length normalisation b of nearby's lexical part (a file's top terms as the query). @default 0.3 */
+  nearbyLengthNorm: number;
+  /**
+   * Search: weigh each part by the inverse of its score spread over the files (z-score fusion),
+   * so the blend share λ applies to standardised scores: λ_q = (λ/σ_lex)/((1 − λ)/σ_cos + λ/σ_lex).
+   * Off by default: with λ = 0.6 and b = 0.5 it puts code search and CACM within 1% of BM25 but
+   * costs CRAN, ADI and two demo questions (README, "Ranking checks"). @default false
+   */
+  spreadBlend: boolean;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -56,7 +74,41 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   dropFiller: true,
   coverageBlend: false,
   lengthNorm: 0.75,
+  nearbyLengthNorm: 0.3,
+  spreadBlend: false,
 });
+
+/** About how many files give the spread of concept scores (every file below twice this; common practice). */
+export const SPREAD_SAMPLE = 2048;
+
+/**
+ * The lexical share of a blend of standardised scores, as a share of the raw scores:
+ * (1 − λ)·(c − m_c)/σ_c + λ·(l − m_l)/σ_l ranks as (1 − λ_q)·c + λ_q·l with
+ * λ_q = (λ/σ_l)/((1 − λ)/σ_c + λ/σ_l) (score normalisation by mean and standard deviation,
+ * Montague & Aslam 2001, "Relevance score normalization for metasearch"). λ when a spread vanishes.
+ */
+export function spreadShare(lambda: number, sdConcept: number, sdLexical: number): number {
+  if (!(sdConcept > 1e-12) || !(sdLexical > 1e-12) || lambda <= 0 || lambda >= 1) return lambda;
+  const l = lambda / sdLexical;
+  return l / ((1 - lambda) / sdConcept + l);
+}
+
+/** Standard deviation of a[j] over the slots where live(j). */
+export function spreadOf(a: Float64Array, live: (j: number) => boolean): number {
+  let s = 0;
+  let ss = 0;
+  let n = 0;
+  for (let j = 0; j < a.length; j++) {
+    if (!live(j)) continue;
+    const x = a[j];
+    s += x;
+    ss += x * x;
+    n++;
+  }
+  if (n < 2) return 0;
+  const m = s / n;
+  return Math.sqrt(Math.max(0, ss / n - m * m));
+}
 
 /**
  * Words that ask rather than say what is sought (beyond the stop words, which go anyway). Our own

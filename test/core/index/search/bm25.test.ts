@@ -43,8 +43,8 @@ function referenceScores(docs: readonly (DocTerms | null)[], query: DocTerms): n
  * bit for bit: norm_j = k1·(1 − b + b·|d_j|/avgdl), per query term in query order
  * out_j += (idf·qtf)·tf·(k1 + 1) / (tf + norm_j).
  */
-function exactScores(docs: readonly (DocTerms | null)[], query: DocTerms): Float64Array {
-  const { k1, b } = DEFAULT_BM25_OPTIONS;
+function exactScores(docs: readonly (DocTerms | null)[], query: DocTerms, b = DEFAULT_BM25_OPTIONS.b): Float64Array {
+  const { k1 } = DEFAULT_BM25_OPTIONS;
   const present = docs.filter((d): d is DocTerms => d !== null);
   const n = present.length;
   const avg = n > 0 ? present.reduce((s, d) => s + d.length, 0) / n : 1;
@@ -63,9 +63,9 @@ function exactScores(docs: readonly (DocTerms | null)[], query: DocTerms): Float
   return out;
 }
 
-const scoresOf = (scorer: Bm25Scorer, query: DocTerms, n: number): Float64Array => {
+const scoresOf = (scorer: Bm25Scorer, query: DocTerms, n: number, b?: number): Float64Array => {
   const out = new Float64Array(n);
-  scorer.scoreInto(query, out);
+  scorer.scoreInto(query, out, b);
   return out;
 };
 
@@ -87,6 +87,21 @@ describe('Bm25Scorer', () => {
       ref.forEach((r, j) => expect(got[j]).toBeCloseTo(r, 10));
       expect(sameBits(got, exactScores(docs, q))).toBe(true);
     }
+  });
+
+  it('scores with a length normalisation b given per call as a scorer made with that b, also after an edit', () => {
+    const docs: (DocTerms | null)[] = all.slice(0, 150);
+    const scorer = new Bm25Scorer(docs);
+    const at03 = new Bm25Scorer(docs, { b: 0.3 });
+    for (const q of queries.slice(0, 4)) {
+      expect(sameBits(scoresOf(scorer, q, docs.length, 0.3), exactScores(docs, q, 0.3))).toBe(true);
+      expect(sameBits(scoresOf(scorer, q, docs.length, 0.3), scoresOf(at03, q, docs.length))).toBe(true);
+      expect(sameBits(scoresOf(scorer, q, docs.length), exactScores(docs, q))).toBe(true);
+    }
+    const edited = docs.slice();
+    edited[5] = all[400];
+    for (const x of [scorer, at03]) x.setDocument(5, all[400]);
+    expect(sameBits(scoresOf(scorer, queries[0], docs.length, 0.3), exactScores(edited, queries[0], 0.3))).toBe(true);
   });
 
   it('after replacing, removing and adding documents scores the same bits as a scorer built afresh, for terms first asked before and after the changes', () => {
@@ -146,7 +161,7 @@ describe('Bm25Scorer', () => {
         const q = index.queryTerms(text);
         const a = scoresOf(index.bm25(), q, index.slots().length);
         expect(sameBits(a, scoresOf(copy.bm25(), copy.queryTerms(text), copy.slots().length))).toBe(true);
-        expect(sameBits(a, exactScores(docsOf(index), q))).toBe(true);
+        expect(sameBits(a, exactScores(docsOf(index), q, index.ranking.lengthNorm))).toBe(true);
       }
     };
     for (const text of qs.slice(0, 6)) copy.search(text); // some terms cached before the edits

@@ -3,7 +3,15 @@
  * hand from the formulas in the file's header) and the Rocchio formula (Rocchio 1971).
  */
 import { describe, expect, it } from 'vitest';
-import { distinctiveTerms, mergeTerms, QUESTION_FILLER, rocchio, stripPointing } from '../../../../src/core/index/search/fusion.js';
+import {
+  distinctiveTerms,
+  mergeTerms,
+  QUESTION_FILLER,
+  rocchio,
+  spreadOf,
+  spreadShare,
+  stripPointing,
+} from '../../../../src/core/index/search/fusion.js';
 import { STOP_WORDS } from '../../../../src/core/text/stopWords.js';
 
 const doc = { termIds: Int32Array.from([1, 4, 7, 9]), counts: Float32Array.from([3, 1, 1, 5]), length: 10 };
@@ -43,5 +51,30 @@ describe('fusion helpers', () => {
     expect(QUESTION_FILLER.some((w) => STOP_WORDS.has(w))).toBe(false);
     expect(stripPointing('where is the code that sends refunds')).toBe('where is the that sends refunds');
     expect(stripPointing('code review of the file format')).toBe('code review of the file format');
+  });
+
+  it('spreadShare: the raw-score blend it gives is the z-score blend up to a positive factor and a constant (Montague & Aslam 2001)', () => {
+    // Seeded values (a linear congruential generator, common practice), skewed lexical scores.
+    let x = 12345;
+    const next = (): number => (x = (x * 1103515245 + 12345) % 2147483648) / 2147483648;
+    const c = Float64Array.from({ length: 200 }, () => 0.2 + 0.5 * next());
+    const l = Float64Array.from({ length: 200 }, () => next() ** 4);
+    const all = (): boolean => true;
+    const mean = (a: Float64Array): number => a.reduce((s, v) => s + v, 0) / a.length;
+    const sd = (a: Float64Array): number => Math.sqrt(mean(Float64Array.from(a, (v) => (v - mean(a)) ** 2)));
+    expect(spreadOf(c, all)).toBeCloseTo(sd(c), 12);
+    const lambda = 0.6;
+    const lq = spreadShare(lambda, sd(c), sd(l));
+    const z = Float64Array.from(c, (_, j) => (1 - lambda) * ((c[j] - mean(c)) / sd(c)) + lambda * ((l[j] - mean(l)) / sd(l)));
+    const raw = Float64Array.from(c, (_, j) => (1 - lq) * c[j] + lq * l[j]);
+    // raw = f·z + const with f > 0: the same for every pair of files.
+    const f = (raw[1] - raw[0]) / (z[1] - z[0]);
+    expect(f).toBeGreaterThan(0);
+    for (let j = 2; j < 200; j++) expect(raw[j] - raw[0]).toBeCloseTo(f * (z[j] - z[0]), 12);
+    // The skewed lexical scores spread less here, so they get more than λ of the raw blend.
+    expect(sd(l) < sd(c)).toBe(lq > lambda);
+    // Degenerate spreads leave λ as it is; only live slots count.
+    expect(spreadShare(lambda, 0, sd(l))).toBe(lambda);
+    expect(spreadOf(Float64Array.from([1, 3, 100]), (j) => j < 2)).toBeCloseTo(1, 12);
   });
 });
