@@ -27,6 +27,9 @@ def parse(argv):
     ap.add_argument("--k", default="auto", help="concept dimensions (default auto, as the index)")
     ap.add_argument("--weighting", default="log-entropy", choices=["log-entropy", "tfidf"])
     ap.add_argument("--power-iterations", type=int, default=5, help="as the index's default (5)")
+    ap.add_argument("--tolerance", type=float, help="go on with power iterations until the top-k subspace moves by less than this "
+                    "(sine of the largest principal angle between two steps; e.g. 1e-4); default: exactly --power-iterations")
+    ap.add_argument("--max-power-iterations", type=int, default=60, help="with --tolerance: stop with an error after this many (default 60)")
     ap.add_argument("--seed", type=int, default=20261201)
     ap.add_argument("--max-file-size", type=int, help="skip larger files (default: the index's, 1 MiB)")
     ap.add_argument("--retries", type=int, default=2, help="re-runs of a failed count task (default 2)")
@@ -73,7 +76,8 @@ def main(argv=None):
         r = run_job(client, folder=a.folder, paths=paths, undertone=a.undertone, work_dir=work_dir, k=a.k,
                     scheme=a.weighting, power_iterations=a.power_iterations, seed=a.seed, shard_files=a.shard_files,
                     retries=a.retries, with_file_vectors=not a.no_file_vectors, max_file_size=a.max_file_size,
-                    drill_kill_worker_after=a.drill_kill_worker_after)
+                    drill_kill_worker_after=a.drill_kill_worker_after,
+                    tolerance=a.tolerance, max_power_iterations=a.max_power_iterations)
         if a.dump_matrix:
             dump_matrix(client, r, a.dump_matrix)
     except JobError as e:
@@ -89,7 +93,7 @@ def main(argv=None):
         header_extra={
             "createdAt": datetime.now(timezone.utc).isoformat(), "producer": "undertone_cluster (Dask svd_compressed)",
             "weighting": a.weighting, "tokenize": {"stem": True, "keepCompounds": True}, "prune": weighting.DEFAULT_PRUNE,
-            "powerIterations": a.power_iterations, "oversampling": r["oversampling"], "seed": a.seed,
+            "powerIterations": r["power_iterations"], "oversampling": r["oversampling"], "seed": a.seed,
             "documents": len(r["files"]), "nonZeros": r["nonZeros"], "frobeniusSquared": r["frobeniusSquared"],
         })
     total = time.perf_counter() - t0
@@ -98,7 +102,7 @@ def main(argv=None):
         with open(a.report, "w", encoding="utf-8") as f:
             json.dump({"files": len(r["files"]), "skipped": len(r["skipped"]), "terms": len(r["terms"]), "k": r["k"],
                        "nonZeros": r["nonZeros"], "workers": r["workers"], "seconds": {**r["timings"], "total": total},
-                       "singularValues": [float(x) for x in r["singular_values"]], "killedWorker": r["killed_worker"], "svdBytesSent": r["svd_bytes_sent"], "workerPeakRss": r["worker_peak_rss"], "oversampling": r["oversampling"], "nonZerosWeighted": r["nonZeros"], "countAttempts": r["count_attempts"], "shares": r["shares"],
+                       "singularValues": [float(x) for x in r["singular_values"]], "killedWorker": r["killed_worker"], "svdBytesSent": r["svd_bytes_sent"], "workerPeakRss": r["worker_peak_rss"], "oversampling": r["oversampling"], "nonZerosWeighted": r["nonZeros"], "countAttempts": r["count_attempts"], "powerIterations": r["power_iterations"], "subspaceMoves": r["subspace_moves"], "shares": r["shares"],
                        "modelBytes": size}, f)
     return 0
 

@@ -79,11 +79,10 @@ def note(msg):
 
 def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log-entropy", prune=None,
             power_iterations=5, seed=20261201, shard_files=2000, retries=2, with_file_vectors=True,
-            max_file_size=None, drill_kill_worker_after=None):
+            max_file_size=None, drill_kill_worker_after=None, tolerance=None, max_power_iterations=60):
     """Runs the whole job on a connected dask.distributed Client; returns a dict of results."""
     import dask
     import dask.array as da
-    from dask.array.linalg import svd_compressed
     from distributed import as_completed, wait
 
     t0 = time.perf_counter()
@@ -181,9 +180,8 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
     sent_before = sum(client.run(_bytes_sent).values())
     kk = weighting.choose_k(k, n, m)
     p = weighting.default_oversampling(kk)
-    u, s, vt = svd_compressed(x, kk, iterator="QR", n_power_iter=power_iterations, n_oversamples=p,
-                              seed=seed, compute=False, coerce_signs=False)
-    u, s, vt = dask.compute(u, s, vt)
+    u, s, vt, steps, angles = decompose(client, x, kk, p, power_iterations=power_iterations, seed=seed,
+                                        tolerance=tolerance, max_power_iterations=max_power_iterations)
     timings["svd"] = time.perf_counter() - t3
     svd_bytes = sum(client.run(_bytes_sent).values()) - sent_before
     peak_rss = client.run(_peak_rss)
@@ -192,7 +190,7 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
     file_vectors = file_vectors * s
     norms = np.linalg.norm(file_vectors, axis=1, keepdims=True)
     file_vectors = file_vectors / np.where(norms > 0, norms, 1.0)
-    note(f"rank-{kk} SVD ({power_iterations} power iterations, oversampling {p}) in {timings['svd']:.1f} s; "
+    note(f"rank-{kk} SVD ({steps} power iterations, oversampling {p}) in {timings['svd']:.1f} s; "
          f"sigma_1 = {s[0]:.4f}, sigma_k = {s[-1]:.4f}")
     return {
         "files": counted, "skipped": skipped, "terms": kept_terms, "weights": g, "k": kk,
@@ -200,8 +198,79 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
         "file_vectors": file_vectors if with_file_vectors else None, "nonZeros": int(nnz),
         "relaxed": relaxed, "blocks": blocks, "rows": rows, "timings": timings,
         "frobeniusSquared": float(sum(client.gather([client.submit(lambda b: float(b.multiply(b).sum()), b, pure=False) for b in blocks]))),
-        "killed_worker": killed, "workers": workers_at_start, "svd_bytes_sent": int(svd_bytes), "worker_peak_rss": [int(v) for v in peak_rss.values()], "count_attempts": attempts, "shares": len(shares),
+        "killed_worker": killed, "workers": workers_at_start, "svd_bytes_sent": int(svd_bytes), "worker_peak_rss": [int(v) for v in peak_rss.values()], "count_attempts": attempts, "power_iterations": steps, "subspace_moves": angles, "shares": len(shares),
     }
+
+
+def decompose(client, x, k, p, *, power_iterations, seed, tolerance=None, max_power_iterations=60):
+    """Rank-k SVD of the chunked sparse array x (files x terms); returns (u, s, vt, iterations, angles).
+
+    Without a tolerance: dask.array.linalg.svd_compressed (Halko, Martinsson & Tropp 2011, as Dask
+    implements it) with iterator="QR" and `power_iterations` power steps.
+    With a tolerance: the same steps as svd_compressed's (its Gaussian sketch from the same
+    RandomState, each half step re-orthonormalised by Dask's tsqr, its final small SVD of Q^T X),
+    but the power steps go on until the top-k subspace stops moving: after each step the Ritz
+    vectors of the current basis (Halko et al. 2011, Algorithm 5.1 on the basis; Saad 2011,
+    "Numerical Methods for Large Eigenvalue Problems", section 5.1, subspace iteration) are compared
+    with the previous step's by the sine of their largest principal angle (Golub & Van Loan 2013,
+    section 6.4.3): it stops when that sine is below the tolerance (at least `power_iterations`
+    steps, at most `max_power_iterations`). Subspace iteration brings the top-k subspace to the
+    true one at the rate (sigma_{l+1} / sigma_k)^(2q), so a second run from another seed (or the
+    index with as many steps) reaches the same subspace: the rankings then agree.
+    """
+    import dask
+    import dask.array as da
+    from dask.array.linalg import svd_compressed, tsqr
+    from distributed import wait
+
+    if tolerance is None:
+        u, s, vt = svd_compressed(x, k, iterator="QR", n_power_iter=power_iterations, n_oversamples=p,
+                                  seed=seed, compute=False, coerce_signs=False)
+        u, s, vt = dask.compute(u, s, vt)
+        return u, s, vt, power_iterations, []
+    n, m = x.shape
+    l = min(k + p, min(n, m))
+    state = da.random.RandomState(seed)
+    omega = state.standard_normal(size=(m, l), chunks=(x.chunks[1], (l,)))
+    q, _ = tsqr(x.dot(omega))
+    q = q.persist()
+    wait(q)
+    angles = []
+    prev = None  # (q, top-k Ritz coefficients) of the previous step
+    steps = 0
+    while True:
+        w = x.T.dot(q).persist()  # terms x l: the next half step's product, and the Ritz problem's
+        wait(w)
+        if prev is None:
+            (g,) = dask.compute(w.T.dot(w))  # q^T X X^T q (l x l)
+        else:
+            g, cross = dask.compute(w.T.dot(w), prev[0].T.dot(q))  # and q_old^T q_new (l x l), one round trip
+        lam, e = np.linalg.eigh(g)
+        e_k = e[:, np.argsort(lam)[::-1][:k]]  # the top-k Ritz vectors are q e_k
+        if prev is not None:
+            cos = np.linalg.svd(prev[1].T @ cross @ e_k, compute_uv=False)  # cosines of the principal angles
+            sine = float(np.sqrt(max(0.0, 1.0 - min(1.0, float(cos.min())) ** 2)))
+            angles.append(sine)
+            note(f"power step {steps}: the top-{k} subspace moved by sin {sine:.2e}")
+            if steps >= power_iterations and sine < tolerance:
+                break
+        if steps >= max_power_iterations:
+            last = f"{angles[-1]:.2e}" if angles else "unknown"
+            raise JobError(f"the top-{k} subspace did not settle below {tolerance:g} in {max_power_iterations} power "
+                           f"steps (last move {last}); raise --max-power-iterations or the tolerance")
+        prev = (q, e_k)
+        z, _ = tsqr(w)
+        q, _ = tsqr(x.dot(z))
+        q = q.persist()
+        wait(q)
+        del w
+        steps += 1
+    # Final small SVD as svd_compressed computes it: (Q^T X)^T = X^T Q = V S U_b^T, U = Q U_b
+    # (X^T Q for the final Q is w, already on the cluster).
+    v, s, ub = tsqr(w, compute_svd=True)
+    u = q.dot(ub.T)
+    u, s, vt = dask.compute(u[:, :k], s[:k], v.T[:k, :])
+    return u, s, vt, steps, angles
 
 
 def _bytes_sent(dask_worker):
