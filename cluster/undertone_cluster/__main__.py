@@ -21,6 +21,7 @@ def parse(argv):
     ap.add_argument("--out", required=True, help="the concept model file to write")
     ap.add_argument("--undertone", default="undertone", help='how workers run the command line, e.g. "node /opt/undertone/dist/cli.js"')
     ap.add_argument("--scheduler", help="address of a running Dask scheduler (tcp://host:8786); default: a local cluster")
+    ap.add_argument("--dashboard-address", default=":8787", help="local cluster: where the scheduler's dashboard listens (default :8787; needs bokeh)")
     ap.add_argument("--local-workers", type=int, default=2, help="worker processes of the local cluster (default 2)")
     ap.add_argument("--files", help="the files to index, relative to FOLDER, one per line (default: `undertone count FOLDER --list`)")
     ap.add_argument("--shard-files", type=int, default=2000, help="files per counting shard (default 2000)")
@@ -39,6 +40,14 @@ def parse(argv):
     ap.add_argument("--report", help="write timings and figures as JSON here")
     ap.add_argument("--drill-kill-worker-after", type=int, help="drill: kill one worker process after this many shards are counted (the job must recover)")
     return ap.parse_args(argv)
+
+
+def have_bokeh():
+    try:
+        import bokeh  # noqa: F401  (the dashboard needs it)
+    except ImportError:
+        return False
+    return True
 
 
 def main(argv=None):
@@ -63,15 +72,14 @@ def main(argv=None):
     if a.scheduler:
         client = Client(a.scheduler)
     else:
-        try:
-            import bokeh  # noqa: F401  (the dashboard needs it; Debian 12 does not package it)
-            dashboard = ":0"
-        except ImportError:
-            dashboard = None
-        cluster = LocalCluster(n_workers=a.local_workers, threads_per_worker=1, processes=True, dashboard_address=dashboard)
+        cluster = LocalCluster(n_workers=a.local_workers, threads_per_worker=1, processes=True,
+                               dashboard_address=a.dashboard_address if have_bokeh() else None)
         client = Client(cluster)
-    if client.dashboard_link:
-        note(f"dashboard: {client.dashboard_link}")
+    if have_bokeh() or a.scheduler:
+        note(f"dashboard: {client.dashboard_link} (needs bokeh on the scheduler)")
+    else:
+        note("no dashboard: bokeh is not installed (Debian 12 does not package it); "
+             "progress below comes from the scheduler's progress feed")
     try:
         r = run_job(client, folder=a.folder, paths=paths, undertone=a.undertone, work_dir=work_dir, k=a.k,
                     scheme=a.weighting, power_iterations=a.power_iterations, seed=a.seed, shard_files=a.shard_files,

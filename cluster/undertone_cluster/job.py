@@ -2,7 +2,8 @@
 with Dask's randomized SVD, write the portable concept model.
 
 Stages (each a set of named Dask tasks, visible in the scheduler's dashboard when bokeh is
-installed, and reported on stderr):
+installed; their progress is read from the scheduler's Progress plugin and printed on stderr,
+progress.py):
   1. count-shard-N: each worker runs `undertone count` on its share of the files (contiguous runs
      of the sorted file list) and keeps the counts in memory. A task whose worker dies is run
      again elsewhere by the scheduler (Dask reschedules lost tasks; `retries` also re-runs a
@@ -26,6 +27,7 @@ import numpy as np
 import scipy.sparse as sp
 
 from . import weighting
+from .progress import StageProgress
 from .shards import Shard, count_share
 
 
@@ -101,18 +103,32 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
                       key=f"count-shard-{i:05d}", retries=retries, pure=False)
         for i, share in enumerate(shares)
     ]
+    counting = StageProgress(client, "count", futures)
     done = 0
     killed = False
     for fut in as_completed(futures):
         if fut.status == "error":
-            raise JobError(f"counting failed: {fut.exception()}")
+            i = futures.index(fut)
+            err = fut.exception()
+            if type(err).__name__ == "KilledWorker":
+                raise JobError(f"counting stopped: shard {i} ({len(shares[i])} files from {shares[i][0]}) took down "
+                               f"its worker every time it ran (the scheduler's allowed-failures); no model is written "
+                               f"rather than one without those files")
+            raise JobError(f"counting failed in shard {i} ({len(shares[i])} files from {shares[i][0]}) after "
+                           f"{retries} retries: {err}")
         done += 1
         if drill_kill_worker_after is not None and done >= drill_kill_worker_after and not killed and done < len(futures):
             killed = _kill_one_worker(client, futures)
         if done % max(1, len(futures) // 10) == 0 or done == len(futures):
             note(f"counted {done}/{len(futures)} shares")
+    counting.stop()
     attempts_log = os.path.join(work_dir, "attempts.log")
-    attempts = len(open(attempts_log, encoding="utf-8").read().split()) if os.path.exists(attempts_log) else len(futures)
+    tried = open(attempts_log, encoding="utf-8").read().split() if os.path.exists(attempts_log) else []
+    attempts = len(tried) if tried else len(futures)
+    again = sorted({int(i) for i in tried if tried.count(i) > 1})
+    if again:
+        note(f"{len(again)} share(s) counted again after a worker was lost or a count failed: "
+             + ", ".join(f"{i} ({len(shares[i])} files from {shares[i][0]})" for i in again))
     stats = client.gather([client.submit(_stats, f, key=f"stats-{i:05d}", pure=False) for i, f in enumerate(futures)])
     timings["count"] = time.perf_counter() - t0
 
@@ -166,7 +182,9 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
 
     # 4. Weighted blocks: the chunked sparse array.
     blocks = [client.submit(_weigh, f, mappings[i], g_f, scheme, m, key=f"weigh-shard-{i:05d}", pure=False) for i, f in enumerate(futures)]
+    weighing = StageProgress(client, "weigh", blocks)
     wait(blocks)
+    weighing.stop()
     del futures
     rows = [len(st["files"]) for st in stats]
     arrays = [da.from_delayed(b, shape=(r, m), dtype=np.float64, meta=CsrBlock((0, m))) for b, r in zip(blocks, rows) if r > 0]
@@ -233,14 +251,12 @@ def decompose(client, x, k, p, *, power_iterations, seed, tolerance=None, max_po
     state = da.random.RandomState(seed)
     omega = state.standard_normal(size=(m, l), chunks=(x.chunks[1], (l,)))
     q, _ = tsqr(x.dot(omega))
-    q = q.persist()
-    wait(q)
+    q, w = dask.persist(q, x.T.dot(q))  # w = X^T q (terms x l): the next half step's product, and the Ritz problem's
+    wait([q, w])
     angles = []
     prev = None  # (q, top-k Ritz coefficients) of the previous step
     steps = 0
     while True:
-        w = x.T.dot(q).persist()  # terms x l: the next half step's product, and the Ritz problem's
-        wait(w)
         if prev is None:
             (g,) = dask.compute(w.T.dot(w))  # q^T X X^T q (l x l)
         else:
@@ -261,9 +277,8 @@ def decompose(client, x, k, p, *, power_iterations, seed, tolerance=None, max_po
         prev = (q, e_k)
         z, _ = tsqr(w)
         q, _ = tsqr(x.dot(z))
-        q = q.persist()
-        wait(q)
-        del w
+        q, w = dask.persist(q, x.T.dot(q))  # one round trip per power step, plus the small reductions
+        wait([q, w])
         steps += 1
     # Final small SVD as svd_compressed computes it: (Q^T X)^T = X^T Q = V S U_b^T, U = Q U_b
     # (X^T Q for the final Q is w, already on the cluster).

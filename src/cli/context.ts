@@ -74,7 +74,12 @@ export function indexFileFrom(folder: string, flags: Flags): string {
 
 /** The settings a user can give on the command line, which the saved index remembers. */
 const REMEMBERED = ['k', 'weighting', 'seed', 'powerIterations'] as const;
-const FLAG_OF: Record<(typeof REMEMBERED)[number], string> = { k: 'k', weighting: 'weighting', seed: 'seed', powerIterations: 'power-iterations' };
+const FLAG_OF: Record<(typeof REMEMBERED)[number], string> = {
+  k: 'k',
+  weighting: 'weighting',
+  seed: 'seed',
+  powerIterations: 'power-iterations',
+};
 
 /**
  * The settings for this run: the ones the folder's saved index was built with, overridden by
