@@ -17,7 +17,9 @@ progress.py):
      worker): one row-chunk of the chunked sparse array (files x kept terms).
   5. dask.array.linalg.svd_compressed (Halko, Martinsson & Tropp 2011 as Dask implements it) with
      iterator="QR" (re-orthonormalised power iterations, like the index's), the index's number of
-     power iterations, its oversampling, and a seed.
+     power iterations, its oversampling, and a seed; or, with a tolerance, the same power steps
+     until the top-k subspace settles (decompose below), so that any second run (another seed, or
+     the local index with as many steps) holds the same subspace and ranks the same.
 """
 import os
 import sys
