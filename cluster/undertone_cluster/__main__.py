@@ -39,7 +39,10 @@ def parse(argv):
     ap.add_argument("--dump-matrix", help="also write the weighted matrix as DIR/matrix.mtx, terms.txt, files.txt (as `undertone export`)")
     ap.add_argument("--report", help="write timings and figures as JSON here")
     ap.add_argument("--drill-kill-worker-after", type=int, help="drill: kill one worker process after this many shards are counted (the job must recover)")
-    return ap.parse_args(argv)
+    a = ap.parse_args(argv)
+    if a.tolerance is not None and not 1e-6 <= a.tolerance < 1:
+        ap.error(f"--tolerance must be between 1e-6 and 1 (the sine of an angle, measured to about 1e-7), got {a.tolerance:g}")
+    return a
 
 
 def have_bokeh():

@@ -233,7 +233,9 @@ def decompose(client, x, k, p, *, power_iterations, seed, tolerance=None, max_po
     vectors of the current basis (Halko et al. 2011, Algorithm 5.1 on the basis; Saad 2011,
     "Numerical Methods for Large Eigenvalue Problems", section 5.1, subspace iteration) are compared
     with the previous step's by the sine of their largest principal angle (Golub & Van Loan 2013,
-    section 6.4.3): it stops when that sine is below the tolerance (at least `power_iterations`
+    section 6.4.3; the section numbers of both books are cited from memory): it stops when that
+    sine (computed as sqrt(1 - cos^2), so nothing below about 1e-7 is measurable) is below the
+    tolerance (at least `power_iterations`
     steps, at most `max_power_iterations`). Subspace iteration brings the top-k subspace to the
     true one at the rate (sigma_{l+1} / sigma_k)^(2q), so a second run from another seed (or the
     index with as many steps) reaches the same subspace: the rankings then agree.
