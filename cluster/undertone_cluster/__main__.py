@@ -21,12 +21,16 @@ def parse(argv):
     ap.add_argument("--out", required=True, help="the concept model file to write")
     ap.add_argument("--undertone", default="undertone", help='how workers run the command line, e.g. "node /opt/undertone/dist/cli.js"')
     ap.add_argument("--scheduler", help="address of a running Dask scheduler (tcp://host:8786); default: a local cluster")
+    ap.add_argument("--dashboard-address", default=":8787", help="local cluster: where the scheduler's dashboard listens (default :8787; needs bokeh)")
     ap.add_argument("--local-workers", type=int, default=2, help="worker processes of the local cluster (default 2)")
     ap.add_argument("--files", help="the files to index, relative to FOLDER, one per line (default: `undertone count FOLDER --list`)")
     ap.add_argument("--shard-files", type=int, default=2000, help="files per counting shard (default 2000)")
     ap.add_argument("--k", default="auto", help="concept dimensions (default auto, as the index)")
     ap.add_argument("--weighting", default="log-entropy", choices=["log-entropy", "tfidf"])
     ap.add_argument("--power-iterations", type=int, default=5, help="as the index's default (5)")
+    ap.add_argument("--tolerance", type=float, help="go on with power iterations until the top-k subspace moves by less than this "
+                    "(sine of the largest principal angle between two steps; e.g. 1e-4); default: exactly --power-iterations")
+    ap.add_argument("--max-power-iterations", type=int, default=60, help="with --tolerance: stop with an error after this many (default 60)")
     ap.add_argument("--seed", type=int, default=20261201)
     ap.add_argument("--max-file-size", type=int, help="skip larger files (default: the index's, 1 MiB)")
     ap.add_argument("--retries", type=int, default=2, help="re-runs of a failed count task (default 2)")
@@ -35,7 +39,18 @@ def parse(argv):
     ap.add_argument("--dump-matrix", help="also write the weighted matrix as DIR/matrix.mtx, terms.txt, files.txt (as `undertone export`)")
     ap.add_argument("--report", help="write timings and figures as JSON here")
     ap.add_argument("--drill-kill-worker-after", type=int, help="drill: kill one worker process after this many shards are counted (the job must recover)")
-    return ap.parse_args(argv)
+    a = ap.parse_args(argv)
+    if a.tolerance is not None and not 1e-6 <= a.tolerance < 1:
+        ap.error(f"--tolerance must be between 1e-6 and 1 (the sine of an angle, measured to about 1e-7), got {a.tolerance:g}")
+    return a
+
+
+def have_bokeh():
+    try:
+        import bokeh  # noqa: F401  (the dashboard needs it)
+    except ImportError:
+        return False
+    return True
 
 
 def main(argv=None):
@@ -60,20 +75,20 @@ def main(argv=None):
     if a.scheduler:
         client = Client(a.scheduler)
     else:
-        try:
-            import bokeh  # noqa: F401  (the dashboard needs it; Debian 12 does not package it)
-            dashboard = ":0"
-        except ImportError:
-            dashboard = None
-        cluster = LocalCluster(n_workers=a.local_workers, threads_per_worker=1, processes=True, dashboard_address=dashboard)
+        cluster = LocalCluster(n_workers=a.local_workers, threads_per_worker=1, processes=True,
+                               dashboard_address=a.dashboard_address if have_bokeh() else None)
         client = Client(cluster)
-    if client.dashboard_link:
-        note(f"dashboard: {client.dashboard_link}")
+    if have_bokeh() or a.scheduler:
+        note(f"dashboard: {client.dashboard_link} (needs bokeh on the scheduler)")
+    else:
+        note("no dashboard: bokeh is not installed (Debian 12 does not package it); "
+             "progress below comes from the scheduler's progress feed")
     try:
         r = run_job(client, folder=a.folder, paths=paths, undertone=a.undertone, work_dir=work_dir, k=a.k,
                     scheme=a.weighting, power_iterations=a.power_iterations, seed=a.seed, shard_files=a.shard_files,
                     retries=a.retries, with_file_vectors=not a.no_file_vectors, max_file_size=a.max_file_size,
-                    drill_kill_worker_after=a.drill_kill_worker_after)
+                    drill_kill_worker_after=a.drill_kill_worker_after,
+                    tolerance=a.tolerance, max_power_iterations=a.max_power_iterations)
         if a.dump_matrix:
             dump_matrix(client, r, a.dump_matrix)
     except JobError as e:
@@ -89,7 +104,7 @@ def main(argv=None):
         header_extra={
             "createdAt": datetime.now(timezone.utc).isoformat(), "producer": "undertone_cluster (Dask svd_compressed)",
             "weighting": a.weighting, "tokenize": {"stem": True, "keepCompounds": True}, "prune": weighting.DEFAULT_PRUNE,
-            "powerIterations": a.power_iterations, "oversampling": r["oversampling"], "seed": a.seed,
+            "powerIterations": r["power_iterations"], "oversampling": r["oversampling"], "seed": a.seed,
             "documents": len(r["files"]), "nonZeros": r["nonZeros"], "frobeniusSquared": r["frobeniusSquared"],
         })
     total = time.perf_counter() - t0
@@ -98,7 +113,7 @@ def main(argv=None):
         with open(a.report, "w", encoding="utf-8") as f:
             json.dump({"files": len(r["files"]), "skipped": len(r["skipped"]), "terms": len(r["terms"]), "k": r["k"],
                        "nonZeros": r["nonZeros"], "workers": r["workers"], "seconds": {**r["timings"], "total": total},
-                       "singularValues": [float(x) for x in r["singular_values"]], "killedWorker": r["killed_worker"], "svdBytesSent": r["svd_bytes_sent"], "workerPeakRss": r["worker_peak_rss"], "oversampling": r["oversampling"], "nonZerosWeighted": r["nonZeros"], "countAttempts": r["count_attempts"], "shares": r["shares"],
+                       "singularValues": [float(x) for x in r["singular_values"]], "killedWorker": r["killed_worker"], "svdBytesSent": r["svd_bytes_sent"], "workerPeakRss": r["worker_peak_rss"], "oversampling": r["oversampling"], "nonZerosWeighted": r["nonZeros"], "countAttempts": r["count_attempts"], "powerIterations": r["power_iterations"], "subspaceMoves": r["subspace_moves"], "shares": r["shares"],
                        "modelBytes": size}, f)
     return 0
 

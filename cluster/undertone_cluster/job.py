@@ -2,7 +2,8 @@
 with Dask's randomized SVD, write the portable concept model.
 
 Stages (each a set of named Dask tasks, visible in the scheduler's dashboard when bokeh is
-installed, and reported on stderr):
+installed; their progress is read from the scheduler's Progress plugin and printed on stderr,
+progress.py):
   1. count-shard-N: each worker runs `undertone count` on its share of the files (contiguous runs
      of the sorted file list) and keeps the counts in memory. A task whose worker dies is run
      again elsewhere by the scheduler (Dask reschedules lost tasks; `retries` also re-runs a
@@ -16,7 +17,9 @@ installed, and reported on stderr):
      worker): one row-chunk of the chunked sparse array (files x kept terms).
   5. dask.array.linalg.svd_compressed (Halko, Martinsson & Tropp 2011 as Dask implements it) with
      iterator="QR" (re-orthonormalised power iterations, like the index's), the index's number of
-     power iterations, its oversampling, and a seed.
+     power iterations, its oversampling, and a seed; or, with a tolerance, the same power steps
+     until the top-k subspace settles (decompose below), so that any second run (another seed, or
+     the local index with as many steps) holds the same subspace and ranks the same.
 """
 import os
 import sys
@@ -26,6 +29,7 @@ import numpy as np
 import scipy.sparse as sp
 
 from . import weighting
+from .progress import StageProgress
 from .shards import Shard, count_share
 
 
@@ -79,11 +83,10 @@ def note(msg):
 
 def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log-entropy", prune=None,
             power_iterations=5, seed=20261201, shard_files=2000, retries=2, with_file_vectors=True,
-            max_file_size=None, drill_kill_worker_after=None):
+            max_file_size=None, drill_kill_worker_after=None, tolerance=None, max_power_iterations=60):
     """Runs the whole job on a connected dask.distributed Client; returns a dict of results."""
     import dask
     import dask.array as da
-    from dask.array.linalg import svd_compressed
     from distributed import as_completed, wait
 
     t0 = time.perf_counter()
@@ -102,18 +105,32 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
                       key=f"count-shard-{i:05d}", retries=retries, pure=False)
         for i, share in enumerate(shares)
     ]
+    counting = StageProgress(client, "count", futures)
     done = 0
     killed = False
     for fut in as_completed(futures):
         if fut.status == "error":
-            raise JobError(f"counting failed: {fut.exception()}")
+            i = futures.index(fut)
+            err = fut.exception()
+            if type(err).__name__ == "KilledWorker":
+                raise JobError(f"counting stopped: shard {i} ({len(shares[i])} files from {shares[i][0]}) took down "
+                               f"its worker every time it ran (the scheduler's allowed-failures); no model is written "
+                               f"rather than one without those files")
+            raise JobError(f"counting failed in shard {i} ({len(shares[i])} files from {shares[i][0]}) after "
+                           f"{retries} retries: {err}")
         done += 1
         if drill_kill_worker_after is not None and done >= drill_kill_worker_after and not killed and done < len(futures):
             killed = _kill_one_worker(client, futures)
         if done % max(1, len(futures) // 10) == 0 or done == len(futures):
             note(f"counted {done}/{len(futures)} shares")
+    counting.stop()
     attempts_log = os.path.join(work_dir, "attempts.log")
-    attempts = len(open(attempts_log, encoding="utf-8").read().split()) if os.path.exists(attempts_log) else len(futures)
+    tried = open(attempts_log, encoding="utf-8").read().split() if os.path.exists(attempts_log) else []
+    attempts = len(tried) if tried else len(futures)
+    again = sorted({int(i) for i in tried if tried.count(i) > 1})
+    if again:
+        note(f"{len(again)} share(s) counted again after a worker was lost or a count failed: "
+             + ", ".join(f"{i} ({len(shares[i])} files from {shares[i][0]})" for i in again))
     stats = client.gather([client.submit(_stats, f, key=f"stats-{i:05d}", pure=False) for i, f in enumerate(futures)])
     timings["count"] = time.perf_counter() - t0
 
@@ -167,7 +184,9 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
 
     # 4. Weighted blocks: the chunked sparse array.
     blocks = [client.submit(_weigh, f, mappings[i], g_f, scheme, m, key=f"weigh-shard-{i:05d}", pure=False) for i, f in enumerate(futures)]
+    weighing = StageProgress(client, "weigh", blocks)
     wait(blocks)
+    weighing.stop()
     del futures
     rows = [len(st["files"]) for st in stats]
     arrays = [da.from_delayed(b, shape=(r, m), dtype=np.float64, meta=CsrBlock((0, m))) for b, r in zip(blocks, rows) if r > 0]
@@ -181,9 +200,8 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
     sent_before = sum(client.run(_bytes_sent).values())
     kk = weighting.choose_k(k, n, m)
     p = weighting.default_oversampling(kk)
-    u, s, vt = svd_compressed(x, kk, iterator="QR", n_power_iter=power_iterations, n_oversamples=p,
-                              seed=seed, compute=False, coerce_signs=False)
-    u, s, vt = dask.compute(u, s, vt)
+    u, s, vt, steps, angles = decompose(client, x, kk, p, power_iterations=power_iterations, seed=seed,
+                                        tolerance=tolerance, max_power_iterations=max_power_iterations)
     timings["svd"] = time.perf_counter() - t3
     svd_bytes = sum(client.run(_bytes_sent).values()) - sent_before
     peak_rss = client.run(_peak_rss)
@@ -192,7 +210,7 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
     file_vectors = file_vectors * s
     norms = np.linalg.norm(file_vectors, axis=1, keepdims=True)
     file_vectors = file_vectors / np.where(norms > 0, norms, 1.0)
-    note(f"rank-{kk} SVD ({power_iterations} power iterations, oversampling {p}) in {timings['svd']:.1f} s; "
+    note(f"rank-{kk} SVD ({steps} power iterations, oversampling {p}) in {timings['svd']:.1f} s; "
          f"sigma_1 = {s[0]:.4f}, sigma_k = {s[-1]:.4f}")
     return {
         "files": counted, "skipped": skipped, "terms": kept_terms, "weights": g, "k": kk,
@@ -200,8 +218,78 @@ def run_job(client, *, folder, paths, undertone, work_dir, k="auto", scheme="log
         "file_vectors": file_vectors if with_file_vectors else None, "nonZeros": int(nnz),
         "relaxed": relaxed, "blocks": blocks, "rows": rows, "timings": timings,
         "frobeniusSquared": float(sum(client.gather([client.submit(lambda b: float(b.multiply(b).sum()), b, pure=False) for b in blocks]))),
-        "killed_worker": killed, "workers": workers_at_start, "svd_bytes_sent": int(svd_bytes), "worker_peak_rss": [int(v) for v in peak_rss.values()], "count_attempts": attempts, "shares": len(shares),
+        "killed_worker": killed, "workers": workers_at_start, "svd_bytes_sent": int(svd_bytes), "worker_peak_rss": [int(v) for v in peak_rss.values()], "count_attempts": attempts, "power_iterations": steps, "subspace_moves": angles, "shares": len(shares),
     }
+
+
+def decompose(client, x, k, p, *, power_iterations, seed, tolerance=None, max_power_iterations=60):
+    """Rank-k SVD of the chunked sparse array x (files x terms); returns (u, s, vt, iterations, angles).
+
+    Without a tolerance: dask.array.linalg.svd_compressed (Halko, Martinsson & Tropp 2011, as Dask
+    implements it) with iterator="QR" and `power_iterations` power steps.
+    With a tolerance: the same steps as svd_compressed's (its Gaussian sketch from the same
+    RandomState, each half step re-orthonormalised by Dask's tsqr, its final small SVD of Q^T X),
+    but the power steps go on until the top-k subspace stops moving: after each step the Ritz
+    vectors of the current basis (Halko et al. 2011, Algorithm 5.1 on the basis; Saad 2011,
+    "Numerical Methods for Large Eigenvalue Problems", section 5.1, subspace iteration) are compared
+    with the previous step's by the sine of their largest principal angle (Golub & Van Loan 2013,
+    section 6.4.3; the section numbers of both books are cited from memory): it stops when that
+    sine (computed as sqrt(1 - cos^2), so nothing below about 1e-7 is measurable) is below the
+    tolerance (at least `power_iterations`
+    steps, at most `max_power_iterations`). Subspace iteration brings the top-k subspace to the
+    true one at the rate (sigma_{l+1} / sigma_k)^(2q), so a second run from another seed (or the
+    index with as many steps) reaches the same subspace: the rankings then agree.
+    """
+    import dask
+    import dask.array as da
+    from dask.array.linalg import svd_compressed, tsqr
+    from distributed import wait
+
+    if tolerance is None:
+        u, s, vt = svd_compressed(x, k, iterator="QR", n_power_iter=power_iterations, n_oversamples=p,
+                                  seed=seed, compute=False, coerce_signs=False)
+        u, s, vt = dask.compute(u, s, vt)
+        return u, s, vt, power_iterations, []
+    n, m = x.shape
+    l = min(k + p, min(n, m))
+    state = da.random.RandomState(seed)
+    omega = state.standard_normal(size=(m, l), chunks=(x.chunks[1], (l,)))
+    q, _ = tsqr(x.dot(omega))
+    q, w = dask.persist(q, x.T.dot(q))  # w = X^T q (terms x l): the next half step's product, and the Ritz problem's
+    wait([q, w])
+    angles = []
+    prev = None  # (q, top-k Ritz coefficients) of the previous step
+    steps = 0
+    while True:
+        if prev is None:
+            (g,) = dask.compute(w.T.dot(w))  # q^T X X^T q (l x l)
+        else:
+            g, cross = dask.compute(w.T.dot(w), prev[0].T.dot(q))  # and q_old^T q_new (l x l), one round trip
+        lam, e = np.linalg.eigh(g)
+        e_k = e[:, np.argsort(lam)[::-1][:k]]  # the top-k Ritz vectors are q e_k
+        if prev is not None:
+            cos = np.linalg.svd(prev[1].T @ cross @ e_k, compute_uv=False)  # cosines of the principal angles
+            sine = float(np.sqrt(max(0.0, 1.0 - min(1.0, float(cos.min())) ** 2)))
+            angles.append(sine)
+            note(f"power step {steps}: the top-{k} subspace moved by sin {sine:.2e}")
+            if steps >= power_iterations and sine < tolerance:
+                break
+        if steps >= max_power_iterations:
+            last = f"{angles[-1]:.2e}" if angles else "unknown"
+            raise JobError(f"the top-{k} subspace did not settle below {tolerance:g} in {max_power_iterations} power "
+                           f"steps (last move {last}); raise --max-power-iterations or the tolerance")
+        prev = (q, e_k)
+        z, _ = tsqr(w)
+        q, _ = tsqr(x.dot(z))
+        q, w = dask.persist(q, x.T.dot(q))  # one round trip per power step, plus the small reductions
+        wait([q, w])
+        steps += 1
+    # Final small SVD as svd_compressed computes it: (Q^T X)^T = X^T Q = V S U_b^T, U = Q U_b
+    # (X^T Q for the final Q is w, already on the cluster).
+    v, s, ub = tsqr(w, compute_svd=True)
+    u = q.dot(ub.T)
+    u, s, vt = dask.compute(u[:, :k], s[:k], v.T[:k, :])
+    return u, s, vt, steps, angles
 
 
 def _bytes_sent(dask_worker):

@@ -24,6 +24,7 @@ export const COMMON_OPTIONS = {
   exclude: { type: 'string', multiple: true },
   include: { type: 'string', multiple: true },
   seed: { type: 'string' },
+  'power-iterations': { type: 'string' },
   quiet: { type: 'boolean', short: 'q' },
   'follow-links': { type: 'boolean' },
   sections: { type: 'boolean' },
@@ -47,6 +48,7 @@ export function settingsFrom(flags: Flags): Partial<IndexSettings> {
     s.weighting = flags.weighting as WeightingScheme;
   }
   if (flags.seed !== undefined) s.seed = positiveInt(flags.seed, 'seed');
+  if (flags['power-iterations'] !== undefined) s.powerIterations = positiveInt(flags['power-iterations'], 'power-iterations');
   return s;
 }
 
@@ -73,7 +75,13 @@ export function indexFileFrom(folder: string, flags: Flags): string {
 }
 
 /** The settings a user can give on the command line, which the saved index remembers. */
-const REMEMBERED = ['k', 'weighting', 'seed'] as const;
+const REMEMBERED = ['k', 'weighting', 'seed', 'powerIterations'] as const;
+const FLAG_OF: Record<(typeof REMEMBERED)[number], string> = {
+  k: 'k',
+  weighting: 'weighting',
+  seed: 'seed',
+  powerIterations: 'power-iterations',
+};
 
 /**
  * The settings for this run: the ones the folder's saved index was built with, overridden by
@@ -91,7 +99,7 @@ export async function effectiveSettings(indexFile: string, flags: Flags): Promis
     (settings as Record<string, unknown>)[key] = now ?? saved[key];
     if (now !== undefined && now !== saved[key]) {
       notes.push(
-        `note: --${key} ${String(now)} differs from the saved index's ${key}=${String(saved[key])}: rebuilding with ${key}=${String(now)}, which later commands keep.`,
+        `note: --${FLAG_OF[key]} ${String(now)} differs from the saved index's ${key}=${String(saved[key])}: rebuilding with ${key}=${String(now)}, which later commands keep.`,
       );
     }
   }

@@ -1,18 +1,28 @@
 /**
  * The cluster job (cluster/undertone_cluster) end to end on a local Dask cluster with two worker
  * processes (Debian's python3-dask and python3-distributed 2022.12), against the local index of
- * the same files. Material: the four public test collections of test/fixtures/corpora (ADI, CACM,
- * CISI, Cranfield: 6,146 abstracts written out as files in four folders), the CISI queries as dev
- * queries. During counting the job's drill kills one worker process that holds counted shards:
- * the scheduler must count them again and the result must not lose a file.
- * Checks:
- *   - the merged, pruned, weighted matrix equals the local build's (`undertone export`) entry by
+ * the same files. Material: two public test collections of test/fixtures/corpora (ADI and CISI:
+ * 1,542 abstracts written out as files in two folders; the job's steps do not depend on the size,
+ * so the smallest collection that has dev queries and several shards proves the same as the four
+ * collections did, in a fraction of the time), the first 40 CISI queries as dev queries and 20
+ * CISI files as Nearby probes. k = 60 concepts (fixed, so the run stays short).
+ * During counting the job's drill kills one worker process that holds counted shards: the
+ * scheduler must count them again and the result must not lose a file.
+ * What is compared:
+ *   - the merged, pruned, weighted matrix against the local build's (`undertone export`): entry by
  *     entry, bit for bit, with the same terms and files in the same order;
- *   - every one of the k singular values of Dask's svd_compressed is within 1% of the index's;
- *   - search and Nearby after `import-model` against the local index: for search the mean share
- *     of top-10 files in common is at least 0.9; for both, the share in common and the share of
- *     equal positions are no worse than those of the local index with another seed (the
- *     randomized SVD's own run-to-run spread) minus 0.1;
+ *   - the k singular values against the local index's: each within 1%;
+ *   - rankings. Both sides run randomized subspace iteration (Halko et al. 2011) from different
+ *     random starts; after 5 power steps the top-k subspace is still moving (the trailing
+ *     directions differ from run to run, and so do near-tied rankings: two local builds with
+ *     different seeds share only about 0.7 of their top-10 positions). So the cluster job runs
+ *     with --tolerance 1e-3: power steps until the top-k subspace moves by less than 1e-3 (sine
+ *     of the largest principal angle between two steps), and the local index is built with as
+ *     many power steps (--power-iterations, the number the job reports). Then both hold the same
+ *     rank-k subspace, and search (40 dev queries) and Nearby (20 files) after `import-model`
+ *     must agree with the local index on at least 9 of 10 top-10 positions on average (the
+ *     issue's target), as must a local build with another seed (the index's own run-to-run
+ *     spread at that setting);
  *   - a model file damaged in a byte is refused by import-model, which keeps the saved index.
  */
 import { spawn, spawnSync } from 'node:child_process';
@@ -28,7 +38,8 @@ import { runCli } from '../helpers/cliRunner.js';
 import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
 const PYTHON = '/usr/bin/python3';
-const names = ['adi', 'cacm', 'cisi', 'cran'] as const;
+const names = ['adi', 'cisi'] as const;
+const K = '60';
 const collections = names.map((n) => loadCollection(n));
 
 /** The engine must be there: a check that cannot run is a failure, not a skip (.ci/run installs it). */
@@ -44,6 +55,8 @@ interface Report {
   k: number;
   workers: number;
   killedWorker: boolean;
+  powerIterations: number;
+  subspaceMoves: number[];
   countAttempts: number;
   shares: number;
   singularValues: number[];
@@ -72,8 +85,8 @@ function agreement(a: Map<string, string[]>, b: Map<string, string[]>): { positi
 }
 
 describe('cluster job on a local Dask cluster', () => {
-  let dir: string, ws: string, cache: string, report: Report;
-  const queries = collections[2].queries.slice(0, 40);
+  let dir: string, ws: string, cache: string, report: Report, jobLog: string, localSettings: string[];
+  const queries = collections[1].queries.slice(0, 40);
   const probes: string[] = [];
   const ask = async (cacheDir: string, extra: string[] = []): Promise<Map<string, string[]>> => {
     const r = await runCli(
@@ -104,7 +117,7 @@ describe('cluster job on a local Dask cluster', () => {
       mkdirSync(join(ws, name), { recursive: true });
       for (const d of collections[i].docs) writeFileSync(join(ws, name, `${d.id}.txt`), d.text);
     });
-    for (let i = 0; i < 20; i++) probes.push(`cisi/${collections[2].docs[i * 70].id}.txt`);
+    for (let i = 0; i < 20; i++) probes.push(`cisi/${collections[1].docs[i * 70].id}.txt`);
     writeFileSync(join(dir, 'q.jsonl'), queries.map((q) => JSON.stringify({ id: q.id, text: q.text })).join('\n'));
     // The command line the workers run, bundled as scripts/build.mjs bundles it.
     await build({
@@ -116,8 +129,6 @@ describe('cluster job on a local Dask cluster', () => {
       format: 'cjs',
       logLevel: 'warning',
     });
-    const local = await runCli(['export', ws, '--format', 'mtx', '--out', join(dir, 'export'), '--cache-dir', cache], []);
-    expect(local.code, local.err).toBe(0);
     const job = spawn(
       PYTHON,
       [
@@ -131,13 +142,17 @@ describe('cluster job on a local Dask cluster', () => {
         '--local-workers',
         '2',
         '--shard-files',
-        '900',
+        '600',
+        '--k',
+        K,
+        '--tolerance',
+        '1e-3',
         '--dump-matrix',
         join(dir, 'dump'),
         '--report',
         join(dir, 'report.json'),
         '--drill-kill-worker-after',
-        '2',
+        '1',
       ],
       { cwd: join(REPO_ROOT, 'cluster'), stdio: ['ignore', 'ignore', 'pipe'] },
     );
@@ -145,16 +160,23 @@ describe('cluster job on a local Dask cluster', () => {
     job.stderr.on('data', (b: Buffer) => (stderr += b.toString()));
     const code = await new Promise<number | null>((res) => job.on('close', res));
     expect(code, stderr.slice(-3000)).toBe(0);
+    jobLog = stderr;
     report = JSON.parse(readFileSync(join(dir, 'report.json'), 'utf8')) as Report;
+    // The local build with the same k and as many power steps as the job needed.
+    localSettings = ['--k', K, '--power-iterations', String(report.powerIterations)];
+    const local = await runCli(['export', ws, '--format', 'mtx', '--out', join(dir, 'export'), '--cache-dir', cache, ...localSettings], []);
+    expect(local.code, local.err).toBe(0);
   }, 600_000);
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
   it('counts every file on two workers, recounting the shards of a killed worker', () => {
     expect(report.workers).toBe(2);
-    expect(report.files).toBe(6146);
+    expect(report.files).toBe(collections[0].docs.length + collections[1].docs.length);
     expect(report.skipped).toBe(0);
     expect(report.killedWorker).toBe(true);
     expect(report.countAttempts).toBeGreaterThan(report.shares);
+    // The recount is reported, not silent.
+    expect(jobLog).toMatch(/counted again after a worker was lost/);
   });
 
   it('merges, prunes and weights to exactly the local build’s matrix', () => {
@@ -168,6 +190,12 @@ describe('cluster job on a local Dask cluster', () => {
     let differ = 0;
     for (const [key, v] of ours.map) if (theirs.map.get(key) !== v) differ++;
     expect(differ).toBe(0);
+  });
+
+  it('goes on with power steps until the top-k subspace settles', () => {
+    expect(report.k).toBe(Number(K));
+    expect(report.subspaceMoves.at(-1)).toBeLessThan(1e-3);
+    expect(report.subspaceMoves.length).toBe(report.powerIterations);
   });
 
   it('finds all k singular values within 1% of the index’s', () => {
@@ -197,7 +225,7 @@ describe('cluster job on a local Dask cluster', () => {
     const nearBefore = await nearby(cache);
     // The index's own spread: the same files with another seed of the randomized SVD.
     const other = join(dir, 'cache-seed');
-    const seeded = await ask(other, ['--seed', '7']);
+    const seeded = await ask(other, ['--seed', '7', ...localSettings]);
     const nearSeeded = await nearby(other);
     const imp = await runCli(['import-model', ws, '--model', join(dir, 'org.model'), '--cache-dir', cache, '--json'], []);
     expect(imp.code, imp.err).toBe(0);
@@ -208,13 +236,12 @@ describe('cluster job on a local Dask cluster', () => {
     const near = agreement(nearBefore, nearAfter);
     const searchSpread = agreement(before, seeded);
     const nearSpread = agreement(nearBefore, nearSeeded);
-    const figures = JSON.stringify({ search, searchSpread, near, nearSpread });
-    expect(search.overlap, figures).toBeGreaterThanOrEqual(0.9);
-    // Nearby is pure LSI, so it moves with the SVD's run-to-run spread; the margin (0.1) is our
-    // choice (20 probe files: one file more or less in common moves the share by 0.005).
-    expect(near.overlap, figures).toBeGreaterThanOrEqual(nearSpread.overlap - 0.1);
-    expect(search.positional, figures).toBeGreaterThanOrEqual(searchSpread.positional - 0.1);
-    expect(near.positional, figures).toBeGreaterThanOrEqual(nearSpread.positional - 0.1);
+    const figures = JSON.stringify({ powerIterations: report.powerIterations, search, searchSpread, near, nearSpread });
+    // The issue's target: 9 of 10 top-10 positions, for the cluster model and for another seed.
+    expect(search.positional, figures).toBeGreaterThanOrEqual(0.9);
+    expect(near.positional, figures).toBeGreaterThanOrEqual(0.9);
+    expect(searchSpread.positional, figures).toBeGreaterThanOrEqual(0.9);
+    expect(nearSpread.positional, figures).toBeGreaterThanOrEqual(0.9);
     mkdirSync(join(REPO_ROOT, 'test-output'), { recursive: true });
     writeFileSync(join(REPO_ROOT, 'test-output', 'cluster-agreement.json'), `${figures}\n`);
   }, 300_000);
