@@ -13,7 +13,7 @@ import { exportCommand } from './commands/exportCommand.js';
 import { importFactorsCommand } from './commands/importFactorsCommand.js';
 import { importModelCommand } from './commands/importModelCommand.js';
 import { indexCommand } from './commands/indexCommand.js';
-import { lookalikesCommand } from './commands/lookalikesCommand.js';
+import { overlapsCommand } from './commands/overlapsCommand.js';
 import { mapCommand } from './commands/mapCommand.js';
 import { nearbyCommand } from './commands/nearbyCommand.js';
 import { topicsCommand } from './commands/topicsCommand.js';
@@ -29,8 +29,9 @@ usage:
   undertone nearby <folder> <file>          the files nearest in meaning to one file
   undertone eval   <folder> --queries q.jsonl --qrels qrels.tsv   MAP, P@10, nDCG@10
   undertone topics <folder>                 topics, each named by its words and example files
-  undertone lookalikes <folder>             overlaps: exact copies, near-copies, partial copies,
-                                            same content in other words (--top N per band, default 20)
+  undertone overlaps <folder>               exact copies, near-copies, partial copies and same
+                                            content in other words (--top N per band, default 20;
+                                            'lookalikes' is the old name, still accepted)
   undertone export <folder> --format mtx --out DIR   weighted term-document matrix (Matrix Market),
                                             terms.txt and files.txt, for an SVD elsewhere
                                             (--format model --out FILE: the concept model, to share)
@@ -59,7 +60,7 @@ options:
   --depth N                  (topics) levels of sub-topics to find and show (default 2; with
                              --json the whole tree, up to 4)
   --in FOLDER                (topics) the topics of one sub-folder: how many of its files each holds
-  --threshold J              (lookalikes) shingle Jaccard for near-copies (default 0.8)
+  --threshold J              (overlaps) shingle Jaccard for near-copies (default 0.8)
   --layout both|quick|faithful   (map) layouts in the page (default both, opening on faithful;
                              quick skips the slower faithful layout; faithful is the same as both,
                              since the page places queries with the quick projection)
@@ -80,7 +81,7 @@ const APPLIES_TO: Record<string, readonly string[]> = {
   rebuild: ['index'],
   explain: ['ask', 'nearby'],
   topics: ['topics', 'map'],
-  threshold: ['lookalikes'],
+  threshold: ['overlaps'],
   layout: ['map'],
   'max-terms': ['map'],
   format: ['export'],
@@ -157,24 +158,14 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     return EXIT.usage;
   }
   const flags = parsed.values as Flags;
-  const [command, folder, ...rest] = parsed.positionals;
+  const [given, folder, ...rest] = parsed.positionals;
+  // `lookalikes` was the command's name before the editor's view became "Overlaps"; still accepted.
+  const command = given === 'lookalikes' ? 'overlaps' : given;
   if (flags.help || !command) {
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? EXIT.ok : EXIT.usage;
   }
-  const needsFolder = [
-    'index',
-    'ask',
-    'nearby',
-    'eval',
-    'topics',
-    'lookalikes',
-    'export',
-    'import-factors',
-    'map',
-    'count',
-    'import-model',
-  ];
+  const needsFolder = ['index', 'ask', 'nearby', 'eval', 'topics', 'overlaps', 'export', 'import-factors', 'map', 'count', 'import-model'];
   if (!needsFolder.includes(command)) {
     io.err(`undertone: unknown command "${command}"\n${HINT}`);
     return EXIT.usage;
@@ -212,8 +203,8 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
         return await nearbyCommand(folder, arg, flags, io);
       case 'topics':
         return await topicsCommand(folder, flags, io);
-      case 'lookalikes':
-        return await lookalikesCommand(folder, flags, io);
+      case 'overlaps':
+        return await overlapsCommand(folder, flags, io);
       case 'export':
         return await exportCommand(folder, flags, io);
       case 'import-factors':
