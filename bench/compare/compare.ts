@@ -1,5 +1,8 @@
 /**
- * `npm run bench:compare`: Undertone and the reference pipeline (bench/compare/reference.py:
+ * `npm run bench:compare`: the commands as a user runs them, side by side (see runCommandCompare
+ * below); with --detail, the in-process comparison that follows.
+ *
+ * The in-process comparison: Undertone and the reference pipeline (bench/compare/reference.py:
  * Debian's scikit-learn, TfidfVectorizer(sublinear_tf, min_df 2, max_df 0.5) + TruncatedSVD
  * (randomized, n_iter 5, n_oversamples 10), same k; the vectoriser opens the files itself) on
  * the same files, in one run. Corpora: the demo, the linux-source-6.1 Documentation folder and
@@ -8,11 +11,12 @@
  * Undertone / reference, and the accuracy of our leading k singular values against scipy's
  * ARPACK (svds) on our own weighted matrix, exported in Matrix Market format.
  *
- * Options: --k N (default 200), --only demo|docs|tree, --no-arpack.
+ * Options: --k N (default 200), --only demo|docs|tree, --runs N (default 3), --detail,
+ * --no-arpack (with --detail).
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { ChildResult } from '../benchChild.js';
 import { CORPORA, flag, honoursGitignore, loadLine, measureInChild, REPO, type CorpusName } from '../benchShared.js';
@@ -94,6 +98,128 @@ function printComparison(name: string, ours: ChildResult, ref: ReferenceResult, 
 }
 
 export async function runCompare(): Promise<void> {
+  if (process.argv.includes('--detail')) return runDetail();
+  return runCommandCompare();
+}
+
+/** One process measured by /usr/bin/time -v: wall clock, peak RSS, and the load when it ended. */
+interface Timed {
+  wall: number;
+  peakRss: number;
+  load: number;
+  stdout: string;
+}
+
+function timed(cmd: string, args: string[], env?: NodeJS.ProcessEnv): Timed {
+  const r = spawnSync('/usr/bin/time', ['-v', cmd, ...args], { encoding: 'utf8', env, maxBuffer: 256 * 1024 * 1024 });
+  if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')} failed:\n${r.stderr.slice(-4000)}`);
+  const wallText = /Elapsed \(wall clock\).*: ([\d:.]+)\s*$/m.exec(r.stderr)?.[1] ?? 'NaN';
+  const wall = wallText.split(':').reduce((acc, part) => acc * 60 + Number(part), 0);
+  const peakKb = Number(/Maximum resident set size \(kbytes\): (\d+)/.exec(r.stderr)?.[1] ?? NaN);
+  return { wall, peakRss: peakKb * 1024, load: loadavg()[0], stdout: r.stdout };
+}
+
+interface Side {
+  label: string;
+  runs: Timed[];
+}
+
+const median = (xs: number[]): number => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+};
+const spread = (xs: number[], f: (x: number) => string): string => `${f(median(xs))} (${f(Math.min(...xs))}–${f(Math.max(...xs))})`;
+
+/**
+ * The comparison as a user meets it: `undertone index <folder> --k K --rebuild` as one process
+ * against reference.py as one process, each timed by /usr/bin/time -v (wall clock, peak RSS of
+ * the whole process), in alternating order (ours, fastest reference, current reference, ours…)
+ * so all sides see the same load. The reference reads the files Undertone's scan keeps
+ * (`undertone count <folder> --list`). Prints medians with the range over the runs, and ratios.
+ */
+function runCommandCompare(): void {
+  const k = Number(flag('k') ?? 200);
+  const runs = Number(flag('runs') ?? 3);
+  const only = flag('only') as CorpusName | undefined;
+  ensureReference();
+  const cli = join(REPO, 'dist', 'cli.js');
+  console.log(`Commands side by side, k=${k}, ${runs} alternating runs each; ${loadLine()}`);
+  for (const name of ['demo', 'docs', 'tree'] as const) {
+    if (only && only !== name) continue;
+    const folder = CORPORA[name];
+    if (!existsSync(folder)) {
+      console.log(`\n${name}: ${folder} is missing${name === 'demo' ? '' : ' (run scripts/bench-setup.sh)'}; skipped`);
+      continue;
+    }
+    const dir = mkdtempSync(join(tmpdir(), `undertone-cmd-${name}-`));
+    try {
+      const env = { ...process.env, UNDERTONE_CACHE_DIR: join(dir, 'cache') };
+      const list = spawnSync(process.execPath, [cli, 'count', folder, '--list'], { encoding: 'utf8', env, maxBuffer: 256 * 1024 * 1024 });
+      if (list.status !== 0) throw new Error(`undertone count --list failed:\n${list.stderr}`);
+      const paths = list.stdout.split('\n').filter((p) => p !== '');
+      writeFileSync(join(dir, 'paths.txt'), paths.map((p) => join(folder, p)).join('\n') + '\n');
+      const refArgs = (extra: string[]): string[] => [REFERENCE, 'pipeline', '--files', join(dir, 'paths.txt'), '--k', String(k), ...extra];
+      const sides: Side[] = [
+        { label: `undertone index --k ${k} --rebuild`, runs: [] },
+        { label: 'reference, fastest (in memory, letters-first)', runs: [] },
+        { label: 'reference, current (input=filename)', runs: [] },
+      ];
+      const steps: (() => Timed)[] = [
+        () => timed(process.execPath, [cli, 'index', folder, '--k', String(k), '--rebuild', '--json'], env),
+        () => timed(PYTHON, refArgs(['--in-memory', '--letters-first'])),
+        () => timed(PYTHON, refArgs([])),
+      ];
+      console.log(`\n=== ${name}: ${paths.length} files ===`);
+      for (let r = 0; r < runs; r++) {
+        steps.forEach((step, i) => {
+          const t = step();
+          sides[i].runs.push(t);
+          console.log(
+            `  run ${r + 1} ${sides[i].label.padEnd(48)} ${sec(t.wall).padStart(7)} s ${mb(t.peakRss).padStart(8)}  load ${t.load.toFixed(2)}`,
+          );
+        });
+      }
+      const ours = JSON.parse(sides[0].runs[0].stdout) as {
+        terms: number;
+        nonZeros: number;
+        files: number;
+        seconds: Record<string, number>;
+      };
+      const fast = JSON.parse(sides[1].runs[0].stdout.trim().split('\n').pop()!) as ReferenceResult;
+      const slow = JSON.parse(sides[2].runs[0].stdout.trim().split('\n').pop()!) as ReferenceResult;
+      console.log(
+        `  matrix: Undertone ${ours.terms} terms × ${ours.files} files, ${ours.nonZeros} non-zeros; ` +
+          `fastest reference ${fast.terms} × ${fast.docs}, ${fast.nnz}; current reference ${slow.terms} × ${slow.docs}, ${slow.nnz}`,
+      );
+      console.log(`  ${''.padEnd(48)} ${'wall s, median (range)'.padEnd(24)} ${'peak RSS MB, median (range)'}`);
+      for (const s of sides)
+        console.log(
+          `  ${s.label.padEnd(48)} ${spread(
+            s.runs.map((t) => t.wall),
+            sec,
+          ).padEnd(24)} ${spread(
+            s.runs.map((t) => t.peakRss / 1048576),
+            (x) => x.toFixed(0),
+          )}`,
+        );
+      for (const ref of sides.slice(1)) {
+        const wr = sides[0].runs.map((t, i) => t.wall / ref.runs[i].wall);
+        const mr = sides[0].runs.map((t, i) => t.peakRss / ref.runs[i].peakRss);
+        console.log(
+          `  Undertone / ${ref.label}: time ${spread(wr, (x) => `${x.toFixed(2)}×`)}, peak RSS ${spread(mr, (x) => `${x.toFixed(2)}×`)} (per-run ratios)`,
+        );
+      }
+      const loads = sides.flatMap((s) => s.runs.map((t) => t.load));
+      console.log(`  load average (1 min) at the end of each run: ${Math.min(...loads).toFixed(2)}–${Math.max(...loads).toFixed(2)}`);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }
+  console.log(`\n${loadLine()} (after the runs)`);
+}
+
+async function runDetail(): Promise<void> {
   const k = Number(flag('k') ?? 200);
   const only = flag('only') as CorpusName | undefined;
   const arpackWanted = !process.argv.includes('--no-arpack');

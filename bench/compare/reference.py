@@ -3,11 +3,14 @@
 What a practitioner would script with Debian's scikit-learn: the same files Undertone indexes,
 TfidfVectorizer(input='filename', sublinear_tf=True, min_df=2, max_df=0.5) and
 TruncatedSVD(algorithm='randomized', n_iter=5, n_oversamples=10) at the same k. With
---in-memory the files are read into a list first (faster, much more memory).
+--in-memory the files are read into a list first (faster, more memory); with --letters-first
+the token pattern keeps words that start with a letter (no numbers, no leading underscores),
+which is faster than scikit-learn's default pattern and closer to what Undertone indexes.
+`--in-memory --letters-first` is the fastest reasonable configuration, the one to beat.
 Prints one JSON object on stdout: seconds per stage, peak RSS, matrix shape, singular values.
 
 Usage:
-  reference.py pipeline --files LIST --k K [--seed S]
+  reference.py pipeline --files LIST --k K [--seed S] [--in-memory] [--letters-first]
       LIST holds one absolute path per line (the files Undertone's scan kept).
   reference.py arpack --mtx A.mtx --k K [--ours S.txt]
       Exact leading singular values of a Matrix Market matrix with scipy's ARPACK (svds),
@@ -24,6 +27,10 @@ import time
 def peak_rss_bytes():
     # Linux reports ru_maxrss in KiB.
     return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss * 1024
+
+
+# A letter, then word characters: two characters or more, as scikit-learn's default asks.
+LETTERS_FIRST = r"(?u)\b[^\W\d_]\w+\b"
 
 
 def pipeline(args):
@@ -50,7 +57,10 @@ def pipeline(args):
             nbytes += os.path.getsize(p)
         docs, source = paths, "filename"
     t1 = time.perf_counter()
-    vec = TfidfVectorizer(input=source, decode_error="replace", sublinear_tf=True, min_df=2, max_df=0.5, dtype=np.float64)
+    pattern = LETTERS_FIRST if args.letters_first else r"(?u)\b\w\w+\b"  # the latter is scikit-learn's default
+    vec = TfidfVectorizer(
+        input=source, decode_error="replace", sublinear_tf=True, min_df=2, max_df=0.5, dtype=np.float64, token_pattern=pattern
+    )
     x = vec.fit_transform(docs)
     del docs
     t2 = time.perf_counter()
@@ -113,6 +123,7 @@ def main():
     p.add_argument("--k", type=int, required=True)
     p.add_argument("--seed", type=int, default=0)
     p.add_argument("--in-memory", action="store_true", help="read all files into memory before vectorising")
+    p.add_argument("--letters-first", action="store_true", help="tokens start with a letter (see LETTERS_FIRST)")
     a = sub.add_parser("arpack")
     a.add_argument("--mtx", required=True)
     a.add_argument("--k", type=int, required=True)

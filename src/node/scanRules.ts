@@ -14,9 +14,17 @@
  * instead answer "ignored" through the parent. So when a folder is entered against a shallower
  * layer's wish, that layer is replaced, for the folder's subtree, by a copy with one extra rule
  * re-including exactly that folder (`!/x/build/`). Checked against `git ls-files` in the tests.
+ *
+ * .gitignore files only mean something inside a git working tree: git reads them there and
+ * nowhere else (gitignore(5): "each .gitignore file" of the working tree). A folder that is not
+ * in one — an unpacked source tarball, say — is scanned without them (insideGitWorkTree). This
+ * matters: Debian's linux-source-6.1 tarball carries the top-level .gitignore of its packaging
+ * repository, which ends with `/*` and `!/debian/` and so hides every file of the kernel.
  */
 
 import ignore, { type Ignore } from 'ignore';
+import { lstatSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 
 /** Names excluded at any depth, compared without regard to case. */
 export interface ExcludeNames {
@@ -307,4 +315,19 @@ function verdict(layers: readonly IgnoreLayer[], path: string, isDir: boolean): 
 /** Escapes glob characters so a literal path can be written as a gitignore pattern (gitignore(5): backslash escapes). */
 export function escapePattern(literal: string): string {
   return literal.replace(/[\\*?[\]]/g, '\\$&');
+}
+
+/**
+ * Whether a folder lies in a git working tree: it or one of its parents holds a `.git` entry (a
+ * folder, or the file that linked worktrees and submodules use), as git's own discovery looks
+ * for (git-rev-parse(1), "--show-toplevel"; GIT_DIR and GIT_WORK_TREE are not consulted).
+ */
+export function insideGitWorkTree(folderAbs: string): boolean {
+  for (let dir = folderAbs; ;) {
+    const st = lstatSync(join(dir, '.git'), { throwIfNoEntry: false });
+    if (st && (st.isDirectory() || st.isFile())) return true;
+    const up = dirname(dir);
+    if (up === dir) return false;
+    dir = up;
+  }
 }

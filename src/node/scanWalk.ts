@@ -28,7 +28,15 @@ import { join, sep } from 'node:path';
 import { CancelledError } from '../core/errors.js';
 import type { ScannedFile, ScanOptions, SkippedPath, SkipReason } from './scanTypes.js';
 import { describeFsError } from './scanRead.js';
-import { createExcludeTest, createIgnoreLayer, createPatternMatcher, enterFolder, isGitIgnored, type IgnoreLayer } from './scanRules.js';
+import {
+  createExcludeTest,
+  createIgnoreLayer,
+  createPatternMatcher,
+  enterFolder,
+  insideGitWorkTree,
+  isGitIgnored,
+  type IgnoreLayer,
+} from './scanRules.js';
 
 /** Folders read at once (common practice: enough to keep libuv's 4 I/O threads busy). */
 const FOLDER_CONCURRENCY = 8;
@@ -90,6 +98,8 @@ export async function walkFolder(
     return true;
   };
   const linked: LinkedFolder[] = [];
+  // git reads .gitignore files only inside a working tree (scanRules.ts).
+  const honourGitignore = opts.honourGitignore && insideGitWorkTree(rootAbs);
   const exclude = createExcludeTest(opts.useDefaultExcludes, opts.exclude);
   const include = createPatternMatcher(opts.include);
   const skip = (path: string, reason: SkipReason, detail: string): void => {
@@ -100,13 +110,11 @@ export async function walkFolder(
   };
   /** Whether a file (or a link to one) is kept by names, patterns, .gitignore files and includes. */
   const fileWanted = (rel: string, name: string, layers: readonly IgnoreLayer[]): boolean =>
-    !exclude.file(rel, name) &&
-    !(opts.honourGitignore && isGitIgnored(layers, rel, false)) &&
-    (include === undefined || include.ignores(rel));
+    !exclude.file(rel, name) && !(honourGitignore && isGitIgnored(layers, rel, false)) && (include === undefined || include.ignores(rel));
   /** The layers for a folder's contents, or undefined when the folder is left out. */
   const folderLayers = (rel: string, name: string, layers: readonly IgnoreLayer[]): readonly IgnoreLayer[] | undefined => {
     if (exclude.folder(rel, name)) return undefined;
-    return opts.honourGitignore ? enterFolder(layers, rel) : layers;
+    return honourGitignore ? enterFolder(layers, rel) : layers;
   };
 
   const addFile = (rel: string, abs: string, size: number, mtimeMs: number): void => {
@@ -167,7 +175,7 @@ export async function walkFolder(
     const here: Chain = { key, parent: job.parent };
     const prefix = job.rel === '' ? '' : `${job.rel}/`;
     let layers = job.layers;
-    if (opts.honourGitignore && entries.some((e) => e.name === '.gitignore' && e.isFile())) {
+    if (honourGitignore && entries.some((e) => e.name === '.gitignore' && e.isFile())) {
       try {
         layers = [...layers, createIgnoreLayer(prefix, await readFile(join(job.abs, '.gitignore'), 'utf8'))];
       } catch (err) {
@@ -217,7 +225,7 @@ export async function walkFolder(
     return true;
   };
 
-  const rootLayers = opts.honourGitignore ? await infoExcludeLayer(rootAbs) : [];
+  const rootLayers = honourGitignore ? await infoExcludeLayer(rootAbs) : [];
   await runQueue([{ abs: rootAbs, rel: '', layers: rootLayers, parent: undefined, key: rootKey }], visitFolder);
   // Links to folders, in path order, after every real folder has claimed its identity.
   while (linked.length > 0) {

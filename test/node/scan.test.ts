@@ -1,3 +1,4 @@
+import { execFileSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
@@ -18,6 +19,15 @@ function tree(files: Record<string, string | Uint8Array>): string {
   }
   return root;
 }
+
+const hasGit = ((): boolean => {
+  try {
+    execFileSync('git', ['--version'], { stdio: 'ignore' });
+    return true;
+  } catch {
+    return false;
+  }
+})();
 
 const paths = async (root: string, opts = {}): Promise<string[]> => (await scanFolder(root, opts)).files.map((f) => f.path);
 
@@ -106,16 +116,62 @@ describe('scanFolder', () => {
   });
 
   it('does not report excluded or ignored files as skipped', async () => {
-    const root = tree({ '.gitignore': 'huge.txt\n', 'huge.txt': 'x'.repeat(100), 'node_modules/big.js': 'x'.repeat(100), 'a.md': '' });
+    const root = tree({
+      '.git/HEAD': '',
+      '.gitignore': 'huge.txt\n',
+      'huge.txt': 'x'.repeat(100),
+      'node_modules/big.js': 'x'.repeat(100),
+      'a.md': '',
+    });
     const r = await scanFolder(root, { maxFileBytes: 10 });
     expect(r.files.map((f) => f.path)).toEqual(['.gitignore', 'a.md']);
     expect(r.skipped).toEqual([]);
   });
 
   it('ignores .gitignore files when told to', async () => {
-    const root = tree({ '.gitignore': '*.log\n', 'a.log': '', 'sub/.gitignore': '*\n', 'sub/b.md': '' });
+    const root = tree({ '.git/HEAD': '', '.gitignore': '*.log\n', 'a.log': '', 'sub/.gitignore': '*\n', 'sub/b.md': '' });
     expect(await paths(root)).toEqual(['.gitignore']);
     expect(await paths(root, { honourGitignore: false })).toEqual(['.gitignore', 'a.log', 'sub/.gitignore', 'sub/b.md']);
+  });
+
+  // git reads .gitignore files only inside a working tree (gitignore(5)). The case is Debian's
+  // linux-source-6.1 tarball: its top-level .gitignore (lines copied from it: `.*`, `/*`,
+  // `!/debian/`) comes from the packaging repository and hides every kernel file from git.
+  const kernelLike = {
+    '.gitignore': '.*\n*.o\n/vmlinux\n/*\n!/debian/\n',
+    Makefile: '',
+    'Documentation/index.rst': '',
+    'kernel/fork.c': '',
+    'kernel/fork.o': '',
+    'debian/rules': '',
+    '.mailmap': '',
+  };
+  it('reads .gitignore files only inside a git working tree, as git does', async () => {
+    expect(await paths(tree(kernelLike))).toEqual([
+      '.gitignore',
+      '.mailmap',
+      'Documentation/index.rst',
+      'Makefile',
+      'debian/rules',
+      'kernel/fork.c',
+    ]);
+    // A subfolder of an unpacked tarball is no different.
+    const sub = tree({ 'docs/.gitignore': '*\n', 'docs/a.rst': '' });
+    expect(await paths(join(sub, 'docs'))).toEqual(['.gitignore', 'a.rst']);
+  });
+
+  it.skipIf(!hasGit)('inside a working tree, keeps what `git ls-files --others --exclude-standard` lists (reference: git)', async () => {
+    const root = tree(kernelLike);
+    execFileSync('git', ['init', '-q', root]);
+    const byGit = execFileSync('git', ['-C', root, 'ls-files', '--others', '--exclude-standard'], { encoding: 'utf8' })
+      .split('\n')
+      .filter((p) => p !== '')
+      .sort();
+    expect(byGit).toEqual(['debian/rules']);
+    expect(await paths(root)).toEqual(byGit);
+    // Below the top of the working tree (a nested folder opened on its own) the same rule holds.
+    const nested = tree({ '.git/HEAD': '', 'docs/.gitignore': '*.tmp\n', 'docs/a.rst': '', 'docs/b.tmp': '' });
+    expect(await paths(join(nested, 'docs'))).toEqual(['.gitignore', 'a.rst']);
   });
 
   it('lists unicode, spaced and odd file names, sorted by UTF-16 code units', async () => {

@@ -86,7 +86,7 @@ describe.skipIf(!canLink)('scanFolder and symbolic links (skipped on Windows)', 
 
   it('does not report a broken link that .gitignore ignores', async () => {
     const other = join(base, 'ignored-link');
-    mkdirSync(other);
+    mkdirSync(join(other, '.git'), { recursive: true }); // .gitignore files count inside a git working tree
     writeFileSync(join(other, '.gitignore'), 'dangling\n');
     symlinkSync('nowhere', join(other, 'dangling'));
     const r = await scanFolder(other);

@@ -93,10 +93,11 @@ export function splitRows(rows: number, parts: number): Int32Array {
 
 /** Splits the rows of a CSR matrix into about `parts` ranges of similar stored-entry counts (starts multiples of 4). */
 export function splitCsrRows(indptr: Int32Array, rows: number, parts: number): Int32Array {
-  const nnz = indptr[rows];
+  // A view of some rows of a larger matrix starts at indptr[0] > 0.
+  const nnz = indptr[rows] - indptr[0];
   const target = Math.max(1, nnz / Math.max(1, parts));
   const bounds: number[] = [0];
-  let next = target;
+  let next = indptr[0] + target;
   for (let r = 4; r < rows; r += 4) {
     if (indptr[r] >= next) {
       bounds.push(r);

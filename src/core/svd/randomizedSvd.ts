@@ -31,10 +31,10 @@ import { choleskyQr } from '../matrix/choleskyQr.js';
 import { leadingColumns } from '../matrix/dense.js';
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
-import type { CsrMatrix, DenseBlock } from '../matrix/sparse.js';
+import type { CsrMatrix } from '../matrix/sparse.js';
 import { copyCsr, transposeCsr } from '../matrix/sparse.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
-import { bigSideVectors, repairWeakColumns, topEigenpairs, transposeScaled } from './rayleighRitz.js';
+import { repairWeakColumns, topEigenpairs, transposeScaled } from './rayleighRitz.js';
 
 export interface RandomizedSvdOptions {
   /** Number of singular triplets wanted. */
@@ -57,6 +57,8 @@ export interface RandomizedSvdOptions {
    * saves that memory at the build's peak).
    */
   factors?: 'f64' | 'f32';
+  /** Smallest budget in bytes for a big-side column block (default BIG_BLOCK_MIN_BYTES; tests set it low). */
+  bigBlockBytes?: number;
 }
 
 export const DEFAULT_SVD_OPTIONS: Readonly<Omit<RandomizedSvdOptions, 'k'>> = Object.freeze({
@@ -97,12 +99,28 @@ export function randomizedSvd(
   return ex.scoped ? ex.scoped(() => decompose(m, o, ex)) : decompose(m, o, ex);
 }
 
+/**
+ * Columns of the big side held at once: all l when a B × l block fits in
+ * max(BIG_BLOCK_MIN_BYTES, the S × l basis), else the width that splits l into the fewest nearly
+ * equal blocks that fit.
+ * The power iterations and the Rayleigh–Ritz step act column by column (AAᵀ maps column c of Q
+ * to column c of Y), so splitting the columns changes no arithmetic, only how much of Z is held.
+ */
+export function bigSideBlockWidth(S: number, B: number, l: number, minBytes = BIG_BLOCK_MIN_BYTES): number {
+  const budget = Math.max(minBytes, S * l * 8);
+  if (B * l * 8 <= budget) return l;
+  const blocks = Math.ceil(l / Math.max(2, Math.floor(budget / (B * 8))));
+  return Math.ceil(l / blocks);
+}
+
+/** Smallest budget for a big-side block (our choice: small enough to matter, large enough for SIMD rows). */
+export const BIG_BLOCK_MIN_BYTES = 32 * 1024 * 1024;
+
 function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): SvdResult<Float64Array | Float32Array> {
   const maxRank = Math.min(m.rows, m.cols);
   const k = Math.min(o.k, maxRank);
   const l = Math.min(k + (o.oversampling ?? defaultOversampling(k)), maxRank);
   const random = createRandom(o.seed);
-  const nnz = m.indptr[m.rows];
   // A has the smaller dimension as rows: Q (S × l) is the only block that is orthonormalised.
   const rowsSmall = m.rows <= m.cols;
   // The matrix in the executor's memory, stored entries as f32 (a relative change below 1e-7,
@@ -113,61 +131,165 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   const at = rowsSmall ? mt : mCopy;
   const S = a.rows;
   const B = a.cols;
-  // G = ZᵀZ costs B·l²/2; G = Qᵀ(AZ) costs one more pass and S·l².
-  const gramOnBigSide = B * l * l <= 2 * (nnz * l + S * l * l);
-  const totalPasses = 2 * o.powerIterations + 2 + (gramOnBigSide ? 0 : 1);
+  const w = bigSideBlockWidth(S, B, l, o.bigBlockBytes);
+  const totalPasses = 2 * o.powerIterations + 3;
   let passes = 0;
   const step = (): void => {
     if (o.signal?.aborted) throw new CancelledError();
     o.onProgress?.(++passes, totalPasses);
   };
-
-  // 1. Range finder and power iterations.
-  // One S × l block holds Y and, orthonormalised in place, Q; one B × l block holds Ω and Z.
-  const z = ex.float64(B * l);
-  ex.gaussian(z, B, l, o.seed);
+  const blocks = columnBlocks(l, w);
+  // Working blocks: Q (S × l), and per column block Z_c (B × w), Q_c and Y_c (S × w).
   const q = ex.float64(S * l);
-  ex.spmm(a, z, l, q);
+  const z = ex.float64(B * w);
+  const qc = w === l ? q : ex.float64(S * w);
+  const yc = w === l ? q : ex.float64(S * w);
+
+  // 1. Range finder: Y = AΩ, one column block of Ω at a time (each block its own seeded stream).
+  for (const [c0, cw] of blocks) {
+    const zc = z.subarray(0, B * cw);
+    ex.gaussian(zc, B, cw, blockSeed(o.seed, c0, w));
+    ex.spmm(a, zc, cw, w === l ? q : yc.subarray(0, S * cw));
+    if (w < l) scatterColumns(yc, q, S, l, c0, cw);
+  }
   step();
   choleskyQr(ex, q, S, l, o.powerIterations === 0 ? 2 : 1, random);
+  // Power iterations Y = A(AᵀQ), column block by column block, Q = orth(Y).
   for (let it = 0; it < o.powerIterations; it++) {
-    ex.spmm(at, q, l, z);
+    for (const [c0, cw] of blocks) {
+      if (o.signal?.aborted) throw new CancelledError();
+      const zc = z.subarray(0, B * cw);
+      if (w < l) gatherColumns(q, qc, S, l, c0, cw);
+      ex.spmm(at, w === l ? q : qc.subarray(0, S * cw), cw, zc);
+      ex.spmm(a, zc, cw, w === l ? q : yc.subarray(0, S * cw));
+      if (w < l) scatterColumns(yc, q, S, l, c0, cw);
+    }
     step();
-    ex.spmm(a, z, l, q);
     step();
     choleskyQr(ex, q, S, l, it === o.powerIterations - 1 ? 2 : 1, random);
   }
-  // 2. Rayleigh–Ritz.
-  ex.spmm(at, q, l, z);
-  step();
-  let g: Float64Array;
-  let spare: Float64Array | undefined;
-  if (gramOnBigSide) {
-    g = ex.cross(z, z, B, l);
-  } else {
-    const az = ex.float64(S * l);
-    ex.spmm(a, z, l, az);
-    step();
-    g = ex.cross(q, az, S, l);
-    spare = az; // done with: its memory takes the small-side vectors (k ≤ l)
+
+  // 2. Rayleigh–Ritz: G = Qᵀ(A(AᵀQ)), block by block: G[c', c] = Q_c'ᵀ Y_c.
+  const g = new Float64Array(l * l);
+  const yAll = w === l ? ex.float64(S * l) : yc;
+  for (const [c0, cw] of blocks) {
+    if (o.signal?.aborted) throw new CancelledError();
+    const zc = z.subarray(0, B * cw);
+    if (w < l) gatherColumns(q, qc, S, l, c0, cw);
+    ex.spmm(at, w === l ? q : qc.subarray(0, S * cw), cw, zc);
+    const y = yAll.subarray(0, S * cw);
+    ex.spmm(a, zc, cw, y);
+    for (const [d0, dw] of blocks) {
+      let part: Float64Array;
+      if (w === l) part = ex.cross(q, y, S, l);
+      else {
+        const qd = qc.subarray(0, S * dw);
+        gatherColumns(q, qd, S, l, d0, dw);
+        part = crossRect(ex, qd, dw, y, cw, S);
+      }
+      for (let i = 0; i < dw; i++) for (let j = 0; j < cw; j++) g[(d0 + i) * l + c0 + j] = part[i * cw + j];
+    }
   }
+  step();
+  step();
   const pairs = topEigenpairs(g, l, k);
-  const small = spare ? spare.subarray(0, S * k) : ex.float64(S * k);
+  const small = w === l ? yAll.subarray(0, S * k) : ex.float64(S * k);
   ex.timesSmall(q, S, l, transposeScaled(pairs.w, l, k), k, false, small);
-  const big = bigSideVectors(ex, z, small, at, l, pairs, k);
-  repairWeakColumns(big, B, k, pairs.s, random);
-  // 3. Sign fix on the column factor, decided in f64 (in the executor's memory) before any rounding.
-  const uIn = rowsSmall ? small : big;
-  const vIn = rowsSmall ? big : small;
-  flipSigns({ rows: m.rows, cols: k, data: uIn }, { rows: m.cols, cols: k, data: vIn });
+  // 3. Big-side vectors Aᵀ(QW)Σ⁻¹, block of rows by block of rows, straight into the result type.
   const out = o.factors === 'f32' ? Float32Array : Float64Array;
-  const u = out.from(uIn);
-  const v = out.from(vIn);
+  const big = new out(B * k);
+  bigSideInBlocks(ex, at, small, k, pairs.s, big, z);
+  step();
+  repairWeakColumns(big, B, k, pairs.s, random);
+  // 4. Sign fix on the column factor (decided on the values returned, row by row).
+  const smallOut = out.from(small);
+  const u = rowsSmall ? smallOut : big;
+  const v = rowsSmall ? big : smallOut;
+  flipSigns({ rows: m.rows, cols: k, data: u }, { rows: m.cols, cols: k, data: v });
   return { rows: m.rows, cols: m.cols, k, u, s: pairs.s, v };
 }
 
+/** [first column, width] of each column block of an l-column block split into blocks of w. */
+function columnBlocks(l: number, w: number): [number, number][] {
+  const out: [number, number][] = [];
+  for (let c0 = 0; c0 < l; c0 += w) out.push([c0, Math.min(w, l - c0)]);
+  return out;
+}
+
+/** The seed of Ω's column block at c0: the seed itself when Ω is one block. */
+function blockSeed(seed: number, c0: number, w: number): number {
+  return c0 === 0 ? seed : (seed + Math.imul(c0 / w, 0x9e3779b1)) >>> 0;
+}
+
+/** dst (rows × w) = columns c0 … c0 + w − 1 of src (rows × l). */
+export function gatherColumns(src: Float64Array, dst: Float64Array, rows: number, l: number, c0: number, w: number): void {
+  for (let i = 0; i < rows; i++) dst.set(src.subarray(i * l + c0, i * l + c0 + w), i * w);
+}
+
+/** Columns c0 … c0 + w − 1 of dst (rows × l) = src (rows × w). */
+export function scatterColumns(src: Float64Array, dst: Float64Array, rows: number, l: number, c0: number, w: number): void {
+  for (let i = 0; i < rows; i++) dst.set(src.subarray(i * w, i * w + w), i * l + c0);
+}
+
+/**
+ * PᵀY (p × y, row-major) for P rows × p and Y rows × y: the executor's square cross product on
+ * both blocks side by side would need a copy, so a square block is formed when p = y, and the
+ * rectangle otherwise from the executor's cross of [P Y] with itself (only when p ≠ y: the last
+ * column block).
+ */
+function crossRect(ex: MatrixExecutor, p: Float64Array, pw: number, y: Float64Array, yw: number, rows: number): Float64Array {
+  if (pw === yw) return ex.cross(p, y, rows, pw);
+  const wide = pw + yw;
+  const both = ex.float64(rows * wide);
+  for (let i = 0; i < rows; i++) {
+    both.set(p.subarray(i * pw, i * pw + pw), i * wide);
+    both.set(y.subarray(i * yw, i * yw + yw), i * wide + pw);
+  }
+  const g = ex.cross(both, both, rows, wide);
+  const out = new Float64Array(pw * yw);
+  for (let i = 0; i < pw; i++) for (let j = 0; j < yw; j++) out[i * yw + j] = g[i * wide + pw + j];
+  return out;
+}
+
+/** big (B × k) = Aᵀ small Σ⁻¹, computed over blocks of rows in `scratch` (executor memory). */
+function bigSideInBlocks(
+  ex: MatrixExecutor,
+  at: CsrMatrix,
+  small: Float64Array,
+  k: number,
+  s: Float64Array,
+  big: Float64Array | Float32Array,
+  scratch: Float64Array,
+): void {
+  const inv = Float64Array.from(s, (x) => (x > 0 ? 1 / x : 0));
+  const rowsPer = Math.max(1, Math.floor(scratch.length / k));
+  for (let r0 = 0; r0 < at.rows; r0 += rowsPer) {
+    const r1 = Math.min(at.rows, r0 + rowsPer);
+    const view: CsrMatrix = {
+      rows: r1 - r0,
+      cols: at.cols,
+      indptr: at.indptr.subarray(r0, r1 + 1),
+      indices: at.indices,
+      values: at.values,
+    };
+    const y = scratch.subarray(0, (r1 - r0) * k);
+    ex.spmm(view, small, k, y);
+    for (let i = 0; i < r1 - r0; i++) {
+      const o = (r0 + i) * k;
+      for (let c = 0; c < k; c++) big[o + c] = y[i * k + c] * inv[c];
+    }
+  }
+}
+
+/** A dense row-major block of f64 or f32 numbers. */
+export interface FactorBlock {
+  readonly rows: number;
+  readonly cols: number;
+  readonly data: Float64Array | Float32Array;
+}
+
 /** Makes the largest-magnitude entry of each column of v positive, flipping u to match. */
-export function flipSigns(u: DenseBlock, v: DenseBlock): void {
+export function flipSigns(u: FactorBlock, v: FactorBlock): void {
   const k = v.cols;
   // Row by row (memory order): the first row holding each column's largest |entry| wins ties.
   const bestAbs = new Float64Array(k).fill(-1);

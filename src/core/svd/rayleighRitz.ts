@@ -3,7 +3,8 @@
  * in its "eigen-decomposition of BBᵀ" form, as gensim's multi-pass LSI uses): for an orthonormal
  * basis Q (small side, S × l) of A's range and Z = AᵀQ (big side, B × l), G = ZᵀZ = BBᵀ with
  * B = QᵀA. With G = W Λ Wᵀ (ml-matrix, l × l): σ = √λ, small-side vectors Q W and big-side
- * vectors Z W Σ⁻¹ = Aᵀ (Q W) Σ⁻¹. Only l × l work happens here besides the executor's products.
+ * vectors Z W Σ⁻¹ = Aᵀ (Q W) Σ⁻¹ (formed in randomizedSvd.ts by one sparse pass, in blocks of
+ * rows). Only l × l work happens here.
  *
  * Eigenvalues below RANK_TOLERANCE·λ₁ are rounding noise of the Gram matrix (about ε·λ₁) and
  * are reported as σ = 0. Big-side vectors of weak directions (σ < WEAK·σ₁) lose orthogonality
@@ -11,7 +12,6 @@
  * (twice), or replaced by a seeded random direction when nothing is left of them.
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import type { MatrixExecutor } from '../matrix/executor.js';
 import type { RandomSource } from '../random.js';
 
 /** λ below this share of λ₁ counts as zero (a few hundred ε; common practice for Gram matrices). */
@@ -54,36 +54,8 @@ export function transposeScaled(w: Float64Array, l: number, k: number, scale?: F
   return wt;
 }
 
-/**
- * Big-side vectors (B × k) from Z W Σ⁻¹ (dense) or Aᵀ(QW)Σ⁻¹ (one sparse pass, written over Z),
- * whichever is cheaper; equal in exact arithmetic.
- */
-export function bigSideVectors(
-  ex: MatrixExecutor,
-  z: Float64Array,
-  smallVectors: Float64Array,
-  at: { rows: number; cols: number; indptr: Int32Array; indices: Int32Array; values: Float64Array | Float32Array },
-  l: number,
-  pairs: RitzPairs,
-  k: number,
-): Float64Array {
-  const b = at.rows;
-  const inv = Float64Array.from(pairs.s, (v) => (v > 0 ? 1 / v : 0));
-  const nnz = at.indptr[at.rows];
-  if (b * l <= 2 * nnz) {
-    const out = ex.float64(b * k);
-    ex.timesSmall(z, b, l, transposeScaled(pairs.w, l, k, inv), k, false, out);
-    return out;
-  }
-  // Z is not needed any more: its memory takes the result.
-  const out = z.subarray(0, b * k);
-  ex.spmm(at, smallVectors, k, out);
-  for (let i = 0; i < b; i++) for (let c = 0; c < k; c++) out[i * k + c] *= inv[c];
-  return out;
-}
-
 /** Re-orthogonalises the weak columns of a rows × k block in place (see the header). */
-export function repairWeakColumns(v: Float64Array, rows: number, k: number, s: Float64Array, random: RandomSource): number {
+export function repairWeakColumns(v: Float64Array | Float32Array, rows: number, k: number, s: Float64Array, random: RandomSource): number {
   const top = s[0];
   const done = Uint8Array.from(s, (x) => (top > 0 && x >= WEAK * top ? 1 : 0));
   let repaired = 0;
@@ -110,7 +82,7 @@ export function repairWeakColumns(v: Float64Array, rows: number, k: number, s: F
 }
 
 /** Scales column c to unit length; returns its norm before (0 leaves it untouched). */
-function normalizeColumn(v: Float64Array, rows: number, k: number, c: number): number {
+function normalizeColumn(v: Float64Array | Float32Array, rows: number, k: number, c: number): number {
   let ss = 0;
   for (let i = 0; i < rows; i++) ss += v[i * k + c] ** 2;
   const norm = Math.sqrt(ss);

@@ -13,6 +13,7 @@ import {
   createPatternMatcher,
   DEFAULT_EXCLUDE_NAMES,
   enterFolder,
+  insideGitWorkTree,
   isGitIgnored,
   type IgnoreLayer,
   type NameFilter,
@@ -29,6 +30,7 @@ export class FileAdmission {
   private readonly _exclude: Ignore | undefined;
   private readonly _include: Ignore | undefined;
   private readonly _gitignores = new Map<string, string | null>();
+  private _inGitTree: boolean | undefined;
 
   constructor(
     private readonly _rootPath: string,
@@ -42,7 +44,8 @@ export class FileAdmission {
   /** Whether a root-relative, '/'-separated file path would be kept by a scan of the root. */
   async admits(rel: string): Promise<boolean> {
     const parts = rel.split('/');
-    const honour = this._options.honourGitignore;
+    // git reads .gitignore files only inside a working tree (scanRules.ts), as the scan does.
+    const honour = this._options.honourGitignore && (this._inGitTree ??= insideGitWorkTree(this._rootPath));
     let layers: readonly IgnoreLayer[] = honour ? await this.layerAt('', join('.git', 'info', 'exclude')) : [];
     for (let depth = 0; depth < parts.length; depth++) {
       const dir = parts.slice(0, depth).join('/');
@@ -67,6 +70,7 @@ export class FileAdmission {
   /** Drops the remembered .gitignore files. */
   forget(): void {
     this._gitignores.clear();
+    this._inGitTree = undefined;
   }
 
   private async layerAt(base: string, relFile: string): Promise<IgnoreLayer[]> {

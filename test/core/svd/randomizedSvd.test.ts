@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { coordinateChunks } from '../../../src/core/matrix/matrixMarket.js';
 import { csrFromDense } from '../../../src/core/matrix/sparse.js';
 import { createRandom } from '../../../src/core/random.js';
-import { randomizedSvd, type SvdResult } from '../../../src/core/svd/randomizedSvd.js';
+import { bigSideBlockWidth, randomizedSvd, type SvdResult } from '../../../src/core/svd/randomizedSvd.js';
 import { weightedMatrix } from '../../../src/core/index/model/conceptModel.js';
 import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
@@ -170,6 +170,47 @@ describe('randomizedSvd', () => {
     expect(worst).toBeLessThan(0.01);
     expect(maxOrthoError(res.u, matrix.rows, 30)).toBeLessThan(1e-8);
     expect(maxOrthoError(res.v, m, 30)).toBeLessThan(1e-8);
+  });
+  it('gives the same results when the big side is worked on in column blocks (reference: ml-matrix dense SVD)', () => {
+    const vocab = new Vocabulary();
+    const docs = cran.docs.slice(0, 200).map((d) => countTerms(tokenize(d.text), vocab, true));
+    const pruned = pruneVocabulary(docs, vocab.size);
+    const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
+    const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
+    const l = 40;
+    // A budget of 1 byte leaves the S × l basis as the budget: blocks of about S/B of the columns.
+    const width = bigSideBlockWidth(Math.min(matrix.rows, matrix.cols), Math.max(matrix.rows, matrix.cols), l, 1);
+    expect(width).toBeLessThan(l);
+    const whole = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8 });
+    const blocked = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes: 1 });
+    const again = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes: 1 });
+    expect(Buffer.from(blocked.v.buffer).equals(Buffer.from(again.v.buffer))).toBe(true);
+    const dense = Array.from({ length: matrix.rows }, () => new Array<number>(matrix.cols).fill(0));
+    for (let i = 0; i < matrix.rows; i++)
+      for (let p = matrix.indptr[i]; p < matrix.indptr[i + 1]; p++) dense[i][matrix.indices[p]] = matrix.values[p];
+    const ref = new SingularValueDecomposition(new Matrix(dense), {
+      computeLeftSingularVectors: false,
+      computeRightSingularVectors: false,
+      autoTranspose: true,
+    });
+    for (const res of [whole, blocked]) {
+      for (let i = 0; i < 20; i++) expect(Math.abs(res.s[i] - ref.diagonal[i]) / ref.diagonal[i]).toBeLessThan(0.01);
+      expect(maxOrthoError(res.u, matrix.rows, 20)).toBeLessThan(1e-8);
+      expect(maxOrthoError(res.v, matrix.cols, 20)).toBeLessThan(1e-8);
+    }
+    // The leading directions agree between the two (the random starts differ, so not to the last bit).
+    for (let c = 0; c < 5; c++) {
+      let dot = 0;
+      for (let i = 0; i < matrix.cols; i++) dot += whole.v[i * 20 + c] * blocked.v[i * 20 + c];
+      expect(Math.abs(dot)).toBeGreaterThan(1 - 1e-4);
+    }
+  });
+
+  it('splits l into the fewest nearly equal column blocks that fit the budget', () => {
+    expect(bigSideBlockWidth(100, 1000, 300)).toBe(300); // 2.4 MB fits 32 MiB
+    // 52,872 × 300 × 8 bytes = 127 MB against max(32 MiB, 8,863 × 300 × 8 = 21 MB): 4 blocks of 75.
+    expect(bigSideBlockWidth(8863, 52872, 300)).toBe(75);
+    expect(bigSideBlockWidth(10, 1000, 7, 8 * 1000 * 3)).toBe(3); // 3 + 3 + 1 columns
   });
 });
 
