@@ -184,7 +184,7 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
   const rank = Math.max(1, Math.min(o.curRank ?? Math.min(20, Math.max(10, K)), im.matrix.rows, im.matrix.cols));
   const cur = curDecomposition(
     im.matrix,
-    { rank, method: o.curMethod, seed: o.seed, rowCount: 2 * rank, columnCount: Math.max(2 * rank, 8 * K) },
+    { rank, method: o.curMethod, seed: o.seed, rowCount: 2 * rank, columnCount: Math.max(2 * rank, 8 * K), columnError: false },
     leadingFactors(index, im, rank, o.seed),
   );
   const pickedRows = new Set(cur.rows.indices);
