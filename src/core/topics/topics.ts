@@ -29,6 +29,7 @@
 import { EmptyCorpusError, InvalidInputError } from '../errors.js';
 import type { LsiIndex } from '../index/lsiIndex.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
+import { DEFAULT_NAME_POOL_FACTOR, TermFiles } from './coherentNames.js';
 import { curDecomposition, type CurMethod } from './cur.js';
 import { folderShares, type FolderShare } from './folderShares.js';
 import { leadingFactors, weightedMatrix } from './indexMatrix.js';
@@ -54,6 +55,10 @@ export interface TopicsOptions {
   naming: NamingScore;
   /** @default 8 */
   termsPerTopic: number;
+  /** Choose the name terms as a set that co-occurs (coherentNames.ts) rather than the most distinctive alone. @default true */
+  coherentNames: boolean;
+  /** The pool coherentNames chooses from: this many times termsPerTopic of the most distinctive terms. @default 2 */
+  namePool: number;
   /** @default 5 */
   filesPerTopic: number;
   /** @default 'deim' */
@@ -75,6 +80,8 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   setApartLoose: true,
   naming: 'informative',
   termsPerTopic: 8,
+  coherentNames: true,
+  namePool: DEFAULT_NAME_POOL_FACTOR,
   filesPerTopic: 5,
   curMethod: 'deim',
   fitSample: 2000,
@@ -211,6 +218,7 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
   }
 
   const scratch = new NameScratch(im.matrix.cols);
+  const termFiles = o.coherentNames ? new TermFiles(im.matrix) : null;
   const random = createRandom(o.seed ^ 0x5eed);
   let levels = 1;
   const build = (memberGroups: number[][], parentRows: ArrayLike<number>, level: number, parentPath: string): Topic[] => {
@@ -219,7 +227,7 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
       im.matrix,
       parentRows,
       nonEmpty.map((g) => g.map((i) => placed[i])),
-      3 * o.termsPerTopic,
+      Math.max(3, Math.ceil(o.namePool)) * o.termsPerTopic,
       o.naming,
       scratch,
       termName,
@@ -242,11 +250,11 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
         picked: pickedRows.has(row),
       }));
       const scoreOf = new Map(names[gi].map((t) => [t.col, t.score]));
-      const ranked = rankWithPicks(
-        names[gi].slice(0, o.termsPerTopic).map((t) => t.col),
-        (col) => pickedTerms.has(col),
-        o.termsPerTopic,
-      );
+      const candidates = names[gi].map((t) => t.col);
+      const chosen = termFiles
+        ? termFiles.choose(candidates.slice(0, Math.max(o.termsPerTopic, Math.round(o.namePool * o.termsPerTopic))), o.termsPerTopic)
+        : candidates.slice(0, o.termsPerTopic);
+      const ranked = rankWithPicks(chosen, (col) => pickedTerms.has(col), o.termsPerTopic);
       const terms = realWordsFirst(ranked, termName).map((col) => ({
         term: termName(col),
         word: word(termName(col)),

@@ -82,10 +82,10 @@ describe('topics of the demo workspace', () => {
       expect(t.terms.length).toBe(8);
       expect(t.files.length).toBe(5);
     }
-    // Names are scored against the sibling topics (topicNames.ts), so planted keywords that two
-    // planted topics share give way to each topic's own words: 4 of 6 on the demo (was 5 with the
-    // flat contrast score, which the NPMI evaluation on real trees ranked lower).
-    expect(named).toBeGreaterThanOrEqual(demo.topics.length - 2);
+    console.log(`demo, 6 topics: ${named} of 6 named by a planted keyword`);
+    // Names are scored against the sibling topics (topicNames.ts) and chosen as a co-occurring set
+    // (coherentNames.ts); at least 5 of the 6 planted topics keep a planted keyword.
+    expect(named).toBeGreaterThanOrEqual(demo.topics.length - 1);
     expect(report.topics.some((t) => t.terms.some((x) => x.picked))).toBe(true);
     expect(report.topics.some((t) => t.files.some((x) => x.picked))).toBe(true);
   });
