@@ -157,6 +157,19 @@ export interface TopicsReport {
 }
 
 export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}): TopicsReport {
+  const steps = topicSteps(index, options);
+  for (;;) {
+    const step = steps.next();
+    if (step.done) return step.value;
+  }
+}
+
+/**
+ * findTopics in steps: the generator yields after the first level and before each split of the
+ * tree, so a caller (the editor's worker) can let other work run in between or stop; its return
+ * value is the report. Each step is at most one k-means fit of one group.
+ */
+export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {}): Generator<void, TopicsReport, void> {
   const o = { ...DEFAULT_TOPICS_OPTIONS, ...options };
   if (o.topics !== undefined && (!Number.isInteger(o.topics) || o.topics < 1))
     throw new InvalidInputError(`the number of topics must be a positive whole number, got ${o.topics}`);
@@ -185,8 +198,10 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
     o.topics !== undefined
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
       : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed });
+  yield;
   const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed);
   const K = clustering.clusters;
+  yield;
 
   const rank = Math.max(1, Math.min(o.curRank ?? Math.min(20, Math.max(10, K)), im.matrix.rows, im.matrix.cols));
   const cur = curDecomposition(
@@ -221,7 +236,12 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
   const termFiles = o.coherentNames ? new TermFiles(im.matrix) : null;
   const random = createRandom(o.seed ^ 0x5eed);
   let levels = 1;
-  const build = (memberGroups: number[][], parentRows: ArrayLike<number>, level: number, parentPath: string): Topic[] => {
+  function* build(
+    memberGroups: number[][],
+    parentRows: ArrayLike<number>,
+    level: number,
+    parentPath: string,
+  ): Generator<void, Topic[], void> {
     const nonEmpty = memberGroups.filter((g) => g.length > 0).sort(bySize);
     const names = namesAgainstParent(
       im.matrix,
@@ -233,7 +253,9 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
       termName,
     );
     levels = Math.max(levels, level);
-    return nonEmpty.map((group, gi) => {
+    const out: Topic[] = [];
+    for (let gi = 0; gi < nonEmpty.length; gi++) {
+      const group = nonEmpty[gi];
       const path = parentPath ? `${parentPath}.${gi + 1}` : String(gi + 1);
       const idx = Int32Array.from(group);
       const centre = centreOf(points, idx, dims);
@@ -264,16 +286,17 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
       const memberPaths = members.map((m) => im.paths[m.row]);
       let children: Topic[] = [];
       if (level < o.depth && group.length > o.leafSize) {
+        yield;
         const sub = splitGroup(points, idx, dims, o, random.nextUint32());
         if (sub.length > 1)
-          children = build(
+          children = yield* build(
             sub,
             group.map((i) => placed[i]),
             level + 1,
             path,
           );
       }
-      return {
+      out.push({
         id: gi + 1,
         path,
         level,
@@ -284,11 +307,12 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
         members: memberPaths,
         folders: folderShares(memberPaths),
         children,
-      };
-    });
-  };
+      });
+    }
+    return out;
+  }
   const allRows = Int32Array.from({ length: im.matrix.rows }, (_, r) => r);
-  const topics = build(groups, allRows, 1, '');
+  const topics = yield* build(groups, allRows, 1, '');
   const pathOfCluster = new Map<number, string>();
   groups
     .map((g, t) => ({ g, t }))
