@@ -30,7 +30,7 @@ function unitPoints(n: number, dims: number, seed: number): Float64Array {
 }
 
 describe('spherical k-means from the cosine table', () => {
-  it('reports the objective of its own labels, within 2% of the vector form's on random points', () => {
+  it('reports the objective of its own labels, within 2% of the vector form on random points', () => {
     const dims = 6;
     const n = 300;
     const p = unitPoints(n, dims, 4);
