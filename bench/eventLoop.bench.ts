@@ -11,7 +11,6 @@
  *
  * Run: npm run bench:eventloop [-- files=10000 runs=3]
  */
-import { build } from 'esbuild';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
@@ -20,6 +19,7 @@ import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../src/node/worker/client.js';
 import type { WorkerConfig } from '../src/node/worker/workerProtocol.js';
+import { bundleWorkerScripts } from './workerBundle.js';
 
 const arg = (name: string, fallback: number): number =>
   Number(process.argv.find((a) => a.startsWith(`${name}=`))?.slice(name.length + 1) ?? fallback);
@@ -28,21 +28,7 @@ const runs = arg('runs', 3);
 const repo = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-eventloop-'));
 const workspace = join(tmp, 'ws');
-const workerJs = join(tmp, 'indexWorker.js');
-for (const [entry, out] of [
-  ['src/node/worker/indexWorker.ts', workerJs],
-  ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')],
-]) {
-  await build({
-    entryPoints: [join(repo, entry)],
-    outfile: out,
-    bundle: true,
-    platform: 'node',
-    format: 'cjs',
-    minify: true,
-    logLevel: 'error',
-  });
-}
+const workerJs = await bundleWorkerScripts(repo, tmp);
 
 const texts: string[] = [];
 for (const name of ['adi', 'cacm', 'cisi', 'cran']) {

@@ -8,35 +8,20 @@
  * Run: npx esbuild bench/foldIn.bench.ts --bundle --platform=node --format=esm --packages=external \
  *        --outfile=out/bench/foldIn.mjs && node out/bench/foldIn.mjs [rounds=60]
  */
-import { build } from 'esbuild';
 import { appendFileSync, cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../src/node/worker/client.js';
+import { bundleWorkerScripts } from './workerBundle.js';
 
 const rounds = Number(process.argv[2] ?? 60);
 const repo = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-foldin-'));
 const workspace = join(tmp, 'ws');
 cpSync(join(repo, 'demo', 'workspace'), workspace, { recursive: true });
-const workerJs = join(tmp, 'indexWorker.js');
-// The index worker and, beside it, the thread-pool script it starts for larger builds (as in dist/).
-for (const [entry, out] of [
-  ['src/node/worker/indexWorker.ts', workerJs],
-  ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')],
-]) {
-  await build({
-    entryPoints: [join(repo, entry)],
-    outfile: out,
-    bundle: true,
-    platform: 'node',
-    format: 'cjs',
-    minify: true,
-    logLevel: 'error',
-  });
-}
+const workerJs = await bundleWorkerScripts(repo, tmp);
 
 const worker = new Worker(workerJs);
 const client = new WorkerClient(worker);

@@ -8,7 +8,6 @@
  * Run: npx esbuild bench/reopen.bench.ts --bundle --platform=node --format=esm --packages=external \
  *        --outfile=out/bench/reopen.mjs && node out/bench/reopen.mjs [files=10000] [changed=50]
  */
-import { build } from 'esbuild';
 import { mkdirSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
@@ -17,28 +16,14 @@ import { Worker } from 'node:worker_threads';
 import { createRandom } from '../src/core/random.js';
 import { WorkerClient } from '../src/node/worker/client.js';
 import type { WorkerConfig } from '../src/node/worker/workerProtocol.js';
+import { bundleWorkerScripts } from './workerBundle.js';
 
 const n = Number(process.argv[2] ?? 10_000);
 const changed = Number(process.argv[3] ?? 50);
 const repo = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-reopen-'));
 const workspace = join(tmp, 'ws');
-const workerJs = join(tmp, 'indexWorker.js');
-// The index worker and, beside it, the thread-pool script it starts for larger builds (as in dist/).
-for (const [entry, out] of [
-  ['src/node/worker/indexWorker.ts', workerJs],
-  ['src/node/parallel/parallelWorker.ts', join(tmp, 'parallelWorker.js')],
-]) {
-  await build({
-    entryPoints: [join(repo, entry)],
-    outfile: out,
-    bundle: true,
-    platform: 'node',
-    format: 'cjs',
-    minify: true,
-    logLevel: 'error',
-  });
-}
+const workerJs = await bundleWorkerScripts(repo, tmp);
 
 const rng = createRandom(11);
 const syllables = ['ka', 'lo', 'mi', 'ren', 'tas', 'vo', 'dur', 'pel', 'sin', 'gra', 'ho', 'bex', 'nu', 'fal', 'quo', 'zet'];

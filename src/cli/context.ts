@@ -26,6 +26,8 @@ export const COMMON_OPTIONS = {
   seed: { type: 'string' },
   quiet: { type: 'boolean', short: 'q' },
   'follow-links': { type: 'boolean' },
+  sections: { type: 'boolean' },
+  'skip-sections': { type: 'boolean' },
 } as const;
 
 export function positiveInt(value: unknown, name: string): number | undefined {
@@ -115,6 +117,7 @@ export async function ensureIndex(
       scan: scanFrom(flags),
       indexFile,
       force: opts.force,
+      ...(flags['skip-sections'] ? { sections: false } : {}),
       sharedModel: typeof flags.model === 'string' ? (flags.model === 'none' ? null : flags.model) : undefined,
       onProgress: bar.update,
     });

@@ -6,6 +6,7 @@
 import { parseArgs } from 'node:util';
 import { EXIT, EXIT_CODE_HELP, describeFailure } from './failure.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
+import { DEFAULT_MIN_SIMILARITY } from '../core/links/suggestLinks.js';
 import { askCommand } from './commands/askCommand.js';
 import { evalCommand } from './commands/evalCommand.js';
 import { countCommand } from './commands/countCommand.js';
@@ -13,7 +14,8 @@ import { exportCommand } from './commands/exportCommand.js';
 import { importFactorsCommand } from './commands/importFactorsCommand.js';
 import { importModelCommand } from './commands/importModelCommand.js';
 import { indexCommand } from './commands/indexCommand.js';
-import { lookalikesCommand } from './commands/lookalikesCommand.js';
+import { linksCommand } from './commands/linksCommand.js';
+import { overlapsCommand } from './commands/overlapsCommand.js';
 import { mapCommand } from './commands/mapCommand.js';
 import { nearbyCommand } from './commands/nearbyCommand.js';
 import { topicsCommand } from './commands/topicsCommand.js';
@@ -27,10 +29,13 @@ usage:
   undertone ask    <folder> "<text>"        files ranked by meaning for plain-language text
   undertone ask    <folder> --queries q.jsonl   batch: one JSON line out per {"id","text"} line in
   undertone nearby <folder> <file>          the files nearest in meaning to one file
+  undertone links  <folder> [<file>]        suggested links: notes near in meaning, not yet linked
+                                            either way (--top N per note, default 5)
   undertone eval   <folder> --queries q.jsonl --qrels qrels.tsv   MAP, P@10, nDCG@10
   undertone topics <folder>                 topics, each named by its words and example files
-  undertone lookalikes <folder>             overlaps: exact copies, near-copies, partial copies,
-                                            same content in other words (--top N per band, default 20)
+  undertone overlaps <folder>               exact copies, near-copies, partial copies and same
+                                            content in other words (--top N per band, default 20;
+                                            'lookalikes' is the old name, still accepted)
   undertone export <folder> --format mtx --out DIR   weighted term-document matrix (Matrix Market),
                                             terms.txt and files.txt, for an SVD elsewhere
                                             (--format model --out FILE: the concept model, to share)
@@ -43,6 +48,9 @@ usage:
 
 options:
   --top N                    how many results (default 10)
+  --sections                 (ask) rank sections (headings, declarations) instead of files;
+                             (nearby, with --line N) the sections nearest to the one at line N
+  --skip-sections            (index) build without section vectors (a smaller index file)
   --k N|auto                 concept dimensions (default auto: grows with the collection)
   --weighting log-entropy|tfidf   term weighting (default log-entropy)
   --json                     machine-readable output
@@ -59,7 +67,9 @@ options:
   --depth N                  (topics) levels of sub-topics to find and show (default 2; with
                              --json the whole tree, up to 4)
   --in FOLDER                (topics) the topics of one sub-folder: how many of its files each holds
-  --threshold J              (lookalikes) shingle Jaccard for near-copies (default 0.8)
+  --min-similarity S         (links) the least similarity worth suggesting (default
+                             ${DEFAULT_MIN_SIMILARITY}, calibrated on linked documentation)
+  --threshold J              (overlaps) shingle Jaccard for near-copies (default 0.8)
   --layout both|quick|faithful   (map) layouts in the page (default both, opening on faithful;
                              quick skips the slower faithful layout; faithful is the same as both,
                              since the page places queries with the quick projection)
@@ -74,13 +84,14 @@ ${EXIT_CODE_HELP}
 
 /** Options that only some commands use (the rest apply to every command): others are warned about. */
 const APPLIES_TO: Record<string, readonly string[]> = {
-  top: ['ask', 'nearby'],
+  top: ['ask', 'nearby', 'links'],
   queries: ['ask', 'eval'],
   qrels: ['eval'],
   rebuild: ['index'],
   explain: ['ask', 'nearby'],
   topics: ['topics', 'map'],
-  threshold: ['lookalikes'],
+  threshold: ['overlaps'],
+  'min-similarity': ['links'],
   layout: ['map'],
   'max-terms': ['map'],
   format: ['export'],
@@ -122,12 +133,14 @@ const EXTRA_OPTIONS = {
   qrels: { type: 'string' },
   rebuild: { type: 'boolean' },
   explain: { type: 'boolean' },
+  line: { type: 'string' },
   like: { type: 'string', multiple: true },
   unlike: { type: 'string', multiple: true },
   topics: { type: 'string' },
   depth: { type: 'string' },
   in: { type: 'string' },
   threshold: { type: 'string' },
+  'min-similarity': { type: 'string' },
   layout: { type: 'string' },
   'max-terms': { type: 'string' },
   format: { type: 'string' },
@@ -157,7 +170,9 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     return EXIT.usage;
   }
   const flags = parsed.values as Flags;
-  const [command, folder, ...rest] = parsed.positionals;
+  const [given, folder, ...rest] = parsed.positionals;
+  // `lookalikes` was the command's name before the editor's view became "Overlaps"; still accepted.
+  const command = given === 'lookalikes' ? 'overlaps' : given;
   if (flags.help || !command) {
     (flags.help ? io.out : io.err)(USAGE);
     return flags.help ? EXIT.ok : EXIT.usage;
@@ -166,9 +181,10 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     'index',
     'ask',
     'nearby',
+    'links',
     'eval',
     'topics',
-    'lookalikes',
+    'overlaps',
     'export',
     'import-factors',
     'map',
@@ -185,9 +201,9 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
   }
   // An unquoted question arrives as several words: join them (ask); other commands take at most one more.
   const arg = command === 'ask' ? (rest.length > 0 ? rest.join(' ') : undefined) : rest[0];
-  if (command !== 'ask' && rest.length > (command === 'nearby' ? 1 : 0)) {
+  if (command !== 'ask' && rest.length > (command === 'nearby' || command === 'links' ? 1 : 0)) {
     io.err(
-      `undertone ${command}: unexpected argument${rest.length > 1 ? 's' : ''} ${rest.map((r) => `"${r}"`).join(' ')}${command === 'nearby' ? ' (nearby takes one file; quote a name with spaces)' : ''}\n${HINT}`,
+      `undertone ${command}: unexpected argument${rest.length > 1 ? 's' : ''} ${rest.map((r) => `"${r}"`).join(' ')}${command === 'nearby' || command === 'links' ? ` (${command} takes one file; quote a name with spaces)` : ''}\n${HINT}`,
     );
     return EXIT.usage;
   }
@@ -210,10 +226,12 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
         return await askCommand(folder, arg, flags, io);
       case 'nearby':
         return await nearbyCommand(folder, arg, flags, io);
+      case 'links':
+        return await linksCommand(folder, arg, flags, io);
       case 'topics':
         return await topicsCommand(folder, flags, io);
-      case 'lookalikes':
-        return await lookalikesCommand(folder, flags, io);
+      case 'overlaps':
+        return await overlapsCommand(folder, flags, io);
       case 'export':
         return await exportCommand(folder, flags, io);
       case 'import-factors':

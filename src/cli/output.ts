@@ -23,6 +23,7 @@ const STAGE_LABEL: Record<IndexStage, string> = {
   read: 'reading and tokenizing',
   matrix: 'weighting the matrix',
   svd: 'computing the SVD',
+  sections: 'folding in sections',
   save: 'saving',
 };
 

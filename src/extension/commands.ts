@@ -51,6 +51,10 @@ export function registerCommands(deps: CommandDeps): vscode.Disposable[] {
       await runSearch(deps, text.length > 2000 ? text.slice(0, 2000) : text);
     }),
     reg('undertone.rebuildIndex', () => controller.build('user')),
+    reg('undertone.rankSections', () => search.setSections(true)),
+    reg('undertone.rankFiles', () => search.setSections(false)),
+    reg('undertone.nearbyAtCursor', () => nearby.setAtCursor(true)),
+    reg('undertone.nearbyWholeFile', () => nearby.setAtCursor(false)),
     reg('undertone.cancelIndexing', () => controller.cancelBuild()),
     reg('undertone.showNearby', async (uri?: vscode.Uri) => {
       const target = uri instanceof vscode.Uri ? uri : vscode.window.activeTextEditor?.document.uri;

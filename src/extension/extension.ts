@@ -9,6 +9,7 @@ import { FileEvents } from './fileEvents.js';
 import { IndexController, type ControllerHost } from './indexController.js';
 import { summaryOf, type IndexState } from './indexState.js';
 import { registerInsights } from './insights.js';
+import { registerLinkSuggestions } from './linkSuggestionsView.js';
 import { NearbyProvider } from './nearbyView.js';
 import { SearchResultsProvider } from './searchView.js';
 import { IndexStatusBar } from './statusBar.js';
@@ -102,9 +103,16 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
     }),
     vscode.workspace.onDidChangeConfiguration((e) => {
       if (e.affectsConfiguration('undertone.nearbyCount')) void nearby.refresh();
-      const relevant = ['include', 'exclude', 'maxFileSizeKB', 'dimensions', 'weighting', 'useGitignore', 'followLinksOutside'].some((k) =>
-        e.affectsConfiguration(`undertone.${k}`),
-      );
+      const relevant = [
+        'include',
+        'exclude',
+        'maxFileSizeKB',
+        'dimensions',
+        'weighting',
+        'useGitignore',
+        'followLinksOutside',
+        'languages',
+      ].some((k) => e.affectsConfiguration(`undertone.${k}`));
       if (relevant || e.affectsConfiguration('files.exclude')) reconfigureSoon();
     }),
     vscode.workspace.onDidChangeWorkspaceFolders(() => {
@@ -112,6 +120,7 @@ export function activate(context: vscode.ExtensionContext): UndertoneApi {
       reconfigureSoon();
     }),
     ...registerCommands({ controller, nearby, search, log, indexFile }),
+    ...registerLinkSuggestions(controller),
     ...registerInsights({
       controller,
       extensionUri: context.extensionUri,

@@ -22,6 +22,7 @@ import {
   type ScoredFile,
   type SearchMatch,
   type TranslationRef,
+  SectionMatch,
 } from '../node/worker/workerProtocol.js';
 import { NO_FEEDBACK, type SearchFeedback } from './viewModels.js';
 import { uniqueRootNames } from '../node/worker/rootMap.js';
@@ -217,6 +218,25 @@ export class IndexController {
   async translations(fsPath: string): Promise<readonly TranslationRef[]> {
     if (!this._worker || summaryOf(this._state) === null) return [];
     return this._worker.client.request('translations', { fsPath });
+  }
+
+  /** Suggested links for a note (node/worker/linkService.ts); null while there is no index or it is not an indexed note. */
+  async suggestLinks(fsPath: string, top: number): Promise<ResultOf<'suggestLinks'> | null> {
+    if (!this._worker || summaryOf(this._state) === null) return null;
+    return this._worker.client.request('suggestLinks', { fsPath, top });
+  }
+
+  /** Sections ranked by a query instead of files ([] without an index). */
+  async searchSections(query: string, top: number): Promise<readonly SectionMatch[]> {
+    const client = await this.connect();
+    if (!client) return [];
+    return client.request('searchSections', { query, top });
+  }
+
+  /** Other files' sections nearest to the section at a zero-based line (null: no index or no sections). */
+  async nearbySections(fsPath: string, line: number, top: number): Promise<{ from: SectionMatch; hits: readonly SectionMatch[] } | null> {
+    if (!this._worker || summaryOf(this._state) === null) return null;
+    return this._worker.client.request('nearbySections', { fsPath, line, top });
   }
 
   async nearby(fsPath: string, top: number): Promise<readonly ScoredFile[] | null> {

@@ -60,7 +60,7 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
       if (map) map.reveal();
       else map = new ConceptMapPanel(deps.extensionUri, controller, log, () => (map = undefined));
     }),
-    reg('undertone.refreshLookalikes', () => lookalikes.refresh()),
+    reg('undertone.refreshOverlaps', () => lookalikes.refresh()),
     reg('undertone.showMoreOverlaps', (node?: unknown) => {
       if (node && typeof node === 'object' && (node as { type?: unknown }).type === 'more') lookalikes.showMore(node as MoreNode);
     }),
@@ -71,17 +71,17 @@ export function registerInsights(deps: InsightDeps): vscode.Disposable[] {
       await topics.showFolder(target.fsPath);
     }),
     reg('undertone.showAllTopics', () => topics.showAll()),
-    reg('undertone.compareLookalike', async (node?: unknown) => {
+    reg('undertone.compareOverlap', async (node?: unknown) => {
       if (!isPair(node)) return;
       const title = `${node.label} (${node.description})`;
       await vscode.commands.executeCommand('vscode.diff', vscode.Uri.file(node.a.fsPath), vscode.Uri.file(node.b.fsPath), title, {
         preview: true,
       });
     }),
-    reg('undertone.dismissLookalike', async (node?: unknown) => {
+    reg('undertone.dismissOverlap', async (node?: unknown) => {
       if (isPair(node)) await lookalikes.hide(node);
     }),
-    reg('undertone.restoreLookalikes', async () => {
+    reg('undertone.restoreOverlaps', async () => {
       const n = await lookalikes.restoreHidden();
       void vscode.window.showInformationMessage(
         n > 0 ? `${n} dismissed ${n === 1 ? 'pair is' : 'pairs are'} shown again.` : 'No pairs were dismissed.',

@@ -23,7 +23,7 @@ import {
 } from './lookalikeModel.js';
 
 export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode>, vscode.Disposable {
-  static readonly viewType = 'undertone.lookalikes';
+  static readonly viewType = 'undertone.overlaps';
 
   private _result: LookalikesResult | undefined;
   private _tree: LookalikeTree = { sections: [], hidden: 0, shown: 0 };
@@ -159,8 +159,8 @@ export class LookalikesProvider implements vscode.TreeDataProvider<LookalikeNode
     item.description = node.description;
     item.tooltip = node.tooltip;
     item.iconPath = new vscode.ThemeIcon('diff');
-    item.contextValue = 'undertone.lookalikePair';
-    item.command = { command: 'undertone.compareLookalike', title: 'Compare', arguments: [node] };
+    item.contextValue = 'undertone.overlapPair';
+    item.command = { command: 'undertone.compareOverlap', title: 'Compare', arguments: [node] };
     return item;
   }
 

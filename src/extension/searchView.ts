@@ -3,7 +3,8 @@
  * best-matching passage (a row under it, the question's words highlighted) and, for a page with
  * translations, the other languages. When the index changes, deleted files leave at once and the
  * search is run again so scores and passages follow the edits; when the index goes (deleted,
- * lost), the results go too and the view's welcome text says why.
+ * lost), the results go too and the view's welcome text says why. A toggle in the view's title
+ * ranks sections (headings, declarations) instead of files.
  */
 import * as vscode from 'vscode';
 import type { IndexController } from './indexController.js';
@@ -15,6 +16,7 @@ import {
   NO_FEEDBACK,
   searchEntries,
   searchViewDescription,
+  sectionEntries,
   withoutKeys,
   type ResultEntry,
   type ResultNode,
@@ -33,6 +35,7 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultNode
   private _view: vscode.TreeView<ResultNode> | undefined;
   private _rerun: ReturnType<typeof setTimeout> | undefined;
   private _seq = 0;
+  private _sections = false;
   private readonly _onDidChangeTreeData = new vscode.EventEmitter<void>();
   private readonly _disposables: vscode.Disposable[] = [this._onDidChangeTreeData];
   readonly onDidChangeTreeData = this._onDidChangeTreeData.event;
@@ -70,12 +73,25 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultNode
     return this._entries.some((e) => e.key === key);
   }
 
-  /** Shows the results of a search just made. */
+  /** Shows the results of a search just made (ranked again by sections when the toggle is on). */
   show(query: string, entries: ResultEntry[], feedback: SearchFeedback = NO_FEEDBACK): void {
     this._seq++;
     this._query = query;
     this._feedback = feedback;
     this.setEntries(entries);
+    if (this._sections) void this.rerun();
+  }
+
+  /** Whether sections are ranked instead of files. */
+  get sections(): boolean {
+    return this._sections;
+  }
+
+  /** Switches between ranking files and ranking sections, and runs the shown search again. */
+  async setSections(on: boolean): Promise<void> {
+    this._sections = on;
+    await vscode.commands.executeCommand('setContext', 'undertone.searchSections', on);
+    await this.rerun();
   }
 
   clear(): void {
@@ -105,7 +121,13 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultNode
     if (query === undefined) return;
     const seq = ++this._seq;
     try {
-      const matches = await this._controller.search(query, this._controller.settings.nearbyCount * 2, this._feedback);
+      const top = this._controller.settings.nearbyCount * 2;
+      if (this._sections) {
+        const sections = await this._controller.searchSections(query, top);
+        if (seq === this._seq) this.setEntries(sectionEntries(sections, this._controller.multiRoot));
+        return;
+      }
+      const matches = await this._controller.search(query, top, this._feedback);
       if (seq === this._seq) this.setEntries(searchEntries(matches, this._controller.multiRoot));
     } catch {
       if (seq === this._seq) this.setEntries([]);

@@ -9,6 +9,9 @@ import { isAbsolute, join } from 'node:path';
 import type { IndexSettings } from '../core/index/model/settings.js';
 import { sharedModelSetting } from '../node/conceptModelFile.js';
 import { WEIGHTING_SCHEMES, type WeightingScheme } from '../core/weighting/termWeighting.js';
+import type { LanguageSetting } from '../core/text/detectLanguage.js';
+import { isLanguage, type Language } from '../core/text/languageCodes.js';
+import { DEFAULT_TOKENIZE_OPTIONS } from '../core/text/tokenize.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../node/scanTypes.js';
 import type { WorkerConfig, WorkspaceRoot } from '../node/worker/workerProtocol.js';
 
@@ -27,6 +30,8 @@ export interface ExtensionSettings {
   readonly autoRebuild: boolean;
   /** A shared concept model file to fold the workspace into instead of a local SVD ('' = none). */
   readonly conceptModel: string;
+  /** Languages files may be in: 'auto' (detect among all), or a list of codes (src/core/text/languages.ts). */
+  readonly languages: LanguageSetting;
 }
 
 /** Defaults, identical to the manifest's (the file-size cap is the scanner's). */
@@ -42,6 +47,7 @@ export const DEFAULT_EXTENSION_SETTINGS: ExtensionSettings = Object.freeze({
   nearbyCount: 10,
   autoRebuild: true,
   conceptModel: '',
+  languages: 'auto',
 });
 
 /** Reads one setting under `undertone.` (as WorkspaceConfiguration.get does). */
@@ -67,7 +73,14 @@ export function readSettings(get: SettingGetter): ExtensionSettings {
     nearbyCount: int(get('nearbyCount'), d.nearbyCount, 1, 100),
     autoRebuild: bool(get('autoRebuild'), d.autoRebuild),
     conceptModel: typeof get('conceptModel') === 'string' ? (get('conceptModel') as string).trim() : d.conceptModel,
+    languages: parseLanguages(get('languages')),
   };
+}
+
+/** "auto", or the known language codes of a list (an empty or unknown list is "auto"). */
+export function parseLanguages(v: unknown): LanguageSetting {
+  const list = Array.isArray(v) ? v.filter((x): x is Language => typeof x === 'string' && isLanguage(x)) : [];
+  return list.length > 0 ? [...new Set(list)] : 'auto';
 }
 
 /** "auto", or a whole number of dimensions from 2 up (as a number or a string); anything else is "auto". */
@@ -149,6 +162,7 @@ export function toWorkerConfig(
     exclude: enabledPatterns(f.filesExclude).flatMap(globToGitignore),
   }));
   const settings: Partial<IndexSettings> = { k: s.dimensions, weighting: s.weighting };
+  if (s.languages !== 'auto') settings.tokenize = { ...DEFAULT_TOKENIZE_OPTIONS, languages: s.languages };
   if (s.conceptModel) {
     // Relative paths are taken from the first workspace folder; the key is the file's CRC-32.
     const path = isAbsolute(s.conceptModel) || folders.length === 0 ? s.conceptModel : join(folders[0].fsPath, s.conceptModel);

@@ -4,7 +4,7 @@
  * workspace folder; with several folders the folder's name is shown too.
  */
 import type { Why } from '../node/worker/insightProtocol.js';
-import type { ScoredFile, SearchMatch, TranslationRef } from '../node/worker/workerProtocol.js';
+import type { ScoredFile, SearchMatch, SectionMatch, SectionPlace, TranslationRef } from '../node/worker/workerProtocol.js';
 
 /** The matching passage of a search result, shown as a row under it with the query's words marked. */
 export interface PassageEntry {
@@ -192,9 +192,9 @@ export function searchEntries(matches: readonly SearchMatch[], multiRoot: boolea
       key: m.key,
       fsPath: m.fsPath,
       label: fileName(m.relPath),
-      description: describe(m.score, m, multiRoot, translations.length),
-      tooltip: `${shownPath(m, multiRoot)}, line ${m.line + 1}\nScore: ${formatScore(m.score)}${languageLine(m)}`,
-      line: m.line,
+      description: describe(m.score, m, multiRoot, translations.length) + (m.section ? ` · ${m.section.title}` : ''),
+      tooltip: `${shownPath(m, multiRoot)}, line ${m.line + 1}\nScore: ${formatScore(m.score)}${languageLine(m)}${sectionLine(m.section)}`,
+      line: m.section && !(m.section.start <= m.line && m.line < m.section.end) ? m.section.start : m.line,
       why: m.why,
       ...(children.length ? { children, expanded: passage.length > 0 } : {}),
     };
@@ -256,4 +256,21 @@ export function searchViewDescription(query: string | undefined, count: number):
   if (query === undefined) return '';
   const q = query.length > 40 ? `${query.slice(0, 39)}…` : query;
   return `“${q}” · ${count} ${count === 1 ? 'result' : 'results'}`;
+}
+
+/** "\nBest section: Title (lines 12–40)" for a result's tooltip ('' without a section). */
+function sectionLine(s: SectionPlace | undefined): string {
+  return s ? `\nBest section: ${s.title} (lines ${s.start + 1}–${s.end})` : '';
+}
+
+/** Rows for sections as results (section search, Nearby at the cursor): titled, opening at their first line. */
+export function sectionEntries(matches: readonly SectionMatch[], multiRoot: boolean): ResultEntry[] {
+  return matches.map((m) => ({
+    key: `${m.key}#${m.start}`,
+    fsPath: m.fsPath,
+    label: m.title,
+    description: `${fileName(m.relPath)} · lines ${m.start + 1}–${m.end} · ${formatScore(m.score)}`,
+    tooltip: `${shownPath(m, multiRoot)}, lines ${m.start + 1}–${m.end}\nSection: ${m.title}\nScore: ${formatScore(m.score)}`,
+    line: m.start,
+  }));
 }

@@ -42,6 +42,8 @@ export interface FolderIndexOptions {
    * a local SVD, undefined to keep what the saved index used.
    */
   sharedModel?: string | null;
+  /** Fold each file's sections into the model (src/core/sections). @default true */
+  sections?: boolean;
 }
 
 export interface FolderIndexReport {
@@ -107,6 +109,7 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     signal: options.signal,
     onProgress: progress,
     threads: options.parallel ?? {},
+    sections: options.sections,
   });
   const outcome = result.unchanged ? 'unchanged' : previous ? 'refreshed' : 'fresh';
   return { ...report(result, outcome, savedIndexProblem, { load: loadSeconds, ...result.seconds }, t0), saveProblem, scanSkipped };

@@ -24,19 +24,21 @@ import type { DocMeta, LsiIndex } from '../core/index/lsiIndex.js';
 import { IndexBuilder } from '../core/index/model/indexBuilder.js';
 import { modelSettingsKey, type IndexSettings } from '../core/index/model/settings.js';
 import { countTerms, Vocabulary } from '../core/counting/termCounts.js';
-import { tokenize } from '../core/text/tokenize.js';
+import { tokenizeIn } from '../core/text/tokenizeLanguage.js';
+import { fileLanguage, withLanguage } from '../core/text/detectLanguage.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
 import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
 import { readIndexableText } from './scanRead.js';
 import type { SkippedPath } from './scanTypes.js';
 import { readSharedModel } from './conceptModelFile.js';
+import { foldFileSections } from './sectionPass.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
 
 /** The pipeline's stages, in order; the adapters report these (the command line adds 'load'). */
-export type PipelineStage = 'scan' | 'read' | 'matrix' | 'svd' | 'save';
+export type PipelineStage = 'scan' | 'read' | 'matrix' | 'svd' | 'sections' | 'save';
 
 export interface PipelineProgress {
   readonly stage: PipelineStage;
@@ -99,6 +101,8 @@ export interface PipelineOptions {
   /** Polled as well as signal, including during the synchronous SVD. */
   readonly isCancelled?: () => boolean;
   readonly onProgress?: (p: PipelineProgress) => void;
+  /** Fold each file's sections into the built model (src/core/sections). @default true */
+  readonly sections?: boolean;
   /** Threads for tokenizing and the SVD (false: this thread only). @default {} (all cores) */
   readonly threads?: PoolOptions | false;
 }
@@ -135,7 +139,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
   const check = (): void => {
     if (cancelled()) throw new CancelledError();
   };
-  const seconds: Record<PipelineStage, number> = { scan: 0, read: 0, matrix: 0, svd: 0, save: 0 };
+  const seconds: Record<PipelineStage, number> = { scan: 0, read: 0, matrix: 0, svd: 0, sections: 0, save: 0 };
   let mark = performance.now();
   const lap = (stage: PipelineStage): void => {
     const now = performance.now();
@@ -174,7 +178,10 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     for (const f of scan.files) {
       const old = sameTokens ? previous.meta(f.key) : undefined;
       if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
-        builder.addCounted({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, previous!.termsOf(f.key));
+        builder.addCounted(
+          withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, old.language),
+          previous!.termsOf(f.key),
+        );
         reused++;
       } else toRead.push(f);
     }
@@ -182,7 +189,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     // ---- read and count
     const record = (f: SourceFile, got: CountOutcome): void => {
       if (got.kind === 'text') {
-        const meta: DocMeta = { path: f.key, size: f.size, mtimeMs: f.mtimeMs };
+        const meta: DocMeta = withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.language);
         builder.addCounted(meta, got.terms);
         bytesRead += f.size;
         read++;
@@ -215,7 +222,12 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       for (let i = 0; i < toRead.length; i++) {
         const f = toRead[i];
         const got = await readIndexableText(f.absPath, options.maxFileBytes);
-        record(f, got.kind === 'text' ? { kind: 'text', terms: countTerms(tokenize(got.text, settings.tokenize), vocab, true) } : got);
+        if (got.kind !== 'text') record(f, got);
+        else {
+          const language = fileLanguage(f.key, got.text, settings.tokenize.languages);
+          const terms = countTerms(tokenizeIn(got.text, settings.tokenize, language), vocab, true);
+          record(f, { kind: 'text', terms, language: language === 'en' ? undefined : language });
+        }
         if (i % 64 === 0) {
           check();
           progress({ stage: 'read', done: reused + i, total });
@@ -262,6 +274,16 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     // The threads (and the shared memory of the SVD) are not needed to save.
     await releasePool();
     check();
+
+    // ---- sections: every file read again, cut into sections, each folded into the new model
+    if (options.sections !== false) {
+      const keyed = scan.files.filter((f) => index.has(f.key));
+      await foldFileSections(index, keyed, options.maxFileBytes, {
+        check,
+        onProgress: (done) => progress({ stage: 'sections', done, total: keyed.length }),
+      });
+      lap('sections');
+    }
 
     // ---- save
     if (options.save) {

@@ -48,12 +48,33 @@ describe('undertone command line', () => {
     expect(table.code).toBe(0);
     const lines = table.out.split('\n');
     expect(lines[0]).toMatch(/^rank\s+score\s+path$/);
-    expect(lines.length).toBe(5);
+    // Each result is followed by its best section ("in: title (lines a–b)").
+    expect(lines.filter((l) => !l.startsWith('        in: ')).length).toBe(5);
+    expect(lines.filter((l) => /^ {8}in: .+ \(lines \d+–\d+\)$/.test(l)).length).toBe(3);
     expect(table.out).toContain(`notes/${target.id}.md`);
     const json = await run('ask', folder, target.text.slice(0, 120), '--top', '2', '--json');
     const parsed = JSON.parse(json.out);
     expect(parsed.results).toHaveLength(2);
     expect(parsed.results[0].score).toBeGreaterThanOrEqual(parsed.results[1].score);
+  });
+
+  it('ranks sections with --sections and lists the sections nearest to a line with nearby --line', async () => {
+    const target = cran.docs[20];
+    const res = await run('ask', folder, target.text.slice(0, 120), '--top', '3', '--sections', '--json');
+    expect(res.code).toBe(0);
+    const parsed = JSON.parse(res.out) as {
+      sections: { path: string; title: string; startLine: number; endLine: number; score: number }[];
+    };
+    expect(parsed.sections).toHaveLength(3);
+    expect(parsed.sections.map((s) => s.path)).toContain(`notes/${target.id}.md`);
+    for (const s of parsed.sections) expect(s.endLine).toBeGreaterThanOrEqual(s.startLine);
+    const near = await run('nearby', folder, `notes/${target.id}.md`, '--line', '1', '--json');
+    expect(near.code).toBe(0);
+    const n = JSON.parse(near.out) as { section: { path: string; startLine: number }; results: { path: string }[] };
+    expect(n.section.path).toBe(`notes/${target.id}.md`);
+    expect(n.section.startLine).toBe(1);
+    expect(n.results.length).toBeGreaterThan(0);
+    expect(n.results.every((r) => r.path !== n.section.path)).toBe(true);
   });
 
   it('answers a batch of queries, one JSON line per query id', async () => {

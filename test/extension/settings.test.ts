@@ -8,6 +8,7 @@ import {
   enabledPatterns,
   globToGitignore,
   parseDimensions,
+  parseLanguages,
   readSettings,
   toWorkerConfig,
 } from '../../src/extension/settings.js';
@@ -44,7 +45,15 @@ describe('readSettings', () => {
       autoRebuild: false,
       conceptModel: '',
       followLinksOutside: false,
+      languages: 'auto',
     });
+  });
+
+  it('reads undertone.languages as "auto" or the known codes of a list', () => {
+    expect(parseLanguages([])).toBe('auto');
+    expect(parseLanguages(undefined)).toBe('auto');
+    expect(parseLanguages(['de', 'en', 'de', 'xx', 3])).toEqual(['de', 'en']);
+    expect(parseLanguages(['xx'])).toBe('auto');
   });
 
   it('reads dimensions as "auto" or a whole number of at least 2', () => {

@@ -10,6 +10,7 @@ import {
   searchEntries,
   searchPickItems,
   searchViewDescription,
+  sectionEntries,
   subjectTranslationsEntry,
   withoutKeys,
 } from '../../src/extension/viewModels.js';
@@ -137,6 +138,33 @@ describe('result entries', () => {
     expect(searchViewDescription(undefined, 0)).toBe('');
     expect(searchViewDescription('lost property', 1)).toBe('“lost property” · 1 result');
     expect(searchViewDescription('x'.repeat(50), 3)).toBe(`“${'x'.repeat(39)}…” · 3 results`);
+  });
+});
+
+describe('sections in results', () => {
+  it('a search result names its best section and opens there when the passage lies outside it', () => {
+    const section = { title: 'Refund window', start: 20, end: 41 };
+    const [inside, outside] = searchEntries(
+      [
+        { ...hit('notes/refunds.md', 0.7), line: 25, lineText: 'Paid back within five days.', section },
+        { ...hit('notes/fares.md', 0.6), line: 3, lineText: 'Fares change in spring.', section },
+      ],
+      false,
+    );
+    expect(inside.description).toBe('0.70 · notes · Refund window');
+    expect(inside.line).toBe(25);
+    expect(outside.line).toBe(20);
+    expect(inside.tooltip).toContain('Best section: Refund window (lines 21–41)');
+  });
+
+  it('a section row is titled by the section, opens at its first line and names its file and lines', () => {
+    const [row] = sectionEntries([{ ...hit('notes/refunds.md', 0.5), title: 'Refund window', start: 20, end: 41 }], false);
+    expect(row).toMatchObject({
+      key: 'notes/refunds.md#20',
+      label: 'Refund window',
+      description: 'refunds.md · lines 21–41 · 0.50',
+      line: 20,
+    });
   });
 });
 

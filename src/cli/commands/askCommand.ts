@@ -7,6 +7,8 @@ import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../../cor
 import { QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
+import { bestSections, searchSections } from '../../core/sections/sectionSearch.js';
+import type { SectionHit } from '../../core/sections/sectionStore.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
 import { readQueries } from '../queryFiles.js';
@@ -37,7 +39,8 @@ export async function askCommand(folder: string, text: string | undefined, flags
     );
   const { index } = await ensureIndex(folder, flags, io);
   const feedback = { like: likes.map((f) => indexedKey(index, folder, f)), unlike: unlikes.map((f) => indexedKey(index, folder, f)) };
-  printHits(index, text ?? '', top, flags, io, feedback);
+  if (flags.sections) printSections(index, text ?? '', top, flags, io, feedback);
+  else printHits(index, text ?? '', top, flags, io, feedback);
   return 0;
 }
 
@@ -59,14 +62,21 @@ function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io:
   const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
   forms.add(text);
   const why = (path: string): Explanation | null => explainer?.explain(path) ?? null;
+  const places = bestSections(
+    index,
+    text,
+    hits.map((h) => h.path),
+  );
   if (flags.json) {
     const results = hits.map((h) => {
       const e = why(h.path);
+      const s = places.get(h.path);
       return {
         path: h.path,
         score: round(h.score),
         concept: round(h.conceptScore),
         lexical: round(h.lexicalScore),
+        ...(s ? { section: sectionJson(s) } : {}),
         ...(e ? { explain: explanationJson(e, forms) } : {}),
       };
     });
@@ -78,6 +88,8 @@ function printHits(index: LsiIndex, text: string, top: number, flags: Flags, io:
   lines.slice(0, 2).forEach((l) => io.out(l));
   hits.forEach((h, i) => {
     io.out(lines[i + 2]);
+    const s = places.get(h.path);
+    if (s) io.out(`        in: ${sectionLabel(s)}`);
     const e = why(h.path);
     if (e) io.out(explanationLine(e, forms));
   });
@@ -115,4 +127,32 @@ export function explanationJson(e: Explanation, forms: SurfaceForms, count = 10)
 
 export function round(x: number): number {
   return Math.round(x * 10000) / 10000;
+}
+
+/** `--sections`: sections ranked instead of files (src/core/sections/sectionSearch.ts). */
+function printSections(
+  index: LsiIndex,
+  text: string,
+  top: number,
+  flags: Flags,
+  io: Io,
+  feedback: { like: string[]; unlike: string[] },
+): void {
+  if (index.sections.count === 0) io.err('note: this index has no sections (built with --skip-sections); rebuild it to rank sections.');
+  const hits = searchSections(index, text, { top, ...feedback });
+  if (flags.json) {
+    io.out(JSON.stringify({ query: text, sections: hits.map((h) => ({ path: h.path, score: round(h.score), ...sectionJson(h) })) }));
+    return;
+  }
+  const rows = hits.map((h, i) => [String(i + 1), h.score.toFixed(3), `${h.path}:${h.start + 1}`, sectionLabel(h)]);
+  formatTable(['rank', 'score', 'place', 'section'], rows, [true, true, false, false]).forEach((l) => io.out(l));
+}
+
+/** "Title (lines 12–40)", one-based as an editor shows lines. */
+export function sectionLabel(s: Pick<SectionHit, 'title' | 'start' | 'end'>): string {
+  return `${s.title} (lines ${s.start + 1}–${s.end})`;
+}
+
+function sectionJson(s: SectionHit): { title: string; startLine: number; endLine: number } {
+  return { title: s.title, startLine: s.start + 1, endLine: s.end };
 }

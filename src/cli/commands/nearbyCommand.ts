@@ -6,7 +6,8 @@ import { SurfaceForms } from '../../core/text/surfaceForms.js';
 import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
-import { explanationJson, explanationLine, round } from './askCommand.js';
+import { explanationJson, explanationLine, round, sectionLabel } from './askCommand.js';
+import { nearbySections } from '../../core/sections/sectionSearch.js';
 
 export async function nearbyCommand(folder: string, file: string | undefined, flags: Flags, io: Io): Promise<number> {
   if (!file) throw new InvalidInputError('nearby needs a file: undertone nearby <folder> <file>');
@@ -16,6 +17,20 @@ export async function nearbyCommand(folder: string, file: string | undefined, fl
   const fromCwd = relative(resolve(folder), resolve(file)).split('\\').join('/');
   const key = index.has(file) ? file : index.has(fromCwd) ? fromCwd : undefined;
   if (key === undefined) throw new NotIndexedError(file);
+  if (flags.sections || flags.line !== undefined) {
+    const line = positiveInt(flags.line ?? '1', 'line')!;
+    const near = nearbySections(index, key, line - 1, { top });
+    if (!near) throw new InvalidInputError(`"${key}" has no sections in this index (built with --skip-sections?)`);
+    if (flags.json) {
+      const place = (h: typeof near.from) => ({ path: h.path, title: h.title, startLine: h.start + 1, endLine: h.end });
+      io.out(JSON.stringify({ section: place(near.from), results: near.hits.map((h) => ({ ...place(h), score: round(h.score) })) }));
+      return 0;
+    }
+    io.out(`near ${key}: ${sectionLabel(near.from)}`);
+    const rows = near.hits.map((h, i) => [String(i + 1), h.score.toFixed(3), `${h.path}:${h.start + 1}`, sectionLabel(h)]);
+    formatTable(['rank', 'score', 'place', 'section'], rows, [true, true, false, false]).forEach((l) => io.out(l));
+    return 0;
+  }
   const hits = index.nearby(key, { top });
   const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
   if (flags.explain) {

@@ -15,6 +15,9 @@
  */
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../errors.js';
 import { tokenize } from '../text/tokenize.js';
+import { tokenizeIn } from '../text/tokenizeLanguage.js';
+import { fileLanguage, queryLanguage, withLanguage } from '../text/detectLanguage.js';
+import type { Language } from '../text/languages.js';
 import { Bm25Scorer } from './search/bm25.js';
 import {
   DEFAULT_RANKING_OPTIONS,
@@ -33,6 +36,8 @@ import type { IndexSettings } from './model/settings.js';
 import { ChangeCounters, type Staleness, type StalenessCounters } from './update/staleness.js';
 import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
 import { topN } from './search/topN.js';
+import { SectionStore } from '../sections/sectionStore.js';
+import { foldContextOf, foldSections } from '../sections/sectionVectors.js';
 
 export type { Staleness, StalenessCounters } from './update/staleness.js';
 
@@ -78,8 +83,11 @@ export class LsiIndex {
   private readonly _screen = new ScreenScratch();
   private readonly _changes = new ChangeCounters();
   private _filler: ReadonlySet<string> | null = null;
+  private _mainLanguage: Language | undefined;
   /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
   ranking: RankingOptions = DEFAULT_RANKING_OPTIONS;
+  /** Each file's sections with their concept vectors (src/core/sections), saved with the index. */
+  readonly sections: SectionStore;
 
   private constructor(
     readonly settings: IndexSettings,
@@ -90,6 +98,7 @@ export class LsiIndex {
   ) {
     this._slots = slots;
     this._rows = rows;
+    this.sections = new SectionStore(model.k);
     slots.forEach((s, i) => s && this._slotOf.set(s.meta.path, i));
   }
 
@@ -157,18 +166,34 @@ export class LsiIndex {
    * (fusion.ts) are left out when known words remain without them.
    */
   queryTerms(text: string): DocTerms {
-    const tokens = tokenize(text, this.settings.tokenize);
+    const language = queryLanguage(text, this.settings.tokenize.languages, this.mainLanguage());
+    const tokens = tokenizeIn(text, this.settings.tokenize, language);
     if (this.ranking.dropFiller) {
       this._filler ??= new Set(tokenize(QUESTION_FILLER.join(' '), this.settings.tokenize));
       const filler = this._filler;
       const kept = countTerms(
-        tokenize(stripPointing(text), this.settings.tokenize).filter((t) => !filler.has(t)),
+        tokenizeIn(stripPointing(text), this.settings.tokenize, language).filter((t) => !filler.has(t)),
         this.vocab,
         false,
       );
       if (kept.termIds.length > 0) return kept;
     }
     return countTerms(tokens, this.vocab, false);
+  }
+
+  /**
+   * The language most documents were tokenized in (English when tied or empty): a question
+   * without stop words of its own is read in it (detectLanguage.ts).
+   */
+  mainLanguage(): Language {
+    if (this._mainLanguage === undefined) {
+      const count = new Map<Language, number>();
+      for (const s of this._slots) if (s) count.set(s.meta.language ?? 'en', (count.get(s.meta.language ?? 'en') ?? 0) + 1);
+      let best: Language = 'en';
+      for (const [lang, n] of count) if (n > (count.get(best) ?? 0)) best = lang;
+      this._mainLanguage = best;
+    }
+    return this._mainLanguage;
   }
 
   /** Concept vector of free text (zeros if no model term occurs). */
@@ -406,7 +431,10 @@ export class LsiIndex {
    * New words join the vocabulary (and lexical search) but not the concept space until a rebuild.
    */
   foldIn(meta: DocMeta, text: string): DocTerms {
-    const tokens = tokenize(text, this.settings.tokenize);
+    const language = fileLanguage(meta.path, text, this.settings.tokenize.languages);
+    meta = withLanguage(meta, language);
+    this._mainLanguage = undefined;
+    const tokens = tokenizeIn(text, this.settings.tokenize, language);
     const before = this.vocab.size;
     const terms = countTerms(tokens, this.vocab, true);
     this._changes.folded(terms, before);
@@ -423,6 +451,7 @@ export class LsiIndex {
     this._codes?.ensureCapacity(this._slots.length);
     this._codes?.setRow(s, proj.vector);
     this._bm25?.setDocument(s, terms);
+    this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
   }
 
@@ -432,9 +461,11 @@ export class LsiIndex {
     if (s === undefined) return false;
     const wasFolded = this._slots[s]!.folded;
     this._slots[s] = null;
+    this._mainLanguage = undefined;
     this._rows.clearRow(s);
     this._codes?.clearRow(s);
     this._slotOf.delete(path);
+    this.sections.delete(path);
     this._changes.removed(wasFolded);
     this._bm25?.setDocument(s, null);
     return true;

@@ -2,6 +2,7 @@
  * The index's public record and option types (documents, hits, search and prepare options), apart
  * from lsiIndex.ts so the class file holds behaviour only.
  */
+import type { Language } from '../text/languages.js';
 import type { DocTerms } from '../counting/termCounts.js';
 
 export interface DocMeta {
@@ -9,6 +10,8 @@ export interface DocMeta {
   readonly path: string;
   readonly size: number;
   readonly mtimeMs: number;
+  /** The language the file was tokenized in (src/core/text/detectLanguage.ts); absent: English. */
+  readonly language?: Language;
 }
 
 export interface DocSlot {

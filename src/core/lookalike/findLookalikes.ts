@@ -22,8 +22,8 @@ import { bandCandidates } from './banding.js';
 import { contentHash, isBlankText } from './contentHash.js';
 import { createMinHasher, estimateJaccard } from './minhash.js';
 import { resolveLookalikeOptions, type LookalikeOptions } from './options.js';
-import { boilerplateLines, findRetoldPairs, withoutBoilerplate } from './retold.js';
-import { buildTermSpace, termNeighbours } from './termSpace.js';
+import { boilerplateLines, findRetoldPairs, lineKey, withoutBoilerplate } from './retold.js';
+import { buildTermSpace, termNeighbours, termSpaceFromCounts, type TermCountRow, type TermSpace } from './termSpace.js';
 import { lineCounts, nonBlankLineCount, sharedLineCount } from './sharedLines.js';
 import { jaccardSorted, shingleSet, shingleTokens } from './shingles.js';
 import type { ExactGroup, LookalikeFile, LookalikeInput, LookalikePair, LookalikeReport } from './types.js';
@@ -103,7 +103,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     shingled.map((f) => files[f].text),
     o.boilerplateFiles,
   );
-  const space = buildTermSpace(shingled.map((f) => withoutBoilerplate(files[f].text, boilerplate)));
+  const space = termSpaceOf(shingled, boilerplate);
   const nb = termNeighbours(space, {
     k: o.neighbours,
     candidates: Math.max(50, 5 * o.neighbours),
@@ -208,6 +208,32 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     },
   };
 
+  /** Term space of the listed files: from the given counts minus boilerplate lines, or from the texts. */
+  function termSpaceOf(list: readonly number[], boilerplate: ReadonlySet<string>): TermSpace {
+    const { termCounts, countLine } = input;
+    if (!termCounts || !countLine) return buildTermSpace(list.map((f) => withoutBoilerplate(files[f].text, boilerplate)));
+    const lineCache = new Map<string, TermCountRow>();
+    const rows = list.map((f) => {
+      const row = termCounts[f];
+      if (boilerplate.size === 0) return row;
+      const counts = Float64Array.from(row.counts as ArrayLike<number>);
+      const slot = new Map<number, number>();
+      for (let p = 0; p < row.termIds.length; p++) slot.set(row.termIds[p], p);
+      for (const line of files[f].text.split(/\r\n|\r|\n/)) {
+        const key = lineKey(line);
+        if (!boilerplate.has(key)) continue;
+        let terms = lineCache.get(key);
+        if (!terms) lineCache.set(key, (terms = countLine(line)));
+        for (let q = 0; q < terms.termIds.length; q++) {
+          const p = slot.get(terms.termIds[q]);
+          if (p !== undefined) counts[p] -= terms.counts[q];
+        }
+      }
+      return { termIds: row.termIds, counts };
+    });
+    return termSpaceFromCounts(rows);
+  }
+
   function pairOf(band: LookalikePair['band'], x: number, y: number, j: number): LookalikePair {
     const fa = shingled[x];
     const fb = shingled[y];
@@ -244,5 +270,8 @@ function checkInput(input: LookalikeInput): readonly LookalikeFile[] {
     if (ids.has(f.id)) throw new InvalidInputError(`file id "${f.id}" appears more than once`);
     ids.add(f.id);
   });
+  if (input.termCounts && input.termCounts.length !== input.files.length) {
+    throw new InvalidInputError(`termCounts has ${input.termCounts.length} rows for ${input.files.length} files`);
+  }
   return input.files;
 }

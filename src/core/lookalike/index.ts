@@ -3,7 +3,15 @@ export { findLookalikes } from './findLookalikes.js';
 export { DEFAULT_LOOKALIKE_OPTIONS, resolveLookalikeOptions, type LookalikeOptions } from './options.js';
 export type { ExactGroup, LookalikeFile, OverlapBand, LookalikeInput, LookalikePair, LookalikeReport, LookalikeStats } from './types.js';
 export { BAND_TITLES } from './types.js';
-export { buildTermSpace, termNeighbours, rowCosine, type TermSpace, type Neighbours } from './termSpace.js';
+export {
+  buildTermSpace,
+  termSpaceFromCounts,
+  termNeighbours,
+  rowCosine,
+  type TermCountRow,
+  type TermSpace,
+  type Neighbours,
+} from './termSpace.js';
 export { findRetoldPairs, boilerplateLines, withoutBoilerplate, type RetoldPair } from './retold.js';
 export { contentHash, isBlankText, normaliseForHash } from './contentHash.js';
 export { shingleSet, shingleTokens, jaccardSorted, intersectionSize, type ShingleSet } from './shingles.js';

@@ -77,7 +77,8 @@ export function withoutBoilerplate(text: string, boilerplate: ReadonlySet<string
     .join('\n');
 }
 
-function lineKey(l: string): string {
+/** A line as boilerplate detection compares it: trimmed, lowercased, spaces collapsed. */
+export function lineKey(l: string): string {
   return l.trim().toLowerCase().replace(/\s+/g, ' ');
 }
 

@@ -22,11 +22,16 @@ export interface TermSpace {
   readonly df: Int32Array;
 }
 
-/** Texts → L2-normalised sublinear TF-IDF rows. */
+/** Raw term counts of one file: term ids ascending (any id space), counts aligned. */
+export interface TermCountRow {
+  readonly termIds: ArrayLike<number>;
+  readonly counts: ArrayLike<number>;
+}
+
+/** Texts → L2-normalised sublinear TF-IDF rows (the texts are tokenized here). */
 export function buildTermSpace(texts: readonly string[], idfPower = 1): TermSpace {
   const ids = new Map<string, number>();
-  const rows: { t: Int32Array; c: Float64Array }[] = [];
-  const dfList: number[] = [];
+  const rows: TermCountRow[] = [];
   for (const text of texts) {
     const counts = new Map<number, number>();
     for (const tok of tokenize(text)) {
@@ -34,35 +39,56 @@ export function buildTermSpace(texts: readonly string[], idfPower = 1): TermSpac
       if (id === undefined) {
         id = ids.size;
         ids.set(tok, id);
-        dfList.push(0);
       }
       counts.set(id, (counts.get(id) ?? 0) + 1);
     }
-    const t = Int32Array.from(counts.keys()).sort();
-    const c = new Float64Array(t.length);
-    for (let p = 0; p < t.length; p++) {
-      c[p] = counts.get(t[p]) as number;
-      dfList[t[p]]++;
-    }
-    rows.push({ t, c });
+    const termIds = Int32Array.from(counts.keys()).sort();
+    rows.push({ termIds, counts: Float64Array.from(termIds, (t) => counts.get(t) as number) });
   }
-  const n = texts.length;
-  const df = Int32Array.from(dfList);
+  return termSpaceFromCounts(rows, idfPower);
+}
+
+/**
+ * Term counts already made (an index's stored raw counts) → L2-normalised sublinear TF-IDF rows.
+ * Ids must ascend within a row; zero or negative counts are left out.
+ */
+export function termSpaceFromCounts(rows: readonly TermCountRow[], idfPower = 1): TermSpace {
+  const n = rows.length;
+  let maxId = -1;
   const rowStart = new Int32Array(n + 1);
-  for (let i = 0; i < n; i++) rowStart[i + 1] = rowStart[i] + rows[i].t.length;
+  for (let i = 0; i < n; i++) {
+    const { termIds, counts } = rows[i];
+    let kept = 0;
+    for (let p = 0; p < termIds.length; p++) {
+      if (counts[p] > 0) {
+        kept++;
+        if (termIds[p] > maxId) maxId = termIds[p];
+      }
+    }
+    rowStart[i + 1] = rowStart[i] + kept;
+  }
+  const df = new Int32Array(maxId + 1);
   const terms = new Int32Array(rowStart[n]);
+  const raw = new Float64Array(rowStart[n]);
+  for (let i = 0; i < n; i++) {
+    const { termIds, counts } = rows[i];
+    let q = rowStart[i];
+    for (let p = 0; p < termIds.length; p++) {
+      if (!(counts[p] > 0)) continue;
+      terms[q] = termIds[p];
+      raw[q++] = counts[p];
+      df[termIds[p]]++;
+    }
+  }
   const weights = new Float32Array(rowStart[n]);
   for (let i = 0; i < n; i++) {
-    const { t, c } = rows[i];
     let norm = 0;
-    const w = new Float64Array(t.length);
-    for (let p = 0; p < t.length; p++) {
-      w[p] = (1 + Math.log(c[p])) * (Math.log((1 + n) / (1 + df[t[p]])) + 1) ** idfPower;
-      norm += w[p] * w[p];
+    for (let p = rowStart[i]; p < rowStart[i + 1]; p++) {
+      raw[p] = (1 + Math.log(raw[p])) * (Math.log((1 + n) / (1 + df[terms[p]])) + 1) ** idfPower;
+      norm += raw[p] * raw[p];
     }
     norm = Math.sqrt(norm) || 1;
-    terms.set(t, rowStart[i]);
-    for (let p = 0; p < t.length; p++) weights[rowStart[i] + p] = w[p] / norm;
+    for (let p = rowStart[i]; p < rowStart[i + 1]; p++) weights[p] = raw[p] / norm;
   }
   return { n, rowStart, terms, weights, df };
 }
@@ -122,6 +148,7 @@ export function termNeighbours(s: TermSpace, params: NeighbourParams): Neighbour
   const cosine = new Float32Array(n * k);
   const acc = new Float64Array(n);
   const touched = new Int32Array(n);
+  const heap = new Int32Array(candidates);
   for (let i = 0; i < n; i++) {
     let nt = 0;
     for (let p = s.rowStart[i]; p < s.rowStart[i + 1]; p++) {
@@ -135,10 +162,9 @@ export function termNeighbours(s: TermSpace, params: NeighbourParams): Neighbour
         acc[d] += w * postW[q];
       }
     }
-    const cand = Array.from(touched.subarray(0, nt));
-    cand.sort((x, y) => acc[y] - acc[x] || x - y);
+    const cand = topCandidates(touched, nt, acc, candidates, heap);
     for (let c = 0; c < nt; c++) acc[touched[c]] = 0;
-    const scored = cand.slice(0, candidates).map((d) => ({ d, c: rowCosine(s, i, d) }));
+    const scored = cand.map((d) => ({ d, c: rowCosine(s, i, d) }));
     scored.sort((x, y) => y.c - x.c || x.d - y.d);
     for (let r = 0; r < Math.min(k, scored.length); r++) {
       index[i * k + r] = scored[r].d;
@@ -146,4 +172,46 @@ export function termNeighbours(s: TermSpace, params: NeighbourParams): Neighbour
     }
   }
   return { k, index, cosine };
+}
+
+/**
+ * The `size` touched rows with the highest acc (ties: lower row first), as a full sort would give
+ * them, kept in a bounded min-heap: O(nt log size) instead of sorting all nt rows.
+ */
+function topCandidates(touched: Int32Array, nt: number, acc: Float64Array, size: number, heap: Int32Array): number[] {
+  // worse(a, b): a ranks below b.
+  const worse = (a: number, b: number): boolean => acc[a] < acc[b] || (acc[a] === acc[b] && a > b);
+  let h = 0;
+  const down = (from: number): void => {
+    let at = from;
+    for (;;) {
+      const l = 2 * at + 1;
+      if (l >= h) return;
+      const c = l + 1 < h && worse(heap[l + 1], heap[l]) ? l + 1 : l;
+      if (!worse(heap[c], heap[at])) return;
+      const t = heap[c];
+      heap[c] = heap[at];
+      heap[at] = t;
+      at = c;
+    }
+  };
+  for (let t = 0; t < nt; t++) {
+    const d = touched[t];
+    if (h < size) {
+      let at = h++;
+      heap[at] = d;
+      while (at > 0) {
+        const up = (at - 1) >> 1;
+        if (!worse(heap[at], heap[up])) break;
+        const x = heap[up];
+        heap[up] = heap[at];
+        heap[at] = x;
+        at = up;
+      }
+    } else if (size > 0 && worse(heap[0], d)) {
+      heap[0] = d;
+      down(0);
+    }
+  }
+  return Array.from(heap.subarray(0, h));
 }

@@ -1,6 +1,7 @@
 /**
  * Input and result types of the look-alike finder (findLookalikes.ts).
  */
+import type { TermCountRow } from './termSpace.js';
 
 /** One file: a unique id (usually its workspace path) and its text. */
 export interface LookalikeFile {
@@ -10,6 +11,14 @@ export interface LookalikeFile {
 
 export interface LookalikeInput {
   readonly files: readonly LookalikeFile[];
+  /**
+   * Optional raw term counts of each file (aligned with `files`; ids ascending, e.g. an index's
+   * stored counts) and the counter that made them, applied to single lines. With both, the full
+   * term space is built from these counts, boilerplate lines subtracted, instead of tokenizing
+   * every file again.
+   */
+  readonly termCounts?: readonly TermCountRow[];
+  readonly countLine?: (line: string) => TermCountRow;
 }
 
 /** The four bands of the report, as stable machine keys. */

@@ -7,3 +7,16 @@ declare module 'natural/lib/natural/stemmers/porter_stemmer.js' {
 declare module 'natural/lib/natural/util/stopwords.js' {
   export const words: string[];
 }
+// Snowball stemmers of natural, one module per language (stemmers/porter_stemmer_<code>.js), and
+// natural's stop-word lists for the same languages (util/stopwords_<code>.js).
+declare module 'natural/lib/natural/stemmers/porter_stemmer_*' {
+  const Stemmer: { stem(token: string): string };
+  export default Stemmer;
+}
+declare module 'natural/lib/natural/util/stopwords_*' {
+  export const words: string[];
+}
+declare module 'stopwords-iso' {
+  const lists: Record<string, string[]>;
+  export default lists;
+}

@@ -18,6 +18,9 @@ args arg argv len val tmp obj ptr err ctx cfg opts idx num ret res req src dst b
 const EXTRA_ENGLISH = `also may might must shall will would could should can cannot i.e e.g etc us we our ours you your
 yours he him his she her hers it its they them their theirs what which who whom whose this that these those`;
 
+/** natural's English list alone (language detection compares it with the other languages' lists). */
+export const ENGLISH_STOP_WORDS: ReadonlySet<string> = new Set(englishStopWords);
+
 /** Every stop word, lowercase. */
 export const STOP_WORDS: ReadonlySet<string> = new Set(
   [...englishStopWords, ...PROGRAMMING_KEYWORDS.split(/\s+/), ...EXTRA_ENGLISH.split(/\s+/)].filter((w) => w.length > 0),

@@ -11,6 +11,8 @@
  *    runs longer than 4, hex-looking runs of 8+ characters, and tokens over 40 characters.
  * 5. Porter stemming (Porter 1980, via natural's PorterStemmer), memoised.
  *
+ * Other languages: tokenizeLanguage.ts (apart, so the map page bundles no foreign stemmer).
+ *
  * Defaults: stemming on, compounds on (both options of TokenizeOptions). The limits of step 4 are
  * in tokenRules.ts. Fast twins for the tokenizing threads give the same tokens for ASCII words
  * without regular expressions: asciiWord.ts (steps 2–4 on char codes) and porterFast.ts (step 5);
@@ -18,6 +20,7 @@
  */
 import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer.js';
 import { STOP_WORDS } from './stopWords.js';
+import type { LanguageSetting } from './detectLanguage.js';
 import { MAX_DIGIT_RUN, MAX_TOKEN_LENGTH, MIN_HEXISH_LENGTH } from './tokenRules.js';
 
 export interface TokenizeOptions {
@@ -25,12 +28,19 @@ export interface TokenizeOptions {
   stem: boolean;
   /** Keep the joined form of split identifiers ("getUserName" also yields "getusername"). @default true */
   keepCompounds: boolean;
+  /**
+   * Languages a file may be tokenized in (detectLanguage.ts): 'auto' for all, or a list.
+   * Absent (indexes and shared models made before languages were detected): English only.
+   * @default 'auto'
+   */
+  languages?: LanguageSetting;
 }
 
-export const DEFAULT_TOKENIZE_OPTIONS: Readonly<TokenizeOptions> = Object.freeze({ stem: true, keepCompounds: true });
+export const DEFAULT_TOKENIZE_OPTIONS: Readonly<TokenizeOptions> = Object.freeze({ stem: true, keepCompounds: true, languages: 'auto' });
 
 const WORD = /[\p{L}\p{N}_$]+/gu;
-const MARKS = /\p{M}+/gu;
+/** Combining marks, removed after NFKD normalisation. */
+export const MARKS = /\p{M}+/gu;
 // Splits inside an identifier: lower→Upper, Upper→Upper+lower, letter↔digit.
 const CAMEL = /(?<=\p{Ll})(?=\p{Lu})|(?<=\p{Lu})(?=\p{Lu}\p{Ll})|(?<=\p{L})(?=\p{N})|(?<=\p{N})(?=\p{L})/u;
 const LONG_DIGITS = new RegExp(`^\\p{N}{${MAX_DIGIT_RUN + 1},}$`, 'u');
@@ -65,7 +75,7 @@ export function splitIdentifier(word: string): string[] {
   return parts;
 }
 
-/** Text → index terms, in reading order. */
+/** Text → index terms, in reading order (English; tokenizeLanguage.ts for the others). */
 export function tokenize(text: string, options: Partial<TokenizeOptions> = {}): string[] {
   const opts = { ...DEFAULT_TOKENIZE_OPTIONS, ...options };
   const out: string[] = [];

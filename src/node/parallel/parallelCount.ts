@@ -9,6 +9,7 @@
 import { CancelledError } from '../../core/errors.js';
 import type { DocTerms, Vocabulary } from '../../core/counting/termCounts.js';
 import type { TokenizeOptions } from '../../core/text/tokenize.js';
+import type { Language } from '../../core/text/languages.js';
 import type { BatchDone, FromWorker, ToWorker } from './threadProtocol.js';
 import type { WorkerPool } from './workerPool.js';
 
@@ -18,7 +19,9 @@ export interface CountJob {
   readonly size: number;
 }
 
-export type CountOutcome = { readonly kind: 'text'; readonly terms: DocTerms } | { readonly kind: 'binary' | 'too-large' | 'unreadable' };
+export type CountOutcome =
+  | { readonly kind: 'text'; readonly terms: DocTerms; /** The file's language when not English. */ readonly language?: Language }
+  | { readonly kind: 'binary' | 'too-large' | 'unreadable' };
 
 export interface CountOptions {
   readonly tokenize: Partial<TokenizeOptions>;
@@ -61,7 +64,11 @@ export async function countFilesInParallel(
     const tr = translate[w];
     for (const f of msg.files) {
       if (f.kind === 'kept') throw new Error('a tokenizing thread kept counts it was asked to send');
-      onFile(f.index, f.kind === 'text' ? { kind: 'text', terms: toDocTerms(f.ids, f.counts, f.length, tr) } : { kind: f.kind });
+      if (f.kind !== 'text') onFile(f.index, { kind: f.kind });
+      else {
+        const terms = toDocTerms(f.ids, f.counts, f.length, tr);
+        onFile(f.index, f.language === undefined ? { kind: 'text', terms } : { kind: 'text', terms, language: f.language });
+      }
     }
   });
 }

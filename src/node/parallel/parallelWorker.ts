@@ -66,12 +66,13 @@ port.on('message', (msg: ToWorker) => {
     for (const f of msg.files) {
       const got = reader.read(f.absPath, maxFileBytes);
       if (got.kind !== 'bytes') read.push({ index: f.index, kind: got.kind });
-      else read.push({ index: f.index, ...(got.ascii ? wc.packAscii(got.bytes) : wc.packText(decodeUtf8(got.bytes))) });
+      else
+        read.push({ index: f.index, ...(got.ascii ? wc.packAscii(got.bytes, f.absPath) : wc.packText(decodeUtf8(got.bytes), f.absPath)) });
     }
     if (keepCounts) {
       // The counts stay in the pack until finish-counts; the reply says where.
       const files: FileOutcome[] = read.map((r) =>
-        'kind' in r ? r : { index: r.index, kind: 'kept', at: r.at, terms: r.terms, length: r.length },
+        'kind' in r ? r : { index: r.index, kind: 'kept', at: r.at, terms: r.terms, length: r.length, language: r.language },
       );
       for (const r of read) if (!('kind' in r)) kept.push(r.at, r.at + r.terms);
       const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: wc.takeNewTerms(), files };
@@ -89,6 +90,7 @@ port.on('message', (msg: ToWorker) => {
             ids: ids.subarray(r.at, r.at + r.terms),
             counts: counts.subarray(r.at, r.at + r.terms),
             length: r.length,
+            language: r.language,
           },
     );
     const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: wc.takeNewTerms(), files };

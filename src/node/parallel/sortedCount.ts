@@ -9,6 +9,7 @@
  * result does not depend on which thread read which file.
  */
 import { Vocabulary, type DocTerms } from '../../core/counting/termCounts.js';
+import type { Language } from '../../core/text/languages.js';
 import { runCountBatches, type CountJob, type CountOptions, type CountOutcome } from './parallelCount.js';
 import type { FinalCounts, FromWorker, TermOrder, ToWorker } from './threadProtocol.js';
 import type { WorkerPool } from './workerPool.js';
@@ -19,6 +20,7 @@ interface Pending {
   readonly at: number;
   readonly terms: number;
   readonly length: number;
+  readonly language?: Language;
 }
 
 export interface SortedCounts {
@@ -35,7 +37,7 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
     for (const t of msg.newTerms) terms[w].push(t);
     for (const f of msg.files) {
       if (f.kind === 'text') throw new Error('a tokenizing thread sent counts it was asked to keep');
-      raw[f.index] = f.kind === 'kept' ? { worker: w, at: f.at, terms: f.terms, length: f.length } : { kind: f.kind };
+      raw[f.index] = f.kind === 'kept' ? { worker: w, at: f.at, terms: f.terms, length: f.length, language: f.language } : { kind: f.kind };
     }
   });
   const orders = await Promise.all(pool.workers.map((_, w) => ask<TermOrder>(pool, w, { type: 'sort-terms' }, 'term-order')));
@@ -57,7 +59,7 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
         counts: f.counts.subarray(r.at, r.at + r.terms),
         length: r.length,
       };
-      outcomes[i] = { kind: 'text', terms };
+      outcomes[i] = r.language === undefined ? { kind: 'text', terms } : { kind: 'text', terms, language: r.language };
     } else outcomes[i] = r;
   }
   return { vocab: new Vocabulary(sorted), outcomes };

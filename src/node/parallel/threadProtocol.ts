@@ -1,6 +1,7 @@
 /** Messages between the main thread and the parallel worker threads (parallelWorker.ts). */
 import type { TokenizeOptions } from '../../core/text/tokenize.js';
 import type { KernelJob } from './kernelTasks.js';
+import type { Language } from '../../core/text/languages.js';
 
 export interface KernelMessage {
   readonly type: 'kernel';
@@ -44,9 +45,24 @@ export type ToWorker = KernelMessage | WasmInit | TokenizeSetup | TokenizeBatch 
 
 /** The outcome of one file; ids are the worker's local term ids (see WordCounter). */
 export type FileOutcome =
-  | { readonly index: number; readonly kind: 'text'; readonly ids: Int32Array; readonly counts: Int32Array; readonly length: number }
+  | {
+      readonly index: number;
+      readonly kind: 'text';
+      readonly ids: Int32Array;
+      readonly counts: Int32Array;
+      readonly length: number;
+      /** The file's language when not English. */
+      readonly language?: Language;
+    }
   /** Counts kept in the thread (keepCounts): positions [at, at + terms) of its final-counts reply. */
-  | { readonly index: number; readonly kind: 'kept'; readonly at: number; readonly terms: number; readonly length: number }
+  | {
+      readonly index: number;
+      readonly kind: 'kept';
+      readonly at: number;
+      readonly terms: number;
+      readonly length: number;
+      readonly language?: Language;
+    }
   | { readonly index: number; readonly kind: 'binary' | 'too-large' | 'unreadable' };
 
 export interface BatchDone {

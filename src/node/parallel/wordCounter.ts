@@ -10,12 +10,17 @@
  *     thread has never seen; non-ASCII words go through tokenize() itself;
  *   - ids are of a thread-local vocabulary; counts go to a reusable typed array.
  * The thread reports new terms in id order, so the receiver can translate local ids to its own.
+ * Given the file's path, a prose file's language is detected first (detectLanguage.ts); a file
+ * in another language than English is counted through tokenizeIn() (tokenizeLanguage.ts) itself.
  * test/node/parallel/wordCounter.test.ts checks the equality with tokenize + countTerms.
  */
 import { STOP_WORDS } from '../../core/text/stopWords.js';
 import { DEFAULT_TOKENIZE_OPTIONS, tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
 import { allDigits, keepToken, lowerInto, MAX_TOKEN_LENGTH, partBounds, skipsWord } from '../../core/text/asciiWord.js';
 import { porterStem } from '../../core/text/porterFast.js';
+import { fileLanguage, isProsePath } from '../../core/text/detectLanguage.js';
+import type { Language } from '../../core/text/languages.js';
+import { tokenizeIn } from '../../core/text/tokenizeLanguage.js';
 import { sortedTermIds } from './termOrder.js';
 import { astralWordAt, caselessLetters, classify, CLASS, HIGH_SURROGATE, UnitBuffer, unitsToString, WORD } from './textUnits.js';
 import { FNV_OFFSET, FNV_PRIME, grow32, WordTable } from './wordTable.js';
@@ -39,6 +44,8 @@ export interface PackedFile {
   readonly terms: number;
   /** Number of tokens (sum of counts). */
   readonly length: number;
+  /** The file's language when it is not English (packText and packAscii with a path). */
+  readonly language?: Language;
 }
 
 export class WordCounter {
@@ -91,16 +98,34 @@ export class WordCounter {
     return this.copyOut(this.packAscii(bytes));
   }
 
-  /** Counts a text into the current pack (see takePack). */
-  packText(text: string): PackedFile {
+  /** Counts a text into the current pack (see takePack); with its file's path, in the file's language. */
+  packText(text: string, path?: string): PackedFile {
+    if (path !== undefined && this.multilingual && isProsePath(path)) {
+      const language = fileLanguage(path, text, this.resolved.languages);
+      if (language !== 'en') return this.packIn(text, language);
+    }
     this.text.loadText(text);
     return this.finish(this.scan(this.text.units, this.text.length));
   }
 
   /** packText() of text whose UTF-8 bytes are all ASCII, without decoding it. */
-  packAscii(bytes: Uint8Array): PackedFile {
+  packAscii(bytes: Uint8Array, path?: string): PackedFile {
+    if (path !== undefined && this.multilingual && isProsePath(path)) return this.packText(asciiString(bytes), path);
     this.text.loadAscii(bytes);
     return this.finish(this.scan(this.text.units, this.text.length));
+  }
+
+  /** Counts a text in a language other than English through tokenizeIn() (notes, not hot paths). */
+  private packIn(text: string, language: Exclude<Language, 'en'>): PackedFile {
+    const tokens = tokenizeIn(text, this.options, language);
+    for (const t of tokens) this.bump(this.add(t));
+    return { ...this.finish(tokens.length), language };
+  }
+
+  /** True when the settings allow languages other than English. */
+  private get multilingual(): boolean {
+    const l = this.resolved.languages;
+    return l !== undefined && (l === 'auto' || l.some((x) => x !== 'en'));
   }
 
   /**
@@ -286,4 +311,11 @@ export class WordCounter {
     }
     return id;
   }
+}
+
+/** The string of ASCII bytes. */
+function asciiString(bytes: Uint8Array): string {
+  let s = '';
+  for (let i = 0; i < bytes.length; i += 8192) s += String.fromCharCode(...bytes.subarray(i, i + 8192));
+  return s;
 }

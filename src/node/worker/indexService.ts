@@ -23,17 +23,22 @@ import { questionFit, questionUnits } from '../../core/translations/language.js'
 import { translationPath } from '../../core/translations/pathKey.js';
 import { TranslationFinder } from './translationFinder.js';
 import { InsightService } from './insightService.js';
+import { LinkService } from './linkService.js';
 import type {
   FileChange,
   IndexSummary,
   RefreshReport,
   ScoredFile,
   SearchMatch,
+  SectionMatch,
+  SectionPlace,
   TranslationRef,
   UpdateReport,
   WorkerConfig,
 } from './workerProtocol.js';
 import { RootMap } from './rootMap.js';
+import { bestSections, nearbySections, searchSections } from '../../core/sections/sectionSearch.js';
+import type { SectionHit } from '../../core/sections/sectionStore.js';
 import type { HandlerContext, Handlers } from './server.js';
 import { formsFromTexts } from './wordForms.js';
 import { NoIndexError } from './workerErrors.js';
@@ -80,6 +85,12 @@ export class IndexService {
     () => this._options.preparePause(),
   );
 
+  private readonly _links = new LinkService({
+    index: () => this._index,
+    roots: () => this._roots,
+    maxFileBytes: () => this.config().maxFileBytes,
+  });
+
   private readonly _translations = new TranslationFinder(async (key) => {
     const got = await readIndexableText(this._roots.refOf(key).fsPath, this.config().maxFileBytes);
     return got.kind === 'text' ? got.text : null;
@@ -107,6 +118,8 @@ export class IndexService {
       update: async ({ changes }) => this.update(changes),
       search: async ({ query, top, like, unlike }) => this.search(query, top, like, unlike),
       nearby: async ({ fsPath, top }) => this.nearby(fsPath, top),
+      searchSections: async ({ query, top }) => this.searchSections(query, top),
+      nearbySections: async ({ fsPath, line, top }) => this.nearbySections(fsPath, line, top),
       translations: async ({ fsPath }) => this.translationsOf(fsPath),
       save: async () => {
         const saved = await this.save();
@@ -114,6 +127,7 @@ export class IndexService {
       },
       deleteIndex: async () => this.deleteIndex(),
       ...this._insights.handlers(),
+      ...this._links.handlers(),
     };
   }
 
@@ -206,6 +220,11 @@ export class IndexService {
       feedback,
     );
     const scorer = queryScorer(index, query);
+    const places = bestSections(
+      index,
+      query,
+      picked.map((p) => p.key),
+    );
     return Promise.all(
       picked.map(async (p, i) => {
         const ref = this._roots.refOf(p.key);
@@ -220,10 +239,32 @@ export class IndexService {
           line: line.line,
           lineText: line.text,
           highlights: line.highlights,
+          ...sectionField(places.get(p.key)),
           ...this.translationFields(p.key, p.others),
         };
       }),
     );
+  }
+
+  /** Sections ranked by a query (file keys turned into file references). */
+  searchSections(query: string, top: number): SectionMatch[] {
+    const index = this.requireIndex();
+    return searchSections(index, query, { top }).map((h) => ({
+      ...this._roots.refOf(h.path),
+      ...sectionField(h).section!,
+      score: h.score,
+    }));
+  }
+
+  /** Nearby at the cursor: other files' sections nearest to the section holding `line`. */
+  nearbySections(fsPath: string, line: number, top: number): { from: SectionMatch; hits: SectionMatch[] } | null {
+    const key = this._roots.keyOf(fsPath);
+    const index = this._index;
+    if (!index || key === undefined || !index.has(key)) return null;
+    const near = nearbySections(index, key, line, { top });
+    if (!near) return null;
+    const match = (h: SectionHit): SectionMatch => ({ ...this._roots.refOf(h.path), ...sectionField(h).section!, score: h.score });
+    return { from: match(near.from), hits: near.hits.map(match) };
   }
 
   /**
@@ -452,4 +493,9 @@ export class IndexService {
     if (!this._index) throw new NoIndexError('There is no index yet: build it first.');
     return this._index;
   }
+}
+
+/** A section hit as the wire's SectionPlace (nothing when there is none). */
+function sectionField(h: SectionHit | undefined): { section?: SectionPlace } {
+  return h ? { section: { title: h.title, start: h.start, end: h.end } } : {};
 }

@@ -9,6 +9,7 @@
 import { realpath } from 'node:fs/promises';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { DEFAULT_LOOKALIKE_OPTIONS, findLookalikes, type LookalikePair } from '../../core/lookalike/index.js';
+import { withIndexCounts } from '../overlapCounts.js';
 import { readIndexableText } from '../scan.js';
 import type { LookalikeGroupWire, LookalikeKind, LookalikePairWire, LookalikesResult } from './insightProtocol.js';
 import type { RootMap } from './rootMap.js';
@@ -43,7 +44,7 @@ export async function computeLookalikes(index: LsiIndex, roots: RootMap, o: Look
     // The index may have changed while files were read: keep the files it still holds.
     else if (index.has(p)) files.push({ id: p, text: got.text });
   }
-  const report = findLookalikes({ files }, { threshold: o.threshold, seed: index.settings.seed });
+  const report = findLookalikes(withIndexCounts(index, files), { threshold: o.threshold, seed: index.settings.seed });
   const ref = (key: string) => roots.refOf(key);
   const wirePair = (p: LookalikePair): LookalikePairWire => ({
     a: ref(p.a),

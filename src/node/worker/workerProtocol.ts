@@ -9,6 +9,7 @@ import type { Staleness } from '../../core/index/lsiIndex.js';
 import type { IndexSettings } from '../../core/index/model/settings.js';
 import type { FileRef } from './fileRef.js';
 import { INSIGHT_REQUEST_TYPES, type InsightRequestMap, type Why } from './insightProtocol.js';
+import { LINKS_REQUEST_TYPES, type LinksRequestMap } from './linksProtocol.js';
 
 /** One workspace folder. Names are unique and become the path prefix when there are several. */
 export interface WorkspaceRoot {
@@ -57,6 +58,20 @@ export interface SearchMatch extends ScoredFile {
   readonly lineText: string;
   /** [start, end) ranges of lineText holding the query's words. */
   readonly highlights?: readonly (readonly [number, number])[];
+  /** The file's section that best matches the query, when the index has its sections. */
+  readonly section?: SectionPlace;
+}
+
+/** A section of a file (src/core/sections): zero-based first line, the line after its last, its title. */
+export interface SectionPlace {
+  readonly title: string;
+  readonly start: number;
+  readonly end: number;
+}
+
+/** A section as a result (section search, Nearby at the cursor). */
+export interface SectionMatch extends FileRef, SectionPlace {
+  readonly score: number;
 }
 
 export interface IndexSummary {
@@ -66,7 +81,7 @@ export interface IndexSummary {
   readonly staleness: Staleness;
 }
 
-export type BuildStage = 'scan' | 'read' | 'matrix' | 'svd' | 'save';
+export type BuildStage = 'scan' | 'read' | 'matrix' | 'svd' | 'sections' | 'save';
 
 export interface Progress {
   readonly stage: BuildStage;
@@ -112,7 +127,7 @@ export interface UpdateReport {
 }
 
 /** Each request type with its parameters and its result (the insight requests: insightProtocol.ts). */
-export interface RequestMap extends InsightRequestMap {
+export interface RequestMap extends InsightRequestMap, LinksRequestMap {
   /** Sets what to index; `modelChanged` says the current index was built with other model settings. */
   configure: { params: { config: WorkerConfig }; result: { modelChanged: boolean } };
   /** Loads the saved index, if it exists, is intact and matches the settings. */
@@ -129,6 +144,13 @@ export interface RequestMap extends InsightRequestMap {
   translations: { params: { fsPath: string }; result: readonly TranslationRef[] };
   /** Files nearest in meaning; null when the file is not in the index. */
   nearby: { params: { fsPath: string; top: number }; result: readonly ScoredFile[] | null };
+  /** Sections ranked instead of files (src/core/sections/sectionSearch.ts). */
+  searchSections: { params: { query: string; top: number }; result: readonly SectionMatch[] };
+  /** The sections of other files nearest to the section at a zero-based line; null without sections. */
+  nearbySections: {
+    params: { fsPath: string; line: number; top: number };
+    result: { from: SectionMatch; hits: readonly SectionMatch[] } | null;
+  };
   /** Writes the index if it changed since it was last saved. */
   save: { params: Record<string, never>; result: { saved: boolean; problem?: string } };
   /** Forgets the index and removes the saved file. */
@@ -177,10 +199,13 @@ export const REQUEST_TYPES: readonly RequestType[] = [
   'update',
   'search',
   'nearby',
+  'searchSections',
+  'nearbySections',
   'translations',
   'save',
   'deleteIndex',
   ...INSIGHT_REQUEST_TYPES,
+  ...LINKS_REQUEST_TYPES,
 ];
 
 const isObject = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null;
@@ -208,7 +233,8 @@ const STAGE_SPAN: Record<BuildStage, readonly [number, number]> = {
   scan: [0, 10],
   read: [10, 60],
   matrix: [60, 65],
-  svd: [65, 95],
+  svd: [65, 85],
+  sections: [85, 95],
   save: [95, 100],
 };
 

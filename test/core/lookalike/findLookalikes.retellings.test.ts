@@ -12,20 +12,29 @@
  * - 90 planted copies of distractors (20 exact, 70 edited); their band is decided here by the
  *   Jaccard of string 5-gram shingles (corpusFixtures.ts, no code shared with the finder).
  *
- * What is asserted are the levels measured when the rule was made (2026-12-02), as floors, and
- * the comparison with the baseline the issue names: plain TF-IDF cosine in the full term space,
- * restricted to pairs sharing little text (Jaccard < 0.3), ranked by cosine. The rule's constants
- * (options.ts) are our choices, not fitted per source; figures are printed per source. The
- * issue's targets (≥ 55 % of retellings with ≤ 3 false pairs; ≤ 1 false pair per 1,000 files
- * without retellings) are NOT reached on this set: see the fixture README.
+ * Per band, with the issue's targets where they are met and measured floors where they are not:
+ * - exact copies: all 20 planted found (target: all);
+ * - near-copies: recall ≥ 0.95 of the planted pairs with reference J ≥ 0.8, 0 reported below it
+ *   (target; measured 32/32, 0 false);
+ * - partial copies: recall ≥ 0.9 of the planted pairs with 0.3 ≤ J < 0.8, 0 reported outside
+ *   (measured 35/35, 0 outside);
+ * - same content, other words: at most 3 pairs not in the key (target; measured 0, precision 1.0)
+ *   and ahead of plain TF-IDF cosine at the same number of false pairs; recall floors 0.14 overall,
+ *   13/98 coreutils, 4/27 gnu-other (measured 2026-12-03: 20/125 = 0.16, 15/98, 5/27). The issue's
+ *   recall target (≥ 55 %) is NOT met on this set: see the fixture README;
+ * - the folder without the retellings' Texinfo side: at most 1 pair per 1,000 files (target;
+ *   measured 0 in 1,660).
+ * The rule's constants (options.ts) were chosen leaving one source out (bench/lookalikeSignals.bench.ts).
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { gunzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
+import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { findLookalikes } from '../../../src/core/lookalike/findLookalikes.js';
 import { buildTermSpace, termNeighbours } from '../../../src/core/lookalike/termSpace.js';
 import type { LookalikeReport } from '../../../src/core/lookalike/types.js';
+import { tokenize } from '../../../src/core/text/tokenize.js';
 import { REPO_ROOT } from '../../helpers/shared.js';
 import { referenceShingles } from './corpusFixtures.js';
 
@@ -71,7 +80,7 @@ function exactPairs(r: LookalikeReport): Set<string> {
 }
 
 describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
-  it.skipIf(!corpus)('finds planted copies in the right band and retellings ahead of plain TF-IDF cosine', () => {
+  it.skipIf(!corpus)('finds planted copies in the right band and retellings ahead of plain TF-IDF cosine', { timeout: 900_000 }, () => {
     const c = corpus!;
     const text = new Map(c.files.map((f) => [f.id, f.text]));
     const report = findLookalikes({ files: c.files });
@@ -164,14 +173,18 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(partialTruth.length).toBeGreaterThan(20);
     expect(partialRecall).toBeGreaterThanOrEqual(0.9);
     expect(falsePartial).toBe(0);
-    // Measured 2026-12-02: 23 of 125 retellings (0.18) with 3 pairs not in the key.
-    expect(recall).toBeGreaterThanOrEqual(0.15);
-    expect(falseRetold).toBeLessThanOrEqual(5);
+    // Target: at most 3 pairs not in the key (measured 2026-12-03: 0 of 20 reported).
+    expect(falseRetold).toBeLessThanOrEqual(3);
+    expect(hits.length / Math.max(1, retold.length)).toBeGreaterThanOrEqual(0.85);
+    // Floors below the measured recall (20/125; coreutils 15/98, gnu-other 5/27); the target of 0.55 is not met.
+    expect(recall).toBeGreaterThanOrEqual(0.14);
+    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(13);
+    expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(4);
     // Ahead of the baseline at the same number of false pairs (baseline measured: 4 with ≤ 3 false).
     expect(hits.length).toBeGreaterThan(baseSame);
   });
 
-  it.skipIf(!corpus)('reports few "same content" pairs in a real folder without planted retellings', () => {
+  it.skipIf(!corpus)('reports few "same content" pairs in a real folder without planted retellings', { timeout: 900_000 }, () => {
     const c = corpus!;
     // The same folder with the info side of every retelling removed: what is left has no planted
     // retelling (natural ones among the distractors may remain and count as false here).
@@ -183,7 +196,26 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       `overlaps without retellings: ${files.length} files, ${r.retoldPairs.length} "same content" pairs (${perThousand.toFixed(2)} per 1,000 files)\n` +
         r.retoldPairs.map((p) => `    ${p.a} ~ ${p.b} (cosine ${p.cosine!.toFixed(2)}, margin ${p.gap!.toFixed(2)})`).join('\n'),
     );
-    // Measured 2026-12-02: 3 pairs in 1,660 files (1.8 per 1,000); the issue's target is ≤ 1.
-    expect(perThousand).toBeLessThanOrEqual(2.5);
+    // The issue's target: at most 1 per 1,000 files (measured 2026-12-03: 0 pairs in 1,660 files).
+    expect(perThousand).toBeLessThanOrEqual(1);
+  });
+
+  it.skipIf(!corpus)('gives the same report from stored term counts as from the texts', { timeout: 300_000 }, () => {
+    // What the CLI and the editor pass: an index's raw counts (here counted with the index tokenizer
+    // into one vocabulary) and that counter applied to single lines.
+    const c = corpus!;
+    const files = c.files.filter((f) => f.id.startsWith('coreutils/') || f.id.startsWith('procps/'));
+    const vocab = new Vocabulary();
+    const termCounts = files.map((f) => countTerms(tokenize(f.text), vocab, true));
+    const countLine = (line: string) => countTerms(tokenize(line), vocab, false);
+    const fromTexts = findLookalikes({ files });
+    const fromCounts = findLookalikes({ files, termCounts, countLine });
+    expect(fromTexts.retoldPairs.length).toBeGreaterThan(10);
+    const strip = (r: LookalikeReport) => ({
+      near: r.nearPairs.map((p) => key(p.a, p.b)),
+      partial: r.partialPairs.map((p) => key(p.a, p.b)),
+      retold: r.retoldPairs.map((p) => [key(p.a, p.b), p.cosine!.toFixed(5)]),
+    });
+    expect(strip(fromCounts)).toEqual(strip(fromTexts));
   });
 });

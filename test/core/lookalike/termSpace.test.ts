@@ -5,7 +5,7 @@
  * that stemming and stop words change nothing.
  */
 import { describe, expect, it } from 'vitest';
-import { buildTermSpace, rowCosine, termNeighbours } from '../../../src/core/lookalike/termSpace.js';
+import { buildTermSpace, rowCosine, termNeighbours, termSpaceFromCounts } from '../../../src/core/lookalike/termSpace.js';
 
 const docs = ['ferry ferry tide berth', 'tide window berth slip slip slip', 'refund voucher fare', 'ferry refund'];
 const SKLEARN = [
@@ -19,6 +19,20 @@ describe('buildTermSpace', () => {
   it('gives the cosines of scikit-learn’s sublinear TF-IDF', () => {
     const s = buildTermSpace(docs);
     for (let i = 0; i < 4; i++) for (let j = 0; j < 4; j++) expect(rowCosine(s, i, j)).toBeCloseTo(SKLEARN[i][j], 6);
+  });
+
+  it('gives the same cosines from stored counts (any id space, zero counts left out)', () => {
+    // The four texts as raw counts over ids 10 ferry, 20 tide, 30 berth, 40 window, 50 slip,
+    // 60 refund, 70 voucher, 80 fare; a zero count (a boilerplate line subtracted) is no term.
+    const rows = [
+      { termIds: [10, 20, 30, 70], counts: [2, 1, 1, 0] },
+      { termIds: [20, 30, 40, 50], counts: [1, 1, 1, 3] },
+      { termIds: [60, 70, 80], counts: [1, 1, 1] },
+      { termIds: [10, 60], counts: [1, 1] },
+    ];
+    const s = termSpaceFromCounts(rows);
+    for (let i = 0; i < 4; i++) for (let j = 0; j < 4; j++) expect(rowCosine(s, i, j)).toBeCloseTo(SKLEARN[i][j], 6);
+    expect(s.df[70]).toBe(1);
   });
 
   it('finds each row’s neighbours in cosine order, the same with or without frequent terms left out of gathering', () => {

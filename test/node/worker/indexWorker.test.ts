@@ -75,7 +75,7 @@ describe('index worker round trip', () => {
     const stages = new Set<string>();
     const report = await client.request('build', {}, { onProgress: (p) => stages.add(p.stage) });
     expect(report.summary.files).toBe(docs.length);
-    expect([...stages]).toEqual(['scan', 'read', 'matrix', 'svd', 'save']);
+    expect([...stages]).toEqual(['scan', 'read', 'matrix', 'svd', 'sections', 'save']);
     expect(existsSync(config().indexFile)).toBe(true);
 
     const local = new IndexBuilder();

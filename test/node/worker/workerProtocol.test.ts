@@ -21,6 +21,8 @@ describe('protocol message checks', () => {
       update: true,
       search: true,
       nearby: true,
+      searchSections: true,
+      nearbySections: true,
       translations: true,
       save: true,
       deleteIndex: true,
@@ -28,6 +30,7 @@ describe('protocol message checks', () => {
       topics: true,
       mapData: true,
       mapQuery: true,
+      suggestLinks: true,
     };
     expect([...REQUEST_TYPES].sort()).toEqual(Object.keys(declared).sort());
     for (const type of REQUEST_TYPES) expect(isHostMessage({ kind: 'request', id: 1, type, params: {} })).toBe(true);

@@ -4,7 +4,8 @@
  * files give the same index whether they were read now or reused from a saved index.
  */
 import { InvalidInputError } from '../../errors.js';
-import { tokenize } from '../../text/tokenize.js';
+import { tokenizeIn } from '../../text/tokenizeLanguage.js';
+import { fileLanguage, withLanguage } from '../../text/detectLanguage.js';
 import { adoptSharedModel } from './adoptModel.js';
 import { buildConceptModelAndVectors, type BuildProgress } from './conceptModel.js';
 import { LsiIndex, type DocMeta, type DocSlot } from '../lsiIndex.js';
@@ -28,8 +29,9 @@ export class IndexBuilder {
 
   /** Tokenizes and counts one document (replacing an earlier one with the same path). */
   addText(meta: DocMeta, text: string): DocTerms {
-    const terms = countTerms(tokenize(text, this.settings.tokenize), this._vocab, true);
-    this._docs.set(meta.path, { meta, terms });
+    const language = fileLanguage(meta.path, text, this.settings.tokenize.languages);
+    const terms = countTerms(tokenizeIn(text, this.settings.tokenize, language), this._vocab, true);
+    this._docs.set(meta.path, { meta: withLanguage(meta, language), terms });
     return terms;
   }
 

@@ -9,6 +9,7 @@
  * file that passes its checksums but was written wrong (or forged) fail with a clear reason
  * instead of giving wrong answers or a TypeError later.
  */
+import { LANGUAGES } from '../../text/languageCodes.js';
 import { CorruptIndexError } from '../../errors.js';
 import { WEIGHTING_SCHEMES } from '../../weighting/termWeighting.js';
 import type { IndexSettings } from '../model/settings.js';
@@ -32,6 +33,8 @@ export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
   ['docLength', 'f64'],
   ['docFolded', 'u8'],
   ['docResidual', 'f64'],
+  // Each file's language: a position in LANGUAGES (src/core/text/languages.ts; 0 is English).
+  ['docLanguage', 'u8'],
   ['termIndptr', 'i32'],
   ['termIds', 'i32'],
   ['termCounts', 'f32'],
@@ -41,6 +44,12 @@ export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
   ['singularValues', 'f64'],
   ['axisScale', 'f64'],
   ['vectors', 'f32'],
+  // Format 4: each file's sections (src/core/sections): per-file offsets, [start, end) lines,
+  // '\0'-separated titles, and k f32 numbers per section.
+  ['sectionIndptr', 'i32'],
+  ['sectionLines', 'i32'],
+  ['sectionTitles', 'u8'],
+  ['sectionVectors', 'f32'],
 ];
 
 export const BYTES_PER: Record<ArrayKind, number> = { u8: 1, i32: 4, f32: 4, f64: 8 };
@@ -104,9 +113,13 @@ export function checkSettings(v: unknown): IndexSettings {
   int(p.minDocs, 'settings.prune.minDocs', 1);
   num(p.maxDocFraction, 'settings.prune.maxDocFraction', Number.MIN_VALUE, 1);
   int(p.maxTerms, 'settings.prune.maxTerms', 1);
-  const t = object(s.tokenize, 'settings.tokenize', ['stem', 'keepCompounds']);
+  const hasLanguages = typeof s.tokenize === 'object' && s.tokenize !== null && 'languages' in s.tokenize;
+  const t = object(s.tokenize, 'settings.tokenize', hasLanguages ? ['stem', 'keepCompounds', 'languages'] : ['stem', 'keepCompounds']);
   bool(t.stem, 'settings.tokenize.stem');
   bool(t.keepCompounds, 'settings.tokenize.keepCompounds');
+  const l = t.languages;
+  if (hasLanguages && l !== 'auto' && !(Array.isArray(l) && l.length > 0 && l.every((x) => LANGUAGES.includes(x as never))))
+    fail('settings.tokenize.languages is neither "auto" nor a list of known languages');
   num(s.conceptScaling, 'settings.conceptScaling', -10, 10);
   num(s.lexicalBlend, 'settings.lexicalBlend', 0, 1);
   return s as unknown as IndexSettings;
@@ -208,7 +221,7 @@ export function checkSectionSizes(header: CheckedHeader): void {
     [header.model.columnOfLength <= terms, 'model.columnOfLength exceeds the vocabulary'],
     [(n === 0) === (len.paths === 0), 'paths disagree with docs'],
     [
-      ['docSize', 'docMtime', 'docLength', 'docFolded', 'docResidual'].every((s) => len[s] === n),
+      ['docSize', 'docMtime', 'docLength', 'docFolded', 'docResidual', 'docLanguage'].every((s) => len[s] === n),
       'a per-document section is not docs long',
     ],
     [len.termIndptr === n + 1, 'termIndptr is not docs + 1 long'],
@@ -218,6 +231,8 @@ export function checkSectionSizes(header: CheckedHeader): void {
     [len.singularValues === k && len.axisScale === k, 'singularValues or axisScale are not k long'],
     [len.vectors === n * k, 'vectors are not k per document'],
     [m <= header.model.columnOfLength, 'more model terms than model.columnOfLength'],
+    [len.sectionIndptr === n + 1, 'sectionIndptr is not docs + 1 long'],
+    [len.sectionLines % 2 === 0 && len.sectionVectors === (len.sectionLines / 2) * k, 'sectionVectors are not k per section'],
   ];
   for (const [ok, what] of rules) if (!ok) throw new CorruptIndexError(`index sections disagree in size: ${what}`);
 }
@@ -231,6 +246,7 @@ export interface PayloadParts {
   readonly length: Float64Array;
   readonly folded: Uint8Array;
   readonly residual: Float64Array;
+  readonly language: Uint8Array;
   readonly indptr: Int32Array;
   readonly ids: Int32Array;
   readonly counts: Float32Array;
@@ -242,6 +258,10 @@ export interface PayloadParts {
   readonly axisScale: Float64Array;
   readonly vectors: Float32Array;
   readonly k: number;
+  readonly sectionIndptr: Int32Array;
+  readonly sectionLines: Int32Array;
+  readonly sectionTitles: readonly string[];
+  readonly sectionVectors: Float32Array;
 }
 
 const bad = (what: string): never => {
@@ -265,6 +285,7 @@ export function checkPayload(p: PayloadParts): void {
   for (let j = 0; j < n; j++) if (p.folded[j] > 1) bad('docFolded holds a value other than 0 or 1');
   allFinite(p.residual, 'docResidual', -1e-3);
   for (let j = 0; j < n; j++) if (p.residual[j] > 1 + 1e-3) bad('docResidual holds a value above 1');
+  for (let j = 0; j < n; j++) if (p.language[j] >= LANGUAGES.length) bad('docLanguage holds an unknown language');
   if (p.indptr[0] !== 0 || p.indptr[n] !== p.ids.length) bad('termIndptr does not span the term lists');
   const vocab = p.vocabSize;
   for (let j = 0; j < n; j++) {
@@ -296,5 +317,23 @@ export function checkPayload(p: PayloadParts): void {
     for (let i = j * k; i < (j + 1) * k; i++) s += v[i] * v[i];
     // Unit vectors, or zero for a file without model terms (float32 rounding allows a little).
     if (!(s <= 1 + 1e-3) || (s > 1e-6 && s < 1 - 1e-3)) bad(`the concept vector of "${p.paths[j]}" is not of unit length`);
+  }
+  checkSections(p);
+}
+
+function checkSections(p: PayloadParts): void {
+  const n = p.paths.length;
+  const count = p.sectionLines.length / 2;
+  const ip = p.sectionIndptr;
+  if (ip[0] !== 0 || ip[n] !== count) bad('sectionIndptr does not span the sections');
+  for (let j = 0; j < n; j++) if (!(ip[j + 1] >= ip[j])) bad('sectionIndptr goes backwards');
+  if (p.sectionTitles.length !== count) bad('there are not as many section titles as sections');
+  for (let i = 0; i < count; i++) {
+    const start = p.sectionLines[2 * i];
+    const end = p.sectionLines[2 * i + 1];
+    if (!(start >= 0 && end > start)) bad('a section ends before it starts');
+    let ss = 0;
+    for (let c = i * p.k; c < (i + 1) * p.k; c++) ss += p.sectionVectors[c] * p.sectionVectors[c];
+    if (!(ss <= 1 + 1e-3) || (ss > 1e-6 && ss < 1 - 1e-3)) bad('a section vector is not of unit length');
   }
 }

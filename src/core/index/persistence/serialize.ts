@@ -25,12 +25,16 @@ import {
   checkSectionSizes,
   type ArrayKind,
   type CheckedHeader,
+  type PayloadParts,
   type SectionEntry,
 } from './indexFileCheck.js';
 import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import { Vocabulary } from '../../counting/termCounts.js';
+import { LANGUAGES } from '../../text/languages.js';
+import { withLanguage } from '../../text/detectLanguage.js';
 
-export const INDEX_FORMAT_VERSION = 3;
+/** 4: each file's sections (line ranges, titles, concept vectors) follow the file vectors. */
+export const INDEX_FORMAT_VERSION = 4;
 const MAGIC = 'UNDTNIDX';
 /** Bytes before the JSON header: magic, header length, header checksum. */
 export const INDEX_PREAMBLE_BYTES = 16;
@@ -120,6 +124,10 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
       'docResidual',
       Float64Array.from(live, ([s]) => s.residual),
     ),
+    copied(
+      'docLanguage',
+      Uint8Array.from(live, ([s]) => LANGUAGES.indexOf(s.meta.language ?? 'en')),
+    ),
     copied('termIndptr', termIndptr),
     inPlace('termIds', 'i32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.termIds, termIndptr[j]))),
     inPlace('termCounts', 'f32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.counts, termIndptr[j]))),
@@ -129,6 +137,7 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     copied('singularValues', m.singularValues),
     copied('axisScale', m.axisScale),
     inPlace('vectors', 'f32', n * k, (dst) => live.forEach(([, i], j) => dst.set(all.subarray(i * k, (i + 1) * k), j * k))),
+    ...sectionSources(index, live, k),
   ];
   const table: SectionEntry[] = [];
   let offset = 0;
@@ -156,6 +165,28 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
   header.checksum = checksum32(out.subarray(start));
   sealHeader(out, header, reserved);
   return out;
+}
+
+/** The four section-table entries of the files' sections, in the order of `live`. */
+function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, number])[], k: number): SectionSource[] {
+  const indptr = new Int32Array(live.length + 1);
+  const files = live.map(([s]) => index.sections.get(s.meta.path));
+  files.forEach((f, j) => (indptr[j + 1] = indptr[j] + (f?.starts.length ?? 0)));
+  const total = indptr[live.length];
+  const titles = files.flatMap((f) => (f ? f.titles.map((t) => t.replace(/\0/g, ' ') || '…') : []));
+  return [
+    copied('sectionIndptr', indptr),
+    inPlace('sectionLines', 'i32', 2 * total, (dst) =>
+      files.forEach((f, j) => {
+        for (let i = 0; f && i < f.starts.length; i++) {
+          dst[2 * (indptr[j] + i)] = f.starts[i];
+          dst[2 * (indptr[j] + i) + 1] = f.ends[i];
+        }
+      }),
+    ),
+    copied('sectionTitles', encoder.encode(titles.join('\0'))),
+    inPlace('sectionVectors', 'f32', total * k, (dst) => files.forEach((f, j) => f && dst.set(f.vectors, indptr[j] * k))),
+  ];
 }
 
 /** Writes magic, header (padded with spaces to `reserved` bytes) and the header checksum into out. */
@@ -270,6 +301,7 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     length: get('docLength', 'f64'),
     folded: get('docFolded', 'u8'),
     residual: get('docResidual', 'f64'),
+    language: get('docLanguage', 'u8'),
     indptr: get('termIndptr', 'i32'),
     ids: get('termIds', 'i32'),
     counts: get('termCounts', 'f32'),
@@ -281,6 +313,10 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     axisScale: get('axisScale', 'f64'),
     vectors: get('vectors', 'f32'),
     k,
+    sectionIndptr: get('sectionIndptr', 'i32'),
+    sectionLines: get('sectionLines', 'i32'),
+    sectionTitles: splitText(get('sectionTitles', 'u8')),
+    sectionVectors: get('sectionVectors', 'f32'),
   };
   checkPayload(parts);
   const { size, mtime, length, folded, residual, indptr, ids, counts, keptIds, weights, termVectors, singularValues, axisScale, vectors } =
@@ -290,12 +326,27 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   const { columnOfLength: _len, ...scalars } = header.model;
   const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
   const slots: DocSlot[] = paths.map((path, j) => ({
-    meta: { path, size: size[j], mtimeMs: mtime[j] },
+    meta: withLanguage<DocSlot['meta']>({ path, size: size[j], mtimeMs: mtime[j] }, LANGUAGES[parts.language[j]]),
     terms: { termIds: ids.subarray(indptr[j], indptr[j + 1]), counts: counts.subarray(indptr[j], indptr[j + 1]), length: length[j] },
     folded: folded[j] === 1,
     residual: residual[j],
   }));
   const index = LsiIndex.assemble(header.settings, vocab, model, slots, vectors);
   index.restoreCounters(header.counters);
+  restoreSections(index, parts);
   return index;
+}
+
+/** Gives each file its saved sections (views of the payload). */
+function restoreSections(index: LsiIndex, p: PayloadParts): void {
+  const { sectionIndptr: ip, sectionLines: lines, sectionTitles: titles, sectionVectors: vectors, k } = p;
+  p.paths.forEach((path, j) => {
+    const a = ip[j];
+    const b = ip[j + 1];
+    if (b === a) return;
+    const starts = new Int32Array(b - a);
+    const ends = new Int32Array(b - a);
+    for (let i = a; i < b; i++) [starts[i - a], ends[i - a]] = [lines[2 * i], lines[2 * i + 1]];
+    index.sections.set(path, { starts, ends, titles: titles.slice(a, b), vectors: vectors.subarray(a * k, b * k) });
+  });
 }

@@ -1,5 +1,5 @@
 /**
- * `undertone lookalikes` end to end through main(). References: the demo workspace's answer key
+ * `undertone overlaps` end to end through main(). References: the demo workspace's answer key
  * (demo/expectations.json: its exact copies); a brute-force exact Jaccard of 5-word shingles
  * written here for a planted near-copy made from real text (CRAN abstracts, test/fixtures/corpora).
  */
@@ -31,9 +31,9 @@ type Report = {
 const demoRoot = join(REPO_ROOT, 'demo', 'workspace');
 const demoKey = join(REPO_ROOT, 'demo', 'expectations.json');
 
-describe('lookalikes on the demo', () => {
+describe('overlaps on the demo', () => {
   it('--json reports the planted exact copies', async () => {
-    const r = await run('lookalikes', demoRoot, '--json');
+    const r = await run('overlaps', demoRoot, '--json');
     expect(r.code).toBe(0);
     const report = JSON.parse(r.out) as Report;
     const key = JSON.parse(readFileSync(demoKey, 'utf8')) as { exactCopies: string[][] };
@@ -61,7 +61,7 @@ function jaccard5(a: string, b: string): number {
 }
 
 const cran = loadCollection('cran');
-describe('lookalikes on a folder of real abstracts', () => {
+describe('overlaps on a folder of real abstracts', () => {
   let root: string;
   let original: string;
   let edited: string;
@@ -89,7 +89,7 @@ describe('lookalikes on a folder of real abstracts', () => {
   });
 
   it('lists exact copies, near-copies and partial copies with their Jaccard, never a link as a copy, and notes empty and short files', async () => {
-    const r = await run('lookalikes', root, '--json');
+    const r = await run('overlaps', root, '--json');
     expect(r.code).toBe(0);
     const report = JSON.parse(r.out) as Report;
     expect(report.labels).toEqual({
@@ -108,7 +108,7 @@ describe('lookalikes on a folder of real abstracts', () => {
     expect(partial.jaccard).toBeLessThan(0.8);
     expect(report.stats.emptyFiles).toBe(1);
     expect(report.stats.skippedShort).toBe(1);
-    const table = await run('lookalikes', root);
+    const table = await run('overlaps', root);
     expect(table.out).toMatch(/Exact copies: 1 group/);
     expect(table.out).toMatch(/Near-copies \(shingle Jaccard ≥ 0\.8\): 1 pair/);
     expect(table.out).toMatch(/Partial copies \(shingle Jaccard 0\.3–0\.8\): \d+ pair/);
@@ -116,10 +116,10 @@ describe('lookalikes on a folder of real abstracts', () => {
   });
 
   it('--threshold changes what counts as a near-copy, and a bad one is refused', async () => {
-    const strict = JSON.parse((await run('lookalikes', root, '--json', '--threshold', '0.999')).out) as Report;
+    const strict = JSON.parse((await run('overlaps', root, '--json', '--threshold', '0.999')).out) as Report;
     expect(strict.threshold).toBe(0.999);
     expect(strict.near.some((p) => p.a === 'abstract-0-edited.md' || p.b === 'abstract-0-edited.md')).toBe(false);
-    const bad = await run('lookalikes', root, '--threshold', '1.5');
+    const bad = await run('overlaps', root, '--threshold', '1.5');
     expect(bad.code).toBe(1);
     expect(bad.err).toMatch(/--threshold needs a number above 0 and at most 1/);
   });
@@ -128,8 +128,12 @@ describe('lookalikes on a folder of real abstracts', () => {
     const plain = join(dir, 'plain');
     mkdirSync(plain, { recursive: true });
     cran.docs.slice(40, 46).forEach((d, i) => writeFileSync(join(plain, `n${i}.md`), d.text));
-    const r = await run('lookalikes', plain);
+    const r = await run('overlaps', plain);
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^No overlaps among 6 files\./);
+    // The command's old name is still accepted and gives the same answer.
+    const old = await run('lookalikes', plain);
+    expect(old.code).toBe(0);
+    expect(old.out).toBe(r.out);
   });
 });

@@ -1,5 +1,5 @@
 /**
- * `undertone lookalikes <folder>`: overlaps among the indexed files in four bands (core/lookalike):
+ * `undertone overlaps <folder>` (old name `lookalikes`): overlaps among the indexed files in four bands (core/lookalike):
  * "Exact copies", "Near-copies" (shingle Jaccard ≥ --threshold), "Partial copies" (Jaccard ≥ 0.3)
  * and "Same content, other words". Shingles and terms need the text, so every indexed file is read
  * again here. Paths that resolve to one real file (symbolic links) are one file, listed once.
@@ -16,6 +16,7 @@ import {
   type LookalikePair,
   type LookalikeReport,
 } from '../../core/lookalike/index.js';
+import { withIndexCounts } from '../../node/overlapCounts.js';
 import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
@@ -24,7 +25,7 @@ import { round } from './askCommand.js';
 /** Pairs per band in the table unless --top says otherwise. */
 export const DEFAULT_TOP_PER_BAND = 20;
 
-export async function lookalikesCommand(folder: string, flags: Flags, io: Io): Promise<number> {
+export async function overlapsCommand(folder: string, flags: Flags, io: Io): Promise<number> {
   const threshold = parseThreshold(flags.threshold);
   const top = positiveInt(flags.top, 'top') ?? DEFAULT_TOP_PER_BAND;
   const { index } = await ensureIndex(folder, flags, io);
@@ -49,7 +50,7 @@ export async function lookalikesCommand(folder: string, flags: Flags, io: Io): P
     }
     files.push({ id: path, text: got.text });
   }
-  const report = findLookalikes({ files }, { threshold });
+  const report = findLookalikes(withIndexCounts(index, files), { threshold });
   const extra = { unreadable, sameFile };
   if (flags.json) {
     io.out(JSON.stringify(toJson(report, threshold, extra)));

@@ -1,0 +1,49 @@
+/**
+ * Latency of section search and Nearby at a section on a saved index (in process, after loading;
+ * what the editor's worker pays per request). Usage:
+ *   npx esbuild bench/sectionLatency.ts --bundle --platform=node --format=esm --outfile=dist/sectionLatency.mjs \
+ *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
+ *   node dist/sectionLatency.mjs <index file> [queries]
+ * Queries: the first words of sections' titles picked evenly over the index (seeded), so the run
+ * needs nothing but the index. Prints median and 95th percentile in milliseconds.
+ */
+import { performance } from 'node:perf_hooks';
+import { loadIndex } from '../src/node/persist.js';
+import { nearbySections, searchSections } from '../src/core/sections/sectionSearch.js';
+
+const [file, count = '50'] = process.argv.slice(2);
+if (!file) {
+  console.error('usage: sectionLatency.mjs <index file> [queries]');
+  process.exit(2);
+}
+const got = await loadIndex(file);
+if (got.status !== 'ok') {
+  console.error(`cannot load ${file}: ${got.status}`);
+  process.exit(1);
+}
+const index = got.index;
+const files = [...index.sections.entries()];
+const n = Math.min(Number(count), files.length);
+const pick = Array.from({ length: n }, (_, i) => files[Math.floor(((i + 0.5) * files.length) / n)]);
+const quantiles = (ms: number[]): string => {
+  ms.sort((a, b) => a - b);
+  return `median ${ms[Math.floor(ms.length / 2)].toFixed(1)} ms, p95 ${ms[Math.floor(ms.length * 0.95)].toFixed(1)} ms`;
+};
+const search: number[] = [];
+const near: number[] = [];
+for (const [path, f] of pick) {
+  const title = f.titles[Math.floor(f.titles.length / 2)];
+  let t = performance.now();
+  try {
+    searchSections(index, title, { top: 20 });
+    search.push(performance.now() - t);
+  } catch {
+    /* a title without known words */
+  }
+  t = performance.now();
+  nearbySections(index, path, f.starts[Math.floor(f.starts.length / 2)], { top: 20 });
+  near.push(performance.now() - t);
+}
+console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}`);
+console.log(`search --sections: ${quantiles(search)} (${search.length} queries)`);
+console.log(`nearby at a section: ${quantiles(near)} (${near.length} sections)`);

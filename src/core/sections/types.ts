@@ -1,0 +1,42 @@
+/**
+ * What a section is: a run of a file's lines a person would recognise (a heading and its text, a
+ * top-level declaration of code, or a window of lines), with a title to show.
+ */
+
+export interface Section {
+  /** Zero-based first line. */
+  readonly start: number;
+  /** Zero-based line after the last one (exclusive). */
+  readonly end: number;
+  /** What a person would call it: the heading's text, the declaration's name, or "lines a–b". */
+  readonly title: string;
+}
+
+/** How a file was cut. */
+export type SectionKind = 'headings' | 'code' | 'window';
+
+export interface SectionOptions {
+  /** Lines per window for files without headings or declarations. @default 60 */
+  readonly windowLines: number;
+  /** Lines shared by consecutive windows. @default 15 */
+  readonly windowOverlap: number;
+  /** A section longer than this is cut into windows of its own (titles keep the name). @default 200 */
+  readonly maxLines: number;
+  /** A section shorter than this joins the one before it (unless it is the first). @default 3 */
+  readonly minLines: number;
+  /** Sections per file at most; the rest joins the last one (keeps a generated file small). @default 400 */
+  readonly maxSections: number;
+}
+
+/**
+ * Defaults: common practice for passage retrieval (windows of a few dozen lines overlapping by a
+ * quarter, as in passage-level retrieval of long documents, Callan 1994, "Passage-level evidence in
+ * document retrieval", SIGIR), not fitted to any collection.
+ */
+export const DEFAULT_SECTION_OPTIONS: SectionOptions = {
+  windowLines: 60,
+  windowOverlap: 15,
+  maxLines: 200,
+  minLines: 3,
+  maxSections: 400,
+};

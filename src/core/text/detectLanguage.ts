@@ -1,0 +1,165 @@
+/**
+ * The language of a file or a question, from its stop words.
+ *
+ * A stop-word profile (common practice in language identification; Grefenstette 1995, "Comparing
+ * two language identification schemes", found short function words as reliable as character
+ * trigrams once a text has a few dozen words): each word of a sample that is in the stop lists of
+ * n candidate languages gives 1/n to each of them (a word of one list counts fully, "de" or "a"
+ * little), and the language with the highest score wins when it has at least `minHits` and
+ * `margin` times the runner-up's. Files with source-code extensions are
+ * English whatever their comments say (identifiers are never stemmed as another language), and a
+ * file the profile cannot tell is English, as before languages were detected. A question is too
+ * short for a margin: its language is the one with most distinctive stop words if any, else the
+ * workspace's main language. Thresholds are our choice (common practice), not fitted to the
+ * evaluation collections.
+ */
+import { isLanguage, LANGUAGES, ownStopWords, type Language } from './languages.js';
+
+/** The `undertone.languages` setting: detect among all languages, or among those listed. */
+export type LanguageSetting = 'auto' | readonly Language[];
+
+export interface DetectOptions {
+  /** Words of the sample looked at. @default 600 */
+  readonly sampleWords: number;
+  /** Stop-word score needed to decide. @default 4 */
+  readonly minHits: number;
+  /** The winner needs this many times the runner-up's hits. @default 1.5 */
+  readonly margin: number;
+}
+
+export const DEFAULT_DETECT_OPTIONS: DetectOptions = Object.freeze({ sampleWords: 600, minHits: 4, margin: 1.5 });
+
+/** Extensions of prose files (the others are treated as code, always English). */
+const PROSE_EXTENSIONS = new Set([
+  '',
+  'md',
+  'markdown',
+  'mdown',
+  'mkd',
+  'mdx',
+  'txt',
+  'text',
+  'rst',
+  'adoc',
+  'asciidoc',
+  'org',
+  'tex',
+  'html',
+  'htm',
+  'xhtml',
+  'wiki',
+  'textile',
+  'rtf',
+]);
+
+/** True when a path (key or file name) has a prose extension, or none. */
+export function isProsePath(path: string): boolean {
+  const name = path.slice(path.lastIndexOf('/') + 1);
+  const dot = name.lastIndexOf('.');
+  return PROSE_EXTENSIONS.has(dot <= 0 ? '' : name.slice(dot + 1).toLowerCase());
+}
+
+/** The candidate languages of a setting (undefined: English only, as indexes made before the setting). */
+export function candidateLanguages(setting: LanguageSetting | undefined): readonly Language[] {
+  if (setting === undefined) return ['en'];
+  if (setting === 'auto') return LANGUAGES;
+  const list = setting.filter(isLanguage);
+  return list.length > 0 ? list : ['en'];
+}
+
+const profiles = new Map<string, Map<string, Language[]>>();
+
+/** Word → the candidate languages whose stop lists have it. */
+function profile(candidates: readonly Language[]): Map<string, Language[]> {
+  const key = candidates.join(',');
+  let p = profiles.get(key);
+  if (p === undefined) {
+    p = new Map();
+    for (const lang of candidates)
+      for (const w of ownStopWords(lang)) {
+        const langs = p.get(w);
+        if (langs === undefined) p.set(w, [lang]);
+        else if (!langs.includes(lang)) langs.push(lang);
+      }
+    profiles.set(key, p);
+  }
+  return p;
+}
+
+const WORD = /\p{L}+/gu;
+const FENCE = /^\s*(```|~~~)/;
+const INLINE_CODE = /`[^`\n]*`/g;
+
+/** Stop-word scores per candidate in the first `sampleWords` words of the prose. */
+function hits(text: string, candidates: readonly Language[], sampleWords: number): Map<Language, number> {
+  const p = profile(candidates);
+  const out = new Map<Language, number>();
+  let words = 0;
+  let inFence = false;
+  for (const line of text.split('\n')) {
+    if (FENCE.test(line)) {
+      inFence = !inFence;
+      continue;
+    }
+    if (inFence) continue;
+    for (const m of line.replace(INLINE_CODE, ' ').normalize('NFC').toLowerCase().matchAll(WORD)) {
+      const langs = p.get(m[0]);
+      if (langs !== undefined) for (const lang of langs) out.set(lang, (out.get(lang) ?? 0) + 1 / langs.length);
+      if (++words >= sampleWords) return out;
+    }
+  }
+  return out;
+}
+
+function ranked(h: Map<Language, number>): [Language | undefined, number, number] {
+  let best: Language | undefined;
+  let first = 0;
+  let second = 0;
+  for (const [lang, n] of h) {
+    if (n > first) {
+      second = first;
+      first = n;
+      best = lang;
+    } else if (n > second) second = n;
+  }
+  return [best, first, second];
+}
+
+/** The language of a text among the candidates, or undefined when the profile cannot tell. */
+export function detectLanguage(text: string, candidates: readonly Language[], options: Partial<DetectOptions> = {}): Language | undefined {
+  if (candidates.length === 1) return candidates[0];
+  const o = { ...DEFAULT_DETECT_OPTIONS, ...options };
+  const [best, first, second] = ranked(hits(text, candidates, o.sampleWords));
+  return best !== undefined && first >= o.minHits && first >= o.margin * second ? best : undefined;
+}
+
+/**
+ * The language a file is tokenized in: English for code (by extension) and for a file the
+ * profile cannot tell; otherwise the detected one among the setting's candidates. A setting that
+ * lists one language gives that language to every prose file.
+ */
+export function fileLanguage(
+  path: string,
+  text: string,
+  setting: LanguageSetting | undefined,
+  options: Partial<DetectOptions> = {},
+): Language {
+  const candidates = candidateLanguages(setting);
+  if (candidates.length === 1 && candidates[0] === 'en') return 'en';
+  if (!isProsePath(path)) return 'en';
+  return detectLanguage(text, candidates, options) ?? 'en';
+}
+
+/** A question's language: the best stop-word score among the candidates, else the fallback. */
+export function queryLanguage(text: string, setting: LanguageSetting | undefined, fallback: Language): Language {
+  const candidates = candidateLanguages(setting);
+  if (candidates.length === 1) return candidates[0];
+  const [best, first, second] = ranked(hits(text, candidates, 200));
+  return best !== undefined && first > second ? best : fallback;
+}
+
+/** A document record with its language set when it is not English (English is the absent value). */
+export function withLanguage<T extends { readonly language?: Language }>(meta: T, language: Language | undefined): T {
+  const { language: _old, ...rest } = meta;
+  return (language === undefined || language === 'en' ? rest : { ...rest, language }) as T;
+}

@@ -1,0 +1,35 @@
+/**
+ * The pipeline's sections stage: each indexed file is read again, cut into sections and every
+ * section folded into the freshly built model (src/core/sections). Run after the build, because
+ * section vectors need the model; a file that can no longer be read keeps no sections (its
+ * results fall back to the whole file).
+ */
+import { foldContextOf, foldSections } from '../core/sections/sectionVectors.js';
+import type { LsiIndex } from '../core/index/lsiIndex.js';
+import { readIndexableText } from './scanRead.js';
+
+export interface SectionPassOptions {
+  /** Throws when the run was cancelled (called between files). */
+  readonly check: () => void;
+  readonly onProgress?: (done: number) => void;
+}
+
+export async function foldFileSections(
+  index: LsiIndex,
+  files: readonly { readonly key: string; readonly absPath: string }[],
+  maxFileBytes: number,
+  options: SectionPassOptions,
+): Promise<void> {
+  const ctx = foldContextOf(index);
+  for (let i = 0; i < files.length; i++) {
+    const f = files[i];
+    const got = await readIndexableText(f.absPath, maxFileBytes);
+    if (got.kind === 'text') index.sections.set(f.key, foldSections(ctx, f.key, got.text));
+    else index.sections.delete(f.key);
+    if (i % 64 === 0) {
+      options.check();
+      options.onProgress?.(i);
+    }
+  }
+  options.onProgress?.(files.length);
+}

@@ -1,0 +1,115 @@
+/**
+ * Section vectors: folded with the frozen model, saved in the index file and kept current when a
+ * file is folded in after an edit. Files: TypeScript sources of rxjs 7.8.2 (npm, Apache-2.0;
+ * test/fixtures/rxjs-src, comments blanked). Tolerances: f32 storage (2^-24 relative per number,
+ * summed over k terms), common practice.
+ */
+import { describe, expect, it } from 'vitest';
+import { CorruptIndexError } from '../../../src/core/errors.js';
+import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
+import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
+import { decodeIndex, encodeIndex, readIndexHeader, sealIndexFile, payloadOf } from '../../../src/core/index/persistence/serialize.js';
+import { foldContextOf, foldSections } from '../../../src/core/sections/sectionVectors.js';
+import { loadRankingFixture } from '../../helpers/rankingChecks.js';
+
+const fx = loadRankingFixture('rxjs-src');
+const docs = [...fx.docs.slice(0, 120), ...fx.docs.filter((d) => d.id === 'internal/Subject.ts')];
+
+function buildWithSections(): LsiIndex {
+  const b = new IndexBuilder();
+  for (const d of docs) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+  const index = b.build();
+  const ctx = foldContextOf(index);
+  for (const d of docs) index.sections.set(d.id, foldSections(ctx, d.id, d.text));
+  return index;
+}
+
+function maxDiff(a: Float32Array, b: Float32Array): number {
+  expect(a.length).toBe(b.length);
+  let m = 0;
+  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i] - b[i]));
+  return m;
+}
+
+describe('section vectors', () => {
+  it('a file that is one section gets the vector the build gave the file', () => {
+    const index = buildWithSections();
+    const ctx = foldContextOf(index);
+    let checked = 0;
+    for (const d of docs) {
+      // As a plain-text file (one window when short), the single section is the whole text.
+      const one = foldSections(ctx, `${d.id}.log`, d.text, { windowLines: 10_000 });
+      if (one.starts.length !== 1) continue;
+      expect(maxDiff(one.vectors, index.vectorOf(d.id))).toBeLessThan(1e-5);
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(100);
+  });
+
+  it('fold-in on edit gives the sections a fresh pass over the saved index gives, and leaves other sections alone', () => {
+    const index = buildWithSections();
+    const target = docs.at(-1)!; // internal/Subject.ts: the class Subject and its methods, then AnonymousSubject
+    const before = index.sections.get(target.id)!;
+    const lines = target.text.split('\n');
+    // Edit the body of the last section: a statement with known words before its closing line.
+    const at = before.ends.at(-1)! - 1;
+    const edited = [
+      ...lines.slice(0, at),
+      '    this._throwIfClosed(); this.thrownError = err; this.hasError = true;',
+      ...lines.slice(at),
+    ].join('\n');
+    const saved = encodeIndex(index);
+    index.foldIn({ path: target.id, size: edited.length, mtimeMs: 1 }, edited);
+    const after = index.sections.get(target.id)!;
+    // A fresh process: reopen the saved index (before the edit) and fold the edited file's sections.
+    const reopened = decodeIndex(saved);
+    const fresh = foldSections(foldContextOf(reopened), target.id, edited);
+    expect(Array.from(after.starts)).toEqual(Array.from(fresh.starts));
+    expect(Array.from(after.starts)).toEqual(Array.from(before.starts));
+    expect(maxDiff(after.vectors, fresh.vectors)).toBeLessThan(1e-6);
+    // Sections before the edited one keep their vectors.
+    const k = index.k;
+    const same = before.starts.length - 1;
+    expect(maxDiff(after.vectors.subarray(0, same * k), before.vectors.subarray(0, same * k))).toBeLessThan(1e-7);
+    expect(maxDiff(after.vectors.subarray(same * k), before.vectors.subarray(same * k))).toBeGreaterThan(1e-4);
+  });
+
+  it('saves and reopens every section exactly; removing a file drops its sections', () => {
+    const index = buildWithSections();
+    const back = decodeIndex(encodeIndex(index));
+    expect(back.sections.count).toBe(index.sections.count);
+    for (const d of docs) {
+      const a = index.sections.get(d.id)!;
+      const b = back.sections.get(d.id)!;
+      expect(b.titles).toEqual(a.titles);
+      expect(Array.from(b.starts)).toEqual(Array.from(a.starts));
+      expect(Array.from(b.ends)).toEqual(Array.from(a.ends));
+      expect(maxDiff(a.vectors, b.vectors)).toBe(0);
+    }
+    const gone = docs[0].id;
+    const n = back.sections.get(gone)!.starts.length;
+    back.remove(gone);
+    expect(back.sections.get(gone)).toBeUndefined();
+    expect(back.sections.count).toBe(index.sections.count - n);
+  });
+
+  it('refuses a file of the format before sections (it is rebuilt, never read)', () => {
+    const bytes = encodeIndex(buildWithSections());
+    const header = readIndexHeader(bytes);
+    const kept = header.sections.filter((s) => !s.name.startsWith('section'));
+    const last = kept.at(-1)!;
+    const end = Math.ceil((last.offset + last.length * 4) / 8) * 8;
+    const old = sealIndexFile({ ...header, formatVersion: 3, sections: kept, payloadBytes: end }, payloadOf(bytes).slice(0, end));
+    expect(() => decodeIndex(old)).toThrow(CorruptIndexError);
+    expect(() => decodeIndex(old)).toThrow(/format 3 is not the current format 4/);
+  });
+
+  it('refuses a saved section vector that is not of unit length', () => {
+    const bytes = encodeIndex(buildWithSections());
+    const header = readIndexHeader(bytes);
+    const e = header.sections.find((s) => s.name === 'sectionVectors')!;
+    const payload = payloadOf(bytes).slice();
+    new Float32Array(payload.buffer, e.offset, e.length)[0] += 0.5;
+    expect(() => decodeIndex(sealIndexFile(header, payload))).toThrow(/section vector is not of unit length/);
+  });
+});

@@ -1,0 +1,60 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { candidateLanguages, detectLanguage, fileLanguage, isProsePath, queryLanguage } from '../../../src/core/text/detectLanguage.js';
+import { LANGUAGES } from '../../../src/core/text/languages.js';
+import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
+
+// Reference: the language of Debian's translated manual pages (manpages-de/-fr/-es/-nl/-sv
+// 4.18.1, test/fixtures/languages) is the package's; English: CRAN abstracts (test collection).
+function pages(lang: string): string[] {
+  return readFileSync(join(REPO_ROOT, 'test/fixtures/languages/known-item', `${lang}.jsonl`), 'utf8')
+    .split('\n')
+    .filter((l) => l.length > 0)
+    .map((l) => (JSON.parse(l) as { text: string }).text);
+}
+
+describe('detectLanguage', () => {
+  // Some translated pages keep untranslated English paragraphs, so English counts as no mistake.
+  it('names the language of translated manual pages, and seldom a third language', () => {
+    for (const lang of ['de', 'fr', 'es', 'nl', 'sv']) {
+      const got = pages(lang).map((t) => detectLanguage(t, LANGUAGES));
+      const right = got.filter((g) => g === lang).length;
+      const wrong = got.filter((g) => g !== undefined && g !== lang && g !== 'en').length;
+      expect(right / got.length, lang).toBeGreaterThanOrEqual(0.75);
+      expect(wrong / got.length, lang).toBeLessThanOrEqual(0.05);
+    }
+  });
+
+  it('reads English abstracts as English', () => {
+    const docs = loadCollection('cran').docs.slice(0, 200);
+    const english = docs.filter((d) => detectLanguage(d.text, LANGUAGES) === 'en').length;
+    expect(english / docs.length).toBeGreaterThanOrEqual(0.95);
+  });
+});
+
+describe('fileLanguage', () => {
+  const german = pages('de')[3];
+  it('keeps code files English and detects prose files', () => {
+    expect(isProsePath('notes/a.md')).toBe(true);
+    expect(isProsePath('README')).toBe(true);
+    expect(isProsePath('src/a.ts')).toBe(false);
+    expect(fileLanguage('src/a.py', german, 'auto')).toBe('en');
+    expect(fileLanguage('notes/a.md', german, 'auto')).toBe('de');
+  });
+
+  it('is English only without the setting (indexes made before languages) and follows a listed language', () => {
+    expect(fileLanguage('notes/a.md', german, undefined)).toBe('en');
+    expect(fileLanguage('notes/a.md', german, ['fr'])).toBe('fr');
+    expect(candidateLanguages(['xx' as never])).toEqual(['en']);
+  });
+});
+
+describe('queryLanguage', () => {
+  it('reads a question in its own language when it has stop words, else in the fallback', () => {
+    expect(queryLanguage('wie funktioniert das Budget', 'auto', 'en')).toBe('de');
+    expect(queryLanguage('how does the retry budget work', 'auto', 'de')).toBe('en');
+    expect(queryLanguage('retry budget', 'auto', 'de')).toBe('de');
+    expect(queryLanguage('retry budget', ['en'], 'de')).toBe('en');
+  });
+});
