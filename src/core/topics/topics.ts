@@ -15,8 +15,8 @@
  * 4. CUR of the weighted file × term matrix (cur.ts, deterministic DEIM by default) picks actual
  *    files (rows) and actual terms (columns) that span its leading concepts.
  * 5. Each topic's name terms are scored against its parent (topicNames.ts: frequent inside, rare
- *    in the siblings); among its 3N best, those CUR picked come first, then the others, N in all,
- *    markup words last. Its exemplar files: among its 3F members closest to its centre, CUR's
+ *    in the siblings); from its 2N best, the N that occur together most (coherentNames.ts, mean
+ *    NPMI over the workspace's files), those CUR picked first, markup words last. Its exemplar files: among its 3F members closest to its centre, CUR's
  *    picks first, then the others, F in all. Every term and file says whether CUR picked it.
  * 6. Where it lives: the folders holding most of its files (folderShares.ts).
  * Files without any model term have a zero concept vector and are listed as unplaced.
