@@ -41,14 +41,22 @@ export interface CurOptions {
   rowCount?: number;
   /** @default DEFAULT_SEED */
   seed: number;
+  /** Compute ‖A − CC⁺A‖ (error.columnsOnly; NaN when false). @default true */
+  columnError: boolean;
 }
 
-export const DEFAULT_CUR_OPTIONS: Readonly<CurOptions> = Object.freeze({ rank: 10, method: 'deim', epsilon: 1, seed: DEFAULT_SEED });
+export const DEFAULT_CUR_OPTIONS: Readonly<CurOptions> = Object.freeze({
+  rank: 10,
+  method: 'deim',
+  epsilon: 1,
+  seed: DEFAULT_SEED,
+  columnError: true,
+});
 
 export interface CurError {
   /** ‖A − CUR‖_F. */
   readonly frobenius: number;
-  /** ‖A − CC⁺A‖_F (the chosen columns alone). */
+  /** ‖A − CC⁺A‖_F (the chosen columns alone; NaN when options.columnError is false). */
   readonly columnsOnly: number;
   /** ‖A − A_k‖_F, the best rank-k error (from the singular values). */
   readonly rankTail: number;
@@ -97,7 +105,7 @@ export function curDecomposition(a: CsrMatrix, options: Partial<CurOptions> = {}
     columns = sample(colLev, o.columnCount ?? sampleSize(k, o.epsilon), random);
     rows = sample(rowLev, o.rowCount ?? sampleSize(k, o.epsilon), random);
   }
-  const fac = curFactors(a, columns, rows);
+  const fac = curFactors(a, columns, rows, o.columnError);
   let top = 0;
   for (let i = 0; i < k; i++) top += f.s[i] * f.s[i];
   const tailSquared = Math.max(0, fac.frobeniusSquared - top);

@@ -39,13 +39,17 @@ export interface CurFactors {
   readonly frobeniusSquared: number;
   /** ‖A − CUR‖²_F. */
   readonly errorSquared: number;
-  /** ‖A − CC⁺A‖²_F (columns alone). */
+  /** ‖A − CC⁺A‖²_F (columns alone; NaN when not asked for). */
   readonly columnErrorSquared: number;
   /** ‖A − AR⁺R‖²_F (rows alone). */
   readonly rowErrorSquared: number;
 }
 
-export function curFactors(a: CsrMatrix, columns: Picks, rows: Picks): CurFactors {
+/**
+ * withColumnError false skips ‖A − CC⁺A‖ (NaN then): it costs a terms × c product and its Gram
+ * table, the largest part of the work when many columns are chosen.
+ */
+export function curFactors(a: CsrMatrix, columns: Picks, rows: Picks, withColumnError = true): CurFactors {
   const nc = columns.indices.length;
   const nr = rows.indices.length;
   const c = denseBlock(a.rows, nc);
@@ -69,7 +73,7 @@ export function curFactors(a: CsrMatrix, columns: Picks, rows: Picks): CurFactor
       middle: new Float64Array(nc * nr),
       frobeniusSquared: frob,
       errorSquared: frob,
-      columnErrorSquared: nc === 0 ? frob : columnError(a, c, frob),
+      columnErrorSquared: nc === 0 ? frob : withColumnError ? columnError(a, c, frob) : NaN,
       rowErrorSquared: nr === 0 ? frob : rowError(a, rt, frob).error,
     };
   }
@@ -100,7 +104,7 @@ export function curFactors(a: CsrMatrix, columns: Picks, rows: Picks): CurFactor
     middle,
     frobeniusSquared: frob,
     errorSquared: Math.max(0, frob - 2 * cross + curSquared),
-    columnErrorSquared: columnError(a, c, frob, gcPinv),
+    columnErrorSquared: withColumnError ? columnError(a, c, frob, gcPinv) : NaN,
     rowErrorSquared,
   };
 }

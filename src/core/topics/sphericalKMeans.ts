@@ -117,35 +117,83 @@ function chordSquared(points: Float64Array, i: number, j: number, dims: number):
   return Math.max(0, 2 - 2 * dot(points, i, points, j, dims));
 }
 
+/**
+ * Lloyd's iteration kept in sums: S = X·Σᵀ (each point's dot product with each cluster's member
+ * sum) and Q_c = ‖Σ_c‖², so cos(x_i, centre_c) = S_ic / √Q_c. After the first passes few points
+ * move, and a point moving from cluster a to b changes only columns a and b of S by ±X·x_j, so a
+ * pass costs n·dims per moved point instead of n·k·dims (exact up to rounding; the whole table is
+ * recomputed when at least k/2 points moved).
+ */
 function lloyd(points: Float64Array, n: number, dims: number, initial: Float64Array, maxIterations: number): Clustering {
-  let centres = initial;
-  const assignment = new Int32Array(n).fill(-1);
+  const k = initial.length / dims;
+  const assignment = new Int32Array(n);
+  const s = new Float64Array(n * k);
+  timesCentres(points, n, dims, initial, k, s);
+  const first = assignFromSums(s, n, k, null, assignment, null);
+  let objective = first.objective;
+  const sums = new Float64Array(k * dims);
+  for (let i = 0; i < n; i++) {
+    const o = assignment[i] * dims;
+    for (let d = 0; d < dims; d++) sums[o + d] += points[i * dims + d];
+  }
+  const norm = new Float64Array(k);
+  const previous = new Int32Array(n);
+  const column = new Float64Array(n);
   let iterations = 0;
-  let objective = assign(points, n, dims, centres, assignment).objective;
+  let movedPoints: number[] | null = null;
   while (iterations < maxIterations) {
     iterations++;
-    centres = updateCentres(points, n, dims, centres.length / dims, assignment);
-    const pass = assign(points, n, dims, centres, assignment);
+    if (movedPoints === null || 2 * movedPoints.length >= k) timesCentres(points, n, dims, sums, k, s);
+    else {
+      for (const j of movedPoints) {
+        const a = previous[j];
+        const b = assignment[j];
+        timesPoint(points, n, dims, j, column);
+        for (let i = 0; i < n; i++) {
+          s[i * k + a] -= column[i];
+          s[i * k + b] += column[i];
+        }
+      }
+    }
+    for (let c = 0; c < k; c++) {
+      let ss = 0;
+      for (let d = 0; d < dims; d++) ss += sums[c * dims + d] ** 2;
+      norm[c] = ss > 0 ? 1 / Math.sqrt(ss) : 0;
+    }
+    previous.set(assignment);
+    const pass = assignFromSums(s, n, k, norm, assignment, previous);
     objective = pass.objective;
-    if (pass.moved === 0) break;
+    movedPoints = pass.moved;
+    for (const j of movedPoints) {
+      const oa = previous[j] * dims;
+      const ob = assignment[j] * dims;
+      for (let d = 0; d < dims; d++) {
+        sums[oa + d] -= points[j * dims + d];
+        sums[ob + d] += points[j * dims + d];
+      }
+    }
+    if (movedPoints.length === 0) break;
   }
-  return { assignment, centres, clusters: centres.length / dims, objective, iterations };
+  // Clusters left empty (or summing to zero) are dropped and the rest renumbered in order.
+  const renumber = new Int32Array(k).fill(-1);
+  const centres: number[] = [];
+  let kept = 0;
+  for (let c = 0; c < k; c++) {
+    let ss = 0;
+    for (let d = 0; d < dims; d++) ss += sums[c * dims + d] ** 2;
+    if (!(ss > 0)) continue;
+    const inv = 1 / Math.sqrt(ss);
+    for (let d = 0; d < dims; d++) centres.push(sums[c * dims + d] * inv);
+    renumber[c] = kept++;
+  }
+  if (kept === 0) return { assignment: new Int32Array(n), centres: initial.slice(0, dims), clusters: 1, objective, iterations };
+  for (let i = 0; i < n; i++) assignment[i] = renumber[assignment[i]];
+  return { assignment, centres: Float64Array.from(centres), clusters: kept, objective, iterations };
 }
 
-/** Each point to its nearest centre by cosine; returns how many points changed cluster. */
-function assign(
-  points: Float64Array,
-  n: number,
-  dims: number,
-  centres: Float64Array,
-  assignment: Int32Array,
-): { moved: number; objective: number } {
-  const k = centres.length / dims;
-  let moved = 0;
-  let objective = 0;
+/** s (n × k) = points · centresᵀ. */
+function timesCentres(points: Float64Array, n: number, dims: number, centres: Float64Array, k: number, s: Float64Array): void {
   for (let i = 0; i < n; i++) {
-    let bestC = 0;
-    let bestCos = -Infinity;
     const o = i * dims;
     for (let c = 0; c < k; c++) {
       // Inlined dot product: this loop is where k-means spends its time.
@@ -160,35 +208,62 @@ function assign(
           points[o + d + 3] * centres[oc + d + 3];
       }
       for (; d < dims; d++) v += points[o + d] * centres[oc + d];
+      s[i * k + c] = v;
+    }
+  }
+}
+
+/** column (n) = points · point j. */
+function timesPoint(points: Float64Array, n: number, dims: number, j: number, column: Float64Array): void {
+  const oj = j * dims;
+  for (let i = 0; i < n; i++) {
+    const o = i * dims;
+    let v = 0;
+    let d = 0;
+    for (; d + 3 < dims; d += 4) {
+      v +=
+        points[o + d] * points[oj + d] +
+        points[o + d + 1] * points[oj + d + 1] +
+        points[o + d + 2] * points[oj + d + 2] +
+        points[o + d + 3] * points[oj + d + 3];
+    }
+    for (; d < dims; d++) v += points[o + d] * points[oj + d];
+    column[i] = v;
+  }
+}
+
+/**
+ * Each point to the cluster with the largest S_ic·norm_c (norm null: S holds cosines already;
+ * clusters with norm 0 are empty and skipped); ties go to the lower cluster. Returns the points
+ * that changed cluster (against previous, when given) and the objective.
+ */
+function assignFromSums(
+  s: Float64Array,
+  n: number,
+  k: number,
+  norm: Float64Array | null,
+  assignment: Int32Array,
+  previous: Int32Array | null,
+): { moved: number[]; objective: number } {
+  const moved: number[] = [];
+  let objective = 0;
+  for (let i = 0; i < n; i++) {
+    let bestC = 0;
+    let bestCos = -Infinity;
+    const o = i * k;
+    for (let c = 0; c < k; c++) {
+      if (norm !== null && norm[c] === 0) continue;
+      const v = norm === null ? s[o + c] : s[o + c] * norm[c];
       if (v > bestCos) {
         bestCos = v;
         bestC = c;
       }
     }
-    if (assignment[i] !== bestC) moved++;
+    if (previous !== null && previous[i] !== bestC) moved.push(i);
     assignment[i] = bestC;
     objective += bestCos;
   }
   return { moved, objective };
-}
-
-/** Normalised member sums; clusters left empty (or summing to zero) are dropped. */
-function updateCentres(points: Float64Array, n: number, dims: number, k: number, assignment: Int32Array): Float64Array {
-  const sums = new Float64Array(k * dims);
-  for (let i = 0; i < n; i++) {
-    const o = assignment[i] * dims;
-    for (let d = 0; d < dims; d++) sums[o + d] += points[i * dims + d];
-  }
-  let kept = 0;
-  for (let c = 0; c < k; c++) {
-    let ss = 0;
-    for (let d = 0; d < dims; d++) ss += sums[c * dims + d] ** 2;
-    if (!(ss > 0)) continue;
-    const inv = 1 / Math.sqrt(ss);
-    for (let d = 0; d < dims; d++) sums[kept * dims + d] = sums[c * dims + d] * inv;
-    kept++;
-  }
-  return sums.slice(0, Math.max(1, kept) * dims);
 }
 
 function dot(a: Float64Array, i: number, b: Float64Array, j: number, dims: number): number {

@@ -7,12 +7,13 @@
  * number of clusters (Mardia, Kent & Bibby 1979 [M]), used here as the ceiling, and 20 topics is
  * about what one screen can show (our choice); every count up to 10, then every second one (the
  * choice costs a k-means run per candidate); sample 500 points (a 250 000-number distance table);
- * 3 k-means restarts per candidate. On large text collections the silhouette tends to keep
+ * 3 k-means restarts per candidate. The k-means runs work from the sample's table of cosines
+ * (gramKMeans.ts), so a candidate costs a few hundred thousand additions per pass. On large text collections the silhouette tends to keep
  * rising with the count, so the ceiling often decides there (see the benchmark notes). Fewer than 3 points, or points with a
  * single direction, give 1 topic.
  */
 import { createRandom, DEFAULT_SEED } from '../random.js';
-import { sphericalKMeans } from './sphericalKMeans.js';
+import { gramKMeans, gramOf } from './gramKMeans.js';
 
 export interface TopicCountOptions {
   /** @default 2 */
@@ -64,14 +65,14 @@ export function chooseTopicCount(
   const chosen = order.slice(0, s).sort();
   const sample = new Float64Array(s * dims);
   chosen.forEach((p, i) => sample.set(points.subarray(p * dims, (p + 1) * dims), i * dims));
+  const gram = gramOf(sample, s, dims);
   const dist = new Float64Array(s * s);
   let spread = 0;
   for (let i = 0; i < s; i++) {
-    for (let j = i + 1; j < s; j++) {
-      let d = 0;
-      for (let t = 0; t < dims; t++) d += sample[i * dims + t] * sample[j * dims + t];
-      const v = Math.max(0, 1 - d);
-      dist[i * s + j] = dist[j * s + i] = v;
+    for (let j = 0; j < s; j++) {
+      if (i === j) continue;
+      const v = Math.max(0, 1 - gram[i * s + j]);
+      dist[i * s + j] = v;
       spread = Math.max(spread, v);
     }
   }
@@ -80,7 +81,7 @@ export function chooseTopicCount(
   const scores: { topics: number; silhouette: number }[] = [];
   let best = { topics: 1, silhouette: -Infinity };
   for (let k = Math.max(2, o.minTopics); k <= upper; k += k < 10 ? 1 : 2) {
-    const c = sphericalKMeans(sample, s, dims, k, { restarts: o.restarts, maxIterations: o.maxIterations, seed: o.seed + k });
+    const c = gramKMeans(gram, s, k, { restarts: o.restarts, maxIterations: o.maxIterations, seed: o.seed + k });
     if (c.clusters < k) break; // fewer distinct directions than k: larger k cannot do better
     const sil = meanSilhouette(dist, s, c.assignment, c.clusters);
     scores.push({ topics: k, silhouette: sil });

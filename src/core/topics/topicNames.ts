@@ -108,7 +108,10 @@ export class NameScratch {
   readonly df: Float64Array;
   readonly childSum: Float64Array;
   readonly childDf: Float64Array;
+  /** Per column: 0 unknown, 1 may name a topic, 2 never names one (isUnnameable, remembered). */
+  readonly nameable: Uint8Array;
   constructor(cols: number) {
+    this.nameable = new Uint8Array(cols);
     this.sum = new Float64Array(cols);
     this.df = new Float64Array(cols);
     this.childSum = new Float64Array(cols);
@@ -140,7 +143,11 @@ export function namesAgainstParent(
   scratch: NameScratch,
   termOf: (col: number) => string,
 ): ScoredTerm[][] {
-  const { sum, df, childSum, childDf } = scratch;
+  const { sum, df, childSum, childDf, nameable } = scratch;
+  const canName = (c: number): boolean => {
+    if (nameable[c] === 0) nameable[c] = isUnnameable(termOf(c)) ? 2 : 1;
+    return nameable[c] === 1;
+  };
   const touched: number[] = [];
   for (let i = 0; i < parentRows.length; i++) {
     const r = parentRows[i];
@@ -170,7 +177,7 @@ export function namesAgainstParent(
     for (const c of mine) {
       const meanT = childSum[c] / nT;
       const meanS = nS > 0 ? (sum[c] - childSum[c]) / nS : 0;
-      if (meanT > meanS && (childDf[c] >= 2 || nT < 4) && !isUnnameable(termOf(c))) {
+      if (meanT > meanS && (childDf[c] >= 2 || nT < 4) && canName(c)) {
         let s: number;
         if (score === 'contrast') s = meanT - meanS;
         else {

@@ -15,8 +15,8 @@
  * 4. CUR of the weighted file × term matrix (cur.ts, deterministic DEIM by default) picks actual
  *    files (rows) and actual terms (columns) that span its leading concepts.
  * 5. Each topic's name terms are scored against its parent (topicNames.ts: frequent inside, rare
- *    in the siblings); among its 3N best, those CUR picked come first, then the others, N in all,
- *    markup words last. Its exemplar files: among its 3F members closest to its centre, CUR's
+ *    in the siblings); from its 2N best, the N that occur together most (coherentNames.ts, mean
+ *    NPMI over the workspace's files), those CUR picked first, markup words last. Its exemplar files: among its 3F members closest to its centre, CUR's
  *    picks first, then the others, F in all. Every term and file says whether CUR picked it.
  * 6. Where it lives: the folders holding most of its files (folderShares.ts).
  * Files without any model term have a zero concept vector and are listed as unplaced.
@@ -29,6 +29,7 @@
 import { EmptyCorpusError, InvalidInputError } from '../errors.js';
 import type { LsiIndex } from '../index/lsiIndex.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
+import { DEFAULT_NAME_POOL_FACTOR, TermFiles } from './coherentNames.js';
 import { curDecomposition, type CurMethod } from './cur.js';
 import { folderShares, type FolderShare } from './folderShares.js';
 import { leadingFactors, weightedMatrix } from './indexMatrix.js';
@@ -54,6 +55,10 @@ export interface TopicsOptions {
   naming: NamingScore;
   /** @default 8 */
   termsPerTopic: number;
+  /** Choose the name terms as a set that co-occurs (coherentNames.ts) rather than the most distinctive alone. @default true */
+  coherentNames: boolean;
+  /** The pool coherentNames chooses from: this many times termsPerTopic of the most distinctive terms. @default 2 */
+  namePool: number;
   /** @default 5 */
   filesPerTopic: number;
   /** @default 'deim' */
@@ -75,6 +80,8 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   setApartLoose: true,
   naming: 'informative',
   termsPerTopic: 8,
+  coherentNames: true,
+  namePool: DEFAULT_NAME_POOL_FACTOR,
   filesPerTopic: 5,
   curMethod: 'deim',
   fitSample: 2000,
@@ -150,6 +157,19 @@ export interface TopicsReport {
 }
 
 export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}): TopicsReport {
+  const steps = topicSteps(index, options);
+  for (;;) {
+    const step = steps.next();
+    if (step.done) return step.value;
+  }
+}
+
+/**
+ * findTopics in steps: the generator yields after the first level and before each split of the
+ * tree, so a caller (the editor's worker) can let other work run in between or stop; its return
+ * value is the report. Each step is at most one k-means fit of one group.
+ */
+export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {}): Generator<void, TopicsReport, void> {
   const o = { ...DEFAULT_TOPICS_OPTIONS, ...options };
   if (o.topics !== undefined && (!Number.isInteger(o.topics) || o.topics < 1))
     throw new InvalidInputError(`the number of topics must be a positive whole number, got ${o.topics}`);
@@ -178,13 +198,15 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
     o.topics !== undefined
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
       : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed });
+  yield;
   const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed);
   const K = clustering.clusters;
+  yield;
 
   const rank = Math.max(1, Math.min(o.curRank ?? Math.min(20, Math.max(10, K)), im.matrix.rows, im.matrix.cols));
   const cur = curDecomposition(
     im.matrix,
-    { rank, method: o.curMethod, seed: o.seed, rowCount: 2 * rank, columnCount: Math.max(2 * rank, 8 * K) },
+    { rank, method: o.curMethod, seed: o.seed, rowCount: 2 * rank, columnCount: Math.max(2 * rank, 8 * K), columnError: false },
     leadingFactors(index, im, rank, o.seed),
   );
   const pickedRows = new Set(cur.rows.indices);
@@ -211,21 +233,29 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
   }
 
   const scratch = new NameScratch(im.matrix.cols);
+  const termFiles = o.coherentNames ? new TermFiles(im.matrix) : null;
   const random = createRandom(o.seed ^ 0x5eed);
   let levels = 1;
-  const build = (memberGroups: number[][], parentRows: ArrayLike<number>, level: number, parentPath: string): Topic[] => {
+  function* build(
+    memberGroups: number[][],
+    parentRows: ArrayLike<number>,
+    level: number,
+    parentPath: string,
+  ): Generator<void, Topic[], void> {
     const nonEmpty = memberGroups.filter((g) => g.length > 0).sort(bySize);
     const names = namesAgainstParent(
       im.matrix,
       parentRows,
       nonEmpty.map((g) => g.map((i) => placed[i])),
-      3 * o.termsPerTopic,
+      Math.max(3, Math.ceil(o.namePool)) * o.termsPerTopic,
       o.naming,
       scratch,
       termName,
     );
     levels = Math.max(levels, level);
-    return nonEmpty.map((group, gi) => {
+    const out: Topic[] = [];
+    for (let gi = 0; gi < nonEmpty.length; gi++) {
+      const group = nonEmpty[gi];
       const path = parentPath ? `${parentPath}.${gi + 1}` : String(gi + 1);
       const idx = Int32Array.from(group);
       const centre = centreOf(points, idx, dims);
@@ -242,11 +272,11 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
         picked: pickedRows.has(row),
       }));
       const scoreOf = new Map(names[gi].map((t) => [t.col, t.score]));
-      const ranked = rankWithPicks(
-        names[gi].slice(0, o.termsPerTopic).map((t) => t.col),
-        (col) => pickedTerms.has(col),
-        o.termsPerTopic,
-      );
+      const candidates = names[gi].map((t) => t.col);
+      const chosen = termFiles
+        ? termFiles.choose(candidates.slice(0, Math.max(o.termsPerTopic, Math.round(o.namePool * o.termsPerTopic))), o.termsPerTopic)
+        : candidates.slice(0, o.termsPerTopic);
+      const ranked = rankWithPicks(chosen, (col) => pickedTerms.has(col), o.termsPerTopic);
       const terms = realWordsFirst(ranked, termName).map((col) => ({
         term: termName(col),
         word: word(termName(col)),
@@ -256,16 +286,17 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
       const memberPaths = members.map((m) => im.paths[m.row]);
       let children: Topic[] = [];
       if (level < o.depth && group.length > o.leafSize) {
+        yield;
         const sub = splitGroup(points, idx, dims, o, random.nextUint32());
         if (sub.length > 1)
-          children = build(
+          children = yield* build(
             sub,
             group.map((i) => placed[i]),
             level + 1,
             path,
           );
       }
-      return {
+      out.push({
         id: gi + 1,
         path,
         level,
@@ -276,11 +307,12 @@ export function findTopics(index: LsiIndex, options: Partial<TopicsOptions> = {}
         members: memberPaths,
         folders: folderShares(memberPaths),
         children,
-      };
-    });
-  };
+      });
+    }
+    return out;
+  }
   const allRows = Int32Array.from({ length: im.matrix.rows }, (_, r) => r);
-  const topics = build(groups, allRows, 1, '');
+  const topics = yield* build(groups, allRows, 1, '');
   const pathOfCluster = new Map<number, string>();
   groups
     .map((g, t) => ({ g, t }))

@@ -53,12 +53,15 @@ export interface IndexServiceOptions {
   readonly prepareSliceMs: number;
   /** Awaited before and between preparation slices. @default setImmediate (after waiting I/O and messages) */
   readonly preparePause: () => Promise<void>;
+  /** After preparing, compute the topic tree in the background (in steps, stopped when the index changes). @default true */
+  readonly prepareTopics: boolean;
 }
 
 export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = {
   saveDelayMs: 2000,
   prepareSliceMs: 15,
   preparePause: () => new Promise<void>((resolve) => setImmediate(resolve)),
+  prepareTopics: true,
 };
 
 export class IndexService {
@@ -73,11 +76,14 @@ export class IndexService {
   private _duringBuild: FileChange[] | undefined;
   private _preparing: { readonly controller: AbortController; readonly done: Promise<boolean> } | undefined;
   private readonly _options: IndexServiceOptions;
-  private readonly _insights = new InsightService({
-    requireIndex: () => this.requireIndex(),
-    roots: () => this._roots,
-    maxFileBytes: () => this.config().maxFileBytes,
-  });
+  private readonly _insights = new InsightService(
+    {
+      requireIndex: () => this.requireIndex(),
+      roots: () => this._roots,
+      maxFileBytes: () => this.config().maxFileBytes,
+    },
+    () => this._options.preparePause(),
+  );
 
   private readonly _links = new LinkService({
     index: () => this._index,
@@ -443,19 +449,31 @@ export class IndexService {
     return { summary: this.summary(), ...report, tooManyChanges: false };
   }
 
+  /** True when the topic tree of the index in use is computed or under way (see prepareTopics). */
+  topicsStarted(): boolean {
+    return this._index !== undefined && this._insights.topicsStarted();
+  }
+
   /** Puts an index in use (or none) and prepares it in the background, stopping any earlier preparation. */
   private use(index: LsiIndex | undefined): void {
     this._preparing?.controller.abort();
     this._preparing = undefined;
+    if (index !== this._index) this._insights.stopTopics();
     this._index = index;
     if (!index) return;
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
     const { controller, done } = prepareInBackground(index, { sliceMs, pause });
     this._preparing = {
       controller,
-      done: done.finally(() => {
-        if (this._preparing?.controller === controller) this._preparing = undefined;
-      }),
+      done: done
+        .then((ready) => {
+          // Then the topic tree, so the Topics view and the map open without waiting for it.
+          if (ready && this._options.prepareTopics && this._index === index && !controller.signal.aborted) this._insights.prepareTopics();
+          return ready;
+        })
+        .finally(() => {
+          if (this._preparing?.controller === controller) this._preparing = undefined;
+        }),
     };
   }
 

@@ -60,9 +60,14 @@ export class InsightService {
   private readonly _lookalikes = new Memo<LookalikesResult>();
   private readonly _map = new Memo<MapModel>();
   private _latestMap: MapModel | undefined;
+  private _topicsStop: AbortController | undefined;
   private _nextToken = 1;
 
-  constructor(private readonly _source: InsightSource) {}
+  constructor(
+    private readonly _source: InsightSource,
+    /** Between two steps of a topic tree (setImmediate in the worker: waiting messages go first). */
+    private readonly _pause: () => Promise<void> = () => new Promise<void>((resolve) => setImmediate(resolve)),
+  ) {}
 
   handlers(): Pick<Handlers, InsightRequestType> {
     return {
@@ -89,10 +94,41 @@ export class InsightService {
     return { ...run.result, folder: got };
   }
 
+  /**
+   * The topic tree of the index in use, computed in steps with a pause between them; a run for an
+   * older index state is stopped when one for a newer state starts.
+   */
   topicsRun(): Promise<TopicsTaskResult> {
     const index = this._source.requireIndex();
     const roots = this._source.roots();
-    return this._topics.get(indexStateKey(index, roots), () => computeTopics(index, roots, this._source.maxFileBytes()));
+    return this._topics.get(indexStateKey(index, roots), () => {
+      this._topicsStop?.abort();
+      const stop = new AbortController();
+      this._topicsStop = stop;
+      return computeTopics(index, roots, this._source.maxFileBytes(), { pause: this._pause, signal: stop.signal });
+    });
+  }
+
+  /**
+   * Starts the topic tree of the index in use in the background (after a build or a load, once the
+   * searches are prepared), so the Topics view and the map open without waiting. Never rejects.
+   */
+  prepareTopics(): void {
+    try {
+      void this.topicsRun().catch(() => undefined);
+    } catch {
+      // No index in use: nothing to prepare.
+    }
+  }
+
+  /** True when the topic tree of the index in use is computed or being computed. */
+  topicsStarted(): boolean {
+    return this._topics.holds(indexStateKey(this._source.requireIndex(), this._source.roots()));
+  }
+
+  /** Stops a topic tree being computed (the index is going away). */
+  stopTopics(): void {
+    this._topicsStop?.abort();
   }
 
   async mapData(): Promise<MapDataResult> {

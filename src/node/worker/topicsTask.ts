@@ -7,7 +7,7 @@
  */
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { inFolder, topicsOfFolder } from '../../core/topics/folderTopics.js';
-import { findTopics, walkTopics, type Topic, type TopicsReport } from '../../core/topics/topics.js';
+import { topicSteps, walkTopics, type Topic, type TopicsReport } from '../../core/topics/topics.js';
 import type { FolderTopicsWire, TopicFileWire, TopicsResult, TopicWire } from './insightProtocol.js';
 import type { RootMap } from './rootMap.js';
 import { formsFromFiles, type WordFor } from './wordForms.js';
@@ -23,9 +23,38 @@ export interface TopicsTaskResult {
   readonly result: TopicsResult;
 }
 
-export async function computeTopics(index: LsiIndex, roots: RootMap, maxFileBytes: number): Promise<TopicsTaskResult> {
+/** How a run shares the worker: a pause between steps (messages waiting go first) and a stop. */
+export interface TopicsPacing {
+  readonly pause: () => Promise<void>;
+  readonly signal?: AbortSignal;
+}
+
+/** The topics were not finished: the index changed (or the worker stopped) while they were computed. */
+export class TopicsStoppedError extends Error {
+  constructor() {
+    super('The topics were stopped because the index changed.');
+    this.name = 'TopicsStoppedError';
+  }
+}
+
+export async function computeTopics(
+  index: LsiIndex,
+  roots: RootMap,
+  maxFileBytes: number,
+  pacing?: TopicsPacing,
+): Promise<TopicsTaskResult> {
   const t0 = performance.now();
-  const report = findTopics(index, { seed: index.settings.seed });
+  const steps = topicSteps(index, { seed: index.settings.seed });
+  let report: TopicsReport;
+  for (;;) {
+    if (pacing?.signal?.aborted) throw new TopicsStoppedError();
+    const step = steps.next();
+    if (step.done) {
+      report = step.value;
+      break;
+    }
+    if (pacing) await pacing.pause();
+  }
   const all = [...walkTopics(report.topics)];
   const wanted = new Set(all.flatMap((t) => t.terms.map((x) => x.term)));
   const sample = [...new Set(all.flatMap((t) => t.members.slice(0, t.level === 1 ? FILES_READ_PER_TOPIC : 5)))];

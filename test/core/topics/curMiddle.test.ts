@@ -74,6 +74,16 @@ describe('CUR middle matrix and errors', () => {
     expect(got.frobeniusSquared).toBeCloseTo(am.norm() ** 2, 10);
   });
 
+  it('without the columns-only error gives the same middle matrix and CUR error, and NaN for the skipped one', () => {
+    const col = picks([2, 5, 11, 17, 30, 44, 59], [1, 0.5, 2, 1.5, 1, 3, 0.7]);
+    const row = picks([0, 9, 13, 27, 38], [2, 1, 1, 0.25, 1]);
+    const ref = bruteForce(am, col, row);
+    const got = curFactors(a, col, row, false);
+    for (let s = 0; s < 7; s++) for (let b = 0; b < 5; b++) expect(got.middle[s * 5 + b]).toBeCloseTo(ref.u.get(s, b), 8);
+    expect(Math.sqrt(got.errorSquared)).toBeCloseTo(ref.error, 8);
+    expect(got.columnErrorSquared).toBeNaN();
+  });
+
   it('give the same product whatever the scales (only the spans matter)', () => {
     const plain = curFactors(a, picks([1, 4, 9]), picks([3, 8]));
     const scaled = curFactors(a, picks([1, 4, 9], [5, 0.1, 2]), picks([3, 8], [0.3, 7]));

@@ -151,18 +151,20 @@ describe('topic tree against scikit-learn on documentation trees', () => {
   });
   for (const name of ['cmake', 'django']) {
     it.skipIf(!sklearnReady)(
-      `${name}: names about as coherent as NMF's and topics about as close to the folders as k-means', at the first two levels`,
-      { timeout: 240_000 },
+      `${name}: names at least as coherent as NMF's and topics at least as close to the folders as k-means' at the first two levels (CMake's first-level NMI: within 0.04, a measured gap)`,
+      { timeout: 600_000 },
       () => {
         const figures = evaluate(name);
         expect(figures.length).toBeGreaterThanOrEqual(2);
-        // The goal is at or above the reference at every level. Measured (2026-12-02, scikit-learn
-        // 1.2.1): CMake level 1 NPMI 0.409 vs 0.392, NMI 0.388 vs 0.413 (below); level 2 NPMI 0.369 vs
-        // 0.375 (below), NMI 0.427 vs 0.411. The floor is the reference minus a margin (our choice)
-        // so that a real regression fails while the measured gap stays visible in the log.
+        // The goal is at or above the reference at every level. Measured (2026-12-03, scikit-learn
+        // 1.2.1, names chosen as a co-occurring set, coherentNames.ts): NPMI CMake 0.517 vs 0.392 and
+        // 0.490 vs 0.375, Django 0.476 vs 0.319 and 0.499 vs 0.350; NMI CMake 0.388 vs 0.413 at the
+        // first level (below: the one gap left, held as a floor 0.04 under the reference, our choice)
+        // and 0.427 vs 0.411 at the second, Django 0.404 vs 0.371 and 0.362 vs 0.323.
         for (const f of figures) {
-          expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi - 0.02);
-          expect(f.oursNmi).toBeGreaterThanOrEqual(f.kmeansNmi - 0.04);
+          expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi);
+          if (name === 'cmake' && f.level === 1) expect(f.oursNmi).toBeGreaterThanOrEqual(f.kmeansNmi - 0.04);
+          else expect(f.oursNmi).toBeGreaterThanOrEqual(f.kmeansNmi);
         }
       },
     );

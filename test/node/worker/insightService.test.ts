@@ -50,6 +50,15 @@ afterAll(() => rmSync(tmp, { recursive: true, force: true }));
 
 const keys = (refs: readonly FileRef[]) => refs.map((r) => r.key);
 
+describe('topic tree after a build', () => {
+  it('is started in the background once the index is prepared, before any request, and the request then shares that run', async () => {
+    for (let waited = 0; !service.topicsStarted() && waited < 60_000; waited += 50) await new Promise((r) => setTimeout(r, 50));
+    expect(service.topicsStarted()).toBe(true);
+    const first = await h.topics({}, ctx);
+    expect(await h.topics({}, ctx)).toBe(first);
+  });
+});
+
 describe('look-alikes request', () => {
   it('finds every planted exact copy as an exact pair, and every file of each planted near-copy group paired with another (demo answer key)', async () => {
     const r = await h.lookalikes({ threshold: 0.8 }, ctx);
