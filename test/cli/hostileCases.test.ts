@@ -377,7 +377,7 @@ describe('the built command line on hostile cases', () => {
       args: () => ['nearby', ws, '1.md', '--threshold', '0.5', '--top', '2'],
       code: 0,
       out: /^rank/,
-      err: () => [/note: --threshold does not apply to nearby \(only to lookalikes\); ignored\./],
+      err: () => [/note: --threshold does not apply to nearby \(only to overlaps\); ignored\./],
     },
     {
       name: 'an unreadable top folder says it cannot be read',
@@ -496,6 +496,9 @@ describe('the built command line on hostile cases', () => {
     expect(r.out).not.toContain('\x1b');
     expect(r.out).toContain('red\\x1b[31mtext.md');
     expect(r.out).toContain('two\\nlines.md');
-    for (const line of r.out.trim().split('\n').slice(2)) expect(line).toMatch(/^\s*\d+\s+-?\d\.\d{3}\s+\S/);
+    // Each result row, followed by the line naming its best section ("in: …").
+    const rows = r.out.trim().split('\n').slice(2);
+    for (const line of rows) expect(line).toMatch(/^\s*\d+\s+-?\d\.\d{3}\s+\S|^\s+in: \S/);
+    expect(rows.filter((line) => /^\s*\d+\s+-?\d\.\d{3}\s+\S/.test(line)).length).toBeGreaterThan(10);
   });
 });

@@ -50,7 +50,7 @@ describe('undertone command line', () => {
     expect(lines[0]).toMatch(/^rank\s+score\s+path$/);
     // Each result is followed by its best section ("in: title (lines a–b)").
     expect(lines.filter((l) => !l.startsWith('        in: ')).length).toBe(5);
-    expect(lines.filter((l) => /^ {8}in: .+ \(lines \d+–\d+\)$/.test(l)).length).toBe(3);
+    expect(lines.filter((l) => /^ {8}in: (.+ \(lines \d+–\d+\)|lines \d+–\d+)$/.test(l)).length).toBe(3);
     expect(table.out).toContain(`notes/${target.id}.md`);
     const json = await run('ask', folder, target.text.slice(0, 120), '--top', '2', '--json');
     const parsed = JSON.parse(json.out);

@@ -150,7 +150,9 @@ function printSections(
 
 /** "Title (lines 12–40)", one-based as an editor shows lines. */
 export function sectionLabel(s: Pick<SectionHit, 'title' | 'start' | 'end'>): string {
-  return `${s.title} (lines ${s.start + 1}–${s.end})`;
+  const range = `lines ${s.start + 1}–${s.end}`;
+  // A window of lines is titled by its range already: say it once.
+  return s.title === range ? range : `${s.title} (${range})`;
 }
 
 function sectionJson(s: SectionHit): { title: string; startLine: number; endLine: number } {
