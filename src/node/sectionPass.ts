@@ -7,6 +7,7 @@
 import { foldContextOf, foldSections } from '../core/sections/sectionVectors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { readIndexableText } from './scanRead.js';
+import { SectionCounter } from './parallel/sectionCounter.js';
 
 export interface SectionPassOptions {
   /** Throws when the run was cancelled (called between files). */
@@ -20,7 +21,10 @@ export async function foldFileSections(
   maxFileBytes: number,
   options: SectionPassOptions,
 ): Promise<void> {
-  const ctx = foldContextOf(index);
+  const base = foldContextOf(index);
+  // The build's fast counter (same counts as tokenize + countTerms, checked in its test).
+  const counter = new SectionCounter(base.vocab, base.tokenize);
+  const ctx = { ...base, count: (text: string) => counter.count(text) };
   for (let i = 0; i < files.length; i++) {
     const f = files[i];
     const got = await readIndexableText(f.absPath, maxFileBytes);
