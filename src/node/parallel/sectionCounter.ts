@@ -13,12 +13,15 @@ export class SectionCounter {
   private readonly counter: WordCounter;
   private toVocab = new Int32Array(1 << 12);
   private known = 0;
+  /** Scratch: a section's count of each vocabulary id it holds. */
+  private readonly countOf: Int32Array;
 
   constructor(
     private readonly vocab: Vocabulary,
     options: Partial<TokenizeOptions>,
   ) {
     this.counter = new WordCounter(options);
+    this.countOf = new Int32Array(vocab.size);
   }
 
   /** countTerms(tokenize(text, options), vocab, false), faster. */
@@ -29,25 +32,22 @@ export class SectionCounter {
     let n = 0;
     for (let i = 0; i < local.ids.length; i++) if (tr[local.ids[i]] >= 0) n++;
     const termIds = new Int32Array(n);
-    const byLocal = new Int32Array(n);
     n = 0;
     for (let i = 0; i < local.ids.length; i++) {
       const id = tr[local.ids[i]];
       if (id < 0) continue;
-      termIds[n] = id;
-      byLocal[n++] = local.counts[i];
+      termIds[n++] = id;
+      this.countOf[id] = local.counts[i];
     }
-    // Vocabulary ids ascending (the local order differs): sort positions by id.
-    const order = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => termIds[a] - termIds[b]);
-    const ids = new Int32Array(n);
+    // Vocabulary ids ascending (the local order differs); ids are distinct, so counts follow by id.
+    termIds.sort();
     const counts = new Float32Array(n);
     let length = 0;
     for (let i = 0; i < n; i++) {
-      ids[i] = termIds[order[i]];
-      counts[i] = byLocal[order[i]];
-      length += byLocal[order[i]];
+      counts[i] = this.countOf[termIds[i]];
+      length += counts[i];
     }
-    return { termIds: ids, counts, length };
+    return { termIds, counts, length };
   }
 
   private learnNewTerms(): void {
