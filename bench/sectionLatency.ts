@@ -3,7 +3,8 @@
  * what the editor's worker pays per request). Usage:
  *   npx esbuild bench/sectionLatency.ts --bundle --platform=node --format=esm --outfile=dist/sectionLatency.mjs \
  *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
- *   node dist/sectionLatency.mjs <index file> [queries]
+ *   node dist/sectionLatency.mjs <index file> [queries] [--exact]
+ * --exact ranks by the full pass (SectionStore.rankExact, the reference of the 8-bit screen).
  * Queries: the first words of sections' titles picked evenly over the index (seeded), so the run
  * needs nothing but the index. Prints median and 95th percentile in milliseconds.
  */
@@ -11,7 +12,9 @@ import { performance } from 'node:perf_hooks';
 import { loadIndex } from '../src/node/persist.js';
 import { nearbySections, searchSections } from '../src/core/sections/sectionSearch.js';
 
-const [file, count = '50'] = process.argv.slice(2);
+const args = process.argv.slice(2).filter((a) => a !== '--exact');
+const exact = process.argv.includes('--exact');
+const [file, count = '50'] = args;
 if (!file) {
   console.error('usage: sectionLatency.mjs <index file> [queries]');
   process.exit(2);
@@ -22,6 +25,8 @@ if (got.status !== 'ok') {
   process.exit(1);
 }
 const index = got.index;
+if (exact) index.sections.rank = index.sections.rankExact.bind(index.sections);
+let products = 0;
 const files = [...index.sections.entries()];
 const n = Math.min(Number(count), files.length);
 const pick = Array.from({ length: n }, (_, i) => files[Math.floor(((i + 0.5) * files.length) / n)]);
@@ -37,13 +42,16 @@ for (const [path, f] of pick) {
   try {
     searchSections(index, title, { top: 20 });
     search.push(performance.now() - t);
+    products += index.sections.lastExact;
   } catch {
     /* a title without known words */
   }
   t = performance.now();
   nearbySections(index, path, f.starts[Math.floor(f.starts.length / 2)], { top: 20 });
   near.push(performance.now() - t);
+  products += index.sections.lastExact;
 }
-console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}`);
+console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}, ${exact ? 'full pass' : '8-bit screen'}`);
+console.log(`exact section products per request: ${(products / (search.length + near.length)).toFixed(0)}`);
 console.log(`search --sections: ${quantiles(search)} (${search.length} queries)`);
 console.log(`nearby at a section: ${quantiles(near)} (${near.length} sections)`);

@@ -6,7 +6,9 @@
  */
 import { foldContextOf, foldSections } from '../core/sections/sectionVectors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
-import { readIndexableText } from './scanRead.js';
+import { decodeUtf8 } from './scanRead.js';
+import { FileReader } from './parallel/readTextSync.js';
+import { SectionCounter } from './parallel/sectionCounter.js';
 
 export interface SectionPassOptions {
   /** Throws when the run was cancelled (called between files). */
@@ -20,13 +22,21 @@ export async function foldFileSections(
   maxFileBytes: number,
   options: SectionPassOptions,
 ): Promise<void> {
-  const ctx = foldContextOf(index);
+  const base = foldContextOf(index);
+  // The build's fast counter (same counts as tokenize + countTerms, checked in its test).
+  const counter = new SectionCounter(base.vocab, base.tokenize);
+  const ctx = { ...base, count: (text: string) => counter.count(text) };
+  const reader = new FileReader();
   for (let i = 0; i < files.length; i++) {
     const f = files[i];
-    const got = await readIndexableText(f.absPath, maxFileBytes);
-    if (got.kind === 'text') index.sections.set(f.key, foldSections(ctx, f.key, got.text));
-    else index.sections.delete(f.key);
+    // The synchronous twin of readIndexableText (same outcomes, no trip through the event loop).
+    const got = reader.read(f.absPath, maxFileBytes);
+    if (got.kind === 'bytes') {
+      const text = got.ascii ? got.bytes.toString('latin1') : decodeUtf8(got.bytes);
+      index.sections.set(f.key, foldSections(ctx, f.key, text));
+    } else index.sections.delete(f.key);
     if (i % 64 === 0) {
+      await new Promise<void>((resolve) => setImmediate(resolve)); // let a cancel message in
       options.check();
       options.onProgress?.(i);
     }

@@ -1,10 +1,16 @@
 /**
  * The sections of every indexed file with their concept vectors, kept beside the file vectors:
  * set when a file is built or folded in, dropped when it is removed. Ranks sections by cosine
- * with a unit concept vector (an exact pass over all section vectors; sections of one file lie in
- * one f32 block) and finds a file's best section for a query.
+ * with a unit concept vector and finds a file's best section for a query. Ranking screens first:
+ * an 8-bit copy of all section vectors (../index/search/conceptCodes.ts, built lazily, dropped on
+ * any change) bounds every cosine; T is the top-th best lower bound over sections that could be
+ * listed together (at most perFile of a file, accepted files), and only sections whose upper bound
+ * reaches T get an exact product (branch and bound, common practice; as screenedTop.ts does for
+ * files). The exact products are the same f32 sums as a full pass, so the list equals the full
+ * pass's (checked in test/core/sections/sectionStore.test.ts).
  */
 import { InvalidInputError } from '../errors.js';
+import { ConceptCodes } from '../index/search/conceptCodes.js';
 import type { FileSections } from './sectionVectors.js';
 
 /** A section found by a search or a nearby question. */
@@ -21,11 +27,31 @@ export interface SectionHit {
   readonly score: number;
 }
 
+/** Below this many sections a full pass is as quick as screening (common practice, not tuned). */
+export const SCREEN_MIN_SECTIONS = 4096;
+/** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
+const SCREEN_SLACK = 1e-9;
+
+interface Screen {
+  readonly codes: ConceptCodes;
+  readonly paths: string[];
+  readonly files: FileSections[];
+  /** Flat position of each file's first section (length files + 1). */
+  readonly firsts: Int32Array;
+}
+
 export class SectionStore {
   private readonly _files = new Map<string, FileSections>();
   private _count = 0;
+  /** The screening codes (undefined: not built since the last change; null: not available). */
+  private _screen: Screen | null | undefined;
+  private _lastExact = 0;
 
-  constructor(readonly k: number) {}
+  /** @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS). */
+  constructor(
+    readonly k: number,
+    private readonly screenFrom = SCREEN_MIN_SECTIONS,
+  ) {}
 
   /** Files that have sections. */
   get files(): number {
@@ -53,6 +79,7 @@ export class SectionStore {
     this.delete(path);
     this._files.set(path, sections);
     this._count += n;
+    this._screen = undefined;
   }
 
   delete(path: string): void {
@@ -60,6 +87,7 @@ export class SectionStore {
     if (!old) return;
     this._count -= old.starts.length;
     this._files.delete(path);
+    this._screen = undefined;
   }
 
   /** The section of a file holding a zero-based line (the last one that starts at or before it), or null. */
@@ -87,18 +115,84 @@ export class SectionStore {
 
   /**
    * The `top` sections with the highest cosine with q over files that `accept` lets in, best first
-   * (ties: file order, then position). At most `perFile` sections of one file. Exact: every
-   * section vector is multiplied.
+   * (ties: file order, then position). At most `perFile` sections of one file. Exact scores; with
+   * many sections only those that can still place are multiplied (see the header).
    */
   rank(q: Float32Array, top: number, accept: (path: string) => boolean = () => true, perFile = Number.POSITIVE_INFINITY): SectionHit[] {
     if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
+    const screen = top > 0 && perFile >= 1 ? this.screen() : null;
+    if (!screen) return this.rankExact(q, top, accept, perFile);
+    const { codes, paths, files, firsts } = screen;
+    const { center, radius } = codes.bounds(q, firsts[files.length]);
+    const ok = new Uint8Array(files.length);
+    // The top-th best lower bound over sections that can be listed together.
+    const best = new Float64Array(top).fill(Number.NEGATIVE_INFINITY);
+    const lows: number[] = [];
+    for (let f = 0; f < files.length; f++) {
+      if (!accept(paths[f])) continue;
+      ok[f] = 1;
+      lows.length = 0;
+      for (let j = firsts[f]; j < firsts[f + 1]; j++) lows.push(center[j] - radius[j]);
+      if (lows.length > perFile) {
+        lows.sort((a, b) => b - a);
+        lows.length = perFile;
+      }
+      for (const low of lows) if (low > best[top - 1]) insertDescending(best, low);
+    }
+    const bar = best[top - 1] - SCREEN_SLACK;
+    const picked: { path: string; f: FileSections; at: number[] }[] = [];
+    for (let f = 0; f < files.length; f++) {
+      if (!ok[f]) continue;
+      let at: number[] | null = null;
+      for (let j = firsts[f]; j < firsts[f + 1]; j++) {
+        if (center[j] + radius[j] < bar) continue;
+        (at ??= []).push(j - firsts[f]);
+      }
+      if (at) picked.push({ path: paths[f], f: files[f], at });
+    }
+    return this.rankOver(picked, q, top, perFile);
+  }
+
+  /** rank() as a full pass over every section (the reference of the screened rank). */
+  rankExact(
+    q: Float32Array,
+    top: number,
+    accept: (path: string) => boolean = () => true,
+    perFile = Number.POSITIVE_INFINITY,
+  ): SectionHit[] {
+    if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
+    const all: { path: string; f: FileSections; at: null }[] = [];
+    for (const [path, f] of this._files) if (accept(path)) all.push({ path, f, at: null });
+    return this.rankOver(all, q, top, perFile);
+  }
+
+  /** Exact products the last rank() computed (for tests and the benchmark). */
+  get lastExact(): number {
+    return this._lastExact;
+  }
+
+  /** Sections screened so far (for the benchmark): the screen's size, or 0 when ranking is a full pass. */
+  get screened(): number {
+    const s = this.screen();
+    return s ? s.firsts[s.files.length] : 0;
+  }
+
+  private rankOver(
+    list: readonly { path: string; f: FileSections; at: readonly number[] | null }[],
+    q: Float32Array,
+    top: number,
+    perFile: number,
+  ): SectionHit[] {
     const heap: { path: string; f: FileSections; i: number; score: number }[] = [];
     let floor = Number.NEGATIVE_INFINITY;
-    for (const [path, f] of this._files) {
-      if (!accept(path)) continue;
+    this._lastExact = 0;
+    for (const { path, f, at } of list) {
       let taken = 0;
       const scores: { i: number; score: number }[] = [];
-      for (let i = 0; i < f.starts.length; i++) {
+      const n = at ? at.length : f.starts.length;
+      this._lastExact += n;
+      for (let x = 0; x < n; x++) {
+        const i = at ? at[x] : x;
         const s = dot(f.vectors, i * this.k, q, this.k);
         if (s > floor || heap.length < top) scores.push({ i, score: s });
       }
@@ -117,6 +211,27 @@ export class SectionStore {
     return heap.slice(0, top).map((h) => this.hit(h.path, h.f, h.i, h.score));
   }
 
+  private screen(): Screen | null {
+    if (this._screen !== undefined) return this._screen;
+    if (this._count < this.screenFrom || this._count === 0) return null; // not cached: sections may still be added
+    const paths: string[] = [];
+    const files: FileSections[] = [];
+    const firsts = new Int32Array(this._files.size + 1);
+    const rows = new Float32Array(this._count * this.k);
+    let n = 0;
+    for (const [path, f] of this._files) {
+      firsts[files.length] = n;
+      paths.push(path);
+      files.push(f);
+      rows.set(f.vectors, n * this.k);
+      n += f.starts.length;
+    }
+    firsts[files.length] = n;
+    const codes = ConceptCodes.create(this.k, Math.max(n, 1), rows, n);
+    this._screen = codes ? { codes, paths, files, firsts } : null;
+    return this._screen;
+  }
+
   private hit(path: string, f: FileSections, i: number, score: number): SectionHit {
     return { path, index: i, start: f.starts[i], end: f.ends[i], title: f.titles[i], score };
   }
@@ -126,4 +241,14 @@ function dot(block: Float32Array, at: number, q: Float32Array, k: number): numbe
   let s = 0;
   for (let c = 0; c < k; c++) s += block[at + c] * q[c];
   return s;
+}
+
+/** Inserts x into a descending array of fixed length, dropping its last entry. */
+function insertDescending(a: Float64Array, x: number): void {
+  let i = a.length - 1;
+  while (i > 0 && a[i - 1] < x) {
+    a[i] = a[i - 1];
+    i--;
+  }
+  a[i] = x;
 }

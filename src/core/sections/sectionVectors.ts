@@ -7,7 +7,7 @@
  * Counting uses the vocabulary without growing it: a word the model does not know cannot move a
  * concept vector, so a section folded on save equals the one a build would fold from the same text.
  */
-import { countTerms, type Vocabulary } from '../counting/termCounts.js';
+import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
 import { projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
 import { tokenize, type TokenizeOptions } from '../text/tokenize.js';
 import { splitLines, splitSections } from './splitSections.js';
@@ -28,6 +28,11 @@ export interface FoldContext {
   readonly model: ConceptModel;
   readonly vocab: Vocabulary;
   readonly tokenize: Partial<TokenizeOptions>;
+  /**
+   * Counts a section's text over the vocabulary without growing it; must equal
+   * countTerms(tokenize(text, tokenize), vocab, false) (a faster twin, e.g. the build's thread counter).
+   */
+  readonly count?: (text: string) => DocTerms;
 }
 
 /** Splits a file into sections and folds each into the concept space. */
@@ -40,8 +45,9 @@ export function foldSectionList(ctx: FoldContext, sections: readonly Section[], 
   const lines = splitLines(text);
   const k = ctx.model.k;
   const vectors = new Float32Array(sections.length * k);
+  const count = ctx.count ?? ((t: string) => countTerms(tokenize(t, ctx.tokenize), ctx.vocab, false));
   sections.forEach((s, i) => {
-    const terms = countTerms(tokenize(lines.slice(s.start, s.end).join('\n'), ctx.tokenize), ctx.vocab, false);
+    const terms = count(lines.slice(s.start, s.end).join('\n'));
     vectors.set(projectTerms(ctx.model, terms).vector, i * k);
   });
   return {
