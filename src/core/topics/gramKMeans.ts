@@ -12,7 +12,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import { createRandom, type RandomSource } from '../random.js';
-import { DEFAULT_SPHERICAL_KMEANS_OPTIONS, type SphericalKMeansOptions } from './sphericalKMeans.js';
+import { DEFAULT_SPHERICAL_KMEANS_OPTIONS, drawByWeight, type SphericalKMeansOptions } from './sphericalKMeans.js';
 
 export interface GramClustering {
   /** Cluster of each point (0…clusters−1). */
@@ -79,18 +79,6 @@ export function seedFromGram(gram: Float64Array, n: number, k: number, random: R
     weight.set(bestTrial);
   }
   return chosen;
-}
-
-function drawByWeight(weight: Float64Array, total: number, u01: number): number {
-  let u = u01 * total;
-  let last = -1;
-  for (let i = 0; i < weight.length; i++) {
-    if (weight[i] <= 0) continue;
-    last = i;
-    u -= weight[i];
-    if (u < 0) return i;
-  }
-  return last;
 }
 
 function lloydGram(gram: Float64Array, n: number, seeds: readonly number[], maxIterations: number, scratch: Float64Array): GramClustering {

@@ -100,7 +100,8 @@ export function seedCentres(points: Float64Array, n: number, dims: number, k: nu
   return centres;
 }
 
-function drawByWeight(weight: Float64Array, total: number, u01: number): number {
+/** An index drawn with probability proportional to its weight (`u01` uniform in [0, 1)); shared with gramKMeans. */
+export function drawByWeight(weight: Float64Array, total: number, u01: number): number {
   let u = u01 * total;
   let last = -1;
   for (let i = 0; i < weight.length; i++) {
