@@ -12,7 +12,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import { createRandom, type RandomSource } from '../random.js';
-import { DEFAULT_SPHERICAL_KMEANS_OPTIONS, drawByWeight, type SphericalKMeansOptions } from './sphericalKMeans.js';
+import { DEFAULT_SPHERICAL_KMEANS_OPTIONS, seedPicks, type SphericalKMeansOptions } from './sphericalKMeans.js';
 
 export interface GramClustering {
   /** Cluster of each point (0…clusters−1). */
@@ -48,37 +48,7 @@ export function gramKMeans(
  * 2 − 2·cos, 2 + ⌊ln k⌋ local trials per centre, as sphericalKMeans.ts seeds: the chosen points.
  */
 export function seedFromGram(gram: Float64Array, n: number, k: number, random: RandomSource): number[] {
-  const chosen: number[] = [Math.floor(random.next() * n)];
-  const trials = 2 + Math.floor(Math.log(Math.max(1, k)));
-  const weight = new Float64Array(n);
-  const first = chosen[0] * n;
-  for (let i = 0; i < n; i++) weight[i] = Math.max(0, 2 - 2 * gram[first + i]);
-  const trial = new Float64Array(n);
-  const bestTrial = new Float64Array(n);
-  while (chosen.length < k) {
-    let total = 0;
-    for (let i = 0; i < n; i++) total += weight[i];
-    if (!(total > 1e-12)) break;
-    let bestPotential = Infinity;
-    let bestPick = -1;
-    for (let t = 0; t < trials; t++) {
-      const pick = drawByWeight(weight, total, random.next());
-      const row = pick * n;
-      let potential = 0;
-      for (let i = 0; i < n; i++) {
-        trial[i] = Math.min(weight[i], Math.max(0, 2 - 2 * gram[row + i]));
-        potential += trial[i];
-      }
-      if (potential < bestPotential) {
-        bestPotential = potential;
-        bestPick = pick;
-        bestTrial.set(trial);
-      }
-    }
-    chosen.push(bestPick);
-    weight.set(bestTrial);
-  }
-  return chosen;
+  return seedPicks(n, k, random, (i, j) => Math.max(0, 2 - 2 * gram[j * n + i]));
 }
 
 function lloydGram(gram: Float64Array, n: number, seeds: readonly number[], maxIterations: number, scratch: Float64Array): GramClustering {

@@ -67,10 +67,21 @@ export function sphericalKMeans(
  * every remaining point coincides with a centre.
  */
 export function seedCentres(points: Float64Array, n: number, dims: number, k: number, random: RandomSource): Float64Array {
+  const chosen = seedPicks(n, k, random, (i, j) => chordSquared(points, i, j, dims));
+  const centres = new Float64Array(chosen.length * dims);
+  chosen.forEach((p, c) => centres.set(points.subarray(p * dims, (p + 1) * dims), c * dims));
+  return centres;
+}
+
+/**
+ * The seeding loop shared by seedCentres and gramKMeans' seedFromGram: the points chosen as
+ * centres, given the squared distance between two points.
+ */
+export function seedPicks(n: number, k: number, random: RandomSource, distance: (i: number, j: number) => number): number[] {
   const chosen: number[] = [Math.floor(random.next() * n)];
   const trials = 2 + Math.floor(Math.log(Math.max(1, k)));
   const weight = new Float64Array(n);
-  for (let i = 0; i < n; i++) weight[i] = chordSquared(points, i, chosen[0], dims);
+  for (let i = 0; i < n; i++) weight[i] = distance(i, chosen[0]);
   const trial = new Float64Array(n);
   const bestTrial = new Float64Array(n);
   while (chosen.length < k) {
@@ -83,7 +94,7 @@ export function seedCentres(points: Float64Array, n: number, dims: number, k: nu
       const pick = drawByWeight(weight, total, random.next());
       let potential = 0;
       for (let i = 0; i < n; i++) {
-        trial[i] = Math.min(weight[i], chordSquared(points, i, pick, dims));
+        trial[i] = Math.min(weight[i], distance(i, pick));
         potential += trial[i];
       }
       if (potential < bestPotential) {
@@ -95,13 +106,11 @@ export function seedCentres(points: Float64Array, n: number, dims: number, k: nu
     chosen.push(bestPick);
     weight.set(bestTrial);
   }
-  const centres = new Float64Array(chosen.length * dims);
-  chosen.forEach((p, c) => centres.set(points.subarray(p * dims, (p + 1) * dims), c * dims));
-  return centres;
+  return chosen;
 }
 
-/** An index drawn with probability proportional to its weight (`u01` uniform in [0, 1)); shared with gramKMeans. */
-export function drawByWeight(weight: Float64Array, total: number, u01: number): number {
+/** An index drawn with probability proportional to its weight (`u01` uniform in [0, 1)). */
+function drawByWeight(weight: Float64Array, total: number, u01: number): number {
   let u = u01 * total;
   let last = -1;
   for (let i = 0; i < weight.length; i++) {
