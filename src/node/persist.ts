@@ -8,12 +8,13 @@
  * rename are removed on the next save or load.
  */
 import { randomBytes } from 'node:crypto';
-import { constants } from 'node:fs';
+import { constants, writeSync } from 'node:fs';
 import { mkdir, open, readdir, rename, rm, stat, type FileHandle } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
 import { CorruptIndexError, UndertoneError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
-import { decodeIndex, encodeIndex, headerExtent, INDEX_PREAMBLE_BYTES, readIndexHeader } from '../core/index/persistence/serialize.js';
+import { Checksum32 } from '../core/index/persistence/checksum.js';
+import { decodeIndex, headerExtent, INDEX_PREAMBLE_BYTES, planIndexFile, readIndexHeader } from '../core/index/persistence/serialize.js';
 import type { IndexSettings } from '../core/index/model/settings.js';
 import { describeFsError } from './scanRead.js';
 
@@ -157,6 +158,14 @@ export async function checkWritableFile(path: string): Promise<void> {
  * @throws SaveError naming the path and the reason when it cannot be written.
  */
 export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<void> {
+  await writeAtomically(path, (fd) => writeAllSync(fd, bytes, 0));
+}
+
+/**
+ * The atomic write: write(fd) fills a new temporary file beside path (synchronously, so what it
+ * writes is one consistent snapshot), which is then flushed and renamed over path.
+ */
+async function writeAtomically(path: string, write: (fd: number) => void): Promise<void> {
   await ensureFolder(dirname(path), path);
   const existing = await stat(path).catch(() => undefined);
   if (existing && !existing.isFile())
@@ -169,7 +178,7 @@ export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<
   let handle: FileHandle | undefined;
   try {
     handle = await open(tmp, 'wx');
-    await handle.writeFile(bytes);
+    write(handle.fd);
     await handle.sync();
     await handle.close();
     handle = undefined;
@@ -181,10 +190,49 @@ export async function writeFileAtomic(path: string, bytes: Uint8Array): Promise<
   }
 }
 
-export async function saveIndex(path: string, index: LsiIndex): Promise<number> {
-  const bytes = encodeIndex(index);
-  await writeFileAtomic(path, bytes);
-  return bytes.length;
+/** Writes all of bytes at position (writeSync may write less than asked). */
+function writeAllSync(fd: number, bytes: Uint8Array, position: number): void {
+  for (let done = 0; done < bytes.length;) done += writeSync(fd, bytes, done, bytes.length - done, position + done);
+}
+
+/** Bytes gathered before a write call: small pieces (one file's terms) go out together (our choice). */
+export const SAVE_CHUNK_BYTES = 1 << 20;
+
+/**
+ * Saves the index atomically, streaming it: the payload goes out piece by piece (views of the
+ * index's arrays, small ones gathered into one SAVE_CHUNK_BYTES buffer) while its checksum is
+ * computed, then the header goes in front. The file is never held whole in memory (the whole
+ * buffer of encodeIndex was the build's peak). Returns the file's size.
+ */
+export async function saveIndex(path: string, index: LsiIndex, chunkBytes = SAVE_CHUNK_BYTES): Promise<number> {
+  let size = 0;
+  await writeAtomically(path, (fd) => {
+    const plan = planIndexFile(index);
+    const sum = new Checksum32();
+    const buf = new Uint8Array(Math.max(1, Math.min(chunkBytes, plan.payloadBytes)));
+    let fill = 0;
+    let at = plan.start;
+    const flush = (): void => {
+      writeAllSync(fd, buf.subarray(0, fill), at);
+      at += fill;
+      fill = 0;
+    };
+    for (const p of plan.pieces()) {
+      sum.update(p);
+      if (fill + p.length > buf.length) flush();
+      if (p.length >= buf.length) {
+        writeAllSync(fd, p, at);
+        at += p.length;
+      } else {
+        buf.set(p, fill);
+        fill += p.length;
+      }
+    }
+    flush();
+    writeAllSync(fd, plan.head(sum.digest()), 0);
+    size = at;
+  });
+  return size;
 }
 
 /** Saves, and returns why it could not instead of throwing (undefined when saved). */

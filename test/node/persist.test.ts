@@ -2,9 +2,10 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it, vi } from 'vitest';
 import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
+import { encodeIndex } from '../../src/core/index/persistence/serialize.js';
 import { loadIndex, readSavedSettings, removeStaleTemporaries, SaveError, saveIndex, trySaveIndex } from '../../src/node/persist.js';
 import { loadCollection } from '../helpers/shared.js';
 
@@ -47,6 +48,28 @@ describe('persist', () => {
     expect(answers(copy)).toEqual(answers(index));
     await saveIndex(file, copy);
     expect(answers(await reopen(file))).toEqual(answers(index));
+  });
+
+  it('streams the same bytes as encoding the whole file at once, whatever the write chunk', async () => {
+    const index = buildAdi();
+    // Folded-in Markdown files bring sections (the build of a folder adds them in src/node).
+    for (const d of adi.docs.slice(0, 9)) {
+      const text = `# Part ${d.id}\n\n${d.text}\n\n## More\n\n${adi.docs[40].text}\n`;
+      index.foldIn({ path: `md/${d.id}.md`, size: text.length, mtimeMs: 1 }, text);
+    }
+    expect(index.sections.count).toBeGreaterThanOrEqual(9);
+    vi.useFakeTimers({ toFake: ['Date'], now: new Date('2026-01-02T03:04:05Z') });
+    try {
+      const whole = encodeIndex(index, new Date());
+      for (const chunk of [1, 7, 4096, 1 << 20]) {
+        const file = join(dir, `chunk-${chunk}.undertone`);
+        expect(await saveIndex(file, index, chunk)).toBe(whole.length);
+        expect(Buffer.compare(readFileSync(file), whole)).toBe(0);
+      }
+    } finally {
+      vi.useRealTimers();
+    }
+    expect(answers(await reopen(join(dir, 'chunk-7.undertone')))).toEqual(answers(index));
   });
 
   it('reads the same index whatever the read size, and still finds damage near the end', async () => {

@@ -69,3 +69,80 @@ export function checksum32(bytes: Uint8Array): number {
   h ^= h >>> 16;
   return h >>> 0;
 }
+
+/**
+ * checksum32 computed piece by piece: update(a); update(b); digest() equals checksum32 of a and b
+ * joined, so a file can be checked while it is written or read in parts, never held whole.
+ */
+export class Checksum32 {
+  private h0 = 0x12345678;
+  private h1 = 0x9e3779b9;
+  private h2 = 0x85ebca6b;
+  private h3 = 0xc2b2ae35;
+  private total = 0;
+  /** Bytes of an unfinished 16-byte block (four words). */
+  private readonly carry = new Uint8Array(16);
+  private carried = 0;
+  /** Aligned room for input that is not on a 4-byte boundary. */
+  private scratch = new Uint8Array(0);
+
+  update(bytes: Uint8Array): this {
+    this.total += bytes.length;
+    let pos = 0;
+    if (this.carried > 0) {
+      const take = Math.min(16 - this.carried, bytes.length);
+      this.carry.set(bytes.subarray(0, take), this.carried);
+      this.carried += take;
+      pos = take;
+      if (this.carried < 16) return this;
+      this.blocks(wordsOf(this.carry));
+      this.carried = 0;
+    }
+    const whole = (bytes.length - pos) & ~15;
+    for (let done = 0; done < whole;) {
+      let part = bytes.subarray(pos + done, pos + whole);
+      if (!LITTLE_ENDIAN || part.byteOffset % 4 !== 0) {
+        if (this.scratch.length === 0) this.scratch = new Uint8Array(1 << 16);
+        part = part.subarray(0, this.scratch.length);
+        this.scratch.set(part);
+        part = this.scratch.subarray(0, part.length);
+      }
+      this.blocks(wordsOf(part));
+      done += part.length;
+    }
+    pos += whole;
+    this.carry.set(bytes.subarray(pos), 0);
+    this.carried = bytes.length - pos;
+    return this;
+  }
+
+  /** The checksum of every byte given so far (update may go on afterwards). */
+  digest(): number {
+    const w = wordsOf(this.carry.subarray(0, this.carried & ~3));
+    let h = 0x12345678 ^ this.total;
+    for (let i = 0; i < w.length; i++) h = step(h, w[i]);
+    h = step(step(step(step(h, this.h0), this.h1), this.h2), this.h3);
+    for (let i = w.length * 4; i < this.carried; i++) h = Math.imul(h ^ this.carry[i], 0x01000193);
+    h ^= h >>> 16;
+    h = Math.imul(h, 0x85ebca6b);
+    h ^= h >>> 13;
+    h = Math.imul(h, 0xc2b2ae35);
+    h ^= h >>> 16;
+    return h >>> 0;
+  }
+
+  /** Feeds whole 4-word blocks (w.length a multiple of 4) round-robin to the four states. */
+  private blocks(w: Uint32Array): void {
+    let { h0, h1, h2, h3 } = this;
+    for (let i = 0; i < w.length; i += 4) {
+      h0 = step(h0, w[i]);
+      h1 = step(h1, w[i + 1]);
+      h2 = step(h2, w[i + 2]);
+      h3 = step(h3, w[i + 3]);
+    }
+    this.h0 = h0;
+    this.h1 = h1;
+    this.h2 = h2;
+    this.h3 = h3;
+  }
+}

@@ -50,33 +50,32 @@ const kindOf = (a: Typed): ArrayKind =>
 const encoder = new TextEncoder();
 const decoder = new TextDecoder('utf-8', { fatal: true });
 
-/** A payload section: its table entry's name, kind and length, and how to write it in place. */
+/** A payload section: its table entry's name, kind and length, and its bytes in order. */
 interface SectionSource {
   readonly name: string;
   readonly kind: ArrayKind;
   readonly length: number;
-  /** Writes the section into out at byte offset at (8-aligned). */
-  readonly write: (out: Uint8Array, at: number) => void;
+  /** The section's bytes, as views of the index's own arrays where they exist (no copy). */
+  readonly pieces: () => Iterable<Uint8Array>;
 }
+
+const bytesOf = (a: Typed): Uint8Array => new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
 
 const copied = (name: string, arr: Typed): SectionSource => ({
   name,
   kind: kindOf(arr),
   length: arr.length,
-  write: (out, at) => out.set(new Uint8Array(arr.buffer, arr.byteOffset, arr.byteLength), at),
+  pieces: () => [bytesOf(arr)],
 });
 
-/** A section filled straight into the output buffer. */
-const inPlace = <K extends ArrayKind>(
-  name: string,
-  kind: K,
-  length: number,
-  fill: (dst: InstanceType<(typeof CTORS)[K]>) => void,
-): SectionSource => ({
+/** A section gathered from many arrays (one per file), each given as it is. */
+const gathered = (name: string, kind: ArrayKind, length: number, parts: () => Iterable<Typed>): SectionSource => ({
   name,
   kind,
   length,
-  write: (out, at) => fill(new CTORS[kind](out.buffer as ArrayBuffer, out.byteOffset + at, length) as InstanceType<(typeof CTORS)[K]>),
+  pieces: function* () {
+    for (const p of parts()) yield bytesOf(p);
+  },
 });
 
 /** The checksum of the bytes before the payload, its own four bytes (12…16) left out. */
@@ -86,8 +85,25 @@ function headerChecksum(prefix: Uint8Array): number {
   return checksum32(copy);
 }
 
-/** Encodes an index into one buffer, writing the large sections in place (no second copy of the payload). */
-export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint8Array {
+/**
+ * An index file laid out but not yet written: a writer streams pieces() (the payload, padding
+ * included, start…end of file) while computing their checksum, then writes head(checksum) (the
+ * first `start` bytes) in front. The pieces view the index's own arrays, so the file is never
+ * held whole in memory; the index must not change until the last piece is written.
+ */
+export interface IndexFilePlan {
+  /** Byte offset of the payload: the length of head(). */
+  readonly start: number;
+  readonly payloadBytes: number;
+  pieces(): Iterable<Uint8Array>;
+  /** Magic, header (with this payload checksum), header checksum and padding. */
+  head(payloadChecksum: number): Uint8Array;
+}
+
+const ZEROS = new Uint8Array(8);
+
+/** Lays out the file of an index (see IndexFilePlan; encodeIndex writes it into one buffer). */
+export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): IndexFilePlan {
   const live = index
     .slots()
     .map((s, i) => [s, i] as const)
@@ -129,14 +145,14 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
       Uint8Array.from(live, ([s]) => LANGUAGES.indexOf(s.meta.language ?? 'en')),
     ),
     copied('termIndptr', termIndptr),
-    inPlace('termIds', 'i32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.termIds, termIndptr[j]))),
-    inPlace('termCounts', 'f32', nnz, (dst) => live.forEach(([s], j) => dst.set(s.terms.counts, termIndptr[j]))),
+    gathered('termIds', 'i32', nnz, () => live.map(([s]) => s.terms.termIds)),
+    gathered('termCounts', 'f32', nnz, () => live.map(([s]) => s.terms.counts)),
     copied('keptIds', m.keptIds),
     copied('weights', m.weights),
     copied('termVectors', m.termVectors),
     copied('singularValues', m.singularValues),
     copied('axisScale', m.axisScale),
-    inPlace('vectors', 'f32', n * k, (dst) => live.forEach(([, i], j) => dst.set(all.subarray(i * k, (i + 1) * k), j * k))),
+    gathered('vectors', 'f32', n * k, () => live.map(([, i]) => all.subarray(i * k, (i + 1) * k))),
     ...sectionSources(index, live, k),
   ];
   const table: SectionEntry[] = [];
@@ -160,10 +176,41 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
   };
   const reserved = encoder.encode(JSON.stringify(header)).length;
   const start = align8(INDEX_PREAMBLE_BYTES + reserved);
-  const out = new Uint8Array(start + offset);
-  sections.forEach((sec, i) => sec.write(out, start + table[i].offset));
-  header.checksum = checksum32(out.subarray(start));
-  sealHeader(out, header, reserved);
+  return {
+    start,
+    payloadBytes: offset,
+    pieces: function* () {
+      let at = 0;
+      for (const [i, sec] of sections.entries()) {
+        for (const p of sec.pieces()) {
+          yield p;
+          at += p.length;
+        }
+        const end = i + 1 < table.length ? table[i + 1].offset : offset;
+        if (at !== table[i].offset + table[i].length * CTORS[sec.kind].BYTES_PER_ELEMENT || end - at >= 8)
+          throw new Error(`index section ${sec.name} has the wrong length (a bug)`);
+        if (end > at) yield ZEROS.subarray(0, end - at);
+        at = end;
+      }
+    },
+    head: (payloadChecksum) => {
+      const out = new Uint8Array(start);
+      sealHeader(out, { ...header, checksum: payloadChecksum }, reserved);
+      return out;
+    },
+  };
+}
+
+/** Encodes an index into one buffer (a writer that can stream uses planIndexFile instead). */
+export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint8Array {
+  const plan = planIndexFile(index, createdAt);
+  const out = new Uint8Array(plan.start + plan.payloadBytes);
+  let at = plan.start;
+  for (const p of plan.pieces()) {
+    out.set(p, at);
+    at += p.length;
+  }
+  out.set(plan.head(checksum32(out.subarray(plan.start))), 0);
   return out;
 }
 
@@ -174,18 +221,19 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
   files.forEach((f, j) => (indptr[j + 1] = indptr[j] + (f?.starts.length ?? 0)));
   const total = indptr[live.length];
   const titles = files.flatMap((f) => (f ? f.titles.map((t) => t.replace(/\0/g, ' ') || '…') : []));
+  const lines = (f: NonNullable<(typeof files)[number]>): Int32Array => {
+    const out = new Int32Array(2 * f.starts.length);
+    for (let i = 0; i < f.starts.length; i++) {
+      out[2 * i] = f.starts[i];
+      out[2 * i + 1] = f.ends[i];
+    }
+    return out;
+  };
   return [
     copied('sectionIndptr', indptr),
-    inPlace('sectionLines', 'i32', 2 * total, (dst) =>
-      files.forEach((f, j) => {
-        for (let i = 0; f && i < f.starts.length; i++) {
-          dst[2 * (indptr[j] + i)] = f.starts[i];
-          dst[2 * (indptr[j] + i) + 1] = f.ends[i];
-        }
-      }),
-    ),
+    gathered('sectionLines', 'i32', 2 * total, () => files.flatMap((f) => (f ? [lines(f)] : []))),
     copied('sectionTitles', encoder.encode(titles.join('\0'))),
-    inPlace('sectionVectors', 'f32', total * k, (dst) => files.forEach((f, j) => f && dst.set(f.vectors, indptr[j] * k))),
+    gathered('sectionVectors', 'f32', total * k, () => files.flatMap((f) => (f ? [f.vectors] : []))),
   ];
 }
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checksum32 } from '../../../../src/core/index/persistence/checksum.js';
+import { Checksum32, checksum32 } from '../../../../src/core/index/persistence/checksum.js';
 import { createRandom } from '../../../../src/core/random.js';
 
 // The checksum is our own (MurmurHash3's block step and finaliser, four running states), so there
@@ -48,5 +48,33 @@ describe('checksum32', () => {
       shifted.set(bytes, 3);
       expect(checksum32(shifted.subarray(3))).toBe(checksum32(bytes));
     }
+  });
+});
+
+describe('Checksum32', () => {
+  it('gives checksum32 of the whole whatever the pieces: random cuts, empty pieces, unaligned views', () => {
+    const rng = createRandom(5);
+    for (const n of [0, 1, 3, 15, 16, 17, 64, 1027, 200_003]) {
+      const backing = randomBytes(n + 3, n + 1);
+      for (const shift of [0, 1, 3]) {
+        const bytes = backing.subarray(shift, shift + n);
+        const whole = checksum32(bytes);
+        for (let trial = 0; trial < 4; trial++) {
+          const sum = new Checksum32();
+          for (let at = 0; at < n;) {
+            const len = trial === 0 ? 1 : Math.min(n - at, rng.nextUint32() % (trial * 40_000 + 1));
+            sum.update(bytes.subarray(at, at + len));
+            at += len;
+          }
+          expect(sum.digest()).toBe(whole);
+        }
+      }
+    }
+  });
+
+  it('differs from the checksum of the pieces in another order', () => {
+    const a = randomBytes(40, 1);
+    const b = randomBytes(24, 2);
+    expect(new Checksum32().update(a).update(b).digest()).not.toBe(new Checksum32().update(b).update(a).digest());
   });
 });
