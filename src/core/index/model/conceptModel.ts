@@ -148,18 +148,35 @@ function buildModelAndMatrix(
  * projectTerms(model, row).vector for every row of a weighted matrix built with the model's
  * weights: U_kᵀd̂ by the executor's sequential sparse product (each row adds its terms one at a
  * time, in order, as projectTerms does, so the bits agree), then the same axis scaling and
- * normalisation.
+ * normalisation. The term vectors go to the executor in blocks of columns of at most
+ * blockBytes as f64 (each output column is the same sum whatever the block, so the bits do not
+ * change), not as one f64 copy of all of them: that copy (terms × k × 8 bytes) was the build's
+ * memory peak.
  */
-export function projectMatrixRows(model: ConceptModel, matrix: CsrMatrix, executor?: MatrixExecutor): Float32Array {
+export function projectMatrixRows(
+  model: ConceptModel,
+  matrix: CsrMatrix,
+  executor?: MatrixExecutor,
+  blockBytes = PROJECTION_BLOCK_BYTES,
+): Float32Array {
   const ex = executor ?? createWasmExecutor() ?? serialExecutor;
   const run = (): Float32Array => {
     const k = model.k;
     const n = matrix.rows;
+    const terms = matrix.cols;
     const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
-    const tv = ex.float64(model.termVectors.length);
-    tv.set(model.termVectors);
-    const acc = ex.float64(n * k);
-    ex.spmm(m, tv, k, acc, true);
+    const width = Math.max(1, Math.min(k, Math.floor(blockBytes / (8 * Math.max(1, terms)))));
+    const tv = ex.float64(terms * width);
+    const part = ex.float64(n * width);
+    const acc = new Float64Array(n * k);
+    for (let c0 = 0; c0 < k; c0 += width) {
+      const w = Math.min(width, k - c0);
+      const tvw = tv.subarray(0, terms * w);
+      for (let t = 0; t < terms; t++) for (let j = 0; j < w; j++) tvw[t * w + j] = model.termVectors[t * k + c0 + j];
+      const pw = part.subarray(0, n * w);
+      ex.spmm(m, tvw, w, pw, true);
+      for (let i = 0; i < n; i++) for (let j = 0; j < w; j++) acc[i * k + c0 + j] = pw[i * w + j];
+    }
     const out = new Float32Array(n * k);
     const row = new Float64Array(k);
     for (let i = 0; i < n; i++) {
@@ -175,6 +192,9 @@ export function projectMatrixRows(model: ConceptModel, matrix: CsrMatrix, execut
   };
   return ex.scoped ? ex.scoped(run) : run();
 }
+
+/** Bytes of f64 term vectors handed to the executor at once (our choice: a few column blocks at k = 200 on 50k terms). */
+export const PROJECTION_BLOCK_BYTES = 16 * 1024 * 1024;
 
 /**
  * The weighted, document-normalised matrix in document-major CSR form (row i = document i,

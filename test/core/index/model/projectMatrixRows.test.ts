@@ -9,14 +9,20 @@ import { loadCollection } from '../../../helpers/shared.js';
 const cisi = loadCollection('cisi');
 
 describe('projectMatrixRows', () => {
-  it('gives projectTerms bit for bit on every CISI document, with either executor', () => {
+  it('gives projectTerms bit for bit on every CISI document, with either executor, in one block of columns or several', () => {
     const builder = new IndexBuilder({ k: 40 });
     for (const d of cisi.docs.slice(0, 600)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = builder.build();
     const docs = index.slots().map((s) => s!.terms);
     const m = modelMatrix(index.model, docs);
     const k = index.k;
-    for (const rows of [projectMatrixRows(index.model, m), projectMatrixRows(index.model, m, serialExecutor)]) {
+    const small = 8 * m.cols * 7; // blocks of 7 columns (40 = 5 × 7 + 5: a narrower last block)
+    for (const rows of [
+      projectMatrixRows(index.model, m),
+      projectMatrixRows(index.model, m, serialExecutor),
+      projectMatrixRows(index.model, m, undefined, small),
+      projectMatrixRows(index.model, m, serialExecutor, small),
+    ]) {
       docs.forEach((d, i) => {
         const want = projectTerms(index.model, d).vector;
         expect(Buffer.from(rows.buffer, i * k * 4, k * 4).equals(Buffer.from(want.buffer))).toBe(true);
