@@ -197,10 +197,7 @@ interface Rule {
   ns: number;
 }
 const passes = (r: Rule, mj: number) => (p: Pair) =>
-  p.mutual &&
-  p.j < mj &&
-  p.cos >= r.c &&
-  (p.cos - p.next >= r.g || (p.cos - p.next >= r.ng && p.names >= r.nn && p.nameShare >= r.ns));
+  p.mutual && p.j < mj && p.cos >= r.c && (p.cos - p.next >= r.g || (p.cos - p.next >= r.ng && p.names >= r.nn && p.nameShare >= r.ns));
 const grid: (Rule & { hits: Record<string, number>; fp: number; bare: number })[] = [];
 const mj = 0.2;
 for (const c of [0.3, 0.4, 0.5])
