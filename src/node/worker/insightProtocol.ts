@@ -45,6 +45,8 @@ export interface LookalikePairWire {
   readonly words: readonly [number, number];
   /** Retold pairs: margin of the cosine over each file's next neighbour. */
   readonly gap?: number;
+  /** Retold pairs: rare names (long options, identifiers) both files hold. */
+  readonly sharedNames?: number;
 }
 
 export interface LookalikeGroupWire {
