@@ -8,9 +8,11 @@
  * lines left out), neighbours sharing text (exact shingle Jaccard ≥ 0.3) collapsed, pairs with
  * Jaccard < 0.2. For each signal: retellings ranked above the 1st, 2nd, 3rd and 4th false pair
  * (a pair not in the key), and the "same content" pairs at the 3-false-pair level in the folder
- * without the retellings' Texinfo side. Then leave-one-source-out: the (least cosine, least margin,
- * largest Jaccard) grid point with the most retellings of one source, at ≤ 3 false pairs and ≤ 1
- * pair per 1,000 files without retellings, scored on the other source.
+ * without the retellings' Texinfo side. Then plain TF-IDF cosine as a baseline; leave-one-source-
+ * out over both clauses of the rule (least cosine, margin; name-clause margin, names, share): the
+ * grid point with the most retellings of one source, at ≤ 3 false pairs and ≤ 1 pair per 1,000
+ * files without retellings, scored on the other source; last, the pairs the finder reports with
+ * and without the name clause in the CMake reference (test/fixtures/cmake-doc).
  */
 import { readFileSync } from 'node:fs';
 import { gunzipSync } from 'node:zlib';
