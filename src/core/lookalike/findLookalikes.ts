@@ -84,6 +84,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   // 2. Shingles and MinHash signatures of the representatives.
   const shingled: number[] = [];
   const sets: Uint32Array[] = [];
+  const tokenCounts: number[] = [];
   let skippedShort = 0;
   for (const r of reps) {
     const s = shingleSet(files[r].text, o.shingleSize);
@@ -93,6 +94,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     }
     shingled.push(r);
     sets.push(s.hashes);
+    tokenCounts.push(s.tokens);
   }
   const m = shingled.length;
   const k = o.numHashes;
@@ -188,12 +190,13 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     minNameGap: o.retoldNameMinGap,
     minSharedNames: o.retoldMinSharedNames,
     minNameShare: o.retoldMinNameShare,
+    minNameWords: o.retoldNameMinWords,
   };
   const names = rareNameIndex(
     shingled.map((f) => files[f].text),
     o.retoldNameMaxDf,
   );
-  const retold = findRetoldPairs({ ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard, names: names.pair }, rule);
+  const retold = findRetoldPairs({ ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard, names: names.pair, words: tokenCounts }, rule);
   const retoldPairs = retold.map((p) => ({
     ...pairOf('retold', p.a, p.b, jac(p.a, p.b)),
     similarity: p.cosine,

@@ -14,9 +14,12 @@
  *    a. that cosine stands at least minGap above each file's next neighbour (a margin against
  *       the file's own neighbourhood, as the margin scoring of Artetxe & Schwenk 2019 for mining
  *       translation pairs), or
- *    b. it stands at least minNameGap above them and the two files hold the same rare names
- *       (rareNames.ts: at least minSharedNames, share ≥ minNameShare): a retelling repeats the
- *       options and identifiers of what it tells, a same-area neighbour has other ones.
+ *    b. it stands at least minNameGap above them, the two files hold the same rare names
+ *       (rareNames.ts: at least minSharedNames, share ≥ minNameShare) and the shorter one has at
+ *       least minNameWords words: a retelling repeats the options and identifiers of what it
+ *       tells, a same-area neighbour has other ones; a stub page that only points to another
+ *       (a property and the variable that sets its default) names the same thing without
+ *       telling it.
  *    Pairs only: a file has at most one such partner, so nothing chains.
  * Score for ranking: gap + name share (strongest evidence first).
  */
@@ -30,6 +33,8 @@ export interface RetoldParams {
   readonly minNameGap?: number;
   readonly minSharedNames?: number;
   readonly minNameShare?: number;
+  /** Clause b: least word count of the shorter file (RetoldInput.words); a stub that points to another page is left to clause a. */
+  readonly minNameWords?: number;
 }
 
 export interface RetoldInput {
@@ -42,6 +47,8 @@ export interface RetoldInput {
   readonly maxJaccard: number;
   /** Shared rare names of a pair (rareNames.ts); without it only clause a applies. */
   readonly names?: (a: number, b: number) => RareNames;
+  /** Each file's word count (clause b's minNameWords); without it the count is not checked. */
+  readonly words?: readonly number[];
 }
 
 export interface RetoldPair {
@@ -75,7 +82,8 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
       input.names !== undefined &&
       gap >= (params.minNameGap ?? Infinity) &&
       names.shared >= (params.minSharedNames ?? 1) &&
-      names.share >= (params.minNameShare ?? Infinity);
+      names.share >= (params.minNameShare ?? Infinity) &&
+      (input.words === undefined || Math.min(input.words[i], input.words[d]) >= (params.minNameWords ?? 0));
     if (!byGap && !byNames) continue;
     out.push({ a: i, b: d, cosine: c, gap, sharedNames: names.shared, nameShare: names.share, score: gap + names.share });
   }
