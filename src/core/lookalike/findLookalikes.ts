@@ -196,7 +196,10 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     shingled.map((f) => files[f].text),
     o.retoldNameMaxDf,
   );
-  const retold = findRetoldPairs({ ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard, names: names.pair, words: tokenCounts }, rule);
+  const retold = findRetoldPairs(
+    { ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard, names: names.pair, words: tokenCounts },
+    rule,
+  );
   const retoldPairs = retold.map((p) => ({
     ...pairOf('retold', p.a, p.b, jac(p.a, p.b)),
     similarity: p.cosine,

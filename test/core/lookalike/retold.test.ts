@@ -99,6 +99,23 @@ describe('findRetoldPairs, clause b: a smaller margin with the same rare names',
     expect(findRetoldPairs({ ...input, names: thin }, withNames)).toEqual([]);
     expect(findRetoldPairs({ ...input, names: full }, { ...withNames, minNameGap: 0.2 })).toEqual([]);
   });
+  it('refuses it when the shorter file is a stub (fewer words than minNameWords); clause a is not affected', () => {
+    const full = () => ({ shared: 5, share: 0.95 });
+    const stub = { ...input, names: full, words: [40, 500, 500] };
+    expect(findRetoldPairs(stub, { ...withNames, minNameWords: 100 })).toEqual([]);
+    expect(findRetoldPairs(stub, { ...withNames, minNameWords: 40 })).toHaveLength(1);
+    expect(findRetoldPairs({ ...stub, words: [100, 500, 500] }, { ...withNames, minNameWords: 100 })).toHaveLength(1);
+    // The same short pair 0.35 clear passes by its margin alone.
+    const clear = {
+      ...stub,
+      cosines: [
+        [0.8, 0.45],
+        [0.8, 0.4],
+        [0.5, 0.4],
+      ],
+    };
+    expect(findRetoldPairs(clear, { ...withNames, minNameWords: 100 })).toHaveLength(1);
+  });
 });
 
 describe('boilerplate lines', () => {
