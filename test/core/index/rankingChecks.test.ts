@@ -79,15 +79,15 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
     console.log(`lodash-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  it('MRR@10 above TF-IDF cosine and BM25; within 2% of LSI (still below it)', () => {
+  it('MRR@10 above the best plain baseline (LSI), 4% above BM25', () => {
     const b = fx.baselines!.methods;
-    expect(got.mrr10).toBeGreaterThanOrEqual(Math.max(b.tfidf.mrr10!, b.bm25.mrr10!));
-    expect(got.mrr10).toBeGreaterThanOrEqual(0.98 * b.lsi.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(best(fx.baselines, 'mrr10'));
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.04 * b.bm25.mrr10!);
   });
 
-  it('no size quartile more than 10% below TF-IDF cosine (the three smaller ones are still below it); the largest above it', () => {
+  it('no size quartile more than 10% below TF-IDF cosine (the two smaller ones are still below it); the two larger ones above it', () => {
     const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
     got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.9 * q[i]!));
-    expect(got.mrr10ByQuartile[3]!).toBeGreaterThanOrEqual(q[3]!);
+    for (const i of [2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
   });
 });
