@@ -13,8 +13,8 @@
  *    partialThreshold ≤ J < threshold → partial copy. Texts with fewer than w tokens are counted
  *    in stats.skippedShort and skipped.
  * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
- *    file's other neighbours, or a little clear and holding the same rare names (rareNames.ts);
- *    little shared text).
+ *    file's other neighbours, or a little clear and holding the same rare names (rareNames.ts)
+ *    when neither is a stub; little shared text).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */
