@@ -191,6 +191,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     minSharedNames: o.retoldMinSharedNames,
     minNameShare: o.retoldMinNameShare,
     minNameWords: o.retoldNameMinWords,
+    minWords: o.retoldMinWords,
   };
   const names = rareNameIndex(
     shingled.map((f) => files[f].text),

@@ -35,6 +35,8 @@ export interface LookalikeOptions {
   readonly retoldMinNameShare: number;
   /** Clause b: least word count (shingle tokens) of the shorter file, so a stub pointing to another page does not pass. @default 100 (as retoldNameMinGap; the two folds chose 100 and 200) */
   readonly retoldNameMinWords: number;
+  /** Both clauses: least word count (shingle tokens) of the shorter file; a stub page of a few dozen words does not tell the same content as another. @default 50 (our choice, on dev material only: it loses none of test/fixtures/lookalike-retellings' 34 found retellings and drops 19 of the 29 pairs the rule reports on the CMake reference test/fixtures/cmake-doc, all of them stub pages; measured with bench/lookalikeNameClause.bench.ts) */
+  readonly retoldMinWords: number;
   /** A name is rare when at most this many files hold it (rareNames.ts). @default 10 (our choice, set by looking at the whole of test/fixtures/lookalike-retellings: 5, 10, 20, 30 compared; not held out) */
   readonly retoldNameMaxDf: number;
   /** Seed for the MinHash family. @default DEFAULT_SEED (random.ts) */
@@ -57,6 +59,7 @@ export const DEFAULT_LOOKALIKE_OPTIONS: LookalikeOptions = Object.freeze({
   retoldMinSharedNames: 3,
   retoldMinNameShare: 0.9,
   retoldNameMinWords: 100,
+  retoldMinWords: 50,
   retoldNameMaxDf: 10,
   seed: DEFAULT_SEED,
 });
@@ -84,6 +87,8 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
     throw new InvalidInputError(`retoldNameMinGap must be in [0, 1], got ${o.retoldNameMinGap}`);
   positiveInteger('retoldMinSharedNames', o.retoldMinSharedNames);
   unitInterval('retoldMinNameShare', o.retoldMinNameShare);
+  if (!(Number.isInteger(o.retoldMinWords) && o.retoldMinWords >= 0))
+    throw new InvalidInputError(`retoldMinWords must be a whole number ≥ 0, got ${o.retoldMinWords}`);
   if (!(Number.isInteger(o.retoldNameMinWords) && o.retoldNameMinWords >= 0))
     throw new InvalidInputError(`retoldNameMinWords must be a whole number ≥ 0, got ${o.retoldNameMinWords}`);
   positiveInteger('retoldNameMaxDf', o.retoldNameMaxDf);

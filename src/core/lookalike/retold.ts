@@ -20,6 +20,8 @@
  *       tells, a same-area neighbour has other ones; a stub page that only points to another
  *       (a property and the variable that sets its default) names the same thing without
  *       telling it.
+ *    Either way the shorter file must have at least minWords words: a page of a few dozen words
+ *    (a stub that points to another page) is too short to tell the same content.
  *    Pairs only: a file has at most one such partner, so nothing chains.
  * Score for ranking: gap + name share (strongest evidence first).
  */
@@ -35,6 +37,8 @@ export interface RetoldParams {
   readonly minNameShare?: number;
   /** Clause b: least word count of the shorter file (RetoldInput.words); a stub that points to another page is left to clause a. */
   readonly minNameWords?: number;
+  /** Both clauses: least word count of the shorter file (RetoldInput.words). */
+  readonly minWords?: number;
 }
 
 export interface RetoldInput {
@@ -47,7 +51,7 @@ export interface RetoldInput {
   readonly maxJaccard: number;
   /** Shared rare names of a pair (rareNames.ts); without it only clause a applies. */
   readonly names?: (a: number, b: number) => RareNames;
-  /** Each file's word count (clause b's minNameWords); without it the count is not checked. */
+  /** Each file's word count (minWords, clause b's minNameWords); without it no count is checked. */
   readonly words?: readonly number[];
 }
 
@@ -76,6 +80,7 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
     const gap = c - next;
     if (gap < Math.min(params.minGap, params.minNameGap ?? Infinity)) continue;
     if (input.jaccard(i, d) >= input.maxJaccard) continue;
+    if (input.words !== undefined && Math.min(input.words[i], input.words[d]) < (params.minWords ?? 0)) continue;
     const names = input.names ? input.names(i, d) : { shared: 0, share: 0 };
     const byGap = gap >= params.minGap;
     const byNames =

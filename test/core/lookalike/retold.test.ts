@@ -116,6 +116,22 @@ describe('findRetoldPairs, clause b: a smaller margin with the same rare names',
     };
     expect(findRetoldPairs(clear, { ...withNames, minNameWords: 100 })).toHaveLength(1);
   });
+  it('refuses a pair by either clause when the shorter file has fewer than minWords words', () => {
+    const full = () => ({ shared: 5, share: 0.95 });
+    const clear = {
+      ...input,
+      names: full,
+      words: [40, 500, 500],
+      cosines: [
+        [0.8, 0.45],
+        [0.8, 0.4],
+        [0.5, 0.4],
+      ],
+    };
+    expect(findRetoldPairs(clear, { ...withNames, minWords: 0 })).toHaveLength(1);
+    expect(findRetoldPairs(clear, { ...withNames, minWords: 50 })).toEqual([]);
+    expect(findRetoldPairs({ ...clear, words: [50, 500, 500] }, { ...withNames, minWords: 50 })).toHaveLength(1);
+  });
 });
 
 describe('boilerplate lines', () => {
