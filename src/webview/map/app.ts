@@ -192,6 +192,7 @@ export class MapApp {
     this.scene.trail = points.length ? { x: Float32Array.from(at, (p) => p.x), y: Float32Array.from(at, (p) => p.y) } : null;
     this.scene.trailHovered = null;
     this.root.dataset.trail = String(points.length);
+    if (!this.query) this.setStatus(this.summary());
     this.canvas.requestDraw();
   }
 
@@ -407,7 +408,9 @@ export class MapApp {
     const topics = this.view.labels.length;
     const method = this.layout === 'faithful' ? 'faithful layout (landmark Isomap)' : 'quick layout (principal axes)';
     const level = this.view.focus === null ? `${topics} topics` : `${topics} sub-topics of one topic`;
-    return `${formatCount(this.n)} files · ${level} · ${method}`;
+    const t = this.trail;
+    const trail = t && t.points.length ? ` · trail: ${t.points.length} sections of ${t.path.split('/').pop()}` : '';
+    return `${formatCount(this.n)} files · ${level} · ${method}${trail}`;
   }
 
   private setStatus(text: string): void {
