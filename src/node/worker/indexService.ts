@@ -39,6 +39,7 @@ import type {
 } from './workerProtocol.js';
 import { RootMap } from './rootMap.js';
 import { bestSections, nearbySections, searchSections } from '../../core/sections/sectionSearch.js';
+import { splitLines } from '../../core/sections/splitSections.js';
 import type { SectionHit } from '../../core/sections/sectionStore.js';
 import type { HandlerContext, Handlers } from './server.js';
 import { formsFromTexts } from './wordForms.js';
@@ -266,7 +267,8 @@ export class IndexService {
     if (!near) return null;
     const keys = [...new Set([key, ...near.hits.map((h) => h.path)])];
     const textOf = await this.textsOf(keys);
-    const texts = keys.flatMap((k) => textOf(k) ?? []);
+    // Readable words from the sections themselves (their words are the ones shown), not the whole files.
+    const texts = [near.from, ...near.hits].map((h) => splitLines(textOf(h.path) ?? '').slice(h.start, h.end).join('\n'));
     const why =
       this._index === index
         ? sectionNearbyWhy(index, near.from, near.hits, textOf, formsFromTexts(texts, index.settings.tokenize.stem))
