@@ -268,7 +268,11 @@ export class IndexService {
     const keys = [...new Set([key, ...near.hits.map((h) => h.path)])];
     const textOf = await this.textsOf(keys);
     // Readable words from the sections themselves (their words are the ones shown), not the whole files.
-    const texts = [near.from, ...near.hits].map((h) => splitLines(textOf(h.path) ?? '').slice(h.start, h.end).join('\n'));
+    const texts = [near.from, ...near.hits].map((h) =>
+      splitLines(textOf(h.path) ?? '')
+        .slice(h.start, h.end)
+        .join('\n'),
+    );
     const why =
       this._index === index
         ? sectionNearbyWhy(index, near.from, near.hits, textOf, formsFromTexts(texts, index.settings.tokenize.stem))
