@@ -147,12 +147,36 @@ export function fileLanguage(
   const candidates = candidateLanguages(setting);
   if (candidates.length === 1 && candidates[0] === 'en') return 'en';
   if (!isProsePath(path)) return 'en';
-  return detectLanguage(text, candidates, options) ?? 'en';
+  if (candidates.length === 1) return candidates[0];
+  const o = { ...DEFAULT_DETECT_OPTIONS, ...options };
+  const h = hits(text, candidates, o.sampleWords);
+  const [best, first, second] = ranked(h);
+  if (best !== undefined && first >= o.minHits && first >= o.margin * second) return best;
+  // A partly translated page or a note quoting English: the other language, when it is clear of
+  // the other non-English candidates and English does not lead it by the margin, wins over English.
+  const english = h.get('en') ?? 0;
+  h.delete('en');
+  const [other, otherFirst, otherSecond] = ranked(h);
+  return other !== undefined && otherFirst >= o.minHits && otherFirst >= o.margin * otherSecond && o.margin * otherFirst >= english
+    ? other
+    : 'en';
 }
 
-/** A question's language: the best stop-word score among the candidates, else the fallback. */
-export function queryLanguage(text: string, setting: LanguageSetting | undefined, fallback: Language): Language {
-  const candidates = candidateLanguages(setting);
+/**
+ * A question's language: the best stop-word score among the candidates, else the fallback. With
+ * `present` (the languages the index's documents were tokenized in), only those compete: a
+ * question is stemmed as some of its targets were, and a short Spanish question whose "de", "a",
+ * "o" are also Portuguese or Italian stop words is not read as a language no note is in.
+ */
+export function queryLanguage(
+  text: string,
+  setting: LanguageSetting | undefined,
+  fallback: Language,
+  present?: readonly Language[],
+): Language {
+  const all = candidateLanguages(setting);
+  const kept = present === undefined ? all : all.filter((l) => present.includes(l));
+  const candidates = kept.length > 0 ? kept : all;
   if (candidates.length === 1) return candidates[0];
   const [best, first, second] = ranked(hits(text, candidates, 200));
   return best !== undefined && first > second ? best : fallback;
