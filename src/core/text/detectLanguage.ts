@@ -6,11 +6,13 @@
  * trigrams once a text has a few dozen words): each word of a sample that is in the stop lists of
  * n candidate languages gives 1/n to each of them (a word of one list counts fully, "de" or "a"
  * little), and the language with the highest score wins when it has at least `minHits` and
- * `margin` times the runner-up's. Files with source-code extensions are
- * English whatever their comments say (identifiers are never stemmed as another language), and a
- * file the profile cannot tell is English, as before languages were detected. A question is too
- * short for a margin: its language is the one with most distinctive stop words if any, else the
- * workspace's main language. Thresholds are our choice (common practice), not fitted to the
+ * `margin` times the runner-up's (the lists: languages.ts, ownStopWords). Files with source-code
+ * extensions are English whatever their comments say (identifiers are never stemmed as another
+ * language). A prose file where English leads without the margin but one other language is
+ * clear of the rest (a partly translated page, a note quoting English) takes that language; a
+ * file the profile cannot tell otherwise is English, as before languages were detected. A
+ * question is too short for a margin: its language is the one with most distinctive stop words
+ * among the languages the index has, else the workspace's main language. Thresholds are our choice (common practice), not fitted to the
  * evaluation collections.
  */
 import { isLanguage, LANGUAGES, ownStopWords, type Language } from './languages.js';
