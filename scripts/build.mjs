@@ -1,7 +1,7 @@
 // Bundles the command line (and, when present, the extension, the worker and the webview pages)
 // with esbuild. natural is imported module by module, so none of its database clients is bundled.
 import { build } from 'esbuild';
-import { existsSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -9,7 +9,21 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 // keepNames: errors cross from the worker by class name (NoKnownTermsError, NoIndexError,
 // CancelledError…); minified without it, every one arrived as a one-letter name and was shown
 // as a red "search failed" instead of its calm answer.
+// stopwords-iso holds 57 languages' lists (204 KB); natural's German stemmer and the language
+// detection (src/core/text/languages.ts) read only the nine languages of languageCodes.ts.
+const ISO_LANGUAGES = ['en', 'de', 'fr', 'es', 'it', 'pt', 'nl', 'sv', 'ru'];
+const stopListsSubset = {
+  name: 'stopwords-iso-subset',
+  setup(b) {
+    b.onResolve({ filter: /^stopwords-iso$/ }, () => ({ path: 'stopwords-iso', namespace: 'iso-subset' }));
+    b.onLoad({ filter: /.*/, namespace: 'iso-subset' }, () => {
+      const all = JSON.parse(readFileSync(join(root, 'node_modules/stopwords-iso/stopwords-iso.json'), 'utf8'));
+      return { contents: JSON.stringify(Object.fromEntries(ISO_LANGUAGES.map((l) => [l, all[l]]))), loader: 'json' };
+    });
+  },
+};
 const common = {
+  plugins: [stopListsSubset],
   bundle: true,
   platform: 'node',
   target: 'node20',

@@ -62,7 +62,8 @@ options:
   --include GLOB, --exclude GLOB   extra file filters (repeatable)
   --no-gitignore             index files that .gitignore excludes
   --rebuild                  (index) rebuild from scratch
-  --explain                  (ask, nearby) the words behind each score, with their shares
+  --explain                  (ask, nearby) the words behind each score, with their shares;
+                             with --sections or --line, from each section's own words
   --like FILE, --unlike FILE (ask) more / fewer files like this indexed file (repeatable; the text
                              may then be empty: ask <folder> "" --like FILE)
   --topics N                 (topics, map) how many topics (default: chosen automatically)

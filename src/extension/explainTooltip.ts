@@ -8,7 +8,8 @@
  */
 import type { Why } from '../node/worker/insightProtocol.js';
 
-export type WhyKind = 'nearby' | 'search';
+/** Nearby and search results of whole files, or of sections (their own vectors and terms). */
+export type WhyKind = 'nearby' | 'search' | 'nearbySection' | 'searchSection';
 
 /** Escapes Markdown's special characters so paths and words show as written. */
 export function escapeMarkdown(text: string): string {
@@ -26,25 +27,26 @@ export function whyMarkdown(plainTooltip: string, why: Why | undefined, kind: Wh
   const out = [`**${escapeMarkdown(first)}**`, ...rest.map((l) => escapeMarkdown(l))].join('  \n');
   if (!why || why.terms.length === 0) return out;
   const concepts = why.concepts ?? [];
+  const near = kind === 'nearby' || kind === 'nearbySection';
+  const pair = kind === 'nearbySection' ? 'both sections' : 'both files';
   const conceptLines =
     concepts.length === 0
       ? []
       : [
           '',
-          'Why it is near: the concepts both files share',
+          `Why it is near: the concepts ${pair} share`,
           '',
-          '| Concept (its words in these files) | Share |',
+          `| Concept (its words in these ${kind === 'nearbySection' ? 'sections' : 'files'}) | Share |`,
           '| :-- | --: |',
           ...concepts.map((c) => `| ${escapeMarkdown(c.words.join(', ') || 'unnamed')} | ${formatShare(c.share)} |`),
           ...(why.conceptRest !== undefined ? [`| other concepts | ${formatShare(why.conceptRest)} |`] : []),
-          ...(why.wordMatch ? [`| distinctive words both files use | ${formatShare(why.wordMatch)} |`] : []),
+          ...(why.wordMatch ? [`| distinctive words ${pair} use | ${formatShare(why.wordMatch)} |`] : []),
         ];
-  const heading =
-    kind === 'nearby'
-      ? concepts.length
-        ? 'And the terms contributing most'
-        : 'Why it is near: the terms contributing most'
-      : 'Why it matches: the terms contributing most';
+  const heading = near
+    ? concepts.length
+      ? 'And the terms contributing most'
+      : 'Why it is near: the terms contributing most'
+    : 'Why it matches: the terms contributing most';
   const rows = why.terms.map((t) => `| ${t.inBoth ? escapeMarkdown(t.word) : `_${escapeMarkdown(t.word)}_`} | ${formatShare(t.share)} |`);
   if (why.restTerms > 0) rows.push(`| ${why.restTerms} other ${why.restTerms === 1 ? 'term' : 'terms'} | ${formatShare(why.rest)} |`);
   const lines = [
@@ -58,7 +60,9 @@ export function whyMarkdown(plainTooltip: string, why: Why | undefined, kind: Wh
     ...rows,
     `| **Score** | **${formatShare(why.score)}** |`,
   ];
-  const other = kind === 'nearby' ? 'both files' : 'the query and the file';
+  const other = near ? pair : kind === 'searchSection' ? 'the query and the section' : 'the query and the file';
   if (why.terms.some((t) => !t.inBoth)) lines.push('', `_Italic_: not in ${other}; it counts through related words.`);
+  if (kind === 'searchSection' && why.terms.length > 0)
+    lines.push('', '_Worked out from this section’s own words; the word-match part is the whole file’s._');
   return lines.join('\n');
 }

@@ -4,13 +4,15 @@
  * with scripts only by a fresh random nonce, resources only from media/map. The worker computes
  * the map (node/worker/mapTask.ts); this side passes messages, each page message checked with
  * isPageToHostMessage: 'ready' → the data, 'query' → placed by the worker, 'open' → the file.
- * The panel follows the editor's theme and highlights the file in the active editor. After a
- * rebuild it asks for the new map. Everything it registers is disposed with it.
+ * The panel follows the editor's theme and highlights the file in the active editor, with that
+ * file's sections as a trail of points (asked of the worker again when the index changes, so a
+ * saved edit moves it); 'openSection' → the file at the section's first line. After a rebuild it
+ * asks for the new map. Everything it registers is disposed with it.
  */
 import { randomBytes } from 'node:crypto';
 import * as vscode from 'vscode';
 import { buildMapWebviewHtml } from '../core/map/mapHtml.js';
-import { isPageToHostMessage, type HostToPageMessage, type PageToHostMessage } from '../core/map/mapMessages.js';
+import { isPageToHostMessage, type HostToPageMessage, type PageToHostMessage, type PageTrail } from '../core/map/mapMessages.js';
 import type { IndexController } from './indexController.js';
 import { MapSession, themeKindName } from './mapPanelModel.js';
 import { errorKind } from '../node/worker/workerErrors.js';
@@ -24,6 +26,7 @@ export class ConceptMapPanel implements vscode.Disposable {
   private _pageReady = false;
   private _loadSeq = 0;
   private _disposed = false;
+  private _trailSeq = 0;
 
   constructor(
     extensionUri: vscode.Uri,
@@ -57,7 +60,9 @@ export class ConceptMapPanel implements vscode.Disposable {
     webview.onDidReceiveMessage((m: unknown) => this.receive(m), null, this._disposables);
     vscode.window.onDidChangeActiveColorTheme((t) => this.post({ type: 'theme', kind: themeKindName(t.kind) }), null, this._disposables);
     vscode.window.onDidChangeActiveTextEditor(() => this.selectActive(), null, this._disposables);
-    this._disposables.push(new vscode.Disposable(_controller.onDidChangeIndex((change) => change.all && void this.load()).dispose));
+    this._disposables.push(
+      new vscode.Disposable(_controller.onDidChangeIndex((change) => (change.all ? void this.load() : void this.showTrail())).dispose),
+    );
     void this.load();
   }
 
@@ -119,9 +124,40 @@ export class ConceptMapPanel implements vscode.Disposable {
       case 'query':
         void this.answer(m.requestId, m.text);
         break;
+      case 'openSection': {
+        const at = this._session?.sectionToOpen(m);
+        if (at)
+          void vscode.window.showTextDocument(vscode.Uri.file(at.fsPath), {
+            preview: true,
+            viewColumn: vscode.ViewColumn.Beside,
+            selection: new vscode.Range(at.line, 0, at.line, 0),
+          });
+        break;
+      }
       case 'layoutChanged':
         break;
     }
+  }
+
+  /** Sends the trail of the active editor's file (its sections placed on the map), or clears it. */
+  private async showTrail(): Promise<void> {
+    const session = this._session;
+    const uri = vscode.window.activeTextEditor?.document.uri;
+    if (!session || !uri) return; // the map itself has the focus: keep the trail
+    const seq = ++this._trailSeq;
+    const fsPath = uri.scheme === 'file' ? uri.fsPath : null;
+    let trail: PageTrail | null = null;
+    if (fsPath !== null) {
+      try {
+        trail = await this._controller.insight('mapTrail', { token: session.token, fsPath });
+      } catch (err) {
+        if (errorKind(err) !== 'map-outdated') this._log(`Concept map: no trail for ${fsPath}: ${(err as Error).message}`);
+        trail = null;
+      }
+    }
+    if (seq !== this._trailSeq || session !== this._session) return;
+    session.setTrail(fsPath, trail);
+    this.post({ type: 'trail', trail });
   }
 
   private async answer(requestId: number, text: string): Promise<void> {
@@ -157,6 +193,7 @@ export class ConceptMapPanel implements vscode.Disposable {
     const uri = vscode.window.activeTextEditor?.document.uri;
     if (!uri || !this._session) return; // the map itself has the focus: keep the selection
     this.post({ type: 'select', index: this._session.rowOf(uri.scheme === 'file' ? uri.fsPath : undefined) });
+    void this.showTrail();
   }
 
   private post(message: HostToPageMessage): void {

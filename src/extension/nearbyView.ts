@@ -111,7 +111,7 @@ export class NearbyProvider implements vscode.TreeDataProvider<ResultNode>, vsco
           if (near) {
             this._span = [near.from.start, near.from.end];
             this._sectionTitle = near.from.title;
-            this._entries = sectionEntries(near.hits, this._controller.multiRoot);
+            this._entries = sectionEntries(near.hits, this._controller.multiRoot, 'nearby');
             this.describe();
             void vscode.commands.executeCommand('setContext', 'undertone.activeIndexed', true);
             this._onDidChangeTreeData.fire();

@@ -32,7 +32,7 @@ function fileTreeItem(entry: ResultEntry): vscode.TreeItem {
   item.iconPath = vscode.ThemeIcon.File;
   item.description = entry.description;
   item.tooltip = entry.why
-    ? new vscode.MarkdownString(whyMarkdown(entry.tooltip, entry.why, entry.line === undefined ? 'nearby' : 'search'))
+    ? new vscode.MarkdownString(whyMarkdown(entry.tooltip, entry.why, entry.whyKind ?? (entry.line === undefined ? 'nearby' : 'search')))
     : entry.tooltip;
   item.contextValue = 'undertone.file';
   item.command = { command: 'vscode.open', title: 'Open File', arguments: [uri, openOptions(entry)] };

@@ -4,6 +4,7 @@
  * workspace folder; with several folders the folder's name is shown too.
  */
 import type { Why } from '../node/worker/insightProtocol.js';
+import type { WhyKind } from './explainTooltip.js';
 import type { ScoredFile, SearchMatch, SectionMatch, SectionPlace, TranslationRef } from '../node/worker/workerProtocol.js';
 
 /** The matching passage of a search result, shown as a row under it with the query's words marked. */
@@ -58,6 +59,8 @@ export interface ResultEntry {
   readonly line?: number;
   /** The terms contributing most to the score, for the tooltip (explainTooltip.ts). */
   readonly why?: Why;
+  /** What the tooltip explains (default: nearby without a line, search with one). */
+  readonly whyKind?: WhyKind;
   /** Rows under it: the matching passage and the same page in other languages. */
   readonly children?: readonly ResultNode[];
   /** Open its children at first (a search result's passage) or leave them folded (translations only). */
@@ -264,8 +267,10 @@ function sectionLine(s: SectionPlace | undefined): string {
 }
 
 /** Rows for sections as results (section search, Nearby at the cursor): titled, opening at their first line. */
-export function sectionEntries(matches: readonly SectionMatch[], multiRoot: boolean): ResultEntry[] {
+export function sectionEntries(matches: readonly SectionMatch[], multiRoot: boolean, from: 'search' | 'nearby' = 'search'): ResultEntry[] {
   return matches.map((m) => ({
+    why: m.why,
+    whyKind: from === 'nearby' ? 'nearbySection' : 'searchSection',
     key: `${m.key}#${m.start}`,
     fsPath: m.fsPath,
     label: m.title,

@@ -60,21 +60,25 @@ describe('undertone command line', () => {
 
   it('ranks sections with --sections and lists the sections nearest to a line with nearby --line', async () => {
     const target = cran.docs[20];
-    const res = await run('ask', folder, target.text.slice(0, 120), '--top', '3', '--sections', '--json');
+    const res = await run('ask', folder, target.text.slice(0, 120), '--top', '3', '--sections', '--explain', '--json');
     expect(res.code).toBe(0);
+    type Explained = { score: number; explain: { score: number; terms: { term: string; inBoth: boolean }[] } };
     const parsed = JSON.parse(res.out) as {
-      sections: { path: string; title: string; startLine: number; endLine: number; score: number }[];
+      sections: ({ path: string; title: string; startLine: number; endLine: number } & Explained)[];
     };
     expect(parsed.sections).toHaveLength(3);
     expect(parsed.sections.map((s) => s.path)).toContain(`notes/${target.id}.md`);
     for (const s of parsed.sections) expect(s.endLine).toBeGreaterThanOrEqual(s.startLine);
-    const near = await run('nearby', folder, `notes/${target.id}.md`, '--line', '1', '--json');
+    // Each section's why adds up to the section's own score (rounded to 4 places in the JSON).
+    for (const s of parsed.sections) expect(s.explain.score).toBeCloseTo(s.score, 3);
+    const near = await run('nearby', folder, `notes/${target.id}.md`, '--line', '1', '--explain', '--json');
     expect(near.code).toBe(0);
-    const n = JSON.parse(near.out) as { section: { path: string; startLine: number }; results: { path: string }[] };
+    const n = JSON.parse(near.out) as { section: { path: string; startLine: number }; results: ({ path: string } & Explained)[] };
     expect(n.section.path).toBe(`notes/${target.id}.md`);
     expect(n.section.startLine).toBe(1);
     expect(n.results.length).toBeGreaterThan(0);
     expect(n.results.every((r) => r.path !== n.section.path)).toBe(true);
+    for (const r of n.results) expect(r.explain.score).toBeCloseTo(r.score, 3);
   });
 
   it('answers a batch of queries, one JSON line per query id', async () => {

@@ -84,4 +84,19 @@ describe('why tooltips', () => {
     expect(text).toContain('| other concepts | 0.100 |');
     expect(text).toContain('| distinctive words both files use | 0.300 |');
   });
+
+  it('speaks of sections for section results', () => {
+    const near = whyMarkdown(
+      'Refund window\nScore: 0.62',
+      { ...why, concepts: [{ words: ['refund'], share: 0.4 }], conceptRest: 0.22 },
+      'nearbySection',
+    );
+    expect(near).toContain('the concepts both sections share');
+    expect(near).toContain('_Italic_: not in both sections');
+    expect(near).not.toContain('files');
+    const found = whyMarkdown('Refund window\nScore: 0.62', why, 'searchSection');
+    expect(found).toContain('Why it matches');
+    expect(found).toContain('_Italic_: not in the query and the section');
+    expect(found).toContain('word-match part is the whole file’s');
+  });
 });

@@ -29,6 +29,17 @@ describe('map panel session', () => {
     expect(s.fileToOpen({ type: 'open', index: -1, path: 'notes/a.md' })).toBeUndefined();
   });
 
+  it('opens a section of the trail only when the page names a point of the trail it was sent', () => {
+    const s = new MapSession(mapResult());
+    expect(s.sectionToOpen({ type: 'openSection', point: 0 })).toBeUndefined();
+    const point = (title: string, start: number, end: number) => ({ title, start, end, quick: { x: 0, y: 0 }, faithful: null });
+    s.setTrail('/w/src/b.ts', { path: 'src/b.ts', points: [point('parse', 0, 12), point('format', 12, 30)] });
+    expect(s.sectionToOpen({ type: 'openSection', point: 1 })).toEqual({ fsPath: '/w/src/b.ts', line: 12 });
+    expect(s.sectionToOpen({ type: 'openSection', point: 2 })).toBeUndefined();
+    s.setTrail(null, null);
+    expect(s.sectionToOpen({ type: 'openSection', point: 1 })).toBeUndefined();
+  });
+
   it('finds the dot of the file in the active editor', () => {
     const s = new MapSession(mapResult());
     expect(s.rowOf('/w/src/c.ts')).toBe(2);

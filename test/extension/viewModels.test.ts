@@ -166,6 +166,13 @@ describe('sections in results', () => {
       line: 20,
     });
   });
+
+  it('carries the why of a section to its tooltip, as a search or a nearby section', () => {
+    const why = { score: 0.5, terms: [{ word: 'refund', share: 0.5, inBoth: true }], rest: 0, restTerms: 0 };
+    const m = { ...hit('notes/refunds.md', 0.5), title: 'Refund window', start: 20, end: 41, why };
+    expect(sectionEntries([m], false)[0]).toMatchObject({ why, whyKind: 'searchSection' });
+    expect(sectionEntries([m], false, 'nearby')[0]).toMatchObject({ why, whyKind: 'nearbySection' });
+  });
 });
 
 describe('search feedback (More Like This / Fewer Like This)', () => {

@@ -8,6 +8,9 @@
  * the index's own terms), and the score threshold that best separates hidden links from the other
  * suggestions (best F1), to check on another collection.
  */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { gunzipSync } from 'node:zlib';
 import { createRandom } from '../../src/core/random.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { LinkGraph } from '../../src/core/links/linkGraph.js';
@@ -158,4 +161,40 @@ export function tfidfRanker(index: LsiIndex): Ranker {
     }
     return best.map((i) => ({ path: keys[i], score: scores[i] }));
   };
+}
+
+/** Each page's links with their visible words (a fixture's anchors.jsonl.gz, scripts/fixtures/doc_links.py). */
+export function loadAnchors(dir: string): Map<string, [string, string][]> {
+  const text = gunzipSync(readFileSync(join(dir, 'anchors.jsonl.gz'))).toString('utf8');
+  const out = new Map<string, [string, string][]>();
+  for (const line of text.split('\n'))
+    if (line.length > 0) {
+      const { id, links } = JSON.parse(line) as { id: string; links: [string, string][] };
+      out.set(id, links);
+    }
+  return out;
+}
+
+/**
+ * The stricter reading of "hide a link": its visible words leave the text as well. Each hidden
+ * link's words are cut from its page once (the first place they still stand; a page links the
+ * same words from one place in most cases, and the count of words cut is right either way).
+ */
+export function withoutHiddenAnchors(
+  docs: readonly { id: string; text: string }[],
+  anchors: ReadonlyMap<string, readonly [string, string][]>,
+  hidden: ReadonlySet<string>,
+): { id: string; text: string; cut: number }[] {
+  return docs.map((d) => {
+    let text = d.text;
+    let cut = 0;
+    for (const [to, words] of anchors.get(d.id) ?? []) {
+      if (!hidden.has(pairId(d.id, to))) continue;
+      const at = text.indexOf(words);
+      if (at < 0) continue;
+      text = `${text.slice(0, at)} ${text.slice(at + words.length)}`;
+      cut++;
+    }
+    return { id: d.id, text, cut };
+  });
 }

@@ -3,16 +3,25 @@
 scikit-learn (Debian python3-sklearn). Reads one JSON file (argv[1]) and writes JSON to stdout.
 
 Input: {"counts": {"rows", "cols", "indptr", "indices", "data"}  file × term counts,
+        "nameable": [...]                                         columns NMF may name a topic by,
+        "nmfK": [K, ...]                                           NMF component counts (one per level),
+        "topTerms": N, "seed": s,
+        optional, for the agreement with folders:
         "vectors": [...], "dims": d                                the files' unit concept vectors,
         "folders": [...]                                          the folder label of each file,
-        "levels": [{"k": K, "ours": [...]}]                       our topic label of each file,
-        "topTerms": N, "seed": s}
-Output: {"levels": [{"k", "nmfTop": [[col, ...], ...], "kmeansNmi", "oursNmi"}], "version"}
+        "levels": [{"ks": [K, ...], "ours": [[...], ...],         per seed: our topic count and each file's label
+                    "loose": [...]}]                               optional: 1 for a file our first seed's run sets apart
+        "seeds": [s, ...]}                                         the seeds (k-means' random_state)
+Output: {"nmfTop": [[[col, ...], ...], ...], "levels": [{"kmeansNmi": [...], "oursNmi": [...],
+         "looseOwn", "looseDropped", "kmeansDropped": [...]}], "version"}
 
 NMF as in scikit-learn's own topic-extraction example: TF-IDF of the counts (sublinear tf,
 terms in at least 2 files and at most 95% of them), NMF with NNDSVD start, Frobenius loss.
-k-means: KMeans(n_clusters=K, n_init=10) on the same concept vectors. NMI: the arithmetic-mean
-normalisation (scikit-learn's default).
+k-means: KMeans(n_clusters=K, n_init=10, random_state=seed) on the same concept vectors, for each
+seed with the number of topics our tree has at that level with that seed. NMI: the
+arithmetic-mean normalisation (scikit-learn's default). With "loose": our labels with the files
+set apart as one more cluster (looseOwn), and both sides scored on the files we keep in a topic
+(looseDropped against kmeansDropped).
 """
 import json, sys
 
@@ -22,7 +31,7 @@ import sklearn
 from sklearn.cluster import KMeans
 from sklearn.decomposition import NMF
 from sklearn.feature_extraction.text import TfidfTransformer
-from sklearn.metrics import normalized_mutual_info_score
+from sklearn.metrics import normalized_mutual_info_score as nmi
 
 
 def main():
@@ -33,21 +42,28 @@ def main():
     df = np.asarray((counts > 0).sum(axis=0)).ravel()
     keep = np.flatnonzero((df >= 2) & (df <= 0.95 * counts.shape[0]) & np.array(q.get('nameable', [True] * counts.shape[1])))
     tfidf = TfidfTransformer(sublinear_tf=True).fit_transform(counts[:, keep])
-    vectors = np.array(q['vectors'], dtype=np.float64).reshape(-1, q['dims'])
-    folders = q['folders']
-    out = []
-    for level in q['levels']:
-        k = level['k']
+    nmf_top = []
+    for k in q['nmfK']:
         nmf = NMF(n_components=k, init='nndsvd', random_state=q['seed'], max_iter=400).fit(tfidf)
-        top = [[int(keep[j]) for j in np.argsort(-row)[: q['topTerms']]] for row in nmf.components_]
-        km = KMeans(n_clusters=k, n_init=10, random_state=q['seed']).fit(vectors)
-        out.append({
-            'k': k,
-            'nmfTop': top,
-            'kmeansNmi': float(normalized_mutual_info_score(folders, km.labels_)),
-            'oursNmi': float(normalized_mutual_info_score(folders, level['ours'])),
-        })
-    json.dump({'levels': out, 'version': sklearn.__version__}, sys.stdout)
+        nmf_top.append([[int(keep[j]) for j in np.argsort(-row)[: q['topTerms']]] for row in nmf.components_])
+    out = []
+    if 'levels' in q:
+        vectors = np.array(q['vectors'], dtype=np.float64).reshape(-1, q['dims'])
+        folders = np.array(q['folders'])
+        for level in q['levels']:
+            km = [KMeans(n_clusters=k, n_init=10, random_state=s).fit(vectors).labels_ for s, k in zip(q['seeds'], level['ks'])]
+            fig = {
+                'kmeansNmi': [float(nmi(folders, labels)) for labels in km],
+                'oursNmi': [float(nmi(folders, ours)) for ours in level['ours']],
+            }
+            if 'loose' in level:
+                loose = np.array(level['loose']) == 1
+                first = np.array(level['ours'][0])
+                fig['looseOwn'] = float(nmi(folders, np.where(loose, -1, first)))
+                fig['looseDropped'] = float(nmi(folders[~loose], first[~loose]))
+                fig['kmeansDropped'] = [float(nmi(folders[~loose], labels[~loose])) for labels in km]
+            out.append(fig)
+    json.dump({'nmfTop': nmf_top, 'levels': out, 'version': sklearn.__version__}, sys.stdout)
 
 
 if __name__ == '__main__':

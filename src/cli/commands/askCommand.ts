@@ -2,13 +2,15 @@
  * `undertone ask <folder> "<text>"` (with `--like FILE` / `--unlike FILE` to steer it by files,
  * repeatable) and batch mode `--queries file.jsonl`.
  */
-import { relative, resolve } from 'node:path';
+import { join, relative, resolve } from 'node:path';
 import { InvalidInputError, NoKnownTermsError, NotIndexedError } from '../../core/errors.js';
 import { QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
 import { bestSections, searchSections } from '../../core/sections/sectionSearch.js';
 import type { SectionHit } from '../../core/sections/sectionStore.js';
+import { sectionSide, type SectionSide } from '../../core/sections/sectionTerms.js';
+import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
 import { readQueries } from '../queryFiles.js';
@@ -39,7 +41,7 @@ export async function askCommand(folder: string, text: string | undefined, flags
     );
   const { index } = await ensureIndex(folder, flags, io);
   const feedback = { like: likes.map((f) => indexedKey(index, folder, f)), unlike: unlikes.map((f) => indexedKey(index, folder, f)) };
-  if (flags.sections) printSections(index, text ?? '', top, flags, io, feedback);
+  if (flags.sections) await printSections(index, folder, text ?? '', top, flags, io, feedback);
   else printHits(index, text ?? '', top, flags, io, feedback);
   return 0;
 }
@@ -129,23 +131,76 @@ export function round(x: number): number {
   return Math.round(x * 10000) / 10000;
 }
 
-/** `--sections`: sections ranked instead of files (src/core/sections/sectionSearch.ts). */
-function printSections(
+/**
+ * `--sections`: sections ranked instead of files (src/core/sections/sectionSearch.ts); with
+ * `--explain`, each section's why from its own vector and terms (the file is read again).
+ */
+async function printSections(
   index: LsiIndex,
+  folder: string,
   text: string,
   top: number,
   flags: Flags,
   io: Io,
   feedback: { like: string[]; unlike: string[] },
-): void {
+): Promise<void> {
   if (index.sections.count === 0) io.err('note: this index has no sections (built with --skip-sections); rebuild it to rank sections.');
   const hits = searchSections(index, text, { top, ...feedback });
+  const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
+  forms.add(text);
+  let why: (h: SectionHit) => Explanation | null = () => null;
+  if (flags.explain) {
+    const explainer = new QueryExplainer(index, text, true, feedback);
+    const { sides } = await sectionSides(index, folder, hits);
+    why = (h) => {
+      const side = sides.get(h);
+      return side ? explainer.explainSection(h.path, side) : null;
+    };
+  }
   if (flags.json) {
-    io.out(JSON.stringify({ query: text, sections: hits.map((h) => ({ path: h.path, score: round(h.score), ...sectionJson(h) })) }));
+    const sections = hits.map((h) => {
+      const e = why(h);
+      return { path: h.path, score: round(h.score), ...sectionJson(h), ...(e ? { explain: explanationJson(e, forms) } : {}) };
+    });
+    io.out(JSON.stringify({ query: text, sections }));
     return;
   }
   const rows = hits.map((h, i) => [String(i + 1), h.score.toFixed(3), `${h.path}:${h.start + 1}`, sectionLabel(h)]);
-  formatTable(['rank', 'score', 'place', 'section'], rows, [true, true, false, false]).forEach((l) => io.out(l));
+  const lines = formatTable(['rank', 'score', 'place', 'section'], rows, [true, true, false, false]);
+  lines.slice(0, 2).forEach((l) => io.out(l));
+  hits.forEach((h, i) => {
+    io.out(lines[i + 2]);
+    const e = why(h);
+    if (e) io.out(explanationLine(e, forms));
+    else if (flags.explain) io.out('        why: (the file changed since it was indexed; run index again)');
+  });
+  if (flags.explain && hits.length > 0)
+    io.out(
+      "why: each word's share of the section's score, from the section's own words (the word-match part is the whole file's); ~ marks a word not in the section.",
+    );
+}
+
+/**
+ * Each hit's section side (its terms counted again from the file on disk); a hit whose file cannot
+ * be read or changed since the index was built has none.
+ */
+export async function sectionSides(
+  index: LsiIndex,
+  folder: string,
+  hits: readonly SectionHit[],
+): Promise<{ sides: Map<SectionHit, SectionSide>; texts: string[] }> {
+  const texts = new Map<string, string | null>();
+  const out = new Map<SectionHit, SectionSide>();
+  for (const h of hits) {
+    if (!texts.has(h.path)) {
+      const got = await readIndexableText(join(resolve(folder), h.path), DEFAULT_MAX_FILE_BYTES).catch(() => null);
+      texts.set(h.path, got?.kind === 'text' ? got.text : null);
+    }
+    const text = texts.get(h.path);
+    const side = text == null ? null : sectionSide(index, h.path, h.index, text);
+    if (side) out.set(h, side);
+  }
+  return { sides: out, texts: [...texts.values()].filter((t) => t !== null) };
 }
 
 /** "Title (lines 12–40)", one-based as an editor shows lines. */

@@ -1,12 +1,13 @@
 /** `undertone nearby <folder> <file>`: the files nearest in meaning to one file. */
 import { join, relative, resolve } from 'node:path';
 import { InvalidInputError, NotIndexedError } from '../../core/errors.js';
-import { explainPair } from '../../core/explain/explain.js';
+import { explainPair, explainSides, type Explanation } from '../../core/explain/explain.js';
+import type { SectionHit } from '../../core/sections/sectionStore.js';
 import { SurfaceForms } from '../../core/text/surfaceForms.js';
 import { DEFAULT_MAX_FILE_BYTES, readIndexableText } from '../../node/scan.js';
 import { ensureIndex, positiveInt, type Flags } from '../context.js';
 import { formatTable, type Io } from '../output.js';
-import { explanationJson, explanationLine, round, sectionLabel } from './askCommand.js';
+import { explanationJson, explanationLine, round, sectionLabel, sectionSides } from './askCommand.js';
 import { nearbySections } from '../../core/sections/sectionSearch.js';
 
 export async function nearbyCommand(folder: string, file: string | undefined, flags: Flags, io: Io): Promise<number> {
@@ -21,14 +22,40 @@ export async function nearbyCommand(folder: string, file: string | undefined, fl
     const line = positiveInt(flags.line ?? '1', 'line')!;
     const near = nearbySections(index, key, line - 1, { top });
     if (!near) throw new InvalidInputError(`"${key}" has no sections in this index (built with --skip-sections?)`);
+    const forms = new SurfaceForms({ stem: index.settings.tokenize.stem });
+    let why: (h: SectionHit) => Explanation | null = () => null;
+    if (flags.explain) {
+      const { sides, texts } = await sectionSides(index, folder, [near.from, ...near.hits]);
+      const from = sides.get(near.from);
+      for (const t of texts) forms.add(t);
+      why = (h) => {
+        const to = sides.get(h);
+        return from && to ? explainSides(index, from, to) : null;
+      };
+    }
     if (flags.json) {
       const place = (h: typeof near.from) => ({ path: h.path, title: h.title, startLine: h.start + 1, endLine: h.end });
-      io.out(JSON.stringify({ section: place(near.from), results: near.hits.map((h) => ({ ...place(h), score: round(h.score) })) }));
+      const results = near.hits.map((h) => {
+        const e = why(h);
+        return { ...place(h), score: round(h.score), ...(e ? { explain: explanationJson(e, forms) } : {}) };
+      });
+      io.out(JSON.stringify({ section: place(near.from), results }));
       return 0;
     }
     io.out(`near ${key}: ${sectionLabel(near.from)}`);
     const rows = near.hits.map((h, i) => [String(i + 1), h.score.toFixed(3), `${h.path}:${h.start + 1}`, sectionLabel(h)]);
-    formatTable(['rank', 'score', 'place', 'section'], rows, [true, true, false, false]).forEach((l) => io.out(l));
+    const lines = formatTable(['rank', 'score', 'place', 'section'], rows, [true, true, false, false]);
+    lines.slice(0, 2).forEach((l) => io.out(l));
+    near.hits.forEach((h, i) => {
+      io.out(lines[i + 2]);
+      const e = why(h);
+      if (e) io.out(explanationLine(e, forms));
+      else if (flags.explain) io.out('        why: (a file changed since it was indexed; run index again)');
+    });
+    if (flags.explain && near.hits.length > 0)
+      io.out(
+        "why: each word's share of the similarity of the two sections (the shares add up to the score); ~ marks a word found in only one of them.",
+      );
     return 0;
   }
   const hits = index.nearby(key, { top });

@@ -87,7 +87,7 @@ function toJson(r: LookalikeReport, threshold: number, extra: Extra): unknown {
     lines: p.lines,
     sharedWords: p.sharedWords,
     words: p.words,
-    ...(p.cosine === undefined ? {} : { cosine: round(p.cosine), margin: round(p.gap ?? 0) }),
+    ...(p.cosine === undefined ? {} : { cosine: round(p.cosine), margin: round(p.gap ?? 0), names: p.sharedNames ?? 0 }),
   });
   return {
     threshold,
@@ -122,11 +122,11 @@ function describe(r: LookalikeReport, threshold: number, top: number, extra: Ext
   const section = (title: string, pairs: readonly LookalikePair[], retold: boolean): void => {
     if (pairs.length === 0) return;
     lines.push('', `${title}: ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`);
-    const header = [...(retold ? ['cosine', 'margin'] : []), 'jaccard', 'shared', 'file', 'file'];
+    const header = [...(retold ? ['cosine', 'margin', 'names'] : []), 'jaccard', 'shared', 'file', 'file'];
     const rows = pairs
       .slice(0, top)
       .map((p) => [
-        ...(retold ? [(p.cosine ?? 0).toFixed(2), (p.gap ?? 0).toFixed(2)] : []),
+        ...(retold ? [(p.cosine ?? 0).toFixed(2), (p.gap ?? 0).toFixed(2), String(p.sharedNames ?? 0)] : []),
         p.jaccard.toFixed(2),
         describeShared(p),
         p.a,

@@ -16,11 +16,21 @@
  * feedback (index/search/fusion.ts) the query vector is q′ = s·x/‖x‖ + f: the words keep their
  * shares scaled by s, and (1 − λ)·f·d̂ is reported apart as the feedback part.
  * Nearby score: (1 − μ)·cos + μ·BM25 of the first file's distinctive terms / max, split the same way.
+ * Sections (core/sections) are explained by the same sums with the section's own vector and terms
+ * in place of the file's: a section search score is (1 − λ)·cos(q′, ŝ) + λ·BM25(file)/max
+ * (sectionSearch.ts), so the concept shares use ŝ and the word-match shares stay the file's; a
+ * section's Nearby score is the cosine of two section vectors, split over both sections' terms.
  */
 import { NoKnownTermsError } from '../errors.js';
 import type { LsiIndex, SearchOptions } from '../index/lsiIndex.js';
 import type { DocTerms } from '../counting/termCounts.js';
 import { weightDocument } from '../weighting/termWeighting.js';
+
+/** One side of a similarity: its raw term counts and the unit concept vector scored with. */
+export interface ExplainSide {
+  readonly terms: DocTerms;
+  readonly vector: Float32Array;
+}
 
 export interface TermShare {
   /** The index term (a stem when stemming is on). */
@@ -97,7 +107,19 @@ export class QueryExplainer {
   }
 
   explain(path: string): Explanation {
-    const d = this._index.vectorOf(path);
+    return this.explainAgainst(path, this._index.vectorOf(path), null);
+  }
+
+  /**
+   * A section of `path` as a search result (sectionSearch.ts): the concept shares against the
+   * section's vector, a term in both when the section has it; the word-match shares are the file's,
+   * as the section's score takes the file's BM25.
+   */
+  explainSection(path: string, section: ExplainSide): Explanation {
+    return this.explainAgainst(path, section.vector, section.terms);
+  }
+
+  private explainAgainst(path: string, d: Float32Array, own: DocTerms | null): Explanation {
     const doc = this._index.termsOf(path);
     const slot = this._slotOf.get(path)!;
     const bm25 = this._index.bm25();
@@ -110,7 +132,8 @@ export class QueryExplainer {
         this._lambda > 0 && this._maxBm25 > 0
           ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot, this._index.ranking.lengthNorm)) / this._maxBm25
           : 0;
-      if (concept !== 0 || lexical !== 0) out.push({ term: vocab.termOf(id), share: concept + lexical, concept, lexical, inBoth: tf > 0 });
+      const inBoth = (own ? countOf(own, id) : tf) > 0;
+      if (concept !== 0 || lexical !== 0) out.push({ term: vocab.termOf(id), share: concept + lexical, concept, lexical, inBoth });
     });
     return finish(out, this._moved ? this._conceptWeight * dotF(this._moved, d) : 0);
   }
@@ -153,6 +176,33 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
   for (const [id, { concept, lexical }] of merged) {
     const share = concept + lexical;
     if (share !== 0) out.push({ term: index.vocab.termOf(id), share, concept, lexical, inBoth: countOf(a, id) > 0 && countOf(b, id) > 0 });
+  }
+  return finish(out);
+}
+
+/**
+ * Why two sides (sections, or a section and a file) are near: the cosine of their concept
+ * vectors, each term of either side getting its symmetric share (as explainPair with fused =
+ * false), inBoth when both sides have the term. Nearby at a section ranks by this cosine alone.
+ */
+export function explainSides(index: LsiIndex, a: ExplainSide, b: ExplainSide): Explanation {
+  const merged = new Map<number, number>();
+  for (const [terms, other] of [
+    [a.terms, b.vector],
+    [b.terms, a.vector],
+  ] as const) {
+    for (const { id, r } of conceptRows(index, terms).rows) if (r) merged.set(id, (merged.get(id) ?? 0) + 0.5 * dotF(r, other));
+  }
+  const out: TermShare[] = [];
+  for (const [id, share] of merged) {
+    if (share !== 0)
+      out.push({
+        term: index.vocab.termOf(id),
+        share,
+        concept: share,
+        lexical: 0,
+        inBoth: countOf(a.terms, id) > 0 && countOf(b.terms, id) > 0,
+      });
   }
   return finish(out);
 }

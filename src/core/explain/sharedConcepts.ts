@@ -9,7 +9,10 @@
  * Nearby's score blends the cosine with a word-match part (LsiIndex.nearby: (1 − μ)·cosine +
  * μ·BM25 of A's distinctive terms in B over the best other file's); the concept parts are
  * weighted by 1 − μ and the word-match part is reported apart, so the parts still add up to it.
+ * Sections (sharedSectionConcepts): the same over two section vectors, named by the sections' own
+ * terms; Nearby at a section ranks by the cosine alone, so there is no word-match part.
  */
+import type { ExplainSide } from './explain.js';
 import type { LsiIndex } from '../index/lsiIndex.js';
 
 export interface SharedConcept {
@@ -41,27 +44,49 @@ export interface SharedConceptOptions {
 export const DEFAULT_SHARED_CONCEPT_OPTIONS: SharedConceptOptions = { top: 3, words: 3 };
 
 export function sharedConcepts(index: LsiIndex, a: string, b: string, options: Partial<SharedConceptOptions> = {}): SharedConcepts {
-  const o = { ...DEFAULT_SHARED_CONCEPT_OPTIONS, ...options };
-  const va = index.vectorOf(a);
-  const vb = index.vectorOf(b);
-  const k = index.k;
   const mu = index.ranking.nearbyLexical;
-  const parts = Array.from({ length: k }, (_, j) => ({ axis: j, share: (1 - mu) * va[j] * vb[j] }));
-  const conceptScore = parts.reduce((s, p) => s + p.share, 0);
   let wordMatch = 0;
   if (mu > 0) {
     const { lexical } = index.nearbyPlan(a);
     const slotB = index.slots().findIndex((slot) => slot?.meta.path === b);
     if (slotB >= 0) wordMatch = mu * lexical[slotB];
   }
+  const side = (p: string): ExplainSide => ({ terms: index.termsOf(p), vector: index.vectorOf(p) });
+  return conceptsOf(index, side(a), side(b), 1 - mu, wordMatch, options);
+}
+
+/** The concepts two sections share (their cosine, the score of Nearby at a section), named by their own terms. */
+export function sharedSectionConcepts(
+  index: LsiIndex,
+  a: ExplainSide,
+  b: ExplainSide,
+  options: Partial<SharedConceptOptions> = {},
+): SharedConcepts {
+  return conceptsOf(index, a, b, 1, 0, options);
+}
+
+function conceptsOf(
+  index: LsiIndex,
+  a: ExplainSide,
+  b: ExplainSide,
+  weight: number,
+  wordMatch: number,
+  options: Partial<SharedConceptOptions>,
+): SharedConcepts {
+  const o = { ...DEFAULT_SHARED_CONCEPT_OPTIONS, ...options };
+  const va = a.vector;
+  const vb = b.vector;
+  const k = index.k;
+  const parts = Array.from({ length: k }, (_, j) => ({ axis: j, share: weight * va[j] * vb[j] }));
+  const conceptScore = parts.reduce((s, p) => s + p.share, 0);
   const chosen = [...parts]
     .sort((x, y) => y.share - x.share || x.axis - y.axis)
     .slice(0, o.top)
     .filter((p) => p.share > 0);
   const model = index.model;
-  const columns = (path: string) => {
+  const columns = (side: ExplainSide) => {
     const out = new Set<number>();
-    for (const id of index.termsOf(path).termIds) {
+    for (const id of side.terms.termIds) {
       const c = id < model.columnOf.length ? model.columnOf[id] : -1;
       if (c >= 0) out.add(c);
     }

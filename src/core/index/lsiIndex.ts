@@ -87,6 +87,7 @@ export class LsiIndex {
   private readonly _changes = new ChangeCounters();
   private _filler: ReadonlySet<string> | null = null;
   private _mainLanguage: Language | undefined;
+  private _languagesPresent: readonly Language[] | undefined;
   /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
   ranking: RankingOptions = DEFAULT_RANKING_OPTIONS;
   /** Each file's sections with their concept vectors (src/core/sections), saved with the index. */
@@ -169,7 +170,7 @@ export class LsiIndex {
    * (fusion.ts) are left out when known words remain without them.
    */
   queryTerms(text: string): DocTerms {
-    const language = queryLanguage(text, this.settings.tokenize.languages, this.mainLanguage());
+    const language = queryLanguage(text, this.settings.tokenize.languages, this.mainLanguage(), this.languagesPresent());
     const tokens = tokenizeIn(text, this.settings.tokenize, language);
     if (this.ranking.dropFiller) {
       this._filler ??= new Set(tokenize(QUESTION_FILLER.join(' '), this.settings.tokenize));
@@ -190,13 +191,25 @@ export class LsiIndex {
    */
   mainLanguage(): Language {
     if (this._mainLanguage === undefined) {
-      const count = new Map<Language, number>();
-      for (const s of this._slots) if (s) count.set(s.meta.language ?? 'en', (count.get(s.meta.language ?? 'en') ?? 0) + 1);
+      const count = this.languageCounts();
       let best: Language = 'en';
       for (const [lang, n] of count) if (n > (count.get(best) ?? 0)) best = lang;
       this._mainLanguage = best;
+      this._languagesPresent = [...count.keys()];
     }
     return this._mainLanguage;
+  }
+
+  /** The languages the documents were tokenized in (a question is read in one of them). */
+  languagesPresent(): readonly Language[] {
+    this.mainLanguage();
+    return this._languagesPresent ?? [];
+  }
+
+  private languageCounts(): Map<Language, number> {
+    const count = new Map<Language, number>();
+    for (const s of this._slots) if (s) count.set(s.meta.language ?? 'en', (count.get(s.meta.language ?? 'en') ?? 0) + 1);
+    return count;
   }
 
   /** Concept vector of free text (zeros if no model term occurs). */

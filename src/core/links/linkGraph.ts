@@ -4,7 +4,7 @@
  * style the notes write (for linkStyle.ts). Two notes are linked when either links to the other.
  */
 import { InvalidInputError } from '../errors.js';
-import { readLinks, type LinkKind } from './linkReader.js';
+import { readLinks, type LinkKind, type RawLink } from './linkReader.js';
 import { LinkResolver, type ResolveOptions } from './linkResolver.js';
 import { NoteCatalogue, noteTitle, type NoteCatalogueOptions } from './noteCatalogue.js';
 
@@ -12,6 +12,18 @@ export interface NoteText {
   /** The note's index key. */
   readonly key: string;
   readonly text: string;
+}
+
+/** A note's title and written links (what the graph needs of its text). */
+export interface ParsedNote {
+  readonly key: string;
+  readonly title: string;
+  readonly links: readonly RawLink[];
+}
+
+/** Reads a note's title and links. */
+export function parseNote(note: NoteText): ParsedNote {
+  return { key: note.key, title: noteTitle(note.key, note.text), links: readLinks(note.text) };
 }
 
 export type LinkGraphOptions = NoteCatalogueOptions & ResolveOptions;
@@ -27,17 +39,26 @@ export class LinkGraph {
   /** Reads every note's links. Notes that are not notes by their ending are ignored. */
   static fromNotes(notes: readonly NoteText[], options: Partial<LinkGraphOptions> = {}): LinkGraph {
     const catalogue = new NoteCatalogue(options);
+    return LinkGraph.fromParsed(notes.filter((n) => catalogue.isNote(n.key)).map(parseNote), options);
+  }
+
+  /**
+   * The graph of notes already read (parseNote): titles and links are resolved anew, so a
+   * caller that keeps each note's parse re-reads only the notes that changed.
+   */
+  static fromParsed(notes: readonly ParsedNote[], options: Partial<LinkGraphOptions> = {}): LinkGraph {
+    const catalogue = new NoteCatalogue(options);
     const kept = notes.filter((n) => catalogue.isNote(n.key));
     const seen = new Set<string>();
     for (const n of kept) {
       if (seen.has(n.key)) throw new InvalidInputError(`the note "${n.key}" is given twice`);
       seen.add(n.key);
-      catalogue.add(n.key, noteTitle(n.key, n.text));
+      catalogue.add(n.key, n.title);
     }
     const graph = new LinkGraph(catalogue);
     const resolver = new LinkResolver(catalogue, options);
     for (const n of kept) {
-      for (const r of resolver.resolveAll(n.key, readLinks(n.text))) {
+      for (const r of resolver.resolveAll(n.key, n.links)) {
         graph.styleCounts[r.link.kind]++;
         graph.addLink(r.from, r.to);
       }

@@ -13,7 +13,8 @@
  *    partialThreshold ≤ J < threshold → partial copy. Texts with fewer than w tokens are counted
  *    in stats.skippedShort and skipped.
  * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
- *    file's other neighbours, little shared text).
+ *    file's other neighbours, or a little clear and holding the same rare names (rareNames.ts)
+ *    when neither is a stub; little shared text).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */
@@ -22,6 +23,7 @@ import { bandCandidates } from './banding.js';
 import { contentHash, isBlankText } from './contentHash.js';
 import { createMinHasher, estimateJaccard } from './minhash.js';
 import { resolveLookalikeOptions, type LookalikeOptions } from './options.js';
+import { rareNameIndex } from './rareNames.js';
 import { boilerplateLines, findRetoldPairs, lineKey, withoutBoilerplate } from './retold.js';
 import { buildTermSpace, termNeighbours, termSpaceFromCounts, type TermCountRow, type TermSpace } from './termSpace.js';
 import { lineCounts, nonBlankLineCount, sharedLineCount } from './sharedLines.js';
@@ -82,6 +84,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   // 2. Shingles and MinHash signatures of the representatives.
   const shingled: number[] = [];
   const sets: Uint32Array[] = [];
+  const tokenCounts: number[] = [];
   let skippedShort = 0;
   for (const r of reps) {
     const s = shingleSet(files[r].text, o.shingleSize);
@@ -91,6 +94,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     }
     shingled.push(r);
     sets.push(s.hashes);
+    tokenCounts.push(s.tokens);
   }
   const m = shingled.length;
   const k = o.numHashes;
@@ -180,13 +184,30 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   };
   const K = o.neighbours;
   const termLists = collapse((t) => ({ index: nb.index.subarray(t * K, t * K + K), cosine: nb.cosine.subarray(t * K, t * K + K) }));
-  const rule = { minCosine: o.retoldMinCosine, minGap: o.retoldMinGap };
-  const retold = findRetoldPairs({ ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard }, rule);
+  const rule = {
+    minCosine: o.retoldMinCosine,
+    minGap: o.retoldMinGap,
+    minNameGap: o.retoldNameMinGap,
+    minSharedNames: o.retoldMinSharedNames,
+    minNameShare: o.retoldMinNameShare,
+    minNameWords: o.retoldNameMinWords,
+    minWords: o.retoldMinWords,
+  };
+  const names = rareNameIndex(
+    shingled.map((f) => files[f].text),
+    o.retoldNameMaxDf,
+  );
+  const retold = findRetoldPairs(
+    { ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard, names: names.pair, words: tokenCounts },
+    rule,
+  );
   const retoldPairs = retold.map((p) => ({
     ...pairOf('retold', p.a, p.b, jac(p.a, p.b)),
     similarity: p.cosine,
     cosine: p.cosine,
     gap: p.gap,
+    sharedNames: p.sharedNames,
+    nameShare: p.nameShare,
   }));
 
   return {

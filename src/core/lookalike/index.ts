@@ -12,6 +12,7 @@ export {
   type TermSpace,
   type Neighbours,
 } from './termSpace.js';
+export { namesOf, rareNameIndex, type RareNames, type RareNameIndex } from './rareNames.js';
 export { findRetoldPairs, boilerplateLines, withoutBoilerplate, type RetoldPair } from './retold.js';
 export { contentHash, isBlankText, normaliseForHash } from './contentHash.js';
 export { shingleSet, shingleTokens, jaccardSorted, intersectionSize, type ShingleSet } from './shingles.js';

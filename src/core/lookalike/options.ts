@@ -27,6 +27,18 @@ export interface LookalikeOptions {
   readonly retoldMinGap: number;
   /** "Other words": the pair's Jaccard must be below this. @default 0.2 (our choice; chosen with retoldMinGap, as above) */
   readonly retoldMaxJaccard: number;
+  /** Clause b of the rule (retold.ts, rareNames.ts): least margin over each file's next neighbour when the pair shares its rare names. 1 turns the clause off. @default 0.1 (our choice; chosen leaving one source of test/fixtures/lookalike-retellings out, adding no pair over clause a's in the CMake reference test/fixtures/cmake-doc: bench/lookalikeNameClause.bench.ts, the fixture's README) */
+  readonly retoldNameMinGap: number;
+  /** Clause b: least number of rare names both files hold. @default 3 (as retoldNameMinGap) */
+  readonly retoldMinSharedNames: number;
+  /** Clause b: least share of the two files' rare-name weight held in common. @default 0.9 (as retoldNameMinGap) */
+  readonly retoldMinNameShare: number;
+  /** Clause b: least word count (shingle tokens) of the shorter file, so a stub pointing to another page does not pass. @default 100 (as retoldNameMinGap; the two folds chose 100 and 200) */
+  readonly retoldNameMinWords: number;
+  /** Both clauses: least word count (shingle tokens) of the shorter file; a stub page of a few dozen words does not tell the same content as another. @default 50 (our choice, on dev material only: it loses none of test/fixtures/lookalike-retellings' 34 found retellings and drops 19 of the 29 pairs the rule reports on the CMake reference test/fixtures/cmake-doc, all of them stub pages; measured with bench/lookalikeNameClause.bench.ts) */
+  readonly retoldMinWords: number;
+  /** A name is rare when at most this many files hold it (rareNames.ts). @default 10 (our choice, set by looking at the whole of test/fixtures/lookalike-retellings: 5, 10, 20, 30 compared; not held out) */
+  readonly retoldNameMaxDf: number;
   /** Seed for the MinHash family. @default DEFAULT_SEED (random.ts) */
   readonly seed: number;
 }
@@ -43,6 +55,12 @@ export const DEFAULT_LOOKALIKE_OPTIONS: LookalikeOptions = Object.freeze({
   retoldMinCosine: 0.5,
   retoldMinGap: 0.35,
   retoldMaxJaccard: 0.2,
+  retoldNameMinGap: 0.1,
+  retoldMinSharedNames: 3,
+  retoldMinNameShare: 0.9,
+  retoldNameMinWords: 100,
+  retoldMinWords: 50,
+  retoldNameMaxDf: 10,
   seed: DEFAULT_SEED,
 });
 
@@ -65,6 +83,15 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
   unitInterval('retoldMaxJaccard', o.retoldMaxJaccard);
   if (o.retoldMaxJaccard > o.partialThreshold)
     throw new InvalidInputError(`retoldMaxJaccard (${o.retoldMaxJaccard}) must not exceed partialThreshold (${o.partialThreshold})`);
+  if (!(o.retoldNameMinGap >= 0 && o.retoldNameMinGap <= 1))
+    throw new InvalidInputError(`retoldNameMinGap must be in [0, 1], got ${o.retoldNameMinGap}`);
+  positiveInteger('retoldMinSharedNames', o.retoldMinSharedNames);
+  unitInterval('retoldMinNameShare', o.retoldMinNameShare);
+  if (!(Number.isInteger(o.retoldMinWords) && o.retoldMinWords >= 0))
+    throw new InvalidInputError(`retoldMinWords must be a whole number ≥ 0, got ${o.retoldMinWords}`);
+  if (!(Number.isInteger(o.retoldNameMinWords) && o.retoldNameMinWords >= 0))
+    throw new InvalidInputError(`retoldNameMinWords must be a whole number ≥ 0, got ${o.retoldNameMinWords}`);
+  positiveInteger('retoldNameMaxDf', o.retoldNameMaxDf);
   positiveInteger('boilerplateFiles', o.boilerplateFiles);
   if (o.boilerplateFiles < 2) throw new InvalidInputError(`boilerplateFiles must be at least 2, got ${o.boilerplateFiles}`);
   positiveInteger('maxBucketSize', o.maxBucketSize);

@@ -10,16 +10,35 @@
  *    the file (shingle Jaccard ≥ partialThreshold) or with a nearer neighbour is skipped.
  * 3. A pair passes when the two files are each other's nearest neighbour (mutual nearest
  *    neighbours; Jarvis & Patrick 1973), share little text (Jaccard < maxJaccard), have a
- *    cosine ≥ minCosine, and that cosine stands at least minGap above each file's next neighbour
- *    (a margin against the file's own neighbourhood, as the margin scoring of Artetxe & Schwenk
- *    2019 for mining translation pairs). Pairs only: a file has at most one such partner, so
- *    nothing chains.
- * Score for ranking: the gap (strongest evidence first).
+ *    cosine ≥ minCosine, and either
+ *    a. that cosine stands at least minGap above each file's next neighbour (a margin against
+ *       the file's own neighbourhood, as the margin scoring of Artetxe & Schwenk 2019 for mining
+ *       translation pairs), or
+ *    b. it stands at least minNameGap above them, the two files hold the same rare names
+ *       (rareNames.ts: at least minSharedNames, share ≥ minNameShare) and the shorter one has at
+ *       least minNameWords words: a retelling repeats the options and identifiers of what it
+ *       tells, a same-area neighbour has other ones; a stub page that only points to another
+ *       (a property and the variable that sets its default) names the same thing without
+ *       telling it.
+ *    Either way the shorter file must have at least minWords words: a page of a few dozen words
+ *    (a stub that points to another page) is too short to tell the same content.
+ *    Pairs only: a file has at most one such partner, so nothing chains.
+ * Score for ranking: gap + name share (strongest evidence first).
  */
+
+import type { RareNames } from './rareNames.js';
 
 export interface RetoldParams {
   readonly minCosine: number;
   readonly minGap: number;
+  /** Clause b (needs RetoldInput.names): least margin, shared rare names and their share. */
+  readonly minNameGap?: number;
+  readonly minSharedNames?: number;
+  readonly minNameShare?: number;
+  /** Clause b: least word count of the shorter file (RetoldInput.words); a stub that points to another page is left to clause a. */
+  readonly minNameWords?: number;
+  /** Both clauses: least word count of the shorter file (RetoldInput.words). */
+  readonly minWords?: number;
 }
 
 export interface RetoldInput {
@@ -30,6 +49,10 @@ export interface RetoldInput {
   readonly jaccard: (a: number, b: number) => number;
   /** Pairs sharing this much text or more (Jaccard) are not "other words". */
   readonly maxJaccard: number;
+  /** Shared rare names of a pair (rareNames.ts); without it only clause a applies. */
+  readonly names?: (a: number, b: number) => RareNames;
+  /** Each file's word count (minWords, clause b's minNameWords); without it no count is checked. */
+  readonly words?: readonly number[];
 }
 
 export interface RetoldPair {
@@ -38,6 +61,11 @@ export interface RetoldPair {
   readonly cosine: number;
   /** cosine − the better of the two files' next-neighbour cosines. */
   readonly gap: number;
+  /** Rare names both hold and their share (0 without RetoldInput.names). */
+  readonly sharedNames: number;
+  readonly nameShare: number;
+  /** gap + nameShare: the ranking. */
+  readonly score: number;
 }
 
 export function findRetoldPairs(input: RetoldInput, params: RetoldParams): RetoldPair[] {
@@ -50,11 +78,21 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
     if (c < params.minCosine) continue;
     const next = Math.max(cosines[i][1] ?? 0, cosines[d][1] ?? 0);
     const gap = c - next;
-    if (gap < params.minGap) continue;
+    if (gap < Math.min(params.minGap, params.minNameGap ?? Infinity)) continue;
     if (input.jaccard(i, d) >= input.maxJaccard) continue;
-    out.push({ a: i, b: d, cosine: c, gap });
+    if (input.words !== undefined && Math.min(input.words[i], input.words[d]) < (params.minWords ?? 0)) continue;
+    const names = input.names ? input.names(i, d) : { shared: 0, share: 0 };
+    const byGap = gap >= params.minGap;
+    const byNames =
+      input.names !== undefined &&
+      gap >= (params.minNameGap ?? Infinity) &&
+      names.shared >= (params.minSharedNames ?? 1) &&
+      names.share >= (params.minNameShare ?? Infinity) &&
+      (input.words === undefined || Math.min(input.words[i], input.words[d]) >= (params.minNameWords ?? 0));
+    if (!byGap && !byNames) continue;
+    out.push({ a: i, b: d, cosine: c, gap, sharedNames: names.shared, nameShare: names.share, score: gap + names.share });
   }
-  return out.sort((x, y) => y.gap - x.gap || x.a - y.a);
+  return out.sort((x, y) => y.score - x.score || x.a - y.a);
 }
 
 /** Lines (trimmed, lowercased, spaces collapsed) present in at least `minFiles` of the texts. */

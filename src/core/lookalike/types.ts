@@ -52,6 +52,9 @@ export interface LookalikePair {
   /** Retold pairs: full term-space cosine and its margin over each file's next neighbour (retold.ts). */
   readonly cosine?: number;
   readonly gap?: number;
+  /** Retold pairs: rare names (options, identifiers) both files hold, and their share (rareNames.ts). */
+  readonly sharedNames?: number;
+  readonly nameShare?: number;
 }
 
 /** Files whose normalised texts are identical (contentHash.ts). Every pair has similarity 1. */
@@ -95,7 +98,7 @@ export interface LookalikeReport {
   readonly nearPairs: readonly LookalikePair[];
   /** Partial copies: partialThreshold ≤ Jaccard < threshold, highest first. */
   readonly partialPairs: readonly LookalikePair[];
-  /** Same content, other words (retold.ts): strongest margin first. */
+  /** Same content, other words (retold.ts): strongest evidence (margin + name share) first. */
   readonly retoldPairs: readonly LookalikePair[];
   readonly stats: LookalikeStats;
 }

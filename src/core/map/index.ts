@@ -29,3 +29,4 @@ export * from './mapData.js';
 export * from './mapMessages.js';
 export * from './mapHtml.js';
 export * from './standaloneHtml.js';
+export * from './sectionTrail.js';

@@ -32,14 +32,30 @@ export type HostToPageMessage =
   /** Highlight a file (e.g. the active editor's), or clear with null. */
   | { readonly type: 'select'; readonly index: number | null }
   /** The editor theme changed; the page re-reads its colours. */
-  | { readonly type: 'theme'; readonly kind: ThemeKind };
+  | { readonly type: 'theme'; readonly kind: ThemeKind }
+  /** The sections of the active file as a trail of points in reading order (sectionTrail.ts), or null to clear it. */
+  | { readonly type: 'trail'; readonly trail: PageTrail | null };
+
+/** A file's trail as the page gets it. */
+export interface PageTrail {
+  readonly path: string;
+  readonly points: readonly {
+    readonly title: string;
+    readonly start: number;
+    readonly end: number;
+    readonly quick: MapPoint;
+    readonly faithful: MapPoint | null;
+  }[];
+}
 
 /** Page → host. */
 export type PageToHostMessage =
   | { readonly type: 'ready' }
   | { readonly type: 'open'; readonly index: number; readonly path: string }
   | { readonly type: 'query'; readonly requestId: number; readonly text: string }
-  | { readonly type: 'layoutChanged'; readonly layout: LayoutName };
+  | { readonly type: 'layoutChanged'; readonly layout: LayoutName }
+  /** Open the trail's file at the first line of its point'th section (an index into the trail the host sent last). */
+  | { readonly type: 'openSection'; readonly point: number };
 
 /** Longest query text the host accepts (common practice: a generous bound on a search box). */
 export const MAX_QUERY_LENGTH = 2000;
@@ -61,6 +77,8 @@ export function isPageToHostMessage(v: unknown): v is PageToHostMessage {
       return isIndex(v.requestId) && typeof v.text === 'string' && v.text.length <= MAX_QUERY_LENGTH;
     case 'layoutChanged':
       return isLayoutName(v.layout);
+    case 'openSection':
+      return isIndex(v.point);
     default:
       return false;
   }
@@ -90,7 +108,24 @@ export function isHostToPageMessage(v: unknown): v is HostToPageMessage {
       return v.index === null || isIndex(v.index);
     case 'theme':
       return v.kind === 'light' || v.kind === 'dark' || v.kind === 'high-contrast' || v.kind === 'high-contrast-light';
+    case 'trail':
+      return v.trail === null || isPageTrail(v.trail);
     default:
       return false;
   }
+}
+
+function isPageTrail(v: unknown): v is PageTrail {
+  if (!isObject(v) || typeof v.path !== 'string' || !Array.isArray(v.points)) return false;
+  return v.points.every(
+    (p: unknown) =>
+      isObject(p) &&
+      typeof p.title === 'string' &&
+      isIndex(p.start) &&
+      isIndex(p.end) &&
+      p.end >= p.start &&
+      isObject(p.quick) &&
+      isPoint(p.quick) &&
+      isPoint(p.faithful),
+  );
 }

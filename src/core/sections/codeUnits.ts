@@ -266,6 +266,9 @@ export function codeSections(lines: readonly string[], lang: CodeLanguage): Sect
       if (prev.quiet) out[out.length - 1] = { start: prev.start, title: firstLine(lines, u.head), named: false };
       continue;
     }
+    // Members that declare nothing by this rule (Java's and C#'s typed fields) right after their
+    // container's header join it: a class's fields belong to the class, not to a run of their own.
+    if (!u.name && u.owner && prev?.named && prev.title === u.owner) continue;
     out.push({
       start: u.start,
       title: u.name ? (u.owner ? `${u.owner}.${u.name}` : u.name) : firstLine(lines, u.head),

@@ -6,11 +6,13 @@
  * trigrams once a text has a few dozen words): each word of a sample that is in the stop lists of
  * n candidate languages gives 1/n to each of them (a word of one list counts fully, "de" or "a"
  * little), and the language with the highest score wins when it has at least `minHits` and
- * `margin` times the runner-up's. Files with source-code extensions are
- * English whatever their comments say (identifiers are never stemmed as another language), and a
- * file the profile cannot tell is English, as before languages were detected. A question is too
- * short for a margin: its language is the one with most distinctive stop words if any, else the
- * workspace's main language. Thresholds are our choice (common practice), not fitted to the
+ * `margin` times the runner-up's (the lists: languages.ts, ownStopWords). Files with source-code
+ * extensions are English whatever their comments say (identifiers are never stemmed as another
+ * language). A prose file where English leads without the margin but one other language is
+ * clear of the rest (a partly translated page, a note quoting English) takes that language; a
+ * file the profile cannot tell otherwise is English, as before languages were detected. A
+ * question is too short for a margin: its language is the one with most distinctive stop words
+ * among the languages the index has, else the workspace's main language. Thresholds are our choice (common practice), not fitted to the
  * evaluation collections.
  */
 import { isLanguage, LANGUAGES, ownStopWords, type Language } from './languages.js';
@@ -147,12 +149,36 @@ export function fileLanguage(
   const candidates = candidateLanguages(setting);
   if (candidates.length === 1 && candidates[0] === 'en') return 'en';
   if (!isProsePath(path)) return 'en';
-  return detectLanguage(text, candidates, options) ?? 'en';
+  if (candidates.length === 1) return candidates[0];
+  const o = { ...DEFAULT_DETECT_OPTIONS, ...options };
+  const h = hits(text, candidates, o.sampleWords);
+  const [best, first, second] = ranked(h);
+  if (best !== undefined && first >= o.minHits && first >= o.margin * second) return best;
+  // A partly translated page or a note quoting English: the other language, when it is clear of
+  // the other non-English candidates and English does not lead it by the margin, wins over English.
+  const english = h.get('en') ?? 0;
+  h.delete('en');
+  const [other, otherFirst, otherSecond] = ranked(h);
+  return other !== undefined && otherFirst >= o.minHits && otherFirst >= o.margin * otherSecond && o.margin * otherFirst >= english
+    ? other
+    : 'en';
 }
 
-/** A question's language: the best stop-word score among the candidates, else the fallback. */
-export function queryLanguage(text: string, setting: LanguageSetting | undefined, fallback: Language): Language {
-  const candidates = candidateLanguages(setting);
+/**
+ * A question's language: the best stop-word score among the candidates, else the fallback. With
+ * `present` (the languages the index's documents were tokenized in), only those compete: a
+ * question is stemmed as some of its targets were, and a short Spanish question whose "de", "a",
+ * "o" are also Portuguese or Italian stop words is not read as a language no note is in.
+ */
+export function queryLanguage(
+  text: string,
+  setting: LanguageSetting | undefined,
+  fallback: Language,
+  present?: readonly Language[],
+): Language {
+  const all = candidateLanguages(setting);
+  const kept = present === undefined ? all : all.filter((l) => present.includes(l));
+  const candidates = kept.length > 0 ? kept : all;
   if (candidates.length === 1) return candidates[0];
   const [best, first, second] = ranked(hits(text, candidates, 200));
   return best !== undefined && first > second ? best : fallback;

@@ -10,7 +10,8 @@
  * Portuguese, Russian and Swedish; German has none in natural, so stopwords-iso 1.1.0's German
  * list, the one natural's own German stemmer module loads. Each non-English list is joined with
  * the English list and the programming keywords of stopWords.ts (notes in any language quote
- * English and code).
+ * English and code). Detection (detectLanguage.ts) uses stopwords-iso's lists for every language;
+ * the build keeps only these nine languages of that package (scripts/build.mjs).
  */
 import German from 'natural/lib/natural/stemmers/porter_stemmer_de.js';
 import Spanish from 'natural/lib/natural/stemmers/porter_stemmer_es.js';
@@ -28,7 +29,7 @@ import { words as ptStop } from 'natural/lib/natural/util/stopwords_pt.js';
 import { words as ruStop } from 'natural/lib/natural/util/stopwords_ru.js';
 import { words as svStop } from 'natural/lib/natural/util/stopwords_sv.js';
 import isoStopWords from 'stopwords-iso';
-import { ENGLISH_STOP_WORDS, STOP_WORDS } from './stopWords.js';
+import { STOP_WORDS } from './stopWords.js';
 import type { Language } from './languageCodes.js';
 
 export { isLanguage, LANGUAGE_NAMES, LANGUAGES, type Language } from './languageCodes.js';
@@ -76,7 +77,20 @@ export function languageKit(language: Exclude<Language, 'en'>): LanguageKit {
   return kit;
 }
 
-/** The own stop words of every language (English: natural's list), for detection. */
+const detectionWords = new Map<Language, ReadonlySet<string>>();
+
+/**
+ * The stop words that tell a language, for detection: stopwords-iso 1.1.0's list of each language
+ * (one source for all, 400-1300 words each). natural's lists, which drop words from texts, range
+ * from 58 words (Spanish) to 430 (Swedish); with them a Spanish page scored below French and
+ * Portuguese on its shared "de", "la", "que", and one English manual page in 500 was read as
+ * Swedish or Portuguese (Debian's manpages, section 1; the report of issue 16).
+ */
 export function ownStopWords(language: Language): ReadonlySet<string> {
-  return language === 'en' ? ENGLISH_STOP_WORDS : languageKit(language).own;
+  let words = detectionWords.get(language);
+  if (words === undefined) {
+    words = new Set((isoStopWords[language] ?? []).map((w) => w.normalize('NFC').toLowerCase()));
+    detectionWords.set(language, words);
+  }
+  return words;
 }

@@ -8,6 +8,14 @@
  * Both & Hinneburg 2015 for NPMI as the measure); the pool keeps every chosen term among the
  * topic's distinctive ones. Ties go to the more distinctive term. The result keeps the pool's
  * order (most distinctive first).
+ * The joint count is discounted by one file (absolute discounting, Ney, Essen & Kneser 1994,
+ * "On structuring probabilistic dependences in stochastic language modelling", Computer Speech
+ * and Language 8; cited from memory): two rare terms that share a single file would otherwise
+ * score the top NPMI, and a pair seen together once says little about other files. Measured on
+ * the CMake and Django manuals, names chosen on one half of the files and scored on the other
+ * (test/core/topics/topicQuality.test.ts): held-out NPMI rose in 6 of 8 cases (both halves, the
+ * first two levels; e.g. Django's second level 0.179 → 0.233 and 0.123 → 0.195, CMake's 0.346 →
+ * 0.366 and 0.312 → 0.343) and fell by at most 0.013 in the other two.
  * Default pool: twice the terms wanted (our choice, compared with three times on the CMake and
  * Django manuals, each checked with the other held out: test/core/topics/topicQuality.test.ts).
  */
@@ -52,7 +60,7 @@ export class TermFiles {
         const c = pool[q];
         let both = 0;
         for (let p = indptr[c]; p < indptr[c + 1]; p++) both += mark[indices[p]];
-        total[q] += npmi(both / n, pt, (indptr[c + 1] - indptr[c]) / n);
+        total[q] += npmi(Math.max(0, both - 1) / n, pt, (indptr[c + 1] - indptr[c]) / n);
         if (best < 0 || total[q] > total[best] + 1e-12) best = q;
       }
       for (let p = indptr[t]; p < indptr[t + 1]; p++) mark[indices[p]] = 0;

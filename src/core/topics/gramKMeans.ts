@@ -48,7 +48,9 @@ export function gramKMeans(
  * 2 − 2·cos, 2 + ⌊ln k⌋ local trials per centre, as sphericalKMeans.ts seeds: the chosen points.
  */
 export function seedFromGram(gram: Float64Array, n: number, k: number, random: RandomSource): number[] {
-  return seedPicks(n, k, random, (i, j) => Math.max(0, 2 - 2 * gram[j * n + i]));
+  return seedPicks(n, k, random, (j, out) => {
+    for (let i = 0; i < n; i++) out[i] = Math.max(0, 2 - 2 * gram[j * n + i]);
+  });
 }
 
 function lloydGram(gram: Float64Array, n: number, seeds: readonly number[], maxIterations: number, scratch: Float64Array): GramClustering {

@@ -9,6 +9,7 @@
  * Defaults: 10 restarts (scikit-learn's KMeans n_init before 1.4), 50 iterations (our choice). Ties go to the lower index.
  */
 import { InvalidInputError } from '../errors.js';
+import { timesSmallRows } from '../matrix/kernels.js';
 import { createRandom, DEFAULT_SEED, type RandomSource } from '../random.js';
 
 export interface SphericalKMeansOptions {
@@ -67,7 +68,10 @@ export function sphericalKMeans(
  * every remaining point coincides with a centre.
  */
 export function seedCentres(points: Float64Array, n: number, dims: number, k: number, random: RandomSource): Float64Array {
-  const chosen = seedPicks(n, k, random, (i, j) => chordSquared(points, i, j, dims));
+  const chosen = seedPicks(n, k, random, (j, out) => {
+    timesPoint(points, n, dims, j, out);
+    for (let i = 0; i < n; i++) out[i] = Math.max(0, 2 - 2 * out[i]);
+  });
   const centres = new Float64Array(chosen.length * dims);
   chosen.forEach((p, c) => centres.set(points.subarray(p * dims, (p + 1) * dims), c * dims));
   return centres;
@@ -75,13 +79,13 @@ export function seedCentres(points: Float64Array, n: number, dims: number, k: nu
 
 /**
  * The seeding loop shared by seedCentres and gramKMeans' seedFromGram: the points chosen as
- * centres, given the squared distance between two points.
+ * centres, given the squared distances of every point to point j (distancesTo fills out, n long).
  */
-export function seedPicks(n: number, k: number, random: RandomSource, distance: (i: number, j: number) => number): number[] {
+export function seedPicks(n: number, k: number, random: RandomSource, distancesTo: (j: number, out: Float64Array) => void): number[] {
   const chosen: number[] = [Math.floor(random.next() * n)];
   const trials = 2 + Math.floor(Math.log(Math.max(1, k)));
   const weight = new Float64Array(n);
-  for (let i = 0; i < n; i++) weight[i] = distance(i, chosen[0]);
+  distancesTo(chosen[0], weight);
   const trial = new Float64Array(n);
   const bestTrial = new Float64Array(n);
   while (chosen.length < k) {
@@ -92,9 +96,10 @@ export function seedPicks(n: number, k: number, random: RandomSource, distance: 
     let bestPick = -1;
     for (let t = 0; t < trials; t++) {
       const pick = drawByWeight(weight, total, random.next());
+      distancesTo(pick, trial);
       let potential = 0;
       for (let i = 0; i < n; i++) {
-        trial[i] = Math.min(weight[i], distance(i, pick));
+        trial[i] = Math.min(weight[i], trial[i]);
         potential += trial[i];
       }
       if (potential < bestPotential) {
@@ -120,11 +125,6 @@ function drawByWeight(weight: Float64Array, total: number, u01: number): number 
     if (u < 0) return i;
   }
   return last;
-}
-
-/** ‖x_i − x_j‖² = 2 − 2·cos for unit vectors (clamped at 0). */
-function chordSquared(points: Float64Array, i: number, j: number, dims: number): number {
-  return Math.max(0, 2 - 2 * dot(points, i, points, j, dims));
 }
 
 /**
@@ -201,45 +201,17 @@ function lloyd(points: Float64Array, n: number, dims: number, initial: Float64Ar
   return { assignment, centres: Float64Array.from(centres), clusters: kept, objective, iterations };
 }
 
-/** s (n × k) = points · centresᵀ. */
+/**
+ * s (n × k) = points · centresᵀ: the blocked product of matrix/kernels.ts (four points and two
+ * centres at a time), where k-means spends its time.
+ */
 function timesCentres(points: Float64Array, n: number, dims: number, centres: Float64Array, k: number, s: Float64Array): void {
-  for (let i = 0; i < n; i++) {
-    const o = i * dims;
-    for (let c = 0; c < k; c++) {
-      // Inlined dot product: this loop is where k-means spends its time.
-      let v = 0;
-      const oc = c * dims;
-      let d = 0;
-      for (; d + 3 < dims; d += 4) {
-        v +=
-          points[o + d] * centres[oc + d] +
-          points[o + d + 1] * centres[oc + d + 1] +
-          points[o + d + 2] * centres[oc + d + 2] +
-          points[o + d + 3] * centres[oc + d + 3];
-      }
-      for (; d < dims; d++) v += points[o + d] * centres[oc + d];
-      s[i * k + c] = v;
-    }
-  }
+  timesSmallRows(points, dims, centres, k, false, s, 0, n);
 }
 
 /** column (n) = points · point j. */
 function timesPoint(points: Float64Array, n: number, dims: number, j: number, column: Float64Array): void {
-  const oj = j * dims;
-  for (let i = 0; i < n; i++) {
-    const o = i * dims;
-    let v = 0;
-    let d = 0;
-    for (; d + 3 < dims; d += 4) {
-      v +=
-        points[o + d] * points[oj + d] +
-        points[o + d + 1] * points[oj + d + 1] +
-        points[o + d + 2] * points[oj + d + 2] +
-        points[o + d + 3] * points[oj + d + 3];
-    }
-    for (; d < dims; d++) v += points[o + d] * points[oj + d];
-    column[i] = v;
-  }
+  timesSmallRows(points, dims, points.subarray(j * dims, (j + 1) * dims), 1, false, column, 0, n);
 }
 
 /**
@@ -274,12 +246,4 @@ function assignFromSums(
     objective += bestCos;
   }
   return { moved, objective };
-}
-
-function dot(a: Float64Array, i: number, b: Float64Array, j: number, dims: number): number {
-  let s = 0;
-  const oa = i * dims;
-  const ob = j * dims;
-  for (let d = 0; d < dims; d++) s += a[oa + d] * b[ob + d];
-  return s;
 }

@@ -4,9 +4,11 @@
  * readable words. Kept cheap: one explainer per query, the top WHY_TERMS terms per result, the
  * rest summed. An explanation that fails leaves its result without one rather than failing it.
  */
-import { explainPair, QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
+import { explainPair, explainSides, QueryExplainer, topShares, type Explanation } from '../../core/explain/explain.js';
 import type { LsiIndex, SearchOptions } from '../../core/index/lsiIndex.js';
-import { sharedConcepts } from '../../core/explain/sharedConcepts.js';
+import { sharedConcepts, sharedSectionConcepts, type SharedConcepts } from '../../core/explain/sharedConcepts.js';
+import { sectionSide, type SectionSide } from '../../core/sections/sectionTerms.js';
+import type { SectionHit } from '../../core/sections/sectionStore.js';
 import type { Why } from './insightProtocol.js';
 import type { WordFor } from './wordForms.js';
 
@@ -45,18 +47,79 @@ export function searchWhy(
 /** Why each file is near the subject file (cosine of their concept vectors): by term, and by the concepts both share. */
 export function nearbyWhy(index: LsiIndex, subject: string, paths: readonly string[], wordFor: WordFor): (Why | undefined)[] {
   return paths.map((p) =>
+    attempt(() =>
+      withConcepts(
+        toWhy(explainPair(index, subject, p), wordFor),
+        attempt(() => sharedConcepts(index, subject, p)),
+        wordFor,
+      ),
+    ),
+  );
+}
+
+/** A file's current text by key (undefined when it cannot be read). */
+export type TextOf = (path: string) => string | undefined;
+
+/** A section hit's side from its file's text (undefined when unreadable or edited since it was folded). */
+function sideOf(index: LsiIndex, hit: Pick<SectionHit, 'path' | 'index'>, textOf: TextOf): SectionSide | undefined {
+  const text = textOf(hit.path);
+  return text === undefined ? undefined : (sectionSide(index, hit.path, hit.index, text) ?? undefined);
+}
+
+/** Why each section matches a query: concept shares against the section's own vector and terms, word-match shares the file's. */
+export function sectionSearchWhy(
+  index: LsiIndex,
+  query: string,
+  hits: readonly SectionHit[],
+  textOf: TextOf,
+  wordFor: WordFor,
+  feedback: Pick<SearchOptions, 'like' | 'unlike'> = {},
+): (Why | undefined)[] {
+  if (hits.length === 0) return [];
+  let explainer: QueryExplainer;
+  try {
+    explainer = new QueryExplainer(index, query, true, feedback);
+  } catch {
+    return hits.map(() => undefined);
+  }
+  return hits.map((h) =>
     attempt(() => {
-      const why = toWhy(explainPair(index, subject, p), wordFor);
-      const shared = attempt(() => sharedConcepts(index, subject, p));
-      if (!shared) return why;
-      return {
-        ...why,
-        concepts: shared.concepts.map((c) => ({ words: c.terms.map(wordFor), share: c.share })),
-        conceptRest: shared.rest,
-        wordMatch: shared.wordMatch,
-      };
+      const side = sideOf(index, h, textOf);
+      return side ? toWhy(explainer.explainSection(h.path, side), wordFor) : undefined;
     }),
   );
+}
+
+/** Why each section is near the section at the cursor: the two sections' terms and the concepts they share. */
+export function sectionNearbyWhy(
+  index: LsiIndex,
+  from: SectionHit,
+  hits: readonly SectionHit[],
+  textOf: TextOf,
+  wordFor: WordFor,
+): (Why | undefined)[] {
+  const a = attempt(() => sideOf(index, from, textOf));
+  return hits.map((h) =>
+    attempt(() => {
+      const b = a && sideOf(index, h, textOf);
+      if (!a || !b) return undefined;
+      return withConcepts(
+        toWhy(explainSides(index, a, b), wordFor),
+        attempt(() => sharedSectionConcepts(index, a, b)),
+        wordFor,
+      );
+    }),
+  );
+}
+
+function withConcepts(why: Why, shared: SharedConcepts | undefined, wordFor: WordFor): Why {
+  if (!shared) return why;
+  return {
+    ...why,
+    concepts: shared.concepts.map((c) => ({ words: c.terms.map(wordFor), share: c.share })),
+    conceptRest: shared.rest,
+    wordMatch: shared.wordMatch,
+  };
 }
 
 function attempt<T>(f: () => T): T | undefined {

@@ -16,7 +16,8 @@ import { loadIndex, trySaveIndex } from '../persist.js';
 import { readIndexableText } from '../scan.js';
 import { prepareInBackground } from './backgroundPrepare.js';
 import { bestMatchingLine, queryScorer } from './bestLine.js';
-import { nearbyWhy, searchWhy } from './explainHits.js';
+import { nearbyWhy, searchWhy, sectionNearbyWhy, sectionSearchWhy, type TextOf } from './explainHits.js';
+import type { Why } from './insightProtocol.js';
 import { FileAdmission } from './fileAdmission.js';
 import { collapseTranslations } from '../../core/translations/groupTranslations.js';
 import { questionFit, questionUnits } from '../../core/translations/language.js';
@@ -38,6 +39,7 @@ import type {
 } from './workerProtocol.js';
 import { RootMap } from './rootMap.js';
 import { bestSections, nearbySections, searchSections } from '../../core/sections/sectionSearch.js';
+import { splitLines } from '../../core/sections/splitSections.js';
 import type { SectionHit } from '../../core/sections/sectionStore.js';
 import type { HandlerContext, Handlers } from './server.js';
 import { formsFromTexts } from './wordForms.js';
@@ -246,25 +248,52 @@ export class IndexService {
     );
   }
 
-  /** Sections ranked by a query (file keys turned into file references). */
-  searchSections(query: string, top: number): SectionMatch[] {
+  /** Sections ranked by a query (file keys turned into file references), each with why it matches. */
+  async searchSections(query: string, top: number): Promise<SectionMatch[]> {
     const index = this.requireIndex();
-    return searchSections(index, query, { top }).map((h) => ({
-      ...this._roots.refOf(h.path),
-      ...sectionField(h).section!,
-      score: h.score,
-    }));
+    const hits = searchSections(index, query, { top });
+    const textOf = await this.textsOf(hits.map((h) => h.path));
+    if (this._index !== index) return []; // replaced during the reads: the next search asks again
+    const why = sectionSearchWhy(index, query, hits, textOf, formsFromTexts([query], index.settings.tokenize.stem));
+    return hits.map((h, i) => ({ ...this._roots.refOf(h.path), ...sectionField(h).section!, score: h.score, why: why[i] }));
   }
 
-  /** Nearby at the cursor: other files' sections nearest to the section holding `line`. */
-  nearbySections(fsPath: string, line: number, top: number): { from: SectionMatch; hits: SectionMatch[] } | null {
+  /** Nearby at the cursor: other files' sections nearest to the section holding `line`, each with why it is near. */
+  async nearbySections(fsPath: string, line: number, top: number): Promise<{ from: SectionMatch; hits: SectionMatch[] } | null> {
     const key = this._roots.keyOf(fsPath);
     const index = this._index;
     if (!index || key === undefined || !index.has(key)) return null;
     const near = nearbySections(index, key, line, { top });
     if (!near) return null;
-    const match = (h: SectionHit): SectionMatch => ({ ...this._roots.refOf(h.path), ...sectionField(h).section!, score: h.score });
-    return { from: match(near.from), hits: near.hits.map(match) };
+    const keys = [...new Set([key, ...near.hits.map((h) => h.path)])];
+    const textOf = await this.textsOf(keys);
+    // Readable words from the sections themselves (their words are the ones shown), not the whole files.
+    const texts = [near.from, ...near.hits].map((h) =>
+      splitLines(textOf(h.path) ?? '')
+        .slice(h.start, h.end)
+        .join('\n'),
+    );
+    const why =
+      this._index === index
+        ? sectionNearbyWhy(index, near.from, near.hits, textOf, formsFromTexts(texts, index.settings.tokenize.stem))
+        : [];
+    const match = (h: SectionHit, w?: Why): SectionMatch => ({
+      ...this._roots.refOf(h.path),
+      ...sectionField(h).section!,
+      score: h.score,
+      why: w,
+    });
+    return { from: match(near.from), hits: near.hits.map((h, i) => match(h, why[i])) };
+  }
+
+  /** The current text of some indexed files, read once each (unreadable ones give undefined). */
+  private async textsOf(keys: readonly string[]): Promise<TextOf> {
+    const texts = new Map<string, string>();
+    for (const key of new Set(keys)) {
+      const got = await readIndexableText(this._roots.refOf(key).fsPath, this.config().maxFileBytes).catch(() => null);
+      if (got?.kind === 'text') texts.set(key, got.text);
+    }
+    return (key) => texts.get(key);
   }
 
   /**

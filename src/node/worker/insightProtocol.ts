@@ -4,7 +4,7 @@
  * its RequestMap; the handlers live in insightService.ts.
  */
 import type { LayoutName, MapPageData } from '../../core/map/mapData.js';
-import type { MapPoint } from '../../core/map/mapMessages.js';
+import type { MapPoint, PageTrail } from '../../core/map/mapMessages.js';
 import type { FileRef } from './fileRef.js';
 
 /** One term's part of a similarity score (core/explain), under a readable word. */
@@ -45,6 +45,8 @@ export interface LookalikePairWire {
   readonly words: readonly [number, number];
   /** Retold pairs: margin of the cosine over each file's next neighbour. */
   readonly gap?: number;
+  /** Retold pairs: rare names (long options, identifiers) both files hold. */
+  readonly sharedNames?: number;
 }
 
 export interface LookalikeGroupWire {
@@ -180,8 +182,10 @@ export interface InsightRequestMap {
   mapData: { params: Record<string, never>; result: MapDataResult };
   /** Places a query on the map named by token; fails with MapOutdatedError when it was replaced. */
   mapQuery: { params: { token: number; text: string }; result: MapQueryResult };
+  /** The sections of a file (absolute path) placed on the map named by token; null when the file has no sections there. */
+  mapTrail: { params: { token: number; fsPath: string }; result: PageTrail | null };
 }
 
 export type InsightRequestType = keyof InsightRequestMap;
 
-export const INSIGHT_REQUEST_TYPES: readonly InsightRequestType[] = ['lookalikes', 'topics', 'mapData', 'mapQuery'];
+export const INSIGHT_REQUEST_TYPES: readonly InsightRequestType[] = ['lookalikes', 'topics', 'mapData', 'mapQuery', 'mapTrail'];

@@ -8,7 +8,8 @@ import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { InvalidInputError } from '../../core/errors.js';
 import type { InsightRequestType, LookalikesResult, MapDataResult, TopicsResult } from './insightProtocol.js';
 import { computeLookalikes } from './lookalikeTask.js';
-import { computeMap, MapOutdatedError, placeMapQuery, type MapModel } from './mapTask.js';
+import { computeMap, MapOutdatedError, placeMapQuery, placeMapTrail, type MapModel } from './mapTask.js';
+import type { PageTrail } from '../../core/map/mapMessages.js';
 import type { RootMap } from './rootMap.js';
 import type { Handlers } from './server.js';
 import { computeTopics, folderTopics, type TopicsTaskResult } from './topicsTask.js';
@@ -75,6 +76,7 @@ export class InsightService {
       topics: async (p) => this.topics(p?.folder),
       mapData: async () => this.mapData(),
       mapQuery: async ({ token, text }) => this.mapQuery(token, text),
+      mapTrail: async ({ token, fsPath }) => this.mapTrail(token, fsPath),
     };
   }
 
@@ -161,5 +163,13 @@ export class InsightService {
     const model = this._latestMap;
     if (!model || model.token !== token) throw new MapOutdatedError('The index changed since this map was drawn; it is being redrawn.');
     return placeMapQuery(model, text);
+  }
+
+  /** The sections of a file as a trail on the current map (null: not indexed, or no sections). */
+  mapTrail(token: number, fsPath: string): PageTrail | null {
+    const model = this._latestMap;
+    if (!model || model.token !== token) throw new MapOutdatedError('The index changed since this map was drawn; it is being redrawn.');
+    const key = this._source.roots().keyOf(fsPath);
+    return key === undefined ? null : placeMapTrail(model, key);
   }
 }

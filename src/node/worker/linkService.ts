@@ -1,12 +1,14 @@
 /**
- * Suggested links in the worker (linksProtocol.ts): reads the workspace's notes once per index
- * state to know their links (core/links/linkGraph.ts) and style, then answers each note's
- * suggestions (core/links/suggestLinks.ts) with the words behind them (core/explain) and the
- * link to insert. Suggestions stay within the note's own workspace folder (a relative link cannot
- * cross folders). The graph is cached until the index changes (a fold-in, a build, a removal).
+ * Suggested links in the worker (linksProtocol.ts): knows the workspace's notes' links
+ * (core/links/linkGraph.ts) and style per index state, then answers each note's suggestions
+ * (core/links/suggestLinks.ts) with the words behind them (core/explain) and the link to insert.
+ * Suggestions stay within the note's own workspace folder (a relative link cannot cross folders).
+ * The graph is cached until the index changes (a fold-in, a build, a removal); then only the notes
+ * whose size or modification time in the index changed are read again, the others keep their
+ * parsed titles and links, and the links are resolved anew over all notes.
  */
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
-import { LinkGraph, type NoteText } from '../../core/links/linkGraph.js';
+import { LinkGraph, parseNote, type ParsedNote } from '../../core/links/linkGraph.js';
 import { detectLinkStyle, formatLink, type StyleVerdict } from '../../core/links/linkStyle.js';
 import { NoteCatalogue } from '../../core/links/noteCatalogue.js';
 import { DEFAULT_SUGGEST_OPTIONS, explainSimilarity, suggestLinks } from '../../core/links/suggestLinks.js';
@@ -30,6 +32,20 @@ interface Links {
   readonly style: StyleVerdict;
 }
 
+interface KnownNote {
+  readonly size: number;
+  readonly mtimeMs: number;
+  readonly note: ParsedNote;
+}
+
+/** What the last refresh of the link graph did. */
+export interface LinkRefresh {
+  /** Notes read from disk (new or changed in the index). */
+  readonly read: number;
+  /** Notes whose parse was kept. */
+  readonly kept: number;
+}
+
 /** The key prefix of a key's workspace folder ('' with one folder). */
 export function rootPrefixOf(roots: RootMap, key: string): string {
   return roots.multi ? key.slice(0, key.indexOf('/') + 1) : '';
@@ -37,6 +53,8 @@ export function rootPrefixOf(roots: RootMap, key: string): string {
 
 export class LinkService {
   private _cached: { readonly key: string; readonly run: Promise<Links> } | undefined;
+  private readonly _known = new Map<string, KnownNote>();
+  private _lastRefresh: LinkRefresh = { read: 0, kept: 0 };
 
   constructor(private readonly _source: LinkSource) {}
 
@@ -96,15 +114,45 @@ export class LinkService {
     return entry.run;
   }
 
+  /** What the last refresh of the link graph read and kept. */
+  get lastRefresh(): LinkRefresh {
+    return this._lastRefresh;
+  }
+
   private async readLinks(index: LsiIndex, roots: RootMap): Promise<Links> {
     const catalogue = new NoteCatalogue();
-    const notes: NoteText[] = [];
+    const notes: ParsedNote[] = [];
+    const present = new Set<string>();
+    let read = 0;
     for (const key of index.paths()) {
       if (!catalogue.isNote(key)) continue;
-      const got = await readIndexableText(roots.refOf(key).fsPath, this._source.maxFileBytes()).catch(() => null);
-      if (got?.kind === 'text') notes.push({ key, text: got.text });
+      const meta = index.meta(key);
+      const fsPath = roots.refOf(key).fsPath;
+      present.add(fsPath);
+      const known = this._known.get(fsPath);
+      if (
+        known !== undefined &&
+        meta !== undefined &&
+        known.size === meta.size &&
+        known.mtimeMs === meta.mtimeMs &&
+        known.note.key === key
+      ) {
+        notes.push(known.note);
+        continue;
+      }
+      read++;
+      const got = await readIndexableText(fsPath, this._source.maxFileBytes()).catch(() => null);
+      if (got?.kind !== 'text') {
+        this._known.delete(fsPath);
+        continue;
+      }
+      const note = parseNote({ key, text: got.text });
+      notes.push(note);
+      if (meta !== undefined) this._known.set(fsPath, { size: meta.size, mtimeMs: meta.mtimeMs, note });
     }
-    const graph = LinkGraph.fromNotes(notes, { rootPrefix: (k) => rootPrefixOf(roots, k) });
+    for (const fsPath of [...this._known.keys()]) if (!present.has(fsPath)) this._known.delete(fsPath);
+    this._lastRefresh = { read, kept: notes.length - read };
+    const graph = LinkGraph.fromParsed(notes, { rootPrefix: (k) => rootPrefixOf(roots, k) });
     return { graph, style: detectLinkStyle(graph) };
   }
 }

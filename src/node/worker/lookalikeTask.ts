@@ -56,6 +56,7 @@ export async function computeLookalikes(index: LsiIndex, roots: RootMap, o: Look
     sharedWords: p.sharedWords,
     words: p.words,
     ...(p.gap === undefined ? {} : { gap: p.gap }),
+    ...(p.sharedNames === undefined ? {} : { sharedNames: p.sharedNames }),
   });
   const groups: LookalikeGroupWire[] = report.exactGroups.map((g) => {
     const pairs = g.files.slice(1).map((b) => ({

@@ -17,6 +17,8 @@ import { computeMapLayouts } from '../../core/map/mapLayouts.js';
 import { DEFAULT_QUERY_PLACEMENT_OPTIONS, nearestByCosine, placeQueryFaithful } from '../../core/map/placeQuery.js';
 import { projectQuick } from '../../core/map/quickProjection.js';
 import { quickLayout, type QuickLayout } from '../../core/map/quickLayout.js';
+import { placeSectionTrail } from '../../core/map/sectionTrail.js';
+import type { PageTrail } from '../../core/map/mapMessages.js';
 import type { TopicsReport } from '../../core/topics/topics.js';
 import type { MapQueryResult } from './insightProtocol.js';
 import type { RootMap } from './rootMap.js';
@@ -122,4 +124,15 @@ export function placeMapQuery(model: MapModel, text: string): MapQueryResult {
     neighbours: Array.from(neighbours),
     similarities: Array.from(similarities),
   };
+}
+
+/**
+ * The sections of one indexed file as a trail on the map (core/map/sectionTrail.ts), placed like a
+ * query; null when the file has no sections (or is not indexed). The sections are the index's
+ * current ones, so a file edited since the map was drawn shows its new sections.
+ */
+export function placeMapTrail(model: MapModel, key: string): PageTrail | null {
+  const sections = model.index.has(key) ? model.index.sections.get(key) : undefined;
+  if (!sections || sections.starts.length === 0) return null;
+  return { path: key, points: placeSectionTrail(model, sections, model.index.k) };
 }

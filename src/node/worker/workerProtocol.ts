@@ -72,6 +72,8 @@ export interface SectionPlace {
 /** A section as a result (section search, Nearby at the cursor). */
 export interface SectionMatch extends FileRef, SectionPlace {
   readonly score: number;
+  /** The terms contributing most to the score, from the section's own vector and terms, when they could be worked out. */
+  readonly why?: Why;
 }
 
 export interface IndexSummary {

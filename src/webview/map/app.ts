@@ -1,11 +1,13 @@
 /// <reference lib="dom" />
 /**
  * The map page: toolbar (Map / Spectrum tabs, search box, Quick / Faithful layout switch, Fit),
- * the map canvas with tooltip, topic legend and status line, and the spectrum chart. State that
+ * the map canvas with tooltip, topic legend and status line, and the spectrum chart. The host may
+ * send the active file's sections as a trail (a line through their points in reading order); a
+ * point shows its title and lines on hover and opens the file there on click. State that
  * matters to tests and assistive tech is mirrored on the root element as data-* attributes.
  */
 import type { LayoutName, MapPageData } from '../../core/map/mapData.js';
-import type { HostToPageMessage, MapPoint } from '../../core/map/mapMessages.js';
+import type { HostToPageMessage, MapPoint, PageTrail } from '../../core/map/mapMessages.js';
 import type { MapBridge } from './bridge.js';
 import { el, formatCount } from './dom.js';
 import { Legend } from './legend.js';
@@ -48,6 +50,7 @@ export class MapApp {
   private readonly tabButtons: Record<Tab, HTMLButtonElement>;
   private readonly panels: Record<Tab, HTMLElement>;
   private query: QueryState | null = null;
+  private trail: PageTrail | null = null;
   private nextRequest = 1;
   private pendingRequest = 0;
   private disposed = false;
@@ -123,6 +126,8 @@ export class MapApp {
     this.canvas = new MapCanvas(mapCanvas, this.scene, this.theme, {
       hover: (i, cx, cy) => this.hover(i, cx, cy),
       click: (i) => this.click(i),
+      hoverTrail: (i, cx, cy) => this.hoverTrail(i, cx, cy),
+      clickTrail: (i) => this.bridge.post({ type: 'openSection', point: i }),
     });
     const { singularValues, totalEnergy, k } = data.spectrum;
     this.spectrum = new SpectrumChart(spectrumCanvas, singularValues, totalEnergy, k, this.theme);
@@ -173,7 +178,44 @@ export class MapApp {
       case 'theme':
         this.refreshTheme();
         break;
+      case 'trail':
+        this.trail = m.trail;
+        this.applyTrail();
+        break;
     }
+  }
+
+  /** Puts the trail on the layout shown (each point where its section was placed on it). */
+  private applyTrail(): void {
+    const points = this.trail?.points ?? [];
+    const at = points.map((p) => p[this.layout] ?? p.quick);
+    this.scene.trail = points.length ? { x: Float32Array.from(at, (p) => p.x), y: Float32Array.from(at, (p) => p.y) } : null;
+    this.scene.trailHovered = null;
+    this.root.dataset.trail = String(points.length);
+    if (!this.query) this.setStatus(this.summary());
+    this.canvas.requestDraw();
+  }
+
+  private hoverTrail(i: number | null, clientX: number, clientY: number): void {
+    const trail = this.trail;
+    if (i === null || !trail) {
+      if ((this.scene.trailHovered ?? null) !== null) {
+        this.scene.trailHovered = null;
+        this.tooltip.hide();
+        this.canvas.requestDraw();
+      }
+      return;
+    }
+    if (this.scene.trailHovered !== i) {
+      this.scene.trailHovered = i;
+      this.canvas.requestDraw();
+    }
+    const p = trail.points[i];
+    this.tooltip.showSection(
+      { title: p.title, start: p.start, end: p.end, path: trail.path, n: i + 1, of: trail.points.length },
+      clientX,
+      clientY,
+    );
   }
 
   dispose(): void {
@@ -202,6 +244,7 @@ export class MapApp {
     const p = this.positions(name);
     this.canvas.showLayout(p.x, p.y, true);
     this.applyQuery(false);
+    this.applyTrail();
     this.updateLayoutButtons();
     this.bridge.post({ type: 'layoutChanged', layout: name });
     this.setStatus(this.summary());
@@ -365,7 +408,9 @@ export class MapApp {
     const topics = this.view.labels.length;
     const method = this.layout === 'faithful' ? 'faithful layout (landmark Isomap)' : 'quick layout (principal axes)';
     const level = this.view.focus === null ? `${topics} topics` : `${topics} sub-topics of one topic`;
-    return `${formatCount(this.n)} files · ${level} · ${method}`;
+    const t = this.trail;
+    const trail = t && t.points.length ? ` · trail: ${t.points.length} sections of ${t.path.split('/').pop()}` : '';
+    return `${formatCount(this.n)} files · ${level} · ${method}${trail}`;
   }
 
   private setStatus(text: string): void {

@@ -80,6 +80,7 @@ function standaloneBridge(tokenize: Tokenize): MapBridge {
           deliver({ type: 'select', index: message.index });
           break;
         case 'layoutChanged':
+        case 'openSection': // a standalone file has no trail
           break;
       }
     },

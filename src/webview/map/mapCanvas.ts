@@ -7,13 +7,16 @@
  */
 import { SpatialGrid } from '../../core/map/spatialGrid.js';
 import { DotRaster } from './dotRaster.js';
-import { drawMap, zoomGrowth, type MapScene } from './mapRenderer.js';
+import { drawMap, TRAIL_MARK, zoomGrowth, type MapScene } from './mapRenderer.js';
 import type { MapTheme } from './theme.js';
 import { Viewport } from './viewport.js';
 
 export interface MapCanvasEvents {
   hover(index: number | null, clientX: number, clientY: number): void;
   click(index: number | null): void;
+  /** A point of the trail of sections (mapRenderer.ts) under the pointer, or null. */
+  hoverTrail?(point: number | null, clientX: number, clientY: number): void;
+  clickTrail?(point: number): void;
 }
 
 /** Pixels a press may move and still count as a click (common practice). */
@@ -124,6 +127,17 @@ export class MapCanvas {
     return d <= this.scene.radius[i] * grow + PICK_MARGIN ? i : null;
   }
 
+  /** The trail point under a point in CSS pixels relative to the canvas (the last drawn wins), or null. */
+  pickTrail(px: number, py: number): number | null {
+    const t = this.scene.trail;
+    if (this.animating || !t) return null;
+    for (let i = t.x.length - 1; i >= 0; i--) {
+      const r = (i === 0 ? TRAIL_MARK + 1.5 : TRAIL_MARK) + PICK_MARGIN;
+      if (Math.abs(this.vp.sx(t.x[i]) - px) <= r && Math.abs(this.vp.sy(t.y[i]) - py) <= r) return i;
+    }
+    return null;
+  }
+
   private draw(): void {
     const dpr = window.devicePixelRatio || 1;
     this.ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
@@ -181,6 +195,14 @@ export class MapCanvas {
         }
         return;
       }
+      const t = this.pickTrail(px, py);
+      if (t !== null) {
+        c.classList.add('um-pointing');
+        this.events.hover(null, e.clientX, e.clientY);
+        this.events.hoverTrail?.(t, e.clientX, e.clientY);
+        return;
+      }
+      this.events.hoverTrail?.(null, e.clientX, e.clientY);
       const i = this.pick(px, py);
       c.classList.toggle('um-pointing', i !== null);
       this.events.hover(i, e.clientX, e.clientY);
@@ -192,13 +214,17 @@ export class MapCanvas {
       c.classList.remove('um-dragging');
       if (wasClick && e.type === 'pointerup') {
         const [px, py] = this.local(e);
-        this.events.click(this.pick(px, py));
+        const t = this.pickTrail(px, py);
+        if (t !== null && this.events.clickTrail) this.events.clickTrail(t);
+        else this.events.click(this.pick(px, py));
       }
     };
     c.addEventListener('pointerup', release);
     c.addEventListener('pointercancel', release);
     c.addEventListener('pointerleave', () => {
-      if (!this.drag) this.events.hover(null, 0, 0);
+      if (this.drag) return;
+      this.events.hoverTrail?.(null, 0, 0);
+      this.events.hover(null, 0, 0);
     });
     c.addEventListener('keydown', (e) => {
       const step = 60;

@@ -21,6 +21,10 @@ export interface MapScene {
   hovered: number | null;
   focusTopic: number | null;
   query: { x: number; y: number; neighbours: readonly number[] } | null;
+  /** The active file's sections in reading order, on the layout shown (data coordinates), or null. */
+  trail?: { readonly x: Float32Array; readonly y: Float32Array } | null;
+  /** The trail point under the pointer. */
+  trailHovered?: number | null;
   /** Writes the topics' words over their regions (regionLabelLayer.ts), when the page has topics. */
   labels?: { draw(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, theme: MapTheme): void };
 }
@@ -63,6 +67,7 @@ export function drawMap(
   }
   ctx.globalAlpha = 1;
   scene.labels?.draw(ctx, vp, scene, theme);
+  drawTrail(ctx, vp, scene, theme);
   drawQuery(ctx, vp, scene, theme, grow);
   if (scene.selected !== null) ring(ctx, vp, scene, scene.selected, theme.fg, 2, 4 * grow, grow);
   if (scene.hovered !== null && scene.hovered !== scene.selected) ring(ctx, vp, scene, scene.hovered, theme.fg, 1.5, 3, grow);
@@ -129,6 +134,55 @@ function ring(
   ctx.lineWidth = width;
   ctx.strokeStyle = colour;
   ctx.stroke();
+}
+
+/** Radius of a trail point's marker in CSS pixels (the first, where the file starts, is larger). */
+export const TRAIL_MARK = 3.5;
+
+/**
+ * The trail: a line through the sections in reading order, then a small square per section with a
+ * background-coloured edge (so it reads over dense areas); the first section's square is larger.
+ */
+function drawTrail(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, theme: MapTheme): void {
+  const t = scene.trail;
+  if (!t || t.x.length === 0) return;
+  ctx.save();
+  ctx.globalAlpha = 0.85;
+  ctx.strokeStyle = theme.accent;
+  ctx.lineWidth = 1.5;
+  ctx.lineJoin = 'round';
+  ctx.beginPath();
+  for (let i = 0; i < t.x.length; i++) {
+    const sx = vp.sx(t.x[i]);
+    const sy = vp.sy(t.y[i]);
+    if (i === 0) ctx.moveTo(sx, sy);
+    else ctx.lineTo(sx, sy);
+  }
+  ctx.stroke();
+  ctx.globalAlpha = 1;
+  for (let i = 0; i < t.x.length; i++) {
+    const r = i === 0 ? TRAIL_MARK + 1.5 : TRAIL_MARK;
+    const sx = vp.sx(t.x[i]);
+    const sy = vp.sy(t.y[i]);
+    ctx.beginPath();
+    ctx.rect(sx - r, sy - r, 2 * r, 2 * r);
+    ctx.lineWidth = 2.5;
+    ctx.strokeStyle = theme.bg;
+    ctx.stroke();
+    ctx.fillStyle = theme.accent;
+    ctx.fill();
+    ctx.lineWidth = 1;
+    ctx.strokeStyle = theme.fg;
+    ctx.stroke();
+    if (scene.trailHovered === i) {
+      ctx.beginPath();
+      ctx.rect(sx - r - 3, sy - r - 3, 2 * r + 6, 2 * r + 6);
+      ctx.lineWidth = 1.5;
+      ctx.strokeStyle = theme.fg;
+      ctx.stroke();
+    }
+  }
+  ctx.restore();
 }
 
 function drawQuery(ctx: CanvasRenderingContext2D, vp: Viewport, scene: MapScene, theme: MapTheme, grow: number): void {

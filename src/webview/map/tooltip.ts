@@ -1,5 +1,5 @@
 /// <reference lib="dom" />
-/** The hover card for one file: path, topic with its colour, length and top terms. */
+/** The hover card for one file (path, topic with its colour, length and top terms) or one section of the trail. */
 import { el, formatCount } from './dom.js';
 
 export interface TooltipContent {
@@ -30,6 +30,24 @@ export class Tooltip {
         c.terms.map((t) => el('span', { className: 'um-chip', text: t })),
       ),
     );
+    this.place(clientX, clientY);
+  }
+
+  /** A section of the active file's trail: its title, line range, file and place in reading order. */
+  showSection(
+    s: { title: string; start: number; end: number; path: string; n: number; of: number },
+    clientX: number,
+    clientY: number,
+  ): void {
+    this.element.replaceChildren(
+      el('div', { className: 'um-tooltip-path', text: s.title }),
+      el('div', { className: 'um-tooltip-topic', text: `lines ${s.start + 1}–${s.end} · section ${s.n} of ${s.of}` }),
+      el('div', { className: 'um-tooltip-terms', text: s.path }),
+    );
+    this.place(clientX, clientY);
+  }
+
+  private place(clientX: number, clientY: number): void {
     this.element.hidden = false;
     const box = this.container.getBoundingClientRect();
     const w = this.element.offsetWidth;

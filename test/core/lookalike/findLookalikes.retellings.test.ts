@@ -19,8 +19,9 @@
  * - partial copies: recall ≥ 0.9 of the planted pairs with 0.3 ≤ J < 0.8, 0 reported outside
  *   (measured 35/35, 0 outside);
  * - same content, other words: at most 3 pairs not in the key (target; measured 0, precision 1.0)
- *   and ahead of plain TF-IDF cosine at the same number of false pairs; recall floors 0.14 overall,
- *   13/98 coreutils, 4/27 gnu-other (measured 2026-12-03: 20/125 = 0.16, 15/98, 5/27). The issue's
+ *   and ahead of plain TF-IDF cosine at the same number of false pairs; recall floors 0.24 overall,
+ *   22/98 coreutils, 6/27 gnu-other (measured 2026-12-03 with the rare-name clause as calibrated
+ *   against the CMake reference: 34/125 = 0.27, 26/98, 8/27; margin alone 20/125). The issue's
  *   recall target (≥ 55 %) is NOT met on this set: see the fixture README;
  * - the folder without the retellings' Texinfo side: at most 1 pair per 1,000 files (target;
  *   measured 0 in 1,660).
@@ -173,13 +174,13 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(partialTruth.length).toBeGreaterThan(20);
     expect(partialRecall).toBeGreaterThanOrEqual(0.9);
     expect(falsePartial).toBe(0);
-    // Target: at most 3 pairs not in the key (measured 2026-12-03: 0 of 20 reported).
+    // Target: at most 3 pairs not in the key (measured 2026-12-03: 0 of 34 reported).
     expect(falseRetold).toBeLessThanOrEqual(3);
     expect(hits.length / Math.max(1, retold.length)).toBeGreaterThanOrEqual(0.85);
-    // Floors below the measured recall (20/125; coreutils 15/98, gnu-other 5/27); the target of 0.55 is not met.
-    expect(recall).toBeGreaterThanOrEqual(0.14);
-    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(13);
-    expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(4);
+    // Floors below the measured recall (34/125; coreutils 26/98, gnu-other 8/27); the target of 0.55 is not met.
+    expect(recall).toBeGreaterThanOrEqual(0.24);
+    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(22);
+    expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(6);
     // Ahead of the baseline at the same number of false pairs (baseline measured: 4 with ≤ 3 false).
     expect(hits.length).toBeGreaterThan(baseSame);
   });

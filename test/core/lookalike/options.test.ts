@@ -26,6 +26,9 @@ describe('resolveLookalikeOptions', () => {
     [{ partialThreshold: 0.9 }, /partialThreshold/],
     [{ boilerplateFiles: 1 }, /boilerplateFiles/],
     [{ retoldMinGap: -0.1 }, /retoldMinGap/],
+    [{ retoldNameMinWords: -1 }, /retoldNameMinWords/],
+    [{ retoldMinWords: 1.5 }, /retoldMinWords/],
+    [{ retoldNameMinWords: 2.5 }, /retoldNameMinWords/],
   ])('rejects %j with a clear message', (bad, message) => {
     expect(() => resolveLookalikeOptions(bad)).toThrow(InvalidInputError);
     expect(() => resolveLookalikeOptions(bad)).toThrow(message);

@@ -67,6 +67,73 @@ describe('findRetoldPairs', () => {
   });
 });
 
+describe('findRetoldPairs, clause b: a smaller margin with the same rare names', () => {
+  const input = {
+    neighbours: [
+      [1, 2],
+      [0, 2],
+      [1, 0],
+    ],
+    cosines: [
+      [0.6, 0.45],
+      [0.6, 0.4],
+      [0.5, 0.4],
+    ],
+    jaccard: lowJ,
+    maxJaccard: 0.15,
+  };
+  const withNames = { ...rule, minNameGap: 0.1, minSharedNames: 2, minNameShare: 0.8 };
+  it('passes a mutual pair only 0.15 clear when it shares enough rare names', () => {
+    expect(findRetoldPairs(input, rule)).toEqual([]); // margin 0.15 < 0.3, no names given
+    const names = (a: number, b: number) => (a + b === 1 ? { shared: 3, share: 0.85 } : { shared: 0, share: 0 });
+    const pairs = findRetoldPairs({ ...input, names }, withNames);
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ a: 0, b: 1, sharedNames: 3, nameShare: 0.85 });
+    expect(pairs[0].score).toBeCloseTo(0.15 + 0.85, 12);
+  });
+  it('refuses it with too few names, too small a share, or too small a margin', () => {
+    const few = () => ({ shared: 1, share: 0.95 });
+    const thin = () => ({ shared: 5, share: 0.7 });
+    const full = () => ({ shared: 5, share: 0.95 });
+    expect(findRetoldPairs({ ...input, names: few }, withNames)).toEqual([]);
+    expect(findRetoldPairs({ ...input, names: thin }, withNames)).toEqual([]);
+    expect(findRetoldPairs({ ...input, names: full }, { ...withNames, minNameGap: 0.2 })).toEqual([]);
+  });
+  it('refuses it when the shorter file is a stub (fewer words than minNameWords); clause a is not affected', () => {
+    const full = () => ({ shared: 5, share: 0.95 });
+    const stub = { ...input, names: full, words: [40, 500, 500] };
+    expect(findRetoldPairs(stub, { ...withNames, minNameWords: 100 })).toEqual([]);
+    expect(findRetoldPairs(stub, { ...withNames, minNameWords: 40 })).toHaveLength(1);
+    expect(findRetoldPairs({ ...stub, words: [100, 500, 500] }, { ...withNames, minNameWords: 100 })).toHaveLength(1);
+    // The same short pair 0.35 clear passes by its margin alone.
+    const clear = {
+      ...stub,
+      cosines: [
+        [0.8, 0.45],
+        [0.8, 0.4],
+        [0.5, 0.4],
+      ],
+    };
+    expect(findRetoldPairs(clear, { ...withNames, minNameWords: 100 })).toHaveLength(1);
+  });
+  it('refuses a pair by either clause when the shorter file has fewer than minWords words', () => {
+    const full = () => ({ shared: 5, share: 0.95 });
+    const clear = {
+      ...input,
+      names: full,
+      words: [40, 500, 500],
+      cosines: [
+        [0.8, 0.45],
+        [0.8, 0.4],
+        [0.5, 0.4],
+      ],
+    };
+    expect(findRetoldPairs(clear, { ...withNames, minWords: 0 })).toHaveLength(1);
+    expect(findRetoldPairs(clear, { ...withNames, minWords: 50 })).toEqual([]);
+    expect(findRetoldPairs({ ...clear, words: [50, 500, 500] }, { ...withNames, minWords: 50 })).toHaveLength(1);
+  });
+});
+
 describe('boilerplate lines', () => {
   it('finds lines present in at least n files (trimmed, case and spacing ignored) and removes them', () => {
     const texts = ['Report bugs to the list.\nalpha', '  report   bugs to the list.\nbeta', 'REPORT BUGS TO THE LIST.\ngamma\nalpha'];

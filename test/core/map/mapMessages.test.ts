@@ -9,6 +9,7 @@ describe('page → host messages', () => {
       { type: 'open', index: 3, path: 'src/a.ts' },
       { type: 'query', requestId: 1, text: 'parse config' },
       { type: 'layoutChanged', layout: 'faithful' },
+      { type: 'openSection', point: 2 },
     ]) {
       expect(isPageToHostMessage(m)).toBe(true);
     }
@@ -24,6 +25,8 @@ describe('page → host messages', () => {
       { type: 'open', index: 1 },
       { type: 'query', requestId: 1, text: 'x'.repeat(MAX_QUERY_LENGTH + 1) },
       { type: 'layoutChanged', layout: 'spiral' },
+      { type: 'openSection', point: -1 },
+      { type: 'openSection', point: '2' },
     ]) {
       expect(isPageToHostMessage(m)).toBe(false);
     }
@@ -63,9 +66,24 @@ describe('host → page messages', () => {
       { type: 'queryError', requestId: 2, message: 'no known words' },
       { type: 'select', index: null },
       { type: 'theme', kind: 'high-contrast' },
+      { type: 'trail', trail: null },
+      { type: 'trail', trail: { path: 'a.md', points: [{ title: 'Intro', start: 0, end: 4, quick: { x: 0, y: 1 }, faithful: null }] } },
     ]) {
       expect(isHostToPageMessage(m)).toBe(true);
     }
+  });
+
+  it('rejects a trail with a bad point', () => {
+    const point = { title: 'Intro', start: 0, end: 4, quick: { x: 0, y: 1 }, faithful: null };
+    for (const bad of [
+      { ...point, start: -1 },
+      { ...point, start: 5 },
+      { ...point, quick: null },
+      { ...point, title: 3 },
+    ]) {
+      expect(isHostToPageMessage({ type: 'trail', trail: { path: 'a.md', points: [bad] } })).toBe(false);
+    }
+    expect(isHostToPageMessage({ type: 'trail', trail: { points: [point] } })).toBe(false);
   });
 
   it('rejects an init with damaged data and a query answer with mismatched lists', () => {

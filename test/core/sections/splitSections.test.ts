@@ -76,6 +76,46 @@ describe('splitSections on real files', () => {
     expect(s['VisualStudioConfiguration.Main.InstanceJson']).toBe(224);
   });
 
+  it('Java (Tomcat CompressionFilter.java): the class with its fields, methods from their Javadoc or annotation', () => {
+    const text = fixture('CompressionFilter.java');
+    const { kind, sections } = splitSections('compressionFilters/CompressionFilter.java', text);
+    expect(kind).toBe('code');
+    // Javadoc of `public class CompressionFilter` from 34 (the class on 38, its fields 40–71 with it);
+    // `@Override` on 73 above `public void init()` 74; the Javadoc of `doFilter` from 129, the method on
+    // 146 with its `throws` clause on 147; the file ends on 220.
+    expect(sections.map((s) => [s.title, s.start + 1, s.end])).toEqual([
+      ['package compressionFilters;', 1, 33],
+      ['CompressionFilter', 34, 72],
+      ['CompressionFilter.init', 73, 128],
+      ['CompressionFilter.doFilter', 129, 220],
+    ]);
+    expectTiling(sections, lineCount(text));
+  });
+
+  it('Java (Tomcat Stockticker.java): methods, a nested interface and a nested class with its own methods', () => {
+    const text = fixture('Stockticker.java');
+    const { sections } = splitSections('async/Stockticker.java', text);
+    const s = starts(sections);
+    // `public class Stockticker` 25 (fields 26–30 with it), `public synchronized void start()` 32,
+    // `@Override` 84 above `public void run()`, `public interface TickListener` 121,
+    // `public static final class Stock` 126 (fields 127–131), its constructor 133, `setCnt` 138,
+    // `@Override` 204 above `public Object clone()`.
+    expect(s).toMatchObject({
+      'package async;': 1,
+      Stockticker: 25,
+      'Stockticker.start': 32,
+      'Stockticker.run': 84,
+      'Stockticker.TickListener': 121,
+      'Stockticker.Stock': 126,
+      'Stockticker.Stock.Stock': 133,
+      'Stockticker.Stock.setCnt': 138,
+      'Stockticker.Stock.clone': 204,
+    });
+    // The package and imports, the class, its 6 methods, the interface, the nested class, its constructor and 13 methods.
+    expect(sections.length).toBe(1 + 1 + 6 + 1 + 1 + 14);
+    expectTiling(sections, lineCount(text));
+  });
+
   it('Python (numba core/utils.py): functions at column 0 and methods of classes', () => {
     const { sections } = splitSections('numba/core/utils.py', fixture('numba-utils.py'));
     const s = starts(sections);

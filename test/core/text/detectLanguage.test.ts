@@ -15,10 +15,11 @@ function pages(lang: string): string[] {
 }
 
 describe('detectLanguage', () => {
-  // Some translated pages keep untranslated English paragraphs, so English counts as no mistake.
+  // Some translated pages keep untranslated English paragraphs, so English counts as no mistake;
+  // fileLanguage reads a page with a clear second language in that language.
   it('names the language of translated manual pages, and seldom a third language', () => {
     for (const lang of ['de', 'fr', 'es', 'nl', 'sv']) {
-      const got = pages(lang).map((t) => detectLanguage(t, LANGUAGES));
+      const got = pages(lang).map((t) => fileLanguage('page.txt', t, 'auto'));
       const right = got.filter((g) => g === lang).length;
       const wrong = got.filter((g) => g !== undefined && g !== lang && g !== 'en').length;
       expect(right / got.length, lang).toBeGreaterThanOrEqual(0.75);
@@ -30,6 +31,8 @@ describe('detectLanguage', () => {
     const docs = loadCollection('cran').docs.slice(0, 200);
     const english = docs.filter((d) => detectLanguage(d.text, LANGUAGES) === 'en').length;
     expect(english / docs.length).toBeGreaterThanOrEqual(0.95);
+    const asFiles = docs.filter((d) => fileLanguage('abstract.txt', d.text, 'auto') === 'en').length;
+    expect(asFiles / docs.length).toBeGreaterThanOrEqual(0.95);
   });
 });
 
@@ -56,5 +59,18 @@ describe('queryLanguage', () => {
     expect(queryLanguage('how does the retry budget work', 'auto', 'de')).toBe('en');
     expect(queryLanguage('retry budget', 'auto', 'de')).toBe('de');
     expect(queryLanguage('retry budget', ['en'], 'de')).toBe('en');
+  });
+
+  // Spanish NAME lines of Debian's manpages-es 4.18.1 (known-item fixture): without the index's
+  // languages, some were read as Portuguese or French on their shared "de", "a", "o".
+  it('reads a question only in a language the index has', () => {
+    const questions = readFileSync(join(REPO_ROOT, 'test/fixtures/languages/known-item/es.jsonl'), 'utf8')
+      .split('\n')
+      .filter((l) => l.length > 0)
+      .map((l) => (JSON.parse(l) as { question: string }).question);
+    const got = questions.map((q) => queryLanguage(q, 'auto', 'es', ['es', 'en']));
+    expect(got.every((l) => l === 'es' || l === 'en')).toBe(true);
+    expect(got.filter((l) => l === 'es').length / got.length).toBeGreaterThanOrEqual(0.9);
+    expect(queryLanguage('o de a', 'auto', 'es', ['de'])).toBe('de');
   });
 });

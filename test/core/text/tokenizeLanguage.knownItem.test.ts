@@ -27,7 +27,14 @@ function load(lang: string): Page[] {
     .map((l) => JSON.parse(l) as Page);
 }
 
-function mrr(pages: readonly Page[], tokenize: Partial<TokenizeOptions>): { mrr: number; languages: Map<string, number> } {
+interface Run {
+  /** Reciprocal rank of each page for its question (0 when not in the top 10). */
+  readonly rr: number[];
+  readonly mrr: number;
+  readonly languages: Map<string, number>;
+}
+
+function run(pages: readonly Page[], tokenize: Partial<TokenizeOptions>): Run {
   const b = new IndexBuilder({ tokenize: tokenize as TokenizeOptions, seed: 1 });
   for (const p of pages) b.addText({ path: `${p.page}.txt`, size: p.text.length, mtimeMs: 0 }, p.text);
   const index = b.build();
@@ -36,8 +43,7 @@ function mrr(pages: readonly Page[], tokenize: Partial<TokenizeOptions>): { mrr:
     const l = index.meta(path)?.language ?? 'en';
     languages.set(l, (languages.get(l) ?? 0) + 1);
   }
-  let sum = 0;
-  for (const p of pages) {
+  const rr = pages.map((p) => {
     let hits: readonly { path: string }[] = [];
     try {
       hits = index.search(p.question, { top: 10 });
@@ -45,9 +51,17 @@ function mrr(pages: readonly Page[], tokenize: Partial<TokenizeOptions>): { mrr:
       // NoKnownTermsError: the question's words are all unknown (rank: none).
     }
     const rank = hits.findIndex((h) => h.path === `${p.page}.txt`);
-    if (rank >= 0) sum += 1 / (rank + 1);
-  }
-  return { mrr: sum / pages.length, languages };
+    return rank >= 0 ? 1 / (rank + 1) : 0;
+  });
+  return { rr, mrr: rr.reduce((a, b) => a + b, 0) / rr.length, languages };
+}
+
+/** Mean and standard error of the per-question differences a − b (paired). */
+function paired(a: Run, b: Run): { mean: number; se: number } {
+  const d = a.rr.map((x, i) => x - b.rr[i]);
+  const mean = d.reduce((s, x) => s + x, 0) / d.length;
+  const sd = Math.sqrt(d.reduce((s, x) => s + (x - mean) ** 2, 0) / (d.length - 1));
+  return { mean, se: sd / Math.sqrt(d.length) };
 }
 
 describe('tokenizeIn on translated manual pages (known-item search)', () => {
@@ -55,35 +69,43 @@ describe('tokenizeIn on translated manual pages (known-item search)', () => {
     const pages = load(lang);
     return {
       lang,
-      detected: mrr(pages, { stem: true, keepCompounds: true, languages: 'auto' }),
-      english: mrr(pages, { stem: true, keepCompounds: true, languages: ['en'] }),
-      unstemmed: mrr(pages, { stem: false, keepCompounds: true, languages: ['en'] }),
+      detected: run(pages, { stem: true, keepCompounds: true, languages: 'auto' }),
+      english: run(pages, { stem: true, keepCompounds: true, languages: ['en'] }),
+      unstemmed: run(pages, { stem: false, keepCompounds: true, languages: ['en'] }),
     };
   });
+  const fmt = (p: { mean: number; se: number }): string => `${p.mean >= 0 ? '+' : ''}${p.mean.toFixed(3)}±${p.se.toFixed(3)}`;
+  console.log(
+    results
+      .map(
+        (r) =>
+          `${r.lang} (${r.detected.rr.length} pages, read as ${[...r.detected.languages].map(([l, n]) => `${l} ${n}`).join(', ')}): ` +
+          `detected ${r.detected.mrr.toFixed(3)} english ${r.english.mrr.toFixed(3)} unstemmed ${r.unstemmed.mrr.toFixed(3)}; ` +
+          `detected−english ${fmt(paired(r.detected, r.english))} detected−unstemmed ${fmt(paired(r.detected, r.unstemmed))}`,
+      )
+      .join('\n'),
+  );
 
-  it('detects the language of at least three pages in four (the rest are read as English)', () => {
+  // Some translated pages are partly or wholly untranslated English (Spanish most: 15 of 160).
+  it('detects the language of at least 85% of the pages (the rest are read as English)', () => {
     for (const r of results) {
       const all = [...r.detected.languages.values()].reduce((a, b) => a + b, 0);
-      expect((r.detected.languages.get(r.lang) ?? 0) / all, r.lang).toBeGreaterThanOrEqual(0.75);
+      expect((r.detected.languages.get(r.lang) ?? 0) / all, r.lang).toBeGreaterThanOrEqual(0.85);
     }
   });
 
-  // Measured (see the report of issue 16): per-language stemming does not beat English rules on
-  // this task (questions reuse the page's own words); the check is that it costs little.
-  it('finds pages by their description about as well with the detected language as with English rules or none (within 0.03 MRR on average)', () => {
-    const mean = (f: (r: (typeof results)[number]) => number): number => results.reduce((s, r) => s + f(r), 0) / results.length;
-    const detected = mean((r) => r.detected.mrr);
-    const unstemmed = mean((r) => r.unstemmed.mrr);
-    const english = mean((r) => r.english.mrr);
-    console.log(
-      results
-        .map(
-          (r) =>
-            `${r.lang}: detected ${r.detected.mrr.toFixed(3)} english ${r.english.mrr.toFixed(3)} unstemmed ${r.unstemmed.mrr.toFixed(3)}`,
-        )
-        .join('\n'),
-    );
-    expect(detected).toBeGreaterThan(unstemmed - 0.03);
-    expect(detected).toBeGreaterThan(english - 0.03);
+  // Measured (report of issue 16): Dutch and Swedish +0.02 to +0.04 over English rules and over
+  // no stemming, German, French and Spanish level to -0.02; every difference is within 1.2
+  // standard errors of the paired differences (0.013-0.039), so this material shows no real
+  // gain: its questions are the pages' own NAME lines and mostly reuse the pages' words. The
+  // checks: no language loses more than 0.04 to either reference, and Dutch and Swedish stay
+  // above no stemming.
+  it('finds pages by their description at least about as well in the detected language, per language', () => {
+    for (const r of results) {
+      expect(r.detected.mrr, r.lang).toBeGreaterThan(r.english.mrr - 0.04);
+      expect(r.detected.mrr, r.lang).toBeGreaterThan(r.unstemmed.mrr - 0.04);
+    }
+    for (const r of results.filter((x) => x.lang === 'nl' || x.lang === 'sv'))
+      expect(r.detected.mrr, r.lang).toBeGreaterThan(r.unstemmed.mrr + 0.01);
   });
 });

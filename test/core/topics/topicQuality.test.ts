@@ -4,15 +4,23 @@
  * see its README):
  *  - Names: NPMI coherence (Röder, Both & Hinneburg 2015, C_NPMI over whole files; coherence.ts)
  *    of each topic's top 10 terms, against scikit-learn's NMF on TF-IDF with as many components as
- *    there are topics at that level (top 10 terms per component), at every level of the tree.
+ *    there are topics at that level (top 10 terms per component), at the first two levels. Two
+ *    protocols: (a) the tree, NMF and the score on all files; (b) held out: every other file (in
+ *    the fixture's path order) builds the index, the tree and its names and fits NMF, and NPMI is
+ *    counted over the other half only. Our names are chosen with a co-occurrence measure
+ *    (coherentNames.ts) close to the one scored, so (a) favours us; (b) scores both sides on
+ *    files neither saw.
  *  - Structure: normalised mutual information between topics and top-level folders, against
- *    scikit-learn's KMeans (n_init 10) on the same concept vectors with the same number of
- *    clusters, at every level.
+ *    scikit-learn's KMeans (n_init 10) on the same concept vectors, at the first two levels, for
+ *    each of the seeds 0, 1, 2 with the number of clusters our tree has with that seed (one seed's
+ *    figure moves by a few hundredths on either side, so one seed against one seed decides
+ *    nothing): the means are compared. Like with like: loose files are kept in their nearest topic (setApartLoose: false)
+ *    so that both sides cover every file. The default (loose files set apart) is reported at the
+ *    first level too, the loose files as one more cluster and left out of both sides.
  * scikit-learn runs in this test (test/helpers/sklearnTopics.py through Debian's /usr/bin/python3;
- * .ci/run installs python3-sklearn). Loose files are kept in their nearest topic here
- * (setApartLoose: false) so that both sides cover every file. The first two levels (the cost of
- * NMF grows with the number of components: the third level of the CMake tree has 270 topics and
- * takes scikit-learn many minutes on a shared machine).
+ * .ci/run installs python3-sklearn). The first two levels only (the cost of NMF grows with the
+ * number of components: the third level of the CMake tree has 270 topics and takes scikit-learn
+ * many minutes on a shared machine).
  */
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -20,46 +28,44 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { gunzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
+import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
+import type { CsrMatrix } from '../../../src/core/matrix/sparse.js';
 import { npmiCoherence } from '../../../src/core/topics/coherence.js';
 import { weightedMatrix } from '../../../src/core/topics/indexMatrix.js';
 import { isUnnameable } from '../../../src/core/topics/topicNames.js';
-import { findTopics, topicsAtLevel } from '../../../src/core/topics/topics.js';
+import { findTopics, topicsAtLevel, type Topic } from '../../../src/core/topics/topics.js';
 import { fixturePath, REPO_ROOT } from '../../helpers/shared.js';
 
 const PYTHON = '/usr/bin/python3';
 const sklearnReady = spawnSync(PYTHON, ['-c', 'import sklearn'], { stdio: 'ignore' }).status === 0;
 const TOP = 10;
-const SEED = 0;
+const SEEDS = [0, 1, 2];
+const LEVELS = 2;
 
-function loadTree(name: string): { path: string; text: string }[] {
+interface Doc {
+  path: string;
+  text: string;
+}
+
+function loadTree(name: string): Doc[] {
   return gunzipSync(readFileSync(fixturePath(`topic-trees/${name}.jsonl.gz`)))
     .toString('utf8')
     .split('\n')
     .filter((l) => l.trim())
-    .map((l) => JSON.parse(l) as { path: string; text: string });
+    .map((l) => JSON.parse(l) as Doc);
 }
 
-interface LevelFigures {
-  level: number;
-  k: number;
-  oursNpmi: number;
-  nmfNpmi: number;
-  oursNmi: number;
-  kmeansNmi: number;
-}
-
-function evaluate(name: string): LevelFigures[] {
-  const docs = loadTree(name);
+function indexOf(docs: readonly Doc[]): LsiIndex {
   const b = new IndexBuilder();
   for (const d of docs) b.addText({ path: d.path, size: d.text.length, mtimeMs: 0 }, d.text);
-  const index = b.build();
-  const report = findTopics(index, { termsPerTopic: TOP, setApartLoose: false });
+  return b.build();
+}
+
+/** Raw counts over the model's columns, rows in weightedMatrix's order (for NMF's TF-IDF). */
+function modelCounts(index: LsiIndex) {
   const im = weightedMatrix(index);
   const model = index.model;
-  const colOfTerm = new Map<string, number>();
-  model.keptIds.forEach((id, col) => colOfTerm.set(index.vocab.termOf(id), col));
-  // Raw counts over the model's columns, rows in the matrix's order (for NMF's TF-IDF).
   const indptr = [0];
   const indices: number[] = [];
   const data: number[] = [];
@@ -78,70 +84,170 @@ function evaluate(name: string): LevelFigures[] {
     }
     indptr.push(indices.length);
   }
+  const nameable = Array.from(model.keptIds, (id) => !isUnnameable(index.vocab.termOf(id)));
+  return { im, counts: { rows: im.paths.length, cols: model.keptIds.length, indptr, indices, data }, nameable };
+}
+
+function sklearn(query: object): {
+  nmfTop: number[][][];
+  levels: { kmeansNmi: number[]; oursNmi: number[]; looseOwn?: number; looseDropped?: number; kmeansDropped?: number[] }[];
+  version: string;
+} {
+  const dir = mkdtempSync(join(tmpdir(), 'undertone-topics-'));
+  try {
+    const input = join(dir, 'in.json');
+    writeFileSync(input, JSON.stringify(query));
+    return JSON.parse(
+      execFileSync(PYTHON, [join(REPO_ROOT, 'test', 'helpers', 'sklearnTopics.py'), input], { maxBuffer: 64 << 20 }).toString(),
+    ) as ReturnType<typeof sklearn>;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+/**
+ * NPMI of term sets (term strings) over documents the sets were not chosen on: a boolean file ×
+ * term matrix of the given index's files, its columns the distinct terms of the sets.
+ */
+function heldOutNpmi(scoring: LsiIndex, termSets: readonly (readonly string[])[]): number[] {
+  const colOf = new Map<string, number>();
+  for (const set of termSets) for (const t of set) if (!colOf.has(t)) colOf.set(t, colOf.size);
+  const indptr = [0];
+  const indices: number[] = [];
+  for (const slot of scoring.slots()) {
+    if (!slot) continue;
+    const cols = [...new Set(Array.from(slot.terms.termIds, (id) => colOf.get(scoring.vocab.termOf(id)) ?? -1))]
+      .filter((c) => c >= 0)
+      .sort((a, b) => a - b);
+    indices.push(...cols);
+    indptr.push(indices.length);
+  }
+  const matrix: CsrMatrix = {
+    rows: indptr.length - 1,
+    cols: colOf.size,
+    indptr: Int32Array.from(indptr),
+    indices: Int32Array.from(indices),
+    values: new Float64Array(indices.length).fill(1),
+  };
+  return npmiCoherence(
+    matrix,
+    termSets.map((set) => set.map((t) => colOf.get(t)!)),
+  );
+}
+
+const mean = (xs: readonly number[]) => {
+  const f = xs.filter((x) => Number.isFinite(x));
+  return f.reduce((s, x) => s + x, 0) / f.length;
+};
+const spread = (xs: readonly number[]) => `${mean(xs).toFixed(3)} [${Math.min(...xs).toFixed(3)}–${Math.max(...xs).toFixed(3)}]`;
+
+interface LevelFigures {
+  level: number;
+  k: number;
+  oursNpmi: number;
+  nmfNpmi: number;
+  heldOutK: number;
+  oursNpmiHeldOut: number;
+  nmfNpmiHeldOut: number;
+  oursNmi: number[];
+  kmeansNmi: number[];
+}
+
+function evaluate(name: string): LevelFigures[] {
+  const docs = loadTree(name);
+  const index = indexOf(docs);
+  const { im, counts, nameable } = modelCounts(index);
+  const colOfTerm = new Map<string, number>();
+  index.model.keptIds.forEach((id, col) => colOfTerm.set(index.vocab.termOf(id), col));
   const rowOf = new Map(im.paths.map((p, r) => [p, r]));
-  const dims = index.k;
-  const all = index.vectors();
-  const vectors: number[] = [];
-  for (const s of im.slots) for (let c = 0; c < dims; c++) vectors.push(all[s * dims + c]);
-  const folders = im.paths.map((p) => p.split('/')[0]);
-  const levels = Math.min(2, report.levels);
-  const cuts = Array.from({ length: levels }, (_, i) => topicsAtLevel(report.topics, i + 1));
-  const labelsOf = (cut: ReturnType<typeof topicsAtLevel>) => {
+  const labelsOf = (cut: readonly Topic[]) => {
     const labels = new Array<number>(im.paths.length).fill(-1);
     cut.forEach((t, i) => t.members.forEach((m) => (labels[rowOf.get(m)!] = i)));
     return labels;
   };
-  const dir = mkdtempSync(join(tmpdir(), 'undertone-topics-'));
-  try {
-    const input = join(dir, 'in.json');
-    const nameable = Array.from(model.keptIds, (id) => !isUnnameable(index.vocab.termOf(id)));
-    writeFileSync(
-      input,
-      JSON.stringify({
-        counts: { rows: im.paths.length, cols: model.keptIds.length, indptr, indices, data },
-        nameable: [...nameable],
-        vectors,
-        dims,
-        folders,
-        levels: cuts.map((cut) => ({ k: cut.length, ours: labelsOf(cut) })),
-        topTerms: TOP,
-        seed: SEED,
-      }),
-    );
-    const ref = JSON.parse(
-      execFileSync(PYTHON, [join(REPO_ROOT, 'test', 'helpers', 'sklearnTopics.py'), input], { maxBuffer: 64 << 20 }).toString(),
-    ) as {
-      levels: { k: number; nmfTop: number[][]; kmeansNmi: number; oursNmi: number }[];
-      version: string;
-    };
-    const mean = (xs: number[]) =>
-      xs.filter((x) => Number.isFinite(x)).reduce((s, x) => s + x, 0) / xs.filter((x) => Number.isFinite(x)).length;
-    const figures = cuts.map((cut, i) => ({
-      level: i + 1,
-      k: cut.length,
-      oursNpmi: mean(
-        npmiCoherence(
-          im.matrix,
-          cut.map((t) => t.terms.map((x) => colOfTerm.get(x.term)!)),
-        ),
+  const reports = SEEDS.map((seed) => findTopics(index, { termsPerTopic: TOP, setApartLoose: false, seed }));
+  const levels = Math.min(LEVELS, ...reports.map((r) => r.levels));
+  const cutsOf = (topics: readonly Topic[]) => Array.from({ length: levels }, (_, i) => topicsAtLevel(topics, i + 1));
+  const cuts = reports.map((r) => cutsOf(r.topics));
+  // The default, loose files set apart: at the first level the grouping is the same as without
+  // (the same seed), only the loose files leave their topic.
+  const looseSet = new Set(findTopics(index, { depth: 1, seed: SEEDS[0] }).loose.map((l) => l.path));
+  const dims = index.k;
+  const all = index.vectors();
+  const vectors: number[] = [];
+  for (const s of im.slots) for (let c = 0; c < dims; c++) vectors.push(all[s * dims + c]);
+  const ref = sklearn({
+    counts,
+    nameable,
+    nmfK: cuts[0].map((cut) => cut.length),
+    topTerms: TOP,
+    seed: SEEDS[0],
+    vectors,
+    dims,
+    folders: im.paths.map((p) => p.split('/')[0]),
+    seeds: SEEDS,
+    levels: cuts[0].map((_, l) => ({
+      ks: cuts.map((c) => c[l].length),
+      ours: cuts.map((c) => labelsOf(c[l])),
+      ...(l === 0 ? { loose: im.paths.map((p) => (looseSet.has(p) ? 1 : 0)) } : {}),
+    })),
+  });
+
+  // Held out: the tree, its names and NMF from every other file; NPMI over the rest.
+  const naming = docs.filter((_, i) => i % 2 === 0);
+  const scoring = indexOf(docs.filter((_, i) => i % 2 === 1));
+  const half = indexOf(naming);
+  const halfReport = findTopics(half, { termsPerTopic: TOP, setApartLoose: false, seed: SEEDS[0] });
+  const halfCuts = Array.from({ length: Math.min(levels, halfReport.levels) }, (_, i) => topicsAtLevel(halfReport.topics, i + 1));
+  const halfCounts = modelCounts(half);
+  const halfRef = sklearn({ ...halfCounts, nmfK: halfCuts.map((c) => c.length), topTerms: TOP, seed: SEEDS[0] });
+  const halfTerm = (col: number) => half.vocab.termOf(half.model.keptIds[col]);
+
+  const figures = cuts[0].map((cut, i) => ({
+    level: i + 1,
+    k: cut.length,
+    oursNpmi: mean(
+      npmiCoherence(
+        im.matrix,
+        cut.map((t) => t.terms.map((x) => colOfTerm.get(x.term)!)),
       ),
-      nmfNpmi: mean(npmiCoherence(im.matrix, ref.levels[i].nmfTop)),
-      oursNmi: ref.levels[i].oursNmi,
-      kmeansNmi: ref.levels[i].kmeansNmi,
-    }));
-    console.log(
-      `${name} (${docs.length} files, k=${dims}, scikit-learn ${ref.version}):\n` +
-        figures
-          .map(
-            (f) =>
-              `  level ${f.level}: ${f.k} topics · NPMI ours ${f.oursNpmi.toFixed(3)} vs NMF ${f.nmfNpmi.toFixed(3)} · NMI ours ${f.oursNmi.toFixed(3)} vs k-means ${f.kmeansNmi.toFixed(3)}`,
-          )
-          .join('\n'),
-    );
-    return figures;
-  } finally {
-    rmSync(dir, { recursive: true, force: true });
-  }
+    ),
+    nmfNpmi: mean(npmiCoherence(im.matrix, ref.nmfTop[i])),
+    heldOutK: halfCuts[i]?.length ?? 0,
+    oursNpmiHeldOut: halfCuts[i]
+      ? mean(
+          heldOutNpmi(
+            scoring,
+            halfCuts[i].map((t) => t.terms.map((x) => x.term)),
+          ),
+        )
+      : NaN,
+    nmfNpmiHeldOut: halfCuts[i]
+      ? mean(
+          heldOutNpmi(
+            scoring,
+            halfRef.nmfTop[i].map((set) => set.map(halfTerm)),
+          ),
+        )
+      : NaN,
+    oursNmi: ref.levels[i].oursNmi,
+    kmeansNmi: ref.levels[i].kmeansNmi,
+  }));
+  const first = ref.levels[0];
+  console.log(
+    `${name} (${docs.length} files, k=${dims}, scikit-learn ${ref.version}; NMI as mean [min–max] over seeds ${SEEDS.join(', ')}):\n` +
+      figures
+        .map(
+          (f) =>
+            `  level ${f.level}: ${f.k} topics (seeds: ${cuts.map((c) => c[f.level - 1].length).join(', ')}) · NPMI ours ${f.oursNpmi.toFixed(3)} vs NMF ${f.nmfNpmi.toFixed(3)}` +
+            ` · held out (${f.heldOutK} topics) ours ${f.oursNpmiHeldOut.toFixed(3)} vs NMF ${f.nmfNpmiHeldOut.toFixed(3)}` +
+            ` · NMI ours ${spread(f.oursNmi)} vs k-means ${spread(f.kmeansNmi)}`,
+        )
+        .join('\n') +
+      `\n  level 1, ${looseSet.size} loose files set apart (seed ${SEEDS[0]}): NMI with them as one more cluster ${first.looseOwn!.toFixed(3)};` +
+      ` without them ours ${first.looseDropped!.toFixed(3)} vs k-means ${spread(first.kmeansDropped!)}`,
+  );
+  return figures;
 }
 
 describe('topic tree against scikit-learn on documentation trees', () => {
@@ -151,20 +257,23 @@ describe('topic tree against scikit-learn on documentation trees', () => {
   });
   for (const name of ['cmake', 'django']) {
     it.skipIf(!sklearnReady)(
-      `${name}: names at least as coherent as NMF's and topics at least as close to the folders as k-means' at the first two levels (CMake's first-level NMI: within 0.04, a measured gap)`,
-      { timeout: 600_000 },
+      `${name}: names at least as coherent as NMF's (on all files and held out) and topics at least as close to the folders as k-means' (mean over seeds) at the first two levels, two measured gaps held as floors`,
+      { timeout: 900_000 },
       () => {
         const figures = evaluate(name);
         expect(figures.length).toBeGreaterThanOrEqual(2);
-        // The goal is at or above the reference at every level. Measured (2026-12-03, scikit-learn
-        // 1.2.1, names chosen as a co-occurring set, coherentNames.ts): NPMI CMake 0.517 vs 0.392 and
-        // 0.490 vs 0.375, Django 0.476 vs 0.319 and 0.499 vs 0.350; NMI CMake 0.388 vs 0.413 at the
-        // first level (below: the one gap left, held as a floor 0.04 under the reference, our choice)
-        // and 0.427 vs 0.411 at the second, Django 0.404 vs 0.371 and 0.362 vs 0.323.
+        // The goal is at or above the reference everywhere. Measured (2026-12-03, scikit-learn
+        // 1.2.1): NPMI on all files CMake 0.511 vs 0.392 and 0.465 vs 0.362, Django 0.414 vs 0.264
+        // and 0.467 vs 0.336; held out CMake 0.432 vs 0.369 and 0.366 vs 0.338, Django 0.349 vs
+        // 0.300 and 0.233 vs 0.259 (below); NMI means over seeds 0–2 CMake 0.388 vs 0.406 (below)
+        // and 0.413 vs 0.409, Django 0.372 vs 0.344 and 0.370 vs 0.348. The two gaps are held as
+        // floors 0.04 under the reference (our choice), every other figure at the reference.
         for (const f of figures) {
           expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi);
-          if (name === 'cmake' && f.level === 1) expect(f.oursNmi).toBeGreaterThanOrEqual(f.kmeansNmi - 0.04);
-          else expect(f.oursNmi).toBeGreaterThanOrEqual(f.kmeansNmi);
+          const heldOutGap = name === 'django' && f.level === 2 ? 0.04 : 0;
+          expect(f.oursNpmiHeldOut).toBeGreaterThanOrEqual(f.nmfNpmiHeldOut - heldOutGap);
+          const nmiGap = name === 'cmake' && f.level === 1 ? 0.04 : 0;
+          expect(mean(f.oursNmi)).toBeGreaterThanOrEqual(mean(f.kmeansNmi) - nmiGap);
         }
       },
     );

@@ -171,6 +171,42 @@ describe('concept map requests', () => {
     await expect(h.mapQuery({ token, text: 'zzqx vvqk' }, ctx)).rejects.toMatchObject({ name: 'NoKnownTermsError' });
     await expect(h.mapQuery({ token: token + 1000, text: 'refund' }, ctx)).rejects.toMatchObject({ name: 'MapOutdatedError' });
   });
+
+  it('places the sections of a file as a trail, each where the map places its text as a query', async () => {
+    const { token } = await h.mapData({}, ctx);
+    const file = join(folder, 'notes', 'ticketing', 'refund-policy.md');
+    const trail = (await h.mapTrail({ token, fsPath: file }, ctx))!;
+    expect(trail.path).toBe('notes/ticketing/refund-policy.md');
+    const sections = service.index!.sections.get(trail.path)!;
+    expect(trail.points.map((p) => p.title)).toEqual(sections.titles);
+    // Reference: the map's query placement of the section's own text (it folds the text again).
+    const lines = readFileSync(file, 'utf8').split('\n');
+    for (const p of trail.points.slice(0, 4)) {
+      const q = await h.mapQuery({ token, text: lines.slice(p.start, p.end).join('\n') }, ctx);
+      expect(p.quick.x).toBeCloseTo(q.positions.quick!.x, 4);
+      expect(p.faithful!.y).toBeCloseTo(q.positions.faithful!.y, 4);
+    }
+    expect(await h.mapTrail({ token, fsPath: join(tmp, 'elsewhere.md') }, ctx)).toBeNull();
+    await expect(h.mapTrail({ token: token + 1000, fsPath: file }, ctx)).rejects.toMatchObject({ name: 'MapOutdatedError' });
+  });
+});
+
+describe('why section results match', () => {
+  it('gives each section found by a search terms whose shares add up to its score', async () => {
+    const hits = await h.searchSections({ query: 'what happens to tickets when a crossing is called off', top: 5 }, ctx);
+    expect(hits.length).toBe(5);
+    for (const hit of hits) expect(hit.why!.terms.reduce((s, t) => s + t.share, 0) + hit.why!.rest).toBeCloseTo(hit.score, 4);
+  });
+
+  it('gives each section near the cursor terms and concepts that add up to its cosine', async () => {
+    const near = (await h.nearbySections({ fsPath: join(folder, 'notes', 'ticketing', 'refund-policy.md'), line: 12, top: 5 }, ctx))!;
+    expect(near.hits.length).toBe(5);
+    for (const hit of near.hits) {
+      const why = hit.why!;
+      expect(why.terms.reduce((s, t) => s + t.share, 0) + why.rest).toBeCloseTo(hit.score, 4);
+      expect(why.concepts!.reduce((s, c) => s + c.share, 0) + why.conceptRest!).toBeCloseTo(hit.score, 4);
+    }
+  });
 });
 
 describe('why search and nearby results match', () => {

@@ -64,6 +64,20 @@ describe('LinkService.suggest', () => {
     expect(answered).toBeGreaterThan(0);
   });
 
+  it('reads again only the note that changed, and follows its new link', async () => {
+    const key = md(pages[0].id);
+    const first = (await service.suggest(join(dir, key), 5))!;
+    const target = first.suggestions[0]?.key;
+    expect(target).toBeDefined();
+    const text = `# ${pages[0].id}\n\n${pages[0].text}\n\n[[${target!.replace(/\.md$/, '')}]]\n`;
+    writeFileSync(join(dir, key), text);
+    index.foldIn({ path: key, size: text.length, mtimeMs: 1 }, text);
+    const again = (await service.suggest(join(dir, key), 5))!;
+    expect(service.lastRefresh).toEqual({ read: 1, kept: pages.length - 1 });
+    expect(again.suggestions.map((s) => s.key)).not.toContain(target);
+    expect(again.linked).toBe(first.linked + 1);
+  });
+
   it('answers null for a file that is not a note, outside the folders, or not indexed', async () => {
     expect(await service.suggest(join(dir, 'tool.py'), 5)).toBeNull();
     expect(await service.suggest('/elsewhere/a.md', 5)).toBeNull();

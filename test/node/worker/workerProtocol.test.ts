@@ -30,6 +30,7 @@ describe('protocol message checks', () => {
       topics: true,
       mapData: true,
       mapQuery: true,
+      mapTrail: true,
       suggestLinks: true,
     };
     expect([...REQUEST_TYPES].sort()).toEqual(Object.keys(declared).sort());

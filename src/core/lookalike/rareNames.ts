@@ -1,0 +1,62 @@
+/**
+ * Shared rare names: how much of two files' rare identifiers they hold in common.
+ *
+ * A retelling of a program or an interface repeats its specific names — its long options
+ * (`--ignore-garbage`), its identifiers (`snake_case`, `camelCase`) — while a neighbour of the same
+ * area shares the area's words but other names. Names are taken from the raw text (no stemming),
+ * lowercased; a name is rare when at most `maxDf` files hold it. Each rare name weighs its idf,
+ * ln(n / df) (Spärck Jones 1972); the pair's share is the weight of the names both files hold over
+ * the geometric mean of each file's own rare-name weight (a cosine over binary idf-weighted name
+ * sets, Salton & Buckley 1988). Bare numbers are not names: the code tables of one family of
+ * pages (character sets) share them without telling the same thing.
+ */
+
+/** Long options, snake_case and camelCase identifiers. */
+const NAME = /(?<![\w-])--[A-Za-z][\w-]*|\b[A-Za-z]+_\w+|\b[a-z]+[A-Z]\w*/g;
+
+/** The distinct names of a text, lowercased, trailing dots and hyphens dropped. */
+export function namesOf(text: string): string[] {
+  const out = new Set<string>();
+  for (const m of text.matchAll(NAME)) out.add(m[0].toLowerCase().replace(/[.-]+$/, ''));
+  return [...out];
+}
+
+export interface RareNames {
+  /** Rare names both files hold. */
+  readonly shared: number;
+  /** Their idf weight over the geometric mean of each file's rare-name weight (0 when either has none). */
+  readonly share: number;
+}
+
+export interface RareNameIndex {
+  /** Shared rare names of files a and b (positions in the list given to rareNameIndex). */
+  readonly pair: (a: number, b: number) => RareNames;
+}
+
+/** Name sets of the files, their document frequencies, and a pair scorer. */
+export function rareNameIndex(texts: readonly string[], maxDf: number): RareNameIndex {
+  const n = texts.length;
+  const sets = texts.map(namesOf);
+  const df = new Map<string, number>();
+  for (const s of sets) for (const w of s) df.set(w, (df.get(w) ?? 0) + 1);
+  const weight = (w: string): number => {
+    const d = df.get(w) ?? 0;
+    return d > 0 && d <= maxDf ? Math.log(n / d) : 0;
+  };
+  const rare = sets.map((s) => new Map(s.filter((w) => weight(w) > 0).map((w) => [w, weight(w)])));
+  const total = rare.map((m) => [...m.values()].reduce((x, y) => x + y, 0));
+  return {
+    pair(a, b) {
+      const [small, big] = rare[a].size <= rare[b].size ? [rare[a], rare[b]] : [rare[b], rare[a]];
+      let shared = 0;
+      let w = 0;
+      for (const [name, x] of small) {
+        if (!big.has(name)) continue;
+        shared++;
+        w += x;
+      }
+      const d = Math.sqrt(total[a] * total[b]);
+      return { shared, share: d > 0 ? w / d : 0 };
+    },
+  };
+}

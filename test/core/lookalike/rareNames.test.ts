@@ -1,0 +1,56 @@
+/**
+ * Rare names (rareNames.ts). Texts: excerpts of the base64(1) manual page and the "base64
+ * invocation" node of the GNU coreutils 9.1 Texinfo manual (Debian 12 coreutils 9.1-1, GFDL; the
+ * same pair is in test/fixtures/lookalike-retellings), and of the strspn(3) page (Debian 12
+ * manpages-dev 6.03-2). Expected shares are worked by hand from the formula in the header.
+ */
+import { describe, expect, it } from 'vitest';
+import { namesOf, rareNameIndex } from '../../../src/core/lookalike/rareNames.js';
+
+const man = `base64 - base64 encode/decode data and print to standard output
+       -d, --decode
+              decode data
+       -i, --ignore-garbage
+              when decoding, ignore non-alphabet characters
+       -w, --wrap=COLS
+              wrap encoded lines after COLS character (default 76).
+       --help display this help and exit`;
+const info = `‘-w COLS’
+‘--wrap=COLS’
+     During encoding, wrap lines after COLS characters.
+‘-d’
+‘--decode’
+     Change the mode of operation, from the default of encoding data, to decoding data.
+‘-i’
+‘--ignore-garbage’
+     When decoding, newlines are always accepted.`;
+const strspn = `size_t strspn(const char *s, const char *accept);
+The strspn() function calculates the length (in bytes) of the initial segment of s which consists
+entirely of bytes in accept. See also strpbrk(3) and wcsspn(3) for the wide-character case; --help`;
+
+describe('namesOf', () => {
+  it('takes long options, snake_case and camelCase names, not short options, words or numbers', () => {
+    expect(namesOf(man).sort()).toEqual(['--decode', '--help', '--ignore-garbage', '--wrap']);
+    expect(namesOf(strspn).sort()).toEqual(['--help', 'size_t']);
+    expect(namesOf('see fooBar and foo_bar. 76 non-alphabet')).toEqual(['foobar', 'foo_bar']);
+  });
+});
+
+describe('rareNameIndex', () => {
+  it('weighs the names both files hold by idf, over the geometric mean of their own weights', () => {
+    const idx = rareNameIndex([man, info, strspn], 2);
+    // --help is in 2 of 3 files (rare at maxDf 2, weight ln 1.5); --decode, --ignore-garbage, --wrap
+    // in 2 (ln 1.5 each); size_t in 1 (ln 3). man: 4 × ln 1.5; info: 3 × ln 1.5; shared: 3 × ln 1.5.
+    const l = Math.log(1.5);
+    const p = idx.pair(0, 1);
+    expect(p.shared).toBe(3);
+    expect(p.share).toBeCloseTo((3 * l) / Math.sqrt(4 * l * 3 * l), 12);
+    // man and strspn share only --help: ln 1.5 / sqrt(4 ln 1.5 × (ln 1.5 + ln 3)).
+    expect(idx.pair(0, 2).share).toBeCloseTo(l / Math.sqrt(4 * l * (l + Math.log(3))), 12);
+    expect(idx.pair(1, 2)).toEqual({ shared: 0, share: 0 });
+  });
+  it('ignores names held by more than maxDf files', () => {
+    const idx = rareNameIndex([man, info, strspn], 1);
+    expect(idx.pair(0, 1)).toEqual({ shared: 0, share: 0 });
+  });
+});
