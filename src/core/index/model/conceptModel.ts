@@ -150,8 +150,8 @@ function buildModelAndMatrix(
  * time, in order, as projectTerms does, so the bits agree), then the same axis scaling and
  * normalisation. The term vectors go to the executor in blocks of columns of at most
  * blockBytes as f64 (each output column is the same sum whatever the block, so the bits do not
- * change), not as one f64 copy of all of them: that copy (terms × k × 8 bytes) was the build's
- * memory peak.
+ * change), not as one f64 copy of all of them (terms × k × 8 bytes: 83 MB on 51,741 terms at
+ * k = 200, 160 MB on 100,000).
  */
 export function projectMatrixRows(
   model: ConceptModel,
