@@ -264,7 +264,8 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool() : undefined;
     // A shared concept model (import-model, undertone.conceptModel): fold into it, no local SVD.
     const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
-    const executor = buildPool?.executor();
+    // Kept for the sections' fold, then dropped with the pool (it holds the shared memory).
+    let executor = buildPool?.executor();
     const aborted = {
       get aborted() {
         return cancelled();
@@ -300,6 +301,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       lap('sections');
     }
     // The threads (and the shared memory of the SVD) are not needed to save.
+    executor = undefined;
     await releasePool();
 
     // ---- save

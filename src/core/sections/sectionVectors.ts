@@ -16,7 +16,7 @@ import { projectTerms, type ConceptModel } from '../index/model/conceptModel.js'
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { copyCsr, type CsrMatrix } from '../matrix/sparse.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
-import { weightDocument } from '../weighting/termWeighting.js';
+import { localWeight } from '../weighting/termWeighting.js';
 import { tokenize, type TokenizeOptions } from '../text/tokenize.js';
 import { splitLines, splitSections } from './splitSections.js';
 import type { Section, SectionOptions } from './types.js';
@@ -115,13 +115,17 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
     const chunk = Math.max(1, Math.floor(options.chunkSections ?? FOLD_CHUNK_SECTIONS));
     const fileOf = new Int32Array(chunk);
     const sectionOf = new Int32Array(chunk);
+    // The chunk's weighted rows (CSR), reused from chunk to chunk.
+    const indptr = new Int32Array(chunk + 1);
+    let indices = new Int32Array(1 << 16);
+    let vals = new Float64Array(1 << 16);
+    const { columnOf, weights, scheme, axisScale } = model;
     let f = 0;
     let s = 0;
     for (;;) {
-      const columns: Int32Array[] = [];
-      const values: Float64Array[] = [];
-      let nnz = 0;
-      while (f < files.length && columns.length < chunk) {
+      let rows = 0;
+      let p = 0;
+      while (f < files.length && rows < chunk) {
         const file = files[f];
         if (s >= file.starts.length) {
           f++;
@@ -130,28 +134,45 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
         }
         const a = file.offsets[s];
         const b = file.offsets[s + 1];
-        const terms: DocTerms = { termIds: file.termIds.subarray(a, b), counts: file.counts.subarray(a, b), length: 0 };
-        const w = weightDocument(terms, model.columnOf, model.weights, model.scheme);
-        fileOf[columns.length] = f;
-        sectionOf[columns.length] = s++;
-        columns.push(w.columns);
-        values.push(w.values);
-        nnz += w.columns.length;
+        if (p + b - a > indices.length) {
+          const size = Math.max(2 * indices.length, p + b - a);
+          const grownIndices = new Int32Array(size);
+          grownIndices.set(indices.subarray(0, p));
+          indices = grownIndices;
+          const grownValues = new Float64Array(size);
+          grownValues.set(vals.subarray(0, p));
+          vals = grownValues;
+        }
+        // weightDocument's arithmetic (termWeighting.ts), in place: local × global weight, then
+        // divided by the norm of the row.
+        const first = p;
+        let ss = 0;
+        for (let t = a; t < b; t++) {
+          const id = file.termIds[t];
+          const c = id < columnOf.length ? columnOf[id] : -1;
+          if (c < 0) continue;
+          const w = localWeight(file.counts[t], scheme) * weights[c];
+          if (w === 0) continue;
+          indices[p] = c;
+          vals[p++] = w;
+          ss += w * w;
+        }
+        const norm = Math.sqrt(ss);
+        if (norm > 0) for (let t = first; t < p; t++) vals[t] /= norm;
+        fileOf[rows] = f;
+        sectionOf[rows] = s++;
+        indptr[++rows] = p;
       }
-      const rows = columns.length;
       if (rows === 0) break;
       if (options.signal?.aborted) throw new CancelledError();
       options.onProgress?.(f, files.length);
-      const indptr = new Int32Array(rows + 1);
-      const indices = new Int32Array(nnz);
-      const vals = new Float64Array(nnz);
-      for (let r = 0, p = 0; r < rows; r++) {
-        indices.set(columns[r], p);
-        vals.set(values[r], p);
-        p += columns[r].length;
-        indptr[r + 1] = p;
-      }
-      const matrix: CsrMatrix = { rows, cols: model.weights.length, indptr, indices, values: vals };
+      const matrix: CsrMatrix = {
+        rows,
+        cols: weights.length,
+        indptr: indptr.subarray(0, rows + 1),
+        indices: indices.subarray(0, p),
+        values: vals.subarray(0, p),
+      };
       scoped(() => {
         const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
         const acc = ex.float64(rows * k);
@@ -159,7 +180,7 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
         for (let r = 0; r < rows; r++) {
           let ss = 0;
           for (let c = 0; c < k; c++) {
-            row[c] = acc[r * k + c] * model.axisScale[c];
+            row[c] = acc[r * k + c] * axisScale[c];
             ss += row[c] * row[c];
           }
           const norm = Math.sqrt(ss);

@@ -57,6 +57,7 @@ port.on('message', (msg: ToWorker) => {
     maxFileBytes = msg.maxFileBytes;
     keepCounts = msg.keepCounts === true;
     withSections = keepCounts && msg.sections === true;
+    counter.recordWords = withSections;
     kept = [];
     keptSections = [];
     return;
