@@ -25,28 +25,27 @@
  *     spread at that setting);
  *   - a model file damaged in a byte is refused by import-model, which keeps the saved index.
  */
-import { spawn, spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { build } from 'esbuild';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { parseMatrixMarket } from '../../src/core/matrix/matrixMarket.js';
 import { indexFileFor } from '../../src/node/cacheDir.js';
 import { loadIndex } from '../../src/node/persist.js';
 import { runCli } from '../helpers/cliRunner.js';
+import {
+  bundleCli,
+  differingEntries,
+  matrixEntries,
+  readSingularValues,
+  requireDask,
+  runClusterJob,
+  worstRelativeDifference,
+} from '../helpers/clusterHarness.js';
 import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
 
-const PYTHON = '/usr/bin/python3';
 const names = ['adi', 'cisi'] as const;
 const K = '60';
 const collections = names.map((n) => loadCollection(n));
-
-/** The engine must be there: a check that cannot run is a failure, not a skip (.ci/run installs it). */
-function requireDask(): void {
-  const r = spawnSync(PYTHON, ['-c', 'import dask.array, distributed, scipy.sparse'], { encoding: 'utf8' });
-  if (r.status !== 0) throw new Error(`Dask is missing (${PYTHON}): apt-get install python3-dask python3-distributed python3-scipy`);
-}
 
 interface Report {
   files: number;
@@ -61,14 +60,6 @@ interface Report {
   shares: number;
   singularValues: number[];
   seconds: Record<string, number>;
-}
-
-function entries(path: string): { rows: number; cols: number; map: Map<number, number> } {
-  const m = parseMatrixMarket(readFileSync(path, 'utf8'));
-  if (m.format !== 'coordinate') throw new Error('expected a coordinate matrix');
-  const map = new Map<number, number>();
-  for (let t = 0; t < m.values.length; t++) map.set(m.rowIndex[t] * m.cols + m.colIndex[t], m.values[t]);
-  return { rows: m.rows, cols: m.cols, map };
 }
 
 function agreement(a: Map<string, string[]>, b: Map<string, string[]>): { positional: number; overlap: number } {
@@ -120,45 +111,28 @@ describe('cluster job on a local Dask cluster', () => {
     for (let i = 0; i < 20; i++) probes.push(`cisi/${collections[1].docs[i * 70].id}.txt`);
     writeFileSync(join(dir, 'q.jsonl'), queries.map((q) => JSON.stringify({ id: q.id, text: q.text })).join('\n'));
     // The command line the workers run, bundled as scripts/build.mjs bundles it.
-    await build({
-      entryPoints: [join(REPO_ROOT, 'src/cli/bin.ts')],
-      outfile: join(dir, 'cli.js'),
-      bundle: true,
-      platform: 'node',
-      target: 'node20',
-      format: 'cjs',
-      logLevel: 'warning',
-    });
-    const job = spawn(
-      PYTHON,
-      [
-        '-m',
-        'undertone_cluster',
-        ws,
-        '--out',
-        join(dir, 'org.model'),
-        '--undertone',
-        `${process.execPath} ${join(dir, 'cli.js')}`,
-        '--local-workers',
-        '2',
-        '--shard-files',
-        '600',
-        '--k',
-        K,
-        '--tolerance',
-        '1e-3',
-        '--dump-matrix',
-        join(dir, 'dump'),
-        '--report',
-        join(dir, 'report.json'),
-        '--drill-kill-worker-after',
-        '1',
-      ],
-      { cwd: join(REPO_ROOT, 'cluster'), stdio: ['ignore', 'ignore', 'pipe'] },
-    );
-    let stderr = '';
-    job.stderr.on('data', (b: Buffer) => (stderr += b.toString()));
-    const code = await new Promise<number | null>((res) => job.on('close', res));
+    await bundleCli(join(dir, 'cli.js'));
+    const { code, stderr } = await runClusterJob([
+      ws,
+      '--out',
+      join(dir, 'org.model'),
+      '--undertone',
+      `${process.execPath} ${join(dir, 'cli.js')}`,
+      '--local-workers',
+      '2',
+      '--shard-files',
+      '600',
+      '--k',
+      K,
+      '--tolerance',
+      '1e-3',
+      '--dump-matrix',
+      join(dir, 'dump'),
+      '--report',
+      join(dir, 'report.json'),
+      '--drill-kill-worker-after',
+      '1',
+    ]);
     expect(code, stderr.slice(-3000)).toBe(0);
     jobLog = stderr;
     report = JSON.parse(readFileSync(join(dir, 'report.json'), 'utf8')) as Report;
@@ -183,13 +157,11 @@ describe('cluster job on a local Dask cluster', () => {
     const read = (d: string, f: string) => readFileSync(join(dir, d, f), 'utf8');
     expect(read('dump', 'terms.txt')).toBe(read('export', 'terms.txt'));
     expect(read('dump', 'files.txt')).toBe(read('export', 'files.txt'));
-    const ours = entries(join(dir, 'export', 'matrix.mtx'));
-    const theirs = entries(join(dir, 'dump', 'matrix.mtx'));
+    const ours = matrixEntries(join(dir, 'export', 'matrix.mtx'));
+    const theirs = matrixEntries(join(dir, 'dump', 'matrix.mtx'));
     expect([theirs.rows, theirs.cols]).toEqual([ours.rows, ours.cols]);
     expect(theirs.map.size).toBe(ours.map.size);
-    let differ = 0;
-    for (const [key, v] of ours.map) if (theirs.map.get(key) !== v) differ++;
-    expect(differ).toBe(0);
+    expect(differingEntries(ours.map, theirs.map)).toBe(0);
   });
 
   it('goes on with power steps until the top-k subspace settles', () => {
@@ -199,13 +171,9 @@ describe('cluster job on a local Dask cluster', () => {
   });
 
   it('finds all k singular values within 1% of the index’s', () => {
-    const local = readFileSync(join(dir, 'export', 'singular-values.txt'), 'utf8')
-      .trim()
-      .split('\n')
-      .map(Number);
+    const local = readSingularValues(join(dir, 'export', 'singular-values.txt'));
     expect(report.singularValues.length).toBe(local.length);
-    const worst = Math.max(...local.map((s, i) => Math.abs(report.singularValues[i] - s) / s));
-    expect(worst).toBeLessThan(0.01);
+    expect(worstRelativeDifference(local, report.singularValues)).toBeLessThan(0.01);
   });
 
   it('refuses a damaged model file and keeps the saved index', async () => {

@@ -10,37 +10,24 @@
  * (test/cluster/clusterJob.test.ts shows the other side: a worker lost once costs a recount,
  * not a file.)
  */
-import { spawn, spawnSync } from 'node:child_process';
 import { chmodSync, existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { build } from 'esbuild';
 import { afterAll, describe, expect, it } from 'vitest';
-import { REPO_ROOT } from '../helpers/shared.js';
-
-const PYTHON = '/usr/bin/python3';
+import { bundleCli, requireDask, runClusterJob } from '../helpers/clusterHarness.js';
 
 describe('cluster job when a share keeps killing its worker', () => {
   const dir = mkdtempSync(join(tmpdir(), 'undertone-lost-'));
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
   it('stops with the share named and writes no model', async () => {
-    const r = spawnSync(PYTHON, ['-c', 'import dask.array, distributed'], { encoding: 'utf8' });
-    if (r.status !== 0) throw new Error(`Dask is missing (${PYTHON}): apt-get install python3-dask python3-distributed`);
+    requireDask();
     const ws = join(dir, 'ws');
     mkdirSync(ws);
     writeFileSync(join(ws, 'alpha.txt'), 'pumps move water through the pipes of the plant');
     writeFileSync(join(ws, 'beta.txt'), 'valves close the pipes when the pumps stop');
     writeFileSync(join(ws, 'poison.txt'), 'this share stands for a file that crashes the counter');
-    await build({
-      entryPoints: [join(REPO_ROOT, 'src/cli/bin.ts')],
-      outfile: join(dir, 'cli.js'),
-      bundle: true,
-      platform: 'node',
-      target: 'node20',
-      format: 'cjs',
-      logLevel: 'warning',
-    });
+    await bundleCli(join(dir, 'cli.js'));
     // Called as: <script> count FOLDER --files LIST --out PREFIX --quiet (its parent is the worker).
     const script = join(dir, 'undertone.sh');
     writeFileSync(
@@ -49,18 +36,10 @@ describe('cluster job when a share keeps killing its worker', () => {
     );
     chmodSync(script, 0o755);
     const model = join(dir, 'org.model');
-    const job = spawn(
-      PYTHON,
-      ['-m', 'undertone_cluster', ws, '--out', model, '--undertone', script, '--local-workers', '2', '--shard-files', '1', '--k', '2'],
-      {
-        cwd: join(REPO_ROOT, 'cluster'),
-        stdio: ['ignore', 'ignore', 'pipe'],
-        env: { ...process.env, DASK_DISTRIBUTED__SCHEDULER__ALLOWED_FAILURES: '1' },
-      },
+    const { code, stderr } = await runClusterJob(
+      [ws, '--out', model, '--undertone', script, '--local-workers', '2', '--shard-files', '1', '--k', '2'],
+      { ...process.env, DASK_DISTRIBUTED__SCHEDULER__ALLOWED_FAILURES: '1' },
     );
-    let stderr = '';
-    job.stderr.on('data', (b: Buffer) => (stderr += b.toString()));
-    const code = await new Promise<number | null>((res) => job.on('close', res));
     expect(code, stderr.slice(-3000)).toBe(1);
     expect(stderr).toMatch(
       /undertone-cluster: counting stopped: shard 2 \(1 files from poison\.txt\) took down its worker every time it ran/,

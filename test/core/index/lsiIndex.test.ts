@@ -120,12 +120,30 @@ function plainBlend(
   return ranked.sort((x, y) => y.score - x.score || x.slot - y.slot).slice(0, top);
 }
 
-/** Search as documented: BM25 blend (at the z-score share when spreadBlend is on), then Rocchio with the first pass's 5 best files (weight 0.25), share taken again. */
+/**
+ * The share λ raised by the idf-weighted share u of the query's words the concept model does not
+ * know (coverageBlend): λ + (1 − λ)·u, u = Σ_unknown tf·idf / Σ tf·idf.
+ */
+function coverageLambda(index: LsiIndex, q: DocTerms): number {
+  const lambda = index.settings.lexicalBlend;
+  if (!index.ranking.coverageBlend) return lambda;
+  let all = 0;
+  let unknown = 0;
+  q.termIds.forEach((t, i) => {
+    const w = q.counts[i] * index.bm25().idf(t);
+    all += w;
+    if (!(index.model.columnOf[t] >= 0)) unknown += w;
+  });
+  return all > 0 ? lambda + (1 - lambda) * (unknown / all) : lambda;
+}
+
+/** Search as documented: BM25 blend (at the coverage share, then the z-score share when spreadBlend is on), then Rocchio with the first pass's 5 best files (weight 0.25), share taken again. */
 function plainSearch(index: LsiIndex, text: string, top: number): { path: string; score: number }[] {
   const q = index.queryTerms(text);
   const proj = projectTerms(index.model, q);
   const bm25 = plainBm25(index, q, index.ranking.lengthNorm);
-  const share = (v: Float32Array): number => spreadLambda(index, v, bm25);
+  const base = coverageLambda(index, q);
+  const share = (v: Float32Array): number => spreadLambda(index, v, bm25, base);
   let vector = proj.vector;
   if (proj.knownTerms > 0) {
     const lambda = share(vector);
@@ -138,7 +156,7 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
     const norm = Math.hypot(...acc);
     vector = Float32Array.from(acc, (x) => x / norm);
   }
-  const lambda = proj.knownTerms > 0 ? share(vector) : index.settings.lexicalBlend;
+  const lambda = proj.knownTerms > 0 ? share(vector) : base;
   return plainBlend(index, vector, proj.knownTerms > 0 ? 1 - lambda : 0, lambda, bm25, top);
 }
 
@@ -147,8 +165,7 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
  * population standard deviations over every file (the index samples every ⌊n/2,048⌋-th file for
  * σ_cos, all of them in these test indexes).
  */
-function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[]): number {
-  const lambda = index.settings.lexicalBlend;
+function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[], lambda: number): number {
   if (!index.ranking.spreadBlend) return lambda;
   const max = Math.max(...bm25);
   const live = index.slots().flatMap((s, j) => (s ? [j] : []));

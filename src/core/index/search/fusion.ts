@@ -8,7 +8,8 @@
  *   relevance feedback (Salton & Buckley 1990, "Improving retrieval performance by relevance
  *   feedback"); 25–50 terms is common practice.
  * - Search: the concept cosine of the query, blended with max-normalised BM25
- *   (settings.lexicalBlend); optionally (spreadBlend) that share applies to standardised scores
+ *   (settings.lexicalBlend, raised by the share of the query's words the concept space does not
+ *   know: coverageBlend); optionally (spreadBlend) that share applies to standardised scores
  *   (spreadShare: each part weighed by the inverse of its standard deviation over the files,
  *   Montague & Aslam 2001), so the raw share adapts to each query. Then pseudo-relevance
  *   feedback: the query's concept vector moves
@@ -45,7 +46,10 @@ export interface RankingOptions {
   dropFiller: boolean;
   /**
    * Raise a query's lexical share by the idf-weighted share u of its words that the concept space
-   * does not know (pruned as too rare or too common): λ_q = λ + (1 − λ)·u. @default false
+   * does not know (pruned as too rare or too common): λ_q = λ + (1 − λ)·u. No constant to fit:
+   * what the concept cosine cannot see, only the word match can score. On by default since it was
+   * the one lever that moved both code collections the same way (rxjs +1.0%, lodash +1.3% MRR@10;
+   * the four dev collections within ±0.2% MAP; README, "Ranking checks"). @default true
    */
   coverageBlend: boolean;
   /**
@@ -72,7 +76,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   likeWeight: 0.75,
   unlikeWeight: 0.25,
   dropFiller: true,
-  coverageBlend: false,
+  coverageBlend: true,
   lengthNorm: 0.75,
   nearbyLengthNorm: 0.3,
   spreadBlend: false,
