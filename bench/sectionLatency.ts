@@ -6,8 +6,11 @@
  *   node dist/sectionLatency.mjs <index file> [queries] [--exact]
  * --exact ranks by the full pass (SectionStore.rankExact, the reference of the 8-bit screen).
  * Queries: the first words of sections' titles picked evenly over the index (seeded), so the run
- * needs nothing but the index. Prints median and 95th percentile in milliseconds.
+ * needs nothing but the index. Prints median and 95th percentile in milliseconds, of the wall clock
+ * and of this process's CPU time per request (user + system: the work itself, which a busy machine
+ * stretches less than the wall clock).
  */
+import { loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { loadIndex } from '../src/node/persist.js';
 import { nearbySections, searchSections } from '../src/core/sections/sectionSearch.js';
@@ -36,22 +39,34 @@ const quantiles = (ms: number[]): string => {
 };
 const search: number[] = [];
 const near: number[] = [];
+const searchCpu: number[] = [];
+const nearCpu: number[] = [];
+const cpuMs = (from: NodeJS.CpuUsage): number => {
+  const d = process.cpuUsage(from);
+  return (d.user + d.system) / 1000;
+};
 for (const [path, f] of pick) {
   const title = f.titles[Math.floor(f.titles.length / 2)];
   let t = performance.now();
+  let c = process.cpuUsage();
   try {
     searchSections(index, title, { top: 20 });
     search.push(performance.now() - t);
+    searchCpu.push(cpuMs(c));
     products += index.sections.lastExact;
   } catch {
     /* a title without known words */
   }
   t = performance.now();
+  c = process.cpuUsage();
   nearbySections(index, path, f.starts[Math.floor(f.starts.length / 2)], { top: 20 });
   near.push(performance.now() - t);
+  nearCpu.push(cpuMs(c));
   products += index.sections.lastExact;
 }
 console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}, ${exact ? 'full pass' : '8-bit screen'}`);
 console.log(`exact section products per request: ${(products / (search.length + near.length)).toFixed(0)}`);
 console.log(`search --sections: ${quantiles(search)} (${search.length} queries)`);
 console.log(`nearby at a section: ${quantiles(near)} (${near.length} sections)`);
+console.log(`CPU per request: search ${quantiles(searchCpu)}; nearby ${quantiles(nearCpu)}`);
+console.log(`1-minute load average at the end: ${loadavg()[0].toFixed(1)}`);

@@ -33,6 +33,7 @@ import { readIndexableText } from './scanRead.js';
 import type { SkippedPath } from './scanTypes.js';
 import { readSharedModel } from './conceptModelFile.js';
 import { foldFileSections } from './sectionPass.js';
+import type { CountedSections } from '../core/sections/sectionVectors.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
@@ -119,6 +120,8 @@ export interface PipelineResult {
   readonly removed: number;
   readonly bytesRead: number;
   readonly skipped: SkipCounts;
+  /** Files the sections stage read again (their sections were not counted while they were read). */
+  readonly sectionsReadAgain: number;
   /** Seconds per stage. */
   readonly seconds: Record<PipelineStage, number>;
 }
@@ -191,6 +194,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       if (got.kind === 'text') {
         const meta: DocMeta = withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.language);
         builder.addCounted(meta, got.terms);
+        if (got.sections) countedSections.set(f.key, got.sections);
         bytesRead += f.size;
         read++;
         if (previous?.has(f.key)) changed++;
@@ -202,8 +206,11 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     const total = scan.files.length;
     const counting = chooseCounting(toRead.length, threads !== false, reused === 0 && vocab.size === 0);
     const countPool = counting === 'serial' ? undefined : getPool();
-    const jobs = () => toRead.map((f) => ({ absPath: f.absPath, size: f.size }));
+    const jobs = () => toRead.map((f) => ({ absPath: f.absPath, size: f.size, key: f.key }));
+    // Sections counted by the threads while they read the files (from scratch only; see sections below).
+    const countedSections = new Map<string, CountedSections>();
     const countOptions = {
+      sections: options.sections !== false,
       tokenize: settings.tokenize,
       maxFileBytes: options.maxFileBytes,
       signal,
@@ -250,40 +257,52 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       removed === 0 &&
       previous.size === builder.size &&
       previous.staleness().changedFiles === 0;
-    if (unchanged) return { ...counts, index: previous, unchanged: true, seconds };
+    if (unchanged) return { ...counts, sectionsReadAgain: 0, index: previous, unchanged: true, seconds };
 
     // ---- build
     await releasePool();
     const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool() : undefined;
     // A shared concept model (import-model, undertone.conceptModel): fold into it, no local SVD.
     const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
+    // Kept for the sections' fold, then dropped with the pool (it holds the shared memory).
+    let executor = buildPool?.executor();
+    const aborted = {
+      get aborted() {
+        return cancelled();
+      },
+    };
     const index = builder.build({
       sharedModel,
-      signal: {
-        get aborted() {
-          return cancelled();
-        },
-      },
-      executor: buildPool?.executor(),
+      signal: aborted,
+      executor,
       onProgress: (stage, done, all) => {
         if (stage === 'weighting' && done === 1) lap('matrix');
         progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
       },
     });
     lap('svd');
-    // The threads (and the shared memory of the SVD) are not needed to save.
-    await releasePool();
     check();
 
-    // ---- sections: every file read again, cut into sections, each folded into the new model
+    let sectionsReadAgain = 0;
+    // ---- sections: each file cut into sections, each folded into the new model on the SVD's
+    // threads. Counts the reading threads made are over the builder's vocabulary: usable as they
+    // are when the index kept it (a build from scratch without a shared model); other files are
+    // read again.
     if (options.sections !== false) {
       const keyed = scan.files.filter((f) => index.has(f.key));
-      await foldFileSections(index, keyed, options.maxFileBytes, {
+      sectionsReadAgain = await foldFileSections(index, keyed, options.maxFileBytes, {
         check,
+        signal: aborted,
+        executor,
+        counted: index.vocab === vocab ? countedSections : undefined,
         onProgress: (done) => progress({ stage: 'sections', done, total: keyed.length }),
       });
+      countedSections.clear();
       lap('sections');
     }
+    // The threads (and the shared memory of the SVD) are not needed to save.
+    executor = undefined;
+    await releasePool();
 
     // ---- save
     if (options.save) {
@@ -291,7 +310,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       await options.save(index);
       lap('save');
     }
-    return { ...counts, index, unchanged: false, seconds };
+    return { ...counts, sectionsReadAgain, index, unchanged: false, seconds };
   } finally {
     await releasePool();
   }

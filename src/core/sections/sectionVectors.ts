@@ -6,9 +6,17 @@
  * another section is on the same scale as a file's, and the file vectors stay as they are.
  * Counting uses the vocabulary without growing it: a word the model does not know cannot move a
  * concept vector, so a section folded on save equals the one a build would fold from the same text.
+ * A build folds all sections at once (foldCountedSections): the weighted section rows, a chunk at
+ * a time, times U_k as one sequential sparse product on the build's executor (its threads), the
+ * same arithmetic as projectTerms row by row (projectMatrixRows does the same for file vectors).
  */
+import { CancelledError } from '../errors.js';
 import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
 import { projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
+import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
+import { copyCsr, type CsrMatrix } from '../matrix/sparse.js';
+import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
+import { localWeight } from '../weighting/termWeighting.js';
 import { tokenize, type TokenizeOptions } from '../text/tokenize.js';
 import { splitLines, splitSections } from './splitSections.js';
 import type { Section, SectionOptions } from './types.js';
@@ -56,6 +64,135 @@ export function foldSectionList(ctx: FoldContext, sections: readonly Section[], 
     titles: sections.map((s) => s.title),
     vectors,
   };
+}
+
+/**
+ * The sections of one file with their term counts, ready to fold: section i's terms are
+ * termIds / counts [offsets[i], offsets[i + 1]) (ids ascending, over the model's vocabulary),
+ * as countTerms(tokenize(section text), vocab, false) gives them. The arrays may be shared by
+ * many files (offsets are absolute).
+ */
+export interface CountedSections {
+  readonly starts: Int32Array;
+  readonly ends: Int32Array;
+  readonly titles: readonly string[];
+  readonly offsets: Int32Array;
+  readonly termIds: Int32Array;
+  readonly counts: Float32Array;
+}
+
+export interface FoldManyOptions {
+  /** Runs the sparse products (the build's threads); default: WebAssembly on this thread, else plain loops. */
+  readonly executor?: MatrixExecutor;
+  /** Polled between chunks; CancelledError when aborted. */
+  readonly signal?: { readonly aborted: boolean };
+  /** Files done so far (before each chunk), and the number of files. */
+  readonly onProgress?: (done: number, total: number) => void;
+  /** Sections per sparse product. @default FOLD_CHUNK_SECTIONS */
+  readonly chunkSections?: number;
+}
+
+/** Sections per sparse product in foldCountedSections (bounds its executor memory; common practice, not tuned). */
+export const FOLD_CHUNK_SECTIONS = 2048;
+
+/**
+ * Folds the counted sections of many files, each section's vector the same as
+ * projectTerms(model, its terms).vector: per chunk, the rows weighted as weightDocument does,
+ * U_kᵀd̂ by the executor's sequential sparse product (each row adds its terms in order, as
+ * projectTerms does), then the same axis scaling and normalisation. The f64 copy of U_k is made
+ * once for all chunks.
+ */
+export function foldCountedSections(model: ConceptModel, files: readonly CountedSections[], options: FoldManyOptions = {}): FileSections[] {
+  const ex = options.executor ?? createWasmExecutor() ?? serialExecutor;
+  const k = model.k;
+  const vectors = files.map((f) => new Float32Array(f.starts.length * k));
+  const scoped = <T>(fn: () => T): T => (ex.scoped ? ex.scoped(fn) : fn());
+  scoped(() => {
+    const tv = ex.float64(model.termVectors.length);
+    tv.set(model.termVectors);
+    const row = new Float64Array(k);
+    // Which file and section each row of the chunk is.
+    const chunk = Math.max(1, Math.floor(options.chunkSections ?? FOLD_CHUNK_SECTIONS));
+    const fileOf = new Int32Array(chunk);
+    const sectionOf = new Int32Array(chunk);
+    // The chunk's weighted rows (CSR), reused from chunk to chunk.
+    const indptr = new Int32Array(chunk + 1);
+    let indices = new Int32Array(1 << 16);
+    let vals = new Float64Array(1 << 16);
+    const { columnOf, weights, scheme, axisScale } = model;
+    let f = 0;
+    let s = 0;
+    for (;;) {
+      let rows = 0;
+      let p = 0;
+      while (f < files.length && rows < chunk) {
+        const file = files[f];
+        if (s >= file.starts.length) {
+          f++;
+          s = 0;
+          continue;
+        }
+        const a = file.offsets[s];
+        const b = file.offsets[s + 1];
+        if (p + b - a > indices.length) {
+          const size = Math.max(2 * indices.length, p + b - a);
+          const grownIndices = new Int32Array(size);
+          grownIndices.set(indices.subarray(0, p));
+          indices = grownIndices;
+          const grownValues = new Float64Array(size);
+          grownValues.set(vals.subarray(0, p));
+          vals = grownValues;
+        }
+        // weightDocument's arithmetic (termWeighting.ts), in place: local × global weight, then
+        // divided by the norm of the row.
+        const first = p;
+        let ss = 0;
+        for (let t = a; t < b; t++) {
+          const id = file.termIds[t];
+          const c = id < columnOf.length ? columnOf[id] : -1;
+          if (c < 0) continue;
+          const w = localWeight(file.counts[t], scheme) * weights[c];
+          if (w === 0) continue;
+          indices[p] = c;
+          vals[p++] = w;
+          ss += w * w;
+        }
+        const norm = Math.sqrt(ss);
+        if (norm > 0) for (let t = first; t < p; t++) vals[t] /= norm;
+        fileOf[rows] = f;
+        sectionOf[rows] = s++;
+        indptr[++rows] = p;
+      }
+      if (rows === 0) break;
+      if (options.signal?.aborted) throw new CancelledError();
+      options.onProgress?.(f, files.length);
+      const matrix: CsrMatrix = {
+        rows,
+        cols: weights.length,
+        indptr: indptr.subarray(0, rows + 1),
+        indices: indices.subarray(0, p),
+        values: vals.subarray(0, p),
+      };
+      scoped(() => {
+        const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
+        const acc = ex.float64(rows * k);
+        ex.spmm(m, tv, k, acc, true);
+        for (let r = 0; r < rows; r++) {
+          let ss = 0;
+          for (let c = 0; c < k; c++) {
+            row[c] = acc[r * k + c] * axisScale[c];
+            ss += row[c] * row[c];
+          }
+          const norm = Math.sqrt(ss);
+          if (norm === 0) continue;
+          const out = vectors[fileOf[r]];
+          const at = sectionOf[r] * k;
+          for (let c = 0; c < k; c++) out[at + c] = row[c] / norm;
+        }
+      });
+    }
+  });
+  return files.map((file, i) => ({ starts: file.starts, ends: file.ends, titles: file.titles, vectors: vectors[i] }));
 }
 
 /** The fold context of an index (anything with its model, vocabulary and tokenizer settings). */

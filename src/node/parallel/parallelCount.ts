@@ -10,6 +10,7 @@ import { CancelledError } from '../../core/errors.js';
 import type { DocTerms, Vocabulary } from '../../core/counting/termCounts.js';
 import type { TokenizeOptions } from '../../core/text/tokenize.js';
 import type { Language } from '../../core/text/languages.js';
+import type { CountedSections } from '../../core/sections/sectionVectors.js';
 import type { BatchDone, FromWorker, ToWorker } from './threadProtocol.js';
 import type { WorkerPool } from './workerPool.js';
 
@@ -17,10 +18,19 @@ export interface CountJob {
   readonly absPath: string;
   /** Size from the scan, to make batches of similar weight. */
   readonly size: number;
+  /** The file's index key (needed to cut it into sections: CountOptions.sections). */
+  readonly key?: string;
 }
 
 export type CountOutcome =
-  | { readonly kind: 'text'; readonly terms: DocTerms; /** The file's language when not English. */ readonly language?: Language }
+  | {
+      readonly kind: 'text';
+      readonly terms: DocTerms;
+      /** The file's language when not English. */
+      readonly language?: Language;
+      /** The file's sections counted with it (countFilesSorted with sections), over the same ids. */
+      readonly sections?: CountedSections;
+    }
   | { readonly kind: 'binary' | 'too-large' | 'unreadable' };
 
 export interface CountOptions {
@@ -31,6 +41,8 @@ export interface CountOptions {
   readonly onProgress?: (done: number) => void;
   /** Threads keep the counts until asked for them (countFilesSorted). */
   readonly keepCounts?: boolean;
+  /** Count each file's sections on the threads too (countFilesSorted only; jobs need their key). */
+  readonly sections?: boolean;
 }
 
 const BATCH_FILES = 48;
@@ -119,7 +131,11 @@ export function runCountBatches(
     const send = (w: number): void => {
       const b = queue.next(w);
       if (b < 0) return;
-      const msg: ToWorker = { type: 'tokenize', batch: b, files: batches[b].map((index) => ({ index, absPath: jobs[index].absPath })) };
+      const msg: ToWorker = {
+        type: 'tokenize',
+        batch: b,
+        files: batches[b].map((index) => ({ index, absPath: jobs[index].absPath, key: jobs[index].key })),
+      };
       workers[w].postMessage(msg);
       pending++;
     };
@@ -155,6 +171,7 @@ export function runCountBatches(
         tokenize: options.tokenize,
         maxFileBytes: options.maxFileBytes,
         keepCounts: options.keepCounts,
+        sections: options.keepCounts === true && options.sections === true,
       };
       worker.postMessage(setup);
     });

@@ -12,6 +12,7 @@ import { decodeUtf8 } from '../scanRead.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../scanTypes.js';
 import { FileReader } from './readTextSync.js';
 import { WordCounter, type PackedFile } from './wordCounter.js';
+import { countThreadSections, type ThreadSections } from './threadSections.js';
 
 if (!parentPort) throw new Error('parallelWorker.js must be started as a worker thread.');
 const port = parentPort;
@@ -19,6 +20,9 @@ let counter: WordCounter | undefined;
 let keepCounts = false;
 /** Pack ranges [start, end) of the kept files, in pack order. */
 let kept: number[] = [];
+/** Count each file's sections too (with keepCounts), and the section runs kept so far. */
+let withSections = false;
+let keptSections: Int32Array[] = [];
 const reader = new FileReader();
 let maxFileBytes = DEFAULT_MAX_FILE_BYTES;
 let kernels: KernelExports | undefined;
@@ -52,27 +56,46 @@ port.on('message', (msg: ToWorker) => {
     counter = new WordCounter(msg.tokenize);
     maxFileBytes = msg.maxFileBytes;
     keepCounts = msg.keepCounts === true;
+    withSections = keepCounts && msg.sections === true;
+    counter.recordWords = withSections;
     kept = [];
+    keptSections = [];
     return;
   }
   if (msg.type === 'finish-counts') {
     const reply = finishCounts(msg.translate);
-    port.postMessage(reply, [reply.termIds.buffer as ArrayBuffer, reply.counts.buffer as ArrayBuffer]);
+    const buffers = [reply.termIds, reply.counts, reply.sectionTermIds, reply.sectionCounts].map((a) => a.buffer as ArrayBuffer);
+    port.postMessage(reply, buffers);
     return;
   }
   try {
     const wc = counter ?? (counter = new WordCounter({}));
-    const read: ({ readonly index: number } & (PackedFile | { readonly kind: 'binary' | 'too-large' | 'unreadable' }))[] = [];
+    const read: ({ readonly index: number; sections?: ThreadSections } & (
+      PackedFile | { readonly kind: 'binary' | 'too-large' | 'unreadable' }
+    ))[] = [];
     for (const f of msg.files) {
       const got = reader.read(f.absPath, maxFileBytes);
-      if (got.kind !== 'bytes') read.push({ index: f.index, kind: got.kind });
-      else
-        read.push({ index: f.index, ...(got.ascii ? wc.packAscii(got.bytes, f.absPath) : wc.packText(decodeUtf8(got.bytes), f.absPath)) });
+      if (got.kind !== 'bytes') {
+        read.push({ index: f.index, kind: got.kind });
+        continue;
+      }
+      const text = got.ascii ? undefined : decodeUtf8(got.bytes);
+      const packed = text === undefined ? wc.packAscii(got.bytes, f.absPath) : wc.packText(text, f.absPath);
+      // A file counted in another language keeps its sections for the sections stage (they are
+      // counted in English there, which may bring words no file has into this thread's terms).
+      const sections =
+        withSections && f.key !== undefined && packed.language === undefined
+          ? countThreadSections(wc, f.key, text ?? got.bytes.toString('latin1'))
+          : undefined;
+      if (sections) keptSections.push(sections.offsets);
+      read.push({ index: f.index, ...packed, sections });
     }
     if (keepCounts) {
       // The counts stay in the pack until finish-counts; the reply says where.
       const files: FileOutcome[] = read.map((r) =>
-        'kind' in r ? r : { index: r.index, kind: 'kept', at: r.at, terms: r.terms, length: r.length, language: r.language },
+        'kind' in r
+          ? r
+          : { index: r.index, kind: 'kept', at: r.at, terms: r.terms, length: r.length, language: r.language, sections: r.sections },
       );
       for (const r of read) if (!('kind' in r)) kept.push(r.at, r.at + r.terms);
       const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: wc.takeNewTerms(), files };
@@ -108,8 +131,15 @@ function finishCounts(translate: Int32Array): FinalCounts {
   const out = new Float32Array(ids.length);
   for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, termIds, out);
   kept = [];
+  const s = (counter ?? new WordCounter({})).drainSectionPack();
+  const sectionTermIds = new Int32Array(s.ids.length);
+  const sectionCounts = new Float32Array(s.ids.length);
+  for (const offsets of keptSections)
+    for (let i = 0; i + 1 < offsets.length; i++)
+      translateRun(s.ids, s.counts, offsets[i], offsets[i + 1], translate, sectionTermIds, sectionCounts);
+  keptSections = [];
   // The build's word tables are done with (the next build sends setup): let them go before the
   // SVD runs on this thread's share of the products.
   counter = undefined;
-  return { type: 'final-counts', termIds, counts: out };
+  return { type: 'final-counts', termIds, counts: out, sectionTermIds, sectionCounts };
 }

@@ -12,6 +12,7 @@ import { Vocabulary, type DocTerms } from '../../core/counting/termCounts.js';
 import type { Language } from '../../core/text/languages.js';
 import { runCountBatches, type CountJob, type CountOptions, type CountOutcome } from './parallelCount.js';
 import type { FinalCounts, FromWorker, TermOrder, ToWorker } from './threadProtocol.js';
+import type { ThreadSections } from './threadSections.js';
 import type { WorkerPool } from './workerPool.js';
 
 interface Pending {
@@ -21,6 +22,7 @@ interface Pending {
   readonly terms: number;
   readonly length: number;
   readonly language?: Language;
+  readonly sections?: ThreadSections;
 }
 
 export interface SortedCounts {
@@ -37,7 +39,10 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
     for (const t of msg.newTerms) terms[w].push(t);
     for (const f of msg.files) {
       if (f.kind === 'text') throw new Error('a tokenizing thread sent counts it was asked to keep');
-      raw[f.index] = f.kind === 'kept' ? { worker: w, at: f.at, terms: f.terms, length: f.length, language: f.language } : { kind: f.kind };
+      raw[f.index] =
+        f.kind === 'kept'
+          ? { worker: w, at: f.at, terms: f.terms, length: f.length, language: f.language, sections: f.sections }
+          : { kind: f.kind };
     }
   });
   const orders = await Promise.all(pool.workers.map((_, w) => ask<TermOrder>(pool, w, { type: 'sort-terms' }, 'term-order')));
@@ -59,7 +64,14 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
         counts: f.counts.subarray(r.at, r.at + r.terms),
         length: r.length,
       };
-      outcomes[i] = r.language === undefined ? { kind: 'text', terms } : { kind: 'text', terms, language: r.language };
+      // A file's sections view the thread's section arrays (one pair per thread, as its files' counts).
+      const sections = r.sections && { ...r.sections, termIds: f.sectionTermIds, counts: f.sectionCounts };
+      outcomes[i] = {
+        kind: 'text',
+        terms,
+        ...(r.language === undefined ? {} : { language: r.language }),
+        ...(sections ? { sections } : {}),
+      };
     } else outcomes[i] = r;
   }
   return { vocab: new Vocabulary(sorted), outcomes };

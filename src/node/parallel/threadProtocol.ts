@@ -2,6 +2,7 @@
 import type { TokenizeOptions } from '../../core/text/tokenize.js';
 import type { KernelJob } from './kernelTasks.js';
 import type { Language } from '../../core/text/languages.js';
+import type { ThreadSections } from './threadSections.js';
 
 export interface KernelMessage {
   readonly type: 'kernel';
@@ -15,12 +16,15 @@ export interface TokenizeSetup {
   readonly maxFileBytes: number;
   /** Keep each file's counts in the thread until 'finish-counts' (countFilesSorted). */
   readonly keepCounts?: boolean;
+  /** Also cut each file counted in English into sections and keep their counts (with keepCounts; threadSections.ts). */
+  readonly sections?: boolean;
 }
 
 export interface TokenizeBatch {
   readonly type: 'tokenize';
   readonly batch: number;
-  readonly files: readonly { readonly index: number; readonly absPath: string }[];
+  /** key: the file's index key, which picks how it is cut into sections (setup's sections). */
+  readonly files: readonly { readonly index: number; readonly absPath: string; readonly key?: string }[];
 }
 
 /** Instantiates the kernel module on the shared memory (sent before any kernel message). */
@@ -62,6 +66,8 @@ export type FileOutcome =
       readonly terms: number;
       readonly length: number;
       readonly language?: Language;
+      /** The file's sections, their counts kept beside the file's (absent: not counted here). */
+      readonly sections?: ThreadSections;
     }
   | { readonly index: number; readonly kind: 'binary' | 'too-large' | 'unreadable' };
 
@@ -89,6 +95,9 @@ export interface FinalCounts {
   readonly type: 'final-counts';
   readonly termIds: Int32Array;
   readonly counts: Float32Array;
+  /** Every kept section's counts (the positions of ThreadSections.offsets), each run sorted by final term id. */
+  readonly sectionTermIds: Int32Array;
+  readonly sectionCounts: Float32Array;
 }
 
 export type FromWorker = BatchDone | WorkerFailure | TermOrder | FinalCounts;

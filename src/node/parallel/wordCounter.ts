@@ -65,6 +65,22 @@ export class WordCounter {
   private packIds = new Int32Array(1 << 14);
   private packCounts = new Int32Array(1 << 14);
   private packUsed = 0;
+  /** The section pack: counts of line ranges of the text last counted (packSection), apart from the files'. */
+  private sectionIds = new Int32Array(1 << 12);
+  private sectionCounts = new Int32Array(1 << 12);
+  private sectionUsed = 0;
+  /**
+   * Note each word with terms of a text as it is counted (its first unit and its table value),
+   * so packSection counts a run of lines from the notes instead of scanning it again.
+   */
+  recordWords = false;
+  private recording = false;
+  private wordAt = new Int32Array(1 << 12);
+  private wordValue = new Int32Array(1 << 12);
+  private nWords = 0;
+  /** Times the word table was cleared (a note's multi-term value is only good until then). */
+  private clears = 0;
+  private clearsAtLoad = 0;
   // Scratch for a new word: its terms, its parts, its lowercase form.
   private found = new Int32Array(64);
   private nFound = 0;
@@ -105,14 +121,26 @@ export class WordCounter {
       if (language !== 'en') return this.packIn(text, language);
     }
     this.text.loadText(text);
-    return this.finish(this.scan(this.text.units, this.text.length));
+    return this.finish(this.scanLoaded());
   }
 
   /** packText() of text whose UTF-8 bytes are all ASCII, without decoding it. */
   packAscii(bytes: Uint8Array, path?: string): PackedFile {
     if (path !== undefined && this.multilingual && isProsePath(path)) return this.packText(asciiString(bytes), path);
     this.text.loadAscii(bytes);
-    return this.finish(this.scan(this.text.units, this.text.length));
+    return this.finish(this.scanLoaded());
+  }
+
+  /** Scans the loaded text, noting its words for packSection when asked to (recordWords). */
+  private scanLoaded(): number {
+    this.nWords = 0;
+    this.recording = this.recordWords;
+    this.clearsAtLoad = this.clears;
+    try {
+      return this.scan(this.text.units, this.text.length);
+    } finally {
+      this.recording = false;
+    }
   }
 
   /** Counts a text in a language other than English through tokenizeIn() (notes, not hot paths). */
@@ -145,37 +173,82 @@ export class WordCounter {
     return out;
   }
 
+  /**
+   * Counts the code units [from, to) of the text the last packText / packAscii loaded into the
+   * section pack: a run of whole lines of a file counted in English is the same words as those
+   * lines joined by "\n" (no word crosses a line break), so this equals packText(lines) without
+   * loading them again. With recordWords, from the words noted while the text was counted (no
+   * second scan); else by scanning the units again. Only for a file counted in English (packIn
+   * loads no units).
+   */
+  packSection(from: number, to: number): PackedFile {
+    // Without the words of the text noted (or with a word table cleared since), scan the units again.
+    if (!this.recordWords || this.clears !== this.clearsAtLoad) return this.finish(this.scan(this.text.units, to, from), true);
+    const at = this.wordAt;
+    let lo = 0;
+    let hi = this.nWords;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (at[mid] < from) lo = mid + 1;
+      else hi = mid;
+    }
+    let length = 0;
+    for (let j = lo; j < this.nWords && at[j] < to; j++) length += this.bumpValue(this.wordValue[j]);
+    return this.finish(length, true);
+  }
+
+  /** The code units loaded for the last text counted in English, and how many. */
+  get loaded(): { readonly units: Uint16Array; readonly length: number } {
+    return this.text;
+  }
+
+  /** Positions the next packSection writes to (sections are numbered by these). */
+  get sectionPackUsed(): number {
+    return this.sectionUsed;
+  }
+
+  /** Views of everything packSection packed since the last drain (valid until the next pack), and a fresh start. */
+  drainSectionPack(): { ids: Int32Array; counts: Int32Array } {
+    const out = { ids: this.sectionIds.subarray(0, this.sectionUsed), counts: this.sectionCounts.subarray(0, this.sectionUsed) };
+    this.sectionUsed = 0;
+    return out;
+  }
+
   private copyOut(p: PackedFile): LocalCounts {
     const out = { ids: this.packIds.slice(p.at, p.at + p.terms), counts: this.packCounts.slice(p.at, p.at + p.terms), length: p.length };
     this.packUsed = p.at;
     return out;
   }
 
-  /** Moves the tallied counts into the pack, ids ascending, and clears the tally. */
-  private finish(length: number): PackedFile {
+  /** Moves the tallied counts into the pack (or the section pack), ids ascending, and clears the tally. */
+  private finish(length: number, section = false): PackedFile {
     const n = this.nTouched;
-    const at = this.packUsed;
-    if (at + n > this.packIds.length) {
+    const at = section ? this.sectionUsed : this.packUsed;
+    if (section && at + n > this.sectionIds.length) {
+      this.sectionIds = grow32(this.sectionIds, at + n);
+      this.sectionCounts = grow32(this.sectionCounts, at + n);
+    } else if (!section && at + n > this.packIds.length) {
       this.packIds = grow32(this.packIds, at + n);
       this.packCounts = grow32(this.packCounts, at + n);
     }
-    const ids = this.packIds.subarray(at, at + n);
+    const ids = (section ? this.sectionIds : this.packIds).subarray(at, at + n);
     ids.set(this.touched.subarray(0, n));
     ids.sort();
-    const counts = this.packCounts;
+    const counts = section ? this.sectionCounts : this.packCounts;
     for (let i = 0; i < n; i++) {
       counts[at + i] = this.tally[ids[i]];
       this.tally[ids[i]] = 0;
     }
     this.nTouched = 0;
-    this.packUsed = at + n;
+    if (section) this.sectionUsed = at + n;
+    else this.packUsed = at + n;
     return { at, terms: n, length };
   }
 
-  /** Counts the words of u[0, n); returns the number of tokens. */
-  private scan(u: Uint16Array, n: number): number {
+  /** Counts the words of u[from, n); returns the number of tokens. */
+  private scan(u: Uint16Array, n: number, from = 0): number {
     let length = 0;
-    let i = 0;
+    let i = from;
     while (i < n) {
       let c = u[i];
       let k = CLASS[c];
@@ -215,8 +288,31 @@ export class WordCounter {
         for (let j = 1; j <= terms; j++) this.bump(m[at + j]);
         length += terms;
       }
+      if (this.recording && v !== NO_TERMS) this.noteWord(start, v);
     }
     return length;
+  }
+
+  /** Counts a word's table value (its term, or its terms); returns the number of tokens. */
+  private bumpValue(v: number): number {
+    if (v >= 0) {
+      this.bump(v);
+      return 1;
+    }
+    const m = this.multi;
+    const at = -2 - v;
+    const terms = m[at];
+    for (let j = 1; j <= terms; j++) this.bump(m[at + j]);
+    return terms;
+  }
+
+  private noteWord(start: number, v: number): void {
+    if (this.nWords === this.wordAt.length) {
+      this.wordAt = grow32(this.wordAt, this.nWords + 1);
+      this.wordValue = grow32(this.wordValue, this.nWords + 1);
+    }
+    this.wordAt[this.nWords] = start;
+    this.wordValue[this.nWords++] = v;
   }
 
   private bump(id: number): void {
@@ -231,6 +327,7 @@ export class WordCounter {
     if (this.words.size >= WORD_CACHE_LIMIT) {
       this.words.clear();
       this.multiUsed = 0;
+      this.clears++;
     }
     this.nFound = 0;
     if (!ascii) this.otherTerms(u, start, end);
@@ -313,9 +410,7 @@ export class WordCounter {
   }
 }
 
-/** The string of ASCII bytes. */
+/** The string of ASCII bytes (Latin-1 decoding is the identity on them, and native). */
 function asciiString(bytes: Uint8Array): string {
-  let s = '';
-  for (let i = 0; i < bytes.length; i += 8192) s += String.fromCharCode(...bytes.subarray(i, i + 8192));
-  return s;
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('latin1');
 }

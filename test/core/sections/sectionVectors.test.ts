@@ -9,7 +9,17 @@ import { CorruptIndexError } from '../../../src/core/errors.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { decodeIndex, encodeIndex, readIndexHeader, sealIndexFile, payloadOf } from '../../../src/core/index/persistence/serialize.js';
-import { foldContextOf, foldSections } from '../../../src/core/sections/sectionVectors.js';
+import { countTerms } from '../../../src/core/counting/termCounts.js';
+import { serialExecutor } from '../../../src/core/matrix/executor.js';
+import { splitLines, splitSections } from '../../../src/core/sections/splitSections.js';
+import {
+  foldContextOf,
+  foldCountedSections,
+  foldSections,
+  FOLD_CHUNK_SECTIONS,
+  type CountedSections,
+} from '../../../src/core/sections/sectionVectors.js';
+import { tokenize } from '../../../src/core/text/tokenize.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 
 const fx = loadRankingFixture('rxjs-src');
@@ -72,6 +82,55 @@ describe('section vectors', () => {
     const same = before.starts.length - 1;
     expect(maxDiff(after.vectors.subarray(0, same * k), before.vectors.subarray(0, same * k))).toBeLessThan(1e-7);
     expect(maxDiff(after.vectors.subarray(same * k), before.vectors.subarray(same * k))).toBeGreaterThan(1e-4);
+  });
+
+  it('folds counted sections of many files at once as projectTerms folds each (serial and WebAssembly products)', () => {
+    const index = buildWithSections();
+    const ctx = foldContextOf(index);
+    // Each file's section counts in one pair of arrays, as the tokenizing threads give them; all
+    // files share one pair here (offsets are absolute), as the files of one thread do.
+    const ids: number[] = [];
+    const counts: number[] = [];
+    const parts = docs.map((d) => {
+      const lines = splitLines(d.text);
+      const cut = splitSections(d.id, d.text).sections;
+      const offsets = new Int32Array(cut.length + 1);
+      offsets[0] = ids.length;
+      cut.forEach((s, i) => {
+        const t = countTerms(tokenize(lines.slice(s.start, s.end).join('\n'), ctx.tokenize), ctx.vocab, false);
+        ids.push(...t.termIds);
+        counts.push(...t.counts);
+        offsets[i + 1] = ids.length;
+      });
+      return { cut, offsets };
+    });
+    const termIds = Int32Array.from(ids);
+    const shared = Float32Array.from(counts);
+    const counted: CountedSections[] = parts.map(({ cut, offsets }) => ({
+      starts: Int32Array.from(cut, (s) => s.start),
+      ends: Int32Array.from(cut, (s) => s.end),
+      titles: cut.map((s) => s.title),
+      offsets,
+      termIds,
+      counts: shared,
+    }));
+    const total = counted.reduce((n, c) => n + c.starts.length, 0);
+    expect(total).toBeGreaterThan(300);
+    expect(counted.some((c) => c.starts.length === 0)).toBe(false);
+    // Products of the default size, and of 37 sections (chunks end inside files).
+    for (const [executor, chunkSections] of [
+      [serialExecutor, FOLD_CHUNK_SECTIONS],
+      [undefined, FOLD_CHUNK_SECTIONS],
+      [undefined, 37],
+    ] as const) {
+      const folded = foldCountedSections(index.model, counted, { executor, chunkSections });
+      docs.forEach((d, i) => {
+        const want = index.sections.get(d.id)!;
+        expect(folded[i].titles).toEqual(want.titles);
+        expect(Array.from(folded[i].starts)).toEqual(Array.from(want.starts));
+        expect(maxDiff(folded[i].vectors, want.vectors)).toBeLessThanOrEqual(1e-6);
+      });
+    }
   });
 
   it('saves and reopens every section exactly; removing a file drops its sections', () => {
