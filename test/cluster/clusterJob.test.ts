@@ -35,6 +35,7 @@ import { runCli } from '../helpers/cliRunner.js';
 import {
   bundleCli,
   differingEntries,
+  localJobArgs,
   matrixEntries,
   readSingularValues,
   requireDask,
@@ -113,13 +114,7 @@ describe('cluster job on a local Dask cluster', () => {
     // The command line the workers run, bundled as scripts/build.mjs bundles it.
     await bundleCli(join(dir, 'cli.js'));
     const { code, stderr } = await runClusterJob([
-      ws,
-      '--out',
-      join(dir, 'org.model'),
-      '--undertone',
-      `${process.execPath} ${join(dir, 'cli.js')}`,
-      '--local-workers',
-      '2',
+      ...localJobArgs(ws, dir),
       '--shard-files',
       '600',
       '--k',

@@ -23,6 +23,7 @@ import { runCli } from '../helpers/cliRunner.js';
 import {
   bundleCli,
   differingEntries,
+  localJobArgs,
   matrixEntries,
   readSingularValues,
   requireDask,
@@ -71,13 +72,7 @@ describe('cluster job on a few thousand real documentation files', () => {
     }
     await bundleCli(join(dir, 'cli.js'));
     const { code, stderr } = await runClusterJob([
-      ws,
-      '--out',
-      join(dir, 'org.model'),
-      '--undertone',
-      `${process.execPath} ${join(dir, 'cli.js')}`,
-      '--local-workers',
-      '2',
+      ...localJobArgs(ws, dir),
       '--shard-files',
       '1000',
       '--k',

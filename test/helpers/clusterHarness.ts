@@ -32,6 +32,14 @@ export async function bundleCli(outfile: string): Promise<void> {
   });
 }
 
+/**
+ * The arguments every test run starts with: the folder, the model file DIR/org.model, the command
+ * line bundled at DIR/cli.js (bundleCli) and a local cluster of two worker processes.
+ */
+export function localJobArgs(ws: string, dir: string): string[] {
+  return [ws, '--out', join(dir, 'org.model'), '--undertone', `${process.execPath} ${join(dir, 'cli.js')}`, '--local-workers', '2'];
+}
+
 /** Runs `python3 -m undertone_cluster ARGS` from cluster/ and returns its exit code and stderr. */
 export async function runClusterJob(
   args: string[],

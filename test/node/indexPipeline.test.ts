@@ -1,4 +1,3 @@
-import { build } from 'esbuild';
 import { mkdirSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -8,14 +7,15 @@ import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { resolveSettings } from '../../src/core/index/model/settings.js';
 import { chooseCounting, PARALLEL_MIN_FILES, runIndexPipeline, type SourceFile } from '../../src/node/indexPipeline.js';
 import { WorkerPool } from '../../src/node/parallel/workerPool.js';
-import { loadCollection, REPO_ROOT } from '../helpers/shared.js';
+import { loadCollection } from '../helpers/shared.js';
+import { useBundledParallelWorker } from '../helpers/parallelWorkerBundle.js';
 
 // Real text: CRAN abstracts (test/fixtures/corpora/cran), written out as files: 300 to index and
 // 300 others that make a previous index with a vocabulary of its own.
 const cran = loadCollection('cran');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-pipeline-'));
 const settings = resolveSettings({});
-let saved: string | undefined;
+let restoreWorker: () => void = () => undefined;
 
 function folderOf(name: string, docs: { id: string; text: string }[]): SourceFile[] {
   const dir = join(tmp, name);
@@ -33,25 +33,13 @@ const none = { binary: 0, tooLarge: 0, unreadable: 0, other: 0 };
 const bytesOf = (v: Float32Array): Buffer => Buffer.from(v.buffer, v.byteOffset, v.byteLength);
 
 beforeAll(async () => {
-  const script = join(tmp, 'parallelWorker.js');
-  await build({
-    entryPoints: ['src/node/parallel/parallelWorker.ts'],
-    outfile: script,
-    bundle: true,
-    platform: 'node',
-    format: 'cjs',
-    absWorkingDir: REPO_ROOT,
-    logLevel: 'error',
-  });
-  saved = process.env.UNDERTONE_PARALLEL_WORKER;
-  process.env.UNDERTONE_PARALLEL_WORKER = script;
+  restoreWorker = await useBundledParallelWorker(tmp);
   files = folderOf('a', cran.docs.slice(0, 300));
   otherFiles = folderOf('b', cran.docs.slice(300, 600));
 });
 
 afterAll(() => {
-  if (saved === undefined) delete process.env.UNDERTONE_PARALLEL_WORKER;
-  else process.env.UNDERTONE_PARALLEL_WORKER = saved;
+  restoreWorker();
   rmSync(tmp, { recursive: true, force: true });
 });
 

@@ -13,7 +13,6 @@
  * Tolerance 1e-6 per number (the brief's; the sums are the same operations in the same order, so
  * they are expected to agree to the bit).
  */
-import { build } from 'esbuild';
 import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
@@ -29,12 +28,13 @@ import { tokenize } from '../../src/core/text/tokenize.js';
 import { runIndexPipeline, type SourceFile } from '../../src/node/indexPipeline.js';
 import { countFilesSorted } from '../../src/node/parallel/sortedCount.js';
 import { WorkerPool } from '../../src/node/parallel/workerPool.js';
-import { fixturePath, loadCollection, REPO_ROOT } from '../helpers/shared.js';
+import { fixturePath, loadCollection } from '../helpers/shared.js';
+import { useBundledParallelWorker } from '../helpers/parallelWorkerBundle.js';
 
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-sections-'));
 const texts = new Map<string, string>();
 let files: SourceFile[] = [];
-let saved: string | undefined;
+let restoreWorker: () => void = () => undefined;
 
 function add(key: string, text: string): void {
   texts.set(key, text);
@@ -63,18 +63,7 @@ function corpus(): void {
 }
 
 beforeAll(async () => {
-  const script = join(tmp, 'parallelWorker.js');
-  await build({
-    entryPoints: ['src/node/parallel/parallelWorker.ts'],
-    outfile: script,
-    bundle: true,
-    platform: 'node',
-    format: 'cjs',
-    absWorkingDir: REPO_ROOT,
-    logLevel: 'error',
-  });
-  saved = process.env.UNDERTONE_PARALLEL_WORKER;
-  process.env.UNDERTONE_PARALLEL_WORKER = script;
+  restoreWorker = await useBundledParallelWorker(tmp);
   corpus();
   files = [...texts].map(([key, text]) => {
     const absPath = join(tmp, 'files', key);
@@ -86,8 +75,7 @@ beforeAll(async () => {
 });
 
 afterAll(() => {
-  if (saved === undefined) delete process.env.UNDERTONE_PARALLEL_WORKER;
-  else process.env.UNDERTONE_PARALLEL_WORKER = saved;
+  restoreWorker();
   rmSync(tmp, { recursive: true, force: true });
 });
 

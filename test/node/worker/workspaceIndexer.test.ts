@@ -1,4 +1,3 @@
-import { build } from 'esbuild';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -8,35 +7,24 @@ import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import { WorkerPool } from '../../../src/node/parallel/workerPool.js';
 import { RootMap } from '../../../src/node/worker/rootMap.js';
 import { buildWorkspaceIndex } from '../../../src/node/worker/workspaceIndexer.js';
-import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
+import { loadCollection } from '../../helpers/shared.js';
+import { useBundledParallelWorker } from '../../helpers/parallelWorkerBundle.js';
 
 // Real text: 300 CRAN abstracts (test/fixtures/corpora/cran) split over two workspace folders.
 const cran = loadCollection('cran');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-wsindex-'));
 const docs = cran ? cran.docs.slice(0, 300) : [];
 const folders = [join(tmp, 'alpha'), join(tmp, 'beta')];
-let saved: string | undefined;
+let restoreWorker: () => void = () => undefined;
 
 beforeAll(async () => {
-  const script = join(tmp, 'parallelWorker.js');
-  await build({
-    entryPoints: ['src/node/parallel/parallelWorker.ts'],
-    outfile: script,
-    bundle: true,
-    platform: 'node',
-    format: 'cjs',
-    absWorkingDir: REPO_ROOT,
-    logLevel: 'error',
-  });
-  saved = process.env.UNDERTONE_PARALLEL_WORKER;
-  process.env.UNDERTONE_PARALLEL_WORKER = script;
+  restoreWorker = await useBundledParallelWorker(tmp);
   for (const f of folders) mkdirSync(f, { recursive: true });
   docs.forEach((d, i) => writeFileSync(join(folders[i % 2], `${d.id}.txt`), d.text));
 });
 
 afterAll(() => {
-  if (saved === undefined) delete process.env.UNDERTONE_PARALLEL_WORKER;
-  else process.env.UNDERTONE_PARALLEL_WORKER = saved;
+  restoreWorker();
   rmSync(tmp, { recursive: true, force: true });
 });
 
