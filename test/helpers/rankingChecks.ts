@@ -43,6 +43,21 @@ function lines(dir: string, name: string): string[] {
 }
 
 /** Reads test/fixtures/<name>. @throws FixtureMissingError when it is absent. */
+/** Every ranking check with its kind, in the order the research scripts (scripts/fixtures/ranking*.ts) print them. */
+export const RANKING_CHECKS: readonly (readonly [string, 'nearby' | 'search'])[] = [
+  ['cmake-doc', 'nearby'],
+  ['django-doc', 'nearby'],
+  ['rxjs-src', 'search'],
+  ['lodash-src', 'search'],
+  ['corpora/cisi', 'search'],
+  ['corpora/cran', 'search'],
+  ['corpora/cacm', 'search'],
+  ['corpora/adi', 'search'],
+];
+
+/** A figure for the research scripts' tables: four decimals, or a dash where there is none. */
+export const figure = (x: number | undefined | null): string => (x == null ? '  -  ' : x.toFixed(4));
+
 export function loadRankingFixture(name: string): RankingFixture {
   const dir = fixturePath(name);
   const qrels = new Map<string, Set<string>>();

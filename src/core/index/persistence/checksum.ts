@@ -8,6 +8,8 @@
  * The value does not depend on the platform's byte order or on the bytes' alignment.
  */
 
+import { fmix32 } from '../../lookalike/murmur3.js';
+
 const LITTLE_ENDIAN = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
 
 /** One block step: mixes word k into state h. */
@@ -62,12 +64,7 @@ export function checksum32(bytes: Uint8Array): number {
   for (let i = blocks; i < w.length; i++) h = step(h, w[i]);
   h = step(step(step(step(h, h0), h1), h2), h3);
   for (let i = w.length * 4; i < bytes.length; i++) h = Math.imul(h ^ bytes[i], 0x01000193);
-  h ^= h >>> 16;
-  h = Math.imul(h, 0x85ebca6b);
-  h ^= h >>> 13;
-  h = Math.imul(h, 0xc2b2ae35);
-  h ^= h >>> 16;
-  return h >>> 0;
+  return fmix32(h);
 }
 
 /**
@@ -123,12 +120,7 @@ export class Checksum32 {
     for (let i = 0; i < w.length; i++) h = step(h, w[i]);
     h = step(step(step(step(h, this.h0), this.h1), this.h2), this.h3);
     for (let i = w.length * 4; i < this.carried; i++) h = Math.imul(h ^ this.carry[i], 0x01000193);
-    h ^= h >>> 16;
-    h = Math.imul(h, 0x85ebca6b);
-    h ^= h >>> 13;
-    h = Math.imul(h, 0xc2b2ae35);
-    h ^= h >>> 16;
-    return h >>> 0;
+    return fmix32(h);
   }
 
   /** Feeds whole 4-word blocks (w.length a multiple of 4) round-robin to the four states. */
