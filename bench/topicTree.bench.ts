@@ -2,6 +2,7 @@
  * Speed of the topic tree (core/topics/topics.ts: first level, loose files, sub-topics, names,
  * folders) on large real folders. Figures only, no assertions. Run from the repository root:
  *   npm run build && npm run bench:topic-tree -- [mixed|kernel-doc|kernel|all]
+ *   npm run bench:topic-tree -- file <index file>    (a saved index, loaded as is: no scan, no build)
  * Folders:
  *   mixed       every public collection in test/fixtures written out as one file per document
  *               (CMake and Django manuals, CISI, CACM, CRAN, ADI abstracts: about 8.6k files of
@@ -17,6 +18,9 @@
  * pass) is timed in CPU too, so that figures taken on a loaded machine can be read against the
  * machine's speed at that moment; the load average is printed with them.
  * The whole kernel tree is indexed with --no-gitignore (its .gitignore leaves the scanner nothing).
+ * With `file`, the index file is loaded (persist.ts loadIndex, the load's wall and CPU time
+ * printed) and the runs follow as above; for the figure a user meets (one process: load and one
+ * tree, peak RSS) run it under /usr/bin/time -v with RUNS=1.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
@@ -26,6 +30,8 @@ import { gunzipSync } from 'node:zlib';
 import { indexFileFrom } from '../src/cli/context.js';
 import { findTopics, walkTopics } from '../src/core/topics/topics.js';
 import { indexFolder } from '../src/node/folderIndexer.js';
+import { loadIndex } from '../src/node/persist.js';
+import type { LsiIndex } from '../src/core/index/lsiIndex.js';
 
 const RUNS = Number(process.env.RUNS ?? 3);
 const CACHE = resolve('.cache/bench');
@@ -101,6 +107,23 @@ async function bench(name: string, folder: string): Promise<void> {
     parallel: false,
     ...(name === 'kernel' ? { scan: { honourGitignore: false } } : {}),
   });
+  runTrees(`${name}: ${index.size} files, k=${index.k}; index (CLI, build or reuse) ${(built / 1000).toFixed(1)} s`, index);
+}
+
+async function benchFile(path: string): Promise<void> {
+  const s = performance.now();
+  const c0 = process.cpuUsage();
+  const loaded = await loadIndex(path);
+  const c1 = process.cpuUsage(c0);
+  if (loaded.status !== 'ok') throw new Error(`${path}: ${loaded.status === 'damaged' ? loaded.reason : 'missing'}`);
+  const index = loaded.index;
+  runTrees(
+    `${path}: ${index.size} files, k=${index.k}, ${(loaded.bytes / 2 ** 20).toFixed(0)} MiB; load ${((performance.now() - s) / 1000).toFixed(2)} s (CPU ${((c1.user + c1.system) / 1e6).toFixed(2)} s)`,
+    index,
+  );
+}
+
+function runTrees(title: string, index: LsiIndex): void {
   const times: number[] = [];
   const cpu: number[] = [];
   const reference: string[] = [];
@@ -121,7 +144,7 @@ async function bench(name: string, folder: string): Promise<void> {
   times.sort((a, b) => a - b);
   const rss = process.resourceUsage().maxRSS / 1024;
   console.log(
-    `${name}: ${index.size} files, k=${index.k}; index (CLI, build or reuse) ${(built / 1000).toFixed(1)} s\n` +
+    `${title}\n` +
       `  topic tree: median ${(times[Math.floor(RUNS / 2)] / 1000).toFixed(2)} s, runs ${times.map((t) => (t / 1000).toFixed(2)).join(', ')} s (CPU ${cpu.map((t) => (t / 1000).toFixed(2)).join(', ')} s, one thread); ${shape}; peak RSS ${rss.toFixed(0)} MiB\n` +
       `  reference loop before each run: ${reference.join(', ')} G multiply-adds per CPU second; load average ${loadavg()
         .map((l) => l.toFixed(1))
@@ -129,8 +152,9 @@ async function bench(name: string, folder: string): Promise<void> {
   );
 }
 
+if (which === 'file') await benchFile(process.argv[3] ?? '');
 for (const [name, locate] of Object.entries(folders)) {
-  if (which !== 'all' && which !== name) continue;
+  if (which !== 'all' && which !== name) continue; // 'file' matches none
   const folder = locate();
   if (!folder) {
     console.log(`${name}: skipped (run scripts/bench-setup.sh first)`);

@@ -9,8 +9,8 @@
  * Defaults: 10 restarts (scikit-learn's KMeans n_init before 1.4), 50 iterations (our choice). Ties go to the lower index.
  */
 import { InvalidInputError } from '../errors.js';
-import { timesSmallRows } from '../matrix/kernels.js';
 import { createRandom, DEFAULT_SEED, type RandomSource } from '../random.js';
+import { PointProducts } from './pointProducts.js';
 
 export interface SphericalKMeansOptions {
   /** @default 10 */
@@ -51,11 +51,12 @@ export function sphericalKMeans(
   const o = { ...DEFAULT_SPHERICAL_KMEANS_OPTIONS, ...options };
   if (n < 1 || points.length < n * dims) throw new InvalidInputError('k-means needs at least one point');
   if (!Number.isInteger(k) || k < 1) throw new InvalidInputError(`the number of clusters must be a positive whole number, got ${k}`);
-  if (o.initial) return lloyd(points, n, dims, o.initial, o.maxIterations);
+  const products = new PointProducts(points, n, dims, o.initial ? o.initial.length / dims : Math.min(k, n));
+  if (o.initial) return lloyd(points, n, dims, o.initial, o.maxIterations, products);
   const random = createRandom(o.seed);
   let best: Clustering | null = null;
   for (let r = 0; r < Math.max(1, o.restarts); r++) {
-    const run = lloyd(points, n, dims, seedCentres(points, n, dims, Math.min(k, n), random), o.maxIterations);
+    const run = lloyd(points, n, dims, seedCentres(points, n, dims, Math.min(k, n), random, products), o.maxIterations, products);
     if (!best || run.objective > best.objective + 1e-12) best = run;
   }
   return best!;
@@ -67,9 +68,16 @@ export function sphericalKMeans(
  * Vassilvitskii 2007 suggest; the count is scikit-learn's default). Returns fewer centres when
  * every remaining point coincides with a centre.
  */
-export function seedCentres(points: Float64Array, n: number, dims: number, k: number, random: RandomSource): Float64Array {
+export function seedCentres(
+  points: Float64Array,
+  n: number,
+  dims: number,
+  k: number,
+  random: RandomSource,
+  products = new PointProducts(points, n, dims, 1),
+): Float64Array {
   const chosen = seedPicks(n, k, random, (j, out) => {
-    timesPoint(points, n, dims, j, out);
+    products.timesPoint(j, out);
     for (let i = 0; i < n; i++) out[i] = Math.max(0, 2 - 2 * out[i]);
   });
   const centres = new Float64Array(chosen.length * dims);
@@ -134,11 +142,18 @@ function drawByWeight(weight: Float64Array, total: number, u01: number): number 
  * pass costs n·dims per moved point instead of n·k·dims (exact up to rounding; the whole table is
  * recomputed when at least k/2 points moved).
  */
-function lloyd(points: Float64Array, n: number, dims: number, initial: Float64Array, maxIterations: number): Clustering {
+function lloyd(
+  points: Float64Array,
+  n: number,
+  dims: number,
+  initial: Float64Array,
+  maxIterations: number,
+  products: PointProducts,
+): Clustering {
   const k = initial.length / dims;
   const assignment = new Int32Array(n);
   const s = new Float64Array(n * k);
-  timesCentres(points, n, dims, initial, k, s);
+  products.timesCentres(initial, k, s);
   const first = assignFromSums(s, n, k, null, assignment, null);
   let objective = first.objective;
   const sums = new Float64Array(k * dims);
@@ -153,12 +168,12 @@ function lloyd(points: Float64Array, n: number, dims: number, initial: Float64Ar
   let movedPoints: number[] | null = null;
   while (iterations < maxIterations) {
     iterations++;
-    if (movedPoints === null || 2 * movedPoints.length >= k) timesCentres(points, n, dims, sums, k, s);
+    if (movedPoints === null || 2 * movedPoints.length >= k) products.timesCentres(sums, k, s);
     else {
       for (const j of movedPoints) {
         const a = previous[j];
         const b = assignment[j];
-        timesPoint(points, n, dims, j, column);
+        products.timesPoint(j, column);
         for (let i = 0; i < n; i++) {
           s[i * k + a] -= column[i];
           s[i * k + b] += column[i];
@@ -199,19 +214,6 @@ function lloyd(points: Float64Array, n: number, dims: number, initial: Float64Ar
   if (kept === 0) return { assignment: new Int32Array(n), centres: initial.slice(0, dims), clusters: 1, objective, iterations };
   for (let i = 0; i < n; i++) assignment[i] = renumber[assignment[i]];
   return { assignment, centres: Float64Array.from(centres), clusters: kept, objective, iterations };
-}
-
-/**
- * s (n × k) = points · centresᵀ: the blocked product of matrix/kernels.ts (four points and two
- * centres at a time), where k-means spends its time.
- */
-function timesCentres(points: Float64Array, n: number, dims: number, centres: Float64Array, k: number, s: Float64Array): void {
-  timesSmallRows(points, dims, centres, k, false, s, 0, n);
-}
-
-/** column (n) = points · point j. */
-function timesPoint(points: Float64Array, n: number, dims: number, j: number, column: Float64Array): void {
-  timesSmallRows(points, dims, points.subarray(j * dims, (j + 1) * dims), 1, false, column, 0, n);
 }
 
 /**
