@@ -12,6 +12,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import { createRandom, type RandomSource } from '../random.js';
+import { PointProducts } from './pointProducts.js';
 import { DEFAULT_SPHERICAL_KMEANS_OPTIONS, seedPicks, type SphericalKMeansOptions } from './sphericalKMeans.js';
 
 export interface GramClustering {
@@ -128,9 +129,20 @@ function lloydGram(gram: Float64Array, n: number, seeds: readonly number[], maxI
   return { assignment, clusters, objective, iterations };
 }
 
-/** The n × n table of dot products of n rows of dims numbers (row-major), symmetric. */
+/**
+ * The n × n table of dot products of n rows of dims numbers (row-major), symmetric: entry (i, j)
+ * is Σ_d x_i[d]·x_j[d] summed over d in order, so (j, i) has the same bits. On the SIMD product
+ * (pointProducts.ts) where available: the whole table, twice the multiply-adds of one triangle,
+ * and still 2.5–3× less CPU time on 150 × 289 and 500 × 195 samples (our measurement, loaded
+ * machine); else one triangle by plain loops, mirrored. The same bits either way.
+ */
 export function gramOf(points: Float64Array, n: number, dims: number): Float64Array {
   const g = new Float64Array(n * n);
+  const products = new PointProducts(points, n, dims, n);
+  if (products.simd) {
+    products.timesCentres(points, n, g);
+    return g;
+  }
   for (let i = 0; i < n; i++) {
     const oi = i * dims;
     for (let j = i; j < n; j++) {

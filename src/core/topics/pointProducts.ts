@@ -54,6 +54,11 @@ export class PointProducts {
     }
   }
 
+  /** True when the products run on WebAssembly SIMD. */
+  get simd(): boolean {
+    return this.wasm !== null;
+  }
+
   /** out (n × k, row-major) = points · centresᵀ, centres k × dims row-major. */
   timesCentres(centres: Float64Array, k: number, out: Float64Array): void {
     const w = this.wasm;

@@ -65,6 +65,8 @@ export interface TopicsOptions {
   curMethod: CurMethod;
   /** CUR rank; undefined means min(20, max(10, topics)). */
   curRank?: number;
+  /** k-means restarts at the first level; undefined means restartsFor (a budget of work, see there). */
+  restarts?: number;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
   /** @default DEFAULT_SEED */
@@ -199,7 +201,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
       : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed });
   yield;
-  const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed);
+  const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts);
   const K = clustering.clusters;
   yield;
 

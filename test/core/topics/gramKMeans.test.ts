@@ -30,6 +30,23 @@ function unitPoints(n: number, dims: number, seed: number): Float64Array {
 }
 
 describe('spherical k-means from the cosine table', () => {
+  it('gramOf: a symmetric table whose every entry has the bits of the plain in-order sum (SIMD path or not)', () => {
+    for (const [n, dims] of [
+      [37, 195],
+      [6, 3],
+    ] as const) {
+      const p = unitPoints(n, dims, n);
+      const g = gramOf(p, n, dims);
+      for (let i = 0; i < n; i++)
+        for (let j = 0; j < n; j++) {
+          let v = 0;
+          for (let d = 0; d < dims; d++) v += p[i * dims + d] * p[j * dims + d];
+          expect(g[i * n + j]).toBe(v);
+          expect(g[j * n + i]).toBe(g[i * n + j]);
+        }
+    }
+  });
+
   it('reports the objective of its own labels, within 2% of the vector form on random points', () => {
     const dims = 6;
     const n = 300;
