@@ -10,9 +10,11 @@
  * 3 k-means restarts per candidate. The k-means runs work from the sample's table of cosines
  * (gramKMeans.ts), so a candidate costs a few hundred thousand additions per pass. On large text collections the silhouette tends to keep
  * rising with the count, so the ceiling often decides there (see the benchmark notes). Fewer than 3 points, or points with a
- * single direction, give 1 topic.
+ * single direction, give 1 topic. With draws > 1, each draw is an independent seeded sample with
+ * its own k-means runs, and the silhouettes of a candidate are averaged over the draws before the
+ * best is taken (the first draw is exactly the single-draw run).
  */
-import { createRandom, DEFAULT_SEED } from '../random.js';
+import { createRandom, DEFAULT_SEED, type RandomSource } from '../random.js';
 import { gramKMeans, gramOf } from './gramKMeans.js';
 
 export interface TopicCountOptions {
@@ -26,6 +28,8 @@ export interface TopicCountOptions {
   restarts: number;
   /** Lloyd passes per candidate run. @default 50 */
   maxIterations: number;
+  /** Independent samples (each with its own k-means runs) whose silhouettes are averaged per candidate. @default 1 */
+  draws: number;
   /** @default DEFAULT_SEED */
   seed: number;
 }
@@ -35,6 +39,7 @@ export const DEFAULT_TOPIC_COUNT_OPTIONS: Readonly<TopicCountOptions> = Object.f
   sampleSize: 500,
   restarts: 3,
   maxIterations: 50,
+  draws: 1,
   seed: DEFAULT_SEED,
 });
 
@@ -55,6 +60,39 @@ export function chooseTopicCount(
   const o = { ...DEFAULT_TOPIC_COUNT_OPTIONS, ...options };
   if (n < 3) return { topics: Math.max(0, Math.min(n, 1)), scores: [], sampled: n };
   const random = createRandom(o.seed);
+  const draws = Math.max(1, Math.floor(o.draws));
+  // Per candidate, the silhouettes of every draw (a candidate stays only while every draw reaches it).
+  let table: { topics: number; silhouettes: number[] }[] | null = null;
+  let s = 0;
+  for (let draw = 0; draw < draws; draw++) {
+    const one = drawSilhouettes(points, n, dims, o, random, draw === 0 ? o.seed : random.nextUint32());
+    if (one === null) return { topics: 1, scores: [], sampled: Math.min(n, o.sampleSize) };
+    s = one.sampled;
+    table =
+      table === null
+        ? one.scores.map((x) => ({ topics: x.topics, silhouettes: [x.silhouette] }))
+        : table
+            .slice(0, one.scores.length)
+            .map((x, i) => ({ topics: x.topics, silhouettes: [...x.silhouettes, one.scores[i].silhouette] }));
+  }
+  const scores = table!.map((x) => ({ topics: x.topics, silhouette: x.silhouettes.reduce((a, b) => a + b, 0) / x.silhouettes.length }));
+  let best = { topics: 1, silhouette: -Infinity };
+  for (const x of scores) if (x.silhouette > best.silhouette + 1e-12) best = x;
+  return { topics: scores.length > 0 ? best.topics : 1, scores, sampled: s };
+}
+
+/**
+ * One draw: a seeded sample, and the mean silhouette of the k-means clustering of each candidate
+ * count (k-means seeded by kSeed + k); null when the sample has a single direction.
+ */
+function drawSilhouettes(
+  points: Float64Array,
+  n: number,
+  dims: number,
+  o: TopicCountOptions,
+  random: RandomSource,
+  kSeed: number,
+): { scores: { topics: number; silhouette: number }[]; sampled: number } | null {
   // Partial Fisher–Yates: the first s entries of order are a uniform sample, kept in index order.
   const order = Int32Array.from({ length: n }, (_, i) => i);
   const s = Math.min(n, o.sampleSize);
@@ -76,18 +114,15 @@ export function chooseTopicCount(
       spread = Math.max(spread, v);
     }
   }
-  if (!(spread > 1e-9)) return { topics: 1, scores: [], sampled: s };
+  if (!(spread > 1e-9)) return null;
   const upper = Math.min(o.maxTopics ?? Math.min(20, Math.ceil(Math.sqrt(n / 2))), s - 1);
   const scores: { topics: number; silhouette: number }[] = [];
-  let best = { topics: 1, silhouette: -Infinity };
   for (let k = Math.max(2, o.minTopics); k <= upper; k += k < 10 ? 1 : 2) {
-    const c = gramKMeans(gram, s, k, { restarts: o.restarts, maxIterations: o.maxIterations, seed: o.seed + k });
+    const c = gramKMeans(gram, s, k, { restarts: o.restarts, maxIterations: o.maxIterations, seed: kSeed + k });
     if (c.clusters < k) break; // fewer distinct directions than k: larger k cannot do better
-    const sil = meanSilhouette(dist, s, c.assignment, c.clusters);
-    scores.push({ topics: k, silhouette: sil });
-    if (sil > best.silhouette + 1e-12) best = { topics: k, silhouette: sil };
+    scores.push({ topics: k, silhouette: meanSilhouette(dist, s, c.assignment, c.clusters) });
   }
-  return { topics: scores.length > 0 ? best.topics : 1, scores, sampled: s };
+  return { scores, sampled: s };
 }
 
 /** Mean silhouette of a labelling from a full s × s distance table. */

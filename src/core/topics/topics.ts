@@ -2,7 +2,12 @@
  * Topics of an index as a tree, each topic explained by real terms and real files.
  *
  * 1. Group the files' unit concept vectors by spherical k-means (sphericalKMeans.ts); the number
- *    of first-level topics is chosen by mean silhouette (topicCount.ts) unless the caller gives it.
+ *    of first-level topics is chosen by mean silhouette (topicCount.ts) unless the caller gives it,
+ *    averaged over 3 seeded samples (countDraws): one draw's silhouettes move by about ±0.02 with
+ *    the seed, and on the Django manual the count chosen with seeds 0–4 was 2, 12, 16, 14, 16 with
+ *    one draw and 14, 16, 16, 14, 16 with three (CMake 20, 20, 20, 18, 20 and 20 ×5; Sphinx's 91
+ *    pages 7, 6, 7, 7, 7 and 7 ×5; scripts/fixtures/topicLevels.ts). Three is our choice (three
+ *    draws of one k-means restart each were less steady: 16, 16, 16, 12, 16).
  * 2. Files that fit no topic well are set apart ("loose"): a file whose cosine with its topic's
  *    centre is no larger than its cosine with the centre of the whole workspace is explained by
  *    its topic no better than by the workspace's average direction (our rule; no constant).
@@ -65,6 +70,8 @@ export interface TopicsOptions {
   curMethod: CurMethod;
   /** CUR rank; undefined means min(20, max(10, topics)). */
   curRank?: number;
+  /** Samples whose silhouettes are averaged when the first level's count is chosen (topicCount.ts draws). @default 3 */
+  countDraws: number;
   /** k-means restarts at the first level; undefined means restartsFor (a budget of work, see there). */
   restarts?: number;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
@@ -87,6 +94,7 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   filesPerTopic: 5,
   curMethod: 'deim',
   fitSample: 2000,
+  countDraws: 3,
   seed: DEFAULT_SEED,
 } as const);
 
@@ -199,7 +207,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
   const choice: TopicCountChoice =
     o.topics !== undefined
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
-      : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed });
+      : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
   yield;
   const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts);
   const K = clustering.clusters;

@@ -77,4 +77,20 @@ describe('automatic topic count', () => {
     const b = chooseTopicCount(points, 100, dims, { seed: 4 });
     expect(b).toEqual(a);
   });
+
+  it("with several draws, averages each candidate's silhouettes over them; the first draw is the single-draw run", () => {
+    const { points, dims } = plantedClusters(4, 200, 20, 0.5, 11);
+    const n = 800;
+    const one = chooseTopicCount(points, n, dims, { seed: 5, maxTopics: 8 });
+    const three = chooseTopicCount(points, n, dims, { seed: 5, maxTopics: 8, draws: 3 });
+    expect(three.scores.map((x) => x.topics)).toEqual(one.scores.map((x) => x.topics));
+    // The mean of three draws, the first of which is the single draw: the others are recovered as
+    // 3·mean − first and must be silhouettes themselves (within [−1, 1]) and not all equal to the first.
+    const others = three.scores.map((x, i) => 3 * x.silhouette - one.scores[i].silhouette);
+    for (const o of others) expect(Math.abs(o)).toBeLessThanOrEqual(2);
+    expect(three.scores.some((x, i) => Math.abs(x.silhouette - one.scores[i].silhouette) > 1e-12)).toBe(true);
+    const best = three.scores.reduce((a, b) => (b.silhouette > a.silhouette + 1e-12 ? b : a));
+    expect(three.topics).toBe(best.topics);
+    expect(three.topics).toBe(4); // planted
+  });
 });
