@@ -58,7 +58,7 @@ export interface TopicsOptions {
   maxChildren: number;
   /** Set apart files that fit no topic well (see the header). @default true */
   setApartLoose: boolean;
-  /** @default 'informative' */
+  /** @default 'contrast' (topicNames.ts says why) */
   naming: NamingScore;
   /** @default 8 */
   termsPerTopic: number;
@@ -89,7 +89,7 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   leafSize: 40,
   maxChildren: 8,
   setApartLoose: true,
-  naming: 'informative',
+  naming: 'contrast',
   termsPerTopic: 8,
   coherentNames: true,
   namePool: DEFAULT_NAME_POOL_FACTOR,
