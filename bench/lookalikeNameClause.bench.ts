@@ -132,7 +132,8 @@ for (const ga of [0.3, 0.35, 0.4])
   for (const decide of [false, true])
     for (const gb of [0, 0.05, 0.1])
       for (const nn of [1, 2, 3])
-        for (const ns of [0.8, 0.85, 0.9, 0.95]) for (const minWords of [100, 200]) rows.push(measure({ ga, decide, gb, nn, ns, minWords }));
+        for (const ns of [0.8, 0.85, 0.9, 0.95])
+          for (const minWords of [100, 200]) rows.push(measure({ ga, decide, gb, nn, ns, minWords }));
 
 const describe = (p: Point) =>
   `a: margin ≥ ${p.ga}${p.decide ? ', names decide' : ''}; b: margin ≥ ${p.gb}, names ≥ ${p.nn}, share ≥ ${p.ns}, words ≥ ${p.minWords}`;
@@ -169,9 +170,13 @@ for (const held of [...sources, null]) {
 const ok = passes(defaults);
 console.log('pairs of the default rule outside the key (fixture, then without retellings, then CMake):');
 for (const c of [...full.filter((c) => ok(c) && !c.label), ...bare.filter(ok), ...cm.filter(ok)])
-  console.log(`  ${c.a} ~ ${c.b}  words ${c.words}, names ${c.names} (held ${c.held.join('/')}), share ${c.share.toFixed(2)}, margin ${c.gap.toFixed(2)}`);
+  console.log(
+    `  ${c.a} ~ ${c.b}  words ${c.words}, names ${c.names} (held ${c.held.join('/')}), share ${c.share.toFixed(2)}, margin ${c.gap.toFixed(2)}`,
+  );
 console.log('CMake pairs of the earlier default that names-decide drops:');
 for (const c of cm.filter((c) => passes(earlier)(c) && !ok(c)))
-  console.log(`  ${c.a} ~ ${c.b}  words ${c.words}, names ${c.names} (held ${c.held.join('/')}), share ${c.share.toFixed(2)}, margin ${c.gap.toFixed(2)}`);
+  console.log(
+    `  ${c.a} ~ ${c.b}  words ${c.words}, names ${c.names} (held ${c.held.join('/')}), share ${c.share.toFixed(2)}, margin ${c.gap.toFixed(2)}`,
+  );
 const withDefaults = findLookalikes({ files: cmake });
 console.log(`cmake-doc with the defaults: ${withDefaults.retoldPairs.length} "same content" pairs in ${cmake.length} files`);

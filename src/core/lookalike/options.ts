@@ -95,7 +95,8 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
   if (!(Number.isInteger(o.retoldNameMinWords) && o.retoldNameMinWords >= 0))
     throw new InvalidInputError(`retoldNameMinWords must be a whole number ≥ 0, got ${o.retoldNameMinWords}`);
   positiveInteger('retoldNameMaxDf', o.retoldNameMaxDf);
-  if (typeof o.retoldNamesDecide !== 'boolean') throw new InvalidInputError(`retoldNamesDecide must be true or false, got ${String(o.retoldNamesDecide)}`);
+  if (typeof o.retoldNamesDecide !== 'boolean')
+    throw new InvalidInputError(`retoldNamesDecide must be true or false, got ${String(o.retoldNamesDecide)}`);
   positiveInteger('boilerplateFiles', o.boilerplateFiles);
   if (o.boilerplateFiles < 2) throw new InvalidInputError(`boilerplateFiles must be at least 2, got ${o.boilerplateFiles}`);
   positiveInteger('maxBucketSize', o.maxBucketSize);

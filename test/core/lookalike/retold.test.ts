@@ -85,7 +85,8 @@ describe('findRetoldPairs, clause b: a smaller margin with the same rare names',
   const withNames = { ...rule, minNameGap: 0.1, minSharedNames: 2, minNameShare: 0.8 };
   it('passes a mutual pair only 0.15 clear when it shares enough rare names', () => {
     expect(findRetoldPairs(input, rule)).toEqual([]); // margin 0.15 < 0.3, no names given
-    const names = (a: number, b: number) => (a + b === 1 ? { shared: 3, share: 0.85, own: [3, 4] as const } : { shared: 0, share: 0, own: [0, 0] as const });
+    const names = (a: number, b: number) =>
+      a + b === 1 ? { shared: 3, share: 0.85, own: [3, 4] as const } : { shared: 0, share: 0, own: [0, 0] as const };
     const pairs = findRetoldPairs({ ...input, names }, withNames);
     expect(pairs).toHaveLength(1);
     expect(pairs[0]).toMatchObject({ a: 0, b: 1, sharedNames: 3, nameShare: 0.85 });
@@ -163,7 +164,14 @@ describe('findRetoldPairs, namesDecide: when both files hold rare names, the nam
     expect(pairs[0]).toMatchObject({ clause: 'margin', namesHeld: [0, 5] });
   });
   it('passes a mutual pair with little margin on its shared names, and says so', () => {
-    const close = { ...clear, cosines: [[0.6, 0.58], [0.6, 0.5], [0.5, 0.4]] };
+    const close = {
+      ...clear,
+      cosines: [
+        [0.6, 0.58],
+        [0.6, 0.5],
+        [0.5, 0.4],
+      ],
+    };
     const same = () => ({ shared: 4, share: 0.9, own: [4, 5] as const });
     const pairs = findRetoldPairs({ ...close, names: same }, params);
     expect(pairs).toHaveLength(1);
