@@ -23,7 +23,7 @@ export interface LookalikeOptions {
   readonly boilerplateFiles: number;
   /** Least full-space cosine of a "same content, other words" pair. @default 0.5 (our choice; any value from 0.3 to 0.55 gave the same pairs on test/fixtures/lookalike-retellings once the margin is 0.35) */
   readonly retoldMinCosine: number;
-  /** Least margin of that cosine over each file's next neighbour. @default 0.35 (our choice; chosen leaving one source of test/fixtures/lookalike-retellings out, coreutils vs the other GNU manuals: both folds chose 0.35, see its README) */
+  /** Least margin of that cosine over each file's next neighbour (clause a; with retoldNamesDecide, only when a file holds no rare name). @default 0.35 (our choice; chosen leaving one source of test/fixtures/lookalike-retellings out, coreutils vs the other GNU manuals: first both folds chose 0.35; with names deciding, 0.35 and 0.4: see its README and bench/lookalikeNameClause.bench.ts) */
   readonly retoldMinGap: number;
   /** "Other words": the pair's Jaccard must be below this. @default 0.2 (our choice; chosen with retoldMinGap, as above) */
   readonly retoldMaxJaccard: number;
