@@ -13,7 +13,7 @@
  *   property and the variable that sets its default are two pages of one setting, two Find modules
  *   of one template are two pages of one kind.
  * Grid: clause a's margin 0.3, 0.35, 0.4; names decide (when both files hold rare names clause a
- * does not apply) or not; clause b's margin 0, 0.05, 0.1, names ≥ 1, 2, 3, share ≥ 0.8, 0.85, 0.9,
+ * does not apply), decide only when they differ (share < 0.9), or never; clause b's margin 0, 0.05, 0.1, names ≥ 1, 2, 3, share ≥ 0.8, 0.85, 0.9,
  * 0.95, the shorter file's words (shingle tokens) ≥ 100, 200.
  * Choice, leaving one fixture source out: among points with at most 3 false pairs on the fixture,
  * at most 1 pair per 1,000 files without the retellings, and no fewer retellings of the training
@@ -92,9 +92,9 @@ const cm = candidates(cmake);
 console.log(`finder runs: ${((Date.now() - t0) / 1000).toFixed(0)} s`);
 
 interface Point {
-  /** Clause a's least margin, and whether names decide when both files hold some. */
+  /** Clause a's least margin, and when names decide for pairs whose files both hold some: 'always', 'differ' (share < 0.9) or 'never'. */
   ga: number;
-  decide: boolean;
+  decide: 'always' | 'differ' | 'never';
   /** Clause b: least margin, names, share, shorter file's words. */
   gb: number;
   nn: number;
@@ -102,7 +102,7 @@ interface Point {
   minWords: number;
 }
 const passes = (p: Point) => (c: Cand) =>
-  (c.gap >= p.ga && !(p.decide && c.held[0] > 0 && c.held[1] > 0)) ||
+  (c.gap >= p.ga && !(c.held[0] > 0 && c.held[1] > 0 && (p.decide === 'always' || (p.decide === 'differ' && c.share < 0.9)))) ||
   (c.gap >= p.gb && c.names >= p.nn && c.share >= p.ns && c.words >= p.minWords);
 const sources = [...new Set(corpus.retellings.map((r) => r[2]))];
 const total = (s: string) => corpus.retellings.filter((r) => r[2] === s).length;
@@ -117,11 +117,11 @@ function measure(p: Point) {
   return { p, hits, fp, bare: bare.filter(ok).length, cmake: cm.filter(ok).length };
 }
 type Row = ReturnType<typeof measure>;
-const earlier: Point = { ga: 0.35, decide: false, gb: 0.1, nn: 3, ns: 0.9, minWords: 100 };
+const earlier: Point = { ga: 0.35, decide: 'never', gb: 0.1, nn: 3, ns: 0.9, minWords: 100 };
 const d = DEFAULT_LOOKALIKE_OPTIONS;
 const defaults: Point = {
   ga: d.retoldMinGap,
-  decide: d.retoldNamesDecide,
+  decide: d.retoldNamesDecide ? 'always' : 'never',
   gb: d.retoldNameMinGap,
   nn: d.retoldMinSharedNames,
   ns: d.retoldMinNameShare,
@@ -129,14 +129,14 @@ const defaults: Point = {
 };
 const rows: Row[] = [];
 for (const ga of [0.3, 0.35, 0.4])
-  for (const decide of [false, true])
+  for (const decide of ['never', 'differ', 'always'] as const)
     for (const gb of [0, 0.05, 0.1])
       for (const nn of [1, 2, 3])
         for (const ns of [0.8, 0.85, 0.9, 0.95])
           for (const minWords of [100, 200]) rows.push(measure({ ga, decide, gb, nn, ns, minWords }));
 
 const describe = (p: Point) =>
-  `a: margin ≥ ${p.ga}${p.decide ? ', names decide' : ''}; b: margin ≥ ${p.gb}, names ≥ ${p.nn}, share ≥ ${p.ns}, words ≥ ${p.minWords}`;
+  `a: margin ≥ ${p.ga}${p.decide === 'always' ? ', names decide' : p.decide === 'differ' ? ', names decide when they differ' : ''}; b: margin ≥ ${p.gb}, names ≥ ${p.nn}, share ≥ ${p.ns}, words ≥ ${p.minWords}`;
 const recall = (r: Row) => sources.map((s) => `${s} ${r.hits[s] ?? 0}/${total(s)}`).join(', ');
 const line = (r: Row) =>
   `| ${describe(r.p)} | ${sources.reduce((s, t) => s + (r.hits[t] ?? 0), 0)}/${truth.size} (${recall(r)}) | ${r.fp} | ${r.bare} | ${r.cmake} |`;
@@ -148,9 +148,10 @@ console.log('every grid point with at most 3 false pairs and at most 1 per 1,000
 for (const r of rows.filter((r) => r.fp <= 3 && r.bare <= bareFiles.length / 1000).sort((x, y) => x.cmake - y.cmake)) console.log(line(r));
 
 // Leave one source out (and both sources together, which gives the default).
+const order = (x: Point['decide']): number => ['never', 'differ', 'always'].indexOf(x);
 const strict = (x: Row, y: Row) =>
   y.p.ga - x.p.ga ||
-  Number(y.p.decide) - Number(x.p.decide) ||
+  order(y.p.decide) - order(x.p.decide) ||
   y.p.gb - x.p.gb ||
   y.p.nn - x.p.nn ||
   y.p.ns - x.p.ns ||
