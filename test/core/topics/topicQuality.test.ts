@@ -257,21 +257,21 @@ describe('topic tree against scikit-learn on documentation trees', () => {
   });
   for (const name of ['cmake', 'django']) {
     it.skipIf(!sklearnReady)(
-      `${name}: names at least as coherent as NMF's (on all files and held out) and topics at least as close to the folders as k-means' (mean over seeds) at the first two levels, two measured gaps held as floors`,
+      `${name}: names at least as coherent as NMF's (on all files and held out) and topics at least as close to the folders as k-means' (mean over seeds) at the first two levels, one measured gap held as a floor`,
       { timeout: 900_000 },
       () => {
         const figures = evaluate(name);
         expect(figures.length).toBeGreaterThanOrEqual(2);
         // The goal is at or above the reference everywhere. Measured (2026-12-03, scikit-learn
-        // 1.2.1): NPMI on all files CMake 0.511 vs 0.392 and 0.465 vs 0.362, Django 0.414 vs 0.264
-        // and 0.467 vs 0.336; held out CMake 0.432 vs 0.369 and 0.366 vs 0.338, Django 0.349 vs
-        // 0.300 and 0.233 vs 0.259 (below); NMI means over seeds 0–2 CMake 0.388 vs 0.406 (below)
-        // and 0.413 vs 0.409, Django 0.372 vs 0.344 and 0.370 vs 0.348. The two gaps are held as
-        // floors 0.04 under the reference (our choice), every other figure at the reference.
+        // 1.2.1, names by the difference of mean weights, topicNames.ts): NPMI on all files CMake
+        // 0.475 vs 0.392 and 0.460 vs 0.362, Django 0.388 vs 0.264 and 0.404 vs 0.336; held out
+        // CMake 0.439 vs 0.369 and 0.389 vs 0.338, Django 0.341 vs 0.300 and 0.301 vs 0.259; NMI
+        // means over seeds 0–2 CMake 0.388 vs 0.406 (below) and 0.413 vs 0.409, Django 0.372 vs
+        // 0.344 and 0.370 vs 0.348. The one gap is held as a floor 0.04 under the reference (our
+        // choice), every other figure at the reference.
         for (const f of figures) {
           expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi);
-          const heldOutGap = name === 'django' && f.level === 2 ? 0.04 : 0;
-          expect(f.oursNpmiHeldOut).toBeGreaterThanOrEqual(f.nmfNpmiHeldOut - heldOutGap);
+          expect(f.oursNpmiHeldOut).toBeGreaterThanOrEqual(f.nmfNpmiHeldOut);
           const nmiGap = name === 'cmake' && f.level === 1 ? 0.04 : 0;
           expect(mean(f.oursNmi)).toBeGreaterThanOrEqual(mean(f.kmeansNmi) - nmiGap);
         }
