@@ -54,4 +54,22 @@ describe('PointProducts', () => {
     timesSmallRows(points, 8, centres, 6, false, plain, 0, 40);
     expect(Array.from(got)).toEqual(Array.from(plain));
   });
+
+  it('points past the resident size go a block of rows at a time, with the same bits (blocks of 8 rows, a last block of 3)', () => {
+    const n = 83;
+    const dims = 13;
+    const points = randomRows(n, dims, 7);
+    const centres = randomRows(5, dims, 8);
+    const blocked = new PointProducts(points, n, dims, 5, 8 * dims);
+    const got = new Float64Array(n * 5);
+    blocked.timesCentres(centres, 5, got);
+    const plain = new Float64Array(n * 5);
+    timesSmallRows(points, dims, centres, 5, false, plain, 0, n);
+    expect(Array.from(got)).toEqual(Array.from(plain));
+    const column = new Float64Array(n);
+    blocked.timesPoint(4, column);
+    const plainColumn = new Float64Array(n);
+    timesSmallRows(points, dims, points.subarray(4 * dims, 5 * dims), 1, false, plainColumn, 0, n);
+    expect(Array.from(column)).toEqual(Array.from(plainColumn));
+  });
 });
