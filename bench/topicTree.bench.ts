@@ -24,11 +24,11 @@
  * Measured 2026-12-03 on the shared 2-core machine (nice -n 5, others' jobs running; one run each
  * unless said; the whole-tree index in the current format, built by the CLI, copied and loaded):
  *   whole kernel tree (78,300 files, k = 289; 18 / 103 / 455 / 1566 topics per level): topic tree
- *   CPU 47.1 s, 49.0 s and 43.3 s in three runs (wall 72.4 s at load 7.3–10, 317.7 s at load
- *   15.6, 72.4 s at load 7.8; reference loop 0.27, 0.22, 0.26), the first before the SIMD Gram
- *   table, the last with today's names; the process (load 35–38 s wall, then one tree) peaked at
- *   3.72, 3.95 and 4.07 GiB RSS (/usr/bin/time -v; most of it the loaded index; the SIMD
- *   products copy the points, 181 MB at the top level).
+ *   CPU 47.1, 49.0, 43.3 and 38.2 s in four runs (wall 72.4 s at load 7.3–10, 317.7 s at load
+ *   15.6, 72.4 s at load 7.8, 87.9 s at load 6.9–8.2; reference loop 0.27, 0.22, 0.26, 0.30):
+ *   the first before the SIMD Gram table, the last two with today's names, the last with the
+ *   points in blocks; the process (load 17–38 s wall, then one tree) peaked at 3.72, 3.95, 4.07
+ *   and 4.07 GiB RSS (/usr/bin/time -v; most of it the loaded index, not the products' copies).
  *   Documentation (8,863 files, k = 195): CPU 4.15–4.42 s for runs 2–5 and 6.15 s for the first
  *   (the JIT warming up), wall 4.2–10 s at load 7.8 (reference loop 0.21–0.39); before the SIMD
  *   products 5.57–5.67 s for runs 2–3 and 7.27 s for the first, at load 8.6.
