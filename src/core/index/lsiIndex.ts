@@ -32,6 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
+import { focusWeights, meanResultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
 import { projectTerms, type ConceptModel } from './model/conceptModel.js';
@@ -256,16 +257,20 @@ export class LsiIndex {
     const liked = (options.like ?? []).map((p) => this.slot(p));
     const unliked = (options.unlike ?? []).map((p) => this.slot(p));
     if (q.termIds.length === 0 && liked.length === 0) throw new NoKnownTermsError(text);
+    const focus = r.termFocus > 0 && q.termIds.length > 1 ? this.focusOf(q) : null;
     let lexQuery = q;
+    if (focus && r.focusParts !== 'concept') {
+      lexQuery = { termIds: q.termIds, counts: Float32Array.from(q.counts, (c, i) => c * focus.get(q.termIds[i])!), length: q.length };
+    }
     for (const s of liked) lexQuery = mergeTerms(lexQuery, this.fileQuery(s, r.likeWeight / liked.length));
-    const proj = projectTerms(this.model, q);
+    const proj = projectTerms(this.model, q, focus && r.focusParts !== 'lexical' ? (t) => focus.get(t) ?? 1 : undefined);
     const n = this._slots.length;
     // Two reused n-long arrays (allocating 2 × 8n bytes per query made the collector run often).
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
     let lambda = this.settings.lexicalBlend;
     if (lambda > 0) {
-      this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
+      this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm, r.lexicalDelta);
       divideByMax(lexical);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
     }
@@ -335,7 +340,7 @@ export class LsiIndex {
     const lexicalQuery = this.fileQuery(self, 1);
     let max = 0;
     if (this.ranking.nearbyLexical > 0) {
-      this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm);
+      this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm, this.ranking.nearbyDelta);
       lexical[self] = 0;
       max = divideByMax(lexical);
     }
@@ -351,6 +356,49 @@ export class LsiIndex {
     const slots = this._slots;
     const live = (j: number): boolean => slots[j] !== null;
     return spreadShare(lambda, conceptSpread(this._rows.rows, this.k, slots, q), spreadOf(lexical, live));
+  }
+
+  /** Each query word's focus weight (termFocus.ts), by vocabulary id. */
+  private focusOf(q: DocTerms): Map<number, number> {
+    const bm = this.bm25();
+    const rows = this._rows.rows;
+    const k = this.k;
+    const n = this._slots.length;
+    const r: number[] = [];
+    for (let i = 0; i < q.termIds.length; i++) {
+      let m = 0;
+      const res = meanResultant(rows, k, (visit) =>
+        bm.forEachHolder(q.termIds[i], (slot) => {
+          if (slot < n && this._slots[slot] !== null) {
+            m++;
+            visit(slot);
+          }
+        }),
+      );
+      const mode = this.ranking.focusMeasure;
+      if (mode === 'chance') {
+        const mu2 = this.meanNormSquared();
+        r.push(res / Math.sqrt(1 / Math.max(m, 1) + (1 - 1 / Math.max(m, 1)) * mu2));
+      } else r.push(mode === 'cohesion' ? (m > 1 ? Math.max(0, (m * m * res * res - m) / (m * (m - 1))) : 1) : res);
+    }
+    const w = focusWeights(r, { power: this.ranking.termFocus });
+    return new Map(Array.from(q.termIds, (t, i) => [t, w[i]]));
+  }
+
+  private _mu2 = -1;
+  private meanNormSquared(): number {
+    if (this._mu2 >= 0) return this._mu2;
+    const k = this.k;
+    const acc = new Float64Array(k);
+    let m = 0;
+    this._slots.forEach((s, j) => {
+      if (!s) return;
+      m++;
+      for (let c = 0; c < k; c++) acc[c] += this._rows.rows[j * k + c];
+    });
+    let ss = 0;
+    for (let c = 0; c < k; c++) ss += (acc[c] / Math.max(m, 1)) ** 2;
+    return (this._mu2 = ss);
   }
 
   /** The idf-weighted share of a query's terms that the concept model does not know (0…1). */

@@ -66,6 +66,16 @@ export interface RankingOptions {
    * costs CRAN, ADI and two demo questions (README, "Ranking checks"). @default false
    */
   spreadBlend: boolean;
+  /** Query-term focus exponent p (termFocus.ts): each query word weighs (r_t / max r)^p; 0 = off. @default 0 */
+  termFocus: number;
+  /** Research: which part the focus weights reach. @default 'both' */
+  focusParts: 'both' | 'concept' | 'lexical';
+  /** Research: 'ratio' of mean resultant lengths, or 'cohesion' (mean pairwise cosine). @default 'ratio' */
+  focusMeasure: 'ratio' | 'cohesion' | 'chance';
+  /** BM25L's δ for search's word match (Lv & Zhai 2011); 0 = classic BM25. @default 0 */
+  lexicalDelta: number;
+  /** BM25L's δ for nearby's word match; 0 = classic BM25. @default 0 */
+  nearbyDelta: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -80,6 +90,11 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   lengthNorm: 0.75,
   nearbyLengthNorm: 0.3,
   spreadBlend: false,
+  termFocus: 0,
+  focusParts: 'both',
+  focusMeasure: 'ratio',
+  lexicalDelta: 0,
+  nearbyDelta: 0,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
