@@ -31,13 +31,13 @@ const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): 
   Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
 
 describe('Nearby on linked documentation (nDCG@10)', () => {
-  it('CMake manual (1,906 pages, 1,243 linked pages as queries): above the best plain baseline (BM25 of the whole page), ≥ 15% above TF-IDF cosine', () => {
+  it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 4% above the best plain baseline (BM25 of the whole page), ≥ 20% above TF-IDF cosine', () => {
     const fx = loadRankingFixture('cmake-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`cmake-doc nearby nDCG@10 ${got.toFixed(4)}`);
     const b = fx.baselines!.methods;
-    expect(got).toBeGreaterThanOrEqual(1.15 * b.tfidf.ndcg10);
-    expect(got).toBeGreaterThanOrEqual(1.01 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.2 * b.tfidf.ndcg10);
+    expect(got).toBeGreaterThanOrEqual(1.04 * best(fx.baselines, 'ndcg10'));
   });
 
   it('Django manual (258 pages, 248 linked pages as queries): above the best plain baseline', () => {
@@ -57,10 +57,10 @@ describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries
     console.log(`rxjs-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  it('MRR@10 ≥ 15% above TF-IDF cosine and LSI; within 5% of BM25 (still below it)', () => {
+  it('MRR@10 ≥ 15% above TF-IDF cosine and LSI; within 3% of BM25 (still below it)', () => {
     const b = fx.baselines!.methods;
     expect(got.mrr10).toBeGreaterThanOrEqual(1.15 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
-    expect(got.mrr10).toBeGreaterThanOrEqual(0.95 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(0.97 * b.bm25.mrr10!);
   });
 
   it('no size quartile more than 10% below TF-IDF cosine (the smallest is still below it, the second level with it); the two larger ones above it', () => {

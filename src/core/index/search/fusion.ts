@@ -22,7 +22,12 @@
  * - Questions: filler words of questions ("happens", "tell me", "the code that") are dropped from a
  *   query when something else remains (our own list, common practice: stop words for queries).
  * - Length normalisation: BM25's b is 0.3 for nearby (a whole file's top terms as the query), below
- *   the common 0.75 that search keeps; 0.75 let long pages crowd out the linked short ones.
+ *   the common 0.75 that search keeps; 0.75 let long pages crowd out the linked short ones. Nearby
+ *   scores them in BM25L's form (Lv & Zhai 2011, δ = 0.5), which keeps a long file's matches from
+ *   sinking towards zero.
+ * - Query-word focus (termFocus.ts): in the concept fold of a search, a word weighs by how tightly
+ *   its files sit together in the concept space beyond chance, relative to the query's most
+ *   focused word.
  * Every choice was validated by leaving one collection out (README, "Ranking checks";
  * scripts/fixtures/rankingFusionExplore.ts).
  */
@@ -66,15 +71,16 @@ export interface RankingOptions {
    * costs CRAN, ADI and two demo questions (README, "Ranking checks"). @default false
    */
   spreadBlend: boolean;
-  /** Query-term focus exponent p (termFocus.ts): each query word weighs (r_t / max r)^p; 0 = off. @default 0 */
+  /**
+   * Search: each query word's weight in the concept fold is its focus relative to the query's most
+   * focused word, to this power (termFocus.ts); 0 = off. The word match is left as it is (weighing
+   * it too cost CACM 6%). @default 1
+   */
   termFocus: number;
-  /** Research: which part the focus weights reach. @default 'both' */
-  focusParts: 'both' | 'concept' | 'lexical';
-  /** Research: 'ratio' of mean resultant lengths, or 'cohesion' (mean pairwise cosine). @default 'ratio' */
-  focusMeasure: 'ratio' | 'cohesion' | 'chance';
-  /** BM25L's δ for search's word match (Lv & Zhai 2011); 0 = classic BM25. @default 0 */
-  lexicalDelta: number;
-  /** BM25L's δ for nearby's word match; 0 = classic BM25. @default 0 */
+  /**
+   * BM25L's δ for nearby's word match (Lv & Zhai 2011, "When documents are very long, BM25 fails!";
+   * 0.5 is the value they recommend); 0 = classic BM25. @default 0.5
+   */
   nearbyDelta: number;
 }
 
@@ -90,11 +96,8 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   lengthNorm: 0.75,
   nearbyLengthNorm: 0.3,
   spreadBlend: false,
-  termFocus: 0,
-  focusParts: 'both',
-  focusMeasure: 'ratio',
-  lexicalDelta: 0,
-  nearbyDelta: 0,
+  termFocus: 1,
+  nearbyDelta: 0.5,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */

@@ -1,32 +1,40 @@
 /**
- * Query-term focus: how tightly the documents holding a word sit together in the concept space,
- * used to weigh a query's words against each other. A word whose documents point every which way
- * ("happens", "bad" in `badRequest` beside "bad weather") says little about what is sought; one
- * whose documents share a direction says much. The measure is the mean resultant length of the
- * holders' unit concept vectors, r = ‖Σ_j v_j‖ / m (directional statistics: Mardia & Jupp 2000,
- * "Directional Statistics", §2.3.1), whose square relates to their mean pairwise cosine
- * ((m·r)² − m)/(m(m − 1)) — the cohesion of the word's documents, in the spirit of the term
- * discrimination value (Salton, Yang & Yu 1975, "A theory of term importance in automatic text
- * analysis": a good index term makes its documents alike and sets them apart from the rest).
- * A word held by one document has r = 1.
+ * Query-word focus: how tightly the files holding a word sit together in the concept space,
+ * beyond what as many files drawn at random would give; a search weighs each query word's part of
+ * the concept fold by it. A word whose files point every which way ("happens"; "bad" in
+ * `badRequest` beside "bad weather") says little about what is sought; one whose files share a
+ * direction says much (the idea of the term discrimination value: a good index term makes its
+ * documents alike, Salton, Yang & Yu 1975, "A theory of term importance in automatic text
+ * analysis").
  *
- * A query's word weights are (r_t / max_q r)^p, relative to its most focused word, so a one-word
- * query is unchanged and no collection-wide constant enters; p = 0 turns the weighting off.
- * Words no document holds weigh 1.
+ * Measure: the mean resultant length of the holders' unit concept vectors, r = ‖Σ_j v_j‖ / m
+ * (directional statistics: Mardia & Jupp 2000, "Directional Statistics", §2.3.1), divided by its
+ * chance level. For m unit vectors drawn independently from a collection whose mean vector is μ,
+ * E‖Σ v‖² = m + m(m − 1)‖μ‖², so the chance level is √(1/m + (1 − 1/m)‖μ‖²) (our derivation):
+ * a word held by few files is not credited for the few alone, and a word spread like the whole
+ * collection scores about 1. A query word's weight is (focus_t / max over the query's words)^p,
+ * p = 1 (no constant; 1.5 measured slightly better, not adopted as a fitted value; README,
+ * "Ranking checks"); p = 0 turns it off. A one-word query is unchanged.
  */
 
 export interface TermFocusOptions {
-  /** Exponent p of (r_t / max r); 0 = off. @default 1 */
+  /** Exponent p of the relative focus; 0 = off. @default 1 */
   power: number;
 }
 
 export const DEFAULT_TERM_FOCUS_OPTIONS: Readonly<TermFocusOptions> = Object.freeze({ power: 1 });
 
+/** A word's holders: the mean resultant length r of their unit vectors and their number m. */
+export interface Resultant {
+  readonly r: number;
+  readonly m: number;
+}
+
 /**
- * Mean resultant length of the unit rows (k numbers each, in `rows`) of the slots that
- * `holders` visits; 1 when none.
+ * Mean resultant length of the unit rows (k numbers each, in `rows`) of the slots that `holders`
+ * visits (r = 1 when none).
  */
-export function meanResultant(rows: Float32Array, k: number, holders: (visit: (slot: number) => void) => void): number {
+export function meanResultant(rows: Float32Array, k: number, holders: (visit: (slot: number) => void) => void): Resultant {
   const acc = new Float64Array(k);
   let m = 0;
   holders((slot) => {
@@ -34,16 +42,23 @@ export function meanResultant(rows: Float32Array, k: number, holders: (visit: (s
     for (let c = 0; c < k; c++) acc[c] += rows[o + c];
     m++;
   });
-  if (m === 0) return 1;
+  if (m === 0) return { r: 1, m: 0 };
   let ss = 0;
   for (let c = 0; c < k; c++) ss += acc[c] * acc[c];
-  return Math.min(1, Math.sqrt(ss) / m);
+  return { r: Math.min(1, Math.sqrt(ss) / m), m };
 }
 
-/** Each word's weight (r_t / max r)^power, aligned with `resultants`. */
-export function focusWeights(resultants: readonly number[], options: Partial<TermFocusOptions> = {}): number[] {
+/** r over its chance level √(1/m + (1 − 1/m)·‖μ‖²) (1 for a word no file holds). */
+export function focusOf({ r, m }: Resultant, meanNormSquared: number): number {
+  if (m === 0) return 1;
+  const chance = Math.sqrt(1 / m + (1 - 1 / m) * Math.max(0, meanNormSquared));
+  return chance > 0 ? r / chance : 1;
+}
+
+/** Each word's weight (focus_t / max focus)^p, aligned with `focus`. */
+export function focusWeights(focus: readonly number[], options: Partial<TermFocusOptions> = {}): number[] {
   const { power } = { ...DEFAULT_TERM_FOCUS_OPTIONS, ...options };
-  const max = Math.max(0, ...resultants);
-  if (power === 0 || !(max > 0)) return resultants.map(() => 1);
-  return resultants.map((r) => Math.pow(Math.max(r, 0) / max, power));
+  const max = Math.max(0, ...focus);
+  if (power === 0 || !(max > 0)) return focus.map(() => 1);
+  return focus.map((f) => Math.pow(Math.max(f, 0) / max, power));
 }
