@@ -32,7 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
-import { focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
+import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
 import { projectTerms, type ConceptModel } from './model/conceptModel.js';
@@ -367,15 +367,21 @@ export class LsiIndex {
     return new Map(Array.from(q.termIds, (t, i) => [t, w[i]]));
   }
 
-  /** The mean resultant of a word's files (termFocus.ts), kept until the next edit. */
+  /**
+   * The mean resultant of a word's files (termFocus.ts), kept until the next edit: of every
+   * ⌊df/FOCUS_SAMPLE⌋-th holder (all of them below 2·FOCUS_SAMPLE), the chance level then counting
+   * the files visited.
+   */
   private resultantOf(t: number): Resultant {
     let res = this._resultants.get(t);
     if (!res) {
       const rows = this._rows.rows;
       const slots = this._slots;
+      const step = Math.max(1, Math.floor(this.bm25().docFrequency(t) / FOCUS_SAMPLE));
+      let seen = 0;
       res = meanResultant(rows, this.k, (visit) =>
         this.bm25().forEachHolder(t, (slot) => {
-          if (slot < slots.length && slots[slot] !== null) visit(slot);
+          if (seen++ % step === 0 && slot < slots.length && slots[slot] !== null) visit(slot);
         }),
       );
       this._resultants.set(t, res);

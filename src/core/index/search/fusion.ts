@@ -22,9 +22,9 @@
  * - Questions: filler words of questions ("happens", "tell me", "the code that") are dropped from a
  *   query when something else remains (our own list, common practice: stop words for queries).
  * - Length normalisation: BM25's b is 0.3 for nearby (a whole file's top terms as the query), below
- *   the common 0.75 that search keeps; 0.75 let long pages crowd out the linked short ones. Nearby
- *   scores them in BM25L's form (Lv & Zhai 2011, δ = 0.5), which keeps a long file's matches from
- *   sinking towards zero.
+ *   the common 0.75 that search keeps; 0.75 let long pages crowd out the linked short ones.
+ *   Optionally (nearbyDelta) in BM25L's form (Lv & Zhai 2011), which keeps a long file's matches
+ *   from sinking towards zero.
  * - Query-word focus (termFocus.ts): in the concept fold of a search, a word weighs by how tightly
  *   its files sit together in the concept space beyond chance, relative to the query's most
  *   focused word.
@@ -79,7 +79,10 @@ export interface RankingOptions {
   termFocus: number;
   /**
    * BM25L's δ for nearby's word match (Lv & Zhai 2011, "When documents are very long, BM25 fails!";
-   * 0.5 is the value they recommend); 0 = classic BM25. @default 0.5
+   * 0.5 is the value they recommend); 0 = classic BM25. Off by default: 0.5 raises Nearby on the
+   * CMake manual 4% (Django level) and the link suggestions' F1 without a threshold, but then the
+   * links' similarity threshold no longer beats no threshold on CMake (suggestLinks.eval.test.ts),
+   * which is that feature's call to make (README, "Ranking checks"). @default 0
    */
   nearbyDelta: number;
 }
@@ -97,7 +100,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyLengthNorm: 0.3,
   spreadBlend: false,
   termFocus: 1,
-  nearbyDelta: 0.5,
+  nearbyDelta: 0,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
