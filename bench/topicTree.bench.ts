@@ -29,9 +29,12 @@
  *   the first before the SIMD Gram table, the last two with today's names, the last with the
  *   points in blocks; the process (load 17–38 s wall, then one tree) peaked at 3.72, 3.95, 4.07
  *   and 4.07 GiB RSS (/usr/bin/time -v; most of it the loaded index, not the products' copies).
- *   Documentation (8,863 files, k = 195): CPU 4.15–4.42 s for runs 2–5 and 6.15 s for the first
- *   (the JIT warming up), wall 4.2–10 s at load 7.8 (reference loop 0.21–0.39); before the SIMD
- *   products 5.57–5.67 s for runs 2–3 and 7.27 s for the first, at load 8.6.
+ *   Documentation (8,863 files, k = 195; 20 / 102 / 299 / 226 topics per level), main against
+ *   this branch, alternating, three rounds of three runs at load 3.6–5.3 (reference loop
+ *   0.21–0.35): CPU main 5.69–7.37, 4.86–5.58, 4.24–5.63 s, here 3.70–6.11, 4.55–4.65, 3.39–5.97 s
+ *   (medians of the nine 5.53 and 4.64 s; the first run of each round, the JIT cold, 5.6–7.4 and
+ *   5.5–6.1 s); wall medians 8.62, 5.57, 4.85 and 5.52, 4.68, 4.35 s; peak RSS 316–338 MiB and
+ *   382–403 MiB (the kernels' memories, dropped with each product object, wait for the GC).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
