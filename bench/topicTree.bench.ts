@@ -29,6 +29,11 @@
  *   the first before the SIMD Gram table, the last two with today's names, the last with the
  *   points in blocks; the process (load 17–38 s wall, then one tree) peaked at 3.72, 3.95, 4.07
  *   and 4.07 GiB RSS (/usr/bin/time -v; most of it the loaded index, not the products' copies).
+ *   Later, on a quieter machine, main against this branch alternating (main, here, main, here):
+ *   tree 37.3 s wall / 40.2 s CPU (load 3.2, reference 0.25), 32.8 / 32.4 s (load 2.7, 0.47),
+ *   51.6 / 48.9 s (load 3.8, 0.24), 39.4 / 38.8 s (load 3.6, 0.26); the whole process (load and
+ *   one tree) 43.8, 38.4, 58.9, 47.7 s wall and peak RSS 3.12, 3.35, 3.14, 3.43 GiB: the SIMD
+ *   products cost about 0.25 GiB at the peak (their memories wait for the GC).
  *   Documentation (8,863 files, k = 195; 20 / 102 / 299 / 226 topics per level), main against
  *   this branch, alternating, three rounds of three runs at load 3.6–5.3 (reference loop
  *   0.21–0.35): CPU main 5.69–7.37, 4.86–5.58, 4.24–5.63 s, here 3.70–6.11, 4.55–4.65, 3.39–5.97 s
