@@ -8,9 +8,16 @@
  * reaches T get an exact product (branch and bound, common practice; as screenedTop.ts does for
  * files). The exact products are the same f32 sums as a full pass, so the list equals the full
  * pass's (checked in test/core/sections/sectionStore.test.ts).
+ * From listsFrom sections on (a large tree, where even the screen reads every section) ranking is
+ * no longer exhaustive: an inverted file (./sectionLists.ts) is trained once on a seeded sample,
+ * every section filed under a list, and a query multiplies only the sections of its probe nearest
+ * lists plus those of files the caller names (a search's best word matches). Edits file the new
+ * sections under the trained centroids; the centroids are trained again when the count has doubled
+ * or halved since.
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
+import { SectionLists, type SectionListsOptions } from './sectionLists.js';
 import type { FileSections } from './sectionVectors.js';
 
 /** A section found by a search or a nearby question. */
@@ -29,8 +36,24 @@ export interface SectionHit {
 
 /** Below this many sections a full pass is as quick as screening (common practice, not tuned). */
 export const SCREEN_MIN_SECTIONS = 4096;
+/**
+ * From this many sections on ranking visits the probed lists only (sectionLists.ts). Below it the
+ * exact screen stays: its cost grows with the count (about 0.4 µs a section, bench/sectionLatency.ts)
+ * and passes 20 ms near 50,000 sections; chosen from that cost, not from any ranking.
+ */
+export const SECTION_LISTS_FROM = 65536;
 /** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
 const SCREEN_SLACK = 1e-9;
+
+/** The lists' members, flat and list by list (rebuilt after any change). */
+interface Members {
+  readonly starts: Int32Array;
+  readonly file: Int32Array;
+  readonly index: Int32Array;
+  readonly paths: string[];
+  readonly files: FileSections[];
+  readonly fileNo: Map<string, number>;
+}
 
 interface Screen {
   readonly codes: ConceptCodes;
@@ -46,11 +69,23 @@ export class SectionStore {
   /** The screening codes (undefined: not built since the last change; null: not available). */
   private _screen: Screen | null | undefined;
   private _lastExact = 0;
+  /** The trained lists (null: none) and the count they were trained at. */
+  private _lists: SectionLists | null = null;
+  private _trainedAt = 0;
+  /** Each file's list numbers, one per section (kept while the lists are). */
+  private readonly _listOf = new Map<string, Int32Array>();
+  private _members: Members | undefined;
 
-  /** @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS). */
+  /**
+   * @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS).
+   * @param listsFrom sections from which ranking visits the probed lists only (default SECTION_LISTS_FROM).
+   * @param listOptions options of the lists (sectionLists.ts defaults).
+   */
   constructor(
     readonly k: number,
     private readonly screenFrom = SCREEN_MIN_SECTIONS,
+    private readonly listsFrom = SECTION_LISTS_FROM,
+    private readonly listOptions: Partial<SectionListsOptions> = {},
   ) {}
 
   /** Files that have sections. */
@@ -80,6 +115,9 @@ export class SectionStore {
     this._files.set(path, sections);
     this._count += n;
     this._screen = undefined;
+    this._members = undefined;
+    if (this._lists && this._count > 2 * this._trainedAt) this.dropLists();
+    if (this._lists) this._listOf.set(path, this.fileAll(this._lists, sections));
   }
 
   delete(path: string): void {
@@ -88,6 +126,9 @@ export class SectionStore {
     this._count -= old.starts.length;
     this._files.delete(path);
     this._screen = undefined;
+    this._listOf.delete(path);
+    this._members = undefined;
+    if (this._lists && 2 * this._count < this._trainedAt) this.dropLists();
   }
 
   /** The section of a file holding a zero-based line (the last one that starts at or before it), or null. */
@@ -116,10 +157,18 @@ export class SectionStore {
   /**
    * The `top` sections with the highest cosine with q over files that `accept` lets in, best first
    * (ties: file order, then position). At most `perFile` sections of one file. Exact scores; with
-   * many sections only those that can still place are multiplied (see the header).
+   * many sections only those that can still place are multiplied (see the header); from listsFrom
+   * sections only those of the probed lists and of the files in `also` (then not exact).
    */
-  rank(q: Float32Array, top: number, accept: (path: string) => boolean = () => true, perFile = Number.POSITIVE_INFINITY): SectionHit[] {
+  rank(
+    q: Float32Array,
+    top: number,
+    accept: (path: string) => boolean = () => true,
+    perFile = Number.POSITIVE_INFINITY,
+    also: readonly string[] = [],
+  ): SectionHit[] {
     if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
+    if (top > 0 && perFile >= 1 && this._count >= this.listsFrom) return this.rankLists(q, top, accept, perFile, also);
     const screen = top > 0 && perFile >= 1 ? this.screen() : null;
     if (!screen) return this.rankExact(q, top, accept, perFile);
     const { codes, paths, files, firsts } = screen;
@@ -164,6 +213,115 @@ export class SectionStore {
     const all: { path: string; f: FileSections; at: null }[] = [];
     for (const [path, f] of this._files) if (accept(path)) all.push({ path, f, at: null });
     return this.rankOver(all, q, top, perFile);
+  }
+
+  /**
+   * rank() over the sections of the probe lists nearest to q (and all sections of the files in
+   * `also`): the same exact products as the full pass, over part of the sections.
+   */
+  rankLists(
+    q: Float32Array,
+    top: number,
+    accept: (path: string) => boolean = () => true,
+    perFile = Number.POSITIVE_INFINITY,
+    also: readonly string[] = [],
+    probe?: number,
+  ): SectionHit[] {
+    const m = this.members();
+    const lists = this._lists!;
+    const ok = new Int8Array(m.files.length); // 0 not asked, 1 accepted, −1 not
+    const at = new Map<number, number[]>();
+    const take = (f: number, i: number): void => {
+      if (ok[f] === 0) ok[f] = accept(m.paths[f]) ? 1 : -1;
+      if (ok[f] < 0) return;
+      const list = at.get(f);
+      if (list) list.push(i);
+      else at.set(f, [i]);
+    };
+    for (const list of lists.nearest(q, probe ?? lists.probe))
+      for (let p = m.starts[list]; p < m.starts[list + 1]; p++) take(m.file[p], m.index[p]);
+    for (const path of also) {
+      const f = m.fileNo.get(path);
+      if (f === undefined) continue;
+      const have = new Set(at.get(f));
+      for (let i = 0; i < m.files[f].starts.length; i++) if (!have.has(i)) take(f, i);
+    }
+    const picked = [...at.keys()]
+      .sort((a, b) => a - b)
+      .map((f) => ({ path: m.paths[f], f: m.files[f], at: at.get(f)!.sort((a, b) => a - b) }));
+    return this.rankOver(picked, q, top, perFile);
+  }
+
+  /** The trained lists, training them (and filing every section) when there are none yet. */
+  lists(): SectionLists | null {
+    if (this._count === 0) return null;
+    if (this._lists) return this._lists;
+    const paths: string[] = [];
+    const blocks: Float32Array[] = [];
+    const firsts = new Int32Array(this._files.size + 1);
+    for (const [path, f] of this._files) {
+      paths.push(path);
+      blocks.push(f.vectors);
+      firsts[blocks.length] = firsts[blocks.length - 1] + f.starts.length;
+    }
+    const k = this.k;
+    const row = (j: number): { block: Float32Array; at: number } => {
+      let lo = 0;
+      let hi = blocks.length - 1;
+      while (lo < hi) {
+        const mid = (lo + hi + 1) >> 1;
+        if (firsts[mid] <= j) lo = mid;
+        else hi = mid - 1;
+      }
+      return { block: blocks[lo], at: (j - firsts[lo]) * k };
+    };
+    const lists = SectionLists.train(k, { n: this._count, row }, this.listOptions);
+    this._lists = lists;
+    this._trainedAt = this._count;
+    for (const [path, f] of this._files) this._listOf.set(path, this.fileAll(lists, f));
+    this._members = undefined;
+    return lists;
+  }
+
+  private fileAll(lists: SectionLists, f: FileSections): Int32Array {
+    const out = new Int32Array(f.starts.length);
+    for (let i = 0; i < out.length; i++) out[i] = lists.file(f.vectors, i * this.k);
+    return out;
+  }
+
+  private dropLists(): void {
+    this._lists = null;
+    this._listOf.clear();
+    this._members = undefined;
+  }
+
+  /** The lists' members (a counting sort of every section by list, in file order). */
+  private members(): Members {
+    const lists = this.lists()!;
+    if (this._members) return this._members;
+    const starts = new Int32Array(lists.lists + 1);
+    for (const l of this._listOf.values()) for (const x of l) starts[x + 1]++;
+    for (let j = 0; j < lists.lists; j++) starts[j + 1] += starts[j];
+    const next = starts.slice(0, lists.lists);
+    const file = new Int32Array(this._count);
+    const index = new Int32Array(this._count);
+    const paths: string[] = [];
+    const files: FileSections[] = [];
+    const fileNo = new Map<string, number>();
+    for (const [path, f] of this._files) {
+      const no = files.length;
+      paths.push(path);
+      files.push(f);
+      fileNo.set(path, no);
+      const l = this._listOf.get(path)!;
+      for (let i = 0; i < l.length; i++) {
+        const p = next[l[i]]++;
+        file[p] = no;
+        index[p] = i;
+      }
+    }
+    this._members = { starts, file, index, paths, files, fileNo };
+    return this._members;
   }
 
   /** Exact products the last rank() computed (for tests and the benchmark). */

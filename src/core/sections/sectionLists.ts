@@ -1,0 +1,169 @@
+/**
+ * An inverted file over section vectors, so a query visits only part of them: a coarse quantizer
+ * of `lists` centroids, every vector filed under its nearest centroid, and a query that scores
+ * the centroids and looks only into the `probe` best lists (Jégou, Douze & Schmid 2011, "Product
+ * quantization for nearest neighbor search", IEEE TPAMI 33(1), §IV.A, the "IVF" non-exhaustive
+ * search with w = probe lists visited; the exact products of the visited vectors are left to the
+ * caller). Vectors are unit concept vectors and closeness is cosine, so the centroids come from
+ * spherical k-means (Dhillon & Modha 2001, Machine Learning 42, ../topics/sphericalKMeans.ts) on a
+ * seeded sample of samplePerList vectors per list.
+ * Two levels, so that training and filing cost O(n·(g + lists/g)·k) rather than O(n·lists·k): the
+ * sample is first cut into g = ⌈√lists⌉ groups, then each group into a share of the lists in
+ * proportion to its size (a two-level vocabulary tree, Nistér & Stewénius 2006, "Scalable
+ * recognition with a vocabulary tree", CVPR). A vector is filed under the best centroid of its
+ * fileGroups best groups (an approximate nearest centroid; the query side scores every centroid).
+ * Defaults: lists = ⌈√n⌉ (the rule of thumb of the IVF literature, common practice); probe 24 and
+ * fileGroups 2 from recall on public documentation (bench/sectionLists.ts: numba, CMake and Django
+ * manuals), samplePerList 32 and iterations 8 common practice (k-means on a sample; few Lloyd
+ * passes suffice for a coarse quantizer), not fitted to any held-out collection.
+ */
+import { InvalidInputError } from '../errors.js';
+import { createRandom, DEFAULT_SEED } from '../random.js';
+import { sphericalKMeans } from '../topics/sphericalKMeans.js';
+
+export interface SectionListsOptions {
+  /** Lists (centroids); 0 means ⌈√n⌉. @default 0 */
+  readonly lists: number;
+  /** Lists a query visits. @default 24 */
+  readonly probe: number;
+  /** Training vectors per list (a seeded sample). @default 32 */
+  readonly samplePerList: number;
+  /** Lloyd passes of each k-means. @default 8 */
+  readonly iterations: number;
+  /** Best groups whose centroids a filed vector is compared with. @default 2 */
+  readonly fileGroups: number;
+  /** @default DEFAULT_SEED */
+  readonly seed: number;
+}
+
+export const DEFAULT_SECTION_LISTS_OPTIONS: Readonly<SectionListsOptions> = Object.freeze({
+  lists: 0,
+  probe: 24,
+  samplePerList: 32,
+  iterations: 8,
+  fileGroups: 2,
+  seed: DEFAULT_SEED,
+});
+
+/** Row j of a set of vectors: its numbers are block[at … at + k). */
+export interface RowSource {
+  readonly n: number;
+  row(j: number): { readonly block: Float32Array; readonly at: number };
+}
+
+/** The trained quantizer: centroids in groups. Filing and probing; the lists themselves are the caller's. */
+export class SectionLists {
+  private constructor(
+    readonly k: number,
+    /** lists × k unit centroids, row-major, group by group. */
+    readonly centroids: Float32Array,
+    /** g × k unit group centres. */
+    private readonly _groups: Float32Array,
+    /** First centroid of each group (length g + 1). */
+    private readonly _groupStarts: Int32Array,
+    readonly probe: number,
+    private readonly _fileGroups: number,
+  ) {}
+
+  get lists(): number {
+    return this.centroids.length / this.k;
+  }
+
+  /** Trains the centroids on a seeded sample of the rows (same rows, options and seed: same centroids). */
+  static train(k: number, rows: RowSource, options: Partial<SectionListsOptions> = {}): SectionLists {
+    const o = { ...DEFAULT_SECTION_LISTS_OPTIONS, ...options };
+    if (rows.n < 1) throw new InvalidInputError('section lists need at least one vector');
+    const lists = Math.max(1, Math.min(rows.n, o.lists > 0 ? Math.floor(o.lists) : Math.ceil(Math.sqrt(rows.n))));
+    const random = createRandom(o.seed);
+    // A seeded sample without repeats (partial Fisher–Yates over the row numbers).
+    const m = Math.min(rows.n, Math.max(lists, Math.ceil(lists * o.samplePerList)));
+    const ids = Int32Array.from({ length: rows.n }, (_, i) => i);
+    for (let i = 0; i < m; i++) {
+      const j = i + Math.floor(random.next() * (rows.n - i));
+      [ids[i], ids[j]] = [ids[j], ids[i]];
+    }
+    const sample = ids.subarray(0, m).sort();
+    const points = new Float64Array(m * k);
+    sample.forEach((id, i) => {
+      const { block, at } = rows.row(id);
+      for (let c = 0; c < k; c++) points[i * k + c] = block[at + c];
+    });
+    const g = Math.max(1, Math.min(lists, Math.ceil(Math.sqrt(lists))));
+    const kmeans = { restarts: 1, maxIterations: o.iterations };
+    const top = sphericalKMeans(points, m, k, g, { ...kmeans, seed: random.nextUint32() });
+    const groups = top.clusters;
+    // Members of each group, and each group's share of the lists (at least one each).
+    const members: number[][] = Array.from({ length: groups }, () => []);
+    top.assignment.forEach((c, i) => members[c].push(i));
+    const shares = members.map((x) => Math.max(1, Math.round((lists * x.length) / m)));
+    const centroids: number[] = [];
+    const groupStarts = new Int32Array(groups + 1);
+    for (let c = 0; c < groups; c++) {
+      const size = members[c].length;
+      const sub = new Float64Array(size * k);
+      members[c].forEach((i, r) => sub.set(points.subarray(i * k, (i + 1) * k), r * k));
+      const inner =
+        size > 0 ? sphericalKMeans(sub, size, k, Math.min(shares[c], size), { ...kmeans, seed: random.nextUint32() }).centres : top.centres.subarray(c * k, (c + 1) * k);
+      for (const x of inner) centroids.push(x);
+      groupStarts[c + 1] = centroids.length / k;
+    }
+    return new SectionLists(k, Float32Array.from(centroids), Float32Array.from(top.centres), groupStarts, Math.max(1, Math.floor(o.probe)), Math.max(1, o.fileGroups));
+  }
+
+  /** The list a vector belongs to: the best centroid of its fileGroups best groups (ties: lower number). */
+  file(block: Float32Array, at: number): number {
+    const k = this.k;
+    const g = this._groupStarts.length - 1;
+    const want = Math.min(this._fileGroups, g);
+    const bestGroups = new Int32Array(want).fill(-1);
+    const bestScores = new Float64Array(want).fill(Number.NEGATIVE_INFINITY);
+    for (let c = 0; c < g; c++) {
+      const s = dot(this._groups, c * k, block, at, k);
+      if (s > bestScores[want - 1]) insertTop(bestScores, bestGroups, s, c);
+    }
+    let list = 0;
+    let top = Number.NEGATIVE_INFINITY;
+    for (const c of bestGroups) {
+      if (c < 0) continue;
+      for (let j = this._groupStarts[c]; j < this._groupStarts[c + 1]; j++) {
+        const s = dot(this.centroids, j * k, block, at, k);
+        if (s > top || (s === top && j < list)) [top, list] = [s, j];
+      }
+    }
+    return list;
+  }
+
+  /** The `probe` lists (or `count`) whose centroids have the highest cosine with q, best first. */
+  nearest(q: ArrayLike<number>, count = this.probe): Int32Array {
+    const k = this.k;
+    const n = this.lists;
+    const want = Math.min(count, n);
+    const ids = new Int32Array(want).fill(-1);
+    const scores = new Float64Array(want).fill(Number.NEGATIVE_INFINITY);
+    const c = this.centroids;
+    for (let j = 0; j < n; j++) {
+      let s = 0;
+      for (let d = 0, o = j * k; d < k; d++) s += c[o + d] * q[d];
+      if (s > scores[want - 1]) insertTop(scores, ids, s, j);
+    }
+    return ids;
+  }
+}
+
+function dot(a: Float32Array, ao: number, b: Float32Array, bo: number, k: number): number {
+  let s = 0;
+  for (let d = 0; d < k; d++) s += a[ao + d] * b[bo + d];
+  return s;
+}
+
+/** Inserts (s, id) into descending parallel arrays of fixed length, dropping the last entry. */
+function insertTop(scores: Float64Array, ids: Int32Array, s: number, id: number): void {
+  let i = scores.length - 1;
+  while (i > 0 && scores[i - 1] < s) {
+    scores[i] = scores[i - 1];
+    ids[i] = ids[i - 1];
+    i--;
+  }
+  scores[i] = s;
+  ids[i] = id;
+}
