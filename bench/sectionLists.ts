@@ -31,6 +31,7 @@ const flag = (name: string): string | undefined => {
   return i >= 0 ? argv.splice(i, 2)[1] : undefined;
 };
 const probes = (flag('--probe') ?? '4,8,16,24,32,48').split(',').map(Number);
+const wordFiles = (flag('--word-files') ?? '32').split(',').map(Number);
 const codes = argv.includes('--codes');
 const [source, count = '100'] = argv.filter((a) => a !== '--codes');
 if (!source) {
@@ -93,29 +94,33 @@ interface Run {
   near: SectionHit[][];
   wall: number[];
   cpu: number[];
+  searchCpu: number[];
+  nearCpu: number[];
   products: number;
 }
 /** The bench's queries with store.rank as `rank` is. */
-function run(): Run {
-  const out: Run = { search: [], near: [], wall: [], cpu: [], products: 0 };
+function run(words = 32): Run {
+  const out: Run = { search: [], near: [], wall: [], cpu: [], searchCpu: [], nearCpu: [], products: 0 };
   for (const [path, f] of pick) {
     const title = f.titles[Math.floor(f.titles.length / 2)];
     let t = performance.now();
     let c = process.cpuUsage();
     try {
-      out.search.push(searchSections(index, title, { top: 10 }));
+      out.search.push(searchSections(index, title, { top: 10, wordFiles: words }));
       out.products += store.lastExact;
     } catch {
       out.search.push([]); // a title without known words
     }
     out.wall.push(performance.now() - t);
     out.cpu.push(cpuMs(c));
+    out.searchCpu.push(out.cpu[out.cpu.length - 1]);
     t = performance.now();
     c = process.cpuUsage();
     out.near.push(nearbySections(index, path, f.starts[Math.floor(f.starts.length / 2)], { top: 10 })?.hits ?? []);
     out.products += store.lastExact;
     out.wall.push(performance.now() - t);
     out.cpu.push(cpuMs(c));
+    out.nearCpu.push(out.cpu[out.cpu.length - 1]);
   }
   return out;
 }
@@ -124,7 +129,9 @@ const rank = store.rank.bind(store);
 
 store.rank = store.rankExact.bind(store);
 const exact = run();
-console.log(`exhaustive: ${quantiles(exact.wall)} ms wall, ${quantiles(exact.cpu)} ms CPU per request`);
+console.log(
+  `exhaustive: ${quantiles(exact.wall)} ms wall, ${quantiles(exact.cpu)} ms CPU per request (search ${quantiles(exact.searchCpu)}, nearby ${quantiles(exact.nearCpu)} ms CPU)`,
+);
 
 if (codes) {
   const saved = new Map([...store.entries()].map(([p, f]) => [p, f]));
@@ -138,19 +145,19 @@ if (codes) {
 
 let t = performance.now();
 let c = process.cpuUsage();
+store.rankLists(pick[0][1].vectors.subarray(0, index.k), 1);
 const lists = store.lists()!;
-console.log(`lists: ${lists.lists}, trained and filed in ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`);
-for (const probe of probes) {
-  store.rank = (q, top, accept, perFile, also) => store.rankLists(q, top, accept, perFile, also, probe);
-  t = performance.now();
-  c = process.cpuUsage();
-  const got = run();
-  const rs = mean(exact.search.map((e, i) => overlap(e, got.search[i])));
-  const rn = mean(exact.near.map((e, i) => overlap(e, got.near[i])));
-  console.log(
-    `probe ${probe}: recall@10 search ${rs.toFixed(3)}, nearby ${rn.toFixed(3)}; products/request ${(got.products / (2 * n)).toFixed(0)}; ${quantiles(got.wall)} ms wall, ${quantiles(got.cpu)} ms CPU; load ${loadavg()[0].toFixed(1)}`,
-  );
-}
+console.log(`lists: ${lists.lists}, trained, filed and coded in ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`);
+for (const probe of probes)
+  for (const words of wordFiles) {
+    store.rank = (q, top, accept, perFile, also) => store.rankLists(q, top, accept, perFile, also, probe);
+    const got = run(words);
+    const rs = mean(exact.search.map((e, i) => overlap(e, got.search[i])));
+    const rn = mean(exact.near.map((e, i) => overlap(e, got.near[i])));
+    console.log(
+      `probe ${probe} wordFiles ${words}: recall@10 search ${rs.toFixed(3)}, nearby ${rn.toFixed(3)}; products/request ${(got.products / (2 * n)).toFixed(0)}; ${quantiles(got.wall)} ms wall, ${quantiles(got.cpu)} ms CPU (search ${quantiles(got.searchCpu)}, nearby ${quantiles(got.nearCpu)}); load ${loadavg()[0].toFixed(1)}`,
+    );
+  }
 store.rank = rank;
 
 /** Each k-long row coded as conceptCodes.ts does (c = round(v/s), s = max|v|/127) and decoded (s·c). */

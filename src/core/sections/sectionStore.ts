@@ -17,6 +17,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
+import { ListedSections } from './listedSections.js';
 import { SectionLists, type SectionListsOptions } from './sectionLists.js';
 import type { FileSections } from './sectionVectors.js';
 
@@ -45,16 +46,6 @@ export const SECTION_LISTS_FROM = 65536;
 /** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
 const SCREEN_SLACK = 1e-9;
 
-/** The lists' members, flat and list by list (rebuilt after any change). */
-interface Members {
-  readonly starts: Int32Array;
-  readonly file: Int32Array;
-  readonly index: Int32Array;
-  readonly paths: string[];
-  readonly files: FileSections[];
-  readonly fileNo: Map<string, number>;
-}
-
 interface Screen {
   readonly codes: ConceptCodes;
   readonly paths: string[];
@@ -72,9 +63,8 @@ export class SectionStore {
   /** The trained lists (null: none) and the count they were trained at. */
   private _lists: SectionLists | null = null;
   private _trainedAt = 0;
-  /** Each file's list numbers, one per section (kept while the lists are). */
-  private readonly _listOf = new Map<string, Int32Array>();
-  private _members: Members | undefined;
+  /** The sections filed under the lists (undefined: not built since the lists were trained or rebuilt). */
+  private _listed: ListedSections | undefined;
 
   /**
    * @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS).
@@ -115,9 +105,8 @@ export class SectionStore {
     this._files.set(path, sections);
     this._count += n;
     this._screen = undefined;
-    this._members = undefined;
     if (this._lists && this._count > 2 * this._trainedAt) this.dropLists();
-    if (this._lists) this._listOf.set(path, this.fileAll(this._lists, sections));
+    this._listed?.add(path, sections);
   }
 
   delete(path: string): void {
@@ -126,9 +115,9 @@ export class SectionStore {
     this._count -= old.starts.length;
     this._files.delete(path);
     this._screen = undefined;
-    this._listOf.delete(path);
-    this._members = undefined;
+    this._listed?.remove(path);
     if (this._lists && 2 * this._count < this._trainedAt) this.dropLists();
+    else if (this._listed && 2 * this._listed.dead > this._listed.used) this._listed = undefined;
   }
 
   /** The section of a file holding a zero-based line (the last one that starts at or before it), or null. */
@@ -227,40 +216,19 @@ export class SectionStore {
     also: readonly string[] = [],
     probe?: number,
   ): SectionHit[] {
-    const m = this.members();
-    const lists = this._lists!;
-    const ok = new Int8Array(m.files.length); // 0 not asked, 1 accepted, −1 not
-    const at = new Map<number, number[]>();
-    const take = (f: number, i: number): void => {
-      if (ok[f] === 0) ok[f] = accept(m.paths[f]) ? 1 : -1;
-      if (ok[f] < 0) return;
-      const list = at.get(f);
-      if (list) list.push(i);
-      else at.set(f, [i]);
-    };
-    for (const list of lists.nearest(q, probe ?? lists.probe))
-      for (let p = m.starts[list]; p < m.starts[list + 1]; p++) take(m.file[p], m.index[p]);
-    for (const path of also) {
-      const f = m.fileNo.get(path);
-      if (f === undefined) continue;
-      const have = new Set(at.get(f));
-      for (let i = 0; i < m.files[f].starts.length; i++) if (!have.has(i)) take(f, i);
-    }
-    const picked = [...at.keys()]
-      .sort((a, b) => a - b)
-      .map((f) => ({ path: m.paths[f], f: m.files[f], at: at.get(f)!.sort((a, b) => a - b) }));
-    return this.rankOver(picked, q, top, perFile);
+    if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
+    const listed = this.listed();
+    if (!listed || top <= 0 || perFile < 1) return this.rankExact(q, top, accept, perFile);
+    return this.rankOver(listed.candidates(q, top, accept, also, probe ?? listed.lists.probe), q, top, perFile);
   }
 
-  /** The trained lists, training them (and filing every section) when there are none yet. */
+  /** The trained lists, training them when there are none yet (null without sections). */
   lists(): SectionLists | null {
     if (this._count === 0) return null;
     if (this._lists) return this._lists;
-    const paths: string[] = [];
     const blocks: Float32Array[] = [];
     const firsts = new Int32Array(this._files.size + 1);
-    for (const [path, f] of this._files) {
-      paths.push(path);
+    for (const f of this._files.values()) {
       blocks.push(f.vectors);
       firsts[blocks.length] = firsts[blocks.length - 1] + f.starts.length;
     }
@@ -275,53 +243,24 @@ export class SectionStore {
       }
       return { block: blocks[lo], at: (j - firsts[lo]) * k };
     };
-    const lists = SectionLists.train(k, { n: this._count, row }, this.listOptions);
-    this._lists = lists;
+    this._lists = SectionLists.train(k, { n: this._count, row }, this.listOptions);
     this._trainedAt = this._count;
-    for (const [path, f] of this._files) this._listOf.set(path, this.fileAll(lists, f));
-    this._members = undefined;
-    return lists;
+    this._listed = undefined;
+    return this._lists;
   }
 
-  private fileAll(lists: SectionLists, f: FileSections): Int32Array {
-    const out = new Int32Array(f.starts.length);
-    for (let i = 0; i < out.length; i++) out[i] = lists.file(f.vectors, i * this.k);
-    return out;
+  /** The sections filed under the trained lists (training and filing them when needed). */
+  private listed(): ListedSections | null {
+    if (this._listed) return this._listed;
+    const lists = this.lists();
+    if (!lists) return null;
+    this._listed = new ListedSections(lists, this._files.entries());
+    return this._listed;
   }
 
   private dropLists(): void {
     this._lists = null;
-    this._listOf.clear();
-    this._members = undefined;
-  }
-
-  /** The lists' members (a counting sort of every section by list, in file order). */
-  private members(): Members {
-    const lists = this.lists()!;
-    if (this._members) return this._members;
-    const starts = new Int32Array(lists.lists + 1);
-    for (const l of this._listOf.values()) for (const x of l) starts[x + 1]++;
-    for (let j = 0; j < lists.lists; j++) starts[j + 1] += starts[j];
-    const next = starts.slice(0, lists.lists);
-    const file = new Int32Array(this._count);
-    const index = new Int32Array(this._count);
-    const paths: string[] = [];
-    const files: FileSections[] = [];
-    const fileNo = new Map<string, number>();
-    for (const [path, f] of this._files) {
-      const no = files.length;
-      paths.push(path);
-      files.push(f);
-      fileNo.set(path, no);
-      const l = this._listOf.get(path)!;
-      for (let i = 0; i < l.length; i++) {
-        const p = next[l[i]]++;
-        file[p] = no;
-        index[p] = i;
-      }
-    }
-    this._members = { starts, file, index, paths, files, fileNo };
-    return this._members;
+    this._listed = undefined;
   }
 
   /** Exact products the last rank() computed (for tests and the benchmark). */
