@@ -143,11 +143,13 @@ if (codes) {
   );
 }
 
-let t = performance.now();
-let c = process.cpuUsage();
+const t = performance.now();
+const c = process.cpuUsage();
 store.rankLists(pick[0][1].vectors.subarray(0, index.k), 1);
 const lists = store.lists()!;
-console.log(`lists: ${lists.lists}, trained, filed and coded in ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`);
+console.log(
+  `lists: ${lists.lists}, trained, filed and coded in ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`,
+);
 for (const probe of probes)
   for (const words of wordFiles) {
     store.rank = (q, top, accept, perFile, also) => store.rankLists(q, top, accept, perFile, also, probe);

@@ -154,13 +154,7 @@ export class ListedSections {
    * of the files in `also`, that `accept` lets in, less those whose 8-bit bound cannot place (see the
    * header). Files in file-number order, positions ascending.
    */
-  candidates(
-    q: Float32Array,
-    top: number,
-    accept: (path: string) => boolean,
-    also: readonly string[],
-    probe: number,
-  ): PickedSections[] {
+  candidates(q: Float32Array, top: number, accept: (path: string) => boolean, also: readonly string[], probe: number): PickedSections[] {
     let runs = 0;
     const push = (from: number, to: number): void => {
       if (runs > 0 && this._to[runs - 1] === from) {

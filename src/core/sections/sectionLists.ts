@@ -103,11 +103,20 @@ export class SectionLists {
       const sub = new Float64Array(size * k);
       members[c].forEach((i, r) => sub.set(points.subarray(i * k, (i + 1) * k), r * k));
       const inner =
-        size > 0 ? sphericalKMeans(sub, size, k, Math.min(shares[c], size), { ...kmeans, seed: random.nextUint32() }).centres : top.centres.subarray(c * k, (c + 1) * k);
+        size > 0
+          ? sphericalKMeans(sub, size, k, Math.min(shares[c], size), { ...kmeans, seed: random.nextUint32() }).centres
+          : top.centres.subarray(c * k, (c + 1) * k);
       for (const x of inner) centroids.push(x);
       groupStarts[c + 1] = centroids.length / k;
     }
-    return new SectionLists(k, Float32Array.from(centroids), Float32Array.from(top.centres), groupStarts, Math.max(1, Math.floor(o.probe)), Math.max(1, o.fileGroups));
+    return new SectionLists(
+      k,
+      Float32Array.from(centroids),
+      Float32Array.from(top.centres),
+      groupStarts,
+      Math.max(1, Math.floor(o.probe)),
+      Math.max(1, o.fileGroups),
+    );
   }
 
   /** The list a vector belongs to: the best centroid of its fileGroups best groups (ties: lower number). */
