@@ -8,7 +8,7 @@
  * in this process, with sections; several names make one collection.
  * Queries are the bench's kind (bench/sectionLatency.ts): files picked evenly (seeded by position),
  * the title of each one's middle section as a search, its middle section as a Nearby-at-cursor.
- * Recall@10: the share of the exhaustive top 10 (SectionStore.rankExact) that the lists' top 10
+ * Recall@10: the share of the exhaustive top 10 (SectionStore.rankScreened, equal to the full pass) that the lists' top 10
  * holds, mean over queries. Latency per request (wall and this process's CPU), median and p95,
  * after the lists are trained (the training's own time is printed once).
  * --codes: every section vector replaced by its 8-bit decoding (per-row scale, as
@@ -127,8 +127,12 @@ function run(words = 32): Run {
 const mean = (xs: number[]): number => xs.reduce((a, b) => a + b, 0) / Math.max(1, xs.length);
 const rank = store.rank.bind(store);
 
-store.rank = store.rankExact.bind(store);
+const rss = (): string => `${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MiB`;
+console.log(`RSS after loading: ${rss()}`);
+// The exact ranking: the 8-bit screen over all sections (equal to the full pass, sectionStore.test.ts).
+store.rank = (q, top, accept, perFile) => store.rankScreened(q, top, accept, perFile);
 const exact = run();
+console.log(`RSS after the exact screen: ${rss()}`);
 console.log(
   `exhaustive: ${quantiles(exact.wall)} ms wall, ${quantiles(exact.cpu)} ms CPU per request (search ${quantiles(exact.searchCpu)}, nearby ${quantiles(exact.nearCpu)} ms CPU)`,
 );
@@ -148,7 +152,7 @@ const c = process.cpuUsage();
 store.rankLists(pick[0][1].vectors.subarray(0, index.k), 1);
 const lists = store.lists()!;
 console.log(
-  `lists: ${lists.lists}, trained, filed and coded in ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`,
+  `lists: ${lists.lists}, trained, filed and coded in ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU; RSS ${rss()}`,
 );
 for (const probe of probes)
   for (const words of wordFiles) {

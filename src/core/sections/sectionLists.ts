@@ -18,6 +18,7 @@
  * passes suffice for a coarse quantizer), not fitted to any held-out collection.
  */
 import { InvalidInputError } from '../errors.js';
+import { dotModule, instantiateDots, type DotKernelExports } from '../matrix/wasm/dotKernel.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
 import { sphericalKMeans } from '../topics/sphericalKMeans.js';
 
@@ -51,8 +52,25 @@ export interface RowSource {
   row(j: number): { readonly block: Float32Array; readonly at: number };
 }
 
-/** The trained quantizer: centroids in groups. Filing and probing; the lists themselves are the caller's. */
+/** The centroids in a WebAssembly memory for the SIMD dot kernel (../matrix/wasm/dotKernel.ts). */
+interface Kernel {
+  readonly dots: DotKernelExports['dots'];
+  /** The query (f64) and the scores (f64: groups, then lists), as views and byte offsets. */
+  readonly q: Float64Array;
+  readonly groupScores: Float64Array;
+  readonly listScores: Float64Array;
+  readonly groupsAt: number;
+  readonly centroidsAt: number;
+}
+
+/**
+ * The trained quantizer: centroids in groups. Filing and probing; the lists themselves are the
+ * caller's. Products with the centroids run on the SIMD dot kernel where there is one, else in
+ * plain loops (the same products up to rounding; ties may then go another way).
+ */
 export class SectionLists {
+  private readonly _kernel: Kernel | null;
+
   private constructor(
     readonly k: number,
     /** lists × k unit centroids, row-major, group by group. */
@@ -63,7 +81,9 @@ export class SectionLists {
     private readonly _groupStarts: Int32Array,
     readonly probe: number,
     private readonly _fileGroups: number,
-  ) {}
+  ) {
+    this._kernel = kernelFor(k, _groups, centroids);
+  }
 
   get lists(): number {
     return this.centroids.length / this.k;
@@ -126,16 +146,23 @@ export class SectionLists {
     const want = Math.min(this._fileGroups, g);
     const bestGroups = new Int32Array(want).fill(-1);
     const bestScores = new Float64Array(want).fill(Number.NEGATIVE_INFINITY);
+    const w = this._kernel;
+    if (w) {
+      for (let c = 0; c < k; c++) w.q[c] = block[at + c];
+      w.dots(w.groupsAt, w.q.byteOffset, k, 0, g, w.groupScores.byteOffset);
+    }
     for (let c = 0; c < g; c++) {
-      const s = dot(this._groups, c * k, block, at, k);
+      const s = w ? w.groupScores[c] : dot(this._groups, c * k, block, at, k);
       if (s > bestScores[want - 1]) insertTop(bestScores, bestGroups, s, c);
     }
     let list = 0;
     let top = Number.NEGATIVE_INFINITY;
     for (const c of bestGroups) {
       if (c < 0) continue;
-      for (let j = this._groupStarts[c]; j < this._groupStarts[c + 1]; j++) {
-        const s = dot(this.centroids, j * k, block, at, k);
+      const [from, to] = [this._groupStarts[c], this._groupStarts[c + 1]];
+      if (w) w.dots(w.centroidsAt, w.q.byteOffset, k, from, to, w.listScores.byteOffset);
+      for (let j = from; j < to; j++) {
+        const s = w ? w.listScores[j] : dot(this.centroids, j * k, block, at, k);
         if (s > top || (s === top && j < list)) [top, list] = [s, j];
       }
     }
@@ -150,12 +177,50 @@ export class SectionLists {
     const ids = new Int32Array(want).fill(-1);
     const scores = new Float64Array(want).fill(Number.NEGATIVE_INFINITY);
     const c = this.centroids;
+    const w = this._kernel;
+    if (w) {
+      for (let d = 0; d < k; d++) w.q[d] = q[d];
+      w.dots(w.centroidsAt, w.q.byteOffset, k, 0, n, w.listScores.byteOffset);
+    }
     for (let j = 0; j < n; j++) {
       let s = 0;
-      for (let d = 0, o = j * k; d < k; d++) s += c[o + d] * q[d];
+      if (w) s = w.listScores[j];
+      else for (let d = 0, o = j * k; d < k; d++) s += c[o + d] * q[d];
       if (s > scores[want - 1]) insertTop(scores, ids, s, j);
     }
     return ids;
+  }
+}
+
+/** The centroids copied into a memory of their own for the dot kernel, or null without WebAssembly SIMD. */
+function kernelFor(k: number, groups: Float32Array, centroids: Float32Array): Kernel | null {
+  const module = dotModule();
+  if (!module) return null;
+  const g = groups.length / k;
+  const lists = centroids.length / k;
+  const align = (x: number): number => Math.ceil(x / 16) * 16;
+  const qAt = 16;
+  const groupScoresAt = align(qAt + 8 * k);
+  const listScoresAt = align(groupScoresAt + 8 * g);
+  const groupsAt = align(listScoresAt + 8 * lists);
+  const centroidsAt = align(groupsAt + 4 * groups.length);
+  const bytes = centroidsAt + 4 * centroids.length;
+  try {
+    const pages = Math.ceil(bytes / 65536);
+    const memory = new WebAssembly.Memory({ initial: pages, maximum: pages, shared: true });
+    const buffer = memory.buffer;
+    new Float32Array(buffer, groupsAt, groups.length).set(groups);
+    new Float32Array(buffer, centroidsAt, centroids.length).set(centroids);
+    return {
+      dots: instantiateDots(module, memory).dots,
+      q: new Float64Array(buffer, qAt, k),
+      groupScores: new Float64Array(buffer, groupScoresAt, g),
+      listScores: new Float64Array(buffer, listScoresAt, lists),
+      groupsAt,
+      centroidsAt,
+    };
+  } catch {
+    return null;
   }
 }
 

@@ -158,6 +158,17 @@ export class SectionStore {
   ): SectionHit[] {
     if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
     if (top > 0 && perFile >= 1 && this._count >= this.listsFrom) return this.rankLists(q, top, accept, perFile, also);
+    return this.rankScreened(q, top, accept, perFile);
+  }
+
+  /** rank() by the exact 8-bit screen over all sections, whatever their count (the reference of the lists). */
+  rankScreened(
+    q: Float32Array,
+    top: number,
+    accept: (path: string) => boolean = () => true,
+    perFile = Number.POSITIVE_INFINITY,
+  ): SectionHit[] {
+    if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
     const screen = top > 0 && perFile >= 1 ? this.screen() : null;
     if (!screen) return this.rankExact(q, top, accept, perFile);
     const { codes, paths, files, firsts } = screen;
