@@ -75,8 +75,14 @@ export class SectionStore {
     readonly k: number,
     private readonly screenFrom = SCREEN_MIN_SECTIONS,
     private readonly listsFrom = SECTION_LISTS_FROM,
-    private readonly listOptions: Partial<SectionListsOptions> = {},
+    private listOptions: Partial<SectionListsOptions> = {},
   ) {}
+
+  /** Other options for the lists (trained again at the next ranking that uses them). */
+  configureLists(options: Partial<SectionListsOptions>): void {
+    this.listOptions = options;
+    this.dropLists();
+  }
 
   /** Files that have sections. */
   get files(): number {
