@@ -3,7 +3,7 @@
  * ranking, and what 8-bit section vectors do to the exact ranking. Usage:
  *   npx esbuild bench/sectionLists.ts --bundle --platform=node --format=esm --outfile=dist/sectionLists.mjs \
  *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
- *   node dist/sectionLists.mjs <index file | fixture:NAME[,NAME…]> [queries] [--probe 8,16,24,32] [--word-files 32] [--start sample|kmeans++] [--codes]
+ *   node dist/sectionLists.mjs <index file | fixture:NAME[,NAME…]> [queries] [--probe 8,16,24,32] [--word-files 32] [--start sample|kmeans++] [--file-groups 2] [--codes]
  * fixture:NAME builds an index of test/fixtures/NAME/docs.jsonl.gz (public documentation and code)
  * in this process, with sections; several names make one collection.
  * Queries are the bench's kind (bench/sectionLatency.ts): files picked evenly (seeded by position),
@@ -33,6 +33,7 @@ const flag = (name: string): string | undefined => {
 const probes = (flag('--probe') ?? '4,8,16,24,32,48').split(',').map(Number);
 const wordFiles = (flag('--word-files') ?? '32').split(',').map(Number);
 const start = flag('--start') as 'sample' | 'kmeans++' | undefined;
+const fileGroups = flag('--file-groups');
 const codes = argv.includes('--codes');
 const [source, count = '100'] = argv.filter((a) => a !== '--codes');
 if (!source) {
@@ -148,7 +149,7 @@ if (codes) {
   );
 }
 
-if (start) store.configureLists({ start });
+if (start || fileGroups) store.configureLists({ ...(start ? { start } : {}), ...(fileGroups ? { fileGroups: Number(fileGroups) } : {}) });
 const t = performance.now();
 const c = process.cpuUsage();
 store.rankLists(pick[0][1].vectors.subarray(0, index.k), 1);
