@@ -95,10 +95,11 @@ describe('SectionStore.rank over the probed lists (sectionLists.ts, listedSectio
       for (const h of got) expect(h.score).toBe(scoreOf.get(key(h)));
       expect(store.rankLists(q, 10, other, 3, [], store.lists()!.lists)).toEqual(exact);
     }
-    // Measured (this commit, default probe 24 of 37 lists, 196 queries): 0.987; bench/sectionLists.ts gives
-    // 0.988 on this collection's bench queries, 0.995 on the CMake manual, 0.999 on Django's.
+    // Measured (this commit, default probe 24 of 37 lists, 196 queries): 0.996. bench/sectionLists.ts
+    // (Nearby, probe 24, fileGroups 2) gave 0.988 on this collection's bench queries, 0.995 on the
+    // CMake manual, 0.999 on Django's; the margin below covers another platform's ties.
     expect(queries.length).toBeGreaterThan(100);
-    expect(recall / queries.length).toBeGreaterThan(0.95);
+    expect(recall / queries.length).toBeGreaterThan(0.98);
   });
 
   it('stays the exact ranking below listsFrom, whatever files are named as also', () => {
