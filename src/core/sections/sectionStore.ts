@@ -39,8 +39,9 @@ export interface SectionHit {
 export const SCREEN_MIN_SECTIONS = 4096;
 /**
  * From this many sections on ranking visits the probed lists only (sectionLists.ts). Below it the
- * exact screen stays: its cost grows with the count (about 0.4 µs a section, bench/sectionLatency.ts)
- * and passes 20 ms near 50,000 sections; chosen from that cost, not from any ranking.
+ * exact screen stays: its CPU cost grows with the count, about 0.4 µs a section on a loaded machine
+ * (bench/sectionLists.ts: 469–553 ms a request for 1.33 M sections), so some 25 ms at this count. A
+ * round number from that cost, not from any ranking.
  */
 export const SECTION_LISTS_FROM = 65536;
 /** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
