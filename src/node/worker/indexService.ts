@@ -55,7 +55,12 @@ export interface IndexServiceOptions {
   readonly prepareSliceMs: number;
   /** Awaited before and between preparation slices. @default setImmediate (after waiting I/O and messages) */
   readonly preparePause: () => Promise<void>;
-  /** After preparing, compute the topic tree in the background (in steps, stopped when the index changes). @default true */
+  /**
+   * After preparing, compute the topic tree in the background (in steps, stopped when the index
+   * changes). @default false: the tree is computed when the Topics view or the map first asks
+   * for it, and kept until the index changes (it held about 74 MB on an 8.9k-file folder, for
+   * views that may never be opened).
+   */
   readonly prepareTopics: boolean;
 }
 
@@ -63,7 +68,7 @@ export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = {
   saveDelayMs: 2000,
   prepareSliceMs: 15,
   preparePause: () => new Promise<void>((resolve) => setImmediate(resolve)),
-  prepareTopics: true,
+  prepareTopics: false,
 };
 
 export class IndexService {
@@ -487,7 +492,8 @@ export class IndexService {
   private use(index: LsiIndex | undefined): void {
     this._preparing?.controller.abort();
     this._preparing = undefined;
-    if (index !== this._index) this._insights.stopTopics();
+    // What was computed for the index going away (topic tree, overlaps, map) is dropped with it.
+    if (index !== this._index) this._insights.forget();
     this._index = index;
     if (!index) return;
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
@@ -496,7 +502,7 @@ export class IndexService {
       controller,
       done: done
         .then((ready) => {
-          // Then the topic tree, so the Topics view and the map open without waiting for it.
+          // Then, when asked to, the topic tree, so the Topics view and the map open without waiting for it.
           if (ready && this._options.prepareTopics && this._index === index && !controller.signal.aborted) this._insights.prepareTopics();
           return ready;
         })
