@@ -12,10 +12,11 @@
  *
  * Run: npm run bench:worker-memory -- [docs|tree|<folder>] [--k N] (docs: the linux-source-6.1
  * Documentation folder that scripts/bench-setup.sh unpacks). --same-process runs both phases in
- * one process, as this bench did before.
+ * one process, as this bench did before. --index <file> reopens a copy of that saved index (its
+ * settings given with --k) instead of building one.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, rmSync, statSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, rmSync, statSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { Worker } from 'node:worker_threads';
@@ -35,6 +36,8 @@ const k = flag('k') ?? '200';
 /** Set in the child processes: which phase to run, and the shared scratch folder. */
 const only = flag('phase') as 'build' | 'reopen' | undefined;
 const sameProcess = process.argv.includes('--same-process');
+/** A saved index to reopen (copied first) instead of building one. */
+const savedIndex = flag('index');
 const tmp = flag('tmp') ?? mkdtempSync(join(tmpdir(), 'undertone-worker-memory-'));
 const mb = (b: number): string => `${(b / 1048576).toFixed(0)} MB`;
 const sleep = (ms: number): Promise<void> => new Promise((r) => setTimeout(r, ms));
@@ -74,7 +77,11 @@ async function main(): Promise<void> {
     if (!only && !sameProcess) {
       // Each phase in a fresh process; the build leaves the index file for the reopen.
       await bundleWorkerScripts(REPO, tmp);
-      for (const phase of ['build', 'reopen'])
+      if (savedIndex) {
+        mkdirSync(join(tmp, 'storage'), { recursive: true });
+        copyFileSync(savedIndex, join(tmp, 'storage', 'index.undertone'));
+      }
+      for (const phase of savedIndex ? ['reopen'] : ['build', 'reopen'])
         execFileSync(process.execPath, [process.argv[1], ...process.argv.slice(2), '--phase', phase, '--tmp', tmp], { stdio: 'inherit' });
       const [a, b, c] = loadavg();
       console.log(`load average ${a.toFixed(2)} ${b.toFixed(2)} ${c.toFixed(2)} on this machine (after the runs)`);
