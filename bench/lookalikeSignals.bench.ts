@@ -244,7 +244,7 @@ const cmake = gunzipSync(readFileSync('test/fixtures/cmake-doc/docs.jsonl.gz'))
   .filter((l) => l.length > 0)
   .map((l) => JSON.parse(l) as { id: string; text: string });
 for (const [label, o] of [
-  ['margin only', { retoldNameMinGap: 1 }],
+  ['margin only', { retoldNameMinGap: 1, retoldNamesDecide: false }],
   ['with the name clause (defaults)', {}],
 ] as const) {
   const r = findLookalikes({ files: cmake.map((d) => ({ id: d.id, text: d.text })) }, o);

@@ -103,7 +103,7 @@ function pairNode(kind: LookalikeKind, p: LookalikePairWire, t: LookalikesResult
         ? `Shingle Jaccard ${p.jaccard.toFixed(2)}: the share of 5-word runs the two files have in common (near-copy from ${t.threshold}).`
         : kind === 'partial'
           ? `Shingle Jaccard ${p.jaccard.toFixed(2)}: ${Math.round(p.jaccard * 100)}% of their 5-word runs are common (partial copy from ${t.partialThreshold}, near-copy from ${t.threshold}).`
-          : `Each file is the other's clearly nearest neighbour by the words they use (cosine ${p.similarity.toFixed(2)}, ${(p.gap ?? 0).toFixed(2)} above either file's next neighbour)${p.sharedNames ? `, both name the same ${p.sharedNames} rare option${p.sharedNames === 1 ? '' : 's'} or identifier${p.sharedNames === 1 ? '' : 's'}` : ''}, yet they share little text (Jaccard ${p.jaccard.toFixed(2)}).`;
+          : `Each file is the other's nearest neighbour by the words they use (cosine ${p.similarity.toFixed(2)}, ${(p.gap ?? 0).toFixed(2)} above either file's next neighbour)${p.sharedNames ? `, both name the same ${p.sharedNames} rare option${p.sharedNames === 1 ? '' : 's'} or identifier${p.sharedNames === 1 ? '' : 's'}` : ''}, yet they share little text (Jaccard ${p.jaccard.toFixed(2)}).`;
   const score =
     kind === 'retold' ? `cosine ${p.similarity.toFixed(2)}` : kind === 'exact' ? 'identical' : `Jaccard ${p.jaccard.toFixed(2)}`;
   return {
@@ -190,7 +190,7 @@ const SECTION_HELP: Readonly<Record<LookalikeKind, string>> = {
   near: 'Files that share most of their text (shingle Jaccard at or above the near-copy threshold). Highest first.',
   partial: 'Files that share a substantial part of their text (shingle Jaccard 0.3 up to the near-copy threshold). Highest first.',
   retold:
-    "Files that tell the same thing in other words: each is the other's clearly nearest file by the words they use (after lines repeated across many files are set aside), and they share little text. Strongest first.",
+    "Files that tell the same thing in other words: each is the other's nearest file by the words they use (after lines repeated across many files are set aside), they share little text, and they either name the same rare options or identifiers or, when one names none, stand far above every other file. Strongest first.",
 };
 
 /** The view's message line: what was searched, and why it may be empty. */

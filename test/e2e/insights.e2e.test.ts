@@ -335,4 +335,52 @@ describe('Undertone insights in a real editor', () => {
     // The status names the best of the ringed search results, with its score.
     expect(await frame.locator('.um-status-text').textContent()).toMatch(/best: \S+ \(score \d\.\d+\)/);
   });
+
+  it("draws the opened file's sections as a trail, and opens the file at a section from it", async () => {
+    // The file opened from the map by the test above is the active editor; the map draws its
+    // sections as a trail. The check is against the file's own text on disk: the hovered point's
+    // title (a heading's words, or a declaration's name such as "Class.method") is written inside
+    // its line range, unless the section is a plain window of lines ("lines a–b"), and the click
+    // puts the cursor on the range's first line.
+    const frame: FrameLocator = editor!.webview(0);
+    const mapRoot = frame.locator('#undertone-map');
+    const n = await waitFor(
+      async () => {
+        const v = Number((await mapRoot.getAttribute('data-trail')) ?? '0');
+        return v > 0 ? v : false;
+      },
+      30_000,
+      'a trail of sections on the map',
+    );
+    const canvas = frame.locator('.um-map-canvas');
+    const [x, y] = (await waitFor(async () => (await canvas.getAttribute('data-trail-last')) ?? false, 10_000, 'the trail drawn'))
+      .split(',')
+      .map(Number);
+    await canvas.hover({ position: { x, y } });
+    const where = frame.locator('.um-tooltip-topic');
+    await where.waitFor({ state: 'visible', timeout: 10_000 });
+    const range = (await where.textContent()) ?? '';
+    expect(range).toMatch(new RegExp(`section ${n} of ${n}$`));
+    const title = ((await frame.locator('.um-tooltip-path').textContent()) ?? '').trim();
+    const rel = ((await frame.locator('.um-tooltip-terms').textContent()) ?? '').trim();
+    const [, first, last] = /lines (\d+)–(\d+)/.exec(range)!.map(Number);
+    const text = readFileSync(path.join(workspace, rel), 'utf8').split('\n');
+    expect(first).toBeGreaterThanOrEqual(1);
+    expect(last).toBeLessThanOrEqual(text.length);
+    if (!/^lines \d+–\d+$/.test(title)) {
+      const name = title
+        .split(/[\s.]+/)
+        .filter(Boolean)
+        .pop()!;
+      expect(text.slice(first - 1, last).join('\n')).toContain(name);
+    }
+    await editor!.screenshot('insights-8-map-trail');
+    await canvas.click({ position: { x, y } });
+    await activeTab(base(rel)).waitFor({ state: 'visible', timeout: 30_000 });
+    await editor!.page
+      .locator('.statusbar-item')
+      .filter({ hasText: new RegExp(`Ln ${first}, Col 1\\b`) })
+      .first()
+      .waitFor({ state: 'visible', timeout: 30_000 });
+  });
 });

@@ -87,7 +87,9 @@ function toJson(r: LookalikeReport, threshold: number, extra: Extra): unknown {
     lines: p.lines,
     sharedWords: p.sharedWords,
     words: p.words,
-    ...(p.cosine === undefined ? {} : { cosine: round(p.cosine), margin: round(p.gap ?? 0), names: p.sharedNames ?? 0 }),
+    ...(p.cosine === undefined
+      ? {}
+      : { cosine: round(p.cosine), margin: round(p.gap ?? 0), names: p.sharedNames ?? 0, ...(p.clause ? { clause: p.clause } : {}) }),
   });
   return {
     threshold,

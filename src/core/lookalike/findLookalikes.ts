@@ -13,8 +13,8 @@
  *    partialThreshold ≤ J < threshold → partial copy. Texts with fewer than w tokens are counted
  *    in stats.skippedShort and skipped.
  * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
- *    file's other neighbours, or a little clear and holding the same rare names (rareNames.ts)
- *    when neither is a stub; little shared text).
+ *    file's other neighbours when a file names nothing rare, else holding the same rare names
+ *    (rareNames.ts) when neither is a stub; little shared text).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */
@@ -192,6 +192,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     minNameShare: o.retoldMinNameShare,
     minNameWords: o.retoldNameMinWords,
     minWords: o.retoldMinWords,
+    namesDecide: o.retoldNamesDecide,
   };
   const names = rareNameIndex(
     shingled.map((f) => files[f].text),
@@ -208,6 +209,8 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     gap: p.gap,
     sharedNames: p.sharedNames,
     nameShare: p.nameShare,
+    namesHeld: p.namesHeld,
+    clause: p.clause,
   }));
 
   return {

@@ -26,6 +26,8 @@ export interface RareNames {
   readonly shared: number;
   /** Their idf weight over the geometric mean of each file's rare-name weight (0 when either has none). */
   readonly share: number;
+  /** Rare names each file holds (a's, b's). */
+  readonly own: readonly [number, number];
 }
 
 export interface RareNameIndex {
@@ -56,7 +58,7 @@ export function rareNameIndex(texts: readonly string[], maxDf: number): RareName
         w += x;
       }
       const d = Math.sqrt(total[a] * total[b]);
-      return { shared, share: d > 0 ? w / d : 0 };
+      return { shared, share: d > 0 ? w / d : 0, own: [rare[a].size, rare[b].size] };
     },
   };
 }

@@ -13,7 +13,10 @@
  *    cosine ≥ minCosine, and either
  *    a. that cosine stands at least minGap above each file's next neighbour (a margin against
  *       the file's own neighbourhood, as the margin scoring of Artetxe & Schwenk 2019 for mining
- *       translation pairs), or
+ *       translation pairs) — with namesDecide, only when one of the two files holds no rare name:
+ *       when both name rare options or identifiers, the names decide (clause b), because two
+ *       pages of one template (two modules, two chips, two functions) stand clear of the rest of
+ *       a folder as a pair yet each names its own things; or
  *    b. it stands at least minNameGap above them, the two files hold the same rare names
  *       (rareNames.ts: at least minSharedNames, share ≥ minNameShare) and the shorter one has at
  *       least minNameWords words: a retelling repeats the options and identifiers of what it
@@ -39,6 +42,8 @@ export interface RetoldParams {
   readonly minNameWords?: number;
   /** Both clauses: least word count of the shorter file (RetoldInput.words). */
   readonly minWords?: number;
+  /** Clause a only when a file holds no rare name (needs RetoldInput.names); otherwise clause b decides. */
+  readonly namesDecide?: boolean;
 }
 
 export interface RetoldInput {
@@ -64,6 +69,10 @@ export interface RetoldPair {
   /** Rare names both hold and their share (0 without RetoldInput.names). */
   readonly sharedNames: number;
   readonly nameShare: number;
+  /** Rare names each file holds (0, 0 without RetoldInput.names). */
+  readonly namesHeld: readonly [number, number];
+  /** The clause that passed the pair: 'margin' (a) or 'names' (b). */
+  readonly clause: 'margin' | 'names';
   /** gap + nameShare: the ranking. */
   readonly score: number;
 }
@@ -81,8 +90,9 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
     if (gap < Math.min(params.minGap, params.minNameGap ?? Infinity)) continue;
     if (input.jaccard(i, d) >= input.maxJaccard) continue;
     if (input.words !== undefined && Math.min(input.words[i], input.words[d]) < (params.minWords ?? 0)) continue;
-    const names = input.names ? input.names(i, d) : { shared: 0, share: 0 };
-    const byGap = gap >= params.minGap;
+    const names = input.names ? input.names(i, d) : { shared: 0, share: 0, own: [0, 0] as const };
+    const bothNamed = names.own[0] > 0 && names.own[1] > 0;
+    const byGap = gap >= params.minGap && !(params.namesDecide === true && input.names !== undefined && bothNamed);
     const byNames =
       input.names !== undefined &&
       gap >= (params.minNameGap ?? Infinity) &&
@@ -90,7 +100,17 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
       names.share >= (params.minNameShare ?? Infinity) &&
       (input.words === undefined || Math.min(input.words[i], input.words[d]) >= (params.minNameWords ?? 0));
     if (!byGap && !byNames) continue;
-    out.push({ a: i, b: d, cosine: c, gap, sharedNames: names.shared, nameShare: names.share, score: gap + names.share });
+    out.push({
+      a: i,
+      b: d,
+      cosine: c,
+      gap,
+      sharedNames: names.shared,
+      nameShare: names.share,
+      namesHeld: [names.own[0], names.own[1]],
+      clause: byGap ? 'margin' : 'names',
+      score: gap + names.share,
+    });
   }
   return out.sort((x, y) => y.score - x.score || x.a - y.a);
 }

@@ -55,6 +55,9 @@ export interface LookalikePair {
   /** Retold pairs: rare names (options, identifiers) both files hold, and their share (rareNames.ts). */
   readonly sharedNames?: number;
   readonly nameShare?: number;
+  /** Retold pairs: rare names each file holds, and the clause that passed the pair (retold.ts). */
+  readonly namesHeld?: readonly [number, number];
+  readonly clause?: 'margin' | 'names';
 }
 
 /** Files whose normalised texts are identical (contentHash.ts). Every pair has similarity 1. */

@@ -142,6 +142,12 @@ export class MapCanvas {
     const dpr = window.devicePixelRatio || 1;
     this.ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
     drawMap(this.ctx, this.vp, this.scene, this.theme, this.raster, dpr);
+    // Where the trail's last point is drawn (CSS pixels in the canvas): read by the end-to-end test,
+    // which cannot see inside the canvas, to point at a section as a person would.
+    const t = this.scene.trail;
+    const last = t && t.x.length ? t.x.length - 1 : -1;
+    if (last >= 0) this.canvas.dataset.trailLast = `${this.vp.sx(t!.x[last]).toFixed(1)},${this.vp.sy(t!.y[last]).toFixed(1)}`;
+    else delete this.canvas.dataset.trailLast;
   }
 
   private resize(): void {

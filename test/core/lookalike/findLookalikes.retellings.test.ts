@@ -18,13 +18,14 @@
  *   (target; measured 32/32, 0 false);
  * - partial copies: recall ≥ 0.9 of the planted pairs with 0.3 ≤ J < 0.8, 0 reported outside
  *   (measured 35/35, 0 outside);
- * - same content, other words: at most 3 pairs not in the key (target; measured 0, precision 1.0)
- *   and ahead of plain TF-IDF cosine at the same number of false pairs; recall floors 0.24 overall,
- *   22/98 coreutils, 6/27 gnu-other (measured 2026-12-03 with the rare-name clause as calibrated
- *   against the CMake reference: 34/125 = 0.27, 26/98, 8/27; margin alone 20/125). The issue's
- *   recall target (≥ 55 %) is NOT met on this set: see the fixture README;
+ * - same content, other words: at most 3 pairs not in the key (target; measured 1,
+ *   pthread_yield.3 ~ sched_yield.2, itself a natural retelling outside the key) and ahead of plain
+ *   TF-IDF cosine at the same number of false pairs; recall floors 0.27 overall, 26/98 coreutils,
+ *   6/27 gnu-other (measured 2026-12-03 with names deciding when both files hold rare names:
+ *   37/125 = 0.30, 29/98, 8/27; the earlier rule 34/125, margin alone 20/125). The issue's recall
+ *   target (≥ 55 %) is NOT met on this set: see the fixture README;
  * - the folder without the retellings' Texinfo side: at most 1 pair per 1,000 files (target;
- *   measured 0 in 1,660).
+ *   measured 1 in 1,660, the same pthread_yield pair).
  * The rule's constants (options.ts) were chosen leaving one source out (bench/lookalikeSignals.bench.ts).
  */
 import { existsSync, readFileSync } from 'node:fs';
@@ -174,12 +175,12 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(partialTruth.length).toBeGreaterThan(20);
     expect(partialRecall).toBeGreaterThanOrEqual(0.9);
     expect(falsePartial).toBe(0);
-    // Target: at most 3 pairs not in the key (measured 2026-12-03: 0 of 34 reported).
+    // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 38 reported).
     expect(falseRetold).toBeLessThanOrEqual(3);
     expect(hits.length / Math.max(1, retold.length)).toBeGreaterThanOrEqual(0.85);
-    // Floors below the measured recall (34/125; coreutils 26/98, gnu-other 8/27); the target of 0.55 is not met.
-    expect(recall).toBeGreaterThanOrEqual(0.24);
-    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(22);
+    // Floors below the measured recall (37/125; coreutils 29/98, gnu-other 8/27); the target of 0.55 is not met.
+    expect(recall).toBeGreaterThanOrEqual(0.27);
+    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(26);
     expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(6);
     // Ahead of the baseline at the same number of false pairs (baseline measured: 4 with ≤ 3 false).
     expect(hits.length).toBeGreaterThan(baseSame);
@@ -197,9 +198,36 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       `overlaps without retellings: ${files.length} files, ${r.retoldPairs.length} "same content" pairs (${perThousand.toFixed(2)} per 1,000 files)\n` +
         r.retoldPairs.map((p) => `    ${p.a} ~ ${p.b} (cosine ${p.cosine!.toFixed(2)}, margin ${p.gap!.toFixed(2)})`).join('\n'),
     );
-    // The issue's target: at most 1 per 1,000 files (measured 2026-12-03: 0 pairs in 1,660 files).
+    // The issue's target: at most 1 per 1,000 files (measured 2026-12-03: 1 pair in 1,660 files).
     expect(perThousand).toBeLessThanOrEqual(1);
   });
+
+  const cmakePath = join(REPO_ROOT, 'test', 'fixtures', 'cmake-doc', 'docs.jsonl.gz');
+  it.skipIf(!existsSync(cmakePath))(
+    'reports at most 1 "same content" pair per 1,000 pages of the CMake reference manual',
+    { timeout: 900_000 },
+    () => {
+      // test/fixtures/cmake-doc (CMake 3.25 reference manual, Debian cmake-doc; see its README): no
+      // planted retelling; many pages of one template (Find modules, a property and the variable that
+      // sets its default). A control for the rule, not held out: its constants were chosen with it
+      // (bench/lookalikeNameClause.bench.ts). Measured 2026-12-03: 1 pair in 1,906 pages
+      // (module/FindMPEG ~ module/FindMPEG2, two modules of one template); the earlier rule gave 10.
+      const files = gunzipSync(readFileSync(cmakePath))
+        .toString('utf8')
+        .split('\n')
+        .filter((l) => l.length > 0)
+        .map((l) => JSON.parse(l) as { id: string; text: string });
+      const r = findLookalikes({ files });
+      console.log(
+        `overlaps on the CMake reference: ${files.length} pages, ${r.retoldPairs.length} "same content" pairs\n` +
+          r.retoldPairs
+            .map((p) => `    ${p.a} ~ ${p.b} (cosine ${p.cosine!.toFixed(2)}, margin ${p.gap!.toFixed(2)}, by ${p.clause})`)
+            .join('\n'),
+      );
+      expect(files.length).toBeGreaterThan(1000);
+      expect((1000 * r.retoldPairs.length) / files.length).toBeLessThanOrEqual(1);
+    },
+  );
 
   it.skipIf(!corpus)('gives the same report from stored term counts as from the texts', { timeout: 300_000 }, () => {
     // What the CLI and the editor pass: an index's raw counts (here counted with the index tokenizer

@@ -29,6 +29,7 @@ describe('resolveLookalikeOptions', () => {
     [{ retoldNameMinWords: -1 }, /retoldNameMinWords/],
     [{ retoldMinWords: 1.5 }, /retoldMinWords/],
     [{ retoldNameMinWords: 2.5 }, /retoldNameMinWords/],
+    [{ retoldNamesDecide: 'yes' as unknown as boolean }, /retoldNamesDecide/],
   ])('rejects %j with a clear message', (bad, message) => {
     expect(() => resolveLookalikeOptions(bad)).toThrow(InvalidInputError);
     expect(() => resolveLookalikeOptions(bad)).toThrow(message);

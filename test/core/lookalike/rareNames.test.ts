@@ -47,10 +47,11 @@ describe('rareNameIndex', () => {
     expect(p.share).toBeCloseTo((3 * l) / Math.sqrt(4 * l * 3 * l), 12);
     // man and strspn share only --help: ln 1.5 / sqrt(4 ln 1.5 × (ln 1.5 + ln 3)).
     expect(idx.pair(0, 2).share).toBeCloseTo(l / Math.sqrt(4 * l * (l + Math.log(3))), 12);
-    expect(idx.pair(1, 2)).toEqual({ shared: 0, share: 0 });
+    expect(idx.pair(1, 2)).toEqual({ shared: 0, share: 0, own: [3, 2] });
+    expect(p.own).toEqual([4, 3]);
   });
   it('ignores names held by more than maxDf files', () => {
     const idx = rareNameIndex([man, info, strspn], 1);
-    expect(idx.pair(0, 1)).toEqual({ shared: 0, share: 0 });
+    expect(idx.pair(0, 1)).toEqual({ shared: 0, share: 0, own: [0, 0] });
   });
 });

@@ -85,22 +85,23 @@ describe('findRetoldPairs, clause b: a smaller margin with the same rare names',
   const withNames = { ...rule, minNameGap: 0.1, minSharedNames: 2, minNameShare: 0.8 };
   it('passes a mutual pair only 0.15 clear when it shares enough rare names', () => {
     expect(findRetoldPairs(input, rule)).toEqual([]); // margin 0.15 < 0.3, no names given
-    const names = (a: number, b: number) => (a + b === 1 ? { shared: 3, share: 0.85 } : { shared: 0, share: 0 });
+    const names = (a: number, b: number) =>
+      a + b === 1 ? { shared: 3, share: 0.85, own: [3, 4] as const } : { shared: 0, share: 0, own: [0, 0] as const };
     const pairs = findRetoldPairs({ ...input, names }, withNames);
     expect(pairs).toHaveLength(1);
     expect(pairs[0]).toMatchObject({ a: 0, b: 1, sharedNames: 3, nameShare: 0.85 });
     expect(pairs[0].score).toBeCloseTo(0.15 + 0.85, 12);
   });
   it('refuses it with too few names, too small a share, or too small a margin', () => {
-    const few = () => ({ shared: 1, share: 0.95 });
-    const thin = () => ({ shared: 5, share: 0.7 });
-    const full = () => ({ shared: 5, share: 0.95 });
+    const few = () => ({ shared: 1, share: 0.95, own: [1, 1] as const });
+    const thin = () => ({ shared: 5, share: 0.7, own: [7, 8] as const });
+    const full = () => ({ shared: 5, share: 0.95, own: [5, 6] as const });
     expect(findRetoldPairs({ ...input, names: few }, withNames)).toEqual([]);
     expect(findRetoldPairs({ ...input, names: thin }, withNames)).toEqual([]);
     expect(findRetoldPairs({ ...input, names: full }, { ...withNames, minNameGap: 0.2 })).toEqual([]);
   });
   it('refuses it when the shorter file is a stub (fewer words than minNameWords); clause a is not affected', () => {
-    const full = () => ({ shared: 5, share: 0.95 });
+    const full = () => ({ shared: 5, share: 0.95, own: [5, 6] as const });
     const stub = { ...input, names: full, words: [40, 500, 500] };
     expect(findRetoldPairs(stub, { ...withNames, minNameWords: 100 })).toEqual([]);
     expect(findRetoldPairs(stub, { ...withNames, minNameWords: 40 })).toHaveLength(1);
@@ -117,7 +118,7 @@ describe('findRetoldPairs, clause b: a smaller margin with the same rare names',
     expect(findRetoldPairs(clear, { ...withNames, minNameWords: 100 })).toHaveLength(1);
   });
   it('refuses a pair by either clause when the shorter file has fewer than minWords words', () => {
-    const full = () => ({ shared: 5, share: 0.95 });
+    const full = () => ({ shared: 5, share: 0.95, own: [5, 6] as const });
     const clear = {
       ...input,
       names: full,
@@ -131,6 +132,51 @@ describe('findRetoldPairs, clause b: a smaller margin with the same rare names',
     expect(findRetoldPairs(clear, { ...withNames, minWords: 0 })).toHaveLength(1);
     expect(findRetoldPairs(clear, { ...withNames, minWords: 50 })).toEqual([]);
     expect(findRetoldPairs({ ...clear, words: [50, 500, 500] }, { ...withNames, minWords: 50 })).toHaveLength(1);
+  });
+});
+
+describe('findRetoldPairs, namesDecide: when both files hold rare names, the names decide', () => {
+  // A mutual pair 0.4 clear of both files' next neighbours: clause a passes it on its margin.
+  const clear = {
+    neighbours: [
+      [1, 2],
+      [0, 2],
+      [1, 0],
+    ],
+    cosines: [
+      [0.8, 0.4],
+      [0.8, 0.35],
+      [0.5, 0.4],
+    ],
+    jaccard: lowJ,
+    maxJaccard: 0.15,
+  };
+  const params = { ...rule, minNameGap: 0, minSharedNames: 3, minNameShare: 0.85, namesDecide: true };
+  it('refuses a clear pair whose files each name their own things (two pages of one template)', () => {
+    const siblings = () => ({ shared: 0, share: 0, own: [4, 5] as const });
+    expect(findRetoldPairs({ ...clear, names: siblings }, { ...params, namesDecide: false })).toHaveLength(1);
+    expect(findRetoldPairs({ ...clear, names: siblings }, params)).toEqual([]);
+  });
+  it('keeps the margin clause when one file names nothing rare', () => {
+    const oneNameless = () => ({ shared: 0, share: 0, own: [0, 5] as const });
+    const pairs = findRetoldPairs({ ...clear, names: oneNameless }, params);
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ clause: 'margin', namesHeld: [0, 5] });
+  });
+  it('passes a mutual pair with little margin on its shared names, and says so', () => {
+    const close = {
+      ...clear,
+      cosines: [
+        [0.6, 0.58],
+        [0.6, 0.5],
+        [0.5, 0.4],
+      ],
+    };
+    const same = () => ({ shared: 4, share: 0.9, own: [4, 5] as const });
+    const pairs = findRetoldPairs({ ...close, names: same }, params);
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ a: 0, b: 1, clause: 'names', sharedNames: 4 });
+    expect(pairs[0].gap).toBeCloseTo(0.02, 12);
   });
 });
 
