@@ -69,12 +69,6 @@ export interface IndexServiceOptions {
    * views that may never be opened).
    */
   readonly prepareTopics: boolean;
-  /**
-   * Called once an index put in use by a build or a load is prepared, when the transient memory
-   * of the build or of reading the file is garbage (the worker passes a full collection,
-   * collectGarbage.ts). @default nothing
-   */
-  readonly settled: () => void;
 }
 
 export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = {
@@ -82,7 +76,6 @@ export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = {
   prepareSliceMs: 15,
   preparePause: () => new Promise<void>((resolve) => setImmediate(resolve)),
   prepareTopics: false,
-  settled: () => undefined,
 };
 
 export class IndexService {
@@ -556,12 +549,8 @@ export class IndexService {
       controller,
       done: done
         .then((ready) => {
-          // Then a full collection (the memory of the build or the read is garbage by now) and, when asked
-          // to, the topic tree, so the Topics view and the map open without waiting for it.
-          if (ready && this._index === index && !controller.signal.aborted) {
-            this._options.settled();
-            if (this._options.prepareTopics) this._insights.prepareTopics();
-          }
+          // Then, when asked to, the topic tree, so the Topics view and the map open without waiting for it.
+          if (ready && this._options.prepareTopics && this._index === index && !controller.signal.aborted) this._insights.prepareTopics();
           return ready;
         })
         .finally(() => {

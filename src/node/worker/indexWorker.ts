@@ -3,16 +3,12 @@
  * tokenizing, the SVD, searches and saving all happen here, off the editor's extension host.
  */
 import { parentPort, receiveMessageOnPort } from 'node:worker_threads';
-import { garbageCollector } from './collectGarbage.js';
 import { IndexService } from './indexService.js';
 import { serve } from './server.js';
 
 if (!parentPort) throw new Error('indexWorker.js must be started as a worker thread.');
 const port = parentPort;
-// A full collection once the memory of a build or of reading the index file is garbage
-// (collectGarbage.ts); the engine's flag is set only then.
-let collect: (() => void) | undefined;
-const service = new IndexService({ settled: () => (collect ??= garbageCollector())() });
+const service = new IndexService();
 serve(
   {
     postMessage: (message) => port.postMessage(message),

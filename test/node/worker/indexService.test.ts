@@ -163,30 +163,3 @@ describe('IndexService on a hostile storage folder and workspace', () => {
     }
   });
 });
-
-describe('IndexService after an index is put in use', () => {
-  it('calls settled once the build is prepared, and again after a load', async () => {
-    const folder = join(tmp, 'settled');
-    mkdirSync(folder, { recursive: true });
-    for (const d of cisi.docs.slice(0, 40)) writeFileSync(join(folder, `${d.id}.txt`), d.text);
-    let calls = 0;
-    const service = new IndexService({ saveDelayMs: 60_000, settled: () => calls++ });
-    const h = service.handlers();
-    const config: WorkerConfig = {
-      roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
-      indexFile: join(tmp, 'settled.undertone'),
-      settings: { k: 10 },
-      include: [],
-      exclude: [],
-      maxFileBytes: 1 << 20,
-      honourGitignore: false,
-    };
-    await h.configure({ config }, ctx);
-    await h.build({}, ctx);
-    expect(await service.preparing).toBe(true);
-    expect(calls).toBe(1);
-    expect((await h.load({}, ctx)).outcome).toBe('loaded');
-    expect(await service.preparing).toBe(true);
-    expect(calls).toBe(2);
-  });
-});
