@@ -442,7 +442,7 @@ export class IndexService {
           : undefined,
         poll: first ? () => this._early && ctx.pump?.() : undefined,
       });
-      ctx.progress({ stage: 'save', done: 0, total: 1 });
+      progress({ stage: 'save', done: 0, total: 1 });
       // An index that cannot be saved (read-only storage, a folder or FIFO at its path) is still used.
       this._saveProblem = await trySaveIndex(config.indexFile, built.index);
       this.use(built.index);
