@@ -1,8 +1,8 @@
 /**
  * Word-match answers while the first index of a workspace is being built. Once the counting stage
  * has ended (indexPipeline.ts, onCounted), the files' raw term counts and their vocabulary are
- * all a lexical ranking needs: this ranks files by BM25 (Robertson & Zaragoza 2009, bm25.ts, with
- * the same k1 and the length normalisation b that search's lexical part uses, fusion.ts) until the
+ * all a lexical ranking needs: this ranks files by plain BM25 (Robertson & Zaragoza 2009, bm25.ts,
+ * with their common-practice k1 = 1.2 and b = 0.75, not the blend's tuning in fusion.ts) until the
  * concept model is ready and the full ranking takes over. Nothing here is saved; the counts are
  * the build's own (shared, not copied), and postings are made per query term on first use.
  * Scores are divided by the best one (the top result has 1), as the blended ranking does with its
@@ -11,7 +11,6 @@
 import { NoKnownTermsError } from '../../core/errors.js';
 import type { IndexSettings } from '../../core/index/model/settings.js';
 import { Bm25Scorer } from '../../core/index/search/bm25.js';
-import { DEFAULT_RANKING_OPTIONS } from '../../core/index/search/fusion.js';
 import { topN } from '../../core/index/search/topN.js';
 import { countTerms, type DocTerms } from '../../core/counting/termCounts.js';
 import { queryLanguage } from '../../core/text/detectLanguage.js';
@@ -78,7 +77,7 @@ export class WordMatchIndex {
     const n = this._corpus.docs.length;
     if (this._scores.length < n) this._scores = new Float64Array(n);
     const scores = this._scores.subarray(0, n).fill(0);
-    this._scorer.scoreInto(q, scores, DEFAULT_RANKING_OPTIONS.lengthNorm);
+    this._scorer.scoreInto(q, scores);
     const ranked = topN(scores, top, (j) => scores[j] > 0);
     const best = ranked.length > 0 ? ranked[0].score : 1;
     return ranked.map(({ slot, score }) => ({ path: this._corpus.docs[slot].meta.path, score: score / best, bm25: score }));
