@@ -14,7 +14,8 @@
  * Search score: (1 − λ)·cos(q′, d̂) + λ·BM25/max BM25 (lsiIndex.ts); BM25 is a sum over query terms
  * (Bm25Scorer.termScore), so a term's share is (1 − λ)·(concept share) + λ·(its BM25)/max. With
  * feedback (index/search/fusion.ts) the query vector is q′ = s·x/‖x‖ + f: the words keep their
- * shares scaled by s, and (1 − λ)·f·d̂ is reported apart as the feedback part.
+ * shares scaled by s, and (1 − λ)·f·d̂ is reported apart as the feedback part. A search's w_t
+ * carries the word's focus weight (index/search/termFocus.ts), as the fold does.
  * Nearby score: (1 − μ)·cos + μ·BM25 of the first file's distinctive terms / max, split the same way.
  * Sections (core/sections) are explained by the same sums with the section's own vector and terms
  * in place of the file's: a section search score is (1 − λ)·cos(q′, ŝ) + λ·BM25(file)/max
@@ -84,7 +85,7 @@ export class QueryExplainer {
     if (q.termIds.length === 0 && !plan) throw new NoKnownTermsError(text);
     const lexQuery = plan ? plan.lexicalQuery : q;
     this._query = lexQuery;
-    const side = conceptRows(_index, q);
+    const side = conceptRows(_index, q, plan?.focus ?? null);
     this._lambda = plan ? plan.lambda : 0;
     this._conceptWeight = (plan ? plan.known : side.known > 0) ? 1 - this._lambda : 0;
     if (plan) {
@@ -169,7 +170,9 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
     if (max > 0)
       lexicalQuery.termIds.forEach((id, i) => {
         const tf = countOf(b, id);
-        if (tf > 0) entry(id).lexical += (mu * bm25.termScore(id, lexicalQuery.counts[i], tf, slotB, index.ranking.nearbyLengthNorm)) / max;
+        if (tf > 0)
+          entry(id).lexical +=
+            (mu * bm25.termScore(id, lexicalQuery.counts[i], tf, slotB, index.ranking.nearbyLengthNorm, index.ranking.nearbyDelta)) / max;
       });
   }
   const out: TermShare[] = [];
@@ -219,12 +222,16 @@ export function topShares(e: Explanation, count: number): { top: TermShare[]; re
  * For each term of a text (vocabulary ids ascending): r_t = w_t·S·u_t/‖x‖ (null for terms outside
  * the model), so that r_t·d̂ is the term's share of the cosine with any unit file vector d̂.
  */
-function conceptRows(index: LsiIndex, terms: DocTerms): { rows: { id: number; r: Float64Array | null }[]; known: number } {
+function conceptRows(
+  index: LsiIndex,
+  terms: DocTerms,
+  focus: ReadonlyMap<number, number> | null = null,
+): { rows: { id: number; r: Float64Array | null }[]; known: number } {
   const model = index.model;
   const k = model.k;
   const w = weightDocument(terms, model.columnOf, model.weights, model.scheme);
   const weightOf = new Map<number, number>();
-  for (let i = 0; i < w.columns.length; i++) weightOf.set(w.columns[i], w.values[i]);
+  for (let i = 0; i < w.columns.length; i++) weightOf.set(w.columns[i], w.values[i] * (focus?.get(model.keptIds[w.columns[i]]) ?? 1));
   const x = new Float64Array(k);
   const rows: { id: number; r: Float64Array | null }[] = [];
   for (const id of terms.termIds) {

@@ -32,6 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
+import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
 import { projectTerms, type ConceptModel } from './model/conceptModel.js';
@@ -74,6 +75,8 @@ export interface SearchPlan {
   readonly accept: (slot: number) => boolean;
   /** The lexical share λ of this query (settings.lexicalBlend on standardised scores, fusion.ts spreadShare; raised by coverageBlend). */
   readonly lambda: number;
+  /** Each query word's weight in the concept fold (termFocus.ts), by vocabulary id; null when off. */
+  readonly focus: ReadonlyMap<number, number> | null;
 }
 
 export class LsiIndex {
@@ -86,6 +89,9 @@ export class LsiIndex {
   private readonly _screen = new ScreenScratch();
   private readonly _changes = new ChangeCounters();
   private _filler: ReadonlySet<string> | null = null;
+  /** Query-word focus inputs (termFocus.ts), cleared on every edit. */
+  private readonly _resultants = new Map<number, Resultant>();
+  private _meanNormSquared = -1;
   private _mainLanguage: Language | undefined;
   private _languagesPresent: readonly Language[] | undefined;
   /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
@@ -256,9 +262,10 @@ export class LsiIndex {
     const liked = (options.like ?? []).map((p) => this.slot(p));
     const unliked = (options.unlike ?? []).map((p) => this.slot(p));
     if (q.termIds.length === 0 && liked.length === 0) throw new NoKnownTermsError(text);
+    const focus = r.termFocus > 0 && q.termIds.length > 1 ? this.focusWeights(q) : null;
     let lexQuery = q;
     for (const s of liked) lexQuery = mergeTerms(lexQuery, this.fileQuery(s, r.likeWeight / liked.length));
-    const proj = projectTerms(this.model, q);
+    const proj = projectTerms(this.model, q, focus ? (t) => focus.get(t) ?? 1 : undefined);
     const n = this._slots.length;
     // Two reused n-long arrays (allocating 2 × 8n bytes per query made the collector run often).
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
@@ -290,7 +297,7 @@ export class LsiIndex {
       if (moved) [vector, scale, known] = [moved.vector, scale * moved.scale, true];
     }
     if (known && r.spreadBlend && base > 0) lambda = this.spreadLambda(base, vector, lexical);
-    return { terms: q, lexicalQuery: lexQuery, vector, scale, known, lexical, accept, lambda };
+    return { terms: q, lexicalQuery: lexQuery, vector, scale, known, lexical, accept, lambda, focus };
   }
 
   /**
@@ -335,7 +342,7 @@ export class LsiIndex {
     const lexicalQuery = this.fileQuery(self, 1);
     let max = 0;
     if (this.ranking.nearbyLexical > 0) {
-      this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm);
+      this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm, this.ranking.nearbyDelta);
       lexical[self] = 0;
       max = divideByMax(lexical);
     }
@@ -351,6 +358,41 @@ export class LsiIndex {
     const slots = this._slots;
     const live = (j: number): boolean => slots[j] !== null;
     return spreadShare(lambda, conceptSpread(this._rows.rows, this.k, slots, q), spreadOf(lexical, live));
+  }
+
+  /** Each query word's weight in the concept fold (termFocus.ts), by vocabulary id. */
+  private focusWeights(q: DocTerms): Map<number, number> {
+    const focus = Array.from(q.termIds, (t) => focusOf(this.resultantOf(t), this.meanNormSquared()));
+    const w = focusWeights(focus, { power: this.ranking.termFocus });
+    return new Map(Array.from(q.termIds, (t, i) => [t, w[i]]));
+  }
+
+  /**
+   * The mean resultant of a word's files (termFocus.ts), kept until the next edit: of every
+   * ⌊df/FOCUS_SAMPLE⌋-th holder (all of them below 2·FOCUS_SAMPLE), the chance level then counting
+   * the files visited.
+   */
+  private resultantOf(t: number): Resultant {
+    let res = this._resultants.get(t);
+    if (!res) {
+      const rows = this._rows.rows;
+      const slots = this._slots;
+      const step = Math.max(1, Math.floor(this.bm25().docFrequency(t) / FOCUS_SAMPLE));
+      let seen = 0;
+      res = meanResultant(rows, this.k, (visit) =>
+        this.bm25().forEachHolder(t, (slot) => {
+          if (seen++ % step === 0 && slot < slots.length && slots[slot] !== null) visit(slot);
+        }),
+      );
+      this._resultants.set(t, res);
+    }
+    return res;
+  }
+
+  /** ‖μ‖² for μ the mean of the files' unit concept vectors, kept until the next edit. */
+  private meanNormSquared(): number {
+    if (this._meanNormSquared < 0) this._meanNormSquared = meanRowNormSquared(this._rows.rows, this.k, this._slots);
+    return this._meanNormSquared;
   }
 
   /** The idf-weighted share of a query's terms that the concept model does not know (0…1). */
@@ -481,6 +523,7 @@ export class LsiIndex {
     this._codes?.ensureCapacity(this._slots.length);
     this._codes?.setRow(s, proj.vector);
     this._bm25?.setDocument(s, terms);
+    this.forgetFocus();
     this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
   }
@@ -498,7 +541,13 @@ export class LsiIndex {
     this.sections.delete(path);
     this._changes.removed(wasFolded);
     this._bm25?.setDocument(s, null);
+    this.forgetFocus();
     return true;
+  }
+
+  private forgetFocus(): void {
+    this._resultants.clear();
+    this._meanNormSquared = -1;
   }
 
   staleness(): Staleness {
@@ -540,6 +589,21 @@ function divideByMax(a: Float64Array): number {
   for (let j = 0; j < a.length; j++) max = Math.max(max, a[j]);
   if (max > 0) for (let j = 0; j < a.length; j++) a[j] /= max;
   return max;
+}
+
+/** ‖mean of the occupied slots' rows‖² (0 when none). */
+function meanRowNormSquared(rows: Float32Array, k: number, slots: readonly (DocSlot | null)[]): number {
+  const acc = new Float64Array(k);
+  let m = 0;
+  for (let j = 0; j < slots.length; j++) {
+    if (slots[j] === null) continue;
+    m++;
+    const o = j * k;
+    for (let c = 0; c < k; c++) acc[c] += rows[o + c];
+  }
+  let ss = 0;
+  for (let c = 0; c < k; c++) ss += (acc[c] / Math.max(m, 1)) ** 2;
+  return ss;
 }
 
 /** Standard deviation of v_j·q over every ⌊n/SPREAD_SAMPLE⌋-th occupied slot (all below 2·SPREAD_SAMPLE). */

@@ -75,7 +75,8 @@ describe('LsiIndex', () => {
  * every occupied slot sorted by score, ties by slot.
  */
 /** BM25 (k1 = 1.2, length normalisation b) of a query's terms in every slot, written out from the formula. */
-function plainBm25(index: LsiIndex, q: DocTerms, b: number): number[] {
+/** BM25 (Robertson & Zaragoza 2009), or BM25L with δ > 0 (Lv & Zhai 2011: c = tf/(1 − b + b·|d|/avgdl), (k1 + 1)(c + δ)/(k1 + c + δ)). */
+function plainBm25(index: LsiIndex, q: DocTerms, b: number, delta = 0): number[] {
   const slots = index.slots();
   const present = slots.filter((s) => s !== null).map((s) => s.terms);
   const avg = present.reduce((a, d) => a + d.length, 0) / present.length;
@@ -87,7 +88,11 @@ function plainBm25(index: LsiIndex, q: DocTerms, b: number): number[] {
       const tf = tfOf(s.terms, t);
       if (tf === 0) return;
       const idf = Math.log(1 + (present.length - df[i] + 0.5) / (df[i] + 0.5));
-      score += (q.counts[i] * idf * tf * 2.2) / (tf + 1.2 * (1 - b + (b * s.terms.length) / avg));
+      const norm = 1 - b + (b * s.terms.length) / avg;
+      score +=
+        delta > 0
+          ? (q.counts[i] * idf * 2.2 * (tf / norm + delta)) / (1.2 + tf / norm + delta)
+          : (q.counts[i] * idf * tf * 2.2) / (tf + 1.2 * norm);
     });
     return score;
   });
@@ -138,9 +143,34 @@ function coverageLambda(index: LsiIndex, q: DocTerms): number {
 }
 
 /** Search as documented: BM25 blend (at the coverage share, then the z-score share when spreadBlend is on), then Rocchio with the first pass's 5 best files (weight 0.25), share taken again. */
+/**
+ * Query-word focus as documented (termFocus.ts): r_t = ‖Σ v_j‖/m over the files holding t, over
+ * √(1/m + (1 − 1/m)‖μ‖²), relative to the query's largest, to the power termFocus.
+ */
+function plainFocus(index: LsiIndex, q: DocTerms): Map<number, number> | null {
+  const p = index.ranking.termFocus;
+  if (p === 0 || q.termIds.length < 2) return null;
+  const live = index.slots().filter((s) => s !== null);
+  const k = index.k;
+  const mu = new Float64Array(k);
+  for (const s of live) index.vectorOf(s.meta.path).forEach((x, c) => (mu[c] += x / live.length));
+  const mu2 = mu.reduce((a, x) => a + x * x, 0);
+  const focus = Array.from(q.termIds, (t) => {
+    const holders = live.filter((s) => tfOf(s.terms, t) > 0);
+    const m = holders.length;
+    if (m === 0) return 1;
+    const sum = new Float64Array(k);
+    for (const s of holders) index.vectorOf(s.meta.path).forEach((x, c) => (sum[c] += x));
+    return Math.hypot(...sum) / m / Math.sqrt(1 / m + (1 - 1 / m) * mu2);
+  });
+  const max = Math.max(...focus);
+  return new Map(Array.from(q.termIds, (t, i) => [t, (focus[i] / max) ** p]));
+}
+
 function plainSearch(index: LsiIndex, text: string, top: number): { path: string; score: number }[] {
   const q = index.queryTerms(text);
-  const proj = projectTerms(index.model, q);
+  const focus = plainFocus(index, q);
+  const proj = projectTerms(index.model, q, focus ? (t) => focus.get(t)! : undefined);
   const bm25 = plainBm25(index, q, index.ranking.lengthNorm);
   const base = coverageLambda(index, q);
   const share = (v: Float32Array): number => spreadLambda(index, v, bm25, base);
@@ -185,7 +215,7 @@ function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[], lambda: 
   return lambda / sl / ((1 - lambda) / sc + lambda / sl);
 }
 
-/** Nearby as documented: ½ cosine + ½ BM25 of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other file's. */
+/** Nearby as documented: ½ cosine + ½ BM25L of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other file's. */
 function plainNearby(index: LsiIndex, path: string, top: number): { path: string; score: number }[] {
   const d = index.termsOf(path);
   const idf = (t: number): number => index.bm25().idf(t);
@@ -198,7 +228,7 @@ function plainNearby(index: LsiIndex, path: string, top: number): { path: string
     counts: Float32Array.from(kept, (i) => d.counts[i]),
     length: 0,
   };
-  const lexical = plainBm25(index, query, index.ranking.nearbyLengthNorm);
+  const lexical = plainBm25(index, query, index.ranking.nearbyLengthNorm, index.ranking.nearbyDelta);
   lexical[index.slots().findIndex((s) => s?.meta.path === path)] = 0;
   return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path);
 }

@@ -57,10 +57,10 @@ describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries
     console.log(`rxjs-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  it('MRR@10 ≥ 15% above TF-IDF cosine and LSI; within 5% of BM25 (still below it)', () => {
+  it('MRR@10 ≥ 15% above TF-IDF cosine and LSI; within 3% of BM25 (still below it)', () => {
     const b = fx.baselines!.methods;
     expect(got.mrr10).toBeGreaterThanOrEqual(1.15 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
-    expect(got.mrr10).toBeGreaterThanOrEqual(0.95 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(0.97 * b.bm25.mrr10!);
   });
 
   it('no size quartile more than 10% below TF-IDF cosine (the smallest is still below it, the second level with it); the two larger ones above it', () => {

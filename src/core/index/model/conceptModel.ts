@@ -234,13 +234,16 @@ export function modelMatrix(model: ConceptModel, docs: readonly DocTerms[]): Csr
   return weightedMatrix(docs, model.columnOf, model.weights, model.scheme).matrix;
 }
 
-/** Folds a document or query into the concept space with the model's frozen weights. */
-export function projectTerms(model: ConceptModel, terms: DocTerms): Projection {
+/**
+ * Folds a document or query into the concept space with the model's frozen weights; `scale`, when
+ * given, multiplies each term's weight (by vocabulary id) before the fold (query-term weighting).
+ */
+export function projectTerms(model: ConceptModel, terms: DocTerms, scale?: (termId: number) => number): Projection {
   const w = weightDocument(terms, model.columnOf, model.weights, model.scheme);
   const k = model.k;
   const acc = new Float64Array(k);
   for (let i = 0; i < w.columns.length; i++) {
-    const v = w.values[i];
+    const v = scale ? w.values[i] * scale(model.keptIds[w.columns[i]]) : w.values[i];
     const o = w.columns[i] * k;
     for (let c = 0; c < k; c++) acc[c] += v * model.termVectors[o + c];
   }

@@ -3,6 +3,8 @@
  * and Beyond"), over the raw term counts of every indexed document (all terms, no pruning).
  * idf = ln(1 + (N − df + 0.5)/(df + 0.5)) (the non-negative form Lucene uses).
  * Defaults k1 = 1.2 and b = 0.75 (the values Robertson & Zaragoza report as common practice).
+ * With δ > 0 a document's term scores take BM25L's form (Lv & Zhai 2011, "When documents are very
+ * long, BM25 fails!"): c = tf/(1 − b + b·|d|/avgdl), (k1 + 1)(c + δ)/(k1 + c + δ) for tf > 0.
  *
  * Postings are built lazily, per term, when a query first asks for the term: one pass over the
  * documents' sorted term arrays finds every missing term of the query (termPostings.ts), and the
@@ -45,6 +47,37 @@ function addMain(p: TermPostings, stamp: Float64Array, norm: Float64Array, idf: 
     if (stamp[j] > builtAt) continue;
     const tf = tfs[i];
     out[j] += (idf * tf * (k1 + 1)) / (tf + norm[j]);
+  }
+}
+
+/**
+ * BM25L's form of one term's contributions from its main list (Lv & Zhai 2011, "When documents are
+ * very long, BM25 fails!"): c = tf/(1 − b + b·|d|/avgdl), (k1 + 1)(c + δ)/(k1 + c + δ), so a long
+ * document's matches are not pushed towards zero; norm holds k1·(1 − b + b·|d|/avgdl).
+ */
+function addMainL(
+  p: TermPostings,
+  stamp: Float64Array,
+  norm: Float64Array,
+  idf: number,
+  k1: number,
+  delta: number,
+  out: Float64Array,
+): void {
+  const { docs, tfs, builtAt } = p;
+  for (let i = 0; i < docs.length; i++) {
+    const j = docs[i];
+    if (stamp[j] > builtAt) continue;
+    const c = (tfs[i] * k1) / norm[j] + delta;
+    out[j] += (idf * c * (k1 + 1)) / (k1 + c);
+  }
+}
+
+function addSideL(list: readonly number[], norm: Float64Array, idf: number, k1: number, delta: number, out: Float64Array): void {
+  for (let p = 0; p < list.length; p += 2) {
+    const j = list[p];
+    const c = (list[p + 1] * k1) / norm[j] + delta;
+    out[j] += (idf * c * (k1 + 1)) / (k1 + c);
   }
 }
 
@@ -168,9 +201,9 @@ export class Bm25Scorer {
 
   /**
    * Adds each document's BM25 score for the query terms (ids with their query counts) into out,
-   * with length normalisation b (the scorer's own unless given).
+   * with length normalisation b (the scorer's own unless given); δ > 0 scores in BM25L's form.
    */
-  scoreInto(query: DocTerms, out: Float64Array, b: number = this._opts.b): void {
+  scoreInto(query: DocTerms, out: Float64Array, b: number = this._opts.b, delta = 0): void {
     const k1 = this._opts.k1;
     const norm = this.lengthNorm(b);
     const lists = this.postings(query.termIds);
@@ -178,16 +211,33 @@ export class Bm25Scorer {
       const p = lists[i];
       if (p.df === 0) continue;
       const idf = this.idfOf(p.df) * query.counts[i];
-      addMain(p, this._stamp, norm, idf, k1, out);
-      addSide(p.side, norm, idf, k1, out);
+      if (delta > 0) {
+        addMainL(p, this._stamp, norm, idf, k1, delta, out);
+        addSideL(p.side, norm, idf, k1, delta, out);
+      } else {
+        addMain(p, this._stamp, norm, idf, k1, out);
+        addSide(p.side, norm, idf, k1, out);
+      }
     }
   }
 
-  /** BM25 contribution of one query term to one document (for explanations), length normalisation b as in scoreInto. */
-  termScore(termId: number, queryCount: number, tf: number, slot: number, b: number = this._opts.b): number {
+  /** Calls fn(slot, tf) for every current document holding the term. */
+  forEachHolder(termId: number, fn: (slot: number, tf: number) => void): void {
+    const p = this.postings([termId])[0];
+    for (let i = 0; i < p.docs.length; i++) if (this._stamp[p.docs[i]] <= p.builtAt) fn(p.docs[i], p.tfs[i]);
+    for (let q = 0; q < p.side.length; q += 2) fn(p.side[q], p.side[q + 1]);
+  }
+
+  /** BM25 contribution of one query term to one document (for explanations), b and δ as in scoreInto. */
+  termScore(termId: number, queryCount: number, tf: number, slot: number, b: number = this._opts.b, delta = 0): number {
     if (tf <= 0) return 0;
     const k1 = this._opts.k1;
-    return (this.idf(termId) * queryCount * tf * (k1 + 1)) / (tf + this.lengthNorm(b)[slot]);
+    const norm = this.lengthNorm(b)[slot];
+    if (delta > 0) {
+      const c = (tf * k1) / norm + delta;
+      return (this.idf(termId) * queryCount * c * (k1 + 1)) / (k1 + c);
+    }
+    return (this.idf(termId) * queryCount * tf * (k1 + 1)) / (tf + norm);
   }
 
   private idfOf(df: number): number {

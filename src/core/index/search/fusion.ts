@@ -23,6 +23,11 @@
  *   query when something else remains (our own list, common practice: stop words for queries).
  * - Length normalisation: BM25's b is 0.3 for nearby (a whole file's top terms as the query), below
  *   the common 0.75 that search keeps; 0.75 let long pages crowd out the linked short ones.
+ *   Optionally (nearbyDelta) in BM25L's form (Lv & Zhai 2011), which keeps a long file's matches
+ *   from sinking towards zero.
+ * - Query-word focus (termFocus.ts): in the concept fold of a search, a word weighs by how tightly
+ *   its files sit together in the concept space beyond chance, relative to the query's most
+ *   focused word.
  * Every choice was validated by leaving one collection out (README, "Ranking checks";
  * scripts/fixtures/rankingFusionExplore.ts).
  */
@@ -66,6 +71,20 @@ export interface RankingOptions {
    * costs CRAN, ADI and two demo questions (README, "Ranking checks"). @default false
    */
   spreadBlend: boolean;
+  /**
+   * Search: each query word's weight in the concept fold is its focus relative to the query's most
+   * focused word, to this power (termFocus.ts); 0 = off. The word match is left as it is (weighing
+   * it too cost CACM 6%). @default 1
+   */
+  termFocus: number;
+  /**
+   * BM25L's δ for nearby's word match (Lv & Zhai 2011, "When documents are very long, BM25 fails!";
+   * 0.5 is the value they recommend); 0 = classic BM25. Off by default: 0.5 raises Nearby on the
+   * CMake manual 4% (Django level) and the link suggestions' F1 without a threshold, but then the
+   * links' similarity threshold no longer beats no threshold on CMake (suggestLinks.eval.test.ts),
+   * which is that feature's call to make (README, "Ranking checks"). @default 0
+   */
+  nearbyDelta: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -80,6 +99,8 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   lengthNorm: 0.75,
   nearbyLengthNorm: 0.3,
   spreadBlend: false,
+  termFocus: 1,
+  nearbyDelta: 0,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */

@@ -104,6 +104,57 @@ describe('Bm25Scorer', () => {
     expect(sameBits(scoresOf(scorer, queries[0], docs.length, 0.3), exactScores(edited, queries[0], 0.3))).toBe(true);
   });
 
+  it("scores in BM25L's form with δ > 0 as Lv & Zhai 2011's formula computed term by term, and explains each term's part alike", () => {
+    // Lv & Zhai 2011, "When documents are very long, BM25 fails!", BM25L: c = tf/(1 − b + b·|d|/avgdl),
+    // score += idf·(k1 + 1)(c + δ)/(k1 + c + δ) for every query term the document holds.
+    const docs: (DocTerms | null)[] = all.slice(0, 120).map((d, i) => (i % 13 === 4 ? null : d));
+    const scorer = new Bm25Scorer(docs);
+    const { k1 } = DEFAULT_BM25_OPTIONS;
+    const [b, delta] = [0.3, 0.5];
+    const present = docs.filter((d): d is DocTerms => d !== null);
+    const avg = present.reduce((s, d) => s + d.length, 0) / present.length;
+    for (const q of queries.slice(0, 4)) {
+      const got = new Float64Array(docs.length);
+      scorer.scoreInto(q, got, b, delta);
+      docs.forEach((d, j) => {
+        let ref = 0;
+        let parts = 0;
+        if (d)
+          q.termIds.forEach((t, i) => {
+            const at = d.termIds.indexOf(t);
+            if (at < 0) return;
+            const df = present.filter((e) => e.termIds.includes(t)).length;
+            const idf = Math.log(1 + (present.length - df + 0.5) / (df + 0.5));
+            const c = d.counts[at] / (1 - b + (b * d.length) / avg);
+            ref += (q.counts[i] * idf * (k1 + 1) * (c + delta)) / (k1 + c + delta);
+            parts += scorer.termScore(t, q.counts[i], d.counts[at], j, b, delta);
+          });
+        expect(got[j]).toBeCloseTo(ref, 10);
+        expect(parts).toBeCloseTo(ref, 10);
+      });
+    }
+  });
+
+  it('visits every current holder of a term once, with its count, after edits', () => {
+    const docs: (DocTerms | null)[] = all.slice(0, 80);
+    const scorer = new Bm25Scorer(docs);
+    const t = queries[0].termIds[0];
+    scorer.docFrequency(t);
+    scorer.setDocument(3, null);
+    scorer.setDocument(90, all[500]);
+    docs[3] = null;
+    docs[90] = all[500];
+    const seen = new Map<number, number>();
+    scorer.forEachHolder(t, (slot, tf) => seen.set(slot, (seen.get(slot) ?? 0) + tf));
+    const want = new Map<number, number>();
+    docs.forEach((d, j) => {
+      const at = d ? d.termIds.indexOf(t) : -1;
+      if (d && at >= 0) want.set(j, d.counts[at]);
+    });
+    expect(seen).toEqual(want);
+    expect(seen.size).toBe(scorer.docFrequency(t));
+  });
+
   it('after replacing, removing and adding documents scores the same bits as a scorer built afresh, for terms first asked before and after the changes', () => {
     const docs: (DocTerms | null)[] = all.slice(0, 600);
     const scorer = new Bm25Scorer(docs);
