@@ -4,7 +4,8 @@
  *   npx esbuild bench/sectionLatency.ts --bundle --platform=node --format=esm --outfile=dist/sectionLatency.mjs \
  *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
  *   node dist/sectionLatency.mjs <index file> [queries] [--exact]
- * --exact ranks by the full pass (SectionStore.rankExact, the reference of the 8-bit screen).
+ * --exact ranks by the full pass (SectionStore.rankExact, the reference of the 8-bit screen and of
+ * the probed lists that replace it from SECTION_LISTS_FROM sections on; recall: bench/sectionLists.ts).
  * Queries: the first words of sections' titles picked evenly over the index (seeded), so the run
  * needs nothing but the index. Prints median and 95th percentile in milliseconds, of the wall clock
  * and of this process's CPU time per request (user + system: the work itself, which a busy machine
@@ -14,6 +15,7 @@ import { loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { loadIndex } from '../src/node/persist.js';
 import { nearbySections, searchSections } from '../src/core/sections/sectionSearch.js';
+import { SECTION_LISTS_FROM } from '../src/core/sections/sectionStore.js';
 
 const args = process.argv.slice(2).filter((a) => a !== '--exact');
 const exact = process.argv.includes('--exact');
@@ -41,10 +43,22 @@ const search: number[] = [];
 const near: number[] = [];
 const searchCpu: number[] = [];
 const nearCpu: number[] = [];
+const planCpu: number[] = [];
 const cpuMs = (from: NodeJS.CpuUsage): number => {
   const d = process.cpuUsage(from);
   return (d.user + d.system) / 1000;
 };
+// The first request builds the screen (or trains and files the lists, from SECTION_LISTS_FROM
+// sections on): timed on its own, outside the quantiles.
+{
+  const [path, f] = pick[0];
+  const t = performance.now();
+  const c = process.cpuUsage();
+  nearbySections(index, path, f.starts[0], { top: 20 });
+  console.log(
+    `first request (builds the screen or the lists): ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`,
+  );
+}
 for (const [path, f] of pick) {
   const title = f.titles[Math.floor(f.titles.length / 2)];
   let t = performance.now();
@@ -57,6 +71,13 @@ for (const [path, f] of pick) {
   } catch {
     /* a title without known words */
   }
+  c = process.cpuUsage();
+  try {
+    index.searchPlan(title); // the file-level part alone (word matches, concept query), after the search
+    planCpu.push(cpuMs(c));
+  } catch {
+    /* a title without known words */
+  }
   t = performance.now();
   c = process.cpuUsage();
   nearbySections(index, path, f.starts[Math.floor(f.starts.length / 2)], { top: 20 });
@@ -64,9 +85,12 @@ for (const [path, f] of pick) {
   nearCpu.push(cpuMs(c));
   products += index.sections.lastExact;
 }
-console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}, ${exact ? 'full pass' : '8-bit screen'}`);
+const mode = exact ? 'full pass' : index.sections.count >= SECTION_LISTS_FROM ? 'probed lists' : '8-bit screen';
+console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}, ${mode}`);
+console.log(`RSS at the end: ${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MiB`);
 console.log(`exact section products per request: ${(products / (search.length + near.length)).toFixed(0)}`);
 console.log(`search --sections: ${quantiles(search)} (${search.length} queries)`);
 console.log(`nearby at a section: ${quantiles(near)} (${near.length} sections)`);
 console.log(`CPU per request: search ${quantiles(searchCpu)}; nearby ${quantiles(nearCpu)}`);
+console.log(`CPU of the search plan alone (file-level word matches and concept query): ${quantiles(planCpu)}`);
 console.log(`1-minute load average at the end: ${loadavg()[0].toFixed(1)}`);

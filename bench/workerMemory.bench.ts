@@ -1,16 +1,22 @@
 /**
  * The editor's steady memory: the index worker (the real bundle, started as the extension starts
  * it: a worker thread of the host process) builds a folder's index, then a second worker reopens
- * the saved file. The host does nothing else, so the process's resident memory minus the host's
- * own (measured before the worker starts) is the worker's. Reported after the build and after the
+ * the saved file. Each phase runs in a fresh process of its own (this bundle with --phase), as a
+ * reopen happens in a new editor session: memory a finished build left in the allocator of the
+ * same process would otherwise count against the reopen. The host does nothing else, so the
+ * process's resident memory minus the host's own (measured before the worker starts) is the
+ * worker's. Reported after the build and after the
  * reopen, each once the background preparation has settled (RSS unchanged for SETTLE_MS) and one
  * search and one nearby have run; the peak during each phase is sampled every SAMPLE_MS.
  * Goals (issue 13): ≤ 250 MB for the linux-source-6.1 Documentation folder, ≤ 1 GB for the tree.
  *
  * Run: npm run bench:worker-memory -- [docs|tree|<folder>] [--k N] (docs: the linux-source-6.1
- * Documentation folder that scripts/bench-setup.sh unpacks).
+ * Documentation folder that scripts/bench-setup.sh unpacks). --same-process runs both phases in
+ * one process, as this bench did before. --index <file> reopens a copy of that saved index (its
+ * settings given with --k) instead of building one.
  */
-import { mkdtempSync, rmSync, statSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import { copyFileSync, mkdirSync, mkdtempSync, rmSync, statSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { Worker } from 'node:worker_threads';
@@ -27,7 +33,12 @@ const arg = process.argv[2] && !process.argv[2].startsWith('--') ? process.argv[
 const named = arg in CORPORA ? (arg as CorpusName) : undefined;
 const folder = named ? CORPORA[named] : resolve(arg);
 const k = flag('k') ?? '200';
-const tmp = mkdtempSync(join(tmpdir(), 'undertone-worker-memory-'));
+/** Set in the child processes: which phase to run, and the shared scratch folder. */
+const only = flag('phase') as 'build' | 'reopen' | undefined;
+const sameProcess = process.argv.includes('--same-process');
+/** A saved index to reopen (copied first) instead of building one. */
+const savedIndex = flag('index');
+const tmp = flag('tmp') ?? mkdtempSync(join(tmpdir(), 'undertone-worker-memory-'));
 const mb = (b: number): string => `${(b / 1048576).toFixed(0)} MB`;
 const sleep = (ms: number): Promise<void> => new Promise((r) => setTimeout(r, ms));
 
@@ -63,7 +74,20 @@ async function settled(): Promise<number> {
 
 async function main(): Promise<void> {
   try {
-    const workerJs = await bundleWorkerScripts(REPO, tmp);
+    if (!only && !sameProcess) {
+      // Each phase in a fresh process; the build leaves the index file for the reopen.
+      await bundleWorkerScripts(REPO, tmp);
+      if (savedIndex) {
+        mkdirSync(join(tmp, 'storage'), { recursive: true });
+        copyFileSync(savedIndex, join(tmp, 'storage', 'index.undertone'));
+      }
+      for (const phase of savedIndex ? ['reopen'] : ['build', 'reopen'])
+        execFileSync(process.execPath, [process.argv[1], ...process.argv.slice(2), '--phase', phase, '--tmp', tmp], { stdio: 'inherit' });
+      const [a, b, c] = loadavg();
+      console.log(`load average ${a.toFixed(2)} ${b.toFixed(2)} ${c.toFixed(2)} on this machine (after the runs)`);
+      return;
+    }
+    const workerJs = only ? join(tmp, 'indexWorker.js') : await bundleWorkerScripts(REPO, tmp);
     const config: WorkerConfig = {
       roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
       indexFile: join(tmp, 'storage', 'index.undertone'),
@@ -75,7 +99,7 @@ async function main(): Promise<void> {
     };
     await sleep(500);
     const host = await settled();
-    console.log(`worker memory, ${folder}, k=${k}; host process alone ${mb(host)}`);
+    console.log(`worker memory, ${folder}, k=${k}; host process alone ${mb(host)}${only ? ` (a process for this phase)` : ''}`);
     const s = sampler();
     const phase = async (label: string, start: (c: WorkerClient) => Promise<string>): Promise<void> => {
       s.reset();
@@ -99,21 +123,24 @@ async function main(): Promise<void> {
       }
       await sleep(500);
     };
-    await phase('after a build', async (c) => {
-      await c.request('configure', { config });
-      const built = await c.request('build', {});
-      return `built ${built.summary.files} files, ${built.summary.terms} terms, k=${built.summary.k}, index file ${mb(statSync(config.indexFile).size)}`;
-    });
-    await phase('after reopening', async (c) => {
-      await c.request('configure', { config });
-      const loaded = await c.request('load', {});
-      return `loaded (${loaded.outcome})`;
-    });
+    if (only !== 'reopen')
+      await phase('after a build', async (c) => {
+        await c.request('configure', { config });
+        const built = await c.request('build', {});
+        return `built ${built.summary.files} files, ${built.summary.terms} terms, k=${built.summary.k}, index file ${mb(statSync(config.indexFile).size)}`;
+      });
+    if (only !== 'build')
+      await phase('after reopening', async (c) => {
+        await c.request('configure', { config });
+        const loaded = await c.request('load', {});
+        return `loaded (${loaded.outcome})`;
+      });
     s.stop();
+    if (only) return;
     const [a, b, c] = loadavg();
     console.log(`load average ${a.toFixed(2)} ${b.toFixed(2)} ${c.toFixed(2)} on this machine (after the runs)`);
   } finally {
-    rmSync(tmp, { recursive: true, force: true });
+    if (only !== 'build') rmSync(tmp, { recursive: true, force: true });
   }
 }
 

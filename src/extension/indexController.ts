@@ -135,7 +135,9 @@ export class IndexController {
           signal: abort.signal,
           onProgress: (p) => {
             const percent = overallPercent(p);
-            if (this._state.kind === 'building' && this._state.percent !== percent) this.setState({ ...this._state, percent });
+            const wordMatch = previous ? undefined : p.wordMatch;
+            if (this._state.kind === 'building' && (this._state.percent !== percent || this._state.wordMatch !== wordMatch))
+              this.setState({ ...this._state, percent, ...(wordMatch === undefined ? {} : { wordMatch }) });
             report?.(percent);
           },
         },

@@ -10,7 +10,14 @@ export type IndexState =
   | { readonly kind: 'unavailable'; readonly reason: string }
   /** Folders are open but there is no index (never built, deleted, or settings changed). */
   | { readonly kind: 'none'; readonly reason?: string }
-  | { readonly kind: 'building'; readonly percent: number; readonly background: boolean; readonly previous: IndexSummary | null }
+  | {
+      readonly kind: 'building';
+      readonly percent: number;
+      readonly background: boolean;
+      readonly previous: IndexSummary | null;
+      /** A first build past its counting stage: files search can rank by word match meanwhile. */
+      readonly wordMatch?: number;
+    }
   | { readonly kind: 'ready'; readonly summary: IndexSummary }
   /** Usable, but enough changed that a rebuild is advised (automatic rebuilds off). */
   | { readonly kind: 'stale'; readonly summary: IndexSummary; readonly reason: string }
@@ -28,6 +35,11 @@ export function summaryOf(state: IndexState): IndexSummary | null {
     default:
       return null;
   }
+}
+
+/** True when search can answer: an index is in use, or a first build offers word-match results. */
+export function canSearch(state: IndexState): boolean {
+  return summaryOf(state) !== null || (state.kind === 'building' && state.wordMatch !== undefined);
 }
 
 /** Why a workspace has no usable saved index (after a load that did not return one). */
@@ -71,6 +83,13 @@ export function statusBarModel(state: IndexState): StatusBarModel {
         tooltip: `Undertone: ${state.reason ?? 'there is no index for this workspace yet.'} ${click}`,
       };
     case 'building':
+      if (state.wordMatch !== undefined && !state.previous)
+        return {
+          text: `$(sync~spin) Undertone: word match only — concepts ${state.percent}%`,
+          tooltip:
+            `Undertone: search ranks the ${files(state.wordMatch)} by their words alone while the concept model is built (${state.percent}%). ` +
+            `Results by meaning, Nearby, topics and the map follow when it is done. ${click}`,
+        };
       return {
         text: `$(sync~spin) Undertone: indexing ${state.percent}%`,
         tooltip:
@@ -105,7 +124,12 @@ export function statusActions(state: IndexState): ActionItem[] {
   if (state.kind === 'unavailable') return [];
   const items: ActionItem[] = [];
   const has = summaryOf(state) !== null;
-  if (has) items.push({ label: '$(search) Search Workspace by Meaning…', command: 'undertone.search' });
+  if (canSearch(state))
+    items.push({
+      label: '$(search) Search Workspace by Meaning…',
+      command: 'undertone.search',
+      description: has ? undefined : 'word match only until the index is built',
+    });
   if (has) items.push({ label: '$(list-tree) Show Nearby Files', command: 'undertone.showNearby', description: 'for the active file' });
   if (state.kind === 'building')
     items.push({ label: '$(debug-stop) Cancel Indexing', command: 'undertone.cancelIndexing', description: 'keeps the previous index' });

@@ -8,7 +8,7 @@
  */
 import * as vscode from 'vscode';
 import type { IndexController } from './indexController.js';
-import { summaryOf } from './indexState.js';
+import { canSearch } from './indexState.js';
 import { resultTreeItem } from './resultItem.js';
 import {
   feedbackDescription,
@@ -50,7 +50,7 @@ export class SearchResultsProvider implements vscode.TreeDataProvider<ResultNode
       }),
       // No index (deleted, lost, never built): nothing to show, and nothing to re-run.
       _controller.onDidChangeState((state) => {
-        if (summaryOf(state) === null && (this._query !== undefined || this._entries.length > 0)) this.clear();
+        if (!canSearch(state) && (this._query !== undefined || this._entries.length > 0)) this.clear();
       }),
     );
   }

@@ -139,6 +139,19 @@ export function subjectTranslationsEntry(
 }
 
 /** "0.86 · notes/safety · +2 languages": score, folder (as the editor's own result lists show it) and translations. */
+/** The mark of a result ranked by its words alone (the first index is still being built). */
+export const WORD_MATCH_MARK = 'word match only';
+
+function wordMatchMark(m: SearchMatch): string {
+  return m.wordMatchOnly ? `${WORD_MATCH_MARK} · ` : '';
+}
+
+function wordMatchLine(m: SearchMatch): string {
+  return m.wordMatchOnly
+    ? "\nRanked by the question's words alone: the index is still being built. Results by meaning replace these when it is done."
+    : '';
+}
+
 function describe(
   score: number,
   ref: { readonly folder: string; readonly relPath: string },
@@ -195,8 +208,8 @@ export function searchEntries(matches: readonly SearchMatch[], multiRoot: boolea
       key: m.key,
       fsPath: m.fsPath,
       label: fileName(m.relPath),
-      description: describe(m.score, m, multiRoot, translations.length) + (m.section ? ` · ${m.section.title}` : ''),
-      tooltip: `${shownPath(m, multiRoot)}, line ${m.line + 1}\nScore: ${formatScore(m.score)}${languageLine(m)}${sectionLine(m.section)}`,
+      description: wordMatchMark(m) + describe(m.score, m, multiRoot, translations.length) + (m.section ? ` · ${m.section.title}` : ''),
+      tooltip: `${shownPath(m, multiRoot)}, line ${m.line + 1}\nScore: ${formatScore(m.score)}${languageLine(m)}${sectionLine(m.section)}${wordMatchLine(m)}`,
       line: m.section && !(m.section.start <= m.line && m.line < m.section.end) ? m.section.start : m.line,
       why: m.why,
       ...(children.length ? { children, expanded: passage.length > 0 } : {}),
@@ -228,7 +241,7 @@ export function searchPickItems(matches: readonly SearchMatch[], multiRoot: bool
   const entries = searchEntries(matches, multiRoot);
   return matches.map((m, i) => ({
     label: `$(file) ${fileName(m.relPath)}`,
-    description: describe(m.score, m, multiRoot, m.translations?.length ?? 0),
+    description: wordMatchMark(m) + describe(m.score, m, multiRoot, m.translations?.length ?? 0),
     detail: m.lineText,
     entry: entries[i],
   }));

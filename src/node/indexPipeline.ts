@@ -23,7 +23,7 @@ import { CancelledError, EmptyCorpusError } from '../core/errors.js';
 import type { DocMeta, LsiIndex } from '../core/index/lsiIndex.js';
 import { IndexBuilder } from '../core/index/model/indexBuilder.js';
 import { modelSettingsKey, type IndexSettings } from '../core/index/model/settings.js';
-import { countTerms, Vocabulary } from '../core/counting/termCounts.js';
+import { countTerms, Vocabulary, type DocTerms } from '../core/counting/termCounts.js';
 import { tokenizeIn } from '../core/text/tokenizeLanguage.js';
 import { fileLanguage, withLanguage } from '../core/text/detectLanguage.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
@@ -45,6 +45,13 @@ export interface PipelineProgress {
   readonly stage: PipelineStage;
   readonly done: number;
   readonly total: number;
+}
+
+/** What the counting stage hands to onCounted: the settings, the vocabulary and each file's raw counts. */
+export interface CountedCorpus {
+  readonly settings: IndexSettings;
+  readonly vocab: Vocabulary;
+  readonly docs: readonly { readonly meta: DocMeta; readonly terms: DocTerms }[];
 }
 
 /** A file to index: its key in the index and where it is on disk. */
@@ -106,6 +113,17 @@ export interface PipelineOptions {
   readonly sections?: boolean;
   /** Threads for tokenizing and the SVD (false: this thread only). @default {} (all cores) */
   readonly threads?: PoolOptions | false;
+  /**
+   * Called once counting has ended, before weighting and the SVD, with every file's raw counts
+   * (the builder's own objects: not to be changed), so a caller can offer word-match answers
+   * while the concept model is built (worker/wordMatchIndex.ts).
+   */
+  readonly onCounted?: (counted: CountedCorpus) => void;
+  /**
+   * Called wherever cancellation is checked, including inside the synchronous SVD (about every
+   * column block of a product), so a caller can read and answer waiting messages there.
+   */
+  readonly poll?: () => void;
 }
 
 export interface PipelineResult {
@@ -138,7 +156,10 @@ export function chooseCounting(toRead: number, threadsAllowed: boolean, fromScra
 export async function runIndexPipeline(options: PipelineOptions): Promise<PipelineResult> {
   const { settings, previous, signal } = options;
   const progress = options.onProgress ?? (() => undefined);
-  const cancelled = (): boolean => signal?.aborted === true || options.isCancelled?.() === true;
+  const cancelled = (): boolean => {
+    options.poll?.();
+    return signal?.aborted === true || options.isCancelled?.() === true;
+  };
   const check = (): void => {
     if (cancelled()) throw new CancelledError();
   };
@@ -178,13 +199,15 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       changed = 0,
       bytesRead = 0;
     const toRead: SourceFile[] = [];
+    // Every file's counts in one list, for onCounted (references to the builder's objects).
+    const countedDocs: { meta: DocMeta; terms: DocTerms }[] | undefined = options.onCounted ? [] : undefined;
     for (const f of scan.files) {
       const old = sameTokens ? previous.meta(f.key) : undefined;
       if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
-        builder.addCounted(
-          withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, old.language),
-          previous!.termsOf(f.key),
-        );
+        const meta = withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, old.language);
+        const terms = previous!.termsOf(f.key);
+        builder.addCounted(meta, terms);
+        countedDocs?.push({ meta, terms });
         reused++;
       } else toRead.push(f);
     }
@@ -194,6 +217,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       if (got.kind === 'text') {
         const meta: DocMeta = withLanguage<DocMeta>({ path: f.key, size: f.size, mtimeMs: f.mtimeMs }, got.language);
         builder.addCounted(meta, got.terms);
+        countedDocs?.push({ meta, terms: got.terms });
         if (got.sections) countedSections.set(f.key, got.sections);
         bytesRead += f.size;
         read++;
@@ -258,6 +282,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       previous.size === builder.size &&
       previous.staleness().changedFiles === 0;
     if (unchanged) return { ...counts, sectionsReadAgain: 0, index: previous, unchanged: true, seconds };
+    if (countedDocs) options.onCounted?.({ settings, vocab, docs: countedDocs });
 
     // ---- build
     await releasePool();

@@ -213,3 +213,23 @@ describe('IndexController', () => {
     expect(host.progressRuns).toBe(0);
   });
 });
+
+describe('IndexController on a first build', () => {
+  it('says word match is on offer once counting ends, then the index is ready; a rebuild never says so', async () => {
+    const host = fakeHost({ indexFile: join(tmp, 'first-build', 'index.undertone') });
+    const c = make(host);
+    const states: IndexState[] = [];
+    c.onDidChangeState((s) => states.push(s));
+    await c.start();
+    const offered = states.findIndex((s) => s.kind === 'building' && s.wordMatch !== undefined);
+    expect(offered).toBeGreaterThanOrEqual(0);
+    const s = states[offered];
+    expect(s.kind === 'building' && s.wordMatch).toBe(adi.docs.length);
+    expect(states.slice(0, offered).every((x) => x.kind !== 'ready')).toBe(true);
+    expect(c.state.kind).toBe('ready');
+    states.length = 0;
+    await c.build('user');
+    expect(states.some((x) => x.kind === 'building')).toBe(true);
+    expect(states.every((x) => x.kind !== 'building' || x.wordMatch === undefined)).toBe(true);
+  });
+});

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
+  canSearch,
   noIndexReason,
   statusActions,
   statusBarModel,
@@ -24,6 +25,22 @@ describe('status bar', () => {
 
   it('shows the item from the start, saying it is loading', () => {
     expect(statusBarModel({ kind: 'starting' }).text).toBe('$(sync~spin) Undertone: loading…');
+  });
+
+  it('says when a first build offers word-match results only, and keeps the plain percentage otherwise', () => {
+    const early = statusBarModel({ kind: 'building', percent: 43, background: false, previous: null, wordMatch: 8863 });
+    expect(early.text).toBe('$(sync~spin) Undertone: word match only — concepts 43%');
+    expect(early.tooltip).toContain('8,863 files by their words alone');
+    expect(early.tooltip).toContain('Nearby, topics and the map follow');
+    // A rebuild keeps the previous index (full ranking) in use: no word-match wording.
+    expect(statusBarModel({ kind: 'building', percent: 43, background: true, previous: summary, wordMatch: 8863 }).text).toBe(
+      '$(sync~spin) Undertone: indexing 43%',
+    );
+    expect(canSearch({ kind: 'building', percent: 43, background: false, previous: null, wordMatch: 8863 })).toBe(true);
+    expect(canSearch({ kind: 'building', percent: 43, background: false, previous: null })).toBe(false);
+    const actions = statusActions({ kind: 'building', percent: 43, background: false, previous: null, wordMatch: 10 });
+    expect(actions.find((a) => a.command === 'undertone.search')?.description).toBe('word match only until the index is built');
+    expect(actions.some((a) => a.command === 'undertone.showNearby')).toBe(false);
   });
 
   it('says in the tooltip that the previous index stays in use during a rebuild', () => {

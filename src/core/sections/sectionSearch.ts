@@ -17,9 +17,19 @@ import type { SectionHit } from './sectionStore.js';
 export interface SectionSearchOptions extends SearchOptions {
   /** Sections of one file at most in the list. @default 3 */
   perFile: number;
+  /**
+   * Files with the best word-match scores whose sections are all ranked when the store visits only
+   * part of the sections (sectionStore.ts lists), so a strong word match is not lost with its list.
+   * @default 32 (common practice: a few times the list length; recall in bench/sectionLists.ts)
+   */
+  wordFiles: number;
 }
 
-export const DEFAULT_SECTION_SEARCH: Readonly<Pick<SectionSearchOptions, 'top' | 'perFile'>> = { top: 10, perFile: 3 };
+export const DEFAULT_SECTION_SEARCH: Readonly<Pick<SectionSearchOptions, 'top' | 'perFile' | 'wordFiles'>> = {
+  top: 10,
+  perFile: 3,
+  wordFiles: 32,
+};
 
 /** Slot of every live path (cached per index; rebuilt when documents are added). */
 const slotCache = new WeakMap<LsiIndex, { length: number; map: Map<string, number> }>();
@@ -38,17 +48,35 @@ function slotsOf(index: LsiIndex): Map<string, number> {
  * LsiIndex.search when no word of the query is known.
  */
 export function searchSections(index: LsiIndex, text: string, options: Partial<SectionSearchOptions> = {}): SectionHit[] {
-  const { top, perFile } = { ...DEFAULT_SECTION_SEARCH, ...options };
+  const { top, perFile, wordFiles } = { ...DEFAULT_SECTION_SEARCH, ...options };
   const plan = index.searchPlan(text, options);
   const a = plan.known ? 1 - plan.lambda : 0;
   const slot = slotsOf(index);
   const accept = (path: string): boolean => plan.accept(slot.get(path) ?? -1);
+  const also = plan.lambda > 0 ? bestWordFiles(index, plan.lexical, plan.accept, wordFiles) : [];
   // Rank by cosine with room for the lexical share to reorder, then blend.
-  const pool = index.sections.rank(plan.vector, Math.max(top * 8, 64), accept, perFile);
+  const pool = index.sections.rank(plan.vector, Math.max(top * 8, 64), accept, perFile, also);
   return pool
     .map((h) => ({ ...h, score: a * h.score + plan.lambda * plan.lexical[slot.get(h.path)!] }))
     .sort((x, y) => y.score - x.score)
     .slice(0, top);
+}
+
+/** The keys of the `count` accepted files with the highest word-match scores above zero, best first. */
+function bestWordFiles(index: LsiIndex, lexical: Float64Array, accept: (slot: number) => boolean, count: number): string[] {
+  const best: { j: number; s: number }[] = [];
+  if (count < 1) return [];
+  for (let j = 0; j < lexical.length; j++) {
+    const s = lexical[j];
+    if (!(s > 0) || (best.length >= count && s <= best[best.length - 1].s) || !accept(j)) continue;
+    let i = best.length;
+    best.push({ j, s });
+    while (i > 0 && best[i - 1].s < s) [best[i], i] = [best[i - 1], i - 1];
+    best[i] = { j, s };
+    if (best.length > count) best.length = count;
+  }
+  const slots = index.slots();
+  return best.flatMap(({ j }) => (slots[j] ? [slots[j].meta.path] : []));
 }
 
 /**

@@ -8,9 +8,17 @@
  * reaches T get an exact product (branch and bound, common practice; as screenedTop.ts does for
  * files). The exact products are the same f32 sums as a full pass, so the list equals the full
  * pass's (checked in test/core/sections/sectionStore.test.ts).
+ * From listsFrom sections on (a large tree, where even the screen reads every section) ranking is
+ * no longer exhaustive: an inverted file (./sectionLists.ts) is trained once on a seeded sample,
+ * every section filed under a list, and a query multiplies only the sections of its probe nearest
+ * lists plus those of files the caller names (a search's best word matches). Edits file the new
+ * sections under the trained centroids; the centroids are trained again when the count has doubled
+ * or halved since.
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
+import { ListedSections } from './listedSections.js';
+import { SectionLists, type SectionListsOptions } from './sectionLists.js';
 import type { FileSections } from './sectionVectors.js';
 
 /** A section found by a search or a nearby question. */
@@ -29,6 +37,13 @@ export interface SectionHit {
 
 /** Below this many sections a full pass is as quick as screening (common practice, not tuned). */
 export const SCREEN_MIN_SECTIONS = 4096;
+/**
+ * From this many sections on ranking visits the probed lists only (sectionLists.ts). Below it the
+ * exact screen stays: its CPU cost grows with the count, about 0.4 µs a section on a loaded machine
+ * (bench/sectionLists.ts: 469–553 ms a request for 1.33 M sections), so some 25 ms at this count. A
+ * round number from that cost, not from any ranking.
+ */
+export const SECTION_LISTS_FROM = 65536;
 /** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
 const SCREEN_SLACK = 1e-9;
 
@@ -46,12 +61,29 @@ export class SectionStore {
   /** The screening codes (undefined: not built since the last change; null: not available). */
   private _screen: Screen | null | undefined;
   private _lastExact = 0;
+  /** The trained lists (null: none) and the count they were trained at. */
+  private _lists: SectionLists | null = null;
+  private _trainedAt = 0;
+  /** The sections filed under the lists (undefined: not built since the lists were trained or rebuilt). */
+  private _listed: ListedSections | undefined;
 
-  /** @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS). */
+  /**
+   * @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS).
+   * @param listsFrom sections from which ranking visits the probed lists only (default SECTION_LISTS_FROM).
+   * @param listOptions options of the lists (sectionLists.ts defaults).
+   */
   constructor(
     readonly k: number,
     private readonly screenFrom = SCREEN_MIN_SECTIONS,
+    private readonly listsFrom = SECTION_LISTS_FROM,
+    private listOptions: Partial<SectionListsOptions> = {},
   ) {}
+
+  /** Other options for the lists (trained again at the next ranking that uses them). */
+  configureLists(options: Partial<SectionListsOptions>): void {
+    this.listOptions = options;
+    this.dropLists();
+  }
 
   /** Files that have sections. */
   get files(): number {
@@ -80,6 +112,8 @@ export class SectionStore {
     this._files.set(path, sections);
     this._count += n;
     this._screen = undefined;
+    if (this._lists && this._count > 2 * this._trainedAt) this.dropLists();
+    this._listed?.add(path, sections);
   }
 
   delete(path: string): void {
@@ -88,6 +122,9 @@ export class SectionStore {
     this._count -= old.starts.length;
     this._files.delete(path);
     this._screen = undefined;
+    this._listed?.remove(path);
+    if (this._lists && 2 * this._count < this._trainedAt) this.dropLists();
+    else if (this._listed && 2 * this._listed.dead > this._listed.used) this._listed = undefined;
   }
 
   /** The section of a file holding a zero-based line (the last one that starts at or before it), or null. */
@@ -116,9 +153,28 @@ export class SectionStore {
   /**
    * The `top` sections with the highest cosine with q over files that `accept` lets in, best first
    * (ties: file order, then position). At most `perFile` sections of one file. Exact scores; with
-   * many sections only those that can still place are multiplied (see the header).
+   * many sections only those that can still place are multiplied (see the header); from listsFrom
+   * sections only those of the probed lists and of the files in `also` (then not exact).
    */
-  rank(q: Float32Array, top: number, accept: (path: string) => boolean = () => true, perFile = Number.POSITIVE_INFINITY): SectionHit[] {
+  rank(
+    q: Float32Array,
+    top: number,
+    accept: (path: string) => boolean = () => true,
+    perFile = Number.POSITIVE_INFINITY,
+    also: readonly string[] = [],
+  ): SectionHit[] {
+    if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
+    if (top > 0 && perFile >= 1 && this._count >= this.listsFrom) return this.rankLists(q, top, accept, perFile, also);
+    return this.rankScreened(q, top, accept, perFile);
+  }
+
+  /** rank() by the exact 8-bit screen over all sections, whatever their count (the reference of the lists). */
+  rankScreened(
+    q: Float32Array,
+    top: number,
+    accept: (path: string) => boolean = () => true,
+    perFile = Number.POSITIVE_INFINITY,
+  ): SectionHit[] {
     if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
     const screen = top > 0 && perFile >= 1 ? this.screen() : null;
     if (!screen) return this.rankExact(q, top, accept, perFile);
@@ -164,6 +220,65 @@ export class SectionStore {
     const all: { path: string; f: FileSections; at: null }[] = [];
     for (const [path, f] of this._files) if (accept(path)) all.push({ path, f, at: null });
     return this.rankOver(all, q, top, perFile);
+  }
+
+  /**
+   * rank() over the sections of the probe lists nearest to q (and all sections of the files in
+   * `also`): the same exact products as the full pass, over part of the sections.
+   */
+  rankLists(
+    q: Float32Array,
+    top: number,
+    accept: (path: string) => boolean = () => true,
+    perFile = Number.POSITIVE_INFINITY,
+    also: readonly string[] = [],
+    probe?: number,
+  ): SectionHit[] {
+    if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
+    const listed = this.listed();
+    if (!listed || top <= 0 || perFile < 1) return this.rankExact(q, top, accept, perFile);
+    return this.rankOver(listed.candidates(q, top, accept, also, probe ?? listed.lists.probe), q, top, perFile);
+  }
+
+  /** The trained lists, training them when there are none yet (null without sections). */
+  lists(): SectionLists | null {
+    if (this._count === 0) return null;
+    if (this._lists) return this._lists;
+    const blocks: Float32Array[] = [];
+    const firsts = new Int32Array(this._files.size + 1);
+    for (const f of this._files.values()) {
+      blocks.push(f.vectors);
+      firsts[blocks.length] = firsts[blocks.length - 1] + f.starts.length;
+    }
+    const k = this.k;
+    const row = (j: number): { block: Float32Array; at: number } => {
+      let lo = 0;
+      let hi = blocks.length - 1;
+      while (lo < hi) {
+        const mid = (lo + hi + 1) >> 1;
+        if (firsts[mid] <= j) lo = mid;
+        else hi = mid - 1;
+      }
+      return { block: blocks[lo], at: (j - firsts[lo]) * k };
+    };
+    this._lists = SectionLists.train(k, { n: this._count, row }, this.listOptions);
+    this._trainedAt = this._count;
+    this._listed = undefined;
+    return this._lists;
+  }
+
+  /** The sections filed under the trained lists (training and filing them when needed). */
+  private listed(): ListedSections | null {
+    if (this._listed) return this._listed;
+    const lists = this.lists();
+    if (!lists) return null;
+    this._listed = new ListedSections(lists, this._files.entries());
+    return this._listed;
+  }
+
+  private dropLists(): void {
+    this._lists = null;
+    this._listed = undefined;
   }
 
   /** Exact products the last rank() computed (for tests and the benchmark). */

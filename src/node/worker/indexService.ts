@@ -3,6 +3,10 @@
  * (see workerProtocol.ts). Builds run one at a time and swap in only once saved; edits that arrive
  * during a build are applied to the index in use and replayed on the new one after the swap.
  * Folded-in edits are saved a short while after the last one (and on request).
+ * During the first build of a workspace (no index in use), searches are answered by word match
+ * alone from the moment counting ends (wordMatchIndex.ts; marked wordMatchOnly), also while the
+ * synchronous SVD runs: the build polls the port there (server.ts, pump) and such a search is
+ * answered on the spot. Progress events then carry `wordMatch` (the files it covers).
  * Once an index is loaded or built, what its searches need is prepared in the background
  * (backgroundPrepare.ts) in slices of ~15 ms, each run only after the messages already waiting
  * (setImmediate), so a search that arrives meanwhile waits about one slice.
@@ -28,6 +32,7 @@ import { LinkService } from './linkService.js';
 import type {
   FileChange,
   IndexSummary,
+  Progress,
   RefreshReport,
   ScoredFile,
   SearchMatch,
@@ -41,7 +46,9 @@ import { RootMap } from './rootMap.js';
 import { bestSections, nearbySections, searchSections } from '../../core/sections/sectionSearch.js';
 import { splitLines } from '../../core/sections/splitSections.js';
 import type { SectionHit } from '../../core/sections/sectionStore.js';
-import type { HandlerContext, Handlers } from './server.js';
+import type { HandlerContext, Handlers, ImmediateHandlers } from './server.js';
+import { readTextNow, wordMatchLine } from './wordMatchLine.js';
+import { WordMatchIndex } from './wordMatchIndex.js';
 import { formsFromTexts } from './wordForms.js';
 import { NoIndexError } from './workerErrors.js';
 import { buildWorkspaceIndex, scanWorkspace, type WorkspaceScan } from './workspaceIndexer.js';
@@ -55,7 +62,12 @@ export interface IndexServiceOptions {
   readonly prepareSliceMs: number;
   /** Awaited before and between preparation slices. @default setImmediate (after waiting I/O and messages) */
   readonly preparePause: () => Promise<void>;
-  /** After preparing, compute the topic tree in the background (in steps, stopped when the index changes). @default true */
+  /**
+   * After preparing, compute the topic tree in the background (in steps, stopped when the index
+   * changes). @default false: the tree is computed when the Topics view or the map first asks
+   * for it, and kept until the index changes (it held about 74 MB on an 8.9k-file folder, for
+   * views that may never be opened).
+   */
   readonly prepareTopics: boolean;
 }
 
@@ -63,7 +75,7 @@ export const DEFAULT_INDEX_SERVICE_OPTIONS: IndexServiceOptions = {
   saveDelayMs: 2000,
   prepareSliceMs: 15,
   preparePause: () => new Promise<void>((resolve) => setImmediate(resolve)),
-  prepareTopics: true,
+  prepareTopics: false,
 };
 
 export class IndexService {
@@ -76,6 +88,8 @@ export class IndexService {
   private _saveTimer: ReturnType<typeof setTimeout> | undefined;
   private _build: Promise<unknown> = Promise.resolve();
   private _duringBuild: FileChange[] | undefined;
+  /** Word-match answers during a first build, from its counts (until the built index is in use). */
+  private _early: WordMatchIndex | undefined;
   private _preparing: { readonly controller: AbortController; readonly done: Promise<boolean> } | undefined;
   private readonly _options: IndexServiceOptions;
   private readonly _insights = new InsightService(
@@ -118,7 +132,8 @@ export class IndexService {
       refresh: async ({ maxFoldShare }) => this.refresh(maxFoldShare),
       build: async (_p, ctx) => this.build(ctx),
       update: async ({ changes }) => this.update(changes),
-      search: async ({ query, top, like, unlike }) => this.search(query, top, like, unlike),
+      search: async ({ query, top, like, unlike }) =>
+        !this._index && this._early ? this.wordMatchSearch(this._early, query, top, readTextNow) : this.search(query, top, like, unlike),
       nearby: async ({ fsPath, top }) => this.nearby(fsPath, top),
       searchSections: async ({ query, top }) => this.searchSections(query, top),
       nearbySections: async ({ fsPath, line, top }) => this.nearbySections(fsPath, line, top),
@@ -131,6 +146,18 @@ export class IndexService {
       ...this._insights.handlers(),
       ...this._links.handlers(),
     };
+  }
+
+  /** Answers given on the spot while a build runs its synchronous steps (server.ts, ImmediateHandlers). */
+  immediateHandlers(): ImmediateHandlers {
+    return {
+      search: ({ query, top }) => (!this._index && this._early ? this.wordMatchSearch(this._early, query, top, readTextNow) : undefined),
+    };
+  }
+
+  /** Word-match answers of the first build in progress, if there are any yet. */
+  get wordMatch(): WordMatchIndex | undefined {
+    return this._index ? undefined : this._early;
   }
 
   configure(config: WorkerConfig): { modelChanged: boolean } {
@@ -246,6 +273,20 @@ export class IndexService {
         };
       }),
     );
+  }
+
+  /**
+   * Files ranked by the query's words alone (BM25 over the counts of the build in progress), each
+   * with its best-matching line; synchronous, so it can answer while the SVD holds the thread.
+   */
+  wordMatchSearch(early: WordMatchIndex, query: string, top: number, readText: (fsPath: string) => string | null): SearchMatch[] {
+    const q = early.queryTerms(query);
+    return early.search(query, top).map((h) => {
+      const ref = this._roots.refOf(h.path);
+      const text = readText(ref.fsPath);
+      const line = text === null ? { line: 0, text: '', highlights: [] } : wordMatchLine(text, q.termIds, (t) => early.queryTerms(t));
+      return { ...ref, score: h.score, line: line.line, lineText: line.text, highlights: line.highlights, wordMatchOnly: true as const };
+    });
   }
 
   /** Sections ranked by a query (file keys turned into file references), each with why it matches. */
@@ -384,14 +425,24 @@ export class IndexService {
   private async buildNow(ctx: HandlerContext) {
     const config = this.config();
     this._duringBuild = [];
+    const first = this._index === undefined;
+    const progress = (p: Progress): void => ctx.progress(this._early && !this._index ? { ...p, wordMatch: this._early.size } : p);
     try {
       const built = await buildWorkspaceIndex(this._roots, config, {
         previous: this._index,
         signal: ctx.signal,
         isCancelled: ctx.isCancelled,
-        onProgress: ctx.progress,
+        onProgress: progress,
+        // A first build: word-match answers from the counts until the concept model is ready.
+        onCounted: first
+          ? (counted) => {
+              this._early = new WordMatchIndex(counted);
+              progress({ stage: 'matrix', done: 0, total: 1 });
+            }
+          : undefined,
+        poll: first ? () => this._early && ctx.pump?.() : undefined,
       });
-      ctx.progress({ stage: 'save', done: 0, total: 1 });
+      progress({ stage: 'save', done: 0, total: 1 });
       // An index that cannot be saved (read-only storage, a folder or FIFO at its path) is still used.
       this._saveProblem = await trySaveIndex(config.indexFile, built.index);
       this.use(built.index);
@@ -411,6 +462,7 @@ export class IndexService {
       };
     } finally {
       this._duringBuild = undefined;
+      this._early = undefined;
     }
   }
 
@@ -487,7 +539,8 @@ export class IndexService {
   private use(index: LsiIndex | undefined): void {
     this._preparing?.controller.abort();
     this._preparing = undefined;
-    if (index !== this._index) this._insights.stopTopics();
+    // What was computed for the index going away (topic tree, overlaps, map) is dropped with it.
+    if (index !== this._index) this._insights.forget();
     this._index = index;
     if (!index) return;
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
@@ -496,7 +549,7 @@ export class IndexService {
       controller,
       done: done
         .then((ready) => {
-          // Then the topic tree, so the Topics view and the map open without waiting for it.
+          // Then, when asked to, the topic tree, so the Topics view and the map open without waiting for it.
           if (ready && this._options.prepareTopics && this._index === index && !controller.signal.aborted) this._insights.prepareTopics();
           return ready;
         })
@@ -519,6 +572,8 @@ export class IndexService {
   }
 
   private requireIndex(): LsiIndex {
+    if (!this._index && this._early)
+      throw new NoIndexError('The index is still being built: only search by words is ready; this waits for the concept model.');
     if (!this._index) throw new NoIndexError('There is no index yet: build it first.');
     return this._index;
   }

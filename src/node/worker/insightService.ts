@@ -30,6 +30,10 @@ class Memo<T> {
     return this._entry?.key === key;
   }
 
+  clear(): void {
+    this._entry = undefined;
+  }
+
   get(key: string, start: () => Promise<T>): Promise<T> {
     if (this._entry?.key === key) return this._entry.run;
     const entry = { key, run: start() };
@@ -113,7 +117,7 @@ export class InsightService {
 
   /**
    * Starts the topic tree of the index in use in the background (after a build or a load, once the
-   * searches are prepared), so the Topics view and the map open without waiting. Never rejects.
+   * searches are prepared, when IndexServiceOptions.prepareTopics asks for it). Never rejects.
    */
   prepareTopics(): void {
     try {
@@ -131,6 +135,18 @@ export class InsightService {
   /** Stops a topic tree being computed (the index is going away). */
   stopTopics(): void {
     this._topicsStop?.abort();
+  }
+
+  /**
+   * Stops a topic tree being computed and drops every kept result (the index in use is being
+   * replaced), so nothing computed for the old index stays resident until the next request.
+   */
+  forget(): void {
+    this.stopTopics();
+    this._topics.clear();
+    this._lookalikes.clear();
+    this._map.clear();
+    this._latestMap = undefined;
   }
 
   async mapData(): Promise<MapDataResult> {

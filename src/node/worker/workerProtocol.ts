@@ -60,6 +60,8 @@ export interface SearchMatch extends ScoredFile {
   readonly highlights?: readonly (readonly [number, number])[];
   /** The file's section that best matches the query, when the index has its sections. */
   readonly section?: SectionPlace;
+  /** Ranked by the query's words alone (BM25): the first index is still being built (wordMatchIndex.ts). */
+  readonly wordMatchOnly?: true;
 }
 
 /** A section of a file (src/core/sections): zero-based first line, the line after its last, its title. */
@@ -89,6 +91,8 @@ export interface Progress {
   readonly stage: BuildStage;
   readonly done: number;
   readonly total: number;
+  /** During a first build, once counting has ended: files that search can already rank by word match. */
+  readonly wordMatch?: number;
 }
 
 export type FileChangeKind = 'changed' | 'created' | 'deleted';

@@ -6,7 +6,7 @@
  */
 import { resolveSettings } from '../../core/index/model/settings.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
-import { runIndexPipeline, tallySkipped, type SkipCounts, type SourceFile } from '../indexPipeline.js';
+import { runIndexPipeline, tallySkipped, type PipelineOptions, type SkipCounts, type SourceFile } from '../indexPipeline.js';
 import { scanFolder } from '../scan.js';
 import type { Progress, WorkerConfig } from './workerProtocol.js';
 import type { RootMap } from './rootMap.js';
@@ -66,6 +66,10 @@ export interface WorkspaceBuildOptions {
   readonly onProgress?: (p: Progress) => void;
   /** Threads for tokenizing and the SVD, the worker's own included (false: none). @default all cores */
   readonly threads?: number | false;
+  /** Every file's raw counts once counting has ended (indexPipeline.ts, onCounted). */
+  readonly onCounted?: PipelineOptions['onCounted'];
+  /** Called wherever cancellation is checked, the synchronous SVD included (indexPipeline.ts, poll). */
+  readonly poll?: () => void;
 }
 
 export async function buildWorkspaceIndex(
@@ -84,6 +88,8 @@ export async function buildWorkspaceIndex(
     isCancelled: options.isCancelled,
     onProgress: options.onProgress,
     threads: threads === false ? false : threads === undefined ? {} : { threads },
+    onCounted: options.onCounted,
+    poll: options.poll,
   });
   const s = result.skipped;
   const seconds = Object.values(result.seconds).reduce((a, b) => a + b, 0);

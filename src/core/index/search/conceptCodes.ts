@@ -104,6 +104,39 @@ export class ConceptCodes {
     codeRows(rows, this.k, from, to, this._codes, this._scales, this._errors);
   }
 
+  /** setRows for `count` rows of a block whose row 0 goes to `slot` (rows [slot, slot + count)). */
+  setRowsAt(slot: number, rows: Float32Array, count: number): void {
+    const k = this.k;
+    codeRows(rows, k, 0, count, this._codes.subarray(slot * k), this._scales.subarray(slot), this._errors.subarray(slot));
+    this._filled = Math.max(this._filled, slot + count);
+  }
+
+  /**
+   * bounds() for the rows of the runs [from_r, to_r), r < runs, only: entries outside them are left
+   * as they were. Views (row-indexed) reused by the next call.
+   */
+  boundsRuns(q: ArrayLike<number>, from: Int32Array, to: Int32Array, runs: number): { center: Float64Array; radius: Float64Array } {
+    const k = this.k;
+    let l1 = 0;
+    let l2 = 0;
+    for (let c = 0; c < k; c++) {
+      this._query[c] = q[c];
+      l1 += Math.abs(q[c]);
+      l2 += q[c] * q[c];
+    }
+    const norm2 = Math.sqrt(l2) * (1 + SLACK);
+    const rounding = ((k * U32) / (1 - k * U32)) * 127 * l1 * (1 + SLACK);
+    for (let r = 0; r < runs; r++) {
+      this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, k, from[r], to[r], this._sums.byteOffset);
+      for (let j = from[r]; j < to[r]; j++) {
+        const s = this._scales[j];
+        this._center[j] = s * this._sums[j];
+        this._radius[j] = (this._errors[j] * norm2 + s * rounding) * (1 + SLACK) + 1e-300;
+      }
+    }
+    return { center: this._center, radius: this._radius };
+  }
+
   clearRow(slot: number): void {
     this._codes.fill(0, slot * this.k, (slot + 1) * this.k);
     this._scales[slot] = 0;

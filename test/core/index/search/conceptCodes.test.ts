@@ -77,6 +77,30 @@ describe('ConceptCodes', () => {
     }
   });
 
+  it('codes blocks placed at a slot with setRowsAt and bounds runs of rows with boundsRuns as bounds does', () => {
+    const k = 45;
+    const n = 200;
+    const rows = unitRows(n, k, 11);
+    const ref = ConceptCodes.create(k, n, rows, n)!;
+    const placed = ConceptCodes.empty(k, n)!;
+    placed.setRowsAt(0, rows.subarray(0, 70 * k), 70);
+    placed.setRowsAt(70, rows.subarray(70 * k), n - 70);
+    expect(placed.filled).toBe(n);
+    const q = rows.subarray(5 * k, 6 * k);
+    const want = ref.bounds(q, n);
+    const [c0, r0] = [want.center.slice(), want.radius.slice()];
+    const got = placed.boundsRuns(q, Int32Array.of(3, 90, 150), Int32Array.of(40, 91, 200), 3);
+    for (const [from, to] of [
+      [3, 40],
+      [90, 91],
+      [150, 200],
+    ])
+      for (let j = from; j < to; j++) {
+        expect(got.center[j]).toBe(c0[j]);
+        expect(got.radius[j]).toBe(r0[j]);
+      }
+  });
+
   it('rounds every value a code can take as Math.round does: halves, their neighbours, and random values', () => {
     // Reference: the engine's Math.round (ECMAScript: the integer nearest x, halves toward +∞).
     const bits = new Float64Array(1);
