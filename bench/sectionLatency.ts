@@ -3,7 +3,8 @@
  * what the editor's worker pays per request). Usage:
  *   npx esbuild bench/sectionLatency.ts --bundle --platform=node --format=esm --outfile=dist/sectionLatency.mjs \
  *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
- *   node dist/sectionLatency.mjs <index file> [queries] [--exact]
+ *   node dist/sectionLatency.mjs <index file> [queries] [--exact] [--cold]
+ * FOCUS=p in the environment sets the search's query-word focus power (termFocus.ts; 0 = off).
  * --exact ranks by the full pass (SectionStore.rankExact, the reference of the 8-bit screen and of
  * the probed lists that replace it from SECTION_LISTS_FROM sections on; recall: bench/sectionLists.ts).
  * Queries: the first words of sections' titles picked evenly over the index (seeded), so the run
@@ -17,7 +18,7 @@ import { loadIndex } from '../src/node/persist.js';
 import { nearbySections, searchSections } from '../src/core/sections/sectionSearch.js';
 import { SECTION_LISTS_FROM } from '../src/core/sections/sectionStore.js';
 
-const args = process.argv.slice(2).filter((a) => a !== '--exact');
+const args = process.argv.slice(2).filter((a) => a !== '--exact' && a !== '--cold');
 const exact = process.argv.includes('--exact');
 const [file, count = '50'] = args;
 if (!file) {
@@ -30,6 +31,7 @@ if (got.status !== 'ok') {
   process.exit(1);
 }
 const index = got.index;
+if (process.env.FOCUS !== undefined) index.ranking = { ...index.ranking, termFocus: Number(process.env.FOCUS) };
 if (exact) index.sections.rank = index.sections.rankExact.bind(index.sections);
 let products = 0;
 const files = [...index.sections.entries()];
@@ -48,6 +50,14 @@ const cpuMs = (from: NodeJS.CpuUsage): number => {
   const d = process.cpuUsage(from);
   return (d.user + d.system) / 1000;
 };
+// What the editor's worker prepares in the background after a load (the word-match postings and
+// the 8-bit file screen; src/node/worker/backgroundPrepare.ts), timed on its own; --cold skips it.
+if (!process.argv.includes('--cold')) {
+  const t = performance.now();
+  const c = process.cpuUsage();
+  await index.prepare();
+  console.log(`prepare (as the worker does after loading): ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`);
+}
 // The first request builds the screen (or trains and files the lists, from SECTION_LISTS_FROM
 // sections on): timed on its own, outside the quantiles.
 {
