@@ -240,7 +240,7 @@ function unique(a: number[]): number[] {
 }
 
 /** Inserts x into a descending array of fixed length, dropping its last entry. */
-function insertDescending(a: Float64Array, x: number): void {
+export function insertDescending(a: Float64Array, x: number): void {
   let i = a.length - 1;
   while (i > 0 && a[i - 1] < x) {
     a[i] = a[i - 1];

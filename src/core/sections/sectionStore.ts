@@ -17,7 +17,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
-import { ListedSections } from './listedSections.js';
+import { insertDescending, ListedSections } from './listedSections.js';
 import { SectionLists, type SectionListsOptions } from './sectionLists.js';
 import type { FileSections } from './sectionVectors.js';
 
@@ -356,14 +356,4 @@ function dot(block: Float32Array, at: number, q: Float32Array, k: number): numbe
   let s = 0;
   for (let c = 0; c < k; c++) s += block[at + c] * q[c];
   return s;
-}
-
-/** Inserts x into a descending array of fixed length, dropping its last entry. */
-function insertDescending(a: Float64Array, x: number): void {
-  let i = a.length - 1;
-  while (i > 0 && a[i - 1] < x) {
-    a[i] = a[i - 1];
-    i--;
-  }
-  a[i] = x;
 }

@@ -1,15 +1,13 @@
-import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_TOKENIZE_OPTIONS, splitIdentifier, tokenize } from '../../../src/core/text/tokenize.js';
 import { asciiParts, asciiWordTokens, isAsciiWord } from '../../../src/core/text/asciiWord.js';
 import { MAX_DIGIT_RUN, MAX_TOKEN_LENGTH, MIN_HEXISH_LENGTH } from '../../../src/core/text/tokenRules.js';
 import { createRandom } from '../../../src/core/random.js';
-import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
+import { loadRankingFixture } from '../../helpers/rankingChecks.js';
+import { loadCollection } from '../../helpers/shared.js';
 
 // Reference: tokenize() itself (the regular-expression tokenizer this path must equal), on
-// edge cases, generated identifiers, the words of the test collections, and, when present, the
-// words of the kernel Documentation folder that scripts/bench-setup.sh unpacks.
+// edge cases, generated identifiers, the words of the test collections and of two real code bases.
 // Every combination of the two options.
 const OPTION_SETS = [
   DEFAULT_TOKENIZE_OPTIONS,
@@ -143,26 +141,15 @@ describe('asciiWordTokens', () => {
     expect(n).toBeGreaterThan(10000);
   });
 
-  const docs = join(REPO_ROOT, '.cache', 'bench', 'linux-source-6.1', 'Documentation', 'core-api');
-  const present = isFolder(docs);
-  it.skipIf(!present)(
-    `equals tokenize() on the words of the kernel's Documentation/core-api ${present ? '' : '(skipped: run scripts/bench-setup.sh)'}`,
-    () => {
+  // Real code identifiers: the rxjs 7.8.2 and lodash 4.18.1 sources (npm, Apache-2.0 and MIT;
+  // test/fixtures/rxjs-src and lodash-src, provenance in their READMEs).
+  it('equals tokenize() on every ASCII word of two real code bases (rxjs and lodash sources)', () => {
+    let n = 0;
+    for (const name of ['rxjs-src', 'lodash-src']) {
       const words = new Set<string>();
-      for (const f of readdirSync(docs, { recursive: true }) as string[]) {
-        const p = join(docs, f);
-        if (!statSync(p).isFile()) continue;
-        for (const m of readFileSync(p, 'utf8').matchAll(/[A-Za-z0-9_$]+/g)) words.add(m[0]);
-      }
-      expect(check(words)).toBeGreaterThan(1000);
-    },
-  );
+      for (const d of loadRankingFixture(name).docs) for (const m of d.text.matchAll(/[A-Za-z0-9_$]+/g)) words.add(m[0]);
+      n += check(words);
+    }
+    expect(n).toBeGreaterThan(3000);
+  });
 });
-
-function isFolder(p: string): boolean {
-  try {
-    return statSync(p).isDirectory();
-  } catch {
-    return false;
-  }
-}

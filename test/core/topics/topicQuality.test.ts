@@ -29,13 +29,11 @@ import { join } from 'node:path';
 import { gunzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { CsrMatrix } from '../../../src/core/matrix/sparse.js';
 import { npmiCoherence } from '../../../src/core/topics/coherence.js';
-import { weightedMatrix } from '../../../src/core/topics/indexMatrix.js';
-import { isUnnameable } from '../../../src/core/topics/topicNames.js';
 import { findTopics, topicsAtLevel, type Topic } from '../../../src/core/topics/topics.js';
 import { fixturePath, REPO_ROOT } from '../../helpers/shared.js';
+import { indexOf, modelCounts } from '../../helpers/topicTrees.js';
 
 const PYTHON = '/usr/bin/python3';
 const sklearnReady = spawnSync(PYTHON, ['-c', 'import sklearn'], { stdio: 'ignore' }).status === 0;
@@ -54,38 +52,6 @@ function loadTree(name: string): Doc[] {
     .split('\n')
     .filter((l) => l.trim())
     .map((l) => JSON.parse(l) as Doc);
-}
-
-function indexOf(docs: readonly Doc[]): LsiIndex {
-  const b = new IndexBuilder();
-  for (const d of docs) b.addText({ path: d.path, size: d.text.length, mtimeMs: 0 }, d.text);
-  return b.build();
-}
-
-/** Raw counts over the model's columns, rows in weightedMatrix's order (for NMF's TF-IDF). */
-function modelCounts(index: LsiIndex) {
-  const im = weightedMatrix(index);
-  const model = index.model;
-  const indptr = [0];
-  const indices: number[] = [];
-  const data: number[] = [];
-  const slots = index.slots();
-  for (const s of im.slots) {
-    const t = slots[s]!.terms;
-    const row: [number, number][] = [];
-    t.termIds.forEach((id, j) => {
-      const col = id < model.columnOf.length ? model.columnOf[id] : -1;
-      if (col >= 0) row.push([col, t.counts[j]]);
-    });
-    row.sort((x, y) => x[0] - y[0]);
-    for (const [c, v] of row) {
-      indices.push(c);
-      data.push(v);
-    }
-    indptr.push(indices.length);
-  }
-  const nameable = Array.from(model.keptIds, (id) => !isUnnameable(index.vocab.termOf(id)));
-  return { im, counts: { rows: im.paths.length, cols: model.keptIds.length, indptr, indices, data }, nameable };
 }
 
 function sklearn(query: object): {
