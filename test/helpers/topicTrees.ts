@@ -6,6 +6,8 @@
  */
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
+import type { CsrMatrix } from '../../src/core/matrix/sparse.js';
+import { npmiCoherence } from '../../src/core/topics/coherence.js';
 import { weightedMatrix } from '../../src/core/topics/indexMatrix.js';
 import { isUnnameable } from '../../src/core/topics/topicNames.js';
 
@@ -45,4 +47,34 @@ export function modelCounts(index: LsiIndex) {
   }
   const nameable = Array.from(model.keptIds, (id) => !isUnnameable(index.vocab.termOf(id)));
   return { im, counts: { rows: im.paths.length, cols: model.keptIds.length, indptr, indices, data }, nameable };
+}
+
+/**
+ * NPMI of term sets (term strings) over documents the sets were not chosen on: a boolean file ×
+ * term matrix of the given index's files, its columns the distinct terms of the sets.
+ */
+export function heldOutNpmi(scoring: LsiIndex, termSets: readonly (readonly string[])[]): number[] {
+  const colOf = new Map<string, number>();
+  for (const set of termSets) for (const t of set) if (!colOf.has(t)) colOf.set(t, colOf.size);
+  const indptr = [0];
+  const indices: number[] = [];
+  for (const slot of scoring.slots()) {
+    if (!slot) continue;
+    const cols = [...new Set(Array.from(slot.terms.termIds, (id) => colOf.get(scoring.vocab.termOf(id)) ?? -1))]
+      .filter((c) => c >= 0)
+      .sort((a, b) => a - b);
+    indices.push(...cols);
+    indptr.push(indices.length);
+  }
+  const matrix: CsrMatrix = {
+    rows: indptr.length - 1,
+    cols: colOf.size,
+    indptr: Int32Array.from(indptr),
+    indices: Int32Array.from(indices),
+    values: new Float64Array(indices.length).fill(1),
+  };
+  return npmiCoherence(
+    matrix,
+    termSets.map((set) => set.map((t) => colOf.get(t)!)),
+  );
 }

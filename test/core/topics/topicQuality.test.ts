@@ -28,12 +28,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { gunzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
-import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import type { CsrMatrix } from '../../../src/core/matrix/sparse.js';
 import { npmiCoherence } from '../../../src/core/topics/coherence.js';
 import { findTopics, topicsAtLevel, type Topic } from '../../../src/core/topics/topics.js';
 import { fixturePath, REPO_ROOT } from '../../helpers/shared.js';
-import { indexOf, modelCounts } from '../../helpers/topicTrees.js';
+import { heldOutNpmi, indexOf, modelCounts } from '../../helpers/topicTrees.js';
 
 const PYTHON = '/usr/bin/python3';
 const sklearnReady = spawnSync(PYTHON, ['-c', 'import sklearn'], { stdio: 'ignore' }).status === 0;
@@ -69,36 +67,6 @@ function sklearn(query: object): {
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
-}
-
-/**
- * NPMI of term sets (term strings) over documents the sets were not chosen on: a boolean file ×
- * term matrix of the given index's files, its columns the distinct terms of the sets.
- */
-function heldOutNpmi(scoring: LsiIndex, termSets: readonly (readonly string[])[]): number[] {
-  const colOf = new Map<string, number>();
-  for (const set of termSets) for (const t of set) if (!colOf.has(t)) colOf.set(t, colOf.size);
-  const indptr = [0];
-  const indices: number[] = [];
-  for (const slot of scoring.slots()) {
-    if (!slot) continue;
-    const cols = [...new Set(Array.from(slot.terms.termIds, (id) => colOf.get(scoring.vocab.termOf(id)) ?? -1))]
-      .filter((c) => c >= 0)
-      .sort((a, b) => a - b);
-    indices.push(...cols);
-    indptr.push(indices.length);
-  }
-  const matrix: CsrMatrix = {
-    rows: indptr.length - 1,
-    cols: colOf.size,
-    indptr: Int32Array.from(indptr),
-    indices: Int32Array.from(indices),
-    values: new Float64Array(indices.length).fill(1),
-  };
-  return npmiCoherence(
-    matrix,
-    termSets.map((set) => set.map((t) => colOf.get(t)!)),
-  );
 }
 
 const mean = (xs: readonly number[]) => {
