@@ -116,6 +116,25 @@ export class ConceptCodes {
    * as they were. Views (row-indexed) reused by the next call.
    */
   boundsRuns(q: ArrayLike<number>, from: Int32Array, to: Int32Array, runs: number): { center: Float64Array; radius: Float64Array } {
+    const { norm2, rounding } = this.loadQuery(q);
+    for (let r = 0; r < runs; r++) {
+      const [a, b] = [from[r], to[r]];
+      this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, this.k, a, b, this._sums.byteOffset);
+      boundRows(
+        this._sums.subarray(a, b),
+        this._scales.subarray(a, b),
+        this._errors.subarray(a, b),
+        norm2,
+        rounding,
+        this._center.subarray(a, b),
+        this._radius.subarray(a, b),
+      );
+    }
+    return { center: this._center, radius: this._radius };
+  }
+
+  /** Copies q into the kernel's memory; the query's terms of every row's bound. */
+  private loadQuery(q: ArrayLike<number>): { norm2: number; rounding: number } {
     const k = this.k;
     let l1 = 0;
     let l2 = 0;
@@ -124,17 +143,7 @@ export class ConceptCodes {
       l1 += Math.abs(q[c]);
       l2 += q[c] * q[c];
     }
-    const norm2 = Math.sqrt(l2) * (1 + SLACK);
-    const rounding = ((k * U32) / (1 - k * U32)) * 127 * l1 * (1 + SLACK);
-    for (let r = 0; r < runs; r++) {
-      this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, k, from[r], to[r], this._sums.byteOffset);
-      for (let j = from[r]; j < to[r]; j++) {
-        const s = this._scales[j];
-        this._center[j] = s * this._sums[j];
-        this._radius[j] = (this._errors[j] * norm2 + s * rounding) * (1 + SLACK) + 1e-300;
-      }
-    }
-    return { center: this._center, radius: this._radius };
+    return { norm2: Math.sqrt(l2) * (1 + SLACK), rounding: ((k * U32) / (1 - k * U32)) * 127 * l1 * (1 + SLACK) };
   }
 
   clearRow(slot: number): void {
@@ -181,17 +190,8 @@ export class ConceptCodes {
    * next call.
    */
   bounds(q: ArrayLike<number>, n: number): { center: Float64Array; radius: Float64Array } {
-    const k = this.k;
-    let l1 = 0;
-    let l2 = 0;
-    for (let c = 0; c < k; c++) {
-      this._query[c] = q[c];
-      l1 += Math.abs(q[c]);
-      l2 += q[c] * q[c];
-    }
-    this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, k, 0, n, this._sums.byteOffset);
-    const norm2 = Math.sqrt(l2) * (1 + SLACK);
-    const rounding = ((k * U32) / (1 - k * U32)) * 127 * l1 * (1 + SLACK);
+    const { norm2, rounding } = this.loadQuery(q);
+    this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, this.k, 0, n, this._sums.byteOffset);
     const center = this._center.subarray(0, n);
     const radius = this._radius.subarray(0, n);
     boundRows(this._sums, this._scales, this._errors, norm2, rounding, center, radius);
