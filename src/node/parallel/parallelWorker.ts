@@ -63,9 +63,10 @@ port.on('message', (msg: ToWorker) => {
     return;
   }
   if (msg.type === 'finish-counts') {
-    const reply = finishCounts(msg.translate);
-    const buffers = [reply.termIds, reply.counts, reply.sectionTermIds, reply.sectionCounts].map((a) => a.buffer as ArrayBuffer);
-    port.postMessage(reply, buffers);
+    // Copied, not transferred: the copies are made on the receiving thread, whose index keeps the
+    // files' counts, so nothing of this thread's malloc arena stays in use once it ends (a
+    // transferred buffer would, and with it the arena's freed memory around it).
+    port.postMessage(finishCounts(msg.translate));
     return;
   }
   try {
