@@ -30,6 +30,9 @@ describe('resolveLookalikeOptions', () => {
     [{ retoldMinWords: 1.5 }, /retoldMinWords/],
     [{ retoldNameMinWords: 2.5 }, /retoldNameMinWords/],
     [{ retoldNamesDecide: 'yes' as unknown as boolean }, /retoldNamesDecide/],
+    [{ retoldMinEvidence: -0.5 }, /retoldMinEvidence/],
+    [{ retoldEvidenceMinCosine: 0 }, /retoldEvidenceMinCosine/],
+    [{ retoldEvidenceMinWords: 10.5 }, /retoldEvidenceMinWords/],
   ])('rejects %j with a clear message', (bad, message) => {
     expect(() => resolveLookalikeOptions(bad)).toThrow(InvalidInputError);
     expect(() => resolveLookalikeOptions(bad)).toThrow(message);
