@@ -196,6 +196,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     minWords: o.retoldMinWords,
     namesDecide: o.retoldNamesDecide,
     minEvidence: o.retoldMinEvidence,
+    minEvidenceFewNames: o.retoldFewNamesMinEvidence,
     minEvidenceCosine: o.retoldEvidenceMinCosine,
     minEvidenceWords: o.retoldEvidenceMinWords,
   };

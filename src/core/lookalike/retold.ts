@@ -24,8 +24,9 @@
  *       (a property and the variable that sets its default) names the same thing without
  *       telling it.
  *    c. (both files hold rare names) margin and name share add up to at least minEvidence, with
- *       at least minSharedNames names in common, the shorter file at least minEvidenceWords
- *       words and a cosine of at least minEvidenceCosine — and a second view agrees: under
+ *       at least minSharedNames names in common (at least minEvidenceFewNames with one or two
+ *       fewer, down to 1), the shorter file at least minEvidenceWords words and a cosine of at
+ *       least minEvidenceCosine — and a second view agrees: under
  *       another weighting of the same counts (RetoldInput.secondView; findLookalikes uses BM25,
  *       bm25View.ts) the two are still each other's nearest among their term-space neighbours. A pair just short of
  *       clause b's name share or length but standing clear of its neighbourhood tells the same
@@ -54,6 +55,8 @@ export interface RetoldParams {
   readonly namesDecide?: boolean;
   /** Clause c (needs RetoldInput.names and secondView): least margin + name share; absent = off. */
   readonly minEvidence?: number;
+  /** Clause c when the pair shares at least 1 but fewer than minSharedNames rare names; absent = those pairs are left out. */
+  readonly minEvidenceFewNames?: number;
   /** Clause c: least cosine (may be below minCosine) and least words of the shorter file. */
   readonly minEvidenceCosine?: number;
   readonly minEvidenceWords?: number;
@@ -124,8 +127,8 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
       evidenceOn &&
       bothNamed &&
       c >= (params.minEvidenceCosine ?? params.minCosine) &&
-      gap + names.share >= (params.minEvidence ?? Infinity) &&
-      names.shared >= (params.minSharedNames ?? 1) &&
+      names.shared >= 1 &&
+      gap + names.share >= ((names.shared >= (params.minSharedNames ?? 1) ? params.minEvidence : params.minEvidenceFewNames) ?? Infinity) &&
       shorter >= (params.minEvidenceWords ?? 0) &&
       input.secondView!(i, d);
     if (!byGap && !byNames && !byBoth) continue;

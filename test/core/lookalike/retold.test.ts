@@ -229,6 +229,17 @@ describe('findRetoldPairs, clause c: margin and name share together, when a seco
     expect(findRetoldPairs({ ...input, names: () => ({ shared: 2, share: 0.9, own: [2, 2] as const }) }, params)).toEqual([]);
     expect(findRetoldPairs({ ...input, names: () => ({ shared: 0, share: 0, own: [0, 5] as const }) }, params)).toEqual([]);
   });
+  it('holds pairs sharing fewer than minSharedNames names to minEvidenceFewNames, and leaves them out without it', () => {
+    const two = () => ({ shared: 2, share: 1, own: [2, 2] as const });
+    const input = { ...close, names: two, secondView: agrees }; // margin 0.2 + share 1 = 1.2
+    expect(findRetoldPairs(input, params)).toEqual([]);
+    expect(findRetoldPairs(input, { ...params, minEvidenceFewNames: 1.25 })).toEqual([]);
+    const pairs = findRetoldPairs(input, { ...params, minEvidenceFewNames: 1.2 });
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ clause: 'combined', sharedNames: 2 });
+    const none = () => ({ shared: 0, share: 0, own: [2, 2] as const });
+    expect(findRetoldPairs({ ...input, names: none }, { ...params, minEvidenceFewNames: 0 })).toEqual([]);
+  });
   it('asks the second view only about pairs the other clauses refuse', () => {
     const asked: [number, number][] = [];
     const spy = (a: number, b: number) => (asked.push([a, b]), false);
