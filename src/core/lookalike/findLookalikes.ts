@@ -14,7 +14,8 @@
  *    in stats.skippedShort and skipped.
  * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
  *    file's other neighbours when a file names nothing rare, else holding the same rare names
- *    (rareNames.ts) when neither is a stub; little shared text).
+ *    (rareNames.ts) when neither is a stub, or with margin and name share together high enough
+ *    when a BM25 view of the same counts agrees (bm25View.ts); little shared text).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */
