@@ -12,7 +12,8 @@
  *    way), and whether the pair is mutual nearest there too, with its margin;
  * 3. a per-file null of name overlaps: the best rare-name share each file reaches with its other
  *    term-space neighbours (its siblings of the same area), and the pair's share above it;
- * 4. section view: files cut at blank lines into blocks of ≥ 40 tokens; the share of each file's
+ * 4. section view: files cut at blank lines (and at a line end after 80 tokens) into blocks of
+ *    ≥ 40 tokens; the share of each file's
  *    words in blocks whose best partner block (TF-IDF cosine) lies in the other file of the pair
  *    rather than in any of the file's other 5 neighbours.
  * Folders: test/fixtures/lookalike-retellings (125 retellings, two sources), the same without the
@@ -162,11 +163,27 @@ function bm25Space(rows: readonly TermCountRow[], like: TermSpace): TermSpace {
   return { ...like, weights };
 }
 
-/** Blocks of ≥ 40 tokens cut at blank lines, as tokens. */
+/** Blocks of ≥ 40 tokens cut at blank lines, or at a line end once a block reaches 80 tokens (pages without blank lines). */
 function blocks(text: string): string[][] {
   const out: string[][] = [];
   let cur: string[] = [];
-  for (const b of text.split(/\n\s*\n/)) {
+  const pieces = text.split(/\n\s*\n/).flatMap((b) => {
+    const lines: string[] = [];
+    let acc = '';
+    let n = 0;
+    for (const l of b.split('\n')) {
+      acc += l + '\n';
+      n += tokenize(l).length;
+      if (n >= 80) {
+        lines.push(acc);
+        acc = '';
+        n = 0;
+      }
+    }
+    if (acc) lines.push(acc);
+    return lines;
+  });
+  for (const b of pieces) {
     cur = cur.concat(tokenize(b));
     if (cur.length >= 40) {
       out.push(cur);
