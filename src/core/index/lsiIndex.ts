@@ -23,7 +23,6 @@ import {
   DEFAULT_RANKING_OPTIONS,
   QUESTION_FILLER,
   distinctiveTerms,
-  reciprocalRankInto,
   mergeTerms,
   rocchio,
   SPREAD_SAMPLE,
@@ -242,7 +241,6 @@ export class LsiIndex {
       options.top ?? 10,
       accept,
       this._scratch.subarray(this._slots.length, 2 * this._slots.length),
-      this.ranking.rankFusion,
     );
     return ranked.map(({ slot, score }) => ({
       path: this._slots[slot]!.meta.path,
@@ -275,13 +273,8 @@ export class LsiIndex {
     let lambda = this.settings.lexicalBlend;
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
-      if (r.lexicalBound) divideBy(lexical, this.bm25().queryBound(lexQuery));
-      else divideByMax(lexical);
+      divideByMax(lexical);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
-      if (r.residualBlend > 0 && proj.knownTerms > 0) {
-        const outside = r.residualBlend === 1 ? proj.residual : 1 - Math.sqrt(Math.max(0, 1 - proj.residual));
-        lambda += (1 - lambda) * outside;
-      }
     }
     const marked = new Set([...liked, ...unliked]);
     const live = this.acceptor(options.filter);
@@ -292,7 +285,7 @@ export class LsiIndex {
     const base = lambda;
     if (known && r.spreadBlend && lambda > 0) lambda = this.spreadLambda(base, vector, lexical);
     if (known && r.feedbackDocs > 0 && r.feedbackWeight > 0) {
-      const first = this.rank(vector, 1 - lambda, lambda, lexical, r.feedbackDocs, accept, this._scratch.subarray(n, 2 * n), r.rankFusion);
+      const first = this.rank(vector, 1 - lambda, lambda, lexical, r.feedbackDocs, accept, this._scratch.subarray(n, 2 * n));
       const moved = rocchio(vector, [{ weight: r.feedbackWeight, vectors: first.ranked.map(({ slot }) => this.slotVector(slot)) }]);
       if (moved) [vector, scale] = [moved.vector, scale * moved.scale];
     }
@@ -319,14 +312,15 @@ export class LsiIndex {
     const n = this._slots.length;
     const mu = this.ranking.nearbyLexical;
     const { lexical } = this.nearbyPlan(path);
-    let vector = this.vectorOf(path);
-    const { nearbyFeedbackDocs: fd, nearbyFeedbackWeight: fw } = this.ranking;
-    if (fd > 0 && fw > 0) {
-      const first = this.rank(vector, 1 - mu, mu, lexical, fd, accept, this._scratch.subarray(n, 2 * n));
-      const moved = rocchio(vector, [{ weight: fw, vectors: first.ranked.map(({ slot }) => this.slotVector(slot)) }]);
-      if (moved) vector = moved.vector;
-    }
-    const { ranked, product } = this.rank(vector, 1 - mu, mu, lexical, options.top ?? 10, accept, this._scratch.subarray(n, 2 * n));
+    const { ranked, product } = this.rank(
+      this.vectorOf(path),
+      1 - mu,
+      mu,
+      lexical,
+      options.top ?? 10,
+      accept,
+      this._scratch.subarray(n, 2 * n),
+    );
     return ranked.map(({ slot, score }) => ({
       path: this._slots[slot]!.meta.path,
       score,
@@ -418,7 +412,6 @@ export class LsiIndex {
   /** A file's lexical query: its most distinctive terms with their counts, times `weight`. */
   private fileQuery(slot: number, weight: number): DocTerms {
     const terms = distinctiveTerms(this._slots[slot]!.terms, this.ranking.nearbyTerms, (t) => this.bm25().idf(t));
-    if (this.ranking.fileQueryLog) for (let i = 0; i < terms.counts.length; i++) terms.counts[i] = 1 + Math.log(terms.counts[i]);
     if (weight !== 1) for (let i = 0; i < terms.counts.length; i++) terms.counts[i] *= weight;
     return terms;
   }
@@ -430,8 +423,6 @@ export class LsiIndex {
   /**
    * Top N of a·(v_j·q) + b·lexical_j over accepted slots: screened with the 8-bit codes when they
    * are ready (the same ranking and scores as a full pass), else a full pass into `scratch`.
-   * With byRank (RankingOptions.rankFusion) and both parts present, a full pass fusing the two
-   * parts' ranks instead (fusion.ts reciprocalRankInto).
    */
   private rank(
     q: Float32Array,
@@ -441,13 +432,7 @@ export class LsiIndex {
     top: number,
     accept: (slot: number) => boolean,
     scratch: Float64Array,
-    byRank = false,
   ): { ranked: { slot: number; score: number }[]; product: (slot: number) => number } {
-    if (byRank && a > 0 && b > 0) {
-      const concept = this.liveDots(q);
-      reciprocalRankInto(a, concept, b, lexical, accept, scratch);
-      return { ranked: topN(scratch, top, accept), product: (slot) => concept[slot] };
-    }
     const codes = this.codes();
     const n = this._slots.length;
     const screened =
@@ -604,11 +589,6 @@ function divideByMax(a: Float64Array): number {
   for (let j = 0; j < a.length; j++) max = Math.max(max, a[j]);
   if (max > 0) for (let j = 0; j < a.length; j++) a[j] /= max;
   return max;
-}
-
-/** a[j] /= d when d is positive. */
-function divideBy(a: Float64Array, d: number): void {
-  if (d > 0) for (let j = 0; j < a.length; j++) a[j] /= d;
 }
 
 /** ‖mean of the occupied slots' rows‖² (0 when none). */

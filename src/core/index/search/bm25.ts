@@ -228,13 +228,6 @@ export class Bm25Scorer {
     for (let q = 0; q < p.side.length; q += 2) fn(p.side[q], p.side[q + 1]);
   }
 
-  /** The most any document can score for the query: (k1 + 1)·Σ idf·count (each term's tf part tends to k1 + 1). */
-  queryBound(query: DocTerms): number {
-    let s = 0;
-    for (let i = 0; i < query.termIds.length; i++) s += this.idf(query.termIds[i]) * query.counts[i];
-    return (this._opts.k1 + 1) * s;
-  }
-
   /** BM25 contribution of one query term to one document (for explanations), b and δ as in scoreInto. */
   termScore(termId: number, queryCount: number, tf: number, slot: number, b: number = this._opts.b, delta = 0): number {
     if (tf <= 0) return 0;

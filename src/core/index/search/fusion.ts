@@ -85,36 +85,6 @@ export interface RankingOptions {
    * which is that feature's call to make (README, "Ranking checks"). @default 0
    */
   nearbyDelta: number;
-  /**
-   * Search: fuse the two parts by their ranks instead of their scores (reciprocal rank fusion,
-   * Cormack, Clarke & Büttcher 2009, "Reciprocal rank fusion outperforms Condorcet and individual
-   * rank learning methods": a file scores Σ w/(K + rank) with K = 60 as they recommend; the parts
-   * weighted 1 − λ and λ; a file without any query word gets nothing from the word match).
-   * Off by default (README, "Ranking checks"). @default false
-   */
-  rankFusion: boolean;
-  /**
-   * Search: raise the lexical share by the part of the query's weighted vector that the concept
-   * space does not hold (the fold-in residual r, conceptModel.ts): 1 → λ + (1 − λ)·r, 2 → with
-   * 1 − √(1 − r) (the length outside rather than its square). 0 = off. @default 0
-   */
-  residualBlend: number;
-  /**
-   * Nearby: pseudo-relevance feedback in the concept space, as search has it (Rocchio 1971): the
-   * file's vector moves towards the mean of its first pass's best `nearbyFeedbackDocs` files by
-   * `nearbyFeedbackWeight`. 0 = off. @default 0
-   */
-  nearbyFeedbackDocs: number;
-  /** @default 0.25 */
-  nearbyFeedbackWeight: number;
-  /**
-   * Search: divide the BM25 scores by the most the query could score (Bm25Scorer.queryBound)
-   * instead of by the best file's score, so the word match weighs by how much of the query the
-   * best files hold. @default false
-   */
-  lexicalBound: boolean;
-  /** A file's lexical query weighs its terms by 1 + ln(tf) instead of tf. @default false */
-  fileQueryLog: boolean;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -131,12 +101,6 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   spreadBlend: false,
   termFocus: 1,
   nearbyDelta: 0,
-  rankFusion: false,
-  residualBlend: 0,
-  nearbyFeedbackDocs: 0,
-  nearbyFeedbackWeight: 0.25,
-  lexicalBound: false,
-  fileQueryLog: false,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
@@ -152,34 +116,6 @@ export function spreadShare(lambda: number, sdConcept: number, sdLexical: number
   if (!(sdConcept > 1e-12) || !(sdLexical > 1e-12) || lambda <= 0 || lambda >= 1) return lambda;
   const l = lambda / sdLexical;
   return l / ((1 - lambda) / sdConcept + l);
-}
-
-/** K of reciprocal rank fusion (Cormack, Clarke & Büttcher 2009 recommend 60). */
-export const RRF_K = 60;
-
-/**
- * out[j] = wa/(K + rank of a[j]) + wb/(K + rank of b[j]) over the slots where live(j), ranks from
- * 1 (higher score first, ties broken by lower slot); a slot with b[j] ≤ 0 takes no part of b, and
- * slots not live score −Infinity. Reciprocal rank fusion (RRF_K).
- */
-export function reciprocalRankInto(
-  wa: number,
-  a: Float64Array,
-  wb: number,
-  b: Float64Array,
-  live: (j: number) => boolean,
-  out: Float64Array,
-): void {
-  const slots: number[] = [];
-  for (let j = 0; j < out.length; j++) {
-    out[j] = Number.NEGATIVE_INFINITY;
-    if (live(j)) slots.push(j);
-  }
-  for (const j of slots) out[j] = 0;
-  const byA = [...slots].sort((x, y) => a[y] - a[x] || x - y);
-  byA.forEach((j, i) => (out[j] += wa / (RRF_K + i + 1)));
-  const byB = slots.filter((j) => b[j] > 0).sort((x, y) => b[y] - b[x] || x - y);
-  byB.forEach((j, i) => (out[j] += wb / (RRF_K + i + 1)));
 }
 
 /** Standard deviation of a[j] over the slots where live(j). */
