@@ -54,6 +54,12 @@ export interface SearchOptions {
   unlike?: readonly string[];
 }
 
+/** Nearby's options: a search's, and the word match's BM25L δ for callers with their own calibration. */
+export interface NearbyOptions extends SearchOptions {
+  /** BM25L's δ of the word match (0 = classic BM25). @default RankingOptions.nearbyDelta */
+  wordMatchDelta?: number;
+}
+
 export interface PrepareOptions {
   /** Milliseconds of work between two pauses (common practice for staying responsive). @default 15 */
   sliceMs: number;
