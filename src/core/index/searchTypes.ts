@@ -39,7 +39,10 @@ export interface NearbyHit {
   readonly score: number;
   /** Cosine similarity of the two files' concept vectors. */
   readonly conceptScore: number;
-  /** BM25L (δ: RankingOptions.nearbyDelta or NearbyOptions.wordMatchDelta) of the file's most distinctive terms, divided by the best other file's (0…1). */
+  /**
+   * BM25L (δ: RankingOptions.nearbyDelta, or NearbyOptions.wordMatchDelta) of the file's most
+   * distinctive terms, divided by the best other file's (0…1).
+   */
   readonly lexicalScore: number;
 }
 
