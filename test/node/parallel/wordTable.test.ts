@@ -1,5 +1,71 @@
+/** WordTable against a Map from the key's string (brute-force reference). */
 import { describe, expect, it } from 'vitest';
-import { grow32, mappedInt32, mappedUint16, WordTable } from '../../../src/node/parallel/wordTable.js';
+import { createRandom } from '../../../src/core/random.js';
+import { FNV_OFFSET, FNV_PRIME, grow32, mappedInt32, mappedUint16, WordTable } from '../../../src/node/parallel/wordTable.js';
+
+function unitsOf(s: string): Uint16Array {
+  return Uint16Array.from(s, (c) => c.charCodeAt(0));
+}
+
+function hashOf(u: Uint16Array, start: number, end: number): number {
+  let h = FNV_OFFSET;
+  for (let i = start; i < end; i++) h = Math.imul(h ^ u[i], FNV_PRIME);
+  return h;
+}
+
+describe('WordTable', () => {
+  it.each([
+    ['the default room', undefined],
+    ['room for one key', 1],
+    ['room for more keys than it gets', 1 << 16],
+  ])('finds every key it holds, with its value, and no other (50 000 random keys, %s)', (_, expected) => {
+    const rnd = createRandom(9);
+    const table = new WordTable(1_000_000, expected);
+    const ref = new Map<string, number>();
+    for (let r = 0; r < 50_000; r++) {
+      let w = '';
+      const len = 1 + Math.floor(rnd.next() * 8);
+      for (let i = 0; i < len; i++) w += 'abcxyzé東'[Math.floor(rnd.next() * 8)];
+      // Look the key up inside a longer text, as the counter does.
+      const text = unitsOf(` ${w} `);
+      const h = hashOf(text, 1, 1 + w.length);
+      const e = table.find(text, 1, 1 + w.length, h);
+      if (ref.has(w)) expect(table.value(e)).toBe(ref.get(w));
+      else {
+        expect(e).toBe(-1);
+        table.insert(text, 1, 1 + w.length, h, r);
+        ref.set(w, r);
+      }
+    }
+    expect(table.size).toBe(ref.size);
+    for (const [w, v] of ref) {
+      const u = unitsOf(w);
+      expect(table.value(table.find(u, 0, u.length, hashOf(u, 0, u.length)))).toBe(v);
+    }
+  });
+
+  it('tells apart keys with the same hash', () => {
+    const table = new WordTable(10);
+    const a = unitsOf('alpha');
+    const b = unitsOf('beta');
+    table.insert(a, 0, a.length, 7, 1);
+    table.insert(b, 0, b.length, 7, 2);
+    expect(table.value(table.find(a, 0, a.length, 7))).toBe(1);
+    expect(table.value(table.find(b, 0, b.length, 7))).toBe(2);
+    expect(table.find(unitsOf('gamma'), 0, 5, 7)).toBe(-1);
+  });
+
+  it('starts empty again once it holds its limit of keys', () => {
+    const table = new WordTable(3);
+    for (const w of ['aa', 'bb', 'cc']) table.insert(unitsOf(w), 0, 2, hashOf(unitsOf(w), 0, 2), 1);
+    expect(table.size).toBe(3);
+    const d = unitsOf('dd');
+    table.insert(d, 0, 2, hashOf(d, 0, 2), 4);
+    expect(table.size).toBe(1);
+    expect(table.find(unitsOf('aa'), 0, 2, hashOf(unitsOf('aa'), 0, 2))).toBe(-1);
+    expect(table.value(table.find(d, 0, 2, hashOf(d, 0, 2)))).toBe(4);
+  });
+});
 
 // The threshold is glibc's: malloc maps a block of its own from M_MMAP_THRESHOLD on, a threshold
 // that adapts up to DEFAULT_MMAP_THRESHOLD_MAX, 32 MiB on 64-bit systems (glibc malloc/malloc.c).
@@ -29,28 +95,5 @@ describe.runIf(process.platform === 'linux')('mappedInt32 / mappedUint16', () =>
     expect(Array.from(a.subarray(0, 1000))).toEqual(Array.from({ length: 1000 }, (_, i) => i * 3));
     expect(a[99_999]).toBe(0);
     expect(a.buffer.byteLength).toBeGreaterThan(GLIBC_MMAP_THRESHOLD_MAX);
-  });
-});
-
-describe('WordTable', () => {
-  it('finds every key after growing past the mapping threshold', () => {
-    const table = new WordTable(1 << 20, 1 << 4);
-    const keys = Array.from({ length: 50_000 }, (_, i) => `w${i.toString(36)}`);
-    const units = (s: string): Uint16Array => Uint16Array.from(s, (c) => c.charCodeAt(0));
-    const hash = (u: Uint16Array): number => {
-      let h = 0x811c9dc5 | 0;
-      for (const c of u) h = Math.imul(h ^ c, 0x01000193);
-      return h;
-    };
-    keys.forEach((k, i) => {
-      const u = units(k);
-      table.insert(u, 0, u.length, hash(u), i);
-    });
-    expect(
-      keys.every((k, i) => {
-        const u = units(k);
-        return table.value(table.find(u, 0, u.length, hash(u))) === i;
-      }),
-    ).toBe(true);
   });
 });
