@@ -12,12 +12,14 @@
  * ARPACK (svds) on our own weighted matrix, exported in Matrix Market format.
  *
  * Options: --k N (default 200), --only demo|docs|tree, --runs N (default 3), --detail,
- * --no-arpack (with --detail).
+ * --no-arpack (with --detail); for the commands side by side, --before <cli.js> also runs another
+ * build of the command line (say, main's dist/cli.js: before and after a change, alternating) and
+ * --no-current leaves out the reference's current configuration.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, resolve } from 'node:path';
 import type { ChildResult } from '../benchChild.js';
 import { CORPORA, flag, honoursGitignore, loadLine, measureInChild, REPO, type CorpusName } from '../benchShared.js';
 
@@ -102,9 +104,10 @@ export async function runCompare(): Promise<void> {
   return runCommandCompare();
 }
 
-/** One process measured by /usr/bin/time -v: wall clock, peak RSS, and the load when it ended. */
+/** One process measured by /usr/bin/time -v: wall clock, CPU (user + system), peak RSS, and the load when it ended. */
 interface Timed {
   wall: number;
+  cpu: number;
   peakRss: number;
   load: number;
   stdout: string;
@@ -116,7 +119,8 @@ function timed(cmd: string, args: string[], env?: NodeJS.ProcessEnv): Timed {
   const wallText = /Elapsed \(wall clock\).*: ([\d:.]+)\s*$/m.exec(r.stderr)?.[1] ?? 'NaN';
   const wall = wallText.split(':').reduce((acc, part) => acc * 60 + Number(part), 0);
   const peakKb = Number(/Maximum resident set size \(kbytes\): (\d+)/.exec(r.stderr)?.[1] ?? NaN);
-  return { wall, peakRss: peakKb * 1024, load: loadavg()[0], stdout: r.stdout };
+  const seconds = (what: string): number => Number(new RegExp(`${what} time \\(seconds\\): ([\\d.]+)`).exec(r.stderr)?.[1] ?? NaN);
+  return { wall, cpu: seconds('User') + seconds('System'), peakRss: peakKb * 1024, load: loadavg()[0], stdout: r.stdout };
 }
 
 interface Side {
@@ -160,23 +164,31 @@ function runCommandCompare(): void {
       const paths = list.stdout.split('\n').filter((p) => p !== '');
       writeFileSync(join(dir, 'paths.txt'), paths.map((p) => join(folder, p)).join('\n') + '\n');
       const refArgs = (extra: string[]): string[] => [REFERENCE, 'pipeline', '--files', join(dir, 'paths.txt'), '--k', String(k), ...extra];
+      const ourArgs = (path: string): string[] => [path, 'index', folder, '--k', String(k), '--rebuild', '--json'];
       const sides: Side[] = [
         { label: `undertone index --k ${k} --rebuild`, runs: [] },
         { label: 'reference, fastest (in memory, letters-first)', runs: [] },
-        { label: 'reference, current (input=filename)', runs: [] },
       ];
       const steps: (() => Timed)[] = [
-        () => timed(process.execPath, [cli, 'index', folder, '--k', String(k), '--rebuild', '--json'], env),
+        () => timed(process.execPath, ourArgs(cli), env),
         () => timed(PYTHON, refArgs(['--in-memory', '--letters-first'])),
-        () => timed(PYTHON, refArgs([])),
       ];
+      if (!process.argv.includes('--no-current')) {
+        sides.push({ label: 'reference, current (input=filename)', runs: [] });
+        steps.push(() => timed(PYTHON, refArgs([])));
+      }
+      const before = flag('before');
+      if (before) {
+        sides.push({ label: 'undertone, before (--before)', runs: [] });
+        steps.push(() => timed(process.execPath, ourArgs(resolve(before)), env));
+      }
       console.log(`\n=== ${name}: ${paths.length} files ===`);
       for (let r = 0; r < runs; r++) {
         steps.forEach((step, i) => {
           const t = step();
           sides[i].runs.push(t);
           console.log(
-            `  run ${r + 1} ${sides[i].label.padEnd(48)} ${sec(t.wall).padStart(7)} s ${mb(t.peakRss).padStart(8)}  load ${t.load.toFixed(2)}`,
+            `  run ${r + 1} ${sides[i].label.padEnd(48)} ${sec(t.wall).padStart(7)} s ${mb(t.peakRss).padStart(8)}  cpu ${sec(t.cpu).padStart(6)} s  load ${t.load.toFixed(2)}`,
           );
         });
       }
@@ -187,12 +199,14 @@ function runCommandCompare(): void {
         seconds: Record<string, number>;
       };
       const fast = JSON.parse(sides[1].runs[0].stdout.trim().split('\n').pop()!) as ReferenceResult;
-      const slow = JSON.parse(sides[2].runs[0].stdout.trim().split('\n').pop()!) as ReferenceResult;
+      const current = sides.findIndex((s) => s.label.startsWith('reference, current'));
+      const slow = current < 0 ? undefined : (JSON.parse(sides[current].runs[0].stdout.trim().split('\n').pop()!) as ReferenceResult);
       console.log(
         `  matrix: Undertone ${ours.terms} terms × ${ours.files} files, ${ours.nonZeros} non-zeros; ` +
-          `fastest reference ${fast.terms} × ${fast.docs}, ${fast.nnz}; current reference ${slow.terms} × ${slow.docs}, ${slow.nnz}`,
+          `fastest reference ${fast.terms} × ${fast.docs}, ${fast.nnz}` +
+          (slow ? `; current reference ${slow.terms} × ${slow.docs}, ${slow.nnz}` : ''),
       );
-      console.log(`  ${''.padEnd(48)} ${'wall s, median (range)'.padEnd(24)} ${'peak RSS MB, median (range)'}`);
+      console.log(`  ${''.padEnd(48)} ${'wall s, median (range)'.padEnd(24)} ${'peak RSS MB, median (range)'.padEnd(28)} cpu s (user+sys)`);
       for (const s of sides)
         console.log(
           `  ${s.label.padEnd(48)} ${spread(
@@ -201,6 +215,9 @@ function runCommandCompare(): void {
           ).padEnd(24)} ${spread(
             s.runs.map((t) => t.peakRss / 1048576),
             (x) => x.toFixed(0),
+          ).padEnd(28)} ${spread(
+            s.runs.map((t) => t.cpu),
+            sec,
           )}`,
         );
       for (const ref of sides.slice(1)) {

@@ -173,7 +173,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
 
   let pool: WorkerPool | undefined;
   const threads = options.threads ?? {};
-  const getPool = (): WorkerPool | undefined => (pool ??= threads === false ? undefined : WorkerPool.start(threads));
+  // forProducts: the build's pool runs only the SVD's and the sections' products (no idle worker).
+  const getPool = (forProducts = false): WorkerPool | undefined =>
+    (pool ??= threads === false ? undefined : WorkerPool.start(threads, forProducts));
   // Ending the threads hands their word tables (and the SVD's shared memory) back.
   const releasePool = async (): Promise<void> => {
     const p = pool;
@@ -286,7 +288,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
 
     // ---- build
     await releasePool();
-    const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool() : undefined;
+    const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool(true) : undefined;
     // A shared concept model (import-model, undertone.conceptModel): fold into it, no local SVD.
     const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
     // Kept for the sections' fold, then dropped with the pool (it holds the shared memory).

@@ -33,7 +33,7 @@ import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import type { CsrMatrix } from '../matrix/sparse.js';
 import { copyCsr, transposeCsr } from '../matrix/sparse.js';
-import { createRandom, DEFAULT_SEED } from '../random.js';
+import { createRandom, DEFAULT_SEED, type RandomSource } from '../random.js';
 import { repairWeakColumns, topEigenpairs, transposeScaled } from './rayleighRitz.js';
 
 export interface RandomizedSvdOptions {
@@ -153,7 +153,7 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
     if (w < l) scatterColumns(yc, q, S, l, c0, cw);
   }
   step();
-  choleskyQr(ex, q, S, l, o.powerIterations === 0 ? 2 : 1, random);
+  orthonormalize(ex, q, S, l, o.powerIterations === 0 ? 2 : 1, random);
   // Power iterations Y = A(AᵀQ), column block by column block, Q = orth(Y).
   for (let it = 0; it < o.powerIterations; it++) {
     for (const [c0, cw] of blocks) {
@@ -166,7 +166,7 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
     }
     step();
     step();
-    choleskyQr(ex, q, S, l, it === o.powerIterations - 1 ? 2 : 1, random);
+    orthonormalize(ex, q, S, l, it === o.powerIterations - 1 ? 2 : 1, random);
   }
 
   // 2. Rayleigh–Ritz: G = Qᵀ(A(AᵀQ)), block by block: G[c', c] = Q_c'ᵀ Y_c.
@@ -193,12 +193,16 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   step();
   step();
   const pairs = topEigenpairs(g, l, k);
-  const small = w === l ? yAll.subarray(0, S * k) : ex.float64(S * k);
+  // QW goes to the front of Z's block when it fits there with room for a block of rows after it
+  // (Z is free from here on): the step then needs no S × k block of its own. Each row of the
+  // big side is one sparse row times QW, whatever the blocks, so the bits do not change.
+  const inZ = w < l && z.length >= S * k + k;
+  const small = w === l ? yAll.subarray(0, S * k) : inZ ? z.subarray(0, S * k) : ex.float64(S * k);
   ex.timesSmall(q, S, l, transposeScaled(pairs.w, l, k), k, false, small);
   // 3. Big-side vectors Aᵀ(QW)Σ⁻¹, block of rows by block of rows, straight into the result type.
   const out = o.factors === 'f32' ? Float32Array : Float64Array;
   const big = new out(B * k);
-  bigSideInBlocks(ex, at, small, k, pairs.s, big, z);
+  bigSideInBlocks(ex, at, small, k, pairs.s, big, inZ ? z.subarray(S * k) : z);
   step();
   repairWeakColumns(big, B, k, pairs.s, random);
   // 4. Sign fix on the column factor (decided on the values returned, row by row).
@@ -207,6 +211,16 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   const v = rowsSmall ? big : smallOut;
   flipSigns({ rows: m.rows, cols: k, data: u }, { rows: m.cols, cols: k, data: v });
   return { rows: m.rows, cols: m.cols, k, u, s: pairs.s, v };
+}
+
+/**
+ * choleskyQr in place on q, with the executor memory it takes (the small factors it hands to the
+ * kernels, its reduction scratch) given back afterwards instead of piling up pass after pass.
+ */
+function orthonormalize(ex: MatrixExecutor, q: Float64Array, S: number, l: number, passes: 1 | 2, random: RandomSource): void {
+  const run = (): void => void choleskyQr(ex, q, S, l, passes, random);
+  if (ex.scoped) ex.scoped(run);
+  else run();
 }
 
 /** [first column, width] of each column block of an l-column block split into blocks of w. */

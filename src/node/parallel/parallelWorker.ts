@@ -12,6 +12,7 @@ import { decodeUtf8 } from '../scanRead.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../scanTypes.js';
 import { FileReader } from './readTextSync.js';
 import { WordCounter, type PackedFile } from './wordCounter.js';
+import { mappedInt32 } from './wordTable.js';
 import { countThreadSections, type ThreadSections } from './threadSections.js';
 
 if (!parentPort) throw new Error('parallelWorker.js must be started as a worker thread.');
@@ -63,9 +64,12 @@ port.on('message', (msg: ToWorker) => {
     return;
   }
   if (msg.type === 'finish-counts') {
+    // The files' counts are copied, not transferred: the copies are made on the receiving thread,
+    // whose index keeps them, so nothing of this thread's malloc arena stays in use once it ends
+    // (a transferred buffer would, and with it the arena's freed memory around it). The sections'
+    // counts, dropped once the sections are folded, travel in mappings of their own (mappedInt32).
     const reply = finishCounts(msg.translate);
-    const buffers = [reply.termIds, reply.counts, reply.sectionTermIds, reply.sectionCounts].map((a) => a.buffer as ArrayBuffer);
-    port.postMessage(reply, buffers);
+    port.postMessage(reply, [reply.sectionTermIds.buffer as ArrayBuffer, reply.sectionCounts.buffer as ArrayBuffer]);
     return;
   }
   try {
@@ -132,8 +136,8 @@ function finishCounts(translate: Int32Array): FinalCounts {
   for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, termIds, out);
   kept = [];
   const s = (counter ?? new WordCounter({})).drainSectionPack();
-  const sectionTermIds = new Int32Array(s.ids.length);
-  const sectionCounts = new Float32Array(s.ids.length);
+  const sectionTermIds = mappedInt32(s.ids.length);
+  const sectionCounts = new Float32Array(mappedInt32(s.ids.length).buffer, 0, s.ids.length);
   for (const offsets of keptSections)
     for (let i = 0; i + 1 < offsets.length; i++)
       translateRun(s.ids, s.counts, offsets[i], offsets[i + 1], translate, sectionTermIds, sectionCounts);

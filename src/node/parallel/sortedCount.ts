@@ -74,7 +74,8 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
       };
     } else outcomes[i] = r;
   }
-  return { vocab: new Vocabulary(sorted), outcomes };
+  // As bytes: the index keeps this vocabulary, and strings with a map cost several times more.
+  return { vocab: Vocabulary.fromTerms(sorted), outcomes };
 }
 
 /** Sends msg to worker w and resolves with its reply of the given type. */

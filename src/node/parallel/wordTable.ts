@@ -26,9 +26,9 @@ export class WordTable {
     private readonly limit: number,
     expected = 1 << 12,
   ) {
-    this.units = new Uint16Array(16 * expected);
-    this.rec = new Int32Array(3 * expected);
-    this.slots = new Int32Array(4 * expected);
+    this.units = mappedUint16(16 * expected);
+    this.rec = mappedInt32(3 * expected);
+    this.slots = mappedInt32(4 * expected);
   }
 
   value(e: number): number {
@@ -62,7 +62,7 @@ export class WordTable {
     if (3 * e + 3 > this.rec.length) this.rec = grow32(this.rec, 3 * e + 3);
     const len = end - start;
     if (this.used + len > this.units.length) {
-      const grown = new Uint16Array(Math.max(this.used + len, this.units.length * 2));
+      const grown = mappedUint16(Math.max(this.used + len, this.units.length * 2));
       grown.set(this.units.subarray(0, this.used));
       this.units = grown;
     }
@@ -93,14 +93,42 @@ export class WordTable {
   /** Twice the slots (each entry's hash is kept in its old slot). */
   private rehash(): void {
     const old = this.slots;
-    const slots = new Int32Array(2 * old.length);
+    const slots = mappedInt32(2 * old.length);
     for (let s = 0; s < old.length; s += 2) if (old[s] !== 0) this.place(slots, old[s] - 1, old[s + 1]);
     this.slots = slots;
   }
 }
 
 export function grow32(a: Int32Array<ArrayBuffer>, atLeast: number): Int32Array<ArrayBuffer> {
-  const b = new Int32Array(Math.max(atLeast, a.length * 2));
+  const b = mappedInt32(Math.max(atLeast, a.length * 2));
   b.set(a);
   return b;
+}
+
+/**
+ * Allocations of at least this many bytes are mapped on their own by glibc's malloc whatever its
+ * adaptive threshold (M_MMAP_THRESHOLD rises as mapped blocks are freed, up to 32 MiB on 64-bit
+ * systems: glibc malloc/malloc.c, DEFAULT_MMAP_THRESHOLD_MAX), and unmapped when freed.
+ */
+const OWN_MAPPING_BYTES = 32 * 1024 * 1024 + 4096;
+/**
+ * Below this many bytes an array is allocated as usual; and everywhere but on Linux (other
+ * allocators map large blocks apart anyway, and Windows would commit the whole buffer).
+ */
+const MAPPED_FROM_BYTES = process.platform === 'linux' ? 256 * 1024 : Infinity;
+
+/**
+ * An array of n elements that a tokenizing thread grows or hands over: from MAPPED_FROM_BYTES on,
+ * in a buffer of at least OWN_MAPPING_BYTES, so it lies in a mapping of its own instead of the
+ * thread's malloc arena. Freed arena memory stays resident after the thread ends (glibc trims an
+ * arena only from its top, and only past a threshold that grows to 64 MiB); a mapping goes back
+ * to the system when freed. Only the pages written count as resident (fresh mapped pages are
+ * zero, so calloc does not touch them).
+ */
+export function mappedInt32(n: number): Int32Array<ArrayBuffer> {
+  return n * 4 < MAPPED_FROM_BYTES ? new Int32Array(n) : new Int32Array(new ArrayBuffer(Math.max(n * 4, OWN_MAPPING_BYTES)), 0, n);
+}
+
+export function mappedUint16(n: number): Uint16Array<ArrayBuffer> {
+  return n * 2 < MAPPED_FROM_BYTES ? new Uint16Array(n) : new Uint16Array(new ArrayBuffer(Math.max(n * 2, OWN_MAPPING_BYTES)), 0, n);
 }

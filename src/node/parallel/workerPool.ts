@@ -38,13 +38,17 @@ export class WorkerPool {
     readonly threads: number,
   ) {}
 
-  /** Starts a pool, or returns undefined when one thread is all there is or no worker script exists. */
-  static start(options: PoolOptions = {}): WorkerPool | undefined {
+  /**
+   * Starts a pool, or returns undefined when one thread is all there is or no worker script exists.
+   * `forProducts`: only the threads − 1 workers executor() uses (the calling thread is the last
+   * one), not one per thread as tokenizing needs: an idle worker holds its own heap (about 25 MB).
+   */
+  static start(options: PoolOptions = {}, forProducts = false): WorkerPool | undefined {
     const threads = Math.max(1, Math.floor(options.threads ?? availableParallelism()));
     const script = options.workerScript ?? defaultWorkerScript();
     if (threads < 2 || !script) return undefined;
     const workers: Worker[] = [];
-    for (let i = 0; i < threads; i++) {
+    for (let i = 0; i < (forProducts ? threads - 1 : threads); i++) {
       const w = new Worker(script, { name: `undertone-parallel-${i}` });
       w.unref();
       workers.push(w);

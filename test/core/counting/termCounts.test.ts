@@ -39,6 +39,27 @@ describe('Vocabulary', () => {
     expect(copy.terms).toEqual(terms);
   });
 
+  it('fromTerms gives the same table as the terms added one by one, sorted or not, and grows the same way', () => {
+    const terms = sortedTerms();
+    // Sorted (the byte-order run stops at 'zz\uFF5E'), and shuffled by a fixed stride (no run at all).
+    const stride = terms.map((_, i) => terms[(i * 7919) % terms.length]);
+    for (const list of [terms, stride, []]) {
+      const reference = new Map(list.map((t, i) => [t, i] as const));
+      const v = Vocabulary.fromTerms(list);
+      expect(v.size).toBe(list.length);
+      expect(list.map((_, id) => v.termOf(id))).toEqual(list);
+      expect(list.map((t) => v.idOf(t))).toEqual(list.map((_, id) => id));
+      for (const unknown of ['', 'zzzzzzzz', 'zz\u{1F601}']) expect(v.idOf(unknown)).toBe(reference.get(unknown));
+      expect(v.add('brandnew-term')).toBe(list.length);
+      expect(v.terms).toEqual([...list, 'brandnew-term']);
+    }
+    expect(Vocabulary.fromTerms(terms).toBytes().sorted).toBe(terms.indexOf('zz\uFF5E'));
+  });
+
+  it('fromTerms refuses a term holding the separator U+0000', () => {
+    expect(() => Vocabulary.fromTerms(['a', 'b\0c'])).toThrow(/U\+0000/);
+  });
+
   it('keeps ids stable when terms are added after a reopen, before and after `terms` is read', () => {
     const terms = sortedTerms();
     const copy = reopen(new Vocabulary(terms));

@@ -6,6 +6,7 @@ import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
 import { coordinateChunks } from '../../../src/core/matrix/matrixMarket.js';
 import { csrFromDense } from '../../../src/core/matrix/sparse.js';
+import { serialExecutor } from '../../../src/core/matrix/executor.js';
 import { createRandom } from '../../../src/core/random.js';
 import { bigSideBlockWidth, randomizedSvd, type SvdResult } from '../../../src/core/svd/randomizedSvd.js';
 import { weightedMatrix } from '../../../src/core/index/model/conceptModel.js';
@@ -185,6 +186,13 @@ describe('randomizedSvd', () => {
     const blocked = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes: 1 });
     const again = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes: 1 });
     expect(Buffer.from(blocked.v.buffer).equals(Buffer.from(again.v.buffer))).toBe(true);
+    // Z's block (B × width) holds QW (S × k) with room to spare, so QW is put there: the same bits
+    // on an executor that gives memory back by scopes (the default) and on one that does not.
+    const [S, B] = [Math.min(matrix.rows, matrix.cols), Math.max(matrix.rows, matrix.cols)];
+    expect(B * width).toBeGreaterThanOrEqual(S * 20 + 20);
+    const plain = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes: 1, executor: serialExecutor });
+    expect(Buffer.from(plain.v.buffer).equals(Buffer.from(blocked.v.buffer))).toBe(true);
+    expect(Buffer.from(plain.u.buffer).equals(Buffer.from(blocked.u.buffer))).toBe(true);
     const dense = Array.from({ length: matrix.rows }, () => new Array<number>(matrix.cols).fill(0));
     for (let i = 0; i < matrix.rows; i++)
       for (let p = matrix.indptr[i]; p < matrix.indptr[i + 1]; p++) dense[i][matrix.indices[p]] = matrix.values[p];

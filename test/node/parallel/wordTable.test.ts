@@ -1,7 +1,7 @@
 /** WordTable against a Map from the key's string (brute-force reference). */
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
-import { FNV_OFFSET, FNV_PRIME, WordTable } from '../../../src/node/parallel/wordTable.js';
+import { FNV_OFFSET, FNV_PRIME, grow32, mappedInt32, mappedUint16, WordTable } from '../../../src/node/parallel/wordTable.js';
 
 function unitsOf(s: string): Uint16Array {
   return Uint16Array.from(s, (c) => c.charCodeAt(0));
@@ -64,5 +64,36 @@ describe('WordTable', () => {
     expect(table.size).toBe(1);
     expect(table.find(unitsOf('aa'), 0, 2, hashOf(unitsOf('aa'), 0, 2))).toBe(-1);
     expect(table.value(table.find(d, 0, 2, hashOf(d, 0, 2)))).toBe(4);
+  });
+});
+
+// The threshold is glibc's: malloc maps a block of its own from M_MMAP_THRESHOLD on, a threshold
+// that adapts up to DEFAULT_MMAP_THRESHOLD_MAX, 32 MiB on 64-bit systems (glibc malloc/malloc.c).
+const GLIBC_MMAP_THRESHOLD_MAX = 32 * 1024 * 1024;
+
+describe.runIf(process.platform === 'linux')('mappedInt32 / mappedUint16', () => {
+  it('puts an array of 256 KiB or more in a buffer above glibc’s largest mapping threshold, a smaller one in a buffer of its size', () => {
+    for (const [make, bytes] of [
+      [mappedInt32, 4],
+      [mappedUint16, 2],
+    ] as const) {
+      const small = make(1000);
+      expect(small.length).toBe(1000);
+      expect(small.buffer.byteLength).toBe(1000 * bytes);
+      const n = (256 * 1024) / bytes;
+      const big = make(n);
+      expect(big.length).toBe(n);
+      expect(big.buffer.byteLength).toBeGreaterThan(GLIBC_MMAP_THRESHOLD_MAX);
+      expect(Array.from(big.subarray(0, 4))).toEqual([0, 0, 0, 0]);
+    }
+  });
+
+  it('grow32 keeps the values and the length asked for, past the threshold too', () => {
+    let a = Int32Array.from({ length: 1000 }, (_, i) => i * 3);
+    a = grow32(a, 100_000);
+    expect(a.length).toBe(100_000);
+    expect(Array.from(a.subarray(0, 1000))).toEqual(Array.from({ length: 1000 }, (_, i) => i * 3));
+    expect(a[99_999]).toBe(0);
+    expect(a.buffer.byteLength).toBeGreaterThan(GLIBC_MMAP_THRESHOLD_MAX);
   });
 });

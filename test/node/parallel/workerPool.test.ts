@@ -74,6 +74,27 @@ describe('worker pool', () => {
     ).toBe(true);
   });
 
+  it('a pool for products starts only the workers its executor uses, with the same bits as on one thread', async () => {
+    const products = WorkerPool.start({ threads: 2, workerScript }, true)!;
+    try {
+      expect(products.workers.length).toBe(1);
+      const builder = new IndexBuilder({ k: 20 });
+      for (const d of cisi.docs.slice(0, 300)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+      const index = builder.build({ executor: serialExecutor });
+      const m = modelMatrix(
+        index.model,
+        index.slots().map((s) => s!.terms),
+      );
+      const ex = products.executor();
+      expect(ex.threads).toBe(2);
+      const one = randomizedSvd(m, { k: 20, executor: serialExecutor });
+      const two = randomizedSvd(m, { k: 20, executor: ex });
+      expect(Buffer.from(two.v.buffer).equals(Buffer.from(one.v.buffer))).toBe(true);
+    } finally {
+      await products.close();
+    }
+  });
+
   it('reads and counts files on threads exactly as tokenize + countTerms do, and reports odd files', async () => {
     const dir = join(tmp, 'files');
     mkdirSync(dir, { recursive: true });
