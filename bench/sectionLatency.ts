@@ -5,6 +5,8 @@
  *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
  *   node dist/sectionLatency.mjs <index file> [queries] [--exact] [--cold]
  * FOCUS=p in the environment sets the search's query-word focus power (termFocus.ts; 0 = off).
+ * PROFILE=file.cpuprofile records a CPU profile of the timed requests only (after loading, prepare
+ * and the first request), for Chrome DevTools or `node bench/profileTop.mjs file.cpuprofile`.
  * --exact ranks by the full pass (SectionStore.rankExact, the reference of the 8-bit screen and of
  * the probed lists that replace it from SECTION_LISTS_FROM sections on; recall: bench/sectionLists.ts).
  * Queries: the first words of sections' titles picked evenly over the index (seeded), so the run
@@ -12,6 +14,8 @@
  * and of this process's CPU time per request (user + system: the work itself, which a busy machine
  * stretches less than the wall clock).
  */
+import { writeFileSync } from 'node:fs';
+import { Session } from 'node:inspector/promises';
 import { loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { loadIndex } from '../src/node/persist.js';
@@ -69,6 +73,12 @@ if (!process.argv.includes('--cold')) {
     `first request (builds the screen or the lists): ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`,
   );
 }
+const profile = process.env.PROFILE ? new Session() : null;
+if (profile) {
+  profile.connect();
+  await profile.post('Profiler.enable');
+  await profile.post('Profiler.start');
+}
 for (const [path, f] of pick) {
   const title = f.titles[Math.floor(f.titles.length / 2)];
   let t = performance.now();
@@ -94,6 +104,11 @@ for (const [path, f] of pick) {
   near.push(performance.now() - t);
   nearCpu.push(cpuMs(c));
   products += index.sections.lastExact;
+}
+if (profile) {
+  const { profile: recorded } = await profile.post('Profiler.stop');
+  writeFileSync(process.env.PROFILE!, JSON.stringify(recorded));
+  profile.disconnect();
 }
 const mode = exact ? 'full pass' : index.sections.count >= SECTION_LISTS_FROM ? 'probed lists' : '8-bit screen';
 console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}, ${mode}`);

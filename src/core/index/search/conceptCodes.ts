@@ -120,15 +120,7 @@ export class ConceptCodes {
     for (let r = 0; r < runs; r++) {
       const [a, b] = [from[r], to[r]];
       this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, this.k, a, b, this._sums.byteOffset);
-      boundRows(
-        this._sums.subarray(a, b),
-        this._scales.subarray(a, b),
-        this._errors.subarray(a, b),
-        norm2,
-        rounding,
-        this._center.subarray(a, b),
-        this._radius.subarray(a, b),
-      );
+      boundRows(this._sums, this._scales, this._errors, norm2, rounding, this._center, this._radius, a, b);
     }
     return { center: this._center, radius: this._radius };
   }
@@ -194,7 +186,7 @@ export class ConceptCodes {
     this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, this.k, 0, n, this._sums.byteOffset);
     const center = this._center.subarray(0, n);
     const radius = this._radius.subarray(0, n);
-    boundRows(this._sums, this._scales, this._errors, norm2, rounding, center, radius);
+    boundRows(this._sums, this._scales, this._errors, norm2, rounding, center, radius, 0, n);
     return { center, radius };
   }
 
@@ -275,8 +267,10 @@ function boundRows(
   rounding: number,
   center: Float64Array,
   radius: Float64Array,
+  from: number,
+  to: number,
 ): void {
-  for (let j = 0; j < center.length; j++) {
+  for (let j = from; j < to; j++) {
     const s = scales[j];
     center[j] = s * sums[j];
     radius[j] = (errors[j] * norm2 + s * rounding) * (1 + SLACK) + 1e-300;
