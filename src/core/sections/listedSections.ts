@@ -25,8 +25,6 @@ export interface PickedSections {
 
 /** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
 const SLACK = 1e-9;
-/** Positions of a file's sections kept apart in a sort key (a file has fewer sections than this). */
-const POSITIONS = 2 ** 21;
 /** Rows coded at a time when building (a bounded scratch block). */
 const CODE_ROWS = 4096;
 
@@ -259,21 +257,14 @@ export class ListedSections {
 
   /** The first `count` picked slots as files in file-number order, positions ascending, without repeats. */
   private group(count: number): PickedSections[] {
-    // Sort keys f·2^21 + position (exact in f64: files < 2^31, positions < 2^21).
-    const keys = new Float64Array(count);
-    for (let i = 0; i < count; i++) {
-      const s = this._picked[i];
-      keys[i] = this._slotFile[s] * POSITIONS + this._slotIndex[s];
-    }
-    keys.sort();
+    const [file, index] = [this._slotFile, this._slotIndex];
+    const slots = Array.from(this._picked.subarray(0, count)).sort((a, b) => file[a] - file[b] || index[a] - index[b]);
     const out: PickedSections[] = [];
     let last = -1;
-    for (let i = 0; i < count; i++) {
-      if (i > 0 && keys[i] === keys[i - 1]) continue;
-      const f = Math.floor(keys[i] / POSITIONS);
-      const at = keys[i] - f * POSITIONS;
-      if (f === last) out[out.length - 1].at.push(at);
-      else out.push({ path: this._paths[f], f: this._files[f]!, at: [at] });
+    for (let x = 0; x < slots.length; x++) {
+      const [f, at] = [file[slots[x]], index[slots[x]]];
+      if (f !== last) out.push({ path: this._paths[f], f: this._files[f]!, at: [at] });
+      else if (at !== index[slots[x - 1]]) out[out.length - 1].at.push(at);
       last = f;
     }
     return out;
