@@ -292,6 +292,7 @@ export class SectionStore {
     const heap: { path: string; f: FileSections; i: number; score: number }[] = [];
     let floor = Number.NEGATIVE_INFINITY;
     this._lastExact = 0;
+    if (top <= 0) return [];
     for (const { path, f, at } of list) {
       let taken = 0;
       const scores: { i: number; score: number }[] = [];

@@ -59,6 +59,9 @@ describe('SectionStore.rank with 8-bit screening', () => {
       }
     // The screen multiplied well under all sections on average.
     expect(exact / (queries.length * 4)).toBeLessThan(store.screened / 2);
+    // An empty list asked for is empty (the full pass too, past its cut-back size).
+    expect(store.rank(queries[0], 0)).toEqual([]);
+    expect(store.rankExact(queries[0], 0)).toEqual([]);
   });
 });
 
