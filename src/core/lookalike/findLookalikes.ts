@@ -187,6 +187,8 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   };
   const K = o.neighbours;
   const termLists = collapse((t) => ({ index: nb.index.subarray(t * K, t * K + K), cosine: nb.cosine.subarray(t * K, t * K + K) }));
+  // Clause c is off unless one of its two levels is finite (options.ts says why it is off by default).
+  const clauseC = Number.isFinite(o.retoldMinEvidence) || Number.isFinite(o.retoldFewNamesMinEvidence);
   const rule = {
     minCosine: o.retoldMinCosine,
     minGap: o.retoldMinGap,
@@ -196,7 +198,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     minNameWords: o.retoldNameMinWords,
     minWords: o.retoldMinWords,
     namesDecide: o.retoldNamesDecide,
-    minEvidence: o.retoldMinEvidence,
+    minEvidence: clauseC ? o.retoldMinEvidence : undefined,
     minEvidenceFewNames: o.retoldFewNamesMinEvidence,
     minEvidenceCosine: o.retoldEvidenceMinCosine,
     minEvidenceWords: o.retoldEvidenceMinWords,
@@ -207,8 +209,9 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   );
   // Second view (clause c): under BM25 weights, neither file has a term-space neighbour (copies of
   // the other left out) nearer than its partner.
-  const bm25 = bm25View(rows, space.df);
+  const bm25 = clauseC ? bm25View(rows, space.df) : undefined;
   const bothNearest = (x: number, y: number): boolean => {
+    if (!bm25) return false;
     const pair = bm25.cosine(x, y);
     for (const [from, to] of [
       [x, y],
@@ -230,7 +233,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       maxJaccard: o.retoldMaxJaccard,
       names: names.pair,
       words: tokenCounts,
-      secondView: bothNearest,
+      secondView: clauseC ? bothNearest : undefined,
     },
     rule,
   );

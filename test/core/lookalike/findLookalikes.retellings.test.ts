@@ -20,11 +20,11 @@
  *   (measured 35/35, 0 outside);
  * - same content, other words: at most 3 pairs not in the key (target; measured 1,
  *   pthread_yield.3 ~ sched_yield.2, itself a natural retelling outside the key) and ahead of plain
- *   TF-IDF cosine at the same number of false pairs; recall floors 0.33 overall, 34/98 coreutils,
- *   6/27 gnu-other (measured 2026-12-03 with clause c, margin + name share ≥ 1 when BM25 agrees:
- *   45/125 = 0.36, 37/98, 8/27; names deciding without clause c 37/125, the earlier rule 34/125,
- *   margin alone 20/125). The issue's recall target (≥ 55 %) is NOT met on this set: see the
- *   fixture README;
+ *   TF-IDF cosine at the same number of false pairs; recall floors 0.27 overall, 26/98 coreutils,
+ *   6/27 gnu-other (measured 2026-12-03 with names deciding when both files hold rare names:
+ *   37/125 = 0.30, 29/98, 8/27; with the opt-in clause c, margin + name share ≥ 1 when BM25
+ *   agrees, 45/125; the earlier rule 34/125, margin alone 20/125). The issue's recall target
+ *   (≥ 55 %) is NOT met on this set: see the fixture README;
  * - the folder without the retellings' Texinfo side: at most 1 pair per 1,000 files (target;
  *   measured 1 in 1,660, the same pthread_yield pair).
  * The rule's constants (options.ts) were chosen leaving one source out (bench/lookalikeSignals.bench.ts).
@@ -176,12 +176,12 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(partialTruth.length).toBeGreaterThan(20);
     expect(partialRecall).toBeGreaterThanOrEqual(0.9);
     expect(falsePartial).toBe(0);
-    // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 46 reported).
+    // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 38 reported).
     expect(falseRetold).toBeLessThanOrEqual(3);
     expect(hits.length / Math.max(1, retold.length)).toBeGreaterThanOrEqual(0.85);
-    // Floors below the measured recall (45/125; coreutils 37/98, gnu-other 8/27); the target of 0.55 is not met.
-    expect(recall).toBeGreaterThanOrEqual(0.33);
-    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(34);
+    // Floors below the measured recall (37/125; coreutils 29/98, gnu-other 8/27); the target of 0.55 is not met.
+    expect(recall).toBeGreaterThanOrEqual(0.27);
+    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(26);
     expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(6);
     // Ahead of the baseline at the same number of false pairs (baseline measured: 4 with ≤ 3 false).
     expect(hits.length).toBeGreaterThan(baseSame);
