@@ -3,22 +3,29 @@
  * what the editor's worker pays per request). Usage:
  *   npx esbuild bench/sectionLatency.ts --bundle --platform=node --format=esm --outfile=dist/sectionLatency.mjs \
  *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
- *   node dist/sectionLatency.mjs <index file> [queries] [--exact] [--cold]
+ *   node dist/sectionLatency.mjs <index file> [queries] [--exact] [--cold] [--files]
  * FOCUS=p in the environment sets the search's query-word focus power (termFocus.ts; 0 = off).
+ * PROFILE=file.cpuprofile records a CPU profile of the timed requests only (after loading, prepare
+ * and the first request), for Chrome DevTools or `node bench/profileTop.mjs file.cpuprofile`.
  * --exact ranks by the full pass (SectionStore.rankExact, the reference of the 8-bit screen and of
  * the probed lists that replace it from SECTION_LISTS_FROM sections on; recall: bench/sectionLists.ts).
+ * --files also times the file-level search (LsiIndex.search) and Nearby of the file (LsiIndex.nearby)
+ * for the same queries and files, after the section requests (so with the query words' focus cached).
  * Queries: the first words of sections' titles picked evenly over the index (seeded), so the run
  * needs nothing but the index. Prints median and 95th percentile in milliseconds, of the wall clock
  * and of this process's CPU time per request (user + system: the work itself, which a busy machine
  * stretches less than the wall clock).
  */
+import { writeFileSync } from 'node:fs';
+import { Session } from 'node:inspector/promises';
 import { loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { loadIndex } from '../src/node/persist.js';
 import { nearbySections, searchSections } from '../src/core/sections/sectionSearch.js';
 import { SECTION_LISTS_FROM } from '../src/core/sections/sectionStore.js';
 
-const args = process.argv.slice(2).filter((a) => a !== '--exact' && a !== '--cold');
+const args = process.argv.slice(2).filter((a) => a !== '--exact' && a !== '--cold' && a !== '--files');
+const fileLevel = process.argv.includes('--files');
 const exact = process.argv.includes('--exact');
 const [file, count = '50'] = args;
 if (!file) {
@@ -46,6 +53,10 @@ const near: number[] = [];
 const searchCpu: number[] = [];
 const nearCpu: number[] = [];
 const planCpu: number[] = [];
+const fileSearchCpu: number[] = [];
+const fileNearCpu: number[] = [];
+const fileSearch: number[] = [];
+const fileNear: number[] = [];
 const cpuMs = (from: NodeJS.CpuUsage): number => {
   const d = process.cpuUsage(from);
   return (d.user + d.system) / 1000;
@@ -68,6 +79,12 @@ if (!process.argv.includes('--cold')) {
   console.log(
     `first request (builds the screen or the lists): ${(performance.now() - t).toFixed(0)} ms wall, ${cpuMs(c).toFixed(0)} ms CPU`,
   );
+}
+const profile = process.env.PROFILE ? new Session() : null;
+if (profile) {
+  profile.connect();
+  await profile.post('Profiler.enable');
+  await profile.post('Profiler.start');
 }
 for (const [path, f] of pick) {
   const title = f.titles[Math.floor(f.titles.length / 2)];
@@ -94,6 +111,27 @@ for (const [path, f] of pick) {
   near.push(performance.now() - t);
   nearCpu.push(cpuMs(c));
   products += index.sections.lastExact;
+  if (!fileLevel) continue;
+  // The file-level features on the same index, for comparison (search by meaning, Nearby of the file).
+  t = performance.now();
+  c = process.cpuUsage();
+  try {
+    index.search(title, { top: 20 });
+    fileSearch.push(performance.now() - t);
+    fileSearchCpu.push(cpuMs(c));
+  } catch {
+    /* a title without known words */
+  }
+  t = performance.now();
+  c = process.cpuUsage();
+  index.nearby(path, { top: 20 });
+  fileNear.push(performance.now() - t);
+  fileNearCpu.push(cpuMs(c));
+}
+if (profile) {
+  const { profile: recorded } = await profile.post('Profiler.stop');
+  writeFileSync(process.env.PROFILE!, JSON.stringify(recorded));
+  profile.disconnect();
 }
 const mode = exact ? 'full pass' : index.sections.count >= SECTION_LISTS_FROM ? 'probed lists' : '8-bit screen';
 console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}, ${mode}`);
@@ -102,5 +140,9 @@ console.log(`exact section products per request: ${(products / (search.length + 
 console.log(`search --sections: ${quantiles(search)} (${search.length} queries)`);
 console.log(`nearby at a section: ${quantiles(near)} (${near.length} sections)`);
 console.log(`CPU per request: search ${quantiles(searchCpu)}; nearby ${quantiles(nearCpu)}`);
+if (fileLevel) {
+  console.log(`file-level search: ${quantiles(fileSearch)}; Nearby of a file: ${quantiles(fileNear)}`);
+  console.log(`CPU per request, file level: search ${quantiles(fileSearchCpu)}; Nearby ${quantiles(fileNearCpu)}`);
+}
 console.log(`CPU of the search plan alone (file-level word matches and concept query): ${quantiles(planCpu)}`);
 console.log(`1-minute load average at the end: ${loadavg()[0].toFixed(1)}`);

@@ -43,6 +43,10 @@ export class ListedSections {
   private _from = new Int32Array(64);
   private _to = new Int32Array(64);
   private _bestLow = new Float64Array(0);
+  private _ok = new Int8Array(0);
+  private _picked = new Int32Array(256);
+  private _lastScreened = 0;
+  private _lastRuns = 0;
 
   /** Files the sections, in the order given, under the trained lists. */
   constructor(
@@ -96,6 +100,15 @@ export class ListedSections {
   }
 
   private readonly _codes: ConceptCodes | null;
+
+  /** Sections the last candidates() bounded, and the runs of slots they lay in (for the benchmark). */
+  get lastScreened(): number {
+    return this._lastScreened;
+  }
+
+  get lastRuns(): number {
+    return this._lastRuns;
+  }
 
   /** Slots in use and dead ones among them. */
   get used(): number {
@@ -151,10 +164,17 @@ export class ListedSections {
 
   /**
    * The sections to multiply for a top-`top` list: those of the `probe` lists nearest to q and all
-   * of the files in `also`, that `accept` lets in, less those whose 8-bit bound cannot place (see the
-   * header). Files in file-number order, positions ascending.
+   * of the files in `also`, that `accept` lets in (every file when it is undefined: no call per
+   * file), less those whose 8-bit bound cannot place (see the header). Files in file-number order,
+   * positions ascending.
    */
-  candidates(q: Float32Array, top: number, accept: (path: string) => boolean, also: readonly string[], probe: number): PickedSections[] {
+  candidates(
+    q: Float32Array,
+    top: number,
+    accept: ((path: string) => boolean) | undefined,
+    also: readonly string[],
+    probe: number,
+  ): PickedSections[] {
     let runs = 0;
     const push = (from: number, to: number): void => {
       if (runs > 0 && this._to[runs - 1] === from) {
@@ -180,27 +200,41 @@ export class ListedSections {
       const f = this._fileNo.get(path);
       if (f !== undefined) for (const s of this._fileSlots[f]!) push(s, s + 1);
     }
+    this._lastRuns = runs;
+    this._lastScreened = 0;
+    for (let r = 0; r < runs; r++) this._lastScreened += this._to[r] - this._from[r];
     const files = this._files.length;
-    const ok = new Int8Array(files); // 0 not asked, 1 accepted, −1 not
-    const allowed = (f: number): boolean => {
-      if (ok[f] === 0) ok[f] = accept(this._paths[f]) ? 1 : -1;
-      return ok[f] > 0;
-    };
-    const picked = new Map<number, number[]>();
-    const pick = (f: number, i: number): void => {
-      const at = picked.get(f);
-      if (at) at.push(i);
-      else picked.set(f, [i]);
+    const slotFile = this._slotFile;
+    const from = this._from;
+    const to = this._to;
+    // 1 accepted, −1 not, 0 not asked yet (every file accepted without `accept`).
+    if (this._ok.length < files) this._ok = new Int8Array(Math.ceil(files * 1.25));
+    const ok = this._ok;
+    ok.fill(accept ? 0 : 1, 0, files);
+    if (accept)
+      for (let r = 0; r < runs; r++)
+        for (let s = from[r]; s < to[r]; s++) {
+          const f = slotFile[s];
+          if (f >= 0 && ok[f] === 0) ok[f] = accept(this._paths[f]) ? 1 : -1;
+        }
+    let picked = 0;
+    const take = (s: number): void => {
+      if (picked === this._picked.length) {
+        const grown = new Int32Array(2 * picked);
+        grown.set(this._picked);
+        this._picked = grown;
+      }
+      this._picked[picked++] = s;
     };
     if (this._codes) {
-      const { center, radius } = this._codes.boundsRuns(q, this._from, this._to, runs);
+      const { center, radius } = this._codes.boundsRuns(q, from, to, runs);
       if (this._bestLow.length < files) this._bestLow = new Float64Array(Math.ceil(files * 1.25)).fill(Number.NEGATIVE_INFINITY);
       const bestLow = this._bestLow;
       const touched: number[] = [];
       for (let r = 0; r < runs; r++)
-        for (let s = this._from[r]; s < this._to[r]; s++) {
-          const f = this._slotFile[s];
-          if (f < 0 || !allowed(f)) continue;
+        for (let s = from[r]; s < to[r]; s++) {
+          const f = slotFile[s];
+          if (f < 0 || ok[f] < 0) continue;
           const low = center[s] - radius[s];
           if (low > bestLow[f]) {
             if (bestLow[f] === Number.NEGATIVE_INFINITY) touched.push(f);
@@ -214,29 +248,27 @@ export class ListedSections {
       }
       const bar = best[best.length - 1] - SLACK;
       for (let r = 0; r < runs; r++)
-        for (let s = this._from[r]; s < this._to[r]; s++) {
-          const f = this._slotFile[s];
-          if (f >= 0 && ok[f] > 0 && center[s] + radius[s] >= bar) pick(f, this._slotIndex[s]);
-        }
+        for (let s = from[r]; s < to[r]; s++) if (center[s] + radius[s] >= bar && slotFile[s] >= 0 && ok[slotFile[s]] > 0) take(s);
     } else {
-      for (let r = 0; r < runs; r++)
-        for (let s = this._from[r]; s < this._to[r]; s++) {
-          const f = this._slotFile[s];
-          if (f >= 0 && allowed(f)) pick(f, this._slotIndex[s]);
-        }
+      for (let r = 0; r < runs; r++) for (let s = from[r]; s < to[r]; s++) if (slotFile[s] >= 0 && ok[slotFile[s]] > 0) take(s);
     }
-    return [...picked.keys()]
-      .sort((a, b) => a - b)
-      .map((f) => ({ path: this._paths[f], f: this._files[f]!, at: unique(picked.get(f)!.sort((a, b) => a - b)) }));
+    return this.group(picked);
   }
-}
 
-/** A sorted array without repeats (in place). */
-function unique(a: number[]): number[] {
-  let w = 0;
-  for (let i = 0; i < a.length; i++) if (i === 0 || a[i] !== a[i - 1]) a[w++] = a[i];
-  a.length = w;
-  return a;
+  /** The first `count` picked slots as files in file-number order, positions ascending, without repeats. */
+  private group(count: number): PickedSections[] {
+    const [file, index] = [this._slotFile, this._slotIndex];
+    const slots = Array.from(this._picked.subarray(0, count)).sort((a, b) => file[a] - file[b] || index[a] - index[b]);
+    const out: PickedSections[] = [];
+    let last = -1;
+    for (let x = 0; x < slots.length; x++) {
+      const [f, at] = [file[slots[x]], index[slots[x]]];
+      if (f !== last) out.push({ path: this._paths[f], f: this._files[f]!, at: [at] });
+      else if (at !== index[slots[x - 1]]) out[out.length - 1].at.push(at);
+      last = f;
+    }
+    return out;
+  }
 }
 
 /** Inserts x into a descending array of fixed length, dropping its last entry. */

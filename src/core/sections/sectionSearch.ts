@@ -52,12 +52,19 @@ export function searchSections(index: LsiIndex, text: string, options: Partial<S
   const plan = index.searchPlan(text, options);
   const a = plan.known ? 1 - plan.lambda : 0;
   const slot = slotsOf(index);
-  const accept = (path: string): boolean => plan.accept(slot.get(path) ?? -1);
   const also = plan.lambda > 0 ? bestWordFiles(index, plan.lexical, plan.accept, wordFiles) : [];
-  // Rank by cosine with room for the lexical share to reorder, then blend.
+  // Rank by cosine with room for the lexical share to reorder, then blend. The store holds live
+  // files only, so the plan's acceptance (live, options.filter, not marked like or unlike) is asked
+  // per file only when there is a filter or a mark, by path: no path → slot look-up per file.
+  const marked = new Set([...(options.like ?? []), ...(options.unlike ?? [])]);
+  const filter = options.filter;
+  const accept = filter || marked.size > 0 ? (path: string): boolean => !marked.has(path) && (!filter || filter(path)) : undefined;
   const pool = index.sections.rank(plan.vector, Math.max(top * 8, 64), accept, perFile, also);
   return pool
-    .map((h) => ({ ...h, score: a * h.score + plan.lambda * plan.lexical[slot.get(h.path)!] }))
+    .flatMap((h) => {
+      const j = slot.get(h.path);
+      return j === undefined ? [] : [{ ...h, score: a * h.score + plan.lambda * plan.lexical[j] }];
+    })
     .sort((x, y) => y.score - x.score)
     .slice(0, top);
 }

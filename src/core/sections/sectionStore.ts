@@ -151,7 +151,8 @@ export class SectionStore {
   }
 
   /**
-   * The `top` sections with the highest cosine with q over files that `accept` lets in, best first
+   * The `top` sections with the highest cosine with q over files that `accept` lets in (all when
+   * it is undefined, which spares a call per file), best first
    * (ties: file order, then position). At most `perFile` sections of one file. Exact scores; with
    * many sections only those that can still place are multiplied (see the header); from listsFrom
    * sections only those of the probed lists and of the files in `also` (then not exact).
@@ -159,7 +160,7 @@ export class SectionStore {
   rank(
     q: Float32Array,
     top: number,
-    accept: (path: string) => boolean = () => true,
+    accept?: (path: string) => boolean,
     perFile = Number.POSITIVE_INFINITY,
     also: readonly string[] = [],
   ): SectionHit[] {
@@ -169,12 +170,7 @@ export class SectionStore {
   }
 
   /** rank() by the exact 8-bit screen over all sections, whatever their count (the reference of the lists). */
-  rankScreened(
-    q: Float32Array,
-    top: number,
-    accept: (path: string) => boolean = () => true,
-    perFile = Number.POSITIVE_INFINITY,
-  ): SectionHit[] {
+  rankScreened(q: Float32Array, top: number, accept?: (path: string) => boolean, perFile = Number.POSITIVE_INFINITY): SectionHit[] {
     if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
     const screen = top > 0 && perFile >= 1 ? this.screen() : null;
     if (!screen) return this.rankExact(q, top, accept, perFile);
@@ -185,7 +181,7 @@ export class SectionStore {
     const best = new Float64Array(top).fill(Number.NEGATIVE_INFINITY);
     const lows: number[] = [];
     for (let f = 0; f < files.length; f++) {
-      if (!accept(paths[f])) continue;
+      if (accept && !accept(paths[f])) continue;
       ok[f] = 1;
       lows.length = 0;
       for (let j = firsts[f]; j < firsts[f + 1]; j++) lows.push(center[j] - radius[j]);
@@ -210,15 +206,10 @@ export class SectionStore {
   }
 
   /** rank() as a full pass over every section (the reference of the screened rank). */
-  rankExact(
-    q: Float32Array,
-    top: number,
-    accept: (path: string) => boolean = () => true,
-    perFile = Number.POSITIVE_INFINITY,
-  ): SectionHit[] {
+  rankExact(q: Float32Array, top: number, accept?: (path: string) => boolean, perFile = Number.POSITIVE_INFINITY): SectionHit[] {
     if (q.length !== this.k) throw new InvalidInputError(`query vector has ${q.length} numbers, the sections have ${this.k}`);
     const all: { path: string; f: FileSections; at: null }[] = [];
-    for (const [path, f] of this._files) if (accept(path)) all.push({ path, f, at: null });
+    for (const [path, f] of this._files) if (!accept || accept(path)) all.push({ path, f, at: null });
     return this.rankOver(all, q, top, perFile);
   }
 
@@ -229,7 +220,7 @@ export class SectionStore {
   rankLists(
     q: Float32Array,
     top: number,
-    accept: (path: string) => boolean = () => true,
+    accept?: (path: string) => boolean,
     perFile = Number.POSITIVE_INFINITY,
     also: readonly string[] = [],
     probe?: number,
@@ -301,6 +292,7 @@ export class SectionStore {
     const heap: { path: string; f: FileSections; i: number; score: number }[] = [];
     let floor = Number.NEGATIVE_INFINITY;
     this._lastExact = 0;
+    if (top <= 0) return [];
     for (const { path, f, at } of list) {
       let taken = 0;
       const scores: { i: number; score: number }[] = [];

@@ -127,6 +127,26 @@ describe('sections against whole files', () => {
   }, 120_000);
 });
 
+describe('searchSections', () => {
+  it('leaves out files the filter refuses and files marked like or unlike (lodash sources)', () => {
+    const fx = loadRankingFixture('lodash-src');
+    const index = buildFixtureIndex(fx);
+    const ctx = foldContextOf(index);
+    for (const d of fx.docs) index.sections.set(d.id, foldSections(ctx, d.id, d.text));
+    for (const q of fx.queries.slice(0, 5)) {
+      const all = searchSections(index, q.text, { top: 20 });
+      expect(all.length).toBeGreaterThan(1);
+      const [first, second] = [all[0].path, all.find((h) => h.path !== all[0].path)!.path];
+      const filtered = searchSections(index, q.text, { top: 20, filter: (p) => p !== first });
+      expect(filtered.some((h) => h.path === first)).toBe(false);
+      expect(filtered.length).toBeGreaterThan(0);
+      const marked = searchSections(index, q.text, { top: 20, like: [first], unlike: [second] });
+      expect(marked.some((h) => h.path === first || h.path === second)).toBe(false);
+      expect(marked.length).toBeGreaterThan(0);
+    }
+  }, 60_000);
+});
+
 /** The text with every reStructuredText title and its adornment lines emptied (line numbers kept). */
 function blankHeadings(text: string): string {
   const lines = splitLines(text);

@@ -59,6 +59,9 @@ describe('SectionStore.rank with 8-bit screening', () => {
       }
     // The screen multiplied well under all sections on average.
     expect(exact / (queries.length * 4)).toBeLessThan(store.screened / 2);
+    // An empty list asked for is empty (the full pass too, past its cut-back size).
+    expect(store.rank(queries[0], 0)).toEqual([]);
+    expect(store.rankExact(queries[0], 0)).toEqual([]);
   });
 });
 
@@ -94,6 +97,9 @@ describe('SectionStore.rank over the probed lists (sectionLists.ts, listedSectio
       const scoreOf = new Map(store.rankExact(q, store.count, other).map((h) => [key(h), h.score]));
       for (const h of got) expect(h.score).toBe(scoreOf.get(key(h)));
       expect(store.rankLists(q, 10, other, 3, [], store.lists()!.lists)).toEqual(exact);
+      // Without a filter (no call per file), with also-files that overlap the probed lists.
+      const also = [path, exact[0]?.path ?? path];
+      expect(store.rankLists(q, 10, undefined, 3, also, store.lists()!.lists)).toEqual(store.rankExact(q, 10, undefined, 3));
     }
     // Measured (this commit, default probe 24 of 37 lists, 196 queries): 0.996. bench/sectionLists.ts
     // (Nearby, probe 24, fileGroups 2) gave 0.988 on this collection's bench queries, 0.995 on the

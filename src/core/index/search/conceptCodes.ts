@@ -1,12 +1,14 @@
 /**
  * An 8-bit copy of the concept vectors for screening: row j is stored as codes c_j ∈ [−127, 127]
  * with one scale s_j = max|v_j|/127 (symmetric per-row quantisation, common practice), together
- * with e_j = ‖v_j − s_j c_j‖₂ rounded up. For a query q the products v_j·q then lie within
- * center_j ± radius_j, where center_j = s_j (c_j·q) and radius_j = e_j‖q‖₂ (Cauchy–Schwarz) plus
- * the f32 rounding of the kernel's sum (Higham 2002, §3.1: γ_k Σ|c_i q_i| ≤ γ_k·127·‖q‖₁), so
- * rows whose bound cannot reach a top place need no exact product. Reads a quarter of the bytes
- * of the f32 rows. Only available with WebAssembly SIMD (../matrix/wasm/codeDotKernel.ts).
- * Memory layout: [16 bytes][query, k f32][codes, capacity × k i8][sums, capacity f64].
+ * with e_j = ‖v_j − s_j c_j‖₂ and n_j = ‖s_j c_j‖₂, both rounded up. A query q is quantised the same
+ * way to whole numbers: q = σ·w + ρ with w_i = round(q_i/σ), |w_i| ≤ W, so the kernel sums
+ * S_j = c_j·w exactly in integers (../matrix/wasm/assembly/codeDotsInt.ts; W keeps k·127·W below
+ * 2^31). Then v_j·q = s_j·σ·S_j + s_j(c_j·ρ) + (v_j − s_j c_j)·q, and by Cauchy–Schwarz the product
+ * lies within center_j ± radius_j, center_j = s_j·σ·S_j and radius_j = n_j‖ρ‖₂ + e_j‖q‖₂ (plus the
+ * f64 rounding of center_j), so rows whose bound cannot reach a top place need no exact product.
+ * Reads a quarter of the bytes of the f32 rows. Only available with WebAssembly SIMD.
+ * Memory layout: [16 bytes][query, k i16 (room for k f32)][codes, capacity × k i8][sums, capacity f64].
  */
 import { codeDotModule, instantiateCodeDots, type CodeDotKernelExports } from '../../matrix/wasm/codeDotKernel.js';
 
@@ -15,8 +17,10 @@ const WASM_LIMIT = 2 ** 32;
 /** Bytes reserved (the maximum) of each memory made here. */
 const RESERVED = new WeakMap<WebAssembly.Memory, number>();
 const align16 = (bytes: number): number => Math.ceil(bytes / 16) * 16;
-/** Unit roundoff of f32 (2^−24). */
-const U32 = 2 ** -24;
+/** Largest |w_i| of the quantised query (i16), lowered so that k·127·W stays below 2^31. */
+const QUERY_MAX = 32767;
+/** Relative bound on the f64 rounding of center_j = s_j·(σ·S_j) (two roundings of 2^−53, generous). */
+const CENTER_ROUNDING = 2 ** -50;
 /** Relative slack that covers the f64 rounding of the bound arithmetic itself (generous). */
 const SLACK = 1e-9;
 /** Rows coded by one step of fill (a look at the caller's budget after each). */
@@ -28,10 +32,11 @@ export class ConceptCodes {
   private _capacity = 0;
   private _filled = 0;
   private _codes: Int8Array = new Int8Array(0);
-  private _query!: Float32Array;
+  private _query!: Int16Array;
   private _sums: Float64Array = new Float64Array(0);
   private _scales: Float64Array = new Float64Array(0);
   private _errors: Float64Array = new Float64Array(0);
+  private _norms: Float64Array = new Float64Array(0);
   private _center = new Float64Array(0);
   private _radius = new Float64Array(0);
 
@@ -89,25 +94,30 @@ export class ConceptCodes {
     for (let c = 0; c < k; c++) max = Math.max(max, Math.abs(v[c]));
     const s = max / 127;
     let err = 0;
+    let norm = 0;
     for (let c = 0; c < k; c++) {
       const code = s > 0 ? Math.max(-127, Math.min(127, Math.round(v[c] / s))) : 0;
       this._codes[slot * k + c] = code;
       const d = v[c] - s * code;
       err += d * d;
+      const x = s * code;
+      norm += x * x;
     }
     this._scales[slot] = s;
     this._errors[slot] = Math.sqrt(err) * (1 + SLACK) + Number.MIN_VALUE;
+    this._norms[slot] = Math.sqrt(norm) * (1 + SLACK);
   }
 
   /** setRow for rows [from, to) of a row-major block (k numbers a row): the same codes, one tight loop. */
   setRows(rows: Float32Array, from: number, to: number): void {
-    codeRows(rows, this.k, from, to, this._codes, this._scales, this._errors);
+    codeRows(rows, this.k, from, to, this._codes, this._scales, this._errors, this._norms);
   }
 
   /** setRows for `count` rows of a block whose row 0 goes to `slot` (rows [slot, slot + count)). */
   setRowsAt(slot: number, rows: Float32Array, count: number): void {
     const k = this.k;
-    codeRows(rows, k, 0, count, this._codes.subarray(slot * k), this._scales.subarray(slot), this._errors.subarray(slot));
+    const [codes, scales, errors, norms] = [this._codes, this._scales, this._errors, this._norms];
+    codeRows(rows, k, 0, count, codes.subarray(slot * k), scales.subarray(slot), errors.subarray(slot), norms.subarray(slot));
     this._filled = Math.max(this._filled, slot + count);
   }
 
@@ -116,40 +126,51 @@ export class ConceptCodes {
    * as they were. Views (row-indexed) reused by the next call.
    */
   boundsRuns(q: ArrayLike<number>, from: Int32Array, to: Int32Array, runs: number): { center: Float64Array; radius: Float64Array } {
-    const { norm2, rounding } = this.loadQuery(q);
+    const query = this.loadQuery(q);
     for (let r = 0; r < runs; r++) {
       const [a, b] = [from[r], to[r]];
-      this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, this.k, a, b, this._sums.byteOffset);
-      boundRows(
-        this._sums.subarray(a, b),
-        this._scales.subarray(a, b),
-        this._errors.subarray(a, b),
-        norm2,
-        rounding,
-        this._center.subarray(a, b),
-        this._radius.subarray(a, b),
-      );
+      this._kernel.code_dots_int(this._codes.byteOffset, this._query.byteOffset, this.k, a, b, this._sums.byteOffset);
+      this.boundRows(query, this._center, this._radius, a, b);
     }
     return { center: this._center, radius: this._radius };
   }
 
-  /** Copies q into the kernel's memory; the query's terms of every row's bound. */
-  private loadQuery(q: ArrayLike<number>): { norm2: number; rounding: number } {
+  /** Quantises q into the kernel's memory (w); its scale σ and the query's terms of every row's bound. */
+  private loadQuery(q: ArrayLike<number>): Query {
     const k = this.k;
-    let l1 = 0;
+    const most = Math.min(QUERY_MAX, Math.floor((2 ** 31 - 1) / (127 * k)));
+    let max = 0;
+    for (let c = 0; c < k; c++) max = Math.max(max, Math.abs(q[c]));
+    const sigma = max / most;
     let l2 = 0;
+    let rest = 0;
     for (let c = 0; c < k; c++) {
-      this._query[c] = q[c];
-      l1 += Math.abs(q[c]);
+      const w = sigma > 0 ? Math.max(-most, Math.min(most, Math.round(q[c] / sigma))) : 0;
+      this._query[c] = w;
+      const d = q[c] - sigma * w;
       l2 += q[c] * q[c];
+      rest += d * d;
     }
-    return { norm2: Math.sqrt(l2) * (1 + SLACK), rounding: ((k * U32) / (1 - k * U32)) * 127 * l1 * (1 + SLACK) };
+    // ‖ρ‖ and ‖q‖ rounded up; 1e-300 covers an underflow of the tiny d·d.
+    return { sigma, norm2: Math.sqrt(l2) * (1 + SLACK), rest: Math.sqrt(rest) * (1 + SLACK) + 1e-300 };
+  }
+
+  /** center and radius of rows [from, to) from the kernel's sums (see the header). */
+  private boundRows(query: Query, center: Float64Array, radius: Float64Array, from: number, to: number): void {
+    const { sigma, norm2, rest } = query;
+    const [sums, scales, errors, norms] = [this._sums, this._scales, this._errors, this._norms];
+    for (let j = from; j < to; j++) {
+      const c = scales[j] * (sigma * sums[j]);
+      center[j] = c;
+      radius[j] = (norms[j] * rest + errors[j] * norm2) * (1 + SLACK) + Math.abs(c) * CENTER_ROUNDING + 1e-300;
+    }
   }
 
   clearRow(slot: number): void {
     this._codes.fill(0, slot * this.k, (slot + 1) * this.k);
     this._scales[slot] = 0;
     this._errors[slot] = 0;
+    this._norms[slot] = 0;
   }
 
   ensureCapacity(slots: number): void {
@@ -169,7 +190,7 @@ export class ConceptCodes {
     const have = this._memory.buffer.byteLength;
     if (need > have) this._memory.grow(Math.ceil((need - have) / PAGE));
     const buffer = this._memory.buffer;
-    this._query = new Float32Array(buffer, 16, k);
+    this._query = new Int16Array(buffer, 16, k);
     this._codes = new Int8Array(buffer, align16(16 + 4 * k), capacity * k);
     this._codes.fill(0, old * k); // the old sums scratch lay here
     this._sums = new Float64Array(buffer, align16(align16(16 + 4 * k) + capacity * k), capacity);
@@ -180,6 +201,7 @@ export class ConceptCodes {
     };
     this._scales = grow(this._scales);
     this._errors = grow(this._errors);
+    this._norms = grow(this._norms);
     this._center = new Float64Array(capacity);
     this._radius = new Float64Array(capacity);
     this._capacity = capacity;
@@ -190,11 +212,11 @@ export class ConceptCodes {
    * next call.
    */
   bounds(q: ArrayLike<number>, n: number): { center: Float64Array; radius: Float64Array } {
-    const { norm2, rounding } = this.loadQuery(q);
-    this._kernel.code_dots(this._codes.byteOffset, this._query.byteOffset, this.k, 0, n, this._sums.byteOffset);
+    const query = this.loadQuery(q);
+    this._kernel.code_dots_int(this._codes.byteOffset, this._query.byteOffset, this.k, 0, n, this._sums.byteOffset);
     const center = this._center.subarray(0, n);
     const radius = this._radius.subarray(0, n);
-    boundRows(this._sums, this._scales, this._errors, norm2, rounding, center, radius);
+    this.boundRows(query, center, radius, 0, n);
     return { center, radius };
   }
 
@@ -235,6 +257,7 @@ function codeRows(
   codes: Int8Array,
   scales: Float64Array,
   errors: Float64Array,
+  norms: Float64Array,
 ): void {
   for (let j = from; j < to; j++) {
     const base = j * k;
@@ -245,6 +268,7 @@ function codeRows(
     }
     const s = max / 127;
     let err = 0;
+    let norm = 0;
     if (s > 0) {
       for (let c = base; c < base + k; c++) {
         const v = rows[c];
@@ -254,6 +278,8 @@ function codeRows(
         codes[c] = code;
         const d = v - s * code;
         err += d * d;
+        const x = s * code;
+        norm += x * x;
       }
     } else {
       for (let c = base; c < base + k; c++) {
@@ -264,21 +290,13 @@ function codeRows(
     }
     scales[j] = s;
     errors[j] = Math.sqrt(err) * (1 + SLACK) + Number.MIN_VALUE;
+    norms[j] = Math.sqrt(norm) * (1 + SLACK);
   }
 }
 
-function boundRows(
-  sums: Float64Array,
-  scales: Float64Array,
-  errors: Float64Array,
-  norm2: number,
-  rounding: number,
-  center: Float64Array,
-  radius: Float64Array,
-): void {
-  for (let j = 0; j < center.length; j++) {
-    const s = scales[j];
-    center[j] = s * sums[j];
-    radius[j] = (errors[j] * norm2 + s * rounding) * (1 + SLACK) + 1e-300;
-  }
+/** A quantised query's scale σ, ‖q‖₂ and ‖ρ‖₂ (both rounded up). */
+interface Query {
+  readonly sigma: number;
+  readonly norm2: number;
+  readonly rest: number;
 }

@@ -24,6 +24,8 @@ export interface KernelModuleExports {
   dots(rows: number, q: number, k: number, r0: number, r1: number, out: number): void;
   /** assembly/codeDots.ts */
   code_dots(codes: number, q: number, k: number, r0: number, r1: number, out: number): void;
+  /** assembly/codeDotsInt.ts */
+  code_dots_int(codes: number, q: number, k: number, r0: number, r1: number, out: number): void;
 }
 
 /** The module's bytes, decoded from kernelsWasm.ts. */

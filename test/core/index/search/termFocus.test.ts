@@ -26,6 +26,18 @@ describe('meanResultant', () => {
     expect(meanResultant(rows, 3, visitAll([1]))).toEqual({ r: 1, m: 1 });
     expect(meanResultant(rows, 3, visitAll([]))).toEqual({ r: 1, m: 0 });
   });
+  it('sums the rows one at a time in the visiting order (the same bits, however many rows are taken a step)', () => {
+    const k = 37;
+    const random = createRandom(11);
+    const rows = Float32Array.from({ length: 50 * k }, () => random.normal());
+    for (const m of [1, 7, 8, 9, 23, 50]) {
+      const picks = Array.from({ length: m }, () => Math.floor(random.next() * 50));
+      const acc = new Float64Array(k);
+      for (const j of picks) for (let c = 0; c < k; c++) acc[c] += rows[j * k + c];
+      const r = Math.min(1, Math.sqrt(acc.reduce((s, x) => s + x * x, 0)) / m);
+      expect(Object.is(meanResultant(rows, k, visitAll(picks)).r, r)).toBe(true);
+    }
+  });
 });
 
 describe('focusOf', () => {

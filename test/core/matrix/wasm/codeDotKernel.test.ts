@@ -50,4 +50,30 @@ describe('codeDotKernel', () => {
       }
     }
   });
+
+  it('code_dots_int: the exact integer dot product of 8-bit codes and 16-bit whole numbers at their extremes, for exactly the rows asked for', () => {
+    const memory = new WebAssembly.Memory({ initial: 8, maximum: 16, shared: true });
+    const kernel = instantiateCodeDots(codeDotModule()!, memory);
+    const rnd = createRandom(5);
+    // k = 289: 127 · 32767 · 289 < 2^31, the largest sums the caller allows (conceptCodes.ts).
+    for (const k of [16, 37, 289, 7]) {
+      const n = 30;
+      const codes = new Int8Array(memory.buffer, 65536, n * k);
+      const q = new Int16Array(memory.buffer, 1024, k);
+      const out = new Float64Array(memory.buffer, 16384, n);
+      for (let i = 0; i < codes.length; i++) codes[i] = (rnd.nextUint32() % 255) - 127;
+      for (let c = 0; c < k; c++) q[c] = (rnd.nextUint32() % 65535) - 32767;
+      codes.fill(127, 0, k); // row 1 and row 2: every product at its largest, of either sign
+      q.fill(32767);
+      codes.fill(-127, k, 2 * k);
+      out.fill(-1);
+      kernel.code_dots_int(codes.byteOffset, q.byteOffset, k, 0, n - 1, out.byteOffset);
+      for (let j = 0; j < n; j++) {
+        let ref = 0;
+        for (let c = 0; c < k; c++) ref += codes[j * k + c] * q[c]; // exact in f64 (below 2^53)
+        expect(out[j]).toBe(j < n - 1 ? ref : -1);
+      }
+      expect(Math.abs(out[0])).toBe(127 * 32767 * k);
+    }
+  });
 });

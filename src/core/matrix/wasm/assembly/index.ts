@@ -10,3 +10,4 @@ export { cross } from './cross';
 export { times } from './times';
 export { dots } from './dots';
 export { code_dots } from './codeDots';
+export { code_dots_int } from './codeDotsInt';
