@@ -78,6 +78,8 @@ export interface TopicsOptions {
   countDraws: number;
   /** k-means restarts at the first level; undefined means restartsFor (a budget of work, see there). */
   restarts?: number;
+  /** Refine each first-level k-means restart by first-variation moves before the restarts are compared (firstVariation.ts; see the header). @default true */
+  refine: boolean;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
   /** @default DEFAULT_SEED */
@@ -97,6 +99,7 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   namePool: DEFAULT_NAME_POOL_FACTOR,
   filesPerTopic: 5,
   curMethod: 'deim',
+  refine: true,
   fitSample: 2000,
   countDraws: 1,
   seed: DEFAULT_SEED,
@@ -213,7 +216,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
       : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
   yield;
-  const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts);
+  const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts, o.refine);
   const K = clustering.clusters;
   yield;
 
@@ -420,6 +423,9 @@ function dotRow(a: Float64Array, i: number, b: Float64Array, j: number, dims: nu
   return s;
 }
 
+/** First-variation sweeps per first-level restart (firstVariation.ts' default; our choice). */
+const FIRST_LEVEL_SWEEPS = 10;
+
 /**
  * Restarts that fit a budget of about 4·10⁸ multiply-adds (20 Lloyd passes of n·K·dims each),
  * kept between 3 and 100: small folders get many restarts, which on the demo lifts the agreement
@@ -442,8 +448,14 @@ function clusterPoints(
   fitSample: number,
   seed: number,
   restarts?: number,
+  refine = false,
 ): Clustering {
-  if (n <= fitSample) return sphericalKMeans(points, n, dims, k, { seed, restarts: restarts ?? restartsFor(n, k, dims) });
+  if (n <= fitSample)
+    return sphericalKMeans(points, n, dims, k, {
+      seed,
+      restarts: restarts ?? restartsFor(n, k, dims),
+      refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0,
+    });
   const random = createRandom(seed);
   const order = Int32Array.from({ length: n }, (_, i) => i);
   for (let i = 0; i < fitSample; i++) {
@@ -452,6 +464,10 @@ function clusterPoints(
   }
   const sample = new Float64Array(fitSample * dims);
   for (let i = 0; i < fitSample; i++) sample.set(points.subarray(order[i] * dims, (order[i] + 1) * dims), i * dims);
-  const fitted = sphericalKMeans(sample, fitSample, dims, k, { seed, restarts: restarts ?? restartsFor(fitSample, k, dims) });
+  const fitted = sphericalKMeans(sample, fitSample, dims, k, {
+    seed,
+    restarts: restarts ?? restartsFor(fitSample, k, dims),
+    refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0,
+  });
   return sphericalKMeans(points, n, dims, k, { initial: fitted.centres, maxIterations: 10 });
 }
