@@ -18,6 +18,7 @@
  * pass) is timed in CPU too, so that figures taken on a loaded machine can be read against the
  * machine's speed at that moment; the load average is printed with them.
  * The whole kernel tree is indexed with --no-gitignore (its .gitignore leaves the scanner nothing).
+ * OPTIONS='<JSON>' replaces some of findTopics' defaults (a partial TopicsOptions), to compare variants.
  * With `file`, the index file is loaded (persist.ts loadIndex, the load's wall and CPU time
  * printed) and the runs follow as above; for the figure a user meets (one process: load and one
  * tree, peak RSS) run it under /usr/bin/time -v with RUNS=1.
@@ -47,12 +48,14 @@ import { dirname, join, resolve } from 'node:path';
 import { loadavg } from 'node:os';
 import { gunzipSync } from 'node:zlib';
 import { indexFileFrom } from '../src/cli/context.js';
-import { findTopics, walkTopics } from '../src/core/topics/topics.js';
+import { findTopics, walkTopics, type TopicsOptions } from '../src/core/topics/topics.js';
 import { indexFolder } from '../src/node/folderIndexer.js';
 import { loadIndex } from '../src/node/persist.js';
 import type { LsiIndex } from '../src/core/index/lsiIndex.js';
 
 const RUNS = Number(process.env.RUNS ?? 3);
+/** Topic options to try instead of the defaults, as JSON (e.g. OPTIONS='{"refine":false}'). */
+const OPTIONS = JSON.parse(process.env.OPTIONS ?? '{}') as Partial<TopicsOptions>;
 const CACHE = resolve('.cache/bench');
 const which = process.argv[2] ?? 'all';
 
@@ -152,7 +155,7 @@ function runTrees(title: string, index: LsiIndex): void {
     reference.push(`${(ref.rate / 1e9).toFixed(2)}`);
     const s = performance.now();
     const c0 = process.cpuUsage();
-    const report = findTopics(index, { seed: index.settings.seed });
+    const report = findTopics(index, { seed: index.settings.seed, ...OPTIONS });
     times.push(performance.now() - s);
     const c1 = process.cpuUsage(c0);
     cpu.push((c1.user + c1.system) / 1000);
