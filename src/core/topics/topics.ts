@@ -251,7 +251,6 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
 
   const scratch = new NameScratch(im.matrix.cols);
   const termFiles = o.coherentNames ? new TermFiles(im.matrix) : null;
-  const random = createRandom(o.seed ^ 0x5eed);
   let levels = 1;
   function* build(
     memberGroups: number[][],
@@ -304,7 +303,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       let children: Topic[] = [];
       if (level < o.depth && group.length > o.leafSize) {
         yield;
-        const sub = splitGroup(points, idx, dims, o, random.nextUint32());
+        const sub = splitGroup(points, idx, dims, o, splitSeed(o.seed, path));
         if (sub.length > 1)
           children = yield* build(
             sub,
@@ -400,6 +399,17 @@ function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: Topi
   const out: number[][] = Array.from({ length: c.clusters }, () => []);
   for (let j = 0; j < m; j++) out[c.assignment[j]].push(idx[j]);
   return out.filter((g) => g.length > 0).length > 1 ? out : [];
+}
+
+/**
+ * The seed of a topic's split, from the tree's seed and the topic's path (FNV-1a of the path, then
+ * the seeded source's first draw): a topic splits the same way whatever the depth asked for and
+ * whichever topics split before it, so `--depth 2` shows the second level of the full tree.
+ */
+export function splitSeed(seed: number, path: string): number {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < path.length; i++) h = Math.imul(h ^ path.charCodeAt(i), 0x01000193) >>> 0;
+  return createRandom((seed ^ 0x5eed ^ h) >>> 0).nextUint32();
 }
 
 /** Larger groups first; ties by their first point. */
