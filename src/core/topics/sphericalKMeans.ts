@@ -60,7 +60,7 @@ export function sphericalKMeans(
   const products = new PointProducts(points, n, dims, o.initial ? o.initial.length / dims : Math.min(k, n));
   const refine = (c: Clustering): Clustering => {
     if (!(o.refineSweeps > 0) || c.clusters < 2) return c;
-    const r = firstVariation(points, n, dims, c.assignment, c.clusters, { maxSweeps: o.refineSweeps });
+    const r = firstVariation(points, n, dims, c.assignment, c.clusters, { maxSweeps: o.refineSweeps }, products);
     return { ...c, assignment: r.assignment, centres: r.centres, objective: r.objective };
   };
   if (o.initial) return refine(lloyd(points, n, dims, o.initial, o.maxIterations, products));

@@ -12,12 +12,17 @@
  *    (0.281 vs 0.285, seed 0; scripts/fixtures/topicNamesHeldOut.ts), where one draw is at or
  *    above both (test/core/topics/topicQuality.test.ts), so the default stays one draw
  *    (measured 2026-12-03; a stability criterion may settle it better).
+ *    Each first-level restart is refined by first-variation moves before the restarts are compared
+ *    (firstVariation.ts): Lloyd's step leaves assignments where moving one file still raises the
+ *    objective. On the CMake and Django manuals over seeds 0–9 (scripts/fixtures/topicLevels.ts,
+ *    LEVELS=2, measured 2026-12-03) it left CMake's agreement with its folders where it was and
+ *    raised Django's at both levels (see the README's topics paragraph for the figures).
  * 2. Files that fit no topic well are set apart ("loose"): a file whose cosine with its topic's
  *    centre is no larger than its cosine with the centre of the whole workspace is explained by
  *    its topic no better than by the workspace's average direction (our rule; no constant).
  * 3. Each topic with more than leafSize files opens into sub-topics: spherical k-means on its own
  *    files, the count again by silhouette (a cheaper sample, up to maxChildren), down to depth
- *    levels. A split that leaves one group is no split. This is divisive hierarchical clustering
+ *    levels, each split seeded by its topic's path (splitSeed). A split that leaves one group is no split. This is divisive hierarchical clustering
  *    (Steinbach, Karypis & Kumar 2000, "A comparison of document clustering techniques", KDD
  *    workshop on text mining: bisecting k-means), generalised to more than two children per
  *    split by the silhouette.
