@@ -41,6 +41,11 @@
  *   (medians of the nine 5.53 and 4.64 s; the first run of each round, the JIT cold, 5.6–7.4 and
  *   5.5–6.1 s); wall medians 8.62, 5.57, 4.85 and 5.52, 4.68, 4.35 s; peak RSS 316–338 MiB and
  *   382–403 MiB (the kernels' memories, dropped with each product object, wait for the GC).
+ *   With the first level's restarts refined by first variation (firstVariation.ts; OPTIONS='{"refine":false}'
+ *   without), alternating, load 8–12: Documentation CPU 6.87, 4.33, 4.58 and 6.95, 5.25, 3.66 s
+ *   (without: 5.92, 4.63, 4.76 and 4.94, 3.14, 3.51 s); whole tree (RUNS=1, /usr/bin/time -v) tree CPU
+ *   40.9 s (wall 292 s at load 11–12; 18 / 110 / 499 / 1505 topics), without 42.5 s (wall 90.8 s at
+ *   load 8.6–9.5), peak RSS 4.14 and 4.16 GB (2026-12-03).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
