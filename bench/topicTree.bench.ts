@@ -44,8 +44,9 @@
  *   With the first level's restarts refined by first variation (firstVariation.ts; OPTIONS='{"refine":false}'
  *   without), alternating, load 8–12: Documentation CPU 6.87, 4.33, 4.58 and 6.95, 5.25, 3.66 s
  *   (without: 5.92, 4.63, 4.76 and 4.94, 3.14, 3.51 s); whole tree (RUNS=1, /usr/bin/time -v) tree CPU
- *   40.9 s (wall 292 s at load 11–12; 18 / 110 / 499 / 1505 topics), without 42.5 s (wall 90.8 s at
- *   load 8.6–9.5), peak RSS 4.14 and 4.16 GB (2026-12-03).
+ *   40.9, 43.1, 35.5 s (wall 292 s at load 11–12, 43.1 and 38.5 s at load 4; process 50.7 and 45.5 s;
+ *   18 / 110 / 499 / 1505 topics, 2642 loose), without 42.5, 39.2, 37.7 s (wall 90.8 s at load 9,
+ *   54.1 and 53.7 s at load 4–5; 2065 loose), peak RSS 4.14–4.25 and 4.16–4.28 GB (2026-12-03).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
