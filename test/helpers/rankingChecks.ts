@@ -47,6 +47,7 @@ function lines(dir: string, name: string): string[] {
 export const RANKING_CHECKS: readonly (readonly [string, 'nearby' | 'search'])[] = [
   ['cmake-doc', 'nearby'],
   ['django-doc', 'nearby'],
+  ['sphinx-doc', 'nearby'],
   ['rxjs-src', 'search'],
   ['lodash-src', 'search'],
   ['corpora/cisi', 'search'],

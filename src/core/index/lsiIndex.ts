@@ -50,6 +50,7 @@ export {
   type DocMeta,
   type DocSlot,
   type NearbyHit,
+  type NearbyOptions,
   type PrepareOptions,
   type SearchHit,
   type SearchOptions,
@@ -59,6 +60,7 @@ import {
   type DocMeta,
   type DocSlot,
   type NearbyHit,
+  type NearbyOptions,
   type PrepareOptions,
   type SearchHit,
   type SearchOptions,
@@ -305,13 +307,13 @@ export class LsiIndex {
    * BM25 score of the file's most distinctive terms against the others, divided by the best
    * other file's (fusion.ts).
    */
-  nearby(path: string, options: Partial<SearchOptions> = {}): NearbyHit[] {
+  nearby(path: string, options: Partial<NearbyOptions> = {}): NearbyHit[] {
     const self = this.slot(path);
     const live = this.acceptor(options.filter);
     const accept = (j: number): boolean => j !== self && live(j);
     const n = this._slots.length;
     const mu = this.ranking.nearbyLexical;
-    const { lexical } = this.nearbyPlan(path);
+    const { lexical } = this.nearbyPlan(path, options.wordMatchDelta);
     const { ranked, product } = this.rank(
       this.vectorOf(path),
       1 - mu,
@@ -333,8 +335,9 @@ export class LsiIndex {
    * Nearby's lexical evidence for a file: its lexical query (most distinctive terms), the best
    * BM25 score among the other files, and every file's score divided by it (itself 0; a view
    * overwritten by the next search). Without a lexical share (nearbyLexical = 0) all zeros.
+   * `delta`: BM25L's δ of the word match (default: the ranking options' nearbyDelta).
    */
-  nearbyPlan(path: string): { lexicalQuery: DocTerms; max: number; lexical: Float64Array } {
+  nearbyPlan(path: string, delta: number = this.ranking.nearbyDelta): { lexicalQuery: DocTerms; max: number; lexical: Float64Array } {
     const self = this.slot(path);
     const n = this._slots.length;
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
@@ -342,7 +345,7 @@ export class LsiIndex {
     const lexicalQuery = this.fileQuery(self, 1);
     let max = 0;
     if (this.ranking.nearbyLexical > 0) {
-      this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm, this.ranking.nearbyDelta);
+      this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm, delta);
       lexical[self] = 0;
       max = divideByMax(lexical);
     }

@@ -39,7 +39,10 @@ export interface NearbyHit {
   readonly score: number;
   /** Cosine similarity of the two files' concept vectors. */
   readonly conceptScore: number;
-  /** BM25 of the file's most distinctive terms, divided by the best other file's (0…1). */
+  /**
+   * BM25L (δ: RankingOptions.nearbyDelta, or NearbyOptions.wordMatchDelta) of the file's most
+   * distinctive terms, divided by the best other file's (0…1).
+   */
   readonly lexicalScore: number;
 }
 
@@ -52,6 +55,12 @@ export interface SearchOptions {
   like?: readonly string[];
   /** Search only: indexed files to find fewer like (Rocchio feedback; they are not ranked). */
   unlike?: readonly string[];
+}
+
+/** Nearby's options: a search's, and the word match's BM25L δ for callers with their own calibration. */
+export interface NearbyOptions extends SearchOptions {
+  /** BM25L's δ of the word match (0 = classic BM25). @default RankingOptions.nearbyDelta */
+  wordMatchDelta?: number;
 }
 
 export interface PrepareOptions {

@@ -14,18 +14,20 @@
  *    in stats.skippedShort and skipped.
  * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
  *    file's other neighbours when a file names nothing rare, else holding the same rare names
- *    (rareNames.ts) when neither is a stub; little shared text).
+ *    (rareNames.ts) when neither is a stub, or with margin and name share together high enough
+ *    when a BM25 view of the same counts agrees (bm25View.ts); little shared text).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */
 import { InvalidInputError } from '../errors.js';
 import { bandCandidates } from './banding.js';
 import { contentHash, isBlankText } from './contentHash.js';
+import { bm25View } from './bm25View.js';
 import { createMinHasher, estimateJaccard } from './minhash.js';
 import { resolveLookalikeOptions, type LookalikeOptions } from './options.js';
 import { rareNameIndex } from './rareNames.js';
 import { boilerplateLines, findRetoldPairs, lineKey, withoutBoilerplate } from './retold.js';
-import { buildTermSpace, termNeighbours, termSpaceFromCounts, type TermCountRow, type TermSpace } from './termSpace.js';
+import { termCountsOf, termNeighbours, termSpaceFromCounts, type TermCountRow } from './termSpace.js';
 import { lineCounts, nonBlankLineCount, sharedLineCount } from './sharedLines.js';
 import { jaccardSorted, shingleSet, shingleTokens } from './shingles.js';
 import type { ExactGroup, LookalikeFile, LookalikeInput, LookalikePair, LookalikeReport } from './types.js';
@@ -107,7 +109,8 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     shingled.map((f) => files[f].text),
     o.boilerplateFiles,
   );
-  const space = termSpaceOf(shingled, boilerplate);
+  const rows = termRowsOf(shingled, boilerplate);
+  const space = termSpaceFromCounts(rows);
   const nb = termNeighbours(space, {
     k: o.neighbours,
     candidates: Math.max(50, 5 * o.neighbours),
@@ -184,6 +187,8 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   };
   const K = o.neighbours;
   const termLists = collapse((t) => ({ index: nb.index.subarray(t * K, t * K + K), cosine: nb.cosine.subarray(t * K, t * K + K) }));
+  // Clause c is off unless one of its two levels is finite (options.ts says why it is off by default).
+  const clauseC = Number.isFinite(o.retoldMinEvidence) || Number.isFinite(o.retoldFewNamesMinEvidence);
   const rule = {
     minCosine: o.retoldMinCosine,
     minGap: o.retoldMinGap,
@@ -193,13 +198,43 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     minNameWords: o.retoldNameMinWords,
     minWords: o.retoldMinWords,
     namesDecide: o.retoldNamesDecide,
+    minEvidence: clauseC ? o.retoldMinEvidence : undefined,
+    minEvidenceFewNames: o.retoldFewNamesMinEvidence,
+    minEvidenceCosine: o.retoldEvidenceMinCosine,
+    minEvidenceWords: o.retoldEvidenceMinWords,
   };
   const names = rareNameIndex(
     shingled.map((f) => files[f].text),
     o.retoldNameMaxDf,
   );
+  // Second view (clause c): under BM25 weights, neither file has a term-space neighbour (copies of
+  // the other left out) nearer than its partner.
+  const bm25 = clauseC ? bm25View(rows, space.df) : undefined;
+  const bothNearest = (x: number, y: number): boolean => {
+    if (!bm25) return false;
+    const pair = bm25.cosine(x, y);
+    for (const [from, to] of [
+      [x, y],
+      [y, x],
+    ]) {
+      for (let r = 0; r < K; r++) {
+        const d = nb.index[from * K + r];
+        if (d < 0) break;
+        if (d === to || estimate(d, to) >= o.partialThreshold) continue;
+        if (bm25.cosine(from, d) > pair) return false;
+      }
+    }
+    return true;
+  };
   const retold = findRetoldPairs(
-    { ...termLists, jaccard: jac, maxJaccard: o.retoldMaxJaccard, names: names.pair, words: tokenCounts },
+    {
+      ...termLists,
+      jaccard: jac,
+      maxJaccard: o.retoldMaxJaccard,
+      names: names.pair,
+      words: tokenCounts,
+      secondView: clauseC ? bothNearest : undefined,
+    },
     rule,
   );
   const retoldPairs = retold.map((p) => ({
@@ -232,20 +267,22 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     },
   };
 
-  /** Term space of the listed files: from the given counts minus boilerplate lines, or from the texts. */
-  function termSpaceOf(list: readonly number[], boilerplate: ReadonlySet<string>): TermSpace {
+  /** Raw term counts of the listed files: the given counts minus boilerplate lines, or counted from the texts. */
+  function termRowsOf(list: readonly number[], boilerplate: ReadonlySet<string>): TermCountRow[] {
     const { termCounts, countLine } = input;
-    if (!termCounts || !countLine) return buildTermSpace(list.map((f) => withoutBoilerplate(files[f].text, boilerplate)));
+    if (!termCounts || !countLine) return termCountsOf(list.map((f) => withoutBoilerplate(files[f].text, boilerplate)));
     const lineCache = new Map<string, TermCountRow>();
-    const rows = list.map((f) => {
+    // Kept until the rule's second view (bm25View.ts): a file without boilerplate keeps its given row.
+    return list.map((f) => {
       const row = termCounts[f];
       if (boilerplate.size === 0) return row;
-      const counts = Float64Array.from(row.counts as ArrayLike<number>);
+      const lines = files[f].text.split(/\r\n|\r|\n/).filter((l) => boilerplate.has(lineKey(l)));
+      if (lines.length === 0) return row;
+      const counts = Float32Array.from(row.counts as ArrayLike<number>);
       const slot = new Map<number, number>();
       for (let p = 0; p < row.termIds.length; p++) slot.set(row.termIds[p], p);
-      for (const line of files[f].text.split(/\r\n|\r|\n/)) {
+      for (const line of lines) {
         const key = lineKey(line);
-        if (!boilerplate.has(key)) continue;
         let terms = lineCache.get(key);
         if (!terms) lineCache.set(key, (terms = countLine(line)));
         for (let q = 0; q < terms.termIds.length; q++) {
@@ -255,7 +292,6 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       }
       return { termIds: row.termIds, counts };
     });
-    return termSpaceFromCounts(rows);
   }
 
   function pairOf(band: LookalikePair['band'], x: number, y: number, j: number): LookalikePair {

@@ -23,6 +23,15 @@
  *       tells, a same-area neighbour has other ones; a stub page that only points to another
  *       (a property and the variable that sets its default) names the same thing without
  *       telling it.
+ *    c. (both files hold rare names) margin and name share add up to at least minEvidence, with
+ *       at least minSharedNames names in common (at least minEvidenceFewNames with one or two
+ *       fewer, down to 1), the shorter file at least minEvidenceWords words and a cosine of at
+ *       least minEvidenceCosine — and a second view agrees: under
+ *       another weighting of the same counts (RetoldInput.secondView; findLookalikes uses BM25,
+ *       bm25View.ts) the two are still each other's nearest among their term-space neighbours. A pair just short of
+ *       clause b's name share or length but standing clear of its neighbourhood tells the same
+ *       thing; two pages of one kind that hold each other's names stand clear under one
+ *       weighting more often than under two.
  *    Either way the shorter file must have at least minWords words: a page of a few dozen words
  *    (a stub that points to another page) is too short to tell the same content.
  *    Pairs only: a file has at most one such partner, so nothing chains.
@@ -42,8 +51,15 @@ export interface RetoldParams {
   readonly minNameWords?: number;
   /** Both clauses: least word count of the shorter file (RetoldInput.words). */
   readonly minWords?: number;
-  /** Clause a only when a file holds no rare name (needs RetoldInput.names); otherwise clause b decides. */
+  /** Clause a only when a file holds no rare name (needs RetoldInput.names); otherwise clauses b and c decide. */
   readonly namesDecide?: boolean;
+  /** Clause c (needs RetoldInput.names and secondView): least margin + name share; absent = off. */
+  readonly minEvidence?: number;
+  /** Clause c when the pair shares at least 1 but fewer than minSharedNames rare names; absent = those pairs are left out. */
+  readonly minEvidenceFewNames?: number;
+  /** Clause c: least cosine (may be below minCosine) and least words of the shorter file. */
+  readonly minEvidenceCosine?: number;
+  readonly minEvidenceWords?: number;
 }
 
 export interface RetoldInput {
@@ -58,6 +74,8 @@ export interface RetoldInput {
   readonly names?: (a: number, b: number) => RareNames;
   /** Each file's word count (minWords, clause b's minNameWords); without it no count is checked. */
   readonly words?: readonly number[];
+  /** Whether a second weighting agrees that a and b are each other's nearest (clause c); without it clause c is off. */
+  readonly secondView?: (a: number, b: number) => boolean;
 }
 
 export interface RetoldPair {
@@ -71,8 +89,8 @@ export interface RetoldPair {
   readonly nameShare: number;
   /** Rare names each file holds (0, 0 without RetoldInput.names). */
   readonly namesHeld: readonly [number, number];
-  /** The clause that passed the pair: 'margin' (a) or 'names' (b). */
-  readonly clause: 'margin' | 'names';
+  /** The clause that passed the pair: 'margin' (a), 'names' (b) or 'combined' (c). */
+  readonly clause: 'margin' | 'names' | 'combined';
   /** gap + nameShare: the ranking. */
   readonly score: number;
 }
@@ -84,22 +102,36 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
     const d = neighbours[i][0];
     if (d === undefined || d <= i || neighbours[d][0] !== i) continue;
     const c = cosines[i][0];
-    if (c < params.minCosine) continue;
+    const evidenceOn = params.minEvidence !== undefined && input.names !== undefined && input.secondView !== undefined;
+    if (c < Math.min(params.minCosine, evidenceOn ? (params.minEvidenceCosine ?? params.minCosine) : Infinity)) continue;
     const next = Math.max(cosines[i][1] ?? 0, cosines[d][1] ?? 0);
     const gap = c - next;
-    if (gap < Math.min(params.minGap, params.minNameGap ?? Infinity)) continue;
+    if (gap < Math.min(params.minGap, params.minNameGap ?? Infinity, evidenceOn ? 0 : Infinity)) continue;
     if (input.jaccard(i, d) >= input.maxJaccard) continue;
-    if (input.words !== undefined && Math.min(input.words[i], input.words[d]) < (params.minWords ?? 0)) continue;
+    const shorter = input.words === undefined ? Infinity : Math.min(input.words[i], input.words[d]);
+    if (shorter < (params.minWords ?? 0)) continue;
     const names = input.names ? input.names(i, d) : { shared: 0, share: 0, own: [0, 0] as const };
     const bothNamed = names.own[0] > 0 && names.own[1] > 0;
-    const byGap = gap >= params.minGap && !(params.namesDecide === true && input.names !== undefined && bothNamed);
+    const strong = c >= params.minCosine;
+    const byGap = strong && gap >= params.minGap && !(params.namesDecide === true && input.names !== undefined && bothNamed);
     const byNames =
+      strong &&
       input.names !== undefined &&
       gap >= (params.minNameGap ?? Infinity) &&
       names.shared >= (params.minSharedNames ?? 1) &&
       names.share >= (params.minNameShare ?? Infinity) &&
-      (input.words === undefined || Math.min(input.words[i], input.words[d]) >= (params.minNameWords ?? 0));
-    if (!byGap && !byNames) continue;
+      shorter >= (params.minNameWords ?? 0);
+    const byBoth =
+      !byGap &&
+      !byNames &&
+      evidenceOn &&
+      bothNamed &&
+      c >= (params.minEvidenceCosine ?? params.minCosine) &&
+      names.shared >= 1 &&
+      gap + names.share >= ((names.shared >= (params.minSharedNames ?? 1) ? params.minEvidence : params.minEvidenceFewNames) ?? Infinity) &&
+      shorter >= (params.minEvidenceWords ?? 0) &&
+      input.secondView!(i, d);
+    if (!byGap && !byNames && !byBoth) continue;
     out.push({
       a: i,
       b: d,
@@ -108,7 +140,7 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
       sharedNames: names.shared,
       nameShare: names.share,
       namesHeld: [names.own[0], names.own[1]],
-      clause: byGap ? 'margin' : 'names',
+      clause: byGap ? 'margin' : byNames ? 'names' : 'combined',
       score: gap + names.share,
     });
   }

@@ -30,6 +30,11 @@ export interface TermCountRow {
 
 /** Texts → L2-normalised sublinear TF-IDF rows (the texts are tokenized here). */
 export function buildTermSpace(texts: readonly string[], idfPower = 1): TermSpace {
+  return termSpaceFromCounts(termCountsOf(texts), idfPower);
+}
+
+/** Texts → raw term counts, one row per text (ids in order of first appearance across the texts). */
+export function termCountsOf(texts: readonly string[]): TermCountRow[] {
   const ids = new Map<string, number>();
   const rows: TermCountRow[] = [];
   for (const text of texts) {
@@ -45,7 +50,7 @@ export function buildTermSpace(texts: readonly string[], idfPower = 1): TermSpac
     const termIds = Int32Array.from(counts.keys()).sort();
     rows.push({ termIds, counts: Float64Array.from(termIds, (t) => counts.get(t) as number) });
   }
-  return termSpaceFromCounts(rows, idfPower);
+  return rows;
 }
 
 /**

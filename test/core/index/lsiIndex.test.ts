@@ -215,8 +215,11 @@ function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[], lambda: 
   return lambda / sl / ((1 - lambda) / sc + lambda / sl);
 }
 
-/** Nearby as documented: ½ cosine + ½ BM25L of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other file's. */
-function plainNearby(index: LsiIndex, path: string, top: number): { path: string; score: number }[] {
+/**
+ * Nearby as documented: ½ cosine + ½ BM25L (δ: the ranking options' unless given) of the file's 40
+ * most distinctive terms (log(1 + tf)·idf) / best other file's.
+ */
+function plainNearby(index: LsiIndex, path: string, top: number, delta = index.ranking.nearbyDelta): { path: string; score: number }[] {
   const d = index.termsOf(path);
   const idf = (t: number): number => index.bm25().idf(t);
   const order = Array.from(d.termIds.keys()).sort(
@@ -228,7 +231,7 @@ function plainNearby(index: LsiIndex, path: string, top: number): { path: string
     counts: Float32Array.from(kept, (i) => d.counts[i]),
     length: 0,
   };
-  const lexical = plainBm25(index, query, index.ranking.nearbyLengthNorm, index.ranking.nearbyDelta);
+  const lexical = plainBm25(index, query, index.ranking.nearbyLengthNorm, delta);
   lexical[index.slots().findIndex((s) => s?.meta.path === path)] = 0;
   return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path);
 }
@@ -250,6 +253,11 @@ describe('LsiIndex ranking against the plain formula', () => {
         const ref = plainNearby(index, p, 15);
         expect(got.map((h) => h.path)).toEqual(ref.map((h) => h.path));
         got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
+        // A caller's own δ (the link suggestions pass 0: classic BM25) overrides the default.
+        const classic = index.nearby(p, { top: 15, wordMatchDelta: 0 });
+        const classicRef = plainNearby(index, p, 15, 0);
+        expect(classic.map((h) => h.path)).toEqual(classicRef.map((h) => h.path));
+        classic.forEach((h, i) => expect(h.score).toBeCloseTo(classicRef[i].score, 12));
       }
     };
     compare();

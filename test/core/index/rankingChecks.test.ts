@@ -5,7 +5,8 @@
  * fixture's baselines.json with the command that made it in its README):
  * - Nearby, link graph: test/fixtures/cmake-doc (Debian cmake-doc 3.25.1-1) and
  *   test/fixtures/django-doc (Debian python-django-doc 3:3.2.25-0+deb12u7); related = one page
- *   links to the other, links removed from the indexed text; nDCG@10.
+ *   links to the other, links removed from the indexed text; nDCG@10. A third, small manual,
+ *   test/fixtures/sphinx-doc (Debian sphinx-doc 5.3.0-4), where plain TF-IDF cosine is hard to beat.
  * - Search, known item in code: test/fixtures/rxjs-src (rxjs 7.8.2 from npm; doc comments' first
  *   sentences as queries, comments removed); MRR@10 overall and per quartile of target size.
  * - The same on a second codebase, test/fixtures/lodash-src (lodash 4.18.1 from npm, MIT; one
@@ -31,20 +32,30 @@ const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): 
   Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
 
 describe('Nearby on linked documentation (nDCG@10)', () => {
-  it('CMake manual (1,906 pages, 1,243 linked pages as queries): above the best plain baseline (BM25 of the whole page), ≥ 15% above TF-IDF cosine', () => {
+  // Measured with the defaults (nearbyDelta 0.5, BM25L): CMake .5378 (BM25 .5112, 1.052; TF-IDF .4386,
+  // 1.226), Django .7114 (LSI .6984, 1.019), Sphinx .7162 (TF-IDF .7085, 1.011); with δ 0 they were
+  // 1.012, 1.017 and 1.006 of the best baseline (README, "Ranking checks").
+  it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 4% above the best plain baseline (BM25 of the whole page), ≥ 20% above TF-IDF cosine', () => {
     const fx = loadRankingFixture('cmake-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`cmake-doc nearby nDCG@10 ${got.toFixed(4)}`);
     const b = fx.baselines!.methods;
-    expect(got).toBeGreaterThanOrEqual(1.15 * b.tfidf.ndcg10);
-    expect(got).toBeGreaterThanOrEqual(1.01 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.2 * b.tfidf.ndcg10);
+    expect(got).toBeGreaterThanOrEqual(1.04 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Django manual (258 pages, 248 linked pages as queries): above the best plain baseline', () => {
+  it('Django manual (258 pages, 248 linked pages as queries): ≥ 1.5% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
     const fx = loadRankingFixture('django-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`django-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.01 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.015 * best(fx.baselines, 'ndcg10'));
+  });
+
+  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 0.5% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
+    const fx = loadRankingFixture('sphinx-doc');
+    const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
+    console.log(`sphinx-doc nearby nDCG@10 ${got.toFixed(4)}`);
+    expect(got).toBeGreaterThanOrEqual(1.005 * best(fx.baselines, 'ndcg10'));
   });
 });
 

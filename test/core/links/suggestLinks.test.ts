@@ -9,7 +9,15 @@ import { InvalidInputError } from '../../../src/core/errors.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { LinkGraph } from '../../../src/core/links/linkGraph.js';
-import { explainSimilarity, spaceShare, suggestAllLinks, suggestLinks, unlinkedNeighbours } from '../../../src/core/links/suggestLinks.js';
+import {
+  explainSimilarity,
+  LINKS_WORD_MATCH_DELTA,
+  spaceShare,
+  suggestAllLinks,
+  suggestLinks,
+  unlinkedNeighbours,
+} from '../../../src/core/links/suggestLinks.js';
+import { DEFAULT_RANKING_OPTIONS } from '../../../src/core/index/search/fusion.js';
 import { linkPairs } from '../../helpers/linkEval.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 
@@ -57,6 +65,21 @@ describe('suggestLinks', () => {
         spaceShare(index, s.path),
       6,
     );
+  });
+
+  it("ranks with classic BM25 in the word match (δ 0, where the threshold was calibrated), not Nearby's BM25L", () => {
+    expect(LINKS_WORD_MATCH_DELTA).toBe(0);
+    expect(DEFAULT_RANKING_OPTIONS.nearbyDelta).toBeGreaterThan(0);
+    let differ = 0;
+    for (const key of index.paths()) {
+      const filter = (p: string): boolean => p !== key && graph.notes.has(p) && !graph.linked(key, p);
+      const got = unlinkedNeighbours(index, graph, key, 5);
+      const classic = index.nearby(key, { top: 5, filter, wordMatchDelta: 0 });
+      expect(got.map((h) => [h.path, h.score])).toEqual(classic.map((h) => [h.path, h.score]));
+      if (index.nearby(key, { top: 5, filter }).some((h, i) => h.score !== classic[i]?.score)) differ++;
+    }
+    // The two word matches do differ on these pages, so the check above can tell them apart.
+    expect(differ).toBeGreaterThan(0);
   });
 
   it('is empty for a note not in the index, and at a threshold of 1', () => {

@@ -30,6 +30,10 @@ describe('resolveLookalikeOptions', () => {
     [{ retoldMinWords: 1.5 }, /retoldMinWords/],
     [{ retoldNameMinWords: 2.5 }, /retoldNameMinWords/],
     [{ retoldNamesDecide: 'yes' as unknown as boolean }, /retoldNamesDecide/],
+    [{ retoldMinEvidence: -0.5 }, /retoldMinEvidence/],
+    [{ retoldFewNamesMinEvidence: Number.NaN }, /retoldFewNamesMinEvidence/],
+    [{ retoldEvidenceMinCosine: 0 }, /retoldEvidenceMinCosine/],
+    [{ retoldEvidenceMinWords: 10.5 }, /retoldEvidenceMinWords/],
   ])('rejects %j with a clear message', (bad, message) => {
     expect(() => resolveLookalikeOptions(bad)).toThrow(InvalidInputError);
     expect(() => resolveLookalikeOptions(bad)).toThrow(message);

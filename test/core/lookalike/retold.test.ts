@@ -180,6 +180,85 @@ describe('findRetoldPairs, namesDecide: when both files hold rare names, the nam
   });
 });
 
+describe('findRetoldPairs, clause c: margin and name share together, when a second view agrees', () => {
+  // Mutual pair, cosine 0.45 (below minCosine 0.5), margin 0.2 over both files' next neighbours.
+  const close = {
+    neighbours: [
+      [1, 2],
+      [0, 2],
+      [1, 0],
+    ],
+    cosines: [
+      [0.45, 0.25],
+      [0.45, 0.2],
+      [0.3, 0.2],
+    ],
+    jaccard: lowJ,
+    maxJaccard: 0.15,
+    words: [300, 300, 300],
+  };
+  const params = {
+    ...rule,
+    minNameGap: 0,
+    minSharedNames: 3,
+    minNameShare: 0.85,
+    minNameWords: 200,
+    namesDecide: true,
+    minEvidence: 1,
+    minEvidenceCosine: 0.4,
+    minEvidenceWords: 150,
+  };
+  const names = () => ({ shared: 4, share: 0.8, own: [5, 5] as const });
+  const agrees = () => true;
+  it('passes a pair whose margin + name share reach minEvidence, below clause b’s share and cosine', () => {
+    const pairs = findRetoldPairs({ ...close, names, secondView: agrees }, params);
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ a: 0, b: 1, clause: 'combined', sharedNames: 4, nameShare: 0.8 });
+    expect(pairs[0].score).toBeCloseTo(0.2 + 0.8, 12);
+  });
+  it('refuses it when the second view disagrees, without a second view, or when the clause is off', () => {
+    expect(findRetoldPairs({ ...close, names, secondView: () => false }, params)).toEqual([]);
+    expect(findRetoldPairs({ ...close, names }, params)).toEqual([]);
+    expect(findRetoldPairs({ ...close, names, secondView: agrees }, { ...params, minEvidence: undefined })).toEqual([]);
+  });
+  it('refuses it below minEvidence, minEvidenceCosine, minEvidenceWords or minSharedNames, or when a file names nothing rare', () => {
+    const input = { ...close, names, secondView: agrees };
+    expect(findRetoldPairs(input, { ...params, minEvidence: 1.05 })).toEqual([]);
+    expect(findRetoldPairs(input, { ...params, minEvidenceCosine: 0.5 })).toEqual([]);
+    expect(findRetoldPairs({ ...input, words: [149, 300, 300] }, params)).toEqual([]);
+    expect(findRetoldPairs({ ...input, names: () => ({ shared: 2, share: 0.9, own: [2, 2] as const }) }, params)).toEqual([]);
+    expect(findRetoldPairs({ ...input, names: () => ({ shared: 0, share: 0, own: [0, 5] as const }) }, params)).toEqual([]);
+  });
+  it('holds pairs sharing fewer than minSharedNames names to minEvidenceFewNames, and leaves them out without it', () => {
+    const two = () => ({ shared: 2, share: 1, own: [2, 2] as const });
+    const input = { ...close, names: two, secondView: agrees }; // margin 0.2 + share 1 = 1.2
+    expect(findRetoldPairs(input, params)).toEqual([]);
+    expect(findRetoldPairs(input, { ...params, minEvidenceFewNames: 1.25 })).toEqual([]);
+    const pairs = findRetoldPairs(input, { ...params, minEvidenceFewNames: 1.2 });
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ clause: 'combined', sharedNames: 2 });
+    const none = () => ({ shared: 0, share: 0, own: [2, 2] as const });
+    expect(findRetoldPairs({ ...input, names: none }, { ...params, minEvidenceFewNames: 0 })).toEqual([]);
+  });
+  it('asks the second view only about pairs the other clauses refuse', () => {
+    const asked: [number, number][] = [];
+    const spy = (a: number, b: number) => (asked.push([a, b]), false);
+    const strong = () => ({ shared: 4, share: 0.9, own: [4, 4] as const });
+    const clear = {
+      ...close,
+      cosines: [
+        [0.7, 0.25],
+        [0.7, 0.2],
+        [0.3, 0.2],
+      ],
+    };
+    const pairs = findRetoldPairs({ ...clear, names: strong, secondView: spy }, params);
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0].clause).toBe('names');
+    expect(asked).toEqual([]);
+  });
+});
+
 describe('boilerplate lines', () => {
   it('finds lines present in at least n files (trimmed, case and spacing ignored) and removes them', () => {
     const texts = ['Report bugs to the list.\nalpha', '  report   bugs to the list.\nbeta', 'REPORT BUGS TO THE LIST.\ngamma\nalpha'];

@@ -23,8 +23,8 @@
  *   query when something else remains (our own list, common practice: stop words for queries).
  * - Length normalisation: BM25's b is 0.3 for nearby (a whole file's top terms as the query), below
  *   the common 0.75 that search keeps; 0.75 let long pages crowd out the linked short ones.
- *   Optionally (nearbyDelta) in BM25L's form (Lv & Zhai 2011), which keeps a long file's matches
- *   from sinking towards zero.
+ *   Nearby's word match takes BM25L's form (nearbyDelta, Lv & Zhai 2011), which keeps a long file's
+ *   matches from sinking towards zero; the link suggestions keep classic BM25 (δ 0, suggestLinks.ts).
  * - Query-word focus (termFocus.ts): in the concept fold of a search, a word weighs by how tightly
  *   its files sit together in the concept space beyond chance, relative to the query's most
  *   focused word.
@@ -79,10 +79,11 @@ export interface RankingOptions {
   termFocus: number;
   /**
    * BM25L's δ for nearby's word match (Lv & Zhai 2011, "When documents are very long, BM25 fails!";
-   * 0.5 is the value they recommend); 0 = classic BM25. Off by default: 0.5 raises Nearby on the
-   * CMake manual 4% (Django level) and the link suggestions' F1 without a threshold, but then the
-   * links' similarity threshold no longer beats no threshold on CMake (suggestLinks.eval.test.ts),
-   * which is that feature's call to make (README, "Ranking checks"). @default 0
+   * 0.5 is the value they recommend); 0 = classic BM25. Chosen by every leave-one-manual-out fold
+   * and above the default without it on all three manuals (share of the best plain baseline, δ 0 →
+   * 0.5: CMake 1.012 → 1.052, Django 1.017 → 1.019, Sphinx 1.006 → 1.011; README, "Ranking
+   * checks"). The link suggestions pass their own δ (core/links/suggestLinks.ts,
+   * LINKS_WORD_MATCH_DELTA = 0), where their similarity threshold was calibrated. @default 0.5
    */
   nearbyDelta: number;
 }
@@ -100,7 +101,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyLengthNorm: 0.3,
   spreadBlend: false,
   termFocus: 1,
-  nearbyDelta: 0,
+  nearbyDelta: 0.5,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
