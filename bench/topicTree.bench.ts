@@ -18,6 +18,7 @@
  * pass) is timed in CPU too, so that figures taken on a loaded machine can be read against the
  * machine's speed at that moment; the load average is printed with them.
  * The whole kernel tree is indexed with --no-gitignore (its .gitignore leaves the scanner nothing).
+ * OPTIONS='<JSON>' replaces some of findTopics' defaults (a partial TopicsOptions), to compare variants.
  * With `file`, the index file is loaded (persist.ts loadIndex, the load's wall and CPU time
  * printed) and the runs follow as above; for the figure a user meets (one process: load and one
  * tree, peak RSS) run it under /usr/bin/time -v with RUNS=1.
@@ -40,6 +41,12 @@
  *   (medians of the nine 5.53 and 4.64 s; the first run of each round, the JIT cold, 5.6–7.4 and
  *   5.5–6.1 s); wall medians 8.62, 5.57, 4.85 and 5.52, 4.68, 4.35 s; peak RSS 316–338 MiB and
  *   382–403 MiB (the kernels' memories, dropped with each product object, wait for the GC).
+ *   With the first level's restarts refined by first variation (firstVariation.ts; OPTIONS='{"refine":false}'
+ *   without), alternating, load 8–12: Documentation CPU 6.87, 4.33, 4.58 and 6.95, 5.25, 3.66 s
+ *   (without: 5.92, 4.63, 4.76 and 4.94, 3.14, 3.51 s); whole tree (RUNS=1, /usr/bin/time -v) tree CPU
+ *   40.9, 43.1, 35.5 s (wall 292 s at load 11–12, 43.1 and 38.5 s at load 4; process 50.7 and 45.5 s;
+ *   18 / 110 / 499 / 1505 topics, 2642 loose), without 42.5, 39.2, 37.7 s (wall 90.8 s at load 9,
+ *   54.1 and 53.7 s at load 4–5; 2065 loose), peak RSS 4.14–4.25 and 4.16–4.28 GB (2026-12-03).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
@@ -47,12 +54,14 @@ import { dirname, join, resolve } from 'node:path';
 import { loadavg } from 'node:os';
 import { gunzipSync } from 'node:zlib';
 import { indexFileFrom } from '../src/cli/context.js';
-import { findTopics, walkTopics } from '../src/core/topics/topics.js';
+import { findTopics, walkTopics, type TopicsOptions } from '../src/core/topics/topics.js';
 import { indexFolder } from '../src/node/folderIndexer.js';
 import { loadIndex } from '../src/node/persist.js';
 import type { LsiIndex } from '../src/core/index/lsiIndex.js';
 
 const RUNS = Number(process.env.RUNS ?? 3);
+/** Topic options to try instead of the defaults, as JSON (e.g. OPTIONS='{"refine":false}'). */
+const OPTIONS = JSON.parse(process.env.OPTIONS ?? '{}') as Partial<TopicsOptions>;
 const CACHE = resolve('.cache/bench');
 const which = process.argv[2] ?? 'all';
 
@@ -152,7 +161,7 @@ function runTrees(title: string, index: LsiIndex): void {
     reference.push(`${(ref.rate / 1e9).toFixed(2)}`);
     const s = performance.now();
     const c0 = process.cpuUsage();
-    const report = findTopics(index, { seed: index.settings.seed });
+    const report = findTopics(index, { seed: index.settings.seed, ...OPTIONS });
     times.push(performance.now() - s);
     const c1 = process.cpuUsage(c0);
     cpu.push((c1.user + c1.system) / 1000);

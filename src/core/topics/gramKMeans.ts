@@ -29,7 +29,7 @@ export function gramKMeans(
   gram: Float64Array,
   n: number,
   k: number,
-  options: Partial<Omit<SphericalKMeansOptions, 'initial'>> = {},
+  options: Partial<Omit<SphericalKMeansOptions, 'initial' | 'refineSweeps'>> = {},
 ): GramClustering {
   const o = { ...DEFAULT_SPHERICAL_KMEANS_OPTIONS, ...options };
   if (n < 1 || gram.length < n * n) throw new InvalidInputError('k-means needs at least one point');

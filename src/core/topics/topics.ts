@@ -12,12 +12,18 @@
  *    (0.281 vs 0.285, seed 0; scripts/fixtures/topicNamesHeldOut.ts), where one draw is at or
  *    above both (test/core/topics/topicQuality.test.ts), so the default stays one draw
  *    (measured 2026-12-03; a stability criterion may settle it better).
+ *    Each first-level restart is refined by first-variation moves before the restarts are compared
+ *    (firstVariation.ts): Lloyd's step leaves assignments where moving one file still raises the
+ *    objective. On the CMake and Django manuals over seeds 0–9 (scripts/fixtures/topicLevels.ts,
+ *    LEVELS=2, measured 2026-12-03) it left CMake's agreement with its folders where it was (NMI
+ *    0.395 and 0.419 at the first two levels, 0.396 and 0.421 without) and raised Django's (0.372
+ *    and 0.368, from 0.365 and 0.361), for about 0.4 s more CPU on CMake's first level.
  * 2. Files that fit no topic well are set apart ("loose"): a file whose cosine with its topic's
  *    centre is no larger than its cosine with the centre of the whole workspace is explained by
  *    its topic no better than by the workspace's average direction (our rule; no constant).
  * 3. Each topic with more than leafSize files opens into sub-topics: spherical k-means on its own
  *    files, the count again by silhouette (a cheaper sample, up to maxChildren), down to depth
- *    levels. A split that leaves one group is no split. This is divisive hierarchical clustering
+ *    levels, each split seeded by its topic's path (splitSeed). A split that leaves one group is no split. This is divisive hierarchical clustering
  *    (Steinbach, Karypis & Kumar 2000, "A comparison of document clustering techniques", KDD
  *    workshop on text mining: bisecting k-means), generalised to more than two children per
  *    split by the silhouette.
@@ -78,6 +84,8 @@ export interface TopicsOptions {
   countDraws: number;
   /** k-means restarts at the first level; undefined means restartsFor (a budget of work, see there). */
   restarts?: number;
+  /** Refine each first-level k-means restart by first-variation moves before the restarts are compared (firstVariation.ts; see the header). @default true */
+  refine: boolean;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
   /** @default DEFAULT_SEED */
@@ -97,6 +105,7 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   namePool: DEFAULT_NAME_POOL_FACTOR,
   filesPerTopic: 5,
   curMethod: 'deim',
+  refine: true,
   fitSample: 2000,
   countDraws: 1,
   seed: DEFAULT_SEED,
@@ -213,7 +222,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
       : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
   yield;
-  const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts);
+  const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts, o.refine);
   const K = clustering.clusters;
   yield;
 
@@ -248,7 +257,6 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
 
   const scratch = new NameScratch(im.matrix.cols);
   const termFiles = o.coherentNames ? new TermFiles(im.matrix) : null;
-  const random = createRandom(o.seed ^ 0x5eed);
   let levels = 1;
   function* build(
     memberGroups: number[][],
@@ -301,7 +309,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       let children: Topic[] = [];
       if (level < o.depth && group.length > o.leafSize) {
         yield;
-        const sub = splitGroup(points, idx, dims, o, random.nextUint32());
+        const sub = splitGroup(points, idx, dims, o, splitSeed(o.seed, path));
         if (sub.length > 1)
           children = yield* build(
             sub,
@@ -399,6 +407,17 @@ function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: Topi
   return out.filter((g) => g.length > 0).length > 1 ? out : [];
 }
 
+/**
+ * The seed of a topic's split, from the tree's seed and the topic's path (FNV-1a of the path, then
+ * the seeded source's first draw): a topic splits the same way whatever the depth asked for and
+ * whichever topics split before it, so `--depth 2` shows the second level of the full tree.
+ */
+export function splitSeed(seed: number, path: string): number {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < path.length; i++) h = Math.imul(h ^ path.charCodeAt(i), 0x01000193) >>> 0;
+  return createRandom((seed ^ 0x5eed ^ h) >>> 0).nextUint32();
+}
+
 /** Larger groups first; ties by their first point. */
 function bySize(a: readonly number[], b: readonly number[]): number {
   return b.length - a.length || a[0] - b[0];
@@ -419,6 +438,9 @@ function dotRow(a: Float64Array, i: number, b: Float64Array, j: number, dims: nu
   for (let d = 0; d < dims; d++) s += a[i * dims + d] * b[j * dims + d];
   return s;
 }
+
+/** First-variation sweeps per first-level restart (firstVariation.ts' default; our choice). */
+const FIRST_LEVEL_SWEEPS = 10;
 
 /**
  * Restarts that fit a budget of about 4·10⁸ multiply-adds (20 Lloyd passes of n·K·dims each),
@@ -442,8 +464,14 @@ function clusterPoints(
   fitSample: number,
   seed: number,
   restarts?: number,
+  refine = false,
 ): Clustering {
-  if (n <= fitSample) return sphericalKMeans(points, n, dims, k, { seed, restarts: restarts ?? restartsFor(n, k, dims) });
+  if (n <= fitSample)
+    return sphericalKMeans(points, n, dims, k, {
+      seed,
+      restarts: restarts ?? restartsFor(n, k, dims),
+      refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0,
+    });
   const random = createRandom(seed);
   const order = Int32Array.from({ length: n }, (_, i) => i);
   for (let i = 0; i < fitSample; i++) {
@@ -452,6 +480,10 @@ function clusterPoints(
   }
   const sample = new Float64Array(fitSample * dims);
   for (let i = 0; i < fitSample; i++) sample.set(points.subarray(order[i] * dims, (order[i] + 1) * dims), i * dims);
-  const fitted = sphericalKMeans(sample, fitSample, dims, k, { seed, restarts: restarts ?? restartsFor(fitSample, k, dims) });
+  const fitted = sphericalKMeans(sample, fitSample, dims, k, {
+    seed,
+    restarts: restarts ?? restartsFor(fitSample, k, dims),
+    refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0,
+  });
   return sphericalKMeans(points, n, dims, k, { initial: fitted.centres, maxIterations: 10 });
 }

@@ -197,16 +197,20 @@ describe('topic tree against scikit-learn on documentation trees', () => {
         const figures = evaluate(name);
         expect(figures.length).toBeGreaterThanOrEqual(2);
         // The goal is at or above the reference everywhere. Measured (2026-12-03, scikit-learn
-        // 1.2.1, names by the difference of mean weights, topicNames.ts): NPMI on all files CMake
-        // 0.475 vs 0.392 and 0.460 vs 0.362, Django 0.388 vs 0.264 and 0.404 vs 0.336; held out
-        // CMake 0.439 vs 0.369 and 0.389 vs 0.338, Django 0.341 vs 0.300 and 0.301 vs 0.259; NMI
-        // means over seeds 0–2 CMake 0.388 vs 0.406 (below) and 0.413 vs 0.409, Django 0.372 vs
-        // 0.344 and 0.370 vs 0.348. The one gap is held as a floor 0.04 under the reference (our
-        // choice), every other figure at the reference.
+        // 1.2.1, names by the difference of mean weights, topicNames.ts; first-level restarts
+        // refined by first variation, firstVariation.ts; splits seeded by their topic's path):
+        // NPMI on all files CMake 0.472 vs 0.392 and 0.462 vs 0.360, Django 0.388 vs 0.264 and
+        // 0.412 vs 0.336; held out CMake 0.441 vs 0.369 and 0.361 vs 0.302, Django 0.349 vs 0.300
+        // and 0.278 vs 0.259; NMI means over seeds 0–2 CMake 0.390 vs 0.406 (below) and 0.416 vs
+        // 0.415, Django 0.382 vs 0.344 and 0.368 vs 0.352. Over seeds 0–9 (scripts/fixtures/
+        // topicLevels.ts, LEVELS=2) CMake's first level is 0.395 vs 0.402 (0.396 without the
+        // refinement): a gap inside the seed spread (0.377–0.419 for k-means alone) that no lever
+        // tried closed on both manuals (README, topics). The one gap is held as a floor 0.03 under
+        // the reference (our choice), every other figure at the reference.
         for (const f of figures) {
           expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi);
           expect(f.oursNpmiHeldOut).toBeGreaterThanOrEqual(f.nmfNpmiHeldOut);
-          const nmiGap = name === 'cmake' && f.level === 1 ? 0.04 : 0;
+          const nmiGap = name === 'cmake' && f.level === 1 ? 0.03 : 0;
           expect(mean(f.oursNmi)).toBeGreaterThanOrEqual(mean(f.kmeansNmi) - nmiGap);
         }
       },

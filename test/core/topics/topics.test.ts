@@ -155,6 +155,14 @@ describe('topics of the demo workspace', () => {
       [...walkTopics(r.topics)].map((t) => `${t.path}:${t.members.join(',')}:${t.terms.map((x) => x.term).join(',')}`);
     expect(shape(findTopics(demo.index, { leafSize: 8, seed: 7 }))).toEqual(shape(findTopics(demo.index, { leafSize: 8, seed: 7 })));
   });
+
+  it('shows the same second level whatever depth is asked for (a split is seeded by its topic, not by the splits before it)', () => {
+    const cut = (depth: number) =>
+      topicsAtLevel(findTopics(demo.index, { leafSize: 4, depth, seed: 7 }).topics, 2).map((t) => `${t.path}:${t.members.join(',')}`);
+    const deep = findTopics(demo.index, { leafSize: 4, seed: 7 });
+    expect(deep.levels).toBeGreaterThan(2);
+    expect(cut(2)).toEqual(cut(DEFAULT_TOPICS_OPTIONS.depth));
+  });
 });
 
 const cisi = loadCollection('cisi');
