@@ -12,29 +12,7 @@ import { InvalidInputError } from '../../../src/core/errors.js';
 import { createRandom } from '../../../src/core/random.js';
 import { firstVariation } from '../../../src/core/topics/firstVariation.js';
 import { sphericalKMeans } from '../../../src/core/topics/sphericalKMeans.js';
-
-function objectiveOf(points: Float64Array, dims: number, labels: ArrayLike<number>, k: number): number {
-  const sums = new Float64Array(k * dims);
-  for (let i = 0; i < labels.length; i++) for (let d = 0; d < dims; d++) sums[labels[i] * dims + d] += points[i * dims + d];
-  let total = 0;
-  for (let c = 0; c < k; c++) {
-    let ss = 0;
-    for (let d = 0; d < dims; d++) ss += sums[c * dims + d] ** 2;
-    total += Math.sqrt(ss);
-  }
-  return total;
-}
-
-function unitPoints(n: number, dims: number, seed: number): Float64Array {
-  const r = createRandom(seed);
-  const p = new Float64Array(n * dims);
-  for (let i = 0; i < n; i++) {
-    let ss = 0;
-    for (let d = 0; d < dims; d++) ss += (p[i * dims + d] = r.normal()) ** 2;
-    for (let d = 0; d < dims; d++) p[i * dims + d] /= Math.sqrt(ss);
-  }
-  return p;
-}
+import { objectiveOf, unitPoints } from './fixtures.js';
 
 describe('first variation', () => {
   it('from a random start: the objective as recomputed, not below the start, and no single move improves it', () => {

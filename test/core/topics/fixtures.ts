@@ -8,6 +8,31 @@ import type { IndexSettings } from '../../../src/core/index/model/settings.js';
 import { createRandom } from '../../../src/core/random.js';
 import { REPO_ROOT } from '../../helpers/shared.js';
 
+/** The spherical k-means objective Σ_c ‖Σ_{i∈c} x_i‖ of a labelling, recomputed from the points. */
+export function objectiveOf(points: Float64Array, dims: number, labels: ArrayLike<number>, k: number): number {
+  const sums = new Float64Array(k * dims);
+  for (let i = 0; i < labels.length; i++) for (let d = 0; d < dims; d++) sums[labels[i] * dims + d] += points[i * dims + d];
+  let total = 0;
+  for (let c = 0; c < k; c++) {
+    let ss = 0;
+    for (let d = 0; d < dims; d++) ss += sums[c * dims + d] ** 2;
+    total += Math.sqrt(ss);
+  }
+  return total;
+}
+
+/** n seeded Gaussian points scaled to unit length, row-major n × dims. */
+export function unitPoints(n: number, dims: number, seed: number): Float64Array {
+  const r = createRandom(seed);
+  const p = new Float64Array(n * dims);
+  for (let i = 0; i < n; i++) {
+    let ss = 0;
+    for (let d = 0; d < dims; d++) ss += (p[i * dims + d] = r.normal()) ** 2;
+    for (let d = 0; d < dims; d++) p[i * dims + d] /= Math.sqrt(ss);
+  }
+  return p;
+}
+
 /** An n × k row-major matrix with orthonormal columns (ml-matrix QR of a seeded Gaussian). */
 export function orthonormalBasis(n: number, k: number, seed: number): Float64Array {
   const r = createRandom(seed);
