@@ -21,6 +21,16 @@ export function objectiveOf(points: Float64Array, dims: number, labels: ArrayLik
   return total;
 }
 
+/** The best two-cluster objective of n points by trying every split (point 0 in cluster 0). */
+export function bestTwoClusterObjective(points: Float64Array, n: number, dims: number): number {
+  let best = 0;
+  for (let mask = 0; mask < 1 << (n - 1); mask++) {
+    const labels = Array.from({ length: n }, (_, i) => (i === 0 ? 0 : (mask >> (i - 1)) & 1));
+    best = Math.max(best, objectiveOf(points, dims, labels, 2));
+  }
+  return best;
+}
+
 /** n seeded Gaussian points scaled to unit length, row-major n × dims. */
 export function unitPoints(n: number, dims: number, seed: number): Float64Array {
   const r = createRandom(seed);
