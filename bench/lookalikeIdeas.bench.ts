@@ -19,43 +19,19 @@
  *    as rareNames.ts does for names.
  * Retellings before the 1st–4th false pair when candidates are ranked by a signal, and quantiles.
  */
-import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join, relative } from 'node:path';
-import { gunzipSync } from 'node:zlib';
 import { boilerplateLines, withoutBoilerplate } from '../src/core/lookalike/retold.js';
 import { jaccardSorted, shingleSet } from '../src/core/lookalike/shingles.js';
 import { buildTermSpace, termNeighbours, type TermSpace } from '../src/core/lookalike/termSpace.js';
 import { tokenize } from '../src/core/text/tokenize.js';
+import { demoFiles, demoParaphrases, jsonlFiles, pairKey, retellingsCorpus, type MaterialFile } from './lookalikeMaterial.js';
 
-interface F {
-  id: string;
-  text: string;
-}
-const key = (a: string, b: string): string => (a < b ? `${a}|${b}` : `${b}|${a}`);
-const corpus = JSON.parse(gunzipSync(readFileSync('test/fixtures/lookalike-retellings/corpus.json.gz')).toString('utf8')) as {
-  files: F[];
-  retellings: [string, string, string][];
-};
+type F = MaterialFile;
+const key = pairKey;
+const corpus = retellingsCorpus();
 const truth = new Map(corpus.retellings.map(([a, b, s]) => [key(a, b), s]));
-const cmake: F[] = gunzipSync(readFileSync('test/fixtures/cmake-doc/docs.jsonl.gz'))
-  .toString('utf8')
-  .split('\n')
-  .filter((l) => l.length > 0)
-  .map((l) => JSON.parse(l) as F);
-const walk = (dir: string): string[] =>
-  readdirSync(dir).flatMap((n) => {
-    if (n.startsWith('.')) return [];
-    const p = join(dir, n);
-    return statSync(p).isDirectory() ? walk(p) : [p];
-  });
-const ws = 'demo/workspace';
-const demo: F[] = walk(ws).map((p) => ({ id: relative(ws, p).split('\\').join('/'), text: readFileSync(p, 'utf8') }));
-const demoKey = new Map(
-  (JSON.parse(readFileSync('demo/expectations.json', 'utf8')) as { paraphrases: [string, string][] }).paraphrases.map(([a, b]) => [
-    key(a, b),
-    'demo',
-  ]),
-);
+const cmake = jsonlFiles('test/fixtures/cmake-doc/docs.jsonl.gz');
+const demo = demoFiles();
+const demoKey = new Map(demoParaphrases().map(([a, b]) => [key(a, b), 'demo']));
 
 interface Folder {
   name: string;

@@ -20,17 +20,12 @@
  * source than the earlier default, the fewest CMake pairs; then the most retellings of the training
  * source; ties to the stricter point. Scored on the other source.
  */
-import { readFileSync } from 'node:fs';
-import { gunzipSync } from 'node:zlib';
 import { DEFAULT_LOOKALIKE_OPTIONS } from '../src/core/lookalike/options.js';
 import { findLookalikes } from '../src/core/lookalike/findLookalikes.js';
 import { shingleTokens } from '../src/core/lookalike/shingles.js';
 import type { LookalikeReport } from '../src/core/lookalike/types.js';
+import { jsonlFiles, pairKey, retellingsCorpus } from './lookalikeMaterial.js';
 
-interface Corpus {
-  files: { id: string; source: string; text: string }[];
-  retellings: [string, string, string][];
-}
 interface Cand {
   a: string;
   b: string;
@@ -43,14 +38,10 @@ interface Cand {
   label: string;
 }
 
-const key = (a: string, b: string): string => (a < b ? `${a}|${b}` : `${b}|${a}`);
-const corpus = JSON.parse(gunzipSync(readFileSync('test/fixtures/lookalike-retellings/corpus.json.gz')).toString('utf8')) as Corpus;
+const key = pairKey;
+const corpus = retellingsCorpus();
 const truth = new Map(corpus.retellings.map(([a, b, s]) => [key(a, b), s]));
-const cmake = gunzipSync(readFileSync('test/fixtures/cmake-doc/docs.jsonl.gz'))
-  .toString('utf8')
-  .split('\n')
-  .filter((l) => l.length > 0)
-  .map((l) => JSON.parse(l) as { id: string; text: string });
+const cmake = jsonlFiles('test/fixtures/cmake-doc/docs.jsonl.gz');
 
 const loose = {
   retoldMinGap: 0.3,

@@ -16,13 +16,12 @@
  * own constants (shared names, share, the shorter file's words) are calibrated against that CMake
  * reference in bench/lookalikeNameClause.bench.ts; this grid predates that floor on words.
  */
-import { readFileSync } from 'node:fs';
-import { gunzipSync } from 'node:zlib';
 import { boilerplateLines, withoutBoilerplate } from '../src/core/lookalike/retold.js';
 import { jaccardSorted, shingleSet } from '../src/core/lookalike/shingles.js';
 import { findLookalikes } from '../src/core/lookalike/findLookalikes.js';
 import { rareNameIndex } from '../src/core/lookalike/rareNames.js';
 import { buildTermSpace, rowCosine, termNeighbours, type TermSpace } from '../src/core/lookalike/termSpace.js';
+import { jsonlFiles, pairKey, retellingsCorpus } from './lookalikeMaterial.js';
 
 interface Corpus {
   files: { id: string; text: string }[];
@@ -43,8 +42,8 @@ interface Pair {
   nameShare: number;
 }
 
-const corpus = JSON.parse(gunzipSync(readFileSync('test/fixtures/lookalike-retellings/corpus.json.gz')).toString('utf8')) as Corpus;
-const key = (a: string, b: string): string => (a < b ? `${a}|${b}` : `${b}|${a}`);
+const corpus: Corpus = retellingsCorpus();
+const key = pairKey;
 const truth = new Map(corpus.retellings.map(([a, b, s]) => [key(a, b), s]));
 
 function pairsOf(files: Corpus['files']): Pair[] {
@@ -238,11 +237,7 @@ for (const held of sources) {
 
 // A second real folder, not held out and without planted retellings: the CMake reference
 // (test/fixtures/cmake-doc). Pairs the full finder reports with and without the name clause.
-const cmake = gunzipSync(readFileSync('test/fixtures/cmake-doc/docs.jsonl.gz'))
-  .toString('utf8')
-  .split('\n')
-  .filter((l) => l.length > 0)
-  .map((l) => JSON.parse(l) as { id: string; text: string });
+const cmake = jsonlFiles('test/fixtures/cmake-doc/docs.jsonl.gz');
 for (const [label, o] of [
   ['margin only', { retoldNameMinGap: 1, retoldNamesDecide: false }],
   ['with the name clause (defaults)', {}],

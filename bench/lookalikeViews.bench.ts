@@ -21,42 +21,23 @@
  * demo workspace (3 planted paraphrases). Prints summary quantiles per label; writes every
  * candidate as a JSON line to the path given (default /tmp/lookalike-views.jsonl), so that rules
  * over these columns can be tried without running the finder again. What was tried with it and
- * what was adopted (retold.ts clause c): test/fixtures/lookalike-retellings/README.md.
+ * why retold.ts' clause c is off by default: test/fixtures/lookalike-retellings/README.md.
  */
-import { readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
-import { join, relative } from 'node:path';
-import { gunzipSync } from 'node:zlib';
+import { writeFileSync } from 'node:fs';
 import { findLookalikes } from '../src/core/lookalike/findLookalikes.js';
 import { namesOf } from '../src/core/lookalike/rareNames.js';
 import { boilerplateLines, withoutBoilerplate } from '../src/core/lookalike/retold.js';
 import { jaccardSorted, shingleSet } from '../src/core/lookalike/shingles.js';
 import { rowCosine, termNeighbours, termSpaceFromCounts, type TermCountRow, type TermSpace } from '../src/core/lookalike/termSpace.js';
 import { tokenize } from '../src/core/text/tokenize.js';
+import { demoFiles, demoParaphrases, jsonlFiles, pairKey, retellingsCorpus, type MaterialFile } from './lookalikeMaterial.js';
 
-interface F {
-  id: string;
-  text: string;
-}
-const key = (a: string, b: string): string => (a < b ? `${a}|${b}` : `${b}|${a}`);
-const corpus = JSON.parse(gunzipSync(readFileSync('test/fixtures/lookalike-retellings/corpus.json.gz')).toString('utf8')) as {
-  files: F[];
-  retellings: [string, string, string][];
-};
-const jsonl = (p: string): F[] =>
-  gunzipSync(readFileSync(p))
-    .toString('utf8')
-    .split('\n')
-    .filter((l) => l.length > 0)
-    .map((l) => JSON.parse(l) as F);
-const walk = (dir: string): string[] =>
-  readdirSync(dir).flatMap((n) => {
-    if (n.startsWith('.')) return [];
-    const p = join(dir, n);
-    return statSync(p).isDirectory() ? walk(p) : [p];
-  });
-const ws = 'demo/workspace';
-const demo: F[] = walk(ws).map((p) => ({ id: relative(ws, p).split('\\').join('/'), text: readFileSync(p, 'utf8') }));
-const demoPairs = (JSON.parse(readFileSync('demo/expectations.json', 'utf8')) as { paraphrases: [string, string][] }).paraphrases;
+type F = MaterialFile;
+const key = pairKey;
+const corpus = retellingsCorpus();
+const jsonl = jsonlFiles;
+const demo = demoFiles();
+const demoPairs = demoParaphrases();
 
 const loosest = {
   retoldMinCosine: 0.3,
