@@ -8,6 +8,7 @@ import { IndexService } from '../../../src/node/worker/indexService.js';
 import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import type { HandlerContext } from '../../../src/node/worker/server.js';
 import { loadCollection } from '../../helpers/shared.js';
+import { workerConfig } from './fixtures/workerConfig.js';
 
 // A folder made of the CISI collection (test/fixtures/corpora/cisi: 1460 abstracts, 112 queries).
 const cisi = loadCollection('cisi');
@@ -30,15 +31,12 @@ function gate() {
 
 describe('IndexService background preparation', () => {
   const folder = join(tmp, 'ws');
-  const config: WorkerConfig = {
+  const config = workerConfig({
     roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
     indexFile: join(tmp, 'index.undertone'),
     settings: { k: 40 },
-    include: [],
-    exclude: [],
-    maxFileBytes: 1 << 20,
     honourGitignore: false,
-  };
+  });
 
   it('answers a search at once while preparing, the same as an index never prepared, and prepares between requests', async () => {
     mkdirSync(folder, { recursive: true });
@@ -105,16 +103,14 @@ describe('IndexService on a hostile storage folder and workspace', () => {
   const folder = join(base, 'ws');
   mkdirSync(folder, { recursive: true });
   for (const d of cisi.docs.slice(0, 40)) writeFileSync(join(folder, `${d.id}.txt`), d.text);
-  const config = (indexFile: string, extra: Partial<WorkerConfig> = {}): WorkerConfig => ({
-    roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
-    indexFile,
-    settings: { k: 10 },
-    include: [],
-    exclude: [],
-    maxFileBytes: 1 << 20,
-    honourGitignore: false,
-    ...extra,
-  });
+  const config = (indexFile: string, extra: Partial<WorkerConfig> = {}): WorkerConfig =>
+    workerConfig({
+      roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
+      indexFile,
+      settings: { k: 10 },
+      honourGitignore: false,
+      ...extra,
+    });
 
   it('uses a built index it cannot save (a folder at the index path) and says why, instead of failing the build', async () => {
     const file = join(base, 'occupied', 'index.undertone');

@@ -8,6 +8,7 @@ import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { isCancelled, WorkerClient } from '../../../src/node/worker/client.js';
 import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
+import { workerConfig } from './fixtures/workerConfig.js';
 
 // A real worker thread running the bundled worker entry, over a folder made of the ADI
 // collection (test/fixtures/corpora/adi: 82 abstracts, 35 queries with relevance judgements).
@@ -49,16 +50,8 @@ describe('shared cancel flag in a real thread', () => {
 
 describe('index worker round trip', () => {
   const docs = adi ? adi.docs : [];
-  const config = (over: Partial<WorkerConfig> = {}): WorkerConfig => ({
-    roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
-    indexFile: join(tmp, 'storage', 'index.undertone'),
-    settings: {},
-    include: [],
-    exclude: [],
-    maxFileBytes: 1 << 20,
-    honourGitignore: true,
-    ...over,
-  });
+  const config = (over: Partial<WorkerConfig> = {}): WorkerConfig =>
+    workerConfig({ roots: [{ name: 'ws', fsPath: folder, exclude: [] }], indexFile: join(tmp, 'storage', 'index.undertone'), ...over });
   const text = (id: string) => docs.find((d) => d.id === id)!.text.replace(/\. /g, '.\n');
 
   beforeAll(() => {

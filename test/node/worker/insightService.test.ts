@@ -13,10 +13,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pageDataProblems } from '../../../src/core/map/mapData.js';
 import { stemWord } from '../../../src/core/text/tokenize.js';
 import { IndexService } from '../../../src/node/worker/indexService.js';
-import type { FileRef, WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
+import type { FileRef } from '../../../src/node/worker/workerProtocol.js';
 import type { TopicWire } from '../../../src/node/worker/insightProtocol.js';
 import type { HandlerContext } from '../../../src/node/worker/server.js';
 import { REPO_ROOT } from '../../helpers/shared.js';
+import { workerConfig } from './fixtures/workerConfig.js';
 
 interface Expectations {
   topics: { name: string; files: string[] }[];
@@ -30,15 +31,10 @@ const folder = join(tmp, 'ferry');
 const service = new IndexService({ saveDelayMs: 60_000 });
 const h = service.handlers();
 const ctx: HandlerContext = { signal: new AbortController().signal, isCancelled: () => false, progress: () => undefined };
-const config: WorkerConfig = {
+const config = workerConfig({
   roots: [{ name: 'ferry', fsPath: folder, exclude: [] }],
   indexFile: join(tmp, 'storage', 'index.undertone'),
-  settings: {},
-  include: [],
-  exclude: [],
-  maxFileBytes: 1 << 20,
-  honourGitignore: true,
-};
+});
 
 beforeAll(async () => {
   cpSync(join(REPO_ROOT, 'demo', 'workspace'), folder, { recursive: true });

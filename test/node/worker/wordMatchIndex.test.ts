@@ -18,21 +18,19 @@ import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { IndexService } from '../../../src/node/worker/indexService.js';
 import type { HandlerContext } from '../../../src/node/worker/server.js';
-import type { Progress, SearchMatch, WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
+import type { Progress, SearchMatch } from '../../../src/node/worker/workerProtocol.js';
 import { loadCollection } from '../../helpers/shared.js';
+import { workerConfig } from './fixtures/workerConfig.js';
 
 const cisi = loadCollection('cisi');
 const tmp = mkdtempSync(join(tmpdir(), 'undertone-wordmatch-'));
 const folder = join(tmp, 'ws');
-const config: WorkerConfig = {
+const config = workerConfig({
   roots: [{ name: 'ws', fsPath: folder, exclude: [] }],
   indexFile: join(tmp, 'index.undertone'),
   settings: { k: 40 },
-  include: [],
-  exclude: [],
-  maxFileBytes: 1 << 20,
   honourGitignore: false,
-};
+});
 /** Queries of the collection (its first five), asked while the concept model is built. */
 const QUERIES = cisi.queries.slice(0, 5).map((q) => q.text);
 const TOP = 10;

@@ -3,12 +3,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
-import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import { WorkerPool } from '../../../src/node/parallel/workerPool.js';
 import { RootMap } from '../../../src/node/worker/rootMap.js';
 import { buildWorkspaceIndex } from '../../../src/node/worker/workspaceIndexer.js';
 import { loadCollection } from '../../helpers/shared.js';
 import { useBundledParallelWorker } from '../../helpers/parallelWorkerBundle.js';
+import { workerConfig } from './fixtures/workerConfig.js';
 
 // Real text: 300 CRAN abstracts (test/fixtures/corpora/cran) split over two workspace folders.
 const cran = loadCollection('cran');
@@ -30,15 +30,7 @@ afterAll(() => {
 
 describe('buildWorkspaceIndex', () => {
   const roots = new RootMap(folders.map((p, i) => ({ name: ['alpha', 'beta'][i], fsPath: p, exclude: [] })));
-  const config: WorkerConfig = {
-    roots: roots.roots,
-    indexFile: join(tmp, 'unused'),
-    settings: {},
-    include: [],
-    exclude: [],
-    maxFileBytes: 1 << 20,
-    honourGitignore: true,
-  };
+  const config = workerConfig({ roots: roots.roots, indexFile: join(tmp, 'unused') });
 
   it('indexes two folders as the same documents built in one process, with folder-prefixed keys', async () => {
     const built = await buildWorkspaceIndex(roots, config, { threads: false });
