@@ -32,6 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
+import { TfidfNorms } from './search/tfidfCosine.js';
 import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
@@ -94,6 +95,9 @@ export class LsiIndex {
   /** Query-word focus inputs (termFocus.ts), cleared on every edit. */
   private readonly _resultants = new Map<number, Resultant>();
   private _meanNormSquared = -1;
+  /** TF-IDF document norms (tfidfCosine.ts), made on first use, cleared on every edit. */
+  private _tfidf: TfidfNorms | null = null;
+  private _tfidfScores = new Float64Array(0);
   private _mainLanguage: Language | undefined;
   private _languagesPresent: readonly Language[] | undefined;
   /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
@@ -276,6 +280,7 @@ export class LsiIndex {
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
       divideByMax(lexical);
+      if (r.tfidfShare > 0) this.addTfidf(lexQuery, lexical, r.tfidfShare, r.tfidfSlope);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
     }
     const marked = new Set([...liked, ...unliked]);
@@ -548,7 +553,19 @@ export class LsiIndex {
     return true;
   }
 
+  /** lexical = (1 − ν)·lexical + ν·(TF-IDF score / its maximum) (tfidfCosine.ts). */
+  private addTfidf(q: DocTerms, lexical: Float64Array, share: number, slope: number): void {
+    this._tfidf ??= new TfidfNorms(this._slots.map((s) => s?.terms ?? null));
+    if (this._tfidfScores.length !== lexical.length) this._tfidfScores = new Float64Array(lexical.length);
+    const t = this._tfidfScores.fill(0);
+    const bm25 = this.bm25();
+    this._tfidf.scoreInto(q, (term, fn) => bm25.forEachHolder(term, fn), t, { slope });
+    divideByMax(t);
+    blend(1 - share, lexical, share, t, lexical);
+  }
+
   private forgetFocus(): void {
+    this._tfidf = null;
     this._resultants.clear();
     this._meanNormSquared = -1;
   }

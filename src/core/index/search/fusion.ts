@@ -86,6 +86,14 @@ export interface RankingOptions {
    * LINKS_WORD_MATCH_DELTA = 0), where their similarity threshold was calibrated. @default 0.5
    */
   nearbyDelta: number;
+  /**
+   * Search: share ν of the word match given to TF-IDF cosine over the full term space
+   * (tfidfCosine.ts), max-normalised like BM25: lexical = (1 − ν)·BM25/max + ν·TFIDF/max.
+   * 0 = BM25 alone. @default 0
+   */
+  tfidfShare: number;
+  /** Pivoted normalisation slope of that TF-IDF score (tfidfCosine.ts; 1 = cosine). @default 1 */
+  tfidfSlope: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -102,6 +110,8 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   spreadBlend: false,
   termFocus: 1,
   nearbyDelta: 0.5,
+  tfidfShare: 0,
+  tfidfSlope: 1,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
