@@ -280,8 +280,14 @@ export class LsiIndex {
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
       divideByMax(lexical);
-      if (r.tfidfShare > 0) this.addTfidf(lexQuery, lexical, r.tfidfShare, r.tfidfSlope);
+      if (r.tfidfShare > 0 && !r.tfidfFromConcept) this.addTfidf(lexQuery, lexical, 1 - r.tfidfShare, r.tfidfShare, r.tfidfSlope);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
+      if (r.tfidfShare > 0 && r.tfidfFromConcept && proj.knownTerms > 0) {
+        // (1 − λ)(1 − ν)·cos + λ·BM25 + (1 − λ)ν·TF-IDF, the last two as one part of share λ'.
+        const moved = (1 - lambda) * r.tfidfShare;
+        this.addTfidf(lexQuery, lexical, lambda / (lambda + moved), moved / (lambda + moved), r.tfidfSlope);
+        lambda += moved;
+      }
     }
     const marked = new Set([...liked, ...unliked]);
     const live = this.acceptor(options.filter);
@@ -553,15 +559,15 @@ export class LsiIndex {
     return true;
   }
 
-  /** lexical = (1 − ν)·lexical + ν·(TF-IDF score / its maximum) (tfidfCosine.ts). */
-  private addTfidf(q: DocTerms, lexical: Float64Array, share: number, slope: number): void {
+  /** lexical = wl·lexical + wt·(TF-IDF score / its maximum) (tfidfCosine.ts). */
+  private addTfidf(q: DocTerms, lexical: Float64Array, wl: number, wt: number, slope: number): void {
     this._tfidf ??= new TfidfNorms(this._slots.map((s) => s?.terms ?? null));
     if (this._tfidfScores.length !== lexical.length) this._tfidfScores = new Float64Array(lexical.length);
     const t = this._tfidfScores.fill(0);
     const bm25 = this.bm25();
     this._tfidf.scoreInto(q, (term, fn) => bm25.forEachHolder(term, fn), t, { slope });
     divideByMax(t);
-    blend(1 - share, lexical, share, t, lexical);
+    blend(wl, lexical, wt, t, lexical);
   }
 
   private forgetFocus(): void {

@@ -94,6 +94,11 @@ export interface RankingOptions {
   tfidfShare: number;
   /** Pivoted normalisation slope of that TF-IDF score (tfidfCosine.ts; 1 = cosine). @default 1 */
   tfidfSlope: number;
+  /**
+   * Take TF-IDF's share ν from the concept part instead of the word match:
+   * (1 − λ)(1 − ν)·cos + λ·BM25/max + (1 − λ)ν·TFIDF/max. @default false
+   */
+  tfidfFromConcept: boolean;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -112,6 +117,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyDelta: 0.5,
   tfidfShare: 0,
   tfidfSlope: 1,
+  tfidfFromConcept: false,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
