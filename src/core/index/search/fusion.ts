@@ -99,6 +99,12 @@ export interface RankingOptions {
    * (1 − λ)(1 − ν)·cos + λ·BM25/max + (1 − λ)ν·TFIDF/max. @default false
    */
   tfidfFromConcept: boolean;
+  /**
+   * Search: each file's concept cosine times (1 − r)^(p/2), r its fold-in residual (the share of its
+   * weighted row outside the concept space), so files the concept space represents poorly (short
+   * titles, rare words) weigh their concept match less; 0 = off. @default 0
+   */
+  conceptConfidence: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -118,6 +124,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   tfidfShare: 0,
   tfidfSlope: 1,
   tfidfFromConcept: false,
+  conceptConfidence: 0,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
