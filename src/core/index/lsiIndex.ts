@@ -98,8 +98,6 @@ export class LsiIndex {
   /** TF-IDF document norms (tfidfCosine.ts), made on first use, cleared on every edit. */
   private _tfidf: TfidfNorms | null = null;
   private _tfidfScores = new Float64Array(0);
-  private _confidence: Float64Array | null = null;
-  private _confidencePower = 0;
   private _mainLanguage: Language | undefined;
   private _languagesPresent: readonly Language[] | undefined;
   /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
@@ -249,7 +247,6 @@ export class LsiIndex {
       options.top ?? 10,
       accept,
       this._scratch.subarray(this._slots.length, 2 * this._slots.length),
-      this.conceptConfidence(),
     );
     return ranked.map(({ slot, score }) => ({
       path: this._slots[slot]!.meta.path,
@@ -301,7 +298,7 @@ export class LsiIndex {
     const base = lambda;
     if (known && r.spreadBlend && lambda > 0) lambda = this.spreadLambda(base, vector, lexical);
     if (known && r.feedbackDocs > 0 && r.feedbackWeight > 0) {
-      const first = this.rank(vector, 1 - lambda, lambda, lexical, r.feedbackDocs, accept, this._scratch.subarray(n, 2 * n), this.conceptConfidence());
+      const first = this.rank(vector, 1 - lambda, lambda, lexical, r.feedbackDocs, accept, this._scratch.subarray(n, 2 * n));
       const moved = rocchio(vector, [{ weight: r.feedbackWeight, vectors: first.ranked.map(({ slot }) => this.slotVector(slot)) }]);
       if (moved) [vector, scale] = [moved.vector, scale * moved.scale];
     }
@@ -449,18 +446,15 @@ export class LsiIndex {
     top: number,
     accept: (slot: number) => boolean,
     scratch: Float64Array,
-    confidence: Float64Array | null = null,
   ): { ranked: { slot: number; score: number }[]; product: (slot: number) => number } {
     const codes = this.codes();
     const n = this._slots.length;
     const screened =
-      !confidence &&
       codes &&
       a > 0 &&
       screenedTop({ codes, rows: this._rows, q, n, top, accept, a, ...(b > 0 ? { extra: { b, values: lexical } } : {}) }, this._screen);
     if (screened) return { ranked: screened.ranked, product: (slot) => screened.product(slot) };
     const concept = this.liveDots(q);
-    if (confidence) for (let j = 0; j < n; j++) concept[j] *= confidence[j];
     blend(a, concept, b, lexical, scratch);
     const ranked = topN(scratch, top, accept);
     return { ranked, product: (slot) => concept[slot] };
@@ -576,30 +570,7 @@ export class LsiIndex {
     blend(wl, lexical, wt, t, lexical);
   }
 
-  /**
-   * Search's weight on each file's concept cosine (ranking option conceptConfidence p): (1 − r)^(p/2),
-   * r the file's fold-in residual, so (p = 1) the length of its unit row's projection onto the
-   * concept space; null when off. Kept until the next edit.
-   */
-  private conceptConfidence(): Float64Array | null {
-    const p = this.ranking.conceptConfidence;
-    if (!(p > 0)) return null;
-    if (!this._confidence || this._confidencePower !== p) {
-      this._confidencePower = p;
-      const slots = this._slots;
-      this._confidence = new Float64Array(slots.length);
-      for (let j = 0; j < slots.length; j++) {
-        const s = slots[j];
-        if (!s) continue;
-        const r = s.folded ? s.residual : projectTerms(this.model, s.terms).residual;
-        this._confidence[j] = Math.pow(Math.max(0, 1 - r), p / 2);
-      }
-    }
-    return this._confidence;
-  }
-
   private forgetFocus(): void {
-    this._confidence = null;
     this._tfidf = null;
     this._resultants.clear();
     this._meanNormSquared = -1;

@@ -19,6 +19,7 @@
  * a regression fails and an improvement shows.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
+import { DEFAULT_RANKING_OPTIONS } from '../../../src/core/index/search/fusion.js';
 import {
   buildFixtureIndex,
   loadRankingFixture,
@@ -100,5 +101,16 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
     const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
     got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.9 * q[i]!));
     for (const i of [2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
+  });
+});
+
+describe('the opt-in TF-IDF signal (tfidfShare, research for the third search round)', () => {
+  it("alone (ν = 1, λ = 1) reproduces the stored scikit-learn TF-IDF cosine baseline on CACM (MAP .2784)", () => {
+    const fx = loadRankingFixture('corpora/cacm');
+    const index = buildFixtureIndex(fx, { lexicalBlend: 1 });
+    index.ranking = { ...DEFAULT_RANKING_OPTIONS, tfidfShare: 1 };
+    const got = searchFigures(index, fx).map;
+    console.log(`cacm TF-IDF alone MAP ${got.toFixed(4)}`);
+    expect(got).toBeCloseTo(fx.baselines!.methods.tfidf.map!, 3);
   });
 });

@@ -89,7 +89,9 @@ export interface RankingOptions {
   /**
    * Search: share ν of the word match given to TF-IDF cosine over the full term space
    * (tfidfCosine.ts), max-normalised like BM25: lexical = (1 − ν)·BM25/max + ν·TFIDF/max.
-   * 0 = BM25 alone. @default 0
+   * 0 = BM25 alone. Off: measured in the third search round and not chosen by every
+   * leave-one-out fold (README, "Ranking checks"); explanations still split the word match as
+   * BM25 alone. @default 0
    */
   tfidfShare: number;
   /** Pivoted normalisation slope of that TF-IDF score (tfidfCosine.ts; 1 = cosine). @default 1 */
@@ -99,12 +101,6 @@ export interface RankingOptions {
    * (1 − λ)(1 − ν)·cos + λ·BM25/max + (1 − λ)ν·TFIDF/max. @default false
    */
   tfidfFromConcept: boolean;
-  /**
-   * Search: each file's concept cosine times (1 − r)^(p/2), r its fold-in residual (the share of its
-   * weighted row outside the concept space), so files the concept space represents poorly (short
-   * titles, rare words) weigh their concept match less; 0 = off. @default 0
-   */
-  conceptConfidence: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -124,7 +120,6 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   tfidfShare: 0,
   tfidfSlope: 1,
   tfidfFromConcept: false,
-  conceptConfidence: 0,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
