@@ -105,7 +105,7 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
 });
 
 describe('the opt-in TF-IDF signal (tfidfShare, research for the third search round)', () => {
-  it("alone (ν = 1, λ = 1) reproduces the stored scikit-learn TF-IDF cosine baseline on CACM (MAP .2784)", () => {
+  it('alone (ν = 1, λ = 1) reproduces the stored scikit-learn TF-IDF cosine baseline on CACM (MAP .2784)', () => {
     const fx = loadRankingFixture('corpora/cacm');
     const index = buildFixtureIndex(fx, { lexicalBlend: 1 });
     index.ranking = { ...DEFAULT_RANKING_OPTIONS, tfidfShare: 1 };
