@@ -323,8 +323,18 @@ export class LsiIndex {
     const live = this.acceptor(options.filter);
     const accept = (j: number): boolean => j !== self && live(j);
     const n = this._slots.length;
-    const mu = this.ranking.nearbyLexical;
+    let mu = this.ranking.nearbyLexical;
     const { lexical } = this.nearbyPlan(path, options.wordMatchDelta);
+    const nu = this.ranking.nearbyTfidfShare;
+    if (nu > 0 && mu > 0) {
+      const terms = this._slots[self]!.terms;
+      if (!this.ranking.tfidfFromConcept) this.addTfidf(terms, lexical, 1 - nu, nu, this.ranking.tfidfSlope, self);
+      else {
+        const moved = (1 - mu) * nu;
+        this.addTfidf(terms, lexical, mu / (mu + moved), moved / (mu + moved), this.ranking.tfidfSlope, self);
+        mu += moved;
+      }
+    }
     const { ranked, product } = this.rank(
       this.vectorOf(path),
       1 - mu,
@@ -560,12 +570,13 @@ export class LsiIndex {
   }
 
   /** lexical = wl·lexical + wt·(TF-IDF score / its maximum) (tfidfCosine.ts). */
-  private addTfidf(q: DocTerms, lexical: Float64Array, wl: number, wt: number, slope: number): void {
+  private addTfidf(q: DocTerms, lexical: Float64Array, wl: number, wt: number, slope: number, exclude = -1): void {
     this._tfidf ??= new TfidfNorms(this._slots.map((s) => s?.terms ?? null));
     if (this._tfidfScores.length !== lexical.length) this._tfidfScores = new Float64Array(lexical.length);
     const t = this._tfidfScores.fill(0);
     const bm25 = this.bm25();
     this._tfidf.scoreInto(q, (term, fn) => bm25.forEachHolder(term, fn), t, { slope });
+    if (exclude >= 0) t[exclude] = 0;
     divideByMax(t);
     blend(wl, lexical, wt, t, lexical);
   }

@@ -101,6 +101,11 @@ export interface RankingOptions {
    * (1 − λ)(1 − ν)·cos + λ·BM25/max + (1 − λ)ν·TFIDF/max. @default false
    */
   tfidfFromConcept: boolean;
+  /**
+   * Nearby: share ν of TF-IDF cosine over the page's full term vector (tfidfCosine.ts), taken from
+   * the word match or, with tfidfFromConcept, from the concept part; 0 = off. @default 0
+   */
+  nearbyTfidfShare: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -120,6 +125,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   tfidfShare: 0,
   tfidfSlope: 1,
   tfidfFromConcept: false,
+  nearbyTfidfShare: 0,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
