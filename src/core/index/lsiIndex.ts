@@ -327,7 +327,7 @@ export class LsiIndex {
     const { lexical } = this.nearbyPlan(path, options.wordMatchDelta);
     const nu = this.ranking.nearbyTfidfShare;
     if (nu > 0 && mu > 0) {
-      const terms = this._slots[self]!.terms;
+      const terms = this.ranking.nearbyTfidfTop ? this.fileQuery(self, 1) : this._slots[self]!.terms;
       if (!this.ranking.tfidfFromConcept) this.addTfidf(terms, lexical, 1 - nu, nu, this.ranking.tfidfSlope, self);
       else {
         const moved = (1 - mu) * nu;

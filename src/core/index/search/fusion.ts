@@ -106,6 +106,8 @@ export interface RankingOptions {
    * the word match or, with tfidfFromConcept, from the concept part; 0 = off. @default 0
    */
   nearbyTfidfShare: number;
+  /** That TF-IDF query is the page's nearbyTerms most distinctive terms instead of all its terms. @default false */
+  nearbyTfidfTop: boolean;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -126,6 +128,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   tfidfSlope: 1,
   tfidfFromConcept: false,
   nearbyTfidfShare: 0,
+  nearbyTfidfTop: false,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
