@@ -61,6 +61,8 @@ export interface SearchOptions {
 export interface NearbyOptions extends SearchOptions {
   /** BM25L's δ of the word match (0 = classic BM25). @default RankingOptions.nearbyDelta */
   wordMatchDelta?: number;
+  /** Share of TF-IDF cosine in the word match (0 = BM25L alone). @default RankingOptions.nearbyTfidfShare */
+  wordMatchTfidf?: number;
 }
 
 export interface PrepareOptions {

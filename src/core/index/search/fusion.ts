@@ -102,12 +102,14 @@ export interface RankingOptions {
    */
   tfidfFromConcept: boolean;
   /**
-   * Nearby: share ν of TF-IDF cosine over the page's full term vector (tfidfCosine.ts), taken from
-   * the word match or, with tfidfFromConcept, from the concept part; 0 = off. @default 0
+   * Nearby: share ν of the word match given to the TF-IDF cosine of the page's full term vector
+   * (tfidfCosine.ts; Salton & Buckley 1988's ltc weights, scikit-learn's TfidfVectorizer form),
+   * divided by the best other page's: lexical = (1 − ν)·BM25L/max + ν·TFIDF/max. Chosen by every
+   * leave-one-manual-out fold among twelve configurations (ν 0.1 / 0.25 / 0.5, pivoted, taken from
+   * the concept part, or over the page's top terms; README, "Ranking checks", fourth round); the
+   * link suggestions keep 0 (suggestLinks.ts). @default 0.1
    */
   nearbyTfidfShare: number;
-  /** That TF-IDF query is the page's nearbyTerms most distinctive terms instead of all its terms. @default false */
-  nearbyTfidfTop: boolean;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -127,8 +129,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   tfidfShare: 0,
   tfidfSlope: 1,
   tfidfFromConcept: false,
-  nearbyTfidfShare: 0,
-  nearbyTfidfTop: false,
+  nearbyTfidfShare: 0.1,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */

@@ -68,6 +68,15 @@ export class TfidfNorms {
     this.meanNorm = n > 0 ? sum / n : 0;
   }
 
+  /** One query term's share of a document's score in scoreInto (0 when the document lacks it). */
+  termScore(termId: number, queryCount: number, tf: number, slot: number, options: Partial<TfidfOptions> = {}): number {
+    if (termId >= this.idf.length || !(queryCount > 0) || !(tf > 0)) return 0;
+    const s = options.slope ?? DEFAULT_TFIDF_OPTIONS.slope;
+    const denom = (1 - s) * this.meanNorm + s * this.norms[slot];
+    const idf = this.idf[termId];
+    return denom > 0 ? ((queryCount >= 1 ? 1 + Math.log(queryCount) : queryCount) * idf * idf * (1 + Math.log(tf))) / denom : 0;
+  }
+
   /**
    * Adds each document's TF-IDF score for the query (term ids with their counts) into out:
    * Σ_t (1 + ln qtf)·idf_t · (1 + ln tf)·idf_t, divided by the document's (pivoted) norm.
