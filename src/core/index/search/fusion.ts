@@ -6,7 +6,9 @@
  *   by BM25 against every other file and divided by the best other file's score (0…1). The
  *   selection of a file's top terms as its query is the classic "more like this" query of
  *   relevance feedback (Salton & Buckley 1990, "Improving retrieval performance by relevance
- *   feedback"); 25–50 terms is common practice.
+ *   feedback"); 25–50 terms is common practice. A tenth of that word match is the TF-IDF cosine
+ *   of the file's full term vector with every other file's (nearbyTfidfShare, tfidfCosine.ts),
+ *   divided by the best other file's.
  * - Search: the concept cosine of the query, blended with max-normalised BM25
  *   (settings.lexicalBlend, raised by the share of the query's words the concept space does not
  *   know: coverageBlend); optionally (spreadBlend) that share applies to standardised scores

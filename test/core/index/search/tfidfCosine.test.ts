@@ -77,6 +77,22 @@ describe('TfidfNorms', () => {
     expect(at0[long] / at0[short]).toBeGreaterThan(at1[long] / at1[short]);
   });
 
+  it("splits a document's score into its terms' shares (termScore), for every slope", () => {
+    for (const [text] of REFERENCE)
+      for (const s of [1, 0.4]) {
+        const q = termsOf(text);
+        const got = scores(norms, q, s);
+        docs.forEach((d, j) => {
+          let sum = 0;
+          q.termIds.forEach((t, i) => {
+            const at = d.termIds.indexOf(t);
+            sum += norms.termScore(t, q.counts[i], at < 0 ? 0 : d.counts[at], j, { slope: s });
+          });
+          expect(sum).toBeCloseTo(got[j], 12);
+        });
+      }
+  });
+
   it('leaves holes out of the document count and the mean norm', () => {
     const withHole = new TfidfNorms([...docs, null]);
     expect(withHole.documents).toBe(docs.length);
