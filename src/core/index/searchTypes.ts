@@ -40,8 +40,10 @@ export interface NearbyHit {
   /** Cosine similarity of the two files' concept vectors. */
   readonly conceptScore: number;
   /**
-   * BM25L (δ: RankingOptions.nearbyDelta, or NearbyOptions.wordMatchDelta) of the file's most
-   * distinctive terms, divided by the best other file's (0…1).
+   * The word match (0…1): BM25L (δ: RankingOptions.nearbyDelta, or NearbyOptions.wordMatchDelta)
+   * of the file's most distinctive terms divided by the best other file's, with a share ν
+   * (RankingOptions.nearbyTfidfShare, or NearbyOptions.wordMatchTfidf) of TF-IDF cosine divided by
+   * the best other file's: (1 − ν)·BM25L/max + ν·TFIDF/max.
    */
   readonly lexicalScore: number;
 }
