@@ -95,7 +95,7 @@ export class LsiIndex {
   /** Query-word focus inputs (termFocus.ts), cleared on every edit. */
   private readonly _resultants = new Map<number, Resultant>();
   private _meanNormSquared = -1;
-  /** TF-IDF document norms (tfidfCosine.ts), made on first use, then updated by each edit with the idf frozen. */
+  /** TF-IDF document norms (tfidfCosine.ts), made on first use, cleared on every edit. */
   private _tfidf: TfidfNorms | null = null;
   private _tfidfScores = new Float64Array(0);
   private _mainLanguage: Language | undefined;
@@ -553,7 +553,6 @@ export class LsiIndex {
     this._codes?.ensureCapacity(this._slots.length);
     this._codes?.setRow(s, proj.vector);
     this._bm25?.setDocument(s, terms);
-    this._tfidf?.update(s, terms);
     this.forgetFocus();
     this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
@@ -572,7 +571,6 @@ export class LsiIndex {
     this.sections.delete(path);
     this._changes.removed(wasFolded);
     this._bm25?.setDocument(s, null);
-    this._tfidf?.update(s, null);
     this.forgetFocus();
     return true;
   }
@@ -591,6 +589,7 @@ export class LsiIndex {
   }
 
   private forgetFocus(): void {
+    this._tfidf = null;
     this._resultants.clear();
     this._meanNormSquared = -1;
   }

@@ -100,16 +100,15 @@ function plainBm25(index: LsiIndex, q: DocTerms, b: number, delta = 0): number[]
 
 /**
  * TF-IDF cosine of a file's full term vector with every slot's, as scikit-learn's TfidfVectorizer
- * (sublinear_tf, smooth_idf, l2) computes it: weights (1 + ln tf)·idf, idf = ln((1 + n)/(1 + df)) + 1
- * over the documents `frozen` (those of the index when Nearby first asked; a word none of them has
- * weighs as in one document, ln((1 + n)/2) + 1), each side divided by its norm.
+ * (sublinear_tf, smooth_idf, l2) computes it over the current documents: weights (1 + ln tf)·idf,
+ * idf = ln((1 + n)/(1 + df)) + 1, each side divided by its norm.
  */
-function plainTfidf(index: LsiIndex, d: DocTerms, frozen: readonly DocTerms[]): number[] {
+function plainTfidf(index: LsiIndex, d: DocTerms): number[] {
   const slots = index.slots();
+  const present = slots.filter((s) => s !== null).map((s) => s.terms);
   const df = new Map<number, number>();
-  for (const e of frozen) for (const t of e.termIds) df.set(t, (df.get(t) ?? 0) + 1);
-  const n = frozen.length;
-  const idf = (t: number): number => Math.log((1 + n) / (1 + (df.get(t) ?? 1))) + 1;
+  for (const e of present) for (const t of e.termIds) df.set(t, (df.get(t) ?? 0) + 1);
+  const idf = (t: number): number => Math.log((1 + present.length) / (1 + (df.get(t) ?? 0))) + 1;
   const weights = (e: DocTerms): Map<number, number> => new Map(Array.from(e.termIds, (t, i) => [t, (1 + Math.log(e.counts[i])) * idf(t)]));
   const norm = (w: Map<number, number>): number => Math.hypot(...w.values());
   const wq = weights(d);
@@ -252,7 +251,6 @@ function plainNearby(
   index: LsiIndex,
   path: string,
   top: number,
-  frozen: readonly DocTerms[],
   delta = index.ranking.nearbyDelta,
   nu = index.ranking.nearbyTfidfShare,
 ): { path: string; score: number }[] {
@@ -269,7 +267,7 @@ function plainNearby(
   };
   const self = index.slots().findIndex((s) => s?.meta.path === path);
   const bm25 = plainBm25(index, query, index.ranking.nearbyLengthNorm, delta);
-  const tfidf = plainTfidf(index, d, frozen);
+  const tfidf = plainTfidf(index, d);
   bm25[self] = 0;
   tfidf[self] = 0;
   const [maxB, maxT] = [Math.max(...bm25), Math.max(...tfidf)];
@@ -282,8 +280,6 @@ describe('LsiIndex ranking against the plain formula', () => {
     const b = new IndexBuilder();
     for (const d of cran.docs.slice(0, 500)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = b.build();
-    // The documents the TF-IDF idf is frozen on (the first Nearby below makes it; edits keep it).
-    const frozen = index.slots().flatMap((s) => (s ? [s.terms] : []));
     const compare = (): void => {
       for (const q of cran.queries.slice(0, 15)) {
         const got = index.search(q.text, { top: 15 });
@@ -293,13 +289,13 @@ describe('LsiIndex ranking against the plain formula', () => {
       }
       for (const p of index.paths().filter((_, i) => i % 50 === 7)) {
         const got = index.nearby(p, { top: 15 });
-        const ref = plainNearby(index, p, 15, frozen);
+        const ref = plainNearby(index, p, 15);
         expect(got.map((h) => h.path)).toEqual(ref.map((h) => h.path));
         got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
         // A caller's own δ and TF-IDF share (the link suggestions pass 0 and 0: classic BM25) override the defaults.
         expect(index.ranking.nearbyTfidfShare).toBeGreaterThan(0);
         const classic = index.nearby(p, { top: 15, wordMatchDelta: 0, wordMatchTfidf: 0 });
-        const classicRef = plainNearby(index, p, 15, frozen, 0, 0);
+        const classicRef = plainNearby(index, p, 15, 0, 0);
         expect(classic.map((h) => h.path)).toEqual(classicRef.map((h) => h.path));
         classic.forEach((h, i) => expect(h.score).toBeCloseTo(classicRef[i].score, 12));
       }

@@ -93,29 +93,6 @@ describe('TfidfNorms', () => {
       }
   });
 
-  it('after update() keeps the idf as frozen: an edited document weighs its words with it, a new word as in one document', () => {
-    const edited = new TfidfNorms(docs.slice(0, 10));
-    const idf = Float64Array.from(edited.idf);
-    const fresh = termsOf('Glossary of frobnicated computer terminology');
-    edited.update(10, fresh);
-    edited.update(2, null);
-    expect(Array.from(edited.idf)).toEqual(Array.from(idf));
-    const unseen = Math.log((1 + 10) / 2) + 1;
-    expect(edited.unseenIdf).toBeCloseTo(unseen, 12);
-    const expected = Math.hypot(
-      ...Array.from(fresh.termIds, (t, i) => (1 + Math.log(fresh.counts[i])) * (t < idf.length ? idf[t] : unseen)),
-    );
-    expect(edited.norms[10]).toBeCloseTo(expected, 12);
-    expect(edited.norms[2]).toBe(0);
-    const kept = [0, 1, 3, 4, 5, 6, 7, 8, 9, 10].map((j) => edited.norms[j]);
-    expect(edited.meanNorm).toBeCloseTo(kept.reduce((a, x) => a + x, 0) / kept.length, 12);
-    // The new word scores with the unseen idf.
-    const out = new Float64Array(11);
-    const frob = fresh.termIds.find((t) => t >= idf.length)!;
-    edited.scoreInto({ termIds: Int32Array.of(frob), counts: Float32Array.of(1), length: 1 }, (t, fn) => t === frob && fn(10, 1), out);
-    expect(out[10]).toBeCloseTo((unseen * unseen) / expected, 12);
-  });
-
   it('leaves holes out of the document count and the mean norm', () => {
     const withHole = new TfidfNorms([...docs, null]);
     expect(withHole.documents).toBe(docs.length);
