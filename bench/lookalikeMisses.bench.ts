@@ -152,7 +152,11 @@ function analyse(folder: string, files: MaterialFile[], labels: Map<string, stri
       .map((f, i) => {
         const s = space.rowStart[i];
         const e = space.rowStart[i + 1];
-        return JSON.stringify({ id: f.id, t: Array.from(space.terms.subarray(s, e)), w: Array.from(space.weights.subarray(s, e), (x) => +x.toFixed(5)) });
+        return JSON.stringify({
+          id: f.id,
+          t: Array.from(space.terms.subarray(s, e)),
+          w: Array.from(space.weights.subarray(s, e), (x) => +x.toFixed(5)),
+        });
       })
       .join('\n') + '\n',
   );

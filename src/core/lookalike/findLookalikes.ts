@@ -15,7 +15,8 @@
  * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
  *    file's other neighbours when a file names nothing rare, else holding the same rare names
  *    (rareNames.ts) when neither is a stub, or with margin and name share together high enough
- *    when a BM25 view of the same counts agrees (bm25View.ts); little shared text).
+ *    when a BM25 view of the same counts agrees (bm25View.ts), or closer in their words than
+ *    their broad topic explains (conceptView.ts) with their names agreeing; little shared text).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */
@@ -23,6 +24,7 @@ import { InvalidInputError } from '../errors.js';
 import { bandCandidates } from './banding.js';
 import { contentHash, isBlankText } from './contentHash.js';
 import { bm25View } from './bm25View.js';
+import { conceptView } from './conceptView.js';
 import { createMinHasher, estimateJaccard } from './minhash.js';
 import { resolveLookalikeOptions, type LookalikeOptions } from './options.js';
 import { rareNameIndex } from './rareNames.js';
@@ -189,6 +191,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   const termLists = collapse((t) => ({ index: nb.index.subarray(t * K, t * K + K), cosine: nb.cosine.subarray(t * K, t * K + K) }));
   // Clause c is off unless one of its two levels is finite (options.ts says why it is off by default).
   const clauseC = Number.isFinite(o.retoldMinEvidence) || Number.isFinite(o.retoldFewNamesMinEvidence);
+  const clauseD = Number.isFinite(o.retoldConceptMinDiff);
   const rule = {
     minCosine: o.retoldMinCosine,
     minGap: o.retoldMinGap,
@@ -202,6 +205,11 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     minEvidenceFewNames: o.retoldFewNamesMinEvidence,
     minEvidenceCosine: o.retoldEvidenceMinCosine,
     minEvidenceWords: o.retoldEvidenceMinWords,
+    conceptMinDiff: clauseD ? o.retoldConceptMinDiff : undefined,
+    conceptMinCosine: o.retoldConceptMinCosine,
+    conceptMinWords: o.retoldConceptMinWords,
+    conceptMinNameShare: o.retoldConceptMinNameShare,
+    conceptMinGap: o.retoldConceptMinGap,
   };
   const names = rareNameIndex(
     shingled.map((f) => files[f].text),
@@ -226,6 +234,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     }
     return true;
   };
+  let concepts: ReturnType<typeof conceptView> | undefined;
   const retold = findRetoldPairs(
     {
       ...termLists,
@@ -234,6 +243,8 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       names: names.pair,
       words: tokenCounts,
       secondView: clauseC ? bothNearest : undefined,
+      // Clause d's coarse concept space (conceptView.ts), built only when a mutual pair may need it.
+      conceptCosine: clauseD ? (x, y) => (concepts ??= conceptView(space, o.retoldConceptK, o.seed)).cosine(x, y) : undefined,
     },
     rule,
   );

@@ -47,6 +47,18 @@ export interface LookalikeOptions {
   readonly retoldEvidenceMinCosine: number;
   /** Clause c: least word count (shingle tokens) of the shorter file. @default 150 (measured with retoldMinEvidence 1) */
   readonly retoldEvidenceMinWords: number;
+  /** Clause d of the rule (retold.ts, conceptView.ts): least full-space cosine minus the pair's cosine in a coarse concept space (LSI with retoldConceptK dimensions). Infinity turns the clause off. @default -0.15 (our choice, with the other retoldConcept* constants, over a grid on test/fixtures/lookalike-retellings leaving one source out, coreutils vs the other GNU manuals (the names bench's selection: at most 3 false pairs there, at most 1 per 1,000 files without the Texinfo side, the demo's 3 planted pairs and no other, then the fewest pairs on test/fixtures/cmake-doc and test/fixtures/django-doc): both folds chose −0.15; held out 33/98 coreutils (29 before) and 10/27 others (8 before). Without this part (any difference) the same clause gives 5 more false pairs on the fixture and 7 on CMake: bench/lookalikeMisses.bench.ts, scripts/fixtures/lookalike-retellings/conceptClause.py, the fixture's README) */
+  readonly retoldConceptMinDiff: number;
+  /** Clause d: concept dimensions. @default 50 (chosen as retoldConceptMinDiff; one fold chose 25) */
+  readonly retoldConceptK: number;
+  /** Clause d: least full-space cosine. @default 0.45 (chosen as retoldConceptMinDiff; one fold chose 0.5) */
+  readonly retoldConceptMinCosine: number;
+  /** Clause d: least word count (shingle tokens) of the shorter file. @default 100 (chosen as retoldConceptMinDiff; one fold chose 200) */
+  readonly retoldConceptMinWords: number;
+  /** Clause d, both files holding rare names: least share of their rare-name weight in common (at least one name). @default 0.9 (chosen as retoldConceptMinDiff; both folds) */
+  readonly retoldConceptMinNameShare: number;
+  /** Clause d, a file naming nothing rare: least margin over each file's next neighbour. @default 0.2 (chosen as retoldConceptMinDiff; both folds) */
+  readonly retoldConceptMinGap: number;
   /** A name is rare when at most this many files hold it (rareNames.ts). @default 10 (our choice, set by looking at the whole of test/fixtures/lookalike-retellings: 5, 10, 20, 30 compared; not held out) */
   readonly retoldNameMaxDf: number;
   /** Seed for the MinHash family. @default DEFAULT_SEED (random.ts) */
@@ -75,6 +87,12 @@ export const DEFAULT_LOOKALIKE_OPTIONS: LookalikeOptions = Object.freeze({
   retoldFewNamesMinEvidence: Infinity,
   retoldEvidenceMinCosine: 0.4,
   retoldEvidenceMinWords: 150,
+  retoldConceptMinDiff: -0.15,
+  retoldConceptK: 50,
+  retoldConceptMinCosine: 0.45,
+  retoldConceptMinWords: 100,
+  retoldConceptMinNameShare: 0.9,
+  retoldConceptMinGap: 0.2,
   retoldNameMaxDf: 10,
   seed: DEFAULT_SEED,
 });
@@ -113,6 +131,15 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
   unitInterval('retoldEvidenceMinCosine', o.retoldEvidenceMinCosine);
   if (!(Number.isInteger(o.retoldEvidenceMinWords) && o.retoldEvidenceMinWords >= 0))
     throw new InvalidInputError(`retoldEvidenceMinWords must be a whole number ≥ 0, got ${o.retoldEvidenceMinWords}`);
+  if (!(o.retoldConceptMinDiff === Infinity || (o.retoldConceptMinDiff >= -1 && o.retoldConceptMinDiff <= 1)))
+    throw new InvalidInputError(`retoldConceptMinDiff must be in [-1, 1] or Infinity (off), got ${o.retoldConceptMinDiff}`);
+  positiveInteger('retoldConceptK', o.retoldConceptK);
+  unitInterval('retoldConceptMinCosine', o.retoldConceptMinCosine);
+  if (!(Number.isInteger(o.retoldConceptMinWords) && o.retoldConceptMinWords >= 0))
+    throw new InvalidInputError(`retoldConceptMinWords must be a whole number ≥ 0, got ${o.retoldConceptMinWords}`);
+  unitInterval('retoldConceptMinNameShare', o.retoldConceptMinNameShare);
+  if (!(o.retoldConceptMinGap >= 0 && o.retoldConceptMinGap <= 1))
+    throw new InvalidInputError(`retoldConceptMinGap must be in [0, 1], got ${o.retoldConceptMinGap}`);
   if (typeof o.retoldNamesDecide !== 'boolean')
     throw new InvalidInputError(`retoldNamesDecide must be true or false, got ${String(o.retoldNamesDecide)}`);
   positiveInteger('boilerplateFiles', o.boilerplateFiles);
