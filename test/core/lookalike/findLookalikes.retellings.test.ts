@@ -20,14 +20,15 @@
  *   (measured 35/35, 0 outside);
  * - same content, other words: at most 3 pairs not in the key (target; measured 1,
  *   pthread_yield.3 ~ sched_yield.2, itself a natural retelling outside the key) and ahead of plain
- *   TF-IDF cosine at the same number of false pairs; recall floors 0.27 overall, 26/98 coreutils,
- *   6/27 gnu-other (measured 2026-12-03 with names deciding when both files hold rare names:
- *   37/125 = 0.30, 29/98, 8/27; with the opt-in clause c, margin + name share ≥ 1 when BM25
- *   agrees, 45/125; the earlier rule 34/125, margin alone 20/125). The issue's recall target
- *   (≥ 55 %) is NOT met on this set: see the fixture README;
+ *   TF-IDF cosine at the same number of false pairs; recall floors 0.4 overall, 40/98 coreutils,
+ *   9/27 gnu-other (measured 2026-12-03 with clause d, closer in words than the broad topic
+ *   explains: 55/125 = 0.44, 45/98, 10/27; before it, with names deciding, 37/125, 29/98, 8/27;
+ *   the earlier rule 34/125, margin alone 20/125). The issue's recall target (≥ 55 %) is NOT met
+ *   on this set: see the fixture README;
  * - the folder without the retellings' Texinfo side: at most 1 pair per 1,000 files (target;
  *   measured 1 in 1,660, the same pthread_yield pair).
- * The rule's constants (options.ts) were chosen leaving one source out (bench/lookalikeSignals.bench.ts).
+ * The rule's constants (options.ts) were chosen leaving one source out (bench/lookalikeNameClause.bench.ts,
+ * scripts/fixtures/lookalike-retellings/conceptClause.py).
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -176,13 +177,13 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(partialTruth.length).toBeGreaterThan(20);
     expect(partialRecall).toBeGreaterThanOrEqual(0.9);
     expect(falsePartial).toBe(0);
-    // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 38 reported).
+    // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 56 reported).
     expect(falseRetold).toBeLessThanOrEqual(3);
     expect(hits.length / Math.max(1, retold.length)).toBeGreaterThanOrEqual(0.85);
-    // Floors below the measured recall (37/125; coreutils 29/98, gnu-other 8/27); the target of 0.55 is not met.
-    expect(recall).toBeGreaterThanOrEqual(0.27);
-    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(26);
-    expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(6);
+    // Floors below the measured recall (55/125; coreutils 45/98, gnu-other 10/27); the target of 0.55 is not met.
+    expect(recall).toBeGreaterThanOrEqual(0.4);
+    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(40);
+    expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(9);
     // Ahead of the baseline at the same number of false pairs (baseline measured: 4 with ≤ 3 false).
     expect(hits.length).toBeGreaterThan(baseSame);
   });
@@ -211,8 +212,9 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       // test/fixtures/cmake-doc (CMake 3.25 reference manual, Debian cmake-doc; see its README): no
       // planted retelling; many pages of one template (Find modules, a property and the variable that
       // sets its default). A control for the rule, not held out: its constants were chosen with it
-      // (bench/lookalikeNameClause.bench.ts). Measured 2026-12-03: 1 pair in 1,906 pages
-      // (module/FindMPEG ~ module/FindMPEG2, two modules of one template); the earlier rule gave 10.
+      // (bench/lookalikeNameClause.bench.ts, scripts/fixtures/lookalike-retellings/conceptClause.py).
+      // Measured 2026-12-03: 1 pair in 1,906 pages (module/FindMPEG ~ module/FindMPEG2, two modules
+      // of one template), with and without clause d; the earlier rule gave 10.
       const files = gunzipSync(readFileSync(cmakePath))
         .toString('utf8')
         .split('\n')
@@ -229,6 +231,22 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       expect((1000 * r.retoldPairs.length) / files.length).toBeLessThanOrEqual(1);
     },
   );
+
+  const djangoPath = join(REPO_ROOT, 'test', 'fixtures', 'django-doc', 'docs.jsonl.gz');
+  it.skipIf(!existsSync(djangoPath))('reports no "same content" pair in the Django manual', { timeout: 300_000 }, () => {
+    // test/fixtures/django-doc (Django 3.2 manual, Debian python-django-doc; see its README): 258
+    // pages, no planted retelling; a control used when choosing clause d, not held out. The
+    // issue's 1 per 1,000 files allows none here. Measured 2026-12-03: 0 pairs.
+    const files = gunzipSync(readFileSync(djangoPath))
+      .toString('utf8')
+      .split('\n')
+      .filter((l) => l.length > 0)
+      .map((l) => JSON.parse(l) as { id: string; text: string });
+    const r = findLookalikes({ files });
+    console.log(`overlaps on the Django manual: ${files.length} pages, ${r.retoldPairs.length} "same content" pairs`);
+    expect(files.length).toBeGreaterThan(200);
+    expect(r.retoldPairs.map((p) => `${p.a} ~ ${p.b}`)).toEqual([]);
+  });
 
   it.skipIf(!corpus)('gives the same report from stored term counts as from the texts', { timeout: 300_000 }, () => {
     // What the CLI and the editor pass: an index's raw counts (here counted with the index tokenizer

@@ -32,6 +32,12 @@ describe('resolveLookalikeOptions', () => {
     [{ retoldNamesDecide: 'yes' as unknown as boolean }, /retoldNamesDecide/],
     [{ retoldMinEvidence: -0.5 }, /retoldMinEvidence/],
     [{ retoldFewNamesMinEvidence: Number.NaN }, /retoldFewNamesMinEvidence/],
+    [{ retoldConceptMinDiff: -2 }, /retoldConceptMinDiff/],
+    [{ retoldConceptK: 0 }, /retoldConceptK/],
+    [{ retoldConceptMinCosine: 0 }, /retoldConceptMinCosine/],
+    [{ retoldConceptMinWords: 1.5 }, /retoldConceptMinWords/],
+    [{ retoldConceptMinNameShare: 2 }, /retoldConceptMinNameShare/],
+    [{ retoldConceptMinGap: -0.1 }, /retoldConceptMinGap/],
     [{ retoldEvidenceMinCosine: 0 }, /retoldEvidenceMinCosine/],
     [{ retoldEvidenceMinWords: 10.5 }, /retoldEvidenceMinWords/],
   ])('rejects %j with a clear message', (bad, message) => {
