@@ -89,7 +89,13 @@ function toJson(r: LookalikeReport, threshold: number, extra: Extra): unknown {
     words: p.words,
     ...(p.cosine === undefined
       ? {}
-      : { cosine: round(p.cosine), margin: round(p.gap ?? 0), names: p.sharedNames ?? 0, ...(p.clause ? { clause: p.clause } : {}) }),
+      : {
+          cosine: round(p.cosine),
+          margin: round(p.gap ?? 0),
+          names: p.sharedNames ?? 0,
+          ...(p.clause ? { clause: p.clause } : {}),
+          ...(p.conceptCosine === undefined ? {} : { conceptCosine: round(p.conceptCosine) }),
+        }),
   });
   return {
     threshold,

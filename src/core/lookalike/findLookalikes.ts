@@ -257,6 +257,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     nameShare: p.nameShare,
     namesHeld: p.namesHeld,
     clause: p.clause,
+    ...(p.beyondTopic === undefined ? {} : { conceptCosine: p.cosine - p.beyondTopic }),
   }));
 
   return {
