@@ -20,7 +20,7 @@
  * Folders: test/fixtures/lookalike-retellings, the same without the Texinfo side,
  * test/fixtures/cmake-doc, test/fixtures/django-doc, the demo workspace. For the fixture, each of
  * the key's 125 retellings gets its gate under clauses a and b (the first one it fails; the rule
- * before clause d), whether clause d (default constants) finds it, and its
+ * before clause d), whether clause d (its options.ts constants at its chosen level −0.15) finds it, and its
  * partner's rank on each side (exact, over all files). Writes outDir/candidates.jsonl,
  * outDir/misses.jsonl and outDir/<folder>.rows.jsonl (each kept file's TF-IDF row, for a concept-
  * space view computed elsewhere); prints the gate counts. The leave-one-source-out choice of clause
@@ -41,7 +41,8 @@ mkdirSync(outDir, { recursive: true });
 const corpus = retellingsCorpus();
 const K = 10;
 const TOP = 3;
-/** Concept dimensions compared for clause d (conceptView.ts). */
+/** Clause d's level as chosen (options.ts; the clause is off by default) and the concept dimensions compared (conceptView.ts). */
+const CLAUSE_D_LEVEL = -0.15;
 const CONCEPT_KS = [25, 50, 100];
 
 function analyse(folder: string, files: MaterialFile[], labels: Map<string, string>) {
@@ -235,7 +236,7 @@ const misses = corpus.retellings.map(([p, q, source]) => {
     f.words >= Math.max(D.retoldMinWords, D.retoldConceptMinWords) &&
     (both ? f.names >= 1 && f.share >= D.retoldConceptMinNameShare : f.gap >= D.retoldConceptMinGap) &&
     dDiff !== undefined &&
-    dDiff >= D.retoldConceptMinDiff;
+    dDiff >= CLAUSE_D_LEVEL;
   const shown = byD ? `found (beyond topic), before: ${gate}` : gate;
   gates.set(shown, (gates.get(shown) ?? 0) + 1);
   return { ...f, source, gate: shown, exactA: exactRank(a, b), exactB: exactRank(b, a) };

@@ -15,8 +15,9 @@
  * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
  *    file's other neighbours when a file names nothing rare, else holding the same rare names
  *    (rareNames.ts) when neither is a stub, or with margin and name share together high enough
- *    when a BM25 view of the same counts agrees (bm25View.ts), or closer in their words than
- *    their broad topic explains (conceptView.ts) with their names agreeing; little shared text).
+ *    when a BM25 view of the same counts agrees (bm25View.ts), or (opt-in) closer in their words
+ *    than their broad topic explains (conceptView.ts) with their names agreeing; little shared
+ *    text).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */

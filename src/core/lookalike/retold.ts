@@ -32,7 +32,8 @@
  *       clause b's name share or length but standing clear of its neighbourhood tells the same
  *       thing; two pages of one kind that hold each other's names stand clear under one
  *       weighting more often than under two.
- *    d. the full-space cosine stands at least conceptMinDiff above the pair's cosine in a coarse
+ *    d. (off by default: options.ts says why) the full-space cosine stands at least conceptMinDiff
+ *       above the pair's cosine in a coarse
  *       concept space (RetoldInput.conceptCosine; findLookalikes uses conceptView.ts, LSI with
  *       k = 50), with a cosine of at least conceptMinCosine and the shorter file at least
  *       conceptMinWords words, and either both files hold rare names, at least one in common with

@@ -20,11 +20,12 @@
  *   (measured 35/35, 0 outside);
  * - same content, other words: at most 3 pairs not in the key (target; measured 1,
  *   pthread_yield.3 ~ sched_yield.2, itself a natural retelling outside the key) and ahead of plain
- *   TF-IDF cosine at the same number of false pairs; recall floors 0.4 overall, 40/98 coreutils,
- *   9/27 gnu-other (measured 2026-12-03 with clause d, closer in words than the broad topic
- *   explains: 55/125 = 0.44, 45/98, 10/27; before it, with names deciding, 37/125, 29/98, 8/27;
- *   the earlier rule 34/125, margin alone 20/125). The issue's recall target (≥ 55 %) is NOT met
- *   on this set: see the fixture README;
+ *   TF-IDF cosine at the same number of false pairs; recall floors 0.27 overall, 26/98 coreutils,
+ *   6/27 gnu-other (measured 2026-12-03 with names deciding when both files hold rare names:
+ *   37/125 = 0.30, 29/98, 8/27; with the opt-in clause c, margin + name share ≥ 1 when BM25
+ *   agrees, 45/125; with the opt-in clause d, closer in words than the broad topic explains,
+ *   55/125 (checked below); the earlier rule 34/125, margin alone 20/125). The issue's recall
+ *   target (≥ 55 %) is NOT met on this set: see the fixture README;
  * - the folder without the retellings' Texinfo side: at most 1 pair per 1,000 files (target;
  *   measured 1 in 1,660, the same pthread_yield pair).
  * The rule's constants (options.ts) were chosen leaving one source out (bench/lookalikeNameClause.bench.ts,
@@ -177,15 +178,34 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(partialTruth.length).toBeGreaterThan(20);
     expect(partialRecall).toBeGreaterThanOrEqual(0.9);
     expect(falsePartial).toBe(0);
-    // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 56 reported).
+    // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 38 reported).
     expect(falseRetold).toBeLessThanOrEqual(3);
     expect(hits.length / Math.max(1, retold.length)).toBeGreaterThanOrEqual(0.85);
-    // Floors below the measured recall (55/125; coreutils 45/98, gnu-other 10/27); the target of 0.55 is not met.
-    expect(recall).toBeGreaterThanOrEqual(0.4);
-    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(40);
-    expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(9);
+    // Floors below the measured recall (37/125; coreutils 29/98, gnu-other 8/27); the target of 0.55 is not met.
+    expect(recall).toBeGreaterThanOrEqual(0.27);
+    expect(hits.filter((r) => truth.get(r.k) === 'coreutils').length).toBeGreaterThanOrEqual(26);
+    expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(6);
     // Ahead of the baseline at the same number of false pairs (baseline measured: 4 with ≤ 3 false).
     expect(hits.length).toBeGreaterThan(baseSame);
+  });
+
+  it.skipIf(!corpus)('with the opt-in clause d finds more retellings at the same false pairs', { timeout: 900_000 }, () => {
+    // Clause d (retold.ts; off by default, options.ts says why) at its chosen level −0.15.
+    // Measured 2026-12-03: 55/125 (coreutils 45/98, gnu-other 10/27), 1 pair not in the key (the
+    // same pthread_yield one); floors below that.
+    const c = corpus!;
+    const report = findLookalikes({ files: c.files }, { retoldConceptMinDiff: -0.15 });
+    const truth = new Map(c.retellings.map(([a, b, s]) => [key(a, b), s]));
+    const found = report.retoldPairs.map((p) => expanded(report, p.a, p.b).find((x) => truth.has(x)));
+    const hits = found.filter((k) => k !== undefined);
+    const byClause = report.retoldPairs.filter((p) => p.clause === 'beyond-topic').length;
+    console.log(
+      `opt-in clause d: ${report.retoldPairs.length} reported, ${hits.length} retellings (${byClause} by clause d), ${found.length - hits.length} not in the key`,
+    );
+    expect(found.length - hits.length).toBeLessThanOrEqual(3);
+    expect(hits.length).toBeGreaterThanOrEqual(50);
+    expect(hits.filter((k) => truth.get(k!) === 'gnu-other').length).toBeGreaterThanOrEqual(9);
+    expect(byClause).toBeGreaterThan(0);
   });
 
   it.skipIf(!corpus)('reports few "same content" pairs in a real folder without planted retellings', { timeout: 900_000 }, () => {
@@ -214,7 +234,7 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       // sets its default). A control for the rule, not held out: its constants were chosen with it
       // (bench/lookalikeNameClause.bench.ts, scripts/fixtures/lookalike-retellings/conceptClause.py).
       // Measured 2026-12-03: 1 pair in 1,906 pages (module/FindMPEG ~ module/FindMPEG2, two modules
-      // of one template), with and without clause d; the earlier rule gave 10.
+      // of one template), also with the opt-in clause d; the earlier rule gave 10.
       const files = gunzipSync(readFileSync(cmakePath))
         .toString('utf8')
         .split('\n')
