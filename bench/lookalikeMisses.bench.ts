@@ -16,6 +16,9 @@
  *   translation without parallel data");
  * - the full cosine minus the pair's cosine in a coarse concept space (conceptView.ts, k = 25, 50,
  *   100: beyondTopic25, …), the evidence of clause d;
+ * - sections matched one-to-one in order (src/core/sections cuts the files; pairs of sections that
+ *   are each other's best by TF-IDF cosine, the longest run in the same order in both, over the
+ *   smaller file's sections; mutual nearest pairs with cosine ≥ 0.3 only, else −1);
  * - words of the shorter and the longer file, and the two files' folders.
  * Folders: test/fixtures/lookalike-retellings, the same without the Texinfo side,
  * test/fixtures/cmake-doc, test/fixtures/django-doc, the demo workspace. For the fixture, each of
@@ -33,6 +36,8 @@ import { boilerplateLines, withoutBoilerplate } from '../src/core/lookalike/reto
 import { jaccardSorted, shingleSet } from '../src/core/lookalike/shingles.js';
 import { bm25View } from '../src/core/lookalike/bm25View.js';
 import { conceptView } from '../src/core/lookalike/conceptView.js';
+import { splitLines, splitSections } from '../src/core/sections/splitSections.js';
+import { tokenize } from '../src/core/text/tokenize.js';
 import { rowCosine, termCountsOf, termNeighbours, termSpaceFromCounts } from '../src/core/lookalike/termSpace.js';
 import { demoFiles, demoParaphrases, jsonlFiles, pairKey, retellingsCorpus, type MaterialFile } from './lookalikeMaterial.js';
 
@@ -76,6 +81,69 @@ function analyse(folder: string, files: MaterialFile[], labels: Map<string, stri
   );
   const bm = bm25View(rows, space.df);
   const concepts = CONCEPT_KS.map((k) => conceptView(space, k));
+  // Section view: each file cut by src/core/sections (headings, else windows of lines), each
+  // section a sublinear TF-IDF vector (idf over the kept files' cleaned texts).
+  const clean = keep.map((f) => withoutBoilerplate(f.text, bp));
+  const tokDf = new Map<string, number>();
+  for (const t of clean) for (const w of new Set(tokenize(t))) tokDf.set(w, (tokDf.get(w) ?? 0) + 1);
+  const sectionCache = new Map<number, Map<string, number>[]>();
+  const sectionsOf = (i: number): Map<string, number>[] => {
+    let out = sectionCache.get(i);
+    if (out) return out;
+    const lines = splitLines(keep[i].text);
+    out = splitSections(keep[i].id, keep[i].text).sections.map((sec) => {
+      const tf = new Map<string, number>();
+      for (const w of tokenize(withoutBoilerplate(lines.slice(sec.start, sec.end).join('\n'), bp))) tf.set(w, (tf.get(w) ?? 0) + 1);
+      const v = new Map<string, number>();
+      let norm = 0;
+      for (const [w, c] of tf) {
+        const x = (1 + Math.log(c)) * (Math.log((1 + n) / (1 + (tokDf.get(w) ?? 0))) + 1);
+        v.set(w, x);
+        norm += x * x;
+      }
+      norm = Math.sqrt(norm) || 1;
+      for (const [w, x] of v) v.set(w, x / norm);
+      return v;
+    });
+    sectionCache.set(i, out);
+    return out;
+  };
+  /**
+   * Sections matched one-to-one in order: pairs of sections that are each other's best match,
+   * the longest run of them in the same order in both files, over the smaller file's sections.
+   */
+  const sectionOrder = (a: number, b: number): number => {
+    const sa = sectionsOf(a);
+    const sb = sectionsOf(b);
+    if (sa.length === 0 || sb.length === 0) return 0;
+    const cos = (x: Map<string, number>, y: Map<string, number>) => {
+      let d = 0;
+      for (const [w, v] of x) d += v * (y.get(w) ?? 0);
+      return d;
+    };
+    const m = sa.map((x) => sb.map((y) => cos(x, y)));
+    const bestB = m.map((row) => row.indexOf(Math.max(...row)));
+    const bestA = sb.map((_, j) => {
+      let at = 0;
+      for (let i = 1; i < sa.length; i++) if (m[i][j] > m[at][j]) at = i;
+      return at;
+    });
+    const matched: number[] = [];
+    for (let i = 0; i < sa.length; i++) if (bestA[bestB[i]] === i && m[i][bestB[i]] > 0) matched.push(bestB[i]);
+    // Longest increasing run (patience sorting).
+    const tails: number[] = [];
+    for (const j of matched) {
+      let lo = 0;
+      let hi = tails.length;
+      while (lo < hi) {
+        const mid = (lo + hi) >> 1;
+        if (tails[mid] < j) lo = mid + 1;
+        else hi = mid;
+      }
+      tails[lo] = j;
+    }
+    return tails.length / Math.min(sa.length, sb.length);
+  };
   const nameSets = keep.map((f) => new Set(namesOf(f.text)));
   const nameDf = new Map<string, number>();
   for (const s of nameSets) for (const w of s) nameDf.set(w, (nameDf.get(w) ?? 0) + 1);
@@ -140,6 +208,7 @@ function analyse(folder: string, files: MaterialFile[], labels: Map<string, stri
       cslsB: cslsRank(b, a),
       jaccard: jac(a, b),
       ...Object.fromEntries(CONCEPT_KS.map((k, q) => [`beyondTopic${k}`, c - concepts[q].cosine(a, b)])),
+      sectionOrder: c >= 0.3 && rankIn(lists[a], b) === 0 && rankIn(lists[b], a) === 0 ? sectionOrder(a, b) : -1,
       words: Math.min(words[a], words[b]),
       wordsMax: Math.max(words[a], words[b]),
       dirA: keep[a].id.split('/').slice(0, -1).join('/'),
