@@ -178,8 +178,8 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       for (let r = 0; r < index.length && kept.length < 3; r++) {
         const d = index[r];
         if (d < 0) break;
-        if (estimate(t, d) >= o.partialThreshold) continue;
-        if (kept.some((e) => estimate(e, d) >= o.partialThreshold)) continue;
+        if (estimate(t, d) >= o.retoldCopyJaccard) continue;
+        if (kept.some((e) => estimate(e, d) >= o.retoldCopyJaccard)) continue;
         kept.push(d);
         cos.push(cosine[r]);
       }
@@ -229,7 +229,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       for (let r = 0; r < K; r++) {
         const d = nb.index[from * K + r];
         if (d < 0) break;
-        if (d === to || estimate(d, to) >= o.partialThreshold) continue;
+        if (d === to || estimate(d, to) >= o.retoldCopyJaccard) continue;
         if (bm25.cosine(from, d) > pair) return false;
       }
     }

@@ -17,6 +17,8 @@ export interface LookalikeOptions {
   readonly maxBucketSize: number;
   /** Exact Jaccard from which two files are partial copies (below `threshold`). @default 0.3 (issue 10's "substantial shared text"; our choice) */
   readonly partialThreshold: number;
+  /** "Same content, other words" only: a term-space neighbour sharing at least this (MinHash-estimated) Jaccard with a file, or with a nearer kept neighbour, is a copy and skipped (retold.ts step 2). @default 0.3 (the partial-copy start the retold rule's constants were chosen with; kept apart from partialThreshold so moving the band does not move the rule) */
+  readonly retoldCopyJaccard: number;
   /** Neighbours kept per file in the full term space (termSpace.ts). @default 10 (common practice) */
   readonly neighbours: number;
   /** Lines found in this many files or more are boilerplate, left out of the term space (retold.ts). @default 3 (our choice: a line in two files may be a copy, in three a template) */
@@ -72,6 +74,7 @@ export const DEFAULT_LOOKALIKE_OPTIONS: LookalikeOptions = Object.freeze({
   threshold: 0.8,
   maxBucketSize: 100,
   partialThreshold: 0.3,
+  retoldCopyJaccard: 0.3,
   neighbours: 10,
   boilerplateFiles: 3,
   retoldMinCosine: 0.5,
@@ -110,6 +113,7 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
   unitInterval('partialThreshold', o.partialThreshold);
   if (o.partialThreshold > o.threshold)
     throw new InvalidInputError(`partialThreshold (${o.partialThreshold}) must not exceed threshold (${o.threshold})`);
+  unitInterval('retoldCopyJaccard', o.retoldCopyJaccard);
   unitInterval('retoldMinCosine', o.retoldMinCosine);
   if (!(o.retoldMinGap >= 0 && o.retoldMinGap <= 1)) throw new InvalidInputError(`retoldMinGap must be in [0, 1], got ${o.retoldMinGap}`);
   positiveInteger('neighbours', o.neighbours);

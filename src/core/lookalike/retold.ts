@@ -7,7 +7,7 @@
  *    "report bugs to" lines a template stamps on every page) are left out, so template siblings
  *    are not drawn together by the template.
  * 2. Each file's nearest neighbours there, with copies collapsed: a neighbour sharing text with
- *    the file (shingle Jaccard ≥ partialThreshold) or with a nearer neighbour is skipped.
+ *    the file (shingle Jaccard ≥ retoldCopyJaccard, 0.3) or with a nearer neighbour is skipped.
  * 3. A pair passes when the two files are each other's nearest neighbour (mutual nearest
  *    neighbours; Jarvis & Patrick 1973), share little text (Jaccard < maxJaccard), have a
  *    cosine ≥ minCosine, and either
