@@ -16,8 +16,10 @@
  * - exact copies: all 20 planted found (target: all);
  * - near-copies: recall ≥ 0.95 of the planted pairs with reference J ≥ 0.8, 0 reported below it
  *   (target; measured 32/32, 0 false);
- * - partial copies: recall ≥ 0.9 of the planted pairs with 0.3 ≤ J < 0.8, 0 reported outside
- *   (measured 35/35, 0 outside);
+ * - partial copies: recall ≥ 0.9 of the planted pairs with 0.2 ≤ J < 0.8, 0 reported outside
+ *   (measured 35/35 when the band started at 0.3, 0 outside); every retelling of the key whose
+ *   reference J is 0.2 or more is listed as a partial or near-copy, so none falls between the
+ *   bands (measured: 7, envsubst, gettext's msg* tools and egrep, J 0.21–0.35);
  * - same content, other words: at most 3 pairs not in the key (target; measured 1,
  *   pthread_yield.3 ~ sched_yield.2, itself a natural retelling outside the key) and ahead of plain
  *   TF-IDF cosine at the same number of false pairs; recall floors 0.27 overall, 26/98 coreutils,
@@ -100,7 +102,7 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       j: referenceJaccard(text.get(a)!, text.get(b)!),
     }));
     const nearTruth = plantedEdited.filter((p) => p.j >= 0.8);
-    const partialTruth = plantedEdited.filter((p) => p.j >= 0.3 && p.j < 0.8);
+    const partialTruth = plantedEdited.filter((p) => p.j >= 0.2 && p.j < 0.8);
     const nearKeys = new Set(report.nearPairs.flatMap((p) => expanded(report, p.a, p.b)));
     const partialKeys = new Set(report.partialPairs.flatMap((p) => expanded(report, p.a, p.b)));
     const nearRecall = nearTruth.filter((p) => nearKeys.has(p.k)).length / nearTruth.length;
@@ -109,11 +111,18 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     const falseNear = report.nearPairs.filter((p) => referenceJaccard(text.get(p.a)!, text.get(p.b)!) < 0.8).length;
     const falsePartial = report.partialPairs.filter((p) => {
       const j = referenceJaccard(text.get(p.a)!, text.get(p.b)!);
-      return j < 0.3 || j >= 0.8;
+      return j < 0.2 || j >= 0.8;
     }).length;
 
     // Same content, other words.
     const truth = new Map(c.retellings.map(([a, b, s]) => [key(a, b), s]));
+    // Retellings sharing much text (J ≥ 0.2, where partial copies start) are listed as copies.
+    const copyKeys = new Set([...nearKeys, ...partialKeys, ...exact]);
+    const sharing = c.retellings.map(([a, b]) => key(a, b)).filter((k) => {
+      const [a, b] = k.split('|');
+      return referenceJaccard(text.get(a)!, text.get(b)!) >= 0.2;
+    });
+    const sharingListed = sharing.filter((k) => copyKeys.has(k)).length;
     const retold = report.retoldPairs.map((p) => ({ k: expanded(report, p.a, p.b).find((x) => truth.has(x)) ?? key(p.a, p.b), p }));
     const hits = retold.filter((r) => truth.has(r.k));
     const falseRetold = retold.length - hits.length;
@@ -158,7 +167,8 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
         `overlaps on ${c.files.length} Debian documentation files:`,
         `  exact copies: ${exactFound}/${c.planted.exact.length} planted found`,
         `  near-copies: recall ${nearRecall.toFixed(3)} of ${nearTruth.length} planted with J ≥ 0.8; ${report.nearPairs.length} reported, ${falseNear} below J 0.8`,
-        `  partial copies: recall ${partialRecall.toFixed(3)} of ${partialTruth.length} planted with 0.3 ≤ J < 0.8; ${report.partialPairs.length} reported, ${falsePartial} outside the band`,
+        `  partial copies: recall ${partialRecall.toFixed(3)} of ${partialTruth.length} planted with 0.2 ≤ J < 0.8; ${report.partialPairs.length} reported, ${falsePartial} outside the band`,
+        `  retellings with J ≥ 0.2 listed as copies: ${sharingListed}/${sharing.length}`,
         `  same content, other words: ${retold.length} reported, ${hits.length} retellings (coreutils ${bySource('coreutils')}, gnu-other ${bySource('gnu-other')}), recall ${recall.toFixed(3)}, ${falseRetold} not in the key`,
         `  baseline TF-IDF cosine, J < 0.3: ${baseSame} retellings before its ${falseRetold + 1}th false pair; ${base3} with ≤ 3 false, ${base5} with ≤ 5 false`,
         ...baselineFalse.map((x) => `    baseline's first false pairs: ${x}`),
@@ -178,6 +188,8 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(partialTruth.length).toBeGreaterThan(20);
     expect(partialRecall).toBeGreaterThanOrEqual(0.9);
     expect(falsePartial).toBe(0);
+    expect(sharing.length).toBeGreaterThan(0);
+    expect(sharingListed).toBe(sharing.length);
     // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 38 reported).
     expect(falseRetold).toBeLessThanOrEqual(3);
     expect(hits.length / Math.max(1, retold.length)).toBeGreaterThanOrEqual(0.85);
