@@ -27,7 +27,7 @@ export interface LookalikeOptions {
   readonly retoldMinCosine: number;
   /** Least margin of that cosine over each file's next neighbour (clause a; with retoldNamesDecide, only when a file holds no rare name). @default 0.35 (our choice; chosen leaving one source of test/fixtures/lookalike-retellings out, coreutils vs the other GNU manuals: first both folds chose 0.35; with names deciding, 0.35 and 0.4: see its README and bench/lookalikeNameClause.bench.ts) */
   readonly retoldMinGap: number;
-  /** "Other words": the pair's Jaccard must be below this; the partial-copy band starts here (partialThreshold). @default 0.2 (our choice; chosen with retoldMinGap, as above. Raising it to 0.3 would find 6 more retellings of test/fixtures/lookalike-retellings but add 5 false pairs: its README) */
+  /** "Other words": the pair's Jaccard must be below this; the partial-copy band starts here (partialThreshold). @default 0.2 (our choice; chosen with retoldMinGap, as above. Raising it to 0.3 adds 10 pairs on test/fixtures/lookalike-retellings, 5 retellings and 5 false, one of them a planted edited copy: bench/lookalikeBands.bench.ts) */
   readonly retoldMaxJaccard: number;
   /** Clause b of the rule (retold.ts, rareNames.ts): least margin over each file's next neighbour when the pair shares its rare names; 0 asks only that the two be mutual nearest neighbours. 1 turns the clause off. @default 0 (our choice; chosen with retoldNamesDecide and the other clause-b constants over a grid on test/fixtures/lookalike-retellings and the CMake reference test/fixtures/cmake-doc: bench/lookalikeNameClause.bench.ts, the fixture's README) */
   readonly retoldNameMinGap: number;
