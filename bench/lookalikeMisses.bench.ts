@@ -5,7 +5,7 @@
  * Per folder the finder's own term space is rebuilt (exact copies dropped, boilerplate lines out,
  * sublinear TF-IDF, 10 neighbours, copies collapsed by exact Jaccard ≥ 0.3 as findLookalikes does)
  * and every pair whose files are each in the other's first 3 collapsed neighbours (mutual top-3),
- * with J < 0.3 (below the partial-copy band) and the shorter file ≥ 50 words, is written as a candidate with:
+ * with J < 0.3 (retoldCopyJaccard: the partial band started there when this bench was made) and the shorter file ≥ 50 words, is written as a candidate with:
  * - its rank on each side (0 = nearest), cosine, margin over the better of the two files' best
  *   other neighbours (negative when a file has a nearer one);
  * - rare names (rareNames.ts): shared, share, held by each file, and the shared ones' document
@@ -164,7 +164,7 @@ function analyse(folder: string, files: MaterialFile[], labels: Map<string, stri
       if (d < 0) break;
       s += nb.cosine[i * K + q];
       m++;
-      if (jac(i, d) >= D.partialThreshold || kept.some((e) => jac(e.d, d) >= D.partialThreshold)) continue;
+      if (jac(i, d) >= D.retoldCopyJaccard || kept.some((e) => jac(e.d, d) >= D.retoldCopyJaccard)) continue;
       kept.push({ d, c: nb.cosine[i * K + q] });
     }
     r[i] = m > 0 ? s / m : 0;
@@ -221,7 +221,7 @@ function analyse(folder: string, files: MaterialFile[], labels: Map<string, stri
       if (b <= a) continue;
       const back = rankIn(lists[b], a);
       if (back < 0 || back >= TOP) continue;
-      if (jac(a, b) >= D.partialThreshold || Math.min(words[a], words[b]) < D.retoldMinWords) continue;
+      if (jac(a, b) >= D.retoldCopyJaccard || Math.min(words[a], words[b]) < D.retoldMinWords) continue;
       cands.push(features(a, b));
     }
   }
