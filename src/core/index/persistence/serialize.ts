@@ -14,6 +14,9 @@
  * the vocabulary is saved as UTF-8 bytes with term offsets (ids in byte order, looked up by
  * binary search; see termCounts.ts) and every aligned section becomes a view of the given bytes,
  * so the decoded index shares their memory: hand decodeIndex a buffer nobody else writes to.
+ * The section vectors come last in the payload, so a reader can keep them in the file:
+ * decodeIndexWithRows takes the bytes before them, checked by the caller while it streamed the
+ * rest, and gives each file's sections their rows in a SectionRowReader (../../sections/sectionRows.ts).
  */
 import { CorruptIndexError } from '../../errors.js';
 import { checksum32 } from './checksum.js';
@@ -32,6 +35,7 @@ import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import { Vocabulary } from '../../counting/termCounts.js';
 import { LANGUAGES } from '../../text/languages.js';
 import { withLanguage } from '../../text/detectLanguage.js';
+import { storedSections, type SectionRowReader } from '../../sections/sectionRows.js';
 
 /** 4: each file's sections (line ranges, titles, concept vectors) follow the file vectors. */
 export const INDEX_FORMAT_VERSION = 4;
@@ -317,6 +321,38 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     throw new CorruptIndexError(`index file is ${bytes.length} bytes, expected ${start + header.payloadBytes} (truncated or padded)`);
   const payload = bytes.subarray(start);
   if (checksum32(payload) !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+  return decodeChecked(header, payload, undefined);
+}
+
+/** The section vectors' entry of a checked header: where their rows start in the file, and how many. */
+export function sectionRowsOf(
+  header: CheckedHeader,
+  fileStart: number,
+): { readonly at: number; readonly rows: number; readonly k: number } {
+  const e = header.sections.find((s) => s.name === 'sectionVectors')!;
+  const k = header.model.k;
+  return { at: fileStart + e.offset, rows: k > 0 ? e.length / k : 0, k };
+}
+
+/**
+ * Decodes a file whose section vectors stay where they are: `head` is the file up to their first
+ * row (sectionRowsOf), `rows` reads them. The caller has checked what decodeIndex checks over the
+ * whole file while reading it (header, length, payload checksum, and the rows' unit length with
+ * checkSectionRows); this checks the rest of the payload's structure.
+ * @throws CorruptIndexError
+ */
+export function decodeIndexWithRows(head: Uint8Array, rows: SectionRowReader): LsiIndex {
+  const header = readIndexHeader(head);
+  const start = headerExtent(head);
+  const { at, rows: count, k } = sectionRowsOf(header, start);
+  if (head.length !== at) throw new CorruptIndexError(`index head is ${head.length} bytes, expected ${at} (a reader bug)`);
+  if (rows.rows !== count || rows.k !== k)
+    throw new CorruptIndexError(`the section rows reader holds ${rows.rows} rows, expected ${count}`);
+  return decodeChecked(header, head.subarray(start), rows);
+}
+
+/** decodeIndex after the checksum: every section a view of payload, or the section rows in `rows`. */
+function decodeChecked(header: CheckedHeader, payload: Uint8Array, rows: SectionRowReader | undefined): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
   const get = <K extends ArrayKind>(name: string, kind: K): InstanceType<(typeof CTORS)[K]> => {
@@ -364,7 +400,7 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     sectionIndptr: get('sectionIndptr', 'i32'),
     sectionLines: get('sectionLines', 'i32'),
     sectionTitles: splitText(get('sectionTitles', 'u8')),
-    sectionVectors: get('sectionVectors', 'f32'),
+    sectionVectors: rows ? undefined : get('sectionVectors', 'f32'),
   };
   checkPayload(parts);
   const { size, mtime, length, folded, residual, indptr, ids, counts, keptIds, weights, termVectors, singularValues, axisScale, vectors } =
@@ -381,12 +417,12 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   }));
   const index = LsiIndex.assemble(header.settings, vocab, model, slots, vectors);
   index.restoreCounters(header.counters);
-  restoreSections(index, parts);
+  restoreSections(index, parts, rows);
   return index;
 }
 
-/** Gives each file its saved sections (views of the payload). */
-function restoreSections(index: LsiIndex, p: PayloadParts): void {
+/** Gives each file its saved sections (views of the payload, or rows left in `rows`). */
+function restoreSections(index: LsiIndex, p: PayloadParts, rows: SectionRowReader | undefined): void {
   const { sectionIndptr: ip, sectionLines: lines, sectionTitles: titles, sectionVectors: vectors, k } = p;
   p.paths.forEach((path, j) => {
     const a = ip[j];
@@ -395,6 +431,12 @@ function restoreSections(index: LsiIndex, p: PayloadParts): void {
     const starts = new Int32Array(b - a);
     const ends = new Int32Array(b - a);
     for (let i = a; i < b; i++) [starts[i - a], ends[i - a]] = [lines[2 * i], lines[2 * i + 1]];
-    index.sections.set(path, { starts, ends, titles: titles.slice(a, b), vectors: vectors.subarray(a * k, b * k) });
+    const own = titles.slice(a, b);
+    index.sections.set(
+      path,
+      rows
+        ? storedSections(starts, ends, own, { reader: rows, first: a })
+        : { starts, ends, titles: own, vectors: vectors!.subarray(a * k, b * k) },
+    );
   });
 }
