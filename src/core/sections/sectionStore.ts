@@ -157,10 +157,12 @@ export class SectionStore {
   /** The section of a file holding a zero-based line (the last one that starts at or before it), or null. */
   at(path: string, line: number): { index: number; vector: Float32Array } | null {
     const f = this._files.get(path);
-    if (!f || f.starts.length === 0) return null;
+    if (!f) return null;
+    const [starts, ends] = [f.starts, f.ends]; // once: a reopened file's are made on each access
+    if (starts.length === 0) return null;
     let best = 0;
-    for (let i = 0; i < f.starts.length; i++) if (f.starts[i] <= line && line < f.ends[i]) best = i;
-    if (line >= f.ends[f.starts.length - 1]) best = f.starts.length - 1;
+    for (let i = 0; i < starts.length; i++) if (starts[i] <= line && line < ends[i]) best = i;
+    if (line >= ends[starts.length - 1]) best = starts.length - 1;
     const { block, at } = this._scratch.rows(f, best, 1);
     return { index: best, vector: block.slice(at, at + this.k) };
   }
@@ -388,7 +390,8 @@ export class SectionStore {
   }
 
   private hit(path: string, f: FileSections, i: number, score: number): SectionHit {
-    return { path, index: i, start: f.starts[i], end: f.ends[i], title: f.titles[i], score };
+    const [starts, ends, titles] = [f.starts, f.ends, f.titles];
+    return { path, index: i, start: starts[i], end: ends[i], title: titles[i], score };
   }
 }
 

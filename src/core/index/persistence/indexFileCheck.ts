@@ -260,7 +260,8 @@ export interface PayloadParts {
   readonly k: number;
   readonly sectionIndptr: Int32Array;
   readonly sectionLines: Int32Array;
-  readonly sectionTitles: readonly string[];
+  /** The titles, or where each starts in their bytes (one offset more than titles). */
+  readonly sectionTitles: readonly string[] | Int32Array;
   /** Absent when the rows stay in the file: checked while they were streamed (checkSectionRows). */
   readonly sectionVectors?: Float32Array;
 }
@@ -328,7 +329,8 @@ function checkSections(p: PayloadParts): void {
   const ip = p.sectionIndptr;
   if (ip[0] !== 0 || ip[n] !== count) bad('sectionIndptr does not span the sections');
   for (let j = 0; j < n; j++) if (!(ip[j + 1] >= ip[j])) bad('sectionIndptr goes backwards');
-  if (p.sectionTitles.length !== count) bad('there are not as many section titles as sections');
+  const titles = p.sectionTitles instanceof Int32Array ? p.sectionTitles.length - 1 : p.sectionTitles.length;
+  if (titles !== count) bad('there are not as many section titles as sections');
   for (let i = 0; i < count; i++) {
     const start = p.sectionLines[2 * i];
     const end = p.sectionLines[2 * i + 1];

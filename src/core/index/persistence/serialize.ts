@@ -35,7 +35,7 @@ import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import { Vocabulary } from '../../counting/termCounts.js';
 import { LANGUAGES } from '../../text/languages.js';
 import { withLanguage } from '../../text/detectLanguage.js';
-import { storedSections, type SectionRowReader } from '../../sections/sectionRows.js';
+import { StoredFileSections, type SectionRowReader } from '../../sections/sectionRows.js';
 
 /** 4: each file's sections (line ranges, titles, concept vectors) follow the file vectors. */
 export const INDEX_FORMAT_VERSION = 4;
@@ -226,10 +226,11 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
   const total = indptr[live.length];
   const titles = files.flatMap((f) => (f ? f.titles.map((t) => t.replace(/\0/g, ' ') || '…') : []));
   const lines = (f: NonNullable<(typeof files)[number]>): Int32Array => {
-    const out = new Int32Array(2 * f.starts.length);
-    for (let i = 0; i < f.starts.length; i++) {
-      out[2 * i] = f.starts[i];
-      out[2 * i + 1] = f.ends[i];
+    const [starts, ends] = [f.starts, f.ends]; // once: a reopened file's are made on each access
+    const out = new Int32Array(2 * starts.length);
+    for (let i = 0; i < starts.length; i++) {
+      out[2 * i] = starts[i];
+      out[2 * i + 1] = ends[i];
     }
     return out;
   };
@@ -399,7 +400,7 @@ function decodeChecked(header: CheckedHeader, payload: Uint8Array, rows: Section
     k,
     sectionIndptr: get('sectionIndptr', 'i32'),
     sectionLines: get('sectionLines', 'i32'),
-    sectionTitles: splitText(get('sectionTitles', 'u8')),
+    sectionTitles: rows ? titleStarts(get('sectionTitles', 'u8')) : splitText(get('sectionTitles', 'u8')),
     sectionVectors: rows ? undefined : get('sectionVectors', 'f32'),
   };
   checkPayload(parts);
@@ -417,13 +418,40 @@ function decodeChecked(header: CheckedHeader, payload: Uint8Array, rows: Section
   }));
   const index = LsiIndex.assemble(header.settings, vocab, model, slots, vectors);
   index.restoreCounters(header.counters);
-  restoreSections(index, parts, rows);
+  const titles = parts.sectionTitles;
+  if (titles instanceof Int32Array) {
+    const table = { lines: parts.sectionLines, titleBytes: get('sectionTitles', 'u8'), titleStarts: titles, rows: rows! };
+    parts.paths.forEach((path, j) => {
+      const [a, b] = [parts.sectionIndptr[j], parts.sectionIndptr[j + 1]];
+      if (b > a) index.sections.set(path, new StoredFileSections(table, a, b - a));
+    });
+  } else restoreSections(index, parts, titles);
   return index;
 }
 
-/** Gives each file its saved sections (views of the payload, or rows left in `rows`). */
-function restoreSections(index: LsiIndex, p: PayloadParts, rows: SectionRowReader | undefined): void {
-  const { sectionIndptr: ip, sectionLines: lines, sectionTitles: titles, sectionVectors: vectors, k } = p;
+/**
+ * Where each saved title starts in the titles' bytes (titles joined by NUL, which UTF-8 uses for
+ * nothing else), with one offset past the end; the bytes are checked to be UTF-8 here.
+ * @throws CorruptIndexError
+ */
+function titleStarts(bytes: Uint8Array): Int32Array {
+  try {
+    decoder.decode(bytes);
+  } catch {
+    throw new CorruptIndexError('index file section titles are not valid UTF-8');
+  }
+  if (bytes.length === 0) return new Int32Array(1);
+  let count = 1;
+  for (let i = 0; i < bytes.length; i++) if (bytes[i] === 0) count++;
+  const out = new Int32Array(count + 1);
+  for (let i = 0, t = 1; i < bytes.length; i++) if (bytes[i] === 0) out[t++] = i + 1;
+  out[count] = bytes.length + 1;
+  return out;
+}
+
+/** Gives each file its saved sections (views of the payload). */
+function restoreSections(index: LsiIndex, p: PayloadParts, titles: readonly string[]): void {
+  const { sectionIndptr: ip, sectionLines: lines, sectionVectors: vectors, k } = p;
   p.paths.forEach((path, j) => {
     const a = ip[j];
     const b = ip[j + 1];
@@ -431,12 +459,6 @@ function restoreSections(index: LsiIndex, p: PayloadParts, rows: SectionRowReade
     const starts = new Int32Array(b - a);
     const ends = new Int32Array(b - a);
     for (let i = a; i < b; i++) [starts[i - a], ends[i - a]] = [lines[2 * i], lines[2 * i + 1]];
-    const own = titles.slice(a, b);
-    index.sections.set(
-      path,
-      rows
-        ? storedSections(starts, ends, own, { reader: rows, first: a })
-        : { starts, ends, titles: own, vectors: vectors!.subarray(a * k, b * k) },
-    );
+    index.sections.set(path, { starts, ends, titles: titles.slice(a, b), vectors: vectors!.subarray(a * k, b * k) });
   });
 }
