@@ -135,6 +135,14 @@ export class StoredFileSections implements FileSections {
     return Array.from({ length: this.n }, (_, i) => utf8.decode(titleBytes.subarray(titleStarts[a + i], titleStarts[a + i + 1] - 1)));
   }
 
+  /** Section i's lines and title alone (what a hit shows), without making the file's arrays. */
+  section(i: number): { start: number; end: number; title: string } {
+    if (!(i >= 0 && i < this.n)) throw new InvalidInputError(`section ${i} of ${this.n}`);
+    const { lines, titleBytes, titleStarts } = this.table;
+    const j = this.stored.first + i;
+    return { start: lines[2 * j], end: lines[2 * j + 1], title: utf8.decode(titleBytes.subarray(titleStarts[j], titleStarts[j + 1] - 1)) };
+  }
+
   get vectors(): Float32Array {
     const out = new Float32Array(this.n * this.table.rows.k);
     this.table.rows.read(this.stored.first, this.n, out, 0);

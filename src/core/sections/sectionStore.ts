@@ -22,7 +22,7 @@ import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
 import { insertDescending, ListedSections } from './listedSections.js';
 import { SectionLists, type SectionListsOptions } from './sectionLists.js';
-import { RowScratch, type SectionRowReader } from './sectionRows.js';
+import { RowScratch, StoredFileSections, type SectionRowReader } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
 
 /** A section found by a search or a nearby question. */
@@ -390,8 +390,8 @@ export class SectionStore {
   }
 
   private hit(path: string, f: FileSections, i: number, score: number): SectionHit {
-    const [starts, ends, titles] = [f.starts, f.ends, f.titles];
-    return { path, index: i, start: starts[i], end: ends[i], title: titles[i], score };
+    if (f instanceof StoredFileSections) return { path, index: i, ...f.section(i), score };
+    return { path, index: i, start: f.starts[i], end: f.ends[i], title: f.titles[i], score };
   }
 }
 
