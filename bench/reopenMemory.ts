@@ -31,6 +31,7 @@ const reading = (label: string): void => {
 };
 reading('bare process');
 const t0 = performance.now();
+const cpu0 = process.cpuUsage();
 const got = await loadIndex(file, { sectionRows: process.argv.includes('--memory') ? 'memory' : 'file' });
 if (got.status !== 'ok') {
   console.error(`cannot load ${file}: ${got.status}`);
@@ -38,7 +39,8 @@ if (got.status !== 'ok') {
 }
 const index = got.index;
 const loadMs = performance.now() - t0;
-reading(`loaded (${(loadMs / 1000).toFixed(2)} s)`);
+const cpu = process.cpuUsage(cpu0);
+reading(`loaded (${(loadMs / 1000).toFixed(2)} s, CPU ${((cpu.user + cpu.system) / 1e6).toFixed(2)} s)`);
 await index.prepare();
 reading('prepared (as the worker does)');
 const query = 'memory allocation and power management';
