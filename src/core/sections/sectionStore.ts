@@ -380,7 +380,9 @@ export class SectionStore {
       firsts[files.length] = n;
       paths.push(path);
       files.push(f);
-      rows.set(f.vectors, n * this.k);
+      // Stored rows straight into place (no array a file).
+      if (f.stored) f.stored.reader.read(f.stored.first, f.starts.length, rows, n * this.k);
+      else rows.set(f.vectors, n * this.k);
       n += f.starts.length;
     }
     firsts[files.length] = n;
