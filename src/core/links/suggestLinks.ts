@@ -52,7 +52,7 @@ export const LINKS_WORD_MATCH_DELTA = 0;
 
 /**
  * The word match's TF-IDF share (LsiIndex.nearby, wordMatchTfidf): 0, BM25 alone, as the threshold
- * above was calibrated; Nearby's default 0.1 came later (README, "Ranking checks", fourth round).
+ * above was calibrated; Nearby's opt-in 0.1 came later (README, "Ranking checks", fourth round).
  */
 export const LINKS_WORD_MATCH_TFIDF = 0;
 

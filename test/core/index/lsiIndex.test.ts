@@ -280,6 +280,8 @@ describe('LsiIndex ranking against the plain formula', () => {
     const b = new IndexBuilder();
     for (const d of cran.docs.slice(0, 500)) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = b.build();
+    // The opt-in TF-IDF share of Nearby's word match (off by default), so both of its paths are checked.
+    index.ranking = { ...index.ranking, nearbyTfidfShare: 0.1 };
     const compare = (): void => {
       for (const q of cran.queries.slice(0, 15)) {
         const got = index.search(q.text, { top: 15 });
@@ -327,6 +329,8 @@ describe('LsiIndex.prepare', () => {
     const saved = encodeIndex(b.build());
     const [prepared, lazy] = [decodeIndex(saved), decodeIndex(saved)];
     const both = (f: (x: LsiIndex) => void): void => [prepared, lazy].forEach(f);
+    // With the opt-in TF-IDF share in Nearby, so prepare() builds its norms in slices too.
+    both((x) => (x.ranking = { ...x.ranking, nearbyTfidfShare: 0.1 }));
     let q = 0;
     const compare = (count: number): void => {
       for (let i = 0; i < count; i++, q++) {
@@ -347,8 +351,10 @@ describe('LsiIndex.prepare', () => {
     }
     expect(slices).toBeGreaterThan(30); // 600 documents in 32-document chunks: the edits landed mid-way
     expect(await prepared.prepare()).toBe(true);
+    expect(prepared.tfidfPrepared).toBe(true);
     compare(15);
     both((x) => x.foldIn({ path: cran.docs[5].id, size: 1, mtimeMs: 1 }, cran.docs[902].text));
+    expect(prepared.tfidfPrepared).toBe(false); // every norm depends on every idf: built again
     both((x) => x.foldIn({ path: 'new/b', size: 1, mtimeMs: 1 }, `${cran.docs[903].text} quuxified`));
     both((x) => x.remove('new/a'));
     compare(15);

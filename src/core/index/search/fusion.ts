@@ -108,8 +108,9 @@ export interface RankingOptions {
    * (tfidfCosine.ts; Salton & Buckley 1988's ltc weights, scikit-learn's TfidfVectorizer form),
    * divided by the best other page's: lexical = (1 − ν)·BM25L/max + ν·TFIDF/max. Chosen by every
    * leave-one-manual-out fold among twelve configurations (ν 0.1 / 0.25 / 0.5, pivoted, taken from
-   * the concept part, or over the page's top terms; README, "Ranking checks", fourth round); the
-   * link suggestions keep 0 (suggestLinks.ts). @default 0.1
+   * the concept part, or over the page's top terms; README, "Ranking checks", fourth round), but
+   * off by default: it reads the postings of every word of the page, which on the whole kernel
+   * tree took Nearby of a file from a median of 12 ms to 52–60 ms (p95 135–168 ms). @default 0
    */
   nearbyTfidfShare: number;
 }
@@ -131,7 +132,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   tfidfShare: 0,
   tfidfSlope: 1,
   tfidfFromConcept: false,
-  nearbyTfidfShare: 0.1,
+  nearbyTfidfShare: 0,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
