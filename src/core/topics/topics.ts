@@ -86,6 +86,12 @@ export interface TopicsOptions {
   restarts?: number;
   /** Refine each first-level k-means restart by first-variation moves before the restarts are compared (firstVariation.ts; see the header). @default true */
   refine: boolean;
+  /**
+   * The first level (its count and its k-means) is formed on the concept vectors with axis c scaled
+   * by σ_c^axisExponent and re-normalised; deeper levels, centres and loose files stay in the
+   * index's own space. 0 leaves the space as it is. @default 0 (see the header)
+   */
+  axisExponent: number;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
   /** @default DEFAULT_SEED */
@@ -106,6 +112,7 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   filesPerTopic: 5,
   curMethod: 'deim',
   refine: true,
+  axisExponent: 0,
   fitSample: 2000,
   countDraws: 1,
   seed: DEFAULT_SEED,
@@ -217,13 +224,15 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
   placed.forEach((row, i) => {
     for (let c = 0; c < dims; c++) points[i * dims + c] = all[im.slots[row] * dims + c];
   });
+  const space = o.axisExponent === 0 ? points : scaledAxes(points, n, dims, index.model.singularValues, o.axisExponent);
   const choice: TopicCountChoice =
     o.topics !== undefined
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
-      : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
+      : chooseTopicCount(space, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
   yield;
-  const clustering = clusterPoints(points, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts, o.refine);
+  const clustering = clusterPoints(space, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts, o.refine);
   const K = clustering.clusters;
+  const centres = space === points ? clustering.centres : centresIn(points, n, dims, clustering.assignment, K);
   yield;
 
   const rank = Math.max(1, Math.min(o.curRank ?? Math.min(20, Math.max(10, K)), im.matrix.rows, im.matrix.cols));
@@ -248,7 +257,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
   const loose: LooseFile[] = [];
   for (let i = 0; i < n; i++) {
     const t = clustering.assignment[i];
-    const own = dotRow(points, i, clustering.centres, t, dims);
+    const own = dotRow(points, i, centres, t, dims);
     const whole = dotRow(points, i, overall, 0, dims);
     if (o.setApartLoose && K > 1 && own <= whole)
       loose.push({ path: im.paths[placed[i]], nearest: String(t), similarity: own, overall: whole });
@@ -431,6 +440,32 @@ function centreOf(points: Float64Array, idx: Int32Array, dims: number): Float64A
   const inv = ss > 0 ? 1 / Math.sqrt(ss) : 0;
   for (let d = 0; d < dims; d++) c[d] *= inv;
   return c;
+}
+
+/** Each cluster's normalised centre in the given space. */
+function centresIn(points: Float64Array, n: number, dims: number, assignment: Int32Array, k: number): Float64Array {
+  const out = new Float64Array(k * dims);
+  const members: number[][] = Array.from({ length: k }, () => []);
+  for (let i = 0; i < n; i++) members[assignment[i]].push(i);
+  members.forEach((m, t) => out.set(centreOf(points, Int32Array.from(m), dims), t * dims));
+  return out;
+}
+
+/** Rows with axis c scaled by sigma[c]^exponent, each row re-normalised (a zero row stays zero). */
+export function scaledAxes(points: Float64Array, n: number, dims: number, sigma: ArrayLike<number>, exponent: number): Float64Array {
+  const scale = Float64Array.from({ length: dims }, (_, c) => (sigma[c] > 0 ? Math.pow(sigma[c], exponent) : 0));
+  const out = new Float64Array(n * dims);
+  for (let i = 0; i < n; i++) {
+    let ss = 0;
+    for (let c = 0; c < dims; c++) {
+      const v = points[i * dims + c] * scale[c];
+      out[i * dims + c] = v;
+      ss += v * v;
+    }
+    const inv = ss > 0 ? 1 / Math.sqrt(ss) : 0;
+    for (let c = 0; c < dims; c++) out[i * dims + c] *= inv;
+  }
+  return out;
 }
 
 function dotRow(a: Float64Array, i: number, b: Float64Array, j: number, dims: number): number {
