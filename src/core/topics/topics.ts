@@ -87,9 +87,9 @@ export interface TopicsOptions {
   /** Refine each first-level k-means restart by first-variation moves before the restarts are compared (firstVariation.ts; see the header). @default true */
   refine: boolean;
   /**
-   * The first level (its count and its k-means) is formed on the concept vectors with axis c scaled
-   * by σ_c^axisExponent and re-normalised; deeper levels, centres and loose files stay in the
-   * index's own space. 0 leaves the space as it is. @default 0 (see the header)
+   * The first level's k-means runs on the concept vectors with axis c scaled by σ_c^axisExponent
+   * and re-normalised; the count, deeper levels, centres and loose files stay in the index's own
+   * space. 0 leaves the space as it is. @default 0 (see the header)
    */
   axisExponent: number;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
@@ -228,7 +228,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
   const choice: TopicCountChoice =
     o.topics !== undefined
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
-      : chooseTopicCount(space, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
+      : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
   yield;
   const clustering = clusterPoints(space, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts, o.refine);
   const K = clustering.clusters;

@@ -1,7 +1,7 @@
 /**
- * The topic tree against outside references, on two public documentation trees whose folders are
- * human-made categories (test/fixtures/topic-trees: CMake's and Django's manuals from Debian,
- * see its README):
+ * The topic tree against outside references, on three public documentation trees whose folders are
+ * human-made categories (test/fixtures/topic-trees: CMake's, Django's and Erlang/OTP's manuals
+ * from Debian, see its README):
  *  - Names: NPMI coherence (Röder, Both & Hinneburg 2015, C_NPMI over whole files; coherence.ts)
  *    of each topic's top 10 terms, against scikit-learn's NMF on TF-IDF with as many components as
  *    there are topics at that level (top 10 terms per component), at the first two levels. Two
@@ -189,7 +189,7 @@ describe('topic tree against scikit-learn on documentation trees', () => {
     // A reference check that cannot run is a failure, not a skip.
     expect(sklearnReady, `scikit-learn is missing (${PYTHON}): apt-get install python3-sklearn`).toBe(true);
   });
-  for (const name of ['cmake', 'django']) {
+  for (const name of ['cmake', 'django', 'erlang']) {
     it.skipIf(!sklearnReady)(
       `${name}: names at least as coherent as NMF's (on all files and held out) and topics at least as close to the folders as k-means' (mean over seeds) at the first two levels, one measured gap held as a floor`,
       { timeout: 900_000 },
