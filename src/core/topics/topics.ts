@@ -92,6 +92,10 @@ export interface TopicsOptions {
    * space. 0 leaves the space as it is. @default 0 (see the header)
    */
   axisExponent: number;
+  /** k-means restarts of a split (the count of a split is still chosen with one restart). @default 2 (see splitGroup) */
+  splitRestarts: number;
+  /** Refine each split's restarts by first-variation moves, as the first level's (firstVariation.ts). @default false */
+  splitRefine: boolean;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
   /** @default DEFAULT_SEED */
@@ -113,6 +117,8 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   curMethod: 'deim',
   refine: true,
   axisExponent: 0,
+  splitRestarts: 2,
+  splitRefine: false,
   fitSample: 2000,
   countDraws: 1,
   seed: DEFAULT_SEED,
@@ -390,11 +396,11 @@ export function topicsAtLevel(topics: readonly Topic[], level: number): Topic[] 
  * Sub-topics of one group (indices into points). A split is decided hundreds of times over a big
  * tree, so it is kept cheap (our choice, from the bench: bench/topicTree.bench.ts): the count by
  * silhouette on a SPLIT_SAMPLE-point sample, one restart and SPLIT_PASSES Lloyd passes per
- * candidate; then k-means on the whole group with SPLIT_RESTARTS restarts of SPLIT_PASSES passes.
+ * candidate; then k-means on the whole group with splitRestarts restarts (default 2) of
+ * SPLIT_PASSES passes.
  */
 const SPLIT_SAMPLE = 150;
 const SPLIT_PASSES = 15;
-const SPLIT_RESTARTS = 2;
 
 function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: TopicsOptions, seed: number): number[][] {
   const m = idx.length;
@@ -409,8 +415,14 @@ function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: Topi
   });
   if (choice.topics < 2) return [];
   let c: Clustering;
-  if (m <= o.fitSample) c = sphericalKMeans(sub, m, dims, choice.topics, { seed, restarts: SPLIT_RESTARTS, maxIterations: SPLIT_PASSES });
-  else c = clusterPoints(sub, m, dims, choice.topics, o.fitSample, seed, SPLIT_RESTARTS);
+  if (m <= o.fitSample)
+    c = sphericalKMeans(sub, m, dims, choice.topics, {
+      seed,
+      restarts: o.splitRestarts,
+      maxIterations: SPLIT_PASSES,
+      refineSweeps: o.splitRefine ? FIRST_LEVEL_SWEEPS : 0,
+    });
+  else c = clusterPoints(sub, m, dims, choice.topics, o.fitSample, seed, o.splitRestarts, o.splitRefine);
   const out: number[][] = Array.from({ length: c.clusters }, () => []);
   for (let j = 0; j < m; j++) out[c.assignment[j]].push(idx[j]);
   return out.filter((g) => g.length > 0).length > 1 ? out : [];
