@@ -7,6 +7,7 @@
  * one pair is shown as that pair. Pair labels name the files by the shortest path endings that
  * tell them apart ("shared/dates.ts ↔ vendor/dates.ts").
  */
+import { DEFAULT_LOOKALIKE_OPTIONS } from '../core/lookalike/options.js';
 import { BAND_TITLES } from '../core/lookalike/types.js';
 import { describeShared } from '../core/lookalike/sharedUnits.js';
 import type { LookalikeGroupWire, LookalikeKind, LookalikePairWire, LookalikesResult } from '../node/worker/insightProtocol.js';
@@ -18,6 +19,9 @@ export interface LookalikeSettings {
   readonly threshold: number;
 }
 
+/** Where partial copies start and "other words" ends (core/lookalike/options.ts: partialThreshold, retoldMaxJaccard). */
+const PARTIAL_FROM = DEFAULT_LOOKALIKE_OPTIONS.partialThreshold;
+
 /** Defaults, identical to the manifest's and to the core's (core/lookalike/options.ts). */
 export const DEFAULT_LOOKALIKE_SETTINGS: LookalikeSettings = Object.freeze({ threshold: 0.8 });
 
@@ -26,8 +30,8 @@ export const SECTION_PAGE = 25;
 
 export function readLookalikeSettings(get: SettingGetter): LookalikeSettings {
   const v = get('lookalikeThreshold');
-  // Below the partial-copy start (0.3) the bands would overlap: fall back to the default.
-  return { threshold: typeof v === 'number' && v >= 0.3 && v <= 1 ? v : DEFAULT_LOOKALIKE_SETTINGS.threshold };
+  // Below the partial-copy start (0.2) the bands would overlap: fall back to the default.
+  return { threshold: typeof v === 'number' && v >= PARTIAL_FROM && v <= 1 ? v : DEFAULT_LOOKALIKE_SETTINGS.threshold };
 }
 
 export interface PairNode {
@@ -188,9 +192,8 @@ export function lookalikeTree(
 const SECTION_HELP: Readonly<Record<LookalikeKind, string>> = {
   exact: 'Files with identical text. Longest text first; one-line stubs come last. Links to one file are the same file and are not listed.',
   near: 'Files that share most of their text (shingle Jaccard at or above the near-copy threshold). Highest first.',
-  partial: 'Files that share a substantial part of their text (shingle Jaccard 0.3 up to the near-copy threshold). Highest first.',
-  retold:
-    "Files that tell the same thing in other words: each is the other's nearest file by the words they use (after lines repeated across many files are set aside), they share little text, and they either name the same rare options or identifiers or, when one names none, stand far above every other file. Strongest first.",
+  partial: `Files that share a part of their text: a kept part, copied passages or a common template (shingle Jaccard ${PARTIAL_FROM} up to the near-copy threshold). Highest first.`,
+  retold: `Files that tell the same thing in other words: each is the other's nearest file by the words they use (after lines repeated across many files are set aside), they share little text (shingle Jaccard under ${DEFAULT_LOOKALIKE_OPTIONS.retoldMaxJaccard}), and they either name the same rare options or identifiers or, when one names none, stand far above every other file. Strongest first.`,
 };
 
 /** The view's message line: what was searched, and why it may be empty. */

@@ -47,7 +47,7 @@ const result = (groups: LookalikeGroupWire[]): LookalikesResult => ({
   skippedShort: 0,
   unreadable: 0,
   threshold: 0.8,
-  partialThreshold: 0.3,
+  partialThreshold: 0.2,
   ms: 1,
 });
 
@@ -67,10 +67,11 @@ describe('look-alike settings', () => {
     expect(readLookalikeSettings(() => undefined)).toEqual(DEFAULT_LOOKALIKE_SETTINGS);
   });
 
-  it('keeps values in [0.3, 1] (partial copies start at 0.3) and falls back to the default otherwise', () => {
+  it('keeps values in [0.2, 1] (partial copies start at 0.2) and falls back to the default otherwise', () => {
     const values: Record<string, unknown> = { lookalikeThreshold: 0.6 };
     expect(readLookalikeSettings((k) => values[k])).toEqual({ threshold: 0.6 });
-    expect(readLookalikeSettings(() => 0.2).threshold).toBe(0.8);
+    expect(readLookalikeSettings(() => 0.2).threshold).toBe(0.2);
+    expect(readLookalikeSettings(() => 0.15).threshold).toBe(0.8);
     expect(readLookalikeSettings(() => 0).threshold).toBe(0.8);
     expect(readLookalikeSettings(() => '0.7').threshold).toBe(0.8);
   });
@@ -153,7 +154,7 @@ describe('overlaps tree', () => {
     const tree = lookalikeTree(empty, new Set());
     expect(tree.sections).toEqual([]);
     expect(lookalikeSummary(empty, tree)).toBe(
-      'No overlaps among 116 files (near-copies from Jaccard 0.8, partial copies from 0.3). 2 paths are links to a file already listed (the same file, not a copy): left out.',
+      'No overlaps among 116 files (near-copies from Jaccard 0.8, partial copies from 0.2). 2 paths are links to a file already listed (the same file, not a copy): left out.',
     );
   });
 });

@@ -14,7 +14,7 @@ import { gunzipSync } from 'node:zlib';
 import { createRandom } from '../../src/core/random.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { LinkGraph } from '../../src/core/links/linkGraph.js';
-import { LINKS_WORD_MATCH_DELTA, spaceShare } from '../../src/core/links/suggestLinks.js';
+import { LINKS_WORD_MATCH_DELTA, LINKS_WORD_MATCH_TFIDF, spaceShare } from '../../src/core/links/suggestLinks.js';
 
 export interface Ranked {
   readonly path: string;
@@ -118,14 +118,14 @@ export function bestThreshold(cands: readonly Candidate[], hiddenCount: number, 
 
 /**
  * Undertone's Nearby ranking (concept cosine blended with BM25) as the link suggestions use it (their
- * word match's δ, LINKS_WORD_MATCH_DELTA), each hit carrying the score the suggestions' threshold
+ * word match's δ, LINKS_WORD_MATCH_DELTA, and TF-IDF share, LINKS_WORD_MATCH_TFIDF), each hit carrying the score the suggestions' threshold
  * applies to: the discounted concept cosine (suggestLinks.ts says why).
  */
 export function nearbyRanker(index: LsiIndex): Ranker {
   const share = new Map(index.paths().map((p) => [p, spaceShare(index, p)]));
   return (key, accept, top) =>
     index
-      .nearby(key, { top, filter: accept, wordMatchDelta: LINKS_WORD_MATCH_DELTA })
+      .nearby(key, { top, filter: accept, wordMatchDelta: LINKS_WORD_MATCH_DELTA, wordMatchTfidf: LINKS_WORD_MATCH_TFIDF })
       .map((h) => ({ path: h.path, score: h.conceptScore * share.get(key)! * share.get(h.path)! }));
 }
 

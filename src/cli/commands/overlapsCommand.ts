@@ -1,6 +1,6 @@
 /**
  * `undertone overlaps <folder>` (old name `lookalikes`): overlaps among the indexed files in four bands (core/lookalike):
- * "Exact copies", "Near-copies" (shingle Jaccard ≥ --threshold), "Partial copies" (Jaccard ≥ 0.3)
+ * "Exact copies", "Near-copies" (shingle Jaccard ≥ --threshold), "Partial copies" (Jaccard ≥ 0.2)
  * and "Same content, other words". Shingles and terms need the text, so every indexed file is read
  * again here. Paths that resolve to one real file (symbolic links) are one file, listed once.
  * The table shows --top pairs per band (default 20), strongest first; --json gives them all.
@@ -89,11 +89,18 @@ function toJson(r: LookalikeReport, threshold: number, extra: Extra): unknown {
     words: p.words,
     ...(p.cosine === undefined
       ? {}
-      : { cosine: round(p.cosine), margin: round(p.gap ?? 0), names: p.sharedNames ?? 0, ...(p.clause ? { clause: p.clause } : {}) }),
+      : {
+          cosine: round(p.cosine),
+          margin: round(p.gap ?? 0),
+          names: p.sharedNames ?? 0,
+          ...(p.clause ? { clause: p.clause } : {}),
+          ...(p.conceptCosine === undefined ? {} : { conceptCosine: round(p.conceptCosine) }),
+        }),
   });
   return {
     threshold,
     partialThreshold: DEFAULT_LOOKALIKE_OPTIONS.partialThreshold,
+    retoldMaxJaccard: DEFAULT_LOOKALIKE_OPTIONS.retoldMaxJaccard,
     labels: BAND_TITLES,
     exact: r.exactGroups.map((g) => ({ files: g.files, sharedLines: g.sharedLines, words: g.words })),
     near: r.nearPairs.map(pair),
@@ -144,7 +151,11 @@ function describe(r: LookalikeReport, threshold: number, top: number, extra: Ext
   };
   section(`${BAND_TITLES.near} (shingle Jaccard ≥ ${threshold})`, r.nearPairs, false);
   section(`${BAND_TITLES.partial} (shingle Jaccard ${DEFAULT_LOOKALIKE_OPTIONS.partialThreshold}–${threshold})`, r.partialPairs, false);
-  section(`${BAND_TITLES.retold} (each file's clear nearest neighbour by its words; little text shared)`, r.retoldPairs, true);
+  section(
+    `${BAND_TITLES.retold} (each file's clear nearest neighbour by its words; shingle Jaccard under ${DEFAULT_LOOKALIKE_OPTIONS.retoldMaxJaccard})`,
+    r.retoldPairs,
+    true,
+  );
   const notes: string[] = [];
   if (extra.sameFile > 0)
     notes.push(

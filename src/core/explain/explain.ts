@@ -142,8 +142,9 @@ export class QueryExplainer {
 
 /**
  * Why two indexed files are near: shares summing to the nearby score, (1 − μ)·cosine of their
- * concept vectors (each term of either file's symmetric share) + μ·BM25 of A's distinctive terms
- * in B / the best other file's (LsiIndex.nearbyPlan). fused = false: the cosine alone (symmetric).
+ * concept vectors (each term of either file's symmetric share) + μ·the word match: (1 − ν)·BM25 of
+ * A's distinctive terms in B / the best other file's + ν·TF-IDF of A's terms in B / the best other
+ * file's (LsiIndex.nearbyPlan). fused = false: the cosine alone (symmetric).
  */
 export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused = true): Explanation {
   const a = index.termsOf(pathA);
@@ -164,7 +165,7 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
     for (const { id, r } of conceptRows(index, terms).rows) if (r) entry(id).concept += (1 - mu) * 0.5 * dotF(r, other);
   }
   if (mu > 0) {
-    const { lexicalQuery, max } = index.nearbyPlan(pathA);
+    const { lexicalQuery, max, tfidfShare: nu, tfidfMax } = index.nearbyPlan(pathA);
     const slotB = index.slots().findIndex((s) => s?.meta.path === pathB);
     const bm25 = index.bm25();
     if (max > 0)
@@ -172,7 +173,16 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
         const tf = countOf(b, id);
         if (tf > 0)
           entry(id).lexical +=
-            (mu * bm25.termScore(id, lexicalQuery.counts[i], tf, slotB, index.ranking.nearbyLengthNorm, index.ranking.nearbyDelta)) / max;
+            (mu *
+              (1 - nu) *
+              bm25.termScore(id, lexicalQuery.counts[i], tf, slotB, index.ranking.nearbyLengthNorm, index.ranking.nearbyDelta)) /
+            max;
+      });
+    // The TF-IDF part of the word match (LsiIndex.nearbyPlan): every term of A that B holds.
+    if (nu > 0 && tfidfMax > 0)
+      a.termIds.forEach((id, i) => {
+        const tf = countOf(b, id);
+        if (tf > 0) entry(id).lexical += (mu * nu * index.tfidfTermScore(id, a.counts[i], tf, slotB)) / tfidfMax;
       });
   }
   const out: TermShare[] = [];

@@ -32,6 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
+import { TfidfNorms } from './search/tfidfCosine.js';
 import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
@@ -94,6 +95,9 @@ export class LsiIndex {
   /** Query-word focus inputs (termFocus.ts), cleared on every edit. */
   private readonly _resultants = new Map<number, Resultant>();
   private _meanNormSquared = -1;
+  /** TF-IDF document norms (tfidfCosine.ts), made on first use, cleared on every edit. */
+  private _tfidf: TfidfNorms | null = null;
+  private _tfidfScores = new Float64Array(0);
   private _mainLanguage: Language | undefined;
   private _languagesPresent: readonly Language[] | undefined;
   /** How search and nearby combine their evidence (fusion.ts); not saved with the index. */
@@ -276,7 +280,14 @@ export class LsiIndex {
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
       divideByMax(lexical);
+      if (r.tfidfShare > 0 && !r.tfidfFromConcept) this.addTfidf(lexQuery, lexical, 1 - r.tfidfShare, r.tfidfShare, r.tfidfSlope);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
+      if (r.tfidfShare > 0 && r.tfidfFromConcept && proj.knownTerms > 0) {
+        // (1 − λ)(1 − ν)·cos + λ·BM25 + (1 − λ)ν·TF-IDF, the last two as one part of share λ'.
+        const moved = (1 - lambda) * r.tfidfShare;
+        this.addTfidf(lexQuery, lexical, lambda / (lambda + moved), moved / (lambda + moved), r.tfidfSlope);
+        lambda += moved;
+      }
     }
     const marked = new Set([...liked, ...unliked]);
     const live = this.acceptor(options.filter);
@@ -313,7 +324,7 @@ export class LsiIndex {
     const accept = (j: number): boolean => j !== self && live(j);
     const n = this._slots.length;
     const mu = this.ranking.nearbyLexical;
-    const { lexical } = this.nearbyPlan(path, options.wordMatchDelta);
+    const { lexical } = this.nearbyPlan(path, options.wordMatchDelta, options.wordMatchTfidf);
     const { ranked, product } = this.rank(
       this.vectorOf(path),
       1 - mu,
@@ -334,22 +345,38 @@ export class LsiIndex {
   /**
    * Nearby's lexical evidence for a file: its lexical query (most distinctive terms), the best
    * BM25 score among the other files, and every file's score divided by it (itself 0; a view
-   * overwritten by the next search). Without a lexical share (nearbyLexical = 0) all zeros.
-   * `delta`: BM25L's δ of the word match (default: the ranking options' nearbyDelta).
+   * overwritten by the next search); with a TF-IDF share ν, (1 − ν) of that plus ν·the TF-IDF
+   * cosine of the file's full term vector divided by the best other file's (`tfidfMax`).
+   * Without a lexical share (nearbyLexical = 0) all zeros.
+   * `delta`: BM25L's δ of the word match (default: the ranking options' nearbyDelta); `tfidf`: ν
+   * (default: nearbyTfidfShare).
    */
-  nearbyPlan(path: string, delta: number = this.ranking.nearbyDelta): { lexicalQuery: DocTerms; max: number; lexical: Float64Array } {
+  nearbyPlan(
+    path: string,
+    delta: number = this.ranking.nearbyDelta,
+    tfidf: number = this.ranking.nearbyTfidfShare,
+  ): { lexicalQuery: DocTerms; max: number; lexical: Float64Array; tfidfShare: number; tfidfMax: number } {
     const self = this.slot(path);
     const n = this._slots.length;
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
     const lexicalQuery = this.fileQuery(self, 1);
     let max = 0;
+    let tfidfMax = 0;
+    const share = this.ranking.nearbyLexical > 0 ? tfidf : 0;
     if (this.ranking.nearbyLexical > 0) {
       this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm, delta);
       lexical[self] = 0;
       max = divideByMax(lexical);
+      if (share > 0) tfidfMax = this.addTfidf(this._slots[self]!.terms, lexical, 1 - share, share, 1, self);
     }
-    return { lexicalQuery, max, lexical };
+    return { lexicalQuery, max, lexical, tfidfShare: share, tfidfMax };
+  }
+
+  /** One term's TF-IDF score for a file (tfidfCosine.ts, cosine), before division by the best; for explanations. */
+  tfidfTermScore(termId: number, queryCount: number, tf: number, slot: number): number {
+    this._tfidf ??= new TfidfNorms(this._slots.map((s) => s?.terms ?? null));
+    return this._tfidf.termScore(termId, queryCount, tf, slot);
   }
 
   /**
@@ -548,7 +575,21 @@ export class LsiIndex {
     return true;
   }
 
+  /** lexical = wl·lexical + wt·(TF-IDF score / its maximum) (tfidfCosine.ts); returns that maximum. */
+  private addTfidf(q: DocTerms, lexical: Float64Array, wl: number, wt: number, slope: number, exclude = -1): number {
+    this._tfidf ??= new TfidfNorms(this._slots.map((s) => s?.terms ?? null));
+    if (this._tfidfScores.length !== lexical.length) this._tfidfScores = new Float64Array(lexical.length);
+    const t = this._tfidfScores.fill(0);
+    const bm25 = this.bm25();
+    this._tfidf.scoreInto(q, (term, fn) => bm25.forEachHolder(term, fn), t, { slope });
+    if (exclude >= 0) t[exclude] = 0;
+    const max = divideByMax(t);
+    blend(wl, lexical, wt, t, lexical);
+    return max;
+  }
+
   private forgetFocus(): void {
+    this._tfidf = null;
     this._resultants.clear();
     this._meanNormSquared = -1;
   }

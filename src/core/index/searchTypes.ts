@@ -40,8 +40,10 @@ export interface NearbyHit {
   /** Cosine similarity of the two files' concept vectors. */
   readonly conceptScore: number;
   /**
-   * BM25L (δ: RankingOptions.nearbyDelta, or NearbyOptions.wordMatchDelta) of the file's most
-   * distinctive terms, divided by the best other file's (0…1).
+   * The word match (0…1): BM25L (δ: RankingOptions.nearbyDelta, or NearbyOptions.wordMatchDelta)
+   * of the file's most distinctive terms divided by the best other file's, with a share ν
+   * (RankingOptions.nearbyTfidfShare, or NearbyOptions.wordMatchTfidf) of TF-IDF cosine divided by
+   * the best other file's: (1 − ν)·BM25L/max + ν·TFIDF/max.
    */
   readonly lexicalScore: number;
 }
@@ -61,6 +63,8 @@ export interface SearchOptions {
 export interface NearbyOptions extends SearchOptions {
   /** BM25L's δ of the word match (0 = classic BM25). @default RankingOptions.nearbyDelta */
   wordMatchDelta?: number;
+  /** Share of TF-IDF cosine in the word match (0 = BM25L alone). @default RankingOptions.nearbyTfidfShare */
+  wordMatchTfidf?: number;
 }
 
 export interface PrepareOptions {

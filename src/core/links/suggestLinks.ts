@@ -50,6 +50,12 @@ export const DEFAULT_MIN_SIMILARITY = 0.24;
  */
 export const LINKS_WORD_MATCH_DELTA = 0;
 
+/**
+ * The word match's TF-IDF share (LsiIndex.nearby, wordMatchTfidf): 0, BM25 alone, as the threshold
+ * above was calibrated; Nearby's default 0.1 came later (README, "Ranking checks", fourth round).
+ */
+export const LINKS_WORD_MATCH_TFIDF = 0;
+
 export const DEFAULT_SUGGEST_OPTIONS: SuggestOptions = { top: 5, minSimilarity: DEFAULT_MIN_SIMILARITY, words: 5 };
 
 export interface LinkSuggestion {
@@ -99,6 +105,7 @@ export function unlinkedNeighbours(
       top,
       filter: (p) => p !== key && graph.notes.has(p) && !graph.linked(key, p),
       wordMatchDelta: LINKS_WORD_MATCH_DELTA,
+      wordMatchTfidf: LINKS_WORD_MATCH_TFIDF,
     })
     .map((h) => ({ path: h.path, score: h.score, similarity: h.conceptScore * own * spaceShare(index, h.path) }));
 }

@@ -8,14 +8,22 @@
  *    identical files cost one file's work below and never crowd an LSH bucket.
  * 2. Near-copies: token w-shingles (shingles.ts) → K MinHash values (minhash.ts, Broder 1997) →
  *    LSH banding, b bands × r rows (banding.ts); plus each file's nearest neighbours in the full
- *    term space (termSpace.ts), which catch partial copies LSH at r = 8 would miss. Every
+ *    term space (termSpace.ts), which catch partial copies LSH at r = 8 would miss (at J = 0.3 a
+ *    pair becomes an LSH candidate with probability 1 − (1 − 0.3^8)^16 ≈ 0.001). Every
  *    candidate is verified by exact Jaccard on the shingle sets: J ≥ threshold → near-copy,
- *    partialThreshold ≤ J < threshold → partial copy. Texts with fewer than w tokens are counted
- *    in stats.skippedShort and skipped.
+ *    partialThreshold ≤ J < threshold → partial copy; the partial band starts where "other
+ *    words" ends (0.2), so no pair with that much shared text falls between the bands. Against
+ *    an exact all-pairs Jaccard (bench/lookalikeBands.bench.ts) the candidates hold every pair of
+ *    test/fixtures/lookalike-retellings with J ≥ 0.2 whose shared text is more than lines found
+ *    in 3 or more files (90 of 90); pairs whose shared text is such template lines are found only
+ *    when they are also term-space neighbours (445 of 2,023). Texts with fewer than w tokens are
+ *    counted in stats.skippedShort and skipped.
  * 3. Same content, other words: retold.ts (mutual nearest neighbours standing clear of each
  *    file's other neighbours when a file names nothing rare, else holding the same rare names
  *    (rareNames.ts) when neither is a stub, or with margin and name share together high enough
- *    when a BM25 view of the same counts agrees (bm25View.ts); little shared text).
+ *    when a BM25 view of the same counts agrees (bm25View.ts), or (opt-in) closer in their words
+ *    than their broad topic explains (conceptView.ts) with their names agreeing; little shared
+ *    text).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */
@@ -23,6 +31,7 @@ import { InvalidInputError } from '../errors.js';
 import { bandCandidates } from './banding.js';
 import { contentHash, isBlankText } from './contentHash.js';
 import { bm25View } from './bm25View.js';
+import { conceptView } from './conceptView.js';
 import { createMinHasher, estimateJaccard } from './minhash.js';
 import { resolveLookalikeOptions, type LookalikeOptions } from './options.js';
 import { rareNameIndex } from './rareNames.js';
@@ -175,8 +184,8 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       for (let r = 0; r < index.length && kept.length < 3; r++) {
         const d = index[r];
         if (d < 0) break;
-        if (estimate(t, d) >= o.partialThreshold) continue;
-        if (kept.some((e) => estimate(e, d) >= o.partialThreshold)) continue;
+        if (estimate(t, d) >= o.retoldCopyJaccard) continue;
+        if (kept.some((e) => estimate(e, d) >= o.retoldCopyJaccard)) continue;
         kept.push(d);
         cos.push(cosine[r]);
       }
@@ -189,6 +198,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
   const termLists = collapse((t) => ({ index: nb.index.subarray(t * K, t * K + K), cosine: nb.cosine.subarray(t * K, t * K + K) }));
   // Clause c is off unless one of its two levels is finite (options.ts says why it is off by default).
   const clauseC = Number.isFinite(o.retoldMinEvidence) || Number.isFinite(o.retoldFewNamesMinEvidence);
+  const clauseD = Number.isFinite(o.retoldConceptMinDiff);
   const rule = {
     minCosine: o.retoldMinCosine,
     minGap: o.retoldMinGap,
@@ -202,6 +212,11 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     minEvidenceFewNames: o.retoldFewNamesMinEvidence,
     minEvidenceCosine: o.retoldEvidenceMinCosine,
     minEvidenceWords: o.retoldEvidenceMinWords,
+    conceptMinDiff: clauseD ? o.retoldConceptMinDiff : undefined,
+    conceptMinCosine: o.retoldConceptMinCosine,
+    conceptMinWords: o.retoldConceptMinWords,
+    conceptMinNameShare: o.retoldConceptMinNameShare,
+    conceptMinGap: o.retoldConceptMinGap,
   };
   const names = rareNameIndex(
     shingled.map((f) => files[f].text),
@@ -220,12 +235,13 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       for (let r = 0; r < K; r++) {
         const d = nb.index[from * K + r];
         if (d < 0) break;
-        if (d === to || estimate(d, to) >= o.partialThreshold) continue;
+        if (d === to || estimate(d, to) >= o.retoldCopyJaccard) continue;
         if (bm25.cosine(from, d) > pair) return false;
       }
     }
     return true;
   };
+  let concepts: ReturnType<typeof conceptView> | undefined;
   const retold = findRetoldPairs(
     {
       ...termLists,
@@ -234,6 +250,8 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       names: names.pair,
       words: tokenCounts,
       secondView: clauseC ? bothNearest : undefined,
+      // Clause d's coarse concept space (conceptView.ts), built only when a mutual pair may need it.
+      conceptCosine: clauseD ? (x, y) => (concepts ??= conceptView(space, o.retoldConceptK, o.seed)).cosine(x, y) : undefined,
     },
     rule,
   );
@@ -246,6 +264,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     nameShare: p.nameShare,
     namesHeld: p.namesHeld,
     clause: p.clause,
+    ...(p.beyondTopic === undefined ? {} : { conceptCosine: p.cosine - p.beyondTopic }),
   }));
 
   return {

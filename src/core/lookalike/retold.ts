@@ -7,7 +7,7 @@
  *    "report bugs to" lines a template stamps on every page) are left out, so template siblings
  *    are not drawn together by the template.
  * 2. Each file's nearest neighbours there, with copies collapsed: a neighbour sharing text with
- *    the file (shingle Jaccard ≥ partialThreshold) or with a nearer neighbour is skipped.
+ *    the file (shingle Jaccard ≥ retoldCopyJaccard, 0.3) or with a nearer neighbour is skipped.
  * 3. A pair passes when the two files are each other's nearest neighbour (mutual nearest
  *    neighbours; Jarvis & Patrick 1973), share little text (Jaccard < maxJaccard), have a
  *    cosine ≥ minCosine, and either
@@ -32,6 +32,16 @@
  *       clause b's name share or length but standing clear of its neighbourhood tells the same
  *       thing; two pages of one kind that hold each other's names stand clear under one
  *       weighting more often than under two.
+ *    d. (off by default: options.ts says why) the full-space cosine stands at least conceptMinDiff
+ *       above the pair's cosine in a coarse
+ *       concept space (RetoldInput.conceptCosine; findLookalikes uses conceptView.ts, LSI with
+ *       k = 50), with a cosine of at least conceptMinCosine and the shorter file at least
+ *       conceptMinWords words, and either both files hold rare names, at least one in common with
+ *       a share of at least conceptMinNameShare, or one names nothing rare and the margin is at
+ *       least conceptMinGap. Two pages of one area sit near 1 in the concept space, so their
+ *       full cosine falls below it; a retelling is close in words specific to the two, beyond
+ *       what its area explains (the concept view as a second, independent piece of evidence, as
+ *       the issue's "agreement between the reduced space and the full term space", turned round).
  *    Either way the shorter file must have at least minWords words: a page of a few dozen words
  *    (a stub that points to another page) is too short to tell the same content.
  *    Pairs only: a file has at most one such partner, so nothing chains.
@@ -60,6 +70,13 @@ export interface RetoldParams {
   /** Clause c: least cosine (may be below minCosine) and least words of the shorter file. */
   readonly minEvidenceCosine?: number;
   readonly minEvidenceWords?: number;
+  /** Clause d (needs RetoldInput.conceptCosine): least full cosine minus concept cosine; absent = off. */
+  readonly conceptMinDiff?: number;
+  /** Clause d: least full cosine, least words of the shorter file, least name share (both named), least margin (one names nothing rare). */
+  readonly conceptMinCosine?: number;
+  readonly conceptMinWords?: number;
+  readonly conceptMinNameShare?: number;
+  readonly conceptMinGap?: number;
 }
 
 export interface RetoldInput {
@@ -76,7 +93,11 @@ export interface RetoldInput {
   readonly words?: readonly number[];
   /** Whether a second weighting agrees that a and b are each other's nearest (clause c); without it clause c is off. */
   readonly secondView?: (a: number, b: number) => boolean;
+  /** Cosine of a and b in a coarse concept space (clause d); without it clause d is off. */
+  readonly conceptCosine?: (a: number, b: number) => number;
 }
+
+export type RetoldClause = 'margin' | 'names' | 'combined' | 'beyond-topic';
 
 export interface RetoldPair {
   readonly a: number;
@@ -89,8 +110,10 @@ export interface RetoldPair {
   readonly nameShare: number;
   /** Rare names each file holds (0, 0 without RetoldInput.names). */
   readonly namesHeld: readonly [number, number];
-  /** The clause that passed the pair: 'margin' (a), 'names' (b) or 'combined' (c). */
-  readonly clause: 'margin' | 'names' | 'combined';
+  /** The clause that passed the pair: 'margin' (a), 'names' (b), 'combined' (c) or 'beyond-topic' (d). */
+  readonly clause: RetoldClause;
+  /** Full cosine minus the concept-space cosine (only when RetoldInput.conceptCosine is given). */
+  readonly beyondTopic?: number;
   /** gap + nameShare: the ranking. */
   readonly score: number;
 }
@@ -103,10 +126,16 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
     if (d === undefined || d <= i || neighbours[d][0] !== i) continue;
     const c = cosines[i][0];
     const evidenceOn = params.minEvidence !== undefined && input.names !== undefined && input.secondView !== undefined;
-    if (c < Math.min(params.minCosine, evidenceOn ? (params.minEvidenceCosine ?? params.minCosine) : Infinity)) continue;
+    const conceptOn = params.conceptMinDiff !== undefined && input.conceptCosine !== undefined;
+    const floor = Math.min(
+      params.minCosine,
+      evidenceOn ? (params.minEvidenceCosine ?? params.minCosine) : Infinity,
+      conceptOn ? (params.conceptMinCosine ?? params.minCosine) : Infinity,
+    );
+    if (c < floor) continue;
     const next = Math.max(cosines[i][1] ?? 0, cosines[d][1] ?? 0);
     const gap = c - next;
-    if (gap < Math.min(params.minGap, params.minNameGap ?? Infinity, evidenceOn ? 0 : Infinity)) continue;
+    if (gap < Math.min(params.minGap, params.minNameGap ?? Infinity, evidenceOn || conceptOn ? 0 : Infinity)) continue;
     if (input.jaccard(i, d) >= input.maxJaccard) continue;
     const shorter = input.words === undefined ? Infinity : Math.min(input.words[i], input.words[d]);
     if (shorter < (params.minWords ?? 0)) continue;
@@ -131,7 +160,19 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
       gap + names.share >= ((names.shared >= (params.minSharedNames ?? 1) ? params.minEvidence : params.minEvidenceFewNames) ?? Infinity) &&
       shorter >= (params.minEvidenceWords ?? 0) &&
       input.secondView!(i, d);
-    if (!byGap && !byNames && !byBoth) continue;
+    const beyondTopic = input.conceptCosine ? c - input.conceptCosine(i, d) : undefined;
+    const byConcept =
+      !byGap &&
+      !byNames &&
+      !byBoth &&
+      conceptOn &&
+      c >= (params.conceptMinCosine ?? params.minCosine) &&
+      shorter >= (params.conceptMinWords ?? 0) &&
+      (bothNamed
+        ? names.shared >= 1 && names.share >= (params.conceptMinNameShare ?? Infinity)
+        : gap >= (params.conceptMinGap ?? Infinity)) &&
+      beyondTopic! >= params.conceptMinDiff!;
+    if (!byGap && !byNames && !byBoth && !byConcept) continue;
     out.push({
       a: i,
       b: d,
@@ -140,7 +181,8 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
       sharedNames: names.shared,
       nameShare: names.share,
       namesHeld: [names.own[0], names.own[1]],
-      clause: byGap ? 'margin' : byNames ? 'names' : 'combined',
+      clause: byGap ? 'margin' : byNames ? 'names' : byBoth ? 'combined' : 'beyond-topic',
+      ...(beyondTopic === undefined ? {} : { beyondTopic }),
       score: gap + names.share,
     });
   }

@@ -57,7 +57,9 @@ export interface LookalikePair {
   readonly nameShare?: number;
   /** Retold pairs: rare names each file holds, and the clause that passed the pair (retold.ts). */
   readonly namesHeld?: readonly [number, number];
-  readonly clause?: 'margin' | 'names' | 'combined';
+  readonly clause?: 'margin' | 'names' | 'combined' | 'beyond-topic';
+  /** Retold pairs: the pair's cosine in the coarse concept space of clause d (conceptView.ts), when that clause is on. */
+  readonly conceptCosine?: number;
 }
 
 /** Files whose normalised texts are identical (contentHash.ts). Every pair has similarity 1. */

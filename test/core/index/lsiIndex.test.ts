@@ -98,12 +98,37 @@ function plainBm25(index: LsiIndex, q: DocTerms, b: number, delta = 0): number[]
   });
 }
 
+/**
+ * TF-IDF cosine of a file's full term vector with every slot's, as scikit-learn's TfidfVectorizer
+ * (sublinear_tf, smooth_idf, l2) computes it over the current documents: weights (1 + ln tf)·idf,
+ * idf = ln((1 + n)/(1 + df)) + 1, each side divided by its norm.
+ */
+function plainTfidf(index: LsiIndex, d: DocTerms): number[] {
+  const slots = index.slots();
+  const present = slots.filter((s) => s !== null).map((s) => s.terms);
+  const df = new Map<number, number>();
+  for (const e of present) for (const t of e.termIds) df.set(t, (df.get(t) ?? 0) + 1);
+  const idf = (t: number): number => Math.log((1 + present.length) / (1 + (df.get(t) ?? 0))) + 1;
+  const weights = (e: DocTerms): Map<number, number> => new Map(Array.from(e.termIds, (t, i) => [t, (1 + Math.log(e.counts[i])) * idf(t)]));
+  const norm = (w: Map<number, number>): number => Math.hypot(...w.values());
+  const wq = weights(d);
+  const nq = norm(wq);
+  return slots.map((s) => {
+    if (!s) return 0;
+    const w = weights(s.terms);
+    let dot = 0;
+    for (const [t, x] of wq) dot += x * (w.get(t) ?? 0);
+    const n = nq * norm(w);
+    return n > 0 ? dot / n : 0;
+  });
+}
+
 function tfOf(d: DocTerms, t: number): number {
   const i = d.termIds.indexOf(t);
   return i < 0 ? 0 : d.counts[i];
 }
 
-/** Top of (1 − a)·cos(q, v_j) + a·lexical_j/max over slots (skip excluded). */
+/** Top of (1 − a)·cos(q, v_j) + a·lexical_j/max over slots (skip excluded; max 1 when the lexical scores are normalised already). */
 function plainBlend(
   index: LsiIndex,
   q: Float32Array,
@@ -112,8 +137,9 @@ function plainBlend(
   lexical: number[],
   top: number,
   skip = '',
+  normalised = false,
 ): { path: string; score: number; slot: number }[] {
-  const max = Math.max(...lexical);
+  const max = normalised ? 1 : Math.max(...lexical);
   const ranked: { path: string; score: number; slot: number }[] = [];
   index.slots().forEach((s, j) => {
     if (!s || s.meta.path === skip) return;
@@ -216,10 +242,18 @@ function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[], lambda: 
 }
 
 /**
- * Nearby as documented: ½ cosine + ½ BM25L (δ: the ranking options' unless given) of the file's 40
- * most distinctive terms (log(1 + tf)·idf) / best other file's.
+ * Nearby as documented: ½ cosine + ½ word match, the word match (1 − ν)·BM25L (δ: the ranking
+ * options' unless given) of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other
+ * file's + ν·TF-IDF cosine of its full term vector / best other file's (ν: nearbyTfidfShare unless
+ * given).
  */
-function plainNearby(index: LsiIndex, path: string, top: number, delta = index.ranking.nearbyDelta): { path: string; score: number }[] {
+function plainNearby(
+  index: LsiIndex,
+  path: string,
+  top: number,
+  delta = index.ranking.nearbyDelta,
+  nu = index.ranking.nearbyTfidfShare,
+): { path: string; score: number }[] {
   const d = index.termsOf(path);
   const idf = (t: number): number => index.bm25().idf(t);
   const order = Array.from(d.termIds.keys()).sort(
@@ -231,9 +265,14 @@ function plainNearby(index: LsiIndex, path: string, top: number, delta = index.r
     counts: Float32Array.from(kept, (i) => d.counts[i]),
     length: 0,
   };
-  const lexical = plainBm25(index, query, index.ranking.nearbyLengthNorm, delta);
-  lexical[index.slots().findIndex((s) => s?.meta.path === path)] = 0;
-  return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path);
+  const self = index.slots().findIndex((s) => s?.meta.path === path);
+  const bm25 = plainBm25(index, query, index.ranking.nearbyLengthNorm, delta);
+  const tfidf = plainTfidf(index, d);
+  bm25[self] = 0;
+  tfidf[self] = 0;
+  const [maxB, maxT] = [Math.max(...bm25), Math.max(...tfidf)];
+  const lexical = bm25.map((x, j) => (1 - nu) * (maxB > 0 ? x / maxB : 0) + nu * (maxT > 0 ? tfidf[j] / maxT : 0));
+  return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path, true);
 }
 
 describe('LsiIndex ranking against the plain formula', () => {
@@ -253,9 +292,10 @@ describe('LsiIndex ranking against the plain formula', () => {
         const ref = plainNearby(index, p, 15);
         expect(got.map((h) => h.path)).toEqual(ref.map((h) => h.path));
         got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
-        // A caller's own δ (the link suggestions pass 0: classic BM25) overrides the default.
-        const classic = index.nearby(p, { top: 15, wordMatchDelta: 0 });
-        const classicRef = plainNearby(index, p, 15, 0);
+        // A caller's own δ and TF-IDF share (the link suggestions pass 0 and 0: classic BM25) override the defaults.
+        expect(index.ranking.nearbyTfidfShare).toBeGreaterThan(0);
+        const classic = index.nearby(p, { top: 15, wordMatchDelta: 0, wordMatchTfidf: 0 });
+        const classicRef = plainNearby(index, p, 15, 0, 0);
         expect(classic.map((h) => h.path)).toEqual(classicRef.map((h) => h.path));
         classic.forEach((h, i) => expect(h.score).toBeCloseTo(classicRef[i].score, 12));
       }

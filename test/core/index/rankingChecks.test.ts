@@ -19,6 +19,7 @@
  * a regression fails and an improvement shows.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
+import { DEFAULT_RANKING_OPTIONS } from '../../../src/core/index/search/fusion.js';
 import {
   buildFixtureIndex,
   loadRankingFixture,
@@ -32,30 +33,32 @@ const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): 
   Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
 
 describe('Nearby on linked documentation (nDCG@10)', () => {
-  // Measured with the defaults (nearbyDelta 0.5, BM25L): CMake .5378 (BM25 .5112, 1.052; TF-IDF .4386,
-  // 1.226), Django .7114 (LSI .6984, 1.019), Sphinx .7162 (TF-IDF .7085, 1.011); with δ 0 they were
-  // 1.012, 1.017 and 1.006 of the best baseline (README, "Ranking checks").
-  it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 4% above the best plain baseline (BM25 of the whole page), ≥ 20% above TF-IDF cosine', () => {
+  // Measured with the defaults (nearbyDelta 0.5, BM25L; nearbyTfidfShare 0.1, a tenth of the word
+  // match TF-IDF cosine): CMake .5266 (BM25 .5112, 1.030; TF-IDF .4386, 1.201), Django .7171 (LSI
+  // .6984, 1.027), Sphinx .7248 (TF-IDF .7085, 1.023). Without the TF-IDF share they were 1.052,
+  // 1.019 and 1.011 of the best baseline, with δ 0 too 1.012, 1.017 and 1.006 (README, "Ranking
+  // checks", fourth round).
+  it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 2.5% above the best plain baseline (BM25 of the whole page), ≥ 19% above TF-IDF cosine', () => {
     const fx = loadRankingFixture('cmake-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`cmake-doc nearby nDCG@10 ${got.toFixed(4)}`);
     const b = fx.baselines!.methods;
-    expect(got).toBeGreaterThanOrEqual(1.2 * b.tfidf.ndcg10);
-    expect(got).toBeGreaterThanOrEqual(1.04 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.19 * b.tfidf.ndcg10);
+    expect(got).toBeGreaterThanOrEqual(1.025 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Django manual (258 pages, 248 linked pages as queries): ≥ 1.5% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
+  it('Django manual (258 pages, 248 linked pages as queries): ≥ 2.5% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
     const fx = loadRankingFixture('django-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`django-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.015 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.025 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 0.5% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
+  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 2% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
     const fx = loadRankingFixture('sphinx-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`sphinx-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.005 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.02 * best(fx.baselines, 'ndcg10'));
   });
 });
 
@@ -100,5 +103,16 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
     const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
     got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.9 * q[i]!));
     for (const i of [2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
+  });
+});
+
+describe('the opt-in TF-IDF signal (tfidfShare, research for the third search round)', () => {
+  it('alone (ν = 1, λ = 1) reproduces the stored scikit-learn TF-IDF cosine baseline on CACM (MAP .2784)', () => {
+    const fx = loadRankingFixture('corpora/cacm');
+    const index = buildFixtureIndex(fx, { lexicalBlend: 1 });
+    index.ranking = { ...DEFAULT_RANKING_OPTIONS, tfidfShare: 1 };
+    const got = searchFigures(index, fx).map;
+    console.log(`cacm TF-IDF alone MAP ${got.toFixed(4)}`);
+    expect(got).toBeCloseTo(fx.baselines!.methods.tfidf.map!, 3);
   });
 });

@@ -16,18 +16,22 @@
  * - exact copies: all 20 planted found (target: all);
  * - near-copies: recall ≥ 0.95 of the planted pairs with reference J ≥ 0.8, 0 reported below it
  *   (target; measured 32/32, 0 false);
- * - partial copies: recall ≥ 0.9 of the planted pairs with 0.3 ≤ J < 0.8, 0 reported outside
- *   (measured 35/35, 0 outside);
+ * - partial copies: recall ≥ 0.9 of the planted pairs with 0.2 ≤ J < 0.8, 0 reported outside
+ *   (measured 38/38, 0 of 535 outside; 35/35 from 0.3); every retelling of the key whose
+ *   reference J is 0.2 or more is listed as a partial or near-copy, so none falls between the
+ *   bands (measured: 7, envsubst, gettext's msg* tools and egrep, J 0.21–0.35);
  * - same content, other words: at most 3 pairs not in the key (target; measured 1,
  *   pthread_yield.3 ~ sched_yield.2, itself a natural retelling outside the key) and ahead of plain
  *   TF-IDF cosine at the same number of false pairs; recall floors 0.27 overall, 26/98 coreutils,
  *   6/27 gnu-other (measured 2026-12-03 with names deciding when both files hold rare names:
  *   37/125 = 0.30, 29/98, 8/27; with the opt-in clause c, margin + name share ≥ 1 when BM25
- *   agrees, 45/125; the earlier rule 34/125, margin alone 20/125). The issue's recall target
- *   (≥ 55 %) is NOT met on this set: see the fixture README;
+ *   agrees, 45/125; with the opt-in clause d, closer in words than the broad topic explains,
+ *   55/125 (checked below); the earlier rule 34/125, margin alone 20/125). The issue's recall
+ *   target (≥ 55 %) is NOT met on this set: see the fixture README;
  * - the folder without the retellings' Texinfo side: at most 1 pair per 1,000 files (target;
  *   measured 1 in 1,660, the same pthread_yield pair).
- * The rule's constants (options.ts) were chosen leaving one source out (bench/lookalikeSignals.bench.ts).
+ * The rule's constants (options.ts) were chosen leaving one source out (bench/lookalikeNameClause.bench.ts,
+ * scripts/fixtures/lookalike-retellings/conceptClause.py).
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -98,7 +102,7 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       j: referenceJaccard(text.get(a)!, text.get(b)!),
     }));
     const nearTruth = plantedEdited.filter((p) => p.j >= 0.8);
-    const partialTruth = plantedEdited.filter((p) => p.j >= 0.3 && p.j < 0.8);
+    const partialTruth = plantedEdited.filter((p) => p.j >= 0.2 && p.j < 0.8);
     const nearKeys = new Set(report.nearPairs.flatMap((p) => expanded(report, p.a, p.b)));
     const partialKeys = new Set(report.partialPairs.flatMap((p) => expanded(report, p.a, p.b)));
     const nearRecall = nearTruth.filter((p) => nearKeys.has(p.k)).length / nearTruth.length;
@@ -107,11 +111,20 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     const falseNear = report.nearPairs.filter((p) => referenceJaccard(text.get(p.a)!, text.get(p.b)!) < 0.8).length;
     const falsePartial = report.partialPairs.filter((p) => {
       const j = referenceJaccard(text.get(p.a)!, text.get(p.b)!);
-      return j < 0.3 || j >= 0.8;
+      return j < 0.2 || j >= 0.8;
     }).length;
 
     // Same content, other words.
     const truth = new Map(c.retellings.map(([a, b, s]) => [key(a, b), s]));
+    // Retellings sharing much text (J ≥ 0.2, where partial copies start) are listed as copies.
+    const copyKeys = new Set([...nearKeys, ...partialKeys, ...exact]);
+    const sharing = c.retellings
+      .map(([a, b]) => key(a, b))
+      .filter((k) => {
+        const [a, b] = k.split('|');
+        return referenceJaccard(text.get(a)!, text.get(b)!) >= 0.2;
+      });
+    const sharingListed = sharing.filter((k) => copyKeys.has(k)).length;
     const retold = report.retoldPairs.map((p) => ({ k: expanded(report, p.a, p.b).find((x) => truth.has(x)) ?? key(p.a, p.b), p }));
     const hits = retold.filter((r) => truth.has(r.k));
     const falseRetold = retold.length - hits.length;
@@ -156,7 +169,8 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
         `overlaps on ${c.files.length} Debian documentation files:`,
         `  exact copies: ${exactFound}/${c.planted.exact.length} planted found`,
         `  near-copies: recall ${nearRecall.toFixed(3)} of ${nearTruth.length} planted with J ≥ 0.8; ${report.nearPairs.length} reported, ${falseNear} below J 0.8`,
-        `  partial copies: recall ${partialRecall.toFixed(3)} of ${partialTruth.length} planted with 0.3 ≤ J < 0.8; ${report.partialPairs.length} reported, ${falsePartial} outside the band`,
+        `  partial copies: recall ${partialRecall.toFixed(3)} of ${partialTruth.length} planted with 0.2 ≤ J < 0.8; ${report.partialPairs.length} reported, ${falsePartial} outside the band`,
+        `  retellings with J ≥ 0.2 listed as copies: ${sharingListed}/${sharing.length}`,
         `  same content, other words: ${retold.length} reported, ${hits.length} retellings (coreutils ${bySource('coreutils')}, gnu-other ${bySource('gnu-other')}), recall ${recall.toFixed(3)}, ${falseRetold} not in the key`,
         `  baseline TF-IDF cosine, J < 0.3: ${baseSame} retellings before its ${falseRetold + 1}th false pair; ${base3} with ≤ 3 false, ${base5} with ≤ 5 false`,
         ...baselineFalse.map((x) => `    baseline's first false pairs: ${x}`),
@@ -176,6 +190,8 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(partialTruth.length).toBeGreaterThan(20);
     expect(partialRecall).toBeGreaterThanOrEqual(0.9);
     expect(falsePartial).toBe(0);
+    expect(sharing.length).toBeGreaterThan(0);
+    expect(sharingListed).toBe(sharing.length);
     // Target: at most 3 pairs not in the key (measured 2026-12-03: 1 of 38 reported).
     expect(falseRetold).toBeLessThanOrEqual(3);
     expect(hits.length / Math.max(1, retold.length)).toBeGreaterThanOrEqual(0.85);
@@ -185,6 +201,25 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
     expect(hits.filter((r) => truth.get(r.k) === 'gnu-other').length).toBeGreaterThanOrEqual(6);
     // Ahead of the baseline at the same number of false pairs (baseline measured: 4 with ≤ 3 false).
     expect(hits.length).toBeGreaterThan(baseSame);
+  });
+
+  it.skipIf(!corpus)('with the opt-in clause d finds more retellings at the same false pairs', { timeout: 900_000 }, () => {
+    // Clause d (retold.ts; off by default, options.ts says why) at its chosen level −0.15.
+    // Measured 2026-12-03: 55/125 (coreutils 45/98, gnu-other 10/27), 1 pair not in the key (the
+    // same pthread_yield one); floors below that.
+    const c = corpus!;
+    const report = findLookalikes({ files: c.files }, { retoldConceptMinDiff: -0.15 });
+    const truth = new Map(c.retellings.map(([a, b, s]) => [key(a, b), s]));
+    const found = report.retoldPairs.map((p) => expanded(report, p.a, p.b).find((x) => truth.has(x)));
+    const hits = found.filter((k) => k !== undefined);
+    const byClause = report.retoldPairs.filter((p) => p.clause === 'beyond-topic').length;
+    console.log(
+      `opt-in clause d: ${report.retoldPairs.length} reported, ${hits.length} retellings (${byClause} by clause d), ${found.length - hits.length} not in the key`,
+    );
+    expect(found.length - hits.length).toBeLessThanOrEqual(3);
+    expect(hits.length).toBeGreaterThanOrEqual(50);
+    expect(hits.filter((k) => truth.get(k!) === 'gnu-other').length).toBeGreaterThanOrEqual(9);
+    expect(byClause).toBeGreaterThan(0);
   });
 
   it.skipIf(!corpus)('reports few "same content" pairs in a real folder without planted retellings', { timeout: 900_000 }, () => {
@@ -211,8 +246,9 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       // test/fixtures/cmake-doc (CMake 3.25 reference manual, Debian cmake-doc; see its README): no
       // planted retelling; many pages of one template (Find modules, a property and the variable that
       // sets its default). A control for the rule, not held out: its constants were chosen with it
-      // (bench/lookalikeNameClause.bench.ts). Measured 2026-12-03: 1 pair in 1,906 pages
-      // (module/FindMPEG ~ module/FindMPEG2, two modules of one template); the earlier rule gave 10.
+      // (bench/lookalikeNameClause.bench.ts, scripts/fixtures/lookalike-retellings/conceptClause.py).
+      // Measured 2026-12-03: 1 pair in 1,906 pages (module/FindMPEG ~ module/FindMPEG2, two modules
+      // of one template), also with the opt-in clause d; the earlier rule gave 10.
       const files = gunzipSync(readFileSync(cmakePath))
         .toString('utf8')
         .split('\n')
@@ -229,6 +265,22 @@ describe('overlap bands on Debian manual pages and Texinfo manuals', () => {
       expect((1000 * r.retoldPairs.length) / files.length).toBeLessThanOrEqual(1);
     },
   );
+
+  const djangoPath = join(REPO_ROOT, 'test', 'fixtures', 'django-doc', 'docs.jsonl.gz');
+  it.skipIf(!existsSync(djangoPath))('reports no "same content" pair in the Django manual', { timeout: 300_000 }, () => {
+    // test/fixtures/django-doc (Django 3.2 manual, Debian python-django-doc; see its README): 258
+    // pages, no planted retelling; a control used when choosing clause d, not held out. The
+    // issue's 1 per 1,000 files allows none here. Measured 2026-12-03: 0 pairs.
+    const files = gunzipSync(readFileSync(djangoPath))
+      .toString('utf8')
+      .split('\n')
+      .filter((l) => l.length > 0)
+      .map((l) => JSON.parse(l) as { id: string; text: string });
+    const r = findLookalikes({ files });
+    console.log(`overlaps on the Django manual: ${files.length} pages, ${r.retoldPairs.length} "same content" pairs`);
+    expect(files.length).toBeGreaterThan(200);
+    expect(r.retoldPairs.map((p) => `${p.a} ~ ${p.b}`)).toEqual([]);
+  });
 
   it.skipIf(!corpus)('gives the same report from stored term counts as from the texts', { timeout: 300_000 }, () => {
     // What the CLI and the editor pass: an index's raw counts (here counted with the index tokenizer

@@ -156,6 +156,24 @@ describe('findLookalikes: bands', () => {
     expect(r.partialPairs[0].sharedLines).toBe(7);
   });
 
+  it('puts a copy with about 5 of its 12 lines kept (Jaccard 0.2–0.3) in "Partial copies": the band starts where "other words" ends', () => {
+    const kept = [...lines.slice(0, 5), ...note(16, 7).split('\n')].join('\n');
+    const r = findLookalikes({
+      files: [
+        { id: 'a.md', text: base },
+        { id: 'b.md', text: kept },
+        { id: 'c.md', text: note(15) },
+      ],
+    });
+    const j = referenceJaccard(base, kept);
+    expect(j).toBeGreaterThanOrEqual(0.2);
+    expect(j).toBeLessThan(0.3);
+    expect(r.partialPairs.map((p) => [p.a, p.b])).toEqual([['a.md', 'b.md']]);
+    expect(r.partialPairs[0].jaccard).toBeCloseTo(j, 12);
+    expect(r.partialPairs[0].sharedLines).toBe(5);
+    expect(r.retoldPairs).toEqual([]);
+  });
+
   it('ranks exact-copy groups by text length, so one-line stubs come last', () => {
     const stub = 'This file has moved.';
     const r = findLookalikes({

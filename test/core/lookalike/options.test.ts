@@ -10,6 +10,13 @@ describe('DEFAULT_LOOKALIKE_OPTIONS', () => {
     // With these, a pair at the threshold is a candidate with probability ≈ 0.95 (1 − (1 − s^r)^b, Mining of Massive Datasets ch. 3).
     expect(candidateProbability(o.threshold, o.bands, o.numHashes / o.bands)).toBeGreaterThan(0.94);
   });
+
+  it('lets the bands meet: partial copies start where "same content, other words" ends (0.2), and the retold rule collapses copies at its own 0.3', () => {
+    const o = DEFAULT_LOOKALIKE_OPTIONS;
+    expect(o.partialThreshold).toBe(0.2);
+    expect(o.retoldMaxJaccard).toBe(o.partialThreshold);
+    expect(o.retoldCopyJaccard).toBe(0.3);
+  });
 });
 
 describe('resolveLookalikeOptions', () => {
@@ -24,6 +31,7 @@ describe('resolveLookalikeOptions', () => {
     [{ shingleSize: 2.5 }, /shingleSize/],
     [{ maxBucketSize: 1 }, /maxBucketSize/],
     [{ partialThreshold: 0.9 }, /partialThreshold/],
+    [{ retoldCopyJaccard: 0 }, /retoldCopyJaccard/],
     [{ boilerplateFiles: 1 }, /boilerplateFiles/],
     [{ retoldMinGap: -0.1 }, /retoldMinGap/],
     [{ retoldNameMinWords: -1 }, /retoldNameMinWords/],
@@ -32,6 +40,12 @@ describe('resolveLookalikeOptions', () => {
     [{ retoldNamesDecide: 'yes' as unknown as boolean }, /retoldNamesDecide/],
     [{ retoldMinEvidence: -0.5 }, /retoldMinEvidence/],
     [{ retoldFewNamesMinEvidence: Number.NaN }, /retoldFewNamesMinEvidence/],
+    [{ retoldConceptMinDiff: -2 }, /retoldConceptMinDiff/],
+    [{ retoldConceptK: 0 }, /retoldConceptK/],
+    [{ retoldConceptMinCosine: 0 }, /retoldConceptMinCosine/],
+    [{ retoldConceptMinWords: 1.5 }, /retoldConceptMinWords/],
+    [{ retoldConceptMinNameShare: 2 }, /retoldConceptMinNameShare/],
+    [{ retoldConceptMinGap: -0.1 }, /retoldConceptMinGap/],
     [{ retoldEvidenceMinCosine: 0 }, /retoldEvidenceMinCosine/],
     [{ retoldEvidenceMinWords: 10.5 }, /retoldEvidenceMinWords/],
   ])('rejects %j with a clear message', (bad, message) => {

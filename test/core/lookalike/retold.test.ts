@@ -259,6 +259,82 @@ describe('findRetoldPairs, clause c: margin and name share together, when a seco
   });
 });
 
+describe('findRetoldPairs, clause d: closer in words than the broad topic explains', () => {
+  // Mutual pair, cosine 0.48 (below minCosine 0.5), margin 0.13 over both files' next neighbours.
+  const close = {
+    neighbours: [
+      [1, 2],
+      [0, 2],
+      [1, 0],
+    ],
+    cosines: [
+      [0.48, 0.35],
+      [0.48, 0.3],
+      [0.4, 0.3],
+    ],
+    jaccard: lowJ,
+    maxJaccard: 0.15,
+    words: [150, 300, 300],
+  };
+  const params = {
+    ...rule,
+    minNameGap: 0,
+    minSharedNames: 3,
+    minNameShare: 0.85,
+    minNameWords: 200,
+    namesDecide: true,
+    conceptMinDiff: -0.15,
+    conceptMinCosine: 0.45,
+    conceptMinWords: 100,
+    conceptMinNameShare: 0.9,
+    conceptMinGap: 0.2,
+  };
+  const one = () => ({ shared: 1, share: 1, own: [1, 1] as const });
+  // Concept cosine 0.6: the full cosine 0.48 is 0.12 below it, within −0.15.
+  const concept = () => 0.6;
+  it('passes a pair sharing one rare name when its full cosine is not far below its concept cosine', () => {
+    const pairs = findRetoldPairs({ ...close, names: one, conceptCosine: concept }, params);
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ a: 0, b: 1, clause: 'beyond-topic', sharedNames: 1 });
+    expect(pairs[0].beyondTopic).toBeCloseTo(0.48 - 0.6, 12);
+  });
+  it('refuses it when the concept space puts the two much closer than their words (one area), or when the clause is off', () => {
+    expect(findRetoldPairs({ ...close, names: one, conceptCosine: () => 0.64 }, params)).toEqual([]); // 0.48 − 0.64 < −0.15
+    expect(findRetoldPairs({ ...close, names: one }, params)).toEqual([]);
+    expect(findRetoldPairs({ ...close, names: one, conceptCosine: concept }, { ...params, conceptMinDiff: undefined })).toEqual([]);
+  });
+  it('refuses it below conceptMinCosine, conceptMinWords or conceptMinNameShare, or with no name in common', () => {
+    const input = { ...close, names: one, conceptCosine: concept };
+    expect(findRetoldPairs(input, { ...params, conceptMinCosine: 0.5 })).toEqual([]);
+    expect(findRetoldPairs({ ...input, words: [99, 300, 300] }, params)).toEqual([]);
+    expect(findRetoldPairs({ ...input, names: () => ({ shared: 2, share: 0.85, own: [3, 2] as const }) }, params)).toEqual([]);
+    expect(findRetoldPairs({ ...input, names: () => ({ shared: 0, share: 0, own: [2, 2] as const }) }, params)).toEqual([]);
+  });
+  it('asks a pair where a file names nothing rare for conceptMinGap instead', () => {
+    const none = () => ({ shared: 0, share: 0, own: [0, 3] as const });
+    const input = { ...close, names: none, conceptCosine: concept };
+    expect(findRetoldPairs(input, params)).toEqual([]); // margin 0.13 < 0.2
+    expect(findRetoldPairs(input, { ...params, conceptMinGap: 0.13 })).toHaveLength(1);
+  });
+  it('leaves a pair the other clauses pass to them', () => {
+    const clear = {
+      ...close,
+      cosines: [
+        [0.8, 0.35],
+        [0.8, 0.3],
+        [0.4, 0.3],
+      ],
+      words: [300, 300, 300],
+    };
+    const pairs = findRetoldPairs(
+      { ...clear, names: () => ({ shared: 4, share: 0.9, own: [4, 4] as const }), conceptCosine: concept },
+      params,
+    );
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0].clause).toBe('names');
+  });
+});
+
 describe('boilerplate lines', () => {
   it('finds lines present in at least n files (trimmed, case and spacing ignored) and removes them', () => {
     const texts = ['Report bugs to the list.\nalpha', '  report   bugs to the list.\nbeta', 'REPORT BUGS TO THE LIST.\ngamma\nalpha'];

@@ -6,7 +6,9 @@
  *   by BM25 against every other file and divided by the best other file's score (0…1). The
  *   selection of a file's top terms as its query is the classic "more like this" query of
  *   relevance feedback (Salton & Buckley 1990, "Improving retrieval performance by relevance
- *   feedback"); 25–50 terms is common practice.
+ *   feedback"); 25–50 terms is common practice. A tenth of that word match is the TF-IDF cosine
+ *   of the file's full term vector with every other file's (nearbyTfidfShare, tfidfCosine.ts),
+ *   divided by the best other file's.
  * - Search: the concept cosine of the query, blended with max-normalised BM25
  *   (settings.lexicalBlend, raised by the share of the query's words the concept space does not
  *   know: coverageBlend); optionally (spreadBlend) that share applies to standardised scores
@@ -86,6 +88,30 @@ export interface RankingOptions {
    * LINKS_WORD_MATCH_DELTA = 0), where their similarity threshold was calibrated. @default 0.5
    */
   nearbyDelta: number;
+  /**
+   * Search: share ν of the word match given to TF-IDF cosine over the full term space
+   * (tfidfCosine.ts), max-normalised like BM25: lexical = (1 − ν)·BM25/max + ν·TFIDF/max.
+   * 0 = BM25 alone. Off: measured in the third search round and not chosen by every
+   * leave-one-out fold (README, "Ranking checks"); explanations still split the word match as
+   * BM25 alone. @default 0
+   */
+  tfidfShare: number;
+  /** Pivoted normalisation slope of that TF-IDF score (tfidfCosine.ts; 1 = cosine). @default 1 */
+  tfidfSlope: number;
+  /**
+   * Take TF-IDF's share ν from the concept part instead of the word match:
+   * (1 − λ)(1 − ν)·cos + λ·BM25/max + (1 − λ)ν·TFIDF/max. @default false
+   */
+  tfidfFromConcept: boolean;
+  /**
+   * Nearby: share ν of the word match given to the TF-IDF cosine of the page's full term vector
+   * (tfidfCosine.ts; Salton & Buckley 1988's ltc weights, scikit-learn's TfidfVectorizer form),
+   * divided by the best other page's: lexical = (1 − ν)·BM25L/max + ν·TFIDF/max. Chosen by every
+   * leave-one-manual-out fold among twelve configurations (ν 0.1 / 0.25 / 0.5, pivoted, taken from
+   * the concept part, or over the page's top terms; README, "Ranking checks", fourth round); the
+   * link suggestions keep 0 (suggestLinks.ts). @default 0.1
+   */
+  nearbyTfidfShare: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -102,6 +128,10 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   spreadBlend: false,
   termFocus: 1,
   nearbyDelta: 0.5,
+  tfidfShare: 0,
+  tfidfSlope: 1,
+  tfidfFromConcept: false,
+  nearbyTfidfShare: 0.1,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
