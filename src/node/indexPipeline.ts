@@ -14,7 +14,9 @@
  * from scratch on threads with sorted vocabularies (parallel/sortedCount.ts: the counts come back
  * already in the builder's term order); otherwise on threads against the existing vocabulary
  * (parallel/parallelCount.ts). The tokenizing threads are ended before the SVD, which starts its
- * own (their word tables are freed before the build needs the memory).
+ * own (their word tables are freed before the build needs the memory); those are ended in turn
+ * before the sections fold, which starts its own (WebAssembly memory never shrinks, and the fold
+ * needs far less of it than the SVD).
  * Nothing is swapped or saved before the build has finished, so a cancelled or failed run leaves
  * the previous index as it was.
  */
@@ -291,7 +293,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool(true) : undefined;
     // A shared concept model (import-model, undertone.conceptModel): fold into it, no local SVD.
     const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
-    // Kept for the sections' fold, then dropped with the pool (it holds the shared memory).
+    // Runs the SVD and the files' projection; the sections fold gets a fresh one (below).
     let executor = buildPool?.executor();
     const aborted = {
       get aborted() {
@@ -311,7 +313,14 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     check();
 
     let sectionsReadAgain = 0;
-    // ---- sections: each file cut into sections, each folded into the new model on the SVD's
+    if (options.sections !== false && executor) {
+      // The sections fold needs far less executor memory than the SVD left resident (WebAssembly
+      // memory only grows): a fresh pool and executor, and the SVD's memory goes with the old one.
+      executor = undefined;
+      await releasePool();
+      executor = getPool(true)?.executor();
+    }
+    // ---- sections: each file cut into sections, each folded into the new model on the build's
     // threads. Counts the reading threads made are over the builder's vocabulary: usable as they
     // are when the index kept it (a build from scratch without a shared model); other files are
     // read again.

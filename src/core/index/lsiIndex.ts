@@ -32,7 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
-import { TfidfNorms } from './search/tfidfCosine.js';
+import { TfidfNorms, TfidfNormsBuilder } from './search/tfidfCosine.js';
 import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
@@ -97,6 +97,8 @@ export class LsiIndex {
   private _meanNormSquared = -1;
   /** TF-IDF document norms (tfidfCosine.ts), made on first use, cleared on every edit. */
   private _tfidf: TfidfNorms | null = null;
+  /** The TF-IDF norms being built by prepare() in slices, until done or the documents change. */
+  private _tfidfBuilder: TfidfNormsBuilder | null = null;
   private _tfidfScores = new Float64Array(0);
   private _mainLanguage: Language | undefined;
   private _languagesPresent: readonly Language[] | undefined;
@@ -375,8 +377,7 @@ export class LsiIndex {
 
   /** One term's TF-IDF score for a file (tfidfCosine.ts, cosine), before division by the best; for explanations. */
   tfidfTermScore(termId: number, queryCount: number, tf: number, slot: number): number {
-    this._tfidf ??= new TfidfNorms(this._slots.map((s) => s?.terms ?? null));
-    return this._tfidf.termScore(termId, queryCount, tf, slot);
+    return this.tfidfNorms().termScore(termId, queryCount, tf, slot);
   }
 
   /**
@@ -489,9 +490,11 @@ export class LsiIndex {
   }
 
   /**
-   * Builds what searches need ahead of time (the 8-bit codes, then every term's BM25 postings),
-   * pausing between slices of about sliceMs; resolves true when all is ready, false when aborted.
-   * Cheap once done; later edits keep both up to date.
+   * Builds what searches need ahead of time (the 8-bit codes, then every term's BM25 postings,
+   * then the TF-IDF norms of Nearby's word match), pausing between slices of about sliceMs;
+   * resolves true when all is ready, false when aborted. Cheap once done; later edits keep the
+   * codes and postings up to date, while the norms (every file's depends on every idf) are built
+   * again by the next prepare() or, when none has run, by the first request that needs them.
    */
   async prepare(options: Partial<PrepareOptions> = {}): Promise<boolean> {
     const { sliceMs, signal, pause } = { ...DEFAULT_PREPARE_OPTIONS, ...options };
@@ -507,7 +510,10 @@ export class LsiIndex {
     const t0 = performance.now();
     const more = (): boolean => performance.now() - t0 < budgetMs;
     if (!this.fillCodes(more)) return false;
-    return this.settings.lexicalBlend > 0 ? this.bm25().prepare(more) : true;
+    if (this.settings.lexicalBlend <= 0) return true;
+    if (!this.bm25().prepare(more)) return false;
+    // The TF-IDF norms Nearby's (and an opt-in search's) word match divides by: built after BM25.
+    return this.ranking.nearbyTfidfShare > 0 || this.ranking.tfidfShare > 0 ? this.stepTfidf(more) !== null : true;
   }
 
   /** Codes the rows not coded yet while more() says so (at least one chunk); true when complete. */
@@ -577,19 +583,39 @@ export class LsiIndex {
 
   /** lexical = wl·lexical + wt·(TF-IDF score / its maximum) (tfidfCosine.ts); returns that maximum. */
   private addTfidf(q: DocTerms, lexical: Float64Array, wl: number, wt: number, slope: number, exclude = -1): number {
-    this._tfidf ??= new TfidfNorms(this._slots.map((s) => s?.terms ?? null));
+    const norms = this.tfidfNorms();
     if (this._tfidfScores.length !== lexical.length) this._tfidfScores = new Float64Array(lexical.length);
     const t = this._tfidfScores.fill(0);
     const bm25 = this.bm25();
-    this._tfidf.scoreInto(q, (term, fn) => bm25.forEachHolder(term, fn), t, { slope });
+    norms.scoreInto(q, (term, fn) => bm25.forEachHolder(term, fn), t, { slope });
     if (exclude >= 0) t[exclude] = 0;
     const max = divideByMax(t);
     blend(wl, lexical, wt, t, lexical);
     return max;
   }
 
+  /** True when the TF-IDF norms of the current files are built (by prepare() or a first request). */
+  get tfidfPrepared(): boolean {
+    return this._tfidf !== null;
+  }
+
+  /** The TF-IDF norms of the current files, finishing (or starting) their build when prepare() has not. */
+  private tfidfNorms(): TfidfNorms {
+    return this.stepTfidf(() => true)!;
+  }
+
+  /** Builds the TF-IDF norms while more() says so; null until complete. */
+  private stepTfidf(more: () => boolean): TfidfNorms | null {
+    if (this._tfidf) return this._tfidf;
+    this._tfidfBuilder ??= new TfidfNormsBuilder(this._slots.map((s) => s?.terms ?? null));
+    this._tfidf = this._tfidfBuilder.step(more);
+    if (this._tfidf) this._tfidfBuilder = null;
+    return this._tfidf;
+  }
+
   private forgetFocus(): void {
     this._tfidf = null;
+    this._tfidfBuilder = null;
     this._resultants.clear();
     this._meanNormSquared = -1;
   }

@@ -12,7 +12,7 @@
  */
 import { CancelledError } from '../errors.js';
 import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
-import { projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
+import { PROJECTION_BLOCK_BYTES, projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { copyCsr, type CsrMatrix } from '../matrix/sparse.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
@@ -88,8 +88,10 @@ export interface FoldManyOptions {
   readonly signal?: { readonly aborted: boolean };
   /** Files done so far (before each chunk), and the number of files. */
   readonly onProgress?: (done: number, total: number) => void;
-  /** Sections per sparse product. @default FOLD_CHUNK_SECTIONS */
+  /** Sections per sparse product. @default FOLD_CHUNK_SECTIONS (twice that when U_k goes in column blocks) */
   readonly chunkSections?: number;
+  /** Bytes of f64 term vectors handed to the executor at once. @default PROJECTION_BLOCK_BYTES */
+  readonly blockBytes?: number;
 }
 
 /** Sections per sparse product in foldCountedSections (bounds its executor memory; common practice, not tuned). */
@@ -99,8 +101,12 @@ export const FOLD_CHUNK_SECTIONS = 2048;
  * Folds the counted sections of many files, each section's vector the same as
  * projectTerms(model, its terms).vector: per chunk, the rows weighted as weightDocument does,
  * U_kᵀd̂ by the executor's sequential sparse product (each row adds its terms in order, as
- * projectTerms does), then the same axis scaling and normalisation. The f64 copy of U_k is made
- * once for all chunks.
+ * projectTerms does), then the same axis scaling and normalisation. U_k goes to the executor as
+ * f64 in blocks of columns of at most blockBytes, as projectMatrixRows does (each output column
+ * is the same sum whatever the block, so the bits do not change): one f64 copy of all of it
+ * (terms × k × 8 bytes: 83 MB on 51,651 terms at k = 200) would set the executor memory's high
+ * mark, which it keeps to the end of the build. When U_k fits in one block it is copied once for
+ * all chunks.
  */
 export function foldCountedSections(model: ConceptModel, files: readonly CountedSections[], options: FoldManyOptions = {}): FileSections[] {
   const ex = options.executor ?? createWasmExecutor() ?? serialExecutor;
@@ -108,18 +114,22 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
   const vectors = files.map((f) => new Float32Array(f.starts.length * k));
   const scoped = <T>(fn: () => T): T => (ex.scoped ? ex.scoped(fn) : fn());
   scoped(() => {
-    const tv = ex.float64(model.termVectors.length);
-    tv.set(model.termVectors);
+    const { columnOf, weights, scheme, axisScale } = model;
+    const terms = weights.length;
+    const width = Math.max(1, Math.min(k, Math.floor((options.blockBytes ?? PROJECTION_BLOCK_BYTES) / (8 * Math.max(1, terms)))));
+    const tv = ex.float64(terms * width);
+    if (width === k) tv.set(model.termVectors);
     const row = new Float64Array(k);
     // Which file and section each row of the chunk is.
-    const chunk = Math.max(1, Math.floor(options.chunkSections ?? FOLD_CHUNK_SECTIONS));
+    const chunk = Math.max(1, Math.floor(options.chunkSections ?? (width === k ? FOLD_CHUNK_SECTIONS : 2 * FOLD_CHUNK_SECTIONS)));
     const fileOf = new Int32Array(chunk);
     const sectionOf = new Int32Array(chunk);
+    // U_kᵀd̂ of the chunk's rows, gathered block by block (when U_k is split).
+    const acc = width === k ? undefined : new Float64Array(chunk * k);
     // The chunk's weighted rows (CSR), reused from chunk to chunk.
     const indptr = new Int32Array(chunk + 1);
     let indices = new Int32Array(1 << 16);
     let vals = new Float64Array(1 << 16);
-    const { columnOf, weights, scheme, axisScale } = model;
     let f = 0;
     let s = 0;
     for (;;) {
@@ -168,19 +178,29 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
       options.onProgress?.(f, files.length);
       const matrix: CsrMatrix = {
         rows,
-        cols: weights.length,
+        cols: terms,
         indptr: indptr.subarray(0, rows + 1),
         indices: indices.subarray(0, p),
         values: vals.subarray(0, p),
       };
       scoped(() => {
         const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
-        const acc = ex.float64(rows * k);
-        ex.spmm(m, tv, k, acc, true);
+        const part = ex.float64(rows * width);
+        if (acc) {
+          for (let c0 = 0; c0 < k; c0 += width) {
+            const w = Math.min(width, k - c0);
+            const tvw = tv.subarray(0, terms * w);
+            for (let t = 0; t < terms; t++) for (let j = 0; j < w; j++) tvw[t * w + j] = model.termVectors[t * k + c0 + j];
+            const pw = part.subarray(0, rows * w);
+            ex.spmm(m, tvw, w, pw, true);
+            for (let r = 0; r < rows; r++) for (let j = 0; j < w; j++) acc[r * k + c0 + j] = pw[r * w + j];
+          }
+        } else ex.spmm(m, tv, k, part, true);
+        const sums = acc ?? part;
         for (let r = 0; r < rows; r++) {
           let ss = 0;
           for (let c = 0; c < k; c++) {
-            row[c] = acc[r * k + c] * axisScale[c];
+            row[c] = sums[r * k + c] * axisScale[c];
             ss += row[c] * row[c];
           }
           const norm = Math.sqrt(ss);

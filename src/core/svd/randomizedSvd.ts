@@ -57,7 +57,7 @@ export interface RandomizedSvdOptions {
    * saves that memory at the build's peak).
    */
   factors?: 'f64' | 'f32';
-  /** Smallest budget in bytes for a big-side column block (default BIG_BLOCK_MIN_BYTES; tests set it low). */
+  /** Budget in bytes of a big-side column block (default BIG_BLOCK_BYTES; tests set it low). */
   bigBlockBytes?: number;
 }
 
@@ -100,21 +100,26 @@ export function randomizedSvd(
 }
 
 /**
- * Columns of the big side held at once: all l when a B × l block fits in
- * max(BIG_BLOCK_MIN_BYTES, the S × l basis), else the width that splits l into the fewest nearly
- * equal blocks that fit.
+ * Columns of the big side held at once: all l when a B × l block fits in the budget, else the
+ * width that splits l into the fewest nearly equal blocks that fit (at least 2 columns each).
+ * The budget is fixed, not scaled with the S × l basis: a block wider than the budget only saves
+ * passes over the sparse matrix, each of which reads it once, while every byte of the block stays
+ * in the executor's memory (which never shrinks) for the rest of the build.
  * The power iterations and the Rayleigh–Ritz step act column by column (AAᵀ maps column c of Q
- * to column c of Y), so splitting the columns changes no arithmetic, only how much of Z is held.
+ * to column c of Y), so splitting the columns changes no arithmetic, only how much of Z is held
+ * (and which seeded streams draw Ω: one per column block).
  */
-export function bigSideBlockWidth(S: number, B: number, l: number, minBytes = BIG_BLOCK_MIN_BYTES): number {
-  const budget = Math.max(minBytes, S * l * 8);
-  if (B * l * 8 <= budget) return l;
-  const blocks = Math.ceil(l / Math.max(2, Math.floor(budget / (B * 8))));
+export function bigSideBlockWidth(B: number, l: number, budgetBytes = BIG_BLOCK_BYTES): number {
+  if (B * l * 8 <= budgetBytes) return l;
+  const blocks = Math.ceil(l / Math.max(2, Math.floor(budgetBytes / (B * 8))));
   return Math.ceil(l / blocks);
 }
 
-/** Smallest budget for a big-side block (our choice: small enough to matter, large enough for SIMD rows). */
-export const BIG_BLOCK_MIN_BYTES = 32 * 1024 * 1024;
+/**
+ * Budget of a big-side column block (our choice, measured on the linux-source-6.1 Documentation
+ * matrix: see README, Speed and memory; small enough to matter, wide enough for SIMD rows).
+ */
+export const BIG_BLOCK_BYTES = 16 * 1024 * 1024;
 
 function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): SvdResult<Float64Array | Float32Array> {
   const maxRank = Math.min(m.rows, m.cols);
@@ -131,7 +136,7 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   const at = rowsSmall ? mt : mCopy;
   const S = a.rows;
   const B = a.cols;
-  const w = bigSideBlockWidth(S, B, l, o.bigBlockBytes);
+  const w = bigSideBlockWidth(B, l, o.bigBlockBytes);
   const totalPasses = 2 * o.powerIterations + 3;
   let passes = 0;
   const step = (): void => {
@@ -254,15 +259,19 @@ export function scatterColumns(src: Float64Array, dst: Float64Array, rows: numbe
 function crossRect(ex: MatrixExecutor, p: Float64Array, pw: number, y: Float64Array, yw: number, rows: number): Float64Array {
   if (pw === yw) return ex.cross(p, y, rows, pw);
   const wide = pw + yw;
-  const both = ex.float64(rows * wide);
-  for (let i = 0; i < rows; i++) {
-    both.set(p.subarray(i * pw, i * pw + pw), i * wide);
-    both.set(y.subarray(i * yw, i * yw + yw), i * wide + pw);
-  }
-  const g = ex.cross(both, both, rows, wide);
-  const out = new Float64Array(pw * yw);
-  for (let i = 0; i < pw; i++) for (let j = 0; j < yw; j++) out[i * yw + j] = g[i * wide + pw + j];
-  return out;
+  const run = (): Float64Array => {
+    const both = ex.float64(rows * wide);
+    for (let i = 0; i < rows; i++) {
+      both.set(p.subarray(i * pw, i * pw + pw), i * wide);
+      both.set(y.subarray(i * yw, i * yw + yw), i * wide + pw);
+    }
+    const g = ex.cross(both, both, rows, wide);
+    const out = new Float64Array(pw * yw);
+    for (let i = 0; i < pw; i++) for (let j = 0; j < yw; j++) out[i * yw + j] = g[i * wide + pw + j];
+    return out;
+  };
+  // [P Y] is given back after each call (the last column block meets every other one twice).
+  return ex.scoped ? ex.scoped(run) : run();
 }
 
 /** big (B × k) = Aᵀ small Σ⁻¹, computed over blocks of rows in `scratch` (executor memory). */

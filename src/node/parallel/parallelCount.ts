@@ -225,10 +225,13 @@ export function toDocTerms(ids: Int32Array, counts: Int32Array, length: number, 
 
 const SHIFT = 2 ** 21;
 let keys = new Float64Array(1024);
+/** A run's counts, copied aside when they are translated in place. */
+let runCounts = new Int32Array(1024);
 
 /**
  * Translates ids[from, to) (local ids) by tr and writes them, sorted ascending, with their counts
- * to termIds / out at the same positions.
+ * to termIds / out at the same positions. termIds may be ids itself, and out a Float32Array over
+ * the buffer of counts (in place: no second pair of arrays the size of the pack).
  */
 export function translateRun(
   ids: Int32Array,
@@ -245,9 +248,18 @@ export function translateRun(
   const k = keys.subarray(0, n);
   for (let i = 0; i < n; i++) k[i] = tr[ids[from + i]] * SHIFT + i;
   k.sort();
+  // Writing out in place overwrites counts still to be read: read them from a copy.
+  let src = counts;
+  let base = from;
+  if (out.buffer === counts.buffer) {
+    if (n > runCounts.length) runCounts = new Int32Array(Math.max(n, runCounts.length * 2));
+    runCounts.set(counts.subarray(from, to));
+    src = runCounts;
+    base = 0;
+  }
   for (let j = 0; j < n; j++) {
     const id = Math.floor(k[j] / SHIFT);
     termIds[from + j] = id;
-    out[from + j] = counts[from + k[j] - id * SHIFT];
+    out[from + j] = src[base + k[j] - id * SHIFT];
   }
 }

@@ -12,7 +12,6 @@ import { decodeUtf8 } from '../scanRead.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../scanTypes.js';
 import { FileReader } from './readTextSync.js';
 import { WordCounter, type PackedFile } from './wordCounter.js';
-import { mappedInt32 } from './wordTable.js';
 import { countThreadSections, type ThreadSections } from './threadSections.js';
 
 if (!parentPort) throw new Error('parallelWorker.js must be started as a worker thread.');
@@ -64,12 +63,12 @@ port.on('message', (msg: ToWorker) => {
     return;
   }
   if (msg.type === 'finish-counts') {
-    // The files' counts are copied, not transferred: the copies are made on the receiving thread,
-    // whose index keeps them, so nothing of this thread's malloc arena stays in use once it ends
-    // (a transferred buffer would, and with it the arena's freed memory around it). The sections'
-    // counts, dropped once the sections are folded, travel in mappings of their own (mappedInt32).
+    // The packs are translated in place and their buffers transferred: no second copy of them is
+    // made on either side. Packs past MAPPED_FROM_BYTES lie in mappings of their own (mappedInt32),
+    // so nothing of this thread's malloc arena stays in use once it ends.
     const reply = finishCounts(msg.translate);
-    port.postMessage(reply, [reply.sectionTermIds.buffer as ArrayBuffer, reply.sectionCounts.buffer as ArrayBuffer]);
+    const buffers = new Set([reply.termIds.buffer, reply.counts.buffer, reply.sectionTermIds.buffer, reply.sectionCounts.buffer]);
+    port.postMessage(reply, [...buffers] as ArrayBuffer[]);
     return;
   }
   try {
@@ -128,22 +127,20 @@ port.on('message', (msg: ToWorker) => {
   }
 });
 
-/** Every kept file's counts over final ids (each file's run sorted), and a fresh start. */
+/** Every kept file's counts over final ids (each file's run sorted), in place in the packs, and a fresh start. */
 function finishCounts(translate: Int32Array): FinalCounts {
-  const { ids, counts } = (counter ?? new WordCounter({})).drainPack();
-  const termIds = new Int32Array(ids.length);
-  const out = new Float32Array(ids.length);
-  for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, termIds, out);
+  const wc = counter ?? new WordCounter({});
+  const { ids, counts } = wc.drainPack();
+  const out = new Float32Array(counts.buffer, counts.byteOffset, counts.length);
+  for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, ids, out);
   kept = [];
-  const s = (counter ?? new WordCounter({})).drainSectionPack();
-  const sectionTermIds = mappedInt32(s.ids.length);
-  const sectionCounts = new Float32Array(mappedInt32(s.ids.length).buffer, 0, s.ids.length);
+  const s = wc.drainSectionPack();
+  const sectionCounts = new Float32Array(s.counts.buffer, s.counts.byteOffset, s.counts.length);
   for (const offsets of keptSections)
-    for (let i = 0; i + 1 < offsets.length; i++)
-      translateRun(s.ids, s.counts, offsets[i], offsets[i + 1], translate, sectionTermIds, sectionCounts);
+    for (let i = 0; i + 1 < offsets.length; i++) translateRun(s.ids, s.counts, offsets[i], offsets[i + 1], translate, s.ids, sectionCounts);
   keptSections = [];
   // The build's word tables are done with (the next build sends setup): let them go before the
   // SVD runs on this thread's share of the products.
   counter = undefined;
-  return { type: 'final-counts', termIds, counts: out, sectionTermIds, sectionCounts };
+  return { type: 'final-counts', termIds: ids, counts: out, sectionTermIds: s.ids, sectionCounts };
 }

@@ -559,7 +559,27 @@ export class IndexService {
     };
   }
 
+  /**
+   * After an edit: prepares the index again in the background (a slice at a time), so what the edit
+   * dropped (the TF-IDF norms of Nearby's word match) is not rebuilt by the next request. A
+   * preparation under way may have passed that step already: it is replaced.
+   */
+  private prepareAfterEdit(): void {
+    const index = this._index;
+    if (!index) return;
+    this._preparing?.controller.abort();
+    const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
+    const { controller, done } = prepareInBackground(index, { sliceMs, pause });
+    this._preparing = {
+      controller,
+      done: done.finally(() => {
+        if (this._preparing?.controller === controller) this._preparing = undefined;
+      }),
+    };
+  }
+
   private markDirty(): void {
+    this.prepareAfterEdit();
     this._dirty = true;
     clearTimeout(this._saveTimer);
     this._saveTimer = setTimeout(() => void this.save().catch(() => undefined), this._options.saveDelayMs);

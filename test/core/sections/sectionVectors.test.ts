@@ -117,20 +117,30 @@ describe('section vectors', () => {
     const total = counted.reduce((n, c) => n + c.starts.length, 0);
     expect(total).toBeGreaterThan(300);
     expect(counted.some((c) => c.starts.length === 0)).toBe(false);
-    // Products of the default size, and of 37 sections (chunks end inside files).
-    for (const [executor, chunkSections] of [
-      [serialExecutor, FOLD_CHUNK_SECTIONS],
-      [undefined, FOLD_CHUNK_SECTIONS],
-      [undefined, 37],
+    // Products of the default size, and of 37 sections (chunks end inside files); U_k whole, and
+    // in column blocks of 3 (the last one narrower unless 3 divides k).
+    const threeColumns = 8 * index.model.weights.length * 3;
+    const byRun: Float32Array[][] = [];
+    for (const [executor, chunkSections, blockBytes] of [
+      [serialExecutor, FOLD_CHUNK_SECTIONS, undefined],
+      [undefined, FOLD_CHUNK_SECTIONS, undefined],
+      [undefined, 37, undefined],
+      [undefined, 37, threeColumns],
+      [serialExecutor, undefined, threeColumns],
     ] as const) {
-      const folded = foldCountedSections(index.model, counted, { executor, chunkSections });
+      const folded = foldCountedSections(index.model, counted, { executor, chunkSections, blockBytes });
       docs.forEach((d, i) => {
         const want = index.sections.get(d.id)!;
         expect(folded[i].titles).toEqual(want.titles);
         expect(Array.from(folded[i].starts)).toEqual(Array.from(want.starts));
         expect(maxDiff(folded[i].vectors, want.vectors)).toBeLessThanOrEqual(1e-6);
       });
+      byRun.push(folded.map((f) => f.vectors));
     }
+    expect(index.model.k % 3).not.toBe(0);
+    // Column blocks change no arithmetic: the same bits as U_k whole, on either executor.
+    expect(byRun[3]).toEqual(byRun[2]);
+    expect(byRun[4]).toEqual(byRun[0]);
   });
 
   it('saves and reopens every section exactly; removing a file drops its sections', () => {

@@ -179,18 +179,19 @@ describe('randomizedSvd', () => {
     const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
     const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
     const l = 40;
-    // A budget of 1 byte leaves the S × l basis as the budget: blocks of about S/B of the columns.
-    const width = bigSideBlockWidth(Math.min(matrix.rows, matrix.cols), Math.max(matrix.rows, matrix.cols), l, 1);
+    // A budget the size of the S × l basis: blocks of about S/B of the columns.
+    const [S, B] = [Math.min(matrix.rows, matrix.cols), Math.max(matrix.rows, matrix.cols)];
+    const bigBlockBytes = S * l * 8;
+    const width = bigSideBlockWidth(B, l, bigBlockBytes);
     expect(width).toBeLessThan(l);
     const whole = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8 });
-    const blocked = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes: 1 });
-    const again = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes: 1 });
+    const blocked = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes });
+    const again = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes });
     expect(Buffer.from(blocked.v.buffer).equals(Buffer.from(again.v.buffer))).toBe(true);
     // Z's block (B × width) holds QW (S × k) with room to spare, so QW is put there: the same bits
     // on an executor that gives memory back by scopes (the default) and on one that does not.
-    const [S, B] = [Math.min(matrix.rows, matrix.cols), Math.max(matrix.rows, matrix.cols)];
     expect(B * width).toBeGreaterThanOrEqual(S * 20 + 20);
-    const plain = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes: 1, executor: serialExecutor });
+    const plain = randomizedSvd(matrix, { k: 20, oversampling: 20, powerIterations: 8, bigBlockBytes, executor: serialExecutor });
     expect(Buffer.from(plain.v.buffer).equals(Buffer.from(blocked.v.buffer))).toBe(true);
     expect(Buffer.from(plain.u.buffer).equals(Buffer.from(blocked.u.buffer))).toBe(true);
     const dense = Array.from({ length: matrix.rows }, () => new Array<number>(matrix.cols).fill(0));
@@ -215,10 +216,13 @@ describe('randomizedSvd', () => {
   });
 
   it('splits l into the fewest nearly equal column blocks that fit the budget', () => {
-    expect(bigSideBlockWidth(100, 1000, 300)).toBe(300); // 2.4 MB fits 32 MiB
-    // 52,872 × 300 × 8 bytes = 127 MB against max(32 MiB, 8,863 × 300 × 8 = 21 MB): 4 blocks of 75.
-    expect(bigSideBlockWidth(8863, 52872, 300)).toBe(75);
-    expect(bigSideBlockWidth(10, 1000, 7, 8 * 1000 * 3)).toBe(3); // 3 + 3 + 1 columns
+    expect(bigSideBlockWidth(1000, 300)).toBe(300); // 2.4 MB fits 16 MiB
+    // 51,651 × 300 × 8 bytes = 124 MB against 16 MiB: 40 columns fit, so 8 blocks of 38 (the last 34).
+    expect(bigSideBlockWidth(51651, 300)).toBe(38);
+    // The budget does not grow with the basis: 100,000 terms, l = 434 (the whole linux-source-6.1
+    // tree's k = 289): 20 columns fit, 22 blocks of 20 (the last 14).
+    expect(bigSideBlockWidth(100000, 434)).toBe(20);
+    expect(bigSideBlockWidth(1000, 7, 8 * 1000 * 3)).toBe(3); // 3 + 3 + 1 columns
   });
 });
 

@@ -1,7 +1,7 @@
-/** BatchQueue (how batches are handed to the tokenizing threads), checked by brute force. */
+/** BatchQueue (how batches are handed to the tokenizing threads) and translateRun, checked by brute force. */
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
-import { BatchQueue } from '../../../src/node/parallel/parallelCount.js';
+import { BatchQueue, translateRun } from '../../../src/node/parallel/parallelCount.js';
 
 describe('BatchQueue', () => {
   it('hands out every batch exactly once, whatever order the workers ask in', () => {
@@ -33,5 +33,47 @@ describe('BatchQueue', () => {
     // Worker 0's share is done; worker 1 has 6..9 left: 0 takes from the back.
     expect([q.next(0), q.next(1), q.next(0)]).toEqual([9, 6, 8]);
     expect([q.next(1), q.next(1)]).toEqual([7, -1]);
+  });
+});
+
+describe('translateRun', () => {
+  // Runs of distinct local ids with counts, a local → final id map (a random permutation).
+  const rnd = createRandom(11);
+  const terms = 500;
+  const tr = Int32Array.from({ length: terms }, (_, i) => i);
+  for (let i = terms - 1; i > 0; i--) {
+    const j = Math.floor(rnd.next() * (i + 1));
+    [tr[i], tr[j]] = [tr[j], tr[i]];
+  }
+  const runs = [0, 40, 41, 300, 300, 520];
+  const ids = new Int32Array(520);
+  const counts = new Int32Array(520);
+  for (let r = 0; r + 1 < runs.length; r++) {
+    const pick = [...tr.keys()].sort(() => rnd.next() - 0.5).slice(0, runs[r + 1] - runs[r]);
+    pick.forEach((id, i) => {
+      ids[runs[r] + i] = id;
+      counts[runs[r] + i] = 1 + Math.floor(rnd.next() * 3_000_000);
+    });
+  }
+  // Brute force: each run's (final id, count) pairs sorted by final id.
+  const expected = runs
+    .slice(0, -1)
+    .flatMap((from, r) =>
+      Array.from({ length: runs[r + 1] - from }, (_, i) => [tr[ids[from + i]], counts[from + i]]).sort((a, b) => a[0] - b[0]),
+    );
+
+  it('sorts each run by final id, counts following, into fresh arrays', () => {
+    const termIds = new Int32Array(520);
+    const out = new Float32Array(520);
+    for (let r = 0; r + 1 < runs.length; r++) translateRun(ids, counts, runs[r], runs[r + 1], tr, termIds, out);
+    expect(Array.from(termIds, (id, i) => [id, out[i]])).toEqual(expected);
+  });
+
+  it('gives the same in place (ids overwritten, counts rewritten as f32 over their own buffer)', () => {
+    const inIds = ids.slice();
+    const inCounts = counts.slice();
+    const out = new Float32Array(inCounts.buffer);
+    for (let r = 0; r + 1 < runs.length; r++) translateRun(inIds, inCounts, runs[r], runs[r + 1], tr, inIds, out);
+    expect(Array.from(inIds, (id, i) => [id, out[i]])).toEqual(expected);
   });
 });

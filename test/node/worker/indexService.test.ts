@@ -83,6 +83,32 @@ describe('IndexService background preparation', () => {
     }
   });
 
+  it('prepares again after an edit, so the TF-IDF norms the edit dropped are rebuilt in the background', async () => {
+    const slices = gate();
+    const service = new IndexService({ prepareSliceMs: 0, preparePause: slices.pause });
+    service.configure(config);
+    await service.load();
+    const run = async (preparing: Promise<boolean>): Promise<boolean> => {
+      let done = false;
+      void preparing.then(() => (done = true));
+      for (let i = 0; !done && i < 10_000; i++) {
+        slices.release();
+        await new Promise((resolve) => setImmediate(resolve));
+      }
+      return preparing;
+    };
+    expect(await run(service.preparing!)).toBe(true);
+    expect(service.index!.tfidfPrepared).toBe(true);
+    const doc = cisi.docs[0];
+    writeFileSync(join(folder, `${doc.id}.txt`), `${doc.text} retrieval retrieval`);
+    const report = await service.update([{ kind: 'changed', fsPath: join(folder, `${doc.id}.txt`) }]);
+    expect(report.folded).toEqual([`${doc.id}.txt`]);
+    expect(service.index!.tfidfPrepared).toBe(false);
+    expect(await run(service.preparing!)).toBe(true);
+    expect(service.index!.tfidfPrepared).toBe(true);
+    writeFileSync(join(folder, `${doc.id}.txt`), doc.text);
+  });
+
   it('stops preparing an index it no longer uses', async () => {
     const slices = gate();
     const service = new IndexService({ prepareSliceMs: 0, preparePause: slices.pause });

@@ -168,7 +168,8 @@ export function projectMatrixRows(
     const width = Math.max(1, Math.min(k, Math.floor(blockBytes / (8 * Math.max(1, terms)))));
     const tv = ex.float64(terms * width);
     const part = ex.float64(n * width);
-    const acc = new Float64Array(n * k);
+    // In the executor's memory: after an SVD, memory it has already grown to and no longer uses.
+    const acc = ex.float64(n * k);
     for (let c0 = 0; c0 < k; c0 += width) {
       const w = Math.min(width, k - c0);
       const tvw = tv.subarray(0, terms * w);

@@ -25,48 +25,102 @@ export const DEFAULT_TFIDF_OPTIONS: Readonly<TfidfOptions> = Object.freeze({ slo
 /** Calls fn(slot, tf) for every current document that holds the term. */
 export type HolderVisitor = (termId: number, fn: (slot: number, tf: number) => void) => void;
 
-function countFrequencies(docs: readonly (DocTerms | null)[], df: Int32Array): void {
-  for (const d of docs) if (d) for (let i = 0; i < d.termIds.length; i++) df[d.termIds[i]]++;
+/** 1 + ln c for the whole counts below this, looked up instead of computed (the same bits). */
+const LOG_TABLE_SIZE = 1024;
+const ONE_PLUS_LOG = Float64Array.from({ length: LOG_TABLE_SIZE }, (_, c) => (c > 0 ? 1 + Math.log(c) : 0));
+
+/** 1 + ln c, from the table when c is a small whole number. */
+function sublinear(c: number): number {
+  return c < LOG_TABLE_SIZE && c === (c | 0) ? ONE_PLUS_LOG[c] : 1 + Math.log(c);
 }
 
-function squaredNorms(docs: readonly (DocTerms | null)[], idf: Float64Array, out: Float64Array): void {
-  for (let j = 0; j < docs.length; j++) {
-    const d = docs[j];
-    if (!d) continue;
-    let ss = 0;
-    for (let i = 0; i < d.termIds.length; i++) {
-      const w = (1 + Math.log(d.counts[i])) * idf[d.termIds[i]];
-      ss += w * w;
-    }
-    out[j] = Math.sqrt(ss);
+/** Documents visited per check of the time budget while building norms in slices (common practice). */
+const DOCS_PER_STEP = 512;
+
+/**
+ * Builds a TfidfNorms in slices (prepare-time work that must not hold the thread): first the
+ * document frequencies, then the norms, each a chunk of documents at a time; the result has the
+ * same bits as building it at once.
+ */
+export class TfidfNormsBuilder {
+  private readonly docs: readonly (DocTerms | null)[];
+  private df: Int32Array | null = null;
+  private idf: Float64Array | null = null;
+  private norms: Float64Array | null = null;
+  private next = 0;
+  private documents = 0;
+  private result: TfidfNorms | null = null;
+
+  constructor(docs: readonly (DocTerms | null)[]) {
+    this.docs = docs;
+  }
+
+  /** Works while more() says so (at least one chunk); the norms once complete, else null. */
+  step(more: () => boolean): TfidfNorms | null {
+    const docs = this.docs;
+    do {
+      if (this.result) return this.result;
+      if (!this.df) {
+        let maxTerm = -1;
+        for (const d of docs) if (d) for (let i = 0; i < d.termIds.length; i++) if (d.termIds[i] > maxTerm) maxTerm = d.termIds[i];
+        this.df = new Int32Array(maxTerm + 1);
+        continue;
+      }
+      if (!this.idf) {
+        const df = this.df;
+        const end = Math.min(docs.length, this.next + DOCS_PER_STEP);
+        for (let j = this.next; j < end; j++) {
+          const d = docs[j];
+          if (!d) continue;
+          this.documents++;
+          for (let i = 0; i < d.termIds.length; i++) df[d.termIds[i]]++;
+        }
+        this.next = end;
+        if (end === docs.length) {
+          const n = this.documents;
+          this.idf = Float64Array.from(df, (f) => Math.log((1 + n) / (1 + f)) + 1);
+          this.norms = new Float64Array(docs.length);
+          this.next = 0;
+        }
+        continue;
+      }
+      const idf = this.idf;
+      const out = this.norms!;
+      const end = Math.min(docs.length, this.next + DOCS_PER_STEP);
+      for (let j = this.next; j < end; j++) {
+        const d = docs[j];
+        if (!d) continue;
+        let ss = 0;
+        for (let i = 0; i < d.termIds.length; i++) {
+          const w = sublinear(d.counts[i]) * idf[d.termIds[i]];
+          ss += w * w;
+        }
+        out[j] = Math.sqrt(ss);
+      }
+      this.next = end;
+      if (end === docs.length) {
+        let sum = 0;
+        for (let j = 0; j < docs.length; j++) if (docs[j]) sum += out[j];
+        this.result = new TfidfNorms(this.documents, idf, out, this.documents > 0 ? sum / this.documents : 0);
+      }
+    } while (more());
+    return this.result;
   }
 }
 
 /** Document frequencies, idf and norms of a set of documents (null slots are holes). */
 export class TfidfNorms {
-  readonly documents: number;
-  readonly idf: Float64Array;
-  readonly norms: Float64Array;
-  readonly meanNorm: number;
-
-  constructor(docs: readonly (DocTerms | null)[]) {
-    let maxTerm = -1;
-    let n = 0;
-    for (const d of docs) {
-      if (!d) continue;
-      n++;
-      for (let i = 0; i < d.termIds.length; i++) maxTerm = Math.max(maxTerm, d.termIds[i]);
-    }
-    const df = new Int32Array(maxTerm + 1);
-    countFrequencies(docs, df);
-    this.documents = n;
-    this.idf = Float64Array.from(df, (f) => Math.log((1 + n) / (1 + f)) + 1);
-    this.norms = new Float64Array(docs.length);
-    squaredNorms(docs, this.idf, this.norms);
-    let sum = 0;
-    for (let j = 0; j < docs.length; j++) if (docs[j]) sum += this.norms[j];
-    this.meanNorm = n > 0 ? sum / n : 0;
+  /** Builds the norms of docs at once (TfidfNormsBuilder builds them in slices). */
+  static of(docs: readonly (DocTerms | null)[]): TfidfNorms {
+    return new TfidfNormsBuilder(docs).step(() => true)!;
   }
+
+  constructor(
+    readonly documents: number,
+    readonly idf: Float64Array,
+    readonly norms: Float64Array,
+    readonly meanNorm: number,
+  ) {}
 
   /** One query term's share of a document's score in scoreInto (0 when the document lacks it). */
   termScore(termId: number, queryCount: number, tf: number, slot: number, options: Partial<TfidfOptions> = {}): number {

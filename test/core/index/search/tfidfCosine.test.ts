@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import type { DocTerms } from '../../../../src/core/counting/termCounts.js';
-import { TfidfNorms, type HolderVisitor } from '../../../../src/core/index/search/tfidfCosine.js';
+import { TfidfNorms, TfidfNormsBuilder, type HolderVisitor } from '../../../../src/core/index/search/tfidfCosine.js';
 import { fixturePath } from '../../../helpers/shared.js';
 
 // Real text: the first 12 CACM titles (test/fixtures/corpora/cacm), words = runs of a–z after
@@ -48,7 +48,7 @@ function scores(norms: TfidfNorms, query: DocTerms, slope?: number): Float64Arra
 }
 
 describe('TfidfNorms', () => {
-  const norms = new TfidfNorms(docs);
+  const norms = TfidfNorms.of(docs);
 
   it("ranks as scikit-learn's TF-IDF cosine: every score in the same proportion to the reference", () => {
     for (const [text, ref] of REFERENCE) {
@@ -94,9 +94,31 @@ describe('TfidfNorms', () => {
   });
 
   it('leaves holes out of the document count and the mean norm', () => {
-    const withHole = new TfidfNorms([...docs, null]);
+    const withHole = TfidfNorms.of([...docs, null]);
     expect(withHole.documents).toBe(docs.length);
     expect(withHole.meanNorm).toBeCloseTo(norms.meanNorm, 12);
     expect(withHole.norms[docs.length]).toBe(0);
+  });
+
+  it('built in slices (one step per call) has the same bits as built at once, fractional counts included', () => {
+    // Every title's counts, plus one weighted copy (counts 0.5 and 1,500: off the whole-number table).
+    const many = [...docs, null, { ...docs[0], counts: docs[0].counts.map((c, i) => (i % 2 ? c * 1500 : c / 2)) }];
+    const whole = TfidfNorms.of(many);
+    const builder = new TfidfNormsBuilder(many);
+    let steps = 1;
+    let sliced = builder.step(() => false);
+    for (; !sliced; steps++) sliced = builder.step(() => false);
+    expect(steps).toBeGreaterThan(1);
+    expect(sliced.documents).toBe(whole.documents);
+    expect([...sliced.idf]).toEqual([...whole.idf]);
+    expect([...sliced.norms]).toEqual([...whole.norms]);
+    expect(sliced.meanNorm).toBe(whole.meanNorm);
+    // Each norm is the plain formula's, Σ ((1 + ln tf)·idf)² under a square root.
+    many.forEach((d, j) => {
+      if (!d) return;
+      let ss = 0;
+      d.termIds.forEach((t, i) => (ss += ((1 + Math.log(d.counts[i])) * whole.idf[t]) ** 2));
+      expect(whole.norms[j]).toBe(Math.sqrt(ss));
+    });
   });
 });
