@@ -4,6 +4,8 @@
  *   npx esbuild bench/sectionLatency.ts --bundle --platform=node --format=esm --outfile=dist/sectionLatency.mjs \
  *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
  *   node dist/sectionLatency.mjs <index file> [queries] [--exact] [--cold] [--files]
+ * RANKS=file.jsonl writes the top 20 of every timed request (path, position, score), one line each, to
+ * compare rankings byte for byte between two builds.
  * FOCUS=p in the environment sets the search's query-word focus power (termFocus.ts; 0 = off).
  * PROFILE=file.cpuprofile records a CPU profile of the timed requests only (after loading, prepare
  * and the first request), for Chrome DevTools or `node bench/profileTop.mjs file.cpuprofile`.
@@ -57,6 +59,10 @@ const fileSearchCpu: number[] = [];
 const fileNearCpu: number[] = [];
 const fileSearch: number[] = [];
 const fileNear: number[] = [];
+const ranks: string[] = [];
+const keep = (what: string, hits: readonly { path: string; score: number; index?: number }[]): void => {
+  if (process.env.RANKS) ranks.push(JSON.stringify([what, hits.map((h) => [h.path, h.index ?? -1, h.score])]));
+};
 const cpuMs = (from: NodeJS.CpuUsage): number => {
   const d = process.cpuUsage(from);
   return (d.user + d.system) / 1000;
@@ -91,7 +97,7 @@ for (const [path, f] of pick) {
   let t = performance.now();
   let c = process.cpuUsage();
   try {
-    searchSections(index, title, { top: 20 });
+    keep(`search ${title}`, searchSections(index, title, { top: 20 }));
     search.push(performance.now() - t);
     searchCpu.push(cpuMs(c));
     products += index.sections.lastExact;
@@ -107,7 +113,7 @@ for (const [path, f] of pick) {
   }
   t = performance.now();
   c = process.cpuUsage();
-  nearbySections(index, path, f.starts[Math.floor(f.starts.length / 2)], { top: 20 });
+  keep(`nearby ${path}`, nearbySections(index, path, f.starts[Math.floor(f.starts.length / 2)], { top: 20 })?.hits ?? []);
   near.push(performance.now() - t);
   nearCpu.push(cpuMs(c));
   products += index.sections.lastExact;
@@ -116,7 +122,7 @@ for (const [path, f] of pick) {
   t = performance.now();
   c = process.cpuUsage();
   try {
-    index.search(title, { top: 20 });
+    keep(`file search ${title}`, index.search(title, { top: 20 }));
     fileSearch.push(performance.now() - t);
     fileSearchCpu.push(cpuMs(c));
   } catch {
@@ -124,10 +130,11 @@ for (const [path, f] of pick) {
   }
   t = performance.now();
   c = process.cpuUsage();
-  index.nearby(path, { top: 20 });
+  keep(`file nearby ${path}`, index.nearby(path, { top: 20 }));
   fileNear.push(performance.now() - t);
   fileNearCpu.push(cpuMs(c));
 }
+if (process.env.RANKS) writeFileSync(process.env.RANKS, ranks.join('\n') + '\n');
 if (profile) {
   const { profile: recorded } = await profile.post('Profiler.stop');
   writeFileSync(process.env.PROFILE!, JSON.stringify(recorded));

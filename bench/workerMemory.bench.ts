@@ -7,7 +7,9 @@
  * process's resident memory minus the host's own (measured before the worker starts) is the
  * worker's. Reported after the build and after the
  * reopen, each once the background preparation has settled (RSS unchanged for SETTLE_MS) and one
- * search and one nearby have run; the peak during each phase is sampled every SAMPLE_MS.
+ * search and one nearby have run, then once a section search and a section Nearby have run (the
+ * first trains and files the section lists on a large tree, src/core/sections/sectionLists.ts);
+ * the peak during each phase is sampled every SAMPLE_MS.
  * Goals (issue 13): ≤ 250 MB for the linux-source-6.1 Documentation folder, ≤ 1 GB for the tree.
  *
  * Run: npm run bench:worker-memory -- [docs|tree|<folder>] [--k N] (docs: the linux-source-6.1
@@ -114,9 +116,13 @@ async function main(): Promise<void> {
         const hits = await c.request('search', { query: 'memory allocation and power management', top: 10 });
         if (hits.length > 0) await c.request('nearby', { fsPath: hits[0].fsPath, top: 10 });
         const afterQueries = await settled();
+        const sections = await c.request('searchSections', { query: 'memory allocation and power management', top: 10 });
+        if (sections.length > 0) await c.request('nearbySections', { fsPath: sections[0].fsPath, line: sections[0].start, top: 10 });
+        const afterSections = await settled();
         console.log(
           `  ${label}: ${what} in ${seconds.toFixed(1)} s · worker RSS at the peak ${mb(peak - host)}, settled ${mb(steady - host)}, ` +
-            `after a search and a nearby ${mb(afterQueries - host)} (process ${mb(afterQueries)})`,
+            `after a search and a nearby ${mb(afterQueries - host)} (process ${mb(afterQueries)}), ` +
+            `then after a section search and a section Nearby ${mb(afterSections - host)}`,
         );
       } finally {
         await worker.terminate();

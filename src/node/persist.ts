@@ -6,15 +6,29 @@
  * file's size with the size the header implies before reading the rest, so junk of any size at
  * the index path costs one small read. Temporary files left by a process that died before its
  * rename are removed on the next save or load.
+ * The section vectors (most of a large tree's file) are not loaded: every byte is still checked
+ * (streamed through the checksum and the unit-length check in blocks, nothing kept), then the rows
+ * are read where they lie when a ranking needs them (sectionRowFile.ts), from a descriptor the
+ * index keeps open. LoadOptions.sectionRows 'memory' reads them into memory as before.
  */
 import { randomBytes } from 'node:crypto';
 import { constants, writeSync } from 'node:fs';
 import { mkdir, open, readdir, rename, rm, stat, type FileHandle } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
-import { CorruptIndexError, UndertoneError } from '../core/errors.js';
+import { CancelledError, CorruptIndexError, UndertoneError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { Checksum32 } from '../core/index/persistence/checksum.js';
-import { decodeIndex, headerExtent, INDEX_PREAMBLE_BYTES, planIndexFile, readIndexHeader } from '../core/index/persistence/serialize.js';
+import { checkSectionRows } from '../core/index/persistence/indexFileCheck.js';
+import {
+  decodeIndex,
+  decodeIndexWithRows,
+  headerExtent,
+  INDEX_PREAMBLE_BYTES,
+  planIndexFile,
+  readIndexHeader,
+  sectionRowsOf,
+} from '../core/index/persistence/serialize.js';
+import { FileSectionRows } from './sectionRowFile.js';
 import type { IndexSettings } from '../core/index/model/settings.js';
 import { describeFsError } from './scanRead.js';
 
@@ -254,9 +268,19 @@ export type LoadOutcome =
 export interface LoadOptions {
   /** Bytes per read call: few calls for a big file, without holding the thread pool for long. */
   readChunkBytes: number;
+  /**
+   * 'file': the section vectors stay in the file, read on demand (the descriptor stays open until
+   * `index.sections.closeRows()` or the index is garbage collected); 'memory': read with the rest.
+   */
+  sectionRows: 'file' | 'memory';
+  /** Stops the load between reads (loadIndex then throws CancelledError). */
+  signal?: AbortSignal;
 }
 
-export const DEFAULT_LOAD_OPTIONS: LoadOptions = { readChunkBytes: 32 * 1024 * 1024 };
+export const DEFAULT_LOAD_OPTIONS: LoadOptions = { readChunkBytes: 32 * 1024 * 1024, sectionRows: 'file' };
+
+/** Bytes of section rows checked at a time while loading (a scratch block, not kept; common practice). */
+export const ROW_CHECK_BYTES = 4 * 1024 * 1024;
 
 /** Opened without blocking (O_NONBLOCK: a FIFO does not wait for a writer); O_NOFOLLOW is not used, links to a file are fine. */
 const OPEN_FLAGS = constants.O_RDONLY | (constants.O_NONBLOCK ?? 0);
@@ -275,14 +299,9 @@ async function readAt(handle: FileHandle, buf: Uint8Array, position: number, len
 /** A file that cannot be an index (the reason is the whole story). */
 class NotAnIndexFile extends Error {}
 
-/**
- * Reads a checked index file into a buffer of its own (byte offset 0, so decodeIndex can view
- * its sections in place), in large chunks: fs.readFile reads big files 512 KiB at a time. Only
- * the header is read until it has been checked and the file's size matches it.
- */
-async function readChecked(path: string, chunk: number): Promise<Uint8Array> {
-  const handle = await open(path, OPEN_FLAGS);
-  try {
+/** Opens path and reads its checked header; the file's size matches it. */
+async function openChecked(handle: FileHandle, path: string, chunk: number) {
+  {
     const st = await handle.stat();
     if (st.isDirectory()) throw new NotAnIndexFile(`${path} is a folder, not an index file`);
     if (!st.isFile()) throw new NotAnIndexFile(`${path} is not a regular file (a FIFO, socket or device)`);
@@ -297,6 +316,19 @@ async function readChecked(path: string, chunk: number): Promise<Uint8Array> {
     const header = readIndexHeader(head);
     const expected = start + header.payloadBytes;
     if (size !== expected) throw new CorruptIndexError(`index file is ${size} bytes, expected ${expected} (truncated or padded)`);
+    return { header, start, size };
+  }
+}
+
+/**
+ * Reads a checked index file into a buffer of its own (byte offset 0, so decodeIndex can view
+ * its sections in place), in large chunks: fs.readFile reads big files 512 KiB at a time. Only
+ * the header is read until it has been checked and the file's size matches it.
+ */
+async function readChecked(path: string, chunk: number): Promise<Uint8Array> {
+  const handle = await open(path, OPEN_FLAGS);
+  try {
+    const { size } = await openChecked(handle, path, chunk);
     const buf = new Uint8Array(new ArrayBuffer(size));
     const got = await readAt(handle, buf, 0, size, chunk);
     return got === size ? buf : buf.subarray(0, got);
@@ -305,22 +337,77 @@ async function readChecked(path: string, chunk: number): Promise<Uint8Array> {
   }
 }
 
-/** Loads a saved index; a missing, damaged, truncated, older or misplaced file is reported, never trusted. */
+/**
+ * Reads a checked index file up to its section vectors into a buffer of its own, and checks the
+ * rows after it block by block (payload checksum, unit length) without keeping them; returns that
+ * head and a reader of the rows that owns the open descriptor.
+ */
+async function readCheckedHead(
+  path: string,
+  chunk: number,
+  signal: AbortSignal | undefined,
+): Promise<{ head: Uint8Array; rows: FileSectionRows; size: number }> {
+  const handle = await open(path, OPEN_FLAGS);
+  let kept = false;
+  try {
+    const { header, start, size } = await openChecked(handle, path, chunk);
+    const { at, rows, k } = sectionRowsOf(header, start);
+    const head = new Uint8Array(new ArrayBuffer(at));
+    if ((await readAt(handle, head, 0, at, chunk)) < at) throw new CorruptIndexError('index file is shorter than its header says');
+    const sum = new Checksum32().update(head.subarray(start));
+    const rowBytes = 4 * k;
+    const per = Math.max(1, Math.floor(ROW_CHECK_BYTES / Math.max(1, rowBytes)));
+    const block = new Float32Array(per * Math.max(1, k));
+    const bytes = new Uint8Array(block.buffer);
+    for (let r = 0; r < rows; r += per) {
+      if (signal?.aborted) throw new CancelledError();
+      const m = Math.min(per, rows - r);
+      const len = m * rowBytes;
+      if ((await readAt(handle, bytes, at + r * rowBytes, len, chunk)) < len)
+        throw new CorruptIndexError('index file is shorter than its header says');
+      sum.update(bytes.subarray(0, len));
+      checkSectionRows(block, m, k);
+    }
+    // The padding after the last row (to 8 bytes) is payload too.
+    const tailAt = at + rows * rowBytes;
+    const tail = bytes.subarray(0, size - tailAt);
+    if ((await readAt(handle, tail, tailAt, tail.length, chunk)) < tail.length)
+      throw new CorruptIndexError('index file is shorter than its header says');
+    sum.update(tail);
+    if (sum.digest() !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+    kept = true;
+    return { head, rows: new FileSectionRows(handle, path, at, rows, k), size };
+  } finally {
+    if (!kept) await handle.close();
+  }
+}
+
+/**
+ * Loads a saved index; a missing, damaged, truncated, older or misplaced file is reported, never
+ * trusted. With sectionRows 'file' (the default) the index reads its section vectors from the file
+ * it was loaded from (see LoadOptions).
+ * @throws CancelledError when options.signal stops it.
+ */
 export async function loadIndex(path: string, options: Partial<LoadOptions> = {}): Promise<LoadOutcome> {
   const chunk = Math.max(1, Math.floor(options.readChunkBytes ?? DEFAULT_LOAD_OPTIONS.readChunkBytes));
+  const inFile = (options.sectionRows ?? DEFAULT_LOAD_OPTIONS.sectionRows) === 'file';
   await removeStaleTemporaries(path);
-  let bytes: Uint8Array;
+  let read: { head: Uint8Array; rows?: FileSectionRows; size?: number };
   try {
-    bytes = await readChecked(path, chunk);
+    read = inFile ? await readCheckedHead(path, chunk, options.signal) : { head: await readChecked(path, chunk) };
   } catch (err) {
+    if (err instanceof CancelledError) throw err;
     if (err instanceof CorruptIndexError || err instanceof NotAnIndexFile) return { status: 'damaged', reason: `${path}: ${err.message}` };
     const code = (err as NodeJS.ErrnoException).code;
     if (code === 'ENOENT') return { status: 'missing' };
     return { status: 'damaged', reason: `cannot read ${path}: ${describeFsError(err)}` };
   }
+  const { head, rows, size } = read;
   try {
-    return { status: 'ok', index: decodeIndex(bytes), bytes: bytes.length };
+    const index = rows ? decodeIndexWithRows(head, rows) : decodeIndex(head);
+    return { status: 'ok', index, bytes: size ?? head.length };
   } catch (err) {
+    rows?.close();
     if (err instanceof CorruptIndexError) return { status: 'damaged', reason: `${path}: ${err.message}` };
     throw err;
   }

@@ -36,21 +36,23 @@ export function placeSectionTrail(
   k: number,
   options: Partial<QueryPlacementOptions> = {},
 ): TrailPoint[] {
-  const n = sections.starts.length;
-  if (sections.ends.length !== n || sections.titles.length !== n || sections.vectors.length !== n * k)
-    throw new InvalidInputError(`the sections disagree in size (${n} starts, ${sections.vectors.length} numbers for k = ${k})`);
+  // Each field once: a reopened index makes them afresh on each access (sectionRows.ts).
+  const { starts, ends, titles, vectors } = sections;
+  const n = starts.length;
+  if (ends.length !== n || titles.length !== n || vectors.length !== n * k)
+    throw new InvalidInputError(`the sections disagree in size (${n} starts, ${vectors.length} numbers for k = ${k})`);
   const out: TrailPoint[] = [];
   for (let i = 0; i < n; i++) {
-    const v = sections.vectors.subarray(i * k, (i + 1) * k);
+    const v = vectors.subarray(i * k, (i + 1) * k);
     let ss = 0;
     for (let c = 0; c < k; c++) ss += v[c] * v[c];
     if (!(ss > 0)) continue;
     const q = projectQuick(layouts.quick, v);
     const f = layouts.faithful ? placeQueryFaithful(layouts.faithful, v, options) : null;
     out.push({
-      title: sections.titles[i],
-      start: sections.starts[i],
-      end: sections.ends[i],
+      title: titles[i],
+      start: starts[i],
+      end: ends[i],
       quick: { x: q.x, y: q.y },
       faithful: f ? { x: f.x, y: f.y } : null,
     });

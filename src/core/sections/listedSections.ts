@@ -58,8 +58,9 @@ export class ListedSections {
     this._starts = new Int32Array(lists.lists + 1);
     for (const [path, f] of entries) {
       const l = new Int32Array(f.starts.length);
+      const v = f.vectors; // once: stored rows are read on each access
       for (let i = 0; i < l.length; i++) {
-        l[i] = lists.file(f.vectors, i * k);
+        l[i] = lists.file(v, i * k);
         this._starts[l[i] + 1]++;
       }
       this._fileNo.set(path, this._files.length);
@@ -85,7 +86,15 @@ export class ListedSections {
     this._used = n;
     this._extra = Array.from({ length: lists.lists }, () => []);
     this._codes = ConceptCodes.empty(k, n + 64);
-    if (this._codes) {
+    if (this._codes && this._files.some((f) => f?.stored)) {
+      // Stored rows: each file's rows read once, coded row by row into their slots (a row's code
+      // depends on that row alone, so the codes equal the block-wise ones).
+      this._files.forEach((f, no) => {
+        const v = f!.vectors;
+        const slots = this._fileSlots[no]!;
+        for (let i = 0; i < slots.length; i++) this._codes!.setRowsAt(slots[i], v.subarray(i * k, (i + 1) * k), 1);
+      });
+    } else if (this._codes) {
       const block = new Float32Array(CODE_ROWS * k);
       for (let s = 0; s < n; s += CODE_ROWS) {
         const m = Math.min(CODE_ROWS, n - s);
@@ -151,13 +160,14 @@ export class ListedSections {
     }
     this._codes?.ensureCapacity(this._used + n);
     const slots = new Int32Array(n);
+    const v = f.vectors; // once: stored rows are read on each access
     for (let i = 0; i < n; i++) {
       const s = this._used++;
       slots[i] = s;
       this._slotFile[s] = no;
       this._slotIndex[s] = i;
-      this._extra[this.lists.file(f.vectors, i * k)].push(s);
-      this._codes?.setRowsAt(s, f.vectors.subarray(i * k, (i + 1) * k), 1);
+      this._extra[this.lists.file(v, i * k)].push(s);
+      this._codes?.setRowsAt(s, v.subarray(i * k, (i + 1) * k), 1);
     }
     this._fileSlots.push(slots);
   }

@@ -140,7 +140,8 @@ export function nearbySections(
   const at = index.sections.at(path, line);
   if (!at) return null;
   const f = index.sections.get(path)!;
-  const from: SectionHit = { path, index: at.index, start: f.starts[at.index], end: f.ends[at.index], title: f.titles[at.index], score: 1 };
+  const [starts, ends, titles] = [f.starts, f.ends, f.titles]; // once: a reopened file's are made on each access
+  const from: SectionHit = { path, index: at.index, start: starts[at.index], end: ends[at.index], title: titles[at.index], score: 1 };
   const filter = options.filter;
   const hits = index.sections.rank(at.vector, top, (p) => p !== path && (!filter || filter(p)), perFile);
   return { from, hits };

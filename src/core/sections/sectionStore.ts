@@ -14,11 +14,15 @@
  * lists plus those of files the caller names (a search's best word matches). Edits file the new
  * sections under the trained centroids; the centroids are trained again when the count has doubled
  * or halved since.
+ * Files reopened from a saved index keep their f32 rows in the file (FileSections.stored,
+ * ./sectionRows.ts): the exact products read just the rows they multiply (runs of nearby rows in
+ * one read), the same numbers, so the same rankings.
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
 import { insertDescending, ListedSections } from './listedSections.js';
 import { SectionLists, type SectionListsOptions } from './sectionLists.js';
+import { RowScratch, StoredFileSections, type SectionRowReader } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
 
 /** A section found by a search or a nearby question. */
@@ -46,6 +50,11 @@ export const SCREEN_MIN_SECTIONS = 4096;
 export const SECTION_LISTS_FROM = 65536;
 /** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
 const SCREEN_SLACK = 1e-9;
+/**
+ * Stored rows up to this many apart are read in one run (the rows between are read and skipped:
+ * a few KiB more per read against one call less; common practice, not tuned).
+ */
+const ROW_GAP = 8;
 
 interface Screen {
   readonly codes: ConceptCodes;
@@ -66,6 +75,9 @@ export class SectionStore {
   private _trainedAt = 0;
   /** The sections filed under the lists (undefined: not built since the lists were trained or rebuilt). */
   private _listed: ListedSections | undefined;
+  private readonly _scratch: RowScratch;
+  /** The sources of stored rows of the files set so far (closed by closeRows). */
+  private readonly _readers = new Set<SectionRowReader>();
 
   /**
    * @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS).
@@ -77,7 +89,18 @@ export class SectionStore {
     private readonly screenFrom = SCREEN_MIN_SECTIONS,
     private readonly listsFrom = SECTION_LISTS_FROM,
     private listOptions: Partial<SectionListsOptions> = {},
-  ) {}
+  ) {
+    this._scratch = new RowScratch(k);
+  }
+
+  /**
+   * Closes the sources of stored rows (the saved index file): for the owner of an index that is
+   * being replaced. Later reads of those rows throw SectionRowsClosedError.
+   */
+  closeRows(): void {
+    for (const r of this._readers) r.close();
+    this._readers.clear();
+  }
 
   /** Other options for the lists (trained again at the next ranking that uses them). */
   configureLists(options: Partial<SectionListsOptions>): void {
@@ -106,8 +129,12 @@ export class SectionStore {
 
   set(path: string, sections: FileSections): void {
     const n = sections.starts.length;
-    if (sections.ends.length !== n || sections.titles.length !== n || sections.vectors.length !== n * this.k)
+    const stored = sections.stored;
+    // Stored rows are checked without reading them (vectors would read them all).
+    const sized = stored ? stored.reader.k === this.k && stored.first + n <= stored.reader.rows : sections.vectors.length === n * this.k;
+    if (sections.ends.length !== n || sections.titles.length !== n || !sized)
       throw new InvalidInputError(`the sections of "${path}" disagree in size (k = ${this.k})`);
+    if (stored) this._readers.add(stored.reader);
     this.delete(path);
     this._files.set(path, sections);
     this._count += n;
@@ -130,11 +157,14 @@ export class SectionStore {
   /** The section of a file holding a zero-based line (the last one that starts at or before it), or null. */
   at(path: string, line: number): { index: number; vector: Float32Array } | null {
     const f = this._files.get(path);
-    if (!f || f.starts.length === 0) return null;
+    if (!f) return null;
+    const [starts, ends] = [f.starts, f.ends]; // once: a reopened file's are made on each access
+    if (starts.length === 0) return null;
     let best = 0;
-    for (let i = 0; i < f.starts.length; i++) if (f.starts[i] <= line && line < f.ends[i]) best = i;
-    if (line >= f.ends[f.starts.length - 1]) best = f.starts.length - 1;
-    return { index: best, vector: f.vectors.subarray(best * this.k, (best + 1) * this.k) };
+    for (let i = 0; i < starts.length; i++) if (starts[i] <= line && line < ends[i]) best = i;
+    if (line >= ends[starts.length - 1]) best = starts.length - 1;
+    const { block, at } = this._scratch.rows(f, best, 1);
+    return { index: best, vector: block.slice(at, at + this.k) };
   }
 
   /** A file's section with the highest cosine with q, or null when the file has none. */
@@ -143,8 +173,9 @@ export class SectionStore {
     if (!f || f.starts.length === 0) return null;
     let at = 0;
     let top = Number.NEGATIVE_INFINITY;
+    const { block, at: base } = this._scratch.rows(f, 0, f.starts.length);
     for (let i = 0; i < f.starts.length; i++) {
-      const s = dot(f.vectors, i * this.k, q, this.k);
+      const s = dot(block, base + i * this.k, q, this.k);
       if (s > top) [top, at] = [s, i];
     }
     return this.hit(path, f, at, top);
@@ -235,13 +266,12 @@ export class SectionStore {
   lists(): SectionLists | null {
     if (this._count === 0) return null;
     if (this._lists) return this._lists;
-    const blocks: Float32Array[] = [];
+    const blocks: FileSections[] = [];
     const firsts = new Int32Array(this._files.size + 1);
     for (const f of this._files.values()) {
-      blocks.push(f.vectors);
+      blocks.push(f);
       firsts[blocks.length] = firsts[blocks.length - 1] + f.starts.length;
     }
-    const k = this.k;
     const row = (j: number): { block: Float32Array; at: number } => {
       let lo = 0;
       let hi = blocks.length - 1;
@@ -250,9 +280,9 @@ export class SectionStore {
         if (firsts[mid] <= j) lo = mid;
         else hi = mid - 1;
       }
-      return { block: blocks[lo], at: (j - firsts[lo]) * k };
+      return this._scratch.rows(blocks[lo], j - firsts[lo], 1);
     };
-    this._lists = SectionLists.train(k, { n: this._count, row }, this.listOptions);
+    this._lists = SectionLists.train(this.k, { n: this._count, row }, this.listOptions);
     this._trainedAt = this._count;
     this._listed = undefined;
     return this._lists;
@@ -293,15 +323,35 @@ export class SectionStore {
     let floor = Number.NEGATIVE_INFINITY;
     this._lastExact = 0;
     if (top <= 0) return [];
+    const k = this.k;
     for (const { path, f, at } of list) {
       let taken = 0;
       const scores: { i: number; score: number }[] = [];
       const n = at ? at.length : f.starts.length;
       this._lastExact += n;
-      for (let x = 0; x < n; x++) {
-        const i = at ? at[x] : x;
-        const s = dot(f.vectors, i * this.k, q, this.k);
-        if (s > floor || heap.length < top) scores.push({ i, score: s });
+      if (!f.stored) {
+        const v = f.vectors;
+        for (let x = 0; x < n; x++) {
+          const i = at ? at[x] : x;
+          const s = dot(v, i * k, q, k);
+          if (s > floor || heap.length < top) scores.push({ i, score: s });
+        }
+      } else {
+        // Runs of picked rows no more than ROW_GAP apart, each read once.
+        for (let x = 0; x < n;) {
+          let y = x + 1;
+          if (at) while (y < n && at[y] - at[y - 1] <= ROW_GAP) y++;
+          else y = n;
+          const from = at ? at[x] : x;
+          const to = (at ? at[y - 1] : y - 1) + 1;
+          const { block, at: base } = this._scratch.rows(f, from, to - from);
+          for (let z = x; z < y; z++) {
+            const i = at ? at[z] : z;
+            const s = dot(block, base + (i - from) * k, q, k);
+            if (s > floor || heap.length < top) scores.push({ i, score: s });
+          }
+          x = y;
+        }
       }
       scores.sort((a, b) => b.score - a.score || a.i - b.i);
       for (const { i, score } of scores) {
@@ -330,7 +380,9 @@ export class SectionStore {
       firsts[files.length] = n;
       paths.push(path);
       files.push(f);
-      rows.set(f.vectors, n * this.k);
+      // Stored rows straight into place (no array a file).
+      if (f.stored) f.stored.reader.read(f.stored.first, f.starts.length, rows, n * this.k);
+      else rows.set(f.vectors, n * this.k);
       n += f.starts.length;
     }
     firsts[files.length] = n;
@@ -340,6 +392,7 @@ export class SectionStore {
   }
 
   private hit(path: string, f: FileSections, i: number, score: number): SectionHit {
+    if (f instanceof StoredFileSections) return { path, index: i, ...f.section(i), score };
     return { path, index: i, start: f.starts[i], end: f.ends[i], title: f.titles[i], score };
   }
 }

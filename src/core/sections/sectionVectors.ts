@@ -20,6 +20,7 @@ import { localWeight } from '../weighting/termWeighting.js';
 import { tokenize, type TokenizeOptions } from '../text/tokenize.js';
 import { splitLines, splitSections } from './splitSections.js';
 import type { Section, SectionOptions } from './types.js';
+import type { StoredRows } from './sectionRows.js';
 
 /** The sections of one file: parallel arrays, f32 vectors (k per section). */
 export interface FileSections {
@@ -28,8 +29,13 @@ export interface FileSections {
   /** Zero-based line after each section's last. */
   readonly ends: Int32Array;
   readonly titles: readonly string[];
-  /** Unit concept vectors, k per section (zeros for a section without a model term). */
+  /**
+   * Unit concept vectors, k per section (zeros for a section without a model term). With `stored`,
+   * a fresh copy read from there on each access.
+   */
   readonly vectors: Float32Array;
+  /** Where the vectors stay when they are not held in memory (a reopened index: sectionRows.ts). */
+  readonly stored?: StoredRows;
 }
 
 export interface FoldContext {

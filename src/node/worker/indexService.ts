@@ -541,6 +541,9 @@ export class IndexService {
     this._preparing = undefined;
     // What was computed for the index going away (topic tree, overlaps, map) is dropped with it.
     if (index !== this._index) this._insights.forget();
+    // The index going away gives back the file its section rows were read from (a reopened index
+    // keeps it open: a rebuild renamed a new file over it, or another file was loaded).
+    if (index !== this._index) this._index?.sections.closeRows();
     this._index = index;
     if (!index) return;
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;

@@ -3,6 +3,7 @@ import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
+import { SectionRowsClosedError } from '../../../src/core/sections/sectionRows.js';
 import { loadIndex } from '../../../src/node/persist.js';
 import { IndexService } from '../../../src/node/worker/indexService.js';
 import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
@@ -120,6 +121,23 @@ describe('IndexService background preparation', () => {
     slices.release();
     expect(await first).toBe(false);
     expect(service.preparing).toBeDefined();
+  });
+
+  it('closes the section rows of a reopened index it replaces, and reads those of the new one', async () => {
+    const service = new IndexService({ preparePause: gate().pause });
+    service.configure(config);
+    await service.load();
+    const old = service.index!;
+    const path = old.paths().find((p) => old.sections.get(p)?.stored)!;
+    expect(path).toBeDefined(); // the reopened sections read their rows from the saved file
+    const q = old.projectText(cisi.queries[0].text);
+    const rankedBefore = old.sections.rankExact(q, 5);
+    expect(rankedBefore.length).toBe(5);
+    await service.load(); // a second load puts a new index in use
+    expect(() => old.sections.rankExact(q, 5)).toThrow(SectionRowsClosedError);
+    expect(service.index).not.toBe(old);
+    expect(service.index!.sections.rankExact(q, 5).map((h) => h.score)).toEqual(rankedBefore.map((h) => h.score));
+    expect(service.index!.sections.best(path, q)?.path).toBe(path);
   });
 });
 

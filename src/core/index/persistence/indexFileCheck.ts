@@ -260,8 +260,10 @@ export interface PayloadParts {
   readonly k: number;
   readonly sectionIndptr: Int32Array;
   readonly sectionLines: Int32Array;
-  readonly sectionTitles: readonly string[];
-  readonly sectionVectors: Float32Array;
+  /** The titles, or where each starts in their bytes (one offset more than titles). */
+  readonly sectionTitles: readonly string[] | Int32Array;
+  /** Absent when the rows stay in the file: checked while they were streamed (checkSectionRows). */
+  readonly sectionVectors?: Float32Array;
 }
 
 const bad = (what: string): never => {
@@ -327,13 +329,26 @@ function checkSections(p: PayloadParts): void {
   const ip = p.sectionIndptr;
   if (ip[0] !== 0 || ip[n] !== count) bad('sectionIndptr does not span the sections');
   for (let j = 0; j < n; j++) if (!(ip[j + 1] >= ip[j])) bad('sectionIndptr goes backwards');
-  if (p.sectionTitles.length !== count) bad('there are not as many section titles as sections');
+  const titles = p.sectionTitles instanceof Int32Array ? p.sectionTitles.length - 1 : p.sectionTitles.length;
+  if (titles !== count) bad('there are not as many section titles as sections');
   for (let i = 0; i < count; i++) {
     const start = p.sectionLines[2 * i];
     const end = p.sectionLines[2 * i + 1];
     if (!(start >= 0 && end > start)) bad('a section ends before it starts');
+  }
+  if (p.sectionVectors) checkSectionRows(p.sectionVectors, count, p.k);
+}
+
+/**
+ * The first `rows` section vectors of v (k numbers each) are of unit length, or zero for a section
+ * without a model term (float32 rounding allows a little). Run on the whole section, or on
+ * consecutive blocks of whole rows of it as they are read.
+ * @throws CorruptIndexError
+ */
+export function checkSectionRows(v: Float32Array, rows: number, k: number): void {
+  for (let i = 0; i < rows; i++) {
     let ss = 0;
-    for (let c = i * p.k; c < (i + 1) * p.k; c++) ss += p.sectionVectors[c] * p.sectionVectors[c];
+    for (let c = i * k; c < (i + 1) * k; c++) ss += v[c] * v[c];
     if (!(ss <= 1 + 1e-3) || (ss > 1e-6 && ss < 1 - 1e-3)) bad('a section vector is not of unit length');
   }
 }

@@ -14,6 +14,9 @@
  * the vocabulary is saved as UTF-8 bytes with term offsets (ids in byte order, looked up by
  * binary search; see termCounts.ts) and every aligned section becomes a view of the given bytes,
  * so the decoded index shares their memory: hand decodeIndex a buffer nobody else writes to.
+ * The section vectors come last in the payload, so a reader can keep them in the file:
+ * decodeIndexWithRows takes the bytes before them, checked by the caller while it streamed the
+ * rest, and gives each file's sections their rows in a SectionRowReader (../../sections/sectionRows.ts).
  */
 import { CorruptIndexError } from '../../errors.js';
 import { checksum32 } from './checksum.js';
@@ -32,6 +35,7 @@ import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import { Vocabulary } from '../../counting/termCounts.js';
 import { LANGUAGES } from '../../text/languages.js';
 import { withLanguage } from '../../text/detectLanguage.js';
+import { StoredFileSections, type SectionRowReader } from '../../sections/sectionRows.js';
 
 /** 4: each file's sections (line ranges, titles, concept vectors) follow the file vectors. */
 export const INDEX_FORMAT_VERSION = 4;
@@ -222,10 +226,11 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
   const total = indptr[live.length];
   const titles = files.flatMap((f) => (f ? f.titles.map((t) => t.replace(/\0/g, ' ') || '…') : []));
   const lines = (f: NonNullable<(typeof files)[number]>): Int32Array => {
-    const out = new Int32Array(2 * f.starts.length);
-    for (let i = 0; i < f.starts.length; i++) {
-      out[2 * i] = f.starts[i];
-      out[2 * i + 1] = f.ends[i];
+    const [starts, ends] = [f.starts, f.ends]; // once: a reopened file's are made on each access
+    const out = new Int32Array(2 * starts.length);
+    for (let i = 0; i < starts.length; i++) {
+      out[2 * i] = starts[i];
+      out[2 * i + 1] = ends[i];
     }
     return out;
   };
@@ -317,6 +322,38 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     throw new CorruptIndexError(`index file is ${bytes.length} bytes, expected ${start + header.payloadBytes} (truncated or padded)`);
   const payload = bytes.subarray(start);
   if (checksum32(payload) !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+  return decodeChecked(header, payload, undefined);
+}
+
+/** The section vectors' entry of a checked header: where their rows start in the file, and how many. */
+export function sectionRowsOf(
+  header: CheckedHeader,
+  fileStart: number,
+): { readonly at: number; readonly rows: number; readonly k: number } {
+  const e = header.sections.find((s) => s.name === 'sectionVectors')!;
+  const k = header.model.k;
+  return { at: fileStart + e.offset, rows: k > 0 ? e.length / k : 0, k };
+}
+
+/**
+ * Decodes a file whose section vectors stay where they are: `head` is the file up to their first
+ * row (sectionRowsOf), `rows` reads them. The caller has checked what decodeIndex checks over the
+ * whole file while reading it (header, length, payload checksum, and the rows' unit length with
+ * checkSectionRows); this checks the rest of the payload's structure.
+ * @throws CorruptIndexError
+ */
+export function decodeIndexWithRows(head: Uint8Array, rows: SectionRowReader): LsiIndex {
+  const header = readIndexHeader(head);
+  const start = headerExtent(head);
+  const { at, rows: count, k } = sectionRowsOf(header, start);
+  if (head.length !== at) throw new CorruptIndexError(`index head is ${head.length} bytes, expected ${at} (a reader bug)`);
+  if (rows.rows !== count || rows.k !== k)
+    throw new CorruptIndexError(`the section rows reader holds ${rows.rows} rows, expected ${count}`);
+  return decodeChecked(header, head.subarray(start), rows);
+}
+
+/** decodeIndex after the checksum: every section a view of payload, or the section rows in `rows`. */
+function decodeChecked(header: CheckedHeader, payload: Uint8Array, rows: SectionRowReader | undefined): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
   const get = <K extends ArrayKind>(name: string, kind: K): InstanceType<(typeof CTORS)[K]> => {
@@ -363,8 +400,8 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
     k,
     sectionIndptr: get('sectionIndptr', 'i32'),
     sectionLines: get('sectionLines', 'i32'),
-    sectionTitles: splitText(get('sectionTitles', 'u8')),
-    sectionVectors: get('sectionVectors', 'f32'),
+    sectionTitles: rows ? titleStarts(get('sectionTitles', 'u8')) : splitText(get('sectionTitles', 'u8')),
+    sectionVectors: rows ? undefined : get('sectionVectors', 'f32'),
   };
   checkPayload(parts);
   const { size, mtime, length, folded, residual, indptr, ids, counts, keptIds, weights, termVectors, singularValues, axisScale, vectors } =
@@ -381,13 +418,40 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   }));
   const index = LsiIndex.assemble(header.settings, vocab, model, slots, vectors);
   index.restoreCounters(header.counters);
-  restoreSections(index, parts);
+  const titles = parts.sectionTitles;
+  if (titles instanceof Int32Array) {
+    const table = { lines: parts.sectionLines, titleBytes: get('sectionTitles', 'u8'), titleStarts: titles, rows: rows! };
+    parts.paths.forEach((path, j) => {
+      const [a, b] = [parts.sectionIndptr[j], parts.sectionIndptr[j + 1]];
+      if (b > a) index.sections.set(path, new StoredFileSections(table, a, b - a));
+    });
+  } else restoreSections(index, parts, titles);
   return index;
 }
 
+/**
+ * Where each saved title starts in the titles' bytes (titles joined by NUL, which UTF-8 uses for
+ * nothing else), with one offset past the end; the bytes are checked to be UTF-8 here.
+ * @throws CorruptIndexError
+ */
+function titleStarts(bytes: Uint8Array): Int32Array {
+  try {
+    decoder.decode(bytes);
+  } catch {
+    throw new CorruptIndexError('index file section titles are not valid UTF-8');
+  }
+  if (bytes.length === 0) return new Int32Array(1);
+  let count = 1;
+  for (let i = 0; i < bytes.length; i++) if (bytes[i] === 0) count++;
+  const out = new Int32Array(count + 1);
+  for (let i = 0, t = 1; i < bytes.length; i++) if (bytes[i] === 0) out[t++] = i + 1;
+  out[count] = bytes.length + 1;
+  return out;
+}
+
 /** Gives each file its saved sections (views of the payload). */
-function restoreSections(index: LsiIndex, p: PayloadParts): void {
-  const { sectionIndptr: ip, sectionLines: lines, sectionTitles: titles, sectionVectors: vectors, k } = p;
+function restoreSections(index: LsiIndex, p: PayloadParts, titles: readonly string[]): void {
+  const { sectionIndptr: ip, sectionLines: lines, sectionVectors: vectors, k } = p;
   p.paths.forEach((path, j) => {
     const a = ip[j];
     const b = ip[j + 1];
@@ -395,6 +459,6 @@ function restoreSections(index: LsiIndex, p: PayloadParts): void {
     const starts = new Int32Array(b - a);
     const ends = new Int32Array(b - a);
     for (let i = a; i < b; i++) [starts[i - a], ends[i - a]] = [lines[2 * i], lines[2 * i + 1]];
-    index.sections.set(path, { starts, ends, titles: titles.slice(a, b), vectors: vectors.subarray(a * k, b * k) });
+    index.sections.set(path, { starts, ends, titles: titles.slice(a, b), vectors: vectors!.subarray(a * k, b * k) });
   });
 }
