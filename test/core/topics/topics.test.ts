@@ -13,6 +13,7 @@ import { stemWord } from '../../../src/core/text/tokenize.js';
 import {
   DEFAULT_TOPICS_OPTIONS,
   findTopics,
+  scaledAxes,
   topicSteps,
   topicsAtLevel,
   walkTopics,
@@ -237,5 +238,26 @@ describe('topics on awkward input', () => {
     index.foldIn({ path: 'b.md', size: 1, mtimeMs: 1 }, 'zzzz qqqq');
     index.remove('a.md');
     expect(() => findTopics(index)).toThrow(EmptyCorpusError);
+  });
+});
+
+describe('first-level and split levers (research options, off by default)', () => {
+  it('scaledAxes scales each axis by σ^β and re-normalises each row; a zero row stays zero (worked by hand)', () => {
+    // (1, 1)/√2 with σ = (4, 1) and β = ½: (2, 1)/√5. The row (0, 0) stays (0, 0).
+    const out = scaledAxes(Float64Array.from([Math.SQRT1_2, Math.SQRT1_2, 0, 0]), 2, 2, [4, 1], 0.5);
+    expect(out[0]).toBeCloseTo(2 / Math.sqrt(5), 12);
+    expect(out[1]).toBeCloseTo(1 / Math.sqrt(5), 12);
+    expect([out[2], out[3]]).toEqual([0, 0]);
+  });
+
+  it('with the first level on scaled axes, or splits refined, the demo still brings out every planted topic and the tree stays whole', () => {
+    for (const options of [{ axisExponent: 0.5 }, { splitRestarts: 10, splitRefine: true }]) {
+      const report = findTopics(demo.index, { ...options, setApartLoose: false });
+      const s = scores(report, demo.topics);
+      expect(s.recovered, JSON.stringify(options)).toBe(demo.topics.length);
+      const members = report.topics.flatMap((t) => t.members);
+      expect(new Set(members).size).toBe(members.length);
+      expect(members.length + report.unplaced.length).toBe(demo.index.size);
+    }
   });
 });
