@@ -32,8 +32,8 @@ import { demoFiles, jsonlFiles, pairKey, retellingsCorpus, type MaterialFile } f
 const STARTS = [0.3, 0.25, 0.2];
 const LIST = Number(process.argv[2] ?? 60);
 
-/** Every pair of distinct texts with lo ≤ J < hi: its Jaccard and the Jaccard of the two texts without template lines (lines in ≥ 3 files, as the finder's term space drops them). */
-function allPairs(files: readonly MaterialFile[], lo: number, hi: number): Map<string, [number, number]> {
+/** The files with text, one per distinct text (the finder's own first step): ids, texts and 5-word shingle sets. */
+function distinctTexts(files: readonly MaterialFile[], size: number): { ids: string[]; texts: string[]; sets: Uint32Array[] } {
   const seen = new Set<string>();
   const ids: string[] = [];
   const texts: string[] = [];
@@ -43,12 +43,18 @@ function allPairs(files: readonly MaterialFile[], lo: number, hi: number): Map<s
     const h = contentHash(f.text);
     if (seen.has(h)) continue;
     seen.add(h);
-    const s = shingleSet(f.text, 5);
+    const s = shingleSet(f.text, size);
     if (s.hashes.length === 0) continue;
     ids.push(f.id);
     texts.push(f.text);
     sets.push(s.hashes);
   }
+  return { ids, texts, sets };
+}
+
+/** Every pair of distinct texts with lo ≤ J < hi: its Jaccard and the Jaccard of the two texts without template lines (lines in ≥ 3 files, as the finder's term space drops them). */
+function allPairs(files: readonly MaterialFile[], lo: number, hi: number): Map<string, [number, number]> {
+  const { ids, texts, sets } = distinctTexts(files, 5);
   const template = boilerplateLines(texts, 3);
   const own = texts.map((t) => shingleSet(withoutBoilerplate(t, template), 5).hashes);
   const out = new Map<string, [number, number]>();
@@ -66,19 +72,7 @@ function allPairs(files: readonly MaterialFile[], lo: number, hi: number): Map<s
 
 /** LSH alone at other band shapes over the same 128 MinHash values: candidates made and truth pairs caught. */
 function lshAlone(files: readonly MaterialFile[], truth: ReadonlyMap<string, [number, number]>): void {
-  const seen = new Set<string>();
-  const ids: string[] = [];
-  const sets: Uint32Array[] = [];
-  for (const f of files) {
-    if (isBlankText(f.text)) continue;
-    const h = contentHash(f.text);
-    if (seen.has(h)) continue;
-    seen.add(h);
-    const s = shingleSet(f.text, D.shingleSize);
-    if (s.hashes.length === 0) continue;
-    ids.push(f.id);
-    sets.push(s.hashes);
-  }
+  const { ids, sets } = distinctTexts(files, D.shingleSize);
   const k = D.numHashes;
   const sig = new Uint32Array(ids.length * k);
   const hasher = createMinHasher(k, D.seed);

@@ -7,6 +7,14 @@ import { boilerplateLines, findRetoldPairs, withoutBoilerplate } from '../../../
 
 const rule = { minCosine: 0.5, minGap: 0.3 };
 const lowJ = () => 0.02;
+/** Three files: 0 and 1 each other's nearest, 2 nearest to 1. */
+const TRIO = [
+  [1, 2],
+  [0, 2],
+  [1, 0],
+];
+/** The rule with the rare-names clause deciding. */
+const namesRule = { ...rule, minNameGap: 0, minSharedNames: 3, minNameShare: 0.85, minNameWords: 200, namesDecide: true };
 
 describe('findRetoldPairs', () => {
   it('keeps mutual nearest neighbours that stand clear of both files’ next neighbours', () => {
@@ -69,11 +77,7 @@ describe('findRetoldPairs', () => {
 
 describe('findRetoldPairs, clause b: a smaller margin with the same rare names', () => {
   const input = {
-    neighbours: [
-      [1, 2],
-      [0, 2],
-      [1, 0],
-    ],
+    neighbours: TRIO,
     cosines: [
       [0.6, 0.45],
       [0.6, 0.4],
@@ -138,11 +142,7 @@ describe('findRetoldPairs, clause b: a smaller margin with the same rare names',
 describe('findRetoldPairs, namesDecide: when both files hold rare names, the names decide', () => {
   // A mutual pair 0.4 clear of both files' next neighbours: clause a passes it on its margin.
   const clear = {
-    neighbours: [
-      [1, 2],
-      [0, 2],
-      [1, 0],
-    ],
+    neighbours: TRIO,
     cosines: [
       [0.8, 0.4],
       [0.8, 0.35],
@@ -183,11 +183,7 @@ describe('findRetoldPairs, namesDecide: when both files hold rare names, the nam
 describe('findRetoldPairs, clause c: margin and name share together, when a second view agrees', () => {
   // Mutual pair, cosine 0.45 (below minCosine 0.5), margin 0.2 over both files' next neighbours.
   const close = {
-    neighbours: [
-      [1, 2],
-      [0, 2],
-      [1, 0],
-    ],
+    neighbours: TRIO,
     cosines: [
       [0.45, 0.25],
       [0.45, 0.2],
@@ -198,12 +194,7 @@ describe('findRetoldPairs, clause c: margin and name share together, when a seco
     words: [300, 300, 300],
   };
   const params = {
-    ...rule,
-    minNameGap: 0,
-    minSharedNames: 3,
-    minNameShare: 0.85,
-    minNameWords: 200,
-    namesDecide: true,
+    ...namesRule,
     minEvidence: 1,
     minEvidenceCosine: 0.4,
     minEvidenceWords: 150,
@@ -262,11 +253,7 @@ describe('findRetoldPairs, clause c: margin and name share together, when a seco
 describe('findRetoldPairs, clause d: closer in words than the broad topic explains', () => {
   // Mutual pair, cosine 0.48 (below minCosine 0.5), margin 0.13 over both files' next neighbours.
   const close = {
-    neighbours: [
-      [1, 2],
-      [0, 2],
-      [1, 0],
-    ],
+    neighbours: TRIO,
     cosines: [
       [0.48, 0.35],
       [0.48, 0.3],
@@ -277,12 +264,7 @@ describe('findRetoldPairs, clause d: closer in words than the broad topic explai
     words: [150, 300, 300],
   };
   const params = {
-    ...rule,
-    minNameGap: 0,
-    minSharedNames: 3,
-    minNameShare: 0.85,
-    minNameWords: 200,
-    namesDecide: true,
+    ...namesRule,
     conceptMinDiff: -0.15,
     conceptMinCosine: 0.45,
     conceptMinWords: 100,
