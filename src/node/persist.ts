@@ -359,6 +359,8 @@ async function readCheckedHead(
     const per = Math.max(1, Math.floor(ROW_CHECK_BYTES / Math.max(1, rowBytes)));
     const block = new Float32Array(per * Math.max(1, k));
     const bytes = new Uint8Array(block.buffer);
+    // A row that fails its own check is reported after the checksum: damage reads as damage.
+    let badRow: unknown;
     for (let r = 0; r < rows; r += per) {
       if (signal?.aborted) throw new CancelledError();
       const m = Math.min(per, rows - r);
@@ -366,7 +368,13 @@ async function readCheckedHead(
       if ((await readAt(handle, bytes, at + r * rowBytes, len, chunk)) < len)
         throw new CorruptIndexError('index file is shorter than its header says');
       sum.update(bytes.subarray(0, len));
-      checkSectionRows(block, m, k);
+      if (badRow === undefined) {
+        try {
+          checkSectionRows(block, m, k);
+        } catch (err) {
+          badRow = err;
+        }
+      }
     }
     // The padding after the last row (to 8 bytes) is payload too.
     const tailAt = at + rows * rowBytes;
@@ -375,6 +383,7 @@ async function readCheckedHead(
       throw new CorruptIndexError('index file is shorter than its header says');
     sum.update(tail);
     if (sum.digest() !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+    if (badRow !== undefined) throw badRow;
     kept = true;
     return { head, rows: new FileSectionRows(handle, path, at, rows, k), size };
   } finally {

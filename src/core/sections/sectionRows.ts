@@ -10,6 +10,9 @@
  */
 import { InvalidInputError, UndertoneError } from '../errors.js';
 import type { FileSections } from './sectionVectors.js';
+import type { SectionRowReader, StoredRows } from './types.js';
+
+export type { SectionRowReader, StoredRows } from './types.js';
 
 /** Reading saved section rows failed (the file went away, an I/O error, a short read). */
 export class SectionRowsError extends UndertoneError {}
@@ -19,29 +22,6 @@ export class SectionRowsClosedError extends SectionRowsError {
   constructor() {
     super('the saved section vectors were closed (the index they belong to was replaced)');
   }
-}
-
-/** A source of saved section rows. */
-export interface SectionRowReader {
-  /** Numbers per row. */
-  readonly k: number;
-  /** Rows in the source. */
-  readonly rows: number;
-  /**
-   * Copies rows first … first + count − 1 into `into` from element `at` (k numbers a row).
-   * @throws SectionRowsError when the rows cannot be read; SectionRowsClosedError after close().
-   * @throws InvalidInputError for rows outside the source or an `into` too short.
-   */
-  read(first: number, count: number, into: Float32Array, at?: number): void;
-  /** Gives the source back (idempotent); later reads throw SectionRowsClosedError. */
-  close(): void;
-  readonly closed: boolean;
-}
-
-/** Where one file's rows are: its first row in the reader (its n rows follow). */
-export interface StoredRows {
-  readonly reader: SectionRowReader;
-  readonly first: number;
 }
 
 /** Checks a read's arguments against the source and the destination (shared by the readers). */

@@ -19,8 +19,7 @@ import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import { localWeight } from '../weighting/termWeighting.js';
 import { tokenize, type TokenizeOptions } from '../text/tokenize.js';
 import { splitLines, splitSections } from './splitSections.js';
-import type { Section, SectionOptions } from './types.js';
-import type { StoredRows } from './sectionRows.js';
+import type { Section, SectionOptions, StoredRows } from './types.js';
 
 /** The sections of one file: parallel arrays, f32 vectors (k per section). */
 export interface FileSections {

@@ -40,3 +40,26 @@ export const DEFAULT_SECTION_OPTIONS: SectionOptions = {
   minLines: 3,
   maxSections: 400,
 };
+
+/** A source of saved section rows. */
+export interface SectionRowReader {
+  /** Numbers per row. */
+  readonly k: number;
+  /** Rows in the source. */
+  readonly rows: number;
+  /**
+   * Copies rows first … first + count − 1 into `into` from element `at` (k numbers a row).
+   * @throws SectionRowsError when the rows cannot be read; SectionRowsClosedError after close() (sectionRows.ts).
+   * @throws InvalidInputError for rows outside the source or an `into` too short.
+   */
+  read(first: number, count: number, into: Float32Array, at?: number): void;
+  /** Gives the source back (idempotent); later reads throw SectionRowsClosedError. */
+  close(): void;
+  readonly closed: boolean;
+}
+
+/** Where one file's rows are: its first row in the reader (its n rows follow). */
+export interface StoredRows {
+  readonly reader: SectionRowReader;
+  readonly first: number;
+}
