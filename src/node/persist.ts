@@ -299,25 +299,23 @@ async function readAt(handle: FileHandle, buf: Uint8Array, position: number, len
 /** A file that cannot be an index (the reason is the whole story). */
 class NotAnIndexFile extends Error {}
 
-/** Opens path and reads its checked header; the file's size matches it. */
+/** Reads the open file's header and checks it, and that the file's size matches it. */
 async function openChecked(handle: FileHandle, path: string, chunk: number) {
-  {
-    const st = await handle.stat();
-    if (st.isDirectory()) throw new NotAnIndexFile(`${path} is a folder, not an index file`);
-    if (!st.isFile()) throw new NotAnIndexFile(`${path} is not a regular file (a FIFO, socket or device)`);
-    const size = st.size;
-    const preamble = new Uint8Array(INDEX_PREAMBLE_BYTES);
-    if ((await readAt(handle, preamble, 0, INDEX_PREAMBLE_BYTES, chunk)) < INDEX_PREAMBLE_BYTES)
-      throw new CorruptIndexError('index file is shorter than its preamble');
-    const start = headerExtent(preamble);
-    if (start > size) throw new CorruptIndexError('index file is truncated inside its header');
-    const head = new Uint8Array(start);
-    if ((await readAt(handle, head, 0, start, chunk)) < start) throw new CorruptIndexError('index file is truncated inside its header');
-    const header = readIndexHeader(head);
-    const expected = start + header.payloadBytes;
-    if (size !== expected) throw new CorruptIndexError(`index file is ${size} bytes, expected ${expected} (truncated or padded)`);
-    return { header, start, size };
-  }
+  const st = await handle.stat();
+  if (st.isDirectory()) throw new NotAnIndexFile(`${path} is a folder, not an index file`);
+  if (!st.isFile()) throw new NotAnIndexFile(`${path} is not a regular file (a FIFO, socket or device)`);
+  const size = st.size;
+  const preamble = new Uint8Array(INDEX_PREAMBLE_BYTES);
+  if ((await readAt(handle, preamble, 0, INDEX_PREAMBLE_BYTES, chunk)) < INDEX_PREAMBLE_BYTES)
+    throw new CorruptIndexError('index file is shorter than its preamble');
+  const start = headerExtent(preamble);
+  if (start > size) throw new CorruptIndexError('index file is truncated inside its header');
+  const head = new Uint8Array(start);
+  if ((await readAt(handle, head, 0, start, chunk)) < start) throw new CorruptIndexError('index file is truncated inside its header');
+  const header = readIndexHeader(head);
+  const expected = start + header.payloadBytes;
+  if (size !== expected) throw new CorruptIndexError(`index file is ${size} bytes, expected ${expected} (truncated or padded)`);
+  return { header, start, size };
 }
 
 /**

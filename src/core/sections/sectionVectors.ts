@@ -12,7 +12,7 @@
  */
 import { CancelledError } from '../errors.js';
 import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
-import { PROJECTION_BLOCK_BYTES, projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
+import { blockedTermProduct, PROJECTION_BLOCK_BYTES, projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { copyCsr, type CsrMatrix } from '../matrix/sparse.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
@@ -191,16 +191,8 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
       scoped(() => {
         const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
         const part = ex.float64(rows * width);
-        if (acc) {
-          for (let c0 = 0; c0 < k; c0 += width) {
-            const w = Math.min(width, k - c0);
-            const tvw = tv.subarray(0, terms * w);
-            for (let t = 0; t < terms; t++) for (let j = 0; j < w; j++) tvw[t * w + j] = model.termVectors[t * k + c0 + j];
-            const pw = part.subarray(0, rows * w);
-            ex.spmm(m, tvw, w, pw, true);
-            for (let r = 0; r < rows; r++) for (let j = 0; j < w; j++) acc[r * k + c0 + j] = pw[r * w + j];
-          }
-        } else ex.spmm(m, tv, k, part, true);
+        if (acc) blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
+        else ex.spmm(m, tv, k, part, true);
         const sums = acc ?? part;
         for (let r = 0; r < rows; r++) {
           let ss = 0;

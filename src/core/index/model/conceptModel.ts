@@ -170,14 +170,7 @@ export function projectMatrixRows(
     const part = ex.float64(n * width);
     // In the executor's memory: after an SVD, memory it has already grown to and no longer uses.
     const acc = ex.float64(n * k);
-    for (let c0 = 0; c0 < k; c0 += width) {
-      const w = Math.min(width, k - c0);
-      const tvw = tv.subarray(0, terms * w);
-      for (let t = 0; t < terms; t++) for (let j = 0; j < w; j++) tvw[t * w + j] = model.termVectors[t * k + c0 + j];
-      const pw = part.subarray(0, n * w);
-      ex.spmm(m, tvw, w, pw, true);
-      for (let i = 0; i < n; i++) for (let j = 0; j < w; j++) acc[i * k + c0 + j] = pw[i * w + j];
-    }
+    blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
     const out = new Float32Array(n * k);
     const row = new Float64Array(k);
     for (let i = 0; i < n; i++) {
@@ -192,6 +185,33 @@ export function projectMatrixRows(
     return out;
   };
   return ex.scoped ? ex.scoped(run) : run();
+}
+
+/**
+ * acc (m.rows × k) = m · termVectors (terms × k), the term vectors handed to the executor in
+ * column blocks of `width` through tv (terms × width) and part (m.rows × width): each output
+ * column is the same sum whatever the block, so the bits do not depend on the width.
+ */
+export function blockedTermProduct(
+  ex: MatrixExecutor,
+  m: CsrMatrix,
+  termVectors: ArrayLike<number>,
+  k: number,
+  width: number,
+  tv: Float64Array,
+  part: Float64Array,
+  acc: Float64Array,
+): void {
+  const terms = m.cols;
+  const n = m.rows;
+  for (let c0 = 0; c0 < k; c0 += width) {
+    const w = Math.min(width, k - c0);
+    const tvw = tv.subarray(0, terms * w);
+    for (let t = 0; t < terms; t++) for (let j = 0; j < w; j++) tvw[t * w + j] = termVectors[t * k + c0 + j];
+    const pw = part.subarray(0, n * w);
+    ex.spmm(m, tvw, w, pw, true);
+    for (let i = 0; i < n; i++) for (let j = 0; j < w; j++) acc[i * k + c0 + j] = pw[i * w + j];
+  }
 }
 
 /** Bytes of f64 term vectors handed to the executor at once (our choice: a few column blocks at k = 200 on 50k terms). */
