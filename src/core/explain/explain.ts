@@ -165,7 +165,7 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
     for (const { id, r } of conceptRows(index, terms).rows) if (r) entry(id).concept += (1 - mu) * 0.5 * dotF(r, other);
   }
   if (mu > 0) {
-    const { lexicalQuery, max, tfidfShare: nu, tfidfMax } = index.nearbyPlan(pathA);
+    const { lexicalQuery, max, tfidfShare: nu, tfidfMax, tfidfQuery } = index.nearbyPlan(pathA);
     const slotB = index.slots().findIndex((s) => s?.meta.path === pathB);
     const bm25 = index.bm25();
     if (max > 0)
@@ -178,11 +178,11 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
               bm25.termScore(id, lexicalQuery.counts[i], tf, slotB, index.ranking.nearbyLengthNorm, index.ranking.nearbyDelta)) /
             max;
       });
-    // The TF-IDF part of the word match (LsiIndex.nearbyPlan): every term of A that B holds.
+    // The TF-IDF part of the word match (LsiIndex.nearbyPlan): every term of its query that B holds.
     if (nu > 0 && tfidfMax > 0)
-      a.termIds.forEach((id, i) => {
+      tfidfQuery.termIds.forEach((id, i) => {
         const tf = countOf(b, id);
-        if (tf > 0) entry(id).lexical += (mu * nu * index.tfidfTermScore(id, a.counts[i], tf, slotB)) / tfidfMax;
+        if (tf > 0) entry(id).lexical += (mu * nu * index.tfidfTermScore(id, tfidfQuery.counts[i], tf, slotB)) / tfidfMax;
       });
   }
   const out: TermShare[] = [];

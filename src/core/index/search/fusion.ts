@@ -113,6 +113,25 @@ export interface RankingOptions {
    * tree took Nearby of a file from a median of 12 ms to 52–60 ms (p95 135–168 ms). @default 0
    */
   nearbyTfidfShare: number;
+  /**
+   * Nearby: how many of the page's most distinctive words (log(1 + tf)·idf, as `nearbyTerms` picks
+   * them) form the TF-IDF part's query; 0 = every word of the page. Each word's postings are read
+   * once per request, so this bounds the part's cost as `nearbyTerms` bounds BM25's; the pages'
+   * norms stay those of their full term vectors. @default 40
+   */
+  nearbyTfidfTerms: number;
+  /**
+   * Nearby: take the TF-IDF share ν from the concept part instead of the word match:
+   * (1 − μ)(1 − ν)·cos + μ·BM25L/max + (1 − μ)ν·TFIDF/max. @default false
+   */
+  nearbyTfidfFromConcept: boolean;
+  /**
+   * Search (research, off): raise a query's lexical share by how clearly the best word-match file
+   * stands out, λ_q = λ + (1 − λ)·g^p with g = 1 − s₂/s₁ (the best and second best BM25 scores);
+   * this is the power p, 0 = off. A known item named by its rare words stands out; a topic's many
+   * relevant files do not. @default 0
+   */
+  lexicalGap: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -133,7 +152,22 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   tfidfSlope: 1,
   tfidfFromConcept: false,
   nearbyTfidfShare: 0,
+  nearbyTfidfTerms: 40,
+  nearbyTfidfFromConcept: false,
+  lexicalGap: 0,
 });
+
+/** 1 − s₂/s₁ for the largest and second largest of a (ties and fewer than two positive: 0). */
+export function topGap(a: Float64Array): number {
+  let first = 0;
+  let second = 0;
+  for (let j = 0; j < a.length; j++) {
+    const x = a[j];
+    if (x > first) [first, second] = [x, first];
+    else if (x > second) second = x;
+  }
+  return first > 0 ? 1 - second / first : 0;
+}
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
 export const SPREAD_SAMPLE = 2048;
