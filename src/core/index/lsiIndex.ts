@@ -30,6 +30,7 @@ import {
   spreadShare,
   stripPointing,
   topGap,
+  topSpread,
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
@@ -351,7 +352,9 @@ export class LsiIndex {
    * overwritten by the next search); with a TF-IDF share ν, (1 − ν) of that plus ν·the TF-IDF
    * score of `tfidfQuery` (the file's nearbyTfidfTerms most distinctive terms, or all its terms)
    * divided by the best other file's (`tfidfMax`).
-   * Without a lexical share (nearbyLexical = 0) all zeros.
+   * Without a lexical share (nearbyLexical = 0) all zeros. `lexicalShare` is the word match's share
+   * of the score (nearbyLexical, raised when the TF-IDF part is taken from the concept part) and
+   * `tfidfShare` the TF-IDF part's share within the word match.
    * `delta`: BM25L's δ of the word match (default: the ranking options' nearbyDelta); `tfidf`: ν
    * (default: nearbyTfidfShare).
    */
@@ -393,7 +396,7 @@ export class LsiIndex {
       mu += moved;
     }
     if (share > 0) tfidfMax = this.addTfidf(tfidfQuery, lexical, wl, wt, 1, self);
-    return { lexicalQuery, max, lexical, tfidfShare: share, tfidfMax, tfidfQuery, lexicalShare: mu };
+    return { lexicalQuery, max, lexical, tfidfShare: share > 0 ? wt : 0, tfidfMax, tfidfQuery, lexicalShare: mu };
   }
 
   /** One term's TF-IDF score for a file (tfidfCosine.ts, cosine), before division by the best; for explanations. */
@@ -409,6 +412,8 @@ export class LsiIndex {
   private spreadLambda(lambda: number, q: Float32Array, lexical: Float64Array): number {
     const slots = this._slots;
     const live = (j: number): boolean => slots[j] !== null;
+    const top = this.ranking.spreadTop;
+    if (top > 0) return spreadShare(lambda, topSpread(this.liveDots(q), top), topSpread(lexical, top));
     return spreadShare(lambda, conceptSpread(this._rows.rows, this.k, slots, q), spreadOf(lexical, live));
   }
 

@@ -132,6 +132,11 @@ export interface RankingOptions {
    * relevant files do not. @default 0
    */
   lexicalGap: number;
+  /**
+   * Search with spreadBlend (research, off): each part's spread taken over its own `spreadTop` best
+   * files instead of over all files (0), the spread among the plausible candidates. @default 0
+   */
+  spreadTop: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -155,7 +160,23 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyTfidfTerms: 40,
   nearbyTfidfFromConcept: false,
   lexicalGap: 0,
+  spreadTop: 0,
 });
+
+/** Standard deviation of the `count` largest finite values of a (all of them when fewer). */
+export function topSpread(a: Float64Array, count: number): number {
+  const v = Float64Array.from(a.filter((x) => Number.isFinite(x))).sort();
+  const top = v.subarray(Math.max(0, v.length - count));
+  if (top.length < 2) return 0;
+  let s = 0;
+  let ss = 0;
+  for (const x of top) {
+    s += x;
+    ss += x * x;
+  }
+  const m = s / top.length;
+  return Math.sqrt(Math.max(0, ss / top.length - m * m));
+}
 
 /** 1 − s₂/s₁ for the largest and second largest of a (ties and fewer than two positive: 0). */
 export function topGap(a: Float64Array): number {
