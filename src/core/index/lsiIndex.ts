@@ -29,8 +29,6 @@ import {
   spreadOf,
   spreadShare,
   stripPointing,
-  topGap,
-  topSpread,
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
@@ -286,7 +284,6 @@ export class LsiIndex {
       divideByMax(lexical);
       if (r.tfidfShare > 0 && !r.tfidfFromConcept) this.addTfidf(lexQuery, lexical, 1 - r.tfidfShare, r.tfidfShare, r.tfidfSlope);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
-      if (r.lexicalGap > 0) lambda += (1 - lambda) * Math.pow(topGap(lexical), r.lexicalGap);
       if (r.tfidfShare > 0 && r.tfidfFromConcept && proj.knownTerms > 0) {
         // (1 − λ)(1 − ν)·cos + λ·BM25 + (1 − λ)ν·TF-IDF, the last two as one part of share λ'.
         const moved = (1 - lambda) * r.tfidfShare;
@@ -412,8 +409,6 @@ export class LsiIndex {
   private spreadLambda(lambda: number, q: Float32Array, lexical: Float64Array): number {
     const slots = this._slots;
     const live = (j: number): boolean => slots[j] !== null;
-    const top = this.ranking.spreadTop;
-    if (top > 0) return spreadShare(lambda, topSpread(this.liveDots(q), top), topSpread(lexical, top));
     return spreadShare(lambda, conceptSpread(this._rows.rows, this.k, slots, q), spreadOf(lexical, live));
   }
 

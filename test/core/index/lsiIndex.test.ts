@@ -271,6 +271,11 @@ function plainNearby(
   bm25[self] = 0;
   tfidf[self] = 0;
   const [maxB, maxT] = [Math.max(...bm25), Math.max(...tfidf)];
+  if (index.ranking.nearbyTfidfFromConcept && nu > 0) {
+    // ν taken from the concept part: (1 − μ)(1 − ν)·cos + μ·BM25L/max + (1 − μ)ν·TF-IDF/max, μ = ½.
+    const parts = bm25.map((x, j) => 0.5 * (maxB > 0 ? x / maxB : 0) + 0.5 * nu * (maxT > 0 ? tfidf[j] / maxT : 0));
+    return plainBlend(index, index.vectorOf(path), 0.5 * (1 - nu), 1, parts, top, path, true);
+  }
   const lexical = bm25.map((x, j) => (1 - nu) * (maxB > 0 ? x / maxB : 0) + nu * (maxT > 0 ? tfidf[j] / maxT : 0));
   return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path, true);
 }
@@ -310,6 +315,10 @@ describe('LsiIndex ranking against the plain formula', () => {
     index.remove(cran.docs[10].id);
     index.remove('new1');
     compare();
+    // Nearby's TF-IDF share taken from the concept part, over the page's 80 top words (opt-in).
+    index.ranking = { ...index.ranking, nearbyTfidfShare: 0.25, nearbyTfidfTerms: 80, nearbyTfidfFromConcept: true };
+    compare();
+    index.ranking = { ...index.ranking, nearbyTfidfShare: 0.1, nearbyTfidfTerms: 40, nearbyTfidfFromConcept: false };
     // The opt-in blend of standardised scores, with another length normalisation for search.
     index.ranking = { ...index.ranking, spreadBlend: true, lengthNorm: 0.5 };
     compare();

@@ -5,12 +5,6 @@
  * Defaults k1 = 1.2 and b = 0.75 (the values Robertson & Zaragoza report as common practice).
  * With δ > 0 a document's term scores take BM25L's form (Lv & Zhai 2011, "When documents are very
  * long, BM25 fails!"): c = tf/(1 − b + b·|d|/avgdl), (k1 + 1)(c + δ)/(k1 + c + δ) for tf > 0.
- * Length normalisation without b (b = VERBOSENESS): BM25VA's form (Lipani, Lupu, Hanbury & Aizawa
- * 2015, "Verboseness fission for BM25 document length normalization"; written here from memory as
- * Kamphuis, de Vries, Boytsov & Lin 2020 restate it): k1·B with
- * B = mavgtf⁻²·|d|/|V_d| + (1 − mavgtf⁻¹)·|d|/avgdl, |V_d| the document's distinct terms and mavgtf
- * the mean over documents of |d|/|V_d|: a document that repeats its words is normalised by its
- * verboseness, one that has many different words by its length. B = 1 for an average document.
  *
  * Postings are built lazily, per term, when a query first asks for the term: one pass over the
  * documents' sorted term arrays finds every missing term of the query (termPostings.ts), and the
@@ -42,9 +36,6 @@ export interface Bm25Options {
 }
 
 export const DEFAULT_BM25_OPTIONS: Readonly<Bm25Options> = Object.freeze({ k1: 1.2, b: 0.75 });
-
-/** The b that asks for BM25VA's length normalisation (no constant; see the header). */
-export const VERBOSENESS = -1;
 
 // The loops live in small functions of their own, which the engine optimises whole.
 
@@ -108,27 +99,6 @@ function lengthNorms(
   out: Float64Array,
 ): void {
   for (let j = 0; j < docs.length; j++) out[j] = docs[j] !== null ? k1 * (1 - b + (b * lengths[j]) / Math.max(avg, 1e-9)) : 0;
-}
-
-/** k1·B of BM25VA (header) per slot, 0 for empty slots. */
-function verbosenessNorms(docs: readonly (DocTerms | null)[], lengths: Float64Array, avg: number, k1: number, out: Float64Array): void {
-  let sum = 0;
-  let n = 0;
-  for (let j = 0; j < docs.length; j++) {
-    const d = docs[j];
-    if (d === null || d.termIds.length === 0) continue;
-    sum += lengths[j] / d.termIds.length;
-    n++;
-  }
-  const m = n > 0 ? sum / n : 1;
-  for (let j = 0; j < docs.length; j++) {
-    const d = docs[j];
-    if (d === null) out[j] = 0;
-    else {
-      const avgtf = d.termIds.length > 0 ? lengths[j] / d.termIds.length : m;
-      out[j] = k1 * (avgtf / (m * m) + ((1 - 1 / m) * lengths[j]) / Math.max(avg, 1e-9));
-    }
-  }
 }
 
 function grown(a: Float64Array, size: number): Float64Array {
@@ -317,15 +287,14 @@ export class Bm25Scorer {
     this._block = block;
   }
 
-  /** k1·(1 − b + b·|d|/avgdl) per slot (0 for empty slots; BM25VA's k1·B for b = VERBOSENESS), recomputed after changes. */
+  /** k1·(1 − b + b·|d|/avgdl) per slot (0 for empty slots), recomputed after changes. */
   private lengthNorm(b: number): Float64Array {
     const kept = this._norms.get(b);
     if (kept) return kept;
     const docs = this._docsOf;
     const norm = new Float64Array(docs.length);
     const avg = this._n > 0 ? this._totalLength / this._n : 1;
-    if (b === VERBOSENESS) verbosenessNorms(docs, this._lengths, avg, this._opts.k1, norm);
-    else lengthNorms(docs, this._lengths, avg, this._opts.k1, b, norm);
+    lengthNorms(docs, this._lengths, avg, this._opts.k1, b, norm);
     this._norms.set(b, norm);
     return norm;
   }

@@ -125,18 +125,6 @@ export interface RankingOptions {
    * (1 − μ)(1 − ν)·cos + μ·BM25L/max + (1 − μ)ν·TFIDF/max. @default false
    */
   nearbyTfidfFromConcept: boolean;
-  /**
-   * Search (research, off): raise a query's lexical share by how clearly the best word-match file
-   * stands out, λ_q = λ + (1 − λ)·g^p with g = 1 − s₂/s₁ (the best and second best BM25 scores);
-   * this is the power p, 0 = off. A known item named by its rare words stands out; a topic's many
-   * relevant files do not. @default 0
-   */
-  lexicalGap: number;
-  /**
-   * Search with spreadBlend (research, off): each part's spread taken over its own `spreadTop` best
-   * files instead of over all files (0), the spread among the plausible candidates. @default 0
-   */
-  spreadTop: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -159,36 +147,7 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyTfidfShare: 0,
   nearbyTfidfTerms: 40,
   nearbyTfidfFromConcept: false,
-  lexicalGap: 0,
-  spreadTop: 0,
 });
-
-/** Standard deviation of the `count` largest finite values of a (all of them when fewer). */
-export function topSpread(a: Float64Array, count: number): number {
-  const v = Float64Array.from(a.filter((x) => Number.isFinite(x))).sort();
-  const top = v.subarray(Math.max(0, v.length - count));
-  if (top.length < 2) return 0;
-  let s = 0;
-  let ss = 0;
-  for (const x of top) {
-    s += x;
-    ss += x * x;
-  }
-  const m = s / top.length;
-  return Math.sqrt(Math.max(0, ss / top.length - m * m));
-}
-
-/** 1 − s₂/s₁ for the largest and second largest of a (ties and fewer than two positive: 0). */
-export function topGap(a: Float64Array): number {
-  let first = 0;
-  let second = 0;
-  for (let j = 0; j < a.length; j++) {
-    const x = a[j];
-    if (x > first) [first, second] = [x, first];
-    else if (x > second) second = x;
-  }
-  return first > 0 ? 1 - second / first : 0;
-}
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
 export const SPREAD_SAMPLE = 2048;
