@@ -382,8 +382,13 @@ export class LsiIndex {
       max = divideByMax(lexical);
     }
     const words = this.ranking.nearbyTfidfTerms;
+    // The TF-IDF part's query (only made when it has a share; the BM25 query stands in otherwise).
     const tfidfQuery =
-      words <= 0 ? this._slots[self]!.terms : words === this.ranking.nearbyTerms ? lexicalQuery : this.fileQuery(self, 1, words);
+      share <= 0 || words === this.ranking.nearbyTerms
+        ? lexicalQuery
+        : words <= 0
+          ? this._slots[self]!.terms
+          : this.fileQuery(self, 1, words);
     let mu = this.ranking.nearbyLexical;
     let [wl, wt] = [1 - share, share];
     if (share > 0 && this.ranking.nearbyTfidfFromConcept) {
