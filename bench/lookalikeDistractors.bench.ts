@@ -1,0 +1,82 @@
+/**
+ * "Same content, other words" (retold.ts) under a few rule versions, on the retellings fixture and
+ * on distractor folders that chose none of its constants. No assertions.
+ * Run: npm run bench:lookalike-distractors
+ *
+ * Versions (finder options; everything else at its defaults):
+ * - default: clauses a and b;
+ * - clause d as chosen (retoldConceptMinDiff −0.15 with its options.ts constants);
+ * - clause d for named pairs only: the same, with its branch for a file naming nothing rare off
+ *   (retoldConceptMinGap = 1: a margin no pair sharing little text reaches), so clause d asks both files to hold rare names and agree on
+ *   them; that branch rests on 2 of the fixture's pairs (`printenv`, `sleep`);
+ * - clause c (retoldMinEvidence 1).
+ * Folders: test/fixtures/lookalike-retellings (125 natural retellings in two sources; recall per
+ * source, pairs outside the key), the same without the Texinfo side, the CMake reference
+ * (test/fixtures/cmake-doc; it chose clause b's and d's constants, so not held out), the demo
+ * (3 planted pairs) and, never used to choose a constant: the Erlang/OTP 25 manual
+ * (test/fixtures/topic-trees/erlang.jsonl.gz, 978 pages: each application's module reference pages
+ * are one template) and the Sphinx manual (test/fixtures/sphinx-doc, 91 pages). The full Django
+ * manual (topic-trees, 533 pages) contains the 258 pages of test/fixtures/django-doc that took part
+ * in the choice, so its figure is only half held out. Each pair of a distractor folder is printed
+ * with its clause so that it can be read and judged.
+ */
+import { findLookalikes } from '../src/core/lookalike/findLookalikes.js';
+import type { LookalikeOptions } from '../src/core/lookalike/options.js';
+import type { LookalikePair } from '../src/core/lookalike/types.js';
+import { demoFiles, demoParaphrases, jsonlFiles, pairKey, retellingsCorpus, type MaterialFile } from './lookalikeMaterial.js';
+
+const VERSIONS: [string, Partial<LookalikeOptions>][] = [
+  ['default (clauses a, b)', {}],
+  ['+ clause d as chosen', { retoldConceptMinDiff: -0.15 }],
+  ['+ clause d, named pairs only', { retoldConceptMinDiff: -0.15, retoldConceptMinGap: 1 }],
+  ['+ clause c', { retoldMinEvidence: 1 }],
+];
+
+/** A topic-trees file ({path, text} lines) as material files. */
+function pathFiles(path: string): MaterialFile[] {
+  return (jsonlFiles(path) as unknown as { path: string; text: string }[]).map((f) => ({ id: f.path, text: f.text }));
+}
+
+const corpus = retellingsCorpus();
+const infoSide = new Set(corpus.retellings.map((r) => r[1]));
+const truth = new Map(corpus.retellings.map(([a, b, s]) => [pairKey(a, b), s]));
+// Copies of a retelling's file (exact copies are collapsed to one of them) stand for it.
+const folders: [string, MaterialFile[], Map<string, string>, boolean][] = [
+  ['retellings', corpus.files, truth, false],
+  ['without Texinfo side', corpus.files.filter((f) => !infoSide.has(f.id)), new Map(), false],
+  ['cmake-doc (chose constants)', jsonlFiles('test/fixtures/cmake-doc/docs.jsonl.gz'), new Map(), false],
+  ['demo', demoFiles(), new Map(demoParaphrases().map(([a, b]) => [pairKey(a, b), 'demo'])), false],
+  ['erlang (held out)', pathFiles('test/fixtures/topic-trees/erlang.jsonl.gz'), new Map(), true],
+  ['sphinx-doc (held out)', jsonlFiles('test/fixtures/sphinx-doc/docs.jsonl.gz'), new Map(), true],
+  ['django full (half held out)', pathFiles('test/fixtures/topic-trees/django.jsonl.gz'), new Map(), true],
+];
+
+const describe = (p: LookalikePair): string =>
+  `${p.clause} cos ${(p.cosine ?? 0).toFixed(2)} margin ${(p.gap ?? 0).toFixed(2)} names ${p.sharedNames ?? 0} (${(p.namesHeld ?? [0, 0]).join('/')}) J ${p.jaccard.toFixed(2)}  ${p.a} ~ ${p.b}`;
+
+for (const [name, files, key, list] of folders) {
+  const before = new Set<string>();
+  for (const [vname, opts] of VERSIONS) {
+    const r = findLookalikes({ files }, opts);
+    const bySource = new Map<string, number>();
+    let outside = 0;
+    for (const p of r.retoldPairs) {
+      const s = key.get(pairKey(p.a, p.b));
+      if (s === undefined) outside++;
+      else bySource.set(s, (bySource.get(s) ?? 0) + 1);
+    }
+    const found = [...bySource].map(([s, c]) => `${s} ${c}`).join(', ');
+    console.log(
+      `${name} (${r.stats.files} files) — ${vname}: ${r.retoldPairs.length} pairs${key.size > 0 ? `; in the key: ${found || 0}; outside it: ${outside}` : ''} (${((1000 * outside) / r.stats.files).toFixed(1)} outside the key per 1,000 files)`,
+    );
+    if (list) {
+      const isDefault = vname.startsWith('default');
+      for (const p of r.retoldPairs) {
+        const k = pairKey(p.a, p.b);
+        if (isDefault) before.add(k);
+        if (isDefault) console.log(`    ${describe(p)}`);
+        else if (!before.has(k)) console.log(`    new: ${describe(p)}`);
+      }
+    }
+  }
+}
