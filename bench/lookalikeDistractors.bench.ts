@@ -86,7 +86,9 @@ for (const [name, files, key, list] of folders) {
       const copies = new Map<string, number>();
       for (const p of [...r.nearPairs, ...r.partialPairs]) {
         const s = key.get(pairKey(p.a, p.b));
-        if (s !== undefined) copies.set(`${s} ${p.band}`, (copies.get(`${s} ${p.band}`) ?? 0) + 1);
+        if (s === undefined) continue;
+        copies.set(`${s} ${p.band}`, (copies.get(`${s} ${p.band}`) ?? 0) + 1);
+        if (s === 'third') console.log(`    ${p.band} copy J ${p.jaccard.toFixed(2)}: ${p.a} ~ ${p.b}`);
       }
       console.log(`  retellings of the key listed as copies: ${[...copies].map(([k, c]) => `${k} ${c}`).join(', ') || 'none'}`);
     }
