@@ -63,6 +63,8 @@ export interface LookalikeOptions {
   readonly retoldConceptMinGap: number;
   /** A name is rare when at most this many files hold it (rareNames.ts). @default 10 (our choice, set by looking at the whole of test/fixtures/lookalike-retellings: 5, 10, 20, 30 compared; not held out) */
   readonly retoldNameMaxDf: number;
+  /** Clause a (retold.ts): most files the two files' lists of nearest files (`neighbours` each) may share. Infinity = no limit. @default Infinity (off; see the retellings fixture's README) */
+  readonly retoldMarginMaxSharedNeighbours: number;
   /** Seed for the MinHash family. @default DEFAULT_SEED (random.ts) */
   readonly seed: number;
 }
@@ -97,6 +99,7 @@ export const DEFAULT_LOOKALIKE_OPTIONS: LookalikeOptions = Object.freeze({
   retoldConceptMinNameShare: 0.9,
   retoldConceptMinGap: 0.2,
   retoldNameMaxDf: 10,
+  retoldMarginMaxSharedNeighbours: Infinity,
   seed: DEFAULT_SEED,
 });
 
@@ -144,6 +147,13 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
   unitInterval('retoldConceptMinNameShare', o.retoldConceptMinNameShare);
   if (!(o.retoldConceptMinGap >= 0 && o.retoldConceptMinGap <= 1))
     throw new InvalidInputError(`retoldConceptMinGap must be in [0, 1], got ${o.retoldConceptMinGap}`);
+  if (!(
+    o.retoldMarginMaxSharedNeighbours === Infinity ||
+    (Number.isInteger(o.retoldMarginMaxSharedNeighbours) && o.retoldMarginMaxSharedNeighbours >= 0)
+  ))
+    throw new InvalidInputError(
+      `retoldMarginMaxSharedNeighbours must be a whole number ≥ 0 or Infinity (off), got ${o.retoldMarginMaxSharedNeighbours}`,
+    );
   if (typeof o.retoldNamesDecide !== 'boolean')
     throw new InvalidInputError(`retoldNamesDecide must be true or false, got ${String(o.retoldNamesDecide)}`);
   positiveInteger('boilerplateFiles', o.boilerplateFiles);
