@@ -20,6 +20,7 @@
  */
 import { ConceptCodes } from '../index/search/conceptCodes.js';
 import type { SectionLists } from './sectionLists.js';
+import { StoredFileSections } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
 import type { ByteSpill, OpenSpill } from './types.js';
 
@@ -59,7 +60,13 @@ export class ListedSections {
   private _dead = 0;
   private readonly _paths: string[] = [];
   private readonly _files: (FileSections | null)[] = [];
-  private readonly _fileSlots: (Int32Array | null)[] = [];
+  /**
+   * Each file's slots, flat: file no's are _fileSlots[_fileFirst[no] … _fileFirst[no + 1]) (a
+   * removed file's entries are left, its _files entry is null).
+   */
+  private _fileSlots: Int32Array;
+  private _fileFirst: Int32Array;
+  private _rows = new Float32Array(0);
   private readonly _fileNo = new Map<string, number>();
   /** First build-time slot of each list (length lists + 1), and each list's later slots. */
   private readonly _starts: Int32Array;
@@ -83,35 +90,43 @@ export class ListedSections {
     openSpill?: OpenSpill,
   ) {
     const k = lists.k;
-    const listOf: Int32Array[] = [];
     this._starts = new Int32Array(lists.lists + 1);
+    let total = 0;
+    const counts: number[] = [];
     for (const [path, f] of entries) {
-      const l = new Int32Array(f.starts.length);
-      const v = f.vectors; // once: stored rows are read on each access
-      for (let i = 0; i < l.length; i++) {
-        l[i] = lists.file(v, i * k);
-        this._starts[l[i] + 1]++;
-      }
       this._fileNo.set(path, this._files.length);
       this._paths.push(path);
       this._files.push(f);
-      listOf.push(l);
+      counts.push(countOf(f));
+      total += counts[counts.length - 1];
     }
+    const files = this._files.length;
+    this._fileFirst = new Int32Array(files + 65);
+    for (let f = 0; f < files; f++) this._fileFirst[f + 1] = this._fileFirst[f] + counts[f];
+    // Each section's list, in file order (one flat array: no array a file).
+    const listOf = new Int32Array(total);
+    this._files.forEach((f, no) => {
+      const first = this._fileFirst[no];
+      const v = this.rowsOf(f!, counts[no]);
+      for (let i = 0; i < counts[no]; i++) {
+        const l = lists.file(v, i * k);
+        listOf[first + i] = l;
+        this._starts[l + 1]++;
+      }
+    });
     for (let j = 0; j < lists.lists; j++) this._starts[j + 1] += this._starts[j];
     const n = this._starts[lists.lists];
     this._slotFile = new Int32Array(n + 64);
     this._slotIndex = new Int32Array(n + 64);
+    this._fileSlots = new Int32Array(n + 64);
     const next = this._starts.slice(0, lists.lists);
-    listOf.forEach((l, f) => {
-      const slots = new Int32Array(l.length);
-      for (let i = 0; i < l.length; i++) {
-        const s = next[l[i]]++;
-        slots[i] = s;
+    for (let f = 0; f < files; f++)
+      for (let i = 0, g = this._fileFirst[f]; i < counts[f]; i++, g++) {
+        const s = next[listOf[g]]++;
+        this._fileSlots[g] = s;
         this._slotFile[s] = f;
         this._slotIndex[s] = i;
       }
-      this._fileSlots.push(slots);
-    });
     this._used = n;
     this._extra = Array.from({ length: lists.lists }, () => []);
     this._spilled = openSpill ? spillsFor(k, openSpill) : null;
@@ -121,9 +136,9 @@ export class ListedSections {
       // Stored rows: each file's rows read once, coded row by row into their slots (a row's code
       // depends on that row alone, so the codes equal the block-wise ones).
       this._files.forEach((f, no) => {
-        const v = f!.vectors;
-        const slots = this._fileSlots[no]!;
-        for (let i = 0; i < slots.length; i++) this._codes!.setRowsAt(slots[i], v.subarray(i * k, (i + 1) * k), 1);
+        const v = this.rowsOf(f!, counts[no]);
+        const first = this._fileFirst[no];
+        for (let i = 0; i < counts[no]; i++) this._codes!.setRowsAt(this._fileSlots[first + i], v.subarray(i * k, (i + 1) * k), 1);
       });
     } else if (this._codes) {
       const block = new Float32Array(CODE_ROWS * k);
@@ -139,12 +154,21 @@ export class ListedSections {
     }
   }
 
+  /** A file's rows: its vectors, or its stored rows read into a scratch block (valid until the next call). */
+  private rowsOf(f: FileSections, n: number): Float32Array {
+    if (!f.stored) return f.vectors;
+    const k = this.lists.k;
+    if (this._rows.length < n * k) this._rows = new Float32Array(Math.max(n * k, 2 * this._rows.length));
+    f.stored.reader.read(f.stored.first, n, this._rows, 0);
+    return this._rows;
+  }
+
   private readonly _codes: ConceptCodes | null;
   private readonly _spilled: Spilled | null;
   private _at = new Int32Array(64);
 
   /** Codes every file's rows and writes them out in slot order (each list through a small buffer). */
-  private spillAll(listOf: readonly Int32Array[]): void {
+  private spillAll(listOf: Int32Array): void {
     const sp = this._spilled!;
     const k = this.lists.k;
     const lists = this.lists.lists;
@@ -164,11 +188,10 @@ export class ListedSections {
       held[l] = 0;
     };
     this._files.forEach((f, no) => {
-      const v = f!.vectors; // once: stored rows are read on each access
-      const l = listOf[no];
-      const rows = this.code(v, l.length);
-      for (let i = 0; i < l.length; i++) {
-        const j = l[i];
+      const [first, n] = [this._fileFirst[no], this._fileFirst[no + 1] - this._fileFirst[no]];
+      const rows = this.code(this.rowsOf(f!, n), n);
+      for (let i = 0; i < n; i++) {
+        const j = listOf[first + i];
         const to = j * SPILL_BATCH + held[j];
         codes.set(rows.codes.subarray(i * k, (i + 1) * k), to * k);
         params[to * PARAMS] = rows.scales[i];
@@ -260,10 +283,10 @@ export class ListedSections {
   remove(path: string): void {
     const f = this._fileNo.get(path);
     if (f === undefined) return;
-    for (const s of this._fileSlots[f]!) this._slotFile[s] = -1;
-    this._dead += this._fileSlots[f]!.length;
+    const [from, to] = [this._fileFirst[f], this._fileFirst[f + 1]];
+    for (let g = from; g < to; g++) this._slotFile[this._fileSlots[g]] = -1;
+    this._dead += to - from;
     this._files[f] = null;
-    this._fileSlots[f] = null;
     this._fileNo.delete(path);
   }
 
@@ -271,34 +294,34 @@ export class ListedSections {
   add(path: string, f: FileSections): void {
     this.remove(path);
     const k = this.lists.k;
-    const n = f.starts.length;
+    const n = countOf(f);
     const no = this._files.length;
     this._fileNo.set(path, no);
     this._paths.push(path);
     this._files.push(f);
-    if (this._used + n > this._slotFile.length) {
-      const size = Math.max(this._used + n, Math.ceil(this._slotFile.length * 1.25));
-      const grow = (a: Int32Array): Int32Array => {
-        const b = new Int32Array(size);
-        b.set(a);
-        return b;
-      };
-      this._slotFile = grow(this._slotFile);
-      this._slotIndex = grow(this._slotIndex);
-    }
+    const grow = (a: Int32Array, size: number): Int32Array => {
+      if (size <= a.length) return a;
+      const b = new Int32Array(Math.max(size, Math.ceil(a.length * 1.25)));
+      b.set(a);
+      return b;
+    };
+    this._slotFile = grow(this._slotFile, this._used + n);
+    this._slotIndex = grow(this._slotIndex, this._used + n);
+    this._fileFirst = grow(this._fileFirst, no + 2);
+    const first = this._fileFirst[no];
+    this._fileFirst[no + 1] = first + n;
+    this._fileSlots = grow(this._fileSlots, first + n);
     this._codes?.ensureCapacity(this._used + n);
-    const slots = new Int32Array(n);
     const v = f.vectors; // once: stored rows are read on each access
     if (this._spilled && n > 0) this.spillRows(this.code(v, n), this._used, n);
     for (let i = 0; i < n; i++) {
       const s = this._used++;
-      slots[i] = s;
+      this._fileSlots[first + i] = s;
       this._slotFile[s] = no;
       this._slotIndex[s] = i;
       this._extra[this.lists.file(v, i * k)].push(s);
       this._codes?.setRowsAt(s, v.subarray(i * k, (i + 1) * k), 1);
     }
-    this._fileSlots.push(slots);
   }
 
   /**
@@ -337,7 +360,8 @@ export class ListedSections {
     }
     for (const path of also) {
       const f = this._fileNo.get(path);
-      if (f !== undefined) for (const s of this._fileSlots[f]!) push(s, s + 1);
+      if (f !== undefined)
+        for (let g = this._fileFirst[f]; g < this._fileFirst[f + 1]; g++) push(this._fileSlots[g], this._fileSlots[g] + 1);
     }
     this._lastRuns = runs;
     this._lastScreened = 0;
@@ -425,6 +449,11 @@ export function insertDescending(a: Float64Array, x: number): void {
     i--;
   }
   a[i] = x;
+}
+
+/** Sections of a file, without making its arrays (a stored file's are made on each access). */
+function countOf(f: FileSections): number {
+  return f instanceof StoredFileSections ? f.count : f.starts.length;
 }
 
 /** The bytes of a typed array (a view of the same memory). */
