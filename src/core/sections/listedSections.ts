@@ -37,6 +37,8 @@ const SLACK = 1e-9;
 const CODE_ROWS = 4096;
 /** Coded rows a list gathers before they are written to the spill (a bounded buffer, not tuned). */
 const SPILL_BATCH = 32;
+/** Spilled runs at most this many rows apart are read in one call (about 5 KiB of codes; common practice, not tuned). */
+const SPILL_GAP = 16;
 /** Numbers a row has beside its codes in the spill: scale, error and norm (f64 each). */
 const PARAMS = 3;
 
@@ -166,6 +168,7 @@ export class ListedSections {
   private readonly _codes: ConceptCodes | null;
   private readonly _spilled: Spilled | null;
   private _at = new Int32Array(64);
+  private _order = new Int32Array(64);
 
   /** Codes every file's rows and writes them out in slot order (each list through a small buffer). */
   private spillAll(listOf: Int32Array): void {
@@ -221,25 +224,43 @@ export class ListedSections {
   }
 
   /**
-   * Loads the coded rows of the runs into the scratch, packed (run r from _at[r]), and bounds them.
+   * Loads the coded rows of the runs into the scratch and bounds them. Runs are taken in slot
+   * order and those at most SPILL_GAP rows apart are read as one block (the rows between are
+   * bounded and never looked at): a query's also-files scatter single slots over the whole file,
+   * and a read call costs more than a few KiB more to copy. Run r's rows start at _at[r].
    * @returns the bounds, row-indexed by packed position.
    */
   private boundsSpilled(q: Float32Array, runs: number): { center: Float64Array; radius: Float64Array } {
     const sp = this._spilled!;
     const k = this.lists.k;
-    if (this._at.length < runs) this._at = new Int32Array(this._from.length);
+    const [from, to] = [this._from, this._to];
+    if (this._at.length < runs) this._at = new Int32Array(from.length);
+    if (this._order.length < runs) this._order = new Int32Array(from.length);
+    const order = this._order.subarray(0, runs);
+    for (let r = 0; r < runs; r++) order[r] = r;
+    order.sort((a, b) => from[a] - from[b] || a - b);
+    // Blocks [blockFrom, blockTo) in slot order: first their total, then their reads.
     let total = 0;
-    for (let r = 0; r < runs; r++) total += this._to[r] - this._from[r];
+    for (let x = 0; x < runs;) {
+      const blockFrom = from[order[x]];
+      let blockTo = to[order[x]];
+      for (x++; x < runs && from[order[x]] <= blockTo + SPILL_GAP; x++) blockTo = Math.max(blockTo, to[order[x]]);
+      total += blockTo - blockFrom;
+    }
     sp.scratch.ensureCapacity(Math.max(1, total));
+    if (sp.staging.length < total * PARAMS) sp.staging = new Float64Array(Math.max(total * PARAMS, 2 * sp.staging.length));
     let p = 0;
-    for (let r = 0; r < runs; r++) {
-      const [from, m] = [this._from[r], this._to[r] - this._from[r]];
-      this._at[r] = p;
+    for (let x = 0; x < runs;) {
+      const first = x;
+      const blockFrom = from[order[x]];
+      let blockTo = to[order[x]];
+      for (x++; x < runs && from[order[x]] <= blockTo + SPILL_GAP; x++) blockTo = Math.max(blockTo, to[order[x]]);
+      const m = blockTo - blockFrom;
+      for (let y = first; y < x; y++) this._at[order[y]] = p + from[order[y]] - blockFrom;
       const rows = sp.scratch.rowsAt(p, m);
-      sp.codes.read(bytesOf(rows.codes), from * k);
-      if (sp.staging.length < m * PARAMS) sp.staging = new Float64Array(Math.max(m * PARAMS, 2 * sp.staging.length));
+      sp.codes.read(bytesOf(rows.codes), blockFrom * k);
       const staged = sp.staging;
-      sp.params.read(bytesOf(staged.subarray(0, m * PARAMS)), from * PARAMS * 8);
+      sp.params.read(bytesOf(staged.subarray(0, m * PARAMS)), blockFrom * PARAMS * 8);
       for (let i = 0; i < m; i++) {
         rows.scales[i] = staged[i * PARAMS];
         rows.errors[i] = staged[i * PARAMS + 1];
