@@ -51,6 +51,12 @@ export const SCREEN_MIN_SECTIONS = 4096;
  * round number from that cost, not from any ranking.
  */
 export const SECTION_LISTS_FROM = 65536;
+/**
+ * The lists' codes go to a spill (spillListsTo) from this many bytes on: below it they cost little
+ * memory, and reading them back costs a request some milliseconds (about 5 ms for the 8 MB a request
+ * reads on the Linux tree, bench/sectionLatency.ts). A round number, not tuned.
+ */
+export const SPILL_FROM_BYTES = 64 * 1024 * 1024;
 /** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
 const SCREEN_SLACK = 1e-9;
 /**
@@ -81,8 +87,9 @@ export class SectionStore {
   private readonly _scratch: RowScratch;
   /** The sources of stored rows of the files set so far (closed by closeRows). */
   private readonly _readers = new Set<SectionRowReader>();
-  /** Where the lists' codes go (undefined: memory). */
+  /** Where the lists' codes go (undefined: memory), and from how many bytes of codes on. */
   private _openSpill: OpenSpill | undefined;
+  private _spillFrom = SPILL_FROM_BYTES;
 
   /**
    * @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS).
@@ -110,11 +117,12 @@ export class SectionStore {
   }
 
   /**
-   * Keeps the lists' 8-bit codes in spills opened by `open` (undefined: in memory), from the next
-   * filing on (listedSections.ts).
+   * Keeps the lists' 8-bit codes in spills opened by `open` (undefined: in memory) when they would
+   * take at least `fromBytes` (k + 24 bytes a section), from the next filing on (listedSections.ts).
    */
-  spillListsTo(open: OpenSpill | undefined): void {
+  spillListsTo(open: OpenSpill | undefined, fromBytes = SPILL_FROM_BYTES): void {
     this._openSpill = open;
+    this._spillFrom = fromBytes;
     this.forgetListed();
   }
 
@@ -309,7 +317,8 @@ export class SectionStore {
     if (this._listed) return this._listed;
     const lists = this.lists();
     if (!lists) return null;
-    this._listed = new ListedSections(lists, this._files.entries(), this._openSpill);
+    const spill = this._count * (this.k + 24) >= this._spillFrom ? this._openSpill : undefined;
+    this._listed = new ListedSections(lists, this._files.entries(), spill);
     return this._listed;
   }
 

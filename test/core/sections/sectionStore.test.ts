@@ -184,7 +184,7 @@ describe('SectionStore.rank over the probed lists (sectionLists.ts, listedSectio
     };
     const plain = listed();
     const spilled = listed();
-    spilled.spillListsTo(openSpill);
+    spilled.spillListsTo(openSpill, 0);
     const same = (): void => {
       for (const { path, q } of queries.slice(0, 60)) {
         const other = (p: string): boolean => p !== path;
@@ -219,10 +219,18 @@ describe('SectionStore.rank over the probed lists (sectionLists.ts, listedSectio
     expect(opened.every((o) => o.closed)).toBe(true);
   });
 
-  it('keeps the codes in memory when no spill can be opened', () => {
+  it('keeps the codes in memory when no spill can be opened, or when they are small', () => {
     const plain = listed();
     const store = listed();
-    store.spillListsTo(() => null);
+    store.spillListsTo(() => null, 0);
     for (const { q } of queries.slice(0, 20)) expect(store.rank(q, 10, undefined, 2)).toEqual(plain.rank(q, 10, undefined, 2));
+    let opened = 0;
+    const small = listed();
+    small.spillListsTo(() => (opened++, null), (k + 24) * small.count + 1);
+    small.rank(queries[0].q, 10);
+    expect(opened).toBe(0);
+    small.spillListsTo(() => (opened++, null), (k + 24) * small.count);
+    small.rank(queries[0].q, 10);
+    expect(opened).toBe(1);
   });
 });
