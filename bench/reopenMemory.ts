@@ -4,7 +4,7 @@
  * Steps: the bare process; loaded (loadIndex, section rows left in the file unless --memory);
  * prepared as the editor's worker prepares it (word-match postings, 8-bit file screen); after a
  * file search and a file Nearby; after a section search and a section Nearby (the first trains and
- * files the section lists on a large tree). Usage:
+ * files the section lists on a large tree; the lists are trained as a step of their own). Usage:
  *   npx esbuild bench/reopenMemory.ts --bundle --platform=node --format=esm --outfile=dist/reopenMemory.mjs \
  *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
  *   node --expose-gc dist/reopenMemory.mjs <index file> [--memory]
@@ -47,7 +47,13 @@ const query = 'memory allocation and power management';
 const hits = index.search(query, { top: 10 });
 if (hits.length > 0) index.nearby(hits[0].path, { top: 10 });
 reading('after a file search and a Nearby');
+{
+  const t = performance.now();
+  index.sections.lists();
+  reading(`section lists trained (${((performance.now() - t) / 1000).toFixed(1)} s)`);
+}
 const sections = searchSections(index, query, { top: 10 });
+reading('after a section search');
 if (sections.length > 0) nearbySections(index, sections[0].path, sections[0].start, { top: 10 });
 reading('after a section search and a section Nearby');
 console.log(`${index.size} files, ${index.sections.count} sections, k=${index.k}; load average ${loadavg()[0].toFixed(1)}`);

@@ -253,7 +253,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     };
     if (countPool && counting === 'sorted') {
       // From scratch: counts come back over a vocabulary already in the builder's order.
-      const counted = await countFilesSorted(countPool, jobs(), countOptions);
+      const counted = await countFilesSorted(countPool, jobs(), { ...countOptions, endThreads: true });
       vocab = counted.vocab;
       builder = new IndexBuilder(settings, vocab);
       counted.outcomes.forEach((got, i) => record(toRead[i], got));

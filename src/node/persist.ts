@@ -9,7 +9,9 @@
  * The section vectors (most of a large tree's file) are not loaded: every byte is still checked
  * (streamed through the checksum and the unit-length check in blocks, nothing kept), then the rows
  * are read where they lie when a ranking needs them (sectionRowFile.ts), from a descriptor the
- * index keeps open. LoadOptions.sectionRows 'memory' reads them into memory as before.
+ * index keeps open. LoadOptions.sectionRows 'memory' reads them into memory as before. With rows
+ * in the file, the section lists' 8-bit codes are kept in a scratch file beside it when a ranking
+ * first files them (sectionCodeFile.ts).
  */
 import { randomBytes } from 'node:crypto';
 import { constants, writeSync } from 'node:fs';
@@ -28,6 +30,7 @@ import {
   readIndexHeader,
   sectionRowsOf,
 } from '../core/index/persistence/serialize.js';
+import { openSpillBeside } from './sectionCodeFile.js';
 import { FileSectionRows } from './sectionRowFile.js';
 import type { IndexSettings } from '../core/index/model/settings.js';
 import { describeFsError } from './scanRead.js';
@@ -412,6 +415,8 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
   const { head, rows, size } = read;
   try {
     const index = rows ? decodeIndexWithRows(head, rows) : decodeIndex(head);
+    // Rows left in the file: the section lists' codes go to a scratch file beside it too.
+    if (rows) index.sections.spillListsTo(openSpillBeside(dirname(resolve(path))));
     return { status: 'ok', index, bytes: size ?? head.length };
   } catch (err) {
     rows?.close();

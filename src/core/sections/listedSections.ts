@@ -11,10 +11,18 @@
  * Slots: at build time sections take slots list by list; a section added later (a file folded in
  * on save) takes the next free slot at the end and joins its list's extra slots; a removed file's
  * slots are marked dead and skipped. The owner rebuilds when dead slots pile up (deadShare).
+ * Spilled codes: given a way to open a spill (OpenSpill; the node side is a scratch file), the
+ * coded rows are written out in slot order, so a probed list is one run of the file, and a query
+ * reads the runs it bounds into a scratch block, packed (two positioned reads a run: the codes, then
+ * each row's scale, error and norm). The bounds are the same numbers as from codes held in memory
+ * (a row's bound depends on that row and the query alone), so the same sections are multiplied.
+ * On the Linux tree this keeps 1.33 M × (289 + 24) bytes (0.42 GB) out of the editor's worker.
  */
 import { ConceptCodes } from '../index/search/conceptCodes.js';
 import type { SectionLists } from './sectionLists.js';
+import { StoredFileSections } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
+import type { ByteSpill, OpenSpill } from './types.js';
 
 /** Sections of one file to multiply exactly: positions in the file, ascending. */
 export interface PickedSections {
@@ -27,6 +35,25 @@ export interface PickedSections {
 const SLACK = 1e-9;
 /** Rows coded at a time when building (a bounded scratch block). */
 const CODE_ROWS = 4096;
+/** Coded rows a list gathers before they are written to the spill (a bounded buffer, not tuned). */
+const SPILL_BATCH = 32;
+/** Spilled runs at most this many rows apart are read in one call (about 5 KiB of codes; common practice, not tuned). */
+const SPILL_GAP = 16;
+/** Numbers a row has beside its codes in the spill: scale, error and norm (f64 each). */
+const PARAMS = 3;
+
+/** Codes kept in spills, and the scratch a query loads the rows it bounds into. */
+interface Spilled {
+  /** k bytes a slot, in slot order. */
+  readonly codes: ByteSpill;
+  /** PARAMS f64 a slot, in slot order. */
+  readonly params: ByteSpill;
+  /** Codes one file's rows before they are written out. */
+  readonly coder: ConceptCodes;
+  /** The rows of one request, packed. */
+  readonly scratch: ConceptCodes;
+  staging: Float64Array;
+}
 
 export class ListedSections {
   private _slotFile: Int32Array;
@@ -35,7 +62,13 @@ export class ListedSections {
   private _dead = 0;
   private readonly _paths: string[] = [];
   private readonly _files: (FileSections | null)[] = [];
-  private readonly _fileSlots: (Int32Array | null)[] = [];
+  /**
+   * Each file's slots, flat: file no's are _fileSlots[_fileFirst[no] … _fileFirst[no + 1]) (a
+   * removed file's entries are left, its _files entry is null).
+   */
+  private _fileSlots: Int32Array;
+  private _fileFirst: Int32Array;
+  private _rows = new Float32Array(0);
   private readonly _fileNo = new Map<string, number>();
   /** First build-time slot of each list (length lists + 1), and each list's later slots. */
   private readonly _starts: Int32Array;
@@ -48,51 +81,66 @@ export class ListedSections {
   private _lastScreened = 0;
   private _lastRuns = 0;
 
-  /** Files the sections, in the order given, under the trained lists. */
+  /**
+   * Files the sections, in the order given, under the trained lists.
+   * @param openSpill where the coded rows go instead of memory (see the header); without it, or
+   * when it gives no spill, they stay in memory.
+   */
   constructor(
     readonly lists: SectionLists,
     entries: Iterable<readonly [string, FileSections]>,
+    openSpill?: OpenSpill,
   ) {
     const k = lists.k;
-    const listOf: Int32Array[] = [];
     this._starts = new Int32Array(lists.lists + 1);
+    let total = 0;
+    const counts: number[] = [];
     for (const [path, f] of entries) {
-      const l = new Int32Array(f.starts.length);
-      const v = f.vectors; // once: stored rows are read on each access
-      for (let i = 0; i < l.length; i++) {
-        l[i] = lists.file(v, i * k);
-        this._starts[l[i] + 1]++;
-      }
       this._fileNo.set(path, this._files.length);
       this._paths.push(path);
       this._files.push(f);
-      listOf.push(l);
+      counts.push(countOf(f));
+      total += counts[counts.length - 1];
     }
+    const files = this._files.length;
+    this._fileFirst = new Int32Array(files + 65);
+    for (let f = 0; f < files; f++) this._fileFirst[f + 1] = this._fileFirst[f] + counts[f];
+    // Each section's list, in file order (one flat array: no array a file).
+    const listOf = new Int32Array(total);
+    this._files.forEach((f, no) => {
+      const first = this._fileFirst[no];
+      const v = this.rowsOf(f!, counts[no]);
+      for (let i = 0; i < counts[no]; i++) {
+        const l = lists.file(v, i * k);
+        listOf[first + i] = l;
+        this._starts[l + 1]++;
+      }
+    });
     for (let j = 0; j < lists.lists; j++) this._starts[j + 1] += this._starts[j];
     const n = this._starts[lists.lists];
     this._slotFile = new Int32Array(n + 64);
     this._slotIndex = new Int32Array(n + 64);
+    this._fileSlots = new Int32Array(n + 64);
     const next = this._starts.slice(0, lists.lists);
-    listOf.forEach((l, f) => {
-      const slots = new Int32Array(l.length);
-      for (let i = 0; i < l.length; i++) {
-        const s = next[l[i]]++;
-        slots[i] = s;
+    for (let f = 0; f < files; f++)
+      for (let i = 0, g = this._fileFirst[f]; i < counts[f]; i++, g++) {
+        const s = next[listOf[g]]++;
+        this._fileSlots[g] = s;
         this._slotFile[s] = f;
         this._slotIndex[s] = i;
       }
-      this._fileSlots.push(slots);
-    });
     this._used = n;
     this._extra = Array.from({ length: lists.lists }, () => []);
-    this._codes = ConceptCodes.empty(k, n + 64);
-    if (this._codes && this._files.some((f) => f?.stored)) {
+    this._spilled = openSpill ? spillsFor(k, openSpill) : null;
+    this._codes = this._spilled ? null : ConceptCodes.empty(k, n + 64);
+    if (this._spilled) this.spillAll(listOf);
+    else if (this._codes && this._files.some((f) => f?.stored)) {
       // Stored rows: each file's rows read once, coded row by row into their slots (a row's code
       // depends on that row alone, so the codes equal the block-wise ones).
       this._files.forEach((f, no) => {
-        const v = f!.vectors;
-        const slots = this._fileSlots[no]!;
-        for (let i = 0; i < slots.length; i++) this._codes!.setRowsAt(slots[i], v.subarray(i * k, (i + 1) * k), 1);
+        const v = this.rowsOf(f!, counts[no]);
+        const first = this._fileFirst[no];
+        for (let i = 0; i < counts[no]; i++) this._codes!.setRowsAt(this._fileSlots[first + i], v.subarray(i * k, (i + 1) * k), 1);
       });
     } else if (this._codes) {
       const block = new Float32Array(CODE_ROWS * k);
@@ -108,7 +156,131 @@ export class ListedSections {
     }
   }
 
+  /** A file's rows: its vectors, or its stored rows read into a scratch block (valid until the next call). */
+  private rowsOf(f: FileSections, n: number): Float32Array {
+    if (!f.stored) return f.vectors;
+    const k = this.lists.k;
+    if (this._rows.length < n * k) this._rows = new Float32Array(Math.max(n * k, 2 * this._rows.length));
+    f.stored.reader.read(f.stored.first, n, this._rows, 0);
+    return this._rows;
+  }
+
   private readonly _codes: ConceptCodes | null;
+  private readonly _spilled: Spilled | null;
+  private _at = new Int32Array(64);
+  private _order = new Int32Array(64);
+
+  /** Codes every file's rows and writes them out in slot order (each list through a small buffer). */
+  private spillAll(listOf: Int32Array): void {
+    const sp = this._spilled!;
+    const k = this.lists.k;
+    const lists = this.lists.lists;
+    const codes = new Int8Array(lists * SPILL_BATCH * k);
+    const params = new Float64Array(lists * SPILL_BATCH * PARAMS);
+    const held = new Int32Array(lists);
+    const written = new Int32Array(lists);
+    const flush = (l: number): void => {
+      const m = held[l];
+      if (m === 0) return;
+      const slot = this._starts[l] + written[l];
+      const c = codes.subarray(l * SPILL_BATCH * k, (l * SPILL_BATCH + m) * k);
+      const p = params.subarray(l * SPILL_BATCH * PARAMS, (l * SPILL_BATCH + m) * PARAMS);
+      sp.codes.write(bytesOf(c), slot * k);
+      sp.params.write(bytesOf(p), slot * PARAMS * 8);
+      written[l] += m;
+      held[l] = 0;
+    };
+    this._files.forEach((f, no) => {
+      const [first, n] = [this._fileFirst[no], this._fileFirst[no + 1] - this._fileFirst[no]];
+      const rows = this.code(this.rowsOf(f!, n), n);
+      for (let i = 0; i < n; i++) {
+        const j = listOf[first + i];
+        const to = j * SPILL_BATCH + held[j];
+        codes.set(rows.codes.subarray(i * k, (i + 1) * k), to * k);
+        params[to * PARAMS] = rows.scales[i];
+        params[to * PARAMS + 1] = rows.errors[i];
+        params[to * PARAMS + 2] = rows.norms[i];
+        if (++held[j] === SPILL_BATCH) flush(j);
+      }
+    });
+    for (let l = 0; l < lists; l++) flush(l);
+  }
+
+  /** Codes n rows of a block with the spill's coder; views of them (valid until the next call). */
+  private code(v: Float32Array, n: number): ReturnType<ConceptCodes['rowsAt']> {
+    const coder = this._spilled!.coder;
+    coder.ensureCapacity(Math.max(1, n));
+    coder.setRowsAt(0, v, n);
+    return coder.rowsAt(0, n);
+  }
+
+  /** Writes n coded rows (code() views) to the spill from slot on. */
+  private spillRows(rows: ReturnType<ConceptCodes['rowsAt']>, slot: number, n: number): void {
+    const sp = this._spilled!;
+    const p = new Float64Array(n * PARAMS);
+    for (let i = 0; i < n; i++) [p[i * PARAMS], p[i * PARAMS + 1], p[i * PARAMS + 2]] = [rows.scales[i], rows.errors[i], rows.norms[i]];
+    sp.codes.write(bytesOf(rows.codes), slot * this.lists.k);
+    sp.params.write(bytesOf(p), slot * PARAMS * 8);
+  }
+
+  /**
+   * Loads the coded rows of the runs into the scratch and bounds them. Runs are taken in slot
+   * order and those at most SPILL_GAP rows apart are read as one block (the rows between are
+   * bounded and never looked at): a query's also-files scatter single slots over the whole file,
+   * and a read call costs more than a few KiB more to copy. Run r's rows start at _at[r].
+   * @returns the bounds, row-indexed by packed position.
+   */
+  private boundsSpilled(q: Float32Array, runs: number): { center: Float64Array; radius: Float64Array } {
+    const sp = this._spilled!;
+    const k = this.lists.k;
+    const [from, to] = [this._from, this._to];
+    if (this._at.length < runs) this._at = new Int32Array(from.length);
+    if (this._order.length < runs) this._order = new Int32Array(from.length);
+    const order = this._order.subarray(0, runs);
+    for (let r = 0; r < runs; r++) order[r] = r;
+    order.sort((a, b) => from[a] - from[b] || a - b);
+    // Blocks [blockFrom, blockTo) in slot order: first their total, then their reads.
+    let total = 0;
+    for (let x = 0; x < runs;) {
+      const blockFrom = from[order[x]];
+      let blockTo = to[order[x]];
+      for (x++; x < runs && from[order[x]] <= blockTo + SPILL_GAP; x++) blockTo = Math.max(blockTo, to[order[x]]);
+      total += blockTo - blockFrom;
+    }
+    sp.scratch.ensureCapacity(Math.max(1, total));
+    if (sp.staging.length < total * PARAMS) sp.staging = new Float64Array(Math.max(total * PARAMS, 2 * sp.staging.length));
+    let p = 0;
+    for (let x = 0; x < runs;) {
+      const first = x;
+      const blockFrom = from[order[x]];
+      let blockTo = to[order[x]];
+      for (x++; x < runs && from[order[x]] <= blockTo + SPILL_GAP; x++) blockTo = Math.max(blockTo, to[order[x]]);
+      const m = blockTo - blockFrom;
+      for (let y = first; y < x; y++) this._at[order[y]] = p + from[order[y]] - blockFrom;
+      const rows = sp.scratch.rowsAt(p, m);
+      sp.codes.read(bytesOf(rows.codes), blockFrom * k);
+      const staged = sp.staging;
+      sp.params.read(bytesOf(staged.subarray(0, m * PARAMS)), blockFrom * PARAMS * 8);
+      for (let i = 0; i < m; i++) {
+        rows.scales[i] = staged[i * PARAMS];
+        rows.errors[i] = staged[i * PARAMS + 1];
+        rows.norms[i] = staged[i * PARAMS + 2];
+      }
+      p += m;
+    }
+    return sp.scratch.bounds(q, total);
+  }
+
+  /** Gives the spills back (a spilled instance answers no more queries after it). */
+  close(): void {
+    this._spilled?.codes.close();
+    this._spilled?.params.close();
+  }
+
+  /** Whether the coded rows are kept in spills rather than in memory. */
+  get spilled(): boolean {
+    return this._spilled !== null;
+  }
 
   /** Sections the last candidates() bounded, and the runs of slots they lay in (for the benchmark). */
   get lastScreened(): number {
@@ -132,10 +304,10 @@ export class ListedSections {
   remove(path: string): void {
     const f = this._fileNo.get(path);
     if (f === undefined) return;
-    for (const s of this._fileSlots[f]!) this._slotFile[s] = -1;
-    this._dead += this._fileSlots[f]!.length;
+    const [from, to] = [this._fileFirst[f], this._fileFirst[f + 1]];
+    for (let g = from; g < to; g++) this._slotFile[this._fileSlots[g]] = -1;
+    this._dead += to - from;
     this._files[f] = null;
-    this._fileSlots[f] = null;
     this._fileNo.delete(path);
   }
 
@@ -143,33 +315,34 @@ export class ListedSections {
   add(path: string, f: FileSections): void {
     this.remove(path);
     const k = this.lists.k;
-    const n = f.starts.length;
+    const n = countOf(f);
     const no = this._files.length;
     this._fileNo.set(path, no);
     this._paths.push(path);
     this._files.push(f);
-    if (this._used + n > this._slotFile.length) {
-      const size = Math.max(this._used + n, Math.ceil(this._slotFile.length * 1.25));
-      const grow = (a: Int32Array): Int32Array => {
-        const b = new Int32Array(size);
-        b.set(a);
-        return b;
-      };
-      this._slotFile = grow(this._slotFile);
-      this._slotIndex = grow(this._slotIndex);
-    }
+    const grow = (a: Int32Array, size: number): Int32Array => {
+      if (size <= a.length) return a;
+      const b = new Int32Array(Math.max(size, Math.ceil(a.length * 1.25)));
+      b.set(a);
+      return b;
+    };
+    this._slotFile = grow(this._slotFile, this._used + n);
+    this._slotIndex = grow(this._slotIndex, this._used + n);
+    this._fileFirst = grow(this._fileFirst, no + 2);
+    const first = this._fileFirst[no];
+    this._fileFirst[no + 1] = first + n;
+    this._fileSlots = grow(this._fileSlots, first + n);
     this._codes?.ensureCapacity(this._used + n);
-    const slots = new Int32Array(n);
     const v = f.vectors; // once: stored rows are read on each access
+    if (this._spilled && n > 0) this.spillRows(this.code(v, n), this._used, n);
     for (let i = 0; i < n; i++) {
       const s = this._used++;
-      slots[i] = s;
+      this._fileSlots[first + i] = s;
       this._slotFile[s] = no;
       this._slotIndex[s] = i;
       this._extra[this.lists.file(v, i * k)].push(s);
       this._codes?.setRowsAt(s, v.subarray(i * k, (i + 1) * k), 1);
     }
-    this._fileSlots.push(slots);
   }
 
   /**
@@ -208,7 +381,8 @@ export class ListedSections {
     }
     for (const path of also) {
       const f = this._fileNo.get(path);
-      if (f !== undefined) for (const s of this._fileSlots[f]!) push(s, s + 1);
+      if (f !== undefined)
+        for (let g = this._fileFirst[f]; g < this._fileFirst[f + 1]; g++) push(this._fileSlots[g], this._fileSlots[g] + 1);
     }
     this._lastRuns = runs;
     this._lastScreened = 0;
@@ -236,16 +410,22 @@ export class ListedSections {
       }
       this._picked[picked++] = s;
     };
-    if (this._codes) {
-      const { center, radius } = this._codes.boundsRuns(q, from, to, runs);
+    if (this._codes || this._spilled) {
+      // Bounds row-indexed by slot (codes in memory) or by packed position (spilled: run r from at[r]).
+      const { center, radius } = this._codes ? this._codes.boundsRuns(q, from, to, runs) : this.boundsSpilled(q, runs);
+      if (this._codes) {
+        if (this._at.length < runs) this._at = new Int32Array(this._from.length);
+        this._at.set(from.subarray(0, runs));
+      }
+      const at = this._at;
       if (this._bestLow.length < files) this._bestLow = new Float64Array(Math.ceil(files * 1.25)).fill(Number.NEGATIVE_INFINITY);
       const bestLow = this._bestLow;
       const touched: number[] = [];
       for (let r = 0; r < runs; r++)
-        for (let s = from[r]; s < to[r]; s++) {
+        for (let s = from[r], j = at[r]; s < to[r]; s++, j++) {
           const f = slotFile[s];
           if (f < 0 || ok[f] < 0) continue;
-          const low = center[s] - radius[s];
+          const low = center[j] - radius[j];
           if (low > bestLow[f]) {
             if (bestLow[f] === Number.NEGATIVE_INFINITY) touched.push(f);
             bestLow[f] = low;
@@ -258,7 +438,8 @@ export class ListedSections {
       }
       const bar = best[best.length - 1] - SLACK;
       for (let r = 0; r < runs; r++)
-        for (let s = from[r]; s < to[r]; s++) if (center[s] + radius[s] >= bar && slotFile[s] >= 0 && ok[slotFile[s]] > 0) take(s);
+        for (let s = from[r], j = at[r]; s < to[r]; s++, j++)
+          if (center[j] + radius[j] >= bar && slotFile[s] >= 0 && ok[slotFile[s]] > 0) take(s);
     } else {
       for (let r = 0; r < runs; r++) for (let s = from[r]; s < to[r]; s++) if (slotFile[s] >= 0 && ok[slotFile[s]] > 0) take(s);
     }
@@ -289,4 +470,28 @@ export function insertDescending(a: Float64Array, x: number): void {
     i--;
   }
   a[i] = x;
+}
+
+/** Sections of a file, without making its arrays (a stored file's are made on each access). */
+function countOf(f: FileSections): number {
+  return f instanceof StoredFileSections ? f.count : f.starts.length;
+}
+
+/** The bytes of a typed array (a view of the same memory). */
+function bytesOf(a: Int8Array | Float64Array): Uint8Array {
+  return new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
+}
+
+/** Two spills and the coders, or null when WebAssembly SIMD or a spill is not to be had. */
+function spillsFor(k: number, openSpill: OpenSpill): Spilled | null {
+  const coder = ConceptCodes.empty(k, 64);
+  const scratch = coder && ConceptCodes.empty(k, 4096);
+  if (!coder || !scratch) return null;
+  const codes = openSpill();
+  const params = codes && openSpill();
+  if (!codes || !params) {
+    codes?.close();
+    return null;
+  }
+  return { codes, params, coder, scratch, staging: new Float64Array(0) };
 }

@@ -101,6 +101,11 @@ export class StoredFileSections implements FileSections {
     this.stored = { reader: table.rows, first };
   }
 
+  /** Sections of the file. */
+  get count(): number {
+    return this.n;
+  }
+
   get starts(): Int32Array {
     return this.line(0);
   }

@@ -16,7 +16,9 @@
  * or halved since.
  * Files reopened from a saved index keep their f32 rows in the file (FileSections.stored,
  * ./sectionRows.ts): the exact products read just the rows they multiply (runs of nearby rows in
- * one read), the same numbers, so the same rankings.
+ * one read), the same numbers, so the same rankings. Given a spill (spillListsTo; the node side
+ * gives a scratch file beside a loaded index), the lists' 8-bit codes stay out of memory too
+ * (listedSections.ts).
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
@@ -24,6 +26,7 @@ import { insertDescending, ListedSections } from './listedSections.js';
 import { SectionLists, type SectionListsOptions } from './sectionLists.js';
 import { RowScratch, StoredFileSections, type SectionRowReader } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
+import type { OpenSpill } from './types.js';
 
 /** A section found by a search or a nearby question. */
 export interface SectionHit {
@@ -48,6 +51,12 @@ export const SCREEN_MIN_SECTIONS = 4096;
  * round number from that cost, not from any ranking.
  */
 export const SECTION_LISTS_FROM = 65536;
+/**
+ * The lists' codes go to a spill (spillListsTo) from this many bytes on: below it they cost little
+ * memory, and reading them back costs a request some milliseconds (about 5 ms for the 8 MB a request
+ * reads on the Linux tree, bench/sectionLatency.ts). A round number, not tuned.
+ */
+export const SPILL_FROM_BYTES = 64 * 1024 * 1024;
 /** Slack on the threshold for the rounding of the exact sums (scores are O(1)). */
 const SCREEN_SLACK = 1e-9;
 /**
@@ -78,6 +87,9 @@ export class SectionStore {
   private readonly _scratch: RowScratch;
   /** The sources of stored rows of the files set so far (closed by closeRows). */
   private readonly _readers = new Set<SectionRowReader>();
+  /** Where the lists' codes go (undefined: memory), and from how many bytes of codes on. */
+  private _openSpill: OpenSpill | undefined;
+  private _spillFrom = SPILL_FROM_BYTES;
 
   /**
    * @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS).
@@ -100,6 +112,18 @@ export class SectionStore {
   closeRows(): void {
     for (const r of this._readers) r.close();
     this._readers.clear();
+    this.forgetListed();
+    this._openSpill = undefined;
+  }
+
+  /**
+   * Keeps the lists' 8-bit codes in spills opened by `open` (undefined: in memory) when they would
+   * take at least `fromBytes` (k + 24 bytes a section), from the next filing on (listedSections.ts).
+   */
+  spillListsTo(open: OpenSpill | undefined, fromBytes = SPILL_FROM_BYTES): void {
+    this._openSpill = open;
+    this._spillFrom = fromBytes;
+    this.forgetListed();
   }
 
   /** Other options for the lists (trained again at the next ranking that uses them). */
@@ -151,7 +175,7 @@ export class SectionStore {
     this._screen = undefined;
     this._listed?.remove(path);
     if (this._lists && 2 * this._count < this._trainedAt) this.dropLists();
-    else if (this._listed && 2 * this._listed.dead > this._listed.used) this._listed = undefined;
+    else if (this._listed && 2 * this._listed.dead > this._listed.used) this.forgetListed();
   }
 
   /** The section of a file holding a zero-based line (the last one that starts at or before it), or null. */
@@ -284,7 +308,7 @@ export class SectionStore {
     };
     this._lists = SectionLists.train(this.k, { n: this._count, row }, this.listOptions);
     this._trainedAt = this._count;
-    this._listed = undefined;
+    this.forgetListed();
     return this._lists;
   }
 
@@ -293,12 +317,19 @@ export class SectionStore {
     if (this._listed) return this._listed;
     const lists = this.lists();
     if (!lists) return null;
-    this._listed = new ListedSections(lists, this._files.entries());
+    const spill = this._count * (this.k + 24) >= this._spillFrom ? this._openSpill : undefined;
+    this._listed = new ListedSections(lists, this._files.entries(), spill);
     return this._listed;
   }
 
   private dropLists(): void {
     this._lists = null;
+    this.forgetListed();
+  }
+
+  /** Drops the filed sections, giving their spills back. */
+  private forgetListed(): void {
+    this._listed?.close();
     this._listed = undefined;
   }
 

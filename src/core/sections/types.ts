@@ -63,3 +63,19 @@ export interface StoredRows {
   readonly reader: SectionRowReader;
   readonly first: number;
 }
+
+/**
+ * Bytes a ranker keeps out of memory: written at positions, read back in runs (the node side is a
+ * scratch file of its own: src/node/sectionCodeFile.ts). Only ever read where it was written.
+ */
+export interface ByteSpill {
+  /** Writes all of `bytes` at byte `position`. @throws SectionRowsError when it cannot. */
+  write(bytes: Uint8Array, position: number): void;
+  /** Fills `into` from byte `position`. @throws SectionRowsError when it cannot (closed: SectionRowsClosedError). */
+  read(into: Uint8Array, position: number): void;
+  /** Gives the space back (idempotent). */
+  close(): void;
+}
+
+/** Opens an empty spill, or returns null where none can be had (the caller then keeps the bytes in memory). */
+export type OpenSpill = () => ByteSpill | null;

@@ -43,6 +43,14 @@ export interface CountOptions {
   readonly keepCounts?: boolean;
   /** Count each file's sections on the threads too (countFilesSorted only; jobs need their key). */
   readonly sections?: boolean;
+  /**
+   * countFilesSorted ends the pool's threads as soon as their counts are in: they hold nothing a
+   * build needs any more, and their word tables, vocabularies and heaps (on the Linux tree about
+   * as much memory as all the counts) would otherwise stay until the pool is closed.
+   */
+  readonly endThreads?: boolean;
+  /** Called as countFilesSorted passes each of its steps (for the memory benchmark, bench/countMemory.ts). */
+  readonly onStep?: (step: 'read' | 'merged' | 'finished') => void;
 }
 
 const BATCH_FILES = 48;

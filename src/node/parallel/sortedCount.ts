@@ -45,15 +45,19 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
           : { kind: f.kind };
     }
   });
+  options.onStep?.('read');
   const orders = await Promise.all(pool.workers.map((_, w) => ask<TermOrder>(pool, w, { type: 'sort-terms' }, 'term-order')));
   const { sorted, translate } = mergeSorted(
     terms,
     orders.map((o) => o.order),
   );
+  options.onStep?.('merged');
   // Each thread translates and sorts its own files' counts (in parallel), into one pair of arrays.
   const finals = await Promise.all(
     pool.workers.map((_, w) => ask<FinalCounts>(pool, w, { type: 'finish-counts', translate: translate[w] }, 'final-counts')),
   );
+  if (options.endThreads) await pool.close();
+  options.onStep?.('finished');
   const outcomes: CountOutcome[] = new Array(jobs.length);
   for (let i = 0; i < jobs.length; i++) {
     const r = raw[i];

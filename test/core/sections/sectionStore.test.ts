@@ -11,6 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { SectionStore } from '../../../src/core/sections/sectionStore.js';
 import { foldContextOf, foldSections } from '../../../src/core/sections/sectionVectors.js';
+import type { ByteSpill } from '../../../src/core/sections/types.js';
 import { fixturePath } from '../../helpers/shared.js';
 
 const docs = gunzipSync(readFileSync(fixturePath('numba-doc-sections/docs.jsonl.gz')))
@@ -153,5 +154,83 @@ describe('SectionStore.rank over the probed lists (sectionLists.ts, listedSectio
       const scoreOf = new Map(store.rankExact(q, store.count).map((h) => [key(h), h.score]));
       for (const h of got) expect(h.score).toBe(scoreOf.get(key(h)));
     }
+  });
+
+  it('ranks the same with the codes spilled out of memory, before and after edits', () => {
+    // A spill held in a growing array, counting its reads (the node side is a scratch file).
+    const opened: { closed: boolean; reads: number }[] = [];
+    const openSpill = (): ByteSpill => {
+      let bytes = new Uint8Array(0);
+      const state = { closed: false, reads: 0 };
+      opened.push(state);
+      return {
+        write(b, at) {
+          if (at + b.length > bytes.length) {
+            const grown = new Uint8Array(Math.max(at + b.length, 2 * bytes.length));
+            grown.set(bytes);
+            bytes = grown;
+          }
+          bytes.set(b, at);
+        },
+        read(into, at) {
+          if (state.closed) throw new Error('read after close');
+          state.reads++;
+          into.set(bytes.subarray(at, at + into.length));
+        },
+        close() {
+          state.closed = true;
+        },
+      };
+    };
+    const plain = listed();
+    const spilled = listed();
+    spilled.spillListsTo(openSpill, 0);
+    const same = (): void => {
+      for (const { path, q } of queries.slice(0, 60)) {
+        const other = (p: string): boolean => p !== path;
+        for (const [top, accept, perFile, also] of [
+          [10, other, 3, [path]],
+          [5, undefined, Number.POSITIVE_INFINITY, []],
+        ] as const) {
+          const want = plain.rank(q, top, accept, perFile, also);
+          expect(spilled.rank(q, top, accept, perFile, also)).toEqual(want);
+          // The same sections were multiplied: the screens agreed row by row.
+          expect(spilled.lastExact).toBe(plain.lastExact);
+        }
+      }
+    };
+    same();
+    expect(opened.length).toBe(2);
+    expect(opened.every((o) => o.reads > 0)).toBe(true);
+    // A file added and one changed (filed at the end of the spill), one removed.
+    for (const store of [plain, spilled]) {
+      store.set('added.rst', folded[1][1]);
+      store.set(folded[0][0], folded[2][1]);
+      store.delete(folded[3][0]);
+    }
+    same();
+    expect(opened.length).toBe(2);
+    // Lists dropped (trained again once the count halves): the old spills are given back.
+    for (const store of [plain, spilled]) for (const [id] of folded.slice(4, Math.floor(folded.length * 0.7))) store.delete(id);
+    same();
+    expect(opened.length).toBe(4);
+    expect(opened.map((o) => o.closed)).toEqual([true, true, false, false]);
+    spilled.closeRows();
+    expect(opened.every((o) => o.closed)).toBe(true);
+  });
+
+  it('keeps the codes in memory when no spill can be opened, or when they are small', () => {
+    const plain = listed();
+    const store = listed();
+    store.spillListsTo(() => null, 0);
+    for (const { q } of queries.slice(0, 20)) expect(store.rank(q, 10, undefined, 2)).toEqual(plain.rank(q, 10, undefined, 2));
+    let opened = 0;
+    const small = listed();
+    small.spillListsTo(() => (opened++, null), (k + 24) * small.count + 1);
+    small.rank(queries[0].q, 10);
+    expect(opened).toBe(0);
+    small.spillListsTo(() => (opened++, null), (k + 24) * small.count);
+    small.rank(queries[0].q, 10);
+    expect(opened).toBe(1);
   });
 });

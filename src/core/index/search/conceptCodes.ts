@@ -122,6 +122,25 @@ export class ConceptCodes {
   }
 
   /**
+   * Rows [slot, slot + count) as writable views: their codes (count × k, row-major) and their
+   * scales, errors and norms (count each). For a caller that keeps the coded rows elsewhere (a
+   * file) and loads the rows a request bounds (then bounds(q, n) over rows [0, n)). Valid until the
+   * capacity changes.
+   */
+  rowsAt(slot: number, count: number): CodedRows {
+    if (!(Number.isInteger(slot) && Number.isInteger(count) && slot >= 0 && count >= 0 && slot + count <= this._capacity))
+      throw new RangeError(`rows ${slot}…${slot + count - 1} are outside the ${this._capacity} coded rows`);
+    const k = this.k;
+    this._filled = Math.max(this._filled, slot + count);
+    return {
+      codes: this._codes.subarray(slot * k, (slot + count) * k),
+      scales: this._scales.subarray(slot, slot + count),
+      errors: this._errors.subarray(slot, slot + count),
+      norms: this._norms.subarray(slot, slot + count),
+    };
+  }
+
+  /**
    * bounds() for the rows of the runs [from_r, to_r), r < runs, only: entries outside them are left
    * as they were. Views (row-indexed) reused by the next call.
    */
@@ -299,4 +318,12 @@ interface Query {
   readonly sigma: number;
   readonly norm2: number;
   readonly rest: number;
+}
+
+/** Views of coded rows (ConceptCodes.rowsAt): codes row-major, then one scale, error and norm a row. */
+export interface CodedRows {
+  readonly codes: Int8Array;
+  readonly scales: Float64Array;
+  readonly errors: Float64Array;
+  readonly norms: Float64Array;
 }
