@@ -112,11 +112,6 @@ export interface TopicsOptions {
   screenRestarts: number;
   /** @default 500 */
   screenSample: number;
-  /**
-   * A topic of at most leafSize files (and at least 10) still opens when its best split's mean
-   * silhouette reaches this; undefined = never. @default undefined
-   */
-  mixedSilhouette?: number;
   /** @default 3 */
   screenFinalists: number;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
@@ -348,10 +343,9 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       }));
       const memberPaths = members.map((m) => im.paths[m.row]);
       let children: Topic[] = [];
-      const big = group.length > o.leafSize;
-      if (level < o.depth && (big || (o.mixedSilhouette !== undefined && group.length >= MIXED_MIN))) {
+      if (level < o.depth && group.length > o.leafSize) {
         yield;
-        const sub = splitGroup(points, idx, dims, o, splitSeed(o.seed, path), big ? -Infinity : o.mixedSilhouette!);
+        const sub = splitGroup(points, idx, dims, o, splitSeed(o.seed, path));
         if (sub.length > 1)
           children = yield* build(
             sub,
@@ -429,10 +423,7 @@ export function topicsAtLevel(topics: readonly Topic[], level: number): Topic[] 
 const SPLIT_SAMPLE = 150;
 const SPLIT_PASSES = 15;
 
-/** The smallest topic the mixed-topic rule (mixedSilhouette) may split (our choice). */
-const MIXED_MIN = 10;
-
-function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: TopicsOptions, seed: number, minSilhouette = -Infinity): number[][] {
+function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: TopicsOptions, seed: number): number[][] {
   const m = idx.length;
   const sub = new Float64Array(m * dims);
   for (let j = 0; j < m; j++) sub.set(points.subarray(idx[j] * dims, (idx[j] + 1) * dims), j * dims);
@@ -444,8 +435,6 @@ function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: Topi
     seed,
   });
   if (choice.topics < 2) return [];
-  const silhouette = choice.scores.find((x) => x.topics === choice.topics)?.silhouette ?? -Infinity;
-  if (silhouette < minSilhouette) return [];
   let c: Clustering;
   if (m <= o.fitSample)
     c = sphericalKMeans(sub, m, dims, choice.topics, {
