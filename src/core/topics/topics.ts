@@ -24,7 +24,12 @@
  *    out, so the default stays 0. Splits with more restarts or refined (splitRestarts,
  *    splitRefine) moved Erlang's second level by 0.01 at most (topicLevels.ts), so they stay off.
  *    At least 20 first-level restarts won every fold the same way but cost too much time
- *    (restartsFor says how much).
+ *    (restartsFor says how much). Cheaper ways to 20 restarts (screenRestarts, screenedKMeans.ts;
+ *    same folds, seeds 0–9, 2026-12-03): screened on a 500-file sample, CMake 0.399 (from 0.395,
+ *    k-means 0.402) and Erlang 0.477 (from 0.484); run on every fitted file with only the best 3
+ *    refined, CMake 0.402 but Erlang 0.477 again, Django and Sphinx unchanged (their budget is
+ *    already above 20), for about 40% more CPU on the Documentation folder's tree; neither wins
+ *    the folds, so screenRestarts stays 0.
  * 2. Files that fit no topic well are set apart ("loose"): a file whose cosine with its topic's
  *    centre is no larger than its cosine with the centre of the whole workspace is explained by
  *    its topic no better than by the workspace's average direction (our rule; no constant).
@@ -107,7 +112,8 @@ export interface TopicsOptions {
   /**
    * First-level restarts screened on a sample (screenedKMeans.ts): when the budget of restartsFor
    * gives fewer restarts than this, this many are run on a screenSample-point sample and the best
-   * screenFinalists of them carried on (and refined) on the points k-means is fitted on; 0 = off. @default 0
+   * screenFinalists of them carried on (and refined) on the points k-means is fitted on; 0 = off
+   * (measured, not adopted: see the header). @default 0
    */
   screenRestarts: number;
   /** @default 500 */
