@@ -21,7 +21,9 @@
  *   smaller file's sections; mutual nearest pairs with cosine ≥ 0.3 only, else −1);
  * - words of the shorter and the longer file, and the two files' folders.
  * Folders: test/fixtures/lookalike-retellings, the same without the Texinfo side,
- * test/fixtures/cmake-doc, test/fixtures/django-doc, the demo workspace. For the fixture, each of
+ * test/fixtures/cmake-doc, test/fixtures/django-doc, the demo workspace, and the fixture with the
+ * third source of third.json.gz added (23 retellings of ten other packages, for a held-out
+ * reading: scripts/fixtures/lookalike-retellings/buildThird.py). For the fixture, each of
  * the key's 125 retellings gets its gate under clauses a and b (the first one it fails; the rule
  * before clause d), whether clause d (its options.ts constants at its chosen level −0.15) finds it, and its
  * partner's rank on each side (exact, over all files). Writes outDir/candidates.jsonl,
@@ -29,7 +31,8 @@
  * space view computed elsewhere); prints the gate counts. The leave-one-source-out choice of clause
  * d's constants over these columns: scripts/fixtures/lookalike-retellings/conceptClause.py.
  */
-import { mkdirSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { gunzipSync } from 'node:zlib';
 import { DEFAULT_LOOKALIKE_OPTIONS as D } from '../src/core/lookalike/options.js';
 import { namesOf, rareNameIndex } from '../src/core/lookalike/rareNames.js';
 import { boilerplateLines, withoutBoilerplate } from '../src/core/lookalike/retold.js';
@@ -39,7 +42,15 @@ import { conceptView } from '../src/core/lookalike/conceptView.js';
 import { splitLines, splitSections } from '../src/core/sections/splitSections.js';
 import { tokenize } from '../src/core/text/tokenize.js';
 import { rowCosine, termCountsOf, termNeighbours, termSpaceFromCounts } from '../src/core/lookalike/termSpace.js';
-import { demoFiles, demoParaphrases, jsonlFiles, pairKey, retellingsCorpus, type MaterialFile } from './lookalikeMaterial.js';
+import {
+  demoFiles,
+  demoParaphrases,
+  jsonlFiles,
+  pairKey,
+  retellingsCorpus,
+  type MaterialFile,
+  type RetellingsCorpus,
+} from './lookalikeMaterial.js';
 
 const outDir = process.argv[2] ?? '/tmp/lookalike-misses';
 mkdirSync(outDir, { recursive: true });
@@ -243,6 +254,8 @@ function analyse(folder: string, files: MaterialFile[], labels: Map<string, stri
 }
 
 const truth = new Map(corpus.retellings.map(([a, b, s]) => [pairKey(a, b), s]));
+/** The third source of retellings (third.json.gz, built after the rule's constants were chosen), added to the fixture's files. */
+const third = JSON.parse(gunzipSync(readFileSync('test/fixtures/lookalike-retellings/third.json.gz')).toString('utf8')) as RetellingsCorpus;
 const infoSide = new Set(corpus.retellings.map((r) => r[1]));
 const t0 = Date.now();
 const fix = analyse('retellings', corpus.files, truth);
@@ -256,6 +269,11 @@ const runs = [
   analyse('cmake', jsonlFiles('test/fixtures/cmake-doc/docs.jsonl.gz'), new Map()),
   analyse('django', jsonlFiles('test/fixtures/django-doc/docs.jsonl.gz'), new Map()),
   analyse('demo', demoFiles(), new Map(demoParaphrases().map(([a, b]) => [pairKey(a, b), 'demo']))),
+  analyse(
+    'retellings + third',
+    [...corpus.files, ...third.files],
+    new Map([...truth, ...third.retellings.map(([a, b, s]): [string, string] => [pairKey(a, b), s])]),
+  ),
 ];
 console.log(`folders ready: ${((Date.now() - t0) / 1000).toFixed(0)} s`);
 writeFileSync(`${outDir}/candidates.jsonl`, runs.flatMap((r) => r.cands.map((c) => JSON.stringify(c))).join('\n') + '\n');

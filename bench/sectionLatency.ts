@@ -7,6 +7,8 @@
  * RANKS=file.jsonl writes the top 20 of every timed request (path, position, score), one line each, to
  * compare rankings byte for byte between two builds.
  * FOCUS=p in the environment sets the search's query-word focus power (termFocus.ts; 0 = off).
+ * NEARBY_TFIDF=ν[,words[,concept|match]] sets Nearby's TF-IDF share, how many of the page's words form its
+ * query, and which part the share is taken from.
  * PROFILE=file.cpuprofile records a CPU profile of the timed requests only (after loading, prepare
  * and the first request), for Chrome DevTools or `node bench/profileTop.mjs file.cpuprofile`.
  * --exact ranks by the full pass (SectionStore.rankExact, the reference of the 8-bit screen and of
@@ -41,6 +43,16 @@ if (got.status !== 'ok') {
 }
 const index = got.index;
 if (process.env.FOCUS !== undefined) index.ranking = { ...index.ranking, termFocus: Number(process.env.FOCUS) };
+// NEARBY_TFIDF=ν[,words[,concept|match]]: fusion.ts nearbyTfidfShare, nearbyTfidfTerms, nearbyTfidfFromConcept.
+if (process.env.NEARBY_TFIDF !== undefined) {
+  const [nu, words, from] = process.env.NEARBY_TFIDF.split(',');
+  index.ranking = {
+    ...index.ranking,
+    nearbyTfidfShare: Number(nu),
+    ...(words !== undefined ? { nearbyTfidfTerms: Number(words) } : {}),
+    ...(from !== undefined ? { nearbyTfidfFromConcept: from === 'concept' } : {}),
+  };
+}
 if (exact) index.sections.rank = index.sections.rankExact.bind(index.sections);
 let products = 0;
 const files = [...index.sections.entries()];

@@ -70,6 +70,8 @@ export interface FolderIndexReport {
   readonly requestedK: number;
   readonly kClamped: boolean;
   readonly seconds: Record<IndexStage, number>;
+  /** CPU seconds (user + system, all threads) of the pipeline's stages. */
+  readonly cpuSeconds: PipelineResult['cpuSeconds'];
   readonly totalSeconds: number;
 }
 
@@ -141,6 +143,7 @@ function report(
     requestedK: index.model.kChoice.requested,
     kClamped: index.model.kChoice.clamped,
     seconds,
+    cpuSeconds: r.cpuSeconds,
     totalSeconds: (performance.now() - t0) / 1000,
   };
 }

@@ -144,6 +144,8 @@ export interface PipelineResult {
   readonly sectionsReadAgain: number;
   /** Seconds per stage. */
   readonly seconds: Record<PipelineStage, number>;
+  /** CPU seconds (user + system, every thread of the process) per stage. */
+  readonly cpuSeconds: Record<PipelineStage, number>;
 }
 
 /** How the files to read are counted. */
@@ -166,11 +168,16 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     if (cancelled()) throw new CancelledError();
   };
   const seconds: Record<PipelineStage, number> = { scan: 0, read: 0, matrix: 0, svd: 0, sections: 0, save: 0 };
+  const cpuSeconds: Record<PipelineStage, number> = { scan: 0, read: 0, matrix: 0, svd: 0, sections: 0, save: 0 };
   let mark = performance.now();
+  let cpuMark = process.cpuUsage();
   const lap = (stage: PipelineStage): void => {
     const now = performance.now();
     seconds[stage] += (now - mark) / 1000;
     mark = now;
+    const cpu = process.cpuUsage(cpuMark);
+    cpuSeconds[stage] += (cpu.user + cpu.system) / 1e6;
+    cpuMark = process.cpuUsage();
   };
 
   let pool: WorkerPool | undefined;
@@ -285,7 +292,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       removed === 0 &&
       previous.size === builder.size &&
       previous.staleness().changedFiles === 0;
-    if (unchanged) return { ...counts, sectionsReadAgain: 0, index: previous, unchanged: true, seconds };
+    if (unchanged) return { ...counts, sectionsReadAgain: 0, index: previous, unchanged: true, seconds, cpuSeconds };
     if (countedDocs) options.onCounted?.({ settings, vocab, docs: countedDocs });
 
     // ---- build
@@ -346,7 +353,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       await options.save(index);
       lap('save');
     }
-    return { ...counts, sectionsReadAgain, index, unchanged: false, seconds };
+    return { ...counts, sectionsReadAgain, index, unchanged: false, seconds, cpuSeconds };
   } finally {
     await releasePool();
   }

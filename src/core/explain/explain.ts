@@ -143,15 +143,18 @@ export class QueryExplainer {
 /**
  * Why two indexed files are near: shares summing to the nearby score, (1 − μ)·cosine of their
  * concept vectors (each term of either file's symmetric share) + μ·the word match: (1 − ν)·BM25 of
- * A's distinctive terms in B / the best other file's + ν·TF-IDF of A's terms in B / the best other
- * file's (LsiIndex.nearbyPlan). fused = false: the cosine alone (symmetric).
+ * A's distinctive terms in B / the best other file's + ν·TF-IDF of A's top terms in B / the best
+ * other file's (LsiIndex.nearbyPlan gives μ and ν as it ranks with them). fused = false: the
+ * cosine alone (symmetric).
  */
 export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused = true): Explanation {
   const a = index.termsOf(pathA);
   const b = index.termsOf(pathB);
   const va = index.vectorOf(pathA);
   const vb = index.vectorOf(pathB);
-  const mu = fused ? index.ranking.nearbyLexical : 0;
+  // μ: the word match's share, raised by the TF-IDF part when that is taken from the concept part (nearbyPlan).
+  const plan = fused && index.ranking.nearbyLexical > 0 ? index.nearbyPlan(pathA) : null;
+  const mu = plan ? plan.lexicalShare : 0;
   const merged = new Map<number, { concept: number; lexical: number }>();
   const entry = (id: number): { concept: number; lexical: number } => {
     let e = merged.get(id);
@@ -164,8 +167,8 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
   ] as const) {
     for (const { id, r } of conceptRows(index, terms).rows) if (r) entry(id).concept += (1 - mu) * 0.5 * dotF(r, other);
   }
-  if (mu > 0) {
-    const { lexicalQuery, max, tfidfShare: nu, tfidfMax } = index.nearbyPlan(pathA);
+  if (plan && mu > 0) {
+    const { lexicalQuery, max, tfidfShare: nu, tfidfMax, tfidfQuery } = plan;
     const slotB = index.slots().findIndex((s) => s?.meta.path === pathB);
     const bm25 = index.bm25();
     if (max > 0)
@@ -178,11 +181,11 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
               bm25.termScore(id, lexicalQuery.counts[i], tf, slotB, index.ranking.nearbyLengthNorm, index.ranking.nearbyDelta)) /
             max;
       });
-    // The TF-IDF part of the word match (LsiIndex.nearbyPlan): every term of A that B holds.
+    // The TF-IDF part of the word match (LsiIndex.nearbyPlan): every term of its query that B holds.
     if (nu > 0 && tfidfMax > 0)
-      a.termIds.forEach((id, i) => {
+      tfidfQuery.termIds.forEach((id, i) => {
         const tf = countOf(b, id);
-        if (tf > 0) entry(id).lexical += (mu * nu * index.tfidfTermScore(id, a.counts[i], tf, slotB)) / tfidfMax;
+        if (tf > 0) entry(id).lexical += (mu * nu * index.tfidfTermScore(id, tfidfQuery.counts[i], tf, slotB)) / tfidfMax;
       });
   }
   const out: TermShare[] = [];

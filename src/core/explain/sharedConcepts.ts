@@ -44,10 +44,12 @@ export interface SharedConceptOptions {
 export const DEFAULT_SHARED_CONCEPT_OPTIONS: SharedConceptOptions = { top: 3, words: 3 };
 
 export function sharedConcepts(index: LsiIndex, a: string, b: string, options: Partial<SharedConceptOptions> = {}): SharedConcepts {
-  const mu = index.ranking.nearbyLexical;
+  let mu = index.ranking.nearbyLexical;
   let wordMatch = 0;
   if (mu > 0) {
-    const { lexical } = index.nearbyPlan(a);
+    // The word match's share as Nearby ranks with it (raised when TF-IDF is taken from the concept part).
+    const { lexical, lexicalShare } = index.nearbyPlan(a);
+    mu = lexicalShare;
     const slotB = index.slots().findIndex((slot) => slot?.meta.path === b);
     if (slotB >= 0) wordMatch = mu * lexical[slotB];
   }

@@ -325,8 +325,7 @@ export class LsiIndex {
     const live = this.acceptor(options.filter);
     const accept = (j: number): boolean => j !== self && live(j);
     const n = this._slots.length;
-    const mu = this.ranking.nearbyLexical;
-    const { lexical } = this.nearbyPlan(path, options.wordMatchDelta, options.wordMatchTfidf);
+    const { lexical, lexicalShare: mu } = this.nearbyPlan(path, options.wordMatchDelta, options.wordMatchTfidf);
     const { ranked, product } = this.rank(
       this.vectorOf(path),
       1 - mu,
@@ -348,8 +347,11 @@ export class LsiIndex {
    * Nearby's lexical evidence for a file: its lexical query (most distinctive terms), the best
    * BM25 score among the other files, and every file's score divided by it (itself 0; a view
    * overwritten by the next search); with a TF-IDF share ν, (1 − ν) of that plus ν·the TF-IDF
-   * cosine of the file's full term vector divided by the best other file's (`tfidfMax`).
-   * Without a lexical share (nearbyLexical = 0) all zeros.
+   * score of `tfidfQuery` (the file's nearbyTfidfTerms most distinctive terms, or all its terms)
+   * divided by the best other file's (`tfidfMax`).
+   * Without a lexical share (nearbyLexical = 0) all zeros. `lexicalShare` is the word match's share
+   * of the score (nearbyLexical, raised when the TF-IDF part is taken from the concept part) and
+   * `tfidfShare` the TF-IDF part's share within the word match.
    * `delta`: BM25L's δ of the word match (default: the ranking options' nearbyDelta); `tfidf`: ν
    * (default: nearbyTfidfShare).
    */
@@ -357,7 +359,15 @@ export class LsiIndex {
     path: string,
     delta: number = this.ranking.nearbyDelta,
     tfidf: number = this.ranking.nearbyTfidfShare,
-  ): { lexicalQuery: DocTerms; max: number; lexical: Float64Array; tfidfShare: number; tfidfMax: number } {
+  ): {
+    lexicalQuery: DocTerms;
+    max: number;
+    lexical: Float64Array;
+    tfidfShare: number;
+    tfidfMax: number;
+    tfidfQuery: DocTerms;
+    lexicalShare: number;
+  } {
     const self = this.slot(path);
     const n = this._slots.length;
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
@@ -370,9 +380,25 @@ export class LsiIndex {
       this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm, delta);
       lexical[self] = 0;
       max = divideByMax(lexical);
-      if (share > 0) tfidfMax = this.addTfidf(this._slots[self]!.terms, lexical, 1 - share, share, 1, self);
     }
-    return { lexicalQuery, max, lexical, tfidfShare: share, tfidfMax };
+    const words = this.ranking.nearbyTfidfTerms;
+    // The TF-IDF part's query (only made when it has a share; the BM25 query stands in otherwise).
+    const tfidfQuery =
+      share <= 0 || words === this.ranking.nearbyTerms
+        ? lexicalQuery
+        : words <= 0
+          ? this._slots[self]!.terms
+          : this.fileQuery(self, 1, words);
+    let mu = this.ranking.nearbyLexical;
+    let [wl, wt] = [1 - share, share];
+    if (share > 0 && this.ranking.nearbyTfidfFromConcept) {
+      // (1 − μ)(1 − ν)·cos + μ·BM25L + (1 − μ)ν·TF-IDF, the last two as one part of share μ'.
+      const moved = (1 - mu) * share;
+      [wl, wt] = [mu / (mu + moved), moved / (mu + moved)];
+      mu += moved;
+    }
+    if (share > 0) tfidfMax = this.addTfidf(tfidfQuery, lexical, wl, wt, 1, self);
+    return { lexicalQuery, max, lexical, tfidfShare: share > 0 ? wt : 0, tfidfMax, tfidfQuery, lexicalShare: mu };
   }
 
   /** One term's TF-IDF score for a file (tfidfCosine.ts, cosine), before division by the best; for explanations. */
@@ -440,9 +466,9 @@ export class LsiIndex {
     return all > 0 ? unknown / all : 0;
   }
 
-  /** A file's lexical query: its most distinctive terms with their counts, times `weight`. */
-  private fileQuery(slot: number, weight: number): DocTerms {
-    const terms = distinctiveTerms(this._slots[slot]!.terms, this.ranking.nearbyTerms, (t) => this.bm25().idf(t));
+  /** A file's lexical query: its `count` most distinctive terms with their counts, times `weight`. */
+  private fileQuery(slot: number, weight: number, count = this.ranking.nearbyTerms): DocTerms {
+    const terms = distinctiveTerms(this._slots[slot]!.terms, count, (t) => this.bm25().idf(t));
     if (weight !== 1) for (let i = 0; i < terms.counts.length; i++) terms.counts[i] *= weight;
     return terms;
   }

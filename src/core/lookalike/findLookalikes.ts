@@ -217,6 +217,25 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     conceptMinWords: o.retoldConceptMinWords,
     conceptMinNameShare: o.retoldConceptMinNameShare,
     conceptMinGap: o.retoldConceptMinGap,
+    marginMaxSharedNeighbours: o.retoldMarginMaxSharedNeighbours,
+  };
+  // Files in both raw neighbour lists (the two files themselves left out): clause a's limit.
+  const sharedNeighbours = (x: number, y: number): number => {
+    let n = 0;
+    for (let r = 0; r < K; r++) {
+      const d = nb.index[x * K + r];
+      if (d < 0) break;
+      if (d === y) continue;
+      for (let q = 0; q < K; q++) {
+        const e = nb.index[y * K + q];
+        if (e < 0) break;
+        if (e === d) {
+          n++;
+          break;
+        }
+      }
+    }
+    return n;
   };
   const names = rareNameIndex(
     shingled.map((f) => files[f].text),
@@ -250,6 +269,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       names: names.pair,
       words: tokenCounts,
       secondView: clauseC ? bothNearest : undefined,
+      sharedNeighbours,
       // Clause d's coarse concept space (conceptView.ts), built only when a mutual pair may need it.
       conceptCosine: clauseD ? (x, y) => (concepts ??= conceptView(space, o.retoldConceptK, o.seed)).cosine(x, y) : undefined,
     },
@@ -264,6 +284,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     nameShare: p.nameShare,
     namesHeld: p.namesHeld,
     clause: p.clause,
+    ...(p.sharedNeighbours === undefined ? {} : { sharedNeighbours: p.sharedNeighbours }),
     ...(p.beyondTopic === undefined ? {} : { conceptCosine: p.cosine - p.beyondTopic }),
   }));
 

@@ -16,7 +16,11 @@
  *       translation pairs) — with namesDecide, only when one of the two files holds no rare name:
  *       when both name rare options or identifiers, the names decide (clause b), because two
  *       pages of one template (two modules, two chips, two functions) stand clear of the rest of
- *       a folder as a pair yet each names its own things; or
+ *       a folder as a pair yet each names its own things. With marginMaxSharedNeighbours, the two
+       files' lists of nearest files may have at most that many files in common (shared nearest
+       neighbours, Jarvis & Patrick 1973): a retelling sits in another neighbourhood than its
+       partner (a manual page among pages, a chapter among chapters), two pages of one family in
+       the same one; or
  *    b. it stands at least minNameGap above them, the two files hold the same rare names
  *       (rareNames.ts: at least minSharedNames, share ≥ minNameShare) and the shorter one has at
  *       least minNameWords words: a retelling repeats the options and identifiers of what it
@@ -77,6 +81,8 @@ export interface RetoldParams {
   readonly conceptMinWords?: number;
   readonly conceptMinNameShare?: number;
   readonly conceptMinGap?: number;
+  /** Clause a (needs RetoldInput.sharedNeighbours): most files the two neighbour lists may share; absent = no limit. */
+  readonly marginMaxSharedNeighbours?: number;
 }
 
 export interface RetoldInput {
@@ -95,6 +101,8 @@ export interface RetoldInput {
   readonly secondView?: (a: number, b: number) => boolean;
   /** Cosine of a and b in a coarse concept space (clause d); without it clause d is off. */
   readonly conceptCosine?: (a: number, b: number) => number;
+  /** Files found in both a's and b's nearest-neighbour lists (clause a's limit); without it no limit is checked. */
+  readonly sharedNeighbours?: (a: number, b: number) => number;
 }
 
 export type RetoldClause = 'margin' | 'names' | 'combined' | 'beyond-topic';
@@ -114,6 +122,8 @@ export interface RetoldPair {
   readonly clause: RetoldClause;
   /** Full cosine minus the concept-space cosine (only when RetoldInput.conceptCosine is given). */
   readonly beyondTopic?: number;
+  /** Files in both neighbour lists (only when RetoldInput.sharedNeighbours is given). */
+  readonly sharedNeighbours?: number;
   /** gap + nameShare: the ranking. */
   readonly score: number;
 }
@@ -142,7 +152,12 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
     const names = input.names ? input.names(i, d) : { shared: 0, share: 0, own: [0, 0] as const };
     const bothNamed = names.own[0] > 0 && names.own[1] > 0;
     const strong = c >= params.minCosine;
-    const byGap = strong && gap >= params.minGap && !(params.namesDecide === true && input.names !== undefined && bothNamed);
+    const shared = input.sharedNeighbours ? input.sharedNeighbours(i, d) : undefined;
+    const byGap =
+      strong &&
+      gap >= params.minGap &&
+      !(params.namesDecide === true && input.names !== undefined && bothNamed) &&
+      (shared === undefined || shared <= (params.marginMaxSharedNeighbours ?? Infinity));
     const byNames =
       strong &&
       input.names !== undefined &&
@@ -183,6 +198,7 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
       namesHeld: [names.own[0], names.own[1]],
       clause: byGap ? 'margin' : byNames ? 'names' : byBoth ? 'combined' : 'beyond-topic',
       ...(beyondTopic === undefined ? {} : { beyondTopic }),
+      ...(shared === undefined ? {} : { sharedNeighbours: shared }),
       score: gap + names.share,
     });
   }

@@ -58,6 +58,8 @@ export interface LookalikePair {
   /** Retold pairs: rare names each file holds, and the clause that passed the pair (retold.ts). */
   readonly namesHeld?: readonly [number, number];
   readonly clause?: 'margin' | 'names' | 'combined' | 'beyond-topic';
+  /** Retold pairs: files found in both files' lists of nearest files (retold.ts, clause a's limit). */
+  readonly sharedNeighbours?: number;
   /** Retold pairs: the pair's cosine in the coarse concept space of clause d (conceptView.ts), when that clause is on. */
   readonly conceptCosine?: number;
 }

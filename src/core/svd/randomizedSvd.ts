@@ -242,12 +242,13 @@ function blockSeed(seed: number, c0: number, w: number): number {
 
 /** dst (rows × w) = columns c0 … c0 + w − 1 of src (rows × l). */
 export function gatherColumns(src: Float64Array, dst: Float64Array, rows: number, l: number, c0: number, w: number): void {
-  for (let i = 0; i < rows; i++) dst.set(src.subarray(i * l + c0, i * l + c0 + w), i * w);
+  // A plain loop: a subarray per row (rows of a few dozen numbers) cost more than the copy.
+  for (let i = 0, s = c0, d = 0; i < rows; i++, s += l) for (let j = 0; j < w; j++) dst[d++] = src[s + j];
 }
 
 /** Columns c0 … c0 + w − 1 of dst (rows × l) = src (rows × w). */
 export function scatterColumns(src: Float64Array, dst: Float64Array, rows: number, l: number, c0: number, w: number): void {
-  for (let i = 0; i < rows; i++) dst.set(src.subarray(i * w, i * w + w), i * l + c0);
+  for (let i = 0, s = 0, d = c0; i < rows; i++, d += l) for (let j = 0; j < w; j++) dst[d + j] = src[s++];
 }
 
 /**

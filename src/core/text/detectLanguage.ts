@@ -91,23 +91,50 @@ function profile(candidates: readonly Language[]): Map<string, Language[]> {
 const WORD = /\p{L}+/gu;
 const FENCE = /^\s*(```|~~~)/;
 const INLINE_CODE = /`[^`\n]*`/g;
+const NON_ASCII = /[\u0080-\uffff]/;
 
 /** Stop-word scores per candidate in the first `sampleWords` words of the prose. */
 function hits(text: string, candidates: readonly Language[], sampleWords: number): Map<Language, number> {
   const p = profile(candidates);
   const out = new Map<Language, number>();
   let words = 0;
+  // Scores one word; true once the sample is complete.
+  const count = (word: string): boolean => {
+    const langs = p.get(word);
+    if (langs !== undefined) for (const lang of langs) out.set(lang, (out.get(lang) ?? 0) + 1 / langs.length);
+    return ++words >= sampleWords;
+  };
   let inFence = false;
-  for (const line of text.split('\n')) {
+  // Line by line as text.split('\n') gives them, but only as far as the sample goes (most files
+  // reach sampleWords in their first few kilobytes).
+  for (let start = 0; start <= text.length;) {
+    let end = text.indexOf('\n', start);
+    if (end < 0) end = text.length;
+    const line = text.slice(start, end);
+    start = end + 1;
     if (FENCE.test(line)) {
       inFence = !inFence;
       continue;
     }
     if (inFence) continue;
-    for (const m of line.replace(INLINE_CODE, ' ').normalize('NFC').toLowerCase().matchAll(WORD)) {
-      const langs = p.get(m[0]);
-      if (langs !== undefined) for (const lang of langs) out.set(lang, (out.get(lang) ?? 0) + 1 / langs.length);
-      if (++words >= sampleWords) return out;
+    const prose = line.includes('`') ? line.replace(INLINE_CODE, ' ') : line;
+    if (NON_ASCII.test(prose)) {
+      for (const m of prose.normalize('NFC').toLowerCase().matchAll(WORD)) if (count(m[0])) return out;
+      continue;
+    }
+    // ASCII: NFC changes nothing and the letters (\p{L}) are a–z once lower-cased; the same words
+    // in the same order, without a match object per word.
+    const low = prose.toLowerCase();
+    for (let i = 0; i < low.length;) {
+      let c = low.charCodeAt(i);
+      if (c < 97 || c > 122) {
+        i++;
+        continue;
+      }
+      let j = i + 1;
+      while (j < low.length && (c = low.charCodeAt(j)) >= 97 && c <= 122) j++;
+      if (count(low.slice(i, j))) return out;
+      i = j;
     }
   }
   return out;

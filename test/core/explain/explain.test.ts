@@ -93,6 +93,30 @@ describe('explanations on CISI', () => {
     }
   });
 
+  it('with the opt-in TF-IDF part of Nearby (in the word match, or taken from the concept part), shares still add up to the score and its parts', () => {
+    const before = index.ranking;
+    try {
+      for (const form of [
+        { nearbyTfidfShare: 0.1, nearbyTfidfTerms: 40, nearbyTfidfFromConcept: false },
+        { nearbyTfidfShare: 0.25, nearbyTfidfTerms: 80, nearbyTfidfFromConcept: true },
+      ]) {
+        index.ranking = { ...before, ...form };
+        for (const path of index.paths().slice(0, 6)) {
+          const mu = index.nearbyPlan(path).lexicalShare;
+          expect(mu).toBeCloseTo(form.nearbyTfidfFromConcept ? 0.5 + 0.5 * 0.25 : 0.5, 12);
+          for (const hit of index.nearby(path, { top: 5 })) {
+            const fused = explainPair(index, path, hit.path);
+            expect(fused.score).toBeCloseTo(hit.score, 5);
+            expect(fused.terms.reduce((s, t) => s + t.concept, 0)).toBeCloseTo((1 - mu) * hit.conceptScore, 5);
+            expect(fused.terms.reduce((s, t) => s + t.lexical, 0)).toBeCloseTo(mu * hit.lexicalScore, 5);
+          }
+        }
+      }
+    } finally {
+      index.ranking = before;
+    }
+  });
+
   it('sorts terms by the size of their share and sums the rest for display', () => {
     const q = queries()[0];
     const hit = index.search(q, { top: 1 })[0];

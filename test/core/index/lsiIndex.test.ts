@@ -244,8 +244,8 @@ function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[], lambda: 
 /**
  * Nearby as documented: ½ cosine + ½ word match, the word match (1 − ν)·BM25L (δ: the ranking
  * options' unless given) of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other
- * file's + ν·TF-IDF cosine of its full term vector / best other file's (ν: nearbyTfidfShare unless
- * given).
+ * file's + ν·TF-IDF of its nearbyTfidfTerms most distinctive terms (all when 0) against every file's
+ * full term vector's norm / best other file's (ν: nearbyTfidfShare unless given).
  */
 function plainNearby(
   index: LsiIndex,
@@ -259,18 +259,23 @@ function plainNearby(
   const order = Array.from(d.termIds.keys()).sort(
     (a, b) => Math.log1p(d.counts[b]) * idf(d.termIds[b]) - Math.log1p(d.counts[a]) * idf(d.termIds[a]) || a - b,
   );
-  const kept = order.slice(0, 40).sort((a, b) => a - b);
-  const query: DocTerms = {
-    termIds: Int32Array.from(kept, (i) => d.termIds[i]),
-    counts: Float32Array.from(kept, (i) => d.counts[i]),
-    length: 0,
+  const topTerms = (count: number): DocTerms => {
+    const kept = order.slice(0, count).sort((a, b) => a - b);
+    return { termIds: Int32Array.from(kept, (i) => d.termIds[i]), counts: Float32Array.from(kept, (i) => d.counts[i]), length: 0 };
   };
+  const query = topTerms(40);
   const self = index.slots().findIndex((s) => s?.meta.path === path);
   const bm25 = plainBm25(index, query, index.ranking.nearbyLengthNorm, delta);
-  const tfidf = plainTfidf(index, d);
+  const words = index.ranking.nearbyTfidfTerms;
+  const tfidf = plainTfidf(index, words > 0 ? topTerms(words) : d);
   bm25[self] = 0;
   tfidf[self] = 0;
   const [maxB, maxT] = [Math.max(...bm25), Math.max(...tfidf)];
+  if (index.ranking.nearbyTfidfFromConcept && nu > 0) {
+    // ν taken from the concept part: (1 − μ)(1 − ν)·cos + μ·BM25L/max + (1 − μ)ν·TF-IDF/max, μ = ½.
+    const parts = bm25.map((x, j) => 0.5 * (maxB > 0 ? x / maxB : 0) + 0.5 * nu * (maxT > 0 ? tfidf[j] / maxT : 0));
+    return plainBlend(index, index.vectorOf(path), 0.5 * (1 - nu), 1, parts, top, path, true);
+  }
   const lexical = bm25.map((x, j) => (1 - nu) * (maxB > 0 ? x / maxB : 0) + nu * (maxT > 0 ? tfidf[j] / maxT : 0));
   return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path, true);
 }
@@ -310,6 +315,10 @@ describe('LsiIndex ranking against the plain formula', () => {
     index.remove(cran.docs[10].id);
     index.remove('new1');
     compare();
+    // Nearby's TF-IDF share taken from the concept part, over the page's 80 top words (opt-in).
+    index.ranking = { ...index.ranking, nearbyTfidfShare: 0.25, nearbyTfidfTerms: 80, nearbyTfidfFromConcept: true };
+    compare();
+    index.ranking = { ...index.ranking, nearbyTfidfShare: 0.1, nearbyTfidfTerms: 40, nearbyTfidfFromConcept: false };
     // The opt-in blend of standardised scores, with another length normalisation for search.
     index.ranking = { ...index.ranking, spreadBlend: true, lengthNorm: 0.5 };
     compare();

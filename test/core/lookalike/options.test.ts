@@ -48,6 +48,8 @@ describe('resolveLookalikeOptions', () => {
     [{ retoldConceptMinGap: -0.1 }, /retoldConceptMinGap/],
     [{ retoldEvidenceMinCosine: 0 }, /retoldEvidenceMinCosine/],
     [{ retoldEvidenceMinWords: 10.5 }, /retoldEvidenceMinWords/],
+    [{ retoldMarginMaxSharedNeighbours: 2.5 }, /retoldMarginMaxSharedNeighbours/],
+    [{ retoldMarginMaxSharedNeighbours: -1 }, /retoldMarginMaxSharedNeighbours/],
   ])('rejects %j with a clear message', (bad, message) => {
     expect(() => resolveLookalikeOptions(bad)).toThrow(InvalidInputError);
     expect(() => resolveLookalikeOptions(bad)).toThrow(message);

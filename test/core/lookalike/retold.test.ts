@@ -317,6 +317,47 @@ describe('findRetoldPairs, clause d: closer in words than the broad topic explai
   });
 });
 
+describe('findRetoldPairs, clause a with a limit on shared nearest neighbours', () => {
+  // 0 and 1 are each other's nearest and stand 0.4 clear; sharedNeighbours says how many files
+  // their two neighbour lists hold in common.
+  const clear = {
+    neighbours: [
+      [1, 2],
+      [0, 2],
+      [0, 1],
+    ],
+    cosines: [
+      [0.8, 0.3],
+      [0.8, 0.4],
+      [0.3, 0.4],
+    ],
+    jaccard: lowJ,
+    maxJaccard: 0.15,
+  };
+  it('refuses a clear pair whose neighbour lists share more files than marginMaxSharedNeighbours (one family)', () => {
+    const input = { ...clear, sharedNeighbours: () => 7 };
+    expect(findRetoldPairs(input, { ...rule, marginMaxSharedNeighbours: 6 })).toEqual([]);
+    const pairs = findRetoldPairs(input, { ...rule, marginMaxSharedNeighbours: 7 });
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0]).toMatchObject({ a: 0, b: 1, clause: 'margin', sharedNeighbours: 7 });
+  });
+  it('applies no limit without the level or without the count', () => {
+    expect(findRetoldPairs({ ...clear, sharedNeighbours: () => 9 }, rule)).toHaveLength(1);
+    expect(findRetoldPairs(clear, { ...rule, marginMaxSharedNeighbours: 0 })).toHaveLength(1);
+  });
+  it('leaves the names clause alone', () => {
+    const named = {
+      ...clear,
+      names: () => ({ shared: 4, share: 0.9, own: [4, 4] as const }),
+      words: [300, 300, 300],
+      sharedNeighbours: () => 9,
+    };
+    const pairs = findRetoldPairs(named, { ...namesRule, marginMaxSharedNeighbours: 0 });
+    expect(pairs).toHaveLength(1);
+    expect(pairs[0].clause).toBe('names');
+  });
+});
+
 describe('boilerplate lines', () => {
   it('finds lines present in at least n files (trimmed, case and spacing ignored) and removes them', () => {
     const texts = ['Report bugs to the list.\nalpha', '  report   bugs to the list.\nbeta', 'REPORT BUGS TO THE LIST.\ngamma\nalpha'];

@@ -127,6 +127,8 @@ describe('section vectors', () => {
       [undefined, 37, undefined],
       [undefined, 37, threeColumns],
       [serialExecutor, undefined, threeColumns],
+      // Many chunks over a split U_k: its column blocks are laid out once for all chunks.
+      [serialExecutor, 37, threeColumns],
     ] as const) {
       const folded = foldCountedSections(index.model, counted, { executor, chunkSections, blockBytes });
       docs.forEach((d, i) => {
@@ -141,6 +143,7 @@ describe('section vectors', () => {
     // Column blocks change no arithmetic: the same bits as U_k whole, on either executor.
     expect(byRun[3]).toEqual(byRun[2]);
     expect(byRun[4]).toEqual(byRun[0]);
+    expect(byRun[5]).toEqual(byRun[0]);
   });
 
   it('saves and reopens every section exactly; removing a file drops its sections', () => {

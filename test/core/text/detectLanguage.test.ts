@@ -36,6 +36,32 @@ describe('detectLanguage', () => {
   });
 });
 
+describe('detectLanguage, the sample', () => {
+  // Reference: the same translated manual pages; the German stop words "und", "der", "die"
+  // (stopwords-iso's German list).
+  it('reads a page the same with its words on ASCII lines or beside a non-ASCII character', () => {
+    for (const lang of ['de', 'fr', 'nl']) {
+      for (const page of pages(lang).slice(0, 20)) {
+        // A non-ASCII mark at the end of every line takes the lines off the ASCII path; no word changes.
+        const marked = page
+          .split('\n')
+          .map((line) => `${line} \u00b6`)
+          .join('\n');
+        expect(fileLanguage('page.txt', marked, 'auto'), lang).toBe(fileLanguage('page.txt', page, 'auto'));
+      }
+    }
+  });
+
+  it('stops at sampleWords, and leaves out fenced blocks and inline code', () => {
+    const english = 'the and of to in is that it was for on are with as at be by this '.repeat(3);
+    const german = 'und der die das ist nicht mit sich auf dem '.repeat(20);
+    expect(detectLanguage(`${english}\n${german}`, LANGUAGES, { sampleWords: 40 })).toBe('en');
+    expect(detectLanguage(`${english}\n${german}`, LANGUAGES)).toBe('de');
+    expect(detectLanguage(`\`\`\`\n${english}\n\`\`\`\n${german}`, LANGUAGES, { sampleWords: 40 })).toBe('de');
+    expect(detectLanguage(`\`${english}\` ${german}`, LANGUAGES, { sampleWords: 40 })).toBe('de');
+  });
+});
+
 describe('fileLanguage', () => {
   const german = pages('de')[3];
   it('keeps code files English and detects prose files', () => {

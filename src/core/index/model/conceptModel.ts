@@ -190,7 +190,9 @@ export function projectMatrixRows(
 /**
  * acc (m.rows × k) = m · termVectors (terms × k), the term vectors handed to the executor in
  * column blocks of `width` through tv (terms × width) and part (m.rows × width): each output
- * column is the same sum whatever the block, so the bits do not depend on the width.
+ * column is the same sum whatever the block, so the bits do not depend on the width. With
+ * `blocks` (termColumnBlocks of the same term vectors and width), each block is one contiguous
+ * conversion instead of a strided gather (for callers that run many products over them).
  */
 export function blockedTermProduct(
   ex: MatrixExecutor,
@@ -201,17 +203,34 @@ export function blockedTermProduct(
   tv: Float64Array,
   part: Float64Array,
   acc: Float64Array,
+  blocks?: readonly Float32Array[],
 ): void {
   const terms = m.cols;
   const n = m.rows;
   for (let c0 = 0; c0 < k; c0 += width) {
     const w = Math.min(width, k - c0);
     const tvw = tv.subarray(0, terms * w);
-    for (let t = 0; t < terms; t++) for (let j = 0; j < w; j++) tvw[t * w + j] = termVectors[t * k + c0 + j];
+    if (blocks) tvw.set(blocks[c0 / width]);
+    else for (let t = 0; t < terms; t++) for (let j = 0; j < w; j++) tvw[t * w + j] = termVectors[t * k + c0 + j];
     const pw = part.subarray(0, n * w);
     ex.spmm(m, tvw, w, pw, true);
     for (let i = 0; i < n; i++) for (let j = 0; j < w; j++) acc[i * k + c0 + j] = pw[i * w + j];
   }
+}
+
+/**
+ * The column blocks of blockedTermProduct's `width` as terms × w row-major f32 arrays (the same
+ * numbers: f32 to f64 is exact), so each product takes a block with one contiguous copy.
+ */
+export function termColumnBlocks(termVectors: Float32Array, terms: number, k: number, width: number): Float32Array[] {
+  const out: Float32Array[] = [];
+  for (let c0 = 0; c0 < k; c0 += width) {
+    const w = Math.min(width, k - c0);
+    const b = new Float32Array(terms * w);
+    for (let t = 0, d = 0; t < terms; t++) for (let j = 0, s = t * k + c0; j < w; j++) b[d++] = termVectors[s + j];
+    out.push(b);
+  }
+  return out;
 }
 
 /** Bytes of f64 term vectors handed to the executor at once (our choice: a few column blocks at k = 200 on 50k terms). */

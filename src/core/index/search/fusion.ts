@@ -6,9 +6,9 @@
  *   by BM25 against every other file and divided by the best other file's score (0…1). The
  *   selection of a file's top terms as its query is the classic "more like this" query of
  *   relevance feedback (Salton & Buckley 1990, "Improving retrieval performance by relevance
- *   feedback"); 25–50 terms is common practice. A tenth of that word match is the TF-IDF cosine
- *   of the file's full term vector with every other file's (nearbyTfidfShare, tfidfCosine.ts),
- *   divided by the best other file's.
+ *   feedback"); 25–50 terms is common practice. Opt-in (off): a share of TF-IDF cosine
+ *   (nearbyTfidfShare, tfidfCosine.ts) of the file's top terms against every other file's full
+ *   term vector, divided by the best other file's, in the word match or taken from the concept part.
  * - Search: the concept cosine of the query, blended with max-normalised BM25
  *   (settings.lexicalBlend, raised by the share of the query's words the concept space does not
  *   know: coverageBlend); optionally (spreadBlend) that share applies to standardised scores
@@ -109,10 +109,26 @@ export interface RankingOptions {
    * divided by the best other page's: lexical = (1 − ν)·BM25L/max + ν·TFIDF/max. Chosen by every
    * leave-one-manual-out fold among twelve configurations (ν 0.1 / 0.25 / 0.5, pivoted, taken from
    * the concept part, or over the page's top terms; README, "Ranking checks", fourth round), but
-   * off by default: it reads the postings of every word of the page, which on the whole kernel
-   * tree took Nearby of a file from a median of 12 ms to 52–60 ms (p95 135–168 ms). @default 0
+   * off by default: over every word of the page it took Nearby of a file on the whole kernel tree
+   * from a median of 12 ms to 52–60 ms (p95 135–168 ms). Over the page's top words
+   * (nearbyTfidfTerms) it is affordable, but in the fifth round leaving one manual out no longer
+   * gained on every manual (CMake's fold chose a form that cost CMake 7%), so it stays off. @default 0
    */
   nearbyTfidfShare: number;
+  /**
+   * Nearby: how many of the page's most distinctive words (log(1 + tf)·idf, as `nearbyTerms` picks
+   * them) form the TF-IDF part's query; 0 = every word of the page. Each word's postings are read
+   * once per request, so this bounds the part's cost as `nearbyTerms` bounds BM25's; the pages'
+   * norms stay those of their full term vectors. @default 40
+   */
+  nearbyTfidfTerms: number;
+  /**
+   * Nearby: take the TF-IDF share ν from the concept part instead of the word match:
+   * (1 − μ)(1 − ν)·cos + μ·BM25L/max + (1 − μ)ν·TFIDF/max. With ν 0.25 over 80 top words it
+   * raised all three manuals (README, "Ranking checks", fifth round) but was chosen by two folds of
+   * three and cost Nearby of a file about 12 ms more CPU on the whole kernel tree. @default false
+   */
+  nearbyTfidfFromConcept: boolean;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -133,6 +149,8 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   tfidfSlope: 1,
   tfidfFromConcept: false,
   nearbyTfidfShare: 0,
+  nearbyTfidfTerms: 40,
+  nearbyTfidfFromConcept: false,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
