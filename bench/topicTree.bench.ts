@@ -54,7 +54,9 @@
  *   8.19, 6.66, 6.16, 7.14, 5.15, 4.34 s; later the defaults 7.02, 4.91, 4.61, 6.59, 5.20, 4.36 s
  *   (median 5.1) against 20 unrefined restarts on every fitted file, the best 3 refined
  *   ('{"screenRestarts":20,"screenSample":100000}') 8.25, 6.67, 6.01, 10.11, 7.05, 7.53 s (7.3)
- *   and 20 refined restarts ('{"restarts":20}') 9.23, 8.33, 8.86, 10.71, 8.57, 7.98 s (8.7).
+ *   and 20 refined restarts ('{"restarts":20}') 9.23, 8.33, 8.86, 10.71, 8.57, 7.98 s (8.7). A
+ *   third round at load 2–6 (defaults, all files screened, 20 restarts, defaults): 7.55, 5.77,
+ *   4.91; 10.22, 7.06, 7.15; 11.81, 10.65, 8.43; 8.63, 6.13, 6.48 s (the first run of each cold).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
