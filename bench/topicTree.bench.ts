@@ -47,6 +47,16 @@
  *   40.9, 43.1, 35.5 s (wall 292 s at load 11–12, 43.1 and 38.5 s at load 4; process 50.7 and 45.5 s;
  *   18 / 110 / 499 / 1505 topics, 2642 loose), without 42.5, 39.2, 37.7 s (wall 90.8 s at load 9,
  *   54.1 and 53.7 s at load 4–5; 2065 loose), peak RSS 4.14–4.25 and 4.16–4.28 GB (2026-12-03).
+ *   First-level restart variants on the Documentation folder (index built by main at 17:55, k = 200,
+ *   `file` mode, two alternating rounds of three runs each, load 10–18): CPU the defaults 8.39,
+ *   6.83, 5.50, 8.57, 6.46, 6.02 s against 20 restarts screened on a 500-file sample
+ *   (OPTIONS='{"screenRestarts":20}') 8.66, 7.35, 6.35, 8.39, 5.88, 5.20 s and with one finalist
+ *   8.19, 6.66, 6.16, 7.14, 5.15, 4.34 s; later the defaults 7.02, 4.91, 4.61, 6.59, 5.20, 4.36 s
+ *   (median 5.1) against 20 unrefined restarts on every fitted file, the best 3 refined
+ *   ('{"screenRestarts":20,"screenSample":100000}') 8.25, 6.67, 6.01, 10.11, 7.05, 7.53 s (7.3)
+ *   and 20 refined restarts ('{"restarts":20}') 9.23, 8.33, 8.86, 10.71, 8.57, 7.98 s (8.7). A
+ *   third round at load 2–6 (defaults, all files screened, 20 restarts, defaults): 7.55, 5.77,
+ *   4.91; 10.22, 7.06, 7.15; 11.81, 10.65, 8.43; 8.63, 6.13, 6.48 s (the first run of each cold).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';

@@ -12,9 +12,10 @@
  *    files neither saw.
  *  - Structure: normalised mutual information between topics and top-level folders, against
  *    scikit-learn's KMeans (n_init 10) on the same concept vectors, at the first two levels, for
- *    each of the seeds 0, 1, 2 with the number of clusters our tree has with that seed (one seed's
- *    figure moves by a few hundredths on either side, so one seed against one seed decides
- *    nothing): the means are compared. Like with like: loose files are kept in their nearest topic (setApartLoose: false)
+ *    each of the seeds 0–9 with the number of clusters our tree has with that seed and level (one
+ *    seed's figure moves by a few hundredths on either side, so one seed against one seed decides
+ *    nothing, and a seed whose silhouette chooses an odd count weighs a third of a three-seed
+ *    mean): the means are compared. Like with like: loose files are kept in their nearest topic (setApartLoose: false)
  *    so that both sides cover every file. The default (loose files set apart) is reported at the
  *    first level too, the loose files as one more cluster and left out of both sides.
  * scikit-learn runs in this test (test/helpers/sklearnTopics.py through Debian's /usr/bin/python3;
@@ -36,7 +37,7 @@ import { heldOutNpmi, indexOf, modelCounts } from '../../helpers/topicTrees.js';
 const PYTHON = '/usr/bin/python3';
 const sklearnReady = spawnSync(PYTHON, ['-c', 'import sklearn'], { stdio: 'ignore' }).status === 0;
 const TOP = 10;
-const SEEDS = [0, 1, 2];
+const SEEDS = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9];
 const LEVELS = 2;
 
 interface Doc {
@@ -192,38 +193,41 @@ describe('topic tree against scikit-learn on documentation trees', () => {
   });
   for (const name of ['cmake', 'django', 'erlang']) {
     it.skipIf(!sklearnReady)(
-      `${name}: names at least as coherent as NMF's (on all files and held out) and topics at least as close to the folders as k-means' (mean over seeds) at the first two levels, three measured gaps held as floors`,
-      { timeout: 900_000 },
+      `${name}: names at least as coherent as NMF's (on all files and held out) and topics at least as close to the folders as k-means' (mean over seeds) at the first two levels, two measured gaps held as floors`,
+      { timeout: 1_800_000 },
       () => {
         const figures = evaluate(name);
         expect(figures.length).toBeGreaterThanOrEqual(2);
         // The goal is at or above the reference everywhere. Measured (2026-12-03, scikit-learn
         // 1.2.1, names by the difference of mean weights, topicNames.ts; first-level restarts
-        // refined by first variation, firstVariation.ts; splits seeded by their topic's path):
-        // NPMI on all files CMake 0.472 vs 0.392 and 0.462 vs 0.360, Django 0.388 vs 0.264 and
-        // 0.412 vs 0.336, Erlang 0.441 vs 0.375 and 0.499 vs 0.410; held out CMake 0.441 vs 0.369
-        // and 0.361 vs 0.302, Django 0.349 vs 0.300 and 0.278 vs 0.259, Erlang 0.503 vs 0.401 and
-        // 0.343 vs 0.338; NMI means over seeds 0–2 CMake 0.390 vs 0.406 (below) and 0.416 vs
-        // 0.415, Django 0.382 vs 0.344 and 0.368 vs 0.352, Erlang 0.492 vs 0.490 and 0.523 vs
-        // 0.581 (below). With the SVD's new column blocks (main, 2026-12-03 16:20; factors differ
-        // in their last digits) CMake's and Django's figures are the same, but Erlang's seed 2
-        // chose 3 first-level topics instead of 20: NPMI 0.451 vs 0.375 and 0.509 vs 0.424 (held
-        // out unchanged), NMI 0.422 vs 0.433 (below; 0.282 vs 0.283 at seed 2's count) and 0.530
-        // vs 0.563 (below). Over seeds 0–9 (scripts/fixtures/topicLevels.ts, LEVELS=2) CMake's first
-        // level is 0.395 vs 0.402: a gap inside the seed spread (0.377–0.419 for k-means alone)
-        // that, of the levers chosen leaving one collection out (scripts/fixtures/
-        // topicLeaveOneOut.ts; README, topics), only 20 restarts closed, at a cost in time not taken. Erlang's second level is a structural gap: the
-        // tree spends its sub-topics on the big categories (wx's 243 pages open into 16 pure
-        // sub-topics) and keeps topics of at most 40 files whole (release notes and overview pages
-        // of every application, one of each), where flat k-means at the same count spreads its
-        // clusters over the small applications; cheaper splits are not the cause (10 restarts and
-        // first-variation refinement of the splits: 0.533). The gaps are held as floors, CMake's
-        // first level 0.03, Erlang's first 0.02 and second 0.07 under the reference (our choice, a
-        // little below each measured gap), every other figure at the reference.
+        // refined by first variation, firstVariation.ts; splits seeded by their topic's path; the
+        // SVD's column blocks of main at 16:20): NPMI on all files CMake 0.472 vs 0.392 and 0.462
+        // vs 0.360, Django 0.388 vs 0.264 and 0.412 vs 0.336, Erlang 0.451 vs 0.375 and 0.509 vs
+        // 0.424; held out CMake 0.441 vs 0.369 and 0.361 vs 0.302, Django 0.349 vs 0.300 and 0.278
+        // vs 0.259, Erlang 0.503 vs 0.401 and 0.343 vs 0.338. NMI means over seeds 0–9 (k-means at
+        // our count of each seed and level): CMake 0.395 vs 0.402 (below) and 0.419 vs 0.413,
+        // Django 0.372 vs 0.354 and 0.368 vs 0.341, Erlang 0.484 vs 0.475 and 0.539 vs 0.583
+        // (below). Over seeds 0–2 only, Erlang's first level was below (0.422 vs 0.433): seed 2
+        // chooses 3 topics (0.282 vs 0.283) and weighs a third of the mean, hence ten seeds.
+        // CMake's first-level gap lies inside the seed spread (0.378–0.413 ours, 0.377–0.419
+        // k-means); of the levers chosen leaving one collection out (scripts/fixtures/
+        // topicLeaveOneOut.ts; README, topics) only 20 refined restarts closed it, at a cost in
+        // time not taken (restartsFor), and a spherical k-means that reaches a higher objective
+        // than scikit-learn's KMeans still agrees less with the folders (scripts/fixtures/
+        // topicObjective.ts: the objective, cosine against Euclidean, holds the rest). Erlang's
+        // second level is a structural gap: the tree spends its sub-topics on the big categories
+        // (wx's 243 pages open into many pure sub-topics) and keeps topics of at most 40 files
+        // whole (release notes and overview pages of every application), where flat k-means at the
+        // same count spreads its clusters over the small applications; cheaper splits are not the
+        // cause (10 restarts and first-variation refinement of the splits: 0.533 of 0.581 over
+        // seeds 0–2), nor does opening small topics whose split has a mean silhouette of at least
+        // ¼ or ½ help (k-means gains more from the larger count). The two gaps are held as floors,
+        // CMake's first level 0.01 and Erlang's second 0.05 under the reference (our choice, a
+        // little above each measured gap), every other figure at the reference.
         for (const f of figures) {
           expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi);
           expect(f.oursNpmiHeldOut).toBeGreaterThanOrEqual(f.nmfNpmiHeldOut);
-          const nmiGap = name === 'cmake' && f.level === 1 ? 0.03 : name === 'erlang' ? (f.level === 1 ? 0.02 : 0.07) : 0;
+          const nmiGap = name === 'cmake' && f.level === 1 ? 0.01 : name === 'erlang' && f.level === 2 ? 0.05 : 0;
           expect(mean(f.oursNmi)).toBeGreaterThanOrEqual(mean(f.kmeansNmi) - nmiGap);
         }
       },
