@@ -16,25 +16,25 @@ const TRIO = [
 /** The rule with the rare-names clause deciding. */
 const namesRule = { ...rule, minNameGap: 0, minSharedNames: 3, minNameShare: 0.85, minNameWords: 200, namesDecide: true };
 
+/** Three files where 0 and 1 are each other's nearest and stand 0.4 clear of their next neighbours. */
+const clearPair = {
+  neighbours: [
+    [1, 2],
+    [0, 2],
+    [0, 1],
+  ],
+  cosines: [
+    [0.8, 0.3],
+    [0.8, 0.4],
+    [0.3, 0.4],
+  ],
+  jaccard: lowJ,
+  maxJaccard: 0.15,
+};
+
 describe('findRetoldPairs', () => {
   it('keeps mutual nearest neighbours that stand clear of both files’ next neighbours', () => {
-    const pairs = findRetoldPairs(
-      {
-        neighbours: [
-          [1, 2],
-          [0, 2],
-          [0, 1],
-        ],
-        cosines: [
-          [0.8, 0.3],
-          [0.8, 0.4],
-          [0.3, 0.4],
-        ],
-        jaccard: lowJ,
-        maxJaccard: 0.15,
-      },
-      rule,
-    );
+    const pairs = findRetoldPairs(clearPair, rule);
     expect(pairs).toHaveLength(1);
     expect(pairs[0]).toMatchObject({ a: 0, b: 1, cosine: 0.8 });
     expect(pairs[0].gap).toBeCloseTo(0.4, 12); // 0.8 − max(0.3, 0.4)
@@ -318,22 +318,8 @@ describe('findRetoldPairs, clause d: closer in words than the broad topic explai
 });
 
 describe('findRetoldPairs, clause a with a limit on shared nearest neighbours', () => {
-  // 0 and 1 are each other's nearest and stand 0.4 clear; sharedNeighbours says how many files
-  // their two neighbour lists hold in common.
-  const clear = {
-    neighbours: [
-      [1, 2],
-      [0, 2],
-      [0, 1],
-    ],
-    cosines: [
-      [0.8, 0.3],
-      [0.8, 0.4],
-      [0.3, 0.4],
-    ],
-    jaccard: lowJ,
-    maxJaccard: 0.15,
-  };
+  // sharedNeighbours says how many files the two files' neighbour lists hold in common.
+  const clear = clearPair;
   it('refuses a clear pair whose neighbour lists share more files than marginMaxSharedNeighbours (one family)', () => {
     const input = { ...clear, sharedNeighbours: () => 7 };
     expect(findRetoldPairs(input, { ...rule, marginMaxSharedNeighbours: 6 })).toEqual([]);
