@@ -47,8 +47,8 @@
  *   40.9, 43.1, 35.5 s (wall 292 s at load 11–12, 43.1 and 38.5 s at load 4; process 50.7 and 45.5 s;
  *   18 / 110 / 499 / 1505 topics, 2642 loose), without 42.5, 39.2, 37.7 s (wall 90.8 s at load 9,
  *   54.1 and 53.7 s at load 4–5; 2065 loose), peak RSS 4.14–4.25 and 4.16–4.28 GB (2026-12-03).
- *   First-level restart variants on the Documentation folder (index built by main at 17:55, k = 200,
- *   `file` mode, two alternating rounds of three runs each, load 10–18): CPU the defaults 8.39,
+ *   First-level restart variants (the screenRestarts options, at commit 8320fb1 only) on the
+ *   Documentation folder (index built by main at 17:55, k = 200, `file` mode, two alternating rounds of three runs each, load 10–18): CPU the defaults 8.39,
  *   6.83, 5.50, 8.57, 6.46, 6.02 s against 20 restarts screened on a 500-file sample
  *   (OPTIONS='{"screenRestarts":20}') 8.66, 7.35, 6.35, 8.39, 5.88, 5.20 s and with one finalist
  *   8.19, 6.66, 6.16, 7.14, 5.15, 4.34 s; later the defaults 7.02, 4.91, 4.61, 6.59, 5.20, 4.36 s

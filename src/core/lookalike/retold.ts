@@ -17,10 +17,10 @@
  *       when both name rare options or identifiers, the names decide (clause b), because two
  *       pages of one template (two modules, two chips, two functions) stand clear of the rest of
  *       a folder as a pair yet each names its own things. With marginMaxSharedNeighbours, the two
-       files' lists of nearest files may have at most that many files in common (shared nearest
-       neighbours, Jarvis & Patrick 1973): a retelling sits in another neighbourhood than its
-       partner (a manual page among pages, a chapter among chapters), two pages of one family in
-       the same one; or
+ *       files' lists of nearest files may have at most that many files in common (shared
+ *       nearest neighbours, Jarvis & Patrick 1973): a retelling sits in another neighbourhood than
+ *       its partner (a manual page among pages, a chapter among chapters), two pages of one
+ *       family in the same one; or
  *    b. it stands at least minNameGap above them, the two files hold the same rare names
  *       (rareNames.ts: at least minSharedNames, share ≥ minNameShare) and the shorter one has at
  *       least minNameWords words: a retelling repeats the options and identifiers of what it

@@ -24,12 +24,12 @@
  *    out, so the default stays 0. Splits with more restarts or refined (splitRestarts,
  *    splitRefine) moved Erlang's second level by 0.01 at most (topicLevels.ts), so they stay off.
  *    At least 20 first-level restarts won every fold the same way but cost too much time
- *    (restartsFor says how much). Cheaper ways to 20 restarts (screenRestarts, screenedKMeans.ts;
- *    same folds, seeds 0–9, 2026-12-03): screened on a 500-file sample, CMake 0.399 (from 0.395,
- *    k-means 0.402) and Erlang 0.477 (from 0.484); run on every fitted file with only the best 3
+ *    (restartsFor says how much). Cheaper ways to 20 restarts (screened restarts, Bradley &
+ *    Fayyad 1998, measured at commit 8320fb1 and removed since; same folds, seeds 0–9,
+ *    2026-12-03): screened on a 500-file sample, CMake 0.399 (from 0.395, k-means 0.402) and Erlang 0.477 (from 0.484); run on every fitted file with only the best 3
  *    refined, CMake 0.402 but Erlang 0.477 again, Django and Sphinx unchanged (their budget is
  *    already above 20), for about 40% more CPU on the Documentation folder's tree; neither wins
- *    the folds, so screenRestarts stays 0.
+ *    the folds.
  * 2. Files that fit no topic well are set apart ("loose"): a file whose cosine with its topic's
  *    centre is no larger than its cosine with the centre of the whole workspace is explained by
  *    its topic no better than by the workspace's average direction (our rule; no constant).
@@ -60,7 +60,6 @@ import { DEFAULT_NAME_POOL_FACTOR, TermFiles } from './coherentNames.js';
 import { curDecomposition, type CurMethod } from './cur.js';
 import { folderShares, type FolderShare } from './folderShares.js';
 import { leadingFactors, weightedMatrix } from './indexMatrix.js';
-import { screenedKMeans } from './screenedKMeans.js';
 import { sphericalKMeans, type Clustering } from './sphericalKMeans.js';
 import { chooseTopicCount, type TopicCountChoice } from './topicCount.js';
 import { NameScratch, namesAgainstParent, realWordsFirst, type NamingScore } from './topicNames.js';
@@ -109,17 +108,6 @@ export interface TopicsOptions {
   splitRestarts: number;
   /** Refine each split's restarts by first-variation moves, as the first level's (firstVariation.ts). @default false */
   splitRefine: boolean;
-  /**
-   * First-level restarts screened on a sample (screenedKMeans.ts): when the budget of restartsFor
-   * gives fewer restarts than this, this many are run on a screenSample-point sample and the best
-   * screenFinalists of them carried on (and refined) on the points k-means is fitted on; 0 = off
-   * (measured, not adopted: see the header). @default 0
-   */
-  screenRestarts: number;
-  /** @default 500 */
-  screenSample: number;
-  /** @default 3 */
-  screenFinalists: number;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
   /** @default DEFAULT_SEED */
@@ -143,9 +131,6 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   axisExponent: 0,
   splitRestarts: 2,
   splitRefine: false,
-  screenRestarts: 0,
-  screenSample: 500,
-  screenFinalists: 3,
   fitSample: 2000,
   countDraws: 1,
   seed: DEFAULT_SEED,
@@ -263,7 +248,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       ? { topics: Math.min(o.topics, n), scores: [], sampled: 0 }
       : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
   yield;
-  const clustering = clusterPoints(space, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts, o.refine, o);
+  const clustering = clusterPoints(space, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts, o.refine);
   const K = clustering.clusters;
   const centres = space === points ? clustering.centres : centresIn(points, n, dims, clustering.assignment, K);
   yield;
@@ -543,20 +528,9 @@ function clusterPoints(
   seed: number,
   restarts?: number,
   refine = false,
-  screen?: Pick<TopicsOptions, 'screenRestarts' | 'screenSample' | 'screenFinalists'>,
 ): Clustering {
-  const fit = (p: Float64Array, m: number): Clustering => {
-    const budget = restarts ?? restartsFor(m, k, dims);
-    if (restarts === undefined && screen && screen.screenRestarts > budget)
-      return screenedKMeans(p, m, dims, k, {
-        seed,
-        candidates: screen.screenRestarts,
-        sample: screen.screenSample,
-        finalists: screen.screenFinalists,
-        refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0,
-      });
-    return sphericalKMeans(p, m, dims, k, { seed, restarts: budget, refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0 });
-  };
+  const fit = (p: Float64Array, m: number): Clustering =>
+    sphericalKMeans(p, m, dims, k, { seed, restarts: restarts ?? restartsFor(m, k, dims), refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0 });
   if (n <= fitSample) return fit(points, n);
   const random = createRandom(seed);
   const order = Int32Array.from({ length: n }, (_, i) => i);
