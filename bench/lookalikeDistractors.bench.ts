@@ -36,6 +36,7 @@ import {
   demoParaphrases,
   jsonlFiles,
   pairKey,
+  pathFiles,
   retellingsCorpus,
   type MaterialFile,
   type RetellingsCorpus,
@@ -48,11 +49,6 @@ const VERSIONS: [string, Partial<LookalikeOptions>][] = [
   ['+ clause c', { retoldMinEvidence: 1 }],
   ['default, clause a with at most 6 shared neighbours', { retoldMarginMaxSharedNeighbours: 6 }],
 ];
-
-/** A topic-trees file ({path, text} lines) as material files. */
-function pathFiles(path: string): MaterialFile[] {
-  return (jsonlFiles(path) as unknown as { path: string; text: string }[]).map((f) => ({ id: f.path, text: f.text }));
-}
 
 const corpus = retellingsCorpus();
 const infoSide = new Set(corpus.retellings.map((r) => r[1]));

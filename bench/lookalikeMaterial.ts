@@ -1,7 +1,7 @@
 /**
  * The real material the look-alike research benches read, loaded one way: the Debian retellings
  * fixture (test/fixtures/lookalike-retellings: files and the key of natural retellings), a manual
- * stored as gzipped JSON lines (test/fixtures/cmake-doc, test/fixtures/django-doc) and the demo
+ * stored as gzipped JSON lines (test/fixtures/cmake-doc, test/fixtures/django-doc, the topic-trees manuals) and the demo
  * workspace with its planted paraphrase pairs (demo/expectations.json).
  */
 import { readdirSync, readFileSync, statSync } from 'node:fs';
@@ -33,6 +33,11 @@ export function jsonlFiles(path: string): MaterialFile[] {
     .split('\n')
     .filter((l) => l.length > 0)
     .map((l) => JSON.parse(l) as MaterialFile);
+}
+
+/** The files of a topic-trees fixture (test/fixtures/topic-trees/*.jsonl.gz: one {path, text} per line). */
+export function pathFiles(path: string): MaterialFile[] {
+  return (jsonlFiles(path) as unknown as { path: string; text: string }[]).map((f) => ({ id: f.path, text: f.text }));
 }
 
 const DEMO = 'demo/workspace';

@@ -21,7 +21,10 @@
  *   smaller file's sections; mutual nearest pairs with cosine ≥ 0.3 only, else −1);
  * - words of the shorter and the longer file, and the two files' folders.
  * Folders: test/fixtures/lookalike-retellings, the same without the Texinfo side,
- * test/fixtures/cmake-doc, test/fixtures/django-doc, the demo workspace, and the fixture with the
+ * test/fixtures/cmake-doc, test/fixtures/django-doc, the demo workspace, three folders that chose
+ * no constant of the rule (the Erlang/OTP 25 manual and the full Django manual of
+ * test/fixtures/topic-trees, the Sphinx manual of test/fixtures/sphinx-doc: distractors only, read
+ * by scripts/fixtures/lookalike-retellings/pairScore.py), and the fixture with the
  * third source of third.json.gz added (23 retellings of ten other packages, for a held-out
  * reading: scripts/fixtures/lookalike-retellings/buildThird.py). For the fixture, each of
  * the key's 125 retellings gets its gate under clauses a and b (the first one it fails; the rule
@@ -47,6 +50,7 @@ import {
   demoParaphrases,
   jsonlFiles,
   pairKey,
+  pathFiles,
   retellingsCorpus,
   type MaterialFile,
   type RetellingsCorpus,
@@ -269,6 +273,11 @@ const runs = [
   analyse('cmake', jsonlFiles('test/fixtures/cmake-doc/docs.jsonl.gz'), new Map()),
   analyse('django', jsonlFiles('test/fixtures/django-doc/docs.jsonl.gz'), new Map()),
   analyse('demo', demoFiles(), new Map(demoParaphrases().map(([a, b]) => [pairKey(a, b), 'demo']))),
+  // Folders that chose no constant of the rule (distractors only; a pair there is outside any key):
+  // the Erlang/OTP 25 manual, the Sphinx manual and the full Django manual (half of it is django-doc).
+  analyse('erlang', pathFiles('test/fixtures/topic-trees/erlang.jsonl.gz'), new Map()),
+  analyse('sphinx', jsonlFiles('test/fixtures/sphinx-doc/docs.jsonl.gz'), new Map()),
+  analyse('django full', pathFiles('test/fixtures/topic-trees/django.jsonl.gz'), new Map()),
   analyse(
     'retellings + third',
     [...corpus.files, ...third.files],
