@@ -56,7 +56,6 @@
 import { EmptyCorpusError, InvalidInputError } from '../errors.js';
 import type { LsiIndex } from '../index/lsiIndex.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
-import { allocateClusters, dispersionCurve, sizeCurve } from './childAllocation.js';
 import { DEFAULT_NAME_POOL_FACTOR, TermFiles } from './coherentNames.js';
 import { curDecomposition, type CurMethod } from './cur.js';
 import { folderShares, type FolderShare } from './folderShares.js';
@@ -111,14 +110,6 @@ export interface TopicsOptions {
   splitRefine: boolean;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
-  /**
-   * How many sub-topics each topic opens into: 'each' chooses it for each topic alone (its
-   * silhouette); 'shared' takes the level's count from those choices and shares it out among the
-   * level's topics by how much each one's k-means loss falls (childAllocation.ts). @default 'each'
-   */
-  childCounts: 'each' | 'shared' | 'bySize';
-  /** With childCounts 'shared': topics with more than this many files may receive sub-topics; undefined means leafSize. */
-  shareFloor?: number;
   /** @default DEFAULT_SEED */
   seed: number;
   /** Readable word for a stem (e.g. SurfaceForms.wordFor); identity when absent. */
@@ -142,7 +133,6 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   splitRefine: false,
   fitSample: 2000,
   countDraws: 1,
-  childCounts: 'each',
   seed: DEFAULT_SEED,
 } as const);
 
@@ -344,19 +334,17 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       }));
       const memberPaths = members.map((m) => im.paths[m.row]);
       let children: Topic[] = [];
-      let sub: number[][] = [];
-      if (plan) sub = plan.get(path) ?? [];
-      else if (level < o.depth && group.length > o.leafSize) {
+      if (level < o.depth && group.length > o.leafSize) {
         yield;
-        sub = splitGroup(points, idx, dims, o, splitSeed(o.seed, path));
+        const sub = splitGroup(points, idx, dims, o, splitSeed(o.seed, path));
+        if (sub.length > 1)
+          children = yield* build(
+            sub,
+            group.map((i) => placed[i]),
+            level + 1,
+            path,
+          );
       }
-      if (sub.length > 1)
-        children = yield* build(
-          sub,
-          group.map((i) => placed[i]),
-          level + 1,
-          path,
-        );
       out.push({
         id: gi + 1,
         path,
@@ -372,7 +360,6 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
     }
     return out;
   }
-  const plan = o.childCounts !== 'each' ? yield* sharedSplits(points, dims, groups, o) : null;
   const allRows = Int32Array.from({ length: im.matrix.rows }, (_, r) => r);
   const topics = yield* build(groups, allRows, 1, '');
   const pathOfCluster = new Map<number, string>();
@@ -428,94 +415,29 @@ const SPLIT_SAMPLE = 150;
 const SPLIT_PASSES = 15;
 
 function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: TopicsOptions, seed: number): number[][] {
-  const k = splitCount(points, idx, dims, o, seed);
-  return k < 2 ? [] : splitInto(points, idx, dims, k, o, seed);
-}
-
-/** Most sub-topics of a topic of m files: min(maxChildren, ⌈√(m/2)⌉) (topicCount.ts' ceiling). */
-const childCeiling = (m: number, o: TopicsOptions) => Math.min(o.maxChildren, Math.ceil(Math.sqrt(m / 2)));
-
-function gathered(points: Float64Array, idx: Int32Array, dims: number): Float64Array {
-  const sub = new Float64Array(idx.length * dims);
-  for (let j = 0; j < idx.length; j++) sub.set(points.subarray(idx[j] * dims, (idx[j] + 1) * dims), j * dims);
-  return sub;
-}
-
-/** The silhouette's count of sub-topics of one group (1: no split). */
-function splitCount(points: Float64Array, idx: Int32Array, dims: number, o: TopicsOptions, seed: number): number {
-  return chooseTopicCount(gathered(points, idx, dims), idx.length, dims, {
-    maxTopics: childCeiling(idx.length, o),
+  const m = idx.length;
+  const sub = new Float64Array(m * dims);
+  for (let j = 0; j < m; j++) sub.set(points.subarray(idx[j] * dims, (idx[j] + 1) * dims), j * dims);
+  const choice = chooseTopicCount(sub, m, dims, {
+    maxTopics: Math.min(o.maxChildren, Math.ceil(Math.sqrt(m / 2))),
     sampleSize: SPLIT_SAMPLE,
     restarts: 1,
     maxIterations: SPLIT_PASSES,
     seed,
-  }).topics;
-}
-
-/** The group in k sub-topics by k-means (empty when fewer than two come out non-empty). */
-function splitInto(points: Float64Array, idx: Int32Array, dims: number, k: number, o: TopicsOptions, seed: number): number[][] {
-  const m = idx.length;
-  const sub = gathered(points, idx, dims);
+  });
+  if (choice.topics < 2) return [];
   let c: Clustering;
   if (m <= o.fitSample)
-    c = sphericalKMeans(sub, m, dims, k, {
+    c = sphericalKMeans(sub, m, dims, choice.topics, {
       seed,
       restarts: o.splitRestarts,
       maxIterations: SPLIT_PASSES,
       refineSweeps: o.splitRefine ? FIRST_LEVEL_SWEEPS : 0,
     });
-  else c = clusterPoints(sub, m, dims, k, o.fitSample, seed, o.splitRestarts, o.splitRefine);
+  else c = clusterPoints(sub, m, dims, choice.topics, o.fitSample, seed, o.splitRestarts, o.splitRefine);
   const out: number[][] = Array.from({ length: c.clusters }, () => []);
   for (let j = 0; j < m; j++) out[c.assignment[j]].push(idx[j]);
   return out.filter((g) => g.length > 0).length > 1 ? out : [];
-}
-
-/**
- * childCounts 'shared': the tree's splits planned level by level (children of each topic by its
- * path, largest first). At each level, the count is what the topics' own choices would give (the
- * silhouette's count for each topic of more than leafSize files, one for the others); it is
- * shared out among the topics of more than shareFloor files by the fall of their k-means loss
- * (childAllocation.ts), and each topic given two or more is split by k-means at its count.
- */
-function* sharedSplits(points: Float64Array, dims: number, firstLevel: number[][], o: TopicsOptions): Generator<void, Map<string, number[][]>, void> {
-  const plan = new Map<string, number[][]>();
-  const floor = o.shareFloor ?? o.leafSize;
-  const named = (groups: number[][], parent: string) =>
-    groups
-      .filter((g) => g.length > 0)
-      .sort(bySize)
-      .map((group, j) => ({ group, path: parent ? `${parent}.${j + 1}` : String(j + 1) }));
-  let nodes = named(firstLevel, '');
-  for (let level = 1; level < o.depth && nodes.length > 0; level++) {
-    let total = 0;
-    for (const node of nodes) {
-      if (node.group.length > o.leafSize) {
-        yield;
-        total += Math.max(1, splitCount(points, Int32Array.from(node.group), dims, o, splitSeed(o.seed, node.path)));
-      } else total += 1;
-    }
-    if (total <= nodes.length) break;
-    const curves = nodes.map((node) =>
-      node.group.length > floor
-        ? o.childCounts === 'bySize'
-          ? sizeCurve(node.group.length, childCeiling(node.group.length, o))
-          : dispersionCurve(points, node.group, dims, childCeiling(node.group.length, o), { seed: splitSeed(o.seed, node.path) })
-        : new Float64Array(1),
-    );
-    const counts = allocateClusters(curves, total);
-    const next: typeof nodes = [];
-    for (let t = 0; t < nodes.length; t++) {
-      if (counts[t] < 2) continue;
-      yield;
-      const sub = splitInto(points, Int32Array.from(nodes[t].group), dims, counts[t], o, splitSeed(o.seed, nodes[t].path));
-      if (sub.length < 2) continue;
-      const children = named(sub, nodes[t].path);
-      plan.set(nodes[t].path, children.map((c) => c.group));
-      next.push(...children);
-    }
-    nodes = next;
-  }
-  return plan;
 }
 
 /**
