@@ -10,15 +10,19 @@ Input: {"counts": {"rows", "cols", "indptr", "indices", "data"}  file × term co
         "vectors": [...], "dims": d                                the files' unit concept vectors,
         "folders": [...]                                          the folder label of each file,
         "levels": [{"ks": [K, ...], "ours": [[...], ...],         per seed: our topic count and each file's label
-                    "loose": [...]}]                               optional: 1 for a file our first seed's run sets apart
+                    "loose": [...],                                optional: 1 for a file our first seed's run sets apart
+                    "bisecting": true}]                            optional: also scikit-learn's divisive tree at each count
         "seeds": [s, ...]}                                         the seeds (k-means' random_state)
 Output: {"nmfTop": [[[col, ...], ...], ...], "levels": [{"kmeansNmi": [...], "oursNmi": [...],
-         "looseOwn", "looseDropped", "kmeansDropped": [...]}], "version"}
+         "looseOwn", "looseDropped", "kmeansDropped": [...], "bisectingNmi": [...]}], "version"}
 
 NMF as in scikit-learn's own topic-extraction example: TF-IDF of the counts (sublinear tf,
 terms in at least 2 files and at most 95% of them), NMF with NNDSVD start, Frobenius loss.
 k-means: KMeans(n_clusters=K, n_init=10, random_state=seed) on the same concept vectors, for each
-seed with the number of topics our tree has at that level with that seed. NMI: the
+seed with the number of topics our tree has at that level with that seed. With "bisecting": a tree
+from the same library at the same count, BisectingKMeans(n_clusters=K, random_state=seed) with its
+defaults (divisive k-means, Steinbach, Karypis & Kumar 2000: the cluster of largest inertia is
+split in two until K clusters; scikit-learn 1.1 and later). NMI: the
 arithmetic-mean normalisation (scikit-learn's default). With "loose": our labels with the files
 set apart as one more cluster (looseOwn), and both sides scored on the files we keep in a topic
 (looseDropped against kmeansDropped).
@@ -28,7 +32,7 @@ import json, sys
 import numpy as np
 import scipy.sparse as sp
 import sklearn
-from sklearn.cluster import KMeans
+from sklearn.cluster import BisectingKMeans, KMeans
 from sklearn.decomposition import NMF
 from sklearn.feature_extraction.text import TfidfTransformer
 from sklearn.metrics import normalized_mutual_info_score as nmi
@@ -56,6 +60,10 @@ def main():
                 'kmeansNmi': [float(nmi(folders, labels)) for labels in km],
                 'oursNmi': [float(nmi(folders, ours)) for ours in level['ours']],
             }
+            if level.get('bisecting'):
+                fig['bisectingNmi'] = [
+                    float(nmi(folders, BisectingKMeans(n_clusters=k, random_state=s).fit(vectors).labels_)) for s, k in zip(q['seeds'], level['ks'])
+                ]
             if 'loose' in level:
                 loose = np.array(level['loose']) == 1
                 first = np.array(level['ours'][0])

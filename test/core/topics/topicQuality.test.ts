@@ -18,6 +18,11 @@
  *    mean): the means are compared. Like with like: loose files are kept in their nearest topic (setApartLoose: false)
  *    so that both sides cover every file. The default (loose files set apart) is reported at the
  *    first level too, the loose files as one more cluster and left out of both sides.
+ *    From the second level on, a tree is also compared with a tree: scikit-learn's BisectingKMeans
+ *    (its defaults, random_state = seed) at the same count. A level of a tree refines the level
+ *    above, which flat k-means at the same count need not do; on the Erlang manual no tree comes
+ *    near flat k-means there (below), so the flat reference alone would measure the tree's shape
+ *    as much as its splits.
  * scikit-learn runs in this test (test/helpers/sklearnTopics.py through Debian's /usr/bin/python3;
  * .ci/run installs python3-sklearn). The first two levels only (the cost of NMF grows with the
  * number of components: the third level of the CMake tree has 270 topics and takes scikit-learn
@@ -55,7 +60,14 @@ function loadTree(name: string): Doc[] {
 
 function sklearn(query: object): {
   nmfTop: number[][][];
-  levels: { kmeansNmi: number[]; oursNmi: number[]; looseOwn?: number; looseDropped?: number; kmeansDropped?: number[] }[];
+  levels: {
+    kmeansNmi: number[];
+    oursNmi: number[];
+    bisectingNmi?: number[];
+    looseOwn?: number;
+    looseDropped?: number;
+    kmeansDropped?: number[];
+  }[];
   version: string;
 } {
   const dir = mkdtempSync(join(tmpdir(), 'undertone-topics-'));
@@ -86,6 +98,8 @@ interface LevelFigures {
   nmfNpmiHeldOut: number;
   oursNmi: number[];
   kmeansNmi: number[];
+  /** From the second level on: scikit-learn's divisive tree at the same count. */
+  bisectingNmi?: number[];
 }
 
 function evaluate(name: string): LevelFigures[] {
@@ -125,7 +139,7 @@ function evaluate(name: string): LevelFigures[] {
     levels: cuts[0].map((_, l) => ({
       ks: cuts.map((c) => c[l].length),
       ours: cuts.map((c) => labelsOf(c[l])),
-      ...(l === 0 ? { loose: im.paths.map((p) => (looseSet.has(p) ? 1 : 0)) } : {}),
+      ...(l === 0 ? { loose: im.paths.map((p) => (looseSet.has(p) ? 1 : 0)) } : { bisecting: true }),
     })),
   });
 
@@ -168,6 +182,7 @@ function evaluate(name: string): LevelFigures[] {
       : NaN,
     oursNmi: ref.levels[i].oursNmi,
     kmeansNmi: ref.levels[i].kmeansNmi,
+    bisectingNmi: ref.levels[i].bisectingNmi,
   }));
   const first = ref.levels[0];
   console.log(
@@ -177,7 +192,8 @@ function evaluate(name: string): LevelFigures[] {
           (f) =>
             `  level ${f.level}: ${f.k} topics (seeds: ${cuts.map((c) => c[f.level - 1].length).join(', ')}) · NPMI ours ${f.oursNpmi.toFixed(3)} vs NMF ${f.nmfNpmi.toFixed(3)}` +
             ` · held out (${f.heldOutK} topics) ours ${f.oursNpmiHeldOut.toFixed(3)} vs NMF ${f.nmfNpmiHeldOut.toFixed(3)}` +
-            ` · NMI ours ${spread(f.oursNmi)} vs k-means ${spread(f.kmeansNmi)}`,
+            ` · NMI ours ${spread(f.oursNmi)} vs k-means ${spread(f.kmeansNmi)}` +
+            (f.bisectingNmi ? `, bisecting k-means ${spread(f.bisectingNmi)}` : ''),
         )
         .join('\n') +
       `\n  level 1, ${looseSet.size} loose files set apart (seed ${SEEDS[0]}): NMI with them as one more cluster ${first.looseOwn!.toFixed(3)};` +
@@ -193,7 +209,7 @@ describe('topic tree against scikit-learn on documentation trees', () => {
   });
   for (const name of ['cmake', 'django', 'erlang']) {
     it.skipIf(!sklearnReady)(
-      `${name}: names at least as coherent as NMF's (on all files and held out) and topics at least as close to the folders as k-means' (mean over seeds) at the first two levels, two measured gaps held as floors`,
+      `${name}: names at least as coherent as NMF's (on all files and held out) and topics at least as close to the folders as k-means' (mean over seeds) at the first two levels (the second also against a tree), measured gaps held as floors`,
       { timeout: 1_800_000 },
       () => {
         const figures = evaluate(name);
@@ -215,16 +231,25 @@ describe('topic tree against scikit-learn on documentation trees', () => {
         // time not taken (restartsFor), and a spherical k-means that reaches a higher objective
         // than scikit-learn's KMeans still agrees less with the folders (scripts/fixtures/
         // topicObjective.ts: the objective, cosine against Euclidean, holds the rest). Erlang's
-        // second level is a structural gap: the tree spends its sub-topics on the big categories
-        // (wx's 243 pages open into many pure sub-topics) and keeps topics of at most 40 files
-        // whole (release notes and overview pages of every application), where flat k-means at the
-        // same count spreads its clusters over the small applications; cheaper splits are not the
+        // second level is a structural gap: a level of a tree refines the level above, and our
+        // first level's topics cross the small applications (flat k-means keeps most release-notes
+        // and overview pages of every application together too, but is free to cut the mixed
+        // topics anew), see below; cheaper splits are not the
         // cause (10 restarts and first-variation refinement of the splits: 0.533 of 0.581 over
         // seeds 0–2), nor does opening small topics whose split has a mean silhouette of at least
         // ¼ or ½ help (k-means gains more from the larger count). The two gaps are held as floors,
         // CMake's first level 0.01 and Erlang's second 0.05 under the reference (our choice, a
         // little above each measured gap), every other figure at the reference.
+        // The second level against a tree (scikit-learn's BisectingKMeans at the same count, seeds
+        // 0–9, measured 2026-12-03): CMake 0.419 vs 0.413, Django 0.368 vs 0.321, Erlang 0.539 vs
+        // 0.541. Erlang's gap to flat k-means is the tree's: scikit-learn's divisive tree falls as
+        // far below it, and even our first level cut by flat k-means at the same count (a tree
+        // with more topics than that count) reaches only 0.582 (seeds 0–9); sharing the level's
+        // count out by size or by k-means loss, or another leafSize, did not win the folds
+        // (scripts/fixtures/topicLevels.ts). Held at the tree reference, Erlang within 0.01 (our
+        // choice, a little above its measured gap).
         for (const f of figures) {
+          if (f.bisectingNmi) expect(mean(f.oursNmi)).toBeGreaterThanOrEqual(mean(f.bisectingNmi) - (name === 'erlang' ? 0.01 : 0));
           expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi);
           expect(f.oursNpmiHeldOut).toBeGreaterThanOrEqual(f.nmfNpmiHeldOut);
           const nmiGap = name === 'cmake' && f.level === 1 ? 0.01 : name === 'erlang' && f.level === 2 ? 0.05 : 0;
