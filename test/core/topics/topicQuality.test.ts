@@ -248,6 +248,11 @@ describe('topic tree against scikit-learn on documentation trees', () => {
         // count out by size or by k-means loss, or another leafSize, did not win the folds
         // (scripts/fixtures/topicLevels.ts). Held at the tree reference, Erlang within 0.01 (our
         // choice, a little above its measured gap).
+        // The first level on centred concept vectors (centreFirstLevel, centredDirections.ts; an
+        // option, measured 2026-12-03 22:07): CMake 0.406 vs 0.402 and 0.424 vs 0.414, Django 0.366
+        // vs 0.354 and 0.360 vs 0.349, Erlang 0.484 vs 0.475 and 0.527 vs 0.580, the tree reference
+        // 0.543 (0.016 under it): it closes CMake's first-level gap and widens Erlang's second-level
+        // one, so it is not the default.
         for (const f of figures) {
           if (f.bisectingNmi) expect(mean(f.oursNmi)).toBeGreaterThanOrEqual(mean(f.bisectingNmi) - (name === 'erlang' ? 0.01 : 0));
           expect(f.oursNpmi).toBeGreaterThanOrEqual(f.nmfNpmi);

@@ -250,8 +250,8 @@ describe('first-level and split levers (research options, off by default)', () =
     expect([out[2], out[3]]).toEqual([0, 0]);
   });
 
-  it('with the first level on scaled axes, or splits refined, the demo still brings out every planted topic and the tree stays whole', () => {
-    for (const options of [{ axisExponent: 0.5 }, { splitRestarts: 10, splitRefine: true }]) {
+  it('with the first level on scaled axes or uncentred, or splits refined, the demo still brings out every planted topic and the tree stays whole', () => {
+    for (const options of [{ axisExponent: 0.5 }, { centreFirstLevel: true }, { splitRestarts: 10, splitRefine: true }]) {
       const report = findTopics(demo.index, { ...options, setApartLoose: false });
       const s = scores(report, demo.topics);
       expect(s.recovered, JSON.stringify(options)).toBe(demo.topics.length);
