@@ -65,6 +65,8 @@ export interface NearbyOptions extends SearchOptions {
   wordMatchDelta?: number;
   /** Share of TF-IDF cosine in the word match (0 = BM25L alone). @default RankingOptions.nearbyTfidfShare */
   wordMatchTfidf?: number;
+  /** Weight of the name field in the word match (0 = none). @default RankingOptions.nearbyNameWeight */
+  wordMatchNames?: number;
 }
 
 export interface PrepareOptions {

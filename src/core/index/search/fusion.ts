@@ -129,6 +129,17 @@ export interface RankingOptions {
    * three and cost Nearby of a file about 12 ms more CPU on the whole kernel tree. @default false
    */
   nearbyTfidfFromConcept: boolean;
+  /**
+   * Search: weight η of the name field (nameField.ts: the words of a file's path, scored by BM25
+   * over the names alone): word match = BM25/max + η·names/max. 0 = the body alone. @default 0
+   */
+  nameWeight: number;
+  /**
+   * Nearby: weight η of the name field in both directions: the page's top words against the other
+   * files' names, and the page's own name words against the other files' text (BM25L, δ as the
+   * word match's): word match = BM25L/max + η·names/max + η·BM25L(own name)/max. @default 0
+   */
+  nearbyNameWeight: number;
 }
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
@@ -151,6 +162,8 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyTfidfShare: 0,
   nearbyTfidfTerms: 40,
   nearbyTfidfFromConcept: false,
+  nameWeight: 0.5,
+  nearbyNameWeight: 0.35,
 });
 
 /** About how many files give the spread of concept scores (every file below twice this; common practice). */
