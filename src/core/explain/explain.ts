@@ -16,7 +16,10 @@
  * feedback (index/search/fusion.ts) the query vector is q′ = s·x/‖x‖ + f: the words keep their
  * shares scaled by s, and (1 − λ)·f·d̂ is reported apart as the feedback part. A search's w_t
  * carries the word's focus weight (index/search/termFocus.ts), as the fold does.
- * Nearby score: (1 − μ)·cos + μ·BM25 of the first file's distinctive terms / max, split the same way.
+ * The word match may hold the name field (index/search/nameField.ts): BM25 over the words of the
+ * files' paths is a sum over query terms as well, so each term's name part joins its lexical share.
+ * Nearby score: (1 − μ)·cos + μ·BM25 of the first file's distinctive terms / max (and the name
+ * field's two parts, the second over the first file's name words), split the same way.
  * Sections (core/sections) are explained by the same sums with the section's own vector and terms
  * in place of the file's: a section search score is (1 − λ)·cos(q′, ŝ) + λ·BM25(file)/max
  * (sectionSearch.ts), so the concept shares use ŝ and the word-match shares stay the file's; a

@@ -32,7 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
-import { NameField, pathNameText } from './search/nameField.js';
+import { NameField, PathNameTokens } from './search/nameField.js';
 import { TfidfNorms, TfidfNormsBuilder } from './search/tfidfCosine.js';
 import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
@@ -90,6 +90,11 @@ export class LsiIndex {
   private _bm25: Bm25Scorer | null = null;
   /** The name field of the word match (nameField.ts), made from the paths on first use, then kept up to date. */
   private _names: NameField | null = null;
+  private _pathTokens: PathNameTokens | null = null;
+  /** The name field being built by prepare() in slices (dropped by any edit before it completes). */
+  private _namesBuild: { field: NameField; next: number } | null = null;
+  /** Name words not in the vocabulary yet → the slots whose names hold them (completed when a fold-in brings the word). */
+  private readonly _unknownNames = new Map<string, Set<number>>();
   private _scratch = new Float64Array(0);
   private _codes: ConceptCodes | null | undefined;
   private readonly _screen = new ScreenScratch();
@@ -560,6 +565,7 @@ export class LsiIndex {
     if (!this.fillCodes(more)) return false;
     if (this.settings.lexicalBlend <= 0) return true;
     if (!this.bm25().prepare(more)) return false;
+    if ((this.ranking.nameWeight > 0 || this.ranking.nearbyNameWeight > 0) && !this.stepNames(more)) return false;
     // The TF-IDF norms Nearby's (and an opt-in search's) word match divides by: built after BM25.
     return this.ranking.nearbyTfidfShare > 0 || this.ranking.tfidfShare > 0 ? this.stepTfidf(more) !== null : true;
   }
@@ -607,9 +613,17 @@ export class LsiIndex {
     this._codes?.ensureCapacity(this._slots.length);
     this._codes?.setRow(s, proj.vector);
     this._bm25?.setDocument(s, terms);
-    // New words may complete other files' names too: made again from the paths when next needed.
-    if (this.vocab.size > before) this._names = null;
-    else this._names?.set(s, this.nameTerms(meta));
+    this._namesBuild = null;
+    if (this._names) {
+      this._names.set(s, this.nameTerms(meta, s));
+      // New words may complete other files' names too, as an index built afresh would have them.
+      for (let id = before; id < this.vocab.size && this._unknownNames.size > 0; id++) {
+        const waiting = this._unknownNames.get(this.vocab.termOf(id));
+        if (!waiting) continue;
+        this._unknownNames.delete(this.vocab.termOf(id));
+        for (const j of waiting) if (j !== s && this._slots[j]) this._names.set(j, this.nameTerms(this._slots[j]!.meta, j));
+      }
+    }
     this.forgetFocus();
     this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
@@ -629,6 +643,7 @@ export class LsiIndex {
     this._changes.removed(wasFolded);
     this._bm25?.setDocument(s, null);
     this._names?.set(s, null);
+    this._namesBuild = null;
     this.forgetFocus();
     return true;
   }
@@ -697,17 +712,43 @@ export class LsiIndex {
 
   /** The name field of every current file (nameField.ts), made on first use. */
   names(): NameField {
-    if (!this._names) {
-      const names = new NameField();
-      this._slots.forEach((s, j) => s && names.set(j, this.nameTerms(s.meta)));
-      this._names = names;
+    return this.stepNames(() => true)!;
+  }
+
+  /** Builds the name field while more() says so (at least one chunk of files); null until complete. */
+  private stepNames(more: () => boolean): NameField | null {
+    if (this._names) return this._names;
+    if (!this._namesBuild) {
+      this._unknownNames.clear();
+      this._namesBuild = { field: new NameField(), next: 0 };
     }
+    const b = this._namesBuild;
+    do {
+      const end = Math.min(this._slots.length, b.next + NAMES_CHUNK);
+      for (; b.next < end; b.next++) {
+        const s = this._slots[b.next];
+        if (s) b.field.set(b.next, this.nameTerms(s.meta, b.next));
+      }
+    } while (b.next < this._slots.length && more());
+    if (b.next < this._slots.length) return null;
+    this._names = b.field;
+    this._namesBuild = null;
     return this._names;
   }
 
-  /** A file's name terms: its path's words (nameField.ts) in its language, numbers left out, known words only. */
-  private nameTerms(meta: DocMeta): DocTerms {
-    const tokens = tokenizeIn(pathNameText(meta.path), this.settings.tokenize, meta.language ?? 'en').filter((t) => !ALL_DIGITS.test(t));
+  /**
+   * A file's name terms: its path's words (nameField.ts) in its language, numbers left out, words of
+   * the vocabulary only; the others are noted, so the fold-in that brings one completes the name.
+   */
+  private nameTerms(meta: DocMeta, slot: number): DocTerms {
+    this._pathTokens ??= new PathNameTokens(this.settings.tokenize);
+    const tokens = this._pathTokens.tokens(meta.path, meta.language ?? 'en');
+    for (const t of tokens) {
+      if (this.vocab.idOf(t) !== undefined) continue;
+      let waiting = this._unknownNames.get(t);
+      if (!waiting) this._unknownNames.set(t, (waiting = new Set()));
+      waiting.add(slot);
+    }
     return countTerms(tokens, this.vocab, false);
   }
 
@@ -777,12 +818,13 @@ function conceptSpread(rows: Float32Array, k: number, slots: readonly (DocSlot |
   return Math.sqrt(Math.max(0, ss / n - m * m));
 }
 
+/** Files whose names are made between two looks at the clock while prepare() builds the name field. */
+const NAMES_CHUNK = 256;
+
 /** out[j] += w·a[j]. */
 function addScaled(out: Float64Array, w: number, a: Float64Array): void {
   for (let j = 0; j < out.length; j++) out[j] += w * a[j];
 }
-
-const ALL_DIGITS = /^\p{N}+$/u;
 
 /** out[j] = wa·a[j] + wb·b[j]. */
 function blend(wa: number, a: Float64Array, wb: number, b: Float64Array, out: Float64Array): void {

@@ -14,6 +14,10 @@
  * Defaults k1 = 1.2, b = 0.75 (BM25's common practice, bm25.ts).
  */
 import type { DocTerms } from '../../counting/termCounts.js';
+import { asciiWordTokens, isAsciiWord } from '../../text/asciiWord.js';
+import type { Language } from '../../text/languages.js';
+import type { TokenizeOptions } from '../../text/tokenize.js';
+import { tokenizeIn } from '../../text/tokenizeLanguage.js';
 import { DEFAULT_BM25_OPTIONS, type Bm25Options } from './bm25.js';
 
 /** The text of a path's name words: folders and the file name without its extension, separated by spaces. */
@@ -23,6 +27,54 @@ export function pathNameText(path: string): string {
   const dot = file.lastIndexOf('.');
   const stem = dot > 0 ? file.slice(0, dot) : file;
   return `${path.slice(0, slash + 1)}${stem}`.replace(/[/\\.]+/g, ' ');
+}
+
+const PATH_WORD = /[\p{L}\p{N}_$]+/gu;
+const ALL_DIGITS = /^\p{N}+$/u;
+/** Words remembered at most (the cache is cleared past it; common practice for a memo). */
+const WORD_CACHE_LIMIT = 200_000;
+
+/**
+ * A path's name tokens (pathNameText, tokenized in the file's language, numbers left out), word by
+ * word with each word's tokens remembered: folders repeat over a tree's files, so most words of a
+ * path were met before. ASCII words of English files take the tokenizer's fast twin (asciiWord.ts,
+ * held equal to tokenize() by its tests).
+ */
+export class PathNameTokens {
+  private readonly _cache = new Map<string, readonly string[]>();
+  private readonly _folders = new Map<string, string[]>();
+
+  constructor(private readonly _options: TokenizeOptions) {}
+
+  /** The name tokens of a path: its folders' (remembered per folder) and its file name's. */
+  tokens(path: string, language: Language = 'en'): string[] {
+    const slash = path.lastIndexOf('/');
+    if (slash < 0) return this.words(pathNameText(path), language);
+    const key = `${language}\0${path.slice(0, slash)}/`;
+    let folder = this._folders.get(key);
+    if (folder === undefined) {
+      folder = this.words(path.slice(0, slash), language);
+      if (this._folders.size >= WORD_CACHE_LIMIT) this._folders.clear();
+      this._folders.set(key, folder);
+    }
+    return [...folder, ...this.words(pathNameText(path.slice(slash + 1)), language)];
+  }
+
+  private words(text: string, language: Language): string[] {
+    const out: string[] = [];
+    for (const m of text.matchAll(PATH_WORD)) {
+      const key = language === 'en' ? m[0] : `${language}\0${m[0]}`;
+      let t = this._cache.get(key);
+      if (t === undefined) {
+        const all = language === 'en' && isAsciiWord(m[0]) ? asciiWordTokens(m[0], this._options) : tokenizeIn(m[0], this._options, language);
+        t = all.filter((x) => !ALL_DIGITS.test(x));
+        if (this._cache.size >= WORD_CACHE_LIMIT) this._cache.clear();
+        this._cache.set(key, t);
+      }
+      for (const x of t) out.push(x);
+    }
+    return out;
+  }
 }
 
 /** The name terms of every slot and their postings (term → [slot, tf, slot, tf, …]), kept up to date by set(). */
