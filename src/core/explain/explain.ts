@@ -209,7 +209,9 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
       if (own && plan.ownNameMax > 0)
         own.termIds.forEach((id, i) => {
           const tf = countOf(b, id);
-          if (tf > 0) entry(id).lexical += (mu * plan.names * bm25.termScore(id, own.counts[i], tf, slotB, nearbyLengthNorm, delta)) / plan.ownNameMax;
+          if (tf > 0)
+            entry(id).lexical +=
+              (mu * plan.names * bm25.termScore(id, own.counts[i], tf, slotB, nearbyLengthNorm, delta)) / plan.ownNameMax;
         });
     }
     // The TF-IDF part of the word match (LsiIndex.nearbyPlan): every term of its query that B holds.

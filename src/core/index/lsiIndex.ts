@@ -425,7 +425,18 @@ export class LsiIndex {
       mu += moved;
     }
     if (share > 0) tfidfMax = this.addTfidf(tfidfQuery, lexical, wl, wt, 1, self);
-    return { lexicalQuery, max, lexical, tfidfShare: share > 0 ? wt : 0, tfidfMax, tfidfQuery, lexicalShare: mu, names, namesMax, ownNameMax };
+    return {
+      lexicalQuery,
+      max,
+      lexical,
+      tfidfShare: share > 0 ? wt : 0,
+      tfidfMax,
+      tfidfQuery,
+      lexicalShare: mu,
+      names,
+      namesMax,
+      ownNameMax,
+    };
   }
 
   /** One term's TF-IDF score for a file (tfidfCosine.ts, cosine), before division by the best; for explanations. */

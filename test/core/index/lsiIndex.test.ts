@@ -132,9 +132,15 @@ function plainTfidf(index: LsiIndex, d: DocTerms): number[] {
  * names alone (df and N = slots with a name, average name length; k1 = 1.2, b = 0.75; BM25L with δ).
  */
 function plainNames(index: LsiIndex, q: DocTerms, delta = 0): number[] {
-  const names = index
-    .slots()
-    .map((s) => (s ? countTerms(tokenize(pathNameText(s.meta.path)).filter((t) => !/^\p{N}+$/u.test(t)), index.vocab, false) : null));
+  const names = index.slots().map((s) =>
+    s
+      ? countTerms(
+          tokenize(pathNameText(s.meta.path)).filter((t) => !/^\p{N}+$/u.test(t)),
+          index.vocab,
+          false,
+        )
+      : null,
+  );
   const present = names.filter((d): d is DocTerms => d !== null && d.length > 0);
   const avg = present.reduce((a, d) => a + d.length, 0) / Math.max(present.length, 1);
   return names.map((d) => {
@@ -307,7 +313,11 @@ function plainNearby(
   const tfidf = plainTfidf(index, words > 0 ? topTerms(words) : d);
   // The name field both ways: the page's top words against the others' names, the page's own name words against the others' text.
   const names = eta > 0 ? plainNames(index, query, delta) : bm25.map(() => 0);
-  const ownName = countTerms(tokenize(pathNameText(path)).filter((t) => !/^\p{N}+$/u.test(t)), index.vocab, false);
+  const ownName = countTerms(
+    tokenize(pathNameText(path)).filter((t) => !/^\p{N}+$/u.test(t)),
+    index.vocab,
+    false,
+  );
   const own = eta > 0 && ownName.length > 0 ? plainBm25(index, ownName, index.ranking.nearbyLengthNorm, delta) : bm25.map(() => 0);
   for (const x of [bm25, tfidf, names, own]) x[self] = 0;
   const [nb, nn, no] = [byMax(bm25), byMax(names), byMax(own)];

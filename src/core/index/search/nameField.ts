@@ -66,7 +66,8 @@ export class PathNameTokens {
       const key = language === 'en' ? m[0] : `${language}\0${m[0]}`;
       let t = this._cache.get(key);
       if (t === undefined) {
-        const all = language === 'en' && isAsciiWord(m[0]) ? asciiWordTokens(m[0], this._options) : tokenizeIn(m[0], this._options, language);
+        const all =
+          language === 'en' && isAsciiWord(m[0]) ? asciiWordTokens(m[0], this._options) : tokenizeIn(m[0], this._options, language);
         t = all.filter((x) => !ALL_DIGITS.test(x));
         if (this._cache.size >= WORD_CACHE_LIMIT) this._cache.clear();
         this._cache.set(key, t);
