@@ -406,7 +406,8 @@ describe('LsiIndex name field against the plain formula', () => {
         got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
       }
     };
-    expect(index.ranking.nameWeight).toBeGreaterThan(0);
+    // Search's name field is opt-in (nameWeight 0 by default); Nearby's is on.
+    index.ranking = { ...index.ranking, nameWeight: 0.5 };
     expect(index.ranking.nearbyNameWeight).toBeGreaterThan(0);
     compare();
     // A new file named by a word no text holds yet; then a file that brings the word (the first file's name

@@ -72,17 +72,16 @@ describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries
     console.log(`rxjs-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  // Measured with the defaults (the name field at nameWeight 0.5): .4672 (BM25 .4387, 1.065), quartiles
-  // .3796 / .5285 / .5831 / .3786; without it .4294 (.979 of BM25), .3320 / .4961 / .4994 / .3911.
-  it('MRR@10 ≥ 25% above TF-IDF cosine and LSI, ≥ 5% above BM25', () => {
+  it('MRR@10 ≥ 15% above TF-IDF cosine and LSI; within 3% of BM25 (still below it)', () => {
     const b = fx.baselines!.methods;
-    expect(got.mrr10).toBeGreaterThanOrEqual(1.25 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
-    expect(got.mrr10).toBeGreaterThanOrEqual(1.05 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.15 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
+    expect(got.mrr10).toBeGreaterThanOrEqual(0.97 * b.bm25.mrr10!);
   });
 
-  it('no size quartile below TF-IDF cosine', () => {
+  it('no size quartile more than 10% below TF-IDF cosine (the smallest is still below it, the second level with it); the two larger ones above it', () => {
     const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
-    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(q[i]!));
+    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.9 * q[i]!));
+    for (const i of [2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
   });
 });
 
@@ -95,16 +94,48 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
     console.log(`lodash-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  // Measured with the defaults (the name field at nameWeight 0.5): .3944 (LSI .3561, 1.108; BM25 .3439,
-  // 1.147), quartiles .3724 / .3897 / .4161 / .3995; without it .3585, .3924 / .3544 / .3613 / .3258.
-  it('MRR@10 ≥ 8% above the best plain baseline (LSI), ≥ 12% above BM25', () => {
+  it('MRR@10 above the best plain baseline (LSI), 4% above BM25', () => {
+    const b = fx.baselines!.methods;
+    expect(got.mrr10).toBeGreaterThanOrEqual(best(fx.baselines, 'mrr10'));
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.04 * b.bm25.mrr10!);
+  });
+
+  it('no size quartile more than 10% below TF-IDF cosine (the two smaller ones are still below it); the two larger ones above it', () => {
+    const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
+    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.9 * q[i]!));
+    for (const i of [2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
+  });
+});
+
+describe('the opt-in name field in search (nameWeight 0.5; nameField.ts)', () => {
+  // Measured: rxjs .4672 (BM25 .4387, 1.065), quartiles .3796 / .5285 / .5831 / .3786; lodash .3944
+  // (LSI .3561, 1.108; BM25 .3439, 1.147), quartiles .3724 / .3897 / .4161 / .3995 (README, "Ranking
+  // checks", sixth round). Off by default for the demo's questions worded unlike their answers.
+  const run = (name: string): { fx: RankingFixture; got: ReturnType<typeof searchFigures> } => {
+    const fx = loadRankingFixture(name);
+    const index = buildFixtureIndex(fx);
+    index.ranking = { ...DEFAULT_RANKING_OPTIONS, nameWeight: 0.5 };
+    const got = searchFigures(index, fx);
+    console.log(
+      `${name} with the name field MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`,
+    );
+    return { fx, got };
+  };
+
+  it('rxjs: ≥ 5% above BM25, ≥ 25% above TF-IDF cosine and LSI, no size quartile below TF-IDF cosine', () => {
+    const { fx, got } = run('rxjs-src');
+    const b = fx.baselines!.methods;
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.05 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.25 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
+    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(b.tfidf.mrr10ByQuartile![i]!));
+  });
+
+  it('lodash: ≥ 8% above the best plain baseline (LSI), ≥ 12% above BM25; the three larger quartiles at or above TF-IDF cosine, the smallest at most 12% below it (.3724 against .4183)', () => {
+    const { fx, got } = run('lodash-src');
     const b = fx.baselines!.methods;
     expect(got.mrr10).toBeGreaterThanOrEqual(1.08 * best(fx.baselines, 'mrr10'));
     expect(got.mrr10).toBeGreaterThanOrEqual(1.12 * b.bm25.mrr10!);
-  });
-
-  it('the three larger size quartiles at or above TF-IDF cosine; the smallest at most 12% below it (still below: .3724 against .4183)', () => {
-    const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
+    const q = b.tfidf.mrr10ByQuartile!;
     expect(got.mrr10ByQuartile[0]!).toBeGreaterThanOrEqual(0.88 * q[0]!);
     for (const i of [1, 2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
   });
