@@ -14,7 +14,7 @@ import { gunzipSync } from 'node:zlib';
 import { createRandom } from '../../src/core/random.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { LinkGraph } from '../../src/core/links/linkGraph.js';
-import { LINKS_WORD_MATCH_DELTA, LINKS_WORD_MATCH_TFIDF, spaceShare } from '../../src/core/links/suggestLinks.js';
+import { LINKS_WORD_MATCH_DELTA, LINKS_WORD_MATCH_NAMES, LINKS_WORD_MATCH_TFIDF, spaceShare } from '../../src/core/links/suggestLinks.js';
 
 export interface Ranked {
   readonly path: string;
@@ -125,7 +125,13 @@ export function nearbyRanker(index: LsiIndex): Ranker {
   const share = new Map(index.paths().map((p) => [p, spaceShare(index, p)]));
   return (key, accept, top) =>
     index
-      .nearby(key, { top, filter: accept, wordMatchDelta: LINKS_WORD_MATCH_DELTA, wordMatchTfidf: LINKS_WORD_MATCH_TFIDF })
+      .nearby(key, {
+        top,
+        filter: accept,
+        wordMatchDelta: LINKS_WORD_MATCH_DELTA,
+        wordMatchTfidf: LINKS_WORD_MATCH_TFIDF,
+        wordMatchNames: LINKS_WORD_MATCH_NAMES,
+      })
       .map((h) => ({ path: h.path, score: h.conceptScore * share.get(key)! * share.get(h.path)! }));
 }
 

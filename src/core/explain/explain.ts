@@ -16,7 +16,10 @@
  * feedback (index/search/fusion.ts) the query vector is q′ = s·x/‖x‖ + f: the words keep their
  * shares scaled by s, and (1 − λ)·f·d̂ is reported apart as the feedback part. A search's w_t
  * carries the word's focus weight (index/search/termFocus.ts), as the fold does.
- * Nearby score: (1 − μ)·cos + μ·BM25 of the first file's distinctive terms / max, split the same way.
+ * The word match may hold the name field (index/search/nameField.ts): BM25 over the words of the
+ * files' paths is a sum over query terms as well, so each term's name part joins its lexical share.
+ * Nearby score: (1 − μ)·cos + μ·BM25 of the first file's distinctive terms / max (and the name
+ * field's two parts, the second over the first file's name words), split the same way.
  * Sections (core/sections) are explained by the same sums with the section's own vector and terms
  * in place of the file's: a section search score is (1 − λ)·cos(q′, ŝ) + λ·BM25(file)/max
  * (sectionSearch.ts), so the concept shares use ŝ and the word-match shares stay the file's; a
@@ -65,6 +68,8 @@ export class QueryExplainer {
   private readonly _conceptWeight: number;
   private readonly _lambda: number;
   private readonly _maxBm25: number;
+  /** The best name-field score of the query (nameField.ts; 0 when none or off). */
+  private readonly _namesMax: number;
   private readonly _slotOf = new Map<string, number>();
   /** The final query vector minus `scale`·(the text's own unit vector): what feedback added. */
   private readonly _moved: Float64Array | null = null;
@@ -98,12 +103,19 @@ export class QueryExplainer {
     const rowOf = new Map(side.rows.map(({ id, r }) => [id, r]));
     this._rows = Array.from(lexQuery.termIds, (id) => ({ id, r: rowOf.get(id) ?? null }));
     let max = 0;
+    let namesMax = 0;
     if (this._lambda > 0) {
       const all = new Float64Array(_index.slots().length);
       _index.bm25().scoreInto(lexQuery, all, _index.ranking.lengthNorm);
       for (const v of all) max = Math.max(max, v);
+      if (_index.ranking.nameWeight > 0) {
+        all.fill(0);
+        _index.names().scoreInto(lexQuery, all);
+        for (const v of all) namesMax = Math.max(namesMax, v);
+      }
     }
     this._maxBm25 = max;
+    this._namesMax = namesMax;
     _index.slots().forEach((s, i) => s && this._slotOf.set(s.meta.path, i));
   }
 
@@ -124,15 +136,18 @@ export class QueryExplainer {
     const doc = this._index.termsOf(path);
     const slot = this._slotOf.get(path)!;
     const bm25 = this._index.bm25();
+    const names = this._index.names();
     const vocab = this._index.vocab;
     const out: TermShare[] = [];
     this._rows.forEach(({ id, r }, i) => {
       const concept = r ? this._conceptWeight * this._scale * dotF(r, d) : 0;
       const tf = countOf(doc, id);
-      const lexical =
+      let lexical =
         this._lambda > 0 && this._maxBm25 > 0
           ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot, this._index.ranking.lengthNorm)) / this._maxBm25
           : 0;
+      if (this._lambda > 0 && this._namesMax > 0)
+        lexical += (this._lambda * this._index.ranking.nameWeight * names.termScore(id, this._query.counts[i], slot)) / this._namesMax;
       const inBoth = (own ? countOf(own, id) : tf) > 0;
       if (concept !== 0 || lexical !== 0) out.push({ term: vocab.termOf(id), share: concept + lexical, concept, lexical, inBoth });
     });
@@ -181,6 +196,24 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
               bm25.termScore(id, lexicalQuery.counts[i], tf, slotB, index.ranking.nearbyLengthNorm, index.ranking.nearbyDelta)) /
             max;
       });
+    // The name field's two parts (LsiIndex.nearbyPlan): A's top words in B's name, A's name words in B's text.
+    if (plan.names > 0) {
+      const names = index.names();
+      const { nearbyLengthNorm, nearbyDelta: delta } = index.ranking;
+      if (plan.namesMax > 0)
+        lexicalQuery.termIds.forEach((id, i) => {
+          const part = names.termScore(id, lexicalQuery.counts[i], slotB, delta);
+          if (part > 0) entry(id).lexical += (mu * plan.names * part) / plan.namesMax;
+        });
+      const own = names.namesOf(index.slots().findIndex((s) => s?.meta.path === pathA));
+      if (own && plan.ownNameMax > 0)
+        own.termIds.forEach((id, i) => {
+          const tf = countOf(b, id);
+          if (tf > 0)
+            entry(id).lexical +=
+              (mu * plan.names * bm25.termScore(id, own.counts[i], tf, slotB, nearbyLengthNorm, delta)) / plan.ownNameMax;
+        });
+    }
     // The TF-IDF part of the word match (LsiIndex.nearbyPlan): every term of its query that B holds.
     if (nu > 0 && tfidfMax > 0)
       tfidfQuery.termIds.forEach((id, i) => {

@@ -32,6 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
+import { NameField, PathNameTokens } from './search/nameField.js';
 import { TfidfNorms, TfidfNormsBuilder } from './search/tfidfCosine.js';
 import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
@@ -87,6 +88,13 @@ export class LsiIndex {
   private readonly _rows: ConceptRows;
   private readonly _slotOf = new Map<string, number>();
   private _bm25: Bm25Scorer | null = null;
+  /** The name field of the word match (nameField.ts), made from the paths on first use, then kept up to date. */
+  private _names: NameField | null = null;
+  private _pathTokens: PathNameTokens | null = null;
+  /** The name field being built by prepare() in slices (dropped by any edit before it completes). */
+  private _namesBuild: { field: NameField; next: number } | null = null;
+  /** Name words not in the vocabulary yet → the slots whose names hold them (completed when a fold-in brings the word). */
+  private readonly _unknownNames = new Map<string, Set<number>>();
   private _scratch = new Float64Array(0);
   private _codes: ConceptCodes | null | undefined;
   private readonly _screen = new ScreenScratch();
@@ -282,6 +290,7 @@ export class LsiIndex {
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
       divideByMax(lexical);
+      if (r.nameWeight > 0) this.addNames(lexQuery, lexical, r.nameWeight, 0, -1);
       if (r.tfidfShare > 0 && !r.tfidfFromConcept) this.addTfidf(lexQuery, lexical, 1 - r.tfidfShare, r.tfidfShare, r.tfidfSlope);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
       if (r.tfidfShare > 0 && r.tfidfFromConcept && proj.knownTerms > 0) {
@@ -325,7 +334,7 @@ export class LsiIndex {
     const live = this.acceptor(options.filter);
     const accept = (j: number): boolean => j !== self && live(j);
     const n = this._slots.length;
-    const { lexical, lexicalShare: mu } = this.nearbyPlan(path, options.wordMatchDelta, options.wordMatchTfidf);
+    const { lexical, lexicalShare: mu } = this.nearbyPlan(path, options.wordMatchDelta, options.wordMatchTfidf, options.wordMatchNames);
     const { ranked, product } = this.rank(
       this.vectorOf(path),
       1 - mu,
@@ -359,6 +368,7 @@ export class LsiIndex {
     path: string,
     delta: number = this.ranking.nearbyDelta,
     tfidf: number = this.ranking.nearbyTfidfShare,
+    names: number = this.ranking.nearbyNameWeight,
   ): {
     lexicalQuery: DocTerms;
     max: number;
@@ -367,6 +377,10 @@ export class LsiIndex {
     tfidfMax: number;
     tfidfQuery: DocTerms;
     lexicalShare: number;
+    /** The name field's weight η and the maxima of its two parts (0 when a part found nothing). */
+    names: number;
+    namesMax: number;
+    ownNameMax: number;
   } {
     const self = this.slot(path);
     const n = this._slots.length;
@@ -380,6 +394,19 @@ export class LsiIndex {
       this.bm25().scoreInto(lexicalQuery, lexical, this.ranking.nearbyLengthNorm, delta);
       lexical[self] = 0;
       max = divideByMax(lexical);
+    }
+    let namesMax = 0;
+    let ownNameMax = 0;
+    if (this.ranking.nearbyLexical > 0 && names > 0) {
+      namesMax = this.addNames(lexicalQuery, lexical, names, delta, self);
+      const own = this.names().namesOf(self);
+      if (own) {
+        const extra = this._scratch.subarray(n, 2 * n).fill(0);
+        this.bm25().scoreInto(own, extra, this.ranking.nearbyLengthNorm, delta);
+        extra[self] = 0;
+        ownNameMax = divideByMax(extra);
+        addScaled(lexical, names, extra);
+      }
     }
     const words = this.ranking.nearbyTfidfTerms;
     // The TF-IDF part's query (only made when it has a share; the BM25 query stands in otherwise).
@@ -398,7 +425,18 @@ export class LsiIndex {
       mu += moved;
     }
     if (share > 0) tfidfMax = this.addTfidf(tfidfQuery, lexical, wl, wt, 1, self);
-    return { lexicalQuery, max, lexical, tfidfShare: share > 0 ? wt : 0, tfidfMax, tfidfQuery, lexicalShare: mu };
+    return {
+      lexicalQuery,
+      max,
+      lexical,
+      tfidfShare: share > 0 ? wt : 0,
+      tfidfMax,
+      tfidfQuery,
+      lexicalShare: mu,
+      names,
+      namesMax,
+      ownNameMax,
+    };
   }
 
   /** One term's TF-IDF score for a file (tfidfCosine.ts, cosine), before division by the best; for explanations. */
@@ -538,6 +576,7 @@ export class LsiIndex {
     if (!this.fillCodes(more)) return false;
     if (this.settings.lexicalBlend <= 0) return true;
     if (!this.bm25().prepare(more)) return false;
+    if ((this.ranking.nameWeight > 0 || this.ranking.nearbyNameWeight > 0) && !this.stepNames(more)) return false;
     // The TF-IDF norms Nearby's (and an opt-in search's) word match divides by: built after BM25.
     return this.ranking.nearbyTfidfShare > 0 || this.ranking.tfidfShare > 0 ? this.stepTfidf(more) !== null : true;
   }
@@ -585,6 +624,17 @@ export class LsiIndex {
     this._codes?.ensureCapacity(this._slots.length);
     this._codes?.setRow(s, proj.vector);
     this._bm25?.setDocument(s, terms);
+    this._namesBuild = null;
+    if (this._names) {
+      this._names.set(s, this.nameTerms(meta, s));
+      // New words may complete other files' names too, as an index built afresh would have them.
+      for (let id = before; id < this.vocab.size && this._unknownNames.size > 0; id++) {
+        const waiting = this._unknownNames.get(this.vocab.termOf(id));
+        if (!waiting) continue;
+        this._unknownNames.delete(this.vocab.termOf(id));
+        for (const j of waiting) if (j !== s && this._slots[j]) this._names.set(j, this.nameTerms(this._slots[j]!.meta, j));
+      }
+    }
     this.forgetFocus();
     this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
@@ -603,6 +653,8 @@ export class LsiIndex {
     this.sections.delete(path);
     this._changes.removed(wasFolded);
     this._bm25?.setDocument(s, null);
+    this._names?.set(s, null);
+    this._namesBuild = null;
     this.forgetFocus();
     return true;
   }
@@ -669,6 +721,61 @@ export class LsiIndex {
     return this._bm25;
   }
 
+  /** The name field of every current file (nameField.ts), made on first use. */
+  names(): NameField {
+    return this.stepNames(() => true)!;
+  }
+
+  /** Builds the name field while more() says so (at least one chunk of files); null until complete. */
+  private stepNames(more: () => boolean): NameField | null {
+    if (this._names) return this._names;
+    if (!this._namesBuild) {
+      this._unknownNames.clear();
+      this._namesBuild = { field: new NameField(), next: 0 };
+    }
+    const b = this._namesBuild;
+    do {
+      const end = Math.min(this._slots.length, b.next + NAMES_CHUNK);
+      for (; b.next < end; b.next++) {
+        const s = this._slots[b.next];
+        if (s) b.field.set(b.next, this.nameTerms(s.meta, b.next));
+      }
+    } while (b.next < this._slots.length && more());
+    if (b.next < this._slots.length) return null;
+    this._names = b.field;
+    this._namesBuild = null;
+    return this._names;
+  }
+
+  /**
+   * A file's name terms: its path's words (nameField.ts) in its language, numbers left out, words of
+   * the vocabulary only; the others are noted, so the fold-in that brings one completes the name.
+   */
+  private nameTerms(meta: DocMeta, slot: number): DocTerms {
+    this._pathTokens ??= new PathNameTokens(this.settings.tokenize);
+    const tokens = this._pathTokens.tokens(meta.path, meta.language ?? 'en');
+    for (const t of tokens) {
+      if (this.vocab.idOf(t) !== undefined) continue;
+      let waiting = this._unknownNames.get(t);
+      if (!waiting) this._unknownNames.set(t, (waiting = new Set()));
+      waiting.add(slot);
+    }
+    return countTerms(tokens, this.vocab, false);
+  }
+
+  /**
+   * lexical += η·(the name field's BM25 of the query / its maximum), `exclude` left out; returns
+   * that maximum (0 when no name holds a query word).
+   */
+  private addNames(query: DocTerms, lexical: Float64Array, eta: number, delta: number, exclude: number): number {
+    const n = lexical.length;
+    const extra = this._scratch.subarray(n, 2 * n).fill(0);
+    this.names().scoreInto(query, extra, delta, exclude);
+    const max = divideByMax(extra);
+    addScaled(lexical, eta, extra);
+    return max;
+  }
+
   private slot(path: string): number {
     const s = this._slotOf.get(path);
     if (s === undefined) throw new NotIndexedError(path);
@@ -720,6 +827,14 @@ function conceptSpread(rows: Float32Array, k: number, slots: readonly (DocSlot |
   if (n < 2) return 0;
   const m = s / n;
   return Math.sqrt(Math.max(0, ss / n - m * m));
+}
+
+/** Files whose names are made between two looks at the clock while prepare() builds the name field. */
+const NAMES_CHUNK = 256;
+
+/** out[j] += w·a[j]. */
+function addScaled(out: Float64Array, w: number, a: Float64Array): void {
+  for (let j = 0; j < out.length; j++) out[j] += w * a[j];
 }
 
 /** out[j] = wa·a[j] + wb·b[j]. */

@@ -29,7 +29,10 @@ export interface SearchHit {
   readonly score: number;
   /** Cosine similarity in concept space. */
   readonly conceptScore: number;
-  /** BM25 score divided by the best BM25 score of this query (0…1). */
+  /**
+   * The word match: BM25 divided by the best BM25 score of this query, plus nameWeight × the name
+   * field's score divided by its best (0…1 + nameWeight; RankingOptions, nameField.ts).
+   */
   readonly lexicalScore: number;
 }
 
@@ -40,10 +43,12 @@ export interface NearbyHit {
   /** Cosine similarity of the two files' concept vectors. */
   readonly conceptScore: number;
   /**
-   * The word match (0…1): BM25L (δ: RankingOptions.nearbyDelta, or NearbyOptions.wordMatchDelta)
-   * of the file's most distinctive terms divided by the best other file's, with a share ν
-   * (RankingOptions.nearbyTfidfShare, or NearbyOptions.wordMatchTfidf) of TF-IDF cosine divided by
-   * the best other file's: (1 − ν)·BM25L/max + ν·TFIDF/max.
+   * The word match: BM25L (δ: RankingOptions.nearbyDelta, or NearbyOptions.wordMatchDelta) of the
+   * file's most distinctive terms divided by the best other file's, plus η (nearbyNameWeight, or
+   * NearbyOptions.wordMatchNames) × each name-field part divided by its best (nameField.ts: those
+   * terms in the other file's name, the file's own name words in the other file's text), with a
+   * share ν (RankingOptions.nearbyTfidfShare, or NearbyOptions.wordMatchTfidf) of TF-IDF cosine
+   * divided by the best other file's: (1 − ν)·(BM25L/max + η·names) + ν·TFIDF/max.
    */
   readonly lexicalScore: number;
 }
@@ -65,6 +70,8 @@ export interface NearbyOptions extends SearchOptions {
   wordMatchDelta?: number;
   /** Share of TF-IDF cosine in the word match (0 = BM25L alone). @default RankingOptions.nearbyTfidfShare */
   wordMatchTfidf?: number;
+  /** Weight of the name field in the word match (0 = none). @default RankingOptions.nearbyNameWeight */
+  wordMatchNames?: number;
 }
 
 export interface PrepareOptions {

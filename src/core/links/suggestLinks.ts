@@ -56,6 +56,12 @@ export const LINKS_WORD_MATCH_DELTA = 0;
  */
 export const LINKS_WORD_MATCH_TFIDF = 0;
 
+/**
+ * The name field's weight in the word match (LsiIndex.nearby, wordMatchNames): 0, as the threshold
+ * above was calibrated without it; Nearby's 0.35 came later (README, "Ranking checks", sixth round).
+ */
+export const LINKS_WORD_MATCH_NAMES = 0;
+
 export const DEFAULT_SUGGEST_OPTIONS: SuggestOptions = { top: 5, minSimilarity: DEFAULT_MIN_SIMILARITY, words: 5 };
 
 export interface LinkSuggestion {
@@ -106,6 +112,7 @@ export function unlinkedNeighbours(
       filter: (p) => p !== key && graph.notes.has(p) && !graph.linked(key, p),
       wordMatchDelta: LINKS_WORD_MATCH_DELTA,
       wordMatchTfidf: LINKS_WORD_MATCH_TFIDF,
+      wordMatchNames: LINKS_WORD_MATCH_NAMES,
     })
     .map((h) => ({ path: h.path, score: h.score, similarity: h.conceptScore * own * spaceShare(index, h.path) }));
 }

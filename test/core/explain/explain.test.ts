@@ -12,6 +12,7 @@ import { explainPair, QueryExplainer, topShares } from '../../../src/core/explai
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { weightDocument } from '../../../src/core/weighting/termWeighting.js';
+import { buildFixtureIndex, loadRankingFixture } from '../../helpers/rankingChecks.js';
 import { loadCollection } from '../../helpers/shared.js';
 
 const cisi = loadCollection('cisi');
@@ -124,6 +125,36 @@ describe('explanations on CISI', () => {
     for (let i = 1; i < e.terms.length; i++) expect(Math.abs(e.terms[i].share)).toBeLessThanOrEqual(Math.abs(e.terms[i - 1].share));
     const t = topShares(e, 3);
     expect(t.top.reduce((s, x) => s + x.share, 0) + t.rest + e.feedback).toBeCloseTo(e.score, 12);
+  });
+});
+
+describe('explanations with the name field (rxjs 7.8.2: test/fixtures/rxjs-src, real paths, code and queries)', () => {
+  it('search (the opt-in name field) and Nearby shares add up to the score and its parts; the name parts count', () => {
+    const rxjs = loadRankingFixture('rxjs-src');
+    const index = buildFixtureIndex(rxjs);
+    index.ranking = { ...index.ranking, nameWeight: 0.5 };
+    let moved = 0;
+    for (const q of rxjs.queries.slice(0, 15).map((x) => x.text)) {
+      const lambda = index.searchPlan(q).lambda;
+      const explainer = new QueryExplainer(index, q);
+      for (const hit of index.search(q, { top: 5 })) {
+        const e = explainer.explain(hit.path);
+        expect(e.terms.reduce((s, t) => s + t.share, 0) + e.feedback).toBeCloseTo(hit.score, 5);
+        expect(e.terms.reduce((s, t) => s + t.lexical, 0)).toBeCloseTo(lambda * hit.lexicalScore, 5);
+        if (hit.lexicalScore > 1) moved++;
+      }
+    }
+    const mu = index.ranking.nearbyLexical;
+    for (const path of index.paths().filter((_, i) => i % 25 === 0)) {
+      for (const hit of index.nearby(path, { top: 5 })) {
+        const fused = explainPair(index, path, hit.path);
+        expect(fused.score).toBeCloseTo(hit.score, 5);
+        expect(fused.terms.reduce((s, t) => s + t.lexical, 0)).toBeCloseTo(mu * hit.lexicalScore, 5);
+        if (hit.lexicalScore > 1) moved++;
+      }
+    }
+    // Word matches above 1 hold a name part (BM25/max is at most 1), so the sums above include it.
+    expect(moved).toBeGreaterThan(10);
   });
 });
 

@@ -4,7 +4,10 @@ import { projectTerms } from '../../../src/core/index/model/conceptModel.js';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { decodeIndex, encodeIndex } from '../../../src/core/index/persistence/serialize.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import type { DocTerms } from '../../../src/core/counting/termCounts.js';
+import { countTerms, type DocTerms } from '../../../src/core/counting/termCounts.js';
+import { pathNameText } from '../../../src/core/index/search/nameField.js';
+import { tokenize } from '../../../src/core/text/tokenize.js';
+import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 import { loadCollection } from '../../helpers/shared.js';
 
 // Real text: CRAN (test/fixtures/corpora/cran, 1400 aerodynamics abstracts).
@@ -123,6 +126,43 @@ function plainTfidf(index: LsiIndex, d: DocTerms): number[] {
   });
 }
 
+/**
+ * The name field's BM25 (nameField.ts) written out: each slot's name = the words of its path
+ * (folders, file name without extension; numbers left out; words the index knows), BM25 over the
+ * names alone (df and N = slots with a name, average name length; k1 = 1.2, b = 0.75; BM25L with δ).
+ */
+function plainNames(index: LsiIndex, q: DocTerms, delta = 0): number[] {
+  const names = index.slots().map((s) =>
+    s
+      ? countTerms(
+          tokenize(pathNameText(s.meta.path)).filter((t) => !/^\p{N}+$/u.test(t)),
+          index.vocab,
+          false,
+        )
+      : null,
+  );
+  const present = names.filter((d): d is DocTerms => d !== null && d.length > 0);
+  const avg = present.reduce((a, d) => a + d.length, 0) / Math.max(present.length, 1);
+  return names.map((d) => {
+    if (!d || d.length === 0) return 0;
+    let score = 0;
+    q.termIds.forEach((t, i) => {
+      const tf = tfOf(d, t);
+      if (tf === 0) return;
+      const df = present.filter((e) => tfOf(e, t) > 0).length;
+      const c = tf / (0.25 + (0.75 * d.length) / avg) + delta;
+      score += (q.counts[i] * Math.log(1 + (present.length - df + 0.5) / (df + 0.5)) * 2.2 * c) / (1.2 + c);
+    });
+    return score;
+  });
+}
+
+/** x_j/max(x) (0 when no x is positive). */
+function byMax(x: number[]): number[] {
+  const max = Math.max(...x);
+  return x.map((v) => (max > 0 ? v / max : 0));
+}
+
 function tfOf(d: DocTerms, t: number): number {
   const i = d.termIds.indexOf(t);
   return i < 0 ? 0 : d.counts[i];
@@ -197,13 +237,16 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
   const q = index.queryTerms(text);
   const focus = plainFocus(index, q);
   const proj = projectTerms(index.model, q, focus ? (t) => focus.get(t)! : undefined);
-  const bm25 = plainBm25(index, q, index.ranking.lengthNorm);
+  // The word match: BM25/max + η·(the name field's BM25)/max.
+  const eta = index.ranking.nameWeight;
+  const names = byMax(plainNames(index, q));
+  const bm25 = byMax(plainBm25(index, q, index.ranking.lengthNorm)).map((x, j) => x + eta * names[j]);
   const base = coverageLambda(index, q);
   const share = (v: Float32Array): number => spreadLambda(index, v, bm25, base);
   let vector = proj.vector;
   if (proj.knownTerms > 0) {
     const lambda = share(vector);
-    const first = plainBlend(index, vector, 1 - lambda, lambda, bm25, 5);
+    const first = plainBlend(index, vector, 1 - lambda, lambda, bm25, 5, '', true);
     const acc = Float64Array.from(vector);
     for (const f of first) {
       const v = index.vectorOf(f.path);
@@ -213,7 +256,7 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
     vector = Float32Array.from(acc, (x) => x / norm);
   }
   const lambda = proj.knownTerms > 0 ? share(vector) : base;
-  return plainBlend(index, vector, proj.knownTerms > 0 ? 1 - lambda : 0, lambda, bm25, top);
+  return plainBlend(index, vector, proj.knownTerms > 0 ? 1 - lambda : 0, lambda, bm25, top, '', true);
 }
 
 /**
@@ -221,9 +264,8 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
  * population standard deviations over every file (the index samples every ⌊n/2,048⌋-th file for
  * σ_cos, all of them in these test indexes).
  */
-function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[], lambda: number): number {
+function spreadLambda(index: LsiIndex, q: Float32Array, lexical: number[], lambda: number): number {
   if (!index.ranking.spreadBlend) return lambda;
-  const max = Math.max(...bm25);
   const live = index.slots().flatMap((s, j) => (s ? [j] : []));
   const sd = (xs: number[]): number => {
     const m = xs.reduce((a, x) => a + x, 0) / xs.length;
@@ -235,7 +277,7 @@ function spreadLambda(index: LsiIndex, q: Float32Array, bm25: number[], lambda: 
     for (let c = 0; c < index.k; c++) d += q[c] * v[c];
     return d;
   });
-  const sl = sd(live.map((j) => (max > 0 ? bm25[j] / max : 0)));
+  const sl = sd(live.map((j) => lexical[j]));
   const sc = sd(cos);
   if (!(sl > 1e-12) || !(sc > 1e-12)) return lambda;
   return lambda / sl / ((1 - lambda) / sc + lambda / sl);
@@ -253,6 +295,7 @@ function plainNearby(
   top: number,
   delta = index.ranking.nearbyDelta,
   nu = index.ranking.nearbyTfidfShare,
+  eta = index.ranking.nearbyNameWeight,
 ): { path: string; score: number }[] {
   const d = index.termsOf(path);
   const idf = (t: number): number => index.bm25().idf(t);
@@ -268,15 +311,24 @@ function plainNearby(
   const bm25 = plainBm25(index, query, index.ranking.nearbyLengthNorm, delta);
   const words = index.ranking.nearbyTfidfTerms;
   const tfidf = plainTfidf(index, words > 0 ? topTerms(words) : d);
-  bm25[self] = 0;
-  tfidf[self] = 0;
-  const [maxB, maxT] = [Math.max(...bm25), Math.max(...tfidf)];
+  // The name field both ways: the page's top words against the others' names, the page's own name words against the others' text.
+  const names = eta > 0 ? plainNames(index, query, delta) : bm25.map(() => 0);
+  const ownName = countTerms(
+    tokenize(pathNameText(path)).filter((t) => !/^\p{N}+$/u.test(t)),
+    index.vocab,
+    false,
+  );
+  const own = eta > 0 && ownName.length > 0 ? plainBm25(index, ownName, index.ranking.nearbyLengthNorm, delta) : bm25.map(() => 0);
+  for (const x of [bm25, tfidf, names, own]) x[self] = 0;
+  const [nb, nn, no] = [byMax(bm25), byMax(names), byMax(own)];
+  const word = nb.map((x, j) => x + eta * nn[j] + eta * no[j]);
+  const maxT = Math.max(...tfidf);
   if (index.ranking.nearbyTfidfFromConcept && nu > 0) {
-    // ν taken from the concept part: (1 − μ)(1 − ν)·cos + μ·BM25L/max + (1 − μ)ν·TF-IDF/max, μ = ½.
-    const parts = bm25.map((x, j) => 0.5 * (maxB > 0 ? x / maxB : 0) + 0.5 * nu * (maxT > 0 ? tfidf[j] / maxT : 0));
+    // ν taken from the concept part: (1 − μ)(1 − ν)·cos + μ·word match + (1 − μ)ν·TF-IDF/max, μ = ½.
+    const parts = word.map((x, j) => 0.5 * x + 0.5 * nu * (maxT > 0 ? tfidf[j] / maxT : 0));
     return plainBlend(index, index.vectorOf(path), 0.5 * (1 - nu), 1, parts, top, path, true);
   }
-  const lexical = bm25.map((x, j) => (1 - nu) * (maxB > 0 ? x / maxB : 0) + nu * (maxT > 0 ? tfidf[j] / maxT : 0));
+  const lexical = word.map((x, j) => (1 - nu) * x + nu * (maxT > 0 ? tfidf[j] / maxT : 0));
   return plainBlend(index, index.vectorOf(path), 0.5, 0.5, lexical, top, path, true);
 }
 
@@ -301,8 +353,8 @@ describe('LsiIndex ranking against the plain formula', () => {
         got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
         // A caller's own δ and TF-IDF share (the link suggestions pass 0 and 0: classic BM25) override the defaults.
         expect(index.ranking.nearbyTfidfShare).toBeGreaterThan(0);
-        const classic = index.nearby(p, { top: 15, wordMatchDelta: 0, wordMatchTfidf: 0 });
-        const classicRef = plainNearby(index, p, 15, 0, 0);
+        const classic = index.nearby(p, { top: 15, wordMatchDelta: 0, wordMatchTfidf: 0, wordMatchNames: 0 });
+        const classicRef = plainNearby(index, p, 15, 0, 0, 0);
         expect(classic.map((h) => h.path)).toEqual(classicRef.map((h) => h.path));
         classic.forEach((h, i) => expect(h.score).toBeCloseTo(classicRef[i].score, 12));
       }
@@ -328,6 +380,49 @@ describe('LsiIndex ranking against the plain formula', () => {
         .map((h) => h.path)
         .sort(),
     ).toEqual(['new0', 'new2']);
+  });
+});
+
+describe('LsiIndex name field against the plain formula', () => {
+  // Real paths, code and queries: rxjs 7.8.2 (test/fixtures/rxjs-src, provenance in its README).
+  it('ranks search and nearby with the name field exactly as the plain computation, before and after edits that bring new words', () => {
+    const rxjs = loadRankingFixture('rxjs-src');
+    const b = new IndexBuilder();
+    for (const d of rxjs.docs) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    const index = b.build();
+    let named = 0;
+    const compare = (extra: string[] = []): void => {
+      for (const text of [...rxjs.queries.slice(0, 12).map((q) => q.text), ...extra]) {
+        const got = index.search(text, { top: 10 });
+        const ref = plainSearch(index, text, 10);
+        expect(got.map((h) => h.path)).toEqual(ref.map((h) => h.path));
+        got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
+        named += plainNames(index, index.queryTerms(text)).filter((x) => x > 0).length;
+      }
+      for (const p of index.paths().filter((_, i) => i % 40 === 3)) {
+        const got = index.nearby(p, { top: 10 });
+        const ref = plainNearby(index, p, 10);
+        expect(got.map((h) => h.path)).toEqual(ref.map((h) => h.path));
+        got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
+      }
+    };
+    // Search's name field is opt-in (nameWeight 0 by default); Nearby's is on.
+    index.ranking = { ...index.ranking, nameWeight: 0.5 };
+    expect(index.ranking.nearbyNameWeight).toBeGreaterThan(0);
+    compare();
+    // A new file named by a word no text holds yet; then a file that brings the word (the first file's name
+    // is complete from then on, as in an index built afresh); a file replaced; one removed.
+    index.foldIn({ path: 'internal/operators/quuxify.ts', size: 1, mtimeMs: 1 }, 'export const apply = (x) => map(x);');
+    index.foldIn({ path: 'internal/operators/frobnicate.ts', size: 1, mtimeMs: 1 }, 'export function frobnicate(x) { return quuxify(x); }');
+    index.foldIn({ path: rxjs.docs[20].id, size: 1, mtimeMs: 1 }, rxjs.docs[30].text);
+    index.remove(rxjs.docs[40].id);
+    compare(['quuxify the values', 'frobnicate']);
+    expect(index.search('quuxify', { top: 2 }).map((h) => h.path)).toContain('internal/operators/quuxify.ts');
+    // Other weights apply as documented.
+    index.ranking = { ...index.ranking, nameWeight: 1, nearbyNameWeight: 0.5 };
+    compare();
+    // The name field did score (the comparisons above are not between zeros).
+    expect(named).toBeGreaterThan(20);
   });
 });
 

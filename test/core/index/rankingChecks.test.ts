@@ -14,7 +14,7 @@
  *   the two code collections pull the blend in opposite directions, so a choice made on one is
  *   checked on the other.
  * One default configuration for all (index/search/fusion.ts), chosen by leaving one collection out
- * (scripts/fixtures/rankingFusionExplore.ts). Where Undertone is still behind a baseline, the
+ * (scripts/fixtures/rankingFusionExplore.ts, rankingLevers.ts). Where Undertone is still behind a baseline, the
  * check says so in its name and asserts the measured gap as a floor (README, "Ranking checks"), so
  * a regression fails and an improvement shows.
  */
@@ -33,32 +33,33 @@ const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): 
   Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
 
 describe('Nearby on linked documentation (nDCG@10)', () => {
-  // Measured with the defaults (nearbyDelta 0.5, BM25L): CMake .5378 (BM25 .5112, 1.052; TF-IDF .4386,
-  // 1.226), Django .7114 (LSI .6984, 1.019), Sphinx .7162 (TF-IDF .7085, 1.011); with δ 0 they were
-  // 1.012, 1.017 and 1.006 of the best baseline. With the opt-in TF-IDF share (nearbyTfidfShare 0.1,
+  // Measured with the defaults (nearbyDelta 0.5, BM25L; nearbyNameWeight 0.35, the name field both
+  // ways): CMake .6116 (BM25 .5112, 1.196; TF-IDF .4386, 1.394), Django .7243 (LSI .6984, 1.037),
+  // Sphinx .7375 (TF-IDF .7085, 1.041); without the name field .5378, .7114 and .7162 (1.052, 1.019,
+  // 1.011); with δ 0 as well 1.012, 1.017 and 1.006 of the best baseline (README, "Ranking checks"). With the opt-in TF-IDF share (nearbyTfidfShare 0.1,
   // off by default): over the page's 40 top words (nearbyTfidfTerms) 1.032, 1.024 and 1.015, over all
   // its words 1.030, 1.027 and 1.023 (README, "Ranking checks", fourth and fifth rounds).
-  it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 4% above the best plain baseline (BM25 of the whole page), ≥ 20% above TF-IDF cosine', () => {
+  it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 15% above the best plain baseline (BM25 of the whole page), ≥ 35% above TF-IDF cosine', () => {
     const fx = loadRankingFixture('cmake-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`cmake-doc nearby nDCG@10 ${got.toFixed(4)}`);
     const b = fx.baselines!.methods;
-    expect(got).toBeGreaterThanOrEqual(1.2 * b.tfidf.ndcg10);
-    expect(got).toBeGreaterThanOrEqual(1.04 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.35 * b.tfidf.ndcg10);
+    expect(got).toBeGreaterThanOrEqual(1.15 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Django manual (258 pages, 248 linked pages as queries): ≥ 1.5% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
+  it('Django manual (258 pages, 248 linked pages as queries): ≥ 3% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
     const fx = loadRankingFixture('django-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`django-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.015 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.03 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 0.5% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
+  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 3% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
     const fx = loadRankingFixture('sphinx-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`sphinx-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.005 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.03 * best(fx.baselines, 'ndcg10'));
   });
 });
 
@@ -103,6 +104,40 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
     const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
     got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.9 * q[i]!));
     for (const i of [2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
+  });
+});
+
+describe('the opt-in name field in search (nameWeight 0.5; nameField.ts)', () => {
+  // Measured: rxjs .4672 (BM25 .4387, 1.065), quartiles .3796 / .5285 / .5831 / .3786; lodash .3944
+  // (LSI .3561, 1.108; BM25 .3439, 1.147), quartiles .3724 / .3897 / .4161 / .3995 (README, "Ranking
+  // checks", sixth round). Off by default for the demo's questions worded unlike their answers.
+  const run = (name: string): { fx: RankingFixture; got: ReturnType<typeof searchFigures> } => {
+    const fx = loadRankingFixture(name);
+    const index = buildFixtureIndex(fx);
+    index.ranking = { ...DEFAULT_RANKING_OPTIONS, nameWeight: 0.5 };
+    const got = searchFigures(index, fx);
+    console.log(
+      `${name} with the name field MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`,
+    );
+    return { fx, got };
+  };
+
+  it('rxjs: ≥ 5% above BM25, ≥ 25% above TF-IDF cosine and LSI, no size quartile below TF-IDF cosine', () => {
+    const { fx, got } = run('rxjs-src');
+    const b = fx.baselines!.methods;
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.05 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.25 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
+    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(b.tfidf.mrr10ByQuartile![i]!));
+  });
+
+  it('lodash: ≥ 8% above the best plain baseline (LSI), ≥ 12% above BM25; the three larger quartiles at or above TF-IDF cosine, the smallest at most 12% below it (.3724 against .4183)', () => {
+    const { fx, got } = run('lodash-src');
+    const b = fx.baselines!.methods;
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.08 * best(fx.baselines, 'mrr10'));
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.12 * b.bm25.mrr10!);
+    const q = b.tfidf.mrr10ByQuartile!;
+    expect(got.mrr10ByQuartile[0]!).toBeGreaterThanOrEqual(0.88 * q[0]!);
+    for (const i of [1, 2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
   });
 });
 

@@ -1,0 +1,104 @@
+import { describe, expect, it } from 'vitest';
+import { countTerms, Vocabulary, type DocTerms } from '../../../../src/core/counting/termCounts.js';
+import { DEFAULT_BM25_OPTIONS } from '../../../../src/core/index/search/bm25.js';
+import { countIn, NameField, pathNameText } from '../../../../src/core/index/search/nameField.js';
+import { tokenize } from '../../../../src/core/text/tokenize.js';
+import { loadRankingFixture } from '../../../helpers/rankingChecks.js';
+
+// Real paths and queries: rxjs 7.8.2's source files and doc-comment sentences (test/fixtures/rxjs-src, provenance in its README).
+const rxjs = loadRankingFixture('rxjs-src');
+const vocab = new Vocabulary();
+const names: DocTerms[] = rxjs.docs.map((d) => countTerms(tokenize(pathNameText(d.id)), vocab, true));
+const queries: DocTerms[] = rxjs.queries.slice(0, 60).map((q) => countTerms(tokenize(q.text), vocab, false));
+
+/**
+ * Reference: BM25 (Robertson & Zaragoza 2009, eq. 3.15, the non-negative idf
+ * ln(1 + (N − df + 0.5)/(df + 0.5)); BM25L's c + δ, Lv & Zhai 2011) over the name fields alone,
+ * df, N (fields with a word) and the average length counted afresh from the fields present.
+ */
+function reference(fields: readonly (DocTerms | null)[], query: DocTerms, delta = 0): number[] {
+  const { k1, b } = DEFAULT_BM25_OPTIONS;
+  const present = fields.filter((d): d is DocTerms => d !== null && d.length > 0);
+  const n = present.length;
+  const avg = present.reduce((s, d) => s + d.length, 0) / n;
+  return fields.map((d) => {
+    if (!d || d.length === 0) return 0;
+    let score = 0;
+    query.termIds.forEach((t, i) => {
+      const tf = countIn(d, t);
+      if (tf === 0) return;
+      const df = present.filter((e) => countIn(e, t) > 0).length;
+      const c = tf / (1 - b + (b * d.length) / avg) + delta;
+      score += (query.counts[i] * Math.log(1 + (n - df + 0.5) / (df + 0.5)) * (k1 + 1) * c) / (k1 + c);
+    });
+    return score;
+  });
+}
+
+function scores(field: NameField, q: DocTerms, size: number, delta = 0, exclude = -1): number[] {
+  const out = new Float64Array(size);
+  field.scoreInto(q, out, delta, exclude);
+  return [...out];
+}
+
+describe('pathNameText', () => {
+  it('keeps the folders and the file name, drops the extension, separates at slashes and dots', () => {
+    // ("switch" is a stop word of code, tokenize.ts.)
+    expect(pathNameText('internal/operators/switchMap.ts')).toBe('internal operators switchMap');
+    expect(pathNameText('faq/admin.html')).toBe('faq admin');
+    expect(pathNameText('README')).toBe('README');
+    expect(pathNameText('lib/jquery.min.js')).toBe('lib jquery min');
+    expect(tokenize(pathNameText('internal/operators/switchMap.ts'))).toEqual(['intern', 'oper', 'map', 'switchmap']);
+  });
+});
+
+describe('NameField', () => {
+  const field = new NameField();
+  names.forEach((d, j) => field.set(j, d));
+
+  it('scores BM25 over the names alone, as the published formula (and BM25L with δ)', () => {
+    let matched = 0;
+    for (const q of queries)
+      for (const delta of [0, 0.5]) {
+        const want = reference(names, q, delta);
+        const got = scores(field, q, names.length, delta);
+        got.forEach((v, j) => expect(v).toBeCloseTo(want[j], 10));
+        if (delta === 0) matched += want.filter((v) => v > 0).length;
+      }
+    // The queries do meet the names (so the comparison above is not between zeros).
+    expect(matched).toBeGreaterThan(30);
+  });
+
+  it('splits a slot’s score exactly into per-term parts, and leaves out the excluded slot', () => {
+    for (const q of queries.slice(0, 20)) {
+      const all = scores(field, q, names.length);
+      const without = scores(field, q, names.length, 0, 3);
+      all.forEach((v, j) => {
+        const parts = Array.from(q.termIds, (t, i) => field.termScore(t, q.counts[i], j)).reduce((a, b) => a + b, 0);
+        expect(parts).toBeCloseTo(v, 10);
+        expect(without[j]).toBe(j === 3 ? 0 : v);
+      });
+    }
+  });
+
+  it('after edits (names replaced, cleared, added past the end) scores as a field made afresh', () => {
+    const edited = new NameField();
+    names.forEach((d, j) => edited.set(j, d));
+    const now: (DocTerms | null)[] = [...names];
+    for (let j = 0; j < names.length; j += 7) {
+      now[j] = j % 2 ? null : names[(j * 31) % names.length];
+      edited.set(j, now[j]);
+    }
+    now.push(names[5]);
+    edited.set(names.length, names[5]);
+    const fresh = new NameField();
+    now.forEach((d, j) => fresh.set(j, d));
+    for (const q of queries) {
+      expect(scores(edited, q, now.length)).toEqual(scores(fresh, q, now.length));
+      const want = reference(now, q);
+      scores(edited, q, now.length).forEach((v, j) => expect(v).toBeCloseTo(want[j], 10));
+    }
+    expect(edited.namesOf(0)).toBe(now[0]);
+    expect(edited.namesOf(7)).toBeNull();
+  });
+});
