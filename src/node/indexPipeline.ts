@@ -31,6 +31,9 @@ import { fileLanguage, withLanguage } from '../core/text/detectLanguage.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
 import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
+import type { MatrixExecutor } from '../core/matrix/executor.js';
+import { collectGarbage } from './collectGarbage.js';
+import { createWasmExecutor } from '../core/matrix/wasm/wasmExecutor.js';
 import { readIndexableText } from './scanRead.js';
 import type { SkippedPath } from './scanTypes.js';
 import { readSharedModel } from './conceptModelFile.js';
@@ -307,16 +310,34 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         return cancelled();
       },
     };
+    // Once the SVD's passes are done, its threads and executor memory go, and a fresh pool makes
+    // the term vectors and the files' projection (they would otherwise sit on top of it).
+    const closing: Promise<void>[] = [];
+    const freshExecutor = (): MatrixExecutor | undefined => {
+      executor = undefined;
+      const old = pool;
+      pool = undefined;
+      if (old) closing.push(old.close());
+      // The old executor's memory is freed only when this thread's references are collected.
+      collectGarbage();
+      // On this thread alone: a new worker would start while the old one is still ending.
+      executor = createWasmExecutor();
+      return executor;
+    };
     const index = builder.build({
       sharedModel,
       signal: aborted,
-      executor,
+      get executor() {
+        return executor;
+      },
+      freshExecutor: buildPool ? freshExecutor : undefined,
       onProgress: (stage, done, all) => {
         if (stage === 'weighting' && done === 1) lap('matrix');
         progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
       },
     });
     lap('svd');
+    await Promise.all(closing);
     check();
 
     let sectionsReadAgain = 0;
