@@ -26,6 +26,9 @@ export function collectGarbage(): boolean {
     }
   }
   if (!collect) return false;
+  // Twice: the first collection finds the array buffers unreachable, the second frees their
+  // memory (measured: one collection left a dropped 100 MB shared memory resident).
+  collect();
   collect();
   return true;
 }
