@@ -14,9 +14,9 @@
  * from scratch on threads with sorted vocabularies (parallel/sortedCount.ts: the counts come back
  * already in the builder's term order); otherwise on threads against the existing vocabulary
  * (parallel/parallelCount.ts). The tokenizing threads are ended before the SVD, which starts its
- * own (their word tables are freed before the build needs the memory); those are ended in turn
- * before the sections fold, which starts its own (WebAssembly memory never shrinks, and the fold
- * needs far less of it than the SVD).
+ * own (their word tables are freed before the build needs the memory); those threads get fresh
+ * executor memory twice, once the SVD's passes are done and before the sections fold
+ * (WebAssembly memory never shrinks, and what follows needs far less of it: collectGarbage.ts).
  * Nothing is swapped or saved before the build has finished, so a cancelled or failed run leaves
  * the previous index as it was.
  */
@@ -31,6 +31,8 @@ import { fileLanguage, withLanguage } from '../core/text/detectLanguage.js';
 import { countFilesInParallel, type CountOutcome } from './parallel/parallelCount.js';
 import { countFilesSorted } from './parallel/sortedCount.js';
 import { WorkerPool, type PoolOptions } from './parallel/workerPool.js';
+import type { MatrixExecutor } from '../core/matrix/executor.js';
+import { collectGarbage } from './collectGarbage.js';
 import { readIndexableText } from './scanRead.js';
 import type { SkippedPath } from './scanTypes.js';
 import { readSharedModel } from './conceptModelFile.js';
@@ -307,12 +309,29 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         return cancelled();
       },
     };
+    // Once the SVD's passes are done, its working blocks go: the same threads get fresh executor
+    // memory for the term vectors, again for the files' projection and for the sections fold
+    // (WebAssembly memory never shrinks, and the old one is freed only when no thread holds it
+    // any more: collected here and in the workers, parallelWorker.ts).
+    const freshExecutor = (): MatrixExecutor | undefined => {
+      executor = undefined;
+      executor = pool?.executor();
+      collectGarbage();
+      return executor;
+    };
     const index = builder.build({
       sharedModel,
       signal: aborted,
-      executor,
+      get executor() {
+        return executor;
+      },
+      freshExecutor: buildPool ? freshExecutor : undefined,
       onProgress: (stage, done, all) => {
-        if (stage === 'weighting' && done === 1) lap('matrix');
+        if (stage === 'weighting' && done === 1) {
+          lap('matrix');
+          // The weighting's per-file rows are garbage now: gone before the SVD's blocks come on top.
+          collectGarbage();
+        }
         progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
       },
     });
@@ -321,11 +340,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
 
     let sectionsReadAgain = 0;
     if (options.sections !== false && executor) {
-      // The sections fold needs far less executor memory than the SVD left resident (WebAssembly
-      // memory only grows): a fresh pool and executor, and the SVD's memory goes with the old one.
-      executor = undefined;
-      await releasePool();
-      executor = getPool(true)?.executor();
+      // The sections fold needs less executor memory than the projection left resident
+      // (WebAssembly memory only grows): fresh executor memory on the same threads.
+      freshExecutor();
     }
     // ---- sections: each file cut into sections, each folded into the new model on the build's
     // threads. Counts the reading threads made are over the builder's vocabulary: usable as they

@@ -12,13 +12,7 @@
  */
 import { CancelledError } from '../errors.js';
 import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
-import {
-  blockedTermProduct,
-  PROJECTION_BLOCK_BYTES,
-  projectTerms,
-  termColumnBlocks,
-  type ConceptModel,
-} from '../index/model/conceptModel.js';
+import { blockedTermProduct, PROJECTION_BLOCK_BYTES, projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { copyCsr, type CsrMatrix } from '../matrix/sparse.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
@@ -137,13 +131,9 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
     const sectionOf = new Int32Array(chunk);
     // U_kᵀd̂ of the chunk's rows, gathered block by block (when U_k is split).
     const acc = width === k ? undefined : new Float64Array(chunk * k);
-    // When U_k is split and more than one chunk needs it, its column blocks are laid out once
-    // (f32, terms × k × 4 bytes in all, freed after the fold) instead of gathered from its rows
-    // for every chunk (that gather took about 0.9 s of the fold's 2.4 s on the Documentation
-    // folder's 51,651 terms at k = 200).
-    let sections = 0;
-    for (const file of files) sections += file.starts.length;
-    const blocks = acc && sections > chunk ? termColumnBlocks(model.termVectors, terms, k, width) : undefined;
+    // When U_k is split, each chunk gathers its column blocks from the rows again (about 0.4 s
+    // CPU on the Documentation folder's 51,651 terms at k = 200, 9 chunks): laying them out once
+    // for all chunks would add a second copy of U_k (41 MB there) at the build's memory peak.
     // The chunk's weighted rows (CSR), reused from chunk to chunk.
     const indptr = new Int32Array(chunk + 1);
     let indices = new Int32Array(1 << 16);
@@ -204,7 +194,7 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
       scoped(() => {
         const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
         const part = ex.float64(rows * width);
-        if (acc) blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc, blocks);
+        if (acc) blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
         else ex.spmm(m, tv, k, part, true);
         const sums = acc ?? part;
         for (let r = 0; r < rows; r++) {

@@ -89,14 +89,67 @@ export function randomizedSvd(
   m: CsrMatrix,
   options: Partial<RandomizedSvdOptions> & { k: number },
 ): SvdResult<Float64Array | Float32Array> {
+  const o = checkedOptions(m, options);
+  const ex = o.executor ?? createWasmExecutor() ?? serialExecutor;
+  const part = ex.scoped ? ex.scoped(() => smallSide(m, o, ex)) : smallSide(m, o, ex);
+  return finishSvd(m, part, { executor: ex, factors: o.factors });
+}
+
+/** Executor memory for the big side's blocks of rows (our choice: small beside its B × k result). */
+export const BIG_SIDE_SCRATCH_BYTES = 4 * 1024 * 1024;
+
+function checkedOptions(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number }): RandomizedSvdOptions {
   const o = { ...DEFAULT_SVD_OPTIONS, ...options };
   const maxRank = Math.min(m.rows, m.cols);
   if (maxRank === 0) throw new InvalidInputError('cannot decompose an empty matrix');
   if (!Number.isInteger(o.k) || o.k < 1) throw new InvalidInputError(`k must be a positive integer, got ${o.k}`);
   if (!Number.isInteger(o.powerIterations) || o.powerIterations < 0)
     throw new InvalidInputError(`powerIterations must be a whole number ≥ 0, got ${o.powerIterations}`);
+  return o;
+}
+
+/**
+ * The first part of randomizedSvd: the passes over the matrix and the Rayleigh–Ritz step, up to
+ * the small-side vectors QW (f64, outside the executor's memory). finishSvd forms the big side
+ * from it; a caller may give finishSvd another executor, so the working blocks of this part (in
+ * executor memory, which never shrinks) can be let go before the big-side vectors are made. The
+ * two parts give the same bits as randomizedSvd.
+ */
+export function randomizedSvdSmallSide(m: CsrMatrix, options: Partial<RandomizedSvdOptions> & { k: number }): SvdSmallSide {
+  const o = checkedOptions(m, options);
   const ex = o.executor ?? createWasmExecutor() ?? serialExecutor;
-  return ex.scoped ? ex.scoped(() => decompose(m, o, ex)) : decompose(m, o, ex);
+  return ex.scoped ? ex.scoped(() => smallSide(m, o, ex)) : smallSide(m, o, ex);
+}
+
+/** What randomizedSvdSmallSide hands to finishSvd. */
+export interface SvdSmallSide {
+  readonly k: number;
+  readonly s: Float64Array;
+  /** QW: S × k, row-major (S the smaller side of the matrix). */
+  readonly small: Float64Array;
+  /** The seeded stream, where the first part left it (the weak-column repair draws from it). */
+  readonly random: RandomSource;
+}
+
+/** The big-side vectors Aᵀ(QW)Σ⁻¹ and the sign fix: the second part of randomizedSvd. */
+export function finishSvd(
+  m: CsrMatrix,
+  part: SvdSmallSide,
+  options: Pick<RandomizedSvdOptions, 'executor' | 'factors'> & { factors: 'f32' },
+): SvdResult<Float32Array>;
+export function finishSvd(
+  m: CsrMatrix,
+  part: SvdSmallSide,
+  options?: Pick<RandomizedSvdOptions, 'executor' | 'factors'>,
+): SvdResult<Float64Array | Float32Array>;
+export function finishSvd(
+  m: CsrMatrix,
+  part: SvdSmallSide,
+  options: Pick<RandomizedSvdOptions, 'executor' | 'factors'> = {},
+): SvdResult<Float64Array | Float32Array> {
+  const ex = options.executor ?? createWasmExecutor() ?? serialExecutor;
+  const run = (): SvdResult<Float64Array | Float32Array> => bigSide(m, part, options.factors ?? 'f64', ex);
+  return ex.scoped ? ex.scoped(run) : run();
 }
 
 /**
@@ -121,7 +174,7 @@ export function bigSideBlockWidth(B: number, l: number, budgetBytes = BIG_BLOCK_
  */
 export const BIG_BLOCK_BYTES = 16 * 1024 * 1024;
 
-function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): SvdResult<Float64Array | Float32Array> {
+function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): SvdSmallSide {
   const maxRank = Math.min(m.rows, m.cols);
   const k = Math.min(o.k, maxRank);
   const l = Math.min(k + (o.oversampling ?? defaultOversampling(k)), maxRank);
@@ -198,24 +251,36 @@ function decompose(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   step();
   step();
   const pairs = topEigenpairs(g, l, k);
-  // QW goes to the front of Z's block when it fits there with room for a block of rows after it
-  // (Z is free from here on): the step then needs no S × k block of its own. Each row of the
-  // big side is one sparse row times QW, whatever the blocks, so the bits do not change.
-  const inZ = w < l && z.length >= S * k + k;
-  const small = w === l ? yAll.subarray(0, S * k) : inZ ? z.subarray(0, S * k) : ex.float64(S * k);
+  const small = w === l ? yAll.subarray(0, S * k) : z.length >= S * k ? z.subarray(0, S * k) : ex.float64(S * k);
   ex.timesSmall(q, S, l, transposeScaled(pairs.w, l, k), k, false, small);
-  // 3. Big-side vectors Aᵀ(QW)Σ⁻¹, block of rows by block of rows, straight into the result type.
-  const out = o.factors === 'f32' ? Float32Array : Float64Array;
+  return { k, s: pairs.s, small: Float64Array.from(small), random };
+}
+
+/**
+ * Big-side vectors Aᵀ(QW)Σ⁻¹, block of rows by block of rows, straight into the result type, then
+ * the weak-column repair and the sign fix. Each row of the big side is one sparse row times QW,
+ * whatever the blocks, so the bits do not depend on the scratch's size.
+ */
+function bigSide(m: CsrMatrix, part: SvdSmallSide, factors: 'f64' | 'f32', ex: MatrixExecutor): SvdResult<Float64Array | Float32Array> {
+  const { k, s, random } = part;
+  const rowsSmall = m.rows <= m.cols;
+  // Aᵀ (big side × small side), stored entries as f32 as in the first part.
+  const at = rowsSmall ? transposeCsr(m, ex, 'f32') : copyCsr(m, ex, 'f32');
+  const S = at.cols;
+  const B = at.rows;
+  const small = ex.float64(S * k);
+  small.set(part.small);
+  const out = factors === 'f32' ? Float32Array : Float64Array;
   const big = new out(B * k);
-  bigSideInBlocks(ex, at, small, k, pairs.s, big, inZ ? z.subarray(S * k) : z);
-  step();
-  repairWeakColumns(big, B, k, pairs.s, random);
-  // 4. Sign fix on the column factor (decided on the values returned, row by row).
-  const smallOut = out.from(small);
+  const scratch = ex.float64(Math.min(B, Math.max(1, Math.floor(BIG_SIDE_SCRATCH_BYTES / (8 * k)))) * k);
+  bigSideInBlocks(ex, at, small, k, s, big, scratch);
+  repairWeakColumns(big, B, k, s, random);
+  // Sign fix on the column factor (decided on the values returned, row by row).
+  const smallOut = out.from(part.small);
   const u = rowsSmall ? smallOut : big;
   const v = rowsSmall ? big : smallOut;
   flipSigns({ rows: m.rows, cols: k, data: u }, { rows: m.cols, cols: k, data: v });
-  return { rows: m.rows, cols: m.cols, k, u, s: pairs.s, v };
+  return { rows: m.rows, cols: m.cols, k, u, s, v };
 }
 
 /**

@@ -3,6 +3,7 @@
  * tokenizes batches of files for the folder indexer, and runs its share of the SVD's matrix
  * products on shared memory (kernelTasks.ts).
  */
+import { collectGarbage } from '../collectGarbage.js';
 import { parentPort } from 'node:worker_threads';
 import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
@@ -30,8 +31,11 @@ let memory: WebAssembly.Memory | undefined;
 
 port.on('message', (msg: ToWorker) => {
   if (msg.type === 'wasm-init') {
+    const replaced = memory !== undefined;
     kernels = instantiateKernels(msg.module, msg.memory);
     memory = msg.memory;
+    // A new executor's memory: the old one is freed once no thread holds it (see collectGarbage).
+    if (replaced) collectGarbage();
     return;
   }
   if (msg.type === 'kernel') {

@@ -127,7 +127,7 @@ describe('section vectors', () => {
       [undefined, 37, undefined],
       [undefined, 37, threeColumns],
       [serialExecutor, undefined, threeColumns],
-      // Many chunks over a split U_k: its column blocks are laid out once for all chunks.
+      // Many chunks over a split U_k: each chunk gathers its column blocks again.
       [serialExecutor, 37, threeColumns],
     ] as const) {
       const folded = foldCountedSections(index.model, counted, { executor, chunkSections, blockBytes });

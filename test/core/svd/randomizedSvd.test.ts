@@ -8,7 +8,13 @@ import { coordinateChunks } from '../../../src/core/matrix/matrixMarket.js';
 import { csrFromDense } from '../../../src/core/matrix/sparse.js';
 import { serialExecutor } from '../../../src/core/matrix/executor.js';
 import { createRandom } from '../../../src/core/random.js';
-import { bigSideBlockWidth, randomizedSvd, type SvdResult } from '../../../src/core/svd/randomizedSvd.js';
+import {
+  bigSideBlockWidth,
+  finishSvd,
+  randomizedSvd,
+  randomizedSvdSmallSide,
+  type SvdResult,
+} from '../../../src/core/svd/randomizedSvd.js';
 import { weightedMatrix } from '../../../src/core/index/model/conceptModel.js';
 import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
@@ -212,6 +218,27 @@ describe('randomizedSvd', () => {
       let dot = 0;
       for (let i = 0; i < matrix.cols; i++) dot += whole.v[i * 20 + c] * blocked.v[i * 20 + c];
       expect(Math.abs(dot)).toBeGreaterThan(1 - 1e-4);
+    }
+  });
+
+  it('gives the same bits in two parts, the big side on another executor (the whole run is checked against ml-matrix and ARPACK above and below)', () => {
+    const vocab = new Vocabulary();
+    const docs = cran.docs.slice(0, 150).map((d) => countTerms(tokenize(d.text), vocab, true));
+    const pruned = pruneVocabulary(docs, vocab.size);
+    const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
+    const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
+    const options = { k: 15, powerIterations: 5 };
+    const whole = randomizedSvd(matrix, { ...options, factors: 'f32' });
+    // The first part on WebAssembly (the default), the second on plain loops, and the reverse.
+    for (const [first, second] of [
+      [undefined, serialExecutor],
+      [serialExecutor, undefined],
+    ] as const) {
+      const part = randomizedSvdSmallSide(matrix, { ...options, executor: first });
+      const split = finishSvd(matrix, part, { executor: second, factors: 'f32' });
+      expect(Array.from(split.s)).toEqual(Array.from(whole.s));
+      expect(Buffer.from(split.u.buffer).equals(Buffer.from(whole.u.buffer))).toBe(true);
+      expect(Buffer.from(split.v.buffer).equals(Buffer.from(whole.v.buffer))).toBe(true);
     }
   });
 

@@ -9,7 +9,7 @@ import { serialExecutor, type MatrixExecutor } from '../../matrix/executor.js';
 import { copyCsr, type CsrMatrix } from '../../matrix/sparse.js';
 import { createWasmExecutor } from '../../matrix/wasm/wasmExecutor.js';
 import { chooseK, type ChosenK } from '../../svd/chooseK.js';
-import { randomizedSvd } from '../../svd/randomizedSvd.js';
+import { finishSvd, randomizedSvdSmallSide, type SvdSmallSide } from '../../svd/randomizedSvd.js';
 import { pruneVocabulary } from '../../weighting/prune.js';
 import { globalWeights, weightDocument, type WeightingScheme } from '../../weighting/termWeighting.js';
 import type { PortableModel } from '../persistence/conceptFile.js';
@@ -55,6 +55,13 @@ export interface BuildProgress {
   signal?: { readonly aborted: boolean };
   /** Runs the SVD's large products (threads from src/node; default: this thread). */
   executor?: MatrixExecutor;
+  /**
+   * Called once the SVD's passes over the matrix are done and again before the files' projection:
+   * the executor for the step that follows (the big-side vectors, then the projection), so a
+   * caller can let the previous one go with the memory it grew to (WebAssembly memory never
+   * shrinks) and what the step before left behind. Default: `executor`.
+   */
+  freshExecutor?: () => MatrixExecutor | undefined;
   /** A shared concept model to fold the files into instead of a local SVD (model/adoptModel.ts). */
   sharedModel?: PortableModel;
 }
@@ -79,7 +86,7 @@ export function buildConceptModelAndVectors(
   progress: BuildProgress = {},
 ): { model: ConceptModel; vectors: Float32Array } {
   const { model, matrix } = buildModelAndMatrix(docs, vocabSize, settings, progress);
-  return { model, vectors: projectMatrixRows(model, matrix, progress.executor) };
+  return { model, vectors: projectMatrixRows(model, matrix, progress.freshExecutor ? progress.freshExecutor() : progress.executor) };
 }
 
 function buildModelAndMatrix(
@@ -102,17 +109,10 @@ function buildModelAndMatrix(
   if (progress.signal?.aborted) throw new CancelledError();
 
   const kChoice = chooseK(settings.k, docs.length, m);
-  const svd = randomizedSvd(matrix, {
-    k: kChoice.k,
-    seed: settings.seed,
-    powerIterations: settings.powerIterations,
-    signal: progress.signal,
-    executor: progress.executor,
-    onProgress: (done, total) => progress.onProgress?.('svd', done, total),
-    // The model stores f32 term vectors: rounding on the way out of the executor's memory saves
-    // the f64 copy at the build's memory peak.
-    factors: 'f32',
-  });
+  const part = svdPasses(matrix, kChoice.k, settings, progress);
+  // The model stores f32 term vectors: rounding on the way out of the executor's memory saves
+  // the f64 copy at the build's memory peak.
+  const svd = finishSvd(matrix, part, { executor: progress.freshExecutor ? progress.freshExecutor() : progress.executor, factors: 'f32' });
   const k = svd.k;
   const termVectors = svd.v;
   const axisScale = Float64Array.from(svd.s, (s) => (s > 0 ? Math.pow(s, settings.conceptScaling - 1) : 0));
@@ -142,6 +142,21 @@ function buildModelAndMatrix(
     nonZeros: nnz,
   };
   return { model, matrix };
+}
+
+/**
+ * The SVD's passes over the matrix, in a function of their own: nothing of this frame (the
+ * options naming the first executor) outlives them, so freshExecutor can let that executor go.
+ */
+function svdPasses(matrix: CsrMatrix, k: number, settings: IndexSettings, progress: BuildProgress): SvdSmallSide {
+  return randomizedSvdSmallSide(matrix, {
+    k,
+    seed: settings.seed,
+    powerIterations: settings.powerIterations,
+    signal: progress.signal,
+    executor: progress.executor,
+    onProgress: (done, total) => progress.onProgress?.('svd', done, total),
+  });
 }
 
 /**
@@ -190,9 +205,7 @@ export function projectMatrixRows(
 /**
  * acc (m.rows × k) = m · termVectors (terms × k), the term vectors handed to the executor in
  * column blocks of `width` through tv (terms × width) and part (m.rows × width): each output
- * column is the same sum whatever the block, so the bits do not depend on the width. With
- * `blocks` (termColumnBlocks of the same term vectors and width), each block is one contiguous
- * conversion instead of a strided gather (for callers that run many products over them).
+ * column is the same sum whatever the block, so the bits do not depend on the width.
  */
 export function blockedTermProduct(
   ex: MatrixExecutor,
@@ -203,15 +216,13 @@ export function blockedTermProduct(
   tv: Float64Array,
   part: Float64Array,
   acc: Float64Array,
-  blocks?: readonly Float32Array[],
 ): void {
   const terms = m.cols;
   const n = m.rows;
   for (let c0 = 0; c0 < k; c0 += width) {
     const w = Math.min(width, k - c0);
     const tvw = tv.subarray(0, terms * w);
-    if (blocks) tvw.set(blocks[c0 / width]);
-    else for (let t = 0; t < terms; t++) for (let j = 0; j < w; j++) tvw[t * w + j] = termVectors[t * k + c0 + j];
+    for (let t = 0, d = 0, src = c0; t < terms; t++, src += k) for (let j = 0; j < w; j++) tvw[d++] = termVectors[src + j];
     const pw = part.subarray(0, n * w);
     ex.spmm(m, tvw, w, pw, true);
     for (let i = 0; i < n; i++) for (let j = 0; j < w; j++) acc[i * k + c0 + j] = pw[i * w + j];
@@ -219,22 +230,10 @@ export function blockedTermProduct(
 }
 
 /**
- * The column blocks of blockedTermProduct's `width` as terms × w row-major f32 arrays (the same
- * numbers: f32 to f64 is exact), so each product takes a block with one contiguous copy.
+ * Bytes of f64 term vectors handed to the executor at once (our choice: 10 column blocks at k = 200
+ * on 50k terms; 8 MB rather than 16 left the build's peak 8 MB lower at the same bits).
  */
-export function termColumnBlocks(termVectors: Float32Array, terms: number, k: number, width: number): Float32Array[] {
-  const out: Float32Array[] = [];
-  for (let c0 = 0; c0 < k; c0 += width) {
-    const w = Math.min(width, k - c0);
-    const b = new Float32Array(terms * w);
-    for (let t = 0, d = 0; t < terms; t++) for (let j = 0, s = t * k + c0; j < w; j++) b[d++] = termVectors[s + j];
-    out.push(b);
-  }
-  return out;
-}
-
-/** Bytes of f64 term vectors handed to the executor at once (our choice: a few column blocks at k = 200 on 50k terms). */
-export const PROJECTION_BLOCK_BYTES = 16 * 1024 * 1024;
+export const PROJECTION_BLOCK_BYTES = 8 * 1024 * 1024;
 
 /**
  * The weighted, document-normalised matrix in document-major CSR form (row i = document i,
