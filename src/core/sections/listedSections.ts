@@ -17,6 +17,10 @@
  * each row's scale, error and norm). The bounds are the same numbers as from codes held in memory
  * (a row's bound depends on that row and the query alone), so the same sections are multiplied.
  * On the Linux tree this keeps 1.33 M × (289 + 24) bytes (0.42 GB) out of the editor's worker.
+ * Saved listing (savedLists.ts): a reopened index gives each section's list and the coded rows in
+ * this slot order as the index file holds them; nothing is filed or coded, and the codes are read
+ * from the file as from a spill (or copied into memory when small). Sections added later take
+ * slots after the saved ones, their codes kept in memory (SavedTail).
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';

@@ -19,6 +19,11 @@
  * one read), the same numbers, so the same rankings. Given a spill (spillListsTo; the node side
  * gives a scratch file beside a loaded index), the lists' 8-bit codes stay out of memory too
  * (listedSections.ts).
+ * The index file keeps the lists (format 5, savedLists.ts: written by savedLists, trained then if
+ * they were not), and restoreLists takes them back: a reopened index ranks through the saved
+ * centroids and filing at once, reading the saved codes where they lie in the file from
+ * SPILL_FROM_BYTES on (no scratch copy) or from memory below it. Only lists filed again (after the
+ * count doubled or halved, or from a format-4 file) are trained, filed and spilled as above.
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
