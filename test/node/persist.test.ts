@@ -212,6 +212,10 @@ describe('persist: the saved section lists (format 5)', () => {
       expect(queries.length).toBeGreaterThan(20);
       for (const q of queries) expect(back.sections.rank(q, 10, undefined, 2)).toEqual(index.sections.rank(q, 10, undefined, 2));
       expect(train).not.toHaveBeenCalled();
+      // Saved again from the file (codes copied from it, not coded again): the same payload.
+      const again = join(dir, 'lists-again.undertone');
+      await saveIndex(again, back);
+      expect(Buffer.from(payloadOf(readFileSync(again))).equals(Buffer.from(payloadOf(readFileSync(file))))).toBe(true);
       back.sections.closeRows();
     } finally {
       train.mockRestore();

@@ -213,6 +213,34 @@ export class ListedSections {
     return out;
   }
 
+  /** The slot of each of a file's sections (null when the file is not listed). */
+  slotsOf(path: string): Int32Array | null {
+    const no = this._fileNo.get(path);
+    if (no === undefined) return null;
+    return this._fileSlots.slice(this._fileFirst[no], this._fileFirst[no + 1]);
+  }
+
+  /**
+   * Copies the coded rows of slots from … from + count − 1: their codes to codes[at·k …] and their
+   * scale, error and norm to params[3·paramsAt …]. False when this listing keeps no codes.
+   */
+  readCoded(from: number, count: number, codes: Int8Array, at: number, params: Float64Array, paramsAt: number): boolean {
+    const k = this.lists.k;
+    if (this._spilled) {
+      this._spilled.codes.read(bytesOf(codes.subarray(at * k, (at + count) * k)), from * k);
+      this._spilled.params.read(bytesOf(params.subarray(paramsAt * PARAMS, (paramsAt + count) * PARAMS)), from * PARAMS * 8);
+      return true;
+    }
+    if (!this._codes) return false;
+    const rows = this._codes.rowsAt(from, count);
+    codes.set(rows.codes, at * k);
+    for (let i = 0; i < count; i++) {
+      const o = (paramsAt + i) * PARAMS;
+      [params[o], params[o + 1], params[o + 2]] = [rows.scales[i], rows.errors[i], rows.norms[i]];
+    }
+    return true;
+  }
+
   /** Each slot's list (made by listsOf; undefined after a change). */
   private _slotList: Int32Array | undefined;
 

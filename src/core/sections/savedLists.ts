@@ -5,9 +5,10 @@
  * order — list by list, within a list in file order, the order ListedSections gives its slots —
  * with each row's scale, error and norm (f64; ../index/search/conceptCodes.ts). A reader keeps the
  * codes where they lie and reads a probed list as one run, as it would from a spill
- * (./listedSections.ts). The codes are coded again from the rows when saving (a row's code depends
- * on that row alone, so they equal the ones a listing holds in memory); each section's list comes
- * from the current listing where there is one, else it is filed (lists.file).
+ * (./listedSections.ts). Where the store has a listing (a reopened index, or one ranked since its
+ * lists were trained), each section's list and coded row are taken from it (runs of slots read at
+ * once); otherwise the section is filed (lists.file) and its row coded (a row's code depends on
+ * that row alone, so both ways give the same bytes).
  */
 import { codeRows } from '../index/search/conceptCodes.js';
 import type { SectionLists } from './sectionLists.js';
@@ -32,6 +33,15 @@ export interface SavedListing {
   readonly inFile: boolean;
 }
 
+/** What a listing knows of a file's sections: their lists and their slots (ListedSections). */
+export interface KnownSections {
+  readonly lists: Int32Array;
+  readonly slots: Int32Array;
+}
+
+/** Copies coded rows of a listing's slots (ListedSections.readCoded); false when it has none. */
+export type ReadCoded = (from: number, count: number, codes: Int8Array, at: number, params: Float64Array, paramsAt: number) => boolean;
+
 /** The saved lists of an index being written. */
 export interface SavedListsPlan {
   readonly centroids: Float32Array;
@@ -49,24 +59,29 @@ export interface SavedListsPlan {
 
 /**
  * Lays out the saved lists of `files` (the index file's order, files without sections left out).
- * @param known a file's sections' lists where a listing has them (null: filed here).
+ * @param known a file's sections' lists and slots where a listing has them (null: filed here).
+ * @param readCoded copies coded rows of those slots (undefined: every row is coded here).
  */
 export function planSavedLists(
   lists: SectionLists,
   files: readonly FileSections[],
-  known: (no: number) => Int32Array | null,
+  known: (no: number) => KnownSections | null,
+  readCoded?: ReadCoded,
 ): SavedListsPlan {
   const k = lists.k;
   const firsts = new Int32Array(files.length + 1);
   files.forEach((f, no) => (firsts[no + 1] = firsts[no] + sectionCount(f)));
   const n = firsts[files.length];
   const listOf = new Int32Array(n);
+  // Each section's slot in the listing, or −1 (then coded here).
+  const source = new Int32Array(readCoded ? n : 0).fill(-1);
   let scratch = new Float32Array(0);
   files.forEach((f, no) => {
     const m = firsts[no + 1] - firsts[no];
     const have = known(no);
-    if (have && have.length === m) {
-      listOf.set(have, firsts[no]);
+    if (have && have.lists.length === m && have.slots.length === m) {
+      listOf.set(have.lists, firsts[no]);
+      if (readCoded) source.set(have.slots, firsts[no]);
       return;
     }
     let v: Float32Array;
@@ -90,11 +105,25 @@ export function planSavedLists(
     const block = new Float32Array(SAVE_ROWS * k);
     const codes = new Int8Array(SAVE_ROWS * k);
     const [scales, errors, norms] = [new Float64Array(SAVE_ROWS), new Float64Array(SAVE_ROWS), new Float64Array(SAVE_ROWS)];
+    const fresh = new Uint8Array(SAVE_ROWS);
     let no = 0;
+    let copying = readCoded !== undefined;
     for (let s = 0; s < n; s += SAVE_ROWS) {
       const m = Math.min(SAVE_ROWS, n - s);
+      fresh.fill(1);
       for (let r = 0; r < m;) {
         const g = order[s + r];
+        if (copying && source[g] >= 0) {
+          // A run of slots that follow each other in the listing too: one copy.
+          let run = 1;
+          while (r + run < m && source[order[s + r + run]] === source[g] + run) run++;
+          if (readCoded!(source[g], run, codes, r, out, s + r)) {
+            fresh.fill(0, r, r + run);
+            r += run;
+            continue;
+          }
+          copying = false; // the listing keeps no codes: code every row here
+        }
         if (g < firsts[no] || g >= firsts[no + 1]) no = fileOf(firsts, g);
         const f = files[no];
         const i = g - firsts[no];
@@ -109,10 +138,19 @@ export function planSavedLists(
           r++;
         }
       }
-      codeRows(block, k, 0, m, codes, scales, errors, norms);
-      for (let r = 0; r < m; r++) {
-        const at = (s + r) * CODE_PARAMS;
-        [out[at], out[at + 1], out[at + 2]] = [scales[r], errors[r], norms[r]];
+      for (let r = 0; r < m;) {
+        if (!fresh[r]) {
+          r++;
+          continue;
+        }
+        let to = r + 1;
+        while (to < m && fresh[to]) to++;
+        codeRows(block, k, r, to, codes, scales, errors, norms);
+        for (let x = r; x < to; x++) {
+          const at = (s + x) * CODE_PARAMS;
+          [out[at], out[at + 1], out[at + 2]] = [scales[x], errors[x], norms[x]];
+        }
+        r = to;
       }
       yield new Uint8Array(codes.buffer, 0, m * k);
     }

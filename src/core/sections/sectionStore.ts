@@ -176,7 +176,12 @@ export class SectionStore {
       return f !== undefined && sectionCount(f) > 0;
     });
     const files = named.map((p) => this._files.get(p)!);
-    return planSavedLists(lists, files, (no) => listed?.listsOf(named[no]) ?? null);
+    const known = (no: number): { lists: Int32Array; slots: Int32Array } | null => {
+      const [lists, slots] = [listed?.listsOf(named[no]), listed?.slotsOf(named[no])];
+      return lists && slots ? { lists, slots } : null;
+    };
+    const readCoded = listed ? listed.readCoded.bind(listed) : undefined;
+    return planSavedLists(lists, files, known, readCoded);
   }
 
   /** Other options for the lists (trained again at the next ranking that uses them). */
