@@ -10,8 +10,9 @@
  * (streamed through the checksum and the unit-length check in blocks, nothing kept), then the rows
  * are read where they lie when a ranking needs them (sectionRowFile.ts), from a descriptor the
  * index keeps open. LoadOptions.sectionRows 'memory' reads them into memory as before. With rows
- * in the file, the section lists' 8-bit codes are kept in a scratch file beside it when a ranking
- * first files them (sectionCodeFile.ts).
+ * in the file, the section lists' saved 8-bit codes (format 5) are read where they lie too, from the
+ * same descriptor; only lists filed again (after many edits, or from a format-4 file) put their
+ * codes in a scratch file beside it (sectionCodeFile.ts).
  */
 import { randomBytes } from 'node:crypto';
 import { constants, writeSync } from 'node:fs';
@@ -20,7 +21,8 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { CancelledError, CorruptIndexError, UndertoneError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { Checksum32 } from '../core/index/persistence/checksum.js';
-import { checkSectionRows } from '../core/index/persistence/indexFileCheck.js';
+import { checkCodeParams, checkSectionRows } from '../core/index/persistence/indexFileCheck.js';
+import type { ByteSpill } from '../core/sections/types.js';
 import {
   decodeIndex,
   decodeIndexWithRows,
@@ -28,6 +30,7 @@ import {
   INDEX_PREAMBLE_BYTES,
   planIndexFile,
   readIndexHeader,
+  sectionCodesOf,
   sectionRowsOf,
 } from '../core/index/persistence/serialize.js';
 import { openSpillBeside } from './sectionCodeFile.js';
@@ -347,7 +350,7 @@ async function readCheckedHead(
   path: string,
   chunk: number,
   signal: AbortSignal | undefined,
-): Promise<{ head: Uint8Array; rows: FileSectionRows; size: number }> {
+): Promise<{ head: Uint8Array; rows: FileSectionRows; codes?: { codes: ByteSpill; params: ByteSpill }; size: number }> {
   const handle = await open(path, OPEN_FLAGS);
   let kept = false;
   try {
@@ -377,16 +380,39 @@ async function readCheckedHead(
         }
       }
     }
-    // The padding after the last row (to 8 bytes) is payload too.
+    // The rest (the padding after the last row, the section lists' codes and their params) is
+    // payload too: streamed through the checksum the same way, the params checked as they pass.
+    const codes = sectionCodesOf(header, start);
+    const stream = async (from: number, to: number, check?: (block: Float64Array) => void): Promise<void> => {
+      const step = bytes.length - (bytes.length % 8); // whole f64 numbers a block
+      for (let p = from; p < to; p += step) {
+        if (signal?.aborted) throw new CancelledError();
+        const len = Math.min(step, to - p);
+        if ((await readAt(handle, bytes, p, len, chunk)) < len) throw new CorruptIndexError('index file is shorter than its header says');
+        sum.update(bytes.subarray(0, len));
+        if (check && badRow === undefined) {
+          try {
+            check(new Float64Array(block.buffer, 0, len / 8));
+          } catch (err) {
+            badRow = err;
+          }
+        }
+      }
+    };
     const tailAt = at + rows * rowBytes;
-    const tail = bytes.subarray(0, size - tailAt);
-    if ((await readAt(handle, tail, tailAt, tail.length, chunk)) < tail.length)
-      throw new CorruptIndexError('index file is shorter than its header says');
-    sum.update(tail);
+    if (codes) {
+      await stream(tailAt, codes.paramsAt);
+      await stream(codes.paramsAt, codes.paramsAt + codes.paramsBytes, checkCodeParams);
+      await stream(codes.paramsAt + codes.paramsBytes, size);
+    } else await stream(tailAt, size);
     if (sum.digest() !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
     if (badRow !== undefined) throw badRow;
     kept = true;
-    return { head, rows: new FileSectionRows(handle, path, at, rows, k), size };
+    const reader = new FileSectionRows(handle, path, at, rows, k);
+    const saved = codes
+      ? { codes: reader.region(codes.codesAt, codes.codesBytes), params: reader.region(codes.paramsAt, codes.paramsBytes) }
+      : undefined;
+    return { head, rows: reader, codes: saved, size };
   } finally {
     if (!kept) await handle.close();
   }
@@ -402,7 +428,7 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
   const chunk = Math.max(1, Math.floor(options.readChunkBytes ?? DEFAULT_LOAD_OPTIONS.readChunkBytes));
   const inFile = (options.sectionRows ?? DEFAULT_LOAD_OPTIONS.sectionRows) === 'file';
   await removeStaleTemporaries(path);
-  let read: { head: Uint8Array; rows?: FileSectionRows; size?: number };
+  let read: { head: Uint8Array; rows?: FileSectionRows; codes?: { codes: ByteSpill; params: ByteSpill }; size?: number };
   try {
     read = inFile ? await readCheckedHead(path, chunk, options.signal) : { head: await readChecked(path, chunk) };
   } catch (err) {
@@ -412,9 +438,9 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     if (code === 'ENOENT') return { status: 'missing' };
     return { status: 'damaged', reason: `cannot read ${path}: ${describeFsError(err)}` };
   }
-  const { head, rows, size } = read;
+  const { head, rows, codes, size } = read;
   try {
-    const index = rows ? decodeIndexWithRows(head, rows) : decodeIndex(head);
+    const index = rows ? decodeIndexWithRows(head, rows, codes) : decodeIndex(head);
     // Rows left in the file: the section lists' codes go to a scratch file beside it too.
     if (rows) index.sections.spillListsTo(openSpillBeside(dirname(resolve(path))));
     return { status: 'ok', index, bytes: size ?? head.length };

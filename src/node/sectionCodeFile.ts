@@ -1,7 +1,9 @@
 /**
  * Scratch files for bytes a ranker keeps out of memory (the node side of ByteSpill in
- * src/core/sections/types.ts: the section lists' 8-bit codes of a large reopened index, written
- * once when the lists are filed and read back in runs per request). Each is created beside the
+ * src/core/sections/types.ts: the section lists' 8-bit codes of a large reopened index whose lists
+ * are filed anew — a format-4 file, or after many edits; a format-5 file's saved codes are read
+ * from the index file itself — written once when the lists are filed and read back in runs per
+ * request). Each is created beside the
  * index file (on the same disk, not in a temporary folder that may live in memory), opened, and
  * its name removed at once, so nothing is left behind even if the process dies; the space goes
  * when the descriptor is closed (by the owner, or once the spill is garbage collected). Where the

@@ -9,6 +9,7 @@
 import { readSync } from 'node:fs';
 import type { FileHandle } from 'node:fs/promises';
 import { checkRowRange, SectionRowsClosedError, SectionRowsError, type SectionRowReader } from '../core/sections/sectionRows.js';
+import type { ByteSpill } from '../core/sections/types.js';
 import { describeFsError } from './scanRead.js';
 
 /**
@@ -61,6 +62,33 @@ export class FileSectionRows implements SectionRowReader {
       if (got === 0) throw new SectionRowsError(`the section vectors of ${this.path} end early (the file was cut short)`);
       done += got;
     }
+  }
+
+  /**
+   * Other bytes of the same file (`bytes` from byte `offset`: the section lists' saved codes) as a
+   * read-only spill; reads fail once this reader is closed. Its close() leaves the descriptor open.
+   */
+  region(offset: number, bytes: number): ByteSpill {
+    return {
+      write: () => {
+        throw new SectionRowsError(`the saved section codes of ${this.path} are read-only`);
+      },
+      read: (into, position) => {
+        if (this._closed) throw new SectionRowsClosedError();
+        if (position < 0 || position + into.length > bytes) throw new SectionRowsError(`the saved section codes of ${this.path} end early`);
+        for (let done = 0; done < into.length;) {
+          let got: number;
+          try {
+            got = readSync(this.handle.fd, into, done, into.length - done, offset + position + done);
+          } catch (err) {
+            throw new SectionRowsError(`cannot read the section codes of ${this.path}: ${describeFsError(err)}`);
+          }
+          if (got === 0) throw new SectionRowsError(`the section codes of ${this.path} end early (the file was cut short)`);
+          done += got;
+        }
+      },
+      close: () => undefined,
+    };
   }
 
   close(): void {

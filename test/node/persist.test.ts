@@ -2,12 +2,15 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { gunzipSync } from 'node:zlib';
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
-import { encodeIndex } from '../../src/core/index/persistence/serialize.js';
+import { encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../src/core/index/persistence/serialize.js';
+import { SectionLists } from '../../src/core/sections/sectionLists.js';
+import { foldContextOf, foldSections } from '../../src/core/sections/sectionVectors.js';
 import { loadIndex, readSavedSettings, removeStaleTemporaries, SaveError, saveIndex, trySaveIndex } from '../../src/node/persist.js';
-import { loadCollection } from '../helpers/shared.js';
+import { fixturePath, loadCollection } from '../helpers/shared.js';
 
 // Real text: the ADI collection (test/fixtures/corpora/adi); the reference is the index that was saved.
 const adi = loadCollection('adi');
@@ -167,5 +170,78 @@ describe('persist', () => {
     expect((await loadIndex(file)).status).toBe('ok');
     expect(existsSync(join(sub, dead))).toBe(false);
     expect(await readSavedSettings(file)).toMatchObject({ weighting: 'log-entropy', k: 'auto' });
+  });
+});
+
+// Real text with sections: numba-doc 0.56.4 (Debian, BSD-2-Clause; test/fixtures/numba-doc-sections),
+// lists from one section on so this small collection has them; the reference is the index saved.
+describe('persist: the saved section lists (format 5)', () => {
+  const numba = gunzipSync(readFileSync(fixturePath('numba-doc-sections/docs.jsonl.gz')))
+    .toString('utf8')
+    .split('\n')
+    .filter((l) => l.trim())
+    .map((l) => JSON.parse(l) as { id: string; text: string });
+  const build = (): LsiIndex => {
+    const b = new IndexBuilder({});
+    for (const d of numba) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    const index = b.build();
+    const ctx = foldContextOf(index);
+    for (const d of numba) index.sections.set(d.id, foldSections(ctx, d.id, d.text));
+    index.sections.setListsFrom(1);
+    return index;
+  };
+  const index = build();
+  const k = index.model.k;
+  const queries: Float32Array[] = [];
+  let n = 0;
+  for (const [, f] of index.sections.entries())
+    for (let i = 0; i < f.starts.length; i++)
+      if (n++ % 20 === 0 && f.vectors.subarray(i * k, (i + 1) * k).some((x) => x !== 0)) queries.push(f.vectors.slice(i * k, (i + 1) * k));
+
+  it('reads the saved codes where they lie in the file: no training, no scratch file, the same rankings', async () => {
+    const file = join(dir, 'lists.undertone');
+    await saveIndex(file, index);
+    const train = vi.spyOn(SectionLists, 'train');
+    try {
+      const back = await reopen(file);
+      back.sections.setListsFrom(1);
+      // Codes of any size stay in the file; filing them anew would open a scratch spill, which throws here.
+      back.sections.spillListsTo(() => {
+        throw new Error('a scratch spill was opened');
+      }, 0);
+      expect(queries.length).toBeGreaterThan(20);
+      for (const q of queries) expect(back.sections.rank(q, 10, undefined, 2)).toEqual(index.sections.rank(q, 10, undefined, 2));
+      expect(train).not.toHaveBeenCalled();
+      // Saved again from the file (codes copied from it, not coded again): the same payload.
+      const again = join(dir, 'lists-again.undertone');
+      await saveIndex(again, back);
+      expect(Buffer.from(payloadOf(readFileSync(again))).equals(Buffer.from(payloadOf(readFileSync(file))))).toBe(true);
+      back.sections.closeRows();
+    } finally {
+      train.mockRestore();
+    }
+  });
+
+  it('finds damage in the codes and their params (checksum), and refuses a negative scale even with a good checksum', async () => {
+    const bytes = encodeIndex(index);
+    const header = readIndexHeader(bytes);
+    const start = bytes.length - header.payloadBytes;
+    const codes = header.sections.find((s) => s.name === 'sectionCodes')!;
+    const params = header.sections.find((s) => s.name === 'sectionCodeParams')!;
+    const file = join(dir, 'damaged-lists.undertone');
+    for (const at of [start + codes.offset + 7, start + params.offset + 8 * params.length - 3]) {
+      const copy = bytes.slice();
+      copy[at] ^= 0x10;
+      writeFileSync(file, copy);
+      const got = await loadIndex(file);
+      expect(got.status).toBe('damaged');
+      if (got.status === 'damaged') expect(got.reason).toMatch(/checksum/);
+    }
+    const payload = payloadOf(bytes).slice();
+    new DataView(payload.buffer).setFloat64(params.offset + 8, -0.5, true);
+    writeFileSync(file, sealIndexFile(header, payload));
+    const got = await loadIndex(file);
+    expect(got.status).toBe('damaged');
+    if (got.status === 'damaged') expect(got.reason).toMatch(/sectionCodeParams hold a value out of range/);
   });
 });

@@ -17,8 +17,14 @@
  * each row's scale, error and norm). The bounds are the same numbers as from codes held in memory
  * (a row's bound depends on that row and the query alone), so the same sections are multiplied.
  * On the Linux tree this keeps 1.33 M × (289 + 24) bytes (0.42 GB) out of the editor's worker.
+ * Saved listing (savedLists.ts): a reopened index gives each section's list and the coded rows in
+ * this slot order as the index file holds them; nothing is filed or coded, and the codes are read
+ * from the file as from a spill (or copied into memory when small). Sections added later take
+ * slots after the saved ones, their codes kept in memory (SavedTail).
  */
+import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
+import { CODE_PARAMS, SavedTail, type SavedListing } from './savedLists.js';
 import type { SectionLists } from './sectionLists.js';
 import { StoredFileSections } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
@@ -40,7 +46,7 @@ const SPILL_BATCH = 32;
 /** Spilled runs at most this many rows apart are read in one call (about 5 KiB of codes; common practice, not tuned). */
 const SPILL_GAP = 16;
 /** Numbers a row has beside its codes in the spill: scale, error and norm (f64 each). */
-const PARAMS = 3;
+const PARAMS = CODE_PARAMS;
 
 /** Codes kept in spills, and the scratch a query loads the rows it bounds into. */
 interface Spilled {
@@ -90,6 +96,8 @@ export class ListedSections {
     readonly lists: SectionLists,
     entries: Iterable<readonly [string, FileSections]>,
     openSpill?: OpenSpill,
+    saved?: SavedListing,
+    inPlace = false,
   ) {
     const k = lists.k;
     this._starts = new Int32Array(lists.lists + 1);
@@ -105,17 +113,25 @@ export class ListedSections {
     const files = this._files.length;
     this._fileFirst = new Int32Array(files + 65);
     for (let f = 0; f < files; f++) this._fileFirst[f + 1] = this._fileFirst[f] + counts[f];
-    // Each section's list, in file order (one flat array: no array a file).
-    const listOf = new Int32Array(total);
-    this._files.forEach((f, no) => {
-      const first = this._fileFirst[no];
-      const v = this.rowsOf(f!, counts[no]);
-      for (let i = 0; i < counts[no]; i++) {
-        const l = lists.file(v, i * k);
-        listOf[first + i] = l;
+    // Each section's list, in file order (one flat array: no array a file): saved, or filed here.
+    const listOf = saved ? saved.listOf : new Int32Array(total);
+    if (saved) {
+      if (listOf.length !== total) throw new InvalidInputError(`the saved section lists hold ${listOf.length} sections, not ${total}`);
+      for (let g = 0; g < total; g++) {
+        const l = listOf[g];
+        if (!(l >= 0 && l < lists.lists)) throw new InvalidInputError('a saved section list number is out of range');
         this._starts[l + 1]++;
       }
-    });
+    } else
+      this._files.forEach((f, no) => {
+        const first = this._fileFirst[no];
+        const v = this.rowsOf(f!, counts[no]);
+        for (let i = 0; i < counts[no]; i++) {
+          const l = lists.file(v, i * k);
+          listOf[first + i] = l;
+          this._starts[l + 1]++;
+        }
+      });
     for (let j = 0; j < lists.lists; j++) this._starts[j + 1] += this._starts[j];
     const n = this._starts[lists.lists];
     this._slotFile = new Int32Array(n + 64);
@@ -131,6 +147,13 @@ export class ListedSections {
       }
     this._used = n;
     this._extra = Array.from({ length: lists.lists }, () => []);
+    if (saved) {
+      // Saved codes: kept where they lie (what is added later goes after them, in memory), or read in.
+      this._spilled = inPlace ? spillsOver(k, saved, n) : null;
+      this._codes = this._spilled ? null : ConceptCodes.empty(k, n + 64);
+      if (this._codes) this.readSaved(saved, n);
+      return;
+    }
     this._spilled = openSpill ? spillsFor(k, openSpill) : null;
     this._codes = this._spilled ? null : ConceptCodes.empty(k, n + 64);
     if (this._spilled) this.spillAll(listOf);
@@ -155,6 +178,71 @@ export class ListedSections {
       }
     }
   }
+
+  /** Reads n saved coded rows into the codes held in memory (params a block at a time). */
+  private readSaved(saved: SavedListing, n: number): void {
+    const rows = this._codes!.rowsAt(0, n);
+    saved.codes.read(bytesOf(rows.codes), 0);
+    const block = new Float64Array(Math.min(n, CODE_ROWS) * PARAMS);
+    for (let s = 0; s < n; s += CODE_ROWS) {
+      const m = Math.min(CODE_ROWS, n - s);
+      saved.params.read(bytesOf(block.subarray(0, m * PARAMS)), s * PARAMS * 8);
+      for (let i = 0; i < m; i++)
+        [rows.scales[s + i], rows.errors[s + i], rows.norms[s + i]] = [block[i * PARAMS], block[i * PARAMS + 1], block[i * PARAMS + 2]];
+    }
+  }
+
+  /**
+   * Each of a file's sections' list (null when the file is not listed): for a writer of the
+   * saved lists (savedLists.ts), so that a save files nothing again.
+   */
+  listsOf(path: string): Int32Array | null {
+    const no = this._fileNo.get(path);
+    if (no === undefined) return null;
+    if (!this._slotList || this._slotList.length < this._used) {
+      const slotList = new Int32Array(this._used);
+      for (let l = 0; l < this.lists.lists; l++) {
+        slotList.fill(l, this._starts[l], this._starts[l + 1]);
+        for (const x of this._extra[l]) slotList[x] = l;
+      }
+      this._slotList = slotList;
+    }
+    const [from, to] = [this._fileFirst[no], this._fileFirst[no + 1]];
+    const out = new Int32Array(to - from);
+    for (let g = from; g < to; g++) out[g - from] = this._slotList[this._fileSlots[g]];
+    return out;
+  }
+
+  /** The slot of each of a file's sections (null when the file is not listed). */
+  slotsOf(path: string): Int32Array | null {
+    const no = this._fileNo.get(path);
+    if (no === undefined) return null;
+    return this._fileSlots.slice(this._fileFirst[no], this._fileFirst[no + 1]);
+  }
+
+  /**
+   * Copies the coded rows of slots from … from + count − 1: their codes to codes[at·k …] and their
+   * scale, error and norm to params[3·paramsAt …]. False when this listing keeps no codes.
+   */
+  readCoded(from: number, count: number, codes: Int8Array, at: number, params: Float64Array, paramsAt: number): boolean {
+    const k = this.lists.k;
+    if (this._spilled) {
+      this._spilled.codes.read(bytesOf(codes.subarray(at * k, (at + count) * k)), from * k);
+      this._spilled.params.read(bytesOf(params.subarray(paramsAt * PARAMS, (paramsAt + count) * PARAMS)), from * PARAMS * 8);
+      return true;
+    }
+    if (!this._codes) return false;
+    const rows = this._codes.rowsAt(from, count);
+    codes.set(rows.codes, at * k);
+    for (let i = 0; i < count; i++) {
+      const o = (paramsAt + i) * PARAMS;
+      [params[o], params[o + 1], params[o + 2]] = [rows.scales[i], rows.errors[i], rows.norms[i]];
+    }
+    return true;
+  }
+
+  /** Each slot's list (made by listsOf; undefined after a change). */
+  private _slotList: Int32Array | undefined;
 
   /** A file's rows: its vectors, or its stored rows read into a scratch block (valid until the next call). */
   private rowsOf(f: FileSections, n: number): Float32Array {
@@ -314,6 +402,7 @@ export class ListedSections {
   /** Files a file's sections under the trained lists (replacing what it had). */
   add(path: string, f: FileSections): void {
     this.remove(path);
+    this._slotList = undefined;
     const k = this.lists.k;
     const n = countOf(f);
     const no = this._files.length;
@@ -480,6 +569,16 @@ function countOf(f: FileSections): number {
 /** The bytes of a typed array (a view of the same memory). */
 function bytesOf(a: Int8Array | Float64Array): Uint8Array {
   return new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
+}
+
+/** Spills over saved codes (n rows, read-only) and the coders, or null without WebAssembly SIMD. */
+function spillsOver(k: number, saved: SavedListing, n: number): Spilled | null {
+  const coder = ConceptCodes.empty(k, 64);
+  const scratch = coder && ConceptCodes.empty(k, 4096);
+  if (!coder || !scratch) return null;
+  const codes = new SavedTail(saved.codes, n * k);
+  const params = new SavedTail(saved.params, n * PARAMS * 8);
+  return { codes, params, coder, scratch, staging: new Float64Array(0) };
 }
 
 /** Two spills and the coders, or null when WebAssembly SIMD or a spill is not to be had. */

@@ -87,17 +87,39 @@ export class SectionLists {
     /** lists × k unit centroids, row-major, group by group. */
     readonly centroids: Float32Array,
     /** g × k unit group centres. */
-    private readonly _groups: Float32Array,
+    readonly groups: Float32Array,
     /** First centroid of each group (length g + 1). */
-    private readonly _groupStarts: Int32Array,
+    readonly groupStarts: Int32Array,
     readonly probe: number,
     private readonly _fileGroups: number,
   ) {
-    this._kernel = kernelFor(k, _groups, centroids);
+    this._kernel = kernelFor(k, groups, centroids);
   }
 
   get lists(): number {
     return this.centroids.length / this.k;
+  }
+
+  /**
+   * Lists trained before (a saved index: centroids, groups and groupStarts as trained), probing
+   * and filing with the given options (the training options are not used).
+   * @throws InvalidInputError when the parts disagree in size or order.
+   */
+  static restore(
+    k: number,
+    centroids: Float32Array,
+    groups: Float32Array,
+    groupStarts: Int32Array,
+    options: Partial<SectionListsOptions> = {},
+  ): SectionLists {
+    const o = { ...DEFAULT_SECTION_LISTS_OPTIONS, ...options };
+    const g = groupStarts.length - 1;
+    const lists = centroids.length / k;
+    const sized = k > 0 && Number.isInteger(lists) && lists >= 1 && g >= 1 && groups.length === g * k;
+    let ordered = sized && groupStarts[0] === 0 && groupStarts[g] === lists;
+    for (let c = 0; ordered && c < g; c++) ordered = groupStarts[c + 1] >= groupStarts[c];
+    if (!ordered) throw new InvalidInputError('saved section lists disagree in size');
+    return new SectionLists(k, centroids, groups, groupStarts, Math.max(1, Math.floor(o.probe)), Math.max(1, o.fileGroups));
   }
 
   /** Trains the centroids on a seeded sample of the rows (same rows, options and seed: same centroids). */
@@ -155,7 +177,7 @@ export class SectionLists {
   /** The list a vector belongs to: the best centroid of its fileGroups best groups (ties: lower number). */
   file(block: Float32Array, at: number): number {
     const k = this.k;
-    const g = this._groupStarts.length - 1;
+    const g = this.groupStarts.length - 1;
     const want = Math.min(this._fileGroups, g);
     const bestGroups = new Int32Array(want).fill(-1);
     const bestScores = new Float64Array(want).fill(Number.NEGATIVE_INFINITY);
@@ -165,14 +187,14 @@ export class SectionLists {
       w.dots(w.groupsAt, w.q.byteOffset, k, 0, g, w.groupScores.byteOffset);
     }
     for (let c = 0; c < g; c++) {
-      const s = w ? w.groupScores[c] : dot(this._groups, c * k, block, at, k);
+      const s = w ? w.groupScores[c] : dot(this.groups, c * k, block, at, k);
       if (s > bestScores[want - 1]) insertTop(bestScores, bestGroups, s, c);
     }
     let list = 0;
     let top = Number.NEGATIVE_INFINITY;
     for (const c of bestGroups) {
       if (c < 0) continue;
-      const [from, to] = [this._groupStarts[c], this._groupStarts[c + 1]];
+      const [from, to] = [this.groupStarts[c], this.groupStarts[c + 1]];
       if (w) w.dots(w.centroidsAt, w.q.byteOffset, k, from, to, w.listScores.byteOffset);
       for (let j = from; j < to; j++) {
         const s = w ? w.listScores[j] : dot(this.centroids, j * k, block, at, k);

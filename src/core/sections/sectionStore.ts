@@ -19,10 +19,16 @@
  * one read), the same numbers, so the same rankings. Given a spill (spillListsTo; the node side
  * gives a scratch file beside a loaded index), the lists' 8-bit codes stay out of memory too
  * (listedSections.ts).
+ * The index file keeps the lists (format 5, savedLists.ts: written by savedLists, trained then if
+ * they were not), and restoreLists takes them back: a reopened index ranks through the saved
+ * centroids and filing at once, reading the saved codes where they lie in the file from
+ * SPILL_FROM_BYTES on (no scratch copy) or from memory below it. Only lists filed again (after the
+ * count doubled or halved, or from a format-4 file) are trained, filed and spilled as above.
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
 import { insertDescending, ListedSections } from './listedSections.js';
+import { planSavedLists, sectionCount, type SavedListing, type SavedListsPlan } from './savedLists.js';
 import { SectionLists, type SectionListsOptions } from './sectionLists.js';
 import { RowScratch, StoredFileSections, type SectionRowReader } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
@@ -90,6 +96,8 @@ export class SectionStore {
   /** Where the lists' codes go (undefined: memory), and from how many bytes of codes on. */
   private _openSpill: OpenSpill | undefined;
   private _spillFrom = SPILL_FROM_BYTES;
+  /** Lists and their filing read from a saved index, not yet turned into _listed (restoreLists). */
+  private _saved: SavedListing | undefined;
 
   /**
    * @param screenFrom sections from which ranking screens (default SCREEN_MIN_SECTIONS).
@@ -99,7 +107,7 @@ export class SectionStore {
   constructor(
     readonly k: number,
     private readonly screenFrom = SCREEN_MIN_SECTIONS,
-    private readonly listsFrom = SECTION_LISTS_FROM,
+    private listsFrom = SECTION_LISTS_FROM,
     private listOptions: Partial<SectionListsOptions> = {},
   ) {
     this._scratch = new RowScratch(k);
@@ -112,6 +120,7 @@ export class SectionStore {
   closeRows(): void {
     for (const r of this._readers) r.close();
     this._readers.clear();
+    this._saved = undefined;
     this.forgetListed();
     this._openSpill = undefined;
   }
@@ -124,6 +133,55 @@ export class SectionStore {
     this._openSpill = open;
     this._spillFrom = fromBytes;
     this.forgetListed();
+  }
+
+  /**
+   * Ranking visits the probed lists only from `count` sections on (tests and benchmarks: small
+   * collections with lists; the saved index keeps its lists from the same count on).
+   */
+  setListsFrom(count: number): void {
+    this.listsFrom = count;
+  }
+
+  /**
+   * Takes the lists and their filing from a saved index (savedLists.ts), once all files are set:
+   * the next ranking neither trains nor files. The parts are checked against the files set.
+   * @throws InvalidInputError when they disagree in size or order.
+   */
+  restoreLists(centroids: Float32Array, groups: Float32Array, groupStarts: Int32Array, listing: SavedListing): void {
+    if (listing.listOf.length !== this._count)
+      throw new InvalidInputError(`the saved section lists hold ${listing.listOf.length} sections, not ${this._count}`);
+    this._lists = SectionLists.restore(this.k, centroids, groups, groupStarts, this.listOptions);
+    for (const l of listing.listOf)
+      if (!(l >= 0 && l < this._lists.lists)) {
+        this._lists = null;
+        throw new InvalidInputError('a saved section list number is out of range');
+      }
+    this._trainedAt = this._count;
+    this.forgetListed();
+    this._saved = listing;
+  }
+
+  /**
+   * The lists as the index file keeps them, for `paths` in the file's order (files without sections
+   * skipped), or null below listsFrom sections (training them now if they are not trained).
+   */
+  savedLists(paths: readonly string[]): SavedListsPlan | null {
+    if (this._count < this.listsFrom || this._count === 0) return null;
+    const lists = this.lists();
+    if (!lists) return null;
+    const listed = this._saved || this._listed ? this.listed() : null;
+    const named = paths.filter((p) => {
+      const f = this._files.get(p);
+      return f !== undefined && sectionCount(f) > 0;
+    });
+    const files = named.map((p) => this._files.get(p)!);
+    const known = (no: number): { lists: Int32Array; slots: Int32Array } | null => {
+      const [lists, slots] = [listed?.listsOf(named[no]), listed?.slotsOf(named[no])];
+      return lists && slots ? { lists, slots } : null;
+    };
+    const readCoded = listed ? listed.readCoded.bind(listed) : undefined;
+    return planSavedLists(lists, files, known, readCoded);
   }
 
   /** Other options for the lists (trained again at the next ranking that uses them). */
@@ -159,6 +217,7 @@ export class SectionStore {
     if (sections.ends.length !== n || sections.titles.length !== n || !sized)
       throw new InvalidInputError(`the sections of "${path}" disagree in size (k = ${this.k})`);
     if (stored) this._readers.add(stored.reader);
+    if (this._saved) this.listed(); // the saved filing holds for the files as they were
     this.delete(path);
     this._files.set(path, sections);
     this._count += n;
@@ -170,6 +229,7 @@ export class SectionStore {
   delete(path: string): void {
     const old = this._files.get(path);
     if (!old) return;
+    if (this._saved) this.listed();
     this._count -= old.starts.length;
     this._files.delete(path);
     this._screen = undefined;
@@ -317,13 +377,22 @@ export class SectionStore {
     if (this._listed) return this._listed;
     const lists = this.lists();
     if (!lists) return null;
-    const spill = this._count * (this.k + 24) >= this._spillFrom ? this._openSpill : undefined;
+    const big = this._count * (this.k + 24) >= this._spillFrom;
+    const saved = this._saved;
+    this._saved = undefined;
+    if (saved) {
+      // Saved codes stay in their file from the spill's size on (a spill of their own otherwise).
+      this._listed = new ListedSections(lists, this._files.entries(), undefined, saved, big && saved.inFile);
+      return this._listed;
+    }
+    const spill = big ? this._openSpill : undefined;
     this._listed = new ListedSections(lists, this._files.entries(), spill);
     return this._listed;
   }
 
   private dropLists(): void {
     this._lists = null;
+    this._saved = undefined;
     this.forgetListed();
   }
 

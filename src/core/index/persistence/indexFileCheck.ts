@@ -23,8 +23,8 @@ export interface SectionEntry {
   length: number;
 }
 
-/** The sections of a saved index, in file order, with their element kinds. */
-export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
+/** The sections of a saved index of format 4, in file order, with their element kinds. */
+export const SECTION_LAYOUT_4: readonly (readonly [string, ArrayKind])[] = [
   ['vocab', 'u8'],
   ['vocabStarts', 'i32'],
   ['paths', 'u8'],
@@ -51,6 +51,27 @@ export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
   ['sectionTitles', 'u8'],
   ['sectionVectors', 'f32'],
 ];
+
+/**
+ * Format 5: format 4 with the section lists (src/core/sections/savedLists.ts) — the trained
+ * centroids, group centres and group starts and each section's list before the section vectors,
+ * the 8-bit codes (k bytes a section) and their scale, error and norm (f64) in slot order after
+ * them, so that a reader can leave both the vectors and the codes in the file. All six are empty
+ * when the index has too few sections for lists.
+ */
+export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
+  ...SECTION_LAYOUT_4.slice(0, -1),
+  ['listCentroids', 'f32'],
+  ['listGroups', 'f32'],
+  ['listGroupStarts', 'i32'],
+  ['sectionList', 'i32'],
+  ['sectionVectors', 'f32'],
+  ['sectionCodes', 'u8'],
+  ['sectionCodeParams', 'f64'],
+];
+
+/** The layout of each format version still read (format 4 opens without saved lists). */
+export const LAYOUTS: Readonly<Record<number, readonly (readonly [string, ArrayKind])[]>> = { 4: SECTION_LAYOUT_4, 5: SECTION_LAYOUT };
 
 export const BYTES_PER: Record<ArrayKind, number> = { u8: 1, i32: 4, f32: 4, f64: 8 };
 export const align8 = (n: number): number => Math.ceil(n / 8) * 8;
@@ -147,7 +168,10 @@ export interface CheckedHeader {
   checksum: number;
 }
 
-/** Checks every field of a parsed header (types, ranges, the section table and its offsets). */
+/**
+ * Checks every field of a parsed header (types, ranges, the section table and its offsets): of
+ * format `formatVersion`, or of an older one LAYOUTS still reads.
+ */
 export function checkHeader(v: unknown, formatVersion: number): CheckedHeader {
   const h = object(v, 'the header', [
     'formatVersion',
@@ -161,8 +185,8 @@ export function checkHeader(v: unknown, formatVersion: number): CheckedHeader {
     'payloadBytes',
     'checksum',
   ]);
-  if (h.formatVersion !== formatVersion)
-    throw new CorruptIndexError(`index format ${String(h.formatVersion)} is not the current format ${formatVersion}`);
+  const layout = typeof h.formatVersion === 'number' && h.formatVersion <= formatVersion ? LAYOUTS[h.formatVersion] : undefined;
+  if (!layout) throw new CorruptIndexError(`index format ${String(h.formatVersion)} is not the current format ${formatVersion}`);
   if (typeof h.createdAt !== 'string' || Number.isNaN(Date.parse(h.createdAt))) fail('createdAt is not a date');
   const settings = checkSettings(h.settings);
   int(h.docs, 'docs', 0, 2 ** 31 - 2);
@@ -192,11 +216,11 @@ export function checkHeader(v: unknown, formatVersion: number): CheckedHeader {
   int(c.removedSinceBuild, 'counters.removedSinceBuild', 0);
   num(c.foldedTokens, 'counters.foldedTokens', 0, Number.MAX_VALUE);
   num(c.foldedUnknownTokens, 'counters.foldedUnknownTokens', 0, Number.MAX_VALUE);
-  if (!Array.isArray(h.sections) || h.sections.length !== SECTION_LAYOUT.length)
-    fail(`the section table does not list the ${SECTION_LAYOUT.length} sections`);
+  if (!Array.isArray(h.sections) || h.sections.length !== layout.length)
+    fail(`the section table does not list the ${layout.length} sections`);
   let offset = 0;
   (h.sections as unknown[]).forEach((raw, i) => {
-    const [name, kind] = SECTION_LAYOUT[i];
+    const [name, kind] = layout[i];
     const e = object(raw, `section ${i + 1}`, ['name', 'kind', 'offset', 'length']);
     if (e.name !== name || e.kind !== kind) fail(`section ${i + 1} is not "${name}" of ${kind}`);
     if (e.offset !== offset) fail(`section "${name}" does not start where the one before it ends`);
@@ -234,6 +258,19 @@ export function checkSectionSizes(header: CheckedHeader): void {
     [len.sectionIndptr === n + 1, 'sectionIndptr is not docs + 1 long'],
     [len.sectionLines % 2 === 0 && len.sectionVectors === (len.sectionLines / 2) * k, 'sectionVectors are not k per section'],
   ];
+  if (header.formatVersion >= 5) {
+    const s = len.sectionList;
+    const g = len.listGroupStarts - 1;
+    rules.push(
+      [s === 0 || s === len.sectionLines / 2, 'sectionList is neither empty nor one per section'],
+      [len.sectionCodes === s * k && len.sectionCodeParams === 3 * s, 'sectionCodes are not k bytes and 3 numbers per listed section'],
+      [
+        s === 0 ? len.listCentroids + len.listGroups + len.listGroupStarts === 0 : g >= 1 && len.listCentroids >= k && len.listCentroids % k === 0,
+        'the section lists have no centroids or no groups',
+      ],
+      [len.listGroups === Math.max(0, g) * k, 'listGroups are not k per group'],
+    );
+  }
   for (const [ok, what] of rules) if (!ok) throw new CorruptIndexError(`index sections disagree in size: ${what}`);
 }
 
@@ -264,6 +301,15 @@ export interface PayloadParts {
   readonly sectionTitles: readonly string[] | Int32Array;
   /** Absent when the rows stay in the file: checked while they were streamed (checkSectionRows). */
   readonly sectionVectors?: Float32Array;
+  /** The saved section lists (format 5; empty when none): see SECTION_LAYOUT. */
+  readonly lists?: {
+    readonly centroids: Float32Array;
+    readonly groups: Float32Array;
+    readonly groupStarts: Int32Array;
+    readonly listOf: Int32Array;
+    /** Absent when the codes stay in the file: checked while they were streamed (checkCodeParams). */
+    readonly params?: Float64Array;
+  };
 }
 
 const bad = (what: string): never => {
@@ -337,6 +383,25 @@ function checkSections(p: PayloadParts): void {
     if (!(start >= 0 && end > start)) bad('a section ends before it starts');
   }
   if (p.sectionVectors) checkSectionRows(p.sectionVectors, count, p.k);
+  const l = p.lists;
+  if (!l || l.listOf.length === 0) return;
+  allFinite(l.centroids, 'listCentroids');
+  allFinite(l.groups, 'listGroups');
+  const lists = l.centroids.length / p.k;
+  const g = l.groupStarts.length - 1;
+  if (l.groupStarts[0] !== 0 || l.groupStarts[g] !== lists) bad('listGroupStarts do not span the lists');
+  for (let c = 0; c < g; c++) if (!(l.groupStarts[c + 1] >= l.groupStarts[c])) bad('listGroupStarts go backwards');
+  for (let i = 0; i < l.listOf.length; i++) if (!(l.listOf[i] >= 0 && l.listOf[i] < lists)) bad('sectionList holds a list that does not exist');
+  if (l.params) checkCodeParams(l.params);
+}
+
+/**
+ * The saved codes' scales, errors and norms (three f64 a row) are finite and not negative. Run on
+ * the whole section, or on consecutive blocks of it as they are read.
+ * @throws CorruptIndexError
+ */
+export function checkCodeParams(p: Float64Array): void {
+  for (let i = 0; i < p.length; i++) if (!(p[i] >= 0 && p[i] < Infinity)) bad('sectionCodeParams hold a value out of range');
 }
 
 /**

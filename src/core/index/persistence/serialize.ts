@@ -17,6 +17,8 @@
  * The section vectors come last in the payload, so a reader can keep them in the file:
  * decodeIndexWithRows takes the bytes before them, checked by the caller while it streamed the
  * rest, and gives each file's sections their rows in a SectionRowReader (../../sections/sectionRows.ts).
+ * The section lists' codes come after the vectors, so such a reader leaves them in the file too and
+ * hands decodeIndexWithRows a way to read them (ByteSpill, as the lists' spill reads its codes).
  */
 import { CorruptIndexError } from '../../errors.js';
 import { checksum32 } from './checksum.js';
@@ -36,9 +38,16 @@ import { Vocabulary } from '../../counting/termCounts.js';
 import { LANGUAGES } from '../../text/languages.js';
 import { withLanguage } from '../../text/detectLanguage.js';
 import { StoredFileSections, type SectionRowReader } from '../../sections/sectionRows.js';
+import { bytesSpill } from '../../sections/savedLists.js';
+import type { ByteSpill } from '../../sections/types.js';
 
-/** 4: each file's sections (line ranges, titles, concept vectors) follow the file vectors. */
-export const INDEX_FORMAT_VERSION = 4;
+/**
+ * 4: each file's sections (line ranges, titles, concept vectors) follow the file vectors.
+ * 5: the section lists too (trained centroids, each section's list, the 8-bit codes in slot
+ * order: ../../sections/savedLists.ts), so a reopen does not train them again; format 4 still opens
+ * (its lists are trained at the first ranking that needs them, as before).
+ */
+export const INDEX_FORMAT_VERSION = 5;
 const MAGIC = 'UNDTNIDX';
 /** Bytes before the JSON header: magic, header length, header checksum. */
 export const INDEX_PREAMBLE_BYTES = 16;
@@ -234,11 +243,20 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
     }
     return out;
   };
+  const saved = index.sections.savedLists(live.map(([s]) => s.meta.path));
+  if (saved && saved.count !== total) throw new Error('the saved section lists miss sections (a bug)');
+  const listed = saved?.count ?? 0;
   return [
     copied('sectionIndptr', indptr),
     gathered('sectionLines', 'i32', 2 * total, () => files.flatMap((f) => (f ? [lines(f)] : []))),
     copied('sectionTitles', encoder.encode(titles.join('\0'))),
+    copied('listCentroids', saved?.centroids ?? new Float32Array(0)),
+    copied('listGroups', saved?.groups ?? new Float32Array(0)),
+    copied('listGroupStarts', saved?.groupStarts ?? new Int32Array(0)),
+    copied('sectionList', saved?.listOf ?? new Int32Array(0)),
     gathered('sectionVectors', 'f32', total * k, () => files.flatMap((f) => (f ? [f.vectors] : []))),
+    { name: 'sectionCodes', kind: 'u8', length: listed * k, pieces: () => saved?.codes() ?? [] },
+    { name: 'sectionCodeParams', kind: 'f64', length: 3 * listed, pieces: () => saved?.params() ?? [] },
   ];
 }
 
@@ -325,6 +343,20 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   return decodeChecked(header, payload, undefined);
 }
 
+/**
+ * Where the saved section lists' codes and their params lie in the file (byte offsets and lengths),
+ * or null when the file has none (format 4, or too few sections for lists).
+ */
+export function sectionCodesOf(
+  header: CheckedHeader,
+  fileStart: number,
+): { readonly codesAt: number; readonly codesBytes: number; readonly paramsAt: number; readonly paramsBytes: number } | null {
+  const codes = header.sections.find((s) => s.name === 'sectionCodes');
+  const params = header.sections.find((s) => s.name === 'sectionCodeParams');
+  if (!codes || !params || codes.length === 0) return null;
+  return { codesAt: fileStart + codes.offset, codesBytes: codes.length, paramsAt: fileStart + params.offset, paramsBytes: 8 * params.length };
+}
+
 /** The section vectors' entry of a checked header: where their rows start in the file, and how many. */
 export function sectionRowsOf(
   header: CheckedHeader,
@@ -342,23 +374,34 @@ export function sectionRowsOf(
  * checkSectionRows); this checks the rest of the payload's structure.
  * @throws CorruptIndexError
  */
-export function decodeIndexWithRows(head: Uint8Array, rows: SectionRowReader): LsiIndex {
+export function decodeIndexWithRows(
+  head: Uint8Array,
+  rows: SectionRowReader,
+  codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
+): LsiIndex {
   const header = readIndexHeader(head);
   const start = headerExtent(head);
   const { at, rows: count, k } = sectionRowsOf(header, start);
   if (head.length !== at) throw new CorruptIndexError(`index head is ${head.length} bytes, expected ${at} (a reader bug)`);
   if (rows.rows !== count || rows.k !== k)
     throw new CorruptIndexError(`the section rows reader holds ${rows.rows} rows, expected ${count}`);
-  return decodeChecked(header, head.subarray(start), rows);
+  if (!codes !== !sectionCodesOf(header, start)) throw new CorruptIndexError('the saved section codes were not given (a reader bug)');
+  return decodeChecked(header, head.subarray(start), rows, codes);
 }
 
 /** decodeIndex after the checksum: every section a view of payload, or the section rows in `rows`. */
-function decodeChecked(header: CheckedHeader, payload: Uint8Array, rows: SectionRowReader | undefined): LsiIndex {
+function decodeChecked(
+  header: CheckedHeader,
+  payload: Uint8Array,
+  rows: SectionRowReader | undefined,
+  codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
+): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
   const get = <K extends ArrayKind>(name: string, kind: K): InstanceType<(typeof CTORS)[K]> => {
-    const e = header.sections.find((s) => s.name === name)!;
+    const e = header.sections.find((s) => s.name === name);
     const Ctor = CTORS[kind];
+    if (!e) return new Ctor(0) as InstanceType<(typeof CTORS)[K]>; // a section an older format has not
     const bytesLen = e.length * Ctor.BYTES_PER_ELEMENT;
     const at = payload.byteOffset + e.offset;
     // A view when aligned (the usual case: the file buffer starts on 8 bytes), else a copy.
@@ -402,6 +445,13 @@ function decodeChecked(header: CheckedHeader, payload: Uint8Array, rows: Section
     sectionLines: get('sectionLines', 'i32'),
     sectionTitles: rows ? titleStarts(get('sectionTitles', 'u8')) : splitText(get('sectionTitles', 'u8')),
     sectionVectors: rows ? undefined : get('sectionVectors', 'f32'),
+    lists: {
+      centroids: get('listCentroids', 'f32'),
+      groups: get('listGroups', 'f32'),
+      groupStarts: get('listGroupStarts', 'i32'),
+      listOf: get('sectionList', 'i32'),
+      params: rows ? undefined : get('sectionCodeParams', 'f64'),
+    },
   };
   checkPayload(parts);
   const { size, mtime, length, folded, residual, indptr, ids, counts, keptIds, weights, termVectors, singularValues, axisScale, vectors } =
@@ -426,8 +476,21 @@ function decodeChecked(header: CheckedHeader, payload: Uint8Array, rows: Section
       if (b > a) index.sections.set(path, new StoredFileSections(table, a, b - a));
     });
   } else restoreSections(index, parts, titles);
+  const l = parts.lists;
+  if (l.listOf.length > 0) {
+    const listing = codes
+      ? { listOf: l.listOf, codes: codes.codes, params: codes.params, inFile: true }
+      : { listOf: l.listOf, codes: bytesSpill(get('sectionCodes', 'u8')), params: bytesSpill(byteView(l.params!)), inFile: false };
+    try {
+      index.sections.restoreLists(l.centroids, l.groups, l.groupStarts, listing);
+    } catch (err) {
+      throw new CorruptIndexError(`index payload: ${(err as Error).message}`);
+    }
+  }
   return index;
 }
+
+const byteView = (a: Float64Array): Uint8Array => new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
 
 /**
  * Where each saved title starts in the titles' bytes (titles joined by NUL, which UTF-8 uses for

@@ -267,8 +267,12 @@ export function roundHalfUp(x: number): number {
   return c - 0.5 > x ? c - 1 : c;
 }
 
-/** The arithmetic of setRow, in the same order, over a Float32Array block with no per-row views. */
-function codeRows(
+/**
+ * The arithmetic of setRow, in the same order, over a Float32Array block with no per-row views
+ * (rows [from, to) of the block; codes at the same row positions of the outputs). Plain code, no
+ * WebAssembly: a writer of saved codes uses it too (../../sections/savedLists.ts).
+ */
+export function codeRows(
   rows: Float32Array,
   k: number,
   from: number,
