@@ -265,7 +265,9 @@ export function checkSectionSizes(header: CheckedHeader): void {
       [s === 0 || s === len.sectionLines / 2, 'sectionList is neither empty nor one per section'],
       [len.sectionCodes === s * k && len.sectionCodeParams === 3 * s, 'sectionCodes are not k bytes and 3 numbers per listed section'],
       [
-        s === 0 ? len.listCentroids + len.listGroups + len.listGroupStarts === 0 : g >= 1 && len.listCentroids >= k && len.listCentroids % k === 0,
+        s === 0
+          ? len.listCentroids + len.listGroups + len.listGroupStarts === 0
+          : g >= 1 && len.listCentroids >= k && len.listCentroids % k === 0,
         'the section lists have no centroids or no groups',
       ],
       [len.listGroups === Math.max(0, g) * k, 'listGroups are not k per group'],
@@ -391,7 +393,8 @@ function checkSections(p: PayloadParts): void {
   const g = l.groupStarts.length - 1;
   if (l.groupStarts[0] !== 0 || l.groupStarts[g] !== lists) bad('listGroupStarts do not span the lists');
   for (let c = 0; c < g; c++) if (!(l.groupStarts[c + 1] >= l.groupStarts[c])) bad('listGroupStarts go backwards');
-  for (let i = 0; i < l.listOf.length; i++) if (!(l.listOf[i] >= 0 && l.listOf[i] < lists)) bad('sectionList holds a list that does not exist');
+  for (let i = 0; i < l.listOf.length; i++)
+    if (!(l.listOf[i] >= 0 && l.listOf[i] < lists)) bad('sectionList holds a list that does not exist');
   if (l.params) checkCodeParams(l.params);
 }
 

@@ -354,7 +354,12 @@ export function sectionCodesOf(
   const codes = header.sections.find((s) => s.name === 'sectionCodes');
   const params = header.sections.find((s) => s.name === 'sectionCodeParams');
   if (!codes || !params || codes.length === 0) return null;
-  return { codesAt: fileStart + codes.offset, codesBytes: codes.length, paramsAt: fileStart + params.offset, paramsBytes: 8 * params.length };
+  return {
+    codesAt: fileStart + codes.offset,
+    codesBytes: codes.length,
+    paramsAt: fileStart + params.offset,
+    paramsBytes: 8 * params.length,
+  };
 }
 
 /** The section vectors' entry of a checked header: where their rows start in the file, and how many. */
