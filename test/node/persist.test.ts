@@ -2,15 +2,14 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { gunzipSync } from 'node:zlib';
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../src/core/index/persistence/serialize.js';
 import { SectionLists } from '../../src/core/sections/sectionLists.js';
-import { foldContextOf, foldSections } from '../../src/core/sections/sectionVectors.js';
 import { loadIndex, readSavedSettings, removeStaleTemporaries, SaveError, saveIndex, trySaveIndex } from '../../src/node/persist.js';
-import { fixturePath, loadCollection } from '../helpers/shared.js';
+import { numbaDocs, numbaSectionIndex } from '../helpers/numbaSections.js';
+import { loadCollection } from '../helpers/shared.js';
 
 // Real text: the ADI collection (test/fixtures/corpora/adi); the reference is the index that was saved.
 const adi = loadCollection('adi');
@@ -176,20 +175,8 @@ describe('persist', () => {
 // Real text with sections: numba-doc 0.56.4 (Debian, BSD-2-Clause; test/fixtures/numba-doc-sections),
 // lists from one section on so this small collection has them; the reference is the index saved.
 describe('persist: the saved section lists (format 5)', () => {
-  const numba = gunzipSync(readFileSync(fixturePath('numba-doc-sections/docs.jsonl.gz')))
-    .toString('utf8')
-    .split('\n')
-    .filter((l) => l.trim())
-    .map((l) => JSON.parse(l) as { id: string; text: string });
-  const build = (): LsiIndex => {
-    const b = new IndexBuilder({});
-    for (const d of numba) b.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
-    const index = b.build();
-    const ctx = foldContextOf(index);
-    for (const d of numba) index.sections.set(d.id, foldSections(ctx, d.id, d.text));
-    index.sections.setListsFrom(1);
-    return index;
-  };
+  const numba = numbaDocs();
+  const build = (): LsiIndex => numbaSectionIndex(numba, 1);
   const index = build();
   const k = index.model.k;
   const queries: Float32Array[] = [];

@@ -9,6 +9,7 @@ import { pathNameText } from '../../../src/core/index/search/nameField.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 import { loadCollection } from '../../helpers/shared.js';
+import { bm25OverFields } from '../../helpers/bm25Fields.js';
 
 // Real text: CRAN (test/fixtures/corpora/cran, 1400 aerodynamics abstracts).
 const cran = loadCollection('cran');
@@ -129,7 +130,8 @@ function plainTfidf(index: LsiIndex, d: DocTerms): number[] {
 /**
  * The name field's BM25 (nameField.ts) written out: each slot's name = the words of its path
  * (folders, file name without extension; numbers left out; words the index knows), BM25 over the
- * names alone (df and N = slots with a name, average name length; k1 = 1.2, b = 0.75; BM25L with δ).
+ * names alone (test/helpers/bm25Fields.ts: df and N = slots with a name, average name length;
+ * k1 = 1.2, b = 0.75; BM25L with δ).
  */
 function plainNames(index: LsiIndex, q: DocTerms, delta = 0): number[] {
   const names = index.slots().map((s) =>
@@ -141,20 +143,7 @@ function plainNames(index: LsiIndex, q: DocTerms, delta = 0): number[] {
         )
       : null,
   );
-  const present = names.filter((d): d is DocTerms => d !== null && d.length > 0);
-  const avg = present.reduce((a, d) => a + d.length, 0) / Math.max(present.length, 1);
-  return names.map((d) => {
-    if (!d || d.length === 0) return 0;
-    let score = 0;
-    q.termIds.forEach((t, i) => {
-      const tf = tfOf(d, t);
-      if (tf === 0) return;
-      const df = present.filter((e) => tfOf(e, t) > 0).length;
-      const c = tf / (0.25 + (0.75 * d.length) / avg) + delta;
-      score += (q.counts[i] * Math.log(1 + (present.length - df + 0.5) / (df + 0.5)) * 2.2 * c) / (1.2 + c);
-    });
-    return score;
-  });
+  return bm25OverFields(names, q, delta);
 }
 
 /** x_j/max(x) (0 when no x is positive). */

@@ -7,32 +7,19 @@
  * index saves to the same bytes; a format-4 file (no lists) still opens and trains as before; and a
  * file with a list that does not exist or a negative code scale is refused.
  */
-import { readFileSync } from 'node:fs';
-import { gunzipSync } from 'node:zlib';
 import { describe, expect, it, vi } from 'vitest';
 import { CorruptIndexError } from '../../../src/core/errors.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
-import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { SECTION_LAYOUT_4, align8, BYTES_PER } from '../../../src/core/index/persistence/indexFileCheck.js';
 import { decodeIndex, encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../../src/core/index/persistence/serialize.js';
 import { SectionLists } from '../../../src/core/sections/sectionLists.js';
-import { foldContextOf, foldSections } from '../../../src/core/sections/sectionVectors.js';
-import { fixturePath } from '../../helpers/shared.js';
+import { numbaDocs, numbaSectionIndex } from '../../helpers/numbaSections.js';
 
-const docs = gunzipSync(readFileSync(fixturePath('numba-doc-sections/docs.jsonl.gz')))
-  .toString('utf8')
-  .split('\n')
-  .filter((l) => l.trim())
-  .map((l) => JSON.parse(l) as { id: string; text: string });
+const docs = numbaDocs();
 
+/** The index of the pages, lists from one section on so this small collection has them. */
 function build(): LsiIndex {
-  const builder = new IndexBuilder({});
-  for (const d of docs) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
-  const index = builder.build();
-  const ctx = foldContextOf(index);
-  for (const d of docs) index.sections.set(d.id, foldSections(ctx, d.id, d.text));
-  index.sections.setListsFrom(1);
-  return index;
+  return numbaSectionIndex(docs, 1);
 }
 
 /** Queries: every 25th section's own vector (Nearby at a section) and a few title projections (search). */

@@ -171,7 +171,7 @@ export class NameField {
 }
 
 /** The count of a term in ascending-id DocTerms (binary search; 0 when absent). */
-export function countIn(d: DocTerms, termId: number): number {
+function countIn(d: DocTerms, termId: number): number {
   let lo = 0;
   let hi = d.termIds.length - 1;
   while (lo <= hi) {

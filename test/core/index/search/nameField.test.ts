@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { countTerms, Vocabulary, type DocTerms } from '../../../../src/core/counting/termCounts.js';
-import { DEFAULT_BM25_OPTIONS } from '../../../../src/core/index/search/bm25.js';
-import { countIn, NameField, pathNameText } from '../../../../src/core/index/search/nameField.js';
+import { NameField, pathNameText } from '../../../../src/core/index/search/nameField.js';
 import { tokenize } from '../../../../src/core/text/tokenize.js';
 import { loadRankingFixture } from '../../../helpers/rankingChecks.js';
+import { bm25OverFields } from '../../../helpers/bm25Fields.js';
 
 // Real paths and queries: rxjs 7.8.2's source files and doc-comment sentences (test/fixtures/rxjs-src, provenance in its README).
 const rxjs = loadRankingFixture('rxjs-src');
@@ -11,29 +11,8 @@ const vocab = new Vocabulary();
 const names: DocTerms[] = rxjs.docs.map((d) => countTerms(tokenize(pathNameText(d.id)), vocab, true));
 const queries: DocTerms[] = rxjs.queries.slice(0, 60).map((q) => countTerms(tokenize(q.text), vocab, false));
 
-/**
- * Reference: BM25 (Robertson & Zaragoza 2009, eq. 3.15, the non-negative idf
- * ln(1 + (N − df + 0.5)/(df + 0.5)); BM25L's c + δ, Lv & Zhai 2011) over the name fields alone,
- * df, N (fields with a word) and the average length counted afresh from the fields present.
- */
-function reference(fields: readonly (DocTerms | null)[], query: DocTerms, delta = 0): number[] {
-  const { k1, b } = DEFAULT_BM25_OPTIONS;
-  const present = fields.filter((d): d is DocTerms => d !== null && d.length > 0);
-  const n = present.length;
-  const avg = present.reduce((s, d) => s + d.length, 0) / n;
-  return fields.map((d) => {
-    if (!d || d.length === 0) return 0;
-    let score = 0;
-    query.termIds.forEach((t, i) => {
-      const tf = countIn(d, t);
-      if (tf === 0) return;
-      const df = present.filter((e) => countIn(e, t) > 0).length;
-      const c = tf / (1 - b + (b * d.length) / avg) + delta;
-      score += (query.counts[i] * Math.log(1 + (n - df + 0.5) / (df + 0.5)) * (k1 + 1) * c) / (k1 + c);
-    });
-    return score;
-  });
-}
+// Reference: BM25 over the name fields alone, written out from the formula (test/helpers/bm25Fields.ts).
+const reference = bm25OverFields;
 
 function scores(field: NameField, q: DocTerms, size: number, delta = 0, exclude = -1): number[] {
   const out = new Float64Array(size);
