@@ -120,14 +120,6 @@ export interface TopicsOptions {
   splitRefine: boolean;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
-  /**
-   * How the second level is formed: 'split' each first-level topic on its own; 'reassign' those
-   * splits' centres by Lloyd passes over every file (a file may cross into another first-level
-   * topic, whose membership follows its sub-topics); 'flat' spherical k-means over every file at
-   * the count the splits give, each cluster under the first-level topic holding most of its files;
-   * 'counts' each topic split into as many sub-topics as flat clusters it holds most of. @default 'split'
-   */
-  secondLevel: 'split' | 'reassign' | 'flat' | 'counts' | 'nested' | 'nestedLloyd' | 'flatWard';
   /** @default DEFAULT_SEED */
   seed: number;
   /** Readable word for a stem (e.g. SurfaceForms.wordFor); identity when absent. */
@@ -152,7 +144,6 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   splitRefine: false,
   fitSample: 2000,
   countDraws: 1,
-  secondLevel: 'split',
   seed: DEFAULT_SEED,
 } as const);
 
@@ -292,7 +283,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
     Int32Array.from({ length: n }, (_, i) => i),
     dims,
   );
-  let groups: number[][] = Array.from({ length: K }, () => []);
+  const groups: number[][] = Array.from({ length: K }, () => []);
   const loose: LooseFile[] = [];
   for (let i = 0; i < n; i++) {
     const t = clustering.assignment[i];
@@ -301,12 +292,6 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
     if (o.setApartLoose && K > 1 && own <= whole)
       loose.push({ path: im.paths[placed[i]], nearest: String(t), similarity: own, overall: whole });
     else groups[t].push(i);
-  }
-
-  let presplit = new Map<number[], number[][]>();
-  if (o.secondLevel !== 'split' && o.depth >= 2) {
-    yield;
-    ({ groups, presplit } = secondLevelGroups(points, dims, groups, o));
   }
 
   const scratch = new NameScratch(im.matrix.cols);
@@ -363,7 +348,7 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       let children: Topic[] = [];
       if (level < o.depth && group.length > o.leafSize) {
         yield;
-        const sub = presplit.get(group) ?? splitGroup(points, idx, dims, o, splitSeed(o.seed, path));
+        const sub = splitGroup(points, idx, dims, o, splitSeed(o.seed, path));
         if (sub.length > 1)
           children = yield* build(
             sub,
@@ -465,141 +450,6 @@ function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: Topi
   const out: number[][] = Array.from({ length: c.clusters }, () => []);
   for (let j = 0; j < m; j++) out[c.assignment[j]].push(idx[j]);
   return out.filter((g) => g.length > 0).length > 1 ? out : [];
-}
-
-/**
- * The second level formed over every file at once (secondLevel): the first level's groups with
- * their members moved and their children given.
- */
-function secondLevelGroups(
-  points: Float64Array,
-  dims: number,
-  groups: number[][],
-  o: TopicsOptions,
-): { groups: number[][]; presplit: Map<number[], number[][]> } {
-  const order = groups
-    .map((g, t) => ({ g, t }))
-    .filter((x) => x.g.length > 0)
-    .sort((a, b) => bySize(a.g, b.g));
-  const clusters: number[][] = [];
-  const splitOf = new Map<number, number[][]>();
-  order.forEach(({ g, t }, j) => {
-    const sub = g.length > o.leafSize ? splitGroup(points, Int32Array.from(g), dims, o, splitSeed(o.seed, String(j + 1))) : [];
-    const parts = sub.filter((x) => x.length > 0);
-    if (parts.length > 1) {
-      splitOf.set(t, parts);
-      clusters.push(...parts);
-    } else clusters.push(g);
-  });
-  const members = order.flatMap(({ g }) => g);
-  const m = members.length;
-  const parentOf = new Int32Array(points.length / dims).fill(-1);
-  for (const { g, t } of order) for (const i of g) parentOf[i] = t;
-  const sub = new Float64Array(m * dims);
-  members.forEach((i, j) => sub.set(points.subarray(i * dims, (i + 1) * dims), j * dims));
-  const K2 = clusters.length;
-  let c: Clustering;
-  if (o.secondLevel === 'reassign') {
-    const initial = new Float64Array(K2 * dims);
-    clusters.forEach((g, q) => initial.set(centreOf(points, Int32Array.from(g), dims), q * dims));
-    c = sphericalKMeans(sub, m, dims, K2, { initial, maxIterations: 50 });
-  } else c = clusterPoints(sub, m, dims, K2, o.fitSample, splitSeed(o.seed, 'flat'), undefined, false);
-  const flat: number[][] = Array.from({ length: c.clusters }, () => []);
-  for (let j = 0; j < m; j++) flat[c.assignment[j]].push(members[j]);
-  // Each flat cluster under the first-level topic holding most of its files.
-  const majority = flat.map((f) => {
-    const tally = new Map<number, number>();
-    for (const i of f) tally.set(parentOf[i], (tally.get(parentOf[i]) ?? 0) + 1);
-    let best = -1;
-    let bestCount = -1;
-    for (const [t, k] of tally) if (k > bestCount || (k === bestCount && t < best)) [best, bestCount] = [t, k];
-    return best;
-  });
-  const presplit = new Map<number[], number[][]>();
-  if (o.secondLevel === 'nested' || o.secondLevel === 'nestedLloyd') {
-    const kidsOf = new Map<number, number[]>();
-    majority.forEach((t, q) => {
-      if (t >= 0 && flat[q].length > 0) kidsOf.set(t, [...(kidsOf.get(t) ?? []), q]);
-    });
-    for (const { g, t } of order) {
-      const qs = kidsOf.get(t) ?? [];
-      if (qs.length < 2) continue;
-      const initial = new Float64Array(qs.length * dims);
-      qs.forEach((q, r) => initial.set(c.centres.subarray(q * dims, (q + 1) * dims), r * dims));
-      const gp = new Float64Array(g.length * dims);
-      g.forEach((i, r) => gp.set(points.subarray(i * dims, (i + 1) * dims), r * dims));
-      const s = sphericalKMeans(gp, g.length, dims, qs.length, { initial, maxIterations: o.secondLevel === 'nested' ? 0 : SPLIT_PASSES });
-      const parts: number[][] = Array.from({ length: s.clusters }, () => []);
-      for (let r = 0; r < g.length; r++) parts[s.assignment[r]].push(g[r]);
-      const kept = parts.filter((x) => x.length > 0);
-      if (kept.length > 1) presplit.set(g, kept);
-    }
-    return { groups, presplit };
-  }
-  if (o.secondLevel === 'counts') {
-    const want = new Map<number, number>();
-    for (const t of majority) if (t >= 0) want.set(t, (want.get(t) ?? 0) + 1);
-    order.forEach(({ g, t }, j) => {
-      const k = Math.min(want.get(t) ?? 1, g.length);
-      if (k < 2) return;
-      const gp = new Float64Array(g.length * dims);
-      g.forEach((i, q) => gp.set(points.subarray(i * dims, (i + 1) * dims), q * dims));
-      const s = sphericalKMeans(gp, g.length, dims, k, {
-        seed: splitSeed(o.seed, String(j + 1)),
-        restarts: o.splitRestarts,
-        maxIterations: SPLIT_PASSES,
-      });
-      const parts: number[][] = Array.from({ length: s.clusters }, () => []);
-      for (let q = 0; q < g.length; q++) parts[s.assignment[q]].push(g[q]);
-      const kept = parts.filter((x) => x.length > 0);
-      if (kept.length > 1) presplit.set(g, kept);
-    });
-    return { groups, presplit };
-  }
-  if (o.secondLevel === 'flatWard') {
-    // Ward's agglomeration (Ward 1963) of the flat clusters' means to the first level's count.
-    let nodes = flat
-      .filter((f) => f.length > 0)
-      .map((f) => {
-        const sum = new Float64Array(dims);
-        for (const i of f) for (let d = 0; d < dims; d++) sum[d] += points[i * dims + d];
-        return { sum, n: f.length, kids: [f] };
-      });
-    while (nodes.length > order.length) {
-      let best = Infinity;
-      let ba = 0;
-      let bb = 1;
-      for (let a = 0; a < nodes.length; a++)
-        for (let b = a + 1; b < nodes.length; b++) {
-          let dd = 0;
-          for (let d = 0; d < dims; d++) dd += (nodes[a].sum[d] / nodes[a].n - nodes[b].sum[d] / nodes[b].n) ** 2;
-          const cost = ((nodes[a].n * nodes[b].n) / (nodes[a].n + nodes[b].n)) * dd;
-          if (cost < best) [best, ba, bb] = [cost, a, b];
-        }
-      const sum = new Float64Array(dims);
-      for (let d = 0; d < dims; d++) sum[d] = nodes[ba].sum[d] + nodes[bb].sum[d];
-      const merged = { sum, n: nodes[ba].n + nodes[bb].n, kids: [...nodes[ba].kids, ...nodes[bb].kids] };
-      nodes = nodes.filter((_, q) => q !== ba && q !== bb);
-      nodes.push(merged);
-    }
-    const wardGroups = nodes.map((x) => x.kids.flat().sort((a, b) => a - b));
-    nodes.forEach((x, q) => {
-      if (x.kids.length > 1) presplit.set(wardGroups[q], x.kids);
-    });
-    return { groups: wardGroups, presplit };
-  }
-  const out: number[][] = groups.map(() => []);
-  const kids: number[][][] = groups.map(() => []);
-  flat.forEach((f, q) => {
-    if (f.length === 0) return;
-    out[majority[q]].push(...f);
-    kids[majority[q]].push(f);
-  });
-  out.forEach((g, t) => {
-    g.sort((a, b) => a - b);
-    if (kids[t].length > 1) presplit.set(g, kids[t]);
-  });
-  return { groups: out, presplit };
 }
 
 /**
