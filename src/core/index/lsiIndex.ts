@@ -32,7 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
-import { NameField, PathNameTokens } from './search/nameField.js';
+import { declaringName, NameField, PathNameTokens } from './search/nameField.js';
 import { TfidfNorms, TfidfNormsBuilder } from './search/tfidfCosine.js';
 import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
@@ -290,7 +290,7 @@ export class LsiIndex {
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
       divideByMax(lexical);
-      if (r.nameWeight > 0) this.addNames(lexQuery, lexical, r.nameWeight, 0, -1);
+      if (r.nameWeight > 0) this.addSearchNames(lexQuery, lexical);
       if (r.tfidfShare > 0 && !r.tfidfFromConcept) this.addTfidf(lexQuery, lexical, 1 - r.tfidfShare, r.tfidfShare, r.tfidfSlope);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
       if (r.tfidfShare > 0 && r.tfidfFromConcept && proj.knownTerms > 0) {
@@ -626,13 +626,15 @@ export class LsiIndex {
     this._bm25?.setDocument(s, terms);
     this._namesBuild = null;
     if (this._names) {
-      this._names.set(s, this.nameTerms(meta, s));
+      this._names.set(s, this.nameTerms(meta, s), declaringName(meta.path));
       // New words may complete other files' names too, as an index built afresh would have them.
       for (let id = before; id < this.vocab.size && this._unknownNames.size > 0; id++) {
         const waiting = this._unknownNames.get(this.vocab.termOf(id));
         if (!waiting) continue;
         this._unknownNames.delete(this.vocab.termOf(id));
-        for (const j of waiting) if (j !== s && this._slots[j]) this._names.set(j, this.nameTerms(this._slots[j]!.meta, j));
+        for (const j of waiting)
+          if (j !== s && this._slots[j])
+            this._names.set(j, this.nameTerms(this._slots[j]!.meta, j), declaringName(this._slots[j]!.meta.path));
       }
     }
     this.forgetFocus();
@@ -738,7 +740,7 @@ export class LsiIndex {
       const end = Math.min(this._slots.length, b.next + NAMES_CHUNK);
       for (; b.next < end; b.next++) {
         const s = this._slots[b.next];
-        if (s) b.field.set(b.next, this.nameTerms(s.meta, b.next));
+        if (s) b.field.set(b.next, this.nameTerms(s.meta, b.next), declaringName(s.meta.path));
       }
     } while (b.next < this._slots.length && more());
     if (b.next < this._slots.length) return null;
@@ -764,8 +766,27 @@ export class LsiIndex {
   }
 
   /**
-   * lexical += η·(the name field's BM25 of the query / its maximum), `exclude` left out; returns
-   * that maximum (0 when no name holds a query word).
+   * Search: lexical += η·(the name field's BM25 of the query / its maximum)·c^p (nameField.ts
+   * searchScoresInto: c the idf-weighted share of the query a name covers, p nameCoverage; code
+   * files' names only); returns that maximum (0 when no such name holds a query word).
+   */
+  private addSearchNames(query: DocTerms, lexical: Float64Array): number {
+    const n = lexical.length;
+    const extra = this._scratch.subarray(n, 2 * n);
+    const max = this.names().searchScoresInto(query, this.queryWeight(query), this.ranking.nameCoverage, extra);
+    if (max > 0) addScaled(lexical, this.ranking.nameWeight, extra);
+    return max;
+  }
+
+  /** A query term's weight in the name field's coverage: its count times its idf in the text (BM25's). */
+  queryWeight(query: DocTerms): (i: number) => number {
+    const bm25 = this.bm25();
+    return (i) => query.counts[i] * bm25.idf(query.termIds[i]);
+  }
+
+  /**
+   * Nearby: lexical += η·(the name field's BM25 of the query / its maximum), `exclude` left out;
+   * returns that maximum (0 when no name holds a query word).
    */
   private addNames(query: DocTerms, lexical: Float64Array, eta: number, delta: number, exclude: number): number {
     const n = lexical.length;

@@ -64,6 +64,9 @@ describe('Nearby on linked documentation (nDCG@10)', () => {
 });
 
 describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries)', () => {
+  // Measured with the defaults (the name field at η .5 by the share of the query a name covers):
+  // .4522 (BM25 .4387, 1.031), quartiles .3479 / .5228 / .5548 / .3841 against TF-IDF's .3622 /
+  // .4882 / .3413 / .2214; without the name field .4294 (0.979 of BM25; README, "Ranking checks").
   let fx: RankingFixture;
   let got: ReturnType<typeof searchFigures>;
   beforeAll(() => {
@@ -72,20 +75,23 @@ describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries
     console.log(`rxjs-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  it('MRR@10 ≥ 15% above TF-IDF cosine and LSI; within 3% of BM25 (still below it)', () => {
+  it('MRR@10 ≥ 2% above BM25 (the best plain baseline), ≥ 25% above TF-IDF cosine and LSI', () => {
     const b = fx.baselines!.methods;
-    expect(got.mrr10).toBeGreaterThanOrEqual(1.15 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
-    expect(got.mrr10).toBeGreaterThanOrEqual(0.97 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.25 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.02 * b.bm25.mrr10!);
   });
 
-  it('no size quartile more than 10% below TF-IDF cosine (the smallest is still below it, the second level with it); the two larger ones above it', () => {
+  it('no size quartile more than 5% below TF-IDF cosine (the smallest is still below it); the three larger ones above it', () => {
     const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
-    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.9 * q[i]!));
-    for (const i of [2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
+    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.95 * q[i]!));
+    for (const i of [1, 2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
   });
 });
 
 describe('search by description on a second codebase (lodash 4.18.1, 628 files, 627 queries)', () => {
+  // Measured with the defaults: .3851 (LSI .3561, 1.081; BM25 .3439, 1.120), quartiles .3892 /
+  // .3705 / .4100 / .3706 against TF-IDF's .4183 / .3721 / .3539 / .2567; without the name field
+  // .3585 (README, "Ranking checks").
   let fx: RankingFixture;
   let got: ReturnType<typeof searchFigures>;
   beforeAll(() => {
@@ -94,10 +100,10 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
     console.log(`lodash-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  it('MRR@10 above the best plain baseline (LSI), 4% above BM25', () => {
+  it('MRR@10 ≥ 6% above the best plain baseline (LSI), ≥ 10% above BM25', () => {
     const b = fx.baselines!.methods;
-    expect(got.mrr10).toBeGreaterThanOrEqual(best(fx.baselines, 'mrr10'));
-    expect(got.mrr10).toBeGreaterThanOrEqual(1.04 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.06 * best(fx.baselines, 'mrr10'));
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.1 * b.bm25.mrr10!);
   });
 
   it('no size quartile more than 10% below TF-IDF cosine (the two smaller ones are still below it); the two larger ones above it', () => {
@@ -107,17 +113,18 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
   });
 });
 
-describe('the opt-in name field in search (nameWeight 0.5; nameField.ts)', () => {
+describe('the name field in search without its coverage guard (nameCoverage 0; nameField.ts)', () => {
   // Measured: rxjs .4672 (BM25 .4387, 1.065), quartiles .3796 / .5285 / .5831 / .3786; lodash .3944
   // (LSI .3561, 1.108; BM25 .3439, 1.147), quartiles .3724 / .3897 / .4161 / .3995 (README, "Ranking
-  // checks", sixth round). Off by default for the demo's questions worded unlike their answers.
+  // checks", sixth round). Not the default: a name holding one word of a question outranks the
+  // answer (three of the demo's questions left the top 3 with every file's name in).
   const run = (name: string): { fx: RankingFixture; got: ReturnType<typeof searchFigures> } => {
     const fx = loadRankingFixture(name);
     const index = buildFixtureIndex(fx);
-    index.ranking = { ...DEFAULT_RANKING_OPTIONS, nameWeight: 0.5 };
+    index.ranking = { ...DEFAULT_RANKING_OPTIONS, nameWeight: 0.5, nameCoverage: 0 };
     const got = searchFigures(index, fx);
     console.log(
-      `${name} with the name field MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`,
+      `${name} with the plain name field MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`,
     );
     return { fx, got };
   };
