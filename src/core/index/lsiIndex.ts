@@ -334,7 +334,13 @@ export class LsiIndex {
     const live = this.acceptor(options.filter);
     const accept = (j: number): boolean => j !== self && live(j);
     const n = this._slots.length;
-    const { lexical, lexicalShare: mu } = this.nearbyPlan(path, options.wordMatchDelta, options.wordMatchTfidf, options.wordMatchNames);
+    const { lexical, lexicalShare: mu } = this.nearbyPlan(
+      path,
+      options.wordMatchDelta,
+      options.wordMatchTfidf,
+      options.wordMatchNames,
+      options.wordMatchTerms,
+    );
     const { ranked, product } = this.rank(
       this.vectorOf(path),
       1 - mu,
@@ -362,13 +368,15 @@ export class LsiIndex {
    * of the score (nearbyLexical, raised when the TF-IDF part is taken from the concept part) and
    * `tfidfShare` the TF-IDF part's share within the word match.
    * `delta`: BM25L's δ of the word match (default: the ranking options' nearbyDelta); `tfidf`: ν
-   * (default: nearbyTfidfShare).
+   * (default: nearbyTfidfShare); `names`: η (default: nearbyNameWeight); `terms`: how many of the
+   * file's most distinctive terms form its query (default: nearbyTerms).
    */
   nearbyPlan(
     path: string,
     delta: number = this.ranking.nearbyDelta,
     tfidf: number = this.ranking.nearbyTfidfShare,
     names: number = this.ranking.nearbyNameWeight,
+    terms: number = this.ranking.nearbyTerms,
   ): {
     lexicalQuery: DocTerms;
     max: number;
@@ -386,7 +394,7 @@ export class LsiIndex {
     const n = this._slots.length;
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
-    const lexicalQuery = this.fileQuery(self, 1);
+    const lexicalQuery = this.fileQuery(self, 1, terms);
     let max = 0;
     let tfidfMax = 0;
     const share = this.ranking.nearbyLexical > 0 ? tfidf : 0;
@@ -411,11 +419,7 @@ export class LsiIndex {
     const words = this.ranking.nearbyTfidfTerms;
     // The TF-IDF part's query (only made when it has a share; the BM25 query stands in otherwise).
     const tfidfQuery =
-      share <= 0 || words === this.ranking.nearbyTerms
-        ? lexicalQuery
-        : words <= 0
-          ? this._slots[self]!.terms
-          : this.fileQuery(self, 1, words);
+      share <= 0 || words === terms ? lexicalQuery : words <= 0 ? this._slots[self]!.terms : this.fileQuery(self, 1, words);
     let mu = this.ranking.nearbyLexical;
     let [wl, wt] = [1 - share, share];
     if (share > 0 && this.ranking.nearbyTfidfFromConcept) {

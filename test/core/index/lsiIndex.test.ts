@@ -295,7 +295,7 @@ function spreadLambda(index: LsiIndex, q: Float32Array, lexical: number[], lambd
 
 /**
  * Nearby as documented: ½ cosine + ½ word match, the word match (1 − ν)·BM25L (δ: the ranking
- * options' unless given) of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other
+ * options' unless given) of the file's nearbyTerms most distinctive terms (log(1 + tf)·idf) / best other
  * file's + ν·TF-IDF of its nearbyTfidfTerms most distinctive terms (all when 0) against every file's
  * full term vector's norm / best other file's (ν: nearbyTfidfShare unless given).
  */
@@ -316,7 +316,7 @@ function plainNearby(
     const kept = order.slice(0, count).sort((a, b) => a - b);
     return { termIds: Int32Array.from(kept, (i) => d.termIds[i]), counts: Float32Array.from(kept, (i) => d.counts[i]), length: 0 };
   };
-  const query = topTerms(40);
+  const query = topTerms(index.ranking.nearbyTerms);
   const self = index.slots().findIndex((s) => s?.meta.path === path);
   const bm25 = plainBm25(index, query, index.ranking.nearbyLengthNorm, delta);
   const words = index.ranking.nearbyTfidfTerms;

@@ -33,9 +33,10 @@ const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): 
   Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
 
 describe('Nearby on linked documentation (nDCG@10)', () => {
-  // Measured with the defaults (nearbyDelta 0.5, BM25L; nearbyNameWeight 0.35, the name field both
-  // ways): CMake .6116 (BM25 .5112, 1.196; TF-IDF .4386, 1.394), Django .7243 (LSI .6984, 1.037),
-  // Sphinx .7375 (TF-IDF .7085, 1.041); without the name field .5378, .7114 and .7162 (1.052, 1.019,
+  // Measured with the defaults (nearbyTerms 80; nearbyDelta 0.5, BM25L; nearbyNameWeight 0.35, the
+  // name field both ways): CMake .6140 (BM25 .5112, 1.201; TF-IDF .4386, 1.400), Django .7341 (LSI
+  // .6984, 1.051), Sphinx .7449 (TF-IDF .7085, 1.051); with the page's 40 top words as its query
+  // .6116, .7243 and .7375 (1.196, 1.037, 1.041); without the name field as well .5378, .7114 and .7162 (1.052, 1.019,
   // 1.011); with δ 0 as well 1.012, 1.017 and 1.006 of the best baseline (README, "Ranking checks"). With the opt-in TF-IDF share (nearbyTfidfShare 0.1,
   // off by default): over the page's 40 top words (nearbyTfidfTerms) 1.032, 1.024 and 1.015, over all
   // its words 1.030, 1.027 and 1.023 (README, "Ranking checks", fourth and fifth rounds).
@@ -48,18 +49,18 @@ describe('Nearby on linked documentation (nDCG@10)', () => {
     expect(got).toBeGreaterThanOrEqual(1.15 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Django manual (258 pages, 248 linked pages as queries): ≥ 3% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
+  it('Django manual (258 pages, 248 linked pages as queries): ≥ 4.5% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
     const fx = loadRankingFixture('django-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`django-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.03 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.045 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 3% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
+  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 4% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
     const fx = loadRankingFixture('sphinx-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`sphinx-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.03 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.04 * best(fx.baselines, 'ndcg10'));
   });
 });
 
