@@ -70,6 +70,9 @@ export class QueryExplainer {
   private readonly _maxBm25: number;
   /** The best name-field score of the query (nameField.ts; 0 when none or off). */
   private readonly _namesMax: number;
+  /** The name field's query-term weights (coverage, nameField.ts) and their sum. */
+  private _namesWeight: ((i: number) => number) | null = null;
+  private _namesTotal = 0;
   private readonly _slotOf = new Map<string, number>();
   /** The final query vector minus `scale`·(the text's own unit vector): what feedback added. */
   private readonly _moved: Float64Array | null = null;
@@ -109,9 +112,10 @@ export class QueryExplainer {
       _index.bm25().scoreInto(lexQuery, all, _index.ranking.lengthNorm);
       for (const v of all) max = Math.max(max, v);
       if (_index.ranking.nameWeight > 0) {
-        all.fill(0);
-        _index.names().scoreInto(lexQuery, all);
-        for (const v of all) namesMax = Math.max(namesMax, v);
+        const weight = _index.queryWeight(lexQuery);
+        namesMax = _index.names().searchScoresInto(lexQuery, weight, 0, all);
+        this._namesWeight = weight;
+        for (let i = 0; i < lexQuery.termIds.length; i++) this._namesTotal += weight(i);
       }
     }
     this._maxBm25 = max;
@@ -146,8 +150,12 @@ export class QueryExplainer {
         this._lambda > 0 && this._maxBm25 > 0
           ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot, this._index.ranking.lengthNorm)) / this._maxBm25
           : 0;
-      if (this._lambda > 0 && this._namesMax > 0)
-        lexical += (this._lambda * this._index.ranking.nameWeight * names.termScore(id, this._query.counts[i], slot)) / this._namesMax;
+      if (this._lambda > 0 && this._namesMax > 0 && names.declares(slot)) {
+        const { nameWeight, nameCoverage } = this._index.ranking;
+        const cover =
+          nameCoverage > 0 ? Math.pow(names.coverage(this._query, this._namesWeight!, slot, this._namesTotal), nameCoverage) : 1;
+        lexical += (this._lambda * nameWeight * cover * names.termScore(id, this._query.counts[i], slot)) / this._namesMax;
+      }
       const inBoth = (own ? countOf(own, id) : tf) > 0;
       if (concept !== 0 || lexical !== 0) out.push({ term: vocab.termOf(id), share: concept + lexical, concept, lexical, inBoth });
     });

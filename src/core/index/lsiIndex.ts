@@ -32,7 +32,7 @@ import {
   type RankingOptions,
 } from './search/fusion.js';
 import { ConceptCodes } from './search/conceptCodes.js';
-import { NameField, PathNameTokens } from './search/nameField.js';
+import { declaringName, NameField, PathNameTokens } from './search/nameField.js';
 import { TfidfNorms, TfidfNormsBuilder } from './search/tfidfCosine.js';
 import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
@@ -290,7 +290,7 @@ export class LsiIndex {
     if (lambda > 0) {
       this.bm25().scoreInto(lexQuery, lexical, r.lengthNorm);
       divideByMax(lexical);
-      if (r.nameWeight > 0) this.addNames(lexQuery, lexical, r.nameWeight, 0, -1);
+      if (r.nameWeight > 0) this.addSearchNames(lexQuery, lexical);
       if (r.tfidfShare > 0 && !r.tfidfFromConcept) this.addTfidf(lexQuery, lexical, 1 - r.tfidfShare, r.tfidfShare, r.tfidfSlope);
       if (r.coverageBlend) lambda += (1 - lambda) * this.unknownShare(q);
       if (r.tfidfShare > 0 && r.tfidfFromConcept && proj.knownTerms > 0) {
@@ -334,7 +334,13 @@ export class LsiIndex {
     const live = this.acceptor(options.filter);
     const accept = (j: number): boolean => j !== self && live(j);
     const n = this._slots.length;
-    const { lexical, lexicalShare: mu } = this.nearbyPlan(path, options.wordMatchDelta, options.wordMatchTfidf, options.wordMatchNames);
+    const { lexical, lexicalShare: mu } = this.nearbyPlan(
+      path,
+      options.wordMatchDelta,
+      options.wordMatchTfidf,
+      options.wordMatchNames,
+      options.wordMatchTerms,
+    );
     const { ranked, product } = this.rank(
       this.vectorOf(path),
       1 - mu,
@@ -362,13 +368,15 @@ export class LsiIndex {
    * of the score (nearbyLexical, raised when the TF-IDF part is taken from the concept part) and
    * `tfidfShare` the TF-IDF part's share within the word match.
    * `delta`: BM25L's δ of the word match (default: the ranking options' nearbyDelta); `tfidf`: ν
-   * (default: nearbyTfidfShare).
+   * (default: nearbyTfidfShare); `names`: η (default: nearbyNameWeight); `terms`: how many of the
+   * file's most distinctive terms form its query (default: nearbyTerms).
    */
   nearbyPlan(
     path: string,
     delta: number = this.ranking.nearbyDelta,
     tfidf: number = this.ranking.nearbyTfidfShare,
     names: number = this.ranking.nearbyNameWeight,
+    terms: number = this.ranking.nearbyTerms,
   ): {
     lexicalQuery: DocTerms;
     max: number;
@@ -386,7 +394,7 @@ export class LsiIndex {
     const n = this._slots.length;
     if (this._scratch.length < 2 * n) this._scratch = new Float64Array(2 * Math.ceil(n * 1.25));
     const lexical = this._scratch.subarray(0, n).fill(0);
-    const lexicalQuery = this.fileQuery(self, 1);
+    const lexicalQuery = this.fileQuery(self, 1, terms);
     let max = 0;
     let tfidfMax = 0;
     const share = this.ranking.nearbyLexical > 0 ? tfidf : 0;
@@ -411,11 +419,7 @@ export class LsiIndex {
     const words = this.ranking.nearbyTfidfTerms;
     // The TF-IDF part's query (only made when it has a share; the BM25 query stands in otherwise).
     const tfidfQuery =
-      share <= 0 || words === this.ranking.nearbyTerms
-        ? lexicalQuery
-        : words <= 0
-          ? this._slots[self]!.terms
-          : this.fileQuery(self, 1, words);
+      share <= 0 || words === terms ? lexicalQuery : words <= 0 ? this._slots[self]!.terms : this.fileQuery(self, 1, words);
     let mu = this.ranking.nearbyLexical;
     let [wl, wt] = [1 - share, share];
     if (share > 0 && this.ranking.nearbyTfidfFromConcept) {
@@ -626,13 +630,15 @@ export class LsiIndex {
     this._bm25?.setDocument(s, terms);
     this._namesBuild = null;
     if (this._names) {
-      this._names.set(s, this.nameTerms(meta, s));
+      this._names.set(s, this.nameTerms(meta, s), declaringName(meta.path));
       // New words may complete other files' names too, as an index built afresh would have them.
       for (let id = before; id < this.vocab.size && this._unknownNames.size > 0; id++) {
         const waiting = this._unknownNames.get(this.vocab.termOf(id));
         if (!waiting) continue;
         this._unknownNames.delete(this.vocab.termOf(id));
-        for (const j of waiting) if (j !== s && this._slots[j]) this._names.set(j, this.nameTerms(this._slots[j]!.meta, j));
+        for (const j of waiting)
+          if (j !== s && this._slots[j])
+            this._names.set(j, this.nameTerms(this._slots[j]!.meta, j), declaringName(this._slots[j]!.meta.path));
       }
     }
     this.forgetFocus();
@@ -738,7 +744,7 @@ export class LsiIndex {
       const end = Math.min(this._slots.length, b.next + NAMES_CHUNK);
       for (; b.next < end; b.next++) {
         const s = this._slots[b.next];
-        if (s) b.field.set(b.next, this.nameTerms(s.meta, b.next));
+        if (s) b.field.set(b.next, this.nameTerms(s.meta, b.next), declaringName(s.meta.path));
       }
     } while (b.next < this._slots.length && more());
     if (b.next < this._slots.length) return null;
@@ -764,8 +770,27 @@ export class LsiIndex {
   }
 
   /**
-   * lexical += η·(the name field's BM25 of the query / its maximum), `exclude` left out; returns
-   * that maximum (0 when no name holds a query word).
+   * Search: lexical += η·(the name field's BM25 of the query / its maximum)·c^p (nameField.ts
+   * searchScoresInto: c the idf-weighted share of the query a name covers, p nameCoverage; code
+   * files' names only); returns that maximum (0 when no such name holds a query word).
+   */
+  private addSearchNames(query: DocTerms, lexical: Float64Array): number {
+    const n = lexical.length;
+    const extra = this._scratch.subarray(n, 2 * n);
+    const max = this.names().searchScoresInto(query, this.queryWeight(query), this.ranking.nameCoverage, extra);
+    if (max > 0) addScaled(lexical, this.ranking.nameWeight, extra);
+    return max;
+  }
+
+  /** A query term's weight in the name field's coverage: its count times its idf in the text (BM25's). */
+  queryWeight(query: DocTerms): (i: number) => number {
+    const bm25 = this.bm25();
+    return (i) => query.counts[i] * bm25.idf(query.termIds[i]);
+  }
+
+  /**
+   * Nearby: lexical += η·(the name field's BM25 of the query / its maximum), `exclude` left out;
+   * returns that maximum (0 when no name holds a query word).
    */
   private addNames(query: DocTerms, lexical: Float64Array, eta: number, delta: number, exclude: number): number {
     const n = lexical.length;

@@ -72,6 +72,8 @@ export interface NearbyOptions extends SearchOptions {
   wordMatchTfidf?: number;
   /** Weight of the name field in the word match (0 = none). @default RankingOptions.nearbyNameWeight */
   wordMatchNames?: number;
+  /** How many of the file's most distinctive terms form the word match's query. @default RankingOptions.nearbyTerms */
+  wordMatchTerms?: number;
 }
 
 export interface PrepareOptions {

@@ -62,6 +62,13 @@ export const LINKS_WORD_MATCH_TFIDF = 0;
  */
 export const LINKS_WORD_MATCH_NAMES = 0;
 
+/**
+ * How many of a note's most distinctive terms form the word match's query (LsiIndex.nearby,
+ * wordMatchTerms): 40, as the threshold above was calibrated; Nearby's 80 came later (README,
+ * "Ranking checks", seventh round).
+ */
+export const LINKS_WORD_MATCH_TERMS = 40;
+
 export const DEFAULT_SUGGEST_OPTIONS: SuggestOptions = { top: 5, minSimilarity: DEFAULT_MIN_SIMILARITY, words: 5 };
 
 export interface LinkSuggestion {
@@ -113,6 +120,7 @@ export function unlinkedNeighbours(
       wordMatchDelta: LINKS_WORD_MATCH_DELTA,
       wordMatchTfidf: LINKS_WORD_MATCH_TFIDF,
       wordMatchNames: LINKS_WORD_MATCH_NAMES,
+      wordMatchTerms: LINKS_WORD_MATCH_TERMS,
     })
     .map((h) => ({ path: h.path, score: h.score, similarity: h.conceptScore * own * spaceShare(index, h.path) }));
 }

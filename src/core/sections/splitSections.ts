@@ -63,6 +63,12 @@ function extensionOf(path: string): string {
   return dot > 0 ? name.slice(dot + 1).toLowerCase() : '';
 }
 
+/** The programming language a path's extension names (undefined for anything else). */
+export function codeLanguageOf(path: string): CodeLanguage | undefined {
+  const ext = extensionOf(path);
+  return Object.prototype.hasOwnProperty.call(CODE, ext) ? CODE[ext] : undefined;
+}
+
 /** Splits text into lines ("\n", "\r\n" or "\r"). */
 export function splitLines(text: string): string[] {
   return text.split(/\r\n|\r|\n/);

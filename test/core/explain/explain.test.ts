@@ -129,10 +129,9 @@ describe('explanations on CISI', () => {
 });
 
 describe('explanations with the name field (rxjs 7.8.2: test/fixtures/rxjs-src, real paths, code and queries)', () => {
-  it('search (the opt-in name field) and Nearby shares add up to the score and its parts; the name parts count', () => {
+  it('search (the name field, by the share of the query a name covers) and Nearby shares add up to the score and its parts; the name parts count', () => {
     const rxjs = loadRankingFixture('rxjs-src');
     const index = buildFixtureIndex(rxjs);
-    index.ranking = { ...index.ranking, nameWeight: 0.5 };
     let moved = 0;
     for (const q of rxjs.queries.slice(0, 15).map((x) => x.text)) {
       const lambda = index.searchPlan(q).lambda;

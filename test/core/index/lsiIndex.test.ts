@@ -133,8 +133,8 @@ function plainTfidf(index: LsiIndex, d: DocTerms): number[] {
  * names alone (test/helpers/bm25Fields.ts: df and N = slots with a name, average name length;
  * k1 = 1.2, b = 0.75; BM25L with δ).
  */
-function plainNames(index: LsiIndex, q: DocTerms, delta = 0): number[] {
-  const names = index.slots().map((s) =>
+function plainNameTerms(index: LsiIndex): (DocTerms | null)[] {
+  return index.slots().map((s) =>
     s
       ? countTerms(
           tokenize(pathNameText(s.meta.path)).filter((t) => !/^\p{N}+$/u.test(t)),
@@ -143,7 +143,28 @@ function plainNames(index: LsiIndex, q: DocTerms, delta = 0): number[] {
         )
       : null,
   );
-  return bm25OverFields(names, q, delta);
+}
+
+function plainNames(index: LsiIndex, q: DocTerms, delta = 0): number[] {
+  return bm25OverFields(plainNameTerms(index), q, delta);
+}
+
+/**
+ * Search's name part as documented (nameField.ts, fusion.ts nameCoverage): code files' names only
+ * (here .ts and .js), their BM25 divided by the best of those, times c^p with c the share of the
+ * query's count × idf its name holds.
+ */
+function plainSearchNames(index: LsiIndex, q: DocTerms): number[] {
+  const names = plainNameTerms(index);
+  const code = index.slots().map((s) => !!s && /\.(?:ts|js)$/.test(s.meta.path));
+  const scores = byMax(plainNames(index, q).map((x, j) => (code[j] ? x : 0)));
+  const w = Array.from(q.termIds, (t, i) => q.counts[i] * index.bm25().idf(t));
+  const total = w.reduce((a, x) => a + x, 0);
+  const p = index.ranking.nameCoverage;
+  return scores.map((x, j) => {
+    const held = w.reduce((a, x2, i) => a + (names[j] && tfOf(names[j], q.termIds[i]) > 0 ? x2 : 0), 0);
+    return p > 0 && x > 0 ? x * Math.min(1, held / total) ** p : x;
+  });
 }
 
 /** x_j/max(x) (0 when no x is positive). */
@@ -228,8 +249,8 @@ function plainSearch(index: LsiIndex, text: string, top: number): { path: string
   const proj = projectTerms(index.model, q, focus ? (t) => focus.get(t)! : undefined);
   // The word match: BM25/max + η·(the name field's BM25)/max.
   const eta = index.ranking.nameWeight;
-  const names = byMax(plainNames(index, q));
-  const bm25 = byMax(plainBm25(index, q, index.ranking.lengthNorm)).map((x, j) => x + eta * names[j]);
+  const names = eta > 0 ? plainSearchNames(index, q) : [];
+  const bm25 = byMax(plainBm25(index, q, index.ranking.lengthNorm)).map((x, j) => x + (eta > 0 ? eta * names[j] : 0));
   const base = coverageLambda(index, q);
   const share = (v: Float32Array): number => spreadLambda(index, v, bm25, base);
   let vector = proj.vector;
@@ -274,7 +295,7 @@ function spreadLambda(index: LsiIndex, q: Float32Array, lexical: number[], lambd
 
 /**
  * Nearby as documented: ½ cosine + ½ word match, the word match (1 − ν)·BM25L (δ: the ranking
- * options' unless given) of the file's 40 most distinctive terms (log(1 + tf)·idf) / best other
+ * options' unless given) of the file's nearbyTerms most distinctive terms (log(1 + tf)·idf) / best other
  * file's + ν·TF-IDF of its nearbyTfidfTerms most distinctive terms (all when 0) against every file's
  * full term vector's norm / best other file's (ν: nearbyTfidfShare unless given).
  */
@@ -295,7 +316,7 @@ function plainNearby(
     const kept = order.slice(0, count).sort((a, b) => a - b);
     return { termIds: Int32Array.from(kept, (i) => d.termIds[i]), counts: Float32Array.from(kept, (i) => d.counts[i]), length: 0 };
   };
-  const query = topTerms(40);
+  const query = topTerms(index.ranking.nearbyTerms);
   const self = index.slots().findIndex((s) => s?.meta.path === path);
   const bm25 = plainBm25(index, query, index.ranking.nearbyLengthNorm, delta);
   const words = index.ranking.nearbyTfidfTerms;
@@ -395,8 +416,9 @@ describe('LsiIndex name field against the plain formula', () => {
         got.forEach((h, i) => expect(h.score).toBeCloseTo(ref[i].score, 12));
       }
     };
-    // Search's name field is opt-in (nameWeight 0 by default); Nearby's is on.
-    index.ranking = { ...index.ranking, nameWeight: 0.5 };
+    // Both on by default (search's with the share of the query a name covers).
+    expect(index.ranking.nameWeight).toBeGreaterThan(0);
+    expect(index.ranking.nameCoverage).toBeGreaterThan(0);
     expect(index.ranking.nearbyNameWeight).toBeGreaterThan(0);
     compare();
     // A new file named by a word no text holds yet; then a file that brings the word (the first file's name
@@ -408,7 +430,9 @@ describe('LsiIndex name field against the plain formula', () => {
     compare(['quuxify the values', 'frobnicate']);
     expect(index.search('quuxify', { top: 2 }).map((h) => h.path)).toContain('internal/operators/quuxify.ts');
     // Other weights apply as documented.
-    index.ranking = { ...index.ranking, nameWeight: 1, nearbyNameWeight: 0.5 };
+    index.ranking = { ...index.ranking, nameWeight: 1, nameCoverage: 2, nearbyNameWeight: 0.5 };
+    compare();
+    index.ranking = { ...index.ranking, nameCoverage: 0 };
     compare();
     // The name field did score (the comparisons above are not between zeros).
     expect(named).toBeGreaterThan(20);

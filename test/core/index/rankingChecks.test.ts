@@ -33,9 +33,10 @@ const best = (b: RankingFixture['baselines'], key: 'ndcg10' | 'mrr10' | 'map'): 
   Math.max(...Object.values(b!.methods).map((m: MethodFigures) => m[key] ?? 0));
 
 describe('Nearby on linked documentation (nDCG@10)', () => {
-  // Measured with the defaults (nearbyDelta 0.5, BM25L; nearbyNameWeight 0.35, the name field both
-  // ways): CMake .6116 (BM25 .5112, 1.196; TF-IDF .4386, 1.394), Django .7243 (LSI .6984, 1.037),
-  // Sphinx .7375 (TF-IDF .7085, 1.041); without the name field .5378, .7114 and .7162 (1.052, 1.019,
+  // Measured with the defaults (nearbyTerms 80; nearbyDelta 0.5, BM25L; nearbyNameWeight 0.35, the
+  // name field both ways): CMake .6140 (BM25 .5112, 1.201; TF-IDF .4386, 1.400), Django .7341 (LSI
+  // .6984, 1.051), Sphinx .7449 (TF-IDF .7085, 1.051); with the page's 40 top words as its query
+  // .6116, .7243 and .7375 (1.196, 1.037, 1.041); without the name field as well .5378, .7114 and .7162 (1.052, 1.019,
   // 1.011); with δ 0 as well 1.012, 1.017 and 1.006 of the best baseline (README, "Ranking checks"). With the opt-in TF-IDF share (nearbyTfidfShare 0.1,
   // off by default): over the page's 40 top words (nearbyTfidfTerms) 1.032, 1.024 and 1.015, over all
   // its words 1.030, 1.027 and 1.023 (README, "Ranking checks", fourth and fifth rounds).
@@ -48,22 +49,25 @@ describe('Nearby on linked documentation (nDCG@10)', () => {
     expect(got).toBeGreaterThanOrEqual(1.15 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Django manual (258 pages, 248 linked pages as queries): ≥ 3% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
+  it('Django manual (258 pages, 248 linked pages as queries): ≥ 4.5% above the best plain baseline (LSI, TF-IDF cosine level with it)', () => {
     const fx = loadRankingFixture('django-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`django-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.03 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.045 * best(fx.baselines, 'ndcg10'));
   });
 
-  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 3% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
+  it('Sphinx manual (91 pages, 70 linked pages as queries): ≥ 4% above the best plain baseline (TF-IDF cosine and LSI, level)', () => {
     const fx = loadRankingFixture('sphinx-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
     console.log(`sphinx-doc nearby nDCG@10 ${got.toFixed(4)}`);
-    expect(got).toBeGreaterThanOrEqual(1.03 * best(fx.baselines, 'ndcg10'));
+    expect(got).toBeGreaterThanOrEqual(1.04 * best(fx.baselines, 'ndcg10'));
   });
 });
 
 describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries)', () => {
+  // Measured with the defaults (the name field at η .5 by the share of the query a name covers):
+  // .4522 (BM25 .4387, 1.031), quartiles .3479 / .5228 / .5548 / .3841 against TF-IDF's .3622 /
+  // .4882 / .3413 / .2214; without the name field .4294 (0.979 of BM25; README, "Ranking checks").
   let fx: RankingFixture;
   let got: ReturnType<typeof searchFigures>;
   beforeAll(() => {
@@ -72,20 +76,23 @@ describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries
     console.log(`rxjs-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  it('MRR@10 ≥ 15% above TF-IDF cosine and LSI; within 3% of BM25 (still below it)', () => {
+  it('MRR@10 ≥ 2% above BM25 (the best plain baseline), ≥ 25% above TF-IDF cosine and LSI', () => {
     const b = fx.baselines!.methods;
-    expect(got.mrr10).toBeGreaterThanOrEqual(1.15 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
-    expect(got.mrr10).toBeGreaterThanOrEqual(0.97 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.25 * Math.max(b.tfidf.mrr10!, b.lsi.mrr10!));
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.02 * b.bm25.mrr10!);
   });
 
-  it('no size quartile more than 10% below TF-IDF cosine (the smallest is still below it, the second level with it); the two larger ones above it', () => {
+  it('no size quartile more than 5% below TF-IDF cosine (the smallest is still below it); the three larger ones above it', () => {
     const q = fx.baselines!.methods.tfidf.mrr10ByQuartile!;
-    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.9 * q[i]!));
-    for (const i of [2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
+    got.mrr10ByQuartile.forEach((x, i) => expect(x!).toBeGreaterThanOrEqual(0.95 * q[i]!));
+    for (const i of [1, 2, 3]) expect(got.mrr10ByQuartile[i]!).toBeGreaterThanOrEqual(q[i]!);
   });
 });
 
 describe('search by description on a second codebase (lodash 4.18.1, 628 files, 627 queries)', () => {
+  // Measured with the defaults: .3851 (LSI .3561, 1.081; BM25 .3439, 1.120), quartiles .3892 /
+  // .3705 / .4100 / .3706 against TF-IDF's .4183 / .3721 / .3539 / .2567; without the name field
+  // .3585 (README, "Ranking checks").
   let fx: RankingFixture;
   let got: ReturnType<typeof searchFigures>;
   beforeAll(() => {
@@ -94,10 +101,10 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
     console.log(`lodash-src MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`);
   });
 
-  it('MRR@10 above the best plain baseline (LSI), 4% above BM25', () => {
+  it('MRR@10 ≥ 6% above the best plain baseline (LSI), ≥ 10% above BM25', () => {
     const b = fx.baselines!.methods;
-    expect(got.mrr10).toBeGreaterThanOrEqual(best(fx.baselines, 'mrr10'));
-    expect(got.mrr10).toBeGreaterThanOrEqual(1.04 * b.bm25.mrr10!);
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.06 * best(fx.baselines, 'mrr10'));
+    expect(got.mrr10).toBeGreaterThanOrEqual(1.1 * b.bm25.mrr10!);
   });
 
   it('no size quartile more than 10% below TF-IDF cosine (the two smaller ones are still below it); the two larger ones above it', () => {
@@ -107,17 +114,18 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
   });
 });
 
-describe('the opt-in name field in search (nameWeight 0.5; nameField.ts)', () => {
+describe('the name field in search without its coverage guard (nameCoverage 0; nameField.ts)', () => {
   // Measured: rxjs .4672 (BM25 .4387, 1.065), quartiles .3796 / .5285 / .5831 / .3786; lodash .3944
   // (LSI .3561, 1.108; BM25 .3439, 1.147), quartiles .3724 / .3897 / .4161 / .3995 (README, "Ranking
-  // checks", sixth round). Off by default for the demo's questions worded unlike their answers.
+  // checks", sixth round). Not the default: a name holding one word of a question outranks the
+  // answer (three of the demo's questions left the top 3 with every file's name in).
   const run = (name: string): { fx: RankingFixture; got: ReturnType<typeof searchFigures> } => {
     const fx = loadRankingFixture(name);
     const index = buildFixtureIndex(fx);
-    index.ranking = { ...DEFAULT_RANKING_OPTIONS, nameWeight: 0.5 };
+    index.ranking = { ...DEFAULT_RANKING_OPTIONS, nameWeight: 0.5, nameCoverage: 0 };
     const got = searchFigures(index, fx);
     console.log(
-      `${name} with the name field MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`,
+      `${name} with the plain name field MRR@10 ${got.mrr10.toFixed(4)} by size quartile ${got.mrr10ByQuartile.map((x) => x?.toFixed(4)).join(' ')}`,
     );
     return { fx, got };
   };

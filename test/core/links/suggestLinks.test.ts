@@ -13,6 +13,7 @@ import {
   explainSimilarity,
   LINKS_WORD_MATCH_DELTA,
   LINKS_WORD_MATCH_NAMES,
+  LINKS_WORD_MATCH_TERMS,
   LINKS_WORD_MATCH_TFIDF,
   spaceShare,
   suggestAllLinks,
@@ -69,16 +70,17 @@ describe('suggestLinks', () => {
     );
   });
 
-  it("ranks with classic BM25 in the word match (δ 0, no TF-IDF share, no name field, where the threshold was calibrated), not Nearby's", () => {
+  it("ranks with classic BM25 in the word match (δ 0, no TF-IDF share, no name field, 40 top words, where the threshold was calibrated), not Nearby's", () => {
     expect(LINKS_WORD_MATCH_DELTA).toBe(0);
     expect(LINKS_WORD_MATCH_TFIDF).toBe(0);
     expect(LINKS_WORD_MATCH_NAMES).toBe(0);
+    expect(LINKS_WORD_MATCH_TERMS).toBe(40);
     expect(DEFAULT_RANKING_OPTIONS.nearbyDelta).toBeGreaterThan(0);
     let differ = 0;
     for (const key of index.paths()) {
       const filter = (p: string): boolean => p !== key && graph.notes.has(p) && !graph.linked(key, p);
       const got = unlinkedNeighbours(index, graph, key, 5);
-      const classic = index.nearby(key, { top: 5, filter, wordMatchDelta: 0, wordMatchTfidf: 0, wordMatchNames: 0 });
+      const classic = index.nearby(key, { top: 5, filter, wordMatchDelta: 0, wordMatchTfidf: 0, wordMatchNames: 0, wordMatchTerms: 40 });
       expect(got.map((h) => [h.path, h.score])).toEqual(classic.map((h) => [h.path, h.score]));
       if (index.nearby(key, { top: 5, filter }).some((h, i) => h.score !== classic[i]?.score)) differ++;
     }

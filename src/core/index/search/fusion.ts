@@ -28,7 +28,8 @@
  *   Nearby's word match takes BM25L's form (nearbyDelta, Lv & Zhai 2011), which keeps a long file's
  *   matches from sinking towards zero; the link suggestions keep classic BM25 (δ 0, suggestLinks.ts).
  * - Name field (nameField.ts): the words of a file's path, scored by BM25 over the names alone and
- *   added to the word match (search, opt-in: the query against the names, nameWeight; Nearby: the page's
+ *   added to the word match (search: the query against code files' names, by the share of the query
+ *   a name covers, nameWeight and nameCoverage; Nearby: the page's
  *   top words against the others' names and the page's own name words against the others' text,
  *   nearbyNameWeight); the link suggestions keep theirs without it (suggestLinks.ts).
  * - Query-word focus (termFocus.ts): in the concept fold of a search, a word weighs by how tightly
@@ -43,7 +44,13 @@ import type { DocTerms } from '../../counting/termCounts.js';
 export interface RankingOptions {
   /** Share of the lexical part in nearby scores, 0…1 (0 = concept cosine only). @default 0.5 */
   nearbyLexical: number;
-  /** Most distinctive terms of a file that form its lexical query. @default 40 */
+  /**
+   * Most distinctive terms of a file that form its lexical query (Nearby, and a liked file's part
+   * of a search). 25–50 is common practice for "more like this" queries; chosen among 20, 40, 60,
+   * 80, 100, 120, 160, 240 and all of the page's terms by leaving one manual out: every fold picks
+   * 60 or 80 and gains on the manual left out; 80 has the best worst share (README, "Ranking
+   * checks", seventh round). The link suggestions keep 40 (suggestLinks.ts). @default 80
+   */
   nearbyTerms: number;
   /** First-pass files whose mean concept vector is added to a query (0 = no feedback). @default 5 */
   feedbackDocs: number;
@@ -134,15 +141,22 @@ export interface RankingOptions {
    */
   nearbyTfidfFromConcept: boolean;
   /**
-   * Search: weight η of the name field (nameField.ts: the words of a file's path, scored by BM25
-   * over the names alone): word match = BM25/max + η·names/max. 0 = the body alone. Chosen (η .5)
-   * by every leave-one-collection-out fold (ties on the collections it leaves alone broken by the
-   * next worst share) among 0, .25, .5 and 1: rxjs MRR@10 +8.8%, lodash +10%, the four abstract
-   * collections unchanged (their files have no names). Off by default: it takes three of the demo's
-   * questions worded differently from their answer out of the top 3 (4th–5th; the answers' names do
-   * not hold the question's words, other files' names do; README, "Ranking checks", sixth round). @default 0
+   * Search: weight η of the name field (nameField.ts: the words of a code file's path, scored by
+   * BM25 over the names alone, times the share of the query the name covers to the power
+   * nameCoverage): word match = BM25/max + η·c^p·names/max. 0 = the body alone. Plain (p 0, every
+   * file's name) η .5 gained on both code collections (rxjs +8.8%, lodash +10%) but took three of
+   * the demo's questions out of the top 3. With the two guards (code files' names, coverage) the
+   * configurations that keep every demo question in its place were compared leaving one code
+   * collection out; each fold gains on the one left out, and η .5, p 1 has the best worst share
+   * (README, "Ranking checks", seventh round). The four abstract collections do not move (their
+   * files' names are numbers). @default 0.5
    */
   nameWeight: number;
+  /**
+   * Search: the power p of the share c of the query (idf-weighted) a file's name covers, by which
+   * its name score counts (0 = the plain score). @default 1
+   */
+  nameCoverage: number;
   /**
    * Nearby: weight η of the name field in both directions: the page's top words against the other
    * files' names, and the page's own name words against the other files' text (BM25L, δ as the
@@ -155,7 +169,7 @@ export interface RankingOptions {
 
 export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyLexical: 0.5,
-  nearbyTerms: 40,
+  nearbyTerms: 80,
   feedbackDocs: 5,
   feedbackWeight: 0.25,
   likeWeight: 0.75,
@@ -173,7 +187,8 @@ export const DEFAULT_RANKING_OPTIONS: Readonly<RankingOptions> = Object.freeze({
   nearbyTfidfShare: 0,
   nearbyTfidfTerms: 40,
   nearbyTfidfFromConcept: false,
-  nameWeight: 0,
+  nameWeight: 0.5,
+  nameCoverage: 1,
   nearbyNameWeight: 0.35,
 });
 

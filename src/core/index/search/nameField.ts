@@ -12,13 +12,25 @@
  * Numbers (all digits) are not names and are left out, and so is the extension (every file of a
  * kind shares it). No data beyond the paths: the field is made from them when first needed.
  * Defaults k1 = 1.2, b = 0.75 (BM25's common practice, bm25.ts).
+ * In search, two guards keep a name from outweighing the text (fusion.ts, nameWeight): a name's
+ * score counts by the share of the query it covers (the idf-weighted share of the query's words the
+ * name holds: one word of a long question counts little, most of a short query a lot; the
+ * coordination factor of early ranking formulas, Salton & Buckley 1988), and only code files' names
+ * count (their extension names a programming language), as a code file is named after what it
+ * declares, while a page's name is a title that may share a word with a question it does not answer.
  */
 import type { DocTerms } from '../../counting/termCounts.js';
 import { asciiWordTokens, isAsciiWord } from '../../text/asciiWord.js';
 import type { Language } from '../../text/languages.js';
 import type { TokenizeOptions } from '../../text/tokenize.js';
 import { tokenizeIn } from '../../text/tokenizeLanguage.js';
+import { codeLanguageOf } from '../../sections/splitSections.js';
 import { DEFAULT_BM25_OPTIONS, type Bm25Options } from './bm25.js';
+
+/** Whether a path's name counts in search: a code file's (its extension names a programming language). */
+export function declaringName(path: string): boolean {
+  return codeLanguageOf(path) !== undefined;
+}
 
 /** The text of a path's name words: folders and the file name without its extension, separated by spaces. */
 export function pathNameText(path: string): string {
@@ -82,6 +94,8 @@ export class PathNameTokens {
 export class NameField {
   private readonly _opts: Bm25Options;
   private readonly _names: (DocTerms | null)[] = [];
+  /** Per slot: whether its name counts in search (declaringName). */
+  private readonly _declares: boolean[] = [];
   private readonly _postings = new Map<number, number[]>();
   private _total = 0;
   private _n = 0;
@@ -91,9 +105,11 @@ export class NameField {
     this._opts = { ...DEFAULT_BM25_OPTIONS, ...options };
   }
 
-  /** Sets (or with null clears) a slot's name terms. */
-  set(slot: number, names: DocTerms | null): void {
+  /** Sets (or with null clears) a slot's name terms; `declares`: whether the name counts in search (declaringName). */
+  set(slot: number, names: DocTerms | null, declares = true): void {
     while (this._names.length <= slot) this._names.push(null);
+    while (this._declares.length <= slot) this._declares.push(false);
+    this._declares[slot] = names !== null && declares;
     const old = this._names[slot];
     if (old) {
       this._n--;
@@ -148,6 +164,44 @@ export class NameField {
         if (j !== exclude && j < out.length) out[j] += idf * this.saturated(list[p + 1], j, delta);
       }
     }
+  }
+
+  /**
+   * Search's form of the field: each slot's score of the query (scoreInto, δ 0) divided by the best
+   * (returned; the best among the slots whose names count), times c^power, c the weight(i)-weighted
+   * share of the query's terms the slot's name holds; slots whose names do not count in search
+   * (declaringName) get 0. Written into out (overwritten).
+   */
+  searchScoresInto(query: DocTerms, weight: (i: number) => number, power: number, out: Float64Array): number {
+    out.fill(0);
+    this.scoreInto(query, out);
+    let max = 0;
+    for (let j = 0; j < out.length; j++) {
+      if (out[j] > 0 && !this._declares[j]) out[j] = 0;
+      max = Math.max(max, out[j]);
+    }
+    if (max <= 0) return 0;
+    for (let j = 0; j < out.length; j++) out[j] /= max;
+    if (power > 0) {
+      let total = 0;
+      for (let i = 0; i < query.termIds.length; i++) total += weight(i);
+      for (let j = 0; j < out.length; j++) if (out[j] > 0) out[j] *= Math.pow(this.coverage(query, weight, j, total), power);
+    }
+    return max;
+  }
+
+  /** The weight(i)-weighted share of the query's terms a slot's name holds (0…1; `total` is the weights' sum). */
+  coverage(query: DocTerms, weight: (i: number) => number, slot: number, total: number): number {
+    const names = this._names[slot];
+    if (!names || !(total > 0)) return 0;
+    let held = 0;
+    for (let i = 0; i < query.termIds.length; i++) if (countIn(names, query.termIds[i]) > 0) held += weight(i);
+    return Math.min(1, held / total);
+  }
+
+  /** Whether a slot's name counts in search (declaringName). */
+  declares(slot: number): boolean {
+    return this._declares[slot] ?? false;
   }
 
   /** One query term's part of a slot's name score (for explanations), as scoreInto adds it. */

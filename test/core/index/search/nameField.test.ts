@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { countTerms, Vocabulary, type DocTerms } from '../../../../src/core/counting/termCounts.js';
-import { NameField, pathNameText } from '../../../../src/core/index/search/nameField.js';
+import { declaringName, NameField, pathNameText } from '../../../../src/core/index/search/nameField.js';
 import { tokenize } from '../../../../src/core/text/tokenize.js';
 import { loadRankingFixture } from '../../../helpers/rankingChecks.js';
 import { bm25OverFields } from '../../../helpers/bm25Fields.js';
@@ -79,5 +79,42 @@ describe('NameField', () => {
     }
     expect(edited.namesOf(0)).toBe(now[0]);
     expect(edited.namesOf(7)).toBeNull();
+  });
+});
+
+describe('the name field in search (searchScoresInto: code files only, by the share of the query a name covers)', () => {
+  it('tells code files by their extension', () => {
+    expect(declaringName('internal/operators/switchMap.ts')).toBe(true);
+    expect(declaringName('src/ticketing/refundService.TS')).toBe(true);
+    expect(declaringName('lib/util.py')).toBe(true);
+    expect(declaringName('notes/maintenance/meeting-fleet-engineering.md')).toBe(false);
+    expect(declaringName('config/maintenance-intervals.yaml')).toBe(false);
+    expect(declaringName('1033')).toBe(false);
+  });
+
+  it('is BM25 over the code files’ names divided by the best, times the covered share of the query (written out), 0 for the others', () => {
+    const field = new NameField();
+    // Every third file taken as a page (not code): its name scores 0 and does not set the best.
+    names.forEach((d, j) => field.set(j, d, j % 3 !== 0));
+    const weight = (q: DocTerms) => (i: number) => q.counts[i] * (1 + (q.termIds[i] % 5));
+    let covered = 0;
+    for (const q of queries) {
+      const ref = reference(names, q, 0).map((x, j) => (j % 3 !== 0 ? x : 0));
+      const max = Math.max(...ref);
+      const w = weight(q);
+      const total = Array.from(q.termIds, (_, i) => w(i)).reduce((a, x) => a + x, 0);
+      for (const power of [0, 1, 2]) {
+        const out = new Float64Array(names.length);
+        expect(field.searchScoresInto(q, w, power, out)).toBeCloseTo(max, 12);
+        names.forEach((d, j) => {
+          const held = Array.from(q.termIds, (t, i) => (d.termIds.includes(t) ? w(i) : 0)).reduce((a, x) => a + x, 0);
+          const c = total > 0 ? held / total : 0;
+          expect(out[j]).toBeCloseTo(max > 0 ? (ref[j] / max) * (power > 0 ? c ** power : 1) : 0, 12);
+          if (power === 1 && out[j] > 0 && c < 1) covered++;
+        });
+      }
+    }
+    // Names covering part of a query were scaled down (the comparisons are not all whole or zero).
+    expect(covered).toBeGreaterThan(20);
   });
 });
