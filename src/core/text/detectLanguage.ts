@@ -93,17 +93,23 @@ const FENCE = /^\s*(```|~~~)/;
 const INLINE_CODE = /`[^`\n]*`/g;
 const NON_ASCII = /[\u0080-\uffff]/;
 
+/** Adds a word's share to the scores (its candidates: the profile's entry, or undefined); true once the sample is complete. */
+type Scorer = (langs: readonly Language[] | undefined) => boolean;
+
+/** A scorer over `out` that stops at sampleWords words. */
+function scorer(out: Map<Language, number>, sampleWords: number): Scorer {
+  let words = 0;
+  return (langs) => {
+    if (langs !== undefined) for (const lang of langs) out.set(lang, (out.get(lang) ?? 0) + 1 / langs.length);
+    return ++words >= sampleWords;
+  };
+}
+
 /** Stop-word scores per candidate in the first `sampleWords` words of the prose. */
 function hits(text: string, candidates: readonly Language[], sampleWords: number): Map<Language, number> {
   const p = profile(candidates);
   const out = new Map<Language, number>();
-  let words = 0;
-  // Scores one word; true once the sample is complete.
-  const count = (word: string): boolean => {
-    const langs = p.get(word);
-    if (langs !== undefined) for (const lang of langs) out.set(lang, (out.get(lang) ?? 0) + 1 / langs.length);
-    return ++words >= sampleWords;
-  };
+  const count = scorer(out, sampleWords);
   let inFence = false;
   // Line by line as text.split('\n') gives them, but only as far as the sample goes (most files
   // reach sampleWords in their first few kilobytes).
@@ -119,7 +125,7 @@ function hits(text: string, candidates: readonly Language[], sampleWords: number
     if (inFence) continue;
     const prose = line.includes('`') ? line.replace(INLINE_CODE, ' ') : line;
     if (NON_ASCII.test(prose)) {
-      for (const m of prose.normalize('NFC').toLowerCase().matchAll(WORD)) if (count(m[0])) return out;
+      for (const m of prose.normalize('NFC').toLowerCase().matchAll(WORD)) if (count(p.get(m[0]))) return out;
       continue;
     }
     // ASCII: NFC changes nothing and the letters (\p{L}) are a–z once lower-cased; the same words
@@ -133,8 +139,106 @@ function hits(text: string, candidates: readonly Language[], sampleWords: number
       }
       let j = i + 1;
       while (j < low.length && (c = low.charCodeAt(j)) >= 97 && c <= 122) j++;
-      if (count(low.slice(i, j))) return out;
+      if (count(p.get(low.slice(i, j)))) return out;
       i = j;
+    }
+  }
+  return out;
+}
+
+/**
+ * The profile's words of letters a–z as a trie over the letters: child of node m by letter l at
+ * next[26m + l] (plus one; 0: none), and the node's entry of the profile at entry[m] (plus one).
+ * Words with other characters cannot be a run of a–z, so an ASCII text never meets them.
+ */
+interface LetterTrie {
+  readonly next: Int32Array;
+  readonly entry: Int32Array;
+  readonly lists: readonly (readonly Language[])[];
+}
+
+const tries = new Map<string, LetterTrie>();
+
+function letterTrie(candidates: readonly Language[]): LetterTrie {
+  const key = candidates.join(',');
+  let t = tries.get(key);
+  if (t === undefined) {
+    const words = [...profile(candidates)].filter(([w]) => /^[a-z]+$/.test(w));
+    let nodes = 1;
+    for (const [w] of words) nodes += w.length;
+    const next = new Int32Array(26 * nodes);
+    const entry = new Int32Array(nodes);
+    const lists: Language[][] = [];
+    let used = 1;
+    for (const [w, langs] of words) {
+      let m = 0;
+      for (let i = 0; i < w.length; i++) {
+        const at = 26 * m + w.charCodeAt(i) - 97;
+        if (next[at] === 0) next[at] = ++used;
+        m = next[at] - 1;
+      }
+      lists.push(langs);
+      entry[m] = lists.length;
+    }
+    t = { next: next.subarray(0, 26 * used), entry: entry.subarray(0, used), lists };
+    tries.set(key, t);
+  }
+  return t;
+}
+
+/** True when line u[from, to) opens or closes a fence (FENCE on an ASCII line). */
+function fenceAt(u: Uint8Array, from: number, to: number): boolean {
+  let i = from;
+  // \s on ASCII: space, \t, \n, \v, \f, \r.
+  while (i < to && (u[i] === 32 || (u[i] >= 9 && u[i] <= 13))) i++;
+  if (i + 3 > to) return false;
+  const c = u[i];
+  return (c === 96 || c === 126) && u[i + 1] === c && u[i + 2] === c;
+}
+
+/**
+ * hits() of ASCII bytes (every byte below 0x80), read in place: the same lines, fences, inline
+ * code and words (runs of a–z once A–Z are lowered), each looked up by walking the letter trie
+ * instead of as a string.
+ */
+function asciiHits(u: Uint8Array, candidates: readonly Language[], sampleWords: number): Map<Language, number> {
+  const { next, entry, lists } = letterTrie(candidates);
+  const out = new Map<Language, number>();
+  const count = scorer(out, sampleWords);
+  const n = u.length;
+  let inFence = false;
+  for (let start = 0; start <= n;) {
+    let end = u.indexOf(10, start);
+    if (end < 0) end = n;
+    const from = start;
+    start = end + 1;
+    if (fenceAt(u, from, end)) {
+      inFence = !inFence;
+      continue;
+    }
+    if (inFence) continue;
+    for (let i = from; i < end;) {
+      let c = u[i];
+      if (c === 96) {
+        // Inline code: up to the next backtick of the line, if any (INLINE_CODE's matches, left to right).
+        const close = u.indexOf(96, i + 1);
+        i = close >= 0 && close < end ? close + 1 : i + 1;
+        continue;
+      }
+      if (c >= 65 && c <= 90) c += 32;
+      if (c < 97 || c > 122) {
+        i++;
+        continue;
+      }
+      // The word's node in the trie (-1 once it leaves it).
+      let m = next[c - 97] - 1;
+      for (i++; i < end; i++) {
+        c = u[i];
+        if (c >= 65 && c <= 90) c += 32;
+        if (c < 97 || c > 122) break;
+        if (m >= 0) m = next[26 * m + c - 97] - 1;
+      }
+      if (count(m > 0 && entry[m] > 0 ? lists[entry[m] - 1] : undefined)) return out;
     }
   }
   return out;
@@ -173,12 +277,31 @@ export function fileLanguage(
   setting: LanguageSetting | undefined,
   options: Partial<DetectOptions> = {},
 ): Language {
+  return languageOf(path, setting, options, (candidates, sampleWords) => hits(text, candidates, sampleWords));
+}
+
+/** fileLanguage() of a text given as its bytes, every one of them ASCII (below 0x80), without decoding it. */
+export function fileLanguageAscii(
+  path: string,
+  bytes: Uint8Array,
+  setting: LanguageSetting | undefined,
+  options: Partial<DetectOptions> = {},
+): Language {
+  return languageOf(path, setting, options, (candidates, sampleWords) => asciiHits(bytes, candidates, sampleWords));
+}
+
+function languageOf(
+  path: string,
+  setting: LanguageSetting | undefined,
+  options: Partial<DetectOptions>,
+  score: (candidates: readonly Language[], sampleWords: number) => Map<Language, number>,
+): Language {
   const candidates = candidateLanguages(setting);
   if (candidates.length === 1 && candidates[0] === 'en') return 'en';
   if (!isProsePath(path)) return 'en';
   if (candidates.length === 1) return candidates[0];
   const o = { ...DEFAULT_DETECT_OPTIONS, ...options };
-  const h = hits(text, candidates, o.sampleWords);
+  const h = score(candidates, o.sampleWords);
   const [best, first, second] = ranked(h);
   if (best !== undefined && first >= o.minHits && first >= o.margin * second) return best;
   // A partly translated page or a note quoting English: the other language, when it is clear of
