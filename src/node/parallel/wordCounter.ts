@@ -15,7 +15,7 @@
  * test/node/parallel/wordCounter.test.ts checks the equality with tokenize + countTerms.
  */
 import { STOP_WORDS } from '../../core/text/stopWords.js';
-import { DEFAULT_TOKENIZE_OPTIONS, tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
+import { DEFAULT_TOKENIZE_OPTIONS, tokenize, wordTokens, type TokenizeOptions } from '../../core/text/tokenize.js';
 import { allDigits, keepToken, lowerInto, MAX_TOKEN_LENGTH, partBounds, skipsWord } from '../../core/text/asciiWord.js';
 import { porterStem } from '../../core/text/porterFast.js';
 import { fileLanguage, fileLanguageAscii, isProsePath } from '../../core/text/detectLanguage.js';
@@ -87,6 +87,7 @@ export class WordCounter {
   private bounds = new Int32Array(64);
   private lower = new Uint16Array(64);
   private readonly resolved: Readonly<TokenizeOptions>;
+  private readonly scratchTokens: string[] = [];
 
   constructor(private readonly options: Partial<TokenizeOptions>) {
     this.resolved = { ...DEFAULT_TOKENIZE_OPTIONS, ...options };
@@ -374,7 +375,15 @@ export class WordCounter {
       if (!STOP_WORDS.has(t)) this.found1(this.add(t));
       return;
     }
-    for (const t of tokenize(unitsToString(u, start, end), this.options)) this.found1(this.add(t));
+    // The units are normalised as tokenize() normalises (textUnits.ts) and the word is one whole
+    // match of its word pattern: its steps 3–5 alone give the same tokens (checked, in case
+    // normalising it again would change it).
+    const word = unitsToString(u, start, end);
+    const tokens = this.scratchTokens;
+    tokens.length = 0;
+    if (word.normalize('NFKD') === word) wordTokens(word, this.resolved, tokens);
+    else for (const t of tokenize(word, this.options)) tokens.push(t);
+    for (const t of tokens) this.found1(this.add(t));
   }
 
   /** The terms of an ASCII word (tokenize's steps 3–5, as asciiWordTokens) into `found`. */
