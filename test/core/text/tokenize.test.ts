@@ -56,9 +56,12 @@ describe('tokenize', () => {
   it('wordTokens gives a normalised word the tokens tokenize gives it, for every option', () => {
     // Words of mixed scripts and forms (invented): identifiers, accents already stripped,
     // kana and Han beside Latin letters, digits, hex runs, astral letters.
-    const text =
+    const text = (
       'retryBudget HTTPServer x86_64 数据结构Linux内核 使用kmalloc2次 Muller ΣύστημαAPI deadbeef42 0xFF ' +
-      'ÄrgerXMLHttpRequest 𝒳value ﬁle sample_rate_Hz 中文 ab$cd'.normalize('NFKD').replace(/\p{M}/gu, '');
+      'ÄrgerXMLHttpRequest 𝒳value ﬁle sample_rate_Hz 中文 ab$cd'
+    )
+      .normalize('NFKD')
+      .replace(/\p{M}/gu, '');
     for (const stem of [true, false])
       for (const keepCompounds of [true, false]) {
         const opts = { ...DEFAULT_TOKENIZE_OPTIONS, stem, keepCompounds };
