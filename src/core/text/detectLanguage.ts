@@ -147,43 +147,60 @@ function hits(text: string, candidates: readonly Language[], sampleWords: number
 }
 
 /**
- * The profile's words of letters a–z as a trie over the letters: child of node m by letter l at
- * next[26m + l] (plus one; 0: none), and the node's entry of the profile at entry[m] (plus one).
- * Words with other characters cannot be a run of a–z, so an ASCII text never meets them.
+ * The profile's words of letters a–z in a small open-addressing hash table (FNV-1a over the
+ * letters; common practice): slot → the word's number + 1 (0: empty). Each word has its letters,
+ * its candidates as numbers (positions in `candidates`) and 1 / their count. Words with other
+ * characters cannot be a run of a–z, so an ASCII text never meets them.
  */
-interface LetterTrie {
-  readonly next: Int32Array;
-  readonly entry: Int32Array;
-  readonly lists: readonly (readonly Language[])[];
+interface LetterTable {
+  readonly slots: Int32Array;
+  readonly words: readonly string[];
+  readonly langs: readonly Int32Array[];
+  readonly share: Float64Array;
 }
 
-const tries = new Map<string, LetterTrie>();
+const FNV_OFFSET = 0x811c9dc5 | 0;
+const FNV_PRIME = 0x01000193;
+const tables = new Map<string, LetterTable>();
 
-function letterTrie(candidates: readonly Language[]): LetterTrie {
+function letterTable(candidates: readonly Language[]): LetterTable {
   const key = candidates.join(',');
-  let t = tries.get(key);
+  let t = tables.get(key);
   if (t === undefined) {
-    const words = [...profile(candidates)].filter(([w]) => /^[a-z]+$/.test(w));
-    let nodes = 1;
-    for (const [w] of words) nodes += w.length;
-    const next = new Int32Array(26 * nodes);
-    const entry = new Int32Array(nodes);
-    const lists: Language[][] = [];
-    let used = 1;
-    for (const [w, langs] of words) {
-      let m = 0;
-      for (let i = 0; i < w.length; i++) {
-        const at = 26 * m + w.charCodeAt(i) - 97;
-        if (next[at] === 0) next[at] = ++used;
-        m = next[at] - 1;
-      }
-      lists.push(langs);
-      entry[m] = lists.length;
-    }
-    t = { next: next.subarray(0, 26 * used), entry: entry.subarray(0, used), lists };
-    tries.set(key, t);
+    const entries = [...profile(candidates)].filter(([w]) => /^[a-z]+$/.test(w));
+    let size = 16;
+    while (size < 4 * entries.length) size *= 2;
+    const slots = new Int32Array(size);
+    entries.forEach(([w], e) => {
+      let h = FNV_OFFSET;
+      for (let i = 0; i < w.length; i++) h = Math.imul(h ^ w.charCodeAt(i), FNV_PRIME);
+      let s = h & (size - 1);
+      while (slots[s] !== 0) s = (s + 1) & (size - 1);
+      slots[s] = e + 1;
+    });
+    t = {
+      slots,
+      words: entries.map(([w]) => w),
+      langs: entries.map(([, l]) => Int32Array.from(l, (x) => candidates.indexOf(x))),
+      share: Float64Array.from(entries, ([, l]) => 1 / l.length),
+    };
+    tables.set(key, t);
   }
   return t;
+}
+
+/** The word number of the lowercase letters of u[from, to) (hash h), or -1. */
+function findWord(t: LetterTable, u: Uint8Array, from: number, to: number, h: number): number {
+  const mask = t.slots.length - 1;
+  for (let s = h & mask; ; s = (s + 1) & mask) {
+    const e = t.slots[s] - 1;
+    if (e < 0) return -1;
+    const w = t.words[e];
+    if (w.length !== to - from) continue;
+    let i = 0;
+    while (i < w.length && w.charCodeAt(i) === (u[from + i] | 0x20)) i++;
+    if (i === w.length) return e;
+  }
 }
 
 /** True when line u[from, to) opens or closes a fence (FENCE on an ASCII line). */
@@ -198,18 +215,20 @@ function fenceAt(u: Uint8Array, from: number, to: number): boolean {
 
 /**
  * hits() of ASCII bytes (every byte below 0x80), read in place: the same lines, fences, inline
- * code and words (runs of a–z once A–Z are lowered), each looked up by walking the letter trie
- * instead of as a string.
+ * code and words (runs of a–z once A–Z are lowered), each looked up by its hash instead of as a
+ * string. The scores are summed per candidate in the order hits() adds them, and the map is
+ * filled in the order hits() first sets each language, so both give the same map.
  */
 function asciiHits(u: Uint8Array, candidates: readonly Language[], sampleWords: number): Map<Language, number> {
-  const { next, entry, lists } = letterTrie(candidates);
-  const out = new Map<Language, number>();
-  const count = scorer(out, sampleWords);
+  const t = letterTable(candidates);
+  const score = new Float64Array(candidates.length);
+  const order: number[] = [];
   const n = u.length;
+  let words = 0;
   let inFence = false;
-  for (let start = 0; start <= n;) {
-    let end = u.indexOf(10, start);
-    if (end < 0) end = n;
+  scan: for (let start = 0; start <= n;) {
+    let end = start;
+    while (end < n && u[end] !== 10) end++;
     const from = start;
     start = end + 1;
     if (fenceAt(u, from, end)) {
@@ -221,8 +240,9 @@ function asciiHits(u: Uint8Array, candidates: readonly Language[], sampleWords: 
       let c = u[i];
       if (c === 96) {
         // Inline code: up to the next backtick of the line, if any (INLINE_CODE's matches, left to right).
-        const close = u.indexOf(96, i + 1);
-        i = close >= 0 && close < end ? close + 1 : i + 1;
+        let close = i + 1;
+        while (close < end && u[close] !== 96) close++;
+        i = close < end ? close + 1 : i + 1;
         continue;
       }
       if (c >= 65 && c <= 90) c += 32;
@@ -230,18 +250,26 @@ function asciiHits(u: Uint8Array, candidates: readonly Language[], sampleWords: 
         i++;
         continue;
       }
-      // The word's node in the trie (-1 once it leaves it).
-      let m = next[c - 97] - 1;
+      const w = i;
+      let h = Math.imul(FNV_OFFSET ^ c, FNV_PRIME);
       for (i++; i < end; i++) {
         c = u[i];
         if (c >= 65 && c <= 90) c += 32;
         if (c < 97 || c > 122) break;
-        if (m >= 0) m = next[26 * m + c - 97] - 1;
+        h = Math.imul(h ^ c, FNV_PRIME);
       }
-      if (count(m > 0 && entry[m] > 0 ? lists[entry[m] - 1] : undefined)) return out;
+      const e = findWord(t, u, w, i, h);
+      if (e >= 0) {
+        const langs = t.langs[e];
+        for (let j = 0; j < langs.length; j++) {
+          if (score[langs[j]] === 0) order.push(langs[j]);
+          score[langs[j]] += t.share[e];
+        }
+      }
+      if (++words >= sampleWords) break scan;
     }
   }
-  return out;
+  return new Map(order.map((l) => [candidates[l], score[l]]));
 }
 
 function ranked(h: Map<Language, number>): [Language | undefined, number, number] {

@@ -84,6 +84,11 @@ describe('detectLanguage, the sample', () => {
           fileLanguage('page.txt', text, 'auto', { sampleWords }),
         );
       }
+    // Tied scores: with margin 1 the language that scored first wins, in both readings.
+    for (const text of ['nicht nous', 'nous nicht', 'niet nicht', 'kernel nicht niet']) {
+      const o = { minHits: 1, margin: 1 };
+      expect(fileLanguageAscii('page.txt', Buffer.from(text), 'auto', o), text).toBe(fileLanguage('page.txt', text, 'auto', o));
+    }
     expect(fileLanguageAscii('src/a.py', Buffer.from(german), 'auto')).toBe('en');
     expect(fileLanguageAscii('notes/a.md', Buffer.from(german), 'auto')).toBe('de');
   });
