@@ -80,24 +80,29 @@ export function tokenize(text: string, options: Partial<TokenizeOptions> = {}): 
   const opts = { ...DEFAULT_TOKENIZE_OPTIONS, ...options };
   const out: string[] = [];
   const normalised = text.normalize('NFKD').replace(MARKS, '');
+  for (const m of normalised.matchAll(WORD)) wordTokens(m[0], opts, out);
+  return out;
+}
+
+/**
+ * Steps 3–5 for one word of step 2 (a whole match of WORD in normalised text, no marks), its
+ * tokens appended to out: tokenize() of such a word without normalising and matching it again.
+ */
+export function wordTokens(word: string, opts: Readonly<TokenizeOptions>, out: string[]): void {
+  if (HEX_LITERAL.test(word) || HEXISH.test(word.toLowerCase())) return;
   const emit = (raw: string): void => {
     const t = raw.toLowerCase();
     if (!keep(t)) return;
     out.push(opts.stem ? stemWord(t) : t);
   };
-  for (const m of normalised.matchAll(WORD)) {
-    const word = m[0];
-    if (HEX_LITERAL.test(word) || HEXISH.test(word.toLowerCase())) continue;
-    const parts = splitIdentifier(word);
-    if (parts.length === 1 && parts[0] === word) {
-      emit(word);
-      continue;
-    }
-    for (const p of parts) emit(p);
-    if (opts.keepCompounds && parts.length > 1) {
-      const compound = parts.join('');
-      if (compound.length <= MAX_TOKEN_LENGTH && !/^\p{N}+$/u.test(compound)) emit(compound);
-    }
+  const parts = splitIdentifier(word);
+  if (parts.length === 1 && parts[0] === word) {
+    emit(word);
+    return;
   }
-  return out;
+  for (const p of parts) emit(p);
+  if (opts.keepCompounds && parts.length > 1) {
+    const compound = parts.join('');
+    if (compound.length <= MAX_TOKEN_LENGTH && !/^\p{N}+$/u.test(compound)) emit(compound);
+  }
 }

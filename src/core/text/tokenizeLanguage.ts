@@ -28,33 +28,49 @@ function stripMarks(s: string): string {
   return s.normalize('NFKD').replace(MARKS, '');
 }
 
+/**
+ * Each word's terms, per language and options: a word's terms depend on nothing else, so a
+ * repeated word costs one look-up instead of the normalisation, identifier split and stop-word
+ * checks (cleared past STEM_CACHE_LIMIT words, as the stems).
+ */
+const languageWords = new Map<string, Map<string, readonly string[]>>();
+const NO_TERMS: readonly string[] = [];
+
 /** tokenizeIn() for a language other than English (see the header). */
 function tokenizeOther(language: Exclude<Language, 'en'>, text: string, opts: TokenizeOptions): string[] {
-  const kit = languageKit(language);
-  let cache = languageStems.get(language);
-  if (cache === undefined) languageStems.set(language, (cache = new Map()));
+  const key = `${language} ${opts.stem} ${opts.keepCompounds}`;
+  let words = languageWords.get(key);
+  if (words === undefined) languageWords.set(key, (words = new Map()));
   const out: string[] = [];
   for (const m of text.normalize('NFC').matchAll(WORD_WITH_MARKS)) {
-    const plain = stripMarks(m[0]);
-    if (!LETTERS.test(plain) || splitIdentifier(plain).length !== 1) {
-      for (const t of tokenize(plain, opts)) out.push(t);
-      continue;
+    let terms = words.get(m[0]);
+    if (terms === undefined) {
+      terms = wordTerms(language, m[0], opts);
+      if (words.size >= STEM_CACHE_LIMIT) words.clear();
+      words.set(m[0], terms);
     }
-    const lower = m[0].toLowerCase();
-    const bare = plain.toLowerCase();
-    if (bare.length <= 1 || bare.length > MAX_TOKEN_LENGTH || kit.stop.has(lower) || kit.stop.has(bare)) continue;
-    if (!opts.stem) {
-      out.push(bare);
-      continue;
-    }
-    let stem = cache.get(lower);
-    if (stem === undefined) {
-      stem = stripMarks(kit.stem(lower));
-      if (stem.length === 0) stem = bare;
-      if (cache.size >= STEM_CACHE_LIMIT) cache.clear();
-      cache.set(lower, stem);
-    }
-    out.push(stem);
+    for (const t of terms) out.push(t);
   }
   return out;
+}
+
+/** The terms of one word (a match of WORD_WITH_MARKS in NFC text) in `language`. */
+function wordTerms(language: Exclude<Language, 'en'>, word: string, opts: TokenizeOptions): readonly string[] {
+  const plain = stripMarks(word);
+  if (!LETTERS.test(plain) || splitIdentifier(plain).length !== 1) return tokenize(plain, opts);
+  const kit = languageKit(language);
+  const lower = word.toLowerCase();
+  const bare = plain.toLowerCase();
+  if (bare.length <= 1 || bare.length > MAX_TOKEN_LENGTH || kit.stop.has(lower) || kit.stop.has(bare)) return NO_TERMS;
+  if (!opts.stem) return [bare];
+  let cache = languageStems.get(language);
+  if (cache === undefined) languageStems.set(language, (cache = new Map()));
+  let stem = cache.get(lower);
+  if (stem === undefined) {
+    stem = stripMarks(kit.stem(lower));
+    if (stem.length === 0) stem = bare;
+    if (cache.size >= STEM_CACHE_LIMIT) cache.clear();
+    cache.set(lower, stem);
+  }
+  return [stem];
 }

@@ -15,10 +15,10 @@
  * test/node/parallel/wordCounter.test.ts checks the equality with tokenize + countTerms.
  */
 import { STOP_WORDS } from '../../core/text/stopWords.js';
-import { DEFAULT_TOKENIZE_OPTIONS, tokenize, type TokenizeOptions } from '../../core/text/tokenize.js';
+import { DEFAULT_TOKENIZE_OPTIONS, tokenize, wordTokens, type TokenizeOptions } from '../../core/text/tokenize.js';
 import { allDigits, keepToken, lowerInto, MAX_TOKEN_LENGTH, partBounds, skipsWord } from '../../core/text/asciiWord.js';
 import { porterStem } from '../../core/text/porterFast.js';
-import { fileLanguage, isProsePath } from '../../core/text/detectLanguage.js';
+import { fileLanguage, fileLanguageAscii, isProsePath } from '../../core/text/detectLanguage.js';
 import type { Language } from '../../core/text/languages.js';
 import { tokenizeIn } from '../../core/text/tokenizeLanguage.js';
 import { sortedTermIds } from './termOrder.js';
@@ -87,6 +87,7 @@ export class WordCounter {
   private bounds = new Int32Array(64);
   private lower = new Uint16Array(64);
   private readonly resolved: Readonly<TokenizeOptions>;
+  private readonly scratchTokens: string[] = [];
 
   constructor(private readonly options: Partial<TokenizeOptions>) {
     this.resolved = { ...DEFAULT_TOKENIZE_OPTIONS, ...options };
@@ -126,7 +127,10 @@ export class WordCounter {
 
   /** packText() of text whose UTF-8 bytes are all ASCII, without decoding it. */
   packAscii(bytes: Uint8Array, path?: string): PackedFile {
-    if (path !== undefined && this.multilingual && isProsePath(path)) return this.packText(asciiString(bytes), path);
+    if (path !== undefined && this.multilingual && isProsePath(path)) {
+      const language = fileLanguageAscii(path, bytes, this.resolved.languages);
+      if (language !== 'en') return this.packIn(asciiString(bytes), language);
+    }
     this.text.loadAscii(bytes);
     return this.finish(this.scanLoaded());
   }
@@ -214,13 +218,26 @@ export class WordCounter {
     return out;
   }
 
+  /** A packed file's counts in fresh arrays, ids ascending, and its place in the pack freed. */
   private copyOut(p: PackedFile): LocalCounts {
-    const out = { ids: this.packIds.slice(p.at, p.at + p.terms), counts: this.packCounts.slice(p.at, p.at + p.terms), length: p.length };
+    const ids = this.packIds.slice(p.at, p.at + p.terms).sort();
+    const counts = new Int32Array(p.terms);
+    // The ids are distinct: through the (cleared) tally, each id's count lands at its sorted place.
+    const tally = this.tally;
+    for (let i = 0; i < p.terms; i++) tally[this.packIds[p.at + i]] = this.packCounts[p.at + i];
+    for (let i = 0; i < p.terms; i++) {
+      counts[i] = tally[ids[i]];
+      tally[ids[i]] = 0;
+    }
     this.packUsed = p.at;
-    return out;
+    return { ids, counts, length: p.length };
   }
 
-  /** Moves the tallied counts into the pack (or the section pack), ids ascending, and clears the tally. */
+  /**
+   * Moves the tallied counts into the pack (or the section pack), ids in the order the text first
+   * used them (whoever reads a pack sorts each run by its final ids: translateRun; copyOut sorts
+   * by local id), and clears the tally.
+   */
   private finish(length: number, section = false): PackedFile {
     const n = this.nTouched;
     const at = section ? this.sectionUsed : this.packUsed;
@@ -231,13 +248,15 @@ export class WordCounter {
       this.packIds = grow32(this.packIds, at + n);
       this.packCounts = grow32(this.packCounts, at + n);
     }
-    const ids = (section ? this.sectionIds : this.packIds).subarray(at, at + n);
-    ids.set(this.touched.subarray(0, n));
-    ids.sort();
+    const ids = section ? this.sectionIds : this.packIds;
     const counts = section ? this.sectionCounts : this.packCounts;
+    const touched = this.touched;
+    const tally = this.tally;
     for (let i = 0; i < n; i++) {
-      counts[at + i] = this.tally[ids[i]];
-      this.tally[ids[i]] = 0;
+      const id = touched[i];
+      ids[at + i] = id;
+      counts[at + i] = tally[id];
+      tally[id] = 0;
     }
     this.nTouched = 0;
     if (section) this.sectionUsed = at + n;
@@ -339,7 +358,7 @@ export class WordCounter {
       const at = this.multiUsed;
       if (at + 1 + this.nFound > this.multi.length) this.multi = grow32(this.multi, at + 1 + this.nFound);
       this.multi[at] = this.nFound;
-      this.multi.set(this.found.subarray(0, this.nFound), at + 1);
+      for (let j = 0; j < this.nFound; j++) this.multi[at + 1 + j] = this.found[j];
       this.multiUsed = at + 1 + this.nFound;
       value = -2 - at;
     }
@@ -356,7 +375,15 @@ export class WordCounter {
       if (!STOP_WORDS.has(t)) this.found1(this.add(t));
       return;
     }
-    for (const t of tokenize(unitsToString(u, start, end), this.options)) this.found1(this.add(t));
+    // The units are normalised as tokenize() normalises (textUnits.ts) and the word is one whole
+    // match of its word pattern: its steps 3–5 alone give the same tokens (checked, in case
+    // normalising it again would change it).
+    const word = unitsToString(u, start, end);
+    const tokens = this.scratchTokens;
+    tokens.length = 0;
+    if (word.normalize('NFKD') === word) wordTokens(word, this.resolved, tokens);
+    else for (const t of tokenize(word, this.options)) tokens.push(t);
+    for (const t of tokens) this.found1(this.add(t));
   }
 
   /** The terms of an ASCII word (tokenize's steps 3–5, as asciiWordTokens) into `found`. */

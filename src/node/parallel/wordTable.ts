@@ -62,11 +62,17 @@ export class WordTable {
     if (3 * e + 3 > this.rec.length) this.rec = grow32(this.rec, 3 * e + 3);
     const len = end - start;
     if (this.used + len > this.units.length) {
-      const grown = mappedUint16(Math.max(this.used + len, this.units.length * 2));
-      grown.set(this.units.subarray(0, this.used));
-      this.units = grown;
+      const n = Math.max(this.used + len, this.units.length * 2);
+      const room = this.units.buffer.byteLength >> 1;
+      if (room >= n) this.units = new Uint16Array(this.units.buffer, 0, Math.min(room, 2 * n));
+      else {
+        const grown = mappedUint16(n);
+        grown.set(this.units.subarray(0, this.used));
+        this.units = grown;
+      }
     }
-    this.units.set(src.subarray(start, end), this.used);
+    const units = this.units;
+    for (let i = 0, at = this.used; i < len; i++) units[at + i] = src[start + i];
     this.rec[3 * e] = this.used;
     this.rec[3 * e + 1] = len;
     this.rec[3 * e + 2] = value;
@@ -99,8 +105,15 @@ export class WordTable {
   }
 }
 
+/**
+ * a with room for at least `atLeast` elements (twice its length at least). An array in a mapping
+ * of its own (mappedInt32) usually has room past its end: it is lengthened in place, with no
+ * copy and no new buffer (each new buffer of 32 MiB would also press the collector to run).
+ */
 export function grow32(a: Int32Array<ArrayBuffer>, atLeast: number): Int32Array<ArrayBuffer> {
-  const b = mappedInt32(Math.max(atLeast, a.length * 2));
+  const n = Math.max(atLeast, a.length * 2);
+  if (a.byteOffset === 0 && a.buffer.byteLength >= 4 * n) return new Int32Array(a.buffer, 0, Math.min(a.buffer.byteLength >> 2, 2 * n));
+  const b = mappedInt32(n);
   b.set(a);
   return b;
 }

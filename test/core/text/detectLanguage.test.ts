@@ -1,7 +1,14 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { candidateLanguages, detectLanguage, fileLanguage, isProsePath, queryLanguage } from '../../../src/core/text/detectLanguage.js';
+import {
+  candidateLanguages,
+  detectLanguage,
+  fileLanguage,
+  fileLanguageAscii,
+  isProsePath,
+  queryLanguage,
+} from '../../../src/core/text/detectLanguage.js';
 import { LANGUAGES } from '../../../src/core/text/languages.js';
 import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 
@@ -50,6 +57,40 @@ describe('detectLanguage, the sample', () => {
         expect(fileLanguage('page.txt', marked, 'auto'), lang).toBe(fileLanguage('page.txt', page, 'auto'));
       }
     }
+  });
+
+  it('reads ASCII bytes in place as it reads their text', () => {
+    // The translated pages with every non-ASCII character dropped (ASCII text, still in the
+    // page's language), with "\r\n" line ends, upper case, and fences and inline code added.
+    const ascii = (t: string): string => t.replace(/[^\t\n\r -~]/g, '');
+    const german = 'Und der Die das IST nicht mit sich auf dem '.repeat(8);
+    const texts = [
+      ...['de', 'fr', 'es', 'nl', 'sv'].flatMap((lang) => pages(lang).slice(0, 12).map(ascii)),
+      ...loadCollection('cran')
+        .docs.slice(0, 20)
+        .map((d) => ascii(d.text)),
+      ...pages('fr')
+        .slice(0, 6)
+        .map((t) => ascii(t).replace(/\n/g, '\r\n').toUpperCase()),
+      `\`\`\`\n${german}\n  \`\`\`\n${german}`,
+      ` \t~~~x\n${german}\n~~~\nthe and of to in is that \`${german}\` it was for\n\`\`\``,
+      `unclosed \`inline und der die\nthe \`a\` of \`\`to\` in\`is that`,
+      '',
+    ];
+    for (const text of texts)
+      for (const sampleWords of [7, 40, 600]) {
+        const bytes = Buffer.from(text, 'latin1');
+        expect(fileLanguageAscii('page.txt', bytes, 'auto', { sampleWords }), text.slice(0, 40)).toBe(
+          fileLanguage('page.txt', text, 'auto', { sampleWords }),
+        );
+      }
+    // Tied scores: with margin 1 the language that scored first wins, in both readings.
+    for (const text of ['nicht nous', 'nous nicht', 'niet nicht', 'kernel nicht niet']) {
+      const o = { minHits: 1, margin: 1 };
+      expect(fileLanguageAscii('page.txt', Buffer.from(text), 'auto', o), text).toBe(fileLanguage('page.txt', text, 'auto', o));
+    }
+    expect(fileLanguageAscii('src/a.py', Buffer.from(german), 'auto')).toBe('en');
+    expect(fileLanguageAscii('notes/a.md', Buffer.from(german), 'auto')).toBe('de');
   });
 
   it('stops at sampleWords, and leaves out fenced blocks and inline code', () => {

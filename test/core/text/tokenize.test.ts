@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { splitIdentifier, stemWord, tokenize } from '../../../src/core/text/tokenize.js';
+import { DEFAULT_TOKENIZE_OPTIONS, splitIdentifier, stemWord, tokenize, wordTokens } from '../../../src/core/text/tokenize.js';
 
 describe('tokenize', () => {
   it('splits camelCase, PascalCase, acronyms, snake_case, kebab-case and letter/digit boundaries', () => {
@@ -51,6 +51,26 @@ describe('tokenize', () => {
     ];
     for (const [word, stem] of cases) expect(stemWord(word)).toBe(stem);
     expect(tokenize('Indexing indexed indexes')).toEqual(['index', 'index', 'index']);
+  });
+
+  it('wordTokens gives a normalised word the tokens tokenize gives it, for every option', () => {
+    // Words of mixed scripts and forms (invented): identifiers, accents already stripped,
+    // kana and Han beside Latin letters, digits, hex runs, astral letters.
+    const text = (
+      'retryBudget HTTPServer x86_64 数据结构Linux内核 使用kmalloc2次 Muller ΣύστημαAPI deadbeef42 0xFF ' +
+      'ÄrgerXMLHttpRequest 𝒳value ﬁle sample_rate_Hz 中文 ab$cd'
+    )
+      .normalize('NFKD')
+      .replace(/\p{M}/gu, '');
+    for (const stem of [true, false])
+      for (const keepCompounds of [true, false]) {
+        const opts = { ...DEFAULT_TOKENIZE_OPTIONS, stem, keepCompounds };
+        for (const [word] of text.matchAll(/[\p{L}\p{N}_$]+/gu)) {
+          const out: string[] = [];
+          wordTokens(word, opts, out);
+          expect(out, word).toEqual(tokenize(word, opts));
+        }
+      }
   });
 
   it('gives the same tokens for the same text (memoised stems do not change results)', () => {

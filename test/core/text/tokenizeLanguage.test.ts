@@ -35,4 +35,23 @@ describe('tokenizeIn', () => {
   it('honours stem: false', () => {
     expect(tokenizeIn('Die Häuser', { stem: false }, 'de')).toEqual(['hauser']);
   });
+
+  it('gives a word the same terms every time, whatever options came before (words are remembered per language and options)', () => {
+    const de = languageKit('de');
+    const text = 'Häuser retryBudget Häuser';
+    const stemmed = [de.stem('häuser'), ...tokenize('retryBudget'), de.stem('häuser')];
+    expect(tokenizeIn(text, {}, 'de')).toEqual(stemmed);
+    expect(tokenizeIn(text, { stem: false }, 'de')).toEqual(['hauser', 'retry', 'budget', 'retrybudget', 'hauser']);
+    expect(tokenizeIn(text, { keepCompounds: false }, 'de')).toEqual([
+      de.stem('häuser'),
+      ...tokenize('retryBudget', { keepCompounds: false }),
+      de.stem('häuser'),
+    ]);
+    expect(tokenizeIn(text, {}, 'de')).toEqual(stemmed);
+    expect(tokenizeIn(text, {}, 'nl')).toEqual([
+      languageKit('nl').stem('häuser').normalize('NFKD').replace(/\p{M}/gu, ''),
+      ...tokenize('retryBudget'),
+      languageKit('nl').stem('häuser').normalize('NFKD').replace(/\p{M}/gu, ''),
+    ]);
+  });
 });

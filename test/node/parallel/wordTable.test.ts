@@ -96,4 +96,23 @@ describe.runIf(process.platform === 'linux')('mappedInt32 / mappedUint16', () =>
     expect(a[99_999]).toBe(0);
     expect(a.buffer.byteLength).toBeGreaterThan(GLIBC_MMAP_THRESHOLD_MAX);
   });
+
+  it('grow32 lengthens a mapped array in its own buffer while it has room, then moves it to a bigger one', () => {
+    let a = mappedInt32(100_000);
+    for (let i = 0; i < a.length; i++) a[i] = i + 1;
+    const buffer = a.buffer;
+    a = grow32(a, 150_000);
+    expect(a.buffer).toBe(buffer);
+    expect(a.length).toBeGreaterThanOrEqual(200_000);
+    expect(a[99_999]).toBe(100_000);
+    expect(a[100_000]).toBe(0);
+    expect(a[a.length - 1]).toBe(0);
+    const room = buffer.byteLength / 4;
+    a = grow32(a, room + 1);
+    expect(a.buffer).not.toBe(buffer);
+    expect(a.length).toBeGreaterThanOrEqual(room + 1);
+    expect(a[0]).toBe(1);
+    expect(a[99_999]).toBe(100_000);
+    expect(a[room]).toBe(0);
+  });
 });

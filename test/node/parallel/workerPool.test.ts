@@ -46,6 +46,15 @@ const bagOf = (vocab: Vocabulary, ids: Int32Array, counts: Float32Array): Map<st
   new Map(Array.from(ids, (id, i) => [vocab.termOf(id), counts[i]]));
 
 describe('worker pool', () => {
+  it('bounds each worker’s young generation below V8’s default (48 MB on 64-bit systems, from memory)', () => {
+    const p = WorkerPool.start({ threads: 2, workerScript })!;
+    try {
+      for (const w of p.workers) expect(w.resourceLimits?.maxYoungGenerationSizeMb).toBeLessThan(48);
+    } finally {
+      void p.close();
+    }
+  });
+
   it('starts no threads when one thread is asked for', () => {
     expect(WorkerPool.start({ threads: 1, workerScript })).toBeUndefined();
   });
