@@ -17,7 +17,7 @@
  * --no-current leaves out the reference's current configuration.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { closeSync, existsSync, mkdtempSync, openSync, readFileSync, readSync, rmSync, writeFileSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { ChildResult } from '../benchChild.js';
@@ -104,6 +104,23 @@ export async function runCompare(): Promise<void> {
   return runCommandCompare();
 }
 
+/**
+ * The Node flags a build of the command starts with when installed: those its #! line names
+ * (`#!/usr/bin/env -S node --flag…`), so `node <flags> cli.js` runs it as `undertone` does.
+ */
+function nodeFlagsOf(cli: string): string[] {
+  const fd = openSync(cli, 'r');
+  try {
+    const head = Buffer.alloc(256);
+    const n = readSync(fd, head, 0, head.length, 0);
+    const first = head.subarray(0, n).toString('utf8').split('\n')[0];
+    const m = /^#!\s*\/usr\/bin\/env\s+(?:-S\s+)?node(?:\s+(.*))?$/.exec(first);
+    return m?.[1] ? m[1].trim().split(/\s+/) : [];
+  } finally {
+    closeSync(fd);
+  }
+}
+
 /** One process measured by /usr/bin/time -v: wall clock, CPU (user + system), peak RSS, and the load when it ended. */
 interface Timed {
   wall: number;
@@ -164,7 +181,7 @@ function runCommandCompare(): void {
       const paths = list.stdout.split('\n').filter((p) => p !== '');
       writeFileSync(join(dir, 'paths.txt'), paths.map((p) => join(folder, p)).join('\n') + '\n');
       const refArgs = (extra: string[]): string[] => [REFERENCE, 'pipeline', '--files', join(dir, 'paths.txt'), '--k', String(k), ...extra];
-      const ourArgs = (path: string): string[] => [path, 'index', folder, '--k', String(k), '--rebuild', '--json'];
+      const ourArgs = (path: string): string[] => [...nodeFlagsOf(path), path, 'index', folder, '--k', String(k), '--rebuild', '--json'];
       const sides: Side[] = [
         { label: `undertone index --k ${k} --rebuild`, runs: [] },
         { label: 'reference, fastest (in memory, letters-first)', runs: [] },
