@@ -21,7 +21,7 @@
  * hands decodeIndexWithRows a way to read them (ByteSpill, as the lists' spill reads its codes).
  */
 import { CorruptIndexError } from '../../errors.js';
-import { checksum32 } from './checksum.js';
+import { Checksum32, checksum32 } from './checksum.js';
 import type { ConceptModel } from '../model/conceptModel.js';
 import {
   align8,
@@ -46,8 +46,13 @@ import type { ByteSpill } from '../../sections/types.js';
  * 5: the section lists too (trained centroids, each section's list, the 8-bit codes in slot
  * order: ../../sections/savedLists.ts), so a reopen does not train them again; format 4 still opens
  * (its lists are trained at the first ranking that needs them, as before).
+ * 6: format 5's layout, and the header holds a second checksum, headChecksum, of the payload before
+ * the section vectors (the part a reopen reads into memory), so a reader can trust that part as
+ * soon as it is read and check the rest (the rows and the codes, most of a large tree's file)
+ * afterwards, before any of it is used (src/node/persistCheck.ts). Formats 4 and 5 still open
+ * (their whole payload is checked before the index is used, as before).
  */
-export const INDEX_FORMAT_VERSION = 5;
+export const INDEX_FORMAT_VERSION = 6;
 const MAGIC = 'UNDTNIDX';
 /** Bytes before the JSON header: magic, header length, header checksum. */
 export const INDEX_PREAMBLE_BYTES = 16;
@@ -109,8 +114,10 @@ export interface IndexFilePlan {
   readonly start: number;
   readonly payloadBytes: number;
   pieces(): Iterable<Uint8Array>;
-  /** Magic, header (with this payload checksum), header checksum and padding. */
-  head(payloadChecksum: number): Uint8Array;
+  /** Payload bytes before the section vectors: the part headChecksum covers (format 6). */
+  readonly headBytes: number;
+  /** Magic, header (with these payload checksums), header checksum and padding. */
+  head(payloadChecksum: number, headChecksum: number): Uint8Array;
 }
 
 const ZEROS = new Uint8Array(8);
@@ -186,12 +193,14 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
     sections: table,
     payloadBytes: offset,
     checksum: 0xffffffff, // the widest value: room for the real one, padded with spaces
+    headChecksum: 0xffffffff,
   };
   const reserved = encoder.encode(JSON.stringify(header)).length;
   const start = align8(INDEX_PREAMBLE_BYTES + reserved);
   return {
     start,
     payloadBytes: offset,
+    headBytes: headBytesOf(header),
     pieces: function* () {
       let at = 0;
       for (const [i, sec] of sections.entries()) {
@@ -206,9 +215,9 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
         at = end;
       }
     },
-    head: (payloadChecksum) => {
+    head: (payloadChecksum, headChecksum) => {
       const out = new Uint8Array(start);
-      sealHeader(out, { ...header, checksum: payloadChecksum }, reserved);
+      sealHeader(out, { ...header, checksum: payloadChecksum, headChecksum }, reserved);
       return out;
     },
   };
@@ -223,8 +232,17 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     out.set(p, at);
     at += p.length;
   }
-  out.set(plan.head(checksum32(out.subarray(plan.start))), 0);
+  const payload = out.subarray(plan.start);
+  out.set(plan.head(checksum32(payload), checksum32(payload.subarray(0, plan.headBytes))), 0);
   return out;
+}
+
+/**
+ * Payload bytes before the section vectors (format 6's headChecksum covers them): where the
+ * vectors' section starts in the payload.
+ */
+export function headBytesOf(header: Pick<CheckedHeader, 'sections'>): number {
+  return header.sections.find((s) => s.name === 'sectionVectors')?.offset ?? 0;
 }
 
 /** The four section-table entries of the files' sections, in the order of `live`. */
@@ -279,6 +297,8 @@ function sealHeader(out: Uint8Array, header: Header, reserved: number): void {
  */
 export function sealIndexFile(header: Header, payload: Uint8Array): Uint8Array {
   const h = { ...header, checksum: checksum32(payload) };
+  if (h.formatVersion >= 6) h.headChecksum = checksum32(payload.subarray(0, Math.min(payload.length, headBytesOf(h))));
+  else delete h.headChecksum;
   const reserved = encoder.encode(JSON.stringify(h)).length;
   const start = align8(INDEX_PREAMBLE_BYTES + reserved);
   const out = new Uint8Array(start + payload.length);
@@ -339,7 +359,12 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   if (bytes.length !== start + header.payloadBytes)
     throw new CorruptIndexError(`index file is ${bytes.length} bytes, expected ${start + header.payloadBytes} (truncated or padded)`);
   const payload = bytes.subarray(start);
-  if (checksum32(payload) !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+  // One pass: the part before the section vectors (its own checksum from format 6 on), then the rest.
+  const sum = new Checksum32().update(payload.subarray(0, headBytesOf(header)));
+  if (header.headChecksum !== undefined && sum.digest() !== header.headChecksum)
+    throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+  if (sum.update(payload.subarray(headBytesOf(header))).digest() !== header.checksum)
+    throw new CorruptIndexError('index payload fails its checksum (damaged file)');
   return decodeChecked(header, payload, undefined);
 }
 
