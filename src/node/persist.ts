@@ -382,7 +382,9 @@ async function readCheckedHead(
     const { header, start, size } = await openChecked(handle, path, chunk);
     const { at, rows, k } = sectionRowsOf(header, start);
     const head = new Uint8Array(new ArrayBuffer(at));
+    if (signal?.aborted) throw new CancelledError();
     if ((await readAt(handle, head, 0, at, chunk)) < at) throw new CorruptIndexError('index file is shorter than its header says');
+    if (signal?.aborted) throw new CancelledError();
     const sum = new Checksum32().update(head.subarray(start));
     const codes = sectionCodesOf(header, start);
     const tail = new TailCheck(handle, path, sum, header.checksum, { rowsAt: at, rows, k, codes, size });

@@ -93,6 +93,17 @@ describe('loadIndex with a format-6 file', () => {
     got.index.sections.closeRows();
   });
 
+  it('opens a format-5 file (no checksum of the first part) after checking all of it', async () => {
+    const file = join(dir, 'v5.undertone');
+    writeFileSync(file, sealIndexFile({ ...header, formatVersion: 5 }, payloadOf(bytes)));
+    const got = await loadIndex(file);
+    expect(got.status).toBe('ok');
+    if (got.status !== 'ok') return;
+    expect(await got.checked).toBeUndefined();
+    for (const [path, f] of got.index.sections.entries()) expect(f.vectors).toEqual(index.sections.get(path)!.vectors);
+    got.index.sections.closeRows();
+  });
+
   it('refuses damage before the rows at once (the first part has its own checksum)', async () => {
     const file = join(dir, 'head.undertone');
     const copy = bytes.slice();

@@ -98,7 +98,8 @@ const gathered = (name: string, kind: ArrayKind, length: number, parts: () => It
 
 /** The checksum of the bytes before the payload, its own four bytes (12…16) left out. */
 function headerChecksum(prefix: Uint8Array): number {
-  const copy = prefix.slice();
+  // A copy of its own (a Node Buffer's slice() is a view: filling it would change the caller's bytes).
+  const copy = new Uint8Array(prefix);
   copy.fill(0, 12, 16);
   return checksum32(copy);
 }
