@@ -382,10 +382,21 @@ async function readCheckedHead(
     const { header, start, size } = await openChecked(handle, path, chunk);
     const { at, rows, k } = sectionRowsOf(header, start);
     const head = new Uint8Array(new ArrayBuffer(at));
+    // Read and summed in turns: each chunk is summed while the next one is read (on the thread pool).
+    const sum = new Checksum32();
+    const readChunk = (from: number): Promise<number> => {
+      const len = Math.min(chunk, at - from);
+      return readAt(handle, head.subarray(from, from + len), from, len, chunk);
+    };
+    let pending = readChunk(0);
+    for (let from = 0; from < at; from += chunk) {
+      if (signal?.aborted) throw new CancelledError();
+      const len = Math.min(chunk, at - from);
+      if ((await pending) < len) throw new CorruptIndexError('index file is shorter than its header says');
+      if (from + chunk < at) pending = readChunk(from + chunk);
+      if (from + len > start) sum.update(head.subarray(Math.max(start, from), from + len));
+    }
     if (signal?.aborted) throw new CancelledError();
-    if ((await readAt(handle, head, 0, at, chunk)) < at) throw new CorruptIndexError('index file is shorter than its header says');
-    if (signal?.aborted) throw new CancelledError();
-    const sum = new Checksum32().update(head.subarray(start));
     const codes = sectionCodesOf(header, start);
     const tail = new TailCheck(handle, path, sum, header.checksum, { rowsAt: at, rows, k, codes, size });
     if (header.headChecksum !== undefined) {

@@ -267,13 +267,20 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
   const listed = saved?.count ?? 0;
   return [
     copied('sectionIndptr', indptr),
-    gathered('sectionLines', 'i32', 2 * total, () => files.flatMap((f) => (f ? [lines(f)] : []))),
+    // Generators, not lists: a reopened index's files make their arrays afresh on each access
+    // (their vectors are read from the saved file), so a list would hold every one at once (the
+    // whole tree's 1.5 GB of section rows when the editor saved a reopened index).
+    gathered('sectionLines', 'i32', 2 * total, function* () {
+      for (const f of files) if (f) yield lines(f);
+    }),
     copied('sectionTitles', encoder.encode(titles.join('\0'))),
     copied('listCentroids', saved?.centroids ?? new Float32Array(0)),
     copied('listGroups', saved?.groups ?? new Float32Array(0)),
     copied('listGroupStarts', saved?.groupStarts ?? new Int32Array(0)),
     copied('sectionList', saved?.listOf ?? new Int32Array(0)),
-    gathered('sectionVectors', 'f32', total * k, () => files.flatMap((f) => (f ? [f.vectors] : []))),
+    gathered('sectionVectors', 'f32', total * k, function* () {
+      for (const f of files) if (f) yield f.vectors;
+    }),
     { name: 'sectionCodes', kind: 'u8', length: listed * k, pieces: () => saved?.codes() ?? [] },
     { name: 'sectionCodeParams', kind: 'f64', length: 3 * listed, pieces: () => saved?.params() ?? [] },
   ];
