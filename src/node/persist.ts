@@ -31,6 +31,7 @@ import {
   readIndexHeader,
   sectionCodesOf,
   sectionRowsOf,
+  vectorsOf,
 } from '../core/index/persistence/serialize.js';
 import { openSpillBeside } from './sectionCodeFile.js';
 import { FileSectionRows } from './sectionRowFile.js';
@@ -375,26 +376,48 @@ async function readCheckedHead(
   path: string,
   chunk: number,
   signal: AbortSignal | undefined,
-): Promise<{ head: Uint8Array; rows: FileSectionRows; codes?: { codes: ByteSpill; params: ByteSpill }; size: number; tail: TailCheck }> {
+): Promise<{
+  head: Uint8Array;
+  rows: FileSectionRows;
+  codes?: { codes: ByteSpill; params: ByteSpill };
+  size: number;
+  tail: TailCheck;
+  /** The files' concept vectors (their place in head is left unread). */
+  vectors: Uint8Array;
+}> {
   const handle = await open(path, OPEN_FLAGS);
   let kept = false;
   try {
     const { header, start, size } = await openChecked(handle, path, chunk);
     const { at, rows, k } = sectionRowsOf(header, start);
     const head = new Uint8Array(new ArrayBuffer(at));
+    // The files' concept vectors go into a buffer of their own: the index copies them into its
+    // ranking rows (ConceptRows) and drops this buffer, while the head's pages for them are never
+    // touched, so they take no memory (90 MB on the Linux tree).
+    const v = vectorsOf(header, start);
+    const vectors = new Uint8Array(new ArrayBuffer(v.bytes));
+    const parts: [number, number, Uint8Array, number][] = [
+      [0, v.at, head, 0],
+      [v.at, v.at + v.bytes, vectors, v.at],
+      [v.at + v.bytes, at, head, 0],
+    ];
     // Read and summed in turns: each chunk is summed while the next one is read (on the thread pool).
+    const chunks: [number, number, Uint8Array][] = [];
+    for (const [from, to, buf, base] of parts)
+      for (let p = from; p < to; p += chunk)
+        chunks.push([p, Math.min(to, p + chunk), buf.subarray(p - base, Math.min(to, p + chunk) - base)]);
     const sum = new Checksum32();
-    const readChunk = (from: number): Promise<number> => {
-      const len = Math.min(chunk, at - from);
-      return readAt(handle, head.subarray(from, from + len), from, len, chunk);
+    const readChunk = (i: number): Promise<number> => {
+      const [from, to, into] = chunks[i];
+      return readAt(handle, into, from, to - from, chunk);
     };
-    let pending = readChunk(0);
-    for (let from = 0; from < at; from += chunk) {
+    let pending = chunks.length > 0 ? readChunk(0) : undefined;
+    for (let i = 0; i < chunks.length; i++) {
       if (signal?.aborted) throw new CancelledError();
-      const len = Math.min(chunk, at - from);
-      if ((await pending) < len) throw new CorruptIndexError('index file is shorter than its header says');
-      if (from + chunk < at) pending = readChunk(from + chunk);
-      if (from + len > start) sum.update(head.subarray(Math.max(start, from), from + len));
+      const [from, to, into] = chunks[i];
+      if ((await pending!) < to - from) throw new CorruptIndexError('index file is shorter than its header says');
+      if (i + 1 < chunks.length) pending = readChunk(i + 1);
+      if (to > start) sum.update(into.subarray(Math.max(0, start - from)));
     }
     if (signal?.aborted) throw new CancelledError();
     const codes = sectionCodesOf(header, start);
@@ -410,7 +433,7 @@ async function readCheckedHead(
     const saved = codes
       ? { codes: reader.region(codes.codesAt, codes.codesBytes), params: reader.region(codes.paramsAt, codes.paramsBytes) }
       : undefined;
-    return { head, rows: reader, codes: saved, size, tail };
+    return { head, rows: reader, codes: saved, size, tail, vectors };
   } finally {
     if (!kept) await handle.close();
   }
@@ -426,7 +449,14 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
   const chunk = Math.max(1, Math.floor(options.readChunkBytes ?? DEFAULT_LOAD_OPTIONS.readChunkBytes));
   const inFile = (options.sectionRows ?? DEFAULT_LOAD_OPTIONS.sectionRows) === 'file';
   await removeStaleTemporaries(path);
-  let read: { head: Uint8Array; rows?: FileSectionRows; codes?: { codes: ByteSpill; params: ByteSpill }; size?: number; tail?: TailCheck };
+  let read: {
+    head: Uint8Array;
+    rows?: FileSectionRows;
+    codes?: { codes: ByteSpill; params: ByteSpill };
+    size?: number;
+    tail?: TailCheck;
+    vectors?: Uint8Array;
+  };
   try {
     read = inFile ? await readCheckedHead(path, chunk, options.signal) : { head: await readChecked(path, chunk) };
   } catch (err) {
@@ -436,9 +466,9 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     if (code === 'ENOENT') return { status: 'missing' };
     return { status: 'damaged', reason: `cannot read ${path}: ${describeFsError(err)}` };
   }
-  const { head, rows, codes, size, tail } = read;
+  const { head, rows, codes, size, tail, vectors } = read;
   try {
-    const index = rows ? decodeIndexWithRows(head, rows, codes) : decodeIndex(head);
+    const index = rows ? decodeIndexWithRows(head, rows, codes, vectors) : decodeIndex(head);
     // Rows left in the file: the section lists' codes go to a scratch file beside it too.
     if (rows) index.sections.spillListsTo(openSpillBeside(dirname(resolve(path))));
     // The rows and codes not yet checked (format 6): checked in the background from now on, and

@@ -416,6 +416,7 @@ export function decodeIndexWithRows(
   head: Uint8Array,
   rows: SectionRowReader,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
+  vectors?: Uint8Array,
 ): LsiIndex {
   const header = readIndexHeader(head);
   const start = headerExtent(head);
@@ -424,7 +425,21 @@ export function decodeIndexWithRows(
   if (rows.rows !== count || rows.k !== k)
     throw new CorruptIndexError(`the section rows reader holds ${rows.rows} rows, expected ${count}`);
   if (!codes !== !sectionCodesOf(header, start)) throw new CorruptIndexError('the saved section codes were not given (a reader bug)');
-  return decodeChecked(header, head.subarray(start), rows, codes);
+  if (vectors && vectors.length !== vectorsOf(header, start).bytes)
+    throw new CorruptIndexError(
+      `the files' vectors are ${vectors.length} bytes, expected ${vectorsOf(header, start).bytes} (a reader bug)`,
+    );
+  return decodeChecked(header, head.subarray(start), rows, codes, vectors);
+}
+
+/**
+ * Where the files' concept vectors lie in the file (byte offset and length): a reader may read
+ * them into a buffer of their own and hand it to decodeIndexWithRows, leaving their place in the
+ * head unread (the index copies them and keeps only its copy).
+ */
+export function vectorsOf(header: CheckedHeader, fileStart: number): { readonly at: number; readonly bytes: number } {
+  const e = header.sections.find((s) => s.name === 'vectors')!;
+  return { at: fileStart + e.offset, bytes: 4 * e.length };
 }
 
 /** decodeIndex after the checksum: every section a view of payload, or the section rows in `rows`. */
@@ -433,6 +448,7 @@ function decodeChecked(
   payload: Uint8Array,
   rows: SectionRowReader | undefined,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
+  vectorBytes?: Uint8Array,
 ): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
@@ -477,7 +493,7 @@ function decodeChecked(
     termVectors: get('termVectors', 'f32'),
     singularValues: get('singularValues', 'f64'),
     axisScale: get('axisScale', 'f64'),
-    vectors: get('vectors', 'f32'),
+    vectors: vectorBytes ? new Float32Array(vectorBytes.buffer, vectorBytes.byteOffset, vectorBytes.length / 4) : get('vectors', 'f32'),
     k,
     sectionIndptr: get('sectionIndptr', 'i32'),
     sectionLines: get('sectionLines', 'i32'),
