@@ -7,7 +7,8 @@
  * the index path costs one small read. Temporary files left by a process that died before its
  * rename are removed on the next save or load.
  * The section vectors (most of a large tree's file) are not loaded: every byte is still checked
- * (streamed through the checksum and the unit-length check in blocks, nothing kept), then the rows
+ * (streamed through the checksum and the unit-length check in blocks, nothing kept; from format 6
+ * on, with checkRows 'later', after the load and before any of them is used: persistCheck.ts), then the rows
  * are read where they lie when a ranking needs them (sectionRowFile.ts), from a descriptor the
  * index keeps open. LoadOptions.sectionRows 'memory' reads them into memory as before. With rows
  * in the file, the section lists' saved 8-bit codes (format 5) are read where they lie too, from the
@@ -301,8 +302,16 @@ export interface LoadOptions {
   /** Stops the load between reads (loadIndex then throws CancelledError). */
   signal?: AbortSignal;
   /**
-   * Called when the check of the section rows and codes that runs after the load (format 6) finds
-   * damage, unless the index's rows were closed before (reads of rows and codes throw from then on).
+   * 'now' (the default): every byte is checked before the index is returned, as before format 6.
+   * 'later' (format 6 with rows in the file; the editor's worker): the index is returned once the
+   * part before the section rows has passed its own checksum, and the rows and codes are checked
+   * in the background; a read of a row or a code before that check has ended finishes it first,
+   * so nothing unchecked is ever used (persistCheck.ts).
+   */
+  checkRows?: 'now' | 'later';
+  /**
+   * With checkRows 'later': called when the check after the load finds damage, unless the index's
+   * rows were closed before (reads of rows and codes throw DamagedRowsError from then on).
    */
   onDamaged?: (reason: string) => void;
 }
@@ -376,6 +385,7 @@ async function readCheckedHead(
   path: string,
   chunk: number,
   signal: AbortSignal | undefined,
+  later: boolean,
 ): Promise<{
   head: Uint8Array;
   rows: FileSectionRows;
@@ -422,9 +432,9 @@ async function readCheckedHead(
     if (signal?.aborted) throw new CancelledError();
     const codes = sectionCodesOf(header, start);
     const tail = new TailCheck(handle, path, sum, header.checksum, { rowsAt: at, rows, k, codes, size });
-    if (header.headChecksum !== undefined) {
-      if (sum.digest() !== header.headChecksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
-    } else {
+    if (header.headChecksum !== undefined && sum.digest() !== header.headChecksum)
+      throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+    if (header.headChecksum === undefined || !later) {
       await tail.run(signal);
       if (tail.state === 'damaged') throw new CorruptIndexError(tail.reason!);
     }
@@ -458,7 +468,9 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     vectors?: Uint8Array;
   };
   try {
-    read = inFile ? await readCheckedHead(path, chunk, options.signal) : { head: await readChecked(path, chunk) };
+    read = inFile
+      ? await readCheckedHead(path, chunk, options.signal, options.checkRows === 'later')
+      : { head: await readChecked(path, chunk) };
   } catch (err) {
     if (err instanceof CancelledError) throw err;
     if (err instanceof CorruptIndexError || err instanceof NotAnIndexFile) return { status: 'damaged', reason: `${path}: ${err.message}` };

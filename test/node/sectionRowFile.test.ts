@@ -131,9 +131,9 @@ describe('section rows read from the saved index file', () => {
     const damaged = Buffer.from(bytes);
     damaged[at + 4 * k * 7 + 2] ^= 0x40;
     writeFileSync(join(dir, 'damaged.undertone'), damaged);
-    // Format 6: the rows are checked after the load (persistCheck.ts), before any of them is used.
+    // Format 6 with checkRows 'later': the rows are checked after the load (persistCheck.ts), before any of them is used.
     const reasonOf = async (path: string): Promise<string | undefined> => {
-      const got = await loadIndex(path);
+      const got = await loadIndex(path, { checkRows: 'later' });
       if (got.status !== 'ok') return `${got.status}: ${got.status === 'damaged' ? got.reason : ''}`;
       const reason = await got.checked;
       got.index.sections.closeRows();
