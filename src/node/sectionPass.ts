@@ -22,12 +22,8 @@ export interface SectionPassOptions {
   /** Polled during the fold (synchronous, like the SVD). */
   readonly signal?: { readonly aborted: boolean };
   readonly onProgress?: (done: number) => void;
-  /**
-   * Sections already counted by key, over the index's vocabulary ids (the tokenizing threads').
-   * The pass takes them out of the map (it is left empty) and lets each file's counts go once
-   * they are folded (foldCountedSections' consume).
-   */
-  readonly counted?: Map<string, CountedSections>;
+  /** Sections already counted by key, over the index's vocabulary ids (the tokenizing threads'). */
+  readonly counted?: ReadonlyMap<string, CountedSections>;
   /** Runs the fold's sparse products (the build's threads). */
   readonly executor?: MatrixExecutor;
 }
@@ -39,18 +35,13 @@ export async function foldFileSections(
   maxFileBytes: number,
   options: SectionPassOptions,
 ): Promise<number> {
-  // Keys and counts apart: the fold clears its entries of `counts` as it goes.
-  const keys: string[] = [];
-  const counts: (CountedSections | undefined)[] = [];
+  const ready: { key: string; sections: CountedSections }[] = [];
   const toRead: { key: string; absPath: string }[] = [];
   for (const f of files) {
     const c = options.counted?.get(f.key);
-    if (c) {
-      keys.push(f.key);
-      counts.push(c);
-    } else toRead.push(f);
+    if (c) ready.push({ key: f.key, sections: c });
+    else toRead.push(f);
   }
-  options.counted?.clear();
   // Progress: files read here first, then the fold of all (counted ones count as done at once).
   const total = files.length;
   const base = foldContextOf(index);
@@ -63,8 +54,7 @@ export async function foldFileSections(
     const got = reader.read(f.absPath, maxFileBytes);
     if (got.kind === 'bytes') {
       const text = got.ascii ? got.bytes.toString('latin1') : decodeUtf8(got.bytes);
-      keys.push(f.key);
-      counts.push(countSections(counter!, f.key, text));
+      ready.push({ key: f.key, sections: countSections(counter!, f.key, text) });
     } else index.sections.delete(f.key);
     if (i % 64 === 0) {
       await new Promise<void>((resolve) => setImmediate(resolve)); // let a cancel message in
@@ -73,14 +63,16 @@ export async function foldFileSections(
     }
   }
   options.check();
-  const ready = keys.length;
-  const folded = foldCountedSections(index.model, counts, {
-    executor: options.executor,
-    signal: options.signal,
-    consume: true,
-    onProgress: (done) => options.onProgress?.(toRead.length + Math.round((done * (total - toRead.length)) / Math.max(1, ready))),
-  });
-  keys.forEach((key, i) => index.sections.set(key, folded[i]));
+  const folded = foldCountedSections(
+    index.model,
+    ready.map((r) => r.sections),
+    {
+      executor: options.executor,
+      signal: options.signal,
+      onProgress: (done) => options.onProgress?.(toRead.length + Math.round((done * (total - toRead.length)) / Math.max(1, ready.length))),
+    },
+  );
+  ready.forEach((r, i) => index.sections.set(r.key, folded[i]));
   options.onProgress?.(total);
   return toRead.length;
 }

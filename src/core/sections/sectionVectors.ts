@@ -97,13 +97,6 @@ export interface FoldManyOptions {
   readonly chunkSections?: number;
   /** Bytes of f64 term vectors handed to the executor at once. @default PROJECTION_BLOCK_BYTES */
   readonly blockBytes?: number;
-  /**
-   * The caller gives the counts up: each file's entry of `files` is cleared (set to undefined) once
-   * its sections are in a chunk, so its counts can be collected while the fold goes on, and each
-   * file's vectors are made only when its first section is reached (on the Linux tree the counts of
-   * 1.33 M sections and their 1.5 GB of vectors were all held at once). @default false
-   */
-  readonly consume?: boolean;
 }
 
 /** Sections per sparse product in foldCountedSections (bounds its executor memory; common practice, not tuned). */
@@ -120,28 +113,10 @@ export const FOLD_CHUNK_SECTIONS = 2048;
  * mark, which it keeps to the end of the build. When U_k fits in one block it is copied once for
  * all chunks.
  */
-export function foldCountedSections(
-  model: ConceptModel,
-  files: readonly CountedSections[] | (CountedSections | undefined)[],
-  options: FoldManyOptions = {},
-): FileSections[] {
+export function foldCountedSections(model: ConceptModel, files: readonly CountedSections[], options: FoldManyOptions = {}): FileSections[] {
   const ex = options.executor ?? createWasmExecutor() ?? serialExecutor;
   const k = model.k;
-  const consume = options.consume === true;
-  const given = files as (CountedSections | undefined)[];
-  const count = files.length;
-  // Each file's result, made when its first section is reached (its counts may go after that).
-  const out: FileSections[] = new Array(count);
-  const vectors: Float32Array[] = new Array(count);
-  const open = (i: number): CountedSections => {
-    const file = given[i];
-    if (!file) throw new Error('a file of the fold was given up before it was folded (a bug)');
-    if (!out[i]) {
-      vectors[i] = new Float32Array(file.starts.length * k);
-      out[i] = { starts: file.starts, ends: file.ends, titles: file.titles, vectors: vectors[i] };
-    }
-    return file;
-  };
+  const vectors = files.map((f) => new Float32Array(f.starts.length * k));
   const scoped = <T>(fn: () => T): T => (ex.scoped ? ex.scoped(fn) : fn());
   scoped(() => {
     const { columnOf, weights, scheme, axisScale } = model;
@@ -168,10 +143,9 @@ export function foldCountedSections(
     for (;;) {
       let rows = 0;
       let p = 0;
-      while (f < count && rows < chunk) {
-        const file = open(f);
+      while (f < files.length && rows < chunk) {
+        const file = files[f];
         if (s >= file.starts.length) {
-          if (consume) given[f] = undefined;
           f++;
           s = 0;
           continue;
@@ -209,7 +183,7 @@ export function foldCountedSections(
       }
       if (rows === 0) break;
       if (options.signal?.aborted) throw new CancelledError();
-      options.onProgress?.(f, count);
+      options.onProgress?.(f, files.length);
       const matrix: CsrMatrix = {
         rows,
         cols: terms,
@@ -238,8 +212,7 @@ export function foldCountedSections(
       });
     }
   });
-  for (let i = 0; i < count; i++) if (!out[i]) open(i); // files the loop never reached (none: a guard)
-  return out;
+  return files.map((file, i) => ({ starts: file.starts, ends: file.ends, titles: file.titles, vectors: vectors[i] }));
 }
 
 /** The fold context of an index (anything with its model, vocabulary and tokenizer settings). */
