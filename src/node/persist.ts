@@ -7,7 +7,8 @@
  * the index path costs one small read. Temporary files left by a process that died before its
  * rename are removed on the next save or load.
  * The section vectors (most of a large tree's file) are not loaded: every byte is still checked
- * (streamed through the checksum and the unit-length check in blocks, nothing kept), then the rows
+ * (streamed through the checksum and the unit-length check in blocks, nothing kept; from format 6
+ * on, with checkRows 'later', after the load and before any of them is used: persistCheck.ts), then the rows
  * are read where they lie when a ranking needs them (sectionRowFile.ts), from a descriptor the
  * index keeps open. LoadOptions.sectionRows 'memory' reads them into memory as before. With rows
  * in the file, the section lists' saved 8-bit codes (format 5) are read where they lie too, from the
@@ -21,7 +22,6 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { CancelledError, CorruptIndexError, UndertoneError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { Checksum32 } from '../core/index/persistence/checksum.js';
-import { checkCodeParams, checkSectionRows } from '../core/index/persistence/indexFileCheck.js';
 import type { ByteSpill } from '../core/sections/types.js';
 import {
   decodeIndex,
@@ -32,9 +32,11 @@ import {
   readIndexHeader,
   sectionCodesOf,
   sectionRowsOf,
+  vectorsOf,
 } from '../core/index/persistence/serialize.js';
 import { openSpillBeside } from './sectionCodeFile.js';
 import { FileSectionRows } from './sectionRowFile.js';
+import { TailCheck } from './persistCheck.js';
 import type { IndexSettings } from '../core/index/model/settings.js';
 import { describeFsError } from './scanRead.js';
 
@@ -232,13 +234,22 @@ export async function saveIndex(path: string, index: LsiIndex, chunkBytes = SAVE
     const buf = new Uint8Array(Math.max(1, Math.min(chunkBytes, plan.payloadBytes)));
     let fill = 0;
     let at = plan.start;
+    let summed = 0;
+    let headSum: number | undefined = plan.headBytes === 0 ? sum.digest() : undefined;
     const flush = (): void => {
       writeAllSync(fd, buf.subarray(0, fill), at);
       at += fill;
       fill = 0;
     };
     for (const p of plan.pieces()) {
-      sum.update(p);
+      // The checksum of the part before the section vectors is taken where that part ends.
+      const cut = headSum === undefined && summed + p.length >= plan.headBytes ? plan.headBytes - summed : -1;
+      if (cut >= 0) {
+        sum.update(p.subarray(0, cut));
+        headSum = sum.digest();
+        sum.update(p.subarray(cut));
+      } else sum.update(p);
+      summed += p.length;
       if (fill + p.length > buf.length) flush();
       if (p.length >= buf.length) {
         writeAllSync(fd, p, at);
@@ -249,7 +260,7 @@ export async function saveIndex(path: string, index: LsiIndex, chunkBytes = SAVE
       }
     }
     flush();
-    writeAllSync(fd, plan.head(sum.digest()), 0);
+    writeAllSync(fd, plan.head(sum.digest(), headSum ?? sum.digest()), 0);
     size = at;
   });
   return size;
@@ -267,7 +278,16 @@ export async function trySaveIndex(path: string, index: LsiIndex): Promise<strin
 }
 
 export type LoadOutcome =
-  | { readonly status: 'ok'; readonly index: LsiIndex; readonly bytes: number }
+  | {
+      readonly status: 'ok';
+      readonly index: LsiIndex;
+      readonly bytes: number;
+      /**
+       * How the check of the section rows and codes ended (undefined: passed, else why it failed);
+       * from format 6 on it runs after the load, and every read of a row or a code waits for it.
+       */
+      readonly checked: Promise<string | undefined>;
+    }
   | { readonly status: 'missing' }
   | { readonly status: 'damaged'; readonly reason: string };
 
@@ -281,12 +301,24 @@ export interface LoadOptions {
   sectionRows: 'file' | 'memory';
   /** Stops the load between reads (loadIndex then throws CancelledError). */
   signal?: AbortSignal;
+  /**
+   * 'now' (the default): every byte is checked before the index is returned, as before format 6.
+   * 'later' (format 6 with rows in the file; the editor's worker): the index is returned once the
+   * part before the section rows has passed its own checksum, and the rows and codes are checked
+   * in the background; a read of a row or a code before that check has ended finishes it first,
+   * so nothing unchecked is ever used (persistCheck.ts).
+   */
+  checkRows?: 'now' | 'later';
+  /**
+   * With checkRows 'later': called when the check after the load finds damage, unless the index's
+   * rows were closed before (reads of rows and codes throw DamagedRowsError from then on).
+   */
+  onDamaged?: (reason: string) => void;
 }
 
 export const DEFAULT_LOAD_OPTIONS: LoadOptions = { readChunkBytes: 32 * 1024 * 1024, sectionRows: 'file' };
 
-/** Bytes of section rows checked at a time while loading (a scratch block, not kept; common practice). */
-export const ROW_CHECK_BYTES = 4 * 1024 * 1024;
+export { ROW_CHECK_BYTES } from './persistCheck.js';
 
 /** Opened without blocking (O_NONBLOCK: a FIFO does not wait for a writer); O_NOFOLLOW is not used, links to a file are fine. */
 const OPEN_FLAGS = constants.O_RDONLY | (constants.O_NONBLOCK ?? 0);
@@ -343,76 +375,75 @@ async function readChecked(path: string, chunk: number): Promise<Uint8Array> {
 
 /**
  * Reads a checked index file up to its section vectors into a buffer of its own, and checks the
- * rows after it block by block (payload checksum, unit length) without keeping them; returns that
- * head and a reader of the rows that owns the open descriptor.
+ * rows and codes after it (payload checksum, unit length, code params) without keeping them:
+ * from format 6 on, the part read is checked against its own checksum at once and the rest
+ * afterwards (the returned check, not yet started: persistCheck.ts); formats 4 and 5 check the
+ * rest before returning. Returns that head, a reader of the rows that owns the open descriptor,
+ * and the check.
  */
 async function readCheckedHead(
   path: string,
   chunk: number,
   signal: AbortSignal | undefined,
-): Promise<{ head: Uint8Array; rows: FileSectionRows; codes?: { codes: ByteSpill; params: ByteSpill }; size: number }> {
+  later: boolean,
+): Promise<{
+  head: Uint8Array;
+  rows: FileSectionRows;
+  codes?: { codes: ByteSpill; params: ByteSpill };
+  size: number;
+  tail: TailCheck;
+  /** The files' concept vectors (their place in head is left unread). */
+  vectors: Uint8Array;
+}> {
   const handle = await open(path, OPEN_FLAGS);
   let kept = false;
   try {
     const { header, start, size } = await openChecked(handle, path, chunk);
     const { at, rows, k } = sectionRowsOf(header, start);
     const head = new Uint8Array(new ArrayBuffer(at));
-    if ((await readAt(handle, head, 0, at, chunk)) < at) throw new CorruptIndexError('index file is shorter than its header says');
-    const sum = new Checksum32().update(head.subarray(start));
-    const rowBytes = 4 * k;
-    const per = Math.max(1, Math.floor(ROW_CHECK_BYTES / Math.max(1, rowBytes)));
-    const block = new Float32Array(per * Math.max(1, k));
-    const bytes = new Uint8Array(block.buffer);
-    // A row that fails its own check is reported after the checksum: damage reads as damage.
-    let badRow: unknown;
-    for (let r = 0; r < rows; r += per) {
-      if (signal?.aborted) throw new CancelledError();
-      const m = Math.min(per, rows - r);
-      const len = m * rowBytes;
-      if ((await readAt(handle, bytes, at + r * rowBytes, len, chunk)) < len)
-        throw new CorruptIndexError('index file is shorter than its header says');
-      sum.update(bytes.subarray(0, len));
-      if (badRow === undefined) {
-        try {
-          checkSectionRows(block, m, k);
-        } catch (err) {
-          badRow = err;
-        }
-      }
-    }
-    // The rest (the padding after the last row, the section lists' codes and their params) is
-    // payload too: streamed through the checksum the same way, the params checked as they pass.
-    const codes = sectionCodesOf(header, start);
-    const stream = async (from: number, to: number, check?: (block: Float64Array) => void): Promise<void> => {
-      const step = bytes.length - (bytes.length % 8); // whole f64 numbers a block
-      for (let p = from; p < to; p += step) {
-        if (signal?.aborted) throw new CancelledError();
-        const len = Math.min(step, to - p);
-        if ((await readAt(handle, bytes, p, len, chunk)) < len) throw new CorruptIndexError('index file is shorter than its header says');
-        sum.update(bytes.subarray(0, len));
-        if (check && badRow === undefined) {
-          try {
-            check(new Float64Array(block.buffer, 0, len / 8));
-          } catch (err) {
-            badRow = err;
-          }
-        }
-      }
+    // The files' concept vectors go into a buffer of their own: the index copies them into its
+    // ranking rows (ConceptRows) and drops this buffer, while the head's pages for them are never
+    // touched, so they take no memory (90 MB on the Linux tree).
+    const v = vectorsOf(header, start);
+    const vectors = new Uint8Array(new ArrayBuffer(v.bytes));
+    const parts: [number, number, Uint8Array, number][] = [
+      [0, v.at, head, 0],
+      [v.at, v.at + v.bytes, vectors, v.at],
+      [v.at + v.bytes, at, head, 0],
+    ];
+    // Read and summed in turns: each chunk is summed while the next one is read (on the thread pool).
+    const chunks: [number, number, Uint8Array][] = [];
+    for (const [from, to, buf, base] of parts)
+      for (let p = from; p < to; p += chunk)
+        chunks.push([p, Math.min(to, p + chunk), buf.subarray(p - base, Math.min(to, p + chunk) - base)]);
+    const sum = new Checksum32();
+    const readChunk = (i: number): Promise<number> => {
+      const [from, to, into] = chunks[i];
+      return readAt(handle, into, from, to - from, chunk);
     };
-    const tailAt = at + rows * rowBytes;
-    if (codes) {
-      await stream(tailAt, codes.paramsAt);
-      await stream(codes.paramsAt, codes.paramsAt + codes.paramsBytes, checkCodeParams);
-      await stream(codes.paramsAt + codes.paramsBytes, size);
-    } else await stream(tailAt, size);
-    if (sum.digest() !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
-    if (badRow !== undefined) throw badRow;
+    let pending = chunks.length > 0 ? readChunk(0) : undefined;
+    for (let i = 0; i < chunks.length; i++) {
+      if (signal?.aborted) throw new CancelledError();
+      const [from, to, into] = chunks[i];
+      if ((await pending!) < to - from) throw new CorruptIndexError('index file is shorter than its header says');
+      if (i + 1 < chunks.length) pending = readChunk(i + 1);
+      if (to > start) sum.update(into.subarray(Math.max(0, start - from)));
+    }
+    if (signal?.aborted) throw new CancelledError();
+    const codes = sectionCodesOf(header, start);
+    const tail = new TailCheck(handle, path, sum, header.checksum, { rowsAt: at, rows, k, codes, size });
+    if (header.headChecksum !== undefined && sum.digest() !== header.headChecksum)
+      throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+    if (header.headChecksum === undefined || !later) {
+      await tail.run(signal);
+      if (tail.state === 'damaged') throw new CorruptIndexError(tail.reason!);
+    }
     kept = true;
-    const reader = new FileSectionRows(handle, path, at, rows, k);
+    const reader = new FileSectionRows(handle, path, at, rows, k, tail);
     const saved = codes
       ? { codes: reader.region(codes.codesAt, codes.codesBytes), params: reader.region(codes.paramsAt, codes.paramsBytes) }
       : undefined;
-    return { head, rows: reader, codes: saved, size };
+    return { head, rows: reader, codes: saved, size, tail, vectors };
   } finally {
     if (!kept) await handle.close();
   }
@@ -428,9 +459,18 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
   const chunk = Math.max(1, Math.floor(options.readChunkBytes ?? DEFAULT_LOAD_OPTIONS.readChunkBytes));
   const inFile = (options.sectionRows ?? DEFAULT_LOAD_OPTIONS.sectionRows) === 'file';
   await removeStaleTemporaries(path);
-  let read: { head: Uint8Array; rows?: FileSectionRows; codes?: { codes: ByteSpill; params: ByteSpill }; size?: number };
+  let read: {
+    head: Uint8Array;
+    rows?: FileSectionRows;
+    codes?: { codes: ByteSpill; params: ByteSpill };
+    size?: number;
+    tail?: TailCheck;
+    vectors?: Uint8Array;
+  };
   try {
-    read = inFile ? await readCheckedHead(path, chunk, options.signal) : { head: await readChecked(path, chunk) };
+    read = inFile
+      ? await readCheckedHead(path, chunk, options.signal, options.checkRows === 'later')
+      : { head: await readChecked(path, chunk) };
   } catch (err) {
     if (err instanceof CancelledError) throw err;
     if (err instanceof CorruptIndexError || err instanceof NotAnIndexFile) return { status: 'damaged', reason: `${path}: ${err.message}` };
@@ -438,12 +478,19 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     if (code === 'ENOENT') return { status: 'missing' };
     return { status: 'damaged', reason: `cannot read ${path}: ${describeFsError(err)}` };
   }
-  const { head, rows, codes, size } = read;
+  const { head, rows, codes, size, tail, vectors } = read;
   try {
-    const index = rows ? decodeIndexWithRows(head, rows, codes) : decodeIndex(head);
+    const index = rows ? decodeIndexWithRows(head, rows, codes, vectors) : decodeIndex(head);
     // Rows left in the file: the section lists' codes go to a scratch file beside it too.
     if (rows) index.sections.spillListsTo(openSpillBeside(dirname(resolve(path))));
-    return { status: 'ok', index, bytes: size ?? head.length };
+    // The rows and codes not yet checked (format 6): checked in the background from now on, and
+    // at once by the first read of a row or a code that comes before the end (persistCheck.ts).
+    if (tail && tail.state === 'pending') {
+      tail.start();
+      if (options.onDamaged)
+        void tail.done.then((reason) => reason !== undefined && !rows!.closed && options.onDamaged!(`${path}: ${reason}`));
+    }
+    return { status: 'ok', index, bytes: size ?? head.length, checked: tail?.done ?? Promise.resolve(undefined) };
   } catch (err) {
     rows?.close();
     if (err instanceof CorruptIndexError) return { status: 'damaged', reason: `${path}: ${err.message}` };

@@ -31,6 +31,8 @@ export class FileSectionRows implements SectionRowReader {
    * @param handle an open descriptor of the index file (owned from now on: close() closes it).
    * @param path the file's path, for messages.
    * @param offset byte offset of the first row in the file.
+   * @param gate called before every read (the check of these bytes, persistCheck.ts: it finishes
+   *   the check if it has not ended and throws when the bytes are damaged); close() calls its stop.
    */
   constructor(
     private readonly handle: FileHandle,
@@ -38,6 +40,7 @@ export class FileSectionRows implements SectionRowReader {
     private readonly offset: number,
     readonly rows: number,
     readonly k: number,
+    private readonly gate?: { ensure(): void; stop(): void },
   ) {
     orphans.register(this, handle, this);
   }
@@ -49,6 +52,7 @@ export class FileSectionRows implements SectionRowReader {
   read(first: number, count: number, into: Float32Array, at = 0): void {
     if (this._closed) throw new SectionRowsClosedError();
     checkRowRange(this, first, count, into, at);
+    this.gate?.ensure();
     const rowBytes = 4 * this.k;
     const bytes = new Uint8Array(into.buffer, into.byteOffset + 4 * at, count * rowBytes);
     const position = this.offset + first * rowBytes;
@@ -76,6 +80,7 @@ export class FileSectionRows implements SectionRowReader {
       read: (into, position) => {
         if (this._closed) throw new SectionRowsClosedError();
         if (position < 0 || position + into.length > bytes) throw new SectionRowsError(`the saved section codes of ${this.path} end early`);
+        this.gate?.ensure();
         for (let done = 0; done < into.length;) {
           let got: number;
           try {
@@ -94,6 +99,7 @@ export class FileSectionRows implements SectionRowReader {
   close(): void {
     if (this._closed) return;
     this._closed = true;
+    this.gate?.stop();
     orphans.unregister(this);
     void this.handle.close().catch(() => undefined);
   }

@@ -7,6 +7,7 @@ import { IndexBuilder } from '../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../src/core/index/persistence/serialize.js';
 import { SectionLists } from '../../src/core/sections/sectionLists.js';
+import { DamagedRowsError } from '../../src/node/persistCheck.js';
 import { loadIndex, readSavedSettings, removeStaleTemporaries, SaveError, saveIndex, trySaveIndex } from '../../src/node/persist.js';
 import { numbaDocs, numbaSectionIndex } from '../helpers/numbaSections.js';
 import { loadCollection } from '../helpers/shared.js';
@@ -216,17 +217,35 @@ describe('persist: the saved section lists (format 5)', () => {
     const codes = header.sections.find((s) => s.name === 'sectionCodes')!;
     const params = header.sections.find((s) => s.name === 'sectionCodeParams')!;
     const file = join(dir, 'damaged-lists.undertone');
+    // Format 6 opens at once and checks the rows and codes afterwards: the check says why it
+    // failed, and every read of a row or a code throws from then on.
+    const damagedLater = async (reason: RegExp): Promise<void> => {
+      // By default the same damage is found before the index is returned.
+      expect(await loadIndex(file)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(reason) });
+      const got = await loadIndex(file, { checkRows: 'later' });
+      expect(got.status).toBe('ok');
+      if (got.status !== 'ok') return;
+      expect(await got.checked).toMatch(reason);
+      const [, f] = got.index.sections.entries().next().value!;
+      expect(() => f.vectors).toThrow(DamagedRowsError);
+      got.index.sections.closeRows();
+    };
     for (const at of [start + codes.offset + 7, start + params.offset + 8 * params.length - 3]) {
       const copy = bytes.slice();
       copy[at] ^= 0x10;
       writeFileSync(file, copy);
-      const got = await loadIndex(file);
-      expect(got.status).toBe('damaged');
-      if (got.status === 'damaged') expect(got.reason).toMatch(/checksum/);
+      await damagedLater(/checksum/);
+      // A format-5 file (no checksum of its own for the first part) is refused at once.
+      const v5 = sealIndexFile({ ...header, formatVersion: 5 }, payloadOf(bytes));
+      v5[at - start + (v5.length - header.payloadBytes)] ^= 0x10;
+      writeFileSync(file, v5);
+      expect(await loadIndex(file)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/checksum/) });
     }
     const payload = payloadOf(bytes).slice();
     new DataView(payload.buffer).setFloat64(params.offset + 8, -0.5, true);
     writeFileSync(file, sealIndexFile(header, payload));
+    await damagedLater(/sectionCodeParams hold a value out of range/);
+    writeFileSync(file, sealIndexFile({ ...header, formatVersion: 5 }, payload));
     const got = await loadIndex(file);
     expect(got.status).toBe('damaged');
     if (got.status === 'damaged') expect(got.reason).toMatch(/sectionCodeParams hold a value out of range/);

@@ -181,7 +181,8 @@ export class IndexService {
   async load() {
     const config = this.config();
     const t0 = performance.now();
-    const loaded = await loadIndex(config.indexFile);
+    // The section rows and codes are checked after the load, before any of them is used (persistCheck.ts).
+    const loaded = await loadIndex(config.indexFile, { checkRows: 'later' });
     const ms = performance.now() - t0;
     if (loaded.status === 'missing') return { outcome: 'missing' as const, summary: this.summary(), ms };
     if (loaded.status === 'damaged') return { outcome: 'damaged' as const, reason: loaded.reason, summary: this.summary(), ms };

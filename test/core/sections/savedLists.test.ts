@@ -51,7 +51,7 @@ describe('saved section lists', () => {
   it('are saved, and a reopened index ranks through them as the saved one does, without training', () => {
     const header = readIndexHeader(bytes);
     const len = (name: string): number => header.sections.find((s) => s.name === name)!.length;
-    expect(header.formatVersion).toBe(5);
+    expect(header.formatVersion).toBe(6);
     expect(len('sectionList')).toBe(index.sections.count);
     expect(len('sectionCodes')).toBe(index.sections.count * index.model.k);
     const train = vi.spyOn(SectionLists, 'train');

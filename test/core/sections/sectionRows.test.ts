@@ -8,7 +8,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { gunzipSync } from 'node:zlib';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { InvalidInputError } from '../../../src/core/errors.js';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import {
@@ -130,6 +130,23 @@ describe('SectionStore over stored rows', () => {
       }
   });
   const skipOdd = (p: string): boolean => p.length % 2 === 0;
+
+  it("takes a saved table's files without making their titles or lines (a reopen of the Linux tree decoded 1.33 M titles)", () => {
+    const titles = vi.spyOn(StoredFileSections.prototype, 'titles', 'get');
+    const starts = vi.spyOn(StoredFileSections.prototype, 'starts', 'get');
+    try {
+      const stored = storeOf(files);
+      expect(stored.count).toBe(files.reduce((n, [, f]) => n + f.count, 0));
+      expect(titles).not.toHaveBeenCalled();
+      expect(starts).not.toHaveBeenCalled();
+      stored.delete(files[0][0]);
+      expect(stored.count).toBe(files.reduce((n, [, f]) => n + f.count, 0) - files[0][1].count);
+      expect(starts).not.toHaveBeenCalled();
+    } finally {
+      titles.mockRestore();
+      starts.mockRestore();
+    }
+  });
 
   it('ranks as the same sections held in memory: screen, full pass, best section and section at a line', () => {
     const held = storeOf(folded);

@@ -173,7 +173,7 @@ describe('section vectors', () => {
     const end = Math.ceil((last.offset + last.length * 4) / 8) * 8;
     const old = sealIndexFile({ ...header, formatVersion: 3, sections: kept, payloadBytes: end }, payloadOf(bytes).slice(0, end));
     expect(() => decodeIndex(old)).toThrow(CorruptIndexError);
-    expect(() => decodeIndex(old)).toThrow(/format 3 is not the current format 5/);
+    expect(() => decodeIndex(old)).toThrow(/format 3 is not the current format 6/);
   });
 
   it('refuses a saved section vector that is not of unit length', () => {

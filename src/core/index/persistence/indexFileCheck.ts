@@ -71,7 +71,12 @@ export const SECTION_LAYOUT: readonly (readonly [string, ArrayKind])[] = [
 ];
 
 /** The layout of each format version still read (format 4 opens without saved lists). */
-export const LAYOUTS: Readonly<Record<number, readonly (readonly [string, ArrayKind])[]>> = { 4: SECTION_LAYOUT_4, 5: SECTION_LAYOUT };
+export const LAYOUTS: Readonly<Record<number, readonly (readonly [string, ArrayKind])[]>> = {
+  4: SECTION_LAYOUT_4,
+  5: SECTION_LAYOUT,
+  // Format 6: the same layout; the header adds headChecksum (serialize.ts).
+  6: SECTION_LAYOUT,
+};
 
 export const BYTES_PER: Record<ArrayKind, number> = { u8: 1, i32: 4, f32: 4, f64: 8 };
 export const align8 = (n: number): number => Math.ceil(n / 8) * 8;
@@ -166,6 +171,8 @@ export interface CheckedHeader {
   sections: SectionEntry[];
   payloadBytes: number;
   checksum: number;
+  /** Format 6 on: the checksum of the payload before the section vectors. */
+  headChecksum?: number;
 }
 
 /**
@@ -173,7 +180,9 @@ export interface CheckedHeader {
  * format `formatVersion`, or of an older one LAYOUTS still reads.
  */
 export function checkHeader(v: unknown, formatVersion: number): CheckedHeader {
+  const version = typeof v === 'object' && v !== null ? (v as Obj).formatVersion : undefined;
   const h = object(v, 'the header', [
+    ...(typeof version === 'number' && version >= 6 ? ['headChecksum'] : []),
     'formatVersion',
     'createdAt',
     'settings',
@@ -229,6 +238,7 @@ export function checkHeader(v: unknown, formatVersion: number): CheckedHeader {
   });
   if (h.payloadBytes !== offset) fail('payloadBytes differs from the sum of the sections');
   int(h.checksum, 'checksum', 0, 0xffffffff);
+  if (h.headChecksum !== undefined) int(h.headChecksum, 'headChecksum', 0, 0xffffffff);
   return h as unknown as CheckedHeader;
 }
 

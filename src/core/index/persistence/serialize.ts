@@ -21,7 +21,7 @@
  * hands decodeIndexWithRows a way to read them (ByteSpill, as the lists' spill reads its codes).
  */
 import { CorruptIndexError } from '../../errors.js';
-import { checksum32 } from './checksum.js';
+import { Checksum32, checksum32 } from './checksum.js';
 import type { ConceptModel } from '../model/conceptModel.js';
 import {
   align8,
@@ -46,8 +46,13 @@ import type { ByteSpill } from '../../sections/types.js';
  * 5: the section lists too (trained centroids, each section's list, the 8-bit codes in slot
  * order: ../../sections/savedLists.ts), so a reopen does not train them again; format 4 still opens
  * (its lists are trained at the first ranking that needs them, as before).
+ * 6: format 5's layout, and the header holds a second checksum, headChecksum, of the payload before
+ * the section vectors (the part a reopen reads into memory), so a reader can trust that part as
+ * soon as it is read and check the rest (the rows and the codes, most of a large tree's file)
+ * afterwards, before any of it is used (src/node/persistCheck.ts). Formats 4 and 5 still open
+ * (their whole payload is checked before the index is used, as before).
  */
-export const INDEX_FORMAT_VERSION = 5;
+export const INDEX_FORMAT_VERSION = 6;
 const MAGIC = 'UNDTNIDX';
 /** Bytes before the JSON header: magic, header length, header checksum. */
 export const INDEX_PREAMBLE_BYTES = 16;
@@ -93,7 +98,8 @@ const gathered = (name: string, kind: ArrayKind, length: number, parts: () => It
 
 /** The checksum of the bytes before the payload, its own four bytes (12…16) left out. */
 function headerChecksum(prefix: Uint8Array): number {
-  const copy = prefix.slice();
+  // A copy of its own (a Node Buffer's slice() is a view: filling it would change the caller's bytes).
+  const copy = new Uint8Array(prefix);
   copy.fill(0, 12, 16);
   return checksum32(copy);
 }
@@ -109,8 +115,10 @@ export interface IndexFilePlan {
   readonly start: number;
   readonly payloadBytes: number;
   pieces(): Iterable<Uint8Array>;
-  /** Magic, header (with this payload checksum), header checksum and padding. */
-  head(payloadChecksum: number): Uint8Array;
+  /** Payload bytes before the section vectors: the part headChecksum covers (format 6). */
+  readonly headBytes: number;
+  /** Magic, header (with these payload checksums), header checksum and padding. */
+  head(payloadChecksum: number, headChecksum: number): Uint8Array;
 }
 
 const ZEROS = new Uint8Array(8);
@@ -186,12 +194,14 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
     sections: table,
     payloadBytes: offset,
     checksum: 0xffffffff, // the widest value: room for the real one, padded with spaces
+    headChecksum: 0xffffffff,
   };
   const reserved = encoder.encode(JSON.stringify(header)).length;
   const start = align8(INDEX_PREAMBLE_BYTES + reserved);
   return {
     start,
     payloadBytes: offset,
+    headBytes: headBytesOf(header),
     pieces: function* () {
       let at = 0;
       for (const [i, sec] of sections.entries()) {
@@ -206,9 +216,9 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
         at = end;
       }
     },
-    head: (payloadChecksum) => {
+    head: (payloadChecksum, headChecksum) => {
       const out = new Uint8Array(start);
-      sealHeader(out, { ...header, checksum: payloadChecksum }, reserved);
+      sealHeader(out, { ...header, checksum: payloadChecksum, headChecksum }, reserved);
       return out;
     },
   };
@@ -223,8 +233,17 @@ export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint
     out.set(p, at);
     at += p.length;
   }
-  out.set(plan.head(checksum32(out.subarray(plan.start))), 0);
+  const payload = out.subarray(plan.start);
+  out.set(plan.head(checksum32(payload), checksum32(payload.subarray(0, plan.headBytes))), 0);
   return out;
+}
+
+/**
+ * Payload bytes before the section vectors (format 6's headChecksum covers them): where the
+ * vectors' section starts in the payload.
+ */
+export function headBytesOf(header: Pick<CheckedHeader, 'sections'>): number {
+  return header.sections.find((s) => s.name === 'sectionVectors')?.offset ?? 0;
 }
 
 /** The four section-table entries of the files' sections, in the order of `live`. */
@@ -248,13 +267,20 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
   const listed = saved?.count ?? 0;
   return [
     copied('sectionIndptr', indptr),
-    gathered('sectionLines', 'i32', 2 * total, () => files.flatMap((f) => (f ? [lines(f)] : []))),
+    // Generators, not lists: a reopened index's files make their arrays afresh on each access
+    // (their vectors are read from the saved file), so a list would hold every one at once (the
+    // whole tree's 1.5 GB of section rows when the editor saved a reopened index).
+    gathered('sectionLines', 'i32', 2 * total, function* () {
+      for (const f of files) if (f) yield lines(f);
+    }),
     copied('sectionTitles', encoder.encode(titles.join('\0'))),
     copied('listCentroids', saved?.centroids ?? new Float32Array(0)),
     copied('listGroups', saved?.groups ?? new Float32Array(0)),
     copied('listGroupStarts', saved?.groupStarts ?? new Int32Array(0)),
     copied('sectionList', saved?.listOf ?? new Int32Array(0)),
-    gathered('sectionVectors', 'f32', total * k, () => files.flatMap((f) => (f ? [f.vectors] : []))),
+    gathered('sectionVectors', 'f32', total * k, function* () {
+      for (const f of files) if (f) yield f.vectors;
+    }),
     { name: 'sectionCodes', kind: 'u8', length: listed * k, pieces: () => saved?.codes() ?? [] },
     { name: 'sectionCodeParams', kind: 'f64', length: 3 * listed, pieces: () => saved?.params() ?? [] },
   ];
@@ -279,6 +305,8 @@ function sealHeader(out: Uint8Array, header: Header, reserved: number): void {
  */
 export function sealIndexFile(header: Header, payload: Uint8Array): Uint8Array {
   const h = { ...header, checksum: checksum32(payload) };
+  if (h.formatVersion >= 6) h.headChecksum = checksum32(payload.subarray(0, Math.min(payload.length, headBytesOf(h))));
+  else delete h.headChecksum;
   const reserved = encoder.encode(JSON.stringify(h)).length;
   const start = align8(INDEX_PREAMBLE_BYTES + reserved);
   const out = new Uint8Array(start + payload.length);
@@ -339,7 +367,12 @@ export function decodeIndex(bytes: Uint8Array): LsiIndex {
   if (bytes.length !== start + header.payloadBytes)
     throw new CorruptIndexError(`index file is ${bytes.length} bytes, expected ${start + header.payloadBytes} (truncated or padded)`);
   const payload = bytes.subarray(start);
-  if (checksum32(payload) !== header.checksum) throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+  // One pass: the part before the section vectors (its own checksum from format 6 on), then the rest.
+  const sum = new Checksum32().update(payload.subarray(0, headBytesOf(header)));
+  if (header.headChecksum !== undefined && sum.digest() !== header.headChecksum)
+    throw new CorruptIndexError('index payload fails its checksum (damaged file)');
+  if (sum.update(payload.subarray(headBytesOf(header))).digest() !== header.checksum)
+    throw new CorruptIndexError('index payload fails its checksum (damaged file)');
   return decodeChecked(header, payload, undefined);
 }
 
@@ -383,6 +416,7 @@ export function decodeIndexWithRows(
   head: Uint8Array,
   rows: SectionRowReader,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
+  vectors?: Uint8Array,
 ): LsiIndex {
   const header = readIndexHeader(head);
   const start = headerExtent(head);
@@ -391,7 +425,21 @@ export function decodeIndexWithRows(
   if (rows.rows !== count || rows.k !== k)
     throw new CorruptIndexError(`the section rows reader holds ${rows.rows} rows, expected ${count}`);
   if (!codes !== !sectionCodesOf(header, start)) throw new CorruptIndexError('the saved section codes were not given (a reader bug)');
-  return decodeChecked(header, head.subarray(start), rows, codes);
+  if (vectors && vectors.length !== vectorsOf(header, start).bytes)
+    throw new CorruptIndexError(
+      `the files' vectors are ${vectors.length} bytes, expected ${vectorsOf(header, start).bytes} (a reader bug)`,
+    );
+  return decodeChecked(header, head.subarray(start), rows, codes, vectors);
+}
+
+/**
+ * Where the files' concept vectors lie in the file (byte offset and length): a reader may read
+ * them into a buffer of their own and hand it to decodeIndexWithRows, leaving their place in the
+ * head unread (the index copies them and keeps only its copy).
+ */
+export function vectorsOf(header: CheckedHeader, fileStart: number): { readonly at: number; readonly bytes: number } {
+  const e = header.sections.find((s) => s.name === 'vectors')!;
+  return { at: fileStart + e.offset, bytes: 4 * e.length };
 }
 
 /** decodeIndex after the checksum: every section a view of payload, or the section rows in `rows`. */
@@ -400,6 +448,7 @@ function decodeChecked(
   payload: Uint8Array,
   rows: SectionRowReader | undefined,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
+  vectorBytes?: Uint8Array,
 ): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
@@ -444,7 +493,7 @@ function decodeChecked(
     termVectors: get('termVectors', 'f32'),
     singularValues: get('singularValues', 'f64'),
     axisScale: get('axisScale', 'f64'),
-    vectors: get('vectors', 'f32'),
+    vectors: vectorBytes ? new Float32Array(vectorBytes.buffer, vectorBytes.byteOffset, vectorBytes.length / 4) : get('vectors', 'f32'),
     k,
     sectionIndptr: get('sectionIndptr', 'i32'),
     sectionLines: get('sectionLines', 'i32'),
