@@ -97,6 +97,9 @@ export class IndexController {
       this._host.log(`Loaded the saved index (${loaded.summary.files} files, k=${loaded.summary.k}) in ${Math.round(loaded.ms)} ms.`);
       this.setState({ kind: 'ready', summary: loaded.summary });
       this.emitChange({ folded: [], removed: [], all: true });
+      void this.rebuildIfDamaged(client).catch((err: unknown) =>
+        this._host.log(`Checking the saved index failed: ${err instanceof Error ? err.message : String(err)}`),
+      );
       await this.refresh();
       return;
     }
@@ -104,6 +107,17 @@ export class IndexController {
     this._host.log(`No usable saved index: ${reason}.`);
     if (this.settings.buildOnStartup) await this.build('initial');
     else this.setState({ kind: 'none', reason: `${reason}.` });
+  }
+
+  /**
+   * The saved index's section rows are checked after the load, in the background (format 6): when
+   * they fail that check, and the loaded index is still in use, it is built again from the files.
+   */
+  private async rebuildIfDamaged(client: WorkerClient): Promise<void> {
+    const verdict = await client.request('checkSaved', {}).catch(() => ({ damaged: false, reason: undefined }));
+    if (!verdict.damaged || this._worker?.client !== client) return;
+    this._host.log(`The saved index is damaged (${verdict.reason ?? 'its section rows fail their check'}): rebuilding.`);
+    await this.build('background');
   }
 
   /** Settings or folders changed: tell the worker, then rebuild or refresh as needed. */

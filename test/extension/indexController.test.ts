@@ -158,6 +158,29 @@ describe('IndexController', () => {
     expect(host.lines).toContain('Indexing cancelled; the previous index stays in use.');
   });
 
+  it('builds again in the background when the section rows checked after a load are damaged', async () => {
+    const saved = fakeHost();
+    await make(saved).start(); // the saved index (built by an earlier test or now)
+    const indexFile = join(tmp, 'damaged-storage', 'index.undertone');
+    mkdirSync(join(tmp, 'damaged-storage'), { recursive: true });
+    const bytes = readFileSync(saved.indexFile!);
+    bytes[bytes.length - 3] ^= 0x55; // inside the rows and codes, which format 6 checks after the load
+    writeFileSync(indexFile, bytes);
+    const host = fakeHost({ indexFile });
+    const c = make(host);
+    const kinds: string[] = [];
+    c.onDidChangeState((s) => kinds.push(s.kind));
+    await c.start();
+    expect(host.lines.some((l) => l.startsWith('Loaded the saved index'))).toBe(true);
+    await until(c, (s) => s.kind === 'ready' && host.lines.some((l) => l.startsWith('Built the index')));
+    expect(host.lines.find((l) => l.startsWith('The saved index is damaged'))).toMatch(/checksum.*: rebuilding\.$/);
+    expect(kinds).toContain('building');
+    expect(host.progressRuns).toBe(0); // in the background: no notification
+    expect(c.state).toMatchObject({ kind: 'ready', summary: { files: adi.docs.length } });
+    expect(readFileSync(indexFile).equals(bytes)).toBe(false); // the damaged file was replaced
+    expect(host.lines.filter((l) => l.startsWith('error:'))).toEqual([]);
+  });
+
   it('folds in saved edits, and rebuilds in the background once files on a new topic pile up', async () => {
     const c = make(fakeHost(), { ...DEFAULT_UPDATE_POLICY, settleMs: 0 });
     await c.start();

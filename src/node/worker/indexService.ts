@@ -83,6 +83,13 @@ export class IndexService {
   private _roots = new RootMap([]);
   private _admission = new Map<string, FileAdmission>();
   private _index: LsiIndex | undefined;
+  /**
+   * The last loaded index while it is in use, its background check's outcome (a reason when
+   * damaged) and a promise settled when another index replaces it (the check then stops unsettled).
+   */
+  private _loadCheck:
+    | { readonly index: LsiIndex; readonly done: Promise<string | undefined>; readonly replaced: Promise<void>; readonly replace: () => void }
+    | undefined;
   private _dirty = false;
   private _saveProblem: string | undefined;
   private _saveTimer: ReturnType<typeof setTimeout> | undefined;
@@ -129,6 +136,7 @@ export class IndexService {
     return {
       configure: async ({ config }) => this.configure(config),
       load: async () => this.load(),
+      checkSaved: async () => this.checkSaved(),
       refresh: async ({ maxFoldShare }) => this.refresh(maxFoldShare),
       build: async (_p, ctx) => this.build(ctx),
       update: async ({ changes }) => this.update(changes),
@@ -190,8 +198,19 @@ export class IndexService {
       return { outcome: 'settings-changed' as const, summary: this.summary(), ms };
     }
     this.use(loaded.index);
+    let replace = (): void => undefined;
+    const replaced = new Promise<void>((resolve) => (replace = resolve));
+    this._loadCheck = { index: loaded.index, done: loaded.checked, replaced, replace };
     this._dirty = false;
     return { outcome: 'loaded' as const, summary: this.summary(), ms };
+  }
+
+  /** The end of the loaded index's background check; damage counts only while that index is in use. */
+  async checkSaved(): Promise<{ damaged: boolean; reason?: string }> {
+    const check = this._loadCheck;
+    if (!check) return { damaged: false };
+    const reason = await Promise.race([check.done, check.replaced.then(() => undefined)]);
+    return reason !== undefined && this._index === check.index ? { damaged: true, reason } : { damaged: false };
   }
 
   async refresh(maxFoldShare: number): Promise<RefreshReport> {
@@ -545,6 +564,10 @@ export class IndexService {
     // The index going away gives back the file its section rows were read from (a reopened index
     // keeps it open: a rebuild renamed a new file over it, or another file was loaded).
     if (index !== this._index) this._index?.sections.closeRows();
+    if (this._loadCheck && index !== this._loadCheck.index) {
+      this._loadCheck.replace();
+      this._loadCheck = undefined;
+    }
     this._index = index;
     if (!index) return;
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;

@@ -138,6 +138,12 @@ export interface RequestMap extends InsightRequestMap, LinksRequestMap {
   configure: { params: { config: WorkerConfig }; result: { modelChanged: boolean } };
   /** Loads the saved index, if it exists, is intact and matches the settings. */
   load: { params: Record<string, never>; result: { outcome: LoadOutcome; reason?: string; summary: IndexSummary | null; ms: number } };
+  /**
+   * Waits for the check, after a load, of the saved index's section rows and codes (format 6
+   * checks them in the background: src/node/persistCheck.ts). `damaged`: they failed it and the
+   * loaded index is still the one in use, so it should be built again.
+   */
+  checkSaved: { params: Record<string, never>; result: { damaged: boolean; reason?: string } };
   /** Scans the folders and folds in files changed since the index was saved (or advises a rebuild). */
   refresh: { params: { maxFoldShare: number }; result: RefreshReport };
   /** Full rebuild (reusing unchanged files' counts), saved, then swapped in. Cancel keeps the old one. */
@@ -200,6 +206,7 @@ export type WorkerMessage =
 export const REQUEST_TYPES: readonly RequestType[] = [
   'configure',
   'load',
+  'checkSaved',
   'refresh',
   'build',
   'update',

@@ -1,5 +1,5 @@
 import { execFileSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -112,6 +112,31 @@ describe('IndexService background preparation', () => {
     expect(service.index).not.toBe(old);
     expect(service.index!.sections.rankExact(q, 5).map((h) => h.score)).toEqual(rankedBefore.map((h) => h.score));
     expect(service.index!.sections.best(path, q)?.path).toBe(path);
+  });
+
+  it('says when the section rows checked after a load were damaged, and asks only about the index in use', async () => {
+    const good = new IndexService({ preparePause: gate().pause });
+    good.configure(config);
+    expect((await good.load()).outcome).toBe('loaded');
+    expect(await good.checkSaved()).toEqual({ damaged: false });
+
+    // A byte flipped near the end of the file: inside the rows and codes (format 6 checks the
+    // part before them at load, the rest afterwards), so the load itself still succeeds.
+    const damagedFile = join(tmp, 'damaged.undertone');
+    const bytes = readFileSync(config.indexFile);
+    bytes[bytes.length - 3] ^= 0x55;
+    writeFileSync(damagedFile, bytes);
+    const service = new IndexService({ preparePause: gate().pause });
+    service.configure({ ...config, indexFile: damagedFile });
+    expect((await service.load()).outcome).toBe('loaded');
+    const verdict = await service.checkSaved();
+    expect(verdict.damaged).toBe(true);
+    expect(verdict.reason).toMatch(/checksum/);
+
+    // Once another index is in use, the damaged file no longer counts.
+    service.configure(config);
+    expect((await service.load()).outcome).toBe('loaded');
+    expect(await service.checkSaved()).toEqual({ damaged: false });
   });
 });
 

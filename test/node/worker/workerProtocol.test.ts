@@ -16,6 +16,7 @@ describe('protocol message checks', () => {
     const declared: Record<keyof RequestMap, true> = {
       configure: true,
       load: true,
+      checkSaved: true,
       refresh: true,
       build: true,
       update: true,
