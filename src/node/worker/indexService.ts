@@ -88,7 +88,12 @@ export class IndexService {
    * damaged) and a promise settled when another index replaces it (the check then stops unsettled).
    */
   private _loadCheck:
-    | { readonly index: LsiIndex; readonly done: Promise<string | undefined>; readonly replaced: Promise<void>; readonly replace: () => void }
+    | {
+        readonly index: LsiIndex;
+        readonly done: Promise<string | undefined>;
+        readonly replaced: Promise<void>;
+        readonly replace: () => void;
+      }
     | undefined;
   private _dirty = false;
   private _saveProblem: string | undefined;
