@@ -14,10 +14,10 @@
  * Defaults k1 = 1.2, b = 0.75 (BM25's common practice, bm25.ts).
  * In search, two guards keep a name from outweighing the text (fusion.ts, nameWeight): a name's
  * score counts by the share of the query it covers (the idf-weighted share of the query's words the
- * name holds: one word of a long question counts little, most of a short query a lot; the
- * coordination factor of early ranking formulas, Salton & Buckley 1988), and only code files' names
- * count (their extension names a programming language), as a code file is named after what it
- * declares, while a page's name is a title that may share a word with a question it does not answer.
+ * name holds: one word of a long question counts little, most of a short query a lot; coordination
+ * level matching weighted by idf, common practice), and only code files' names count (their
+ * extension names a programming language), as a code file is named after what it declares, while a
+ * page's name is a title that may share a word with a question it does not answer.
  */
 import type { DocTerms } from '../../counting/termCounts.js';
 import { asciiWordTokens, isAsciiWord } from '../../text/asciiWord.js';
