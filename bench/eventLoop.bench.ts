@@ -18,6 +18,7 @@ import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../src/node/worker/client.js';
+import { indexWorkerOptions } from '../src/node/worker/workerLimits.js';
 import type { WorkerConfig } from '../src/node/worker/workerProtocol.js';
 import { bundleWorkerScripts } from './workerBundle.js';
 
@@ -69,7 +70,7 @@ async function oneRun(run: number): Promise<RunFigures> {
     gap = Math.max(gap, now - last);
     last = now;
   }, 1);
-  const worker = new Worker(workerJs, { name: 'undertone-index' });
+  const worker = new Worker(workerJs, indexWorkerOptions());
   const client = new WorkerClient(worker);
   let messages = 0;
   let percent = 0;

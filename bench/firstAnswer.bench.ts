@@ -12,6 +12,7 @@ import { loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../src/node/worker/client.js';
+import { indexWorkerOptions } from '../src/node/worker/workerLimits.js';
 import type { WorkerConfig } from '../src/node/worker/workerProtocol.js';
 import { CORPORA, flag, honoursGitignore, REPO, type CorpusName } from './benchShared.js';
 import { bundleWorkerScripts } from './workerBundle.js';
@@ -42,7 +43,7 @@ async function once(workerJs: string, run: number): Promise<void> {
     maxFileBytes: 1 << 20,
     honourGitignore: named ? honoursGitignore(named) : true,
   };
-  const worker = new Worker(workerJs, { name: 'undertone-index' });
+  const worker = new Worker(workerJs, indexWorkerOptions());
   const c = new WorkerClient(worker);
   try {
     await c.request('configure', { config });

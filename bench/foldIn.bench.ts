@@ -14,6 +14,7 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../src/node/worker/client.js';
+import { indexWorkerOptions } from '../src/node/worker/workerLimits.js';
 import { bundleWorkerScripts } from './workerBundle.js';
 
 const rounds = Number(process.argv[2] ?? 60);
@@ -23,7 +24,7 @@ const workspace = join(tmp, 'ws');
 cpSync(join(repo, 'demo', 'workspace'), workspace, { recursive: true });
 const workerJs = await bundleWorkerScripts(repo, tmp);
 
-const worker = new Worker(workerJs);
+const worker = new Worker(workerJs, indexWorkerOptions());
 const client = new WorkerClient(worker);
 await client.request('configure', {
   config: {

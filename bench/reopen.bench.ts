@@ -15,6 +15,7 @@ import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { createRandom } from '../src/core/random.js';
 import { WorkerClient } from '../src/node/worker/client.js';
+import { indexWorkerOptions } from '../src/node/worker/workerLimits.js';
 import type { WorkerConfig } from '../src/node/worker/workerProtocol.js';
 import { bundleWorkerScripts } from './workerBundle.js';
 
@@ -66,7 +67,7 @@ const config: WorkerConfig = {
   honourGitignore: true,
 };
 const session = async <T>(work: (c: WorkerClient) => Promise<T>): Promise<T> => {
-  const worker = new Worker(workerJs);
+  const worker = new Worker(workerJs, indexWorkerOptions());
   try {
     return await work(new WorkerClient(worker));
   } finally {

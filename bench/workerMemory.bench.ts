@@ -23,8 +23,8 @@ import { loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../src/node/worker/client.js';
+import { indexWorkerOptions } from '../src/node/worker/workerLimits.js';
 import type { WorkerConfig } from '../src/node/worker/workerProtocol.js';
-import { INDEX_WORKER_LIMITS } from '../src/node/worker/workerLimits.js';
 import { CORPORA, flag, honoursGitignore, REPO, type CorpusName } from './benchShared.js';
 import { bundleWorkerScripts } from './workerBundle.js';
 
@@ -106,7 +106,7 @@ async function main(): Promise<void> {
     const s = sampler();
     const phase = async (label: string, start: (c: WorkerClient) => Promise<string>): Promise<void> => {
       s.reset();
-      const worker = new Worker(workerJs, { name: 'undertone-index', resourceLimits: { ...INDEX_WORKER_LIMITS } });
+      const worker = new Worker(workerJs, indexWorkerOptions());
       const c = new WorkerClient(worker);
       try {
         const t0 = performance.now();

@@ -6,7 +6,7 @@
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../node/worker/client.js';
-import { INDEX_WORKER_LIMITS } from '../node/worker/workerLimits.js';
+import { indexWorkerOptions } from '../node/worker/workerLimits.js';
 
 export interface StartedWorker {
   readonly client: WorkerClient;
@@ -15,10 +15,7 @@ export interface StartedWorker {
 }
 
 export function startIndexWorker(extensionPath: string, onExit: (code: number) => void): StartedWorker {
-  const worker = new Worker(join(extensionPath, 'dist', 'indexWorker.js'), {
-    name: 'undertone-index',
-    resourceLimits: { ...INDEX_WORKER_LIMITS },
-  });
+  const worker = new Worker(join(extensionPath, 'dist', 'indexWorker.js'), indexWorkerOptions());
   const client = new WorkerClient(worker);
   let stopping = false;
   worker.on('exit', (code) => {

@@ -5,6 +5,11 @@
  * that the command line's 2 MB semi-spaces give (scripts/build.mjs); measured in README, Speed and
  * memory (`npm run bench:worker-memory`).
  */
-import type { ResourceLimits } from 'node:worker_threads';
+import type { ResourceLimits, WorkerOptions } from 'node:worker_threads';
 
 export const INDEX_WORKER_LIMITS: Readonly<ResourceLimits> = Object.freeze({ maxYoungGenerationSizeMb: 6 });
+
+/** How the extension starts its index worker (benches that measure the editor start it the same way). */
+export function indexWorkerOptions(): WorkerOptions {
+  return { name: 'undertone-index', resourceLimits: { ...INDEX_WORKER_LIMITS } };
+}
