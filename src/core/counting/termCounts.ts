@@ -22,6 +22,20 @@ export interface DocTerms {
 
 export const EMPTY_DOC_TERMS: DocTerms = Object.freeze({ termIds: new Int32Array(0), counts: new Float32Array(0), length: 0 });
 
+/** The count of a term in a document's terms (binary search: ids are ascending); 0 when absent. */
+export function countOfTerm(d: DocTerms, termId: number): number {
+  let lo = 0;
+  let hi = d.termIds.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    const v = d.termIds[mid];
+    if (v === termId) return d.counts[mid];
+    if (v < termId) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return 0;
+}
+
 /**
  * A vocabulary as bytes: its terms in UTF-8 with '\0' between them, the start offset of each term
  * (one more entry than terms; the last is bytes.length + 1), and how many leading ids are in

@@ -27,7 +27,7 @@
  */
 import { NoKnownTermsError } from '../errors.js';
 import type { LsiIndex, SearchOptions } from '../index/lsiIndex.js';
-import type { DocTerms } from '../counting/termCounts.js';
+import { countOfTerm, type DocTerms } from '../counting/termCounts.js';
 import { weightDocument } from '../weighting/termWeighting.js';
 
 /** One side of a similarity: its raw term counts and the unit concept vector scored with. */
@@ -145,7 +145,7 @@ export class QueryExplainer {
     const out: TermShare[] = [];
     this._rows.forEach(({ id, r }, i) => {
       const concept = r ? this._conceptWeight * this._scale * dotF(r, d) : 0;
-      const tf = countOf(doc, id);
+      const tf = countOfTerm(doc, id);
       let lexical =
         this._lambda > 0 && this._maxBm25 > 0
           ? (this._lambda * bm25.termScore(id, this._query.counts[i], tf, slot, this._index.ranking.lengthNorm)) / this._maxBm25
@@ -156,7 +156,7 @@ export class QueryExplainer {
           nameCoverage > 0 ? Math.pow(names.coverage(this._query, this._namesWeight!, slot, this._namesTotal), nameCoverage) : 1;
         lexical += (this._lambda * nameWeight * cover * names.termScore(id, this._query.counts[i], slot)) / this._namesMax;
       }
-      const inBoth = (own ? countOf(own, id) : tf) > 0;
+      const inBoth = (own ? countOfTerm(own, id) : tf) > 0;
       if (concept !== 0 || lexical !== 0) out.push({ term: vocab.termOf(id), share: concept + lexical, concept, lexical, inBoth });
     });
     return finish(out, this._moved ? this._conceptWeight * dotF(this._moved, d) : 0);
@@ -196,7 +196,7 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
     const bm25 = index.bm25();
     if (max > 0)
       lexicalQuery.termIds.forEach((id, i) => {
-        const tf = countOf(b, id);
+        const tf = countOfTerm(b, id);
         if (tf > 0)
           entry(id).lexical +=
             (mu *
@@ -216,7 +216,7 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
       const own = names.namesOf(index.slots().findIndex((s) => s?.meta.path === pathA));
       if (own && plan.ownNameMax > 0)
         own.termIds.forEach((id, i) => {
-          const tf = countOf(b, id);
+          const tf = countOfTerm(b, id);
           if (tf > 0)
             entry(id).lexical +=
               (mu * plan.names * bm25.termScore(id, own.counts[i], tf, slotB, nearbyLengthNorm, delta)) / plan.ownNameMax;
@@ -225,14 +225,15 @@ export function explainPair(index: LsiIndex, pathA: string, pathB: string, fused
     // The TF-IDF part of the word match (LsiIndex.nearbyPlan): every term of its query that B holds.
     if (nu > 0 && tfidfMax > 0)
       tfidfQuery.termIds.forEach((id, i) => {
-        const tf = countOf(b, id);
+        const tf = countOfTerm(b, id);
         if (tf > 0) entry(id).lexical += (mu * nu * index.tfidfTermScore(id, tfidfQuery.counts[i], tf, slotB)) / tfidfMax;
       });
   }
   const out: TermShare[] = [];
   for (const [id, { concept, lexical }] of merged) {
     const share = concept + lexical;
-    if (share !== 0) out.push({ term: index.vocab.termOf(id), share, concept, lexical, inBoth: countOf(a, id) > 0 && countOf(b, id) > 0 });
+    if (share !== 0)
+      out.push({ term: index.vocab.termOf(id), share, concept, lexical, inBoth: countOfTerm(a, id) > 0 && countOfTerm(b, id) > 0 });
   }
   return finish(out);
 }
@@ -258,7 +259,7 @@ export function explainSides(index: LsiIndex, a: ExplainSide, b: ExplainSide): E
         share,
         concept: share,
         lexical: 0,
-        inBoth: countOf(a.terms, id) > 0 && countOf(b.terms, id) > 0,
+        inBoth: countOfTerm(a.terms, id) > 0 && countOfTerm(b.terms, id) > 0,
       });
   }
   return finish(out);
@@ -317,20 +318,6 @@ function dotF(r: Float64Array, d: Float32Array): number {
   let s = 0;
   for (let c = 0; c < r.length; c++) s += r[c] * d[c];
   return s;
-}
-
-/** Count of a vocabulary id in a document (binary search; ids are ascending). */
-function countOf(doc: DocTerms, id: number): number {
-  let lo = 0;
-  let hi = doc.termIds.length - 1;
-  while (lo <= hi) {
-    const mid = (lo + hi) >> 1;
-    const v = doc.termIds[mid];
-    if (v === id) return doc.counts[mid];
-    if (v < id) lo = mid + 1;
-    else hi = mid - 1;
-  }
-  return 0;
 }
 
 function finish(terms: TermShare[], feedback = 0): Explanation {

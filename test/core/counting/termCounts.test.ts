@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
+import { countOfTerm, countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { loadCollection } from '../../helpers/shared.js';
 
@@ -143,5 +143,18 @@ describe('Vocabulary bytes', () => {
     expect(Vocabulary.fromBytes({ bytes, starts: Int32Array.of(0, 6, 11, 17), sorted: 4 })).toBeNull();
     expect(Vocabulary.fromBytes({ bytes, starts: Int32Array.of(0, 6, 11, 17), sorted: Number.NaN })).toBeNull();
     expect(Vocabulary.fromBytes({ bytes, starts: new Int32Array(0), sorted: 0 })).toBeNull();
+  });
+});
+
+describe('countOfTerm', () => {
+  // Real text: the first CISI abstracts (test/fixtures/corpora/cisi), against a plain scan of the counts.
+  it('finds every term of a document with its count and gives 0 for ids it lacks', () => {
+    const vocab = new Vocabulary();
+    for (const d of loadCollection('cisi').docs.slice(0, 20)) {
+      const terms = countTerms(tokenize(d.text), vocab, true);
+      for (let i = 0; i < terms.termIds.length; i++) expect(countOfTerm(terms, terms.termIds[i])).toBe(terms.counts[i]);
+      const present = new Set(terms.termIds);
+      for (let id = 0; id < vocab.size + 2; id++) if (!present.has(id)) expect(countOfTerm(terms, id)).toBe(0);
+    }
   });
 });

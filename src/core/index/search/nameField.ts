@@ -19,7 +19,7 @@
  * extension names a programming language), as a code file is named after what it declares, while a
  * page's name is a title that may share a word with a question it does not answer.
  */
-import type { DocTerms } from '../../counting/termCounts.js';
+import { countOfTerm, type DocTerms } from '../../counting/termCounts.js';
 import { asciiWordTokens, isAsciiWord } from '../../text/asciiWord.js';
 import type { Language } from '../../text/languages.js';
 import type { TokenizeOptions } from '../../text/tokenize.js';
@@ -195,7 +195,7 @@ export class NameField {
     const names = this._names[slot];
     if (!names || !(total > 0)) return 0;
     let held = 0;
-    for (let i = 0; i < query.termIds.length; i++) if (countIn(names, query.termIds[i]) > 0) held += weight(i);
+    for (let i = 0; i < query.termIds.length; i++) if (countOfTerm(names, query.termIds[i]) > 0) held += weight(i);
     return Math.min(1, held / total);
   }
 
@@ -207,7 +207,7 @@ export class NameField {
   /** One query term's part of a slot's name score (for explanations), as scoreInto adds it. */
   termScore(termId: number, queryCount: number, slot: number, delta = 0): number {
     const names = this._names[slot];
-    const tf = names ? countIn(names, termId) : 0;
+    const tf = names ? countOfTerm(names, termId) : 0;
     return tf > 0 ? this.idf(termId) * queryCount * this.saturated(tf, slot, delta) : 0;
   }
 
@@ -222,18 +222,4 @@ export class NameField {
     const x = tf / this._norms[slot] + delta;
     return ((k1 + 1) * x) / (k1 + x);
   }
-}
-
-/** The count of a term in ascending-id DocTerms (binary search; 0 when absent). */
-function countIn(d: DocTerms, termId: number): number {
-  let lo = 0;
-  let hi = d.termIds.length - 1;
-  while (lo <= hi) {
-    const mid = (lo + hi) >> 1;
-    const v = d.termIds[mid];
-    if (v === termId) return d.counts[mid];
-    if (v < termId) lo = mid + 1;
-    else hi = mid - 1;
-  }
-  return 0;
 }
