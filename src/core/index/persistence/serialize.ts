@@ -39,6 +39,7 @@ import { LANGUAGES } from '../../text/languages.js';
 import { withLanguage } from '../../text/detectLanguage.js';
 import { StoredFileSections, type SectionRowReader } from '../../sections/sectionRows.js';
 import { bytesSpill } from '../../sections/savedLists.js';
+import { isWellFormedUtf8 } from '../../text/utf8Check.js';
 import type { ByteSpill } from '../../sections/types.js';
 
 /**
@@ -552,11 +553,8 @@ const byteView = (a: Float64Array): Uint8Array => new Uint8Array(a.buffer, a.byt
  * @throws CorruptIndexError
  */
 function titleStarts(bytes: Uint8Array): Int32Array {
-  try {
-    decoder.decode(bytes);
-  } catch {
-    throw new CorruptIndexError('index file section titles are not valid UTF-8');
-  }
+  // Checked without decoding (a string of the whole table would only be thrown away).
+  if (!isWellFormedUtf8(bytes)) throw new CorruptIndexError('index file section titles are not valid UTF-8');
   if (bytes.length === 0) return new Int32Array(1);
   let count = 1;
   for (let i = 0; i < bytes.length; i++) if (bytes[i] === 0) count++;
