@@ -22,6 +22,7 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { CancelledError, CorruptIndexError, UndertoneError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import { Checksum32 } from '../core/index/persistence/checksum.js';
+import { ConceptRows } from '../core/index/search/conceptRows.js';
 import type { ByteSpill } from '../core/sections/types.js';
 import {
   decodeIndex,
@@ -392,8 +393,8 @@ async function readCheckedHead(
   codes?: { codes: ByteSpill; params: ByteSpill };
   size: number;
   tail: TailCheck;
-  /** The files' concept vectors (their place in head is left unread). */
-  vectors: Uint8Array;
+  /** The files' concept vectors, read into the ranking rows (their place in head is left unread). */
+  vectors: ConceptRows;
 }> {
   const handle = await open(path, OPEN_FLAGS);
   let kept = false;
@@ -401,11 +402,13 @@ async function readCheckedHead(
     const { header, start, size } = await openChecked(handle, path, chunk);
     const { at, rows, k } = sectionRowsOf(header, start);
     const head = new Uint8Array(new ArrayBuffer(at));
-    // The files' concept vectors go into a buffer of their own: the index copies them into its
-    // ranking rows (ConceptRows) and drops this buffer, while the head's pages for them are never
-    // touched, so they take no memory (90 MB on the Linux tree).
+    // The files' concept vectors are read straight into the index's ranking rows (ConceptRows, in
+    // the SIMD kernel's memory where it runs): no copy of them is made, and the head's pages for
+    // them are never touched, so they take no memory (90 MB on the Linux tree).
     const v = vectorsOf(header, start);
-    const vectors = new Uint8Array(new ArrayBuffer(v.bytes));
+    const conceptRows = new ConceptRows(k, header.docs);
+    const vectors = conceptRows.rowBytes(header.docs);
+    if (vectors.length !== v.bytes) throw new CorruptIndexError("the files' vectors are not k per document");
     const parts: [number, number, Uint8Array, number][] = [
       [0, v.at, head, 0],
       [v.at, v.at + v.bytes, vectors, v.at],
@@ -443,7 +446,7 @@ async function readCheckedHead(
     const saved = codes
       ? { codes: reader.region(codes.codesAt, codes.codesBytes), params: reader.region(codes.paramsAt, codes.paramsBytes) }
       : undefined;
-    return { head, rows: reader, codes: saved, size, tail, vectors };
+    return { head, rows: reader, codes: saved, size, tail, vectors: conceptRows };
   } finally {
     if (!kept) await handle.close();
   }
@@ -465,7 +468,7 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     codes?: { codes: ByteSpill; params: ByteSpill };
     size?: number;
     tail?: TailCheck;
-    vectors?: Uint8Array;
+    vectors?: ConceptRows;
   };
   try {
     read = inFile

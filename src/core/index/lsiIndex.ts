@@ -128,15 +128,24 @@ export class LsiIndex {
     slots.forEach((s, i) => s && this._slotOf.set(s.meta.path, i));
   }
 
-  /** Builds the document vectors of a fresh model (used by IndexBuilder and by loading). */
+  /**
+   * Builds the document vectors of a fresh model (used by IndexBuilder and by loading): projected
+   * from the terms, copied from `vectors` when given as an array, or kept as they are when given
+   * as rows already filled (a reopen reads the saved vectors straight into them).
+   */
   static assemble(
     settings: IndexSettings,
     vocab: Vocabulary,
     model: ConceptModel,
     slots: (DocSlot | null)[],
-    vectors?: Float32Array,
+    vectors?: Float32Array | ConceptRows,
   ): LsiIndex {
     const k = model.k;
+    if (vectors instanceof ConceptRows) {
+      // Rows already filled (a reopen reads the saved vectors straight into them).
+      if (vectors.k !== k || vectors.capacity < slots.length) throw new InvalidInputError('concept vectors do not cover every document');
+      return new LsiIndex(settings, vocab, model, slots, vectors);
+    }
     if (vectors && vectors.length < slots.length * k) throw new InvalidInputError('concept vectors do not cover every document');
     const rows = new ConceptRows(k, slots.length, vectors?.subarray(0, slots.length * k));
     if (!vectors) slots.forEach((s, i) => s && rows.setRow(i, projectTerms(model, s.terms).vector));

@@ -34,6 +34,7 @@ import {
   type SectionEntry,
 } from './indexFileCheck.js';
 import { LsiIndex, type DocSlot } from '../lsiIndex.js';
+import type { ConceptRows } from '../search/conceptRows.js';
 import { Vocabulary } from '../../counting/termCounts.js';
 import { LANGUAGES } from '../../text/languages.js';
 import { withLanguage } from '../../text/detectLanguage.js';
@@ -417,7 +418,7 @@ export function decodeIndexWithRows(
   head: Uint8Array,
   rows: SectionRowReader,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
-  vectors?: Uint8Array,
+  vectors?: ConceptRows,
 ): LsiIndex {
   const header = readIndexHeader(head);
   const start = headerExtent(head);
@@ -426,17 +427,17 @@ export function decodeIndexWithRows(
   if (rows.rows !== count || rows.k !== k)
     throw new CorruptIndexError(`the section rows reader holds ${rows.rows} rows, expected ${count}`);
   if (!codes !== !sectionCodesOf(header, start)) throw new CorruptIndexError('the saved section codes were not given (a reader bug)');
-  if (vectors && vectors.length !== vectorsOf(header, start).bytes)
+  if (vectors && (vectors.k !== k || vectors.capacity * k * 4 < vectorsOf(header, start).bytes))
     throw new CorruptIndexError(
-      `the files' vectors are ${vectors.length} bytes, expected ${vectorsOf(header, start).bytes} (a reader bug)`,
+      `the files' vector rows hold ${vectors.capacity} rows of ${vectors.k}, expected ${header.docs} of ${k} (a reader bug)`,
     );
   return decodeChecked(header, head.subarray(start), rows, codes, vectors);
 }
 
 /**
  * Where the files' concept vectors lie in the file (byte offset and length): a reader may read
- * them into a buffer of their own and hand it to decodeIndexWithRows, leaving their place in the
- * head unread (the index copies them and keeps only its copy).
+ * them straight into the ranking rows (ConceptRows.rowBytes, docs × k) and hand those to
+ * decodeIndexWithRows, leaving their place in the head unread (no copy of them is ever made).
  */
 export function vectorsOf(header: CheckedHeader, fileStart: number): { readonly at: number; readonly bytes: number } {
   const e = header.sections.find((s) => s.name === 'vectors')!;
@@ -449,7 +450,7 @@ function decodeChecked(
   payload: Uint8Array,
   rows: SectionRowReader | undefined,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
-  vectorBytes?: Uint8Array,
+  conceptRows?: ConceptRows,
 ): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
@@ -494,7 +495,7 @@ function decodeChecked(
     termVectors: get('termVectors', 'f32'),
     singularValues: get('singularValues', 'f64'),
     axisScale: get('axisScale', 'f64'),
-    vectors: vectorBytes ? new Float32Array(vectorBytes.buffer, vectorBytes.byteOffset, vectorBytes.length / 4) : get('vectors', 'f32'),
+    vectors: conceptRows ? conceptRows.rows.subarray(0, n * k) : get('vectors', 'f32'),
     k,
     sectionIndptr: get('sectionIndptr', 'i32'),
     sectionLines: get('sectionLines', 'i32'),
@@ -521,7 +522,7 @@ function decodeChecked(
     folded: folded[j] === 1,
     residual: residual[j],
   }));
-  const index = LsiIndex.assemble(header.settings, vocab, model, slots, vectors);
+  const index = LsiIndex.assemble(header.settings, vocab, model, slots, conceptRows ?? vectors);
   index.restoreCounters(header.counters);
   const titles = parts.sectionTitles;
   if (titles instanceof Int32Array) {

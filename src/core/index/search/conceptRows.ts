@@ -117,6 +117,15 @@ export class ConceptRows {
     if (slots > this._capacity) this.grow(Math.max(slots, Math.ceil(this._capacity * 1.5)));
   }
 
+  /**
+   * The bytes of rows [0, slots) to be written in place (little-endian f32, k a row), for a reader
+   * that fills them straight from a saved file: no copy of the vectors is ever held beside them.
+   */
+  rowBytes(slots: number): Uint8Array {
+    if (slots > this._capacity) throw new RangeError(`rows ${slots} exceed capacity ${this._capacity}`);
+    return new Uint8Array(this._rows.buffer, this._rows.byteOffset, slots * this.k * 4);
+  }
+
   setRow(slot: number, vector: Float32Array): void {
     this._rows.set(vector.subarray(0, this.k), slot * this.k);
   }
