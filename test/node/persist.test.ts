@@ -105,6 +105,31 @@ describe('persist', () => {
     expect(await loadIndex(dir)).toMatchObject({ status: 'damaged' });
   });
 
+  it('refuses NaN or an infinity in the saved counts, term vectors or file vectors even with good checksums', async () => {
+    const bytes = encodeIndex(buildAdi());
+    const header = readIndexHeader(bytes);
+    const file = join(dir, 'non-finite.undertone');
+    // IEEE 754 binary32 patterns: a quiet NaN, a NaN with payload and sign, +Infinity, -Infinity.
+    const patterns = [0x7fc00000, 0xffc00001, 0x7f800000, 0xff800000];
+    const cases: [string, RegExp][] = [
+      ['termCounts', /termCounts holds a value out of range/],
+      ['termVectors', /termVectors holds a value out of range/],
+      ['vectors', /not of unit length/], // read straight into the ranking rows, checked there
+    ];
+    for (const [name, reason] of cases)
+      for (const bits of patterns) {
+        const payload = payloadOf(bytes).slice();
+        const e = header.sections.find((s) => s.name === name)!;
+        new DataView(payload.buffer).setUint32(e.offset + 4 * Math.floor(e.length / 3), bits, true);
+        writeFileSync(file, sealIndexFile(header, payload));
+        for (const options of [{}, { checkRows: 'later' as const }, { sectionRows: 'memory' as const }])
+          expect(await loadIndex(file, options), `${name} ${bits.toString(16)}`).toEqual({
+            status: 'damaged',
+            reason: expect.stringMatching(reason),
+          });
+      }
+  });
+
   it('reports a folder, a FIFO or a device at the index path without blocking or reading it', async () => {
     const sub = join(dir, 'occupied');
     mkdirSync(join(sub, 'index.undertone'), { recursive: true });

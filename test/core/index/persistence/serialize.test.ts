@@ -228,6 +228,51 @@ describe('serialize', () => {
         },
         /weights/,
       ],
+      // Non-finite f32 values (IEEE 754 binary32: NaN, ±Infinity), and term counts that are not
+      // above zero, wherever the load checks them by their bit patterns.
+      ...(
+        [
+          ['termCounts', NaN],
+          ['termCounts', Infinity],
+          ['termCounts', 0],
+          ['termCounts', -0],
+          ['termCounts', -2],
+          ['termVectors', NaN],
+          ['termVectors', Infinity],
+          ['termVectors', -Infinity],
+        ] as const
+      ).map(([name, value]): [string, (h: ReturnType<typeof readIndexHeader>, p: Uint8Array) => void, RegExp] => [
+        `${name} holding ${Object.is(value, -0) ? '-0' : value}`,
+        (h, p) => {
+          const { at, e } = section(h, p, name);
+          new Float32Array(p.buffer, at, e.length)[Math.floor(e.length / 2)] = value;
+        },
+        new RegExp(`${name} holds a value out of range`),
+      ]),
+      [
+        'a NaN bit pattern other than the usual one in the term vectors',
+        (h, p) => {
+          const { at } = section(h, p, 'termVectors');
+          new Uint32Array(p.buffer, at, 1)[0] = 0xffc00001;
+        },
+        /termVectors holds a value out of range/,
+      ],
+      [
+        'a -Infinity modification time',
+        (h, p) => {
+          const { at } = section(h, p, 'docMtime');
+          new Float64Array(p.buffer, at, 1)[0] = -Infinity;
+        },
+        /docMtime/,
+      ],
+      [
+        'a NaN vector entry',
+        (h, p) => {
+          const { at } = section(h, p, 'vectors');
+          new Float32Array(p.buffer, at, 1)[0] = NaN;
+        },
+        /unit length/,
+      ],
       [
         'folded flag 7',
         (h, p) => {
@@ -259,7 +304,10 @@ describe('serialize', () => {
     ];
     for (const [what, edit, reason] of cases) {
       const forged = rewrite(bytes, edit);
+      expect(() => decodeIndex(forged), what).toThrow(CorruptIndexError);
       expect(() => decodeIndex(forged), what).toThrow(reason);
     }
+    // The edits are the only damage: the same rewrite without one decodes.
+    expect(decodeIndex(rewrite(bytes, () => undefined)).paths().length).toBe(adi.docs.length);
   });
 });
