@@ -4,8 +4,11 @@
  * (which waits for the check of the section rows and codes when it has not finished), and the
  * resident memory after each. No assertions; figures only (issue 13: reopen under 2 s).
  *
- *   npx esbuild bench/reopenSaved.ts --bundle --platform=node --format=esm --packages=external \
- *     --outfile=out/bench/reopenSaved.mjs && node out/bench/reopenSaved.mjs <index file> [--wait-check]
+ *   npx esbuild bench/reopenSaved.ts --bundle --platform=node --format=esm --outfile=dist/reopenSaved.mjs \
+ *     --banner:js="import { createRequire } from 'module'; const require = createRequire(import.meta.url);"
+ *   node dist/reopenSaved.mjs <index file> [--wait-check]
+ * (Bundled whole, as bench/reopenMemory.ts: with --packages=external Node 20 refuses the stop-word
+ * list's JSON import from an ES module.)
  * --wait-check waits for the background check of the whole file before the first request.
  */
 import { loadavg } from 'node:os';
