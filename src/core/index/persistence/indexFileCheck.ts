@@ -286,6 +286,33 @@ export function checkSectionSizes(header: CheckedHeader): void {
   for (const [ok, what] of rules) if (!ok) throw new CorruptIndexError(`index sections disagree in size: ${what}`);
 }
 
+/**
+ * ‖v[o, o + k)‖² in f64, in four running sums (every fourth number each, then added pairwise):
+ * the additions no longer wait on one another, about half the time of one running sum over the
+ * 1.5 GB of section rows a load checks. Only the unit-length checks below use it (their bounds,
+ * 1 ± 1e-3, are far wider than any difference the order of the sum makes).
+ */
+function normSquared(v: Float32Array, o: number, k: number): number {
+  let s0 = 0,
+    s1 = 0,
+    s2 = 0,
+    s3 = 0;
+  const end = o + k;
+  let c = o;
+  for (const e4 = o + (k & ~3); c < e4; c += 4) {
+    const a = v[c],
+      b = v[c + 1],
+      d = v[c + 2],
+      e = v[c + 3];
+    s0 += a * a;
+    s1 += b * b;
+    s2 += d * d;
+    s3 += e * e;
+  }
+  for (; c < end; c++) s0 += v[c] * v[c];
+  return s0 + s1 + (s2 + s3);
+}
+
 /** Payload values: ranges, orders and finiteness. */
 export interface PayloadParts {
   readonly vocabSize: number;
@@ -393,8 +420,7 @@ export function checkPayload(p: PayloadParts): void {
   const k = p.k;
   const v = p.vectors;
   for (let j = 0; j < n; j++) {
-    let s = 0;
-    for (let i = j * k; i < (j + 1) * k; i++) s += v[i] * v[i];
+    const s = normSquared(v, j * k, k);
     // Unit vectors, or zero for a file without model terms (float32 rounding allows a little).
     if (!(s <= 1 + 1e-3) || (s > 1e-6 && s < 1 - 1e-3)) bad(`the concept vector of "${p.paths[j]}" is not of unit length`);
   }
@@ -445,8 +471,7 @@ export function checkCodeParams(p: Float64Array): void {
  */
 export function checkSectionRows(v: Float32Array, rows: number, k: number): void {
   for (let i = 0; i < rows; i++) {
-    let ss = 0;
-    for (let c = i * k; c < (i + 1) * k; c++) ss += v[c] * v[c];
+    const ss = normSquared(v, i * k, k);
     if (!(ss <= 1 + 1e-3) || (ss > 1e-6 && ss < 1 - 1e-3)) bad('a section vector is not of unit length');
   }
 }
