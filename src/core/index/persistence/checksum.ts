@@ -123,14 +123,34 @@ export class Checksum32 {
     return fmix32(h);
   }
 
-  /** Feeds whole 4-word blocks (w.length a multiple of 4) round-robin to the four states. */
+  /**
+   * Feeds whole 4-word blocks (w.length a multiple of 4) round-robin to the four states: step()
+   * written out four times, as in checksum32 (a reopen sums 2.4 GB on the Linux tree; the call
+   * form took about a tenth longer).
+   */
   private blocks(w: Uint32Array): void {
     let { h0, h1, h2, h3 } = this;
     for (let i = 0; i < w.length; i += 4) {
-      h0 = step(h0, w[i]);
-      h1 = step(h1, w[i + 1]);
-      h2 = step(h2, w[i + 2]);
-      h3 = step(h3, w[i + 3]);
+      let k = Math.imul(w[i], 0xcc9e2d51);
+      k = (k << 15) | (k >>> 17);
+      h0 ^= Math.imul(k, 0x1b873593);
+      h0 = (h0 << 13) | (h0 >>> 19);
+      h0 = (Math.imul(h0, 5) + 0xe6546b64) | 0;
+      k = Math.imul(w[i + 1], 0xcc9e2d51);
+      k = (k << 15) | (k >>> 17);
+      h1 ^= Math.imul(k, 0x1b873593);
+      h1 = (h1 << 13) | (h1 >>> 19);
+      h1 = (Math.imul(h1, 5) + 0xe6546b64) | 0;
+      k = Math.imul(w[i + 2], 0xcc9e2d51);
+      k = (k << 15) | (k >>> 17);
+      h2 ^= Math.imul(k, 0x1b873593);
+      h2 = (h2 << 13) | (h2 >>> 19);
+      h2 = (Math.imul(h2, 5) + 0xe6546b64) | 0;
+      k = Math.imul(w[i + 3], 0xcc9e2d51);
+      k = (k << 15) | (k >>> 17);
+      h3 ^= Math.imul(k, 0x1b873593);
+      h3 = (h3 << 13) | (h3 >>> 19);
+      h3 = (Math.imul(h3, 5) + 0xe6546b64) | 0;
     }
     this.h0 = h0;
     this.h1 = h1;
