@@ -20,6 +20,9 @@ function randomRows(n: number, k: number, seed: number): { rows: Float32Array; q
   return { rows, q };
 }
 
+/** The products of rows given to the constructor (a copy: dots() returns a reused view). */
+const plainDotsBits = (r: ConceptRows, q: Float32Array, n: number): Float64Array => r.dots(q, n).slice();
+
 describe('ConceptRows', () => {
   // k = 200 is the project default; 13, 7 and 1 exercise the tail past the last block of eight.
   for (const k of [200, 13, 7, 1]) {
@@ -81,5 +84,18 @@ describe('ConceptRows', () => {
     const out = new Float64Array(20);
     dotRows(rows, 16, 20, q, out);
     expect(Array.from(out)).toEqual(Array.from(new ConceptRows(16, 20, rows).dots(q, 20)));
+  });
+  it('takes rows written in place through rowBytes (as a reopen reads them from its file) as given to the constructor', () => {
+    const [k, n] = [13, 57];
+    const { rows, q } = randomRows(n, k, 5);
+    const little = new Uint8Array(rows.buffer).slice(); // the saved bytes (f32, little-endian)
+    for (const wasm of [true, false]) {
+      const given = new ConceptRows(k, n, rows, { wasm });
+      const filled = new ConceptRows(k, n, undefined, { wasm });
+      filled.rowBytes(n).set(little);
+      expect(filled.rows).toEqual(given.rows);
+      expect(Array.from(filled.dots(q, n))).toEqual(Array.from(plainDotsBits(given, q, n)));
+      expect(() => filled.rowBytes(n + 1)).toThrow(RangeError);
+    }
   });
 });
