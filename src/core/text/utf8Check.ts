@@ -29,10 +29,7 @@ export function isWellFormedUtf8(bytes: Uint8Array): boolean {
   let i = 0;
   // The 32-bit view: words whose four bytes are all ASCII (no high bit) are skipped whole.
   const lead = (4 - (bytes.byteOffset & 3)) & 3;
-  const words =
-    n >= 64 && lead < n
-      ? new Uint32Array(bytes.buffer, bytes.byteOffset + lead, (n - lead) >>> 2)
-      : new Uint32Array(0);
+  const words = n >= 64 && lead < n ? new Uint32Array(bytes.buffer, bytes.byteOffset + lead, (n - lead) >>> 2) : new Uint32Array(0);
   const wordsEnd = lead + words.length * 4;
   while (i < n) {
     const b = bytes[i];
