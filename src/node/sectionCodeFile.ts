@@ -51,8 +51,14 @@ export class FileSpill implements ByteSpill {
   private readonly _held: Held;
   private _closed = false;
 
-  /** Creates an empty scratch file in `folder`. @throws the file system's error when it cannot. */
-  constructor(folder: string) {
+  /**
+   * Creates an empty scratch file in `folder`. @throws the file system's error when it cannot.
+   * @param what the file in messages.
+   */
+  constructor(
+    folder: string,
+    private readonly what = "the section lists' scratch file",
+  ) {
     const path = join(folder, `.undertone-scratch.${process.pid}.${randomBytes(4).toString('hex')}`);
     const fd = openSync(path, 'wx+', 0o600);
     let left: string | null = path;
@@ -72,7 +78,7 @@ export class FileSpill implements ByteSpill {
       try {
         done += writeSync(this._held.fd, bytes, done, bytes.length - done, position + done);
       } catch (err) {
-        throw new SectionRowsError(`cannot write the section lists' scratch file: ${describeFsError(err)}`);
+        throw new SectionRowsError(`cannot write ${this.what}: ${describeFsError(err)}`);
       }
     }
   }
@@ -84,9 +90,9 @@ export class FileSpill implements ByteSpill {
       try {
         got = readSync(this._held.fd, into, done, into.length - done, position + done);
       } catch (err) {
-        throw new SectionRowsError(`cannot read the section lists' scratch file: ${describeFsError(err)}`);
+        throw new SectionRowsError(`cannot read ${this.what}: ${describeFsError(err)}`);
       }
-      if (got === 0) throw new SectionRowsError("the section lists' scratch file ends early");
+      if (got === 0) throw new SectionRowsError(`${this.what} ends early`);
       done += got;
     }
   }
@@ -99,11 +105,14 @@ export class FileSpill implements ByteSpill {
   }
 }
 
-/** Opens spills in `folder` (null where it takes no new file: the caller keeps the bytes in memory). */
-export function openSpillBeside(folder: string): OpenSpill {
+/**
+ * Opens spills in `folder` (null where it takes no new file: the caller keeps the bytes in memory).
+ * @param what the files in messages.
+ */
+export function openSpillBeside(folder: string, what?: string): OpenSpill {
   return () => {
     try {
-      return new FileSpill(folder);
+      return new FileSpill(folder, what);
     } catch {
       return null;
     }
