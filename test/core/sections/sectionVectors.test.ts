@@ -123,7 +123,6 @@ describe('section vectors', () => {
 
   it('folds counted sections of many files at once as projectTerms folds each (serial and WebAssembly products)', () => {
     const index = buildWithSections();
-    const ctx = foldContextOf(index);
     const counted = countedOf(index);
     const total = counted.reduce((n, c) => n + c.starts.length, 0);
     expect(total).toBeGreaterThan(300);
