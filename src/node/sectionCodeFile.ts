@@ -1,9 +1,10 @@
 /**
- * Scratch files for bytes a ranker keeps out of memory (the node side of ByteSpill in
+ * Scratch files for bytes kept out of memory (the node side of ByteSpill in
  * src/core/sections/types.ts: the section lists' 8-bit codes of a large reopened index whose lists
  * are filed anew — a format-4 file, or after many edits; a format-5 file's saved codes are read
  * from the index file itself — written once when the lists are filed and read back in runs per
- * request). Each is created beside the
+ * request; and a large build's section counts during the SVD and its section vectors from the
+ * fold on: parkedSections.ts, foldCountedSections's spill). Each is created beside the
  * index file (on the same disk, not in a temporary folder that may live in memory), opened, and
  * its name removed at once, so nothing is left behind even if the process dies; the space goes
  * when the descriptor is closed (by the owner, or once the spill is garbage collected). Where the

@@ -84,7 +84,8 @@ export interface FileSections {
 }
 
 /**
- * Bytes a ranker keeps out of memory: written at positions, read back in runs (the node side is a
+ * Bytes kept out of memory (a ranker's codes, a large build's section counts and rows): written at
+ * positions, read back in runs (the node side is a
  * scratch file of its own: src/node/sectionCodeFile.ts). Only ever read where it was written.
  */
 export interface ByteSpill {
