@@ -276,6 +276,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       vocab = counted.vocab;
       builder = new IndexBuilder(settings, vocab);
       counted.outcomes.forEach((got, i) => record(toRead[i], got));
+      // Emptied: an async function's frame may keep the list alive past this block, and with it
+      // the threads' section counts that are parked during the SVD (ParkedSections).
+      counted.outcomes.length = 0;
     } else if (countPool) {
       await countFilesInParallel(countPool, jobs(), vocab, countOptions, (i, got) => record(toRead[i], got));
     } else {
