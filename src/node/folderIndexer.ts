@@ -4,7 +4,7 @@
  * folder-relative paths), and save atomically when anything changed. A damaged or older saved
  * index is rebuilt from the files; on failure or cancel the previous saved index is left untouched.
  */
-import { resolve } from 'node:path';
+import { dirname, resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { CancelledError } from '../core/errors.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
@@ -12,7 +12,8 @@ import { resolveSettings, type IndexSettings } from '../core/index/model/setting
 import { runIndexPipeline, tallySkipped, type PipelineResult, type PipelineStage } from './indexPipeline.js';
 import type { PoolOptions } from './parallel/workerPool.js';
 import { sharedModelSetting } from './conceptModelFile.js';
-import { loadIndex, trySaveIndex } from './persist.js';
+import { ensureFolder, loadIndex, trySaveIndex } from './persist.js';
+import { openSpillBeside } from './sectionCodeFile.js';
 import { DEFAULT_SCAN_OPTIONS, scanFolder, type ScanOptions, type SkippedPath } from './scan.js';
 
 export type IndexStage = 'load' | PipelineStage;
@@ -91,6 +92,13 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
   if (sharedPath) settings.sharedModel = sharedModelSetting(sharedPath);
   let scanSkipped: readonly SkippedPath[] = [];
   let saveProblem: string | undefined;
+  // The index's folder first, so a large build's scratch files can live beside the index (on its
+  // disk); where it cannot be made they stay in memory, and the save reports why.
+  const folder = dirname(resolve(options.indexFile));
+  const scratch = await ensureFolder(folder).then(
+    () => openSpillBeside(folder, "the build's scratch file"),
+    () => undefined,
+  );
   const result = await runIndexPipeline({
     settings,
     scan: async () => {
@@ -112,6 +120,7 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     onProgress: progress,
     threads: options.parallel ?? {},
     sections: options.sections,
+    scratch,
   });
   const outcome = result.unchanged ? 'unchanged' : previous ? 'refreshed' : 'fresh';
   return { ...report(result, outcome, savedIndexProblem, { load: loadSeconds, ...result.seconds }, t0), saveProblem, scanSkipped };

@@ -38,6 +38,8 @@ import type { SkippedPath } from './scanTypes.js';
 import { readSharedModel } from './conceptModelFile.js';
 import { foldFileSections } from './sectionPass.js';
 import type { CountedSections } from '../core/sections/sectionVectors.js';
+import type { OpenSpill } from '../core/sections/types.js';
+import { ParkedSections } from './parkedSections.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
@@ -128,6 +130,17 @@ export interface PipelineOptions {
    * column block of a product), so a caller can read and answer waiting messages there.
    */
   readonly poll?: () => void;
+  /**
+   * Opens scratch files (beside the index: sectionCodeFile.ts, openSpillBeside) for what a large
+   * build keeps out of memory: the threads' section counts during the SVD (parkedSections.ts) and
+   * the section vectors from the fold on (foldCountedSections, spill). Without one, or where it
+   * gives null, both stay in memory.
+   */
+  readonly scratch?: OpenSpill;
+  /** Bytes of section rows from which they go to a scratch file. @default SPILL_ROWS_FROM_BYTES */
+  readonly spillRowsFromBytes?: number;
+  /** Bytes of section counts from which they are parked during the SVD. @default PARK_FROM_BYTES */
+  readonly parkCountsFromBytes?: number;
 }
 
 export interface PipelineResult {
@@ -194,6 +207,10 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     await p?.close();
   };
 
+  // The threads' section counts while they are parked in a scratch file (the SVD), and the built
+  // index until it is returned: both give their scratch files back when the run fails.
+  let parked: ParkedSections | null = null;
+  let built: LsiIndex | undefined;
   try {
     // ---- scan
     progress({ stage: 'scan', done: 0, total: 1 });
@@ -259,6 +276,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       vocab = counted.vocab;
       builder = new IndexBuilder(settings, vocab);
       counted.outcomes.forEach((got, i) => record(toRead[i], got));
+      // Emptied: an async function's frame may keep the list alive past this block, and with it
+      // the threads' section counts that are parked during the SVD (ParkedSections).
+      counted.outcomes.length = 0;
     } else if (countPool) {
       await countFilesInParallel(countPool, jobs(), vocab, countOptions, (i, got) => record(toRead[i], got));
     } else {
@@ -299,6 +319,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
 
     // ---- build
     await releasePool();
+    // The section counts wait in a scratch file while the SVD's blocks are resident.
+    if (options.sections !== false && countedSections.size > 0)
+      parked = ParkedSections.park(countedSections, options.scratch, options.parkCountsFromBytes);
     const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool(true) : undefined;
     // A shared concept model (import-model, undertone.conceptModel): fold into it, no local SVD.
     const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
@@ -335,8 +358,14 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
       },
     });
+    built = index;
     lap('svd');
     check();
+    if (parked) {
+      const p = parked;
+      parked = null;
+      p.unpark(countedSections);
+    }
 
     let sectionsReadAgain = 0;
     if (options.sections !== false && executor) {
@@ -356,6 +385,8 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         executor,
         counted: index.vocab === vocab ? countedSections : undefined,
         onProgress: (done) => progress({ stage: 'sections', done, total: keyed.length }),
+        spill: options.scratch,
+        spillFromBytes: options.spillRowsFromBytes,
       });
       countedSections.clear();
       lap('sections');
@@ -370,7 +401,13 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       await options.save(index);
       lap('save');
     }
+    built = undefined;
     return { ...counts, sectionsReadAgain, index, unchanged: false, seconds, cpuSeconds };
+  } catch (err) {
+    // A failed or cancelled run: its scratch files (parked counts, spilled section rows) go now.
+    parked?.close();
+    built?.sections.closeRows();
+    throw err;
   } finally {
     await releasePool();
   }

@@ -1,9 +1,10 @@
 /**
- * Scratch files for bytes a ranker keeps out of memory (the node side of ByteSpill in
+ * Scratch files for bytes kept out of memory (the node side of ByteSpill in
  * src/core/sections/types.ts: the section lists' 8-bit codes of a large reopened index whose lists
  * are filed anew — a format-4 file, or after many edits; a format-5 file's saved codes are read
  * from the index file itself — written once when the lists are filed and read back in runs per
- * request). Each is created beside the
+ * request; and a large build's section counts during the SVD and its section vectors from the
+ * fold on: parkedSections.ts, foldCountedSections's spill). Each is created beside the
  * index file (on the same disk, not in a temporary folder that may live in memory), opened, and
  * its name removed at once, so nothing is left behind even if the process dies; the space goes
  * when the descriptor is closed (by the owner, or once the spill is garbage collected). Where the
@@ -51,8 +52,14 @@ export class FileSpill implements ByteSpill {
   private readonly _held: Held;
   private _closed = false;
 
-  /** Creates an empty scratch file in `folder`. @throws the file system's error when it cannot. */
-  constructor(folder: string) {
+  /**
+   * Creates an empty scratch file in `folder`. @throws the file system's error when it cannot.
+   * @param what the file in messages.
+   */
+  constructor(
+    folder: string,
+    private readonly what = "the section lists' scratch file",
+  ) {
     const path = join(folder, `.undertone-scratch.${process.pid}.${randomBytes(4).toString('hex')}`);
     const fd = openSync(path, 'wx+', 0o600);
     let left: string | null = path;
@@ -72,7 +79,7 @@ export class FileSpill implements ByteSpill {
       try {
         done += writeSync(this._held.fd, bytes, done, bytes.length - done, position + done);
       } catch (err) {
-        throw new SectionRowsError(`cannot write the section lists' scratch file: ${describeFsError(err)}`);
+        throw new SectionRowsError(`cannot write ${this.what}: ${describeFsError(err)}`);
       }
     }
   }
@@ -84,9 +91,9 @@ export class FileSpill implements ByteSpill {
       try {
         got = readSync(this._held.fd, into, done, into.length - done, position + done);
       } catch (err) {
-        throw new SectionRowsError(`cannot read the section lists' scratch file: ${describeFsError(err)}`);
+        throw new SectionRowsError(`cannot read ${this.what}: ${describeFsError(err)}`);
       }
-      if (got === 0) throw new SectionRowsError("the section lists' scratch file ends early");
+      if (got === 0) throw new SectionRowsError(`${this.what} ends early`);
       done += got;
     }
   }
@@ -99,11 +106,14 @@ export class FileSpill implements ByteSpill {
   }
 }
 
-/** Opens spills in `folder` (null where it takes no new file: the caller keeps the bytes in memory). */
-export function openSpillBeside(folder: string): OpenSpill {
+/**
+ * Opens spills in `folder` (null where it takes no new file: the caller keeps the bytes in memory).
+ * @param what the files in messages.
+ */
+export function openSpillBeside(folder: string, what?: string): OpenSpill {
   return () => {
     try {
-      return new FileSpill(folder);
+      return new FileSpill(folder, what);
     } catch {
       return null;
     }

@@ -6,12 +6,14 @@
  * language than English, a build without threads) is read again here and its sections counted
  * with the build's fast counter. Then all sections are folded at once (foldCountedSections: one
  * sparse product per chunk, on the build's threads when it has them). A file that can no longer
- * be read keeps no sections (its results fall back to the whole file).
+ * be read keeps no sections (its results fall back to the whole file). Given a spill, a large
+ * fold writes its rows there (a scratch file beside the index) and the files read them back.
  */
 import { foldContextOf, foldCountedSections, type CountedSections } from '../core/sections/sectionVectors.js';
 import { splitLines, splitSections } from '../core/sections/splitSections.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import type { MatrixExecutor } from '../core/matrix/executor.js';
+import type { OpenSpill } from '../core/sections/types.js';
 import { decodeUtf8 } from './scanRead.js';
 import { FileReader } from './parallel/readTextSync.js';
 import { SectionCounter } from './parallel/sectionCounter.js';
@@ -26,6 +28,10 @@ export interface SectionPassOptions {
   readonly counted?: ReadonlyMap<string, CountedSections>;
   /** Runs the fold's sparse products (the build's threads). */
   readonly executor?: MatrixExecutor;
+  /** Where a large fold's rows go (a scratch file beside the index; foldCountedSections, spill). */
+  readonly spill?: OpenSpill;
+  /** Bytes of rows from which they go to the spill. @default SPILL_ROWS_FROM_BYTES */
+  readonly spillFromBytes?: number;
 }
 
 /** Gives every file of the index its sections; returns the number of files read again. */
@@ -69,6 +75,8 @@ export async function foldFileSections(
     {
       executor: options.executor,
       signal: options.signal,
+      spill: options.spill,
+      spillFromBytes: options.spillFromBytes,
       onProgress: (done) => options.onProgress?.(toRead.length + Math.round((done * (total - toRead.length)) / Math.max(1, ready.length))),
     },
   );

@@ -1,4 +1,4 @@
-import { mkdirSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -7,6 +7,9 @@ import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { resolveSettings } from '../../src/core/index/model/settings.js';
 import { chooseCounting, PARALLEL_MIN_FILES, runIndexPipeline, type SourceFile } from '../../src/node/indexPipeline.js';
 import { WorkerPool } from '../../src/node/parallel/workerPool.js';
+import { encodeIndex } from '../../src/core/index/persistence/serialize.js';
+import type { ByteSpill, OpenSpill } from '../../src/core/sections/types.js';
+import { openSpillBeside } from '../../src/node/sectionCodeFile.js';
 import { loadCollection } from '../helpers/shared.js';
 import { useBundledParallelWorker } from '../helpers/parallelWorkerBundle.js';
 
@@ -117,5 +120,81 @@ describe('runIndexPipeline', () => {
     await expect(cancelled).rejects.toBeInstanceOf(CancelledError);
     expect(saves).toBe(0);
     await expect(run({ threads: false, list: [] })).rejects.toThrow(new EmptyCorpusError('empty'));
+  });
+
+  it("keeps a large build's section counts and rows in scratch files beside the index: the same saved bytes, nothing left behind on success, failure or cancel, memory where none can be made", async () => {
+    const dir = join(tmp, 'scratch');
+    mkdirSync(dir, { recursive: true });
+    const made: ByteSpill[] = [];
+    let closes = 0;
+    // Real scratch files (sectionCodeFile.ts), counted as they are opened and closed.
+    const beside = openSpillBeside(dir, "the build's scratch file");
+    const scratch: OpenSpill = () => {
+      const s = beside();
+      if (!s) return null;
+      const counted: ByteSpill = {
+        write: (b, at) => s.write(b, at),
+        read: (into, at) => s.read(into, at),
+        close: () => {
+          closes++;
+          s.close();
+        },
+      };
+      made.push(counted);
+      return counted;
+    };
+    const build = (opts: { scratch?: OpenSpill; save?: () => Promise<void>; cancelAt?: string }) => {
+      let stop = false;
+      return runIndexPipeline({
+        settings,
+        scan: async () => ({ files, skipped: { ...none } }),
+        maxFileBytes: 1 << 20,
+        emptyMessage: 'empty',
+        threads: { threads: 2 },
+        scratch: opts.scratch,
+        // Thresholds of 0: the fixture's few MB take the paths the Linux tree's 1.4 GB do.
+        spillRowsFromBytes: 0,
+        parkCountsFromBytes: 0,
+        save: opts.save,
+        isCancelled: () => stop,
+        onProgress: (p) => {
+          if (p.stage === opts.cancelAt) stop = true;
+        },
+      });
+    };
+    const when = new Date(0);
+    const plain = await build({});
+    const spilled = await build({ scratch });
+    // One file for the parked counts (closed once read back), one for the rows (still open: the index reads them).
+    expect(made.length).toBe(2);
+    expect(closes).toBe(1);
+    expect(readdirSync(dir)).toEqual([]); // unlinked as soon as made
+    const sample = spilled.index.paths()[0];
+    expect(spilled.index.sections.get(sample)!.stored).toBeDefined();
+    expect(plain.index.sections.get(sample)!.stored).toBeUndefined();
+    expect(Buffer.from(encodeIndex(spilled.index, when)).equals(Buffer.from(encodeIndex(plain.index, when)))).toBe(true);
+    spilled.index.sections.closeRows();
+    expect(closes).toBe(2);
+    // A save that fails: both files given back before the error leaves.
+    await expect(
+      build({
+        scratch,
+        save: async () => {
+          throw new Error('no room');
+        },
+      }),
+    ).rejects.toThrow('no room');
+    expect(made.length).toBe(4);
+    expect(closes).toBe(4);
+    // Cancelled during the SVD, the counts parked: their file given back (a cancelled fold closes
+    // its own: test/core/sections/sectionVectors.test.ts).
+    await expect(build({ scratch, cancelAt: 'svd' })).rejects.toBeInstanceOf(CancelledError);
+    expect(made.length).toBe(5);
+    expect(closes).toBe(5);
+    expect(readdirSync(dir)).toEqual([]);
+    // No scratch file to be had: everything in memory, the same bytes.
+    const inMemory = await build({ scratch: () => null });
+    expect(inMemory.index.sections.get(sample)!.stored).toBeUndefined();
+    expect(Buffer.from(encodeIndex(inMemory.index, when)).equals(Buffer.from(encodeIndex(plain.index, when)))).toBe(true);
   });
 });

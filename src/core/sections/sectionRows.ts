@@ -9,8 +9,7 @@
  * touches a file.
  */
 import { InvalidInputError, UndertoneError } from '../errors.js';
-import type { FileSections } from './sectionVectors.js';
-import type { SectionRowReader, StoredRows } from './types.js';
+import type { ByteSpill, FileSections, SectionRowReader, StoredRows } from './types.js';
 
 export type { SectionRowReader, StoredRows } from './types.js';
 
@@ -58,6 +57,58 @@ export class MemoryRows implements SectionRowReader {
   close(): void {
     this._closed = true;
   }
+}
+
+/**
+ * Rows written to a spill (a large build's scratch file, src/node/sectionCodeFile.ts: the fold
+ * writes each chunk's rows in row order, foldCountedSections) and read back from it as a reopened
+ * index reads its saved rows. close() gives the spill back (its space goes with it).
+ */
+export class SpillRows implements SectionRowReader {
+  private _closed = false;
+
+  constructor(
+    private readonly spill: ByteSpill,
+    readonly rows: number,
+    readonly k: number,
+  ) {}
+
+  get closed(): boolean {
+    return this._closed;
+  }
+
+  read(first: number, count: number, into: Float32Array, at = 0): void {
+    if (this._closed) throw new SectionRowsClosedError();
+    checkRowRange(this, first, count, into, at);
+    if (count === 0) return;
+    this.spill.read(new Uint8Array(into.buffer, into.byteOffset + 4 * at, 4 * count * this.k), 4 * first * this.k);
+  }
+
+  close(): void {
+    if (this._closed) return;
+    this._closed = true;
+    this.spill.close();
+  }
+}
+
+/** One file's sections whose rows are in `reader` from row `first` on (vectors read on each access). */
+export function sectionsWithRows(
+  file: Pick<FileSections, 'starts' | 'ends' | 'titles'>,
+  reader: SectionRowReader,
+  first: number,
+): FileSections {
+  const n = file.starts.length;
+  return {
+    starts: file.starts,
+    ends: file.ends,
+    titles: file.titles,
+    stored: { reader, first },
+    get vectors(): Float32Array {
+      const out = new Float32Array(n * reader.k);
+      reader.read(first, n, out, 0);
+      return out;
+    },
+  };
 }
 
 /**

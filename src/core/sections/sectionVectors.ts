@@ -19,23 +19,10 @@ import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import { localWeight } from '../weighting/termWeighting.js';
 import { tokenize, type TokenizeOptions } from '../text/tokenize.js';
 import { splitLines, splitSections } from './splitSections.js';
-import type { Section, SectionOptions, StoredRows } from './types.js';
+import { sectionsWithRows, SpillRows } from './sectionRows.js';
+import type { FileSections, OpenSpill, Section, SectionOptions } from './types.js';
 
-/** The sections of one file: parallel arrays, f32 vectors (k per section). */
-export interface FileSections {
-  /** Zero-based first line of each section. */
-  readonly starts: Int32Array;
-  /** Zero-based line after each section's last. */
-  readonly ends: Int32Array;
-  readonly titles: readonly string[];
-  /**
-   * Unit concept vectors, k per section (zeros for a section without a model term). With `stored`,
-   * a fresh copy read from there on each access.
-   */
-  readonly vectors: Float32Array;
-  /** Where the vectors stay when they are not held in memory (a reopened index: sectionRows.ts). */
-  readonly stored?: StoredRows;
-}
+export type { FileSections } from './types.js';
 
 export interface FoldContext {
   readonly model: ConceptModel;
@@ -97,7 +84,22 @@ export interface FoldManyOptions {
   readonly chunkSections?: number;
   /** Bytes of f64 term vectors handed to the executor at once. @default PROJECTION_BLOCK_BYTES */
   readonly blockBytes?: number;
+  /**
+   * Where the rows go when all of them would take at least spillFromBytes (a scratch file beside
+   * the index: src/node/sectionCodeFile.ts); the files' sections then read their vectors from it
+   * (FileSections.stored). Without one, or when it gives null, the rows stay in memory.
+   */
+  readonly spill?: OpenSpill;
+  /** Bytes of f32 rows from which they go to the spill. @default SPILL_ROWS_FROM_BYTES */
+  readonly spillFromBytes?: number;
 }
+
+/**
+ * The fold writes its rows to the spill from this many bytes on (1.33 M sections at k = 200 are
+ * 1.06 GB: the whole tree's build held them from the fold to the save). Below it they cost little
+ * and a spill would only add reads. A round number, not tuned.
+ */
+export const SPILL_ROWS_FROM_BYTES = 256 * 1024 * 1024;
 
 /** Sections per sparse product in foldCountedSections (bounds its executor memory; common practice, not tuned). */
 export const FOLD_CHUNK_SECTIONS = 2048;
@@ -116,9 +118,27 @@ export const FOLD_CHUNK_SECTIONS = 2048;
 export function foldCountedSections(model: ConceptModel, files: readonly CountedSections[], options: FoldManyOptions = {}): FileSections[] {
   const ex = options.executor ?? createWasmExecutor() ?? serialExecutor;
   const k = model.k;
-  const vectors = files.map((f) => new Float32Array(f.starts.length * k));
+  const total = files.reduce((n, f) => n + f.starts.length, 0);
+  // With a spill the rows of each chunk (consecutive rows, in file order) go there as they are made.
+  const spill = options.spill && 4 * total * k >= (options.spillFromBytes ?? SPILL_ROWS_FROM_BYTES) ? options.spill() : null;
+  const vectors = spill ? [] : files.map((f) => new Float32Array(f.starts.length * k));
   const scoped = <T>(fn: () => T): T => (ex.scoped ? ex.scoped(fn) : fn());
-  scoped(() => {
+  try {
+    scoped(() => foldChunks());
+  } catch (err) {
+    spill?.close();
+    throw err;
+  }
+  if (!spill) return files.map((file, i) => ({ starts: file.starts, ends: file.ends, titles: file.titles, vectors: vectors[i] }));
+  const reader = new SpillRows(spill, total, k);
+  let first = 0;
+  return files.map((file) => {
+    const out = sectionsWithRows(file, reader, first);
+    first += file.starts.length;
+    return out;
+  });
+
+  function foldChunks(): void {
     const { columnOf, weights, scheme, axisScale } = model;
     const terms = weights.length;
     const width = Math.max(1, Math.min(k, Math.floor((options.blockBytes ?? PROJECTION_BLOCK_BYTES) / (8 * Math.max(1, terms)))));
@@ -134,6 +154,9 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
     // When U_k is split, each chunk gathers its column blocks from the rows again (about 0.4 s
     // CPU on the Documentation folder's 51,651 terms at k = 200, 9 chunks): laying them out once
     // for all chunks would add a second copy of U_k (41 MB there) at the build's memory peak.
+    // The chunk's rows on their way to the spill, and the row the chunk starts at.
+    const out = spill ? new Float32Array(chunk * k) : undefined;
+    let base = 0;
     // The chunk's weighted rows (CSR), reused from chunk to chunk.
     const indptr = new Int32Array(chunk + 1);
     let indices = new Int32Array(1 << 16);
@@ -197,6 +220,7 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
         if (acc) blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
         else ex.spmm(m, tv, k, part, true);
         const sums = acc ?? part;
+        out?.fill(0, 0, rows * k);
         for (let r = 0; r < rows; r++) {
           let ss = 0;
           for (let c = 0; c < k; c++) {
@@ -205,14 +229,15 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
           }
           const norm = Math.sqrt(ss);
           if (norm === 0) continue;
-          const out = vectors[fileOf[r]];
-          const at = sectionOf[r] * k;
-          for (let c = 0; c < k; c++) out[at + c] = row[c] / norm;
+          const dest = out ?? vectors[fileOf[r]];
+          const at = out ? r * k : sectionOf[r] * k;
+          for (let c = 0; c < k; c++) dest[at + c] = row[c] / norm;
         }
       });
+      if (spill && out) spill.write(new Uint8Array(out.buffer, 0, 4 * rows * k), 4 * base * k);
+      base += rows;
     }
-  });
-  return files.map((file, i) => ({ starts: file.starts, ends: file.ends, titles: file.titles, vectors: vectors[i] }));
+  }
 }
 
 /** The fold context of an index (anything with its model, vocabulary and tokenizer settings). */

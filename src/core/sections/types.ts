@@ -64,8 +64,28 @@ export interface StoredRows {
   readonly first: number;
 }
 
+/** The sections of one file: parallel arrays, f32 vectors (k per section). */
+export interface FileSections {
+  /** Zero-based first line of each section. */
+  readonly starts: Int32Array;
+  /** Zero-based line after each section's last. */
+  readonly ends: Int32Array;
+  readonly titles: readonly string[];
+  /**
+   * Unit concept vectors, k per section (zeros for a section without a model term). With `stored`,
+   * a fresh copy read from there on each access.
+   */
+  readonly vectors: Float32Array;
+  /**
+   * Where the vectors stay when they are not held in memory (a reopened index, or a large build's
+   * scratch file: sectionRows.ts).
+   */
+  readonly stored?: StoredRows;
+}
+
 /**
- * Bytes a ranker keeps out of memory: written at positions, read back in runs (the node side is a
+ * Bytes kept out of memory (a ranker's codes, a large build's section counts and rows): written at
+ * positions, read back in runs (the node side is a
  * scratch file of its own: src/node/sectionCodeFile.ts). Only ever read where it was written.
  */
 export interface ByteSpill {

@@ -12,7 +12,7 @@
  * (setImmediate), so a search that arrives meanwhile waits about one slice.
  */
 import { rm, stat } from 'node:fs/promises';
-import { basename } from 'node:path';
+import { basename, dirname } from 'node:path';
 import { NotIndexedError } from '../../core/errors.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { modelSettingsKey, resolveSettings } from '../../core/index/model/settings.js';
@@ -466,6 +466,8 @@ export class IndexService {
             }
           : undefined,
         poll: first ? () => this._early && ctx.pump?.() : undefined,
+        // A large build's scratch files beside the index file (kept in memory when the folder is not there yet).
+        scratchFolder: dirname(config.indexFile),
       });
       progress({ stage: 'save', done: 0, total: 1 });
       // An index that cannot be saved (read-only storage, a folder or FIFO at its path) is still used.

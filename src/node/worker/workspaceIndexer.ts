@@ -8,6 +8,7 @@ import { resolveSettings } from '../../core/index/model/settings.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { runIndexPipeline, tallySkipped, type PipelineOptions, type SkipCounts, type SourceFile } from '../indexPipeline.js';
 import { scanFolder } from '../scan.js';
+import { openSpillBeside } from '../sectionCodeFile.js';
 import type { Progress, WorkerConfig } from './workerProtocol.js';
 import type { RootMap } from './rootMap.js';
 
@@ -70,6 +71,11 @@ export interface WorkspaceBuildOptions {
   readonly onCounted?: PipelineOptions['onCounted'];
   /** Called wherever cancellation is checked, the synchronous SVD included (indexPipeline.ts, poll). */
   readonly poll?: () => void;
+  /**
+   * A folder for a large build's scratch files (the index file's: the same disk); the section
+   * counts wait there during the SVD and the section vectors stay there (indexPipeline.ts, scratch).
+   */
+  readonly scratchFolder?: string;
 }
 
 export async function buildWorkspaceIndex(
@@ -90,6 +96,7 @@ export async function buildWorkspaceIndex(
     threads: threads === false ? false : threads === undefined ? {} : { threads },
     onCounted: options.onCounted,
     poll: options.poll,
+    scratch: options.scratchFolder === undefined ? undefined : openSpillBeside(options.scratchFolder, "the build's scratch file"),
   });
   const s = result.skipped;
   const seconds = Object.values(result.seconds).reduce((a, b) => a + b, 0);

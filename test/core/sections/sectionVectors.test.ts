@@ -5,7 +5,7 @@
  * summed over k terms), common practice.
  */
 import { describe, expect, it } from 'vitest';
-import { CorruptIndexError } from '../../../src/core/errors.js';
+import { CancelledError, CorruptIndexError } from '../../../src/core/errors.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { decodeIndex, encodeIndex, readIndexHeader, sealIndexFile, payloadOf } from '../../../src/core/index/persistence/serialize.js';
@@ -19,6 +19,9 @@ import {
   FOLD_CHUNK_SECTIONS,
   type CountedSections,
 } from '../../../src/core/sections/sectionVectors.js';
+import { SectionRowsClosedError } from '../../../src/core/sections/sectionRows.js';
+import { SectionStore } from '../../../src/core/sections/sectionStore.js';
+import type { OpenSpill } from '../../../src/core/sections/types.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 
@@ -32,6 +35,40 @@ function buildWithSections(): LsiIndex {
   const ctx = foldContextOf(index);
   for (const d of docs) index.sections.set(d.id, foldSections(ctx, d.id, d.text));
   return index;
+}
+
+/**
+ * Each file's section counts in one pair of arrays, as the tokenizing threads give them; all
+ * files share one pair here (offsets are absolute), as the files of one thread do.
+ */
+function countedOf(index: LsiIndex): CountedSections[] {
+  const ctx = foldContextOf(index);
+  const ids: number[] = [];
+  const counts: number[] = [];
+  const parts = docs.map((d) => {
+    const lines = splitLines(d.text);
+    const cut = splitSections(d.id, d.text).sections;
+    const offsets = new Int32Array(cut.length + 1);
+    offsets[0] = ids.length;
+    cut.forEach((s, i) => {
+      const t = countTerms(tokenize(lines.slice(s.start, s.end).join('\n'), ctx.tokenize), ctx.vocab, false);
+      ids.push(...t.termIds);
+      counts.push(...t.counts);
+      offsets[i + 1] = ids.length;
+    });
+    return { cut, offsets };
+  });
+  const termIds = Int32Array.from(ids);
+  const shared = Float32Array.from(counts);
+  const counted: CountedSections[] = parts.map(({ cut, offsets }) => ({
+    starts: Int32Array.from(cut, (s) => s.start),
+    ends: Int32Array.from(cut, (s) => s.end),
+    titles: cut.map((s) => s.title),
+    offsets,
+    termIds,
+    counts: shared,
+  }));
+  return counted;
 }
 
 function maxDiff(a: Float32Array, b: Float32Array): number {
@@ -86,34 +123,7 @@ describe('section vectors', () => {
 
   it('folds counted sections of many files at once as projectTerms folds each (serial and WebAssembly products)', () => {
     const index = buildWithSections();
-    const ctx = foldContextOf(index);
-    // Each file's section counts in one pair of arrays, as the tokenizing threads give them; all
-    // files share one pair here (offsets are absolute), as the files of one thread do.
-    const ids: number[] = [];
-    const counts: number[] = [];
-    const parts = docs.map((d) => {
-      const lines = splitLines(d.text);
-      const cut = splitSections(d.id, d.text).sections;
-      const offsets = new Int32Array(cut.length + 1);
-      offsets[0] = ids.length;
-      cut.forEach((s, i) => {
-        const t = countTerms(tokenize(lines.slice(s.start, s.end).join('\n'), ctx.tokenize), ctx.vocab, false);
-        ids.push(...t.termIds);
-        counts.push(...t.counts);
-        offsets[i + 1] = ids.length;
-      });
-      return { cut, offsets };
-    });
-    const termIds = Int32Array.from(ids);
-    const shared = Float32Array.from(counts);
-    const counted: CountedSections[] = parts.map(({ cut, offsets }) => ({
-      starts: Int32Array.from(cut, (s) => s.start),
-      ends: Int32Array.from(cut, (s) => s.end),
-      titles: cut.map((s) => s.title),
-      offsets,
-      termIds,
-      counts: shared,
-    }));
+    const counted = countedOf(index);
     const total = counted.reduce((n, c) => n + c.starts.length, 0);
     expect(total).toBeGreaterThan(300);
     expect(counted.some((c) => c.starts.length === 0)).toBe(false);
@@ -144,6 +154,87 @@ describe('section vectors', () => {
     expect(byRun[3]).toEqual(byRun[2]);
     expect(byRun[4]).toEqual(byRun[0]);
     expect(byRun[5]).toEqual(byRun[0]);
+  });
+
+  it('writes the rows to a spill from the threshold on: the same bits, read back as stored rows; the spill given back on a cancel', () => {
+    const index = buildWithSections();
+    const counted = countedOf(index);
+    // A spill held in a growing array (the node side is a scratch file, sectionCodeFile.ts).
+    let closed = 0;
+    let opened = 0;
+    const open: OpenSpill = () => {
+      opened++;
+      let bytes = new Uint8Array(0);
+      return {
+        write: (b, at) => {
+          if (at + b.length > bytes.length) {
+            const grown = new Uint8Array(at + b.length);
+            grown.set(bytes);
+            bytes = grown;
+          }
+          bytes.set(b, at);
+        },
+        read: (into, at) => into.set(bytes.subarray(at, at + into.length)),
+        close: () => closed++,
+      };
+    };
+    const inMemory = foldCountedSections(index.model, counted, { executor: serialExecutor, chunkSections: 37 });
+    const rows = counted.reduce((n, c) => n + c.starts.length, 0);
+    const bytes = 4 * rows * index.k;
+    // Below the threshold: no spill is opened.
+    const below = foldCountedSections(index.model, counted, {
+      executor: serialExecutor,
+      chunkSections: 37,
+      spill: open,
+      spillFromBytes: bytes + 1,
+    });
+    expect(opened).toBe(0);
+    expect(below.every((f) => f.stored === undefined)).toBe(true);
+    // At it: every file's rows in the spill, in file order, the same bits as in memory.
+    const spilled = foldCountedSections(index.model, counted, {
+      executor: serialExecutor,
+      chunkSections: 37,
+      spill: open,
+      spillFromBytes: bytes,
+    });
+    expect(opened).toBe(1);
+    let first = 0;
+    spilled.forEach((f, i) => {
+      expect(f.stored?.first).toBe(first);
+      expect(f.stored?.reader).toBe(spilled[0].stored?.reader);
+      first += f.starts.length;
+      expect(f.vectors).toEqual(inMemory[i].vectors);
+      expect(f.titles).toEqual(inMemory[i].titles);
+    });
+    expect(spilled[0].stored!.reader.rows).toBe(rows);
+    // A store reads them as a reopened index's rows, and closing its rows gives the spill back.
+    const store = new SectionStore(index.k);
+    docs.forEach((d, i) => store.set(d.id, spilled[i]));
+    expect(store.get(docs[3].id)!.vectors).toEqual(inMemory[3].vectors);
+    store.closeRows();
+    expect(closed).toBe(1);
+    expect(() => spilled[0].vectors).toThrow(SectionRowsClosedError);
+    // Cancelled after the first chunk: the spill is closed before the error leaves.
+    let polls = 0;
+    const signal = {
+      get aborted() {
+        return ++polls > 1;
+      },
+    };
+    expect(() =>
+      foldCountedSections(index.model, counted, { executor: serialExecutor, chunkSections: 37, spill: open, spillFromBytes: 0, signal }),
+    ).toThrow(CancelledError);
+    expect(opened).toBe(2);
+    expect(closed).toBe(2);
+    // No spill to be had: the rows stay in memory.
+    const none = foldCountedSections(index.model, counted, {
+      executor: serialExecutor,
+      chunkSections: 37,
+      spill: () => null,
+      spillFromBytes: 0,
+    });
+    expect(none.every((f) => f.stored === undefined)).toBe(true);
+    expect(none.map((f) => f.vectors)).toEqual(inMemory.map((f) => f.vectors));
   });
 
   it('saves and reopens every section exactly; removing a file drops its sections', () => {

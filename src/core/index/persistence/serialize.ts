@@ -20,6 +20,7 @@
  * The section lists' codes come after the vectors, so such a reader leaves them in the file too and
  * hands decodeIndexWithRows a way to read them (ByteSpill, as the lists' spill reads its codes).
  */
+import type { FileSections } from '../../sections/types.js';
 import { CorruptIndexError } from '../../errors.js';
 import { Checksum32, checksum32 } from './checksum.js';
 import type { ConceptModel } from '../model/conceptModel.js';
@@ -280,12 +281,55 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
     copied('listGroups', saved?.groups ?? new Float32Array(0)),
     copied('listGroupStarts', saved?.groupStarts ?? new Int32Array(0)),
     copied('sectionList', saved?.listOf ?? new Int32Array(0)),
-    gathered('sectionVectors', 'f32', total * k, function* () {
-      for (const f of files) if (f) yield f.vectors;
-    }),
+    gathered('sectionVectors', 'f32', total * k, () => sectionRowBlocks(files, indptr, k)),
     { name: 'sectionCodes', kind: 'u8', length: listed * k, pieces: () => saved?.codes() ?? [] },
     { name: 'sectionCodeParams', kind: 'f64', length: 3 * listed, pieces: () => saved?.params() ?? [] },
   ];
+}
+
+/**
+ * Bytes of stored rows read at once by the save (files whose rows follow one another in the same
+ * source, such as a build's scratch file, go in one read; common practice, not tuned).
+ */
+export const SAVE_ROW_BLOCK_BYTES = 4 * 1024 * 1024;
+
+/**
+ * The files' section rows in order: vectors held in memory as they are; stored rows (a reopened
+ * index's file, a large build's scratch file) read in blocks of up to SAVE_ROW_BLOCK_BYTES over
+ * consecutive files whose rows are consecutive in one source, instead of an array per file. A
+ * block is valid until the next one is asked for (the writer copies or writes it at once).
+ */
+function* sectionRowBlocks(files: readonly (FileSections | undefined)[], indptr: Int32Array, k: number): Generator<Float32Array> {
+  const most = Math.max(1, Math.floor(SAVE_ROW_BLOCK_BYTES / (4 * k)));
+  let block: Float32Array | undefined;
+  for (let i = 0; i < files.length;) {
+    const f = files[i];
+    const stored = f?.stored;
+    const n = indptr[i + 1] - indptr[i];
+    if (!f || n === 0) {
+      i++;
+      continue;
+    }
+    if (!stored || n > most) {
+      yield f.vectors;
+      i++;
+      continue;
+    }
+    // The run of files from this one whose rows follow on in the same source, up to a block.
+    let rows = n;
+    let j = i + 1;
+    for (; j < files.length; j++) {
+      const g = files[j];
+      const m = indptr[j + 1] - indptr[j];
+      if (m === 0) continue;
+      if (!g?.stored || g.stored.reader !== stored.reader || g.stored.first !== stored.first + rows || rows + m > most) break;
+      rows += m;
+    }
+    if (!block) block = new Float32Array(most * k);
+    stored.reader.read(stored.first, rows, block, 0);
+    yield block.subarray(0, rows * k);
+    i = j;
+  }
 }
 
 /** Writes magic, header (padded with spaces to `reserved` bytes) and the header checksum into out. */
