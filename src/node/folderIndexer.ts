@@ -4,6 +4,8 @@
  * folder-relative paths), and save atomically when anything changed. A damaged or older saved
  * index is rebuilt from the files; on failure or cancel the previous saved index is left untouched.
  */
+import { existsSync } from 'node:fs';
+import { rmdir } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { CancelledError } from '../core/errors.js';
@@ -93,8 +95,10 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
   let scanSkipped: readonly SkippedPath[] = [];
   let saveProblem: string | undefined;
   // The index's folder first, so a large build's scratch files can live beside the index (on its
-  // disk); where it cannot be made they stay in memory, and the save reports why.
+  // disk); where it cannot be made they stay in memory, and the save reports why. A folder made
+  // here is removed again when the run ends without an index in it (failure, cancel, no save).
   const folder = dirname(resolve(options.indexFile));
+  const madeFolder = !existsSync(folder);
   const scratch = await ensureFolder(folder).then(
     () => openSpillBeside(folder, "the build's scratch file"),
     () => undefined,
@@ -121,6 +125,8 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     threads: options.parallel ?? {},
     sections: options.sections,
     scratch,
+  }).finally(async () => {
+    if (madeFolder && !existsSync(options.indexFile)) await rmdir(folder).catch(() => undefined);
   });
   const outcome = result.unchanged ? 'unchanged' : previous ? 'refreshed' : 'fresh';
   return { ...report(result, outcome, savedIndexProblem, { load: loadSeconds, ...result.seconds }, t0), saveProblem, scanSkipped };

@@ -115,6 +115,8 @@ describe('undertone command line', () => {
     const nothing = await run('index', empty);
     expect(nothing.code).toBe(1);
     expect(nothing.err).toMatch(/Nothing indexable/);
+    // The failed build leaves no index folder behind (the command makes it first, for scratch files).
+    expect(readdirSync(cache).filter((name) => name.startsWith('empty-folder-'))).toEqual([]);
   });
 
   it('clamps a k larger than the collection allows, with a note', async () => {
