@@ -463,6 +463,7 @@ export function decodeIndexWithRows(
   rows: SectionRowReader,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
   vectors?: ConceptRows,
+  terms?: TermListGate,
 ): LsiIndex {
   const header = readIndexHeader(head);
   const start = headerExtent(head);
@@ -475,7 +476,56 @@ export function decodeIndexWithRows(
     throw new CorruptIndexError(
       `the files' vector rows hold ${vectors.capacity} rows of ${vectors.k}, expected ${header.docs} of ${k} (a reader bug)`,
     );
-  return decodeChecked(header, head.subarray(start), rows, codes, vectors);
+  return decodeChecked(header, head.subarray(start), rows, codes, vectors, terms);
+}
+
+/**
+ * Term lists that a reader streamed through their checksum and TermListCheck without keeping them,
+ * and fills into their place in the head after the load (persist.ts): ensure() returns once they
+ * are there (finishing the fill itself when it has not ended) and throws when they cannot be read.
+ * The index's slots call it before giving out a file's terms, so nothing reads them unfilled.
+ */
+export interface TermListGate {
+  ensure(): void;
+}
+
+/** Where the term lists (termIds, then termCounts, adjacent) lie in the file, and how many entries they hold. */
+export function termListsOf(
+  header: CheckedHeader,
+  fileStart: number,
+): { readonly at: number; readonly idsBytes: number; readonly bytes: number; readonly total: number } {
+  const ids = header.sections.find((s) => s.name === 'termIds')!;
+  const counts = header.sections.find((s) => s.name === 'termCounts')!;
+  return { at: fileStart + ids.offset, idsBytes: 4 * ids.length, bytes: counts.offset + 4 * counts.length - ids.offset, total: ids.length };
+}
+
+/** Where termIndptr lies in the file, and how many terms the vocabulary holds (from its offsets' length). */
+export function termIndptrOf(
+  header: CheckedHeader,
+  fileStart: number,
+): { readonly at: number; readonly length: number; readonly vocabSize: number } {
+  const ip = header.sections.find((s) => s.name === 'termIndptr')!;
+  const starts = header.sections.find((s) => s.name === 'vocabStarts')!;
+  return { at: fileStart + ip.offset, length: ip.length, vocabSize: starts.length - 1 };
+}
+
+/**
+ * A reopened file's slot whose term lists are views of bytes filled in after the load
+ * (TermListGate): its terms wait for them. The other fields are plain, as in any DocSlot.
+ */
+class FilledLaterSlot implements DocSlot {
+  constructor(
+    public meta: DocSlot['meta'],
+    private readonly _terms: DocSlot['terms'],
+    public folded: boolean,
+    public residual: number,
+    private readonly gate: TermListGate,
+  ) {}
+
+  get terms(): DocSlot['terms'] {
+    this.gate.ensure();
+    return this._terms;
+  }
 }
 
 /**
@@ -495,6 +545,7 @@ function decodeChecked(
   rows: SectionRowReader | undefined,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
   conceptRows?: ConceptRows,
+  terms?: TermListGate,
 ): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
@@ -533,6 +584,7 @@ function decodeChecked(
     indptr: get('termIndptr', 'i32'),
     ids: get('termIds', 'i32'),
     counts: get('termCounts', 'f32'),
+    termsChecked: terms !== undefined,
     keptIds: get('keptIds', 'i32'),
     columnOfLength: header.model.columnOfLength,
     weights: get('weights', 'f64'),
@@ -560,12 +612,17 @@ function decodeChecked(
   keptIds.forEach((id, c) => (columnOf[id] = c));
   const { columnOfLength: _len, ...scalars } = header.model;
   const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
-  const slots: DocSlot[] = paths.map((path, j) => ({
-    meta: withLanguage<DocSlot['meta']>({ path, size: size[j], mtimeMs: mtime[j] }, LANGUAGES[parts.language[j]]),
-    terms: { termIds: ids.subarray(indptr[j], indptr[j + 1]), counts: counts.subarray(indptr[j], indptr[j + 1]), length: length[j] },
-    folded: folded[j] === 1,
-    residual: residual[j],
-  }));
+  const slots: DocSlot[] = paths.map((path, j) => {
+    const meta = withLanguage<DocSlot['meta']>({ path, size: size[j], mtimeMs: mtime[j] }, LANGUAGES[parts.language[j]]);
+    const docTerms = {
+      termIds: ids.subarray(indptr[j], indptr[j + 1]),
+      counts: counts.subarray(indptr[j], indptr[j + 1]),
+      length: length[j],
+    };
+    return terms
+      ? new FilledLaterSlot(meta, docTerms, folded[j] === 1, residual[j], terms)
+      : { meta, terms: docTerms, folded: folded[j] === 1, residual: residual[j] };
+  });
   const index = LsiIndex.assemble(header.settings, vocab, model, slots, conceptRows ?? vectors);
   index.restoreCounters(header.counters);
   const titles = parts.sectionTitles;
