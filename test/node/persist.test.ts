@@ -178,6 +178,18 @@ describe('persist', () => {
     for (const chunk of [8, 4096, undefined]) expect(answers(await reopen(file, chunk))).toEqual(answers(index));
   });
 
+  it('reports a vocabulary byte that is not UTF-8 as damage, however the file is read', async () => {
+    const bytes = encodeIndex(buildAdi());
+    const header = readIndexHeader(bytes);
+    const payload = payloadOf(bytes).slice();
+    const e = header.sections.find((s) => s.name === 'vocab')!;
+    payload[e.offset + Math.floor(e.length / 2)] = 0xff; // never in UTF-8 (Unicode Standard, Table 3-7)
+    const file = join(dir, 'vocab-utf8.undertone');
+    writeFileSync(file, sealIndexFile(header, payload));
+    for (const options of [{}, { checkRows: 'later' as const }, { sectionRows: 'memory' as const }])
+      expect(await loadIndex(file, options)).toEqual({ status: 'damaged', reason: expect.stringMatching(/vocabulary is not valid UTF-8/) });
+  });
+
   it('reports a folder, a FIFO or a device at the index path without blocking or reading it', async () => {
     const sub = join(dir, 'occupied');
     mkdirSync(join(sub, 'index.undertone'), { recursive: true });

@@ -568,7 +568,10 @@ function decodeChecked(
       throw new CorruptIndexError('index file paths are not valid UTF-8');
     }
   };
-  const vocab = Vocabulary.fromBytes({ bytes: get('vocab', 'u8'), starts: get('vocabStarts', 'i32'), sorted: header.vocabSorted });
+  const vocabBytes = get('vocab', 'u8');
+  // Checked without decoding (a term is decoded only when asked for, which would not say it is damaged).
+  if (!isWellFormedUtf8(vocabBytes)) throw new CorruptIndexError('index vocabulary is not valid UTF-8');
+  const vocab = Vocabulary.fromBytes({ bytes: vocabBytes, starts: get('vocabStarts', 'i32'), sorted: header.vocabSorted });
   if (!vocab) throw new CorruptIndexError('index vocabulary does not match its term offsets');
   const paths = n === 0 ? [] : splitText(get('paths', 'u8'));
   if (paths.length !== n) throw new CorruptIndexError('index sections disagree in size: paths are not docs long');
