@@ -509,22 +509,37 @@ export function termIndptrOf(
   return { at: fileStart + ip.offset, length: ip.length, vocabSize: starts.length - 1 };
 }
 
+/** The term lists of all files of a reopened index, with the gate that says when they are filled. */
+interface SavedTermLists {
+  readonly ids: Int32Array;
+  readonly counts: Float32Array;
+  readonly indptr: Int32Array;
+  readonly length: Float64Array;
+  readonly gate: TermListGate;
+}
+
 /**
- * A reopened file's slot whose term lists are views of bytes filled in after the load
- * (TermListGate): its terms wait for them. The other fields are plain, as in any DocSlot.
+ * A reopened file's slot whose term lists are bytes filled in after the load (TermListGate): its
+ * terms wait for them, and their views are made on the first access (then kept), so the load makes
+ * no per-file arrays for them. The other fields are plain, as in any DocSlot.
  */
 class FilledLaterSlot implements DocSlot {
+  private _terms: DocSlot['terms'] | undefined;
+
   constructor(
     public meta: DocSlot['meta'],
-    private readonly _terms: DocSlot['terms'],
     public folded: boolean,
     public residual: number,
-    private readonly gate: TermListGate,
+    private readonly lists: SavedTermLists,
+    private readonly j: number,
   ) {}
 
   get terms(): DocSlot['terms'] {
-    this.gate.ensure();
-    return this._terms;
+    if (this._terms) return this._terms;
+    const { ids, counts, indptr, length, gate } = this.lists;
+    gate.ensure();
+    const [a, b] = [indptr[this.j], indptr[this.j + 1]];
+    return (this._terms = { termIds: ids.subarray(a, b), counts: counts.subarray(a, b), length: length[this.j] });
   }
 }
 
@@ -615,16 +630,16 @@ function decodeChecked(
   keptIds.forEach((id, c) => (columnOf[id] = c));
   const { columnOfLength: _len, ...scalars } = header.model;
   const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
+  const lists: SavedTermLists | undefined = terms && { ids, counts, indptr, length, gate: terms };
   const slots: DocSlot[] = paths.map((path, j) => {
     const meta = withLanguage<DocSlot['meta']>({ path, size: size[j], mtimeMs: mtime[j] }, LANGUAGES[parts.language[j]]);
+    if (lists) return new FilledLaterSlot(meta, folded[j] === 1, residual[j], lists, j);
     const docTerms = {
       termIds: ids.subarray(indptr[j], indptr[j + 1]),
       counts: counts.subarray(indptr[j], indptr[j + 1]),
       length: length[j],
     };
-    return terms
-      ? new FilledLaterSlot(meta, docTerms, folded[j] === 1, residual[j], terms)
-      : { meta, terms: docTerms, folded: folded[j] === 1, residual: residual[j] };
+    return { meta, terms: docTerms, folded: folded[j] === 1, residual: residual[j] };
   });
   const index = LsiIndex.assemble(header.settings, vocab, model, slots, conceptRows ?? vectors);
   index.restoreCounters(header.counters);
