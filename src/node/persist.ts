@@ -33,8 +33,12 @@ import {
   readIndexHeader,
   sectionCodesOf,
   sectionRowsOf,
+  termIndptrOf,
+  termListsOf,
   vectorsOf,
 } from '../core/index/persistence/serialize.js';
+import { TermListCheck } from '../core/index/persistence/indexFileCheck.js';
+import { TermListFill } from './termListFill.js';
 import { openSpillBeside } from './sectionCodeFile.js';
 import { FileSectionRows } from './sectionRowFile.js';
 import { TailCheck } from './persistCheck.js';
@@ -288,6 +292,12 @@ export type LoadOutcome =
        * from format 6 on it runs after the load, and every read of a row or a code waits for it.
        */
       readonly checked: Promise<string | undefined>;
+      /**
+       * When the files' term lists are in memory: they are filled in after the load (with rows in
+       * the file), and a slot asked for its terms before then reads them at once (termListFill.ts).
+       * Never rejects; a failed fill is reported by the first use of a slot's terms.
+       */
+      readonly termsFilled: Promise<void>;
     }
   | { readonly status: 'missing' }
   | { readonly status: 'damaged'; readonly reason: string };
@@ -316,6 +326,12 @@ export interface LoadOptions {
    */
   onDamaged?: (reason: string) => void;
 }
+
+/**
+ * Bytes of the scratch buffers the term lists are streamed through at load (two: one summed while
+ * the next is read); small, so few fresh pages are made for them (our choice, not tuned).
+ */
+export const TERM_SCRATCH_BYTES = 4 * 1024 * 1024;
 
 export const DEFAULT_LOAD_OPTIONS: LoadOptions = { readChunkBytes: 32 * 1024 * 1024, sectionRows: 'file' };
 
@@ -395,6 +411,8 @@ async function readCheckedHead(
   tail: TailCheck;
   /** The files' concept vectors, read into the ranking rows (their place in head is left unread). */
   vectors: ConceptRows;
+  /** The files' term lists, checked but not yet in head (filled after the load). */
+  terms: TermListFill;
 }> {
   const handle = await open(path, OPEN_FLAGS);
   let kept = false;
@@ -409,29 +427,60 @@ async function readCheckedHead(
     const conceptRows = new ConceptRows(k, header.docs);
     const vectors = conceptRows.rowBytes(header.docs);
     if (vectors.length !== v.bytes) throw new CorruptIndexError("the files' vectors are not k per document");
-    const parts: [number, number, Uint8Array, number][] = [
-      [0, v.at, head, 0],
+    // The files' term lists (termIds, termCounts) are streamed through a small scratch buffer for
+    // the checksum and TermListCheck, their place in the head left untouched; they are filled in
+    // after the load (termListFill.ts), so their pages (173 MB on the Linux tree) are not made
+    // before the index answers.
+    const t = termListsOf(header, start);
+    const ip = termIndptrOf(header, start);
+    if (!(ip.at + 4 * ip.length <= t.at && t.at + t.bytes <= v.at))
+      throw new CorruptIndexError('the term lists are out of place (a reader bug)');
+    const scratchBytes = Math.max(8, Math.min(chunk, TERM_SCRATCH_BYTES) & ~7);
+    const scratch = [new Uint8Array(scratchBytes), new Uint8Array(scratchBytes)];
+    const parts: [number, number, Uint8Array | null, number][] = [
+      [0, t.at, head, 0],
+      [t.at, t.at + t.bytes, null, t.at],
+      [t.at + t.bytes, v.at, head, 0],
       [v.at, v.at + v.bytes, vectors, v.at],
       [v.at + v.bytes, at, head, 0],
     ];
     // Read and summed in turns: each chunk is summed while the next one is read (on the thread pool).
-    const chunks: [number, number, Uint8Array][] = [];
-    for (const [from, to, buf, base] of parts)
-      for (let p = from; p < to; p += chunk)
-        chunks.push([p, Math.min(to, p + chunk), buf.subarray(p - base, Math.min(to, p + chunk) - base)]);
+    const chunks: [number, number, Uint8Array, boolean][] = [];
+    let scratchUsed = 0;
+    for (const [from, to, buf, base] of parts) {
+      const step = buf ? chunk : scratchBytes;
+      for (let p = from; p < to; p += step) {
+        const end = Math.min(to, p + step);
+        const into = buf ? buf.subarray(p - base, end - base) : scratch[scratchUsed++ % 2].subarray(0, end - p);
+        chunks.push([p, end, into, !buf]);
+      }
+    }
     const sum = new Checksum32();
     const readChunk = (i: number): Promise<number> => {
       const [from, to, into] = chunks[i];
       return readAt(handle, into, from, to - from, chunk);
     };
+    let check: TermListCheck | undefined;
+    const idsEnd = t.at + t.idsBytes;
+    const countsAt = t.at + t.bytes - 4 * t.total;
     let pending = chunks.length > 0 ? readChunk(0) : undefined;
     for (let i = 0; i < chunks.length; i++) {
       if (signal?.aborted) throw new CancelledError();
-      const [from, to, into] = chunks[i];
+      const [from, to, into, lists] = chunks[i];
       if ((await pending!) < to - from) throw new CorruptIndexError('index file is shorter than its header says');
       if (i + 1 < chunks.length) pending = readChunk(i + 1);
       if (to > start) sum.update(into.subarray(Math.max(0, start - from)));
+      if (lists) {
+        // termIndptr lies before the lists, so it is in the head by now.
+        check ??= new TermListCheck(new Int32Array(head.buffer, ip.at, ip.length), t.total, ip.vocabSize);
+        const a = Math.min(Math.max(from, t.at), idsEnd);
+        const b = Math.min(to, idsEnd);
+        if (b > a) check.ids(new Int32Array(into.buffer, into.byteOffset + (a - from), (b - a) >> 2));
+        const c = Math.max(from, countsAt);
+        if (to > c) check.counts(new Float32Array(into.buffer, into.byteOffset + (c - from), (to - c) >> 2));
+      }
     }
+    if (t.total > 0 || check) (check ?? new TermListCheck(new Int32Array(head.buffer, ip.at, ip.length), t.total, ip.vocabSize)).finish();
     if (signal?.aborted) throw new CancelledError();
     const codes = sectionCodesOf(header, start);
     const tail = new TailCheck(handle, path, sum, header.checksum, { rowsAt: at, rows, k, codes, size });
@@ -446,7 +495,8 @@ async function readCheckedHead(
     const saved = codes
       ? { codes: reader.region(codes.codesAt, codes.codesBytes), params: reader.region(codes.paramsAt, codes.paramsBytes) }
       : undefined;
-    return { head, rows: reader, codes: saved, size, tail, vectors: conceptRows };
+    const terms = new TermListFill(handle, path, head.subarray(t.at, t.at + t.bytes), t.at, () => reader.closed);
+    return { head, rows: reader, codes: saved, size, tail, vectors: conceptRows, terms };
   } finally {
     if (!kept) await handle.close();
   }
@@ -469,6 +519,7 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     size?: number;
     tail?: TailCheck;
     vectors?: ConceptRows;
+    terms?: TermListFill;
   };
   try {
     read = inFile
@@ -481,9 +532,11 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     if (code === 'ENOENT') return { status: 'missing' };
     return { status: 'damaged', reason: `cannot read ${path}: ${describeFsError(err)}` };
   }
-  const { head, rows, codes, size, tail, vectors } = read;
+  const { head, rows, codes, size, tail, vectors, terms } = read;
   try {
-    const index = rows ? decodeIndexWithRows(head, rows, codes, vectors) : decodeIndex(head);
+    const index = rows ? decodeIndexWithRows(head, rows, codes, vectors, terms) : decodeIndex(head);
+    // The term lists go into their place in the background (a slot asked for its terms first fills them at once).
+    const termsFilled = terms ? terms.start(chunk) : Promise.resolve();
     // Rows left in the file: the section lists' codes go to a scratch file beside it too.
     if (rows) index.sections.spillListsTo(openSpillBeside(dirname(resolve(path))));
     // The rows and codes not yet checked (format 6): checked in the background from now on, and
@@ -493,7 +546,7 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
       if (options.onDamaged)
         void tail.done.then((reason) => reason !== undefined && !rows!.closed && options.onDamaged!(`${path}: ${reason}`));
     }
-    return { status: 'ok', index, bytes: size ?? head.length, checked: tail?.done ?? Promise.resolve(undefined) };
+    return { status: 'ok', index, bytes: size ?? head.length, checked: tail?.done ?? Promise.resolve(undefined), termsFilled };
   } catch (err) {
     rows?.close();
     if (err instanceof CorruptIndexError) return { status: 'damaged', reason: `${path}: ${err.message}` };

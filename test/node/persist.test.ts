@@ -130,6 +130,66 @@ describe('persist', () => {
       }
   });
 
+  it('checks the term lists as it streams them past (any read size) and refuses bad ones even with good checksums', async () => {
+    const index = buildAdi();
+    const bytes = encodeIndex(index);
+    const header = readIndexHeader(bytes);
+    const file = join(dir, 'term-lists.undertone');
+    const ids = header.sections.find((s) => s.name === 'termIds')!;
+    const counts = header.sections.find((s) => s.name === 'termCounts')!;
+    const ip = header.sections.find((s) => s.name === 'termIndptr')!;
+    const at = Math.floor(ids.length / 2);
+    const damaged = (edit: (view: DataView) => void): Uint8Array => {
+      const payload = payloadOf(bytes).slice();
+      edit(new DataView(payload.buffer));
+      return sealIndexFile(header, payload);
+    };
+    // A document's second id set to its first (a first id of 0 can only be pushed past the vocabulary).
+    const indptr = new Int32Array(payloadOf(bytes).slice(ip.offset, ip.offset + 4 * ip.length).buffer);
+    const doc = indptr.findIndex((a, j) => j < ip.length - 1 && indptr[j + 1] - a >= 2 && a >= at);
+    const first = new DataView(payloadOf(bytes).slice().buffer).getInt32(ids.offset + 4 * indptr[doc], true);
+    const cases: [string, Uint8Array, RegExp][] = [
+      ['repeated id', damaged((v) => v.setInt32(ids.offset + 4 * (indptr[doc] + 1), first, true)), /term id out of order/],
+      ['id past the vocabulary', damaged((v) => v.setInt32(ids.offset + 4 * at, index.vocab.size, true)), /term id/],
+      ['negative id', damaged((v) => v.setInt32(ids.offset, -1, true)), /term id/],
+      ['zero count', damaged((v) => v.setFloat32(counts.offset + 4 * at, 0, true)), /termCounts holds a value out of range/],
+      ['last count NaN', damaged((v) => v.setUint32(counts.offset + 4 * (counts.length - 1), 0x7fc00000, true)), /termCounts/],
+    ];
+    for (const [what, damagedFile, reason] of cases) {
+      writeFileSync(file, damagedFile);
+      for (const options of [
+        { readChunkBytes: 8 },
+        { readChunkBytes: 4096 },
+        { checkRows: 'later' as const },
+        { sectionRows: 'memory' as const },
+      ])
+        expect(await loadIndex(file, options), `${what} ${JSON.stringify(options)}`).toEqual({
+          status: 'damaged',
+          reason: expect.stringMatching(reason),
+        });
+    }
+    // A flipped bit in the lists fails the checksum (they are summed as they stream past).
+    const flipped = Buffer.from(bytes);
+    flipped[bytes.length - payloadOf(bytes).length + counts.offset + 4 * at + 1] ^= 0x04;
+    writeFileSync(file, flipped);
+    expect(await loadIndex(file, { checkRows: 'later' })).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/checksum/) });
+    // The good file reopens with the same answers at any read size (the lists filled after the load).
+    writeFileSync(file, bytes);
+    for (const chunk of [8, 4096, undefined]) expect(answers(await reopen(file, chunk))).toEqual(answers(index));
+  });
+
+  it('reports a vocabulary byte that is not UTF-8 as damage, however the file is read', async () => {
+    const bytes = encodeIndex(buildAdi());
+    const header = readIndexHeader(bytes);
+    const payload = payloadOf(bytes).slice();
+    const e = header.sections.find((s) => s.name === 'vocab')!;
+    payload[e.offset + Math.floor(e.length / 2)] = 0xff; // never in UTF-8 (Unicode Standard, Table 3-7)
+    const file = join(dir, 'vocab-utf8.undertone');
+    writeFileSync(file, sealIndexFile(header, payload));
+    for (const options of [{}, { checkRows: 'later' as const }, { sectionRows: 'memory' as const }])
+      expect(await loadIndex(file, options)).toEqual({ status: 'damaged', reason: expect.stringMatching(/vocabulary is not valid UTF-8/) });
+  });
+
   it('reports a folder, a FIFO or a device at the index path without blocking or reading it', async () => {
     const sub = join(dir, 'occupied');
     mkdirSync(join(sub, 'index.undertone'), { recursive: true });

@@ -68,7 +68,8 @@ export async function importFactorsCommand(folder: string, flags: Flags, io: Io)
     index.settings,
     index.vocab,
     model,
-    slots.map((slot) => ({ ...slot, folded: false, residual: 0 })),
+    // Named fields, not a spread: a reopened index's slot gives its terms through a getter.
+    slots.map((slot) => ({ meta: slot.meta, terms: slot.terms, folded: false, residual: 0 })),
   );
   await saveIndex(indexFile, next);
   const summary = {

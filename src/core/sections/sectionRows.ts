@@ -104,11 +104,16 @@ export function sectionsWithRows(
     titles: file.titles,
     stored: { reader, first },
     get vectors(): Float32Array {
-      const out = new Float32Array(n * reader.k);
-      reader.read(first, n, out, 0);
-      return out;
+      return rowsOf(reader, first, n);
     },
   };
+}
+
+/** A fresh array of the `n` rows of `reader` from row `first` on (a file's vectors, read on each access). */
+function rowsOf(reader: SectionRowReader, first: number, n: number): Float32Array {
+  const out = new Float32Array(n * reader.k);
+  reader.read(first, n, out, 0);
+  return out;
 }
 
 /**
@@ -180,9 +185,7 @@ export class StoredFileSections implements FileSections {
   }
 
   get vectors(): Float32Array {
-    const out = new Float32Array(this.n * this.table.rows.k);
-    this.table.rows.read(this.stored.first, this.n, out, 0);
-    return out;
+    return rowsOf(this.table.rows, this.stored.first, this.n);
   }
 
   private line(side: 0 | 1): Int32Array {

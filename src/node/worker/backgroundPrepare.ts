@@ -15,10 +15,17 @@ export interface BackgroundPreparation {
   readonly done: Promise<boolean>;
 }
 
-export function prepareInBackground(index: LsiIndex, options: { sliceMs: number; pause: () => Promise<void> }): BackgroundPreparation {
+/**
+ * `after`: starts once it has settled (a reopened index's term lists filled in the background,
+ * persist.ts termsFilled: the first slice would otherwise read them all at once, holding the thread).
+ */
+export function prepareInBackground(
+  index: LsiIndex,
+  options: { sliceMs: number; pause: () => Promise<void>; after?: Promise<void> },
+): BackgroundPreparation {
   const controller = new AbortController();
   const { sliceMs, pause } = options;
-  const done = pause()
+  const done = (options.after ? options.after.then(pause) : pause())
     .then(() => index.prepare({ signal: controller.signal, sliceMs, pause }))
     .then(async (ready) => {
       for (let i = 0; ready && i < WARM_UP_SEARCHES && !controller.signal.aborted; i++) {

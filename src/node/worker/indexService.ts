@@ -202,7 +202,7 @@ export class IndexService {
     if (modelSettingsKey(loaded.index.settings) !== modelSettingsKey(resolveSettings(config.settings))) {
       return { outcome: 'settings-changed' as const, summary: this.summary(), ms };
     }
-    this.use(loaded.index);
+    this.use(loaded.index, loaded.termsFilled);
     let replace = (): void => undefined;
     const replaced = new Promise<void>((resolve) => (replace = resolve));
     this._loadCheck = { index: loaded.index, done: loaded.checked, replaced, replace };
@@ -563,7 +563,7 @@ export class IndexService {
   }
 
   /** Puts an index in use (or none) and prepares it in the background, stopping any earlier preparation. */
-  private use(index: LsiIndex | undefined): void {
+  private use(index: LsiIndex | undefined, filled?: Promise<void>): void {
     this._preparing?.controller.abort();
     this._preparing = undefined;
     // What was computed for the index going away (topic tree, overlaps, map) is dropped with it.
@@ -578,7 +578,7 @@ export class IndexService {
     this._index = index;
     if (!index) return;
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
-    const { controller, done } = prepareInBackground(index, { sliceMs, pause });
+    const { controller, done } = prepareInBackground(index, { sliceMs, pause, after: filled });
     this._preparing = {
       controller,
       done: done

@@ -33,4 +33,17 @@ describe('prepareInBackground', () => {
     expect(await done).toBe(false);
     expect(index.search(adi.queries[0].text, { top: 5 }).length).toBe(5);
   });
+
+  it('waits for `after` (the term lists of a reopened index being filled) before its first slice', async () => {
+    const index = adiIndex();
+    let pauses = 0;
+    let fill = (): void => undefined;
+    const after = new Promise<void>((go) => (fill = go));
+    const { done } = prepareInBackground(index, { sliceMs: 0, pause: async () => void pauses++, after });
+    for (let i = 0; i < 5; i++) await new Promise<void>((go) => setImmediate(go));
+    expect(pauses).toBe(0);
+    fill();
+    expect(await done).toBe(true);
+    expect(pauses).toBeGreaterThanOrEqual(2 + WARM_UP_SEARCHES);
+  });
 });

@@ -71,7 +71,7 @@ export function adoptSharedModel(
   const columnOf = new Int32Array(union.length).fill(-1);
   for (let c = 0; c < keptIds.length; c++) columnOf[keptIds[c]] = c;
   // The mapping is increasing, so each file's term ids stay ascending.
-  const remapped: DocSlot[] = slots.map((s) => ({ ...s, terms: remap(s.terms, localToUnion), folded: false, residual: 0 }));
+  const remapped: DocSlot[] = slots.map((s) => ({ meta: s.meta, terms: remap(s.terms, localToUnion), folded: false, residual: 0 }));
   const docs = remapped.map((s) => s.terms);
   const { matrix, frobeniusSquared } = weightedMatrix(docs, columnOf, shared.weights, shared.weighting);
   const k = shared.k;

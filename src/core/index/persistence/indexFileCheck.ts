@@ -326,6 +326,11 @@ export interface PayloadParts {
   readonly indptr: Int32Array;
   readonly ids: Int32Array;
   readonly counts: Float32Array;
+  /**
+   * True when ids and counts were checked while a reader streamed them (TermListCheck), so their
+   * bytes are not read here (a reopen fills them in after the load: persist.ts).
+   */
+  readonly termsChecked?: boolean;
   readonly keptIds: Int32Array;
   readonly columnOfLength: number;
   readonly weights: Float64Array;
@@ -393,20 +398,13 @@ export function checkPayload(p: PayloadParts): void {
   allFinite(p.residual, 'docResidual', -1e-3);
   for (let j = 0; j < n; j++) if (p.residual[j] > 1 + 1e-3) bad('docResidual holds a value above 1');
   for (let j = 0; j < n; j++) if (p.language[j] >= LANGUAGES.length) bad('docLanguage holds an unknown language');
-  if (p.indptr[0] !== 0 || p.indptr[n] !== p.ids.length) bad('termIndptr does not span the term lists');
-  const vocab = p.vocabSize;
-  for (let j = 0; j < n; j++) {
-    const a = p.indptr[j];
-    const b = p.indptr[j + 1];
-    if (!(b >= a && b <= p.ids.length)) bad('termIndptr goes backwards or past the term lists');
-    let prev = -1;
-    for (let i = a; i < b; i++) {
-      const id = p.ids[i];
-      if (!(id > prev && id < vocab)) bad('a document lists a term id out of order or outside the vocabulary');
-      prev = id;
-    }
+  if (p.termsChecked) checkTermIndptr(p.indptr, p.ids.length);
+  else {
+    const check = new TermListCheck(p.indptr, p.ids.length, p.vocabSize);
+    check.ids(p.ids);
+    check.counts(p.counts);
+    check.finish();
   }
-  allFiniteF32(p.counts, 'termCounts', true);
   let prev = -1;
   for (let c = 0; c < p.keptIds.length; c++) {
     const id = p.keptIds[c];
@@ -425,6 +423,71 @@ export function checkPayload(p: PayloadParts): void {
     if (!(s <= 1 + 1e-3) || (s > 1e-6 && s < 1 - 1e-3)) bad(`the concept vector of "${p.paths[j]}" is not of unit length`);
   }
   checkSections(p);
+}
+
+/** termIndptr starts at 0, never goes backwards and ends at the term lists' length (`total`). */
+function checkTermIndptr(indptr: Int32Array, total: number): void {
+  const n = indptr.length - 1;
+  if (n < 0 || indptr[0] !== 0 || indptr[n] !== total) bad('termIndptr does not span the term lists');
+  for (let j = 0; j < n; j++) if (!(indptr[j + 1] >= indptr[j])) bad('termIndptr goes backwards or past the term lists');
+}
+
+/**
+ * The checks of the files' term lists (termIds, then termCounts): each file's ids ascending and
+ * inside the vocabulary, each count finite and above zero. Made on the whole sections, or on
+ * consecutive blocks of each (all of termIds, then all of termCounts) as a reader streams them
+ * without keeping them (persist.ts); finish() then checks that both were given whole.
+ */
+export class TermListCheck {
+  private doc = 0;
+  private prev = -1;
+  private idsAt = 0;
+  private countsAt = 0;
+
+  /** @throws CorruptIndexError when indptr does not span `total` entries in order. */
+  constructor(
+    private readonly indptr: Int32Array,
+    private readonly total: number,
+    private readonly vocabSize: number,
+  ) {
+    checkTermIndptr(indptr, total);
+  }
+
+  /** The next block of termIds. */
+  ids(block: Int32Array): void {
+    if (this.idsAt + block.length > this.total) bad('termIds run past termIndptr');
+    const ip = this.indptr;
+    const vocab = this.vocabSize;
+    let doc = this.doc;
+    let prev = this.prev;
+    let end = ip[doc + 1];
+    let at = this.idsAt;
+    for (let i = 0; i < block.length; i++, at++) {
+      while (at >= end) {
+        doc++;
+        end = ip[doc + 1];
+        prev = -1;
+      }
+      const id = block[i];
+      if (!(id > prev && id < vocab)) bad('a document lists a term id out of order or outside the vocabulary');
+      prev = id;
+    }
+    this.doc = doc;
+    this.prev = prev;
+    this.idsAt = at;
+  }
+
+  /** The next block of termCounts (after every block of termIds). */
+  counts(block: Float32Array): void {
+    if (this.countsAt + block.length > this.total) bad('termCounts run past termIndptr');
+    allFiniteF32(block, 'termCounts', true);
+    this.countsAt += block.length;
+  }
+
+  /** @throws CorruptIndexError unless both sections were given whole. */
+  finish(): void {
+    if (this.idsAt !== this.total || this.countsAt !== this.total) bad('the term lists were not checked whole (a reader bug)');
+  }
 }
 
 function checkSections(p: PayloadParts): void {

@@ -463,6 +463,7 @@ export function decodeIndexWithRows(
   rows: SectionRowReader,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
   vectors?: ConceptRows,
+  terms?: TermListGate,
 ): LsiIndex {
   const header = readIndexHeader(head);
   const start = headerExtent(head);
@@ -475,7 +476,71 @@ export function decodeIndexWithRows(
     throw new CorruptIndexError(
       `the files' vector rows hold ${vectors.capacity} rows of ${vectors.k}, expected ${header.docs} of ${k} (a reader bug)`,
     );
-  return decodeChecked(header, head.subarray(start), rows, codes, vectors);
+  return decodeChecked(header, head.subarray(start), rows, codes, vectors, terms);
+}
+
+/**
+ * Term lists that a reader streamed through their checksum and TermListCheck without keeping them,
+ * and fills into their place in the head after the load (persist.ts): ensure() returns once they
+ * are there (finishing the fill itself when it has not ended) and throws when they cannot be read.
+ * The index's slots call it before giving out a file's terms, so nothing reads them unfilled.
+ */
+export interface TermListGate {
+  ensure(): void;
+}
+
+/** Where the term lists (termIds, then termCounts, adjacent) lie in the file, and how many entries they hold. */
+export function termListsOf(
+  header: CheckedHeader,
+  fileStart: number,
+): { readonly at: number; readonly idsBytes: number; readonly bytes: number; readonly total: number } {
+  const ids = header.sections.find((s) => s.name === 'termIds')!;
+  const counts = header.sections.find((s) => s.name === 'termCounts')!;
+  return { at: fileStart + ids.offset, idsBytes: 4 * ids.length, bytes: counts.offset + 4 * counts.length - ids.offset, total: ids.length };
+}
+
+/** Where termIndptr lies in the file, and how many terms the vocabulary holds (from its offsets' length). */
+export function termIndptrOf(
+  header: CheckedHeader,
+  fileStart: number,
+): { readonly at: number; readonly length: number; readonly vocabSize: number } {
+  const ip = header.sections.find((s) => s.name === 'termIndptr')!;
+  const starts = header.sections.find((s) => s.name === 'vocabStarts')!;
+  return { at: fileStart + ip.offset, length: ip.length, vocabSize: starts.length - 1 };
+}
+
+/** The term lists of all files of a reopened index, with the gate that says when they are filled. */
+interface SavedTermLists {
+  readonly ids: Int32Array;
+  readonly counts: Float32Array;
+  readonly indptr: Int32Array;
+  readonly length: Float64Array;
+  readonly gate: TermListGate;
+}
+
+/**
+ * A reopened file's slot whose term lists are bytes filled in after the load (TermListGate): its
+ * terms wait for them, and their views are made on the first access (then kept), so the load makes
+ * no per-file arrays for them. The other fields are plain, as in any DocSlot.
+ */
+class FilledLaterSlot implements DocSlot {
+  private _terms: DocSlot['terms'] | undefined;
+
+  constructor(
+    public meta: DocSlot['meta'],
+    public folded: boolean,
+    public residual: number,
+    private readonly lists: SavedTermLists,
+    private readonly j: number,
+  ) {}
+
+  get terms(): DocSlot['terms'] {
+    if (this._terms) return this._terms;
+    const { ids, counts, indptr, length, gate } = this.lists;
+    gate.ensure();
+    const [a, b] = [indptr[this.j], indptr[this.j + 1]];
+    return (this._terms = { termIds: ids.subarray(a, b), counts: counts.subarray(a, b), length: length[this.j] });
+  }
 }
 
 /**
@@ -495,6 +560,7 @@ function decodeChecked(
   rows: SectionRowReader | undefined,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
   conceptRows?: ConceptRows,
+  terms?: TermListGate,
 ): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
@@ -517,7 +583,10 @@ function decodeChecked(
       throw new CorruptIndexError('index file paths are not valid UTF-8');
     }
   };
-  const vocab = Vocabulary.fromBytes({ bytes: get('vocab', 'u8'), starts: get('vocabStarts', 'i32'), sorted: header.vocabSorted });
+  const vocabBytes = get('vocab', 'u8');
+  // Checked without decoding (a term is decoded only when asked for, which would not say it is damaged).
+  if (!isWellFormedUtf8(vocabBytes)) throw new CorruptIndexError('index vocabulary is not valid UTF-8');
+  const vocab = Vocabulary.fromBytes({ bytes: vocabBytes, starts: get('vocabStarts', 'i32'), sorted: header.vocabSorted });
   if (!vocab) throw new CorruptIndexError('index vocabulary does not match its term offsets');
   const paths = n === 0 ? [] : splitText(get('paths', 'u8'));
   if (paths.length !== n) throw new CorruptIndexError('index sections disagree in size: paths are not docs long');
@@ -533,6 +602,7 @@ function decodeChecked(
     indptr: get('termIndptr', 'i32'),
     ids: get('termIds', 'i32'),
     counts: get('termCounts', 'f32'),
+    termsChecked: terms !== undefined,
     keptIds: get('keptIds', 'i32'),
     columnOfLength: header.model.columnOfLength,
     weights: get('weights', 'f64'),
@@ -560,12 +630,17 @@ function decodeChecked(
   keptIds.forEach((id, c) => (columnOf[id] = c));
   const { columnOfLength: _len, ...scalars } = header.model;
   const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
-  const slots: DocSlot[] = paths.map((path, j) => ({
-    meta: withLanguage<DocSlot['meta']>({ path, size: size[j], mtimeMs: mtime[j] }, LANGUAGES[parts.language[j]]),
-    terms: { termIds: ids.subarray(indptr[j], indptr[j + 1]), counts: counts.subarray(indptr[j], indptr[j + 1]), length: length[j] },
-    folded: folded[j] === 1,
-    residual: residual[j],
-  }));
+  const lists: SavedTermLists | undefined = terms && { ids, counts, indptr, length, gate: terms };
+  const slots: DocSlot[] = paths.map((path, j) => {
+    const meta = withLanguage<DocSlot['meta']>({ path, size: size[j], mtimeMs: mtime[j] }, LANGUAGES[parts.language[j]]);
+    if (lists) return new FilledLaterSlot(meta, folded[j] === 1, residual[j], lists, j);
+    const docTerms = {
+      termIds: ids.subarray(indptr[j], indptr[j + 1]),
+      counts: counts.subarray(indptr[j], indptr[j + 1]),
+      length: length[j],
+    };
+    return { meta, terms: docTerms, folded: folded[j] === 1, residual: residual[j] };
+  });
   const index = LsiIndex.assemble(header.settings, vocab, model, slots, conceptRows ?? vectors);
   index.restoreCounters(header.counters);
   const titles = parts.sectionTitles;

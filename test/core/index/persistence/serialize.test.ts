@@ -96,6 +96,23 @@ describe('serialize', () => {
     expect(() => decodeIndex(unsorted)).toThrow(/vocabSorted/);
   });
 
+  it('refuses a vocabulary that is not UTF-8 even when the checksums match', () => {
+    // Ill-formed bytes per Table 3-7 of the Unicode Standard (well-formed UTF-8 byte sequences): FF and
+    // F5 never occur, 80 cannot start a sequence, C0 is an overlong lead, E0 followed by ASCII is cut short.
+    const good = encodeIndex(buildAdi());
+    expect(() => decodeIndex(good)).not.toThrow();
+    for (const byte of [0xff, 0xf5, 0x80, 0xc0, 0xe0]) {
+      const bytes = rewrite(good, (header, payload) => {
+        const e = header.sections.find((x) => x.name === 'vocab')!;
+        const starts = header.sections.find((x) => x.name === 'vocabStarts')!;
+        const at = new Int32Array(payload.buffer, payload.byteOffset + starts.offset, starts.length)[7];
+        payload[e.offset + at] = byte;
+      });
+      expect(() => decodeIndex(bytes), byte.toString(16)).toThrow(CorruptIndexError);
+      expect(() => decodeIndex(bytes), byte.toString(16)).toThrow(/vocabulary is not valid UTF-8/);
+    }
+  });
+
   it('rejects a file with a flipped byte in its vocabulary (checksum)', () => {
     const bytes = encodeIndex(buildAdi());
     const e = readIndexHeader(bytes).sections.find((x) => x.name === 'vocab')!;
