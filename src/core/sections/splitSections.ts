@@ -71,7 +71,9 @@ export function codeLanguageOf(path: string): CodeLanguage | undefined {
 
 /** Splits text into lines ("\n", "\r\n" or "\r"). */
 export function splitLines(text: string): string[] {
-  return text.split(/\r\n|\r|\n/);
+  // Without a carriage return the pattern only ever matches "\n", and splitting on the one
+  // character is the engine's plain string split (several times cheaper than the pattern's).
+  return text.includes('\r') ? text.split(/\r\n|\r|\n/) : text.split('\n');
 }
 
 /** The sections of a file, from its path (for its kind) and its text. */

@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { InvalidInputError } from '../../../src/core/errors.js';
-import { splitSections, type Section } from '../../../src/core/sections/splitSections.js';
+import { splitLines, splitSections, type Section } from '../../../src/core/sections/splitSections.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 
 const fixture = (name: string): string => readFileSync(new URL(`../../fixtures/sections/${name}`, import.meta.url), 'utf8');
@@ -197,5 +197,12 @@ describe('splitSections on other text', () => {
   it('gives no sections for empty text and refuses bad options', () => {
     expect(splitSections('a.ts', '\n\n').sections).toEqual([]);
     expect(() => splitSections('a.ts', 'x', { windowLines: 10, windowOverlap: 10 })).toThrow(InvalidInputError);
+  });
+});
+
+describe('splitLines', () => {
+  it('cuts at "\\n", "\\r\\n" and "\\r" as the pattern split does (reference: String.prototype.split with /\\r\\n|\\r|\\n/)', () => {
+    const texts = ['', '\n', 'a', 'a\nb\n', 'a\r\nb\rc\nd', '\r', '\r\n\r\n', 'x\n\r\ny\r\rz', 'tail\r', fixture('proxy.go')];
+    for (const t of texts) expect(splitLines(t)).toEqual(t.split(/\r\n|\r|\n/));
   });
 });
