@@ -429,7 +429,8 @@ export class WordCounter {
     const word = unitsToString(u, start, end);
     const tokens = this.scratchTokens;
     tokens.length = 0;
-    if (word.normalize('NFKD') === word) wordTokens(word, this.resolved, tokens);
+    // Stemmed by porterFast (natural's stems for lowercase tokens, ASCII or not: porterFast.test.ts).
+    if (word.normalize('NFKD') === word) wordTokens(word, this.resolved, tokens, porterStem);
     else for (const t of tokenize(word, this.options)) tokens.push(t);
     for (const t of tokens) this.found1(this.add(t));
   }
