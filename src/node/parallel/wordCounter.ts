@@ -9,8 +9,7 @@
  *     a second table from token to term id, so a string is made and stemmed only for a token this
  *     thread has never seen; non-ASCII words go through tokenize() itself;
  *   - a text loaded from ASCII bytes is scanned by a loop for ASCII units alone (scanAscii);
- *   - ids are of a thread-local vocabulary (term → id in a third table, keyed by the term's code
- *     units); counts go to a reusable typed array.
+ *   - ids are of a thread-local vocabulary; counts go to a reusable typed array.
  * The thread reports new terms in id order, so the receiver can translate local ids to its own.
  * Given the file's path, a prose file's language is detected first (detectLanguage.ts); a file
  * in another language than English is counted through tokenizeIn() (tokenizeLanguage.ts) itself.
@@ -51,9 +50,7 @@ export interface PackedFile {
 }
 
 export class WordCounter {
-  /** Term → local id, keyed by the term's code units (a Map of 200,000 fresh strings cost more). */
-  private readonly idOf = new WordTable(Number.MAX_SAFE_INTEGER, 1 << 15);
-  private termUnits = new Uint16Array(64);
+  private readonly idOf = new Map<string, number>();
   private readonly terms: string[] = [];
   private reported = 0;
   // Sized for a few ten thousand keys up front (a thread meets that many in its first files).
@@ -475,21 +472,13 @@ export class WordCounter {
   }
 
   private add(term: string): number {
-    const n = term.length;
-    if (this.termUnits.length < n) this.termUnits = new Uint16Array(Math.max(n, 2 * this.termUnits.length));
-    const u = this.termUnits;
-    let h = FNV_OFFSET;
-    for (let i = 0; i < n; i++) {
-      const c = term.charCodeAt(i);
-      u[i] = c;
-      h = Math.imul(h ^ c, FNV_PRIME);
+    let id = this.idOf.get(term);
+    if (id === undefined) {
+      id = this.terms.length;
+      this.terms.push(term);
+      this.idOf.set(term, id);
+      if (id >= this.tally.length) this.tally = grow32(this.tally, id + 1);
     }
-    const e = this.idOf.find(u, 0, n, h);
-    if (e >= 0) return this.idOf.value(e);
-    const id = this.terms.length;
-    this.terms.push(term);
-    this.idOf.insert(u, 0, n, h, id);
-    if (id >= this.tally.length) this.tally = grow32(this.tally, id + 1);
     return id;
   }
 }
