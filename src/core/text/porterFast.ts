@@ -1,6 +1,7 @@
 /**
  * The Porter stemmer (Porter 1980) exactly as natural's PorterStemmer implements it
- * (natural/lib/natural/stemmers/porter_stemmer.js), quirks included, for lowercase ASCII tokens,
+ * (natural/lib/natural/stemmers/porter_stemmer.js), quirks included, for lowercase tokens (ASCII
+ * or not: a code unit outside [a-z] is a consonant to both, and no suffix has one),
  * with plain string and char-code operations instead of regular expressions built per call.
  * Tokenizing threads stem millions of distinct identifier parts in a large tree; this is several
  * times faster per new word. The control flow follows natural's step for step:
@@ -228,7 +229,7 @@ function step5b(t: string): string {
   return measure(t) > 1 && t.endsWith('ll') ? t.slice(0, -1) : t;
 }
 
-/** natural's PorterStemmer.stem(token) for a lowercase ASCII token. */
+/** natural's PorterStemmer.stem(token) for a lowercase token. */
 export function porterStem(token: string): string {
   if (token.length < 3) return token;
   let t = step1a(token);

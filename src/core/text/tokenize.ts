@@ -88,12 +88,12 @@ export function tokenize(text: string, options: Partial<TokenizeOptions> = {}): 
  * Steps 3–5 for one word of step 2 (a whole match of WORD in normalised text, no marks), its
  * tokens appended to out: tokenize() of such a word without normalising and matching it again.
  */
-export function wordTokens(word: string, opts: Readonly<TokenizeOptions>, out: string[]): void {
+export function wordTokens(word: string, opts: Readonly<TokenizeOptions>, out: string[], stem: (token: string) => string = stemWord): void {
   if (HEX_LITERAL.test(word) || HEXISH.test(word.toLowerCase())) return;
   const emit = (raw: string): void => {
     const t = raw.toLowerCase();
     if (!keep(t)) return;
-    out.push(opts.stem ? stemWord(t) : t);
+    out.push(opts.stem ? stem(t) : t);
   };
   const parts = splitIdentifier(word);
   if (parts.length === 1 && parts[0] === word) {

@@ -8,6 +8,7 @@
  *   - a new ASCII word is split by char code (asciiWord.ts) and each lowercase part looked up in
  *     a second table from token to term id, so a string is made and stemmed only for a token this
  *     thread has never seen; non-ASCII words go through tokenize() itself;
+ *   - a text loaded from ASCII bytes is scanned by a loop for ASCII units alone (scanAscii);
  *   - ids are of a thread-local vocabulary; counts go to a reusable typed array.
  * The thread reports new terms in id order, so the receiver can translate local ids to its own.
  * Given the file's path, a prose file's language is detected first (detectLanguage.ts); a file
@@ -81,6 +82,8 @@ export class WordCounter {
   /** Times the word table was cleared (a note's multi-term value is only good until then). */
   private clears = 0;
   private clearsAtLoad = 0;
+  /** The loaded units came from ASCII bytes (packAscii): every unit is below 0x80. */
+  private loadedAscii = false;
   // Scratch for a new word: its terms, its parts, its lowercase form.
   private found = new Int32Array(64);
   private nFound = 0;
@@ -122,6 +125,7 @@ export class WordCounter {
       if (language !== 'en') return this.packIn(text, language);
     }
     this.text.loadText(text);
+    this.loadedAscii = false;
     return this.finish(this.scanLoaded());
   }
 
@@ -132,6 +136,7 @@ export class WordCounter {
       if (language !== 'en') return this.packIn(asciiString(bytes), language);
     }
     this.text.loadAscii(bytes);
+    this.loadedAscii = true;
     return this.finish(this.scanLoaded());
   }
 
@@ -141,7 +146,7 @@ export class WordCounter {
     this.recording = this.recordWords;
     this.clearsAtLoad = this.clears;
     try {
-      return this.scan(this.text.units, this.text.length);
+      return this.loadedAscii ? this.scanAscii(this.text.units, this.text.length) : this.scan(this.text.units, this.text.length);
     } finally {
       this.recording = false;
     }
@@ -187,7 +192,8 @@ export class WordCounter {
    */
   packSection(from: number, to: number): PackedFile {
     // Without the words of the text noted (or with a word table cleared since), scan the units again.
-    if (!this.recordWords || this.clears !== this.clearsAtLoad) return this.finish(this.scan(this.text.units, to, from), true);
+    if (!this.recordWords || this.clears !== this.clearsAtLoad)
+      return this.finish(this.loadedAscii ? this.scanAscii(this.text.units, to, from) : this.scan(this.text.units, to, from), true);
     const at = this.wordAt;
     let lo = 0;
     let hi = this.nWords;
@@ -312,6 +318,45 @@ export class WordCounter {
     return length;
   }
 
+  /**
+   * scan() of units that are all ASCII (below 0x80): a word is a run of [A-Za-z0-9_$] (what
+   * CLASS gives WORD among ASCII units), with no surrogate or lazily classified unit to test for.
+   */
+  private scanAscii(u: Uint16Array, n: number, from = 0): number {
+    const words = this.words;
+    const recording = this.recording;
+    let length = 0;
+    let i = from;
+    while (i < n) {
+      let c = u[i];
+      if (ASCII_WORD[c] === 0) {
+        i++;
+        continue;
+      }
+      const start = i;
+      let h = FNV_OFFSET;
+      do {
+        h = Math.imul(h ^ c, FNV_PRIME);
+        if (++i === n) break;
+        c = u[i];
+      } while (ASCII_WORD[c] !== 0);
+      const e = words.find(u, start, i, h);
+      const v = e >= 0 ? words.value(e) : this.learn(u, start, i, h, true);
+      if (v >= 0) {
+        this.bump(v);
+        length++;
+      } else if (v !== NO_TERMS) {
+        const m = this.multi;
+        const at = -2 - v;
+        const terms = m[at];
+        for (let j = 1; j <= terms; j++) this.bump(m[at + j]);
+        length += terms;
+      }
+      if (recording && v !== NO_TERMS) this.noteWord(start, v);
+    }
+    return length;
+  }
+
   /** Counts a word's table value (its term, or its terms); returns the number of tokens. */
   private bumpValue(v: number): number {
     if (v >= 0) {
@@ -381,7 +426,8 @@ export class WordCounter {
     const word = unitsToString(u, start, end);
     const tokens = this.scratchTokens;
     tokens.length = 0;
-    if (word.normalize('NFKD') === word) wordTokens(word, this.resolved, tokens);
+    // Stemmed by porterFast (natural's stems for lowercase tokens, ASCII or not: porterFast.test.ts).
+    if (word.normalize('NFKD') === word) wordTokens(word, this.resolved, tokens, porterStem);
     else for (const t of tokenize(word, this.options)) tokens.push(t);
     for (const t of tokens) this.found1(this.add(t));
   }
@@ -436,6 +482,10 @@ export class WordCounter {
     return id;
   }
 }
+
+/** 1 for the ASCII units CLASS holds WORD for (\p{L}, \p{N}, '_' and '$' below 0x80), else 0. */
+const ASCII_WORD = new Uint8Array(128);
+for (let c = 0; c < 128; c++) ASCII_WORD[c] = /[A-Za-z0-9_$]/.test(String.fromCharCode(c)) ? 1 : 0;
 
 /** The string of ASCII bytes (Latin-1 decoding is the identity on them, and native). */
 function asciiString(bytes: Uint8Array): string {

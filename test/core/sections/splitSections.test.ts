@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { InvalidInputError } from '../../../src/core/errors.js';
-import { splitSections, type Section } from '../../../src/core/sections/splitSections.js';
+import { isBlank, splitLines, splitSections, type Section } from '../../../src/core/sections/splitSections.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 
 const fixture = (name: string): string => readFileSync(new URL(`../../fixtures/sections/${name}`, import.meta.url), 'utf8');
@@ -197,5 +197,23 @@ describe('splitSections on other text', () => {
   it('gives no sections for empty text and refuses bad options', () => {
     expect(splitSections('a.ts', '\n\n').sections).toEqual([]);
     expect(() => splitSections('a.ts', 'x', { windowLines: 10, windowOverlap: 10 })).toThrow(InvalidInputError);
+  });
+});
+
+describe('splitLines', () => {
+  it('cuts at "\\n", "\\r\\n" and "\\r" as the pattern split does (reference: String.prototype.split with /\\r\\n|\\r|\\n/)', () => {
+    const texts = ['', '\n', 'a', 'a\nb\n', 'a\r\nb\rc\nd', '\r', '\r\n\r\n', 'x\n\r\ny\r\rz', 'tail\r', fixture('proxy.go')];
+    for (const t of texts) expect(splitLines(t)).toEqual(t.split(/\r\n|\r|\n/));
+  });
+});
+
+describe('isBlank', () => {
+  it("is true exactly when String.prototype.trim leaves nothing, for every code unit alone and inside text (reference: the engine's trim)", () => {
+    for (let c = 0; c < 65536; c++) {
+      const ch = String.fromCharCode(c);
+      expect(isBlank(ch), `U+${c.toString(16)}`).toBe(ch.trim() === '');
+      expect(isBlank(` \t${ch}\u3000`)).toBe(` \t${ch}\u3000`.trim() === '');
+    }
+    expect(isBlank('')).toBe(true);
   });
 });

@@ -1,10 +1,12 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer.js';
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
 import { porterStem } from '../../../src/core/text/porterFast.js';
 import { MAX_TOKEN_LENGTH } from '../../../src/core/text/tokenRules.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
-import { loadCollection } from '../../helpers/shared.js';
+import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 
 // Reference: natural's PorterStemmer (the stemmer tokenize() uses), word by word. Porter's own
 // examples (Porter 1980, "An algorithm for suffix stripping") are among the edge cases.
@@ -203,5 +205,52 @@ describe('porterStem', () => {
     expect(words.size).toBeGreaterThan(10000);
     // At most 60 000 words, to keep the run light (a one-off check once covered a whole source tree).
     check(Array.from(words).slice(0, 60000));
+  });
+
+  it('equals it on lowercase tokens with letters outside ASCII (generated, and every such word of the six-language pages)', () => {
+    // The Porter suffixes after mixes of ASCII and other letters (accented, Cyrillic, Greek,
+    // Turkish dotless i, CJK, a ligature, an astral letter).
+    const rnd = createRandom(29);
+    const letters = ['a', 'e', 'i', 'o', 'u', 'y', 'b', 'l', 's', 't', 'z', 'w', 'x', 'é', 'ß', 'ж', 'я', 'δ', 'ω', 'ı', '東', 'ﬁ', '𝐀'];
+    const suffixes = [
+      '',
+      'ing',
+      'ed',
+      'ies',
+      'sses',
+      'ational',
+      'ization',
+      'fulness',
+      'ement',
+      'ance',
+      'able',
+      'ent',
+      'ion',
+      'ous',
+      'ive',
+      'e',
+      'y',
+      'll',
+      'eed',
+      'bli',
+      'logi',
+    ];
+    const words = new Set<string>();
+    for (let i = 0; i < 30000; i++) {
+      let w = '';
+      const n = 1 + Math.floor(rnd.next() * 6);
+      for (let j = 0; j < n; j++) w += letters[Math.floor(rnd.next() * letters.length)];
+      words.add(w + suffixes[Math.floor(rnd.next() * suffixes.length)]);
+    }
+    // Real pages in six languages: the GNOME help (test/fixtures/gnome-help, Debian gnome-user-docs 43.0-2).
+    const root = join(REPO_ROOT, 'test', 'fixtures', 'gnome-help');
+    for (const f of readdirSync(root, { recursive: true }) as string[])
+      if (f.endsWith('.page'))
+        for (const m of readFileSync(join(root, f), 'utf8')
+          .toLowerCase()
+          .matchAll(/[\p{L}\p{N}]+/gu))
+          if (/[^\p{ASCII}]/u.test(m[0])) words.add(m[0]);
+    expect(words.size).toBeGreaterThan(20000);
+    check(words);
   });
 });

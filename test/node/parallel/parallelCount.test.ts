@@ -69,6 +69,27 @@ describe('translateRun', () => {
     expect(Array.from(termIds, (id, i) => [id, out[i]])).toEqual(expected);
   });
 
+  it('sorts short runs (by insertion) and long ones (native sort) alike, in place (reference: Array.prototype.sort)', () => {
+    const lengths = Array.from({ length: 40 }, (_, i) => i).concat([64, 100]);
+    const at = [0];
+    for (const n of lengths) at.push(at.at(-1)! + n);
+    const inIds = new Int32Array(at.at(-1)!);
+    const inCounts = new Int32Array(inIds.length);
+    for (let r = 0; r < lengths.length; r++) {
+      const pick = [...tr.keys()].sort(() => rnd.next() - 0.5).slice(0, lengths[r]);
+      pick.forEach((id, i) => {
+        inIds[at[r] + i] = id;
+        inCounts[at[r] + i] = 1 + i;
+      });
+    }
+    const want = lengths.flatMap((n, r) =>
+      Array.from({ length: n }, (_, i) => [tr[inIds[at[r] + i]], inCounts[at[r] + i]]).sort((a, b) => a[0] - b[0]),
+    );
+    const out = new Float32Array(inCounts.buffer);
+    for (let r = 0; r < lengths.length; r++) translateRun(inIds, inCounts, at[r], at[r + 1], tr, inIds, out);
+    expect(Array.from(inIds, (id, i) => [id, out[i]])).toEqual(want);
+  });
+
   it('gives the same in place (ids overwritten, counts rewritten as f32 over their own buffer)', () => {
     const inIds = ids.slice();
     const inCounts = counts.slice();

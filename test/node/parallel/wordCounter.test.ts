@@ -57,6 +57,34 @@ describe('WordCounter', () => {
   });
 
   const cran = loadCollection('cran');
+  it('counts every ASCII character as the uncached pipeline does, and a run of its lines alike (reference: tokenize + countTerms)', () => {
+    // Each of the 128 ASCII units beside letters, digits and the word characters '_' and '$'.
+    const all = Array.from({ length: 128 }, (_, c) => String.fromCharCode(c));
+    const lines = [all.join(''), all.map((c) => `ab${c}cd`).join(' '), all.map((c) => `${c}Xy_z$9`).join(''), 'end$ of_file x'];
+    const text = lines.join('\n');
+    for (const recordWords of [false, true]) {
+      const counter = new WordCounter({});
+      counter.recordWords = recordWords;
+      const terms: string[] = [];
+      const c = counter.countAscii(Buffer.from(text, 'latin1'));
+      terms.push(...counter.takeNewTerms());
+      expect(new Map(Array.from(c.ids, (id, i) => [terms[id], c.counts[i]]))).toEqual(reference(text));
+      expect(c.length).toBe(tokenize(text).length);
+      // Lines 1–2 as a section: the same as counting those lines alone.
+      counter.packAscii(Buffer.from(text, 'latin1'));
+      const from = lines[0].length + 1;
+      const to = from + lines[1].length + 1 + lines[2].length;
+      const p = counter.packSection(from, to);
+      terms.push(...counter.takeNewTerms());
+      const s = counter.drainSectionPack();
+      const bag = new Map<string, number>();
+      for (let i = p.at; i < p.at + p.terms; i++) bag.set(terms[s.ids[i]], s.counts[i]);
+      const part = `${lines[1]}\n${lines[2]}`;
+      expect(bag).toEqual(reference(part));
+      expect(p.length).toBe(tokenize(part).length);
+    }
+  });
+
   it('agrees with tokenize + countTerms on 400 CRAN abstracts', () => {
     const counter = new WordCounter({});
     const terms: string[] = [];
