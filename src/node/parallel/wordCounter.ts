@@ -302,18 +302,7 @@ export class WordCounter {
         all |= c;
       }
       const e = this.words.find(u, start, i, h);
-      const v = e >= 0 ? this.words.value(e) : this.learn(u, start, i, h, all < 128);
-      if (v >= 0) {
-        this.bump(v);
-        length++;
-      } else if (v !== NO_TERMS) {
-        const m = this.multi;
-        const at = -2 - v;
-        const terms = m[at];
-        for (let j = 1; j <= terms; j++) this.bump(m[at + j]);
-        length += terms;
-      }
-      if (this.recording && v !== NO_TERMS) this.noteWord(start, v);
+      length += this.countWord(e >= 0 ? this.words.value(e) : this.learn(u, start, i, h, all < 128), start);
     }
     return length;
   }
@@ -324,7 +313,6 @@ export class WordCounter {
    */
   private scanAscii(u: Uint16Array, n: number, from = 0): number {
     const words = this.words;
-    const recording = this.recording;
     let length = 0;
     let i = from;
     while (i < n) {
@@ -341,20 +329,16 @@ export class WordCounter {
         c = u[i];
       } while (ASCII_WORD[c] !== 0);
       const e = words.find(u, start, i, h);
-      const v = e >= 0 ? words.value(e) : this.learn(u, start, i, h, true);
-      if (v >= 0) {
-        this.bump(v);
-        length++;
-      } else if (v !== NO_TERMS) {
-        const m = this.multi;
-        const at = -2 - v;
-        const terms = m[at];
-        for (let j = 1; j <= terms; j++) this.bump(m[at + j]);
-        length += terms;
-      }
-      if (recording && v !== NO_TERMS) this.noteWord(start, v);
+      length += this.countWord(e >= 0 ? words.value(e) : this.learn(u, start, i, h, true), start);
     }
     return length;
+  }
+
+  /** Counts the value of the word at unit `start` (noting it when recording); returns its number of tokens. */
+  private countWord(v: number, start: number): number {
+    if (v === NO_TERMS) return 0;
+    if (this.recording) this.noteWord(start, v);
+    return this.bumpValue(v);
   }
 
   /** Counts a word's table value (its term, or its terms); returns the number of tokens. */
