@@ -35,10 +35,11 @@ import {
   sectionRowsOf,
   termIndptrOf,
   termListsOf,
+  termVectorsOf,
   vectorsOf,
 } from '../core/index/persistence/serialize.js';
-import { TermListCheck } from '../core/index/persistence/indexFileCheck.js';
-import { TermListFill } from './termListFill.js';
+import { checkTermVectorsBlock, TermListCheck } from '../core/index/persistence/indexFileCheck.js';
+import { HeadFill } from './headFill.js';
 import { openSpillBeside } from './sectionCodeFile.js';
 import { FileSectionRows } from './sectionRowFile.js';
 import { TailCheck } from './persistCheck.js';
@@ -293,9 +294,10 @@ export type LoadOutcome =
        */
       readonly checked: Promise<string | undefined>;
       /**
-       * When the files' term lists are in memory: they are filled in after the load (with rows in
-       * the file), and a slot asked for its terms before then reads them at once (termListFill.ts).
-       * Never rejects; a failed fill is reported by the first use of a slot's terms.
+       * When the files' term lists and the model's term vectors are in memory: they are filled in
+       * after the load (with rows in the file), and a slot asked for its terms, or a use of the term
+       * vectors, before then reads them at once (headFill.ts). Never rejects; a failed fill is
+       * reported by the first use of a slot's terms or of the term vectors.
        */
       readonly termsFilled: Promise<void>;
     }
@@ -412,7 +414,9 @@ async function readCheckedHead(
   /** The files' concept vectors, read into the ranking rows (their place in head is left unread). */
   vectors: ConceptRows;
   /** The files' term lists, checked but not yet in head (filled after the load). */
-  terms: TermListFill;
+  terms: HeadFill;
+  /** The model's term vectors, checked but not yet in head (filled after the load). */
+  termVectors: HeadFill;
 }> {
   const handle = await open(path, OPEN_FLAGS);
   let kept = false;
@@ -429,18 +433,25 @@ async function readCheckedHead(
     if (vectors.length !== v.bytes) throw new CorruptIndexError("the files' vectors are not k per document");
     // The files' term lists (termIds, termCounts) are streamed through a small scratch buffer for
     // the checksum and TermListCheck, their place in the head left untouched; they are filled in
-    // after the load (termListFill.ts), so their pages (173 MB on the Linux tree) are not made
+    // after the load (headFill.ts), so their pages (173 MB on the Linux tree) are not made
     // before the index answers.
     const t = termListsOf(header, start);
     const ip = termIndptrOf(header, start);
     if (!(ip.at + 4 * ip.length <= t.at && t.at + t.bytes <= v.at))
       throw new CorruptIndexError('the term lists are out of place (a reader bug)');
+    // The model's term vectors likewise (115 MB there): a query folds in only its few terms' rows,
+    // and a reopened index's model fills them on first use (serialize.ts, FillGate).
+    const tv = termVectorsOf(header, start);
+    if (!(t.at + t.bytes <= tv.at && tv.at + tv.bytes <= v.at))
+      throw new CorruptIndexError('the term vectors are out of place (a reader bug)');
     const scratchBytes = Math.max(8, Math.min(chunk, TERM_SCRATCH_BYTES) & ~7);
     const scratch = [new Uint8Array(scratchBytes), new Uint8Array(scratchBytes)];
     const parts: [number, number, Uint8Array | null, number][] = [
       [0, t.at, head, 0],
       [t.at, t.at + t.bytes, null, t.at],
-      [t.at + t.bytes, v.at, head, 0],
+      [t.at + t.bytes, tv.at, head, 0],
+      [tv.at, tv.at + tv.bytes, null, tv.at],
+      [tv.at + tv.bytes, v.at, head, 0],
       [v.at, v.at + v.bytes, vectors, v.at],
       [v.at + v.bytes, at, head, 0],
     ];
@@ -470,7 +481,10 @@ async function readCheckedHead(
       if ((await pending!) < to - from) throw new CorruptIndexError('index file is shorter than its header says');
       if (i + 1 < chunks.length) pending = readChunk(i + 1);
       if (to > start) sum.update(into.subarray(Math.max(0, start - from)));
-      if (lists) {
+      if (lists && from >= tv.at) {
+        // Scratch blocks start on 8 bytes past tv.at and end on a whole number of f32.
+        checkTermVectorsBlock(new Float32Array(into.buffer, into.byteOffset, (to - from) >> 2));
+      } else if (lists) {
         // termIndptr lies before the lists, so it is in the head by now.
         check ??= new TermListCheck(new Int32Array(head.buffer, ip.at, ip.length), t.total, ip.vocabSize);
         const a = Math.min(Math.max(from, t.at), idsEnd);
@@ -495,8 +509,9 @@ async function readCheckedHead(
     const saved = codes
       ? { codes: reader.region(codes.codesAt, codes.codesBytes), params: reader.region(codes.paramsAt, codes.paramsBytes) }
       : undefined;
-    const terms = new TermListFill(handle, path, head.subarray(t.at, t.at + t.bytes), t.at, () => reader.closed);
-    return { head, rows: reader, codes: saved, size, tail, vectors: conceptRows, terms };
+    const terms = new HeadFill(handle, path, head.subarray(t.at, t.at + t.bytes), t.at, () => reader.closed);
+    const termVectors = new HeadFill(handle, path, head.subarray(tv.at, tv.at + tv.bytes), tv.at, () => reader.closed, 'term vectors');
+    return { head, rows: reader, codes: saved, size, tail, vectors: conceptRows, terms, termVectors };
   } finally {
     if (!kept) await handle.close();
   }
@@ -519,7 +534,8 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     size?: number;
     tail?: TailCheck;
     vectors?: ConceptRows;
-    terms?: TermListFill;
+    terms?: HeadFill;
+    termVectors?: HeadFill;
   };
   try {
     read = inFile
@@ -532,11 +548,12 @@ export async function loadIndex(path: string, options: Partial<LoadOptions> = {}
     if (code === 'ENOENT') return { status: 'missing' };
     return { status: 'damaged', reason: `cannot read ${path}: ${describeFsError(err)}` };
   }
-  const { head, rows, codes, size, tail, vectors, terms } = read;
+  const { head, rows, codes, size, tail, vectors, terms, termVectors } = read;
   try {
-    const index = rows ? decodeIndexWithRows(head, rows, codes, vectors, terms) : decodeIndex(head);
-    // The term lists go into their place in the background (a slot asked for its terms first fills them at once).
-    const termsFilled = terms ? terms.start(chunk) : Promise.resolve();
+    const index = rows ? decodeIndexWithRows(head, rows, codes, vectors, terms, termVectors) : decodeIndex(head);
+    // The term lists, then the term vectors, go into their place in the background (a slot asked
+    // for its terms, or a use of the model's term vectors, first fills them at once).
+    const termsFilled = terms ? terms.start(chunk).then(() => termVectors?.start(chunk)) : Promise.resolve();
     // Rows left in the file: the section lists' codes go to a scratch file beside it too.
     if (rows) index.sections.spillListsTo(openSpillBeside(dirname(resolve(path))));
     // The rows and codes not yet checked (format 6): checked in the background from now on, and

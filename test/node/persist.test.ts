@@ -178,6 +178,55 @@ describe('persist', () => {
     for (const chunk of [8, 4096, undefined]) expect(answers(await reopen(file, chunk))).toEqual(answers(index));
   });
 
+  it('checks the term vectors as it streams them past (any read size) and fills them after the load as a whole read has them', async () => {
+    const index = buildAdi();
+    const bytes = encodeIndex(index);
+    const header = readIndexHeader(bytes);
+    const file = join(dir, 'term-vectors.undertone');
+    const e = header.sections.find((s) => s.name === 'termVectors')!;
+    // A NaN (IEEE 754 binary32 0x7fc00000) as the first, a middle and the last value, sealed with good checksums.
+    for (const at of [0, Math.floor(e.length / 2), e.length - 1]) {
+      const payload = payloadOf(bytes).slice();
+      new DataView(payload.buffer).setUint32(e.offset + 4 * at, 0x7fc00000, true);
+      writeFileSync(file, sealIndexFile(header, payload));
+      for (const options of [
+        { readChunkBytes: 8 },
+        { readChunkBytes: 4096 },
+        {},
+        { checkRows: 'later' as const },
+        { sectionRows: 'memory' as const },
+      ])
+        expect(await loadIndex(file, options), `${at} ${JSON.stringify(options)}`).toEqual({
+          status: 'damaged',
+          reason: expect.stringMatching(/termVectors holds a value out of range/),
+        });
+    }
+    // A flipped bit in them fails the checksum (they are summed as they stream past).
+    const flipped = Buffer.from(bytes);
+    flipped[bytes.length - payloadOf(bytes).length + e.offset + 4 * Math.floor(e.length / 3) + 2] ^= 0x10;
+    writeFileSync(file, flipped);
+    for (const options of [{ checkRows: 'later' as const }, { sectionRows: 'memory' as const }])
+      expect(await loadIndex(file, options)).toMatchObject({ status: 'damaged', reason: expect.stringMatching(/checksum/) });
+    // The good file: the term vectors read at once (before the fill ends) or after it, at any read
+    // size, equal the saved model's and a whole read's (memory mode); the answers are the same.
+    writeFileSync(file, bytes);
+    const whole = await loadIndex(file, { sectionRows: 'memory' });
+    if (whole.status !== 'ok') throw new Error('expected a loadable index');
+    expect(whole.index.model.termVectors).toEqual(index.model.termVectors);
+    for (const chunk of [8, 4096, undefined]) {
+      const now = await loadIndex(file, { readChunkBytes: chunk });
+      const later = await loadIndex(file, { readChunkBytes: chunk });
+      if (now.status !== 'ok' || later.status !== 'ok') throw new Error('expected a loadable index');
+      expect(now.index.model.termVectors).toEqual(whole.index.model.termVectors);
+      await later.termsFilled;
+      expect(later.index.model.termVectors).toEqual(whole.index.model.termVectors);
+      expect({ ...later.index.model }).toEqual({ ...whole.index.model });
+      expect(answers(now.index)).toEqual(answers(index));
+      now.index.sections.closeRows();
+      later.index.sections.closeRows();
+    }
+  });
+
   it('reports a vocabulary byte that is not UTF-8 as damage, however the file is read', async () => {
     const bytes = encodeIndex(buildAdi());
     const header = readIndexHeader(bytes);

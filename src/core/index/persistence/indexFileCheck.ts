@@ -335,6 +335,11 @@ export interface PayloadParts {
   readonly columnOfLength: number;
   readonly weights: Float64Array;
   readonly termVectors: Float32Array;
+  /**
+   * True when termVectors were checked while a reader streamed them (checkTermVectorsBlock), so
+   * their bytes are not read here (a reopen fills them in after the load: persist.ts).
+   */
+  readonly termVectorsChecked?: boolean;
   readonly singularValues: Float64Array;
   readonly axisScale: Float64Array;
   readonly vectors: Float32Array;
@@ -384,6 +389,15 @@ function allFiniteF32(a: Float32Array, what: string, positive = false): void {
   }
 }
 
+/**
+ * The check of the model's term vectors (all finite), on one block of them as a reader streams
+ * them (persist.ts); checkPayload does the same over the whole section when not told it was done.
+ * @throws CorruptIndexError
+ */
+export function checkTermVectorsBlock(block: Float32Array): void {
+  allFiniteF32(block, 'termVectors');
+}
+
 export function checkPayload(p: PayloadParts): void {
   const n = p.paths.length;
   const seen = new Set<string>();
@@ -412,7 +426,7 @@ export function checkPayload(p: PayloadParts): void {
     prev = id;
   }
   allFinite(p.weights, 'weights');
-  allFiniteF32(p.termVectors, 'termVectors');
+  if (!p.termVectorsChecked) allFiniteF32(p.termVectors, 'termVectors');
   allFinite(p.singularValues, 'singularValues', 0);
   allFinite(p.axisScale, 'axisScale');
   const k = p.k;

@@ -463,7 +463,8 @@ export function decodeIndexWithRows(
   rows: SectionRowReader,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
   vectors?: ConceptRows,
-  terms?: TermListGate,
+  terms?: FillGate,
+  termVectors?: FillGate,
 ): LsiIndex {
   const header = readIndexHeader(head);
   const start = headerExtent(head);
@@ -476,16 +477,18 @@ export function decodeIndexWithRows(
     throw new CorruptIndexError(
       `the files' vector rows hold ${vectors.capacity} rows of ${vectors.k}, expected ${header.docs} of ${k} (a reader bug)`,
     );
-  return decodeChecked(header, head.subarray(start), rows, codes, vectors, terms);
+  return decodeChecked(header, head.subarray(start), rows, codes, vectors, terms, termVectors);
 }
 
 /**
- * Term lists that a reader streamed through their checksum and TermListCheck without keeping them,
- * and fills into their place in the head after the load (persist.ts): ensure() returns once they
- * are there (finishing the fill itself when it has not ended) and throws when they cannot be read.
- * The index's slots call it before giving out a file's terms, so nothing reads them unfilled.
+ * A part of the head that a reader streamed through its checksum and its checks without keeping
+ * it, and fills into its place after the load (persist.ts): the files' term lists (TermListCheck)
+ * and the model's term vectors (checkTermVectorsBlock). ensure() returns once the part is there
+ * (finishing the fill itself when it has not ended) and throws when it cannot be read. The index's
+ * slots call it before giving out a file's terms, and the model before giving out its term
+ * vectors (modelFilledLater), so nothing reads them unfilled.
  */
-export interface TermListGate {
+export interface FillGate {
   ensure(): void;
 }
 
@@ -497,6 +500,30 @@ export function termListsOf(
   const ids = header.sections.find((s) => s.name === 'termIds')!;
   const counts = header.sections.find((s) => s.name === 'termCounts')!;
   return { at: fileStart + ids.offset, idsBytes: 4 * ids.length, bytes: counts.offset + 4 * counts.length - ids.offset, total: ids.length };
+}
+
+/** Where the model's term vectors lie in the file (byte offset and length). */
+export function termVectorsOf(header: CheckedHeader, fileStart: number): { readonly at: number; readonly bytes: number } {
+  const e = header.sections.find((s) => s.name === 'termVectors')!;
+  return { at: fileStart + e.offset, bytes: 4 * e.length };
+}
+
+/**
+ * The model with its term vectors behind `gate`: the first read of model.termVectors fills them
+ * (gate.ensure(), which throws when they cannot be read), then makes the field a plain one again,
+ * so later reads cost nothing and a spread or a copy of the model reads them filled.
+ */
+function modelFilledLater(model: ConceptModel, gate: FillGate): ConceptModel {
+  const termVectors = model.termVectors;
+  return Object.defineProperty(model, 'termVectors', {
+    enumerable: true,
+    configurable: true,
+    get(this: ConceptModel): Float32Array {
+      gate.ensure();
+      Object.defineProperty(this, 'termVectors', { value: termVectors, enumerable: true, configurable: true, writable: false });
+      return termVectors;
+    },
+  });
 }
 
 /** Where termIndptr lies in the file, and how many terms the vocabulary holds (from its offsets' length). */
@@ -515,11 +542,11 @@ interface SavedTermLists {
   readonly counts: Float32Array;
   readonly indptr: Int32Array;
   readonly length: Float64Array;
-  readonly gate: TermListGate;
+  readonly gate: FillGate;
 }
 
 /**
- * A reopened file's slot whose term lists are bytes filled in after the load (TermListGate): its
+ * A reopened file's slot whose term lists are bytes filled in after the load (FillGate): its
  * terms wait for them, and their views are made on the first access (then kept), so the load makes
  * no per-file arrays for them. The other fields are plain, as in any DocSlot.
  */
@@ -560,7 +587,8 @@ function decodeChecked(
   rows: SectionRowReader | undefined,
   codes?: { readonly codes: ByteSpill; readonly params: ByteSpill },
   conceptRows?: ConceptRows,
-  terms?: TermListGate,
+  terms?: FillGate,
+  termVectorsGate?: FillGate,
 ): LsiIndex {
   // The section table was checked against SECTION_LAYOUT (names, kinds, contiguous offsets) and
   // payloadBytes against its end, so every section lies inside the payload.
@@ -607,6 +635,7 @@ function decodeChecked(
     columnOfLength: header.model.columnOfLength,
     weights: get('weights', 'f64'),
     termVectors: get('termVectors', 'f32'),
+    termVectorsChecked: termVectorsGate !== undefined,
     singularValues: get('singularValues', 'f64'),
     axisScale: get('axisScale', 'f64'),
     vectors: conceptRows ? conceptRows.rows.subarray(0, n * k) : get('vectors', 'f32'),
@@ -629,7 +658,8 @@ function decodeChecked(
   const columnOf = new Int32Array(header.model.columnOfLength).fill(-1);
   keptIds.forEach((id, c) => (columnOf[id] = c));
   const { columnOfLength: _len, ...scalars } = header.model;
-  const model: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
+  const plain: ConceptModel = { ...scalars, keptIds, columnOf, weights, termVectors, singularValues, axisScale };
+  const model = termVectorsGate ? modelFilledLater(plain, termVectorsGate) : plain;
   const lists: SavedTermLists | undefined = terms && { ids, counts, indptr, length, gate: terms };
   const slots: DocSlot[] = paths.map((path, j) => {
     const meta = withLanguage<DocSlot['meta']>({ path, size: size[j], mtimeMs: mtime[j] }, LANGUAGES[parts.language[j]]);
