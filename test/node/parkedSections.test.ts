@@ -9,13 +9,12 @@ import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { countTerms, Vocabulary } from '../../src/core/counting/termCounts.js';
-import { splitLines, splitSections } from '../../src/core/sections/splitSections.js';
+import { Vocabulary } from '../../src/core/counting/termCounts.js';
 import type { CountedSections } from '../../src/core/sections/sectionVectors.js';
 import type { ByteSpill, OpenSpill } from '../../src/core/sections/types.js';
-import { tokenize } from '../../src/core/text/tokenize.js';
 import { ParkedSections } from '../../src/node/parkedSections.js';
 import { openSpillBeside } from '../../src/node/sectionCodeFile.js';
+import { countSections } from '../helpers/countedSections.js';
 import { loadCollection } from '../helpers/shared.js';
 
 const folder = mkdtempSync(join(tmpdir(), 'undertone-park-'));
@@ -27,33 +26,10 @@ function counted(): Map<string, CountedSections> {
   const vocab = new Vocabulary();
   const out = new Map<string, CountedSections>();
   for (const half of [docs.slice(0, 20), docs.slice(20)]) {
-    const ids: number[] = [];
-    const counts: number[] = [];
-    const parts = half.map((d) => {
-      const text = d.text.replace(/\. /g, '.\n'); // a line a sentence: several windows a file
-      const lines = splitLines(text);
-      const cut = splitSections(`${d.id}.txt`, text, { windowLines: 3, windowOverlap: 1 }).sections;
-      const offsets = new Int32Array(cut.length + 1);
-      offsets[0] = ids.length;
-      cut.forEach((s, i) => {
-        const t = countTerms(tokenize(lines.slice(s.start, s.end).join('\n')), vocab, true);
-        ids.push(...t.termIds);
-        counts.push(...t.counts);
-        offsets[i + 1] = ids.length;
-      });
-      return { id: d.id, cut, offsets };
-    });
-    const termIds = Int32Array.from(ids);
-    const shared = Float32Array.from(counts);
-    for (const { id, cut, offsets } of parts)
-      out.set(id, {
-        starts: Int32Array.from(cut, (s) => s.start),
-        ends: Int32Array.from(cut, (s) => s.end),
-        titles: cut.map((s) => s.title),
-        offsets,
-        termIds,
-        counts: shared,
-      });
+    // A line a sentence: several windows a file.
+    const files = half.map((d) => ({ path: `${d.id}.txt`, text: d.text.replace(/\. /g, '.\n') }));
+    const sections = countSections(files, vocab, { grow: true, split: { windowLines: 3, windowOverlap: 1 } });
+    half.forEach((d, i) => out.set(d.id, sections[i]));
   }
   return out;
 }

@@ -9,9 +9,7 @@ import { CancelledError, CorruptIndexError } from '../../../src/core/errors.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { decodeIndex, encodeIndex, readIndexHeader, sealIndexFile, payloadOf } from '../../../src/core/index/persistence/serialize.js';
-import { countTerms } from '../../../src/core/counting/termCounts.js';
 import { serialExecutor } from '../../../src/core/matrix/executor.js';
-import { splitLines, splitSections } from '../../../src/core/sections/splitSections.js';
 import {
   foldContextOf,
   foldCountedSections,
@@ -22,7 +20,7 @@ import {
 import { SectionRowsClosedError } from '../../../src/core/sections/sectionRows.js';
 import { SectionStore } from '../../../src/core/sections/sectionStore.js';
 import type { OpenSpill } from '../../../src/core/sections/types.js';
-import { tokenize } from '../../../src/core/text/tokenize.js';
+import { countSections } from '../../helpers/countedSections.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 
 const fx = loadRankingFixture('rxjs-src');
@@ -43,32 +41,11 @@ function buildWithSections(): LsiIndex {
  */
 function countedOf(index: LsiIndex): CountedSections[] {
   const ctx = foldContextOf(index);
-  const ids: number[] = [];
-  const counts: number[] = [];
-  const parts = docs.map((d) => {
-    const lines = splitLines(d.text);
-    const cut = splitSections(d.id, d.text).sections;
-    const offsets = new Int32Array(cut.length + 1);
-    offsets[0] = ids.length;
-    cut.forEach((s, i) => {
-      const t = countTerms(tokenize(lines.slice(s.start, s.end).join('\n'), ctx.tokenize), ctx.vocab, false);
-      ids.push(...t.termIds);
-      counts.push(...t.counts);
-      offsets[i + 1] = ids.length;
-    });
-    return { cut, offsets };
-  });
-  const termIds = Int32Array.from(ids);
-  const shared = Float32Array.from(counts);
-  const counted: CountedSections[] = parts.map(({ cut, offsets }) => ({
-    starts: Int32Array.from(cut, (s) => s.start),
-    ends: Int32Array.from(cut, (s) => s.end),
-    titles: cut.map((s) => s.title),
-    offsets,
-    termIds,
-    counts: shared,
-  }));
-  return counted;
+  return countSections(
+    docs.map((d) => ({ path: d.id, text: d.text })),
+    ctx.vocab,
+    { grow: false, tokenize: ctx.tokenize },
+  );
 }
 
 function maxDiff(a: Float32Array, b: Float32Array): number {
