@@ -57,13 +57,19 @@ async function main(): Promise<void> {
   mark('counted');
   const builder = new IndexBuilder(DEFAULT_INDEX_SETTINGS, counted.vocab);
   let sections = 0;
+  let fileEntries = 0;
+  const sectionEntries = new Set<Int32Array>();
   counted.outcomes.forEach((got, i) => {
     const f = scan.files[i];
     if (got.kind !== 'text') return;
     builder.addCounted({ path: f.path, size: f.size, mtimeMs: f.mtimeMs }, got.terms);
+    fileEntries += got.terms.termIds.length;
     sections += got.sections ? got.sections.starts.length : 0;
+    if (got.sections) sectionEntries.add(got.sections.termIds);
   });
+  const sectionTotal = [...sectionEntries].reduce((sum, ids) => sum + ids.length, 0);
   mark(`filed (${builder.size} files, ${sections} sections, ${counted.vocab.size} terms)`);
+  console.log(`counts held: files ${fileEntries} entries, sections ${sectionTotal} entries (8 bytes each: ${mb(8 * (fileEntries + sectionTotal))})`);
   await pool.close();
   (globalThis as { gc?: () => void }).gc?.();
   mark('threads ended');

@@ -138,6 +138,17 @@ export class Vocabulary {
     return Vocabulary.fromBytes({ bytes, starts, sorted: sortedRun(bytes, starts, terms.length, 0) })!;
   }
 
+  /**
+   * fromTerms of terms already encoded as fromTerms encodes them (UTF-8, '\0' between terms, no
+   * term holding U+0000) with their start offsets (the last entry bytes.length + 1): the same
+   * vocabulary, without a string per term on the way. Null when the offsets do not delimit the bytes.
+   */
+  static fromEncoded(bytes: Uint8Array, starts: Int32Array): Vocabulary | null {
+    const count = starts.length - 1;
+    if (count < 0 || !validStarts(bytes, starts)) return null;
+    return Vocabulary.fromBytes({ bytes, starts, sorted: sortedRun(bytes, starts, count, 0) });
+  }
+
   /** The terms as bytes for saving (shares memory with a reopened vocabulary: do not modify). */
   toBytes(): VocabularyBytes {
     const count = this.size;

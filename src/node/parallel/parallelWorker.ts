@@ -13,6 +13,7 @@ import { decodeUtf8 } from '../scanRead.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../scanTypes.js';
 import { FileReader } from './readTextSync.js';
 import { WordCounter, type PackedFile } from './wordCounter.js';
+import type { TermUnits } from './termOrder.js';
 import { countThreadSections, type ThreadSections } from './threadSections.js';
 
 if (!parentPort) throw new Error('parallelWorker.js must be started as a worker thread.');
@@ -51,9 +52,9 @@ port.on('message', (msg: ToWorker) => {
     return;
   }
   if (msg.type === 'sort-terms') {
-    const order = (counter ?? new WordCounter({})).sortedTermOrder();
-    const reply: FromWorker = { type: 'term-order', order };
-    port.postMessage(reply, [order.buffer as ArrayBuffer]);
+    const { units, starts } = setAsideCounts();
+    const reply: FromWorker = { type: 'term-order', units, starts };
+    port.postMessage(reply, [units.buffer as ArrayBuffer, starts.buffer as ArrayBuffer]);
     return;
   }
   if (msg.type === 'setup') {
@@ -64,6 +65,7 @@ port.on('message', (msg: ToWorker) => {
     counter.recordWords = withSections;
     kept = [];
     keptSections = [];
+    finishing = undefined;
     return;
   }
   if (msg.type === 'finish-counts') {
@@ -105,7 +107,8 @@ port.on('message', (msg: ToWorker) => {
           : { index: r.index, kind: 'kept', at: r.at, terms: r.terms, length: r.length, language: r.language, sections: r.sections },
       );
       for (const r of read) if (!('kind' in r)) kept.push(r.at, r.at + r.terms);
-      const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: wc.takeNewTerms(), files };
+      // The terms go once, sorted, at sort-terms (as code units: no string per term on the main thread).
+      const reply: FromWorker = { type: 'batch', batch: msg.batch, newTerms: [], files };
       port.postMessage(reply);
       return;
     }
@@ -131,20 +134,45 @@ port.on('message', (msg: ToWorker) => {
   }
 });
 
-/** Every kept file's counts over final ids (each file's run sorted), in place in the packs, and a fresh start. */
-function finishCounts(translate: Int32Array): FinalCounts {
+/** What finish-counts needs once the last batch is counted: the packs and the sorted order of the terms. */
+let finishing:
+  | { readonly order: Int32Array; readonly files: ReturnType<WordCounter['drainPack']>; readonly sections: ReturnType<WordCounter['drainSectionPack']> }
+  | undefined;
+
+/**
+ * The thread's terms in sorted order as code units (the term-order reply), and everything else
+ * of the counter let go but its packs: its word tables, term map and term strings (on the Linux
+ * tree a few hundred MB a thread) are not needed to translate the packs, which run at the end of
+ * counting, the build's peak. A full collection frees them now rather than at some later point.
+ */
+function setAsideCounts(): TermUnits {
   const wc = counter ?? new WordCounter({});
-  const { ids, counts } = wc.drainPack();
+  const order = wc.sortedTermOrder();
+  const units = wc.termUnits(order);
+  // Views of the packs: valid as long as nothing more is packed, and the counter is dropped here.
+  finishing = { order, files: wc.drainPack(), sections: wc.drainSectionPack() };
+  counter = undefined;
+  collectGarbage();
+  return units;
+}
+
+/**
+ * Every kept file's counts over final ids (each file's run sorted), in place in the packs, and a
+ * fresh start. bySorted: the final id of each term in sorted order (setAsideCounts).
+ */
+function finishCounts(bySorted: Int32Array): FinalCounts {
+  if (!finishing) setAsideCounts();
+  const { order, files, sections: s } = finishing!;
+  finishing = undefined;
+  const translate = new Int32Array(order.length);
+  for (let p = 0; p < order.length; p++) translate[order[p]] = bySorted[p];
+  const { ids, counts } = files;
   const out = new Float32Array(counts.buffer, counts.byteOffset, counts.length);
   for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, ids, out);
   kept = [];
-  const s = wc.drainSectionPack();
   const sectionCounts = new Float32Array(s.counts.buffer, s.counts.byteOffset, s.counts.length);
   for (const offsets of keptSections)
     for (let i = 0; i + 1 < offsets.length; i++) translateRun(s.ids, s.counts, offsets[i], offsets[i + 1], translate, s.ids, sectionCounts);
   keptSections = [];
-  // The build's word tables are done with (the next build sends setup): let them go before the
-  // SVD runs on this thread's share of the products.
-  counter = undefined;
   return { type: 'final-counts', termIds: ids, counts: out, sectionTermIds: s.ids, sectionCounts };
 }

@@ -4,14 +4,17 @@
  * code units, every term used), so the builder does not have to renumber millions of terms.
  * No shared term map is grown while reading: each thread keeps its own terms, and its files'
  * counts (packed in one array, not sent per batch); at the end each sorts its own terms (in
- * parallel), the sorted lists are merged here, and each thread translates its files' counts to
- * the merged ids and sends them back in one pair of arrays, which the files' DocTerms view. The
- * result does not depend on which thread read which file.
+ * parallel) and sends them as code units, the sorted lists are merged here into the
+ * vocabulary's bytes, and each thread translates its files' counts to the merged ids and sends
+ * them back in one pair of arrays, which the files' DocTerms view. The result does not depend on
+ * which thread read which file.
  */
+import { InvalidInputError } from '../../core/errors.js';
 import { Vocabulary, type DocTerms } from '../../core/counting/termCounts.js';
 import type { Language } from '../../core/text/languages.js';
 import { runCountBatches, type CountJob, type CountOptions, type CountOutcome } from './parallelCount.js';
 import type { FinalCounts, FromWorker, TermOrder, ToWorker } from './threadProtocol.js';
+import type { TermUnits } from './termOrder.js';
 import type { ThreadSections } from './threadSections.js';
 import type { WorkerPool } from './workerPool.js';
 
@@ -33,10 +36,8 @@ export interface SortedCounts {
 }
 
 export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob[], options: CountOptions): Promise<SortedCounts> {
-  const terms: string[][] = pool.workers.map(() => []);
   const raw: (Pending | Exclude<CountOutcome, { kind: 'text' }>)[] = new Array(jobs.length);
   await runCountBatches(pool, jobs, { ...options, keepCounts: true }, (w, msg) => {
-    for (const t of msg.newTerms) terms[w].push(t);
     for (const f of msg.files) {
       if (f.kind === 'text') throw new Error('a tokenizing thread sent counts it was asked to keep');
       raw[f.index] =
@@ -46,11 +47,12 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
     }
   });
   options.onStep?.('read');
-  const orders = await Promise.all(pool.workers.map((_, w) => ask<TermOrder>(pool, w, { type: 'sort-terms' }, 'term-order')));
-  const { sorted, translate } = mergeSorted(
-    terms,
-    orders.map((o) => o.order),
-  );
+  // Each thread sorts its own terms (in parallel) and hands them over as code units, letting go of
+  // its word tables; the merge writes the vocabulary's bytes with no string per term.
+  const lists = await Promise.all(pool.workers.map((_, w) => ask<TermOrder>(pool, w, { type: 'sort-terms' }, 'term-order')));
+  const merged = mergeSortedUnits(lists);
+  lists.length = 0;
+  const translate = merged.toMerged;
   options.onStep?.('merged');
   // Each thread translates and sorts its own files' counts (in parallel), into one pair of arrays.
   const finals = await Promise.all(
@@ -79,7 +81,9 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
     } else outcomes[i] = r;
   }
   // As bytes: the index keeps this vocabulary, and strings with a map cost several times more.
-  return { vocab: Vocabulary.fromTerms(sorted), outcomes };
+  const vocab = Vocabulary.fromEncoded(merged.bytes, merged.starts);
+  if (!vocab) throw new Error('the merged vocabulary has offsets that do not delimit its terms');
+  return { vocab, outcomes };
 }
 
 /** Sends msg to worker w and resolves with its reply of the given type. */
@@ -109,34 +113,109 @@ function ask<T extends FromWorker>(pool: WorkerPool, w: number, msg: ToWorker, r
   });
 }
 
-/** Merges per-thread sorted term lists into one sorted list of distinct terms, with each thread's local → global ids. */
-export function mergeSorted(
-  terms: readonly (readonly string[])[],
-  orders: readonly Int32Array[],
-): { sorted: string[]; translate: Int32Array[] } {
-  const k = terms.length;
+/** The merged vocabulary as saved (UTF-8, '\0' between terms) and each list's sorted positions → merged ids. */
+export interface MergedTerms {
+  readonly bytes: Uint8Array;
+  /** Start offset of each term, one more entry than terms (the last is bytes.length + 1). */
+  readonly starts: Int32Array;
+  /** toMerged[w][p]: the merged id of list w's p-th term. */
+  readonly toMerged: Int32Array[];
+}
+
+/**
+ * Merges per-thread sorted term lists (code units, each list ascending in UTF-16 code unit
+ * order, its terms distinct) into one sorted list of distinct terms, written straight to UTF-8
+ * bytes as TextEncoder writes the terms joined by '\0' (a lone surrogate becomes U+FFFD): no
+ * string per term on this thread, where millions of them (the Linux tree has 3.6 million) and
+ * their sorted copy held hundreds of MB.
+ */
+export function mergeSortedUnits(lists: readonly TermUnits[]): MergedTerms {
+  const k = lists.length;
   const pos = new Int32Array(k);
-  const translate = terms.map((t) => new Int32Array(t.length));
-  // The head term of each list (undefined when it is done).
-  const head: (string | undefined)[] = terms.map((t, w) => (orders[w].length > 0 ? t[orders[w][0]] : undefined));
-  const sorted: string[] = [];
+  const toMerged = lists.map((l) => new Int32Array(l.starts.length - 1));
+  let total = 0;
+  for (const l of lists) total += l.units.length + l.starts.length;
+  // Most terms are ASCII (one byte a unit); grown as needed.
+  let out = new Uint8Array(Math.max(64, total));
+  let used = 0;
+  let starts = new Int32Array(1024);
+  let count = 0;
   for (;;) {
-    let best: string | undefined;
+    let best = -1;
     for (let w = 0; w < k; w++) {
-      const t = head[w];
-      if (t !== undefined && (best === undefined || t < best)) best = t;
+      if (pos[w] >= toMerged[w].length) continue;
+      if (best < 0 || compareTerms(lists[w], pos[w], lists[best], pos[best]) < 0) best = w;
     }
-    if (best === undefined) break;
-    const id = sorted.length;
-    sorted.push(best);
+    if (best < 0) break;
+    const b = lists[best];
+    const p = pos[best];
+    const from = b.starts[p];
+    const to = b.starts[p + 1];
+    if (count > 0) out[used++] = 0;
+    if (count + 1 >= starts.length) {
+      const grown = new Int32Array(starts.length * 2);
+      grown.set(starts);
+      starts = grown;
+    }
+    starts[count] = used;
+    if (used + 3 * (to - from) + 1 > out.length) {
+      const grown = new Uint8Array(Math.max(2 * out.length, used + 3 * (to - from) + 1));
+      grown.set(out.subarray(0, used));
+      out = grown;
+    }
+    used = encodeUtf8(b.units, from, to, out, used);
+    const id = count++;
     for (let w = 0; w < k; w++) {
-      if (head[w] !== best) continue;
-      const order = orders[w];
-      const p = pos[w];
-      translate[w][order[p]] = id;
-      pos[w] = p + 1;
-      head[w] = p + 1 < order.length ? terms[w][order[p + 1]] : undefined;
+      if (w !== best && (pos[w] >= toMerged[w].length || compareTerms(lists[w], pos[w], b, p) !== 0)) continue;
+      toMerged[w][pos[w]++] = id;
     }
   }
-  return { sorted, translate };
+  starts[count] = used + 1;
+  return { bytes: out.slice(0, used), starts: starts.slice(0, count + 1), toMerged };
+}
+
+/** Code unit order of term p of a and term q of b (shorter first on a common prefix), as strings compare. */
+function compareTerms(a: TermUnits, p: number, b: TermUnits, q: number): number {
+  const u = a.units;
+  const v = b.units;
+  let i = a.starts[p];
+  const ie = a.starts[p + 1];
+  let j = b.starts[q];
+  const je = b.starts[q + 1];
+  for (; i < ie && j < je; i++, j++) if (u[i] !== v[j]) return u[i] - v[j];
+  return ie - i - (je - j);
+}
+
+/** Writes u[from, to) as UTF-8 at out[at] (room checked by the caller: 3 bytes a unit); returns the end. */
+function encodeUtf8(u: Uint16Array, from: number, to: number, out: Uint8Array, at: number): number {
+  for (let i = from; i < to; i++) {
+    let c = u[i];
+    if (c < 0x80) {
+      if (c === 0) throw new InvalidInputError('a term holds U+0000, the separator of a vocabulary held as bytes');
+      out[at++] = c;
+    } else if (c < 0x800) {
+      out[at++] = 0xc0 | (c >> 6);
+      out[at++] = 0x80 | (c & 63);
+    } else if (c >= 0xd800 && c <= 0xdfff) {
+      const d = i + 1 < to ? u[i + 1] : 0;
+      if (c <= 0xdbff && d >= 0xdc00 && d <= 0xdfff) {
+        c = ((c - 0xd800) << 10) + (d - 0xdc00) + 0x10000;
+        i++;
+        out[at++] = 0xf0 | (c >> 18);
+        out[at++] = 0x80 | ((c >> 12) & 63);
+        out[at++] = 0x80 | ((c >> 6) & 63);
+        out[at++] = 0x80 | (c & 63);
+      } else {
+        // A lone surrogate: U+FFFD, as TextEncoder writes it.
+        out[at++] = 0xef;
+        out[at++] = 0xbf;
+        out[at++] = 0xbd;
+      }
+    } else {
+      out[at++] = 0xe0 | (c >> 12);
+      out[at++] = 0x80 | ((c >> 6) & 63);
+      out[at++] = 0x80 | (c & 63);
+    }
+  }
+  return at;
 }

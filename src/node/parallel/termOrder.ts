@@ -51,3 +51,23 @@ export function sortedTermIds(terms: readonly string[]): Int32Array {
   }
   return ids;
 }
+
+/** Terms as code units: term i is units[starts[i], starts[i + 1]) (no string per term). */
+export interface TermUnits {
+  readonly units: Uint16Array;
+  /** One more entry than terms. */
+  readonly starts: Int32Array;
+}
+
+/** terms[order[0]], terms[order[1]], … as code units, in one buffer (what a thread hands over). */
+export function termUnitsInOrder(terms: readonly string[], order: Int32Array): TermUnits {
+  const starts = new Int32Array(order.length + 1);
+  for (let i = 0; i < order.length; i++) starts[i + 1] = starts[i] + terms[order[i]].length;
+  const units = new Uint16Array(starts[order.length]);
+  for (let i = 0; i < order.length; i++) {
+    const t = terms[order[i]];
+    const at = starts[i];
+    for (let j = 0; j < t.length; j++) units[at + j] = t.charCodeAt(j);
+  }
+  return { units, starts };
+}

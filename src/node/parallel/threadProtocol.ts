@@ -34,14 +34,15 @@ export interface WasmInit {
   readonly memory: WebAssembly.Memory;
 }
 
-/** Asks for the worker's terms in sorted order (after its last batch). */
+/** Asks for the worker's terms in sorted order (after its last batch; the worker then counts no more until setup). */
 export interface SortTerms {
   readonly type: 'sort-terms';
 }
 
-/** Local → final term ids: the thread replies with every kept file's counts over final ids. */
+/** Final term ids: the thread replies with every kept file's counts over them. */
 export interface FinishCounts {
   readonly type: 'finish-counts';
+  /** The final id of each of the thread's terms, in the order of its term-order reply. */
   readonly translate: Int32Array;
 }
 
@@ -74,7 +75,7 @@ export type FileOutcome =
 export interface BatchDone {
   readonly type: 'batch';
   readonly batch: number;
-  /** Terms new to this worker since its previous reply, in local id order. */
+  /** Terms new to this worker since its previous reply, in local id order (none with keepCounts: see TermOrder). */
   readonly newTerms: readonly string[];
   readonly files: readonly FileOutcome[];
 }
@@ -84,10 +85,11 @@ export interface WorkerFailure {
   readonly message: string;
 }
 
-/** The worker's local term ids ordered by term (UTF-16 code unit order). */
+/** Every term of the worker, ascending in UTF-16 code unit order, as code units (TermUnits). */
 export interface TermOrder {
   readonly type: 'term-order';
-  readonly order: Int32Array;
+  readonly units: Uint16Array;
+  readonly starts: Int32Array;
 }
 
 /** Every kept file's counts, each file's run sorted by final term id. */

@@ -22,7 +22,7 @@ import { porterStem } from '../../core/text/porterFast.js';
 import { fileLanguage, fileLanguageAscii, isProsePath } from '../../core/text/detectLanguage.js';
 import type { Language } from '../../core/text/languages.js';
 import { tokenizeIn } from '../../core/text/tokenizeLanguage.js';
-import { sortedTermIds } from './termOrder.js';
+import { sortedTermIds, termUnitsInOrder, type TermUnits } from './termOrder.js';
 import { astralWordAt, caselessLetters, classify, CLASS, HIGH_SURROGATE, UnitBuffer, unitsToString, WORD } from './textUnits.js';
 import { FNV_OFFSET, FNV_PRIME, grow32, WordTable } from './wordTable.js';
 
@@ -106,6 +106,11 @@ export class WordCounter {
   /** All local term ids, ordered by term (UTF-16 code unit order, as Array.prototype.sort gives). */
   sortedTermOrder(): Int32Array {
     return sortedTermIds(this.terms);
+  }
+
+  /** The terms of the given local ids, in that order, as code units. */
+  termUnits(ids: Int32Array): TermUnits {
+    return termUnitsInOrder(this.terms, ids);
   }
 
   /** The counts of a text (fresh arrays; the worker packs a batch with packText instead). */
