@@ -55,6 +55,8 @@ port.on('message', (msg: ToWorker) => {
     const { units, starts } = setAsideCounts();
     const reply: FromWorker = { type: 'term-order', units, starts };
     port.postMessage(reply, [units.buffer as ArrayBuffer, starts.buffer as ArrayBuffer]);
+    // Once setAsideCounts has returned (its frame held the counter), while the main thread merges.
+    collectGarbage();
     return;
   }
   if (msg.type === 'setup') {
@@ -143,7 +145,8 @@ let finishing:
  * The thread's terms in sorted order as code units (the term-order reply), and everything else
  * of the counter let go but its packs: its word tables, term map and term strings (on the Linux
  * tree a few hundred MB a thread) are not needed to translate the packs, which run at the end of
- * counting, the build's peak. A full collection frees them now rather than at some later point.
+ * counting, the build's peak. The caller collects garbage once this has returned (measured on the
+ * Linux tree: about 450 MB resident less a thread), rather than at some later point.
  */
 function setAsideCounts(): TermUnits {
   const wc = counter ?? new WordCounter({});
@@ -152,7 +155,6 @@ function setAsideCounts(): TermUnits {
   // Views of the packs: valid as long as nothing more is packed, and the counter is dropped here.
   finishing = { order, files: wc.drainPack(), sections: wc.drainSectionPack() };
   counter = undefined;
-  collectGarbage();
   return units;
 }
 
