@@ -69,7 +69,9 @@ async function main(): Promise<void> {
   });
   const sectionTotal = [...sectionEntries].reduce((sum, ids) => sum + ids.length, 0);
   mark(`filed (${builder.size} files, ${sections} sections, ${counted.vocab.size} terms)`);
-  console.log(`counts held: files ${fileEntries} entries, sections ${sectionTotal} entries (8 bytes each: ${mb(8 * (fileEntries + sectionTotal))})`);
+  console.log(
+    `counts held: files ${fileEntries} entries, sections ${sectionTotal} entries (8 bytes each: ${mb(8 * (fileEntries + sectionTotal))})`,
+  );
   await pool.close();
   (globalThis as { gc?: () => void }).gc?.();
   mark('threads ended');

@@ -138,7 +138,11 @@ port.on('message', (msg: ToWorker) => {
 
 /** What finish-counts needs once the last batch is counted: the packs and the sorted order of the terms. */
 let finishing:
-  | { readonly order: Int32Array; readonly files: ReturnType<WordCounter['drainPack']>; readonly sections: ReturnType<WordCounter['drainSectionPack']> }
+  | {
+      readonly order: Int32Array;
+      readonly files: ReturnType<WordCounter['drainPack']>;
+      readonly sections: ReturnType<WordCounter['drainSectionPack']>;
+    }
   | undefined;
 
 /**
@@ -150,8 +154,7 @@ let finishing:
  */
 function setAsideCounts(): TermUnits {
   const wc = counter ?? new WordCounter({});
-  const order = wc.sortedTermOrder();
-  const units = wc.termUnits(order);
+  const { order, terms: units } = wc.sortedTerms();
   // Views of the packs: valid as long as nothing more is packed, and the counter is dropped here.
   finishing = { order, files: wc.drainPack(), sections: wc.drainSectionPack() };
   counter = undefined;

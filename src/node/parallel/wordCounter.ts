@@ -22,12 +22,12 @@ import { porterStem } from '../../core/text/porterFast.js';
 import { fileLanguage, fileLanguageAscii, isProsePath } from '../../core/text/detectLanguage.js';
 import type { Language } from '../../core/text/languages.js';
 import { tokenizeIn } from '../../core/text/tokenizeLanguage.js';
-import { sortedTermIds, termUnitsInOrder, type TermUnits } from './termOrder.js';
+import { sortedUnitIds, unitsInOrder, type TermUnits } from './termOrder.js';
 import { astralWordAt, caselessLetters, classify, CLASS, HIGH_SURROGATE, UnitBuffer, unitsToString, WORD } from './textUnits.js';
 import { FNV_OFFSET, FNV_PRIME, grow32, WordTable } from './wordTable.js';
 
 /** Distinct words (and tokens) cached before a table is cleared (bounds memory on huge trees). */
-const WORD_CACHE_LIMIT = 2_000_000;
+const WORD_CACHE_LIMIT = 500_000;
 /** Value of a cached word without terms; a word with several has -2 − (its offset in `multi`). */
 const NO_TERMS = -1;
 
@@ -50,8 +50,13 @@ export interface PackedFile {
 }
 
 export class WordCounter {
-  private readonly idOf = new Map<string, number>();
-  private readonly terms: string[] = [];
+  /**
+   * The thread's terms, code units → local id (entry e is term e: never cleared). Keys as units in
+   * one pool, not a string each in a map: on the Linux tree a thread holds 2 million terms and
+   * more, which as strings with a map took over 100 bytes a term.
+   */
+  private readonly termIds = new WordTable(Infinity, 1 << 15);
+  private termUnits16 = new Uint16Array(64);
   private reported = 0;
   // Sized for a few ten thousand keys up front (a thread meets that many in its first files).
   private readonly words = new WordTable(WORD_CACHE_LIMIT, 1 << 16);
@@ -98,19 +103,20 @@ export class WordCounter {
 
   /** Terms added since the last call, in id order (ids reported, reported + 1, …). */
   takeNewTerms(): string[] {
-    const out = this.terms.slice(this.reported);
-    this.reported = this.terms.length;
+    const out: string[] = [];
+    for (let id = this.reported; id < this.termIds.size; id++) out.push(this.termIds.keyString(id));
+    this.reported = this.termIds.size;
     return out;
   }
 
-  /** All local term ids, ordered by term (UTF-16 code unit order, as Array.prototype.sort gives). */
-  sortedTermOrder(): Int32Array {
-    return sortedTermIds(this.terms);
-  }
-
-  /** The terms of the given local ids, in that order, as code units. */
-  termUnits(ids: Int32Array): TermUnits {
-    return termUnitsInOrder(this.terms, ids);
+  /**
+   * All local term ids ordered by term (UTF-16 code unit order, as Array.prototype.sort gives),
+   * and the terms in that order as code units.
+   */
+  sortedTerms(): { order: Int32Array; terms: TermUnits } {
+    const keys = this.termIds.keys();
+    const order = sortedUnitIds(keys);
+    return { order, terms: unitsInOrder(keys, order) };
   }
 
   /** The counts of a text (fresh arrays; the worker packs a batch with packText instead). */
@@ -461,13 +467,20 @@ export class WordCounter {
   }
 
   private add(term: string): number {
-    let id = this.idOf.get(term);
-    if (id === undefined) {
-      id = this.terms.length;
-      this.terms.push(term);
-      this.idOf.set(term, id);
-      if (id >= this.tally.length) this.tally = grow32(this.tally, id + 1);
+    const n = term.length;
+    if (n > this.termUnits16.length) this.termUnits16 = new Uint16Array(Math.max(n, 2 * this.termUnits16.length));
+    const u = this.termUnits16;
+    let h = FNV_OFFSET;
+    for (let i = 0; i < n; i++) {
+      const c = term.charCodeAt(i);
+      u[i] = c;
+      h = Math.imul(h ^ c, FNV_PRIME);
     }
+    const e = this.termIds.find(u, 0, n, h);
+    if (e >= 0) return e;
+    const id = this.termIds.size;
+    this.termIds.insert(u, 0, n, h, id);
+    if (id >= this.tally.length) this.tally = grow32(this.tally, id + 1);
     return id;
   }
 }

@@ -82,6 +82,27 @@ export class WordTable {
     return e;
   }
 
+  /**
+   * Every key as code units, key e being units[starts[e], starts[e + 1]) (keys are stored one
+   * after the other from the last clear on). Views the table's units: valid until the next insert.
+   */
+  keys(): { units: Uint16Array; starts: Int32Array } {
+    const starts = new Int32Array(this.size + 1);
+    for (let e = 0; e < this.size; e++) starts[e] = this.rec[3 * e];
+    starts[this.size] = this.used;
+    return { units: this.units.subarray(0, this.used), starts };
+  }
+
+  /** The string of key e. */
+  keyString(e: number): string {
+    const at = this.rec[3 * e];
+    const end = at + this.rec[3 * e + 1];
+    let s = '';
+    for (let a = at; a < end; a += 4096)
+      s += String.fromCharCode.apply(null, this.units.subarray(a, Math.min(end, a + 4096)) as unknown as number[]);
+    return s;
+  }
+
   clear(): void {
     this.size = 0;
     this.used = 0;

@@ -31,7 +31,9 @@ describe('mergeSortedUnits', () => {
     const vocab = Vocabulary.fromEncoded(bytes, starts)!;
     expect(vocab.byteOrdered).toBe(expected.sorted);
     expect(vocab.terms).toEqual(union.map((t) => new TextDecoder().decode(new TextEncoder().encode(t))));
-    lists.forEach((l, w) => expect(Array.from(toMerged[w], (id, p) => [id, l[sent[w].order[p]]])).toEqual(Array.from(toMerged[w], (id) => [id, union[id]])));
+    lists.forEach((l, w) =>
+      expect(Array.from(toMerged[w], (id, p) => [id, l[sent[w].order[p]]])).toEqual(Array.from(toMerged[w], (id) => [id, union[id]])),
+    );
   });
 
   it('handles empty lists beside others', () => {

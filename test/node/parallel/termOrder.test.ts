@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
-import { sortedTermIds } from '../../../src/node/parallel/termOrder.js';
+import { sortedUnitIds, termUnitsInOrder } from '../../../src/node/parallel/termOrder.js';
+
+/** The order of the terms given as code units (as a thread holds them). */
+const sortedTermIds = (terms: readonly string[]): Int32Array => sortedUnitIds(termUnitsInOrder(terms, Int32Array.from(terms.keys())));
 
 // Reference: Array.prototype.sort on the strings (UTF-16 code unit order, ECMAScript spec), then
 // each term's position in the input.
@@ -21,7 +24,7 @@ function randomTerms(seed: number, n: number, alphabet: readonly string[]): stri
   return [...seen];
 }
 
-describe('sortedTermIds', () => {
+describe('sortedUnitIds', () => {
   it('orders ids as a plain string sort does, on short ASCII terms with shared prefixes', () => {
     const terms = randomTerms(11, 5000, ['a', 'b', 'c', 'z', '0', '9', '_']);
     expect(Array.from(sortedTermIds(terms))).toEqual(reference(terms));
