@@ -154,6 +154,9 @@ let finishing:
  */
 function setAsideCounts(): TermUnits {
   const wc = counter ?? new WordCounter({});
+  // The word caches go first, so that the sort's arrays take the place they held.
+  wc.dropWordCaches();
+  collectGarbage();
   const { order, terms: units } = wc.sortedTerms();
   // Views of the packs: valid as long as nothing more is packed, and the counter is dropped here.
   finishing = { order, files: wc.drainPack(), sections: wc.drainSectionPack() };

@@ -59,8 +59,8 @@ export class WordCounter {
   private termUnits16 = new Uint16Array(64);
   private reported = 0;
   // Sized for a few ten thousand keys up front (a thread meets that many in its first files).
-  private readonly words = new WordTable(WORD_CACHE_LIMIT, 1 << 16);
-  private readonly tokens = new WordTable(WORD_CACHE_LIMIT, 1 << 15);
+  private words = new WordTable(WORD_CACHE_LIMIT, 1 << 16);
+  private tokens = new WordTable(WORD_CACHE_LIMIT, 1 << 15);
   /** Term lists of words with several terms: count, then the ids. */
   private multi = new Int32Array(1 << 12);
   private multiUsed = 0;
@@ -107,6 +107,21 @@ export class WordCounter {
     for (let id = this.reported; id < this.termIds.size; id++) out.push(this.termIds.keyString(id));
     this.reported = this.termIds.size;
     return out;
+  }
+
+  /**
+   * Lets go of the caches of words and tokens (and the notes of the last text's words): what is
+   * left is the terms and the packs. Counting goes on correctly after, from empty caches.
+   */
+  dropWordCaches(): void {
+    this.words = new WordTable(WORD_CACHE_LIMIT, 1 << 8);
+    this.tokens = new WordTable(WORD_CACHE_LIMIT, 1 << 8);
+    this.multi = new Int32Array(1 << 12);
+    this.multiUsed = 0;
+    this.wordAt = new Int32Array(1 << 12);
+    this.wordValue = new Int32Array(1 << 12);
+    this.nWords = 0;
+    this.clears++;
   }
 
   /**
