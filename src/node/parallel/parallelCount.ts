@@ -13,6 +13,7 @@ import type { Language } from '../../core/text/languages.js';
 import type { CountedSections } from '../../core/sections/sectionVectors.js';
 import type { BatchDone, FromWorker, ToWorker } from './threadProtocol.js';
 import type { WorkerPool } from './workerPool.js';
+import { SECTION_COUNT_BIG } from './wordCounter.js';
 
 export interface CountJob {
   readonly absPath: string;
@@ -252,6 +253,53 @@ export function translateRun(
   termIds: Int32Array,
   out: Float32Array,
 ): void {
+  sortRunKeys(ids, from, to, tr);
+  const n = to - from;
+  const k = keys;
+  // Writing out in place overwrites counts still to be read: read them from a copy.
+  let src = counts;
+  let base = from;
+  if (out.buffer === counts.buffer) {
+    if (n > runCounts.length) runCounts = new Int32Array(Math.max(n, runCounts.length * 2));
+    runCounts.set(counts.subarray(from, to));
+    src = runCounts;
+    base = 0;
+  }
+  for (let j = 0; j < n; j++) {
+    const id = Math.floor(k[j] / SHIFT);
+    termIds[from + j] = id;
+    out[from + j] = src[base + k[j] - id * SHIFT];
+  }
+}
+
+/**
+ * translateRun of counts held as bytes, `big` the exact count at each position holding
+ * SECTION_COUNT_BIG (WordCounter's section pack); out is a separate array.
+ */
+export function translateSmallRun(
+  ids: Int32Array,
+  counts: Uint8Array,
+  big: ReadonlyMap<number, number>,
+  from: number,
+  to: number,
+  tr: Int32Array,
+  termIds: Int32Array,
+  out: Float32Array,
+): void {
+  sortRunKeys(ids, from, to, tr);
+  const n = to - from;
+  const k = keys;
+  for (let j = 0; j < n; j++) {
+    const id = Math.floor(k[j] / SHIFT);
+    const at = from + k[j] - id * SHIFT;
+    const c = counts[at];
+    termIds[from + j] = id;
+    out[from + j] = c === SECTION_COUNT_BIG ? big.get(at)! : c;
+  }
+}
+
+/** Fills keys[0, to − from) with (new id, position) of ids[from, to), ascending. */
+function sortRunKeys(ids: Int32Array, from: number, to: number, tr: Int32Array): void {
   const n = to - from;
   if (n > keys.length) keys = new Float64Array(Math.max(n, keys.length * 2));
   // Keys pack (new id, position): a file has fewer than 2^21 distinct terms (it is at most a few MB).
@@ -270,18 +318,4 @@ export function translateRun(
       }
       k[j + 1] = x;
     }
-  // Writing out in place overwrites counts still to be read: read them from a copy.
-  let src = counts;
-  let base = from;
-  if (out.buffer === counts.buffer) {
-    if (n > runCounts.length) runCounts = new Int32Array(Math.max(n, runCounts.length * 2));
-    runCounts.set(counts.subarray(from, to));
-    src = runCounts;
-    base = 0;
-  }
-  for (let j = 0; j < n; j++) {
-    const id = Math.floor(k[j] / SHIFT);
-    termIds[from + j] = id;
-    out[from + j] = src[base + k[j] - id * SHIFT];
-  }
 }

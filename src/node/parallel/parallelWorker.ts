@@ -7,7 +7,8 @@ import { collectGarbage } from '../collectGarbage.js';
 import { parentPort } from 'node:worker_threads';
 import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
-import { translateRun } from './parallelCount.js';
+import { translateRun, translateSmallRun } from './parallelCount.js';
+import { mappedInt32 } from './wordTable.js';
 import type { FileOutcome, FinalCounts, FromWorker, ToWorker } from './threadProtocol.js';
 import { decodeUtf8 } from '../scanRead.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../scanTypes.js';
@@ -141,7 +142,7 @@ let finishing:
   | {
       readonly order: Int32Array;
       readonly files: ReturnType<WordCounter['drainPack']>;
-      readonly sections: ReturnType<WordCounter['drainSectionPack']>;
+      readonly sections: ReturnType<WordCounter['drainSmallSectionPack']>;
     }
   | undefined;
 
@@ -159,7 +160,7 @@ function setAsideCounts(): TermUnits {
   collectGarbage();
   const { order, terms: units } = wc.sortedTerms();
   // Views of the packs: valid as long as nothing more is packed, and the counter is dropped here.
-  finishing = { order, files: wc.drainPack(), sections: wc.drainSectionPack() };
+  finishing = { order, files: wc.drainPack(), sections: wc.drainSmallSectionPack() };
   counter = undefined;
   return units;
 }
@@ -178,9 +179,12 @@ function finishCounts(bySorted: Int32Array): FinalCounts {
   const out = new Float32Array(counts.buffer, counts.byteOffset, counts.length);
   for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, ids, out);
   kept = [];
-  const sectionCounts = new Float32Array(s.counts.buffer, s.counts.byteOffset, s.counts.length);
+  // The section counts were bytes: their floats get a buffer of their own (a mapping of its own
+  // past MAPPED_FROM_BYTES, as the packs).
+  const sectionCounts = new Float32Array(mappedInt32(s.counts.length).buffer, 0, s.counts.length);
   for (const offsets of keptSections)
-    for (let i = 0; i + 1 < offsets.length; i++) translateRun(s.ids, s.counts, offsets[i], offsets[i + 1], translate, s.ids, sectionCounts);
+    for (let i = 0; i + 1 < offsets.length; i++)
+      translateSmallRun(s.ids, s.counts, s.big, offsets[i], offsets[i + 1], translate, s.ids, sectionCounts);
   keptSections = [];
   return { type: 'final-counts', termIds: ids, counts: out, sectionTermIds: s.ids, sectionCounts };
 }

@@ -139,6 +139,16 @@ export function grow32(a: Int32Array<ArrayBuffer>, atLeast: number): Int32Array<
   return b;
 }
 
+/** a (bytes) lengthened to `length` elements, in place when its mapping has room (as grow32). */
+export function grow8(a: Uint8Array<ArrayBuffer>, length: number): Uint8Array<ArrayBuffer> {
+  if (length <= a.length) return a;
+  if (a.byteOffset === 0 && a.buffer.byteLength >= length) return new Uint8Array(a.buffer, 0, length);
+  const b =
+    length < MAPPED_FROM_BYTES ? new Uint8Array(length) : new Uint8Array(new ArrayBuffer(Math.max(length, OWN_MAPPING_BYTES)), 0, length);
+  b.set(a);
+  return b;
+}
+
 /**
  * Allocations of at least this many bytes are mapped on their own by glibc's malloc whatever its
  * adaptive threshold (M_MMAP_THRESHOLD rises as mapped blocks are freed, up to 32 MiB on 64-bit

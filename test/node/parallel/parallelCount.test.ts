@@ -1,7 +1,8 @@
 /** BatchQueue (how batches are handed to the tokenizing threads) and translateRun, checked by brute force. */
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
-import { BatchQueue, translateRun } from '../../../src/node/parallel/parallelCount.js';
+import { BatchQueue, translateRun, translateSmallRun } from '../../../src/node/parallel/parallelCount.js';
+import { SECTION_COUNT_BIG } from '../../../src/node/parallel/wordCounter.js';
 
 describe('BatchQueue', () => {
   it('hands out every batch exactly once, whatever order the workers ask in', () => {
@@ -96,5 +97,28 @@ describe('translateRun', () => {
     const out = new Float32Array(inCounts.buffer);
     for (let r = 0; r + 1 < runs.length; r++) translateRun(inIds, inCounts, runs[r], runs[r + 1], tr, inIds, out);
     expect(Array.from(inIds, (id, i) => [id, out[i]])).toEqual(expected);
+  });
+
+  it('gives the same from counts held as bytes, the larger ones beside them (translateSmallRun)', () => {
+    const inIds = ids.slice();
+    const small = Uint8Array.from(counts, (c) => Math.min(c, SECTION_COUNT_BIG));
+    const big = new Map<number, number>();
+    counts.forEach((c, i) => (c >= SECTION_COUNT_BIG ? big.set(i, c) : undefined));
+    // Counts below the limit too (most section counts are): every fourth count made small.
+    for (let i = 0; i < counts.length; i += 4) {
+      small[i] = i % 200;
+      big.delete(i);
+    }
+    const want = runs
+      .slice(0, -1)
+      .flatMap((from, r) =>
+        Array.from({ length: runs[r + 1] - from }, (_, i) => [
+          tr[ids[from + i]],
+          (from + i) % 4 === 0 ? (from + i) % 200 : counts[from + i],
+        ]).sort((a, b) => a[0] - b[0]),
+      );
+    const out = new Float32Array(small.length);
+    for (let r = 0; r + 1 < runs.length; r++) translateSmallRun(inIds, small, big, runs[r], runs[r + 1], tr, inIds, out);
+    expect(Array.from(inIds, (id, i) => [id, out[i]])).toEqual(want);
   });
 });

@@ -85,6 +85,26 @@ describe('WordCounter', () => {
     }
   });
 
+  it('keeps section counts of 255 and more exactly beside the one-byte counts (reference: tokenize + countTerms)', () => {
+    // Counts on both sides of the one-byte limit, in two sections of one text.
+    const lines = [`${'alpha '.repeat(254)}beta`, `${'gamma '.repeat(255)}${'delta '.repeat(70000)}alpha`];
+    const text = lines.join('\n');
+    const counter = new WordCounter({});
+    counter.recordWords = true;
+    counter.packAscii(Buffer.from(text, 'latin1'));
+    const first = counter.packSection(0, lines[0].length + 1);
+    const second = counter.packSection(lines[0].length + 1, text.length);
+    const terms = counter.takeNewTerms();
+    const s = counter.drainSectionPack();
+    const bag = (p: { at: number; terms: number }): Map<string, number> => {
+      const m = new Map<string, number>();
+      for (let i = p.at; i < p.at + p.terms; i++) m.set(terms[s.ids[i]], s.counts[i]);
+      return m;
+    };
+    expect(bag(first)).toEqual(reference(lines[0]));
+    expect(bag(second)).toEqual(reference(lines[1]));
+  });
+
   it('agrees with tokenize + countTerms on 400 CRAN abstracts', () => {
     const counter = new WordCounter({});
     const terms: string[] = [];
