@@ -3,11 +3,12 @@
  * counting was as high as the SVD): scans a folder, counts every file (and its sections) on the
  * tokenizing threads as a build from scratch does (countFilesSorted), files the counts in an
  * IndexBuilder as the pipeline does, and stops. Prints the process's resident memory (all threads)
- * sampled every SAMPLE_MS and at each step, the peak, and CPU time. Usage:
+ * sampled every SAMPLE_MS and at each step, the peak, and CPU time; then a digest of the counts. Usage:
  *   node scripts/build.mjs   (dist/parallelWorker.js, the tokenizing threads' script)
  *   npx esbuild bench/countMemory.ts --bundle --platform=node --outfile=dist/countMemory.js
  *   node --expose-gc dist/countMemory.js <folder> [--include <pattern>]... [--threads N] [--no-sections] [--keep-threads]
  */
+import { createHash } from 'node:crypto';
 import { loadavg } from 'node:os';
 import { IndexBuilder } from '../src/core/index/model/indexBuilder.js';
 import { DEFAULT_INDEX_SETTINGS } from '../src/core/index/model/settings.js';
@@ -81,6 +82,32 @@ async function main(): Promise<void> {
       .map((x) => x.toFixed(1))
       .join(' ')}`,
   );
+  // After the figures: a digest of everything counted (the vocabulary's bytes, each file's
+  // outcome, counts and sections), so a change that should leave the counts alone can show it did.
+  const hash = createHash('sha256');
+  const bytes = (a: ArrayBufferView): void => void hash.update(new Uint8Array(a.buffer, a.byteOffset, a.byteLength));
+  const v = counted.vocab.toBytes();
+  bytes(v.bytes);
+  bytes(v.starts);
+  hash.update(`sorted ${v.sorted}`);
+  for (const got of counted.outcomes) {
+    hash.update(`|${got.kind}`);
+    if (got.kind !== 'text') continue;
+    hash.update(`${got.language ?? ''} ${got.terms.length}`);
+    bytes(got.terms.termIds);
+    bytes(got.terms.counts);
+    const sec = got.sections;
+    if (!sec) continue;
+    bytes(sec.starts);
+    bytes(sec.ends);
+    hash.update(sec.titles.join('\0'));
+    const a = sec.offsets[0];
+    const b = sec.offsets[sec.offsets.length - 1];
+    bytes(Int32Array.from(sec.offsets, (o) => o - a));
+    bytes(sec.termIds.subarray(a, b));
+    bytes(sec.counts.subarray(a, b));
+  }
+  console.log(`digest of the counts ${hash.digest('hex').slice(0, 16)}`);
 }
 
 void main().catch((err: unknown) => {
