@@ -26,7 +26,11 @@ import { sortedUnitIds, unitsInOrder, type TermUnits } from './termOrder.js';
 import { astralWordAt, caselessLetters, classify, CLASS, HIGH_SURROGATE, UnitBuffer, unitsToString, WORD } from './textUnits.js';
 import { FNV_OFFSET, FNV_PRIME, grow32, grow8, WordTable } from './wordTable.js';
 
-/** Distinct words (and tokens) cached before a table is cleared (bounds memory on huge trees). */
+/**
+ * Distinct words (and tokens) cached before a table is cleared (bounds memory on huge trees). On
+ * the Linux tree 500,000 against 2 million: a few hundred MB less at the end of counting, and no
+ * more CPU time measured (the words met again after a clear are mostly the frequent ones).
+ */
 const WORD_CACHE_LIMIT = 500_000;
 /** A section count of this or more is kept apart (the section pack's counts are bytes). */
 export const SECTION_COUNT_BIG = 255;
