@@ -56,6 +56,22 @@ describe('Vocabulary', () => {
     expect(Vocabulary.fromTerms(terms).toBytes().sorted).toBe(terms.indexOf('zz\uFF5E'));
   });
 
+  it('fromEncoded over the bytes fromTerms writes (TextEncoder, terms joined by U+0000) gives the same vocabulary, and refuses offsets that do not delimit them', () => {
+    const terms = sortedTerms();
+    for (const list of [terms, terms.map((_, i) => terms[(i * 7919) % terms.length]), []]) {
+      const want = Vocabulary.fromTerms(list).toBytes();
+      const bytes = new TextEncoder().encode(list.join('\0'));
+      const starts = Int32Array.from(want.starts);
+      const v = Vocabulary.fromEncoded(bytes, starts)!;
+      expect(v.toBytes()).toEqual(want);
+      expect(list.map((t) => v.idOf(t))).toEqual(list.map((_, id) => id));
+    }
+    const bytes = new TextEncoder().encode('ab\0cd');
+    expect(Vocabulary.fromEncoded(bytes, Int32Array.from([0, 2, 6]))).toBeNull();
+    expect(Vocabulary.fromEncoded(bytes, Int32Array.from([0, 3, 5]))).toBeNull();
+    expect(Vocabulary.fromEncoded(bytes, Int32Array.from([0, 3, 6]))!.terms).toEqual(['ab', 'cd']);
+  });
+
   it('fromTerms refuses a term holding the separator U+0000', () => {
     expect(() => Vocabulary.fromTerms(['a', 'b\0c'])).toThrow(/U\+0000/);
   });
