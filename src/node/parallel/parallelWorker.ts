@@ -7,7 +7,7 @@ import { collectGarbage } from '../collectGarbage.js';
 import { parentPort } from 'node:worker_threads';
 import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
-import { translateRun, translateSmallRun } from './parallelCount.js';
+import { translateSmallRun } from './parallelCount.js';
 import { mappedInt32 } from './wordTable.js';
 import type { FileOutcome, FinalCounts, FromWorker, ToWorker } from './threadProtocol.js';
 import { decodeUtf8 } from '../scanRead.js';
@@ -72,12 +72,14 @@ port.on('message', (msg: ToWorker) => {
     return;
   }
   if (msg.type === 'finish-counts') {
-    // The packs are translated in place and their buffers transferred: no second copy of them is
-    // made on either side. Packs past MAPPED_FROM_BYTES lie in mappings of their own (mappedInt32),
-    // so nothing of this thread's malloc arena stays in use once it ends.
+    // The packs' ids are translated in place, their counts into floats, and the buffers
+    // transferred. Arrays past MAPPED_FROM_BYTES lie in mappings of their own (mappedInt32), so
+    // nothing of this thread's malloc arena stays in use once it ends.
     const reply = finishCounts(msg.translate);
     const buffers = new Set([reply.termIds.buffer, reply.counts.buffer, reply.sectionTermIds.buffer, reply.sectionCounts.buffer]);
     port.postMessage(reply, [...buffers] as ArrayBuffer[]);
+    // The packs' byte counts go back to the system before the next thread finishes its own.
+    collectGarbage();
     return;
   }
   try {
@@ -141,7 +143,7 @@ port.on('message', (msg: ToWorker) => {
 let finishing:
   | {
       readonly order: Int32Array;
-      readonly files: ReturnType<WordCounter['drainPack']>;
+      readonly files: ReturnType<WordCounter['drainSmallPack']>;
       readonly sections: ReturnType<WordCounter['drainSmallSectionPack']>;
     }
   | undefined;
@@ -160,7 +162,7 @@ function setAsideCounts(): TermUnits {
   collectGarbage();
   const { order, terms: units } = wc.sortedTerms();
   // Views of the packs: valid as long as nothing more is packed, and the counter is dropped here.
-  finishing = { order, files: wc.drainPack(), sections: wc.drainSmallSectionPack() };
+  finishing = { order, files: wc.drainSmallPack(), sections: wc.drainSmallSectionPack() };
   counter = undefined;
   return units;
 }
@@ -175,12 +177,12 @@ function finishCounts(bySorted: Int32Array): FinalCounts {
   finishing = undefined;
   const translate = new Int32Array(order.length);
   for (let p = 0; p < order.length; p++) translate[order[p]] = bySorted[p];
-  const { ids, counts } = files;
-  const out = new Float32Array(counts.buffer, counts.byteOffset, counts.length);
-  for (let r = 0; r < kept.length; r += 2) translateRun(ids, counts, kept[r], kept[r + 1], translate, ids, out);
+  // The counts were bytes: their floats get a buffer of their own (a mapping of its own past
+  // MAPPED_FROM_BYTES, as the packs); the ids are translated in place.
+  const { ids, counts, big } = files;
+  const out = new Float32Array(mappedInt32(counts.length).buffer, 0, counts.length);
+  for (let r = 0; r < kept.length; r += 2) translateSmallRun(ids, counts, big, kept[r], kept[r + 1], translate, ids, out);
   kept = [];
-  // The section counts were bytes: their floats get a buffer of their own (a mapping of its own
-  // past MAPPED_FROM_BYTES, as the packs).
   const sectionCounts = new Float32Array(mappedInt32(s.counts.length).buffer, 0, s.counts.length);
   for (const offsets of keptSections)
     for (let i = 0; i + 1 < offsets.length; i++)

@@ -32,7 +32,7 @@ import { FNV_OFFSET, FNV_PRIME, grow32, grow8, WordTable } from './wordTable.js'
  * more CPU time measured (the words met again after a clear are mostly the frequent ones).
  */
 const WORD_CACHE_LIMIT = 500_000;
-/** A section count of this or more is kept apart (the section pack's counts are bytes). */
+/** A pack's count of this or more is kept apart (a pack's counts are bytes). */
 export const SECTION_COUNT_BIG = 255;
 /** Value of a cached word without terms; a word with several has -2 − (its offset in `multi`). */
 const NO_TERMS = -1;
@@ -75,7 +75,9 @@ export class WordCounter {
   private touched = new Int32Array(1024);
   private nTouched = 0;
   private packIds = new Int32Array(1 << 14);
-  private packCounts = new Int32Array(1 << 14);
+  /** Counts of one byte, as the section pack's (below); on the Linux tree the files' pack holds 21.6 million. */
+  private packCounts = new Uint8Array(1 << 14);
+  private packBig = new Map<number, number>();
   private packUsed = 0;
   /** The section pack: counts of line ranges of the text last counted (packSection), apart from the files'. */
   private sectionIds = new Int32Array(1 << 12);
@@ -208,14 +210,23 @@ export class WordCounter {
    * size (a batch's reply transfers just these two buffers); the next pack starts afresh.
    */
   takePack(): { ids: Int32Array; counts: Int32Array } {
-    const out = { ids: this.packIds.slice(0, this.packUsed), counts: this.packCounts.slice(0, this.packUsed) };
-    this.packUsed = 0;
-    return out;
+    const { ids, counts, big } = this.drainSmallPack();
+    return { ids: ids.slice(), counts: widen(counts, big) };
   }
 
-  /** Views of everything packed since the last take (valid until the next pack), and a fresh start. */
+  /** Everything packed since the last take (ids a view valid until the next pack), and a fresh start. */
   drainPack(): { ids: Int32Array; counts: Int32Array } {
-    const out = { ids: this.packIds.subarray(0, this.packUsed), counts: this.packCounts.subarray(0, this.packUsed) };
+    const { ids, counts, big } = this.drainSmallPack();
+    return { ids, counts: widen(counts, big) };
+  }
+
+  /**
+   * drainPack with the counts as packed: one byte each, SECTION_COUNT_BIG standing for the count
+   * `big` holds at that position (views valid until the next pack; no 32-bit copy is made).
+   */
+  drainSmallPack(): { ids: Int32Array; counts: Uint8Array; big: Map<number, number> } {
+    const out = { ids: this.packIds.subarray(0, this.packUsed), counts: this.packCounts.subarray(0, this.packUsed), big: this.packBig };
+    this.packBig = new Map();
     this.packUsed = 0;
     return out;
   }
@@ -257,10 +268,8 @@ export class WordCounter {
 
   /** Views of everything packSection packed since the last drain (valid until the next pack), and a fresh start. */
   drainSectionPack(): { ids: Int32Array; counts: Int32Array } {
-    const { ids, counts: small, big } = this.drainSmallSectionPack();
-    const counts = Int32Array.from(small);
-    for (const [at, c] of big) counts[at] = c;
-    return { ids, counts };
+    const { ids, counts, big } = this.drainSmallSectionPack();
+    return { ids, counts: widen(counts, big) };
   }
 
   /**
@@ -284,12 +293,17 @@ export class WordCounter {
     const counts = new Int32Array(p.terms);
     // The ids are distinct: through the (cleared) tally, each id's count lands at its sorted place.
     const tally = this.tally;
-    for (let i = 0; i < p.terms; i++) tally[this.packIds[p.at + i]] = this.packCounts[p.at + i];
+    for (let i = 0; i < p.terms; i++) {
+      const c = this.packCounts[p.at + i];
+      tally[this.packIds[p.at + i]] = c === SECTION_COUNT_BIG ? this.packBig.get(p.at + i)! : c;
+    }
     for (let i = 0; i < p.terms; i++) {
       counts[i] = tally[ids[i]];
       tally[ids[i]] = 0;
     }
     this.packUsed = p.at;
+    // Larger counts past the end are stale (a position written again gets its own when it needs one).
+    if (p.at === 0) this.packBig.clear();
     return { ids, counts, length: p.length };
   }
 
@@ -304,7 +318,7 @@ export class WordCounter {
     const at = this.packUsed;
     if (at + n > this.packIds.length) {
       this.packIds = grow32(this.packIds, at + n);
-      this.packCounts = grow32(this.packCounts, at + n);
+      this.packCounts = grow8(this.packCounts, this.packIds.length);
     }
     const ids = this.packIds;
     const counts = this.packCounts;
@@ -312,8 +326,13 @@ export class WordCounter {
     const tally = this.tally;
     for (let i = 0; i < n; i++) {
       const id = touched[i];
+      const c = tally[id];
       ids[at + i] = id;
-      counts[at + i] = tally[id];
+      if (c < SECTION_COUNT_BIG) counts[at + i] = c;
+      else {
+        counts[at + i] = SECTION_COUNT_BIG;
+        this.packBig.set(at + i, c);
+      }
       tally[id] = 0;
     }
     this.nTouched = 0;
@@ -551,6 +570,13 @@ export class WordCounter {
     if (id >= this.tally.length) this.tally = grow32(this.tally, id + 1);
     return id;
   }
+}
+
+/** Counts of one byte (SECTION_COUNT_BIG: the one `big` holds at that position) as 32-bit integers. */
+function widen(counts: Uint8Array, big: ReadonlyMap<number, number>): Int32Array {
+  const out = Int32Array.from(counts);
+  for (const [at, c] of big) out[at] = c;
+  return out;
 }
 
 /** 1 for the ASCII units CLASS holds WORD for (\p{L}, \p{N}, '_' and '$' below 0x80), else 0. */

@@ -105,6 +105,23 @@ describe('WordCounter', () => {
     expect(bag(second)).toEqual(reference(lines[1]));
   });
 
+  it('keeps file counts of 255 and more exactly through count, takePack and drainPack (reference: tokenize + countTerms)', () => {
+    const texts = [`${'alpha '.repeat(254)}beta`, `${'gamma '.repeat(255)}${'delta '.repeat(70000)}alpha`, 'alpha beta'];
+    const counter = new WordCounter({});
+    const terms: string[] = [];
+    for (const t of texts) expect(viaCounter(counter, terms, t).bag).toEqual(reference(t));
+    for (const take of [() => counter.takePack(), () => counter.drainPack()]) {
+      const packed = texts.map((t) => counter.packAscii(Buffer.from(t, 'latin1')));
+      terms.push(...counter.takeNewTerms());
+      const { ids, counts } = take();
+      packed.forEach((p, k) => {
+        const bag = new Map<string, number>();
+        for (let i = p.at; i < p.at + p.terms; i++) bag.set(terms[ids[i]], counts[i]);
+        expect(bag).toEqual(reference(texts[k]));
+      });
+    }
+  });
+
   it('agrees with tokenize + countTerms on 400 CRAN abstracts', () => {
     const counter = new WordCounter({});
     const terms: string[] = [];
