@@ -251,9 +251,25 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   step();
   step();
   const pairs = topEigenpairs(g, l, k);
-  const small = w === l ? yAll.subarray(0, S * k) : z.length >= S * k ? z.subarray(0, S * k) : ex.float64(S * k);
-  ex.timesSmall(q, S, l, transposeScaled(pairs.w, l, k), k, false, small);
-  return { k, s: pairs.s, small: Float64Array.from(small), random };
+  const wt = transposeScaled(pairs.w, l, k);
+  if (w === l || z.length >= S * k) {
+    const small = w === l ? yAll.subarray(0, S * k) : z.subarray(0, S * k);
+    ex.timesSmall(q, S, l, wt, k, false, small);
+    return { k, s: pairs.s, small: Float64Array.from(small), random };
+  }
+  // QW block of rows by block of rows through Z's memory, straight into the result: an S × k
+  // block of executor memory (181 MB on the Linux tree) would stay for the rest of the build.
+  // Each row of QW is its row of Q times W, whatever the blocks (starts are multiples of 4).
+  const small = new Float64Array(S * k);
+  const rowsPer = Math.max(4, Math.floor(z.length / k / 4) * 4);
+  const scratch = z.length >= rowsPer * k ? z : ex.float64(rowsPer * k);
+  for (let r0 = 0; r0 < S; r0 += rowsPer) {
+    const r1 = Math.min(S, r0 + rowsPer);
+    const out = scratch.subarray(0, (r1 - r0) * k);
+    ex.timesSmall(q.subarray(r0 * l, r1 * l), r1 - r0, l, wt, k, false, out);
+    small.set(out, r0 * k);
+  }
+  return { k, s: pairs.s, small, random };
 }
 
 /**
