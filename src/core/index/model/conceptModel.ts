@@ -64,6 +64,11 @@ export interface BuildProgress {
   freshExecutor?: () => MatrixExecutor | undefined;
   /** A shared concept model to fold the files into instead of a local SVD (model/adoptModel.ts). */
   sharedModel?: PortableModel;
+  /**
+   * Called once the weighted matrix is made, with the documents' raw counts: the build reads them
+   * no more, so a caller may keep them elsewhere until it needs them again (src/node/parkedCounts.ts).
+   */
+  onWeighted?: (docs: readonly DocTerms[]) => void;
 }
 
 export function buildConceptModel(
@@ -105,6 +110,7 @@ function buildModelAndMatrix(
   const { indptr } = matrix;
   const nnz = matrix.indices.length;
   if (nnz === 0) throw new EmptyCorpusError('After weighting, no file has an indexable word.');
+  progress.onWeighted?.(docs);
   progress.onProgress?.('weighting', 1, 1);
   if (progress.signal?.aborted) throw new CancelledError();
 
