@@ -125,8 +125,11 @@ export function randomizedSvdSmallSide(m: CsrMatrix, options: Partial<Randomized
 export interface SvdSmallSide {
   readonly k: number;
   readonly s: Float64Array;
-  /** QW: S × k, row-major (S the smaller side of the matrix). */
-  readonly small: Float64Array;
+  /**
+   * QW: S × k, row-major (S the smaller side of the matrix). finishSvd takes it (leaves an empty
+   * array here once it is in the executor's memory: 181 MB of f64 on the kernel tree).
+   */
+  small: Float64Array;
   /** The seeded stream, where the first part left it (the weak-column repair draws from it). */
   readonly random: RandomSource;
 }
@@ -286,13 +289,14 @@ function bigSide(m: CsrMatrix, part: SvdSmallSide, factors: 'f64' | 'f32', ex: M
   const B = at.rows;
   const small = ex.float64(S * k);
   small.set(part.small);
+  part.small = new Float64Array(0);
   const out = factors === 'f32' ? Float32Array : Float64Array;
   const big = new out(B * k);
   const scratch = ex.float64(Math.min(B, Math.max(1, Math.floor(BIG_SIDE_SCRATCH_BYTES / (8 * k)))) * k);
   bigSideInBlocks(ex, at, small, k, s, big, scratch);
   repairWeakColumns(big, B, k, s, random);
   // Sign fix on the column factor (decided on the values returned, row by row).
-  const smallOut = out.from(part.small);
+  const smallOut = out.from(small);
   const u = rowsSmall ? smallOut : big;
   const v = rowsSmall ? big : smallOut;
   flipSigns({ rows: m.rows, cols: k, data: u }, { rows: m.cols, cols: k, data: v });
