@@ -117,6 +117,7 @@ const index = builder.build({
     return executor;
   },
   freshExecutor: pool ? freshExecutor : undefined,
+  spill: process.env.NO_PARK ? undefined : openSpillBeside(scratchDir, 'the bench scratch file'),
   onWeighted: process.env.NO_PARK
     ? undefined
     : (docs) => (parkedCounts = ParkedCounts.park(docs, openSpillBeside(scratchDir, 'the bench scratch file'))),

@@ -352,6 +352,8 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         return executor;
       },
       freshExecutor: buildPool ? freshExecutor : undefined,
+      // The weighted matrix's entries wait in a scratch file during the SVD's passes.
+      spill: options.scratch,
       // Not while a caller may read the counts during the build (onCounted).
       onWeighted: options.onCounted
         ? undefined

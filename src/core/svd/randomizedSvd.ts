@@ -59,6 +59,11 @@ export interface RandomizedSvdOptions {
   factors?: 'f64' | 'f32';
   /** Budget in bytes of a big-side column block (default BIG_BLOCK_BYTES; tests set it low). */
   bigBlockBytes?: number;
+  /**
+   * Called once the matrix is in the executor's memory, before the passes: the passes read the
+   * caller's arrays no more (finishSvd does: a caller may keep them elsewhere until then).
+   */
+  onCopied?: () => void;
 }
 
 export const DEFAULT_SVD_OPTIONS: Readonly<Omit<RandomizedSvdOptions, 'k'>> = Object.freeze({
@@ -188,6 +193,7 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   // far inside the SVD's own accuracy) on every executor, so all of them give the same bits.
   const mCopy = copyCsr(m, ex, 'f32');
   const mt = transposeCsr(m, ex, 'f32');
+  o.onCopied?.();
   const a = rowsSmall ? mCopy : mt;
   const at = rowsSmall ? mt : mCopy;
   const S = a.rows;
