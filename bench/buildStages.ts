@@ -11,9 +11,14 @@
  * Bundled into dist/ beside parallelWorker.js (the build's threads are started from there). The
  * counts are copied out of the loaded index and the index let go before the build, so what is
  * resident at the start is about what counting leaves (vocabulary, each file's counts, metadata),
- * without the threads' section counts. NO_PARK=1 keeps the raw counts in memory through the build. With a folder, the sections fold reads every file again
- * (the command line folds the sections the counting threads kept instead: same fold, more reading);
- * without one the fold is skipped. The index is saved to a temporary folder, removed afterwards.
+ * without the threads' section counts. As the pipeline does, the raw counts wait in a scratch file
+ * from the weighting to the save (parkedCounts.ts) and the weighted matrix's entries during the
+ * SVD's passes (parkedMatrix.ts); NO_PARK=1 keeps both in memory. With a folder, the sections fold
+ * reads every file again (the command line folds the sections the counting threads kept instead:
+ * same fold, more reading); without one the fold is skipped. The index is saved to a temporary
+ * folder, removed afterwards. Note: freed memory the allocator keeps (small arrays, the
+ * weighting's per-file rows) still counts in RSS here; the command line's own run
+ * (`/usr/bin/time -v node dist/cli.js index <tree> --rebuild`) is the figure that counts.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
