@@ -131,6 +131,7 @@ const index = builder.build({
       log('weighted matrix');
       collectGarbage();
     }
+    if (stage === 'svd' && done === 1) collectGarbage(); // as the pipeline does
     if (stage === 'svd' && done === all && !svdLogged) {
       svdLogged = true;
       log('svd passes');

@@ -364,6 +364,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
           // The weighting's per-file rows are garbage now: gone before the SVD's blocks come on top.
           collectGarbage();
         }
+        // The weighted matrix's entries were parked before the first pass: their arrays go now
+        // (the passes allocate almost nothing, so no collection would come by itself).
+        if (stage === 'svd' && done === 1) collectGarbage();
         progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
       },
     });
