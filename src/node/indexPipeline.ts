@@ -373,17 +373,17 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     built = index;
     lap('svd');
     check();
+    let sectionsReadAgain = 0;
+    if (options.sections !== false && executor) {
+      // The sections fold needs less executor memory than the projection left resident
+      // (WebAssembly memory only grows): fresh executor memory on the same threads, before the
+      // parked section counts come back (not on top of the projection's memory).
+      freshExecutor();
+    }
     if (parked) {
       const p = parked;
       parked = null;
       p.unpark(countedSections);
-    }
-
-    let sectionsReadAgain = 0;
-    if (options.sections !== false && executor) {
-      // The sections fold needs less executor memory than the projection left resident
-      // (WebAssembly memory only grows): fresh executor memory on the same threads.
-      freshExecutor();
     }
     // ---- sections: each file cut into sections, each folded into the new model on the build's
     // threads. Counts the reading threads made are over the builder's vocabulary: usable as they
