@@ -40,6 +40,7 @@ import { foldFileSections } from './sectionPass.js';
 import type { CountedSections } from '../core/sections/sectionVectors.js';
 import type { OpenSpill } from '../core/sections/types.js';
 import { ParkedSections } from './parkedSections.js';
+import { ParkedCounts } from './parkedCounts.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
@@ -210,6 +211,8 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
   // The threads' section counts while they are parked in a scratch file (the SVD), and the built
   // index until it is returned: both give their scratch files back when the run fails.
   let parked: ParkedSections | null = null;
+  // The files' raw counts, parked from the end of the weighting until the sections are folded.
+  let parkedCounts: ParkedCounts | null = null;
   let built: LsiIndex | undefined;
   try {
     // ---- scan
@@ -349,29 +352,38 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         return executor;
       },
       freshExecutor: buildPool ? freshExecutor : undefined,
+      // The weighted matrix's entries wait in a scratch file during the SVD's passes.
+      spill: options.scratch,
+      // Not while a caller may read the counts during the build (onCounted).
+      onWeighted: options.onCounted
+        ? undefined
+        : (docs) => (parkedCounts = ParkedCounts.park(docs, options.scratch, options.parkCountsFromBytes)),
       onProgress: (stage, done, all) => {
         if (stage === 'weighting' && done === 1) {
           lap('matrix');
           // The weighting's per-file rows are garbage now: gone before the SVD's blocks come on top.
           collectGarbage();
         }
+        // The weighted matrix's entries were parked before the first pass: their arrays go now
+        // (the passes allocate almost nothing, so no collection would come by itself).
+        if (stage === 'svd' && done === 1) collectGarbage();
         progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
       },
     });
     built = index;
     lap('svd');
     check();
+    let sectionsReadAgain = 0;
+    if (options.sections !== false && executor) {
+      // The sections fold needs less executor memory than the projection left resident
+      // (WebAssembly memory only grows): fresh executor memory on the same threads, before the
+      // parked section counts come back (not on top of the projection's memory).
+      freshExecutor();
+    }
     if (parked) {
       const p = parked;
       parked = null;
       p.unpark(countedSections);
-    }
-
-    let sectionsReadAgain = 0;
-    if (options.sections !== false && executor) {
-      // The sections fold needs less executor memory than the projection left resident
-      // (WebAssembly memory only grows): fresh executor memory on the same threads.
-      freshExecutor();
     }
     // ---- sections: each file cut into sections, each folded into the new model on the build's
     // threads. Counts the reading threads made are over the builder's vocabulary: usable as they
@@ -391,6 +403,11 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       countedSections.clear();
       lap('sections');
     }
+    if (parkedCounts) {
+      const p: ParkedCounts = parkedCounts;
+      parkedCounts = null;
+      p.unpark();
+    }
     // The threads (and the shared memory of the SVD) are not needed to save.
     executor = undefined;
     await releasePool();
@@ -406,6 +423,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
   } catch (err) {
     // A failed or cancelled run: its scratch files (parked counts, spilled section rows) go now.
     parked?.close();
+    (parkedCounts as ParkedCounts | null)?.close();
     built?.sections.closeRows();
     throw err;
   } finally {

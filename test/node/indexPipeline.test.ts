@@ -165,17 +165,18 @@ describe('runIndexPipeline', () => {
     const when = new Date(0);
     const plain = await build({});
     const spilled = await build({ scratch });
-    // One file for the parked counts (closed once read back), one for the rows (still open: the index reads them).
-    expect(made.length).toBe(2);
-    expect(closes).toBe(1);
+    // One file for the parked section counts and one for the files' raw counts (parkedCounts.ts;
+    // both closed once read back), one for the rows (still open: the index reads them).
+    expect(made.length).toBe(3);
+    expect(closes).toBe(2);
     expect(readdirSync(dir)).toEqual([]); // unlinked as soon as made
     const sample = spilled.index.paths()[0];
     expect(spilled.index.sections.get(sample)!.stored).toBeDefined();
     expect(plain.index.sections.get(sample)!.stored).toBeUndefined();
     expect(Buffer.from(encodeIndex(spilled.index, when)).equals(Buffer.from(encodeIndex(plain.index, when)))).toBe(true);
     spilled.index.sections.closeRows();
-    expect(closes).toBe(2);
-    // A save that fails: both files given back before the error leaves.
+    expect(closes).toBe(3);
+    // A save that fails: all three files given back before the error leaves.
     await expect(
       build({
         scratch,
@@ -184,13 +185,13 @@ describe('runIndexPipeline', () => {
         },
       }),
     ).rejects.toThrow('no room');
-    expect(made.length).toBe(4);
-    expect(closes).toBe(4);
-    // Cancelled during the SVD, the counts parked: their file given back (a cancelled fold closes
+    expect(made.length).toBe(6);
+    expect(closes).toBe(6);
+    // Cancelled during the SVD, both kinds of counts parked: their files given back (a cancelled fold closes
     // its own: test/core/sections/sectionVectors.test.ts).
     await expect(build({ scratch, cancelAt: 'svd' })).rejects.toBeInstanceOf(CancelledError);
-    expect(made.length).toBe(5);
-    expect(closes).toBe(5);
+    expect(made.length).toBe(8);
+    expect(closes).toBe(8);
     expect(readdirSync(dir)).toEqual([]);
     // No scratch file to be had: everything in memory, the same bytes.
     const inMemory = await build({ scratch: () => null });

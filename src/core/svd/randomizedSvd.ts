@@ -59,6 +59,11 @@ export interface RandomizedSvdOptions {
   factors?: 'f64' | 'f32';
   /** Budget in bytes of a big-side column block (default BIG_BLOCK_BYTES; tests set it low). */
   bigBlockBytes?: number;
+  /**
+   * Called once the matrix is in the executor's memory, before the passes: the passes read the
+   * caller's arrays no more (finishSvd does: a caller may keep them elsewhere until then).
+   */
+  onCopied?: () => void;
 }
 
 export const DEFAULT_SVD_OPTIONS: Readonly<Omit<RandomizedSvdOptions, 'k'>> = Object.freeze({
@@ -125,8 +130,11 @@ export function randomizedSvdSmallSide(m: CsrMatrix, options: Partial<Randomized
 export interface SvdSmallSide {
   readonly k: number;
   readonly s: Float64Array;
-  /** QW: S × k, row-major (S the smaller side of the matrix). */
-  readonly small: Float64Array;
+  /**
+   * QW: S × k, row-major (S the smaller side of the matrix). finishSvd takes it (leaves an empty
+   * array here once it is in the executor's memory: 181 MB of f64 on the kernel tree).
+   */
+  small: Float64Array;
   /** The seeded stream, where the first part left it (the weak-column repair draws from it). */
   readonly random: RandomSource;
 }
@@ -185,6 +193,7 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   // far inside the SVD's own accuracy) on every executor, so all of them give the same bits.
   const mCopy = copyCsr(m, ex, 'f32');
   const mt = transposeCsr(m, ex, 'f32');
+  o.onCopied?.();
   const a = rowsSmall ? mCopy : mt;
   const at = rowsSmall ? mt : mCopy;
   const S = a.rows;
@@ -251,9 +260,25 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   step();
   step();
   const pairs = topEigenpairs(g, l, k);
-  const small = w === l ? yAll.subarray(0, S * k) : z.length >= S * k ? z.subarray(0, S * k) : ex.float64(S * k);
-  ex.timesSmall(q, S, l, transposeScaled(pairs.w, l, k), k, false, small);
-  return { k, s: pairs.s, small: Float64Array.from(small), random };
+  const wt = transposeScaled(pairs.w, l, k);
+  if (w === l || z.length >= S * k) {
+    const small = w === l ? yAll.subarray(0, S * k) : z.subarray(0, S * k);
+    ex.timesSmall(q, S, l, wt, k, false, small);
+    return { k, s: pairs.s, small: Float64Array.from(small), random };
+  }
+  // QW block of rows by block of rows through Z's memory, straight into the result: an S × k
+  // block of executor memory (181 MB on the Linux tree) would stay for the rest of the build.
+  // Each row of QW is its row of Q times W, whatever the blocks (starts are multiples of 4).
+  const small = new Float64Array(S * k);
+  const rowsPer = Math.max(4, Math.floor(z.length / k / 4) * 4);
+  const scratch = z.length >= rowsPer * k ? z : ex.float64(rowsPer * k);
+  for (let r0 = 0; r0 < S; r0 += rowsPer) {
+    const r1 = Math.min(S, r0 + rowsPer);
+    const out = scratch.subarray(0, (r1 - r0) * k);
+    ex.timesSmall(q.subarray(r0 * l, r1 * l), r1 - r0, l, wt, k, false, out);
+    small.set(out, r0 * k);
+  }
+  return { k, s: pairs.s, small, random };
 }
 
 /**
@@ -270,13 +295,14 @@ function bigSide(m: CsrMatrix, part: SvdSmallSide, factors: 'f64' | 'f32', ex: M
   const B = at.rows;
   const small = ex.float64(S * k);
   small.set(part.small);
+  part.small = new Float64Array(0);
   const out = factors === 'f32' ? Float32Array : Float64Array;
   const big = new out(B * k);
   const scratch = ex.float64(Math.min(B, Math.max(1, Math.floor(BIG_SIDE_SCRATCH_BYTES / (8 * k)))) * k);
   bigSideInBlocks(ex, at, small, k, s, big, scratch);
   repairWeakColumns(big, B, k, s, random);
   // Sign fix on the column factor (decided on the values returned, row by row).
-  const smallOut = out.from(part.small);
+  const smallOut = out.from(small);
   const u = rowsSmall ? smallOut : big;
   const v = rowsSmall ? big : smallOut;
   flipSigns({ rows: m.rows, cols: k, data: u }, { rows: m.cols, cols: k, data: v });

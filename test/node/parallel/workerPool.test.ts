@@ -83,6 +83,26 @@ describe('worker pool', () => {
     ).toBe(true);
   });
 
+  it('forms a Gram product of many reduction blocks a few blocks per job, with the same bits as on one thread', () => {
+    // 20,000 rows: 20 blocks of REDUCTION_BLOCK_ROWS, more than one job's worth on two threads.
+    const rows = 20_000;
+    const l = 9;
+    const ex = pool!.executor();
+    const a = ex.float64(rows * l);
+    const b = ex.float64(rows * l);
+    serialExecutor.gaussian(a, rows, l, 7);
+    serialExecutor.gaussian(b, rows, l, 8);
+    for (const [x, y] of [
+      [a, a],
+      [a, b],
+    ]) {
+      const xs = Float64Array.from(x);
+      const one = serialExecutor.cross(xs, x === y ? xs : Float64Array.from(y), rows, l);
+      const two = ex.cross(x, y, rows, l);
+      expect(Buffer.from(two.buffer).equals(Buffer.from(one.buffer))).toBe(true);
+    }
+  });
+
   it('a pool for products starts only the workers its executor uses, with the same bits as on one thread', async () => {
     const products = WorkerPool.start({ threads: 2, workerScript }, true)!;
     try {

@@ -15,6 +15,8 @@ import { globalWeights, weightDocument, type WeightingScheme } from '../../weigh
 import type { PortableModel } from '../persistence/conceptFile.js';
 import type { IndexSettings } from './settings.js';
 import type { DocTerms } from '../../counting/termCounts.js';
+import type { OpenSpill } from '../../sections/types.js';
+import { dropParkedMatrix, parkMatrix, unparkMatrix } from '../../matrix/parkedMatrix.js';
 
 export interface ConceptModel {
   readonly scheme: WeightingScheme;
@@ -64,6 +66,16 @@ export interface BuildProgress {
   freshExecutor?: () => MatrixExecutor | undefined;
   /** A shared concept model to fold the files into instead of a local SVD (model/adoptModel.ts). */
   sharedModel?: PortableModel;
+  /**
+   * Called once the weighted matrix is made, with the documents' raw counts: the build reads them
+   * no more, so a caller may keep them elsewhere until it needs them again (src/node/parkedCounts.ts).
+   */
+  onWeighted?: (docs: readonly DocTerms[]) => void;
+  /**
+   * Where the weighted matrix's entries wait while the SVD's passes run on the executor's copy of
+   * them (a scratch file from src/node; parkedMatrix.ts). Without one, or where it gives null, they stay.
+   */
+  spill?: OpenSpill;
 }
 
 export function buildConceptModel(
@@ -105,11 +117,20 @@ function buildModelAndMatrix(
   const { indptr } = matrix;
   const nnz = matrix.indices.length;
   if (nnz === 0) throw new EmptyCorpusError('After weighting, no file has an indexable word.');
+  progress.onWeighted?.(docs);
   progress.onProgress?.('weighting', 1, 1);
   if (progress.signal?.aborted) throw new CancelledError();
 
   const kChoice = chooseK(settings.k, docs.length, m);
-  const part = svdPasses(matrix, kChoice.k, settings, progress);
+  let part: SvdSmallSide;
+  try {
+    part = svdPasses(matrix, kChoice.k, settings, progress);
+  } catch (err) {
+    dropParkedMatrix(matrix);
+    throw err;
+  }
+  // The entries come back from the spill (when they were parked) for the big side and the projection.
+  unparkMatrix(matrix);
   // The model stores f32 term vectors: rounding on the way out of the executor's memory saves
   // the f64 copy at the build's memory peak.
   const svd = finishSvd(matrix, part, { executor: progress.freshExecutor ? progress.freshExecutor() : progress.executor, factors: 'f32' });
@@ -156,6 +177,7 @@ function svdPasses(matrix: CsrMatrix, k: number, settings: IndexSettings, progre
     signal: progress.signal,
     executor: progress.executor,
     onProgress: (done, total) => progress.onProgress?.('svd', done, total),
+    onCopied: progress.spill ? () => parkMatrix(matrix, progress.spill!) : undefined,
   });
 }
 

@@ -1,0 +1,122 @@
+/**
+ * Every file's raw term counts, parked in a scratch file from the end of the weighting to the
+ * save: the build needs them to weight the matrix and the index needs them again (they are saved,
+ * and an index answers from them), but not the SVD, the files' projection or the sections fold in
+ * between. On the Linux tree they are the largest thing resident then (78 M ids and counts of
+ * 78,300 files, some 620 MB: measured with bench/buildStages.ts), and the SVD's blocks come on top.
+ *
+ * park() writes each file's ids and counts to the spill and gives its DocTerms empty arrays in
+ * their place (the same objects: the builder, the index's slots and whoever else holds them see
+ * the counts come back); unpark() reads them back into two arrays shared by all files (views of
+ * them, the same numbers as before) and closes the spill; close() alone, on a failure or a cancel.
+ * Nothing may read the files' counts between the two (the pipeline does not park them when a
+ * caller asked for them during the build: onCounted).
+ */
+import type { DocTerms } from '../core/counting/termCounts.js';
+import type { ByteSpill, OpenSpill } from '../core/sections/types.js';
+
+/** Park from this many bytes of ids and counts on (below it the file costs more than it saves; a round number, not tuned). */
+export const PARK_COUNTS_FROM_BYTES = 64 * 1024 * 1024;
+
+/** Bytes gathered before each write to the spill (few calls, a small buffer; not tuned). */
+const WRITE_BUFFER_BYTES = 4 * 1024 * 1024;
+
+/** A DocTerms whose arrays park() may swap (its fields are read-only to everyone else). */
+type Swappable = { termIds: Int32Array; counts: Float32Array };
+
+const NO_IDS = new Int32Array(0);
+const NO_COUNTS = new Float32Array(0);
+
+export class ParkedCounts {
+  private constructor(
+    private readonly spill: ByteSpill,
+    private readonly docs: readonly Swappable[],
+    /** Each parked file's first entry (ids and counts of all files follow each other). */
+    private readonly starts: Float64Array,
+    private readonly total: number,
+  ) {}
+
+  /**
+   * Writes the counts of `docs` to a spill and empties their arrays; null (nothing changed) below
+   * fromBytes or when no spill can be had. A failed write restores nothing yet taken (arrays are
+   * emptied only once everything is written), closes the spill and throws.
+   */
+  static park(docs: readonly DocTerms[], open: OpenSpill | undefined, fromBytes = PARK_COUNTS_FROM_BYTES): ParkedCounts | null {
+    if (!open) return null;
+    const parked: Swappable[] = [];
+    let total = 0;
+    for (const d of docs) {
+      if (d.termIds.length === 0 || Object.isFrozen(d)) continue;
+      if (d.counts.length !== d.termIds.length) throw new Error('term ids and counts differ in length (a bug)');
+      parked.push(d as Swappable);
+      total += d.termIds.length;
+    }
+    if (8 * total < fromBytes) return null;
+    const spill = open();
+    if (!spill) return null;
+    const starts = new Float64Array(parked.length + 1);
+    try {
+      // Ids of every file, then counts of every file, each gathered in a buffer before it is written.
+      const buffer = new Uint8Array(WRITE_BUFFER_BYTES);
+      let filled = 0;
+      let at = 0;
+      const put = (bytes: Uint8Array): void => {
+        for (let from = 0; from < bytes.length;) {
+          const n = Math.min(bytes.length - from, buffer.length - filled);
+          buffer.set(bytes.subarray(from, from + n), filled);
+          filled += n;
+          from += n;
+          if (filled === buffer.length) {
+            spill.write(buffer, at);
+            at += filled;
+            filled = 0;
+          }
+        }
+      };
+      for (let i = 0; i < parked.length; i++) {
+        const ids = parked[i].termIds;
+        starts[i + 1] = starts[i] + ids.length;
+        put(new Uint8Array(ids.buffer, ids.byteOffset, ids.byteLength));
+      }
+      for (const d of parked) put(new Uint8Array(d.counts.buffer, d.counts.byteOffset, d.counts.byteLength));
+      if (filled > 0) spill.write(buffer.subarray(0, filled), at);
+    } catch (err) {
+      spill.close();
+      throw err;
+    }
+    for (const d of parked) {
+      d.termIds = NO_IDS;
+      d.counts = NO_COUNTS;
+    }
+    return new ParkedCounts(spill, parked, starts, total);
+  }
+
+  /** Gives every parked file its counts back (views of two shared arrays) and closes the spill. */
+  unpark(): void {
+    try {
+      const termIds = new Int32Array(this.total);
+      const counts = new Float32Array(this.total);
+      readInRuns(this.spill, new Uint8Array(termIds.buffer), 0);
+      readInRuns(this.spill, new Uint8Array(counts.buffer), 4 * this.total);
+      this.docs.forEach((d, i) => {
+        d.termIds = termIds.subarray(this.starts[i], this.starts[i + 1]);
+        d.counts = counts.subarray(this.starts[i], this.starts[i + 1]);
+      });
+    } finally {
+      this.spill.close();
+    }
+  }
+
+  /** Gives the spill back without reading it (idempotent). */
+  close(): void {
+    this.spill.close();
+  }
+}
+
+/** Bytes per read call when the counts come back (below the 2 GB a single call may move). */
+const READ_RUN_BYTES = 256 * 1024 * 1024;
+
+function readInRuns(spill: ByteSpill, into: Uint8Array, position: number): void {
+  for (let from = 0; from < into.length; from += READ_RUN_BYTES)
+    spill.read(into.subarray(from, Math.min(into.length, from + READ_RUN_BYTES)), position + from);
+}

@@ -1,0 +1,80 @@
+/**
+ * The files' raw counts parked in a scratch file from the weighting to the save
+ * (src/node/parkedCounts.ts): every file's ids and counts read back the same into the same
+ * objects, emptied while parked, no name left in the folder, nothing parked below the threshold
+ * or without a file, and the file given back by close(). Counts: CRAN abstracts
+ * (test/fixtures/corpora/cran), tokenized and counted as the build does.
+ */
+import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { countTerms, EMPTY_DOC_TERMS, Vocabulary, type DocTerms } from '../../src/core/counting/termCounts.js';
+import { tokenize } from '../../src/core/text/tokenize.js';
+import type { ByteSpill, OpenSpill } from '../../src/core/sections/types.js';
+import { ParkedCounts } from '../../src/node/parkedCounts.js';
+import { openSpillBeside } from '../../src/node/sectionCodeFile.js';
+import { loadCollection } from '../helpers/shared.js';
+
+const folder = mkdtempSync(join(tmpdir(), 'undertone-park-counts-'));
+afterAll(() => rmSync(folder, { recursive: true, force: true }));
+
+function counted(): DocTerms[] {
+  const vocab = new Vocabulary();
+  const docs = loadCollection('cran')
+    .docs.slice(0, 200)
+    .map((d) => countTerms(tokenize(d.text), vocab, true));
+  return [...docs, EMPTY_DOC_TERMS];
+}
+
+function copies(docs: readonly DocTerms[]): { ids: number[]; counts: number[]; length: number }[] {
+  return docs.map((d) => ({ ids: [...d.termIds], counts: [...d.counts], length: d.length }));
+}
+
+describe('ParkedCounts', () => {
+  it('parks the counts in a scratch file, empties them, and reads every file back the same', () => {
+    const docs = counted();
+    const before = copies(docs);
+    let closes = 0;
+    const beside = openSpillBeside(folder, 'test');
+    const open: OpenSpill = () => {
+      const s = beside()!;
+      const spill: ByteSpill = {
+        write: (b, at) => s.write(b, at),
+        read: (into, at) => s.read(into, at),
+        close: () => (closes++, s.close()),
+      };
+      return spill;
+    };
+    const parked = ParkedCounts.park(docs, open, 0);
+    expect(parked).not.toBeNull();
+    expect(readdirSync(folder)).toEqual([]); // unlinked as soon as made
+    expect(docs.every((d) => d.termIds.length === 0 && d.counts.length === 0)).toBe(true);
+    expect(docs.map((d) => d.length)).toEqual(before.map((d) => d.length));
+    parked!.unpark();
+    expect(closes).toBe(1);
+    expect(copies(docs)).toEqual(before);
+    expect(before.reduce((n, d) => n + d.ids.length, 0)).toBeGreaterThan(1000);
+  });
+
+  it('parks nothing below the threshold or without a scratch file, and close() gives the file back', () => {
+    const docs = counted();
+    const before = copies(docs);
+    expect(ParkedCounts.park(docs, openSpillBeside(folder, 'test'), Number.MAX_SAFE_INTEGER)).toBeNull();
+    expect(ParkedCounts.park(docs, () => null, 0)).toBeNull();
+    expect(ParkedCounts.park(docs, undefined, 0)).toBeNull();
+    expect(copies(docs)).toEqual(before);
+    let closes = 0;
+    const beside = openSpillBeside(folder, 'test');
+    const parked = ParkedCounts.park(
+      docs,
+      () => {
+        const s = beside()!;
+        return { write: (b, at) => s.write(b, at), read: (into, at) => s.read(into, at), close: () => (closes++, s.close()) };
+      },
+      0,
+    );
+    parked!.close();
+    expect(closes).toBe(1);
+  });
+});
