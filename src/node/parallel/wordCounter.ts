@@ -314,42 +314,32 @@ export class WordCounter {
    */
   private finish(length: number, section = false): PackedFile {
     const n = this.nTouched;
-    if (section) return this.finishSection(length);
+    if (section) {
+      const at = this.sectionUsed;
+      if (at + n > this.sectionIds.length) {
+        this.sectionIds = grow32(this.sectionIds, at + n);
+        this.sectionCounts = grow8(this.sectionCounts, this.sectionIds.length);
+      }
+      this.drainTally(this.sectionIds, this.sectionCounts, this.sectionBig, at);
+      this.sectionUsed = at + n;
+      return { at, terms: n, length };
+    }
     const at = this.packUsed;
     if (at + n > this.packIds.length) {
       this.packIds = grow32(this.packIds, at + n);
       this.packCounts = grow8(this.packCounts, this.packIds.length);
     }
-    const ids = this.packIds;
-    const counts = this.packCounts;
-    const touched = this.touched;
-    const tally = this.tally;
-    for (let i = 0; i < n; i++) {
-      const id = touched[i];
-      const c = tally[id];
-      ids[at + i] = id;
-      if (c < SECTION_COUNT_BIG) counts[at + i] = c;
-      else {
-        counts[at + i] = SECTION_COUNT_BIG;
-        this.packBig.set(at + i, c);
-      }
-      tally[id] = 0;
-    }
-    this.nTouched = 0;
+    this.drainTally(this.packIds, this.packCounts, this.packBig, at);
     this.packUsed = at + n;
     return { at, terms: n, length };
   }
 
-  /** finish() into the section pack (counts of one byte, larger ones beside). */
-  private finishSection(length: number): PackedFile {
+  /**
+   * Writes the tallied ids and their counts from position `at` of a pack (counts of one byte,
+   * SECTION_COUNT_BIG standing for the exact count kept in `big`) and clears the tally.
+   */
+  private drainTally(ids: Int32Array, counts: Uint8Array, big: Map<number, number>, at: number): void {
     const n = this.nTouched;
-    const at = this.sectionUsed;
-    if (at + n > this.sectionIds.length) {
-      this.sectionIds = grow32(this.sectionIds, at + n);
-      this.sectionCounts = grow8(this.sectionCounts, this.sectionIds.length);
-    }
-    const ids = this.sectionIds;
-    const counts = this.sectionCounts;
     const touched = this.touched;
     const tally = this.tally;
     for (let i = 0; i < n; i++) {
@@ -359,13 +349,11 @@ export class WordCounter {
       if (c < SECTION_COUNT_BIG) counts[at + i] = c;
       else {
         counts[at + i] = SECTION_COUNT_BIG;
-        this.sectionBig.set(at + i, c);
+        big.set(at + i, c);
       }
       tally[id] = 0;
     }
     this.nTouched = 0;
-    this.sectionUsed = at + n;
-    return { at, terms: n, length };
   }
 
   /** Counts the words of u[from, n); returns the number of tokens. */

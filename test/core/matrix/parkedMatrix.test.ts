@@ -8,10 +8,10 @@ import { describe, expect, it } from 'vitest';
 import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { weightedMatrix } from '../../../src/core/index/model/conceptModel.js';
 import { dropParkedMatrix, parkMatrix, unparkMatrix } from '../../../src/core/matrix/parkedMatrix.js';
-import type { ByteSpill, OpenSpill } from '../../../src/core/sections/types.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { globalWeights } from '../../../src/core/weighting/termWeighting.js';
 import { pruneVocabulary } from '../../../src/core/weighting/prune.js';
+import { memorySpill } from '../../helpers/memorySpill.js';
 import { loadCollection } from '../../helpers/shared.js';
 
 function matrix() {
@@ -22,28 +22,6 @@ function matrix() {
   const pruned = pruneVocabulary(docs, vocab.size);
   const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
   return weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy').matrix;
-}
-
-/** A spill in memory, counting its closes. */
-function memorySpill(): { open: OpenSpill; closes: () => number } {
-  let closes = 0;
-  const open: OpenSpill = () => {
-    let bytes = new Uint8Array(0);
-    const spill: ByteSpill = {
-      write: (b, at) => {
-        if (at + b.length > bytes.length) {
-          const grown = new Uint8Array(at + b.length);
-          grown.set(bytes);
-          bytes = grown;
-        }
-        bytes.set(b, at);
-      },
-      read: (into, at) => into.set(bytes.subarray(at, at + into.length)),
-      close: () => void closes++,
-    };
-    return spill;
-  };
-  return { open, closes: () => closes };
 }
 
 describe('parkMatrix', () => {

@@ -19,7 +19,7 @@ import {
 } from '../../../src/core/sections/sectionVectors.js';
 import { SectionRowsClosedError } from '../../../src/core/sections/sectionRows.js';
 import { SectionStore } from '../../../src/core/sections/sectionStore.js';
-import type { OpenSpill } from '../../../src/core/sections/types.js';
+import { memorySpill } from '../../helpers/memorySpill.js';
 import { countSections } from '../../helpers/countedSections.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 
@@ -137,24 +137,7 @@ describe('section vectors', () => {
     const index = buildWithSections();
     const counted = countedOf(index);
     // A spill held in a growing array (the node side is a scratch file, sectionCodeFile.ts).
-    let closed = 0;
-    let opened = 0;
-    const open: OpenSpill = () => {
-      opened++;
-      let bytes = new Uint8Array(0);
-      return {
-        write: (b, at) => {
-          if (at + b.length > bytes.length) {
-            const grown = new Uint8Array(at + b.length);
-            grown.set(bytes);
-            bytes = grown;
-          }
-          bytes.set(b, at);
-        },
-        read: (into, at) => into.set(bytes.subarray(at, at + into.length)),
-        close: () => closed++,
-      };
-    };
+    const { open, opened, closes: closed } = memorySpill();
     const inMemory = foldCountedSections(index.model, counted, { executor: serialExecutor, chunkSections: 37 });
     const rows = counted.reduce((n, c) => n + c.starts.length, 0);
     const bytes = 4 * rows * index.k;
@@ -165,7 +148,7 @@ describe('section vectors', () => {
       spill: open,
       spillFromBytes: bytes + 1,
     });
-    expect(opened).toBe(0);
+    expect(opened()).toBe(0);
     expect(below.every((f) => f.stored === undefined)).toBe(true);
     // At it: every file's rows in the spill, in file order, the same bits as in memory.
     const spilled = foldCountedSections(index.model, counted, {
@@ -174,7 +157,7 @@ describe('section vectors', () => {
       spill: open,
       spillFromBytes: bytes,
     });
-    expect(opened).toBe(1);
+    expect(opened()).toBe(1);
     let first = 0;
     spilled.forEach((f, i) => {
       expect(f.stored?.first).toBe(first);
@@ -189,7 +172,7 @@ describe('section vectors', () => {
     docs.forEach((d, i) => store.set(d.id, spilled[i]));
     expect(store.get(docs[3].id)!.vectors).toEqual(inMemory[3].vectors);
     store.closeRows();
-    expect(closed).toBe(1);
+    expect(closed()).toBe(1);
     expect(() => spilled[0].vectors).toThrow(SectionRowsClosedError);
     // Cancelled after the first chunk: the spill is closed before the error leaves.
     let polls = 0;
@@ -201,8 +184,8 @@ describe('section vectors', () => {
     expect(() =>
       foldCountedSections(index.model, counted, { executor: serialExecutor, chunkSections: 37, spill: open, spillFromBytes: 0, signal }),
     ).toThrow(CancelledError);
-    expect(opened).toBe(2);
-    expect(closed).toBe(2);
+    expect(opened()).toBe(2);
+    expect(closed()).toBe(2);
     // No spill to be had: the rows stay in memory.
     const none = foldCountedSections(index.model, counted, {
       executor: serialExecutor,
