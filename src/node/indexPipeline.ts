@@ -234,6 +234,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     const toRead: SourceFile[] = [];
     // Every file's counts in one list, for onCounted (references to the builder's objects).
     const countedDocs: { meta: DocMeta; terms: DocTerms }[] | undefined = options.onCounted ? [] : undefined;
+    // Counts taken over from the previous index: still that index's own (it may answer during this
+    // build and is kept when the build fails or is cancelled), so they are never parked.
+    const reusedTerms = new Set<DocTerms>();
     for (const f of scan.files) {
       const old = sameTokens ? previous.meta(f.key) : undefined;
       if (old && old.size === f.size && old.mtimeMs === f.mtimeMs) {
@@ -241,6 +244,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         const terms = previous!.termsOf(f.key);
         builder.addCounted(meta, terms);
         countedDocs?.push({ meta, terms });
+        reusedTerms.add(terms);
         reused++;
       } else toRead.push(f);
     }
@@ -357,7 +361,10 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       // Not while a caller may read the counts during the build (onCounted).
       onWeighted: options.onCounted
         ? undefined
-        : (docs) => (parkedCounts = ParkedCounts.park(docs, options.scratch, options.parkCountsFromBytes)),
+        : (docs) => {
+            const own = reusedTerms.size === 0 ? docs : docs.filter((d) => !reusedTerms.has(d));
+            parkedCounts = ParkedCounts.park(own, options.scratch, options.parkCountsFromBytes);
+          },
       onProgress: (stage, done, all) => {
         if (stage === 'weighting' && done === 1) {
           lap('matrix');

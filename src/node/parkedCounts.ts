@@ -10,7 +10,8 @@
  * the counts come back); unpark() reads them back into two arrays shared by all files (views of
  * them, the same numbers as before) and closes the spill; close() alone, on a failure or a cancel.
  * Nothing may read the files' counts between the two (the pipeline does not park them when a
- * caller asked for them during the build: onCounted).
+ * caller asked for them during the build, onCounted, nor the counts a file takes over from the
+ * previous index, which remain that index's own while it answers and when the build fails).
  */
 import type { DocTerms } from '../core/counting/termCounts.js';
 import type { ByteSpill, OpenSpill } from '../core/sections/types.js';

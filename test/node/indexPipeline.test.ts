@@ -198,4 +198,60 @@ describe('runIndexPipeline', () => {
     expect(inMemory.index.sections.get(sample)!.stored).toBeUndefined();
     expect(Buffer.from(encodeIndex(inMemory.index, when)).equals(Buffer.from(encodeIndex(plain.index, when)))).toBe(true);
   });
+
+  it("parks only the counts it read itself: a previous index's counts stay that index's own during a refresh, after it and after a cancel", async () => {
+    const dir = join(tmp, 'scratch-refresh');
+    mkdirSync(dir, { recursive: true });
+    const scratch = openSpillBeside(dir, "the build's scratch file");
+    const touched = files.map((f, i) => (i === 0 ? { ...f, mtimeMs: f.mtimeMs + 1 } : f));
+    const refresh = (previous: LsiIndex, cancelAt?: string) => {
+      let stop = false;
+      return runIndexPipeline({
+        settings,
+        previous,
+        // The previous index's 300 files, one of them touched (read again, its words the same, so
+        // the vocabulary stays in order and the 299 reused files keep their very count objects).
+        scan: async () => ({ files: touched, skipped: { ...none } }),
+        maxFileBytes: 1 << 20,
+        emptyMessage: 'empty',
+        threads: { threads: 2 },
+        scratch,
+        parkCountsFromBytes: 0,
+        isCancelled: () => stop,
+        onProgress: (p) => {
+          if (p.stage === cancelAt) stop = true;
+        },
+      });
+    };
+    const base = await runIndexPipeline({
+      settings,
+      scan: async () => ({ files, skipped: { ...none } }),
+      maxFileBytes: 1 << 20,
+      emptyMessage: 'empty',
+      threads: { threads: 2 },
+    });
+    const before = new Map(base.index.paths().map((p) => [p, Array.from(base.index.termsOf(p).counts)]));
+    const unchanged = (): void => {
+      for (const [p, counts] of before) expect(Array.from(base.index.termsOf(p).counts)).toEqual(counts);
+    };
+    await expect(refresh(base.index, 'svd')).rejects.toBeInstanceOf(CancelledError);
+    unchanged();
+    const refreshed = await refresh(base.index);
+    expect(refreshed.reused).toBe(files.length - 1);
+    expect(refreshed.index.termsOf(files[1].key)).toBe(base.index.termsOf(files[1].key));
+    unchanged();
+    // The new files' counts were parked and came back: the refreshed index holds every file's.
+    // The file read again had its counts parked and back: the same saved bytes as without scratch files.
+    const inMemory = await runIndexPipeline({
+      settings,
+      previous: base.index,
+      scan: async () => ({ files: touched, skipped: { ...none } }),
+      maxFileBytes: 1 << 20,
+      emptyMessage: 'empty',
+      threads: { threads: 2 },
+    });
+    const when = new Date(0);
+    expect(Buffer.from(encodeIndex(refreshed.index, when)).equals(Buffer.from(encodeIndex(inMemory.index, when)))).toBe(true);
+    refreshed.index.sections.closeRows();
+  });
 });
