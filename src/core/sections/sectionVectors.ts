@@ -151,9 +151,14 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
     const sectionOf = new Int32Array(chunk);
     // U_kᵀd̂ of the chunk's rows, gathered block by block (when U_k is split).
     const acc = width === k ? undefined : new Float64Array(chunk * k);
-    // When U_k is split, each chunk gathers its column blocks from the rows again (about 0.4 s
-    // CPU on the Documentation folder's 51,651 terms at k = 200, 9 chunks): laying them out once
-    // for all chunks would add a second copy of U_k (41 MB there) at the build's memory peak.
+    // When U_k is split, each chunk gathers its column blocks again, and only the rows of the
+    // terms its sections use (laying U_k out once for all chunks would add a second copy, 41 MB
+    // on the Documentation folder at k = 200, at the build's memory peak). The chunk's columns
+    // are renumbered in order of first use: every row keeps its entries in the same order, so
+    // every sum is the same. A chunk of sections uses a small share of a large vocabulary (all
+    // 100,000 rows gathered for each of 325 chunks took most of the fold's CPU on the kernel tree).
+    const slotOf = acc ? new Int32Array(terms).fill(-1) : undefined;
+    let used = new Int32Array(acc ? 1 << 12 : 0);
     // The chunk's rows on their way to the spill, and the row the chunk starts at.
     const out = spill ? new Float32Array(chunk * k) : undefined;
     let base = 0;
@@ -207,17 +212,38 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
       if (rows === 0) break;
       if (options.signal?.aborted) throw new CancelledError();
       options.onProgress?.(f, files.length);
+      let cols = terms;
+      if (slotOf) {
+        cols = 0;
+        for (let t = 0; t < p; t++) {
+          const c = indices[t];
+          let q = slotOf[c];
+          if (q < 0) {
+            if (cols === used.length) {
+              const grown = new Int32Array(2 * used.length);
+              grown.set(used);
+              used = grown;
+            }
+            q = slotOf[c] = cols;
+            used[cols++] = c;
+          }
+          indices[t] = q;
+        }
+        for (let q = 0; q < cols; q++) slotOf[used[q]] = -1;
+      }
       const matrix: CsrMatrix = {
         rows,
-        cols: terms,
+        cols,
         indptr: indptr.subarray(0, rows + 1),
         indices: indices.subarray(0, p),
         values: vals.subarray(0, p),
       };
+      // The chunk's column blocks: as wide as tv holds for the terms it uses.
+      const w = acc ? Math.max(1, Math.min(k, Math.floor(tv.length / Math.max(1, cols)))) : k;
       scoped(() => {
         const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
-        const part = ex.float64(rows * width);
-        if (acc) blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
+        const part = ex.float64(rows * w);
+        if (acc) blockedTermProduct(ex, m, model.termVectors, k, w, tv, part, acc, used);
         else ex.spmm(m, tv, k, part, true);
         const sums = acc ?? part;
         out?.fill(0, 0, rows * k);

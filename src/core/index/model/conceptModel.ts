@@ -226,8 +226,10 @@ export function projectMatrixRows(
 
 /**
  * acc (m.rows × k) = m · termVectors (terms × k), the term vectors handed to the executor in
- * column blocks of `width` through tv (terms × width) and part (m.rows × width): each output
- * column is the same sum whatever the block, so the bits do not depend on the width.
+ * column blocks of `width` through tv (m.cols × width) and part (m.rows × width): each output
+ * column is the same sum whatever the block, so the bits do not depend on the width. With
+ * termOf, column t of m is row termOf[t] of termVectors (a matrix whose columns were renumbered
+ * to the terms it uses: only those rows are gathered; the sums are the same, term for term).
  */
 export function blockedTermProduct(
   ex: MatrixExecutor,
@@ -238,13 +240,17 @@ export function blockedTermProduct(
   tv: Float64Array,
   part: Float64Array,
   acc: Float64Array,
+  termOf?: Int32Array,
 ): void {
   const terms = m.cols;
   const n = m.rows;
   for (let c0 = 0; c0 < k; c0 += width) {
     const w = Math.min(width, k - c0);
     const tvw = tv.subarray(0, terms * w);
-    for (let t = 0, d = 0, src = c0; t < terms; t++, src += k) for (let j = 0; j < w; j++) tvw[d++] = termVectors[src + j];
+    for (let t = 0, d = 0; t < terms; t++) {
+      const src = (termOf ? termOf[t] : t) * k + c0;
+      for (let j = 0; j < w; j++) tvw[d++] = termVectors[src + j];
+    }
     const pw = part.subarray(0, n * w);
     ex.spmm(m, tvw, w, pw, true);
     for (let i = 0; i < n; i++) for (let j = 0; j < w; j++) acc[i * k + c0 + j] = pw[i * w + j];
