@@ -105,17 +105,21 @@ export async function runCompare(): Promise<void> {
 }
 
 /**
- * The Node flags a build of the command starts with when installed: those its #! line names
- * (`#!/usr/bin/env -S node --flag…`), so `node <flags> cli.js` runs it as `undertone` does.
+ * How a build of the command starts when installed: the environment and the Node flags its #! line
+ * names (`#!/usr/bin/env -S NAME=value… node --flag…`), so `NAME=value node <flags> cli.js` runs it
+ * as `undertone` does.
  */
-function nodeFlagsOf(cli: string): string[] {
+function launchOf(cli: string): { flags: string[]; env: Record<string, string> } {
   const fd = openSync(cli, 'r');
   try {
     const head = Buffer.alloc(256);
     const n = readSync(fd, head, 0, head.length, 0);
     const first = head.subarray(0, n).toString('utf8').split('\n')[0];
-    const m = /^#!\s*\/usr\/bin\/env\s+(?:-S\s+)?node(?:\s+(.*))?$/.exec(first);
-    return m?.[1] ? m[1].trim().split(/\s+/) : [];
+    const m = /^#!\s*\/usr\/bin\/env\s+(?:-S\s+)?((?:[A-Za-z_][A-Za-z0-9_]*=\S*\s+)*)node(?:\s+(.*))?$/.exec(first);
+    const env: Record<string, string> = {};
+    for (const pair of m?.[1]?.trim().split(/\s+/) ?? [])
+      if (pair !== '') env[pair.slice(0, pair.indexOf('='))] = pair.slice(pair.indexOf('=') + 1);
+    return { flags: m?.[2] ? m[2].trim().split(/\s+/) : [], env };
   } finally {
     closeSync(fd);
   }
@@ -181,13 +185,14 @@ function runCommandCompare(): void {
       const paths = list.stdout.split('\n').filter((p) => p !== '');
       writeFileSync(join(dir, 'paths.txt'), paths.map((p) => join(folder, p)).join('\n') + '\n');
       const refArgs = (extra: string[]): string[] => [REFERENCE, 'pipeline', '--files', join(dir, 'paths.txt'), '--k', String(k), ...extra];
-      const ourArgs = (path: string): string[] => [...nodeFlagsOf(path), path, 'index', folder, '--k', String(k), '--rebuild', '--json'];
+      const ourArgs = (path: string): string[] => [...launchOf(path).flags, path, 'index', folder, '--k', String(k), '--rebuild', '--json'];
+      const ourEnv = (path: string): NodeJS.ProcessEnv => ({ ...env, ...launchOf(path).env });
       const sides: Side[] = [
         { label: `undertone index --k ${k} --rebuild`, runs: [] },
         { label: 'reference, fastest (in memory, letters-first)', runs: [] },
       ];
       const steps: (() => Timed)[] = [
-        () => timed(process.execPath, ourArgs(cli), env),
+        () => timed(process.execPath, ourArgs(cli), ourEnv(cli)),
         () => timed(PYTHON, refArgs(['--in-memory', '--letters-first'])),
       ];
       if (!process.argv.includes('--no-current')) {
@@ -197,7 +202,7 @@ function runCommandCompare(): void {
       const before = flag('before');
       if (before) {
         sides.push({ label: 'undertone, before (--before)', runs: [] });
-        steps.push(() => timed(process.execPath, ourArgs(resolve(before)), env));
+        steps.push(() => timed(process.execPath, ourArgs(resolve(before)), ourEnv(resolve(before))));
       }
       console.log(`\n=== ${name}: ${paths.length} files ===`);
       for (let r = 0; r < runs; r++) {
