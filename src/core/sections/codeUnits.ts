@@ -91,53 +91,88 @@ interface LineFacts {
   first: string;
 }
 
-/** Brace depth and comment facts of every line of a brace language. */
+/**
+ * Whether a UTF-16 code unit is white space as String.prototype.trim sees it (ECMAScript
+ * WhiteSpace and LineTerminator: tab to carriage return, space, no-break space, U+1680,
+ * U+2000–U+200A, U+2028, U+2029, U+202F, U+205F, U+3000 and the byte order mark).
+ */
+function isTrimSpace(u: number): boolean {
+  if (u <= 32) return u === 32 || (u >= 9 && u <= 13);
+  if (u < 160) return false;
+  return (
+    u === 160 ||
+    u === 0x1680 ||
+    (u >= 0x2000 && u <= 0x200a) ||
+    u === 0x2028 ||
+    u === 0x2029 ||
+    u === 0x202f ||
+    u === 0x205f ||
+    u === 0x3000 ||
+    u === 0xfeff
+  );
+}
+
+/**
+ * Brace depth and comment facts of every line of a brace language. The line's code (strings
+ * reduced to their two quotes, comments left out) is never laid out as a string: only its first
+ * and last characters other than white space are kept, which is all the facts need.
+ */
 function braceFacts(lines: readonly string[], lang: CodeLanguage): LineFacts[] {
   const out: LineFacts[] = [];
+  const templates = lang === 'ts' || lang === 'go';
   let depth = 0;
   let inBlock = false;
   let inTemplate = false; // a backtick string (JS/TS template, Go raw string) spanning lines
   for (const line of lines) {
     const start = depth;
-    let code = '';
+    // The first and last code units of the code other than white space (-1: none yet).
+    let first = -1;
+    let last = -1;
     for (let i = 0; i < line.length; i++) {
-      const c = line[i];
+      let u = line.charCodeAt(i);
       if (inBlock) {
-        if (c === '*' && line[i + 1] === '/') {
+        if (u === 42 /* * */ && line.charCodeAt(i + 1) === 47 /* / */) {
           inBlock = false;
           i++;
         }
         continue;
       }
       if (inTemplate) {
-        if (c === '\\') i++;
-        else if (c === '`') inTemplate = false;
+        if (u === 92 /* \ */) i++;
+        else if (u === 96 /* ` */) inTemplate = false;
         continue;
       }
-      if (c === '/' && line[i + 1] === '/') break;
-      if (c === '/' && line[i + 1] === '*') {
-        inBlock = true;
-        i++;
-        continue;
-      }
-      if (c === '`' && (lang === 'ts' || lang === 'go')) {
+      if (u === 47 /* / */) {
+        const next = line.charCodeAt(i + 1);
+        if (next === 47) break;
+        if (next === 42 /* * */) {
+          inBlock = true;
+          i++;
+          continue;
+        }
+      } else if (u === 96 && templates) {
         inTemplate = true;
-        code += '`';
-        continue;
-      }
-      if (c === '"' || (c === "'" && (lang !== 'rust' || /^'(\\.|[^\\'])'/.test(line.slice(i))))) {
+      } else if (u === 34 /* " */ || (u === 39 /* ' */ && (lang !== 'rust' || /^'(\\.|[^\\'])'/.test(line.slice(i))))) {
+        // A string stands for its two quotes.
         let j = i + 1;
-        while (j < line.length && line[j] !== c) j += line[j] === '\\' ? 2 : 1;
-        code += c + c;
+        while (j < line.length && line.charCodeAt(j) !== u) j += line.charCodeAt(j) === 92 ? 2 : 1;
         i = j;
-        continue;
-      }
-      if (c === '{') depth++;
-      else if (c === '}') depth = Math.max(0, depth - 1);
-      code += c;
+      } else if (u === 123 /* { */) depth++;
+      else if (u === 125 /* } */) depth = Math.max(0, depth - 1);
+      else if (isTrimSpace(u)) u = -1;
+      if (u < 0) continue;
+      if (first < 0) first = u;
+      last = u;
     }
-    const t = code.trim();
-    out.push({ depth: start, quiet: t === '', blank: line.trim() === '', last: t.at(-1) ?? '', first: t[0] ?? '' });
+    let blank = true;
+    for (let i = 0; i < line.length && blank; i++) blank = isTrimSpace(line.charCodeAt(i));
+    out.push({
+      depth: start,
+      quiet: first < 0,
+      blank,
+      last: last < 0 ? '' : String.fromCharCode(last),
+      first: first < 0 ? '' : String.fromCharCode(first),
+    });
   }
   return out;
 }
