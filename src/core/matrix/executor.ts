@@ -8,7 +8,7 @@
  */
 import type { CsrMatrix } from './sparse.js';
 import { createRandom } from '../random.js';
-import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, spmmTransposedRows, timesSmallRows, type FloatArray } from './kernels.js';
+import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, timesSmallRows, type FloatArray } from './kernels.js';
 
 export type { FloatArray } from './kernels.js';
 
@@ -27,12 +27,6 @@ export interface MatrixExecutor {
    * each row adds its entries one at a time, in order (the arithmetic of a plain loop).
    */
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential?: boolean): void;
-  /**
-   * Y = Mᵀ X without a transposed copy of M: M is rows × cols sparse (f32 stored values in the
-   * executor's memory), X is rows × l, Y is cols × l; counts[j] is the number of stored entries of
-   * column j (columnCounts). The same bits as spmm on transposeCsr(M) (spmmTransposedRows).
-   */
-  spmmTransposed(m: CsrMatrix, counts: Int32Array, x: FloatArray, l: number, y: FloatArray): void;
   /** AᵀB for two rows × l blocks (l × l, row-major); symmetric and mirrored when a === b. */
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array;
   /** out = Y W for Y rows × l and W l × c given transposed (wt: c × l); W upper triangular if upper. */
@@ -67,10 +61,6 @@ export const serialExecutor: MatrixExecutor = Object.freeze({
   int32: (n: number) => new Int32Array(n),
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
     spmmRows(m.indptr, m.indices, m.values, x, l, y, 0, m.rows, !sequential);
-  },
-  spmmTransposed(m: CsrMatrix, counts: Int32Array, x: FloatArray, l: number, y: FloatArray): void {
-    const pend = new Float64Array(m.cols * l);
-    spmmTransposedRows(m.indptr, m.indices, m.values, x, l, y, counts, new Int32Array(m.cols), pend);
   },
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array {
     const g = new Float64Array(l * l);
@@ -116,30 +106,4 @@ export function splitCsrRows(indptr: Int32Array, rows: number, parts: number): I
   }
   bounds.push(rows);
   return Int32Array.from(bounds);
-}
-
-/** Stored entries of each column of a CSR matrix (the counts spmmTransposed takes), in `into` when given. */
-export function columnCounts(m: CsrMatrix, into: Int32Array = new Int32Array(m.cols)): Int32Array {
-  into.fill(0);
-  const nnz = m.indptr[m.rows];
-  for (let p = 0; p < nnz; p++) into[m.indices[p]]++;
-  return into;
-}
-
-/**
- * Where each row's columns j_t begin, for column boundaries j_0 < … < j_T: a (T + 1) × rows table,
- * entry t·rows + i the first stored entry of row i at or past column j_t (its row's end when none).
- * Row t and row t + 1 bound task t of a transposed product split by columns.
- */
-export function columnSplitTable(m: CsrMatrix, bounds: ArrayLike<number>, into: Int32Array): Int32Array {
-  const rows = m.rows;
-  for (let i = 0; i < rows; i++) {
-    let p = m.indptr[i];
-    const e = m.indptr[i + 1];
-    for (let t = 0; t < bounds.length; t++) {
-      while (p < e && m.indices[p] < bounds[t]) p++;
-      into[t * rows + i] = p;
-    }
-  }
-  return into;
 }

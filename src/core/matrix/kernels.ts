@@ -86,49 +86,6 @@ export function spmmRows(
 }
 
 /**
- * y = Mᵀ · X (cols × l) for M rows × cols (CSR) and X rows × l, by scattering M's rows, with the
- * arithmetic of spmmRows (grouped) over transposeCsr(M)'s rows, in the same order: column j's
- * entries, in ascending row order, four at a time, y += ((v0·x0 + v1·x1) + v2·x2) + v3·x3, then
- * the last n mod 4 (n = counts[j]) one by one. rank (cols) and pend (cols × l) are scratch: the
- * entries of each column seen so far, and the open group's partial sum (./wasm/assembly/spmmt.ts
- * is the twin the executors with WebAssembly run).
- */
-export function spmmTransposedRows(
-  indptr: Int32Array,
-  indices: Int32Array,
-  values: FloatArray,
-  x: FloatArray,
-  l: number,
-  y: FloatArray,
-  counts: Int32Array,
-  rank: Int32Array,
-  pend: Float64Array,
-): void {
-  const cols = counts.length;
-  rank.fill(0, 0, cols);
-  y.fill(0, 0, cols * l);
-  const rows = indptr.length - 1;
-  for (let i = 0; i < rows; i++) {
-    const xo = i * l;
-    for (let p = indptr[i]; p < indptr[i + 1]; p++) {
-      const j = indices[p];
-      const v = values[p];
-      const r = rank[j]++;
-      const n = counts[j];
-      const yo = j * l;
-      if (r >= n - (n % 4)) {
-        for (let c = 0; c < l; c++) y[yo + c] += v * x[xo + c];
-        continue;
-      }
-      const g = r % 4;
-      if (g === 0) for (let c = 0; c < l; c++) pend[yo + c] = v * x[xo + c];
-      else if (g < 3) for (let c = 0; c < l; c++) pend[yo + c] += v * x[xo + c];
-      else for (let c = 0; c < l; c++) y[yo + c] += pend[yo + c] + v * x[xo + c];
-    }
-  }
-}
-
-/**
  * g = A[r0:r1]ᵀ B[r0:r1] (l × l, row-major, overwritten). When symmetric (a and b the same
  * block) only the upper triangle and diagonal are computed; the caller mirrors them.
  */

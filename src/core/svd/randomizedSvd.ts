@@ -29,10 +29,10 @@
 import { CancelledError, InvalidInputError } from '../errors.js';
 import { choleskyQr } from '../matrix/choleskyQr.js';
 import { leadingColumns } from '../matrix/dense.js';
-import { columnCounts, serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
+import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import type { CsrMatrix } from '../matrix/sparse.js';
-import { copyCsr, csrRows } from '../matrix/sparse.js';
+import { copyCsr, csrRows, transposeCsr } from '../matrix/sparse.js';
 import type { ByteSpill, OpenSpill } from '../sections/types.js';
 import { createRandom, DEFAULT_SEED, type RandomSource } from '../random.js';
 import { repairWeakColumns, topEigenpairs, transposeScaled } from './rayleighRitz.js';
@@ -208,18 +208,13 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   const rowsSmall = m.rows <= m.cols;
   // The matrix in the executor's memory, stored entries as f32 (a relative change below 1e-7,
   // far inside the SVD's own accuracy) on every executor, so all of them give the same bits.
-  // Only M itself: products with Mᵀ scatter M's rows (spmmTransposed), with the bits of a
-  // product over a transposed copy, which is not made (117 MB on the Linux tree).
   const mCopy = copyCsr(m, ex, 'f32');
+  const mt = transposeCsr(m, ex, 'f32');
   o.onCopied?.();
-  const counts = columnCounts(mCopy, ex.int32(m.cols));
-  const timesM = (x: Float64Array, cw: number, y: Float64Array): void => ex.spmm(mCopy, x, cw, y);
-  const timesMt = (x: Float64Array, cw: number, y: Float64Array): void => ex.spmmTransposed(mCopy, counts, x, cw, y);
-  // Y = AX and Z = AᵀX.
-  const timesA = rowsSmall ? timesM : timesMt;
-  const timesAt = rowsSmall ? timesMt : timesM;
-  const S = rowsSmall ? m.rows : m.cols;
-  const B = rowsSmall ? m.cols : m.rows;
+  const a = rowsSmall ? mCopy : mt;
+  const at = rowsSmall ? mt : mCopy;
+  const S = a.rows;
+  const B = a.cols;
   const w = bigSideBlockWidth(B, l, o.bigBlockBytes);
   const totalPasses = 2 * o.powerIterations + 3;
   let passes = 0;
@@ -238,7 +233,7 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   for (const [c0, cw] of blocks) {
     const zc = z.subarray(0, B * cw);
     ex.gaussian(zc, B, cw, blockSeed(o.seed, c0, w));
-    timesA(zc, cw, w === l ? q : yc.subarray(0, S * cw));
+    ex.spmm(a, zc, cw, w === l ? q : yc.subarray(0, S * cw));
     if (w < l) scatterColumns(yc, q, S, l, c0, cw);
   }
   step();
@@ -249,8 +244,8 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
       if (o.signal?.aborted) throw new CancelledError();
       const zc = z.subarray(0, B * cw);
       if (w < l) gatherColumns(q, qc, S, l, c0, cw);
-      timesAt(w === l ? q : qc.subarray(0, S * cw), cw, zc);
-      timesA(zc, cw, w === l ? q : yc.subarray(0, S * cw));
+      ex.spmm(at, w === l ? q : qc.subarray(0, S * cw), cw, zc);
+      ex.spmm(a, zc, cw, w === l ? q : yc.subarray(0, S * cw));
       if (w < l) scatterColumns(yc, q, S, l, c0, cw);
     }
     step();
@@ -265,9 +260,9 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
     if (o.signal?.aborted) throw new CancelledError();
     const zc = z.subarray(0, B * cw);
     if (w < l) gatherColumns(q, qc, S, l, c0, cw);
-    timesAt(w === l ? q : qc.subarray(0, S * cw), cw, zc);
+    ex.spmm(at, w === l ? q : qc.subarray(0, S * cw), cw, zc);
     const y = yAll.subarray(0, S * cw);
-    timesA(zc, cw, y);
+    ex.spmm(a, zc, cw, y);
     for (const [d0, dw] of blocks) {
       let part: Float64Array;
       if (w === l) part = ex.cross(q, y, S, l);

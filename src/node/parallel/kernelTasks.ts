@@ -26,17 +26,6 @@ export type KernelJob =
       readonly bounds: readonly number[];
     }
   | {
-      /** The transposed product by scattering (spmmt_f32), split by columns of the matrix. */
-      readonly op: 'spmmt_f32';
-      /**
-       * table ((tasks + 1) × rows: where each row's columns begin at each boundary), rows,
-       * indices, values, x, l, y, counts, rank, pend.
-       */
-      readonly args: readonly [number, number, number, number, number, number, number, number, number, number];
-      /** Column boundaries of the tasks. */
-      readonly bounds: readonly number[];
-    }
-  | {
       readonly op: 'cross';
       /** a, b, l, rows, partials (one l × l block per task), symmetric (0/1). */
       readonly args: readonly [number, number, number, number, number, number];
@@ -71,12 +60,6 @@ export function runTask(k: KernelExports, job: KernelJob, t: number, memory: Web
     case 'spmm_f32': {
       const [indptr, indices, values, x, l, y, grouped] = job.args;
       (job.op === 'spmm' ? k.spmm : k.spmm_f32)(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1], grouped);
-      return;
-    }
-    case 'spmmt_f32': {
-      const [table, rows, indices, values, x, l, y, counts, rank, pend] = job.args;
-      const lo = table + t * rows * 4;
-      k.spmmt_f32(lo, lo + rows * 4, rows, indices, values, x, l, y, counts, rank, pend, job.bounds[t], job.bounds[t + 1]);
       return;
     }
     case 'cross': {

@@ -7,15 +7,7 @@
  * the same bits as the serial executors'.
  */
 import type { Worker } from 'node:worker_threads';
-import {
-  addInto,
-  columnSplitTable,
-  mirrorUpper,
-  REDUCTION_BLOCK_ROWS,
-  splitCsrRows,
-  splitRows,
-  type FloatArray,
-} from '../../core/matrix/executor.js';
+import { addInto, mirrorUpper, REDUCTION_BLOCK_ROWS, splitCsrRows, splitRows, type FloatArray } from '../../core/matrix/executor.js';
 import type { CsrMatrix } from '../../core/matrix/sparse.js';
 import type { WasmArena } from '../../core/matrix/wasm/wasmArena.js';
 import { WasmExecutor } from '../../core/matrix/wasm/wasmExecutor.js';
@@ -52,38 +44,6 @@ export class ThreadExecutor extends WasmExecutor {
       bounds,
     });
     out.done();
-  }
-
-  override spmmTransposed(m: CsrMatrix, counts: Int32Array, x: FloatArray, l: number, y: FloatArray): void {
-    if (!(m.values instanceof Float32Array) || this.arena.offsetOf(m.values) < 0) {
-      super.spmmTransposed(m, counts, x, l, y);
-      return;
-    }
-    const out = this.out(y);
-    const { rank, pend } = this.transposedScratch(m.cols, l);
-    const { bounds, table } = this.columnSplit(m, counts);
-    this.run({
-      op: 'spmmt_f32',
-      args: [table.byteOffset, m.rows, this.ptr(m.indices), m.values.byteOffset, this.ptr(x), l, out.ptr, this.ptr(counts), rank.byteOffset, pend.byteOffset],
-      bounds,
-    });
-    out.done();
-  }
-
-  /**
-   * Tasks of a transposed product: column ranges of similar entry counts, and where each row's
-   * range begins (kept while the same matrix comes back: the passes use it some dozen times).
-   */
-  private columnSplit(m: CsrMatrix, counts: Int32Array): { bounds: number[]; table: Int32Array } {
-    const kept = this.kept.split;
-    if (kept && kept.m === m) return kept;
-    const starts = new Int32Array(m.cols + 1);
-    for (let j = 0; j < m.cols; j++) starts[j + 1] = starts[j] + counts[j];
-    const bounds = Array.from(splitCsrRows(starts, m.cols, this.threads * TASKS_PER_THREAD));
-    const table = columnSplitTable(m, bounds, this.arena.int32(bounds.length * m.rows));
-    const split = { m, bounds, table };
-    this.kept = { ...this.kept, split };
-    return split;
   }
 
   override cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array {

@@ -1,7 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, spmmTransposedRows, timesSmallRows } from '../../../src/core/matrix/kernels.js';
-import { columnCounts } from '../../../src/core/matrix/executor.js';
-import { transposeCsr } from '../../../src/core/matrix/sparse.js';
+import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, timesSmallRows } from '../../../src/core/matrix/kernels.js';
 import { createRandom } from '../../../src/core/random.js';
 
 // Reference: brute-force dense arithmetic (plain triple loops), independent of the kernels' tiling.
@@ -53,31 +51,6 @@ describe('row-range kernels', () => {
         spmmRows(m.indptr, m.indices, m.values, x, l, split, 7, rows, grouped);
         expect(Array.from(split)).toEqual(Array.from(whole));
       }
-    });
-  }
-
-  for (const [rows, cols, l, density] of [
-    [23, 17, 5, 0.3],
-    [40, 31, 8, 0.5],
-    [9, 50, 1, 0.3],
-    [60, 7, 3, 0.9],
-  ] as const) {
-    it(`spmmTransposedRows computes Mᵀ·X for ${rows}×${cols} by ${l} columns, with the bits of spmmRows over the transpose`, () => {
-      const m = randomCsr(rows, cols, density);
-      const x = randomArray(rows * l);
-      const want = new Float64Array(cols * l);
-      for (let i = 0; i < rows; i++)
-        for (let j = 0; j < cols; j++) for (let c = 0; c < l; c++) want[j * l + c] += m.dense[i * cols + j] * x[i * l + c];
-      const csr = { rows, cols, indptr: m.indptr, indices: m.indices, values: m.values };
-      const y = new Float64Array(cols * l).fill(NaN);
-      const counts = columnCounts(csr);
-      spmmTransposedRows(m.indptr, m.indices, m.values, x, l, y, counts, new Int32Array(cols), new Float64Array(cols * l));
-      close(y, want);
-      // The same bits as the grouped product over the transposed copy (columns of 0 to many entries, groups of four and tails).
-      const t = transposeCsr(csr);
-      const viaCopy = new Float64Array(cols * l);
-      spmmRows(t.indptr, t.indices, t.values, x, l, viaCopy, 0, cols, true);
-      expect(Array.from(y)).toEqual(Array.from(viaCopy));
     });
   }
 

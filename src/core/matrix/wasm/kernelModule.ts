@@ -16,22 +16,6 @@ export interface KernelModuleExports {
   spmm(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
   /** assembly/spmm.ts, with f32 stored values. */
   spmm_f32(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
-  /** assembly/spmmt.ts */
-  spmmt_f32(
-    lo: number,
-    hi: number,
-    rows: number,
-    indices: number,
-    values: number,
-    x: number,
-    l: number,
-    y: number,
-    counts: number,
-    rank: number,
-    pend: number,
-    j0: number,
-    j1: number,
-  ): void;
   /** assembly/cross.ts */
   cross(a: number, b: number, l: number, r0: number, r1: number, g: number, symmetric: number): void;
   /** assembly/times.ts */

@@ -40,33 +40,17 @@ export class WasmExecutor implements MatrixExecutor {
   }
 
   private scratchArray: Float64Array | undefined;
-  /**
-   * Arena arrays kept from call to call (the transposed product's scratch, the threads' split of
-   * it): each lives until the end of the scope it was made in, like every arena array.
-   */
-  protected kept: { rank?: Int32Array; pend?: Float64Array; split?: { m: CsrMatrix; bounds: number[]; table: Int32Array } } = {};
 
   /** Frees the arena memory allocated while fn ran (results must be copied out before). */
   scoped<T>(fn: () => T): T {
     const mark = this.arena.mark();
     const scratch = this.scratchArray;
-    const kept = this.kept;
     try {
       return fn();
     } finally {
       this.arena.release(mark);
       this.scratchArray = scratch;
-      this.kept = kept;
     }
-  }
-
-  /** The transposed product's scratch for cols columns of width l (reused while it is large enough). */
-  protected transposedScratch(cols: number, l: number): { rank: Int32Array; pend: Float64Array } {
-    let { rank, pend } = this.kept;
-    if (!rank || rank.length < cols) rank = this.arena.int32(cols);
-    if (!pend || pend.length < cols * l) pend = this.arena.float64(cols * l);
-    this.kept = { ...this.kept, rank, pend };
-    return { rank, pend };
   }
 
   /** A reusable arena array of at least n numbers (valid until the next call or scope end). */
@@ -89,32 +73,6 @@ export class WasmExecutor implements MatrixExecutor {
       0,
       m.rows,
       sequential ? 0 : 1,
-    );
-    out.done();
-  }
-
-  spmmTransposed(m: CsrMatrix, counts: Int32Array, x: FloatArray, l: number, y: FloatArray): void {
-    if (!(m.values instanceof Float32Array) || this.arena.offsetOf(m.values) < 0) {
-      serialExecutor.spmmTransposed(m, counts, x, l, y);
-      return;
-    }
-    const out = this.out(y);
-    const { rank, pend } = this.transposedScratch(m.cols, l);
-    const indptr = this.ptr(m.indptr);
-    this.kernels.spmmt_f32(
-      indptr,
-      indptr + 4,
-      m.rows,
-      this.ptr(m.indices),
-      m.values.byteOffset,
-      this.ptr(x),
-      l,
-      out.ptr,
-      this.ptr(counts),
-      rank.byteOffset,
-      pend.byteOffset,
-      0,
-      m.cols,
     );
     out.done();
   }

@@ -6,7 +6,6 @@
  * Built by scripts/build-kernels.mjs (npm run build:kernels) into ../kernelsWasm.ts.
  */
 export { spmm, spmm_f32 } from './spmm';
-export { spmmt_f32 } from './spmmt';
 export { cross } from './cross';
 export { times } from './times';
 export { dots } from './dots';
