@@ -83,6 +83,8 @@ export interface BuildProgress {
    * blocks come on top (on the Linux tree they stayed through the first pass: 175 MB).
    */
   onParked?: () => void;
+  /** Park the weighted matrix's entries from this many bytes on (default PARK_MATRIX_FROM_BYTES; tests set it low). */
+  parkFromBytes?: number;
 }
 
 export function buildConceptModel(
@@ -191,7 +193,9 @@ function svdPasses(matrix: CsrMatrix, k: number, settings: IndexSettings, progre
     signal: progress.signal,
     executor: progress.executor,
     onProgress: (done, total) => progress.onProgress?.('svd', done, total),
-    onCopied: progress.spill ? () => void (parkMatrix(matrix, progress.spill!) && progress.onParked?.()) : undefined,
+    onCopied: progress.spill
+      ? () => void (parkMatrix(matrix, progress.spill!, progress.parkFromBytes) && progress.onParked?.())
+      : undefined,
     // QW waits in a scratch file from the end of the passes to the big side.
     spill: progress.spill,
   });
