@@ -150,13 +150,14 @@ if (folder) {
   });
   log(`sections (${again} read again)`);
 }
-(parkedCounts as ParkedCounts | null)?.unpark();
-log('counts back');
+// As the pipeline does: the threads and their memory go before the raw counts come back.
 executor = undefined;
 await pool?.close();
 pool = undefined;
 collectGarbage();
 log('threads ended');
+(parkedCounts as ParkedCounts | null)?.unpark();
+log('counts back');
 const bytes = await saveIndex(join(scratchDir, 'index.undertone'), index);
 log(`saved (${mb(bytes)} MB)`);
 clearInterval(timer);

@@ -409,14 +409,16 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       countedSections.clear();
       lap('sections');
     }
+    // The threads (and the shared memory of the SVD) are not needed to save: they go, and their
+    // memory is collected, before the raw counts come back (not beneath them).
+    executor = undefined;
+    await releasePool();
+    collectGarbage();
     if (parkedCounts) {
       const p: ParkedCounts = parkedCounts;
       parkedCounts = null;
       p.unpark();
     }
-    // The threads (and the shared memory of the SVD) are not needed to save.
-    executor = undefined;
-    await releasePool();
 
     // ---- save
     if (options.save) {
