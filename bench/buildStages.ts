@@ -123,6 +123,7 @@ const index = builder.build({
   },
   freshExecutor: pool ? freshExecutor : undefined,
   spill: process.env.NO_PARK ? undefined : openSpillBeside(scratchDir, 'the bench scratch file'),
+  onParked: collectGarbage, // as the pipeline does
   onWeighted: process.env.NO_PARK
     ? undefined
     : (docs) => (parkedCounts = ParkedCounts.park(docs, openSpillBeside(scratchDir, 'the bench scratch file'))),
@@ -131,7 +132,6 @@ const index = builder.build({
       log('weighted matrix');
       collectGarbage();
     }
-    if (stage === 'svd' && done === 1) collectGarbage(); // as the pipeline does
     if (stage === 'svd' && done === all && !svdLogged) {
       svdLogged = true;
       log('svd passes');
@@ -150,13 +150,14 @@ if (folder) {
   });
   log(`sections (${again} read again)`);
 }
-(parkedCounts as ParkedCounts | null)?.unpark();
-log('counts back');
+// As the pipeline does: the threads and their memory go before the raw counts come back.
 executor = undefined;
 await pool?.close();
 pool = undefined;
 collectGarbage();
 log('threads ended');
+(parkedCounts as ParkedCounts | null)?.unpark();
+log('counts back');
 const bytes = await saveIndex(join(scratchDir, 'index.undertone'), index);
 log(`saved (${mb(bytes)} MB)`);
 clearInterval(timer);

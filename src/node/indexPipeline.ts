@@ -356,8 +356,10 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         return executor;
       },
       freshExecutor: buildPool ? freshExecutor : undefined,
-      // The weighted matrix's entries wait in a scratch file during the SVD's passes.
+      // The weighted matrix's entries wait in a scratch file during the SVD's passes; their arrays
+      // go once they are there, before the passes' blocks (no collection would come by itself).
       spill: options.scratch,
+      onParked: collectGarbage,
       // Not while a caller may read the counts during the build (onCounted).
       onWeighted: options.onCounted
         ? undefined
@@ -371,9 +373,6 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
           // The weighting's per-file rows are garbage now: gone before the SVD's blocks come on top.
           collectGarbage();
         }
-        // The weighted matrix's entries were parked before the first pass: their arrays go now
-        // (the passes allocate almost nothing, so no collection would come by itself).
-        if (stage === 'svd' && done === 1) collectGarbage();
         progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
       },
     });
@@ -410,14 +409,16 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       countedSections.clear();
       lap('sections');
     }
+    // The threads (and the shared memory of the SVD) are not needed to save: they go, and their
+    // memory is collected, before the raw counts come back (not beneath them).
+    executor = undefined;
+    await releasePool();
+    collectGarbage();
     if (parkedCounts) {
       const p: ParkedCounts = parkedCounts;
       parkedCounts = null;
       p.unpark();
     }
-    // The threads (and the shared memory of the SVD) are not needed to save.
-    executor = undefined;
-    await releasePool();
 
     // ---- save
     if (options.save) {

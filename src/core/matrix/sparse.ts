@@ -125,6 +125,15 @@ export function copyCsr(m: CsrMatrix, alloc: CsrAllocator, valueType: 'f32' | 'f
   return { rows: m.rows, cols: m.cols, indptr, indices, values };
 }
 
+/** Rows [r0, r1) of a CSR matrix as a CSR matrix of their own (views of its entries, offsets from 0). */
+export function csrRows(m: CsrMatrix, r0: number, r1: number): CsrMatrix {
+  const p0 = m.indptr[r0];
+  const p1 = m.indptr[r1];
+  const indptr = new Int32Array(r1 - r0 + 1);
+  for (let i = 0; i <= r1 - r0; i++) indptr[i] = m.indptr[r0 + i] - p0;
+  return { rows: r1 - r0, cols: m.cols, indptr, indices: m.indices.subarray(p0, p1), values: m.values.subarray(p0, p1) };
+}
+
 /** Builds a CSR matrix from a dense row-major array (tests and small examples). */
 export function csrFromDense(rows: number, cols: number, data: ArrayLike<number>): CsrMatrix {
   const indptr = new Int32Array(rows + 1);

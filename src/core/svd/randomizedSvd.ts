@@ -32,9 +32,11 @@ import { leadingColumns } from '../matrix/dense.js';
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import type { CsrMatrix } from '../matrix/sparse.js';
-import { copyCsr, transposeCsr } from '../matrix/sparse.js';
+import { copyCsr, csrRows, transposeCsr } from '../matrix/sparse.js';
+import type { ByteSpill, OpenSpill } from '../sections/types.js';
 import { createRandom, DEFAULT_SEED, type RandomSource } from '../random.js';
 import { repairWeakColumns, topEigenpairs, transposeScaled } from './rayleighRitz.js';
+import { PARK_MATRIX_FROM_BYTES } from '../matrix/parkedMatrix.js';
 
 export interface RandomizedSvdOptions {
   /** Number of singular triplets wanted. */
@@ -64,6 +66,17 @@ export interface RandomizedSvdOptions {
    * caller's arrays no more (finishSvd does: a caller may keep them elsewhere until then).
    */
   onCopied?: () => void;
+  /**
+   * Where the small-side vectors QW wait from the end of the passes to finishSvd (a scratch file
+   * from src/node): written block by block as they are formed, so no f64 copy of them (181 MB on
+   * the Linux tree) is held beside the passes' executor memory or beside finishSvd's. Without
+   * one, below PARK_SMALL_FROM_BYTES, or where it gives null, they stay in memory.
+   */
+  spill?: OpenSpill;
+  /** Bytes of QW from which the spill takes them (default PARK_SMALL_FROM_BYTES; tests set it low). */
+  spillFromBytes?: number;
+  /** Entries' bytes of a block of Aᵀ's rows in finishSvd (default BIG_SIDE_ENTRY_BYTES; tests set it low). */
+  bigSideEntryBytes?: number;
 }
 
 export const DEFAULT_SVD_OPTIONS: Readonly<Omit<RandomizedSvdOptions, 'k'>> = Object.freeze({
@@ -97,7 +110,7 @@ export function randomizedSvd(
   const o = checkedOptions(m, options);
   const ex = o.executor ?? createWasmExecutor() ?? serialExecutor;
   const part = ex.scoped ? ex.scoped(() => smallSide(m, o, ex)) : smallSide(m, o, ex);
-  return finishSvd(m, part, { executor: ex, factors: o.factors });
+  return finishSvd(m, part, { executor: ex, factors: o.factors, bigSideEntryBytes: o.bigSideEntryBytes });
 }
 
 /** Executor memory for the big side's blocks of rows (our choice: small beside its B × k result). */
@@ -132,9 +145,12 @@ export interface SvdSmallSide {
   readonly s: Float64Array;
   /**
    * QW: S × k, row-major (S the smaller side of the matrix). finishSvd takes it (leaves an empty
-   * array here once it is in the executor's memory: 181 MB of f64 on the kernel tree).
+   * array here once it is in the executor's memory: 181 MB of f64 on the kernel tree). Empty
+   * while the numbers wait in `parked`.
    */
   small: Float64Array;
+  /** Where QW's S × k f64 numbers wait (row-major, from byte 0), when a spill took them. */
+  parked?: ByteSpill;
   /** The seeded stream, where the first part left it (the weak-column repair draws from it). */
   readonly random: RandomSource;
 }
@@ -143,20 +159,21 @@ export interface SvdSmallSide {
 export function finishSvd(
   m: CsrMatrix,
   part: SvdSmallSide,
-  options: Pick<RandomizedSvdOptions, 'executor' | 'factors'> & { factors: 'f32' },
+  options: Pick<RandomizedSvdOptions, 'executor' | 'factors' | 'bigSideEntryBytes'> & { factors: 'f32' },
 ): SvdResult<Float32Array>;
 export function finishSvd(
   m: CsrMatrix,
   part: SvdSmallSide,
-  options?: Pick<RandomizedSvdOptions, 'executor' | 'factors'>,
+  options?: Pick<RandomizedSvdOptions, 'executor' | 'factors' | 'bigSideEntryBytes'>,
 ): SvdResult<Float64Array | Float32Array>;
 export function finishSvd(
   m: CsrMatrix,
   part: SvdSmallSide,
-  options: Pick<RandomizedSvdOptions, 'executor' | 'factors'> = {},
+  options: Pick<RandomizedSvdOptions, 'executor' | 'factors' | 'bigSideEntryBytes'> = {},
 ): SvdResult<Float64Array | Float32Array> {
   const ex = options.executor ?? createWasmExecutor() ?? serialExecutor;
-  const run = (): SvdResult<Float64Array | Float32Array> => bigSide(m, part, options.factors ?? 'f64', ex);
+  const run = (): SvdResult<Float64Array | Float32Array> =>
+    bigSide(m, part, options.factors ?? 'f64', ex, options.bigSideEntryBytes ?? BIG_SIDE_ENTRY_BYTES);
   return ex.scoped ? ex.scoped(run) : run();
 }
 
@@ -261,45 +278,97 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   step();
   const pairs = topEigenpairs(g, l, k);
   const wt = transposeScaled(pairs.w, l, k);
-  if (w === l || z.length >= S * k) {
-    const small = w === l ? yAll.subarray(0, S * k) : z.subarray(0, S * k);
-    ex.timesSmall(q, S, l, wt, k, false, small);
-    return { k, s: pairs.s, small: Float64Array.from(small), random };
+  const spill = S * k * 8 >= (o.spillFromBytes ?? PARK_SMALL_FROM_BYTES) ? (o.spill?.() ?? null) : null;
+  try {
+    if (w === l || z.length >= S * k) {
+      const small = w === l ? yAll.subarray(0, S * k) : z.subarray(0, S * k);
+      ex.timesSmall(q, S, l, wt, k, false, small);
+      if (!spill) return { k, s: pairs.s, small: Float64Array.from(small), random };
+      spillWrite(spill, small, 0);
+      return { k, s: pairs.s, small: new Float64Array(0), parked: spill, random };
+    }
+    // QW block of rows by block of rows through Z's memory, straight into the result (or the
+    // spill): an S × k block of executor memory (181 MB on the Linux tree) would stay for the
+    // rest of the build. Each row of QW is its row of Q times W, whatever the blocks (starts
+    // are multiples of 4).
+    const small = new Float64Array(spill ? 0 : S * k);
+    const rowsPer = Math.max(4, Math.floor(z.length / k / 4) * 4);
+    const scratch = z.length >= rowsPer * k ? z : ex.float64(rowsPer * k);
+    for (let r0 = 0; r0 < S; r0 += rowsPer) {
+      const r1 = Math.min(S, r0 + rowsPer);
+      const out = scratch.subarray(0, (r1 - r0) * k);
+      ex.timesSmall(q.subarray(r0 * l, r1 * l), r1 - r0, l, wt, k, false, out);
+      if (spill) spillWrite(spill, out, r0 * k * 8);
+      else small.set(out, r0 * k);
+    }
+    return { k, s: pairs.s, small, parked: spill ?? undefined, random };
+  } catch (err) {
+    spill?.close();
+    throw err;
   }
-  // QW block of rows by block of rows through Z's memory, straight into the result: an S × k
-  // block of executor memory (181 MB on the Linux tree) would stay for the rest of the build.
-  // Each row of QW is its row of Q times W, whatever the blocks (starts are multiples of 4).
-  const small = new Float64Array(S * k);
-  const rowsPer = Math.max(4, Math.floor(z.length / k / 4) * 4);
-  const scratch = z.length >= rowsPer * k ? z : ex.float64(rowsPer * k);
-  for (let r0 = 0; r0 < S; r0 += rowsPer) {
-    const r1 = Math.min(S, r0 + rowsPer);
-    const out = scratch.subarray(0, (r1 - r0) * k);
-    ex.timesSmall(q.subarray(r0 * l, r1 * l), r1 - r0, l, wt, k, false, out);
-    small.set(out, r0 * k);
-  }
-  return { k, s: pairs.s, small, random };
+}
+
+/** Park QW in a spill from this many bytes on (as the weighted matrix's entries: parkedMatrix.ts). */
+export const PARK_SMALL_FROM_BYTES = PARK_MATRIX_FROM_BYTES;
+
+/** Bytes per spill read or write call (below the 2 GB a single call may move). */
+const SPILL_RUN_BYTES = 256 * 1024 * 1024;
+
+function spillWrite(spill: ByteSpill, a: Float64Array, position: number): void {
+  const bytes = new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
+  for (let from = 0; from < bytes.length; from += SPILL_RUN_BYTES)
+    spill.write(bytes.subarray(from, Math.min(bytes.length, from + SPILL_RUN_BYTES)), position + from);
+}
+
+function spillRead(spill: ByteSpill, into: Float64Array): void {
+  const bytes = new Uint8Array(into.buffer, into.byteOffset, into.byteLength);
+  for (let from = 0; from < bytes.length; from += SPILL_RUN_BYTES)
+    spill.read(bytes.subarray(from, Math.min(bytes.length, from + SPILL_RUN_BYTES)), from);
+}
+
+/** Gives the spill of a small side back without reading it (a failed or cancelled build). */
+export function dropSmallSide(part: SvdSmallSide): void {
+  part.parked?.close();
+  part.parked = undefined;
 }
 
 /**
  * Big-side vectors Aᵀ(QW)Σ⁻¹, block of rows by block of rows, straight into the result type, then
- * the weak-column repair and the sign fix. Each row of the big side is one sparse row times QW,
- * whatever the blocks, so the bits do not depend on the scratch's size.
+ * the weak-column repair and the sign fix. Aᵀ goes to the executor's memory a block of its rows
+ * at a time (about BIG_SIDE_ENTRY_BYTES of entries, stored as f32 as in the first part), not as
+ * one copy (117 MB on the Linux tree). Each row of the big side is one sparse row times QW,
+ * whatever the blocks, so the bits depend on neither the blocks nor the scratch's size.
  */
-function bigSide(m: CsrMatrix, part: SvdSmallSide, factors: 'f64' | 'f32', ex: MatrixExecutor): SvdResult<Float64Array | Float32Array> {
+function bigSide(
+  m: CsrMatrix,
+  part: SvdSmallSide,
+  factors: 'f64' | 'f32',
+  ex: MatrixExecutor,
+  entryBytes: number,
+): SvdResult<Float64Array | Float32Array> {
   const { k, s, random } = part;
   const rowsSmall = m.rows <= m.cols;
-  // Aᵀ (big side × small side), stored entries as f32 as in the first part.
-  const at = rowsSmall ? transposeCsr(m, ex, 'f32') : copyCsr(m, ex, 'f32');
-  const S = at.cols;
-  const B = at.rows;
+  const S = rowsSmall ? m.rows : m.cols;
+  const B = rowsSmall ? m.cols : m.rows;
   const small = ex.float64(S * k);
-  small.set(part.small);
+  try {
+    if (part.parked) spillRead(part.parked, small);
+    else small.set(part.small);
+  } finally {
+    dropSmallSide(part);
+  }
   part.small = new Float64Array(0);
   const out = factors === 'f32' ? Float32Array : Float64Array;
   const big = new out(B * k);
   const scratch = ex.float64(Math.min(B, Math.max(1, Math.floor(BIG_SIDE_SCRATCH_BYTES / (8 * k)))) * k);
-  bigSideInBlocks(ex, at, small, k, s, big, scratch);
+  const rows = bigSideRows(m, rowsSmall, entryBytes / 8);
+  for (let r0 = 0; r0 < B;) {
+    const r1 = rows.end(r0);
+    const run = (): void => bigSideInBlocks(ex, rows.block(r0, r1, ex), small, k, s, big.subarray(r0 * k, r1 * k), scratch);
+    if (ex.scoped) ex.scoped(run);
+    else run();
+    r0 = r1;
+  }
   repairWeakColumns(big, B, k, s, random);
   // Sign fix on the column factor (decided on the values returned, row by row).
   const smallOut = out.from(small);
@@ -307,6 +376,63 @@ function bigSide(m: CsrMatrix, part: SvdSmallSide, factors: 'f64' | 'f32', ex: M
   const v = rowsSmall ? big : smallOut;
   flipSigns({ rows: m.rows, cols: k, data: u }, { rows: m.cols, cols: k, data: v });
   return { rows: m.rows, cols: m.cols, k, u, s, v };
+}
+
+/**
+ * Entries of Aᵀ's blocks of rows (our choice: 16 MB of i32 indices and f32 values, some 2 M
+ * entries, a few blocks on the Linux tree's 14.6 M).
+ */
+export const BIG_SIDE_ENTRY_BYTES = 16 * 1024 * 1024;
+
+/**
+ * Blocks of rows of Aᵀ (A the matrix with the smaller side as rows), each as a CSR matrix in the
+ * executor's memory with f32 values, rows in order: end(r0) is where the block from r0 ends (at
+ * least one row, about `entries` stored entries), block(r0, r1) makes it. When m's rows are the
+ * smaller side, Aᵀ is m's transpose: block j0…j1 takes the entries of columns j0…j1 − 1 of
+ * every row of m in row order (the order of transposeCsr), each row's cursor moving on from
+ * block to block (blocks must come in order, each once).
+ */
+function bigSideRows(
+  m: CsrMatrix,
+  rowsSmall: boolean,
+  entries: number,
+): { end(r0: number): number; block(r0: number, r1: number, ex: MatrixExecutor): CsrMatrix } {
+  const B = rowsSmall ? m.cols : m.rows;
+  let count: Int32Array;
+  if (rowsSmall) {
+    count = new Int32Array(B);
+    const nnz = m.indptr[m.rows];
+    for (let p = 0; p < nnz; p++) count[m.indices[p]]++;
+  } else count = Int32Array.from({ length: B }, (_, i) => m.indptr[i + 1] - m.indptr[i]);
+  const cursor = rowsSmall ? m.indptr.slice(0, m.rows) : new Int32Array(0);
+  return {
+    end(r0: number): number {
+      let r1 = r0 + 1;
+      for (let n = count[r0]; r1 < B && n + count[r1] <= entries; r1++) n += count[r1];
+      return r1;
+    },
+    block(r0: number, r1: number, ex: MatrixExecutor): CsrMatrix {
+      if (!rowsSmall) return copyCsr(csrRows(m, r0, r1), ex, 'f32');
+      const rows = r1 - r0;
+      const indptr = ex.int32(rows + 1);
+      for (let j = 0; j < rows; j++) indptr[j + 1] = indptr[j] + count[r0 + j];
+      const nnz = indptr[rows];
+      const indices = ex.int32(nnz);
+      const values = ex.float32(nnz);
+      const next = indptr.slice(0, rows);
+      for (let i = 0; i < m.rows; i++) {
+        const e = m.indptr[i + 1];
+        let p = cursor[i];
+        for (; p < e && m.indices[p] < r1; p++) {
+          const q = next[m.indices[p] - r0]++;
+          indices[q] = i;
+          values[q] = m.values[p];
+        }
+        cursor[i] = p;
+      }
+      return { rows, cols: m.rows, indptr, indices, values };
+    },
+  };
 }
 
 /**

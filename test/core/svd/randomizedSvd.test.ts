@@ -5,11 +5,12 @@ import { join } from 'node:path';
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
 import { coordinateChunks } from '../../../src/core/matrix/matrixMarket.js';
-import { csrFromDense } from '../../../src/core/matrix/sparse.js';
+import { csrFromDense, transposeCsr } from '../../../src/core/matrix/sparse.js';
 import { serialExecutor } from '../../../src/core/matrix/executor.js';
 import { createRandom } from '../../../src/core/random.js';
 import {
   bigSideBlockWidth,
+  dropSmallSide,
   finishSvd,
   randomizedSvd,
   randomizedSvdSmallSide,
@@ -21,6 +22,7 @@ import { tokenize } from '../../../src/core/text/tokenize.js';
 import { pruneVocabulary } from '../../../src/core/weighting/prune.js';
 import { globalWeights } from '../../../src/core/weighting/termWeighting.js';
 import { fixturePath, loadCollection, referencePython } from '../../helpers/shared.js';
+import { memorySpill } from '../../helpers/memorySpill.js';
 
 function maxOrthoError(a: Float64Array, rows: number, k: number): number {
   let worst = 0;
@@ -240,6 +242,47 @@ describe('randomizedSvd', () => {
       expect(Buffer.from(split.u.buffer).equals(Buffer.from(whole.u.buffer))).toBe(true);
       expect(Buffer.from(split.v.buffer).equals(Buffer.from(whole.v.buffer))).toBe(true);
     }
+  });
+
+  it('gives the same bits with QW parked in a spill and Aᵀ formed a few rows at a time (the whole run is checked against ml-matrix and ARPACK above and below)', () => {
+    const vocab = new Vocabulary();
+    const docs = cran.docs.slice(0, 150).map((d) => countTerms(tokenize(d.text), vocab, true));
+    const pruned = pruneVocabulary(docs, vocab.size);
+    const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
+    const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
+    const options = { k: 15, powerIterations: 5, factors: 'f32' as const };
+    // Both orientations (documents the smaller side, then terms), QW formed in one piece and
+    // block by block (a small column budget), blocks of Aᵀ of about 37 entries.
+    for (const m of [matrix, transposeCsr(matrix)]) {
+      for (const bigBlockBytes of [undefined, 8 * Math.max(m.rows, m.cols) * 4]) {
+        const whole = randomizedSvd(m, { ...options, bigBlockBytes });
+        for (const executor of [undefined, serialExecutor]) {
+          const spill = memorySpill();
+          const split = randomizedSvd(m, {
+            ...options,
+            bigBlockBytes,
+            executor,
+            spill: spill.open,
+            spillFromBytes: 0,
+            bigSideEntryBytes: 8 * 37,
+          });
+          expect(Array.from(split.s)).toEqual(Array.from(whole.s));
+          expect(Buffer.from(split.u.buffer).equals(Buffer.from(whole.u.buffer))).toBe(true);
+          expect(Buffer.from(split.v.buffer).equals(Buffer.from(whole.v.buffer))).toBe(true);
+          // QW went to the spill and the spill was given back.
+          expect([spill.opened(), spill.closes()]).toEqual([1, 1]);
+        }
+      }
+    }
+    // Below the threshold QW stays in memory; a small side that is never finished gives its spill back.
+    const kept = memorySpill();
+    randomizedSvd(matrix, { ...options, spill: kept.open });
+    expect(kept.opened()).toBe(0);
+    const spill = memorySpill();
+    const part = randomizedSvdSmallSide(matrix, { ...options, spill: spill.open, spillFromBytes: 0 });
+    expect(part.small.length).toBe(0);
+    dropSmallSide(part);
+    expect([spill.opened(), spill.closes()]).toEqual([1, 1]);
   });
 
   it('splits l into the fewest nearly equal column blocks that fit the budget', () => {

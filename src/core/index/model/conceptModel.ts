@@ -6,10 +6,10 @@
  */
 import { CancelledError, EmptyCorpusError } from '../../errors.js';
 import { serialExecutor, type MatrixExecutor } from '../../matrix/executor.js';
-import { copyCsr, type CsrMatrix } from '../../matrix/sparse.js';
+import { copyCsr, csrRows, type CsrMatrix } from '../../matrix/sparse.js';
 import { createWasmExecutor } from '../../matrix/wasm/wasmExecutor.js';
 import { chooseK, type ChosenK } from '../../svd/chooseK.js';
-import { finishSvd, randomizedSvdSmallSide, type SvdSmallSide } from '../../svd/randomizedSvd.js';
+import { dropSmallSide, finishSvd, randomizedSvdSmallSide, type SvdResult, type SvdSmallSide } from '../../svd/randomizedSvd.js';
 import { pruneVocabulary } from '../../weighting/prune.js';
 import { globalWeights, weightDocument, type WeightingScheme } from '../../weighting/termWeighting.js';
 import type { PortableModel } from '../persistence/conceptFile.js';
@@ -76,6 +76,15 @@ export interface BuildProgress {
    * them (a scratch file from src/node; parkedMatrix.ts). Without one, or where it gives null, they stay.
    */
   spill?: OpenSpill;
+  /**
+   * Called once the weighted matrix's entries are in the spill, before the SVD's first pass: their
+   * arrays are garbage from then on, and nothing the passes do brings a collection about (they
+   * allocate in the executor's memory), so a caller may collect them here, before the passes'
+   * blocks come on top (on the Linux tree they stayed through the first pass: 175 MB).
+   */
+  onParked?: () => void;
+  /** Park the weighted matrix's entries from this many bytes on (default PARK_MATRIX_FROM_BYTES; tests set it low). */
+  parkFromBytes?: number;
 }
 
 export function buildConceptModel(
@@ -129,11 +138,18 @@ function buildModelAndMatrix(
     dropParkedMatrix(matrix);
     throw err;
   }
-  // The entries come back from the spill (when they were parked) for the big side and the projection.
-  unparkMatrix(matrix);
-  // The model stores f32 term vectors: rounding on the way out of the executor's memory saves
-  // the f64 copy at the build's memory peak.
-  const svd = finishSvd(matrix, part, { executor: progress.freshExecutor ? progress.freshExecutor() : progress.executor, factors: 'f32' });
+  let svd: SvdResult<Float32Array>;
+  try {
+    // The passes' executor goes first (with the memory it grew to), then the entries come back
+    // from the spill (when they were parked) for the big side and the projection.
+    const executor = progress.freshExecutor ? progress.freshExecutor() : progress.executor;
+    unparkMatrix(matrix);
+    // The model stores f32 term vectors: rounding on the way out of the executor's memory saves
+    // the f64 copy at the build's memory peak.
+    svd = finishSvd(matrix, part, { executor, factors: 'f32' });
+  } finally {
+    dropSmallSide(part);
+  }
   const k = svd.k;
   const termVectors = svd.v;
   const axisScale = Float64Array.from(svd.s, (s) => (s > 0 ? Math.pow(s, settings.conceptScaling - 1) : 0));
@@ -177,7 +193,11 @@ function svdPasses(matrix: CsrMatrix, k: number, settings: IndexSettings, progre
     signal: progress.signal,
     executor: progress.executor,
     onProgress: (done, total) => progress.onProgress?.('svd', done, total),
-    onCopied: progress.spill ? () => parkMatrix(matrix, progress.spill!) : undefined,
+    onCopied: progress.spill
+      ? () => void (parkMatrix(matrix, progress.spill!, progress.parkFromBytes) && progress.onParked?.())
+      : undefined,
+    // QW waits in a scratch file from the end of the passes to the big side.
+    spill: progress.spill,
   });
 }
 
@@ -185,44 +205,61 @@ function svdPasses(matrix: CsrMatrix, k: number, settings: IndexSettings, progre
  * projectTerms(model, row).vector for every row of a weighted matrix built with the model's
  * weights: U_kᵀd̂ by the executor's sequential sparse product (each row adds its terms one at a
  * time, in order, as projectTerms does, so the bits agree), then the same axis scaling and
- * normalisation. The term vectors go to the executor in blocks of columns of at most
- * blockBytes as f64 (each output column is the same sum whatever the block, so the bits do not
- * change), not as one f64 copy of all of them (terms × k × 8 bytes: 83 MB on 51,741 terms at
- * k = 200, 160 MB on 100,000).
+ * normalisation, written straight into the f32 result. The rows go to the executor in blocks of
+ * about rowBytes of f64 sums (each row's own CSR entries copied beside them as f64), the term
+ * vectors in blocks of columns of at most blockBytes as f64: each output number is the same sum
+ * whatever the blocks, so the bits do not change. Neither an f64 copy of the whole matrix
+ * (175 MB on the Linux tree's 14.6 M entries) nor all n × k f64 sums (181 MB at 78,301 files and
+ * k = 289) is ever held, nor one f64 copy of all term vectors (terms × k × 8 bytes: 231 MB on
+ * 100,000 terms at k = 289).
  */
 export function projectMatrixRows(
   model: ConceptModel,
   matrix: CsrMatrix,
   executor?: MatrixExecutor,
   blockBytes = PROJECTION_BLOCK_BYTES,
+  rowBytes = PROJECTION_ROW_BYTES,
 ): Float32Array {
   const ex = executor ?? createWasmExecutor() ?? serialExecutor;
-  const run = (): Float32Array => {
-    const k = model.k;
-    const n = matrix.rows;
-    const terms = matrix.cols;
-    const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
-    const width = Math.max(1, Math.min(k, Math.floor(blockBytes / (8 * Math.max(1, terms)))));
-    const tv = ex.float64(terms * width);
-    const part = ex.float64(n * width);
-    // In the executor's memory: after an SVD, memory it has already grown to and no longer uses.
-    const acc = ex.float64(n * k);
-    blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
-    const out = new Float32Array(n * k);
-    const row = new Float64Array(k);
-    for (let i = 0; i < n; i++) {
-      let ss = 0;
-      for (let c = 0; c < k; c++) {
-        row[c] = acc[i * k + c] * model.axisScale[c];
-        ss += row[c] * row[c];
+  const k = model.k;
+  const n = matrix.rows;
+  const terms = matrix.cols;
+  const out = new Float32Array(n * k);
+  const width = Math.max(1, Math.min(k, Math.floor(blockBytes / (8 * Math.max(1, terms)))));
+  const rowsPer = Math.max(1, Math.floor(rowBytes / (8 * Math.max(1, k))));
+  const row = new Float64Array(k);
+  for (let r0 = 0; r0 < n; r0 += rowsPer) {
+    const r1 = Math.min(n, r0 + rowsPer);
+    const run = (): void => {
+      const block = csrRows(matrix, r0, r1);
+      // In the executor's memory: after an SVD, memory it has already grown to and no longer uses.
+      const m = ex === serialExecutor ? block : copyCsr(block, ex, 'f64');
+      const tv = ex.float64(terms * width);
+      const part = ex.float64((r1 - r0) * width);
+      const acc = ex.float64((r1 - r0) * k);
+      blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
+      for (let i = 0; i < r1 - r0; i++) {
+        let ss = 0;
+        for (let c = 0; c < k; c++) {
+          row[c] = acc[i * k + c] * model.axisScale[c];
+          ss += row[c] * row[c];
+        }
+        const norm = Math.sqrt(ss);
+        const o = (r0 + i) * k;
+        if (norm > 0) for (let c = 0; c < k; c++) out[o + c] = row[c] / norm;
       }
-      const norm = Math.sqrt(ss);
-      if (norm > 0) for (let c = 0; c < k; c++) out[i * k + c] = row[c] / norm;
-    }
-    return out;
-  };
-  return ex.scoped ? ex.scoped(run) : run();
+    };
+    if (ex.scoped) ex.scoped(run);
+    else run();
+  }
+  return out;
 }
+
+/**
+ * Bytes of f64 sums of the files' projection held at once (our choice: a few blocks of rows on the
+ * Linux tree, so the term vectors are put into f64 blocks a few times over, not once per file).
+ */
+export const PROJECTION_ROW_BYTES = 32 * 1024 * 1024;
 
 /**
  * acc (m.rows × k) = m · termVectors (terms × k), the term vectors handed to the executor in

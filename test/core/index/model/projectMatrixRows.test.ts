@@ -9,7 +9,7 @@ import { loadCollection } from '../../../helpers/shared.js';
 const cisi = loadCollection('cisi');
 
 describe('projectMatrixRows', () => {
-  it('gives projectTerms bit for bit on every CISI document, with either executor, in one block of columns or several', () => {
+  it('gives projectTerms bit for bit on every CISI document, with either executor, in one block of columns or several, in one block of rows or several', () => {
     const builder = new IndexBuilder({ k: 40 });
     for (const d of cisi.docs.slice(0, 600)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = builder.build();
@@ -22,6 +22,9 @@ describe('projectMatrixRows', () => {
       projectMatrixRows(index.model, m, serialExecutor),
       projectMatrixRows(index.model, m, undefined, small),
       projectMatrixRows(index.model, m, serialExecutor, small),
+      // Blocks of 13 rows (600 = 46 × 13 + 2: a shorter last block).
+      projectMatrixRows(index.model, m, undefined, small, 8 * k * 13),
+      projectMatrixRows(index.model, m, serialExecutor, undefined, 8 * k * 13),
     ]) {
       docs.forEach((d, i) => {
         const want = projectTerms(index.model, d).vector;
