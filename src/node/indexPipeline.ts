@@ -208,7 +208,8 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     await p?.close();
   };
 
-  // The threads' section counts while they are parked in a scratch file (the SVD), and the built
+  // The threads' section counts while they are parked in a scratch file (the SVD and the sections
+  // fold, which reads them back a file at a time), and the built
   // index until it is returned: both give their scratch files back when the run fails.
   let parked: ParkedSections | null = null;
   // The files' raw counts, parked from the end of the weighting until the sections are folded.
@@ -387,11 +388,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       // parked section counts come back (not on top of the projection's memory).
       freshExecutor();
     }
-    if (parked) {
-      const p = parked;
-      parked = null;
-      p.unpark(countedSections);
-    }
+    // The parked section counts stay in their scratch file: the fold reads them a file at a time
+    // (they never come back whole), and the file goes once the fold is done.
+    const countedTerms = parked?.lines(countedSections);
     // ---- sections: each file cut into sections, each folded into the new model on the build's
     // threads. Counts the reading threads made are over the builder's vocabulary: usable as they
     // are when the index kept it (a build from scratch without a shared model); other files are
@@ -403,6 +402,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         signal: aborted,
         executor,
         counted: index.vocab === vocab ? countedSections : undefined,
+        countedTerms,
         onProgress: (done) => progress({ stage: 'sections', done, total: keyed.length }),
         spill: options.scratch,
         spillFromBytes: options.spillRowsFromBytes,
@@ -410,6 +410,8 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       countedSections.clear();
       lap('sections');
     }
+    (parked as ParkedSections | null)?.close();
+    parked = null;
     if (parkedCounts) {
       const p: ParkedCounts = parkedCounts;
       parkedCounts = null;
