@@ -116,8 +116,8 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     maxFileBytes: options.scan?.maxFileBytes ?? DEFAULT_SCAN_OPTIONS.maxFileBytes,
     previous,
     keepUnchanged: !options.force,
-    save: async (index) => {
-      saveProblem = await trySaveIndex(options.indexFile, index);
+    save: async (index, termLists) => {
+      saveProblem = await trySaveIndex(options.indexFile, index, termLists);
     },
     emptyMessage: `Nothing indexable in ${resolve(root)}: no text files remain after excludes.`,
     signal: options.signal,

@@ -41,6 +41,7 @@ import type { CountedSections } from '../core/sections/sectionVectors.js';
 import type { OpenSpill } from '../core/sections/types.js';
 import { ParkedSections } from './parkedSections.js';
 import { ParkedCounts } from './parkedCounts.js';
+import type { TermListSource } from '../core/index/persistence/serialize.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
@@ -108,8 +109,12 @@ export interface PipelineOptions {
    * model settings, no edits folded in since its build). @default false: always build.
    */
   readonly keepUnchanged?: boolean;
-  /** Saves the built index (not called for an unchanged one). */
-  readonly save?: (index: LsiIndex) => Promise<void>;
+  /**
+   * Saves the built index (not called for an unchanged one). termLists, when given, holds the
+   * files' raw counts while they are parked (their own arrays are empty until the save returns):
+   * pass it on to the save (persist.ts, saveIndex).
+   */
+  readonly save?: (index: LsiIndex, termLists?: TermListSource) => Promise<void>;
   /** Message of the EmptyCorpusError when no file has text. */
   readonly emptyMessage: string;
   readonly signal?: AbortSignal;
@@ -212,7 +217,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
   // fold, which reads them back a file at a time), and the built
   // index until it is returned: both give their scratch files back when the run fails.
   let parked: ParkedSections | null = null;
-  // The files' raw counts, parked from the end of the weighting until the sections are folded.
+  // The files' raw counts, parked from the end of the weighting until the index is saved.
   let parkedCounts: ParkedCounts | null = null;
   let built: LsiIndex | undefined;
   try {
@@ -412,20 +417,21 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     }
     (parked as ParkedSections | null)?.close();
     parked = null;
-    if (parkedCounts) {
-      const p: ParkedCounts = parkedCounts;
-      parkedCounts = null;
-      p.unpark();
-    }
     // The threads (and the shared memory of the SVD) are not needed to save.
     executor = undefined;
     await releasePool();
 
-    // ---- save
+    // ---- save: the parked raw counts are streamed from their scratch file, and come back into
+    // the files only once the index is written (the returned index holds them as before).
     if (options.save) {
       progress({ stage: 'save', done: 0, total: 1 });
-      await options.save(index);
+      await options.save(index, (parkedCounts as ParkedCounts | null)?.source());
       lap('save');
+    }
+    if (parkedCounts) {
+      const p: ParkedCounts = parkedCounts;
+      parkedCounts = null;
+      p.unpark();
     }
     built = undefined;
     return { ...counts, sectionsReadAgain, index, unchanged: false, seconds, cpuSeconds };

@@ -15,6 +15,7 @@
  */
 import type { DocTerms } from '../core/counting/termCounts.js';
 import type { ByteSpill, OpenSpill } from '../core/sections/types.js';
+import type { TermListSource } from '../core/index/persistence/serialize.js';
 
 /** Park from this many bytes of ids and counts on (below it the file costs more than it saves; a round number, not tuned). */
 export const PARK_COUNTS_FROM_BYTES = 64 * 1024 * 1024;
@@ -29,6 +30,9 @@ const NO_IDS = new Int32Array(0);
 const NO_COUNTS = new Float32Array(0);
 
 export class ParkedCounts {
+  /** True once the counts are back in their files (unpark) or given up (close). */
+  private back = false;
+
   private constructor(
     private readonly spill: ByteSpill,
     private readonly docs: readonly Swappable[],
@@ -94,6 +98,7 @@ export class ParkedCounts {
 
   /** Gives every parked file its counts back (views of two shared arrays) and closes the spill. */
   unpark(): void {
+    this.back = true;
     try {
       const termIds = new Int32Array(this.total);
       const counts = new Float32Array(this.total);
@@ -108,11 +113,60 @@ export class ParkedCounts {
     }
   }
 
+  /**
+   * The parked counts as a save reads them (serialize.ts, TermListSource): each file's ids, then
+   * each file's counts, read from the spill through one buffer of READ_AHEAD_BYTES (the save asks
+   * in slot order, which is the order they were parked in, so each read serves many files). A
+   * file's lists are views of that buffer, valid until the next call. Gives undefined for a file
+   * not parked here, and for all once the counts are back (unpark) or the spill is closed.
+   */
+  source(): TermListSource {
+    const slot = new Map<object, number>();
+    this.docs.forEach((d, i) => slot.set(d, i));
+    const end = 8 * this.total;
+    let buffer = new Uint8Array(Math.min(READ_AHEAD_BYTES, end));
+    let from = 0;
+    let held = 0;
+    // Bytes [at, at + bytes) of the spill, as a view of the buffer (refilled from `at` when they are not in it).
+    const window = (at: number, bytes: number): Uint8Array => {
+      if (at < from || at + bytes > from + held) {
+        if (bytes > buffer.length) buffer = new Uint8Array(bytes);
+        held = Math.min(buffer.length, end - at);
+        from = at;
+        this.spill.read(buffer.subarray(0, held), at);
+      }
+      return buffer.subarray(at - from, at - from + bytes);
+    };
+    const entry = (d: DocTerms): number | undefined => (this.back ? undefined : slot.get(d));
+    return {
+      length: (d) => {
+        const i = entry(d);
+        return i === undefined ? undefined : this.starts[i + 1] - this.starts[i];
+      },
+      ids: (d) => {
+        const i = entry(d);
+        if (i === undefined) return undefined;
+        const w = window(4 * this.starts[i], 4 * (this.starts[i + 1] - this.starts[i]));
+        return new Int32Array(w.buffer, w.byteOffset, w.length / 4);
+      },
+      counts: (d) => {
+        const i = entry(d);
+        if (i === undefined) return undefined;
+        const w = window(4 * (this.total + this.starts[i]), 4 * (this.starts[i + 1] - this.starts[i]));
+        return new Float32Array(w.buffer, w.byteOffset, w.length / 4);
+      },
+    };
+  }
+
   /** Gives the spill back without reading it (idempotent). */
   close(): void {
+    this.back = true;
     this.spill.close();
   }
 }
+
+/** Bytes the save's source reads at once (a few calls for the whole tree's 620 MB; not tuned). */
+const READ_AHEAD_BYTES = 4 * 1024 * 1024;
 
 /** Bytes per read call when the counts come back (below the 2 GB a single call may move). */
 const READ_RUN_BYTES = 256 * 1024 * 1024;

@@ -36,7 +36,7 @@ import {
 } from './indexFileCheck.js';
 import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import type { ConceptRows } from '../search/conceptRows.js';
-import { Vocabulary } from '../../counting/termCounts.js';
+import { Vocabulary, type DocTerms } from '../../counting/termCounts.js';
 import { LANGUAGES } from '../../text/languages.js';
 import { withLanguage } from '../../text/detectLanguage.js';
 import { StoredFileSections, type SectionRowReader } from '../../sections/sectionRows.js';
@@ -126,8 +126,29 @@ export interface IndexFilePlan {
 
 const ZEROS = new Uint8Array(8);
 
+/**
+ * Where files' raw counts are while they are kept out of memory (a build's scratch file: the
+ * node side's parkedCounts.ts), so that a save can stream them instead of having them read back
+ * whole first. For a DocTerms it does not hold, each method gives undefined and the file's own
+ * arrays are written. ids() and counts() are asked for file after file in slot order, all ids
+ * first, then all counts; what they return is read only until the next call (it may be a view of
+ * one reused buffer).
+ */
+export interface TermListSource {
+  /** The number of (id, count) entries of d while its own arrays are empty, else undefined. */
+  length(d: DocTerms): number | undefined;
+  ids(d: DocTerms): Int32Array | undefined;
+  counts(d: DocTerms): Float32Array | undefined;
+}
+
+/** What planIndexFile may be given beside the index. */
+export interface PlanOptions {
+  /** The files' counts held elsewhere (the file is the same bytes as with them in memory). */
+  readonly termLists?: TermListSource;
+}
+
 /** Lays out the file of an index (see IndexFilePlan; encodeIndex writes it into one buffer). */
-export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): IndexFilePlan {
+export function planIndexFile(index: LsiIndex, createdAt: Date = new Date(), options: PlanOptions = {}): IndexFilePlan {
   const live = index
     .slots()
     .map((s, i) => [s, i] as const)
@@ -136,7 +157,8 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
   const n = live.length;
   const all = index.vectors();
   const termIndptr = new Int32Array(n + 1);
-  live.forEach(([s], j) => (termIndptr[j + 1] = termIndptr[j] + s.terms.termIds.length));
+  const source = options.termLists;
+  live.forEach(([s], j) => (termIndptr[j + 1] = termIndptr[j] + (source?.length(s.terms) ?? s.terms.termIds.length)));
   const nnz = termIndptr[n];
   const m = index.model;
   const vocab = index.vocab.toBytes();
@@ -169,8 +191,13 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
       Uint8Array.from(live, ([s]) => LANGUAGES.indexOf(s.meta.language ?? 'en')),
     ),
     copied('termIndptr', termIndptr),
-    gathered('termIds', 'i32', nnz, () => live.map(([s]) => s.terms.termIds)),
-    gathered('termCounts', 'f32', nnz, () => live.map(([s]) => s.terms.counts)),
+    // Generators: a source's lists are valid only until the next is asked for.
+    gathered('termIds', 'i32', nnz, function* () {
+      for (const [s] of live) yield source?.ids(s.terms) ?? s.terms.termIds;
+    }),
+    gathered('termCounts', 'f32', nnz, function* () {
+      for (const [s] of live) yield source?.counts(s.terms) ?? s.terms.counts;
+    }),
     copied('keptIds', m.keptIds),
     copied('weights', m.weights),
     copied('termVectors', m.termVectors),
@@ -228,8 +255,8 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
 }
 
 /** Encodes an index into one buffer (a writer that can stream uses planIndexFile instead). */
-export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint8Array {
-  const plan = planIndexFile(index, createdAt);
+export function encodeIndex(index: LsiIndex, createdAt: Date = new Date(), options: PlanOptions = {}): Uint8Array {
+  const plan = planIndexFile(index, createdAt, options);
   const out = new Uint8Array(plan.start + plan.payloadBytes);
   let at = plan.start;
   for (const p of plan.pieces()) {
