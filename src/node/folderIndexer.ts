@@ -125,6 +125,8 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     threads: options.parallel ?? {},
     sections: options.sections,
     scratch,
+    // A command line process: after the save the raw counts come back only for a command that reads them.
+    countsOnUse: true,
   }).finally(async () => {
     if (madeFolder && !existsSync(options.indexFile)) await rmdir(folder).catch(() => undefined);
   });

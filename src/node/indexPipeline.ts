@@ -143,6 +143,13 @@ export interface PipelineOptions {
    * gives null, both stay in memory.
    */
   readonly scratch?: OpenSpill;
+  /**
+   * With save: the files' raw counts parked during the build stay in their scratch file after the
+   * save until something reads them (ParkedCounts.unparkOnUse; the first read brings all back), for
+   * a caller that often asks nothing more of the index (the command line). The scratch file then
+   * stays open as long as they are not read. @default false: back in memory before the index is returned
+   */
+  readonly countsOnUse?: boolean;
   /** Bytes of section rows from which they go to a scratch file. @default SPILL_ROWS_FROM_BYTES */
   readonly spillRowsFromBytes?: number;
   /** Bytes of section counts from which they are parked during the SVD. @default PARK_FROM_BYTES */
@@ -431,7 +438,8 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     if (parkedCounts) {
       const p: ParkedCounts = parkedCounts;
       parkedCounts = null;
-      p.unpark();
+      if (options.save && options.countsOnUse) p.unparkOnUse();
+      else p.unpark();
     }
     built = undefined;
     return { ...counts, sectionsReadAgain, index, unchanged: false, seconds, cpuSeconds };

@@ -32,6 +32,8 @@ const NO_COUNTS = new Float32Array(0);
 export class ParkedCounts {
   /** True once the counts are back in their files (unpark) or given up (close). */
   private back = false;
+  /** True once the parked files read their counts through accessors (unparkOnUse). */
+  private onUse = false;
 
   private constructor(
     private readonly spill: ByteSpill,
@@ -98,6 +100,7 @@ export class ParkedCounts {
 
   /** Gives every parked file its counts back (views of two shared arrays) and closes the spill. */
   unpark(): void {
+    if (this.back) return;
     this.back = true;
     try {
       const termIds = new Int32Array(this.total);
@@ -105,12 +108,52 @@ export class ParkedCounts {
       readInRuns(this.spill, new Uint8Array(termIds.buffer), 0);
       readInRuns(this.spill, new Uint8Array(counts.buffer), 4 * this.total);
       this.docs.forEach((d, i) => {
-        d.termIds = termIds.subarray(this.starts[i], this.starts[i + 1]);
-        d.counts = counts.subarray(this.starts[i], this.starts[i + 1]);
+        if (this.onUse) {
+          // Plain fields again in place of the accessors of unparkOnUse.
+          Object.defineProperty(d, 'termIds', {
+            value: termIds.subarray(this.starts[i], this.starts[i + 1]),
+            writable: true,
+            enumerable: true,
+            configurable: true,
+          });
+          Object.defineProperty(d, 'counts', {
+            value: counts.subarray(this.starts[i], this.starts[i + 1]),
+            writable: true,
+            enumerable: true,
+            configurable: true,
+          });
+        } else {
+          d.termIds = termIds.subarray(this.starts[i], this.starts[i + 1]);
+          d.counts = counts.subarray(this.starts[i], this.starts[i + 1]);
+        }
       });
     } finally {
       this.spill.close();
     }
+  }
+
+  /**
+   * Leaves the counts in the spill until they are used: the first read of any parked file's ids
+   * or counts reads them all back (unpark) and the reader gets them. For a caller that may never
+   * read them again (the command line: the index saved, often nothing asked of it after), so the
+   * counts never come back into memory; the spill stays open until then, or until close().
+   */
+  unparkOnUse(): void {
+    if (this.back) return;
+    this.onUse = true;
+    for (const d of this.docs)
+      for (const field of ['termIds', 'counts'] as const)
+        Object.defineProperty(d, field, {
+          enumerable: true,
+          configurable: true,
+          get: () => {
+            this.unpark();
+            const now = Object.getOwnPropertyDescriptor(d, field);
+            // Still an accessor: the spill could not be read (or was closed first).
+            if (now?.get) throw new Error('the parked term counts could not be read back');
+            return now?.value as Int32Array | Float32Array;
+          },
+        });
   }
 
   /**

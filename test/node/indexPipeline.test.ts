@@ -147,6 +147,7 @@ describe('runIndexPipeline', () => {
       scratch?: OpenSpill;
       save?: (index: LsiIndex, termLists?: TermListSource) => Promise<void>;
       cancelAt?: string;
+      countsOnUse?: boolean;
     }) => {
       let stop = false;
       return runIndexPipeline({
@@ -160,6 +161,7 @@ describe('runIndexPipeline', () => {
         spillRowsFromBytes: 0,
         parkCountsFromBytes: 0,
         save: opts.save,
+        countsOnUse: opts.countsOnUse,
         isCancelled: () => stop,
         onProgress: (p) => {
           if (p.stage === opts.cancelAt) stop = true;
@@ -200,6 +202,20 @@ describe('runIndexPipeline', () => {
     saving.index.sections.closeRows();
     expect(made.length).toBe(6);
     expect(closes).toBe(6);
+    // Counts back on use: after the save they stay in their file (still open) until read, then all come back.
+    const onUse = await build({
+      scratch,
+      countsOnUse: true,
+      save: async (index, termLists) => void encodeIndex(index, when, { termLists }),
+    });
+    expect(made.length).toBe(9);
+    expect(closes).toBe(7); // the section counts' file only
+    const firstPath = plain.index.paths()[0];
+    expect(Array.from(onUse.index.termsOf(firstPath).termIds)).toEqual(Array.from(plain.index.termsOf(firstPath).termIds));
+    expect(closes).toBe(8); // read back whole on that first use
+    expect(Buffer.from(encodeIndex(onUse.index, when)).equals(Buffer.from(streamed!))).toBe(true);
+    onUse.index.sections.closeRows();
+    expect(closes).toBe(9);
     // A save that fails: all three files given back before the error leaves.
     await expect(
       build({
@@ -209,13 +225,13 @@ describe('runIndexPipeline', () => {
         },
       }),
     ).rejects.toThrow('no room');
-    expect(made.length).toBe(9);
-    expect(closes).toBe(9);
+    expect(made.length).toBe(12);
+    expect(closes).toBe(12);
     // Cancelled during the SVD, both kinds of counts parked: their files given back (a cancelled fold closes
     // its own: test/core/sections/sectionVectors.test.ts).
     await expect(build({ scratch, cancelAt: 'svd' })).rejects.toBeInstanceOf(CancelledError);
-    expect(made.length).toBe(11);
-    expect(closes).toBe(11);
+    expect(made.length).toBe(14);
+    expect(closes).toBe(14);
     expect(readdirSync(dir)).toEqual([]);
     // No scratch file to be had: everything in memory, the same bytes.
     const inMemory = await build({ scratch: () => null });

@@ -98,6 +98,35 @@ describe('ParkedCounts', () => {
     expect(source.counts(docs[0])).toBeUndefined();
   });
 
+  it('leaves the counts in the scratch file until they are read, then gives every file its counts back at once', () => {
+    const docs = counted();
+    const before = copies(docs);
+    let closes = 0;
+    const beside = openSpillBeside(folder, 'test');
+    const parked = ParkedCounts.park(
+      docs,
+      () => {
+        const s = beside()!;
+        return { write: (b, at) => s.write(b, at), read: (into, at) => s.read(into, at), close: () => (closes++, s.close()) };
+      },
+      0,
+    )!;
+    parked.unparkOnUse();
+    expect(closes).toBe(0); // still parked
+    expect(docs[5].length).toBe(before[5].length); // the total is no count: no read
+    expect(closes).toBe(0);
+    expect([...docs[7].counts]).toEqual(before[7].counts);
+    expect(closes).toBe(1); // all read back at the first use
+    expect(copies(docs)).toEqual(before);
+    expect(Object.getOwnPropertyDescriptor(docs[7], 'termIds')?.get).toBeUndefined(); // plain fields again
+    // Closed before any use: a read is refused, not answered with empty counts.
+    const again = counted();
+    const p2 = ParkedCounts.park(again, openSpillBeside(folder, 'test'), 0)!;
+    p2.unparkOnUse();
+    p2.close();
+    expect(() => again[0].termIds).toThrow('could not be read back');
+  });
+
   it('parks nothing below the threshold or without a scratch file, and close() gives the file back', () => {
     const docs = counted();
     const before = copies(docs);
