@@ -1,6 +1,6 @@
 /**
- * Every file's raw term counts, parked in a scratch file from the end of the weighting to the
- * save: the build needs them to weight the matrix and the index needs them again (they are saved,
+ * Every file's raw term counts, parked in a scratch file from the end of the weighting through
+ * the save: the build needs them to weight the matrix and the index needs them again (they are saved,
  * and an index answers from them), but not the SVD, the files' projection or the sections fold in
  * between. On the Linux tree they are the largest thing resident then (78 M ids and counts of
  * 78,300 files, some 620 MB: measured with bench/buildStages.ts), and the SVD's blocks come on top.
@@ -9,6 +9,8 @@
  * their place (the same objects: the builder, the index's slots and whoever else holds them see
  * the counts come back); unpark() reads them back into two arrays shared by all files (views of
  * them, the same numbers as before) and closes the spill; close() alone, on a failure or a cancel.
+ * In between, source() gives the save each file's lists from the spill (it never needs them all
+ * in memory), and unparkOnUse() may stand in for unpark(): the counts come back on their first read.
  * Nothing may read the files' counts between the two (the pipeline does not park them when a
  * caller asked for them during the build, onCounted, nor the counts a file takes over from the
  * previous index, which remain that index's own while it answers and when the build fails).
