@@ -282,7 +282,14 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
   const files = live.map(([s]) => index.sections.get(s.meta.path));
   files.forEach((f, j) => (indptr[j + 1] = indptr[j] + (f?.starts.length ?? 0)));
   const total = indptr[live.length];
-  const titles = files.flatMap((f) => (f ? f.titles.map((t) => t.replace(/\0/g, ' ') || '…') : []));
+  // The titles as saved: no '\0' inside, none empty.
+  const savedTitle = (t: string): string => t.replace(/\0/g, ' ') || '…';
+  // Their UTF-8 bytes, '\0'-separated, are made in pieces as the writer goes (joined whole, the
+  // whole tree's 1.33 M titles were one string and one buffer at the save's start); the length
+  // first, from the titles themselves.
+  let titleBytes = 0;
+  for (const f of files) if (f) for (const t of f.titles) titleBytes += utf8Length(savedTitle(t)) + 1;
+  titleBytes = Math.max(0, titleBytes - 1);
   const lines = (f: NonNullable<(typeof files)[number]>): Int32Array => {
     const [starts, ends] = [f.starts, f.ends]; // once: a reopened file's are made on each access
     const out = new Int32Array(2 * starts.length);
@@ -303,7 +310,30 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
     gathered('sectionLines', 'i32', 2 * total, function* () {
       for (const f of files) if (f) yield lines(f);
     }),
-    copied('sectionTitles', encoder.encode(titles.join('\0'))),
+    {
+      name: 'sectionTitles',
+      kind: 'u8',
+      length: titleBytes,
+      pieces: function* () {
+        let batch: string[] = [];
+        let chars = 0;
+        let first = true;
+        const encoded = (): Uint8Array => {
+          const bytes = encoder.encode((first ? '' : '\0') + batch.join('\0'));
+          [first, batch, chars] = [false, [], 0];
+          return bytes;
+        };
+        for (const f of files)
+          if (f)
+            for (const t of f.titles) {
+              const title = savedTitle(t);
+              batch.push(title);
+              chars += title.length;
+              if (chars >= TITLE_PIECE_CHARS) yield encoded();
+            }
+        if (batch.length > 0) yield encoded();
+      },
+    },
     copied('listCentroids', saved?.centroids ?? new Float32Array(0)),
     copied('listGroups', saved?.groups ?? new Float32Array(0)),
     copied('listGroupStarts', saved?.groupStarts ?? new Int32Array(0)),
@@ -312,6 +342,24 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
     { name: 'sectionCodes', kind: 'u8', length: listed * k, pieces: () => saved?.codes() ?? [] },
     { name: 'sectionCodeParams', kind: 'f64', length: 3 * listed, pieces: () => saved?.params() ?? [] },
   ];
+}
+
+/** UTF-16 code units of titles encoded at a time by the save (a small piece; not tuned). */
+const TITLE_PIECE_CHARS = 1 << 16;
+
+/** Bytes TextEncoder makes of s (a lone surrogate becomes U+FFFD, 3 bytes, as it encodes it). */
+export function utf8Length(s: string): number {
+  let n = 0;
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c < 0x80) n += 1;
+    else if (c < 0x800) n += 2;
+    else if (c >= 0xd800 && c <= 0xdbff && i + 1 < s.length && (s.charCodeAt(i + 1) & 0xfc00) === 0xdc00) {
+      n += 4;
+      i++;
+    } else n += 3;
+  }
+  return n;
 }
 
 /**
