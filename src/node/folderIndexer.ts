@@ -116,8 +116,8 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     maxFileBytes: options.scan?.maxFileBytes ?? DEFAULT_SCAN_OPTIONS.maxFileBytes,
     previous,
     keepUnchanged: !options.force,
-    save: async (index) => {
-      saveProblem = await trySaveIndex(options.indexFile, index);
+    save: async (index, termLists) => {
+      saveProblem = await trySaveIndex(options.indexFile, index, termLists);
     },
     emptyMessage: `Nothing indexable in ${resolve(root)}: no text files remain after excludes.`,
     signal: options.signal,
@@ -125,6 +125,8 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     threads: options.parallel ?? {},
     sections: options.sections,
     scratch,
+    // A command line process: after the save the raw counts come back only for a command that reads them.
+    countsOnUse: true,
   }).finally(async () => {
     if (madeFolder && !existsSync(options.indexFile)) await rmdir(folder).catch(() => undefined);
   });

@@ -41,6 +41,7 @@ import type { CountedSections } from '../core/sections/sectionVectors.js';
 import type { OpenSpill } from '../core/sections/types.js';
 import { ParkedSections } from './parkedSections.js';
 import { ParkedCounts } from './parkedCounts.js';
+import type { TermListSource } from '../core/index/persistence/serialize.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
@@ -108,8 +109,12 @@ export interface PipelineOptions {
    * model settings, no edits folded in since its build). @default false: always build.
    */
   readonly keepUnchanged?: boolean;
-  /** Saves the built index (not called for an unchanged one). */
-  readonly save?: (index: LsiIndex) => Promise<void>;
+  /**
+   * Saves the built index (not called for an unchanged one). termLists, when given, holds the
+   * files' raw counts while they are parked (their own arrays are empty until the save returns):
+   * pass it on to the save (persist.ts, saveIndex).
+   */
+  readonly save?: (index: LsiIndex, termLists?: TermListSource) => Promise<void>;
   /** Message of the EmptyCorpusError when no file has text. */
   readonly emptyMessage: string;
   readonly signal?: AbortSignal;
@@ -138,6 +143,13 @@ export interface PipelineOptions {
    * gives null, both stay in memory.
    */
   readonly scratch?: OpenSpill;
+  /**
+   * With save: the files' raw counts parked during the build stay in their scratch file after the
+   * save until something reads them (ParkedCounts.unparkOnUse; the first read brings all back), for
+   * a caller that often asks nothing more of the index (the command line). The scratch file then
+   * stays open as long as they are not read. @default false: back in memory before the index is returned
+   */
+  readonly countsOnUse?: boolean;
   /** Bytes of section rows from which they go to a scratch file. @default SPILL_ROWS_FROM_BYTES */
   readonly spillRowsFromBytes?: number;
   /** Bytes of section counts from which they are parked during the SVD. @default PARK_FROM_BYTES */
@@ -208,10 +220,11 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     await p?.close();
   };
 
-  // The threads' section counts while they are parked in a scratch file (the SVD), and the built
+  // The threads' section counts while they are parked in a scratch file (the SVD and the sections
+  // fold, which reads them back a file at a time), and the built
   // index until it is returned: both give their scratch files back when the run fails.
   let parked: ParkedSections | null = null;
-  // The files' raw counts, parked from the end of the weighting until the sections are folded.
+  // The files' raw counts, parked from the end of the weighting until the index is saved.
   let parkedCounts: ParkedCounts | null = null;
   let built: LsiIndex | undefined;
   try {
@@ -386,11 +399,9 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       // parked section counts come back (not on top of the projection's memory).
       freshExecutor();
     }
-    if (parked) {
-      const p = parked;
-      parked = null;
-      p.unpark(countedSections);
-    }
+    // The parked section counts stay in their scratch file: the fold reads them a file at a time
+    // (they never come back whole), and the file goes once the fold is done.
+    const countedTerms = parked?.lines(countedSections);
     // ---- sections: each file cut into sections, each folded into the new model on the build's
     // threads. Counts the reading threads made are over the builder's vocabulary: usable as they
     // are when the index kept it (a build from scratch without a shared model); other files are
@@ -402,6 +413,7 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
         signal: aborted,
         executor,
         counted: index.vocab === vocab ? countedSections : undefined,
+        countedTerms,
         onProgress: (done) => progress({ stage: 'sections', done, total: keyed.length }),
         spill: options.scratch,
         spillFromBytes: options.spillRowsFromBytes,
@@ -409,22 +421,26 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       countedSections.clear();
       lap('sections');
     }
+    (parked as ParkedSections | null)?.close();
+    parked = null;
     // The threads (and the shared memory of the SVD) are not needed to save: they go, and their
-    // memory is collected, before the raw counts come back (not beneath them).
+    // memory is collected, before the save (and the raw counts it streams) comes on top.
     executor = undefined;
     await releasePool();
     collectGarbage();
+
+    // ---- save: the parked raw counts are streamed from their scratch file, and come back into
+    // the files only once the index is written (the returned index holds them as before).
+    if (options.save) {
+      progress({ stage: 'save', done: 0, total: 1 });
+      await options.save(index, (parkedCounts as ParkedCounts | null)?.source());
+      lap('save');
+    }
     if (parkedCounts) {
       const p: ParkedCounts = parkedCounts;
       parkedCounts = null;
-      p.unpark();
-    }
-
-    // ---- save
-    if (options.save) {
-      progress({ stage: 'save', done: 0, total: 1 });
-      await options.save(index);
-      lap('save');
+      if (options.save && options.countsOnUse) p.unparkOnUse();
+      else p.unpark();
     }
     built = undefined;
     return { ...counts, sectionsReadAgain, index, unchanged: false, seconds, cpuSeconds };

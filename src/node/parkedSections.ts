@@ -4,15 +4,20 @@
  * sections fold, and the SVD's blocks come on top of them. The ids and counts of each distinct
  * array (one pair per thread: the files' sections view them) go to the spill; lines, titles and
  * offsets stay. unpark() reads them back into fresh arrays and gives every file its sections
- * again, the same numbers, and closes the spill (close() alone, on a failure or a cancel).
+ * again, the same numbers, and closes the spill (close() alone, on a failure or a cancel);
+ * lines() gives the files their sections without the counts and a reader of each file's counts,
+ * which the sections fold calls file by file (the pipeline: the 400 MB never come back whole).
  */
-import type { CountedSections } from '../core/sections/sectionVectors.js';
+import type { CountedSections, SectionTerms } from '../core/sections/sectionVectors.js';
 import type { ByteSpill, OpenSpill } from '../core/sections/types.js';
 
 /** Park from this many bytes of ids and counts on (below it the file costs more than it saves; a round number, not tuned). */
 export const PARK_FROM_BYTES = 64 * 1024 * 1024;
 
 type Lines = Omit<CountedSections, 'termIds' | 'counts'>;
+
+const NO_IDS = new Int32Array(0);
+const NO_COUNTS = new Float32Array(0);
 
 export class ParkedSections {
   private constructor(
@@ -76,6 +81,38 @@ export class ParkedSections {
     } finally {
       this.spill.close();
     }
+  }
+
+  /**
+   * Gives every parked file its sections back in `into` without their counts (empty ids and
+   * counts: the fold reads them from the spill a file at a time, through the returned reader, so
+   * they are never all resident). The reader gives a file's ids and counts as views of one buffer
+   * reused from call to call (valid until the next call); the spill stays open until close().
+   */
+  lines(into: Map<string, CountedSections>): (key: string) => SectionTerms | undefined {
+    const byKey = new Map<string, { readonly offsets: Int32Array; readonly pack: number }>();
+    for (const f of this.files) {
+      into.set(f.key, { ...f.lines, termIds: NO_IDS, counts: NO_COUNTS });
+      byKey.set(f.key, { offsets: f.lines.offsets, pack: f.pack });
+    }
+    let ids = new Int32Array(1024);
+    let counts = new Float32Array(1024);
+    return (key) => {
+      const f = byKey.get(key);
+      if (!f) return undefined;
+      const first = f.offsets[0];
+      const n = f.offsets[f.offsets.length - 1] - first;
+      if (n > ids.length) {
+        ids = new Int32Array(Math.max(n, 2 * ids.length));
+        counts = new Float32Array(ids.length);
+      }
+      const p = this.packs[f.pack];
+      if (n > 0) {
+        this.spill.read(new Uint8Array(ids.buffer, 0, 4 * n), p.at + 4 * first);
+        this.spill.read(new Uint8Array(counts.buffer, 0, 4 * n), p.at + 4 * (p.length + first));
+      }
+      return { termIds: ids.subarray(0, n), counts: counts.subarray(0, n), first };
+    };
   }
 
   /** Gives the spill back without reading it (idempotent). */

@@ -37,6 +37,7 @@ import {
   termListsOf,
   termVectorsOf,
   vectorsOf,
+  type TermListSource,
 } from '../core/index/persistence/serialize.js';
 import { checkTermVectorsBlock, TermListCheck } from '../core/index/persistence/indexFileCheck.js';
 import { HeadFill } from './headFill.js';
@@ -230,12 +231,13 @@ export const SAVE_CHUNK_BYTES = 1 << 20;
  * Saves the index atomically, streaming it: the payload goes out piece by piece (views of the
  * index's arrays, small ones gathered into one SAVE_CHUNK_BYTES buffer) while its checksum is
  * computed, then the header goes in front. The file is never held whole in memory (the whole
- * buffer of encodeIndex was the build's peak). Returns the file's size.
+ * buffer of encodeIndex was the build's peak). Files' counts kept out of memory (a build's parked
+ * counts, termLists) are streamed from where they are. Returns the file's size.
  */
-export async function saveIndex(path: string, index: LsiIndex, chunkBytes = SAVE_CHUNK_BYTES): Promise<number> {
+export async function saveIndex(path: string, index: LsiIndex, chunkBytes = SAVE_CHUNK_BYTES, termLists?: TermListSource): Promise<number> {
   let size = 0;
   await writeAtomically(path, (fd) => {
-    const plan = planIndexFile(index);
+    const plan = planIndexFile(index, new Date(), { termLists });
     const sum = new Checksum32();
     const buf = new Uint8Array(Math.max(1, Math.min(chunkBytes, plan.payloadBytes)));
     let fill = 0;
@@ -273,9 +275,9 @@ export async function saveIndex(path: string, index: LsiIndex, chunkBytes = SAVE
 }
 
 /** Saves, and returns why it could not instead of throwing (undefined when saved). */
-export async function trySaveIndex(path: string, index: LsiIndex): Promise<string | undefined> {
+export async function trySaveIndex(path: string, index: LsiIndex, termLists?: TermListSource): Promise<string | undefined> {
   try {
-    await saveIndex(path, index);
+    await saveIndex(path, index, SAVE_CHUNK_BYTES, termLists);
     return undefined;
   } catch (err) {
     if (err instanceof SaveError) return err.message;

@@ -9,7 +9,7 @@
  * be read keeps no sections (its results fall back to the whole file). Given a spill, a large
  * fold writes its rows there (a scratch file beside the index) and the files read them back.
  */
-import { foldContextOf, foldCountedSections, type CountedSections } from '../core/sections/sectionVectors.js';
+import { foldContextOf, foldCountedSections, type CountedSections, type SectionTerms } from '../core/sections/sectionVectors.js';
 import { splitLines, splitSections } from '../core/sections/splitSections.js';
 import type { LsiIndex } from '../core/index/lsiIndex.js';
 import type { MatrixExecutor } from '../core/matrix/executor.js';
@@ -26,6 +26,11 @@ export interface SectionPassOptions {
   readonly onProgress?: (done: number) => void;
   /** Sections already counted by key, over the index's vocabulary ids (the tokenizing threads'). */
   readonly counted?: ReadonlyMap<string, CountedSections>;
+  /**
+   * The ids and counts of a counted file whose own arrays are left empty (parked in a scratch
+   * file: ParkedSections.lines), read as the fold comes to it; undefined: the file's own arrays.
+   */
+  readonly countedTerms?: (key: string) => SectionTerms | undefined;
   /** Runs the fold's sparse products (the build's threads). */
   readonly executor?: MatrixExecutor;
   /** Where a large fold's rows go (a scratch file beside the index; foldCountedSections, spill). */
@@ -48,6 +53,8 @@ export async function foldFileSections(
     if (c) ready.push({ key: f.key, sections: c });
     else toRead.push(f);
   }
+  // The counted files come first in ready, the files read here after them.
+  const countedFiles = ready.length;
   // Progress: files read here first, then the fold of all (counted ones count as done at once).
   const total = files.length;
   const base = foldContextOf(index);
@@ -69,6 +76,7 @@ export async function foldFileSections(
     }
   }
   options.check();
+  const countedTerms = options.countedTerms;
   const folded = foldCountedSections(
     index.model,
     ready.map((r) => r.sections),
@@ -77,6 +85,7 @@ export async function foldFileSections(
       signal: options.signal,
       spill: options.spill,
       spillFromBytes: options.spillFromBytes,
+      termsOf: countedTerms ? (i) => (i < countedFiles ? countedTerms(ready[i].key) : undefined) : undefined,
       onProgress: (done) => options.onProgress?.(toRead.length + Math.round((done * (total - toRead.length)) / Math.max(1, ready.length))),
     },
   );

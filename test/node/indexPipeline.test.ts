@@ -7,7 +7,7 @@ import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { resolveSettings } from '../../src/core/index/model/settings.js';
 import { chooseCounting, PARALLEL_MIN_FILES, runIndexPipeline, type SourceFile } from '../../src/node/indexPipeline.js';
 import { WorkerPool } from '../../src/node/parallel/workerPool.js';
-import { encodeIndex } from '../../src/core/index/persistence/serialize.js';
+import { encodeIndex, type TermListSource } from '../../src/core/index/persistence/serialize.js';
 import type { ByteSpill, OpenSpill } from '../../src/core/sections/types.js';
 import { openSpillBeside } from '../../src/node/sectionCodeFile.js';
 import { loadCollection } from '../helpers/shared.js';
@@ -143,7 +143,12 @@ describe('runIndexPipeline', () => {
       made.push(counted);
       return counted;
     };
-    const build = (opts: { scratch?: OpenSpill; save?: () => Promise<void>; cancelAt?: string }) => {
+    const build = (opts: {
+      scratch?: OpenSpill;
+      save?: (index: LsiIndex, termLists?: TermListSource) => Promise<void>;
+      cancelAt?: string;
+      countsOnUse?: boolean;
+    }) => {
       let stop = false;
       return runIndexPipeline({
         settings,
@@ -156,6 +161,7 @@ describe('runIndexPipeline', () => {
         spillRowsFromBytes: 0,
         parkCountsFromBytes: 0,
         save: opts.save,
+        countsOnUse: opts.countsOnUse,
         isCancelled: () => stop,
         onProgress: (p) => {
           if (p.stage === opts.cancelAt) stop = true;
@@ -176,6 +182,40 @@ describe('runIndexPipeline', () => {
     expect(Buffer.from(encodeIndex(spilled.index, when)).equals(Buffer.from(encodeIndex(plain.index, when)))).toBe(true);
     spilled.index.sections.closeRows();
     expect(closes).toBe(3);
+    // A save streams the parked raw counts from their file (the index's own arrays still empty
+    // then): the same bytes as from memory, and the returned index has every file's counts back.
+    let streamed: Uint8Array | undefined;
+    let emptyWhileSaved = 0;
+    const saving = await build({
+      scratch,
+      save: async (index, termLists) => {
+        expect(termLists).toBeDefined();
+        emptyWhileSaved = index.paths().filter((p) => index.termsOf(p).termIds.length === 0).length;
+        streamed = encodeIndex(index, when, { termLists });
+      },
+    });
+    expect(emptyWhileSaved).toBe(files.length);
+    expect(Buffer.from(streamed!).equals(Buffer.from(encodeIndex(plain.index, when)))).toBe(true);
+    for (const p of plain.index.paths())
+      expect(Array.from(saving.index.termsOf(p).counts)).toEqual(Array.from(plain.index.termsOf(p).counts));
+    expect(Buffer.from(encodeIndex(saving.index, when)).equals(Buffer.from(streamed!))).toBe(true);
+    saving.index.sections.closeRows();
+    expect(made.length).toBe(6);
+    expect(closes).toBe(6);
+    // Counts back on use: after the save they stay in their file (still open) until read, then all come back.
+    const onUse = await build({
+      scratch,
+      countsOnUse: true,
+      save: async (index, termLists) => void encodeIndex(index, when, { termLists }),
+    });
+    expect(made.length).toBe(9);
+    expect(closes).toBe(7); // the section counts' file only
+    const firstPath = plain.index.paths()[0];
+    expect(Array.from(onUse.index.termsOf(firstPath).termIds)).toEqual(Array.from(plain.index.termsOf(firstPath).termIds));
+    expect(closes).toBe(8); // read back whole on that first use
+    expect(Buffer.from(encodeIndex(onUse.index, when)).equals(Buffer.from(streamed!))).toBe(true);
+    onUse.index.sections.closeRows();
+    expect(closes).toBe(9);
     // A save that fails: all three files given back before the error leaves.
     await expect(
       build({
@@ -185,13 +225,13 @@ describe('runIndexPipeline', () => {
         },
       }),
     ).rejects.toThrow('no room');
-    expect(made.length).toBe(6);
-    expect(closes).toBe(6);
+    expect(made.length).toBe(12);
+    expect(closes).toBe(12);
     // Cancelled during the SVD, both kinds of counts parked: their files given back (a cancelled fold closes
     // its own: test/core/sections/sectionVectors.test.ts).
     await expect(build({ scratch, cancelAt: 'svd' })).rejects.toBeInstanceOf(CancelledError);
-    expect(made.length).toBe(8);
-    expect(closes).toBe(8);
+    expect(made.length).toBe(14);
+    expect(closes).toBe(14);
     expect(readdirSync(dir)).toEqual([]);
     // No scratch file to be had: everything in memory, the same bytes.
     const inMemory = await build({ scratch: () => null });

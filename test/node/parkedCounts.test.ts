@@ -1,7 +1,7 @@
 /**
  * The files' raw counts parked in a scratch file from the weighting to the save
  * (src/node/parkedCounts.ts): every file's ids and counts read back the same into the same
- * objects, emptied while parked, no name left in the folder, nothing parked below the threshold
+ * objects, emptied while parked, streamed to a save from the file (source), no name left in the folder, nothing parked below the threshold
  * or without a file, and the file given back by close(). Counts: CRAN abstracts
  * (test/fixtures/corpora/cran), tokenized and counted as the build does.
  */
@@ -55,6 +55,76 @@ describe('ParkedCounts', () => {
     expect(closes).toBe(1);
     expect(copies(docs)).toEqual(before);
     expect(before.reduce((n, d) => n + d.ids.length, 0)).toBeGreaterThan(1000);
+  });
+
+  it("gives a save every parked file's lists from the scratch file, in few reads, and nothing once they are back", () => {
+    const docs = counted();
+    const before = copies(docs);
+    let reads = 0;
+    const beside = openSpillBeside(folder, 'test');
+    const parked = ParkedCounts.park(
+      docs,
+      () => {
+        const s = beside()!;
+        return { write: (b, at) => s.write(b, at), read: (into, at) => (reads++, s.read(into, at)), close: () => s.close() };
+      },
+      0,
+    )!;
+    const source = parked.source();
+    const read = (order: number[]) => {
+      const got = docs.map(() => ({ ids: [] as number[], counts: [] as number[] }));
+      for (const i of order) got[i].ids = [...(source.ids(docs[i]) ?? [])];
+      for (const i of order) got[i].counts = [...(source.counts(docs[i]) ?? [])];
+      return got;
+    };
+    const parkedDocs = docs.map((_, i) => i).filter((i) => before[i].ids.length > 0);
+    // In the order a save asks (the order they were parked in): the same lists, the whole file in one read.
+    const inOrder = read(parkedDocs);
+    for (const i of parkedDocs) {
+      expect(source.length(docs[i])).toBe(before[i].ids.length);
+      expect(inOrder[i]).toEqual({ ids: before[i].ids, counts: before[i].counts });
+    }
+    expect(reads).toBe(1);
+    // Backwards: still the same lists.
+    const backwards = read([...parkedDocs].reverse());
+    for (const i of parkedDocs) expect(backwards[i]).toEqual({ ids: before[i].ids, counts: before[i].counts });
+    // A file not parked here (the empty one) is left to its own arrays.
+    expect(source.length(docs[docs.length - 1])).toBeUndefined();
+    expect(source.ids(docs[docs.length - 1])).toBeUndefined();
+    // Once the counts are back in their files, the source holds nothing.
+    parked.unpark();
+    expect(copies(docs)).toEqual(before);
+    expect(source.length(docs[0])).toBeUndefined();
+    expect(source.counts(docs[0])).toBeUndefined();
+  });
+
+  it('leaves the counts in the scratch file until they are read, then gives every file its counts back at once', () => {
+    const docs = counted();
+    const before = copies(docs);
+    let closes = 0;
+    const beside = openSpillBeside(folder, 'test');
+    const parked = ParkedCounts.park(
+      docs,
+      () => {
+        const s = beside()!;
+        return { write: (b, at) => s.write(b, at), read: (into, at) => s.read(into, at), close: () => (closes++, s.close()) };
+      },
+      0,
+    )!;
+    parked.unparkOnUse();
+    expect(closes).toBe(0); // still parked
+    expect(docs[5].length).toBe(before[5].length); // the total is no count: no read
+    expect(closes).toBe(0);
+    expect([...docs[7].counts]).toEqual(before[7].counts);
+    expect(closes).toBe(1); // all read back at the first use
+    expect(copies(docs)).toEqual(before);
+    expect(Object.getOwnPropertyDescriptor(docs[7], 'termIds')?.get).toBeUndefined(); // plain fields again
+    // Closed before any use: a read is refused, not answered with empty counts.
+    const again = counted();
+    const p2 = ParkedCounts.park(again, openSpillBeside(folder, 'test'), 0)!;
+    p2.unparkOnUse();
+    p2.close();
+    expect(() => again[0].termIds).toThrow('could not be read back');
   });
 
   it('parks nothing below the threshold or without a scratch file, and close() gives the file back', () => {

@@ -1,7 +1,7 @@
 /**
  * The threads' section counts parked in a scratch file during the SVD (src/node/parkedSections.ts):
  * every file's counts read back the same (ids and counts of two shared packs, as two threads give
- * them), no name left in the folder, nothing parked below the threshold or without a file, and
+ * them), whole or a file at a time (lines), no name left in the folder, nothing parked below the threshold or without a file, and
  * the file given back by close(). Counts: CRAN abstracts (test/fixtures/corpora/cran), cut and
  * counted as the sections stage does.
  */
@@ -65,6 +65,31 @@ describe('ParkedSections', () => {
     expect(packs.size).toBe(2); // still one pair a half, as the threads gave them
     // Read back once: the file is closed (a second read is refused).
     expect(() => parked.unpark(new Map())).toThrow();
+  });
+
+  it("gives the files their sections without the counts and reads each file's counts from the scratch file", () => {
+    const before = counted();
+    const map = new Map(before);
+    const parked = ParkedSections.park(map, openSpillBeside(folder), 0)!;
+    const read = parked.lines(map);
+    expect([...map.keys()]).toEqual([...before.keys()]);
+    for (const [key, want] of before) {
+      const got = map.get(key)!;
+      // Lines, titles and offsets as they were; no counts resident.
+      expect(got.titles).toEqual(want.titles);
+      expect(got.offsets).toBe(want.offsets);
+      expect(got.termIds.length + got.counts.length).toBe(0);
+      const [a, b] = [want.offsets[0], want.offsets[want.offsets.length - 1]];
+      const terms = read(key)!;
+      expect(terms.first).toBe(a);
+      expect(Array.from(terms.termIds)).toEqual(Array.from(want.termIds.subarray(a, b)));
+      expect(Array.from(terms.counts)).toEqual(Array.from(want.counts.subarray(a, b)));
+    }
+    expect(read('not parked')).toBeUndefined();
+    // The reader's file stays open until close(); then it reads no more.
+    parked.close();
+    expect(() => read(before.keys().next().value!)).toThrow();
+    expect(readdirSync(folder)).toEqual([]);
   });
 
   it('parks nothing below the threshold or without a scratch file, and close() gives the file back', () => {

@@ -92,6 +92,20 @@ export interface FoldManyOptions {
   readonly spill?: OpenSpill;
   /** Bytes of f32 rows from which they go to the spill. @default SPILL_ROWS_FROM_BYTES */
   readonly spillFromBytes?: number;
+  /**
+   * Gives file i's term ids and counts when the fold comes to it, for files whose own arrays are
+   * left empty (kept elsewhere, e.g. in a scratch file, so they are never resident all at once);
+   * undefined: the file's own arrays. Called at most once per file, in order; what it returns is read
+   * only until the next call (it may reuse one buffer).
+   */
+  readonly termsOf?: (file: number) => SectionTerms | undefined;
+}
+
+/** A file's section counts given by FoldManyOptions.termsOf: entry t of the file (absolute, as offsets) is at t − first. */
+export interface SectionTerms {
+  readonly termIds: Int32Array;
+  readonly counts: Float32Array;
+  readonly first: number;
 }
 
 /**
@@ -168,6 +182,11 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
     let vals = new Float64Array(1 << 16);
     let f = 0;
     let s = 0;
+    // The current file's ids and counts, and the offset their entry 0 stands for.
+    let loaded = -1;
+    let ids: Int32Array = new Int32Array(0);
+    let cnts: Float32Array = new Float32Array(0);
+    let shift = 0;
     for (;;) {
       let rows = 0;
       let p = 0;
@@ -178,8 +197,16 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
           s = 0;
           continue;
         }
-        const a = file.offsets[s];
-        const b = file.offsets[s + 1];
+        if (loaded !== f) {
+          loaded = f;
+          const given = options.termsOf?.(f);
+          ({ termIds: ids, counts: cnts } = given ?? file);
+          shift = given ? given.first : 0;
+          const end = file.offsets[file.starts.length] - shift;
+          if (ids.length < end || cnts.length < end) throw new Error('section counts missing (a bug)');
+        }
+        const a = file.offsets[s] - shift;
+        const b = file.offsets[s + 1] - shift;
         if (p + b - a > indices.length) {
           const size = Math.max(2 * indices.length, p + b - a);
           const grownIndices = new Int32Array(size);
@@ -194,10 +221,10 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
         const first = p;
         let ss = 0;
         for (let t = a; t < b; t++) {
-          const id = file.termIds[t];
+          const id = ids[t];
           const c = id < columnOf.length ? columnOf[id] : -1;
           if (c < 0) continue;
-          const w = localWeight(file.counts[t], scheme) * weights[c];
+          const w = localWeight(cnts[t], scheme) * weights[c];
           if (w === 0) continue;
           indices[p] = c;
           vals[p++] = w;

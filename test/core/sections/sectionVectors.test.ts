@@ -133,6 +133,31 @@ describe('section vectors', () => {
     expect(byRun[5]).toEqual(byRun[0]);
   });
 
+  it('reads the counts of files whose own arrays are empty from termsOf, a file at a time: the same bits', () => {
+    const index = buildWithSections();
+    const counted = countedOf(index);
+    const inMemory = foldCountedSections(index.model, counted, { executor: serialExecutor, chunkSections: 37 });
+    // Every other file's counts kept elsewhere (here: the shared arrays, handed over as a copy of
+    // the file's own stretch, in one buffer reused from file to file).
+    const empty = counted.map((c, i) => (i % 2 === 0 ? { ...c, termIds: new Int32Array(0), counts: new Float32Array(0) } : c));
+    const buffer = { ids: new Int32Array(1 << 16), counts: new Float32Array(1 << 16) };
+    const asked: number[] = [];
+    const termsOf = (i: number) => {
+      asked.push(i);
+      if (i % 2 !== 0) return undefined;
+      const c = counted[i];
+      const [a, b] = [c.offsets[0], c.offsets[c.offsets.length - 1]];
+      buffer.ids.set(c.termIds.subarray(a, b));
+      buffer.counts.set(c.counts.subarray(a, b));
+      return { termIds: buffer.ids.subarray(0, b - a), counts: buffer.counts.subarray(0, b - a), first: a };
+    };
+    const read = foldCountedSections(index.model, empty, { executor: serialExecutor, chunkSections: 37, termsOf });
+    expect(asked).toEqual(counted.map((_, i) => i)); // once a file, in order
+    expect(read.map((f) => f.vectors)).toEqual(inMemory.map((f) => f.vectors));
+    // Empty arrays and nothing to read them from: refused, not folded as empty sections.
+    expect(() => foldCountedSections(index.model, empty, { executor: serialExecutor })).toThrow('section counts missing');
+  });
+
   it('writes the rows to a spill from the threshold on: the same bits, read back as stored rows; the spill given back on a cancel', () => {
     const index = buildWithSections();
     const counted = countedOf(index);

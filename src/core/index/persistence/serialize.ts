@@ -36,7 +36,7 @@ import {
 } from './indexFileCheck.js';
 import { LsiIndex, type DocSlot } from '../lsiIndex.js';
 import type { ConceptRows } from '../search/conceptRows.js';
-import { Vocabulary } from '../../counting/termCounts.js';
+import { Vocabulary, type DocTerms } from '../../counting/termCounts.js';
 import { LANGUAGES } from '../../text/languages.js';
 import { withLanguage } from '../../text/detectLanguage.js';
 import { StoredFileSections, type SectionRowReader } from '../../sections/sectionRows.js';
@@ -126,8 +126,29 @@ export interface IndexFilePlan {
 
 const ZEROS = new Uint8Array(8);
 
+/**
+ * Where files' raw counts are while they are kept out of memory (a build's scratch file: the
+ * node side's parkedCounts.ts), so that a save can stream them instead of having them read back
+ * whole first. For a DocTerms it does not hold, each method gives undefined and the file's own
+ * arrays are written. ids() and counts() are asked for file after file in slot order, all ids
+ * first, then all counts; what they return is read only until the next call (it may be a view of
+ * one reused buffer).
+ */
+export interface TermListSource {
+  /** The number of (id, count) entries of d while its own arrays are empty, else undefined. */
+  length(d: DocTerms): number | undefined;
+  ids(d: DocTerms): Int32Array | undefined;
+  counts(d: DocTerms): Float32Array | undefined;
+}
+
+/** What planIndexFile may be given beside the index. */
+export interface PlanOptions {
+  /** The files' counts held elsewhere (the file is the same bytes as with them in memory). */
+  readonly termLists?: TermListSource;
+}
+
 /** Lays out the file of an index (see IndexFilePlan; encodeIndex writes it into one buffer). */
-export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): IndexFilePlan {
+export function planIndexFile(index: LsiIndex, createdAt: Date = new Date(), options: PlanOptions = {}): IndexFilePlan {
   const live = index
     .slots()
     .map((s, i) => [s, i] as const)
@@ -136,7 +157,8 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
   const n = live.length;
   const all = index.vectors();
   const termIndptr = new Int32Array(n + 1);
-  live.forEach(([s], j) => (termIndptr[j + 1] = termIndptr[j] + s.terms.termIds.length));
+  const source = options.termLists;
+  live.forEach(([s], j) => (termIndptr[j + 1] = termIndptr[j] + (source?.length(s.terms) ?? s.terms.termIds.length)));
   const nnz = termIndptr[n];
   const m = index.model;
   const vocab = index.vocab.toBytes();
@@ -169,8 +191,13 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
       Uint8Array.from(live, ([s]) => LANGUAGES.indexOf(s.meta.language ?? 'en')),
     ),
     copied('termIndptr', termIndptr),
-    gathered('termIds', 'i32', nnz, () => live.map(([s]) => s.terms.termIds)),
-    gathered('termCounts', 'f32', nnz, () => live.map(([s]) => s.terms.counts)),
+    // Generators: a source's lists are valid only until the next is asked for.
+    gathered('termIds', 'i32', nnz, function* () {
+      for (const [s] of live) yield source?.ids(s.terms) ?? s.terms.termIds;
+    }),
+    gathered('termCounts', 'f32', nnz, function* () {
+      for (const [s] of live) yield source?.counts(s.terms) ?? s.terms.counts;
+    }),
     copied('keptIds', m.keptIds),
     copied('weights', m.weights),
     copied('termVectors', m.termVectors),
@@ -228,8 +255,8 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date()): In
 }
 
 /** Encodes an index into one buffer (a writer that can stream uses planIndexFile instead). */
-export function encodeIndex(index: LsiIndex, createdAt: Date = new Date()): Uint8Array {
-  const plan = planIndexFile(index, createdAt);
+export function encodeIndex(index: LsiIndex, createdAt: Date = new Date(), options: PlanOptions = {}): Uint8Array {
+  const plan = planIndexFile(index, createdAt, options);
   const out = new Uint8Array(plan.start + plan.payloadBytes);
   let at = plan.start;
   for (const p of plan.pieces()) {
@@ -255,7 +282,14 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
   const files = live.map(([s]) => index.sections.get(s.meta.path));
   files.forEach((f, j) => (indptr[j + 1] = indptr[j] + (f?.starts.length ?? 0)));
   const total = indptr[live.length];
-  const titles = files.flatMap((f) => (f ? f.titles.map((t) => t.replace(/\0/g, ' ') || '…') : []));
+  // The titles as saved: no '\0' inside, none empty.
+  const savedTitle = (t: string): string => t.replace(/\0/g, ' ') || '…';
+  // Their UTF-8 bytes, '\0'-separated, are made in pieces as the writer goes (joined whole, the
+  // whole tree's 1.33 M titles were one string and one buffer at the save's start); the length
+  // first, from the titles themselves.
+  let titleBytes = 0;
+  for (const f of files) if (f) for (const t of f.titles) titleBytes += utf8Length(savedTitle(t)) + 1;
+  titleBytes = Math.max(0, titleBytes - 1);
   const lines = (f: NonNullable<(typeof files)[number]>): Int32Array => {
     const [starts, ends] = [f.starts, f.ends]; // once: a reopened file's are made on each access
     const out = new Int32Array(2 * starts.length);
@@ -276,7 +310,30 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
     gathered('sectionLines', 'i32', 2 * total, function* () {
       for (const f of files) if (f) yield lines(f);
     }),
-    copied('sectionTitles', encoder.encode(titles.join('\0'))),
+    {
+      name: 'sectionTitles',
+      kind: 'u8',
+      length: titleBytes,
+      pieces: function* () {
+        let batch: string[] = [];
+        let chars = 0;
+        let first = true;
+        const encoded = (): Uint8Array => {
+          const bytes = encoder.encode((first ? '' : '\0') + batch.join('\0'));
+          [first, batch, chars] = [false, [], 0];
+          return bytes;
+        };
+        for (const f of files)
+          if (f)
+            for (const t of f.titles) {
+              const title = savedTitle(t);
+              batch.push(title);
+              chars += title.length;
+              if (chars >= TITLE_PIECE_CHARS) yield encoded();
+            }
+        if (batch.length > 0) yield encoded();
+      },
+    },
     copied('listCentroids', saved?.centroids ?? new Float32Array(0)),
     copied('listGroups', saved?.groups ?? new Float32Array(0)),
     copied('listGroupStarts', saved?.groupStarts ?? new Int32Array(0)),
@@ -285,6 +342,24 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
     { name: 'sectionCodes', kind: 'u8', length: listed * k, pieces: () => saved?.codes() ?? [] },
     { name: 'sectionCodeParams', kind: 'f64', length: 3 * listed, pieces: () => saved?.params() ?? [] },
   ];
+}
+
+/** UTF-16 code units of titles encoded at a time by the save (a small piece; not tuned). */
+const TITLE_PIECE_CHARS = 1 << 16;
+
+/** Bytes TextEncoder makes of s (a lone surrogate becomes U+FFFD, 3 bytes, as it encodes it). */
+export function utf8Length(s: string): number {
+  let n = 0;
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c < 0x80) n += 1;
+    else if (c < 0x800) n += 2;
+    else if (c >= 0xd800 && c <= 0xdbff && i + 1 < s.length && (s.charCodeAt(i + 1) & 0xfc00) === 0xdc00) {
+      n += 4;
+      i++;
+    } else n += 3;
+  }
+  return n;
 }
 
 /**

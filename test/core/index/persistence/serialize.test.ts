@@ -2,7 +2,14 @@ import { describe, expect, it } from 'vitest';
 import { CorruptIndexError } from '../../../../src/core/errors.js';
 import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
 import type { LsiIndex } from '../../../../src/core/index/lsiIndex.js';
-import { decodeIndex, encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../../../src/core/index/persistence/serialize.js';
+import {
+  decodeIndex,
+  encodeIndex,
+  payloadOf,
+  readIndexHeader,
+  sealIndexFile,
+  utf8Length,
+} from '../../../../src/core/index/persistence/serialize.js';
 import { tokenize } from '../../../../src/core/text/tokenize.js';
 import { loadCollection } from '../../../helpers/shared.js';
 
@@ -326,5 +333,52 @@ describe('serialize', () => {
     }
     // The edits are the only damage: the same rewrite without one decodes.
     expect(decodeIndex(rewrite(bytes, () => undefined)).paths().length).toBe(adi.docs.length);
+  });
+});
+
+describe('section titles in the index file', () => {
+  // Titles that TextEncoder (WHATWG Encoding Standard, UTF-8 encode) treats each its own way: ASCII,
+  // 2- and 3-byte characters, a surrogate pair (4 bytes), lone surrogates (U+FFFD, 3 bytes), a
+  // '\0' (saved as a space) and an empty title (saved as '…').
+  const odd = ['plain', 'Überblick', '目次', 'emoji 😀 end', 'lone \ud800 high', 'lone \udc00 low', 'a\0b', '', 'x'.repeat(40000)];
+
+  it('utf8Length counts what TextEncoder makes', () => {
+    const enc = new TextEncoder();
+    for (const t of [...odd, '\ud83d', '😀😀', 'é\udbff']) expect(utf8Length(t), JSON.stringify(t.slice(0, 20))).toBe(enc.encode(t).length);
+  });
+
+  it('saves the titles as their UTF-8 joined by \\0, in pieces across many titles, and reads them back', () => {
+    const index = buildAdi();
+    const paths = index.paths().slice(0, 6);
+    // Enough long titles to cross the save's pieces several times.
+    paths.forEach((p, i) => {
+      const titles = i % 2 === 0 ? odd : [...odd].reverse();
+      index.sections.set(p, {
+        starts: Int32Array.from(titles, (_, j) => j),
+        ends: Int32Array.from(titles, (_, j) => j + 1),
+        titles,
+        vectors: new Float32Array(titles.length * index.k),
+      });
+    });
+    const bytes = encodeIndex(index, new Date(0));
+    const header = readIndexHeader(bytes);
+    const e = header.sections.find((x) => x.name === 'sectionTitles')!;
+    const saved = index.paths().flatMap((p) => index.sections.get(p)?.titles.map((t) => t.replace(/\0/g, ' ') || '…') ?? []);
+    const want = new TextEncoder().encode(saved.join('\0'));
+    expect(e.length).toBe(want.length);
+    expect(Buffer.from(payloadOf(bytes).subarray(e.offset, e.offset + e.length)).equals(Buffer.from(want))).toBe(true);
+    const back = decodeIndex(bytes);
+    expect(back.sections.get(paths[1])!.titles).toEqual(
+      new TextDecoder()
+        .decode(
+          new TextEncoder().encode(
+            [...odd]
+              .reverse()
+              .map((t) => t.replace(/\0/g, ' ') || '…')
+              .join('\0'),
+          ),
+        )
+        .split('\0'),
+    );
   });
 });
