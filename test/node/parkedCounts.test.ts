@@ -11,9 +11,9 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { countTerms, EMPTY_DOC_TERMS, Vocabulary, type DocTerms } from '../../src/core/counting/termCounts.js';
 import { tokenize } from '../../src/core/text/tokenize.js';
-import type { ByteSpill, OpenSpill } from '../../src/core/sections/types.js';
 import { ParkedCounts } from '../../src/node/parkedCounts.js';
 import { openSpillBeside } from '../../src/node/sectionCodeFile.js';
+import { watchedSpill } from '../helpers/watchedSpill.js';
 import { loadCollection } from '../helpers/shared.js';
 
 const folder = mkdtempSync(join(tmpdir(), 'undertone-park-counts-'));
@@ -35,24 +35,14 @@ describe('ParkedCounts', () => {
   it('parks the counts in a scratch file, empties them, and reads every file back the same', () => {
     const docs = counted();
     const before = copies(docs);
-    let closes = 0;
-    const beside = openSpillBeside(folder, 'test');
-    const open: OpenSpill = () => {
-      const s = beside()!;
-      const spill: ByteSpill = {
-        write: (b, at) => s.write(b, at),
-        read: (into, at) => s.read(into, at),
-        close: () => (closes++, s.close()),
-      };
-      return spill;
-    };
+    const { open, seen } = watchedSpill(folder, 'test');
     const parked = ParkedCounts.park(docs, open, 0);
     expect(parked).not.toBeNull();
     expect(readdirSync(folder)).toEqual([]); // unlinked as soon as made
     expect(docs.every((d) => d.termIds.length === 0 && d.counts.length === 0)).toBe(true);
     expect(docs.map((d) => d.length)).toEqual(before.map((d) => d.length));
     parked!.unpark();
-    expect(closes).toBe(1);
+    expect(seen.closes).toBe(1);
     expect(copies(docs)).toEqual(before);
     expect(before.reduce((n, d) => n + d.ids.length, 0)).toBeGreaterThan(1000);
   });
@@ -60,16 +50,8 @@ describe('ParkedCounts', () => {
   it("gives a save every parked file's lists from the scratch file, in few reads, and nothing once they are back", () => {
     const docs = counted();
     const before = copies(docs);
-    let reads = 0;
-    const beside = openSpillBeside(folder, 'test');
-    const parked = ParkedCounts.park(
-      docs,
-      () => {
-        const s = beside()!;
-        return { write: (b, at) => s.write(b, at), read: (into, at) => (reads++, s.read(into, at)), close: () => s.close() };
-      },
-      0,
-    )!;
+    const { open, seen } = watchedSpill(folder, 'test');
+    const parked = ParkedCounts.park(docs, open, 0)!;
     const source = parked.source();
     const read = (order: number[]) => {
       const got = docs.map(() => ({ ids: [] as number[], counts: [] as number[] }));
@@ -84,7 +66,7 @@ describe('ParkedCounts', () => {
       expect(source.length(docs[i])).toBe(before[i].ids.length);
       expect(inOrder[i]).toEqual({ ids: before[i].ids, counts: before[i].counts });
     }
-    expect(reads).toBe(1);
+    expect(seen.reads).toBe(1);
     // Backwards: still the same lists.
     const backwards = read([...parkedDocs].reverse());
     for (const i of parkedDocs) expect(backwards[i]).toEqual({ ids: before[i].ids, counts: before[i].counts });
@@ -101,22 +83,14 @@ describe('ParkedCounts', () => {
   it('leaves the counts in the scratch file until they are read, then gives every file its counts back at once', () => {
     const docs = counted();
     const before = copies(docs);
-    let closes = 0;
-    const beside = openSpillBeside(folder, 'test');
-    const parked = ParkedCounts.park(
-      docs,
-      () => {
-        const s = beside()!;
-        return { write: (b, at) => s.write(b, at), read: (into, at) => s.read(into, at), close: () => (closes++, s.close()) };
-      },
-      0,
-    )!;
+    const { open, seen } = watchedSpill(folder, 'test');
+    const parked = ParkedCounts.park(docs, open, 0)!;
     parked.unparkOnUse();
-    expect(closes).toBe(0); // still parked
+    expect(seen.closes).toBe(0); // still parked
     expect(docs[5].length).toBe(before[5].length); // the total is no count: no read
-    expect(closes).toBe(0);
+    expect(seen.closes).toBe(0);
     expect([...docs[7].counts]).toEqual(before[7].counts);
-    expect(closes).toBe(1); // all read back at the first use
+    expect(seen.closes).toBe(1); // all read back at the first use
     expect(copies(docs)).toEqual(before);
     expect(Object.getOwnPropertyDescriptor(docs[7], 'termIds')?.get).toBeUndefined(); // plain fields again
     // Closed before any use: a read is refused, not answered with empty counts.
@@ -134,17 +108,9 @@ describe('ParkedCounts', () => {
     expect(ParkedCounts.park(docs, () => null, 0)).toBeNull();
     expect(ParkedCounts.park(docs, undefined, 0)).toBeNull();
     expect(copies(docs)).toEqual(before);
-    let closes = 0;
-    const beside = openSpillBeside(folder, 'test');
-    const parked = ParkedCounts.park(
-      docs,
-      () => {
-        const s = beside()!;
-        return { write: (b, at) => s.write(b, at), read: (into, at) => s.read(into, at), close: () => (closes++, s.close()) };
-      },
-      0,
-    );
+    const { open, seen } = watchedSpill(folder, 'test');
+    const parked = ParkedCounts.park(docs, open, 0);
     parked!.close();
-    expect(closes).toBe(1);
+    expect(seen.closes).toBe(1);
   });
 });

@@ -14,6 +14,7 @@ import type { CountedSections } from '../../src/core/sections/sectionVectors.js'
 import type { ByteSpill, OpenSpill } from '../../src/core/sections/types.js';
 import { ParkedSections } from '../../src/node/parkedSections.js';
 import { openSpillBeside } from '../../src/node/sectionCodeFile.js';
+import { watchedSpill } from '../helpers/watchedSpill.js';
 import { countSections } from '../helpers/countedSections.js';
 import { loadCollection } from '../helpers/shared.js';
 
@@ -100,17 +101,9 @@ describe('ParkedSections', () => {
     expect(ParkedSections.park(map, openSpillBeside(folder), Number.MAX_SAFE_INTEGER)).toBeNull();
     expect(opens).toBe(1);
     expect(map.size).toBe(40); // left as it was
-    let closes = 0;
-    const beside = openSpillBeside(folder);
-    const parked = ParkedSections.park(
-      map,
-      () => {
-        const s = beside()!;
-        return { write: (b, at) => s.write(b, at), read: (into, at) => s.read(into, at), close: () => (closes++, s.close()) };
-      },
-      0,
-    )!;
+    const { open, seen } = watchedSpill(folder);
+    const parked = ParkedSections.park(map, open, 0)!;
     parked.close();
-    expect(closes).toBe(1);
+    expect(seen.closes).toBe(1);
   });
 });
