@@ -18,6 +18,7 @@
 import type { DocTerms } from '../core/counting/termCounts.js';
 import type { ByteSpill, OpenSpill } from '../core/sections/types.js';
 import type { TermListSource } from '../core/index/persistence/serialize.js';
+import { readInRuns } from '../core/matrix/parkedMatrix.js';
 
 /** Park from this many bytes of ids and counts on (below it the file costs more than it saves; a round number, not tuned). */
 export const PARK_COUNTS_FROM_BYTES = 64 * 1024 * 1024;
@@ -107,8 +108,8 @@ export class ParkedCounts {
     try {
       const termIds = new Int32Array(this.total);
       const counts = new Float32Array(this.total);
-      readInRuns(this.spill, new Uint8Array(termIds.buffer), 0);
-      readInRuns(this.spill, new Uint8Array(counts.buffer), 4 * this.total);
+      readInRuns(this.spill, termIds, 0);
+      readInRuns(this.spill, counts, 4 * this.total);
       this.docs.forEach((d, i) => {
         if (this.onUse) {
           // Plain fields again in place of the accessors of unparkOnUse.
@@ -212,11 +213,3 @@ export class ParkedCounts {
 
 /** Bytes the save's source reads at once (a few calls for the whole tree's 620 MB; not tuned). */
 const READ_AHEAD_BYTES = 4 * 1024 * 1024;
-
-/** Bytes per read call when the counts come back (below the 2 GB a single call may move). */
-const READ_RUN_BYTES = 256 * 1024 * 1024;
-
-function readInRuns(spill: ByteSpill, into: Uint8Array, position: number): void {
-  for (let from = 0; from < into.length; from += READ_RUN_BYTES)
-    spill.read(into.subarray(from, Math.min(into.length, from + READ_RUN_BYTES)), position + from);
-}

@@ -26,8 +26,8 @@ export function parkMatrix(m: CsrMatrix, open: OpenSpill, fromBytes = PARK_MATRI
   const spill = open();
   if (!spill) return false;
   try {
-    inRuns(bytesOf(m.indices), 0, (part, at) => spill.write(part, at));
-    inRuns(bytesOf(m.values), 4 * length, (part, at) => spill.write(part, at));
+    writeInRuns(spill, m.indices, 0);
+    writeInRuns(spill, m.values, 4 * length);
   } catch (err) {
     spill.close();
     throw err;
@@ -48,8 +48,8 @@ export function unparkMatrix(m: CsrMatrix): void {
   try {
     const indices = new Int32Array(p.length);
     const values = p.f32 ? new Float32Array(p.length) : new Float64Array(p.length);
-    inRuns(bytesOf(indices), 0, (part, at) => p.spill.read(part, at));
-    inRuns(bytesOf(values), 4 * p.length, (part, at) => p.spill.read(part, at));
+    readInRuns(p.spill, indices, 0);
+    readInRuns(p.spill, values, 4 * p.length);
     const s = m as unknown as Swappable;
     s.indices = indices;
     s.values = values;
@@ -64,11 +64,16 @@ export function dropParkedMatrix(m: CsrMatrix): void {
   parked.delete(m);
 }
 
-function bytesOf(a: Int32Array | Float64Array | Float32Array): Uint8Array {
-  return new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
+/** Writes an array's bytes to a spill from `position` on, in calls of at most RUN_BYTES. */
+export function writeInRuns(spill: ByteSpill, a: ArrayBufferView, position: number): void {
+  const bytes = new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
+  for (let from = 0; from < bytes.length; from += RUN_BYTES)
+    spill.write(bytes.subarray(from, Math.min(bytes.length, from + RUN_BYTES)), position + from);
 }
 
-function inRuns(bytes: Uint8Array, position: number, io: (part: Uint8Array, at: number) => void): void {
+/** Fills an array's bytes from a spill from `position` on, in calls of at most RUN_BYTES. */
+export function readInRuns(spill: ByteSpill, into: ArrayBufferView, position: number): void {
+  const bytes = new Uint8Array(into.buffer, into.byteOffset, into.byteLength);
   for (let from = 0; from < bytes.length; from += RUN_BYTES)
-    io(bytes.subarray(from, Math.min(bytes.length, from + RUN_BYTES)), position + from);
+    spill.read(bytes.subarray(from, Math.min(bytes.length, from + RUN_BYTES)), position + from);
 }

@@ -36,7 +36,7 @@ import { copyCsr, csrRows, transposeCsr } from '../matrix/sparse.js';
 import type { ByteSpill, OpenSpill } from '../sections/types.js';
 import { createRandom, DEFAULT_SEED, type RandomSource } from '../random.js';
 import { repairWeakColumns, topEigenpairs, transposeScaled } from './rayleighRitz.js';
-import { PARK_MATRIX_FROM_BYTES } from '../matrix/parkedMatrix.js';
+import { PARK_MATRIX_FROM_BYTES, readInRuns, writeInRuns } from '../matrix/parkedMatrix.js';
 
 export interface RandomizedSvdOptions {
   /** Number of singular triplets wanted. */
@@ -284,7 +284,7 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
       const small = w === l ? yAll.subarray(0, S * k) : z.subarray(0, S * k);
       ex.timesSmall(q, S, l, wt, k, false, small);
       if (!spill) return { k, s: pairs.s, small: Float64Array.from(small), random };
-      spillWrite(spill, small, 0);
+      writeInRuns(spill, small, 0);
       return { k, s: pairs.s, small: new Float64Array(0), parked: spill, random };
     }
     // QW block of rows by block of rows through Z's memory, straight into the result (or the
@@ -298,7 +298,7 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
       const r1 = Math.min(S, r0 + rowsPer);
       const out = scratch.subarray(0, (r1 - r0) * k);
       ex.timesSmall(q.subarray(r0 * l, r1 * l), r1 - r0, l, wt, k, false, out);
-      if (spill) spillWrite(spill, out, r0 * k * 8);
+      if (spill) writeInRuns(spill, out, r0 * k * 8);
       else small.set(out, r0 * k);
     }
     return { k, s: pairs.s, small, parked: spill ?? undefined, random };
@@ -310,21 +310,6 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
 
 /** Park QW in a spill from this many bytes on (as the weighted matrix's entries: parkedMatrix.ts). */
 export const PARK_SMALL_FROM_BYTES = PARK_MATRIX_FROM_BYTES;
-
-/** Bytes per spill read or write call (below the 2 GB a single call may move). */
-const SPILL_RUN_BYTES = 256 * 1024 * 1024;
-
-function spillWrite(spill: ByteSpill, a: Float64Array, position: number): void {
-  const bytes = new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
-  for (let from = 0; from < bytes.length; from += SPILL_RUN_BYTES)
-    spill.write(bytes.subarray(from, Math.min(bytes.length, from + SPILL_RUN_BYTES)), position + from);
-}
-
-function spillRead(spill: ByteSpill, into: Float64Array): void {
-  const bytes = new Uint8Array(into.buffer, into.byteOffset, into.byteLength);
-  for (let from = 0; from < bytes.length; from += SPILL_RUN_BYTES)
-    spill.read(bytes.subarray(from, Math.min(bytes.length, from + SPILL_RUN_BYTES)), from);
-}
 
 /** Gives the spill of a small side back without reading it (a failed or cancelled build). */
 export function dropSmallSide(part: SvdSmallSide): void {
@@ -352,7 +337,7 @@ function bigSide(
   const B = rowsSmall ? m.cols : m.rows;
   const small = ex.float64(S * k);
   try {
-    if (part.parked) spillRead(part.parked, small);
+    if (part.parked) readInRuns(part.parked, small, 0);
     else small.set(part.small);
   } finally {
     dropSmallSide(part);
