@@ -1,7 +1,7 @@
 /**
  * The weighted document-term matrix of an index (rows = files in slot order without holes,
  * columns = model terms), rebuilt from the stored counts with the model's frozen weights
- * (weightDocument: the same unit rows the SVD saw at build time), and the leading singular
+ * (the same unit rows the SVD saw at build time), and the leading singular
  * factors of that matrix.
  *
  * When nothing changed since the build, the model already holds V_k (termVectors) and Σ_k; the
@@ -12,7 +12,8 @@
 import type { LsiIndex } from '../index/lsiIndex.js';
 import { csrTimesDense, denseBlock, type CsrMatrix } from '../matrix/sparse.js';
 import { randomizedSvd, type SvdResult } from '../svd/randomizedSvd.js';
-import { weightDocument } from '../weighting/termWeighting.js';
+import type { DocTerms } from '../counting/termCounts.js';
+import { weightedMatrix as modelWeightedMatrix } from '../index/model/conceptModel.js';
 
 export interface IndexMatrix {
   /** files × model terms, unit rows (zero rows for files without model terms). */
@@ -27,28 +28,15 @@ export function weightedMatrix(index: LsiIndex): IndexMatrix {
   const model = index.model;
   const paths: string[] = [];
   const slots: number[] = [];
-  const cols: Int32Array[] = [];
-  const vals: Float64Array[] = [];
-  let nnz = 0;
+  const docs: DocTerms[] = [];
   index.slots().forEach((s, i) => {
     if (!s) return;
-    const w = weightDocument(s.terms, model.columnOf, model.weights, model.scheme);
     paths.push(s.meta.path);
     slots.push(i);
-    cols.push(w.columns);
-    vals.push(w.values);
-    nnz += w.columns.length;
+    docs.push(s.terms);
   });
-  const indptr = new Int32Array(paths.length + 1);
-  const indices = new Int32Array(nnz);
-  const values = new Float64Array(nnz);
-  for (let r = 0, p = 0; r < paths.length; r++) {
-    indices.set(cols[r], p);
-    values.set(vals[r], p);
-    p += cols[r].length;
-    indptr[r + 1] = p;
-  }
-  return { matrix: { rows: paths.length, cols: model.keptIds.length, indptr, indices, values }, paths, slots: Int32Array.from(slots) };
+  const { matrix } = modelWeightedMatrix(docs, model.columnOf, model.weights, model.scheme);
+  return { matrix, paths, slots: Int32Array.from(slots) };
 }
 
 /** Leading k singular triplets of the index matrix: from the model when it is current, else computed. */

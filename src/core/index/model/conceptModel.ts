@@ -11,7 +11,7 @@ import { createWasmExecutor } from '../../matrix/wasm/wasmExecutor.js';
 import { chooseK, type ChosenK } from '../../svd/chooseK.js';
 import { dropSmallSide, finishSvd, randomizedSvdSmallSide, type SvdResult, type SvdSmallSide } from '../../svd/randomizedSvd.js';
 import { pruneVocabulary } from '../../weighting/prune.js';
-import { globalWeights, weightDocument, type WeightingScheme } from '../../weighting/termWeighting.js';
+import { globalWeights, localWeight, weightDocument, type WeightingScheme } from '../../weighting/termWeighting.js';
 import type { PortableModel } from '../persistence/conceptFile.js';
 import type { IndexSettings } from './settings.js';
 import type { DocTerms } from '../../counting/termCounts.js';
@@ -302,7 +302,10 @@ export const PROJECTION_BLOCK_BYTES = 8 * 1024 * 1024;
 
 /**
  * The weighted, document-normalised matrix in document-major CSR form (row i = document i,
- * column c = model column c): the transpose of the term-document matrix A.
+ * column c = model column c): the transpose of the term-document matrix A. Each row holds the
+ * numbers weightDocument gives that document, computed straight into the matrix's arrays: a
+ * first pass counts each row's entries, so no document gets arrays of its own (on a large tree,
+ * tens of thousands of small arrays left the allocator's heap full of holes once they went).
  */
 export function weightedMatrix(
   docs: readonly DocTerms[],
@@ -310,25 +313,41 @@ export function weightedMatrix(
   weights: Float64Array,
   scheme: WeightingScheme,
 ): { matrix: CsrMatrix; frobeniusSquared: number } {
-  const rowsIdx: Int32Array[] = [];
-  const rowsVal: Float64Array[] = [];
-  let nnz = 0;
-  for (const d of docs) {
-    const w = weightDocument(d, columnOf, weights, scheme);
-    rowsIdx.push(w.columns);
-    rowsVal.push(w.values);
-    nnz += w.columns.length;
-  }
+  const known = columnOf.length;
   const indptr = new Int32Array(docs.length + 1);
+  for (let r = 0; r < docs.length; r++) {
+    const { termIds, counts } = docs[r];
+    let n = 0;
+    for (let i = 0; i < termIds.length; i++) {
+      const id = termIds[i];
+      const c = id < known ? columnOf[id] : -1;
+      if (c >= 0 && localWeight(counts[i], scheme) * weights[c] !== 0) n++;
+    }
+    indptr[r + 1] = indptr[r] + n;
+  }
+  const nnz = indptr[docs.length];
   const indices = new Int32Array(nnz);
   const values = new Float64Array(nnz);
   let frob = 0;
-  for (let i = 0, p = 0; i < docs.length; i++) {
-    indices.set(rowsIdx[i], p);
-    values.set(rowsVal[i], p);
-    p += rowsIdx[i].length;
-    indptr[i + 1] = p;
-    for (const v of rowsVal[i]) frob += v * v;
+  for (let r = 0; r < docs.length; r++) {
+    const { termIds, counts } = docs[r];
+    const start = indptr[r];
+    let p = start;
+    let ss = 0;
+    for (let i = 0; i < termIds.length; i++) {
+      const id = termIds[i];
+      const c = id < known ? columnOf[id] : -1;
+      if (c < 0) continue;
+      const w = localWeight(counts[i], scheme) * weights[c];
+      if (w === 0) continue;
+      indices[p] = c;
+      values[p++] = w;
+      ss += w * w;
+    }
+    // The same steps as weightDocument: one square root, each value divided by it.
+    const norm = Math.sqrt(ss);
+    if (norm > 0) for (let q = start; q < p; q++) values[q] /= norm;
+    for (let q = start; q < p; q++) frob += values[q] * values[q];
   }
   return { matrix: { rows: docs.length, cols: weights.length, indptr, indices, values }, frobeniusSquared: frob };
 }
