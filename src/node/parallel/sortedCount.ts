@@ -68,11 +68,13 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
     const r = raw[i];
     if ('worker' in r) {
       const f = finals[r.worker];
-      const terms: DocTerms = {
-        termIds: f.termIds.subarray(r.at, r.at + r.terms),
-        counts: f.counts.subarray(r.at, r.at + r.terms),
-        length: r.length,
-      };
+      // A file without terms gets arrays of its own: an empty view would still hold the thread's
+      // whole pair (on the Linux tree two such files kept 220 MB through the SVD, as nothing
+      // parks an empty file's counts).
+      const terms: DocTerms =
+        r.terms > 0
+          ? { termIds: f.termIds.subarray(r.at, r.at + r.terms), counts: f.counts.subarray(r.at, r.at + r.terms), length: r.length }
+          : { termIds: new Int32Array(0), counts: new Float32Array(0), length: r.length };
       // A file's sections view the thread's section arrays (one pair per thread, as its files' counts).
       const sections = r.sections && { ...r.sections, termIds: f.sectionTermIds, counts: f.sectionCounts };
       outcomes[i] = {

@@ -174,4 +174,30 @@ describe('worker pool', () => {
       expect(Array.from(b.terms.counts)).toEqual(Array.from(o.terms.counts));
     });
   });
+
+  it('gives a file without terms arrays of its own, not an empty view holding the counts of its thread', async () => {
+    const dir = join(tmp, 'empty-files');
+    mkdirSync(dir, { recursive: true });
+    // CISI abstracts beside files with nothing to count (blank, punctuation only, digits only).
+    const texts = [...cisi.docs.slice(0, 40).map((d) => d.text), '', '  \n\n ... !! --\n', '12 345 6789\n'];
+    const jobs = texts.map((t, i) => {
+      const p = join(dir, `${i}.txt`);
+      writeFileSync(p, t);
+      return { absPath: p, size: t.length };
+    });
+    const sorted = await countFilesSorted(pool!, jobs, { tokenize: {}, maxFileBytes: 1 << 20 });
+    const empty = sorted.outcomes.flatMap((o) => (o.kind === 'text' && o.terms.termIds.length === 0 ? [o.terms] : []));
+    expect(empty.length).toBeGreaterThanOrEqual(2);
+    for (const t of empty) {
+      expect(t.termIds.buffer.byteLength).toBe(0);
+      expect(t.counts.buffer.byteLength).toBe(0);
+    }
+    // The others still view their thread's arrays, with their own counts.
+    const full = sorted.outcomes.slice(0, 40).map((o) => (o.kind === 'text' ? o.terms : undefined));
+    full.forEach((t, i) => {
+      const vocab = new Vocabulary();
+      const c = countTerms(tokenize(texts[i]), vocab, true);
+      expect(bagOf(sorted.vocab, t!.termIds, t!.counts)).toEqual(bagOf(vocab, c.termIds, c.counts));
+    });
+  });
 });
