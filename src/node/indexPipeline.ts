@@ -340,8 +340,12 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     // ---- build
     await releasePool();
     // The section counts wait in a scratch file while the SVD's blocks are resident.
-    if (options.sections !== false && countedSections.size > 0)
+    if (options.sections !== false && countedSections.size > 0) {
       parked = ParkedSections.park(countedSections, options.scratch, options.parkCountsFromBytes);
+      // Their arrays go now, before the weighting builds the matrix beside the files' counts (no
+      // collection would come by itself before the end of the weighting).
+      if (parked) collectGarbage();
+    }
     const buildPool = builder.size >= PARALLEL_MIN_FILES ? getPool(true) : undefined;
     // A shared concept model (import-model, undertone.conceptModel): fold into it, no local SVD.
     const sharedModel = settings.sharedModel ? await readSharedModel(settings.sharedModel) : undefined;
