@@ -8,7 +8,7 @@ import { parentPort } from 'node:worker_threads';
 import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
 import { translateSmallRun } from './parallelCount.js';
-import { mappedInt32 } from './wordTable.js';
+import { grow32, mappedInt32 } from './wordTable.js';
 import type { FileOutcome, FinalCounts, FromWorker, ToWorker } from './threadProtocol.js';
 import { decodeUtf8 } from '../scanRead.js';
 import { DEFAULT_MAX_FILE_BYTES } from '../scanTypes.js';
@@ -23,9 +23,14 @@ let counter: WordCounter | undefined;
 let keepCounts = false;
 /** Pack ranges [start, end) of the kept files, in pack order. */
 let kept: number[] = [];
-/** Count each file's sections too (with keepCounts), and the section runs kept so far. */
+/** Count each file's sections too (with keepCounts). */
 let withSections = false;
-let keptSections: Int32Array[] = [];
+/**
+ * Pack ranges [start, end) of the kept sections, in pack order, in pairs of one array (not each
+ * file's offsets: an array each, with its buffer, for tens of thousands of files).
+ */
+let sectionRuns = new Int32Array(0);
+let sectionRunsUsed = 0;
 const reader = new FileReader();
 let maxFileBytes = DEFAULT_MAX_FILE_BYTES;
 let kernels: KernelExports | undefined;
@@ -67,7 +72,8 @@ port.on('message', (msg: ToWorker) => {
     withSections = keepCounts && msg.sections === true;
     counter.recordWords = withSections;
     kept = [];
-    keptSections = [];
+    sectionRuns = new Int32Array(0);
+    sectionRunsUsed = 0;
     finishing = undefined;
     return;
   }
@@ -101,7 +107,7 @@ port.on('message', (msg: ToWorker) => {
         withSections && f.key !== undefined && packed.language === undefined
           ? countThreadSections(wc, f.key, text ?? got.bytes.toString('latin1'))
           : undefined;
-      if (sections) keptSections.push(sections.offsets);
+      if (sections) keepSectionRuns(sections.offsets);
       read.push({ index: f.index, ...packed, sections });
     }
     if (keepCounts) {
@@ -167,6 +173,17 @@ function setAsideCounts(): TermUnits {
   return units;
 }
 
+/** Notes the pack range of each of a file's sections (section i: [offsets[i], offsets[i + 1])). */
+function keepSectionRuns(offsets: Int32Array): void {
+  const n = offsets.length - 1;
+  if (n <= 0) return;
+  if (sectionRunsUsed + 2 * n > sectionRuns.length) sectionRuns = grow32(sectionRuns, sectionRunsUsed + 2 * n);
+  for (let i = 0; i < n; i++) {
+    sectionRuns[sectionRunsUsed++] = offsets[i];
+    sectionRuns[sectionRunsUsed++] = offsets[i + 1];
+  }
+}
+
 /**
  * Every kept file's counts over final ids (each file's run sorted), in place in the packs, and a
  * fresh start. bySorted: the final id of each term in sorted order (setAsideCounts).
@@ -184,9 +201,9 @@ function finishCounts(bySorted: Int32Array): FinalCounts {
   for (let r = 0; r < kept.length; r += 2) translateSmallRun(ids, counts, big, kept[r], kept[r + 1], translate, ids, out);
   kept = [];
   const sectionCounts = new Float32Array(mappedInt32(s.counts.length).buffer, 0, s.counts.length);
-  for (const offsets of keptSections)
-    for (let i = 0; i + 1 < offsets.length; i++)
-      translateSmallRun(s.ids, s.counts, s.big, offsets[i], offsets[i + 1], translate, s.ids, sectionCounts);
-  keptSections = [];
+  for (let r = 0; r < sectionRunsUsed; r += 2)
+    translateSmallRun(s.ids, s.counts, s.big, sectionRuns[r], sectionRuns[r + 1], translate, s.ids, sectionCounts);
+  sectionRuns = new Int32Array(0);
+  sectionRunsUsed = 0;
   return { type: 'final-counts', termIds: ids, counts: out, sectionTermIds: s.ids, sectionCounts };
 }

@@ -33,10 +33,13 @@ export function countThreadSections(wc: WordCounter, key: string, text: string):
   const { units, length } = wc.loaded;
   const lines = findLineStarts(units, length);
   const n = sections.length;
-  const starts = new Int32Array(n);
-  const ends = new Int32Array(n);
+  // The three lists share one buffer: the copy the main thread receives is one array buffer per
+  // file, not three (on the Linux tree, 1.33 M sections in 78,000 files).
+  const all = new Int32Array(3 * n + 1);
+  const starts = all.subarray(0, n);
+  const ends = all.subarray(n, 2 * n);
+  const offsets = all.subarray(2 * n);
   const titles: string[] = new Array(n);
-  const offsets = new Int32Array(n + 1);
   offsets[0] = wc.sectionPackUsed;
   for (let i = 0; i < n; i++) {
     const s = sections[i];

@@ -58,7 +58,7 @@ describe('weightedMatrix', () => {
       .docs.slice(0, 400)
       .map((d) => countTerms(tokenize(d.text), vocab, true));
     // A document with no term at all, and one whose terms are all unknown to the model.
-    docs.push(countTerms([], vocab, true), { termIds: Int32Array.of(vocab.size + 5), counts: Float32Array.of(2) });
+    docs.push(countTerms([], vocab, true), { termIds: Int32Array.of(vocab.size + 5), counts: Float32Array.of(2), length: 2 });
     const pruned = pruneVocabulary(docs, vocab.size);
     for (const scheme of WEIGHTING_SCHEMES) {
       const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, scheme);
