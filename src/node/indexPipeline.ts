@@ -387,7 +387,8 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
       onProgress: (stage, done, all) => {
         if (stage === 'weighting' && done === 1) {
           lap('matrix');
-          // The weighting's per-file rows are garbage now: gone before the SVD's blocks come on top.
+          // What the weighting left behind (the pruning's and the global weights' working arrays) goes
+          // before the SVD's blocks come on top.
           collectGarbage();
         }
         progress({ stage: stage === 'weighting' ? 'matrix' : 'svd', done, total: all });
