@@ -7,6 +7,7 @@
 import { resolveSettings } from '../../core/index/model/settings.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { runIndexPipeline, tallySkipped, type PipelineOptions, type SkipCounts, type SourceFile } from '../indexPipeline.js';
+import { ensureFolder } from '../persist.js';
 import { scanFolder } from '../scan.js';
 import { openSpillBeside } from '../sectionCodeFile.js';
 import type { Progress, WorkerConfig } from './workerProtocol.js';
@@ -74,6 +75,8 @@ export interface WorkspaceBuildOptions {
   /**
    * A folder for a large build's scratch files (the index file's: the same disk); the section
    * counts wait there during the SVD and the section vectors stay there (indexPipeline.ts, scratch).
+   * Made when missing (the editor's storage folder does not exist before the first save); where it
+   * cannot be made, the scratch stays in memory.
    */
   readonly scratchFolder?: string;
 }
@@ -84,6 +87,14 @@ export async function buildWorkspaceIndex(
   options: WorkspaceBuildOptions = {},
 ): Promise<WorkspaceBuild> {
   const { threads } = options;
+  const folder = options.scratchFolder;
+  const scratch =
+    folder === undefined
+      ? undefined
+      : await ensureFolder(folder).then(
+          () => openSpillBeside(folder, "the build's scratch file"),
+          () => undefined,
+        );
   const result = await runIndexPipeline({
     settings: resolveSettings(config.settings),
     scan: () => scanWorkspace(roots, config, options.signal),
@@ -96,7 +107,7 @@ export async function buildWorkspaceIndex(
     threads: threads === false ? false : threads === undefined ? {} : { threads },
     onCounted: options.onCounted,
     poll: options.poll,
-    scratch: options.scratchFolder === undefined ? undefined : openSpillBeside(options.scratchFolder, "the build's scratch file"),
+    scratch,
   });
   const s = result.skipped;
   const seconds = Object.values(result.seconds).reduce((a, b) => a + b, 0);

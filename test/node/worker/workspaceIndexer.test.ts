@@ -1,4 +1,4 @@
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -42,6 +42,14 @@ describe('buildWorkspaceIndex', () => {
     const bytesOf = (v: Float32Array): Buffer => Buffer.from(v.buffer, v.byteOffset, v.byteLength);
     expect(bytesOf(built.index.vectors()).equals(bytesOf(reference.vectors()))).toBe(true);
     expect(built).toMatchObject({ read: 300, reused: 0, skipped: 0 });
+  });
+
+  it('makes a missing scratch folder (the storage folder before the first save) rather than keeping the scratch in memory', async () => {
+    const storage = join(tmp, 'storage-not-yet', 'nested');
+    expect(existsSync(storage)).toBe(false);
+    const built = await buildWorkspaceIndex(roots, config, { threads: false, scratchFolder: storage });
+    expect(existsSync(storage)).toBe(true);
+    expect(built.index.size).toBe(300);
   });
 
   it('gives the same index on a thread pool as on one thread', async () => {
