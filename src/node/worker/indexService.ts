@@ -16,7 +16,6 @@ import { basename, dirname } from 'node:path';
 import { NotIndexedError } from '../../core/errors.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { modelSettingsKey, resolveSettings } from '../../core/index/model/settings.js';
-import { collectGarbage } from '../collectGarbage.js';
 import { loadIndex, trySaveIndex } from '../persist.js';
 import { readIndexableText } from '../scan.js';
 import { prepareInBackground } from './backgroundPrepare.js';
@@ -203,38 +202,12 @@ export class IndexService {
     if (modelSettingsKey(loaded.index.settings) !== modelSettingsKey(resolveSettings(config.settings))) {
       return { outcome: 'settings-changed' as const, summary: this.summary(), ms };
     }
-    this.useLoaded(loaded.index, loaded.termsFilled, loaded.checked);
-    this._dirty = false;
-    return { outcome: 'loaded' as const, summary: this.summary(), ms };
-  }
-
-  /**
-   * Uses the index just saved to `file` in place of the built one (checked as a load checks it);
-   * false, with nothing changed, when it cannot be read back or is another model.
-   */
-  private async reopenSaved(file: string, built: LsiIndex): Promise<boolean> {
-    const loaded = await loadIndex(file, { checkRows: 'later' }).catch(() => undefined);
-    if (
-      loaded?.status !== 'ok' ||
-      modelSettingsKey(loaded.index.settings) !== modelSettingsKey(built.settings) ||
-      loaded.index.size !== built.size
-    ) {
-      if (loaded?.status === 'ok') loaded.index.sections.closeRows();
-      return false;
-    }
-    built.sections.closeRows();
-    this.useLoaded(loaded.index, loaded.termsFilled, loaded.checked);
-    // The built index's memory goes now (a synchronous build gives the collector no idle time).
-    collectGarbage();
-    return true;
-  }
-
-  /** Puts a loaded index in use, its background check of the saved rows watched by checkSaved. */
-  private useLoaded(index: LsiIndex, termsFilled: Promise<void>, checked: Promise<string | undefined>): void {
-    this.use(index, termsFilled);
+    this.use(loaded.index, loaded.termsFilled);
     let replace = (): void => undefined;
     const replaced = new Promise<void>((resolve) => (replace = resolve));
-    this._loadCheck = { index, done: checked, replaced, replace };
+    this._loadCheck = { index: loaded.index, done: loaded.checked, replaced, replace };
+    this._dirty = false;
+    return { outcome: 'loaded' as const, summary: this.summary(), ms };
   }
 
   /** The end of the loaded index's background check; damage counts only while that index is in use. */
@@ -499,12 +472,7 @@ export class IndexService {
       progress({ stage: 'save', done: 0, total: 1 });
       // An index that cannot be saved (read-only storage, a folder or FIFO at its path) is still used.
       this._saveProblem = await trySaveIndex(config.indexFile, built.index);
-      // Once saved, the index answers from the saved file, as after a reopen: its section rows and
-      // saved section lists stay in the file (the built one trains its lists in memory at the
-      // first section search; Linux tree, the worker after one: 1,526 MB against 1,072 MB). Where
-      // the file cannot be read back, the built index answers.
-      const reopened = this._saveProblem ? undefined : await this.reopenSaved(config.indexFile, built.index);
-      if (!reopened) this.use(built.index);
+      this.use(built.index);
       this._dirty = false;
       const replay = this._duringBuild;
       this._duringBuild = undefined;

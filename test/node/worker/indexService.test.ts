@@ -114,24 +114,6 @@ describe('IndexService background preparation', () => {
     expect(service.index!.sections.best(path, q)?.path).toBe(path);
   });
 
-  it('answers from the saved file once a build is saved, as a reopen does, with the same rankings', async () => {
-    const service = new IndexService({ preparePause: gate().pause });
-    service.configure(config);
-    await service.build(ctx);
-    const index = service.index!;
-    // The sections read their rows from the saved file (the built index held them in memory).
-    expect(index.paths().some((p) => index.sections.get(p)?.stored)).toBe(true);
-    const reference = await loadIndex(config.indexFile);
-    if (reference.status !== 'ok') throw new Error('the saved index did not load');
-    for (const q of cisi.queries.slice(0, 5).map((x) => x.text)) {
-      const hits = await service.search(q, 5);
-      expect(hits.map((h) => [h.key, h.score])).toEqual(reference.index.search(q, { top: 5 }).map((h) => [h.path, h.score]));
-      const v = index.projectText(q);
-      expect(index.sections.rankExact(v, 5).map((h) => h.score)).toEqual(reference.index.sections.rankExact(v, 5).map((h) => h.score));
-    }
-    expect(await service.checkSaved()).toEqual({ damaged: false });
-  });
-
   it('says when the section rows checked after a load were damaged, and asks only about the index in use', async () => {
     const good = new IndexService({ preparePause: gate().pause });
     good.configure(config);
