@@ -16,7 +16,7 @@ import { blockedTermProduct, PROJECTION_BLOCK_BYTES, projectTerms, type ConceptM
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
 import { copyCsr, type CsrMatrix } from '../matrix/sparse.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
-import { localWeight } from '../weighting/termWeighting.js';
+import { weightRowInto } from '../weighting/termWeighting.js';
 import { tokenize, type TokenizeOptions } from '../text/tokenize.js';
 import { splitLines, splitSections } from './splitSections.js';
 import { sectionsWithRows, SpillRows } from './sectionRows.js';
@@ -216,22 +216,8 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
           grownValues.set(vals.subarray(0, p));
           vals = grownValues;
         }
-        // weightDocument's arithmetic (termWeighting.ts), in place: local × global weight, then
-        // divided by the norm of the row.
-        const first = p;
-        let ss = 0;
-        for (let t = a; t < b; t++) {
-          const id = ids[t];
-          const c = id < columnOf.length ? columnOf[id] : -1;
-          if (c < 0) continue;
-          const w = localWeight(cnts[t], scheme) * weights[c];
-          if (w === 0) continue;
-          indices[p] = c;
-          vals[p++] = w;
-          ss += w * w;
-        }
-        const norm = Math.sqrt(ss);
-        if (norm > 0) for (let t = first; t < p; t++) vals[t] /= norm;
+        // weightDocument's arithmetic (termWeighting.ts), in place.
+        p = weightRowInto(ids, cnts, a, b, columnOf, weights, scheme, indices, vals, p);
         fileOf[rows] = f;
         sectionOf[rows] = s++;
         indptr[++rows] = p;

@@ -50,6 +50,40 @@ export function localWeight(tf: number, scheme: WeightingScheme): number {
   return scheme === 'tfidf' ? 1 + Math.log(tf) : Math.log1p(tf);
 }
 
+/**
+ * weightDocument's numbers for the terms ids[from, to) with their counts, written from position
+ * `at` of indices and values (a row of a CSR matrix: no arrays of its own); returns the position
+ * after the last entry written. The same arithmetic in the same order, so the same bits.
+ */
+export function weightRowInto(
+  ids: Int32Array,
+  counts: Float32Array,
+  from: number,
+  to: number,
+  columnOf: Int32Array,
+  weights: Float64Array,
+  scheme: WeightingScheme,
+  indices: Int32Array,
+  values: Float64Array,
+  at: number,
+): number {
+  let p = at;
+  let ss = 0;
+  for (let t = from; t < to; t++) {
+    const id = ids[t];
+    const c = id < columnOf.length ? columnOf[id] : -1;
+    if (c < 0) continue;
+    const w = localWeight(counts[t], scheme) * weights[c];
+    if (w === 0) continue;
+    indices[p] = c;
+    values[p++] = w;
+    ss += w * w;
+  }
+  const norm = Math.sqrt(ss);
+  if (norm > 0) for (let q = at; q < p; q++) values[q] /= norm;
+  return p;
+}
+
 /** A weighted, L2-normalised sparse vector over model columns (ascending). */
 export interface WeightedVector {
   readonly columns: Int32Array;

@@ -11,7 +11,7 @@ import { createWasmExecutor } from '../../matrix/wasm/wasmExecutor.js';
 import { chooseK, type ChosenK } from '../../svd/chooseK.js';
 import { dropSmallSide, finishSvd, randomizedSvdSmallSide, type SvdResult, type SvdSmallSide } from '../../svd/randomizedSvd.js';
 import { pruneVocabulary } from '../../weighting/prune.js';
-import { globalWeights, localWeight, weightDocument, type WeightingScheme } from '../../weighting/termWeighting.js';
+import { globalWeights, localWeight, weightDocument, weightRowInto, type WeightingScheme } from '../../weighting/termWeighting.js';
 import type { PortableModel } from '../persistence/conceptFile.js';
 import type { IndexSettings } from './settings.js';
 import type { DocTerms } from '../../counting/termCounts.js';
@@ -332,22 +332,9 @@ export function weightedMatrix(
   for (let r = 0; r < docs.length; r++) {
     const { termIds, counts } = docs[r];
     const start = indptr[r];
-    let p = start;
-    let ss = 0;
-    for (let i = 0; i < termIds.length; i++) {
-      const id = termIds[i];
-      const c = id < known ? columnOf[id] : -1;
-      if (c < 0) continue;
-      const w = localWeight(counts[i], scheme) * weights[c];
-      if (w === 0) continue;
-      indices[p] = c;
-      values[p++] = w;
-      ss += w * w;
-    }
-    // The same steps as weightDocument: one square root, each value divided by it.
-    const norm = Math.sqrt(ss);
-    if (norm > 0) for (let q = start; q < p; q++) values[q] /= norm;
-    for (let q = start; q < p; q++) frob += values[q] * values[q];
+    const end = weightRowInto(termIds, counts, 0, termIds.length, columnOf, weights, scheme, indices, values, start);
+    if (end !== indptr[r + 1]) throw new Error('a weighted row changed length between the two passes (a bug)');
+    for (let q = start; q < end; q++) frob += values[q] * values[q];
   }
   return { matrix: { rows: docs.length, cols: weights.length, indptr, indices, values }, frobeniusSquared: frob };
 }
