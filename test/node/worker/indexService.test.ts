@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { SectionRowsClosedError } from '../../../src/core/sections/sectionRows.js';
 import { loadIndex } from '../../../src/node/persist.js';
-import { IndexService } from '../../../src/node/worker/indexService.js';
+import { DEFAULT_INDEX_SERVICE_OPTIONS, IndexService } from '../../../src/node/worker/indexService.js';
 import type { WorkerConfig } from '../../../src/node/worker/workerProtocol.js';
 import type { HandlerContext } from '../../../src/node/worker/server.js';
 import { loadCollection } from '../../helpers/shared.js';
@@ -112,6 +112,31 @@ describe('IndexService background preparation', () => {
     expect(service.index).not.toBe(old);
     expect(service.index!.sections.rankExact(q, 5).map((h) => h.score)).toEqual(rankedBefore.map((h) => h.score));
     expect(service.index!.sections.best(path, q)?.path).toBe(path);
+  });
+
+  it('answers from the saved file once a build is saved, as a reopen does, with the same rankings', async () => {
+    // Below reopenFromSections (the default: where section search uses lists) the built index answers.
+    const small = new IndexService({ preparePause: gate().pause });
+    small.configure(config);
+    await small.build(ctx);
+    expect(small.index!.sections.count).toBeLessThan(DEFAULT_INDEX_SERVICE_OPTIONS.reopenFromSections);
+    expect(small.index!.paths().some((p) => small.index!.sections.get(p)?.stored)).toBe(false);
+
+    const service = new IndexService({ preparePause: gate().pause, reopenFromSections: 1 });
+    service.configure(config);
+    await service.build(ctx);
+    const index = service.index!;
+    // The sections read their rows from the saved file (the built index held them in memory).
+    expect(index.paths().some((p) => index.sections.get(p)?.stored)).toBe(true);
+    const reference = await loadIndex(config.indexFile);
+    if (reference.status !== 'ok') throw new Error('the saved index did not load');
+    for (const q of cisi.queries.slice(0, 5).map((x) => x.text)) {
+      const hits = await service.search(q, 5);
+      expect(hits.map((h) => [h.key, h.score])).toEqual(reference.index.search(q, { top: 5 }).map((h) => [h.path, h.score]));
+      const v = index.projectText(q);
+      expect(index.sections.rankExact(v, 5).map((h) => h.score)).toEqual(reference.index.sections.rankExact(v, 5).map((h) => h.score));
+    }
+    expect(await service.checkSaved()).toEqual({ damaged: false });
   });
 
   it('says when the section rows checked after a load were damaged, and asks only about the index in use', async () => {
