@@ -75,7 +75,7 @@ export interface IndexServiceOptions {
    * Sections from which, once a build is saved, the index answers from the saved file as after a
    * reopen (its section rows and saved section lists stay in the file): where section search uses
    * lists, the built index holds them in memory (Linux tree, the worker after a section search:
-   * 1,526 MB against 1,072 MB). Below it the built index answers: a smaller index gains nothing,
+   * 1,526 MB against 1,039 MB). Below it the built index answers: a smaller index gains nothing,
    * and the built index's freed memory would stay in the process beside the loaded one
    * (Documentation folder: 196 MB settled against 269 MB). @default SECTION_LISTS_FROM
    */
