@@ -5,23 +5,17 @@
  * CRAN abstracts (test/fixtures/corpora/cran), as the build makes it.
  */
 import { describe, expect, it } from 'vitest';
-import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
-import { weightedMatrix } from '../../../src/core/index/model/conceptModel.js';
 import { dropParkedMatrix, parkMatrix, unparkMatrix } from '../../../src/core/matrix/parkedMatrix.js';
-import { tokenize } from '../../../src/core/text/tokenize.js';
-import { globalWeights } from '../../../src/core/weighting/termWeighting.js';
-import { pruneVocabulary } from '../../../src/core/weighting/prune.js';
 import { memorySpill } from '../../helpers/memorySpill.js';
+import { weightedCorpus } from '../../helpers/weightedCorpus.js';
 import { loadCollection } from '../../helpers/shared.js';
 
 function matrix() {
-  const vocab = new Vocabulary();
-  const docs = loadCollection('cran')
-    .docs.slice(0, 150)
-    .map((d) => countTerms(tokenize(d.text), vocab, true));
-  const pruned = pruneVocabulary(docs, vocab.size);
-  const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
-  return weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy').matrix;
+  return weightedCorpus(
+    loadCollection('cran')
+      .docs.slice(0, 150)
+      .map((d) => d.text),
+  ).matrix;
 }
 
 describe('parkMatrix', () => {

@@ -16,13 +16,9 @@ import {
   randomizedSvdSmallSide,
   type SvdResult,
 } from '../../../src/core/svd/randomizedSvd.js';
-import { weightedMatrix } from '../../../src/core/index/model/conceptModel.js';
-import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
-import { tokenize } from '../../../src/core/text/tokenize.js';
-import { pruneVocabulary } from '../../../src/core/weighting/prune.js';
-import { globalWeights } from '../../../src/core/weighting/termWeighting.js';
 import { fixturePath, loadCollection, referencePython } from '../../helpers/shared.js';
 import { memorySpill } from '../../helpers/memorySpill.js';
+import { weightedCorpus } from '../../helpers/weightedCorpus.js';
 
 function maxOrthoError(a: Float64Array, rows: number, k: number): number {
   let worst = 0;
@@ -156,12 +152,7 @@ describe('randomizedSvd', () => {
   // Real text: the first 300 CRAN abstracts (test/fixtures/corpora/cran), log-entropy weighted.
   const cran = loadCollection('cran');
   it("converges to within 1% of ml-matrix's dense SVD on the leading 30 singular values of a real term-document matrix", () => {
-    const vocab = new Vocabulary();
-    const docs = cran.docs.slice(0, 300).map((d) => countTerms(tokenize(d.text), vocab, true));
-    const pruned = pruneVocabulary(docs, vocab.size);
-    const m = pruned.keptIds.length;
-    const weights = globalWeights(docs, pruned.columnOf, m, 'log-entropy');
-    const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
+    const { matrix, terms: m } = weightedCorpus(cran.docs.slice(0, 300).map((d) => d.text));
     // This spectrum is flat (σ₃₀/σ₃₁ ≈ 1.005), the hard case for subspace iteration: ten power
     // iterations and oversampling of k are needed here for 1%.
     const res = randomizedSvd(matrix, { k: 30, powerIterations: 10, oversampling: 30 });
@@ -181,11 +172,7 @@ describe('randomizedSvd', () => {
     expect(maxOrthoError(res.v, m, 30)).toBeLessThan(1e-8);
   });
   it('gives the same results when the big side is worked on in column blocks (reference: ml-matrix dense SVD)', () => {
-    const vocab = new Vocabulary();
-    const docs = cran.docs.slice(0, 200).map((d) => countTerms(tokenize(d.text), vocab, true));
-    const pruned = pruneVocabulary(docs, vocab.size);
-    const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
-    const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
+    const { matrix } = weightedCorpus(cran.docs.slice(0, 200).map((d) => d.text));
     const l = 40;
     // A budget the size of the S × l basis: blocks of about S/B of the columns.
     const [S, B] = [Math.min(matrix.rows, matrix.cols), Math.max(matrix.rows, matrix.cols)];
@@ -224,11 +211,7 @@ describe('randomizedSvd', () => {
   });
 
   it('gives the same bits in two parts, the big side on another executor (the whole run is checked against ml-matrix and ARPACK above and below)', () => {
-    const vocab = new Vocabulary();
-    const docs = cran.docs.slice(0, 150).map((d) => countTerms(tokenize(d.text), vocab, true));
-    const pruned = pruneVocabulary(docs, vocab.size);
-    const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
-    const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
+    const { matrix } = weightedCorpus(cran.docs.slice(0, 150).map((d) => d.text));
     const options = { k: 15, powerIterations: 5 };
     const whole = randomizedSvd(matrix, { ...options, factors: 'f32' });
     // The first part on WebAssembly (the default), the second on plain loops, and the reverse.
@@ -245,11 +228,7 @@ describe('randomizedSvd', () => {
   });
 
   it('gives the same bits with QW parked in a spill and Aᵀ formed a few rows at a time (the whole run is checked against ml-matrix and ARPACK above and below)', () => {
-    const vocab = new Vocabulary();
-    const docs = cran.docs.slice(0, 150).map((d) => countTerms(tokenize(d.text), vocab, true));
-    const pruned = pruneVocabulary(docs, vocab.size);
-    const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
-    const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
+    const { matrix } = weightedCorpus(cran.docs.slice(0, 150).map((d) => d.text));
     const options = { k: 15, powerIterations: 5, factors: 'f32' as const };
     // Both orientations (documents the smaller side, then terms), QW formed in one piece and
     // block by block (a small column budget), blocks of Aᵀ of about 37 entries.
@@ -304,11 +283,7 @@ const cisi = loadCollection('cisi');
 describe('randomizedSvd with its default options', () => {
   it('keeps all 200 leading singular values of CISI within 1% of ARPACK', () => {
     const python = referencePython();
-    const vocab = new Vocabulary();
-    const docs = cisi.docs.map((d) => countTerms(tokenize(d.text), vocab, true));
-    const pruned = pruneVocabulary(docs, vocab.size);
-    const weights = globalWeights(docs, pruned.columnOf, pruned.keptIds.length, 'log-entropy');
-    const { matrix } = weightedMatrix(docs, pruned.columnOf, weights, 'log-entropy');
+    const { matrix } = weightedCorpus(cisi.docs.map((d) => d.text));
     const k = 200;
     const ours = randomizedSvd(matrix, { k });
     const dir = mkdtempSync(join(tmpdir(), 'undertone-svd-'));
