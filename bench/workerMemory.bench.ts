@@ -15,12 +15,15 @@
  * Run: npm run bench:worker-memory -- [docs|tree|<folder>] [--k N] (docs: the linux-source-6.1
  * Documentation folder that scripts/bench-setup.sh unpacks). --same-process runs both phases in
  * one process, as this bench did before. --index <file> reopens a copy of that saved index (its
- * settings given with --k) instead of building one.
+ * settings given with --k) instead of building one. --snapshot <prefix> writes the worker's V8 heap
+ * snapshot at the end of each phase to <prefix>-<phase>.heapsnapshot (Worker.getHeapSnapshot), to
+ * see what holds the memory.
  */
 import { execFileSync } from 'node:child_process';
-import { copyFileSync, mkdirSync, mkdtempSync, rmSync, statSync } from 'node:fs';
+import { copyFileSync, createWriteStream, mkdirSync, mkdtempSync, rmSync, statSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import { pipeline } from 'node:stream/promises';
 import { Worker } from 'node:worker_threads';
 import { WorkerClient } from '../src/node/worker/client.js';
 import { indexWorkerOptions } from '../src/node/worker/workerLimits.js';
@@ -41,6 +44,8 @@ const only = flag('phase') as 'build' | 'reopen' | undefined;
 const sameProcess = process.argv.includes('--same-process');
 /** A saved index to reopen (copied first) instead of building one. */
 const savedIndex = flag('index');
+/** Where the worker's heap snapshots go (a path prefix), when asked. */
+const snapshot = flag('snapshot');
 const tmp = flag('tmp') ?? mkdtempSync(join(tmpdir(), 'undertone-worker-memory-'));
 const mb = (b: number): string => `${(b / 1048576).toFixed(0)} MB`;
 const sleep = (ms: number): Promise<void> => new Promise((r) => setTimeout(r, ms));
@@ -125,6 +130,11 @@ async function main(): Promise<void> {
             `after a search and a nearby ${mb(afterQueries - host)} (process ${mb(afterQueries)}), ` +
             `then after a section search and a section Nearby ${mb(afterSections - host)}`,
         );
+        if (snapshot) {
+          const file = `${resolve(snapshot)}-${only ?? label.replace(/\W+/g, '-')}.heapsnapshot`;
+          await pipeline(await worker.getHeapSnapshot(), createWriteStream(file));
+          console.log(`  heap snapshot of the worker: ${file}`);
+        }
       } finally {
         await worker.terminate();
       }

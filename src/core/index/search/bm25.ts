@@ -20,8 +20,9 @@
  * per term, terms in query order), so both give the same bits.
  *
  * prepare() builds every term's main list ahead of time in steps (termPostings.ts'
- * PostingsBuild, over a snapshot of the documents); a term is then taken from that block the
- * first time it is needed, with the lists collectPostings would have made from the snapshot.
+ * PostingsBuild, over a snapshot of the documents), compressed; a query decodes its terms' lists
+ * from that block each time (the lists collectPostings would have made from the snapshot), and an
+ * edit takes the lists of the terms it touches out of the block to keep them current.
  * Edits that land while the block is being built are replayed onto the terms they touch when it
  * is installed (old document out, new one into the side list, as setDocument does).
  */
@@ -39,10 +40,19 @@ export const DEFAULT_BM25_OPTIONS: Readonly<Bm25Options> = Object.freeze({ k1: 1
 
 // The loops live in small functions of their own, which the engine optimises whole.
 
-/** One term's contributions from its main list, slots stamped after builtAt skipped. */
-function addMain(p: TermPostings, stamp: Float64Array, norm: Float64Array, idf: number, k1: number, out: Float64Array): void {
-  const { docs, tfs, builtAt } = p;
-  for (let i = 0; i < docs.length; i++) {
+/** One term's contributions from its main list (n entries), slots stamped after builtAt skipped. */
+function addMain(
+  docs: Int32Array,
+  tfs: Float32Array,
+  n: number,
+  builtAt: number,
+  stamp: Float64Array,
+  norm: Float64Array,
+  idf: number,
+  k1: number,
+  out: Float64Array,
+): void {
+  for (let i = 0; i < n; i++) {
     const j = docs[i];
     if (stamp[j] > builtAt) continue;
     const tf = tfs[i];
@@ -56,7 +66,10 @@ function addMain(p: TermPostings, stamp: Float64Array, norm: Float64Array, idf: 
  * document's matches are not pushed towards zero; norm holds k1·(1 − b + b·|d|/avgdl).
  */
 function addMainL(
-  p: TermPostings,
+  docs: Int32Array,
+  tfs: Float32Array,
+  n: number,
+  builtAt: number,
   stamp: Float64Array,
   norm: Float64Array,
   idf: number,
@@ -64,8 +77,7 @@ function addMainL(
   delta: number,
   out: Float64Array,
 ): void {
-  const { docs, tfs, builtAt } = p;
-  for (let i = 0; i < docs.length; i++) {
+  for (let i = 0; i < n; i++) {
     const j = docs[i];
     if (stamp[j] > builtAt) continue;
     const c = (tfs[i] * k1) / norm[j] + delta;
@@ -143,6 +155,8 @@ export class Bm25Scorer {
 
   /** Number of documents containing vocabulary term id. */
   docFrequency(termId: number): number {
+    const b = this._block;
+    if (b && termId < b.terms && !this._terms.has(termId)) return b.df(termId); // no need to decode
     return this.postings([termId])[0].df;
   }
 
@@ -206,16 +220,26 @@ export class Bm25Scorer {
   scoreInto(query: DocTerms, out: Float64Array, b: number = this._opts.b, delta = 0): void {
     const k1 = this._opts.k1;
     const norm = this.lengthNorm(b);
-    const lists = this.postings(query.termIds);
+    const lists = this.lists(query.termIds);
+    const block = this._block;
     for (let i = 0; i < query.termIds.length; i++) {
       const p = lists[i];
+      if (p === null) {
+        // In the prepared block: decoded into its scratch and scored from there.
+        const n = block!.decode(query.termIds[i]);
+        if (n === 0) continue;
+        const idf = this.idfOf(n) * query.counts[i];
+        if (delta > 0) addMainL(block!.slots, block!.tfs, n, block!.builtAt, this._stamp, norm, idf, k1, delta, out);
+        else addMain(block!.slots, block!.tfs, n, block!.builtAt, this._stamp, norm, idf, k1, out);
+        continue;
+      }
       if (p.df === 0) continue;
       const idf = this.idfOf(p.df) * query.counts[i];
       if (delta > 0) {
-        addMainL(p, this._stamp, norm, idf, k1, delta, out);
+        addMainL(p.docs, p.tfs, p.docs.length, p.builtAt, this._stamp, norm, idf, k1, delta, out);
         addSideL(p.side, norm, idf, k1, delta, out);
       } else {
-        addMain(p, this._stamp, norm, idf, k1, out);
+        addMain(p.docs, p.tfs, p.docs.length, p.builtAt, this._stamp, norm, idf, k1, out);
         addSide(p.side, norm, idf, k1, out);
       }
     }
@@ -246,16 +270,27 @@ export class Bm25Scorer {
 
   /** The postings of each term id (aligned), building all missing ones in one pass. */
   private postings(termIds: ArrayLike<number>): TermPostings[] {
+    return this.lists(termIds).map((p, i) => p ?? this._block!.postings(termIds[i]));
+  }
+
+  /**
+   * The postings of each term id (aligned), building all missing ones in one pass; null for a
+   * term in the prepared block that no edit has touched: the block keeps it compressed, to be
+   * decoded for each use (only lists that edits change are kept decoded).
+   */
+  private lists(termIds: ArrayLike<number>): (TermPostings | null)[] {
+    const block = this._block;
+    const lists = Array.from(termIds, (t) => this._terms.get(t) ?? (block && t < block.terms ? null : undefined));
     let missing: number[] | null = null;
-    for (let i = 0; i < termIds.length; i++) if (!this.held(termIds[i])) (missing ??= []).push(termIds[i]);
+    for (let i = 0; i < termIds.length; i++) if (lists[i] === undefined) (missing ??= []).push(termIds[i]);
     if (missing) {
       const want = Int32Array.from(new Set(missing)).sort();
       collectPostings(this._docsOf, want, this._edits).forEach((p, i) => this._terms.set(want[i], p));
     }
-    return Array.from(termIds, (t) => this._terms.get(t)!);
+    return lists.map((p, i) => (p === undefined ? this._terms.get(termIds[i])! : p));
   }
 
-  /** A term's postings if kept or in the prepared block (then taken from it and kept), else undefined. */
+  /** A term's postings if kept or in the prepared block (then taken from it and kept: an edit changes it), else undefined. */
   private held(t: number): TermPostings | undefined {
     const p = this._terms.get(t);
     if (p || !this._block || t >= this._block.terms) return p;

@@ -263,4 +263,18 @@ describe('Bm25Scorer', () => {
     for (let i = 0; i < 400; i++) set(600 + i, all[(i * 3) % all.length]); // enough to merge side lists
     expectSame([...queries.slice(10), countTerms(tokenize('quuxification shock'), vocab, false)]);
   });
+
+  it('keeps a prepared block compressed: read-only queries decode their lists without keeping them, edits keep only the lists they touch', () => {
+    const scorer = new Bm25Scorer(all);
+    while (!scorer.prepare(() => false));
+    expect(scorer.cachedTerms).toBe(0);
+    for (const q of queries.slice(0, 50)) scoresOf(scorer, q, all.length);
+    expect(scorer.cachedTerms).toBe(0);
+    const edited = all[3]!;
+    scorer.setDocument(3, all[900]);
+    const touched = new Set([...edited.termIds, ...all[900]!.termIds]);
+    expect(scorer.cachedTerms).toBe(touched.size);
+    for (const q of queries.slice(0, 50)) scoresOf(scorer, q, all.length);
+    expect(scorer.cachedTerms).toBe(touched.size);
+  });
 });

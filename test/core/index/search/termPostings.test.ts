@@ -2,6 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { collectPostings, PostingsBuild, TermPostings } from '../../../../src/core/index/search/termPostings.js';
 import type { DocTerms } from '../../../../src/core/counting/termCounts.js';
 import { createRandom } from '../../../../src/core/random.js';
+import { countTerms, Vocabulary } from '../../../../src/core/counting/termCounts.js';
+import { tokenize } from '../../../../src/core/text/tokenize.js';
+import { loadCollection } from '../../../helpers/shared.js';
 
 /** Random documents: sorted distinct ids below `terms`, integer counts 1–5 (some slots empty). */
 function randomDocs(n: number, terms: number, seed: number): (DocTerms | null)[] {
@@ -107,8 +110,37 @@ describe('PostingsBuild', () => {
         expect(p ? pairsOf(p) : []).toEqual(bruteForce(docs, t));
         expect(p ? pairsOf(p) : []).toEqual(pairsOf(lazy[w]));
         expect(p?.df ?? 0).toBe(lazy[w].df);
+        if (t < block.terms) expect(block.df(t)).toBe(lazy[w].df);
       });
     }
+  });
+
+  it('keeps counts that are not small whole numbers and slots far apart bit for bit', () => {
+    // Counts a varint cannot hold (0, fractions, negative, 2^28 and beyond, f32 extremes) are kept
+    // as raw f32 bytes; gaps of 1 to 4 varint bytes (slots up to 2^22 apart).
+    const odd = [1, 127, 128, 16383, 16384, 2 ** 28 - 1, 2 ** 28, 0.5, 1.25e-7, 0, -3, 3.4e38, 7];
+    const docs: (DocTerms | null)[] = new Array<DocTerms | null>(2 ** 22 + 3).fill(null);
+    const at = [0, 1, 129, 16513, 2 ** 21 + 16513, 2 ** 22 + 2];
+    at.forEach((slot, i) => {
+      const termIds = Int32Array.from([0, 1 + i]);
+      docs[slot] = { termIds, counts: Float32Array.from([odd[i], odd[odd.length - 1 - i]]), length: 2 };
+    });
+    const block = new PostingsBuild(docs, 0).run(() => true)!;
+    expect(pairsOf(block.postings(0))).toEqual(at.map((slot, i) => [slot, Math.fround(odd[i])]));
+    at.forEach((slot, i) => expect(pairsOf(block.postings(1 + i))).toEqual([[slot, Math.fround(odd[odd.length - 1 - i])]]));
+    expect(Object.is(block.postings(1 + 3).tfs[0], Math.fround(odd[odd.length - 4]))).toBe(true);
+  });
+
+  it('holds real postings in under half the bytes of plain slot and count arrays (CRAN abstracts)', () => {
+    // Real text: CRAN (test/fixtures/corpora/cran, 1400 aerodynamics abstracts), counted as a build counts.
+    const vocab = new Vocabulary();
+    const docs = loadCollection('cran').docs.map((d) => countTerms(tokenize(d.text), vocab, true));
+    const block = new PostingsBuild(docs, 0).run(() => true)!;
+    const postings = docs.reduce((n, d) => n + d.termIds.length, 0);
+    const want = Int32Array.from({ length: block.terms }, (_, t) => t);
+    const lazy = collectPostings(docs, want, 0);
+    want.forEach((t) => expect(pairsOf(block.postings(t))).toEqual(pairsOf(lazy[t])));
+    expect(block.byteLength).toBeLessThan((8 * postings + 4 * (block.terms + 1)) / 2);
   });
 
   it('copes with no documents, empty documents and holes only', () => {
