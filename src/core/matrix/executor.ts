@@ -35,6 +35,40 @@ export interface MatrixExecutor {
   gaussian(out: Float64Array, rows: number, l: number, seed: number): void;
   /** Runs fn and then frees the executor memory it allocated (results must be copied out). */
   scoped?<T>(fn: () => T): T;
+  /**
+   * Copies a block of columns: for each row i < rows, the w numbers from src[i·srcStride + srcAt]
+   * on go to dst[i·dstStride + dstAt] on. Optional, and false where the executor cannot (the caller
+   * then copies with a plain loop: a copy, so the bits are the same either way).
+   * @throws RangeError when a row's run would fall outside either array.
+   */
+  copyColumns?(
+    src: Float64Array,
+    srcStride: number,
+    srcAt: number,
+    dst: Float64Array,
+    dstStride: number,
+    dstAt: number,
+    w: number,
+    rows: number,
+  ): boolean;
+}
+
+/** Checks that copyColumns' runs lie inside both arrays. @throws RangeError when one does not. */
+export function checkColumnRuns(
+  src: Float64Array,
+  srcStride: number,
+  srcAt: number,
+  dst: Float64Array,
+  dstStride: number,
+  dstAt: number,
+  w: number,
+  rows: number,
+): void {
+  if (rows <= 0 || w <= 0) return;
+  const inside = (a: Float64Array, stride: number, at: number): boolean =>
+    at >= 0 && stride >= w && (rows - 1) * stride + at + w <= a.length;
+  if (!inside(src, srcStride, srcAt) || !inside(dst, dstStride, dstAt))
+    throw new RangeError(`columns ${w} wide over ${rows} rows fall outside the arrays`);
 }
 
 /** g += part (block partials are added in block order by every executor). */

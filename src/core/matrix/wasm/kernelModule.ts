@@ -20,6 +20,8 @@ export interface KernelModuleExports {
   cross(a: number, b: number, l: number, r0: number, r1: number, g: number, symmetric: number): void;
   /** assembly/times.ts */
   times(y: number, l: number, w: number, c: number, upper: number, out: number, r0: number, r1: number): void;
+  /** assembly/copyColumns.ts */
+  copy_columns(src: number, srcStride: number, dst: number, dstStride: number, w: number, r0: number, r1: number): void;
   /** assembly/dots.ts */
   dots(rows: number, q: number, k: number, r0: number, r1: number, out: number): void;
   /** assembly/codeDots.ts */

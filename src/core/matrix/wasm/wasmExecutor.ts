@@ -6,6 +6,7 @@
  */
 import {
   addInto,
+  checkColumnRuns,
   mirrorUpper,
   reductionBlocks,
   REDUCTION_BLOCK_ROWS,
@@ -103,6 +104,24 @@ export class WasmExecutor implements MatrixExecutor {
     const o = this.out(out);
     this.kernels.times(this.ptr(y), l, w, c, upper ? 1 : 0, o.ptr, 0, rows);
     o.done();
+  }
+
+  /** The copy_columns kernel when both arrays live in the arena (assembly/copyColumns.ts). */
+  copyColumns(
+    src: Float64Array,
+    srcStride: number,
+    srcAt: number,
+    dst: Float64Array,
+    dstStride: number,
+    dstAt: number,
+    w: number,
+    rows: number,
+  ): boolean {
+    const [ps, pd] = [this.arena.offsetOf(src), this.arena.offsetOf(dst)];
+    if (ps < 0 || pd < 0) return false;
+    checkColumnRuns(src, srcStride, srcAt, dst, dstStride, dstAt, w, rows);
+    if (rows > 0 && w > 0) this.kernels.copy_columns(ps + 8 * srcAt, srcStride, pd + 8 * dstAt, dstStride, w, 0, rows);
+    return true;
   }
 
   gaussian(out: Float64Array, rows: number, l: number, seed: number): void {

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { serialExecutor } from '../../../../src/core/matrix/executor.js';
 import { createWasmExecutor } from '../../../../src/core/matrix/wasm/wasmExecutor.js';
 import { createRandom } from '../../../../src/core/random.js';
+import { gatherColumns, scatterColumns } from '../../../../src/core/svd/randomizedSvd.js';
 
 // Reference: the plain typed-array executor (its kernels are checked against brute force in
 // kernels.test.ts). The SIMD kernels promise the very same IEEE operations, so the same bits.
@@ -81,6 +82,41 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
     ex.timesSmall(y, rows, l, wt, l, true, y);
     expect(same(y, want)).toBe(true);
     expect(same(plain, want)).toBe(true);
+  });
+
+  it('gathers and scatters column blocks as the plain loops do (odd and even widths, a block at each edge)', () => {
+    const ex = wasm!;
+    const [rows, l] = [37, 23];
+    const src = ex.float64(rows * l);
+    for (let i = 0; i < src.length; i++) src[i] = rnd.normal();
+    for (const [c0, w] of [
+      [0, 5],
+      [5, 6],
+      [11, 12],
+      [22, 1],
+      [0, 23],
+    ]) {
+      const block = ex.float64(rows * w);
+      gatherColumns(src, block, rows, l, c0, w, ex);
+      const plain = new Float64Array(rows * w);
+      gatherColumns(src, plain, rows, l, c0, w);
+      expect(same(block, plain)).toBe(true);
+      for (let i = 0; i < rows; i++) for (let j = 0; j < w; j++) expect(Object.is(block[i * w + j], src[i * l + c0 + j])).toBe(true);
+      // Back into a blank block of the full width: only those columns change.
+      const dst = ex.float64(rows * l);
+      const dstPlain = new Float64Array(rows * l);
+      scatterColumns(block, dst, rows, l, c0, w, ex);
+      scatterColumns(block, dstPlain, rows, l, c0, w);
+      expect(same(dst, dstPlain)).toBe(true);
+    }
+  });
+
+  it('copies columns only between arrays of its arena, and never past their ends', () => {
+    const ex = wasm!;
+    const inside = ex.float64(40);
+    expect(ex.copyColumns(new Float64Array(40), 8, 0, inside, 4, 0, 4, 5)).toBe(false);
+    expect(() => ex.copyColumns(inside, 8, 5, ex.float64(20), 4, 0, 4, 5)).toThrow(RangeError);
+    expect(() => ex.copyColumns(inside, 8, 0, ex.float64(19), 4, 0, 4, 5)).toThrow(RangeError);
   });
 
   it('frees scoped arena memory for reuse', () => {

@@ -11,3 +11,4 @@ export { times } from './times';
 export { dots } from './dots';
 export { code_dots } from './codeDots';
 export { code_dots_int } from './codeDotsInt';
+export { copy_columns } from './copyColumns';
