@@ -237,7 +237,11 @@ export const SAVE_CHUNK_BYTES = 1 << 20;
 export async function saveIndex(path: string, index: LsiIndex, chunkBytes = SAVE_CHUNK_BYTES, termLists?: TermListSource): Promise<number> {
   let size = 0;
   await writeAtomically(path, (fd) => {
-    const plan = planIndexFile(index, new Date(), { termLists });
+    // The section lists' codes wait beside the index while the file is written (savedLists.ts).
+    const plan = planIndexFile(index, new Date(), {
+      termLists,
+      openSpill: openSpillBeside(dirname(resolve(path)), 'the section codes being saved'),
+    });
     const sum = new Checksum32();
     const buf = new Uint8Array(Math.max(1, Math.min(chunkBytes, plan.payloadBytes)));
     let fill = 0;

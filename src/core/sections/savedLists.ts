@@ -8,13 +8,15 @@
  * (./listedSections.ts). Where the store has a listing (a reopened index, or one ranked since its
  * lists were trained), each section's list and coded row are taken from it (runs of slots read at
  * once); otherwise the section is filed (lists.file) and its row coded (a row's code depends on
- * that row alone, so both ways give the same bytes).
+ * that row alone, so both ways give the same bytes). Given a CodeSpill, a row is coded as it is
+ * filed and waits in its list's chain (ListChains), so the codes go out in slot order without the
+ * rows being read a second time.
  */
 import { codeRows } from '../index/search/conceptCodes.js';
 import type { SectionLists } from './sectionLists.js';
 import { SectionRowsError, StoredFileSections } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
-import type { ByteSpill } from './types.js';
+import type { ByteSpill, OpenSpill } from './types.js';
 
 /** Numbers a coded row has beside its codes: scale, error and norm (f64 each). */
 export const CODE_PARAMS = 3;
@@ -67,6 +69,7 @@ export function planSavedLists(
   files: readonly FileSections[],
   known: (no: number) => KnownSections | null,
   readCoded?: ReadCoded,
+  spill?: CodeSpill,
 ): SavedListsPlan {
   const k = lists.k;
   const firsts = new Int32Array(files.length + 1);
@@ -75,7 +78,16 @@ export function planSavedLists(
   const listOf = new Int32Array(n);
   // Each section's slot in the listing, or −1 (then coded here).
   const source = new Int32Array(readCoded ? n : 0).fill(-1);
+  // With a CodeSpill, rows filed here are coded as they are filed, into their list's chain (in
+  // memory below spill.fromBytes, else in a spill); without one, or where no spill opens, they
+  // are read again at their slots below.
+  const chainBytes = n * (k + 8 * CODE_PARAMS);
+  const chainSpill = spill && chainBytes >= spill.fromBytes ? spill.open() : null;
+  const chains = spill && (chainSpill || chainBytes < spill.fromBytes) ? new ListChains(lists.lists, k, chainSpill) : null;
   let scratch = new Float32Array(0);
+  const filedCodes = chains ? new CodedBlock(k) : null;
+  // Sections whose codes wait in a chain (the others are copied from the listing, or coded below).
+  const inChain = new Uint8Array(chains ? n : 0);
   files.forEach((f, no) => {
     const m = firsts[no + 1] - firsts[no];
     const have = known(no);
@@ -91,6 +103,11 @@ export function planSavedLists(
       v = scratch;
     } else v = f.vectors;
     for (let i = 0; i < m; i++) listOf[firsts[no] + i] = lists.file(v, i * k);
+    if (chains && filedCodes) {
+      filedCodes.code(v, m);
+      for (let i = 0; i < m; i++) chains.add(listOf[firsts[no] + i], filedCodes, i);
+      inChain.fill(1, firsts[no], firsts[no + 1]);
+    }
   });
   // Slot order: by list, then file order (a stable counting sort).
   const starts = new Int32Array(lists.lists + 1);
@@ -108,6 +125,7 @@ export function planSavedLists(
     const fresh = new Uint8Array(SAVE_ROWS);
     let no = 0;
     let copying = readCoded !== undefined;
+    chains?.rewind();
     for (let s = 0; s < n; s += SAVE_ROWS) {
       const m = Math.min(SAVE_ROWS, n - s);
       fresh.fill(1);
@@ -123,6 +141,13 @@ export function planSavedLists(
             continue;
           }
           copying = false; // the listing keeps no codes: code every row here
+        }
+        if (chains && inChain[g]) {
+          // Coded when it was filed: the next row of its list's chain (slots of a list follow file order).
+          chains.take(listOf[g], codes, r * k, out, (s + r) * CODE_PARAMS);
+          fresh[r] = 0;
+          r++;
+          continue;
         }
         if (g < firsts[no] || g >= firsts[no + 1]) no = fileOf(firsts, g);
         const f = files[no];
@@ -171,8 +196,147 @@ export function planSavedLists(
       }
       yield new Uint8Array(params!.buffer, params!.byteOffset, params!.byteLength);
       params = null;
+      chains?.close();
     },
   };
+}
+
+/** Where planSavedLists may keep the codes of the rows it files (node: a scratch file beside the index). */
+export interface CodeSpill {
+  readonly open: OpenSpill;
+  /** Bytes of codes and their numbers (k + 24 a row) from which they go to the spill. */
+  readonly fromBytes: number;
+}
+
+/** One file's rows coded at once (codeRows), read row by row by ListChains.add. */
+class CodedBlock {
+  codes = new Int8Array(0);
+  scales = new Float64Array(0);
+  errors = new Float64Array(0);
+  norms = new Float64Array(0);
+
+  constructor(readonly k: number) {}
+
+  code(rows: Float32Array, m: number): void {
+    if (this.scales.length < m) {
+      const size = Math.max(m, 2 * this.scales.length);
+      this.codes = new Int8Array(size * this.k);
+      [this.scales, this.errors, this.norms] = [new Float64Array(size), new Float64Array(size), new Float64Array(size)];
+    }
+    codeRows(rows, this.k, 0, m, this.codes, this.scales, this.errors, this.norms);
+  }
+}
+
+/** Bytes of the chains' unfinished blocks, all lists together (our choice: small beside the save). */
+const CHAIN_BUFFER_BYTES = 16 * 1024 * 1024;
+
+/**
+ * Coded rows kept list by list in the order they are filed (file order), to be read back list by
+ * list in that order, which is slot order: the save then writes the codes without reading any row
+ * again (before, each section's row was read again at its slot: 1.33 M small reads on the Linux
+ * tree). Each list fills a block of `per` rows (its rows' three numbers, then their codes); a
+ * full block is appended to the spill, or kept in memory without one.
+ */
+class ListChains {
+  private readonly per: number;
+  /** Each list's unfinished block (made on its first row) and its rows. */
+  private readonly open: (ChainBlock | undefined)[];
+  private readonly fill: Int32Array;
+  /** Each list's full blocks: spill positions, or the blocks themselves without a spill. */
+  private readonly full: (number | ChainBlock)[][];
+  private end = 0;
+  /** The block being read: its list, its number in the chain, the next row in it. */
+  private readList = -1;
+  private readBlock = 0;
+  private readRow = 0;
+  private reading: ChainBlock | undefined;
+  /** Where a block read back from the spill lands. */
+  private readonly spillBlock: ChainBlock | undefined;
+
+  constructor(
+    lists: number,
+    private readonly k: number,
+    private readonly spill: ByteSpill | null,
+  ) {
+    // Rows a block: as many as the buffer budget gives every list, at least 8, at most 1024.
+    this.per = Math.min(1024, Math.max(8, Math.floor(CHAIN_BUFFER_BYTES / Math.max(1, lists) / (8 * CODE_PARAMS + k) / 8) * 8));
+    this.open = new Array<ChainBlock | undefined>(lists);
+    this.fill = new Int32Array(lists);
+    this.full = Array.from({ length: lists }, () => []);
+    this.spillBlock = spill ? new ChainBlock(this.per, k) : undefined;
+  }
+
+  /** Appends row i of `coded` to list l's chain. */
+  add(l: number, coded: CodedBlock, i: number): void {
+    let block = this.open[l];
+    if (!block) block = this.open[l] = new ChainBlock(this.per, this.k);
+    const r = this.fill[l]++;
+    block.params[CODE_PARAMS * r] = coded.scales[i];
+    block.params[CODE_PARAMS * r + 1] = coded.errors[i];
+    block.params[CODE_PARAMS * r + 2] = coded.norms[i];
+    block.codes.set(coded.codes.subarray(i * this.k, (i + 1) * this.k), r * this.k);
+    if (this.fill[l] < this.per) return;
+    if (this.spill) {
+      this.spill.write(block.bytes, this.end);
+      this.full[l].push(this.end);
+      this.end += block.bytes.length;
+    } else {
+      this.full[l].push(block);
+      this.open[l] = undefined;
+    }
+    this.fill[l] = 0;
+  }
+
+  /** Reading starts again from each list's first row. */
+  rewind(): void {
+    this.readList = -1;
+  }
+
+  /** Copies the next row of list l (lists taken in ascending order) into codes at `at` and its numbers into params at `pAt`. */
+  take(l: number, codes: Int8Array, at: number, params: Float64Array, pAt: number): void {
+    if (l !== this.readList) {
+      [this.readList, this.readBlock, this.readRow] = [l, 0, 0];
+      this.reading = this.block(l, 0);
+    } else if (this.readRow === this.per) {
+      [this.readBlock, this.readRow] = [this.readBlock + 1, 0];
+      this.reading = this.block(l, this.readBlock);
+    }
+    const b = this.reading!;
+    const r = this.readRow++;
+    for (let c = 0; c < CODE_PARAMS; c++) params[pAt + c] = b.params[CODE_PARAMS * r + c];
+    codes.set(b.codes.subarray(r * this.k, (r + 1) * this.k), at);
+  }
+
+  /** Block b of list l's chain (its full blocks, then its unfinished one). */
+  private block(l: number, b: number): ChainBlock {
+    const full = this.full[l];
+    if (b >= full.length) {
+      const open = this.open[l];
+      if (!open || b > full.length) throw new Error('a section list chain ran out of rows (a bug)');
+      return open;
+    }
+    const at = full[b];
+    if (typeof at !== 'number') return at;
+    this.spill!.read(this.spillBlock!.bytes, at);
+    return this.spillBlock!;
+  }
+
+  close(): void {
+    this.spill?.close();
+  }
+}
+
+/** A block of `per` coded rows: their numbers (CODE_PARAMS f64 a row), then their codes, in one buffer. */
+class ChainBlock {
+  readonly bytes: Uint8Array;
+  readonly params: Float64Array;
+  readonly codes: Int8Array;
+
+  constructor(per: number, k: number) {
+    this.bytes = new Uint8Array(per * (8 * CODE_PARAMS + k));
+    this.params = new Float64Array(this.bytes.buffer, 0, CODE_PARAMS * per);
+    this.codes = new Int8Array(this.bytes.buffer, 8 * CODE_PARAMS * per, k * per);
+  }
 }
 
 /** Sections of a file, without making its arrays (a stored file's are made on each access). */

@@ -170,8 +170,10 @@ export class SectionStore {
   /**
    * The lists as the index file keeps them, for `paths` in the file's order (files without sections
    * skipped), or null below listsFrom sections (training them now if they are not trained).
+   * @param spill where the rows filed now may wait, coded, until the save writes them (from
+   *   spillListsTo's byte count on; default the spill given there): without one they are read again.
    */
-  savedLists(paths: readonly string[]): SavedListsPlan | null {
+  savedLists(paths: readonly string[], spill?: OpenSpill): SavedListsPlan | null {
     if (this._count < this.listsFrom || this._count === 0) return null;
     const lists = this.lists();
     if (!lists) return null;
@@ -186,7 +188,8 @@ export class SectionStore {
       return lists && slots ? { lists, slots } : null;
     };
     const readCoded = listed ? listed.readCoded.bind(listed) : undefined;
-    return planSavedLists(lists, files, known, readCoded);
+    const open = spill ?? this._openSpill;
+    return planSavedLists(lists, files, known, readCoded, open ? { open, fromBytes: this._spillFrom } : undefined);
   }
 
   /** Other options for the lists (trained again at the next ranking that uses them). */

@@ -14,6 +14,7 @@ import { SECTION_LAYOUT_4, align8, BYTES_PER } from '../../../src/core/index/per
 import { decodeIndex, encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../../src/core/index/persistence/serialize.js';
 import { SectionLists } from '../../../src/core/sections/sectionLists.js';
 import { numbaDocs, numbaSectionIndex } from '../../helpers/numbaSections.js';
+import { memorySpill } from '../../helpers/memorySpill.js';
 
 const docs = numbaDocs();
 
@@ -85,6 +86,35 @@ describe('saved section lists', () => {
     const back = decodeIndex(bytes);
     back.sections.setListsFrom(1);
     expect(Buffer.from(encodeIndex(back, at)).equals(Buffer.from(bytes))).toBe(true);
+  });
+
+  it('save the same bytes when rows are coded as they are filed, their codes waiting in memory or in a spill, fresh and after an edit', () => {
+    const spill = memorySpill();
+    // Below the spill's byte count the chains stay in memory: no spill is opened.
+    expect(Buffer.from(encodeIndex(build(), at, { openSpill: spill.open })).equals(Buffer.from(bytes))).toBe(true);
+    expect(spill.opened()).toBe(0);
+    // From one byte on they go to the spill, which is given back once the codes are written.
+    const spilled = build();
+    spilled.sections.spillListsTo(spill.open, 1);
+    expect(Buffer.from(encodeIndex(spilled, at)).equals(Buffer.from(bytes))).toBe(true);
+    expect(spill.opened()).toBeGreaterThan(0);
+    expect(spill.closes()).toBe(spill.opened());
+    // A reopened index with edited files: their rows are filed and coded anew, the others' codes
+    // copied from the saved listing, interleaved within each list.
+    const edited = (): LsiIndex => {
+      const back = decodeIndex(bytes);
+      back.sections.setListsFrom(1);
+      back.sections.rank(queries[0], 5); // lists filed from the saved listing
+      for (const d of [docs[3], docs[10], docs[11]]) back.sections.set(d.id, index.sections.get(d.id)!);
+      return back;
+    };
+    const plain = encodeIndex(edited(), at);
+    const chained = encodeIndex(edited(), at, { openSpill: spill.open });
+    expect(Buffer.from(chained).equals(Buffer.from(plain))).toBe(true);
+    const viaSpill = edited();
+    viaSpill.sections.spillListsTo(spill.open, 1);
+    viaSpill.sections.rank(queries[0], 5);
+    expect(Buffer.from(encodeIndex(viaSpill, at)).equals(Buffer.from(plain))).toBe(true);
   });
 
   it('are trained as before when a format-4 file is opened', () => {

@@ -42,7 +42,7 @@ import { withLanguage } from '../../text/detectLanguage.js';
 import { StoredFileSections, type SectionRowReader } from '../../sections/sectionRows.js';
 import { bytesSpill } from '../../sections/savedLists.js';
 import { isWellFormedUtf8 } from '../../text/utf8Check.js';
-import type { ByteSpill } from '../../sections/types.js';
+import type { ByteSpill, OpenSpill } from '../../sections/types.js';
 
 /**
  * 4: each file's sections (line ranges, titles, concept vectors) follow the file vectors.
@@ -145,6 +145,8 @@ export interface TermListSource {
 export interface PlanOptions {
   /** The files' counts held elsewhere (the file is the same bytes as with them in memory). */
   readonly termLists?: TermListSource;
+  /** Where the section lists' codes may wait while the file is written (SectionStore.savedLists). */
+  readonly openSpill?: OpenSpill;
 }
 
 /** Lays out the file of an index (see IndexFilePlan; encodeIndex writes it into one buffer). */
@@ -204,7 +206,7 @@ export function planIndexFile(index: LsiIndex, createdAt: Date = new Date(), opt
     copied('singularValues', m.singularValues),
     copied('axisScale', m.axisScale),
     gathered('vectors', 'f32', n * k, () => live.map(([, i]) => all.subarray(i * k, (i + 1) * k))),
-    ...sectionSources(index, live, k),
+    ...sectionSources(index, live, k, options.openSpill),
   ];
   const table: SectionEntry[] = [];
   let offset = 0;
@@ -277,7 +279,7 @@ export function headBytesOf(header: Pick<CheckedHeader, 'sections'>): number {
 }
 
 /** The four section-table entries of the files' sections, in the order of `live`. */
-function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, number])[], k: number): SectionSource[] {
+function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, number])[], k: number, openSpill?: OpenSpill): SectionSource[] {
   const indptr = new Int32Array(live.length + 1);
   const files = live.map(([s]) => index.sections.get(s.meta.path));
   files.forEach((f, j) => (indptr[j + 1] = indptr[j] + (f?.starts.length ?? 0)));
@@ -299,7 +301,10 @@ function sectionSources(index: LsiIndex, live: readonly (readonly [DocSlot, numb
     }
     return out;
   };
-  const saved = index.sections.savedLists(live.map(([s]) => s.meta.path));
+  const saved = index.sections.savedLists(
+    live.map(([s]) => s.meta.path),
+    openSpill,
+  );
   if (saved && saved.count !== total) throw new Error('the saved section lists miss sections (a bug)');
   const listed = saved?.count ?? 0;
   return [
