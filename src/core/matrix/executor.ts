@@ -36,39 +36,41 @@ export interface MatrixExecutor {
   /** Runs fn and then frees the executor memory it allocated (results must be copied out). */
   scoped?<T>(fn: () => T): T;
   /**
-   * Copies a block of columns: for each row i < rows, the w numbers from src[i·srcStride + srcAt]
-   * on go to dst[i·dstStride + dstAt] on. Optional, and false where the executor cannot (the caller
-   * then copies with a plain loop: a copy, so the bits are the same either way).
+   * Copies a block of columns (ColumnRun). Optional, and false where the executor cannot (the
+   * caller then copies with a plain loop: a copy, so the bits are the same either way).
    * @throws RangeError when a row's run would fall outside either array.
    */
-  copyColumns?(
-    src: Float64Array,
-    srcStride: number,
-    srcAt: number,
-    dst: Float64Array,
-    dstStride: number,
-    dstAt: number,
-    w: number,
-    rows: number,
-  ): boolean;
+  copyColumns?(run: ColumnRun): boolean;
 }
 
-/** Checks that copyColumns' runs lie inside both arrays. @throws RangeError when one does not. */
-export function checkColumnRuns(
-  src: Float64Array,
-  srcStride: number,
-  srcAt: number,
-  dst: Float64Array,
-  dstStride: number,
-  dstAt: number,
-  w: number,
-  rows: number,
-): void {
+/** For each row i < rows, the w numbers from src[i·srcStride + srcAt] on go to dst[i·dstStride + dstAt] on. */
+export interface ColumnRun {
+  readonly src: Float64Array;
+  readonly srcStride: number;
+  readonly srcAt: number;
+  readonly dst: Float64Array;
+  readonly dstStride: number;
+  readonly dstAt: number;
+  readonly w: number;
+  readonly rows: number;
+}
+
+/** Checks that a ColumnRun lies inside both arrays. @throws RangeError when it does not. */
+export function checkColumnRun(run: ColumnRun): void {
+  const { rows, w } = run;
   if (rows <= 0 || w <= 0) return;
   const inside = (a: Float64Array, stride: number, at: number): boolean =>
     at >= 0 && stride >= w && (rows - 1) * stride + at + w <= a.length;
-  if (!inside(src, srcStride, srcAt) || !inside(dst, dstStride, dstAt))
+  if (!inside(run.src, run.srcStride, run.srcAt) || !inside(run.dst, run.dstStride, run.dstAt))
     throw new RangeError(`columns ${w} wide over ${rows} rows fall outside the arrays`);
+}
+
+/** Copies a ColumnRun with the executor's copy where it has one, else with a plain loop (the same bits). */
+export function copyColumnRun(run: ColumnRun, ex?: MatrixExecutor): void {
+  if (ex?.copyColumns?.(run)) return;
+  const { src, srcStride, srcAt, dst, dstStride, dstAt, w, rows } = run;
+  // A plain loop: a subarray per row (rows of a few dozen numbers) cost more than the copy.
+  for (let i = 0, s = srcAt, d = dstAt; i < rows; i++, s += srcStride, d += dstStride) for (let j = 0; j < w; j++) dst[d + j] = src[s + j];
 }
 
 /** g += part (block partials are added in block order by every executor). */

@@ -40,18 +40,19 @@ export const DEFAULT_BM25_OPTIONS: Readonly<Bm25Options> = Object.freeze({ k1: 1
 
 // The loops live in small functions of their own, which the engine optimises whole.
 
-/** One term's contributions from its main list (n entries), slots stamped after builtAt skipped. */
-function addMain(
-  docs: Int32Array,
-  tfs: Float32Array,
-  n: number,
-  builtAt: number,
-  stamp: Float64Array,
-  norm: Float64Array,
-  idf: number,
-  k1: number,
-  out: Float64Array,
-): void {
+/** A term's main list as scored: entries 0 … n − 1 of docs and tfs, as of edit number builtAt. */
+interface MainEntries {
+  readonly docs: Int32Array;
+  readonly tfs: Float32Array;
+  readonly n: number;
+  readonly builtAt: number;
+}
+
+const mainOf = (p: TermPostings): MainEntries => ({ docs: p.docs, tfs: p.tfs, n: p.docs.length, builtAt: p.builtAt });
+
+/** One term's contributions from its main list, slots stamped after builtAt skipped. */
+function addMain(list: MainEntries, stamp: Float64Array, norm: Float64Array, idf: number, k1: number, out: Float64Array): void {
+  const { docs, tfs, n, builtAt } = list;
   for (let i = 0; i < n; i++) {
     const j = docs[i];
     if (stamp[j] > builtAt) continue;
@@ -66,10 +67,7 @@ function addMain(
  * document's matches are not pushed towards zero; norm holds k1·(1 − b + b·|d|/avgdl).
  */
 function addMainL(
-  docs: Int32Array,
-  tfs: Float32Array,
-  n: number,
-  builtAt: number,
+  list: MainEntries,
   stamp: Float64Array,
   norm: Float64Array,
   idf: number,
@@ -77,6 +75,7 @@ function addMainL(
   delta: number,
   out: Float64Array,
 ): void {
+  const { docs, tfs, n, builtAt } = list;
   for (let i = 0; i < n; i++) {
     const j = docs[i];
     if (stamp[j] > builtAt) continue;
@@ -229,17 +228,18 @@ export class Bm25Scorer {
         const n = block!.decode(query.termIds[i]);
         if (n === 0) continue;
         const idf = this.idfOf(n) * query.counts[i];
-        if (delta > 0) addMainL(block!.slots, block!.tfs, n, block!.builtAt, this._stamp, norm, idf, k1, delta, out);
-        else addMain(block!.slots, block!.tfs, n, block!.builtAt, this._stamp, norm, idf, k1, out);
+        const main = { docs: block!.slots, tfs: block!.tfs, n, builtAt: block!.builtAt };
+        if (delta > 0) addMainL(main, this._stamp, norm, idf, k1, delta, out);
+        else addMain(main, this._stamp, norm, idf, k1, out);
         continue;
       }
       if (p.df === 0) continue;
       const idf = this.idfOf(p.df) * query.counts[i];
       if (delta > 0) {
-        addMainL(p.docs, p.tfs, p.docs.length, p.builtAt, this._stamp, norm, idf, k1, delta, out);
+        addMainL(mainOf(p), this._stamp, norm, idf, k1, delta, out);
         addSideL(p.side, norm, idf, k1, delta, out);
       } else {
-        addMain(p.docs, p.tfs, p.docs.length, p.builtAt, this._stamp, norm, idf, k1, out);
+        addMain(mainOf(p), this._stamp, norm, idf, k1, out);
         addSide(p.side, norm, idf, k1, out);
       }
     }

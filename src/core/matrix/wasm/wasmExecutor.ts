@@ -6,11 +6,12 @@
  */
 import {
   addInto,
-  checkColumnRuns,
+  checkColumnRun,
   mirrorUpper,
   reductionBlocks,
   REDUCTION_BLOCK_ROWS,
   serialExecutor,
+  type ColumnRun,
   type FloatArray,
   type MatrixExecutor,
 } from '../executor.js';
@@ -107,20 +108,12 @@ export class WasmExecutor implements MatrixExecutor {
   }
 
   /** The copy_columns kernel when both arrays live in the arena (assembly/copyColumns.ts). */
-  copyColumns(
-    src: Float64Array,
-    srcStride: number,
-    srcAt: number,
-    dst: Float64Array,
-    dstStride: number,
-    dstAt: number,
-    w: number,
-    rows: number,
-  ): boolean {
-    const [ps, pd] = [this.arena.offsetOf(src), this.arena.offsetOf(dst)];
+  copyColumns(run: ColumnRun): boolean {
+    const [ps, pd] = [this.arena.offsetOf(run.src), this.arena.offsetOf(run.dst)];
     if (ps < 0 || pd < 0) return false;
-    checkColumnRuns(src, srcStride, srcAt, dst, dstStride, dstAt, w, rows);
-    if (rows > 0 && w > 0) this.kernels.copy_columns(ps + 8 * srcAt, srcStride, pd + 8 * dstAt, dstStride, w, 0, rows);
+    checkColumnRun(run);
+    if (run.rows > 0 && run.w > 0)
+      this.kernels.copy_columns(ps + 8 * run.srcAt, run.srcStride, pd + 8 * run.dstAt, run.dstStride, run.w, 0, run.rows);
     return true;
   }
 

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { serialExecutor } from '../../../../src/core/matrix/executor.js';
 import { createWasmExecutor } from '../../../../src/core/matrix/wasm/wasmExecutor.js';
 import { createRandom } from '../../../../src/core/random.js';
-import { gatherColumns, scatterColumns } from '../../../../src/core/svd/randomizedSvd.js';
+import { columnBlock } from '../../../../src/core/svd/randomizedSvd.js';
 
 // Reference: the plain typed-array executor (its kernels are checked against brute force in
 // kernels.test.ts). The SIMD kernels promise the very same IEEE operations, so the same bits.
@@ -97,16 +97,16 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
       [0, 23],
     ]) {
       const block = ex.float64(rows * w);
-      gatherColumns(src, block, rows, l, c0, w, ex);
+      columnBlock(src, block, rows, [l, c0, w], 'gather', ex);
       const plain = new Float64Array(rows * w);
-      gatherColumns(src, plain, rows, l, c0, w);
+      columnBlock(src, plain, rows, [l, c0, w], 'gather');
       expect(same(block, plain)).toBe(true);
       for (let i = 0; i < rows; i++) for (let j = 0; j < w; j++) expect(Object.is(block[i * w + j], src[i * l + c0 + j])).toBe(true);
       // Back into a blank block of the full width: only those columns change.
       const dst = ex.float64(rows * l);
       const dstPlain = new Float64Array(rows * l);
-      scatterColumns(block, dst, rows, l, c0, w, ex);
-      scatterColumns(block, dstPlain, rows, l, c0, w);
+      columnBlock(dst, block, rows, [l, c0, w], 'scatter', ex);
+      columnBlock(dstPlain, block, rows, [l, c0, w], 'scatter');
       expect(same(dst, dstPlain)).toBe(true);
     }
   });
@@ -114,9 +114,11 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
   it('copies columns only between arrays of its arena, and never past their ends', () => {
     const ex = wasm!;
     const inside = ex.float64(40);
-    expect(ex.copyColumns(new Float64Array(40), 8, 0, inside, 4, 0, 4, 5)).toBe(false);
-    expect(() => ex.copyColumns(inside, 8, 5, ex.float64(20), 4, 0, 4, 5)).toThrow(RangeError);
-    expect(() => ex.copyColumns(inside, 8, 0, ex.float64(19), 4, 0, 4, 5)).toThrow(RangeError);
+    const run = { src: inside, srcStride: 8, srcAt: 0, dst: ex.float64(20), dstStride: 4, dstAt: 0, w: 4, rows: 5 };
+    expect(ex.copyColumns(run)).toBe(true);
+    expect(ex.copyColumns({ ...run, src: new Float64Array(40) })).toBe(false);
+    expect(() => ex.copyColumns({ ...run, srcAt: 5 })).toThrow(RangeError);
+    expect(() => ex.copyColumns({ ...run, dst: ex.float64(19) })).toThrow(RangeError);
   });
 
   it('frees scoped arena memory for reuse', () => {

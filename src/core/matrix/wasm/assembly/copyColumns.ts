@@ -1,7 +1,7 @@
 /**
  * Columns of a row range copied between two row-major f64 blocks of different widths: for every
  * row i in [r0, r1), the w numbers at src + i·srcStride go to dst + i·dstStride (strides in
- * numbers). The WebAssembly twin of gatherColumns / scatterColumns in ../../../svd/randomizedSvd.ts:
+ * numbers). The WebAssembly twin of copyColumnRun's loop in ../../executor.ts (the SVD's columnBlock):
  * a copy, so the bits are the source's whatever the route.
  *
  * Arguments (byte offsets into the one shared memory):
