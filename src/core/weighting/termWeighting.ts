@@ -51,9 +51,10 @@ export function localWeight(tf: number, scheme: WeightingScheme): number {
 }
 
 /**
- * weightDocument's numbers for the terms ids[from, to) with their counts, written from position
+ * A document's weighted row (local × global weight of each term with a model column, divided by
+ * the row's norm; weightDocument) for the terms ids[from, to) with their counts, written from position
  * `at` of indices and values (a row of a CSR matrix: no arrays of its own); returns the position
- * after the last entry written. The same arithmetic in the same order, so the same bits.
+ * after the last entry written, and puts the row's norm before normalisation in norm[0] when given.
  */
 export function weightRowInto(
   ids: Int32Array,
@@ -66,6 +67,7 @@ export function weightRowInto(
   indices: Int32Array,
   values: Float64Array,
   at: number,
+  norm?: Float64Array,
 ): number {
   let p = at;
   let ss = 0;
@@ -79,8 +81,9 @@ export function weightRowInto(
     values[p++] = w;
     ss += w * w;
   }
-  const norm = Math.sqrt(ss);
-  if (norm > 0) for (let q = at; q < p; q++) values[q] /= norm;
+  const n = Math.sqrt(ss);
+  if (n > 0) for (let q = at; q < p; q++) values[q] /= n;
+  if (norm) norm[0] = n;
   return p;
 }
 
@@ -93,22 +96,9 @@ export interface WeightedVector {
 }
 
 export function weightDocument(doc: DocTerms, columnOf: Int32Array, weights: Float64Array, scheme: WeightingScheme): WeightedVector {
-  const cols: number[] = [];
-  const vals: number[] = [];
-  let ss = 0;
-  for (let i = 0; i < doc.termIds.length; i++) {
-    const id = doc.termIds[i];
-    const c = id < columnOf.length ? columnOf[id] : -1;
-    if (c < 0) continue;
-    const w = localWeight(doc.counts[i], scheme) * weights[c];
-    if (w === 0) continue;
-    cols.push(c);
-    vals.push(w);
-    ss += w * w;
-  }
-  const norm = Math.sqrt(ss);
-  const values = Float64Array.from(vals);
-  if (norm > 0) for (let i = 0; i < values.length; i++) values[i] /= norm;
+  const n = doc.termIds.length;
+  const [columns, values, norm] = [new Int32Array(n), new Float64Array(n), new Float64Array(1)];
+  const end = weightRowInto(doc.termIds, doc.counts, 0, n, columnOf, weights, scheme, columns, values, 0, norm);
   // columnOf is monotone in vocabulary id, so columns come out ascending.
-  return { columns: Int32Array.from(cols), values, norm };
+  return { columns: columns.slice(0, end), values: values.slice(0, end), norm: norm[0] };
 }

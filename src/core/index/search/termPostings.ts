@@ -186,7 +186,13 @@ export class PostingsBlock {
    * decode) and returns n: a query scores from there without arrays of its own.
    */
   decode(t: number): number {
-    return decodeList(this._bytes, this._offsets[t], this._offsets[t + 1], this);
+    const [bytes, from, to] = [this._bytes, this._offsets[t], this._offsets[t + 1]];
+    // At least 2 bytes an entry: at most (to − from) / 2 entries.
+    if ((to - from) >> 1 > this._slots.length) {
+      const size = Math.max((to - from) >> 1, 2 * this._slots.length);
+      [this._slots, this._tfs] = [new Int32Array(size), new Float32Array(size)];
+    }
+    return decodeList(bytes, from, to, this._slots, this._tfs);
   }
 
   /** The slots of the last list decoded. */
@@ -197,15 +203,6 @@ export class PostingsBlock {
   /** The counts of the last list decoded. */
   get tfs(): Float32Array {
     return this._tfs;
-  }
-
-  /** Room for at least n decoded entries. */
-  room(n: number): { slots: Int32Array; tfs: Float32Array } {
-    if (n > this._slots.length) {
-      const size = Math.max(n, 2 * this._slots.length);
-      [this._slots, this._tfs] = [new Int32Array(size), new Float32Array(size)];
-    }
-    return { slots: this._slots, tfs: this._tfs };
   }
 }
 
@@ -245,10 +242,8 @@ function putCount(out: Uint8Array, p: number, tf: number): number {
   return p + 4;
 }
 
-/** Decodes bytes [from, to) of one term into block's scratch; returns the number of entries. */
-function decodeList(bytes: Uint8Array, from: number, to: number, block: PostingsBlock): number {
-  // At least 2 bytes an entry: at most (to − from) / 2 entries.
-  const { slots, tfs } = block.room((to - from) >> 1);
+/** Decodes bytes [from, to) of one term into slots and tfs (long enough); returns the number of entries. */
+function decodeList(bytes: Uint8Array, from: number, to: number, slots: Int32Array, tfs: Float32Array): number {
   let n = 0;
   let slot = -1;
   for (let p = from; p < to; n++) {
