@@ -5,10 +5,10 @@
  * and mostly measures overall term mass rather than topic (methods notes §6), so plotting raw
  * concept axes 1–2 shows little structure; centring removes that common direction first.
  * Cost O(n·dim²) for the dim×dim covariance (accumulated in float64) plus a dense dim×dim
- * eigen-decomposition with ml-matrix. Queries are placed by the same linear map (quickProjection.ts).
+ * eigen-decomposition (symmetricEigen.ts). Queries are placed by the same linear map (quickProjection.ts).
  */
-import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { EmptyCorpusError } from '../errors.js';
+import { symmetricEigen } from '../matrix/symmetricEigen.js';
 import { applyFrameAll, fitFrame, type LayoutFrame } from './layoutFrame.js';
 import { projectRaw } from './quickProjection.js';
 import { normaliseRows, rowVectors } from './rowVectors.js';
@@ -46,24 +46,24 @@ export function quickLayout(vectors: Float32Array, n: number, dim: number): Quic
       for (let c = r; c < dim; c++) scatter[ro + c] += vr * centred[c];
     }
   }
-  const m = new Matrix(dim, dim);
+  const m = new Float64Array(dim * dim);
   let trace = 0;
   for (let r = 0; r < dim; r++) {
     trace += scatter[r * dim + r];
     for (let c = r; c < dim; c++) {
-      m.set(r, c, scatter[r * dim + c]);
-      m.set(c, r, scatter[r * dim + c]);
+      m[r * dim + c] = scatter[r * dim + c];
+      m[c * dim + r] = scatter[r * dim + c];
     }
   }
-  const evd = new EigenvalueDecomposition(m, { assumeSymmetric: true });
-  const order = evd.realEigenvalues.map((v, i) => [v, i] as const).sort((a, b) => b[0] - a[0]);
+  const evd = symmetricEigen(m, dim);
+  const order = Array.from(evd.values, (v, i) => [v, i] as const).sort((a, b) => b[0] - a[0]);
   const axes = new Float64Array(2 * dim);
   let shown = 0;
   for (let r = 0; r < Math.min(2, dim); r++) {
     shown += Math.max(0, order[r][0]);
     let big = 0;
     for (let c = 0; c < dim; c++) {
-      const v = evd.eigenvectorMatrix.get(c, order[r][1]);
+      const v = evd.vectors[order[r][1] * dim + c];
       axes[r * dim + c] = v;
       if (Math.abs(v) > Math.abs(big)) big = v;
     }

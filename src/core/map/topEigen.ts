@@ -1,14 +1,14 @@
 /**
  * The largest (algebraic) eigenpairs of a dense symmetric matrix, as classical MDS needs them:
  * Lanczos with full reorthogonalisation (Golub & Van Loan, Matrix Computations, 4th ed., §10.1),
- * Ritz pairs from the small tridiagonal matrix (solved with ml-matrix), stopping when every wanted
+ * Ritz pairs from the small tridiagonal matrix (solved with symmetricEigen.ts), stopping when every wanted
  * pair's residual bound |β_j·s_ji| falls below tolerance·|λ|max. Lanczos converges at both ends of
  * the spectrum, so large negative eigenvalues (non-Euclidean geodesic matrices have them) do not
- * crowd out the positive ones. Matrices up to denseMaxN use ml-matrix's dense solver directly.
+ * crowd out the positive ones. Matrices up to denseMaxN use that dense solver directly.
  * Sign convention: each eigenvector's largest-magnitude entry is positive.
  */
-import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { InvalidInputError } from '../errors.js';
+import { symmetricEigen } from '../matrix/symmetricEigen.js';
 import { createRandom, DEFAULT_SEED } from '../random.js';
 
 export interface TopEigenOptions {
@@ -38,15 +38,13 @@ export function topEigenpairs(a: Float64Array, n: number, count: number, options
 }
 
 function denseTop(a: Float64Array, n: number, want: number): EigenPairs {
-  const m = new Matrix(n, n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) m.set(i, j, a[i * n + j]);
-  const evd = new EigenvalueDecomposition(m, { assumeSymmetric: true });
-  const order = evd.realEigenvalues.map((v, i) => [v, i] as const).sort((x, y) => y[0] - x[0]);
+  const evd = symmetricEigen(a, n);
+  const order = Array.from(evd.values, (v, i) => [v, i] as const).sort((x, y) => y[0] - x[0]);
   const values = new Float64Array(want);
   const vectors = new Float64Array(want * n);
   for (let r = 0; r < want; r++) {
     values[r] = order[r][0];
-    for (let i = 0; i < n; i++) vectors[r * n + i] = evd.eigenvectorMatrix.get(i, order[r][1]);
+    vectors.set(evd.vectors.subarray(order[r][1] * n, order[r][1] * n + n), r * n);
   }
   return { values, vectors };
 }
@@ -103,16 +101,16 @@ function lanczosTop(a: Float64Array, n: number, want: number, opts: TopEigenOpti
 
 function ritzPairs(alpha: number[], beta: number[], q: Float64Array, n: number, want: number) {
   const steps = alpha.length;
-  const t = new Matrix(steps, steps);
+  const t = new Float64Array(steps * steps);
   for (let i = 0; i < steps; i++) {
-    t.set(i, i, alpha[i]);
+    t[i * steps + i] = alpha[i];
     if (i + 1 < steps) {
-      t.set(i, i + 1, beta[i]);
-      t.set(i + 1, i, beta[i]);
+      t[i * steps + i + 1] = beta[i];
+      t[(i + 1) * steps + i] = beta[i];
     }
   }
-  const evd = new EigenvalueDecomposition(t, { assumeSymmetric: true });
-  const order = evd.realEigenvalues.map((v, i) => [v, i] as const).sort((x, y) => y[0] - x[0]);
+  const evd = symmetricEigen(t, steps);
+  const order = Array.from(evd.values, (v, i) => [v, i] as const).sort((x, y) => y[0] - x[0]);
   const take = Math.min(want, steps);
   const values = new Float64Array(want);
   const vectors = new Float64Array(want * n);
@@ -120,9 +118,9 @@ function ritzPairs(alpha: number[], beta: number[], q: Float64Array, n: number, 
   for (let r = 0; r < take; r++) {
     const col = order[r][1];
     values[r] = order[r][0];
-    lastComponents.push(evd.eigenvectorMatrix.get(steps - 1, col));
+    lastComponents.push(evd.vectors[col * steps + steps - 1]);
     for (let j = 0; j < steps; j++) {
-      const s = evd.eigenvectorMatrix.get(j, col);
+      const s = evd.vectors[col * steps + j];
       const qo = j * n;
       for (let i = 0; i < n; i++) vectors[r * n + i] += s * q[qo + i];
     }

@@ -2,7 +2,7 @@
  * The Rayleigh–Ritz step that ends the randomized SVD (Halko, Martinsson & Tropp 2011, Alg. 5.1,
  * in its "eigen-decomposition of BBᵀ" form, as gensim's multi-pass LSI uses): for an orthonormal
  * basis Q (small side, S × l) of A's range and Z = AᵀQ (big side, B × l), G = ZᵀZ = BBᵀ with
- * B = QᵀA. With G = W Λ Wᵀ (ml-matrix, l × l): σ = √λ, small-side vectors Q W and big-side
+ * B = QᵀA. With G = W Λ Wᵀ (symmetricEigen.ts, l × l): σ = √λ, small-side vectors Q W and big-side
  * vectors Z W Σ⁻¹ = Aᵀ (Q W) Σ⁻¹ (formed in randomizedSvd.ts by one sparse pass, in blocks of
  * rows). Only l × l work happens here.
  *
@@ -11,7 +11,7 @@
  * in proportion to (σ₁/σ)²·ε, so they are re-orthogonalised against the others by Gram–Schmidt
  * (twice), or replaced by a seeded random direction when nothing is left of them.
  */
-import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
+import { symmetricEigen } from '../matrix/symmetricEigen.js';
 import type { RandomSource } from '../random.js';
 
 /** λ below this share of λ₁ counts as zero (a few hundred ε; common practice for Gram matrices). */
@@ -28,22 +28,16 @@ export interface RitzPairs {
 
 /** Top-k eigenpairs of the symmetric l × l matrix G (descending; ties by index). */
 export function topEigenpairs(g: Float64Array, l: number, k: number): RitzPairs {
-  const rows: number[][] = [];
-  for (let i = 0; i < l; i++) {
-    const row = new Array<number>(l);
-    for (let j = 0; j < l; j++) row[j] = 0.5 * (g[i * l + j] + g[j * l + i]);
-    rows.push(row);
-  }
-  const evd = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true });
-  const lambda = evd.realEigenvalues;
-  const vec = evd.eigenvectorMatrix;
+  const sym = new Float64Array(l * l);
+  for (let i = 0; i < l; i++) for (let j = 0; j < l; j++) sym[i * l + j] = 0.5 * (g[i * l + j] + g[j * l + i]);
+  const { values: lambda, vectors } = symmetricEigen(sym, l);
   const order = Array.from({ length: l }, (_, i) => i)
     .sort((a, b) => lambda[b] - lambda[a] || a - b)
     .slice(0, k);
   const top = Math.max(lambda[order[0]], 0);
   const s = Float64Array.from(order, (i) => (lambda[i] > RANK_TOLERANCE * top ? Math.sqrt(lambda[i]) : 0));
   const w = new Float64Array(l * k);
-  for (let c = 0; c < k; c++) for (let i = 0; i < l; i++) w[i * k + c] = vec.get(i, order[c]);
+  for (let c = 0; c < k; c++) for (let i = 0; i < l; i++) w[i * k + c] = vectors[order[c] * l + i];
   return { s, w };
 }
 

@@ -9,13 +9,13 @@
  *   ‖A − CUR‖²_F = ‖A‖²_F − 2⟨X, U⟩ + trace(Uᵀ G_C U G_R);
  *   ‖A − CC⁺A‖²_F = ‖A‖²_F − trace(G_C⁺ (CᵀA)(CᵀA)ᵀ), and likewise for rows with Y = A Rᵀ.
  * These are exact (no sampling); only rounding separates them from a dense computation.
- * The small pseudo-inverses come from ml-matrix's symmetric eigen-decomposition with a relative
+ * The small pseudo-inverses come from a symmetric eigen-decomposition (symmetricEigen.ts) with a relative
  * cut-off of 1e-10·size·λ_max on the Gram eigenvalues (singular values of C below ≈1e-5·√size of the
  * largest are treated as zero: our choice, since Gram matrices square the condition number).
  * Cost: O(nnz·r + (m + n)·(c² + r²)) time, (m·c + n·r) numbers.
  */
-import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { gram, multiplySmall } from '../matrix/dense.js';
+import { symmetricEigen } from '../matrix/symmetricEigen.js';
 import {
   csrFrobeniusSquared,
   csrTimesDense,
@@ -129,16 +129,12 @@ function rowError(a: CsrMatrix, rt: DenseBlock, frob: number, grPinv?: Float64Ar
 }
 
 /**
- * Pseudo-inverse of a small symmetric positive semi-definite row-major matrix: ml-matrix's
- * symmetric eigen-decomposition G = WΛWᵀ, then G⁺ = W·Λ⁺·Wᵀ (the same cut-off rule as ml-matrix
+ * Pseudo-inverse of a small symmetric positive semi-definite row-major matrix: the symmetric
+ * eigen-decomposition G = WΛWᵀ (symmetricEigen.ts), then G⁺ = W·Λ⁺·Wᵀ (the same cut-off rule as ml-matrix
  * pseudoInverse, which runs a general SVD about 2.5× slower on these sizes).
  */
 export function symmetricPinv(g: Float64Array, n: number): Float64Array {
-  const rows: number[][] = [];
-  for (let i = 0; i < n; i++) rows.push(Array.from(g.subarray(i * n, (i + 1) * n)));
-  const evd = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true });
-  const lambda = evd.realEigenvalues;
-  const w = evd.eigenvectorMatrix.to1DArray();
+  const { values: lambda, vectors: w } = symmetricEigen(g, n);
   let max = 0;
   for (const l of lambda) max = Math.max(max, Math.abs(l));
   const cutoff = GRAM_PINV_THRESHOLD * n * max;
@@ -147,9 +143,9 @@ export function symmetricPinv(g: Float64Array, n: number): Float64Array {
     if (!(lambda[e] > cutoff)) continue;
     const inv = 1 / lambda[e];
     for (let i = 0; i < n; i++) {
-      const wi = w[i * n + e] * inv;
+      const wi = w[e * n + i] * inv;
       if (wi === 0) continue;
-      for (let j = 0; j < n; j++) out[i * n + j] += wi * w[j * n + e];
+      for (let j = 0; j < n; j++) out[i * n + j] += wi * w[e * n + j];
     }
   }
   return out;
