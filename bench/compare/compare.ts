@@ -180,12 +180,31 @@ function runCommandCompare(): void {
     const dir = mkdtempSync(join(tmpdir(), `undertone-cmd-${name}-`));
     try {
       const env = { ...process.env, UNDERTONE_CACHE_DIR: join(dir, 'cache') };
-      const list = spawnSync(process.execPath, [cli, 'count', folder, '--list'], { encoding: 'utf8', env, maxBuffer: 256 * 1024 * 1024 });
+      // The corpora sit in this repository's git work tree, so the scan would read their .gitignore
+      // files; the tree's top-level one (from Debian's packaging repository: `/*`, `!/debian/`)
+      // would then hide every file. A user's unpacked tarball is outside any work tree and scanned
+      // without them (scanRules.ts), which --no-gitignore reproduces here.
+      const scanFlags = name === 'tree' ? ['--no-gitignore'] : [];
+      const list = spawnSync(process.execPath, [cli, 'count', folder, '--list', ...scanFlags], {
+        encoding: 'utf8',
+        env,
+        maxBuffer: 256 * 1024 * 1024,
+      });
       if (list.status !== 0) throw new Error(`undertone count --list failed:\n${list.stderr}`);
       const paths = list.stdout.split('\n').filter((p) => p !== '');
       writeFileSync(join(dir, 'paths.txt'), paths.map((p) => join(folder, p)).join('\n') + '\n');
       const refArgs = (extra: string[]): string[] => [REFERENCE, 'pipeline', '--files', join(dir, 'paths.txt'), '--k', String(k), ...extra];
-      const ourArgs = (path: string): string[] => [...launchOf(path).flags, path, 'index', folder, '--k', String(k), '--rebuild', '--json'];
+      const ourArgs = (path: string): string[] => [
+        ...launchOf(path).flags,
+        path,
+        'index',
+        folder,
+        '--k',
+        String(k),
+        '--rebuild',
+        '--json',
+        ...scanFlags,
+      ];
       const ourEnv = (path: string): NodeJS.ProcessEnv => ({ ...env, ...launchOf(path).env });
       const sides: Side[] = [
         { label: `undertone index --k ${k} --rebuild`, runs: [] },
