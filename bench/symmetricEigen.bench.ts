@@ -26,14 +26,10 @@ const median = (xs: number[]): number => {
 const show = (xs: number[]): string => `${median(xs).toFixed(0)} ms (${Math.min(...xs).toFixed(0)}–${Math.max(...xs).toFixed(0)})`;
 
 for (const n of sizes) {
+  // A + Aᵀ of a seeded Gaussian A: symmetric, with a spread-out spectrum like a Gram matrix's.
   const rnd = createRandom(n);
-  const a = new Float64Array(n * n);
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j <= i; j++) {
-      const v = rnd.normal();
-      a[i * n + j] = v;
-      a[j * n + i] = v;
-    }
+  const g = Float64Array.from({ length: n * n }, () => rnd.normal());
+  const a = Float64Array.from({ length: n * n }, (_, at) => g[at] + g[(at % n) * n + Math.floor(at / n)]);
   const rows = Array.from({ length: n }, (_, i) => Array.from(a.subarray(i * n, i * n + n)));
   const theirs = (): EigenvalueDecomposition => new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true });
   const ours = (): ReturnType<typeof symmetricEigen> => symmetricEigen(a, n);
