@@ -16,7 +16,7 @@ import type { PoolOptions } from './parallel/workerPool.js';
 import { sharedModelSetting } from './conceptModelFile.js';
 import { ensureFolder, loadIndex, trySaveIndex } from './persist.js';
 import { openSpillBeside } from './sectionCodeFile.js';
-import { DEFAULT_SCAN_OPTIONS, scanFolder, type ScanOptions, type SkippedPath } from './scan.js';
+import { DEFAULT_SCAN_OPTIONS, gitignoreHint, scanFolder, type ScanOptions, type SkippedPath } from './scan.js';
 
 export type IndexStage = 'load' | PipelineStage;
 
@@ -93,6 +93,7 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
   const settings = resolveSettings(options.settings);
   if (sharedPath) settings.sharedModel = sharedModelSetting(sharedPath);
   let scanSkipped: readonly SkippedPath[] = [];
+  let gitIgnored = 0;
   let saveProblem: string | undefined;
   // The index's folder first, so a large build's scratch files can live beside the index (on its
   // disk); where it cannot be made they stay in memory, and the save reports why. A folder made
@@ -108,6 +109,7 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     scan: async () => {
       const scan = await scanFolder(root, options.scan, options.signal);
       scanSkipped = scan.skipped;
+      gitIgnored = scan.gitIgnored;
       return {
         files: scan.files.map((f) => ({ key: f.path, absPath: f.absPath, size: f.size, mtimeMs: f.mtimeMs })),
         skipped: tallySkipped(scan.skipped),
@@ -119,7 +121,8 @@ export async function indexFolder(root: string, options: FolderIndexOptions): Pr
     save: async (index, termLists) => {
       saveProblem = await trySaveIndex(options.indexFile, index, termLists);
     },
-    emptyMessage: `Nothing indexable in ${resolve(root)}: no text files remain after excludes.`,
+    emptyMessage: () =>
+      `Nothing indexable in ${resolve(root)}: no text files remain after excludes.${gitignoreHint(gitIgnored, '--no-gitignore')}`,
     signal: options.signal,
     onProgress: progress,
     threads: options.parallel ?? {},

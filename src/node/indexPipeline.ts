@@ -115,8 +115,8 @@ export interface PipelineOptions {
    * pass it on to the save (persist.ts, saveIndex).
    */
   readonly save?: (index: LsiIndex, termLists?: TermListSource) => Promise<void>;
-  /** Message of the EmptyCorpusError when no file has text. */
-  readonly emptyMessage: string;
+  /** Message of the EmptyCorpusError when no file has text (a function: asked after the scan). */
+  readonly emptyMessage: string | (() => string);
   readonly signal?: AbortSignal;
   /** Polled as well as signal, including during the synchronous SVD. */
   readonly isCancelled?: () => boolean;
@@ -323,7 +323,10 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     lap('read');
     const present = new Set(scan.files.map((f) => f.key));
     const removed = previous ? previous.paths().filter((p) => !present.has(p)).length : 0;
-    if (builder.size === 0) throw new EmptyCorpusError(options.emptyMessage);
+    if (builder.size === 0) {
+      const m = options.emptyMessage;
+      throw new EmptyCorpusError(typeof m === 'function' ? m() : m);
+    }
     const counts = { files: builder.size, reused, read, added, changed, removed, bytesRead, skipped };
 
     const unchanged =

@@ -70,10 +70,21 @@ export async function scanFolder(root: string, options: Partial<ScanOptions> = {
   } catch (err) {
     throw new FolderNotFoundError(abs, `cannot be read (${(err as NodeJS.ErrnoException).code ?? describeFsError(err)})`);
   }
-  const { files, skipped } = await walkFolder(abs, `${rootStat.dev}:${rootStat.ino}`, opts, signal);
+  const { files, skipped, gitIgnored } = await walkFolder(abs, `${rootStat.dev}:${rootStat.ino}`, opts, signal);
   files.sort((a, b) => compareCodeUnits(a.path, b.path));
   skipped.sort((a, b) => compareCodeUnits(a.path, b.path));
-  return { root: abs, files, skipped };
+  return { root: abs, files, skipped, gitIgnored };
+}
+
+/**
+ * The sentence an empty index's message ends with when .gitignore files left files or folders out
+ * (a folder git ignores may still be the one a person asked for), or '' when they did not.
+ * `howToInclude` names the switch that reads them anyway.
+ */
+export function gitignoreHint(gitIgnored: number, howToInclude: string): string {
+  if (gitIgnored <= 0) return '';
+  const what = gitIgnored === 1 ? '1 file or folder' : `${gitIgnored} files and folders`;
+  return ` .gitignore files left out ${what}; ${howToInclude} indexes them.`;
 }
 
 /** Options over the defaults; a field given as undefined keeps its default. */

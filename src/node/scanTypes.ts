@@ -83,4 +83,9 @@ export interface ScanResult {
   readonly files: readonly ScannedFile[];
   /** Sorted by `path`. */
   readonly skipped: readonly SkippedPath[];
+  /**
+   * Files and folders (a folder counts once, whatever it holds) that .gitignore files or
+   * .git/info/exclude left out; 0 when they are not read (honourGitignore off, or no git work tree).
+   */
+  readonly gitIgnored: number;
 }

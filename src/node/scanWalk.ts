@@ -68,9 +68,11 @@ export async function walkFolder(
   rootKey: string,
   opts: ScanOptions,
   signal: AbortSignal | undefined,
-): Promise<{ files: ScannedFile[]; skipped: SkippedPath[] }> {
+): Promise<{ files: ScannedFile[]; skipped: SkippedPath[]; gitIgnored: number }> {
   const files: ScannedFile[] = [];
   const skipped: SkippedPath[] = [];
+  // Files and folders that .gitignore rules alone left out (not the names or patterns before them).
+  let gitIgnored = 0;
   const visited = new Map<string, string>([[rootKey, '.']]);
   const insideRoots = realRoots([rootAbs, ...(opts.linkRoots ?? [])]);
   /** Whether a link's real target may be read: inside the folder (or a linkRoot), or outside when allowed. */
@@ -109,12 +111,21 @@ export async function walkFolder(
     if (signal?.aborted) throw new CancelledError();
   };
   /** Whether a file (or a link to one) is kept by names, patterns, .gitignore files and includes. */
-  const fileWanted = (rel: string, name: string, layers: readonly IgnoreLayer[]): boolean =>
-    !exclude.file(rel, name) && !(honourGitignore && isGitIgnored(layers, rel, false)) && (include === undefined || include.ignores(rel));
+  const fileWanted = (rel: string, name: string, layers: readonly IgnoreLayer[]): boolean => {
+    if (exclude.file(rel, name)) return false;
+    if (honourGitignore && isGitIgnored(layers, rel, false)) {
+      gitIgnored++;
+      return false;
+    }
+    return include === undefined || include.ignores(rel);
+  };
   /** The layers for a folder's contents, or undefined when the folder is left out. */
   const folderLayers = (rel: string, name: string, layers: readonly IgnoreLayer[]): readonly IgnoreLayer[] | undefined => {
     if (exclude.folder(rel, name)) return undefined;
-    return honourGitignore ? enterFolder(layers, rel) : layers;
+    if (!honourGitignore) return layers;
+    const inner = enterFolder(layers, rel);
+    if (!inner) gitIgnored++;
+    return inner;
   };
 
   const addFile = (rel: string, abs: string, size: number, mtimeMs: number): void => {
@@ -234,7 +245,7 @@ export async function walkFolder(
     const next = linked.pop()!;
     if (claim(next, next.key)) await runQueue([next], visitFolder);
   }
-  return { files, skipped };
+  return { files, skipped, gitIgnored };
 }
 
 /** `.git/info/exclude` at the root, as the shallowest layer (gitignore(5)). */

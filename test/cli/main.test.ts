@@ -115,8 +115,29 @@ describe('undertone command line', () => {
     const nothing = await run('index', empty);
     expect(nothing.code).toBe(1);
     expect(nothing.err).toMatch(/Nothing indexable/);
+    expect(nothing.err).not.toMatch(/gitignore/);
     // The failed build leaves no index folder behind (the command makes it first, for scratch files).
     expect(readdirSync(cache).filter((name) => name.startsWith('empty-folder-'))).toEqual([]);
+  });
+
+  it('says when .gitignore files left everything out, and how to index it anyway', async () => {
+    // A folder inside a git working tree whose .gitignore hides its files (as the top-level one of
+    // Debian's linux-source-6.1 tarball does: `/*`, then `!/debian/`).
+    const repo = join(dir, 'ignored-repo');
+    mkdirSync(join(repo, '.git'), { recursive: true });
+    mkdirSync(join(repo, 'docs'));
+    writeFileSync(join(repo, '.gitignore'), '/*\n!/debian/\n');
+    writeFileSync(join(repo, 'docs', 'a.md'), 'Boundary layer notes on laminar flow over a flat plate.');
+    writeFileSync(join(repo, 'b.md'), 'Shock waves and supersonic flow.');
+    // A cache of its own: the damaged-index test below takes the first index in the shared one.
+    const runHere = (...args: string[]) => runCli(args, ['--cache-dir', join(dir, 'cache-gitignore')]);
+    const hidden = await runHere('index', repo);
+    expect(hidden.code).toBe(1);
+    expect(hidden.err).toMatch(/Nothing indexable/);
+    expect(hidden.err).toMatch(/\.gitignore files left out 3 files and folders; --no-gitignore indexes them\./);
+    const shown = await runHere('index', repo, '--no-gitignore', '--json');
+    expect(shown.code).toBe(0);
+    expect(JSON.parse(shown.out).files).toBe(3);
   });
 
   it('clamps a k larger than the collection allows, with a note', async () => {

@@ -134,6 +134,26 @@ describe('scanFolder', () => {
     expect(await paths(root, { honourGitignore: false })).toEqual(['.gitignore', 'a.log', 'sub/.gitignore', 'sub/b.md']);
   });
 
+  it('counts the files and folders .gitignore files left out, a folder once (reference: gitignore(5))', async () => {
+    const root = tree({
+      '.git/HEAD': '',
+      '.gitignore': '*.log\ndrafts/\n',
+      'a.log': '',
+      'b.log': '',
+      'drafts/x.md': '',
+      'drafts/y.md': '',
+      'node_modules/z.log': '',
+      'c.md': '',
+    });
+    const r = await scanFolder(root);
+    expect(r.files.map((f) => f.path)).toEqual(['.gitignore', 'c.md']);
+    // a.log, b.log and drafts/; node_modules/ goes by the built-in names first, so it is not counted.
+    expect(r.gitIgnored).toBe(3);
+    expect((await scanFolder(root, { honourGitignore: false })).gitIgnored).toBe(0);
+    // Outside a working tree .gitignore files are not read, so nothing is counted.
+    expect((await scanFolder(tree({ '.gitignore': '*.log\n', 'a.log': '' }))).gitIgnored).toBe(0);
+  });
+
   // git reads .gitignore files only inside a working tree (gitignore(5)). The case is Debian's
   // linux-source-6.1 tarball: its top-level .gitignore (lines copied from it: `.*`, `/*`,
   // `!/debian/`) comes from the packaging repository and hides every kernel file from git.

@@ -8,7 +8,7 @@ import { resolveSettings } from '../../core/index/model/settings.js';
 import type { LsiIndex } from '../../core/index/lsiIndex.js';
 import { runIndexPipeline, tallySkipped, type PipelineOptions, type SkipCounts, type SourceFile } from '../indexPipeline.js';
 import { ensureFolder } from '../persist.js';
-import { scanFolder } from '../scan.js';
+import { gitignoreHint, scanFolder } from '../scan.js';
 import { openSpillBeside } from '../sectionCodeFile.js';
 import type { Progress, WorkerConfig } from './workerProtocol.js';
 import type { RootMap } from './rootMap.js';
@@ -20,12 +20,15 @@ export interface WorkspaceScan {
   readonly files: readonly WorkspaceFile[];
   /** Files left out by the scan, by why. */
   readonly skipped: SkipCounts;
+  /** Files and folders that .gitignore files left out (ScanResult.gitIgnored, summed over the folders). */
+  readonly gitIgnored: number;
 }
 
 /** Lists the indexable files of every folder. */
 export async function scanWorkspace(roots: RootMap, config: WorkerConfig, signal?: AbortSignal): Promise<WorkspaceScan> {
   const files: WorkspaceFile[] = [];
   const skipped: SkipCounts = { binary: 0, tooLarge: 0, unreadable: 0, other: 0 };
+  let gitIgnored = 0;
   for (const root of roots.roots) {
     const scan = await scanFolder(
       root.fsPath,
@@ -46,8 +49,9 @@ export async function scanWorkspace(roots: RootMap, config: WorkerConfig, signal
     skipped.tooLarge += t.tooLarge;
     skipped.unreadable += t.unreadable;
     skipped.other += t.other;
+    gitIgnored += scan.gitIgnored;
   }
-  return { files, skipped };
+  return { files, skipped, gitIgnored };
 }
 
 export interface WorkspaceBuild {
@@ -88,6 +92,7 @@ export async function buildWorkspaceIndex(
 ): Promise<WorkspaceBuild> {
   const { threads } = options;
   const folder = options.scratchFolder;
+  let gitIgnored = 0;
   const scratch =
     folder === undefined
       ? undefined
@@ -97,10 +102,15 @@ export async function buildWorkspaceIndex(
         );
   const result = await runIndexPipeline({
     settings: resolveSettings(config.settings),
-    scan: () => scanWorkspace(roots, config, options.signal),
+    scan: async () => {
+      const scan = await scanWorkspace(roots, config, options.signal);
+      gitIgnored = scan.gitIgnored;
+      return scan;
+    },
     maxFileBytes: config.maxFileBytes,
     previous: options.previous,
-    emptyMessage: 'Nothing to index: no text files remain after the exclude settings.',
+    emptyMessage: () =>
+      `Nothing to index: no text files remain after the exclude settings.${gitignoreHint(gitIgnored, 'turning off the setting undertone.useGitignore')}`,
     signal: options.signal,
     isCancelled: options.isCancelled,
     onProgress: options.onProgress,

@@ -72,4 +72,20 @@ describe('buildWorkspaceIndex', () => {
     const second = await buildWorkspaceIndex(roots, config, { previous: first.index, threads: false });
     expect(second).toMatchObject({ read: 1, reused: 299 });
   });
+
+  it('names the setting when .gitignore files left every file out', async () => {
+    // A workspace folder in a git working tree whose .gitignore hides its files (`/*`, as the
+    // top-level one of Debian's linux-source-6.1 tarball has it).
+    const repo = join(tmp, 'ignored');
+    mkdirSync(join(repo, '.git'), { recursive: true });
+    writeFileSync(join(repo, '.gitignore'), '/*\n');
+    writeFileSync(join(repo, 'a.txt'), docs[0]?.text ?? 'flow');
+    const only = new RootMap([{ name: 'ignored', fsPath: repo, exclude: [] }]);
+    const cfg = workerConfig({ roots: only.roots, indexFile: join(tmp, 'unused'), honourGitignore: true });
+    await expect(buildWorkspaceIndex(only, cfg, { threads: false })).rejects.toThrow(
+      /^Nothing to index: .*\.gitignore files left out 2 files and folders; turning off the setting undertone\.useGitignore indexes them\.$/,
+    );
+    const off = workerConfig({ roots: only.roots, indexFile: join(tmp, 'unused'), honourGitignore: false });
+    await expect(buildWorkspaceIndex(only, off, { threads: false })).resolves.toMatchObject({ read: 2 });
+  });
 });
