@@ -182,9 +182,10 @@ function runCommandCompare(): void {
       const env = { ...process.env, UNDERTONE_CACHE_DIR: join(dir, 'cache') };
       // The corpora sit in this repository's git work tree, so the scan would read their .gitignore
       // files; the tree's top-level one (from Debian's packaging repository: `/*`, `!/debian/`)
-      // would then hide every file. A user's unpacked tarball is outside any work tree and scanned
-      // without them (scanRules.ts), which --no-gitignore reproduces here.
-      const scanFlags = name === 'tree' ? ['--no-gitignore'] : [];
+      // would then hide every file. A user's unpacked tarball or demo folder is outside any work
+      // tree and scanned without them (scanRules.ts), which --no-gitignore reproduces here (the
+      // Documentation folder and the demo keep the same files either way: 8,863 and 119).
+      const scanFlags = ['--no-gitignore'];
       const list = spawnSync(process.execPath, [cli, 'count', folder, '--list', ...scanFlags], {
         encoding: 'utf8',
         env,
