@@ -298,6 +298,66 @@ export function translateSmallRun(
   }
 }
 
+/** A run's byte counts, copied aside while rankSmallRun puts them in rank order. */
+let runBytes = new Uint8Array(1024);
+
+/**
+ * The first half of translateSmallRun, done before the final ids are known: ids[from, to)
+ * become their ranks (rank[id]: the term's place in the thread's own sorted order) in ascending
+ * order, in place, their byte counts moved along (and `big`'s keys with them). A tokenizing thread
+ * does this while the main thread merges the threads' sorted terms, when it would otherwise wait;
+ * the final ids then map the ranks in increasing order (the merge keeps each thread's order), so
+ * mapRankedRun gives each run sorted with no sort left, the same arrays as translateSmallRun.
+ */
+export function rankSmallRun(
+  ids: Int32Array,
+  counts: Uint8Array,
+  big: Map<number, number>,
+  from: number,
+  to: number,
+  rank: Int32Array,
+): void {
+  sortRunKeys(ids, from, to, rank);
+  const n = to - from;
+  if (n > runBytes.length) runBytes = new Uint8Array(Math.max(n, runBytes.length * 2));
+  runBytes.set(counts.subarray(from, to));
+  const k = keys;
+  let moved: number[] | undefined;
+  for (let j = 0; j < n; j++) {
+    const r = Math.floor(k[j] / SHIFT);
+    const i = k[j] - r * SHIFT;
+    const c = runBytes[i];
+    ids[from + j] = r;
+    counts[from + j] = c;
+    if (c === SECTION_COUNT_BIG) (moved ??= []).push(from + j, big.get(from + i)!);
+  }
+  if (!moved) return;
+  // The large counts' keys are the run's positions: all old ones go before any new one is set.
+  for (let i = 0; i < n; i++) if (runBytes[i] === SECTION_COUNT_BIG) big.delete(from + i);
+  for (let m = 0; m < moved.length; m += 2) big.set(moved[m], moved[m + 1]);
+}
+
+/**
+ * translateSmallRun of a run rankSmallRun has put in rank order: byRank (strictly increasing) gives
+ * each rank's final id; each entry stays where it is.
+ */
+export function mapRankedRun(
+  ids: Int32Array,
+  counts: Uint8Array,
+  big: ReadonlyMap<number, number>,
+  from: number,
+  to: number,
+  byRank: Int32Array,
+  termIds: Int32Array,
+  out: Float32Array,
+): void {
+  for (let i = from; i < to; i++) {
+    termIds[i] = byRank[ids[i]];
+    const c = counts[i];
+    out[i] = c === SECTION_COUNT_BIG ? big.get(i)! : c;
+  }
+}
+
 /** Fills keys[0, to − from) with (new id, position) of ids[from, to), ascending. */
 function sortRunKeys(ids: Int32Array, from: number, to: number, tr: Int32Array): void {
   const n = to - from;

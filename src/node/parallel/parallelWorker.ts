@@ -7,7 +7,7 @@ import { collectGarbage } from '../collectGarbage.js';
 import { parentPort } from 'node:worker_threads';
 import { instantiateKernels, type KernelExports } from '../../core/matrix/wasm/wasmArena.js';
 import { CTRL_FAILED, CTRL_FINISHED, drainTasks } from './kernelTasks.js';
-import { translateSmallRun } from './parallelCount.js';
+import { mapRankedRun, rankSmallRun, translateSmallRun } from './parallelCount.js';
 import { grow32, mappedInt32 } from './wordTable.js';
 import type { FileOutcome, FinalCounts, FromWorker, ToWorker } from './threadProtocol.js';
 import { decodeUtf8 } from '../scanRead.js';
@@ -63,6 +63,8 @@ port.on('message', (msg: ToWorker) => {
     port.postMessage(reply, [units.buffer as ArrayBuffer, starts.buffer as ArrayBuffer]);
     // Once setAsideCounts has returned (its frame held the counter), while the main thread merges.
     collectGarbage();
+    // Still while it merges (a finish-counts waits in the queue until this returns).
+    rankRuns();
     return;
   }
   if (msg.type === 'setup') {
@@ -151,6 +153,8 @@ let finishing:
       readonly order: Int32Array;
       readonly files: ReturnType<WordCounter['drainSmallPack']>;
       readonly sections: ReturnType<WordCounter['drainSmallSectionPack']>;
+      /** The runs hold ranks in ascending order (rankRuns), not the thread's own ids. */
+      readonly ranked: boolean;
     }
   | undefined;
 
@@ -168,9 +172,25 @@ function setAsideCounts(): TermUnits {
   collectGarbage();
   const { order, terms: units } = wc.sortedTerms();
   // Views of the packs: valid as long as nothing more is packed, and the counter is dropped here.
-  finishing = { order, files: wc.drainSmallPack(), sections: wc.drainSmallSectionPack() };
+  finishing = { order, files: wc.drainSmallPack(), sections: wc.drainSmallSectionPack(), ranked: false };
   counter = undefined;
   return units;
+}
+
+/**
+ * Puts every kept run, files' and sections', in the order of the thread's sorted terms (ids become
+ * ranks: rankSmallRun), so finish-counts only maps them: the sorting that made the threads' finish,
+ * one thread after the other, last seconds on a large tree is done here, by all threads at once,
+ * while the main thread merges their terms. In place: no memory beyond a rank per term.
+ */
+function rankRuns(): void {
+  if (!finishing || finishing.ranked) return;
+  const { order, files, sections: s } = finishing;
+  const rank = new Int32Array(order.length);
+  for (let p = 0; p < order.length; p++) rank[order[p]] = p;
+  for (let r = 0; r < kept.length; r += 2) rankSmallRun(files.ids, files.counts, files.big, kept[r], kept[r + 1], rank);
+  for (let r = 0; r < sectionRunsUsed; r += 2) rankSmallRun(s.ids, s.counts, s.big, sectionRuns[r], sectionRuns[r + 1], rank);
+  finishing = { ...finishing, ranked: true };
 }
 
 /** Notes the pack range of each of a file's sections (section i: [offsets[i], offsets[i + 1])). */
@@ -190,19 +210,24 @@ function keepSectionRuns(offsets: Int32Array): void {
  */
 function finishCounts(bySorted: Int32Array): FinalCounts {
   if (!finishing) setAsideCounts();
-  const { order, files, sections: s } = finishing!;
+  const { order, files, sections: s, ranked } = finishing!;
   finishing = undefined;
-  const translate = new Int32Array(order.length);
-  for (let p = 0; p < order.length; p++) translate[order[p]] = bySorted[p];
+  // Ranked runs map through bySorted itself; otherwise each run is translated and sorted here.
+  let translate = bySorted;
+  if (!ranked) {
+    translate = new Int32Array(order.length);
+    for (let p = 0; p < order.length; p++) translate[order[p]] = bySorted[p];
+  }
+  const finish = ranked ? mapRankedRun : translateSmallRun;
   // The counts were bytes: their floats get a buffer of their own (a mapping of its own past
   // MAPPED_FROM_BYTES, as the packs); the ids are translated in place.
   const { ids, counts, big } = files;
   const out = new Float32Array(mappedInt32(counts.length).buffer, 0, counts.length);
-  for (let r = 0; r < kept.length; r += 2) translateSmallRun(ids, counts, big, kept[r], kept[r + 1], translate, ids, out);
+  for (let r = 0; r < kept.length; r += 2) finish(ids, counts, big, kept[r], kept[r + 1], translate, ids, out);
   kept = [];
   const sectionCounts = new Float32Array(mappedInt32(s.counts.length).buffer, 0, s.counts.length);
   for (let r = 0; r < sectionRunsUsed; r += 2)
-    translateSmallRun(s.ids, s.counts, s.big, sectionRuns[r], sectionRuns[r + 1], translate, s.ids, sectionCounts);
+    finish(s.ids, s.counts, s.big, sectionRuns[r], sectionRuns[r + 1], translate, s.ids, sectionCounts);
   sectionRuns = new Int32Array(0);
   sectionRunsUsed = 0;
   return { type: 'final-counts', termIds: ids, counts: out, sectionTermIds: s.ids, sectionCounts };

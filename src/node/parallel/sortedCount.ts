@@ -54,10 +54,11 @@ export async function countFilesSorted(pool: WorkerPool, jobs: readonly CountJob
   lists.length = 0;
   const translate = merged.toMerged;
   options.onStep?.('merged');
-  // Each thread translates and sorts its own files' counts into one pair of arrays (and its
-  // sections' into another), one thread after the other: a thread's counts as floats are new
-  // arrays beside its packs, and with every thread at it at once they all stood at the peak
-  // (Linux tree: about 150 MB more than one at a time, for a few seconds of wall time less).
+  // Each thread translates its own files' counts into one pair of arrays (and its sections' into
+  // another), one thread after the other: a thread's counts as floats are new arrays beside its
+  // packs, and with every thread at it at once they all stood at the peak (Linux tree: about 150
+  // MB more than one at a time, for a few seconds of wall time less). Each run's sort by term
+  // was done by all threads at once while the merge above ran (parallelWorker.ts, rankRuns).
   const finals: FinalCounts[] = [];
   for (let w = 0; w < pool.workers.length; w++)
     finals.push(await ask<FinalCounts>(pool, w, { type: 'finish-counts', translate: translate[w] }, 'final-counts'));

@@ -1,7 +1,7 @@
 /** BatchQueue (how batches are handed to the tokenizing threads) and translateRun, checked by brute force. */
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../../src/core/random.js';
-import { BatchQueue, translateRun, translateSmallRun } from '../../../src/node/parallel/parallelCount.js';
+import { BatchQueue, mapRankedRun, rankSmallRun, translateRun, translateSmallRun } from '../../../src/node/parallel/parallelCount.js';
 import { SECTION_COUNT_BIG } from '../../../src/node/parallel/wordCounter.js';
 
 describe('BatchQueue', () => {
@@ -120,5 +120,52 @@ describe('translateRun', () => {
     const out = new Float32Array(small.length);
     for (let r = 0; r + 1 < runs.length; r++) translateSmallRun(inIds, small, big, runs[r], runs[r + 1], tr, inIds, out);
     expect(Array.from(inIds, (id, i) => [id, out[i]])).toEqual(want);
+  });
+
+  it('gives the same in two steps: runs put in rank order first (rankSmallRun), then mapped (mapRankedRun)', () => {
+    // The thread's own sorted order of its terms (order[p]: the local id of the p-th term) and
+    // the merge's final ids of that order, strictly increasing (every thread's terms keep their
+    // order in the merge): the composition is a local → final map like tr above.
+    const order = Int32Array.from({ length: terms }, (_, i) => i).sort((a, b) => tr[a] - tr[b]);
+    const byRank = Int32Array.from(order, (id) => tr[id]);
+    const rank = new Int32Array(terms);
+    order.forEach((id, p) => (rank[id] = p));
+    // Short runs and long ones, most counts small, some at or over the byte's limit (two or more in
+    // one run, so their positions move past each other).
+    const lengths = [0, 1, 2, 7, 24, 25, 31, 64, 100, 300];
+    const at = [0];
+    for (const n of lengths) at.push(at.at(-1)! + n);
+    const ids0 = new Int32Array(at.at(-1)!);
+    const counts0 = new Int32Array(ids0.length);
+    for (let r = 0; r < lengths.length; r++) {
+      const pick = [...tr.keys()].sort(() => rnd.next() - 0.5).slice(0, lengths[r]);
+      pick.forEach((id, i) => {
+        ids0[at[r] + i] = id;
+        counts0[at[r] + i] = rnd.next() < 0.2 ? SECTION_COUNT_BIG + Math.floor(rnd.next() * 1000) : 1 + Math.floor(rnd.next() * 9);
+      });
+    }
+    const pack = (): { ids: Int32Array; small: Uint8Array; big: Map<number, number> } => {
+      const big = new Map<number, number>();
+      counts0.forEach((c, i) => (c >= SECTION_COUNT_BIG ? big.set(i, c) : undefined));
+      return { ids: ids0.slice(), small: Uint8Array.from(counts0, (c) => Math.min(c, SECTION_COUNT_BIG)), big };
+    };
+    expect([...pack().big.keys()].length).toBeGreaterThan(20);
+    const one = pack();
+    const want = new Float32Array(ids0.length);
+    for (let r = 0; r < lengths.length; r++) translateSmallRun(one.ids, one.small, one.big, at[r], at[r + 1], tr, one.ids, want);
+    const two = pack();
+    for (let r = 0; r < lengths.length; r++) rankSmallRun(two.ids, two.small, two.big, at[r], at[r + 1], rank);
+    // Ranked: each run ascending, and as many large counts kept as before.
+    for (let r = 0; r < lengths.length; r++) for (let i = at[r] + 1; i < at[r + 1]; i++) expect(two.ids[i]).toBeGreaterThan(two.ids[i - 1]);
+    expect(two.big.size).toBe(one.big.size);
+    const got = new Float32Array(ids0.length);
+    for (let r = 0; r < lengths.length; r++) mapRankedRun(two.ids, two.small, two.big, at[r], at[r + 1], byRank, two.ids, got);
+    expect(Array.from(two.ids)).toEqual(Array.from(one.ids));
+    expect(Array.from(got)).toEqual(Array.from(want));
+    // Brute force as well: each run's (final id, count) pairs sorted by final id.
+    const brute = lengths.flatMap((n, r) =>
+      Array.from({ length: n }, (_, i) => [tr[ids0[at[r] + i]], counts0[at[r] + i]]).sort((a, b) => a[0] - b[0]),
+    );
+    expect(Array.from(two.ids, (id, i) => [id, got[i]])).toEqual(brute);
   });
 });
