@@ -24,7 +24,9 @@ export interface MatrixExecutor {
   int32(length: number): Int32Array;
   /**
    * Y = M X: M is rows × cols sparse, X is cols × l, Y is rows × l (row-major). With sequential,
-   * each row adds its entries one at a time, in order (the arithmetic of a plain loop).
+   * each row adds its entries one at a time, in order (the arithmetic of a plain loop). X may be
+   * f32 (each number promoted exactly): an f32 X in the executor's memory is read where it lies
+   * (sequential, f64 stored values), the same bits as an f64 copy of it.
    */
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential?: boolean): void;
   /** AᵀB for two rows × l blocks (l × l, row-major); symmetric and mirrored when a === b. */

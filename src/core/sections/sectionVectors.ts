@@ -85,6 +85,13 @@ export interface FoldManyOptions {
   /** Bytes of f64 term vectors handed to the executor at once. @default PROJECTION_BLOCK_BYTES */
   readonly blockBytes?: number;
   /**
+   * U_k read whole where it lies, as f32, by every chunk's product instead of gathered in f64
+   * column blocks chunk by chunk: an executor with memory of its own (WebAssembly, threads) then
+   * holds one f32 copy of it (terms × k × 4 bytes). @default wholeTermVectorsFor(sections, terms)
+   * (the plain executor always reads the model's own array: no copy)
+   */
+  readonly wholeTermVectors?: boolean;
+  /**
    * Where the rows go when all of them would take at least spillFromBytes (a scratch file beside
    * the index: src/node/sectionCodeFile.ts); the files' sections then read their vectors from it
    * (FileSections.stored). Without one, or when it gives null, the rows stay in memory.
@@ -119,6 +126,20 @@ export const SPILL_ROWS_FROM_BYTES = 256 * 1024 * 1024;
 export const FOLD_CHUNK_SECTIONS = 2048;
 
 /**
+ * Whether a fold of `sections` over `terms` terms gives the executor one f32 copy of U_k
+ * (FoldManyOptions.wholeTermVectors): when the sections outnumber the terms, so the rows the fold
+ * makes outweigh the copy. Otherwise the per-chunk gathers of U_k's rows add up to about one copy
+ * of it, and the copy would only add to the build's memory where the fold is its peak (the Linux
+ * Documentation folder: 36,567 sections over 51,651 terms). With many sections each chunk gathers
+ * again the rows of the terms it uses (the whole Linux tree: 1.33 M sections, some 650 chunks of
+ * about 15,000 terms each, a third of the fold's time on the calling thread while the other
+ * threads waited). Our rule, from that cost, not tuned.
+ */
+export function wholeTermVectorsFor(sections: number, terms: number): boolean {
+  return sections >= terms;
+}
+
+/**
  * Folds the counted sections of many files, each section's vector the same as
  * projectTerms(model, its terms).vector: per chunk, the rows weighted as weightDocument does,
  * U_kᵀd̂ by the executor's sequential sparse product (each row adds its terms in order, as
@@ -127,7 +148,9 @@ export const FOLD_CHUNK_SECTIONS = 2048;
  * is the same sum whatever the block, so the bits do not change): one f64 copy of all of it
  * (terms × k × 8 bytes: 83 MB on 51,651 terms at k = 200) would set the executor memory's high
  * mark, which it keeps to the end of the build. When U_k fits in one block it is copied once for
- * all chunks.
+ * all chunks. With many sections (wholeTermVectorsFor) the executor gets one f32 copy of U_k
+ * instead, which every chunk's product reads where it lies (the same numbers, so the same bits),
+ * and no chunk gathers anything; the plain executor always reads the model's own array.
  */
 export function foldCountedSections(model: ConceptModel, files: readonly CountedSections[], options: FoldManyOptions = {}): FileSections[] {
   const ex = options.executor ?? createWasmExecutor() ?? serialExecutor;
@@ -155,9 +178,18 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
   function foldChunks(): void {
     const { columnOf, weights, scheme, axisScale } = model;
     const terms = weights.length;
-    const width = Math.max(1, Math.min(k, Math.floor((options.blockBytes ?? PROJECTION_BLOCK_BYTES) / (8 * Math.max(1, terms)))));
-    const tv = ex.float64(terms * width);
-    if (width === k) tv.set(model.termVectors);
+    // U_k whole (f32, read where it lies: the same numbers, so the same sums), or in f64 blocks.
+    let whole: Float32Array | undefined;
+    if (ex === serialExecutor) whole = model.termVectors;
+    else if (options.wholeTermVectors ?? wholeTermVectorsFor(total, terms)) {
+      whole = ex.float32(terms * k);
+      whole.set(model.termVectors);
+    }
+    const width = whole
+      ? k
+      : Math.max(1, Math.min(k, Math.floor((options.blockBytes ?? PROJECTION_BLOCK_BYTES) / (8 * Math.max(1, terms)))));
+    const tv = whole ?? ex.float64(terms * width);
+    if (!whole && width === k) tv.set(model.termVectors);
     const row = new Float64Array(k);
     // Which file and section each row of the chunk is.
     const chunk = Math.max(1, Math.floor(options.chunkSections ?? (width === k ? FOLD_CHUNK_SECTIONS : 2 * FOLD_CHUNK_SECTIONS)));
@@ -256,7 +288,7 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
       scoped(() => {
         const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
         const part = ex.float64(rows * w);
-        if (acc) blockedTermProduct(ex, m, model.termVectors, k, w, tv, part, acc, used);
+        if (acc) blockedTermProduct(ex, m, model.termVectors, k, w, tv as Float64Array, part, acc, used);
         else ex.spmm(m, tv, k, part, true);
         const sums = acc ?? part;
         out?.fill(0, 0, rows * k);

@@ -26,6 +26,13 @@ export type KernelJob =
       readonly bounds: readonly number[];
     }
   | {
+      /** spmm_x32: f64 stored values, an f32 dense block, one entry at a time. */
+      readonly op: 'spmm_x32';
+      /** indptr, indices, values, x, l, y (offsets and the width). */
+      readonly args: readonly [number, number, number, number, number, number];
+      readonly bounds: readonly number[];
+    }
+  | {
       readonly op: 'cross';
       /** a, b, l, rows, partials (one l × l block per task), symmetric (0/1). */
       readonly args: readonly [number, number, number, number, number, number];
@@ -60,6 +67,11 @@ export function runTask(k: KernelExports, job: KernelJob, t: number, memory: Web
     case 'spmm_f32': {
       const [indptr, indices, values, x, l, y, grouped] = job.args;
       (job.op === 'spmm' ? k.spmm : k.spmm_f32)(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1], grouped);
+      return;
+    }
+    case 'spmm_x32': {
+      const [indptr, indices, values, x, l, y] = job.args;
+      k.spmm_x32(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1]);
       return;
     }
     case 'cross': {

@@ -36,6 +36,12 @@ export class ThreadExecutor extends WasmExecutor {
   override spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
     const out = this.out(y);
     const bounds = Array.from(splitCsrRows(m.indptr, m.rows, this.threads * TASKS_PER_THREAD));
+    const x32 = this.x32(m, x, sequential);
+    if (x32 >= 0) {
+      this.run({ op: 'spmm_x32', args: [this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), x32, l, out.ptr], bounds });
+      out.done();
+      return;
+    }
     const f32 = m.values instanceof Float32Array && this.arena.offsetOf(m.values) >= 0;
     const values = f32 ? m.values.byteOffset : this.ptr(m.values);
     this.run({

@@ -13,6 +13,7 @@ import { serialExecutor } from '../../../src/core/matrix/executor.js';
 import {
   foldContextOf,
   foldCountedSections,
+  wholeTermVectorsFor,
   foldSections,
   FOLD_CHUNK_SECTIONS,
   type CountedSections,
@@ -104,20 +105,23 @@ describe('section vectors', () => {
     const total = counted.reduce((n, c) => n + c.starts.length, 0);
     expect(total).toBeGreaterThan(300);
     expect(counted.some((c) => c.starts.length === 0)).toBe(false);
-    // Products of the default size, and of 37 sections (chunks end inside files); U_k whole, and
-    // in column blocks of 3 (the last one narrower unless 3 divides k).
+    // Products of the default size, and of 37 sections (chunks end inside files); U_k in f64
+    // column blocks of 3 (the last one narrower unless 3 divides k), in one f64 block, or whole
+    // in f32 where it lies (the plain executor always reads the model's own array).
     const threeColumns = 8 * index.model.weights.length * 3;
     const byRun: Float32Array[][] = [];
-    for (const [executor, chunkSections, blockBytes] of [
-      [serialExecutor, FOLD_CHUNK_SECTIONS, undefined],
-      [undefined, FOLD_CHUNK_SECTIONS, undefined],
-      [undefined, 37, undefined],
-      [undefined, 37, threeColumns],
-      [serialExecutor, undefined, threeColumns],
+    for (const [executor, chunkSections, blockBytes, wholeTermVectors] of [
+      [serialExecutor, FOLD_CHUNK_SECTIONS, undefined, undefined],
+      [undefined, FOLD_CHUNK_SECTIONS, undefined, false],
+      [undefined, 37, undefined, false],
       // Many chunks over a split U_k: each chunk gathers its column blocks again.
-      [serialExecutor, 37, threeColumns],
+      [undefined, 37, threeColumns, false],
+      [serialExecutor, 37, threeColumns, undefined],
+      // U_k copied whole into the executor's memory as f32 (spmm_x32).
+      [undefined, 37, threeColumns, true],
+      [undefined, FOLD_CHUNK_SECTIONS, undefined, true],
     ] as const) {
-      const folded = foldCountedSections(index.model, counted, { executor, chunkSections, blockBytes });
+      const folded = foldCountedSections(index.model, counted, { executor, chunkSections, blockBytes, wholeTermVectors });
       docs.forEach((d, i) => {
         const want = index.sections.get(d.id)!;
         expect(folded[i].titles).toEqual(want.titles);
@@ -127,10 +131,13 @@ describe('section vectors', () => {
       byRun.push(folded.map((f) => f.vectors));
     }
     expect(index.model.k % 3).not.toBe(0);
-    // Column blocks change no arithmetic: the same bits as U_k whole, on either executor.
-    expect(byRun[3]).toEqual(byRun[2]);
-    expect(byRun[4]).toEqual(byRun[0]);
-    expect(byRun[5]).toEqual(byRun[0]);
+    // Column blocks, f32 reads and chunk sizes change no arithmetic: the same bits every way.
+    for (let r = 1; r < byRun.length; r++) expect(byRun[r]).toEqual(byRun[0]);
+  });
+
+  it('gives the executor one f32 copy of U_k when the sections outnumber the terms (wholeTermVectorsFor)', () => {
+    expect(wholeTermVectorsFor(1_329_882, 100_000)).toBe(true);
+    expect(wholeTermVectorsFor(36_567, 51_651)).toBe(false);
   });
 
   it('reads the counts of files whose own arrays are empty from termsOf, a file at a time: the same bits', () => {

@@ -103,6 +103,33 @@ describe('worker pool', () => {
     }
   });
 
+  it('multiplies by an f32 block where it lies (spmm_x32, the sections fold) with the same bits as on one thread', () => {
+    // CISI's weighted matrix (documents × terms) times a seeded f32 block over its terms.
+    const builder = new IndexBuilder({ k: 20 });
+    for (const d of cisi.docs.slice(0, 400)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+    const index = builder.build({ executor: serialExecutor });
+    const m = modelMatrix(
+      index.model,
+      index.slots().map((s) => s!.terms),
+    );
+    const l = 13;
+    const ex = pool!.executor();
+    const x = ex.float32(m.cols * l);
+    const g = new Float64Array(m.cols * l);
+    serialExecutor.gaussian(g, m.cols, l, 3);
+    x.set(g);
+    const one = new Float64Array(m.rows * l);
+    serialExecutor.spmm(m, Float32Array.from(x), l, one, true);
+    const mt = { ...m, indptr: ex.int32(m.indptr.length), indices: ex.int32(m.indices.length), values: ex.float64(m.values.length) };
+    mt.indptr.set(m.indptr);
+    mt.indices.set(m.indices);
+    mt.values.set(m.values);
+    const two = ex.float64(m.rows * l);
+    ex.spmm(mt, x, l, two, true);
+    expect(Buffer.from(two.buffer, two.byteOffset, two.byteLength).equals(Buffer.from(one.buffer))).toBe(true);
+    expect(one.some((v) => v !== 0)).toBe(true);
+  });
+
   it('a pool for products starts only the workers its executor uses, with the same bits as on one thread', async () => {
     const products = WorkerPool.start({ threads: 2, workerScript }, true)!;
     try {

@@ -16,6 +16,8 @@ export interface KernelModuleExports {
   spmm(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
   /** assembly/spmm.ts, with f32 stored values. */
   spmm_f32(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number, grouped: number): void;
+  /** assembly/spmmX32.ts: f64 stored values, an f32 dense block, one entry at a time. */
+  spmm_x32(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number): void;
   /** assembly/cross.ts */
   cross(a: number, b: number, l: number, r0: number, r1: number, g: number, symmetric: number): void;
   /** assembly/times.ts */

@@ -62,6 +62,13 @@ export class WasmExecutor implements MatrixExecutor {
   }
 
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
+    const x32 = this.x32(m, x, sequential);
+    if (x32 >= 0) {
+      const o = this.out(y);
+      this.kernels.spmm_x32(this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), x32, l, o.ptr, 0, m.rows);
+      o.done();
+      return;
+    }
     const out = this.out(y);
     const f32 = m.values instanceof Float32Array && this.arena.offsetOf(m.values) >= 0;
     const values = f32 ? m.values.byteOffset : this.ptr(m.values);
@@ -126,6 +133,14 @@ export class WasmExecutor implements MatrixExecutor {
     const w = this.arena.float64(l * c);
     for (let b = 0; b < c; b++) for (let a = 0; a < l; a++) w[a * c + b] = wt[b * l + a];
     return w.byteOffset;
+  }
+
+  /**
+   * Byte offset of an f32 X that spmm_x32 can read where it lies (in the arena, a sequential
+   * product, f64 stored values), else −1 (X then goes through ptr: an f64 copy, the same bits).
+   */
+  protected x32(m: CsrMatrix, x: FloatArray, sequential: boolean): number {
+    return sequential && x instanceof Float32Array && !(m.values instanceof Float32Array) ? this.arena.offsetOf(x) : -1;
   }
 
   /** Byte offset of an input array, copying it into the arena (as f64 for floats) if needed. */

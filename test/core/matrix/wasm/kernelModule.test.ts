@@ -13,7 +13,9 @@ describe('kernelModule', () => {
       WebAssembly.Module.exports(module!)
         .map((e) => `${e.kind} ${e.name}`)
         .sort(),
-    ).toEqual(['code_dots', 'code_dots_int', 'copy_columns', 'cross', 'dots', 'spmm', 'spmm_f32', 'times'].map((n) => `function ${n}`));
+    ).toEqual(
+      ['code_dots', 'code_dots_int', 'copy_columns', 'cross', 'dots', 'spmm', 'spmm_f32', 'spmm_x32', 'times'].map((n) => `function ${n}`),
+    );
   });
 
   it('instantiates on a shared memory of any size up to MAX_PAGES and leaves the memory untouched', () => {

@@ -48,6 +48,23 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
         ex.spmm(m32, x, l, y4, sequential);
         expect(same(y3, y4)).toBe(true);
       }
+      // An f32 X in the arena, sequential, f64 stored values: spmm_x32 reads it where it lies.
+      // The same bits as the serial loop over the same f32 X, and as spmm over an f64 copy of X.
+      const x32 = ex.float32(cols * l);
+      x32.set(x);
+      const xWide = Float64Array.from(x32);
+      const y5 = new Float64Array(rows * l);
+      const y6 = ex.float64(rows * l);
+      const y7 = new Float64Array(rows * l);
+      serialExecutor.spmm(m, x32, l, y5, true);
+      ex.spmm(m, x32, l, y6, true);
+      serialExecutor.spmm(m, xWide, l, y7, true);
+      expect(same(y5, y6)).toBe(true);
+      expect(same(y5, y7)).toBe(true);
+      // Not vacuous: X's f64 numbers round when they go to f32, and the products see it.
+      const y8 = new Float64Array(rows * l);
+      serialExecutor.spmm(m, x, l, y8, true);
+      expect(same(y5, y8)).toBe(false);
       const a = Float64Array.from({ length: rows * l }, () => rnd.normal());
       const b = Float64Array.from({ length: rows * l }, () => rnd.normal());
       expect(same(serialExecutor.cross(a, b, rows, l), ex.cross(a, b, rows, l))).toBe(true);

@@ -12,3 +12,4 @@ export { dots } from './dots';
 export { code_dots } from './codeDots';
 export { code_dots_int } from './codeDotsInt';
 export { copy_columns } from './copyColumns';
+export { spmm_x32 } from './spmmX32';
