@@ -34,6 +34,8 @@ let sectionRunsUsed = 0;
 const reader = new FileReader();
 let maxFileBytes = DEFAULT_MAX_FILE_BYTES;
 let kernels: KernelExports | undefined;
+/** Why rankRuns failed, reported by the finish-counts that follows. */
+let rankFailure: string | undefined;
 let memory: WebAssembly.Memory | undefined;
 
 port.on('message', (msg: ToWorker) => {
@@ -63,8 +65,13 @@ port.on('message', (msg: ToWorker) => {
     port.postMessage(reply, [units.buffer as ArrayBuffer, starts.buffer as ArrayBuffer]);
     // Once setAsideCounts has returned (its frame held the counter), while the main thread merges.
     collectGarbage();
-    // Still while it merges (a finish-counts waits in the queue until this returns).
-    rankRuns();
+    // Still while it merges (a finish-counts waits in the queue until this returns). A failure
+    // here has no request to answer: the finish-counts that follows reports it.
+    try {
+      rankRuns();
+    } catch (err) {
+      rankFailure = err instanceof Error ? err.message : String(err);
+    }
     return;
   }
   if (msg.type === 'setup') {
@@ -77,9 +84,15 @@ port.on('message', (msg: ToWorker) => {
     sectionRuns = new Int32Array(0);
     sectionRunsUsed = 0;
     finishing = undefined;
+    rankFailure = undefined;
     return;
   }
   if (msg.type === 'finish-counts') {
+    if (rankFailure !== undefined) {
+      const failed: FromWorker = { type: 'error', message: rankFailure };
+      port.postMessage(failed);
+      return;
+    }
     // The packs' ids are translated in place, their counts into floats, and the buffers
     // transferred. Arrays past MAPPED_FROM_BYTES lie in mappings of their own (mappedInt32), so
     // nothing of this thread's malloc arena stays in use once it ends.
