@@ -188,7 +188,8 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
     const width = whole
       ? k
       : Math.max(1, Math.min(k, Math.floor((options.blockBytes ?? PROJECTION_BLOCK_BYTES) / (8 * Math.max(1, terms)))));
-    const tv = whole ?? ex.float64(terms * width);
+    // The f64 blocks of U_k (unused when it is read whole).
+    const tv = whole ? new Float64Array(0) : ex.float64(terms * width);
     if (!whole && width === k) tv.set(model.termVectors);
     const row = new Float64Array(k);
     // Which file and section each row of the chunk is.
@@ -288,8 +289,8 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
       scoped(() => {
         const m = ex === serialExecutor ? matrix : copyCsr(matrix, ex, 'f64');
         const part = ex.float64(rows * w);
-        if (acc) blockedTermProduct(ex, m, model.termVectors, k, w, tv as Float64Array, part, acc, used);
-        else ex.spmm(m, tv, k, part, true);
+        if (acc) blockedTermProduct(ex, m, model.termVectors, k, w, tv, part, acc, used);
+        else ex.spmm(m, whole ?? tv, k, part, true);
         const sums = acc ?? part;
         out?.fill(0, 0, rows * k);
         for (let r = 0; r < rows; r++) {

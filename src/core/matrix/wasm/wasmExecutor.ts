@@ -62,27 +62,15 @@ export class WasmExecutor implements MatrixExecutor {
   }
 
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
-    const x32 = this.x32(m, x, sequential);
-    if (x32 >= 0) {
-      const o = this.out(y);
-      this.kernels.spmm_x32(this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), x32, l, o.ptr, 0, m.rows);
-      o.done();
-      return;
-    }
     const out = this.out(y);
-    const f32 = m.values instanceof Float32Array && this.arena.offsetOf(m.values) >= 0;
-    const values = f32 ? m.values.byteOffset : this.ptr(m.values);
-    (f32 ? this.kernels.spmm_f32 : this.kernels.spmm)(
-      this.ptr(m.indptr),
-      this.ptr(m.indices),
-      values,
-      this.ptr(x),
-      l,
-      out.ptr,
-      0,
-      m.rows,
-      sequential ? 0 : 1,
-    );
+    const x32 = this.x32(m, x, sequential);
+    if (x32 >= 0) this.kernels.spmm_x32(this.ptr(m.indptr), this.ptr(m.indices), this.ptr(m.values), x32, l, out.ptr, 0, m.rows);
+    else {
+      const f32 = m.values instanceof Float32Array && this.arena.offsetOf(m.values) >= 0;
+      const values = f32 ? m.values.byteOffset : this.ptr(m.values);
+      const run = f32 ? this.kernels.spmm_f32 : this.kernels.spmm;
+      run(this.ptr(m.indptr), this.ptr(m.indices), values, this.ptr(x), l, out.ptr, 0, m.rows, sequential ? 0 : 1);
+    }
     out.done();
   }
 
