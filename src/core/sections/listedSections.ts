@@ -126,11 +126,8 @@ export class ListedSections {
       this._files.forEach((f, no) => {
         const first = this._fileFirst[no];
         const v = this.rowsOf(f!, counts[no]);
-        for (let i = 0; i < counts[no]; i++) {
-          const l = lists.file(v, i * k);
-          listOf[first + i] = l;
-          this._starts[l + 1]++;
-        }
+        lists.fileRows(v, 0, counts[no], listOf, first);
+        for (let i = 0; i < counts[no]; i++) this._starts[listOf[first + i] + 1]++;
       });
     for (let j = 0; j < lists.lists; j++) this._starts[j + 1] += this._starts[j];
     const n = this._starts[lists.lists];

@@ -7,7 +7,7 @@
  * codes where they lie and reads a probed list as one run, as it would from a spill
  * (./listedSections.ts). Where the store has a listing (a reopened index, or one ranked since its
  * lists were trained), each section's list and coded row are taken from it (runs of slots read at
- * once); otherwise the section is filed (lists.file) and its row coded (a row's code depends on
+ * once); otherwise the section is filed (lists.fileRows) and its row coded (a row's code depends on
  * that row alone, so both ways give the same bytes). Given a CodeSpill, a row is coded as it is
  * filed and waits in its list's chain (ListChains), so the codes go out in slot order without the
  * rows being read a second time.
@@ -102,7 +102,7 @@ export function planSavedLists(
       f.stored.reader.read(f.stored.first, m, scratch, 0);
       v = scratch;
     } else v = f.vectors;
-    for (let i = 0; i < m; i++) listOf[firsts[no] + i] = lists.file(v, i * k);
+    lists.fileRows(v, 0, m, listOf, firsts[no]);
     if (chains && filedCodes) {
       filedCodes.code(v, m);
       for (let i = 0; i < m; i++) chains.add(listOf[firsts[no] + i], filedCodes, i);

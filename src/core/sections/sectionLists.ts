@@ -11,7 +11,9 @@
  * sample is first cut into g = ⌈√lists⌉ groups, then each group into a share of the lists in
  * proportion to its size (a two-level vocabulary tree, Nistér & Stewénius 2006, "Scalable
  * recognition with a vocabulary tree", CVPR). A vector is filed under the best centroid of its
- * fileGroups best groups (an approximate nearest centroid; the query side scores every centroid).
+ * fileGroups best groups (an approximate nearest centroid; the query side scores every centroid);
+ * fileRows files a block of rows in one call of a SIMD kernel (../matrix/wasm/assembly/fileRows.ts)
+ * with the same scores and ties as file().
  * Defaults: lists = ⌈√n⌉ (the rule of thumb of the IVF literature, common practice); probe 24, the
  * smallest of 16/24/48 with recall@10 ≥ 0.98 of the exhaustive top 10 for both search and Nearby on
  * public collections pooled (numba, CMake, Django and Sphinx manuals, rxjs and lodash sources in
@@ -22,7 +24,8 @@
  * held-out collection.
  */
 import { InvalidInputError } from '../errors.js';
-import { dotModule, instantiateDots, type DotKernelExports } from '../matrix/wasm/dotKernel.js';
+import { dotModule, type DotKernelExports } from '../matrix/wasm/dotKernel.js';
+import { instantiateKernelModule, type KernelModuleExports } from '../matrix/wasm/kernelModule.js';
 import { createRandom, DEFAULT_SEED, type RandomSource } from '../random.js';
 import { sphericalKMeans, type Clustering } from '../topics/sphericalKMeans.js';
 
@@ -66,13 +69,21 @@ export interface RowSource {
 /** The centroids in a WebAssembly memory for the SIMD dot kernel (../matrix/wasm/dotKernel.ts). */
 interface Kernel {
   readonly dots: DotKernelExports['dots'];
+  readonly fileRows: KernelModuleExports['file_rows'];
   /** The query (f64) and the scores (f64: groups, then lists), as views and byte offsets. */
   readonly q: Float64Array;
   readonly groupScores: Float64Array;
   readonly listScores: Float64Array;
   readonly groupsAt: number;
   readonly centroidsAt: number;
+  readonly startsAt: number;
+  /** Rows filed at once (FILE_BLOCK_ROWS) and their lists, as views and byte offsets. */
+  readonly rows: Float32Array;
+  readonly rowLists: Int32Array;
 }
+
+/** Rows filed by one call of the kernel (a staging block of FILE_BLOCK_ROWS × k f32; our choice). */
+const FILE_BLOCK_ROWS = 256;
 
 /**
  * The trained quantizer: centroids in groups. Filing and probing; the lists themselves are the
@@ -93,7 +104,7 @@ export class SectionLists {
     readonly probe: number,
     private readonly _fileGroups: number,
   ) {
-    this._kernel = kernelFor(k, groups, centroids);
+    this._kernel = kernelFor(k, groups, centroids, groupStarts);
   }
 
   get lists(): number {
@@ -204,6 +215,27 @@ export class SectionLists {
     return list;
   }
 
+  /**
+   * The lists of `count` rows, block[at …] row after row (k numbers each), into out[outAt …]: what
+   * file() gives each of them, in one kernel call per block of rows where there is a kernel and a
+   * row is filed under one group (the default).
+   */
+  fileRows(block: Float32Array, at: number, count: number, out: Int32Array, outAt: number): void {
+    const k = this.k;
+    const w = this._kernel;
+    if (!w || this._fileGroups !== 1) {
+      for (let i = 0; i < count; i++) out[outAt + i] = this.file(block, at + i * k);
+      return;
+    }
+    const g = this.groupStarts.length - 1;
+    for (let from = 0; from < count; from += FILE_BLOCK_ROWS) {
+      const m = Math.min(FILE_BLOCK_ROWS, count - from);
+      w.rows.set(block.subarray(at + from * k, at + (from + m) * k));
+      w.fileRows(w.rows.byteOffset, k, 0, m, w.groupsAt, g, w.centroidsAt, w.startsAt, w.q.byteOffset, w.rowLists.byteOffset);
+      out.set(w.rowLists.subarray(0, m), outAt + from);
+    }
+  }
+
   /** The `probe` lists (or `count`) whose centroids have the highest cosine with q, best first. */
   nearest(q: ArrayLike<number>, count = this.probe): Int32Array {
     const k = this.k;
@@ -240,7 +272,7 @@ function pickRows(x: Float64Array, n: number, k: number, count: number, random: 
 }
 
 /** The centroids copied into a memory of their own for the dot kernel, or null without WebAssembly SIMD. */
-function kernelFor(k: number, groups: Float32Array, centroids: Float32Array): Kernel | null {
+function kernelFor(k: number, groups: Float32Array, centroids: Float32Array, groupStarts: Int32Array): Kernel | null {
   const module = dotModule();
   if (!module) return null;
   const g = groups.length / k;
@@ -251,20 +283,29 @@ function kernelFor(k: number, groups: Float32Array, centroids: Float32Array): Ke
   const listScoresAt = align(groupScoresAt + 8 * g);
   const groupsAt = align(listScoresAt + 8 * lists);
   const centroidsAt = align(groupsAt + 4 * groups.length);
-  const bytes = centroidsAt + 4 * centroids.length;
+  const startsAt = align(centroidsAt + 4 * centroids.length);
+  const rowsAt = align(startsAt + 4 * groupStarts.length);
+  const rowListsAt = align(rowsAt + 4 * FILE_BLOCK_ROWS * k);
+  const bytes = rowListsAt + 4 * FILE_BLOCK_ROWS;
   try {
     const pages = Math.ceil(bytes / 65536);
     const memory = new WebAssembly.Memory({ initial: pages, maximum: pages, shared: true });
     const buffer = memory.buffer;
     new Float32Array(buffer, groupsAt, groups.length).set(groups);
     new Float32Array(buffer, centroidsAt, centroids.length).set(centroids);
+    new Int32Array(buffer, startsAt, groupStarts.length).set(groupStarts);
+    const exports = instantiateKernelModule(module, memory);
     return {
-      dots: instantiateDots(module, memory).dots,
+      dots: exports.dots,
+      fileRows: exports.file_rows,
       q: new Float64Array(buffer, qAt, k),
       groupScores: new Float64Array(buffer, groupScoresAt, g),
       listScores: new Float64Array(buffer, listScoresAt, lists),
       groupsAt,
       centroidsAt,
+      startsAt,
+      rows: new Float32Array(buffer, rowsAt, FILE_BLOCK_ROWS * k),
+      rowLists: new Int32Array(buffer, rowListsAt, FILE_BLOCK_ROWS),
     };
   } catch {
     return null;

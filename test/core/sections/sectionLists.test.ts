@@ -2,12 +2,14 @@
  * The inverted file's quantizer (src/core/sections/sectionLists.ts) on public documentation:
  * section vectors of numba-doc 0.56.4 (Debian, BSD-2-Clause; test/fixtures/numba-doc-sections).
  * Checks: the same rows and seed give the same centroids and filing; filing with every group
- * tried is the nearest centroid; probing orders centroids by cosine.
+ * tried is the nearest centroid; probing orders centroids by cosine; filing a block of rows at
+ * once (the SIMD kernel assembly/fileRows.ts) gives every row the list file() gives it.
  */
 import { readFileSync } from 'node:fs';
 import { gunzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
+import { dotModule } from '../../../src/core/matrix/wasm/dotKernel.js';
 import { SectionLists, type RowSource } from '../../../src/core/sections/sectionLists.js';
 import { foldContextOf, foldSections } from '../../../src/core/sections/sectionVectors.js';
 import { fixturePath } from '../../helpers/shared.js';
@@ -60,5 +62,35 @@ describe('SectionLists', () => {
     for (let i = 1; i < order.length; i++)
       expect(dot(lists.centroids, order[i - 1] * k, q, 0)).toBeGreaterThanOrEqual(dot(lists.centroids, order[i] * k, q, 0));
     expect(lists.nearest(q).length).toBe(Math.min(lists.probe, lists.lists));
+  });
+
+  it('files a block of rows as file() files each row, ties and all', () => {
+    expect(dotModule()).not.toBeNull(); // the kernel path is the one under test
+    for (const options of [{ seed: 3 }, { seed: 3, fileGroups: 2 }]) {
+      const lists = SectionLists.train(k, rows, options);
+      const got = new Int32Array(rows.n + 5).fill(-7);
+      // From row 1 on, into out from 3 on: offsets on both sides; blocks of 256 and a rest.
+      lists.fileRows(all, k, rows.n - 1, got, 3);
+      expect(got.subarray(0, 3)).toEqual(Int32Array.of(-7, -7, -7));
+      for (let j = 1; j < rows.n; j++) expect(got[j + 2]).toBe(lists.file(all, j * k));
+      expect(got[rows.n + 2]).toBe(-7);
+    }
+    // Equal scores: the first group and the first centroid win, as in file(); a row of NaN
+    // (no score wins) goes to list 0, and a row of zeros to the first centroid of the first group.
+    const a = all.subarray(0, k);
+    const b = all.subarray(k, 2 * k);
+    const c = all.subarray(2 * k, 3 * k);
+    const tied = SectionLists.restore(
+      k,
+      Float32Array.from([...b, ...b, ...c, ...c]),
+      Float32Array.from([...a, ...a]),
+      Int32Array.of(0, 3, 4),
+    );
+    const probes = Float32Array.from([...a, ...b, ...c, ...new Array<number>(k).fill(Number.NaN), ...new Array<number>(k).fill(0)]);
+    const out = new Int32Array(5);
+    tied.fileRows(probes, 0, 5, out, 0);
+    expect(Array.from(out)).toEqual([0, 1, 2, 3, 4].map((j) => tied.file(probes, j * k)));
+    expect(out[3]).toBe(0);
+    expect(out[4]).toBe(0);
   });
 });

@@ -26,6 +26,19 @@ export interface KernelModuleExports {
   copy_columns(src: number, srcStride: number, dst: number, dstStride: number, w: number, r0: number, r1: number): void;
   /** assembly/dots.ts */
   dots(rows: number, q: number, k: number, r0: number, r1: number, out: number): void;
+  /** assembly/fileRows.ts */
+  file_rows(
+    rows: number,
+    k: number,
+    r0: number,
+    r1: number,
+    groups: number,
+    g: number,
+    centroids: number,
+    starts: number,
+    q: number,
+    out: number,
+  ): void;
   /** assembly/codeDots.ts */
   code_dots(codes: number, q: number, k: number, r0: number, r1: number, out: number): void;
   /** assembly/codeDotsInt.ts */

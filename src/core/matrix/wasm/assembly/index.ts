@@ -13,3 +13,4 @@ export { code_dots } from './codeDots';
 export { code_dots_int } from './codeDotsInt';
 export { copy_columns } from './copyColumns';
 export { spmm_x32 } from './spmmX32';
+export { file_rows } from './fileRows';
