@@ -53,7 +53,7 @@ describe('persist', () => {
     expect(answers(await reopen(file))).toEqual(answers(index));
   });
 
-  it('streams the same bytes as encoding the whole file at once, whatever the write chunk', async () => {
+  it('streams the same bytes as encoding the whole file at once, whatever the write chunk or thread', async () => {
     const index = buildAdi();
     // Folded-in Markdown files bring sections (the build of a folder adds them in src/node).
     for (const d of adi.docs.slice(0, 9)) {
@@ -69,6 +69,10 @@ describe('persist', () => {
         expect(await saveIndex(file, index, chunk)).toBe(whole.length);
         expect(Buffer.compare(readFileSync(file), whole)).toBe(0);
       }
+      // Written by a thread of its own (payloads from BACKGROUND_WRITE_FROM on; here from 0 bytes).
+      const threaded = join(dir, 'threaded.undertone');
+      expect(await saveIndex(threaded, index, undefined, undefined, 0)).toBe(whole.length);
+      expect(Buffer.compare(readFileSync(threaded), whole)).toBe(0);
     } finally {
       vi.useRealTimers();
     }
