@@ -16,23 +16,7 @@
  * greater than the best so far (the first of equal scores wins; NaN never does), and a row no
  * group or centroid wins goes to list 0, as in the twin.
  */
-
-@inline
-function dot(pv: usize, pq: usize, k: i32): f64 {
-  const rowEnd = pv + (<usize>k << 2);
-  const end = pv + (<usize>(k & -8) << 2);
-  let s01 = f64x2.splat(0), s23 = f64x2.splat(0), s45 = f64x2.splat(0), s67 = f64x2.splat(0);
-  for (; pv < end; pv += 32, pq += 64) {
-    s01 = f64x2.add(s01, f64x2.mul(f64x2.promote_low_f32x4(v128.load64_zero(pv)), v128.load(pq)));
-    s23 = f64x2.add(s23, f64x2.mul(f64x2.promote_low_f32x4(v128.load64_zero(pv, 8)), v128.load(pq, 16)));
-    s45 = f64x2.add(s45, f64x2.mul(f64x2.promote_low_f32x4(v128.load64_zero(pv, 16)), v128.load(pq, 32)));
-    s67 = f64x2.add(s67, f64x2.mul(f64x2.promote_low_f32x4(v128.load64_zero(pv, 24)), v128.load(pq, 48)));
-  }
-  const s = f64x2.add(f64x2.add(s01, s23), f64x2.add(s45, s67));
-  let r = f64x2.extract_lane(s, 0) + f64x2.extract_lane(s, 1);
-  for (; pv < rowEnd; pv += 4, pq += 8) r = r + <f64>load<f32>(pv) * load<f64>(pq);
-  return r;
-}
+import { rowDot } from './dots';
 
 export function file_rows(rows: usize, k: i32, r0: i32, r1: i32, groups: usize, g: i32, centroids: usize, starts: usize, q: usize, out: usize): void {
   const rowBytes = <usize>k << 2;
@@ -43,7 +27,7 @@ export function file_rows(rows: usize, k: i32, r0: i32, r1: i32, groups: usize, 
     let group = -1;
     let best = -Infinity;
     for (let c = 0; c < g; c++) {
-      const s = dot(groups + <usize>c * rowBytes, q, k);
+      const s = rowDot(groups + <usize>c * rowBytes, q, k);
       if (s > best) {
         best = s;
         group = c;
@@ -55,7 +39,7 @@ export function file_rows(rows: usize, k: i32, r0: i32, r1: i32, groups: usize, 
       const to = load<i32>(starts + (<usize>group << 2), 4);
       let top = -Infinity;
       for (let c = from; c < to; c++) {
-        const s = dot(centroids + <usize>c * rowBytes, q, k);
+        const s = rowDot(centroids + <usize>c * rowBytes, q, k);
         if (s > top) {
           top = s;
           list = c;
