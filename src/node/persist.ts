@@ -247,9 +247,10 @@ export const BACKGROUND_WRITE_FROM = 256 << 20;
  * index's arrays, small ones gathered into one SAVE_CHUNK_BYTES buffer; from writeFrom payload
  * bytes on, copied into the slots of a thread that writes them meanwhile) while its checksum is
  * computed, then the header goes in front; the disk is asked to write back what the file holds
- * every 256 MiB (EarlyFlush), so the final flush waits for little. The file is never held whole in memory (the whole
- * buffer of encodeIndex was the build's peak). Files' counts kept out of memory (a build's parked
- * counts, termLists) are streamed from where they are. Returns the file's size.
+ * every 256 MiB (EarlyFlush), so the final flush waits for little. The file is never held whole
+ * in memory (the whole buffer of encodeIndex was the build's peak). Files' counts kept out of
+ * memory (a build's parked counts, termLists) are streamed from where they are. Returns the
+ * file's size.
  */
 export async function saveIndex(
   path: string,

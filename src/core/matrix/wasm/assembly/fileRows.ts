@@ -11,10 +11,9 @@
  *   starts     i32[g + 1]   group c holds centroids starts[c] … starts[c + 1] − 1
  *   q          f64[k]       scratch: the row being filed, promoted to f64 (exact)
  *   out        i32[n]       entries r0 … r1 − 1 are written
- * Each dot product is the one of ./dots.ts with that q, in the same order of operations, so the
- * scores are the same bits as dots(); a score wins only when it is
- * greater than the best so far (the first of equal scores wins; NaN never does), and a row no
- * group or centroid wins goes to list 0, as in the twin.
+ * Each dot product is rowDot of ./dots.ts with that q, so the scores are the same bits as dots();
+ * a score wins only when it is greater than the best so far (the first of equal scores wins; NaN
+ * never does), and a row no group or centroid wins goes to list 0, as in the twin.
  */
 import { rowDot } from './dots';
 
