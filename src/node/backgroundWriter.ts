@@ -28,7 +28,7 @@ export const DEFAULT_BACKGROUND_WRITER_OPTIONS: BackgroundWriterOptions = Object
 const SENT = 0;
 /** Slots written (or passed over after a failure) so far. */
 const DONE = 1;
-/** 1 once a write or a flush failed. */
+/** 1 once a write failed. */
 const FAILED = 2;
 /** 1 once the caller has no more to send. */
 const STOP = 3;
@@ -80,7 +80,7 @@ for (;;) {
 /** The code of a thread that never started. */
 const NOT_STARTED = 'ENOTHREAD';
 
-/** A write or flush of the background thread failed; `code` is the system's code (ENOSPC, …). */
+/** A write of the background thread failed; `code` is the system's code (ENOSPC, …). */
 export class BackgroundWriteError extends UndertoneError {
   constructor(readonly code: string) {
     super(code === NOT_STARTED ? 'the writing thread did not start' : `writing failed (${code})`);
@@ -174,7 +174,7 @@ export class BackgroundWriter {
 
   /**
    * Waits until everything sent is written, then lets the thread end.
-   * @throws BackgroundWriteError when a write or a flush failed.
+   * @throws BackgroundWriteError when a write failed.
    */
   finish(): void {
     for (;;) {
