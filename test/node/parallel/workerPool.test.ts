@@ -45,6 +45,18 @@ afterAll(async () => {
 const bagOf = (vocab: Vocabulary, ids: Int32Array, counts: Float32Array): Map<string, number> =>
   new Map(Array.from(ids, (id, i) => [vocab.termOf(id), counts[i]]));
 
+/** The first `docs` CISI documents built serially at rank k, and their weighted matrix. */
+function cisiMatrix(docs: number, k: number) {
+  const builder = new IndexBuilder({ k });
+  for (const d of cisi.docs.slice(0, docs)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
+  const index = builder.build({ executor: serialExecutor });
+  const m = modelMatrix(
+    index.model,
+    index.slots().map((s) => s!.terms),
+  );
+  return { builder, index, m };
+}
+
 describe('worker pool', () => {
   it('bounds each worker’s young generation below V8’s default (48 MB on 64-bit systems, from memory)', () => {
     const p = WorkerPool.start({ threads: 2, workerScript })!;
@@ -60,13 +72,7 @@ describe('worker pool', () => {
   });
 
   it('computes the SVD on two threads with the same bits as on one', () => {
-    const builder = new IndexBuilder({ k: 60 });
-    for (const d of cisi.docs.slice(0, 800)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
-    const index = builder.build({ executor: serialExecutor });
-    const m = modelMatrix(
-      index.model,
-      index.slots().map((s) => s!.terms),
-    );
+    const { builder, index, m } = cisiMatrix(800, 60);
     const one = randomizedSvd(m, { k: 60, executor: serialExecutor });
     const ex = pool!.executor();
     expect(ex.threads).toBe(2);
@@ -105,13 +111,7 @@ describe('worker pool', () => {
 
   it('multiplies by an f32 block where it lies (spmm_x32, the sections fold) with the same bits as on one thread', () => {
     // CISI's weighted matrix (documents × terms) times a seeded f32 block over its terms.
-    const builder = new IndexBuilder({ k: 20 });
-    for (const d of cisi.docs.slice(0, 400)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
-    const index = builder.build({ executor: serialExecutor });
-    const m = modelMatrix(
-      index.model,
-      index.slots().map((s) => s!.terms),
-    );
+    const { m } = cisiMatrix(400, 20);
     const l = 13;
     const ex = pool!.executor();
     const x = ex.float32(m.cols * l);
