@@ -8,7 +8,7 @@
  */
 import type { CsrMatrix } from './sparse.js';
 import { createRandom } from '../random.js';
-import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, timesSmallRows, type FloatArray } from './kernels.js';
+import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, spmmSingleRows, timesSmallRows, type FloatArray } from './kernels.js';
 
 export type { FloatArray } from './kernels.js';
 
@@ -29,6 +29,11 @@ export interface MatrixExecutor {
    * (sequential, f64 stored values), the same bits as an f64 copy of it.
    */
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential?: boolean): void;
+  /**
+   * Y = M X in single precision: f32 stored values (an f64 M is rounded to f32 first), f32 X and
+   * Y, f32 sums in spmm's grouped order (spmmSingleRows); the same bits on every executor.
+   */
+  spmmSingle(m: CsrMatrix, x: Float32Array, l: number, y: Float32Array): void;
   /** AᵀB for two rows × l blocks (l × l, row-major); symmetric and mirrored when a === b. */
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array;
   /** out = Y W for Y rows × l and W l × c given transposed (wt: c × l); W upper triangular if upper. */
@@ -45,12 +50,15 @@ export interface MatrixExecutor {
   copyColumns?(run: ColumnRun): boolean;
 }
 
-/** For each row i < rows, the w numbers from src[i·srcStride + srcAt] on go to dst[i·dstStride + dstAt] on. */
+/**
+ * For each row i < rows, the w numbers from src[i·srcStride + srcAt] on go to dst[i·dstStride + dstAt]
+ * on (f64 numbers into an f32 array rounded to nearest, f32 into f64 exactly, as typed arrays store them).
+ */
 export interface ColumnRun {
-  readonly src: Float64Array;
+  readonly src: FloatArray;
   readonly srcStride: number;
   readonly srcAt: number;
-  readonly dst: Float64Array;
+  readonly dst: FloatArray;
   readonly dstStride: number;
   readonly dstAt: number;
   readonly w: number;
@@ -61,8 +69,7 @@ export interface ColumnRun {
 export function checkColumnRun(run: ColumnRun): void {
   const { rows, w } = run;
   if (rows <= 0 || w <= 0) return;
-  const inside = (a: Float64Array, stride: number, at: number): boolean =>
-    at >= 0 && stride >= w && (rows - 1) * stride + at + w <= a.length;
+  const inside = (a: FloatArray, stride: number, at: number): boolean => at >= 0 && stride >= w && (rows - 1) * stride + at + w <= a.length;
   if (!inside(run.src, run.srcStride, run.srcAt) || !inside(run.dst, run.dstStride, run.dstAt))
     throw new RangeError(`columns ${w} wide over ${rows} rows fall outside the arrays`);
 }
@@ -99,6 +106,10 @@ export const serialExecutor: MatrixExecutor = Object.freeze({
   int32: (n: number) => new Int32Array(n),
   spmm(m: CsrMatrix, x: FloatArray, l: number, y: FloatArray, sequential = false): void {
     spmmRows(m.indptr, m.indices, m.values, x, l, y, 0, m.rows, !sequential);
+  },
+  spmmSingle(m: CsrMatrix, x: Float32Array, l: number, y: Float32Array): void {
+    const values = m.values instanceof Float32Array ? m.values : Float32Array.from(m.values);
+    spmmSingleRows(m.indptr, m.indices, values, x, l, y, 0, m.rows);
   },
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array {
     const g = new Float64Array(l * l);

@@ -29,7 +29,7 @@
 import { CancelledError, InvalidInputError } from '../errors.js';
 import { choleskyQr } from '../matrix/choleskyQr.js';
 import { leadingColumns } from '../matrix/dense.js';
-import { copyColumnRun, serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
+import { copyColumnRun, serialExecutor, type FloatArray, type MatrixExecutor } from '../matrix/executor.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import type { CsrMatrix } from '../matrix/sparse.js';
 import { copyCsr, csrRows, transposeCsr } from '../matrix/sparse.js';
@@ -228,6 +228,10 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   const z = ex.float64(B * w);
   const qc = w === l ? q : ex.float64(S * w);
   const yc = w === l ? q : ex.float64(S * w);
+  // The power iterations' f32 blocks: Z_c in Z's memory, Q_c (then Y_c) in Y_c's (each unused
+  // meanwhile), or an S × l block of its own when Q is one block.
+  const z32 = new Float32Array(z.buffer, z.byteOffset, B * w);
+  const q32 = w === l ? ex.float32(S * l) : new Float32Array(yc.buffer, yc.byteOffset, S * w);
 
   // 1. Range finder: Y = AΩ, one column block of Ω at a time (each block its own seeded stream).
   for (const [c0, cw] of blocks) {
@@ -238,15 +242,19 @@ function smallSide(m: CsrMatrix, o: RandomizedSvdOptions, ex: MatrixExecutor): S
   }
   step();
   orthonormalize(ex, q, S, l, o.powerIterations === 0 ? 2 : 1, random);
-  // Power iterations Y = A(AᵀQ), column block by column block, Q = orth(Y).
+  // Power iterations Y = A(AᵀQ) in single precision, column block by column block, Q = orth(Y)
+  // in f64. Their rounding only perturbs the basis being refined (a relative 10⁻⁷ a step, far
+  // inside the method's own error); the Rayleigh–Ritz step below, which gives the singular
+  // values, works in f64 on whatever basis they leave.
   for (let it = 0; it < o.powerIterations; it++) {
     for (const [c0, cw] of blocks) {
       if (o.signal?.aborted) throw new CancelledError();
-      const zc = z.subarray(0, B * cw);
-      if (w < l) columnBlock(q, qc, S, [l, c0, cw], 'gather', ex);
-      ex.spmm(at, w === l ? q : qc.subarray(0, S * cw), cw, zc);
-      ex.spmm(a, zc, cw, w === l ? q : yc.subarray(0, S * cw));
-      if (w < l) columnBlock(q, yc, S, [l, c0, cw], 'scatter', ex);
+      const qs = q32.subarray(0, S * cw);
+      const zs = z32.subarray(0, B * cw);
+      columnBlock(q, qs, S, [l, c0, cw], 'gather', ex);
+      ex.spmmSingle(at, qs, cw, zs);
+      ex.spmmSingle(a, zs, cw, qs);
+      columnBlock(q, qs, S, [l, c0, cw], 'scatter', ex);
     }
     step();
     step();
@@ -450,7 +458,7 @@ function blockSeed(seed: number, c0: number, w: number): number {
  */
 export function columnBlock(
   basis: Float64Array,
-  block: Float64Array,
+  block: FloatArray,
   rows: number,
   [l, c0, w]: readonly [number, number, number],
   way: 'gather' | 'scatter',

@@ -33,6 +33,13 @@ export type KernelJob =
       readonly bounds: readonly number[];
     }
   | {
+      /** spmm_single: f32 stored values, X, Y and sums (assembly/spmmSingle.ts). */
+      readonly op: 'spmm_single';
+      /** indptr, indices, values, x, l, y (offsets and the width). */
+      readonly args: readonly [number, number, number, number, number, number];
+      readonly bounds: readonly number[];
+    }
+  | {
       readonly op: 'cross';
       /** a, b, l, rows, partials (one l × l block per task), symmetric (0/1). */
       readonly args: readonly [number, number, number, number, number, number];
@@ -72,6 +79,11 @@ export function runTask(k: KernelExports, job: KernelJob, t: number, memory: Web
     case 'spmm_x32': {
       const [indptr, indices, values, x, l, y] = job.args;
       k.spmm_x32(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1]);
+      return;
+    }
+    case 'spmm_single': {
+      const [indptr, indices, values, x, l, y] = job.args;
+      k.spmm_single(indptr, indices, values, x, l, y, job.bounds[t], job.bounds[t + 1]);
       return;
     }
     case 'cross': {

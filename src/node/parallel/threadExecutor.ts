@@ -52,6 +52,17 @@ export class ThreadExecutor extends WasmExecutor {
     out.done();
   }
 
+  override spmmSingle(m: CsrMatrix, x: Float32Array, l: number, y: Float32Array): void {
+    const out = this.single(y, true);
+    const bounds = Array.from(splitCsrRows(m.indptr, m.rows, this.threads * TASKS_PER_THREAD));
+    this.run({
+      op: 'spmm_single',
+      args: [this.ptr(m.indptr), this.ptr(m.indices), this.singleValues(m), this.single(x).ptr, l, out.ptr],
+      bounds,
+    });
+    out.done();
+  }
+
   override cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array {
     const symmetric = a === b;
     const pa = this.ptr(a);

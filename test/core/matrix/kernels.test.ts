@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, timesSmallRows } from '../../../src/core/matrix/kernels.js';
+import {
+  crossRows,
+  GAUSSIAN_BLOCK_ROWS,
+  gaussianBlock,
+  spmmRows,
+  spmmSingleRows,
+  timesSmallRows,
+} from '../../../src/core/matrix/kernels.js';
 import { createRandom } from '../../../src/core/random.js';
 
 // Reference: brute-force dense arithmetic (plain triple loops), independent of the kernels' tiling.
@@ -53,6 +60,46 @@ describe('row-range kernels', () => {
       }
     });
   }
+
+  for (const [rows, cols, l] of [
+    [23, 17, 5],
+    [40, 31, 8],
+    [9, 50, 1],
+  ] as const) {
+    it(`spmmSingleRows computes M·X in single precision for ${rows}×${cols} by ${l} columns, in any row split`, () => {
+      const m = randomCsr(rows, cols, 0.3);
+      const values = Float32Array.from(m.values);
+      const x = Float32Array.from(randomArray(cols * l));
+      const want = new Float64Array(rows * l);
+      for (let i = 0; i < rows; i++)
+        for (let p = m.indptr[i]; p < m.indptr[i + 1]; p++)
+          for (let c = 0; c < l; c++) want[i * l + c] += values[p] * x[m.indices[p] * l + c];
+      const whole = new Float32Array(rows * l);
+      spmmSingleRows(m.indptr, m.indices, values, x, l, whole, 0, rows);
+      // Single-precision sums of at most ~25 products of numbers below ~4: within 10⁻⁵ (relative
+      // to the larger of 1 and the value) of the exact sums, ε₃₂ = 2⁻²⁴ per operation.
+      close(whole, want, 1e-5);
+      const split = new Float32Array(rows * l).fill(NaN);
+      spmmSingleRows(m.indptr, m.indices, values, x, l, split, 0, 7);
+      spmmSingleRows(m.indptr, m.indices, values, x, l, split, 7, rows);
+      expect(Array.from(split)).toEqual(Array.from(whole));
+    });
+  }
+
+  it('spmmSingleRows rounds every step to f32 (IEEE 754 round to nearest, ties to even), not only the sum', () => {
+    // One row of five stored ones, X = 1 and four times 2⁻²⁴ (l = 1). 1 + 2⁻²⁴ lies halfway
+    // between 1 and the next f32 number, 1 + 2⁻²³, and rounds to 1 (the even one): every
+    // single-precision step stays at 1. The exact sum 1 + 2⁻²² is an f32 number, so a sum formed
+    // in f64 and rounded once would give it.
+    const tiny = 2 ** -24;
+    const ones = Float32Array.of(1, 1, 1, 1, 1);
+    const y = new Float32Array(1);
+    spmmSingleRows(Int32Array.of(0, 5), Int32Array.of(0, 1, 2, 3, 4), ones, Float32Array.of(1, tiny, tiny, tiny, tiny), 1, y, 0, 1);
+    expect(y[0]).toBe(1);
+    const wide = new Float64Array(1);
+    spmmRows(Int32Array.of(0, 5), Int32Array.of(0, 1, 2, 3, 4), ones, Float32Array.of(1, tiny, tiny, tiny, tiny), 1, wide, 0, 1);
+    expect(Math.fround(wide[0])).toBe(1 + 2 ** -22);
+  });
 
   for (const l of [4, 7, 9]) {
     it(`crossRows gives AᵀB and the upper triangle of AᵀA (l = ${l})`, () => {

@@ -130,6 +130,21 @@ describe('worker pool', () => {
     expect(one.some((v) => v !== 0)).toBe(true);
   });
 
+  it('multiplies in single precision (spmm_single, the power iterations) with the same bits as on one thread', () => {
+    const { m } = cisiMatrix(400, 20);
+    const l = 11;
+    const ex = pool!.executor();
+    const g = new Float64Array(m.cols * l);
+    serialExecutor.gaussian(g, m.cols, l, 4);
+    const x = Float32Array.from(g);
+    const one = new Float32Array(m.rows * l);
+    serialExecutor.spmmSingle(m, x, l, one);
+    const two = ex.float32(m.rows * l);
+    ex.spmmSingle(m, x, l, two);
+    expect(Buffer.from(two.buffer, two.byteOffset, two.byteLength).equals(Buffer.from(one.buffer))).toBe(true);
+    expect(one.some((v) => v !== 0)).toBe(true);
+  });
+
   it('a pool for products starts only the workers its executor uses, with the same bits as on one thread', async () => {
     const products = WorkerPool.start({ threads: 2, workerScript }, true)!;
     try {

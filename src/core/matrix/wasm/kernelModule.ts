@@ -22,8 +22,21 @@ export interface KernelModuleExports {
   cross(a: number, b: number, l: number, r0: number, r1: number, g: number, symmetric: number): void;
   /** assembly/times.ts */
   times(y: number, l: number, w: number, c: number, upper: number, out: number, r0: number, r1: number): void;
+  /** assembly/spmmSingle.ts: f32 stored values, X, Y and sums. */
+  spmm_single(indptr: number, indices: number, values: number, x: number, l: number, y: number, r0: number, r1: number): void;
   /** assembly/copyColumns.ts */
   copy_columns(src: number, srcStride: number, dst: number, dstStride: number, w: number, r0: number, r1: number): void;
+  /** assembly/copyColumns.ts: f64 → f32 (toSingle 1) or f32 → f64 (toSingle 0). */
+  copy_columns_cast(
+    src: number,
+    srcStride: number,
+    dst: number,
+    dstStride: number,
+    w: number,
+    r0: number,
+    r1: number,
+    toSingle: number,
+  ): void;
   /** assembly/dots.ts */
   dots(rows: number, q: number, k: number, r0: number, r1: number, out: number): void;
   /** assembly/fileRows.ts */

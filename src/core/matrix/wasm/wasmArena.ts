@@ -13,8 +13,11 @@ const PAGE = 65536;
 const ALIGN = 16;
 const GROW_SLACK_PAGES = 64;
 
-/** The exports the SVD's executors use (./assembly/spmm.ts, spmmX32.ts, cross.ts, times.ts, copyColumns.ts). */
-export type KernelExports = Pick<KernelModuleExports, 'spmm' | 'spmm_f32' | 'spmm_x32' | 'cross' | 'times' | 'copy_columns'>;
+/** The exports the SVD's executors use (./assembly/spmm.ts, spmmX32.ts, spmmSingle.ts, cross.ts, times.ts, copyColumns.ts). */
+export type KernelExports = Pick<
+  KernelModuleExports,
+  'spmm' | 'spmm_f32' | 'spmm_x32' | 'spmm_single' | 'cross' | 'times' | 'copy_columns' | 'copy_columns_cast'
+>;
 
 export function instantiateKernels(module: WebAssembly.Module, memory: WebAssembly.Memory): KernelExports {
   return instantiateKernelModule(module, memory);

@@ -74,6 +74,12 @@ export class WasmExecutor implements MatrixExecutor {
     out.done();
   }
 
+  spmmSingle(m: CsrMatrix, x: Float32Array, l: number, y: Float32Array): void {
+    const out = this.single(y, true);
+    this.kernels.spmm_single(this.ptr(m.indptr), this.ptr(m.indices), this.singleValues(m), this.single(x).ptr, l, out.ptr, 0, m.rows);
+    out.done();
+  }
+
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array {
     const symmetric = a === b;
     const pa = this.ptr(a);
@@ -102,13 +108,20 @@ export class WasmExecutor implements MatrixExecutor {
     o.done();
   }
 
-  /** The copy_columns kernel when both arrays live in the arena (assembly/copyColumns.ts). */
+  /**
+   * The copy_columns kernel when both arrays live in the arena (assembly/copyColumns.ts), or
+   * copy_columns_cast between an f64 and an f32 array; false for two f32 arrays.
+   */
   copyColumns(run: ColumnRun): boolean {
     const [ps, pd] = [this.arena.offsetOf(run.src), this.arena.offsetOf(run.dst)];
-    if (ps < 0 || pd < 0) return false;
+    const [s32, d32] = [run.src instanceof Float32Array, run.dst instanceof Float32Array];
+    if (ps < 0 || pd < 0 || (s32 && d32)) return false;
     checkColumnRun(run);
-    if (run.rows > 0 && run.w > 0)
-      this.kernels.copy_columns(ps + 8 * run.srcAt, run.srcStride, pd + 8 * run.dstAt, run.dstStride, run.w, 0, run.rows);
+    if (run.rows <= 0 || run.w <= 0) return true;
+    const src = ps + run.src.BYTES_PER_ELEMENT * run.srcAt;
+    const dst = pd + run.dst.BYTES_PER_ELEMENT * run.dstAt;
+    if (s32 || d32) this.kernels.copy_columns_cast(src, run.srcStride, dst, run.dstStride, run.w, 0, run.rows, d32 ? 1 : 0);
+    else this.kernels.copy_columns(src, run.srcStride, dst, run.dstStride, run.w, 0, run.rows);
     return true;
   }
 
@@ -129,6 +142,26 @@ export class WasmExecutor implements MatrixExecutor {
    */
   protected x32(m: CsrMatrix, x: FloatArray, sequential: boolean): number {
     return sequential && x instanceof Float32Array && !(m.values instanceof Float32Array) ? this.arena.offsetOf(x) : -1;
+  }
+
+  /** Byte offset of M's stored values as f32 in the arena (copied, and rounded if f64, when needed). */
+  protected singleValues(m: CsrMatrix): number {
+    if (m.values instanceof Float32Array) return this.single(m.values).ptr;
+    const copy = this.arena.float32(m.values.length);
+    copy.set(m.values);
+    return copy.byteOffset;
+  }
+
+  /**
+   * An f32 array in the arena: where it lies, or a copy (copied back by done() for an output,
+   * `out`; an input's copy is left to the scope).
+   */
+  protected single(a: Float32Array, out = false): { ptr: number; done: () => void } {
+    const p = this.arena.offsetOf(a);
+    if (p >= 0) return { ptr: p, done: () => undefined };
+    const copy = this.arena.float32(a.length);
+    if (!out) copy.set(a);
+    return { ptr: copy.byteOffset, done: () => a.set(copy) };
   }
 
   /** Byte offset of an input array, copying it into the arena (as f64 for floats) if needed. */

@@ -48,6 +48,21 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
         ex.spmm(m32, x, l, y4, sequential);
         expect(same(y3, y4)).toBe(true);
       }
+      // Single precision (spmm_single): the plain loop's bits, with X and Y in the arena or not,
+      // and with f64 stored values (rounded to f32 first).
+      const xs = Float32Array.from(x);
+      const ys1 = new Float32Array(rows * l);
+      serialExecutor.spmmSingle(m, xs, l, ys1);
+      const m32s = { ...m, values: ex.float32(values.length) };
+      m32s.values.set(values);
+      const xsArena = ex.float32(cols * l);
+      xsArena.set(xs);
+      const ys2 = ex.float32(rows * l);
+      ex.spmmSingle(m32s, xsArena, l, ys2);
+      expect(same(ys1, ys2)).toBe(true);
+      const ys3 = new Float32Array(rows * l);
+      ex.spmmSingle(m, xs, l, ys3);
+      expect(same(ys1, ys3)).toBe(true);
       // An f32 X in the arena, sequential, f64 stored values: spmm_x32 reads it where it lies.
       // The same bits as the serial loop over the same f32 X, and as spmm over an f64 copy of X.
       const x32 = ex.float32(cols * l);
@@ -126,6 +141,36 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
       columnBlock(dstPlain, block, rows, [l, c0, w], 'scatter');
       expect(same(dst, dstPlain)).toBe(true);
     }
+  });
+
+  it('gathers an f64 column block into an f32 block and scatters it back as the plain loops do (rounded, then exact)', () => {
+    const ex = wasm!;
+    const [rows, l] = [29, 23];
+    const src = ex.float64(rows * l);
+    for (let i = 0; i < src.length; i++) src[i] = rnd.normal();
+    for (const [c0, w] of [
+      [0, 5],
+      [5, 6],
+      [22, 1],
+      [0, 23],
+    ]) {
+      const block = ex.float32(rows * w);
+      columnBlock(src, block, rows, [l, c0, w], 'gather', ex);
+      const plain = new Float32Array(rows * w);
+      columnBlock(src, plain, rows, [l, c0, w], 'gather');
+      expect(same(block, plain)).toBe(true);
+      for (let i = 0; i < rows; i++) for (let j = 0; j < w; j++) expect(block[i * w + j]).toBe(Math.fround(src[i * l + c0 + j]));
+      const dst = ex.float64(rows * l);
+      const dstPlain = new Float64Array(rows * l);
+      columnBlock(dst, block, rows, [l, c0, w], 'scatter', ex);
+      columnBlock(dstPlain, block, rows, [l, c0, w], 'scatter');
+      expect(same(dst, dstPlain)).toBe(true);
+      for (let i = 0; i < rows; i++) for (let j = 0; j < w; j++) expect(dst[i * l + c0 + j]).toBe(block[i * w + j]);
+    }
+    // Two f32 arrays: not the kernel's (the caller's plain loop copies them).
+    expect(ex.copyColumns({ src: ex.float32(8), srcStride: 4, srcAt: 0, dst: ex.float32(8), dstStride: 4, dstAt: 0, w: 4, rows: 2 })).toBe(
+      false,
+    );
   });
 
   it('copies columns only between arrays of its arena, and never past their ends', () => {

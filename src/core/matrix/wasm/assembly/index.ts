@@ -11,6 +11,7 @@ export { times } from './times';
 export { dots } from './dots';
 export { code_dots } from './codeDots';
 export { code_dots_int } from './codeDotsInt';
-export { copy_columns } from './copyColumns';
+export { copy_columns, copy_columns_cast } from './copyColumns';
 export { spmm_x32 } from './spmmX32';
 export { file_rows } from './fileRows';
+export { spmm_single } from './spmmSingle';
