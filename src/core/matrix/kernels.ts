@@ -60,6 +60,44 @@ export function spmmRows(
   r1: number,
   grouped = true,
 ): void {
+  productRows(indptr, indices, values, x, l, y, r0, r1, grouped, exact);
+}
+
+/**
+ * spmmRows in single precision, the twin of the WebAssembly kernel spmm_single
+ * (wasm/assembly/spmmSingle.ts): f32 stored values, X, Y and sums, the grouped order. Each
+ * product and sum is rounded to f32 as it is formed (Math.fround of the f64 result of two f32
+ * numbers is the correctly rounded f32 result, and a Float32Array store rounds the last sum), so
+ * the bits are the kernel's.
+ */
+export function spmmSingleRows(
+  indptr: Int32Array,
+  indices: Int32Array,
+  values: Float32Array,
+  x: Float32Array,
+  l: number,
+  y: Float32Array,
+  r0: number,
+  r1: number,
+): void {
+  productRows(indptr, indices, values, x, l, y, r0, r1, true, Math.fround);
+}
+
+const exact = (v: number): number => v;
+
+/** The rows of M·X with each product and partial sum passed through `round` (exact: f64). */
+function productRows(
+  indptr: Int32Array,
+  indices: Int32Array,
+  values: FloatArray,
+  x: FloatArray,
+  l: number,
+  y: FloatArray,
+  r0: number,
+  r1: number,
+  grouped: boolean,
+  round: (v: number) => number,
+): void {
   for (let i = r0; i < r1; i++) {
     const yo = i * l;
     const yEnd = yo + l;
@@ -75,59 +113,16 @@ export function spmmRows(
         x1 = indices[p + 1] * l - yo,
         x2 = indices[p + 2] * l - yo,
         x3 = indices[p + 3] * l - yo;
-      for (let c = yo; c < yEnd; c++) y[c] += v0 * x[x0 + c] + v1 * x[x1 + c] + v2 * x[x2 + c] + v3 * x[x3 + c];
-    }
-    for (; p < p1; p++) {
-      const v = values[p];
-      const xo = indices[p] * l - yo;
-      for (let c = yo; c < yEnd; c++) y[c] += v * x[xo + c];
-    }
-  }
-}
-
-/**
- * spmmRows in single precision, the twin of the WebAssembly kernel spmm_single
- * (wasm/assembly/spmmSingle.ts): f32 stored values, X, Y and sums, the grouped order. Each
- * product and sum is rounded to f32 as it is formed (Math.fround of the f64 result of two f32
- * numbers is the correctly rounded f32 result), so the bits are the kernel's.
- */
-export function spmmSingleRows(
-  indptr: Int32Array,
-  indices: Int32Array,
-  values: Float32Array,
-  x: Float32Array,
-  l: number,
-  y: Float32Array,
-  r0: number,
-  r1: number,
-): void {
-  const f = Math.fround;
-  for (let i = r0; i < r1; i++) {
-    const yo = i * l;
-    const yEnd = yo + l;
-    for (let c = yo; c < yEnd; c++) y[c] = 0;
-    const p1 = indptr[i + 1];
-    let p = indptr[i];
-    for (; p + 4 <= p1; p += 4) {
-      const v0 = values[p],
-        v1 = values[p + 1],
-        v2 = values[p + 2],
-        v3 = values[p + 3];
-      const x0 = indices[p] * l - yo,
-        x1 = indices[p + 1] * l - yo,
-        x2 = indices[p + 2] * l - yo,
-        x3 = indices[p + 3] * l - yo;
       for (let c = yo; c < yEnd; c++) {
-        let sum = f(f(v0 * x[x0 + c]) + f(v1 * x[x1 + c]));
-        sum = f(sum + f(v2 * x[x2 + c]));
-        sum = f(sum + f(v3 * x[x3 + c]));
-        y[c] += sum; // a Float32Array store rounds the sum of two f32 numbers once
+        let sum = round(round(v0 * x[x0 + c]) + round(v1 * x[x1 + c]));
+        sum = round(sum + round(v2 * x[x2 + c]));
+        y[c] += round(sum + round(v3 * x[x3 + c]));
       }
     }
     for (; p < p1; p++) {
       const v = values[p];
       const xo = indices[p] * l - yo;
-      for (let c = yo; c < yEnd; c++) y[c] += f(v * x[xo + c]);
+      for (let c = yo; c < yEnd; c++) y[c] += round(v * x[xo + c]);
     }
   }
 }
