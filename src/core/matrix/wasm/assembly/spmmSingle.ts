@@ -17,7 +17,7 @@
  * rounding (a relative 10⁻⁷ per operation) only perturbs the basis being refined; the
  * Rayleigh–Ritz products that give the singular values stay in f64 (spmm.ts). Twice the lanes
  * of f64x2 and half the bytes of X per stored entry: on the Linux tree's matrix a product took
- * 55–59 ms against 124–170 ms in f64 (one thread).
+ * 55–59 ms against 120–170 ms in f64 (one thread).
  */
 export function spmm_single(indptr: usize, indices: usize, values: usize, x: usize, l: i32, y: usize, r0: i32, r1: i32): void {
   const rowBytes = <usize>l << 2;
