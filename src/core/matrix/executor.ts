@@ -7,7 +7,6 @@
  * give the same bits.
  */
 import type { CsrMatrix } from './sparse.js';
-import { createRandom } from '../random.js';
 import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, spmmSingleRows, timesSmallRows, type FloatArray } from './kernels.js';
 
 export type { FloatArray } from './kernels.js';
@@ -124,7 +123,7 @@ export const serialExecutor: MatrixExecutor = Object.freeze({
     timesSmallRows(y, l, wt, c, upper, out, 0, rows);
   },
   gaussian(out: Float64Array, rows: number, l: number, seed: number): void {
-    for (let b = 0; b * GAUSSIAN_BLOCK_ROWS < rows; b++) gaussianBlock(out, rows, l, seed, b, createRandom);
+    for (let b = 0; b * GAUSSIAN_BLOCK_ROWS < rows; b++) gaussianBlock(out, rows, l, seed, b);
   },
 });
 

@@ -7,7 +7,7 @@
  */
 import { GAUSSIAN_BLOCK_ROWS, gaussianBlock } from '../../core/matrix/kernels.js';
 import type { KernelExports } from '../../core/matrix/wasm/wasmArena.js';
-import { createRandom } from '../../core/random.js';
+import type { CopyArgs } from '../../core/matrix/wasm/wasmExecutor.js';
 
 /** Control words of a job (Int32Array on a SharedArrayBuffer). */
 export const CTRL_NEXT = 0; // next unclaimed task
@@ -51,6 +51,13 @@ export type KernelJob =
       readonly args: readonly [number, number, number, number];
     }
   | {
+      /** copy_columns (cast −1) or copy_columns_cast (cast 0: f32 into f64, 1: f64 into f32). */
+      readonly op: 'copy_columns';
+      /** src, srcStride, dst, dstStride, w, cast. */
+      readonly args: CopyArgs;
+      readonly bounds: readonly number[];
+    }
+  | {
       readonly op: 'times';
       /** y, l, w, c, upper (0/1), out. */
       readonly args: readonly [number, number, number, number, number, number];
@@ -67,7 +74,7 @@ export function runTask(k: KernelExports, job: KernelJob, t: number, memory: Web
   switch (job.op) {
     case 'gaussian': {
       const [out, rows, l, seed] = job.args;
-      gaussianBlock(new Float64Array(memory.buffer, out, rows * l), rows, l, seed, t, createRandom);
+      gaussianBlock(new Float64Array(memory.buffer, out, rows * l), rows, l, seed, t);
       return;
     }
     case 'spmm':
@@ -89,6 +96,13 @@ export function runTask(k: KernelExports, job: KernelJob, t: number, memory: Web
     case 'cross': {
       const [a, b, l, rows, partials, symmetric] = job.args;
       k.cross(a, b, l, t * job.blockRows, Math.min(rows, (t + 1) * job.blockRows), partials + t * l * l * 8, symmetric);
+      return;
+    }
+    case 'copy_columns': {
+      const [src, srcStride, dst, dstStride, w, cast] = job.args;
+      const [r0, r1] = [job.bounds[t], job.bounds[t + 1]];
+      if (cast < 0) k.copy_columns(src, srcStride, dst, dstStride, w, r0, r1);
+      else k.copy_columns_cast(src, srcStride, dst, dstStride, w, r0, r1, cast);
       return;
     }
     case 'times': {

@@ -10,11 +10,15 @@ import type { Worker } from 'node:worker_threads';
 import { addInto, mirrorUpper, REDUCTION_BLOCK_ROWS, splitCsrRows, splitRows, type FloatArray } from '../../core/matrix/executor.js';
 import type { CsrMatrix } from '../../core/matrix/sparse.js';
 import type { WasmArena } from '../../core/matrix/wasm/wasmArena.js';
-import { WasmExecutor } from '../../core/matrix/wasm/wasmExecutor.js';
+import { WasmExecutor, type CopyArgs } from '../../core/matrix/wasm/wasmExecutor.js';
 import { CTRL_COMPLETED, CTRL_FAILED, CTRL_FINISHED, CTRL_WORDS, drainTasks, taskCount, type KernelJob } from './kernelTasks.js';
 
 /** Tasks per thread in a product (several, so a slow thread does not hold the others up). */
 const TASKS_PER_THREAD = 8;
+/** Tasks per thread in a column copy (a copy is short: fewer, larger tasks than a product's). */
+const COPY_TASKS_PER_THREAD = 2;
+/** Numbers from which a column copy is shared out (our choice: below, a copy takes tens of µs). */
+const COPY_SHARED_FROM = 1 << 16;
 /** A job that completes no task for this long means a worker thread died. */
 const STALL_MS = 60_000;
 /** Reduction blocks of a Gram product per thread and job (bounds its partials; our choice, not tuned). */
@@ -94,6 +98,15 @@ export class ThreadExecutor extends WasmExecutor {
     const bounds = Array.from(splitRows(rows, this.threads * TASKS_PER_THREAD));
     this.run({ op: 'times', args: [this.ptr(y), l, w, c, upper ? 1 : 0, o.ptr], bounds });
     o.done();
+  }
+
+  /**
+   * A column copy shared out by rows (copies: the same bits whoever copies which rows); one that
+   * moves fewer than COPY_SHARED_FROM numbers is done here (posting it would cost more).
+   */
+  protected override copyRows(args: CopyArgs, rows: number): void {
+    if (rows * args[4] < COPY_SHARED_FROM) return super.copyRows(args, rows);
+    this.run({ op: 'copy_columns', args, bounds: Array.from(splitRows(rows, this.threads * COPY_TASKS_PER_THREAD)) });
   }
 
   override gaussian(out: Float64Array, rows: number, l: number, seed: number): void {

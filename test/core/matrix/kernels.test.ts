@@ -155,7 +155,7 @@ describe('gaussianBlock', () => {
     const rows = 3 * GAUSSIAN_BLOCK_ROWS + 17;
     const l = 7;
     const out = new Float64Array(rows * l);
-    for (let b = 0; b * GAUSSIAN_BLOCK_ROWS < rows; b++) gaussianBlock(out, rows, l, 42, b, createRandom);
+    for (let b = 0; b * GAUSSIAN_BLOCK_ROWS < rows; b++) gaussianBlock(out, rows, l, 42, b);
     const n = out.length;
     const sorted = Float64Array.from(out).sort();
     let d = 0;
@@ -166,12 +166,41 @@ describe('gaussianBlock', () => {
     expect(Math.abs(mean)).toBeLessThan(4 / Math.sqrt(n));
   });
 
+  it("draws createRandom's stream: the same numbers as the polar method over createRandom's uniforms", () => {
+    // The polar method (Marsaglia & Bray 1964) written plainly over createRandom (random.ts, the
+    // generator the kernel writes out with its state in local integers), with the kernel's seeding.
+    const plain = (out: Float64Array, rows: number, l: number, seed: number, b: number): void => {
+      const r = createRandom((Math.imul(seed ^ 0x5bd1e995, 0x9e3779b1) + Math.imul(b + 1, 0x85ebca6b)) >>> 0);
+      const end = Math.min(rows, (b + 1) * GAUSSIAN_BLOCK_ROWS) * l;
+      let i = b * GAUSSIAN_BLOCK_ROWS * l;
+      while (i < end) {
+        const x = r.nextUint32() * (2 / 4294967296) - 1;
+        const y = r.nextUint32() * (2 / 4294967296) - 1;
+        const s = x * x + y * y;
+        if (s >= 1 || s === 0) continue;
+        const f = Math.sqrt((-2 * Math.log(s)) / s);
+        out[i++] = x * f;
+        if (i < end) out[i++] = y * f;
+      }
+    };
+    for (const seed of [0, 9, 20261201, 0xffffffff]) {
+      const rows = 2 * GAUSSIAN_BLOCK_ROWS + 3;
+      const a = new Float64Array(rows * 5);
+      const b = new Float64Array(rows * 5);
+      for (let i = 0; i < 3; i++) {
+        gaussianBlock(a, rows, 5, seed, i);
+        plain(b, rows, 5, seed, i);
+      }
+      expect(Buffer.from(a.buffer).equals(Buffer.from(b.buffer))).toBe(true);
+    }
+  });
+
   it('gives each block the same numbers whatever order the blocks are drawn in', () => {
     const rows = 2 * GAUSSIAN_BLOCK_ROWS + 5;
     const a = new Float64Array(rows * 3);
     const b = new Float64Array(rows * 3);
-    for (let i = 0; i < 3; i++) gaussianBlock(a, rows, 3, 9, i, createRandom);
-    for (let i = 2; i >= 0; i--) gaussianBlock(b, rows, 3, 9, i, createRandom);
+    for (let i = 0; i < 3; i++) gaussianBlock(a, rows, 3, 9, i);
+    for (let i = 2; i >= 0; i--) gaussianBlock(b, rows, 3, 9, i);
     expect(Buffer.from(a.buffer).equals(Buffer.from(b.buffer))).toBe(true);
     expect(a.every((x) => Number.isFinite(x) && x !== 0)).toBe(true);
   });

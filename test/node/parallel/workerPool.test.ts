@@ -145,6 +145,31 @@ describe('worker pool', () => {
     expect(one.some((v) => v !== 0)).toBe(true);
   });
 
+  it('shares a large column copy out by rows (f64, and cast either way) with the same numbers as a plain loop', () => {
+    // 30,001 rows × 5 columns: above the size from which a copy is shared out, an odd row count.
+    const rows = 30_001;
+    const ex = pool!.executor();
+    const src64 = ex.float64(rows * 9);
+    serialExecutor.gaussian(src64, rows, 9, 5);
+    const src32 = ex.float32(rows * 9);
+    src32.set(src64);
+    for (const [src, dst] of [
+      [src64, ex.float64(rows * 6)],
+      [src64, ex.float32(rows * 6)],
+      [src32, ex.float64(rows * 6)],
+    ] as const) {
+      const run = { src, srcStride: 9, srcAt: 3, dst, dstStride: 6, dstAt: 1, w: 5, rows };
+      expect(ex.copyColumns!(run)).toBe(true);
+      // What typed arrays store for each number (f64 into f32 rounds to nearest; f32 into f64 is exact).
+      const want = dst instanceof Float32Array ? new Float32Array(rows * 6) : new Float64Array(rows * 6);
+      for (let i = 0; i < rows; i++) for (let j = 0; j < 5; j++) want[i * 6 + 1 + j] = src[i * 9 + 3 + j];
+      for (let i = 0; i < rows; i++) {
+        want[i * 6] = dst[i * 6];
+      }
+      expect(Buffer.from(dst.buffer, dst.byteOffset, dst.byteLength).equals(Buffer.from(want.buffer))).toBe(true);
+    }
+  });
+
   it('a pool for products starts only the workers its executor uses, with the same bits as on one thread', async () => {
     const products = WorkerPool.start({ threads: 2, workerScript }, true)!;
     try {

@@ -18,6 +18,9 @@ import {
 import type { CsrMatrix } from '../sparse.js';
 import { instantiateKernels, kernelModule, WasmArena, type KernelExports } from './wasmArena.js';
 
+/** A column copy's arguments: src, srcStride, dst, dstStride, w, cast (−1 none, 0 f32 → f64, 1 f64 → f32). */
+export type CopyArgs = readonly [number, number, number, number, number, number];
+
 export class WasmExecutor implements MatrixExecutor {
   readonly threads: number = 1;
   readonly arena: WasmArena;
@@ -120,9 +123,18 @@ export class WasmExecutor implements MatrixExecutor {
     if (run.rows <= 0 || run.w <= 0) return true;
     const src = ps + run.src.BYTES_PER_ELEMENT * run.srcAt;
     const dst = pd + run.dst.BYTES_PER_ELEMENT * run.dstAt;
-    if (s32 || d32) this.kernels.copy_columns_cast(src, run.srcStride, dst, run.dstStride, run.w, 0, run.rows, d32 ? 1 : 0);
-    else this.kernels.copy_columns(src, run.srcStride, dst, run.dstStride, run.w, 0, run.rows);
+    this.copyRows([src, run.srcStride, dst, run.dstStride, run.w, s32 ? 0 : d32 ? 1 : -1], run.rows);
     return true;
+  }
+
+  /**
+   * Rows [0, rows) of a checked column copy: src, srcStride, dst, dstStride (byte offsets and
+   * strides in numbers), w, and the cast (−1 none, 0 f32 into f64, 1 f64 into f32).
+   */
+  protected copyRows(args: CopyArgs, rows: number): void {
+    const [src, srcStride, dst, dstStride, w, cast] = args;
+    if (cast < 0) this.kernels.copy_columns(src, srcStride, dst, dstStride, w, 0, rows);
+    else this.kernels.copy_columns_cast(src, srcStride, dst, dstStride, w, 0, rows, cast);
   }
 
   gaussian(out: Float64Array, rows: number, l: number, seed: number): void {
