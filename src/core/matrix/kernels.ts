@@ -42,26 +42,22 @@ export function gaussianBlock(out: Float64Array, rows: number, l: number, seed: 
   const end = Math.min(rows, (b + 1) * GAUSSIAN_BLOCK_ROWS) * l;
   const scale = 2 / 4294967296;
   let i = b * GAUSSIAN_BLOCK_ROWS * l;
+  // One xoshiro128** step: r = rotl(s1·5, 7)·9 as a signed 32-bit integer, then the state update.
+  const next = (): number => {
+    const m = Math.imul(s1, 5);
+    const r = Math.imul((m << 7) | (m >>> 25), 9);
+    const t = s1 << 9;
+    s2 ^= s0;
+    s3 ^= s1;
+    s1 ^= s2;
+    s0 ^= s3;
+    s2 ^= t;
+    s3 = (s3 << 11) | (s3 >>> 21);
+    return r;
+  };
   while (i < end) {
-    // Two xoshiro128** steps: r = rotl(s1·5, 7)·9, then the state update.
-    let m = Math.imul(s1, 5);
-    const r1 = Math.imul((m << 7) | (m >>> 25), 9);
-    let t = s1 << 9;
-    s2 ^= s0;
-    s3 ^= s1;
-    s1 ^= s2;
-    s0 ^= s3;
-    s2 ^= t;
-    s3 = (s3 << 11) | (s3 >>> 21);
-    m = Math.imul(s1, 5);
-    const r2 = Math.imul((m << 7) | (m >>> 25), 9);
-    t = s1 << 9;
-    s2 ^= s0;
-    s3 ^= s1;
-    s1 ^= s2;
-    s0 ^= s3;
-    s2 ^= t;
-    s3 = (s3 << 11) | (s3 >>> 21);
+    const r1 = next();
+    const r2 = next();
     const u = (r1 >>> 0) * scale - 1;
     const v = (r2 >>> 0) * scale - 1;
     const s = u * u + v * v;
