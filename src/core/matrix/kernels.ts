@@ -20,9 +20,10 @@ export const GAUSSIAN_BLOCK_ROWS = 2048;
  * result. Marsaglia's polar method (Marsaglia & Bray 1964): two normals per accepted pair of
  * uniforms with one log and one square root, no sine or cosine (about 1.6× faster here than
  * Box–Muller). The uniforms are createRandom's stream (random.ts: xoshiro128**, Blackman & Vigna
- * 2021, seeded by splitmix32), the same numbers, written out here with the state in local 32-bit
- * integers: drawn through createRandom's closure, each draw came back as a boxed number and the
- * block took twice as long (this file takes no imports; the tests check the two streams agree).
+ * 2021, seeded by splitmix32), the same numbers, drawn by this function's own copy of the
+ * generator, whose draws stay signed 32-bit integers until used: createRandom's nextUint32 hands
+ * each draw back as an unsigned number, boxed above 2³⁰, and the block took twice as long (this
+ * file takes no imports; the tests check that the two streams agree).
  */
 export function gaussianBlock(out: Float64Array, rows: number, l: number, seed: number, b: number): void {
   // splitmix32 expands the block's seed into the four state words, as createRandom does.
