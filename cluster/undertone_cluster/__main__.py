@@ -27,7 +27,7 @@ def parse(argv):
     ap.add_argument("--shard-files", type=int, default=2000, help="files per counting shard (default 2000)")
     ap.add_argument("--k", default="auto", help="concept dimensions (default auto, as the index)")
     ap.add_argument("--weighting", default="log-entropy", choices=["log-entropy", "tfidf"])
-    ap.add_argument("--power-iterations", type=int, default=5, help="as the index's default (5)")
+    ap.add_argument("--power-iterations", type=int, default=5, help="plain power steps (default 5; the index reaches about that accuracy with 4 shifted ones)")
     ap.add_argument("--tolerance", type=float, help="go on with power iterations until the top-k subspace moves by less than this "
                     "(sine of the largest principal angle between two steps; e.g. 1e-4); default: exactly --power-iterations")
     ap.add_argument("--max-power-iterations", type=int, default=60, help="with --tolerance: stop with an error after this many (default 60)")

@@ -53,7 +53,7 @@ options:
   --skip-sections            (index) build without section vectors (a smaller index file)
   --k N|auto                 concept dimensions (default auto: grows with the collection)
   --weighting log-entropy|tfidf   term weighting (default log-entropy)
-  --power-iterations N       power iterations of the randomized SVD (default 5; more settle the
+  --power-iterations N       power iterations of the randomized SVD (default 4, shifted; more settle the
                              concepts closer to the exact SVD, e.g. to match a cluster model)
   --json                     machine-readable output
   --cache-dir DIR            where saved indexes live (default: the user cache folder,

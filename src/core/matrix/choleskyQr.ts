@@ -16,6 +16,8 @@ import { orthonormalize } from './orthonormalize.js';
 /**
  * Orthonormalises the rows × l block y (from executor memory) in place: each pass multiplies by
  * R⁻¹ (upper triangular) column by column from the top down, which needs no second buffer.
+ * onFirstFactor, when given, sees (R⁻¹)ᵀ of the first pass (R's singular values are y's as it
+ * came in); it is not called when the robust path runs instead.
  */
 export function choleskyQr(
   ex: MatrixExecutor,
@@ -24,6 +26,7 @@ export function choleskyQr(
   l: number,
   passes: 1 | 2,
   random: RandomSource,
+  onFirstFactor?: (inverseT: Float64Array) => void,
 ): Float64Array {
   for (let pass = 0; pass < passes; pass++) {
     const r = cholesky(ex.cross(y, y, rows, l), l);
@@ -33,7 +36,9 @@ export function choleskyQr(
       if (q !== y) y.set(q);
       return y;
     }
-    ex.timesSmall(y, rows, l, invertUpperTransposed(r, l), l, true, y);
+    const inverseT = invertUpperTransposed(r, l);
+    if (pass === 0) onFirstFactor?.(inverseT);
+    ex.timesSmall(y, rows, l, inverseT, l, true, y);
   }
   return y;
 }

@@ -6,6 +6,7 @@ import { DEFAULT_PRUNE_OPTIONS, type PruneOptions } from '../../weighting/prune.
 import type { WeightingScheme } from '../../weighting/termWeighting.js';
 import { DEFAULT_TOKENIZE_OPTIONS, type TokenizeOptions } from '../../text/tokenize.js';
 import { DEFAULT_SEED } from '../../random.js';
+import { DEFAULT_SVD_OPTIONS } from '../../svd/randomizedSvd.js';
 
 export interface IndexSettings {
   /** @default 'log-entropy' */
@@ -14,7 +15,7 @@ export interface IndexSettings {
   k: number | 'auto';
   /** @default DEFAULT_SEED */
   seed: number;
-  /** Power iterations of the randomized SVD. @default 5 */
+  /** Power iterations of the randomized SVD (shifted: svd/dynamicShift.ts). @default 4 */
   powerIterations: number;
   prune: PruneOptions;
   tokenize: TokenizeOptions;
@@ -40,7 +41,7 @@ export const DEFAULT_INDEX_SETTINGS: Readonly<IndexSettings> = Object.freeze({
   weighting: 'log-entropy',
   k: 'auto',
   seed: DEFAULT_SEED,
-  powerIterations: 5,
+  powerIterations: DEFAULT_SVD_OPTIONS.powerIterations,
   prune: DEFAULT_PRUNE_OPTIONS,
   tokenize: DEFAULT_TOKENIZE_OPTIONS,
   conceptScaling: 1,
