@@ -1,9 +1,8 @@
 /**
  * Dynamic shifts for the power iterations of a randomized SVD (Feng, Yu, Xie & Tang 2024,
  * "Algorithm 1043: Faster Randomized SVD with Dynamic Shifts", ACM Transactions on Mathematical
- * Software 50(2), doi:10.1145/3660629; the rule first appeared for sparse PCA in Feng, Xie, Song,
- * Yu & Tang 2018, ACML). A power iteration applies (AAᵀ − αI) to the basis Q instead of AAᵀ: the
- * same eigenvectors, with eigenvalues σᵢ² − α. While α ≤ σ_l²/2 (l the basis width), every
+ * Software, doi:10.1145/3660629). A power iteration applies (AAᵀ − αI) to the basis Q instead of
+ * AAᵀ: the same eigenvectors, with eigenvalues σᵢ² − α. While α ≤ σ_l²/2 (l the basis width), every
  * eigenvalue beyond the l-th stays at most σ_l² − α in magnitude, so the basis still converges to
  * the leading l directions, and the ratio that sets the speed for σ_k, (σ_{l+1}² − α)/(σ_k² − α),
  * is smaller than σ_{l+1}²/σ_k².
