@@ -7,7 +7,16 @@
  * give the same bits.
  */
 import type { CsrMatrix } from './sparse.js';
-import { crossRows, GAUSSIAN_BLOCK_ROWS, gaussianBlock, spmmRows, spmmSingleRows, timesSmallRows, type FloatArray } from './kernels.js';
+import {
+  crossRows,
+  GAUSSIAN_BLOCK_ROWS,
+  gaussianBlock,
+  spmmRows,
+  spmmSingleRows,
+  timesSmallRows,
+  unitRowsInto,
+  type FloatArray,
+} from './kernels.js';
 
 export type { FloatArray } from './kernels.js';
 
@@ -37,6 +46,11 @@ export interface MatrixExecutor {
   cross(a: FloatArray, b: FloatArray, rows: number, l: number): Float64Array;
   /** out = Y W for Y rows × l and W l × c given transposed (wt: c × l); W upper triangular if upper. */
   timesSmall(y: FloatArray, rows: number, l: number, wt: Float64Array, c: number, upper: boolean, out: FloatArray): void;
+  /**
+   * out (rows × k, f32) = each row of y (rows × k) times s elementwise, over its norm; a row whose
+   * scaled norm is 0 comes out as zeros (unitRowsInto: the same bits on every executor).
+   */
+  unitRows(y: Float64Array, rows: number, k: number, s: Float64Array, out: Float32Array): void;
   /** Fills a rows × l block with seeded N(0, 1) numbers, block by block (gaussianBlock). */
   gaussian(out: Float64Array, rows: number, l: number, seed: number): void;
   /** Runs fn and then frees the executor memory it allocated (results must be copied out). */
@@ -121,6 +135,9 @@ export const serialExecutor: MatrixExecutor = Object.freeze({
   },
   timesSmall(y: FloatArray, rows: number, l: number, wt: Float64Array, c: number, upper: boolean, out: FloatArray): void {
     timesSmallRows(y, l, wt, c, upper, out, 0, rows);
+  },
+  unitRows(y: Float64Array, rows: number, k: number, s: Float64Array, out: Float32Array): void {
+    unitRowsInto(y, s, k, out, 0, rows);
   },
   gaussian(out: Float64Array, rows: number, l: number, seed: number): void {
     for (let b = 0; b * GAUSSIAN_BLOCK_ROWS < rows; b++) gaussianBlock(out, rows, l, seed, b);

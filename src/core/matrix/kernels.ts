@@ -337,3 +337,23 @@ export function timesSmallRows(
     }
   }
 }
+
+/**
+ * out[r0:r1] = each row of y (rows × k, row-major) times s elementwise, over its norm, in f32; a
+ * row whose scaled norm is 0 is written as zeros. The order of operations of
+ * wasm/assembly/unitRows.ts (v_c = y_c · s_c; one running sum of squares in column order;
+ * f32(v_c / √ss)), which is projectTerms' normalisation, so all give the same bits.
+ */
+export function unitRowsInto(y: FloatArray, s: Float64Array, k: number, out: Float32Array, r0: number, r1: number): void {
+  for (let j = r0; j < r1; j++) {
+    const o = j * k;
+    let ss = 0;
+    for (let c = 0; c < k; c++) {
+      const v = y[o + c] * s[c];
+      ss += v * v;
+    }
+    const norm = Math.sqrt(ss);
+    if (norm === 0) out.fill(0, o, o + k);
+    else for (let c = 0; c < k; c++) out[o + c] = (y[o + c] * s[c]) / norm;
+  }
+}

@@ -191,7 +191,6 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
     // The f64 blocks of U_k (unused when it is read whole).
     const tv = whole ? new Float64Array(0) : ex.float64(terms * width);
     if (!whole && width === k) tv.set(model.termVectors);
-    const row = new Float64Array(k);
     // Which file and section each row of the chunk is.
     const chunk = Math.max(1, Math.floor(options.chunkSections ?? (width === k ? FOLD_CHUNK_SECTIONS : 2 * FOLD_CHUNK_SECTIONS)));
     const fileOf = new Int32Array(chunk);
@@ -291,20 +290,11 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
         const part = ex.float64(rows * w);
         if (acc) blockedTermProduct(ex, m, model.termVectors, k, w, tv, part, acc, used);
         else ex.spmm(m, whole ?? tv, k, part, true);
-        const sums = acc ?? part;
-        out?.fill(0, 0, rows * k);
-        for (let r = 0; r < rows; r++) {
-          let ss = 0;
-          for (let c = 0; c < k; c++) {
-            row[c] = sums[r * k + c] * axisScale[c];
-            ss += row[c] * row[c];
-          }
-          const norm = Math.sqrt(ss);
-          if (norm === 0) continue;
-          const dest = out ?? vectors[fileOf[r]];
-          const at = out ? r * k : sectionOf[r] * k;
-          for (let c = 0; c < k; c++) dest[at + c] = row[c] / norm;
-        }
+        // Axis scaling and normalisation of the whole chunk at once (unitRowsInto's arithmetic,
+        // projectTerms' order), into the spill's block or a block scattered to the files' rows.
+        const unit = out ? out.subarray(0, rows * k) : ex.float32(rows * k);
+        ex.unitRows(acc ?? part, rows, k, axisScale, unit);
+        if (!out) for (let r = 0; r < rows; r++) vectors[fileOf[r]].set(unit.subarray(r * k, (r + 1) * k), sectionOf[r] * k);
       });
       if (spill && out) spill.write(new Uint8Array(out.buffer, 0, 4 * rows * k), 4 * base * k);
       base += rows;

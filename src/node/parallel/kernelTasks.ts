@@ -58,6 +58,13 @@ export type KernelJob =
       readonly bounds: readonly number[];
     }
   | {
+      /** unit_rows (assembly/unitRows.ts). */
+      readonly op: 'unit_rows';
+      /** y, s, k, out. */
+      readonly args: readonly [number, number, number, number];
+      readonly bounds: readonly number[];
+    }
+  | {
       readonly op: 'times';
       /** y, l, w, c, upper (0/1), out. */
       readonly args: readonly [number, number, number, number, number, number];
@@ -103,6 +110,11 @@ export function runTask(k: KernelExports, job: KernelJob, t: number, memory: Web
       const [r0, r1] = [job.bounds[t], job.bounds[t + 1]];
       if (cast < 0) k.copy_columns(src, srcStride, dst, dstStride, w, r0, r1);
       else k.copy_columns_cast(src, srcStride, dst, dstStride, w, r0, r1, cast);
+      return;
+    }
+    case 'unit_rows': {
+      const [y, sc, kk, out] = job.args;
+      k.unit_rows(y, sc, kk, out, job.bounds[t], job.bounds[t + 1]);
       return;
     }
     case 'times': {

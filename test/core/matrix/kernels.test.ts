@@ -6,6 +6,7 @@ import {
   spmmRows,
   spmmSingleRows,
   timesSmallRows,
+  unitRowsInto,
 } from '../../../src/core/matrix/kernels.js';
 import { createRandom } from '../../../src/core/random.js';
 
@@ -139,6 +140,34 @@ describe('row-range kernels', () => {
         close(out, want);
       }
     }
+  });
+});
+
+describe('unitRowsInto', () => {
+  it('scales each row by column and makes it a unit vector in f32; a zero row stays zero', () => {
+    const k = 9,
+      rows = 6;
+    const y = randomArray(rows * k);
+    y.fill(0, 2 * k, 3 * k); // row 2 is all zeros
+    const s = Float64Array.from({ length: k }, (_, c) => (c === 4 ? 0 : 0.5 + rnd.next()));
+    const out = new Float32Array(rows * k).fill(7);
+    unitRowsInto(y, s, k, out, 0, rows);
+    for (let r = 0; r < rows; r++) {
+      // Reference: the scaled row over Math.hypot's norm (another summation), rounded to f32.
+      const v = Array.from({ length: k }, (_, c) => y[r * k + c] * s[c]);
+      const norm = Math.hypot(...v);
+      for (let c = 0; c < k; c++) {
+        const want = norm === 0 ? 0 : v[c] / norm;
+        expect(Math.abs(out[r * k + c] - want)).toBeLessThanOrEqual(2 ** -23);
+      }
+    }
+    expect(Array.from(out.subarray(2 * k, 3 * k))).toEqual(new Array(k).fill(0));
+    // Only rows [r0, r1) are written.
+    const part = new Float32Array(rows * k).fill(7);
+    unitRowsInto(y, s, k, part, 1, 3);
+    expect(part[0]).toBe(7);
+    expect(Array.from(part.subarray(k, 3 * k))).toEqual(Array.from(out.subarray(k, 3 * k)));
+    expect(part[3 * k]).toBe(7);
   });
 });
 

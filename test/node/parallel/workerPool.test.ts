@@ -145,6 +145,21 @@ describe('worker pool', () => {
     expect(one.some((v) => v !== 0)).toBe(true);
   });
 
+  it('scales and normalises many rows (unit_rows, the folds) with the same bits as on one thread', () => {
+    // 2,049 rows × 200: above the size from which the rows are shared out, an odd row count.
+    const [rows, k] = [2049, 200];
+    const ex = pool!.executor();
+    const y = ex.float64(rows * k);
+    serialExecutor.gaussian(y, rows, k, 6);
+    const s = Float64Array.from({ length: k }, (_, c) => 1 / (1 + c));
+    const one = new Float32Array(rows * k);
+    serialExecutor.unitRows(y, rows, k, s, one);
+    const two = ex.float32(rows * k);
+    ex.unitRows(y, rows, k, s, two);
+    expect(Buffer.from(two.buffer, two.byteOffset, two.byteLength).equals(Buffer.from(one.buffer))).toBe(true);
+    expect(one.some((v) => v !== 0)).toBe(true);
+  });
+
   it('shares a large column copy out by rows (f64, and cast either way) with the same numbers as a plain loop', () => {
     // 30,001 rows × 5 columns: above the size from which a copy is shared out, an odd row count.
     const rows = 30_001;

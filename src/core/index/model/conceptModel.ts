@@ -227,7 +227,6 @@ export function projectMatrixRows(
   const out = new Float32Array(n * k);
   const width = Math.max(1, Math.min(k, Math.floor(blockBytes / (8 * Math.max(1, terms)))));
   const rowsPer = Math.max(1, Math.floor(rowBytes / (8 * Math.max(1, k))));
-  const row = new Float64Array(k);
   for (let r0 = 0; r0 < n; r0 += rowsPer) {
     const r1 = Math.min(n, r0 + rowsPer);
     const run = (): void => {
@@ -238,16 +237,7 @@ export function projectMatrixRows(
       const part = ex.float64((r1 - r0) * width);
       const acc = ex.float64((r1 - r0) * k);
       blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
-      for (let i = 0; i < r1 - r0; i++) {
-        let ss = 0;
-        for (let c = 0; c < k; c++) {
-          row[c] = acc[i * k + c] * model.axisScale[c];
-          ss += row[c] * row[c];
-        }
-        const norm = Math.sqrt(ss);
-        const o = (r0 + i) * k;
-        if (norm > 0) for (let c = 0; c < k; c++) out[o + c] = row[c] / norm;
-      }
+      ex.unitRows(acc, r1 - r0, k, model.axisScale, out.subarray(r0 * k, r1 * k));
     };
     if (ex.scoped) ex.scoped(run);
     else run();

@@ -16,7 +16,7 @@ const GROW_SLACK_PAGES = 64;
 /** The exports the SVD's executors use (./assembly/spmm.ts, spmmX32.ts, spmmSingle.ts, cross.ts, times.ts, copyColumns.ts). */
 export type KernelExports = Pick<
   KernelModuleExports,
-  'spmm' | 'spmm_f32' | 'spmm_x32' | 'spmm_single' | 'cross' | 'times' | 'copy_columns' | 'copy_columns_cast'
+  'spmm' | 'spmm_f32' | 'spmm_x32' | 'spmm_single' | 'cross' | 'times' | 'copy_columns' | 'copy_columns_cast' | 'unit_rows'
 >;
 
 export function instantiateKernels(module: WebAssembly.Module, memory: WebAssembly.Memory): KernelExports {

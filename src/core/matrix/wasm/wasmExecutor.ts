@@ -111,6 +111,12 @@ export class WasmExecutor implements MatrixExecutor {
     o.done();
   }
 
+  unitRows(y: Float64Array, rows: number, k: number, s: Float64Array, out: Float32Array): void {
+    const o = this.single(out.subarray(0, rows * k), true);
+    this.kernels.unit_rows(this.ptr(y), this.ptr(s), k, o.ptr, 0, rows);
+    o.done();
+  }
+
   /**
    * The copy_columns kernel when both arrays live in the arena (assembly/copyColumns.ts), or
    * copy_columns_cast between an f64 and an f32 array; false for two f32 arrays.

@@ -183,6 +183,31 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
     expect(() => ex.copyColumns({ ...run, dst: ex.float64(19) })).toThrow(RangeError);
   });
 
+  it("scales and normalises rows (unit_rows) with the serial executor's bits, odd k and zero rows included", () => {
+    const ex = wasm!;
+    for (const [rows, k] of [
+      [50, 200],
+      [7, 13],
+      [3, 1],
+    ] as const) {
+      const y = Float64Array.from({ length: rows * k }, () => rnd.normal());
+      y.fill(0, 0, k); // a zero row
+      const s = Float64Array.from({ length: k }, () => rnd.next());
+      const one = new Float32Array(rows * k);
+      serialExecutor.unitRows(y, rows, k, s, one);
+      // Inputs and output outside the arena (copied in and back), then all inside it.
+      const two = new Float32Array(rows * k).fill(9);
+      ex.unitRows(y, rows, k, s, two);
+      expect(same(one, two)).toBe(true);
+      const [ya, sa, three] = [ex.float64(rows * k), ex.float64(k), ex.float32(rows * k)];
+      ya.set(y);
+      sa.set(s);
+      ex.unitRows(ya, rows, k, sa, three);
+      expect(same(one, three)).toBe(true);
+      expect(one.some((v) => v !== 0)).toBe(true);
+    }
+  });
+
   it('frees scoped arena memory for reuse', () => {
     const ex = wasm!;
     const first = ex.scoped(() => ex.float64(1000).byteOffset);

@@ -15,3 +15,4 @@ export { copy_columns, copy_columns_cast } from './copyColumns';
 export { spmm_x32 } from './spmmX32';
 export { file_rows } from './fileRows';
 export { spmm_single } from './spmmSingle';
+export { unit_rows } from './unitRows';
