@@ -46,7 +46,18 @@ export function globalWeights(docs: readonly DocTerms[], columnOf: Int32Array, c
   return g;
 }
 
+/**
+ * Local weights of the whole counts below LOCAL_TABLE_SIZE, computed once by the same functions
+ * (so the same numbers, looked up): counts are whole numbers and nearly all are small, and the
+ * sections fold of a large tree weighs some 10⁸ of them.
+ */
+const LOCAL_TABLE_SIZE = 256;
+const LOG1P_TABLE = Float64Array.from({ length: LOCAL_TABLE_SIZE }, (_, i) => Math.log1p(i));
+const LOG_TABLE = Float64Array.from({ length: LOCAL_TABLE_SIZE }, (_, i) => 1 + Math.log(i));
+
 export function localWeight(tf: number, scheme: WeightingScheme): number {
+  const i = tf | 0;
+  if (i === tf && i >>> 0 < LOCAL_TABLE_SIZE) return scheme === 'tfidf' ? LOG_TABLE[i] : LOG1P_TABLE[i];
   return scheme === 'tfidf' ? 1 + Math.log(tf) : Math.log1p(tf);
 }
 

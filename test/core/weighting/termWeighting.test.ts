@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { pruneVocabulary } from '../../../src/core/weighting/prune.js';
-import { globalWeights, weightDocument } from '../../../src/core/weighting/termWeighting.js';
+import { globalWeights, localWeight, weightDocument } from '../../../src/core/weighting/termWeighting.js';
 
 const corpus = [
   ['tide', 'tide', 'ferry', 'common'],
@@ -53,6 +53,17 @@ describe('sublinear TF-IDF weighting', () => {
     const g = globalWeights(docs, all, vocab.size, 'tfidf');
     expect(g[vocab.idOf('common')!]).toBeCloseTo(Math.log(5 / 5) + 1, 12);
     expect(g[vocab.idOf('rare')!]).toBeCloseTo(Math.log(5 / 2) + 1, 12);
+  });
+});
+
+describe('localWeight', () => {
+  it('gives log(1 + tf) and 1 + log(tf) exactly as Math computes them, looked up or not', () => {
+    // Reference: the formulas themselves (log-entropy's local log(1 + tf), Dumais 1991, from memory; sublinear TF's 1 + log tf).
+    const tfs = [...Array.from({ length: 300 }, (_, i) => i), 0.5, 2.25, 255.5, 1e6, 7 / 3];
+    for (const tf of tfs) {
+      expect(Object.is(localWeight(tf, 'log-entropy'), Math.log1p(tf))).toBe(true);
+      expect(Object.is(localWeight(tf, 'tfidf'), 1 + Math.log(tf))).toBe(true);
+    }
   });
 });
 
