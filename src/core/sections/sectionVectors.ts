@@ -14,6 +14,7 @@ import { CancelledError } from '../errors.js';
 import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
 import { blockedTermProduct, PROJECTION_BLOCK_BYTES, projectTerms, type ConceptModel } from '../index/model/conceptModel.js';
 import { serialExecutor, type MatrixExecutor } from '../matrix/executor.js';
+import { unitRowsInto } from '../matrix/kernels.js';
 import { copyCsr, type CsrMatrix } from '../matrix/sparse.js';
 import { createWasmExecutor } from '../matrix/wasm/wasmExecutor.js';
 import { weightRowInto } from '../weighting/termWeighting.js';
@@ -290,11 +291,15 @@ export function foldCountedSections(model: ConceptModel, files: readonly Counted
         const part = ex.float64(rows * w);
         if (acc) blockedTermProduct(ex, m, model.termVectors, k, w, tv, part, acc, used);
         else ex.spmm(m, whole ?? tv, k, part, true);
-        // Axis scaling and normalisation of the whole chunk at once (unitRowsInto's arithmetic,
-        // projectTerms' order), into the spill's block or a block scattered to the files' rows.
-        const unit = out ? out.subarray(0, rows * k) : ex.float32(rows * k);
-        ex.unitRows(acc ?? part, rows, k, axisScale, unit);
-        if (!out) for (let r = 0; r < rows; r++) vectors[fileOf[r]].set(unit.subarray(r * k, (r + 1) * k), sectionOf[r] * k);
+        // Axis scaling and normalisation (unitRowsInto's arithmetic, projectTerms' order): the
+        // whole chunk at once into the spill's block, or each row straight into its file's rows.
+        const sums = acc ?? part;
+        if (out) ex.unitRows(sums, rows, k, axisScale, out.subarray(0, rows * k));
+        else
+          for (let r = 0; r < rows; r++) {
+            const at = sectionOf[r] * k;
+            unitRowsInto(sums.subarray(r * k, (r + 1) * k), axisScale, k, vectors[fileOf[r]].subarray(at, at + k), 0, 1);
+          }
       });
       if (spill && out) spill.write(new Uint8Array(out.buffer, 0, 4 * rows * k), 4 * base * k);
       base += rows;

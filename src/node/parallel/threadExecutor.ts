@@ -100,9 +100,9 @@ export class ThreadExecutor extends WasmExecutor {
     o.done();
   }
 
-  /** unit_rows shared out by rows (a row's arithmetic does not depend on who runs it); small blocks here. */
+  /** unit_rows shared out by rows (a row's arithmetic does not depend on who runs it); small blocks, and rows outside the arena, here. */
   override unitRows(y: Float64Array, rows: number, k: number, s: Float64Array, out: Float32Array): void {
-    if (rows * k < COPY_SHARED_FROM) return super.unitRows(y, rows, k, s, out);
+    if (rows * k < COPY_SHARED_FROM || this.arena.offsetOf(y) < 0) return super.unitRows(y, rows, k, s, out);
     const o = this.single(out.subarray(0, rows * k), true);
     const bounds = Array.from(splitRows(rows, this.threads * TASKS_PER_THREAD));
     this.run({ op: 'unit_rows', args: [this.ptr(y), this.ptr(s), k, o.ptr], bounds });

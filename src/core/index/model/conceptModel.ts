@@ -205,13 +205,13 @@ function svdPasses(matrix: CsrMatrix, k: number, settings: IndexSettings, progre
  * projectTerms(model, row).vector for every row of a weighted matrix built with the model's
  * weights: U_kᵀd̂ by the executor's sequential sparse product (each row adds its terms one at a
  * time, in order, as projectTerms does, so the bits agree), then the same axis scaling and
- * normalisation, written straight into the f32 result. The rows go to the executor in blocks of
- * about rowBytes of f64 sums (each row's own CSR entries copied beside them as f64), the term
- * vectors in blocks of columns of at most blockBytes as f64: each output number is the same sum
- * whatever the blocks, so the bits do not change. Neither an f64 copy of the whole matrix
- * (175 MB on the Linux tree's 14.6 M entries) nor all n × k f64 sums (181 MB at 78,301 files and
- * k = 289) is ever held, nor one f64 copy of all term vectors (terms × k × 8 bytes: 231 MB on
- * 100,000 terms at k = 289).
+ * normalisation (the executor's unitRows) into the f32 result. The rows go to the executor in
+ * blocks of about rowBytes of f64 sums and their f32 unit rows (each row's own CSR entries copied
+ * beside them as f64), the term vectors in blocks of columns of at most blockBytes as f64: each
+ * output number is the same sum whatever the blocks, so the bits do not change. Neither an f64
+ * copy of the whole matrix (175 MB on the Linux tree's 14.6 M entries) nor all n × k f64 sums
+ * (181 MB at 78,301 files and k = 289) is ever held, nor one f64 copy of all term vectors
+ * (terms × k × 8 bytes: 231 MB on 100,000 terms at k = 289).
  */
 export function projectMatrixRows(
   model: ConceptModel,
@@ -226,7 +226,8 @@ export function projectMatrixRows(
   const terms = matrix.cols;
   const out = new Float32Array(n * k);
   const width = Math.max(1, Math.min(k, Math.floor(blockBytes / (8 * Math.max(1, terms)))));
-  const rowsPer = Math.max(1, Math.floor(rowBytes / (8 * Math.max(1, k))));
+  // Each row: k f64 sums and, once scaled and normalised in the executor's memory, k f32 numbers.
+  const rowsPer = Math.max(1, Math.floor(rowBytes / (12 * Math.max(1, k))));
   for (let r0 = 0; r0 < n; r0 += rowsPer) {
     const r1 = Math.min(n, r0 + rowsPer);
     const run = (): void => {
@@ -246,8 +247,9 @@ export function projectMatrixRows(
 }
 
 /**
- * Bytes of f64 sums of the files' projection held at once (our choice: a few blocks of rows on the
- * Linux tree, so the term vectors are put into f64 blocks a few times over, not once per file).
+ * Bytes of f64 sums (and their f32 unit rows) of the files' projection held at once (our choice: a
+ * few blocks of rows on the Linux tree, so the term vectors are put into f64 blocks a few times
+ * over, not once per file).
  */
 export const PROJECTION_ROW_BYTES = 32 * 1024 * 1024;
 

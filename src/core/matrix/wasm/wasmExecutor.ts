@@ -15,6 +15,7 @@ import {
   type FloatArray,
   type MatrixExecutor,
 } from '../executor.js';
+import { unitRowsInto } from '../kernels.js';
 import type { CsrMatrix } from '../sparse.js';
 import { instantiateKernels, kernelModule, WasmArena, type KernelExports } from './wasmArena.js';
 
@@ -111,7 +112,10 @@ export class WasmExecutor implements MatrixExecutor {
     o.done();
   }
 
+  /** The unit_rows kernel for rows that live in the arena; others where they lie, by the plain twin (the same bits). */
   unitRows(y: Float64Array, rows: number, k: number, s: Float64Array, out: Float32Array): void {
+    // Copying rows in would only raise the arena's high mark, which it keeps.
+    if (this.arena.offsetOf(y) < 0) return unitRowsInto(y, s, k, out, 0, rows);
     const o = this.single(out.subarray(0, rows * k), true);
     this.kernels.unit_rows(this.ptr(y), this.ptr(s), k, o.ptr, 0, rows);
     o.done();

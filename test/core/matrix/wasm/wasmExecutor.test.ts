@@ -195,7 +195,7 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
       const s = Float64Array.from({ length: k }, () => rnd.next());
       const one = new Float32Array(rows * k);
       serialExecutor.unitRows(y, rows, k, s, one);
-      // Inputs and output outside the arena (copied in and back), then all inside it.
+      // Rows outside the arena (scaled where they lie, by the plain twin), then all inside it (the kernel).
       const two = new Float32Array(rows * k).fill(9);
       ex.unitRows(y, rows, k, s, two);
       expect(same(one, two)).toBe(true);
