@@ -13,7 +13,7 @@ const PAGE = 65536;
 const ALIGN = 16;
 const GROW_SLACK_PAGES = 64;
 
-/** The exports the SVD's executors use (./assembly/spmm.ts, spmmX32.ts, spmmSingle.ts, cross.ts, times.ts, copyColumns.ts). */
+/** The exports the executors use (./assembly/spmm.ts, spmmX32.ts, spmmSingle.ts, cross.ts, times.ts, copyColumns.ts, unitRows.ts). */
 export type KernelExports = Pick<
   KernelModuleExports,
   'spmm' | 'spmm_f32' | 'spmm_x32' | 'spmm_single' | 'cross' | 'times' | 'copy_columns' | 'copy_columns_cast' | 'unit_rows'
