@@ -45,6 +45,13 @@ import type { TermListSource } from '../core/index/persistence/serialize.js';
 
 /** Below this many files, starting worker threads costs more than it saves (our measurement). */
 export const PARALLEL_MIN_FILES = 200;
+/**
+ * Sections × k from which the save files the sections on the build's threads (kept alive for
+ * it): 2²⁶, about 0.8 s of filing on one thread (the whole Linux tree's 1.33 M sections at k = 289
+ * are 384 M and took 4.4 s). Below, the threads go before the save, as their memory would be
+ * kept for little (the Documentation folder's save was not faster with them). Our choice.
+ */
+export const FILE_ON_THREADS_FROM = 1 << 26;
 
 /** The pipeline's stages, in order; the adapters report these (the command line adds 'load'). */
 export type PipelineStage = 'scan' | 'read' | 'matrix' | 'svd' | 'sections' | 'save';
@@ -154,6 +161,8 @@ export interface PipelineOptions {
   readonly spillRowsFromBytes?: number;
   /** Bytes of section counts from which they are parked during the SVD. @default PARK_FROM_BYTES */
   readonly parkCountsFromBytes?: number;
+  /** Sections × k from which the save files them on the build's threads. @default FILE_ON_THREADS_FROM */
+  readonly fileOnThreadsFrom?: number;
 }
 
 export interface PipelineResult {
@@ -431,19 +440,38 @@ export async function runIndexPipeline(options: PipelineOptions): Promise<Pipeli
     }
     (parked as ParkedSections | null)?.close();
     parked = null;
-    // The threads (and the shared memory of the SVD) are not needed to save: they go, and their
+    // The save files every section under its list (savedLists.ts): for many sections on the
+    // build's threads, with fresh executor memory (the fold's goes; the quantizer and a staging
+    // block come in). Else the
+    // threads (and the shared memory of the SVD) are not needed to save: they go, and their
     // memory is collected, before the save (and the raw counts it streams) comes on top.
-    executor = undefined;
-    await releasePool();
-    collectGarbage();
+    const filer =
+      options.save &&
+      options.sections !== false &&
+      executor &&
+      index.sections.count * index.model.k >= (options.fileOnThreadsFrom ?? FILE_ON_THREADS_FROM)
+        ? freshExecutor()
+        : undefined;
+    if (!filer) {
+      executor = undefined;
+      await releasePool();
+      collectGarbage();
+    }
 
     // ---- save: the parked raw counts are streamed from their scratch file, and come back into
     // the files only once the index is written (the returned index holds them as before).
     if (options.save) {
       progress({ stage: 'save', done: 0, total: 1 });
-      await options.save(index, (parkedCounts as ParkedCounts | null)?.source());
+      index.sections.fileOn(filer);
+      try {
+        await options.save(index, (parkedCounts as ParkedCounts | null)?.source());
+      } finally {
+        index.sections.fileOn(undefined);
+      }
       lap('save');
     }
+    executor = undefined;
+    await releasePool();
     if (parkedCounts) {
       const p: ParkedCounts = parkedCounts;
       parkedCounts = null;

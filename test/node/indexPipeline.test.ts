@@ -1,11 +1,12 @@
 import { mkdirSync, mkdtempSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { CancelledError, EmptyCorpusError } from '../../src/core/errors.js';
 import type { LsiIndex } from '../../src/core/index/lsiIndex.js';
 import { resolveSettings } from '../../src/core/index/model/settings.js';
 import { chooseCounting, PARALLEL_MIN_FILES, runIndexPipeline, type SourceFile } from '../../src/node/indexPipeline.js';
+import { ThreadExecutor } from '../../src/node/parallel/threadExecutor.js';
 import { WorkerPool } from '../../src/node/parallel/workerPool.js';
 import { encodeIndex, type TermListSource } from '../../src/core/index/persistence/serialize.js';
 import type { ByteSpill, OpenSpill } from '../../src/core/sections/types.js';
@@ -148,6 +149,7 @@ describe('runIndexPipeline', () => {
       save?: (index: LsiIndex, termLists?: TermListSource) => Promise<void>;
       cancelAt?: string;
       countsOnUse?: boolean;
+      fileOnThreadsFrom?: number;
     }) => {
       let stop = false;
       return runIndexPipeline({
@@ -162,6 +164,7 @@ describe('runIndexPipeline', () => {
         parkCountsFromBytes: 0,
         save: opts.save,
         countsOnUse: opts.countsOnUse,
+        fileOnThreadsFrom: opts.fileOnThreadsFrom,
         isCancelled: () => stop,
         onProgress: (p) => {
           if (p.stage === opts.cancelAt) stop = true;
@@ -237,6 +240,26 @@ describe('runIndexPipeline', () => {
     const inMemory = await build({ scratch: () => null });
     expect(inMemory.index.sections.get(sample)!.stored).toBeUndefined();
     expect(Buffer.from(encodeIndex(inMemory.index, when)).equals(Buffer.from(encodeIndex(plain.index, when)))).toBe(true);
+    // The save's filing on the build's threads (as from FILE_ON_THREADS_FROM on; every section
+    // filed under a list, lists from one section on): the same saved bytes as filed on this thread.
+    const filing = vi.spyOn(ThreadExecutor.prototype, 'fileRows');
+    const listed = (index: LsiIndex, termLists?: TermListSource): Uint8Array => {
+      index.sections.setListsFrom(1);
+      return encodeIndex(index, when, { termLists });
+    };
+    let onThreads: Uint8Array | undefined;
+    try {
+      const threaded = await build({
+        scratch,
+        fileOnThreadsFrom: 0,
+        save: async (index, termLists) => void (onThreads = listed(index, termLists)),
+      });
+      threaded.index.sections.closeRows();
+      expect(filing).toHaveBeenCalled();
+    } finally {
+      filing.mockRestore();
+    }
+    expect(Buffer.from(onThreads!).equals(Buffer.from(listed(plain.index)))).toBe(true);
   });
 
   it("parks only the counts it read itself: a previous index's counts stay that index's own during a refresh, after it and after a cancel", async () => {

@@ -56,11 +56,28 @@ export interface MatrixExecutor {
   /** Runs fn and then frees the executor memory it allocated (results must be copied out). */
   scoped?<T>(fn: () => T): T;
   /**
+   * The list of each of n f32 rows (n × k) under a two-level coarse quantizer, into out[0 … n):
+   * the file_rows kernel (wasm/assembly/fileRows.ts), the same bits whoever runs which rows.
+   * Optional, and false where the executor cannot (no kernel, or an array outside its memory:
+   * the caller then files them itself).
+   */
+  fileRows?(rows: Float32Array, n: number, k: number, quantizer: CoarseQuantizer, out: Int32Array): boolean;
+  /**
    * Copies a block of columns (ColumnRun). Optional, and false where the executor cannot (the
    * caller then copies with a plain loop: a copy, so the bits are the same either way).
    * @throws RangeError when a row's run would fall outside either array.
    */
   copyColumns?(run: ColumnRun): boolean;
+}
+
+/** A two-level coarse quantizer as file_rows reads it (../sections/sectionLists.ts trains one). */
+export interface CoarseQuantizer {
+  /** g × k group centres. */
+  readonly groups: Float32Array;
+  /** lists × k centroids, group by group. */
+  readonly centroids: Float32Array;
+  /** Group c holds centroids starts[c] … starts[c + 1] − 1 (length g + 1). */
+  readonly starts: Int32Array;
 }
 
 /**

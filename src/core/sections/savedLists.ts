@@ -13,6 +13,7 @@
  * rows being read a second time.
  */
 import { codeRows } from '../index/search/conceptCodes.js';
+import type { MatrixExecutor } from '../matrix/executor.js';
 import type { SectionLists } from './sectionLists.js';
 import { SectionRowsError, StoredFileSections } from './sectionRows.js';
 import type { FileSections } from './sectionVectors.js';
@@ -22,6 +23,8 @@ import type { ByteSpill, OpenSpill } from './types.js';
 export const CODE_PARAMS = 3;
 /** Rows coded at a time when saving (a bounded scratch block; common practice, not tuned). */
 const SAVE_ROWS = 4096;
+/** Rows filed and coded at a time by planSavedLists (a file with more goes whole; our choice, not tuned). */
+const BATCH_ROWS = 4096;
 
 /** A listing read from a saved index: what ListedSections needs instead of filing and coding. */
 export interface SavedListing {
@@ -63,6 +66,7 @@ export interface SavedListsPlan {
  * Lays out the saved lists of `files` (the index file's order, files without sections left out).
  * @param known a file's sections' lists and slots where a listing has them (null: filed here).
  * @param readCoded copies coded rows of those slots (undefined: every row is coded here).
+ * @param ex files the rows on its threads where it can (SectionLists.fileRowsOn; the same lists).
  */
 export function planSavedLists(
   lists: SectionLists,
@@ -70,6 +74,7 @@ export function planSavedLists(
   known: (no: number) => KnownSections | null,
   readCoded?: ReadCoded,
   spill?: CodeSpill,
+  ex?: MatrixExecutor,
 ): SavedListsPlan {
   const k = lists.k;
   const firsts = new Int32Array(files.length + 1);
@@ -84,31 +89,46 @@ export function planSavedLists(
   const chainBytes = n * (k + 8 * CODE_PARAMS);
   const chainSpill = spill && chainBytes >= spill.fromBytes ? spill.open() : null;
   const chains = spill && (chainSpill || chainBytes < spill.fromBytes) ? new ListChains(lists.lists, k, chainSpill) : null;
-  let scratch = new Float32Array(0);
   const filedCodes = chains ? new CodedBlock(k) : null;
   // Sections whose codes wait in a chain (the others are copied from the listing, or coded below).
   const inChain = new Uint8Array(chains ? n : 0);
+  // The rows filed here, gathered over consecutive files (sections batchFirst … + batchRows), so
+  // that one call files and codes many: worth it on an executor's threads. Each row is filed and
+  // coded on its own and goes into its chain in file order, as file by file: the same bytes.
+  let batch = new Float32Array(0);
+  let batchFirst = 0;
+  let batchRows = 0;
+  const fileBatch = (): void => {
+    if (batchRows === 0) return;
+    lists.fileRowsOn(ex, batch, 0, batchRows, listOf, batchFirst);
+    if (chains && filedCodes) {
+      filedCodes.code(batch, batchRows);
+      for (let i = 0; i < batchRows; i++) chains.add(listOf[batchFirst + i], filedCodes, i);
+      inChain.fill(1, batchFirst, batchFirst + batchRows);
+    }
+    batchRows = 0;
+  };
   files.forEach((f, no) => {
     const m = firsts[no + 1] - firsts[no];
     const have = known(no);
     if (have && have.lists.length === m && have.slots.length === m) {
+      fileBatch();
       listOf.set(have.lists, firsts[no]);
       if (readCoded) source.set(have.slots, firsts[no]);
       return;
     }
-    let v: Float32Array;
-    if (f.stored) {
-      if (scratch.length < m * k) scratch = new Float32Array(Math.max(m * k, 2 * scratch.length));
-      f.stored.reader.read(f.stored.first, m, scratch, 0);
-      v = scratch;
-    } else v = f.vectors;
-    lists.fileRows(v, 0, m, listOf, firsts[no]);
-    if (chains && filedCodes) {
-      filedCodes.code(v, m);
-      for (let i = 0; i < m; i++) chains.add(listOf[firsts[no] + i], filedCodes, i);
-      inChain.fill(1, firsts[no], firsts[no + 1]);
+    if (batchRows === 0) batchFirst = firsts[no];
+    if (batch.length < (batchRows + m) * k) {
+      const grown = new Float32Array(Math.max((batchRows + m) * k, 2 * batch.length));
+      grown.set(batch.subarray(0, batchRows * k));
+      batch = grown;
     }
+    if (f.stored) f.stored.reader.read(f.stored.first, m, batch, batchRows * k);
+    else batch.set(f.vectors.subarray(0, m * k), batchRows * k);
+    batchRows += m;
+    if (batchRows >= BATCH_ROWS) fileBatch();
   });
+  fileBatch();
   // Slot order: by list, then file order (a stable counting sort).
   const starts = new Int32Array(lists.lists + 1);
   for (let g = 0; g < n; g++) starts[listOf[g] + 1]++;
@@ -208,7 +228,7 @@ export interface CodeSpill {
   readonly fromBytes: number;
 }
 
-/** One file's rows coded at once (codeRows), read row by row by ListChains.add. */
+/** A batch of rows coded at once (codeRows), read row by row by ListChains.add. */
 class CodedBlock {
   codes = new Int8Array(0);
   scales = new Float64Array(0);

@@ -27,6 +27,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import { ConceptCodes } from '../index/search/conceptCodes.js';
+import type { MatrixExecutor } from '../matrix/executor.js';
 import { insertDescending, ListedSections } from './listedSections.js';
 import { planSavedLists, sectionCount, type SavedListing, type SavedListsPlan } from './savedLists.js';
 import { SectionLists, type SectionListsOptions } from './sectionLists.js';
@@ -101,6 +102,7 @@ export class SectionStore {
   /** Where the lists' codes go (undefined: memory), and from how many bytes of codes on. */
   private _openSpill: OpenSpill | undefined;
   private _spillFrom = SPILL_FROM_BYTES;
+  private _filer: MatrixExecutor | undefined;
   /** Lists and their filing read from a saved index, not yet turned into _listed (restoreLists). */
   private _saved: SavedListing | undefined;
 
@@ -189,7 +191,18 @@ export class SectionStore {
     };
     const readCoded = listed ? listed.readCoded.bind(listed) : undefined;
     const open = spill ?? this._openSpill;
-    return planSavedLists(lists, files, known, readCoded, open ? { open, fromBytes: this._spillFrom } : undefined);
+    return planSavedLists(lists, files, known, readCoded, open ? { open, fromBytes: this._spillFrom } : undefined, this._filer);
+  }
+
+  /**
+   * The executor whose threads file the sections under their lists when savedLists plans a save
+   * (the same lists as without one); undefined: filed on this thread. The caller keeps it alive
+   * until the save ends, then clears it.
+   */
+  fileOn(ex: MatrixExecutor | undefined): void {
+    // What the lists placed in the executor's memory is let go with it.
+    if (ex !== this._filer) this._lists?.forgetPlacement();
+    this._filer = ex;
   }
 
   /** Other options for the lists (trained again at the next ranking that uses them). */

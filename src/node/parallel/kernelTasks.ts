@@ -65,6 +65,13 @@ export type KernelJob =
       readonly bounds: readonly number[];
     }
   | {
+      /** file_rows (assembly/fileRows.ts); task t promotes its rows into q + t·k·8. */
+      readonly op: 'file_rows';
+      /** rows, k, groups, g, centroids, starts, q, out. */
+      readonly args: readonly [number, number, number, number, number, number, number, number];
+      readonly bounds: readonly number[];
+    }
+  | {
       readonly op: 'times';
       /** y, l, w, c, upper (0/1), out. */
       readonly args: readonly [number, number, number, number, number, number];
@@ -115,6 +122,11 @@ export function runTask(k: KernelExports, job: KernelJob, t: number, memory: Web
     case 'unit_rows': {
       const [y, sc, kk, out] = job.args;
       k.unit_rows(y, sc, kk, out, job.bounds[t], job.bounds[t + 1]);
+      return;
+    }
+    case 'file_rows': {
+      const [rows, kk, groups, g, centroids, starts, q, out] = job.args;
+      k.file_rows(rows, kk, job.bounds[t], job.bounds[t + 1], groups, g, centroids, starts, q + t * kk * 8, out);
       return;
     }
     case 'times': {

@@ -7,7 +7,15 @@
  * the same bits as the serial executors'.
  */
 import type { Worker } from 'node:worker_threads';
-import { addInto, mirrorUpper, REDUCTION_BLOCK_ROWS, splitCsrRows, splitRows, type FloatArray } from '../../core/matrix/executor.js';
+import {
+  addInto,
+  mirrorUpper,
+  REDUCTION_BLOCK_ROWS,
+  splitCsrRows,
+  splitRows,
+  type CoarseQuantizer,
+  type FloatArray,
+} from '../../core/matrix/executor.js';
 import type { CsrMatrix } from '../../core/matrix/sparse.js';
 import type { WasmArena } from '../../core/matrix/wasm/wasmArena.js';
 import { WasmExecutor, type CopyArgs } from '../../core/matrix/wasm/wasmExecutor.js';
@@ -107,6 +115,24 @@ export class ThreadExecutor extends WasmExecutor {
     const bounds = Array.from(splitRows(rows, this.threads * TASKS_PER_THREAD));
     this.run({ op: 'unit_rows', args: [this.ptr(y), this.ptr(s), k, o.ptr], bounds });
     o.done();
+  }
+
+  /** file_rows shared out by rows (each row is filed on its own: the same lists whoever files it); few rows here. */
+  override fileRows(rows: Float32Array, n: number, k: number, quantizer: CoarseQuantizer, out: Int32Array): boolean {
+    if (n * k < COPY_SHARED_FROM) return super.fileRows(rows, n, k, quantizer, out);
+    const at = this.fileRowsArgs(rows, n, k, quantizer, out);
+    if (!at) return false;
+    const [pr, pg, g, pc, ps, po] = at;
+    const bounds = Array.from(splitRows(n, this.threads * TASKS_PER_THREAD));
+    const mark = this.arena.mark();
+    try {
+      // One f64 row per task, where its rows are promoted one at a time.
+      const q = this.arena.float64((bounds.length - 1) * k);
+      this.run({ op: 'file_rows', args: [pr, k, pg, g, pc, ps, q.byteOffset, po], bounds });
+    } finally {
+      this.arena.release(mark);
+    }
+    return true;
   }
 
   /**

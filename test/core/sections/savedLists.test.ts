@@ -12,6 +12,7 @@ import { CorruptIndexError } from '../../../src/core/errors.js';
 import type { LsiIndex } from '../../../src/core/index/lsiIndex.js';
 import { SECTION_LAYOUT_4, align8, BYTES_PER } from '../../../src/core/index/persistence/indexFileCheck.js';
 import { decodeIndex, encodeIndex, payloadOf, readIndexHeader, sealIndexFile } from '../../../src/core/index/persistence/serialize.js';
+import { createWasmExecutor } from '../../../src/core/matrix/wasm/wasmExecutor.js';
 import { SectionLists } from '../../../src/core/sections/sectionLists.js';
 import { numbaDocs, numbaSectionIndex } from '../../helpers/numbaSections.js';
 import { memorySpill } from '../../helpers/memorySpill.js';
@@ -152,6 +153,18 @@ describe('saved section lists', () => {
     } finally {
       train.mockRestore();
     }
+  });
+
+  it("save the same bytes when the sections are filed on an executor (the build's threads at a save)", () => {
+    const ex = createWasmExecutor();
+    if (!ex) return expect(ex).toBeUndefined(); // no WebAssembly SIMD here: filed on this thread only
+    const other = build();
+    const filed = vi.spyOn(ex, 'fileRows');
+    other.sections.fileOn(ex);
+    const again = encodeIndex(other, at);
+    other.sections.fileOn(undefined);
+    expect(filed).toHaveBeenCalled();
+    expect(Buffer.from(again).equals(Buffer.from(bytes))).toBe(true);
   });
 
   it('refuse a list that does not exist and a negative code scale', () => {

@@ -12,6 +12,7 @@ import { IndexBuilder } from '../../../src/core/index/model/indexBuilder.js';
 import { modelMatrix } from '../../../src/core/index/model/conceptModel.js';
 import { countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { serialExecutor } from '../../../src/core/matrix/executor.js';
+import { SectionLists } from '../../../src/core/sections/sectionLists.js';
 import { randomizedSvd } from '../../../src/core/svd/randomizedSvd.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { countFilesInParallel } from '../../../src/node/parallel/parallelCount.js';
@@ -158,6 +159,27 @@ describe('worker pool', () => {
     ex.unitRows(y, rows, k, s, two);
     expect(Buffer.from(two.buffer, two.byteOffset, two.byteLength).equals(Buffer.from(one.buffer))).toBe(true);
     expect(one.some((v) => v !== 0)).toBe(true);
+  });
+
+  it('files many rows under a two-level quantizer (file_rows, the save) with the same lists as on one thread', () => {
+    // 5,003 rows × 48 (above the size from which the rows are shared out; an odd row count), and
+    // lists trained on them as the section lists train (SectionLists.train, 71 lists in 9 groups).
+    const [n, k] = [5003, 48];
+    const ex = pool!.executor();
+    const rows = new Float64Array(n * k);
+    serialExecutor.gaussian(rows, n, k, 8);
+    const f32 = new Float32Array(n * k);
+    for (let r = 0; r < n; r++) {
+      const norm = Math.hypot(...rows.subarray(r * k, (r + 1) * k));
+      for (let c = 0; c < k; c++) f32[r * k + c] = rows[r * k + c] / norm;
+    }
+    const lists = SectionLists.train(k, { n, row: (j) => ({ block: f32, at: j * k }) });
+    const one = new Int32Array(n);
+    lists.fileRows(f32, 0, n, one, 0);
+    const two = new Int32Array(n).fill(-1);
+    lists.fileRowsOn(ex, f32, 0, n, two, 0);
+    expect(Array.from(two)).toEqual(Array.from(one));
+    expect(new Set(one).size).toBeGreaterThan(lists.lists / 2);
   });
 
   it('shares a large column copy out by rows (f64, and cast either way) with the same numbers as a plain loop', () => {

@@ -13,10 +13,10 @@ const PAGE = 65536;
 const ALIGN = 16;
 const GROW_SLACK_PAGES = 64;
 
-/** The exports the executors use (./assembly/spmm.ts, spmmX32.ts, spmmSingle.ts, cross.ts, times.ts, copyColumns.ts, unitRows.ts). */
+/** The exports the executors use (./assembly/spmm.ts, spmmX32.ts, spmmSingle.ts, cross.ts, times.ts, copyColumns.ts, unitRows.ts, fileRows.ts). */
 export type KernelExports = Pick<
   KernelModuleExports,
-  'spmm' | 'spmm_f32' | 'spmm_x32' | 'spmm_single' | 'cross' | 'times' | 'copy_columns' | 'copy_columns_cast' | 'unit_rows'
+  'spmm' | 'spmm_f32' | 'spmm_x32' | 'spmm_single' | 'cross' | 'times' | 'copy_columns' | 'copy_columns_cast' | 'unit_rows' | 'file_rows'
 >;
 
 export function instantiateKernels(module: WebAssembly.Module, memory: WebAssembly.Memory): KernelExports {

@@ -11,6 +11,7 @@ import {
   reductionBlocks,
   REDUCTION_BLOCK_ROWS,
   serialExecutor,
+  type CoarseQuantizer,
   type ColumnRun,
   type FloatArray,
   type MatrixExecutor,
@@ -119,6 +120,44 @@ export class WasmExecutor implements MatrixExecutor {
     const o = this.single(out.subarray(0, rows * k), true);
     this.kernels.unit_rows(this.ptr(y), this.ptr(s), k, o.ptr, 0, rows);
     o.done();
+  }
+
+  /** file_rows on rows, quantizer and out that live in the arena; false otherwise (the caller files them). */
+  fileRows(rows: Float32Array, n: number, k: number, quantizer: CoarseQuantizer, out: Int32Array): boolean {
+    const at = this.fileRowsArgs(rows, n, k, quantizer, out);
+    if (!at) return false;
+    if (n <= 0) return true;
+    const mark = this.arena.mark();
+    try {
+      const q = this.arena.float64(k);
+      const [pr, pg, g, pc, ps, po] = at;
+      this.kernels.file_rows(pr, k, 0, n, pg, g, pc, ps, q.byteOffset, po);
+    } finally {
+      this.arena.release(mark);
+    }
+    return true;
+  }
+
+  /**
+   * Byte offsets of file_rows' arrays (rows, groups, g, centroids, starts, out) when every one
+   * lives in the arena and is large enough, else null.
+   * @throws RangeError when the quantizer's parts disagree in size.
+   */
+  protected fileRowsArgs(
+    rows: Float32Array,
+    n: number,
+    k: number,
+    quantizer: CoarseQuantizer,
+    out: Int32Array,
+  ): readonly [number, number, number, number, number, number] | null {
+    const { groups, centroids, starts } = quantizer;
+    const g = starts.length - 1;
+    if (g < 1 || groups.length < g * k || centroids.length < starts[g] * k) throw new RangeError("the quantizer's parts disagree in size");
+    if (rows.length < n * k || out.length < n) throw new RangeError(`file_rows: ${n} rows do not fit the arrays given`);
+    const offsets = [rows, groups, centroids, starts, out].map((a) => this.arena.offsetOf(a));
+    if (offsets.some((p) => p < 0)) return null;
+    const [pr, pg, pc, ps, po] = offsets;
+    return [pr, pg, g, pc, ps, po];
   }
 
   /**

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { serialExecutor } from '../../../../src/core/matrix/executor.js';
 import { createWasmExecutor } from '../../../../src/core/matrix/wasm/wasmExecutor.js';
 import { createRandom } from '../../../../src/core/random.js';
+import { SectionLists } from '../../../../src/core/sections/sectionLists.js';
 import { columnBlock } from '../../../../src/core/svd/randomizedSvd.js';
 
 // Reference: the plain typed-array executor (its kernels are checked against brute force in
@@ -206,6 +207,57 @@ describe.skipIf(!wasm)(`WebAssembly SIMD executor ${wasm ? '' : '(skipped: this 
       expect(same(one, three)).toBe(true);
       expect(one.some((v) => v !== 0)).toBe(true);
     }
+  });
+
+  it('files rows under a two-level quantizer (file_rows) as the section lists file them, and declines arrays outside its memory', () => {
+    const ex = wasm!;
+    const [n, k, g] = [300, 37, 6];
+    const unit = (count: number): Float32Array => {
+      const x = Float32Array.from({ length: count * k }, () => rnd.normal());
+      for (let r = 0; r < count; r++) {
+        const norm = Math.hypot(...x.subarray(r * k, (r + 1) * k));
+        for (let c = 0; c < k; c++) x[r * k + c] /= norm;
+      }
+      return x;
+    };
+    // Six groups of 1–5 centroids; the lists' own filing (their kernel memory) is the reference.
+    const starts = Int32Array.from([0, 3, 4, 9, 11, 16, 19]);
+    const lists = SectionLists.restore(k, unit(starts[g]), unit(g), starts);
+    const rows = unit(n);
+    const expected = new Int32Array(n);
+    lists.fileRows(rows, 0, n, expected, 0);
+    // A plain argmax (any order of sums: random rows leave no near-ties) agrees with the reference.
+    const plain = (a: Float32Array, i: number, b: Float32Array, j: number): number => {
+      let s = 0;
+      for (let c = 0; c < k; c++) s += a[i * k + c] * b[j * k + c];
+      return s;
+    };
+    for (let r = 0; r < n; r++) {
+      let group = 0;
+      for (let c = 1; c < g; c++) if (plain(rows, r, lists.groups, c) > plain(rows, r, lists.groups, group)) group = c;
+      let best = starts[group];
+      for (let c = starts[group] + 1; c < starts[group + 1]; c++)
+        if (plain(rows, r, lists.centroids, c) > plain(rows, r, lists.centroids, best)) best = c;
+      expect(expected[r]).toBe(best);
+    }
+    const quantizer = { groups: ex.float32(g * k), centroids: ex.float32(starts[g] * k), starts: ex.int32(g + 1) };
+    quantizer.groups.set(lists.groups);
+    quantizer.centroids.set(lists.centroids);
+    quantizer.starts.set(starts);
+    const [inRows, out] = [ex.float32(n * k), ex.int32(n)];
+    inRows.set(rows);
+    expect(ex.fileRows(inRows, n, k, quantizer, out)).toBe(true);
+    expect(Array.from(out)).toEqual(Array.from(expected));
+    expect(new Set(out).size).toBeGreaterThan(g);
+    // Rows that do not live in the arena: declined, nothing written.
+    const outside = new Int32Array(n).fill(-7);
+    expect(ex.fileRows(rows, n, k, quantizer, outside)).toBe(false);
+    expect(outside.every((v) => v === -7)).toBe(true);
+    // Through fileRowsOn, rows anywhere: the same lists.
+    const on = new Int32Array(n + 2).fill(-1);
+    lists.fileRowsOn(ex, rows, 0, n, on, 2);
+    expect(Array.from(on.subarray(2))).toEqual(Array.from(expected));
+    expect(() => ex.fileRows(inRows, n + 1, k, quantizer, out)).toThrow(RangeError);
   });
 
   it('frees scoped arena memory for reuse', () => {
