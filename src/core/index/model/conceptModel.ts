@@ -207,8 +207,9 @@ function svdPasses(matrix: CsrMatrix, k: number, settings: IndexSettings, progre
  * time, in order, as projectTerms does, so the bits agree), then the same axis scaling and
  * normalisation (the executor's unitRows) into the f32 result. The rows go to the executor in
  * blocks of about rowBytes of f64 sums and their f32 unit rows (each row's own CSR entries copied
- * beside them as f64), the term vectors in blocks of columns of at most blockBytes as f64: each
- * output number is the same sum whatever the blocks, so the bits do not change. Neither an f64
+ * beside them as f64), the term vectors in blocks of columns of at most blockBytes as f64, or
+ * whole as f32 when the rows take several blocks (wholeTermVectorsForProjection): each output
+ * number is the same sum whatever the blocks, so the bits do not change. Neither an f64
  * copy of the whole matrix (175 MB on the Linux tree's 14.6 M entries) nor all n × k f64 sums
  * (181 MB at 78,301 files and k = 289) is ever held, nor one f64 copy of all term vectors
  * (terms × k × 8 bytes: 231 MB on 100,000 terms at k = 289).
@@ -228,22 +229,37 @@ export function projectMatrixRows(
   const width = Math.max(1, Math.min(k, Math.floor(blockBytes / (8 * Math.max(1, terms)))));
   // Each row: k f64 sums and, once scaled and normalised in the executor's memory, k f32 numbers.
   const rowsPer = Math.max(1, Math.floor(rowBytes / (12 * Math.max(1, k))));
+  // U_k whole as f32 (read where it lies by the sequential product: the same sums) when the rows
+  // take several blocks, each of which would gather all of U_k into f64 blocks again
+  // (wholeTermVectorsForProjection); the serial executor reads the model's own array.
+  const whole = ex === serialExecutor ? model.termVectors : wholeTermVectorsForProjection(n, rowsPer) ? ex.float32(terms * k) : undefined;
+  if (whole && whole !== model.termVectors) whole.set(model.termVectors.subarray(0, terms * k));
   for (let r0 = 0; r0 < n; r0 += rowsPer) {
     const r1 = Math.min(n, r0 + rowsPer);
     const run = (): void => {
       const block = csrRows(matrix, r0, r1);
       // In the executor's memory: after an SVD, memory it has already grown to and no longer uses.
       const m = ex === serialExecutor ? block : copyCsr(block, ex, 'f64');
-      const tv = ex.float64(terms * width);
-      const part = ex.float64((r1 - r0) * width);
       const acc = ex.float64((r1 - r0) * k);
-      blockedTermProduct(ex, m, model.termVectors, k, width, tv, part, acc);
+      if (whole) ex.spmm(m, whole, k, acc, true);
+      else blockedTermProduct(ex, m, model.termVectors, k, width, ex.float64(terms * width), ex.float64((r1 - r0) * width), acc);
       ex.unitRows(acc, r1 - r0, k, model.axisScale, out.subarray(r0 * k, r1 * k));
     };
     if (ex.scoped) ex.scoped(run);
     else run();
   }
   return out;
+}
+
+/**
+ * Whether the files' projection gives the executor one f32 copy of U_k rather than f64 column
+ * blocks gathered for each block of rows: when there are several blocks of rows, whose gathers
+ * would add up to more than one copy (on the whole Linux tree, 9 blocks gathered 100,000 term rows
+ * × 289 numbers each, 2.1 s on the calling thread). With one block, the blocks cost one gather
+ * and less memory (the Documentation folder's 8,863 files). Our rule, from that cost, not tuned.
+ */
+export function wholeTermVectorsForProjection(rows: number, rowsPerBlock: number): boolean {
+  return rows > rowsPerBlock;
 }
 
 /**

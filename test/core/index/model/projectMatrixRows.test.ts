@@ -1,7 +1,13 @@
-import { describe, expect, it } from 'vitest';
-import { modelMatrix, projectMatrixRows, projectTerms } from '../../../../src/core/index/model/conceptModel.js';
+import { describe, expect, it, vi } from 'vitest';
+import {
+  modelMatrix,
+  projectMatrixRows,
+  projectTerms,
+  wholeTermVectorsForProjection,
+} from '../../../../src/core/index/model/conceptModel.js';
 import { IndexBuilder } from '../../../../src/core/index/model/indexBuilder.js';
 import { serialExecutor } from '../../../../src/core/matrix/executor.js';
+import { createWasmExecutor } from '../../../../src/core/matrix/wasm/wasmExecutor.js';
 import { loadCollection } from '../../../helpers/shared.js';
 
 // Reference: projectTerms, the per-document fold-in that queries and changed files go through.
@@ -9,7 +15,7 @@ import { loadCollection } from '../../../helpers/shared.js';
 const cisi = loadCollection('cisi');
 
 describe('projectMatrixRows', () => {
-  it('gives projectTerms bit for bit on every CISI document, with either executor, in one block of columns or several, in one block of rows or several', () => {
+  it('gives projectTerms bit for bit on every CISI document, with either executor, in one block of columns or several, in one block of rows or several (U_k then whole, as f32)', () => {
     const builder = new IndexBuilder({ k: 40 });
     for (const d of cisi.docs.slice(0, 600)) builder.addText({ path: d.id, size: d.text.length, mtimeMs: 0 }, d.text);
     const index = builder.build();
@@ -17,7 +23,17 @@ describe('projectMatrixRows', () => {
     const m = modelMatrix(index.model, docs);
     const k = index.k;
     const small = 8 * m.cols * 7; // blocks of 7 columns (40 = 5 × 7 + 5: a narrower last block)
+    // Several blocks of rows on a WebAssembly executor: U_k goes in whole, once, as f32.
+    const wasm = createWasmExecutor();
+    const f32 = wasm ? vi.spyOn(wasm, 'float32') : undefined;
+    const whole = wasm
+      ? projectMatrixRows(index.model, m, wasm, small, 8 * k * 13)
+      : projectMatrixRows(index.model, m, serialExecutor, small, 8 * k * 13);
+    if (f32) expect(f32.mock.calls.filter(([n]) => n === m.cols * k)).toHaveLength(1);
+    expect(wholeTermVectorsForProjection(600, 8)).toBe(true);
+    expect(wholeTermVectorsForProjection(600, 600)).toBe(false);
     for (const rows of [
+      whole,
       projectMatrixRows(index.model, m),
       projectMatrixRows(index.model, m, serialExecutor),
       projectMatrixRows(index.model, m, undefined, small),
