@@ -124,14 +124,11 @@ export class ThreadExecutor extends WasmExecutor {
     if (!at) return false;
     const [pr, pg, g, pc, ps, po] = at;
     const bounds = Array.from(splitRows(n, this.threads * TASKS_PER_THREAD));
-    const mark = this.arena.mark();
-    try {
-      // One f64 row per task, where its rows are promoted one at a time.
+    // One f64 row per task, where its rows are promoted one at a time.
+    this.scoped(() => {
       const q = this.arena.float64((bounds.length - 1) * k);
       this.run({ op: 'file_rows', args: [pr, k, pg, g, pc, ps, q.byteOffset, po], bounds });
-    } finally {
-      this.arena.release(mark);
-    }
+    });
     return true;
   }
 

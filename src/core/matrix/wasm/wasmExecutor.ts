@@ -127,14 +127,8 @@ export class WasmExecutor implements MatrixExecutor {
     const at = this.fileRowsArgs(rows, n, k, quantizer, out);
     if (!at) return false;
     if (n <= 0) return true;
-    const mark = this.arena.mark();
-    try {
-      const q = this.arena.float64(k);
-      const [pr, pg, g, pc, ps, po] = at;
-      this.kernels.file_rows(pr, k, 0, n, pg, g, pc, ps, q.byteOffset, po);
-    } finally {
-      this.arena.release(mark);
-    }
+    const [pr, pg, g, pc, ps, po] = at;
+    this.scoped(() => this.kernels.file_rows(pr, k, 0, n, pg, g, pc, ps, this.arena.float64(k).byteOffset, po));
     return true;
   }
 
