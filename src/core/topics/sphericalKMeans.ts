@@ -7,7 +7,13 @@
  * restarts keep the one with the largest total cosine; a caller may instead give start centres. With refineSweeps > 0 each
  * run is refined by first-variation moves (firstVariation.ts) before the runs are compared. If fewer than K distinct directions exist
  * (say, a thousand identical files) seeding stops early and fewer clusters come back.
- * Defaults: 10 restarts (scikit-learn's KMeans n_init before 1.4), 50 iterations (our choice), no refinement. Ties go to the lower index.
+ * With objective 'euclidean' the same loop is Lloyd's k-means (Lloyd 1982, IEEE Trans. Inf. Theory
+ * 28:129–137): each centre is the mean of its members and each point joins the nearest mean, so
+ * ‖x − μ_c‖² = ‖x‖² − 2·x·Σ_c/n_c + ‖Σ_c‖²/n_c² is read off the same sums; restarts are compared by
+ * the sum of squared distances (returned negated as the objective); first-variation refinement is
+ * the spherical objective's and is not applied. The seeding is the same (on unit points the squared
+ * chordal distance is the squared Euclidean one) and the centres returned are the means' directions.
+ * Defaults: 10 restarts (scikit-learn's KMeans n_init before 1.4), 50 iterations (our choice), no refinement, the cosine objective. Ties go to the lower index.
  * The dot products (where the time goes) run on pointProducts.ts: WebAssembly SIMD where available, the same bits as the plain kernel.
  */
 import { InvalidInputError } from '../errors.js';
@@ -24,14 +30,19 @@ export interface SphericalKMeansOptions {
   maxIterations: number;
   /** Sweeps of first-variation moves after each run's Lloyd passes (firstVariation.ts); 0 = none. @default 0 */
   refineSweeps: number;
+  /** 'cosine': spherical k-means; 'euclidean': Lloyd's k-means on the same points (see the header). @default 'cosine' */
+  objective: KMeansObjective;
   /** @default DEFAULT_SEED */
   seed: number;
 }
+
+export type KMeansObjective = 'cosine' | 'euclidean';
 
 export const DEFAULT_SPHERICAL_KMEANS_OPTIONS: Readonly<SphericalKMeansOptions> = Object.freeze({
   restarts: 10,
   maxIterations: 50,
   refineSweeps: 0,
+  objective: 'cosine',
   seed: DEFAULT_SEED,
 });
 
@@ -41,7 +52,7 @@ export interface Clustering {
   /** clusters × dims unit centres, row-major. */
   readonly centres: Float64Array;
   readonly clusters: number;
-  /** Σ cos(point, its centre): the objective maximised. */
+  /** The objective maximised: Σ cos(point, its centre), or with 'euclidean' −Σ ‖point − its mean‖². */
   readonly objective: number;
   readonly iterations: number;
 }
@@ -59,15 +70,17 @@ export function sphericalKMeans(
   if (!Number.isInteger(k) || k < 1) throw new InvalidInputError(`the number of clusters must be a positive whole number, got ${k}`);
   const products = new PointProducts(points, n, dims, o.initial ? o.initial.length / dims : Math.min(k, n));
   const refine = (c: Clustering): Clustering => {
-    if (!(o.refineSweeps > 0) || c.clusters < 2) return c;
+    if (!(o.refineSweeps > 0) || c.clusters < 2 || o.objective !== 'cosine') return c;
     const r = firstVariation(points, n, dims, c.assignment, c.clusters, { maxSweeps: o.refineSweeps }, products);
     return { ...c, assignment: r.assignment, centres: r.centres, objective: r.objective };
   };
-  if (o.initial) return refine(lloyd(points, n, dims, o.initial, o.maxIterations, products));
+  const euclidean = o.objective === 'euclidean';
+  if (o.initial) return refine(lloyd(points, n, dims, o.initial, o.maxIterations, products, euclidean));
   const random = createRandom(o.seed);
   let best: Clustering | null = null;
   for (let r = 0; r < Math.max(1, o.restarts); r++) {
-    const run = refine(lloyd(points, n, dims, seedCentres(points, n, dims, Math.min(k, n), random, products), o.maxIterations, products));
+    const start = seedCentres(points, n, dims, Math.min(k, n), random, products);
+    const run = refine(lloyd(points, n, dims, start, o.maxIterations, products, euclidean));
     if (!best || run.objective > best.objective + 1e-12) best = run;
   }
   return best!;
@@ -148,10 +161,11 @@ function drawByWeight(weight: Float64Array, total: number, u01: number): number 
 
 /**
  * Lloyd's iteration kept in sums: S = X·Σᵀ (each point's dot product with each cluster's member
- * sum) and Q_c = ‖Σ_c‖², so cos(x_i, centre_c) = S_ic / √Q_c. After the first passes few points
- * move, and a point moving from cluster a to b changes only columns a and b of S by ±X·x_j, so a
- * pass costs n·dims per moved point instead of n·k·dims (exact up to rounding; the whole table is
- * recomputed when at least k/2 points moved).
+ * sum) and Q_c = ‖Σ_c‖², so cos(x_i, centre_c) = S_ic / √Q_c and, for the Euclidean objective,
+ * ‖x_i − μ_c‖² = ‖x_i‖² − (2·S_ic/n_c − Q_c/n_c²). After the first passes few points move, and a
+ * point moving from cluster a to b changes only columns a and b of S by ±X·x_j, so a pass costs
+ * n·dims per moved point instead of n·k·dims (exact up to rounding; the whole table is recomputed
+ * when at least k/2 points moved).
  */
 function lloyd(
   points: Float64Array,
@@ -160,19 +174,27 @@ function lloyd(
   initial: Float64Array,
   maxIterations: number,
   products: PointProducts,
+  euclidean: boolean,
 ): Clustering {
   const k = initial.length / dims;
   const assignment = new Int32Array(n);
   const s = new Float64Array(n * k);
   products.timesCentres(initial, k, s);
-  const first = assignFromSums(s, n, k, null, assignment, null);
+  // Score of point i for cluster c: S_ic·scale_c − shift_c (largest wins).
+  const scale = new Float64Array(k).fill(euclidean ? 2 : 1);
+  const shift = new Float64Array(k);
+  if (euclidean) for (let c = 0; c < k; c++) for (let d = 0; d < dims; d++) shift[c] += initial[c * dims + d] ** 2;
+  let pointSquares = 0;
+  if (euclidean) for (let j = 0; j < n * dims; j++) pointSquares += points[j] * points[j];
+  const first = assignFromSums(s, n, k, scale, shift, assignment, null);
   let objective = first.objective;
   const sums = new Float64Array(k * dims);
+  const counts = new Float64Array(k);
   for (let i = 0; i < n; i++) {
     const o = assignment[i] * dims;
+    counts[assignment[i]]++;
     for (let d = 0; d < dims; d++) sums[o + d] += points[i * dims + d];
   }
-  const norm = new Float64Array(k);
   const previous = new Int32Array(n);
   const column = new Float64Array(n);
   let iterations = 0;
@@ -194,15 +216,21 @@ function lloyd(
     for (let c = 0; c < k; c++) {
       let ss = 0;
       for (let d = 0; d < dims; d++) ss += sums[c * dims + d] ** 2;
-      norm[c] = ss > 0 ? 1 / Math.sqrt(ss) : 0;
+      if (!euclidean) scale[c] = ss > 0 ? 1 / Math.sqrt(ss) : 0;
+      else {
+        scale[c] = counts[c] > 0 ? 2 / counts[c] : 0;
+        shift[c] = counts[c] > 0 ? ss / (counts[c] * counts[c]) : 0;
+      }
     }
     previous.set(assignment);
-    const pass = assignFromSums(s, n, k, norm, assignment, previous);
+    const pass = assignFromSums(s, n, k, scale, shift, assignment, previous);
     objective = pass.objective;
     movedPoints = pass.moved;
     for (const j of movedPoints) {
       const oa = previous[j] * dims;
       const ob = assignment[j] * dims;
+      counts[previous[j]]--;
+      counts[assignment[j]]++;
       for (let d = 0; d < dims; d++) {
         sums[oa + d] -= points[j * dims + d];
         sums[ob + d] += points[j * dims + d];
@@ -210,6 +238,7 @@ function lloyd(
     }
     if (movedPoints.length === 0) break;
   }
+  if (euclidean) objective -= pointSquares;
   // Clusters left empty (or summing to zero) are dropped and the rest renumbered in order.
   const renumber = new Int32Array(k).fill(-1);
   const centres: number[] = [];
@@ -228,15 +257,16 @@ function lloyd(
 }
 
 /**
- * Each point to the cluster with the largest S_ic·norm_c (norm null: S holds cosines already;
- * clusters with norm 0 are empty and skipped); ties go to the lower cluster. Returns the points
- * that changed cluster (against previous, when given) and the objective.
+ * Each point to the cluster with the largest S_ic·scale_c − shift_c (clusters with scale 0 are
+ * empty and skipped); ties go to the lower cluster. Returns the points that changed cluster
+ * (against previous, when given) and the sum of the winning scores.
  */
 function assignFromSums(
   s: Float64Array,
   n: number,
   k: number,
-  norm: Float64Array | null,
+  scale: Float64Array,
+  shift: Float64Array,
   assignment: Int32Array,
   previous: Int32Array | null,
 ): { moved: number[]; objective: number } {
@@ -244,19 +274,19 @@ function assignFromSums(
   let objective = 0;
   for (let i = 0; i < n; i++) {
     let bestC = 0;
-    let bestCos = -Infinity;
+    let bestScore = -Infinity;
     const o = i * k;
     for (let c = 0; c < k; c++) {
-      if (norm !== null && norm[c] === 0) continue;
-      const v = norm === null ? s[o + c] : s[o + c] * norm[c];
-      if (v > bestCos) {
-        bestCos = v;
+      if (scale[c] === 0) continue;
+      const v = s[o + c] * scale[c] - shift[c];
+      if (v > bestScore) {
+        bestScore = v;
         bestC = c;
       }
     }
     if (previous !== null && previous[i] !== bestC) moved.push(i);
     assignment[i] = bestC;
-    objective += bestCos;
+    objective += bestScore;
   }
   return { moved, objective };
 }

@@ -31,7 +31,10 @@
  *    2026-12-03): screened on a 500-file sample, CMake 0.399 (from 0.395, k-means 0.402) and Erlang 0.477 (from 0.484); run on every fitted file with only the best 3
  *    refined, CMake 0.402 but Erlang 0.477 again, Django and Sphinx unchanged (their budget is
  *    already above 20), for about 40% more CPU on the Documentation folder's tree; neither wins
- *    the folds.
+ *    the folds. Lloyd's Euclidean k-means in place of the spherical one (firstLevelObjective,
+ *    splitObjective; 2026-12-05, seeds 0–9, topicLeaveOneOut.ts and topicLevels.ts) won no fold
+ *    at the first level (CMake 0.399 vs k-means 0.405, Erlang 0.470 vs 0.474) and left Erlang's
+ *    second level where it was (0.529), so both stay 'cosine'.
  * 2. Files that fit no topic well are set apart ("loose"): a file whose cosine with its topic's
  *    centre is no larger than its cosine with the centre of the whole workspace is explained by
  *    its topic no better than by the workspace's average direction (our rule; no constant).
@@ -63,7 +66,7 @@ import { centredDirections } from './centredDirections.js';
 import { curDecomposition, type CurMethod } from './cur.js';
 import { folderShares, type FolderShare } from './folderShares.js';
 import { leadingFactors, weightedMatrix } from './indexMatrix.js';
-import { sphericalKMeans, type Clustering } from './sphericalKMeans.js';
+import { sphericalKMeans, type Clustering, type KMeansObjective } from './sphericalKMeans.js';
 import { chooseTopicCount, type TopicCountChoice } from './topicCount.js';
 import { NameScratch, namesAgainstParent, realWordsFirst, type NamingScore } from './topicNames.js';
 import { rankWithPicks } from './topicSignature.js';
@@ -118,6 +121,10 @@ export interface TopicsOptions {
   splitRestarts: number;
   /** Refine each split's restarts by first-variation moves, as the first level's (firstVariation.ts). @default false */
   splitRefine: boolean;
+  /** The first level's k-means objective (sphericalKMeans.ts): 'cosine' (spherical) or 'euclidean' (Lloyd's, on the same unit vectors). @default 'cosine' */
+  firstLevelObjective: KMeansObjective;
+  /** The splits' k-means objective, as firstLevelObjective. @default 'cosine' */
+  splitObjective: KMeansObjective;
   /** Above this many files, k-means is fitted on a seeded sample of this size, then refined on all. @default 2000 */
   fitSample: number;
   /** @default DEFAULT_SEED */
@@ -142,6 +149,8 @@ export const DEFAULT_TOPICS_OPTIONS: Readonly<TopicsOptions> = Object.freeze({
   centreFirstLevel: false,
   splitRestarts: 2,
   splitRefine: false,
+  firstLevelObjective: 'cosine',
+  splitObjective: 'cosine',
   fitSample: 2000,
   countDraws: 1,
   seed: DEFAULT_SEED,
@@ -260,7 +269,17 @@ export function* topicSteps(index: LsiIndex, options: Partial<TopicsOptions> = {
       : chooseTopicCount(points, n, dims, { maxTopics: o.maxTopics, seed: o.seed, draws: o.countDraws });
   yield;
   const space = o.centreFirstLevel && choice.topics > 1 ? centredDirections(scaled, n, dims) : scaled;
-  const clustering = clusterPoints(space, n, dims, Math.max(1, choice.topics), o.fitSample, o.seed, o.restarts, o.refine);
+  const clustering = clusterPoints(
+    space,
+    n,
+    dims,
+    Math.max(1, choice.topics),
+    o.fitSample,
+    o.seed,
+    o.restarts,
+    o.refine,
+    o.firstLevelObjective,
+  );
   const K = clustering.clusters;
   const centres = space === points ? clustering.centres : centresIn(points, n, dims, clustering.assignment, K);
   yield;
@@ -445,8 +464,9 @@ function splitGroup(points: Float64Array, idx: Int32Array, dims: number, o: Topi
       restarts: o.splitRestarts,
       maxIterations: SPLIT_PASSES,
       refineSweeps: o.splitRefine ? FIRST_LEVEL_SWEEPS : 0,
+      objective: o.splitObjective,
     });
-  else c = clusterPoints(sub, m, dims, choice.topics, o.fitSample, seed, o.splitRestarts, o.splitRefine);
+  else c = clusterPoints(sub, m, dims, choice.topics, o.fitSample, seed, o.splitRestarts, o.splitRefine, o.splitObjective);
   const out: number[][] = Array.from({ length: c.clusters }, () => []);
   for (let j = 0; j < m; j++) out[c.assignment[j]].push(idx[j]);
   return out.filter((g) => g.length > 0).length > 1 ? out : [];
@@ -540,9 +560,15 @@ function clusterPoints(
   seed: number,
   restarts?: number,
   refine = false,
+  objective: KMeansObjective = 'cosine',
 ): Clustering {
   const fit = (p: Float64Array, m: number): Clustering =>
-    sphericalKMeans(p, m, dims, k, { seed, restarts: restarts ?? restartsFor(m, k, dims), refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0 });
+    sphericalKMeans(p, m, dims, k, {
+      seed,
+      restarts: restarts ?? restartsFor(m, k, dims),
+      refineSweeps: refine ? FIRST_LEVEL_SWEEPS : 0,
+      objective,
+    });
   if (n <= fitSample) return fit(points, n);
   const random = createRandom(seed);
   const order = Int32Array.from({ length: n }, (_, i) => i);
@@ -553,5 +579,5 @@ function clusterPoints(
   const sample = new Float64Array(fitSample * dims);
   for (let i = 0; i < fitSample; i++) sample.set(points.subarray(order[i] * dims, (order[i] + 1) * dims), i * dims);
   const fitted = fit(sample, fitSample);
-  return sphericalKMeans(points, n, dims, k, { initial: fitted.centres, maxIterations: 10 });
+  return sphericalKMeans(points, n, dims, k, { initial: fitted.centres, maxIterations: 10, objective });
 }

@@ -4,7 +4,9 @@
  * a cluster is its normalised sum; the k-means cost on the sphere is Σ‖x − μ‖² = 2(n − objective));
  * the fixed-point conditions of Lloyd's iteration; planted, well-separated clusters (adjusted Rand
  * index 1 expected). k-means++ only promises cost ≤ 8(ln k + 2)·optimum in expectation (Arthur &
- * Vassilvitskii 2007); on structureless random points we ask for ≤ 1.05·optimum (our choice).
+ * Vassilvitskii 2007); on structureless random points we ask for ≤ 1.05·optimum (our choice). The
+ * Euclidean objective: exhaustive search over 2-way partitions of Σ‖x − mean‖², and the fixed point
+ * of Lloyd's iteration (Lloyd 1982).
  */
 import { describe, expect, it } from 'vitest';
 import { sphericalKMeans } from '../../../src/core/topics/sphericalKMeans.js';
@@ -82,6 +84,59 @@ describe('spherical k-means', () => {
     const got = sphericalKMeans(p, 1000, 4, 6);
     expect(got.clusters).toBe(1);
     expect(new Set(got.assignment)).toEqual(new Set([0]));
+  });
+
+  /** Σ‖x − mean of its cluster‖² (the k-means cost Lloyd 1982 minimises). */
+  const squaredError = (p: Float64Array, dims: number, labels: ArrayLike<number>, k: number): number => {
+    let cost = 0;
+    for (let c = 0; c < k; c++) {
+      const members = Array.from(labels).flatMap((l, i) => (l === c ? [i] : []));
+      for (let d = 0; d < dims; d++) {
+        const mean = members.reduce((s, i) => s + p[i * dims + d], 0) / Math.max(1, members.length);
+        for (const i of members) cost += (p[i * dims + d] - mean) ** 2;
+      }
+    }
+    return cost;
+  };
+
+  for (const seed of [1, 2, 3]) {
+    it(`with the Euclidean objective reaches the exhaustive-search optimum of Σ‖x − μ‖² on 10 random unit vectors, 2 clusters (instance ${seed})`, () => {
+      const n = 10;
+      const dims = 3;
+      const p = unitPoints(n, dims, seed);
+      let best = Infinity;
+      for (let mask = 0; mask < 1 << (n - 1); mask++)
+        best = Math.min(
+          best,
+          squaredError(
+            p,
+            dims,
+            Array.from({ length: n }, (_, i) => (i === 0 ? 0 : (mask >> (i - 1)) & 1)),
+            2,
+          ),
+        );
+      const got = sphericalKMeans(p, n, dims, 2, { seed, objective: 'euclidean' });
+      expect(-got.objective).toBeCloseTo(squaredError(p, dims, got.assignment, got.clusters), 9);
+      expect(-got.objective).toBeLessThanOrEqual(1.05 * best + 1e-12);
+    });
+  }
+
+  it('with the Euclidean objective ends at a fixed point: each point at its nearest member mean', () => {
+    const dims = 8;
+    const n = 200;
+    const p = unitPoints(n, dims, 9);
+    const got = sphericalKMeans(p, n, dims, 5, { seed: 3, objective: 'euclidean' });
+    const means = Array.from({ length: got.clusters }, (_, c) => {
+      const members = Array.from(got.assignment).flatMap((l, i) => (l === c ? [i] : []));
+      return Array.from({ length: dims }, (_, d) => members.reduce((s, i) => s + p[i * dims + d], 0) / members.length);
+    });
+    const dist = (i: number, c: number) => means[c].reduce((s, m, d) => s + (p[i * dims + d] - m) ** 2, 0);
+    for (let i = 0; i < n; i++)
+      for (let c = 0; c < got.clusters; c++) expect(dist(i, got.assignment[i])).toBeLessThanOrEqual(dist(i, c) + 1e-12);
+    for (let c = 0; c < got.clusters; c++) {
+      const norm = Math.hypot(...means[c]);
+      for (let d = 0; d < dims; d++) expect(got.centres[c * dims + d]).toBeCloseTo(means[c][d] / norm, 9);
+    }
   });
 
   it('refuses a non-positive cluster count', () => {
