@@ -34,7 +34,7 @@ const CLI_NODE_FLAGS = '--max-semi-space-size=2';
  * pages to madvise (the usual default) or gives them always; elsewhere, and with other C
  * libraries, it is ignored. It replaces MALLOC_MMAP_THRESHOLD_=131072 (every block of 128 KiB
  * or more mapped on its own and given back when freed): that kept peaks 25–35 MB lower but
- * doubled the page faults. Measured in README, Speed and memory.
+ * doubled the page faults. Measured in docs/speed-and-memory.md.
  */
 const CLI_ENV = 'GLIBC_TUNABLES=glibc.malloc.hugetlb=1';
 
@@ -51,7 +51,7 @@ const common = {
 };
 const entries = [
   // The command's first line caps V8's young generation (semi-spaces of 2 MB instead of up to 16):
-  // the Documentation folder's build peaks ~28 MB lower at the same time (README, Speed and memory);
+  // the Documentation folder's build peaks ~28 MB lower at the same time (docs/speed-and-memory.md);
   // and has malloc advise huge pages for its mapped blocks (CLI_ENV).
   { entryPoints: ['src/cli/bin.ts'], outfile: 'dist/cli.js', banner: { js: `#!/usr/bin/env -S ${CLI_ENV} node ${CLI_NODE_FLAGS}` } },
   { entryPoints: ['src/extension/extension.ts'], outfile: 'dist/extension.js', external: ['vscode'] },

@@ -45,20 +45,20 @@ export const DEFAULT_MIN_SIMILARITY = 0.24;
  * BM25L's δ of the word match that ranks the candidates (LsiIndex.nearby, wordMatchDelta): 0,
  * classic BM25, explicitly, not Nearby's default 0.5. The threshold above was calibrated with δ 0;
  * with δ 0.5 the best-F1 similarity on cmake-doc falls from .199 to .151 and the threshold fitted on
- * the other two trees no longer beats no threshold there (F1 .1012 against .1037; README, "Ranking
- * checks", second round), so the suggestions keep the word match they were measured with.
+ * the other two trees no longer beats no threshold there (F1 .1012 against .1037; docs/ranking-checks.md,
+ * second round), so the suggestions keep the word match they were measured with.
  */
 export const LINKS_WORD_MATCH_DELTA = 0;
 
 /**
  * The word match's TF-IDF share (LsiIndex.nearby, wordMatchTfidf): 0, BM25 alone, as the threshold
- * above was calibrated; Nearby's opt-in 0.1 came later (README, "Ranking checks", fourth round).
+ * above was calibrated; Nearby's opt-in 0.1 came later (docs/ranking-checks.md, fourth round).
  */
 export const LINKS_WORD_MATCH_TFIDF = 0;
 
 /**
  * The name field's weight in the word match (LsiIndex.nearby, wordMatchNames): 0, as the threshold
- * above was calibrated without it; Nearby's 0.35 came later (README, "Ranking checks", sixth round).
+ * above was calibrated without it; Nearby's 0.35 came later (docs/ranking-checks.md, sixth round).
  */
 export const LINKS_WORD_MATCH_NAMES = 0;
 

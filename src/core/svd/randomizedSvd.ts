@@ -211,7 +211,7 @@ export function bigSideBlockWidth(B: number, l: number, budgetBytes = BIG_BLOCK_
 
 /**
  * Budget of a big-side column block (our choice, measured on the linux-source-6.1 Documentation
- * matrix: see README, Speed and memory; small enough to matter, wide enough for SIMD rows).
+ * matrix: see docs/speed-and-memory.md; small enough to matter, wide enough for SIMD rows).
  */
 export const BIG_BLOCK_BYTES = 16 * 1024 * 1024;
 

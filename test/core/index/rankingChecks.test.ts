@@ -15,7 +15,7 @@
  *   checked on the other.
  * One default configuration for all (index/search/fusion.ts), chosen by leaving one collection out
  * (scripts/fixtures/rankingFusionExplore.ts, rankingLevers.ts). Where Undertone is still behind a baseline, the
- * check says so in its name and asserts the measured gap as a floor (README, "Ranking checks"), so
+ * check says so in its name and asserts the measured gap as a floor (docs/ranking-checks.md), so
  * a regression fails and an improvement shows.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -37,9 +37,9 @@ describe('Nearby on linked documentation (nDCG@10)', () => {
   // name field both ways): CMake .6140 (BM25 .5112, 1.201; TF-IDF .4386, 1.400), Django .7341 (LSI
   // .6984, 1.051), Sphinx .7449 (TF-IDF .7085, 1.051); with the page's 40 top words as its query
   // .6116, .7243 and .7375 (1.196, 1.037, 1.041); without the name field as well .5378, .7114 and .7162 (1.052, 1.019,
-  // 1.011); with δ 0 as well 1.012, 1.017 and 1.006 of the best baseline (README, "Ranking checks"). With the opt-in TF-IDF share (nearbyTfidfShare 0.1,
+  // 1.011); with δ 0 as well 1.012, 1.017 and 1.006 of the best baseline (docs/ranking-checks.md). With the opt-in TF-IDF share (nearbyTfidfShare 0.1,
   // off by default): over the page's 40 top words (nearbyTfidfTerms) 1.032, 1.024 and 1.015, over all
-  // its words 1.030, 1.027 and 1.023 (README, "Ranking checks", fourth and fifth rounds).
+  // its words 1.030, 1.027 and 1.023 (docs/ranking-checks.md, fourth and fifth rounds).
   it('CMake manual (1,906 pages, 1,243 linked pages as queries): ≥ 15% above the best plain baseline (BM25 of the whole page), ≥ 35% above TF-IDF cosine', () => {
     const fx = loadRankingFixture('cmake-doc');
     const got = nearbyFigures(buildFixtureIndex(fx), fx).ndcg10;
@@ -67,7 +67,7 @@ describe('Nearby on linked documentation (nDCG@10)', () => {
 describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries)', () => {
   // Measured with the defaults (the name field at η .5 by the share of the query a name covers):
   // .4522 (BM25 .4387, 1.031), quartiles .3479 / .5228 / .5548 / .3841 against TF-IDF's .3622 /
-  // .4882 / .3413 / .2214; without the name field .4294 (0.979 of BM25; README, "Ranking checks").
+  // .4882 / .3413 / .2214; without the name field .4294 (0.979 of BM25; docs/ranking-checks.md).
   let fx: RankingFixture;
   let got: ReturnType<typeof searchFigures>;
   beforeAll(() => {
@@ -92,7 +92,7 @@ describe('search by description on real code (rxjs 7.8.2, 252 files, 429 queries
 describe('search by description on a second codebase (lodash 4.18.1, 628 files, 627 queries)', () => {
   // Measured with the defaults: .3851 (LSI .3561, 1.081; BM25 .3439, 1.120), quartiles .3892 /
   // .3705 / .4100 / .3706 against TF-IDF's .4183 / .3721 / .3539 / .2567; without the name field
-  // .3585 (README, "Ranking checks").
+  // .3585 (docs/ranking-checks.md).
   let fx: RankingFixture;
   let got: ReturnType<typeof searchFigures>;
   beforeAll(() => {
@@ -116,8 +116,8 @@ describe('search by description on a second codebase (lodash 4.18.1, 628 files, 
 
 describe('the name field in search without its coverage guard (nameCoverage 0; nameField.ts)', () => {
   // Measured: rxjs .4672 (BM25 .4387, 1.065), quartiles .3796 / .5285 / .5831 / .3786; lodash .3944
-  // (LSI .3561, 1.108; BM25 .3439, 1.147), quartiles .3724 / .3897 / .4161 / .3995 (README, "Ranking
-  // checks", sixth round). Not the default: a name holding one word of a question outranks the
+  // (LSI .3561, 1.108; BM25 .3439, 1.147), quartiles .3724 / .3897 / .4161 / .3995 (docs/ranking-checks.md,
+  // sixth round). Not the default: a name holding one word of a question outranks the
   // answer (three of the demo's questions left the top 3 with every file's name in).
   const run = (name: string): { fx: RankingFixture; got: ReturnType<typeof searchFigures> } => {
     const fx = loadRankingFixture(name);

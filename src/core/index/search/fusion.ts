@@ -35,7 +35,7 @@
  * - Query-word focus (termFocus.ts): in the concept fold of a search, a word weighs by how tightly
  *   its files sit together in the concept space beyond chance, relative to the query's most
  *   focused word.
- * Every choice was validated by leaving one collection out (README, "Ranking checks";
+ * Every choice was validated by leaving one collection out (docs/ranking-checks.md;
  * scripts/fixtures/rankingFusionExplore.ts).
  */
 import { STOP_WORDS } from '../../text/stopWords.js';
@@ -48,8 +48,8 @@ export interface RankingOptions {
    * Most distinctive terms of a file that form its lexical query (Nearby, and a liked file's part
    * of a search). 25–50 is common practice for "more like this" queries; chosen among 20, 40, 60,
    * 80, 100, 120, 160, 240 and all of the page's terms by leaving one manual out: every fold picks
-   * 60 or 80 and gains on the manual left out; 80 has the best worst share (README, "Ranking
-   * checks", seventh round). The link suggestions keep 40 (suggestLinks.ts). @default 80
+   * 60 or 80 and gains on the manual left out; 80 has the best worst share (docs/ranking-checks.md,
+   * seventh round). The link suggestions keep 40 (suggestLinks.ts). @default 80
    */
   nearbyTerms: number;
   /** First-pass files whose mean concept vector is added to a query (0 = no feedback). @default 5 */
@@ -67,7 +67,7 @@ export interface RankingOptions {
    * does not know (pruned as too rare or too common): λ_q = λ + (1 − λ)·u. No constant to fit:
    * what the concept cosine cannot see, only the word match can score. On by default since it was
    * the one lever that moved both code collections the same way (rxjs +1.0%, lodash +1.3% MRR@10;
-   * the four dev collections within ±0.2% MAP; README, "Ranking checks"). @default true
+   * the four dev collections within ±0.2% MAP; docs/ranking-checks.md). @default true
    */
   coverageBlend: boolean;
   /**
@@ -81,7 +81,7 @@ export interface RankingOptions {
    * Search: weigh each part by the inverse of its score spread over the files (z-score fusion),
    * so the blend share λ applies to standardised scores: λ_q = (λ/σ_lex)/((1 − λ)/σ_cos + λ/σ_lex).
    * Off by default: with λ = 0.6 and b = 0.5 it puts code search and CACM within 1% of BM25 but
-   * costs CRAN, ADI and two demo questions (README, "Ranking checks"). @default false
+   * costs CRAN, ADI and two demo questions (docs/ranking-checks.md). @default false
    */
   spreadBlend: boolean;
   /**
@@ -94,8 +94,8 @@ export interface RankingOptions {
    * BM25L's δ for nearby's word match (Lv & Zhai 2011, "When documents are very long, BM25 fails!";
    * 0.5 is the value they recommend); 0 = classic BM25. Chosen by every leave-one-manual-out fold
    * and above the default without it on all three manuals (share of the best plain baseline, δ 0 →
-   * 0.5: CMake 1.012 → 1.052, Django 1.017 → 1.019, Sphinx 1.006 → 1.011; README, "Ranking
-   * checks"). The link suggestions pass their own δ (core/links/suggestLinks.ts,
+   * 0.5: CMake 1.012 → 1.052, Django 1.017 → 1.019, Sphinx 1.006 → 1.011; docs/ranking-checks.md).
+   * The link suggestions pass their own δ (core/links/suggestLinks.ts,
    * LINKS_WORD_MATCH_DELTA = 0), where their similarity threshold was calibrated. @default 0.5
    */
   nearbyDelta: number;
@@ -103,7 +103,7 @@ export interface RankingOptions {
    * Search: share ν of the word match given to TF-IDF cosine over the full term space
    * (tfidfCosine.ts), max-normalised like BM25: lexical = (1 − ν)·BM25/max + ν·TFIDF/max.
    * 0 = BM25 alone. Off: measured in the third search round and not chosen by every
-   * leave-one-out fold (README, "Ranking checks"); explanations still split the word match as
+   * leave-one-out fold (docs/ranking-checks.md); explanations still split the word match as
    * BM25 alone. @default 0
    */
   tfidfShare: number;
@@ -119,7 +119,7 @@ export interface RankingOptions {
    * (tfidfCosine.ts; Salton & Buckley 1988's ltc weights, scikit-learn's TfidfVectorizer form),
    * divided by the best other page's: lexical = (1 − ν)·BM25L/max + ν·TFIDF/max. Chosen by every
    * leave-one-manual-out fold among twelve configurations (ν 0.1 / 0.25 / 0.5, pivoted, taken from
-   * the concept part, or over the page's top terms; README, "Ranking checks", fourth round), but
+   * the concept part, or over the page's top terms; docs/ranking-checks.md, fourth round), but
    * off by default: over every word of the page it took Nearby of a file on the whole kernel tree
    * from a median of 12 ms to 52–60 ms (p95 135–168 ms). Over the page's top words
    * (nearbyTfidfTerms) it is affordable, but in the fifth round leaving one manual out no longer
@@ -136,7 +136,7 @@ export interface RankingOptions {
   /**
    * Nearby: take the TF-IDF share ν from the concept part instead of the word match:
    * (1 − μ)(1 − ν)·cos + μ·BM25L/max + (1 − μ)ν·TFIDF/max. With ν 0.25 over 80 top words it
-   * raised all three manuals (README, "Ranking checks", fifth round) but was chosen by two folds of
+   * raised all three manuals (docs/ranking-checks.md, fifth round) but was chosen by two folds of
    * three and cost Nearby of a file about 12 ms more CPU on the whole kernel tree. @default false
    */
   nearbyTfidfFromConcept: boolean;
@@ -148,7 +148,7 @@ export interface RankingOptions {
    * the demo's questions out of the top 3. With the two guards (code files' names, coverage) the
    * configurations that keep every demo question in its place were compared leaving one code
    * collection out; each fold gains on the one left out, and η .5, p 1 has the best worst share
-   * (README, "Ranking checks", seventh round). The four abstract collections do not move (their
+   * (docs/ranking-checks.md, seventh round). The four abstract collections do not move (their
    * files' names are numbers). @default 0.5
    */
   nameWeight: number;
@@ -162,7 +162,7 @@ export interface RankingOptions {
    * files' names, and the page's own name words against the other files' text (BM25L, δ as the
    * word match's): word match = BM25L/max + η·names/max + η·BM25L(own name)/max. Chosen among 0,
    * .2, .25, .35 and .5 by leaving one manual out (each fold gains on the manual left out); .35 has
-   * the best worst share on all three (README, "Ranking checks", sixth round). @default 0.35
+   * the best worst share on all three (docs/ranking-checks.md, sixth round). @default 0.35
    */
   nearbyNameWeight: number;
 }
