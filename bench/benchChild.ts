@@ -43,8 +43,14 @@ export interface ChildResult {
   readonly prepareSeconds: number;
   readonly searchMs: { median: number; max: number; count: number };
   readonly nearbyMs: { median: number; max: number; count: number };
-  readonly foldInMs: number;
-  readonly searchAfterFoldInMs: number;
+  /**
+   * Folding in a changed file (its text plus one new line), one after another for the files Nearby
+   * was asked about, with the saved index's term vectors in memory as the editor's worker has them
+   * by then (it prepares once they are filled); the first includes the session's one-off costs.
+   */
+  readonly foldInMs: { first: number; median: number; max: number; count: number };
+  /** The search right after each fold-in (the words' focus and the mean row added again where the edit touched them). */
+  readonly searchAfterFoldInMs: { median: number; max: number; count: number };
 }
 
 /** Plain-language queries: general software topics (invented wording; unknown words are skipped). */
@@ -110,12 +116,20 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
   const paths = index.paths();
   const picks = Array.from({ length: Math.min(10, paths.length) }, (_, i) => paths[Math.floor((i * paths.length) / 10)]);
   const nearbyMs = picks.map((p) => timeIt(() => index.nearby(p, { top: 10 })));
-  // Fold in one changed file: its text plus one new line.
-  const victim = picks[0];
-  const text = `${readFileSync(join(folder, victim), 'utf8')}\nA new closing line about memory.\n`;
-  const meta = { path: victim, size: text.length, mtimeMs: Date.now() };
-  const foldInMs = timeIt(() => index.foldIn(meta, text));
-  const afterMs = searchMs.length > 0 ? timeIt(() => index.search(QUERIES[0], { top: 10 })) : NaN;
+  await loaded.termsFilled; // the editor's worker prepares once they are in (indexService.ts)
+  // Fold in changed files, as saves in the editor: each one's text plus one new line, then a search.
+  const foldMs: number[] = [];
+  const afterMs: number[] = [];
+  for (const [i, victim] of picks.entries()) {
+    const text = `${readFileSync(join(folder, victim), 'utf8')}\nA new closing line about memory.\n`;
+    const meta = { path: victim, size: text.length, mtimeMs: Date.now() };
+    foldMs.push(timeIt(() => index.foldIn(meta, text)));
+    try {
+      afterMs.push(timeIt(() => index.search(QUERIES[i % QUERIES.length], { top: 10 })));
+    } catch (err) {
+      if (!(err instanceof NoKnownTermsError)) throw err;
+    }
+  }
   const bytes = readFileSync(indexFile).length;
   const peakRssBytes = process.resourceUsage().maxRSS * 1024;
   if (exportDir) {
@@ -150,7 +164,7 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
     prepareSeconds,
     searchMs: stats(searchMs),
     nearbyMs: stats(nearbyMs),
-    foldInMs,
-    searchAfterFoldInMs: afterMs,
+    foldInMs: { first: foldMs[0] ?? NaN, ...stats(foldMs) },
+    searchAfterFoldInMs: stats(afterMs),
   };
 }

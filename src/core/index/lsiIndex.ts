@@ -34,6 +34,7 @@ import {
 import { ConceptCodes } from './search/conceptCodes.js';
 import { declaringName, NameField, PathNameTokens } from './search/nameField.js';
 import { TfidfNorms, TfidfNormsBuilder } from './search/tfidfCosine.js';
+import { MeanRow } from './search/meanRow.js';
 import { FOCUS_SAMPLE, focusOf, focusWeights, meanResultant, type Resultant } from './search/termFocus.js';
 import { ConceptRows } from './search/conceptRows.js';
 import { ScreenScratch, screenedTop } from './search/screenedTop.js';
@@ -102,7 +103,7 @@ export class LsiIndex {
   private _filler: ReadonlySet<string> | null = null;
   /** Query-word focus inputs (termFocus.ts), cleared on every edit. */
   private readonly _resultants = new Map<number, Resultant>();
-  private _meanNormSquared = -1;
+  private _meanRow: MeanRow | null = null;
   /** TF-IDF document norms (tfidfCosine.ts), made on first use, cleared on every edit. */
   private _tfidf: TfidfNorms | null = null;
   /** The TF-IDF norms being built by prepare() in slices, until done or the documents change. */
@@ -497,10 +498,11 @@ export class LsiIndex {
     return res;
   }
 
-  /** ‖μ‖² for μ the mean of the files' unit concept vectors, kept until the next edit. */
+  /** ‖μ‖² for μ the mean of the files' unit concept vectors; an edit adds only its block again (meanRow.ts). */
   private meanNormSquared(): number {
-    if (this._meanNormSquared < 0) this._meanNormSquared = meanRowNormSquared(this._rows.rows, this.k, this._slots);
-    return this._meanNormSquared;
+    const slots = this._slots;
+    this._meanRow ??= new MeanRow(this.k);
+    return this._meanRow.normSquared(this._rows.rows, slots.length, (j) => slots[j] !== null);
   }
 
   /** The idf-weighted share of a query's terms that the concept model does not know (0…1). */
@@ -626,6 +628,7 @@ export class LsiIndex {
     this._changes.folded(terms, before);
     const proj = projectTerms(this.model, terms);
     let s = this._slotOf.get(meta.path);
+    const previous = s === undefined ? null : this._slots[s];
     if (s === undefined) {
       s = this._slots.length;
       this._slots.push(null);
@@ -650,7 +653,7 @@ export class LsiIndex {
             this._names.set(j, this.nameTerms(this._slots[j]!.meta, j), declaringName(this._slots[j]!.meta.path));
       }
     }
-    this.forgetFocus();
+    this.forgetFocus(s, previous?.terms ?? null, terms);
     this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
   }
@@ -660,6 +663,7 @@ export class LsiIndex {
     const s = this._slotOf.get(path);
     if (s === undefined) return false;
     const wasFolded = this._slots[s]!.folded;
+    const previous = this._slots[s]!.terms;
     this._slots[s] = null;
     this._mainLanguage = undefined;
     this._rows.clearRow(s);
@@ -670,7 +674,7 @@ export class LsiIndex {
     this._bm25?.setDocument(s, null);
     this._names?.set(s, null);
     this._namesBuild = null;
-    this.forgetFocus();
+    this.forgetFocus(s, previous, null);
     return true;
   }
 
@@ -706,11 +710,16 @@ export class LsiIndex {
     return this._tfidf;
   }
 
-  private forgetFocus(): void {
+  /**
+   * After slot s changed from `before` to `after` terms: the TF-IDF norms (every file's depends on
+   * every idf) go; of the words' resultants only those of words the file held or holds (no other
+   * word's holders or their rows changed); the mean row adds s's block again.
+   */
+  private forgetFocus(s: number, before: DocTerms | null, after: DocTerms | null): void {
     this._tfidf = null;
     this._tfidfBuilder = null;
-    this._resultants.clear();
-    this._meanNormSquared = -1;
+    if (this._resultants.size > 0) for (const d of [before, after]) if (d) for (const t of d.termIds) this._resultants.delete(t);
+    this._meanRow?.touched(s);
   }
 
   staleness(): Staleness {
@@ -826,21 +835,6 @@ function divideByMax(a: Float64Array): number {
   for (let j = 0; j < a.length; j++) max = Math.max(max, a[j]);
   if (max > 0) for (let j = 0; j < a.length; j++) a[j] /= max;
   return max;
-}
-
-/** ‖mean of the occupied slots' rows‖² (0 when none). */
-function meanRowNormSquared(rows: Float32Array, k: number, slots: readonly (DocSlot | null)[]): number {
-  const acc = new Float64Array(k);
-  let m = 0;
-  for (let j = 0; j < slots.length; j++) {
-    if (slots[j] === null) continue;
-    m++;
-    const o = j * k;
-    for (let c = 0; c < k; c++) acc[c] += rows[o + c];
-  }
-  let ss = 0;
-  for (let c = 0; c < k; c++) ss += (acc[c] / Math.max(m, 1)) ** 2;
-  return ss;
 }
 
 /** Standard deviation of v_j·q over every ⌊n/SPREAD_SAMPLE⌋-th occupied slot (all below 2·SPREAD_SAMPLE). */

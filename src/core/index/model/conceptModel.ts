@@ -359,17 +359,21 @@ export function modelMatrix(model: ConceptModel, docs: readonly DocTerms[]): Csr
 export function projectTerms(model: ConceptModel, terms: DocTerms, scale?: (termId: number) => number): Projection {
   const w = weightDocument(terms, model.columnOf, model.weights, model.scheme);
   const k = model.k;
+  // Read once: a reopened model's termVectors is an accessor until filled (persist.ts), and a
+  // property read per multiply-add cost most of a fold's time.
+  const termVectors = model.termVectors;
+  const axisScale = model.axisScale;
   const acc = new Float64Array(k);
   for (let i = 0; i < w.columns.length; i++) {
     const v = scale ? w.values[i] * scale(model.keptIds[w.columns[i]]) : w.values[i];
     const o = w.columns[i] * k;
-    for (let c = 0; c < k; c++) acc[c] += v * model.termVectors[o + c];
+    for (let c = 0; c < k; c++) acc[c] += v * termVectors[o + c];
   }
   let inside = 0;
   for (let c = 0; c < k; c++) inside += acc[c] * acc[c];
   let ss = 0;
   for (let c = 0; c < k; c++) {
-    acc[c] *= model.axisScale[c];
+    acc[c] *= axisScale[c];
     ss += acc[c] * acc[c];
   }
   const norm = Math.sqrt(ss);

@@ -8,7 +8,7 @@
  * maximum: scoring fields apart and combining the scores is the simple multi-field form that
  * Robertson, Zaragoza & Taylor (2004, "Simple BM25 extension to multiple weighted fields") set
  * against BM25F; BM25F itself (one saturation over both fields, the body's idf) gained little
- * here, since a code file already repeats its own name in its body (README, "Ranking checks").
+ * here, since a code file already repeats its own name in its body (docs/ranking-checks.md).
  * Numbers (all digits) are not names and are left out, and so is the extension (every file of a
  * kind shares it). No data beyond the paths: the field is made from them when first needed.
  * Defaults k1 = 1.2, b = 0.75 (BM25's common practice, bm25.ts).
@@ -211,13 +211,25 @@ export class NameField {
     return tf > 0 ? this.idf(termId) * queryCount * this.saturated(tf, slot, delta) : 0;
   }
 
+  /**
+   * 1 − b + b·len/avglen of every slot (1 for a slot without a name): made again after each set(),
+   * so a plain loop (Float64Array.from with a mapping function took about 18 ms on 78,000 slots).
+   */
+  private lengthNorms(): Float64Array {
+    const { b } = this._opts;
+    const avg = this._n > 0 ? this._total / this._n : 1;
+    const names = this._names;
+    const norms = new Float64Array(names.length);
+    for (let j = 0; j < names.length; j++) {
+      const d = names[j];
+      norms[j] = d ? 1 - b + (b * d.length) / avg : 1;
+    }
+    return norms;
+  }
+
   /** (k1 + 1)(c + δ)/(k1 + c + δ) with c = tf/(1 − b + b·len/avglen). */
   private saturated(tf: number, slot: number, delta: number): number {
-    if (!this._norms) {
-      const { b } = this._opts;
-      const avg = this._n > 0 ? this._total / this._n : 1;
-      this._norms = Float64Array.from(this._names, (d) => (d ? 1 - b + (b * d.length) / avg : 1));
-    }
+    if (!this._norms) this._norms = this.lengthNorms();
     const k1 = this._opts.k1;
     const x = tf / this._norms[slot] + delta;
     return ((k1 + 1) * x) / (k1 + x);

@@ -54,8 +54,18 @@ export function meanResultant(rows: Float32Array, k: number, holders: (visit: (s
     slots[m++] = slot;
   });
   if (m === 0) return { r: 1, m: 0 };
-  // Row by row in the visiting order, eight rows a step: ((acc + a) + b) + … is the same sum in the
-  // same order as adding one row at a time (the same bits), with an eighth of the passes over acc.
+  addRows(rows, k, slots, m, acc);
+  let ss = 0;
+  for (let c = 0; c < k; c++) ss += acc[c] * acc[c];
+  return { r: Math.min(1, Math.sqrt(ss) / m), m };
+}
+
+/**
+ * acc += the rows (k numbers each) of slots[0…m), in that order. Eight rows a step: ((acc + a) + b)
+ * + … is the same sum in the same order as adding one row at a time (the same bits), with an eighth
+ * of the passes over acc.
+ */
+export function addRows(rows: Float32Array, k: number, slots: Int32Array, m: number, acc: Float64Array): void {
   let i = 0;
   for (; i + 8 <= m; i += 8) {
     const a = slots[i] * k;
@@ -73,9 +83,6 @@ export function meanResultant(rows: Float32Array, k: number, holders: (visit: (s
     const o = slots[i] * k;
     for (let c = 0; c < k; c++) acc[c] += rows[o + c];
   }
-  let ss = 0;
-  for (let c = 0; c < k; c++) ss += acc[c] * acc[c];
-  return { r: Math.min(1, Math.sqrt(ss) / m), m };
 }
 
 /** r over its chance level √(1/m + (1 − 1/m)·‖μ‖²) (1 for a word no file holds). */
