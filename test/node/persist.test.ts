@@ -336,6 +336,10 @@ describe('persist: the saved section lists (format 5)', () => {
         throw new Error('a scratch spill was opened');
       }, 0);
       expect(queries.length).toBeGreaterThan(20);
+      // prepare() sets the saved listing up (so the first section search or edit does not wait for it).
+      expect(back.sections.savedListingPending).toBe(true);
+      await back.prepare({ sliceMs: 1000, pause: async () => undefined });
+      expect(back.sections.savedListingPending).toBe(false);
       for (const q of queries) expect(back.sections.rank(q, 10, undefined, 2)).toEqual(index.sections.rank(q, 10, undefined, 2));
       expect(train).not.toHaveBeenCalled();
       // Saved again from the file (codes copied from it, not coded again): the same payload.
