@@ -26,7 +26,7 @@
  * Edits that land while the block is being built are replayed onto the terms they touch when it
  * is installed (old document out, new one into the side list, as setDocument does).
  */
-import { PostingsBuild, TermPostings, collectPostings, type PostingsBlock } from './termPostings.js';
+import { PostingsBuild, TermPostings, collectPostings, type MainEntries, type PostingsBlock } from './termPostings.js';
 import type { DocTerms } from '../../counting/termCounts.js';
 
 export interface Bm25Options {
@@ -40,15 +40,7 @@ export const DEFAULT_BM25_OPTIONS: Readonly<Bm25Options> = Object.freeze({ k1: 1
 
 // The loops live in small functions of their own, which the engine optimises whole.
 
-/** A term's main list as scored: entries 0 … n − 1 of docs and tfs, as of edit number builtAt. */
-interface MainEntries {
-  readonly docs: Int32Array;
-  readonly tfs: Float32Array;
-  readonly n: number;
-  readonly builtAt: number;
-}
-
-const mainOf = (p: TermPostings): MainEntries => ({ docs: p.docs, tfs: p.tfs, n: p.docs.length, builtAt: p.builtAt });
+const mainOf = (p: TermPostings): MainEntries => p.main();
 
 /** One term's contributions from its main list, slots stamped after builtAt skipped. */
 function addMain(list: MainEntries, stamp: Float64Array, norm: Float64Array, idf: number, k1: number, out: Float64Array): void {
@@ -167,6 +159,13 @@ export class Bm25Scorer {
   /** Terms whose postings are held (for tests and memory accounting). */
   get cachedTerms(): number {
     return this._terms.size;
+  }
+
+  /** Kept terms whose main list has been decoded into arrays of their own (for tests and memory accounting). */
+  get decodedTerms(): number {
+    let n = 0;
+    for (const p of this._terms.values()) if (p.decoded) n++;
+    return n;
   }
 
   /** True once every term's postings are built (prepare() has finished). */
@@ -294,7 +293,7 @@ export class Bm25Scorer {
   private held(t: number): TermPostings | undefined {
     const p = this._terms.get(t);
     if (p || !this._block || t >= this._block.terms) return p;
-    const made = this._block.postings(t);
+    const made = this._block.lazyPostings(t);
     this._terms.set(t, made);
     return made;
   }
@@ -309,7 +308,7 @@ export class Bm25Scorer {
     const take = (t: number): TermPostings | undefined => {
       if (this._terms.has(t) || t >= block.terms) return undefined;
       let p = fresh.get(t);
-      if (!p) fresh.set(t, (p = block.postings(t)));
+      if (!p) fresh.set(t, (p = block.lazyPostings(t)));
       return p;
     };
     for (let j = 0; j < this._docsOf.length; j++) {

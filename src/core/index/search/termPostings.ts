@@ -26,17 +26,73 @@ const COMPACT_SHARE = 0.25;
 /** Side lists shorter than this many postings are never merged (common practice). */
 const COMPACT_MIN = 256;
 
+/** A term's main list as scored: entries 0 … n − 1 of docs and tfs, as of edit number builtAt. */
+export interface MainEntries {
+  readonly docs: Int32Array;
+  readonly tfs: Float32Array;
+  readonly n: number;
+  readonly builtAt: number;
+}
+
 export class TermPostings {
   side: number[] = [];
+  private _docs: Int32Array | null;
+  private _tfs: Float32Array | null;
 
+  /**
+   * @param docs the main list's slots, or null when it stays compressed in `block` (term `term`)
+   *   until first read: an edit then only counts and side-lists, and a query decodes it into the
+   *   block's scratch as it does a list nobody edited (lazyPostings).
+   */
   constructor(
-    public docs: Int32Array,
-    public tfs: Float32Array,
+    docs: Int32Array | null,
+    tfs: Float32Array | null,
     /** Edit number the main list reflects: slots stamped later do not count in it. */
     public builtAt: number,
     /** Documents currently holding the term. */
     public df: number,
-  ) {}
+    private block: PostingsBlock | null = null,
+    private readonly term = -1,
+  ) {
+    this._docs = docs;
+    this._tfs = tfs;
+  }
+
+  /** The main list's slots (decoded from the block into arrays of its own on first read). */
+  get docs(): Int32Array {
+    if (!this._docs) this.decodeOwn();
+    return this._docs!;
+  }
+
+  /** The main list's counts. */
+  get tfs(): Float32Array {
+    if (!this._tfs) this.decodeOwn();
+    return this._tfs!;
+  }
+
+  /** True once the main list has arrays of its own (always, unless it was left in a block). */
+  get decoded(): boolean {
+    return this._docs !== null;
+  }
+
+  /** Entries of the main list, without decoding it. */
+  get mainLength(): number {
+    return this._docs ? this._docs.length : this.block!.df(this.term);
+  }
+
+  /** The main list to score now: its own arrays, or the block's scratch (valid until the block's next decode). */
+  main(): MainEntries {
+    if (this._docs) return { docs: this._docs, tfs: this._tfs!, n: this._docs.length, builtAt: this.builtAt };
+    const n = this.block!.decode(this.term);
+    return { docs: this.block!.slots, tfs: this.block!.tfs, n, builtAt: this.builtAt };
+  }
+
+  private decodeOwn(): void {
+    const n = this.block!.decode(this.term);
+    this._docs = this.block!.slots.slice(0, n);
+    this._tfs = this.block!.tfs.slice(0, n);
+    this.block = null;
+  }
 
   /** The document of slot, last stamped `was`, held the term and is gone. */
   remove(slot: number, was: number): void {
@@ -54,17 +110,18 @@ export class TermPostings {
   add(slot: number, tf: number, stamp: Float64Array, edits: number): void {
     this.df++;
     this.side.push(slot, tf);
-    if (this.side.length > 2 * Math.max(COMPACT_MIN, COMPACT_SHARE * this.docs.length)) this.compact(stamp, edits);
+    if (this.side.length > 2 * Math.max(COMPACT_MIN, COMPACT_SHARE * this.mainLength)) this.compact(stamp, edits);
   }
 
   /** Main entries still current plus the side list, as one main list at edit number `edits`. */
   private compact(stamp: Float64Array, edits: number): void {
     const pairs: [number, number][] = [];
-    for (let i = 0; i < this.docs.length; i++) if (stamp[this.docs[i]] <= this.builtAt) pairs.push([this.docs[i], this.tfs[i]]);
+    const { docs, tfs } = this;
+    for (let i = 0; i < docs.length; i++) if (stamp[docs[i]] <= this.builtAt) pairs.push([docs[i], tfs[i]]);
     for (let p = 0; p < this.side.length; p += 2) pairs.push([this.side[p], this.side[p + 1]]);
     pairs.sort((a, b) => a[0] - b[0]);
-    this.docs = Int32Array.from(pairs, (e) => e[0]);
-    this.tfs = Float32Array.from(pairs, (e) => e[1]);
+    this._docs = Int32Array.from(pairs, (e) => e[0]);
+    this._tfs = Float32Array.from(pairs, (e) => e[1]);
     this.side = [];
     this.builtAt = edits;
   }
@@ -179,6 +236,15 @@ export class PostingsBlock {
   postings(t: number): TermPostings {
     const n = this.decode(t);
     return new TermPostings(this._slots.slice(0, n), this._tfs.slice(0, n), this.builtAt, n);
+  }
+
+  /**
+   * Term t's postings with the main list left here until something reads it whole: what an edit
+   * keeps for the terms it touches (bm25.ts), so a save does not decode the long lists of common
+   * words (about half of a fold-in's time on the Linux tree when each was decoded).
+   */
+  lazyPostings(t: number): TermPostings {
+    return new TermPostings(null, null, this.builtAt, this._df[t], this, t);
   }
 
   /**

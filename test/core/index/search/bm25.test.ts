@@ -274,7 +274,14 @@ describe('Bm25Scorer', () => {
     scorer.setDocument(3, all[900]);
     const touched = new Set([...edited.termIds, ...all[900]!.termIds]);
     expect(scorer.cachedTerms).toBe(touched.size);
+    // The touched terms' main lists stay compressed: an edit counts and side-lists, a query decodes
+    // them into the block's scratch (the scores are checked against a fresh scorer above).
+    expect(scorer.decodedTerms).toBe(0);
     for (const q of queries.slice(0, 50)) scoresOf(scorer, q, all.length);
     expect(scorer.cachedTerms).toBe(touched.size);
+    expect(scorer.decodedTerms).toBe(0);
+    // Visiting a touched term's holders reads its list whole: then (only then) it is decoded.
+    scorer.forEachHolder(edited.termIds[0], () => undefined);
+    expect(scorer.decodedTerms).toBe(1);
   });
 });
