@@ -45,6 +45,12 @@ const CODE_ROWS = 4096;
 const SPILL_BATCH = 32;
 /** Spilled runs at most this many rows apart are read in one call (about 5 KiB of codes; common practice, not tuned). */
 const SPILL_GAP = 16;
+/**
+ * Room left for sections and files added later (folded in on save): 1/64 more, at least 64 (our
+ * choice). Without it the first save on the Linux tree copied the 1.33 M-slot arrays into fresh
+ * memory (about 45 ms); 1/64 is about 250 KB there and lasts some 20,000 new sections.
+ */
+const slackFor = (n: number): number => Math.max(64, n >> 6);
 /** Numbers a row has beside its codes in the spill: scale, error and norm (f64 each). */
 const PARAMS = CODE_PARAMS;
 
@@ -111,7 +117,7 @@ export class ListedSections {
       total += counts[counts.length - 1];
     }
     const files = this._files.length;
-    this._fileFirst = new Int32Array(files + 65);
+    this._fileFirst = new Int32Array(files + 1 + slackFor(files));
     for (let f = 0; f < files; f++) this._fileFirst[f + 1] = this._fileFirst[f] + counts[f];
     // Each section's list, in file order (one flat array: no array a file): saved, or filed here.
     const listOf = saved ? saved.listOf : new Int32Array(total);
@@ -131,9 +137,9 @@ export class ListedSections {
       });
     for (let j = 0; j < lists.lists; j++) this._starts[j + 1] += this._starts[j];
     const n = this._starts[lists.lists];
-    this._slotFile = new Int32Array(n + 64);
-    this._slotIndex = new Int32Array(n + 64);
-    this._fileSlots = new Int32Array(n + 64);
+    this._slotFile = new Int32Array(n + slackFor(n));
+    this._slotIndex = new Int32Array(n + slackFor(n));
+    this._fileSlots = new Int32Array(n + slackFor(n));
     const next = this._starts.slice(0, lists.lists);
     for (let f = 0; f < files; f++)
       for (let i = 0, g = this._fileFirst[f]; i < counts[f]; i++, g++) {
