@@ -101,7 +101,7 @@ export class LsiIndex {
   private readonly _screen = new ScreenScratch();
   private readonly _changes = new ChangeCounters();
   private _filler: ReadonlySet<string> | null = null;
-  /** Query-word focus inputs (termFocus.ts), cleared on every edit. */
+  /** Query-word focus inputs (termFocus.ts); an edit forgets those of the words its file held or holds. */
   private readonly _resultants = new Map<number, Resultant>();
   private _meanRow: MeanRow | null = null;
   /** TF-IDF document norms (tfidfCosine.ts), made on first use, cleared on every edit. */
@@ -477,7 +477,7 @@ export class LsiIndex {
   }
 
   /**
-   * The mean resultant of a word's files (termFocus.ts), kept until the next edit: of every
+   * The mean resultant of a word's files (termFocus.ts), kept until an edit of a file that holds the word: of every
    * ⌊df/FOCUS_SAMPLE⌋-th holder (all of them below 2·FOCUS_SAMPLE), the chance level then counting
    * the files visited.
    */
