@@ -14,6 +14,7 @@ import type { LsiIndex } from '../src/core/index/lsiIndex.js';
 import { indexFolder } from '../src/node/folderIndexer.js';
 import { loadIndex } from '../src/node/persist.js';
 import { writeExport } from '../src/cli/commands/exportCommand.js';
+import { rehearseFolds } from '../src/node/worker/backgroundPrepare.js';
 
 export interface ChildResult {
   readonly folder: string;
@@ -117,6 +118,8 @@ export async function runChild(folder: string, k: number | 'auto', exportDir?: s
   const picks = Array.from({ length: Math.min(10, paths.length) }, (_, i) => paths[Math.floor((i * paths.length) / 10)]);
   const nearbyMs = picks.map((p) => timeIt(() => index.nearby(p, { top: 10 })));
   await loaded.termsFilled; // the editor's worker prepares once they are in (indexService.ts)
+  // As the worker's background preparation ends (backgroundPrepare.ts): rehearsed fold-ins of a few files.
+  await rehearseFolds(index, async (p) => readFileSync(join(folder, p), 'utf8'));
   // Fold in changed files, as saves in the editor: each one's text plus one new line, then a search.
   const foldMs: number[] = [];
   const afterMs: number[] = [];

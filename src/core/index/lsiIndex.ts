@@ -628,13 +628,25 @@ export class LsiIndex {
   }
 
   /**
+   * Works out what foldIn would for a file (its language, tokens, term counts, concept vector and
+   * sections' vectors) and keeps none of it: the index, its vocabulary included, is unchanged.
+   * Run on a few of the workspace's files while idle, it has the engine optimise the fold's code
+   * before a person's first save pays for that (warming a JIT: common practice).
+   */
+  rehearseFold(meta: DocMeta, text: string): void {
+    const language = fileLanguage(meta.path, text, this.settings.tokenize.languages);
+    const terms = countTerms(tokenizeIn(text, this.settings.tokenize, language), this.vocab, false);
+    projectTerms(this.model, terms);
+    foldSections(foldContextOf(this), meta.path, text);
+  }
+
+  /**
    * Adds or replaces a document by folding it into the concept space with the frozen model.
    * New words join the vocabulary (and lexical search) but not the concept space until a rebuild.
    */
   foldIn(meta: DocMeta, text: string): DocTerms {
     const language = fileLanguage(meta.path, text, this.settings.tokenize.languages);
     meta = withLanguage(meta, language);
-    this._mainLanguage = undefined;
     const tokens = tokenizeIn(text, this.settings.tokenize, language);
     const before = this.vocab.size;
     const terms = countTerms(tokens, this.vocab, true);
@@ -642,6 +654,8 @@ export class LsiIndex {
     const proj = projectTerms(this.model, terms);
     let s = this._slotOf.get(meta.path);
     const previous = s === undefined ? null : this._slots[s];
+    // A file saved again in the language it had leaves every language's count and first slot as they were.
+    if (!previous || (previous.meta.language ?? 'en') !== (meta.language ?? 'en')) this._mainLanguage = undefined;
     if (s === undefined) {
       s = this._slots.length;
       this._slots.push(null);
@@ -666,7 +680,7 @@ export class LsiIndex {
             this._names.set(j, this.nameTerms(this._slots[j]!.meta, j), declaringName(this._slots[j]!.meta.path));
       }
     }
-    this.forgetFocus(s, previous?.terms ?? null, terms);
+    this.forgetFocus(s, previous?.terms ?? null, terms, previous !== null);
     this.sections.set(meta.path, foldSections(foldContextOf(this), meta.path, text));
     return terms;
   }
@@ -726,13 +740,14 @@ export class LsiIndex {
   /**
    * After slot s changed from `before` to `after` terms: the TF-IDF norms (every file's depends on
    * every idf) go; of the words' resultants only those of words the file held or holds (no other
-   * word's holders or their rows changed); the mean row adds s's block again.
+   * word's holders or their rows changed); the mean row adds s's block again (inPlace: s was
+   * occupied before and still is).
    */
-  private forgetFocus(s: number, before: DocTerms | null, after: DocTerms | null): void {
+  private forgetFocus(s: number, before: DocTerms | null, after: DocTerms | null, inPlace = false): void {
     this._tfidf = null;
     this._tfidfBuilder = null;
     if (this._resultants.size > 0) for (const d of [before, after]) if (d) for (const t of d.termIds) this._resultants.delete(t);
-    this._meanRow?.touched(s);
+    this._meanRow?.touched(s, inPlace);
   }
 
   staleness(): Staleness {

@@ -9,16 +9,16 @@
  *    the joined lowercase compound is kept as well (so an exact identifier still matches).
  * 4. Lowercase; drop stop words (English + programming keywords), 1-character tokens, digit
  *    runs longer than 4, hex-looking runs of 8+ characters, and tokens over 40 characters.
- * 5. Porter stemming (Porter 1980, via natural's PorterStemmer), memoised.
+ * 5. Porter stemming (Porter 1980; porterFast.ts, the same stems as natural's PorterStemmer), memoised.
  *
  * Other languages: tokenizeLanguage.ts (apart, so the map page bundles no foreign stemmer).
  *
  * Defaults: stemming on, compounds on (both options of TokenizeOptions). The limits of step 4 are
  * in tokenRules.ts. Fast twins for the tokenizing threads give the same tokens for ASCII words
- * without regular expressions: asciiWord.ts (steps 2–4 on char codes) and porterFast.ts (step 5);
- * their tests hold them equal to this file for every option combination.
+ * without regular expressions: asciiWord.ts (steps 2–4 on char codes) and porterFast.ts (step 5,
+ * used here too); their tests hold them equal to this file, and porterFast to natural's stemmer.
  */
-import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer.js';
+import { porterStem } from './porterFast.js';
 import { STOP_WORDS } from './stopWords.js';
 import type { LanguageSetting } from './detectLanguage.js';
 import { MAX_DIGIT_RUN, MAX_TOKEN_LENGTH, MIN_HEXISH_LENGTH } from './tokenRules.js';
@@ -54,7 +54,7 @@ const stemCache = new Map<string, string>();
 export function stemWord(word: string): string {
   let s = stemCache.get(word);
   if (s === undefined) {
-    s = PorterStemmer.stem(word);
+    s = porterStem(word);
     if (stemCache.size >= STEM_CACHE_LIMIT) stemCache.clear();
     stemCache.set(word, s);
   }

@@ -620,7 +620,11 @@ export class IndexService {
     this._index = index;
     if (!index) return;
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
-    const { controller, done } = prepareInBackground(index, { sliceMs, pause, after: filled });
+    const readText = async (key: string): Promise<string | null> => {
+      const got = await readIndexableText(this._roots.refOf(key).fsPath, this.config().maxFileBytes);
+      return got.kind === 'text' ? got.text : null;
+    };
+    const { controller, done } = prepareInBackground(index, { sliceMs, pause, after: filled, readText });
     this._preparing = {
       controller,
       done: done

@@ -1,3 +1,5 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { NoKnownTermsError, NotIndexedError } from '../../../src/core/errors.js';
 import { projectTerms } from '../../../src/core/index/model/conceptModel.js';
@@ -8,7 +10,7 @@ import { countTerms, type DocTerms } from '../../../src/core/counting/termCounts
 import { pathNameText } from '../../../src/core/index/search/nameField.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
-import { loadCollection } from '../../helpers/shared.js';
+import { REPO_ROOT, loadCollection } from '../../helpers/shared.js';
 import { bm25OverFields } from '../../helpers/bm25Fields.js';
 
 // Real text: CRAN (test/fixtures/corpora/cran, 1400 aerodynamics abstracts).
@@ -36,6 +38,26 @@ describe('LsiIndex', () => {
     index.foldIn({ path: docs[10].id, size: 1, mtimeMs: 1 }, docs[10].text);
     const after = Array.from(index.vectorOf(docs[10].id));
     after.forEach((v, i) => expect(v).toBeCloseTo(before[i], 5));
+  });
+
+  it('rehearses a fold-in without changing anything, and a fold-in after it gives the same bits', () => {
+    const rehearsed = build();
+    const plain = build();
+    const text = `${docs[7].text} a previously unseen wordzzz`;
+    const vocabBefore = rehearsed.vocab.size;
+    rehearsed.rehearseFold({ path: docs[7].id, size: 1, mtimeMs: 1 }, text);
+    rehearsed.rehearseFold({ path: 'new.txt', size: 1, mtimeMs: 1 }, text);
+    expect(rehearsed.vocab.size).toBe(vocabBefore);
+    expect(rehearsed.has('new.txt')).toBe(false);
+    expect(rehearsed.staleness()).toEqual(plain.staleness());
+    const bytes = (v: Float32Array): Buffer => Buffer.from(v.buffer, v.byteOffset, v.byteLength);
+    expect(bytes(rehearsed.vectors()).equals(bytes(plain.vectors()))).toBe(true);
+    for (const index of [rehearsed, plain]) index.foldIn({ path: docs[7].id, size: 2, mtimeMs: 2 }, text);
+    expect(bytes(rehearsed.vectors()).equals(bytes(plain.vectors()))).toBe(true);
+    expect(rehearsed.vocab.size).toBe(plain.vocab.size);
+    expect(rehearsed.search('pressure distribution wordzzz', { top: 10 })).toEqual(
+      plain.search('pressure distribution wordzzz', { top: 10 }),
+    );
   });
 
   it('ranks a document first for its own title, and lists it nearest to an exact copy', () => {
@@ -502,5 +524,54 @@ describe('LsiIndex on tiny inputs', () => {
     const index = b.build();
     expect(index.size).toBe(1);
     expect(index.search('timetable')[0].path).toBe('only.md');
+  });
+});
+
+describe('LsiIndex languages through edits', () => {
+  // Real text: CRAN abstracts (English) and Debian's German and French manual pages
+  // (test/fixtures/languages/README.md). Reference: the definition over the live files in slot order
+  // (the most common language, English on a tie, else the first to occur; the languages in the
+  // order they first occur), recomputed from scratch after every edit.
+  const pages = (lang: string): string[] =>
+    readFileSync(join(REPO_ROOT, 'test/fixtures/languages/known-item', `${lang}.jsonl`), 'utf8')
+      .split('\n')
+      .filter((l) => l.length > 0)
+      .slice(0, 3)
+      .map((l) => (JSON.parse(l) as { text: string }).text);
+  const definition = (index: LsiIndex): { main: string; present: string[] } => {
+    const count = new Map<string, number>();
+    for (const p of index.paths()) {
+      const lang = index.meta(p)?.language ?? 'en';
+      count.set(lang, (count.get(lang) ?? 0) + 1);
+    }
+    let main = 'en';
+    for (const [lang, n] of count) if (n > (count.get(main) ?? 0)) main = lang;
+    return { main, present: [...count.keys()] };
+  };
+
+  it('keeps the main language and the languages present as the definition gives them', () => {
+    const [de, fr] = [pages('de'), pages('fr')];
+    const en = (cran?.docs ?? []).slice(0, 3).map((d) => d.text);
+    const b = new IndexBuilder();
+    de.forEach((t, i) => b.addText({ path: `de/${i}.txt`, size: t.length, mtimeMs: 0 }, t));
+    en.forEach((t, i) => b.addText({ path: `en/${i}.txt`, size: t.length, mtimeMs: 0 }, t));
+    fr.slice(0, 2).forEach((t, i) => b.addText({ path: `fr/${i}.txt`, size: t.length, mtimeMs: 0 }, t));
+    const index = b.build();
+    const check = (main: string): void => {
+      expect({ main: index.mainLanguage(), present: [...index.languagesPresent()] }).toEqual(definition(index));
+      expect(index.mainLanguage()).toBe(main);
+    };
+    check('en'); // 3 German, 3 English, 2 French: English on the tie
+    index.foldIn({ path: 'de/1.txt', size: 1, mtimeMs: 1 }, de[1]); // saved again, same language
+    check('en');
+    index.remove('en/0.txt');
+    check('de');
+    index.foldIn({ path: 'de/2.txt', size: 1, mtimeMs: 2 }, en[0]); // rewritten in English
+    check('en');
+    index.foldIn({ path: 'fr/9.txt', size: 1, mtimeMs: 3 }, fr[2]); // a new French file
+    index.foldIn({ path: 'en/1.txt', size: 1, mtimeMs: 4 }, fr[0]); // and one rewritten in French
+    check('fr');
+    index.foldIn({ path: 'en/1.txt', size: 1, mtimeMs: 5 }, fr[0]); // saved again as it is
+    check('fr');
   });
 });

@@ -8,7 +8,8 @@ import { MAX_TOKEN_LENGTH } from '../../../src/core/text/tokenRules.js';
 import { loadRankingFixture } from '../../helpers/rankingChecks.js';
 import { loadCollection, REPO_ROOT } from '../../helpers/shared.js';
 
-// Reference: natural's PorterStemmer (the stemmer tokenize() uses), word by word. Porter's own
+// Reference: natural's PorterStemmer (a published port of Porter's algorithm, which tokenize() used
+// before it used porterFast), word by word. Porter's own
 // examples (Porter 1980, "An algorithm for suffix stripping") are among the edge cases.
 function check(words: Iterable<string>): number {
   let n = 0;

@@ -19,6 +19,12 @@ export class MeanRow {
   private blocks: { slots: Int32Array; sum: Float64Array }[] = [];
   /** Slots whose rows changed since the last read. */
   private readonly touchedSlots = new Set<number>();
+  /** Whether a slot was filled or emptied since the last read (the blocks are then cut again). */
+  private occupancyChanged = true;
+  /** Each slot's block at the last read (−1: empty), the slot count and the occupied count then. */
+  private blockOf = new Int32Array(0);
+  private n = -1;
+  private m = 0;
   private value = -1;
 
   constructor(
@@ -26,15 +32,21 @@ export class MeanRow {
     private readonly block = MEAN_ROW_BLOCK,
   ) {}
 
-  /** A slot's row or occupancy changed. */
-  touched(slot: number): void {
+  /**
+   * A slot's row changed; inPlace when it was occupied before and still is (a saved file), so the
+   * blocks keep their slots and the next read adds only the touched blocks again without cutting
+   * the blocks anew.
+   */
+  touched(slot: number, inPlace = false): void {
     this.touchedSlots.add(slot);
+    if (!inPlace) this.occupancyChanged = true;
     this.value = -1;
   }
 
   /** ‖mean of the rows of the slots `occupied` says are in use, among the first n‖² (0 when none). */
   normSquared(rows: Float32Array, n: number, occupied: (slot: number) => boolean): number {
     if (this.value >= 0) return this.value;
+    if (!this.occupancyChanged && n === this.n) return this.readInPlace(rows);
     const k = this.k;
     const order = new Int32Array(n);
     let m = 0;
@@ -56,8 +68,34 @@ export class MeanRow {
     }
     this.blocks = blocks;
     this.touchedSlots.clear();
+    this.occupancyChanged = false;
+    this.n = n;
+    this.m = m;
+    if (this.blockOf.length < n) this.blockOf = new Int32Array(n);
+    this.blockOf.fill(-1);
+    blocks.forEach((b, i) => b.slots.forEach((j) => (this.blockOf[j] = i)));
+    return this.finish(total);
+  }
+
+  /** The same blocks as at the last read: adds the touched ones again, then every block's sum in order. */
+  private readInPlace(rows: Float32Array): number {
+    const k = this.k;
+    const again = new Set<number>();
+    for (const j of this.touchedSlots) again.add(this.blockOf[j]);
+    for (const b of again) {
+      const block = this.blocks[b];
+      block.sum = new Float64Array(k);
+      addRows(rows, k, block.slots, block.slots.length, block.sum);
+    }
+    this.touchedSlots.clear();
+    const total = new Float64Array(k);
+    for (const { sum } of this.blocks) for (let c = 0; c < k; c++) total[c] += sum[c];
+    return this.finish(total);
+  }
+
+  private finish(total: Float64Array): number {
     let ss = 0;
-    for (let c = 0; c < k; c++) ss += (total[c] / Math.max(m, 1)) ** 2;
+    for (let c = 0; c < this.k; c++) ss += (total[c] / Math.max(this.m, 1)) ** 2;
     this.value = ss;
     return ss;
   }

@@ -80,4 +80,31 @@ describe('MeanRow', () => {
     });
     expect(new MeanRow(k, 8).normSquared(packed, m, () => true)).toBe(withHoles);
   });
+
+  it('adds only the touched blocks again after in-place saves, with the bits of a fresh sum', () => {
+    const n = 60;
+    const rows = unitRows(n, k, 9);
+    const occupied = Array.from({ length: n }, (_, j) => j % 7 !== 3);
+    const kept = new MeanRow(k, 8);
+    const fresh = () => new MeanRow(k, 8).normSquared(rows, n, (j) => occupied[j]);
+    kept.normSquared(rows, n, (j) => occupied[j]);
+    // Saves in place in two blocks: the fast path must match a full recount bit for bit.
+    for (const j of [0, 40, 41]) {
+      rows.set(unitRows(1, k, 100 + j), j * k);
+      kept.touched(j, true);
+    }
+    const afterSaves = kept.normSquared(rows, n, (j) => occupied[j]);
+    expect(afterSaves).toBe(fresh());
+    expect(Math.abs(afterSaves - direct(rows, k, occupied))).toBeLessThan(1e-12);
+    // An in-place save followed by a removal in the same read: the blocks are cut again.
+    rows.set(unitRows(1, k, 200), 5 * k);
+    kept.touched(5, true);
+    occupied[12] = false;
+    kept.touched(12);
+    expect(kept.normSquared(rows, n, (j) => occupied[j])).toBe(fresh());
+    // And in place again after that cut.
+    rows.set(unitRows(1, k, 201), 55 * k);
+    kept.touched(55, true);
+    expect(kept.normSquared(rows, n, (j) => occupied[j])).toBe(fresh());
+  });
 });
