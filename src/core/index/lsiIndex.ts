@@ -806,13 +806,20 @@ export class LsiIndex {
   private nameTerms(meta: DocMeta, slot: number): DocTerms {
     this._pathTokens ??= new PathNameTokens(this.settings.tokenize);
     const tokens = this._pathTokens.tokens(meta.path, meta.language ?? 'en');
+    // countTerms(tokens, vocab, false) with each token looked up once and no maps (a name has a
+    // few tokens; the whole tree's 78,300 names are counted on a search's first use of the field).
+    const ids: number[] = [];
     for (const t of tokens) {
-      if (this.vocab.idOf(t) !== undefined) continue;
+      const id = this.vocab.idOf(t);
+      if (id !== undefined) {
+        ids.push(id);
+        continue;
+      }
       let waiting = this._unknownNames.get(t);
       if (!waiting) this._unknownNames.set(t, (waiting = new Set()));
       waiting.add(slot);
     }
-    return countTerms(tokens, this.vocab, false);
+    return termsOfIds(ids);
   }
 
   /**
@@ -900,4 +907,18 @@ function blend(wa: number, a: Float64Array, wb: number, b: Float64Array, out: Fl
 
 function markHoles(slots: readonly (DocSlot | null)[], out: Float64Array): void {
   for (let j = 0; j < slots.length; j++) if (slots[j] === null) out[j] = Number.NEGATIVE_INFINITY;
+}
+
+/** The DocTerms of a list of term ids, one per token (ids ascending with their counts), as countTerms gives. */
+function termsOfIds(ids: number[]): DocTerms {
+  ids.sort((a, b) => a - b);
+  let distinct = 0;
+  for (let i = 0; i < ids.length; i++) if (i === 0 || ids[i] !== ids[i - 1]) distinct++;
+  const termIds = new Int32Array(distinct);
+  const counts = new Float32Array(distinct);
+  for (let i = 0, d = -1; i < ids.length; i++) {
+    if (i === 0 || ids[i] !== ids[i - 1]) termIds[++d] = ids[i];
+    counts[d]++;
+  }
+  return { termIds, counts, length: ids.length };
 }
