@@ -218,6 +218,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     conceptMinNameShare: o.retoldConceptMinNameShare,
     conceptMinGap: o.retoldConceptMinGap,
     marginMaxSharedNeighbours: o.retoldMarginMaxSharedNeighbours,
+    devicesApartVeto: o.retoldDevicesApartVeto,
   };
   // Files in both raw neighbour lists (the two files themselves left out): clause a's limit.
   const sharedNeighbours = (x: number, y: number): number => {

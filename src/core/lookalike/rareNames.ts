@@ -8,11 +8,18 @@
  * ln(n / df) (Spärck Jones 1972); the pair's share is the weight of the names both files hold over
  * the geometric mean of each file's own rare-name weight (a cosine over binary idf-weighted name
  * sets, Salton & Buckley 1988). Bare numbers are not names: the code tables of one family of
- * pages (character sets) share them without telling the same thing.
+ * pages (character sets) share them without telling the same thing. Device names (`ti,tmp108`)
+ * are kept apart: they only veto a pair whose files both name devices and share none.
  */
 
-/** Long options, snake_case and camelCase identifiers. */
-const NAME = /(?<![\w-])--[A-Za-z][\w-]*|\b[A-Za-z]+_\w+|\b[a-z]+[A-Z]\w*/g;
+/**
+ * Long options, snake_case and camelCase identifiers, and vendor-prefixed device names
+ * (`ti,tmp108`, `cdns,xtensa-pic`: the "vendor,model" form of device-tree compatible strings and
+ * properties, as the Devicetree Specification writes them, from memory; a digit or hyphen after the
+ * comma, so a word list written without spaces is not one, and not right after a brace or bracket,
+ * so a term of code such as Erlang's `{ok,port1}` is not one either).
+ */
+const NAME = /(?<![\w-])--[A-Za-z][\w-]*|\b[A-Za-z]+_\w+|\b[a-z]+[A-Z]\w*|(?<![{([])\b[a-z][a-z0-9]+,[a-z][a-z0-9]*[-0-9][\w-]*/g;
 
 /** The distinct names of a text, lowercased, trailing dots and hyphens dropped. */
 export function namesOf(text: string): string[] {
@@ -26,8 +33,10 @@ export interface RareNames {
   readonly shared: number;
   /** Their idf weight over the geometric mean of each file's rare-name weight (0 when either has none). */
   readonly share: number;
-  /** Rare names each file holds (a's, b's). */
+  /** Rare names each file holds (a's, b's); device names are not counted. */
   readonly own: readonly [number, number];
+  /** Both files name devices (rare `vendor,model` names) and share none of them. */
+  readonly devicesApart?: boolean;
 }
 
 export interface RareNameIndex {
@@ -35,7 +44,18 @@ export interface RareNameIndex {
   readonly pair: (a: number, b: number) => RareNames;
 }
 
-/** Name sets of the files, their document frequencies, and a pair scorer. */
+/** True for a vendor-prefixed device name (`ti,tmp108`): the one kind of name with a comma. */
+function isDeviceName(name: string): boolean {
+  return name.includes(',');
+}
+
+/**
+ * Name sets of the files, their document frequencies, and a pair scorer. Device names
+ * (`vendor,model`) stay out of the shares and counts, which the other names make as before; they
+ * only tell apart two files that both name devices and share none of them (`devicesApart`): two
+ * bindings of sibling devices each name their own, where a device's binding and the page about its
+ * driver name the same one (or the page names none).
+ */
 export function rareNameIndex(texts: readonly string[], maxDf: number): RareNameIndex {
   const n = texts.length;
   const sets = texts.map(namesOf);
@@ -45,7 +65,10 @@ export function rareNameIndex(texts: readonly string[], maxDf: number): RareName
     const d = df.get(w) ?? 0;
     return d > 0 && d <= maxDf ? Math.log(n / d) : 0;
   };
-  const rare = sets.map((s) => new Map(s.filter((w) => weight(w) > 0).map((w) => [w, weight(w)])));
+  const rareOf = (s: string[], devices: boolean) =>
+    new Map(s.filter((w) => isDeviceName(w) === devices && weight(w) > 0).map((w) => [w, weight(w)]));
+  const rare = sets.map((s) => rareOf(s, false));
+  const devices = sets.map((s) => new Set(rareOf(s, true).keys()));
   const total = rare.map((m) => [...m.values()].reduce((x, y) => x + y, 0));
   return {
     pair(a, b) {
@@ -58,7 +81,9 @@ export function rareNameIndex(texts: readonly string[], maxDf: number): RareName
         w += x;
       }
       const d = Math.sqrt(total[a] * total[b]);
-      return { shared, share: d > 0 ? w / d : 0, own: [rare[a].size, rare[b].size] };
+      let devicesApart = devices[a].size > 0 && devices[b].size > 0;
+      for (const name of devices[a]) if (devices[b].has(name)) devicesApart = false;
+      return { shared, share: d > 0 ? w / d : 0, own: [rare[a].size, rare[b].size], devicesApart };
     },
   };
 }

@@ -46,6 +46,10 @@
  *       full cosine falls below it; a retelling is close in words specific to the two, beyond
  *       what its area explains (the concept view as a second, independent piece of evidence, as
  *       the issue's "agreement between the reduced space and the full term space", turned round).
+ *    Whatever the clause, two files that both name devices by rare `vendor,model` strings (the
+ *    device-tree form, `ti,tmp108`; rareNames.ts) and share none of them are left out
+ *    (devicesApartVeto): two bindings of sibling devices, where a binding and the page about its
+ *    driver name the same device or the page names none.
  *    Either way the shorter file must have at least minWords words: a page of a few dozen words
  *    (a stub that points to another page) is too short to tell the same content.
  *    Pairs only: a file has at most one such partner, so nothing chains.
@@ -83,6 +87,8 @@ export interface RetoldParams {
   readonly conceptMinGap?: number;
   /** Clause a (needs RetoldInput.sharedNeighbours): most files the two neighbour lists may share; absent = no limit. */
   readonly marginMaxSharedNeighbours?: number;
+  /** Every clause: a pair whose files both name devices and share none of them (RareNames.devicesApart) is left out; absent = on. */
+  readonly devicesApartVeto?: boolean;
 }
 
 export interface RetoldInput {
@@ -149,7 +155,8 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
     if (input.jaccard(i, d) >= input.maxJaccard) continue;
     const shorter = input.words === undefined ? Infinity : Math.min(input.words[i], input.words[d]);
     if (shorter < (params.minWords ?? 0)) continue;
-    const names = input.names ? input.names(i, d) : { shared: 0, share: 0, own: [0, 0] as const };
+    const names: RareNames = input.names ? input.names(i, d) : { shared: 0, share: 0, own: [0, 0] as const };
+    if (names.devicesApart && params.devicesApartVeto !== false) continue;
     const bothNamed = names.own[0] > 0 && names.own[1] > 0;
     const strong = c >= params.minCosine;
     const shared = input.sharedNeighbours ? input.sharedNeighbours(i, d) : undefined;

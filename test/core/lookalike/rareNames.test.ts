@@ -47,11 +47,43 @@ describe('rareNameIndex', () => {
     expect(p.share).toBeCloseTo((3 * l) / Math.sqrt(4 * l * 3 * l), 12);
     // man and strspn share only --help: ln 1.5 / sqrt(4 ln 1.5 × (ln 1.5 + ln 3)).
     expect(idx.pair(0, 2).share).toBeCloseTo(l / Math.sqrt(4 * l * (l + Math.log(3))), 12);
-    expect(idx.pair(1, 2)).toEqual({ shared: 0, share: 0, own: [3, 2] });
+    expect(idx.pair(1, 2)).toEqual({ shared: 0, share: 0, own: [3, 2], devicesApart: false });
     expect(p.own).toEqual([4, 3]);
   });
   it('ignores names held by more than maxDf files', () => {
     const idx = rareNameIndex([man, info, strspn], 1);
-    expect(idx.pair(0, 1)).toEqual({ shared: 0, share: 0, own: [0, 0] });
+    expect(idx.pair(0, 1)).toEqual({ shared: 0, share: 0, own: [0, 0], devicesApart: false });
+  });
+});
+
+// Device-tree bindings and a driver page of Debian's linux-source-6.1 (GPL-2.0), excerpts:
+// Documentation/devicetree/bindings/serial/arm,mps2-uart.txt, .../timer/arm,mps2-timer.txt,
+// .../hwmon/adi,adm1275.yaml and Documentation/hwmon/adm1275.rst.
+const uart = `- compatible	: Should be "arm,mps2-uart"
+	compatible = "arm,mps2-uart";`;
+const timer = `- compatible	: Should be "arm,mps2-timer"
+	compatible = "arm,mps2-timer";`;
+const binding = `$id: http://devicetree.org/schemas/hwmon/adi,adm1275.yaml#
+      - adi,adm1275
+      - adi,adm1075`;
+const driverPage = `    Datasheet: www.analog.com/static/imported-files/data_sheets/ADM1275.pdf
+refer to the Documentation/devicetree/bindings/hwmon/adi,adm1275.yaml for bindings`;
+
+describe('device names', () => {
+  it('takes vendor,model names (a digit or hyphen after the comma), not words joined by a comma', () => {
+    expect(namesOf(uart)).toEqual(['arm,mps2-uart']);
+    expect(namesOf(binding).sort()).toEqual(['adi,adm1075', 'adi,adm1275']);
+    expect(namesOf('min(a,b) or red,green and 1,000 rows, {ok,complex1} [ok,port2]')).toEqual([]);
+  });
+
+  it('marks two files that both name devices and share none apart, and leaves the shares to the other names', () => {
+    const idx = rareNameIndex([uart, timer, binding, driverPage, man], 10);
+    expect(idx.pair(0, 1).devicesApart).toBe(true);
+    // The binding and its driver's page name the same device.
+    expect(idx.pair(2, 3).devicesApart).toBe(false);
+    // A file naming no device is never apart.
+    expect(idx.pair(0, 4).devicesApart).toBe(false);
+    // Device names are not counted among a file's names: data_sheets is the driver page's only one.
+    expect(idx.pair(2, 3)).toMatchObject({ shared: 0, share: 0, own: [0, 1] });
   });
 });

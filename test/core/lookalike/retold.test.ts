@@ -40,6 +40,13 @@ describe('findRetoldPairs', () => {
     expect(pairs[0].gap).toBeCloseTo(0.4, 12); // 0.8 − max(0.3, 0.4)
   });
 
+  it('leaves out a pair whose files both name devices and share none of them, unless the veto is off', () => {
+    const apart = (devicesApart: boolean) => () => ({ shared: 0, share: 0, own: [0, 0] as const, devicesApart });
+    expect(findRetoldPairs({ ...clearPair, names: apart(true) }, rule)).toEqual([]);
+    expect(findRetoldPairs({ ...clearPair, names: apart(false) }, rule)).toHaveLength(1);
+    expect(findRetoldPairs({ ...clearPair, names: apart(true) }, { ...rule, devicesApartVeto: false })).toHaveLength(1);
+  });
+
   it('refuses a pair that is not mutual, too close to a third file, too weak, or sharing text', () => {
     const base = {
       neighbours: [
