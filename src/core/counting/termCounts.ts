@@ -266,3 +266,20 @@ export function countTerms(tokens: readonly string[], vocab: Vocabulary, grow: b
   for (let i = 0; i < termIds.length; i++) counts[i] = byId.get(termIds[i])!;
   return { termIds, counts, length };
 }
+
+/**
+ * countTerms for tokens already looked up: one term id per token (sorted in place) → ids ascending
+ * with their counts. No maps, for the many short lists of the name field (a path's few words).
+ */
+export function countTermIds(ids: number[]): DocTerms {
+  ids.sort((a, b) => a - b);
+  let distinct = 0;
+  for (let i = 0; i < ids.length; i++) if (i === 0 || ids[i] !== ids[i - 1]) distinct++;
+  const termIds = new Int32Array(distinct);
+  const counts = new Float32Array(distinct);
+  for (let i = 0, d = -1; i < ids.length; i++) {
+    if (i === 0 || ids[i] !== ids[i - 1]) termIds[++d] = ids[i];
+    counts[d]++;
+  }
+  return { termIds, counts, length: ids.length };
+}

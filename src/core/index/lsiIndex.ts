@@ -41,7 +41,7 @@ import { ScreenScratch, screenedTop } from './search/screenedTop.js';
 import { projectTerms, type ConceptModel } from './model/conceptModel.js';
 import type { IndexSettings } from './model/settings.js';
 import { ChangeCounters, type Staleness, type StalenessCounters } from './update/staleness.js';
-import { countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
+import { countTermIds, countTerms, type DocTerms, type Vocabulary } from '../counting/termCounts.js';
 import { topN } from './search/topN.js';
 import { SectionStore } from '../sections/sectionStore.js';
 import { foldContextOf, foldSections } from '../sections/sectionVectors.js';
@@ -819,7 +819,7 @@ export class LsiIndex {
       if (!waiting) this._unknownNames.set(t, (waiting = new Set()));
       waiting.add(slot);
     }
-    return termsOfIds(ids);
+    return countTermIds(ids);
   }
 
   /**
@@ -907,18 +907,4 @@ function blend(wa: number, a: Float64Array, wb: number, b: Float64Array, out: Fl
 
 function markHoles(slots: readonly (DocSlot | null)[], out: Float64Array): void {
   for (let j = 0; j < slots.length; j++) if (slots[j] === null) out[j] = Number.NEGATIVE_INFINITY;
-}
-
-/** The DocTerms of a list of term ids, one per token (ids ascending with their counts), as countTerms gives. */
-function termsOfIds(ids: number[]): DocTerms {
-  ids.sort((a, b) => a - b);
-  let distinct = 0;
-  for (let i = 0; i < ids.length; i++) if (i === 0 || ids[i] !== ids[i - 1]) distinct++;
-  const termIds = new Int32Array(distinct);
-  const counts = new Float32Array(distinct);
-  for (let i = 0, d = -1; i < ids.length; i++) {
-    if (i === 0 || ids[i] !== ids[i - 1]) termIds[++d] = ids[i];
-    counts[d]++;
-  }
-  return { termIds, counts, length: ids.length };
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { countOfTerm, countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
+import { countOfTerm, countTermIds, countTerms, Vocabulary } from '../../../src/core/counting/termCounts.js';
 import { tokenize } from '../../../src/core/text/tokenize.js';
 import { loadCollection } from '../../helpers/shared.js';
 
@@ -172,5 +172,21 @@ describe('countOfTerm', () => {
       const present = new Set(terms.termIds);
       for (let id = 0; id < vocab.size + 2; id++) if (!present.has(id)) expect(countOfTerm(terms, id)).toBe(0);
     }
+  });
+});
+
+describe('countTermIds', () => {
+  it('gives what countTerms gives for the same tokens once looked up (CISI documents)', () => {
+    const vocab = new Vocabulary();
+    for (const d of cisi.docs.slice(0, 50)) {
+      const tokens = tokenize(d.text);
+      const want = countTerms(tokens, vocab, true);
+      const ids = tokens.map((t) => vocab.idOf(t)!);
+      const got = countTermIds(ids);
+      expect(Array.from(got.termIds)).toEqual(Array.from(want.termIds));
+      expect(Array.from(got.counts)).toEqual(Array.from(want.counts));
+      expect(got.length).toBe(want.length);
+    }
+    expect(countTermIds([])).toEqual({ termIds: new Int32Array(0), counts: new Float32Array(0), length: 0 });
   });
 });
