@@ -76,6 +76,29 @@ describe('device names', () => {
     expect(namesOf('min(a,b) or red,green and 1,000 rows, {ok,complex1} [ok,port2]')).toEqual([]);
   });
 
+  it("leaves out a vendor's properties and references to binding files, which name no device", () => {
+    // Excerpts of Documentation/devicetree/bindings/sound/realtek,rt5682s.yaml and rt5682.txt,
+    // and of .../interrupt-controller/cdns,xtensa-mx.txt (linux-source-6.1, GPL-2.0).
+    const schema = `properties:
+  compatible:
+    const: realtek,rt5682s
+  realtek,jd-src:
+    $ref: /schemas/types.yaml#/definitions/uint32
+        realtek,ldo1-en-gpios = <&gpio 2 GPIO_ACTIVE_HIGH>;`;
+    const text = `- compatible : "realtek,rt5682" or "realtek,rt5682i"
+- realtek,jd-src : The JD source
+- realtek,dmic-clk-rate-hz:`;
+    const mx = `Binding for Xtensa MX interrupt distributor
+Please refer to cdns,xtensa-pic.txt for the generic description
+- compatible: "cdns,xtensa-mx"
+$ref: /schemas/regulator/rohm,bd9576-regulator.yaml#`;
+    expect(namesOf(schema)).toEqual(['realtek,rt5682s', 'gpio_active_high']);
+    expect(namesOf(text).sort()).toEqual(['realtek,rt5682', 'realtek,rt5682i']);
+    expect(namesOf(mx)).toEqual(['cdns,xtensa-mx']);
+    // Sibling codecs that share only their vendor's properties name devices apart.
+    expect(rareNameIndex([schema, text], 10).pair(0, 1).devicesApart).toBe(true);
+  });
+
   it('marks two files that both name devices and share none apart, and leaves the shares to the other names', () => {
     const idx = rareNameIndex([uart, timer, binding, driverPage, man], 10);
     expect(idx.pair(0, 1).devicesApart).toBe(true);
