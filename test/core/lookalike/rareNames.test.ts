@@ -73,7 +73,9 @@ describe('device names', () => {
   it('takes vendor,model names (a digit or hyphen after the comma), not words joined by a comma', () => {
     expect(namesOf(uart)).toEqual(['arm,mps2-uart']);
     expect(namesOf(binding).sort()).toEqual(['adi,adm1075', 'adi,adm1275']);
-    expect(namesOf('min(a,b) or red,green and 1,000 rows, {ok,complex1} [ok,port2]')).toEqual([]);
+    expect(namesOf('min(a,b) or red,green and 1,000 rows, {ok,complex1} [ok,port2], max(len,10)')).toEqual([]);
+    // A model may start with digits (Documentation/devicetree/bindings/gpio/idt,32434-gpio.yaml).
+    expect(namesOf('compatible = "idt,32434-gpio";')).toEqual(['idt,32434-gpio']);
   });
 
   it("leaves out a vendor's properties and references to binding files, which name no device", () => {
