@@ -193,7 +193,7 @@ const SECTION_HELP: Readonly<Record<LookalikeKind, string>> = {
   exact: 'Files with identical text. Longest text first; one-line stubs come last. Links to one file are the same file and are not listed.',
   near: 'Files that share most of their text (shingle Jaccard at or above the near-copy threshold). Highest first.',
   partial: `Files that share a part of their text: a kept part, copied passages or a common template (shingle Jaccard ${PARTIAL_FROM} up to the near-copy threshold). Highest first.`,
-  retold: `Files that tell the same thing in other words: each is the other's nearest file by the words they use (after lines repeated across many files are set aside), they share little text (shingle Jaccard under ${DEFAULT_LOOKALIKE_OPTIONS.retoldMaxJaccard}), and they either name the same rare options or identifiers or, when one names none, stand far above every other file; two files that each name devices (device-tree ‘vendor,model’ names) but none in common are never paired. Strongest first.`,
+  retold: `Files that tell the same thing in other words: each is the other's nearest file by the words they use (after lines repeated across many files are set aside), they share little text (shingle Jaccard under ${DEFAULT_LOOKALIKE_OPTIONS.retoldMaxJaccard}), and they either name the same rare options or identifiers or, when one names none, stand far above every other file; two files that each name devices (device-tree ‘vendor,model’ names) but none in common are never paired, nor companion files such as a source and its header or a test and the file it tests. Strongest first.`,
 };
 
 /** The view's message line: what was searched, and why it may be empty. */

@@ -23,12 +23,13 @@
  *    (rareNames.ts) when neither is a stub, or with margin and name share together high enough
  *    when a BM25 view of the same counts agrees (bm25View.ts), or (opt-in) closer in their words
  *    than their broad topic explains (conceptView.ts) with their names agreeing; little shared
- *    text).
+ *    text; never two companion files such as a source and its header, companions.ts).
  * Pairs only (no groups by transitive closure). Shared lines and words come from the texts
  * (sharedLines.ts). Same input and seed → same report.
  */
 import { InvalidInputError } from '../errors.js';
 import { bandCandidates } from './banding.js';
+import { companionFiles } from './companions.js';
 import { contentHash, isBlankText } from './contentHash.js';
 import { bm25View } from './bm25View.js';
 import { conceptView } from './conceptView.js';
@@ -219,6 +220,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
     conceptMinGap: o.retoldConceptMinGap,
     marginMaxSharedNeighbours: o.retoldMarginMaxSharedNeighbours,
     devicesApartVeto: o.retoldDevicesApartVeto,
+    companionVeto: o.retoldCompanionVeto,
   };
   // Files in both raw neighbour lists (the two files themselves left out): clause a's limit.
   const sharedNeighbours = (x: number, y: number): number => {
@@ -271,6 +273,7 @@ export function findLookalikes(input: LookalikeInput, options: Partial<Lookalike
       words: tokenCounts,
       secondView: clauseC ? bothNearest : undefined,
       sharedNeighbours,
+      companions: (x, y) => companionFiles(files[shingled[x]].id, files[shingled[y]].id),
       // Clause d's coarse concept space (conceptView.ts), built only when a mutual pair may need it.
       conceptCosine: clauseD ? (x, y) => (concepts ??= conceptView(space, o.retoldConceptK, o.seed)).cosine(x, y) : undefined,
     },

@@ -67,6 +67,8 @@ export interface LookalikeOptions {
   readonly retoldMarginMaxSharedNeighbours: number;
   /** Leave out a "same content" pair whose files both name devices by rare `vendor,model` strings (device-tree compatible strings, `ti,tmp108`) and share none (retold.ts). @default true (our choice, drawn from reading the Linux kernel Documentation folder's pairs, so not a clean held-out check: there it drops 10 of 45 pairs (7 before vendor properties and binding-file references were set apart from device names), by our reading all two bindings of different devices or parts of one chip, and keeps every binding listed with its driver's page; every folder of bench/lookalikeDistractors.bench.ts, the retellings fixture and its third source included, gives the same pairs with it as without under the default rule) */
   readonly retoldDevicesApartVeto: boolean;
+  /** Leave out a "same content" pair of companion files: a source file and its header or interface of the same name (`rt5663.c` ~ `rt5663.h`, `.ml` ~ `.mli`, `.js` ~ `.d.ts`), or a test and the file it tests (`foo.test.ts` ~ `foo.ts`, `tests/test_foo.py` ~ `foo.py`); companions.ts. @default true (our choice, from the languages' conventions: such files are two halves of one unit; measured on code folders nobody here wrote, docs/overlaps.md: 20 of 30 pairs in five folders of linux-source-6.1, python3-sklearn and python3-scipy were companions, every one of them removed and nothing else; no documentation folder of bench/lookalikeDistractors.bench.ts holds any) */
+  readonly retoldCompanionVeto: boolean;
   /** Seed for the MinHash family. @default DEFAULT_SEED (random.ts) */
   readonly seed: number;
 }
@@ -103,6 +105,7 @@ export const DEFAULT_LOOKALIKE_OPTIONS: LookalikeOptions = Object.freeze({
   retoldNameMaxDf: 10,
   retoldMarginMaxSharedNeighbours: Infinity,
   retoldDevicesApartVeto: true,
+  retoldCompanionVeto: true,
   seed: DEFAULT_SEED,
 });
 
@@ -161,6 +164,8 @@ export function resolveLookalikeOptions(options: Partial<LookalikeOptions> = {})
     throw new InvalidInputError(`retoldNamesDecide must be true or false, got ${String(o.retoldNamesDecide)}`);
   if (typeof o.retoldDevicesApartVeto !== 'boolean')
     throw new InvalidInputError(`retoldDevicesApartVeto must be true or false, got ${String(o.retoldDevicesApartVeto)}`);
+  if (typeof o.retoldCompanionVeto !== 'boolean')
+    throw new InvalidInputError(`retoldCompanionVeto must be true or false, got ${String(o.retoldCompanionVeto)}`);
   positiveInteger('boilerplateFiles', o.boilerplateFiles);
   if (o.boilerplateFiles < 2) throw new InvalidInputError(`boilerplateFiles must be at least 2, got ${o.boilerplateFiles}`);
   positiveInteger('maxBucketSize', o.maxBucketSize);

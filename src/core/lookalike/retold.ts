@@ -49,7 +49,9 @@
  *    Whatever the clause, two files that both name devices by rare `vendor,model` strings (the
  *    device-tree form, `ti,tmp108`; rareNames.ts) and share none of them are left out
  *    (devicesApartVeto): two bindings of sibling devices, where a binding and the page about its
- *    driver name the same device or the page names none.
+ *    driver name the same device or the page names none. Nor is a pair of companion files
+ *    (companionVeto; companions.ts): a source file and its header, a test and the file it tests,
+ *    two halves of one unit that a reader knows go together.
  *    Either way the shorter file must have at least minWords words: a page of a few dozen words
  *    (a stub that points to another page) is too short to tell the same content.
  *    Pairs only: a file has at most one such partner, so nothing chains.
@@ -89,6 +91,8 @@ export interface RetoldParams {
   readonly marginMaxSharedNeighbours?: number;
   /** Every clause: a pair whose files both name devices and share none of them (RareNames.devicesApart) is left out; absent = on. */
   readonly devicesApartVeto?: boolean;
+  /** Every clause: a pair of companion files (RetoldInput.companions; companions.ts) is left out; absent = on. */
+  readonly companionVeto?: boolean;
 }
 
 export interface RetoldInput {
@@ -109,6 +113,8 @@ export interface RetoldInput {
   readonly conceptCosine?: (a: number, b: number) => number;
   /** Files found in both a's and b's nearest-neighbour lists (clause a's limit); without it no limit is checked. */
   readonly sharedNeighbours?: (a: number, b: number) => number;
+  /** Whether a and b are companion files (an implementation and its interface, a test and its subject; companions.ts); without it none are. */
+  readonly companions?: (a: number, b: number) => boolean;
 }
 
 export type RetoldClause = 'margin' | 'names' | 'combined' | 'beyond-topic';
@@ -153,6 +159,7 @@ export function findRetoldPairs(input: RetoldInput, params: RetoldParams): Retol
     const gap = c - next;
     if (gap < Math.min(params.minGap, params.minNameGap ?? Infinity, evidenceOn || conceptOn ? 0 : Infinity)) continue;
     if (input.jaccard(i, d) >= input.maxJaccard) continue;
+    if (params.companionVeto !== false && input.companions?.(i, d)) continue;
     const shorter = input.words === undefined ? Infinity : Math.min(input.words[i], input.words[d]);
     if (shorter < (params.minWords ?? 0)) continue;
     const names: RareNames = input.names ? input.names(i, d) : { shared: 0, share: 0, own: [0, 0] as const };

@@ -47,6 +47,13 @@ describe('findRetoldPairs', () => {
     expect(findRetoldPairs({ ...clearPair, names: apart(true) }, { ...rule, devicesApartVeto: false })).toHaveLength(1);
   });
 
+  it('leaves out a pair of companion files, unless the veto is off', () => {
+    const companions = (yes: boolean) => () => yes;
+    expect(findRetoldPairs({ ...clearPair, companions: companions(true) }, rule)).toEqual([]);
+    expect(findRetoldPairs({ ...clearPair, companions: companions(false) }, rule)).toHaveLength(1);
+    expect(findRetoldPairs({ ...clearPair, companions: companions(true) }, { ...rule, companionVeto: false })).toHaveLength(1);
+  });
+
   it('refuses a pair that is not mutual, too close to a third file, too weak, or sharing text', () => {
     const base = {
       neighbours: [
