@@ -12,8 +12,12 @@
  * The 64-bit product is formed from exact float pieces (every intermediate < 2⁵³).
  *
  * Default K = 128 (with b = 16 bands of r = 8 rows: see options.ts).
+ * Signatures run on the WebAssembly kernel (../matrix/wasm/assembly/minHash.ts: one u64 multiply
+ * and add, the same numbers; about six times faster) where WebAssembly SIMD and shared memory are
+ * available, else on the plain loop below.
  */
 import { InvalidInputError } from '../errors.js';
+import { instantiateKernelModule, kernelModule, MAX_PAGES } from '../matrix/wasm/kernelModule.js';
 import { createRandom } from '../random.js';
 
 const TWO16 = 65536;
@@ -35,7 +39,16 @@ export function multiplyAddShift(aHi: number, aLo: number, bHi: number, bLo: num
   return (Math.floor(low * INV32) + p1h + Math.imul(aHi, x) + bHi) >>> 0;
 }
 
-export function createMinHasher(numHashes: number, seed: number): MinHasher {
+export interface MinHasherOptions {
+  /** Use the WebAssembly kernel when it is available (same signatures). @default true */
+  readonly kernel: boolean;
+}
+
+export const DEFAULT_MIN_HASHER_OPTIONS: MinHasherOptions = Object.freeze({ kernel: true });
+
+const PAGE = 65536;
+
+export function createMinHasher(numHashes: number, seed: number, options: Partial<MinHasherOptions> = {}): MinHasher {
   if (!Number.isInteger(numHashes) || numHashes < 1) {
     throw new InvalidInputError(`MinHash needs a positive whole number of hash functions, got ${numHashes}`);
   }
@@ -50,6 +63,8 @@ export function createMinHasher(numHashes: number, seed: number): MinHasher {
     bHi[i] = rng.nextUint32();
     bLo[i] = rng.nextUint32();
   }
+  const module = (options.kernel ?? DEFAULT_MIN_HASHER_OPTIONS.kernel) ? kernelModule() : null;
+  if (module) return kernelMinHasher(module, numHashes, aHi, aLo, bHi, bLo);
   const signature = (keys: Uint32Array, out?: Uint32Array, offset = 0): Uint32Array => {
     if (keys.length === 0) throw new InvalidInputError('MinHash of an empty set is undefined');
     const dest = out ?? new Uint32Array(numHashes);
@@ -70,6 +85,43 @@ export function createMinHasher(numHashes: number, seed: number): MinHasher {
       }
       dest[offset + i] = best;
     }
+    return dest;
+  };
+  return { numHashes, signature };
+}
+
+/**
+ * The signatures on the kernel module, in a memory of its own: the 2K parameters (u64 a, b) and
+ * the K-entry output first, then the keys, copied in for each set (the memory grows to the largest).
+ */
+function kernelMinHasher(
+  module: WebAssembly.Module,
+  numHashes: number,
+  aHi: Uint32Array,
+  aLo: Float64Array,
+  bHi: Float64Array,
+  bLo: Float64Array,
+): MinHasher {
+  const outAt = 16 * numHashes;
+  const keysAt = outAt + ((4 * numHashes + 15) & ~15);
+  const memory = new WebAssembly.Memory({ initial: Math.ceil((keysAt + 4096) / PAGE), maximum: MAX_PAGES, shared: true });
+  const kernels = instantiateKernelModule(module, memory);
+  // WebAssembly's u64 words are little-endian: the low half first.
+  const params = new DataView(memory.buffer, 0, 16 * numHashes);
+  for (let i = 0; i < numHashes; i++) {
+    params.setUint32(16 * i, aLo[i], true);
+    params.setUint32(16 * i + 4, aHi[i], true);
+    params.setUint32(16 * i + 8, bLo[i], true);
+    params.setUint32(16 * i + 12, bHi[i], true);
+  }
+  const signature = (keys: Uint32Array, out?: Uint32Array, offset = 0): Uint32Array => {
+    if (keys.length === 0) throw new InvalidInputError('MinHash of an empty set is undefined');
+    const dest = out ?? new Uint32Array(numHashes);
+    const need = keysAt + 4 * keys.length;
+    if (need > memory.buffer.byteLength) memory.grow(Math.ceil((need - memory.buffer.byteLength) / PAGE));
+    new Uint32Array(memory.buffer, keysAt, keys.length).set(keys);
+    kernels.min_hash(keysAt, keys.length, 0, numHashes, outAt);
+    dest.set(new Uint32Array(memory.buffer, outAt, numHashes), offset);
     return dest;
   };
   return { numHashes, signature };

@@ -26,6 +26,24 @@ describe('createMinHasher', () => {
     expect(createMinHasher(64, 10).signature(a)).not.toEqual(createMinHasher(64, 9).signature(a));
   });
 
+  it('gives the same signatures on the WebAssembly kernel as on the plain loop, for small and large sets', () => {
+    // The kernel's u64 arithmetic against the float pieces of multiplyAddShift (itself checked against BigInt above).
+    const rng = createRandom(21);
+    const edge = [0, 1, 0xffff, 0x10000, 0x7fffffff, 0x80000000, 0xffffffff];
+    const kernel = createMinHasher(128, 4);
+    const plain = createMinHasher(128, 4, { kernel: false });
+    for (const n of [1, 2, 7, 300, 5000, 70_000]) {
+      const keys = Uint32Array.from({ length: n }, (_, i) => (i < edge.length && n < 300 ? edge[i] : rng.nextUint32()));
+      expect(kernel.signature(keys)).toEqual(plain.signature(keys));
+    }
+    // Written at an offset into a caller's array, as findLookalikes does.
+    const keys = Uint32Array.from({ length: 50 }, () => rng.nextUint32());
+    const out = new Uint32Array(3 * 128);
+    kernel.signature(keys, out, 128);
+    expect(out.subarray(128, 256)).toEqual(plain.signature(keys));
+    expect(out.subarray(0, 128).every((v) => v === 0) && out.subarray(256).every((v) => v === 0)).toBe(true);
+  });
+
   it('refuses an empty set and a non-positive size', () => {
     expect(() => createMinHasher(8, 1).signature(new Uint32Array(0))).toThrow(/empty set/);
     expect(() => createMinHasher(0, 1)).toThrow(/positive/);

@@ -54,6 +54,8 @@ export interface KernelModuleExports {
   ): void;
   /** assembly/unitRows.ts */
   unit_rows(y: number, s: number, k: number, out: number, r0: number, r1: number): void;
+  /** assembly/minHash.ts */
+  min_hash(keys: number, n: number, params: number, k: number, out: number): void;
   /** assembly/codeDots.ts */
   code_dots(codes: number, q: number, k: number, r0: number, r1: number, out: number): void;
   /** assembly/codeDotsInt.ts */

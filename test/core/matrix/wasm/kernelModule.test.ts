@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { instantiateKernelModule, kernelModule, kernelModuleBytes, MAX_PAGES } from '../../../../src/core/matrix/wasm/kernelModule.js';
 
 describe('kernelModule', () => {
-  it('decodes to a module WebAssembly accepts, importing only one shared memory and exporting the thirteen kernels', () => {
+  it('decodes to a module WebAssembly accepts, importing only one shared memory and exporting the fourteen kernels', () => {
     const bytes = kernelModuleBytes();
     expect(Array.from(bytes.subarray(0, 4))).toEqual([0x00, 0x61, 0x73, 0x6d]); // "\0asm" (WebAssembly Core Specification 2.0 §5.5.16)
     expect(WebAssembly.validate(bytes)).toBe(true);
@@ -22,6 +22,7 @@ describe('kernelModule', () => {
         'cross',
         'dots',
         'file_rows',
+        'min_hash',
         'spmm',
         'spmm_f32',
         'spmm_single',

@@ -16,3 +16,4 @@ export { spmm_x32 } from './spmmX32';
 export { file_rows } from './fileRows';
 export { spmm_single } from './spmmSingle';
 export { unit_rows } from './unitRows';
+export { min_hash } from './minHash';
