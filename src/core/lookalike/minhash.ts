@@ -63,68 +63,92 @@ export function createMinHasher(numHashes: number, seed: number, options: Partia
     bHi[i] = rng.nextUint32();
     bLo[i] = rng.nextUint32();
   }
+  const params: HashParams = { aHi, aLo, bHi, bLo };
+  const plain = (keys: Uint32Array, dest: Uint32Array, offset: number): void => plainSignature(params, keys, dest, offset);
   const module = (options.kernel ?? DEFAULT_MIN_HASHER_OPTIONS.kernel) ? kernelModule() : null;
-  if (module) return kernelMinHasher(module, numHashes, aHi, aLo, bHi, bLo);
+  const fast = module ? kernelSignature(module, params, plain) : plain;
   const signature = (keys: Uint32Array, out?: Uint32Array, offset = 0): Uint32Array => {
     if (keys.length === 0) throw new InvalidInputError('MinHash of an empty set is undefined');
     const dest = out ?? new Uint32Array(numHashes);
-    // Permutation-major loop: the four constants and the running minimum stay in registers.
-    for (let i = 0; i < numHashes; i++) {
-      const lo = aLo[i];
-      const hi = aHi[i];
-      const bl = bLo[i];
-      const bh = bHi[i];
-      let best = 4294967296;
-      for (let s = 0; s < keys.length; s++) {
-        const x = keys[s];
-        const p1 = lo * (x >>> 16);
-        const p1h = Math.floor(p1 * INV16);
-        const low = lo * (x & 0xffff) + (p1 - p1h * TWO16) * TWO16 + bl;
-        const h = (Math.floor(low * INV32) + p1h + Math.imul(hi, x) + bh) >>> 0;
-        if (h < best) best = h;
-      }
-      dest[offset + i] = best;
-    }
+    fast(keys, dest, offset);
     return dest;
   };
   return { numHashes, signature };
 }
 
+/** The K functions' constants: a = aHi·2³² + aLo, b = bHi·2³² + bLo. */
+interface HashParams {
+  readonly aHi: Uint32Array;
+  readonly aLo: Float64Array;
+  readonly bHi: Float64Array;
+  readonly bLo: Float64Array;
+}
+
+/** The signature of a non-empty set into dest[offset…offset+K), by the plain loop. */
+function plainSignature({ aHi, aLo, bHi, bLo }: HashParams, keys: Uint32Array, dest: Uint32Array, offset: number): void {
+  // Permutation-major loop: the four constants and the running minimum stay in registers.
+  for (let i = 0; i < aHi.length; i++) {
+    const lo = aLo[i];
+    const hi = aHi[i];
+    const bl = bLo[i];
+    const bh = bHi[i];
+    let best = 4294967296;
+    for (let s = 0; s < keys.length; s++) {
+      const x = keys[s];
+      const p1 = lo * (x >>> 16);
+      const p1h = Math.floor(p1 * INV16);
+      const low = lo * (x & 0xffff) + (p1 - p1h * TWO16) * TWO16 + bl;
+      const h = (Math.floor(low * INV32) + p1h + Math.imul(hi, x) + bh) >>> 0;
+      if (h < best) best = h;
+    }
+    dest[offset + i] = best;
+  }
+}
+
 /**
- * The signatures on the kernel module, in a memory of its own: the 2K parameters (u64 a, b) and
- * the K-entry output first, then the keys, copied in for each set (the memory grows to the largest).
+ * The signature on the kernel module, in a memory of its own: the 2K parameters (u64 a, b) and
+ * the K-entry output first, then the keys, copied in for each set (the memory grows to the
+ * largest). Where that memory cannot be had (address space refused), or cannot grow for a set,
+ * the plain loop computes the same numbers.
  */
-function kernelMinHasher(
+function kernelSignature(
   module: WebAssembly.Module,
-  numHashes: number,
-  aHi: Uint32Array,
-  aLo: Float64Array,
-  bHi: Float64Array,
-  bLo: Float64Array,
-): MinHasher {
+  params: HashParams,
+  plain: (keys: Uint32Array, dest: Uint32Array, offset: number) => void,
+): (keys: Uint32Array, dest: Uint32Array, offset: number) => void {
+  const numHashes = params.aHi.length;
   const outAt = 16 * numHashes;
   const keysAt = outAt + ((4 * numHashes + 15) & ~15);
-  const memory = new WebAssembly.Memory({ initial: Math.ceil((keysAt + 4096) / PAGE), maximum: MAX_PAGES, shared: true });
-  const kernels = instantiateKernelModule(module, memory);
-  // WebAssembly's u64 words are little-endian: the low half first.
-  const params = new DataView(memory.buffer, 0, 16 * numHashes);
-  for (let i = 0; i < numHashes; i++) {
-    params.setUint32(16 * i, aLo[i], true);
-    params.setUint32(16 * i + 4, aHi[i], true);
-    params.setUint32(16 * i + 8, bLo[i], true);
-    params.setUint32(16 * i + 12, bHi[i], true);
+  let memory: WebAssembly.Memory;
+  let kernels: ReturnType<typeof instantiateKernelModule>;
+  try {
+    memory = new WebAssembly.Memory({ initial: Math.ceil((keysAt + 4096) / PAGE), maximum: MAX_PAGES, shared: true });
+    kernels = instantiateKernelModule(module, memory);
+  } catch {
+    return plain;
   }
-  const signature = (keys: Uint32Array, out?: Uint32Array, offset = 0): Uint32Array => {
-    if (keys.length === 0) throw new InvalidInputError('MinHash of an empty set is undefined');
-    const dest = out ?? new Uint32Array(numHashes);
+  // WebAssembly's u64 words are little-endian: the low half first.
+  const words = new DataView(memory.buffer, 0, 16 * numHashes);
+  for (let i = 0; i < numHashes; i++) {
+    words.setUint32(16 * i, params.aLo[i], true);
+    words.setUint32(16 * i + 4, params.aHi[i], true);
+    words.setUint32(16 * i + 8, params.bLo[i], true);
+    words.setUint32(16 * i + 12, params.bHi[i], true);
+  }
+  return (keys, dest, offset) => {
     const need = keysAt + 4 * keys.length;
-    if (need > memory.buffer.byteLength) memory.grow(Math.ceil((need - memory.buffer.byteLength) / PAGE));
+    if (need > memory.buffer.byteLength) {
+      try {
+        memory.grow(Math.ceil((need - memory.buffer.byteLength) / PAGE));
+      } catch {
+        plain(keys, dest, offset);
+        return;
+      }
+    }
     new Uint32Array(memory.buffer, keysAt, keys.length).set(keys);
     kernels.min_hash(keysAt, keys.length, 0, numHashes, outAt);
     dest.set(new Uint32Array(memory.buffer, outAt, numHashes), offset);
-    return dest;
   };
-  return { numHashes, signature };
 }
 
 /** Share of equal entries in two signatures of length K starting at the given offsets. */

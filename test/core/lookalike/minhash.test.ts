@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { createMinHasher, estimateJaccard, multiplyAddShift } from '../../../src/core/lookalike/minhash.js';
 import { createRandom } from '../../../src/core/random.js';
 import { setPairWithJaccard } from './corpusFixtures.js';
@@ -42,6 +42,20 @@ describe('createMinHasher', () => {
     kernel.signature(keys, out, 128);
     expect(out.subarray(128, 256)).toEqual(plain.signature(keys));
     expect(out.subarray(0, 128).every((v) => v === 0) && out.subarray(256).every((v) => v === 0)).toBe(true);
+  });
+
+  it('falls back on the plain loop, with the same signatures, where the kernel gets no memory', () => {
+    const keys = Uint32Array.from({ length: 400 }, (_, i) => Math.imul(i + 1, 0x9e3779b1) >>> 0);
+    const expected = createMinHasher(64, 8, { kernel: false }).signature(keys);
+    const refuse = vi.spyOn(WebAssembly, 'Memory').mockImplementation(() => {
+      throw new RangeError('WebAssembly.Memory(): could not allocate memory');
+    });
+    try {
+      expect(createMinHasher(64, 8).signature(keys)).toEqual(expected);
+      expect(refuse).toHaveBeenCalled();
+    } finally {
+      refuse.mockRestore();
+    }
   });
 
   it('refuses an empty set and a non-positive size', () => {
