@@ -18,12 +18,12 @@
  * the Devicetree Specification writes them, from memory; a model has a digit or hyphen after a
  * letter, or starts with digits followed by a letter or hyphen (`idt,32434-gpio`), so a word list
  * written without spaces is not one, nor a pair of code arguments such as `len,10`; and not right
- * after a brace or bracket, so a term of code such as Erlang's `{ok,port1}` is not one either). The same form names a vendor's
- * properties (`realtek,jd-src = <1>;`, `realtek,jd-src:` as a schema's key) and the binding files
- * (`cdns,xtensa-pic.txt`, `$ref: rohm,bd9576-regulator.yaml#`): a name followed by `=` or `:`, or
- * by `.txt` or `.yaml`, is neither a device a file names nor any other name, so two bindings of
- * sibling devices that share a vendor's properties, or where one points to the other's file, stay
- * apart.
+ * after a brace or bracket, so a term of code such as Erlang's `{ok,port1}` is not one either).
+ * The same form names a vendor's properties (`realtek,jd-src = <1>;`, `realtek,jd-src:` as a
+ * schema's key) and the binding files (`cdns,xtensa-pic.txt`, `$ref: rohm,bd9576-regulator.yaml#`):
+ * a name followed by `=` or `:`, or by `.txt` or `.yaml`, is neither a device a file names nor any
+ * other name, so two bindings of sibling devices that share a vendor's properties, or where one
+ * points to the other's file, stay apart.
  */
 const NAME =
   /(?<![\w-])--[A-Za-z][\w-]*|\b[A-Za-z]+_\w+|\b[a-z]+[A-Z]\w*|(?<![{([])\b[a-z][a-z0-9]+,(?:[a-z][a-z0-9]*[-0-9]|[0-9]+[a-z-])[\w-]*(?![\w-])(?![ \t]*[:=]|\.(?:ya?ml|txt)\b)/g;
