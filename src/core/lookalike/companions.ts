@@ -84,17 +84,12 @@ export function companionFiles(a: string, b: string): boolean {
     [pa, pb],
     [pb, pa],
   ]) {
-    if (bare(x.stem) !== bare(y.stem)) continue;
-    if (INTERFACE_OF[x.ext]?.includes(y.ext) && !y.declaration) return true;
-    if (x.declaration && !y.declaration && DECLARED.includes(y.ext)) return true;
-  }
-  for (const [x, y] of [
-    [pa, pb],
-    [pb, pa],
-  ]) {
-    const tested = testedName(x);
-    if (tested !== undefined && testedName(y) === undefined && tested === bare(y.stem)) return true;
-    if (inTestFolder(x) && !inTestFolder(y) && testedName(y) === undefined && bare(x.stem) === bare(y.stem)) return true;
+    const sameName = bare(x.stem) === bare(y.stem);
+    if (sameName && INTERFACE_OF[x.ext]?.includes(y.ext) && !y.declaration) return true;
+    if (sameName && x.declaration && !y.declaration && DECLARED.includes(y.ext)) return true;
+    if (testedName(y) !== undefined) continue;
+    if (testedName(x) === bare(y.stem)) return true;
+    if (sameName && inTestFolder(x) && !inTestFolder(y)) return true;
   }
   return false;
 }

@@ -131,10 +131,13 @@ export class IndexService {
     maxFileBytes: () => this.config().maxFileBytes,
   });
 
-  private readonly _translations = new TranslationFinder(async (key) => {
+  /** An indexed file's current text by its index key (null when it is not text). */
+  private readonly readKeyText = async (key: string): Promise<string | null> => {
     const got = await readIndexableText(this._roots.refOf(key).fsPath, this.config().maxFileBytes);
     return got.kind === 'text' ? got.text : null;
-  });
+  };
+
+  private readonly _translations = new TranslationFinder(this.readKeyText);
 
   constructor(options: Partial<IndexServiceOptions> = {}) {
     this._options = { ...DEFAULT_INDEX_SERVICE_OPTIONS, ...options };
@@ -620,11 +623,7 @@ export class IndexService {
     this._index = index;
     if (!index) return;
     const { prepareSliceMs: sliceMs, preparePause: pause } = this._options;
-    const readText = async (key: string): Promise<string | null> => {
-      const got = await readIndexableText(this._roots.refOf(key).fsPath, this.config().maxFileBytes);
-      return got.kind === 'text' ? got.text : null;
-    };
-    const { controller, done } = prepareInBackground(index, { sliceMs, pause, after: filled, readText });
+    const { controller, done } = prepareInBackground(index, { sliceMs, pause, after: filled, readText: this.readKeyText });
     this._preparing = {
       controller,
       done: done
